@@ -1,0 +1,9 @@
+//! `ampreport`: turns a valve-amplifier repair job file into checked figures
+//! and a hand-over document.
+//!
+//! Data flows one way: [`job`] decodes the KDL file, [`calc`] derives every
+//! figure with [`ratings`] and [`units`], [`report`] presents the findings and
+//! [`typeset`] runs the `typst` command. [`cli`] ties them to the command line.
+
+pub mod units;
+pub mod cli;

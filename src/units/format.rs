@@ -1,0 +1,129 @@
+//! Printing quantities with engineering prefixes and sensible significant
+//! figures: 12.4 W, 34.2 mA, 4.7 kΩ, 0.022 µF.
+
+use super::kind::QuantityKind;
+
+/// Rounds to `sig` significant figures.
+pub fn round_sig(value: f64, sig: i32) -> f64 {
+    if value == 0.0 || !value.is_finite() {
+        return value;
+    }
+    let magnitude = value.abs().log10().floor() as i32;
+    let factor = 10f64.powi(sig - 1 - magnitude);
+    (value * factor).round() / factor
+}
+
+/// Formats a plain number to `sig` significant figures without trailing
+/// zeros: 12.43 → "12.4", 4.70 → "4.7", 352.4 → "352".
+pub fn format_sig(value: f64, sig: i32) -> String {
+    if !value.is_finite() {
+        return "–".to_string();
+    }
+    let rounded = round_sig(value, sig);
+    if rounded == 0.0 {
+        return "0".to_string();
+    }
+    let magnitude = rounded.abs().log10().floor() as i32;
+    let decimals = (sig - 1 - magnitude).max(0) as usize;
+    trim_zeros(format!("{rounded:.decimals$}"))
+}
+
+/// Formats with a fixed number of decimals: (12.43, 1) → "12.4".
+pub fn format_fixed(value: f64, decimals: usize) -> String {
+    if !value.is_finite() {
+        return "–".to_string();
+    }
+    let s = format!("{value:.decimals$}");
+    // Avoid "-0.0".
+    if s.trim_start_matches('-').chars().all(|c| c == '0' || c == '.') {
+        s.trim_start_matches('-').to_string()
+    } else {
+        s
+    }
+}
+
+fn trim_zeros(s: String) -> String {
+    if s.contains('.') {
+        s.trim_end_matches('0').trim_end_matches('.').to_string()
+    } else {
+        s
+    }
+}
+
+const PREFIXES: [(i32, &str); 9] = [
+    (-12, "p"),
+    (-9, "n"),
+    (-6, "µ"),
+    (-3, "m"),
+    (0, ""),
+    (3, "k"),
+    (6, "M"),
+    (9, "G"),
+    (12, "T"),
+];
+
+/// Formats a value in its base SI unit with an engineering prefix, three
+/// significant figures and the unit symbol, e.g. `0.0342, Current` →
+/// "34.2 mA". Capacitance follows the bench habit of microfarads from 1 nF
+/// up ("0.022 µF", "220 µF") and picofarads below.
+pub fn format_engineering(value: f64, kind: QuantityKind) -> String {
+    format_engineering_sig(value, kind, 3)
+}
+
+/// As [`format_engineering`] with a chosen number of significant figures.
+pub fn format_engineering_sig(value: f64, kind: QuantityKind, sig: i32) -> String {
+    let symbol = kind.symbol();
+    if !value.is_finite() {
+        return format!("– {symbol}");
+    }
+    if kind == QuantityKind::Percent {
+        return format!("{} %", format_sig(value, sig));
+    }
+    let rounded = round_sig(value, sig);
+    if rounded == 0.0 {
+        return format!("0 {symbol}");
+    }
+    let exp = if kind == QuantityKind::Capacitance {
+        if rounded.abs() >= 1e-9 { -6 } else { -12 }
+    } else {
+        let magnitude = rounded.abs().log10().floor() as i32;
+        (magnitude.div_euclid(3) * 3).clamp(-12, 12)
+    };
+    let prefix = PREFIXES.iter().find(|(e, _)| *e == exp).map(|(_, p)| *p).unwrap_or("");
+    let scaled = rounded / 10f64.powi(exp);
+    format!("{} {prefix}{symbol}", format_sig(scaled, sig))
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use QuantityKind::*;
+
+    #[test]
+    fn engineering_prefixes_and_significant_figures() {
+        assert_eq!(format_engineering(12.43, Power), "12.4 W");
+        assert_eq!(format_engineering(0.03421, Current), "34.2 mA");
+        assert_eq!(format_engineering(4700.0, Resistance), "4.7 kΩ");
+        assert_eq!(format_engineering(0.022e-6, Capacitance), "0.022 µF");
+        assert_eq!(format_engineering(0.0047e-6, Capacitance), "0.0047 µF");
+        assert_eq!(format_engineering(220e-6, Capacitance), "220 µF");
+        assert_eq!(format_engineering(680e-12, Capacitance), "680 pF");
+        assert_eq!(format_engineering(352.4, Voltage), "352 V");
+        assert_eq!(format_engineering(0.0385, Voltage), "38.5 mV");
+        assert_eq!(format_engineering(999.7, Voltage), "1 kV");
+        assert_eq!(format_engineering(2.2e6, Resistance), "2.2 MΩ");
+        assert_eq!(format_engineering(1.0, Resistance), "1 Ω");
+        assert_eq!(format_engineering(0.0, Voltage), "0 V");
+        assert_eq!(format_engineering(-52.0, Voltage), "-52 V");
+        assert_eq!(format_engineering(85.27, Percent), "85.3 %");
+    }
+
+    #[test]
+    fn plain_numbers() {
+        assert_eq!(format_sig(12.43, 3), "12.4");
+        assert_eq!(format_sig(0.000123456, 3), "0.000123");
+        assert_eq!(format_sig(123456.0, 3), "123000");
+        assert_eq!(format_fixed(12.449, 1), "12.4");
+        assert_eq!(format_fixed(-0.01, 1), "0.0");
+    }
+}

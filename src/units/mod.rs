@@ -1,0 +1,12 @@
+//! Quantities: typed values, reading SI prefixes and RKM codes, and printing
+//! with engineering prefixes. Knows nothing about valves.
+
+mod format;
+mod kind;
+mod parse;
+mod quantity;
+
+pub use format::{format_engineering, format_engineering_sig, format_fixed, format_sig, round_sig};
+pub use kind::QuantityKind;
+pub use parse::{UnitError, UnitProblem, parse_quantity};
+pub use quantity::{Amps, Farads, Hertz, Ohms, Volts, Watts, rc_corner};
