@@ -7,3 +7,4 @@
 
 pub mod units;
 pub mod cli;
+pub mod job;

@@ -1,0 +1,207 @@
+//! The calculation pass: pure functions from a [`Job`], the ratings table
+//! and the job's settings to [`Findings`]. No I/O, no page formatting.
+
+mod findings;
+mod mains;
+mod safety;
+mod status;
+mod supply;
+mod valve;
+
+pub use findings::*;
+pub use mains::{chart_expected, corrected_power, corrected_volts, high_line_power, high_line_volts};
+pub use status::{Status, Verdict, worst_of};
+pub use supply::cold_start_peak;
+pub use valve::{cathode_current_shared, plate_current_from_drop, plate_dissipation, screen_current, target_current};
+
+use crate::job::Job;
+use crate::ratings::RatingsTable;
+
+/// Derives every figure of a job. Valve types must already be known to
+/// `ratings` (see [`crate::job::check_types`]); an unknown one is skipped
+/// with a warning rather than a panic.
+pub fn derive(job: &Job, ratings: &RatingsTable) -> Findings {
+    let settings = &job.settings;
+    let mut warnings = Vec::new();
+    let mut sets = Vec::new();
+    for set in &job.measurements {
+        let circuit = job.circuit_for(set);
+        let mut notes = Vec::new();
+        let ctx = valve::ValveContext { job, set, circuit: &circuit, settings };
+        let mut valves = Vec::new();
+        for reading in &set.valves {
+            let Some(spec) = job.valve(&reading.position.value) else { continue };
+            let Ok(rating) = ratings.lookup(&spec.type_name.value) else {
+                notes.push(format!("{}: valve type {} is not in the ratings table", spec.position.value, spec.type_name.value));
+                continue;
+            };
+            valves.push(valve::analyse(&ctx, spec, reading, rating, &mut notes));
+        }
+        let nodes = supply::nodes(job, set, &circuit, settings);
+        let droppers = supply::droppers(job, set, &circuit, settings, &mut notes);
+        let cathode_resistors = supply::cathode_resistors(job, set, &circuit, settings);
+        let screen_resistors = supply::screen_resistors(job, set, &circuit, settings);
+        let filter_capacitors = supply::capacitors(job, set, &circuit, settings, ratings);
+        let heaters = supply::heaters(job, set, settings);
+        let found = SetFindings {
+            label: set.label.clone(),
+            mains_volts: set.mains.value.0,
+            correction_factor: job.mains.nominal.value / set.mains.value,
+            date: set.date.map(|d| d.to_string()),
+            valves,
+            nodes,
+            droppers,
+            cathode_resistors,
+            screen_resistors,
+            filter_capacitors,
+            heaters,
+        };
+        warnings.extend(set_warnings(&found));
+        for n in notes {
+            let subject = n.split(':').next().unwrap_or("").to_string();
+            warnings.push(Warning { set: Some(set.label.clone()), subject, status: Status::Caution, message: n });
+        }
+        sets.push(found);
+    }
+    let safety = job.safety.as_ref().map(safety::findings).unwrap_or_default();
+    for s in &safety {
+        if s.verdict.status != Status::Ok {
+            warnings.push(Warning { set: None, subject: "safety".into(), status: s.verdict.status, message: sentence(&s.verdict.reason) });
+        }
+    }
+    if job.measurements.is_empty() {
+        warnings.push(Warning { set: None, subject: "job".into(), status: Status::Caution, message: "The job has no measurement sets, so no figures could be derived.".into() });
+    }
+    let at_a_glance = glance(sets.last(), &safety, job.safety.is_some());
+    Findings {
+        schema: SCHEMA,
+        job: JobSummary { id: job.info.id.clone(), source: job.source_name.clone(), format_version: job.format_version },
+        mains: MainsFigures {
+            nominal_volts: job.mains.nominal.value.0,
+            tolerance_pct: job.mains.tolerance.value * 100.0,
+            high_line_volts: job.mains.nominal.value.0 * (1.0 + job.mains.tolerance.value),
+            design_volts: job.mains.design.as_ref().map(|d| d.value.0),
+            frequency_hz: job.mains.frequency.map(|f| f.0),
+        },
+        settings: SettingsUsed {
+            fixed_bias_low_pct: settings.fixed_bias_low * 100.0,
+            fixed_bias_high_pct: settings.fixed_bias_high * 100.0,
+            cathode_bias_caution_pct: settings.cathode_bias_caution * 100.0,
+            resistor_derating_pct: settings.resistor_derating * 100.0,
+            capacitor_margin_pct: settings.capacitor_margin * 100.0,
+            heater_tolerance_pct: settings.heater_tolerance * 100.0,
+            node_tolerance_pct: settings.node_tolerance * 100.0,
+            silicon_drop_volts: settings.silicon_drop.0,
+        },
+        sets,
+        safety,
+        at_a_glance,
+        warnings,
+        ratings_used: ratings_used(job, ratings),
+    }
+}
+
+/// Capitalises the first letter and ends with a full stop.
+fn sentence(s: &str) -> String {
+    let mut c = s.chars();
+    let mut out = match c.next() {
+        Some(f) => f.to_uppercase().collect::<String>() + c.as_str(),
+        None => String::new(),
+    };
+    if !out.ends_with('.') {
+        out.push('.');
+    }
+    out
+}
+
+fn set_warnings(set: &SetFindings) -> Vec<Warning> {
+    let mut out = Vec::new();
+    let mut push = |subject: &str, verdict: &Verdict| {
+        if verdict.status != Status::Ok {
+            out.push(Warning {
+                set: Some(set.label.clone()),
+                subject: subject.to_string(),
+                status: verdict.status,
+                message: sentence(&format!("{subject}: {}", verdict.reason)),
+            });
+        }
+    };
+    for v in &set.valves {
+        for c in &v.checks {
+            push(&format!("{} ({})", v.position, v.valve_type), &c.verdict);
+        }
+    }
+    for n in &set.nodes {
+        push(&n.name, &n.verdict);
+    }
+    for r in set.droppers.iter().chain(&set.cathode_resistors).chain(&set.screen_resistors) {
+        push(&r.reference, &r.verdict);
+    }
+    for c in &set.filter_capacitors {
+        push(&c.reference, &c.verdict);
+    }
+    for h in &set.heaters {
+        push("heater", &h.verdict);
+    }
+    out
+}
+
+fn glance(last: Option<&SetFindings>, safety: &[SafetyFinding], has_safety: bool) -> Vec<FamilyStatus> {
+    let mut out = Vec::new();
+    for family in Family::ALL {
+        let verdicts: Vec<(String, &Verdict)> = match (family, last) {
+            (Family::SafetyTests, _) => safety.iter().map(|s| (s.test.replace('_', " "), &s.verdict)).collect(),
+            (_, None) => Vec::new(),
+            (Family::OutputValves, Some(set)) => set
+                .valves
+                .iter()
+                .filter(|v| v.is_output)
+                .flat_map(|v| v.checks.iter().map(move |c| (format!("{} ({})", v.position, v.valve_type), &c.verdict)))
+                .collect(),
+            (Family::SupplyVoltages, Some(set)) => set.nodes.iter().map(|n| (n.name.clone(), &n.verdict)).collect(),
+            (Family::StressedParts, Some(set)) => set
+                .droppers
+                .iter()
+                .chain(&set.cathode_resistors)
+                .chain(&set.screen_resistors)
+                .map(|r| (r.reference.clone(), &r.verdict))
+                .chain(set.filter_capacitors.iter().map(|c| (c.reference.clone(), &c.verdict)))
+                .collect(),
+            (Family::Heater, Some(set)) => set.heaters.iter().map(|h| ("heater".to_string(), &h.verdict)).collect(),
+        };
+        let worst = verdicts.iter().fold(None, |best: Option<&(String, &Verdict)>, item| {
+            if best.is_none_or(|b| item.1.status.rank() > b.1.status.rank()) { Some(item) } else { best }
+        });
+        let (status, words, measured) = match worst {
+            Some((subject, v)) => (v.status, format!("{subject}: {}", v.reason), true),
+            None if family == Family::SafetyTests && !has_safety => (Status::Caution, "no safety tests recorded".to_string(), false),
+            None => (Status::Ok, "nothing measured".to_string(), false),
+        };
+        out.push(FamilyStatus { family, title: family.words(), status, worst: words, measured });
+    }
+    out
+}
+
+fn ratings_used(job: &Job, ratings: &RatingsTable) -> Vec<RatingUsed> {
+    let mut out: Vec<RatingUsed> = Vec::new();
+    for v in &job.valves {
+        let Ok(r) = ratings.lookup(&v.type_name.value) else { continue };
+        if let Some(existing) = out.iter_mut().find(|u| u.name == r.name) {
+            existing.positions.push(v.position.value.clone());
+            continue;
+        }
+        out.push(RatingUsed {
+            name: r.name.clone(),
+            equivalents: r.equivalents.clone(),
+            class: r.class.to_string(),
+            source: r.source.clone(),
+            origin: match &r.origin {
+                crate::ratings::RatingOrigin::Builtin => "built in".to_string(),
+                crate::ratings::RatingOrigin::Shop(p) => p.display().to_string(),
+            },
+            positions: vec![v.position.value.clone()],
+        });
+    }
+    out.sort_by(|a, b| a.name.cmp(&b.name));
+    out
+}

@@ -1,0 +1,116 @@
+//! Statuses are data: every derived figure says ok / caution / over (or
+//! cold, for a fixed-bias valve idling below its aim), why, and against
+//! which threshold.
+
+use serde::Serialize;
+use std::fmt;
+
+/// How a figure stands against its limit.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, Serialize)]
+#[serde(rename_all = "snake_case")]
+pub enum Status {
+    Ok,
+    /// A fixed-bias valve idling below its aim (crossover distortion risk).
+    Cold,
+    Caution,
+    Over,
+}
+
+impl Status {
+    /// Severity for ordering: over > caution > cold > ok.
+    pub fn rank(self) -> u8 {
+        match self {
+            Status::Ok => 0,
+            Status::Cold => 1,
+            Status::Caution => 2,
+            Status::Over => 3,
+        }
+    }
+
+    /// The word printed on pages and in the terminal.
+    pub fn word(self) -> &'static str {
+        match self {
+            Status::Ok => "ok",
+            Status::Cold => "cold",
+            Status::Caution => "caution",
+            Status::Over => "over",
+        }
+    }
+
+    /// The worse of two statuses.
+    pub fn worst(self, other: Status) -> Status {
+        if other.rank() > self.rank() { other } else { self }
+    }
+}
+
+impl fmt::Display for Status {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        f.write_str(self.word())
+    }
+}
+
+/// A status with its reason in words and the threshold that decided it.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Verdict {
+    pub status: Status,
+    pub reason: String,
+    pub threshold: String,
+}
+
+impl Verdict {
+    pub fn new(status: Status, reason: impl Into<String>, threshold: impl Into<String>) -> Self {
+        Verdict { status, reason: reason.into(), threshold: threshold.into() }
+    }
+
+    pub fn ok(reason: impl Into<String>, threshold: impl Into<String>) -> Self {
+        Verdict::new(Status::Ok, reason, threshold)
+    }
+}
+
+/// The verdict with the worst status among several (the first of equals).
+pub fn worst_of<'a>(verdicts: impl IntoIterator<Item = &'a Verdict>) -> Option<&'a Verdict> {
+    let mut best: Option<&Verdict> = None;
+    for v in verdicts {
+        if best.is_none_or(|b| v.status.rank() > b.status.rank()) {
+            best = Some(v);
+        }
+    }
+    best
+}
+
+/// Bands for a figure that must stay under a rating: caution above
+/// `caution` (a fraction of the rating), over above 100 %.
+pub fn under_rating(pct: f64, caution: f64, what: &str, rating: &str) -> Verdict {
+    let threshold = format!("caution above {:.0} % of {rating}, over above 100 %", caution * 100.0);
+    if pct > 100.0 {
+        Verdict::new(Status::Over, format!("{what} is {pct:.0} % of its {rating} rating"), threshold)
+    } else if pct > caution * 100.0 {
+        Verdict::new(Status::Caution, format!("{what} is {pct:.0} % of its {rating} rating, above the {:.0} % guide", caution * 100.0), threshold)
+    } else {
+        Verdict::ok(format!("{what} is {pct:.0} % of its {rating} rating"), threshold)
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn worst_orders_by_severity() {
+        assert_eq!(Status::Ok.worst(Status::Cold), Status::Cold);
+        assert_eq!(Status::Caution.worst(Status::Cold), Status::Caution);
+        assert_eq!(Status::Over.worst(Status::Caution), Status::Over);
+        let v = [Verdict::ok("a", ""), Verdict::new(Status::Caution, "b", ""), Verdict::new(Status::Caution, "c", "")];
+        assert_eq!(worst_of(&v).map(|v| v.reason.as_str()), Some("b"));
+    }
+
+    #[test]
+    fn bands_under_a_rating() {
+        // Common practice: 50 % derating for resistors; over above 100 %.
+        assert_eq!(under_rating(49.0, 0.5, "x", "1 W").status, Status::Ok);
+        assert_eq!(under_rating(50.0, 0.5, "x", "1 W").status, Status::Ok);
+        assert_eq!(under_rating(50.1, 0.5, "x", "1 W").status, Status::Caution);
+        assert_eq!(under_rating(100.0, 0.5, "x", "1 W").status, Status::Caution);
+        assert_eq!(under_rating(100.1, 0.5, "x", "1 W").status, Status::Over);
+    }
+}

@@ -1,0 +1,300 @@
+//! The supply: B+ nodes against the chart, dropper, cathode and screen
+//! resistor power, filter-capacitor margins (including the cold-start
+//! peak) and heater voltage.
+
+use super::findings::{CapacitorFindings, HeaterFindings, NodeFindings, ResistorFindings};
+use super::mains;
+use super::status::{Status, Verdict, under_rating};
+use crate::job::{Circuit, Job, MeasurementSet, RectifierKind, Settings};
+use crate::ratings::{RatingsTable, RectifierHeating};
+use crate::units::{Ohms, QuantityKind, Volts, Watts, format_engineering};
+
+/// Cold-start peak of a full-wave winding of `rms` volts per side rated at
+/// primary `rated_primary`, fed `mains` volts: √2 · Vsec · Vmains / Vp − drop.
+pub fn cold_start_peak(rms: Volts, rated_primary: Volts, mains: Volts, rectifier_drop: Volts) -> Volts {
+    Volts(std::f64::consts::SQRT_2 * rms.0 * (mains / rated_primary)) - rectifier_drop
+}
+
+fn v(x: f64) -> String {
+    format_engineering(x, QuantityKind::Voltage)
+}
+
+fn w(x: f64) -> String {
+    format!("{x:.2} W")
+}
+
+pub(crate) fn nodes(job: &Job, set: &MeasurementSet, circuit: &Circuit, settings: &Settings) -> Vec<NodeFindings> {
+    let nominal = job.mains.nominal.value;
+    let design = job.mains.design.as_ref().map(|d| d.value).unwrap_or(nominal);
+    let t = job.mains.tolerance.value;
+    set.nodes
+        .iter()
+        .map(|reading| {
+            let spec = circuit.nodes.iter().find(|n| n.name.value == reading.name.value);
+            let chart = reading.chart.or(spec.and_then(|s| s.chart));
+            let tolerance = reading.tolerance.or(spec.and_then(|s| s.tolerance)).unwrap_or(settings.node_tolerance);
+            let corrected = mains::corrected_volts(reading.volts.value, set.mains.value, nominal);
+            let expected = chart.map(|c| mains::chart_expected(c, design, nominal));
+            let deviation = expected.map(|e| (corrected / e - 1.0) * 100.0);
+            let tol_pct = tolerance * 100.0;
+            let threshold = format!("within ±{tol_pct:.0} % of the chart referred to {}", v(nominal.0));
+            let verdict = match (deviation, expected) {
+                (Some(d), Some(e)) if d.abs() <= tol_pct + 1e-9 => Verdict::ok(
+                    format!("{} at nominal mains is {d:+.1} % from the expected {}", v(corrected.0), v(e.0)),
+                    threshold,
+                ),
+                (Some(d), Some(e)) => Verdict::new(
+                    Status::Caution,
+                    format!(
+                        "{} at nominal mains is {d:+.1} % from the expected {}, {} the ±{tol_pct:.0} % band",
+                        v(corrected.0),
+                        v(e.0),
+                        if d > 0.0 { "above" } else { "below" }
+                    ),
+                    threshold,
+                ),
+                _ => Verdict::ok("no chart figure to compare with", "none: the job gives no chart figure"),
+            };
+            NodeFindings {
+                name: reading.name.value.clone(),
+                label: spec.and_then(|s| s.label.clone()),
+                measured_volts: reading.volts.value.0,
+                corrected_volts: corrected.0,
+                chart_volts: chart.map(|c| c.0),
+                expected_volts: expected.map(|e| e.0),
+                deviation_pct: deviation,
+                tolerance_pct: tol_pct,
+                high_line_volts: mains::high_line_volts(corrected, t).0,
+                verdict,
+            }
+        })
+        .collect()
+}
+
+/// Dissipation of a resistor with `volts` across it, judged against its
+/// rating with the derating band, and projected to high line.
+#[allow(clippy::too_many_arguments)]
+fn resistor(
+    reference: &str,
+    place: String,
+    r: Ohms,
+    rating: Option<Watts>,
+    volts: Volts,
+    job: &Job,
+    set: &MeasurementSet,
+    settings: &Settings,
+) -> ResistorFindings {
+    let p = volts.power_in(r);
+    let p_c = mains::corrected_power(p, set.mains.value, job.mains.nominal.value);
+    let p_h = mains::high_line_power(p_c, job.mains.tolerance.value);
+    let pct = rating.map(|rt| p / rt * 100.0);
+    let pct_h = rating.map(|rt| p_h / rt * 100.0);
+    let verdict = match (rating, pct, pct_h) {
+        (Some(rt), Some(pct), Some(pct_h)) => {
+            let mut verdict = under_rating(pct, settings.resistor_derating, &format!("{reference} dissipation {}", w(p.0)), &format_engineering(rt.0, QuantityKind::Power));
+            if verdict.status == Status::Ok && pct_h > settings.resistor_derating * 100.0 {
+                verdict = Verdict::new(
+                    Status::Caution,
+                    format!("{reference} would dissipate {} at high line, {pct_h:.0} % of its rating", w(p_h.0)),
+                    verdict.threshold,
+                );
+            }
+            verdict
+        }
+        _ => Verdict::ok(format!("{reference} dissipates {}; no rating given", w(p.0)), "none: the job gives no power rating"),
+    };
+    ResistorFindings {
+        reference: reference.to_string(),
+        place,
+        resistance_ohms: r.0,
+        rating_w: rating.map(|r| r.0),
+        voltage_volts: volts.0,
+        current_ma: (volts / r).0 * 1e3,
+        power_w: p.0,
+        power_pct: pct,
+        high_line_power_w: p_h.0,
+        high_line_power_pct: pct_h,
+        verdict,
+    }
+}
+
+pub(crate) fn droppers(job: &Job, set: &MeasurementSet, circuit: &Circuit, settings: &Settings, notes: &mut Vec<String>) -> Vec<ResistorFindings> {
+    let read = |name: &str| set.nodes.iter().find(|n| n.name.value == name).map(|n| n.volts.value);
+    let mut out = Vec::new();
+    for d in &circuit.droppers {
+        match (read(&d.from.value), read(&d.to.value)) {
+            (Some(a), Some(b)) => out.push(resistor(
+                &d.reference,
+                format!("{} to {}", d.from.value, d.to.value),
+                d.value.value,
+                d.rating,
+                (a - b).abs(),
+                job,
+                set,
+                settings,
+            )),
+            _ => notes.push(format!("dropper {}: both {} and {} must be read to find its dissipation", d.reference, d.from.value, d.to.value)),
+        }
+    }
+    out
+}
+
+pub(crate) fn cathode_resistors(job: &Job, set: &MeasurementSet, circuit: &Circuit, settings: &Settings) -> Vec<ResistorFindings> {
+    let mut out = Vec::new();
+    for rk in &circuit.cathode_resistors {
+        let readings: Vec<Volts> = rk
+            .valves
+            .iter()
+            .filter_map(|p| set.valves.iter().find(|v| v.position.value == p.value))
+            .filter_map(|v| v.cathode.as_ref().map(|c| c.value))
+            .collect();
+        if readings.is_empty() {
+            continue;
+        }
+        let vk = Volts(readings.iter().map(|v| v.0).sum::<f64>() / readings.len() as f64);
+        let names: Vec<&str> = rk.valves.iter().map(|v| v.value.as_str()).collect();
+        out.push(resistor(&rk.reference, format!("{} cathode{}", names.join(", "), if names.len() > 1 { "s" } else { "" }), rk.value.value, rk.rating, vk, job, set, settings));
+    }
+    out
+}
+
+pub(crate) fn screen_resistors(job: &Job, set: &MeasurementSet, circuit: &Circuit, settings: &Settings) -> Vec<ResistorFindings> {
+    let mut out = Vec::new();
+    for sr in &circuit.screen_resistors {
+        let Some(supply) = set.nodes.iter().find(|n| n.name.value == sr.supply.value) else { continue };
+        let Some(vg2) = set.valves.iter().find(|v| v.position.value == sr.valve.value).and_then(|v| v.screen.as_ref()) else { continue };
+        let reference = sr.reference.clone().unwrap_or_else(|| format!("{} screen", sr.valve.value));
+        out.push(resistor(
+            &reference,
+            format!("{} to {} screen", sr.supply.value, sr.valve.value),
+            sr.value.value,
+            sr.rating,
+            (supply.volts.value - vg2.value).abs(),
+            job,
+            set,
+            settings,
+        ));
+    }
+    out
+}
+
+pub(crate) fn capacitors(
+    job: &Job,
+    set: &MeasurementSet,
+    circuit: &Circuit,
+    settings: &Settings,
+    ratings: &RatingsTable,
+) -> Vec<CapacitorFindings> {
+    let nominal = job.mains.nominal.value;
+    let t = job.mains.tolerance.value;
+    let high_mains = nominal * (1.0 + t);
+    // The rectifier: its no-load drop, and whether it lets the supply reach
+    // the peak before the output valves draw current.
+    let (drop, slow_warmup, rect_words) = match circuit.rectifier.as_ref().map(|r| (&r.kind, r.drop)) {
+        Some((RectifierKind::Silicon, d)) => (d.unwrap_or(settings.silicon_drop), false, "silicon rectifier".to_string()),
+        Some((RectifierKind::Valve(pos), d)) => {
+            let heating = job
+                .valve(&pos.value)
+                .and_then(|v| ratings.lookup(&v.type_name.value).ok())
+                .and_then(|r| r.rectifier_heating);
+            let slow = heating == Some(RectifierHeating::Indirect);
+            let name = job.valve(&pos.value).map(|v| v.type_name.value.clone()).unwrap_or_default();
+            (d.unwrap_or(Volts(0.0)), slow, format!("{name} valve rectifier{}", if slow { ", indirectly heated" } else { "" }))
+        }
+        None => (settings.silicon_drop, false, "rectifier not stated, taken as silicon".to_string()),
+    };
+    let peak = circuit.winding.as_ref().map(|w| cold_start_peak(w.rms.value, w.primary.value, high_mains, drop));
+    let mut out = Vec::new();
+    for cap in &circuit.filter_capacitors {
+        let measured = set.nodes.iter().find(|n| n.name.value == cap.node.value).map(|n| n.volts.value);
+        let high = measured.map(|m| mains::high_line_volts(mains::corrected_volts(m, set.mains.value, nominal), t));
+        let candidates = [high, peak];
+        let Some(highest) = candidates.iter().flatten().copied().reduce(Volts::max) else { continue };
+        let rating = cap.rating.value;
+        let margin = (rating.0 - highest.0) / rating.0 * 100.0;
+        let from_peak = peak.is_some_and(|p| p.0 >= highest.0);
+        let source = if from_peak {
+            format!("cold-start peak at high line {} ({rect_words})", v(high_mains.0))
+        } else {
+            format!("operating voltage at high line {}", v(high_mains.0))
+        };
+        let threshold = format!("over above the {} rating; caution when the margin is under {:.0} %", v(rating.0), settings.capacitor_margin * 100.0);
+        let verdict = if highest.0 > rating.0 {
+            if from_peak && slow_warmup && high.is_none_or(|h| h.0 <= rating.0) {
+                Verdict::new(
+                    Status::Caution,
+                    format!("{source}, {}, exceeds the {} rating; a slow-warming rectifier makes this less likely but not impossible", v(highest.0), v(rating.0)),
+                    threshold,
+                )
+            } else {
+                Verdict::new(Status::Over, format!("{source}, {}, exceeds the {} rating", v(highest.0), v(rating.0)), threshold)
+            }
+        } else if margin < settings.capacitor_margin * 100.0 {
+            Verdict::new(Status::Caution, format!("{source}, {}, leaves only {margin:.1} % margin on the {} rating", v(highest.0), v(rating.0)), threshold)
+        } else {
+            Verdict::ok(format!("highest expected {} ({source}) leaves {margin:.0} % margin", v(highest.0)), threshold)
+        };
+        out.push(CapacitorFindings {
+            reference: cap.reference.clone(),
+            node: cap.node.value.clone(),
+            capacitance_uf: cap.value.map(|f| f.0 * 1e6),
+            rating_volts: rating.0,
+            measured_volts: measured.map(|m| m.0),
+            high_line_volts: high.map(|h| h.0),
+            cold_start_peak_volts: peak.map(|p| p.0),
+            highest_volts: highest.0,
+            margin_pct: margin,
+            verdict,
+        });
+    }
+    out
+}
+
+pub(crate) fn heaters(job: &Job, set: &MeasurementSet, settings: &Settings) -> Vec<HeaterFindings> {
+    set.heaters
+        .iter()
+        .map(|h| {
+            let measured = h.volts.value;
+            let corrected = mains::corrected_volts(measured, set.mains.value, job.mains.nominal.value);
+            let dev = (measured / h.nominal - 1.0) * 100.0;
+            let dev_c = (corrected / h.nominal - 1.0) * 100.0;
+            let tol = settings.heater_tolerance * 100.0;
+            let threshold = format!("within ±{tol:.0} % of {}", v(h.nominal.0));
+            let at_nominal = format!("{} at nominal mains ({dev_c:+.1} %)", v(corrected.0));
+            let verdict = if dev > tol + 1e-9 {
+                Verdict::new(Status::Over, format!("{} is {dev:+.1} % from {}, above the ±{tol:.0} % band; {at_nominal}", v(measured.0), v(h.nominal.0)), threshold)
+            } else if dev < -tol - 1e-9 {
+                Verdict::new(Status::Caution, format!("{} is {dev:+.1} % from {}, below the ±{tol:.0} % band; {at_nominal}", v(measured.0), v(h.nominal.0)), threshold)
+            } else {
+                Verdict::ok(format!("{} is {dev:+.1} % from {}", v(measured.0), v(h.nominal.0)), threshold)
+            };
+            HeaterFindings {
+                label: h.label.clone(),
+                measured_volts: measured.0,
+                nominal_volts: h.nominal.0,
+                corrected_volts: corrected.0,
+                deviation_pct: dev,
+                corrected_deviation_pct: dev_c,
+                verdict,
+            }
+        })
+        .collect()
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn cold_start_peak_of_a_full_wave_winding() {
+        // √2·Vsec·Vhigh/Vp − drop (domain notes; peak of a sine is √2·RMS, textbook):
+        // 365 V rms rated at 240 V, fed 253 V (230 V + 10 %, IEC 60038 from memory), silicon drop 1 V (common practice):
+        // 1.41421 × 365 × 253/240 − 1 = 544.15 − 1 = 543.15 V.
+        let p = cold_start_peak(Volts(365.0), Volts(240.0), Volts(253.0), Volts(1.0));
+        assert!((p.0 - 543.15).abs() < 0.01, "{}", p.0);
+        // 260 V rms rated at 110 V, fed 126 V (120 V + 5 %, ANSI C84.1 from memory), valve rectifier at no load ≈ 0 V:
+        // 1.41421 × 260 × 126/110 = 421.17 V.
+        let p = cold_start_peak(Volts(260.0), Volts(110.0), Volts(126.0), Volts(0.0));
+        assert!((p.0 - 421.17).abs() < 0.01, "{}", p.0);
+    }
+}

@@ -1,0 +1,425 @@
+//! Idle current by every measurement method, plate and screen dissipation,
+//! percent of rating, the guide bands and the fixed-bias target window.
+
+use super::findings::{Check, CurrentMethod, TargetWindow, ValveFindings};
+use super::mains;
+use super::status::{Status, Verdict, under_rating, worst_of};
+use crate::job::{BiasKind, Circuit, CurrentMethod as ReadMethod, Job, MeasurementSet, Settings, ValvePosition, ValveReading};
+use crate::ratings::Rating;
+use crate::units::{Amps, Ohms, Volts, Watts, format_engineering};
+
+/// Ohm's law for a cathode resistor shared by `n` matched valves:
+/// Ik(per valve) = Vk / (n · Rk).
+pub fn cathode_current_shared(vk: Volts, rk: Ohms, n: usize) -> Amps {
+    vk / rk / n.max(1) as f64
+}
+
+/// Plate current from the drop across a half primary shared by `n`
+/// matched valves: Ia = Vdrop / (n · Rhalf).
+pub fn plate_current_from_drop(drop: Volts, r_half: Ohms, n: usize) -> Amps {
+    drop / r_half / n.max(1) as f64
+}
+
+/// Screen current from the drop across the screen resistor:
+/// Ig2 = (Vsupply − Vg2) / Rg2.
+pub fn screen_current(supply: Volts, vg2: Volts, rg2: Ohms) -> Amps {
+    (supply - vg2) / rg2
+}
+
+/// Joule's law for the plate: Pa = (Va − Vk) · Ia.
+pub fn plate_dissipation(va: Volts, vk: Volts, ia: Amps) -> Watts {
+    (va - vk) * ia
+}
+
+/// The fixed-bias target current: Ia = f · Pa(max) / (Va − Vk).
+pub fn target_current(fraction: f64, pa_max: Watts, va: Volts, vk: Volts) -> Amps {
+    (pa_max * fraction) / (va - vk)
+}
+
+/// What a valve's readings give: the current and how it was found.
+struct Current {
+    method: CurrentMethod,
+    /// Cathode current, when the method reads it (or Ia + Ig2 when known).
+    ik: Option<Amps>,
+    ia: Amps,
+    ig2: Option<Amps>,
+    includes_screen: bool,
+}
+
+pub(crate) struct ValveContext<'a> {
+    pub job: &'a Job,
+    pub set: &'a MeasurementSet,
+    pub circuit: &'a Circuit,
+    pub settings: &'a Settings,
+}
+
+pub(crate) fn analyse(
+    ctx: &ValveContext,
+    spec: &ValvePosition,
+    reading: &ValveReading,
+    rating: &Rating,
+    notes: &mut Vec<String>,
+) -> ValveFindings {
+    let pos = spec.position.value.as_str();
+    let circuit = ctx.circuit;
+    let nominal = ctx.job.mains.nominal.value;
+    let measured_mains = ctx.set.mains.value;
+    let tolerance = ctx.job.mains.tolerance.value;
+    let is_output = rating.class.is_output();
+
+    let bias = match &circuit.bias {
+        Some(b) => b.value,
+        None if circuit.cathode_resistor_for(pos).is_some() => BiasKind::Cathode,
+        None => BiasKind::Fixed,
+    };
+    let va = reading.plate.as_ref().map(|v| v.value);
+    let vg2 = reading.screen.as_ref().map(|v| v.value);
+    // Vk: read directly, else the sense-resistor voltage (Vk ≈ Vs), else 0 V
+    // for a fixed-bias valve whose cathode is grounded.
+    let vk = reading
+        .cathode
+        .as_ref()
+        .map(|v| v.value)
+        .or(reading.sense.as_ref().map(|v| v.value))
+        .unwrap_or(Volts(0.0));
+
+    // Screen current, where the screen resistor and its supply were read.
+    let ig2 = circuit.screen_resistor_for(pos).and_then(|sr| {
+        let supply = ctx.set.nodes.iter().find(|n| n.name.value == sr.supply.value)?.volts.value;
+        let vg2 = vg2?;
+        let i = screen_current(supply, vg2, sr.value.value);
+        if i.0 < 0.0 {
+            notes.push(format!(
+                "{pos}: the screen reads {vg2} but its supply {} reads {supply}; the screen current is left out",
+                sr.supply.value
+            ));
+            None
+        } else {
+            Some(i)
+        }
+    });
+
+    let current = find_current(ctx, pos, reading, vk, ig2, notes);
+
+    let mut checks: Vec<Check> = Vec::new();
+    let mut f = ValveFindings {
+        position: pos.to_string(),
+        valve_type: spec.type_name.value.clone(),
+        rating_name: rating.name.clone(),
+        role: spec.role.words().to_string(),
+        is_output,
+        bias: match bias {
+            BiasKind::Cathode => "cathode".into(),
+            BiasKind::Fixed => "fixed".into(),
+        },
+        method: current.as_ref().map(|c| c.method),
+        plate_volts: va.map(|v| v.0),
+        screen_volts: vg2.map(|v| v.0),
+        cathode_volts: reading.cathode.as_ref().map(|v| v.value.0).or(reading.sense.as_ref().map(|v| v.value.0)),
+        grid_volts: reading.grid.as_ref().map(|v| v.value.0),
+        cathode_current_ma: current.as_ref().and_then(|c| c.ik).map(|i| i.0 * 1e3),
+        screen_current_ma: current.as_ref().and_then(|c| c.ig2).or(ig2).map(|i| i.0 * 1e3),
+        plate_current_ma: current.as_ref().map(|c| c.ia.0 * 1e3),
+        plate_current_includes_screen: current.as_ref().is_some_and(|c| c.includes_screen),
+        plate_dissipation_w: None,
+        plate_dissipation_max_w: rating.plate_dissipation.map(|w| w.0),
+        plate_dissipation_pct: None,
+        corrected_plate_dissipation_w: None,
+        corrected_plate_dissipation_pct: None,
+        high_line_plate_dissipation_w: None,
+        high_line_plate_dissipation_pct: None,
+        screen_dissipation_w: None,
+        screen_dissipation_max_w: rating.screen_dissipation.map(|w| w.0),
+        screen_dissipation_pct: None,
+        plate_voltage_pct: None,
+        screen_voltage_pct: None,
+        cathode_current_pct: None,
+        target_window: None,
+        status: Status::Ok,
+        checks: Vec::new(),
+    };
+
+    // Plate dissipation and its bands.
+    if let (Some(va), Some(c)) = (va, &current) {
+        let pa = plate_dissipation(va, vk, c.ia);
+        let pa_c = mains::corrected_power(pa, measured_mains, nominal);
+        let pa_h = mains::high_line_power(pa_c, tolerance);
+        f.plate_dissipation_w = Some(pa.0);
+        f.corrected_plate_dissipation_w = Some(pa_c.0);
+        f.high_line_plate_dissipation_w = Some(pa_h.0);
+        if let Some(max) = rating.plate_dissipation {
+            let pct = pa / max * 100.0;
+            let pct_c = pa_c / max * 100.0;
+            let pct_h = pa_h / max * 100.0;
+            f.plate_dissipation_pct = Some(pct);
+            f.corrected_plate_dissipation_pct = Some(pct_c);
+            f.high_line_plate_dissipation_pct = Some(pct_h);
+            let conservative = if c.includes_screen { " (includes screen current, so on the high side)" } else { "" };
+            let verdict = dissipation_verdict(ctx.settings, bias, is_output, pct, pct_c, pa, max, conservative);
+            checks.push(Check { check: "plate_dissipation", verdict });
+            if pct_h > 100.0 && pct <= 100.0 && pct_c <= 100.0 {
+                checks.push(Check {
+                    check: "plate_dissipation_high_line",
+                    verdict: Verdict::new(
+                        Status::Caution,
+                        format!(
+                            "at high line ({}) the plate would dissipate {:.1} W, {pct_h:.0} % of its rating",
+                            format_engineering((nominal * (1.0 + tolerance)).0, crate::units::QuantityKind::Voltage),
+                            pa_h.0
+                        ),
+                        "caution when the high-line projection exceeds 100 %",
+                    ),
+                });
+            }
+        }
+        // Fixed-bias target window.
+        if bias == BiasKind::Fixed && is_output
+            && let Some(max) = rating.plate_dissipation
+            && va.0 > vk.0
+        {
+            f.target_window = Some(window(ctx, pos, va, vk, max, c));
+        }
+    }
+
+    // Screen dissipation.
+    if let (Some(vg2), Some(ig2)) = (vg2, current.as_ref().and_then(|c| c.ig2).or(ig2)) {
+        let pg2 = (vg2 - vk) * ig2;
+        f.screen_dissipation_w = Some(pg2.0);
+        if let Some(max) = rating.screen_dissipation {
+            let pct = pg2 / max * 100.0;
+            f.screen_dissipation_pct = Some(pct);
+            let pct_h = pct * (nominal / measured_mains).powi(2) * (1.0 + tolerance).powi(2);
+            let mut verdict = under_rating(pct, 1.0, "screen dissipation", &watts_words(max));
+            if verdict.status == Status::Ok && pct_h > 100.0 {
+                verdict = Verdict::new(Status::Caution, format!("screen dissipation would be {pct_h:.0} % of its rating at high line"), verdict.threshold);
+            }
+            checks.push(Check { check: "screen_dissipation", verdict });
+        }
+    }
+
+    // Voltage and cathode-current maxima.
+    let high = |v: Volts| mains::high_line_volts(mains::corrected_volts(v, measured_mains, nominal), tolerance);
+    if let (Some(va), Some(max)) = (va, rating.plate_voltage) {
+        let pct = va / max * 100.0;
+        f.plate_voltage_pct = Some(pct);
+        checks.push(Check { check: "plate_voltage", verdict: max_verdict("plate voltage", va, high(va), max) });
+    }
+    if let (Some(vg2), Some(max)) = (vg2, rating.screen_voltage) {
+        f.screen_voltage_pct = Some(vg2 / max * 100.0);
+        checks.push(Check { check: "screen_voltage", verdict: max_verdict("screen voltage", vg2, high(vg2), max) });
+    }
+    if let (Some(ik), Some(max)) = (current.as_ref().and_then(|c| c.ik.or(Some(c.ia))), rating.cathode_current) {
+        let pct = ik / max * 100.0;
+        f.cathode_current_pct = Some(pct);
+        let threshold = format!("over above the {} maximum", format_engineering(max.0, crate::units::QuantityKind::Current));
+        let verdict = if pct > 100.0 {
+            Verdict::new(Status::Over, format!("cathode current {} is {pct:.0} % of its maximum", format_engineering(ik.0, crate::units::QuantityKind::Current)), threshold)
+        } else {
+            Verdict::ok(format!("cathode current is {pct:.0} % of its maximum"), threshold)
+        };
+        checks.push(Check { check: "cathode_current", verdict });
+    }
+
+    if current.is_none() && is_output {
+        notes.push(format!(
+            "{pos}: no reading gives the idle current (read the cathode, sense-resistor or half-primary voltage, or a current)"
+        ));
+    }
+
+    f.status = worst_of(checks.iter().map(|c| &c.verdict)).map(|v| v.status).unwrap_or(Status::Ok);
+    f.checks = checks;
+    f
+}
+
+fn find_current(
+    ctx: &ValveContext,
+    pos: &str,
+    reading: &ValveReading,
+    vk: Volts,
+    ig2: Option<Amps>,
+    notes: &mut Vec<String>,
+) -> Option<Current> {
+    let circuit = ctx.circuit;
+    let from_ik = |method, ik: Amps| match ig2 {
+        Some(ig2) => Current { method, ik: Some(ik), ia: ik - ig2, ig2: Some(ig2), includes_screen: false },
+        None => Current { method, ik: Some(ik), ia: ik, ig2: None, includes_screen: true },
+    };
+    let from_ia = |method, ia: Amps| Current { method, ik: ig2.map(|g| ia + g), ia, ig2, includes_screen: false };
+
+    // Plate current read directly is best: no screen current in it.
+    if let Some((i, ReadMethod::Shunt)) = &reading.current {
+        return Some(from_ia(CurrentMethod::Shunt, i.value));
+    }
+    if let Some(drop) = &reading.primary_drop {
+        match circuit.half_primary_for(pos) {
+            Some(h) => {
+                return Some(from_ia(
+                    CurrentMethod::TransformerResistance,
+                    plate_current_from_drop(drop.value, h.resistance.value, h.valves.len()),
+                ));
+            }
+            None => notes.push(format!("{pos}: a half-primary drop is given but the circuit has no half-primary resistance for {pos}")),
+        }
+    }
+    if let Some((i, ReadMethod::Probe)) = &reading.current {
+        return Some(from_ik(CurrentMethod::Probe, i.value));
+    }
+    if let Some(vs) = &reading.sense {
+        match circuit.sense_resistor_for(pos) {
+            Some(rs) => return Some(from_ik(CurrentMethod::SenseResistor, vs.value / rs.value.value)),
+            None => notes.push(format!("{pos}: a sense-resistor voltage is given but the circuit has no sense resistor for {pos}")),
+        }
+    }
+    if reading.cathode.is_some()
+        && let Some(rk) = circuit.cathode_resistor_for(pos)
+    {
+        let n = rk.valves.len();
+        let method = if n > 1 { CurrentMethod::SharedCathodeResistor } else { CurrentMethod::OwnCathodeResistor };
+        return Some(from_ik(method, cathode_current_shared(vk, rk.value.value, n)));
+    }
+    None
+}
+
+#[allow(clippy::too_many_arguments)]
+fn dissipation_verdict(
+    settings: &Settings,
+    bias: BiasKind,
+    is_output: bool,
+    pct: f64,
+    pct_c: f64,
+    pa: Watts,
+    max: Watts,
+    conservative: &str,
+) -> Verdict {
+    let rating = watts_words(max);
+    // Judge on the hotter of today's mains and nominal mains.
+    let (judged, at) = if pct_c > pct { (pct_c, " at nominal mains") } else { (pct, "") };
+    let what = format!("plate dissipation {:.1} W is {judged:.0} % of its {rating} rating{at}{conservative}", if at.is_empty() { pa.0 } else { pa.0 * pct_c / pct });
+    if bias == BiasKind::Fixed && is_output {
+        let lo = settings.fixed_bias_low * 100.0;
+        let hi = settings.fixed_bias_high * 100.0;
+        let threshold = format!("fixed-bias aim {lo:.0}–{hi:.0} % of {rating}; cold below {lo:.0} %, caution above {hi:.0} %, over above 100 %");
+        if judged > 100.0 {
+            Verdict::new(Status::Over, what, threshold)
+        } else if judged > hi {
+            Verdict::new(Status::Caution, format!("{what}, above the {hi:.0} % aim"), threshold)
+        } else if pct < lo {
+            Verdict::new(Status::Cold, format!("{what}, below the {lo:.0} % aim (crossover distortion risk)"), threshold)
+        } else {
+            Verdict::ok(format!("{what}, inside the aim"), threshold)
+        }
+    } else {
+        let caution = settings.cathode_bias_caution * 100.0;
+        let threshold = format!("caution above {caution:.0} % of {rating}, over above 100 %");
+        if judged > 100.0 {
+            Verdict::new(Status::Over, what, threshold)
+        } else if judged > caution {
+            Verdict::new(Status::Caution, format!("{what}, above the {caution:.0} % guide"), threshold)
+        } else {
+            Verdict::ok(what, threshold)
+        }
+    }
+}
+
+fn max_verdict(what: &str, v: Volts, high: Volts, max: Volts) -> Verdict {
+    let threshold = format!("over above the {} maximum; caution when the high-line projection is above it", format_engineering(max.0, crate::units::QuantityKind::Voltage));
+    let pct = v / max * 100.0;
+    if v.0 > max.0 {
+        Verdict::new(Status::Over, format!("{what} {} is {pct:.0} % of its {} maximum", format_engineering(v.0, crate::units::QuantityKind::Voltage), format_engineering(max.0, crate::units::QuantityKind::Voltage)), threshold)
+    } else if high.0 > max.0 {
+        Verdict::new(Status::Caution, format!("{what} would reach {} at high line, above its {} maximum", format_engineering(high.0, crate::units::QuantityKind::Voltage), format_engineering(max.0, crate::units::QuantityKind::Voltage)), threshold)
+    } else {
+        Verdict::ok(format!("{what} is {pct:.0} % of its maximum"), threshold)
+    }
+}
+
+fn window(ctx: &ValveContext, pos: &str, va: Volts, vk: Volts, max: Watts, c: &Current) -> TargetWindow {
+    let lo = ctx.settings.fixed_bias_low;
+    let hi = ctx.settings.fixed_bias_high;
+    let ia_lo = target_current(lo, max, va, vk);
+    let ia_hi = target_current(hi, max, va, vk);
+    // A sense resistor or probe carries the cathode current: add the screen
+    // current where it is known, so the window matches what the meter shows.
+    let ig2 = c.ig2.unwrap_or(Amps(0.0));
+    let sense = ctx.circuit.sense_resistor_for(pos).map(|rs| ((ia_lo + ig2) * rs.value.value, (ia_hi + ig2) * rs.value.value));
+    let drop = ctx.circuit.half_primary_for(pos).map(|h| {
+        let n = h.valves.len().max(1) as f64;
+        (ia_lo * h.resistance.value * n, ia_hi * h.resistance.value * n)
+    });
+    TargetWindow {
+        low_pct: lo * 100.0,
+        high_pct: hi * 100.0,
+        plate_current_low_ma: ia_lo.0 * 1e3,
+        plate_current_high_ma: ia_hi.0 * 1e3,
+        sense_low_mv: sense.map(|s| s.0.0 * 1e3),
+        sense_high_mv: sense.map(|s| s.1.0 * 1e3),
+        primary_drop_low_volts: drop.map(|d| d.0.0),
+        primary_drop_high_volts: drop.map(|d| d.1.0),
+        probe_low_ma: Some((ia_lo + ig2).0 * 1e3),
+        probe_high_ma: Some((ia_hi + ig2).0 * 1e3),
+        inside: c.ia.0 >= ia_lo.0 && c.ia.0 <= ia_hi.0,
+    }
+}
+
+fn watts_words(w: Watts) -> String {
+    format_engineering(w.0, crate::units::QuantityKind::Power)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn close(a: f64, b: f64, tol: f64) -> bool {
+        (a - b).abs() <= tol
+    }
+
+    #[test]
+    fn ohms_law_for_a_shared_cathode_resistor() {
+        // Ohm's law, Ik = Vk / (n·Rk): 11.6 V across 130 Ω shared by two → 44.615 mA each.
+        assert!(close(cathode_current_shared(Volts(11.6), Ohms(130.0), 2).0, 0.044615, 1e-6));
+        // Own resistor (n = 1): 12 V across 240 Ω → 50 mA (Ohm's law).
+        assert!(close(cathode_current_shared(Volts(12.0), Ohms(240.0), 1).0, 0.050, 1e-12));
+    }
+
+    #[test]
+    fn transformer_resistance_method() {
+        // Ohm's law, Ia = Vdrop / Rhalf: 3.5 V across 38 Ω feeding two valves → 46.05 mA each.
+        assert!(close(plate_current_from_drop(Volts(3.5), Ohms(38.0), 2).0, 0.046053, 1e-6));
+    }
+
+    #[test]
+    fn screen_current_from_its_resistor() {
+        // Ohm's law, Ig2 = (Vsupply − Vg2) / Rg2: (305 − 303.8) V / 470 Ω = 2.553 mA.
+        assert!(close(screen_current(Volts(305.0), Volts(303.8), Ohms(470.0)).0, 0.0025532, 1e-7));
+    }
+
+    #[test]
+    fn joules_law_for_the_plate() {
+        // Joule's law, Pa = (Va − Vk)·Ia: (338 − 11.6) V × 44.615 mA = 14.562 W.
+        assert!(close(plate_dissipation(Volts(338.0), Volts(11.6), Amps(0.044615)).0, 14.5624, 1e-3));
+    }
+
+    #[test]
+    fn fixed_bias_target_current() {
+        // Ia = f·Pa(max)/(Va − Vk) (domain notes, common practice bands 50–70 %):
+        // 0.5 × 12 W / 314 V = 19.11 mA; 0.7 × 12 W / 314 V = 26.75 mA.
+        assert!(close(target_current(0.5, Watts(12.0), Volts(314.0), Volts(0.0)).0, 0.019108, 1e-6));
+        assert!(close(target_current(0.7, Watts(12.0), Volts(314.0), Volts(0.0)).0, 0.026752, 1e-6));
+    }
+
+    #[test]
+    fn bands_for_fixed_and_cathode_bias() {
+        let s = Settings::default();
+        let v = |bias, pct: f64| dissipation_verdict(&s, bias, true, pct, pct, Watts(pct / 10.0), Watts(10.0), "").status;
+        // Common practice: fixed bias aim 50–70 %, cold below 50 %, caution above 70 %, over above 100 %.
+        assert_eq!(v(BiasKind::Fixed, 45.0), Status::Cold);
+        assert_eq!(v(BiasKind::Fixed, 60.0), Status::Ok);
+        assert_eq!(v(BiasKind::Fixed, 75.0), Status::Caution);
+        assert_eq!(v(BiasKind::Fixed, 101.0), Status::Over);
+        // Common practice: cathode bias caution above 90 %, over above 100 %.
+        assert_eq!(v(BiasKind::Cathode, 45.0), Status::Ok);
+        assert_eq!(v(BiasKind::Cathode, 89.0), Status::Ok);
+        assert_eq!(v(BiasKind::Cathode, 95.0), Status::Caution);
+        assert_eq!(v(BiasKind::Cathode, 121.0), Status::Over);
+    }
+}

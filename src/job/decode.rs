@@ -1,0 +1,833 @@
+//! The job-file schema, version 1: which nodes and properties exist and
+//! what each must hold. Decoding turns KDL into a [`Job`] or a list of
+//! problems; it computes nothing.
+
+use kdl::{KdlDocument, KdlNode};
+use miette::SourceSpan;
+
+use super::decode_error::{DecodeError, suggestion_help};
+use super::model::*;
+use super::reader::Reader;
+use crate::units::{Amps, Farads, Hertz, Ohms, QuantityKind as Q, Volts, Watts};
+
+/// The newest job-file format this build reads.
+pub const FORMAT_VERSION: u32 = 1;
+
+/// The top-level nodes of a job file.
+pub const TOP_LEVEL: &[&str] = &[
+    "job-format",
+    "job",
+    "customer",
+    "unit",
+    "mains",
+    "complaint",
+    "findings",
+    "work",
+    "valves",
+    "circuit",
+    "measurements",
+    "parts",
+    "mods",
+    "safety",
+    "notes",
+    "settings",
+];
+
+const SINGLETONS: &[&str] = &[
+    "job-format",
+    "job",
+    "customer",
+    "unit",
+    "mains",
+    "complaint",
+    "findings",
+    "work",
+    "valves",
+    "circuit",
+    "parts",
+    "mods",
+    "safety",
+    "notes",
+    "settings",
+];
+
+pub const CIRCUIT_NODES: &[&str] = &[
+    "bias",
+    "cathode-resistor",
+    "sense-resistor",
+    "screen-resistor",
+    "half-primary",
+    "node",
+    "dropper",
+    "filter-capacitor",
+    "high-voltage-winding",
+    "rectifier",
+];
+
+pub const SETTINGS: &[&str] = &[
+    "fixed-bias-low",
+    "fixed-bias-high",
+    "cathode-bias-caution",
+    "resistor-derating",
+    "capacitor-margin",
+    "heater-tolerance",
+    "node-tolerance",
+    "silicon-drop",
+];
+
+/// Decodes job text whose KDL syntax has already parsed.
+pub(crate) fn decode_document(doc: &KdlDocument, source_name: &str, r: &mut Reader) -> Option<Job> {
+    let nodes = r.children(Some(doc), TOP_LEVEL, "the job file");
+
+    // Repeated singletons.
+    for (i, node) in nodes.iter().enumerate() {
+        let name = node.name().value();
+        if SINGLETONS.contains(&name) && nodes[..i].iter().any(|n| n.name().value() == name) {
+            r.push(DecodeError::error(
+                "job::repeated-node",
+                Reader::name_span(node),
+                format!("`{name}` is given more than once"),
+                "repeated here",
+            )
+            .with_help(format!("a job file has one `{name}` node; merge them")));
+        }
+    }
+    let first = |name: &str| nodes.iter().copied().find(|n| n.name().value() == name);
+    let file_start = SourceSpan::new(0.into(), 0);
+
+    // Format version.
+    let mut format_version = FORMAT_VERSION;
+    match first("job-format") {
+        Some(node) => {
+            r.check_entries(node, &[], 1);
+            r.no_children(node);
+            if let Some(entry) = Reader::arg(node, 0) {
+                if let Some(v) = r.integer(entry, "the job-file format version", 1..=i64::from(u32::MAX)) {
+                    format_version = v as u32;
+                    if format_version > FORMAT_VERSION {
+                        r.push(DecodeError::error(
+                            "job::format-too-new",
+                            r.value_span(entry),
+                            format!("this job file uses format {format_version}, but this ampreport reads format {FORMAT_VERSION} at most"),
+                            "format version",
+                        )
+                        .with_help("update ampreport to read this file"));
+                    }
+                }
+            } else {
+                r.push(DecodeError::error("job::missing", Reader::name_span(node), "`job-format` needs the version number", "version missing")
+                    .with_help("write `job-format 1`"));
+            }
+        }
+        None => r.push(
+            DecodeError::error("job::missing-format", file_start, "the job file does not say which format it uses", "start of file")
+                .with_help("begin the file with `job-format 1`"),
+        ),
+    }
+
+    let info = match first("job") {
+        Some(node) => decode_info(node, r),
+        None => {
+            r.push(DecodeError::error("job::missing-node", file_start, "the job file has no `job` node", "start of file")
+                .with_help("add: job id=\"2026-001\" received=\"2026-11-02\" technician=\"…\""));
+            None
+        }
+    };
+    let customer = first("customer").and_then(|n| decode_customer(n, r));
+    let unit = match first("unit") {
+        Some(node) => decode_unit(node, r),
+        None => {
+            r.push(DecodeError::error("job::missing-node", file_start, "the job file has no `unit` node", "start of file")
+                .with_help("add: unit make=\"…\" model=\"…\" serial=\"…\""));
+            None
+        }
+    };
+    let mains = match first("mains") {
+        Some(node) => decode_mains(node, r),
+        None => {
+            r.push(DecodeError::error("job::missing-node", file_start, "the job file has no `mains` node", "start of file")
+                .with_help("add: mains nominal=\"120V\" frequency=\"60Hz\""));
+            None
+        }
+    };
+    let complaint = first("complaint").and_then(|n| text_node(n, r));
+    let findings = first("findings").and_then(|n| text_node(n, r));
+    let work = first("work").and_then(|n| text_node(n, r));
+    let valves = first("valves").map(|n| decode_valves(n, r)).unwrap_or_default();
+    let circuit = first("circuit").map(|n| decode_circuit(n, r)).unwrap_or_default();
+    let mut measurements = Vec::new();
+    for node in nodes.iter().filter(|n| n.name().value() == "measurements") {
+        if let Some(set) = decode_measurements(node, r) {
+            if measurements.iter().any(|m: &MeasurementSet| m.label == set.label) {
+                r.push(DecodeError::error(
+                    "job::repeated-set",
+                    Reader::name_span(node),
+                    format!("there are two measurement sets labelled \"{}\"", set.label),
+                    "repeated label",
+                ));
+            }
+            measurements.push(set);
+        }
+    }
+    let parts = first("parts").map(|n| decode_parts(n, r)).unwrap_or_default();
+    let mods = first("mods").map(|n| decode_mods(n, r)).unwrap_or_default();
+    let safety = first("safety").and_then(|n| decode_safety(n, r));
+    let notes = first("notes").map(|n| decode_notes(n, r)).unwrap_or_default();
+    let settings = first("settings").map(|n| decode_settings(n, r)).unwrap_or_default();
+
+    let job = Job {
+        source_name: source_name.to_string(),
+        format_version,
+        info: info?,
+        customer,
+        unit: unit?,
+        mains: mains?,
+        complaint,
+        findings,
+        work,
+        valves,
+        circuit,
+        measurements,
+        parts,
+        mods,
+        safety,
+        notes,
+        settings,
+    };
+    Some(job)
+}
+
+fn text_node(node: &KdlNode, r: &mut Reader) -> Option<String> {
+    r.check_entries(node, &[], 1);
+    r.no_children(node);
+    let what = format!("`{}`", node.name().value());
+    r.req_arg_string(node, &what, &format!("{} \"…\"", node.name().value())).map(|s| s.value)
+}
+
+fn decode_info(node: &KdlNode, r: &mut Reader) -> Option<JobInfo> {
+    r.check_entries(node, &["id", "received", "completed", "technician"], 0);
+    r.no_children(node);
+    let id = r.req_prop_string(node, "id", "job id=\"2026-001\"");
+    let received = r.opt_prop_date(node, "received");
+    let completed = r.opt_prop_date(node, "completed");
+    let technician = r.opt_prop_string(node, "technician");
+    if let (Some(rec), Some(done)) = (&received, &completed)
+        && done.value < rec.value
+    {
+        r.push(DecodeError::error(
+            "job::dates-out-of-order",
+            done.span,
+            format!("the job is completed ({}) before it was received ({})", done.value, rec.value),
+            "completed before received",
+        ));
+    }
+    Some(JobInfo {
+        id: id?.value,
+        received: received.map(|d| d.value),
+        completed: completed.map(|d| d.value),
+        technician,
+    })
+}
+
+fn decode_customer(node: &KdlNode, r: &mut Reader) -> Option<Customer> {
+    r.check_entries(node, &["name"], 0);
+    let name = r.req_prop_string(node, "name", "customer name=\"…\"");
+    let mut contacts = Vec::new();
+    for child in r.children(node.children(), &["contact"], "`customer`") {
+        if let Some(c) = text_node(child, r) {
+            contacts.push(c);
+        }
+    }
+    Some(Customer { name: name?.value, contacts })
+}
+
+fn decode_unit(node: &KdlNode, r: &mut Reader) -> Option<Unit> {
+    r.check_entries(node, &["make", "model", "serial", "year"], 0);
+    let make = r.req_prop_string(node, "make", "unit make=\"…\" model=\"…\"");
+    let model = r.req_prop_string(node, "model", "unit make=\"…\" model=\"…\"");
+    let serial = r.opt_prop_string(node, "serial");
+    let year = Reader::prop(node, "year").and_then(|e| r.integer(e, "`year`", 1900..=2100)).map(|y| y as i32);
+    let mut description = None;
+    let mut condition = None;
+    for child in r.children(node.children(), &["description", "condition"], "`unit`") {
+        let slot = if child.name().value() == "description" { &mut description } else { &mut condition };
+        if slot.is_some() {
+            r.push(DecodeError::error("job::repeated-node", Reader::name_span(child), format!("`{}` is given twice", child.name().value()), "repeated here"));
+        }
+        *slot = text_node(child, r);
+    }
+    Some(Unit { make: make?.value, model: model?.value, serial, year, description, condition })
+}
+
+fn decode_mains(node: &KdlNode, r: &mut Reader) -> Option<Mains> {
+    r.check_entries(node, &["nominal", "frequency", "tolerance", "design"], 0);
+    r.no_children(node);
+    let nominal = r.req_prop_quantity(node, "nominal", Q::Voltage, "mains nominal=\"120V\"");
+    let nominal = r.positive(nominal, "the nominal mains voltage", false);
+    let frequency = r.opt_prop_quantity(node, "frequency", Q::Frequency);
+    let frequency = r.positive(frequency, "the mains frequency", false);
+    let design = r.opt_prop_quantity(node, "design", Q::Voltage);
+    let design = r.positive(design, "the design mains voltage", false);
+    let tolerance = match Reader::prop(node, "tolerance") {
+        Some(e) => {
+            let t = r.quantity(e, Q::Percent, "`tolerance`");
+            let t = r.positive(t, "the supply tolerance", true)?;
+            if t.value > 30.0 {
+                r.push(DecodeError::warning("job::implausible", t.span, format!("a supply tolerance of {}% is unusually wide", t.value), "unusual"));
+            }
+            Spanned::new(t.value / 100.0, t.span)
+        }
+        None => {
+            // Defaults from the supply standards for the nominal given.
+            let n = nominal.as_ref().map(|n| n.value).unwrap_or(0.0);
+            let t = if (100.0..=130.0).contains(&n) { 0.05 } else { 0.10 };
+            Spanned::new(t, Reader::name_span(node))
+        }
+    };
+    if let Some(n) = &nominal
+        && !(90.0..=260.0).contains(&n.value)
+    {
+        r.push(DecodeError::warning(
+            "job::implausible",
+            n.span,
+            format!("{} V is not a usual mains voltage", n.value),
+            "unusual nominal mains",
+        ));
+    }
+    let nominal = nominal?;
+    Some(Mains {
+        nominal: Spanned::new(Volts(nominal.value), nominal.span),
+        frequency: frequency.map(|f| Hertz(f.value)),
+        tolerance,
+        design: design.map(|d| Spanned::new(Volts(d.value), d.span)),
+    })
+}
+
+fn decode_valves(node: &KdlNode, r: &mut Reader) -> Vec<ValvePosition> {
+    r.check_entries(node, &[], 0);
+    let mut out: Vec<ValvePosition> = Vec::new();
+    for child in r.children(node.children(), &["valve"], "`valves`") {
+        r.check_entries(child, &["type", "role"], 1);
+        r.no_children(child);
+        let position = r.req_arg_name(child, "a position", "valve V1 type=\"12AX7\" role=preamp");
+        let type_name = r.req_prop_name(child, "type", "valve V1 type=\"12AX7\" role=preamp");
+        let role = match Reader::prop(child, "role") {
+            Some(e) => match r.name(e, "`role`") {
+                Some(name) => match Role::from_name(&name.value) {
+                    Some(role) => Some(role),
+                    None => {
+                        r.push(DecodeError::error("job::unknown-role", name.span, format!("unknown valve role `{}`", name.value), "expected a role")
+                            .with_help(suggestion_help(&name.value, &Role::NAMES)));
+                        None
+                    }
+                },
+                None => None,
+            },
+            None => {
+                r.push(DecodeError::error("job::missing", Reader::name_span(child), "`valve` needs a `role` property", "role missing")
+                    .with_help(format!("one of: {}", Role::NAMES.join(", "))));
+                None
+            }
+        };
+        if let Some(p) = &position
+            && out.iter().any(|v| v.position.value == p.value)
+        {
+            r.push(DecodeError::error("job::repeated-position", p.span, format!("valve position {} is listed twice", p.value), "repeated here"));
+            continue;
+        }
+        if let (Some(position), Some(type_name), Some(role)) = (position, type_name, role) {
+            out.push(ValvePosition { position, type_name, role });
+        }
+    }
+    out
+}
+
+fn decode_circuit(node: &KdlNode, r: &mut Reader) -> Circuit {
+    r.check_entries(node, &[], 0);
+    let mut c = Circuit::default();
+    for child in r.children(node.children(), CIRCUIT_NODES, "`circuit`") {
+        r.no_children(child);
+        match child.name().value() {
+            "bias" => {
+                r.check_entries(child, &[], 1);
+                if let Some(kind) = r.req_arg_name(child, "the bias kind", "bias fixed") {
+                    let value = match kind.value.as_str() {
+                        "cathode" => Some(BiasKind::Cathode),
+                        "fixed" => Some(BiasKind::Fixed),
+                        other => {
+                            r.push(DecodeError::error("job::unknown-bias", kind.span, format!("unknown bias kind `{other}`"), "expected cathode or fixed")
+                                .with_help(suggestion_help(other, &["cathode", "fixed"])));
+                            None
+                        }
+                    };
+                    if c.bias.is_some() {
+                        r.push(DecodeError::error("job::repeated-node", Reader::name_span(child), "`bias` is given twice", "repeated here"));
+                    }
+                    if let Some(v) = value {
+                        c.bias = Some(Spanned::new(v, kind.span));
+                    }
+                }
+            }
+            "cathode-resistor" => {
+                r.check_entries(child, &["value", "rating", "valves"], 1);
+                let reference = r.req_arg_name(child, "a reference", "cathode-resistor R20 value=\"130\" rating=\"5W\" valves=\"V3 V4\"");
+                let value = ohms(r, child, "value", "cathode-resistor R20 value=\"130\"");
+                let rating = watts(r, child, "rating");
+                let valves = match r.req_prop_string(child, "valves", "valves=\"V3 V4\"") {
+                    Some(list) => split_names(&list),
+                    None => Vec::new(),
+                };
+                if let (Some(reference), Some(value)) = (reference, value) {
+                    c.cathode_resistors.push(CathodeResistor { reference: reference.value, value, rating, valves, span: child.span() });
+                }
+            }
+            "sense-resistor" => {
+                r.check_entries(child, &["value", "valve"], 1);
+                let reference = Reader::arg(child, 0).and_then(|e| r.name(e, "the reference"));
+                let value = ohms(r, child, "value", "sense-resistor R30 value=\"1R\" valve=V3");
+                let valve = r.req_prop_name(child, "valve", "sense-resistor R30 value=\"1R\" valve=V3");
+                if let Some(v) = &value
+                    && v.value.0 > 100.0
+                {
+                    r.push(DecodeError::warning("job::implausible", v.span, format!("a {} sense resistor is unusually large", v.value), "unusual")
+                        .with_help("sense resistors are usually 1 Ω or 10 Ω"));
+                }
+                if let (Some(value), Some(valve)) = (value, valve) {
+                    c.sense_resistors.push(SenseResistor { reference: reference.map(|r| r.value), value, valve });
+                }
+            }
+            "screen-resistor" => {
+                r.check_entries(child, &["value", "rating", "valve", "supply"], 1);
+                let example = "screen-resistor R25 value=\"470\" valve=V3 supply=B+2";
+                let reference = Reader::arg(child, 0).and_then(|e| r.name(e, "the reference"));
+                let value = ohms(r, child, "value", example);
+                let rating = watts(r, child, "rating");
+                let valve = r.req_prop_name(child, "valve", example);
+                let supply = r.req_prop_name(child, "supply", example);
+                if let (Some(value), Some(valve), Some(supply)) = (value, valve, supply) {
+                    c.screen_resistors.push(ScreenResistor { reference: reference.map(|r| r.value), value, rating, valve, supply });
+                }
+            }
+            "half-primary" => {
+                r.check_entries(child, &["valves", "resistance"], 0);
+                let example = "half-primary resistance=\"52R\" valves=\"V3\"";
+                let valves = match r.req_prop_string(child, "valves", example) {
+                    Some(list) => split_names(&list),
+                    None => Vec::new(),
+                };
+                let resistance = ohms(r, child, "resistance", example);
+                if let Some(resistance) = resistance
+                    && !valves.is_empty()
+                {
+                    c.half_primaries.push(HalfPrimary { valves, resistance });
+                }
+            }
+            "node" => {
+                r.check_entries(child, &["chart", "tolerance", "label"], 1);
+                let name = r.req_arg_name(child, "a node name", "node B+1 chart=\"350V\"");
+                let chart = volts_pos(r, child, "chart", "the chart voltage");
+                let tolerance = percent(r, child, "tolerance");
+                let label = r.opt_prop_string(child, "label");
+                if let Some(name) = name {
+                    if c.nodes.iter().any(|n| n.name.value == name.value) {
+                        r.push(DecodeError::error("job::repeated-node", name.span, format!("node {} is declared twice", name.value), "repeated here"));
+                    } else {
+                        c.nodes.push(NodeSpec { name, chart, tolerance, label });
+                    }
+                }
+            }
+            "dropper" => {
+                r.check_entries(child, &["value", "rating", "from", "to"], 1);
+                let example = "dropper R22 value=\"10k\" rating=\"1W\" from=B+1 to=B+2";
+                let reference = r.req_arg_name(child, "a reference", example);
+                let value = ohms(r, child, "value", example);
+                let rating = watts(r, child, "rating");
+                let from = r.req_prop_name(child, "from", example);
+                let to = r.req_prop_name(child, "to", example);
+                if let (Some(reference), Some(value), Some(from), Some(to)) = (reference, value, from, to) {
+                    c.droppers.push(Dropper { reference: reference.value, value, rating, from, to, span: child.span() });
+                }
+            }
+            "filter-capacitor" => {
+                r.check_entries(child, &["value", "rating", "node"], 1);
+                let example = "filter-capacitor C10 value=\"40u\" rating=\"450V\" node=B+1";
+                let reference = r.req_arg_name(child, "a reference", example);
+                let value = r.opt_prop_quantity(child, "value", Q::Capacitance);
+                let value = r.positive(value, "a capacitance", false).map(|v| Farads(v.value));
+                let rating = r.req_prop_quantity(child, "rating", Q::Voltage, example);
+                let rating = r.positive(rating, "a voltage rating", false);
+                let node_name = r.req_prop_name(child, "node", example);
+                if let (Some(reference), Some(rating), Some(node_name)) = (reference, rating, node_name) {
+                    c.filter_capacitors.push(FilterCapacitor {
+                        reference: reference.value,
+                        value,
+                        rating: Spanned::new(Volts(rating.value), rating.span),
+                        node: node_name,
+                        span: child.span(),
+                    });
+                }
+            }
+            "high-voltage-winding" => {
+                r.check_entries(child, &["rms", "primary"], 0);
+                let example = "high-voltage-winding rms=\"275V\" primary=\"117V\"";
+                let rms = r.req_prop_quantity(child, "rms", Q::Voltage, example);
+                let rms = r.positive(rms, "the winding voltage", false);
+                let primary = r.req_prop_quantity(child, "primary", Q::Voltage, example);
+                let primary = r.positive(primary, "the primary voltage", false);
+                if c.winding.is_some() {
+                    r.push(DecodeError::error("job::repeated-node", Reader::name_span(child), "`high-voltage-winding` is given twice", "repeated here"));
+                }
+                if let (Some(rms), Some(primary)) = (rms, primary) {
+                    c.winding = Some(Winding {
+                        rms: Spanned::new(Volts(rms.value), rms.span),
+                        primary: Spanned::new(Volts(primary.value), primary.span),
+                    });
+                }
+            }
+            "rectifier" => {
+                r.check_entries(child, &["drop"], 1);
+                let what = r.req_arg_name(child, "`silicon` or the rectifier valve's position", "rectifier V5   or   rectifier silicon");
+                let drop = r.opt_prop_quantity(child, "drop", Q::Voltage);
+                let drop = r.positive(drop, "the rectifier drop", true).map(|d| Volts(d.value));
+                if c.rectifier.is_some() {
+                    r.push(DecodeError::error("job::repeated-node", Reader::name_span(child), "`rectifier` is given twice", "repeated here"));
+                }
+                if let Some(what) = what {
+                    let kind = if what.value == "silicon" { RectifierKind::Silicon } else { RectifierKind::Valve(what) };
+                    c.rectifier = Some(Rectifier { kind, drop });
+                }
+            }
+            _ => {}
+        }
+    }
+    c
+}
+
+fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet> {
+    r.check_entries(node, &["mains", "date"], 1);
+    let example = "measurements \"as found\" mains=\"121V\"";
+    let label = r.req_arg_string(node, "a label such as \"as found\"", example);
+    let mains = r.req_prop_quantity(node, "mains", Q::Voltage, example);
+    let mains = r.positive(mains, "the mains voltage", false);
+    let date = r.opt_prop_date(node, "date");
+    let mut nodes: Vec<NodeReading> = Vec::new();
+    let mut valves: Vec<ValveReading> = Vec::new();
+    let mut heaters = Vec::new();
+    let mut circuit_changes = Circuit::default();
+    for child in r.children(node.children(), &["node", "valve", "heater", "circuit"], "a measurement set") {
+        if child.name().value() == "circuit" {
+            circuit_changes = decode_circuit(child, r);
+            continue;
+        }
+        r.no_children(child);
+        match child.name().value() {
+            "node" => {
+                r.check_entries(child, &["chart", "tolerance"], 2);
+                let name = r.req_arg_name(child, "a node name and its voltage", "node B+1 \"352V\"");
+                let volts = match Reader::arg(child, 1) {
+                    Some(e) => r.quantity(e, Q::Voltage, "the node voltage"),
+                    None => {
+                        r.push(DecodeError::error("job::missing", Reader::name_span(child), "`node` needs the voltage read", "voltage missing")
+                            .with_help("for example: node B+1 \"352V\""));
+                        None
+                    }
+                };
+                let chart = volts_pos(r, child, "chart", "the chart voltage");
+                let tolerance = percent(r, child, "tolerance");
+                if let (Some(name), Some(volts)) = (name, volts) {
+                    if nodes.iter().any(|n| n.name.value == name.value) {
+                        r.push(DecodeError::error("job::repeated-reading", name.span, format!("node {} is read twice in this set", name.value), "repeated here"));
+                        continue;
+                    }
+                    nodes.push(NodeReading { name, volts: Spanned::new(Volts(volts.value), volts.span), chart, tolerance });
+                }
+            }
+            "valve" => {
+                let keys = ["plate", "screen", "cathode", "grid", "sense", "primary-drop", "current", "method"];
+                r.check_entries(child, &keys, 1);
+                let position = r.req_arg_name(child, "a valve position", "valve V3 plate=\"352V\" cathode=\"11.2V\"");
+                let v = |r: &mut Reader, key: &str| r.opt_prop_quantity(child, key, Q::Voltage).map(|s| Spanned::new(Volts(s.value), s.span));
+                let plate = v(r, "plate");
+                let screen = v(r, "screen");
+                let cathode = v(r, "cathode");
+                let grid = v(r, "grid");
+                let sense = v(r, "sense");
+                let primary_drop = v(r, "primary-drop");
+                let current = r.opt_prop_quantity(child, "current", Q::Current);
+                let current = r.positive(current, "a valve current", true);
+                let method = match Reader::prop(child, "method").and_then(|e| r.name(e, "`method`")) {
+                    Some(m) => match m.value.as_str() {
+                        "probe" => Some(CurrentMethod::Probe),
+                        "shunt" => Some(CurrentMethod::Shunt),
+                        other => {
+                            r.push(DecodeError::error("job::unknown-method", m.span, format!("unknown current method `{other}`"), "expected probe or shunt")
+                                .with_help("probe: a bias probe under the valve (cathode current); shunt: an ammeter across half the primary (plate current)"));
+                            None
+                        }
+                    },
+                    None => None,
+                };
+                let current = match (current, method) {
+                    (Some(c), Some(m)) => Some((Spanned::new(Amps(c.value), c.span), m)),
+                    (Some(c), None) => {
+                        r.push(DecodeError::error("job::missing", c.span, "a current read directly needs its method", "method missing")
+                            .with_help("add method=probe (bias probe: cathode current) or method=shunt (shunt across half the primary: plate current)"));
+                        None
+                    }
+                    (None, Some(_)) => {
+                        if let Some(e) = Reader::prop(child, "method") {
+                            r.push(DecodeError::error("job::missing", r.value_span(e), "`method` is given without a `current`", "no current to go with it"));
+                        }
+                        None
+                    }
+                    (None, None) => None,
+                };
+                for reading in [&plate, &screen].into_iter().flatten() {
+                    if reading.value.0 > 1500.0 {
+                        r.push(DecodeError::warning("job::implausible", reading.span, format!("{} is unusually high for a valve amplifier", reading.value), "unusual"));
+                    }
+                }
+                if let Some(p) = &position {
+                    if valves.iter().any(|v| v.position.value == p.value) {
+                        r.push(DecodeError::error("job::repeated-reading", p.span, format!("valve {} is read twice in this set", p.value), "repeated here"));
+                        continue;
+                    }
+                    valves.push(ValveReading { position: p.clone(), plate, screen, cathode, grid, sense, primary_drop, current, span: child.span() });
+                }
+            }
+            "heater" => {
+                r.check_entries(child, &["nominal", "label"], 1);
+                let volts = match Reader::arg(child, 0) {
+                    Some(e) => r.quantity(e, Q::Voltage, "the heater voltage"),
+                    None => {
+                        r.push(DecodeError::error("job::missing", Reader::name_span(child), "`heater` needs the voltage read", "voltage missing")
+                            .with_help("for example: heater \"6.4V\""));
+                        None
+                    }
+                };
+                let volts = r.positive(volts, "a heater voltage", true);
+                let nominal = volts_pos(r, child, "nominal", "the heater nominal voltage").unwrap_or(Volts(6.3));
+                let label = r.opt_prop_string(child, "label");
+                if let Some(v) = volts {
+                    heaters.push(HeaterReading { volts: Spanned::new(Volts(v.value), v.span), nominal, label });
+                }
+            }
+            _ => {}
+        }
+    }
+    let mains = mains?;
+    Some(MeasurementSet {
+        label: label?.value,
+        mains: Spanned::new(Volts(mains.value), mains.span),
+        date: date.map(|d| d.value),
+        nodes,
+        valves,
+        heaters,
+        circuit_changes,
+        span: node.span(),
+    })
+}
+
+fn decode_parts(node: &KdlNode, r: &mut Reader) -> Vec<PartChange> {
+    r.check_entries(node, &[], 0);
+    let mut out = Vec::new();
+    for child in r.children(node.children(), &["part"], "`parts`") {
+        r.check_entries(child, &["was", "now", "reason", "original-kept"], 1);
+        r.no_children(child);
+        let reference = r.req_arg_name(child, "a reference", "part C10 was=\"…\" now=\"…\" reason=\"…\"");
+        let was = r.opt_prop_string(child, "was");
+        let now = r.opt_prop_string(child, "now");
+        let reason = r.opt_prop_string(child, "reason");
+        let original_kept = r.opt_prop_bool(child, "original-kept");
+        if let Some(reference) = reference {
+            out.push(PartChange { reference: reference.value, was, now, reason, original_kept });
+        }
+    }
+    out
+}
+
+fn decode_mods(node: &KdlNode, r: &mut Reader) -> Vec<Modification> {
+    r.check_entries(node, &[], 0);
+    let mut out = Vec::new();
+    for child in r.children(node.children(), &["mod"], "`mods`") {
+        r.check_entries(child, &["why", "reversible", "original-kept"], 1);
+        r.no_children(child);
+        let what = r.req_arg_string(child, "a description", "mod \"…\" why=\"…\" reversible=#true");
+        let why = r.opt_prop_string(child, "why");
+        let reversible = r.opt_prop_bool(child, "reversible");
+        let original_kept = r.opt_prop_bool(child, "original-kept");
+        if let Some(what) = what {
+            out.push(Modification { what: what.value, why, reversible, original_kept });
+        }
+    }
+    out
+}
+
+fn decode_safety(node: &KdlNode, r: &mut Reader) -> Option<Safety> {
+    r.check_entries(node, &["class"], 0);
+    let class = match Reader::prop(node, "class").and_then(|e| r.name(e, "`class`")) {
+        Some(c) => match c.value.as_str() {
+            "I" | "1" => ProtectionClass::One,
+            "II" | "2" => ProtectionClass::Two,
+            other => {
+                r.push(DecodeError::error("job::unknown-class", c.span, format!("unknown protection class `{other}`"), "expected I or II"));
+                ProtectionClass::One
+            }
+        },
+        None => ProtectionClass::One,
+    };
+    let mut tests = Vec::new();
+    for child in r.children(node.children(), &["earth-continuity", "insulation", "leakage"], "`safety`") {
+        r.no_children(child);
+        let reading = |r: &mut Reader, kind: Q, example: &str| match Reader::arg(child, 0) {
+            Some(e) => {
+                let q = r.quantity(e, kind, "the reading");
+                r.positive(q, "the reading", true).map(|q| q.value)
+            }
+            None => {
+                r.push(DecodeError::error("job::missing", Reader::name_span(child), format!("`{}` needs the reading", child.name().value()), "reading missing")
+                    .with_help(format!("for example: {example}")));
+                None
+            }
+        };
+        match child.name().value() {
+            "earth-continuity" => {
+                r.check_entries(child, &["limit", "cord"], 1);
+                let example = "earth-continuity \"0.05R\" limit=\"0.1R\" cord=\"0.04R\"";
+                let measured = reading(r, Q::Resistance, example);
+                let limit = ohms(r, child, "limit", example);
+                let cord = r.opt_prop_quantity(child, "cord", Q::Resistance);
+                let cord = r.positive(cord, "the cord resistance", true).map(|c| Ohms(c.value));
+                if let (Some(measured), Some(limit)) = (measured, limit) {
+                    tests.push(SafetyTest::EarthContinuity { measured: Ohms(measured), limit: limit.value, cord });
+                }
+            }
+            "insulation" => {
+                r.check_entries(child, &["test-voltage", "minimum", "over-range"], 1);
+                let example = "insulation \"200M\" test-voltage=\"500V\" minimum=\"1M\"";
+                let measured = reading(r, Q::Resistance, example);
+                let test_voltage = volts_req(r, child, "test-voltage", example);
+                let minimum = ohms(r, child, "minimum", example);
+                let over_range = r.opt_prop_bool(child, "over-range").unwrap_or(false);
+                if let (Some(measured), Some(test_voltage), Some(minimum)) = (measured, test_voltage, minimum) {
+                    tests.push(SafetyTest::Insulation { measured: Ohms(measured), over_range, test_voltage, minimum: minimum.value });
+                }
+            }
+            "leakage" => {
+                r.check_entries(child, &["limit"], 1);
+                let example = "leakage \"0.05mA\" limit=\"0.5mA\"";
+                let measured = reading(r, Q::Current, example);
+                let limit = r.req_prop_quantity(child, "limit", Q::Current, example);
+                let limit = r.positive(limit, "the leakage limit", false);
+                if let (Some(measured), Some(limit)) = (measured, limit) {
+                    tests.push(SafetyTest::Leakage { measured: Amps(measured), limit: Amps(limit.value) });
+                }
+            }
+            _ => {}
+        }
+    }
+    Some(Safety { class, tests })
+}
+
+fn decode_notes(node: &KdlNode, r: &mut Reader) -> Vec<String> {
+    r.check_entries(node, &[], 0);
+    let mut out = Vec::new();
+    for child in r.children(node.children(), &["note"], "`notes`") {
+        if let Some(t) = text_node(child, r) {
+            out.push(t);
+        }
+    }
+    out
+}
+
+fn decode_settings(node: &KdlNode, r: &mut Reader) -> Settings {
+    r.check_entries(node, &[], 0);
+    let mut s = Settings::default();
+    for child in r.children(node.children(), SETTINGS, "`settings`") {
+        r.check_entries(child, &[], 1);
+        r.no_children(child);
+        let name = child.name().value();
+        let Some(entry) = Reader::arg(child, 0) else {
+            r.push(DecodeError::error("job::missing", Reader::name_span(child), format!("`{name}` needs a value"), "value missing"));
+            continue;
+        };
+        if name == "silicon-drop" {
+            if let Some(v) = r.quantity(entry, Q::Voltage, "`silicon-drop`") {
+                s.silicon_drop = Volts(v.value);
+            }
+            continue;
+        }
+        let Some(p) = r.quantity(entry, Q::Percent, &format!("`{name}`")) else { continue };
+        if !(0.0..=200.0).contains(&p.value) {
+            r.push(DecodeError::error("job::impossible-value", p.span, format!("`{name}` must be between 0% and 200%"), "out of range"));
+            continue;
+        }
+        let f = p.value / 100.0;
+        match name {
+            "fixed-bias-low" => s.fixed_bias_low = f,
+            "fixed-bias-high" => s.fixed_bias_high = f,
+            "cathode-bias-caution" => s.cathode_bias_caution = f,
+            "resistor-derating" => s.resistor_derating = f,
+            "capacitor-margin" => s.capacitor_margin = f,
+            "heater-tolerance" => s.heater_tolerance = f,
+            "node-tolerance" => s.node_tolerance = f,
+            _ => {}
+        }
+    }
+    if s.fixed_bias_low > s.fixed_bias_high {
+        r.push(DecodeError::error(
+            "job::settings-order",
+            node.name().span(),
+            "`fixed-bias-low` is above `fixed-bias-high`",
+            "these settings",
+        ));
+    }
+    s
+}
+
+// ----- small shared readers ---------------------------------------------------
+
+fn ohms(r: &mut Reader, node: &KdlNode, key: &str, example: &str) -> Option<Spanned<Ohms>> {
+    let q = r.req_prop_quantity(node, key, Q::Resistance, example);
+    r.positive(q, "a resistance", false).map(|q| Spanned::new(Ohms(q.value), q.span))
+}
+
+fn watts(r: &mut Reader, node: &KdlNode, key: &str) -> Option<Watts> {
+    let q = r.opt_prop_quantity(node, key, Q::Power);
+    r.positive(q, "a power rating", false).map(|q| Watts(q.value))
+}
+
+fn volts_pos(r: &mut Reader, node: &KdlNode, key: &str, what: &str) -> Option<Volts> {
+    let q = r.opt_prop_quantity(node, key, Q::Voltage);
+    r.positive(q, what, false).map(|q| Volts(q.value))
+}
+
+fn volts_req(r: &mut Reader, node: &KdlNode, key: &str, example: &str) -> Option<Volts> {
+    let q = r.req_prop_quantity(node, key, Q::Voltage, example);
+    r.positive(q, "a test voltage", false).map(|q| Volts(q.value))
+}
+
+fn percent(r: &mut Reader, node: &KdlNode, key: &str) -> Option<f64> {
+    let q = r.opt_prop_quantity(node, key, Q::Percent);
+    r.positive(q, "a tolerance", true).map(|q| q.value / 100.0)
+}
+
+/// Splits "V3 V4" or "V3, V4" into names, each with its own span.
+fn split_names(list: &Spanned<String>) -> Vec<Spanned<String>> {
+    let mut out = Vec::new();
+    let base = list.span.offset() + 1; // after the opening quote
+    let text = &list.value;
+    let mut start = None;
+    for (i, c) in text.char_indices().chain(std::iter::once((text.len(), ' '))) {
+        let sep = c.is_whitespace() || c == ',';
+        match (sep, start) {
+            (false, None) => start = Some(i),
+            (true, Some(s)) => {
+                out.push(Spanned::new(text[s..i].to_string(), SourceSpan::new((base + s).into(), i - s)));
+                start = None;
+            }
+            _ => {}
+        }
+    }
+    out
+}

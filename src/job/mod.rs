@@ -1,0 +1,83 @@
+//! The job file: decoding KDL into a typed [`Job`] whose values keep their
+//! source spans. Every problem is collected into one [`JobDiagnostics`].
+
+mod decode;
+mod decode_error;
+mod model;
+mod reader;
+mod validate;
+
+pub use decode::{CIRCUIT_NODES, FORMAT_VERSION, SETTINGS, TOP_LEVEL};
+pub use decode_error::{DecodeError, JobDiagnostics, did_you_mean, line_column, suggestion_help};
+pub use model::*;
+
+use miette::{NamedSource, SourceSpan};
+use std::sync::Arc;
+
+/// A decoded job and any warnings found on the way.
+#[derive(Debug, Clone)]
+pub struct Decoded {
+    pub job: Job,
+    /// Warnings only; errors would have stopped the decode.
+    pub diagnostics: JobDiagnostics,
+}
+
+/// Decodes job-file text. `name` is the file name used in messages.
+/// Never panics, whatever the text.
+pub fn decode(name: &str, text: &str) -> Result<Decoded, JobDiagnostics> {
+    let source = NamedSource::new(name, Arc::new(text.to_string())).with_language("kdl");
+    let mut problems = Vec::new();
+    let job = match kdl::KdlDocument::parse(text) {
+        Ok(doc) => {
+            let mut reader = reader::Reader::new(text);
+            let job = decode::decode_document(&doc, name, &mut reader);
+            problems.append(&mut reader.problems);
+            if let Some(job) = &job {
+                problems.extend(validate::cross_references(job));
+            }
+            job
+        }
+        Err(e) => {
+            problems.extend(syntax_problems(&e));
+            None
+        }
+    };
+    problems.sort_by_key(|p| p.span.offset());
+    let diagnostics = JobDiagnostics { source, problems };
+    match job {
+        Some(job) if !diagnostics.has_errors() => Ok(Decoded { job, diagnostics }),
+        _ => {
+            let mut diagnostics = diagnostics;
+            if !diagnostics.has_errors() {
+                // Defensive: a job that could not be built always says why.
+                diagnostics.problems.push(DecodeError::error(
+                    "job::incomplete",
+                    SourceSpan::new(0.into(), 0),
+                    "the job file is incomplete",
+                    "here",
+                ));
+            }
+            Err(diagnostics)
+        }
+    }
+}
+
+/// KDL syntax errors, as our own problems so they render alike.
+fn syntax_problems(e: &kdl::KdlError) -> Vec<DecodeError> {
+    e.diagnostics
+        .iter()
+        .map(|d| {
+            let message = d.message.clone().unwrap_or_else(|| "the KDL syntax is broken here".to_string());
+            let mut p = DecodeError::error(
+                "job::syntax",
+                d.span,
+                format!("KDL syntax: {message}"),
+                d.label.clone().unwrap_or_else(|| "here".to_string()),
+            );
+            p.help = Some(d.help.clone().unwrap_or_else(|| {
+                "job files are KDL 2.0: text in double quotes, booleans as #true/#false, one node per line".to_string()
+            }));
+            p
+        })
+        .collect()
+}

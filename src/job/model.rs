@@ -1,0 +1,480 @@
+//! The typed job: what a decoded job file holds. Every value that the
+//! calculation pass may complain about keeps the span of its source text, so
+//! a finding can point back at the line that caused it.
+
+use chrono::NaiveDate;
+use miette::SourceSpan;
+use serde::Serialize;
+
+use crate::units::{Amps, Farads, Hertz, Ohms, Volts, Watts};
+
+/// A value with the place in the job file it came from.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Spanned<T> {
+    pub value: T,
+    #[serde(skip)]
+    pub span: SourceSpan,
+}
+
+impl<T> Spanned<T> {
+    pub fn new(value: T, span: SourceSpan) -> Self {
+        Spanned { value, span }
+    }
+}
+
+impl<T> std::ops::Deref for Spanned<T> {
+    type Target = T;
+    fn deref(&self) -> &T {
+        &self.value
+    }
+}
+
+/// One repair job, as written by the technician.
+#[derive(Debug, Clone, Serialize)]
+pub struct Job {
+    /// The file name the job came from, for messages.
+    pub source_name: String,
+    pub format_version: u32,
+    pub info: JobInfo,
+    pub customer: Option<Customer>,
+    pub unit: Unit,
+    pub mains: Mains,
+    pub complaint: Option<String>,
+    pub findings: Option<String>,
+    pub work: Option<String>,
+    pub valves: Vec<ValvePosition>,
+    pub circuit: Circuit,
+    pub measurements: Vec<MeasurementSet>,
+    pub parts: Vec<PartChange>,
+    pub mods: Vec<Modification>,
+    pub safety: Option<Safety>,
+    pub notes: Vec<String>,
+    pub settings: Settings,
+}
+
+impl Job {
+    /// The valve at a position in the line-up, if there is one.
+    pub fn valve(&self, position: &str) -> Option<&ValvePosition> {
+        self.valves.iter().find(|v| v.position.value == position)
+    }
+
+    /// The circuit as it stood for a measurement set.
+    pub fn circuit_for(&self, set: &MeasurementSet) -> Circuit {
+        self.circuit.with_changes(&set.circuit_changes)
+    }
+
+    /// The circuit's declaration of a B+ node, if there is one.
+    pub fn node(&self, name: &str) -> Option<&NodeSpec> {
+        self.circuit.nodes.iter().find(|n| n.name.value == name)
+    }
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct JobInfo {
+    pub id: String,
+    pub received: Option<NaiveDate>,
+    pub completed: Option<NaiveDate>,
+    pub technician: Option<String>,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct Customer {
+    pub name: String,
+    pub contacts: Vec<String>,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct Unit {
+    pub make: String,
+    pub model: String,
+    pub serial: Option<String>,
+    pub year: Option<i32>,
+    pub description: Option<String>,
+    pub condition: Option<String>,
+}
+
+/// The supply the unit runs from, and the supply its factory chart assumes.
+#[derive(Debug, Clone, Serialize)]
+pub struct Mains {
+    /// Local nominal voltage (120 V, 230 V …).
+    pub nominal: Spanned<Volts>,
+    pub frequency: Option<Hertz>,
+    /// Upper supply tolerance as a fraction (0.05 for +5 %), for the
+    /// high-line projection.
+    pub tolerance: Spanned<f64>,
+    /// The mains voltage the unit's voltage chart was drawn at.
+    pub design: Option<Spanned<Volts>>,
+}
+
+/// What a valve does in the circuit.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[serde(rename_all = "snake_case")]
+pub enum Role {
+    Preamp,
+    PhaseInverter,
+    Output,
+    Rectifier,
+    Tremolo,
+    ReverbDriver,
+    ReverbRecovery,
+    Other,
+}
+
+impl Role {
+    pub const NAMES: [&'static str; 8] = [
+        "preamp",
+        "phase-inverter",
+        "output",
+        "rectifier",
+        "tremolo",
+        "reverb-driver",
+        "reverb-recovery",
+        "other",
+    ];
+
+    pub fn from_name(name: &str) -> Option<Role> {
+        Some(match name {
+            "preamp" => Role::Preamp,
+            "phase-inverter" => Role::PhaseInverter,
+            "output" => Role::Output,
+            "rectifier" => Role::Rectifier,
+            "tremolo" => Role::Tremolo,
+            "reverb-driver" => Role::ReverbDriver,
+            "reverb-recovery" => Role::ReverbRecovery,
+            "other" => Role::Other,
+            _ => return None,
+        })
+    }
+
+    /// Plain words for a page.
+    pub fn words(self) -> &'static str {
+        match self {
+            Role::Preamp => "preamp",
+            Role::PhaseInverter => "phase inverter",
+            Role::Output => "output",
+            Role::Rectifier => "rectifier",
+            Role::Tremolo => "tremolo",
+            Role::ReverbDriver => "reverb driver",
+            Role::ReverbRecovery => "reverb recovery",
+            Role::Other => "other",
+        }
+    }
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct ValvePosition {
+    pub position: Spanned<String>,
+    /// The type as written ("6BQ5"); the ratings table resolves it.
+    pub type_name: Spanned<String>,
+    pub role: Role,
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[serde(rename_all = "snake_case")]
+pub enum BiasKind {
+    Cathode,
+    Fixed,
+}
+
+/// Circuit facts the calculations need.
+#[derive(Debug, Clone, Default, Serialize)]
+pub struct Circuit {
+    pub bias: Option<Spanned<BiasKind>>,
+    pub cathode_resistors: Vec<CathodeResistor>,
+    pub sense_resistors: Vec<SenseResistor>,
+    pub screen_resistors: Vec<ScreenResistor>,
+    pub half_primaries: Vec<HalfPrimary>,
+    pub nodes: Vec<NodeSpec>,
+    pub droppers: Vec<Dropper>,
+    pub filter_capacitors: Vec<FilterCapacitor>,
+    pub winding: Option<Winding>,
+    pub rectifier: Option<Rectifier>,
+}
+
+impl Circuit {
+    pub fn cathode_resistor_for(&self, position: &str) -> Option<&CathodeResistor> {
+        self.cathode_resistors.iter().find(|r| r.valves.iter().any(|v| v.value == position))
+    }
+    pub fn sense_resistor_for(&self, position: &str) -> Option<&SenseResistor> {
+        self.sense_resistors.iter().find(|r| r.valve.value == position)
+    }
+    pub fn screen_resistor_for(&self, position: &str) -> Option<&ScreenResistor> {
+        self.screen_resistors.iter().find(|r| r.valve.value == position)
+    }
+    pub fn half_primary_for(&self, position: &str) -> Option<&HalfPrimary> {
+        self.half_primaries.iter().find(|r| r.valves.iter().any(|v| v.value == position))
+    }
+
+    /// This circuit with `changes` laid over it: a fact in `changes`
+    /// replaces the fact with the same reference (or, for resistors tied to
+    /// one valve, the same valve; for the bias, winding and rectifier, the
+    /// single fact).
+    pub fn with_changes(&self, changes: &Circuit) -> Circuit {
+        fn merge<T: Clone>(base: &[T], changes: &[T], same: impl Fn(&T, &T) -> bool) -> Vec<T> {
+            let mut out: Vec<T> = base.iter().filter(|b| !changes.iter().any(|c| same(b, c))).cloned().collect();
+            out.extend(changes.iter().cloned());
+            out
+        }
+        fn names(v: &[Spanned<String>]) -> Vec<&str> {
+            v.iter().map(|s| s.value.as_str()).collect()
+        }
+        Circuit {
+            bias: changes.bias.clone().or_else(|| self.bias.clone()),
+            cathode_resistors: merge(&self.cathode_resistors, &changes.cathode_resistors, |a, b| {
+                a.reference == b.reference || names(&a.valves).iter().any(|v| names(&b.valves).contains(v))
+            }),
+            sense_resistors: merge(&self.sense_resistors, &changes.sense_resistors, |a, b| a.valve.value == b.valve.value),
+            screen_resistors: merge(&self.screen_resistors, &changes.screen_resistors, |a, b| a.valve.value == b.valve.value),
+            half_primaries: merge(&self.half_primaries, &changes.half_primaries, |a, b| {
+                names(&a.valves).iter().any(|v| names(&b.valves).contains(v))
+            }),
+            nodes: merge(&self.nodes, &changes.nodes, |a, b| a.name.value == b.name.value),
+            droppers: merge(&self.droppers, &changes.droppers, |a, b| a.reference == b.reference),
+            filter_capacitors: merge(&self.filter_capacitors, &changes.filter_capacitors, |a, b| a.reference == b.reference),
+            winding: changes.winding.clone().or_else(|| self.winding.clone()),
+            rectifier: changes.rectifier.clone().or_else(|| self.rectifier.clone()),
+        }
+    }
+}
+
+/// A cathode resistor, possibly shared by a push-pull pair.
+#[derive(Debug, Clone, Serialize)]
+pub struct CathodeResistor {
+    pub reference: String,
+    pub value: Spanned<Ohms>,
+    pub rating: Option<Watts>,
+    pub valves: Vec<Spanned<String>>,
+    #[serde(skip)]
+    pub span: SourceSpan,
+}
+
+/// A low-value resistor from cathode to ground fitted for bias checks.
+#[derive(Debug, Clone, Serialize)]
+pub struct SenseResistor {
+    pub reference: Option<String>,
+    pub value: Spanned<Ohms>,
+    pub valve: Spanned<String>,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct ScreenResistor {
+    pub reference: Option<String>,
+    pub value: Spanned<Ohms>,
+    pub rating: Option<Watts>,
+    pub valve: Spanned<String>,
+    /// The B+ node feeding the resistor.
+    pub supply: Spanned<String>,
+}
+
+/// DC resistance of the half of the output transformer primary feeding a
+/// valve's plate, measured cold with the power off.
+#[derive(Debug, Clone, Serialize)]
+pub struct HalfPrimary {
+    /// The valves whose plates this half feeds (two for a parallel pair).
+    pub valves: Vec<Spanned<String>>,
+    pub resistance: Spanned<Ohms>,
+}
+
+/// A named node of the supply, with the factory chart's figure.
+#[derive(Debug, Clone, Serialize)]
+pub struct NodeSpec {
+    pub name: Spanned<String>,
+    pub chart: Option<Volts>,
+    /// Tolerance as a fraction.
+    pub tolerance: Option<f64>,
+    pub label: Option<String>,
+}
+
+/// A series resistor between two filter nodes.
+#[derive(Debug, Clone, Serialize)]
+pub struct Dropper {
+    pub reference: String,
+    pub value: Spanned<Ohms>,
+    pub rating: Option<Watts>,
+    pub from: Spanned<String>,
+    pub to: Spanned<String>,
+    #[serde(skip)]
+    pub span: SourceSpan,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct FilterCapacitor {
+    pub reference: String,
+    pub value: Option<Farads>,
+    pub rating: Spanned<Volts>,
+    pub node: Spanned<String>,
+    #[serde(skip)]
+    pub span: SourceSpan,
+}
+
+/// The power transformer's high-voltage winding.
+#[derive(Debug, Clone, Serialize)]
+pub struct Winding {
+    /// RMS volts per side of a centre-tapped full-wave winding.
+    pub rms: Spanned<Volts>,
+    /// The primary voltage the winding's figure is rated at.
+    pub primary: Spanned<Volts>,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub enum RectifierKind {
+    Silicon,
+    /// A valve rectifier at a position in the line-up.
+    Valve(Spanned<String>),
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct Rectifier {
+    pub kind: RectifierKind,
+    /// Forward drop at no load, if the job gives one.
+    pub drop: Option<Volts>,
+}
+
+/// One round of readings: "as found", "as left" or any other label.
+#[derive(Debug, Clone, Serialize)]
+pub struct MeasurementSet {
+    pub label: String,
+    pub mains: Spanned<Volts>,
+    pub date: Option<NaiveDate>,
+    pub nodes: Vec<NodeReading>,
+    pub valves: Vec<ValveReading>,
+    pub heaters: Vec<HeaterReading>,
+    /// Circuit facts that differ for this set (parts changed since the
+    /// circuit block was written), laid over the job's circuit.
+    pub circuit_changes: Circuit,
+    #[serde(skip)]
+    pub span: SourceSpan,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct NodeReading {
+    pub name: Spanned<String>,
+    pub volts: Spanned<Volts>,
+    /// Chart figure and tolerance given on the reading itself; they take
+    /// precedence over the circuit's node declaration.
+    pub chart: Option<Volts>,
+    pub tolerance: Option<f64>,
+}
+
+/// How a current was read directly.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[serde(rename_all = "snake_case")]
+pub enum CurrentMethod {
+    /// A bias probe under the valve: reads cathode current.
+    Probe,
+    /// An ammeter across half the output transformer primary: reads plate current.
+    Shunt,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct ValveReading {
+    pub position: Spanned<String>,
+    pub plate: Option<Spanned<Volts>>,
+    pub screen: Option<Spanned<Volts>>,
+    pub cathode: Option<Spanned<Volts>>,
+    pub grid: Option<Spanned<Volts>>,
+    /// Voltage across the valve's sense resistor.
+    pub sense: Option<Spanned<Volts>>,
+    /// Voltage across the half primary feeding the plate.
+    pub primary_drop: Option<Spanned<Volts>>,
+    pub current: Option<(Spanned<Amps>, CurrentMethod)>,
+    #[serde(skip)]
+    pub span: SourceSpan,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct HeaterReading {
+    pub volts: Spanned<Volts>,
+    pub nominal: Volts,
+    pub label: Option<String>,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct PartChange {
+    pub reference: String,
+    pub was: Option<String>,
+    pub now: Option<String>,
+    pub reason: Option<String>,
+    pub original_kept: Option<bool>,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct Modification {
+    pub what: String,
+    pub why: Option<String>,
+    pub reversible: Option<bool>,
+    pub original_kept: Option<bool>,
+}
+
+/// Protection class of the unit under the safety-test rules.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+pub enum ProtectionClass {
+    #[serde(rename = "I")]
+    One,
+    #[serde(rename = "II")]
+    Two,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct Safety {
+    pub class: ProtectionClass,
+    pub tests: Vec<SafetyTest>,
+}
+
+#[derive(Debug, Clone, Serialize)]
+#[serde(tag = "test", rename_all = "snake_case")]
+pub enum SafetyTest {
+    /// Protective-earth continuity; passes at or below limit + cord.
+    EarthContinuity {
+        measured: Ohms,
+        limit: Ohms,
+        cord: Option<Ohms>,
+    },
+    /// Insulation resistance at a DC test voltage; passes at or above the
+    /// minimum. `over_range` when the meter showed "more than" the figure.
+    Insulation {
+        measured: Ohms,
+        over_range: bool,
+        test_voltage: Volts,
+        minimum: Ohms,
+    },
+    /// Leakage (touch) current; passes at or below the limit.
+    Leakage { measured: Amps, limit: Amps },
+}
+
+/// The guide bands and margins, with the documented defaults; a job may
+/// override any of them in its `settings` block. All are fractions.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Settings {
+    /// Fixed-bias aim, low end (below it: "cold"). Common practice: 50 %.
+    pub fixed_bias_low: f64,
+    /// Fixed-bias aim, high end (above it: caution). Common practice: 70 %.
+    pub fixed_bias_high: f64,
+    /// Cathode bias caution threshold. Common practice: 90 %.
+    pub cathode_bias_caution: f64,
+    /// Resistor derating: caution above this share of the rating. Common practice: 50 %.
+    pub resistor_derating: f64,
+    /// Capacitor margin: caution when less headroom than this. Common practice: 10 %.
+    pub capacitor_margin: f64,
+    /// Heater tolerance either side of nominal. Common practice: ±10 %.
+    pub heater_tolerance: f64,
+    /// Node tolerance against the chart when the job gives none. Common practice: ±10 %.
+    pub node_tolerance: f64,
+    /// Silicon rectifier forward drop at no load. Common practice: about 1 V.
+    pub silicon_drop: Volts,
+}
+
+impl Default for Settings {
+    fn default() -> Self {
+        Settings {
+            fixed_bias_low: 0.50,
+            fixed_bias_high: 0.70,
+            cathode_bias_caution: 0.90,
+            resistor_derating: 0.50,
+            capacitor_margin: 0.10,
+            heater_tolerance: 0.10,
+            node_tolerance: 0.10,
+            silicon_drop: Volts(1.0),
+        }
+    }
+}

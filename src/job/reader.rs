@@ -1,0 +1,426 @@
+//! Reading KDL nodes into typed values while collecting every problem:
+//! unknown names with suggestions, missing or repeated entries, wrong value
+//! types, bad units and dates, each pointing at its own span.
+
+use chrono::NaiveDate;
+use kdl::{KdlDocument, KdlEntry, KdlNode, KdlValue};
+use miette::SourceSpan;
+
+use super::decode_error::{DecodeError, suggestion_help};
+use super::model::Spanned;
+use crate::units::{QuantityKind, UnitProblem, parse_quantity};
+
+/// Collects problems while a job file is read.
+pub struct Reader<'s> {
+    pub source: &'s str,
+    pub problems: Vec<DecodeError>,
+}
+
+impl<'s> Reader<'s> {
+    pub fn new(source: &'s str) -> Self {
+        Reader { source, problems: Vec::new() }
+    }
+
+    pub fn push(&mut self, e: DecodeError) {
+        self.problems.push(e);
+    }
+
+    /// The span of a node's name.
+    pub fn name_span(node: &KdlNode) -> SourceSpan {
+        node.name().span()
+    }
+
+    /// Reports child nodes whose names are not in `allowed`; returns the
+    /// known ones in order.
+    pub fn children<'d>(&mut self, doc: Option<&'d KdlDocument>, allowed: &[&str], context: &str) -> Vec<&'d KdlNode> {
+        let Some(doc) = doc else { return Vec::new() };
+        let mut out = Vec::new();
+        for node in doc.nodes() {
+            let name = node.name().value();
+            if allowed.contains(&name) {
+                out.push(node);
+            } else {
+                self.push(
+                    DecodeError::error(
+                        "job::unknown-node",
+                        Self::name_span(node),
+                        format!("unknown node `{name}` in {context}"),
+                        "not a node this format knows here",
+                    )
+                    .with_help(suggestion_help(name, allowed)),
+                );
+            }
+        }
+        out
+    }
+
+    /// Checks a node's properties against `allowed` and its positional
+    /// arguments against `max_args`; reports repeats, unknowns and extras.
+    pub fn check_entries(&mut self, node: &KdlNode, allowed: &[&str], max_args: usize) {
+        let mut seen: Vec<&str> = Vec::new();
+        let mut args = 0;
+        for entry in node.entries() {
+            if let Some(ty) = entry.ty() {
+                self.push(
+                    DecodeError::error(
+                        "job::type-annotation",
+                        ty.span(),
+                        format!("type annotation `({})` is not used in job files", ty.value()),
+                        "remove this",
+                    )
+                    .with_help("write the unit inside the value instead, for example \"352V\""),
+                );
+            }
+            match entry.name() {
+                Some(name) => {
+                    let key = name.value();
+                    if !allowed.contains(&key) {
+                        let help = if allowed.is_empty() {
+                            format!("`{}` takes no properties", node.name().value())
+                        } else {
+                            suggestion_help(key, allowed)
+                        };
+                        self.push(
+                            DecodeError::error(
+                                "job::unknown-property",
+                                name.span(),
+                                format!("unknown property `{key}` on `{}`", node.name().value()),
+                                "not a property of this node",
+                            )
+                            .with_help(help),
+                        );
+                    } else if seen.contains(&key) {
+                        self.push(DecodeError::error(
+                            "job::repeated-property",
+                            name.span(),
+                            format!("property `{key}` is given twice on `{}`", node.name().value()),
+                            "repeated here",
+                        ));
+                    } else {
+                        seen.push(key);
+                    }
+                }
+                None => {
+                    args += 1;
+                    if args > max_args {
+                        let help = if max_args == 0 {
+                            format!("`{}` takes no plain values; use its properties", node.name().value())
+                        } else {
+                            format!("`{}` takes {max_args} plain value{}", node.name().value(), if max_args == 1 { "" } else { "s" })
+                        };
+                        self.push(
+                            DecodeError::error(
+                                "job::extra-value",
+                                entry.span(),
+                                format!("unexpected value on `{}`", node.name().value()),
+                                "not expected here",
+                            )
+                            .with_help(help),
+                        );
+                    }
+                }
+            }
+        }
+    }
+
+    /// Reports children of a node that should have none.
+    pub fn no_children(&mut self, node: &KdlNode) {
+        if let Some(doc) = node.children()
+            && let Some(first) = doc.nodes().first()
+        {
+            self.push(DecodeError::error(
+                "job::unexpected-children",
+                Self::name_span(first),
+                format!("`{}` takes no child nodes", node.name().value()),
+                "not expected here",
+            ));
+        }
+    }
+
+    pub fn arg<'n>(node: &'n KdlNode, index: usize) -> Option<&'n KdlEntry> {
+        node.entries().iter().filter(|e| e.name().is_none()).nth(index)
+    }
+
+    pub fn prop<'n>(node: &'n KdlNode, key: &str) -> Option<&'n KdlEntry> {
+        node.entries().iter().find(|e| e.name().is_some_and(|n| n.value() == key))
+    }
+
+    fn missing(&mut self, node: &KdlNode, what: &str, example: &str) {
+        self.push(
+            DecodeError::error(
+                "job::missing",
+                Self::name_span(node),
+                format!("`{}` needs {what}", node.name().value()),
+                format!("{what} missing"),
+            )
+            .with_help(format!("for example: {example}")),
+        );
+    }
+
+    /// The span of an entry's value (after `key=`), for precise underlines.
+    pub fn value_span(&self, entry: &KdlEntry) -> SourceSpan {
+        let span = entry.span();
+        let start = span.offset();
+        let end = (start + span.len()).min(self.source.len());
+        let Some(text) = self.source.get(start..end) else { return span };
+        let mut offset = 0;
+        if entry.name().is_some()
+            && let Some(eq) = text.find('=')
+        {
+            offset = eq + 1;
+            offset += text[offset..].len() - text[offset..].trim_start().len();
+        }
+        let value_len = text[offset..].trim_end().len();
+        SourceSpan::new((start + offset).into(), value_len)
+    }
+
+    // ----- value readers -------------------------------------------------
+
+    pub fn string(&mut self, entry: &KdlEntry, what: &str) -> Option<Spanned<String>> {
+        match entry.value() {
+            KdlValue::String(s) => Some(Spanned::new(s.clone(), self.value_span(entry))),
+            other => {
+                let span = self.value_span(entry);
+                self.push(
+                    DecodeError::error(
+                        "job::expected-text",
+                        span,
+                        format!("{what} must be text, found {}", describe(other)),
+                        "expected text in quotes",
+                    )
+                    .with_help(format!("write it in double quotes, for example \"{}\"", plain(other))),
+                );
+                None
+            }
+        }
+    }
+
+    /// A name such as a valve position (V1) or node (B+1): text, or a
+    /// number that is read as text.
+    pub fn name(&mut self, entry: &KdlEntry, what: &str) -> Option<Spanned<String>> {
+        match entry.value() {
+            KdlValue::String(s) if !s.trim().is_empty() => Some(Spanned::new(s.trim().to_string(), self.value_span(entry))),
+            KdlValue::Integer(i) => Some(Spanned::new(i.to_string(), self.value_span(entry))),
+            other => {
+                self.push(DecodeError::error(
+                    "job::expected-name",
+                    self.value_span(entry),
+                    format!("{what} must be a name such as V1 or B+1, found {}", describe(other)),
+                    "expected a name",
+                ));
+                None
+            }
+        }
+    }
+
+    pub fn bool(&mut self, entry: &KdlEntry, what: &str) -> Option<bool> {
+        match entry.value() {
+            KdlValue::Bool(b) => Some(*b),
+            other => {
+                self.push(
+                    DecodeError::error(
+                        "job::expected-bool",
+                        self.value_span(entry),
+                        format!("{what} must be #true or #false, found {}", describe(other)),
+                        "expected #true or #false",
+                    )
+                    .with_help("KDL 2 writes booleans as #true and #false"),
+                );
+                None
+            }
+        }
+    }
+
+    pub fn integer(&mut self, entry: &KdlEntry, what: &str, range: std::ops::RangeInclusive<i64>) -> Option<i64> {
+        let value = match entry.value() {
+            KdlValue::Integer(i) => i64::try_from(*i).ok(),
+            KdlValue::String(s) => s.trim().parse::<i64>().ok(),
+            _ => None,
+        };
+        match value {
+            Some(v) if range.contains(&v) => Some(v),
+            _ => {
+                self.push(DecodeError::error(
+                    "job::expected-integer",
+                    self.value_span(entry),
+                    format!("{what} must be a whole number from {} to {}", range.start(), range.end()),
+                    "expected a whole number",
+                ));
+                None
+            }
+        }
+    }
+
+    /// A quantity: a plain number in the base unit, or text with an SI
+    /// prefix or RKM code and an optional unit symbol.
+    pub fn quantity(&mut self, entry: &KdlEntry, kind: QuantityKind, what: &str) -> Option<Spanned<f64>> {
+        let span = self.value_span(entry);
+        let value = match entry.value() {
+            KdlValue::Integer(i) => Ok(*i as f64),
+            KdlValue::Float(f) if f.is_finite() => Ok(*f),
+            KdlValue::String(s) => parse_quantity(s, kind).map_err(|e| {
+                // Point inside the quotes at the offending part.
+                let inner = span.offset() + 1 + e.offset;
+                let fits = e.offset + e.len <= s.len() && span.len() >= s.len() + 2;
+                let at = if fits { SourceSpan::new(inner.into(), e.len.max(1)) } else { span };
+                let label = match &e.problem {
+                    UnitProblem::WrongUnit { expected, .. } => format!("expected {}", expected.noun()),
+                    _ => format!("expected {}", kind.noun()),
+                };
+                (at, e.to_string(), label)
+            }),
+            other => Err((span, format!("{what} must be {}, found {}", kind.noun(), describe(other)), format!("expected {}", kind.noun()))),
+        };
+        match value {
+            Ok(v) => Some(Spanned::new(v, span)),
+            Err((at, message, label)) => {
+                self.push(
+                    DecodeError::error("job::bad-value", at, format!("{what}: {message}"), label)
+                        .with_help(format!("write {} as {}", kind.noun(), kind.example())),
+                );
+                None
+            }
+        }
+    }
+
+    pub fn date(&mut self, entry: &KdlEntry, what: &str) -> Option<Spanned<NaiveDate>> {
+        let span = self.value_span(entry);
+        let text = match entry.value() {
+            KdlValue::String(s) => s.clone(),
+            other => {
+                self.push(
+                    DecodeError::error(
+                        "job::bad-date",
+                        span,
+                        format!("{what} must be a date in quotes, found {}", describe(other)),
+                        "expected \"YYYY-MM-DD\"",
+                    )
+                    .with_help("write dates as ISO 8601 text, for example \"2026-11-02\""),
+                );
+                return None;
+            }
+        };
+        match NaiveDate::parse_from_str(text.trim(), "%Y-%m-%d") {
+            Ok(d) => Some(Spanned::new(d, span)),
+            Err(e) => {
+                self.push(
+                    DecodeError::error(
+                        "job::bad-date",
+                        span,
+                        format!("{what} \"{text}\" is not a valid date ({e})"),
+                        "expected \"YYYY-MM-DD\"",
+                    )
+                    .with_help("write dates as ISO 8601 year-month-day, for example \"2026-11-02\""),
+                );
+                None
+            }
+        }
+    }
+
+    // ----- convenience: required / optional entries -----------------------
+
+    pub fn req_arg_string(&mut self, node: &KdlNode, what: &str, example: &str) -> Option<Spanned<String>> {
+        match Self::arg(node, 0) {
+            Some(e) => self.string(e, what),
+            None => {
+                self.missing(node, what, example);
+                None
+            }
+        }
+    }
+
+    pub fn req_arg_name(&mut self, node: &KdlNode, what: &str, example: &str) -> Option<Spanned<String>> {
+        match Self::arg(node, 0) {
+            Some(e) => self.name(e, what),
+            None => {
+                self.missing(node, what, example);
+                None
+            }
+        }
+    }
+
+    pub fn req_prop_string(&mut self, node: &KdlNode, key: &str, example: &str) -> Option<Spanned<String>> {
+        match Self::prop(node, key) {
+            Some(e) => self.string(e, &format!("`{key}`")),
+            None => {
+                self.missing(node, &format!("a `{key}` property"), example);
+                None
+            }
+        }
+    }
+
+    pub fn opt_prop_string(&mut self, node: &KdlNode, key: &str) -> Option<String> {
+        Self::prop(node, key).and_then(|e| self.string(e, &format!("`{key}`"))).map(|s| s.value)
+    }
+
+    pub fn req_prop_name(&mut self, node: &KdlNode, key: &str, example: &str) -> Option<Spanned<String>> {
+        match Self::prop(node, key) {
+            Some(e) => self.name(e, &format!("`{key}`")),
+            None => {
+                self.missing(node, &format!("a `{key}` property"), example);
+                None
+            }
+        }
+    }
+
+    pub fn req_prop_quantity(&mut self, node: &KdlNode, key: &str, kind: QuantityKind, example: &str) -> Option<Spanned<f64>> {
+        match Self::prop(node, key) {
+            Some(e) => self.quantity(e, kind, &format!("`{key}`")),
+            None => {
+                self.missing(node, &format!("a `{key}` property"), example);
+                None
+            }
+        }
+    }
+
+    pub fn opt_prop_quantity(&mut self, node: &KdlNode, key: &str, kind: QuantityKind) -> Option<Spanned<f64>> {
+        Self::prop(node, key).and_then(|e| self.quantity(e, kind, &format!("`{key}`")))
+    }
+
+    pub fn opt_prop_bool(&mut self, node: &KdlNode, key: &str) -> Option<bool> {
+        Self::prop(node, key).and_then(|e| self.bool(e, &format!("`{key}`")))
+    }
+
+    pub fn opt_prop_date(&mut self, node: &KdlNode, key: &str) -> Option<Spanned<NaiveDate>> {
+        Self::prop(node, key).and_then(|e| self.date(e, &format!("`{key}`")))
+    }
+
+    /// Rejects negative (and optionally zero) values of physical quantities.
+    pub fn positive(&mut self, v: Option<Spanned<f64>>, what: &str, allow_zero: bool) -> Option<Spanned<f64>> {
+        let v = v?;
+        let bad = if allow_zero { v.value < 0.0 } else { v.value <= 0.0 };
+        if bad {
+            self.push(
+                DecodeError::error(
+                    "job::impossible-value",
+                    v.span,
+                    format!("{what} cannot be {}", if v.value < 0.0 { "negative" } else { "zero" }),
+                    if allow_zero { "expected zero or more" } else { "expected more than zero" },
+                )
+                .with_help("a physical part or supply cannot have this value; check the reading"),
+            );
+            return None;
+        }
+        Some(v)
+    }
+}
+
+fn describe(v: &KdlValue) -> String {
+    match v {
+        KdlValue::String(s) => format!("the text \"{s}\""),
+        KdlValue::Integer(i) => format!("the number {i}"),
+        KdlValue::Float(f) => format!("the number {f}"),
+        KdlValue::Bool(b) => format!("#{b}"),
+        KdlValue::Null => "#null".to_string(),
+    }
+}
+
+fn plain(v: &KdlValue) -> String {
+    match v {
+        KdlValue::String(s) => s.clone(),
+        KdlValue::Integer(i) => i.to_string(),
+        KdlValue::Float(f) => f.to_string(),
+        KdlValue::Bool(b) => b.to_string(),
+        KdlValue::Null => String::new(),
+    }
+}

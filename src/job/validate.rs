@@ -1,0 +1,122 @@
+//! Cross-references inside a job: every valve position and node that a
+//! circuit fact or reading names must exist. Pure checks, no figures.
+
+use super::decode_error::{DecodeError, suggestion_help};
+use super::model::{Job, RectifierKind, Spanned};
+
+/// Problems with names that point nowhere.
+pub fn cross_references(job: &Job) -> Vec<DecodeError> {
+    let mut out = Vec::new();
+    let positions: Vec<&str> = job.valves.iter().map(|v| v.position.value.as_str()).collect();
+    let mut nodes: Vec<&str> = job.circuit.nodes.iter().map(|n| n.name.value.as_str()).collect();
+    for set in &job.measurements {
+        for n in &set.nodes {
+            if !nodes.contains(&n.name.value.as_str()) {
+                nodes.push(&n.name.value);
+            }
+        }
+    }
+
+    let mut position = |name: &Spanned<String>, what: &str| {
+        if !positions.contains(&name.value.as_str()) {
+            let help = if positions.is_empty() {
+                "list the valves in a `valves` block first".to_string()
+            } else {
+                suggestion_help(&name.value, &positions)
+            };
+            out.push(
+                DecodeError::error(
+                    "job::unknown-position",
+                    name.span,
+                    format!("{what} names valve position {}, which the `valves` block does not list", name.value),
+                    "no such valve position",
+                )
+                .with_help(help),
+            );
+        }
+    };
+    let circuits: Vec<&super::model::Circuit> =
+        std::iter::once(&job.circuit).chain(job.measurements.iter().map(|m| &m.circuit_changes)).collect();
+    for c in &circuits {
+    for r in &c.cathode_resistors {
+        for v in &r.valves {
+            position(v, &format!("cathode resistor {}", r.reference));
+        }
+    }
+    for r in &c.sense_resistors {
+        position(&r.valve, "a sense resistor");
+    }
+    for r in &c.screen_resistors {
+        position(&r.valve, "a screen resistor");
+    }
+    for h in &c.half_primaries {
+        for v in &h.valves {
+            position(v, "a half-primary resistance");
+        }
+    }
+    if let Some(rect) = &c.rectifier
+        && let RectifierKind::Valve(p) = &rect.kind
+    {
+        position(p, "the rectifier");
+    }
+    }
+    for set in &job.measurements {
+        for v in &set.valves {
+            position(&v.position, &format!("the \"{}\" readings", set.label));
+        }
+    }
+
+    let mut node = |name: &Spanned<String>, what: &str| {
+        if !nodes.contains(&name.value.as_str()) {
+            let help = if nodes.is_empty() {
+                "declare it in the circuit block: node B+1 chart=\"350V\"".to_string()
+            } else {
+                suggestion_help(&name.value, &nodes)
+            };
+            out.push(
+                DecodeError::error(
+                    "job::unknown-node-name",
+                    name.span,
+                    format!("{what} names node {}, which is neither declared in `circuit` nor measured", name.value),
+                    "no such node",
+                )
+                .with_help(help),
+            );
+        }
+    };
+    for c in &circuits {
+    for d in &c.droppers {
+        node(&d.from, &format!("dropper {}", d.reference));
+        node(&d.to, &format!("dropper {}", d.reference));
+    }
+    for f in &c.filter_capacitors {
+        node(&f.node, &format!("filter capacitor {}", f.reference));
+    }
+    for s in &c.screen_resistors {
+        node(&s.supply, "a screen resistor");
+    }
+    }
+
+    // Readings far from the job's own nominal mains are suspect.
+    for set in &job.measurements {
+        let ratio = set.mains.value / job.mains.nominal.value;
+        if !(0.8..=1.2).contains(&ratio) {
+            out.push(
+                DecodeError::warning(
+                    "job::implausible",
+                    set.mains.span,
+                    format!(
+                        "mains of {} in \"{}\" is {:.0}% from the nominal {}",
+                        set.mains.value,
+                        set.label,
+                        (ratio - 1.0) * 100.0,
+                        job.mains.nominal.value
+                    ),
+                    "far from nominal",
+                )
+                .with_help("check the reading, or whether the unit ran from a variable autotransformer"),
+            );
+        }
+    }
+    out
+}
