@@ -1,0 +1,266 @@
+//! The terminal summary printed by `ampreport check`: per measurement set a
+//! table of valves and of nodes, the stressed parts, then the warnings in
+//! plain sentences. Colour only when asked to (the caller decides).
+
+use super::table::{Align, TextTable};
+use crate::calc::{Findings, SetFindings, Status};
+use crate::job::Job;
+use crate::units::{QuantityKind as Q, format_engineering, format_fixed};
+
+/// Options for the summary.
+pub struct TerminalStyle {
+    pub colour: bool,
+}
+
+fn paint(style: &TerminalStyle, status: Status, text: &str) -> String {
+    if !style.colour {
+        return text.to_string();
+    }
+    let code = match status {
+        Status::Ok => "32",
+        Status::Cold => "36",
+        Status::Caution => "33",
+        Status::Over => "1;31",
+    };
+    format!("\x1b[{code}m{text}\x1b[0m")
+}
+
+fn bold(style: &TerminalStyle, text: &str) -> String {
+    if style.colour { format!("\x1b[1m{text}\x1b[0m") } else { text.to_string() }
+}
+
+/// The status word as shown in the terminal: upper case when not ok, so it
+/// stands out without colour.
+pub fn status_word(s: Status) -> String {
+    match s {
+        Status::Ok => "ok".to_string(),
+        other => other.word().to_uppercase(),
+    }
+}
+
+fn opt(v: Option<f64>, f: impl Fn(f64) -> String) -> String {
+    v.map(f).unwrap_or_else(|| "–".to_string())
+}
+
+fn volts(v: f64) -> String {
+    format_engineering(v, Q::Voltage)
+}
+
+fn ma(v: f64) -> String {
+    format!("{} mA", format_fixed(v, 1))
+}
+
+fn pct(v: f64) -> String {
+    format!("{} %", format_fixed(v, 0))
+}
+
+pub fn render(job: &Job, findings: &Findings, style: &TerminalStyle) -> String {
+    let mut out = String::new();
+    let unit = &job.unit;
+    out.push_str(&bold(style, &format!("Job {}: {} {}", findings.job.id, unit.make, unit.model)));
+    if let Some(serial) = &unit.serial {
+        out.push_str(&format!(", serial {serial}"));
+    }
+    out.push('\n');
+    let m = &findings.mains;
+    out.push_str(&format!(
+        "Mains: nominal {}, high line {} (+{} %){}\n",
+        volts(m.nominal_volts),
+        volts(m.high_line_volts),
+        format_fixed(m.tolerance_pct, 0),
+        m.design_volts.map(|d| format!(", chart drawn at {}", volts(d))).unwrap_or_default()
+    ));
+
+    for set in &findings.sets {
+        out.push('\n');
+        out.push_str(&render_set(set, style));
+    }
+
+    out.push('\n');
+    if !findings.safety.is_empty() {
+        out.push_str(&bold(style, "Safety tests"));
+        out.push('\n');
+        let mut t = TextTable::new(&[("test", Align::Left), ("reading", Align::Right), ("limit", Align::Left), ("status", Align::Left)]);
+        for s in &findings.safety {
+            t.row(vec![s.test.replace('_', " "), s.measured.clone(), s.limit.clone(), if s.passed { "pass".into() } else { "FAIL".into() }]);
+        }
+        let statuses: Vec<Status> = findings.safety.iter().map(|s| s.verdict.status).collect();
+        out.push_str(&render_painted(&t, style, &statuses));
+        out.push('\n');
+    }
+
+    if findings.warnings.is_empty() {
+        out.push_str("No warnings: every figure is inside its limits.\n");
+    } else {
+        out.push_str(&bold(style, &format!("Warnings ({})", findings.warnings.len())));
+        out.push('\n');
+        for w in &findings.warnings {
+            let tag = paint(style, w.status, &format!("[{}]", status_word(w.status)));
+            let set = w.set.as_ref().map(|s| format!("{s}: ")).unwrap_or_default();
+            out.push_str(&format!("  {tag} {set}{}\n", w.message));
+        }
+    }
+    out
+}
+
+fn render_painted(t: &TextTable, style: &TerminalStyle, statuses: &[Status]) -> String {
+    // Paint the last column (the status word) of each row by its status.
+    let text = t.render(2, &|_, s| s.to_string());
+    let mut lines = text.lines();
+    let mut out = String::new();
+    if let Some(h) = lines.next() {
+        out.push_str(h);
+        out.push('\n');
+    }
+    for (line, status) in lines.zip(statuses) {
+        if style.colour && *status != Status::Ok {
+            let word_start = line.rfind("  ").map(|i| i + 2).unwrap_or(0);
+            out.push_str(&line[..word_start]);
+            out.push_str(&paint(style, *status, &line[word_start..]));
+        } else {
+            out.push_str(line);
+        }
+        out.push('\n');
+    }
+    out
+}
+
+fn render_set(set: &SetFindings, style: &TerminalStyle) -> String {
+    let mut out = String::new();
+    let date = set.date.as_ref().map(|d| format!(", {d}")).unwrap_or_default();
+    out.push_str(&bold(
+        style,
+        &format!("── {} (mains {}, factor {:.3} to nominal{date}) ──", set.label, volts(set.mains_volts), set.correction_factor),
+    ));
+    out.push('\n');
+
+    if !set.valves.is_empty() {
+        out.push_str("Valves\n");
+        let mut t = TextTable::new(&[
+            ("pos", Align::Left),
+            ("type", Align::Left),
+            ("bias", Align::Left),
+            ("Va", Align::Right),
+            ("Vk", Align::Right),
+            ("current", Align::Right),
+            ("Pa", Align::Right),
+            ("% max", Align::Right),
+            ("high line", Align::Right),
+            ("status", Align::Left),
+        ]);
+        for v in &set.valves {
+            let current = match (v.plate_current_ma, v.plate_current_includes_screen) {
+                (Some(ia), true) => format!("Ik {}", ma(ia)),
+                (Some(ia), false) => format!("Ia {}", ma(ia)),
+                (None, _) => "–".into(),
+            };
+            t.row(vec![
+                v.position.clone(),
+                v.valve_type.clone(),
+                v.bias.clone(),
+                opt(v.plate_volts, volts),
+                opt(v.cathode_volts, volts),
+                current,
+                opt(v.plate_dissipation_w, |w| format!("{} W", format_fixed(w, 1))),
+                opt(v.plate_dissipation_pct, pct),
+                opt(v.high_line_plate_dissipation_pct, pct),
+                status_word(v.status),
+            ]);
+        }
+        let statuses: Vec<Status> = set.valves.iter().map(|v| v.status).collect();
+        out.push_str(&render_painted(&t, style, &statuses));
+        for v in &set.valves {
+            if let Some(w) = &v.target_window {
+                let mut parts = vec![format!("Ia {}–{}", ma(w.plate_current_low_ma), ma(w.plate_current_high_ma))];
+                if let (Some(a), Some(b)) = (w.sense_low_mv, w.sense_high_mv) {
+                    parts.push(format!("{}–{} mV across the sense resistor", format_fixed(a, 1), format_fixed(b, 1)));
+                }
+                if let (Some(a), Some(b)) = (w.primary_drop_low_volts, w.primary_drop_high_volts) {
+                    parts.push(format!("{}–{} V across the half primary", format_fixed(a, 2), format_fixed(b, 2)));
+                }
+                out.push_str(&format!(
+                    "  {} target window {:.0}–{:.0} %: {}{}\n",
+                    v.position,
+                    w.low_pct,
+                    w.high_pct,
+                    parts.join(", "),
+                    if w.inside { " (inside)" } else { " (outside)" }
+                ));
+            }
+        }
+        if set.valves.iter().any(|v| v.plate_current_includes_screen && v.plate_current_ma.is_some()) {
+            out.push_str("  Ik: plate current taken as the cathode current, including screen current (conservative).\n");
+        }
+    }
+
+    if !set.nodes.is_empty() {
+        out.push_str("Supply nodes\n");
+        let mut t = TextTable::new(&[
+            ("node", Align::Left),
+            ("measured", Align::Right),
+            ("corrected", Align::Right),
+            ("expected", Align::Right),
+            ("deviation", Align::Right),
+            ("status", Align::Left),
+        ]);
+        for n in &set.nodes {
+            t.row(vec![
+                n.name.clone(),
+                volts(n.measured_volts),
+                volts(n.corrected_volts),
+                opt(n.expected_volts, volts),
+                opt(n.deviation_pct, |d| format!("{d:+.1} %")),
+                status_word(n.verdict.status),
+            ]);
+        }
+        let statuses: Vec<Status> = set.nodes.iter().map(|n| n.verdict.status).collect();
+        out.push_str(&render_painted(&t, style, &statuses));
+    }
+
+    let resistors: Vec<_> = set.droppers.iter().chain(&set.cathode_resistors).chain(&set.screen_resistors).collect();
+    if !resistors.is_empty() || !set.filter_capacitors.is_empty() {
+        out.push_str("Stressed parts\n");
+        let mut t = TextTable::new(&[
+            ("part", Align::Left),
+            ("where", Align::Left),
+            ("stress", Align::Right),
+            ("rating", Align::Right),
+            ("% / margin", Align::Right),
+            ("status", Align::Left),
+        ]);
+        let mut statuses = Vec::new();
+        for r in &resistors {
+            t.row(vec![
+                r.reference.clone(),
+                r.place.clone(),
+                format!("{} W", format_fixed(r.power_w, 2)),
+                opt(r.rating_w, |w| format_engineering(w, Q::Power)),
+                opt(r.power_pct, pct),
+                status_word(r.verdict.status),
+            ]);
+            statuses.push(r.verdict.status);
+        }
+        for c in &set.filter_capacitors {
+            t.row(vec![
+                c.reference.clone(),
+                c.node.clone(),
+                format!("{} peak", volts(c.highest_volts)),
+                volts(c.rating_volts),
+                format!("{} % left", format_fixed(c.margin_pct, 1)),
+                status_word(c.verdict.status),
+            ]);
+            statuses.push(c.verdict.status);
+        }
+        out.push_str(&render_painted(&t, style, &statuses));
+    }
+    for h in &set.heaters {
+        out.push_str(&format!(
+            "Heater: {} against {} ({:+.1} %) {}\n",
+            volts(h.measured_volts),
+            volts(h.nominal_volts),
+            h.deviation_pct,
+            paint(style, h.verdict.status, &status_word(h.verdict.status))
+        ));
+    }
+    out
+}
