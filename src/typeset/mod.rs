@@ -4,9 +4,13 @@
 //! there and writing the PDF atomically. Knows nothing about what a job means.
 
 mod error;
+mod escape;
 mod locate;
+mod template_env;
 mod version;
 
 pub use error::{INSTALL_HINT, TypesetError};
+pub use escape::{escape_markup, escape_string};
 pub use locate::{TYPST_ENV, TypstProgram, locate, locate_in};
+pub use template_env::{TemplateSource, TypstMarkup, template_environment, typst_markup};
 pub use version::{MAX_TYPST_EXCLUSIVE, MIN_TYPST, TypstVersion};
