@@ -5,6 +5,8 @@
 //! figure with [`ratings`] and [`units`], [`report`] presents the findings and
 //! [`typeset`] runs the `typst` command. [`cli`] ties them to the command line.
 
-pub mod units;
 pub mod cli;
 pub mod job;
+pub mod report;
+pub mod typeset;
+pub mod units;

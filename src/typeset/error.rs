@@ -1,0 +1,158 @@
+//! Everything that can go wrong between a finished Typst source and a PDF on
+//! disk, sorted so the command line can tell a broken set-up (typst missing,
+//! too old, not runnable) from a broken document or a full disk.
+
+use std::io;
+use std::path::PathBuf;
+
+use super::version::{MIN_TYPST, TypstVersion};
+
+/// The install command named in every "typst missing or too old" message.
+pub const INSTALL_HINT: &str = "cargo install --locked typst-cli";
+
+/// Why typesetting failed.
+#[derive(Debug, thiserror::Error, miette::Diagnostic)]
+pub enum TypesetError {
+    /// No typst program at the given path, in `AMPREPORT_TYPST`, or on `PATH`.
+    #[error("typst was not found: {looked}")]
+    #[diagnostic(
+        code(ampreport::typeset::typst_not_found),
+        help(
+            "install it with `{INSTALL_HINT}`, or name the program with \
+             `--typst PATH` or the AMPREPORT_TYPST environment variable"
+        )
+    )]
+    NotFound {
+        /// Where the search went, in words, e.g. "no `typst` on PATH".
+        looked: String,
+    },
+
+    /// A typst program was found but is older than [`MIN_TYPST`].
+    #[error("{} is typst {found}, but ampreport needs typst {MIN_TYPST} or newer", path.display())]
+    #[diagnostic(
+        code(ampreport::typeset::typst_too_old),
+        help("upgrade it with `{INSTALL_HINT}`, or point `--typst PATH` at a newer one")
+    )]
+    TooOld { path: PathBuf, found: TypstVersion },
+
+    /// The program exists but could not be started, or `--version` did not
+    /// answer like typst.
+    #[error("could not run {} as typst: {problem}", path.display())]
+    #[diagnostic(
+        code(ampreport::typeset::typst_unusable),
+        help(
+            "check that this is the typst command-line program and that it runs; \
+             a fresh one comes from `{INSTALL_HINT}`"
+        )
+    )]
+    Unusable {
+        path: PathBuf,
+        problem: String,
+        #[source]
+        source: Option<io::Error>,
+    },
+
+    /// typst ran and rejected the document. Its own diagnostics are kept
+    /// verbatim in `diagnostics`.
+    #[error("typst could not compile the document ({status}):\n{diagnostics}")]
+    #[diagnostic(
+        code(ampreport::typeset::compile_failed),
+        help(
+            "the generated source was kept for inspection in {}; \
+             file names in the messages above are relative to that folder",
+            kept.display()
+        )
+    )]
+    Compile {
+        /// typst's standard error, trimmed.
+        diagnostics: String,
+        /// How typst ended, e.g. "exit status: 1".
+        status: String,
+        /// The folder holding the generated source, left behind on purpose.
+        kept: PathBuf,
+        /// The main source file inside `kept`.
+        main: PathBuf,
+    },
+
+    /// A file in the sandbox has a name that would escape it or clash with the
+    /// bundled fonts. This is a programming error in the caller or a job file
+    /// naming an image badly.
+    #[error("`{path}` cannot be placed in the typesetting folder: {reason}")]
+    #[diagnostic(
+        code(ampreport::typeset::bad_sandbox_path),
+        help("use a plain relative path such as `plots/anode.svg`")
+    )]
+    BadSandboxPath { path: String, reason: &'static str },
+
+    /// Reading or writing a file failed.
+    #[error("could not {action} {}", path.display())]
+    #[diagnostic(code(ampreport::typeset::io))]
+    Io {
+        /// What was being done, e.g. "write the PDF to".
+        action: &'static str,
+        path: PathBuf,
+        #[source]
+        source: io::Error,
+    },
+}
+
+impl TypesetError {
+    /// True when the machine's set-up is at fault (typst missing, too old or
+    /// unusable) rather than the document or the disk, so the command line
+    /// can use a distinct exit status.
+    pub fn is_environment(&self) -> bool {
+        matches!(
+            self,
+            Self::NotFound { .. } | Self::TooOld { .. } | Self::Unusable { .. }
+        )
+    }
+
+    pub(crate) fn io(action: &'static str, path: impl Into<PathBuf>, source: io::Error) -> Self {
+        Self::Io {
+            action,
+            path: path.into(),
+            source,
+        }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use miette::Diagnostic;
+
+    #[test]
+    fn environment_errors_are_marked() {
+        let not_found = TypesetError::NotFound {
+            looked: "no `typst` on PATH".into(),
+        };
+        assert!(not_found.is_environment());
+        let help = not_found.help().unwrap().to_string();
+        assert!(help.contains(INSTALL_HINT), "{help}");
+
+        let old = TypesetError::TooOld {
+            path: "/opt/typst".into(),
+            found: TypstVersion::new(0, 1, 0),
+        };
+        assert!(old.is_environment());
+        let text = old.to_string();
+        assert!(
+            text.contains("/opt/typst") && text.contains("0.1.0"),
+            "{text}"
+        );
+        assert!(old.help().unwrap().to_string().contains(INSTALL_HINT));
+
+        let compile = TypesetError::Compile {
+            diagnostics: "error: unknown variable".into(),
+            status: "exit status: 1".into(),
+            kept: "/tmp/kept".into(),
+            main: "/tmp/kept/main.typ".into(),
+        };
+        assert!(!compile.is_environment());
+        assert!(compile.to_string().contains("unknown variable"));
+        assert!(compile.help().unwrap().to_string().contains("/tmp/kept"));
+
+        let io = TypesetError::io("write", "/x.pdf", io::Error::other("full"));
+        assert!(!io.is_environment());
+    }
+}

@@ -1,0 +1,173 @@
+//! Typst escaping: the one place that turns untrusted text (customer names,
+//! fault notes, anything from a job file) into Typst source that prints
+//! exactly those characters and nothing else.
+//!
+//! Two contexts exist:
+//!
+//! * **markup** ([`escape_markup`]): text placed in a template's body. Every
+//!   ASCII punctuation character gets a backslash in front of it. Typst reads
+//!   backslash-plus-character as that character, so this switches off at once
+//!   every markup rule that uses punctuation: code (`#`), maths (`$`), strong
+//!   and emphasis (`*`, `_`), raw text (`` ` ``), labels and references (`<`,
+//!   `>`, `@`), headings (`=`), lists (`-`, `+`, `1.`, `/`), comments (`//`,
+//!   `/*`), content brackets (`[`, `]`), smart quotes (`'`, `"`) and the
+//!   shorthands (`~`, `--`, `...`, `-?`, `-1`). Escaping all punctuation,
+//!   rather than a hand-picked list, means a new rule in a later Typst release
+//!   that uses punctuation is covered too.
+//! * **string literal** ([`escape_string`]): text placed between `"` quotes in
+//!   Typst code, for example a document title.
+//!
+//! Line breaks in user text are kept on purpose: each one becomes a Typst
+//! forced line break written as `\ ` (backslash, space), so a note typed on
+//! three lines prints on three lines within one paragraph. The escaped text
+//! never contains a source newline, so it cannot end a heading or list item
+//! that a template writes in line-based markup (`= {{ title }}`). An empty
+//! line in the user text becomes `~\ ` (a non-breaking space, then a break),
+//! because Typst would fold two bare breaks in a row into one. The usual
+//! newline forms (`\n`, `\r\n`, `\r`) and the other characters Typst treats
+//! as a line end (vertical tab, form feed, U+0085, U+2028, U+2029) all count.
+//! A tab becomes a space. Other control characters cannot be printed and are
+//! dropped. Runs of spaces collapse to one space, as Typst does for all text.
+
+/// Makes `text` print literally when placed in Typst markup.
+///
+/// See the module documentation for the rules.
+pub fn escape_markup(text: &str) -> String {
+    let mut out = String::with_capacity(text.len() + text.len() / 4);
+    let mut chars = text.chars().peekable();
+    // Breaks since the last printed character: the first is a plain line
+    // break, each further one an empty line.
+    let mut breaks = 0usize;
+    while let Some(c) = chars.next() {
+        if c == '\r' || is_line_end(c) {
+            // A lone CR or a CRLF pair is one line break.
+            if c == '\r' && chars.peek() == Some(&'\n') {
+                chars.next();
+            }
+            out.push_str(if breaks == 0 { "\\ " } else { "~\\ " });
+            breaks += 1;
+            continue;
+        }
+        if c.is_control() && c != '\t' {
+            continue;
+        }
+        breaks = 0;
+        match c {
+            '\t' => out.push(' '),
+            c if c.is_ascii_punctuation() => {
+                out.push('\\');
+                out.push(c);
+            }
+            c => out.push(c),
+        }
+    }
+    out
+}
+
+/// Makes `text` safe inside a Typst string literal: the result goes between
+/// two `"` characters.
+///
+/// Backslash and quote are escaped, line breaks and tabs become `\n`, `\r`
+/// and `\t`, and any other control character becomes a `\u{…}` escape, so
+/// the string holds exactly the original characters.
+pub fn escape_string(text: &str) -> String {
+    let mut out = String::with_capacity(text.len() + 2);
+    for c in text.chars() {
+        match c {
+            '\\' => out.push_str("\\\\"),
+            '"' => out.push_str("\\\""),
+            '\n' => out.push_str("\\n"),
+            '\r' => out.push_str("\\r"),
+            '\t' => out.push_str("\\t"),
+            c if c.is_control() || is_line_end(c) => {
+                out.push_str(&format!("\\u{{{:x}}}", c as u32));
+            }
+            c => out.push(c),
+        }
+    }
+    out
+}
+
+/// Characters other than CR that end a line in Typst source.
+fn is_line_end(c: char) -> bool {
+    matches!(
+        c,
+        '\n' | '\u{0B}' | '\u{0C}' | '\u{85}' | '\u{2028}' | '\u{2029}'
+    )
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn plain_words_pass_through() {
+        assert_eq!(escape_markup("Mr Smith 12 W"), "Mr Smith 12 W");
+        assert_eq!(escape_markup("Ωμέγα Жук שלום"), "Ωμέγα Жук שלום");
+        assert_eq!(escape_markup(""), "");
+    }
+
+    #[test]
+    fn every_markup_sigil_gets_a_backslash() {
+        for c in "#$*_`<>@=-+/\\[]~\"'.:;,!?(){}%&|^".chars() {
+            assert_eq!(escape_markup(&c.to_string()), format!("\\{c}"), "{c:?}");
+        }
+    }
+
+    #[test]
+    fn code_and_comments_are_disarmed() {
+        assert_eq!(
+            escape_markup("#read(\"/etc/passwd\")"),
+            "\\#read\\(\\\"\\/etc\\/passwd\\\"\\)"
+        );
+        assert_eq!(escape_markup("// x"), "\\/\\/ x");
+        assert_eq!(escape_markup("/* x */"), "\\/\\* x \\*\\/");
+    }
+
+    #[test]
+    fn no_unescaped_sigil_survives() {
+        let nasty = "= H\n- a\n+ b\n1. c\n/ t: d\n$x^2$ <l> @r *b* _e_ `r` ~ -- ... -? -1";
+        let out = escape_markup(nasty);
+        let mut prev_backslash = false;
+        for c in out.chars() {
+            if c.is_ascii_punctuation() && c != '\\' {
+                assert!(prev_backslash, "bare {c:?} in {out:?}");
+            }
+            prev_backslash = c == '\\' && !prev_backslash;
+        }
+    }
+
+    #[test]
+    fn newlines_become_forced_line_breaks() {
+        assert_eq!(escape_markup("a\nb"), "a\\ b");
+        assert_eq!(escape_markup("a\r\nb"), "a\\ b");
+        assert_eq!(escape_markup("a\rb"), "a\\ b");
+        assert_eq!(escape_markup("a\u{2028}b"), "a\\ b");
+        assert_eq!(escape_markup("a\n\nb"), "a\\ ~\\ b");
+        assert_eq!(escape_markup("a\r\n\r\n\r\nb"), "a\\ ~\\ ~\\ b");
+        assert!(!escape_markup("x\ny\rz\u{85}").contains('\n'));
+    }
+
+    #[test]
+    fn tabs_become_spaces_and_controls_vanish() {
+        assert_eq!(escape_markup("a\tb"), "a b");
+        assert_eq!(escape_markup("a\u{7}b\u{0}c\u{9b}"), "abc");
+    }
+
+    #[test]
+    fn a_trailing_backslash_cannot_eat_what_follows() {
+        // `\` escaped as `\\`, so a template's own `]` after it still closes.
+        assert_eq!(escape_markup("C:\\"), "C\\:\\\\");
+    }
+
+    #[test]
+    fn string_literal_escapes() {
+        assert_eq!(escape_string("plain"), "plain");
+        assert_eq!(escape_string("say \"hi\""), "say \\\"hi\\\"");
+        assert_eq!(escape_string("back\\slash"), "back\\\\slash");
+        assert_eq!(escape_string("two\nlines\r\tx"), "two\\nlines\\r\\tx");
+        assert_eq!(escape_string("bell\u{7}"), "bell\\u{7}");
+        assert_eq!(escape_string("ls\u{2028}"), "ls\\u{2028}");
+        assert_eq!(escape_string("#$*_ ok"), "#$*_ ok");
+    }
+}

@@ -1,0 +1,174 @@
+//! The fonts every document is set in, built into the binary so a PDF looks
+//! the same on every machine: typst is told to use these and nothing else.
+//! The files and their licences live in `fonts/` at the top of the repository
+//! (see `fonts/README.md`).
+
+use std::io;
+use std::path::Path;
+
+/// The folder, inside a typesetting sandbox, that holds the fonts.
+pub const FONT_DIR: &str = "fonts";
+
+/// Font files as (file name, contents).
+pub static BUNDLED_FONTS: &[(&str, &[u8])] = &[
+    (
+        "NotoSans-Regular.ttf",
+        include_bytes!("../../fonts/NotoSans-Regular.ttf"),
+    ),
+    (
+        "NotoSans-Bold.ttf",
+        include_bytes!("../../fonts/NotoSans-Bold.ttf"),
+    ),
+    (
+        "NotoSans-Italic.ttf",
+        include_bytes!("../../fonts/NotoSans-Italic.ttf"),
+    ),
+    (
+        "NotoSans-BoldItalic.ttf",
+        include_bytes!("../../fonts/NotoSans-BoldItalic.ttf"),
+    ),
+    (
+        "NotoSansMono-Regular.ttf",
+        include_bytes!("../../fonts/NotoSansMono-Regular.ttf"),
+    ),
+    (
+        "NotoSansMono-Bold.ttf",
+        include_bytes!("../../fonts/NotoSansMono-Bold.ttf"),
+    ),
+    (
+        "NotoSansArabic-Regular.ttf",
+        include_bytes!("../../fonts/NotoSansArabic-Regular.ttf"),
+    ),
+    (
+        "NotoSansArabic-Bold.ttf",
+        include_bytes!("../../fonts/NotoSansArabic-Bold.ttf"),
+    ),
+    (
+        "NotoSansHebrew-Regular.ttf",
+        include_bytes!("../../fonts/NotoSansHebrew-Regular.ttf"),
+    ),
+    (
+        "NotoSansHebrew-Bold.ttf",
+        include_bytes!("../../fonts/NotoSansHebrew-Bold.ttf"),
+    ),
+    (
+        "NotoSansDevanagari-Regular.ttf",
+        include_bytes!("../../fonts/NotoSansDevanagari-Regular.ttf"),
+    ),
+    (
+        "NotoSansDevanagari-Bold.ttf",
+        include_bytes!("../../fonts/NotoSansDevanagari-Bold.ttf"),
+    ),
+    (
+        "wqy-microhei.ttc",
+        include_bytes!("../../fonts/wqy-microhei.ttc"),
+    ),
+];
+
+/// Licence texts shipped beside the fonts whenever they are written out.
+pub static FONT_LICENCES: &[(&str, &[u8])] = &[
+    ("README.md", include_bytes!("../../fonts/README.md")),
+    ("OFL-1.1.txt", include_bytes!("../../fonts/OFL-1.1.txt")),
+    (
+        "Apache-2.0.txt",
+        include_bytes!("../../fonts/Apache-2.0.txt"),
+    ),
+    (
+        "Noto.copyright",
+        include_bytes!("../../fonts/Noto.copyright"),
+    ),
+    (
+        "WenQuanYi.copyright",
+        include_bytes!("../../fonts/WenQuanYi.copyright"),
+    ),
+];
+
+/// Body text families in fallback order: Latin, Greek and Cyrillic first,
+/// then the scripts the first family lacks.
+pub const TEXT_FAMILIES: &[&str] = &[
+    "Noto Sans",
+    "Noto Sans Arabic",
+    "Noto Sans Hebrew",
+    "Noto Sans Devanagari",
+    "WenQuanYi Micro Hei",
+];
+
+/// Monospaced families for figures and listings, with the same fallbacks.
+pub const MONO_FAMILIES: &[&str] = &[
+    "Noto Sans Mono",
+    "Noto Sans Arabic",
+    "Noto Sans Hebrew",
+    "Noto Sans Devanagari",
+    "WenQuanYi Micro Hei Mono",
+];
+
+/// Typst set rules that select the bundled fonts, for the top of every
+/// generated document. typst is run without its own built-in fonts, so a
+/// document must name these families.
+pub fn font_rules() -> String {
+    format!(
+        "#set text(font: {})\n#show raw: set text(font: {})\n",
+        family_array(TEXT_FAMILIES),
+        family_array(MONO_FAMILIES),
+    )
+}
+
+fn family_array(families: &[&str]) -> String {
+    let quoted: Vec<String> = families
+        .iter()
+        .map(|f| format!("\"{}\"", super::escape::escape_string(f)))
+        .collect();
+    format!("({})", quoted.join(", "))
+}
+
+/// Writes the fonts and their licences into `dir/fonts/`.
+pub(crate) fn write_fonts(dir: &Path) -> io::Result<()> {
+    let fonts = dir.join(FONT_DIR);
+    std::fs::create_dir_all(&fonts)?;
+    for (name, bytes) in BUNDLED_FONTS.iter().chain(FONT_LICENCES) {
+        std::fs::write(fonts.join(name), bytes)?;
+    }
+    Ok(())
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use std::collections::BTreeSet;
+
+    fn repo_fonts() -> std::path::PathBuf {
+        Path::new(env!("CARGO_MANIFEST_DIR")).join("fonts")
+    }
+
+    #[test]
+    fn every_font_file_in_the_repository_is_bundled_and_listed() {
+        let on_disk: BTreeSet<String> = std::fs::read_dir(repo_fonts())
+            .unwrap()
+            .map(|e| e.unwrap().file_name().to_string_lossy().into_owned())
+            .filter(|n| n.ends_with(".ttf") || n.ends_with(".otf") || n.ends_with(".ttc"))
+            .collect();
+        let bundled: BTreeSet<String> = BUNDLED_FONTS.iter().map(|(n, _)| n.to_string()).collect();
+        assert_eq!(on_disk, bundled);
+        let readme = std::fs::read_to_string(repo_fonts().join("README.md")).unwrap();
+        for name in &bundled {
+            assert!(
+                readme.contains(name.as_str()),
+                "fonts/README.md lacks {name}"
+            );
+        }
+    }
+
+    #[test]
+    fn bundle_stays_small() {
+        let total: usize = BUNDLED_FONTS.iter().map(|(_, b)| b.len()).sum();
+        assert!(total < 15 * 1024 * 1024, "{total} bytes of fonts");
+    }
+
+    #[test]
+    fn rules_name_each_family() {
+        let rules = font_rules();
+        for family in TEXT_FAMILIES.iter().chain(MONO_FAMILIES) {
+            assert!(rules.contains(&format!("\"{family}\"")), "{family}");
+        }
+    }
+}

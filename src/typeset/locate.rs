@@ -1,0 +1,295 @@
+//! Finding the `typst` program and checking its version, once, before any
+//! work is done, so a missing or outdated install is reported up front with
+//! the command that fixes it.
+//!
+//! Search order: the `--typst PATH` option, then the `AMPREPORT_TYPST`
+//! environment variable, then `typst` on `PATH`. A value without a path
+//! separator (`typst-0.15`) is looked up on `PATH`; anything else is taken as
+//! a path to the program.
+
+use std::ffi::OsStr;
+use std::fmt;
+use std::path::{Path, PathBuf};
+use std::process::{Command, Stdio};
+
+use super::error::TypesetError;
+use super::version::{MAX_TYPST_EXCLUSIVE, MIN_TYPST, TypstVersion};
+
+/// The environment variable naming the typst program.
+pub const TYPST_ENV: &str = "AMPREPORT_TYPST";
+
+/// A typst program that exists, runs and reported a supported version.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub struct TypstProgram {
+    pub path: PathBuf,
+    pub version: TypstVersion,
+}
+
+impl TypstProgram {
+    /// A line to show the user when this typst is newer than the tested
+    /// series: it is used anyway, but layout may differ.
+    pub fn version_warning(&self) -> Option<String> {
+        (self.version >= MAX_TYPST_EXCLUSIVE).then(|| {
+            format!(
+                "{} is typst {}, newer than the tested {}.{}.x series; \
+                 the document may look different",
+                self.path.display(),
+                self.version,
+                MIN_TYPST.major,
+                MIN_TYPST.minor,
+            )
+        })
+    }
+}
+
+impl fmt::Display for TypstProgram {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        write!(f, "typst {} ({})", self.version, self.path.display())
+    }
+}
+
+/// Finds typst and checks its version.
+///
+/// `explicit` is the `--typst PATH` option. Without it, `AMPREPORT_TYPST` and
+/// then `PATH` are consulted.
+pub fn locate(explicit: Option<&Path>) -> Result<TypstProgram, TypesetError> {
+    locate_in(
+        explicit,
+        std::env::var_os(TYPST_ENV).as_deref(),
+        std::env::var_os("PATH").as_deref(),
+    )
+}
+
+/// [`locate`] with the environment passed in, so tests need not change the
+/// process environment.
+pub fn locate_in(
+    explicit: Option<&Path>,
+    env_value: Option<&OsStr>,
+    path_var: Option<&OsStr>,
+) -> Result<TypstProgram, TypesetError> {
+    let env_value = env_value.filter(|v| !v.is_empty());
+    let path = match (explicit, env_value) {
+        (Some(given), _) => resolve(given.as_os_str(), path_var, "the path given with --typst")?,
+        (None, Some(value)) => resolve(value, path_var, "the path in AMPREPORT_TYPST")?,
+        (None, None) => search_path(OsStr::new(program_name()), path_var).ok_or_else(|| {
+            TypesetError::NotFound {
+                looked: format!("no `{}` on PATH", program_name()),
+            }
+        })?,
+    };
+    let version = query_version(&path)?;
+    if version < MIN_TYPST {
+        return Err(TypesetError::TooOld {
+            path,
+            found: version,
+        });
+    }
+    Ok(TypstProgram { path, version })
+}
+
+fn program_name() -> &'static str {
+    if cfg!(windows) { "typst.exe" } else { "typst" }
+}
+
+/// Turns a `--typst` or `AMPREPORT_TYPST` value into an existing program.
+fn resolve(value: &OsStr, path_var: Option<&OsStr>, origin: &str) -> Result<PathBuf, TypesetError> {
+    let as_path = Path::new(value);
+    let bare_name = as_path.components().count() == 1 && as_path.parent() == Some(Path::new(""));
+    if bare_name && !as_path.exists() {
+        return search_path(value, path_var).ok_or_else(|| TypesetError::NotFound {
+            looked: format!("no `{}` on PATH ({origin})", as_path.display()),
+        });
+    }
+    if !as_path.exists() {
+        return Err(TypesetError::NotFound {
+            looked: format!("{} does not exist ({origin})", as_path.display()),
+        });
+    }
+    if !is_executable(as_path) {
+        return Err(TypesetError::NotFound {
+            looked: format!("{} is not an executable file ({origin})", as_path.display()),
+        });
+    }
+    Ok(as_path.to_path_buf())
+}
+
+/// The first executable `name` in the folders of `path_var`.
+fn search_path(name: &OsStr, path_var: Option<&OsStr>) -> Option<PathBuf> {
+    let path_var = path_var?;
+    std::env::split_paths(path_var)
+        .filter(|dir| !dir.as_os_str().is_empty())
+        .map(|dir| dir.join(name))
+        .find(|candidate| is_executable(candidate))
+}
+
+#[cfg(unix)]
+fn is_executable(path: &Path) -> bool {
+    use std::os::unix::fs::PermissionsExt;
+    path.metadata()
+        .map(|m| m.is_file() && m.permissions().mode() & 0o111 != 0)
+        .unwrap_or(false)
+}
+
+#[cfg(not(unix))]
+fn is_executable(path: &Path) -> bool {
+    path.is_file()
+}
+
+/// Runs `PATH --version` and reads the answer.
+fn query_version(path: &Path) -> Result<TypstVersion, TypesetError> {
+    let output = Command::new(path)
+        .arg("--version")
+        .stdin(Stdio::null())
+        .output()
+        .map_err(|source| TypesetError::Unusable {
+            path: path.to_path_buf(),
+            problem: format!("it failed to start ({source})"),
+            source: Some(source),
+        })?;
+    let stdout = String::from_utf8_lossy(&output.stdout);
+    match TypstVersion::parse_version_output(&stdout) {
+        Some(version) if output.status.success() => Ok(version),
+        _ => {
+            let mut said = stdout.trim().to_owned();
+            if said.is_empty() {
+                said = String::from_utf8_lossy(&output.stderr).trim().to_owned();
+            }
+            let said = said.lines().next().unwrap_or("").chars().take(200);
+            Err(TypesetError::Unusable {
+                path: path.to_path_buf(),
+                problem: format!(
+                    "`--version` ended with {} and printed {:?}, not `typst X.Y.Z`",
+                    output.status,
+                    said.collect::<String>(),
+                ),
+                source: None,
+            })
+        }
+    }
+}
+
+#[cfg(all(test, unix))]
+mod tests {
+    use super::*;
+    use crate::typeset::error::INSTALL_HINT;
+    use miette::Diagnostic;
+    use std::os::unix::fs::PermissionsExt;
+
+    /// Writes a shell script that answers `--version` with `answer`.
+    fn fake_typst(dir: &Path, name: &str, answer: &str) -> PathBuf {
+        let path = dir.join(name);
+        std::fs::write(&path, format!("#!/bin/sh\necho '{answer}'\n")).unwrap();
+        std::fs::set_permissions(&path, std::fs::Permissions::from_mode(0o755)).unwrap();
+        // A process forked by another test thread while the script was open
+        // for writing can hold it open for a moment, and running the script
+        // then fails with "text file busy". Wait until it runs.
+        for _ in 0..200 {
+            match Command::new(&path).arg("--version").output() {
+                Err(e) if e.raw_os_error() == Some(26) => {
+                    std::thread::sleep(std::time::Duration::from_millis(10))
+                }
+                _ => break,
+            }
+        }
+        path
+    }
+
+    fn help_of(err: &TypesetError) -> String {
+        err.help().map(|h| h.to_string()).unwrap_or_default()
+    }
+
+    #[test]
+    fn explicit_missing_path_names_it_and_the_install_command() {
+        let err = locate_in(Some(Path::new("/nowhere/typst")), None, None).unwrap_err();
+        assert!(err.is_environment());
+        assert!(err.to_string().contains("/nowhere/typst"), "{err}");
+        assert!(err.to_string().contains("--typst"), "{err}");
+        assert!(help_of(&err).contains(INSTALL_HINT));
+    }
+
+    #[test]
+    fn empty_path_gives_install_hint() {
+        let empty = tempfile::tempdir().unwrap();
+        let err = locate_in(None, None, Some(empty.path().as_os_str())).unwrap_err();
+        assert!(matches!(err, TypesetError::NotFound { .. }), "{err:?}");
+        assert!(err.to_string().contains("PATH"));
+        assert!(help_of(&err).contains(INSTALL_HINT));
+        let err = locate_in(None, None, None).unwrap_err();
+        assert!(matches!(err, TypesetError::NotFound { .. }));
+    }
+
+    #[test]
+    fn finds_on_path_and_reads_version() {
+        let dir = tempfile::tempdir().unwrap();
+        let other = tempfile::tempdir().unwrap();
+        let fake = fake_typst(dir.path(), "typst", "typst 0.15.1 (deadbeef)");
+        let path_var = std::env::join_paths([other.path(), dir.path()]).unwrap();
+        let found = locate_in(None, None, Some(&path_var)).unwrap();
+        assert_eq!(found.path, fake);
+        assert_eq!(found.version, TypstVersion::new(0, 15, 1));
+        assert_eq!(found.version_warning(), None);
+        assert!(found.to_string().starts_with("typst 0.15.1 ("));
+    }
+
+    #[test]
+    fn explicit_beats_env_beats_path() {
+        let dir = tempfile::tempdir().unwrap();
+        let a = fake_typst(dir.path(), "a", "typst 0.15.1 (a)");
+        let b = fake_typst(dir.path(), "b", "typst 0.15.2 (b)");
+        let _c = fake_typst(dir.path(), "typst", "typst 0.15.3 (c)");
+        let path_var = dir.path().as_os_str();
+        let got = locate_in(Some(&a), Some(b.as_os_str()), Some(path_var)).unwrap();
+        assert_eq!(got.path, a);
+        let got = locate_in(None, Some(b.as_os_str()), Some(path_var)).unwrap();
+        assert_eq!(got.path, b);
+        let got = locate_in(None, Some(OsStr::new("")), Some(path_var)).unwrap();
+        assert_eq!(got.version, TypstVersion::new(0, 15, 3));
+        // A bare name in the variable is looked up on PATH.
+        let got = locate_in(None, Some(OsStr::new("b")), Some(path_var)).unwrap();
+        assert_eq!(got.path, b);
+    }
+
+    #[test]
+    fn too_old_is_an_error_naming_path_and_version() {
+        let dir = tempfile::tempdir().unwrap();
+        let old = fake_typst(dir.path(), "typst", "typst 0.10.0 (old)");
+        let err = locate_in(Some(&old), None, None).unwrap_err();
+        assert!(matches!(err, TypesetError::TooOld { .. }), "{err:?}");
+        let text = err.to_string();
+        assert!(
+            text.contains(&old.display().to_string()) && text.contains("0.10.0"),
+            "{text}"
+        );
+        assert!(help_of(&err).contains(INSTALL_HINT));
+    }
+
+    #[test]
+    fn newer_series_is_used_with_a_warning() {
+        let dir = tempfile::tempdir().unwrap();
+        let new = fake_typst(dir.path(), "typst", "typst 0.16.0 (new)");
+        let found = locate_in(Some(&new), None, None).unwrap();
+        let warning = found.version_warning().unwrap();
+        assert!(warning.contains("0.16.0"), "{warning}");
+    }
+
+    #[test]
+    fn a_program_that_is_not_typst_is_unusable() {
+        let dir = tempfile::tempdir().unwrap();
+        let liar = fake_typst(dir.path(), "typst", "hello");
+        let err = locate_in(Some(&liar), None, None).unwrap_err();
+        assert!(matches!(err, TypesetError::Unusable { .. }), "{err:?}");
+        assert!(err.is_environment());
+        assert!(err.to_string().contains("hello"));
+        let err = locate_in(Some(Path::new("/bin/false")), None, None).unwrap_err();
+        assert!(matches!(err, TypesetError::Unusable { .. }), "{err:?}");
+    }
+
+    #[test]
+    fn a_plain_file_is_not_a_program() {
+        let dir = tempfile::tempdir().unwrap();
+        let file = dir.path().join("typst");
+        std::fs::write(&file, "not a program").unwrap();
+        let err = locate_in(Some(&file), None, None).unwrap_err();
+        assert!(err.to_string().contains("not an executable"), "{err}");
+    }
+}

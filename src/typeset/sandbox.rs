@@ -1,0 +1,176 @@
+//! The set of files typst is allowed to see for one document: the generated
+//! main source, plots and images. Collected in memory first, then written to
+//! a fresh folder that becomes typst's `--root`, so a document can read
+//! nothing else on the machine.
+
+use std::collections::BTreeMap;
+use std::io;
+use std::path::{Path, PathBuf};
+
+use super::error::TypesetError;
+use super::fonts::{FONT_DIR, write_fonts};
+
+/// Files for one typst run, keyed by their path relative to the sandbox
+/// root (`main.typ`, `plots/anode.svg`). Sorted, so writing is in a fixed
+/// order.
+#[derive(Debug, Clone, Default, PartialEq, Eq)]
+pub struct Sandbox {
+    files: BTreeMap<String, Vec<u8>>,
+}
+
+impl Sandbox {
+    pub fn new() -> Self {
+        Self::default()
+    }
+
+    /// Adds or replaces a file. The path must be relative, use `/` between
+    /// parts, contain no `.`/`..` parts, and stay out of the `fonts/` folder,
+    /// which holds the bundled fonts.
+    pub fn insert(
+        &mut self,
+        path: impl Into<String>,
+        contents: impl Into<Vec<u8>>,
+    ) -> Result<&mut Self, TypesetError> {
+        let path = path.into();
+        if let Some(reason) = path_problem(&path) {
+            return Err(TypesetError::BadSandboxPath { path, reason });
+        }
+        self.files.insert(path, contents.into());
+        Ok(self)
+    }
+
+    /// The contents stored at `path`, if any.
+    pub fn get(&self, path: &str) -> Option<&[u8]> {
+        self.files.get(path).map(Vec::as_slice)
+    }
+
+    /// All files in path order.
+    pub fn files(&self) -> impl Iterator<Item = (&str, &[u8])> {
+        self.files.iter().map(|(p, b)| (p.as_str(), b.as_slice()))
+    }
+
+    pub fn len(&self) -> usize {
+        self.files.len()
+    }
+
+    pub fn is_empty(&self) -> bool {
+        self.files.is_empty()
+    }
+
+    /// Writes every file, then the bundled fonts into `fonts/`, under `dir`.
+    pub(crate) fn write_to(&self, dir: &Path) -> io::Result<()> {
+        for (path, contents) in &self.files {
+            let target = native_path(dir, path);
+            if let Some(parent) = target.parent() {
+                std::fs::create_dir_all(parent)?;
+            }
+            std::fs::write(&target, contents)?;
+        }
+        write_fonts(dir)
+    }
+}
+
+/// `dir` joined with a checked `/`-separated sandbox path.
+pub(crate) fn native_path(dir: &Path, path: &str) -> PathBuf {
+    path.split('/')
+        .fold(dir.to_path_buf(), |acc, part| acc.join(part))
+}
+
+/// Why `path` may not be used inside a sandbox, or `None` if it may.
+fn path_problem(path: &str) -> Option<&'static str> {
+    if path.is_empty() {
+        return Some("the path is empty");
+    }
+    if path.starts_with('/') || path.contains(':') {
+        return Some("the path must be relative");
+    }
+    if path.contains('\\') {
+        return Some("use `/` between folder names");
+    }
+    if path.chars().any(char::is_control) {
+        return Some("the path holds a control character");
+    }
+    let mut parts = path.split('/');
+    if parts.clone().any(|p| p.is_empty() || p == "." || p == "..") {
+        return Some("the path has an empty, `.` or `..` part");
+    }
+    if parts.next() == Some(FONT_DIR) {
+        return Some("the `fonts/` folder is reserved for the bundled fonts");
+    }
+    None
+}
+
+/// Writes `sandbox` and the bundled fonts to `dir` (created if missing), so
+/// that `typst compile --root DIR --font-path DIR/fonts --ignore-system-fonts
+/// --ignore-embedded-fonts DIR/main.typ` reproduces the document. Meant for
+/// shops adapting templates and for bug reports.
+pub fn emit_source(sandbox: &Sandbox, dir: &Path) -> io::Result<()> {
+    std::fs::create_dir_all(dir)?;
+    sandbox.write_to(dir)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn accepts_plain_relative_paths() {
+        let mut sandbox = Sandbox::new();
+        sandbox
+            .insert("main.typ", "hello")
+            .unwrap()
+            .insert("plots/anode.svg", b"<svg/>".to_vec())
+            .unwrap()
+            .insert("images/fonts.png", Vec::new())
+            .unwrap();
+        let names: Vec<&str> = sandbox.files().map(|(p, _)| p).collect();
+        assert_eq!(names, ["images/fonts.png", "main.typ", "plots/anode.svg"]);
+        assert_eq!(sandbox.get("main.typ"), Some(&b"hello"[..]));
+        assert_eq!(sandbox.len(), 3);
+    }
+
+    #[test]
+    fn refuses_paths_that_escape_or_clash() {
+        let mut sandbox = Sandbox::new();
+        for bad in [
+            "",
+            "/etc/passwd",
+            "../up.typ",
+            "a/../b",
+            "a//b",
+            "./a",
+            "a/",
+            "C:/x",
+            "a\\b",
+            "fonts/extra.ttf",
+            "fonts",
+            "a\nb",
+        ] {
+            let err = sandbox.insert(bad, "x").unwrap_err();
+            assert!(
+                matches!(err, TypesetError::BadSandboxPath { .. }),
+                "{bad:?}"
+            );
+        }
+        assert!(sandbox.is_empty());
+    }
+
+    #[test]
+    fn emit_source_writes_files_and_fonts() {
+        let dir = tempfile::tempdir().unwrap();
+        let out = dir.path().join("src");
+        let mut sandbox = Sandbox::new();
+        sandbox.insert("main.typ", "= Hi").unwrap();
+        sandbox.insert("plots/p.svg", "<svg/>").unwrap();
+        emit_source(&sandbox, &out).unwrap();
+        assert_eq!(
+            std::fs::read_to_string(out.join("main.typ")).unwrap(),
+            "= Hi"
+        );
+        assert!(out.join("plots").join("p.svg").is_file());
+        for (name, bytes) in super::super::fonts::BUNDLED_FONTS {
+            assert_eq!(&std::fs::read(out.join("fonts").join(name)).unwrap(), bytes);
+        }
+        assert!(out.join("fonts").join("OFL-1.1.txt").is_file());
+    }
+}
