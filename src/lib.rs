@@ -7,6 +7,8 @@
 
 pub mod cli;
 pub mod job;
+pub mod calc;
+pub mod ratings;
 pub mod report;
 pub mod typeset;
 pub mod units;

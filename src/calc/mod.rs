@@ -11,7 +11,7 @@ mod valve;
 pub use findings::*;
 pub use mains::{chart_expected, corrected_power, corrected_volts, high_line_power, high_line_volts};
 pub use status::{Status, Verdict, worst_of};
-pub use supply::cold_start_peak;
+pub use supply::{cold_start_peak, w as resistor_power_words};
 pub use valve::{cathode_current_shared, plate_current_from_drop, plate_dissipation, screen_current, target_current};
 
 use crate::job::Job;

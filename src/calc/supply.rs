@@ -19,8 +19,9 @@ fn v(x: f64) -> String {
     format_engineering(x, QuantityKind::Voltage)
 }
 
-fn w(x: f64) -> String {
-    format!("{x:.2} W")
+/// Resistor power: two decimals of a watt, or milliwatts when tiny.
+pub fn w(x: f64) -> String {
+    if x.abs() < 0.01 { format_engineering(x, QuantityKind::Power) } else { format!("{x:.2} W") }
 }
 
 pub(crate) fn nodes(job: &Job, set: &MeasurementSet, circuit: &Circuit, settings: &Settings) -> Vec<NodeFindings> {
@@ -91,17 +92,17 @@ fn resistor(
     let pct_h = rating.map(|rt| p_h / rt * 100.0);
     let verdict = match (rating, pct, pct_h) {
         (Some(rt), Some(pct), Some(pct_h)) => {
-            let mut verdict = under_rating(pct, settings.resistor_derating, &format!("{reference} dissipation {}", w(p.0)), &format_engineering(rt.0, QuantityKind::Power));
+            let mut verdict = under_rating(pct, settings.resistor_derating, &format!("dissipation {}", w(p.0)), &format_engineering(rt.0, QuantityKind::Power));
             if verdict.status == Status::Ok && pct_h > settings.resistor_derating * 100.0 {
                 verdict = Verdict::new(
                     Status::Caution,
-                    format!("{reference} would dissipate {} at high line, {pct_h:.0} % of its rating", w(p_h.0)),
+                    format!("would dissipate {} at high line, {pct_h:.0} % of its rating", w(p_h.0)),
                     verdict.threshold,
                 );
             }
             verdict
         }
-        _ => Verdict::ok(format!("{reference} dissipates {}; no rating given", w(p.0)), "none: the job gives no power rating"),
+        _ => Verdict::ok(format!("dissipates {}; no rating given", w(p.0)), "none: the job gives no power rating"),
     };
     ResistorFindings {
         reference: reference.to_string(),

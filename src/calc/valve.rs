@@ -321,11 +321,24 @@ fn dissipation_verdict(
     }
 }
 
+/// How far above a published voltage maximum a reading may go before it
+/// counts as over rather than caution. Common practice: guitar amplifiers
+/// often run output valves somewhat above the design-centre voltage
+/// maxima; plate dissipation, checked separately, governs valve life.
+pub const VOLTAGE_OVER_FACTOR: f64 = 1.20;
+
 fn max_verdict(what: &str, v: Volts, high: Volts, max: Volts) -> Verdict {
-    let threshold = format!("over above the {} maximum; caution when the high-line projection is above it", format_engineering(max.0, crate::units::QuantityKind::Voltage));
+    let max_words = format_engineering(max.0, crate::units::QuantityKind::Voltage);
+    let threshold = format!(
+        "caution above the {max_words} maximum (or when the high-line projection is above it), over above {:.0} % of it",
+        VOLTAGE_OVER_FACTOR * 100.0
+    );
     let pct = v / max * 100.0;
-    if v.0 > max.0 {
-        Verdict::new(Status::Over, format!("{what} {} is {pct:.0} % of its {} maximum", format_engineering(v.0, crate::units::QuantityKind::Voltage), format_engineering(max.0, crate::units::QuantityKind::Voltage)), threshold)
+    let v_words = format_engineering(v.0, crate::units::QuantityKind::Voltage);
+    if v.0 > max.0 * VOLTAGE_OVER_FACTOR {
+        Verdict::new(Status::Over, format!("{what} {v_words} is {pct:.0} % of its {max_words} maximum"), threshold)
+    } else if v.0 > max.0 {
+        Verdict::new(Status::Caution, format!("{what} {v_words} is {pct:.0} % of its {max_words} maximum"), threshold)
     } else if high.0 > max.0 {
         Verdict::new(Status::Caution, format!("{what} would reach {} at high line, above its {} maximum", format_engineering(high.0, crate::units::QuantityKind::Voltage), format_engineering(max.0, crate::units::QuantityKind::Voltage)), threshold)
     } else {

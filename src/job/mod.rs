@@ -6,6 +6,7 @@ mod decode_error;
 mod model;
 mod reader;
 mod validate;
+mod valve_types;
 
 pub use decode::{CIRCUIT_NODES, FORMAT_VERSION, SETTINGS, TOP_LEVEL};
 pub use decode_error::{DecodeError, JobDiagnostics, did_you_mean, line_column, suggestion_help};
@@ -22,9 +23,19 @@ pub struct Decoded {
     pub diagnostics: JobDiagnostics,
 }
 
-/// Decodes job-file text. `name` is the file name used in messages.
+/// Decodes job-file text and checks every valve type against `ratings`.
 /// Never panics, whatever the text.
+pub fn decode_with_ratings(name: &str, text: &str, ratings: &crate::ratings::RatingsTable) -> Result<Decoded, JobDiagnostics> {
+    decode_inner(name, text, Some(ratings))
+}
+
+/// Decodes job-file text without checking valve types. `name` is the file
+/// name used in messages. Never panics, whatever the text.
 pub fn decode(name: &str, text: &str) -> Result<Decoded, JobDiagnostics> {
+    decode_inner(name, text, None)
+}
+
+fn decode_inner(name: &str, text: &str, ratings: Option<&crate::ratings::RatingsTable>) -> Result<Decoded, JobDiagnostics> {
     let source = NamedSource::new(name, Arc::new(text.to_string())).with_language("kdl");
     let mut problems = Vec::new();
     let job = match kdl::KdlDocument::parse(text) {
@@ -34,6 +45,9 @@ pub fn decode(name: &str, text: &str) -> Result<Decoded, JobDiagnostics> {
             problems.append(&mut reader.problems);
             if let Some(job) = &job {
                 problems.extend(validate::cross_references(job));
+                if let Some(ratings) = ratings {
+                    problems.extend(valve_types::check(job, ratings));
+                }
             }
             job
         }

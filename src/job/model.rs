@@ -210,9 +210,10 @@ impl Circuit {
     /// one valve, the same valve; for the bias, winding and rectifier, the
     /// single fact).
     pub fn with_changes(&self, changes: &Circuit) -> Circuit {
+        /// Each base fact replaced in place by its change; new facts last.
         fn merge<T: Clone>(base: &[T], changes: &[T], same: impl Fn(&T, &T) -> bool) -> Vec<T> {
-            let mut out: Vec<T> = base.iter().filter(|b| !changes.iter().any(|c| same(b, c))).cloned().collect();
-            out.extend(changes.iter().cloned());
+            let mut out: Vec<T> = base.iter().map(|b| changes.iter().find(|c| same(b, c)).unwrap_or(b).clone()).collect();
+            out.extend(changes.iter().filter(|c| !base.iter().any(|b| same(b, c))).cloned());
             out
         }
         fn names(v: &[Spanned<String>]) -> Vec<&str> {

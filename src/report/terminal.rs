@@ -233,7 +233,7 @@ fn render_set(set: &SetFindings, style: &TerminalStyle) -> String {
             t.row(vec![
                 r.reference.clone(),
                 r.place.clone(),
-                format!("{} W", format_fixed(r.power_w, 2)),
+                crate::calc::resistor_power_words(r.power_w),
                 opt(r.rating_w, |w| format_engineering(w, Q::Power)),
                 opt(r.power_pct, pct),
                 status_word(r.verdict.status),

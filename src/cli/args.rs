@@ -1,0 +1,95 @@
+//! Every command-line definition, in one place.
+
+use clap::{Args, Parser, Subcommand};
+use std::path::PathBuf;
+
+#[derive(Debug, Parser)]
+#[command(
+    name = "ampreport",
+    version,
+    about = "Checks a valve-amplifier repair job file and turns it into a hand-over document",
+    long_about = "Reads one KDL job file (the unit, its measurements, parts and mods, safety tests), \
+derives plate and screen dissipation, mains-corrected and high-line figures and the stress on \
+resistors and capacitors, and prints them or typesets a PDF hand-over document.",
+    after_help = "Exit status: 0 success; 1 the job file (or a ratings file) is invalid or unreadable; \
+2 the command line is wrong; 3 the tool's environment failed (e.g. typst missing); 4 --strict found a figure over its limit."
+)]
+pub struct Cli {
+    #[command(subcommand)]
+    pub command: Command,
+}
+
+#[derive(Debug, Subcommand)]
+pub enum Command {
+    /// Decode and derive a job, then print a summary of every figure and warning.
+    Check(CheckArgs),
+    /// Print every derived figure of a job as JSON.
+    Calc(CalcArgs),
+    /// Typeset the PDF hand-over document for a job.
+    Render(RenderArgs),
+    /// List the valve ratings table, or show one type with its source note.
+    Tubes(TubesArgs),
+    /// Write an annotated skeleton job file to start from.
+    Init(InitArgs),
+}
+
+/// Options every command that reads a job shares.
+#[derive(Debug, Args)]
+pub struct JobArgs {
+    /// The job file (KDL).
+    pub job: PathBuf,
+    /// A shop's own ratings file that adds or corrects valve types.
+    #[arg(long, value_name = "FILE")]
+    pub ratings: Vec<PathBuf>,
+}
+
+#[derive(Debug, Args)]
+pub struct CheckArgs {
+    #[command(flatten)]
+    pub job: JobArgs,
+    /// Exit with status 4 when any figure is over its limit.
+    #[arg(long)]
+    pub strict: bool,
+}
+
+#[derive(Debug, Args)]
+pub struct CalcArgs {
+    #[command(flatten)]
+    pub job: JobArgs,
+    /// Print JSON (the only format; the flag states it in scripts).
+    #[arg(long)]
+    pub json: bool,
+}
+
+#[derive(Debug, Args)]
+pub struct RenderArgs {
+    #[command(flatten)]
+    pub job: JobArgs,
+    /// Where to write the PDF (default: beside the job file, same name, .pdf).
+    #[arg(short, long, value_name = "FILE")]
+    pub output: Option<PathBuf>,
+    /// The typst program to run (default: $AMPREPORT_TYPST, else typst on PATH).
+    #[arg(long, value_name = "PATH")]
+    pub typst: Option<PathBuf>,
+    /// A folder of templates that replace the built-in ones by file name.
+    #[arg(long, value_name = "DIR")]
+    pub templates: Option<PathBuf>,
+    /// Also write the generated Typst source and its assets to this folder.
+    #[arg(long, value_name = "DIR")]
+    pub emit_source: Option<PathBuf>,
+}
+
+#[derive(Debug, Args)]
+pub struct TubesArgs {
+    /// A valve type to show in full (equivalents are found too).
+    pub valve_type: Option<String>,
+    /// A shop's own ratings file that adds or corrects valve types.
+    #[arg(long, value_name = "FILE")]
+    pub ratings: Vec<PathBuf>,
+}
+
+#[derive(Debug, Args)]
+pub struct InitArgs {
+    /// Where to write the new job file; an existing file is never replaced.
+    pub path: PathBuf,
+}
