@@ -1,6 +1,7 @@
 //! The job file: decoding KDL into a typed [`Job`] whose values keep their
 //! source spans. Every problem is collected into one [`JobDiagnostics`].
 
+mod bare_value;
 mod decode;
 mod decode_error;
 mod model;
@@ -52,7 +53,7 @@ fn decode_inner(name: &str, text: &str, ratings: Option<&crate::ratings::Ratings
             job
         }
         Err(e) => {
-            problems.extend(syntax_problems(&e));
+            problems.extend(syntax_problems(text, &e));
             None
         }
     };
@@ -76,22 +77,40 @@ fn decode_inner(name: &str, text: &str, ratings: Option<&crate::ratings::Ratings
     }
 }
 
-/// KDL syntax errors, as our own problems so they render alike.
-fn syntax_problems(e: &kdl::KdlError) -> Vec<DecodeError> {
-    e.diagnostics
+/// KDL syntax errors, as our own problems so they render alike. Values
+/// written without quotes (`nominal=120V`) are found by a scan of their own
+/// and replace the parser's report of them, whose span covers the whole
+/// document.
+fn syntax_problems(text: &str, e: &kdl::KdlError) -> Vec<DecodeError> {
+    let bare = bare_value::find(text);
+    let covers_bare = |span: &SourceSpan| {
+        bare.iter().any(|b| span.offset() <= b.offset() && b.offset() < span.offset() + span.len().max(1))
+    };
+    let mut out: Vec<DecodeError> = bare
         .iter()
-        .map(|d| {
-            let message = d.message.clone().unwrap_or_else(|| "the KDL syntax is broken here".to_string());
-            let mut p = DecodeError::error(
+        .map(|&span| {
+            let value = &text[span.offset()..span.offset() + span.len()];
+            DecodeError::error(
                 "job::syntax",
-                d.span,
-                format!("KDL syntax: {message}"),
-                d.label.clone().unwrap_or_else(|| "here".to_string()),
-            );
-            p.help = Some(d.help.clone().unwrap_or_else(|| {
-                "job files are KDL 2.0: text in double quotes, booleans as #true/#false, one node per line".to_string()
-            }));
-            p
+                span,
+                format!("KDL syntax: `{value}` is not a number, so it must be written in quotes"),
+                "needs quotes",
+            )
+            .with_help(format!("write \"{value}\": a value with a unit, or a name that starts with a digit, is text in double quotes"))
         })
-        .collect()
+        .collect();
+    out.extend(e.diagnostics.iter().filter(|d| !covers_bare(&d.span)).map(|d| {
+        let message = d.message.clone().unwrap_or_else(|| "the KDL syntax is broken here".to_string());
+        let mut p = DecodeError::error(
+            "job::syntax",
+            d.span,
+            format!("KDL syntax: {message}"),
+            d.label.clone().unwrap_or_else(|| "here".to_string()),
+        );
+        p.help = Some(d.help.clone().unwrap_or_else(|| {
+            "job files are KDL 2.0: text in double quotes, booleans as #true/#false, one node per line".to_string()
+        }));
+        p
+    }));
+    out
 }
