@@ -5,5 +5,6 @@
 //! figure with [`ratings`] and [`units`], [`report`] presents the findings and
 //! [`typeset`] runs the `typst` command. [`cli`] ties them to the command line.
 
+pub mod ratings;
 pub mod units;
 pub mod cli;

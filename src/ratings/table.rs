@@ -1,0 +1,314 @@
+//! The ratings table: the rows built into the program, plus whatever a
+//! shop's own ratings files add or correct, found by designation.
+
+use std::collections::{HashMap, HashSet};
+use std::path::Path;
+use std::sync::Arc;
+
+use super::decode::read_file;
+use super::designation::{UnknownValve, designation_key, nearest};
+use super::diagnostic::{RatingProblem, RatingsFileError, UnreadableRatingsFile};
+use super::draft::{Draft, check_row};
+use super::rating::{Rating, RatingOrigin};
+
+/// The ratings file compiled into the program.
+pub const BUILTIN_TEXT: &str = include_str!("../../ratings/valves.kdl");
+
+/// The name the built-in file is reported under.
+pub const BUILTIN_NAME: &str = "ratings/valves.kdl";
+
+/// Every known valve type, listed by class then name, and found by any of
+/// its designations.
+#[derive(Debug, Clone, Default)]
+pub struct RatingsTable {
+    /// Sorted by class, then name.
+    rows: Vec<Rating>,
+    /// Designation key (see [`designation_key`]) to row index.
+    index: HashMap<String, usize>,
+}
+
+impl RatingsTable {
+    /// The table built into the program.
+    ///
+    /// # Panics
+    ///
+    /// Only if the embedded ratings file is broken, which the tests rule out.
+    pub fn builtin() -> RatingsTable {
+        let rows = RatingsTable::from_kdl_text(BUILTIN_NAME, BUILTIN_TEXT, RatingOrigin::Builtin)
+            .expect("the built-in ratings file ratings/valves.kdl must parse (the ratings tests check it)");
+        let mut table = RatingsTable {
+            rows,
+            index: HashMap::new(),
+        };
+        table.reindex();
+        table
+    }
+
+    /// Reads complete rows from KDL text in the ratings-file format. `name`
+    /// is the file name shown in error messages. Every row must be complete
+    /// and no designation may appear twice; all problems are reported in one
+    /// report.
+    pub fn from_kdl_text(
+        name: &str,
+        text: &str,
+        origin: RatingOrigin,
+    ) -> Result<Vec<Rating>, miette::Report> {
+        let (drafts, mut problems) = read_file(text);
+        let mut owners: HashMap<String, String> = HashMap::new();
+        let mut rows = Vec::new();
+        for draft in drafts {
+            if owners
+                .get(&designation_key(&draft.name))
+                .is_some_and(|o| designation_key(o) == designation_key(&draft.name))
+            {
+                problems.push(
+                    RatingProblem::new(
+                        format!("{} is listed twice", draft.name),
+                        draft.name_span,
+                        "second listing here",
+                    )
+                    .with_help("keep one valve block per type"),
+                );
+                continue;
+            }
+            problems.extend(claim_designations(&draft, &draft.name, &mut owners));
+            let check_draft = draft.clone();
+            match draft.into_new_rating(origin.clone()) {
+                Ok(row) => {
+                    problems.extend(check_row(&row, &check_draft));
+                    rows.push(row);
+                }
+                Err(p) => problems.push(p),
+            }
+        }
+        if problems.is_empty() {
+            Ok(rows)
+        } else {
+            Err(file_error(name, text, problems))
+        }
+    }
+
+    /// Reads a shop's ratings file. A `valve` node whose designation is
+    /// already in the table corrects that row: the fields it gives replace
+    /// the existing ones, equivalents are added, and the row is marked as
+    /// coming from this file. Any other `valve` node adds a new type and
+    /// must be complete. If the file has any problem, all of them are
+    /// reported at once and the table is left as it was.
+    pub fn load_shop_file(&mut self, path: &Path) -> Result<(), miette::Report> {
+        let text = std::fs::read_to_string(path).map_err(|cause| UnreadableRatingsFile {
+            path: path.display().to_string(),
+            cause,
+        })?;
+        self.apply_shop_text(
+            &path.display().to_string(),
+            &text,
+            RatingOrigin::Shop(path.to_path_buf()),
+        )
+    }
+
+    /// The work of [`RatingsTable::load_shop_file`] on text already read.
+    pub(super) fn apply_shop_text(
+        &mut self,
+        name: &str,
+        text: &str,
+        origin: RatingOrigin,
+    ) -> Result<(), miette::Report> {
+        let (drafts, mut problems) = read_file(text);
+        // Who each designation belongs to, starting from the table.
+        let mut owners: HashMap<String, String> = self
+            .index
+            .iter()
+            .map(|(key, &i)| (key.clone(), self.rows[i].name.clone()))
+            .collect();
+        let mut corrected: HashMap<usize, Rating> = HashMap::new();
+        let mut added: Vec<Rating> = Vec::new();
+        let mut added_keys: HashSet<String> = HashSet::new();
+        for draft in drafts {
+            let key = designation_key(&draft.name);
+            match self.index.get(&key).copied() {
+                Some(i) => {
+                    if corrected.contains_key(&i) {
+                        problems.push(
+                            RatingProblem::new(
+                                format!("{} is corrected twice in this file", self.rows[i].name),
+                                draft.name_span,
+                                "second correction here",
+                            )
+                            .with_help("put all corrections of one type in one valve block"),
+                        );
+                        continue;
+                    }
+                    let owner = self.rows[i].name.clone();
+                    problems.extend(claim_designations(&draft, &owner, &mut owners));
+                    let row = draft.correct(&self.rows[i], origin.clone());
+                    problems.extend(check_row(&row, &draft));
+                    corrected.insert(i, row);
+                }
+                None => {
+                    if added_keys.contains(&key) {
+                        problems.push(
+                            RatingProblem::new(
+                                format!("{} is listed twice in this file", draft.name),
+                                draft.name_span,
+                                "second listing here",
+                            )
+                            .with_help("keep one valve block per type"),
+                        );
+                        continue;
+                    }
+                    added_keys.insert(key);
+                    let owner = draft.name.clone();
+                    problems.extend(claim_designations(&draft, &owner, &mut owners));
+                    let check_draft = draft.clone();
+                    match draft.into_new_rating(origin.clone()) {
+                        Ok(row) => {
+                            problems.extend(check_row(&row, &check_draft));
+                            added.push(row);
+                        }
+                        Err(p) => problems.push(p),
+                    }
+                }
+            }
+        }
+        if !problems.is_empty() {
+            return Err(file_error(name, text, problems));
+        }
+        for (i, row) in corrected {
+            self.rows[i] = row;
+        }
+        self.rows.extend(added);
+        self.reindex();
+        Ok(())
+    }
+
+    /// Finds a row by any of its designations, ignoring case, spaces and
+    /// hyphens. A designation the table lacks is an error even when a close
+    /// one exists (a suffix letter can change the ratings); the error
+    /// carries the nearest designations.
+    pub fn lookup(&self, name: &str) -> Result<&Rating, UnknownValve> {
+        self.index
+            .get(&designation_key(name))
+            .map(|&i| &self.rows[i])
+            .ok_or_else(|| UnknownValve {
+                name: name.to_string(),
+                suggestions: self.suggest(name),
+            })
+    }
+
+    /// The designations nearest to `name`, closest first, at most three.
+    pub fn suggest(&self, name: &str) -> Vec<String> {
+        nearest(name, self.rows.iter().flat_map(Rating::designations))
+    }
+
+    /// Every row, by class then name.
+    pub fn iter(&self) -> impl Iterator<Item = &Rating> {
+        self.rows.iter()
+    }
+
+    /// The number of valve types.
+    pub fn len(&self) -> usize {
+        self.rows.len()
+    }
+
+    /// Whether the table has no rows.
+    pub fn is_empty(&self) -> bool {
+        self.rows.is_empty()
+    }
+
+    /// Sorts the rows and rebuilds the designation index.
+    fn reindex(&mut self) {
+        self.rows.sort_by(|a, b| {
+            a.class
+                .cmp(&b.class)
+                .then_with(|| designation_order(&a.name, &b.name))
+        });
+        self.index.clear();
+        for (i, row) in self.rows.iter().enumerate() {
+            for d in row.designations() {
+                self.index.entry(designation_key(d)).or_insert(i);
+            }
+        }
+    }
+}
+
+/// Orders designations as text, but with runs of digits compared as
+/// numbers, so that 6V6 comes before 12AX7.
+fn designation_order(a: &str, b: &str) -> std::cmp::Ordering {
+    fn parts(s: &str) -> Vec<(u8, u64, String)> {
+        let mut out = Vec::new();
+        let mut chars = s.chars().peekable();
+        while let Some(&c) = chars.peek() {
+            let digit = c.is_ascii_digit();
+            let mut run = String::new();
+            while let Some(&c) = chars.peek() {
+                if c.is_ascii_digit() != digit {
+                    break;
+                }
+                run.push(c);
+                chars.next();
+            }
+            if digit {
+                out.push((0, run.parse().unwrap_or(u64::MAX), run));
+            } else {
+                out.push((1, 0, run.to_uppercase()));
+            }
+        }
+        out
+    }
+    parts(a).cmp(&parts(b)).then_with(|| a.cmp(b))
+}
+
+/// Records that `owner` holds the draft's designations, reporting any that
+/// another type already holds, and equivalents that repeat the draft's own
+/// designation.
+fn claim_designations(
+    draft: &Draft,
+    owner: &str,
+    owners: &mut HashMap<String, String>,
+) -> Vec<RatingProblem> {
+    let owner_key = designation_key(owner);
+    let name_key = designation_key(&draft.name);
+    let mut problems = Vec::new();
+    let all = std::iter::once((&draft.name, draft.name_span, false))
+        .chain(draft.equivalents.iter().map(|(e, s)| (e, *s, true)));
+    for (d, span, is_equivalent) in all {
+        let key = designation_key(d);
+        if is_equivalent && key == name_key {
+            problems.push(
+                RatingProblem::new(
+                    format!("{d} is the type's own designation"),
+                    span,
+                    "listed again",
+                )
+                .with_help("list only other designations in equivalents"),
+            );
+            continue;
+        }
+        match owners.get(&key) {
+            Some(holder) if designation_key(holder) != owner_key => problems.push(
+                RatingProblem::new(
+                    format!("{d} is already a designation of {holder}"),
+                    span,
+                    format!("belongs to {holder}"),
+                )
+                .with_help(format!(
+                    "each designation names one type; to change {holder}, write a valve \"{holder}\" block"
+                )),
+            ),
+            Some(_) => {}
+            None => {
+                owners.insert(key, owner.to_string());
+            }
+        }
+    }
+    problems
+}
+
+/// Wraps the problems of one file into a single report.
+fn file_error(name: &str, text: &str, problems: Vec<RatingProblem>) -> miette::Report {
+    miette::Report::new(RatingsFileError::new(
+        name,
+        Arc::new(text.to_string()),
+        problems,
+    ))
+}
