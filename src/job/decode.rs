@@ -335,8 +335,12 @@ fn decode_valves(node: &KdlNode, r: &mut Reader) -> Vec<ValvePosition> {
             r.push(DecodeError::error("job::repeated-position", p.span, format!("valve position {} is listed twice", p.value), "repeated here"));
             continue;
         }
-        if let (Some(position), Some(type_name), Some(role)) = (position, type_name, role) {
-            out.push(ValvePosition { position, type_name, role });
+        // A position with a broken type or role is still listed (the error
+        // is already reported), so readings that name it do not cascade
+        // into "no such position" errors.
+        if let Some(position) = position {
+            let type_name = type_name.unwrap_or_else(|| Spanned::new(String::new(), position.span));
+            out.push(ValvePosition { position, type_name, role: role.unwrap_or(Role::Other) });
         }
     }
     out

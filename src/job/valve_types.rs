@@ -8,7 +8,7 @@ use crate::ratings::RatingsTable;
 
 pub fn check(job: &Job, ratings: &RatingsTable) -> Vec<DecodeError> {
     let mut out = Vec::new();
-    for v in &job.valves {
+    for v in job.valves.iter().filter(|v| !v.type_name.value.is_empty()) {
         match ratings.lookup(&v.type_name.value) {
             Ok(rating) => {
                 let output_class = rating.class.is_output();

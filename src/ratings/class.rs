@@ -52,7 +52,7 @@ impl ValveClass {
 
     /// Output (power) valves: pentodes, beam tetrodes and power triodes. These
     /// are the ones whose idle dissipation is checked against a rating.
-    pub fn is_output(self) -> bool {
+    pub fn is_output(&self) -> bool {
         matches!(
             self,
             ValveClass::OutputPentode | ValveClass::BeamTetrode | ValveClass::PowerTriode
@@ -60,8 +60,8 @@ impl ValveClass {
     }
 
     /// Valve rectifiers.
-    pub fn is_rectifier(self) -> bool {
-        self == ValveClass::Rectifier
+    pub fn is_rectifier(&self) -> bool {
+        *self == ValveClass::Rectifier
     }
 
     /// Valves with a screen grid, for which screen ratings make sense.

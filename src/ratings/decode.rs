@@ -2,7 +2,7 @@
 //! node, collecting every problem on the way instead of stopping at the
 //! first. Nothing here panics, whatever the input.
 
-use kdl::{KdlDocument, KdlEntry, KdlNode, KdlValue};
+use kdl::{KdlDocument, KdlEntry, KdlIdentifier, KdlNode, KdlValue};
 use miette::SourceSpan;
 
 use super::class::{RectifierHeating, ValveClass};
@@ -51,9 +51,9 @@ pub(crate) fn read_file(text: &str) -> (Vec<Draft>, Vec<RatingProblem>) {
     let mut drafts = Vec::new();
     let mut problems = Vec::new();
     let mut seen_format = false;
+    let r = Reader { text };
     for node in doc.nodes() {
-        let r = Reader { text };
-        if let Some(p) = r.no_type(node) {
+        if let Some(p) = r.type_problem(node.ty()) {
             problems.push(p);
         }
         match node.name().value() {
@@ -145,7 +145,7 @@ impl Reader<'_> {
     /// The span of an entry's value as written, without surrounding space,
     /// property name or type annotation.
     fn value_span(&self, entry: &KdlEntry) -> SourceSpan {
-        let whole = clamp(self.text, entry.span());
+        let whole = self.entry_span(entry);
         let start = whole.offset();
         let Some(slice) = self.text.get(start..start + whole.len()) else {
             return whole;
@@ -164,9 +164,7 @@ impl Reader<'_> {
         {
             return SourceSpan::from(start + from + at..start + from + at + repr.len());
         }
-        let trimmed = slice.trim();
-        let lead = slice.len() - slice.trim_start().len();
-        SourceSpan::from(start + lead..start + lead + trimmed.len())
+        whole
     }
 
     /// The span of part of a string value (`offset`, `len` within the
@@ -191,10 +189,24 @@ impl Reader<'_> {
         whole
     }
 
+    /// The whole of an entry (a property with its name) without the
+    /// surrounding space.
+    fn entry_span(&self, entry: &KdlEntry) -> SourceSpan {
+        let whole = clamp(self.text, entry.span());
+        let start = whole.offset();
+        match self.text.get(start..start + whole.len()) {
+            Some(slice) => {
+                let lead = slice.len() - slice.trim_start().len();
+                SourceSpan::from(start + lead..start + lead + slice.trim().len())
+            }
+            None => whole,
+        }
+    }
+
     /// Type annotations such as `(mA)12` mean nothing here; rather than
     /// ignore a unit written that way, refuse it.
-    fn no_type(&self, node: &KdlNode) -> Option<RatingProblem> {
-        node.ty().map(|ty| {
+    fn type_problem(&self, ty: Option<&KdlIdentifier>) -> Option<RatingProblem> {
+        ty.map(|ty| {
             RatingProblem::new(
                 format!(
                     "type annotation ({}) is not used in a ratings file",
@@ -244,7 +256,7 @@ impl Reader<'_> {
         let mut problems = Vec::new();
         let mut name: Option<(String, SourceSpan)> = None;
         for entry in node.entries() {
-            if let Some(p) = self.entry_type(entry) {
+            if let Some(p) = self.type_problem(entry.ty()) {
                 problems.push(p);
                 continue;
             }
@@ -260,7 +272,7 @@ impl Reader<'_> {
                 problems.push(
                     RatingProblem::new(
                         format!("unexpected property `{key}` on a valve node"),
-                        clamp(self.text, entry.span()),
+                        self.entry_span(entry),
                         "properties are not used here",
                     )
                     .with_help(help),
@@ -312,20 +324,6 @@ impl Reader<'_> {
         (Some(draft), problems)
     }
 
-    fn entry_type(&self, entry: &KdlEntry) -> Option<RatingProblem> {
-        entry.ty().map(|ty| {
-            RatingProblem::new(
-                format!(
-                    "type annotation ({}) is not used in a ratings file",
-                    ty.value()
-                ),
-                clamp(self.text, ty.span()),
-                "remove this",
-            )
-            .with_help("write units inside the value instead, e.g. \"65mA\"")
-        })
-    }
-
     /// A designation: a string, or a bare number for types such as 45 or 83.
     fn designation(&self, entry: &KdlEntry) -> Result<(String, SourceSpan), RatingProblem> {
         let span = self.value_span(entry);
@@ -358,7 +356,7 @@ impl Reader<'_> {
             )]);
         };
         let mut problems = Vec::new();
-        problems.extend(self.no_type(node));
+        problems.extend(self.type_problem(node.ty()));
         if node.children().is_some() {
             problems.push(
                 RatingProblem::new(
@@ -389,7 +387,7 @@ impl Reader<'_> {
             "equivalents" => {
                 let mut ps = Vec::new();
                 let args = self
-                    .args(node, "equivalents \"6BQ5\" \"7189\"")
+                    .args(node, "equivalents \"6BQ5\"")
                     .map_err(|p| vec![p])?;
                 if args.is_empty() {
                     ps.push(
@@ -461,13 +459,13 @@ impl Reader<'_> {
     ) -> Result<Vec<&'n KdlEntry>, RatingProblem> {
         let mut args = Vec::new();
         for entry in node.entries() {
-            if let Some(p) = self.entry_type(entry) {
+            if let Some(p) = self.type_problem(entry.ty()) {
                 return Err(p);
             }
             if let Some(key) = entry.name() {
                 return Err(RatingProblem::new(
                     format!("unexpected property `{}`", key.value()),
-                    clamp(self.text, entry.span()),
+                    self.entry_span(entry),
                     "properties are not used here",
                 )
                 .with_help(format!("write the value on its own: {example}")));

@@ -27,7 +27,7 @@ pub fn nearest<'a>(name: &str, candidates: impl IntoIterator<Item = &'a str>) ->
     if key.is_empty() {
         return Vec::new();
     }
-    let limit = (key.chars().count() + 2) / 3;
+    let limit = key.chars().count().div_ceil(3);
     let mut scored: Vec<(usize, &str)> = candidates
         .into_iter()
         .filter_map(|c| {

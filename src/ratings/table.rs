@@ -1,7 +1,7 @@
 //! The ratings table: the rows built into the program, plus whatever a
 //! shop's own ratings files add or correct, found by designation.
 
-use std::collections::HashMap;
+use std::collections::{HashMap, HashSet};
 use std::path::Path;
 use std::sync::Arc;
 
@@ -122,7 +122,7 @@ impl RatingsTable {
             .collect();
         let mut corrected: HashMap<usize, Rating> = HashMap::new();
         let mut added: Vec<Rating> = Vec::new();
-        let mut added_keys: HashMap<String, ()> = HashMap::new();
+        let mut added_keys: HashSet<String> = HashSet::new();
         for draft in drafts {
             let key = designation_key(&draft.name);
             match self.index.get(&key).copied() {
@@ -145,7 +145,7 @@ impl RatingsTable {
                     corrected.insert(i, row);
                 }
                 None => {
-                    if added_keys.contains_key(&key) {
+                    if added_keys.contains(&key) {
                         problems.push(
                             RatingProblem::new(
                                 format!("{} is listed twice in this file", draft.name),
@@ -156,7 +156,7 @@ impl RatingsTable {
                         );
                         continue;
                     }
-                    added_keys.insert(key, ());
+                    added_keys.insert(key);
                     let owner = draft.name.clone();
                     problems.extend(claim_designations(&draft, &owner, &mut owners));
                     let check_draft = draft.clone();

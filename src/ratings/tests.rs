@@ -673,3 +673,30 @@ mod fuzz {
         }
     }
 }
+
+#[test]
+fn the_examples_in_the_contributor_guide_work() {
+    let guide = include_str!("../../docs/ratings.md");
+    let blocks: Vec<&str> = guide
+        .split("```kdl\n")
+        .skip(1)
+        .filter_map(|b| b.split("```").next())
+        .collect();
+    assert_eq!(
+        blocks.len(),
+        2,
+        "the guide has a format example and a shop-file example"
+    );
+    let rows = RatingsTable::from_kdl_text("guide", blocks[0], RatingOrigin::Builtin).unwrap();
+    assert_eq!(rows[0].name, "EL84");
+    let mut t = builtin();
+    t.apply_shop_text("guide", blocks[1], shop_origin())
+        .unwrap();
+    assert!(t.lookup("6P1P").is_ok());
+    assert!(
+        t.lookup("6V6GT")
+            .unwrap()
+            .source
+            .contains("shop correction of screen-voltage")
+    );
+}
