@@ -1,1 +1,227 @@
-fn main() {}
+//! How long the tool takes on the inputs technicians give it: decode plus
+//! derive of each demo job, of generated jobs with 100, 1,000 and 10,000
+//! measurement lines (the cost per line must stay flat: linear growth), and
+//! `ampreport check` on a demo job as a whole process.
+//!
+//! Targets on the project's 2-core machine: a demo job under 1 ms, the
+//! 1,000-line job under 10 ms, the whole `check` process under 20 ms.
+//! Run with `cargo bench --bench derive`.
+
+use std::hint::black_box;
+use std::process::{Command, Stdio};
+use std::time::Duration;
+
+use ampreport::{calc, job, ratings::RatingsTable};
+use criterion::{BenchmarkId, Criterion, Throughput, criterion_group, criterion_main};
+
+const DEMOS: [(&str, &str); 3] = [
+    (
+        "combo-el84-cathode",
+        include_str!("../jobs/combo-el84-cathode.kdl"),
+    ),
+    (
+        "combo-6v6-fixed",
+        include_str!("../jobs/combo-6v6-fixed.kdl"),
+    ),
+    ("head-el34-quad", include_str!("../jobs/head-el34-quad.kdl")),
+];
+
+/// A 230 V head with four EL34 (transformer-resistance method, screen
+/// resistors, four nodes) and as many measurement sets as it takes to hold
+/// `lines` measurement lines: four node readings, four valve readings and
+/// a heater reading per set. Invented figures that vary from set to set.
+pub fn generated_job(lines: usize) -> String {
+    let mut s = String::from(
+        r#"job-format 1
+job id="BENCH-1" received="2026-01-05" technician="Bench"
+unit make="Benchmark" model="Generated" serial="G-1"
+mains nominal="230V" frequency="50Hz" tolerance="10%" design="240V"
+valves {
+    valve V1 type=ECC83 role=preamp
+    valve V3 type=EL34 role=output
+    valve V4 type=EL34 role=output
+    valve V5 type=EL34 role=output
+    valve V6 type=EL34 role=output
+}
+circuit {
+    bias fixed
+    half-primary resistance="38R" valves="V3 V5"
+    half-primary resistance="41R" valves="V4 V6"
+    screen-resistor R60 value="1k" rating="5W" valve=V3 supply=B+2
+    screen-resistor R61 value="1k" rating="5W" valve=V4 supply=B+2
+    screen-resistor R62 value="1k" rating="5W" valve=V5 supply=B+2
+    screen-resistor R63 value="1k" rating="5W" valve=V6 supply=B+2
+    node B+1 chart="480V" tolerance="10%"
+    node B+2 chart="470V" tolerance="10%"
+    node B+3 chart="400V" tolerance="10%"
+    node B+4 chart="300V" tolerance="20%"
+    dropper R70 value="1k" rating="5W" from=B+1 to=B+2
+    dropper R71 value="10k" rating="2W" from=B+2 to=B+3
+    dropper R72 value="22k" rating="2W" from=B+3 to=B+4
+    filter-capacitor C50 value="100u" rating="800V" node=B+1
+    filter-capacitor C51 value="50u" rating="700V" node=B+2
+    high-voltage-winding rms="365V" primary="240V"
+    rectifier silicon
+}
+"#,
+    );
+    let mut written = 0;
+    let mut set = 0;
+    while written < lines {
+        set += 1;
+        let d = (set % 17) as f64 * 0.5;
+        s.push_str(&format!(
+            "measurements \"reading {set:05}\" mains=\"{}V\" {{\n",
+            226 + set % 9
+        ));
+        let body = [
+            format!("    node B+1 \"{}V\"", 468.0 + d),
+            format!("    node B+2 \"{}V\"", 458.0 + d),
+            format!("    node B+3 \"{}V\"", 392.0 + d),
+            format!("    node B+4 \"{}V\"", 301.0 + d),
+            format!(
+                "    valve V3 plate=\"{}V\" screen=\"453V\" primary-drop=\"{}V\"",
+                465.0 + d,
+                3.0 + d / 10.0
+            ),
+            format!(
+                "    valve V4 plate=\"{}V\" screen=\"453.2V\" primary-drop=\"{}V\"",
+                465.0 + d,
+                3.1 + d / 10.0
+            ),
+            format!(
+                "    valve V5 plate=\"{}V\" screen=\"452.8V\" primary-drop=\"{}V\"",
+                465.0 + d,
+                3.0 + d / 10.0
+            ),
+            format!(
+                "    valve V6 plate=\"{}V\" screen=\"453.1V\" primary-drop=\"{}V\"",
+                465.0 + d,
+                3.1 + d / 10.0
+            ),
+            format!("    heater \"{}V\"", 6.3 + d / 50.0),
+        ];
+        for line in body.iter().take(lines - written) {
+            s.push_str(line);
+            s.push('\n');
+            written += 1;
+        }
+        s.push_str("}\n");
+    }
+    s
+}
+
+fn decode_and_derive(name: &str, text: &str, ratings: &RatingsTable) -> calc::Findings {
+    let decoded = job::decode_with_ratings(name, text, ratings)
+        .unwrap_or_else(|d| panic!("{name} does not decode: {:?}", d.problems));
+    calc::derive(&decoded.job, ratings)
+}
+
+fn demos(c: &mut Criterion) {
+    let ratings = RatingsTable::builtin();
+    let mut group = c.benchmark_group("demo job: decode + derive");
+    for (name, text) in DEMOS {
+        group.bench_function(name, |b| {
+            b.iter(|| decode_and_derive(name, black_box(text), &ratings))
+        });
+    }
+    group.finish();
+}
+
+/// Where a demo job's time goes: the KDL parser alone, the whole decode
+/// (parser, schema, cross-references, valve types), and derive alone.
+fn stages(c: &mut Criterion) {
+    let ratings = RatingsTable::builtin();
+    let (name, text) = DEMOS[0];
+    let decoded = job::decode_with_ratings(name, text, &ratings).expect("demo decodes");
+    let mut group = c.benchmark_group("demo job stages");
+    group.bench_function("kdl parse", |b| {
+        b.iter(|| kdl::KdlDocument::parse(black_box(text)).expect("parses"))
+    });
+    group.bench_function("decode", |b| {
+        b.iter(|| job::decode_with_ratings(name, black_box(text), &ratings).expect("decodes"))
+    });
+    group.bench_function("derive", |b| {
+        b.iter(|| calc::derive(black_box(&decoded.job), &ratings))
+    });
+    group.finish();
+}
+
+fn generated(c: &mut Criterion) {
+    let ratings = RatingsTable::builtin();
+    let mut group = c.benchmark_group("generated job: decode + derive");
+    group
+        .sample_size(20)
+        .measurement_time(Duration::from_secs(4));
+    for lines in [100, 1_000, 10_000] {
+        let text = generated_job(lines);
+        // The generated job is valid and derives a figure for every valve line.
+        let findings = decode_and_derive("generated.kdl", &text, &ratings);
+        let valve_lines: usize = findings.sets.iter().map(|s| s.valves.len()).sum();
+        assert_eq!(
+            valve_lines,
+            text.lines()
+                .filter(|l| l.trim_start().starts_with("valve V") && l.contains("plate="))
+                .count()
+        );
+        // Throughput in measurement lines: flat elements/s across sizes means linear cost.
+        group.throughput(Throughput::Elements(lines as u64));
+        group.bench_with_input(BenchmarkId::from_parameter(lines), &text, |b, text| {
+            b.iter(|| decode_and_derive("generated.kdl", black_box(text), &ratings))
+        });
+    }
+    group.finish();
+
+    // The KDL parser alone on the same texts, to tell its share apart.
+    let mut group = c.benchmark_group("generated job: kdl parse only");
+    group
+        .sample_size(10)
+        .measurement_time(Duration::from_secs(3));
+    for lines in [100, 1_000, 10_000] {
+        let text = generated_job(lines);
+        group.throughput(Throughput::Elements(lines as u64));
+        group.bench_with_input(BenchmarkId::from_parameter(lines), &text, |b, text| {
+            b.iter(|| kdl::KdlDocument::parse(black_box(text)).expect("parses"))
+        });
+    }
+    group.finish();
+
+    // Derive alone, on the decoded jobs.
+    let mut group = c.benchmark_group("generated job: derive only");
+    group
+        .sample_size(10)
+        .measurement_time(Duration::from_secs(3));
+    for lines in [100, 1_000, 10_000] {
+        let text = generated_job(lines);
+        let decoded = job::decode_with_ratings("generated.kdl", &text, &ratings).expect("decodes");
+        group.throughput(Throughput::Elements(lines as u64));
+        group.bench_with_input(
+            BenchmarkId::from_parameter(lines),
+            &decoded.job,
+            |b, job| b.iter(|| calc::derive(black_box(job), &ratings)),
+        );
+    }
+    group.finish();
+}
+
+fn whole_process(c: &mut Criterion) {
+    let bin = env!("CARGO_BIN_EXE_ampreport");
+    let job = concat!(env!("CARGO_MANIFEST_DIR"), "/jobs/combo-el84-cathode.kdl");
+    let run = || {
+        let status = Command::new(bin)
+            .args(["check", job])
+            .stdout(Stdio::null())
+            .stderr(Stdio::null())
+            .status()
+            .expect("ampreport runs");
+        assert!(status.success());
+    };
+    run();
+    let mut group = c.benchmark_group("whole process");
+    group.sample_size(30);
+    group.bench_function("ampreport check combo-el84-cathode.kdl", |b| b.iter(run));
+    group.finish();
+}
+
+criterion_group!(benches, demos, stages, generated, whole_process);
+criterion_main!(benches);

@@ -378,7 +378,7 @@ fn decode_circuit(node: &KdlNode, r: &mut Reader) -> Circuit {
                 let value = ohms(r, child, "value", "cathode-resistor R20 value=\"130\"");
                 let rating = watts(r, child, "rating");
                 let valves = match r.req_prop_string(child, "valves", "valves=\"V3 V4\"") {
-                    Some(list) => split_names(&list),
+                    Some(list) => split_names(r, &list),
                     None => Vec::new(),
                 };
                 if let (Some(reference), Some(value)) = (reference, value) {
@@ -416,7 +416,7 @@ fn decode_circuit(node: &KdlNode, r: &mut Reader) -> Circuit {
                 r.check_entries(child, &["valves", "resistance"], 0);
                 let example = "half-primary resistance=\"52R\" valves=\"V3\"";
                 let valves = match r.req_prop_string(child, "valves", example) {
-                    Some(list) => split_names(&list),
+                    Some(list) => split_names(r, &list),
                     None => Vec::new(),
                 };
                 let resistance = ohms(r, child, "resistance", example);
@@ -817,9 +817,8 @@ fn percent(r: &mut Reader, node: &KdlNode, key: &str) -> Option<f64> {
 }
 
 /// Splits "V3 V4" or "V3, V4" into names, each with its own span.
-fn split_names(list: &Spanned<String>) -> Vec<Spanned<String>> {
+fn split_names(r: &Reader, list: &Spanned<String>) -> Vec<Spanned<String>> {
     let mut out = Vec::new();
-    let base = list.span.offset() + 1; // after the opening quote
     let text = &list.value;
     let mut start = None;
     for (i, c) in text.char_indices().chain(std::iter::once((text.len(), ' '))) {
@@ -827,7 +826,7 @@ fn split_names(list: &Spanned<String>) -> Vec<Spanned<String>> {
         match (sep, start) {
             (false, None) => start = Some(i),
             (true, Some(s)) => {
-                out.push(Spanned::new(text[s..i].to_string(), SourceSpan::new((base + s).into(), i - s)));
+                out.push(Spanned::new(text[s..i].to_string(), r.part_span(list.span, text, s, i - s)));
                 start = None;
             }
             _ => {}

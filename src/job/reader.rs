@@ -137,7 +137,7 @@ impl<'s> Reader<'s> {
         }
     }
 
-    pub fn arg<'n>(node: &'n KdlNode, index: usize) -> Option<&'n KdlEntry> {
+    pub fn arg(node: &KdlNode, index: usize) -> Option<&KdlEntry> {
         node.entries().iter().filter(|e| e.name().is_none()).nth(index)
     }
 
@@ -172,6 +172,19 @@ impl<'s> Reader<'s> {
         }
         let value_len = text[offset..].trim_end().len();
         SourceSpan::new((start + offset).into(), value_len)
+    }
+
+    /// The span in the source of bytes `start..start + len` of a string
+    /// value's text, whose whole value (quotes included) is at `value`.
+    /// Escapes and raw-string hashes are followed; where the literal cannot
+    /// be followed (a multi-line string, which is dedented), or the part is
+    /// empty, the whole value's span.
+    pub fn part_span(&self, value: SourceSpan, text: &str, start: usize, len: usize) -> SourceSpan {
+        let literal = self.source.get(value.offset()..value.offset() + value.len());
+        match literal.and_then(|l| literal_range(l, text, start, start + len)) {
+            Some((a, b)) if len > 0 => SourceSpan::new((value.offset() + a).into(), b - a),
+            _ => value,
+        }
     }
 
     // ----- value readers -------------------------------------------------
@@ -260,9 +273,7 @@ impl<'s> Reader<'s> {
             KdlValue::Float(f) if f.is_finite() => Ok(*f),
             KdlValue::String(s) => parse_quantity(s, kind).map_err(|e| {
                 // Point inside the quotes at the offending part.
-                let inner = span.offset() + 1 + e.offset;
-                let fits = e.offset + e.len <= s.len() && span.len() >= s.len() + 2;
-                let at = if fits { SourceSpan::new(inner.into(), e.len.max(1)) } else { span };
+                let at = self.part_span(span, s, e.offset, e.len);
                 let label = match &e.problem {
                     UnitProblem::WrongUnit { expected, .. } => format!("expected {}", expected.noun()),
                     _ => format!("expected {}", kind.noun()),
@@ -422,5 +433,122 @@ fn plain(v: &KdlValue) -> String {
         KdlValue::Float(f) => f.to_string(),
         KdlValue::Bool(b) => b.to_string(),
         KdlValue::Null => String::new(),
+    }
+}
+
+/// Maps bytes `start..end` of a string value's text to bytes of its source
+/// `literal` (the value as written, quotes included). Follows KDL 2.0
+/// escapes in quoted strings and the hashes of raw strings; `None` for
+/// multi-line strings or anything that does not decode to `text`.
+fn literal_range(literal: &str, text: &str, start: usize, end: usize) -> Option<(usize, usize)> {
+    if start > end || end > text.len() {
+        return None;
+    }
+    let hashes = literal.bytes().take_while(|&b| b == b'#').count();
+    let after_hashes = literal.get(hashes..)?;
+    if after_hashes.starts_with("\"\"\"") || !after_hashes.starts_with('"') {
+        return None;
+    }
+    let open = hashes + 1;
+    if hashes > 0 {
+        // A raw string holds its text verbatim.
+        return (literal.get(open..open + text.len())? == text).then_some((open + start, open + end));
+    }
+    // (offset in text, offset in literal) of each decoded character.
+    let mut starts: Vec<(usize, usize)> = Vec::new();
+    let mut decoded = String::new();
+    let body = &literal[open..];
+    let mut chars = body.char_indices().peekable();
+    let close = loop {
+        let (i, c) = chars.next()?;
+        let at = open + i;
+        match c {
+            '"' => break at,
+            '\\' => {
+                let (_, e) = chars.next()?;
+                let produced = match e {
+                    'n' => Some('\n'),
+                    'r' => Some('\r'),
+                    't' => Some('\t'),
+                    '\\' => Some('\\'),
+                    '"' => Some('"'),
+                    'b' => Some('\u{8}'),
+                    'f' => Some('\u{c}'),
+                    's' => Some(' '),
+                    'u' => {
+                        if chars.next()?.1 != '{' {
+                            return None;
+                        }
+                        let mut hex = String::new();
+                        loop {
+                            let (_, h) = chars.next()?;
+                            if h == '}' {
+                                break;
+                            }
+                            hex.push(h);
+                        }
+                        Some(char::from_u32(u32::from_str_radix(&hex, 16).ok()?)?)
+                    }
+                    w if w.is_whitespace() => {
+                        // Whitespace escape: the escape and all whitespace after it vanish.
+                        while chars.peek().is_some_and(|&(_, c)| c.is_whitespace()) {
+                            chars.next();
+                        }
+                        None
+                    }
+                    _ => return None,
+                };
+                if let Some(p) = produced {
+                    starts.push((decoded.len(), at));
+                    decoded.push(p);
+                }
+            }
+            c => {
+                starts.push((decoded.len(), at));
+                decoded.push(c);
+            }
+        }
+    };
+    if decoded != text {
+        return None;
+    }
+    let source_of = |offset: usize| {
+        if offset == text.len() {
+            Some(close)
+        } else {
+            starts.iter().find(|&&(t, _)| t == offset).map(|&(_, l)| l)
+        }
+    };
+    Some((source_of(start)?, source_of(end)?))
+}
+
+#[cfg(test)]
+mod tests {
+    use super::literal_range;
+
+    #[test]
+    fn parts_of_plain_escaped_and_raw_strings_map_to_the_source() {
+        // Plain: text "38.5mA" in "\"38.5mA\"", the "A" at 5 is at 6 in the source.
+        assert_eq!(literal_range("\"38.5mA\"", "38.5mA", 5, 6), Some((6, 7)));
+        // An escaped newline takes two source bytes for one of text.
+        assert_eq!(literal_range("\"\\nµµA\"", "\nµµA", 5, 6), Some((7, 8)));
+        // A unicode escape for µ (U+00B5): one char of text, eight bytes of source.
+        assert_eq!(literal_range("\"1\\u{b5}A\"", "1µA", 3, 4), Some((8, 9)));
+        // A whitespace escape vanishes.
+        assert_eq!(literal_range("\"V3 \\   V4\"", "V3 V4", 3, 5), Some((8, 10)));
+        // Raw strings: the hashes and quote shift everything.
+        assert_eq!(literal_range("##\"3µ0mA\"##", "3µ0mA", 5, 6), Some((8, 9)));
+        // Names after a tab escape; the end of the text maps to the closing quote.
+        assert_eq!(literal_range("\"\\tµµ V3\"", "\tµµ V3", 1, 5), Some((3, 7)));
+        assert_eq!(literal_range("\"\\tµµ V3\"", "\tµµ V3", 6, 8), Some((8, 10)));
+    }
+
+    #[test]
+    fn literals_that_cannot_be_followed_give_none() {
+        assert_eq!(literal_range("\"\"\"\n  4k7\n  \"\"\"", "4k7", 0, 3), None);
+        assert_eq!(literal_range("(u8)\"1\"", "1", 0, 1), None);
+        assert_eq!(literal_range("\"abc\"", "abd", 0, 1), None);
+        assert_eq!(literal_range("\"abc\"", "abc", 2, 9), None);
+        assert_eq!(literal_range("\"ab", "ab", 0, 1), None);
     }
 }
