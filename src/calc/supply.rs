@@ -285,6 +285,145 @@ pub(crate) fn heaters(job: &Job, set: &MeasurementSet, settings: &Settings) -> V
 #[cfg(test)]
 mod tests {
     use super::*;
+    use crate::job::{self, Job};
+
+    /// A small 120 V job (nominal 120 V, +5 %, chart at 110 V) with one
+    /// measurement set at `mains`; `circuit` and `readings` fill the holes.
+    fn job(mains: &str, circuit: &str, readings: &str) -> Job {
+        let text = format!(
+            "job-format 1\njob id=\"T\"\nunit make=\"M\" model=\"N\"\nmains nominal=\"120V\" tolerance=\"5%\" design=\"110V\"\n\
+             valves {{\n    valve V1 type=EL84 role=output\n    valve V5 type=EZ81 role=rectifier\n    valve V6 type=\"5Y3GT\" role=rectifier\n}}\n\
+             circuit {{\n{circuit}\n}}\nmeasurements \"x\" mains=\"{mains}\" {{\n{readings}\n}}\n"
+        );
+        match job::decode_with_ratings("t.kdl", &text, &RatingsTable::builtin()) {
+            Ok(d) => d.job,
+            Err(d) => panic!("{:?}\n{text}", d.problems),
+        }
+    }
+
+    fn statuses<T>(items: &[T], status: impl Fn(&T) -> Status) -> Vec<Status> {
+        items.iter().map(status).collect()
+    }
+
+    #[test]
+    fn nodes_against_the_chart_at_design_mains() {
+        let j = job(
+            "120V",
+            "node A chart=\"300V\"\nnode B chart=\"300V\"\nnode C chart=\"300V\" tolerance=\"20%\"\nnode D",
+            // expected = 300 V × 120/110 = 327.27 V (common practice); ±10 % is 294.55 … 360.00 V.
+            "node A \"360V\"\nnode B \"361V\"\nnode C \"390V\"\nnode D \"100V\"",
+        );
+        let set = &j.measurements[0];
+        let f = nodes(&j, set, &j.circuit_for(set), &j.settings);
+        // Chart referred to nominal, common practice: 300 V × 120/110 = 327.273 V.
+        assert!((f[0].expected_volts.unwrap() - 327.2727).abs() < 1e-3);
+        // 360/327.273 − 1 = +10.0 %: inside the common-practice ±10 %; 361 V is +10.3 %: outside.
+        assert!((f[0].deviation_pct.unwrap() - 10.0).abs() < 1e-9);
+        // The node's own ±20 % (a factory chart's band): 390/327.27 − 1 = +19.2 %, inside.
+        assert_eq!(statuses(&f, |n| n.verdict.status), [Status::Ok, Status::Caution, Status::Ok, Status::Ok]);
+        assert_eq!(f[3].expected_volts, None);
+        // High line, common practice V·(1 + t), ANSI C84.1 +5 % from memory: 360 V × 1.05 = 378 V.
+        assert!((f[0].high_line_volts - 378.0).abs() < 1e-9);
+    }
+
+    #[test]
+    fn dropper_power_and_the_derating_band() {
+        let j = job(
+            "120V",
+            "node A\nnode B\nnode C\nnode D\ndropper R1 value=\"10k\" rating=\"1W\" from=A to=B\ndropper R2 value=\"10k\" rating=\"1W\" from=B to=C\n\
+             dropper R3 value=\"10k\" rating=\"1W\" from=C to=D",
+            // Joule's law P = ΔV²/R (textbook): 70 V → 0.49 W; 72 V → 0.5184 W; 101 V → 1.0201 W.
+            "node A \"400V\"\nnode B \"330V\"\nnode C \"258V\"\nnode D \"157V\"",
+        );
+        let set = &j.measurements[0];
+        let mut notes = Vec::new();
+        let f = droppers(&j, set, &j.circuit_for(set), &j.settings, &mut notes);
+        assert!(notes.is_empty(), "{notes:?}");
+        assert!((f[0].power_w - 0.49).abs() < 1e-12); // Joule's law (textbook): 70² / 10 kΩ = 0.49 W
+        assert!((f[1].power_w - 0.5184).abs() < 1e-12); // 72² / 10 kΩ = 0.5184 W
+        assert!((f[2].power_w - 1.0201).abs() < 1e-12); // 101² / 10 kΩ = 1.0201 W
+        assert!((f[0].current_ma - 7.0).abs() < 1e-9); // Ohm's law (textbook): 70 V / 10 kΩ = 7 mA
+        // Common practice: caution above 50 % of the rating, over above 100 %. 0.49 W is 49 %, but at
+        // high line (ANSI C84.1 +5 %, from memory) 0.49 × 1.1025 = 0.540 W is 54 %: a caution too.
+        assert!((f[0].high_line_power_w - 0.540225).abs() < 1e-9);
+        assert_eq!(statuses(&f, |r| r.verdict.status), [Status::Caution, Status::Caution, Status::Over]);
+        assert!(f[0].verdict.reason.contains("high line"), "{}", f[0].verdict.reason);
+    }
+
+    #[test]
+    fn a_dropper_needs_both_nodes_read() {
+        let j = job("120V", "node A\nnode B\ndropper R1 value=\"10k\" rating=\"1W\" from=A to=B", "node A \"400V\"");
+        let set = &j.measurements[0];
+        let mut notes = Vec::new();
+        assert!(droppers(&j, set, &j.circuit_for(set), &j.settings, &mut notes).is_empty());
+        assert_eq!(notes.len(), 1);
+    }
+
+    #[test]
+    fn cathode_resistor_power() {
+        let j = job("120V", "cathode-resistor R9 value=\"130\" rating=\"2W\" valves=\"V1\"", "valve V1 plate=\"300V\" cathode=\"11.6V\"");
+        let set = &j.measurements[0];
+        let f = cathode_resistors(&j, set, &j.circuit_for(set), &j.settings);
+        // Joule's law P = Vk²/Rk (textbook): 11.6² / 130 Ω = 1.0351 W, 51.8 % of 2 W: above the 50 % derating (common practice).
+        assert!((f[0].power_w - 1.035077).abs() < 1e-6);
+        assert_eq!(f[0].verdict.status, Status::Caution);
+    }
+
+    fn capacitor_statuses(rectifier: &str, ratings: &[&str], b1: &str) -> (Vec<Status>, Vec<CapacitorFindings>) {
+        let caps: Vec<String> =
+            ratings.iter().enumerate().map(|(i, r)| format!("filter-capacitor C{i} rating=\"{r}\" node=B+1")).collect();
+        let j = job(
+            "120V",
+            &format!("node B+1\nhigh-voltage-winding rms=\"300V\" primary=\"120V\"\n{rectifier}\n{}", caps.join("\n")),
+            &format!("node B+1 \"{b1}\""),
+        );
+        let set = &j.measurements[0];
+        let f = capacitors(&j, set, &j.circuit_for(set), &j.settings, &RatingsTable::builtin());
+        (statuses(&f, |c| c.verdict.status), f)
+    }
+
+    #[test]
+    fn filter_capacitor_margin_at_cold_start() {
+        // √2·Vsec·Vhigh/Vp − drop (domain notes; peak = √2·RMS, textbook), silicon ≈ 1 V (common practice),
+        // high line 126 V (ANSI C84.1 +5 %, from memory): 1.41421 × 300 × 126/120 − 1 = 444.48 V.
+        let (s, f) = capacitor_statuses("rectifier silicon", &["400V", "450V", "490V", "500V"], "360V");
+        assert!((f[0].cold_start_peak_volts.unwrap() - 444.4777).abs() < 1e-3);
+        // Over when above the rating; caution when the margin is under 10 % (common practice):
+        // 400 V: −11.1 %; 450 V: 1.2 %; 490 V: 9.3 %; 500 V: 11.1 %.
+        assert!((f[1].margin_pct - 1.2272).abs() < 1e-3);
+        assert_eq!(s, [Status::Over, Status::Caution, Status::Caution, Status::Ok]);
+    }
+
+    #[test]
+    fn the_operating_voltage_at_high_line_counts_when_it_is_higher() {
+        // No winding given: only the operating figure. 430 V at 120 V mains × 1.05 = 451.5 V (common practice).
+        let j = job("120V", "node B+1\nfilter-capacitor C1 rating=\"450V\" node=B+1", "node B+1 \"430V\"");
+        let set = &j.measurements[0];
+        let f = capacitors(&j, set, &j.circuit_for(set), &j.settings, &RatingsTable::builtin());
+        assert!((f[0].highest_volts - 451.5).abs() < 1e-9);
+        assert_eq!(f[0].verdict.status, Status::Over);
+    }
+
+    #[test]
+    fn a_slow_warming_rectifier_softens_a_cold_start_over_to_a_caution() {
+        // Valve rectifier at no load ≈ 0 V drop (domain notes): 1.41421 × 300 × 1.05 = 445.48 V against 440 V.
+        // An indirectly heated EZ81 warms with the output valves: caution; a directly heated 5Y3GT: over.
+        let (slow, f) = capacitor_statuses("rectifier V5", &["440V"], "360V");
+        assert!((f[0].cold_start_peak_volts.unwrap() - 445.4777).abs() < 1e-3);
+        assert_eq!(slow, [Status::Caution]);
+        let (fast, _) = capacitor_statuses("rectifier V6", &["440V"], "360V");
+        assert_eq!(fast, [Status::Over]);
+    }
+
+    #[test]
+    fn heater_band() {
+        let j = job("120V", "", "heater \"6.93V\"\nheater \"6.95V\"\nheater \"5.67V\"\nheater \"5.6V\"\nheater \"12.6V\" nominal=\"12.6V\"");
+        let set = &j.measurements[0];
+        let f = heaters(&j, set, &j.settings);
+        // Common practice, 6.3 V ±10 % (many datasheets say ±10 %, from memory): 5.67 … 6.93 V.
+        assert!((f[0].deviation_pct - 10.0).abs() < 1e-9); // 6.93/6.3 − 1 = +10.0 %
+        assert_eq!(statuses(&f, |h| h.verdict.status), [Status::Ok, Status::Over, Status::Ok, Status::Caution, Status::Ok]);
+    }
 
     #[test]
     fn cold_start_peak_of_a_full_wave_winding() {

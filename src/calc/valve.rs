@@ -420,6 +420,106 @@ mod tests {
         assert!(close(target_current(0.7, Watts(12.0), Volts(314.0), Volts(0.0)).0, 0.026752, 1e-6));
     }
 
+    /// Derives a one-set job at nominal mains (120 V, +5 %) with `valves`,
+    /// `circuit` and `readings`; returns the findings of the first valve read.
+    fn derive_one(valves: &str, circuit: &str, readings: &str) -> (ValveFindings, Vec<String>) {
+        let text = format!(
+            "job-format 1\njob id=\"T\"\nunit make=\"M\" model=\"N\"\nmains nominal=\"120V\" tolerance=\"5%\"\n\
+             valves {{\n{valves}\n}}\ncircuit {{\n{circuit}\n}}\nmeasurements \"x\" mains=\"120V\" {{\n{readings}\n}}\n"
+        );
+        let ratings = crate::ratings::RatingsTable::builtin();
+        let job = match crate::job::decode_with_ratings("t.kdl", &text, &ratings) {
+            Ok(d) => d.job,
+            Err(d) => panic!("{:?}\n{text}", d.problems),
+        };
+        let mut f = crate::calc::derive(&job, &ratings);
+        let warnings = f.warnings.iter().map(|w| w.message.clone()).collect();
+        (f.sets.remove(0).valves.remove(0), warnings)
+    }
+
+    const PAIR_6L6: &str = "valve V3 type=\"6L6GC\" role=output";
+
+    #[test]
+    fn bias_probe_reads_cathode_current() {
+        let (v, _) = derive_one(PAIR_6L6, "bias fixed", "valve V3 plate=\"420V\" current=\"40mA\" method=probe");
+        assert_eq!(v.method, Some(CurrentMethod::Probe));
+        // A probe reads Ik; no screen figure, so Ia = Ik, conservative (domain notes): 40 mA.
+        assert_eq!(v.cathode_current_ma, Some(40.0));
+        assert!(v.plate_current_includes_screen);
+        // Joule's law (textbook), cathode grounded: 420 V × 40 mA = 16.8 W; 6L6GC Pa(max) 30 W from memory → 56 %.
+        assert!(close(v.plate_dissipation_w.unwrap(), 16.8, 1e-9));
+        assert!(close(v.plate_dissipation_pct.unwrap(), 56.0, 1e-9));
+        // Target window, common practice 50–70 %: 15 W / 420 V = 35.714 mA … 21 W / 420 V = 50 mA, as the probe shows it.
+        let w = v.target_window.unwrap();
+        assert!(close(w.probe_low_ma.unwrap(), 35.7143, 1e-4));
+        assert!(close(w.probe_high_ma.unwrap(), 50.0, 1e-9));
+        assert!(w.inside);
+        assert_eq!(v.status, Status::Ok);
+    }
+
+    #[test]
+    fn shunt_reads_plate_current() {
+        let (v, _) = derive_one(PAIR_6L6, "bias fixed", "valve V3 plate=\"420V\" current=\"38mA\" method=shunt");
+        assert_eq!(v.method, Some(CurrentMethod::Shunt));
+        // The shunt carries the plate current only: Ia = 38 mA (domain notes).
+        assert_eq!(v.plate_current_ma, Some(38.0));
+        assert!(!v.plate_current_includes_screen);
+        // Joule's law (textbook): 420 V × 38 mA = 15.96 W, 53.2 % of 30 W (6L6GC, from memory).
+        assert!(close(v.plate_dissipation_w.unwrap(), 15.96, 1e-9));
+    }
+
+    #[test]
+    fn fixed_bias_below_the_aim_is_cold() {
+        let (v, _) = derive_one(PAIR_6L6, "bias fixed", "valve V3 plate=\"420V\" current=\"25mA\" method=shunt");
+        // 420 V × 25 mA = 10.5 W = 35 % of 30 W: below the 50 % aim, common practice ("cold", crossover risk).
+        assert!(close(v.plate_dissipation_pct.unwrap(), 35.0, 1e-9));
+        assert_eq!(v.status, Status::Cold);
+        assert!(!v.target_window.unwrap().inside);
+    }
+
+    #[test]
+    fn own_cathode_resistor_with_a_known_screen_current() {
+        let (v, _) = derive_one(
+            "valve V1 type=EL84 role=output",
+            "bias cathode\ncathode-resistor R1 value=\"270\" valves=\"V1\"\nscreen-resistor R2 value=\"1k\" valve=V1 supply=B+2",
+            "node B+2 \"300V\"\nvalve V1 plate=\"320V\" screen=\"296V\" cathode=\"10.8V\"",
+        );
+        assert_eq!(v.method, Some(CurrentMethod::OwnCathodeResistor));
+        // Ohm's law (textbook): Ik = 10.8 V / 270 Ω = 40 mA; Ig2 = (300 − 296) V / 1 kΩ = 4 mA; Ia = Ik − Ig2 = 36 mA (domain notes).
+        assert!(close(v.cathode_current_ma.unwrap(), 40.0, 1e-9));
+        assert!(close(v.screen_current_ma.unwrap(), 4.0, 1e-9));
+        assert!(close(v.plate_current_ma.unwrap(), 36.0, 1e-9));
+        // Joule's law (textbook): (320 − 10.8) V × 36 mA = 11.1312 W = 92.76 % of 12 W (EL84, from memory).
+        assert!(close(v.plate_dissipation_w.unwrap(), 11.1312, 1e-9));
+        // Pg2 = (Vg2 − Vk)·Ig2 (textbook): (296 − 10.8) V × 4 mA = 1.1408 W = 57.04 % of 2 W (EL84, from memory).
+        assert!(close(v.screen_dissipation_w.unwrap(), 1.1408, 1e-9));
+        assert!(close(v.screen_dissipation_pct.unwrap(), 57.04, 1e-9));
+        // Cathode bias, common practice: caution above 90 %.
+        assert_eq!(v.status, Status::Caution);
+        assert!(v.target_window.is_none());
+        // EL84 Ik(max) 65 mA in the built-in table (from memory): 40/65 = 61.5 %.
+        assert!(close(v.cathode_current_pct.unwrap(), 61.538, 1e-3));
+    }
+
+    #[test]
+    fn an_output_valve_without_a_current_reading_is_noted() {
+        let (v, warnings) = derive_one(PAIR_6L6, "bias fixed", "valve V3 plate=\"420V\"");
+        assert_eq!(v.plate_dissipation_w, None);
+        assert!(warnings.iter().any(|w| w.contains("no reading gives the idle current")), "{warnings:?}");
+    }
+
+    #[test]
+    fn voltage_maxima() {
+        // Va(max) 300 V (EL84, from memory). Common practice in this tool: caution above the maximum or
+        // when the high-line projection passes it, over above 120 % of it.
+        let s = |v: f64, high: f64| max_verdict("plate voltage", Volts(v), Volts(high), Volts(300.0)).status;
+        assert_eq!(s(290.0, 299.0), Status::Ok);
+        assert_eq!(s(290.0, 304.5), Status::Caution); // 290 V × 1.05 = 304.5 V at high line
+        assert_eq!(s(301.0, 301.0), Status::Caution);
+        assert_eq!(s(360.0, 360.0), Status::Caution); // exactly 120 %
+        assert_eq!(s(360.5, 360.5), Status::Over);
+    }
+
     #[test]
     fn bands_for_fixed_and_cathode_bias() {
         let s = Settings::default();

@@ -4,9 +4,11 @@
 mod format;
 mod kind;
 mod parse;
+mod preferred;
 mod quantity;
 
 pub use format::{format_engineering, format_engineering_sig, format_fixed, format_sig, round_sig};
 pub use kind::QuantityKind;
 pub use parse::{UnitError, UnitProblem, parse_quantity};
+pub use preferred::{Series, nearest_preferred};
 pub use quantity::{Amps, Farads, Hertz, Ohms, Volts, Watts, rc_corner};

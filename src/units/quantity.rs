@@ -183,3 +183,50 @@ impl Volts {
 pub fn rc_corner(r: Ohms, c: Farads) -> Hertz {
     Hertz(1.0 / (2.0 * std::f64::consts::PI * r.0 * c.0))
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn close(a: f64, b: f64, tol: f64) -> bool {
+        (a - b).abs() <= tol
+    }
+
+    #[test]
+    fn ohms_and_joules_laws_between_the_types() {
+        // Ohm's law I = V/R (textbook): 11.6 V / 130 Ω = 89.231 mA.
+        assert!(close((Volts(11.6) / Ohms(130.0)).0, 0.0892308, 1e-7));
+        // Ohm's law R = V/I (textbook): 3.5 V / 46.05 mA = 76.0 Ω.
+        assert!(close((Volts(3.5) / Amps(0.046052632)).0, 76.0, 1e-6));
+        // Ohm's law V = I·R (textbook): 26.88 mA × 76 Ω = 2.043 V.
+        assert!(close((Amps(0.026882) * Ohms(76.0)).0, 2.043032, 1e-9));
+        // Joule's law P = V·I, either order (textbook): 326.4 V × 44.615 mA = 14.562 W.
+        assert!(close((Volts(326.4) * Amps(0.044615)).0, 14.562336, 1e-9));
+        assert!(close((Amps(0.044615) * Volts(326.4)).0, 14.562336, 1e-9));
+        // I = P/V (textbook): 6 W / 314 V = 19.108 mA.
+        assert!(close((Watts(6.0) / Volts(314.0)).0, 0.0191083, 1e-7));
+        // Joule's law P = V²/R (textbook): (356 − 334)² / 1 kΩ = 0.484 W.
+        assert!(close((Volts(356.0) - Volts(334.0)).power_in(Ohms(1000.0)).0, 0.484, 1e-12));
+        // Like quantities divide to a plain ratio: 14.562 W / 12 W = 1.2135.
+        assert!(close(Watts(14.562) / Watts(12.0), 1.2135, 1e-12));
+    }
+
+    #[test]
+    fn first_order_rc_corner() {
+        // fc = 1/(2π·R·C) (textbook): 1 MΩ with 22 nF → 1 / (2π × 0.022 s) = 7.2343 Hz.
+        assert!(close(rc_corner(Ohms(1e6), Farads(22e-9)).0, 7.23432, 1e-5));
+        // A cathode bypass of 25 µF on 1.5 kΩ (textbook formula): 1 / (2π × 0.0375 s) = 4.2441 Hz.
+        assert!(close(rc_corner(Ohms(1500.0), Farads(25e-6)).0, 4.24413, 1e-5));
+        // 100 kΩ with 0.022 µF, a common coupling pair: 1 / (2π × 2.2 ms) = 72.343 Hz (textbook formula).
+        assert!(close(rc_corner(Ohms(100e3), Farads(0.022e-6)).0, 72.3432, 1e-4));
+    }
+
+    #[test]
+    fn quantities_print_with_engineering_prefixes() {
+        assert_eq!(Amps(0.0342).to_string(), "34.2 mA");
+        assert_eq!(Ohms(4700.0).to_string(), "4.7 kΩ");
+        assert_eq!(Volts(352.0).max(Volts(360.0)), Volts(360.0));
+        assert_eq!(Volts(-5.0).abs(), Volts(5.0));
+        assert_eq!(Watts(2.0).scale(1.1025), Watts(2.205));
+    }
+}
