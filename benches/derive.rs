@@ -186,6 +186,23 @@ fn generated(c: &mut Criterion) {
     }
     group.finish();
 
+    // The whole decode (parser included) without derive.
+    let mut group = c.benchmark_group("generated job: decode only");
+    group
+        .sample_size(10)
+        .measurement_time(Duration::from_secs(3));
+    for lines in [100, 1_000, 10_000] {
+        let text = generated_job(lines);
+        group.throughput(Throughput::Elements(lines as u64));
+        group.bench_with_input(BenchmarkId::from_parameter(lines), &text, |b, text| {
+            b.iter(|| {
+                job::decode_with_ratings("generated.kdl", black_box(text), &ratings)
+                    .expect("decodes")
+            })
+        });
+    }
+    group.finish();
+
     // Derive alone, on the decoded jobs.
     let mut group = c.benchmark_group("generated job: derive only");
     group

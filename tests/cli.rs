@@ -674,3 +674,26 @@ fn no_ansi_escapes_when_not_a_terminal_or_with_no_color() {
         no_ansi("diagnostics", &stderr(&o));
     }
 }
+
+#[test]
+fn a_repeated_measurement_set_label_is_an_error_at_the_second_set() {
+    let text = format!(
+        "{}measurements \"as left\" mains=\"121V\" {{\n{GOOD_READINGS}\n}}\nmeasurements \"as found\" mains=\"119V\" {{\n{GOOD_READINGS}\n}}\n",
+        small_job(GOOD_CIRCUIT, GOOD_READINGS)
+    );
+    let dir = job_file("sets.kdl", &text);
+    let o = run_in(dir.path(), &["check", "sets.kdl"]);
+    assert_eq!(code(&o), 1);
+    let err = stderr(&o);
+    assert!(
+        err.contains("there are two measurement sets labelled \"as found\""),
+        "{err}"
+    );
+    let second = text.rfind("measurements \"as found\"").expect("second set");
+    let (l, c) = line_col(&text, second);
+    assert_eq!(
+        reported_positions(&err, "sets.kdl"),
+        [format!("sets.kdl:{l}:{c}")],
+        "{err}"
+    );
+}

@@ -225,7 +225,7 @@ proptest! {
 }
 
 proptest! {
-    #![proptest_config(config(256))]
+    #![proptest_config(config(128))]
 
     #[test]
     fn mutated_demo_jobs_never_panic_and_spans_stay_inside(

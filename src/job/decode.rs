@@ -156,9 +156,11 @@ pub(crate) fn decode_document(doc: &KdlDocument, source_name: &str, r: &mut Read
     let valves = first("valves").map(|n| decode_valves(n, r)).unwrap_or_default();
     let circuit = first("circuit").map(|n| decode_circuit(n, r)).unwrap_or_default();
     let mut measurements = Vec::new();
+    // Labels seen so far, so a job with many sets is checked in linear time.
+    let mut labels = std::collections::HashSet::new();
     for node in nodes.iter().filter(|n| n.name().value() == "measurements") {
         if let Some(set) = decode_measurements(node, r) {
-            if measurements.iter().any(|m: &MeasurementSet| m.label == set.label) {
+            if !labels.insert(set.label.clone()) {
                 r.push(DecodeError::error(
                     "job::repeated-set",
                     Reader::name_span(node),

@@ -175,3 +175,30 @@ pub fn suggestion_help(name: &str, known: &[&str]) -> String {
         }
     }
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn line_and_column_count_characters_from_one() {
+        let text = "job-format 1\nunit model=\"Dµet\" year=x\r\nmains\n";
+        assert_eq!(line_column(text, 0), (1, 1));
+        assert_eq!(line_column(text, text.find("unit").unwrap()), (2, 1));
+        // µ is two bytes but one column.
+        assert_eq!(line_column(text, text.find("year").unwrap()), (2, 19));
+        // CRLF ends a line like LF.
+        assert_eq!(line_column(text, text.find("mains").unwrap()), (3, 1));
+        // Past the end: the end.
+        assert_eq!(line_column(text, 10_000), (4, 1));
+    }
+
+    #[test]
+    fn suggestions_name_the_nearest_known_names() {
+        let known = ["frequency", "nominal", "tolerance", "design"];
+        assert_eq!(did_you_mean("frequncy", known), ["frequency"]);
+        assert!(did_you_mean("zzzz", known).is_empty());
+        assert_eq!(suggestion_help("tolerence", &known), "did you mean `tolerance`?");
+        assert_eq!(suggestion_help("zzzz", &known), "allowed here: frequency, nominal, tolerance, design");
+    }
+}
