@@ -190,6 +190,8 @@ pub(crate) fn analyse(
             f.screen_dissipation_pct = Some(pct);
             let pct_h = pct * (nominal / measured_mains).powi(2) * (1.0 + tolerance).powi(2);
             let mut verdict = under_rating(pct, 1.0, "screen dissipation", &watts_words(max));
+            // The band has no caution of its own below the rating: say what does decide.
+            verdict.threshold = format!("over above 100 % of {}; caution when the high-line projection is above it", watts_words(max));
             if verdict.status == Status::Ok && pct_h > 100.0 {
                 verdict = Verdict::new(Status::Caution, format!("screen dissipation would be {pct_h:.0} % of its rating at high line"), verdict.threshold);
             }
@@ -494,6 +496,9 @@ mod tests {
         // Pg2 = (Vg2 − Vk)·Ig2 (textbook): (296 − 10.8) V × 4 mA = 1.1408 W = 57.04 % of 2 W (EL84, from memory).
         assert!(close(v.screen_dissipation_w.unwrap(), 1.1408, 1e-9));
         assert!(close(v.screen_dissipation_pct.unwrap(), 57.04, 1e-9));
+        let screen = v.checks.iter().find(|c| c.check == "screen_dissipation").unwrap();
+        assert_eq!(screen.verdict.status, Status::Ok);
+        assert_eq!(screen.verdict.threshold, "over above 100 % of 2 W; caution when the high-line projection is above it");
         // Cathode bias, common practice: caution above 90 %.
         assert_eq!(v.status, Status::Caution);
         assert!(v.target_window.is_none());
