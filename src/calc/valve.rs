@@ -305,7 +305,7 @@ fn dissipation_verdict(
             Verdict::new(Status::Over, what, threshold)
         } else if judged > hi {
             Verdict::new(Status::Caution, format!("{what}, above the {hi:.0} % aim"), threshold)
-        } else if pct < lo {
+        } else if judged < lo {
             Verdict::new(Status::Cold, format!("{what}, below the {lo:.0} % aim (crossover distortion risk)"), threshold)
         } else {
             Verdict::ok(format!("{what}, inside the aim"), threshold)
@@ -425,9 +425,14 @@ mod tests {
     /// Derives a one-set job at nominal mains (120 V, +5 %) with `valves`,
     /// `circuit` and `readings`; returns the findings of the first valve read.
     fn derive_one(valves: &str, circuit: &str, readings: &str) -> (ValveFindings, Vec<String>) {
+        derive_at("120V", valves, circuit, readings)
+    }
+
+    /// As [`derive_one`], with the set measured at `mains`.
+    fn derive_at(mains: &str, valves: &str, circuit: &str, readings: &str) -> (ValveFindings, Vec<String>) {
         let text = format!(
             "job-format 1\njob id=\"T\"\nunit make=\"M\" model=\"N\"\nmains nominal=\"120V\" tolerance=\"5%\"\n\
-             valves {{\n{valves}\n}}\ncircuit {{\n{circuit}\n}}\nmeasurements \"x\" mains=\"120V\" {{\n{readings}\n}}\n"
+             valves {{\n{valves}\n}}\ncircuit {{\n{circuit}\n}}\nmeasurements \"x\" mains=\"{mains}\" {{\n{readings}\n}}\n"
         );
         let ratings = crate::ratings::RatingsTable::builtin();
         let job = match crate::job::decode_with_ratings("t.kdl", &text, &ratings) {
@@ -477,6 +482,21 @@ mod tests {
         assert!(close(v.plate_dissipation_pct.unwrap(), 35.0, 1e-9));
         assert_eq!(v.status, Status::Cold);
         assert!(!v.target_window.unwrap().inside);
+    }
+
+    #[test]
+    fn cold_is_judged_on_the_figure_the_reason_gives() {
+        // Read at 112 V on a 120 V supply: 420 V × 34.2857 mA = 14.4 W = 48 % of 30 W (6L6GC, from memory),
+        // but referred to nominal mains (common practice, P·(Vn/Vm)²) 48 % × (120/112)² = 55.1 %: inside the 50–70 % aim.
+        let (v, _) = derive_at("112V", PAIR_6L6, "bias fixed", "valve V3 plate=\"420V\" current=\"34.2857mA\" method=shunt");
+        assert!(close(v.plate_dissipation_pct.unwrap(), 48.0, 1e-3));
+        assert!(close(v.corrected_plate_dissipation_pct.unwrap(), 55.102, 1e-3));
+        let d = v.checks.iter().find(|c| c.check == "plate_dissipation").unwrap();
+        assert_eq!(d.verdict.status, Status::Ok, "{}", d.verdict.reason);
+        assert!(d.verdict.reason.contains("55 % of its 30 W rating at nominal mains, inside the aim"), "{}", d.verdict.reason);
+        // Cold at both mains: 40 % read, 40 % × (120/112)² = 45.9 % at nominal.
+        let (v, _) = derive_at("112V", PAIR_6L6, "bias fixed", "valve V3 plate=\"420V\" current=\"28.5714mA\" method=shunt");
+        assert_eq!(v.status, Status::Cold);
     }
 
     #[test]
