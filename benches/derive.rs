@@ -144,6 +144,9 @@ fn stages(c: &mut Criterion) {
     group.bench_function("derive", |b| {
         b.iter(|| calc::derive(black_box(&decoded.job), &ratings))
     });
+    // Every command that reads a job first builds the ratings table from
+    // its embedded KDL file.
+    group.bench_function("built-in ratings table", |b| b.iter(RatingsTable::builtin));
     group.finish();
 }
 
