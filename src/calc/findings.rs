@@ -94,7 +94,25 @@ pub struct SetFindings {
     pub cathode_resistors: Vec<ResistorFindings>,
     pub screen_resistors: Vec<ResistorFindings>,
     pub filter_capacitors: Vec<CapacitorFindings>,
+    /// A valve rectifier's load against its rating, where it can be judged.
+    pub rectifier: Option<RectifierFindings>,
     pub heaters: Vec<HeaterFindings>,
+}
+
+/// A valve rectifier's DC load. Only the output valves' cathode currents
+/// are summed, so the figure is a lower bound of the real load.
+#[derive(Debug, Clone, Serialize)]
+pub struct RectifierFindings {
+    pub position: String,
+    pub valve_type: String,
+    #[serde(serialize_with = "round6")]
+    pub load_at_least_ma: f64,
+    #[serde(serialize_with = "round6")]
+    pub rating_ma: f64,
+    #[serde(serialize_with = "round6")]
+    pub load_pct: f64,
+    #[serde(flatten)]
+    pub verdict: Verdict,
 }
 
 /// How the idle current was found.

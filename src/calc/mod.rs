@@ -43,6 +43,7 @@ pub fn derive(job: &Job, ratings: &RatingsTable) -> Findings {
         let screen_resistors = supply::screen_resistors(job, set, &circuit, settings);
         let filter_capacitors = supply::capacitors(job, set, &circuit, settings, ratings);
         let heaters = supply::heaters(job, set, settings);
+        let rectifier = supply::rectifier(job, &circuit, &valves, ratings);
         let found = SetFindings {
             label: set.label.clone(),
             mains_volts: set.mains.value.0,
@@ -54,6 +55,7 @@ pub fn derive(job: &Job, ratings: &RatingsTable) -> Findings {
             cathode_resistors,
             screen_resistors,
             filter_capacitors,
+            rectifier,
             heaters,
         };
         warnings.extend(set_warnings(&found));
@@ -140,6 +142,9 @@ fn set_warnings(set: &SetFindings) -> Vec<Warning> {
     for c in &set.filter_capacitors {
         push(&c.reference, &c.verdict);
     }
+    if let Some(r) = &set.rectifier {
+        push(&format!("{} ({})", r.position, r.valve_type), &r.verdict);
+    }
     for h in &set.heaters {
         push("heater", &h.verdict);
     }
@@ -166,6 +171,7 @@ fn glance(last: Option<&SetFindings>, safety: &[SafetyFinding], has_safety: bool
                 .chain(&set.screen_resistors)
                 .map(|r| (r.reference.clone(), &r.verdict))
                 .chain(set.filter_capacitors.iter().map(|c| (c.reference.clone(), &c.verdict)))
+                .chain(set.rectifier.iter().map(|r| (format!("{} ({})", r.position, r.valve_type), &r.verdict)))
                 .collect(),
             (Family::Heater, Some(set)) => set.heaters.iter().map(|h| ("heater".to_string(), &h.verdict)).collect(),
         };

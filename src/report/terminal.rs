@@ -253,6 +253,17 @@ fn render_set(set: &SetFindings, style: &TerminalStyle) -> String {
         }
         out.push_str(&render_painted(&t, style, &statuses));
     }
+    if let Some(r) = &set.rectifier {
+        out.push_str(&format!(
+            "Rectifier {} ({}): at least {:.0} mA of {:.0} mA ({:.0} %) {}\n",
+            r.position,
+            r.valve_type,
+            r.load_at_least_ma,
+            r.rating_ma,
+            r.load_pct,
+            paint(style, r.verdict.status, &status_word(r.verdict.status))
+        ));
+    }
     for h in &set.heaters {
         out.push_str(&format!(
             "Heater: {} against {} ({:+.1} %) {}\n",
