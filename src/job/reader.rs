@@ -137,7 +137,7 @@ impl<'s> Reader<'s> {
         }
     }
 
-    pub fn arg<'n>(node: &'n KdlNode, index: usize) -> Option<&'n KdlEntry> {
+    pub fn arg(node: &KdlNode, index: usize) -> Option<&KdlEntry> {
         node.entries().iter().filter(|e| e.name().is_none()).nth(index)
     }
 
