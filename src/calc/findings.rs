@@ -37,6 +37,8 @@ pub struct Findings {
     pub settings: SettingsUsed,
     pub sets: Vec<SetFindings>,
     pub safety: Vec<SafetyFinding>,
+    /// Each modification with the circuit figures worked out for it.
+    pub mods: Vec<ModFindings>,
     /// Worst status per check family, for the last measurement set and the
     /// safety tests.
     pub at_a_glance: Vec<FamilyStatus>,
@@ -407,4 +409,24 @@ pub struct RatingUsed {
     /// "built in" or the shop file's path.
     pub origin: String,
     pub positions: Vec<String>,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct ModFindings {
+    pub what: String,
+    pub figures: Vec<ModFigureFindings>,
+}
+
+/// One worked-out figure for a modification, with the formula used.
+#[derive(Debug, Clone, Serialize)]
+pub struct ModFigureFindings {
+    /// `rc_corner`, `cathode_bypass`, `stage_gain`, `phase_shift`.
+    pub kind: &'static str,
+    /// The figure in words, for a page.
+    pub description: String,
+    pub formula: &'static str,
+    #[serde(serialize_with = "round6_opt")]
+    pub frequency_hz: Option<f64>,
+    #[serde(serialize_with = "round6_opt")]
+    pub gain: Option<f64>,
 }

@@ -1,6 +1,7 @@
 //! The calculation pass: pure functions from a [`Job`], the ratings table
 //! and the job's settings to [`Findings`]. No I/O, no page formatting.
 
+mod circuit;
 mod findings;
 mod mains;
 mod safety;
@@ -8,6 +9,7 @@ mod status;
 mod supply;
 mod valve;
 
+pub use circuit::{cathode_bypass_corner, cathode_resistance, child_langmuir_factor, gain_bypassed, gain_unbypassed, parallel, phase_shift_frequency};
 pub use findings::*;
 pub use mains::{chart_expected, corrected_power, corrected_volts, high_line_power, high_line_volts};
 pub use status::{Status, Verdict, worst_of};
@@ -74,6 +76,7 @@ pub fn derive(job: &Job, ratings: &RatingsTable) -> Findings {
     if job.measurements.is_empty() {
         warnings.push(Warning { set: None, subject: "job".into(), status: Status::Caution, message: "The job has no measurement sets, so no figures could be derived.".into() });
     }
+    let mods = job.mods.iter().map(|m| mod_findings(m, job, ratings, &mut warnings)).collect();
     let at_a_glance = glance(sets.last(), &safety, job.safety.is_some());
     Findings {
         schema: SCHEMA,
@@ -97,6 +100,7 @@ pub fn derive(job: &Job, ratings: &RatingsTable) -> Findings {
         },
         sets,
         safety,
+        mods,
         at_a_glance,
         warnings,
         ratings_used: ratings_used(job, ratings),
@@ -210,4 +214,105 @@ fn ratings_used(job: &Job, ratings: &RatingsTable) -> Vec<RatingUsed> {
     }
     out.sort_by(|a, b| a.name.cmp(&b.name));
     out
+}
+
+fn mod_findings(m: &crate::job::Modification, job: &Job, ratings: &RatingsTable, warnings: &mut Vec<Warning>) -> ModFindings {
+    use crate::job::ModFigure;
+    use crate::units::{QuantityKind as Q, format_engineering};
+    let hz = |f: f64| format_engineering(f, Q::Frequency);
+    let ohms = |r: f64| format_engineering(r, Q::Resistance);
+    let farads = |c: f64| format_engineering(c, Q::Capacitance);
+    // μ and ra of the valve at a position, from the ratings table.
+    let mut triode = |pos: &str| {
+        let spec = job.valve(pos)?;
+        let r = ratings.lookup(&spec.type_name.value).ok()?;
+        match (r.mu, r.plate_resistance) {
+            (Some(mu), Some(ra)) => Some((mu, ra, r.name.clone())),
+            _ => {
+                warnings.push(Warning {
+                    set: None,
+                    subject: pos.to_string(),
+                    status: Status::Caution,
+                    message: format!("{pos} ({}): the ratings table gives no typical μ and ra, so the mod's stage figure is left out.", r.name),
+                });
+                None
+            }
+        }
+    };
+    let mut figures = Vec::new();
+    for f in &m.figures {
+        match f {
+            ModFigure::RcCorner { r, c, label } => {
+                let fc = crate::units::rc_corner(*r, *c).0;
+                figures.push(ModFigureFindings {
+                    kind: "rc_corner",
+                    description: format!("{}{} with {}: corner {}", label.as_ref().map(|l| format!("{l}: ")).unwrap_or_default(), ohms(r.0), farads(c.0), hz(fc)),
+                    formula: "fc = 1 / (2π·R·C)",
+                    frequency_hz: Some(fc),
+                    gain: None,
+                });
+            }
+            ModFigure::CathodeBypass { valve, rk, ck, load } => {
+                if let Some((mu, ra, name)) = triode(&valve.value) {
+                    let fc = cathode_bypass_corner(mu, ra, *load, *rk, *ck).0;
+                    figures.push(ModFigureFindings {
+                        kind: "cathode_bypass",
+                        description: format!(
+                            "{} ({name}, μ {mu}, ra {}): Rk {} bypassed by {} into a {} load: corner {}",
+                            valve.value,
+                            ohms(ra.0),
+                            ohms(rk.0),
+                            farads(ck.0),
+                            ohms(load.0),
+                            hz(fc)
+                        ),
+                        formula: "fc = 1 / (2π·(Rk ∥ (ra + RL)/(μ + 1))·Ck)",
+                        frequency_hz: Some(fc),
+                        gain: None,
+                    });
+                }
+            }
+            ModFigure::StageGain { valve, load, rk, bypassed } => {
+                if let Some((mu, ra, name)) = triode(&valve.value) {
+                    let (gain, formula) = match (rk, bypassed) {
+                        (Some(rk), false) => (gain_unbypassed(mu, ra, *load, *rk), "A = μ·RL / (RL + ra + (μ + 1)·Rk)"),
+                        _ => (gain_bypassed(mu, ra, *load), "A = μ·RL / (RL + ra)"),
+                    };
+                    figures.push(ModFigureFindings {
+                        kind: "stage_gain",
+                        description: format!(
+                            "{} ({name}) into {}{}: gain about {:.0}",
+                            valve.value,
+                            ohms(load.0),
+                            match (rk, bypassed) {
+                                (Some(rk), false) => format!(", {} unbypassed", ohms(rk.0)),
+                                _ => ", cathode bypassed".to_string(),
+                            },
+                            gain
+                        ),
+                        formula,
+                        frequency_hz: None,
+                        gain: Some(gain),
+                    });
+                }
+            }
+            ModFigure::PhaseShift { r, c } => {
+                let f = phase_shift_frequency(*r, *c).0;
+                figures.push(ModFigureFindings {
+                    kind: "phase_shift",
+                    description: format!(
+                        "three sections of {} and {}: about {} (the stage needs a gain of at least {:.0})",
+                        ohms(r.0),
+                        farads(c.0),
+                        hz(f),
+                        circuit::PHASE_SHIFT_MIN_GAIN
+                    ),
+                    formula: "f = 1 / (2π·R·C·√6)",
+                    frequency_hz: Some(f),
+                    gain: None,
+                });
+            }
+        }
+    }
+    ModFindings { what: m.what.clone(), figures }
 }

@@ -89,6 +89,19 @@ pub fn render(job: &Job, findings: &Findings, style: &TerminalStyle) -> String {
         out.push('\n');
     }
 
+    let figured: Vec<_> = findings.mods.iter().filter(|m| !m.figures.is_empty()).collect();
+    if !figured.is_empty() {
+        out.push_str(&bold(style, "Modification figures"));
+        out.push('\n');
+        for m in figured {
+            out.push_str(&format!("  {}\n", m.what));
+            for f in &m.figures {
+                out.push_str(&format!("    {}  [{}]\n", f.description, f.formula));
+            }
+        }
+        out.push('\n');
+    }
+
     if findings.warnings.is_empty() {
         out.push_str("No warnings: every figure is inside its limits.\n");
     } else {
