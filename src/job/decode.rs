@@ -33,23 +33,8 @@ pub const TOP_LEVEL: &[&str] = &[
     "settings",
 ];
 
-const SINGLETONS: &[&str] = &[
-    "job-format",
-    "job",
-    "customer",
-    "unit",
-    "mains",
-    "complaint",
-    "findings",
-    "work",
-    "valves",
-    "circuit",
-    "parts",
-    "mods",
-    "safety",
-    "notes",
-    "settings",
-];
+/// The only top-level node that may appear more than once.
+const REPEATABLE: &str = "measurements";
 
 pub const CIRCUIT_NODES: &[&str] = &[
     "bias",
@@ -82,7 +67,7 @@ pub(crate) fn decode_document(doc: &KdlDocument, source_name: &str, r: &mut Read
     // Repeated singletons.
     for (i, node) in nodes.iter().enumerate() {
         let name = node.name().value();
-        if SINGLETONS.contains(&name) && nodes[..i].iter().any(|n| n.name().value() == name) {
+        if name != REPEATABLE && nodes[..i].iter().any(|n| n.name().value() == name) {
             r.push(DecodeError::error(
                 "job::repeated-node",
                 Reader::name_span(node),
