@@ -183,6 +183,9 @@ fn glance(last: Option<&SetFindings>, safety: &[SafetyFinding], has_safety: bool
             if best.is_none_or(|b| item.1.status.rank() > b.1.status.rank()) { Some(item) } else { best }
         });
         let (status, words, measured) = match worst {
+            Some((_, v)) if v.status == Status::Ok => {
+                (Status::Ok, ok_summary(family, last, safety).unwrap_or_else(|| v.reason.clone()), true)
+            }
             Some((subject, v)) => (v.status, format!("{subject}: {}", v.reason), true),
             None if family == Family::SafetyTests && !has_safety => (Status::Caution, "no safety tests recorded".to_string(), false),
             None => (Status::Ok, "nothing measured".to_string(), false),
@@ -190,6 +193,67 @@ fn glance(last: Option<&SetFindings>, safety: &[SafetyFinding], has_safety: bool
         out.push(FamilyStatus { family, title: family.words(), status, worst: words, measured });
     }
     out
+}
+
+/// When a whole family is ok, the figure nearest its limit, in words.
+fn ok_summary(family: Family, last: Option<&SetFindings>, safety: &[SafetyFinding]) -> Option<String> {
+    let max_by = |a: f64, b: f64| a.total_cmp(&b);
+    match family {
+        Family::SafetyTests => Some(format!("all {} tests meet their limits", safety.len())),
+        Family::OutputValves => {
+            let set = last?;
+            let v = set.valves.iter().filter(|v| v.is_output && v.plate_dissipation_pct.is_some()).max_by(|a, b| {
+                max_by(a.plate_dissipation_pct.unwrap_or(0.0), b.plate_dissipation_pct.unwrap_or(0.0))
+            })?;
+            let n = set.valves.iter().filter(|v| v.is_output).count();
+            Some(format!(
+                "{n} output valve{} inside their ratings; hottest {} ({}) at {:.0} % of its plate rating",
+                if n == 1 { "" } else { "s" },
+                v.position,
+                v.valve_type,
+                v.plate_dissipation_pct.unwrap_or(0.0)
+            ))
+        }
+        Family::SupplyVoltages => {
+            let set = last?;
+            let charted: Vec<&NodeFindings> = set.nodes.iter().filter(|n| n.deviation_pct.is_some()).collect();
+            let n = charted.iter().max_by(|a, b| max_by(a.deviation_pct.unwrap_or(0.0).abs(), b.deviation_pct.unwrap_or(0.0).abs()))?;
+            Some(format!(
+                "{} node{} within tolerance of the chart; largest deviation {:+.1} % at {}",
+                charted.len(),
+                if charted.len() == 1 { "" } else { "s" },
+                n.deviation_pct.unwrap_or(0.0),
+                n.name
+            ))
+        }
+        Family::StressedParts => {
+            let set = last?;
+            let mut parts = Vec::new();
+            if let Some(r) = set
+                .droppers
+                .iter()
+                .chain(&set.cathode_resistors)
+                .chain(&set.screen_resistors)
+                .filter(|r| r.power_pct.is_some())
+                .max_by(|a, b| max_by(a.power_pct.unwrap_or(0.0), b.power_pct.unwrap_or(0.0)))
+            {
+                parts.push(format!("busiest resistor {} at {:.0} % of its rating", r.reference, r.power_pct.unwrap_or(0.0)));
+            }
+            if let Some(c) = set.filter_capacitors.iter().min_by(|a, b| a.margin_pct.total_cmp(&b.margin_pct)) {
+                parts.push(format!("least capacitor margin {:.0} % ({})", c.margin_pct, c.reference));
+            }
+            if parts.is_empty() { None } else { Some(parts.join("; ")) }
+        }
+        Family::Heater => {
+            let h = last?.heaters.first()?;
+            Some(format!(
+                "{} against {} ({:+.1} %)",
+                crate::units::format_engineering(h.measured_volts, crate::units::QuantityKind::Voltage),
+                crate::units::format_engineering(h.nominal_volts, crate::units::QuantityKind::Voltage),
+                h.deviation_pct
+            ))
+        }
+    }
 }
 
 fn ratings_used(job: &Job, ratings: &RatingsTable) -> Vec<RatingUsed> {
