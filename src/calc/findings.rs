@@ -37,6 +37,8 @@ pub struct Findings {
     pub settings: SettingsUsed,
     pub sets: Vec<SetFindings>,
     pub safety: Vec<SafetyFinding>,
+    /// Each modification with the circuit figures worked out for it.
+    pub mods: Vec<ModFindings>,
     /// Worst status per check family, for the last measurement set and the
     /// safety tests.
     pub at_a_glance: Vec<FamilyStatus>,
@@ -94,7 +96,25 @@ pub struct SetFindings {
     pub cathode_resistors: Vec<ResistorFindings>,
     pub screen_resistors: Vec<ResistorFindings>,
     pub filter_capacitors: Vec<CapacitorFindings>,
+    /// A valve rectifier's load against its rating, where it can be judged.
+    pub rectifier: Option<RectifierFindings>,
     pub heaters: Vec<HeaterFindings>,
+}
+
+/// A valve rectifier's DC load. Only the output valves' cathode currents
+/// are summed, so the figure is a lower bound of the real load.
+#[derive(Debug, Clone, Serialize)]
+pub struct RectifierFindings {
+    pub position: String,
+    pub valve_type: String,
+    #[serde(serialize_with = "round6")]
+    pub load_at_least_ma: f64,
+    #[serde(serialize_with = "round6")]
+    pub rating_ma: f64,
+    #[serde(serialize_with = "round6")]
+    pub load_pct: f64,
+    #[serde(flatten)]
+    pub verdict: Verdict,
 }
 
 /// How the idle current was found.
@@ -389,4 +409,24 @@ pub struct RatingUsed {
     /// "built in" or the shop file's path.
     pub origin: String,
     pub positions: Vec<String>,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct ModFindings {
+    pub what: String,
+    pub figures: Vec<ModFigureFindings>,
+}
+
+/// One worked-out figure for a modification, with the formula used.
+#[derive(Debug, Clone, Serialize)]
+pub struct ModFigureFindings {
+    /// `rc_corner`, `cathode_bypass`, `stage_gain`, `phase_shift`.
+    pub kind: &'static str,
+    /// The figure in words, for a page.
+    pub description: String,
+    pub formula: &'static str,
+    #[serde(serialize_with = "round6_opt")]
+    pub frequency_hz: Option<f64>,
+    #[serde(serialize_with = "round6_opt")]
+    pub gain: Option<f64>,
 }

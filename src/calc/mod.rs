@@ -1,6 +1,7 @@
 //! The calculation pass: pure functions from a [`Job`], the ratings table
 //! and the job's settings to [`Findings`]. No I/O, no page formatting.
 
+mod circuit;
 mod findings;
 mod mains;
 mod safety;
@@ -8,6 +9,7 @@ mod status;
 mod supply;
 mod valve;
 
+pub use circuit::{cathode_bypass_corner, cathode_resistance, child_langmuir_factor, gain_bypassed, gain_unbypassed, parallel, phase_shift_frequency};
 pub use findings::*;
 pub use mains::{chart_expected, corrected_power, corrected_volts, high_line_power, high_line_volts};
 pub use status::{Status, Verdict, worst_of};
@@ -43,6 +45,7 @@ pub fn derive(job: &Job, ratings: &RatingsTable) -> Findings {
         let screen_resistors = supply::screen_resistors(job, set, &circuit, settings);
         let filter_capacitors = supply::capacitors(job, set, &circuit, settings, ratings);
         let heaters = supply::heaters(job, set, settings);
+        let rectifier = supply::rectifier(job, &circuit, &valves, ratings);
         let found = SetFindings {
             label: set.label.clone(),
             mains_volts: set.mains.value.0,
@@ -54,6 +57,7 @@ pub fn derive(job: &Job, ratings: &RatingsTable) -> Findings {
             cathode_resistors,
             screen_resistors,
             filter_capacitors,
+            rectifier,
             heaters,
         };
         warnings.extend(set_warnings(&found));
@@ -72,6 +76,7 @@ pub fn derive(job: &Job, ratings: &RatingsTable) -> Findings {
     if job.measurements.is_empty() {
         warnings.push(Warning { set: None, subject: "job".into(), status: Status::Caution, message: "The job has no measurement sets, so no figures could be derived.".into() });
     }
+    let mods = job.mods.iter().map(|m| mod_findings(m, job, ratings, &mut warnings)).collect();
     let at_a_glance = glance(sets.last(), &safety, job.safety.is_some());
     Findings {
         schema: SCHEMA,
@@ -95,6 +100,7 @@ pub fn derive(job: &Job, ratings: &RatingsTable) -> Findings {
         },
         sets,
         safety,
+        mods,
         at_a_glance,
         warnings,
         ratings_used: ratings_used(job, ratings),
@@ -140,6 +146,9 @@ fn set_warnings(set: &SetFindings) -> Vec<Warning> {
     for c in &set.filter_capacitors {
         push(&c.reference, &c.verdict);
     }
+    if let Some(r) = &set.rectifier {
+        push(&format!("{} ({})", r.position, r.valve_type), &r.verdict);
+    }
     for h in &set.heaters {
         push("heater", &h.verdict);
     }
@@ -166,6 +175,7 @@ fn glance(last: Option<&SetFindings>, safety: &[SafetyFinding], has_safety: bool
                 .chain(&set.screen_resistors)
                 .map(|r| (r.reference.clone(), &r.verdict))
                 .chain(set.filter_capacitors.iter().map(|c| (c.reference.clone(), &c.verdict)))
+                .chain(set.rectifier.iter().map(|r| (format!("{} ({})", r.position, r.valve_type), &r.verdict)))
                 .collect(),
             (Family::Heater, Some(set)) => set.heaters.iter().map(|h| ("heater".to_string(), &h.verdict)).collect(),
         };
@@ -173,6 +183,9 @@ fn glance(last: Option<&SetFindings>, safety: &[SafetyFinding], has_safety: bool
             if best.is_none_or(|b| item.1.status.rank() > b.1.status.rank()) { Some(item) } else { best }
         });
         let (status, words, measured) = match worst {
+            Some((_, v)) if v.status == Status::Ok => {
+                (Status::Ok, ok_summary(family, last, safety).unwrap_or_else(|| v.reason.clone()), true)
+            }
             Some((subject, v)) => (v.status, format!("{subject}: {}", v.reason), true),
             None if family == Family::SafetyTests && !has_safety => (Status::Caution, "no safety tests recorded".to_string(), false),
             None => (Status::Ok, "nothing measured".to_string(), false),
@@ -180,6 +193,67 @@ fn glance(last: Option<&SetFindings>, safety: &[SafetyFinding], has_safety: bool
         out.push(FamilyStatus { family, title: family.words(), status, worst: words, measured });
     }
     out
+}
+
+/// When a whole family is ok, the figure nearest its limit, in words.
+fn ok_summary(family: Family, last: Option<&SetFindings>, safety: &[SafetyFinding]) -> Option<String> {
+    let max_by = |a: f64, b: f64| a.total_cmp(&b);
+    match family {
+        Family::SafetyTests => Some(format!("all {} tests meet their limits", safety.len())),
+        Family::OutputValves => {
+            let set = last?;
+            let v = set.valves.iter().filter(|v| v.is_output && v.plate_dissipation_pct.is_some()).max_by(|a, b| {
+                max_by(a.plate_dissipation_pct.unwrap_or(0.0), b.plate_dissipation_pct.unwrap_or(0.0))
+            })?;
+            let n = set.valves.iter().filter(|v| v.is_output).count();
+            Some(format!(
+                "{n} output valve{} inside their ratings; hottest {} ({}) at {:.0} % of its plate rating",
+                if n == 1 { "" } else { "s" },
+                v.position,
+                v.valve_type,
+                v.plate_dissipation_pct.unwrap_or(0.0)
+            ))
+        }
+        Family::SupplyVoltages => {
+            let set = last?;
+            let charted: Vec<&NodeFindings> = set.nodes.iter().filter(|n| n.deviation_pct.is_some()).collect();
+            let n = charted.iter().max_by(|a, b| max_by(a.deviation_pct.unwrap_or(0.0).abs(), b.deviation_pct.unwrap_or(0.0).abs()))?;
+            Some(format!(
+                "{} node{} within tolerance of the chart; largest deviation {:+.1} % at {}",
+                charted.len(),
+                if charted.len() == 1 { "" } else { "s" },
+                n.deviation_pct.unwrap_or(0.0),
+                n.name
+            ))
+        }
+        Family::StressedParts => {
+            let set = last?;
+            let mut parts = Vec::new();
+            if let Some(r) = set
+                .droppers
+                .iter()
+                .chain(&set.cathode_resistors)
+                .chain(&set.screen_resistors)
+                .filter(|r| r.power_pct.is_some())
+                .max_by(|a, b| max_by(a.power_pct.unwrap_or(0.0), b.power_pct.unwrap_or(0.0)))
+            {
+                parts.push(format!("busiest resistor {} at {:.0} % of its rating", r.reference, r.power_pct.unwrap_or(0.0)));
+            }
+            if let Some(c) = set.filter_capacitors.iter().min_by(|a, b| a.margin_pct.total_cmp(&b.margin_pct)) {
+                parts.push(format!("least capacitor margin {:.0} % ({})", c.margin_pct, c.reference));
+            }
+            if parts.is_empty() { None } else { Some(parts.join("; ")) }
+        }
+        Family::Heater => {
+            let h = last?.heaters.first()?;
+            Some(format!(
+                "{} against {} ({:+.1} %)",
+                crate::units::format_engineering(h.measured_volts, crate::units::QuantityKind::Voltage),
+                crate::units::format_engineering(h.nominal_volts, crate::units::QuantityKind::Voltage),
+                h.deviation_pct
+            ))
+        }
+    }
 }
 
 fn ratings_used(job: &Job, ratings: &RatingsTable) -> Vec<RatingUsed> {
@@ -204,4 +278,105 @@ fn ratings_used(job: &Job, ratings: &RatingsTable) -> Vec<RatingUsed> {
     }
     out.sort_by(|a, b| a.name.cmp(&b.name));
     out
+}
+
+fn mod_findings(m: &crate::job::Modification, job: &Job, ratings: &RatingsTable, warnings: &mut Vec<Warning>) -> ModFindings {
+    use crate::job::ModFigure;
+    use crate::units::{QuantityKind as Q, format_engineering};
+    let hz = |f: f64| format_engineering(f, Q::Frequency);
+    let ohms = |r: f64| format_engineering(r, Q::Resistance);
+    let farads = |c: f64| format_engineering(c, Q::Capacitance);
+    // μ and ra of the valve at a position, from the ratings table.
+    let mut triode = |pos: &str| {
+        let spec = job.valve(pos)?;
+        let r = ratings.lookup(&spec.type_name.value).ok()?;
+        match (r.mu, r.plate_resistance) {
+            (Some(mu), Some(ra)) => Some((mu, ra, r.name.clone())),
+            _ => {
+                warnings.push(Warning {
+                    set: None,
+                    subject: pos.to_string(),
+                    status: Status::Caution,
+                    message: format!("{pos} ({}): the ratings table gives no typical μ and ra, so the mod's stage figure is left out.", r.name),
+                });
+                None
+            }
+        }
+    };
+    let mut figures = Vec::new();
+    for f in &m.figures {
+        match f {
+            ModFigure::RcCorner { r, c, label } => {
+                let fc = crate::units::rc_corner(*r, *c).0;
+                figures.push(ModFigureFindings {
+                    kind: "rc_corner",
+                    description: format!("{}{} with {}: corner {}", label.as_ref().map(|l| format!("{l}: ")).unwrap_or_default(), ohms(r.0), farads(c.0), hz(fc)),
+                    formula: "fc = 1 / (2π·R·C)",
+                    frequency_hz: Some(fc),
+                    gain: None,
+                });
+            }
+            ModFigure::CathodeBypass { valve, rk, ck, load } => {
+                if let Some((mu, ra, name)) = triode(&valve.value) {
+                    let fc = cathode_bypass_corner(mu, ra, *load, *rk, *ck).0;
+                    figures.push(ModFigureFindings {
+                        kind: "cathode_bypass",
+                        description: format!(
+                            "{} ({name}, μ {mu}, ra {}): Rk {} bypassed by {} into a {} load: corner {}",
+                            valve.value,
+                            ohms(ra.0),
+                            ohms(rk.0),
+                            farads(ck.0),
+                            ohms(load.0),
+                            hz(fc)
+                        ),
+                        formula: "fc = 1 / (2π·(Rk ∥ (ra + RL)/(μ + 1))·Ck)",
+                        frequency_hz: Some(fc),
+                        gain: None,
+                    });
+                }
+            }
+            ModFigure::StageGain { valve, load, rk, bypassed } => {
+                if let Some((mu, ra, name)) = triode(&valve.value) {
+                    let (gain, formula) = match (rk, bypassed) {
+                        (Some(rk), false) => (gain_unbypassed(mu, ra, *load, *rk), "A = μ·RL / (RL + ra + (μ + 1)·Rk)"),
+                        _ => (gain_bypassed(mu, ra, *load), "A = μ·RL / (RL + ra)"),
+                    };
+                    figures.push(ModFigureFindings {
+                        kind: "stage_gain",
+                        description: format!(
+                            "{} ({name}) into {}{}: gain about {:.0}",
+                            valve.value,
+                            ohms(load.0),
+                            match (rk, bypassed) {
+                                (Some(rk), false) => format!(", {} unbypassed", ohms(rk.0)),
+                                _ => ", cathode bypassed".to_string(),
+                            },
+                            gain
+                        ),
+                        formula,
+                        frequency_hz: None,
+                        gain: Some(gain),
+                    });
+                }
+            }
+            ModFigure::PhaseShift { r, c } => {
+                let f = phase_shift_frequency(*r, *c).0;
+                figures.push(ModFigureFindings {
+                    kind: "phase_shift",
+                    description: format!(
+                        "three sections of {} and {}: about {} (the stage needs a gain of at least {:.0})",
+                        ohms(r.0),
+                        farads(c.0),
+                        hz(f),
+                        circuit::PHASE_SHIFT_MIN_GAIN
+                    ),
+                    formula: "f = 1 / (2π·R·C·√6)",
+                    frequency_hz: Some(f),
+                    gain: None,
+                });
+            }
+        }
+    }
+    ModFindings { what: m.what.clone(), figures }
 }

@@ -2,7 +2,7 @@
 //! resistor power, filter-capacitor margins (including the cold-start
 //! peak) and heater voltage.
 
-use super::findings::{CapacitorFindings, HeaterFindings, NodeFindings, ResistorFindings};
+use super::findings::{CapacitorFindings, HeaterFindings, NodeFindings, RectifierFindings, ResistorFindings, ValveFindings};
 use super::mains;
 use super::status::{Status, Verdict, under_rating};
 use crate::job::{Circuit, Job, MeasurementSet, RectifierKind, Settings};
@@ -249,6 +249,43 @@ pub(crate) fn capacitors(
         });
     }
     out
+}
+
+/// A valve rectifier's load: at least the sum of the output valves' cathode
+/// currents (Ia + Ig2 where the screen current is known). Judged with the
+/// derating band's caution above 90 % (common practice) and over above 100 %.
+pub(crate) fn rectifier(job: &Job, circuit: &Circuit, valves: &[ValveFindings], ratings: &RatingsTable) -> Option<RectifierFindings> {
+    let RectifierKind::Valve(pos) = &circuit.rectifier.as_ref()?.kind else { return None };
+    let spec = job.valve(&pos.value)?;
+    let rating = ratings.lookup(&spec.type_name.value).ok()?;
+    let max_ma = rating.output_current?.0 * 1e3;
+    let outputs: Vec<&ValveFindings> = valves.iter().filter(|v| v.is_output).collect();
+    let currents: Vec<f64> = outputs
+        .iter()
+        .filter_map(|v| v.cathode_current_ma.or(v.plate_current_ma.map(|ia| ia + v.screen_current_ma.unwrap_or(0.0))))
+        .collect();
+    if currents.is_empty() || currents.len() < outputs.len() {
+        return None;
+    }
+    let load: f64 = currents.iter().sum();
+    let pct = load / max_ma * 100.0;
+    let threshold = format!("caution above 90 % of the {} rating, over above 100 % (output valves only: a lower bound)", format_engineering(max_ma / 1e3, QuantityKind::Current));
+    let what = format!("the output valves alone draw {load:.0} mA, {pct:.0} % of the {} {}'s {:.0} mA rating", spec.type_name.value, pos.value, max_ma);
+    let verdict = if pct > 100.0 {
+        Verdict::new(Status::Over, what, threshold)
+    } else if pct > 90.0 {
+        Verdict::new(Status::Caution, what, threshold)
+    } else {
+        Verdict::ok(what, threshold)
+    };
+    Some(RectifierFindings {
+        position: pos.value.clone(),
+        valve_type: spec.type_name.value.clone(),
+        load_at_least_ma: load,
+        rating_ma: max_ma,
+        load_pct: pct,
+        verdict,
+    })
 }
 
 pub(crate) fn heaters(job: &Job, set: &MeasurementSet, settings: &Settings) -> Vec<HeaterFindings> {

@@ -35,8 +35,9 @@ pub fn run(args: &TubesArgs) -> Exit {
                 ("Pa max", Align::Right),
                 ("Pg2 max", Align::Right),
                 ("Va max", Align::Right),
+                ("I max", Align::Right),
                 ("heater", Align::Right),
-                ("source", Align::Left),
+                ("from", Align::Left),
             ]);
             for r in table.iter() {
                 t.row(vec![
@@ -46,12 +47,16 @@ pub fn run(args: &TubesArgs) -> Exit {
                     q(r.plate_dissipation.map(|w| w.0), Q::Power),
                     q(r.screen_dissipation.map(|w| w.0), Q::Power),
                     q(r.plate_voltage.map(|v| v.0), Q::Voltage),
+                    q(r.cathode_current.or(r.output_current).map(|a| a.0), Q::Current),
                     format!("{} {}", format_engineering(r.heater_voltage.0, Q::Voltage), format_engineering(r.heater_current.0, Q::Current)),
                     origin(r),
                 ]);
             }
             print!("{}", t.render(0, &|_, s| s.to_string()));
-            println!("\n{} types. `ampreport tubes TYPE` shows one with its source note.", table.len());
+            println!(
+                "\n{} types. I max: cathode current, or a rectifier's DC output current. `ampreport tubes TYPE` shows one with its source note.",
+                table.len()
+            );
             Exit::Success
         }
     }

@@ -33,23 +33,8 @@ pub const TOP_LEVEL: &[&str] = &[
     "settings",
 ];
 
-const SINGLETONS: &[&str] = &[
-    "job-format",
-    "job",
-    "customer",
-    "unit",
-    "mains",
-    "complaint",
-    "findings",
-    "work",
-    "valves",
-    "circuit",
-    "parts",
-    "mods",
-    "safety",
-    "notes",
-    "settings",
-];
+/// The only top-level node that may appear more than once.
+const REPEATABLE: &str = "measurements";
 
 pub const CIRCUIT_NODES: &[&str] = &[
     "bias",
@@ -82,7 +67,7 @@ pub(crate) fn decode_document(doc: &KdlDocument, source_name: &str, r: &mut Read
     // Repeated singletons.
     for (i, node) in nodes.iter().enumerate() {
         let name = node.name().value();
-        if SINGLETONS.contains(&name) && nodes[..i].iter().any(|n| n.name().value() == name) {
+        if name != REPEATABLE && nodes[..i].iter().any(|n| n.name().value() == name) {
             r.push(DecodeError::error(
                 "job::repeated-node",
                 Reader::name_span(node),
@@ -657,13 +642,69 @@ fn decode_mods(node: &KdlNode, r: &mut Reader) -> Vec<Modification> {
     let mut out = Vec::new();
     for child in r.children(node.children(), &["mod"], "`mods`") {
         r.check_entries(child, &["why", "reversible", "original-kept"], 1);
-        r.no_children(child);
         let what = r.req_arg_string(child, "a description", "mod \"…\" why=\"…\" reversible=#true");
         let why = r.opt_prop_string(child, "why");
         let reversible = r.opt_prop_bool(child, "reversible");
         let original_kept = r.opt_prop_bool(child, "original-kept");
+        let figures = decode_mod_figures(child, r);
         if let Some(what) = what {
-            out.push(Modification { what: what.value, why, reversible, original_kept });
+            out.push(Modification { what: what.value, why, reversible, original_kept, figures });
+        }
+    }
+    out
+}
+
+pub const MOD_FIGURES: &[&str] = &["rc-corner", "cathode-bypass", "stage-gain", "phase-shift"];
+
+fn decode_mod_figures(node: &KdlNode, r: &mut Reader) -> Vec<ModFigure> {
+    let mut out = Vec::new();
+    for child in r.children(node.children(), MOD_FIGURES, "a `mod`") {
+        r.no_children(child);
+        let cap = |r: &mut Reader, key: &str, example: &str| {
+            let q = r.req_prop_quantity(child, key, Q::Capacitance, example);
+            r.positive(q, "a capacitance", false).map(|q| Farads(q.value))
+        };
+        let res = |r: &mut Reader, key: &str, example: &str| ohms(r, child, key, example).map(|o| o.value);
+        match child.name().value() {
+            "rc-corner" => {
+                r.check_entries(child, &["r", "c", "label"], 0);
+                let ex = "rc-corner r=\"1M\" c=\"120p\"";
+                let (rv, cv) = (res(r, "r", ex), cap(r, "c", ex));
+                let label = r.opt_prop_string(child, "label");
+                if let (Some(rv), Some(cv)) = (rv, cv) {
+                    out.push(ModFigure::RcCorner { r: rv, c: cv, label });
+                }
+            }
+            "cathode-bypass" => {
+                r.check_entries(child, &["valve", "rk", "ck", "load"], 0);
+                let ex = "cathode-bypass valve=V1 rk=\"1k5\" ck=\"22u\" load=\"100k\"";
+                let valve = r.req_prop_name(child, "valve", ex);
+                let (rk, ck, load) = (res(r, "rk", ex), cap(r, "ck", ex), res(r, "load", ex));
+                if let (Some(valve), Some(rk), Some(ck), Some(load)) = (valve, rk, ck, load) {
+                    out.push(ModFigure::CathodeBypass { valve, rk, ck, load });
+                }
+            }
+            "stage-gain" => {
+                r.check_entries(child, &["valve", "load", "rk", "bypassed"], 0);
+                let ex = "stage-gain valve=V1 load=\"100k\" rk=\"1k5\" bypassed=#false";
+                let valve = r.req_prop_name(child, "valve", ex);
+                let load = res(r, "load", ex);
+                let rk = r.opt_prop_quantity(child, "rk", Q::Resistance);
+                let rk = r.positive(rk, "a resistance", false).map(|q| Ohms(q.value));
+                let bypassed = r.opt_prop_bool(child, "bypassed").unwrap_or(rk.is_none());
+                if let (Some(valve), Some(load)) = (valve, load) {
+                    out.push(ModFigure::StageGain { valve, load, rk, bypassed });
+                }
+            }
+            "phase-shift" => {
+                r.check_entries(child, &["r", "c"], 0);
+                let ex = "phase-shift r=\"220k\" c=\"0.01u\"";
+                let (rv, cv) = (res(r, "r", ex), cap(r, "c", ex));
+                if let (Some(rv), Some(cv)) = (rv, cv) {
+                    out.push(ModFigure::PhaseShift { r: rv, c: cv });
+                }
+            }
+            _ => {}
         }
     }
     out

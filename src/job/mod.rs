@@ -9,7 +9,7 @@ mod reader;
 mod validate;
 mod valve_types;
 
-pub use decode::{CIRCUIT_NODES, FORMAT_VERSION, SETTINGS, TOP_LEVEL};
+pub use decode::{CIRCUIT_NODES, FORMAT_VERSION, MOD_FIGURES, SETTINGS, TOP_LEVEL};
 pub use decode_error::{DecodeError, JobDiagnostics, did_you_mean, line_column, suggestion_help};
 pub use model::*;
 

@@ -405,6 +405,22 @@ pub struct Modification {
     pub why: Option<String>,
     pub reversible: Option<bool>,
     pub original_kept: Option<bool>,
+    /// Circuit figures the technician wants worked out for this mod.
+    pub figures: Vec<ModFigure>,
+}
+
+/// A textbook circuit figure attached to a modification.
+#[derive(Debug, Clone, Serialize)]
+#[serde(tag = "kind", rename_all = "snake_case")]
+pub enum ModFigure {
+    /// A first-order RC corner.
+    RcCorner { r: Ohms, c: Farads, label: Option<String> },
+    /// The corner of a cathode bypass capacitor on a triode stage.
+    CathodeBypass { valve: Spanned<String>, rk: Ohms, ck: Farads, load: Ohms },
+    /// The gain of a triode stage, bypassed or not.
+    StageGain { valve: Spanned<String>, load: Ohms, rk: Option<Ohms>, bypassed: bool },
+    /// Three equal RC sections of a phase-shift oscillator.
+    PhaseShift { r: Ohms, c: Farads },
 }
 
 /// Protection class of the unit under the safety-test rules.

@@ -65,6 +65,13 @@ pub fn cross_references(job: &Job) -> Vec<DecodeError> {
             position(&v.position, &format!("the \"{}\" readings", set.label));
         }
     }
+    for m in &job.mods {
+        for f in &m.figures {
+            if let super::model::ModFigure::CathodeBypass { valve, .. } | super::model::ModFigure::StageGain { valve, .. } = f {
+                position(valve, "a mod's figure");
+            }
+        }
+    }
 
     let mut node = |name: &Spanned<String>, what: &str| {
         if !nodes.contains(&name.value.as_str()) {

@@ -89,6 +89,19 @@ pub fn render(job: &Job, findings: &Findings, style: &TerminalStyle) -> String {
         out.push('\n');
     }
 
+    let figured: Vec<_> = findings.mods.iter().filter(|m| !m.figures.is_empty()).collect();
+    if !figured.is_empty() {
+        out.push_str(&bold(style, "Modification figures"));
+        out.push('\n');
+        for m in figured {
+            out.push_str(&format!("  {}\n", m.what));
+            for f in &m.figures {
+                out.push_str(&format!("    {}  [{}]\n", f.description, f.formula));
+            }
+        }
+        out.push('\n');
+    }
+
     if findings.warnings.is_empty() {
         out.push_str("No warnings: every figure is inside its limits.\n");
     } else {
@@ -252,6 +265,17 @@ fn render_set(set: &SetFindings, style: &TerminalStyle) -> String {
             statuses.push(c.verdict.status);
         }
         out.push_str(&render_painted(&t, style, &statuses));
+    }
+    if let Some(r) = &set.rectifier {
+        out.push_str(&format!(
+            "Rectifier {} ({}): at least {:.0} mA of {:.0} mA ({:.0} %) {}\n",
+            r.position,
+            r.valve_type,
+            r.load_at_least_ma,
+            r.rating_ma,
+            r.load_pct,
+            paint(style, r.verdict.status, &status_word(r.verdict.status))
+        ));
     }
     for h in &set.heaters {
         out.push_str(&format!(
