@@ -25,7 +25,23 @@ pub fn format_sig(value: f64, sig: i32) -> String {
     }
     let magnitude = rounded.abs().log10().floor() as i32;
     let decimals = (sig - 1 - magnitude).max(0) as usize;
-    trim_zeros(format!("{rounded:.decimals$}"))
+    trim_zeros(short_fixed(rounded, decimals))
+}
+
+/// `value` with `decimals` decimals, for a value that already has no more
+/// significant figures than it shows: the same text as
+/// `format!("{value:.decimals$}")`, built from an integer, which avoids the
+/// slow exact path of float formatting (most of the time the calculation
+/// pass spends writing its reasons). Large or tiny values take `format!`.
+fn short_fixed(value: f64, decimals: usize) -> String {
+    let scaled = (value.abs() * 10f64.powi(decimals as i32)).round();
+    if decimals > 15 || !scaled.is_finite() || scaled >= 1e15 {
+        return format!("{value:.decimals$}");
+    }
+    let digits = format!("{:0>width$}", scaled as u64, width = decimals + 1);
+    let (whole, fraction) = digits.split_at(digits.len() - decimals);
+    let sign = if value < 0.0 && scaled > 0.0 { "-" } else { "" };
+    if decimals == 0 { format!("{sign}{whole}") } else { format!("{sign}{whole}.{fraction}") }
 }
 
 /// Formats with a fixed number of decimals: (12.43, 1) → "12.4".
@@ -116,6 +132,29 @@ mod tests {
         assert_eq!(format_engineering(0.0, Voltage), "0 V");
         assert_eq!(format_engineering(-52.0, Voltage), "-52 V");
         assert_eq!(format_engineering(85.27, Percent), "85.3 %");
+    }
+
+    #[test]
+    fn short_fixed_writes_what_format_writes() {
+        // Values as format_sig hands them over: rounded to 1…6 significant
+        // figures, over many decades and both signs.
+        let mut x: u64 = 0x2545_f491_4f6c_dd1d;
+        for _ in 0..200_000 {
+            x ^= x << 13;
+            x ^= x >> 7;
+            x ^= x << 17;
+            let mantissa = (x % 1_000_000) as f64 / 100_000.0 + 1.0;
+            let exp = ((x >> 20) % 31) as i32 - 15;
+            let sign = if x & (1 << 60) == 0 { 1.0 } else { -1.0 };
+            let sig = ((x >> 40) % 6) as i32 + 1;
+            let rounded = round_sig(sign * mantissa * 10f64.powi(exp), sig);
+            let magnitude = rounded.abs().log10().floor() as i32;
+            let decimals = (sig - 1 - magnitude).max(0) as usize;
+            assert_eq!(short_fixed(rounded, decimals), format!("{rounded:.decimals$}"), "{rounded} at {decimals} decimals");
+        }
+        assert_eq!(short_fixed(0.0385, 4), "0.0385");
+        assert_eq!(short_fixed(-52.0, 0), "-52");
+        assert_eq!(short_fixed(1e300, 0), format!("{:.0}", 1e300));
     }
 
     #[test]
