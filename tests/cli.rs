@@ -697,3 +697,57 @@ fn a_repeated_measurement_set_label_is_an_error_at_the_second_set() {
         "{err}"
     );
 }
+
+/// Runs ampreport on a pseudo-terminal through `script` (util-linux or
+/// bsdutils, on every Debian system); `None` where it cannot be run.
+fn on_a_terminal(dir: &Path, args: &str, no_color: Option<&str>) -> Option<String> {
+    let command = format!("{} {args}", env!("CARGO_BIN_EXE_ampreport"));
+    let mut c = Command::new("script");
+    c.current_dir(dir)
+        .args(["-qec", &command, "/dev/null"])
+        .env_remove("NO_COLOR");
+    if let Some(v) = no_color {
+        c.env("NO_COLOR", v);
+    }
+    let o = c.output().ok()?;
+    o.status
+        .success()
+        .then(|| String::from_utf8_lossy(&o.stdout).into_owned())
+}
+
+#[test]
+fn colour_on_a_terminal_unless_no_color_is_set() {
+    let demo = demo_dir();
+    let Some(plain) = on_a_terminal(&demo, "check combo-el84-cathode.kdl", None) else {
+        eprintln!("skipped: `script` cannot give ampreport a terminal here");
+        return;
+    };
+    assert!(
+        plain.contains('\u{1b}'),
+        "no colour on a terminal:\n{plain}"
+    );
+    let none = on_a_terminal(&demo, "check combo-el84-cathode.kdl", Some("1")).expect("runs");
+    assert!(none.contains("as found"), "{none}");
+    no_ansi("check on a terminal with NO_COLOR", &none);
+    // NO_COLOR set but empty does not count (no-color.org).
+    let empty = on_a_terminal(&demo, "check combo-el84-cathode.kdl", Some("")).expect("runs");
+    assert!(empty.contains('\u{1b}'));
+    // Diagnostics too.
+    let broken = job_file(
+        "broken.kdl",
+        &small_job(GOOD_CIRCUIT, GOOD_READINGS).replace("cathode=\"10V\"", "cathode=\"10mA\""),
+    );
+    let command = format!(
+        "{} check broken.kdl; exit 0",
+        env!("CARGO_BIN_EXE_ampreport")
+    );
+    let o = Command::new("script")
+        .current_dir(broken.path())
+        .args(["-qec", &command, "/dev/null"])
+        .env("NO_COLOR", "1")
+        .output()
+        .expect("script runs");
+    let text = String::from_utf8_lossy(&o.stdout);
+    assert!(text.contains("broken.kdl:"), "{text}");
+    no_ansi("diagnostics on a terminal with NO_COLOR", &text);
+}
