@@ -6,3 +6,5 @@ mod table;
 pub mod terminal;
 
 pub use table::{Align, TextTable};
+pub mod handover;
+pub mod plots;
