@@ -16,6 +16,9 @@ use crate::calc::{
 use crate::job::{Job, MeasurementSet, ProtectionClass};
 use crate::units::{QuantityKind as Q, format_engineering, format_fixed, format_sig};
 
+/// The footer shows at most this much of the job id (the header has it all).
+pub const FOOTER_ID_CHARS: usize = 40;
+
 /// Paths of the charts inside the typesetting folder.
 pub const DISSIPATION_PLOT: &str = "plots/plate-dissipation.svg";
 pub const SUPPLY_PLOT: &str = "plots/supply-chain.svg";
@@ -369,6 +372,7 @@ pub struct RatingRow {
 
 #[derive(Debug, Clone, Serialize)]
 pub struct Footer {
+    /// The job id on one line, cut to [`FOOTER_ID_CHARS`].
     pub job_id: String,
     pub tool_version: String,
     pub typst_version: String,
@@ -610,7 +614,7 @@ pub fn build_context(job: &Job, findings: &Findings, inputs: &ContextInputs<'_>)
             .collect(),
         method: method(job, findings),
         footer: Footer {
-            job_id: job.info.id.clone(),
+            job_id: crate::report::plots::label_text(&job.info.id, FOOTER_ID_CHARS),
             tool_version: inputs.tool_version.to_string(),
             typst_version: inputs.typst_version.to_string(),
             job_digest: inputs.job_digest.to_string(),
