@@ -26,7 +26,11 @@ fn demo(name: &str) -> PathBuf {
 fn typst_version() -> Option<String> {
     match Command::new("typst").arg("--version").output() {
         Ok(out) if out.status.success() => {
-            let line = String::from_utf8_lossy(&out.stdout).lines().next().unwrap_or("").to_string();
+            let line = String::from_utf8_lossy(&out.stdout)
+                .lines()
+                .next()
+                .unwrap_or("")
+                .to_string();
             line.split_whitespace().nth(1).map(str::to_string)
         }
         _ if std::env::var_os("CI").is_none() => {
@@ -38,11 +42,20 @@ fn typst_version() -> Option<String> {
 }
 
 fn ampreport(args: &[&std::ffi::OsStr]) -> Output {
-    Command::new(BIN).args(args).env_remove("AMPREPORT_TYPST").output().expect("run ampreport")
+    Command::new(BIN)
+        .args(args)
+        .env_remove("AMPREPORT_TYPST")
+        .output()
+        .expect("run ampreport")
 }
 
 fn render(job: &Path, pdf: &Path, extra: &[&str]) -> Output {
-    let mut args: Vec<&std::ffi::OsStr> = vec!["render".as_ref(), job.as_os_str(), "-o".as_ref(), pdf.as_os_str()];
+    let mut args: Vec<&std::ffi::OsStr> = vec![
+        "render".as_ref(),
+        job.as_os_str(),
+        "-o".as_ref(),
+        pdf.as_os_str(),
+    ];
     args.extend(extra.iter().map(|a| std::ffi::OsStr::new(*a)));
     ampreport(&args)
 }
@@ -85,14 +98,24 @@ fn pdftotext_args(pdf: &Path, args: &[&str]) -> String {
         .arg("-")
         .output()
         .expect("pdftotext (poppler-utils) is needed for these tests");
-    assert!(out.status.success(), "pdftotext failed on {}", pdf.display());
+    assert!(
+        out.status.success(),
+        "pdftotext failed on {}",
+        pdf.display()
+    );
     String::from_utf8(out.stdout).unwrap()
 }
 
 fn page_count(pdf: &Path) -> usize {
-    let out = Command::new("pdfinfo").arg(pdf).output().expect("pdfinfo (poppler-utils)");
+    let out = Command::new("pdfinfo")
+        .arg(pdf)
+        .output()
+        .expect("pdfinfo (poppler-utils)");
     let info = String::from_utf8_lossy(&out.stdout);
-    let line = info.lines().find(|l| l.starts_with("Pages:")).expect("pdfinfo prints Pages");
+    let line = info
+        .lines()
+        .find(|l| l.starts_with("Pages:"))
+        .expect("pdfinfo prints Pages");
     line.trim_start_matches("Pages:").trim().parse().unwrap()
 }
 
@@ -109,7 +132,10 @@ fn normalise(text: &str) -> String {
 
 /// Files in `dir`, by name.
 fn listing(dir: &Path) -> BTreeSet<String> {
-    std::fs::read_dir(dir).unwrap().map(|e| e.unwrap().file_name().to_string_lossy().into_owned()).collect()
+    std::fs::read_dir(dir)
+        .unwrap()
+        .map(|e| e.unwrap().file_name().to_string_lossy().into_owned())
+        .collect()
 }
 
 fn calc_json(job: &Path) -> serde_json::Value {
@@ -153,7 +179,11 @@ fn each_demo_job_renders_with_its_figures_and_cautions() {
 
         // The unit serial, from the job file itself.
         let job_text = std::fs::read_to_string(&job).unwrap();
-        let serial = job_text.split("serial=\"").nth(1).and_then(|s| s.split('"').next()).unwrap();
+        let serial = job_text
+            .split("serial=\"")
+            .nth(1)
+            .and_then(|s| s.split('"').next())
+            .unwrap();
         assert!(text.contains(serial), "{name}: serial {serial} missing");
 
         // Every valve position of the line-up (all types are rated, so
@@ -175,7 +205,11 @@ fn each_demo_job_renders_with_its_figures_and_cautions() {
                 for key in ["plate_dissipation_w", "screen_dissipation_w"] {
                     if let Some(w) = v[key].as_f64() {
                         let cell = format!("{w:.1}");
-                        assert!(words.contains(cell.as_str()), "{name}: {key} {cell} of {} missing", v["position"]);
+                        assert!(
+                            words.contains(cell.as_str()),
+                            "{name}: {key} {cell} of {} missing",
+                            v["position"]
+                        );
                         figures += 1;
                     }
                 }
@@ -184,10 +218,20 @@ fn each_demo_job_renders_with_its_figures_and_cautions() {
         assert!(figures >= 4, "{name}: only {figures} dissipation figures");
 
         for phrase in CAUTION_PHRASES.iter().chain(DEFERRAL_PHRASES) {
-            assert!(flat.contains(&normalise(phrase)), "{name}: caution text {phrase:?} missing");
+            assert!(
+                flat.contains(&normalise(phrase)),
+                "{name}: caution text {phrase:?} missing"
+            );
         }
-        for phrase in ["AT A GLANCE", "Method and assumptions", "from memory of manufacturer data; verify"] {
-            assert!(flat.contains(&normalise(phrase)), "{name}: {phrase:?} missing");
+        for phrase in [
+            "AT A GLANCE",
+            "Method and assumptions",
+            "from memory of manufacturer data; verify",
+        ] {
+            assert!(
+                flat.contains(&normalise(phrase)),
+                "{name}: {phrase:?} missing"
+            );
         }
 
         // Footer: every page says "Page n of m", with the versions and the
@@ -195,12 +239,30 @@ fn each_demo_job_renders_with_its_figures_and_cautions() {
         let pages = page_count(&pdf);
         assert!(pages >= 3, "{name}: {pages} pages");
         for n in 1..=pages {
-            assert!(flat.contains(&format!("Page{n}of{pages}")), "{name}: footer of page {n} missing");
+            assert!(
+                flat.contains(&format!("Page{n}of{pages}")),
+                "{name}: footer of page {n} missing"
+            );
         }
-        let digest: String = Sha256::digest(job_text.as_bytes()).iter().take(6).map(|b| format!("{b:02x}")).collect();
-        assert_eq!(flat.matches(&digest).count(), pages, "{name}: digest {digest} not on every page");
-        let versions = normalise(&format!("ampreport {} · typst {typst}", env!("CARGO_PKG_VERSION")));
-        assert_eq!(flat.matches(&versions).count(), pages, "{name}: versions not on every page");
+        let digest: String = Sha256::digest(job_text.as_bytes())
+            .iter()
+            .take(6)
+            .map(|b| format!("{b:02x}"))
+            .collect();
+        assert_eq!(
+            flat.matches(&digest).count(),
+            pages,
+            "{name}: digest {digest} not on every page"
+        );
+        let versions = normalise(&format!(
+            "ampreport {} · typst {typst}",
+            env!("CARGO_PKG_VERSION")
+        ));
+        assert_eq!(
+            flat.matches(&versions).count(),
+            pages,
+            "{name}: versions not on every page"
+        );
     }
 }
 
@@ -214,7 +276,12 @@ fn the_at_a_glance_panel_names_each_family_with_its_status() {
     let pdf = dir.path().join("glance.pdf");
     assert_ok(&render(&job, &pdf, &["--typst", "typst"]), "render");
     let first_page = {
-        let out = Command::new("pdftotext").args(["-f", "1", "-l", "1", "-enc", "UTF-8"]).arg(&pdf).arg("-").output().unwrap();
+        let out = Command::new("pdftotext")
+            .args(["-f", "1", "-l", "1", "-enc", "UTF-8"])
+            .arg(&pdf)
+            .arg("-")
+            .output()
+            .unwrap();
         normalise(&String::from_utf8(out.stdout).unwrap())
     };
     let json = calc_json(&job);
@@ -235,27 +302,47 @@ fn rendering_twice_and_from_emitted_source_gives_identical_bytes() {
     let job = demo("head-el34-quad");
     let (a, b) = (dir.path().join("a.pdf"), dir.path().join("b.pdf"));
     let src = dir.path().join("source");
-    assert_ok(&render(&job, &a, &["--emit-source", src.to_str().unwrap()]), "first render");
+    assert_ok(
+        &render(&job, &a, &["--emit-source", src.to_str().unwrap()]),
+        "first render",
+    );
     assert_ok(&render(&job, &b, &[]), "second render");
     let bytes = std::fs::read(&a).unwrap();
     assert!(bytes.starts_with(b"%PDF-"));
     assert_eq!(bytes, std::fs::read(&b).unwrap(), "two renders differ");
 
     // The command docs/render.md gives for an emitted folder.
-    assert!(src.join("main.typ").is_file() && src.join("plots").join("plate-dissipation.svg").is_file());
+    assert!(
+        src.join("main.typ").is_file() && src.join("plots").join("plate-dissipation.svg").is_file()
+    );
     let c = dir.path().join("c.pdf");
     let root = src.to_str().unwrap();
     let status = Command::new("typst")
-        .args(["compile", "--root", root, "--font-path", &format!("{root}/fonts")])
+        .args([
+            "compile",
+            "--root",
+            root,
+            "--font-path",
+            &format!("{root}/fonts"),
+        ])
         .args(["--ignore-system-fonts", "--ignore-embedded-fonts"])
         // 2026-11-20, the job's completion date, at 00:00 UTC.
-        .args(["--creation-timestamp", "1795132800", "--pdf-standard", "a-2b"])
+        .args([
+            "--creation-timestamp",
+            "1795132800",
+            "--pdf-standard",
+            "a-2b",
+        ])
         .arg(src.join("main.typ"))
         .arg(&c)
         .status()
         .unwrap();
     assert!(status.success());
-    assert_eq!(bytes, std::fs::read(&c).unwrap(), "typst on the emitted source gives another PDF");
+    assert_eq!(
+        bytes,
+        std::fs::read(&c).unwrap(),
+        "typst on the emitted source gives another PDF"
+    );
 }
 
 #[test]
@@ -268,7 +355,10 @@ fn default_output_sits_beside_the_job() {
     std::fs::copy(demo("combo-el84-cathode"), &job).unwrap();
     let out = ampreport(&["render".as_ref(), job.as_os_str()]);
     assert_ok(&out, "render");
-    assert_eq!(listing(dir.path()), BTreeSet::from(["bench job.kdl".to_string(), "bench job.pdf".to_string()]));
+    assert_eq!(
+        listing(dir.path()),
+        BTreeSet::from(["bench job.kdl".to_string(), "bench job.pdf".to_string()])
+    );
 }
 
 /// A KDL 2 quoted string holding exactly `s`.
@@ -428,7 +518,10 @@ fn corpus() -> Vec<(&'static str, String)> {
         ("block comment", "/* not a comment */"),
         ("strong and emphasis", "*$5 off* <x> @y _em_"),
         ("heading after newline", "first line\n= Heading"),
-        ("lists after newline", "notes:\n- item\n+ item\n1. item\n/ Term: d"),
+        (
+            "lists after newline",
+            "notes:\n- item\n+ item\n1. item\n/ Term: d",
+        ),
         ("backslash at end", "C:\\temp\\"),
         ("unicode escape", "\\u{41}"),
         ("raw", "`raw` ```rust code```"),
@@ -474,7 +567,12 @@ fn check_corpus_job(cases: &[(&str, String)], tag: &str) {
     let text = job_with(
         |field| {
             let f = FIELDS.iter().position(|x| *x == field).unwrap();
-            cases.iter().enumerate().map(|(c, (_, s))| wrap(f, c, s)).collect::<Vec<_>>().join(" ")
+            cases
+                .iter()
+                .enumerate()
+                .map(|(c, (_, s))| wrap(f, c, s))
+                .collect::<Vec<_>>()
+                .join(" ")
         },
         str::to_string,
     );
@@ -498,7 +596,11 @@ fn check_corpus_job(cases: &[(&str, String)], tag: &str) {
     if !missing.is_empty() && std::env::var_os("SHOW_EXTRACTED").is_some() {
         eprintln!("{reading}");
     }
-    assert!(missing.is_empty(), "{tag}: not printed literally:\n  {}", missing.join("\n  "));
+    assert!(
+        missing.is_empty(),
+        "{tag}: not printed literally:\n  {}",
+        missing.join("\n  ")
+    );
 }
 
 #[test]
@@ -538,7 +640,9 @@ fn very_long_text_in_every_field_prints_in_full() {
         long.push_str(&format!("w{i}; "));
         i += 1;
     }
-    let unbroken: String = (0..400).map(|i| char::from(b'a' + (i % 26) as u8)).collect();
+    let unbroken: String = (0..400)
+        .map(|i| char::from(b'a' + (i % 26) as u8))
+        .collect();
     let dir = tempfile::tempdir().unwrap();
     let open = |f: usize| format!("ZzOPEN{}Z", letters(f).to_uppercase());
     let close = |f: usize| format!("ZzCLOSE{}Z", letters(f).to_uppercase());
@@ -564,7 +668,10 @@ fn very_long_text_in_every_field_prints_in_full() {
             missing.push(*field);
         }
     }
-    assert!(missing.is_empty(), "long text not printed in full in: {missing:?}");
+    assert!(
+        missing.is_empty(),
+        "long text not printed in full in: {missing:?}"
+    );
 }
 
 #[test]
@@ -611,7 +718,13 @@ fn hostile_names_reach_tables_and_charts_literally() {
             "second set label" => "as left".into(),
             _ => "plain".into(),
         },
-        |usual| names.iter().find(|(u, _)| *u == usual).map(|(_, h)| h.to_string()).unwrap(),
+        |usual| {
+            names
+                .iter()
+                .find(|(u, _)| *u == usual)
+                .map(|(_, h)| h.to_string())
+                .unwrap()
+        },
     );
     let dir = tempfile::tempdir().unwrap();
     let job = dir.path().join("names.kdl");
@@ -640,8 +753,16 @@ fn a_failing_typst_leaves_the_folder_as_it_was() {
 
     // Not typst at all: refused at the version check.
     let out = render(&job, &pdf, &["--typst", "/bin/false"]);
-    assert_eq!(out.status.code(), Some(3), "{}", String::from_utf8_lossy(&out.stderr));
-    assert_eq!(std::fs::read(&pdf).unwrap(), b"%PDF-1.7 the good old document");
+    assert_eq!(
+        out.status.code(),
+        Some(3),
+        "{}",
+        String::from_utf8_lossy(&out.stderr)
+    );
+    assert_eq!(
+        std::fs::read(&pdf).unwrap(),
+        b"%PDF-1.7 the good old document"
+    );
     assert_eq!(listing(dir.path()), before);
 
     // A typst that answers like one and then fails to compile.
@@ -657,8 +778,14 @@ fn a_failing_typst_leaves_the_folder_as_it_was() {
     let out = render(&job, &pdf, &["--typst", fake.to_str().unwrap()]);
     let stderr = String::from_utf8_lossy(&out.stderr);
     assert_eq!(out.status.code(), Some(3), "{stderr}");
-    assert!(stderr.contains("the press is out of ink"), "typst's message missing: {stderr}");
-    assert_eq!(std::fs::read(&pdf).unwrap(), b"%PDF-1.7 the good old document");
+    assert!(
+        stderr.contains("the press is out of ink"),
+        "typst's message missing: {stderr}"
+    );
+    assert_eq!(
+        std::fs::read(&pdf).unwrap(),
+        b"%PDF-1.7 the good old document"
+    );
     assert_eq!(listing(dir.path()), before, "stray files beside the PDF");
     // The generated source is kept for inspection, and its folder named.
     let kept = kept_folder(&stderr).expect("the kept folder is named");
@@ -669,7 +796,12 @@ fn a_failing_typst_leaves_the_folder_as_it_was() {
 /// The folder a failed compile left for inspection, as named on stderr.
 fn kept_folder(stderr: &str) -> Option<PathBuf> {
     let rest = stderr.split("kept for inspection in ").nth(1)?;
-    let path: String = rest.split(';').next()?.split_whitespace().collect::<Vec<_>>().join("");
+    let path: String = rest
+        .split(';')
+        .next()?
+        .split_whitespace()
+        .collect::<Vec<_>>()
+        .join("");
     Some(PathBuf::from(path))
 }
 
@@ -681,7 +813,9 @@ fn make_executable(path: &Path) {
     // make it briefly "text file busy"; wait until it runs.
     for _ in 0..200 {
         match Command::new(path).arg("--version").output() {
-            Err(e) if e.raw_os_error() == Some(26) => std::thread::sleep(std::time::Duration::from_millis(10)),
+            Err(e) if e.raw_os_error() == Some(26) => {
+                std::thread::sleep(std::time::Duration::from_millis(10))
+            }
             _ => break,
         }
     }
@@ -693,14 +827,22 @@ fn without_typst_the_install_command_is_named() {
     let empty = tempfile::tempdir().unwrap();
     let pdf = dir.path().join("x.pdf");
     let out = Command::new(BIN)
-        .args(["render".as_ref(), demo("combo-el84-cathode").as_os_str(), "-o".as_ref(), pdf.as_os_str()])
+        .args([
+            "render".as_ref(),
+            demo("combo-el84-cathode").as_os_str(),
+            "-o".as_ref(),
+            pdf.as_os_str(),
+        ])
         .env("PATH", empty.path())
         .env_remove("AMPREPORT_TYPST")
         .output()
         .unwrap();
     let stderr = String::from_utf8_lossy(&out.stderr);
     assert_eq!(out.status.code(), Some(3), "{stderr}");
-    assert!(stderr.contains("cargo install --locked typst-cli"), "{stderr}");
+    assert!(
+        stderr.contains("cargo install --locked typst-cli"),
+        "{stderr}"
+    );
     assert!(listing(dir.path()).is_empty());
 }
 
@@ -725,21 +867,43 @@ fn a_shop_template_folder_overrides_the_built_in_one() {
     .unwrap();
     let pdf = dir.path().join("shop.pdf");
     let job = demo("combo-el84-cathode");
-    assert_ok(&render(&job, &pdf, &["--templates", templates.to_str().unwrap()]), "shop template");
+    assert_ok(
+        &render(&job, &pdf, &["--templates", templates.to_str().unwrap()]),
+        "shop template",
+    );
     let text = pdftotext(&pdf);
-    assert!(text.contains("Shop copy for DU15-04417: 2 sets, caution."), "{text}");
+    assert!(
+        text.contains("Shop copy for DU15-04417: 2 sets, caution."),
+        "{text}"
+    );
 
     // A broken shop template is the shop's input: status 1, PDF untouched.
-    std::fs::write(templates.join("handover.typ"), "{{ font_rules }}\n{{ no_such_variable }}\n").unwrap();
+    std::fs::write(
+        templates.join("handover.typ"),
+        "{{ font_rules }}\n{{ no_such_variable }}\n",
+    )
+    .unwrap();
     let before = std::fs::read(&pdf).unwrap();
     let out = render(&job, &pdf, &["--templates", templates.to_str().unwrap()]);
-    assert_eq!(out.status.code(), Some(1), "{}", String::from_utf8_lossy(&out.stderr));
+    assert_eq!(
+        out.status.code(),
+        Some(1),
+        "{}",
+        String::from_utf8_lossy(&out.stderr)
+    );
     assert_eq!(std::fs::read(&pdf).unwrap(), before);
-    std::fs::write(templates.join("handover.typ"), "{{ font_rules }}\n#nonexistent()\n").unwrap();
+    std::fs::write(
+        templates.join("handover.typ"),
+        "{{ font_rules }}\n#nonexistent()\n",
+    )
+    .unwrap();
     let out = render(&job, &pdf, &["--templates", templates.to_str().unwrap()]);
     let stderr = String::from_utf8_lossy(&out.stderr);
     assert_eq!(out.status.code(), Some(1), "{stderr}");
-    assert!(stderr.contains("nonexistent"), "typst's diagnostics missing: {stderr}");
+    assert!(
+        stderr.contains("nonexistent"),
+        "typst's diagnostics missing: {stderr}"
+    );
     assert_eq!(std::fs::read(&pdf).unwrap(), before);
     if let Some(kept) = kept_folder(&stderr) {
         std::fs::remove_dir_all(kept).unwrap();

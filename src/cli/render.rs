@@ -52,11 +52,17 @@ pub fn run(args: &RenderArgs) -> Exit {
         Err(e) => return report_build_error(e),
     };
 
-    let output = args.output.clone().unwrap_or_else(|| default_output(&args.job.job));
+    let output = args
+        .output
+        .clone()
+        .unwrap_or_else(|| default_output(&args.job.job));
 
     if let Some(dir) = &args.emit_source {
         if let Err(e) = typeset::emit_source(&document.sandbox, dir) {
-            eprintln!("error: could not write the generated source to {}: {e}", dir.display());
+            eprintln!(
+                "error: could not write the generated source to {}: {e}",
+                dir.display()
+            );
             return Exit::Environment;
         }
         eprintln!("wrote the generated source to {}", dir.display());
@@ -66,7 +72,13 @@ pub fn run(args: &RenderArgs) -> Exit {
         );
     }
 
-    match typeset::compile(&program, &document.sandbox, document.main, &document.options, &output) {
+    match typeset::compile(
+        &program,
+        &document.sandbox,
+        document.main,
+        &document.options,
+        &output,
+    ) {
         Ok(outcome) => {
             if !outcome.warnings.is_empty() {
                 eprintln!("typst warned:\n{}", outcome.warnings);
@@ -76,11 +88,15 @@ pub fn run(args: &RenderArgs) -> Exit {
         }
         Err(e) => {
             let status = match &e {
-                TypesetError::Compile { .. } if templates.override_dir.is_some() => Exit::InvalidInput,
+                TypesetError::Compile { .. } if templates.override_dir.is_some() => {
+                    Exit::InvalidInput
+                }
                 _ => Exit::Environment,
             };
             if matches!(e, TypesetError::Compile { .. }) && templates.override_dir.is_none() {
-                eprintln!("note: the built-in template failed to compile; this is a fault in ampreport, please report it");
+                eprintln!(
+                    "note: the built-in template failed to compile; this is a fault in ampreport, please report it"
+                );
             }
             eprintln!("{:?}", miette::Report::new(e));
             if output.exists() {
@@ -103,7 +119,10 @@ fn template_source(dir: Option<&Path>) -> Result<TemplateSource, Exit> {
         None => Ok(source),
         Some(dir) if dir.is_dir() => Ok(source.with_override_dir(dir)),
         Some(dir) => {
-            eprintln!("error: the template folder {} does not exist or is not a folder", dir.display());
+            eprintln!(
+                "error: the template folder {} does not exist or is not a folder",
+                dir.display()
+            );
             Err(Exit::InvalidInput)
         }
     }
@@ -111,9 +130,18 @@ fn template_source(dir: Option<&Path>) -> Result<TemplateSource, Exit> {
 
 fn report_build_error(e: HandoverError) -> Exit {
     let status = match &e {
-        HandoverError::Template { from_override: true, .. } | HandoverError::Image { .. } => Exit::InvalidInput,
-        HandoverError::Template { from_override: false, .. } => {
-            eprintln!("note: the built-in template failed; this is a fault in ampreport, please report it");
+        HandoverError::Template {
+            from_override: true,
+            ..
+        }
+        | HandoverError::Image { .. } => Exit::InvalidInput,
+        HandoverError::Template {
+            from_override: false,
+            ..
+        } => {
+            eprintln!(
+                "note: the built-in template failed; this is a fault in ampreport, please report it"
+            );
             Exit::Environment
         }
         HandoverError::Plot(_) | HandoverError::Sandbox(_) => Exit::Environment,
@@ -128,7 +156,10 @@ mod tests {
 
     #[test]
     fn output_sits_beside_the_job() {
-        assert_eq!(default_output(Path::new("jobs/a.kdl")), PathBuf::from("jobs/a.pdf"));
+        assert_eq!(
+            default_output(Path::new("jobs/a.kdl")),
+            PathBuf::from("jobs/a.pdf")
+        );
         assert_eq!(default_output(Path::new("a")), PathBuf::from("a.pdf"));
     }
 }

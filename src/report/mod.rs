@@ -1,10 +1,10 @@
 //! Presenting findings: one module per output kind. Reports decide nothing:
 //! every status comes from [`crate::calc`].
 
+pub mod handover;
 pub mod json;
+pub mod plots;
 mod table;
 pub mod terminal;
 
 pub use table::{Align, TextTable};
-pub mod handover;
-pub mod plots;

@@ -89,7 +89,11 @@ pub fn dissipation_chart(findings: &Findings) -> Option<DissipationChart> {
     let mut valves: Vec<(String, String)> = Vec::new();
     let mut kinds: Vec<&str> = Vec::new();
     for set in &findings.sets {
-        for v in set.valves.iter().filter(|v| v.is_output && v.plate_dissipation_pct.is_some()) {
+        for v in set
+            .valves
+            .iter()
+            .filter(|v| v.is_output && v.plate_dissipation_pct.is_some())
+        {
             if !valves.iter().any(|(p, _)| *p == v.position) {
                 valves.push((v.position.clone(), v.valve_type.clone()));
             }
@@ -108,18 +112,31 @@ pub fn dissipation_chart(findings: &Findings) -> Option<DissipationChart> {
             label: set.label.clone(),
             values: valves
                 .iter()
-                .map(|(p, _)| set.valves.iter().find(|v| &v.position == p).and_then(|v| v.plate_dissipation_pct))
+                .map(|(p, _)| {
+                    set.valves
+                        .iter()
+                        .find(|v| &v.position == p)
+                        .and_then(|v| v.plate_dissipation_pct)
+                })
                 .collect(),
         })
         .collect();
     let s = &findings.settings;
     let guide = match kinds.as_slice() {
-        ["fixed"] => Guide::Aim { low_pct: s.fixed_bias_low_pct, high_pct: s.fixed_bias_high_pct },
-        ["cathode"] => Guide::Caution { pct: s.cathode_bias_caution_pct },
+        ["fixed"] => Guide::Aim {
+            low_pct: s.fixed_bias_low_pct,
+            high_pct: s.fixed_bias_high_pct,
+        },
+        ["cathode"] => Guide::Caution {
+            pct: s.cathode_bias_caution_pct,
+        },
         _ => Guide::None,
     };
     Some(DissipationChart {
-        valves: valves.into_iter().map(|(p, t)| format!("{p} {t}")).collect(),
+        valves: valves
+            .into_iter()
+            .map(|(p, t)| format!("{p} {t}"))
+            .collect(),
         series,
         guide,
     })
@@ -140,7 +157,10 @@ pub fn supply_chart(findings: &Findings) -> Option<SupplyChart> {
                         existing.band = band;
                     }
                 }
-                None => nodes.push(SupplyNode { name: n.name.clone(), band }),
+                None => nodes.push(SupplyNode {
+                    name: n.name.clone(),
+                    band,
+                }),
             }
         }
     }
@@ -154,11 +174,20 @@ pub fn supply_chart(findings: &Findings) -> Option<SupplyChart> {
             label: set.label.clone(),
             values: nodes
                 .iter()
-                .map(|node| set.nodes.iter().find(|n| n.name == node.name).map(|n| n.corrected_volts))
+                .map(|node| {
+                    set.nodes
+                        .iter()
+                        .find(|n| n.name == node.name)
+                        .map(|n| n.corrected_volts)
+                })
                 .collect(),
         })
         .collect();
-    Some(SupplyChart { nodes, series, nominal_volts: findings.mains.nominal_volts })
+    Some(SupplyChart {
+        nodes,
+        series,
+        nominal_volts: findings.mains.nominal_volts,
+    })
 }
 
 /// Text that is safe and short enough for a chart label: control
@@ -226,8 +255,11 @@ fn hatch(
         let xa = x0.max(c - y1);
         let xb = x1.min(c - y0);
         if xa < xb {
-            area.draw(&PathElement::new(vec![(xa, c - xa), (xb, c - xb)], INK.stroke_width(1)))
-                .map_err(|e| e.to_string())?;
+            area.draw(&PathElement::new(
+                vec![(xa, c - xa), (xb, c - xb)],
+                INK.stroke_width(1),
+            ))
+            .map_err(|e| e.to_string())?;
         }
         c += spacing;
     }
@@ -235,11 +267,18 @@ fn hatch(
 }
 
 /// A horizontal dashed line in pixel coordinates.
-fn dashed(area: &DrawingArea<SVGBackend<'_>, Shift>, x0: i32, x1: i32, y: i32, style: ShapeStyle) -> Result<(), String> {
+fn dashed(
+    area: &DrawingArea<SVGBackend<'_>, Shift>,
+    x0: i32,
+    x1: i32,
+    y: i32,
+    style: ShapeStyle,
+) -> Result<(), String> {
     let mut x = x0;
     while x < x1 {
         let end = (x + 8).min(x1);
-        area.draw(&PathElement::new(vec![(x, y), (end, y)], style)).map_err(|e| e.to_string())?;
+        area.draw(&PathElement::new(vec![(x, y), (end, y)], style))
+            .map_err(|e| e.to_string())?;
         x += 13;
     }
     Ok(())
@@ -247,13 +286,26 @@ fn dashed(area: &DrawingArea<SVGBackend<'_>, Shift>, x0: i32, x1: i32, y: i32, s
 
 /// The legend row along the top: (swatch drawer, label) pairs laid out left
 /// to right from `x`.
-fn legend_swatch_bar(area: &DrawingArea<SVGBackend<'_>, Shift>, x: i32, y: i32, k: usize) -> Result<(), String> {
+fn legend_swatch_bar(
+    area: &DrawingArea<SVGBackend<'_>, Shift>,
+    x: i32,
+    y: i32,
+    k: usize,
+) -> Result<(), String> {
     let (fill, hatched) = bar_pattern(k);
-    area.draw(&Rectangle::new([(x, y - 7), (x + 22, y + 7)], fill.filled())).map_err(|e| e.to_string())?;
+    area.draw(&Rectangle::new(
+        [(x, y - 7), (x + 22, y + 7)],
+        fill.filled(),
+    ))
+    .map_err(|e| e.to_string())?;
     if hatched {
         hatch(area, (x, y - 7), (x + 22, y + 7), 6)?;
     }
-    area.draw(&Rectangle::new([(x, y - 7), (x + 22, y + 7)], INK.stroke_width(1))).map_err(|e| e.to_string())?;
+    area.draw(&Rectangle::new(
+        [(x, y - 7), (x + 22, y + 7)],
+        INK.stroke_width(1),
+    ))
+    .map_err(|e| e.to_string())?;
     Ok(())
 }
 
@@ -270,7 +322,11 @@ fn draw_dissipation(chart: &DissipationChart, svg: &mut String) -> Result<(), St
     root.fill(&PAPER).map_err(|e| e.to_string())?;
     let n = chart.valves.len().max(1);
     let sets = chart.series.len().max(1);
-    let highest = chart.series.iter().flat_map(|s| s.values.iter().flatten()).fold(0.0f64, |a, &b| a.max(b));
+    let highest = chart
+        .series
+        .iter()
+        .flat_map(|s| s.values.iter().flatten())
+        .fold(0.0f64, |a, &b| a.max(b));
     let top = ((highest.max(100.0) + 14.0) / 10.0).ceil() * 10.0;
 
     let mut ctx = ChartBuilder::on(&root)
@@ -304,19 +360,34 @@ fn draw_dissipation(chart: &DissipationChart, svg: &mut String) -> Result<(), St
     // right margin, clear of the bars.
     match chart.guide {
         Guide::Aim { low_pct, high_pct } => {
-            ctx.draw_series(std::iter::once(Rectangle::new([(0.0, low_pct), (n as f64, high_pct)], LIGHT.filled())))
-                .map_err(|e| e.to_string())?;
+            ctx.draw_series(std::iter::once(Rectangle::new(
+                [(0.0, low_pct), (n as f64, high_pct)],
+                LIGHT.filled(),
+            )))
+            .map_err(|e| e.to_string())?;
             let mid = ctx.backend_coord(&(0.0, (low_pct + high_pct) / 2.0)).1;
-            root.draw(&Text::new("fixed-bias aim", (right + 8, mid - 8), anchored(12, HPos::Left, VPos::Center)))
-                .map_err(|e| e.to_string())?;
-            root.draw(&Text::new(format!("{low_pct:.0}–{high_pct:.0} %"), (right + 8, mid + 8), anchored(12, HPos::Left, VPos::Center)))
-                .map_err(|e| e.to_string())?;
+            root.draw(&Text::new(
+                "fixed-bias aim",
+                (right + 8, mid - 8),
+                anchored(12, HPos::Left, VPos::Center),
+            ))
+            .map_err(|e| e.to_string())?;
+            root.draw(&Text::new(
+                format!("{low_pct:.0}–{high_pct:.0} %"),
+                (right + 8, mid + 8),
+                anchored(12, HPos::Left, VPos::Center),
+            ))
+            .map_err(|e| e.to_string())?;
         }
         Guide::Caution { pct } => {
             let y = ctx.backend_coord(&(0.0, pct)).1;
             dashed(&root, left, right, y, INK.stroke_width(1))?;
-            root.draw(&Text::new(format!("caution {pct:.0} %"), (right + 8, y + 2), anchored(12, HPos::Left, VPos::Top)))
-                .map_err(|e| e.to_string())?;
+            root.draw(&Text::new(
+                format!("caution {pct:.0} %"),
+                (right + 8, y + 2),
+                anchored(12, HPos::Left, VPos::Top),
+            ))
+            .map_err(|e| e.to_string())?;
         }
         Guide::None => {}
     }
@@ -330,28 +401,50 @@ fn draw_dissipation(chart: &DissipationChart, svg: &mut String) -> Result<(), St
             let Some(v) = *value else { continue };
             let x0 = i as f64 + (1.0 - group) / 2.0 + k as f64 * bar;
             let x1 = x0 + bar * 0.9;
-            ctx.draw_series(std::iter::once(Rectangle::new([(x0, 0.0), (x1, v)], fill.filled()))).map_err(|e| e.to_string())?;
+            ctx.draw_series(std::iter::once(Rectangle::new(
+                [(x0, 0.0), (x1, v)],
+                fill.filled(),
+            )))
+            .map_err(|e| e.to_string())?;
             let a = ctx.backend_coord(&(x0, v));
             let b = ctx.backend_coord(&(x1, 0.0));
             if hatched {
                 hatch(&root, a, b, 7)?;
             }
-            root.draw(&Rectangle::new([a, b], INK.stroke_width(1))).map_err(|e| e.to_string())?;
-            root.draw(&Text::new(pct_label(v), ((a.0 + b.0) / 2, a.1 - 3), anchored(12, HPos::Center, VPos::Bottom)))
+            root.draw(&Rectangle::new([a, b], INK.stroke_width(1)))
                 .map_err(|e| e.to_string())?;
+            root.draw(&Text::new(
+                pct_label(v),
+                ((a.0 + b.0) / 2, a.1 - 3),
+                anchored(12, HPos::Center, VPos::Bottom),
+            ))
+            .map_err(|e| e.to_string())?;
         }
     }
 
     // The rating line over everything.
     let y100 = ctx.backend_coord(&(0.0, 100.0)).1;
-    root.draw(&PathElement::new(vec![(left, y100), (right, y100)], INK.stroke_width(2))).map_err(|e| e.to_string())?;
-    root.draw(&Text::new("100 % rating", (right + 8, y100 - 2), anchored(12, HPos::Left, VPos::Bottom)))
-        .map_err(|e| e.to_string())?;
+    root.draw(&PathElement::new(
+        vec![(left, y100), (right, y100)],
+        INK.stroke_width(2),
+    ))
+    .map_err(|e| e.to_string())?;
+    root.draw(&Text::new(
+        "100 % rating",
+        (right + 8, y100 - 2),
+        anchored(12, HPos::Left, VPos::Bottom),
+    ))
+    .map_err(|e| e.to_string())?;
 
     // Category labels under the axis.
     for (i, label) in chart.valves.iter().enumerate() {
         let (x, y) = ctx.backend_coord(&(i as f64 + 0.5, 0.0));
-        root.draw(&Text::new(label_text(label, 18), (x, y + 8), anchored(13, HPos::Center, VPos::Top))).map_err(|e| e.to_string())?;
+        root.draw(&Text::new(
+            label_text(label, 18),
+            (x, y + 8),
+            anchored(13, HPos::Center, VPos::Top),
+        ))
+        .map_err(|e| e.to_string())?;
     }
 
     // Legend along the top.
@@ -359,7 +452,12 @@ fn draw_dissipation(chart: &DissipationChart, svg: &mut String) -> Result<(), St
     for (k, series) in chart.series.iter().enumerate() {
         legend_swatch_bar(&root, x, 20, k)?;
         let text = label_text(&series.label, 24);
-        root.draw(&Text::new(text.clone(), (x + 30, 20), anchored(13, HPos::Left, VPos::Center))).map_err(|e| e.to_string())?;
+        root.draw(&Text::new(
+            text.clone(),
+            (x + 30, 20),
+            anchored(13, HPos::Left, VPos::Center),
+        ))
+        .map_err(|e| e.to_string())?;
         x += 30 + 8 * text.chars().count() as i32 + 26;
     }
     root.present().map_err(|e| e.to_string())?;
@@ -384,17 +482,40 @@ fn marker(k: usize) -> Marker {
     }
 }
 
-fn draw_marker(area: &DrawingArea<SVGBackend<'_>, Shift>, (x, y): (i32, i32), m: Marker) -> Result<(), String> {
+fn draw_marker(
+    area: &DrawingArea<SVGBackend<'_>, Shift>,
+    (x, y): (i32, i32),
+    m: Marker,
+) -> Result<(), String> {
     let r = 6;
     let result = match m {
-        Marker::HollowCircle => {
-            area.draw(&Circle::new((x, y), r, PAPER.filled())).and_then(|_| area.draw(&Circle::new((x, y), r, INK.stroke_width(2))))
-        }
-        Marker::FilledTriangle => area.draw(&Polygon::new(vec![(x, y - r - 1), (x + r + 1, y + r), (x - r - 1, y + r)], INK.filled())),
+        Marker::HollowCircle => area
+            .draw(&Circle::new((x, y), r, PAPER.filled()))
+            .and_then(|_| area.draw(&Circle::new((x, y), r, INK.stroke_width(2)))),
+        Marker::FilledTriangle => area.draw(&Polygon::new(
+            vec![(x, y - r - 1), (x + r + 1, y + r), (x - r - 1, y + r)],
+            INK.filled(),
+        )),
         Marker::HollowSquare => area
-            .draw(&Rectangle::new([(x - r, y - r), (x + r, y + r)], PAPER.filled()))
-            .and_then(|_| area.draw(&Rectangle::new([(x - r, y - r), (x + r, y + r)], INK.stroke_width(2)))),
-        Marker::FilledDiamond => area.draw(&Polygon::new(vec![(x, y - r - 1), (x + r + 1, y), (x, y + r + 1), (x - r - 1, y)], INK.filled())),
+            .draw(&Rectangle::new(
+                [(x - r, y - r), (x + r, y + r)],
+                PAPER.filled(),
+            ))
+            .and_then(|_| {
+                area.draw(&Rectangle::new(
+                    [(x - r, y - r), (x + r, y + r)],
+                    INK.stroke_width(2),
+                ))
+            }),
+        Marker::FilledDiamond => area.draw(&Polygon::new(
+            vec![
+                (x, y - r - 1),
+                (x + r + 1, y),
+                (x, y + r + 1),
+                (x - r - 1, y),
+            ],
+            INK.filled(),
+        )),
     };
     result.map_err(|e| e.to_string())
 }
@@ -412,7 +533,11 @@ fn draw_supply(chart: &SupplyChart, svg: &mut String) -> Result<(), String> {
     root.fill(&PAPER).map_err(|e| e.to_string())?;
     let n = chart.nodes.len().max(1);
     let sets = chart.series.len().max(1);
-    let mut figures: Vec<f64> = chart.series.iter().flat_map(|s| s.values.iter().flatten().copied()).collect();
+    let mut figures: Vec<f64> = chart
+        .series
+        .iter()
+        .flat_map(|s| s.values.iter().flatten().copied())
+        .collect();
     for node in &chart.nodes {
         if let Some((lo, _, hi)) = node.band {
             figures.push(lo);
@@ -421,7 +546,11 @@ fn draw_supply(chart: &SupplyChart, svg: &mut String) -> Result<(), String> {
     }
     let lo = figures.iter().copied().fold(f64::INFINITY, f64::min);
     let hi = figures.iter().copied().fold(f64::NEG_INFINITY, f64::max);
-    let (lo, hi) = if lo.is_finite() && hi.is_finite() { (lo, hi) } else { (0.0, 100.0) };
+    let (lo, hi) = if lo.is_finite() && hi.is_finite() {
+        (lo, hi)
+    } else {
+        (0.0, 100.0)
+    };
     let step = if hi - lo > 300.0 { 100.0 } else { 50.0 };
     let bottom = (((lo - step * 0.3) / step).floor() * step).max(0.0);
     let top = ((hi + step * 0.3) / step).ceil() * step;
@@ -457,7 +586,11 @@ fn draw_supply(chart: &SupplyChart, svg: &mut String) -> Result<(), String> {
         if let Some((lo, expected, hi)) = node.band {
             let x0 = i as f64 + 0.22;
             let x1 = i as f64 + 0.78;
-            ctx.draw_series(std::iter::once(Rectangle::new([(x0, lo), (x1, hi)], LIGHT.filled()))).map_err(|e| e.to_string())?;
+            ctx.draw_series(std::iter::once(Rectangle::new(
+                [(x0, lo), (x1, hi)],
+                LIGHT.filled(),
+            )))
+            .map_err(|e| e.to_string())?;
             let a = ctx.backend_coord(&(x0, expected));
             let b = ctx.backend_coord(&(x1, expected));
             dashed(&root, a.0, b.0, a.1, INK.stroke_width(1))?;
@@ -465,7 +598,11 @@ fn draw_supply(chart: &SupplyChart, svg: &mut String) -> Result<(), String> {
     }
 
     // One polyline and marker per set, offset sideways so sets sit side by side.
-    let spread = if sets > 1 { 0.36 / (sets - 1) as f64 } else { 0.0 };
+    let spread = if sets > 1 {
+        0.36 / (sets - 1) as f64
+    } else {
+        0.0
+    };
     for (k, series) in chart.series.iter().enumerate() {
         let offset = 0.5 - 0.18 + k as f64 * spread;
         let offset = if sets == 1 { 0.5 } else { offset };
@@ -476,35 +613,61 @@ fn draw_supply(chart: &SupplyChart, svg: &mut String) -> Result<(), String> {
             .filter_map(|(i, v)| v.map(|v| ctx.backend_coord(&(i as f64 + offset, v))))
             .collect();
         if points.len() > 1 {
-            root.draw(&PathElement::new(points.clone(), MID.stroke_width(1))).map_err(|e| e.to_string())?;
+            root.draw(&PathElement::new(points.clone(), MID.stroke_width(1)))
+                .map_err(|e| e.to_string())?;
         }
         for (i, v) in series.values.iter().enumerate() {
             let Some(v) = *v else { continue };
             let p = ctx.backend_coord(&(i as f64 + offset, v));
             draw_marker(&root, p, marker(k))?;
             if sets <= 2 {
-                let (h, dx) = if k == 0 { (HPos::Right, -10) } else { (HPos::Left, 10) };
-                root.draw(&Text::new(format!("{v:.0}"), (p.0 + dx, p.1), anchored(12, h, VPos::Center))).map_err(|e| e.to_string())?;
+                let (h, dx) = if k == 0 {
+                    (HPos::Right, -10)
+                } else {
+                    (HPos::Left, 10)
+                };
+                root.draw(&Text::new(
+                    format!("{v:.0}"),
+                    (p.0 + dx, p.1),
+                    anchored(12, h, VPos::Center),
+                ))
+                .map_err(|e| e.to_string())?;
             }
         }
     }
 
     for (i, node) in chart.nodes.iter().enumerate() {
         let (x, y) = ctx.backend_coord(&(i as f64 + 0.5, bottom));
-        root.draw(&Text::new(label_text(&node.name, 18), (x, y + 8), anchored(13, HPos::Center, VPos::Top))).map_err(|e| e.to_string())?;
+        root.draw(&Text::new(
+            label_text(&node.name, 18),
+            (x, y + 8),
+            anchored(13, HPos::Center, VPos::Top),
+        ))
+        .map_err(|e| e.to_string())?;
     }
 
     // Legend: the band, then each set's marker.
     let mut x = left;
-    root.draw(&Rectangle::new([(x, 13), (x + 22, 27)], LIGHT.filled())).map_err(|e| e.to_string())?;
+    root.draw(&Rectangle::new([(x, 13), (x + 22, 27)], LIGHT.filled()))
+        .map_err(|e| e.to_string())?;
     dashed(&root, x, x + 22, 20, INK.stroke_width(1))?;
     let band_text = "expected ± tolerance";
-    root.draw(&Text::new(band_text, (x + 30, 20), anchored(13, HPos::Left, VPos::Center))).map_err(|e| e.to_string())?;
+    root.draw(&Text::new(
+        band_text,
+        (x + 30, 20),
+        anchored(13, HPos::Left, VPos::Center),
+    ))
+    .map_err(|e| e.to_string())?;
     x += 30 + 8 * band_text.chars().count() as i32 + 26;
     for (k, series) in chart.series.iter().enumerate() {
         draw_marker(&root, (x + 8, 20), marker(k))?;
         let text = label_text(&series.label, 24);
-        root.draw(&Text::new(text.clone(), (x + 22, 20), anchored(13, HPos::Left, VPos::Center))).map_err(|e| e.to_string())?;
+        root.draw(&Text::new(
+            text.clone(),
+            (x + 22, 20),
+            anchored(13, HPos::Left, VPos::Center),
+        ))
+        .map_err(|e| e.to_string())?;
         x += 22 + 8 * text.chars().count() as i32 + 26;
     }
     root.present().map_err(|e| e.to_string())?;
@@ -529,7 +692,9 @@ mod tests {
 
     /// `<rect>` elements filled with `colour` (as `#RRGGBB`).
     fn rects_filled(svg: &str, colour: &str) -> usize {
-        svg.lines().filter(|l| l.contains("<rect") && l.contains(&format!("fill=\"{colour}\""))).count()
+        svg.lines()
+            .filter(|l| l.contains("<rect") && l.contains(&format!("fill=\"{colour}\"")))
+            .count()
     }
 
     fn hex(c: RGBColor) -> String {
@@ -540,8 +705,14 @@ mod tests {
         DissipationChart {
             valves: vec!["V3 EL84".into(), "V4 EL84".into()],
             series: vec![
-                Series { label: "as found".into(), values: vec![Some(121.3), Some(120.6)] },
-                Series { label: "as left".into(), values: vec![Some(88.2), None] },
+                Series {
+                    label: "as found".into(),
+                    values: vec![Some(121.3), Some(120.6)],
+                },
+                Series {
+                    label: "as left".into(),
+                    values: vec![Some(88.2), None],
+                },
             ],
             guide: Guide::Caution { pct: 90.0 },
         }
@@ -551,12 +722,26 @@ mod tests {
     fn dissipation_bars_carry_their_figures() {
         let svg = dissipation_svg(&two_sets()).unwrap();
         let t = texts(&svg);
-        for want in ["121 %", "88 %", "V3 EL84", "V4 EL84", "as found", "as left", "caution 90 %", "100 % rating"] {
+        for want in [
+            "121 %",
+            "88 %",
+            "V3 EL84",
+            "V4 EL84",
+            "as found",
+            "as left",
+            "caution 90 %",
+            "100 % rating",
+        ] {
             assert!(t.iter().any(|x| x == want), "{want} missing from {t:?}");
         }
         // 120.6 rounds to 121 too: two "121 %" labels, and no bar for the missing figure.
         assert_eq!(t.iter().filter(|x| *x == "121 %").count(), 2);
-        assert_eq!(t.iter().filter(|x| x.ends_with(" %") && x.chars().next().unwrap().is_ascii_digit()).count(), 3);
+        assert_eq!(
+            t.iter()
+                .filter(|x| x.ends_with(" %") && x.chars().next().unwrap().is_ascii_digit())
+                .count(),
+            3
+        );
         // Three bars plus one legend swatch per set: as found white (hatched), as left dark.
         assert_eq!(rects_filled(&svg, &hex(DARK)), 1 + 1);
         assert!(t.iter().any(|x| x == "Plate dissipation, % of rating"));
@@ -565,10 +750,16 @@ mod tests {
     #[test]
     fn fixed_bias_draws_the_aim_band() {
         let mut chart = two_sets();
-        chart.guide = Guide::Aim { low_pct: 50.0, high_pct: 70.0 };
+        chart.guide = Guide::Aim {
+            low_pct: 50.0,
+            high_pct: 70.0,
+        };
         let svg = dissipation_svg(&chart).unwrap();
         let t = texts(&svg);
-        assert!(t.iter().any(|x| x == "fixed-bias aim") && t.iter().any(|x| x == "50–70 %"), "{t:?}");
+        assert!(
+            t.iter().any(|x| x == "fixed-bias aim") && t.iter().any(|x| x == "50–70 %"),
+            "{t:?}"
+        );
         assert!(!t.iter().any(|x| x.starts_with("caution")));
         assert_eq!(rects_filled(&svg, &hex(LIGHT)), 1);
     }
@@ -587,18 +778,40 @@ mod tests {
     fn supply_chart_marks_bands_and_readings() {
         let chart = SupplyChart {
             nodes: vec![
-                SupplyNode { name: "B+1".into(), band: Some((314.0, 349.0, 384.0)) },
-                SupplyNode { name: "B+2".into(), band: None },
+                SupplyNode {
+                    name: "B+1".into(),
+                    band: Some((314.0, 349.0, 384.0)),
+                },
+                SupplyNode {
+                    name: "B+2".into(),
+                    band: None,
+                },
             ],
             series: vec![
-                Series { label: "as found".into(), values: vec![Some(345.2), Some(323.0)] },
-                Series { label: "as left".into(), values: vec![Some(353.0), None] },
+                Series {
+                    label: "as found".into(),
+                    values: vec![Some(345.2), Some(323.0)],
+                },
+                Series {
+                    label: "as left".into(),
+                    values: vec![Some(353.0), None],
+                },
             ],
             nominal_volts: 120.0,
         };
         let svg = supply_svg(&chart).unwrap();
         let t = texts(&svg);
-        for want in ["345", "323", "353", "B+1", "B+2", "as found", "as left", "expected ± tolerance", "Volts DC, corrected to 120 V mains"] {
+        for want in [
+            "345",
+            "323",
+            "353",
+            "B+1",
+            "B+2",
+            "as found",
+            "as left",
+            "expected ± tolerance",
+            "Volts DC, corrected to 120 V mains",
+        ] {
             assert!(t.iter().any(|x| x == want), "{want} missing from {t:?}");
         }
         // One band column plus the legend swatch.
@@ -614,7 +827,10 @@ mod tests {
         assert_eq!(label_text("abcdefghij", 5), "abcd…");
         let svg = dissipation_svg(&DissipationChart {
             valves: vec!["<V&3>".into()],
-            series: vec![Series { label: "a \"b\"".into(), values: vec![Some(50.0)] }],
+            series: vec![Series {
+                label: "a \"b\"".into(),
+                values: vec![Some(50.0)],
+            }],
             guide: Guide::None,
         })
         .unwrap();

@@ -10,8 +10,8 @@ use chrono::NaiveDate;
 use serde::Serialize;
 
 use crate::calc::{
-    CapacitorFindings, CurrentMethod, Findings, HeaterFindings, NodeFindings, ResistorFindings, SetFindings, Status,
-    ValveFindings, resistor_power_words,
+    CapacitorFindings, CurrentMethod, Findings, HeaterFindings, NodeFindings, ResistorFindings,
+    SetFindings, Status, ValveFindings, resistor_power_words,
 };
 use crate::job::{Job, MeasurementSet, ProtectionClass};
 use crate::units::{QuantityKind as Q, format_engineering, format_fixed, format_sig};
@@ -34,7 +34,10 @@ pub struct ShopBlock {
 
 impl Default for ShopBlock {
     fn default() -> Self {
-        ShopBlock { name: "ampreport bench report".into(), lines: vec!["Valve amplifier service record".into()] }
+        ShopBlock {
+            name: "ampreport bench report".into(),
+            lines: vec!["Valve amplifier service record".into()],
+        }
     }
 }
 
@@ -435,7 +438,13 @@ fn volts(v: f64) -> String {
 }
 
 fn yes_no(b: Option<bool>) -> Option<String> {
-    b.map(|b| if b { "yes".to_string() } else { "no".to_string() })
+    b.map(|b| {
+        if b {
+            "yes".to_string()
+        } else {
+            "no".to_string()
+        }
+    })
 }
 
 fn status(s: Status) -> String {
@@ -489,7 +498,10 @@ pub fn reflow(text: &str) -> String {
 }
 
 fn looks_like_list_item(line: &str) -> bool {
-    if ["- ", "* ", "• ", "– ", "+ "].iter().any(|m| line.starts_with(m)) {
+    if ["- ", "* ", "• ", "– ", "+ "]
+        .iter()
+        .any(|m| line.starts_with(m))
+    {
         return true;
     }
     let digits = line.chars().take_while(char::is_ascii_digit).count();
@@ -508,8 +520,11 @@ pub fn glue_units(text: &str) -> String {
     let mut out = String::with_capacity(text.len() + 8);
     for (i, &c) in chars.iter().enumerate() {
         if c == ' ' && i > 0 && chars[i - 1].is_ascii_digit() {
-            let rest: String = chars[i + 1..].iter().take_while(|c| !c.is_whitespace()).collect();
-            let word = rest.trim_end_matches(|c: char| matches!(c, '.' | ',' | ';' | ':' | ')' | '('));
+            let rest: String = chars[i + 1..]
+                .iter()
+                .take_while(|c| !c.is_whitespace())
+                .collect();
+            let word = rest.trim_end_matches(['.', ',', ';', ':', ')', '(']);
             if UNIT_WORDS.contains(&word) {
                 out.push('\u{a0}');
                 continue;
@@ -521,9 +536,16 @@ pub fn glue_units(text: &str) -> String {
 }
 
 /// Builds the context for `job` and its findings.
-pub fn build_context(job: &Job, findings: &Findings, inputs: &ContextInputs<'_>) -> HandoverContext {
+pub fn build_context(
+    job: &Job,
+    findings: &Findings,
+    inputs: &ContextInputs<'_>,
+) -> HandoverContext {
     let unit = &job.unit;
-    let title = format!("Hand-over report {}: {} {}", job.info.id, unit.make, unit.model);
+    let title = format!(
+        "Hand-over report {}: {} {}",
+        job.info.id, unit.make, unit.model
+    );
     let m = &findings.mains;
     let mains = MainsInfo {
         nominal: volts(m.nominal_volts),
@@ -535,12 +557,23 @@ pub fn build_context(job: &Job, findings: &Findings, inputs: &ContextInputs<'_>)
     let sets: Vec<SetContext> = findings
         .sets
         .iter()
-        .map(|set| set_context(job, findings, set, job.measurements.iter().find(|s| s.label == set.label)))
+        .map(|set| {
+            set_context(
+                job,
+                findings,
+                set,
+                job.measurements.iter().find(|s| s.label == set.label),
+            )
+        })
         .collect();
     HandoverContext {
         document: DocumentInfo {
             title,
-            author: job.info.technician.clone().unwrap_or_else(|| inputs.shop.name.clone()),
+            author: job
+                .info
+                .technician
+                .clone()
+                .unwrap_or_else(|| inputs.shop.name.clone()),
             paper: "a4".into(),
         },
         shop: inputs.shop.clone(),
@@ -558,7 +591,10 @@ pub fn build_context(job: &Job, findings: &Findings, inputs: &ContextInputs<'_>)
             description: unit.description.as_deref().map(reflow),
             condition: unit.condition.as_deref().map(reflow),
         },
-        customer: job.customer.as_ref().map(|c| CustomerInfo { name: c.name.clone(), contacts: c.contacts.clone() }),
+        customer: job.customer.as_ref().map(|c| CustomerInfo {
+            name: c.name.clone(),
+            contacts: c.contacts.clone(),
+        }),
         mains,
         glance: glance(findings),
         complaint: job.complaint.as_deref().map(reflow),
@@ -610,7 +646,11 @@ pub fn build_context(job: &Job, findings: &Findings, inputs: &ContextInputs<'_>)
             .warnings
             .iter()
             .filter(|w| w.set.is_none())
-            .map(|w| WarningRow { subject: w.subject.clone(), status: status(w.status), message: glue_units(&w.message) })
+            .map(|w| WarningRow {
+                subject: w.subject.clone(),
+                status: status(w.status),
+                message: glue_units(&w.message),
+            })
             .collect(),
         method: method(job, findings),
         footer: Footer {
@@ -625,8 +665,16 @@ pub fn build_context(job: &Job, findings: &Findings, inputs: &ContextInputs<'_>)
 fn glance(findings: &Findings) -> Glance {
     let basis = match findings.sets.last() {
         Some(set) => {
-            let date = set.date.as_deref().and_then(|d| NaiveDate::parse_from_str(d, "%Y-%m-%d").ok()).map(date_words);
-            let mut words = format!("Readings “{}” at {} mains", set.label, volts(set.mains_volts));
+            let date = set
+                .date
+                .as_deref()
+                .and_then(|d| NaiveDate::parse_from_str(d, "%Y-%m-%d").ok())
+                .map(date_words);
+            let mut words = format!(
+                "Readings “{}” at {} mains",
+                set.label,
+                volts(set.mains_volts)
+            );
             if let Some(d) = date {
                 words.push_str(&format!(", {d}"));
             }
@@ -640,16 +688,37 @@ fn glance(findings: &Findings) -> Glance {
         .iter()
         .map(|f| {
             overall = overall.worst(f.status);
-            let state = if f.measured || f.status != Status::Ok { status(f.status) } else { "none".to_string() };
-            GlanceRow { title: f.title.to_string(), status: state, worst: sentence(&f.worst) }
+            let state = if f.measured || f.status != Status::Ok {
+                status(f.status)
+            } else {
+                "none".to_string()
+            };
+            GlanceRow {
+                title: f.title.to_string(),
+                status: state,
+                worst: sentence(&f.worst),
+            }
         })
         .collect();
-    Glance { basis, families, overall: status(overall) }
+    Glance {
+        basis,
+        families,
+        overall: status(overall),
+    }
 }
 
-fn set_context(job: &Job, findings: &Findings, set: &SetFindings, source: Option<&MeasurementSet>) -> SetContext {
+fn set_context(
+    job: &Job,
+    findings: &Findings,
+    set: &SetFindings,
+    source: Option<&MeasurementSet>,
+) -> SetContext {
     let nominal = findings.mains.nominal_volts;
-    let date = set.date.as_deref().and_then(|d| NaiveDate::parse_from_str(d, "%Y-%m-%d").ok()).map(date_words);
+    let date = set
+        .date
+        .as_deref()
+        .and_then(|d| NaiveDate::parse_from_str(d, "%Y-%m-%d").ok())
+        .map(date_words);
     let mut methods: Vec<(CurrentMethod, Vec<String>)> = Vec::new();
     for v in &set.valves {
         if let Some(m) = v.method {
@@ -669,8 +738,16 @@ fn set_context(job: &Job, findings: &Findings, set: &SetFindings, source: Option
         .droppers
         .iter()
         .map(|r| resistor_row(r, "dropper"))
-        .chain(set.cathode_resistors.iter().map(|r| resistor_row(r, "cathode resistor")))
-        .chain(set.screen_resistors.iter().map(|r| resistor_row(r, "screen resistor")))
+        .chain(
+            set.cathode_resistors
+                .iter()
+                .map(|r| resistor_row(r, "cathode resistor")),
+        )
+        .chain(
+            set.screen_resistors
+                .iter()
+                .map(|r| resistor_row(r, "screen resistor")),
+        )
         .collect();
     SetContext {
         label: set.label.clone(),
@@ -680,7 +757,10 @@ fn set_context(job: &Job, findings: &Findings, set: &SetFindings, source: Option
         nominal: volts(nominal),
         nodes: set.nodes.iter().map(node_row).collect(),
         valves: set.valves.iter().map(valve_row).collect(),
-        conservative: set.valves.iter().any(|v| v.plate_current_includes_screen && v.plate_current_ma.is_some()),
+        conservative: set
+            .valves
+            .iter()
+            .any(|v| v.plate_current_includes_screen && v.plate_current_ma.is_some()),
         methods: methods
             .into_iter()
             .map(|(m, positions)| format!("{} ({})", m.words(), positions.join(", ")))
@@ -693,7 +773,11 @@ fn set_context(job: &Job, findings: &Findings, set: &SetFindings, source: Option
             .warnings
             .iter()
             .filter(|w| w.set.as_deref() == Some(set.label.as_str()))
-            .map(|w| WarningRow { subject: w.subject.clone(), status: status(w.status), message: glue_units(&w.message) })
+            .map(|w| WarningRow {
+                subject: w.subject.clone(),
+                status: status(w.status),
+                message: glue_units(&w.message),
+            })
             .collect(),
     }
 }
@@ -713,9 +797,16 @@ fn node_row(n: &NodeFindings) -> NodeRow {
 }
 
 fn valve_row(v: &ValveFindings) -> ValveRow {
-    let worst = v.checks.iter().fold(None, |best: Option<&crate::calc::Check>, c| {
-        if best.is_none_or(|b| c.verdict.status.rank() > b.verdict.status.rank()) { Some(c) } else { best }
-    });
+    let worst = v
+        .checks
+        .iter()
+        .fold(None, |best: Option<&crate::calc::Check>, c| {
+            if best.is_none_or(|b| c.verdict.status.rank() > b.verdict.status.rank()) {
+                Some(c)
+            } else {
+                best
+            }
+        });
     ValveRow {
         position: v.position.clone(),
         type_name: v.valve_type.clone(),
@@ -725,7 +816,11 @@ fn valve_row(v: &ValveFindings) -> ValveRow {
         screen: v.screen_volts.map(sig3),
         cathode: v.cathode_volts.map(sig3),
         grid: v.grid_volts.map(sig3),
-        current_kind: if v.plate_current_includes_screen { "Ik".into() } else { "Ia".into() },
+        current_kind: if v.plate_current_includes_screen {
+            "Ik".into()
+        } else {
+            "Ia".into()
+        },
         current: v.plate_current_ma.map(|i| fixed(i, 1)),
         pa: v.plate_dissipation_w.map(|w| fixed(w, 1)),
         pa_max: v.plate_dissipation_max_w.map(|w| format_sig(w, 3)),
@@ -735,14 +830,22 @@ fn valve_row(v: &ValveFindings) -> ValveRow {
         pg2: v.screen_dissipation_w.map(|w| fixed(w, 1)),
         pg2_pct: v.screen_dissipation_pct.map(pct0),
         status: status(v.status),
-        reason: worst.map(|c| sentence(&c.verdict.reason)).unwrap_or_default(),
+        reason: worst
+            .map(|c| sentence(&c.verdict.reason))
+            .unwrap_or_default(),
     }
 }
 
-fn window_row(v: &ValveFindings, source: Option<&MeasurementSet>, circuit: Option<&crate::job::Circuit>) -> Option<WindowRow> {
+fn window_row(
+    v: &ValveFindings,
+    source: Option<&MeasurementSet>,
+    circuit: Option<&crate::job::Circuit>,
+) -> Option<WindowRow> {
     let w = v.target_window.as_ref()?;
     let reading = source.and_then(|s| s.valves.iter().find(|r| r.position.value == v.position));
-    let range = |a: f64, b: f64, decimals: usize, unit: &str| format!("{}–{} {unit}", fixed(a, decimals), fixed(b, decimals));
+    let range = |a: f64, b: f64, decimals: usize, unit: &str| {
+        format!("{}–{} {unit}", fixed(a, decimals), fixed(b, decimals))
+    };
     let mut readings = Vec::new();
     if let (Some(a), Some(b)) = (w.sense_low_mv, w.sense_high_mv) {
         let resistor = circuit.and_then(|c| c.sense_resistor_for(&v.position));
@@ -756,32 +859,55 @@ fn window_row(v: &ValveFindings, source: Option<&MeasurementSet>, circuit: Optio
             }
             None => "across the sense resistor".to_string(),
         };
-        let now = reading.and_then(|r| r.sense.as_ref()).map(|s| format!("{} mV", fixed(s.value.0 * 1000.0, 1)));
-        readings.push(WindowReading { range: range(a, b, 1, "mV"), across, now });
+        let now = reading
+            .and_then(|r| r.sense.as_ref())
+            .map(|s| format!("{} mV", fixed(s.value.0 * 1000.0, 1)));
+        readings.push(WindowReading {
+            range: range(a, b, 1, "mV"),
+            across,
+            now,
+        });
     }
     if let (Some(a), Some(b)) = (w.primary_drop_low_volts, w.primary_drop_high_volts) {
         let half = circuit.and_then(|c| c.half_primary_for(&v.position));
         let across = match half {
             Some(h) => {
-                let others: Vec<&str> =
-                    h.valves.iter().map(|x| x.value.as_str()).filter(|p| *p != v.position).collect();
+                let others: Vec<&str> = h
+                    .valves
+                    .iter()
+                    .map(|x| x.value.as_str())
+                    .filter(|p| *p != v.position)
+                    .collect();
                 let value = format_engineering(h.resistance.value.0, Q::Resistance);
                 if others.is_empty() {
                     format!("across its half primary ({value})")
                 } else {
-                    format!("across its half primary ({value}, shared with {})", others.join(", "))
+                    format!(
+                        "across its half primary ({value}, shared with {})",
+                        others.join(", ")
+                    )
                 }
             }
             None => "across its half primary".to_string(),
         };
-        let now = reading.and_then(|r| r.primary_drop.as_ref()).map(|d| format!("{} V", fixed(d.value.0, 2)));
-        readings.push(WindowReading { range: range(a, b, 2, "V"), across, now });
+        let now = reading
+            .and_then(|r| r.primary_drop.as_ref())
+            .map(|d| format!("{} V", fixed(d.value.0, 2)));
+        readings.push(WindowReading {
+            range: range(a, b, 2, "V"),
+            across,
+            now,
+        });
     }
     if readings.is_empty()
         && let (Some(a), Some(b)) = (w.probe_low_ma, w.probe_high_ma)
     {
         let now = v.cathode_current_ma.map(|i| format!("{} mA", fixed(i, 1)));
-        readings.push(WindowReading { range: range(a, b, 1, "mA"), across: "cathode current on a bias probe".into(), now });
+        readings.push(WindowReading {
+            range: range(a, b, 1, "mA"),
+            across: "cathode current on a bias probe".into(),
+            now,
+        });
     }
     let place = match v.plate_current_ma {
         _ if w.inside => "inside",
@@ -855,7 +981,12 @@ fn plots(findings: &Findings, inputs: &ContextInputs<'_>) -> Plots {
     let kinds: Vec<&str> = findings
         .sets
         .iter()
-        .flat_map(|set| set.valves.iter().filter(|v| v.is_output).map(|v| v.bias.as_str()))
+        .flat_map(|set| {
+            set.valves
+                .iter()
+                .filter(|v| v.is_output)
+                .map(|v| v.bias.as_str())
+        })
         .collect();
     let guide = if kinds.is_empty() {
         None
@@ -866,12 +997,17 @@ fn plots(findings: &Findings, inputs: &ContextInputs<'_>) -> Plots {
             pct0(s.fixed_bias_high_pct)
         ))
     } else if kinds.iter().all(|k| *k == "cathode") {
-        Some(format!("The dashed line is the cathode-bias caution level of {} % of the rating.", pct0(s.cathode_bias_caution_pct)))
+        Some(format!(
+            "The dashed line is the cathode-bias caution level of {} % of the rating.",
+            pct0(s.cathode_bias_caution_pct)
+        ))
     } else {
         None
     };
     Plots {
-        dissipation: inputs.has_dissipation_plot.then(|| DISSIPATION_PLOT.to_string()),
+        dissipation: inputs
+            .has_dissipation_plot
+            .then(|| DISSIPATION_PLOT.to_string()),
         supply: inputs.has_supply_plot.then(|| SUPPLY_PLOT.to_string()),
         dissipation_guide: guide,
         supply_nominal: volts(findings.mains.nominal_volts),
@@ -893,11 +1029,17 @@ fn safety(job: &Job, findings: &Findings) -> SafetyContext {
                     "earth_continuity" => "Protective-earth continuity".to_string(),
                     "insulation" => "Insulation resistance".to_string(),
                     "leakage" => "Leakage (touch) current".to_string(),
-                    other => sentence(&other.replace('_', " ")).trim_end_matches('.').to_string(),
+                    other => sentence(&other.replace('_', " "))
+                        .trim_end_matches('.')
+                        .to_string(),
                 },
                 measured: glue_units(&t.measured),
                 limit: glue_units(&t.limit),
-                result: if t.passed { "pass".into() } else { "fail".into() },
+                result: if t.passed {
+                    "pass".into()
+                } else {
+                    "fail".into()
+                },
                 status: status(t.verdict.status),
             })
             .collect(),
@@ -931,10 +1073,12 @@ fn method(job: &Job, findings: &Findings) -> Method {
         })
         .collect();
     ratings.sort_by(|a, b| a.name.cmp(&b.name));
-    let shared_half = job
-        .measurements
-        .iter()
-        .any(|set| job.circuit_for(set).half_primaries.iter().any(|h| h.valves.len() > 1));
+    let shared_half = job.measurements.iter().any(|set| {
+        job.circuit_for(set)
+            .half_primaries
+            .iter()
+            .any(|h| h.valves.len() > 1)
+    });
     Method {
         nominal: volts(findings.mains.nominal_volts),
         tolerance: format!("+{} %", format_sig(findings.mains.tolerance_pct, 3)),
@@ -948,12 +1092,19 @@ fn method(job: &Job, findings: &Findings) -> Method {
         heater_tolerance: format!("±{} %", pct0(s.heater_tolerance_pct)),
         node_tolerance: format!("±{} %", pct0(s.node_tolerance_pct)),
         silicon_drop: volts(s.silicon_drop_volts),
-        uses_conservative_rule: valves().any(|v| v.plate_current_includes_screen && v.plate_current_ma.is_some()),
-        uses_shared_cathode: valves().any(|v| v.method == Some(CurrentMethod::SharedCathodeResistor)),
-        uses_shared_half_primary: shared_half && valves().any(|v| v.method == Some(CurrentMethod::TransformerResistance)),
+        uses_conservative_rule: valves()
+            .any(|v| v.plate_current_includes_screen && v.plate_current_ma.is_some()),
+        uses_shared_cathode: valves()
+            .any(|v| v.method == Some(CurrentMethod::SharedCathodeResistor)),
+        uses_shared_half_primary: shared_half
+            && valves().any(|v| v.method == Some(CurrentMethod::TransformerResistance)),
         uses_fixed_bias: valves().any(|v| v.is_output && v.bias == "fixed"),
         uses_cathode_bias: valves().any(|v| v.is_output && v.bias == "cathode"),
-        uses_cold_start: findings.sets.iter().any(|set| set.filter_capacitors.iter().any(|c| c.cold_start_peak_volts.is_some())),
+        uses_cold_start: findings.sets.iter().any(|set| {
+            set.filter_capacitors
+                .iter()
+                .any(|c| c.cold_start_peak_volts.is_some())
+        }),
         ratings,
     }
 }
@@ -969,16 +1120,25 @@ mod tests {
         assert_eq!(signed_pct(-0.01), "0.0 %");
         assert_eq!(sig3(-32.0), "\u{2212}32");
         assert_eq!(fixed(14.56, 1), "14.6");
-        assert_eq!(date_words(NaiveDate::from_ymd_opt(2026, 11, 9).unwrap()), "9 November 2026");
-        assert_eq!(sentence("heater: 6.4 V"), "Heater: 6.4 V.");
+        assert_eq!(
+            date_words(NaiveDate::from_ymd_opt(2026, 11, 9).unwrap()),
+            "9 November 2026"
+        );
+        assert_eq!(sentence("heater: 6.4 V"), "Heater: 6.4\u{a0}V.");
         assert_eq!(sentence(""), "");
-        assert_eq!(glue_units("is 344 V, 115 % of 300 V."), "is 344\u{a0}V, 115\u{a0}% of 300\u{a0}V.");
+        assert_eq!(
+            glue_units("is 344 V, 115 % of 300 V."),
+            "is 344\u{a0}V, 115\u{a0}% of 300\u{a0}V."
+        );
         assert_eq!(glue_units("V3 2 valves"), "V3 2 valves");
     }
 
     #[test]
     fn hand_wrapped_text_flows_and_lists_keep_their_lines() {
-        assert_eq!(reflow("one line\nwrapped here\n\nnew para"), "one line wrapped here\n\nnew para");
+        assert_eq!(
+            reflow("one line\nwrapped here\n\nnew para"),
+            "one line wrapped here\n\nnew para"
+        );
         assert_eq!(reflow("Did:\n- a\n- b\n2. c"), "Did:\n- a\n- b\n2. c");
         assert_eq!(reflow("\n  lead\r\n  trail  \n"), "lead trail");
         assert_eq!(reflow(""), "");

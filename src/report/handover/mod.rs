@@ -16,16 +16,19 @@ use minijinja::Value;
 use sha2::{Digest, Sha256};
 
 pub use context::{
-    CapacitorRow, ContextInputs, CustomerInfo, DISSIPATION_PLOT, DocumentInfo, Footer, Glance, GlanceRow,
-    HandoverContext, HeaterRow, JobInfo, LineUpRow, MainsInfo, Method, ModRow, NodeRow, PartRow, Plots, RatingRow,
-    ResistorRow, SUPPLY_PLOT, SafetyContext, SafetyRow, SetContext, ShopBlock, UnitInfo, ValveRow, WarningRow,
-    WindowReading, WindowRow, build_context, date_words,
+    CapacitorRow, ContextInputs, CustomerInfo, DISSIPATION_PLOT, DocumentInfo, Footer, Glance,
+    GlanceRow, HandoverContext, HeaterRow, JobInfo, LineUpRow, MainsInfo, Method, ModRow, NodeRow,
+    PartRow, Plots, RatingRow, ResistorRow, SUPPLY_PLOT, SafetyContext, SafetyRow, SetContext,
+    ShopBlock, UnitInfo, ValveRow, WarningRow, WindowReading, WindowRow, build_context, date_words,
 };
 
 use super::plots::{self, PlotError};
 use crate::calc::Findings;
 use crate::job::Job;
-use crate::typeset::{CompileOptions, Sandbox, TemplateSource, TypesetError, font_rules, template_environment, typst_markup};
+use crate::typeset::{
+    CompileOptions, Sandbox, TemplateSource, TypesetError, font_rules, template_environment,
+    typst_markup,
+};
 
 /// The template the document is rendered from.
 pub const TEMPLATE_NAME: &str = "handover.typ";
@@ -38,7 +41,10 @@ pub const MAIN_SOURCE: &str = "main.typ";
 pub const IMAGES_DIR: &str = "images";
 
 /// The built-in templates, for [`TemplateSource::embedded`].
-pub static EMBEDDED_TEMPLATES: &[(&str, &str)] = &[(TEMPLATE_NAME, include_str!("../../../templates/handover.typ"))];
+pub static EMBEDDED_TEMPLATES: &[(&str, &str)] = &[(
+    TEMPLATE_NAME,
+    include_str!("../../../templates/handover.typ"),
+)];
 
 /// The creation date stamped into the PDF when the job gives neither a
 /// completion nor a received date: a fixed day, so the bytes still do not
@@ -124,7 +130,10 @@ pub fn compile_command(dir: &Path, options: &CompileOptions, output: &Path) -> S
 
 /// Builds the context and the charts, fills the template and lays out the
 /// sandbox.
-pub fn build(input: &HandoverInput<'_>, templates: &TemplateSource) -> Result<Document, HandoverError> {
+pub fn build(
+    input: &HandoverInput<'_>,
+    templates: &TemplateSource,
+) -> Result<Document, HandoverError> {
     let mut sandbox = Sandbox::new();
     let dissipation = plots::dissipation_chart(input.findings);
     let supply = plots::supply_chart(input.findings);
@@ -149,13 +158,24 @@ pub fn build(input: &HandoverInput<'_>, templates: &TemplateSource) -> Result<Do
     if let Some(dir) = &templates.override_dir {
         add_shop_images(&mut sandbox, &dir.join(IMAGES_DIR))?;
     }
-    Ok(Document { sandbox, main: MAIN_SOURCE, options: CompileOptions::new(creation_date(input.job)), context })
+    Ok(Document {
+        sandbox,
+        main: MAIN_SOURCE,
+        options: CompileOptions::new(creation_date(input.job)),
+        context,
+    })
 }
 
 /// Fills [`TEMPLATE_NAME`] with `context`. The template also gets
 /// `font_rules`, the set rules selecting the bundled fonts.
-pub fn render_template(context: &HandoverContext, templates: &TemplateSource) -> Result<String, HandoverError> {
-    let from_override = templates.override_dir.as_ref().is_some_and(|d| d.join(TEMPLATE_NAME).is_file());
+pub fn render_template(
+    context: &HandoverContext,
+    templates: &TemplateSource,
+) -> Result<String, HandoverError> {
+    let from_override = templates
+        .override_dir
+        .as_ref()
+        .is_some_and(|d| d.join(TEMPLATE_NAME).is_file());
     let env = template_environment(templates.clone());
     let fail = |e: minijinja::Error| HandoverError::Template {
         name: TEMPLATE_NAME.to_string(),
@@ -192,11 +212,19 @@ fn add_shop_images(sandbox: &mut Sandbox, dir: &Path) -> Result<(), HandoverErro
     let entries = match std::fs::read_dir(dir) {
         Ok(entries) => entries,
         Err(e) if e.kind() == std::io::ErrorKind::NotFound => return Ok(()),
-        Err(source) => return Err(HandoverError::Image { path: dir.display().to_string(), source }),
+        Err(source) => {
+            return Err(HandoverError::Image {
+                path: dir.display().to_string(),
+                source,
+            });
+        }
     };
     let mut files: Vec<(String, std::path::PathBuf)> = Vec::new();
     for entry in entries {
-        let entry = entry.map_err(|source| HandoverError::Image { path: dir.display().to_string(), source })?;
+        let entry = entry.map_err(|source| HandoverError::Image {
+            path: dir.display().to_string(),
+            source,
+        })?;
         let path = entry.path();
         if path.is_file()
             && let Some(name) = path.file_name().and_then(|n| n.to_str())
@@ -206,11 +234,16 @@ fn add_shop_images(sandbox: &mut Sandbox, dir: &Path) -> Result<(), HandoverErro
     }
     files.sort();
     for (name, path) in files {
-        let bytes = std::fs::read(&path).map_err(|source| HandoverError::Image { path: path.display().to_string(), source })?;
-        sandbox.insert(format!("{IMAGES_DIR}/{name}"), bytes).map_err(|e| HandoverError::Image {
+        let bytes = std::fs::read(&path).map_err(|source| HandoverError::Image {
             path: path.display().to_string(),
-            source: std::io::Error::other(e.to_string()),
+            source,
         })?;
+        sandbox
+            .insert(format!("{IMAGES_DIR}/{name}"), bytes)
+            .map_err(|e| HandoverError::Image {
+                path: path.display().to_string(),
+                source: std::io::Error::other(e.to_string()),
+            })?;
     }
     Ok(())
 }
@@ -228,12 +261,13 @@ mod tests {
 
     #[test]
     fn command_names_every_flag() {
+        // 2026-11-09 00:00 UTC is 1794182400 s after the Unix epoch (`date -u -d 2026-11-09 +%s`).
         let opts = CompileOptions::new(NaiveDate::from_ymd_opt(2026, 11, 9).unwrap());
         let cmd = compile_command(Path::new("/tmp/src"), &opts, Path::new("out.pdf"));
         assert_eq!(
             cmd,
             "typst compile --root /tmp/src --font-path /tmp/src/fonts --ignore-system-fonts --ignore-embedded-fonts \
-             --creation-timestamp 1793836800 --pdf-standard a-2b /tmp/src/main.typ out.pdf"
+             --creation-timestamp 1794182400 --pdf-standard a-2b /tmp/src/main.typ out.pdf"
         );
     }
 }
