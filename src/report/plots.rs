@@ -598,6 +598,7 @@ fn draw_supply(chart: &SupplyChart, svg: &mut String) -> Result<(), String> {
     }
 
     // One polyline and marker per set, offset sideways so sets sit side by side.
+    let mut labels: Vec<((i32, i32), bool, String)> = Vec::new();
     let spread = if sets > 1 {
         0.36 / (sets - 1) as f64
     } else {
@@ -621,19 +622,24 @@ fn draw_supply(chart: &SupplyChart, svg: &mut String) -> Result<(), String> {
             let p = ctx.backend_coord(&(i as f64 + offset, v));
             draw_marker(&root, p, marker(k))?;
             if sets <= 2 {
-                let (h, dx) = if k == 0 {
-                    (HPos::Right, -10)
-                } else {
-                    (HPos::Left, 10)
-                };
-                root.draw(&Text::new(
-                    format!("{v:.0}"),
-                    (p.0 + dx, p.1),
-                    anchored(12, h, VPos::Center),
-                ))
-                .map_err(|e| e.to_string())?;
+                labels.push((p, k == 0, format!("{v:.0}")));
             }
         }
+    }
+    // Figures last, each on a white patch so lines and bands stay clear
+    // of them: the first set's to the left of its marker, the second's to
+    // the right.
+    for ((x, y), left, text) in labels {
+        let width = 7 * text.chars().count() as i32 + 4;
+        let (x0, x1, h, tx) = if left {
+            (x - 11 - width, x - 9, HPos::Right, x - 11)
+        } else {
+            (x + 9, x + 11 + width, HPos::Left, x + 11)
+        };
+        root.draw(&Rectangle::new([(x0, y - 8), (x1, y + 8)], PAPER.filled()))
+            .map_err(|e| e.to_string())?;
+        root.draw(&Text::new(text, (tx, y), anchored(12, h, VPos::Center)))
+            .map_err(|e| e.to_string())?;
     }
 
     for (i, node) in chart.nodes.iter().enumerate() {
