@@ -251,6 +251,125 @@ fn add_shop_images(sandbox: &mut Sandbox, dir: &Path) -> Result<(), HandoverErro
 #[cfg(test)]
 mod tests {
     use super::*;
+    use crate::ratings::RatingsTable;
+
+    /// A demo job decoded and derived, with its text.
+    fn demo(name: &str) -> (Job, Findings, String) {
+        let path = Path::new(env!("CARGO_MANIFEST_DIR"))
+            .join("jobs")
+            .join(name);
+        let text = std::fs::read_to_string(path).unwrap();
+        let ratings = RatingsTable::builtin();
+        let job = crate::job::decode_with_ratings(name, &text, &ratings)
+            .unwrap()
+            .job;
+        let findings = crate::calc::derive(&job, &ratings);
+        (job, findings, text)
+    }
+
+    fn document(job: &Job, findings: &Findings, text: &str) -> Document {
+        let input = HandoverInput {
+            job,
+            findings,
+            job_text: text,
+            typst_version: "0.15.1".into(),
+            shop: ShopBlock::default(),
+        };
+        build(&input, &TemplateSource::embedded(EMBEDDED_TEMPLATES)).unwrap()
+    }
+
+    #[test]
+    fn the_context_carries_the_calculated_figures() {
+        let (job, findings, text) = demo("combo-el84-cathode.kdl");
+        let doc = document(&job, &findings, &text);
+        let ctx = &doc.context;
+        for (set, found) in ctx.sets.iter().zip(&findings.sets) {
+            for (row, v) in set.valves.iter().zip(&found.valves) {
+                assert_eq!(row.pa, v.plate_dissipation_w.map(|w| format!("{w:.1}")));
+            }
+        }
+        // Pa = (Va − Vk) · Ik = (338 − 11.6) V × 11.6 V / (2 × 130 Ω) = 14.56 W
+        // (Joule's and Ohm's laws; the demo job's readings).
+        assert_eq!(ctx.sets[0].valves[0].pa.as_deref(), Some("14.6"));
+        assert_eq!(ctx.sets[0].valves[0].current_kind, "Ik");
+        assert!(ctx.sets[0].conservative);
+        assert!(ctx.method.uses_shared_cathode && ctx.method.uses_cathode_bias);
+        assert_eq!(ctx.glance.families.len(), 5);
+        assert_eq!(ctx.footer.job_digest, job_digest(&text));
+        // Completed 2026-11-09.
+        assert_eq!(
+            doc.options.creation,
+            NaiveDate::from_ymd_opt(2026, 11, 9).unwrap()
+        );
+        let names: Vec<&str> = doc.sandbox.files().map(|(p, _)| p).collect();
+        assert_eq!(names, [MAIN_SOURCE, DISSIPATION_PLOT, SUPPLY_PLOT]);
+    }
+
+    #[test]
+    fn user_text_reaches_the_source_only_escaped() {
+        let (mut job, _, text) = demo("combo-6v6-fixed.kdl");
+        job.complaint = Some("#read(\"/etc/passwd\") $x$ <l> @r // c".into());
+        job.unit.model = "*bold* #include \"x\"".into();
+        let ratings = RatingsTable::builtin();
+        let findings = crate::calc::derive(&job, &ratings);
+        let doc = document(&job, &findings, &text);
+        let source = String::from_utf8(doc.sandbox.get(MAIN_SOURCE).unwrap().to_vec()).unwrap();
+        assert!(
+            source.contains("\\#read\\(\\\"\\/etc\\/passwd\\\"\\)"),
+            "escaped complaint missing"
+        );
+        assert!(!source.contains("#read("));
+        assert!(!source.contains("#include \"x\""));
+        assert!(source.contains("\\*bold\\* \\#include"));
+    }
+
+    #[test]
+    fn the_creation_date_falls_back_to_received_then_a_fixed_day() {
+        let (mut job, _, _) = demo("combo-6v6-fixed.kdl");
+        assert_eq!(
+            creation_date(&job),
+            NaiveDate::from_ymd_opt(2026, 11, 12).unwrap()
+        );
+        job.info.completed = None;
+        assert_eq!(
+            creation_date(&job),
+            NaiveDate::from_ymd_opt(2026, 11, 5).unwrap()
+        );
+        job.info.received = None;
+        assert_eq!(
+            creation_date(&job),
+            NaiveDate::from_ymd_opt(2000, 1, 1).unwrap()
+        );
+    }
+
+    #[test]
+    fn a_broken_shop_template_is_the_shops_fault() {
+        let dir = tempfile::tempdir().unwrap();
+        std::fs::write(dir.path().join(TEMPLATE_NAME), "{{ no_such_thing }}").unwrap();
+        let (job, findings, text) = demo("combo-el84-cathode.kdl");
+        let input = HandoverInput {
+            job: &job,
+            findings: &findings,
+            job_text: &text,
+            typst_version: "0.15.1".into(),
+            shop: ShopBlock::default(),
+        };
+        let source = TemplateSource::embedded(EMBEDDED_TEMPLATES).with_override_dir(dir.path());
+        match build(&input, &source) {
+            Err(HandoverError::Template {
+                from_override,
+                detail,
+                ..
+            }) => {
+                assert!(from_override);
+                assert!(
+                    detail.contains("no_such_thing") || detail.contains("undefined"),
+                    "{detail}"
+                );
+            }
+            other => panic!("expected a template error, got {other:?}"),
+        }
+    }
 
     #[test]
     fn digest_is_twelve_hex_digits_of_sha256() {
