@@ -5,4 +5,4 @@ set -euo pipefail
 cd "$(dirname "$0")/.."
 export PATH="$HOME/.cargo/bin:$PATH"
 bash scripts/need-typst.sh
-cargo run --release --quiet -- check jobs/combo-el84-cathode.kdl
+cargo run --release --quiet -- render jobs/combo-el84-cathode.kdl -o combo-el84-cathode.pdf

@@ -1,7 +1,9 @@
 //! Presenting findings: one module per output kind. Reports decide nothing:
 //! every status comes from [`crate::calc`].
 
+pub mod handover;
 pub mod json;
+pub mod plots;
 mod table;
 pub mod terminal;
 

@@ -1,0 +1,1147 @@
+//! The template context of the hand-over document: every figure the page
+//! shows, already formatted as text (units, decimals, signs), taken from the
+//! job and its [`Findings`]. Templates only lay it out; they decide nothing
+//! and compute nothing, so a shop's own template cannot get a figure wrong.
+//!
+//! All strings here are plain text. They reach the Typst source only through
+//! the escaping template environment.
+
+use chrono::NaiveDate;
+use serde::Serialize;
+
+use crate::calc::{
+    CapacitorFindings, CurrentMethod, Findings, HeaterFindings, NodeFindings, ResistorFindings,
+    SetFindings, Status, ValveFindings, resistor_power_words,
+};
+use crate::job::{Job, MeasurementSet, ProtectionClass};
+use crate::units::{QuantityKind as Q, format_engineering, format_fixed, format_sig};
+
+/// The footer shows at most this much of the job id (the header has it all).
+pub const FOOTER_ID_CHARS: usize = 40;
+
+/// Paths of the charts inside the typesetting folder.
+pub const DISSIPATION_PLOT: &str = "plots/plate-dissipation.svg";
+pub const SUPPLY_PLOT: &str = "plots/supply-chain.svg";
+
+/// The shop block at the head of page 1. Until shops can keep a profile,
+/// every document carries the same neutral block.
+#[derive(Debug, Clone, Serialize)]
+pub struct ShopBlock {
+    pub name: String,
+    /// Address and contact lines.
+    pub lines: Vec<String>,
+}
+
+impl Default for ShopBlock {
+    fn default() -> Self {
+        ShopBlock {
+            name: "ampreport bench report".into(),
+            lines: vec!["Valve amplifier service record".into()],
+        }
+    }
+}
+
+/// Everything a hand-over template is given (besides `font_rules`).
+#[derive(Debug, Clone, Serialize)]
+pub struct HandoverContext {
+    pub document: DocumentInfo,
+    pub shop: ShopBlock,
+    pub job: JobInfo,
+    pub unit: UnitInfo,
+    pub customer: Option<CustomerInfo>,
+    pub mains: MainsInfo,
+    pub glance: Glance,
+    pub complaint: Option<String>,
+    pub findings: Option<String>,
+    pub work: Option<String>,
+    pub valves: Vec<LineUpRow>,
+    pub parts: Vec<PartRow>,
+    pub mods: Vec<ModRow>,
+    pub notes: Vec<String>,
+    pub sets: Vec<SetContext>,
+    pub plots: Plots,
+    pub safety: SafetyContext,
+    /// Warnings that belong to no measurement set.
+    pub job_warnings: Vec<WarningRow>,
+    pub method: Method,
+    pub footer: Footer,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct DocumentInfo {
+    pub title: String,
+    pub author: String,
+    /// Typst paper name.
+    pub paper: String,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct JobInfo {
+    pub id: String,
+    /// Dates in words, e.g. "9 November 2026".
+    pub received: Option<String>,
+    pub completed: Option<String>,
+    pub technician: Option<String>,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct UnitInfo {
+    pub make: String,
+    pub model: String,
+    pub serial: Option<String>,
+    pub year: Option<String>,
+    pub description: Option<String>,
+    pub condition: Option<String>,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct CustomerInfo {
+    pub name: String,
+    pub contacts: Vec<String>,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct MainsInfo {
+    /// "120 V".
+    pub nominal: String,
+    pub frequency: Option<String>,
+    /// "+5 %".
+    pub tolerance: String,
+    pub high_line: String,
+    /// The mains the factory chart was drawn at, when the job gives it.
+    pub design: Option<String>,
+}
+
+/// The at-a-glance panel.
+#[derive(Debug, Clone, Serialize)]
+pub struct Glance {
+    /// Which readings the panel speaks for, in words.
+    pub basis: String,
+    pub families: Vec<GlanceRow>,
+    /// The worst status over all families.
+    pub overall: String,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct GlanceRow {
+    pub title: String,
+    /// ok, cold, caution, over, or none when nothing was measured.
+    pub status: String,
+    /// The worst figure in words.
+    pub worst: String,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct LineUpRow {
+    pub position: String,
+    pub type_name: String,
+    pub role: String,
+    /// The ratings row the type resolved to, when it differs or is known.
+    pub rated_as: Option<String>,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct PartRow {
+    pub reference: String,
+    pub was: Option<String>,
+    pub now: Option<String>,
+    pub reason: Option<String>,
+    /// "yes", "no" or none when the job does not say.
+    pub original_kept: Option<String>,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct ModRow {
+    pub what: String,
+    pub why: Option<String>,
+    pub reversible: Option<String>,
+    pub original_kept: Option<String>,
+}
+
+/// One measurement set, formatted.
+#[derive(Debug, Clone, Serialize)]
+pub struct SetContext {
+    pub label: String,
+    pub date: Option<String>,
+    /// "124 V".
+    pub mains: String,
+    /// "0.968".
+    pub factor: String,
+    pub nominal: String,
+    pub nodes: Vec<NodeRow>,
+    pub valves: Vec<ValveRow>,
+    /// True when some valve's plate current includes its screen current.
+    pub conservative: bool,
+    /// How the idle currents were found, one line per method.
+    pub methods: Vec<String>,
+    pub windows: Vec<WindowRow>,
+    pub resistors: Vec<ResistorRow>,
+    pub capacitors: Vec<CapacitorRow>,
+    pub heaters: Vec<HeaterRow>,
+    pub warnings: Vec<WarningRow>,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct NodeRow {
+    pub name: String,
+    pub label: Option<String>,
+    pub measured: String,
+    pub corrected: String,
+    pub expected: Option<String>,
+    /// "−1.3 %".
+    pub deviation: Option<String>,
+    /// "±10 %".
+    pub tolerance: String,
+    pub status: String,
+    pub reason: String,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct ValveRow {
+    pub position: String,
+    pub type_name: String,
+    pub role: String,
+    pub bias: String,
+    pub plate: Option<String>,
+    pub screen: Option<String>,
+    pub cathode: Option<String>,
+    pub grid: Option<String>,
+    /// "Ik" when the plate current is taken as the cathode current
+    /// (includes the screen current), "Ia" otherwise.
+    pub current_kind: String,
+    /// The current used for the plate dissipation, mA to 0.1.
+    pub current: Option<String>,
+    /// Plate dissipation, W to 0.1.
+    pub pa: Option<String>,
+    pub pa_max: Option<String>,
+    pub pa_pct: Option<String>,
+    /// % of the rating after correcting to nominal mains.
+    pub pa_nominal_pct: Option<String>,
+    pub pa_high_line_pct: Option<String>,
+    /// Screen dissipation, W to 0.1.
+    pub pg2: Option<String>,
+    pub pg2_pct: Option<String>,
+    pub status: String,
+    /// The worst check's reason.
+    pub reason: String,
+}
+
+/// The fixed-bias target window of one valve, as the technician adjusts it.
+#[derive(Debug, Clone, Serialize)]
+pub struct WindowRow {
+    pub position: String,
+    /// "50–70 %".
+    pub aim: String,
+    /// Plate current aim, "19.1–26.8 mA".
+    pub plate_current: String,
+    /// Plate current now.
+    pub plate_current_now: Option<String>,
+    /// What to read and where, with today's reading.
+    pub readings: Vec<WindowReading>,
+    /// "inside", "above" or "below".
+    pub place: String,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct WindowReading {
+    /// "21.7–29.3 mV".
+    pub range: String,
+    /// "across the 1 Ω sense resistor R40".
+    pub across: String,
+    /// Today's reading, when the job has it.
+    pub now: Option<String>,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct ResistorRow {
+    pub reference: String,
+    /// dropper, cathode resistor or screen resistor.
+    pub kind: String,
+    pub place: String,
+    pub resistance: String,
+    pub rating: Option<String>,
+    pub voltage: String,
+    pub power: String,
+    pub power_pct: Option<String>,
+    pub high_line_power: String,
+    pub high_line_pct: Option<String>,
+    pub status: String,
+    pub reason: String,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct CapacitorRow {
+    pub reference: String,
+    pub node: String,
+    pub capacitance: Option<String>,
+    pub rating: String,
+    pub measured: Option<String>,
+    pub high_line: Option<String>,
+    pub cold_start: Option<String>,
+    pub highest: String,
+    /// Headroom left on the rating, "15.8 %".
+    pub margin: String,
+    pub status: String,
+    pub reason: String,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct HeaterRow {
+    pub label: Option<String>,
+    pub measured: String,
+    pub nominal: String,
+    pub deviation: String,
+    pub corrected: String,
+    pub corrected_deviation: String,
+    pub status: String,
+    pub reason: String,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct WarningRow {
+    pub subject: String,
+    pub status: String,
+    pub message: String,
+}
+
+/// Paths of the charts in the typesetting folder, when there is something
+/// to draw.
+#[derive(Debug, Clone, Default, Serialize)]
+pub struct Plots {
+    pub dissipation: Option<String>,
+    pub supply: Option<String>,
+    /// The guide drawn on the dissipation chart, in words.
+    pub dissipation_guide: Option<String>,
+    /// The nominal mains the supply chart is corrected to.
+    pub supply_nominal: String,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct SafetyContext {
+    /// Whether the job records a safety block at all.
+    pub recorded: bool,
+    /// "Class I (protectively earthed)".
+    pub class: Option<String>,
+    pub tests: Vec<SafetyRow>,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct SafetyRow {
+    pub test: String,
+    pub measured: String,
+    pub limit: String,
+    /// "pass" or "fail".
+    pub result: String,
+    pub status: String,
+}
+
+/// What the method appendix needs beyond its fixed text.
+#[derive(Debug, Clone, Serialize)]
+pub struct Method {
+    pub nominal: String,
+    pub tolerance: String,
+    pub high_line: String,
+    pub design: Option<String>,
+    pub fixed_bias_low: String,
+    pub fixed_bias_high: String,
+    pub cathode_bias_caution: String,
+    pub resistor_derating: String,
+    pub capacitor_margin: String,
+    pub heater_tolerance: String,
+    pub node_tolerance: String,
+    pub silicon_drop: String,
+    /// Which assumptions this job's figures lean on.
+    pub uses_conservative_rule: bool,
+    pub uses_shared_cathode: bool,
+    pub uses_shared_half_primary: bool,
+    pub uses_fixed_bias: bool,
+    pub uses_cathode_bias: bool,
+    pub uses_cold_start: bool,
+    pub ratings: Vec<RatingRow>,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct RatingRow {
+    pub name: String,
+    pub equivalents: Vec<String>,
+    pub class: String,
+    pub positions: Vec<String>,
+    /// "Pa 12 W, Pg2 2 W" where the document used them.
+    pub limits: Option<String>,
+    pub source: String,
+    /// "built in" or the shop file.
+    pub origin: String,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct Footer {
+    /// The job id on one line, cut to [`FOOTER_ID_CHARS`].
+    pub job_id: String,
+    pub tool_version: String,
+    pub typst_version: String,
+    /// The first 12 hex digits of the job file's SHA-256.
+    pub job_digest: String,
+}
+
+/// Inputs of [`build_context`] that do not come from the job.
+#[derive(Debug, Clone)]
+pub struct ContextInputs<'a> {
+    pub shop: ShopBlock,
+    pub tool_version: &'a str,
+    pub typst_version: &'a str,
+    pub job_digest: &'a str,
+    pub has_dissipation_plot: bool,
+    pub has_supply_plot: bool,
+}
+
+/// A date in words: "9 November 2026".
+pub fn date_words(d: NaiveDate) -> String {
+    d.format("%-d %B %Y").to_string()
+}
+
+/// A number with a typographic minus sign.
+fn minus(s: String) -> String {
+    match s.strip_prefix('-') {
+        Some(rest) => format!("\u{2212}{rest}"),
+        None => s,
+    }
+}
+
+/// Three significant figures, no unit: volts in tables.
+fn sig3(v: f64) -> String {
+    minus(format_sig(v, 3))
+}
+
+fn fixed(v: f64, decimals: usize) -> String {
+    minus(format_fixed(v, decimals))
+}
+
+/// A whole-number percentage without the sign: "121".
+fn pct0(v: f64) -> String {
+    fixed(v, 0)
+}
+
+/// A signed percentage to 0.1: "+1.2 %", "−2.9 %".
+fn signed_pct(v: f64) -> String {
+    let s = format_fixed(v.abs(), 1);
+    if s.chars().all(|c| c == '0' || c == '.') {
+        format!("{s} %")
+    } else if v < 0.0 {
+        format!("\u{2212}{s} %")
+    } else {
+        format!("+{s} %")
+    }
+}
+
+fn volts(v: f64) -> String {
+    minus(format_engineering(v, Q::Voltage))
+}
+
+fn yes_no(b: Option<bool>) -> Option<String> {
+    b.map(|b| {
+        if b {
+            "yes".to_string()
+        } else {
+            "no".to_string()
+        }
+    })
+}
+
+fn status(s: Status) -> String {
+    s.word().to_string()
+}
+
+/// Capital first letter, full stop at the end.
+fn sentence(s: &str) -> String {
+    let s = glue_units(s);
+    let mut c = s.chars();
+    let mut out = match c.next() {
+        Some(f) => f.to_uppercase().collect::<String>() + c.as_str(),
+        None => String::new(),
+    };
+    if !out.is_empty() && !out.ends_with('.') {
+        out.push('.');
+    }
+    out
+}
+
+/// Joins the lines of hand-wrapped text. Technicians wrap long fields by
+/// hand in the job file; on the page a single line break inside a paragraph
+/// becomes a space, an empty line still separates paragraphs, and a line
+/// that starts like a list item (`- `, `* `, `• `, `1. `, `2) `) keeps its
+/// break. Only whitespace changes.
+pub fn reflow(text: &str) -> String {
+    let text = text.replace("\r\n", "\n").replace('\r', "\n");
+    let mut out = String::with_capacity(text.len());
+    let mut blank_run = false;
+    for line in text.split('\n') {
+        let trimmed = line.trim();
+        if trimmed.is_empty() {
+            blank_run = !out.is_empty();
+            continue;
+        }
+        if out.is_empty() {
+            out.push_str(trimmed);
+        } else if blank_run {
+            out.push_str("\n\n");
+            out.push_str(trimmed);
+        } else if looks_like_list_item(trimmed) {
+            out.push('\n');
+            out.push_str(trimmed);
+        } else {
+            out.push(' ');
+            out.push_str(trimmed);
+        }
+        blank_run = false;
+    }
+    out
+}
+
+fn looks_like_list_item(line: &str) -> bool {
+    if ["- ", "* ", "• ", "– ", "+ "]
+        .iter()
+        .any(|m| line.starts_with(m))
+    {
+        return true;
+    }
+    let digits = line.chars().take_while(char::is_ascii_digit).count();
+    digits > 0 && (line[digits..].starts_with(". ") || line[digits..].starts_with(") "))
+}
+
+/// Unit symbols that should stay on the line of their number.
+const UNIT_WORDS: &[&str] = &[
+    "V", "mV", "kV", "W", "mW", "A", "mA", "µA", "Ω", "mΩ", "kΩ", "MΩ", "µF", "nF", "pF", "Hz", "%",
+];
+
+/// Puts a no-break space between a number and its unit in a sentence the
+/// program wrote ("349 V"), so a line never breaks between them.
+pub fn glue_units(text: &str) -> String {
+    let chars: Vec<char> = text.chars().collect();
+    let mut out = String::with_capacity(text.len() + 8);
+    for (i, &c) in chars.iter().enumerate() {
+        if c == ' ' && i > 0 && chars[i - 1].is_ascii_digit() {
+            let rest: String = chars[i + 1..]
+                .iter()
+                .take_while(|c| !c.is_whitespace())
+                .collect();
+            let word = rest.trim_end_matches(['.', ',', ';', ':', ')', '(']);
+            if UNIT_WORDS.contains(&word) {
+                out.push('\u{a0}');
+                continue;
+            }
+        }
+        out.push(c);
+    }
+    out
+}
+
+/// Builds the context for `job` and its findings.
+pub fn build_context(
+    job: &Job,
+    findings: &Findings,
+    inputs: &ContextInputs<'_>,
+) -> HandoverContext {
+    let unit = &job.unit;
+    let title = format!(
+        "Hand-over report {}: {} {}",
+        job.info.id, unit.make, unit.model
+    );
+    let m = &findings.mains;
+    let mains = MainsInfo {
+        nominal: volts(m.nominal_volts),
+        frequency: m.frequency_hz.map(|f| format!("{} Hz", format_sig(f, 3))),
+        tolerance: format!("+{} %", format_sig(m.tolerance_pct, 3)),
+        high_line: volts(m.high_line_volts),
+        design: m.design_volts.map(volts),
+    };
+    let sets: Vec<SetContext> = findings
+        .sets
+        .iter()
+        .map(|set| {
+            set_context(
+                job,
+                findings,
+                set,
+                job.measurements.iter().find(|s| s.label == set.label),
+            )
+        })
+        .collect();
+    HandoverContext {
+        document: DocumentInfo {
+            title,
+            author: job
+                .info
+                .technician
+                .clone()
+                .unwrap_or_else(|| inputs.shop.name.clone()),
+            paper: "a4".into(),
+        },
+        shop: inputs.shop.clone(),
+        job: JobInfo {
+            id: job.info.id.clone(),
+            received: job.info.received.map(date_words),
+            completed: job.info.completed.map(date_words),
+            technician: job.info.technician.clone(),
+        },
+        unit: UnitInfo {
+            make: unit.make.clone(),
+            model: unit.model.clone(),
+            serial: unit.serial.clone(),
+            year: unit.year.map(|y| y.to_string()),
+            description: unit.description.as_deref().map(reflow),
+            condition: unit.condition.as_deref().map(reflow),
+        },
+        customer: job.customer.as_ref().map(|c| CustomerInfo {
+            name: c.name.clone(),
+            contacts: c.contacts.clone(),
+        }),
+        mains,
+        glance: glance(findings),
+        complaint: job.complaint.as_deref().map(reflow),
+        findings: job.findings.as_deref().map(reflow),
+        work: job.work.as_deref().map(reflow),
+        valves: job
+            .valves
+            .iter()
+            .map(|v| {
+                let rated_as = findings
+                    .ratings_used
+                    .iter()
+                    .find(|r| r.positions.contains(&v.position.value))
+                    .map(|r| r.name.clone());
+                LineUpRow {
+                    position: v.position.value.clone(),
+                    type_name: v.type_name.value.clone(),
+                    role: v.role.words().to_string(),
+                    rated_as,
+                }
+            })
+            .collect(),
+        parts: job
+            .parts
+            .iter()
+            .map(|p| PartRow {
+                reference: p.reference.clone(),
+                was: p.was.clone(),
+                now: p.now.clone(),
+                reason: p.reason.as_deref().map(reflow),
+                original_kept: yes_no(p.original_kept),
+            })
+            .collect(),
+        mods: job
+            .mods
+            .iter()
+            .map(|m| ModRow {
+                what: reflow(&m.what),
+                why: m.why.as_deref().map(reflow),
+                reversible: yes_no(m.reversible),
+                original_kept: yes_no(m.original_kept),
+            })
+            .collect(),
+        notes: job.notes.iter().map(|n| reflow(n)).collect(),
+        sets,
+        plots: plots(findings, inputs),
+        safety: safety(job, findings),
+        job_warnings: findings
+            .warnings
+            .iter()
+            .filter(|w| w.set.is_none())
+            .map(|w| WarningRow {
+                subject: w.subject.clone(),
+                status: status(w.status),
+                message: glue_units(&w.message),
+            })
+            .collect(),
+        method: method(job, findings),
+        footer: Footer {
+            job_id: crate::report::plots::label_text(&job.info.id, FOOTER_ID_CHARS),
+            tool_version: inputs.tool_version.to_string(),
+            typst_version: inputs.typst_version.to_string(),
+            job_digest: inputs.job_digest.to_string(),
+        },
+    }
+}
+
+fn glance(findings: &Findings) -> Glance {
+    let basis = match findings.sets.last() {
+        Some(set) => {
+            let date = set
+                .date
+                .as_deref()
+                .and_then(|d| NaiveDate::parse_from_str(d, "%Y-%m-%d").ok())
+                .map(date_words);
+            let mut words = format!(
+                "Readings “{}” at {} mains",
+                set.label,
+                volts(set.mains_volts)
+            );
+            if let Some(d) = date {
+                words.push_str(&format!(", {d}"));
+            }
+            words
+        }
+        None => "No measurements recorded".to_string(),
+    };
+    let mut overall = Status::Ok;
+    let families = findings
+        .at_a_glance
+        .iter()
+        .map(|f| {
+            overall = overall.worst(f.status);
+            let state = if f.measured || f.status != Status::Ok {
+                status(f.status)
+            } else {
+                "none".to_string()
+            };
+            GlanceRow {
+                title: f.title.to_string(),
+                status: state,
+                worst: sentence(&f.worst),
+            }
+        })
+        .collect();
+    Glance {
+        basis,
+        families,
+        overall: status(overall),
+    }
+}
+
+fn set_context(
+    job: &Job,
+    findings: &Findings,
+    set: &SetFindings,
+    source: Option<&MeasurementSet>,
+) -> SetContext {
+    let nominal = findings.mains.nominal_volts;
+    let date = set
+        .date
+        .as_deref()
+        .and_then(|d| NaiveDate::parse_from_str(d, "%Y-%m-%d").ok())
+        .map(date_words);
+    let mut methods: Vec<(CurrentMethod, Vec<String>)> = Vec::new();
+    for v in &set.valves {
+        if let Some(m) = v.method {
+            match methods.iter_mut().find(|(k, _)| *k == m) {
+                Some((_, list)) => list.push(v.position.clone()),
+                None => methods.push((m, vec![v.position.clone()])),
+            }
+        }
+    }
+    let circuit = source.map(|s| job.circuit_for(s));
+    let windows = set
+        .valves
+        .iter()
+        .filter_map(|v| window_row(v, source, circuit.as_ref()))
+        .collect();
+    let resistors = set
+        .droppers
+        .iter()
+        .map(|r| resistor_row(r, "dropper"))
+        .chain(
+            set.cathode_resistors
+                .iter()
+                .map(|r| resistor_row(r, "cathode resistor")),
+        )
+        .chain(
+            set.screen_resistors
+                .iter()
+                .map(|r| resistor_row(r, "screen resistor")),
+        )
+        .collect();
+    SetContext {
+        label: set.label.clone(),
+        date,
+        mains: volts(set.mains_volts),
+        factor: format!("{:.3}", set.correction_factor),
+        nominal: volts(nominal),
+        nodes: set.nodes.iter().map(node_row).collect(),
+        valves: set.valves.iter().map(valve_row).collect(),
+        conservative: set
+            .valves
+            .iter()
+            .any(|v| v.plate_current_includes_screen && v.plate_current_ma.is_some()),
+        methods: methods
+            .into_iter()
+            .map(|(m, positions)| format!("{} ({})", m.words(), positions.join(", ")))
+            .collect(),
+        windows,
+        resistors,
+        capacitors: set.filter_capacitors.iter().map(capacitor_row).collect(),
+        heaters: set.heaters.iter().map(heater_row).collect(),
+        warnings: findings
+            .warnings
+            .iter()
+            .filter(|w| w.set.as_deref() == Some(set.label.as_str()))
+            .map(|w| WarningRow {
+                subject: w.subject.clone(),
+                status: status(w.status),
+                message: glue_units(&w.message),
+            })
+            .collect(),
+    }
+}
+
+fn node_row(n: &NodeFindings) -> NodeRow {
+    NodeRow {
+        name: n.name.clone(),
+        label: n.label.clone(),
+        measured: sig3(n.measured_volts),
+        corrected: sig3(n.corrected_volts),
+        expected: n.expected_volts.map(sig3),
+        deviation: n.deviation_pct.map(signed_pct),
+        tolerance: format!("±{} %", format_sig(n.tolerance_pct, 3)),
+        status: status(n.verdict.status),
+        reason: sentence(&n.verdict.reason),
+    }
+}
+
+fn valve_row(v: &ValveFindings) -> ValveRow {
+    let worst = v
+        .checks
+        .iter()
+        .fold(None, |best: Option<&crate::calc::Check>, c| {
+            if best.is_none_or(|b| c.verdict.status.rank() > b.verdict.status.rank()) {
+                Some(c)
+            } else {
+                best
+            }
+        });
+    ValveRow {
+        position: v.position.clone(),
+        type_name: v.valve_type.clone(),
+        role: v.role.replace('_', " "),
+        bias: v.bias.clone(),
+        plate: v.plate_volts.map(sig3),
+        screen: v.screen_volts.map(sig3),
+        cathode: v.cathode_volts.map(sig3),
+        grid: v.grid_volts.map(sig3),
+        current_kind: if v.plate_current_includes_screen {
+            "Ik".into()
+        } else {
+            "Ia".into()
+        },
+        current: v.plate_current_ma.map(|i| fixed(i, 1)),
+        pa: v.plate_dissipation_w.map(|w| fixed(w, 1)),
+        pa_max: v.plate_dissipation_max_w.map(|w| format_sig(w, 3)),
+        pa_pct: v.plate_dissipation_pct.map(pct0),
+        pa_nominal_pct: v.corrected_plate_dissipation_pct.map(pct0),
+        pa_high_line_pct: v.high_line_plate_dissipation_pct.map(pct0),
+        pg2: v.screen_dissipation_w.map(|w| fixed(w, 1)),
+        pg2_pct: v.screen_dissipation_pct.map(pct0),
+        status: status(v.status),
+        reason: worst
+            .map(|c| sentence(&c.verdict.reason))
+            .unwrap_or_default(),
+    }
+}
+
+fn window_row(
+    v: &ValveFindings,
+    source: Option<&MeasurementSet>,
+    circuit: Option<&crate::job::Circuit>,
+) -> Option<WindowRow> {
+    let w = v.target_window.as_ref()?;
+    let reading = source.and_then(|s| s.valves.iter().find(|r| r.position.value == v.position));
+    let range = |a: f64, b: f64, decimals: usize, unit: &str| {
+        format!("{}–{} {unit}", fixed(a, decimals), fixed(b, decimals))
+    };
+    let mut readings = Vec::new();
+    if let (Some(a), Some(b)) = (w.sense_low_mv, w.sense_high_mv) {
+        let resistor = circuit.and_then(|c| c.sense_resistor_for(&v.position));
+        let across = match resistor {
+            Some(r) => {
+                let value = format_engineering(r.value.value.0, Q::Resistance);
+                match &r.reference {
+                    Some(reference) => format!("across the {value} sense resistor {reference}"),
+                    None => format!("across the {value} sense resistor"),
+                }
+            }
+            None => "across the sense resistor".to_string(),
+        };
+        let now = reading
+            .and_then(|r| r.sense.as_ref())
+            .map(|s| format!("{} mV", fixed(s.value.0 * 1000.0, 1)));
+        readings.push(WindowReading {
+            range: range(a, b, 1, "mV"),
+            across,
+            now,
+        });
+    }
+    if let (Some(a), Some(b)) = (w.primary_drop_low_volts, w.primary_drop_high_volts) {
+        let half = circuit.and_then(|c| c.half_primary_for(&v.position));
+        let across = match half {
+            Some(h) => {
+                let others: Vec<&str> = h
+                    .valves
+                    .iter()
+                    .map(|x| x.value.as_str())
+                    .filter(|p| *p != v.position)
+                    .collect();
+                let value = format_engineering(h.resistance.value.0, Q::Resistance);
+                if others.is_empty() {
+                    format!("across its half primary ({value})")
+                } else {
+                    format!(
+                        "across its half primary ({value}, shared with {})",
+                        others.join(", ")
+                    )
+                }
+            }
+            None => "across its half primary".to_string(),
+        };
+        let now = reading
+            .and_then(|r| r.primary_drop.as_ref())
+            .map(|d| format!("{} V", fixed(d.value.0, 2)));
+        readings.push(WindowReading {
+            range: range(a, b, 2, "V"),
+            across,
+            now,
+        });
+    }
+    if readings.is_empty()
+        && let (Some(a), Some(b)) = (w.probe_low_ma, w.probe_high_ma)
+    {
+        let now = v.cathode_current_ma.map(|i| format!("{} mA", fixed(i, 1)));
+        readings.push(WindowReading {
+            range: range(a, b, 1, "mA"),
+            across: "cathode current on a bias probe".into(),
+            now,
+        });
+    }
+    let place = match v.plate_current_ma {
+        _ if w.inside => "inside",
+        Some(i) if i > w.plate_current_high_ma => "above",
+        Some(_) => "below",
+        None => "outside",
+    };
+    Some(WindowRow {
+        position: v.position.clone(),
+        aim: format!("{}–{} %", pct0(w.low_pct), pct0(w.high_pct)),
+        plate_current: range(w.plate_current_low_ma, w.plate_current_high_ma, 1, "mA"),
+        plate_current_now: v.plate_current_ma.map(|i| format!("{} mA", fixed(i, 1))),
+        readings,
+        place: place.to_string(),
+    })
+}
+
+fn resistor_row(r: &ResistorFindings, kind: &str) -> ResistorRow {
+    ResistorRow {
+        reference: r.reference.clone(),
+        kind: kind.to_string(),
+        place: r.place.clone(),
+        resistance: format_engineering(r.resistance_ohms, Q::Resistance),
+        rating: r.rating_w.map(|w| format_engineering(w, Q::Power)),
+        voltage: volts(r.voltage_volts),
+        power: resistor_power_words(r.power_w),
+        power_pct: r.power_pct.map(pct0),
+        high_line_power: resistor_power_words(r.high_line_power_w),
+        high_line_pct: r.high_line_power_pct.map(pct0),
+        status: status(r.verdict.status),
+        reason: sentence(&r.verdict.reason),
+    }
+}
+
+fn capacitor_row(c: &CapacitorFindings) -> CapacitorRow {
+    CapacitorRow {
+        reference: c.reference.clone(),
+        node: c.node.clone(),
+        capacitance: c.capacitance_uf.map(|u| format!("{} µF", format_sig(u, 3))),
+        rating: sig3(c.rating_volts),
+        measured: c.measured_volts.map(sig3),
+        high_line: c.high_line_volts.map(sig3),
+        cold_start: c.cold_start_peak_volts.map(sig3),
+        highest: sig3(c.highest_volts),
+        margin: format!("{} %", fixed(c.margin_pct, 1)),
+        status: status(c.verdict.status),
+        reason: sentence(&c.verdict.reason),
+    }
+}
+
+fn heater_row(h: &HeaterFindings) -> HeaterRow {
+    HeaterRow {
+        label: h.label.clone(),
+        measured: volts(h.measured_volts),
+        nominal: volts(h.nominal_volts),
+        deviation: signed_pct(h.deviation_pct),
+        corrected: minus(format_engineering_3(h.corrected_volts)),
+        corrected_deviation: signed_pct(h.corrected_deviation_pct),
+        status: status(h.verdict.status),
+        reason: sentence(&h.verdict.reason),
+    }
+}
+
+/// Heater volts need three figures even below 10 V ("6.29 V").
+fn format_engineering_3(v: f64) -> String {
+    format!("{} V", format_sig(v, 3))
+}
+
+fn plots(findings: &Findings, inputs: &ContextInputs<'_>) -> Plots {
+    let s = &findings.settings;
+    let kinds: Vec<&str> = findings
+        .sets
+        .iter()
+        .flat_map(|set| {
+            set.valves
+                .iter()
+                .filter(|v| v.is_output)
+                .map(|v| v.bias.as_str())
+        })
+        .collect();
+    let guide = if kinds.is_empty() {
+        None
+    } else if kinds.iter().all(|k| *k == "fixed") {
+        Some(format!(
+            "The grey band is the fixed-bias aim of {}–{} % of the rating.",
+            pct0(s.fixed_bias_low_pct),
+            pct0(s.fixed_bias_high_pct)
+        ))
+    } else if kinds.iter().all(|k| *k == "cathode") {
+        Some(format!(
+            "The dashed line is the cathode-bias caution level of {} % of the rating.",
+            pct0(s.cathode_bias_caution_pct)
+        ))
+    } else {
+        None
+    };
+    Plots {
+        dissipation: inputs
+            .has_dissipation_plot
+            .then(|| DISSIPATION_PLOT.to_string()),
+        supply: inputs.has_supply_plot.then(|| SUPPLY_PLOT.to_string()),
+        dissipation_guide: guide,
+        supply_nominal: volts(findings.mains.nominal_volts),
+    }
+}
+
+fn safety(job: &Job, findings: &Findings) -> SafetyContext {
+    SafetyContext {
+        recorded: job.safety.is_some(),
+        class: job.safety.as_ref().map(|s| match s.class {
+            ProtectionClass::One => "Class I (protectively earthed)".to_string(),
+            ProtectionClass::Two => "Class II (double insulated)".to_string(),
+        }),
+        tests: findings
+            .safety
+            .iter()
+            .map(|t| SafetyRow {
+                test: match t.test {
+                    "earth_continuity" => "Protective-earth continuity".to_string(),
+                    "insulation" => "Insulation resistance".to_string(),
+                    "leakage" => "Leakage (touch) current".to_string(),
+                    other => sentence(&other.replace('_', " "))
+                        .trim_end_matches('.')
+                        .to_string(),
+                },
+                measured: glue_units(&t.measured),
+                limit: glue_units(&t.limit),
+                result: if t.passed {
+                    "pass".into()
+                } else {
+                    "fail".into()
+                },
+                status: status(t.verdict.status),
+            })
+            .collect(),
+    }
+}
+
+fn method(job: &Job, findings: &Findings) -> Method {
+    let s = &findings.settings;
+    let valves = || findings.sets.iter().flat_map(|set| set.valves.iter());
+    let mut ratings: Vec<RatingRow> = findings
+        .ratings_used
+        .iter()
+        .map(|r| {
+            let used = valves().find(|v| v.rating_name == r.name);
+            let mut limits = Vec::new();
+            if let Some(p) = used.and_then(|v| v.plate_dissipation_max_w) {
+                limits.push(format!("Pa {}", format_engineering(p, Q::Power)));
+            }
+            if let Some(p) = used.and_then(|v| v.screen_dissipation_max_w) {
+                limits.push(format!("Pg2 {}", format_engineering(p, Q::Power)));
+            }
+            RatingRow {
+                name: r.name.clone(),
+                equivalents: r.equivalents.clone(),
+                class: r.class.clone(),
+                positions: r.positions.clone(),
+                limits: (!limits.is_empty()).then(|| limits.join(", ")),
+                source: r.source.clone(),
+                origin: r.origin.clone(),
+            }
+        })
+        .collect();
+    ratings.sort_by(|a, b| a.name.cmp(&b.name));
+    let shared_half = job.measurements.iter().any(|set| {
+        job.circuit_for(set)
+            .half_primaries
+            .iter()
+            .any(|h| h.valves.len() > 1)
+    });
+    Method {
+        nominal: volts(findings.mains.nominal_volts),
+        tolerance: format!("+{} %", format_sig(findings.mains.tolerance_pct, 3)),
+        high_line: volts(findings.mains.high_line_volts),
+        design: findings.mains.design_volts.map(volts),
+        fixed_bias_low: format!("{} %", pct0(s.fixed_bias_low_pct)),
+        fixed_bias_high: format!("{} %", pct0(s.fixed_bias_high_pct)),
+        cathode_bias_caution: format!("{} %", pct0(s.cathode_bias_caution_pct)),
+        resistor_derating: format!("{} %", pct0(s.resistor_derating_pct)),
+        capacitor_margin: format!("{} %", pct0(s.capacitor_margin_pct)),
+        heater_tolerance: format!("±{} %", pct0(s.heater_tolerance_pct)),
+        node_tolerance: format!("±{} %", pct0(s.node_tolerance_pct)),
+        silicon_drop: volts(s.silicon_drop_volts),
+        uses_conservative_rule: valves()
+            .any(|v| v.plate_current_includes_screen && v.plate_current_ma.is_some()),
+        uses_shared_cathode: valves()
+            .any(|v| v.method == Some(CurrentMethod::SharedCathodeResistor)),
+        uses_shared_half_primary: shared_half
+            && valves().any(|v| v.method == Some(CurrentMethod::TransformerResistance)),
+        uses_fixed_bias: valves().any(|v| v.is_output && v.bias == "fixed"),
+        uses_cathode_bias: valves().any(|v| v.is_output && v.bias == "cathode"),
+        uses_cold_start: findings.sets.iter().any(|set| {
+            set.filter_capacitors
+                .iter()
+                .any(|c| c.cold_start_peak_volts.is_some())
+        }),
+        ratings,
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn numbers_read_like_a_page() {
+        assert_eq!(signed_pct(-1.26), "\u{2212}1.3 %");
+        assert_eq!(signed_pct(2.2), "+2.2 %");
+        assert_eq!(signed_pct(-0.01), "0.0 %");
+        assert_eq!(sig3(-32.0), "\u{2212}32");
+        assert_eq!(fixed(14.56, 1), "14.6");
+        assert_eq!(
+            date_words(NaiveDate::from_ymd_opt(2026, 11, 9).unwrap()),
+            "9 November 2026"
+        );
+        assert_eq!(sentence("heater: 6.4 V"), "Heater: 6.4\u{a0}V.");
+        assert_eq!(sentence(""), "");
+        assert_eq!(
+            glue_units("is 344 V, 115 % of 300 V."),
+            "is 344\u{a0}V, 115\u{a0}% of 300\u{a0}V."
+        );
+        assert_eq!(glue_units("V3 2 valves"), "V3 2 valves");
+    }
+
+    #[test]
+    fn hand_wrapped_text_flows_and_lists_keep_their_lines() {
+        assert_eq!(
+            reflow("one line\nwrapped here\n\nnew para"),
+            "one line wrapped here\n\nnew para"
+        );
+        assert_eq!(reflow("Did:\n- a\n- b\n2. c"), "Did:\n- a\n- b\n2. c");
+        assert_eq!(reflow("\n  lead\r\n  trail  \n"), "lead trail");
+        assert_eq!(reflow(""), "");
+        assert_eq!(reflow("one\n\ntwo\r\n\r\nthree"), "one\n\ntwo\n\nthree");
+    }
+}

@@ -1,0 +1,392 @@
+//! The PDF hand-over document: from a job and its findings to a typesetting
+//! sandbox (the filled `handover.typ` template as `main.typ`, the charts as
+//! SVG, any shop images) and the compile options that make it reproducible.
+//! Running typst on it is the caller's business ([`crate::typeset::compile`]).
+//!
+//! Nothing here reads the clock or the file system, except a shop's own
+//! template folder when one is given, so the same job, tool and typst give
+//! the same bytes.
+
+mod context;
+
+use std::path::Path;
+
+use chrono::NaiveDate;
+use minijinja::Value;
+use sha2::{Digest, Sha256};
+
+pub use context::{
+    CapacitorRow, ContextInputs, CustomerInfo, DISSIPATION_PLOT, DocumentInfo, Footer, Glance,
+    GlanceRow, HandoverContext, HeaterRow, JobInfo, LineUpRow, MainsInfo, Method, ModRow, NodeRow,
+    PartRow, Plots, RatingRow, ResistorRow, SUPPLY_PLOT, SafetyContext, SafetyRow, SetContext,
+    ShopBlock, UnitInfo, ValveRow, WarningRow, WindowReading, WindowRow, build_context, date_words,
+};
+
+use super::plots::{self, PlotError};
+use crate::calc::Findings;
+use crate::job::Job;
+use crate::typeset::{
+    CompileOptions, Sandbox, TemplateSource, TypesetError, font_rules, template_environment,
+    typst_markup,
+};
+
+/// The template the document is rendered from.
+pub const TEMPLATE_NAME: &str = "handover.typ";
+
+/// The generated source's name inside the sandbox.
+pub const MAIN_SOURCE: &str = "main.typ";
+
+/// Folder of a template override whose files are copied into the sandbox's
+/// `images/` folder (a shop's logo, for instance).
+pub const IMAGES_DIR: &str = "images";
+
+/// The built-in templates, for [`TemplateSource::embedded`].
+pub static EMBEDDED_TEMPLATES: &[(&str, &str)] = &[(
+    TEMPLATE_NAME,
+    include_str!("../../../templates/handover.typ"),
+)];
+
+/// The creation date stamped into the PDF when the job gives neither a
+/// completion nor a received date: a fixed day, so the bytes still do not
+/// depend on when the document was made.
+pub const FALLBACK_DATE: (i32, u32, u32) = (2000, 1, 1);
+
+/// Why the document could not be put together.
+#[derive(Debug, thiserror::Error)]
+pub enum HandoverError {
+    /// The template did not render (syntax error, unknown variable …).
+    #[error("the template {name} could not be filled: {detail}")]
+    Template {
+        name: String,
+        detail: String,
+        /// True when the template came from a `--templates` folder.
+        from_override: bool,
+    },
+    #[error(transparent)]
+    Plot(#[from] PlotError),
+    #[error(transparent)]
+    Sandbox(#[from] TypesetError),
+    #[error("could not read the shop image {path}: {source}")]
+    Image {
+        path: String,
+        #[source]
+        source: std::io::Error,
+    },
+}
+
+/// What the document is made from besides the job itself.
+#[derive(Debug, Clone)]
+pub struct HandoverInput<'a> {
+    pub job: &'a Job,
+    pub findings: &'a Findings,
+    /// The job file's text, for the footer's checksum.
+    pub job_text: &'a str,
+    /// The version of the typst that will compile it, for the footer.
+    pub typst_version: String,
+    pub shop: ShopBlock,
+}
+
+/// A ready-to-compile document.
+#[derive(Debug, Clone)]
+pub struct Document {
+    pub sandbox: Sandbox,
+    /// The main source inside the sandbox ([`MAIN_SOURCE`]).
+    pub main: &'static str,
+    pub options: CompileOptions,
+    /// The context the template was filled with.
+    pub context: HandoverContext,
+}
+
+/// The date stamped into the PDF: the job's completion date, else its
+/// received date, else [`FALLBACK_DATE`].
+pub fn creation_date(job: &Job) -> NaiveDate {
+    job.info.completed.or(job.info.received).unwrap_or_else(|| {
+        let (y, m, d) = FALLBACK_DATE;
+        NaiveDate::from_ymd_opt(y, m, d).expect("the fallback date exists")
+    })
+}
+
+/// The first 12 hex digits of the SHA-256 of the job file's text.
+pub fn job_digest(text: &str) -> String {
+    let digest = Sha256::digest(text.as_bytes());
+    digest.iter().take(6).map(|b| format!("{b:02x}")).collect()
+}
+
+/// The `typst compile` command that turns a folder written by
+/// [`crate::typeset::emit_source`] into the same PDF ampreport makes.
+pub fn compile_command(dir: &Path, options: &CompileOptions, output: &Path) -> String {
+    let d = dir.display();
+    let mut cmd = format!(
+        "typst compile --root {d} --font-path {d}/fonts --ignore-system-fonts --ignore-embedded-fonts \
+         --creation-timestamp {}",
+        options.creation_timestamp()
+    );
+    if let Some(standard) = &options.pdf_standard {
+        cmd.push_str(&format!(" --pdf-standard {standard}"));
+    }
+    cmd.push_str(&format!(" {d}/{MAIN_SOURCE} {}", output.display()));
+    cmd
+}
+
+/// Builds the context and the charts, fills the template and lays out the
+/// sandbox.
+pub fn build(
+    input: &HandoverInput<'_>,
+    templates: &TemplateSource,
+) -> Result<Document, HandoverError> {
+    let mut sandbox = Sandbox::new();
+    let dissipation = plots::dissipation_chart(input.findings);
+    let supply = plots::supply_chart(input.findings);
+    if let Some(chart) = &dissipation {
+        sandbox.insert(DISSIPATION_PLOT, plots::dissipation_svg(chart)?)?;
+    }
+    if let Some(chart) = &supply {
+        sandbox.insert(SUPPLY_PLOT, plots::supply_svg(chart)?)?;
+    }
+    let digest = job_digest(input.job_text);
+    let inputs = ContextInputs {
+        shop: input.shop.clone(),
+        tool_version: env!("CARGO_PKG_VERSION"),
+        typst_version: &input.typst_version,
+        job_digest: &digest,
+        has_dissipation_plot: dissipation.is_some(),
+        has_supply_plot: supply.is_some(),
+    };
+    let context = build_context(input.job, input.findings, &inputs);
+    let source = render_template(&context, templates)?;
+    sandbox.insert(MAIN_SOURCE, source)?;
+    if let Some(dir) = &templates.override_dir {
+        add_shop_images(&mut sandbox, &dir.join(IMAGES_DIR))?;
+    }
+    Ok(Document {
+        sandbox,
+        main: MAIN_SOURCE,
+        options: CompileOptions::new(creation_date(input.job)),
+        context,
+    })
+}
+
+/// Fills [`TEMPLATE_NAME`] with `context`. The template also gets
+/// `font_rules`, the set rules selecting the bundled fonts.
+pub fn render_template(
+    context: &HandoverContext,
+    templates: &TemplateSource,
+) -> Result<String, HandoverError> {
+    let from_override = templates
+        .override_dir
+        .as_ref()
+        .is_some_and(|d| d.join(TEMPLATE_NAME).is_file());
+    let env = template_environment(templates.clone());
+    let fail = |e: minijinja::Error| HandoverError::Template {
+        name: TEMPLATE_NAME.to_string(),
+        detail: template_error_words(&e),
+        from_override,
+    };
+    let template = env.get_template(TEMPLATE_NAME).map_err(fail)?;
+    let ctx = minijinja::context! {
+        font_rules => typst_markup(font_rules()),
+        ..Value::from_serialize(context)
+    };
+    template.render(ctx).map_err(fail)
+}
+
+/// A minijinja error with its place in the template and its causes.
+fn template_error_words(e: &minijinja::Error) -> String {
+    let mut words = e.to_string();
+    if let (Some(name), Some(line)) = (e.name(), e.line()) {
+        if !words.contains(&format!("line {line}")) {
+            words.push_str(&format!(" (in {name}, line {line})"));
+        }
+    }
+    let mut cause = std::error::Error::source(e);
+    while let Some(c) = cause {
+        words.push_str(&format!(": {c}"));
+        cause = c.source();
+    }
+    words
+}
+
+/// Copies the regular files of a shop's `images/` folder into the sandbox,
+/// in name order. A missing folder is not an error.
+fn add_shop_images(sandbox: &mut Sandbox, dir: &Path) -> Result<(), HandoverError> {
+    let entries = match std::fs::read_dir(dir) {
+        Ok(entries) => entries,
+        Err(e) if e.kind() == std::io::ErrorKind::NotFound => return Ok(()),
+        Err(source) => {
+            return Err(HandoverError::Image {
+                path: dir.display().to_string(),
+                source,
+            });
+        }
+    };
+    let mut files: Vec<(String, std::path::PathBuf)> = Vec::new();
+    for entry in entries {
+        let entry = entry.map_err(|source| HandoverError::Image {
+            path: dir.display().to_string(),
+            source,
+        })?;
+        let path = entry.path();
+        if path.is_file()
+            && let Some(name) = path.file_name().and_then(|n| n.to_str())
+        {
+            files.push((name.to_string(), path));
+        }
+    }
+    files.sort();
+    for (name, path) in files {
+        let bytes = std::fs::read(&path).map_err(|source| HandoverError::Image {
+            path: path.display().to_string(),
+            source,
+        })?;
+        sandbox
+            .insert(format!("{IMAGES_DIR}/{name}"), bytes)
+            .map_err(|e| HandoverError::Image {
+                path: path.display().to_string(),
+                source: std::io::Error::other(e.to_string()),
+            })?;
+    }
+    Ok(())
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::ratings::RatingsTable;
+
+    /// A demo job decoded and derived, with its text.
+    fn demo(name: &str) -> (Job, Findings, String) {
+        let path = Path::new(env!("CARGO_MANIFEST_DIR"))
+            .join("jobs")
+            .join(name);
+        let text = std::fs::read_to_string(path).unwrap();
+        let ratings = RatingsTable::builtin();
+        let job = crate::job::decode_with_ratings(name, &text, &ratings)
+            .unwrap()
+            .job;
+        let findings = crate::calc::derive(&job, &ratings);
+        (job, findings, text)
+    }
+
+    fn document(job: &Job, findings: &Findings, text: &str) -> Document {
+        let input = HandoverInput {
+            job,
+            findings,
+            job_text: text,
+            typst_version: "0.15.1".into(),
+            shop: ShopBlock::default(),
+        };
+        build(&input, &TemplateSource::embedded(EMBEDDED_TEMPLATES)).unwrap()
+    }
+
+    #[test]
+    fn the_context_carries_the_calculated_figures() {
+        let (job, findings, text) = demo("combo-el84-cathode.kdl");
+        let doc = document(&job, &findings, &text);
+        let ctx = &doc.context;
+        for (set, found) in ctx.sets.iter().zip(&findings.sets) {
+            for (row, v) in set.valves.iter().zip(&found.valves) {
+                assert_eq!(row.pa, v.plate_dissipation_w.map(|w| format!("{w:.1}")));
+            }
+        }
+        // Pa = (Va − Vk) · Ik = (338 − 11.6) V × 11.6 V / (2 × 130 Ω) = 14.56 W
+        // (Joule's and Ohm's laws; the demo job's readings).
+        assert_eq!(ctx.sets[0].valves[0].pa.as_deref(), Some("14.6"));
+        assert_eq!(ctx.sets[0].valves[0].current_kind, "Ik");
+        assert!(ctx.sets[0].conservative);
+        assert!(ctx.method.uses_shared_cathode && ctx.method.uses_cathode_bias);
+        assert_eq!(ctx.glance.families.len(), 5);
+        assert_eq!(ctx.footer.job_digest, job_digest(&text));
+        // Completed 2026-11-09.
+        assert_eq!(
+            doc.options.creation,
+            NaiveDate::from_ymd_opt(2026, 11, 9).unwrap()
+        );
+        let names: Vec<&str> = doc.sandbox.files().map(|(p, _)| p).collect();
+        assert_eq!(names, [MAIN_SOURCE, DISSIPATION_PLOT, SUPPLY_PLOT]);
+    }
+
+    #[test]
+    fn user_text_reaches_the_source_only_escaped() {
+        let (mut job, _, text) = demo("combo-6v6-fixed.kdl");
+        job.complaint = Some("#read(\"/etc/passwd\") $x$ <l> @r // c".into());
+        job.unit.model = "*bold* #include \"x\"".into();
+        let ratings = RatingsTable::builtin();
+        let findings = crate::calc::derive(&job, &ratings);
+        let doc = document(&job, &findings, &text);
+        let source = String::from_utf8(doc.sandbox.get(MAIN_SOURCE).unwrap().to_vec()).unwrap();
+        assert!(
+            source.contains("\\#read\\(\\\"\\/etc\\/passwd\\\"\\)"),
+            "escaped complaint missing"
+        );
+        assert!(!source.contains("#read("));
+        assert!(!source.contains("#include \"x\""));
+        assert!(source.contains("\\*bold\\* \\#include"));
+    }
+
+    #[test]
+    fn the_creation_date_falls_back_to_received_then_a_fixed_day() {
+        let (mut job, _, _) = demo("combo-6v6-fixed.kdl");
+        assert_eq!(
+            creation_date(&job),
+            NaiveDate::from_ymd_opt(2026, 11, 12).unwrap()
+        );
+        job.info.completed = None;
+        assert_eq!(
+            creation_date(&job),
+            NaiveDate::from_ymd_opt(2026, 11, 5).unwrap()
+        );
+        job.info.received = None;
+        assert_eq!(
+            creation_date(&job),
+            NaiveDate::from_ymd_opt(2000, 1, 1).unwrap()
+        );
+    }
+
+    #[test]
+    fn a_broken_shop_template_is_the_shops_fault() {
+        let dir = tempfile::tempdir().unwrap();
+        std::fs::write(dir.path().join(TEMPLATE_NAME), "{{ no_such_thing }}").unwrap();
+        let (job, findings, text) = demo("combo-el84-cathode.kdl");
+        let input = HandoverInput {
+            job: &job,
+            findings: &findings,
+            job_text: &text,
+            typst_version: "0.15.1".into(),
+            shop: ShopBlock::default(),
+        };
+        let source = TemplateSource::embedded(EMBEDDED_TEMPLATES).with_override_dir(dir.path());
+        match build(&input, &source) {
+            Err(HandoverError::Template {
+                from_override,
+                detail,
+                ..
+            }) => {
+                assert!(from_override);
+                assert!(
+                    detail.contains("no_such_thing") || detail.contains("undefined"),
+                    "{detail}"
+                );
+            }
+            other => panic!("expected a template error, got {other:?}"),
+        }
+    }
+
+    #[test]
+    fn digest_is_twelve_hex_digits_of_sha256() {
+        // FIPS 180-2 test vector: SHA-256("abc") = ba7816bf8f01cfea…
+        assert_eq!(job_digest("abc"), "ba7816bf8f01");
+        assert_eq!(job_digest("abc").len(), 12);
+    }
+
+    #[test]
+    fn command_names_every_flag() {
+        // 2026-11-09 00:00 UTC is 1794182400 s after the Unix epoch (`date -u -d 2026-11-09 +%s`).
+        let opts = CompileOptions::new(NaiveDate::from_ymd_opt(2026, 11, 9).unwrap());
+        let cmd = compile_command(Path::new("/tmp/src"), &opts, Path::new("out.pdf"));
+        assert_eq!(
+            cmd,
+            "typst compile --root /tmp/src --font-path /tmp/src/fonts --ignore-system-fonts --ignore-embedded-fonts \
+             --creation-timestamp 1794182400 --pdf-standard a-2b /tmp/src/main.typ out.pdf"
+        );
+    }
+}

@@ -1,0 +1,846 @@
+//! The hand-over document's two charts, drawn with plotters' SVG backend so
+//! they stay vector graphics in the PDF: output-valve plate dissipation as a
+//! share of its rating for each measurement set, and the supply chain's
+//! corrected node voltages against the bands the chart allows.
+//!
+//! Both are built to survive a black-and-white printer: measurement sets
+//! differ by fill pattern (hatched, solid dark, solid light …) or by marker
+//! shape, never by colour alone, and every bar and marker carries its figure
+//! as text. The charts only draw what [`crate::calc`] worked out.
+
+use plotters::coord::Shift;
+use plotters::prelude::*;
+use plotters::style::text_anchor::{HPos, Pos, VPos};
+
+use crate::calc::Findings;
+
+/// Font named in the SVG text elements: the bundled body font, which typst
+/// uses when it draws the SVG.
+const FONT: &str = "Noto Sans";
+
+/// Greys used by both charts (greyscale by design).
+const INK: RGBColor = RGBColor(20, 20, 20);
+const DARK: RGBColor = RGBColor(90, 90, 90);
+const MID: RGBColor = RGBColor(160, 160, 160);
+const LIGHT: RGBColor = RGBColor(222, 222, 222);
+const GRID: RGBColor = RGBColor(232, 232, 232);
+const PAPER: RGBColor = RGBColor(255, 255, 255);
+
+/// Width and height of both SVGs in pixels (CSS px; typst scales them).
+pub const SIZE: (u32, u32) = (760, 330);
+
+/// Why a chart could not be drawn.
+#[derive(Debug, thiserror::Error)]
+#[error("could not draw the {chart} chart: {message}")]
+pub struct PlotError {
+    pub chart: &'static str,
+    pub message: String,
+}
+
+/// The guide drawn behind the dissipation bars.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub enum Guide {
+    /// Fixed bias: the aim band, as percentages of the rating.
+    Aim { low_pct: f64, high_pct: f64 },
+    /// Cathode bias: the caution line, as a percentage of the rating.
+    Caution { pct: f64 },
+    /// Mixed bias kinds: only the 100 % line is drawn.
+    None,
+}
+
+/// One measurement set's figures, one per category of the chart.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Series {
+    pub label: String,
+    pub values: Vec<Option<f64>>,
+}
+
+/// Data for the plate-dissipation chart.
+#[derive(Debug, Clone, PartialEq)]
+pub struct DissipationChart {
+    /// One label per output valve: position and type.
+    pub valves: Vec<String>,
+    /// Plate dissipation as % of the rating, per set, per valve.
+    pub series: Vec<Series>,
+    pub guide: Guide,
+}
+
+/// A supply node on the chain chart.
+#[derive(Debug, Clone, PartialEq)]
+pub struct SupplyNode {
+    pub name: String,
+    /// (low, expected, high) volts at nominal mains, when the job gives a
+    /// chart figure.
+    pub band: Option<(f64, f64, f64)>,
+}
+
+/// Data for the supply-chain chart.
+#[derive(Debug, Clone, PartialEq)]
+pub struct SupplyChart {
+    pub nodes: Vec<SupplyNode>,
+    /// Corrected volts per set, per node.
+    pub series: Vec<Series>,
+    pub nominal_volts: f64,
+}
+
+/// The dissipation chart's data, or `None` when no output valve has a
+/// plate-dissipation figure in any set.
+pub fn dissipation_chart(findings: &Findings) -> Option<DissipationChart> {
+    let mut valves: Vec<(String, String)> = Vec::new();
+    let mut kinds: Vec<&str> = Vec::new();
+    for set in &findings.sets {
+        for v in set
+            .valves
+            .iter()
+            .filter(|v| v.is_output && v.plate_dissipation_pct.is_some())
+        {
+            if !valves.iter().any(|(p, _)| *p == v.position) {
+                valves.push((v.position.clone(), v.valve_type.clone()));
+            }
+            if !kinds.contains(&v.bias.as_str()) {
+                kinds.push(v.bias.as_str());
+            }
+        }
+    }
+    if valves.is_empty() {
+        return None;
+    }
+    let series = findings
+        .sets
+        .iter()
+        .map(|set| Series {
+            label: set.label.clone(),
+            values: valves
+                .iter()
+                .map(|(p, _)| {
+                    set.valves
+                        .iter()
+                        .find(|v| &v.position == p)
+                        .and_then(|v| v.plate_dissipation_pct)
+                })
+                .collect(),
+        })
+        .collect();
+    let s = &findings.settings;
+    let guide = match kinds.as_slice() {
+        ["fixed"] => Guide::Aim {
+            low_pct: s.fixed_bias_low_pct,
+            high_pct: s.fixed_bias_high_pct,
+        },
+        ["cathode"] => Guide::Caution {
+            pct: s.cathode_bias_caution_pct,
+        },
+        _ => Guide::None,
+    };
+    Some(DissipationChart {
+        valves: valves
+            .into_iter()
+            .map(|(p, t)| format!("{p} {t}"))
+            .collect(),
+        series,
+        guide,
+    })
+}
+
+/// The supply chart's data, or `None` when no set reads any node.
+pub fn supply_chart(findings: &Findings) -> Option<SupplyChart> {
+    let mut nodes: Vec<SupplyNode> = Vec::new();
+    for set in &findings.sets {
+        for n in &set.nodes {
+            let band = n.expected_volts.map(|e| {
+                let t = n.tolerance_pct / 100.0;
+                (e * (1.0 - t), e, e * (1.0 + t))
+            });
+            match nodes.iter_mut().find(|x| x.name == n.name) {
+                Some(existing) => {
+                    if existing.band.is_none() {
+                        existing.band = band;
+                    }
+                }
+                None => nodes.push(SupplyNode {
+                    name: n.name.clone(),
+                    band,
+                }),
+            }
+        }
+    }
+    if nodes.is_empty() {
+        return None;
+    }
+    let series = findings
+        .sets
+        .iter()
+        .map(|set| Series {
+            label: set.label.clone(),
+            values: nodes
+                .iter()
+                .map(|node| {
+                    set.nodes
+                        .iter()
+                        .find(|n| n.name == node.name)
+                        .map(|n| n.corrected_volts)
+                })
+                .collect(),
+        })
+        .collect();
+    Some(SupplyChart {
+        nodes,
+        series,
+        nominal_volts: findings.mains.nominal_volts,
+    })
+}
+
+/// Text that is safe and short enough for a chart label: control
+/// characters (which XML cannot hold) are dropped and long names are cut.
+pub fn label_text(text: &str, max_chars: usize) -> String {
+    let clean: String = text
+        .chars()
+        .map(|c| if c.is_whitespace() { ' ' } else { c })
+        .filter(|c| !c.is_control() && !is_xml_forbidden(*c))
+        .collect();
+    let clean = clean.split_whitespace().collect::<Vec<_>>().join(" ");
+    if clean.chars().count() <= max_chars {
+        clean
+    } else {
+        let cut: String = clean.chars().take(max_chars.saturating_sub(1)).collect();
+        format!("{}…", cut.trim_end())
+    }
+}
+
+/// Characters XML 1.0 does not allow in a document.
+fn is_xml_forbidden(c: char) -> bool {
+    matches!(c, '\u{FFFE}' | '\u{FFFF}')
+}
+
+/// A whole-number percentage for a label.
+fn pct_label(v: f64) -> String {
+    format!("{v:.0} %")
+}
+
+fn err(chart: &'static str) -> impl Fn(String) -> PlotError {
+    move |message| PlotError { chart, message }
+}
+
+fn font(size: u32) -> TextStyle<'static> {
+    (FONT, size).into_font().color(&INK)
+}
+
+fn anchored(size: u32, h: HPos, v: VPos) -> TextStyle<'static> {
+    font(size).pos(Pos::new(h, v))
+}
+
+/// How set `k` is drawn in the bar chart: fill colour, and whether diagonal
+/// hatching goes over it.
+fn bar_pattern(k: usize) -> (RGBColor, bool) {
+    match k % 4 {
+        0 => (PAPER, true),
+        1 => (DARK, false),
+        2 => (LIGHT, false),
+        _ => (MID, true),
+    }
+}
+
+/// Diagonal lines (lower left to upper right) filling a pixel rectangle.
+fn hatch(
+    area: &DrawingArea<SVGBackend<'_>, Shift>,
+    (x0, y0): (i32, i32),
+    (x1, y1): (i32, i32),
+    spacing: i32,
+) -> Result<(), String> {
+    let (x0, x1) = (x0.min(x1), x0.max(x1));
+    let (y0, y1) = (y0.min(y1), y0.max(y1));
+    let mut c = x0 + y0 + spacing;
+    while c < x1 + y1 {
+        // Points on x + y = c inside the rectangle.
+        let xa = x0.max(c - y1);
+        let xb = x1.min(c - y0);
+        if xa < xb {
+            area.draw(&PathElement::new(
+                vec![(xa, c - xa), (xb, c - xb)],
+                INK.stroke_width(1),
+            ))
+            .map_err(|e| e.to_string())?;
+        }
+        c += spacing;
+    }
+    Ok(())
+}
+
+/// A horizontal dashed line in pixel coordinates.
+fn dashed(
+    area: &DrawingArea<SVGBackend<'_>, Shift>,
+    x0: i32,
+    x1: i32,
+    y: i32,
+    style: ShapeStyle,
+) -> Result<(), String> {
+    let mut x = x0;
+    while x < x1 {
+        let end = (x + 8).min(x1);
+        area.draw(&PathElement::new(vec![(x, y), (end, y)], style))
+            .map_err(|e| e.to_string())?;
+        x += 13;
+    }
+    Ok(())
+}
+
+/// The legend row along the top: (swatch drawer, label) pairs laid out left
+/// to right from `x`.
+fn legend_swatch_bar(
+    area: &DrawingArea<SVGBackend<'_>, Shift>,
+    x: i32,
+    y: i32,
+    k: usize,
+) -> Result<(), String> {
+    let (fill, hatched) = bar_pattern(k);
+    area.draw(&Rectangle::new(
+        [(x, y - 7), (x + 22, y + 7)],
+        fill.filled(),
+    ))
+    .map_err(|e| e.to_string())?;
+    if hatched {
+        hatch(area, (x, y - 7), (x + 22, y + 7), 6)?;
+    }
+    area.draw(&Rectangle::new(
+        [(x, y - 7), (x + 22, y + 7)],
+        INK.stroke_width(1),
+    ))
+    .map_err(|e| e.to_string())?;
+    Ok(())
+}
+
+/// Draws the plate-dissipation chart as an SVG document.
+pub fn dissipation_svg(chart: &DissipationChart) -> Result<String, PlotError> {
+    let e = err("plate dissipation");
+    let mut svg = String::new();
+    draw_dissipation(chart, &mut svg).map_err(&e)?;
+    Ok(svg)
+}
+
+fn draw_dissipation(chart: &DissipationChart, svg: &mut String) -> Result<(), String> {
+    let root = SVGBackend::with_string(svg, SIZE).into_drawing_area();
+    root.fill(&PAPER).map_err(|e| e.to_string())?;
+    let n = chart.valves.len().max(1);
+    let sets = chart.series.len().max(1);
+    let highest = chart
+        .series
+        .iter()
+        .flat_map(|s| s.values.iter().flatten())
+        .fold(0.0f64, |a, &b| a.max(b));
+    let top = ((highest.max(100.0) + 14.0) / 10.0).ceil() * 10.0;
+
+    let mut ctx = ChartBuilder::on(&root)
+        .margin_top(44)
+        .margin_right(104)
+        .margin_left(8)
+        .margin_bottom(6)
+        .x_label_area_size(34)
+        .y_label_area_size(62)
+        .build_cartesian_2d(0f64..n as f64, 0f64..top)
+        .map_err(|e| e.to_string())?;
+    ctx.configure_mesh()
+        .disable_x_mesh()
+        .x_labels(0)
+        .x_label_formatter(&|_| String::new())
+        .y_labels(((top / 20.0) as usize).clamp(4, 12))
+        .y_label_formatter(&|v| format!("{v:.0}"))
+        .y_desc("Plate dissipation, % of rating")
+        .axis_desc_style(font(14))
+        .label_style(font(13))
+        .light_line_style(PAPER)
+        .bold_line_style(GRID.stroke_width(1))
+        .axis_style(INK.stroke_width(1))
+        .draw()
+        .map_err(|e| e.to_string())?;
+
+    let (left, _) = ctx.backend_coord(&(0.0, 0.0));
+    let (right, _) = ctx.backend_coord(&(n as f64, 0.0));
+
+    // The guide first, so the bars sit on top of it; its words go in the
+    // right margin, clear of the bars.
+    match chart.guide {
+        Guide::Aim { low_pct, high_pct } => {
+            ctx.draw_series(std::iter::once(Rectangle::new(
+                [(0.0, low_pct), (n as f64, high_pct)],
+                LIGHT.filled(),
+            )))
+            .map_err(|e| e.to_string())?;
+            let mid = ctx.backend_coord(&(0.0, (low_pct + high_pct) / 2.0)).1;
+            root.draw(&Text::new(
+                "fixed-bias aim",
+                (right + 8, mid - 8),
+                anchored(12, HPos::Left, VPos::Center),
+            ))
+            .map_err(|e| e.to_string())?;
+            root.draw(&Text::new(
+                format!("{low_pct:.0}–{high_pct:.0} %"),
+                (right + 8, mid + 8),
+                anchored(12, HPos::Left, VPos::Center),
+            ))
+            .map_err(|e| e.to_string())?;
+        }
+        Guide::Caution { pct } => {
+            let y = ctx.backend_coord(&(0.0, pct)).1;
+            dashed(&root, left, right, y, INK.stroke_width(1))?;
+            root.draw(&Text::new(
+                format!("caution {pct:.0} %"),
+                (right + 8, y + 2),
+                anchored(12, HPos::Left, VPos::Top),
+            ))
+            .map_err(|e| e.to_string())?;
+        }
+        Guide::None => {}
+    }
+
+    // Bars: each valve a group, each set a bar in it.
+    let group = 0.62;
+    let bar = group / sets as f64;
+    for (k, series) in chart.series.iter().enumerate() {
+        let (fill, hatched) = bar_pattern(k);
+        for (i, value) in series.values.iter().enumerate() {
+            let Some(v) = *value else { continue };
+            let x0 = i as f64 + (1.0 - group) / 2.0 + k as f64 * bar;
+            let x1 = x0 + bar * 0.9;
+            ctx.draw_series(std::iter::once(Rectangle::new(
+                [(x0, 0.0), (x1, v)],
+                fill.filled(),
+            )))
+            .map_err(|e| e.to_string())?;
+            let a = ctx.backend_coord(&(x0, v));
+            let b = ctx.backend_coord(&(x1, 0.0));
+            if hatched {
+                hatch(&root, a, b, 7)?;
+            }
+            root.draw(&Rectangle::new([a, b], INK.stroke_width(1)))
+                .map_err(|e| e.to_string())?;
+            root.draw(&Text::new(
+                pct_label(v),
+                ((a.0 + b.0) / 2, a.1 - 3),
+                anchored(12, HPos::Center, VPos::Bottom),
+            ))
+            .map_err(|e| e.to_string())?;
+        }
+    }
+
+    // The rating line over everything.
+    let y100 = ctx.backend_coord(&(0.0, 100.0)).1;
+    root.draw(&PathElement::new(
+        vec![(left, y100), (right, y100)],
+        INK.stroke_width(2),
+    ))
+    .map_err(|e| e.to_string())?;
+    root.draw(&Text::new(
+        "100 % rating",
+        (right + 8, y100 - 2),
+        anchored(12, HPos::Left, VPos::Bottom),
+    ))
+    .map_err(|e| e.to_string())?;
+
+    // Category labels under the axis.
+    for (i, label) in chart.valves.iter().enumerate() {
+        let (x, y) = ctx.backend_coord(&(i as f64 + 0.5, 0.0));
+        root.draw(&Text::new(
+            label_text(label, 18),
+            (x, y + 8),
+            anchored(13, HPos::Center, VPos::Top),
+        ))
+        .map_err(|e| e.to_string())?;
+    }
+
+    // Legend along the top.
+    let mut x = left;
+    for (k, series) in chart.series.iter().enumerate() {
+        legend_swatch_bar(&root, x, 20, k)?;
+        let text = label_text(&series.label, 24);
+        root.draw(&Text::new(
+            text.clone(),
+            (x + 30, 20),
+            anchored(13, HPos::Left, VPos::Center),
+        ))
+        .map_err(|e| e.to_string())?;
+        x += 30 + 8 * text.chars().count() as i32 + 26;
+    }
+    root.present().map_err(|e| e.to_string())?;
+    Ok(())
+}
+
+/// How set `k` is marked in the supply chart.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+enum Marker {
+    HollowCircle,
+    FilledTriangle,
+    HollowSquare,
+    FilledDiamond,
+}
+
+fn marker(k: usize) -> Marker {
+    match k % 4 {
+        0 => Marker::HollowCircle,
+        1 => Marker::FilledTriangle,
+        2 => Marker::HollowSquare,
+        _ => Marker::FilledDiamond,
+    }
+}
+
+fn draw_marker(
+    area: &DrawingArea<SVGBackend<'_>, Shift>,
+    (x, y): (i32, i32),
+    m: Marker,
+) -> Result<(), String> {
+    let r = 6;
+    let result = match m {
+        Marker::HollowCircle => area
+            .draw(&Circle::new((x, y), r, PAPER.filled()))
+            .and_then(|_| area.draw(&Circle::new((x, y), r, INK.stroke_width(2)))),
+        Marker::FilledTriangle => area.draw(&Polygon::new(
+            vec![(x, y - r - 1), (x + r + 1, y + r), (x - r - 1, y + r)],
+            INK.filled(),
+        )),
+        Marker::HollowSquare => area
+            .draw(&Rectangle::new(
+                [(x - r, y - r), (x + r, y + r)],
+                PAPER.filled(),
+            ))
+            .and_then(|_| {
+                area.draw(&Rectangle::new(
+                    [(x - r, y - r), (x + r, y + r)],
+                    INK.stroke_width(2),
+                ))
+            }),
+        Marker::FilledDiamond => area.draw(&Polygon::new(
+            vec![
+                (x, y - r - 1),
+                (x + r + 1, y),
+                (x, y + r + 1),
+                (x - r - 1, y),
+            ],
+            INK.filled(),
+        )),
+    };
+    result.map_err(|e| e.to_string())
+}
+
+/// Draws the supply-chain chart as an SVG document.
+pub fn supply_svg(chart: &SupplyChart) -> Result<String, PlotError> {
+    let e = err("supply chain");
+    let mut svg = String::new();
+    draw_supply(chart, &mut svg).map_err(&e)?;
+    Ok(svg)
+}
+
+fn draw_supply(chart: &SupplyChart, svg: &mut String) -> Result<(), String> {
+    let root = SVGBackend::with_string(svg, SIZE).into_drawing_area();
+    root.fill(&PAPER).map_err(|e| e.to_string())?;
+    let n = chart.nodes.len().max(1);
+    let sets = chart.series.len().max(1);
+    let mut figures: Vec<f64> = chart
+        .series
+        .iter()
+        .flat_map(|s| s.values.iter().flatten().copied())
+        .collect();
+    for node in &chart.nodes {
+        if let Some((lo, _, hi)) = node.band {
+            figures.push(lo);
+            figures.push(hi);
+        }
+    }
+    let lo = figures.iter().copied().fold(f64::INFINITY, f64::min);
+    let hi = figures.iter().copied().fold(f64::NEG_INFINITY, f64::max);
+    let (lo, hi) = if lo.is_finite() && hi.is_finite() {
+        (lo, hi)
+    } else {
+        (0.0, 100.0)
+    };
+    let step = if hi - lo > 300.0 { 100.0 } else { 50.0 };
+    let bottom = (((lo - step * 0.3) / step).floor() * step).max(0.0);
+    let top = ((hi + step * 0.3) / step).ceil() * step;
+
+    let mut ctx = ChartBuilder::on(&root)
+        .margin_top(44)
+        .margin_right(16)
+        .margin_left(8)
+        .margin_bottom(6)
+        .x_label_area_size(34)
+        .y_label_area_size(62)
+        .build_cartesian_2d(0f64..n as f64, bottom..top)
+        .map_err(|e| e.to_string())?;
+    let desc = format!("Volts DC, corrected to {:.0} V mains", chart.nominal_volts);
+    ctx.configure_mesh()
+        .disable_x_mesh()
+        .x_labels(0)
+        .x_label_formatter(&|_| String::new())
+        .y_labels(((top - bottom) / (step / 2.0)) as usize + 1)
+        .y_label_formatter(&|v| format!("{v:.0}"))
+        .y_desc(desc)
+        .axis_desc_style(font(14))
+        .label_style(font(13))
+        .light_line_style(PAPER)
+        .bold_line_style(GRID.stroke_width(1))
+        .axis_style(INK.stroke_width(1))
+        .draw()
+        .map_err(|e| e.to_string())?;
+    let (left, _) = ctx.backend_coord(&(0.0, bottom));
+
+    // Bands: the expected figure ± tolerance, as a grey column per node.
+    for (i, node) in chart.nodes.iter().enumerate() {
+        if let Some((lo, expected, hi)) = node.band {
+            let x0 = i as f64 + 0.22;
+            let x1 = i as f64 + 0.78;
+            ctx.draw_series(std::iter::once(Rectangle::new(
+                [(x0, lo), (x1, hi)],
+                LIGHT.filled(),
+            )))
+            .map_err(|e| e.to_string())?;
+            let a = ctx.backend_coord(&(x0, expected));
+            let b = ctx.backend_coord(&(x1, expected));
+            dashed(&root, a.0, b.0, a.1, INK.stroke_width(1))?;
+        }
+    }
+
+    // One polyline and marker per set, offset sideways so sets sit side by side.
+    let mut labels: Vec<((i32, i32), bool, String)> = Vec::new();
+    let spread = if sets > 1 {
+        0.36 / (sets - 1) as f64
+    } else {
+        0.0
+    };
+    for (k, series) in chart.series.iter().enumerate() {
+        let offset = 0.5 - 0.18 + k as f64 * spread;
+        let offset = if sets == 1 { 0.5 } else { offset };
+        let points: Vec<(i32, i32)> = series
+            .values
+            .iter()
+            .enumerate()
+            .filter_map(|(i, v)| v.map(|v| ctx.backend_coord(&(i as f64 + offset, v))))
+            .collect();
+        if points.len() > 1 {
+            root.draw(&PathElement::new(points.clone(), MID.stroke_width(1)))
+                .map_err(|e| e.to_string())?;
+        }
+        for (i, v) in series.values.iter().enumerate() {
+            let Some(v) = *v else { continue };
+            let p = ctx.backend_coord(&(i as f64 + offset, v));
+            draw_marker(&root, p, marker(k))?;
+            if sets <= 2 {
+                labels.push((p, k == 0, format!("{v:.0}")));
+            }
+        }
+    }
+    // Figures last, each on a white patch so lines and bands stay clear
+    // of them: the first set's to the left of its marker, the second's to
+    // the right.
+    for ((x, y), left, text) in labels {
+        let width = 7 * text.chars().count() as i32 + 4;
+        let (x0, x1, h, tx) = if left {
+            (x - 11 - width, x - 9, HPos::Right, x - 11)
+        } else {
+            (x + 9, x + 11 + width, HPos::Left, x + 11)
+        };
+        root.draw(&Rectangle::new([(x0, y - 8), (x1, y + 8)], PAPER.filled()))
+            .map_err(|e| e.to_string())?;
+        root.draw(&Text::new(text, (tx, y), anchored(12, h, VPos::Center)))
+            .map_err(|e| e.to_string())?;
+    }
+
+    for (i, node) in chart.nodes.iter().enumerate() {
+        let (x, y) = ctx.backend_coord(&(i as f64 + 0.5, bottom));
+        root.draw(&Text::new(
+            label_text(&node.name, 18),
+            (x, y + 8),
+            anchored(13, HPos::Center, VPos::Top),
+        ))
+        .map_err(|e| e.to_string())?;
+    }
+
+    // Legend: the band, then each set's marker.
+    let mut x = left;
+    root.draw(&Rectangle::new([(x, 13), (x + 22, 27)], LIGHT.filled()))
+        .map_err(|e| e.to_string())?;
+    dashed(&root, x, x + 22, 20, INK.stroke_width(1))?;
+    let band_text = "expected ± tolerance";
+    root.draw(&Text::new(
+        band_text,
+        (x + 30, 20),
+        anchored(13, HPos::Left, VPos::Center),
+    ))
+    .map_err(|e| e.to_string())?;
+    x += 30 + 8 * band_text.chars().count() as i32 + 26;
+    for (k, series) in chart.series.iter().enumerate() {
+        draw_marker(&root, (x + 8, 20), marker(k))?;
+        let text = label_text(&series.label, 24);
+        root.draw(&Text::new(
+            text.clone(),
+            (x + 22, 20),
+            anchored(13, HPos::Left, VPos::Center),
+        ))
+        .map_err(|e| e.to_string())?;
+        x += 22 + 8 * text.chars().count() as i32 + 26;
+    }
+    root.present().map_err(|e| e.to_string())?;
+    Ok(())
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// The text content of every `<text>` element, trimmed.
+    fn texts(svg: &str) -> Vec<String> {
+        svg.split("<text")
+            .skip(1)
+            .filter_map(|t| {
+                let start = t.find('>')? + 1;
+                let end = t.find("</text>")?;
+                Some(t[start..end].trim().to_string())
+            })
+            .collect()
+    }
+
+    /// `<rect>` elements filled with `colour` (as `#RRGGBB`).
+    fn rects_filled(svg: &str, colour: &str) -> usize {
+        svg.lines()
+            .filter(|l| l.contains("<rect") && l.contains(&format!("fill=\"{colour}\"")))
+            .count()
+    }
+
+    fn hex(c: RGBColor) -> String {
+        format!("#{:02X}{:02X}{:02X}", c.0, c.1, c.2)
+    }
+
+    fn two_sets() -> DissipationChart {
+        DissipationChart {
+            valves: vec!["V3 EL84".into(), "V4 EL84".into()],
+            series: vec![
+                Series {
+                    label: "as found".into(),
+                    values: vec![Some(121.3), Some(120.6)],
+                },
+                Series {
+                    label: "as left".into(),
+                    values: vec![Some(88.2), None],
+                },
+            ],
+            guide: Guide::Caution { pct: 90.0 },
+        }
+    }
+
+    #[test]
+    fn dissipation_bars_carry_their_figures() {
+        let svg = dissipation_svg(&two_sets()).unwrap();
+        let t = texts(&svg);
+        for want in [
+            "121 %",
+            "88 %",
+            "V3 EL84",
+            "V4 EL84",
+            "as found",
+            "as left",
+            "caution 90 %",
+            "100 % rating",
+        ] {
+            assert!(t.iter().any(|x| x == want), "{want} missing from {t:?}");
+        }
+        // 120.6 rounds to 121 too: two "121 %" labels, and no bar for the missing figure.
+        assert_eq!(t.iter().filter(|x| *x == "121 %").count(), 2);
+        assert_eq!(
+            t.iter()
+                .filter(|x| x.ends_with(" %") && x.chars().next().unwrap().is_ascii_digit())
+                .count(),
+            3
+        );
+        // Three bars plus one legend swatch per set: as found white (hatched), as left dark.
+        assert_eq!(rects_filled(&svg, &hex(DARK)), 1 + 1);
+        assert!(t.iter().any(|x| x == "Plate dissipation, % of rating"));
+    }
+
+    #[test]
+    fn fixed_bias_draws_the_aim_band() {
+        let mut chart = two_sets();
+        chart.guide = Guide::Aim {
+            low_pct: 50.0,
+            high_pct: 70.0,
+        };
+        let svg = dissipation_svg(&chart).unwrap();
+        let t = texts(&svg);
+        assert!(
+            t.iter().any(|x| x == "fixed-bias aim") && t.iter().any(|x| x == "50–70 %"),
+            "{t:?}"
+        );
+        assert!(!t.iter().any(|x| x.starts_with("caution")));
+        assert_eq!(rects_filled(&svg, &hex(LIGHT)), 1);
+    }
+
+    #[test]
+    fn the_axis_reaches_above_the_tallest_bar() {
+        let mut chart = two_sets();
+        chart.series[0].values[0] = Some(187.0);
+        let svg = dissipation_svg(&chart).unwrap();
+        let t = texts(&svg);
+        assert!(t.iter().any(|x| x == "200"), "{t:?}");
+        assert!(t.iter().any(|x| x == "187 %"));
+    }
+
+    #[test]
+    fn supply_chart_marks_bands_and_readings() {
+        let chart = SupplyChart {
+            nodes: vec![
+                SupplyNode {
+                    name: "B+1".into(),
+                    band: Some((314.0, 349.0, 384.0)),
+                },
+                SupplyNode {
+                    name: "B+2".into(),
+                    band: None,
+                },
+            ],
+            series: vec![
+                Series {
+                    label: "as found".into(),
+                    values: vec![Some(345.2), Some(323.0)],
+                },
+                Series {
+                    label: "as left".into(),
+                    values: vec![Some(353.0), None],
+                },
+            ],
+            nominal_volts: 120.0,
+        };
+        let svg = supply_svg(&chart).unwrap();
+        let t = texts(&svg);
+        for want in [
+            "345",
+            "323",
+            "353",
+            "B+1",
+            "B+2",
+            "as found",
+            "as left",
+            "expected ± tolerance",
+            "Volts DC, corrected to 120 V mains",
+        ] {
+            assert!(t.iter().any(|x| x == want), "{want} missing from {t:?}");
+        }
+        // One band column plus the legend swatch.
+        assert_eq!(rects_filled(&svg, &hex(LIGHT)), 2);
+        // Two hollow circles (as found) and their legend; one triangle (as left) and its legend.
+        assert_eq!(svg.matches("<circle").count(), 2 * (2 + 1));
+        assert_eq!(svg.matches("<polygon").count(), 1 + 1);
+    }
+
+    #[test]
+    fn labels_are_cleaned_for_xml_and_cut() {
+        assert_eq!(label_text("V3\u{1}\nEL84", 20), "V3 EL84");
+        assert_eq!(label_text("abcdefghij", 5), "abcd…");
+        let svg = dissipation_svg(&DissipationChart {
+            valves: vec!["<V&3>".into()],
+            series: vec![Series {
+                label: "a \"b\"".into(),
+                values: vec![Some(50.0)],
+            }],
+            guide: Guide::None,
+        })
+        .unwrap();
+        assert!(svg.contains("&lt;V&amp;3&gt;"), "{svg}");
+        assert!(!svg.contains("<V&3>"));
+    }
+}

@@ -1,0 +1,911 @@
+//! Runs the real `ampreport render` (and the real typst) on the demo jobs and
+//! on hostile job files: the PDF must hold the figures `calc --json` gives,
+//! the cautions, every user string literally, be byte-for-byte reproducible
+//! (also from `--emit-source`), and a failed run must leave the destination
+//! folder exactly as it was. Skipped, with a note, only where typst is not
+//! installed (and never under CI, where it must be).
+
+use std::collections::BTreeSet;
+use std::path::{Path, PathBuf};
+use std::process::{Command, Output};
+
+use sha2::{Digest, Sha256};
+
+const BIN: &str = env!("CARGO_BIN_EXE_ampreport");
+const DEMO_JOBS: [&str; 3] = ["combo-el84-cathode", "combo-6v6-fixed", "head-el34-quad"];
+
+fn repo() -> PathBuf {
+    PathBuf::from(env!("CARGO_MANIFEST_DIR"))
+}
+
+fn demo(name: &str) -> PathBuf {
+    repo().join("jobs").join(format!("{name}.kdl"))
+}
+
+/// The typst on this machine (its `--version` line), or `None` with a note.
+fn typst_version() -> Option<String> {
+    match Command::new("typst").arg("--version").output() {
+        Ok(out) if out.status.success() => {
+            let line = String::from_utf8_lossy(&out.stdout)
+                .lines()
+                .next()
+                .unwrap_or("")
+                .to_string();
+            line.split_whitespace().nth(1).map(str::to_string)
+        }
+        _ if std::env::var_os("CI").is_none() => {
+            eprintln!("note: skipping render tests: no typst on PATH");
+            None
+        }
+        _ => panic!("typst is needed for these tests under CI"),
+    }
+}
+
+fn ampreport(args: &[&std::ffi::OsStr]) -> Output {
+    Command::new(BIN)
+        .args(args)
+        .env_remove("AMPREPORT_TYPST")
+        .output()
+        .expect("run ampreport")
+}
+
+fn render(job: &Path, pdf: &Path, extra: &[&str]) -> Output {
+    let mut args: Vec<&std::ffi::OsStr> = vec![
+        "render".as_ref(),
+        job.as_os_str(),
+        "-o".as_ref(),
+        pdf.as_os_str(),
+    ];
+    args.extend(extra.iter().map(|a| std::ffi::OsStr::new(*a)));
+    ampreport(&args)
+}
+
+fn assert_ok(out: &Output, what: &str) {
+    assert!(
+        out.status.success(),
+        "{what} failed with {}:\n{}",
+        out.status,
+        String::from_utf8_lossy(&out.stderr)
+    );
+}
+
+fn pdftotext(pdf: &Path) -> String {
+    pdftotext_mode(pdf, None)
+}
+
+/// `pdftotext` in its reading-order mode, or with a mode flag such as
+/// `-raw` (content-stream order, which keeps a hyphen that ends a line;
+/// the reading-order mode joins such lines and drops the hyphen).
+fn pdftotext_mode(pdf: &Path, mode: Option<&str>) -> String {
+    pdftotext_args(pdf, mode.as_slice())
+}
+
+/// The text above the footer of every A4 page (the bottom margin is 21 mm,
+/// so the body ends 782 pt from the top and the footer text starts 802 pt
+/// down; 798 pt leaves room for descenders), so a field that runs over a page
+/// break reads on without the footer in between.
+fn body_text(pdf: &Path, mode: Option<&str>) -> String {
+    let mut args = vec!["-x", "0", "-y", "0", "-W", "596", "-H", "798"];
+    args.extend(mode);
+    pdftotext_args(pdf, &args)
+}
+
+fn pdftotext_args(pdf: &Path, args: &[&str]) -> String {
+    let out = Command::new("pdftotext")
+        .args(args)
+        .args(["-enc", "UTF-8"])
+        .arg(pdf)
+        .arg("-")
+        .output()
+        .expect("pdftotext (poppler-utils) is needed for these tests");
+    assert!(
+        out.status.success(),
+        "pdftotext failed on {}",
+        pdf.display()
+    );
+    String::from_utf8(out.stdout).unwrap()
+}
+
+fn page_count(pdf: &Path) -> usize {
+    let out = Command::new("pdfinfo")
+        .arg(pdf)
+        .output()
+        .expect("pdfinfo (poppler-utils)");
+    let info = String::from_utf8_lossy(&out.stdout);
+    let line = info
+        .lines()
+        .find(|l| l.starts_with("Pages:"))
+        .expect("pdfinfo prints Pages");
+    line.trim_start_matches("Pages:").trim().parse().unwrap()
+}
+
+/// Drops whitespace (pdftotext rewraps lines; no-break spaces glue numbers
+/// to units), the zero-width spaces the template puts into very long words
+/// so they wrap, and the direction marks pdftotext adds around
+/// right-to-left runs.
+fn normalise(text: &str) -> String {
+    text.chars()
+        .filter(|c| !c.is_whitespace() && *c != '\u{200b}')
+        .filter(|c| !matches!(c, '\u{200e}' | '\u{200f}' | '\u{202a}'..='\u{202e}' | '\u{2066}'..='\u{2069}'))
+        .collect()
+}
+
+/// Files in `dir`, by name.
+fn listing(dir: &Path) -> BTreeSet<String> {
+    std::fs::read_dir(dir)
+        .unwrap()
+        .map(|e| e.unwrap().file_name().to_string_lossy().into_owned())
+        .collect()
+}
+
+fn calc_json(job: &Path) -> serde_json::Value {
+    let out = ampreport(&["calc".as_ref(), job.as_os_str(), "--json".as_ref()]);
+    assert_ok(&out, "calc --json");
+    serde_json::from_slice(&out.stdout).unwrap()
+}
+
+/// The cautions every document carries, as phrases that must appear.
+const CAUTION_PHRASES: &[&str] = &[
+    "MAINS SAFETY: READ BEFORE USING OR OPENING THIS UNIT",
+    "voltages that can kill",
+    "can keep a dangerous charge long after the amplifier is switched off and unplugged",
+    "Only a person trained and equipped for this work should open the chassis",
+    "discharge the capacitors and measure",
+    "Never remove, cut or bypass the protective-earth conductor",
+    "never use an adapter or plug that lifts the earth",
+    "Replace a fuse only with one of the type and rating marked on the unit",
+    "not a certification of electrical safety",
+    "describe the unit on the dates given",
+];
+const DEFERRAL_PHRASES: &[&str] = &[
+    "Local electrical codes come first",
+    "must follow the electrical code and regulations in force where the unit is used",
+    "the practice of a licensed electrician",
+];
+
+#[test]
+fn each_demo_job_renders_with_its_figures_and_cautions() {
+    let Some(typst) = typst_version() else { return };
+    let dir = tempfile::tempdir().unwrap();
+    for name in DEMO_JOBS {
+        let job = demo(name);
+        let pdf = dir.path().join(format!("{name}.pdf"));
+        let out = render(&job, &pdf, &[]);
+        assert_ok(&out, name);
+        let text = pdftotext(&pdf);
+        let flat = normalise(&text);
+        let words: BTreeSet<&str> = text.split_whitespace().collect();
+        let json = calc_json(&job);
+
+        // The unit serial, from the job file itself.
+        let job_text = std::fs::read_to_string(&job).unwrap();
+        let serial = job_text
+            .split("serial=\"")
+            .nth(1)
+            .and_then(|s| s.split('"').next())
+            .unwrap();
+        assert!(text.contains(serial), "{name}: serial {serial} missing");
+
+        // Every valve position of the line-up (all types are rated, so
+        // ratings_used lists every position).
+        let mut positions = 0;
+        for rating in json["ratings_used"].as_array().unwrap() {
+            for p in rating["positions"].as_array().unwrap() {
+                let p = p.as_str().unwrap();
+                assert!(words.contains(p), "{name}: valve position {p} missing");
+                positions += 1;
+            }
+        }
+        assert!(positions >= 5, "{name}: only {positions} positions");
+
+        // Every plate and screen dissipation, to 0.1 W, as a table cell.
+        let mut figures = 0;
+        for set in json["sets"].as_array().unwrap() {
+            for v in set["valves"].as_array().unwrap() {
+                for key in ["plate_dissipation_w", "screen_dissipation_w"] {
+                    if let Some(w) = v[key].as_f64() {
+                        let cell = format!("{w:.1}");
+                        assert!(
+                            words.contains(cell.as_str()),
+                            "{name}: {key} {cell} of {} missing",
+                            v["position"]
+                        );
+                        figures += 1;
+                    }
+                }
+            }
+        }
+        assert!(figures >= 4, "{name}: only {figures} dissipation figures");
+
+        for phrase in CAUTION_PHRASES.iter().chain(DEFERRAL_PHRASES) {
+            assert!(
+                flat.contains(&normalise(phrase)),
+                "{name}: caution text {phrase:?} missing"
+            );
+        }
+        for phrase in [
+            "AT A GLANCE",
+            "Method and assumptions",
+            "from memory of manufacturer data; verify",
+        ] {
+            assert!(
+                flat.contains(&normalise(phrase)),
+                "{name}: {phrase:?} missing"
+            );
+        }
+
+        // Footer: every page says "Page n of m", with the versions and the
+        // job file's checksum.
+        let pages = page_count(&pdf);
+        assert!(pages >= 3, "{name}: {pages} pages");
+        for n in 1..=pages {
+            assert!(
+                flat.contains(&format!("Page{n}of{pages}")),
+                "{name}: footer of page {n} missing"
+            );
+        }
+        let digest: String = Sha256::digest(job_text.as_bytes())
+            .iter()
+            .take(6)
+            .map(|b| format!("{b:02x}"))
+            .collect();
+        assert_eq!(
+            flat.matches(&digest).count(),
+            pages,
+            "{name}: digest {digest} not on every page"
+        );
+        let versions = normalise(&format!(
+            "ampreport {} · typst {typst}",
+            env!("CARGO_PKG_VERSION")
+        ));
+        assert_eq!(
+            flat.matches(&versions).count(),
+            pages,
+            "{name}: versions not on every page"
+        );
+    }
+}
+
+#[test]
+fn the_at_a_glance_panel_names_each_family_with_its_status() {
+    if typst_version().is_none() {
+        return;
+    }
+    let dir = tempfile::tempdir().unwrap();
+    let job = demo("combo-6v6-fixed");
+    let pdf = dir.path().join("glance.pdf");
+    assert_ok(&render(&job, &pdf, &["--typst", "typst"]), "render");
+    let first_page = {
+        let out = Command::new("pdftotext")
+            .args(["-f", "1", "-l", "1", "-enc", "UTF-8"])
+            .arg(&pdf)
+            .arg("-")
+            .output()
+            .unwrap();
+        normalise(&String::from_utf8(out.stdout).unwrap())
+    };
+    let json = calc_json(&job);
+    for family in json["at_a_glance"].as_array().unwrap() {
+        let title = normalise(family["title"].as_str().unwrap());
+        let word = family["status"].as_str().unwrap().to_uppercase();
+        let line = format!("{title}{word}");
+        assert!(first_page.contains(&line), "page 1 lacks {line:?}");
+    }
+}
+
+#[test]
+fn rendering_twice_and_from_emitted_source_gives_identical_bytes() {
+    if typst_version().is_none() {
+        return;
+    }
+    let dir = tempfile::tempdir().unwrap();
+    let job = demo("head-el34-quad");
+    let (a, b) = (dir.path().join("a.pdf"), dir.path().join("b.pdf"));
+    let src = dir.path().join("source");
+    assert_ok(
+        &render(&job, &a, &["--emit-source", src.to_str().unwrap()]),
+        "first render",
+    );
+    assert_ok(&render(&job, &b, &[]), "second render");
+    let bytes = std::fs::read(&a).unwrap();
+    assert!(bytes.starts_with(b"%PDF-"));
+    assert_eq!(bytes, std::fs::read(&b).unwrap(), "two renders differ");
+
+    // The command docs/render.md gives for an emitted folder.
+    assert!(
+        src.join("main.typ").is_file() && src.join("plots").join("plate-dissipation.svg").is_file()
+    );
+    let c = dir.path().join("c.pdf");
+    let root = src.to_str().unwrap();
+    let status = Command::new("typst")
+        .args([
+            "compile",
+            "--root",
+            root,
+            "--font-path",
+            &format!("{root}/fonts"),
+        ])
+        .args(["--ignore-system-fonts", "--ignore-embedded-fonts"])
+        // 2026-11-20, the job's completion date, at 00:00 UTC.
+        .args([
+            "--creation-timestamp",
+            "1795132800",
+            "--pdf-standard",
+            "a-2b",
+        ])
+        .arg(src.join("main.typ"))
+        .arg(&c)
+        .status()
+        .unwrap();
+    assert!(status.success());
+    assert_eq!(
+        bytes,
+        std::fs::read(&c).unwrap(),
+        "typst on the emitted source gives another PDF"
+    );
+}
+
+#[test]
+fn default_output_sits_beside_the_job() {
+    if typst_version().is_none() {
+        return;
+    }
+    let dir = tempfile::tempdir().unwrap();
+    let job = dir.path().join("bench job.kdl");
+    std::fs::copy(demo("combo-el84-cathode"), &job).unwrap();
+    let out = ampreport(&["render".as_ref(), job.as_os_str()]);
+    assert_ok(&out, "render");
+    assert_eq!(
+        listing(dir.path()),
+        BTreeSet::from(["bench job.kdl".to_string(), "bench job.pdf".to_string()])
+    );
+}
+
+/// A KDL 2 quoted string holding exactly `s`.
+fn kdl(s: &str) -> String {
+    let mut out = String::from("\"");
+    for c in s.chars() {
+        match c {
+            '\\' => out.push_str("\\\\"),
+            '"' => out.push_str("\\\""),
+            '\n' => out.push_str("\\n"),
+            '\r' => out.push_str("\\r"),
+            '\t' => out.push_str("\\t"),
+            c if c.is_control() => out.push_str(&format!("\\u{{{:x}}}", c as u32)),
+            c => out.push(c),
+        }
+    }
+    out.push('"');
+    out
+}
+
+/// The free-text fields of a job file, by name.
+const FIELDS: &[&str] = &[
+    "job id",
+    "technician",
+    "customer name",
+    "contact 1",
+    "contact 2",
+    "make",
+    "model",
+    "serial",
+    "description",
+    "condition",
+    "complaint",
+    "findings",
+    "work",
+    "node label",
+    "first set label",
+    "second set label",
+    "heater label",
+    "part was",
+    "part now",
+    "part reason",
+    "mod what",
+    "mod why",
+    "note 1",
+    "note 2",
+];
+
+/// A complete job file whose free-text fields hold `value(field)` and
+/// whose names (positions, nodes, references) are `name(usual name)`.
+fn job_with(value: impl Fn(&str) -> String, name: impl Fn(&str) -> String) -> String {
+    let v = |f: &str| kdl(&value(f));
+    let n = |f: &str| kdl(&name(f));
+    format!(
+        r##"job-format 1
+job id={id} received="2026-03-01" completed="2026-03-04" technician={tech}
+customer name={cust} {{
+    contact {c1}
+    contact {c2}
+}}
+unit make={make} model={model} serial={serial} year=1968 {{
+    description {desc}
+    condition {cond}
+}}
+mains nominal="230V" tolerance="10%"
+complaint {complaint}
+findings {findings}
+work {work}
+valves {{
+    valve {v1} type="12AX7" role=preamp
+    valve {v3} type=EL84 role=output
+    valve {v4} type=EL84 role=output
+}}
+circuit {{
+    bias cathode
+    cathode-resistor {r9} value="130" rating="3W" valves={pair}
+    node {b1} chart="330V" label={label}
+    node {b2} chart="300V"
+    dropper {r10} value="1k" rating="2W" from={b1} to={b2}
+    filter-capacitor {cap1} value="32u" rating="450V" node={b1}
+}}
+measurements {set1} mains="232V" date="2026-03-01" {{
+    node {b1} "331V"
+    node {b2} "302V"
+    valve {v3} plate="320V" screen="300V" cathode="10.1V"
+    valve {v4} plate="320V" screen="300V" cathode="10.1V"
+    heater "6.4V" label={heater}
+}}
+measurements {set2} mains="229V" date="2026-03-04" {{
+    node {b1} "328V"
+    node {b2} "299V"
+    valve {v3} plate="318V" screen="299V" cathode="10.0V"
+    valve {v4} plate="318V" screen="299V" cathode="10.0V"
+}}
+parts {{
+    part {r9} was={was} now={now} reason={reason} original-kept=#true
+}}
+mods {{
+    mod {what} why={why} reversible=#true original-kept=#false
+}}
+safety class=I {{
+    earth-continuity "0.05R" limit="0.1R"
+    insulation "200M" test-voltage="500V" minimum="1M"
+}}
+notes {{
+    note {n1}
+    note {n2}
+}}
+"##,
+        id = v("job id"),
+        tech = v("technician"),
+        cust = v("customer name"),
+        c1 = v("contact 1"),
+        c2 = v("contact 2"),
+        make = v("make"),
+        model = v("model"),
+        serial = v("serial"),
+        desc = v("description"),
+        cond = v("condition"),
+        complaint = v("complaint"),
+        findings = v("findings"),
+        work = v("work"),
+        label = v("node label"),
+        set1 = v("first set label"),
+        set2 = v("second set label"),
+        heater = v("heater label"),
+        was = v("part was"),
+        now = v("part now"),
+        reason = v("part reason"),
+        what = v("mod what"),
+        why = v("mod why"),
+        n1 = v("note 1"),
+        n2 = v("note 2"),
+        v1 = n("V1"),
+        v3 = n("V3"),
+        v4 = n("V4"),
+        pair = kdl(&format!("{} {}", name("V3"), name("V4"))),
+        b1 = n("B+1"),
+        b2 = n("B+2"),
+        r9 = n("R9"),
+        r10 = n("R10"),
+        cap1 = n("C1"),
+    )
+}
+
+/// Hostile and multilingual strings.
+fn corpus() -> Vec<(&'static str, String)> {
+    let cases: &[(&str, &str)] = &[
+        ("markup characters", "# $ * _ ` < > @ = - + / \\ [ ] ~ \""),
+        ("read", "#read(\"/etc/passwd\")"),
+        ("include", "#include \"x\""),
+        ("code block", "#{ panic(\"no\") } #let x = 1"),
+        ("math", "$x$ and $5 off$"),
+        ("label", "<label>"),
+        ("reference", "@ref"),
+        ("line comment", "// not a comment"),
+        ("block comment", "/* not a comment */"),
+        ("strong and emphasis", "*$5 off* <x> @y _em_"),
+        ("heading after newline", "first line\n= Heading"),
+        (
+            "lists after newline",
+            "notes:\n- item\n+ item\n1. item\n/ Term: d",
+        ),
+        ("backslash at end", "C:\\temp\\"),
+        ("unicode escape", "\\u{41}"),
+        ("raw", "`raw` ```rust code```"),
+        ("shorthands", "a -- b --- c ... d -? e -1 ~"),
+        ("brackets", "] [ ) ( } {"),
+        ("quotes", "\"quoted\" and 'single'"),
+        ("blank lines", "one\n\ntwo\r\n\r\nthree"),
+        ("Greek", "Καλημέρα κόσμε"),
+        ("Cyrillic", "Съешь же ещё этих булок"),
+        ("Arabic", "مرحبا بالعالم"),
+        ("Hebrew", "שלום עולם"),
+        ("Devanagari", "नमस्ते दुनिया"),
+        ("Chinese", "你好世界，电子管放大器"),
+        ("empty", ""),
+    ];
+    cases.iter().map(|(n, t)| (*n, t.to_string())).collect()
+}
+
+/// Letters only, so the markers are strong left-to-right text and bidi
+/// reordering around Arabic or Hebrew cannot move them: `n` as `a`…`z`, `aa`….
+fn letters(mut n: usize) -> String {
+    let mut out = String::new();
+    loop {
+        out.insert(0, (b'a' + (n % 26) as u8) as char);
+        if n < 26 {
+            return out;
+        }
+        n = n / 26 - 1;
+    }
+}
+
+/// Renders a job whose every free-text field holds every case, each case
+/// between markers naming the field and the case, and checks that the text
+/// of the PDF holds each one, literally, for every field. A case counts as
+/// found in the reading-order extraction or, for left-to-right text only,
+/// the content-stream one (which keeps hyphens at line ends).
+fn check_corpus_job(cases: &[(&str, String)], tag: &str) {
+    let dir = tempfile::tempdir().unwrap();
+    let wrap = |f: usize, c: usize, s: &str| {
+        let (f, c) = (letters(f).to_uppercase(), letters(c).to_uppercase());
+        format!("Zf{f}c{c}Z{s}Zc{c}f{f}Z")
+    };
+    let text = job_with(
+        |field| {
+            let f = FIELDS.iter().position(|x| *x == field).unwrap();
+            cases
+                .iter()
+                .enumerate()
+                .map(|(c, (_, s))| wrap(f, c, s))
+                .collect::<Vec<_>>()
+                .join(" ")
+        },
+        str::to_string,
+    );
+    let job = dir.path().join(format!("{tag}.kdl"));
+    std::fs::write(&job, &text).unwrap();
+    let pdf = dir.path().join(format!("{tag}.pdf"));
+    let out = render(&job, &pdf, &[]);
+    assert_ok(&out, tag);
+    let reading = normalise(&body_text(&pdf, None));
+    let raw = normalise(&body_text(&pdf, Some("-raw")));
+    let mut missing = Vec::new();
+    for (f, field) in FIELDS.iter().enumerate() {
+        for (c, (case, s)) in cases.iter().enumerate() {
+            let want = normalise(&wrap(f, c, s));
+            let rtl = s.chars().any(|ch| matches!(ch, '\u{0590}'..='\u{08FF}'));
+            if !(reading.contains(&want) || (!rtl && raw.contains(&want))) {
+                missing.push(format!("{field} / {case}"));
+            }
+        }
+    }
+    if !missing.is_empty() && std::env::var_os("SHOW_EXTRACTED").is_some() {
+        eprintln!("{reading}");
+    }
+    assert!(
+        missing.is_empty(),
+        "{tag}: not printed literally:\n  {}",
+        missing.join("\n  ")
+    );
+}
+
+#[test]
+fn hostile_text_in_every_field_prints_literally() {
+    if typst_version().is_none() {
+        return;
+    }
+    check_corpus_job(&corpus(), "corpus");
+}
+
+/// Whether `pieces` occur in `hay` in this order (other text may come
+/// between them).
+fn in_order(hay: &str, pieces: &[String]) -> bool {
+    let mut at = 0;
+    for piece in pieces {
+        match hay[at..].find(piece.as_str()) {
+            Some(i) => at += i + piece.len(),
+            None => return false,
+        }
+    }
+    true
+}
+
+#[test]
+fn very_long_text_in_every_field_prints_in_full() {
+    if typst_version().is_none() {
+        return;
+    }
+    // A long paragraph and a long unbroken word in every field. They run
+    // over page breaks and through table rows, so other cells and repeated
+    // table headers can come between their pieces in the extracted text:
+    // the check is that every word is there, in order, between the
+    // field's own markers.
+    let mut long = String::new();
+    let mut i = 0;
+    while long.len() < 3000 {
+        long.push_str(&format!("w{i}; "));
+        i += 1;
+    }
+    let unbroken: String = (0..400)
+        .map(|i| char::from(b'a' + (i % 26) as u8))
+        .collect();
+    let dir = tempfile::tempdir().unwrap();
+    let open = |f: usize| format!("ZzOPEN{}Z", letters(f).to_uppercase());
+    let close = |f: usize| format!("ZzCLOSE{}Z", letters(f).to_uppercase());
+    let text = job_with(
+        |field| {
+            let f = FIELDS.iter().position(|x| *x == field).unwrap();
+            format!("{} {long} {unbroken} {}", open(f), close(f))
+        },
+        str::to_string,
+    );
+    let job = dir.path().join("long.kdl");
+    std::fs::write(&job, &text).unwrap();
+    let pdf = dir.path().join("long.pdf");
+    assert_ok(&render(&job, &pdf, &[]), "long text");
+    let got = normalise(&body_text(&pdf, None));
+    let mut missing = Vec::new();
+    for (f, field) in FIELDS.iter().enumerate() {
+        let mut pieces = vec![open(f)];
+        pieces.extend(long.split_whitespace().map(normalise));
+        pieces.push(unbroken.clone());
+        pieces.push(close(f));
+        if !in_order(&got, &pieces) {
+            missing.push(*field);
+        }
+    }
+    assert!(
+        missing.is_empty(),
+        "long text not printed in full in: {missing:?}"
+    );
+}
+
+#[test]
+fn empty_text_fields_render() {
+    if typst_version().is_none() {
+        return;
+    }
+    let dir = tempfile::tempdir().unwrap();
+    let job = dir.path().join("empty.kdl");
+    // Two sets need distinct labels; every other field is empty.
+    let text = job_with(
+        |f| match f {
+            "first set label" => "a".into(),
+            "second set label" => "b".into(),
+            _ => String::new(),
+        },
+        str::to_string,
+    );
+    std::fs::write(&job, text).unwrap();
+    let pdf = dir.path().join("empty.pdf");
+    assert_ok(&render(&job, &pdf, &[]), "empty fields");
+    assert!(normalise(&pdftotext(&pdf)).contains(&normalise(CAUTION_PHRASES[0])));
+}
+
+#[test]
+fn hostile_names_reach_tables_and_charts_literally() {
+    if typst_version().is_none() {
+        return;
+    }
+    // Valve names go into a space-separated list, so they hold no spaces.
+    let names = [
+        ("V1", "V1_*x*"),
+        ("V3", "V<3>&\"#x\""),
+        ("V4", "V4#read(\"/etc/passwd\")"),
+        ("B+1", "B+1 $x$ </svg>"),
+        ("B+2", "@B2 // *"),
+        ("R9", "R9 #include \"x\""),
+        ("R10", "R10 ]["),
+        ("C1", "C1 'ü' Ω"),
+    ];
+    let text = job_with(
+        |f| match f {
+            "first set label" => "as found".into(),
+            "second set label" => "as left".into(),
+            _ => "plain".into(),
+        },
+        |usual| {
+            names
+                .iter()
+                .find(|(u, _)| *u == usual)
+                .map(|(_, h)| h.to_string())
+                .unwrap()
+        },
+    );
+    let dir = tempfile::tempdir().unwrap();
+    let job = dir.path().join("names.kdl");
+    std::fs::write(&job, &text).unwrap();
+    let check = ampreport(&["check".as_ref(), job.as_os_str()]);
+    assert_ok(&check, &format!("check of\n{text}"));
+    let pdf = dir.path().join("names.pdf");
+    assert_ok(&render(&job, &pdf, &[]), "render");
+    let got = normalise(&pdftotext(&pdf));
+    for (_, hostile) in names {
+        assert!(got.contains(&normalise(hostile)), "{hostile:?} missing");
+    }
+}
+
+#[test]
+fn a_failing_typst_leaves_the_folder_as_it_was() {
+    if typst_version().is_none() {
+        return;
+    }
+    let dir = tempfile::tempdir().unwrap();
+    let job = dir.path().join("job.kdl");
+    std::fs::copy(demo("combo-6v6-fixed"), &job).unwrap();
+    let pdf = dir.path().join("job.pdf");
+    std::fs::write(&pdf, b"%PDF-1.7 the good old document").unwrap();
+    let before = listing(dir.path());
+
+    // Not typst at all: refused at the version check.
+    let out = render(&job, &pdf, &["--typst", "/bin/false"]);
+    assert_eq!(
+        out.status.code(),
+        Some(3),
+        "{}",
+        String::from_utf8_lossy(&out.stderr)
+    );
+    assert_eq!(
+        std::fs::read(&pdf).unwrap(),
+        b"%PDF-1.7 the good old document"
+    );
+    assert_eq!(listing(dir.path()), before);
+
+    // A typst that answers like one and then fails to compile.
+    let fake_dir = tempfile::tempdir().unwrap();
+    let fake = fake_dir.path().join("typst");
+    std::fs::write(
+        &fake,
+        "#!/bin/sh\nif [ \"$1\" = --version ]; then echo 'typst 0.15.1 (fake)'; exit 0; fi\n\
+         echo 'error: the press is out of ink' >&2\nexit 1\n",
+    )
+    .unwrap();
+    make_executable(&fake);
+    let out = render(&job, &pdf, &["--typst", fake.to_str().unwrap()]);
+    let stderr = String::from_utf8_lossy(&out.stderr);
+    assert_eq!(out.status.code(), Some(3), "{stderr}");
+    assert!(
+        stderr.contains("the press is out of ink"),
+        "typst's message missing: {stderr}"
+    );
+    assert_eq!(
+        std::fs::read(&pdf).unwrap(),
+        b"%PDF-1.7 the good old document"
+    );
+    assert_eq!(listing(dir.path()), before, "stray files beside the PDF");
+    // The generated source is kept for inspection, and its folder named.
+    let kept = kept_folder(&stderr).expect("the kept folder is named");
+    assert!(kept.join("main.typ").is_file(), "{}", kept.display());
+    std::fs::remove_dir_all(kept).unwrap();
+}
+
+/// The folder a failed compile left for inspection, as named on stderr.
+fn kept_folder(stderr: &str) -> Option<PathBuf> {
+    let rest = stderr.split("kept for inspection in ").nth(1)?;
+    let path: String = rest
+        .split(';')
+        .next()?
+        .split_whitespace()
+        .collect::<Vec<_>>()
+        .join("");
+    Some(PathBuf::from(path))
+}
+
+#[cfg(unix)]
+fn make_executable(path: &Path) {
+    use std::os::unix::fs::PermissionsExt;
+    std::fs::set_permissions(path, std::fs::Permissions::from_mode(0o755)).unwrap();
+    // Another test thread forking while the script was open for writing can
+    // make it briefly "text file busy"; wait until it runs.
+    for _ in 0..200 {
+        match Command::new(path).arg("--version").output() {
+            Err(e) if e.raw_os_error() == Some(26) => {
+                std::thread::sleep(std::time::Duration::from_millis(10))
+            }
+            _ => break,
+        }
+    }
+}
+
+#[test]
+fn without_typst_the_install_command_is_named() {
+    let dir = tempfile::tempdir().unwrap();
+    let empty = tempfile::tempdir().unwrap();
+    let pdf = dir.path().join("x.pdf");
+    let out = Command::new(BIN)
+        .args([
+            "render".as_ref(),
+            demo("combo-el84-cathode").as_os_str(),
+            "-o".as_ref(),
+            pdf.as_os_str(),
+        ])
+        .env("PATH", empty.path())
+        .env_remove("AMPREPORT_TYPST")
+        .output()
+        .unwrap();
+    let stderr = String::from_utf8_lossy(&out.stderr);
+    assert_eq!(out.status.code(), Some(3), "{stderr}");
+    assert!(
+        stderr.contains("cargo install --locked typst-cli"),
+        "{stderr}"
+    );
+    assert!(listing(dir.path()).is_empty());
+}
+
+#[test]
+fn a_shop_template_folder_overrides_the_built_in_one() {
+    if typst_version().is_none() {
+        return;
+    }
+    let dir = tempfile::tempdir().unwrap();
+    let templates = dir.path().join("templates");
+    std::fs::create_dir_all(templates.join("images")).unwrap();
+    std::fs::write(
+        templates.join("handover.typ"),
+        "{{ font_rules }}\nShop copy for {{ unit.serial }}: {{ sets|length }} sets, {{ glance.overall }}.\n\
+         #image(\"images/mark.svg\", width: 2cm)\n",
+    )
+    .unwrap();
+    std::fs::write(
+        templates.join("images").join("mark.svg"),
+        r#"<svg xmlns="http://www.w3.org/2000/svg" width="20" height="20"><rect width="20" height="20"/></svg>"#,
+    )
+    .unwrap();
+    let pdf = dir.path().join("shop.pdf");
+    let job = demo("combo-el84-cathode");
+    assert_ok(
+        &render(&job, &pdf, &["--templates", templates.to_str().unwrap()]),
+        "shop template",
+    );
+    let text = pdftotext(&pdf);
+    assert!(
+        text.contains("Shop copy for DU15-04417: 2 sets, caution."),
+        "{text}"
+    );
+
+    // A broken shop template is the shop's input: status 1, PDF untouched.
+    std::fs::write(
+        templates.join("handover.typ"),
+        "{{ font_rules }}\n{{ no_such_variable }}\n",
+    )
+    .unwrap();
+    let before = std::fs::read(&pdf).unwrap();
+    let out = render(&job, &pdf, &["--templates", templates.to_str().unwrap()]);
+    assert_eq!(
+        out.status.code(),
+        Some(1),
+        "{}",
+        String::from_utf8_lossy(&out.stderr)
+    );
+    assert_eq!(std::fs::read(&pdf).unwrap(), before);
+    std::fs::write(
+        templates.join("handover.typ"),
+        "{{ font_rules }}\n#nonexistent()\n",
+    )
+    .unwrap();
+    let out = render(&job, &pdf, &["--templates", templates.to_str().unwrap()]);
+    let stderr = String::from_utf8_lossy(&out.stderr);
+    assert_eq!(out.status.code(), Some(1), "{stderr}");
+    assert!(
+        stderr.contains("nonexistent"),
+        "typst's diagnostics missing: {stderr}"
+    );
+    assert_eq!(std::fs::read(&pdf).unwrap(), before);
+    if let Some(kept) = kept_folder(&stderr) {
+        std::fs::remove_dir_all(kept).unwrap();
+    }
+}
