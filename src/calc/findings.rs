@@ -79,6 +79,7 @@ pub struct SettingsUsed {
     pub heater_tolerance_pct: f64,
     pub node_tolerance_pct: f64,
     pub silicon_drop_volts: f64,
+    pub voltage_over_pct: f64,
 }
 
 #[derive(Debug, Clone, Serialize)]

@@ -97,6 +97,7 @@ pub fn derive(job: &Job, ratings: &RatingsTable) -> Findings {
             heater_tolerance_pct: settings.heater_tolerance * 100.0,
             node_tolerance_pct: settings.node_tolerance * 100.0,
             silicon_drop_volts: settings.silicon_drop.0,
+            voltage_over_pct: settings.voltage_over * 100.0,
         },
         sets,
         safety,

@@ -204,11 +204,11 @@ pub(crate) fn analyse(
     if let (Some(va), Some(max)) = (va, rating.plate_voltage) {
         let pct = va / max * 100.0;
         f.plate_voltage_pct = Some(pct);
-        checks.push(Check { check: "plate_voltage", verdict: max_verdict("plate voltage", va, high(va), max) });
+        checks.push(Check { check: "plate_voltage", verdict: max_verdict("plate voltage", va, high(va), max, ctx.settings.voltage_over) });
     }
     if let (Some(vg2), Some(max)) = (vg2, rating.screen_voltage) {
         f.screen_voltage_pct = Some(vg2 / max * 100.0);
-        checks.push(Check { check: "screen_voltage", verdict: max_verdict("screen voltage", vg2, high(vg2), max) });
+        checks.push(Check { check: "screen_voltage", verdict: max_verdict("screen voltage", vg2, high(vg2), max, ctx.settings.voltage_over) });
     }
     if let (Some(ik), Some(max)) = (current.as_ref().and_then(|c| c.ik.or(Some(c.ia))), rating.cathode_current) {
         let pct = ik / max * 100.0;
@@ -323,21 +323,19 @@ fn dissipation_verdict(
     }
 }
 
-/// How far above a published voltage maximum a reading may go before it
-/// counts as over rather than caution. Common practice: guitar amplifiers
-/// often run output valves somewhat above the design-centre voltage
-/// maxima; plate dissipation, checked separately, governs valve life.
-pub const VOLTAGE_OVER_FACTOR: f64 = 1.20;
-
-fn max_verdict(what: &str, v: Volts, high: Volts, max: Volts) -> Verdict {
+/// A voltage against its published maximum: caution above it (or when the
+/// high-line projection passes it), over more than `over` (a fraction,
+/// [`Settings::voltage_over`]) above it.
+fn max_verdict(what: &str, v: Volts, high: Volts, max: Volts, over: f64) -> Verdict {
+    let factor = 1.0 + over;
     let max_words = format_engineering(max.0, crate::units::QuantityKind::Voltage);
     let threshold = format!(
         "caution above the {max_words} maximum (or when the high-line projection is above it), over above {:.0} % of it",
-        VOLTAGE_OVER_FACTOR * 100.0
+        factor * 100.0
     );
     let pct = v / max * 100.0;
     let v_words = format_engineering(v.0, crate::units::QuantityKind::Voltage);
-    if v.0 > max.0 * VOLTAGE_OVER_FACTOR {
+    if v.0 > max.0 * factor {
         Verdict::new(Status::Over, format!("{what} {v_words} is {pct:.0} % of its {max_words} maximum"), threshold)
     } else if v.0 > max.0 {
         Verdict::new(Status::Caution, format!("{what} {v_words} is {pct:.0} % of its {max_words} maximum"), threshold)
@@ -537,7 +535,7 @@ mod tests {
     fn voltage_maxima() {
         // Va(max) 300 V (EL84, from memory). Common practice in this tool: caution above the maximum or
         // when the high-line projection passes it, over above 120 % of it.
-        let s = |v: f64, high: f64| max_verdict("plate voltage", Volts(v), Volts(high), Volts(300.0)).status;
+        let s = |v: f64, high: f64| max_verdict("plate voltage", Volts(v), Volts(high), Volts(300.0), Settings::default().voltage_over).status;
         assert_eq!(s(290.0, 299.0), Status::Ok);
         assert_eq!(s(290.0, 304.5), Status::Caution); // 290 V × 1.05 = 304.5 V at high line
         assert_eq!(s(301.0, 301.0), Status::Caution);

@@ -58,6 +58,7 @@ pub const SETTINGS: &[&str] = &[
     "heater-tolerance",
     "node-tolerance",
     "silicon-drop",
+    "voltage-over",
 ];
 
 /// Decodes job text whose KDL syntax has already parsed.
@@ -818,6 +819,7 @@ fn decode_settings(node: &KdlNode, r: &mut Reader) -> Settings {
             "capacitor-margin" => s.capacitor_margin = f,
             "heater-tolerance" => s.heater_tolerance = f,
             "node-tolerance" => s.node_tolerance = f,
+            "voltage-over" => s.voltage_over = f,
             _ => {}
         }
     }

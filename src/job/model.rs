@@ -479,6 +479,12 @@ pub struct Settings {
     pub node_tolerance: f64,
     /// Silicon rectifier forward drop at no load. Common practice: about 1 V.
     pub silicon_drop: Volts,
+    /// How far above a published plate or screen voltage maximum a reading
+    /// may go before it counts as over rather than caution. Common practice
+    /// (this tool's default): 20 %, since guitar amplifiers often run output
+    /// valves above the design-centre voltage maxima and plate dissipation,
+    /// checked separately, governs valve life.
+    pub voltage_over: f64,
 }
 
 impl Default for Settings {
@@ -492,6 +498,7 @@ impl Default for Settings {
             heater_tolerance: 0.10,
             node_tolerance: 0.10,
             silicon_drop: Volts(1.0),
+            voltage_over: 0.20,
         }
     }
 }

@@ -350,6 +350,8 @@ pub struct Method {
     pub heater_tolerance: String,
     pub node_tolerance: String,
     pub silicon_drop: String,
+    /// How far above a voltage maximum counts as over ("20 %").
+    pub voltage_over: String,
     /// Which assumptions this job's figures lean on.
     pub uses_conservative_rule: bool,
     pub uses_shared_cathode: bool,
@@ -1092,6 +1094,7 @@ fn method(job: &Job, findings: &Findings) -> Method {
         heater_tolerance: format!("±{} %", pct0(s.heater_tolerance_pct)),
         node_tolerance: format!("±{} %", pct0(s.node_tolerance_pct)),
         silicon_drop: volts(s.silicon_drop_volts),
+        voltage_over: format!("{} %", pct0(s.voltage_over_pct)),
         uses_conservative_rule: valves()
             .any(|v| v.plate_current_includes_screen && v.plate_current_ma.is_some()),
         uses_shared_cathode: valves()
