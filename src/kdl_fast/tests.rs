@@ -1,0 +1,1 @@
+//! Unit tests of the fast KDL parser, one feature at a time.
