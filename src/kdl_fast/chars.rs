@@ -7,13 +7,8 @@
 pub(super) fn is_space(c: char) -> bool {
     matches!(
         c,
-        '\t' | ' '
-            | '\u{A0}'
-            | '\u{1680}'
-            | '\u{2000}'..='\u{200A}'
-            | '\u{202F}'
-            | '\u{205F}'
-            | '\u{3000}'
+        '\t' | ' ' | '\u{A0}' | '\u{1680}' | '\u{2000}'
+            ..='\u{200A}' | '\u{202F}' | '\u{205F}' | '\u{3000}'
     )
 }
 
@@ -78,7 +73,12 @@ pub(super) fn newline_len(bytes: &[u8], at: usize) -> usize {
         }
         Some(b'\n' | 0x0B | 0x0C) => 1,
         Some(0xC2) if bytes.get(at + 1) == Some(&0x85) => 2,
-        Some(0xE2) if bytes.get(at + 1) == Some(&0x80) && matches!(bytes.get(at + 2), Some(0xA8 | 0xA9)) => 3,
+        Some(0xE2)
+            if bytes.get(at + 1) == Some(&0x80)
+                && matches!(bytes.get(at + 2), Some(0xA8 | 0xA9)) =>
+        {
+            3
+        }
         _ => 0,
     }
 }

@@ -16,14 +16,25 @@ pub(super) struct Reject;
 pub(super) type R<T> = Result<T, Reject>;
 
 /// How deeply child blocks and slashdash comments may nest before the fast
-/// parser declines (the stack stays small whatever the input).
-const MAX_DEPTH: u32 = 64;
+/// parser declines, so that its stack stays small whatever the input.
+pub(super) const MAX_DEPTH: u32 = 128;
 
 pub(super) struct Parser<'a> {
     pub(super) src: &'a str,
     pub(super) bytes: &'a [u8],
     pub(super) pos: usize,
     depth: u32,
+    /// Entries of the nodes being read, innermost last; each node takes
+    /// its own off the top into a vector of exactly the right size.
+    entries: Vec<KdlEntry>,
+    /// Nodes of the documents being read, likewise.
+    nodes: Vec<KdlNode>,
+    /// An empty node without formatting, cloned for each node read (which
+    /// allocates nothing, unlike `KdlNode::new`).
+    blank: KdlNode,
+    /// An empty entry with empty formatting, cloned for each entry read, so
+    /// that entries are filled in where they lie.
+    blank_entry: KdlEntry,
 }
 
 pub(super) fn span(start: usize, end: usize) -> SourceSpan {
@@ -40,11 +51,19 @@ pub(super) struct Value<'a> {
 
 impl<'a> Parser<'a> {
     pub(super) fn new(src: &'a str) -> Self {
+        let mut blank = KdlNode::new("");
+        blank.clear_format();
+        let mut blank_entry = KdlEntry::new(KdlValue::Null);
+        blank_entry.set_format(KdlEntryFormat::default());
         Parser {
             src,
             bytes: src.as_bytes(),
             pos: 0,
             depth: 0,
+            entries: Vec::new(),
+            nodes: Vec::new(),
+            blank,
+            blank_entry,
         }
     }
 
@@ -68,7 +87,11 @@ impl<'a> Parser<'a> {
 
     fn enter(&mut self) -> R<()> {
         self.depth += 1;
-        if self.depth > MAX_DEPTH { Err(Reject) } else { Ok(()) }
+        if self.depth > MAX_DEPTH {
+            Err(Reject)
+        } else {
+            Ok(())
+        }
     }
 
     fn leave(&mut self) {
@@ -83,7 +106,11 @@ impl<'a> Parser<'a> {
             self.pos += 3;
         }
         let doc = self.nodes()?;
-        if self.pos == self.bytes.len() { Ok(doc) } else { Err(Reject) }
+        if self.pos == self.bytes.len() {
+            Ok(doc)
+        } else {
+            Err(Reject)
+        }
     }
 
     /// `nodes := (line-space | slashdash node)* (node terminator ...)* ...`
@@ -92,15 +119,13 @@ impl<'a> Parser<'a> {
         self.leading()?;
         let start = self.pos;
         let mut end = start;
-        let mut doc = KdlDocument::new();
-        let list = doc.nodes_mut();
+        let mark = self.nodes.len();
         loop {
             if self.at_close_or_end() {
                 break;
             }
-            let node = self.base_node()?;
+            self.base_node()?;
             end = self.pos;
-            list.push(node);
             if !self.node_terminator() {
                 // What follows may only be trailing space and slashdashed
                 // nodes; the caller checks for `}` or the end.
@@ -108,6 +133,10 @@ impl<'a> Parser<'a> {
                 break;
             }
             self.leading()?;
+        }
+        let mut doc = KdlDocument::new();
+        if self.nodes.len() > mark {
+            *doc.nodes_mut() = self.nodes.drain(mark..).collect();
         }
         doc.set_span(span(start, end));
         Ok(doc)
@@ -126,7 +155,9 @@ impl<'a> Parser<'a> {
                     return Err(Reject);
                 }
                 self.enter()?;
+                let mark = self.nodes.len();
                 self.base_node()?;
+                self.nodes.truncate(mark);
                 self.leave();
                 continue;
             }
@@ -153,9 +184,11 @@ impl<'a> Parser<'a> {
         }
     }
 
-    /// A node's type, name, entries and children, and the space after them.
-    /// The caller has checked that the text is not at `}` or the end.
-    fn base_node(&mut self) -> R<KdlNode> {
+    /// A node's type, name, entries and children, and the space after them,
+    /// pushed onto `self.nodes` (it is built there, in place, as nodes and
+    /// entries are large). The caller has checked that the text is not at
+    /// `}` or the end.
+    fn base_node(&mut self) -> R<()> {
         let start = self.pos;
         let ty = match self.byte() {
             Some(b'{') => return Err(Reject),
@@ -164,33 +197,36 @@ impl<'a> Parser<'a> {
         };
         self.node_space0()?;
         let name = self.identifier()?.ok_or(Reject)?;
-        let mut node = KdlNode::new(name);
+        let at = self.nodes.len();
+        self.nodes.push(self.blank.clone());
+        self.nodes[at].set_name(name);
         if let Some(ty) = ty {
-            node.set_ty(ty);
+            self.nodes[at].set_ty(ty);
         }
-        let entries = node.entries_mut();
+        let mark = self.entries.len();
         while self.starts_node_space() {
             let save = self.pos;
-            match self.node_entry()? {
-                Some(entry) => entries.push(entry),
-                None => {
-                    self.pos = save;
-                    break;
-                }
+            if !self.node_entry()? {
+                self.pos = save;
+                break;
             }
+        }
+        if self.entries.len() > mark {
+            let entries = self.entries.drain(mark..).collect();
+            *self.nodes[at].entries_mut() = entries;
         }
         self.before_children()?;
         if self.byte() == Some(b'{') {
             let children = self.node_children()?;
-            node.set_children(children);
+            self.nodes[at].set_children(children);
             let save = self.pos;
             if !self.slashdashed_children()? {
                 self.pos = save;
             }
         }
         self.node_space0()?;
-        node.set_span(span(start, self.pos));
-        Ok(node)
+        self.nodes[at].set_span(span(start, self.pos));
+        Ok(())
     }
 
     /// `{ nodes }`
@@ -258,8 +294,11 @@ impl<'a> Parser<'a> {
     /// match (the caller resets).
     fn slashdashed_entries(&mut self) -> R<bool> {
         self.enter()?;
+        let mark = self.entries.len();
         self.slashdash()?;
-        if self.node_entry()?.is_none() {
+        let found = self.node_entry()?;
+        self.entries.truncate(mark);
+        if !found {
             self.leave();
             return Ok(false);
         }
@@ -270,7 +309,9 @@ impl<'a> Parser<'a> {
                 break;
             }
             self.slashdash()?;
-            if self.node_entry()?.is_none() {
+            let found = self.node_entry()?;
+            self.entries.truncate(mark);
+            if !found {
                 self.pos = save;
                 break;
             }
@@ -280,8 +321,9 @@ impl<'a> Parser<'a> {
     }
 
     /// One argument or property, with the space and slashdashed entries
-    /// before it. `None` means no entry here (the caller resets).
-    fn node_entry(&mut self) -> R<Option<KdlEntry>> {
+    /// before it, pushed onto `self.entries`. `false` means no entry here
+    /// (the caller resets).
+    fn node_entry(&mut self) -> R<bool> {
         self.node_space0()?;
         if self.starts(b"/-") {
             let save = self.pos;
@@ -290,7 +332,7 @@ impl<'a> Parser<'a> {
             }
         }
         let start = self.pos;
-        let mut entry = if let Some(text) = self.string_token()? {
+        let (name, value) = if let Some(text) = self.string_token()? {
             let name_end = self.pos;
             self.node_space0()?;
             if self.byte() == Some(b'=') {
@@ -299,29 +341,37 @@ impl<'a> Parser<'a> {
                 let value = self.value()?.ok_or(Reject)?;
                 let mut name = KdlIdentifier::from(text.into_owned());
                 name.set_span(span(start, name_end));
-                let mut e = KdlEntry::new_prop(name, value.value);
-                if let Some(ty) = value.ty {
-                    e.set_ty(ty);
-                }
-                set_repr(&mut e, value.raw);
-                e
+                (Some(name), value)
             } else {
                 self.pos = name_end;
-                let mut e = KdlEntry::new(KdlValue::String(text.into_owned()));
-                set_repr(&mut e, &self.src[start..name_end]);
-                e
+                let value = Value {
+                    ty: None,
+                    value: KdlValue::String(text.into_owned()),
+                    raw: &self.src[start..name_end],
+                };
+                (None, value)
             }
         } else {
-            let Some(value) = self.value()? else { return Ok(None) };
-            let mut e = KdlEntry::new(value.value);
-            if let Some(ty) = value.ty {
-                e.set_ty(ty);
-            }
-            set_repr(&mut e, value.raw);
-            e
+            let Some(value) = self.value()? else {
+                return Ok(false);
+            };
+            (None, value)
         };
+        let at = self.entries.len();
+        self.entries.push(self.blank_entry.clone());
+        let entry = &mut self.entries[at];
+        entry.set_value(value.value);
+        if name.is_some() {
+            entry.set_name(name);
+        }
+        if let Some(ty) = value.ty {
+            entry.set_ty(ty);
+        }
+        if let Some(format) = entry.format_mut() {
+            format.value_repr = value.raw.to_string();
+        }
         entry.set_span(span(start, self.pos));
-        Ok(Some(entry))
+        Ok(true)
     }
 
     /// `type := '(' node-space* string node-space* ')'`
@@ -479,11 +529,4 @@ impl<'a> Parser<'a> {
             }
         }
     }
-}
-
-fn set_repr(entry: &mut KdlEntry, raw: &str) {
-    entry.set_format(KdlEntryFormat {
-        value_repr: raw.to_string(),
-        ..Default::default()
-    });
 }

@@ -7,7 +7,9 @@ use std::borrow::Cow;
 
 use kdl::{KdlIdentifier, KdlValue};
 
-use super::chars::{IDENT_ASCII, is_disallowed, is_ident_char, is_newline, is_space, newline_len, space_len};
+use super::chars::{
+    IDENT_ASCII, is_disallowed, is_ident_char, is_newline, is_space, newline_len, space_len,
+};
 use super::parser::{Parser, R, Reject, Value, span};
 
 impl<'a> Parser<'a> {
@@ -59,7 +61,9 @@ impl<'a> Parser<'a> {
     /// `identifier-string := unambiguous-ident | signed-ident | dotted-ident`
     fn bare_identifier(&mut self) -> R<Option<&'a str>> {
         let start = self.pos;
-        let Some(first) = self.char_here() else { return Ok(None) };
+        let Some(first) = self.char_here() else {
+            return Ok(None);
+        };
         let mut p = start;
         let unambiguous = match first {
             '0'..='9' => return Ok(None),
@@ -206,18 +210,12 @@ impl<'a> Parser<'a> {
                 return Ok(Some(c));
             }
             _ => {
-                let blank = space_len(self.src, next) + newline_len(self.bytes, next);
-                if blank == 0 {
+                let end = self.blank_run(next);
+                if end == next {
                     return Err(Reject);
                 }
-                self.pos = next;
-                loop {
-                    let n = space_len(self.src, self.pos) + newline_len(self.bytes, self.pos);
-                    if n == 0 {
-                        return Ok(None);
-                    }
-                    self.pos += n;
-                }
+                self.pos = end;
+                return Ok(None);
             }
         };
         self.pos = next + 1;
@@ -232,9 +230,23 @@ impl<'a> Parser<'a> {
         // First pass: find the closing line, checking every line before it.
         let mut line = body;
         let (indent_end, close) = loop {
+            // The closing line: spaces, whitespace escapes, then `"""`. The
+            // indentation is the spaces before any escape.
             let p = self.spaces_from(line);
-            if self.bytes.get(p..).is_some_and(|r| r.starts_with(b"\"\"\"")) {
-                break (p, p + 3);
+            let mut q = p;
+            while self.byte_at(q) == Some(b'\\') {
+                let after = self.blank_run(q + 1);
+                if after == q + 1 {
+                    break;
+                }
+                q = after;
+            }
+            if self
+                .bytes
+                .get(q..)
+                .is_some_and(|r| r.starts_with(b"\"\"\""))
+            {
+                break (p, q + 3);
             }
             self.pos = line;
             self.quoted_line(None)?;
@@ -271,6 +283,17 @@ impl<'a> Parser<'a> {
     fn spaces_from(&self, mut p: usize) -> usize {
         loop {
             let n = space_len(self.src, p);
+            if n == 0 {
+                return p;
+            }
+            p += n;
+        }
+    }
+
+    /// The end of the run of unicode spaces and newlines from `p`.
+    fn blank_run(&self, mut p: usize) -> usize {
+        loop {
+            let n = space_len(self.src, p) + newline_len(self.bytes, p);
             if n == 0 {
                 return p;
             }
@@ -362,9 +385,6 @@ impl<'a> Parser<'a> {
             }
             let s = &self.src[start..self.pos];
             self.pos += 1 + hashes;
-            if s.starts_with('"') {
-                return Err(Reject);
-            }
             Cow::Borrowed(s)
         };
         if value == "\"" {
@@ -385,8 +405,7 @@ impl<'a> Parser<'a> {
         self.bytes.get(at..at + 3) == Some(b"\"\"\"") && self.closes_raw(at + 3, hashes)
     }
 
-    /// The body of a multi-line raw string, dedented. A backslash before
-    /// a space or newline is declined (its reading in blank lines is subtle).
+    /// The body of a multi-line raw string, dedented.
     fn raw_multi_line(&mut self, hashes: usize) -> R<String> {
         let body = self.pos;
         let mut line = body;
@@ -419,9 +438,6 @@ impl<'a> Parser<'a> {
                 if is_disallowed(c) {
                     return Err(Reject);
                 }
-                if c == '\\' && (space_len(self.src, q + 1) > 0 || newline_len(self.bytes, q + 1) > 0) {
-                    return Err(Reject);
-                }
                 q += c.len_utf8();
             }
             line = q;
@@ -449,9 +465,14 @@ impl<'a> Parser<'a> {
     pub(super) fn value_terminator_check(&self) -> R<()> {
         let ok = match self.byte() {
             None => true,
-            Some(b'=' | b')' | b'{' | b'}' | b';' | b' ' | b'\t' | b'\n' | b'\r' | 0x0B | 0x0C | b'\\') => true,
+            Some(
+                b'=' | b')' | b'{' | b'}' | b';' | b' ' | b'\t' | b'\n' | b'\r' | 0x0B | 0x0C
+                | b'\\',
+            ) => true,
             Some(b'/') => matches!(self.byte_at(self.pos + 1), Some(b'*' | b'/')),
-            Some(b) if b >= 0x80 => self.char_here().is_some_and(|c| is_space(c) || is_newline(c)),
+            Some(b) if b >= 0x80 => self
+                .char_here()
+                .is_some_and(|c| is_space(c) || is_newline(c)),
             _ => false,
         };
         if ok { Ok(()) } else { Err(Reject) }
@@ -471,9 +492,13 @@ impl<'a> Parser<'a> {
         };
         let start = self.pos;
         let value = match self.byte() {
-            Some(b'#') if !matches!(self.byte_at(self.pos + 1), Some(b'#' | b'"')) => self.keyword()?,
+            Some(b'#') if !matches!(self.byte_at(self.pos + 1), Some(b'#' | b'"')) => {
+                self.keyword()?
+            }
             Some(b'0'..=b'9') => self.number()?,
-            Some(b'+' | b'-') if matches!(self.byte_at(self.pos + 1), Some(b'0'..=b'9')) => self.number()?,
+            Some(b'+' | b'-') if matches!(self.byte_at(self.pos + 1), Some(b'0'..=b'9')) => {
+                self.number()?
+            }
             _ => match self.string_token()? {
                 Some(s) => KdlValue::String(s.into_owned()),
                 None if ty.is_some() => return Err(Reject),
@@ -525,7 +550,11 @@ impl<'a> Parser<'a> {
             self.pos += 2;
             let magnitude = self.digits(radix)?;
             self.value_terminator_check()?;
-            return Ok(KdlValue::Integer(if negative { -magnitude } else { magnitude }));
+            return Ok(KdlValue::Integer(if negative {
+                -magnitude
+            } else {
+                magnitude
+            }));
         }
         let whole = self.digits(10)?;
         let mut float = false;
@@ -557,7 +586,10 @@ impl<'a> Parser<'a> {
 
     /// `digit (digit | '_')*` in `radix`, as an `i128` magnitude.
     fn digits(&mut self, radix: u32) -> R<i128> {
-        let first = self.byte().and_then(|b| (b as char).to_digit(radix)).ok_or(Reject)?;
+        let first = self
+            .byte()
+            .and_then(|b| (b as char).to_digit(radix))
+            .ok_or(Reject)?;
         let mut value = i128::from(first);
         self.pos += 1;
         while let Some(b) = self.byte() {
@@ -565,7 +597,9 @@ impl<'a> Parser<'a> {
                 self.pos += 1;
                 continue;
             }
-            let Some(d) = (b as char).to_digit(radix) else { break };
+            let Some(d) = (b as char).to_digit(radix) else {
+                break;
+            };
             value = value
                 .checked_mul(i128::from(radix))
                 .and_then(|v| v.checked_add(i128::from(d)))
