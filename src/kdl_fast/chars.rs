@@ -104,11 +104,8 @@ mod tests {
     fn ascii_table_matches_the_general_rule() {
         for b in 0u8..0x80 {
             let c = b as char;
-            let general = !(is_space(c)
-                || is_newline(c)
-                || is_disallowed(c)
-                || "\\/(){}[];\"#=".contains(c)
-                || c == '\u{0}');
+            let general =
+                !(is_space(c) || is_newline(c) || is_disallowed(c) || "\\/(){}[];\"#=".contains(c));
             // Control characters 0x09..=0x0D are spaces or newlines; the rest
             // of the C0 range is disallowed.
             assert_eq!(IDENT_ASCII[b as usize], general, "byte {b:#x}");
