@@ -7,6 +7,7 @@
 
 pub mod cli;
 pub mod job;
+pub mod kdl_fast;
 pub mod calc;
 pub mod ratings;
 pub mod report;

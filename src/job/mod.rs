@@ -39,7 +39,7 @@ pub fn decode(name: &str, text: &str) -> Result<Decoded, JobDiagnostics> {
 fn decode_inner(name: &str, text: &str, ratings: Option<&crate::ratings::RatingsTable>) -> Result<Decoded, JobDiagnostics> {
     let source = NamedSource::new(name, Arc::new(text.to_string())).with_language("kdl");
     let mut problems = Vec::new();
-    let job = match kdl::KdlDocument::parse(text) {
+    let job = match crate::kdl_fast::parse_document(text) {
         Ok(doc) => {
             let mut reader = reader::Reader::new(text);
             let job = decode::decode_document(&doc, name, &mut reader);

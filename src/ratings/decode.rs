@@ -44,7 +44,7 @@ const MAX_SECTIONS: i128 = 4;
 /// Reads a whole ratings file. Returns every draft that could be read and
 /// every problem found; the caller decides what to do when there are any.
 pub(crate) fn read_file(text: &str) -> (Vec<Draft>, Vec<RatingProblem>) {
-    let doc = match KdlDocument::parse(text) {
+    let doc = match crate::kdl_fast::parse_document(text) {
         Ok(doc) => doc,
         Err(e) => return (Vec::new(), syntax_problems(text, &e)),
     };

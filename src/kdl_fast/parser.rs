@@ -1,0 +1,532 @@
+//! The structure of a KDL 2.0 document: nodes, entries, child blocks,
+//! slashdash comments and the whitespace between them. Follows the grammar
+//! exactly as the `kdl` crate reads it (so that spans come out the same),
+//! and gives up with [`Reject`] wherever that reading would be an error or
+//! where it is not certain what the `kdl` crate does.
+
+use kdl::{KdlDocument, KdlEntry, KdlEntryFormat, KdlIdentifier, KdlNode, KdlValue};
+use miette::SourceSpan;
+
+use super::chars::{newline_len, space_len};
+
+/// The fast parser declines this input; the `kdl` crate's parser decides.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub(super) struct Reject;
+
+pub(super) type R<T> = Result<T, Reject>;
+
+/// How deeply child blocks and slashdash comments may nest before the fast
+/// parser declines, so that its stack stays small whatever the input.
+pub(super) const MAX_DEPTH: u32 = 128;
+
+pub(super) struct Parser<'a> {
+    pub(super) src: &'a str,
+    pub(super) bytes: &'a [u8],
+    pub(super) pos: usize,
+    depth: u32,
+    /// Entries of the nodes being read, innermost last; each node takes
+    /// its own off the top into a vector of exactly the right size.
+    entries: Vec<KdlEntry>,
+    /// Nodes of the documents being read, likewise.
+    nodes: Vec<KdlNode>,
+    /// An empty node without formatting, cloned for each node read (which
+    /// allocates nothing, unlike `KdlNode::new`).
+    blank: KdlNode,
+    /// An empty entry with empty formatting, cloned for each entry read, so
+    /// that entries are filled in where they lie.
+    blank_entry: KdlEntry,
+}
+
+pub(super) fn span(start: usize, end: usize) -> SourceSpan {
+    SourceSpan::new(start.into(), end - start)
+}
+
+/// A value read from the text, before it becomes an entry.
+pub(super) struct Value<'a> {
+    pub(super) ty: Option<KdlIdentifier>,
+    pub(super) value: KdlValue,
+    /// The value as written, without its type annotation.
+    pub(super) raw: &'a str,
+}
+
+impl<'a> Parser<'a> {
+    pub(super) fn new(src: &'a str) -> Self {
+        let mut blank = KdlNode::new("");
+        blank.clear_format();
+        let mut blank_entry = KdlEntry::new(KdlValue::Null);
+        blank_entry.set_format(KdlEntryFormat::default());
+        Parser {
+            src,
+            bytes: src.as_bytes(),
+            pos: 0,
+            depth: 0,
+            entries: Vec::new(),
+            nodes: Vec::new(),
+            blank,
+            blank_entry,
+        }
+    }
+
+    pub(super) fn byte(&self) -> Option<u8> {
+        self.bytes.get(self.pos).copied()
+    }
+
+    pub(super) fn byte_at(&self, at: usize) -> Option<u8> {
+        self.bytes.get(at).copied()
+    }
+
+    pub(super) fn starts(&self, s: &[u8]) -> bool {
+        self.bytes
+            .get(self.pos..)
+            .is_some_and(|rest| rest.starts_with(s))
+    }
+
+    fn at_close_or_end(&self) -> bool {
+        matches!(self.byte(), None | Some(b'}'))
+    }
+
+    fn enter(&mut self) -> R<()> {
+        self.depth += 1;
+        if self.depth > MAX_DEPTH {
+            Err(Reject)
+        } else {
+            Ok(())
+        }
+    }
+
+    fn leave(&mut self) {
+        self.depth -= 1;
+    }
+
+    // ----- the document ---------------------------------------------------
+
+    /// `document := bom? nodes eof`
+    pub(super) fn document(&mut self) -> R<KdlDocument> {
+        if self.starts("\u{FEFF}".as_bytes()) {
+            self.pos += 3;
+        }
+        let doc = self.nodes()?;
+        if self.pos == self.bytes.len() {
+            Ok(doc)
+        } else {
+            Err(Reject)
+        }
+    }
+
+    /// `nodes := (line-space | slashdash node)* (node terminator ...)* ...`
+    /// The span runs from the first node to the end of the last one.
+    fn nodes(&mut self) -> R<KdlDocument> {
+        self.leading()?;
+        let start = self.pos;
+        let mut end = start;
+        let mark = self.nodes.len();
+        loop {
+            if self.at_close_or_end() {
+                break;
+            }
+            self.base_node()?;
+            end = self.pos;
+            if !self.node_terminator() {
+                // What follows may only be trailing space and slashdashed
+                // nodes; the caller checks for `}` or the end.
+                self.leading()?;
+                break;
+            }
+            self.leading()?;
+        }
+        let mut doc = KdlDocument::new();
+        if self.nodes.len() > mark {
+            *doc.nodes_mut() = self.nodes.drain(mark..).collect();
+        }
+        doc.set_span(span(start, end));
+        Ok(doc)
+    }
+
+    /// `(line-space | slashdash base-node)*`: what may come before a node
+    /// (and after the last one).
+    fn leading(&mut self) -> R<()> {
+        loop {
+            if self.line_space()? {
+                continue;
+            }
+            if self.starts(b"/-") {
+                self.slashdash()?;
+                if self.at_close_or_end() {
+                    return Err(Reject);
+                }
+                self.enter()?;
+                let mark = self.nodes.len();
+                self.base_node()?;
+                self.nodes.truncate(mark);
+                self.leave();
+                continue;
+            }
+            return Ok(());
+        }
+    }
+
+    /// `node-terminator := ';' | newline | single-line-comment`
+    fn node_terminator(&mut self) -> bool {
+        match self.byte() {
+            Some(b';') => {
+                self.pos += 1;
+                true
+            }
+            Some(b'/') if self.byte_at(self.pos + 1) == Some(b'/') => {
+                self.line_comment();
+                true
+            }
+            _ => {
+                let n = newline_len(self.bytes, self.pos);
+                self.pos += n;
+                n > 0
+            }
+        }
+    }
+
+    /// A node's type, name, entries and children, and the space after them,
+    /// pushed onto `self.nodes` (it is built there, in place, as nodes and
+    /// entries are large). The caller has checked that the text is not at
+    /// `}` or the end.
+    fn base_node(&mut self) -> R<()> {
+        let start = self.pos;
+        let ty = match self.byte() {
+            Some(b'{') => return Err(Reject),
+            Some(b'(') => Some(self.ty()?),
+            _ => None,
+        };
+        self.node_space0()?;
+        let name = self.identifier()?.ok_or(Reject)?;
+        let at = self.nodes.len();
+        self.nodes.push(self.blank.clone());
+        self.nodes[at].set_name(name);
+        if let Some(ty) = ty {
+            self.nodes[at].set_ty(ty);
+        }
+        let mark = self.entries.len();
+        while self.starts_node_space() {
+            let save = self.pos;
+            if !self.node_entry()? {
+                self.pos = save;
+                break;
+            }
+        }
+        if self.entries.len() > mark {
+            let entries = self.entries.drain(mark..).collect();
+            *self.nodes[at].entries_mut() = entries;
+        }
+        self.before_children()?;
+        if self.byte() == Some(b'{') {
+            let children = self.node_children()?;
+            self.nodes[at].set_children(children);
+            let save = self.pos;
+            if !self.slashdashed_children()? {
+                self.pos = save;
+            }
+        }
+        self.node_space0()?;
+        self.nodes[at].set_span(span(start, self.pos));
+        Ok(())
+    }
+
+    /// `{ nodes }`
+    fn node_children(&mut self) -> R<KdlDocument> {
+        self.enter()?;
+        self.pos += 1;
+        let doc = self.nodes()?;
+        if self.byte() != Some(b'}') {
+            return Err(Reject);
+        }
+        self.pos += 1;
+        self.leave();
+        Ok(doc)
+    }
+
+    /// Slashdashed entries and child blocks after the last entry, before a
+    /// child block (or the end of the node).
+    fn before_children(&mut self) -> R<()> {
+        if self.node_space0()? && self.starts(b"/-") {
+            let at = self.pos;
+            if self.slashdashed_entries()? {
+                let after = self.pos;
+                if !(self.node_space0()? && self.slashdashed_children()?) {
+                    self.pos = after;
+                }
+            } else {
+                self.pos = at;
+                if !self.slashdashed_children()? {
+                    self.pos = at;
+                }
+            }
+        }
+        self.node_space0()?;
+        Ok(())
+    }
+
+    /// `(slashdash node-children) (node-space+ slashdash node-children)*`,
+    /// after optional space. `false` means no match (the caller resets).
+    fn slashdashed_children(&mut self) -> R<bool> {
+        self.node_space0()?;
+        if !self.starts(b"/-") {
+            return Ok(false);
+        }
+        self.slashdash()?;
+        if self.byte() != Some(b'{') {
+            return Ok(false);
+        }
+        self.node_children()?;
+        loop {
+            let save = self.pos;
+            if !self.node_space0()? || !self.starts(b"/-") {
+                self.pos = save;
+                return Ok(true);
+            }
+            self.slashdash()?;
+            if self.byte() != Some(b'{') {
+                self.pos = save;
+                return Ok(true);
+            }
+            self.node_children()?;
+        }
+    }
+
+    /// `(slashdash entry) (node-space+ slashdash entry)*`. `false` means no
+    /// match (the caller resets).
+    fn slashdashed_entries(&mut self) -> R<bool> {
+        self.enter()?;
+        let mark = self.entries.len();
+        self.slashdash()?;
+        let found = self.node_entry()?;
+        self.entries.truncate(mark);
+        if !found {
+            self.leave();
+            return Ok(false);
+        }
+        loop {
+            let save = self.pos;
+            if !self.node_space0()? || !self.starts(b"/-") {
+                self.pos = save;
+                break;
+            }
+            self.slashdash()?;
+            let found = self.node_entry()?;
+            self.entries.truncate(mark);
+            if !found {
+                self.pos = save;
+                break;
+            }
+        }
+        self.leave();
+        Ok(true)
+    }
+
+    /// One argument or property, with the space and slashdashed entries
+    /// before it, pushed onto `self.entries`. `false` means no entry here
+    /// (the caller resets).
+    fn node_entry(&mut self) -> R<bool> {
+        self.node_space0()?;
+        if self.starts(b"/-") {
+            let save = self.pos;
+            if !(self.slashdashed_entries()? && self.node_space0()?) {
+                self.pos = save;
+            }
+        }
+        let start = self.pos;
+        let (name, value) = if let Some(text) = self.string_token()? {
+            let name_end = self.pos;
+            self.node_space0()?;
+            if self.byte() == Some(b'=') {
+                self.pos += 1;
+                self.node_space0()?;
+                let value = self.value()?.ok_or(Reject)?;
+                let mut name = KdlIdentifier::from(text.into_owned());
+                name.set_span(span(start, name_end));
+                (Some(name), value)
+            } else {
+                self.pos = name_end;
+                let value = Value {
+                    ty: None,
+                    value: KdlValue::String(text.into_owned()),
+                    raw: &self.src[start..name_end],
+                };
+                (None, value)
+            }
+        } else {
+            let Some(value) = self.value()? else {
+                return Ok(false);
+            };
+            (None, value)
+        };
+        let at = self.entries.len();
+        self.entries.push(self.blank_entry.clone());
+        let entry = &mut self.entries[at];
+        entry.set_value(value.value);
+        if name.is_some() {
+            entry.set_name(name);
+        }
+        if let Some(ty) = value.ty {
+            entry.set_ty(ty);
+        }
+        if let Some(format) = entry.format_mut() {
+            format.value_repr = value.raw.to_string();
+        }
+        entry.set_span(span(start, self.pos));
+        Ok(true)
+    }
+
+    /// `type := '(' node-space* string node-space* ')'`
+    pub(super) fn ty(&mut self) -> R<KdlIdentifier> {
+        self.pos += 1;
+        self.node_space0()?;
+        let ty = self.identifier()?.ok_or(Reject)?;
+        if !(self.starts_node_space() || self.byte() == Some(b')')) {
+            return Err(Reject);
+        }
+        self.node_space0()?;
+        if self.byte() != Some(b')') {
+            return Err(Reject);
+        }
+        self.pos += 1;
+        Ok(ty)
+    }
+
+    // ----- space and comments ---------------------------------------------
+
+    /// Whether a node-space starts here (space, block comment or line
+    /// continuation; a bad one is rejected when it is read).
+    pub(super) fn starts_node_space(&self) -> bool {
+        match self.byte() {
+            Some(b' ' | b'\t' | b'\\') => true,
+            Some(b'/') => self.byte_at(self.pos + 1) == Some(b'*'),
+            Some(b) if b >= 0x80 => space_len(self.src, self.pos) > 0,
+            _ => false,
+        }
+    }
+
+    /// `node-space*`: spaces, block comments and line continuations.
+    /// Returns whether anything was read.
+    pub(super) fn node_space0(&mut self) -> R<bool> {
+        let start = self.pos;
+        loop {
+            match self.byte() {
+                Some(b' ' | b'\t') => self.pos += 1,
+                Some(b'/') if self.byte_at(self.pos + 1) == Some(b'*') => self.block_comment()?,
+                Some(b'\\') => self.escline()?,
+                Some(b) if b >= 0x80 => {
+                    let n = space_len(self.src, self.pos);
+                    if n == 0 {
+                        break;
+                    }
+                    self.pos += n;
+                }
+                _ => break,
+            }
+        }
+        Ok(self.pos > start)
+    }
+
+    /// `(unicode-space | block comment)*`
+    fn wss(&mut self) -> R<()> {
+        loop {
+            match self.byte() {
+                Some(b' ' | b'\t') => self.pos += 1,
+                Some(b'/') if self.byte_at(self.pos + 1) == Some(b'*') => self.block_comment()?,
+                Some(b) if b >= 0x80 => {
+                    let n = space_len(self.src, self.pos);
+                    if n == 0 {
+                        return Ok(());
+                    }
+                    self.pos += n;
+                }
+                _ => return Ok(()),
+            }
+        }
+    }
+
+    /// `escline := '\' ws* (single-line-comment | newline | eof) ws*`
+    fn escline(&mut self) -> R<()> {
+        self.pos += 1;
+        self.wss()?;
+        if self.starts(b"//") {
+            self.line_comment();
+        } else {
+            let n = newline_len(self.bytes, self.pos);
+            if n == 0 && self.pos < self.bytes.len() {
+                return Err(Reject);
+            }
+            self.pos += n;
+        }
+        self.wss()
+    }
+
+    /// `line-space*`: node-space, newlines and line comments. Returns
+    /// whether anything was read.
+    fn line_space(&mut self) -> R<bool> {
+        let start = self.pos;
+        loop {
+            self.node_space0()?;
+            if self.starts(b"//") {
+                self.line_comment();
+                continue;
+            }
+            let n = newline_len(self.bytes, self.pos);
+            if n == 0 {
+                break;
+            }
+            self.pos += n;
+        }
+        Ok(self.pos > start)
+    }
+
+    /// `slashdash := '/-' line-space*`
+    fn slashdash(&mut self) -> R<()> {
+        self.pos += 2;
+        self.line_space()?;
+        Ok(())
+    }
+
+    /// `// …` up to and including the newline, or to the end.
+    fn line_comment(&mut self) {
+        let bytes = self.bytes;
+        let mut p = self.pos + 2;
+        while p < bytes.len() {
+            match bytes[p] {
+                b'\n' | b'\r' | 0x0B | 0x0C | 0xC2 | 0xE2 => {
+                    let n = newline_len(bytes, p);
+                    if n > 0 {
+                        self.pos = p + n;
+                        return;
+                    }
+                    p += 1;
+                }
+                _ => p += 1,
+            }
+        }
+        self.pos = bytes.len();
+    }
+
+    /// `/* … */`, nesting.
+    fn block_comment(&mut self) -> R<()> {
+        let bytes = self.bytes;
+        let mut p = self.pos + 2;
+        let mut depth = 1u32;
+        loop {
+            match bytes.get(p) {
+                None => return Err(Reject),
+                Some(b'*') if bytes.get(p + 1) == Some(&b'/') => {
+                    p += 2;
+                    depth -= 1;
+                    if depth == 0 {
+                        self.pos = p;
+                        return Ok(());
+                    }
+                }
+                Some(b'/') if bytes.get(p + 1) == Some(&b'*') => {
+                    p += 2;
+                    depth += 1;
+                }
+                Some(_) => p += 1,
+            }
+        }
+    }
+}
