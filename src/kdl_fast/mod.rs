@@ -14,28 +14,6 @@ mod tokens;
 #[cfg(test)]
 mod tests;
 
-#[cfg(test)]
-mod depth_tests {
-    use super::*;
-
-    #[test]
-    fn very_deep_input_is_refused_without_recursing() {
-        // Unclosed and closed runs of blocks, far deeper than the kdl
-        // crate's parser can recurse on a test thread.
-        for text in ["a {".repeat(5000), format!("{}{}", "a {".repeat(5000), "}".repeat(5000))] {
-            let err = parse_document(&text).expect_err("refused");
-            let d = &err.diagnostics[0];
-            assert!(d.message.as_deref().unwrap_or("").contains("nested more than"));
-            assert_eq!(d.span.offset(), 3 * MAX_FALLBACK_DEPTH + 2); // the first `{` past the limit
-        }
-    }
-
-    #[test]
-    fn ordinary_nesting_still_parses() {
-        let text = format!("{}{}", "a {".repeat(10), "}".repeat(10));
-        assert!(parse_document(&text).is_ok());
-    }
-}
 
 use kdl::{KdlDocument, KdlError};
 
@@ -92,4 +70,27 @@ fn too_deep(text: &str) -> Option<usize> {
 /// for every broken document and for a few rare valid forms).
 pub fn parse_fast(text: &str) -> Option<KdlDocument> {
     parser::Parser::new(text).document().ok()
+}
+
+#[cfg(test)]
+mod depth_tests {
+    use super::*;
+
+    #[test]
+    fn very_deep_input_is_refused_without_recursing() {
+        // Unclosed and closed runs of blocks, far deeper than the kdl
+        // crate's parser can recurse on a test thread.
+        for text in ["a {".repeat(5000), format!("{}{}", "a {".repeat(5000), "}".repeat(5000))] {
+            let err = parse_document(&text).expect_err("refused");
+            let d = &err.diagnostics[0];
+            assert!(d.message.as_deref().unwrap_or("").contains("nested more than"));
+            assert_eq!(d.span.offset(), 3 * MAX_FALLBACK_DEPTH + 2); // the first `{` past the limit
+        }
+    }
+
+    #[test]
+    fn ordinary_nesting_still_parses() {
+        let text = format!("{}{}", "a {".repeat(10), "}".repeat(10));
+        assert!(parse_document(&text).is_ok());
+    }
 }
