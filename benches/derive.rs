@@ -135,8 +135,8 @@ fn stages(c: &mut Criterion) {
     let (name, text) = DEMOS[0];
     let decoded = job::decode_with_ratings(name, text, &ratings).expect("demo decodes");
     let mut group = c.benchmark_group("demo job stages");
-    group.bench_function("kdl parse", |b| {
-        b.iter(|| kdl::KdlDocument::parse(black_box(text)).expect("parses"))
+    group.bench_function("KDL parse", |b| {
+        b.iter(|| ampreport::kdl_fast::parse_document(black_box(text)).expect("parses"))
     });
     group.bench_function("decode", |b| {
         b.iter(|| job::decode_with_ratings(name, black_box(text), &ratings).expect("decodes"))
@@ -176,7 +176,7 @@ fn generated(c: &mut Criterion) {
     group.finish();
 
     // The KDL parser alone on the same texts, to tell its share apart.
-    let mut group = c.benchmark_group("generated job: kdl parse only");
+    let mut group = c.benchmark_group("generated job: KDL parse only");
     group
         .sample_size(10)
         .measurement_time(Duration::from_secs(3));
@@ -184,7 +184,7 @@ fn generated(c: &mut Criterion) {
         let text = generated_job(lines);
         group.throughput(Throughput::Elements(lines as u64));
         group.bench_with_input(BenchmarkId::from_parameter(lines), &text, |b, text| {
-            b.iter(|| kdl::KdlDocument::parse(black_box(text)).expect("parses"))
+            b.iter(|| ampreport::kdl_fast::parse_document(black_box(text)).expect("parses"))
         });
     }
     group.finish();

@@ -59,8 +59,12 @@ impl Job {
     }
 
     /// The circuit as it stood for a measurement set.
-    pub fn circuit_for(&self, set: &MeasurementSet) -> Circuit {
-        self.circuit.with_changes(&set.circuit_changes)
+    pub fn circuit_for(&self, set: &MeasurementSet) -> std::borrow::Cow<'_, Circuit> {
+        if set.circuit_changes.is_empty() {
+            std::borrow::Cow::Borrowed(&self.circuit)
+        } else {
+            std::borrow::Cow::Owned(self.circuit.with_changes(&set.circuit_changes))
+        }
     }
 
     /// The circuit's declaration of a B+ node, if there is one.
@@ -203,6 +207,20 @@ impl Circuit {
     }
     pub fn half_primary_for(&self, position: &str) -> Option<&HalfPrimary> {
         self.half_primaries.iter().find(|r| r.valves.iter().any(|v| v.value == position))
+    }
+
+    /// Whether the circuit holds no facts at all.
+    pub fn is_empty(&self) -> bool {
+        self.bias.is_none()
+            && self.cathode_resistors.is_empty()
+            && self.sense_resistors.is_empty()
+            && self.screen_resistors.is_empty()
+            && self.half_primaries.is_empty()
+            && self.nodes.is_empty()
+            && self.droppers.is_empty()
+            && self.filter_capacitors.is_empty()
+            && self.winding.is_none()
+            && self.rectifier.is_none()
     }
 
     /// This circuit with `changes` laid over it: a fact in `changes`

@@ -734,7 +734,7 @@ fn set_context(
     let windows = set
         .valves
         .iter()
-        .filter_map(|v| window_row(v, source, circuit.as_ref()))
+        .filter_map(|v| window_row(v, source, circuit.as_deref()))
         .collect();
     let resistors = set
         .droppers
