@@ -41,10 +41,22 @@ fn typst_version() -> Option<String> {
     }
 }
 
+/// The font cache these tests use: the build's temporary folder, not the
+/// user's own cache.
+fn test_cache_home() -> PathBuf {
+    PathBuf::from(env!("CARGO_TARGET_TMPDIR")).join("render-cache-home")
+}
+
 fn ampreport(args: &[&std::ffi::OsStr]) -> Output {
+    ampreport_with_cache(args, &test_cache_home())
+}
+
+/// Runs ampreport with `XDG_CACHE_HOME` set to `cache_home`.
+fn ampreport_with_cache(args: &[&std::ffi::OsStr], cache_home: &Path) -> Output {
     Command::new(BIN)
         .args(args)
         .env_remove("AMPREPORT_TYPST")
+        .env("XDG_CACHE_HOME", cache_home)
         .output()
         .expect("run ampreport")
 }
@@ -311,10 +323,14 @@ fn rendering_twice_and_from_emitted_source_gives_identical_bytes() {
     assert!(bytes.starts_with(b"%PDF-"));
     assert_eq!(bytes, std::fs::read(&b).unwrap(), "two renders differ");
 
-    // The command docs/render.md gives for an emitted folder.
+    // The command docs/render.md gives for an emitted folder, which holds
+    // its own fonts.
     assert!(
         src.join("main.typ").is_file() && src.join("plots").join("plate-dissipation.svg").is_file()
     );
+    for font in ["NotoSans-Regular.ttf", "wqy-microhei.ttc", "OFL-1.1.txt"] {
+        assert!(src.join("fonts").join(font).is_file(), "{font} not emitted");
+    }
     let c = dir.path().join("c.pdf");
     let root = src.to_str().unwrap();
     let status = Command::new("typst")
@@ -342,6 +358,58 @@ fn rendering_twice_and_from_emitted_source_gives_identical_bytes() {
         bytes,
         std::fs::read(&c).unwrap(),
         "typst on the emitted source gives another PDF"
+    );
+}
+
+#[test]
+fn fonts_from_the_user_cache_or_the_sandbox_give_identical_bytes() {
+    if typst_version().is_none() {
+        return;
+    }
+    let dir = tempfile::tempdir().unwrap();
+    let job = demo("combo-6v6-fixed");
+    let home = dir.path().join("cache-home");
+    let args = |pdf: &Path| -> Vec<std::ffi::OsString> {
+        vec![
+            "render".into(),
+            job.clone().into(),
+            "-o".into(),
+            pdf.as_os_str().into(),
+        ]
+    };
+    let run = |pdf: &Path, home: &Path| {
+        let args = args(pdf);
+        let args: Vec<&std::ffi::OsStr> = args.iter().map(|a| a.as_os_str()).collect();
+        let out = ampreport_with_cache(&args, home);
+        assert_ok(&out, "render");
+        std::fs::read(pdf).unwrap()
+    };
+    // First run writes the cache, the second uses it.
+    let first = run(&dir.path().join("a.pdf"), &home);
+    let cached: Vec<PathBuf> = std::fs::read_dir(home.join("ampreport"))
+        .unwrap()
+        .map(|e| e.unwrap().path())
+        .collect();
+    assert_eq!(cached.len(), 1, "{cached:?}");
+    let folder = &cached[0];
+    assert!(
+        folder
+            .file_name()
+            .unwrap()
+            .to_string_lossy()
+            .starts_with("fonts-")
+    );
+    assert!(folder.join("NotoSans-Regular.ttf").is_file());
+    let second = run(&dir.path().join("b.pdf"), &home);
+    // A cache folder that cannot be made: the fonts go into the sandbox.
+    let blocked = dir.path().join("not-a-folder");
+    std::fs::write(&blocked, b"x").unwrap();
+    let fallback = run(&dir.path().join("c.pdf"), &blocked);
+    assert!(first.starts_with(b"%PDF-"));
+    assert_eq!(first, second, "a render from the cache differs");
+    assert_eq!(
+        first, fallback,
+        "a render with fonts in the sandbox differs"
     );
 }
 
@@ -835,6 +903,7 @@ fn without_typst_the_install_command_is_named() {
         ])
         .env("PATH", empty.path())
         .env_remove("AMPREPORT_TYPST")
+        .env("XDG_CACHE_HOME", test_cache_home())
         .output()
         .unwrap();
     let stderr = String::from_utf8_lossy(&out.stderr);

@@ -3,7 +3,7 @@
 
 use std::collections::{HashMap, HashSet};
 use std::path::Path;
-use std::sync::Arc;
+use std::sync::{Arc, OnceLock};
 
 use super::decode::read_file;
 use super::designation::{UnknownValve, designation_key, nearest};
@@ -28,20 +28,26 @@ pub struct RatingsTable {
 }
 
 impl RatingsTable {
-    /// The table built into the program.
+    /// The table built into the program. The embedded file is parsed once
+    /// per process; later calls get a copy of that table.
     ///
     /// # Panics
     ///
     /// Only if the embedded ratings file is broken, which the tests rule out.
     pub fn builtin() -> RatingsTable {
-        let rows = RatingsTable::from_kdl_text(BUILTIN_NAME, BUILTIN_TEXT, RatingOrigin::Builtin)
-            .expect("the built-in ratings file ratings/valves.kdl must parse (the ratings tests check it)");
-        let mut table = RatingsTable {
-            rows,
-            index: HashMap::new(),
-        };
-        table.reindex();
-        table
+        static BUILTIN: OnceLock<RatingsTable> = OnceLock::new();
+        BUILTIN
+            .get_or_init(|| {
+                let rows = RatingsTable::from_kdl_text(BUILTIN_NAME, BUILTIN_TEXT, RatingOrigin::Builtin)
+                    .expect("the built-in ratings file ratings/valves.kdl must parse (the ratings tests check it)");
+                let mut table = RatingsTable {
+                    rows,
+                    index: HashMap::new(),
+                };
+                table.reindex();
+                table
+            })
+            .clone()
     }
 
     /// Reads complete rows from KDL text in the ratings-file format. `name`
