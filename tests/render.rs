@@ -179,6 +179,7 @@ const DEFERRAL_PHRASES: &[&str] = &[
 fn each_demo_job_renders_with_its_figures_and_cautions() {
     let Some(typst) = typst_version() else { return };
     let dir = tempfile::tempdir().unwrap();
+    let (mut mod_figures, mut rectifier_loads) = (0, 0);
     for name in DEMO_JOBS {
         let job = demo(name);
         let pdf = dir.path().join(format!("{name}.pdf"));
@@ -229,6 +230,47 @@ fn each_demo_job_renders_with_its_figures_and_cautions() {
         }
         assert!(figures >= 4, "{name}: only {figures} dissipation figures");
 
+        // Every worked figure of a modification: its number and its formula.
+        for m in json["mods"].as_array().unwrap() {
+            for f in m["figures"].as_array().unwrap() {
+                let number = match (f["frequency_hz"].as_f64(), f["gain"].as_f64()) {
+                    (Some(hz), _) => format!("{hz:.0} Hz"),
+                    (None, Some(gain)) => format!("gain about {gain:.0}"),
+                    (None, None) => panic!("{name}: a figure with no number: {f}"),
+                };
+                assert!(
+                    flat.contains(&normalise(&number)),
+                    "{name}: mod figure {number:?} missing"
+                );
+                let formula = f["formula"].as_str().unwrap();
+                assert!(
+                    flat.contains(&normalise(formula)),
+                    "{name}: formula {formula:?} missing"
+                );
+                mod_figures += 1;
+            }
+        }
+
+        // A valve rectifier's load (a lower bound) and its rating, per set.
+        for set in json["sets"].as_array().unwrap() {
+            let r = &set["rectifier"];
+            if r.is_null() {
+                continue;
+            }
+            let load = format!("{:.1}", r["load_at_least_ma"].as_f64().unwrap());
+            let rating = format!("{:.0}mA", r["rating_ma"].as_f64().unwrap());
+            assert!(
+                words.contains(load.as_str()),
+                "{name}: rectifier load {load} mA of {} missing",
+                set["label"]
+            );
+            assert!(
+                flat.contains(&rating),
+                "{name}: rectifier rating {rating} missing"
+            );
+            rectifier_loads += 1;
+        }
+
         for phrase in CAUTION_PHRASES.iter().chain(DEFERRAL_PHRASES) {
             assert!(
                 flat.contains(&normalise(phrase)),
@@ -276,6 +318,68 @@ fn each_demo_job_renders_with_its_figures_and_cautions() {
             "{name}: versions not on every page"
         );
     }
+    // The demo jobs include a mod with a cathode-bypass corner and two
+    // stage gains, and two jobs with a valve rectifier (two sets each).
+    assert_eq!(mod_figures, 3, "worked figures checked");
+    assert_eq!(rectifier_loads, 4, "rectifier loads checked");
+}
+
+/// The words on `page` of `pdf` with their boxes (points from the top
+/// left), from `pdftotext -bbox`.
+fn word_boxes(pdf: &Path, page: usize) -> Vec<(String, [f64; 4])> {
+    let page = page.to_string();
+    let html = pdftotext_args(pdf, &["-bbox", "-f", &page, "-l", &page]);
+    html.lines()
+        .filter_map(|line| {
+            let line = line.trim();
+            let rest = line.strip_prefix("<word ")?;
+            let (attrs, text) = rest.split_once('>')?;
+            let text = text.strip_suffix("</word>")?;
+            let value = |name: &str| -> Option<f64> {
+                let start = attrs.find(&format!("{name}=\""))? + name.len() + 2;
+                let end = attrs[start..].find('"')? + start;
+                attrs[start..end].parse().ok()
+            };
+            Some((
+                text.to_string(),
+                [
+                    value("xMin")?,
+                    value("yMin")?,
+                    value("xMax")?,
+                    value("yMax")?,
+                ],
+            ))
+        })
+        .collect()
+}
+
+#[test]
+fn no_text_runs_past_the_page_margins() {
+    if typst_version().is_none() {
+        return;
+    }
+    // A4 is 595.28 pt wide; the side margins are 17 mm (48.19 pt) and the
+    // bottom margin 21 mm, with the footer in it.
+    let (left, right) = (48.19 - 1.0, 595.28 - 48.19 + 1.0);
+    let dir = tempfile::tempdir().unwrap();
+    for name in DEMO_JOBS {
+        let pdf = dir.path().join(format!("{name}.pdf"));
+        assert_ok(&render(&demo(name), &pdf, &[]), name);
+        for page in 1..=page_count(&pdf) {
+            let words = word_boxes(&pdf, page);
+            assert!(
+                words.len() > 20,
+                "{name} page {page}: {} words",
+                words.len()
+            );
+            for (word, [x0, y0, x1, y1]) in &words {
+                assert!(
+                    *x0 >= left && *x1 <= right && *y0 >= 0.0 && *y1 <= 841.89,
+                    "{name} page {page}: {word:?} at {x0:.1}–{x1:.1}, {y0:.1}–{y1:.1} is off the text area"
+                );
+            }
+        }
+    }
 }
 
 #[test]
@@ -302,6 +406,32 @@ fn the_at_a_glance_panel_names_each_family_with_its_status() {
         let word = family["status"].as_str().unwrap().to_uppercase();
         let line = format!("{title}{word}");
         assert!(first_page.contains(&line), "page 1 lacks {line:?}");
+        // Its worst figure, or for an all-ok family calc's summary sentence,
+        // follows in full (the page starts it with a capital).
+        let worst = normalise(family["worst"].as_str().unwrap()).to_lowercase();
+        assert!(
+            first_page
+                .to_lowercase()
+                .contains(&format!("{}{worst}", line.to_lowercase())),
+            "page 1 lacks the worst figure {worst:?} after {line:?}"
+        );
+    }
+    // The summary of an all-ok family, e.g. "4 nodes within tolerance of the
+    // chart; largest deviation +1.9 % at B+4", stays inside the panel: the
+    // panel is the full text width, so no word of page 1 passes the margin.
+    let supply = &json["at_a_glance"][1];
+    assert_eq!(supply["family"], "supply_voltages");
+    assert!(
+        supply["worst"]
+            .as_str()
+            .unwrap()
+            .contains("within tolerance")
+    );
+    for (word, [x0, _, x1, _]) in word_boxes(&pdf, 1) {
+        assert!(
+            x0 >= 47.0 && x1 <= 548.1,
+            "{word:?} at {x0}–{x1} leaves the page 1 text area"
+        );
     }
 }
 

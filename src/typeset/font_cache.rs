@@ -141,8 +141,10 @@ pub fn is_complete(dir: &Path) -> bool {
 
 /// SHA-256 of `files` in name order, each framed as its name, a NUL byte,
 /// its length (8 bytes, little-endian) and its bytes: the framing `build.rs`
-/// uses for [`FONTS_DIGEST`].
-pub fn digest_of<'a>(files: impl IntoIterator<Item = (&'a str, &'a [u8])>) -> String {
+/// uses for [`FONTS_DIGEST`]. Used by the test that checks the build-time
+/// digest against the embedded files.
+#[cfg(test)]
+fn digest_of<'a>(files: impl IntoIterator<Item = (&'a str, &'a [u8])>) -> String {
     use sha2::{Digest, Sha256};
     let mut files: Vec<(&str, &[u8])> = files.into_iter().collect();
     files.sort();
