@@ -332,6 +332,21 @@ impl PixelBox {
     }
 }
 
+/// A straight line between two pixel points, and what crossing one pixel
+/// of it costs a label.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub(crate) struct Line {
+    pub from: (f64, f64),
+    pub to: (f64, f64),
+    pub weight: f64,
+}
+
+impl Line {
+    fn new(from: (f64, f64), to: (f64, f64), weight: f64) -> Self {
+        Line { from, to, weight }
+    }
+}
+
 /// What a figure's label must keep clear of, for choosing where it goes.
 #[derive(Debug, Clone)]
 pub(crate) struct Obstacles {
@@ -339,8 +354,8 @@ pub(crate) struct Obstacles {
     pub area: PixelBox,
     /// Markers, bars and labels already placed: never covered.
     pub solid: Vec<PixelBox>,
-    /// Lines a label should not sit on, with a weight per pixel crossed.
-    pub lines: Vec<((f64, f64), (f64, f64), f64)>,
+    /// Lines a label should not sit on.
+    pub lines: Vec<Line>,
     /// Shaded bands: a label sits inside one or outside it, not across its
     /// edge.
     pub bands: Vec<PixelBox>,
@@ -363,7 +378,7 @@ impl Obstacles {
         cost += self
             .lines
             .iter()
-            .map(|(p, q, w)| b.crossing(*p, *q) * w)
+            .map(|l| b.crossing(l.from, l.to) * l.weight)
             .sum::<f64>();
         cost += self
             .bands
@@ -655,11 +670,11 @@ fn draw_dissipation(chart: &DissipationChart, svg: &mut String) -> Result<(), St
     let (l, r) = (f64::from(left), f64::from(right));
     obstacles
         .lines
-        .push(((l, f64::from(y100)), (r, f64::from(y100)), 40.0));
+        .push(Line::new((l, f64::from(y100)), (r, f64::from(y100)), 40.0));
     match chart.guide {
         Guide::Caution { pct } => {
             let y = f64::from(ctx.backend_coord(&(0.0, pct)).1);
-            obstacles.lines.push(((l, y), (r, y), 25.0));
+            obstacles.lines.push(Line::new((l, y), (r, y), 25.0));
         }
         Guide::Aim { low_pct, high_pct } => {
             let lo = f64::from(ctx.backend_coord(&(0.0, low_pct)).1);
@@ -796,6 +811,9 @@ fn label_spots(p: (i32, i32), w: f64, h: f64, left_first: bool) -> Vec<PixelBox>
     ]
 }
 
+/// One reading on the supply chart: its volts and where its marker sits.
+type Reading = (f64, (i32, i32));
+
 /// Draws the supply-chain chart as an SVG document.
 pub fn supply_svg(chart: &SupplyChart) -> Result<String, PlotError> {
     let e = err("supply chain");
@@ -881,7 +899,7 @@ fn draw_supply(chart: &SupplyChart, svg: &mut String) -> Result<(), String> {
                 (f64::from(p.0), f64::from(p.1)),
                 (f64::from(q.0), f64::from(q.1)),
             ));
-            obstacles.lines.push((
+            obstacles.lines.push(Line::new(
                 (f64::from(a.0), f64::from(a.1)),
                 (f64::from(b.0), f64::from(b.1)),
                 12.0,
@@ -903,7 +921,7 @@ fn draw_supply(chart: &SupplyChart, svg: &mut String) -> Result<(), String> {
             0.5 - 0.18 + k as f64 * spread
         }
     };
-    let points: Vec<Vec<(usize, f64, (i32, i32))>> = chart
+    let points: Vec<Vec<Reading>> = chart
         .series
         .iter()
         .enumerate()
@@ -912,20 +930,18 @@ fn draw_supply(chart: &SupplyChart, svg: &mut String) -> Result<(), String> {
                 .values
                 .iter()
                 .enumerate()
-                .filter_map(|(i, v)| {
-                    v.map(|v| (i, v, ctx.backend_coord(&(i as f64 + offset(k), v))))
-                })
+                .filter_map(|(i, v)| v.map(|v| (v, ctx.backend_coord(&(i as f64 + offset(k), v)))))
                 .collect()
         })
         .collect();
     for line in &points {
-        let path: Vec<(i32, i32)> = line.iter().map(|(_, _, p)| *p).collect();
+        let path: Vec<(i32, i32)> = line.iter().map(|(_, p)| *p).collect();
         if path.len() > 1 {
             root.draw(&PathElement::new(path.clone(), MID.stroke_width(1)))
                 .map_err(|e| e.to_string())?;
             for pair in path.windows(2) {
                 let (a, b) = (pair[0], pair[1]);
-                obstacles.lines.push((
+                obstacles.lines.push(Line::new(
                     (f64::from(a.0), f64::from(a.1)),
                     (f64::from(b.0), f64::from(b.1)),
                     20.0,
@@ -934,7 +950,7 @@ fn draw_supply(chart: &SupplyChart, svg: &mut String) -> Result<(), String> {
         }
     }
     for (k, line) in points.iter().enumerate() {
-        for (_, _, p) in line {
+        for (_, p) in line {
             draw_marker(&root, *p, marker(k))?;
             obstacles.solid.push(PixelBox::around(*p, 9.0));
         }
@@ -947,7 +963,7 @@ fn draw_supply(chart: &SupplyChart, svg: &mut String) -> Result<(), String> {
     if sets <= 2 {
         let bands = obstacles.bands.clone();
         for (k, line) in points.iter().enumerate() {
-            for (_, v, p) in line {
+            for (v, p) in line {
                 let text = format!("{v:.0}");
                 let w = text_width(&text, 12) + 4.0;
                 let candidates = label_spots(*p, w, LABEL_HEIGHT, k == 0);
@@ -1248,7 +1264,7 @@ mod tests {
     #[test]
     fn a_label_goes_to_the_first_clear_place() {
         let mut o = Obstacles::new(PixelBox::new((0.0, 0.0), (100.0, 100.0)));
-        o.lines.push(((0.0, 50.0), (100.0, 50.0), 20.0));
+        o.lines.push(Line::new((0.0, 50.0), (100.0, 50.0), 20.0));
         o.solid.push(PixelBox::new((40.0, 20.0), (60.0, 30.0)));
         let on_line = PixelBox::centred(50.0, 50.0, 20.0, 10.0);
         let on_marker = PixelBox::centred(50.0, 25.0, 20.0, 10.0);
