@@ -388,7 +388,7 @@ impl Obstacles {
                 o > 0.0 && o < b.area() - 1e-9
             })
             .count() as f64
-            * 25.0;
+            * 5.0;
         cost
     }
 
@@ -399,7 +399,7 @@ impl Obstacles {
         let best = candidates
             .iter()
             .enumerate()
-            .map(|(rank, b)| (self.cost(b) + rank as f64 * 0.5, *b))
+            .map(|(rank, b)| (self.cost(b) + rank as f64 * 2.0, *b))
             .min_by(|a, b| a.0.total_cmp(&b.0))
             .map(|(_, b)| b)
             .expect("at least one candidate");
