@@ -41,10 +41,22 @@ fn typst_version() -> Option<String> {
     }
 }
 
+/// The font cache these tests use: the build's temporary folder, not the
+/// user's own cache.
+fn test_cache_home() -> PathBuf {
+    PathBuf::from(env!("CARGO_TARGET_TMPDIR")).join("render-cache-home")
+}
+
 fn ampreport(args: &[&std::ffi::OsStr]) -> Output {
+    ampreport_with_cache(args, &test_cache_home())
+}
+
+/// Runs ampreport with `XDG_CACHE_HOME` set to `cache_home`.
+fn ampreport_with_cache(args: &[&std::ffi::OsStr], cache_home: &Path) -> Output {
     Command::new(BIN)
         .args(args)
         .env_remove("AMPREPORT_TYPST")
+        .env("XDG_CACHE_HOME", cache_home)
         .output()
         .expect("run ampreport")
 }
@@ -167,6 +179,7 @@ const DEFERRAL_PHRASES: &[&str] = &[
 fn each_demo_job_renders_with_its_figures_and_cautions() {
     let Some(typst) = typst_version() else { return };
     let dir = tempfile::tempdir().unwrap();
+    let (mut mod_figures, mut rectifier_loads) = (0, 0);
     for name in DEMO_JOBS {
         let job = demo(name);
         let pdf = dir.path().join(format!("{name}.pdf"));
@@ -217,6 +230,47 @@ fn each_demo_job_renders_with_its_figures_and_cautions() {
         }
         assert!(figures >= 4, "{name}: only {figures} dissipation figures");
 
+        // Every worked figure of a modification: its number and its formula.
+        for m in json["mods"].as_array().unwrap() {
+            for f in m["figures"].as_array().unwrap() {
+                let number = match (f["frequency_hz"].as_f64(), f["gain"].as_f64()) {
+                    (Some(hz), _) => format!("{hz:.0} Hz"),
+                    (None, Some(gain)) => format!("gain about {gain:.0}"),
+                    (None, None) => panic!("{name}: a figure with no number: {f}"),
+                };
+                assert!(
+                    flat.contains(&normalise(&number)),
+                    "{name}: mod figure {number:?} missing"
+                );
+                let formula = f["formula"].as_str().unwrap();
+                assert!(
+                    flat.contains(&normalise(formula)),
+                    "{name}: formula {formula:?} missing"
+                );
+                mod_figures += 1;
+            }
+        }
+
+        // A valve rectifier's load (a lower bound) and its rating, per set.
+        for set in json["sets"].as_array().unwrap() {
+            let r = &set["rectifier"];
+            if r.is_null() {
+                continue;
+            }
+            let load = format!("{:.1}", r["load_at_least_ma"].as_f64().unwrap());
+            let rating = format!("{:.0}mA", r["rating_ma"].as_f64().unwrap());
+            assert!(
+                words.contains(load.as_str()),
+                "{name}: rectifier load {load} mA of {} missing",
+                set["label"]
+            );
+            assert!(
+                flat.contains(&rating),
+                "{name}: rectifier rating {rating} missing"
+            );
+            rectifier_loads += 1;
+        }
+
         for phrase in CAUTION_PHRASES.iter().chain(DEFERRAL_PHRASES) {
             assert!(
                 flat.contains(&normalise(phrase)),
@@ -264,6 +318,68 @@ fn each_demo_job_renders_with_its_figures_and_cautions() {
             "{name}: versions not on every page"
         );
     }
+    // The demo jobs include a mod with a cathode-bypass corner and two
+    // stage gains, and two jobs with a valve rectifier (two sets each).
+    assert_eq!(mod_figures, 3, "worked figures checked");
+    assert_eq!(rectifier_loads, 4, "rectifier loads checked");
+}
+
+/// The words on `page` of `pdf` with their boxes (points from the top
+/// left), from `pdftotext -bbox`.
+fn word_boxes(pdf: &Path, page: usize) -> Vec<(String, [f64; 4])> {
+    let page = page.to_string();
+    let html = pdftotext_args(pdf, &["-bbox", "-f", &page, "-l", &page]);
+    html.lines()
+        .filter_map(|line| {
+            let line = line.trim();
+            let rest = line.strip_prefix("<word ")?;
+            let (attrs, text) = rest.split_once('>')?;
+            let text = text.strip_suffix("</word>")?;
+            let value = |name: &str| -> Option<f64> {
+                let start = attrs.find(&format!("{name}=\""))? + name.len() + 2;
+                let end = attrs[start..].find('"')? + start;
+                attrs[start..end].parse().ok()
+            };
+            Some((
+                text.to_string(),
+                [
+                    value("xMin")?,
+                    value("yMin")?,
+                    value("xMax")?,
+                    value("yMax")?,
+                ],
+            ))
+        })
+        .collect()
+}
+
+#[test]
+fn no_text_runs_past_the_page_margins() {
+    if typst_version().is_none() {
+        return;
+    }
+    // A4 is 595.28 pt wide; the side margins are 17 mm (48.19 pt) and the
+    // bottom margin 21 mm, with the footer in it.
+    let (left, right) = (48.19 - 1.0, 595.28 - 48.19 + 1.0);
+    let dir = tempfile::tempdir().unwrap();
+    for name in DEMO_JOBS {
+        let pdf = dir.path().join(format!("{name}.pdf"));
+        assert_ok(&render(&demo(name), &pdf, &[]), name);
+        for page in 1..=page_count(&pdf) {
+            let words = word_boxes(&pdf, page);
+            assert!(
+                words.len() > 20,
+                "{name} page {page}: {} words",
+                words.len()
+            );
+            for (word, [x0, y0, x1, y1]) in &words {
+                assert!(
+                    *x0 >= left && *x1 <= right && *y0 >= 0.0 && *y1 <= 841.89,
+                    "{name} page {page}: {word:?} at {x0:.1}–{x1:.1}, {y0:.1}–{y1:.1} is off the text area"
+                );
+            }
+        }
+    }
 }
 
 #[test]
@@ -290,6 +406,32 @@ fn the_at_a_glance_panel_names_each_family_with_its_status() {
         let word = family["status"].as_str().unwrap().to_uppercase();
         let line = format!("{title}{word}");
         assert!(first_page.contains(&line), "page 1 lacks {line:?}");
+        // Its worst figure, or for an all-ok family calc's summary sentence,
+        // follows in full (the page starts it with a capital).
+        let worst = normalise(family["worst"].as_str().unwrap()).to_lowercase();
+        assert!(
+            first_page
+                .to_lowercase()
+                .contains(&format!("{}{worst}", line.to_lowercase())),
+            "page 1 lacks the worst figure {worst:?} after {line:?}"
+        );
+    }
+    // The summary of an all-ok family, e.g. "4 nodes within tolerance of the
+    // chart; largest deviation +1.9 % at B+4", stays inside the panel: the
+    // panel is the full text width, so no word of page 1 passes the margin.
+    let supply = &json["at_a_glance"][1];
+    assert_eq!(supply["family"], "supply_voltages");
+    assert!(
+        supply["worst"]
+            .as_str()
+            .unwrap()
+            .contains("within tolerance")
+    );
+    for (word, [x0, _, x1, _]) in word_boxes(&pdf, 1) {
+        assert!(
+            x0 >= 47.0 && x1 <= 548.1,
+            "{word:?} at {x0}–{x1} leaves the page 1 text area"
+        );
     }
 }
 
@@ -311,10 +453,14 @@ fn rendering_twice_and_from_emitted_source_gives_identical_bytes() {
     assert!(bytes.starts_with(b"%PDF-"));
     assert_eq!(bytes, std::fs::read(&b).unwrap(), "two renders differ");
 
-    // The command docs/render.md gives for an emitted folder.
+    // The command docs/render.md gives for an emitted folder, which holds
+    // its own fonts.
     assert!(
         src.join("main.typ").is_file() && src.join("plots").join("plate-dissipation.svg").is_file()
     );
+    for font in ["NotoSans-Regular.ttf", "wqy-microhei.ttc", "OFL-1.1.txt"] {
+        assert!(src.join("fonts").join(font).is_file(), "{font} not emitted");
+    }
     let c = dir.path().join("c.pdf");
     let root = src.to_str().unwrap();
     let status = Command::new("typst")
@@ -342,6 +488,58 @@ fn rendering_twice_and_from_emitted_source_gives_identical_bytes() {
         bytes,
         std::fs::read(&c).unwrap(),
         "typst on the emitted source gives another PDF"
+    );
+}
+
+#[test]
+fn fonts_from_the_user_cache_or_the_sandbox_give_identical_bytes() {
+    if typst_version().is_none() {
+        return;
+    }
+    let dir = tempfile::tempdir().unwrap();
+    let job = demo("combo-6v6-fixed");
+    let home = dir.path().join("cache-home");
+    let args = |pdf: &Path| -> Vec<std::ffi::OsString> {
+        vec![
+            "render".into(),
+            job.clone().into(),
+            "-o".into(),
+            pdf.as_os_str().into(),
+        ]
+    };
+    let run = |pdf: &Path, home: &Path| {
+        let args = args(pdf);
+        let args: Vec<&std::ffi::OsStr> = args.iter().map(|a| a.as_os_str()).collect();
+        let out = ampreport_with_cache(&args, home);
+        assert_ok(&out, "render");
+        std::fs::read(pdf).unwrap()
+    };
+    // First run writes the cache, the second uses it.
+    let first = run(&dir.path().join("a.pdf"), &home);
+    let cached: Vec<PathBuf> = std::fs::read_dir(home.join("ampreport"))
+        .unwrap()
+        .map(|e| e.unwrap().path())
+        .collect();
+    assert_eq!(cached.len(), 1, "{cached:?}");
+    let folder = &cached[0];
+    assert!(
+        folder
+            .file_name()
+            .unwrap()
+            .to_string_lossy()
+            .starts_with("fonts-")
+    );
+    assert!(folder.join("NotoSans-Regular.ttf").is_file());
+    let second = run(&dir.path().join("b.pdf"), &home);
+    // A cache folder that cannot be made: the fonts go into the sandbox.
+    let blocked = dir.path().join("not-a-folder");
+    std::fs::write(&blocked, b"x").unwrap();
+    let fallback = run(&dir.path().join("c.pdf"), &blocked);
+    assert!(first.starts_with(b"%PDF-"));
+    assert_eq!(first, second, "a render from the cache differs");
+    assert_eq!(
+        first, fallback,
+        "a render with fonts in the sandbox differs"
     );
 }
 
@@ -835,6 +1033,7 @@ fn without_typst_the_install_command_is_named() {
         ])
         .env("PATH", empty.path())
         .env_remove("AMPREPORT_TYPST")
+        .env("XDG_CACHE_HOME", test_cache_home())
         .output()
         .unwrap();
     let stderr = String::from_utf8_lossy(&out.stderr);

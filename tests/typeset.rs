@@ -8,8 +8,9 @@ use std::path::{Path, PathBuf};
 use std::process::Command;
 
 use ampreport::typeset::{
-    CompileOptions, INSTALL_HINT, MIN_TYPST, Sandbox, TemplateSource, TypesetError, TypstProgram,
-    compile, emit_source, font_rules, locate, locate_in, template_environment, typst_markup,
+    CompileOptions, FontPlace, FontsUsed, INSTALL_HINT, MIN_TYPST, Sandbox, TemplateSource,
+    TypesetError, TypstProgram, compile, emit_source, font_cache_folder_name, font_rules, locate,
+    locate_in, template_environment, typst_markup,
 };
 use chrono::NaiveDate;
 use minijinja::context;
@@ -28,6 +29,20 @@ fn typst() -> Option<TypstProgram> {
 
 fn job_date() -> NaiveDate {
     NaiveDate::from_ymd_opt(2024, 5, 17).unwrap()
+}
+
+/// A font cache for these tests, inside the build's own temporary folder
+/// rather than the user's cache.
+fn test_cache() -> PathBuf {
+    PathBuf::from(env!("CARGO_TARGET_TMPDIR")).join("typeset-font-cache")
+}
+
+/// The default options, with the fonts in [`test_cache`].
+fn options(date: NaiveDate) -> CompileOptions {
+    CompileOptions {
+        fonts: FontPlace::CacheIn(test_cache()),
+        ..CompileOptions::new(date)
+    }
 }
 
 const CASE_TEMPLATE: &str = "\
@@ -143,7 +158,7 @@ fn corpus() -> Vec<(&'static str, String)> {
 fn hostile_text_prints_literally() {
     let Some(program) = typst() else { return };
     let dir = tempfile::tempdir().unwrap();
-    let opts = CompileOptions::new(job_date());
+    let opts = options(job_date());
     let mut failures = Vec::new();
     for (name, text) in corpus() {
         let pdf = dir.path().join(format!("{}.pdf", name.replace(' ', "-")));
@@ -173,7 +188,7 @@ fn title_string_is_kept_exactly() {
     let dir = tempfile::tempdir().unwrap();
     let pdf = dir.path().join("title.pdf");
     let title = "Amp \"Deluxe\" \\ #1 — Ωμέγα";
-    let opts = CompileOptions::new(job_date());
+    let opts = options(job_date());
     compile(&program, &case_sandbox(title), "main.typ", &opts, &pdf).unwrap();
     let info = Command::new("pdfinfo")
         .args(["-enc", "UTF-8"])
@@ -213,7 +228,7 @@ fn same_inputs_give_identical_bytes() {
     let Some(program) = typst() else { return };
     let dir = tempfile::tempdir().unwrap();
     let (a, b) = (dir.path().join("a.pdf"), dir.path().join("b.pdf"));
-    let opts = CompileOptions::new(job_date());
+    let opts = options(job_date());
     let sandbox = rich_sandbox();
     let outcome = compile(&program, &sandbox, "main.typ", &opts, &a).unwrap();
     assert_eq!(outcome.warnings, "", "typst warned");
@@ -226,9 +241,63 @@ fn same_inputs_give_identical_bytes() {
 
     // A different date is a different document.
     let c = dir.path().join("c.pdf");
-    let later = CompileOptions::new(NaiveDate::from_ymd_opt(2024, 5, 18).unwrap());
+    let later = options(NaiveDate::from_ymd_opt(2024, 5, 18).unwrap());
     compile(&program, &sandbox, "main.typ", &later, &c).unwrap();
     assert_ne!(bytes, std::fs::read(&c).unwrap());
+}
+
+#[test]
+fn fonts_from_the_cache_or_the_sandbox_give_identical_bytes() {
+    let Some(program) = typst() else { return };
+    let dir = tempfile::tempdir().unwrap();
+    let cache = dir.path().join("cache");
+    let sandbox = rich_sandbox();
+    let cached = CompileOptions {
+        fonts: FontPlace::CacheIn(cache.clone()),
+        ..CompileOptions::new(job_date())
+    };
+    let in_sandbox = CompileOptions {
+        fonts: FontPlace::Sandbox,
+        ..CompileOptions::new(job_date())
+    };
+    let (a, b, c) = (
+        dir.path().join("a.pdf"),
+        dir.path().join("b.pdf"),
+        dir.path().join("c.pdf"),
+    );
+    // First run fills the cache, the second finds it.
+    let first = compile(&program, &sandbox, "main.typ", &cached, &a).unwrap();
+    let folder = cache.join(font_cache_folder_name());
+    assert_eq!(first.fonts, FontsUsed::Cache(folder.clone()));
+    assert!(folder.join("NotoSans-Regular.ttf").is_file());
+    let second = compile(&program, &sandbox, "main.typ", &cached, &b).unwrap();
+    assert_eq!(second.fonts, FontsUsed::Cache(folder));
+    let third = compile(&program, &sandbox, "main.typ", &in_sandbox, &c).unwrap();
+    assert_eq!(third.fonts, FontsUsed::Sandbox);
+    let bytes = std::fs::read(&a).unwrap();
+    assert!(bytes.starts_with(b"%PDF-"));
+    assert_eq!(
+        bytes,
+        std::fs::read(&b).unwrap(),
+        "cache reused: other bytes"
+    );
+    assert_eq!(
+        bytes,
+        std::fs::read(&c).unwrap(),
+        "sandbox fonts: other bytes"
+    );
+
+    // A cache root that cannot be made falls back to the sandbox, same bytes.
+    let blocked = dir.path().join("a-file");
+    std::fs::write(&blocked, b"x").unwrap();
+    let fallback = CompileOptions {
+        fonts: FontPlace::CacheIn(blocked.join("cache")),
+        ..CompileOptions::new(job_date())
+    };
+    let d = dir.path().join("d.pdf");
+    let outcome = compile(&program, &sandbox, "main.typ", &fallback, &d).unwrap();
+    assert_eq!(outcome.fonts, FontsUsed::Sandbox);
+    assert_eq!(bytes, std::fs::read(&d).unwrap(), "fallback: other bytes");
 }
 
 #[test]
@@ -240,7 +309,7 @@ fn only_bundled_fonts_are_embedded() {
         &program,
         &rich_sandbox(),
         "main.typ",
-        &CompileOptions::new(job_date()),
+        &options(job_date()),
         &pdf,
     )
     .unwrap();
@@ -266,7 +335,7 @@ fn pdf_a_2b_and_plain_pdf_both_compile() {
     let Some(program) = typst() else { return };
     let dir = tempfile::tempdir().unwrap();
     let archived = dir.path().join("a2b.pdf");
-    let opts = CompileOptions::new(job_date());
+    let opts = options(job_date());
     compile(&program, &rich_sandbox(), "main.typ", &opts, &archived).unwrap();
     let bytes = std::fs::read(&archived).unwrap();
     let has = |needle: &[u8]| bytes.windows(needle.len()).any(|w| w == needle);
@@ -278,7 +347,7 @@ fn pdf_a_2b_and_plain_pdf_both_compile() {
     let plain = dir.path().join("plain.pdf");
     let opts = CompileOptions {
         pdf_standard: None,
-        ..CompileOptions::new(job_date())
+        ..options(job_date())
     };
     compile(&program, &rich_sandbox(), "main.typ", &opts, &plain).unwrap();
     let plain_bytes = std::fs::read(&plain).unwrap();
@@ -315,7 +384,7 @@ fn a_typst_error_leaves_the_old_pdf_and_no_stray_files() {
         &program,
         &sandbox,
         "main.typ",
-        &CompileOptions::new(job_date()),
+        &options(job_date()),
         &output,
     )
     .unwrap_err();
@@ -344,6 +413,21 @@ fn a_typst_error_leaves_the_old_pdf_and_no_stray_files() {
     let rendered = format!("{:?}", miette::Report::new(err));
     assert!(rendered.contains("no-such-function"), "{rendered}");
     std::fs::remove_dir_all(kept).unwrap();
+
+    // With the fonts written into the sandbox, they are removed from the
+    // kept folder too.
+    let in_sandbox = CompileOptions {
+        fonts: FontPlace::Sandbox,
+        ..options(job_date())
+    };
+    let Err(TypesetError::Compile { kept, .. }) =
+        compile(&program, &sandbox, "main.typ", &in_sandbox, &output)
+    else {
+        panic!("expected a compile error");
+    };
+    assert!(kept.join("main.typ").is_file() && !kept.join("fonts").exists());
+    assert_eq!(std::fs::read(&output).unwrap(), before);
+    std::fs::remove_dir_all(kept).unwrap();
 }
 
 #[test]
@@ -362,7 +446,7 @@ fn a_typst_that_fails_leaves_the_old_pdf_and_no_stray_files() {
         &false_program,
         &rich_sandbox(),
         "main.typ",
-        &CompileOptions::new(job_date()),
+        &options(job_date()),
         &output,
     )
     .unwrap_err();
@@ -386,7 +470,7 @@ fn a_typst_that_fails_leaves_the_old_pdf_and_no_stray_files() {
         &true_program,
         &rich_sandbox(),
         "main.typ",
-        &CompileOptions::new(job_date()),
+        &options(job_date()),
         &output,
     )
     .unwrap_err();
@@ -408,7 +492,7 @@ fn a_good_run_replaces_the_old_pdf_cleanly() {
         &program,
         &rich_sandbox(),
         "main.typ",
-        &CompileOptions::new(job_date()),
+        &options(job_date()),
         &output,
     )
     .unwrap();
@@ -423,7 +507,7 @@ fn emitted_source_compiles_to_the_same_pdf() {
     let Some(program) = typst() else { return };
     let dir = tempfile::tempdir().unwrap();
     let via_module = dir.path().join("module.pdf");
-    let opts = CompileOptions::new(job_date());
+    let opts = options(job_date());
     let sandbox = rich_sandbox();
     compile(&program, &sandbox, "main.typ", &opts, &via_module).unwrap();
 

@@ -17,6 +17,9 @@ use crate::report::handover::{self, HandoverError, HandoverInput, ShopBlock};
 use crate::typeset::{self, TemplateSource, TypesetError};
 
 pub fn run(args: &RenderArgs) -> Exit {
+    // typst answers `--version` while the job is read; a problem with the
+    // job is still reported first.
+    let pending = typeset::start_locate(args.typst.as_deref());
     let loaded = match load::job(&args.job) {
         Ok(l) => l,
         Err(e) => return e,
@@ -29,7 +32,7 @@ pub fn run(args: &RenderArgs) -> Exit {
         Err(e) => return e,
     };
 
-    let program = match typeset::locate(args.typst.as_deref()) {
+    let program = match pending.finish() {
         Ok(p) => p,
         Err(e) => {
             eprintln!("{:?}", miette::Report::new(e));

@@ -28,8 +28,8 @@ pub struct RatingsTable {
 }
 
 impl RatingsTable {
-    /// The table built into the program. The embedded file is read once
-    /// per process; later calls clone that table.
+    /// The table built into the program. The embedded file is parsed once
+    /// per process; later calls get a copy of that table.
     ///
     /// # Panics
     ///

@@ -55,6 +55,23 @@ fn builtin_table_parses_with_enough_rows() {
 }
 
 #[test]
+fn each_builtin_table_is_its_own_copy() {
+    // The embedded file is parsed once per process; a shop file applied to
+    // one copy must not reach the next caller.
+    let mut first = RatingsTable::builtin();
+    let before = first.len();
+    let text = "ratings-format 1\nvalve \"6P1P\" {\n class \"beam-tetrode\"\n plate-dissipation \"12W\"\n plate-voltage \"250V\"\n heater \"6.3V\" \"0.5A\"\n source \"shop data sheet\"\n}\n";
+    first
+        .apply_shop_text("shop.kdl", text, shop_origin())
+        .unwrap();
+    assert_eq!(first.len(), before + 1);
+    let second = RatingsTable::builtin();
+    assert_eq!(second.len(), before);
+    assert!(second.lookup("6P1P").is_err());
+    assert!(second.iter().all(|r| r.origin == RatingOrigin::Builtin));
+}
+
+#[test]
 fn builtin_designations_are_unique() {
     let t = builtin();
     let mut seen: HashMap<String, String> = HashMap::new();

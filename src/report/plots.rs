@@ -217,6 +217,228 @@ fn pct_label(v: f64) -> String {
     format!("{v:.0} %")
 }
 
+/// plotters writes a font size `s` into the SVG as `s / 1.24`: the size in
+/// pixels the text is really set at.
+const SVG_FONT_SCALE: f64 = 1.0 / 1.24;
+
+/// The width in pixels of `text` set in the chart font at `size`,
+/// estimated from Noto Sans's advance widths (figures 0.572 em).
+pub(crate) fn text_width(text: &str, size: u32) -> f64 {
+    let em = f64::from(size) * SVG_FONT_SCALE;
+    text.chars()
+        .map(|c| match c {
+            '0'..='9' | '+' | '−' | '–' => 0.572,
+            ' ' | '\u{a0}' => 0.26,
+            '.' | ',' | ':' | ';' | 'i' | 'l' | 'j' | 'I' => 0.28,
+            '%' => 0.84,
+            'm' | 'w' | 'M' | 'W' => 0.86,
+            c if c.is_uppercase() => 0.66,
+            _ => 0.56,
+        })
+        .sum::<f64>()
+        * em
+}
+
+/// A rectangle in pixels, `x0 <= x1`, `y0 <= y1` (y grows downwards).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub(crate) struct PixelBox {
+    pub x0: f64,
+    pub y0: f64,
+    pub x1: f64,
+    pub y1: f64,
+}
+
+impl PixelBox {
+    fn new(a: (f64, f64), b: (f64, f64)) -> Self {
+        PixelBox {
+            x0: a.0.min(b.0),
+            y0: a.1.min(b.1),
+            x1: a.0.max(b.0),
+            y1: a.1.max(b.1),
+        }
+    }
+
+    /// A `w` × `h` box centred on `(cx, cy)`.
+    fn centred(cx: f64, cy: f64, w: f64, h: f64) -> Self {
+        PixelBox::new((cx - w / 2.0, cy - h / 2.0), (cx + w / 2.0, cy + h / 2.0))
+    }
+
+    /// A square of half-width `r` around a point.
+    fn around(p: (i32, i32), r: f64) -> Self {
+        let (x, y) = (f64::from(p.0), f64::from(p.1));
+        PixelBox::new((x - r, y - r), (x + r, y + r))
+    }
+
+    fn centre(&self) -> (f64, f64) {
+        ((self.x0 + self.x1) / 2.0, (self.y0 + self.y1) / 2.0)
+    }
+
+    fn area(&self) -> f64 {
+        (self.x1 - self.x0) * (self.y1 - self.y0)
+    }
+
+    /// The area both boxes cover.
+    pub(crate) fn overlap(&self, o: &PixelBox) -> f64 {
+        let w = self.x1.min(o.x1) - self.x0.max(o.x0);
+        let h = self.y1.min(o.y1) - self.y0.max(o.y0);
+        if w > 0.0 && h > 0.0 { w * h } else { 0.0 }
+    }
+
+    fn intersection(&self, o: &PixelBox) -> Option<PixelBox> {
+        (self.overlap(o) > 0.0).then(|| PixelBox {
+            x0: self.x0.max(o.x0),
+            y0: self.y0.max(o.y0),
+            x1: self.x1.min(o.x1),
+            y1: self.y1.min(o.y1),
+        })
+    }
+
+    /// How much of the segment `a`–`b` runs inside the box
+    /// (Liang–Barsky clipping).
+    pub(crate) fn crossing(&self, a: (f64, f64), b: (f64, f64)) -> f64 {
+        let (dx, dy) = (b.0 - a.0, b.1 - a.1);
+        let (mut t0, mut t1) = (0.0f64, 1.0f64);
+        for (p, q) in [
+            (-dx, a.0 - self.x0),
+            (dx, self.x1 - a.0),
+            (-dy, a.1 - self.y0),
+            (dy, self.y1 - a.1),
+        ] {
+            if p == 0.0 {
+                if q < 0.0 {
+                    return 0.0;
+                }
+            } else {
+                let t = q / p;
+                if p < 0.0 {
+                    t0 = t0.max(t);
+                } else {
+                    t1 = t1.min(t);
+                }
+            }
+        }
+        if t1 > t0 {
+            (t1 - t0) * dx.hypot(dy)
+        } else {
+            0.0
+        }
+    }
+
+    fn corners(&self) -> [(i32, i32); 2] {
+        [
+            (self.x0.round() as i32, self.y0.round() as i32),
+            (self.x1.round() as i32, self.y1.round() as i32),
+        ]
+    }
+}
+
+/// A straight line between two pixel points, and what crossing one pixel
+/// of it costs a label.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub(crate) struct Line {
+    pub from: (f64, f64),
+    pub to: (f64, f64),
+    pub weight: f64,
+}
+
+impl Line {
+    fn new(from: (f64, f64), to: (f64, f64), weight: f64) -> Self {
+        Line { from, to, weight }
+    }
+}
+
+/// What a figure's label must keep clear of, for choosing where it goes.
+#[derive(Debug, Clone)]
+pub(crate) struct Obstacles {
+    /// Labels must stay inside.
+    pub area: PixelBox,
+    /// Markers, bars and labels already placed: never covered.
+    pub solid: Vec<PixelBox>,
+    /// Lines a label should not sit on.
+    pub lines: Vec<Line>,
+    /// Shaded bands: a label sits inside one or outside it, not across its
+    /// edge.
+    pub bands: Vec<PixelBox>,
+}
+
+impl Obstacles {
+    fn new(area: PixelBox) -> Self {
+        Obstacles {
+            area,
+            solid: Vec::new(),
+            lines: Vec::new(),
+            bands: Vec::new(),
+        }
+    }
+
+    /// How bad a label at `b` would be; 0 when it is clear of everything.
+    pub(crate) fn cost(&self, b: &PixelBox) -> f64 {
+        let mut cost = (b.area() - b.overlap(&self.area)) * 1000.0;
+        cost += self.solid.iter().map(|s| b.overlap(s) * 60.0).sum::<f64>();
+        cost += self
+            .lines
+            .iter()
+            .map(|l| b.crossing(l.from, l.to) * l.weight)
+            .sum::<f64>();
+        cost += self
+            .bands
+            .iter()
+            .filter(|band| {
+                let o = b.overlap(band);
+                o > 0.0 && o < b.area() - 1e-9
+            })
+            .count() as f64
+            * 5.0;
+        cost
+    }
+
+    /// The cheapest of `candidates`, in order of preference: each step down
+    /// the list costs a little, so the first clear one wins. The choice is
+    /// then solid for later labels.
+    fn place(&mut self, candidates: &[PixelBox]) -> PixelBox {
+        let best = candidates
+            .iter()
+            .enumerate()
+            .map(|(rank, b)| (self.cost(b) + rank as f64 * 2.0, *b))
+            .min_by(|a, b| a.0.total_cmp(&b.0))
+            .map(|(_, b)| b)
+            .expect("at least one candidate");
+        self.solid.push(best);
+        best
+    }
+}
+
+/// Draws `text` centred in `b` on a patch of whatever lies behind it (paper,
+/// or the band colour where it overlaps a band), so a line it could not
+/// avoid passes behind the figure rather than through it.
+fn draw_label(
+    area: &DrawingArea<SVGBackend<'_>, Shift>,
+    b: &PixelBox,
+    bands: &[PixelBox],
+    text: &str,
+    size: u32,
+) -> Result<(), String> {
+    area.draw(&Rectangle::new(b.corners(), PAPER.filled()))
+        .map_err(|e| e.to_string())?;
+    for band in bands {
+        if let Some(part) = b.intersection(band) {
+            area.draw(&Rectangle::new(part.corners(), LIGHT.filled()))
+                .map_err(|e| e.to_string())?;
+        }
+    }
+    let (cx, cy) = b.centre();
+    area.draw(&Text::new(
+        text.to_string(),
+        (cx.round() as i32, cy.round() as i32),
+        anchored(size, HPos::Center, VPos::Center),
+    ))
+    .map_err(|e| e.to_string())
+}
+
+/// Height of a figure label's box at font size 12 (set at 9.7 px), in
+/// pixels.
+const LABEL_HEIGHT: f64 = 12.0;
+
 fn err(chart: &'static str) -> impl Fn(String) -> PlotError {
     move |message| PlotError { chart, message }
 }
@@ -395,6 +617,7 @@ fn draw_dissipation(chart: &DissipationChart, svg: &mut String) -> Result<(), St
     // Bars: each valve a group, each set a bar in it.
     let group = 0.62;
     let bar = group / sets as f64;
+    let mut bars: Vec<(PixelBox, String)> = Vec::new();
     for (k, series) in chart.series.iter().enumerate() {
         let (fill, hatched) = bar_pattern(k);
         for (i, value) in series.values.iter().enumerate() {
@@ -413,12 +636,11 @@ fn draw_dissipation(chart: &DissipationChart, svg: &mut String) -> Result<(), St
             }
             root.draw(&Rectangle::new([a, b], INK.stroke_width(1)))
                 .map_err(|e| e.to_string())?;
-            root.draw(&Text::new(
-                pct_label(v),
-                ((a.0 + b.0) / 2, a.1 - 3),
-                anchored(12, HPos::Center, VPos::Bottom),
-            ))
-            .map_err(|e| e.to_string())?;
+            let pixels = PixelBox::new(
+                (f64::from(a.0), f64::from(a.1)),
+                (f64::from(b.0), f64::from(b.1)),
+            );
+            bars.push((pixels, pct_label(v)));
         }
     }
 
@@ -435,6 +657,48 @@ fn draw_dissipation(chart: &DissipationChart, svg: &mut String) -> Result<(), St
         anchored(12, HPos::Left, VPos::Bottom),
     ))
     .map_err(|e| e.to_string())?;
+
+    // Each bar's figure just above it, moved up clear of the rating and
+    // caution lines when they run through that place.
+    let (_, plot_top) = ctx.backend_coord(&(0.0, top));
+    let (_, plot_bottom) = ctx.backend_coord(&(0.0, 0.0));
+    let mut obstacles = Obstacles::new(PixelBox::new(
+        (f64::from(left), f64::from(plot_top)),
+        (f64::from(right), f64::from(plot_bottom)),
+    ));
+    obstacles.solid = bars.iter().map(|(b, _)| *b).collect();
+    let (l, r) = (f64::from(left), f64::from(right));
+    obstacles
+        .lines
+        .push(Line::new((l, f64::from(y100)), (r, f64::from(y100)), 40.0));
+    match chart.guide {
+        Guide::Caution { pct } => {
+            let y = f64::from(ctx.backend_coord(&(0.0, pct)).1);
+            obstacles.lines.push(Line::new((l, y), (r, y), 25.0));
+        }
+        Guide::Aim { low_pct, high_pct } => {
+            let lo = f64::from(ctx.backend_coord(&(0.0, low_pct)).1);
+            let hi = f64::from(ctx.backend_coord(&(0.0, high_pct)).1);
+            obstacles.bands.push(PixelBox::new((l, hi), (r, lo)));
+        }
+        Guide::None => {}
+    }
+    let bands = obstacles.bands.clone();
+    for (pixels, text) in &bars {
+        let w = text_width(text, 12) + 4.0;
+        let cx = (pixels.x0 + pixels.x1) / 2.0;
+        let candidates: Vec<PixelBox> = (0..40)
+            .map(|k| {
+                let bottom = pixels.y0 - 2.0 - f64::from(k) * 2.0;
+                PixelBox::new(
+                    (cx - w / 2.0, bottom - LABEL_HEIGHT),
+                    (cx + w / 2.0, bottom),
+                )
+            })
+            .collect();
+        let place = obstacles.place(&candidates);
+        draw_label(&root, &place, &bands, text, 12)?;
+    }
 
     // Category labels under the axis.
     for (i, label) in chart.valves.iter().enumerate() {
@@ -520,6 +784,36 @@ fn draw_marker(
     result.map_err(|e| e.to_string())
 }
 
+/// Places for a marker's figure, best first: beside the marker on the
+/// preferred side, above and below it, diagonally, then the other side,
+/// then further out.
+fn label_spots(p: (i32, i32), w: f64, h: f64, left_first: bool) -> Vec<PixelBox> {
+    let (x, y) = (f64::from(p.0), f64::from(p.1));
+    let side = if left_first { -1.0 } else { 1.0 };
+    let beside = |s: f64, far: f64| PixelBox::centred(x + s * (11.0 + far + w / 2.0), y, w, h);
+    let diagonal = |s: f64, up: f64| {
+        PixelBox::centred(x + s * (5.0 + w / 2.0), y + up * (8.0 + h / 2.0), w, h)
+    };
+    let straight = |up: f64| PixelBox::centred(x, y + up * (10.0 + h / 2.0), w, h);
+    vec![
+        beside(side, 0.0),
+        straight(-1.0),
+        straight(1.0),
+        diagonal(side, -1.0),
+        diagonal(side, 1.0),
+        beside(-side, 0.0),
+        diagonal(-side, -1.0),
+        diagonal(-side, 1.0),
+        beside(side, 10.0),
+        beside(-side, 10.0),
+        straight(-2.2),
+        straight(2.2),
+    ]
+}
+
+/// One reading on the supply chart: its volts and where its marker sits.
+type Reading = (f64, (i32, i32));
+
 /// Draws the supply-chain chart as an SVG document.
 pub fn supply_svg(chart: &SupplyChart) -> Result<String, PlotError> {
     let e = err("supply chain");
@@ -582,6 +876,12 @@ fn draw_supply(chart: &SupplyChart, svg: &mut String) -> Result<(), String> {
     let (left, _) = ctx.backend_coord(&(0.0, bottom));
 
     // Bands: the expected figure ± tolerance, as a grey column per node.
+    let (_, plot_top) = ctx.backend_coord(&(0.0, top));
+    let (right, plot_bottom) = ctx.backend_coord(&(n as f64, bottom));
+    let mut obstacles = Obstacles::new(PixelBox::new(
+        (f64::from(left), f64::from(plot_top)),
+        (f64::from(right), f64::from(plot_bottom)),
+    ));
     for (i, node) in chart.nodes.iter().enumerate() {
         if let Some((lo, expected, hi)) = node.band {
             let x0 = i as f64 + 0.22;
@@ -594,52 +894,83 @@ fn draw_supply(chart: &SupplyChart, svg: &mut String) -> Result<(), String> {
             let a = ctx.backend_coord(&(x0, expected));
             let b = ctx.backend_coord(&(x1, expected));
             dashed(&root, a.0, b.0, a.1, INK.stroke_width(1))?;
+            let (p, q) = (ctx.backend_coord(&(x0, lo)), ctx.backend_coord(&(x1, hi)));
+            obstacles.bands.push(PixelBox::new(
+                (f64::from(p.0), f64::from(p.1)),
+                (f64::from(q.0), f64::from(q.1)),
+            ));
+            obstacles.lines.push(Line::new(
+                (f64::from(a.0), f64::from(a.1)),
+                (f64::from(b.0), f64::from(b.1)),
+                12.0,
+            ));
         }
     }
 
-    // One polyline and marker per set, offset sideways so sets sit side by side.
-    let mut labels: Vec<((i32, i32), bool, String)> = Vec::new();
+    // One polyline and marker per set, offset sideways so sets sit side by
+    // side: every line first, then every marker over them.
     let spread = if sets > 1 {
         0.36 / (sets - 1) as f64
     } else {
         0.0
     };
-    for (k, series) in chart.series.iter().enumerate() {
-        let offset = 0.5 - 0.18 + k as f64 * spread;
-        let offset = if sets == 1 { 0.5 } else { offset };
-        let points: Vec<(i32, i32)> = series
-            .values
-            .iter()
-            .enumerate()
-            .filter_map(|(i, v)| v.map(|v| ctx.backend_coord(&(i as f64 + offset, v))))
-            .collect();
-        if points.len() > 1 {
-            root.draw(&PathElement::new(points.clone(), MID.stroke_width(1)))
-                .map_err(|e| e.to_string())?;
+    let offset = |k: usize| {
+        if sets == 1 {
+            0.5
+        } else {
+            0.5 - 0.18 + k as f64 * spread
         }
-        for (i, v) in series.values.iter().enumerate() {
-            let Some(v) = *v else { continue };
-            let p = ctx.backend_coord(&(i as f64 + offset, v));
-            draw_marker(&root, p, marker(k))?;
-            if sets <= 2 {
-                labels.push((p, k == 0, format!("{v:.0}")));
+    };
+    let points: Vec<Vec<Reading>> = chart
+        .series
+        .iter()
+        .enumerate()
+        .map(|(k, series)| {
+            series
+                .values
+                .iter()
+                .enumerate()
+                .filter_map(|(i, v)| v.map(|v| (v, ctx.backend_coord(&(i as f64 + offset(k), v)))))
+                .collect()
+        })
+        .collect();
+    for line in &points {
+        let path: Vec<(i32, i32)> = line.iter().map(|(_, p)| *p).collect();
+        if path.len() > 1 {
+            root.draw(&PathElement::new(path.clone(), MID.stroke_width(1)))
+                .map_err(|e| e.to_string())?;
+            for pair in path.windows(2) {
+                let (a, b) = (pair[0], pair[1]);
+                obstacles.lines.push(Line::new(
+                    (f64::from(a.0), f64::from(a.1)),
+                    (f64::from(b.0), f64::from(b.1)),
+                    20.0,
+                ));
             }
         }
     }
-    // Figures last, each on a white patch so lines and bands stay clear
-    // of them: the first set's to the left of its marker, the second's to
-    // the right.
-    for ((x, y), left, text) in labels {
-        let width = 7 * text.chars().count() as i32 + 4;
-        let (x0, x1, h, tx) = if left {
-            (x - 11 - width, x - 9, HPos::Right, x - 11)
-        } else {
-            (x + 9, x + 11 + width, HPos::Left, x + 11)
-        };
-        root.draw(&Rectangle::new([(x0, y - 8), (x1, y + 8)], PAPER.filled()))
-            .map_err(|e| e.to_string())?;
-        root.draw(&Text::new(text, (tx, y), anchored(12, h, VPos::Center)))
-            .map_err(|e| e.to_string())?;
+    for (k, line) in points.iter().enumerate() {
+        for (_, p) in line {
+            draw_marker(&root, *p, marker(k))?;
+            obstacles.solid.push(PixelBox::around(*p, 9.0));
+        }
+    }
+
+    // Figures last, each where it covers no marker, figure or line if
+    // there is such a place near its marker: the first set's on the left
+    // by preference, the second's on the right (with more than two sets
+    // the table carries the figures).
+    if sets <= 2 {
+        let bands = obstacles.bands.clone();
+        for (k, line) in points.iter().enumerate() {
+            for (v, p) in line {
+                let text = format!("{v:.0}");
+                let w = text_width(&text, 12) + 4.0;
+                let candidates = label_spots(*p, w, LABEL_HEIGHT, k == 0);
+                let place = obstacles.place(&candidates);
+                draw_label(&root, &place, &bands, &text, 12)?;
+            }
+        }
     }
 
     for (i, node) in chart.nodes.iter().enumerate() {
@@ -707,6 +1038,84 @@ mod tests {
         format!("#{:02X}{:02X}{:02X}", c.0, c.1, c.2)
     }
 
+    /// The value of attribute `name` in one SVG element.
+    fn attr(element: &str, name: &str) -> Option<String> {
+        let start = element.find(&format!(" {name}=\""))? + name.len() + 3;
+        let end = element[start..].find('"')? + start;
+        Some(element[start..end].to_string())
+    }
+
+    fn num(element: &str, name: &str) -> f64 {
+        attr(element, name).and_then(|v| v.parse().ok()).unwrap()
+    }
+
+    struct SvgRect {
+        b: PixelBox,
+        fill: String,
+    }
+
+    /// Every `<rect>` but the page background.
+    fn rects(svg: &str) -> Vec<SvgRect> {
+        svg.lines()
+            .filter(|l| l.trim_start().starts_with("<rect"))
+            .skip(1)
+            .map(|l| {
+                let (x, y) = (num(l, "x"), num(l, "y"));
+                SvgRect {
+                    b: PixelBox::new((x, y), (x + num(l, "width"), y + num(l, "height"))),
+                    fill: attr(l, "fill").unwrap(),
+                }
+            })
+            .collect()
+    }
+
+    /// Label patches: paper-coloured rectangles the height of a figure.
+    fn patches(svg: &str) -> Vec<PixelBox> {
+        rects(svg)
+            .into_iter()
+            .filter(|r| r.fill == hex(PAPER) && (r.b.y1 - r.b.y0 - LABEL_HEIGHT).abs() < 1.5)
+            .map(|r| r.b)
+            .collect()
+    }
+
+    /// The boxes of the plotted markers (circles and polygons), outside
+    /// the legend row.
+    fn markers(svg: &str) -> Vec<PixelBox> {
+        let mut out = Vec::new();
+        for l in svg.lines().map(str::trim_start) {
+            if l.starts_with("<circle") && attr(l, "fill").as_deref() == Some("none") {
+                let (x, y, r) = (num(l, "cx"), num(l, "cy"), num(l, "r"));
+                out.push(PixelBox::new(
+                    (x - r - 1.0, y - r - 1.0),
+                    (x + r + 1.0, y + r + 1.0),
+                ));
+            } else if l.starts_with("<polygon") {
+                let pts: Vec<(f64, f64)> = attr(l, "points")
+                    .unwrap()
+                    .split_whitespace()
+                    .map(|p| {
+                        let (x, y) = p.split_once(',').unwrap();
+                        (x.parse().unwrap(), y.parse().unwrap())
+                    })
+                    .collect();
+                let xs = pts.iter().map(|p| p.0);
+                let ys = pts.iter().map(|p| p.1);
+                out.push(PixelBox::new(
+                    (
+                        xs.clone().fold(f64::INFINITY, f64::min),
+                        ys.clone().fold(f64::INFINITY, f64::min),
+                    ),
+                    (
+                        xs.fold(f64::NEG_INFINITY, f64::max),
+                        ys.fold(f64::NEG_INFINITY, f64::max),
+                    ),
+                ));
+            }
+        }
+        out.retain(|b| b.y0 > 40.0);
+        out
+    }
+
     fn two_sets() -> DissipationChart {
         DissipationChart {
             valves: vec!["V3 EL84".into(), "V4 EL84".into()],
@@ -767,7 +1176,13 @@ mod tests {
             "{t:?}"
         );
         assert!(!t.iter().any(|x| x.starts_with("caution")));
-        assert_eq!(rects_filled(&svg, &hex(LIGHT)), 1);
+        // The band; figures over it sit on patches of its colour, smaller
+        // than a figure's height.
+        let tall_light = rects(&svg)
+            .iter()
+            .filter(|r| r.fill == hex(LIGHT) && r.b.y1 - r.b.y0 > LABEL_HEIGHT)
+            .count();
+        assert_eq!(tall_light, 1);
     }
 
     #[test]
@@ -820,11 +1235,133 @@ mod tests {
         ] {
             assert!(t.iter().any(|x| x == want), "{want} missing from {t:?}");
         }
-        // One band column plus the legend swatch.
-        assert_eq!(rects_filled(&svg, &hex(LIGHT)), 2);
+        // One band column plus the legend swatch (label patches are lower).
+        let tall_light = rects(&svg)
+            .iter()
+            .filter(|r| r.fill == hex(LIGHT) && r.b.y1 - r.b.y0 > LABEL_HEIGHT)
+            .count();
+        assert_eq!(tall_light, 2);
         // Two hollow circles (as found) and their legend; one triangle (as left) and its legend.
         assert_eq!(svg.matches("<circle").count(), 2 * (2 + 1));
         assert_eq!(svg.matches("<polygon").count(), 1 + 1);
+    }
+
+    #[test]
+    fn boxes_measure_overlaps_and_crossings() {
+        let b = PixelBox::new((0.0, 0.0), (10.0, 10.0));
+        assert_eq!(b.overlap(&PixelBox::new((5.0, 5.0), (20.0, 20.0))), 25.0);
+        assert_eq!(b.overlap(&PixelBox::new((10.0, 0.0), (20.0, 10.0))), 0.0);
+        // A horizontal line through the middle crosses 10 px of it; a
+        // diagonal corner to corner 10·√2; a line beside it none.
+        assert!((b.crossing((-5.0, 5.0), (15.0, 5.0)) - 10.0).abs() < 1e-9);
+        assert!((b.crossing((0.0, 0.0), (10.0, 10.0)) - 200f64.sqrt()).abs() < 1e-9);
+        assert_eq!(b.crossing((-5.0, 12.0), (15.0, 12.0)), 0.0);
+        assert_eq!(b.crossing((12.0, -5.0), (12.0, 15.0)), 0.0);
+        // A segment that ends inside counts up to its end.
+        assert!((b.crossing((-5.0, 5.0), (4.0, 5.0)) - 4.0).abs() < 1e-9);
+    }
+
+    #[test]
+    fn a_label_goes_to_the_first_clear_place() {
+        let mut o = Obstacles::new(PixelBox::new((0.0, 0.0), (100.0, 100.0)));
+        o.lines.push(Line::new((0.0, 50.0), (100.0, 50.0), 20.0));
+        o.solid.push(PixelBox::new((40.0, 20.0), (60.0, 30.0)));
+        let on_line = PixelBox::centred(50.0, 50.0, 20.0, 10.0);
+        let on_marker = PixelBox::centred(50.0, 25.0, 20.0, 10.0);
+        let outside = PixelBox::centred(105.0, 80.0, 20.0, 10.0);
+        let clear = PixelBox::centred(50.0, 75.0, 20.0, 10.0);
+        assert!(o.cost(&on_line) > 0.0 && o.cost(&on_marker) > 0.0 && o.cost(&outside) > 0.0);
+        assert_eq!(o.cost(&clear), 0.0);
+        assert_eq!(o.place(&[on_line, on_marker, outside, clear]), clear);
+        // Once placed it is solid: the same spot is no longer clear.
+        assert!(o.cost(&clear) > 0.0);
+    }
+
+    #[test]
+    fn supply_figures_never_cover_markers_or_each_other() {
+        // Many nodes close together: the figures of neighbouring markers
+        // compete for the same room.
+        let nodes: Vec<SupplyNode> = (0..9)
+            .map(|i| SupplyNode {
+                name: format!("B+{}", i + 1),
+                band: Some((
+                    300.0 - 8.0 * i as f64 - 25.0,
+                    300.0 - 8.0 * i as f64,
+                    300.0 - 8.0 * i as f64 + 25.0,
+                )),
+            })
+            .collect();
+        let chart = SupplyChart {
+            series: vec![
+                Series {
+                    label: "as found".into(),
+                    values: (0..9).map(|i| Some(301.0 - 8.0 * i as f64)).collect(),
+                },
+                Series {
+                    label: "as left".into(),
+                    values: (0..9).map(|i| Some(296.0 - 7.0 * i as f64)).collect(),
+                },
+            ],
+            nodes,
+            nominal_volts: 230.0,
+        };
+        let svg = supply_svg(&chart).unwrap();
+        let labels = patches(&svg);
+        let marks = markers(&svg);
+        assert_eq!(labels.len(), 18, "one figure per reading");
+        assert_eq!(marks.len(), 18);
+        for (i, a) in labels.iter().enumerate() {
+            assert!(
+                a.x0 >= 0.0 && a.x1 <= f64::from(SIZE.0),
+                "{a:?} off the chart"
+            );
+            for m in &marks {
+                assert_eq!(a.overlap(m), 0.0, "figure {a:?} covers marker {m:?}");
+            }
+            for b in &labels[i + 1..] {
+                assert_eq!(a.overlap(b), 0.0, "figures {a:?} and {b:?} overlap");
+            }
+        }
+        for v in chart.series.iter().flat_map(|s| s.values.iter().flatten()) {
+            assert!(texts(&svg).contains(&format!("{v:.0}")), "{v}");
+        }
+    }
+
+    #[test]
+    fn a_bar_figure_stays_off_the_rating_line() {
+        let mut chart = two_sets();
+        // Just under the rating and just under the caution line: the
+        // figure's usual place, right above the bar, is on the line.
+        chart.series[0].values = vec![Some(97.0), Some(89.0)];
+        chart.series[1].values = vec![Some(99.5), Some(40.0)];
+        let svg = dissipation_svg(&chart).unwrap();
+        let lines: Vec<f64> = svg
+            .lines()
+            .filter(|l| l.trim_start().starts_with("<polyline") && l.contains("stroke-width=\"2\""))
+            .map(|l| {
+                let points = attr(l, "points").unwrap();
+                let first = points.split_whitespace().next().unwrap().to_string();
+                first.split_once(',').unwrap().1.parse().unwrap()
+            })
+            .collect();
+        assert_eq!(lines.len(), 1, "one rating line");
+        let y100 = lines[0];
+        let labels = patches(&svg);
+        assert_eq!(labels.len(), 4);
+        for b in &labels {
+            assert!(
+                b.y1 <= y100 - 1.0 || b.y0 >= y100 + 1.0,
+                "{b:?} on the line at {y100}"
+            );
+        }
+        assert!(texts(&svg).iter().any(|t| t == "97 %"));
+    }
+
+    #[test]
+    fn text_widths_follow_the_figures() {
+        // Noto Sans figures are 0.572 em wide; at size 12 the SVG sets 9.68 px.
+        assert!((text_width("300", 12) - 3.0 * 0.572 * 12.0 / 1.24).abs() < 1e-9);
+        assert!(text_width("100 %", 12) > text_width("100", 12));
     }
 
     #[test]

@@ -1,16 +1,18 @@
 //! Running `typst compile` on a sandbox and putting the PDF in place
 //! atomically: the PDF is written to a temporary file beside the destination
 //! and renamed over it only when typst succeeded, so a failed run never
-//! leaves half a file or replaces a good one.
+//! leaves half a file or replaces a good one. The bundled fonts come from
+//! the per-user font cache, or from the sandbox when that cannot be used.
 
 use std::ffi::OsString;
-use std::path::Path;
+use std::path::{Path, PathBuf};
 use std::process::{Command, Stdio};
 
 use chrono::NaiveDate;
 
 use super::error::TypesetError;
-use super::fonts::FONT_DIR;
+use super::font_cache::{ensure_font_cache, user_cache_root};
+use super::fonts::{FONT_DIR, write_fonts};
 use super::locate::TypstProgram;
 use super::sandbox::{Sandbox, native_path};
 
@@ -26,6 +28,34 @@ pub struct CompileOptions {
     pub creation: NaiveDate,
     /// A `--pdf-standard` value such as `a-2b`; `None` for a plain PDF.
     pub pdf_standard: Option<String>,
+    /// Where typst reads the bundled fonts from. The PDF is the same
+    /// whichever is used.
+    pub fonts: FontPlace,
+}
+
+/// Where the bundled fonts are put for typst.
+#[derive(Debug, Clone, PartialEq, Eq, Default)]
+pub enum FontPlace {
+    /// The per-user font cache (`$XDG_CACHE_HOME/ampreport/fonts-<hash>/`,
+    /// else `~/.cache/…`), written on first use; the sandbox when it cannot
+    /// be written.
+    #[default]
+    UserCache,
+    /// A font cache under this root folder instead of the user's, with the
+    /// same fallback (for tests and programs that embed ampreport).
+    CacheIn(PathBuf),
+    /// Always written into the sandbox's `fonts/` folder and deleted with it.
+    Sandbox,
+}
+
+/// Where a compile found the fonts.
+#[derive(Debug, Clone, PartialEq, Eq, Default)]
+pub enum FontsUsed {
+    /// The cache folder at this path.
+    Cache(PathBuf),
+    /// The sandbox's own `fonts/` folder.
+    #[default]
+    Sandbox,
 }
 
 impl CompileOptions {
@@ -34,6 +64,7 @@ impl CompileOptions {
         Self {
             creation,
             pdf_standard: Some(DEFAULT_PDF_STANDARD.to_owned()),
+            fonts: FontPlace::UserCache,
         }
     }
 
@@ -52,14 +83,18 @@ impl CompileOptions {
 pub struct CompileOutcome {
     /// typst's warnings, verbatim; empty when it had none.
     pub warnings: String,
+    /// Where typst read the fonts from.
+    pub fonts: FontsUsed,
 }
 
 /// Compiles `main` (a path inside `sandbox`) into a PDF at `output`.
 ///
-/// The sandbox and the bundled fonts are written to a fresh temporary folder
-/// that becomes typst's root; system fonts and typst's own fonts are turned
-/// off. On failure the folder is kept (without the fonts) and its path is in
-/// the error; `output` is left exactly as it was.
+/// The sandbox is written to a fresh temporary folder that becomes typst's
+/// root. The bundled fonts come from the font cache ([`FontPlace`]), or are
+/// written into that folder when the cache cannot be used; system fonts and
+/// typst's own fonts are turned off. On failure the folder is kept (without
+/// the fonts) and its path is in the error; `output` is left exactly as it
+/// was.
 pub fn compile(
     program: &TypstProgram,
     sandbox: &Sandbox,
@@ -79,8 +114,20 @@ pub fn compile(
         .tempdir()
         .map_err(|e| TypesetError::io("create a folder in", std::env::temp_dir(), e))?;
     sandbox
-        .write_to(root.path())
+        .write_files(root.path())
         .map_err(|e| TypesetError::io("write the typesetting files to", root.path(), e))?;
+    let fonts = match font_cache(&opts.fonts) {
+        Some(dir) => FontsUsed::Cache(dir),
+        None => {
+            write_fonts(root.path())
+                .map_err(|e| TypesetError::io("write the fonts to", root.path(), e))?;
+            FontsUsed::Sandbox
+        }
+    };
+    let font_dir = match &fonts {
+        FontsUsed::Cache(dir) => dir.clone(),
+        FontsUsed::Sandbox => root.path().join(FONT_DIR),
+    };
 
     let out_dir = match output.parent() {
         Some(dir) if !dir.as_os_str().is_empty() => dir,
@@ -98,7 +145,13 @@ pub fn compile(
 
     let main_path = native_path(root.path(), main);
     let run = Command::new(&program.path)
-        .args(arguments(root.path(), &main_path, opts, partial.path()))
+        .args(arguments(
+            root.path(),
+            &font_dir,
+            &main_path,
+            opts,
+            partial.path(),
+        ))
         .current_dir(root.path())
         // Flags below override their environment twins; these have none.
         .env_remove("TYPST_FEATURES")
@@ -147,17 +200,37 @@ pub fn compile(
     partial
         .persist(output)
         .map_err(|e| TypesetError::io("write the PDF to", output, e.error))?;
-    Ok(CompileOutcome { warnings: stderr })
+    Ok(CompileOutcome {
+        warnings: stderr,
+        fonts,
+    })
+}
+
+/// The font cache folder to use, or `None` to write the fonts into the
+/// sandbox (asked for, no cache root known, or the cache not writable).
+fn font_cache(place: &FontPlace) -> Option<PathBuf> {
+    let root = match place {
+        FontPlace::UserCache => user_cache_root()?,
+        FontPlace::CacheIn(root) => root.clone(),
+        FontPlace::Sandbox => return None,
+    };
+    ensure_font_cache(&root).ok()
 }
 
 /// The `typst compile` command line, without the program.
-fn arguments(root: &Path, main: &Path, opts: &CompileOptions, out: &Path) -> Vec<OsString> {
+fn arguments(
+    root: &Path,
+    fonts: &Path,
+    main: &Path,
+    opts: &CompileOptions,
+    out: &Path,
+) -> Vec<OsString> {
     let mut args: Vec<OsString> = vec![
         "compile".into(),
         "--root".into(),
         root.into(),
         "--font-path".into(),
-        root.join(FONT_DIR).into(),
+        fonts.into(),
         "--ignore-system-fonts".into(),
         "--ignore-embedded-fonts".into(),
         "--creation-timestamp".into(),
@@ -204,6 +277,7 @@ mod tests {
         let mut opts = CompileOptions::new(NaiveDate::from_ymd_opt(2024, 3, 1).unwrap());
         let args = arguments(
             Path::new("/r"),
+            Path::new("/c/fonts-0123"),
             Path::new("/r/main.typ"),
             &opts,
             Path::new("/o/x"),
@@ -217,7 +291,7 @@ mod tests {
         }
         let joined = args.join(" ");
         assert!(
-            joined.contains("--root /r --font-path /r/fonts"),
+            joined.contains("--root /r --font-path /c/fonts-0123"),
             "{joined}"
         );
         assert!(
@@ -229,7 +303,13 @@ mod tests {
             "{joined}"
         );
         opts.pdf_standard = None;
-        let args = arguments(Path::new("/r"), Path::new("/r/m"), &opts, Path::new("/o"));
+        let args = arguments(
+            Path::new("/r"),
+            Path::new("/r/fonts"),
+            Path::new("/r/m"),
+            &opts,
+            Path::new("/o"),
+        );
         assert!(!args.iter().any(|a| a == "--pdf-standard"));
     }
 }

@@ -6,11 +6,15 @@
 //! environment variable, then `typst` on `PATH`. A value without a path
 //! separator (`typst-0.15`) is looked up on `PATH`; anything else is taken as
 //! a path to the program.
+//!
+//! [`start_locate`] starts `typst --version` and returns at once, so the
+//! caller can read the job while typst answers; [`PendingTypst::finish`]
+//! then waits for the answer and checks it exactly as [`locate`] does.
 
 use std::ffi::OsStr;
 use std::fmt;
 use std::path::{Path, PathBuf};
-use std::process::{Command, Stdio};
+use std::process::{Child, Command, Stdio};
 
 use super::error::TypesetError;
 use super::version::{MAX_TYPST_EXCLUSIVE, MIN_TYPST, TypstVersion};
@@ -67,6 +71,74 @@ pub fn locate_in(
     env_value: Option<&OsStr>,
     path_var: Option<&OsStr>,
 ) -> Result<TypstProgram, TypesetError> {
+    start_locate_in(explicit, env_value, path_var).finish()
+}
+
+/// A `typst --version` that is running, or the reason it could not start.
+/// Dropping it without [`finish`](PendingTypst::finish) ends the process.
+#[derive(Debug)]
+pub struct PendingTypst {
+    /// `None` only once [`PendingTypst::finish`] has taken it.
+    state: Option<Result<(PathBuf, Child), TypesetError>>,
+}
+
+/// Finds typst like [`locate`] and starts `typst --version` without waiting
+/// for it. Every error (not found, not runnable, wrong answer, too old)
+/// is reported by [`PendingTypst::finish`].
+pub fn start_locate(explicit: Option<&Path>) -> PendingTypst {
+    start_locate_in(
+        explicit,
+        std::env::var_os(TYPST_ENV).as_deref(),
+        std::env::var_os("PATH").as_deref(),
+    )
+}
+
+/// [`start_locate`] with the environment passed in.
+pub fn start_locate_in(
+    explicit: Option<&Path>,
+    env_value: Option<&OsStr>,
+    path_var: Option<&OsStr>,
+) -> PendingTypst {
+    let state = find(explicit, env_value, path_var).and_then(|path| {
+        let child = spawn_version(&path)?;
+        Ok((path, child))
+    });
+    PendingTypst { state: Some(state) }
+}
+
+impl PendingTypst {
+    /// Waits for `typst --version`, reads the answer and checks the version.
+    pub fn finish(mut self) -> Result<TypstProgram, TypesetError> {
+        let (path, child) = self
+            .state
+            .take()
+            .expect("a pending typst is finished only once")?;
+        let version = read_version(&path, child)?;
+        if version < MIN_TYPST {
+            return Err(TypesetError::TooOld {
+                path,
+                found: version,
+            });
+        }
+        Ok(TypstProgram { path, version })
+    }
+}
+
+impl Drop for PendingTypst {
+    fn drop(&mut self) {
+        if let Some(Ok((_, child))) = &mut self.state {
+            let _ = child.kill();
+            let _ = child.wait();
+        }
+    }
+}
+
+/// The program [`locate_in`] would run, without running it.
+fn find(
+    explicit: Option<&Path>,
+    env_value: Option<&OsStr>,
+    path_var: Option<&OsStr>,
+) -> Result<PathBuf, TypesetError> {
     let env_value = env_value.filter(|v| !v.is_empty());
     let path = match (explicit, env_value) {
         (Some(given), _) => resolve(given.as_os_str(), path_var, "the path given with --typst")?,
@@ -77,14 +149,7 @@ pub fn locate_in(
             }
         })?,
     };
-    let version = query_version(&path)?;
-    if version < MIN_TYPST {
-        return Err(TypesetError::TooOld {
-            path,
-            found: version,
-        });
-    }
-    Ok(TypstProgram { path, version })
+    Ok(path)
 }
 
 fn program_name() -> &'static str {
@@ -135,15 +200,28 @@ fn is_executable(path: &Path) -> bool {
     path.is_file()
 }
 
-/// Runs `PATH --version` and reads the answer.
-fn query_version(path: &Path) -> Result<TypstVersion, TypesetError> {
-    let output = Command::new(path)
+/// Starts `PATH --version`.
+fn spawn_version(path: &Path) -> Result<Child, TypesetError> {
+    Command::new(path)
         .arg("--version")
         .stdin(Stdio::null())
-        .output()
+        .stdout(Stdio::piped())
+        .stderr(Stdio::piped())
+        .spawn()
         .map_err(|source| TypesetError::Unusable {
             path: path.to_path_buf(),
             problem: format!("it failed to start ({source})"),
+            source: Some(source),
+        })
+}
+
+/// Waits for a `--version` run and reads its answer.
+fn read_version(path: &Path, child: Child) -> Result<TypstVersion, TypesetError> {
+    let output = child
+        .wait_with_output()
+        .map_err(|source| TypesetError::Unusable {
+            path: path.to_path_buf(),
+            problem: format!("its `--version` answer could not be read ({source})"),
             source: Some(source),
         })?;
     let stdout = String::from_utf8_lossy(&output.stdout);
@@ -177,14 +255,19 @@ mod tests {
 
     /// Writes a shell script that answers `--version` with `answer`.
     fn fake_typst(dir: &Path, name: &str, answer: &str) -> PathBuf {
+        script(dir, name, &format!("echo '{answer}'"))
+    }
+
+    /// Writes an executable shell script running `body`, ready to run.
+    fn script(dir: &Path, name: &str, body: &str) -> PathBuf {
         let path = dir.join(name);
-        std::fs::write(&path, format!("#!/bin/sh\necho '{answer}'\n")).unwrap();
+        std::fs::write(&path, format!("#!/bin/sh\n{body}\n")).unwrap();
         std::fs::set_permissions(&path, std::fs::Permissions::from_mode(0o755)).unwrap();
         // A process forked by another test thread while the script was open
         // for writing can hold it open for a moment, and running the script
         // then fails with "text file busy". Wait until it runs.
         for _ in 0..200 {
-            match Command::new(&path).arg("--version").output() {
+            match Command::new(&path).arg("--no-such-flag").output() {
                 Err(e) if e.raw_os_error() == Some(26) => {
                     std::thread::sleep(std::time::Duration::from_millis(10))
                 }
@@ -247,6 +330,34 @@ mod tests {
         // A bare name in the variable is looked up on PATH.
         let got = locate_in(None, Some(OsStr::new("b")), Some(path_var)).unwrap();
         assert_eq!(got.path, b);
+    }
+
+    #[test]
+    fn a_started_query_is_checked_when_finished() {
+        let dir = tempfile::tempdir().unwrap();
+        let fake = fake_typst(dir.path(), "typst", "typst 0.15.1 (started)");
+        let found = start_locate_in(Some(&fake), None, None).finish().unwrap();
+        assert_eq!(found, locate_in(Some(&fake), None, None).unwrap());
+        // Errors wait for `finish`, and are the same as `locate_in`'s.
+        let pending = start_locate_in(Some(Path::new("/nowhere/typst")), None, None);
+        assert!(matches!(
+            pending.finish(),
+            Err(TypesetError::NotFound { .. })
+        ));
+        let old = fake_typst(dir.path(), "old", "typst 0.14.0 (old)");
+        assert!(matches!(
+            start_locate_in(Some(&old), None, None).finish(),
+            Err(TypesetError::TooOld { .. })
+        ));
+        // A query dropped unfinished is ended rather than waited for.
+        let slow = script(
+            dir.path(),
+            "slow",
+            "if [ \"$1\" = --version ]; then exec sleep 30; fi",
+        );
+        let start = std::time::Instant::now();
+        drop(start_locate_in(Some(&slow), None, None));
+        assert!(start.elapsed() < std::time::Duration::from_secs(10));
     }
 
     #[test]

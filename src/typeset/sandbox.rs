@@ -1,7 +1,8 @@
 //! The set of files typst is allowed to see for one document: the generated
 //! main source, plots and images. Collected in memory first, then written to
 //! a fresh folder that becomes typst's `--root`, so a document can read
-//! nothing else on the machine.
+//! nothing else on the machine. The fonts normally come from the font cache
+//! instead; [`emit_source`] writes them in, so its folder stands alone.
 
 use std::collections::BTreeMap;
 use std::io;
@@ -57,8 +58,8 @@ impl Sandbox {
         self.files.is_empty()
     }
 
-    /// Writes every file, then the bundled fonts into `fonts/`, under `dir`.
-    pub(crate) fn write_to(&self, dir: &Path) -> io::Result<()> {
+    /// Writes every file under `dir`, without the fonts.
+    pub(crate) fn write_files(&self, dir: &Path) -> io::Result<()> {
         for (path, contents) in &self.files {
             let target = native_path(dir, path);
             if let Some(parent) = target.parent() {
@@ -66,7 +67,7 @@ impl Sandbox {
             }
             std::fs::write(&target, contents)?;
         }
-        write_fonts(dir)
+        Ok(())
     }
 }
 
@@ -106,7 +107,8 @@ fn path_problem(path: &str) -> Option<&'static str> {
 /// shops adapting templates and for bug reports.
 pub fn emit_source(sandbox: &Sandbox, dir: &Path) -> io::Result<()> {
     std::fs::create_dir_all(dir)?;
-    sandbox.write_to(dir)
+    sandbox.write_files(dir)?;
+    write_fonts(dir)
 }
 
 #[cfg(test)]

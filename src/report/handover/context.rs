@@ -10,8 +10,9 @@ use chrono::NaiveDate;
 use serde::Serialize;
 
 use crate::calc::{
-    CapacitorFindings, CurrentMethod, Findings, HeaterFindings, NodeFindings, ResistorFindings,
-    SetFindings, Status, ValveFindings, resistor_power_words,
+    CapacitorFindings, CurrentMethod, Findings, HeaterFindings, ModFigureFindings, ModFindings,
+    NodeFindings, RectifierFindings, ResistorFindings, SetFindings, Status, ValveFindings,
+    resistor_power_words,
 };
 use crate::job::{Job, MeasurementSet, ProtectionClass};
 use crate::units::{QuantityKind as Q, format_engineering, format_fixed, format_sig};
@@ -156,6 +157,22 @@ pub struct ModRow {
     pub why: Option<String>,
     pub reversible: Option<String>,
     pub original_kept: Option<String>,
+    /// Textbook circuit figures worked out for the modification.
+    pub figures: Vec<ModFigureRow>,
+}
+
+/// One worked-out figure of a modification.
+#[derive(Debug, Clone, Serialize)]
+pub struct ModFigureRow {
+    /// What kind of figure, in words: "cathode-bypass corner", "stage gain" …
+    pub kind: String,
+    /// The figure in a sentence, with its inputs ("V1 (12AX7, μ 100, …):
+    /// … corner 302 Hz.").
+    pub description: String,
+    /// The formula used, in plain text.
+    pub formula: String,
+    /// The figure alone: "302 Hz", or a gain such as "62".
+    pub value: Option<String>,
 }
 
 /// One measurement set, formatted.
@@ -177,6 +194,8 @@ pub struct SetContext {
     pub windows: Vec<WindowRow>,
     pub resistors: Vec<ResistorRow>,
     pub capacitors: Vec<CapacitorRow>,
+    /// A valve rectifier's load against its rating, where it can be judged.
+    pub rectifier: Option<RectifierRow>,
     pub heaters: Vec<HeaterRow>,
     pub warnings: Vec<WarningRow>,
 }
@@ -283,6 +302,26 @@ pub struct CapacitorRow {
     pub margin: String,
     pub status: String,
     pub reason: String,
+}
+
+/// A valve rectifier's DC load: the output valves' cathode currents summed,
+/// so a lower bound of the real load.
+#[derive(Debug, Clone, Serialize)]
+pub struct RectifierRow {
+    pub position: String,
+    pub type_name: String,
+    /// Whose currents were summed: "cathode currents of V3, V4".
+    pub counted: String,
+    /// The lower bound, mA to 0.1: "89.2 mA".
+    pub load: String,
+    /// The rated output current: "150 mA".
+    pub rating: String,
+    /// "59".
+    pub load_pct: String,
+    pub status: String,
+    pub reason: String,
+    /// The rule that decided the status, as a sentence.
+    pub threshold: String,
 }
 
 #[derive(Debug, Clone, Serialize)]
@@ -624,20 +663,28 @@ pub fn build_context(
             .iter()
             .map(|p| PartRow {
                 reference: p.reference.clone(),
-                was: p.was.clone(),
-                now: p.now.clone(),
-                reason: p.reason.as_deref().map(reflow),
+                was: p.was.as_deref().map(glue_units),
+                now: p.now.as_deref().map(glue_units),
+                reason: p.reason.as_deref().map(|r| glue_units(&reflow(r))),
                 original_kept: yes_no(p.original_kept),
             })
             .collect(),
         mods: job
             .mods
             .iter()
-            .map(|m| ModRow {
-                what: reflow(&m.what),
-                why: m.why.as_deref().map(reflow),
+            .enumerate()
+            .map(|(i, m)| ModRow {
+                what: glue_units(&reflow(&m.what)),
+                why: m.why.as_deref().map(|w| glue_units(&reflow(w))),
                 reversible: yes_no(m.reversible),
                 original_kept: yes_no(m.original_kept),
+                // Findings list the mods in job order, one each.
+                figures: findings
+                    .mods
+                    .get(i)
+                    .filter(|f| f.what == m.what)
+                    .map(mod_figures)
+                    .unwrap_or_default(),
             })
             .collect(),
         notes: job.notes.iter().map(|n| reflow(n)).collect(),
@@ -770,6 +817,7 @@ fn set_context(
         windows,
         resistors,
         capacitors: set.filter_capacitors.iter().map(capacitor_row).collect(),
+        rectifier: set.rectifier.as_ref().map(|r| rectifier_row(r, set)),
         heaters: set.heaters.iter().map(heater_row).collect(),
         warnings: findings
             .warnings
@@ -957,6 +1005,56 @@ fn capacitor_row(c: &CapacitorFindings) -> CapacitorRow {
         margin: format!("{} %", fixed(c.margin_pct, 1)),
         status: status(c.verdict.status),
         reason: sentence(&c.verdict.reason),
+    }
+}
+
+fn rectifier_row(r: &RectifierFindings, set: &SetFindings) -> RectifierRow {
+    let outputs: Vec<&str> = set
+        .valves
+        .iter()
+        .filter(|v| v.is_output)
+        .map(|v| v.position.as_str())
+        .collect();
+    RectifierRow {
+        position: r.position.clone(),
+        type_name: r.valve_type.clone(),
+        counted: if outputs.is_empty() {
+            "the output valves' cathode currents".to_string()
+        } else {
+            format!("cathode currents of {}", outputs.join(", "))
+        },
+        load: format!("{} mA", fixed(r.load_at_least_ma, 1)),
+        rating: format!("{} mA", format_sig(r.rating_ma, 3)),
+        load_pct: pct0(r.load_pct),
+        status: status(r.verdict.status),
+        reason: sentence(&r.verdict.reason),
+        threshold: sentence(&r.verdict.threshold),
+    }
+}
+
+/// The figures of one modification, formatted.
+fn mod_figures(m: &ModFindings) -> Vec<ModFigureRow> {
+    m.figures.iter().map(mod_figure_row).collect()
+}
+
+fn mod_figure_row(f: &ModFigureFindings) -> ModFigureRow {
+    let kind = match f.kind {
+        "rc_corner" => "RC corner",
+        "cathode_bypass" => "cathode-bypass corner",
+        "stage_gain" => "stage gain",
+        "phase_shift" => "phase-shift oscillator",
+        other => other,
+    };
+    let value = match (f.frequency_hz, f.gain) {
+        (Some(hz), _) => Some(minus(format_engineering(hz, Q::Frequency))),
+        (None, Some(gain)) => Some(fixed(gain, 0)),
+        (None, None) => None,
+    };
+    ModFigureRow {
+        kind: kind.replace('_', " "),
+        description: sentence(&f.description),
+        formula: f.formula.to_string(),
+        value,
     }
 }
 

@@ -17,9 +17,10 @@ use sha2::{Digest, Sha256};
 
 pub use context::{
     CapacitorRow, ContextInputs, CustomerInfo, DISSIPATION_PLOT, DocumentInfo, Footer, Glance,
-    GlanceRow, HandoverContext, HeaterRow, JobInfo, LineUpRow, MainsInfo, Method, ModRow, NodeRow,
-    PartRow, Plots, RatingRow, ResistorRow, SUPPLY_PLOT, SafetyContext, SafetyRow, SetContext,
-    ShopBlock, UnitInfo, ValveRow, WarningRow, WindowReading, WindowRow, build_context, date_words,
+    GlanceRow, HandoverContext, HeaterRow, JobInfo, LineUpRow, MainsInfo, Method, ModFigureRow,
+    ModRow, NodeRow, PartRow, Plots, RatingRow, RectifierRow, ResistorRow, SUPPLY_PLOT,
+    SafetyContext, SafetyRow, SetContext, ShopBlock, UnitInfo, ValveRow, WarningRow, WindowReading,
+    WindowRow, build_context, date_words,
 };
 
 use super::plots::{self, PlotError};
@@ -303,6 +304,63 @@ mod tests {
         );
         let names: Vec<&str> = doc.sandbox.files().map(|(p, _)| p).collect();
         assert_eq!(names, [MAIN_SOURCE, DISSIPATION_PLOT, SUPPLY_PLOT]);
+    }
+
+    #[test]
+    fn mod_figures_and_the_rectifier_load_reach_the_context_and_the_source() {
+        let (job, findings, text) = demo("combo-6v6-fixed.kdl");
+        let doc = document(&job, &findings, &text);
+        let ctx = &doc.context;
+        assert_eq!(ctx.mods.len(), 2);
+        assert!(ctx.mods[0].figures.is_empty());
+        let figures = &ctx.mods[1].figures;
+        assert_eq!(figures.len(), 3);
+        // fc = 1 / (2π · (Rk ∥ (ra + RL)/(μ + 1)) · Ck) with Rk 1.5 kΩ, RL 100 kΩ,
+        // Ck 0.68 µF and the 12AX7's μ 100, ra 62.5 kΩ: 1/(2π · 776.2 Ω · 0.68 µF)
+        // = 301.5 Hz (textbook cathode-bypass corner; valve figures from memory
+        // of manufacturer data).
+        assert_eq!(figures[0].kind, "cathode-bypass corner");
+        assert_eq!(figures[0].value.as_deref(), Some("302 Hz"));
+        assert!(
+            figures[0].description.contains("302\u{a0}Hz"),
+            "{}",
+            figures[0].description
+        );
+        // A = μ·RL/(RL + ra) = 100 × 100k / 162.5k = 61.5; unbypassed
+        // A = μ·RL/(RL + ra + (μ + 1)·Rk) = 31.8 (textbook stage gain).
+        assert_eq!(figures[1].value.as_deref(), Some("62"));
+        assert_eq!(figures[2].value.as_deref(), Some("32"));
+        assert_eq!(figures[2].formula, "A = μ·RL / (RL + ra + (μ + 1)·Rk)");
+
+        // As found: 38.5 mV and 37.9 mV across 1 Ω sense resistors are
+        // 38.5 + 37.9 = 76.4 mA of cathode current (Ohm's law); the 5Y3GT is
+        // rated 125 mA (from memory of manufacturer data).
+        let r = ctx.sets[0].rectifier.as_ref().expect("a valve rectifier");
+        assert_eq!(
+            (r.position.as_str(), r.load.as_str(), r.rating.as_str()),
+            ("V5", "76.4 mA", "125 mA")
+        );
+        assert_eq!(r.load_pct, "61");
+        assert_eq!(r.counted, "cathode currents of V3, V4");
+        assert_eq!(r.status, "ok");
+        assert!(ctx.sets[1].rectifier.is_some());
+
+        // The filled template carries all of it (escaped for Typst).
+        let source = String::from_utf8(doc.sandbox.get(MAIN_SOURCE).unwrap().to_vec()).unwrap();
+        for f in figures {
+            let formula = crate::typeset::escape_markup(&f.formula);
+            assert!(source.contains(&formula), "formula {formula} missing");
+            let description = crate::typeset::escape_markup(&f.description);
+            assert!(source.contains(&description), "{description} missing");
+        }
+        assert!(source.contains("Worked figures"));
+        assert!(source.contains("76\\.4 mA") && source.contains("53\\.6 mA"));
+        assert!(source.contains(&crate::typeset::escape_markup("cathode currents of V3, V4")));
+
+        // A job whose rectifier is silicon has no rectifier row.
+        let (job, findings, text) = demo("head-el34-quad.kdl");
+        let doc = document(&job, &findings, &text);
+        assert!(doc.context.sets.iter().all(|s| s.rectifier.is_none()));
     }
 
     #[test]

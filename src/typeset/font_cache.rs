@@ -1,0 +1,285 @@
+//! The bundled fonts, written once per user into a cache folder instead of
+//! into every sandbox: 9.3 MB written and deleted per document was a
+//! noticeable share of a render. The folder is named after a SHA-256 of the
+//! font bytes (worked out at build time), so a build with other fonts uses
+//! another folder, and it appears in one rename, so a run never sees it
+//! half-written, even with another run filling it at the same moment.
+//!
+//! Where: `$XDG_CACHE_HOME/ampreport/` when that is set to an absolute path,
+//! else `~/.cache/ampreport/` (`%LOCALAPPDATA%\ampreport\` on Windows). When
+//! the folder cannot be used, the caller writes the fonts into its sandbox
+//! as before.
+
+use std::io::{self, Write};
+use std::path::{Path, PathBuf};
+
+use super::fonts::{BUNDLED_FONTS, FONT_LICENCES};
+
+/// SHA-256 of every file in `fonts/` (see `build.rs` and [`digest_of`]), as
+/// 64 hex digits.
+pub const FONTS_DIGEST: &str = env!("AMPREPORT_FONTS_DIGEST");
+
+/// The folder under the cache root that holds this build's fonts:
+/// `fonts-` and the first 16 hex digits of [`FONTS_DIGEST`].
+pub fn font_cache_folder_name() -> String {
+    format!("fonts-{}", &FONTS_DIGEST[..16])
+}
+
+/// The per-user cache root, `…/ampreport`, or `None` when the environment
+/// names none.
+pub fn user_cache_root() -> Option<PathBuf> {
+    cache_root_from(
+        std::env::var_os("XDG_CACHE_HOME").as_deref(),
+        std::env::var_os(if cfg!(windows) {
+            "LOCALAPPDATA"
+        } else {
+            "HOME"
+        })
+        .as_deref(),
+    )
+}
+
+/// [`user_cache_root`] with the environment passed in: `xdg` is
+/// `$XDG_CACHE_HOME`, `home` is `$HOME` (or `%LOCALAPPDATA%` on Windows).
+/// Relative values are ignored, as the XDG base-directory rules say.
+fn cache_root_from(
+    xdg: Option<&std::ffi::OsStr>,
+    home: Option<&std::ffi::OsStr>,
+) -> Option<PathBuf> {
+    let absolute = |v: &std::ffi::OsStr| {
+        let p = Path::new(v);
+        (p.is_absolute()).then(|| p.to_path_buf())
+    };
+    if let Some(xdg) = xdg.and_then(absolute) {
+        return Some(xdg.join("ampreport"));
+    }
+    let home = home.and_then(absolute)?;
+    Some(if cfg!(windows) {
+        home.join("ampreport")
+    } else {
+        home.join(".cache").join("ampreport")
+    })
+}
+
+/// Every file of the font folder: the fonts, then their licences.
+fn files() -> impl Iterator<Item = &'static (&'static str, &'static [u8])> {
+    BUNDLED_FONTS.iter().chain(FONT_LICENCES)
+}
+
+/// Makes sure `root/fonts-<hash>/` holds exactly the bundled fonts and
+/// licences, writing it if needed, and returns its path.
+///
+/// A complete folder (every file present with its size, nothing else in
+/// it) is used as it is; that check costs a directory listing and a few
+/// `stat` calls. Otherwise the files go into a temporary folder beside it,
+/// each flushed to disk, which is then renamed into place. If another run
+/// renamed its own copy in first, that one is used; a damaged folder is
+/// moved aside and replaced.
+pub fn ensure_font_cache(root: &Path) -> io::Result<PathBuf> {
+    let dir = root.join(font_cache_folder_name());
+    if is_complete(&dir) {
+        return Ok(dir);
+    }
+    std::fs::create_dir_all(root)?;
+    let fresh = tempfile::Builder::new()
+        .prefix(".fonts-new-")
+        .tempdir_in(root)?;
+    for (name, bytes) in files() {
+        let mut file = std::fs::File::create(fresh.path().join(name))?;
+        file.write_all(bytes)?;
+        file.sync_all()?;
+    }
+    if std::fs::rename(fresh.path(), &dir).is_ok() {
+        // The folder now lives at `dir`; nothing is left to clean up.
+        let _ = fresh.keep();
+        return Ok(dir);
+    }
+    // Something is in the way: another run's copy (then `fresh` is
+    // deleted on return) or a damaged folder, which is moved aside into a
+    // temporary folder that deletes it.
+    if is_complete(&dir) {
+        return Ok(dir);
+    }
+    let stale = tempfile::Builder::new()
+        .prefix(".fonts-stale-")
+        .tempdir_in(root)?;
+    match std::fs::rename(&dir, stale.path().join("old")) {
+        Ok(()) => {}
+        Err(e) if e.kind() == io::ErrorKind::NotFound => {}
+        Err(e) => return Err(e),
+    }
+    match std::fs::rename(fresh.path(), &dir) {
+        Ok(()) => {
+            let _ = fresh.keep();
+            Ok(dir)
+        }
+        Err(_) if is_complete(&dir) => Ok(dir),
+        Err(e) => Err(e),
+    }
+}
+
+/// True when `dir` holds exactly the font folder's files, each with its
+/// size.
+pub fn is_complete(dir: &Path) -> bool {
+    let Ok(entries) = std::fs::read_dir(dir) else {
+        return false;
+    };
+    let mut count = 0;
+    for entry in entries {
+        let Ok(entry) = entry else { return false };
+        let name = entry.file_name();
+        let Some(expected) = files().find(|(n, _)| name == *n) else {
+            return false;
+        };
+        match entry.metadata() {
+            Ok(meta) if meta.is_file() && meta.len() == expected.1.len() as u64 => count += 1,
+            _ => return false,
+        }
+    }
+    count == files().count()
+}
+
+/// SHA-256 of `files` in name order, each framed as its name, a NUL byte,
+/// its length (8 bytes, little-endian) and its bytes: the framing `build.rs`
+/// uses for [`FONTS_DIGEST`]. Used by the test that checks the build-time
+/// digest against the embedded files.
+#[cfg(test)]
+fn digest_of<'a>(files: impl IntoIterator<Item = (&'a str, &'a [u8])>) -> String {
+    use sha2::{Digest, Sha256};
+    let mut files: Vec<(&str, &[u8])> = files.into_iter().collect();
+    files.sort();
+    let mut hasher = Sha256::new();
+    for (name, bytes) in files {
+        hasher.update(name.as_bytes());
+        hasher.update([0]);
+        hasher.update((bytes.len() as u64).to_le_bytes());
+        hasher.update(bytes);
+    }
+    hasher
+        .finalize()
+        .iter()
+        .map(|b| format!("{b:02x}"))
+        .collect()
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use std::ffi::OsStr;
+
+    #[test]
+    fn the_build_time_digest_is_that_of_the_embedded_files() {
+        assert_eq!(FONTS_DIGEST.len(), 64);
+        assert_eq!(digest_of(files().map(|(n, b)| (*n, *b))), FONTS_DIGEST);
+        // And it changes with the bytes.
+        let mut changed: Vec<(&str, &[u8])> = files().map(|(n, b)| (*n, *b)).collect();
+        changed[0].1 = &changed[0].1[1..];
+        assert_ne!(digest_of(changed), FONTS_DIGEST);
+        assert!(font_cache_folder_name().starts_with("fonts-"));
+        assert_eq!(font_cache_folder_name().len(), "fonts-".len() + 16);
+    }
+
+    #[test]
+    fn the_cache_root_follows_xdg_then_home() {
+        let root = cache_root_from(Some(OsStr::new("/x/cache")), Some(OsStr::new("/home/u")));
+        assert_eq!(root, Some(PathBuf::from("/x/cache/ampreport")));
+        // A relative XDG_CACHE_HOME is ignored (XDG base-directory rules).
+        let root = cache_root_from(Some(OsStr::new("rel")), Some(OsStr::new("/home/u")));
+        if cfg!(windows) {
+            assert_eq!(root, Some(PathBuf::from("/home/u/ampreport")));
+        } else {
+            assert_eq!(root, Some(PathBuf::from("/home/u/.cache/ampreport")));
+        }
+        assert_eq!(cache_root_from(None, None), None);
+        assert_eq!(
+            cache_root_from(Some(OsStr::new("")), Some(OsStr::new(""))),
+            None
+        );
+    }
+
+    #[test]
+    fn the_cache_is_written_once_and_then_reused() {
+        let root = tempfile::tempdir().unwrap();
+        let dir = ensure_font_cache(root.path()).unwrap();
+        assert_eq!(dir, root.path().join(font_cache_folder_name()));
+        assert!(is_complete(&dir));
+        for (name, bytes) in files() {
+            assert_eq!(&std::fs::read(dir.join(name)).unwrap(), bytes, "{name}");
+        }
+        // Reused as it is: the same file, not a new copy.
+        let before = std::fs::metadata(dir.join(BUNDLED_FONTS[0].0))
+            .unwrap()
+            .modified()
+            .unwrap();
+        std::thread::sleep(std::time::Duration::from_millis(20));
+        assert_eq!(ensure_font_cache(root.path()).unwrap(), dir);
+        let after = std::fs::metadata(dir.join(BUNDLED_FONTS[0].0))
+            .unwrap()
+            .modified()
+            .unwrap();
+        assert_eq!(before, after);
+        // Nothing but the cache folder is left in the root.
+        let names: Vec<String> = std::fs::read_dir(root.path())
+            .unwrap()
+            .map(|e| e.unwrap().file_name().to_string_lossy().into_owned())
+            .collect();
+        assert_eq!(names, [font_cache_folder_name()]);
+    }
+
+    #[test]
+    fn a_damaged_cache_is_replaced() {
+        let root = tempfile::tempdir().unwrap();
+        let dir = ensure_font_cache(root.path()).unwrap();
+        // Truncated file.
+        std::fs::write(dir.join(BUNDLED_FONTS[1].0), b"short").unwrap();
+        assert!(!is_complete(&dir));
+        assert_eq!(ensure_font_cache(root.path()).unwrap(), dir);
+        assert!(is_complete(&dir));
+        // A missing file.
+        std::fs::remove_file(dir.join(FONT_LICENCES[0].0)).unwrap();
+        assert!(!is_complete(&dir));
+        ensure_font_cache(root.path()).unwrap();
+        assert!(is_complete(&dir));
+        // A stray font typst would pick up.
+        std::fs::write(dir.join("Intruder.ttf"), b"x").unwrap();
+        assert!(!is_complete(&dir));
+        ensure_font_cache(root.path()).unwrap();
+        assert!(is_complete(&dir) && !dir.join("Intruder.ttf").exists());
+        // A plain file where the folder should be.
+        std::fs::remove_dir_all(&dir).unwrap();
+        std::fs::write(&dir, b"not a folder").unwrap();
+        ensure_font_cache(root.path()).unwrap();
+        assert!(is_complete(&dir));
+        assert_eq!(std::fs::read_dir(root.path()).unwrap().count(), 1);
+    }
+
+    #[test]
+    fn concurrent_runs_all_get_a_complete_folder() {
+        let root = tempfile::tempdir().unwrap();
+        let path = root.path().to_path_buf();
+        let runs: Vec<_> = (0..6)
+            .map(|_| {
+                let path = path.clone();
+                std::thread::spawn(move || {
+                    let dir = ensure_font_cache(&path).unwrap();
+                    assert!(is_complete(&dir));
+                    dir
+                })
+            })
+            .collect();
+        for run in runs {
+            assert_eq!(run.join().unwrap(), path.join(font_cache_folder_name()));
+        }
+        assert_eq!(std::fs::read_dir(&path).unwrap().count(), 1);
+    }
+
+    #[cfg(unix)]
+    #[test]
+    fn an_unwritable_root_is_an_error_not_a_panic() {
+        let root = tempfile::tempdir().unwrap();
+        // A file where the root folder should be: nothing can be created in it.
+        let blocked = root.path().join("file");
+        std::fs::write(&blocked, b"x").unwrap();
+        assert!(ensure_font_cache(&blocked.join("ampreport")).is_err());
+    }
+}
