@@ -373,7 +373,7 @@ impl Family {
         match self {
             Family::OutputValves => "Output valves against their ratings",
             Family::SupplyVoltages => "Supply voltages against the chart",
-            Family::StressedParts => "Stressed resistors and capacitors",
+            Family::StressedParts => "Stressed resistors, capacitors and rectifier",
             Family::Heater => "Heater supply",
             Family::SafetyTests => "Electrical safety tests",
         }

@@ -243,6 +243,9 @@ fn ok_summary(family: Family, last: Option<&SetFindings>, safety: &[SafetyFindin
             if let Some(c) = set.filter_capacitors.iter().min_by(|a, b| a.margin_pct.total_cmp(&b.margin_pct)) {
                 parts.push(format!("least capacitor margin {:.0} % ({})", c.margin_pct, c.reference));
             }
+            if let Some(r) = &set.rectifier {
+                parts.push(format!("rectifier {} at {:.0} % of its rating", r.position, r.load_pct));
+            }
             if parts.is_empty() { None } else { Some(parts.join("; ")) }
         }
         Family::Heater => {
