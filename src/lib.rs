@@ -5,10 +5,10 @@
 //! figure with [`ratings`] and [`units`], [`report`] presents the findings and
 //! [`typeset`] runs the `typst` command. [`cli`] ties them to the command line.
 
+pub mod calc;
 pub mod cli;
 pub mod job;
 pub mod kdl_fast;
-pub mod calc;
 pub mod ratings;
 pub mod report;
 pub mod typeset;

@@ -62,7 +62,11 @@ mod tests {
     #[test]
     fn rc_corner_first_order() {
         // fc = 1/(2πRC) (textbook): 1 MΩ with 120 pF → 1/(2π·1e6·120e-12) = 1326.3 Hz.
-        assert!(close(rc_corner(Ohms(1e6), Farads(120e-12)).0, 1326.29, 1e-4));
+        assert!(close(
+            rc_corner(Ohms(1e6), Farads(120e-12)).0,
+            1326.29,
+            1e-4
+        ));
         // 1/(2π · 1 kΩ · 1 µF) = 159.155 Hz (textbook).
         assert!(close(rc_corner(Ohms(1e3), Farads(1e-6)).0, 159.155, 1e-5));
     }
@@ -74,22 +78,40 @@ mod tests {
         let rk_in = cathode_resistance(100.0, Ohms(62_500.0), Ohms(100_000.0));
         assert!(close(rk_in.0, 1608.91, 1e-5));
         // Rk 1.5 kΩ ∥ 1608.9 Ω = 776.2 Ω; with 22 µF: 1/(2π·776.2·22e-6) = 9.32 Hz (textbook).
-        let fc = cathode_bypass_corner(100.0, Ohms(62_500.0), Ohms(100_000.0), Ohms(1_500.0), Farads(22e-6));
+        let fc = cathode_bypass_corner(
+            100.0,
+            Ohms(62_500.0),
+            Ohms(100_000.0),
+            Ohms(1_500.0),
+            Farads(22e-6),
+        );
         assert!(close(fc.0, 9.3197, 1e-3), "{}", fc.0);
     }
 
     #[test]
     fn stage_gain() {
         // A = μ·RL/(RL + ra) (textbook): 100 × 100k / 162.5k = 61.54.
-        assert!(close(gain_bypassed(100.0, Ohms(62_500.0), Ohms(100_000.0)), 61.538, 1e-4));
+        assert!(close(
+            gain_bypassed(100.0, Ohms(62_500.0), Ohms(100_000.0)),
+            61.538,
+            1e-4
+        ));
         // Unbypassed: 100 × 100k / (162.5k + 101 × 1.5k) = 1e7 / 314 000 = 31.85 (textbook).
-        assert!(close(gain_unbypassed(100.0, Ohms(62_500.0), Ohms(100_000.0), Ohms(1_500.0)), 31.847, 1e-4));
+        assert!(close(
+            gain_unbypassed(100.0, Ohms(62_500.0), Ohms(100_000.0), Ohms(1_500.0)),
+            31.847,
+            1e-4
+        ));
     }
 
     #[test]
     fn phase_shift_oscillator() {
         // f = 1/(2πRC√6) (textbook): R 220 kΩ, C 10 nF → 72.34 Hz / 2.449 = 29.53 Hz.
-        assert!(close(phase_shift_frequency(Ohms(220e3), Farads(10e-9)).0, 29.535, 1e-3));
+        assert!(close(
+            phase_shift_frequency(Ohms(220e3), Farads(10e-9)).0,
+            29.535,
+            1e-3
+        ));
         assert_eq!(PHASE_SHIFT_MIN_GAIN, 29.0); // textbook: loop gain ≥ 29 for three equal sections
     }
 

@@ -45,9 +45,17 @@ mod tests {
     #[test]
     fn correction_to_nominal() {
         // Linear scaling with the mains (common practice, first order): 356 V at 124 V → 120 V.
-        assert!(close(corrected_volts(Volts(356.0), Volts(124.0), Volts(120.0)).0, 344.516, 1e-3)); // 356·120/124
+        assert!(close(
+            corrected_volts(Volts(356.0), Volts(124.0), Volts(120.0)).0,
+            344.516,
+            1e-3
+        )); // 356·120/124
         // Power scales with the square: 14.562 W at 124 V → 14.562·(120/124)² = 13.638 W.
-        assert!(close(corrected_power(Watts(14.562), Volts(124.0), Volts(120.0)).0, 13.638, 1e-3));
+        assert!(close(
+            corrected_power(Watts(14.562), Volts(124.0), Volts(120.0)).0,
+            13.638,
+            1e-3
+        ));
     }
 
     #[test]
@@ -61,6 +69,10 @@ mod tests {
     #[test]
     fn chart_reference_at_design_mains() {
         // A chart figure of 320 V drawn at 110 V mains expects 320·120/110 = 349.09 V at 120 V (common practice).
-        assert!(close(chart_expected(Volts(320.0), Volts(110.0), Volts(120.0)).0, 349.0909, 1e-3));
+        assert!(close(
+            chart_expected(Volts(320.0), Volts(110.0), Volts(120.0)).0,
+            349.0909,
+            1e-3
+        ));
     }
 }

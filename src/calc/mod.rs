@@ -9,12 +9,20 @@ mod status;
 mod supply;
 mod valve;
 
-pub use circuit::{cathode_bypass_corner, cathode_resistance, child_langmuir_factor, gain_bypassed, gain_unbypassed, parallel, phase_shift_frequency};
+pub use circuit::{
+    cathode_bypass_corner, cathode_resistance, child_langmuir_factor, gain_bypassed,
+    gain_unbypassed, parallel, phase_shift_frequency,
+};
 pub use findings::*;
-pub use mains::{chart_expected, corrected_power, corrected_volts, high_line_power, high_line_volts};
+pub use mains::{
+    chart_expected, corrected_power, corrected_volts, high_line_power, high_line_volts,
+};
 pub use status::{Status, Verdict, worst_of};
 pub use supply::{cold_start_peak, w as resistor_power_words};
-pub use valve::{cathode_current_shared, plate_current_from_drop, plate_dissipation, screen_current, target_current};
+pub use valve::{
+    cathode_current_shared, plate_current_from_drop, plate_dissipation, screen_current,
+    target_current,
+};
 
 use crate::job::Job;
 use crate::ratings::RatingsTable;
@@ -29,12 +37,22 @@ pub fn derive(job: &Job, ratings: &RatingsTable) -> Findings {
     for set in &job.measurements {
         let circuit = job.circuit_for(set);
         let mut notes = Vec::new();
-        let ctx = valve::ValveContext { job, set, circuit: &circuit, settings };
+        let ctx = valve::ValveContext {
+            job,
+            set,
+            circuit: &circuit,
+            settings,
+        };
         let mut valves = Vec::new();
         for reading in &set.valves {
-            let Some(spec) = job.valve(&reading.position.value) else { continue };
+            let Some(spec) = job.valve(&reading.position.value) else {
+                continue;
+            };
             let Ok(rating) = ratings.lookup(&spec.type_name.value) else {
-                notes.push(format!("{}: valve type {} is not in the ratings table", spec.position.value, spec.type_name.value));
+                notes.push(format!(
+                    "{}: valve type {} is not in the ratings table",
+                    spec.position.value, spec.type_name.value
+                ));
                 continue;
             };
             valves.push(valve::analyse(&ctx, spec, reading, rating, &mut notes));
@@ -63,24 +81,51 @@ pub fn derive(job: &Job, ratings: &RatingsTable) -> Findings {
         warnings.extend(set_warnings(&found));
         for n in notes {
             let subject = n.split(':').next().unwrap_or("").to_string();
-            warnings.push(Warning { set: Some(set.label.clone()), subject, status: Status::Caution, message: n });
+            warnings.push(Warning {
+                set: Some(set.label.clone()),
+                subject,
+                status: Status::Caution,
+                message: n,
+            });
         }
         sets.push(found);
     }
-    let safety = job.safety.as_ref().map(safety::findings).unwrap_or_default();
+    let safety = job
+        .safety
+        .as_ref()
+        .map(safety::findings)
+        .unwrap_or_default();
     for s in &safety {
         if s.verdict.status != Status::Ok {
-            warnings.push(Warning { set: None, subject: "safety".into(), status: s.verdict.status, message: sentence(&s.verdict.reason) });
+            warnings.push(Warning {
+                set: None,
+                subject: "safety".into(),
+                status: s.verdict.status,
+                message: sentence(&s.verdict.reason),
+            });
         }
     }
     if job.measurements.is_empty() {
-        warnings.push(Warning { set: None, subject: "job".into(), status: Status::Caution, message: "The job has no measurement sets, so no figures could be derived.".into() });
+        warnings.push(Warning {
+            set: None,
+            subject: "job".into(),
+            status: Status::Caution,
+            message: "The job has no measurement sets, so no figures could be derived.".into(),
+        });
     }
-    let mods = job.mods.iter().map(|m| mod_findings(m, job, ratings, &mut warnings)).collect();
+    let mods = job
+        .mods
+        .iter()
+        .map(|m| mod_findings(m, job, ratings, &mut warnings))
+        .collect();
     let at_a_glance = glance(sets.last(), &safety, job.safety.is_some());
     Findings {
         schema: SCHEMA,
-        job: JobSummary { id: job.info.id.clone(), source: job.source_name.clone(), format_version: job.format_version },
+        job: JobSummary {
+            id: job.info.id.clone(),
+            source: job.source_name.clone(),
+            format_version: job.format_version,
+        },
         mains: MainsFigures {
             nominal_volts: job.mains.nominal.value.0,
             tolerance_pct: job.mains.tolerance.value * 100.0,
@@ -141,7 +186,12 @@ fn set_warnings(set: &SetFindings) -> Vec<Warning> {
     for n in &set.nodes {
         push(&n.name, &n.verdict);
     }
-    for r in set.droppers.iter().chain(&set.cathode_resistors).chain(&set.screen_resistors) {
+    for r in set
+        .droppers
+        .iter()
+        .chain(&set.cathode_resistors)
+        .chain(&set.screen_resistors)
+    {
         push(&r.reference, &r.verdict);
     }
     for c in &set.filter_capacitors {
@@ -156,56 +206,112 @@ fn set_warnings(set: &SetFindings) -> Vec<Warning> {
     out
 }
 
-fn glance(last: Option<&SetFindings>, safety: &[SafetyFinding], has_safety: bool) -> Vec<FamilyStatus> {
+fn glance(
+    last: Option<&SetFindings>,
+    safety: &[SafetyFinding],
+    has_safety: bool,
+) -> Vec<FamilyStatus> {
     let mut out = Vec::new();
     for family in Family::ALL {
         let verdicts: Vec<(String, &Verdict)> = match (family, last) {
-            (Family::SafetyTests, _) => safety.iter().map(|s| (s.test.replace('_', " "), &s.verdict)).collect(),
+            (Family::SafetyTests, _) => safety
+                .iter()
+                .map(|s| (s.test.replace('_', " "), &s.verdict))
+                .collect(),
             (_, None) => Vec::new(),
             (Family::OutputValves, Some(set)) => set
                 .valves
                 .iter()
                 .filter(|v| v.is_output)
-                .flat_map(|v| v.checks.iter().map(move |c| (format!("{} ({})", v.position, v.valve_type), &c.verdict)))
+                .flat_map(|v| {
+                    v.checks
+                        .iter()
+                        .map(move |c| (format!("{} ({})", v.position, v.valve_type), &c.verdict))
+                })
                 .collect(),
-            (Family::SupplyVoltages, Some(set)) => set.nodes.iter().map(|n| (n.name.clone(), &n.verdict)).collect(),
+            (Family::SupplyVoltages, Some(set)) => set
+                .nodes
+                .iter()
+                .map(|n| (n.name.clone(), &n.verdict))
+                .collect(),
             (Family::StressedParts, Some(set)) => set
                 .droppers
                 .iter()
                 .chain(&set.cathode_resistors)
                 .chain(&set.screen_resistors)
                 .map(|r| (r.reference.clone(), &r.verdict))
-                .chain(set.filter_capacitors.iter().map(|c| (c.reference.clone(), &c.verdict)))
-                .chain(set.rectifier.iter().map(|r| (format!("{} ({})", r.position, r.valve_type), &r.verdict)))
+                .chain(
+                    set.filter_capacitors
+                        .iter()
+                        .map(|c| (c.reference.clone(), &c.verdict)),
+                )
+                .chain(
+                    set.rectifier
+                        .iter()
+                        .map(|r| (format!("{} ({})", r.position, r.valve_type), &r.verdict)),
+                )
                 .collect(),
-            (Family::Heater, Some(set)) => set.heaters.iter().map(|h| ("heater".to_string(), &h.verdict)).collect(),
+            (Family::Heater, Some(set)) => set
+                .heaters
+                .iter()
+                .map(|h| ("heater".to_string(), &h.verdict))
+                .collect(),
         };
-        let worst = verdicts.iter().fold(None, |best: Option<&(String, &Verdict)>, item| {
-            if best.is_none_or(|b| item.1.status.rank() > b.1.status.rank()) { Some(item) } else { best }
-        });
+        let worst = verdicts
+            .iter()
+            .fold(None, |best: Option<&(String, &Verdict)>, item| {
+                if best.is_none_or(|b| item.1.status.rank() > b.1.status.rank()) {
+                    Some(item)
+                } else {
+                    best
+                }
+            });
         let (status, words, measured) = match worst {
-            Some((_, v)) if v.status == Status::Ok => {
-                (Status::Ok, ok_summary(family, last, safety).unwrap_or_else(|| v.reason.clone()), true)
-            }
+            Some((_, v)) if v.status == Status::Ok => (
+                Status::Ok,
+                ok_summary(family, last, safety).unwrap_or_else(|| v.reason.clone()),
+                true,
+            ),
             Some((subject, v)) => (v.status, format!("{subject}: {}", v.reason), true),
-            None if family == Family::SafetyTests && !has_safety => (Status::Caution, "no safety tests recorded".to_string(), false),
+            None if family == Family::SafetyTests && !has_safety => (
+                Status::Caution,
+                "no safety tests recorded".to_string(),
+                false,
+            ),
             None => (Status::Ok, "nothing measured".to_string(), false),
         };
-        out.push(FamilyStatus { family, title: family.words(), status, worst: words, measured });
+        out.push(FamilyStatus {
+            family,
+            title: family.words(),
+            status,
+            worst: words,
+            measured,
+        });
     }
     out
 }
 
 /// When a whole family is ok, the figure nearest its limit, in words.
-fn ok_summary(family: Family, last: Option<&SetFindings>, safety: &[SafetyFinding]) -> Option<String> {
+fn ok_summary(
+    family: Family,
+    last: Option<&SetFindings>,
+    safety: &[SafetyFinding],
+) -> Option<String> {
     let max_by = |a: f64, b: f64| a.total_cmp(&b);
     match family {
         Family::SafetyTests => Some(format!("all {} tests meet their limits", safety.len())),
         Family::OutputValves => {
             let set = last?;
-            let v = set.valves.iter().filter(|v| v.is_output && v.plate_dissipation_pct.is_some()).max_by(|a, b| {
-                max_by(a.plate_dissipation_pct.unwrap_or(0.0), b.plate_dissipation_pct.unwrap_or(0.0))
-            })?;
+            let v = set
+                .valves
+                .iter()
+                .filter(|v| v.is_output && v.plate_dissipation_pct.is_some())
+                .max_by(|a, b| {
+                    max_by(
+                        a.plate_dissipation_pct.unwrap_or(0.0),
+                        b.plate_dissipation_pct.unwrap_or(0.0),
+                    )
+                })?;
             let n = set.valves.iter().filter(|v| v.is_output).count();
             Some(format!(
                 "{n} output valve{} inside their ratings; hottest {} ({}) at {:.0} % of its plate rating",
@@ -217,8 +323,17 @@ fn ok_summary(family: Family, last: Option<&SetFindings>, safety: &[SafetyFindin
         }
         Family::SupplyVoltages => {
             let set = last?;
-            let charted: Vec<&NodeFindings> = set.nodes.iter().filter(|n| n.deviation_pct.is_some()).collect();
-            let n = charted.iter().max_by(|a, b| max_by(a.deviation_pct.unwrap_or(0.0).abs(), b.deviation_pct.unwrap_or(0.0).abs()))?;
+            let charted: Vec<&NodeFindings> = set
+                .nodes
+                .iter()
+                .filter(|n| n.deviation_pct.is_some())
+                .collect();
+            let n = charted.iter().max_by(|a, b| {
+                max_by(
+                    a.deviation_pct.unwrap_or(0.0).abs(),
+                    b.deviation_pct.unwrap_or(0.0).abs(),
+                )
+            })?;
             Some(format!(
                 "{} node{} within tolerance of the chart; largest deviation {:+.1} % at {}",
                 charted.len(),
@@ -238,22 +353,46 @@ fn ok_summary(family: Family, last: Option<&SetFindings>, safety: &[SafetyFindin
                 .filter(|r| r.power_pct.is_some())
                 .max_by(|a, b| max_by(a.power_pct.unwrap_or(0.0), b.power_pct.unwrap_or(0.0)))
             {
-                parts.push(format!("busiest resistor {} at {:.0} % of its rating", r.reference, r.power_pct.unwrap_or(0.0)));
+                parts.push(format!(
+                    "busiest resistor {} at {:.0} % of its rating",
+                    r.reference,
+                    r.power_pct.unwrap_or(0.0)
+                ));
             }
-            if let Some(c) = set.filter_capacitors.iter().min_by(|a, b| a.margin_pct.total_cmp(&b.margin_pct)) {
-                parts.push(format!("least capacitor margin {:.0} % ({})", c.margin_pct, c.reference));
+            if let Some(c) = set
+                .filter_capacitors
+                .iter()
+                .min_by(|a, b| a.margin_pct.total_cmp(&b.margin_pct))
+            {
+                parts.push(format!(
+                    "least capacitor margin {:.0} % ({})",
+                    c.margin_pct, c.reference
+                ));
             }
             if let Some(r) = &set.rectifier {
-                parts.push(format!("rectifier {} at {:.0} % of its rating", r.position, r.load_pct));
+                parts.push(format!(
+                    "rectifier {} at {:.0} % of its rating",
+                    r.position, r.load_pct
+                ));
             }
-            if parts.is_empty() { None } else { Some(parts.join("; ")) }
+            if parts.is_empty() {
+                None
+            } else {
+                Some(parts.join("; "))
+            }
         }
         Family::Heater => {
             let h = last?.heaters.first()?;
             Some(format!(
                 "{} against {} ({:+.1} %)",
-                crate::units::format_engineering(h.measured_volts, crate::units::QuantityKind::Voltage),
-                crate::units::format_engineering(h.nominal_volts, crate::units::QuantityKind::Voltage),
+                crate::units::format_engineering(
+                    h.measured_volts,
+                    crate::units::QuantityKind::Voltage
+                ),
+                crate::units::format_engineering(
+                    h.nominal_volts,
+                    crate::units::QuantityKind::Voltage
+                ),
                 h.deviation_pct
             ))
         }
@@ -263,7 +402,9 @@ fn ok_summary(family: Family, last: Option<&SetFindings>, safety: &[SafetyFindin
 fn ratings_used(job: &Job, ratings: &RatingsTable) -> Vec<RatingUsed> {
     let mut out: Vec<RatingUsed> = Vec::new();
     for v in &job.valves {
-        let Ok(r) = ratings.lookup(&v.type_name.value) else { continue };
+        let Ok(r) = ratings.lookup(&v.type_name.value) else {
+            continue;
+        };
         if let Some(existing) = out.iter_mut().find(|u| u.name == r.name) {
             existing.positions.push(v.position.value.clone());
             continue;
@@ -284,7 +425,12 @@ fn ratings_used(job: &Job, ratings: &RatingsTable) -> Vec<RatingUsed> {
     out
 }
 
-fn mod_findings(m: &crate::job::Modification, job: &Job, ratings: &RatingsTable, warnings: &mut Vec<Warning>) -> ModFindings {
+fn mod_findings(
+    m: &crate::job::Modification,
+    job: &Job,
+    ratings: &RatingsTable,
+    warnings: &mut Vec<Warning>,
+) -> ModFindings {
     use crate::job::ModFigure;
     use crate::units::{QuantityKind as Q, format_engineering};
     let hz = |f: f64| format_engineering(f, Q::Frequency);
@@ -314,13 +460,24 @@ fn mod_findings(m: &crate::job::Modification, job: &Job, ratings: &RatingsTable,
                 let fc = crate::units::rc_corner(*r, *c).0;
                 figures.push(ModFigureFindings {
                     kind: "rc_corner",
-                    description: format!("{}{} with {}: corner {}", label.as_ref().map(|l| format!("{l}: ")).unwrap_or_default(), ohms(r.0), farads(c.0), hz(fc)),
+                    description: format!(
+                        "{}{} with {}: corner {}",
+                        label.as_ref().map(|l| format!("{l}: ")).unwrap_or_default(),
+                        ohms(r.0),
+                        farads(c.0),
+                        hz(fc)
+                    ),
                     formula: "fc = 1 / (2π·R·C)",
                     frequency_hz: Some(fc),
                     gain: None,
                 });
             }
-            ModFigure::CathodeBypass { valve, rk, ck, load } => {
+            ModFigure::CathodeBypass {
+                valve,
+                rk,
+                ck,
+                load,
+            } => {
                 if let Some((mu, ra, name)) = triode(&valve.value) {
                     let fc = cathode_bypass_corner(mu, ra, *load, *rk, *ck).0;
                     figures.push(ModFigureFindings {
@@ -340,10 +497,18 @@ fn mod_findings(m: &crate::job::Modification, job: &Job, ratings: &RatingsTable,
                     });
                 }
             }
-            ModFigure::StageGain { valve, load, rk, bypassed } => {
+            ModFigure::StageGain {
+                valve,
+                load,
+                rk,
+                bypassed,
+            } => {
                 if let Some((mu, ra, name)) = triode(&valve.value) {
                     let (gain, formula) = match (rk, bypassed) {
-                        (Some(rk), false) => (gain_unbypassed(mu, ra, *load, *rk), "A = μ·RL / (RL + ra + (μ + 1)·Rk)"),
+                        (Some(rk), false) => (
+                            gain_unbypassed(mu, ra, *load, *rk),
+                            "A = μ·RL / (RL + ra + (μ + 1)·Rk)",
+                        ),
                         _ => (gain_bypassed(mu, ra, *load), "A = μ·RL / (RL + ra)"),
                     };
                     figures.push(ModFigureFindings {
@@ -382,5 +547,8 @@ fn mod_findings(m: &crate::job::Modification, job: &Job, ratings: &RatingsTable,
             }
         }
     }
-    ModFindings { what: m.what.clone(), figures }
+    ModFindings {
+        what: m.what.clone(),
+        figures,
+    }
 }

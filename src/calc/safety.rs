@@ -14,11 +14,20 @@ pub(crate) fn findings(safety: &Safety) -> Vec<SafetyFinding> {
         .tests
         .iter()
         .map(|t| match t {
-            SafetyTest::EarthContinuity { measured, limit, cord } => {
+            SafetyTest::EarthContinuity {
+                measured,
+                limit,
+                cord,
+            } => {
                 let allowed = limit.0 + cord.map(|c| c.0).unwrap_or(0.0);
                 let passed = measured.0 <= allowed + 1e-12;
                 let limit_words = match cord {
-                    Some(c) => format!("≤ {} + cord {} = {}", q(limit.0, QuantityKind::Resistance), q(c.0, QuantityKind::Resistance), q(allowed, QuantityKind::Resistance)),
+                    Some(c) => format!(
+                        "≤ {} + cord {} = {}",
+                        q(limit.0, QuantityKind::Resistance),
+                        q(c.0, QuantityKind::Resistance),
+                        q(allowed, QuantityKind::Resistance)
+                    ),
                     None => format!("≤ {}", q(limit.0, QuantityKind::Resistance)),
                 };
                 SafetyFinding {
@@ -29,13 +38,33 @@ pub(crate) fn findings(safety: &Safety) -> Vec<SafetyFinding> {
                     limit_value: allowed,
                     unit: "ohm",
                     passed,
-                    verdict: verdict(passed, format!("protective-earth resistance {}", q(measured.0, QuantityKind::Resistance)), limit_words),
+                    verdict: verdict(
+                        passed,
+                        format!(
+                            "protective-earth resistance {}",
+                            q(measured.0, QuantityKind::Resistance)
+                        ),
+                        limit_words,
+                    ),
                 }
             }
-            SafetyTest::Insulation { measured, over_range, test_voltage, minimum } => {
+            SafetyTest::Insulation {
+                measured,
+                over_range,
+                test_voltage,
+                minimum,
+            } => {
                 let passed = measured.0 >= minimum.0;
-                let shown = format!("{}{}", if *over_range { "> " } else { "" }, q(measured.0, QuantityKind::Resistance));
-                let limit_words = format!("≥ {} at {} DC", q(minimum.0, QuantityKind::Resistance), q(test_voltage.0, QuantityKind::Voltage));
+                let shown = format!(
+                    "{}{}",
+                    if *over_range { "> " } else { "" },
+                    q(measured.0, QuantityKind::Resistance)
+                );
+                let limit_words = format!(
+                    "≥ {} at {} DC",
+                    q(minimum.0, QuantityKind::Resistance),
+                    q(test_voltage.0, QuantityKind::Voltage)
+                );
                 SafetyFinding {
                     test: "insulation",
                     measured: shown.clone(),
@@ -44,7 +73,14 @@ pub(crate) fn findings(safety: &Safety) -> Vec<SafetyFinding> {
                     limit_value: minimum.0,
                     unit: "ohm",
                     passed,
-                    verdict: verdict(passed, format!("insulation resistance {shown} at {} DC", q(test_voltage.0, QuantityKind::Voltage)), limit_words),
+                    verdict: verdict(
+                        passed,
+                        format!(
+                            "insulation resistance {shown} at {} DC",
+                            q(test_voltage.0, QuantityKind::Voltage)
+                        ),
+                        limit_words,
+                    ),
                 }
             }
             SafetyTest::Leakage { measured, limit } => {
@@ -58,7 +94,11 @@ pub(crate) fn findings(safety: &Safety) -> Vec<SafetyFinding> {
                     limit_value: limit.0,
                     unit: "A",
                     passed,
-                    verdict: verdict(passed, format!("leakage current {}", q(measured.0, QuantityKind::Current)), limit_words),
+                    verdict: verdict(
+                        passed,
+                        format!("leakage current {}", q(measured.0, QuantityKind::Current)),
+                        limit_words,
+                    ),
                 }
             }
         })
@@ -69,7 +109,11 @@ fn verdict(passed: bool, what: String, limit: String) -> Verdict {
     if passed {
         Verdict::ok(format!("{what} meets the limit {limit}"), limit)
     } else {
-        Verdict::new(Status::Over, format!("{what} fails the limit {limit}"), limit)
+        Verdict::new(
+            Status::Over,
+            format!("{what} fails the limit {limit}"),
+            limit,
+        )
     }
 }
 
@@ -85,11 +129,27 @@ mod tests {
             class: ProtectionClass::One,
             tests: vec![
                 // IET Code of Practice for In-service Inspection and Testing, from memory: Class I earth ≤ 0.1 Ω plus the cord.
-                SafetyTest::EarthContinuity { measured: Ohms(0.14), limit: Ohms(0.1), cord: Some(Ohms(0.05)) },
-                SafetyTest::EarthContinuity { measured: Ohms(0.16), limit: Ohms(0.1), cord: Some(Ohms(0.05)) },
+                SafetyTest::EarthContinuity {
+                    measured: Ohms(0.14),
+                    limit: Ohms(0.1),
+                    cord: Some(Ohms(0.05)),
+                },
+                SafetyTest::EarthContinuity {
+                    measured: Ohms(0.16),
+                    limit: Ohms(0.1),
+                    cord: Some(Ohms(0.05)),
+                },
                 // Same source, from memory: insulation ≥ 1 MΩ at 500 V DC for Class I.
-                SafetyTest::Insulation { measured: Ohms(0.8e6), over_range: false, test_voltage: Volts(500.0), minimum: Ohms(1e6) },
-                SafetyTest::Leakage { measured: Amps(0.4e-3), limit: Amps(0.5e-3) },
+                SafetyTest::Insulation {
+                    measured: Ohms(0.8e6),
+                    over_range: false,
+                    test_voltage: Volts(500.0),
+                    minimum: Ohms(1e6),
+                },
+                SafetyTest::Leakage {
+                    measured: Amps(0.4e-3),
+                    limit: Amps(0.5e-3),
+                },
             ],
         };
         let f = findings(&s);

@@ -39,7 +39,11 @@ impl Status {
 
     /// The worse of two statuses.
     pub fn worst(self, other: Status) -> Status {
-        if other.rank() > self.rank() { other } else { self }
+        if other.rank() > self.rank() {
+            other
+        } else {
+            self
+        }
     }
 }
 
@@ -59,7 +63,11 @@ pub struct Verdict {
 
 impl Verdict {
     pub fn new(status: Status, reason: impl Into<String>, threshold: impl Into<String>) -> Self {
-        Verdict { status, reason: reason.into(), threshold: threshold.into() }
+        Verdict {
+            status,
+            reason: reason.into(),
+            threshold: threshold.into(),
+        }
     }
 
     pub fn ok(reason: impl Into<String>, threshold: impl Into<String>) -> Self {
@@ -81,13 +89,30 @@ pub fn worst_of<'a>(verdicts: impl IntoIterator<Item = &'a Verdict>) -> Option<&
 /// Bands for a figure that must stay under a rating: caution above
 /// `caution` (a fraction of the rating), over above 100 %.
 pub fn under_rating(pct: f64, caution: f64, what: &str, rating: &str) -> Verdict {
-    let threshold = format!("caution above {:.0} % of {rating}, over above 100 %", caution * 100.0);
+    let threshold = format!(
+        "caution above {:.0} % of {rating}, over above 100 %",
+        caution * 100.0
+    );
     if pct > 100.0 {
-        Verdict::new(Status::Over, format!("{what} is {pct:.0} % of its {rating} rating"), threshold)
+        Verdict::new(
+            Status::Over,
+            format!("{what} is {pct:.0} % of its {rating} rating"),
+            threshold,
+        )
     } else if pct > caution * 100.0 {
-        Verdict::new(Status::Caution, format!("{what} is {pct:.0} % of its {rating} rating, above the {:.0} % guide", caution * 100.0), threshold)
+        Verdict::new(
+            Status::Caution,
+            format!(
+                "{what} is {pct:.0} % of its {rating} rating, above the {:.0} % guide",
+                caution * 100.0
+            ),
+            threshold,
+        )
     } else {
-        Verdict::ok(format!("{what} is {pct:.0} % of its {rating} rating"), threshold)
+        Verdict::ok(
+            format!("{what} is {pct:.0} % of its {rating} rating"),
+            threshold,
+        )
     }
 }
 
@@ -100,7 +125,11 @@ mod tests {
         assert_eq!(Status::Ok.worst(Status::Cold), Status::Cold);
         assert_eq!(Status::Caution.worst(Status::Cold), Status::Caution);
         assert_eq!(Status::Over.worst(Status::Caution), Status::Over);
-        let v = [Verdict::ok("a", ""), Verdict::new(Status::Caution, "b", ""), Verdict::new(Status::Caution, "c", "")];
+        let v = [
+            Verdict::ok("a", ""),
+            Verdict::new(Status::Caution, "b", ""),
+            Verdict::new(Status::Caution, "c", ""),
+        ];
         assert_eq!(worst_of(&v).map(|v| v.reason.as_str()), Some("b"));
     }
 

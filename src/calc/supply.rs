@@ -2,7 +2,10 @@
 //! resistor power, filter-capacitor margins (including the cold-start
 //! peak) and heater voltage.
 
-use super::findings::{CapacitorFindings, HeaterFindings, NodeFindings, RectifierFindings, ResistorFindings, ValveFindings};
+use super::findings::{
+    CapacitorFindings, HeaterFindings, NodeFindings, RectifierFindings, ResistorFindings,
+    ValveFindings,
+};
 use super::mains;
 use super::status::{Status, Verdict, under_rating};
 use crate::job::{Circuit, Job, MeasurementSet, RectifierKind, Settings};
@@ -11,7 +14,12 @@ use crate::units::{Ohms, QuantityKind, Volts, Watts, format_engineering};
 
 /// Cold-start peak of a full-wave winding of `rms` volts per side rated at
 /// primary `rated_primary`, fed `mains` volts: √2 · Vsec · Vmains / Vp − drop.
-pub fn cold_start_peak(rms: Volts, rated_primary: Volts, mains: Volts, rectifier_drop: Volts) -> Volts {
+pub fn cold_start_peak(
+    rms: Volts,
+    rated_primary: Volts,
+    mains: Volts,
+    rectifier_drop: Volts,
+) -> Volts {
     Volts(std::f64::consts::SQRT_2 * rms.0 * (mains / rated_primary)) - rectifier_drop
 }
 
@@ -21,12 +29,26 @@ fn v(x: f64) -> String {
 
 /// Resistor power: two decimals of a watt, or milliwatts when tiny.
 pub fn w(x: f64) -> String {
-    if x.abs() < 0.01 { format_engineering(x, QuantityKind::Power) } else { format!("{x:.2} W") }
+    if x.abs() < 0.01 {
+        format_engineering(x, QuantityKind::Power)
+    } else {
+        format!("{x:.2} W")
+    }
 }
 
-pub(crate) fn nodes(job: &Job, set: &MeasurementSet, circuit: &Circuit, settings: &Settings) -> Vec<NodeFindings> {
+pub(crate) fn nodes(
+    job: &Job,
+    set: &MeasurementSet,
+    circuit: &Circuit,
+    settings: &Settings,
+) -> Vec<NodeFindings> {
     let nominal = job.mains.nominal.value;
-    let design = job.mains.design.as_ref().map(|d| d.value).unwrap_or(nominal);
+    let design = job
+        .mains
+        .design
+        .as_ref()
+        .map(|d| d.value)
+        .unwrap_or(nominal);
     let t = job.mains.tolerance.value;
     set.nodes
         .iter()
@@ -92,17 +114,28 @@ fn resistor(
     let pct_h = rating.map(|rt| p_h / rt * 100.0);
     let verdict = match (rating, pct, pct_h) {
         (Some(rt), Some(pct), Some(pct_h)) => {
-            let mut verdict = under_rating(pct, settings.resistor_derating, &format!("dissipation {}", w(p.0)), &format_engineering(rt.0, QuantityKind::Power));
+            let mut verdict = under_rating(
+                pct,
+                settings.resistor_derating,
+                &format!("dissipation {}", w(p.0)),
+                &format_engineering(rt.0, QuantityKind::Power),
+            );
             if verdict.status == Status::Ok && pct_h > settings.resistor_derating * 100.0 {
                 verdict = Verdict::new(
                     Status::Caution,
-                    format!("would dissipate {} at high line, {pct_h:.0} % of its rating", w(p_h.0)),
+                    format!(
+                        "would dissipate {} at high line, {pct_h:.0} % of its rating",
+                        w(p_h.0)
+                    ),
                     verdict.threshold,
                 );
             }
             verdict
         }
-        _ => Verdict::ok(format!("dissipates {}; no rating given", w(p.0)), "none: the job gives no power rating"),
+        _ => Verdict::ok(
+            format!("dissipates {}; no rating given", w(p.0)),
+            "none: the job gives no power rating",
+        ),
     };
     ResistorFindings {
         reference: reference.to_string(),
@@ -119,8 +152,19 @@ fn resistor(
     }
 }
 
-pub(crate) fn droppers(job: &Job, set: &MeasurementSet, circuit: &Circuit, settings: &Settings, notes: &mut Vec<String>) -> Vec<ResistorFindings> {
-    let read = |name: &str| set.nodes.iter().find(|n| n.name.value == name).map(|n| n.volts.value);
+pub(crate) fn droppers(
+    job: &Job,
+    set: &MeasurementSet,
+    circuit: &Circuit,
+    settings: &Settings,
+    notes: &mut Vec<String>,
+) -> Vec<ResistorFindings> {
+    let read = |name: &str| {
+        set.nodes
+            .iter()
+            .find(|n| n.name.value == name)
+            .map(|n| n.volts.value)
+    };
     let mut out = Vec::new();
     for d in &circuit.droppers {
         match (read(&d.from.value), read(&d.to.value)) {
@@ -134,13 +178,21 @@ pub(crate) fn droppers(job: &Job, set: &MeasurementSet, circuit: &Circuit, setti
                 set,
                 settings,
             )),
-            _ => notes.push(format!("dropper {}: both {} and {} must be read to find its dissipation", d.reference, d.from.value, d.to.value)),
+            _ => notes.push(format!(
+                "dropper {}: both {} and {} must be read to find its dissipation",
+                d.reference, d.from.value, d.to.value
+            )),
         }
     }
     out
 }
 
-pub(crate) fn cathode_resistors(job: &Job, set: &MeasurementSet, circuit: &Circuit, settings: &Settings) -> Vec<ResistorFindings> {
+pub(crate) fn cathode_resistors(
+    job: &Job,
+    set: &MeasurementSet,
+    circuit: &Circuit,
+    settings: &Settings,
+) -> Vec<ResistorFindings> {
     let mut out = Vec::new();
     for rk in &circuit.cathode_resistors {
         let readings: Vec<Volts> = rk
@@ -154,17 +206,47 @@ pub(crate) fn cathode_resistors(job: &Job, set: &MeasurementSet, circuit: &Circu
         }
         let vk = Volts(readings.iter().map(|v| v.0).sum::<f64>() / readings.len() as f64);
         let names: Vec<&str> = rk.valves.iter().map(|v| v.value.as_str()).collect();
-        out.push(resistor(&rk.reference, format!("{} cathode{}", names.join(", "), if names.len() > 1 { "s" } else { "" }), rk.value.value, rk.rating, vk, job, set, settings));
+        out.push(resistor(
+            &rk.reference,
+            format!(
+                "{} cathode{}",
+                names.join(", "),
+                if names.len() > 1 { "s" } else { "" }
+            ),
+            rk.value.value,
+            rk.rating,
+            vk,
+            job,
+            set,
+            settings,
+        ));
     }
     out
 }
 
-pub(crate) fn screen_resistors(job: &Job, set: &MeasurementSet, circuit: &Circuit, settings: &Settings) -> Vec<ResistorFindings> {
+pub(crate) fn screen_resistors(
+    job: &Job,
+    set: &MeasurementSet,
+    circuit: &Circuit,
+    settings: &Settings,
+) -> Vec<ResistorFindings> {
     let mut out = Vec::new();
     for sr in &circuit.screen_resistors {
-        let Some(supply) = set.nodes.iter().find(|n| n.name.value == sr.supply.value) else { continue };
-        let Some(vg2) = set.valves.iter().find(|v| v.position.value == sr.valve.value).and_then(|v| v.screen.as_ref()) else { continue };
-        let reference = sr.reference.clone().unwrap_or_else(|| format!("{} screen", sr.valve.value));
+        let Some(supply) = set.nodes.iter().find(|n| n.name.value == sr.supply.value) else {
+            continue;
+        };
+        let Some(vg2) = set
+            .valves
+            .iter()
+            .find(|v| v.position.value == sr.valve.value)
+            .and_then(|v| v.screen.as_ref())
+        else {
+            continue;
+        };
+        let reference = sr
+            .reference
+            .clone()
+            .unwrap_or_else(|| format!("{} screen", sr.valve.value));
         out.push(resistor(
             &reference,
             format!("{} to {} screen", sr.supply.value, sr.valve.value),
@@ -191,49 +273,112 @@ pub(crate) fn capacitors(
     let high_mains = nominal * (1.0 + t);
     // The rectifier: its no-load drop, and whether it lets the supply reach
     // the peak before the output valves draw current.
-    let (drop, slow_warmup, rect_words) = match circuit.rectifier.as_ref().map(|r| (&r.kind, r.drop)) {
-        Some((RectifierKind::Silicon, d)) => (d.unwrap_or(settings.silicon_drop), false, "silicon rectifier".to_string()),
-        Some((RectifierKind::Valve(pos), d)) => {
-            let heating = job
-                .valve(&pos.value)
-                .and_then(|v| ratings.lookup(&v.type_name.value).ok())
-                .and_then(|r| r.rectifier_heating);
-            let slow = heating == Some(RectifierHeating::Indirect);
-            let name = job.valve(&pos.value).map(|v| v.type_name.value.clone()).unwrap_or_default();
-            (d.unwrap_or(Volts(0.0)), slow, format!("{name} valve rectifier{}", if slow { ", indirectly heated" } else { "" }))
-        }
-        None => (settings.silicon_drop, false, "rectifier not stated, taken as silicon".to_string()),
-    };
-    let peak = circuit.winding.as_ref().map(|w| cold_start_peak(w.rms.value, w.primary.value, high_mains, drop));
+    let (drop, slow_warmup, rect_words) =
+        match circuit.rectifier.as_ref().map(|r| (&r.kind, r.drop)) {
+            Some((RectifierKind::Silicon, d)) => (
+                d.unwrap_or(settings.silicon_drop),
+                false,
+                "silicon rectifier".to_string(),
+            ),
+            Some((RectifierKind::Valve(pos), d)) => {
+                let heating = job
+                    .valve(&pos.value)
+                    .and_then(|v| ratings.lookup(&v.type_name.value).ok())
+                    .and_then(|r| r.rectifier_heating);
+                let slow = heating == Some(RectifierHeating::Indirect);
+                let name = job
+                    .valve(&pos.value)
+                    .map(|v| v.type_name.value.clone())
+                    .unwrap_or_default();
+                (
+                    d.unwrap_or(Volts(0.0)),
+                    slow,
+                    format!(
+                        "{name} valve rectifier{}",
+                        if slow { ", indirectly heated" } else { "" }
+                    ),
+                )
+            }
+            None => (
+                settings.silicon_drop,
+                false,
+                "rectifier not stated, taken as silicon".to_string(),
+            ),
+        };
+    let peak = circuit
+        .winding
+        .as_ref()
+        .map(|w| cold_start_peak(w.rms.value, w.primary.value, high_mains, drop));
     let mut out = Vec::new();
     for cap in &circuit.filter_capacitors {
-        let measured = set.nodes.iter().find(|n| n.name.value == cap.node.value).map(|n| n.volts.value);
-        let high = measured.map(|m| mains::high_line_volts(mains::corrected_volts(m, set.mains.value, nominal), t));
+        let measured = set
+            .nodes
+            .iter()
+            .find(|n| n.name.value == cap.node.value)
+            .map(|n| n.volts.value);
+        let high = measured.map(|m| {
+            mains::high_line_volts(mains::corrected_volts(m, set.mains.value, nominal), t)
+        });
         let candidates = [high, peak];
-        let Some(highest) = candidates.iter().flatten().copied().reduce(Volts::max) else { continue };
+        let Some(highest) = candidates.iter().flatten().copied().reduce(Volts::max) else {
+            continue;
+        };
         let rating = cap.rating.value;
         let margin = (rating.0 - highest.0) / rating.0 * 100.0;
         let from_peak = peak.is_some_and(|p| p.0 >= highest.0);
         let source = if from_peak {
-            format!("cold-start peak at high line {} ({rect_words})", v(high_mains.0))
+            format!(
+                "cold-start peak at high line {} ({rect_words})",
+                v(high_mains.0)
+            )
         } else {
             format!("operating voltage at high line {}", v(high_mains.0))
         };
-        let threshold = format!("over above the {} rating; caution when the margin is under {:.0} %", v(rating.0), settings.capacitor_margin * 100.0);
+        let threshold = format!(
+            "over above the {} rating; caution when the margin is under {:.0} %",
+            v(rating.0),
+            settings.capacitor_margin * 100.0
+        );
         let verdict = if highest.0 > rating.0 {
             if from_peak && slow_warmup && high.is_none_or(|h| h.0 <= rating.0) {
                 Verdict::new(
                     Status::Caution,
-                    format!("{source}, {}, exceeds the {} rating; a slow-warming rectifier makes this less likely but not impossible", v(highest.0), v(rating.0)),
+                    format!(
+                        "{source}, {}, exceeds the {} rating; a slow-warming rectifier makes this less likely but not impossible",
+                        v(highest.0),
+                        v(rating.0)
+                    ),
                     threshold,
                 )
             } else {
-                Verdict::new(Status::Over, format!("{source}, {}, exceeds the {} rating", v(highest.0), v(rating.0)), threshold)
+                Verdict::new(
+                    Status::Over,
+                    format!(
+                        "{source}, {}, exceeds the {} rating",
+                        v(highest.0),
+                        v(rating.0)
+                    ),
+                    threshold,
+                )
             }
         } else if margin < settings.capacitor_margin * 100.0 {
-            Verdict::new(Status::Caution, format!("{source}, {}, leaves only {margin:.1} % margin on the {} rating", v(highest.0), v(rating.0)), threshold)
+            Verdict::new(
+                Status::Caution,
+                format!(
+                    "{source}, {}, leaves only {margin:.1} % margin on the {} rating",
+                    v(highest.0),
+                    v(rating.0)
+                ),
+                threshold,
+            )
         } else {
-            Verdict::ok(format!("highest expected {} ({source}) leaves {margin:.0} % margin", v(highest.0)), threshold)
+            Verdict::ok(
+                format!(
+                    "highest expected {} ({source}) leaves {margin:.0} % margin",
+                    v(highest.0)
+                ),
+                threshold,
+            )
         };
         out.push(CapacitorFindings {
             reference: cap.reference.clone(),
@@ -254,23 +399,40 @@ pub(crate) fn capacitors(
 /// A valve rectifier's load: at least the sum of the output valves' cathode
 /// currents (Ia + Ig2 where the screen current is known). Judged with the
 /// derating band's caution above 90 % (common practice) and over above 100 %.
-pub(crate) fn rectifier(job: &Job, circuit: &Circuit, valves: &[ValveFindings], ratings: &RatingsTable) -> Option<RectifierFindings> {
-    let RectifierKind::Valve(pos) = &circuit.rectifier.as_ref()?.kind else { return None };
+pub(crate) fn rectifier(
+    job: &Job,
+    circuit: &Circuit,
+    valves: &[ValveFindings],
+    ratings: &RatingsTable,
+) -> Option<RectifierFindings> {
+    let RectifierKind::Valve(pos) = &circuit.rectifier.as_ref()?.kind else {
+        return None;
+    };
     let spec = job.valve(&pos.value)?;
     let rating = ratings.lookup(&spec.type_name.value).ok()?;
     let max_ma = rating.output_current?.0 * 1e3;
     let outputs: Vec<&ValveFindings> = valves.iter().filter(|v| v.is_output).collect();
     let currents: Vec<f64> = outputs
         .iter()
-        .filter_map(|v| v.cathode_current_ma.or(v.plate_current_ma.map(|ia| ia + v.screen_current_ma.unwrap_or(0.0))))
+        .filter_map(|v| {
+            v.cathode_current_ma.or(v
+                .plate_current_ma
+                .map(|ia| ia + v.screen_current_ma.unwrap_or(0.0)))
+        })
         .collect();
     if currents.is_empty() || currents.len() < outputs.len() {
         return None;
     }
     let load: f64 = currents.iter().sum();
     let pct = load / max_ma * 100.0;
-    let threshold = format!("caution above 90 % of the {} rating, over above 100 % (output valves only: a lower bound)", format_engineering(max_ma / 1e3, QuantityKind::Current));
-    let what = format!("the output valves alone draw {load:.0} mA, {pct:.0} % of the {} {}'s {:.0} mA rating", spec.type_name.value, pos.value, max_ma);
+    let threshold = format!(
+        "caution above 90 % of the {} rating, over above 100 % (output valves only: a lower bound)",
+        format_engineering(max_ma / 1e3, QuantityKind::Current)
+    );
+    let what = format!(
+        "the output valves alone draw {load:.0} mA, {pct:.0} % of the {} {}'s {:.0} mA rating",
+        spec.type_name.value, pos.value, max_ma
+    );
     let verdict = if pct > 100.0 {
         Verdict::new(Status::Over, what, threshold)
     } else if pct > 90.0 {
@@ -293,18 +455,38 @@ pub(crate) fn heaters(job: &Job, set: &MeasurementSet, settings: &Settings) -> V
         .iter()
         .map(|h| {
             let measured = h.volts.value;
-            let corrected = mains::corrected_volts(measured, set.mains.value, job.mains.nominal.value);
+            let corrected =
+                mains::corrected_volts(measured, set.mains.value, job.mains.nominal.value);
             let dev = (measured / h.nominal - 1.0) * 100.0;
             let dev_c = (corrected / h.nominal - 1.0) * 100.0;
             let tol = settings.heater_tolerance * 100.0;
             let threshold = format!("within ±{tol:.0} % of {}", v(h.nominal.0));
             let at_nominal = format!("{} at nominal mains ({dev_c:+.1} %)", v(corrected.0));
             let verdict = if dev > tol + 1e-9 {
-                Verdict::new(Status::Over, format!("{} is {dev:+.1} % from {}, above the ±{tol:.0} % band; {at_nominal}", v(measured.0), v(h.nominal.0)), threshold)
+                Verdict::new(
+                    Status::Over,
+                    format!(
+                        "{} is {dev:+.1} % from {}, above the ±{tol:.0} % band; {at_nominal}",
+                        v(measured.0),
+                        v(h.nominal.0)
+                    ),
+                    threshold,
+                )
             } else if dev < -tol - 1e-9 {
-                Verdict::new(Status::Caution, format!("{} is {dev:+.1} % from {}, below the ±{tol:.0} % band; {at_nominal}", v(measured.0), v(h.nominal.0)), threshold)
+                Verdict::new(
+                    Status::Caution,
+                    format!(
+                        "{} is {dev:+.1} % from {}, below the ±{tol:.0} % band; {at_nominal}",
+                        v(measured.0),
+                        v(h.nominal.0)
+                    ),
+                    threshold,
+                )
             } else {
-                Verdict::ok(format!("{} is {dev:+.1} % from {}", v(measured.0), v(h.nominal.0)), threshold)
+                Verdict::ok(
+                    format!("{} is {dev:+.1} % from {}", v(measured.0), v(h.nominal.0)),
+                    threshold,
+                )
             };
             HeaterFindings {
                 label: h.label.clone(),
@@ -357,7 +539,10 @@ mod tests {
         // 360/327.273 − 1 = +10.0 %: inside the common-practice ±10 %; 361 V is +10.3 %: outside.
         assert!((f[0].deviation_pct.unwrap() - 10.0).abs() < 1e-9);
         // The node's own ±20 % (a factory chart's band): 390/327.27 − 1 = +19.2 %, inside.
-        assert_eq!(statuses(&f, |n| n.verdict.status), [Status::Ok, Status::Caution, Status::Ok, Status::Ok]);
+        assert_eq!(
+            statuses(&f, |n| n.verdict.status),
+            [Status::Ok, Status::Caution, Status::Ok, Status::Ok]
+        );
         assert_eq!(f[3].expected_volts, None);
         // High line, common practice V·(1 + t), ANSI C84.1 +5 % from memory: 360 V × 1.05 = 378 V.
         assert!((f[0].high_line_volts - 378.0).abs() < 1e-9);
@@ -383,13 +568,24 @@ mod tests {
         // Common practice: caution above 50 % of the rating, over above 100 %. 0.49 W is 49 %, but at
         // high line (ANSI C84.1 +5 %, from memory) 0.49 × 1.1025 = 0.540 W is 54 %: a caution too.
         assert!((f[0].high_line_power_w - 0.540225).abs() < 1e-9);
-        assert_eq!(statuses(&f, |r| r.verdict.status), [Status::Caution, Status::Caution, Status::Over]);
-        assert!(f[0].verdict.reason.contains("high line"), "{}", f[0].verdict.reason);
+        assert_eq!(
+            statuses(&f, |r| r.verdict.status),
+            [Status::Caution, Status::Caution, Status::Over]
+        );
+        assert!(
+            f[0].verdict.reason.contains("high line"),
+            "{}",
+            f[0].verdict.reason
+        );
     }
 
     #[test]
     fn a_dropper_needs_both_nodes_read() {
-        let j = job("120V", "node A\nnode B\ndropper R1 value=\"10k\" rating=\"1W\" from=A to=B", "node A \"400V\"");
+        let j = job(
+            "120V",
+            "node A\nnode B\ndropper R1 value=\"10k\" rating=\"1W\" from=A to=B",
+            "node A \"400V\"",
+        );
         let set = &j.measurements[0];
         let mut notes = Vec::new();
         assert!(droppers(&j, set, &j.circuit_for(set), &j.settings, &mut notes).is_empty());
@@ -398,7 +594,11 @@ mod tests {
 
     #[test]
     fn cathode_resistor_power() {
-        let j = job("120V", "cathode-resistor R9 value=\"130\" rating=\"2W\" valves=\"V1\"", "valve V1 plate=\"300V\" cathode=\"11.6V\"");
+        let j = job(
+            "120V",
+            "cathode-resistor R9 value=\"130\" rating=\"2W\" valves=\"V1\"",
+            "valve V1 plate=\"300V\" cathode=\"11.6V\"",
+        );
         let set = &j.measurements[0];
         let f = cathode_resistors(&j, set, &j.circuit_for(set), &j.settings);
         // Joule's law P = Vk²/Rk (textbook): 11.6² / 130 Ω = 1.0351 W, 51.8 % of 2 W: above the 50 % derating (common practice).
@@ -406,16 +606,32 @@ mod tests {
         assert_eq!(f[0].verdict.status, Status::Caution);
     }
 
-    fn capacitor_statuses(rectifier: &str, ratings: &[&str], b1: &str) -> (Vec<Status>, Vec<CapacitorFindings>) {
-        let caps: Vec<String> =
-            ratings.iter().enumerate().map(|(i, r)| format!("filter-capacitor C{i} rating=\"{r}\" node=B+1")).collect();
+    fn capacitor_statuses(
+        rectifier: &str,
+        ratings: &[&str],
+        b1: &str,
+    ) -> (Vec<Status>, Vec<CapacitorFindings>) {
+        let caps: Vec<String> = ratings
+            .iter()
+            .enumerate()
+            .map(|(i, r)| format!("filter-capacitor C{i} rating=\"{r}\" node=B+1"))
+            .collect();
         let j = job(
             "120V",
-            &format!("node B+1\nhigh-voltage-winding rms=\"300V\" primary=\"120V\"\n{rectifier}\n{}", caps.join("\n")),
+            &format!(
+                "node B+1\nhigh-voltage-winding rms=\"300V\" primary=\"120V\"\n{rectifier}\n{}",
+                caps.join("\n")
+            ),
             &format!("node B+1 \"{b1}\""),
         );
         let set = &j.measurements[0];
-        let f = capacitors(&j, set, &j.circuit_for(set), &j.settings, &RatingsTable::builtin());
+        let f = capacitors(
+            &j,
+            set,
+            &j.circuit_for(set),
+            &j.settings,
+            &RatingsTable::builtin(),
+        );
         (statuses(&f, |c| c.verdict.status), f)
     }
 
@@ -423,20 +639,37 @@ mod tests {
     fn filter_capacitor_margin_at_cold_start() {
         // √2·Vsec·Vhigh/Vp − drop (domain notes; peak = √2·RMS, textbook), silicon ≈ 1 V (common practice),
         // high line 126 V (ANSI C84.1 +5 %, from memory): 1.41421 × 300 × 126/120 − 1 = 444.48 V.
-        let (s, f) = capacitor_statuses("rectifier silicon", &["400V", "450V", "490V", "500V"], "360V");
+        let (s, f) = capacitor_statuses(
+            "rectifier silicon",
+            &["400V", "450V", "490V", "500V"],
+            "360V",
+        );
         assert!((f[0].cold_start_peak_volts.unwrap() - 444.4777).abs() < 1e-3);
         // Over when above the rating; caution when the margin is under 10 % (common practice):
         // 400 V: −11.1 %; 450 V: 1.2 %; 490 V: 9.3 %; 500 V: 11.1 %.
         assert!((f[1].margin_pct - 1.2272).abs() < 1e-3);
-        assert_eq!(s, [Status::Over, Status::Caution, Status::Caution, Status::Ok]);
+        assert_eq!(
+            s,
+            [Status::Over, Status::Caution, Status::Caution, Status::Ok]
+        );
     }
 
     #[test]
     fn the_operating_voltage_at_high_line_counts_when_it_is_higher() {
         // No winding given: only the operating figure. 430 V at 120 V mains × 1.05 = 451.5 V (common practice).
-        let j = job("120V", "node B+1\nfilter-capacitor C1 rating=\"450V\" node=B+1", "node B+1 \"430V\"");
+        let j = job(
+            "120V",
+            "node B+1\nfilter-capacitor C1 rating=\"450V\" node=B+1",
+            "node B+1 \"430V\"",
+        );
         let set = &j.measurements[0];
-        let f = capacitors(&j, set, &j.circuit_for(set), &j.settings, &RatingsTable::builtin());
+        let f = capacitors(
+            &j,
+            set,
+            &j.circuit_for(set),
+            &j.settings,
+            &RatingsTable::builtin(),
+        );
         assert!((f[0].highest_volts - 451.5).abs() < 1e-9);
         assert_eq!(f[0].verdict.status, Status::Over);
     }
@@ -454,12 +687,25 @@ mod tests {
 
     #[test]
     fn heater_band() {
-        let j = job("120V", "", "heater \"6.93V\"\nheater \"6.95V\"\nheater \"5.67V\"\nheater \"5.6V\"\nheater \"12.6V\" nominal=\"12.6V\"");
+        let j = job(
+            "120V",
+            "",
+            "heater \"6.93V\"\nheater \"6.95V\"\nheater \"5.67V\"\nheater \"5.6V\"\nheater \"12.6V\" nominal=\"12.6V\"",
+        );
         let set = &j.measurements[0];
         let f = heaters(&j, set, &j.settings);
         // Common practice, 6.3 V ±10 % (many datasheets say ±10 %, from memory): 5.67 … 6.93 V.
         assert!((f[0].deviation_pct - 10.0).abs() < 1e-9); // 6.93/6.3 − 1 = +10.0 %
-        assert_eq!(statuses(&f, |h| h.verdict.status), [Status::Ok, Status::Over, Status::Ok, Status::Caution, Status::Ok]);
+        assert_eq!(
+            statuses(&f, |h| h.verdict.status),
+            [
+                Status::Ok,
+                Status::Over,
+                Status::Ok,
+                Status::Caution,
+                Status::Ok
+            ]
+        );
     }
 
     #[test]

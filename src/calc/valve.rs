@@ -4,7 +4,10 @@
 use super::findings::{Check, CurrentMethod, TargetWindow, ValveFindings};
 use super::mains;
 use super::status::{Status, Verdict, under_rating, worst_of};
-use crate::job::{BiasKind, Circuit, CurrentMethod as ReadMethod, Job, MeasurementSet, Settings, ValvePosition, ValveReading};
+use crate::job::{
+    BiasKind, Circuit, CurrentMethod as ReadMethod, Job, MeasurementSet, Settings, ValvePosition,
+    ValveReading,
+};
 use crate::ratings::Rating;
 use crate::units::{Amps, Ohms, Volts, Watts, format_engineering};
 
@@ -115,10 +118,18 @@ pub(crate) fn analyse(
         method: current.as_ref().map(|c| c.method),
         plate_volts: va.map(|v| v.0),
         screen_volts: vg2.map(|v| v.0),
-        cathode_volts: reading.cathode.as_ref().map(|v| v.value.0).or(reading.sense.as_ref().map(|v| v.value.0)),
+        cathode_volts: reading
+            .cathode
+            .as_ref()
+            .map(|v| v.value.0)
+            .or(reading.sense.as_ref().map(|v| v.value.0)),
         grid_volts: reading.grid.as_ref().map(|v| v.value.0),
         cathode_current_ma: current.as_ref().and_then(|c| c.ik).map(|i| i.0 * 1e3),
-        screen_current_ma: current.as_ref().and_then(|c| c.ig2).or(ig2).map(|i| i.0 * 1e3),
+        screen_current_ma: current
+            .as_ref()
+            .and_then(|c| c.ig2)
+            .or(ig2)
+            .map(|i| i.0 * 1e3),
         plate_current_ma: current.as_ref().map(|c| c.ia.0 * 1e3),
         plate_current_includes_screen: current.as_ref().is_some_and(|c| c.includes_screen),
         plate_dissipation_w: None,
@@ -154,9 +165,25 @@ pub(crate) fn analyse(
             f.plate_dissipation_pct = Some(pct);
             f.corrected_plate_dissipation_pct = Some(pct_c);
             f.high_line_plate_dissipation_pct = Some(pct_h);
-            let conservative = if c.includes_screen { " (includes screen current, so on the high side)" } else { "" };
-            let verdict = dissipation_verdict(ctx.settings, bias, is_output, pct, pct_c, pa, max, conservative);
-            checks.push(Check { check: "plate_dissipation", verdict });
+            let conservative = if c.includes_screen {
+                " (includes screen current, so on the high side)"
+            } else {
+                ""
+            };
+            let verdict = dissipation_verdict(
+                ctx.settings,
+                bias,
+                is_output,
+                pct,
+                pct_c,
+                pa,
+                max,
+                conservative,
+            );
+            checks.push(Check {
+                check: "plate_dissipation",
+                verdict,
+            });
             if pct_h > 100.0 && pct <= 100.0 && pct_c <= 100.0 {
                 checks.push(Check {
                     check: "plate_dissipation_high_line",
@@ -173,7 +200,8 @@ pub(crate) fn analyse(
             }
         }
         // Fixed-bias target window.
-        if bias == BiasKind::Fixed && is_output
+        if bias == BiasKind::Fixed
+            && is_output
             && let Some(max) = rating.plate_dissipation
             && va.0 > vk.0
         {
@@ -191,35 +219,87 @@ pub(crate) fn analyse(
             let pct_h = pct * (nominal / measured_mains).powi(2) * (1.0 + tolerance).powi(2);
             let mut verdict = under_rating(pct, 1.0, "screen dissipation", &watts_words(max));
             // The band has no caution of its own below the rating: say what does decide.
-            verdict.threshold = format!("over above 100 % of {}; caution when the high-line projection is above it", watts_words(max));
+            verdict.threshold = format!(
+                "over above 100 % of {}; caution when the high-line projection is above it",
+                watts_words(max)
+            );
             if verdict.status == Status::Ok && pct_h > 100.0 {
-                verdict = Verdict::new(Status::Caution, format!("screen dissipation would be {pct_h:.0} % of its rating at high line"), verdict.threshold);
+                verdict = Verdict::new(
+                    Status::Caution,
+                    format!("screen dissipation would be {pct_h:.0} % of its rating at high line"),
+                    verdict.threshold,
+                );
             }
-            checks.push(Check { check: "screen_dissipation", verdict });
+            checks.push(Check {
+                check: "screen_dissipation",
+                verdict,
+            });
         }
     }
 
     // Voltage and cathode-current maxima.
-    let high = |v: Volts| mains::high_line_volts(mains::corrected_volts(v, measured_mains, nominal), tolerance);
+    let high = |v: Volts| {
+        mains::high_line_volts(
+            mains::corrected_volts(v, measured_mains, nominal),
+            tolerance,
+        )
+    };
     if let (Some(va), Some(max)) = (va, rating.plate_voltage) {
         let pct = va / max * 100.0;
         f.plate_voltage_pct = Some(pct);
-        checks.push(Check { check: "plate_voltage", verdict: max_verdict("plate voltage", va, high(va), max, ctx.settings.voltage_over) });
+        checks.push(Check {
+            check: "plate_voltage",
+            verdict: max_verdict(
+                "plate voltage",
+                va,
+                high(va),
+                max,
+                ctx.settings.voltage_over,
+            ),
+        });
     }
     if let (Some(vg2), Some(max)) = (vg2, rating.screen_voltage) {
         f.screen_voltage_pct = Some(vg2 / max * 100.0);
-        checks.push(Check { check: "screen_voltage", verdict: max_verdict("screen voltage", vg2, high(vg2), max, ctx.settings.voltage_over) });
+        checks.push(Check {
+            check: "screen_voltage",
+            verdict: max_verdict(
+                "screen voltage",
+                vg2,
+                high(vg2),
+                max,
+                ctx.settings.voltage_over,
+            ),
+        });
     }
-    if let (Some(ik), Some(max)) = (current.as_ref().and_then(|c| c.ik.or(Some(c.ia))), rating.cathode_current) {
+    if let (Some(ik), Some(max)) = (
+        current.as_ref().and_then(|c| c.ik.or(Some(c.ia))),
+        rating.cathode_current,
+    ) {
         let pct = ik / max * 100.0;
         f.cathode_current_pct = Some(pct);
-        let threshold = format!("over above the {} maximum", format_engineering(max.0, crate::units::QuantityKind::Current));
+        let threshold = format!(
+            "over above the {} maximum",
+            format_engineering(max.0, crate::units::QuantityKind::Current)
+        );
         let verdict = if pct > 100.0 {
-            Verdict::new(Status::Over, format!("cathode current {} is {pct:.0} % of its maximum", format_engineering(ik.0, crate::units::QuantityKind::Current)), threshold)
+            Verdict::new(
+                Status::Over,
+                format!(
+                    "cathode current {} is {pct:.0} % of its maximum",
+                    format_engineering(ik.0, crate::units::QuantityKind::Current)
+                ),
+                threshold,
+            )
         } else {
-            Verdict::ok(format!("cathode current is {pct:.0} % of its maximum"), threshold)
+            Verdict::ok(
+                format!("cathode current is {pct:.0} % of its maximum"),
+                threshold,
+            )
         };
-        checks.push(Check { check: "cathode_current", verdict });
+        checks.push(Check {
+            check: "cathode_current",
+            verdict,
+        });
     }
 
     if current.is_none() && is_output {
@@ -228,7 +308,9 @@ pub(crate) fn analyse(
         ));
     }
 
-    f.status = worst_of(checks.iter().map(|c| &c.verdict)).map(|v| v.status).unwrap_or(Status::Ok);
+    f.status = worst_of(checks.iter().map(|c| &c.verdict))
+        .map(|v| v.status)
+        .unwrap_or(Status::Ok);
     f.checks = checks;
     f
 }
@@ -243,10 +325,28 @@ fn find_current(
 ) -> Option<Current> {
     let circuit = ctx.circuit;
     let from_ik = |method, ik: Amps| match ig2 {
-        Some(ig2) => Current { method, ik: Some(ik), ia: ik - ig2, ig2: Some(ig2), includes_screen: false },
-        None => Current { method, ik: Some(ik), ia: ik, ig2: None, includes_screen: true },
+        Some(ig2) => Current {
+            method,
+            ik: Some(ik),
+            ia: ik - ig2,
+            ig2: Some(ig2),
+            includes_screen: false,
+        },
+        None => Current {
+            method,
+            ik: Some(ik),
+            ia: ik,
+            ig2: None,
+            includes_screen: true,
+        },
     };
-    let from_ia = |method, ia: Amps| Current { method, ik: ig2.map(|g| ia + g), ia, ig2, includes_screen: false };
+    let from_ia = |method, ia: Amps| Current {
+        method,
+        ik: ig2.map(|g| ia + g),
+        ia,
+        ig2,
+        includes_screen: false,
+    };
 
     // Plate current read directly is best: no screen current in it.
     if let Some((i, ReadMethod::Shunt)) = &reading.current {
@@ -276,8 +376,15 @@ fn find_current(
         && let Some(rk) = circuit.cathode_resistor_for(pos)
     {
         let n = rk.valves.len();
-        let method = if n > 1 { CurrentMethod::SharedCathodeResistor } else { CurrentMethod::OwnCathodeResistor };
-        return Some(from_ik(method, cathode_current_shared(vk, rk.value.value, n)));
+        let method = if n > 1 {
+            CurrentMethod::SharedCathodeResistor
+        } else {
+            CurrentMethod::OwnCathodeResistor
+        };
+        return Some(from_ik(
+            method,
+            cathode_current_shared(vk, rk.value.value, n),
+        ));
     }
     None
 }
@@ -295,18 +402,39 @@ fn dissipation_verdict(
 ) -> Verdict {
     let rating = watts_words(max);
     // Judge on the hotter of today's mains and nominal mains.
-    let (judged, at) = if pct_c > pct { (pct_c, " at nominal mains") } else { (pct, "") };
-    let what = format!("plate dissipation {:.1} W is {judged:.0} % of its {rating} rating{at}{conservative}", if at.is_empty() { pa.0 } else { pa.0 * pct_c / pct });
+    let (judged, at) = if pct_c > pct {
+        (pct_c, " at nominal mains")
+    } else {
+        (pct, "")
+    };
+    let what = format!(
+        "plate dissipation {:.1} W is {judged:.0} % of its {rating} rating{at}{conservative}",
+        if at.is_empty() {
+            pa.0
+        } else {
+            pa.0 * pct_c / pct
+        }
+    );
     if bias == BiasKind::Fixed && is_output {
         let lo = settings.fixed_bias_low * 100.0;
         let hi = settings.fixed_bias_high * 100.0;
-        let threshold = format!("fixed-bias aim {lo:.0}–{hi:.0} % of {rating}; cold below {lo:.0} %, caution above {hi:.0} %, over above 100 %");
+        let threshold = format!(
+            "fixed-bias aim {lo:.0}–{hi:.0} % of {rating}; cold below {lo:.0} %, caution above {hi:.0} %, over above 100 %"
+        );
         if judged > 100.0 {
             Verdict::new(Status::Over, what, threshold)
         } else if judged > hi {
-            Verdict::new(Status::Caution, format!("{what}, above the {hi:.0} % aim"), threshold)
+            Verdict::new(
+                Status::Caution,
+                format!("{what}, above the {hi:.0} % aim"),
+                threshold,
+            )
         } else if judged < lo {
-            Verdict::new(Status::Cold, format!("{what}, below the {lo:.0} % aim (crossover distortion risk)"), threshold)
+            Verdict::new(
+                Status::Cold,
+                format!("{what}, below the {lo:.0} % aim (crossover distortion risk)"),
+                threshold,
+            )
         } else {
             Verdict::ok(format!("{what}, inside the aim"), threshold)
         }
@@ -316,7 +444,11 @@ fn dissipation_verdict(
         if judged > 100.0 {
             Verdict::new(Status::Over, what, threshold)
         } else if judged > caution {
-            Verdict::new(Status::Caution, format!("{what}, above the {caution:.0} % guide"), threshold)
+            Verdict::new(
+                Status::Caution,
+                format!("{what}, above the {caution:.0} % guide"),
+                threshold,
+            )
         } else {
             Verdict::ok(what, threshold)
         }
@@ -336,17 +468,40 @@ fn max_verdict(what: &str, v: Volts, high: Volts, max: Volts, over: f64) -> Verd
     let pct = v / max * 100.0;
     let v_words = format_engineering(v.0, crate::units::QuantityKind::Voltage);
     if v.0 > max.0 * factor {
-        Verdict::new(Status::Over, format!("{what} {v_words} is {pct:.0} % of its {max_words} maximum"), threshold)
+        Verdict::new(
+            Status::Over,
+            format!("{what} {v_words} is {pct:.0} % of its {max_words} maximum"),
+            threshold,
+        )
     } else if v.0 > max.0 {
-        Verdict::new(Status::Caution, format!("{what} {v_words} is {pct:.0} % of its {max_words} maximum"), threshold)
+        Verdict::new(
+            Status::Caution,
+            format!("{what} {v_words} is {pct:.0} % of its {max_words} maximum"),
+            threshold,
+        )
     } else if high.0 > max.0 {
-        Verdict::new(Status::Caution, format!("{what} would reach {} at high line, above its {} maximum", format_engineering(high.0, crate::units::QuantityKind::Voltage), format_engineering(max.0, crate::units::QuantityKind::Voltage)), threshold)
+        Verdict::new(
+            Status::Caution,
+            format!(
+                "{what} would reach {} at high line, above its {} maximum",
+                format_engineering(high.0, crate::units::QuantityKind::Voltage),
+                format_engineering(max.0, crate::units::QuantityKind::Voltage)
+            ),
+            threshold,
+        )
     } else {
         Verdict::ok(format!("{what} is {pct:.0} % of its maximum"), threshold)
     }
 }
 
-fn window(ctx: &ValveContext, pos: &str, va: Volts, vk: Volts, max: Watts, c: &Current) -> TargetWindow {
+fn window(
+    ctx: &ValveContext,
+    pos: &str,
+    va: Volts,
+    vk: Volts,
+    max: Watts,
+    c: &Current,
+) -> TargetWindow {
     let lo = ctx.settings.fixed_bias_low;
     let hi = ctx.settings.fixed_bias_high;
     let ia_lo = target_current(lo, max, va, vk);
@@ -354,10 +509,18 @@ fn window(ctx: &ValveContext, pos: &str, va: Volts, vk: Volts, max: Watts, c: &C
     // A sense resistor or probe carries the cathode current: add the screen
     // current where it is known, so the window matches what the meter shows.
     let ig2 = c.ig2.unwrap_or(Amps(0.0));
-    let sense = ctx.circuit.sense_resistor_for(pos).map(|rs| ((ia_lo + ig2) * rs.value.value, (ia_hi + ig2) * rs.value.value));
+    let sense = ctx.circuit.sense_resistor_for(pos).map(|rs| {
+        (
+            (ia_lo + ig2) * rs.value.value,
+            (ia_hi + ig2) * rs.value.value,
+        )
+    });
     let drop = ctx.circuit.half_primary_for(pos).map(|h| {
         let n = h.valves.len().max(1) as f64;
-        (ia_lo * h.resistance.value * n, ia_hi * h.resistance.value * n)
+        (
+            ia_lo * h.resistance.value * n,
+            ia_hi * h.resistance.value * n,
+        )
     });
     TargetWindow {
         low_pct: lo * 100.0,
@@ -389,35 +552,63 @@ mod tests {
     #[test]
     fn ohms_law_for_a_shared_cathode_resistor() {
         // Ohm's law, Ik = Vk / (n·Rk): 11.6 V across 130 Ω shared by two → 44.615 mA each.
-        assert!(close(cathode_current_shared(Volts(11.6), Ohms(130.0), 2).0, 0.044615, 1e-6));
+        assert!(close(
+            cathode_current_shared(Volts(11.6), Ohms(130.0), 2).0,
+            0.044615,
+            1e-6
+        ));
         // Own resistor (n = 1): 12 V across 240 Ω → 50 mA (Ohm's law).
-        assert!(close(cathode_current_shared(Volts(12.0), Ohms(240.0), 1).0, 0.050, 1e-12));
+        assert!(close(
+            cathode_current_shared(Volts(12.0), Ohms(240.0), 1).0,
+            0.050,
+            1e-12
+        ));
     }
 
     #[test]
     fn transformer_resistance_method() {
         // Ohm's law, Ia = Vdrop / Rhalf: 3.5 V across 38 Ω feeding two valves → 46.05 mA each.
-        assert!(close(plate_current_from_drop(Volts(3.5), Ohms(38.0), 2).0, 0.046053, 1e-6));
+        assert!(close(
+            plate_current_from_drop(Volts(3.5), Ohms(38.0), 2).0,
+            0.046053,
+            1e-6
+        ));
     }
 
     #[test]
     fn screen_current_from_its_resistor() {
         // Ohm's law, Ig2 = (Vsupply − Vg2) / Rg2: (305 − 303.8) V / 470 Ω = 2.553 mA.
-        assert!(close(screen_current(Volts(305.0), Volts(303.8), Ohms(470.0)).0, 0.0025532, 1e-7));
+        assert!(close(
+            screen_current(Volts(305.0), Volts(303.8), Ohms(470.0)).0,
+            0.0025532,
+            1e-7
+        ));
     }
 
     #[test]
     fn joules_law_for_the_plate() {
         // Joule's law, Pa = (Va − Vk)·Ia: (338 − 11.6) V × 44.615 mA = 14.562 W.
-        assert!(close(plate_dissipation(Volts(338.0), Volts(11.6), Amps(0.044615)).0, 14.5624, 1e-3));
+        assert!(close(
+            plate_dissipation(Volts(338.0), Volts(11.6), Amps(0.044615)).0,
+            14.5624,
+            1e-3
+        ));
     }
 
     #[test]
     fn fixed_bias_target_current() {
         // Ia = f·Pa(max)/(Va − Vk) (domain notes, common practice bands 50–70 %):
         // 0.5 × 12 W / 314 V = 19.11 mA; 0.7 × 12 W / 314 V = 26.75 mA.
-        assert!(close(target_current(0.5, Watts(12.0), Volts(314.0), Volts(0.0)).0, 0.019108, 1e-6));
-        assert!(close(target_current(0.7, Watts(12.0), Volts(314.0), Volts(0.0)).0, 0.026752, 1e-6));
+        assert!(close(
+            target_current(0.5, Watts(12.0), Volts(314.0), Volts(0.0)).0,
+            0.019108,
+            1e-6
+        ));
+        assert!(close(
+            target_current(0.7, Watts(12.0), Volts(314.0), Volts(0.0)).0,
+            0.026752,
+            1e-6
+        ));
     }
 
     /// Derives a one-set job at nominal mains (120 V, +5 %) with `valves`,
@@ -427,7 +618,12 @@ mod tests {
     }
 
     /// As [`derive_one`], with the set measured at `mains`.
-    fn derive_at(mains: &str, valves: &str, circuit: &str, readings: &str) -> (ValveFindings, Vec<String>) {
+    fn derive_at(
+        mains: &str,
+        valves: &str,
+        circuit: &str,
+        readings: &str,
+    ) -> (ValveFindings, Vec<String>) {
         let text = format!(
             "job-format 1\njob id=\"T\"\nunit make=\"M\" model=\"N\"\nmains nominal=\"120V\" tolerance=\"5%\"\n\
              valves {{\n{valves}\n}}\ncircuit {{\n{circuit}\n}}\nmeasurements \"x\" mains=\"{mains}\" {{\n{readings}\n}}\n"
@@ -446,7 +642,11 @@ mod tests {
 
     #[test]
     fn bias_probe_reads_cathode_current() {
-        let (v, _) = derive_one(PAIR_6L6, "bias fixed", "valve V3 plate=\"420V\" current=\"40mA\" method=probe");
+        let (v, _) = derive_one(
+            PAIR_6L6,
+            "bias fixed",
+            "valve V3 plate=\"420V\" current=\"40mA\" method=probe",
+        );
         assert_eq!(v.method, Some(CurrentMethod::Probe));
         // A probe reads Ik; no screen figure, so Ia = Ik, conservative (domain notes): 40 mA.
         assert_eq!(v.cathode_current_ma, Some(40.0));
@@ -464,7 +664,11 @@ mod tests {
 
     #[test]
     fn shunt_reads_plate_current() {
-        let (v, _) = derive_one(PAIR_6L6, "bias fixed", "valve V3 plate=\"420V\" current=\"38mA\" method=shunt");
+        let (v, _) = derive_one(
+            PAIR_6L6,
+            "bias fixed",
+            "valve V3 plate=\"420V\" current=\"38mA\" method=shunt",
+        );
         assert_eq!(v.method, Some(CurrentMethod::Shunt));
         // The shunt carries the plate current only: Ia = 38 mA (domain notes).
         assert_eq!(v.plate_current_ma, Some(38.0));
@@ -475,7 +679,11 @@ mod tests {
 
     #[test]
     fn fixed_bias_below_the_aim_is_cold() {
-        let (v, _) = derive_one(PAIR_6L6, "bias fixed", "valve V3 plate=\"420V\" current=\"25mA\" method=shunt");
+        let (v, _) = derive_one(
+            PAIR_6L6,
+            "bias fixed",
+            "valve V3 plate=\"420V\" current=\"25mA\" method=shunt",
+        );
         // 420 V × 25 mA = 10.5 W = 35 % of 30 W: below the 50 % aim, common practice ("cold", crossover risk).
         assert!(close(v.plate_dissipation_pct.unwrap(), 35.0, 1e-9));
         assert_eq!(v.status, Status::Cold);
@@ -486,14 +694,38 @@ mod tests {
     fn cold_is_judged_on_the_figure_the_reason_gives() {
         // Read at 112 V on a 120 V supply: 420 V × 34.2857 mA = 14.4 W = 48 % of 30 W (6L6GC, from memory),
         // but referred to nominal mains (common practice, P·(Vn/Vm)²) 48 % × (120/112)² = 55.1 %: inside the 50–70 % aim.
-        let (v, _) = derive_at("112V", PAIR_6L6, "bias fixed", "valve V3 plate=\"420V\" current=\"34.2857mA\" method=shunt");
+        let (v, _) = derive_at(
+            "112V",
+            PAIR_6L6,
+            "bias fixed",
+            "valve V3 plate=\"420V\" current=\"34.2857mA\" method=shunt",
+        );
         assert!(close(v.plate_dissipation_pct.unwrap(), 48.0, 1e-3));
-        assert!(close(v.corrected_plate_dissipation_pct.unwrap(), 55.102, 1e-3));
-        let d = v.checks.iter().find(|c| c.check == "plate_dissipation").unwrap();
+        assert!(close(
+            v.corrected_plate_dissipation_pct.unwrap(),
+            55.102,
+            1e-3
+        ));
+        let d = v
+            .checks
+            .iter()
+            .find(|c| c.check == "plate_dissipation")
+            .unwrap();
         assert_eq!(d.verdict.status, Status::Ok, "{}", d.verdict.reason);
-        assert!(d.verdict.reason.contains("55 % of its 30 W rating at nominal mains, inside the aim"), "{}", d.verdict.reason);
+        assert!(
+            d.verdict
+                .reason
+                .contains("55 % of its 30 W rating at nominal mains, inside the aim"),
+            "{}",
+            d.verdict.reason
+        );
         // Cold at both mains: 40 % read, 40 % × (120/112)² = 45.9 % at nominal.
-        let (v, _) = derive_at("112V", PAIR_6L6, "bias fixed", "valve V3 plate=\"420V\" current=\"28.5714mA\" method=shunt");
+        let (v, _) = derive_at(
+            "112V",
+            PAIR_6L6,
+            "bias fixed",
+            "valve V3 plate=\"420V\" current=\"28.5714mA\" method=shunt",
+        );
         assert_eq!(v.status, Status::Cold);
     }
 
@@ -514,9 +746,16 @@ mod tests {
         // Pg2 = (Vg2 − Vk)·Ig2 (textbook): (296 − 10.8) V × 4 mA = 1.1408 W = 57.04 % of 2 W (EL84, from memory).
         assert!(close(v.screen_dissipation_w.unwrap(), 1.1408, 1e-9));
         assert!(close(v.screen_dissipation_pct.unwrap(), 57.04, 1e-9));
-        let screen = v.checks.iter().find(|c| c.check == "screen_dissipation").unwrap();
+        let screen = v
+            .checks
+            .iter()
+            .find(|c| c.check == "screen_dissipation")
+            .unwrap();
         assert_eq!(screen.verdict.status, Status::Ok);
-        assert_eq!(screen.verdict.threshold, "over above 100 % of 2 W; caution when the high-line projection is above it");
+        assert_eq!(
+            screen.verdict.threshold,
+            "over above 100 % of 2 W; caution when the high-line projection is above it"
+        );
         // Cathode bias, common practice: caution above 90 %.
         assert_eq!(v.status, Status::Caution);
         assert!(v.target_window.is_none());
@@ -528,14 +767,28 @@ mod tests {
     fn an_output_valve_without_a_current_reading_is_noted() {
         let (v, warnings) = derive_one(PAIR_6L6, "bias fixed", "valve V3 plate=\"420V\"");
         assert_eq!(v.plate_dissipation_w, None);
-        assert!(warnings.iter().any(|w| w.contains("no reading gives the idle current")), "{warnings:?}");
+        assert!(
+            warnings
+                .iter()
+                .any(|w| w.contains("no reading gives the idle current")),
+            "{warnings:?}"
+        );
     }
 
     #[test]
     fn voltage_maxima() {
         // Va(max) 300 V (EL84, from memory). Common practice in this tool: caution above the maximum or
         // when the high-line projection passes it, over above 120 % of it.
-        let s = |v: f64, high: f64| max_verdict("plate voltage", Volts(v), Volts(high), Volts(300.0), Settings::default().voltage_over).status;
+        let s = |v: f64, high: f64| {
+            max_verdict(
+                "plate voltage",
+                Volts(v),
+                Volts(high),
+                Volts(300.0),
+                Settings::default().voltage_over,
+            )
+            .status
+        };
         assert_eq!(s(290.0, 299.0), Status::Ok);
         assert_eq!(s(290.0, 304.5), Status::Caution); // 290 V × 1.05 = 304.5 V at high line
         assert_eq!(s(301.0, 301.0), Status::Caution);
@@ -546,7 +799,9 @@ mod tests {
     #[test]
     fn bands_for_fixed_and_cathode_bias() {
         let s = Settings::default();
-        let v = |bias, pct: f64| dissipation_verdict(&s, bias, true, pct, pct, Watts(pct / 10.0), Watts(10.0), "").status;
+        let v = |bias, pct: f64| {
+            dissipation_verdict(&s, bias, true, pct, pct, Watts(pct / 10.0), Watts(10.0), "").status
+        };
         // Common practice: fixed bias aim 50–70 %, cold below 50 %, caution above 70 %, over above 100 %.
         assert_eq!(v(BiasKind::Fixed, 45.0), Status::Cold);
         assert_eq!(v(BiasKind::Fixed, 60.0), Status::Ok);

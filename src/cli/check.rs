@@ -14,10 +14,19 @@ pub fn run(args: &CheckArgs) -> Exit {
         Err(e) => return e,
     };
     let findings = calc::derive(&loaded.decoded.job, &loaded.ratings);
-    let style = TerminalStyle { colour: colour_wanted() };
-    print!("{}", terminal::render(&loaded.decoded.job, &findings, &style));
+    let style = TerminalStyle {
+        colour: colour_wanted(),
+    };
+    print!(
+        "{}",
+        terminal::render(&loaded.decoded.job, &findings, &style)
+    );
     let over = findings.warnings.iter().any(|w| w.status == Status::Over);
-    if args.strict && over { Exit::StrictFindings } else { Exit::Success }
+    if args.strict && over {
+        Exit::StrictFindings
+    } else {
+        Exit::Success
+    }
 }
 
 /// Colour only on a terminal, and never when NO_COLOR is set.

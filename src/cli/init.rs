@@ -12,7 +12,10 @@ pub const SKELETON: &str = include_str!("../../templates/job-skeleton.kdl");
 pub fn run(args: &InitArgs) -> Exit {
     let path = &args.path;
     if path.exists() {
-        eprintln!("error: {} already exists; ampreport init never replaces a file", path.display());
+        eprintln!(
+            "error: {} already exists; ampreport init never replaces a file",
+            path.display()
+        );
         return Exit::InvalidInput;
     }
     let dir = match path.parent() {
@@ -27,11 +30,18 @@ pub fn run(args: &InitArgs) -> Exit {
     });
     match result {
         Ok(()) => {
-            println!("wrote {}; fill it in, then run `ampreport check {}`", path.display(), path.display());
+            println!(
+                "wrote {}; fill it in, then run `ampreport check {}`",
+                path.display(),
+                path.display()
+            );
             Exit::Success
         }
         Err(e) if e.kind() == std::io::ErrorKind::AlreadyExists => {
-            eprintln!("error: {} already exists; ampreport init never replaces a file", path.display());
+            eprintln!(
+                "error: {} already exists; ampreport init never replaces a file",
+                path.display()
+            );
             Exit::InvalidInput
         }
         Err(e) => {

@@ -44,7 +44,11 @@ pub fn job(args: &JobArgs) -> Result<Loaded, Exit> {
     if !decoded.diagnostics.problems.is_empty() {
         eprintln!("{:?}", miette::Report::new(decoded.diagnostics.clone()));
     }
-    Ok(Loaded { decoded, text, ratings })
+    Ok(Loaded {
+        decoded,
+        text,
+        ratings,
+    })
 }
 
 pub fn read_text(path: &Path) -> Result<String, Exit> {
@@ -52,7 +56,11 @@ pub fn read_text(path: &Path) -> Result<String, Exit> {
         Ok(bytes) => match String::from_utf8(bytes) {
             Ok(s) => Ok(s),
             Err(e) => {
-                eprintln!("error: {} is not UTF-8 text (first bad byte at offset {})", path.display(), e.utf8_error().valid_up_to());
+                eprintln!(
+                    "error: {} is not UTF-8 text (first bad byte at offset {})",
+                    path.display(),
+                    e.utf8_error().valid_up_to()
+                );
                 Err(Exit::InvalidInput)
             }
         },

@@ -23,7 +23,11 @@ pub fn main() -> ExitCode {
         Ok(cli) => cli,
         Err(e) => {
             let _ = e.print();
-            return if e.use_stderr() { Exit::Usage.into() } else { Exit::Success.into() };
+            return if e.use_stderr() {
+                Exit::Usage.into()
+            } else {
+                Exit::Success.into()
+            };
         }
     };
     install_diagnostic_style();
@@ -40,7 +44,8 @@ pub fn main() -> ExitCode {
 /// Diagnostics in colour only on a terminal without NO_COLOR; plain
 /// Unicode otherwise, always with file:line:column.
 fn install_diagnostic_style() {
-    let colour = std::io::stderr().is_terminal() && std::env::var_os("NO_COLOR").is_none_or(|v| v.is_empty());
+    let colour = std::io::stderr().is_terminal()
+        && std::env::var_os("NO_COLOR").is_none_or(|v| v.is_empty());
     let _ = miette::set_hook(Box::new(move |_| {
         Box::new(
             miette::MietteHandlerOpts::new()

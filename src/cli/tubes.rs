@@ -8,7 +8,8 @@ use crate::report::{Align, TextTable};
 use crate::units::{QuantityKind as Q, format_engineering};
 
 fn q(v: Option<f64>, kind: Q) -> String {
-    v.map(|v| format_engineering(v, kind)).unwrap_or_else(|| "–".into())
+    v.map(|v| format_engineering(v, kind))
+        .unwrap_or_else(|| "–".into())
 }
 
 pub fn run(args: &TubesArgs) -> Exit {
@@ -47,8 +48,15 @@ pub fn run(args: &TubesArgs) -> Exit {
                     q(r.plate_dissipation.map(|w| w.0), Q::Power),
                     q(r.screen_dissipation.map(|w| w.0), Q::Power),
                     q(r.plate_voltage.map(|v| v.0), Q::Voltage),
-                    q(r.cathode_current.or(r.output_current).map(|a| a.0), Q::Current),
-                    format!("{} {}", format_engineering(r.heater_voltage.0, Q::Voltage), format_engineering(r.heater_current.0, Q::Current)),
+                    q(
+                        r.cathode_current.or(r.output_current).map(|a| a.0),
+                        Q::Current,
+                    ),
+                    format!(
+                        "{} {}",
+                        format_engineering(r.heater_voltage.0, Q::Voltage),
+                        format_engineering(r.heater_current.0, Q::Current)
+                    ),
                     origin(r),
                 ]);
             }
@@ -76,16 +84,47 @@ fn detail(r: &Rating) -> String {
         row("equivalents", r.equivalents.join(", "));
     }
     if r.sections > 1 {
-        row("sections", format!("{} (plate figures are per section)", r.sections));
+        row(
+            "sections",
+            format!("{} (plate figures are per section)", r.sections),
+        );
     }
     let fields: [(&str, Option<f64>, Q); 7] = [
-        ("plate dissipation max", r.plate_dissipation.map(|w| w.0), Q::Power),
-        ("design-max plate dissipation", r.design_max_plate_dissipation.map(|w| w.0), Q::Power),
-        ("screen dissipation max", r.screen_dissipation.map(|w| w.0), Q::Power),
-        ("plate voltage max", r.plate_voltage.map(|v| v.0), Q::Voltage),
-        ("screen voltage max", r.screen_voltage.map(|v| v.0), Q::Voltage),
-        ("cathode current max", r.cathode_current.map(|a| a.0), Q::Current),
-        ("rectifier output current max", r.output_current.map(|a| a.0), Q::Current),
+        (
+            "plate dissipation max",
+            r.plate_dissipation.map(|w| w.0),
+            Q::Power,
+        ),
+        (
+            "design-max plate dissipation",
+            r.design_max_plate_dissipation.map(|w| w.0),
+            Q::Power,
+        ),
+        (
+            "screen dissipation max",
+            r.screen_dissipation.map(|w| w.0),
+            Q::Power,
+        ),
+        (
+            "plate voltage max",
+            r.plate_voltage.map(|v| v.0),
+            Q::Voltage,
+        ),
+        (
+            "screen voltage max",
+            r.screen_voltage.map(|v| v.0),
+            Q::Voltage,
+        ),
+        (
+            "cathode current max",
+            r.cathode_current.map(|a| a.0),
+            Q::Current,
+        ),
+        (
+            "rectifier output current max",
+            r.output_current.map(|a| a.0),
+            Q::Current,
+        ),
     ];
     for (label, v, kind) in fields {
         if let Some(v) = v {
@@ -95,15 +134,32 @@ fn detail(r: &Rating) -> String {
     if let Some(h) = r.rectifier_heating {
         row("rectifier heating", format!("{h:?}").to_lowercase());
     }
-    row("heater", format!("{} at {}", format_engineering(r.heater_voltage.0, Q::Voltage), format_engineering(r.heater_current.0, Q::Current)));
+    row(
+        "heater",
+        format!(
+            "{} at {}",
+            format_engineering(r.heater_voltage.0, Q::Voltage),
+            format_engineering(r.heater_current.0, Q::Current)
+        ),
+    );
     if let Some(h) = &r.heater_parallel {
-        row("heater (halves in parallel)", format!("{} at {}", format_engineering(h.voltage.0, Q::Voltage), format_engineering(h.current.0, Q::Current)));
+        row(
+            "heater (halves in parallel)",
+            format!(
+                "{} at {}",
+                format_engineering(h.voltage.0, Q::Voltage),
+                format_engineering(h.current.0, Q::Current)
+            ),
+        );
     }
     if let Some(mu) = r.mu {
         row("amplification factor μ", format!("{mu} (typical)"));
     }
     if let Some(ra) = r.plate_resistance {
-        row("plate resistance ra", format!("{} (typical)", format_engineering(ra.0, Q::Resistance)));
+        row(
+            "plate resistance ra",
+            format!("{} (typical)", format_engineering(ra.0, Q::Resistance)),
+        );
     }
     if let Some(gm) = r.transconductance_ma_per_v {
         row("transconductance gm", format!("{gm} mA/V (typical)"));

@@ -69,13 +69,15 @@ pub(crate) fn decode_document(doc: &KdlDocument, source_name: &str, r: &mut Read
     for (i, node) in nodes.iter().enumerate() {
         let name = node.name().value();
         if name != REPEATABLE && nodes[..i].iter().any(|n| n.name().value() == name) {
-            r.push(DecodeError::error(
-                "job::repeated-node",
-                Reader::name_span(node),
-                format!("`{name}` is given more than once"),
-                "repeated here",
-            )
-            .with_help(format!("a job file has one `{name}` node; merge them")));
+            r.push(
+                DecodeError::error(
+                    "job::repeated-node",
+                    Reader::name_span(node),
+                    format!("`{name}` is given more than once"),
+                    "repeated here",
+                )
+                .with_help(format!("a job file has one `{name}` node; merge them")),
+            );
         }
     }
     let first = |name: &str| nodes.iter().copied().find(|n| n.name().value() == name);
@@ -88,7 +90,11 @@ pub(crate) fn decode_document(doc: &KdlDocument, source_name: &str, r: &mut Read
             r.check_entries(node, &[], 1);
             r.no_children(node);
             if let Some(entry) = Reader::arg(node, 0) {
-                if let Some(v) = r.integer(entry, "the job-file format version", 1..=i64::from(u32::MAX)) {
+                if let Some(v) = r.integer(
+                    entry,
+                    "the job-file format version",
+                    1..=i64::from(u32::MAX),
+                ) {
                     format_version = v as u32;
                     if format_version > FORMAT_VERSION {
                         r.push(DecodeError::error(
@@ -101,21 +107,40 @@ pub(crate) fn decode_document(doc: &KdlDocument, source_name: &str, r: &mut Read
                     }
                 }
             } else {
-                r.push(DecodeError::error("job::missing", Reader::name_span(node), "`job-format` needs the version number", "version missing")
-                    .with_help("write `job-format 1`"));
+                r.push(
+                    DecodeError::error(
+                        "job::missing",
+                        Reader::name_span(node),
+                        "`job-format` needs the version number",
+                        "version missing",
+                    )
+                    .with_help("write `job-format 1`"),
+                );
             }
         }
         None => r.push(
-            DecodeError::error("job::missing-format", file_start, "the job file does not say which format it uses", "start of file")
-                .with_help("begin the file with `job-format 1`"),
+            DecodeError::error(
+                "job::missing-format",
+                file_start,
+                "the job file does not say which format it uses",
+                "start of file",
+            )
+            .with_help("begin the file with `job-format 1`"),
         ),
     }
 
     let info = match first("job") {
         Some(node) => decode_info(node, r),
         None => {
-            r.push(DecodeError::error("job::missing-node", file_start, "the job file has no `job` node", "start of file")
-                .with_help("add: job id=\"2026-001\" received=\"2026-11-02\" technician=\"…\""));
+            r.push(
+                DecodeError::error(
+                    "job::missing-node",
+                    file_start,
+                    "the job file has no `job` node",
+                    "start of file",
+                )
+                .with_help("add: job id=\"2026-001\" received=\"2026-11-02\" technician=\"…\""),
+            );
             None
         }
     };
@@ -123,24 +148,42 @@ pub(crate) fn decode_document(doc: &KdlDocument, source_name: &str, r: &mut Read
     let unit = match first("unit") {
         Some(node) => decode_unit(node, r),
         None => {
-            r.push(DecodeError::error("job::missing-node", file_start, "the job file has no `unit` node", "start of file")
-                .with_help("add: unit make=\"…\" model=\"…\" serial=\"…\""));
+            r.push(
+                DecodeError::error(
+                    "job::missing-node",
+                    file_start,
+                    "the job file has no `unit` node",
+                    "start of file",
+                )
+                .with_help("add: unit make=\"…\" model=\"…\" serial=\"…\""),
+            );
             None
         }
     };
     let mains = match first("mains") {
         Some(node) => decode_mains(node, r),
         None => {
-            r.push(DecodeError::error("job::missing-node", file_start, "the job file has no `mains` node", "start of file")
-                .with_help("add: mains nominal=\"120V\" frequency=\"60Hz\""));
+            r.push(
+                DecodeError::error(
+                    "job::missing-node",
+                    file_start,
+                    "the job file has no `mains` node",
+                    "start of file",
+                )
+                .with_help("add: mains nominal=\"120V\" frequency=\"60Hz\""),
+            );
             None
         }
     };
     let complaint = first("complaint").and_then(|n| text_node(n, r));
     let findings = first("findings").and_then(|n| text_node(n, r));
     let work = first("work").and_then(|n| text_node(n, r));
-    let valves = first("valves").map(|n| decode_valves(n, r)).unwrap_or_default();
-    let circuit = first("circuit").map(|n| decode_circuit(n, r)).unwrap_or_default();
+    let valves = first("valves")
+        .map(|n| decode_valves(n, r))
+        .unwrap_or_default();
+    let circuit = first("circuit")
+        .map(|n| decode_circuit(n, r))
+        .unwrap_or_default();
     let mut measurements = Vec::new();
     // Labels seen so far, so a job with many sets is checked in linear time.
     let mut labels = std::collections::HashSet::new();
@@ -157,11 +200,17 @@ pub(crate) fn decode_document(doc: &KdlDocument, source_name: &str, r: &mut Read
             measurements.push(set);
         }
     }
-    let parts = first("parts").map(|n| decode_parts(n, r)).unwrap_or_default();
+    let parts = first("parts")
+        .map(|n| decode_parts(n, r))
+        .unwrap_or_default();
     let mods = first("mods").map(|n| decode_mods(n, r)).unwrap_or_default();
     let safety = first("safety").and_then(|n| decode_safety(n, r));
-    let notes = first("notes").map(|n| decode_notes(n, r)).unwrap_or_default();
-    let settings = first("settings").map(|n| decode_settings(n, r)).unwrap_or_default();
+    let notes = first("notes")
+        .map(|n| decode_notes(n, r))
+        .unwrap_or_default();
+    let settings = first("settings")
+        .map(|n| decode_settings(n, r))
+        .unwrap_or_default();
 
     let job = Job {
         source_name: source_name.to_string(),
@@ -189,7 +238,8 @@ fn text_node(node: &KdlNode, r: &mut Reader) -> Option<String> {
     r.check_entries(node, &[], 1);
     r.no_children(node);
     let what = format!("`{}`", node.name().value());
-    r.req_arg_string(node, &what, &format!("{} \"…\"", node.name().value())).map(|s| s.value)
+    r.req_arg_string(node, &what, &format!("{} \"…\"", node.name().value()))
+        .map(|s| s.value)
 }
 
 fn decode_info(node: &KdlNode, r: &mut Reader) -> Option<JobInfo> {
@@ -205,7 +255,10 @@ fn decode_info(node: &KdlNode, r: &mut Reader) -> Option<JobInfo> {
         r.push(DecodeError::error(
             "job::dates-out-of-order",
             done.span,
-            format!("the job is completed ({}) before it was received ({})", done.value, rec.value),
+            format!(
+                "the job is completed ({}) before it was received ({})",
+                done.value, rec.value
+            ),
             "completed before received",
         ));
     }
@@ -226,7 +279,10 @@ fn decode_customer(node: &KdlNode, r: &mut Reader) -> Option<Customer> {
             contacts.push(c);
         }
     }
-    Some(Customer { name: name?.value, contacts })
+    Some(Customer {
+        name: name?.value,
+        contacts,
+    })
 }
 
 fn decode_unit(node: &KdlNode, r: &mut Reader) -> Option<Unit> {
@@ -234,17 +290,35 @@ fn decode_unit(node: &KdlNode, r: &mut Reader) -> Option<Unit> {
     let make = r.req_prop_string(node, "make", "unit make=\"…\" model=\"…\"");
     let model = r.req_prop_string(node, "model", "unit make=\"…\" model=\"…\"");
     let serial = r.opt_prop_string(node, "serial");
-    let year = Reader::prop(node, "year").and_then(|e| r.integer(e, "`year`", 1900..=2100)).map(|y| y as i32);
+    let year = Reader::prop(node, "year")
+        .and_then(|e| r.integer(e, "`year`", 1900..=2100))
+        .map(|y| y as i32);
     let mut description = None;
     let mut condition = None;
     for child in r.children(node.children(), &["description", "condition"], "`unit`") {
-        let slot = if child.name().value() == "description" { &mut description } else { &mut condition };
+        let slot = if child.name().value() == "description" {
+            &mut description
+        } else {
+            &mut condition
+        };
         if slot.is_some() {
-            r.push(DecodeError::error("job::repeated-node", Reader::name_span(child), format!("`{}` is given twice", child.name().value()), "repeated here"));
+            r.push(DecodeError::error(
+                "job::repeated-node",
+                Reader::name_span(child),
+                format!("`{}` is given twice", child.name().value()),
+                "repeated here",
+            ));
         }
         *slot = text_node(child, r);
     }
-    Some(Unit { make: make?.value, model: model?.value, serial, year, description, condition })
+    Some(Unit {
+        make: make?.value,
+        model: model?.value,
+        serial,
+        year,
+        description,
+        condition,
+    })
 }
 
 fn decode_mains(node: &KdlNode, r: &mut Reader) -> Option<Mains> {
@@ -261,14 +335,23 @@ fn decode_mains(node: &KdlNode, r: &mut Reader) -> Option<Mains> {
             let t = r.quantity(e, Q::Percent, "`tolerance`");
             let t = r.positive(t, "the supply tolerance", true)?;
             if t.value > 30.0 {
-                r.push(DecodeError::warning("job::implausible", t.span, format!("a supply tolerance of {}% is unusually wide", t.value), "unusual"));
+                r.push(DecodeError::warning(
+                    "job::implausible",
+                    t.span,
+                    format!("a supply tolerance of {}% is unusually wide", t.value),
+                    "unusual",
+                ));
             }
             Spanned::new(t.value / 100.0, t.span)
         }
         None => {
             // Defaults from the supply standards for the nominal given.
             let n = nominal.as_ref().map(|n| n.value).unwrap_or(0.0);
-            let t = if (100.0..=130.0).contains(&n) { 0.05 } else { 0.10 };
+            let t = if (100.0..=130.0).contains(&n) {
+                0.05
+            } else {
+                0.10
+            };
             Spanned::new(t, Reader::name_span(node))
         }
     };
@@ -304,23 +387,42 @@ fn decode_valves(node: &KdlNode, r: &mut Reader) -> Vec<ValvePosition> {
                 Some(name) => match Role::from_name(&name.value) {
                     Some(role) => Some(role),
                     None => {
-                        r.push(DecodeError::error("job::unknown-role", name.span, format!("unknown valve role `{}`", name.value), "expected a role")
-                            .with_help(suggestion_help(&name.value, &Role::NAMES)));
+                        r.push(
+                            DecodeError::error(
+                                "job::unknown-role",
+                                name.span,
+                                format!("unknown valve role `{}`", name.value),
+                                "expected a role",
+                            )
+                            .with_help(suggestion_help(&name.value, &Role::NAMES)),
+                        );
                         None
                     }
                 },
                 None => None,
             },
             None => {
-                r.push(DecodeError::error("job::missing", Reader::name_span(child), "`valve` needs a `role` property", "role missing")
-                    .with_help(format!("one of: {}", Role::NAMES.join(", "))));
+                r.push(
+                    DecodeError::error(
+                        "job::missing",
+                        Reader::name_span(child),
+                        "`valve` needs a `role` property",
+                        "role missing",
+                    )
+                    .with_help(format!("one of: {}", Role::NAMES.join(", "))),
+                );
                 None
             }
         };
         if let Some(p) = &position
             && out.iter().any(|v| v.position.value == p.value)
         {
-            r.push(DecodeError::error("job::repeated-position", p.span, format!("valve position {} is listed twice", p.value), "repeated here"));
+            r.push(DecodeError::error(
+                "job::repeated-position",
+                p.span,
+                format!("valve position {} is listed twice", p.value),
+                "repeated here",
+            ));
             continue;
         }
         // A position with a broken type or role is still listed (the error
@@ -328,7 +430,11 @@ fn decode_valves(node: &KdlNode, r: &mut Reader) -> Vec<ValvePosition> {
         // into "no such position" errors.
         if let Some(position) = position {
             let type_name = type_name.unwrap_or_else(|| Spanned::new(String::new(), position.span));
-            out.push(ValvePosition { position, type_name, role: role.unwrap_or(Role::Other) });
+            out.push(ValvePosition {
+                position,
+                type_name,
+                role: role.unwrap_or(Role::Other),
+            });
         }
     }
     out
@@ -347,13 +453,25 @@ fn decode_circuit(node: &KdlNode, r: &mut Reader) -> Circuit {
                         "cathode" => Some(BiasKind::Cathode),
                         "fixed" => Some(BiasKind::Fixed),
                         other => {
-                            r.push(DecodeError::error("job::unknown-bias", kind.span, format!("unknown bias kind `{other}`"), "expected cathode or fixed")
-                                .with_help(suggestion_help(other, &["cathode", "fixed"])));
+                            r.push(
+                                DecodeError::error(
+                                    "job::unknown-bias",
+                                    kind.span,
+                                    format!("unknown bias kind `{other}`"),
+                                    "expected cathode or fixed",
+                                )
+                                .with_help(suggestion_help(other, &["cathode", "fixed"])),
+                            );
                             None
                         }
                     };
                     if c.bias.is_some() {
-                        r.push(DecodeError::error("job::repeated-node", Reader::name_span(child), "`bias` is given twice", "repeated here"));
+                        r.push(DecodeError::error(
+                            "job::repeated-node",
+                            Reader::name_span(child),
+                            "`bias` is given twice",
+                            "repeated here",
+                        ));
                     }
                     if let Some(v) = value {
                         c.bias = Some(Spanned::new(v, kind.span));
@@ -362,7 +480,11 @@ fn decode_circuit(node: &KdlNode, r: &mut Reader) -> Circuit {
             }
             "cathode-resistor" => {
                 r.check_entries(child, &["value", "rating", "valves"], 1);
-                let reference = r.req_arg_name(child, "a reference", "cathode-resistor R20 value=\"130\" rating=\"5W\" valves=\"V3 V4\"");
+                let reference = r.req_arg_name(
+                    child,
+                    "a reference",
+                    "cathode-resistor R20 value=\"130\" rating=\"5W\" valves=\"V3 V4\"",
+                );
                 let value = ohms(r, child, "value", "cathode-resistor R20 value=\"130\"");
                 let rating = watts(r, child, "rating");
                 let valves = match r.req_prop_string(child, "valves", "valves=\"V3 V4\"") {
@@ -370,22 +492,45 @@ fn decode_circuit(node: &KdlNode, r: &mut Reader) -> Circuit {
                     None => Vec::new(),
                 };
                 if let (Some(reference), Some(value)) = (reference, value) {
-                    c.cathode_resistors.push(CathodeResistor { reference: reference.value, value, rating, valves, span: child.span() });
+                    c.cathode_resistors.push(CathodeResistor {
+                        reference: reference.value,
+                        value,
+                        rating,
+                        valves,
+                        span: child.span(),
+                    });
                 }
             }
             "sense-resistor" => {
                 r.check_entries(child, &["value", "valve"], 1);
                 let reference = Reader::arg(child, 0).and_then(|e| r.name(e, "the reference"));
-                let value = ohms(r, child, "value", "sense-resistor R30 value=\"1R\" valve=V3");
-                let valve = r.req_prop_name(child, "valve", "sense-resistor R30 value=\"1R\" valve=V3");
+                let value = ohms(
+                    r,
+                    child,
+                    "value",
+                    "sense-resistor R30 value=\"1R\" valve=V3",
+                );
+                let valve =
+                    r.req_prop_name(child, "valve", "sense-resistor R30 value=\"1R\" valve=V3");
                 if let Some(v) = &value
                     && v.value.0 > 100.0
                 {
-                    r.push(DecodeError::warning("job::implausible", v.span, format!("a {} sense resistor is unusually large", v.value), "unusual")
-                        .with_help("sense resistors are usually 1 Ω or 10 Ω"));
+                    r.push(
+                        DecodeError::warning(
+                            "job::implausible",
+                            v.span,
+                            format!("a {} sense resistor is unusually large", v.value),
+                            "unusual",
+                        )
+                        .with_help("sense resistors are usually 1 Ω or 10 Ω"),
+                    );
                 }
                 if let (Some(value), Some(valve)) = (value, valve) {
-                    c.sense_resistors.push(SenseResistor { reference: reference.map(|r| r.value), value, valve });
+                    c.sense_resistors.push(SenseResistor {
+                        reference: reference.map(|r| r.value),
+                        value,
+                        valve,
+                    });
                 }
             }
             "screen-resistor" => {
@@ -397,7 +542,13 @@ fn decode_circuit(node: &KdlNode, r: &mut Reader) -> Circuit {
                 let valve = r.req_prop_name(child, "valve", example);
                 let supply = r.req_prop_name(child, "supply", example);
                 if let (Some(value), Some(valve), Some(supply)) = (value, valve, supply) {
-                    c.screen_resistors.push(ScreenResistor { reference: reference.map(|r| r.value), value, rating, valve, supply });
+                    c.screen_resistors.push(ScreenResistor {
+                        reference: reference.map(|r| r.value),
+                        value,
+                        rating,
+                        valve,
+                        supply,
+                    });
                 }
             }
             "half-primary" => {
@@ -422,9 +573,19 @@ fn decode_circuit(node: &KdlNode, r: &mut Reader) -> Circuit {
                 let label = r.opt_prop_string(child, "label");
                 if let Some(name) = name {
                     if c.nodes.iter().any(|n| n.name.value == name.value) {
-                        r.push(DecodeError::error("job::repeated-node", name.span, format!("node {} is declared twice", name.value), "repeated here"));
+                        r.push(DecodeError::error(
+                            "job::repeated-node",
+                            name.span,
+                            format!("node {} is declared twice", name.value),
+                            "repeated here",
+                        ));
                     } else {
-                        c.nodes.push(NodeSpec { name, chart, tolerance, label });
+                        c.nodes.push(NodeSpec {
+                            name,
+                            chart,
+                            tolerance,
+                            label,
+                        });
                     }
                 }
             }
@@ -436,8 +597,17 @@ fn decode_circuit(node: &KdlNode, r: &mut Reader) -> Circuit {
                 let rating = watts(r, child, "rating");
                 let from = r.req_prop_name(child, "from", example);
                 let to = r.req_prop_name(child, "to", example);
-                if let (Some(reference), Some(value), Some(from), Some(to)) = (reference, value, from, to) {
-                    c.droppers.push(Dropper { reference: reference.value, value, rating, from, to, span: child.span() });
+                if let (Some(reference), Some(value), Some(from), Some(to)) =
+                    (reference, value, from, to)
+                {
+                    c.droppers.push(Dropper {
+                        reference: reference.value,
+                        value,
+                        rating,
+                        from,
+                        to,
+                        span: child.span(),
+                    });
                 }
             }
             "filter-capacitor" => {
@@ -445,11 +615,15 @@ fn decode_circuit(node: &KdlNode, r: &mut Reader) -> Circuit {
                 let example = "filter-capacitor C10 value=\"40u\" rating=\"450V\" node=B+1";
                 let reference = r.req_arg_name(child, "a reference", example);
                 let value = r.opt_prop_quantity(child, "value", Q::Capacitance);
-                let value = r.positive(value, "a capacitance", false).map(|v| Farads(v.value));
+                let value = r
+                    .positive(value, "a capacitance", false)
+                    .map(|v| Farads(v.value));
                 let rating = r.req_prop_quantity(child, "rating", Q::Voltage, example);
                 let rating = r.positive(rating, "a voltage rating", false);
                 let node_name = r.req_prop_name(child, "node", example);
-                if let (Some(reference), Some(rating), Some(node_name)) = (reference, rating, node_name) {
+                if let (Some(reference), Some(rating), Some(node_name)) =
+                    (reference, rating, node_name)
+                {
                     c.filter_capacitors.push(FilterCapacitor {
                         reference: reference.value,
                         value,
@@ -467,7 +641,12 @@ fn decode_circuit(node: &KdlNode, r: &mut Reader) -> Circuit {
                 let primary = r.req_prop_quantity(child, "primary", Q::Voltage, example);
                 let primary = r.positive(primary, "the primary voltage", false);
                 if c.winding.is_some() {
-                    r.push(DecodeError::error("job::repeated-node", Reader::name_span(child), "`high-voltage-winding` is given twice", "repeated here"));
+                    r.push(DecodeError::error(
+                        "job::repeated-node",
+                        Reader::name_span(child),
+                        "`high-voltage-winding` is given twice",
+                        "repeated here",
+                    ));
                 }
                 if let (Some(rms), Some(primary)) = (rms, primary) {
                     c.winding = Some(Winding {
@@ -478,14 +657,29 @@ fn decode_circuit(node: &KdlNode, r: &mut Reader) -> Circuit {
             }
             "rectifier" => {
                 r.check_entries(child, &["drop"], 1);
-                let what = r.req_arg_name(child, "`silicon` or the rectifier valve's position", "rectifier V5   or   rectifier silicon");
+                let what = r.req_arg_name(
+                    child,
+                    "`silicon` or the rectifier valve's position",
+                    "rectifier V5   or   rectifier silicon",
+                );
                 let drop = r.opt_prop_quantity(child, "drop", Q::Voltage);
-                let drop = r.positive(drop, "the rectifier drop", true).map(|d| Volts(d.value));
+                let drop = r
+                    .positive(drop, "the rectifier drop", true)
+                    .map(|d| Volts(d.value));
                 if c.rectifier.is_some() {
-                    r.push(DecodeError::error("job::repeated-node", Reader::name_span(child), "`rectifier` is given twice", "repeated here"));
+                    r.push(DecodeError::error(
+                        "job::repeated-node",
+                        Reader::name_span(child),
+                        "`rectifier` is given twice",
+                        "repeated here",
+                    ));
                 }
                 if let Some(what) = what {
-                    let kind = if what.value == "silicon" { RectifierKind::Silicon } else { RectifierKind::Valve(what) };
+                    let kind = if what.value == "silicon" {
+                        RectifierKind::Silicon
+                    } else {
+                        RectifierKind::Valve(what)
+                    };
                     c.rectifier = Some(Rectifier { kind, drop });
                 }
             }
@@ -506,7 +700,11 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
     let mut valves: Vec<ValveReading> = Vec::new();
     let mut heaters = Vec::new();
     let mut circuit_changes = Circuit::default();
-    for child in r.children(node.children(), &["node", "valve", "heater", "circuit"], "a measurement set") {
+    for child in r.children(
+        node.children(),
+        &["node", "valve", "heater", "circuit"],
+        "a measurement set",
+    ) {
         if child.name().value() == "circuit" {
             circuit_changes = decode_circuit(child, r);
             continue;
@@ -515,12 +713,20 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
         match child.name().value() {
             "node" => {
                 r.check_entries(child, &["chart", "tolerance"], 2);
-                let name = r.req_arg_name(child, "a node name and its voltage", "node B+1 \"352V\"");
+                let name =
+                    r.req_arg_name(child, "a node name and its voltage", "node B+1 \"352V\"");
                 let volts = match Reader::arg(child, 1) {
                     Some(e) => r.quantity(e, Q::Voltage, "the node voltage"),
                     None => {
-                        r.push(DecodeError::error("job::missing", Reader::name_span(child), "`node` needs the voltage read", "voltage missing")
-                            .with_help("for example: node B+1 \"352V\""));
+                        r.push(
+                            DecodeError::error(
+                                "job::missing",
+                                Reader::name_span(child),
+                                "`node` needs the voltage read",
+                                "voltage missing",
+                            )
+                            .with_help("for example: node B+1 \"352V\""),
+                        );
                         None
                     }
                 };
@@ -528,17 +734,43 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
                 let tolerance = percent(r, child, "tolerance");
                 if let (Some(name), Some(volts)) = (name, volts) {
                     if nodes.iter().any(|n| n.name.value == name.value) {
-                        r.push(DecodeError::error("job::repeated-reading", name.span, format!("node {} is read twice in this set", name.value), "repeated here"));
+                        r.push(DecodeError::error(
+                            "job::repeated-reading",
+                            name.span,
+                            format!("node {} is read twice in this set", name.value),
+                            "repeated here",
+                        ));
                         continue;
                     }
-                    nodes.push(NodeReading { name, volts: Spanned::new(Volts(volts.value), volts.span), chart, tolerance });
+                    nodes.push(NodeReading {
+                        name,
+                        volts: Spanned::new(Volts(volts.value), volts.span),
+                        chart,
+                        tolerance,
+                    });
                 }
             }
             "valve" => {
-                let keys = ["plate", "screen", "cathode", "grid", "sense", "primary-drop", "current", "method"];
+                let keys = [
+                    "plate",
+                    "screen",
+                    "cathode",
+                    "grid",
+                    "sense",
+                    "primary-drop",
+                    "current",
+                    "method",
+                ];
                 r.check_entries(child, &keys, 1);
-                let position = r.req_arg_name(child, "a valve position", "valve V3 plate=\"352V\" cathode=\"11.2V\"");
-                let v = |r: &mut Reader, key: &str| r.opt_prop_quantity(child, key, Q::Voltage).map(|s| Spanned::new(Volts(s.value), s.span));
+                let position = r.req_arg_name(
+                    child,
+                    "a valve position",
+                    "valve V3 plate=\"352V\" cathode=\"11.2V\"",
+                );
+                let v = |r: &mut Reader, key: &str| {
+                    r.opt_prop_quantity(child, key, Q::Voltage)
+                        .map(|s| Spanned::new(Volts(s.value), s.span))
+                };
                 let plate = v(r, "plate");
                 let screen = v(r, "screen");
                 let cathode = v(r, "cathode");
@@ -547,7 +779,8 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
                 let primary_drop = v(r, "primary-drop");
                 let current = r.opt_prop_quantity(child, "current", Q::Current);
                 let current = r.positive(current, "a valve current", true);
-                let method = match Reader::prop(child, "method").and_then(|e| r.name(e, "`method`")) {
+                let method = match Reader::prop(child, "method").and_then(|e| r.name(e, "`method`"))
+                {
                     Some(m) => match m.value.as_str() {
                         "probe" => Some(CurrentMethod::Probe),
                         "shunt" => Some(CurrentMethod::Shunt),
@@ -568,7 +801,12 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
                     }
                     (None, Some(_)) => {
                         if let Some(e) = Reader::prop(child, "method") {
-                            r.push(DecodeError::error("job::missing", r.value_span(e), "`method` is given without a `current`", "no current to go with it"));
+                            r.push(DecodeError::error(
+                                "job::missing",
+                                r.value_span(e),
+                                "`method` is given without a `current`",
+                                "no current to go with it",
+                            ));
                         }
                         None
                     }
@@ -576,15 +814,35 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
                 };
                 for reading in [&plate, &screen].into_iter().flatten() {
                     if reading.value.0 > 1500.0 {
-                        r.push(DecodeError::warning("job::implausible", reading.span, format!("{} is unusually high for a valve amplifier", reading.value), "unusual"));
+                        r.push(DecodeError::warning(
+                            "job::implausible",
+                            reading.span,
+                            format!("{} is unusually high for a valve amplifier", reading.value),
+                            "unusual",
+                        ));
                     }
                 }
                 if let Some(p) = &position {
                     if valves.iter().any(|v| v.position.value == p.value) {
-                        r.push(DecodeError::error("job::repeated-reading", p.span, format!("valve {} is read twice in this set", p.value), "repeated here"));
+                        r.push(DecodeError::error(
+                            "job::repeated-reading",
+                            p.span,
+                            format!("valve {} is read twice in this set", p.value),
+                            "repeated here",
+                        ));
                         continue;
                     }
-                    valves.push(ValveReading { position: p.clone(), plate, screen, cathode, grid, sense, primary_drop, current, span: child.span() });
+                    valves.push(ValveReading {
+                        position: p.clone(),
+                        plate,
+                        screen,
+                        cathode,
+                        grid,
+                        sense,
+                        primary_drop,
+                        current,
+                        span: child.span(),
+                    });
                 }
             }
             "heater" => {
@@ -592,16 +850,28 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
                 let volts = match Reader::arg(child, 0) {
                     Some(e) => r.quantity(e, Q::Voltage, "the heater voltage"),
                     None => {
-                        r.push(DecodeError::error("job::missing", Reader::name_span(child), "`heater` needs the voltage read", "voltage missing")
-                            .with_help("for example: heater \"6.4V\""));
+                        r.push(
+                            DecodeError::error(
+                                "job::missing",
+                                Reader::name_span(child),
+                                "`heater` needs the voltage read",
+                                "voltage missing",
+                            )
+                            .with_help("for example: heater \"6.4V\""),
+                        );
                         None
                     }
                 };
                 let volts = r.positive(volts, "a heater voltage", true);
-                let nominal = volts_pos(r, child, "nominal", "the heater nominal voltage").unwrap_or(Volts(6.3));
+                let nominal = volts_pos(r, child, "nominal", "the heater nominal voltage")
+                    .unwrap_or(Volts(6.3));
                 let label = r.opt_prop_string(child, "label");
                 if let Some(v) = volts {
-                    heaters.push(HeaterReading { volts: Spanned::new(Volts(v.value), v.span), nominal, label });
+                    heaters.push(HeaterReading {
+                        volts: Spanned::new(Volts(v.value), v.span),
+                        nominal,
+                        label,
+                    });
                 }
             }
             _ => {}
@@ -626,13 +896,23 @@ fn decode_parts(node: &KdlNode, r: &mut Reader) -> Vec<PartChange> {
     for child in r.children(node.children(), &["part"], "`parts`") {
         r.check_entries(child, &["was", "now", "reason", "original-kept"], 1);
         r.no_children(child);
-        let reference = r.req_arg_name(child, "a reference", "part C10 was=\"…\" now=\"…\" reason=\"…\"");
+        let reference = r.req_arg_name(
+            child,
+            "a reference",
+            "part C10 was=\"…\" now=\"…\" reason=\"…\"",
+        );
         let was = r.opt_prop_string(child, "was");
         let now = r.opt_prop_string(child, "now");
         let reason = r.opt_prop_string(child, "reason");
         let original_kept = r.opt_prop_bool(child, "original-kept");
         if let Some(reference) = reference {
-            out.push(PartChange { reference: reference.value, was, now, reason, original_kept });
+            out.push(PartChange {
+                reference: reference.value,
+                was,
+                now,
+                reason,
+                original_kept,
+            });
         }
     }
     out
@@ -643,13 +923,23 @@ fn decode_mods(node: &KdlNode, r: &mut Reader) -> Vec<Modification> {
     let mut out = Vec::new();
     for child in r.children(node.children(), &["mod"], "`mods`") {
         r.check_entries(child, &["why", "reversible", "original-kept"], 1);
-        let what = r.req_arg_string(child, "a description", "mod \"…\" why=\"…\" reversible=#true");
+        let what = r.req_arg_string(
+            child,
+            "a description",
+            "mod \"…\" why=\"…\" reversible=#true",
+        );
         let why = r.opt_prop_string(child, "why");
         let reversible = r.opt_prop_bool(child, "reversible");
         let original_kept = r.opt_prop_bool(child, "original-kept");
         let figures = decode_mod_figures(child, r);
         if let Some(what) = what {
-            out.push(Modification { what: what.value, why, reversible, original_kept, figures });
+            out.push(Modification {
+                what: what.value,
+                why,
+                reversible,
+                original_kept,
+                figures,
+            });
         }
     }
     out
@@ -663,9 +953,12 @@ fn decode_mod_figures(node: &KdlNode, r: &mut Reader) -> Vec<ModFigure> {
         r.no_children(child);
         let cap = |r: &mut Reader, key: &str, example: &str| {
             let q = r.req_prop_quantity(child, key, Q::Capacitance, example);
-            r.positive(q, "a capacitance", false).map(|q| Farads(q.value))
+            r.positive(q, "a capacitance", false)
+                .map(|q| Farads(q.value))
         };
-        let res = |r: &mut Reader, key: &str, example: &str| ohms(r, child, key, example).map(|o| o.value);
+        let res = |r: &mut Reader, key: &str, example: &str| {
+            ohms(r, child, key, example).map(|o| o.value)
+        };
         match child.name().value() {
             "rc-corner" => {
                 r.check_entries(child, &["r", "c", "label"], 0);
@@ -673,7 +966,11 @@ fn decode_mod_figures(node: &KdlNode, r: &mut Reader) -> Vec<ModFigure> {
                 let (rv, cv) = (res(r, "r", ex), cap(r, "c", ex));
                 let label = r.opt_prop_string(child, "label");
                 if let (Some(rv), Some(cv)) = (rv, cv) {
-                    out.push(ModFigure::RcCorner { r: rv, c: cv, label });
+                    out.push(ModFigure::RcCorner {
+                        r: rv,
+                        c: cv,
+                        label,
+                    });
                 }
             }
             "cathode-bypass" => {
@@ -682,7 +979,12 @@ fn decode_mod_figures(node: &KdlNode, r: &mut Reader) -> Vec<ModFigure> {
                 let valve = r.req_prop_name(child, "valve", ex);
                 let (rk, ck, load) = (res(r, "rk", ex), cap(r, "ck", ex), res(r, "load", ex));
                 if let (Some(valve), Some(rk), Some(ck), Some(load)) = (valve, rk, ck, load) {
-                    out.push(ModFigure::CathodeBypass { valve, rk, ck, load });
+                    out.push(ModFigure::CathodeBypass {
+                        valve,
+                        rk,
+                        ck,
+                        load,
+                    });
                 }
             }
             "stage-gain" => {
@@ -694,7 +996,12 @@ fn decode_mod_figures(node: &KdlNode, r: &mut Reader) -> Vec<ModFigure> {
                 let rk = r.positive(rk, "a resistance", false).map(|q| Ohms(q.value));
                 let bypassed = r.opt_prop_bool(child, "bypassed").unwrap_or(rk.is_none());
                 if let (Some(valve), Some(load)) = (valve, load) {
-                    out.push(ModFigure::StageGain { valve, load, rk, bypassed });
+                    out.push(ModFigure::StageGain {
+                        valve,
+                        load,
+                        rk,
+                        bypassed,
+                    });
                 }
             }
             "phase-shift" => {
@@ -718,14 +1025,23 @@ fn decode_safety(node: &KdlNode, r: &mut Reader) -> Option<Safety> {
             "I" | "1" => ProtectionClass::One,
             "II" | "2" => ProtectionClass::Two,
             other => {
-                r.push(DecodeError::error("job::unknown-class", c.span, format!("unknown protection class `{other}`"), "expected I or II"));
+                r.push(DecodeError::error(
+                    "job::unknown-class",
+                    c.span,
+                    format!("unknown protection class `{other}`"),
+                    "expected I or II",
+                ));
                 ProtectionClass::One
             }
         },
         None => ProtectionClass::One,
     };
     let mut tests = Vec::new();
-    for child in r.children(node.children(), &["earth-continuity", "insulation", "leakage"], "`safety`") {
+    for child in r.children(
+        node.children(),
+        &["earth-continuity", "insulation", "leakage"],
+        "`safety`",
+    ) {
         r.no_children(child);
         let reading = |r: &mut Reader, kind: Q, example: &str| match Reader::arg(child, 0) {
             Some(e) => {
@@ -733,8 +1049,15 @@ fn decode_safety(node: &KdlNode, r: &mut Reader) -> Option<Safety> {
                 r.positive(q, "the reading", true).map(|q| q.value)
             }
             None => {
-                r.push(DecodeError::error("job::missing", Reader::name_span(child), format!("`{}` needs the reading", child.name().value()), "reading missing")
-                    .with_help(format!("for example: {example}")));
+                r.push(
+                    DecodeError::error(
+                        "job::missing",
+                        Reader::name_span(child),
+                        format!("`{}` needs the reading", child.name().value()),
+                        "reading missing",
+                    )
+                    .with_help(format!("for example: {example}")),
+                );
                 None
             }
         };
@@ -745,9 +1068,15 @@ fn decode_safety(node: &KdlNode, r: &mut Reader) -> Option<Safety> {
                 let measured = reading(r, Q::Resistance, example);
                 let limit = ohms(r, child, "limit", example);
                 let cord = r.opt_prop_quantity(child, "cord", Q::Resistance);
-                let cord = r.positive(cord, "the cord resistance", true).map(|c| Ohms(c.value));
+                let cord = r
+                    .positive(cord, "the cord resistance", true)
+                    .map(|c| Ohms(c.value));
                 if let (Some(measured), Some(limit)) = (measured, limit) {
-                    tests.push(SafetyTest::EarthContinuity { measured: Ohms(measured), limit: limit.value, cord });
+                    tests.push(SafetyTest::EarthContinuity {
+                        measured: Ohms(measured),
+                        limit: limit.value,
+                        cord,
+                    });
                 }
             }
             "insulation" => {
@@ -757,8 +1086,15 @@ fn decode_safety(node: &KdlNode, r: &mut Reader) -> Option<Safety> {
                 let test_voltage = volts_req(r, child, "test-voltage", example);
                 let minimum = ohms(r, child, "minimum", example);
                 let over_range = r.opt_prop_bool(child, "over-range").unwrap_or(false);
-                if let (Some(measured), Some(test_voltage), Some(minimum)) = (measured, test_voltage, minimum) {
-                    tests.push(SafetyTest::Insulation { measured: Ohms(measured), over_range, test_voltage, minimum: minimum.value });
+                if let (Some(measured), Some(test_voltage), Some(minimum)) =
+                    (measured, test_voltage, minimum)
+                {
+                    tests.push(SafetyTest::Insulation {
+                        measured: Ohms(measured),
+                        over_range,
+                        test_voltage,
+                        minimum: minimum.value,
+                    });
                 }
             }
             "leakage" => {
@@ -768,7 +1104,10 @@ fn decode_safety(node: &KdlNode, r: &mut Reader) -> Option<Safety> {
                 let limit = r.req_prop_quantity(child, "limit", Q::Current, example);
                 let limit = r.positive(limit, "the leakage limit", false);
                 if let (Some(measured), Some(limit)) = (measured, limit) {
-                    tests.push(SafetyTest::Leakage { measured: Amps(measured), limit: Amps(limit.value) });
+                    tests.push(SafetyTest::Leakage {
+                        measured: Amps(measured),
+                        limit: Amps(limit.value),
+                    });
                 }
             }
             _ => {}
@@ -796,7 +1135,12 @@ fn decode_settings(node: &KdlNode, r: &mut Reader) -> Settings {
         r.no_children(child);
         let name = child.name().value();
         let Some(entry) = Reader::arg(child, 0) else {
-            r.push(DecodeError::error("job::missing", Reader::name_span(child), format!("`{name}` needs a value"), "value missing"));
+            r.push(DecodeError::error(
+                "job::missing",
+                Reader::name_span(child),
+                format!("`{name}` needs a value"),
+                "value missing",
+            ));
             continue;
         };
         if name == "silicon-drop" {
@@ -805,9 +1149,16 @@ fn decode_settings(node: &KdlNode, r: &mut Reader) -> Settings {
             }
             continue;
         }
-        let Some(p) = r.quantity(entry, Q::Percent, &format!("`{name}`")) else { continue };
+        let Some(p) = r.quantity(entry, Q::Percent, &format!("`{name}`")) else {
+            continue;
+        };
         if !(0.0..=200.0).contains(&p.value) {
-            r.push(DecodeError::error("job::impossible-value", p.span, format!("`{name}` must be between 0% and 200%"), "out of range"));
+            r.push(DecodeError::error(
+                "job::impossible-value",
+                p.span,
+                format!("`{name}` must be between 0% and 200%"),
+                "out of range",
+            ));
             continue;
         }
         let f = p.value / 100.0;
@@ -838,12 +1189,14 @@ fn decode_settings(node: &KdlNode, r: &mut Reader) -> Settings {
 
 fn ohms(r: &mut Reader, node: &KdlNode, key: &str, example: &str) -> Option<Spanned<Ohms>> {
     let q = r.req_prop_quantity(node, key, Q::Resistance, example);
-    r.positive(q, "a resistance", false).map(|q| Spanned::new(Ohms(q.value), q.span))
+    r.positive(q, "a resistance", false)
+        .map(|q| Spanned::new(Ohms(q.value), q.span))
 }
 
 fn watts(r: &mut Reader, node: &KdlNode, key: &str) -> Option<Watts> {
     let q = r.opt_prop_quantity(node, key, Q::Power);
-    r.positive(q, "a power rating", false).map(|q| Watts(q.value))
+    r.positive(q, "a power rating", false)
+        .map(|q| Watts(q.value))
 }
 
 fn volts_pos(r: &mut Reader, node: &KdlNode, key: &str, what: &str) -> Option<Volts> {
@@ -853,7 +1206,8 @@ fn volts_pos(r: &mut Reader, node: &KdlNode, key: &str, what: &str) -> Option<Vo
 
 fn volts_req(r: &mut Reader, node: &KdlNode, key: &str, example: &str) -> Option<Volts> {
     let q = r.req_prop_quantity(node, key, Q::Voltage, example);
-    r.positive(q, "a test voltage", false).map(|q| Volts(q.value))
+    r.positive(q, "a test voltage", false)
+        .map(|q| Volts(q.value))
 }
 
 fn percent(r: &mut Reader, node: &KdlNode, key: &str) -> Option<f64> {
@@ -866,12 +1220,18 @@ fn split_names(r: &Reader, list: &Spanned<String>) -> Vec<Spanned<String>> {
     let mut out = Vec::new();
     let text = &list.value;
     let mut start = None;
-    for (i, c) in text.char_indices().chain(std::iter::once((text.len(), ' '))) {
+    for (i, c) in text
+        .char_indices()
+        .chain(std::iter::once((text.len(), ' ')))
+    {
         let sep = c.is_whitespace() || c == ',';
         match (sep, start) {
             (false, None) => start = Some(i),
             (true, Some(s)) => {
-                out.push(Spanned::new(text[s..i].to_string(), r.part_span(list.span, text, s, i - s)));
+                out.push(Spanned::new(
+                    text[s..i].to_string(),
+                    r.part_span(list.span, text, s, i - s),
+                ));
                 start = None;
             }
             _ => {}

@@ -20,7 +20,12 @@ pub struct DecodeError {
 }
 
 impl DecodeError {
-    pub fn error(code: &'static str, span: SourceSpan, message: impl Into<String>, label: impl Into<String>) -> Self {
+    pub fn error(
+        code: &'static str,
+        span: SourceSpan,
+        message: impl Into<String>,
+        label: impl Into<String>,
+    ) -> Self {
         DecodeError {
             code,
             message: message.into(),
@@ -31,8 +36,16 @@ impl DecodeError {
         }
     }
 
-    pub fn warning(code: &'static str, span: SourceSpan, message: impl Into<String>, label: impl Into<String>) -> Self {
-        DecodeError { severity: Severity::Warning, ..DecodeError::error(code, span, message, label) }
+    pub fn warning(
+        code: &'static str,
+        span: SourceSpan,
+        message: impl Into<String>,
+        label: impl Into<String>,
+    ) -> Self {
+        DecodeError {
+            severity: Severity::Warning,
+            ..DecodeError::error(code, span, message, label)
+        }
     }
 
     pub fn with_help(mut self, help: impl Into<String>) -> Self {
@@ -61,10 +74,15 @@ impl Diagnostic for DecodeError {
         Some(self.severity)
     }
     fn help<'a>(&'a self) -> Option<Box<dyn fmt::Display + 'a>> {
-        self.help.as_ref().map(|h| Box::new(h) as Box<dyn fmt::Display>)
+        self.help
+            .as_ref()
+            .map(|h| Box::new(h) as Box<dyn fmt::Display>)
     }
     fn labels(&self) -> Option<Box<dyn Iterator<Item = LabeledSpan> + '_>> {
-        Some(Box::new(std::iter::once(LabeledSpan::new_with_span(Some(self.label.clone()), self.span))))
+        Some(Box::new(std::iter::once(LabeledSpan::new_with_span(
+            Some(self.label.clone()),
+            self.span,
+        ))))
     }
 }
 
@@ -143,7 +161,11 @@ impl Diagnostic for JobDiagnostics {
         Some(&self.source)
     }
     fn severity(&self) -> Option<Severity> {
-        Some(if self.has_errors() { Severity::Error } else { Severity::Warning })
+        Some(if self.has_errors() {
+            Severity::Error
+        } else {
+            Severity::Warning
+        })
     }
     fn related<'a>(&'a self) -> Option<Box<dyn Iterator<Item = &'a dyn Diagnostic> + 'a>> {
         Some(Box::new(self.problems.iter().map(|p| p as &dyn Diagnostic)))
@@ -154,7 +176,12 @@ impl Diagnostic for JobDiagnostics {
 pub fn did_you_mean<'a>(name: &str, known: impl IntoIterator<Item = &'a str>) -> Vec<&'a str> {
     let mut scored: Vec<(f64, &str)> = known
         .into_iter()
-        .map(|k| (strsim::jaro_winkler(&name.to_lowercase(), &k.to_lowercase()), k))
+        .map(|k| {
+            (
+                strsim::jaro_winkler(&name.to_lowercase(), &k.to_lowercase()),
+                k,
+            )
+        })
         .filter(|(s, _)| *s > 0.75)
         .collect();
     scored.sort_by(|a, b| b.0.total_cmp(&a.0).then(a.1.cmp(b.1)));
@@ -198,7 +225,13 @@ mod tests {
         let known = ["frequency", "nominal", "tolerance", "design"];
         assert_eq!(did_you_mean("frequncy", known), ["frequency"]);
         assert!(did_you_mean("zzzz", known).is_empty());
-        assert_eq!(suggestion_help("tolerence", &known), "did you mean `tolerance`?");
-        assert_eq!(suggestion_help("zzzz", &known), "allowed here: frequency, nominal, tolerance, design");
+        assert_eq!(
+            suggestion_help("tolerence", &known),
+            "did you mean `tolerance`?"
+        );
+        assert_eq!(
+            suggestion_help("zzzz", &known),
+            "allowed here: frequency, nominal, tolerance, design"
+        );
     }
 }

@@ -26,7 +26,11 @@ pub struct Decoded {
 
 /// Decodes job-file text and checks every valve type against `ratings`.
 /// Never panics, whatever the text.
-pub fn decode_with_ratings(name: &str, text: &str, ratings: &crate::ratings::RatingsTable) -> Result<Decoded, JobDiagnostics> {
+pub fn decode_with_ratings(
+    name: &str,
+    text: &str,
+    ratings: &crate::ratings::RatingsTable,
+) -> Result<Decoded, JobDiagnostics> {
     decode_inner(name, text, Some(ratings))
 }
 
@@ -36,7 +40,11 @@ pub fn decode(name: &str, text: &str) -> Result<Decoded, JobDiagnostics> {
     decode_inner(name, text, None)
 }
 
-fn decode_inner(name: &str, text: &str, ratings: Option<&crate::ratings::RatingsTable>) -> Result<Decoded, JobDiagnostics> {
+fn decode_inner(
+    name: &str,
+    text: &str,
+    ratings: Option<&crate::ratings::RatingsTable>,
+) -> Result<Decoded, JobDiagnostics> {
     let source = NamedSource::new(name, Arc::new(text.to_string())).with_language("kdl");
     let mut problems = Vec::new();
     let job = match crate::kdl_fast::parse_document(text) {
@@ -84,7 +92,8 @@ fn decode_inner(name: &str, text: &str, ratings: Option<&crate::ratings::Ratings
 fn syntax_problems(text: &str, e: &kdl::KdlError) -> Vec<DecodeError> {
     let bare = bare_value::find(text);
     let covers_bare = |span: &SourceSpan| {
-        bare.iter().any(|b| span.offset() <= b.offset() && b.offset() < span.offset() + span.len().max(1))
+        bare.iter()
+            .any(|b| span.offset() <= b.offset() && b.offset() < span.offset() + span.len().max(1))
     };
     let mut out: Vec<DecodeError> = bare
         .iter()

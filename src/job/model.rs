@@ -197,16 +197,24 @@ pub struct Circuit {
 
 impl Circuit {
     pub fn cathode_resistor_for(&self, position: &str) -> Option<&CathodeResistor> {
-        self.cathode_resistors.iter().find(|r| r.valves.iter().any(|v| v.value == position))
+        self.cathode_resistors
+            .iter()
+            .find(|r| r.valves.iter().any(|v| v.value == position))
     }
     pub fn sense_resistor_for(&self, position: &str) -> Option<&SenseResistor> {
-        self.sense_resistors.iter().find(|r| r.valve.value == position)
+        self.sense_resistors
+            .iter()
+            .find(|r| r.valve.value == position)
     }
     pub fn screen_resistor_for(&self, position: &str) -> Option<&ScreenResistor> {
-        self.screen_resistors.iter().find(|r| r.valve.value == position)
+        self.screen_resistors
+            .iter()
+            .find(|r| r.valve.value == position)
     }
     pub fn half_primary_for(&self, position: &str) -> Option<&HalfPrimary> {
-        self.half_primaries.iter().find(|r| r.valves.iter().any(|v| v.value == position))
+        self.half_primaries
+            .iter()
+            .find(|r| r.valves.iter().any(|v| v.value == position))
     }
 
     /// Whether the circuit holds no facts at all.
@@ -230,8 +238,16 @@ impl Circuit {
     pub fn with_changes(&self, changes: &Circuit) -> Circuit {
         /// Each base fact replaced in place by its change; new facts last.
         fn merge<T: Clone>(base: &[T], changes: &[T], same: impl Fn(&T, &T) -> bool) -> Vec<T> {
-            let mut out: Vec<T> = base.iter().map(|b| changes.iter().find(|c| same(b, c)).unwrap_or(b).clone()).collect();
-            out.extend(changes.iter().filter(|c| !base.iter().any(|b| same(b, c))).cloned());
+            let mut out: Vec<T> = base
+                .iter()
+                .map(|b| changes.iter().find(|c| same(b, c)).unwrap_or(b).clone())
+                .collect();
+            out.extend(
+                changes
+                    .iter()
+                    .filter(|c| !base.iter().any(|b| same(b, c)))
+                    .cloned(),
+            );
             out
         }
         fn names(v: &[Spanned<String>]) -> Vec<&str> {
@@ -239,17 +255,38 @@ impl Circuit {
         }
         Circuit {
             bias: changes.bias.clone().or_else(|| self.bias.clone()),
-            cathode_resistors: merge(&self.cathode_resistors, &changes.cathode_resistors, |a, b| {
-                a.reference == b.reference || names(&a.valves).iter().any(|v| names(&b.valves).contains(v))
+            cathode_resistors: merge(
+                &self.cathode_resistors,
+                &changes.cathode_resistors,
+                |a, b| {
+                    a.reference == b.reference
+                        || names(&a.valves)
+                            .iter()
+                            .any(|v| names(&b.valves).contains(v))
+                },
+            ),
+            sense_resistors: merge(&self.sense_resistors, &changes.sense_resistors, |a, b| {
+                a.valve.value == b.valve.value
             }),
-            sense_resistors: merge(&self.sense_resistors, &changes.sense_resistors, |a, b| a.valve.value == b.valve.value),
-            screen_resistors: merge(&self.screen_resistors, &changes.screen_resistors, |a, b| a.valve.value == b.valve.value),
+            screen_resistors: merge(&self.screen_resistors, &changes.screen_resistors, |a, b| {
+                a.valve.value == b.valve.value
+            }),
             half_primaries: merge(&self.half_primaries, &changes.half_primaries, |a, b| {
-                names(&a.valves).iter().any(|v| names(&b.valves).contains(v))
+                names(&a.valves)
+                    .iter()
+                    .any(|v| names(&b.valves).contains(v))
             }),
-            nodes: merge(&self.nodes, &changes.nodes, |a, b| a.name.value == b.name.value),
-            droppers: merge(&self.droppers, &changes.droppers, |a, b| a.reference == b.reference),
-            filter_capacitors: merge(&self.filter_capacitors, &changes.filter_capacitors, |a, b| a.reference == b.reference),
+            nodes: merge(&self.nodes, &changes.nodes, |a, b| {
+                a.name.value == b.name.value
+            }),
+            droppers: merge(&self.droppers, &changes.droppers, |a, b| {
+                a.reference == b.reference
+            }),
+            filter_capacitors: merge(
+                &self.filter_capacitors,
+                &changes.filter_capacitors,
+                |a, b| a.reference == b.reference,
+            ),
             winding: changes.winding.clone().or_else(|| self.winding.clone()),
             rectifier: changes.rectifier.clone().or_else(|| self.rectifier.clone()),
         }
@@ -432,11 +469,25 @@ pub struct Modification {
 #[serde(tag = "kind", rename_all = "snake_case")]
 pub enum ModFigure {
     /// A first-order RC corner.
-    RcCorner { r: Ohms, c: Farads, label: Option<String> },
+    RcCorner {
+        r: Ohms,
+        c: Farads,
+        label: Option<String>,
+    },
     /// The corner of a cathode bypass capacitor on a triode stage.
-    CathodeBypass { valve: Spanned<String>, rk: Ohms, ck: Farads, load: Ohms },
+    CathodeBypass {
+        valve: Spanned<String>,
+        rk: Ohms,
+        ck: Farads,
+        load: Ohms,
+    },
     /// The gain of a triode stage, bypassed or not.
-    StageGain { valve: Spanned<String>, load: Ohms, rk: Option<Ohms>, bypassed: bool },
+    StageGain {
+        valve: Spanned<String>,
+        load: Ohms,
+        rk: Option<Ohms>,
+        bypassed: bool,
+    },
     /// Three equal RC sections of a phase-shift oscillator.
     PhaseShift { r: Ohms, c: Farads },
 }

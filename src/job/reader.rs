@@ -18,7 +18,10 @@ pub struct Reader<'s> {
 
 impl<'s> Reader<'s> {
     pub fn new(source: &'s str) -> Self {
-        Reader { source, problems: Vec::new() }
+        Reader {
+            source,
+            problems: Vec::new(),
+        }
     }
 
     pub fn push(&mut self, e: DecodeError) {
@@ -32,7 +35,12 @@ impl<'s> Reader<'s> {
 
     /// Reports child nodes whose names are not in `allowed`; returns the
     /// known ones in order.
-    pub fn children<'d>(&mut self, doc: Option<&'d KdlDocument>, allowed: &[&str], context: &str) -> Vec<&'d KdlNode> {
+    pub fn children<'d>(
+        &mut self,
+        doc: Option<&'d KdlDocument>,
+        allowed: &[&str],
+        context: &str,
+    ) -> Vec<&'d KdlNode> {
         let Some(doc) = doc else { return Vec::new() };
         let mut out = Vec::new();
         for node in doc.nodes() {
@@ -65,7 +73,10 @@ impl<'s> Reader<'s> {
                     DecodeError::error(
                         "job::type-annotation",
                         ty.span(),
-                        format!("type annotation `({})` is not used in job files", ty.value()),
+                        format!(
+                            "type annotation `({})` is not used in job files",
+                            ty.value()
+                        ),
                         "remove this",
                     )
                     .with_help("write the unit inside the value instead, for example \"352V\""),
@@ -93,7 +104,10 @@ impl<'s> Reader<'s> {
                         self.push(DecodeError::error(
                             "job::repeated-property",
                             name.span(),
-                            format!("property `{key}` is given twice on `{}`", node.name().value()),
+                            format!(
+                                "property `{key}` is given twice on `{}`",
+                                node.name().value()
+                            ),
                             "repeated here",
                         ));
                     } else {
@@ -104,9 +118,16 @@ impl<'s> Reader<'s> {
                     args += 1;
                     if args > max_args {
                         let help = if max_args == 0 {
-                            format!("`{}` takes no plain values; use its properties", node.name().value())
+                            format!(
+                                "`{}` takes no plain values; use its properties",
+                                node.name().value()
+                            )
                         } else {
-                            format!("`{}` takes {max_args} plain value{}", node.name().value(), if max_args == 1 { "" } else { "s" })
+                            format!(
+                                "`{}` takes {max_args} plain value{}",
+                                node.name().value(),
+                                if max_args == 1 { "" } else { "s" }
+                            )
                         };
                         self.push(
                             DecodeError::error(
@@ -138,11 +159,16 @@ impl<'s> Reader<'s> {
     }
 
     pub fn arg(node: &KdlNode, index: usize) -> Option<&KdlEntry> {
-        node.entries().iter().filter(|e| e.name().is_none()).nth(index)
+        node.entries()
+            .iter()
+            .filter(|e| e.name().is_none())
+            .nth(index)
     }
 
     pub fn prop<'n>(node: &'n KdlNode, key: &str) -> Option<&'n KdlEntry> {
-        node.entries().iter().find(|e| e.name().is_some_and(|n| n.value() == key))
+        node.entries()
+            .iter()
+            .find(|e| e.name().is_some_and(|n| n.value() == key))
     }
 
     fn missing(&mut self, node: &KdlNode, what: &str, example: &str) {
@@ -162,7 +188,9 @@ impl<'s> Reader<'s> {
         let span = entry.span();
         let start = span.offset();
         let end = (start + span.len()).min(self.source.len());
-        let Some(text) = self.source.get(start..end) else { return span };
+        let Some(text) = self.source.get(start..end) else {
+            return span;
+        };
         let mut offset = 0;
         if entry.name().is_some()
             && let Some(eq) = text.find('=')
@@ -180,7 +208,9 @@ impl<'s> Reader<'s> {
     /// be followed (a multi-line string, which is dedented), or the part is
     /// empty, the whole value's span.
     pub fn part_span(&self, value: SourceSpan, text: &str, start: usize, len: usize) -> SourceSpan {
-        let literal = self.source.get(value.offset()..value.offset() + value.len());
+        let literal = self
+            .source
+            .get(value.offset()..value.offset() + value.len());
         match literal.and_then(|l| literal_range(l, text, start, start + len)) {
             Some((a, b)) if len > 0 => SourceSpan::new((value.offset() + a).into(), b - a),
             _ => value,
@@ -201,7 +231,10 @@ impl<'s> Reader<'s> {
                         format!("{what} must be text, found {}", describe(other)),
                         "expected text in quotes",
                     )
-                    .with_help(format!("write it in double quotes, for example \"{}\"", plain(other))),
+                    .with_help(format!(
+                        "write it in double quotes, for example \"{}\"",
+                        plain(other)
+                    )),
                 );
                 None
             }
@@ -212,13 +245,18 @@ impl<'s> Reader<'s> {
     /// number that is read as text.
     pub fn name(&mut self, entry: &KdlEntry, what: &str) -> Option<Spanned<String>> {
         match entry.value() {
-            KdlValue::String(s) if !s.trim().is_empty() => Some(Spanned::new(s.trim().to_string(), self.value_span(entry))),
+            KdlValue::String(s) if !s.trim().is_empty() => {
+                Some(Spanned::new(s.trim().to_string(), self.value_span(entry)))
+            }
             KdlValue::Integer(i) => Some(Spanned::new(i.to_string(), self.value_span(entry))),
             other => {
                 self.push(DecodeError::error(
                     "job::expected-name",
                     self.value_span(entry),
-                    format!("{what} must be a name such as V1 or B+1, found {}", describe(other)),
+                    format!(
+                        "{what} must be a name such as V1 or B+1, found {}",
+                        describe(other)
+                    ),
                     "expected a name",
                 ));
                 None
@@ -244,7 +282,12 @@ impl<'s> Reader<'s> {
         }
     }
 
-    pub fn integer(&mut self, entry: &KdlEntry, what: &str, range: std::ops::RangeInclusive<i64>) -> Option<i64> {
+    pub fn integer(
+        &mut self,
+        entry: &KdlEntry,
+        what: &str,
+        range: std::ops::RangeInclusive<i64>,
+    ) -> Option<i64> {
         let value = match entry.value() {
             KdlValue::Integer(i) => i64::try_from(*i).ok(),
             KdlValue::String(s) => s.trim().parse::<i64>().ok(),
@@ -256,7 +299,11 @@ impl<'s> Reader<'s> {
                 self.push(DecodeError::error(
                     "job::expected-integer",
                     self.value_span(entry),
-                    format!("{what} must be a whole number from {} to {}", range.start(), range.end()),
+                    format!(
+                        "{what} must be a whole number from {} to {}",
+                        range.start(),
+                        range.end()
+                    ),
                     "expected a whole number",
                 ));
                 None
@@ -266,7 +313,12 @@ impl<'s> Reader<'s> {
 
     /// A quantity: a plain number in the base unit, or text with an SI
     /// prefix or RKM code and an optional unit symbol.
-    pub fn quantity(&mut self, entry: &KdlEntry, kind: QuantityKind, what: &str) -> Option<Spanned<f64>> {
+    pub fn quantity(
+        &mut self,
+        entry: &KdlEntry,
+        kind: QuantityKind,
+        what: &str,
+    ) -> Option<Spanned<f64>> {
         let span = self.value_span(entry);
         let value = match entry.value() {
             KdlValue::Integer(i) => Ok(*i as f64),
@@ -275,12 +327,18 @@ impl<'s> Reader<'s> {
                 // Point inside the quotes at the offending part.
                 let at = self.part_span(span, s, e.offset, e.len);
                 let label = match &e.problem {
-                    UnitProblem::WrongUnit { expected, .. } => format!("expected {}", expected.noun()),
+                    UnitProblem::WrongUnit { expected, .. } => {
+                        format!("expected {}", expected.noun())
+                    }
                     _ => format!("expected {}", kind.noun()),
                 };
                 (at, e.to_string(), label)
             }),
-            other => Err((span, format!("{what} must be {}, found {}", kind.noun(), describe(other)), format!("expected {}", kind.noun()))),
+            other => Err((
+                span,
+                format!("{what} must be {}, found {}", kind.noun(), describe(other)),
+                format!("expected {}", kind.noun()),
+            )),
         };
         match value {
             Ok(v) => Some(Spanned::new(v, span)),
@@ -321,7 +379,9 @@ impl<'s> Reader<'s> {
                         format!("{what} \"{text}\" is not a valid date ({e})"),
                         "expected \"YYYY-MM-DD\"",
                     )
-                    .with_help("write dates as ISO 8601 year-month-day, for example \"2026-11-02\""),
+                    .with_help(
+                        "write dates as ISO 8601 year-month-day, for example \"2026-11-02\"",
+                    ),
                 );
                 None
             }
@@ -330,7 +390,12 @@ impl<'s> Reader<'s> {
 
     // ----- convenience: required / optional entries -----------------------
 
-    pub fn req_arg_string(&mut self, node: &KdlNode, what: &str, example: &str) -> Option<Spanned<String>> {
+    pub fn req_arg_string(
+        &mut self,
+        node: &KdlNode,
+        what: &str,
+        example: &str,
+    ) -> Option<Spanned<String>> {
         match Self::arg(node, 0) {
             Some(e) => self.string(e, what),
             None => {
@@ -340,7 +405,12 @@ impl<'s> Reader<'s> {
         }
     }
 
-    pub fn req_arg_name(&mut self, node: &KdlNode, what: &str, example: &str) -> Option<Spanned<String>> {
+    pub fn req_arg_name(
+        &mut self,
+        node: &KdlNode,
+        what: &str,
+        example: &str,
+    ) -> Option<Spanned<String>> {
         match Self::arg(node, 0) {
             Some(e) => self.name(e, what),
             None => {
@@ -350,7 +420,12 @@ impl<'s> Reader<'s> {
         }
     }
 
-    pub fn req_prop_string(&mut self, node: &KdlNode, key: &str, example: &str) -> Option<Spanned<String>> {
+    pub fn req_prop_string(
+        &mut self,
+        node: &KdlNode,
+        key: &str,
+        example: &str,
+    ) -> Option<Spanned<String>> {
         match Self::prop(node, key) {
             Some(e) => self.string(e, &format!("`{key}`")),
             None => {
@@ -361,10 +436,17 @@ impl<'s> Reader<'s> {
     }
 
     pub fn opt_prop_string(&mut self, node: &KdlNode, key: &str) -> Option<String> {
-        Self::prop(node, key).and_then(|e| self.string(e, &format!("`{key}`"))).map(|s| s.value)
+        Self::prop(node, key)
+            .and_then(|e| self.string(e, &format!("`{key}`")))
+            .map(|s| s.value)
     }
 
-    pub fn req_prop_name(&mut self, node: &KdlNode, key: &str, example: &str) -> Option<Spanned<String>> {
+    pub fn req_prop_name(
+        &mut self,
+        node: &KdlNode,
+        key: &str,
+        example: &str,
+    ) -> Option<Spanned<String>> {
         match Self::prop(node, key) {
             Some(e) => self.name(e, &format!("`{key}`")),
             None => {
@@ -374,7 +456,13 @@ impl<'s> Reader<'s> {
         }
     }
 
-    pub fn req_prop_quantity(&mut self, node: &KdlNode, key: &str, kind: QuantityKind, example: &str) -> Option<Spanned<f64>> {
+    pub fn req_prop_quantity(
+        &mut self,
+        node: &KdlNode,
+        key: &str,
+        kind: QuantityKind,
+        example: &str,
+    ) -> Option<Spanned<f64>> {
         match Self::prop(node, key) {
             Some(e) => self.quantity(e, kind, &format!("`{key}`")),
             None => {
@@ -384,7 +472,12 @@ impl<'s> Reader<'s> {
         }
     }
 
-    pub fn opt_prop_quantity(&mut self, node: &KdlNode, key: &str, kind: QuantityKind) -> Option<Spanned<f64>> {
+    pub fn opt_prop_quantity(
+        &mut self,
+        node: &KdlNode,
+        key: &str,
+        kind: QuantityKind,
+    ) -> Option<Spanned<f64>> {
         Self::prop(node, key).and_then(|e| self.quantity(e, kind, &format!("`{key}`")))
     }
 
@@ -397,16 +490,32 @@ impl<'s> Reader<'s> {
     }
 
     /// Rejects negative (and optionally zero) values of physical quantities.
-    pub fn positive(&mut self, v: Option<Spanned<f64>>, what: &str, allow_zero: bool) -> Option<Spanned<f64>> {
+    pub fn positive(
+        &mut self,
+        v: Option<Spanned<f64>>,
+        what: &str,
+        allow_zero: bool,
+    ) -> Option<Spanned<f64>> {
         let v = v?;
-        let bad = if allow_zero { v.value < 0.0 } else { v.value <= 0.0 };
+        let bad = if allow_zero {
+            v.value < 0.0
+        } else {
+            v.value <= 0.0
+        };
         if bad {
             self.push(
                 DecodeError::error(
                     "job::impossible-value",
                     v.span,
-                    format!("{what} cannot be {}", if v.value < 0.0 { "negative" } else { "zero" }),
-                    if allow_zero { "expected zero or more" } else { "expected more than zero" },
+                    format!(
+                        "{what} cannot be {}",
+                        if v.value < 0.0 { "negative" } else { "zero" }
+                    ),
+                    if allow_zero {
+                        "expected zero or more"
+                    } else {
+                        "expected more than zero"
+                    },
                 )
                 .with_help("a physical part or supply cannot have this value; check the reading"),
             );
@@ -452,7 +561,8 @@ fn literal_range(literal: &str, text: &str, start: usize, end: usize) -> Option<
     let open = hashes + 1;
     if hashes > 0 {
         // A raw string holds its text verbatim.
-        return (literal.get(open..open + text.len())? == text).then_some((open + start, open + end));
+        return (literal.get(open..open + text.len())? == text)
+            .then_some((open + start, open + end));
     }
     // (offset in text, offset in literal) of each decoded character.
     let mut starts: Vec<(usize, usize)> = Vec::new();
@@ -535,12 +645,18 @@ mod tests {
         // A unicode escape for µ (U+00B5): one char of text, eight bytes of source.
         assert_eq!(literal_range("\"1\\u{b5}A\"", "1µA", 3, 4), Some((8, 9)));
         // A whitespace escape vanishes.
-        assert_eq!(literal_range("\"V3 \\   V4\"", "V3 V4", 3, 5), Some((8, 10)));
+        assert_eq!(
+            literal_range("\"V3 \\   V4\"", "V3 V4", 3, 5),
+            Some((8, 10))
+        );
         // Raw strings: the hashes and quote shift everything.
         assert_eq!(literal_range("##\"3µ0mA\"##", "3µ0mA", 5, 6), Some((8, 9)));
         // Names after a tab escape; the end of the text maps to the closing quote.
         assert_eq!(literal_range("\"\\tµµ V3\"", "\tµµ V3", 1, 5), Some((3, 7)));
-        assert_eq!(literal_range("\"\\tµµ V3\"", "\tµµ V3", 6, 8), Some((8, 10)));
+        assert_eq!(
+            literal_range("\"\\tµµ V3\"", "\tµµ V3", 6, 8),
+            Some((8, 10))
+        );
     }
 
     #[test]

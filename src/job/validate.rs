@@ -7,8 +7,17 @@ use super::model::{Job, RectifierKind, Spanned};
 /// Problems with names that point nowhere.
 pub fn cross_references(job: &Job) -> Vec<DecodeError> {
     let mut out = Vec::new();
-    let positions: Vec<&str> = job.valves.iter().map(|v| v.position.value.as_str()).collect();
-    let mut nodes: Vec<&str> = job.circuit.nodes.iter().map(|n| n.name.value.as_str()).collect();
+    let positions: Vec<&str> = job
+        .valves
+        .iter()
+        .map(|v| v.position.value.as_str())
+        .collect();
+    let mut nodes: Vec<&str> = job
+        .circuit
+        .nodes
+        .iter()
+        .map(|n| n.name.value.as_str())
+        .collect();
     for set in &job.measurements {
         for n in &set.nodes {
             if !nodes.contains(&n.name.value.as_str()) {
@@ -28,37 +37,41 @@ pub fn cross_references(job: &Job) -> Vec<DecodeError> {
                 DecodeError::error(
                     "job::unknown-position",
                     name.span,
-                    format!("{what} names valve position {}, which the `valves` block does not list", name.value),
+                    format!(
+                        "{what} names valve position {}, which the `valves` block does not list",
+                        name.value
+                    ),
                     "no such valve position",
                 )
                 .with_help(help),
             );
         }
     };
-    let circuits: Vec<&super::model::Circuit> =
-        std::iter::once(&job.circuit).chain(job.measurements.iter().map(|m| &m.circuit_changes)).collect();
+    let circuits: Vec<&super::model::Circuit> = std::iter::once(&job.circuit)
+        .chain(job.measurements.iter().map(|m| &m.circuit_changes))
+        .collect();
     for c in &circuits {
-    for r in &c.cathode_resistors {
-        for v in &r.valves {
-            position(v, &format!("cathode resistor {}", r.reference));
+        for r in &c.cathode_resistors {
+            for v in &r.valves {
+                position(v, &format!("cathode resistor {}", r.reference));
+            }
         }
-    }
-    for r in &c.sense_resistors {
-        position(&r.valve, "a sense resistor");
-    }
-    for r in &c.screen_resistors {
-        position(&r.valve, "a screen resistor");
-    }
-    for h in &c.half_primaries {
-        for v in &h.valves {
-            position(v, "a half-primary resistance");
+        for r in &c.sense_resistors {
+            position(&r.valve, "a sense resistor");
         }
-    }
-    if let Some(rect) = &c.rectifier
-        && let RectifierKind::Valve(p) = &rect.kind
-    {
-        position(p, "the rectifier");
-    }
+        for r in &c.screen_resistors {
+            position(&r.valve, "a screen resistor");
+        }
+        for h in &c.half_primaries {
+            for v in &h.valves {
+                position(v, "a half-primary resistance");
+            }
+        }
+        if let Some(rect) = &c.rectifier
+            && let RectifierKind::Valve(p) = &rect.kind
+        {
+            position(p, "the rectifier");
+        }
     }
     for set in &job.measurements {
         for v in &set.valves {
@@ -67,7 +80,9 @@ pub fn cross_references(job: &Job) -> Vec<DecodeError> {
     }
     for m in &job.mods {
         for f in &m.figures {
-            if let super::model::ModFigure::CathodeBypass { valve, .. } | super::model::ModFigure::StageGain { valve, .. } = f {
+            if let super::model::ModFigure::CathodeBypass { valve, .. }
+            | super::model::ModFigure::StageGain { valve, .. } = f
+            {
                 position(valve, "a mod's figure");
             }
         }
@@ -84,7 +99,10 @@ pub fn cross_references(job: &Job) -> Vec<DecodeError> {
                 DecodeError::error(
                     "job::unknown-node-name",
                     name.span,
-                    format!("{what} names node {}, which is neither declared in `circuit` nor measured", name.value),
+                    format!(
+                        "{what} names node {}, which is neither declared in `circuit` nor measured",
+                        name.value
+                    ),
                     "no such node",
                 )
                 .with_help(help),
@@ -92,16 +110,16 @@ pub fn cross_references(job: &Job) -> Vec<DecodeError> {
         }
     };
     for c in &circuits {
-    for d in &c.droppers {
-        node(&d.from, &format!("dropper {}", d.reference));
-        node(&d.to, &format!("dropper {}", d.reference));
-    }
-    for f in &c.filter_capacitors {
-        node(&f.node, &format!("filter capacitor {}", f.reference));
-    }
-    for s in &c.screen_resistors {
-        node(&s.supply, "a screen resistor");
-    }
+        for d in &c.droppers {
+            node(&d.from, &format!("dropper {}", d.reference));
+            node(&d.to, &format!("dropper {}", d.reference));
+        }
+        for f in &c.filter_capacitors {
+            node(&f.node, &format!("filter capacitor {}", f.reference));
+        }
+        for s in &c.screen_resistors {
+            node(&s.supply, "a screen resistor");
+        }
     }
 
     // Readings far from the job's own nominal mains are suspect.
@@ -121,7 +139,9 @@ pub fn cross_references(job: &Job) -> Vec<DecodeError> {
                     ),
                     "far from nominal",
                 )
-                .with_help("check the reading, or whether the unit ran from a variable autotransformer"),
+                .with_help(
+                    "check the reading, or whether the unit ran from a variable autotransformer",
+                ),
             );
         }
     }

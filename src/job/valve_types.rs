@@ -16,7 +16,10 @@ pub fn check(job: &Job, ratings: &RatingsTable) -> Vec<DecodeError> {
                     out.push(DecodeError::warning(
                         "job::role-mismatch",
                         v.type_name.span,
-                        format!("{} is listed as an output valve, but the ratings table has {} as a {}", v.position.value, rating.name, rating.class),
+                        format!(
+                            "{} is listed as an output valve, but the ratings table has {} as a {}",
+                            v.position.value, rating.name, rating.class
+                        ),
                         "unusual role for this type",
                     ));
                 }
@@ -24,7 +27,10 @@ pub fn check(job: &Job, ratings: &RatingsTable) -> Vec<DecodeError> {
                     out.push(DecodeError::error(
                         "job::role-mismatch",
                         v.type_name.span,
-                        format!("{} is listed as the rectifier, but {} is a {}", v.position.value, rating.name, rating.class),
+                        format!(
+                            "{} is listed as the rectifier, but {} is a {}",
+                            v.position.value, rating.name, rating.class
+                        ),
                         "not a rectifier",
                     ));
                 }
@@ -33,13 +39,19 @@ pub fn check(job: &Job, ratings: &RatingsTable) -> Vec<DecodeError> {
                 let help = if unknown.suggestions.is_empty() {
                     "see `ampreport tubes` for the known types, or add it with a shop ratings file (--ratings FILE)".to_string()
                 } else {
-                    format!("did you mean {}? (`ampreport tubes` lists every type; a shop ratings file can add one)", unknown.suggestions.join(", "))
+                    format!(
+                        "did you mean {}? (`ampreport tubes` lists every type; a shop ratings file can add one)",
+                        unknown.suggestions.join(", ")
+                    )
                 };
                 out.push(
                     DecodeError::error(
                         "job::unknown-valve-type",
                         v.type_name.span,
-                        format!("unknown valve type \"{}\" at {}", v.type_name.value, v.position.value),
+                        format!(
+                            "unknown valve type \"{}\" at {}",
+                            v.type_name.value, v.position.value
+                        ),
                         "not in the ratings table",
                     )
                     .with_help(help),
@@ -47,20 +59,27 @@ pub fn check(job: &Job, ratings: &RatingsTable) -> Vec<DecodeError> {
             }
         }
     }
-    for c in std::iter::once(&job.circuit).chain(job.measurements.iter().map(|m| &m.circuit_changes)) {
+    for c in
+        std::iter::once(&job.circuit).chain(job.measurements.iter().map(|m| &m.circuit_changes))
+    {
         if let Some(rect) = &c.rectifier
             && let RectifierKind::Valve(pos) = &rect.kind
             && let Some(v) = job.valve(&pos.value)
             && let Ok(rating) = ratings.lookup(&v.type_name.value)
             && !rating.class.is_rectifier()
         {
-            out.push(DecodeError::error(
-                "job::not-a-rectifier",
-                pos.span,
-                format!("the rectifier is {} ({}), which is not a rectifier valve", pos.value, rating.name),
-                "not a rectifier",
-            )
-            .with_help("write `rectifier silicon` for a solid-state rectifier"));
+            out.push(
+                DecodeError::error(
+                    "job::not-a-rectifier",
+                    pos.span,
+                    format!(
+                        "the rectifier is {} ({}), which is not a rectifier valve",
+                        pos.value, rating.name
+                    ),
+                    "not a rectifier",
+                )
+                .with_help("write `rectifier silicon` for a solid-state rectifier"),
+            );
         }
     }
     out

@@ -14,7 +14,6 @@ mod tokens;
 #[cfg(test)]
 mod tests;
 
-
 use kdl::{KdlDocument, KdlError};
 
 /// Parses KDL 2.0 text: the fast parser first, the `kdl` crate's parser
@@ -31,9 +30,14 @@ pub fn parse_document(text: &str) -> Result<KdlDocument, KdlError> {
                 diagnostics: vec![kdl::KdlDiagnostic {
                     input: std::sync::Arc::new(text.to_string()),
                     span: miette::SourceSpan::new(offset.into(), 1),
-                    message: Some(format!("child blocks are nested more than {MAX_FALLBACK_DEPTH} levels deep")),
+                    message: Some(format!(
+                        "child blocks are nested more than {MAX_FALLBACK_DEPTH} levels deep"
+                    )),
                     label: Some("too deep".to_string()),
-                    help: Some("a job file nests a few levels at most; check for a run of `{` without `}`".to_string()),
+                    help: Some(
+                        "a job file nests a few levels at most; check for a run of `{` without `}`"
+                            .to_string(),
+                    ),
                     severity: miette::Severity::Error,
                 }],
             }),
@@ -80,10 +84,18 @@ mod depth_tests {
     fn very_deep_input_is_refused_without_recursing() {
         // Unclosed and closed runs of blocks, far deeper than the kdl
         // crate's parser can recurse on a test thread.
-        for text in ["a {".repeat(5000), format!("{}{}", "a {".repeat(5000), "}".repeat(5000))] {
+        for text in [
+            "a {".repeat(5000),
+            format!("{}{}", "a {".repeat(5000), "}".repeat(5000)),
+        ] {
             let err = parse_document(&text).expect_err("refused");
             let d = &err.diagnostics[0];
-            assert!(d.message.as_deref().unwrap_or("").contains("nested more than"));
+            assert!(
+                d.message
+                    .as_deref()
+                    .unwrap_or("")
+                    .contains("nested more than")
+            );
             assert_eq!(d.span.offset(), 3 * MAX_FALLBACK_DEPTH + 2); // the first `{` past the limit
         }
     }

@@ -449,5 +449,11 @@ fn declined_text_gets_the_kdl_crates_diagnostics() {
     let deep = "a {".repeat(depth) + &"}".repeat(depth);
     assert!(declined(&deep));
     let err = parse_document(&deep).unwrap_err();
-    assert!(err.diagnostics[0].message.as_deref().unwrap_or("").contains("nested more than"));
+    assert!(
+        err.diagnostics[0]
+            .message
+            .as_deref()
+            .unwrap_or("")
+            .contains("nested more than")
+    );
 }

@@ -5,7 +5,8 @@ use crate::calc::Findings;
 /// Pretty-printed JSON with a trailing newline.
 pub fn render(findings: &Findings) -> String {
     // Serialising plain data with string keys cannot fail.
-    let mut s = serde_json::to_string_pretty(findings).unwrap_or_else(|e| format!("{{\"error\": \"{e}\"}}"));
+    let mut s = serde_json::to_string_pretty(findings)
+        .unwrap_or_else(|e| format!("{{\"error\": \"{e}\"}}"));
     s.push('\n');
     s
 }

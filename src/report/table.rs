@@ -36,7 +36,12 @@ impl TextTable {
     pub fn render(&self, indent: usize, paint: &dyn Fn(usize, &str) -> String) -> String {
         let cols = self.headers.len();
         let width = |i: usize| {
-            self.rows.iter().map(|r| r.get(i).map(|c| c.chars().count()).unwrap_or(0)).chain([self.headers[i].chars().count()]).max().unwrap_or(0)
+            self.rows
+                .iter()
+                .map(|r| r.get(i).map(|c| c.chars().count()).unwrap_or(0))
+                .chain([self.headers[i].chars().count()])
+                .max()
+                .unwrap_or(0)
         };
         let widths: Vec<usize> = (0..cols).map(width).collect();
         let pad = |text: &str, i: usize| {
@@ -47,10 +52,15 @@ impl TextTable {
             }
         };
         let mut out = String::new();
-        let line = |cells: Vec<String>| format!("{}{}\n", " ".repeat(indent), cells.join("  ").trim_end());
+        let line =
+            |cells: Vec<String>| format!("{}{}\n", " ".repeat(indent), cells.join("  ").trim_end());
         out.push_str(&line((0..cols).map(|i| pad(&self.headers[i], i)).collect()));
         for row in &self.rows {
-            out.push_str(&line((0..cols).map(|i| paint(i, &pad(row.get(i).map(String::as_str).unwrap_or(""), i))).collect()));
+            out.push_str(&line(
+                (0..cols)
+                    .map(|i| paint(i, &pad(row.get(i).map(String::as_str).unwrap_or(""), i)))
+                    .collect(),
+            ));
         }
         out
     }

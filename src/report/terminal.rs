@@ -26,7 +26,11 @@ fn paint(style: &TerminalStyle, status: Status, text: &str) -> String {
 }
 
 fn bold(style: &TerminalStyle, text: &str) -> String {
-    if style.colour { format!("\x1b[1m{text}\x1b[0m") } else { text.to_string() }
+    if style.colour {
+        format!("\x1b[1m{text}\x1b[0m")
+    } else {
+        text.to_string()
+    }
 }
 
 /// The status word as shown in the terminal: upper case when not ok, so it
@@ -57,7 +61,10 @@ fn pct(v: f64) -> String {
 pub fn render(job: &Job, findings: &Findings, style: &TerminalStyle) -> String {
     let mut out = String::new();
     let unit = &job.unit;
-    out.push_str(&bold(style, &format!("Job {}: {} {}", findings.job.id, unit.make, unit.model)));
+    out.push_str(&bold(
+        style,
+        &format!("Job {}: {} {}", findings.job.id, unit.make, unit.model),
+    ));
     if let Some(serial) = &unit.serial {
         out.push_str(&format!(", serial {serial}"));
     }
@@ -68,7 +75,9 @@ pub fn render(job: &Job, findings: &Findings, style: &TerminalStyle) -> String {
         volts(m.nominal_volts),
         volts(m.high_line_volts),
         format_fixed(m.tolerance_pct, 0),
-        m.design_volts.map(|d| format!(", chart drawn at {}", volts(d))).unwrap_or_default()
+        m.design_volts
+            .map(|d| format!(", chart drawn at {}", volts(d)))
+            .unwrap_or_default()
     ));
 
     for set in &findings.sets {
@@ -80,16 +89,34 @@ pub fn render(job: &Job, findings: &Findings, style: &TerminalStyle) -> String {
     if !findings.safety.is_empty() {
         out.push_str(&bold(style, "Safety tests"));
         out.push('\n');
-        let mut t = TextTable::new(&[("test", Align::Left), ("reading", Align::Right), ("limit", Align::Left), ("status", Align::Left)]);
+        let mut t = TextTable::new(&[
+            ("test", Align::Left),
+            ("reading", Align::Right),
+            ("limit", Align::Left),
+            ("status", Align::Left),
+        ]);
         for s in &findings.safety {
-            t.row(vec![s.test.replace('_', " "), s.measured.clone(), s.limit.clone(), if s.passed { "pass".into() } else { "FAIL".into() }]);
+            t.row(vec![
+                s.test.replace('_', " "),
+                s.measured.clone(),
+                s.limit.clone(),
+                if s.passed {
+                    "pass".into()
+                } else {
+                    "FAIL".into()
+                },
+            ]);
         }
         let statuses: Vec<Status> = findings.safety.iter().map(|s| s.verdict.status).collect();
         out.push_str(&render_painted(&t, style, &statuses));
         out.push('\n');
     }
 
-    let figured: Vec<_> = findings.mods.iter().filter(|m| !m.figures.is_empty()).collect();
+    let figured: Vec<_> = findings
+        .mods
+        .iter()
+        .filter(|m| !m.figures.is_empty())
+        .collect();
     if !figured.is_empty() {
         out.push_str(&bold(style, "Modification figures"));
         out.push('\n');
@@ -105,7 +132,10 @@ pub fn render(job: &Job, findings: &Findings, style: &TerminalStyle) -> String {
     if findings.warnings.is_empty() {
         out.push_str("No warnings: every figure is inside its limits.\n");
     } else {
-        out.push_str(&bold(style, &format!("Warnings ({})", findings.warnings.len())));
+        out.push_str(&bold(
+            style,
+            &format!("Warnings ({})", findings.warnings.len()),
+        ));
         out.push('\n');
         for w in &findings.warnings {
             let tag = paint(style, w.status, &format!("[{}]", status_word(w.status)));
@@ -140,10 +170,19 @@ fn render_painted(t: &TextTable, style: &TerminalStyle, statuses: &[Status]) -> 
 
 fn render_set(set: &SetFindings, style: &TerminalStyle) -> String {
     let mut out = String::new();
-    let date = set.date.as_ref().map(|d| format!(", {d}")).unwrap_or_default();
+    let date = set
+        .date
+        .as_ref()
+        .map(|d| format!(", {d}"))
+        .unwrap_or_default();
     out.push_str(&bold(
         style,
-        &format!("── {} (mains {}, factor {:.3} to nominal{date}) ──", set.label, volts(set.mains_volts), set.correction_factor),
+        &format!(
+            "── {} (mains {}, factor {:.3} to nominal{date}) ──",
+            set.label,
+            volts(set.mains_volts),
+            set.correction_factor
+        ),
     ));
     out.push('\n');
 
@@ -174,7 +213,9 @@ fn render_set(set: &SetFindings, style: &TerminalStyle) -> String {
                 opt(v.plate_volts, volts),
                 opt(v.cathode_volts, volts),
                 current,
-                opt(v.plate_dissipation_w, |w| format!("{} W", format_fixed(w, 1))),
+                opt(v.plate_dissipation_w, |w| {
+                    format!("{} W", format_fixed(w, 1))
+                }),
                 opt(v.plate_dissipation_pct, pct),
                 opt(v.high_line_plate_dissipation_pct, pct),
                 status_word(v.status),
@@ -184,12 +225,24 @@ fn render_set(set: &SetFindings, style: &TerminalStyle) -> String {
         out.push_str(&render_painted(&t, style, &statuses));
         for v in &set.valves {
             if let Some(w) = &v.target_window {
-                let mut parts = vec![format!("Ia {}–{}", ma(w.plate_current_low_ma), ma(w.plate_current_high_ma))];
+                let mut parts = vec![format!(
+                    "Ia {}–{}",
+                    ma(w.plate_current_low_ma),
+                    ma(w.plate_current_high_ma)
+                )];
                 if let (Some(a), Some(b)) = (w.sense_low_mv, w.sense_high_mv) {
-                    parts.push(format!("{}–{} mV across the sense resistor", format_fixed(a, 1), format_fixed(b, 1)));
+                    parts.push(format!(
+                        "{}–{} mV across the sense resistor",
+                        format_fixed(a, 1),
+                        format_fixed(b, 1)
+                    ));
                 }
                 if let (Some(a), Some(b)) = (w.primary_drop_low_volts, w.primary_drop_high_volts) {
-                    parts.push(format!("{}–{} V across the half primary", format_fixed(a, 2), format_fixed(b, 2)));
+                    parts.push(format!(
+                        "{}–{} V across the half primary",
+                        format_fixed(a, 2),
+                        format_fixed(b, 2)
+                    ));
                 }
                 out.push_str(&format!(
                     "  {} target window {:.0}–{:.0} %: {}{}\n",
@@ -201,7 +254,11 @@ fn render_set(set: &SetFindings, style: &TerminalStyle) -> String {
                 ));
             }
         }
-        if set.valves.iter().any(|v| v.plate_current_includes_screen && v.plate_current_ma.is_some()) {
+        if set
+            .valves
+            .iter()
+            .any(|v| v.plate_current_includes_screen && v.plate_current_ma.is_some())
+        {
             out.push_str("  Ik: plate current taken as the cathode current, including screen current (conservative).\n");
         }
     }
@@ -230,7 +287,12 @@ fn render_set(set: &SetFindings, style: &TerminalStyle) -> String {
         out.push_str(&render_painted(&t, style, &statuses));
     }
 
-    let resistors: Vec<_> = set.droppers.iter().chain(&set.cathode_resistors).chain(&set.screen_resistors).collect();
+    let resistors: Vec<_> = set
+        .droppers
+        .iter()
+        .chain(&set.cathode_resistors)
+        .chain(&set.screen_resistors)
+        .collect();
     if !resistors.is_empty() || !set.filter_capacitors.is_empty() {
         out.push_str("Stressed parts\n");
         let mut t = TextTable::new(&[

@@ -41,7 +41,11 @@ fn short_fixed(value: f64, decimals: usize) -> String {
     let digits = format!("{:0>width$}", scaled as u64, width = decimals + 1);
     let (whole, fraction) = digits.split_at(digits.len() - decimals);
     let sign = if value < 0.0 && scaled > 0.0 { "-" } else { "" };
-    if decimals == 0 { format!("{sign}{whole}") } else { format!("{sign}{whole}.{fraction}") }
+    if decimals == 0 {
+        format!("{sign}{whole}")
+    } else {
+        format!("{sign}{whole}.{fraction}")
+    }
 }
 
 /// Formats with a fixed number of decimals: (12.43, 1) → "12.4".
@@ -51,7 +55,10 @@ pub fn format_fixed(value: f64, decimals: usize) -> String {
     }
     let s = format!("{value:.decimals$}");
     // Avoid "-0.0".
-    if s.trim_start_matches('-').chars().all(|c| c == '0' || c == '.') {
+    if s.trim_start_matches('-')
+        .chars()
+        .all(|c| c == '0' || c == '.')
+    {
         s.trim_start_matches('-').to_string()
     } else {
         s
@@ -105,7 +112,11 @@ pub fn format_engineering_sig(value: f64, kind: QuantityKind, sig: i32) -> Strin
         let magnitude = rounded.abs().log10().floor() as i32;
         (magnitude.div_euclid(3) * 3).clamp(-12, 12)
     };
-    let prefix = PREFIXES.iter().find(|(e, _)| *e == exp).map(|(_, p)| *p).unwrap_or("");
+    let prefix = PREFIXES
+        .iter()
+        .find(|(e, _)| *e == exp)
+        .map(|(_, p)| *p)
+        .unwrap_or("");
     let scaled = rounded / 10f64.powi(exp);
     format!("{} {prefix}{symbol}", format_sig(scaled, sig))
 }
@@ -150,7 +161,11 @@ mod tests {
             let rounded = round_sig(sign * mantissa * 10f64.powi(exp), sig);
             let magnitude = rounded.abs().log10().floor() as i32;
             let decimals = (sig - 1 - magnitude).max(0) as usize;
-            assert_eq!(short_fixed(rounded, decimals), format!("{rounded:.decimals$}"), "{rounded} at {decimals} decimals");
+            assert_eq!(
+                short_fixed(rounded, decimals),
+                format!("{rounded:.decimals$}"),
+                "{rounded} at {decimals} decimals"
+            );
         }
         assert_eq!(short_fixed(0.0385, 4), "0.0385");
         assert_eq!(short_fixed(-52.0, 0), "-52");

@@ -39,8 +39,15 @@ impl fmt::Display for UnitError {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         match &self.problem {
             UnitProblem::Empty => write!(f, "the value is empty"),
-            UnitProblem::NotANumber => write!(f, "this is not a number with an optional SI prefix or an RKM code"),
-            UnitProblem::WrongUnit { expected, found, symbol } => write!(
+            UnitProblem::NotANumber => write!(
+                f,
+                "this is not a number with an optional SI prefix or an RKM code"
+            ),
+            UnitProblem::WrongUnit {
+                expected,
+                found,
+                symbol,
+            } => write!(
                 f,
                 "\"{symbol}\" is the unit of {found}, but {expected} belongs here"
             ),
@@ -96,7 +103,11 @@ pub fn parse_quantity(text: &str, expected: QuantityKind) -> Result<f64, UnitErr
     let lead = text.len() - text.trim_start().len();
     let body = text.trim();
     if body.is_empty() {
-        return Err(UnitError { problem: UnitProblem::Empty, offset: 0, len: text.len() });
+        return Err(UnitError {
+            problem: UnitProblem::Empty,
+            offset: 0,
+            len: text.len(),
+        });
     }
 
     // 1. A trailing unit symbol, checked against the expected kind.
@@ -126,7 +137,11 @@ pub fn parse_quantity(text: &str, expected: QuantityKind) -> Result<f64, UnitErr
 
     let value = parse_si(number)
         .or_else(|| parse_rkm(number))
-        .ok_or(UnitError { problem: UnitProblem::NotANumber, offset: lead, len: body.len() })?;
+        .ok_or(UnitError {
+            problem: UnitProblem::NotANumber,
+            offset: lead,
+            len: body.len(),
+        })?;
 
     let (value, letter) = value;
     if let Some(letter) = letter {
@@ -146,7 +161,11 @@ pub fn parse_quantity(text: &str, expected: QuantityKind) -> Result<f64, UnitErr
         }
     }
     if !value.is_finite() {
-        return Err(UnitError { problem: UnitProblem::NotFinite, offset: lead, len: body.len() });
+        return Err(UnitError {
+            problem: UnitProblem::NotFinite,
+            offset: lead,
+            len: body.len(),
+        });
     }
     Ok(value)
 }
@@ -184,7 +203,10 @@ fn parse_si(text: &str) -> Option<(f64, Option<char>)> {
     let mut exp_len = 0;
     if let Some(after_e) = rest.strip_prefix(['e', 'E']) {
         let after_sign = after_e.strip_prefix(['+', '-']).unwrap_or(after_e);
-        let exp_digits = after_sign.chars().take_while(|c| c.is_ascii_digit()).count();
+        let exp_digits = after_sign
+            .chars()
+            .take_while(|c| c.is_ascii_digit())
+            .count();
         if exp_digits > 0 {
             exp_len = 1 + (after_e.len() - after_sign.len()) + exp_digits;
         }
@@ -211,7 +233,11 @@ fn parse_rkm(text: &str) -> Option<(f64, Option<char>)> {
     if !frac.chars().all(|c| c.is_ascii_digit()) || (whole.is_empty() && frac.is_empty()) {
         return None;
     }
-    let joined = format!("{}.{}", if whole.is_empty() { "0" } else { whole }, if frac.is_empty() { "0" } else { frac });
+    let joined = format!(
+        "{}.{}",
+        if whole.is_empty() { "0" } else { whole },
+        if frac.is_empty() { "0" } else { frac }
+    );
     let v: f64 = joined.parse().ok()?;
     Some((v * mult, Some(letter)))
 }
@@ -283,14 +309,30 @@ mod tests {
         assert_eq!(e.len, 1);
         assert!(matches!(
             e.problem,
-            UnitProblem::WrongUnit { expected: Voltage, found: Current, .. }
+            UnitProblem::WrongUnit {
+                expected: Voltage,
+                found: Current,
+                ..
+            }
         ));
         assert!(e.to_string().contains("a current"), "{e}");
 
         let e = parse_quantity("22µF", Resistance).unwrap_err();
-        assert!(matches!(e.problem, UnitProblem::WrongUnit { found: Capacitance, .. }));
+        assert!(matches!(
+            e.problem,
+            UnitProblem::WrongUnit {
+                found: Capacitance,
+                ..
+            }
+        ));
         let e = parse_quantity("470R", Voltage).unwrap_err();
-        assert!(matches!(e.problem, UnitProblem::WrongUnit { found: Resistance, .. }));
+        assert!(matches!(
+            e.problem,
+            UnitProblem::WrongUnit {
+                found: Resistance,
+                ..
+            }
+        ));
         let e = parse_quantity("4R7", Voltage).unwrap_err();
         assert!(matches!(e.problem, UnitProblem::RkmOhmsOnly { .. }));
         let e = parse_quantity("5k%", Percent).unwrap_err();
@@ -299,8 +341,14 @@ mod tests {
 
     #[test]
     fn rubbish_is_not_a_number() {
-        for bad in ["", "  ", "abc", "4k7k", "k", "R", "1..2", "4 k 7", "--3", "1e", "nan", "inf", "4x7", "µ"] {
-            assert!(parse_quantity(bad, Resistance).is_err(), "{bad:?} should be rejected");
+        for bad in [
+            "", "  ", "abc", "4k7k", "k", "R", "1..2", "4 k 7", "--3", "1e", "nan", "inf", "4x7",
+            "µ",
+        ] {
+            assert!(
+                parse_quantity(bad, Resistance).is_err(),
+                "{bad:?} should be rejected"
+            );
         }
         assert!(parse_quantity("1e400", Voltage).is_err());
     }

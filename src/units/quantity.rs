@@ -206,7 +206,11 @@ mod tests {
         // I = P/V (textbook): 6 W / 314 V = 19.108 mA.
         assert!(close((Watts(6.0) / Volts(314.0)).0, 0.0191083, 1e-7));
         // Joule's law P = V²/R (textbook): (356 − 334)² / 1 kΩ = 0.484 W.
-        assert!(close((Volts(356.0) - Volts(334.0)).power_in(Ohms(1000.0)).0, 0.484, 1e-12));
+        assert!(close(
+            (Volts(356.0) - Volts(334.0)).power_in(Ohms(1000.0)).0,
+            0.484,
+            1e-12
+        ));
         // Like quantities divide to a plain ratio: 14.562 W / 12 W = 1.2135.
         assert!(close(Watts(14.562) / Watts(12.0), 1.2135, 1e-12));
     }
@@ -216,9 +220,17 @@ mod tests {
         // fc = 1/(2π·R·C) (textbook): 1 MΩ with 22 nF → 1 / (2π × 0.022 s) = 7.2343 Hz.
         assert!(close(rc_corner(Ohms(1e6), Farads(22e-9)).0, 7.23432, 1e-5));
         // A cathode bypass of 25 µF on 1.5 kΩ (textbook formula): 1 / (2π × 0.0375 s) = 4.2441 Hz.
-        assert!(close(rc_corner(Ohms(1500.0), Farads(25e-6)).0, 4.24413, 1e-5));
+        assert!(close(
+            rc_corner(Ohms(1500.0), Farads(25e-6)).0,
+            4.24413,
+            1e-5
+        ));
         // 100 kΩ with 0.022 µF, a common coupling pair: 1 / (2π × 2.2 ms) = 72.343 Hz (textbook formula).
-        assert!(close(rc_corner(Ohms(100e3), Farads(0.022e-6)).0, 72.3432, 1e-4));
+        assert!(close(
+            rc_corner(Ohms(100e3), Farads(0.022e-6)).0,
+            72.3432,
+            1e-4
+        ));
     }
 
     #[test]
