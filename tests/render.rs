@@ -1056,7 +1056,13 @@ fn a_shop_template_folder_overrides_the_built_in_one() {
     std::fs::write(
         templates.join("handover.typ"),
         "{{ font_rules }}\nShop copy for {{ unit.serial }}: {{ sets|length }} sets, {{ glance.overall }}.\n\
-         #image(\"images/mark.svg\", width: 2cm)\n",
+         #image(\"images/mark.svg\", width: 2cm)\n#include \"mains-safety.typ\"\n",
+    )
+    .unwrap();
+    // A shop cannot replace the notice's words: its own copy is ignored.
+    std::fs::write(
+        templates.join("mains-safety.typ"),
+        "A softer notice of the shop's own.\n",
     )
     .unwrap();
     std::fs::write(
@@ -1075,6 +1081,24 @@ fn a_shop_template_folder_overrides_the_built_in_one() {
         text.contains("Shop copy for DU15-04417: 2 sets, caution."),
         "{text}"
     );
+    assert!(
+        text.contains("Local electrical codes come first."),
+        "{text}"
+    );
+    assert!(!text.contains("softer notice"), "{text}");
+
+    // A template that leaves out the notice is refused: status 1, PDF untouched.
+    std::fs::write(
+        templates.join("handover.typ"),
+        "{{ font_rules }}\nShop copy without the notice.\n",
+    )
+    .unwrap();
+    let kept = std::fs::read(&pdf).unwrap();
+    let out = render(&job, &pdf, &["--templates", templates.to_str().unwrap()]);
+    let stderr = String::from_utf8_lossy(&out.stderr);
+    assert_eq!(out.status.code(), Some(1), "{stderr}");
+    assert!(stderr.contains("mains-safety notice"), "{stderr}");
+    assert_eq!(std::fs::read(&pdf).unwrap(), kept);
 
     // A broken shop template is the shop's input: status 1, PDF untouched.
     std::fs::write(
@@ -1093,7 +1117,7 @@ fn a_shop_template_folder_overrides_the_built_in_one() {
     assert_eq!(std::fs::read(&pdf).unwrap(), before);
     std::fs::write(
         templates.join("handover.typ"),
-        "{{ font_rules }}\n#nonexistent()\n",
+        "{{ font_rules }}\n#nonexistent()\n#include \"mains-safety.typ\"\n",
     )
     .unwrap();
     let out = render(&job, &pdf, &["--templates", templates.to_str().unwrap()]);

@@ -41,6 +41,17 @@ pub const MAIN_SOURCE: &str = "main.typ";
 /// `images/` folder (a shop's logo, for instance).
 pub const IMAGES_DIR: &str = "images";
 
+/// The mains-safety notice and the deferral to local electrical codes: put
+/// beside every generated source as built into the program, never taken
+/// from a `--templates` folder, so no template can change its words.
+pub const NOTICE_SOURCE: &str = "mains-safety.typ";
+
+/// The notice's Typst source.
+pub const NOTICE_TEXT: &str = include_str!("../../../templates/mains-safety.typ");
+
+/// The line a template must hold to place the notice.
+pub const NOTICE_INCLUDE: &str = "#include \"mains-safety.typ\"";
+
 /// The built-in templates, for [`TemplateSource::embedded`].
 pub static EMBEDDED_TEMPLATES: &[(&str, &str)] = &[(
     TEMPLATE_NAME,
@@ -155,7 +166,20 @@ pub fn build(
     };
     let context = build_context(input.job, input.findings, &inputs);
     let source = render_template(&context, templates)?;
+    if !source.lines().any(|l| l.trim() == NOTICE_INCLUDE) {
+        return Err(HandoverError::Template {
+            name: TEMPLATE_NAME.to_string(),
+            detail: format!(
+                "the document must carry the mains-safety notice: put the line `{NOTICE_INCLUDE}` in the template"
+            ),
+            from_override: templates
+                .override_dir
+                .as_ref()
+                .is_some_and(|d| d.join(TEMPLATE_NAME).is_file()),
+        });
+    }
     sandbox.insert(MAIN_SOURCE, source)?;
+    sandbox.insert(NOTICE_SOURCE, NOTICE_TEXT)?;
     if let Some(dir) = &templates.override_dir {
         add_shop_images(&mut sandbox, &dir.join(IMAGES_DIR))?;
     }
@@ -303,7 +327,11 @@ mod tests {
             NaiveDate::from_ymd_opt(2026, 11, 9).unwrap()
         );
         let names: Vec<&str> = doc.sandbox.files().map(|(p, _)| p).collect();
-        assert_eq!(names, [MAIN_SOURCE, DISSIPATION_PLOT, SUPPLY_PLOT]);
+        assert_eq!(
+            names,
+            [MAIN_SOURCE, NOTICE_SOURCE, DISSIPATION_PLOT, SUPPLY_PLOT]
+        );
+        assert_eq!(doc.sandbox.get(NOTICE_SOURCE), Some(NOTICE_TEXT.as_bytes()));
     }
 
     #[test]
