@@ -155,6 +155,9 @@ pub struct ValveFindings {
     /// "cathode" or "fixed".
     pub bias: String,
     pub method: Option<CurrentMethod>,
+    /// The other valves sharing the cathode resistor or half primary the
+    /// current was found from (the matched-valve assumption applies).
+    pub current_shared_with: Vec<String>,
     #[serde(serialize_with = "round6_opt")]
     pub plate_volts: Option<f64>,
     #[serde(serialize_with = "round6_opt")]
@@ -242,6 +245,22 @@ pub struct TargetWindow {
     pub probe_high_ma: Option<f64>,
     /// Whether the current is inside the window now.
     pub inside: bool,
+    /// "inside", "above" or "below" the window.
+    pub place: &'static str,
+    /// The sense resistor the millivolt figures are read across, and the
+    /// millivolts it shows now.
+    #[serde(serialize_with = "round6_opt")]
+    pub sense_resistor_ohms: Option<f64>,
+    pub sense_resistor_reference: Option<String>,
+    #[serde(serialize_with = "round6_opt")]
+    pub sense_now_mv: Option<f64>,
+    /// The half primary the drop figures are read across, the other valves
+    /// it feeds, and the drop it shows now.
+    #[serde(serialize_with = "round6_opt")]
+    pub half_primary_ohms: Option<f64>,
+    pub half_primary_shared_with: Vec<String>,
+    #[serde(serialize_with = "round6_opt")]
+    pub primary_drop_now_volts: Option<f64>,
 }
 
 #[derive(Debug, Clone, Serialize)]

@@ -116,6 +116,17 @@ pub(crate) fn analyse(
             BiasKind::Fixed => "fixed".into(),
         },
         method: current.as_ref().map(|c| c.method),
+        current_shared_with: match current.as_ref().map(|c| c.method) {
+            Some(CurrentMethod::SharedCathodeResistor) => circuit
+                .cathode_resistor_for(pos)
+                .map(|r| others(&r.valves, pos))
+                .unwrap_or_default(),
+            Some(CurrentMethod::TransformerResistance) => circuit
+                .half_primary_for(pos)
+                .map(|h| others(&h.valves, pos))
+                .unwrap_or_default(),
+            _ => Vec::new(),
+        },
         plate_volts: va.map(|v| v.0),
         screen_volts: vg2.map(|v| v.0),
         cathode_volts: reading
@@ -205,7 +216,7 @@ pub(crate) fn analyse(
             && let Some(max) = rating.plate_dissipation
             && va.0 > vk.0
         {
-            f.target_window = Some(window(ctx, pos, va, vk, max, c));
+            f.target_window = Some(window(ctx, reading, va, vk, max, c));
         }
     }
 
@@ -494,14 +505,23 @@ fn max_verdict(what: &str, v: Volts, high: Volts, max: Volts, over: f64) -> Verd
     }
 }
 
+/// The other names in `list` than `pos`.
+fn others(list: &[crate::job::Spanned<String>], pos: &str) -> Vec<String> {
+    list.iter()
+        .map(|v| v.value.clone())
+        .filter(|v| v != pos)
+        .collect()
+}
+
 fn window(
     ctx: &ValveContext,
-    pos: &str,
+    reading: &ValveReading,
     va: Volts,
     vk: Volts,
     max: Watts,
     c: &Current,
 ) -> TargetWindow {
+    let pos = reading.position.value.as_str();
     let lo = ctx.settings.fixed_bias_low;
     let hi = ctx.settings.fixed_bias_high;
     let ia_lo = target_current(lo, max, va, vk);
@@ -509,13 +529,15 @@ fn window(
     // A sense resistor or probe carries the cathode current: add the screen
     // current where it is known, so the window matches what the meter shows.
     let ig2 = c.ig2.unwrap_or(Amps(0.0));
-    let sense = ctx.circuit.sense_resistor_for(pos).map(|rs| {
+    let sense_resistor = ctx.circuit.sense_resistor_for(pos);
+    let half = ctx.circuit.half_primary_for(pos);
+    let sense = sense_resistor.map(|rs| {
         (
             (ia_lo + ig2) * rs.value.value,
             (ia_hi + ig2) * rs.value.value,
         )
     });
-    let drop = ctx.circuit.half_primary_for(pos).map(|h| {
+    let drop = half.map(|h| {
         let n = h.valves.len().max(1) as f64;
         (
             ia_lo * h.resistance.value * n,
@@ -534,6 +556,19 @@ fn window(
         probe_low_ma: Some((ia_lo + ig2).0 * 1e3),
         probe_high_ma: Some((ia_hi + ig2).0 * 1e3),
         inside: c.ia.0 >= ia_lo.0 && c.ia.0 <= ia_hi.0,
+        place: if c.ia.0 > ia_hi.0 {
+            "above"
+        } else if c.ia.0 < ia_lo.0 {
+            "below"
+        } else {
+            "inside"
+        },
+        sense_resistor_ohms: sense_resistor.map(|r| r.value.value.0),
+        sense_resistor_reference: sense_resistor.and_then(|r| r.reference.clone()),
+        sense_now_mv: reading.sense.as_ref().map(|s| s.value.0 * 1e3),
+        half_primary_ohms: half.map(|h| h.resistance.value.0),
+        half_primary_shared_with: half.map(|h| others(&h.valves, pos)).unwrap_or_default(),
+        primary_drop_now_volts: reading.primary_drop.as_ref().map(|d| d.value.0),
     }
 }
 

@@ -60,7 +60,7 @@ pub fn run(args: &TubesArgs) -> Exit {
                     origin(r),
                 ]);
             }
-            print!("{}", t.render(0, &|_, s| s.to_string()));
+            print!("{}", t.render(0));
             println!(
                 "\n{} types. I max: cathode current, or a rectifier's DC output current. `ampreport tubes TYPE` shows one with its source note.",
                 table.len()

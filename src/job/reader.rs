@@ -390,19 +390,33 @@ impl<'s> Reader<'s> {
 
     // ----- convenience: required / optional entries -----------------------
 
+    /// Reads `entry` with `read`, or reports that the node lacks `what`.
+    fn required<T>(
+        &mut self,
+        node: &KdlNode,
+        entry: Option<&KdlEntry>,
+        what: &str,
+        example: &str,
+        read: impl FnOnce(&mut Self, &KdlEntry) -> Option<T>,
+    ) -> Option<T> {
+        match entry {
+            Some(e) => read(self, e),
+            None => {
+                self.missing(node, what, example);
+                None
+            }
+        }
+    }
+
     pub fn req_arg_string(
         &mut self,
         node: &KdlNode,
         what: &str,
         example: &str,
     ) -> Option<Spanned<String>> {
-        match Self::arg(node, 0) {
-            Some(e) => self.string(e, what),
-            None => {
-                self.missing(node, what, example);
-                None
-            }
-        }
+        self.required(node, Self::arg(node, 0), what, example, |r, e| {
+            r.string(e, what)
+        })
     }
 
     pub fn req_arg_name(
@@ -411,13 +425,9 @@ impl<'s> Reader<'s> {
         what: &str,
         example: &str,
     ) -> Option<Spanned<String>> {
-        match Self::arg(node, 0) {
-            Some(e) => self.name(e, what),
-            None => {
-                self.missing(node, what, example);
-                None
-            }
-        }
+        self.required(node, Self::arg(node, 0), what, example, |r, e| {
+            r.name(e, what)
+        })
     }
 
     pub fn req_prop_string(
@@ -426,13 +436,10 @@ impl<'s> Reader<'s> {
         key: &str,
         example: &str,
     ) -> Option<Spanned<String>> {
-        match Self::prop(node, key) {
-            Some(e) => self.string(e, &format!("`{key}`")),
-            None => {
-                self.missing(node, &format!("a `{key}` property"), example);
-                None
-            }
-        }
+        let what = format!("a `{key}` property");
+        self.required(node, Self::prop(node, key), &what, example, |r, e| {
+            r.string(e, &format!("`{key}`"))
+        })
     }
 
     pub fn opt_prop_string(&mut self, node: &KdlNode, key: &str) -> Option<String> {
@@ -447,13 +454,10 @@ impl<'s> Reader<'s> {
         key: &str,
         example: &str,
     ) -> Option<Spanned<String>> {
-        match Self::prop(node, key) {
-            Some(e) => self.name(e, &format!("`{key}`")),
-            None => {
-                self.missing(node, &format!("a `{key}` property"), example);
-                None
-            }
-        }
+        let what = format!("a `{key}` property");
+        self.required(node, Self::prop(node, key), &what, example, |r, e| {
+            r.name(e, &format!("`{key}`"))
+        })
     }
 
     pub fn req_prop_quantity(
@@ -463,13 +467,10 @@ impl<'s> Reader<'s> {
         kind: QuantityKind,
         example: &str,
     ) -> Option<Spanned<f64>> {
-        match Self::prop(node, key) {
-            Some(e) => self.quantity(e, kind, &format!("`{key}`")),
-            None => {
-                self.missing(node, &format!("a `{key}` property"), example);
-                None
-            }
-        }
+        let what = format!("a `{key}` property");
+        self.required(node, Self::prop(node, key), &what, example, |r, e| {
+            r.quantity(e, kind, &format!("`{key}`"))
+        })
     }
 
     pub fn opt_prop_quantity(

@@ -533,9 +533,17 @@ fn legend_swatch_bar(
 
 /// Draws the plate-dissipation chart as an SVG document.
 pub fn dissipation_svg(chart: &DissipationChart) -> Result<String, PlotError> {
-    let e = err("plate dissipation");
+    to_svg(chart, "plate dissipation", draw_dissipation)
+}
+
+/// Runs a chart's drawing function into a fresh SVG string.
+fn to_svg<T>(
+    chart: &T,
+    what: &'static str,
+    draw: fn(&T, &mut String) -> Result<(), String>,
+) -> Result<String, PlotError> {
     let mut svg = String::new();
-    draw_dissipation(chart, &mut svg).map_err(&e)?;
+    draw(chart, &mut svg).map_err(err(what))?;
     Ok(svg)
 }
 
@@ -816,10 +824,7 @@ type Reading = (f64, (i32, i32));
 
 /// Draws the supply-chain chart as an SVG document.
 pub fn supply_svg(chart: &SupplyChart) -> Result<String, PlotError> {
-    let e = err("supply chain");
-    let mut svg = String::new();
-    draw_supply(chart, &mut svg).map_err(&e)?;
-    Ok(svg)
+    to_svg(chart, "supply chain", draw_supply)
 }
 
 fn draw_supply(chart: &SupplyChart, svg: &mut String) -> Result<(), String> {

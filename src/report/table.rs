@@ -27,13 +27,26 @@ impl TextTable {
         self.rows.push(cells);
     }
 
+    pub fn columns(&self) -> usize {
+        self.headers.len()
+    }
+
     pub fn is_empty(&self) -> bool {
         self.rows.is_empty()
     }
 
-    /// Renders with `indent` spaces before each line. `paint` may colour a
-    /// cell after padding (so colour codes do not upset the widths).
-    pub fn render(&self, indent: usize, paint: &dyn Fn(usize, &str) -> String) -> String {
+    /// Renders with `indent` spaces before each line.
+    pub fn render(&self, indent: usize) -> String {
+        self.render_with(indent, &|_, _, s| s.to_string())
+    }
+
+    /// As [`TextTable::render`]; `paint(row, column, cell)` may colour a
+    /// body cell after padding (so colour codes do not upset the widths).
+    pub fn render_with(
+        &self,
+        indent: usize,
+        paint: &dyn Fn(usize, usize, &str) -> String,
+    ) -> String {
         let cols = self.headers.len();
         let width = |i: usize| {
             self.rows
@@ -55,10 +68,10 @@ impl TextTable {
         let line =
             |cells: Vec<String>| format!("{}{}\n", " ".repeat(indent), cells.join("  ").trim_end());
         out.push_str(&line((0..cols).map(|i| pad(&self.headers[i], i)).collect()));
-        for row in &self.rows {
+        for (r, row) in self.rows.iter().enumerate() {
             out.push_str(&line(
                 (0..cols)
-                    .map(|i| paint(i, &pad(row.get(i).map(String::as_str).unwrap_or(""), i)))
+                    .map(|i| paint(r, i, &pad(row.get(i).map(String::as_str).unwrap_or(""), i)))
                     .collect(),
             ));
         }

@@ -148,24 +148,13 @@ pub fn render(job: &Job, findings: &Findings, style: &TerminalStyle) -> String {
 
 fn render_painted(t: &TextTable, style: &TerminalStyle, statuses: &[Status]) -> String {
     // Paint the last column (the status word) of each row by its status.
-    let text = t.render(2, &|_, s| s.to_string());
-    let mut lines = text.lines();
-    let mut out = String::new();
-    if let Some(h) = lines.next() {
-        out.push_str(h);
-        out.push('\n');
-    }
-    for (line, status) in lines.zip(statuses) {
-        if style.colour && *status != Status::Ok {
-            let word_start = line.rfind("  ").map(|i| i + 2).unwrap_or(0);
-            out.push_str(&line[..word_start]);
-            out.push_str(&paint(style, *status, &line[word_start..]));
-        } else {
-            out.push_str(line);
+    let last = t.columns().saturating_sub(1);
+    t.render_with(2, &|row, col, cell| match statuses.get(row) {
+        Some(&status) if col == last && style.colour && status != Status::Ok => {
+            paint(style, status, cell.trim_end())
         }
-        out.push('\n');
-    }
-    out
+        _ => cell.to_string(),
+    })
 }
 
 fn render_set(set: &SetFindings, style: &TerminalStyle) -> String {

@@ -14,7 +14,7 @@ use crate::calc::{
     NodeFindings, RectifierFindings, ResistorFindings, SetFindings, Status, ValveFindings,
     resistor_power_words,
 };
-use crate::job::{Job, MeasurementSet, ProtectionClass};
+use crate::job::{Job, ProtectionClass};
 use crate::units::{QuantityKind as Q, format_engineering, format_fixed, format_sig};
 
 /// The footer shows at most this much of the job id (the header has it all).
@@ -598,14 +598,7 @@ pub fn build_context(
     let sets: Vec<SetContext> = findings
         .sets
         .iter()
-        .map(|set| {
-            set_context(
-                job,
-                findings,
-                set,
-                job.measurements.iter().find(|s| s.label == set.label),
-            )
-        })
+        .map(|set| set_context(findings, set))
         .collect();
     HandoverContext {
         document: DocumentInfo {
@@ -701,7 +694,7 @@ pub fn build_context(
                 message: glue_units(&w.message),
             })
             .collect(),
-        method: method(job, findings),
+        method: method(findings),
         footer: Footer {
             job_id: crate::report::plots::label_text(&job.info.id, FOOTER_ID_CHARS),
             tool_version: inputs.tool_version.to_string(),
@@ -756,12 +749,7 @@ fn glance(findings: &Findings) -> Glance {
     }
 }
 
-fn set_context(
-    job: &Job,
-    findings: &Findings,
-    set: &SetFindings,
-    source: Option<&MeasurementSet>,
-) -> SetContext {
+fn set_context(findings: &Findings, set: &SetFindings) -> SetContext {
     let nominal = findings.mains.nominal_volts;
     let date = set
         .date
@@ -777,12 +765,7 @@ fn set_context(
             }
         }
     }
-    let circuit = source.map(|s| job.circuit_for(s));
-    let windows = set
-        .valves
-        .iter()
-        .filter_map(|v| window_row(v, source, circuit.as_deref()))
-        .collect();
+    let windows = set.valves.iter().filter_map(window_row).collect();
     let resistors = set
         .droppers
         .iter()
@@ -886,67 +869,51 @@ fn valve_row(v: &ValveFindings) -> ValveRow {
     }
 }
 
-fn window_row(
-    v: &ValveFindings,
-    source: Option<&MeasurementSet>,
-    circuit: Option<&crate::job::Circuit>,
-) -> Option<WindowRow> {
+fn window_row(v: &ValveFindings) -> Option<WindowRow> {
     let w = v.target_window.as_ref()?;
-    let reading = source.and_then(|s| s.valves.iter().find(|r| r.position.value == v.position));
     let range = |a: f64, b: f64, decimals: usize, unit: &str| {
         format!("{}–{} {unit}", fixed(a, decimals), fixed(b, decimals))
     };
     let mut readings = Vec::new();
     if let (Some(a), Some(b)) = (w.sense_low_mv, w.sense_high_mv) {
-        let resistor = circuit.and_then(|c| c.sense_resistor_for(&v.position));
-        let across = match resistor {
-            Some(r) => {
-                let value = format_engineering(r.value.value.0, Q::Resistance);
-                match &r.reference {
-                    Some(reference) => format!("across the {value} sense resistor {reference}"),
-                    None => format!("across the {value} sense resistor"),
-                }
-            }
-            None => "across the sense resistor".to_string(),
+        let across = match (w.sense_resistor_ohms, &w.sense_resistor_reference) {
+            (Some(ohms), Some(reference)) => format!(
+                "across the {} sense resistor {reference}",
+                format_engineering(ohms, Q::Resistance)
+            ),
+            (Some(ohms), None) => format!(
+                "across the {} sense resistor",
+                format_engineering(ohms, Q::Resistance)
+            ),
+            _ => "across the sense resistor".to_string(),
         };
-        let now = reading
-            .and_then(|r| r.sense.as_ref())
-            .map(|s| format!("{} mV", fixed(s.value.0 * 1000.0, 1)));
         readings.push(WindowReading {
             range: range(a, b, 1, "mV"),
             across,
-            now,
+            now: w.sense_now_mv.map(|mv| format!("{} mV", fixed(mv, 1))),
         });
     }
     if let (Some(a), Some(b)) = (w.primary_drop_low_volts, w.primary_drop_high_volts) {
-        let half = circuit.and_then(|c| c.half_primary_for(&v.position));
-        let across = match half {
-            Some(h) => {
-                let others: Vec<&str> = h
-                    .valves
-                    .iter()
-                    .map(|x| x.value.as_str())
-                    .filter(|p| *p != v.position)
-                    .collect();
-                let value = format_engineering(h.resistance.value.0, Q::Resistance);
-                if others.is_empty() {
+        let across = match w.half_primary_ohms {
+            Some(ohms) => {
+                let value = format_engineering(ohms, Q::Resistance);
+                if w.half_primary_shared_with.is_empty() {
                     format!("across its half primary ({value})")
                 } else {
                     format!(
                         "across its half primary ({value}, shared with {})",
-                        others.join(", ")
+                        w.half_primary_shared_with.join(", ")
                     )
                 }
             }
             None => "across its half primary".to_string(),
         };
-        let now = reading
-            .and_then(|r| r.primary_drop.as_ref())
-            .map(|d| format!("{} V", fixed(d.value.0, 2)));
         readings.push(WindowReading {
             range: range(a, b, 2, "V"),
             across,
-            now,
+            now: w
+                .primary_drop_now_volts
+                .map(|d| format!("{} V", fixed(d, 2))),
         });
     }
     if readings.is_empty()
@@ -959,19 +926,13 @@ fn window_row(
             now,
         });
     }
-    let place = match v.plate_current_ma {
-        _ if w.inside => "inside",
-        Some(i) if i > w.plate_current_high_ma => "above",
-        Some(_) => "below",
-        None => "outside",
-    };
     Some(WindowRow {
         position: v.position.clone(),
         aim: format!("{}–{} %", pct0(w.low_pct), pct0(w.high_pct)),
         plate_current: range(w.plate_current_low_ma, w.plate_current_high_ma, 1, "mA"),
         plate_current_now: v.plate_current_ma.map(|i| format!("{} mA", fixed(i, 1))),
         readings,
-        place: place.to_string(),
+        place: w.place.to_string(),
     })
 }
 
@@ -1146,7 +1107,7 @@ fn safety(job: &Job, findings: &Findings) -> SafetyContext {
     }
 }
 
-fn method(job: &Job, findings: &Findings) -> Method {
+fn method(findings: &Findings) -> Method {
     let s = &findings.settings;
     let valves = || findings.sets.iter().flat_map(|set| set.valves.iter());
     let mut ratings: Vec<RatingRow> = findings
@@ -1173,12 +1134,6 @@ fn method(job: &Job, findings: &Findings) -> Method {
         })
         .collect();
     ratings.sort_by(|a, b| a.name.cmp(&b.name));
-    let shared_half = job.measurements.iter().any(|set| {
-        job.circuit_for(set)
-            .half_primaries
-            .iter()
-            .any(|h| h.valves.len() > 1)
-    });
     Method {
         nominal: volts(findings.mains.nominal_volts),
         tolerance: format!("+{} %", format_sig(findings.mains.tolerance_pct, 3)),
@@ -1197,8 +1152,10 @@ fn method(job: &Job, findings: &Findings) -> Method {
             .any(|v| v.plate_current_includes_screen && v.plate_current_ma.is_some()),
         uses_shared_cathode: valves()
             .any(|v| v.method == Some(CurrentMethod::SharedCathodeResistor)),
-        uses_shared_half_primary: shared_half
-            && valves().any(|v| v.method == Some(CurrentMethod::TransformerResistance)),
+        uses_shared_half_primary: valves().any(|v| {
+            v.method == Some(CurrentMethod::TransformerResistance)
+                && !v.current_shared_with.is_empty()
+        }),
         uses_fixed_bias: valves().any(|v| v.is_output && v.bias == "fixed"),
         uses_cathode_bias: valves().any(|v| v.is_output && v.bias == "cathode"),
         uses_cold_start: findings.sets.iter().any(|set| {
