@@ -7,7 +7,7 @@ use serde::{Serialize, Serializer};
 use super::status::{Status, Verdict};
 
 /// JSON schema version of [`Findings`].
-pub const SCHEMA: u32 = 1;
+pub const SCHEMA: u32 = 2;
 
 /// Rounds a figure for output so float noise does not reach the JSON.
 pub(crate) fn round6<S: Serializer>(v: &f64, s: S) -> Result<S::Ok, S::Error> {
@@ -35,12 +35,16 @@ pub struct Findings {
     pub job: JobSummary,
     pub mains: MainsFigures,
     pub settings: SettingsUsed,
+    /// The label of the set the unit is handed over in (the one marked
+    /// `final`, else the last); the at-a-glance panel and `--strict`
+    /// judge it.
+    pub final_set: Option<String>,
     pub sets: Vec<SetFindings>,
     pub safety: Vec<SafetyFinding>,
     /// Each modification with the circuit figures worked out for it.
     pub mods: Vec<ModFindings>,
-    /// Worst status per check family, for the last measurement set and the
-    /// safety tests.
+    /// Worst status per check family that still counts (not ok and not
+    /// accepted), for the final measurement set and the safety tests.
     pub at_a_glance: Vec<FamilyStatus>,
     /// Every figure that is not ok, and every data problem, in plain sentences.
     pub warnings: Vec<Warning>,
@@ -85,6 +89,8 @@ pub struct SettingsUsed {
 #[derive(Debug, Clone, Serialize)]
 pub struct SetFindings {
     pub label: String,
+    /// The state the unit is handed over in.
+    pub is_final: bool,
     #[serde(serialize_with = "round6")]
     pub mains_volts: f64,
     /// Vn / Vm, the factor applied to voltages for the corrected figures.
@@ -205,7 +211,16 @@ pub struct ValveFindings {
     pub target_window: Option<TargetWindow>,
     /// The worst of `checks`.
     pub status: Status,
+    /// The worst of the checks that still count (not accepted).
+    pub open_status: Status,
     pub checks: Vec<Check>,
+}
+
+impl ValveFindings {
+    /// Works `open_status` out again after checks were accepted.
+    pub(crate) fn refresh_open_status(&mut self) {
+        self.open_status = super::status::worst_open(self.checks.iter().map(|c| &c.verdict));
+    }
 }
 
 /// One named check of a figure against a limit.
@@ -403,21 +418,101 @@ impl Family {
 pub struct FamilyStatus {
     pub family: Family,
     pub title: &'static str,
+    /// The worst status that still counts: accepted findings leave it.
     pub status: Status,
-    /// The worst figure in words, or why there is none.
+    /// The worst figure that still counts in words, or why there is none.
     pub worst: String,
     /// Whether anything in this family was measured.
     pub measured: bool,
+    /// The findings of this family the technician accepted.
+    pub accepted: Vec<AcceptedFinding>,
+}
+
+/// A finding the technician accepted, for summaries.
+#[derive(Debug, Clone, Serialize)]
+pub struct AcceptedFinding {
+    pub subject: String,
+    pub status: Status,
+    pub reason: String,
+    pub accepted_reason: String,
+    pub accepted_by: String,
+    pub accepted_date: String,
 }
 
 #[derive(Debug, Clone, Serialize)]
 pub struct Warning {
     /// The measurement set, or none for job-wide warnings.
     pub set: Option<String>,
-    /// What it is about: "V3", "R24", "B+1", "safety".
+    /// Whether `set` is the final set (the state the unit leaves in).
+    pub in_final_set: bool,
+    /// What it is about: "V3 (EL84)", "R24", "B+1", "safety".
     pub subject: String,
+    /// For a valve, which check (`screen_voltage` …); none otherwise.
+    pub check: Option<&'static str>,
     pub status: Status,
     pub message: String,
+    /// The reason the figure is off, without the subject (for grouping).
+    pub reason: String,
+    /// The deciding figure in a few words ("screen 196 %"); empty for a
+    /// note about the data.
+    pub brief: String,
+    pub accepted: bool,
+    pub accepted_reason: Option<String>,
+    pub accepted_by: Option<String>,
+    pub accepted_date: Option<String>,
+}
+
+impl Warning {
+    /// A warning about the data (not a figure's verdict): never accepted.
+    pub fn note(
+        set: Option<&str>,
+        in_final_set: bool,
+        subject: &str,
+        status: Status,
+        message: String,
+    ) -> Self {
+        Warning {
+            set: set.map(str::to_string),
+            in_final_set,
+            subject: subject.to_string(),
+            check: None,
+            status,
+            reason: message.clone(),
+            brief: String::new(),
+            message,
+            accepted: false,
+            accepted_reason: None,
+            accepted_by: None,
+            accepted_date: None,
+        }
+    }
+
+    /// Not accepted: still counts against the unit.
+    pub fn is_open(&self) -> bool {
+        !self.accepted
+    }
+}
+
+/// Which sets `check --strict` judges.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum StrictScope {
+    /// The final set and the safety tests (the unit as it leaves).
+    Final,
+    /// Every set, as found included.
+    All,
+}
+
+impl Findings {
+    /// The over-limit findings that make `check --strict` fail: not
+    /// accepted, and in the final set (or job-wide, like a failed safety
+    /// test) unless `scope` is [`StrictScope::All`].
+    pub fn strict_failures(&self, scope: StrictScope) -> Vec<&Warning> {
+        self.warnings
+            .iter()
+            .filter(|w| w.status == Status::Over && w.is_open())
+            .filter(|w| scope == StrictScope::All || w.set.is_none() || w.in_final_set)
+            .collect()
+    }
 }
 
 #[derive(Debug, Clone, Serialize)]

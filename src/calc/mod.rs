@@ -1,6 +1,8 @@
 //! The calculation pass: pure functions from a [`Job`], the ratings table
 //! and the job's settings to [`Findings`]. No I/O, no page formatting.
 
+mod accept;
+pub mod brief;
 mod circuit;
 mod findings;
 mod mains;
@@ -34,7 +36,10 @@ pub fn derive(job: &Job, ratings: &RatingsTable) -> Findings {
     let settings = &job.settings;
     let mut warnings = Vec::new();
     let mut sets = Vec::new();
-    for set in &job.measurements {
+    let final_index = job.final_set_index();
+    let mut matched = vec![false; job.acceptances.len()];
+    for (index, set) in job.measurements.iter().enumerate() {
+        let is_final = Some(index) == final_index;
         let circuit = job.circuit_for(set);
         let mut notes = Vec::new();
         let ctx = valve::ValveContext {
@@ -64,8 +69,9 @@ pub fn derive(job: &Job, ratings: &RatingsTable) -> Findings {
         let filter_capacitors = supply::capacitors(job, set, &circuit, settings, ratings);
         let heaters = supply::heaters(job, set, settings);
         let rectifier = supply::rectifier(job, &circuit, &valves, ratings);
-        let found = SetFindings {
+        let mut found = SetFindings {
             label: set.label.clone(),
+            is_final,
             mains_volts: set.mains.value.0,
             correction_factor: job.mains.nominal.value / set.mains.value,
             date: set.date.map(|d| d.to_string()),
@@ -78,47 +84,73 @@ pub fn derive(job: &Job, ratings: &RatingsTable) -> Findings {
             rectifier,
             heaters,
         };
+        brief::fill_set(
+            &mut found,
+            settings.resistor_derating,
+            job.mains.tolerance.value,
+        );
+        accept::apply_to_set(&job.acceptances, &mut found, &mut matched);
         warnings.extend(set_warnings(&found));
         for n in notes {
             let subject = n.split(':').next().unwrap_or("").to_string();
-            warnings.push(Warning {
-                set: Some(set.label.clone()),
-                subject,
-                status: Status::Caution,
-                message: n,
-            });
+            warnings.push(Warning::note(
+                Some(&set.label),
+                is_final,
+                &subject,
+                Status::Caution,
+                n,
+            ));
         }
         sets.push(found);
     }
-    let safety = job
+    let mut safety = job
         .safety
         .as_ref()
         .map(safety::findings)
         .unwrap_or_default();
+    brief::fill_safety(&mut safety);
+    accept::apply_to_safety(&job.acceptances, &mut safety, &mut matched);
     for s in &safety {
         if s.verdict.status != Status::Ok {
-            warnings.push(Warning {
-                set: None,
-                subject: "safety".into(),
-                status: s.verdict.status,
-                message: sentence(&s.verdict.reason),
-            });
+            warnings.push(verdict_warning(
+                None,
+                false,
+                "safety",
+                None,
+                &s.verdict,
+                sentence(&s.verdict.reason),
+            ));
         }
     }
+    for (a, _) in job.acceptances.iter().zip(&matched).filter(|(_, m)| !**m) {
+        warnings.push(Warning::note(
+            a.set.as_ref().map(|s| s.value.as_str()),
+            false,
+            "sign-off",
+            Status::Caution,
+            sentence(&format!(
+                "the acceptance of {} matches no figure outside its limits, so it accepts nothing",
+                accept::words(a)
+            )),
+        ));
+    }
     if job.measurements.is_empty() {
-        warnings.push(Warning {
-            set: None,
-            subject: "job".into(),
-            status: Status::Caution,
-            message: "The job has no measurement sets, so no figures could be derived.".into(),
-        });
+        warnings.push(Warning::note(
+            None,
+            false,
+            "job",
+            Status::Caution,
+            "The job has no measurement sets, so no figures could be derived.".into(),
+        ));
     }
     let mods = job
         .mods
         .iter()
         .map(|m| mod_findings(m, job, ratings, &mut warnings))
         .collect();
-    let at_a_glance = glance(sets.last(), &safety, job.safety.is_some());
+    let final_set = final_index.and_then(|i| sets.get(i));
+    let at_a_glance = glance(final_set, &safety, job.safety.is_some());
+    let final_set = final_set.map(|s| s.label.clone());
     Findings {
         schema: SCHEMA,
         job: JobSummary {
@@ -144,6 +176,7 @@ pub fn derive(job: &Job, ratings: &RatingsTable) -> Findings {
             silicon_drop_volts: settings.silicon_drop.0,
             voltage_over_pct: settings.voltage_over * 100.0,
         },
+        final_set,
         sets,
         safety,
         mods,
@@ -166,25 +199,56 @@ fn sentence(s: &str) -> String {
     out
 }
 
+/// A warning for a figure's verdict, carrying its acceptance.
+fn verdict_warning(
+    set: Option<&SetFindings>,
+    in_final_set: bool,
+    subject: &str,
+    check: Option<&'static str>,
+    verdict: &Verdict,
+    message: String,
+) -> Warning {
+    Warning {
+        set: set.map(|s| s.label.clone()),
+        in_final_set,
+        subject: subject.to_string(),
+        check,
+        status: verdict.status,
+        message,
+        reason: sentence(&verdict.reason),
+        brief: verdict.brief.clone(),
+        accepted: verdict.accepted,
+        accepted_reason: verdict.accepted_reason.clone(),
+        accepted_by: verdict.accepted_by.clone(),
+        accepted_date: verdict.accepted_date.clone(),
+    }
+}
+
 fn set_warnings(set: &SetFindings) -> Vec<Warning> {
     let mut out = Vec::new();
-    let mut push = |subject: &str, verdict: &Verdict| {
+    let mut push = |subject: &str, check: Option<&'static str>, verdict: &Verdict| {
         if verdict.status != Status::Ok {
-            out.push(Warning {
-                set: Some(set.label.clone()),
-                subject: subject.to_string(),
-                status: verdict.status,
-                message: sentence(&format!("{subject}: {}", verdict.reason)),
-            });
+            out.push(verdict_warning(
+                Some(set),
+                set.is_final,
+                subject,
+                check,
+                verdict,
+                sentence(&format!("{subject}: {}", verdict.reason)),
+            ));
         }
     };
     for v in &set.valves {
         for c in &v.checks {
-            push(&format!("{} ({})", v.position, v.valve_type), &c.verdict);
+            push(
+                &format!("{} ({})", v.position, v.valve_type),
+                Some(c.check),
+                &c.verdict,
+            );
         }
     }
     for n in &set.nodes {
-        push(&n.name, &n.verdict);
+        push(&n.name, None, &n.verdict);
     }
     for r in set
         .droppers
@@ -192,16 +256,24 @@ fn set_warnings(set: &SetFindings) -> Vec<Warning> {
         .chain(&set.cathode_resistors)
         .chain(&set.screen_resistors)
     {
-        push(&r.reference, &r.verdict);
+        push(&r.reference, None, &r.verdict);
     }
     for c in &set.filter_capacitors {
-        push(&c.reference, &c.verdict);
+        push(&c.reference, None, &c.verdict);
     }
     if let Some(r) = &set.rectifier {
-        push(&format!("{} ({})", r.position, r.valve_type), &r.verdict);
+        push(
+            &format!("{} ({})", r.position, r.valve_type),
+            Some("rectifier_load"),
+            &r.verdict,
+        );
     }
     for h in &set.heaters {
-        push("heater", &h.verdict);
+        let subject = match &h.label {
+            Some(l) => format!("heater {l}"),
+            None => "heater".to_string(),
+        };
+        push(&subject, None, &h.verdict);
     }
     out
 }
@@ -224,9 +296,17 @@ fn glance(
                 .iter()
                 .filter(|v| v.is_output)
                 .flat_map(|v| {
-                    v.checks
-                        .iter()
-                        .map(move |c| (format!("{} ({})", v.position, v.valve_type), &c.verdict))
+                    v.checks.iter().map(move |c| {
+                        (
+                            format!(
+                                "{} ({}) {}",
+                                v.position,
+                                v.valve_type,
+                                c.check.replace('_', " ")
+                            ),
+                            &c.verdict,
+                        )
+                    })
                 })
                 .collect(),
             (Family::SupplyVoltages, Some(set)) => set
@@ -257,22 +337,39 @@ fn glance(
                 .map(|h| ("heater".to_string(), &h.verdict))
                 .collect(),
         };
-        let worst = verdicts
+        let accepted: Vec<AcceptedFinding> = verdicts
             .iter()
-            .fold(None, |best: Option<&(String, &Verdict)>, item| {
+            .filter(|(_, v)| v.accepted)
+            .map(|(subject, v)| AcceptedFinding {
+                subject: subject.clone(),
+                status: v.status,
+                reason: v.reason.clone(),
+                accepted_reason: v.accepted_reason.clone().unwrap_or_default(),
+                accepted_by: v.accepted_by.clone().unwrap_or_default(),
+                accepted_date: v.accepted_date.clone().unwrap_or_default(),
+            })
+            .collect();
+        // The worst figure that still counts: accepted ones are left out.
+        let worst = verdicts.iter().filter(|(_, v)| !v.accepted).fold(
+            None,
+            |best: Option<&(String, &Verdict)>, item| {
                 if best.is_none_or(|b| item.1.status.rank() > b.1.status.rank()) {
                     Some(item)
                 } else {
                     best
                 }
-            });
+            },
+        );
         let (status, words, measured) = match worst {
-            Some((_, v)) if v.status == Status::Ok => (
+            Some((subject, v)) if v.status != Status::Ok => {
+                (v.status, format!("{subject}: {}", v.reason), true)
+            }
+            _ if !accepted.is_empty() => (Status::Ok, accepted_words(&accepted), true),
+            Some((_, v)) => (
                 Status::Ok,
                 ok_summary(family, last, safety).unwrap_or_else(|| v.reason.clone()),
                 true,
             ),
-            Some((subject, v)) => (v.status, format!("{subject}: {}", v.reason), true),
             None if family == Family::SafetyTests && !has_safety => (
                 Status::Caution,
                 "no safety tests recorded".to_string(),
@@ -286,9 +383,30 @@ fn glance(
             status,
             worst: words,
             measured,
+            accepted,
         });
     }
     out
+}
+
+/// The accepted findings of a family in words, grouped by their reason:
+/// "accepted: V3 (6V6GT) screen voltage, V4 (6V6GT) screen voltage (factory
+/// design)".
+fn accepted_words(accepted: &[AcceptedFinding]) -> String {
+    let mut groups: Vec<(&str, Vec<&str>)> = Vec::new();
+    for a in accepted {
+        match groups.iter_mut().find(|(r, _)| *r == a.accepted_reason) {
+            Some((_, subjects)) => subjects.push(&a.subject),
+            None => groups.push((&a.accepted_reason, vec![&a.subject])),
+        }
+    }
+    let parts: Vec<String> = groups
+        .iter()
+        .map(|(reason, subjects)| {
+            format!("{} ({})", subjects.join(", "), reason.trim_end_matches('.'))
+        })
+        .collect();
+    format!("accepted by the technician: {}", parts.join("; "))
 }
 
 /// When a whole family is ok, the figure nearest its limit, in words.
@@ -443,12 +561,13 @@ fn mod_findings(
         match (r.mu, r.plate_resistance) {
             (Some(mu), Some(ra)) => Some((mu, ra, r.name.clone())),
             _ => {
-                warnings.push(Warning {
-                    set: None,
-                    subject: pos.to_string(),
-                    status: Status::Caution,
-                    message: format!("{pos} ({}): the ratings table gives no typical μ and ra, so the mod's stage figure is left out.", r.name),
-                });
+                warnings.push(Warning::note(
+                    None,
+                    false,
+                    pos,
+                    Status::Caution,
+                    format!("{pos} ({}): the ratings table gives no typical μ and ra, so the mod's stage figure is left out.", r.name),
+                ));
                 None
             }
         }

@@ -158,6 +158,7 @@ pub(crate) fn analyse(
         cathode_current_pct: None,
         target_window: None,
         status: Status::Ok,
+        open_status: Status::Ok,
         checks: Vec::new(),
     };
 
@@ -323,6 +324,7 @@ pub(crate) fn analyse(
         .map(|v| v.status)
         .unwrap_or(Status::Ok);
     f.checks = checks;
+    f.refresh_open_status();
     f
 }
 

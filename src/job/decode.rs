@@ -31,6 +31,7 @@ pub const TOP_LEVEL: &[&str] = &[
     "safety",
     "notes",
     "settings",
+    "accepted",
 ];
 
 /// The only top-level node that may appear more than once.
@@ -60,6 +61,20 @@ pub const SETTINGS: &[&str] = &[
     "silicon-drop",
     "voltage-over",
 ];
+
+/// The checks of a valve an acceptance may name, as written in a job file.
+pub const VALVE_CHECKS: &[&str] = &[
+    "plate-dissipation",
+    "plate-dissipation-high-line",
+    "screen-dissipation",
+    "plate-voltage",
+    "screen-voltage",
+    "cathode-current",
+    "rectifier-load",
+];
+
+/// The safety tests, as written in a job file.
+pub const SAFETY_TESTS: &[&str] = &["earth-continuity", "insulation", "leakage"];
 
 /// Decodes job text whose KDL syntax has already parsed.
 pub(crate) fn decode_document(doc: &KdlDocument, source_name: &str, r: &mut Reader) -> Option<Job> {
@@ -189,6 +204,22 @@ pub(crate) fn decode_document(doc: &KdlDocument, source_name: &str, r: &mut Read
     let mut labels = std::collections::HashSet::new();
     for node in nodes.iter().filter(|n| n.name().value() == "measurements") {
         if let Some(set) = decode_measurements(node, r) {
+            if set.is_final && measurements.iter().any(|m: &MeasurementSet| m.is_final) {
+                let at = Reader::prop(node, "final")
+                    .map(|e| e.span())
+                    .unwrap_or_else(|| Reader::name_span(node));
+                r.push(
+                    DecodeError::error(
+                        "job::two-final-sets",
+                        at,
+                        "more than one measurement set is marked `final`",
+                        "a second final set",
+                    )
+                    .with_help(
+                        "the final set is the state the unit is handed over in: mark only one",
+                    ),
+                );
+            }
             if !labels.insert(set.label.clone()) {
                 r.push(DecodeError::error(
                     "job::repeated-set",
@@ -211,6 +242,10 @@ pub(crate) fn decode_document(doc: &KdlDocument, source_name: &str, r: &mut Read
     let settings = first("settings")
         .map(|n| decode_settings(n, r))
         .unwrap_or_default();
+    let acceptances = match (first("accepted"), &info) {
+        (Some(node), Some(info)) => decode_accepted(node, info, r),
+        _ => Vec::new(),
+    };
 
     let job = Job {
         source_name: source_name.to_string(),
@@ -230,6 +265,7 @@ pub(crate) fn decode_document(doc: &KdlDocument, source_name: &str, r: &mut Read
         safety,
         notes,
         settings,
+        acceptances,
     };
     Some(job)
 }
@@ -690,7 +726,8 @@ fn decode_circuit(node: &KdlNode, r: &mut Reader) -> Circuit {
 }
 
 fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet> {
-    r.check_entries(node, &["mains", "date"], 1);
+    r.check_entries(node, &["mains", "date", "final"], 1);
+    let is_final = r.opt_prop_bool(node, "final").unwrap_or(false);
     let example = "measurements \"as found\" mains=\"121V\"";
     let label = r.req_arg_string(node, "a label such as \"as found\"", example);
     let mains = r.req_prop_quantity(node, "mains", Q::Voltage, example);
@@ -880,6 +917,7 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
     let mains = mains?;
     Some(MeasurementSet {
         label: label?.value,
+        is_final,
         mains: Spanned::new(Volts(mains.value), mains.span),
         date: date.map(|d| d.value),
         nodes,
@@ -1114,6 +1152,142 @@ fn decode_safety(node: &KdlNode, r: &mut Reader) -> Option<Safety> {
         }
     }
     Some(Safety { class, tests })
+}
+
+/// The `accepted` block: findings the technician has judged and accepted,
+/// each with a reason; `by=` and `date=` default to the block's, then to
+/// the job's technician and completion date.
+fn decode_accepted(node: &KdlNode, info: &JobInfo, r: &mut Reader) -> Vec<Acceptance> {
+    r.check_entries(node, &["by", "date"], 0);
+    let block_by = r
+        .opt_prop_string(node, "by")
+        .or_else(|| info.technician.clone());
+    let block_date = r
+        .opt_prop_date(node, "date")
+        .map(|d| d.value)
+        .or(info.completed);
+    let mut out = Vec::new();
+    for child in r.children(node.children(), &AcceptedKind::NAMES, "`accepted`") {
+        r.no_children(child);
+        let Some(kind) = AcceptedKind::from_name(child.name().value()) else {
+            continue;
+        };
+        let (props, args): (&[&str], usize) = match kind {
+            AcceptedKind::Valve => (&["check", "set", "reason", "by", "date"], 1),
+            AcceptedKind::Heater => (&["label", "set", "reason", "by", "date"], 0),
+            AcceptedKind::Safety => (&["reason", "by", "date"], 1),
+            _ => (&["set", "reason", "by", "date"], 1),
+        };
+        r.check_entries(child, props, args);
+        let example = match kind {
+            AcceptedKind::Valve => "valve V3 check=screen-voltage reason=\"factory design\"",
+            AcceptedKind::Node => "node B+1 reason=\"…\"",
+            AcceptedKind::Part => "part C10 reason=\"…\"",
+            AcceptedKind::Heater => "heater reason=\"…\"",
+            AcceptedKind::Safety => "safety leakage reason=\"…\"",
+        };
+        let name = match kind {
+            AcceptedKind::Heater => r.opt_prop_string(child, "label").map(|l| {
+                let span = Reader::prop(child, "label")
+                    .map(|e| r.value_span(e))
+                    .unwrap_or_else(|| Reader::name_span(child));
+                Spanned::new(l, span)
+            }),
+            AcceptedKind::Safety => {
+                let n = r.req_arg_name(child, "the safety test's name", example);
+                match n {
+                    Some(n) if !SAFETY_TESTS.contains(&n.value.as_str()) => {
+                        r.push(
+                            DecodeError::error(
+                                "job::unknown-safety-test",
+                                n.span,
+                                format!("unknown safety test `{}`", n.value),
+                                "not a safety test",
+                            )
+                            .with_help(suggestion_help(&n.value, SAFETY_TESTS)),
+                        );
+                        None
+                    }
+                    other => other,
+                }
+            }
+            AcceptedKind::Valve => r.req_arg_name(child, "a valve position", example),
+            AcceptedKind::Node => r.req_arg_name(child, "a node name", example),
+            AcceptedKind::Part => r.req_arg_name(child, "a part reference", example),
+        };
+        let check = Reader::prop(child, "check").and_then(|e| r.name(e, "`check`"));
+        if let Some(c) = &check
+            && !VALVE_CHECKS.contains(&c.value.as_str())
+        {
+            r.push(
+                DecodeError::error(
+                    "job::unknown-check",
+                    c.span,
+                    format!("unknown valve check `{}`", c.value),
+                    "not a check",
+                )
+                .with_help(suggestion_help(&c.value, VALVE_CHECKS)),
+            );
+        }
+        let set = Reader::prop(child, "set").and_then(|e| r.string(e, "`set`"));
+        let reason = r.req_prop_string(child, "reason", example);
+        if let Some(reason) = &reason
+            && reason.value.trim().is_empty()
+        {
+            r.push(
+                DecodeError::error(
+                    "job::empty-reason",
+                    reason.span,
+                    "an acceptance needs its reason in words",
+                    "empty reason",
+                )
+                .with_help("say why the figure is acceptable, for example \"factory design\""),
+            );
+        }
+        let by = r.opt_prop_string(child, "by").or_else(|| block_by.clone());
+        let date = r
+            .opt_prop_date(child, "date")
+            .map(|d| d.value)
+            .or(block_date);
+        if by.is_none() {
+            r.push(
+                DecodeError::error(
+                    "job::missing",
+                    Reader::name_span(child),
+                    "an acceptance needs the name of the technician who accepted it",
+                    "who accepted this?",
+                )
+                .with_help(
+                    "write `by=\"…\"` here or on `accepted`, or give the job a `technician=`",
+                ),
+            );
+        }
+        if date.is_none() {
+            r.push(
+                DecodeError::error(
+                    "job::missing",
+                    Reader::name_span(child),
+                    "an acceptance needs the date it was accepted",
+                    "when was this accepted?",
+                )
+                .with_help("write `date=\"YYYY-MM-DD\"` here or on `accepted`, or give the job a `completed=` date"),
+            );
+        }
+        let name_ok = name.is_some() || kind == AcceptedKind::Heater;
+        if let (true, Some(reason), Some(by), Some(date)) = (name_ok, reason, by, date) {
+            out.push(Acceptance {
+                kind,
+                name,
+                check: check.filter(|c| VALVE_CHECKS.contains(&c.value.as_str())),
+                set,
+                reason: reason.value.trim().to_string(),
+                by,
+                date,
+                span: child.span(),
+            });
+        }
+    }
+    out
 }
 
 fn decode_notes(node: &KdlNode, r: &mut Reader) -> Vec<String> {

@@ -50,6 +50,9 @@ pub struct Job {
     pub safety: Option<Safety>,
     pub notes: Vec<String>,
     pub settings: Settings,
+    /// The technician's judgement: findings accepted as they are, each
+    /// with its reason, name and date.
+    pub acceptances: Vec<Acceptance>,
 }
 
 impl Job {
@@ -65,6 +68,15 @@ impl Job {
         } else {
             std::borrow::Cow::Owned(self.circuit.with_changes(&set.circuit_changes))
         }
+    }
+
+    /// The index of the set the unit is handed over in: the one marked
+    /// `final`, else the last.
+    pub fn final_set_index(&self) -> Option<usize> {
+        self.measurements
+            .iter()
+            .position(|m| m.is_final)
+            .or_else(|| self.measurements.len().checked_sub(1))
     }
 
     /// The circuit's declaration of a B+ node, if there is one.
@@ -390,6 +402,8 @@ pub struct Rectifier {
 #[derive(Debug, Clone, Serialize)]
 pub struct MeasurementSet {
     pub label: String,
+    /// Marked `final=#true`: the state the unit is handed over in.
+    pub is_final: bool,
     pub mains: Spanned<Volts>,
     pub date: Option<NaiveDate>,
     pub nodes: Vec<NodeReading>,
@@ -526,6 +540,69 @@ pub enum SafetyTest {
     },
     /// Leakage (touch) current; passes at or below the limit.
     Leakage { measured: Amps, limit: Amps },
+}
+
+/// What kind of thing an acceptance names.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[serde(rename_all = "snake_case")]
+pub enum AcceptedKind {
+    /// A valve position: its checks, or (for a valve rectifier) its load.
+    Valve,
+    /// A B+ node against the chart.
+    Node,
+    /// A resistor or capacitor by its circuit reference.
+    Part,
+    /// The heater supply (all heater readings, or the one with a label).
+    Heater,
+    /// A safety test by its name.
+    Safety,
+}
+
+impl AcceptedKind {
+    /// The child-node names of the `accepted` block.
+    pub const NAMES: [&'static str; 5] = ["valve", "node", "part", "heater", "safety"];
+
+    pub fn from_name(name: &str) -> Option<AcceptedKind> {
+        Some(match name {
+            "valve" => AcceptedKind::Valve,
+            "node" => AcceptedKind::Node,
+            "part" => AcceptedKind::Part,
+            "heater" => AcceptedKind::Heater,
+            "safety" => AcceptedKind::Safety,
+            _ => return None,
+        })
+    }
+}
+
+/// A finding the technician has judged and accepted as it is: it keeps its
+/// figures and its status, but no longer counts against the unit.
+#[derive(Debug, Clone, Serialize)]
+pub struct Acceptance {
+    pub kind: AcceptedKind,
+    /// The valve position, node, part reference, heater label or safety
+    /// test; none for "every heater".
+    pub name: Option<Spanned<String>>,
+    /// One named check of a valve (`screen-voltage`); none for all.
+    pub check: Option<Spanned<String>>,
+    /// The measurement set it applies to; none for every set.
+    pub set: Option<Spanned<String>>,
+    pub reason: String,
+    /// Who accepted it.
+    pub by: String,
+    pub date: NaiveDate,
+    #[serde(skip)]
+    pub span: SourceSpan,
+}
+
+impl SafetyTest {
+    /// The test's name as written in a job file.
+    pub fn name(&self) -> &'static str {
+        match self {
+            SafetyTest::EarthContinuity { .. } => "earth-continuity",
+            SafetyTest::Insulation { .. } => "insulation",
+            SafetyTest::Leakage { .. } => "leakage",
+        }
+    }
 }
 
 /// The guide bands and margins, with the documented defaults; a job may

@@ -1,9 +1,11 @@
 //! Presenting findings: one module per output kind. Reports decide nothing:
 //! every status comes from [`crate::calc`].
 
+pub mod attention;
 pub mod handover;
 pub mod json;
 pub mod plots;
+pub mod summary;
 mod table;
 pub mod terminal;
 

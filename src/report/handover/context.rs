@@ -15,6 +15,8 @@ use crate::calc::{
     resistor_power_words,
 };
 use crate::job::{Job, ProtectionClass};
+use crate::report::attention::{self, Attention};
+use crate::report::summary::Summary;
 use crate::units::{QuantityKind as Q, format_engineering, format_fixed, format_sig};
 
 /// The footer shows at most this much of the job id (the header has it all).
@@ -51,7 +53,13 @@ pub struct HandoverContext {
     pub unit: UnitInfo,
     pub customer: Option<CustomerInfo>,
     pub mains: MainsInfo,
+    /// What was wrong, what was done and the state now, in plain words.
+    pub summary: SummaryContext,
     pub glance: Glance,
+    /// What needs attention, grouped: the final set's open findings, the
+    /// accepted ones, job-wide ones, then one line per part or valve for
+    /// each earlier set.
+    pub attention: AttentionContext,
     pub complaint: Option<String>,
     pub findings: Option<String>,
     pub work: Option<String>,
@@ -62,8 +70,6 @@ pub struct HandoverContext {
     pub sets: Vec<SetContext>,
     pub plots: Plots,
     pub safety: SafetyContext,
-    /// Warnings that belong to no measurement set.
-    pub job_warnings: Vec<WarningRow>,
     pub method: Method,
     pub footer: Footer,
 }
@@ -126,10 +132,71 @@ pub struct Glance {
 #[derive(Debug, Clone, Serialize)]
 pub struct GlanceRow {
     pub title: String,
-    /// ok, cold, caution, over, or none when nothing was measured.
+    /// ok, cold, caution, over, accepted (every figure off its limit was
+    /// accepted), or none when nothing was measured.
     pub status: String,
-    /// The worst figure in words.
+    /// The worst figure that still counts in words, or what was accepted.
     pub worst: String,
+}
+
+/// The plain-words summary at the head of page 1.
+#[derive(Debug, Clone, Serialize)]
+pub struct SummaryContext {
+    /// What the first readings showed.
+    pub found: Vec<String>,
+    /// What was done.
+    pub done: Vec<String>,
+    /// The state the unit leaves in.
+    pub now: Vec<String>,
+    /// True when nothing still counts against the unit.
+    pub healthy: bool,
+}
+
+/// What needs attention, grouped.
+#[derive(Debug, Clone, Serialize)]
+pub struct AttentionContext {
+    /// The final set's label.
+    pub final_label: Option<String>,
+    /// Open findings of the final set, one entry per part or valve.
+    pub open: Vec<EntryRow>,
+    /// Findings the technician accepted.
+    pub accepted: Vec<AcceptedRow>,
+    /// Findings of no set (safety tests, the sign-off, the data).
+    pub job_wide: Vec<EntryRow>,
+    /// Earlier sets: what was found, one line per part or valve.
+    pub history: Vec<HistoryRow>,
+}
+
+/// One part or valve and what is wrong with it.
+#[derive(Debug, Clone, Serialize)]
+pub struct EntryRow {
+    pub subject: String,
+    pub status: String,
+    /// Sentences (final set) or short figures (earlier sets), joined.
+    pub text: String,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct AcceptedRow {
+    /// "V3 (6V6GT) screen voltage".
+    pub subject: String,
+    /// The status the figure keeps.
+    pub status: String,
+    /// The deciding figure: "Vg2 111 % of max".
+    pub figure: String,
+    /// Why it is off its limit.
+    pub reason: String,
+    /// Why the technician accepted it.
+    pub accepted_reason: String,
+    pub by: String,
+    /// In words.
+    pub date: String,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct HistoryRow {
+    pub label: String,
+    pub entries: Vec<EntryRow>,
 }
 
 #[derive(Debug, Clone, Serialize)]
@@ -179,6 +246,8 @@ pub struct ModFigureRow {
 #[derive(Debug, Clone, Serialize)]
 pub struct SetContext {
     pub label: String,
+    /// The state the unit is handed over in.
+    pub is_final: bool,
     pub date: Option<String>,
     /// "124 V".
     pub mains: String,
@@ -197,7 +266,6 @@ pub struct SetContext {
     /// A valve rectifier's load against its rating, where it can be judged.
     pub rectifier: Option<RectifierRow>,
     pub heaters: Vec<HeaterRow>,
-    pub warnings: Vec<WarningRow>,
 }
 
 #[derive(Debug, Clone, Serialize)]
@@ -211,7 +279,10 @@ pub struct NodeRow {
     pub deviation: Option<String>,
     /// "±10 %".
     pub tolerance: String,
+    /// ok, cold, caution, over or accepted.
     pub status: String,
+    /// When not ok, the deciding figure in a few words.
+    pub why: String,
     pub reason: String,
 }
 
@@ -240,7 +311,10 @@ pub struct ValveRow {
     /// Screen dissipation, W to 0.1.
     pub pg2: Option<String>,
     pub pg2_pct: Option<String>,
+    /// The worst state that still counts, or accepted.
     pub status: String,
+    /// When not ok, the deciding figures in a few words ("screen 196 %").
+    pub why: String,
     /// The worst check's reason.
     pub reason: String,
 }
@@ -284,7 +358,10 @@ pub struct ResistorRow {
     pub power_pct: Option<String>,
     pub high_line_power: String,
     pub high_line_pct: Option<String>,
+    /// ok, cold, caution, over or accepted.
     pub status: String,
+    /// When not ok, the deciding figure in a few words.
+    pub why: String,
     pub reason: String,
 }
 
@@ -300,7 +377,10 @@ pub struct CapacitorRow {
     pub highest: String,
     /// Headroom left on the rating, "15.8 %".
     pub margin: String,
+    /// ok, cold, caution, over or accepted.
     pub status: String,
+    /// When not ok, the deciding figure in a few words.
+    pub why: String,
     pub reason: String,
 }
 
@@ -319,6 +399,7 @@ pub struct RectifierRow {
     /// "59".
     pub load_pct: String,
     pub status: String,
+    pub why: String,
     pub reason: String,
     /// The rule that decided the status, as a sentence.
     pub threshold: String,
@@ -332,15 +413,11 @@ pub struct HeaterRow {
     pub deviation: String,
     pub corrected: String,
     pub corrected_deviation: String,
+    /// ok, cold, caution, over or accepted.
     pub status: String,
+    /// When not ok, the deciding figure in a few words.
+    pub why: String,
     pub reason: String,
-}
-
-#[derive(Debug, Clone, Serialize)]
-pub struct WarningRow {
-    pub subject: String,
-    pub status: String,
-    pub message: String,
 }
 
 /// Paths of the charts in the typesetting folder, when there is something
@@ -630,7 +707,9 @@ pub fn build_context(
             contacts: c.contacts.clone(),
         }),
         mains,
+        summary: summary_context(&crate::report::summary::summary(job, findings)),
         glance: glance(findings),
+        attention: attention_context(&attention::attention(findings)),
         complaint: job.complaint.as_deref().map(reflow),
         findings: job.findings.as_deref().map(reflow),
         work: job.work.as_deref().map(reflow),
@@ -684,16 +763,6 @@ pub fn build_context(
         sets,
         plots: plots(findings, inputs),
         safety: safety(job, findings),
-        job_warnings: findings
-            .warnings
-            .iter()
-            .filter(|w| w.set.is_none())
-            .map(|w| WarningRow {
-                subject: w.subject.clone(),
-                status: status(w.status),
-                message: glue_units(&w.message),
-            })
-            .collect(),
         method: method(findings),
         footer: Footer {
             job_id: crate::report::plots::label_text(&job.info.id, FOOTER_ID_CHARS),
@@ -705,7 +774,7 @@ pub fn build_context(
 }
 
 fn glance(findings: &Findings) -> Glance {
-    let basis = match findings.sets.last() {
+    let basis = match findings.sets.iter().find(|s| s.is_final) {
         Some(set) => {
             let date = set
                 .date
@@ -730,7 +799,9 @@ fn glance(findings: &Findings) -> Glance {
         .iter()
         .map(|f| {
             overall = overall.worst(f.status);
-            let state = if f.measured || f.status != Status::Ok {
+            let state = if f.status == Status::Ok && !f.accepted.is_empty() {
+                "accepted".to_string()
+            } else if f.measured || f.status != Status::Ok {
                 status(f.status)
             } else {
                 "none".to_string()
@@ -783,6 +854,7 @@ fn set_context(findings: &Findings, set: &SetFindings) -> SetContext {
         .collect();
     SetContext {
         label: set.label.clone(),
+        is_final: set.is_final,
         date,
         mains: volts(set.mains_volts),
         factor: format!("{:.3}", set.correction_factor),
@@ -802,14 +874,72 @@ fn set_context(findings: &Findings, set: &SetFindings) -> SetContext {
         capacitors: set.filter_capacitors.iter().map(capacitor_row).collect(),
         rectifier: set.rectifier.as_ref().map(|r| rectifier_row(r, set)),
         heaters: set.heaters.iter().map(heater_row).collect(),
-        warnings: findings
-            .warnings
+    }
+}
+
+/// A figure's few words of why, with a typographic minus.
+fn why(v: &crate::calc::Verdict) -> String {
+    typographic_minus(&glue_units(&attention::why(v)))
+}
+
+/// Turns a hyphen that stands for a minus sign (before a digit, at the
+/// start or after a space or bracket) into U+2212.
+fn typographic_minus(s: &str) -> String {
+    let chars: Vec<char> = s.chars().collect();
+    let mut out = String::with_capacity(s.len());
+    for (i, &c) in chars.iter().enumerate() {
+        let before_ok = i == 0 || matches!(chars[i - 1], ' ' | '\u{a0}' | '(');
+        let digit_after = chars.get(i + 1).is_some_and(char::is_ascii_digit);
+        if c == '-' && before_ok && digit_after {
+            out.push('\u{2212}');
+        } else {
+            out.push(c);
+        }
+    }
+    out
+}
+
+fn summary_context(s: &Summary) -> SummaryContext {
+    let tidy = |v: &Vec<String>| v.iter().map(|l| glue_units(l)).collect();
+    SummaryContext {
+        found: tidy(&s.found),
+        done: tidy(&s.done),
+        now: tidy(&s.now),
+        healthy: s.healthy,
+    }
+}
+
+fn attention_context(a: &Attention) -> AttentionContext {
+    let entry = |e: &attention::Entry, joiner: &str| EntryRow {
+        subject: e.subject.clone(),
+        status: status(e.status),
+        text: typographic_minus(&glue_units(&e.lines.join(joiner))),
+    };
+    AttentionContext {
+        final_label: a.final_label.clone(),
+        open: a.open.iter().map(|e| entry(e, " ")).collect(),
+        accepted: a
+            .accepted
             .iter()
-            .filter(|w| w.set.as_deref() == Some(set.label.as_str()))
-            .map(|w| WarningRow {
-                subject: w.subject.clone(),
-                status: status(w.status),
-                message: glue_units(&w.message),
+            .map(|e| AcceptedRow {
+                subject: e.subject.clone(),
+                status: status(e.status),
+                figure: typographic_minus(&glue_units(&e.brief)),
+                reason: glue_units(&e.reason),
+                accepted_reason: glue_units(&e.accepted_reason),
+                by: e.by.clone(),
+                date: NaiveDate::parse_from_str(&e.date, "%Y-%m-%d")
+                    .map(date_words)
+                    .unwrap_or_else(|_| e.date.clone()),
+            })
+            .collect(),
+        job_wide: a.job_wide.iter().map(|e| entry(e, " ")).collect(),
+        history: a
+            .history
+            .iter()
+            .map(|h| HistoryRow {
+                label: h.label.clone(),
+                entries: h.entries.iter().map(|e| entry(e, ", ")).collect(),
             })
             .collect(),
     }
@@ -824,7 +954,8 @@ fn node_row(n: &NodeFindings) -> NodeRow {
         expected: n.expected_volts.map(sig3),
         deviation: n.deviation_pct.map(signed_pct),
         tolerance: format!("±{} %", format_sig(n.tolerance_pct, 3)),
-        status: status(n.verdict.status),
+        status: attention::state(&n.verdict).to_string(),
+        why: why(&n.verdict),
         reason: sentence(&n.verdict.reason),
     }
 }
@@ -862,7 +993,8 @@ fn valve_row(v: &ValveFindings) -> ValveRow {
         pa_high_line_pct: v.high_line_plate_dissipation_pct.map(pct0),
         pg2: v.screen_dissipation_w.map(|w| fixed(w, 1)),
         pg2_pct: v.screen_dissipation_pct.map(pct0),
-        status: status(v.status),
+        status: attention::valve_state(v).to_string(),
+        why: typographic_minus(&glue_units(&attention::valve_why(v))),
         reason: worst
             .map(|c| sentence(&c.verdict.reason))
             .unwrap_or_default(),
@@ -948,7 +1080,8 @@ fn resistor_row(r: &ResistorFindings, kind: &str) -> ResistorRow {
         power_pct: r.power_pct.map(pct0),
         high_line_power: resistor_power_words(r.high_line_power_w),
         high_line_pct: r.high_line_power_pct.map(pct0),
-        status: status(r.verdict.status),
+        status: attention::state(&r.verdict).to_string(),
+        why: why(&r.verdict),
         reason: sentence(&r.verdict.reason),
     }
 }
@@ -964,7 +1097,8 @@ fn capacitor_row(c: &CapacitorFindings) -> CapacitorRow {
         cold_start: c.cold_start_peak_volts.map(sig3),
         highest: sig3(c.highest_volts),
         margin: format!("{} %", fixed(c.margin_pct, 1)),
-        status: status(c.verdict.status),
+        status: attention::state(&c.verdict).to_string(),
+        why: why(&c.verdict),
         reason: sentence(&c.verdict.reason),
     }
 }
@@ -987,7 +1121,8 @@ fn rectifier_row(r: &RectifierFindings, set: &SetFindings) -> RectifierRow {
         load: format!("{} mA", fixed(r.load_at_least_ma, 1)),
         rating: format!("{} mA", format_sig(r.rating_ma, 3)),
         load_pct: pct0(r.load_pct),
-        status: status(r.verdict.status),
+        status: attention::state(&r.verdict).to_string(),
+        why: why(&r.verdict),
         reason: sentence(&r.verdict.reason),
         threshold: sentence(&r.verdict.threshold),
     }
@@ -1027,7 +1162,8 @@ fn heater_row(h: &HeaterFindings) -> HeaterRow {
         deviation: signed_pct(h.deviation_pct),
         corrected: minus(format_engineering_3(h.corrected_volts)),
         corrected_deviation: signed_pct(h.corrected_deviation_pct),
-        status: status(h.verdict.status),
+        status: attention::state(&h.verdict).to_string(),
+        why: why(&h.verdict),
         reason: sentence(&h.verdict.reason),
     }
 }
@@ -1101,7 +1237,7 @@ fn safety(job: &Job, findings: &Findings) -> SafetyContext {
                 } else {
                     "fail".into()
                 },
-                status: status(t.verdict.status),
+                status: attention::state(&t.verdict).to_string(),
             })
             .collect(),
     }

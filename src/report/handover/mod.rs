@@ -16,11 +16,12 @@ use minijinja::Value;
 use sha2::{Digest, Sha256};
 
 pub use context::{
-    CapacitorRow, ContextInputs, CustomerInfo, DISSIPATION_PLOT, DocumentInfo, Footer, Glance,
-    GlanceRow, HandoverContext, HeaterRow, JobInfo, LineUpRow, MainsInfo, Method, ModFigureRow,
-    ModRow, NodeRow, PartRow, Plots, RatingRow, RectifierRow, ResistorRow, SUPPLY_PLOT,
-    SafetyContext, SafetyRow, SetContext, ShopBlock, UnitInfo, ValveRow, WarningRow, WindowReading,
-    WindowRow, build_context, date_words,
+    AcceptedRow, AttentionContext, CapacitorRow, ContextInputs, CustomerInfo, DISSIPATION_PLOT,
+    DocumentInfo, EntryRow, Footer, Glance, GlanceRow, HandoverContext, HeaterRow, HistoryRow,
+    JobInfo, LineUpRow, MainsInfo, Method, ModFigureRow, ModRow, NodeRow, PartRow, Plots,
+    RatingRow, RectifierRow, ResistorRow, SUPPLY_PLOT, SafetyContext, SafetyRow, SetContext,
+    ShopBlock, SummaryContext, UnitInfo, ValveRow, WindowReading, WindowRow, build_context,
+    date_words,
 };
 
 use super::plots::{self, PlotError};
