@@ -475,6 +475,78 @@ fn two_final_sets_are_an_error_and_a_marked_final_set_is_judged() {
     );
 }
 
+#[test]
+fn each_completeness_warning_is_at_its_line() {
+    let text = r#"job-format 1
+job id="T-0002" technician="Bench" completed="2026-03-05"
+unit make="Testmake" model="Testmodel"
+mains nominal="120V"
+valves {
+    valve V3 type=EL84 role=output
+    valve V4 type=EL84 role=output
+}
+circuit {
+    bias cathode
+    cathode-resistor R24 value="130" rating="5W" valves="V3 V4"
+    node B+1 chart="300V"
+    node B+2 chart="280V"
+    dropper R1 value="1k" rating="2W" from=B+1 to=B+2
+}
+measurements "as found" mains="120V" {
+    node B+1 "300V"
+    node B+2 "280V"
+    valve V3 plate="290V" cathode="10V"
+    valve V4 plate="290V" cathode="10V"
+    heater "6.3V"
+}
+measurements "as left" mains="120V" {
+    node B+1 "300V"
+    node B2 "280V"
+    valve V3 plate="290V" cathode="10V"
+}
+"#;
+    let dir = job_file("gaps.kdl", text);
+    let o = run_in(dir.path(), &["check", "gaps.kdl"]);
+    assert_eq!(code(&o), 0, "warnings only: {}", stderr(&o));
+    let err = stderr(&o);
+    let as_found = text.find(r#"measurements "as found""#).unwrap();
+    let at = |needle: &str, from: usize| {
+        let i = text[from..].find(needle).unwrap() + from;
+        let (l, c) = line_col(text, i);
+        format!("gaps.kdl:{l}:{c}")
+    };
+    let as_left = text.find(r#"measurements "as left""#).unwrap();
+    assert_eq!(
+        reported_positions(&err, "gaps.kdl"),
+        [
+            // Read as found, not as left: B+2, V4 and the heater.
+            at("B+2 \"280V\"", as_found),
+            at("V4 plate", as_found),
+            at("\"6.3V\"", as_found),
+            // A name the circuit does not declare, close to one it does.
+            at("B2", as_left),
+        ],
+        "{err}"
+    );
+    assert!(
+        err.contains("V4 is not measured in “as left”, the final set (it was in “as found”)"),
+        "{err}"
+    );
+    assert!(
+        err.contains("node B2 in “as left” is not declared"),
+        "{err}"
+    );
+    assert!(err.contains("did you mean `B+2`?"), "{err}");
+    // The dropper between B+1 and B+2 says why it is not checked as left,
+    // instead of vanishing; the missing valve is an open finding as left.
+    let out = stdout(&o);
+    assert!(out.contains("not checked (B+2 not measured)"), "{out}");
+    assert!(
+        out.contains("V4 (EL84): V4 is not measured in “as left”, the final set"),
+        "{out}"
+    );
+}
+
 // ----- tubes ------------------------------------------------------------------
 
 #[test]

@@ -77,10 +77,17 @@ pub(crate) fn fill_set(set: &mut SetFindings, derating: f64, tolerance: f64) {
     }
     for c in &mut set.filter_capacitors {
         let v = |x: f64| format_engineering(x, QuantityKind::Voltage);
-        c.verdict.brief = if c.margin_pct < 0.0 {
-            format!("{} on {}", v(c.highest_volts), v(c.rating_volts))
+        let what = if c.deciding == "working_high_line" {
+            "working at high line"
         } else {
-            format!("{:.1} % margin", c.margin_pct)
+            "cold-start peak"
+        };
+        c.verdict.brief = match c.verdict.status {
+            Status::Ok => format!("{:.0} % margin", c.margin_pct),
+            _ if c.deciding_margin_pct < 0.0 => {
+                format!("{} {what} on {}", v(c.deciding_volts), v(c.rating_volts))
+            }
+            _ => format!("{:.1} % margin, {what}", c.deciding_margin_pct),
         };
     }
     if let Some(r) = &mut set.rectifier {

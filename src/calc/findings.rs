@@ -106,6 +106,21 @@ pub struct SetFindings {
     /// A valve rectifier's load against its rating, where it can be judged.
     pub rectifier: Option<RectifierFindings>,
     pub heaters: Vec<HeaterFindings>,
+    /// Droppers and filter capacitors that could not be checked in this
+    /// set, and why ("B+3 not measured").
+    pub not_checked: Vec<NotChecked>,
+}
+
+/// A part whose figures this set's readings cannot give.
+#[derive(Debug, Clone, Serialize)]
+pub struct NotChecked {
+    pub reference: String,
+    /// `dropper` or `filter_capacitor`.
+    pub kind: &'static str,
+    /// Where it sits: "B+2 to B+3", "B+3".
+    pub place: String,
+    /// Why: "B+3 not measured".
+    pub reason: String,
 }
 
 /// A valve rectifier's DC load. Only the output valves' cathode currents
@@ -345,6 +360,14 @@ pub struct CapacitorFindings {
     pub highest_volts: f64,
     #[serde(serialize_with = "round6")]
     pub margin_pct: f64,
+    /// Which figure decides the status: `working_high_line` (the working
+    /// voltage projected to high line) or `cold_start_peak`.
+    pub deciding: &'static str,
+    #[serde(serialize_with = "round6")]
+    pub deciding_volts: f64,
+    /// The margin the deciding figure leaves on the rating.
+    #[serde(serialize_with = "round6")]
+    pub deciding_margin_pct: f64,
     #[serde(flatten)]
     pub verdict: Verdict,
 }

@@ -63,10 +63,15 @@ pub fn derive(job: &Job, ratings: &RatingsTable) -> Findings {
             valves.push(valve::analyse(&ctx, spec, reading, rating, &mut notes));
         }
         let nodes = supply::nodes(job, set, &circuit, settings);
-        let droppers = supply::droppers(job, set, &circuit, settings, &mut notes);
+        let mut not_checked = Vec::new();
+        let droppers = supply::droppers(job, set, &circuit, settings, &mut not_checked);
         let cathode_resistors = supply::cathode_resistors(job, set, &circuit, settings);
         let screen_resistors = supply::screen_resistors(job, set, &circuit, settings);
-        let filter_capacitors = supply::capacitors(job, set, &circuit, settings, ratings);
+        let filter_capacitors =
+            supply::capacitors(job, set, &circuit, settings, ratings, &mut not_checked);
+        for n in &not_checked {
+            notes.push(format!("{}: not checked, {}", n.reference, n.reason));
+        }
         let heaters = supply::heaters(job, set, settings);
         let rectifier = supply::rectifier(job, &circuit, &valves, ratings);
         let mut found = SetFindings {
@@ -83,6 +88,7 @@ pub fn derive(job: &Job, ratings: &RatingsTable) -> Findings {
             filter_capacitors,
             rectifier,
             heaters,
+            not_checked,
         };
         brief::fill_set(
             &mut found,
@@ -102,6 +108,22 @@ pub fn derive(job: &Job, ratings: &RatingsTable) -> Findings {
             ));
         }
         sets.push(found);
+    }
+    for m in crate::job::not_measured_in_final(job) {
+        let subject = match m.kind {
+            "valve" => job
+                .valve(&m.name)
+                .map(|v| format!("{} ({})", m.name, v.type_name.value))
+                .unwrap_or_else(|| m.name.clone()),
+            _ => m.name.clone(),
+        };
+        warnings.push(Warning::note(
+            Some(&m.final_set),
+            true,
+            &subject,
+            Status::Caution,
+            sentence(&m.message()),
+        ));
     }
     let mut safety = job
         .safety

@@ -2,6 +2,7 @@
 //! source spans. Every problem is collected into one [`JobDiagnostics`].
 
 mod bare_value;
+mod completeness;
 mod decode;
 mod decode_error;
 mod model;
@@ -9,7 +10,10 @@ mod reader;
 mod validate;
 mod valve_types;
 
-pub use decode::{CIRCUIT_NODES, FORMAT_VERSION, MOD_FIGURES, SETTINGS, TOP_LEVEL};
+pub use completeness::{NotMeasuredInFinal, not_measured_in_final};
+pub use decode::{
+    CIRCUIT_NODES, FORMAT_VERSION, MOD_FIGURES, SAFETY_TESTS, SETTINGS, TOP_LEVEL, VALVE_CHECKS,
+};
 pub use decode_error::{DecodeError, JobDiagnostics, did_you_mean, line_column, suggestion_help};
 pub use model::*;
 
@@ -54,6 +58,7 @@ fn decode_inner(
             problems.append(&mut reader.problems);
             if let Some(job) = &job {
                 problems.extend(validate::cross_references(job));
+                problems.extend(completeness::warnings(job));
                 if let Some(ratings) = ratings {
                     problems.extend(valve_types::check(job, ratings));
                 }

@@ -394,7 +394,7 @@ fn render_set(set: &SetFindings, style: &TerminalStyle) -> String {
         .chain(&set.cathode_resistors)
         .chain(&set.screen_resistors)
         .collect();
-    if !resistors.is_empty() || !set.filter_capacitors.is_empty() {
+    if !resistors.is_empty() || !set.filter_capacitors.is_empty() || !set.not_checked.is_empty() {
         out.push_str("Stressed parts\n");
         let mut t = TextTable::new(&[
             ("part", Align::Left),
@@ -426,6 +426,17 @@ fn render_set(set: &SetFindings, style: &TerminalStyle) -> String {
                 verdict_cell(&c.verdict),
             ]);
             statuses.push(paint_status(&c.verdict));
+        }
+        for n in &set.not_checked {
+            t.row(vec![
+                n.reference.clone(),
+                n.place.clone(),
+                "–".into(),
+                "–".into(),
+                "–".into(),
+                format!("not checked ({})", n.reason),
+            ]);
+            statuses.push(Status::Ok);
         }
         out.push_str(&render_painted(&t, style, &statuses));
     }

@@ -266,6 +266,18 @@ pub struct SetContext {
     /// A valve rectifier's load against its rating, where it can be judged.
     pub rectifier: Option<RectifierRow>,
     pub heaters: Vec<HeaterRow>,
+    /// Droppers (`kind` "dropper") and filter capacitors (`kind`
+    /// "filter capacitor") these readings cannot check, and why.
+    pub not_checked: Vec<NotCheckedRow>,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct NotCheckedRow {
+    pub reference: String,
+    pub kind: String,
+    pub place: String,
+    /// "B+3 not measured".
+    pub reason: String,
 }
 
 #[derive(Debug, Clone, Serialize)]
@@ -874,6 +886,16 @@ fn set_context(findings: &Findings, set: &SetFindings) -> SetContext {
         capacitors: set.filter_capacitors.iter().map(capacitor_row).collect(),
         rectifier: set.rectifier.as_ref().map(|r| rectifier_row(r, set)),
         heaters: set.heaters.iter().map(heater_row).collect(),
+        not_checked: set
+            .not_checked
+            .iter()
+            .map(|n| NotCheckedRow {
+                reference: n.reference.clone(),
+                kind: n.kind.replace('_', " "),
+                place: n.place.clone(),
+                reason: n.reason.clone(),
+            })
+            .collect(),
     }
 }
 
