@@ -50,6 +50,29 @@ pub struct Findings {
     pub warnings: Vec<Warning>,
     /// Each valve type the job uses, with the source note of its ratings.
     pub ratings_used: Vec<RatingUsed>,
+    /// The valve line-up, with any type a set fits instead.
+    pub line_up: Vec<LineUpFindings>,
+}
+
+/// One position of the line-up.
+#[derive(Debug, Clone, Serialize)]
+pub struct LineUpFindings {
+    pub position: String,
+    /// The type as the line-up gives it.
+    pub valve_type: String,
+    /// The ratings row it resolved to.
+    pub rating_name: Option<String>,
+    pub role: String,
+    pub channel: Option<String>,
+    /// Sets that fit another type here, in file order.
+    pub changes: Vec<TypeChangeFindings>,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct TypeChangeFindings {
+    pub set: String,
+    pub valve_type: String,
+    pub rating_name: Option<String>,
 }
 
 #[derive(Debug, Clone, Serialize)]
@@ -109,6 +132,25 @@ pub struct SetFindings {
     /// Droppers and filter capacitors that could not be checked in this
     /// set, and why ("B+3 not measured").
     pub not_checked: Vec<NotChecked>,
+    /// Where the bias controls were set.
+    pub bias_controls: Vec<crate::job::BiasControl>,
+    /// Idle current at times during a warm-up, by valve then time.
+    pub warm_up: Vec<WarmUpPoint>,
+}
+
+/// A valve's idle current at a time since power-on.
+#[derive(Debug, Clone, Serialize)]
+pub struct WarmUpPoint {
+    pub position: String,
+    #[serde(serialize_with = "round6")]
+    pub minutes: f64,
+    /// The current used for the plate dissipation (plate current, or the
+    /// cathode current when `includes_screen`).
+    #[serde(serialize_with = "round6_opt")]
+    pub current_ma: Option<f64>,
+    pub includes_screen: bool,
+    #[serde(serialize_with = "round6_opt")]
+    pub plate_dissipation_pct: Option<f64>,
 }
 
 /// A part whose figures this set's readings cannot give.
@@ -167,8 +209,11 @@ impl CurrentMethod {
 #[derive(Debug, Clone, Serialize)]
 pub struct ValveFindings {
     pub position: String,
-    /// The type as written in the job.
+    /// The type as written in the job (the set's own type where it fits
+    /// another).
     pub valve_type: String,
+    /// The amplifier channel, where the job gives one.
+    pub channel: Option<String>,
     /// The ratings row it resolved to.
     pub rating_name: String,
     pub role: String,
@@ -297,6 +342,7 @@ pub struct TargetWindow {
 pub struct NodeFindings {
     pub name: String,
     pub label: Option<String>,
+    pub channel: Option<String>,
     #[serde(serialize_with = "round6")]
     pub measured_volts: f64,
     #[serde(serialize_with = "round6")]

@@ -50,7 +50,7 @@ pub fn derive(job: &Job, ratings: &RatingsTable) -> Findings {
         };
         let mut valves = Vec::new();
         for reading in &set.valves {
-            let Some(spec) = job.valve(&reading.position.value) else {
+            let Some(spec) = job.valve_in(set, &reading.position.value) else {
                 continue;
             };
             let Ok(rating) = ratings.lookup(&spec.type_name.value) else {
@@ -60,8 +60,9 @@ pub fn derive(job: &Job, ratings: &RatingsTable) -> Findings {
                 ));
                 continue;
             };
-            valves.push(valve::analyse(&ctx, spec, reading, rating, &mut notes));
+            valves.push(valve::analyse(&ctx, &spec, reading, rating, &mut notes));
         }
+        let warm_up = warm_up(&ctx, job, set, ratings);
         let nodes = supply::nodes(job, set, &circuit, settings);
         let mut not_checked = Vec::new();
         let droppers = supply::droppers(job, set, &circuit, settings, &mut not_checked);
@@ -73,7 +74,7 @@ pub fn derive(job: &Job, ratings: &RatingsTable) -> Findings {
             notes.push(format!("{}: not checked, {}", n.reference, n.reason));
         }
         let heaters = supply::heaters(job, set, settings);
-        let rectifier = supply::rectifier(job, &circuit, &valves, ratings);
+        let rectifier = supply::rectifier(job, set, &circuit, &valves, ratings);
         let mut found = SetFindings {
             label: set.label.clone(),
             is_final,
@@ -89,6 +90,8 @@ pub fn derive(job: &Job, ratings: &RatingsTable) -> Findings {
             rectifier,
             heaters,
             not_checked,
+            bias_controls: set.bias_controls.clone(),
+            warm_up,
         };
         brief::fill_set(
             &mut found,
@@ -205,7 +208,51 @@ pub fn derive(job: &Job, ratings: &RatingsTable) -> Findings {
         at_a_glance,
         warnings,
         ratings_used: ratings_used(job, ratings),
+        line_up: line_up(job, ratings),
     }
+}
+
+/// The idle current of each warm-up reading, worked out as the set's own
+/// readings are; sorted by valve, then time.
+fn warm_up(
+    ctx: &valve::ValveContext,
+    job: &Job,
+    set: &crate::job::MeasurementSet,
+    ratings: &RatingsTable,
+) -> Vec<WarmUpPoint> {
+    let mut out: Vec<WarmUpPoint> = set
+        .warm_up
+        .iter()
+        .filter_map(|w| {
+            let spec = job.valve_in(set, &w.reading.position.value)?;
+            let rating = ratings.lookup(&spec.type_name.value).ok()?;
+            // A warm-up reading often lacks the plate voltage: take the
+            // set's settled plate reading for the dissipation.
+            let mut reading = w.reading.clone();
+            if reading.plate.is_none() {
+                reading.plate = set
+                    .valves
+                    .iter()
+                    .find(|v| v.position.value == reading.position.value)
+                    .and_then(|v| v.plate.clone());
+            }
+            let f = valve::analyse(ctx, &spec, &reading, rating, &mut Vec::new());
+            Some(WarmUpPoint {
+                position: f.position,
+                minutes: w.minutes.value,
+                current_ma: f.plate_current_ma,
+                includes_screen: f.plate_current_includes_screen,
+                plate_dissipation_pct: f.plate_dissipation_pct,
+            })
+        })
+        .collect();
+    let order = |p: &str| job.valves.iter().position(|v| v.position.value == p);
+    out.sort_by(|a, b| {
+        order(&a.position)
+            .cmp(&order(&b.position))
+            .then(a.minutes.total_cmp(&b.minutes))
+    });
+    out
 }
 
 /// Capitalises the first letter and ends with a full stop.
@@ -539,14 +586,55 @@ fn ok_summary(
     }
 }
 
+/// The line-up, with each type a set fits instead.
+fn line_up(job: &Job, ratings: &RatingsTable) -> Vec<LineUpFindings> {
+    let rated = |t: &str| ratings.lookup(t).ok().map(|r| r.name.clone());
+    job.valves
+        .iter()
+        .map(|v| LineUpFindings {
+            position: v.position.value.clone(),
+            valve_type: v.type_name.value.clone(),
+            rating_name: rated(&v.type_name.value),
+            role: v.role.words().to_string(),
+            channel: v.channel.clone(),
+            changes: job
+                .measurements
+                .iter()
+                .filter_map(|set| {
+                    let c = set
+                        .valve_types
+                        .iter()
+                        .find(|c| c.position.value == v.position.value)?;
+                    Some(TypeChangeFindings {
+                        set: set.label.clone(),
+                        valve_type: c.type_name.value.clone(),
+                        rating_name: rated(&c.type_name.value),
+                    })
+                })
+                .collect(),
+        })
+        .collect()
+}
+
 fn ratings_used(job: &Job, ratings: &RatingsTable) -> Vec<RatingUsed> {
     let mut out: Vec<RatingUsed> = Vec::new();
-    for v in &job.valves {
-        let Ok(r) = ratings.lookup(&v.type_name.value) else {
+    let fitted = job
+        .valves
+        .iter()
+        .map(|v| (&v.position.value, &v.type_name.value))
+        .chain(job.measurements.iter().flat_map(|s| {
+            s.valve_types
+                .iter()
+                .map(|c| (&c.position.value, &c.type_name.value))
+        }));
+    for (position, type_name) in fitted {
+        let Ok(r) = ratings.lookup(type_name) else {
             continue;
         };
         if let Some(existing) = out.iter_mut().find(|u| u.name == r.name) {
-            existing.positions.push(v.position.value.clone());
+            if !existing.positions.contains(position) {
+                existing.positions.push(position.clone());
+            }
             continue;
         }
         out.push(RatingUsed {
@@ -558,7 +646,7 @@ fn ratings_used(job: &Job, ratings: &RatingsTable) -> Vec<RatingUsed> {
                 crate::ratings::RatingOrigin::Builtin => "built in".to_string(),
                 crate::ratings::RatingOrigin::Shop(p) => p.display().to_string(),
             },
-            positions: vec![v.position.value.clone()],
+            positions: vec![position.clone()],
         });
     }
     out.sort_by(|a, b| a.name.cmp(&b.name));

@@ -81,6 +81,7 @@ pub(crate) fn nodes(
             NodeFindings {
                 name: reading.name.value.clone(),
                 label: spec.and_then(|s| s.label.clone()),
+                channel: spec.and_then(|s| s.channel.clone()),
                 measured_volts: reading.volts.value.0,
                 corrected_volts: corrected.0,
                 chart_volts: chart.map(|c| c.0),
@@ -292,12 +293,12 @@ pub(crate) fn capacitors(
             ),
             Some((RectifierKind::Valve(pos), d)) => {
                 let heating = job
-                    .valve(&pos.value)
+                    .valve_in(set, &pos.value)
                     .and_then(|v| ratings.lookup(&v.type_name.value).ok())
                     .and_then(|r| r.rectifier_heating);
                 let slow = heating == Some(RectifierHeating::Indirect);
                 let name = job
-                    .valve(&pos.value)
+                    .valve_in(set, &pos.value)
                     .map(|v| v.type_name.value.clone())
                     .unwrap_or_default();
                 (
@@ -478,6 +479,7 @@ pub(crate) fn capacitors(
 /// derating band's caution above 90 % (common practice) and over above 100 %.
 pub(crate) fn rectifier(
     job: &Job,
+    set: &MeasurementSet,
     circuit: &Circuit,
     valves: &[ValveFindings],
     ratings: &RatingsTable,
@@ -485,7 +487,7 @@ pub(crate) fn rectifier(
     let RectifierKind::Valve(pos) = &circuit.rectifier.as_ref()?.kind else {
         return None;
     };
-    let spec = job.valve(&pos.value)?;
+    let spec = job.valve_in(set, &pos.value)?;
     let rating = ratings.lookup(&spec.type_name.value).ok()?;
     let max_ma = rating.output_current?.0 * 1e3;
     let outputs: Vec<&ValveFindings> = valves.iter().filter(|v| v.is_output).collect();

@@ -108,6 +108,7 @@ pub(crate) fn analyse(
     let mut f = ValveFindings {
         position: pos.to_string(),
         valve_type: spec.type_name.value.clone(),
+        channel: spec.channel.clone(),
         rating_name: rating.name.clone(),
         role: spec.role.words().to_string(),
         is_output,

@@ -414,10 +414,11 @@ fn decode_valves(node: &KdlNode, r: &mut Reader) -> Vec<ValvePosition> {
     r.check_entries(node, &[], 0);
     let mut out: Vec<ValvePosition> = Vec::new();
     for child in r.children(node.children(), &["valve"], "`valves`") {
-        r.check_entries(child, &["type", "role"], 1);
+        r.check_entries(child, &["type", "role", "channel"], 1);
         r.no_children(child);
         let position = r.req_arg_name(child, "a position", "valve V1 type=\"12AX7\" role=preamp");
         let type_name = r.req_prop_name(child, "type", "valve V1 type=\"12AX7\" role=preamp");
+        let channel = r.opt_prop_string(child, "channel");
         let role = match Reader::prop(child, "role") {
             Some(e) => match r.name(e, "`role`") {
                 Some(name) => match Role::from_name(&name.value) {
@@ -470,6 +471,7 @@ fn decode_valves(node: &KdlNode, r: &mut Reader) -> Vec<ValvePosition> {
                 position,
                 type_name,
                 role: role.unwrap_or(Role::Other),
+                channel,
             });
         }
     }
@@ -602,11 +604,12 @@ fn decode_circuit(node: &KdlNode, r: &mut Reader) -> Circuit {
                 }
             }
             "node" => {
-                r.check_entries(child, &["chart", "tolerance", "label"], 1);
+                r.check_entries(child, &["chart", "tolerance", "label", "channel"], 1);
                 let name = r.req_arg_name(child, "a node name", "node B+1 chart=\"350V\"");
                 let chart = volts_pos(r, child, "chart", "the chart voltage");
                 let tolerance = percent(r, child, "tolerance");
                 let label = r.opt_prop_string(child, "label");
+                let channel = r.opt_prop_string(child, "channel");
                 if let Some(name) = name {
                     if c.nodes.iter().any(|n| n.name.value == name.value) {
                         r.push(DecodeError::error(
@@ -621,6 +624,7 @@ fn decode_circuit(node: &KdlNode, r: &mut Reader) -> Circuit {
                             chart,
                             tolerance,
                             label,
+                            channel,
                         });
                     }
                 }
@@ -737,16 +741,29 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
     let mut valves: Vec<ValveReading> = Vec::new();
     let mut heaters = Vec::new();
     let mut circuit_changes = Circuit::default();
+    let mut valve_types: Vec<ValveTypeChange> = Vec::new();
+    let mut warm_up: Vec<WarmUpReading> = Vec::new();
+    let mut bias_controls = Vec::new();
     for child in r.children(
         node.children(),
-        &["node", "valve", "heater", "circuit"],
+        &[
+            "node",
+            "valve",
+            "heater",
+            "circuit",
+            "warm-up",
+            "bias-control",
+        ],
         "a measurement set",
     ) {
-        if child.name().value() == "circuit" {
-            circuit_changes = decode_circuit(child, r);
-            continue;
+        match child.name().value() {
+            "circuit" => {
+                circuit_changes = decode_circuit(child, r);
+                continue;
+            }
+            "warm-up" | "valve" => {}
+            _ => r.no_children(child),
         }
-        r.no_children(child);
         match child.name().value() {
             "node" => {
                 r.check_entries(child, &["chart", "tolerance"], 2);
@@ -788,97 +805,124 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
                 }
             }
             "valve" => {
-                let keys = [
-                    "plate",
-                    "screen",
-                    "cathode",
-                    "grid",
-                    "sense",
-                    "primary-drop",
-                    "current",
-                    "method",
-                ];
-                r.check_entries(child, &keys, 1);
-                let position = r.req_arg_name(
-                    child,
-                    "a valve position",
-                    "valve V3 plate=\"352V\" cathode=\"11.2V\"",
-                );
-                let v = |r: &mut Reader, key: &str| {
-                    r.opt_prop_quantity(child, key, Q::Voltage)
-                        .map(|s| Spanned::new(Volts(s.value), s.span))
+                let Some((reading, type_name)) = decode_valve_reading(child, r, &[]) else {
+                    continue;
                 };
-                let plate = v(r, "plate");
-                let screen = v(r, "screen");
-                let cathode = v(r, "cathode");
-                let grid = v(r, "grid");
-                let sense = v(r, "sense");
-                let primary_drop = v(r, "primary-drop");
-                let current = r.opt_prop_quantity(child, "current", Q::Current);
-                let current = r.positive(current, "a valve current", true);
-                let method = match Reader::prop(child, "method").and_then(|e| r.name(e, "`method`"))
-                {
-                    Some(m) => match m.value.as_str() {
-                        "probe" => Some(CurrentMethod::Probe),
-                        "shunt" => Some(CurrentMethod::Shunt),
-                        other => {
-                            r.push(DecodeError::error("job::unknown-method", m.span, format!("unknown current method `{other}`"), "expected probe or shunt")
-                                .with_help("probe: a bias probe under the valve (cathode current); shunt: an ammeter across half the primary (plate current)"));
-                            None
-                        }
-                    },
-                    None => None,
-                };
-                let current = match (current, method) {
-                    (Some(c), Some(m)) => Some((Spanned::new(Amps(c.value), c.span), m)),
-                    (Some(c), None) => {
-                        r.push(DecodeError::error("job::missing", c.span, "a current read directly needs its method", "method missing")
-                            .with_help("add method=probe (bias probe: cathode current) or method=shunt (shunt across half the primary: plate current)"));
-                        None
-                    }
-                    (None, Some(_)) => {
-                        if let Some(e) = Reader::prop(child, "method") {
-                            r.push(DecodeError::error(
-                                "job::missing",
-                                r.value_span(e),
-                                "`method` is given without a `current`",
-                                "no current to go with it",
-                            ));
-                        }
-                        None
-                    }
-                    (None, None) => None,
-                };
-                for reading in [&plate, &screen].into_iter().flatten() {
-                    if reading.value.0 > 1500.0 {
-                        r.push(DecodeError::warning(
-                            "job::implausible",
-                            reading.span,
-                            format!("{} is unusually high for a valve amplifier", reading.value),
-                            "unusual",
-                        ));
-                    }
-                }
-                if let Some(p) = &position {
-                    if valves.iter().any(|v| v.position.value == p.value) {
+                if let Some(t) = type_name {
+                    if valve_types
+                        .iter()
+                        .any(|c: &ValveTypeChange| c.position.value == reading.position.value)
+                    {
                         r.push(DecodeError::error(
                             "job::repeated-reading",
-                            p.span,
-                            format!("valve {} is read twice in this set", p.value),
+                            t.span,
+                            format!(
+                                "the type of {} is given twice in this set",
+                                reading.position.value
+                            ),
                             "repeated here",
+                        ));
+                    } else {
+                        valve_types.push(ValveTypeChange {
+                            position: reading.position.clone(),
+                            type_name: t,
+                        });
+                    }
+                }
+                if !reading.has_readings() {
+                    continue;
+                }
+                if valves
+                    .iter()
+                    .any(|v| v.position.value == reading.position.value)
+                {
+                    r.push(DecodeError::error(
+                        "job::repeated-reading",
+                        reading.position.span,
+                        format!("valve {} is read twice in this set", reading.position.value),
+                        "repeated here",
+                    )
+                    .with_help("readings at times during a warm-up go in a `warm-up` block with `after=`"));
+                    continue;
+                }
+                valves.push(reading);
+            }
+            "warm-up" => {
+                r.check_entries(child, &[], 0);
+                for w in r.children(child.children(), &["valve"], "`warm-up`") {
+                    let Some((reading, type_name)) = decode_valve_reading(w, r, &["after"]) else {
+                        continue;
+                    };
+                    if let Some(t) = type_name {
+                        r.push(
+                            DecodeError::error(
+                                "job::unexpected-type",
+                                t.span,
+                                "a warm-up reading cannot change the valve's type",
+                                "not here",
+                            )
+                            .with_help("give the set's type on the set's own `valve` line"),
+                        );
+                    }
+                    let minutes = match Reader::prop(w, "after") {
+                        Some(e) => r.minutes(e, "`after`"),
+                        None => {
+                            r.push(
+                                DecodeError::error(
+                                    "job::missing",
+                                    Reader::name_span(w),
+                                    "a warm-up reading needs the time since power-on",
+                                    "time missing",
+                                )
+                                .with_help(
+                                    "for example: valve V3 after=\"5min\" cathode=\"11.2V\"",
+                                ),
+                            );
+                            None
+                        }
+                    };
+                    if !reading.has_readings() {
+                        r.push(DecodeError::error(
+                            "job::missing",
+                            Reader::name_span(w),
+                            "a warm-up reading needs something read (cathode, sense, primary-drop or current)",
+                            "nothing read",
                         ));
                         continue;
                     }
-                    valves.push(ValveReading {
-                        position: p.clone(),
-                        plate,
-                        screen,
-                        cathode,
-                        grid,
-                        sense,
-                        primary_drop,
-                        current,
-                        span: child.span(),
+                    if let Some(minutes) = minutes {
+                        if warm_up.iter().any(|x: &WarmUpReading| {
+                            x.reading.position.value == reading.position.value
+                                && (x.minutes.value - minutes.value).abs() < 1e-9
+                        }) {
+                            r.push(DecodeError::error(
+                                "job::repeated-reading",
+                                minutes.span,
+                                format!(
+                                    "{} is read twice at the same time",
+                                    reading.position.value
+                                ),
+                                "repeated here",
+                            ));
+                            continue;
+                        }
+                        warm_up.push(WarmUpReading { minutes, reading });
+                    }
+                }
+            }
+            "bias-control" => {
+                r.check_entries(child, &["label"], 1);
+                r.no_children(child);
+                let position = r.req_arg_string(
+                    child,
+                    "the control's position",
+                    "bias-control \"2 o'clock\" label=\"V3, V4\"",
+                );
+                let label = r.opt_prop_string(child, "label");
+                if let Some(position) = position {
+                    bias_controls.push(BiasControl {
+                        label,
+                        position: position.value,
                     });
                 }
             }
@@ -924,28 +968,138 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
         valves,
         heaters,
         circuit_changes,
+        valve_types,
+        warm_up,
+        bias_controls,
         span: node.span(),
     })
+}
+
+/// A valve's readings, and a type given for this set (`type=`); `extra`
+/// names further properties the caller reads itself.
+fn decode_valve_reading(
+    child: &KdlNode,
+    r: &mut Reader,
+    extra: &[&str],
+) -> Option<(ValveReading, Option<Spanned<String>>)> {
+    r.no_children(child);
+    let mut keys = vec![
+        "plate",
+        "screen",
+        "cathode",
+        "grid",
+        "sense",
+        "primary-drop",
+        "current",
+        "method",
+        "type",
+    ];
+    keys.extend_from_slice(extra);
+    r.check_entries(child, &keys, 1);
+    let position = r.req_arg_name(
+        child,
+        "a valve position",
+        "valve V3 plate=\"352V\" cathode=\"11.2V\"",
+    );
+    let type_name = Reader::prop(child, "type").and_then(|e| r.name(e, "`type`"));
+    let v = |r: &mut Reader, key: &str| {
+        r.opt_prop_quantity(child, key, Q::Voltage)
+            .map(|s| Spanned::new(Volts(s.value), s.span))
+    };
+    let plate = v(r, "plate");
+    let screen = v(r, "screen");
+    let cathode = v(r, "cathode");
+    let grid = v(r, "grid");
+    let sense = v(r, "sense");
+    let primary_drop = v(r, "primary-drop");
+    let current = r.opt_prop_quantity(child, "current", Q::Current);
+    let current = r.positive(current, "a valve current", true);
+    let method = match Reader::prop(child, "method").and_then(|e| r.name(e, "`method`")) {
+        Some(m) => match m.value.as_str() {
+            "probe" => Some(CurrentMethod::Probe),
+            "shunt" => Some(CurrentMethod::Shunt),
+            other => {
+                r.push(DecodeError::error("job::unknown-method", m.span, format!("unknown current method `{other}`"), "expected probe or shunt")
+                        .with_help("probe: a bias probe under the valve (cathode current); shunt: an ammeter across half the primary (plate current)"));
+                None
+            }
+        },
+        None => None,
+    };
+    let current = match (current, method) {
+        (Some(c), Some(m)) => Some((Spanned::new(Amps(c.value), c.span), m)),
+        (Some(c), None) => {
+            r.push(DecodeError::error("job::missing", c.span, "a current read directly needs its method", "method missing")
+                    .with_help("add method=probe (bias probe: cathode current) or method=shunt (shunt across half the primary: plate current)"));
+            None
+        }
+        (None, Some(_)) => {
+            if let Some(e) = Reader::prop(child, "method") {
+                r.push(DecodeError::error(
+                    "job::missing",
+                    r.value_span(e),
+                    "`method` is given without a `current`",
+                    "no current to go with it",
+                ));
+            }
+            None
+        }
+        (None, None) => None,
+    };
+    for reading in [&plate, &screen].into_iter().flatten() {
+        if reading.value.0 > 1500.0 {
+            r.push(DecodeError::warning(
+                "job::implausible",
+                reading.span,
+                format!("{} is unusually high for a valve amplifier", reading.value),
+                "unusual",
+            ));
+        }
+    }
+    let p = position?;
+    Some((
+        ValveReading {
+            position: p,
+            plate,
+            screen,
+            cathode,
+            grid,
+            sense,
+            primary_drop,
+            current,
+            span: child.span(),
+        },
+        type_name,
+    ))
 }
 
 fn decode_parts(node: &KdlNode, r: &mut Reader) -> Vec<PartChange> {
     r.check_entries(node, &[], 0);
     let mut out = Vec::new();
     for child in r.children(node.children(), &["part"], "`parts`") {
-        r.check_entries(child, &["was", "now", "reason", "original-kept"], 1);
+        r.check_entries(child, &["what", "was", "now", "reason", "original-kept"], 1);
         r.no_children(child);
-        let reference = r.req_arg_name(
-            child,
-            "a reference",
-            "part C10 was=\"…\" now=\"…\" reason=\"…\"",
-        );
+        let reference = Reader::arg(child, 0).and_then(|e| r.name(e, "the reference"));
+        let what = r.opt_prop_string(child, "what");
+        if reference.is_none() && what.is_none() && Reader::arg(child, 0).is_none() {
+            r.push(
+                DecodeError::error(
+                    "job::missing",
+                    Reader::name_span(child),
+                    "`part` needs a circuit reference or `what=`",
+                    "which part?",
+                )
+                .with_help("for example: part C10 was=\"…\" now=\"…\"   or   part what=\"mains cord\" was=\"two-wire\" now=\"three-wire\""),
+            );
+        }
         let was = r.opt_prop_string(child, "was");
         let now = r.opt_prop_string(child, "now");
         let reason = r.opt_prop_string(child, "reason");
         let original_kept = r.opt_prop_bool(child, "original-kept");
-        if let Some(reference) = reference {
+        if reference.is_some() || what.is_some() {
             out.push(PartChange {
-                reference: reference.value,
+                reference: reference.map(|r| r.value),
+                what,
                 was,
                 now,
                 reason,
@@ -1082,6 +1236,25 @@ fn decode_safety(node: &KdlNode, r: &mut Reader) -> Option<Safety> {
     ) {
         r.no_children(child);
         let reading = |r: &mut Reader, kind: Q, example: &str| match Reader::arg(child, 0) {
+            Some(e) if over_range_text(e).is_some() => {
+                let span = r.value_span(e);
+                let at = SourceSpan::new((span.offset() + 1).into(), 1);
+                r.push(
+                    DecodeError::error(
+                        "job::over-range",
+                        at,
+                        format!(
+                            "`{}` takes no over-range reading (\">…\")",
+                            child.name().value()
+                        ),
+                        "only the insulation test reads \"more than\"",
+                    )
+                    .with_help(format!(
+                        "write the figure the meter showed, for example: {example}"
+                    )),
+                );
+                None
+            }
             Some(e) => {
                 let q = r.quantity(e, kind, "the reading");
                 r.positive(q, "the reading", true).map(|q| q.value)
@@ -1120,10 +1293,33 @@ fn decode_safety(node: &KdlNode, r: &mut Reader) -> Option<Safety> {
             "insulation" => {
                 r.check_entries(child, &["test-voltage", "minimum", "over-range"], 1);
                 let example = "insulation \"200M\" test-voltage=\"500V\" minimum=\"1M\"";
-                let measured = reading(r, Q::Resistance, example);
+                // A meter at the top of its range shows "more than": ">500M".
+                let arrow = Reader::arg(child, 0).and_then(over_range_text);
+                let measured = match (arrow.clone(), Reader::arg(child, 0)) {
+                    (Some(rest), Some(e)) => {
+                        let span = r.value_span(e);
+                        match crate::units::parse_quantity(&rest, Q::Resistance) {
+                            Ok(v) if v > 0.0 => Some(v),
+                            _ => {
+                                r.push(
+                                    DecodeError::error(
+                                        "job::bad-value",
+                                        span,
+                                        format!("the over-range reading \">{rest}\" is not a resistance"),
+                                        "expected \">500M\"",
+                                    )
+                                    .with_help("write the meter's top figure after `>`, for example \">500M\""),
+                                );
+                                None
+                            }
+                        }
+                    }
+                    _ => reading(r, Q::Resistance, example),
+                };
                 let test_voltage = volts_req(r, child, "test-voltage", example);
                 let minimum = ohms(r, child, "minimum", example);
-                let over_range = r.opt_prop_bool(child, "over-range").unwrap_or(false);
+                let over_range =
+                    r.opt_prop_bool(child, "over-range").unwrap_or(false) || arrow.is_some();
                 if let (Some(measured), Some(test_voltage), Some(minimum)) =
                     (measured, test_voltage, minimum)
                 {
@@ -1360,6 +1556,17 @@ fn decode_settings(node: &KdlNode, r: &mut Reader) -> Settings {
 }
 
 // ----- small shared readers ---------------------------------------------------
+
+/// The figure after a leading `>` of a text value (an over-range reading).
+fn over_range_text(e: &kdl::KdlEntry) -> Option<String> {
+    match e.value() {
+        kdl::KdlValue::String(s) => s
+            .trim()
+            .strip_prefix('>')
+            .map(|rest| rest.trim_start_matches('=').trim().to_string()),
+        _ => None,
+    }
+}
 
 fn ohms(r: &mut Reader, node: &KdlNode, key: &str, example: &str) -> Option<Spanned<Ohms>> {
     let q = r.req_prop_quantity(node, key, Q::Resistance, example);

@@ -61,6 +61,20 @@ impl Job {
         self.valves.iter().find(|v| v.position.value == position)
     }
 
+    /// The valve at a position as fitted for a set: the line-up's entry,
+    /// with the set's own type where the set gives one.
+    pub fn valve_in(&self, set: &MeasurementSet, position: &str) -> Option<ValvePosition> {
+        let mut v = self.valve(position)?.clone();
+        if let Some(change) = set
+            .valve_types
+            .iter()
+            .find(|c| c.position.value == position)
+        {
+            v.type_name = change.type_name.clone();
+        }
+        Some(v)
+    }
+
     /// The circuit as it stood for a measurement set.
     pub fn circuit_for(&self, set: &MeasurementSet) -> std::borrow::Cow<'_, Circuit> {
         if set.circuit_changes.is_empty() {
@@ -183,6 +197,8 @@ pub struct ValvePosition {
     /// The type as written ("6BQ5"); the ratings table resolves it.
     pub type_name: Spanned<String>,
     pub role: Role,
+    /// The amplifier channel it belongs to, where the job groups valves so.
+    pub channel: Option<String>,
 }
 
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
@@ -351,6 +367,8 @@ pub struct NodeSpec {
     /// Tolerance as a fraction.
     pub tolerance: Option<f64>,
     pub label: Option<String>,
+    /// The amplifier channel it feeds, where the job groups nodes so.
+    pub channel: Option<String>,
 }
 
 /// A series resistor between two filter nodes.
@@ -412,8 +430,39 @@ pub struct MeasurementSet {
     /// Circuit facts that differ for this set (parts changed since the
     /// circuit block was written), laid over the job's circuit.
     pub circuit_changes: Circuit,
+    /// Valves fitted with another type for this set (a rectifier or output
+    /// valves swapped): the set's figures use the new type's ratings.
+    pub valve_types: Vec<ValveTypeChange>,
+    /// Readings taken at times during a warm-up.
+    pub warm_up: Vec<WarmUpReading>,
+    /// Where the bias controls were set.
+    pub bias_controls: Vec<BiasControl>,
     #[serde(skip)]
     pub span: SourceSpan,
+}
+
+/// A valve position fitted with another type in one set.
+#[derive(Debug, Clone, Serialize)]
+pub struct ValveTypeChange {
+    pub position: Spanned<String>,
+    pub type_name: Spanned<String>,
+}
+
+/// A valve read at a time since power-on, within one set.
+#[derive(Debug, Clone, Serialize)]
+pub struct WarmUpReading {
+    /// Minutes since power-on.
+    pub minutes: Spanned<f64>,
+    pub reading: ValveReading,
+}
+
+/// A bias control's setting, as the technician describes it.
+#[derive(Debug, Clone, Serialize)]
+pub struct BiasControl {
+    /// Which control, when there is more than one.
+    pub label: Option<String>,
+    /// "2 o'clock", "fully clockwise", "−36 V at the test point".
+    pub position: String,
 }
 
 #[derive(Debug, Clone, Serialize)]
@@ -452,6 +501,19 @@ pub struct ValveReading {
     pub span: SourceSpan,
 }
 
+impl ValveReading {
+    /// Whether anything was read (a line may give only the set's type).
+    pub fn has_readings(&self) -> bool {
+        self.plate.is_some()
+            || self.screen.is_some()
+            || self.cathode.is_some()
+            || self.grid.is_some()
+            || self.sense.is_some()
+            || self.primary_drop.is_some()
+            || self.current.is_some()
+    }
+}
+
 #[derive(Debug, Clone, Serialize)]
 pub struct HeaterReading {
     pub volts: Spanned<Volts>,
@@ -461,7 +523,10 @@ pub struct HeaterReading {
 
 #[derive(Debug, Clone, Serialize)]
 pub struct PartChange {
-    pub reference: String,
+    /// The circuit reference ("C31"), when the part has one.
+    pub reference: Option<String>,
+    /// What the part is, for one without a reference ("mains cord").
+    pub what: Option<String>,
     pub was: Option<String>,
     pub now: Option<String>,
     pub reason: Option<String>,
@@ -592,6 +657,16 @@ pub struct Acceptance {
     pub date: NaiveDate,
     #[serde(skip)]
     pub span: SourceSpan,
+}
+
+impl PartChange {
+    /// The reference, else what the part is.
+    pub fn name(&self) -> &str {
+        self.reference
+            .as_deref()
+            .or(self.what.as_deref())
+            .unwrap_or("")
+    }
 }
 
 impl SafetyTest {

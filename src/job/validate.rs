@@ -77,6 +77,21 @@ pub fn cross_references(job: &Job) -> Vec<DecodeError> {
         for v in &set.valves {
             position(&v.position, &format!("the \"{}\" readings", set.label));
         }
+        for c in &set.valve_types {
+            if !set
+                .valves
+                .iter()
+                .any(|v| v.position.value == c.position.value)
+            {
+                position(&c.position, &format!("the \"{}\" readings", set.label));
+            }
+        }
+        for w in &set.warm_up {
+            position(
+                &w.reading.position,
+                &format!("the \"{}\" warm-up", set.label),
+            );
+        }
     }
     for m in &job.mods {
         for f in &m.figures {

@@ -300,7 +300,7 @@ pub fn summary(job: &Job, findings: &Findings) -> Summary {
         });
     }
 
-    let parts: Vec<String> = job.parts.iter().map(|p| p.reference.clone()).collect();
+    let parts: Vec<String> = job.parts.iter().map(|p| p.name().to_string()).collect();
     match parts.len() {
         0 => {}
         1 => out

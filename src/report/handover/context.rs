@@ -210,7 +210,10 @@ pub struct LineUpRow {
 
 #[derive(Debug, Clone, Serialize)]
 pub struct PartRow {
-    pub reference: String,
+    /// The circuit reference, or none for a part without one.
+    pub reference: Option<String>,
+    /// What the part is ("mains cord"), when the job says.
+    pub what: Option<String>,
     pub was: Option<String>,
     pub now: Option<String>,
     pub reason: Option<String>,
@@ -747,6 +750,7 @@ pub fn build_context(
             .iter()
             .map(|p| PartRow {
                 reference: p.reference.clone(),
+                what: p.what.clone(),
                 was: p.was.as_deref().map(glue_units),
                 now: p.now.as_deref().map(glue_units),
                 reason: p.reason.as_deref().map(|r| glue_units(&reflow(r))),
