@@ -226,15 +226,17 @@ fn warm_up(
         .filter_map(|w| {
             let spec = job.valve_in(set, &w.reading.position.value)?;
             let rating = ratings.lookup(&spec.type_name.value).ok()?;
-            // A warm-up reading often lacks the plate voltage: take the
-            // set's settled plate reading for the dissipation.
+            // A warm-up reading often gives only what sets the current:
+            // the plate and screen voltages are then the set's settled
+            // ones (for the dissipation and the screen current).
             let mut reading = w.reading.clone();
-            if reading.plate.is_none() {
-                reading.plate = set
-                    .valves
-                    .iter()
-                    .find(|v| v.position.value == reading.position.value)
-                    .and_then(|v| v.plate.clone());
+            if let Some(settled) = set
+                .valves
+                .iter()
+                .find(|v| v.position.value == reading.position.value)
+            {
+                reading.plate = reading.plate.or_else(|| settled.plate.clone());
+                reading.screen = reading.screen.or_else(|| settled.screen.clone());
             }
             let f = valve::analyse(ctx, &spec, &reading, rating, &mut Vec::new());
             Some(WarmUpPoint {

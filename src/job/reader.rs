@@ -379,7 +379,7 @@ impl<'s> Reader<'s> {
             _ => None,
         };
         match value {
-            Some(v) if v >= 0.0 && v <= 24.0 * 60.0 => Some(Spanned::new(v, span)),
+            Some(v) if (0.0..=24.0 * 60.0).contains(&v) => Some(Spanned::new(v, span)),
             _ => {
                 self.push(
                     DecodeError::error(

@@ -14,6 +14,9 @@ use plotters::style::text_anchor::{HPos, Pos, VPos};
 
 use crate::calc::Findings;
 
+mod warm_up;
+pub use warm_up::{WarmUpChart, WarmUpLine, warm_up_chart, warm_up_svg};
+
 /// Font named in the SVG text elements: the bundled body font, which typst
 /// uses when it draws the SVG.
 const FONT: &str = "Noto Sans";

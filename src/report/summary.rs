@@ -319,6 +319,16 @@ pub fn summary(job: &Job, findings: &Findings) -> Summary {
             .done
             .push(format!("{n} modifications were made (listed below).")),
     }
+    if let Some(last) = final_set {
+        for l in &findings.line_up {
+            if let Some(c) = l.changes.iter().find(|c| c.set == last.label) {
+                out.done.push(format!(
+                    "{} now holds a {} (it held a {}).",
+                    l.position, c.valve_type, l.valve_type
+                ));
+            }
+        }
+    }
     if let (Some(first), Some(last)) = (first, final_set)
         && let (Some(was), Some(now)) = (plate_range(first), plate_range(last))
         && was != now
@@ -435,7 +445,21 @@ mod tests {
         assert!(found.contains(&p), "{found} lacks {p}");
         assert!(found.contains("R31"), "{found}");
         let done = s.done.join(" ");
-        assert!(done.contains("3 parts were replaced"), "{done}");
-        assert!(!s.now.is_empty());
+        assert!(
+            done.contains(&format!("{} parts were replaced", job.parts.len())),
+            "{done}"
+        );
+        // The rectifier swap of the final set is named.
+        assert!(
+            done.contains("V5 now holds a 5V4G (it held a 5Y3GT)"),
+            "{done}"
+        );
+        // Signed off: every open figure of the final set is inside its limits.
+        assert!(s.healthy);
+        assert!(
+            s.now[0].contains("every figure is inside its limits"),
+            "{:?}",
+            s.now
+        );
     }
 }

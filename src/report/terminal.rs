@@ -124,7 +124,7 @@ pub fn render(job: &Job, findings: &Findings, style: &TerminalStyle) -> String {
 
     for set in &findings.sets {
         out.push('\n');
-        out.push_str(&render_set(set, style));
+        out.push_str(&render_set(findings, set, style));
     }
 
     out.push('\n');
@@ -264,7 +264,7 @@ fn render_painted(t: &TextTable, style: &TerminalStyle, statuses: &[Status]) -> 
     })
 }
 
-fn render_set(set: &SetFindings, style: &TerminalStyle) -> String {
+fn render_set(findings: &Findings, set: &SetFindings, style: &TerminalStyle) -> String {
     let mut out = String::new();
     let date = set
         .date
@@ -287,6 +287,20 @@ fn render_set(set: &SetFindings, style: &TerminalStyle) -> String {
     ));
     out.push('\n');
 
+    for l in &findings.line_up {
+        if let Some(c) = l.changes.iter().find(|c| c.set == set.label) {
+            out.push_str(&format!(
+                "Fitted for these readings: {} {} (line-up: {})\n",
+                l.position, c.valve_type, l.valve_type
+            ));
+        }
+    }
+    for b in &set.bias_controls {
+        match &b.label {
+            Some(l) => out.push_str(&format!("Bias control {l}: {}\n", b.position)),
+            None => out.push_str(&format!("Bias control: {}\n", b.position)),
+        }
+    }
     if !set.valves.is_empty() {
         out.push_str("Valves\n");
         let mut t = TextTable::new(&[
@@ -307,8 +321,12 @@ fn render_set(set: &SetFindings, style: &TerminalStyle) -> String {
                 (Some(ia), false) => format!("Ia {}", ma(ia)),
                 (None, _) => "–".into(),
             };
+            let position = match &v.channel {
+                Some(c) => format!("{} ({c})", v.position),
+                None => v.position.clone(),
+            };
             t.row(vec![
-                v.position.clone(),
+                position,
                 v.valve_type.clone(),
                 v.bias.clone(),
                 opt(v.plate_volts, volts),
@@ -364,6 +382,26 @@ fn render_set(set: &SetFindings, style: &TerminalStyle) -> String {
         }
     }
 
+    if !set.warm_up.is_empty() {
+        out.push_str("Warm-up (idle current after power-on)\n");
+        let mut t = TextTable::new(&[
+            ("valve", Align::Left),
+            ("after", Align::Right),
+            ("current", Align::Right),
+            ("Pa % max", Align::Right),
+        ]);
+        for p in &set.warm_up {
+            t.row(vec![
+                p.position.clone(),
+                format!("{} min", format_fixed(p.minutes, 1)),
+                opt(p.current_ma, |i| {
+                    format!("{} {}", if p.includes_screen { "Ik" } else { "Ia" }, ma(i))
+                }),
+                opt(p.plate_dissipation_pct, pct),
+            ]);
+        }
+        out.push_str(&t.render_with(2, &|_, _, cell| cell.to_string()));
+    }
     if !set.nodes.is_empty() {
         out.push_str("Supply nodes\n");
         let mut t = TextTable::new(&[

@@ -26,6 +26,11 @@ pub const FOOTER_ID_CHARS: usize = 40;
 pub const DISSIPATION_PLOT: &str = "plots/plate-dissipation.svg";
 pub const SUPPLY_PLOT: &str = "plots/supply-chain.svg";
 
+/// The path of set `index`'s warm-up chart (counting from 0).
+pub fn warm_up_plot(index: usize) -> String {
+    format!("plots/warm-up-{}.svg", index + 1)
+}
+
 /// The shop block at the head of page 1. Until shops can keep a profile,
 /// every document carries the same neutral block.
 #[derive(Debug, Clone, Serialize)]
@@ -206,6 +211,9 @@ pub struct LineUpRow {
     pub role: String,
     /// The ratings row the type resolved to, when it differs or is known.
     pub rated_as: Option<String>,
+    pub channel: Option<String>,
+    /// Other types fitted in some sets: "5AR4 in “as left”".
+    pub changes: Vec<String>,
 }
 
 #[derive(Debug, Clone, Serialize)]
@@ -251,6 +259,16 @@ pub struct SetContext {
     pub label: String,
     /// The state the unit is handed over in.
     pub is_final: bool,
+    /// Where the bias controls were set: "V3, V4 bias: 2 o'clock".
+    pub bias_controls: Vec<String>,
+    /// Valves fitted with another type in this set: "V5: 5AR4 (line-up:
+    /// 5Y3GT)".
+    pub type_changes: Vec<String>,
+    /// Whether any valve or node of the set names a channel (the tables
+    /// then group their rows by channel).
+    pub has_channels: bool,
+    /// Idle current during the warm-up, or none.
+    pub warm_up: Option<WarmUpContext>,
     pub date: Option<String>,
     /// "124 V".
     pub mains: String,
@@ -274,6 +292,26 @@ pub struct SetContext {
     pub not_checked: Vec<NotCheckedRow>,
 }
 
+/// Idle currents at times during a warm-up: a row per time, a column per
+/// valve.
+#[derive(Debug, Clone, Serialize)]
+pub struct WarmUpContext {
+    pub valves: Vec<String>,
+    pub rows: Vec<WarmUpRow>,
+    /// "Ik" when some current includes the screen current, else "Ia".
+    pub current_kind: String,
+    /// The chart's path, or none.
+    pub plot: Option<String>,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct WarmUpRow {
+    /// "5 min", "30 s".
+    pub time: String,
+    /// mA to 0.1 per valve, "–" where that valve was not read then.
+    pub currents: Vec<String>,
+}
+
 #[derive(Debug, Clone, Serialize)]
 pub struct NotCheckedRow {
     pub reference: String,
@@ -286,6 +324,7 @@ pub struct NotCheckedRow {
 #[derive(Debug, Clone, Serialize)]
 pub struct NodeRow {
     pub name: String,
+    pub channel: Option<String>,
     pub label: Option<String>,
     pub measured: String,
     pub corrected: String,
@@ -304,6 +343,7 @@ pub struct NodeRow {
 #[derive(Debug, Clone, Serialize)]
 pub struct ValveRow {
     pub position: String,
+    pub channel: Option<String>,
     pub type_name: String,
     pub role: String,
     pub bias: String,
@@ -525,6 +565,8 @@ pub struct ContextInputs<'a> {
     pub job_digest: &'a str,
     pub has_dissipation_plot: bool,
     pub has_supply_plot: bool,
+    /// The sets (by index) that have a warm-up chart.
+    pub warm_up_plots: Vec<usize>,
 }
 
 /// A date in words: "9 November 2026".
@@ -690,7 +732,11 @@ pub fn build_context(
     let sets: Vec<SetContext> = findings
         .sets
         .iter()
-        .map(|set| set_context(findings, set))
+        .enumerate()
+        .map(|(i, set)| {
+            let plot = inputs.warm_up_plots.contains(&i).then(|| warm_up_plot(i));
+            set_context(findings, set, plot)
+        })
         .collect();
     HandoverContext {
         document: DocumentInfo {
@@ -728,21 +774,20 @@ pub fn build_context(
         complaint: job.complaint.as_deref().map(reflow),
         findings: job.findings.as_deref().map(reflow),
         work: job.work.as_deref().map(reflow),
-        valves: job
-            .valves
+        valves: findings
+            .line_up
             .iter()
-            .map(|v| {
-                let rated_as = findings
-                    .ratings_used
+            .map(|v| LineUpRow {
+                position: v.position.clone(),
+                type_name: v.valve_type.clone(),
+                role: v.role.clone(),
+                rated_as: v.rating_name.clone(),
+                channel: v.channel.clone(),
+                changes: v
+                    .changes
                     .iter()
-                    .find(|r| r.positions.contains(&v.position.value))
-                    .map(|r| r.name.clone());
-                LineUpRow {
-                    position: v.position.value.clone(),
-                    type_name: v.type_name.value.clone(),
-                    role: v.role.words().to_string(),
-                    rated_as,
-                }
+                    .map(|c| format!("{} in \u{201c}{}\u{201d}", c.valve_type, c.set))
+                    .collect(),
             })
             .collect(),
         parts: job
@@ -836,7 +881,78 @@ fn glance(findings: &Findings) -> Glance {
     }
 }
 
-fn set_context(findings: &Findings, set: &SetFindings) -> SetContext {
+/// The channels in the order the line-up first names them; rows without a
+/// channel come first.
+fn channel_order(findings: &Findings, channel: &Option<String>) -> usize {
+    match channel {
+        None => 0,
+        Some(c) => {
+            1 + findings
+                .line_up
+                .iter()
+                .filter_map(|v| v.channel.as_ref())
+                .position(|x| x == c)
+                .unwrap_or(usize::MAX - 1)
+        }
+    }
+}
+
+/// A time in minutes as a technician writes it: "30 s", "5 min", "1.5 h".
+fn minutes_words(m: f64) -> String {
+    if m < 1.0 {
+        format!("{} s", format_sig(m * 60.0, 3))
+    } else if m < 120.0 {
+        format!("{} min", format_sig(m, 3))
+    } else {
+        format!("{} h", format_sig(m / 60.0, 3))
+    }
+}
+
+fn warm_up_context(set: &SetFindings, plot: Option<String>) -> Option<WarmUpContext> {
+    if set.warm_up.is_empty() {
+        return None;
+    }
+    let mut valves: Vec<String> = Vec::new();
+    let mut times: Vec<f64> = Vec::new();
+    for p in &set.warm_up {
+        if !valves.contains(&p.position) {
+            valves.push(p.position.clone());
+        }
+        if !times.iter().any(|t| (t - p.minutes).abs() < 1e-9) {
+            times.push(p.minutes);
+        }
+    }
+    times.sort_by(f64::total_cmp);
+    let rows = times
+        .iter()
+        .map(|t| WarmUpRow {
+            time: minutes_words(*t),
+            currents: valves
+                .iter()
+                .map(|v| {
+                    set.warm_up
+                        .iter()
+                        .find(|p| &p.position == v && (p.minutes - t).abs() < 1e-9)
+                        .and_then(|p| p.current_ma)
+                        .map(|i| fixed(i, 1))
+                        .unwrap_or_else(|| "–".to_string())
+                })
+                .collect(),
+        })
+        .collect();
+    Some(WarmUpContext {
+        valves,
+        rows,
+        current_kind: if set.warm_up.iter().any(|p| p.includes_screen) {
+            "Ik".into()
+        } else {
+            "Ia".into()
+        },
+        plot,
+    })
+}
+
+fn set_context(findings: &Findings, set: &SetFindings, warm_up_plot: Option<String>) -> SetContext {
     let nominal = findings.mains.nominal_volts;
     let date = set
         .date
@@ -868,15 +984,52 @@ fn set_context(findings: &Findings, set: &SetFindings) -> SetContext {
                 .map(|r| resistor_row(r, "screen resistor")),
         )
         .collect();
+    let mut valves: Vec<ValveRow> = set.valves.iter().map(valve_row).collect();
+    valves.sort_by_key(|v| channel_order(findings, &v.channel));
+    let mut nodes: Vec<NodeRow> = set.nodes.iter().map(node_row).collect();
+    nodes.sort_by_key(|n| channel_order(findings, &n.channel));
+    let has_channels =
+        valves.iter().any(|v| v.channel.is_some()) || nodes.iter().any(|n| n.channel.is_some());
+    let type_changes = set
+        .valves
+        .iter()
+        .map(|v| (&v.position, &v.valve_type))
+        .chain(findings.line_up.iter().flat_map(|l| {
+            l.changes
+                .iter()
+                .filter(|c| c.set == set.label)
+                .map(move |c| (&l.position, &c.valve_type))
+        }))
+        .filter_map(|(pos, t)| {
+            let l = findings.line_up.iter().find(|l| &l.position == pos)?;
+            (&l.valve_type != t).then(|| format!("{pos}: {t} (line-up: {})", l.valve_type))
+        })
+        .fold(Vec::new(), |mut acc: Vec<String>, x| {
+            if !acc.contains(&x) {
+                acc.push(x);
+            }
+            acc
+        });
     SetContext {
         label: set.label.clone(),
         is_final: set.is_final,
+        bias_controls: set
+            .bias_controls
+            .iter()
+            .map(|b| match &b.label {
+                Some(l) => format!("{l}: {}", b.position),
+                None => b.position.clone(),
+            })
+            .collect(),
+        type_changes,
+        has_channels,
+        warm_up: warm_up_context(set, warm_up_plot),
         date,
         mains: volts(set.mains_volts),
         factor: format!("{:.3}", set.correction_factor),
         nominal: volts(nominal),
-        nodes: set.nodes.iter().map(node_row).collect(),
-        valves: set.valves.iter().map(valve_row).collect(),
+        nodes,
+        valves,
         conservative: set
             .valves
             .iter()
@@ -974,6 +1127,7 @@ fn attention_context(a: &Attention) -> AttentionContext {
 fn node_row(n: &NodeFindings) -> NodeRow {
     NodeRow {
         name: n.name.clone(),
+        channel: n.channel.clone(),
         label: n.label.clone(),
         measured: sig3(n.measured_volts),
         corrected: sig3(n.corrected_volts),
@@ -999,6 +1153,7 @@ fn valve_row(v: &ValveFindings) -> ValveRow {
         });
     ValveRow {
         position: v.position.clone(),
+        channel: v.channel.clone(),
         type_name: v.valve_type.clone(),
         role: v.role.replace('_', " "),
         bias: v.bias.clone(),

@@ -18,10 +18,10 @@ use sha2::{Digest, Sha256};
 pub use context::{
     AcceptedRow, AttentionContext, CapacitorRow, ContextInputs, CustomerInfo, DISSIPATION_PLOT,
     DocumentInfo, EntryRow, Footer, Glance, GlanceRow, HandoverContext, HeaterRow, HistoryRow,
-    JobInfo, LineUpRow, MainsInfo, Method, ModFigureRow, ModRow, NodeRow, PartRow, Plots,
-    RatingRow, RectifierRow, ResistorRow, SUPPLY_PLOT, SafetyContext, SafetyRow, SetContext,
-    ShopBlock, SummaryContext, UnitInfo, ValveRow, WindowReading, WindowRow, build_context,
-    date_words,
+    JobInfo, LineUpRow, MainsInfo, Method, ModFigureRow, ModRow, NodeRow, NotCheckedRow, PartRow,
+    Plots, RatingRow, RectifierRow, ResistorRow, SUPPLY_PLOT, SafetyContext, SafetyRow, SetContext,
+    ShopBlock, SummaryContext, UnitInfo, ValveRow, WarmUpContext, WarmUpRow, WindowReading,
+    WindowRow, build_context, date_words, warm_up_plot,
 };
 
 use super::plots::{self, PlotError};
@@ -156,6 +156,13 @@ pub fn build(
     if let Some(chart) = &supply {
         sandbox.insert(SUPPLY_PLOT, plots::supply_svg(chart)?)?;
     }
+    let mut warm_up_plots = Vec::new();
+    for (i, set) in input.findings.sets.iter().enumerate() {
+        if let Some(chart) = plots::warm_up_chart(set) {
+            sandbox.insert(warm_up_plot(i), plots::warm_up_svg(&chart)?)?;
+            warm_up_plots.push(i);
+        }
+    }
     let digest = job_digest(input.job_text);
     let inputs = ContextInputs {
         shop: input.shop.clone(),
@@ -164,6 +171,7 @@ pub fn build(
         job_digest: &digest,
         has_dissipation_plot: dissipation.is_some(),
         has_supply_plot: supply.is_some(),
+        warm_up_plots,
     };
     let context = build_context(input.job, input.findings, &inputs);
     let source = render_template(&context, templates)?;
