@@ -9,6 +9,7 @@ pub mod calc;
 pub mod cli;
 pub mod job;
 pub mod kdl_fast;
+pub mod problem_cap;
 pub mod ratings;
 pub mod report;
 pub mod typeset;
