@@ -7,6 +7,7 @@
 
 pub mod calc;
 pub mod cli;
+pub mod input_file;
 pub mod job;
 pub mod kdl_fast;
 pub mod problem_cap;

@@ -451,3 +451,65 @@ fn garbage(len: usize) -> String {
         })
         .collect()
 }
+
+// ----- files that are not what they seem -----------------------------------------
+
+#[test]
+fn a_file_that_is_not_utf8_is_placed_by_line_and_column() {
+    let dir = tempfile::tempdir().expect("temp dir");
+    let mut bytes = demo("combo-el84-cathode.kdl").into_bytes();
+    // A Latin-1 "µ" (0xB5) inside the third line's text.
+    let line3 = bytes
+        .iter()
+        .enumerate()
+        .filter(|(_, b)| **b == b'\n')
+        .nth(1)
+        .map(|(i, _)| i + 1)
+        .expect("three lines");
+    bytes.insert(line3 + 4, 0xb5);
+    std::fs::write(dir.path().join("latin1.kdl"), &bytes).expect("write");
+    let run = run_with_deadline(dir.path(), &["check", "latin1.kdl"], LIMIT);
+    assert_eq!(run.status, Some(1));
+    assert!(
+        run.stderr
+            .contains("latin1.kdl:3:5: the job file is not UTF-8 text (byte 0xb5 here)"),
+        "{}",
+        run.stderr
+    );
+}
+
+#[test]
+fn a_job_file_over_16_mib_is_refused_before_it_is_read() {
+    let dir = tempfile::tempdir().expect("temp dir");
+    let path = dir.path().join("huge.kdl");
+    let file = std::fs::File::create(&path).expect("create");
+    file.set_len(ampreport::input_file::MAX_INPUT_BYTES + 1)
+        .expect("sparse file");
+    let run = run_with_deadline(dir.path(), &["check", "huge.kdl"], LIMIT);
+    assert_eq!(run.status, Some(1));
+    assert!(run.stderr.contains("larger than 16 MiB"), "{}", run.stderr);
+    let run = run_with_deadline(
+        dir.path(),
+        &["check", "nothing.kdl", "--ratings", "huge.kdl"],
+        LIMIT,
+    );
+    assert_eq!(run.status, Some(1));
+    assert!(run.stderr.contains("larger than 16 MiB"), "{}", run.stderr);
+}
+
+/// `chart=` with no value at the end of a line was reported at 1:1.
+#[test]
+fn a_property_without_a_value_is_reported_where_it_is() {
+    let text =
+        demo("combo-el84-cathode.kdl").replacen("node B+2 \"334V\"", "node B+2 \"334V\" chart=", 1);
+    let dir = tempfile::tempdir().expect("temp dir");
+    std::fs::write(dir.path().join("j.kdl"), &text).expect("write");
+    let run = run_with_deadline(dir.path(), &["check", "j.kdl"], LIMIT);
+    assert_eq!(run.status, Some(1));
+    let at = pos_of("j.kdl", &text, "chart=\n", "chart".len());
+    assert!(
+        run.stderr.contains(&format!("[{at}]")),
+        "expected {at}:\n{}",
+        run.stderr
+    );
+}

@@ -118,7 +118,7 @@ fn syntax_problems(text: &str, e: &kdl::KdlError) -> Vec<DecodeError> {
         let message = d.message.clone().unwrap_or_else(|| "the KDL syntax is broken here".to_string());
         let mut p = DecodeError::error(
             "job::syntax",
-            d.span,
+            crate::kdl_fast::narrow_span(text, d.span),
             format!("KDL syntax: {message}"),
             d.label.clone().unwrap_or_else(|| "here".to_string()),
         );

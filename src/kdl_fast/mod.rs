@@ -185,6 +185,23 @@ pub fn too_deep(text: &str) -> Option<TooDeep> {
     None
 }
 
+/// A syntax diagnostic's span made to point where the trouble is. The
+/// `kdl` crate reports some errors (a property with no value at the end of
+/// a line, `chart=`) with a span from the start of the document to the
+/// place it gave up, which would be shown at 1:1; such a span is narrowed
+/// to its last character. Other spans are kept.
+pub fn narrow_span(text: &str, span: miette::SourceSpan) -> miette::SourceSpan {
+    let end = (span.offset() + span.len()).min(text.len());
+    if span.offset() != 0 || !text[..end].contains('\n') {
+        return span;
+    }
+    let body = text[..end].trim_end();
+    match body.char_indices().next_back() {
+        Some((at, c)) => miette::SourceSpan::new(at.into(), c.len_utf8()),
+        None => span,
+    }
+}
+
 /// The fast parser alone: `None` when it declines the text (which it does
 /// for every broken document and for a few rare valid forms).
 pub fn parse_fast(text: &str) -> Option<KdlDocument> {
@@ -260,6 +277,17 @@ mod depth_tests {
             assert_eq!(too_deep(&text), None);
             assert!(parse_document(&text).is_err());
         }
+    }
+
+    #[test]
+    fn a_span_from_the_start_of_the_document_is_narrowed_to_its_end() {
+        let text = "a 1\nnode B+2 chart=\nb 2\n";
+        let e = KdlDocument::parse(text).expect_err("no value");
+        let span = narrow_span(text, e.diagnostics[0].span);
+        assert_eq!(span.offset(), text.find('=').unwrap());
+        // A span that starts later is kept.
+        let kept = miette::SourceSpan::new(4.into(), 3);
+        assert_eq!(narrow_span(text, kept), kept);
     }
 
     #[test]

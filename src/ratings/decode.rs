@@ -103,7 +103,12 @@ fn syntax_problems(text: &str, e: &kdl::KdlError) -> Vec<RatingProblem> {
                 .help
                 .clone()
                 .map_or_else(|| hint.to_string(), |h| format!("{h}\n{hint}"));
-            RatingProblem::new(message, clamp(text, d.span), label).with_help(help)
+            RatingProblem::new(
+                message,
+                clamp(text, crate::kdl_fast::narrow_span(text, d.span)),
+                label,
+            )
+            .with_help(help)
         })
         .collect();
     if out.is_empty() {
