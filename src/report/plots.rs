@@ -202,6 +202,7 @@ pub fn label_text(text: &str, max_chars: usize) -> String {
         .map(|c| if c.is_whitespace() { ' ' } else { c })
         .filter(|c| !c.is_control() && !is_xml_forbidden(*c))
         .collect();
+    let clean = crate::typeset::drawable(&clean);
     let clean = clean.split_whitespace().collect::<Vec<_>>().join(" ");
     if clean.chars().count() <= max_chars {
         clean
