@@ -94,8 +94,13 @@ impl SourceCode for ClippedSource {
         let to = from + contents.data().len();
         let start = span.offset().saturating_sub(WINDOW).max(from);
         let end = (span.offset() + span.len().min(2 * WINDOW) + WINDOW).min(to);
-        let start = text.floor_char_boundary(start);
-        let end = text.ceil_char_boundary(end.max(start));
+        let start = (0..=start)
+            .rev()
+            .find(|&i| text.is_char_boundary(i))
+            .unwrap_or(0);
+        let end = (end.max(start)..=text.len())
+            .find(|&i| text.is_char_boundary(i))
+            .unwrap_or(text.len());
         let before_text = &text[..start];
         let line = before_text.matches('\n').count();
         let line_start = before_text.rfind('\n').map_or(0, |i| i + 1);

@@ -45,7 +45,7 @@ fn every_corpus_file_gives_sound_output() {
 
 proptest! {
     #![proptest_config(ProptestConfig {
-        cases: std::env::var("PROPTEST_CASES").ok().and_then(|v| v.parse().ok()).unwrap_or(192),
+        cases: std::env::var("PROPTEST_CASES").ok().and_then(|v| v.parse().ok()).unwrap_or(96),
         failure_persistence: None,
         ..ProptestConfig::default()
     })]

@@ -140,8 +140,13 @@ fn no_non_finite_words(what: &str, text: &str) -> Result<(), String> {
     for word in text.split(|c: char| !c.is_ascii_alphanumeric()) {
         if matches!(word, "NaN" | "nan" | "inf" | "Infinity" | "infinity") {
             let at = text.find(word).unwrap_or(0);
-            let from = text.floor_char_boundary(at.saturating_sub(60));
-            let to = text.ceil_char_boundary((at + 60).min(text.len()));
+            let from = (0..=at.saturating_sub(60))
+                .rev()
+                .find(|&i| text.is_char_boundary(i))
+                .unwrap_or(0);
+            let to = ((at + 60).min(text.len())..=text.len())
+                .find(|&i| text.is_char_boundary(i))
+                .unwrap_or(text.len());
             return Err(format!("{what} shows {word:?}: …{}…", &text[from..to]));
         }
     }
