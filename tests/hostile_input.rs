@@ -513,3 +513,57 @@ fn a_property_without_a_value_is_reported_where_it_is() {
         run.stderr
     );
 }
+
+// ----- text the fonts cannot draw ------------------------------------------------
+
+/// Emoji, Thai, Ethiopic, mathematical letters and private-use characters
+/// used to make typst fail; they reach the source as the placeholder, with
+/// a warning naming the field, and a 3,000-character word gets places to
+/// break. (`tests/render.rs`-style checks of the PDF itself need typst.)
+#[test]
+fn characters_the_fonts_lack_become_a_placeholder_with_a_warning() {
+    let word = "x".repeat(3000);
+    let reason = format!("Low emission 🔥 ก ሀ 𝔸 \u{e000} {word}");
+    let text = demo("combo-el84-cathode.kdl").replacen(
+        "reason=\"Low emission after overheating\"",
+        &format!("reason=\"{reason}\""),
+        1,
+    );
+    let dir = tempfile::tempdir().expect("temp dir");
+    let typst = fake_typst(dir.path());
+    std::fs::write(dir.path().join("j.kdl"), &text).expect("write");
+    let run = run_with_deadline(
+        dir.path(),
+        &[
+            "render",
+            "j.kdl",
+            "--typst",
+            &typst,
+            "--emit-source",
+            "src",
+            "-o",
+            "j.pdf",
+        ],
+        LIMIT,
+    );
+    let at = pos_of("j.kdl", &text, "reason=\"Low emission 🔥", 0);
+    assert!(
+        run.stderr
+            .contains(&format!("warning: {at}: the text of `reason` of `part`"))
+            && run
+                .stderr
+                .contains("U+1F525, U+0E01, U+1200, U+1D538, U+E000"),
+        "{}",
+        run.stderr
+    );
+    let main = std::fs::read_to_string(dir.path().join("src/main.typ")).expect("source written");
+    for c in ['🔥', 'ก', 'ሀ', '𝔸', '\u{e000}'] {
+        assert!(!main.contains(c), "{c:?} reached the source");
+    }
+    let placeholder = ampreport::typeset::placeholder();
+    assert!(main.contains(&format!("Low emission {placeholder} {placeholder}")));
+    // The long word can break: a zero-width space after each character
+    // past the 40th, and no run of more than 41 characters without one.
+    assert!(!main.contains(&"x".repeat(42)));
+    assert!(main.contains(&"x\u{200b}".repeat(100)));
+}
