@@ -20,7 +20,7 @@ fn pct(v: Option<f64>) -> String {
 /// projection decided.
 pub fn valve_check(v: &ValveFindings, check: &str, high_line: f64) -> String {
     let voltage = |name: &str, pct_now: Option<f64>| match pct_now {
-        Some(p) if p <= 100.0 => format!("{name} {:.0} % of max at high line", p * high_line),
+        Some(p) if p <= 100.0 => format!("{name} {:.0} % at high line", p * high_line),
         p => format!("{name} {} of max", pct(p)),
     };
     match check {

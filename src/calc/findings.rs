@@ -500,7 +500,10 @@ pub struct FamilyStatus {
 /// A finding the technician accepted, for summaries.
 #[derive(Debug, Clone, Serialize)]
 pub struct AcceptedFinding {
+    /// "V3 (6V6GT)", "C30".
     pub subject: String,
+    /// For a valve, the check in words ("screen voltage").
+    pub check: Option<String>,
     pub status: Status,
     pub reason: String,
     pub accepted_reason: String,

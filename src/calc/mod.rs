@@ -356,10 +356,12 @@ fn glance(
 ) -> Vec<FamilyStatus> {
     let mut out = Vec::new();
     for family in Family::ALL {
-        let verdicts: Vec<(String, &Verdict)> = match (family, last) {
+        // Each figure's subject ("V3 (EL34)", "R31"), the check it is (for
+        // a valve) and its verdict.
+        let verdicts: Vec<(String, Option<String>, &Verdict)> = match (family, last) {
             (Family::SafetyTests, _) => safety
                 .iter()
-                .map(|s| (s.test.replace('_', " "), &s.verdict))
+                .map(|s| (s.test.replace('_', " "), None, &s.verdict))
                 .collect(),
             (_, None) => Vec::new(),
             (Family::OutputValves, Some(set)) => set
@@ -369,12 +371,8 @@ fn glance(
                 .flat_map(|v| {
                     v.checks.iter().map(move |c| {
                         (
-                            format!(
-                                "{} ({}) {}",
-                                v.position,
-                                v.valve_type,
-                                c.check.replace('_', " ")
-                            ),
+                            format!("{} ({})", v.position, v.valve_type),
+                            Some(c.check.replace('_', " ")),
                             &c.verdict,
                         )
                     })
@@ -383,36 +381,39 @@ fn glance(
             (Family::SupplyVoltages, Some(set)) => set
                 .nodes
                 .iter()
-                .map(|n| (n.name.clone(), &n.verdict))
+                .map(|n| (n.name.clone(), None, &n.verdict))
                 .collect(),
             (Family::StressedParts, Some(set)) => set
                 .droppers
                 .iter()
                 .chain(&set.cathode_resistors)
                 .chain(&set.screen_resistors)
-                .map(|r| (r.reference.clone(), &r.verdict))
+                .map(|r| (r.reference.clone(), None, &r.verdict))
                 .chain(
                     set.filter_capacitors
                         .iter()
-                        .map(|c| (c.reference.clone(), &c.verdict)),
+                        .map(|c| (c.reference.clone(), None, &c.verdict)),
                 )
-                .chain(
-                    set.rectifier
-                        .iter()
-                        .map(|r| (format!("{} ({})", r.position, r.valve_type), &r.verdict)),
-                )
+                .chain(set.rectifier.iter().map(|r| {
+                    (
+                        format!("{} ({})", r.position, r.valve_type),
+                        Some("rectifier load".to_string()),
+                        &r.verdict,
+                    )
+                }))
                 .collect(),
             (Family::Heater, Some(set)) => set
                 .heaters
                 .iter()
-                .map(|h| ("heater".to_string(), &h.verdict))
+                .map(|h| ("heater".to_string(), None, &h.verdict))
                 .collect(),
         };
         let accepted: Vec<AcceptedFinding> = verdicts
             .iter()
-            .filter(|(_, v)| v.accepted)
-            .map(|(subject, v)| AcceptedFinding {
+            .filter(|(_, _, v)| v.accepted)
+            .map(|(subject, check, v)| AcceptedFinding {
                 subject: subject.clone(),
+                check: check.clone(),
                 status: v.status,
                 reason: v.reason.clone(),
                 accepted_reason: v.accepted_reason.clone().unwrap_or_default(),
@@ -421,10 +422,10 @@ fn glance(
             })
             .collect();
         // The worst figure that still counts: accepted ones are left out.
-        let worst = verdicts.iter().filter(|(_, v)| !v.accepted).fold(
+        let worst = verdicts.iter().filter(|(_, _, v)| !v.accepted).fold(
             None,
-            |best: Option<&(String, &Verdict)>, item| {
-                if best.is_none_or(|b| item.1.status.rank() > b.1.status.rank()) {
+            |best: Option<&(String, Option<String>, &Verdict)>, item| {
+                if best.is_none_or(|b| item.2.status.rank() > b.2.status.rank()) {
                     Some(item)
                 } else {
                     best
@@ -432,11 +433,11 @@ fn glance(
             },
         );
         let (status, words, measured) = match worst {
-            Some((subject, v)) if v.status != Status::Ok => {
+            Some((subject, _, v)) if v.status != Status::Ok => {
                 (v.status, format!("{subject}: {}", v.reason), true)
             }
             _ if !accepted.is_empty() => (Status::Ok, accepted_words(&accepted), true),
-            Some((_, v)) => (
+            Some((_, _, v)) => (
                 Status::Ok,
                 ok_summary(family, last, safety).unwrap_or_else(|| v.reason.clone()),
                 true,
@@ -460,24 +461,33 @@ fn glance(
     out
 }
 
-/// The accepted findings of a family in words, grouped by their reason:
-/// "accepted: V3 (6V6GT) screen voltage, V4 (6V6GT) screen voltage (factory
-/// design)".
+/// The accepted findings of a family in words, grouped by check:
+/// "accepted by the technician: plate voltage of V3, V4; screen voltage of
+/// V3, V4 (reasons below)".
 fn accepted_words(accepted: &[AcceptedFinding]) -> String {
-    let mut groups: Vec<(&str, Vec<&str>)> = Vec::new();
+    let mut groups: Vec<(Option<&str>, Vec<&str>)> = Vec::new();
     for a in accepted {
-        match groups.iter_mut().find(|(r, _)| *r == a.accepted_reason) {
-            Some((_, subjects)) => subjects.push(&a.subject),
-            None => groups.push((&a.accepted_reason, vec![&a.subject])),
+        // A valve by its position alone: the check names what it is.
+        let name = match &a.check {
+            Some(_) => a.subject.split(' ').next().unwrap_or(&a.subject),
+            None => a.subject.as_str(),
+        };
+        match groups.iter_mut().find(|(c, _)| *c == a.check.as_deref()) {
+            Some((_, names)) => names.push(name),
+            None => groups.push((a.check.as_deref(), vec![name])),
         }
     }
     let parts: Vec<String> = groups
         .iter()
-        .map(|(reason, subjects)| {
-            format!("{} ({})", subjects.join(", "), reason.trim_end_matches('.'))
+        .map(|(check, names)| match check {
+            Some(c) => format!("{c} of {}", names.join(", ")),
+            None => names.join(", "),
         })
         .collect();
-    format!("accepted by the technician: {}", parts.join("; "))
+    format!(
+        "accepted by the technician: {} (reasons below)",
+        parts.join("; ")
+    )
 }
 
 /// When a whole family is ok, the figure nearest its limit, in words.

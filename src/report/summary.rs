@@ -402,10 +402,10 @@ pub fn summary(job: &Job, findings: &Findings) -> Summary {
             if failed.len() == 1 { "" } else { "s" }
         )));
     } else {
-        out.now.push(format!(
-            "The electrical safety tests ({}) met the shop's limits.",
-            findings.safety.len()
-        ));
+        out.now.push(match findings.safety.len() {
+            1 => "The electrical safety test met the shop's limit.".to_string(),
+            n => format!("All {n} electrical safety tests met the shop's limits."),
+        });
     }
     out
 }
