@@ -347,7 +347,7 @@ fn mode_under_umask(umask: &str) -> u32 {
         .args([
             "-c",
             &format!("umask {umask}; exec \"$0\" \"$@\""),
-            support::BIN,
+            &support::bin(),
             "render",
             scene.job.to_str().unwrap(),
             "-o",

@@ -272,7 +272,14 @@ fn after_kill_9_the_next_run_cleans_up() {
     // …while one that a live run holds locked must survive a sweep.
     let live = scene.dir.join(".other.pdf.Xy34Zw.ampreport-part");
     let live_file = std::fs::File::create(&live).unwrap();
-    live_file.try_lock().unwrap();
+    // SAFETY: flock on a descriptor the test owns.
+    let locked = unsafe {
+        libc::flock(
+            std::os::unix::io::AsRawFd::as_raw_fd(&live_file),
+            libc::LOCK_EX | libc::LOCK_NB,
+        )
+    };
+    assert_eq!(locked, 0);
     assert!(!typesetting_folders(&scene).is_empty());
 
     let good = scene.good_typst();

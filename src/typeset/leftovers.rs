@@ -41,7 +41,7 @@ impl LockedDir {
             let _ = mode;
             let dir = builder.tempdir_in(parent)?;
             let lock = File::open(dir.path())?;
-            if lock.try_lock().is_ok() && same_entry(dir.path(), &lock) {
+            if try_lock(&lock) && same_entry(dir.path(), &lock) {
                 return Ok(Self {
                     dir: Some(dir),
                     _lock: lock,
@@ -82,7 +82,7 @@ pub(crate) fn locked_file(
         #[cfg(not(unix))]
         let _ = mode;
         let file = builder.tempfile_in(parent)?;
-        if file.as_file().try_lock().is_ok() && same_entry(file.path(), file.as_file()) {
+        if try_lock(file.as_file()) && same_entry(file.path(), file.as_file()) {
             return Ok(file);
         }
         let _ = file.keep();
@@ -93,6 +93,10 @@ pub(crate) fn locked_file(
 /// Removes every entry of `parent` whose name `is_ours` and that nobody
 /// holds locked. Errors are ignored: a sweep is housekeeping.
 pub(crate) fn sweep(parent: &Path, is_ours: impl Fn(&str) -> bool) {
+    if cfg!(not(unix)) {
+        // No lock tells a leftover from a live run's temporary.
+        return;
+    }
     let Ok(entries) = std::fs::read_dir(parent) else {
         return;
     };
@@ -112,7 +116,7 @@ pub(crate) fn sweep(parent: &Path, is_ours: impl Fn(&str) -> bool) {
         let Ok(lock) = open_no_follow(&path) else {
             continue;
         };
-        if lock.try_lock().is_err() || !same_entry(&path, &lock) {
+        if !try_lock(&lock) || !same_entry(&path, &lock) {
             continue;
         }
         let _ = if kind.is_dir() {
@@ -121,6 +125,21 @@ pub(crate) fn sweep(parent: &Path, is_ours: impl Fn(&str) -> bool) {
             std::fs::remove_file(&path)
         };
     }
+}
+
+/// Takes an exclusive `flock` on `file` without waiting; true when held.
+/// The lock lasts until every descriptor of this open file is closed.
+#[cfg(unix)]
+pub(crate) fn try_lock(file: &File) -> bool {
+    use std::os::unix::io::AsRawFd;
+    // SAFETY: flock on a descriptor `file` owns; no memory is involved.
+    unsafe { libc::flock(file.as_raw_fd(), libc::LOCK_EX | libc::LOCK_NB) == 0 }
+}
+
+/// Without `flock` there is no lock to take (and [`sweep`] removes nothing).
+#[cfg(not(unix))]
+pub(crate) fn try_lock(_: &File) -> bool {
+    true
 }
 
 /// Opens a file or folder for reading without following a final link.

@@ -106,10 +106,7 @@ pub fn check_output(output: &Path, inputs: &[Input]) -> Result<(), OutputRefused
             path: output.to_path_buf(),
         });
     }
-    let existing = match std::fs::symlink_metadata(output) {
-        Ok(meta) => Some(meta),
-        Err(_) => None,
-    };
+    let existing = std::fs::symlink_metadata(output).ok();
     if let Some(meta) = &existing {
         let kind = meta.file_type();
         if kind.is_symlink() {

@@ -10,7 +10,13 @@ use std::path::{Path, PathBuf};
 use std::process::{Command, Output};
 use std::time::{Duration, Instant};
 
-pub const BIN: &str = env!("CARGO_BIN_EXE_ampreport");
+/// The binary under test: this build's, or the one named by
+/// `AMPREPORT_TEST_BIN` (to show that a fault test fails on an older
+/// build: `AMPREPORT_TEST_BIN=/path/to/old/ampreport cargo test --test …`).
+pub fn bin() -> String {
+    std::env::var("AMPREPORT_TEST_BIN")
+        .unwrap_or_else(|_| env!("CARGO_BIN_EXE_ampreport").to_owned())
+}
 
 /// The phrases the finished document must show (the program's own list).
 pub use ampreport::report::handover::NOTICE_PHRASES;
@@ -75,7 +81,7 @@ impl Scene {
 
     /// `ampreport ARGS` with this scene's TMPDIR and font cache.
     pub fn command(&self, args: &[&str]) -> Command {
-        let mut c = self.program(BIN);
+        let mut c = self.program(&bin());
         c.args(args);
         c
     }
