@@ -37,16 +37,11 @@ fn the_output_may_not_be_an_input() {
         (typst.clone(), "the typst program"),
     ];
     for (output, what) in cases {
-        let out = scene.run(&[
-            "render",
-            scene.job.to_str().unwrap(),
-            "-o",
-            output.to_str().unwrap(),
-            "--typst",
-            typst.to_str().unwrap(),
-            "--templates",
-            templates.to_str().unwrap(),
-        ]);
+        let out = scene.render_to(
+            &output,
+            &typst,
+            &["--templates", templates.to_str().unwrap()],
+        );
         let err = stderr(&out);
         assert_eq!(out.status.code(), Some(2), "{}: {err}", output.display());
         assert!(err.contains(what), "{}: {err}", output.display());
@@ -59,16 +54,7 @@ fn the_output_may_not_be_an_input() {
     let hard = scene.dir.join("same-ratings.pdf");
     std::fs::hard_link(&ratings, &hard).unwrap();
     for output in [&ratings, &hard] {
-        let out = scene.run(&[
-            "render",
-            scene.job.to_str().unwrap(),
-            "--ratings",
-            ratings.to_str().unwrap(),
-            "-o",
-            output.to_str().unwrap(),
-            "--typst",
-            typst.to_str().unwrap(),
-        ]);
+        let out = scene.render_to(output, &typst, &["--ratings", ratings.to_str().unwrap()]);
         assert_eq!(out.status.code(), Some(2), "{}", stderr(&out));
         assert!(stderr(&out).contains("a ratings file"), "{}", stderr(&out));
     }
@@ -98,14 +84,7 @@ fn links_devices_fifos_and_folders_are_not_outputs() {
         (Path::new("/dev/null"), "a device"),
         (folder.as_path(), "a folder"),
     ] {
-        let out = scene.run(&[
-            "render",
-            scene.job.to_str().unwrap(),
-            "-o",
-            output.to_str().unwrap(),
-            "--typst",
-            typst.to_str().unwrap(),
-        ]);
+        let out = scene.render_to(output, &typst, &[]);
         let err = stderr(&out);
         assert_eq!(out.status.code(), Some(2), "{}: {err}", output.display());
         assert!(err.contains(words), "{}: {err}", output.display());
@@ -133,14 +112,7 @@ fn links_devices_fifos_and_folders_are_not_outputs() {
     );
     assert!(folder.is_dir());
     // The link's target itself may be named.
-    let out = scene.run(&[
-        "render",
-        scene.job.to_str().unwrap(),
-        "-o",
-        elsewhere.to_str().unwrap(),
-        "--typst",
-        typst.to_str().unwrap(),
-    ]);
+    let out = scene.render_to(&elsewhere, &typst, &[]);
     assert!(out.status.success(), "{}", stderr(&out));
     assert_ne!(std::fs::read(&elsewhere).unwrap(), GOOD_OLD_PDF);
 }

@@ -153,14 +153,7 @@ fn a_hanging_typst_is_stopped_at_the_time_limit() {
     support::make_executable(&hang);
     let start = Instant::now();
     let out = scene
-        .command(&[
-            "render",
-            scene.job.to_str().unwrap(),
-            "-o",
-            scene.pdf.to_str().unwrap(),
-            "--typst",
-            hang.to_str().unwrap(),
-        ])
+        .render_command(&scene.pdf, &hang, &[])
         .env("AMPREPORT_TIMEOUT", "0.5")
         .output()
         .unwrap();
@@ -193,14 +186,7 @@ fn start_slow_render(scene: &Scene) -> (std::process::Child, i32) {
         ),
     );
     let child = scene
-        .command(&[
-            "render",
-            scene.job.to_str().unwrap(),
-            "-o",
-            scene.pdf.to_str().unwrap(),
-            "--typst",
-            typst.to_str().unwrap(),
-        ])
+        .render_command(&scene.pdf, &typst, &[])
         .stdout(std::process::Stdio::null())
         .stderr(std::process::Stdio::piped())
         .spawn()

@@ -100,18 +100,28 @@ impl Scene {
         self.command(args).output().unwrap()
     }
 
-    /// `render JOB -o PDF --typst TYPST EXTRA…`.
+    /// `render JOB -o PDF --typst TYPST EXTRA…`, run to its end.
     pub fn render(&self, typst: &Path, extra: &[&str]) -> Output {
+        self.render_to(&self.pdf, typst, extra)
+    }
+
+    /// `render JOB -o OUTPUT --typst TYPST EXTRA…`, run to its end.
+    pub fn render_to(&self, output: &Path, typst: &Path, extra: &[&str]) -> Output {
+        self.render_command(output, typst, extra).output().unwrap()
+    }
+
+    /// `render JOB -o OUTPUT --typst TYPST EXTRA…`, not started yet.
+    pub fn render_command(&self, output: &Path, typst: &Path, extra: &[&str]) -> Command {
         let mut args = vec![
             "render",
             self.job.to_str().unwrap(),
             "-o",
-            self.pdf.to_str().unwrap(),
+            output.to_str().unwrap(),
             "--typst",
             typst.to_str().unwrap(),
         ];
         args.extend_from_slice(extra);
-        self.run(&args)
+        self.command(&args)
     }
 
     /// A stand-in typst: answers `--version` like typst 0.15.1, and for a
