@@ -321,7 +321,7 @@ fn a_template_that_hides_the_notice_is_refused() {
     std::fs::write(
         templates.join("handover.typ"),
         "{{ font_rules }}\n#set par(justify: true)\n#set text(hyphenate: true, size: 7pt)\n\
-         #box(width: 6cm)[#include \"mains-safety.typ\"]\n",
+         #box(width: 6cm)[\n#include \"mains-safety.typ\"\n]\n",
     )
     .unwrap();
     let out = scene.render(
