@@ -156,7 +156,7 @@ fn kdl_files(dir: &Path, out: &mut Vec<PathBuf>) {
         if path.is_dir() {
             // The fuzz corpus holds hostile files (nesting deep enough to
             // overflow the kdl crate's recursive parser) on purpose; the
-            // hostile-input tests read them.
+            // fuzz and hostile-input tests read them through the guard.
             if !matches!(name, "target" | ".git" | "fuzz-corpus") {
                 kdl_files(&path, out);
             }
