@@ -277,6 +277,7 @@ fn add_shop_images(sandbox: &mut Sandbox, dir: &Path) -> Result<(), HandoverErro
 mod tests {
     use super::*;
     use crate::ratings::RatingsTable;
+    use crate::calc::Family;
 
     /// A demo job decoded and derived, with its text.
     fn demo(name: &str) -> (Job, Findings, String) {
@@ -319,7 +320,7 @@ mod tests {
         assert_eq!(ctx.sets[0].valves[0].current_kind, "Ik");
         assert!(ctx.sets[0].conservative);
         assert!(ctx.method.uses_shared_cathode && ctx.method.uses_cathode_bias);
-        assert_eq!(ctx.glance.families.len(), 5);
+        assert_eq!(ctx.glance.families.len(), Family::ALL.len());
         assert_eq!(ctx.footer.job_digest, job_digest(&text));
         // Completed 2026-11-09.
         assert_eq!(
