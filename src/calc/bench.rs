@@ -47,7 +47,10 @@ pub fn db_relative(v: Volts, reference: Volts) -> f64 {
 /// from the reference, the first reading at or below −3 dB and the reading
 /// before it give the crossing; `None` on a side where no reading falls to
 /// −3 dB (the response stays within 3 dB as far as it was read).
-pub fn minus_3db_points(points: &[(Hertz, f64)], reference: Hertz) -> (Option<Hertz>, Option<Hertz>) {
+pub fn minus_3db_points(
+    points: &[(Hertz, f64)],
+    reference: Hertz,
+) -> (Option<Hertz>, Option<Hertz>) {
     let mut sorted: Vec<(Hertz, f64)> = points
         .iter()
         .copied()
@@ -118,7 +121,10 @@ pub fn condition_words(c: &PowerCondition) -> String {
     match c {
         PowerCondition::Clipping => "at the onset of clipping".to_string(),
         PowerCondition::Distortion { fraction } => {
-            format!("at {} % distortion", crate::units::format_sig(fraction * 100.0, 3))
+            format!(
+                "at {} % distortion",
+                crate::units::format_sig(fraction * 100.0, 3)
+            )
         }
         PowerCondition::Drive { volts } => format!("with {} drive", volts_words(volts.0)),
     }
@@ -232,10 +238,8 @@ fn full_output(
     measured: &[OutputPowerFindings],
     rated: Option<Watts>,
 ) -> Option<(Volts, Watts, &'static str)> {
-    let full: Vec<&OutputPowerFindings> = measured
-        .iter()
-        .filter(|p| p.condition != "drive")
-        .collect();
+    let full: Vec<&OutputPowerFindings> =
+        measured.iter().filter(|p| p.condition != "drive").collect();
     let same_channel: Vec<&OutputPowerFindings> = full
         .iter()
         .copied()
@@ -294,7 +298,10 @@ fn hum_noise(
                     threshold,
                 )
             } else {
-                Verdict::ok(format!("{level} is {below:.1} dB below {against}"), threshold)
+                Verdict::ok(
+                    format!("{level} is {below:.1} dB below {against}"),
+                    threshold,
+                )
             }
         }
         _ => Verdict::ok(
@@ -347,7 +354,10 @@ fn response(r: &ResponseReading) -> ResponseFindings {
         input_volts: r.input.map(|v| v.0),
         reference_hz: reference.0,
         reference_volts: vref.0,
-        lowest_hz: points.first().map(|p| p.frequency_hz).unwrap_or(reference.0),
+        lowest_hz: points
+            .first()
+            .map(|p| p.frequency_hz)
+            .unwrap_or(reference.0),
         highest_hz: points.last().map(|p| p.frequency_hz).unwrap_or(reference.0),
         points,
         minus_3db_low_hz: low.map(|f| f.0),
@@ -380,15 +390,27 @@ mod tests {
         // Joule's law P = V²/R (textbook): 15.5 V rms across 8 Ω → 240.25 / 8 = 30.03125 W.
         assert!(close(power_into(Volts(15.5), Ohms(8.0)).0, 30.03125, 1e-12));
         // 10.95 V rms across 8 Ω → 119.9025 / 8 = 14.9878 W (textbook).
-        assert!(close(power_into(Volts(10.95), Ohms(8.0)).0, 14.987_812_5, 1e-12));
+        assert!(close(
+            power_into(Volts(10.95), Ohms(8.0)).0,
+            14.987_812_5,
+            1e-12
+        ));
         // And back: V = √(P·R) (textbook): √(15 W × 8 Ω) = √120 = 10.954 V.
-        assert!(close(volts_for_power(Watts(15.0), Ohms(8.0)).0, 10.954_451, 1e-6));
+        assert!(close(
+            volts_for_power(Watts(15.0), Ohms(8.0)).0,
+            10.954_451,
+            1e-6
+        ));
     }
 
     #[test]
     fn peak_to_peak_to_rms_for_a_sine() {
         // For a sine, Vrms = Vpk/√2 = Vpp/(2√2) (textbook): 44 Vpp → 44 / 2.828427 = 15.556 V.
-        assert!(close(rms_from_peak_to_peak(Volts(44.0)).0, 15.556_349, 1e-6));
+        assert!(close(
+            rms_from_peak_to_peak(Volts(44.0)).0,
+            15.556_349,
+            1e-6
+        ));
         // 2√2 Vpp is exactly 1 V rms (textbook).
         assert!(close(
             rms_from_peak_to_peak(Volts(2.0 * std::f64::consts::SQRT_2)).0,
@@ -404,10 +426,18 @@ mod tests {
         assert!(close(dbv(Volts(0.01)), -40.0, 1e-12));
         assert!(close(dbv(Volts(0.0042)), -47.5350, 1e-4));
         // dB below full output, 20·log10(Vnoise/Vfull) (textbook): 4.2 mV against 10.954 V → 20·log10(3.834e-4) = −68.327 dB.
-        assert!(close(db_relative(Volts(0.0042), Volts(10.954_451)), -68.3268, 1e-4));
+        assert!(close(
+            db_relative(Volts(0.0042), Volts(10.954_451)),
+            -68.3268,
+            1e-4
+        ));
         // Half the voltage is −6.0206 dB; √½ of it is −3.0103 dB (textbook).
         assert!(close(db_relative(Volts(0.5), Volts(1.0)), -6.0206, 1e-4));
-        assert!(close(db_relative(Volts(0.5f64.sqrt()), Volts(1.0)), -3.0103, 1e-4));
+        assert!(close(
+            db_relative(Volts(0.5f64.sqrt()), Volts(1.0)),
+            -3.0103,
+            1e-4
+        ));
         // Gain = 20·log10(Vout/Vin) (textbook): 120 mV in, 12 V out → ×100 → 40 dB.
         assert!(close(gain_db(Volts(0.12), Volts(12.0)), 40.0, 1e-12));
     }
@@ -435,14 +465,19 @@ mod tests {
         shuffled.reverse();
         assert_eq!(minus_3db_points(&shuffled, Hertz(1000.0)), (low, high));
         // A reading exactly at −3 dB is the point itself.
-        let (low, _) = minus_3db_points(&[(Hertz(40.0), -3.0), (Hertz(1000.0), 0.0)], Hertz(1000.0));
+        let (low, _) =
+            minus_3db_points(&[(Hertz(40.0), -3.0), (Hertz(1000.0), 0.0)], Hertz(1000.0));
         assert!(close(low.unwrap().0, 40.0, 1e-9));
     }
 
     #[test]
     fn no_minus_3db_point_where_the_readings_do_not_reach_it() {
         // Flat within 3 dB to the last reading on both sides: no bracket, no figure.
-        let points = [(Hertz(40.0), -2.5), (Hertz(1000.0), 0.0), (Hertz(15_000.0), -1.0)];
+        let points = [
+            (Hertz(40.0), -2.5),
+            (Hertz(1000.0), 0.0),
+            (Hertz(15_000.0), -1.0),
+        ];
         assert_eq!(minus_3db_points(&points, Hertz(1000.0)), (None, None));
         // A dip below −3 dB further out counts from the first crossing only.
         let points = [
@@ -474,20 +509,33 @@ mod tests {
     fn output_power_against_the_rating() {
         // P = V²/R (textbook): 9.8 V rms into 8 Ω = 12.005 W; against a rated 15 W that is 80.03 %,
         // just above the 80 % guide (common practice).
-        let f = derive("rated-power=\"15W\"", "output-power rms=\"9.8V\" load=\"8R\" at=clipping");
+        let f = derive(
+            "rated-power=\"15W\"",
+            "output-power rms=\"9.8V\" load=\"8R\" at=clipping",
+        );
         let p = &f.sets[0].bench.output_power[0];
         assert!(close(p.output_power_w, 12.005, 1e-9));
         assert!(close(p.output_power_pct_of_rated.unwrap(), 80.0333, 1e-3));
         assert_eq!(p.verdict.status, Status::Ok);
         assert_eq!(p.verdict.threshold, "caution below 80 % of the rated 15 W");
         // 9.7 V → 11.761 W = 78.4 % of 15 W: below the guide, a caution with a warning.
-        let f = derive("rated-power=\"15W\"", "output-power rms=\"9.7V\" load=\"8R\" at=\"5%\"");
+        let f = derive(
+            "rated-power=\"15W\"",
+            "output-power rms=\"9.7V\" load=\"8R\" at=\"5%\"",
+        );
         let p = &f.sets[0].bench.output_power[0];
         assert_eq!(p.verdict.status, Status::Caution);
-        assert!(p.verdict.reason.contains("78 % of the rated 15 W"), "{}", p.verdict.reason);
+        assert!(
+            p.verdict.reason.contains("78 % of the rated 15 W"),
+            "{}",
+            p.verdict.reason
+        );
         assert!(f.warnings.iter().any(|w| w.subject == "output power"));
         // A peak-to-peak reading: 28 Vpp = 9.8995 V rms (Vpp/(2√2), textbook) → 12.25 W into 8 Ω.
-        let f = derive("", "output-power peak-to-peak=\"28V\" load=\"8R\" at=clipping");
+        let f = derive(
+            "",
+            "output-power peak-to-peak=\"28V\" load=\"8R\" at=clipping",
+        );
         let p = &f.sets[0].bench.output_power[0];
         assert!(close(p.rms_volts, 9.899_495, 1e-6));
         assert!(close(p.output_power_w, 12.25, 1e-9));
@@ -496,7 +544,10 @@ mod tests {
         assert_eq!(p.output_power_pct_of_rated, None);
         assert!(p.verdict.threshold.starts_with("none"));
         // At a stated drive it is not full output, so not judged either.
-        let f = derive("rated-power=\"50W\"", "output-power rms=\"2V\" load=\"8R\" at=\"0.1V\"");
+        let f = derive(
+            "rated-power=\"50W\"",
+            "output-power rms=\"2V\" load=\"8R\" at=\"0.1V\"",
+        );
         assert_eq!(f.sets[0].bench.output_power[0].verdict.status, Status::Ok);
     }
 
@@ -514,13 +565,20 @@ mod tests {
         assert_eq!(h.verdict.status, Status::Ok);
         // Against the rating when nothing was measured: √(15 W × 8 Ω) = 10.954 V (textbook);
         // 12 mV is 20·log10(10.954/0.012) = 59.21 dB below: under the 60 dB guide (common practice), a caution.
-        let f = derive("rated-power=\"15W\"", "hum-noise \"12mV\" load=\"8R\" input=open");
+        let f = derive(
+            "rated-power=\"15W\"",
+            "hum-noise \"12mV\" load=\"8R\" input=open",
+        );
         let h = &f.sets[0].bench.hum_noise[0];
         assert_eq!(h.full_output_from, Some("rated"));
         assert!(close(h.full_output_volts.unwrap(), 10.954_451, 1e-6));
         assert!(close(h.hum_noise_db_below_full.unwrap(), 59.2080, 1e-3));
         assert_eq!(h.verdict.status, Status::Caution);
-        let glance = f.at_a_glance.iter().find(|g| g.family == crate::calc::Family::BenchTests).unwrap();
+        let glance = f
+            .at_a_glance
+            .iter()
+            .find(|g| g.family == crate::calc::Family::BenchTests)
+            .unwrap();
         assert_eq!(glance.status, Status::Caution);
         // Nothing to compare with: shown in mV and dBV only.
         let f = derive("", "hum-noise \"12mV\" load=\"8R\" input=open");

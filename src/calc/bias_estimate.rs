@@ -173,7 +173,11 @@ struct Calibration {
 }
 
 /// Why the law cannot be calibrated for a valve, in words.
-fn calibrate(v: &ValveFindings, rating: &Rating, grid: Option<Volts>) -> Result<Calibration, String> {
+fn calibrate(
+    v: &ValveFindings,
+    rating: &Rating,
+    grid: Option<Volts>,
+) -> Result<Calibration, String> {
     let triode = rating.class == ValveClass::PowerTriode;
     let mu = if triode { rating.mu } else { rating.mu_g1g2 }.ok_or_else(|| {
         format!(
@@ -182,7 +186,10 @@ fn calibrate(v: &ValveFindings, rating: &Rating, grid: Option<Volts>) -> Result<
             rating.name
         )
     })?;
-    let va = v.plate_volts.map(Volts).ok_or("there is no plate reading")?;
+    let va = v
+        .plate_volts
+        .map(Volts)
+        .ok_or("there is no plate reading")?;
     let vg2 = if triode {
         va
     } else {
@@ -260,9 +267,9 @@ pub(crate) fn cathode_suggestions(
             })
             .collect();
         let above = on.iter().any(|v| {
-            v.checks.iter().any(|c| {
-                c.check == "plate_dissipation" && c.verdict.status != super::Status::Ok
-            })
+            v.checks
+                .iter()
+                .any(|c| c.check == "plate_dissipation" && c.verdict.status != super::Status::Ok)
         });
         if on.is_empty() || !(set.suggest_cathode_resistor || above) {
             continue;
@@ -270,7 +277,10 @@ pub(crate) fn cathode_suggestions(
         // The hottest valve decides, so no valve on the resistor ends up
         // above the target.
         let hottest = on.iter().fold(None, |best: Option<&&ValveFindings>, v| {
-            match (v.plate_dissipation_pct, best.and_then(|b| b.plate_dissipation_pct)) {
+            match (
+                v.plate_dissipation_pct,
+                best.and_then(|b| b.plate_dissipation_pct),
+            ) {
                 (Some(p), Some(b)) if p <= b => best,
                 (Some(_), _) => Some(v),
                 (None, _) => best,
@@ -428,10 +438,12 @@ mod tests {
         //   Veff = 284.016/19 − 10.984 = 3.964 V; Ik = K·3.964^1.5 = 4.472 mA × 7.893 = 35.30 mA;
         //   Rk = Vk / Ik = 10.984 V / 35.30 mA = 311.2 Ω.
         let law = el84_hand_case();
-        let rk = cathode_resistor_for(&law, Volts(300.0), Volts(295.0), 1, 1.0, Watts(10.2)).unwrap();
+        let rk =
+            cathode_resistor_for(&law, Volts(300.0), Volts(295.0), 1, 1.0, Watts(10.2)).unwrap();
         assert!(close_rel(rk.0, 311.2, 0.01), "{}", rk.0);
         // A pair sharing one resistor draws twice the current through it: half the resistance (155.6 Ω).
-        let shared = cathode_resistor_for(&law, Volts(300.0), Volts(295.0), 2, 1.0, Watts(10.2)).unwrap();
+        let shared =
+            cathode_resistor_for(&law, Volts(300.0), Volts(295.0), 2, 1.0, Watts(10.2)).unwrap();
         assert!(close_rel(shared.0, 311.2 / 2.0, 0.01), "{}", shared.0);
         // IEC 60063: 311 Ω lies between E12 270 and 330 (ln(330/311.2) = 0.059 < ln(311.2/270) = 0.142 → 330 Ω)
         // and between E24 300 and 330 (ln(311.2/300) = 0.037 < 0.059 → 300 Ω).
@@ -439,7 +451,9 @@ mod tests {
         assert_eq!(nearest_preferred(rk.0, Series::E24), Some(300.0));
         // Out of reach: even with no cathode resistor (Vk = 0) Veff = 295/19 = 15.53 V,
         // Ik = K·15.53^1.5 = 273.6 mA and Pa = 300 V × 273.6 mA = 82 W, so 90 W cannot be reached.
-        assert!(cathode_resistor_for(&law, Volts(300.0), Volts(295.0), 1, 1.0, Watts(90.0)).is_none());
+        assert!(
+            cathode_resistor_for(&law, Volts(300.0), Volts(295.0), 1, 1.0, Watts(90.0)).is_none()
+        );
     }
 
     #[test]
@@ -448,7 +462,11 @@ mod tests {
         // Veff = 400/8 − 45 = 5 V; K = 40 mA / 5^1.5 = 3.5777 mA/V^1.5 (three-halves power law, from memory).
         let law = ThreeHalvesLaw::calibrate(Amps(0.040), Volts(400.0), Volts(-45.0), 8.0).unwrap();
         // Back at 40 mA the grid is −45 V again.
-        assert!(close_rel(grid_for_current(&law, Amps(0.040), Volts(400.0), Volts(0.0)).0, -45.0, 1e-9));
+        assert!(close_rel(
+            grid_for_current(&law, Amps(0.040), Volts(400.0), Volts(0.0)).0,
+            -45.0,
+            1e-9
+        ));
         // For Ik = K·4^1.5 = 8K = 28.62 mA: Veff = 4 V, so Vg = 4 − 400/8 = −46 V.
         let g = grid_for_current(&law, Amps(8.0 * law.k), Volts(400.0), Volts(0.0));
         assert!(close_rel(g.0, -46.0, 1e-9), "{}", g.0);
@@ -470,8 +488,8 @@ mod tests {
         // IEC 60063 rounded values (the standard's table): E12 and E24.
         let e12 = [1.0, 1.2, 1.5, 1.8, 2.2, 2.7, 3.3, 3.9, 4.7, 5.6, 6.8, 8.2]; // IEC 60063 E12
         let e24 = [
-            1.0, 1.1, 1.2, 1.3, 1.5, 1.6, 1.8, 2.0, 2.2, 2.4, 2.7, 3.0, 3.3, 3.6, 3.9, 4.3, 4.7, 5.1,
-            5.6, 6.2, 6.8, 7.5, 8.2, 9.1,
+            1.0, 1.1, 1.2, 1.3, 1.5, 1.6, 1.8, 2.0, 2.2, 2.4, 2.7, 3.0, 3.3, 3.6, 3.9, 4.3, 4.7,
+            5.1, 5.6, 6.2, 6.8, 7.5, 8.2, 9.1,
         ]; // IEC 60063 E24
         for (series, table) in [(Series::E12, &e12[..]), (Series::E24, &e24[..])] {
             for decade in [1.0, 10.0, 100.0, 1000.0] {
@@ -487,8 +505,14 @@ mod tests {
                     let mid = (value * next).sqrt();
                     let below = nearest_preferred(mid * 0.999, series).unwrap();
                     let above = nearest_preferred(mid * 1.001, series).unwrap();
-                    assert!(close_rel(below, value, 1e-12), "{mid} − in {series}: {below}");
-                    assert!(close_rel(above, next, 1e-12), "{mid} + in {series}: {above}");
+                    assert!(
+                        close_rel(below, value, 1e-12),
+                        "{mid} − in {series}: {below}"
+                    );
+                    assert!(
+                        close_rel(above, next, 1e-12),
+                        "{mid} + in {series}: {above}"
+                    );
                 }
             }
         }
@@ -528,8 +552,16 @@ mod tests {
         // Each option is consistent with the law it came from: Vk = n·Rk·Ik and P = Vk²/Rk (Ohm's and Joule's laws).
         assert_eq!(s.options.len(), 2);
         for o in &s.options {
-            assert!(close_rel(o.cathode_volts, 2.0 * o.resistance_ohms * o.cathode_current_ma / 1e3, 1e-6));
-            assert!(close_rel(o.resistor_power_w, o.cathode_volts.powi(2) / o.resistance_ohms, 1e-9));
+            assert!(close_rel(
+                o.cathode_volts,
+                2.0 * o.resistance_ohms * o.cathode_current_ma / 1e3,
+                1e-6
+            ));
+            assert!(close_rel(
+                o.resistor_power_w,
+                o.cathode_volts.powi(2) / o.resistance_ohms,
+                1e-9
+            ));
             assert!(o.resistor_rating_w >= 2.0 * o.resistor_power_w);
         }
         assert_eq!(s.options[0].series, "E12");

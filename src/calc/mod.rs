@@ -492,9 +492,21 @@ fn bench_summary(bench: &BenchFindings) -> Option<String> {
         let hz = |f: f64| format_engineering(f, Q::Frequency);
         parts.push(match (r.minus_3db_low_hz, r.minus_3db_high_hz) {
             (Some(lo), Some(hi)) => format!("−3 dB at {} and {}", hz(lo), hz(hi)),
-            (Some(lo), None) => format!("−3 dB at {}, within 3 dB up to {}", hz(lo), hz(r.highest_hz)),
-            (None, Some(hi)) => format!("within 3 dB down to {}, −3 dB at {}", hz(r.lowest_hz), hz(hi)),
-            (None, None) => format!("within 3 dB from {} to {}", hz(r.lowest_hz), hz(r.highest_hz)),
+            (Some(lo), None) => format!(
+                "−3 dB at {}, within 3 dB up to {}",
+                hz(lo),
+                hz(r.highest_hz)
+            ),
+            (None, Some(hi)) => format!(
+                "within 3 dB down to {}, −3 dB at {}",
+                hz(r.lowest_hz),
+                hz(hi)
+            ),
+            (None, None) => format!(
+                "within 3 dB from {} to {}",
+                hz(r.lowest_hz),
+                hz(r.highest_hz)
+            ),
         });
     }
     if let Some(g) = bench.gains.first() {

@@ -142,7 +142,10 @@ fn output_power(node: &KdlNode, r: &mut Reader) -> Option<OutputPowerReading> {
                 DecodeError::warning(
                     "job::implausible",
                     volts.span,
-                    format!("{} into {} would be {watts:.0} W, unusual for a valve amplifier", volts.value, load.value),
+                    format!(
+                        "{} into {} would be {watts:.0} W, unusual for a valve amplifier",
+                        volts.value, load.value
+                    ),
                     "unusual",
                 )
                 .with_help("check the reading, its kind (rms or peak-to-peak) and the load"),
@@ -305,7 +308,8 @@ fn volume_words(node: &KdlNode, r: &mut Reader) -> Option<String> {
 }
 
 fn response(node: &KdlNode, r: &mut Reader) -> Option<ResponseReading> {
-    let example = "response reference=\"1kHz\" input=\"100mV\" load=\"8R\" { point \"100Hz\" \"3.9V\" }";
+    let example =
+        "response reference=\"1kHz\" input=\"100mV\" load=\"8R\" { point \"100Hz\" \"3.9V\" }";
     r.check_entries(node, &["reference", "load", "input", "channel"], 0);
     let reference = match Reader::prop(node, "reference") {
         Some(e) => {
@@ -407,7 +411,11 @@ fn response(node: &KdlNode, r: &mut Reader) -> Option<ResponseReading> {
 
 fn gain(node: &KdlNode, r: &mut Reader) -> Option<GainReading> {
     let example = "gain input=\"120mV\" output=\"15.5V\" frequency=\"1kHz\"";
-    r.check_entries(node, &["input", "output", "frequency", "load", "channel"], 0);
+    r.check_entries(
+        node,
+        &["input", "output", "frequency", "load", "channel"],
+        0,
+    );
     let input = r.req_prop_quantity(node, "input", Q::Voltage, example);
     let input = volts_above_zero(r, input, "an input voltage");
     let output = r.req_prop_quantity(node, "output", Q::Voltage, example);
@@ -516,7 +524,10 @@ mod tests {
 
         let set = "output-power rms=\"10V\" load=\"8R\" at=clippin";
         let p = problems(set);
-        assert!(p[0].0.contains("clipping, a distortion or a drive"), "{p:?}");
+        assert!(
+            p[0].0.contains("clipping, a distortion or a drive"),
+            "{p:?}"
+        );
         assert_eq!(p[0].1, at(set, "clippin"));
 
         let set = "output-power rms=\"10V\" load=\"8R\"";
@@ -534,7 +545,8 @@ mod tests {
         let set = "hum-noise \"3mV\" load=\"8R\"";
         assert!(problems(set)[0].0.contains("shorted or open"));
 
-        let set = "response reference=\"1kHz\" {\n point \"100Hz\" \"3V\"\n point \"10kHz\" \"3V\"\n}";
+        let set =
+            "response reference=\"1kHz\" {\n point \"100Hz\" \"3V\"\n point \"10kHz\" \"3V\"\n}";
         let p = problems(set);
         assert!(p[0].0.contains("no reading at its reference"), "{p:?}");
         assert_eq!(p[0].1, at(set, "\"1kHz\""));

@@ -276,8 +276,8 @@ fn add_shop_images(sandbox: &mut Sandbox, dir: &Path) -> Result<(), HandoverErro
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::ratings::RatingsTable;
     use crate::calc::Family;
+    use crate::ratings::RatingsTable;
 
     /// A demo job decoded and derived, with its text.
     fn demo(name: &str) -> (Job, Findings, String) {
