@@ -16,15 +16,15 @@ use crate::calc::Findings;
 
 /// Font named in the SVG text elements: the bundled body font, which typst
 /// uses when it draws the SVG.
-const FONT: &str = "Noto Sans";
+pub(crate) const FONT: &str = "Noto Sans";
 
 /// Greys used by both charts (greyscale by design).
-const INK: RGBColor = RGBColor(20, 20, 20);
-const DARK: RGBColor = RGBColor(90, 90, 90);
-const MID: RGBColor = RGBColor(160, 160, 160);
-const LIGHT: RGBColor = RGBColor(222, 222, 222);
-const GRID: RGBColor = RGBColor(232, 232, 232);
-const PAPER: RGBColor = RGBColor(255, 255, 255);
+pub(crate) const INK: RGBColor = RGBColor(20, 20, 20);
+pub(crate) const DARK: RGBColor = RGBColor(90, 90, 90);
+pub(crate) const MID: RGBColor = RGBColor(160, 160, 160);
+pub(crate) const LIGHT: RGBColor = RGBColor(222, 222, 222);
+pub(crate) const GRID: RGBColor = RGBColor(232, 232, 232);
+pub(crate) const PAPER: RGBColor = RGBColor(255, 255, 255);
 
 /// Width and height of both SVGs in pixels (CSS px; typst scales them).
 pub const SIZE: (u32, u32) = (760, 330);
@@ -249,7 +249,7 @@ pub(crate) struct PixelBox {
 }
 
 impl PixelBox {
-    fn new(a: (f64, f64), b: (f64, f64)) -> Self {
+    pub(crate) fn new(a: (f64, f64), b: (f64, f64)) -> Self {
         PixelBox {
             x0: a.0.min(b.0),
             y0: a.1.min(b.1),
@@ -264,7 +264,7 @@ impl PixelBox {
     }
 
     /// A square of half-width `r` around a point.
-    fn around(p: (i32, i32), r: f64) -> Self {
+    pub(crate) fn around(p: (i32, i32), r: f64) -> Self {
         let (x, y) = (f64::from(p.0), f64::from(p.1));
         PixelBox::new((x - r, y - r), (x + r, y + r))
     }
@@ -342,7 +342,7 @@ pub(crate) struct Line {
 }
 
 impl Line {
-    fn new(from: (f64, f64), to: (f64, f64), weight: f64) -> Self {
+    pub(crate) fn new(from: (f64, f64), to: (f64, f64), weight: f64) -> Self {
         Line { from, to, weight }
     }
 }
@@ -362,7 +362,7 @@ pub(crate) struct Obstacles {
 }
 
 impl Obstacles {
-    fn new(area: PixelBox) -> Self {
+    pub(crate) fn new(area: PixelBox) -> Self {
         Obstacles {
             area,
             solid: Vec::new(),
@@ -395,7 +395,7 @@ impl Obstacles {
     /// The cheapest of `candidates`, in order of preference: each step down
     /// the list costs a little, so the first clear one wins. The choice is
     /// then solid for later labels.
-    fn place(&mut self, candidates: &[PixelBox]) -> PixelBox {
+    pub(crate) fn place(&mut self, candidates: &[PixelBox]) -> PixelBox {
         let best = candidates
             .iter()
             .enumerate()
@@ -411,7 +411,7 @@ impl Obstacles {
 /// Draws `text` centred in `b` on a patch of whatever lies behind it (paper,
 /// or the band colour where it overlaps a band), so a line it could not
 /// avoid passes behind the figure rather than through it.
-fn draw_label(
+pub(crate) fn draw_label(
     area: &DrawingArea<SVGBackend<'_>, Shift>,
     b: &PixelBox,
     bands: &[PixelBox],
@@ -437,17 +437,17 @@ fn draw_label(
 
 /// Height of a figure label's box at font size 12 (set at 9.7 px), in
 /// pixels.
-const LABEL_HEIGHT: f64 = 12.0;
+pub(crate) const LABEL_HEIGHT: f64 = 12.0;
 
 fn err(chart: &'static str) -> impl Fn(String) -> PlotError {
     move |message| PlotError { chart, message }
 }
 
-fn font(size: u32) -> TextStyle<'static> {
+pub(crate) fn font(size: u32) -> TextStyle<'static> {
     (FONT, size).into_font().color(&INK)
 }
 
-fn anchored(size: u32, h: HPos, v: VPos) -> TextStyle<'static> {
+pub(crate) fn anchored(size: u32, h: HPos, v: VPos) -> TextStyle<'static> {
     font(size).pos(Pos::new(h, v))
 }
 
@@ -489,7 +489,7 @@ fn hatch(
 }
 
 /// A horizontal dashed line in pixel coordinates.
-fn dashed(
+pub(crate) fn dashed(
     area: &DrawingArea<SVGBackend<'_>, Shift>,
     x0: i32,
     x1: i32,
@@ -537,7 +537,7 @@ pub fn dissipation_svg(chart: &DissipationChart) -> Result<String, PlotError> {
 }
 
 /// Runs a chart's drawing function into a fresh SVG string.
-fn to_svg<T>(
+pub(crate) fn to_svg<T>(
     chart: &T,
     what: &'static str,
     draw: fn(&T, &mut String) -> Result<(), String>,
@@ -738,14 +738,14 @@ fn draw_dissipation(chart: &DissipationChart, svg: &mut String) -> Result<(), St
 
 /// How set `k` is marked in the supply chart.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
-enum Marker {
+pub(crate) enum Marker {
     HollowCircle,
     FilledTriangle,
     HollowSquare,
     FilledDiamond,
 }
 
-fn marker(k: usize) -> Marker {
+pub(crate) fn marker(k: usize) -> Marker {
     match k % 4 {
         0 => Marker::HollowCircle,
         1 => Marker::FilledTriangle,
@@ -754,7 +754,7 @@ fn marker(k: usize) -> Marker {
     }
 }
 
-fn draw_marker(
+pub(crate) fn draw_marker(
     area: &DrawingArea<SVGBackend<'_>, Shift>,
     (x, y): (i32, i32),
     m: Marker,
@@ -795,7 +795,7 @@ fn draw_marker(
 /// Places for a marker's figure, best first: beside the marker on the
 /// preferred side, above and below it, diagonally, then the other side,
 /// then further out.
-fn label_spots(p: (i32, i32), w: f64, h: f64, left_first: bool) -> Vec<PixelBox> {
+pub(crate) fn label_spots(p: (i32, i32), w: f64, h: f64, left_first: bool) -> Vec<PixelBox> {
     let (x, y) = (f64::from(p.0), f64::from(p.1));
     let side = if left_first { -1.0 } else { 1.0 };
     let beside = |s: f64, far: f64| PixelBox::centred(x + s * (11.0 + far + w / 2.0), y, w, h);
