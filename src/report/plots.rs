@@ -531,6 +531,35 @@ fn legend_swatch_bar(
     Ok(())
 }
 
+/// The axes every chart shares: no x labels or upright grid (each chart
+/// draws its own categories or frequencies), `y_labels` labelled values
+/// with light horizontal rules, and the y axis described by `y_desc`.
+pub(crate) fn draw_mesh<X, Y>(
+    ctx: &mut ChartContext<'_, SVGBackend<'_>, Cartesian2d<X, Y>>,
+    y_labels: usize,
+    y_format: &dyn Fn(&Y::ValueType) -> String,
+    y_desc: &str,
+) -> Result<(), String>
+where
+    X: Ranged + plotters::coord::ranged1d::ValueFormatter<X::ValueType>,
+    Y: Ranged + plotters::coord::ranged1d::ValueFormatter<Y::ValueType>,
+{
+    ctx.configure_mesh()
+        .disable_x_mesh()
+        .x_labels(0)
+        .x_label_formatter(&|_| String::new())
+        .y_labels(y_labels)
+        .y_label_formatter(y_format)
+        .y_desc(y_desc)
+        .axis_desc_style(font(14))
+        .label_style(font(13))
+        .light_line_style(PAPER)
+        .bold_line_style(GRID.stroke_width(1))
+        .axis_style(INK.stroke_width(1))
+        .draw()
+        .map_err(|e| e.to_string())
+}
+
 /// Draws the plate-dissipation chart as an SVG document.
 pub fn dissipation_svg(chart: &DissipationChart) -> Result<String, PlotError> {
     to_svg(chart, "plate dissipation", draw_dissipation)
@@ -568,20 +597,12 @@ fn draw_dissipation(chart: &DissipationChart, svg: &mut String) -> Result<(), St
         .y_label_area_size(62)
         .build_cartesian_2d(0f64..n as f64, 0f64..top)
         .map_err(|e| e.to_string())?;
-    ctx.configure_mesh()
-        .disable_x_mesh()
-        .x_labels(0)
-        .x_label_formatter(&|_| String::new())
-        .y_labels(((top / 20.0) as usize).clamp(4, 12))
-        .y_label_formatter(&|v| format!("{v:.0}"))
-        .y_desc("Plate dissipation, % of rating")
-        .axis_desc_style(font(14))
-        .label_style(font(13))
-        .light_line_style(PAPER)
-        .bold_line_style(GRID.stroke_width(1))
-        .axis_style(INK.stroke_width(1))
-        .draw()
-        .map_err(|e| e.to_string())?;
+    draw_mesh(
+        &mut ctx,
+        ((top / 20.0) as usize).clamp(4, 12),
+        &|v| format!("{v:.0}"),
+        "Plate dissipation, % of rating",
+    )?;
 
     let (left, _) = ctx.backend_coord(&(0.0, 0.0));
     let (right, _) = ctx.backend_coord(&(n as f64, 0.0));
@@ -864,20 +885,12 @@ fn draw_supply(chart: &SupplyChart, svg: &mut String) -> Result<(), String> {
         .build_cartesian_2d(0f64..n as f64, bottom..top)
         .map_err(|e| e.to_string())?;
     let desc = format!("Volts DC, corrected to {:.0} V mains", chart.nominal_volts);
-    ctx.configure_mesh()
-        .disable_x_mesh()
-        .x_labels(0)
-        .x_label_formatter(&|_| String::new())
-        .y_labels(((top - bottom) / (step / 2.0)) as usize + 1)
-        .y_label_formatter(&|v| format!("{v:.0}"))
-        .y_desc(desc)
-        .axis_desc_style(font(14))
-        .label_style(font(13))
-        .light_line_style(PAPER)
-        .bold_line_style(GRID.stroke_width(1))
-        .axis_style(INK.stroke_width(1))
-        .draw()
-        .map_err(|e| e.to_string())?;
+    draw_mesh(
+        &mut ctx,
+        ((top - bottom) / (step / 2.0)) as usize + 1,
+        &|v| format!("{v:.0}"),
+        &desc,
+    )?;
     let (left, _) = ctx.backend_coord(&(0.0, bottom));
 
     // Bands: the expected figure ± tolerance, as a grey column per node.

@@ -9,8 +9,8 @@ use plotters::style::text_anchor::{HPos, VPos};
 
 use super::plots::{
     DARK, GRID, INK, LABEL_HEIGHT, Line, MID, Obstacles, PAPER, PixelBox, PlotError, SIZE,
-    anchored, dashed, draw_label, draw_marker, font, label_spots, label_text, marker, text_width,
-    to_svg,
+    anchored, dashed, draw_label, draw_marker, draw_mesh, label_spots, label_text, marker,
+    text_width, to_svg,
 };
 use crate::calc::Findings;
 use crate::units::{QuantityKind as Q, format_engineering};
@@ -117,26 +117,18 @@ fn draw_response(chart: &ResponseChart, svg: &mut String) -> Result<(), String> 
         .y_label_area_size(62)
         .build_cartesian_2d((lo..hi).log_scale(), bottom..top)
         .map_err(|e| e.to_string())?;
-    ctx.configure_mesh()
-        .disable_x_mesh()
-        .x_labels(0)
-        .x_label_formatter(&|_| String::new())
-        .y_labels(((top - bottom) / 3.0) as usize + 1)
-        .y_label_formatter(&|v| {
+    draw_mesh(
+        &mut ctx,
+        ((top - bottom) / 3.0) as usize + 1,
+        &|v| {
             if v.abs() < 1e-9 {
                 "0".to_string()
             } else {
                 format!("{v:+.0}").replace('-', "\u{2212}")
             }
-        })
-        .y_desc("dB against the reference")
-        .axis_desc_style(font(14))
-        .label_style(font(13))
-        .light_line_style(PAPER)
-        .bold_line_style(GRID.stroke_width(1))
-        .axis_style(INK.stroke_width(1))
-        .draw()
-        .map_err(|e| e.to_string())?;
+        },
+        "dB against the reference",
+    )?;
 
     let (left, plot_bottom) = ctx.backend_coord(&(lo, bottom));
     let (right, plot_top) = ctx.backend_coord(&(hi, top));
