@@ -340,7 +340,13 @@ mod tests {
         let names: Vec<&str> = doc.sandbox.files().map(|(p, _)| p).collect();
         assert_eq!(
             names,
-            [MAIN_SOURCE, NOTICE_SOURCE, DISSIPATION_PLOT, SUPPLY_PLOT]
+            [
+                MAIN_SOURCE,
+                NOTICE_SOURCE,
+                RESPONSE_PLOT,
+                DISSIPATION_PLOT,
+                SUPPLY_PLOT
+            ]
         );
         assert_eq!(doc.sandbox.get(NOTICE_SOURCE), Some(NOTICE_TEXT.as_bytes()));
     }
