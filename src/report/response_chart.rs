@@ -98,10 +98,11 @@ fn draw_response(chart: &ResponseChart, svg: &mut String) -> Result<(), String> 
     let f_max = all().map(|p| p.0).fold(f64::NEG_INFINITY, f64::max);
     let db_min = all().map(|p| p.1).fold(-3.0f64, f64::min);
     let db_max = all().map(|p| p.1).fold(0.0f64, f64::max);
-    let (f_min, f_max) = if f_min.is_finite() && f_max > f_min {
-        (f_min, f_max)
-    } else {
-        (20.0, 20_000.0)
+    let (f_min, f_max) = match (f_min.is_finite(), f_max > f_min) {
+        (true, true) => (f_min, f_max),
+        // A single frequency: a decade either side of it.
+        (true, false) => (f_min / 10.0, f_min * 10.0),
+        _ => (20.0, 20_000.0),
     };
     // A little room either side on the log axis; whole dB steps of three.
     let (lo, hi) = (f_min / 1.5, f_max * 1.5);
@@ -119,7 +120,7 @@ fn draw_response(chart: &ResponseChart, svg: &mut String) -> Result<(), String> 
         .map_err(|e| e.to_string())?;
     draw_mesh(
         &mut ctx,
-        ((top - bottom) / 3.0) as usize + 1,
+        (((top - bottom) / 3.0) as usize + 1).min(13),
         &|v| {
             if v.abs() < 1e-9 {
                 "0".to_string()
