@@ -659,6 +659,9 @@ pub struct RatingUsed {
     /// "built in" or the shop file's path.
     pub origin: String,
     pub positions: Vec<String>,
+    /// The grid-to-screen amplification factor the bias estimates use,
+    /// when the row gives one.
+    pub mu_g1g2: Option<f64>,
 }
 
 #[derive(Debug, Clone, Serialize)]

@@ -328,6 +328,9 @@ fn glance(
                 ok_summary(family, last, safety).unwrap_or_default(),
                 true,
             ),
+            None if family == Family::BenchTests => {
+                (Status::Ok, "no bench tests recorded".to_string(), false)
+            }
             None => (Status::Ok, "nothing measured".to_string(), false),
         };
         out.push(FamilyStatus {
@@ -535,6 +538,7 @@ fn ratings_used(job: &Job, ratings: &RatingsTable) -> Vec<RatingUsed> {
                 crate::ratings::RatingOrigin::Shop(p) => p.display().to_string(),
             },
             positions: vec![v.position.value.clone()],
+            mu_g1g2: r.mu_g1g2,
         });
     }
     out.sort_by(|a, b| a.name.cmp(&b.name));

@@ -997,12 +997,7 @@ fn draw_supply(chart: &SupplyChart, svg: &mut String) -> Result<(), String> {
         "Volts DC, corrected to {} V mains",
         whole(chart.nominal_volts)
     );
-    draw_mesh(
-        &mut ctx,
-        2 * axis.labels(),
-        &|v| format!("{v:.0}"),
-        &desc,
-    )?;
+    draw_mesh(&mut ctx, 2 * axis.labels(), &|v| format!("{v:.0}"), &desc)?;
     let (left, _) = ctx.backend_coord(&(0.0, bottom));
 
     // Bands: the expected figure ± tolerance, as a grey column per node.

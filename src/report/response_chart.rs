@@ -120,7 +120,7 @@ fn draw_response(chart: &ResponseChart, svg: &mut String) -> Result<(), String> 
         .map_err(|e| e.to_string())?;
     draw_mesh(
         &mut ctx,
-        (((top - bottom) / 3.0) as usize + 1).min(13),
+        ((top - bottom) as usize + 1).min(13),
         &|v| {
             if v.abs() < 1e-9 {
                 "0".to_string()

@@ -1149,6 +1149,15 @@ fn safety(job: &Job, findings: &Findings) -> SafetyContext {
 fn method(findings: &Findings) -> Method {
     let s = &findings.settings;
     let valves = || findings.sets.iter().flat_map(|set| set.valves.iter());
+    // μg1g2 is listed where a bias estimate used it.
+    let estimates = findings.sets.iter().any(|set| {
+        !set.cathode_resistor_suggestions.is_empty()
+            || set.valves.iter().any(|v| {
+                v.target_window
+                    .as_ref()
+                    .is_some_and(|w| w.grid_for_middle_volts.is_some())
+            })
+    });
     let mut ratings: Vec<RatingRow> = findings
         .ratings_used
         .iter()
@@ -1160,6 +1169,9 @@ fn method(findings: &Findings) -> Method {
             }
             if let Some(p) = used.and_then(|v| v.screen_dissipation_max_w) {
                 limits.push(format!("Pg2 {}", format_engineering(p, Q::Power)));
+            }
+            if let Some(mu) = r.mu_g1g2.filter(|_| estimates) {
+                limits.push(format!("μg1g2 {}", format_sig(mu, 3)));
             }
             RatingRow {
                 name: r.name.clone(),
