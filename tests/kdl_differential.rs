@@ -154,9 +154,9 @@ fn kdl_files(dir: &Path, out: &mut Vec<PathBuf>) {
         let path = entry.path();
         let name = path.file_name().and_then(|n| n.to_str()).unwrap_or("");
         if path.is_dir() {
-            // The fuzz corpus holds hostile files on purpose (nesting deep
-            // enough to overflow the kdl crate's recursive parser); the
-            // hostile-input tests run those through the program instead.
+            // The fuzz corpus holds hostile files (nesting deep enough to
+            // overflow the kdl crate's recursive parser) on purpose; the
+            // fuzz and hostile-input tests read them through the guard.
             if !matches!(name, "target" | ".git" | "fuzz-corpus") {
                 kdl_files(&path, out);
             }
