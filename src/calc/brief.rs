@@ -96,6 +96,18 @@ pub(crate) fn fill_set(set: &mut SetFindings, derating: f64, tolerance: f64) {
     for h in &mut set.heaters {
         h.verdict.brief = format!("{:+.1} %", h.deviation_pct);
     }
+    for p in &mut set.bench.output_power {
+        p.verdict.brief = match p.output_power_pct_of_rated {
+            Some(pct) => format!("{pct:.0} % of rated"),
+            None => format!("{:.1} W", p.output_power_w),
+        };
+    }
+    for h in &mut set.bench.hum_noise {
+        h.verdict.brief = match h.hum_noise_db_below_full {
+            Some(db) => format!("{db:.0} dB below full"),
+            None => format!("{:.1} dBV", h.hum_noise_dbv),
+        };
+    }
 }
 
 /// Fills `brief` on the safety tests.

@@ -4,6 +4,7 @@
 mod bare_value;
 mod completeness;
 mod decode;
+mod decode_bench;
 mod decode_error;
 mod model;
 mod reader;
@@ -12,8 +13,10 @@ mod valve_types;
 
 pub use completeness::{NotMeasuredInFinal, not_measured_in_final};
 pub use decode::{
-    CIRCUIT_NODES, FORMAT_VERSION, MOD_FIGURES, SAFETY_TESTS, SETTINGS, TOP_LEVEL, VALVE_CHECKS,
+    CIRCUIT_NODES, FORMAT_VERSION, MOD_FIGURES, SAFETY_TESTS, SET_NODES, SETTINGS, TOP_LEVEL,
+    VALVE_CHECKS,
 };
+pub use decode_bench::{BENCH_NODES, DEFAULT_FREQUENCY};
 pub use decode_error::{DecodeError, JobDiagnostics, did_you_mean, line_column, suggestion_help};
 pub use model::*;
 

@@ -5,6 +5,7 @@ pub mod attention;
 pub mod handover;
 pub mod json;
 pub mod plots;
+pub mod response_chart;
 pub mod summary;
 mod table;
 pub mod terminal;
