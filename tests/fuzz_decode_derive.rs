@@ -29,6 +29,18 @@ fn corpus() -> Vec<PathBuf> {
     files
 }
 
+/// Writes the job file of seed FUZZ_SEED to FUZZ_WRITE, to look at a case.
+#[test]
+#[ignore]
+fn write_case() {
+    let seed: u64 = std::env::var("FUZZ_SEED")
+        .ok()
+        .and_then(|v| v.parse().ok())
+        .unwrap_or(0);
+    let path = std::env::var("FUZZ_WRITE").unwrap_or_else(|_| "case.kdl".into());
+    std::fs::write(path, generated_job(seed)).expect("write the case");
+}
+
 /// Each file found by an earlier run: sound output, and quick.
 #[test]
 fn every_corpus_file_gives_sound_output() {
@@ -83,7 +95,14 @@ fn long_run() {
     let (mut panics, mut unsound, mut slow) = (0u64, 0u64, 0u64);
     let mut slowest = Duration::ZERO;
     let mut bytes = 0u64;
+    // FUZZ_TRACE=1 writes each seed before its case, so a case that
+    // aborts the process (a stack overflow) can be found again.
+    let trace = std::env::var_os("FUZZ_TRACE").is_some();
+    let _ = std::fs::create_dir_all(&found);
     for seed in first..first + cases {
+        if trace {
+            let _ = std::fs::write(found.join("current-seed"), seed.to_string());
+        }
         let text = generated_job(seed);
         bytes += text.len() as u64;
         let build = seed % source_every == 0;
