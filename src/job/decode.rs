@@ -4,6 +4,7 @@
 
 use kdl::{KdlDocument, KdlNode};
 use miette::SourceSpan;
+use std::collections::HashSet;
 
 use super::decode_bench::{BENCH_NODES, decode_bench_node};
 use super::decode_error::{DecodeError, suggestion_help};
@@ -440,6 +441,7 @@ fn decode_mains(node: &KdlNode, r: &mut Reader) -> Option<Mains> {
 fn decode_valves(node: &KdlNode, r: &mut Reader) -> Vec<ValvePosition> {
     r.check_entries(node, &[], 0);
     let mut out: Vec<ValvePosition> = Vec::new();
+    let mut listed: HashSet<String> = HashSet::new();
     for child in r.children(node.children(), &["valve"], "`valves`") {
         r.check_entries(child, &["type", "role", "channel"], 1);
         r.no_children(child);
@@ -479,7 +481,7 @@ fn decode_valves(node: &KdlNode, r: &mut Reader) -> Vec<ValvePosition> {
             }
         };
         if let Some(p) = &position
-            && out.iter().any(|v| v.position.value == p.value)
+            && !listed.insert(p.value.clone())
         {
             r.push(DecodeError::error(
                 "job::repeated-position",
@@ -508,6 +510,7 @@ fn decode_valves(node: &KdlNode, r: &mut Reader) -> Vec<ValvePosition> {
 fn decode_circuit(node: &KdlNode, r: &mut Reader) -> Circuit {
     r.check_entries(node, &[], 0);
     let mut c = Circuit::default();
+    let mut declared: HashSet<String> = HashSet::new();
     for child in r.children(node.children(), CIRCUIT_NODES, "`circuit`") {
         r.no_children(child);
         match child.name().value() {
@@ -638,7 +641,7 @@ fn decode_circuit(node: &KdlNode, r: &mut Reader) -> Circuit {
                 let label = r.opt_prop_string(child, "label");
                 let channel = r.opt_prop_string(child, "channel");
                 if let Some(name) = name {
-                    if c.nodes.iter().any(|n| n.name.value == name.value) {
+                    if !declared.insert(name.value.clone()) {
                         r.push(DecodeError::error(
                             "job::repeated-node",
                             name.span,
@@ -767,10 +770,16 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
     let date = r.opt_prop_date(node, "date");
     let mut nodes: Vec<NodeReading> = Vec::new();
     let mut valves: Vec<ValveReading> = Vec::new();
+    // Names read so far in this set, for the repeated-reading check.
+    let (mut nodes_read, mut valves_read) = (HashSet::new(), HashSet::new());
     let mut heaters = Vec::new();
     let mut circuit_changes = Circuit::default();
     let mut valve_types: Vec<ValveTypeChange> = Vec::new();
     let mut warm_up: Vec<WarmUpReading> = Vec::new();
+    // (position, minutes) read so far in the warm-up, and positions given a
+    // type: sets, so a long file is checked in linear time.
+    let mut warm_up_read: HashSet<(String, u64)> = HashSet::new();
+    let mut typed: HashSet<String> = HashSet::new();
     let mut bias_controls = Vec::new();
     let mut bench = BenchTests::default();
     let mut suggest_cathode_resistor = false;
@@ -818,7 +827,7 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
                 let chart = volts_pos(r, child, "chart", "the chart voltage");
                 let tolerance = percent(r, child, "tolerance");
                 if let (Some(name), Some(volts)) = (name, volts) {
-                    if nodes.iter().any(|n| n.name.value == name.value) {
+                    if !nodes_read.insert(name.value.clone()) {
                         r.push(DecodeError::error(
                             "job::repeated-reading",
                             name.span,
@@ -840,10 +849,7 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
                     continue;
                 };
                 if let Some(t) = type_name {
-                    if valve_types
-                        .iter()
-                        .any(|c: &ValveTypeChange| c.position.value == reading.position.value)
-                    {
+                    if !typed.insert(reading.position.value.clone()) {
                         r.push(DecodeError::error(
                             "job::repeated-reading",
                             t.span,
@@ -863,10 +869,7 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
                 if !reading.has_readings() {
                     continue;
                 }
-                if valves
-                    .iter()
-                    .any(|v| v.position.value == reading.position.value)
-                {
+                if !valves_read.insert(reading.position.value.clone()) {
                     r.push(DecodeError::error(
                         "job::repeated-reading",
                         reading.position.span,
@@ -922,10 +925,9 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
                         continue;
                     }
                     if let Some(minutes) = minutes {
-                        if warm_up.iter().any(|x: &WarmUpReading| {
-                            x.reading.position.value == reading.position.value
-                                && (x.minutes.value - minutes.value).abs() < 1e-9
-                        }) {
+                        if !warm_up_read
+                            .insert((reading.position.value.clone(), minutes.value.to_bits()))
+                        {
                             r.push(DecodeError::error(
                                 "job::repeated-reading",
                                 minutes.span,
