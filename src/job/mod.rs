@@ -3,13 +3,15 @@
 
 mod bare_value;
 mod decode;
+mod decode_bench;
 mod decode_error;
 mod model;
 mod reader;
 mod validate;
 mod valve_types;
 
-pub use decode::{CIRCUIT_NODES, FORMAT_VERSION, MOD_FIGURES, SETTINGS, TOP_LEVEL};
+pub use decode::{CIRCUIT_NODES, FORMAT_VERSION, MOD_FIGURES, SET_NODES, SETTINGS, TOP_LEVEL};
+pub use decode_bench::{BENCH_NODES, DEFAULT_FREQUENCY};
 pub use decode_error::{DecodeError, JobDiagnostics, did_you_mean, line_column, suggestion_help};
 pub use model::*;
 
