@@ -509,7 +509,10 @@ mod tests {
     #[test]
     fn the_checked_phrases_are_the_notices_own_words() {
         for phrase in NOTICE_PHRASES {
-            assert!(NOTICE_TEXT.contains(phrase), "{phrase} is not in mains-safety.typ");
+            assert!(
+                NOTICE_TEXT.contains(phrase),
+                "{phrase} is not in mains-safety.typ"
+            );
         }
         assert_eq!(notice_required().phrases.len(), NOTICE_PHRASES.len());
     }
