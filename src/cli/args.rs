@@ -27,19 +27,26 @@ pub enum Command {
     Check(CheckArgs),
     /// Print every derived figure of a job as JSON.
     Calc(CalcArgs),
-    /// Typeset the PDF hand-over document for a job.
+    /// Typeset the PDF hand-over document for each job (files or folders).
     Render(RenderArgs),
+    /// Render jobs again whenever they, or anything they are made from, change.
+    Watch(RenderArgs),
     /// List the valve ratings table, or show one type with its source note.
     Tubes(TubesArgs),
     /// Write an annotated skeleton job file to start from.
     Init(InitArgs),
 }
 
-/// Options every command that reads a job shares.
+/// Options every command that reads jobs shares.
 #[derive(Debug, Args)]
 pub struct JobArgs {
-    /// The job file (KDL).
-    pub job: PathBuf,
+    /// Job files (KDL), or folders searched for them: every `*.kdl` file
+    /// in the folder except `shop.kdl`, ratings files and hidden files.
+    #[arg(value_name = "JOB|DIR", required = true, num_args = 1..)]
+    pub jobs: Vec<PathBuf>,
+    /// Search the folders' sub-folders too.
+    #[arg(short, long)]
+    pub recursive: bool,
     /// A shop's own ratings file that adds or corrects valve types.
     #[arg(long, value_name = "FILE")]
     pub ratings: Vec<PathBuf>,
@@ -76,7 +83,8 @@ pub enum StrictSets {
 pub struct CalcArgs {
     #[command(flatten)]
     pub job: JobArgs,
-    /// Print JSON (the only format; the flag states it in scripts).
+    /// Print JSON (the only format; the flag states it in scripts). With
+    /// several jobs, one JSON document per line, in the order given.
     #[arg(long)]
     pub json: bool,
 }
@@ -85,9 +93,17 @@ pub struct CalcArgs {
 pub struct RenderArgs {
     #[command(flatten)]
     pub job: JobArgs,
-    /// Where to write the PDF (default: beside the job file, same name, .pdf).
-    #[arg(short, long, value_name = "FILE")]
+    /// Where to write the PDF (default: beside the job file, same name,
+    /// .pdf); one job file only.
+    #[arg(short, long, value_name = "FILE", conflicts_with = "out_dir")]
     pub output: Option<PathBuf>,
+    /// Write the PDFs under this folder, mirroring where the jobs are
+    /// (a job found in a folder DIR goes to the same place under it).
+    #[arg(long, value_name = "DIR")]
+    pub out_dir: Option<PathBuf>,
+    /// How many jobs to render at once (default: the number of cores).
+    #[arg(short = 'j', long = "jobs", value_name = "N", value_parser = clap::value_parser!(u16).range(1..=1024))]
+    pub parallel: Option<u16>,
     /// The typst program to run (default: $AMPREPORT_TYPST, else typst on PATH).
     #[arg(long, value_name = "PATH")]
     pub typst: Option<PathBuf>,
@@ -98,8 +114,9 @@ pub struct RenderArgs {
     /// (new or empty; see --force).
     #[arg(long, value_name = "DIR")]
     pub emit_source: Option<PathBuf>,
-    /// Let --emit-source replace everything in a folder that is not empty.
-    #[arg(long, requires = "emit_source")]
+    /// Render even when the PDF is up to date; with --emit-source, also
+    /// replace everything in a folder that is not empty.
+    #[arg(long)]
     pub force: bool,
     /// Stop typst after this many seconds (each run: the version check, the compile).
     #[arg(

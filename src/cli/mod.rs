@@ -2,13 +2,18 @@
 //! exit statuses in [`exit`]. No business logic lives here.
 
 pub mod args;
+mod batch;
 mod calc;
 mod check;
+pub mod content_key;
 pub mod exit;
 mod init;
+pub mod job_files;
 mod load;
 mod render;
+mod said;
 mod tubes;
+mod watch;
 
 use clap::Parser;
 use std::io::IsTerminal;
@@ -35,6 +40,7 @@ pub fn main() -> ExitCode {
         args::Command::Check(a) => check::run(a),
         args::Command::Calc(a) => calc::run(a),
         args::Command::Render(a) => render::run(a),
+        args::Command::Watch(a) => watch::run(a),
         args::Command::Tubes(a) => tubes::run(a),
         args::Command::Init(a) => init::run(a),
     };

@@ -1,25 +1,37 @@
-//! `ampreport render JOB`: the PDF hand-over document. Reads and derives the
-//! job, finds typst, fills the template, optionally writes the generated
-//! source to a folder, and compiles the PDF atomically.
+//! `ampreport render JOB|DIR…`: the PDF hand-over document of each job.
+//! Reads and derives a job, finds typst, fills the template, optionally
+//! writes the generated source to a folder, and compiles the PDF
+//! atomically; a job whose PDF was already made from exactly the same
+//! inputs is skipped ([`super::content_key`]). Several jobs, or a folder of
+//! them, run side by side with a summary at the end ([`super::batch`]).
 //!
-//! Exit statuses: 1 when the job, a ratings file or a shop's own template
-//! (`--templates`) is at fault; 2 when the output or the `--emit-source`
-//! folder may not be written (it is an input, a link, a device, a folder
-//! with other files in it); 3 when the set-up is (typst missing, too old,
-//! unusable, crashing, hanging past `--timeout`, a folder that cannot be
-//! written) or when typst rejects the built-in template, which is a fault
-//! of the tool itself; 128 + N after signal N (SIGINT, SIGTERM, SIGHUP),
-//! with the temporary files removed and typst stopped.
+//! Exit statuses for one job: 1 when the job, a ratings file or a shop's
+//! own template (`--templates`) is at fault; 2 when the output or the
+//! `--emit-source` folder may not be written (it is an input, a link, a
+//! device, a folder with other files in it); 3 when the set-up is (typst
+//! missing, too old, unusable, crashing, hanging past `--timeout`, a folder
+//! that cannot be written) or when typst rejects the built-in template,
+//! which is a fault of the tool itself; 128 + N after signal N (SIGINT,
+//! SIGTERM, SIGHUP), with the temporary files removed and typst stopped.
+//! A batch exits 1 when any job failed.
 
 use std::path::{Path, PathBuf};
+use std::time::{Duration, Instant};
 
 use super::args::RenderArgs;
+use super::batch;
+use super::check::named_jobs;
+use super::content_key::{self, RunInputs, RunKey};
 use super::exit::Exit;
+use super::job_files::JobFile;
 use super::load;
+use super::said::Said;
 use crate::calc;
+use crate::ratings::RatingsTable;
 use crate::report::handover::{self, HandoverError, HandoverInput, ShopBlock};
 use crate::typeset::{
-    self, CompileOptions, Input, TemplateSource, TypesetError, TypstProgram, interrupt,
+    self, CompileOptions, Input, InputIndex, TemplateSource, TypesetError, TypstProgram,
+    interrupt,
 };
 
 pub fn run(args: &RenderArgs) -> Exit {
@@ -28,58 +40,271 @@ pub fn run(args: &RenderArgs) -> Exit {
     if let Err(e) = interrupt::install() {
         eprintln!("warning: stop signals will end ampreport without clean-up: {e}");
     }
-    // typst answers `--version` while the job is read; a problem with the
-    // job is still reported first.
-    let pending = typeset::start_locate(args.typst.as_deref());
-    let loaded = match load::job(&args.job) {
-        Ok(l) => l,
+    let setup = match Setup::new(args) {
+        Ok(s) => s,
         Err(e) => return e,
     };
-    let job = &loaded.decoded.job;
-    let findings = calc::derive(job, &loaded.ratings);
-    for warning in undrawable_text(&args.job.job.display().to_string(), &loaded.text) {
-        eprintln!("{warning}");
+    if !setup.batch {
+        let report = render_one(&setup, &setup.plans[0]);
+        report.said.print();
+        match report.outcome {
+            Outcome::Rendered => println!("wrote {}", setup.plans[0].output.display()),
+            Outcome::Unchanged => println!(
+                "{} is up to date (--force renders it anyway)",
+                setup.plans[0].output.display()
+            ),
+            Outcome::Failed => {}
+        }
+        return report.exit;
+    }
+    batch::run(&setup)
+}
+
+/// One job of a run and where its PDF goes.
+#[derive(Debug, Clone)]
+pub struct Plan {
+    pub job: JobFile,
+    pub output: PathBuf,
+}
+
+/// What every job of a run shares: the options, the ratings, the
+/// templates, typst, the content key's shared part, and the jobs.
+pub struct Setup<'a> {
+    pub args: &'a RenderArgs,
+    pub ratings: RatingsTable,
+    pub templates: TemplateSource,
+    pub program: TypstProgram,
+    /// `None` when an input could not be read for the key: every job is
+    /// rendered.
+    pub run_key: Option<RunKey>,
+    pub plans: Vec<Plan>,
+    /// Every job file of the run, which no output may be.
+    pub job_files: InputIndex,
+    /// True for several jobs or a folder: a summary at the end.
+    pub batch: bool,
+}
+
+impl<'a> Setup<'a> {
+    /// Finds the jobs and typst, reads the ratings, plans the outputs;
+    /// prints why and gives the exit status when the run cannot start.
+    pub fn new(args: &'a RenderArgs) -> Result<Self, Exit> {
+        let jobs = named_jobs(&args.job)?;
+        let batch = jobs.len() > 1 || args.job.jobs.iter().any(|p| p.is_dir());
+        if batch && args.output.is_some() {
+            eprintln!(
+                "error: -o names the PDF of one job file; for several jobs or a folder use --out-dir DIR"
+            );
+            return Err(Exit::Usage);
+        }
+        if batch && args.emit_source.is_some() {
+            eprintln!("error: --emit-source writes the source of one job; name one job file");
+            return Err(Exit::Usage);
+        }
+        // typst answers `--version` while the ratings are read.
+        let pending = typeset::start_locate(args.typst.as_deref());
+        let ratings = load::ratings(&args.job.ratings)?;
+        let templates = template_source(args.templates.as_deref())?;
+        let program = match pending.finish_within(args.timeout) {
+            Ok(p) => p,
+            Err(e) => {
+                let mut said = Said::default();
+                let exit = report_typeset_error(e, &templates, None, &mut said);
+                said.print();
+                return Err(exit);
+            }
+        };
+        if let Some(warning) = program.version_warning() {
+            eprintln!("warning: {warning}");
+        }
+        let plans: Vec<Plan> = jobs
+            .into_iter()
+            .map(|job| Plan {
+                output: output_for(args, &job),
+                job,
+            })
+            .collect();
+        if let Some(message) = shared_outputs(&plans) {
+            eprintln!("error: {message}");
+            return Err(Exit::Usage);
+        }
+        let version = program.version.to_string();
+        let options = render_options();
+        let run_key = match RunKey::new(&RunInputs {
+            program: RunKey::program(),
+            fonts: typeset::FONTS_DIGEST,
+            typst_version: &version,
+            typst_path: Some(&program.path),
+            ratings: &args.job.ratings,
+            templates: args.templates.as_deref(),
+            options: &options,
+        }) {
+            Ok(key) => Some(key),
+            Err(e) => {
+                eprintln!("warning: {e}; every job is rendered");
+                None
+            }
+        };
+        let job_files = InputIndex::new(
+            plans
+                .iter()
+                .map(|p| Input::new(&p.job.path, "a job file of this run"))
+                .collect(),
+        );
+        Ok(Setup {
+            args,
+            ratings,
+            templates,
+            program,
+            run_key,
+            plans,
+            job_files,
+            batch,
+        })
+    }
+}
+
+/// The options that change a document's bytes, for the content key.
+fn render_options() -> Vec<String> {
+    vec![format!(
+        "pdf-standard={}",
+        typeset::DEFAULT_PDF_STANDARD
+    )]
+}
+
+/// Where a job's PDF goes: `-o`, else under `--out-dir` at the job's place
+/// below the folder it was found in, else beside the job.
+fn output_for(args: &RenderArgs, job: &JobFile) -> PathBuf {
+    if let Some(output) = &args.output {
+        return output.clone();
+    }
+    match &args.out_dir {
+        Some(dir) => default_output(&dir.join(&job.relative)),
+        None => default_output(&job.path),
+    }
+}
+
+/// Names the first output two jobs of a run would both write, if any.
+fn shared_outputs(plans: &[Plan]) -> Option<String> {
+    let mut seen: std::collections::HashMap<PathBuf, &Path> = std::collections::HashMap::new();
+    for plan in plans {
+        let key = normalised(&plan.output);
+        if let Some(other) = seen.insert(key, &plan.job.path) {
+            return Some(format!(
+                "{} and {} would both be written to {}; use --out-dir DIR or rename one",
+                other.display(),
+                plan.job.path.display(),
+                plan.output.display()
+            ));
+        }
+    }
+    None
+}
+
+/// A path made absolute with `.` and `..` parts worked out by name, for
+/// telling two outputs apart before they exist.
+fn normalised(path: &Path) -> PathBuf {
+    let absolute = std::path::absolute(path).unwrap_or_else(|_| path.to_path_buf());
+    let mut out = PathBuf::new();
+    for part in absolute.components() {
+        match part {
+            std::path::Component::ParentDir => {
+                out.pop();
+            }
+            std::path::Component::CurDir => {}
+            other => out.push(other),
+        }
+    }
+    out
+}
+
+/// How one job's render ended.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Outcome {
+    /// A new PDF is in place.
+    Rendered,
+    /// The PDF was already made from exactly these inputs.
+    Unchanged,
+    /// Nothing was written; the error is in the job's [`Said`].
+    Failed,
+}
+
+/// One job's render: how it ended, its exit status, what it had to say,
+/// and how long it took.
+#[derive(Debug)]
+pub struct JobReport {
+    pub outcome: Outcome,
+    pub exit: Exit,
+    pub said: Said,
+    pub elapsed: Duration,
+}
+
+/// Renders one job: reads it, checks where its PDF goes, skips it when the
+/// PDF is up to date, else derives, fills the template, draws the charts
+/// and has typst compile it. Prints nothing: everything it has to say is
+/// in the report.
+pub fn render_one(setup: &Setup<'_>, plan: &Plan) -> JobReport {
+    let start = Instant::now();
+    let mut said = Said::default();
+    let (outcome, exit) = match render_job(setup, plan, &mut said) {
+        Ok(outcome) => (outcome, Exit::Success),
+        Err(exit) => (Outcome::Failed, exit),
+    };
+    JobReport {
+        outcome,
+        exit,
+        said,
+        elapsed: start.elapsed(),
+    }
+}
+
+fn render_job(setup: &Setup<'_>, plan: &Plan, said: &mut Said) -> Result<Outcome, Exit> {
+    let args = setup.args;
+    let job_path = &plan.job.path;
+    let output = &plan.output;
+    let text = load::read_text(job_path, said)?;
+
+    let inputs = inputs_read(args, job_path, &setup.program);
+    if let Err(e) = typeset::check_output(output, &inputs)
+        .and_then(|()| setup.job_files.check(output))
+    {
+        said.error(format!("{:?}", miette::Report::new(e)));
+        return Err(Exit::Usage);
     }
 
-    let templates = match template_source(args.templates.as_deref()) {
-        Ok(t) => t,
-        Err(e) => return e,
-    };
+    // The key covers the text read above, the very bytes the job is
+    // decoded from below.
+    let key = setup.run_key.as_ref().map(|run| run.job(&text).finish());
+    if let Some(key) = &key
+        && !args.force
+        && args.emit_source.is_none()
+        && content_key::up_to_date(output, key)
+    {
+        return Ok(Outcome::Unchanged);
+    }
 
-    let program = match pending.finish_within(args.timeout) {
-        Ok(p) => p,
-        Err(e) => return report_typeset_error(e, &templates, None),
-    };
-    if let Some(warning) = program.version_warning() {
-        eprintln!("warning: {warning}");
+    let loaded = load::decode(job_path, text, &setup.ratings, said)?;
+    let job = &loaded.decoded.job;
+    let findings = calc::derive(job, &setup.ratings);
+    for warning in undrawable_text(&job_path.display().to_string(), &loaded.text) {
+        said.err(warning);
     }
 
     let input = HandoverInput {
         job,
         findings: &findings,
         job_text: &loaded.text,
-        typst_version: program.version.to_string(),
+        typst_version: setup.program.version.to_string(),
         shop: ShopBlock::default(),
     };
-    let document = match handover::build(&input, &templates) {
+    let document = match handover::build(&input, &setup.templates) {
         Ok(d) => d,
-        Err(e) => return report_build_error(e),
+        Err(e) => return Err(report_build_error(e, said)),
     };
 
-    let output = args
-        .output
-        .clone()
-        .unwrap_or_else(|| default_output(&args.job.job));
-    let inputs = inputs_read(args, &program);
-    if let Err(e) = typeset::check_output(&output, &inputs) {
-        eprintln!("{:?}", miette::Report::new(e));
-        return Exit::Usage;
-    }
-
     if let Some(dir) = &args.emit_source {
-        if let Err(e) = typeset::check_emit_folder(dir, &inputs, &output, args.force) {
-            eprintln!("{:?}", miette::Report::new(e));
-            return Exit::Usage;
+        if let Err(e) = typeset::check_emit_folder(dir, &inputs, output, args.force) {
+            said.error(format!("{:?}", miette::Report::new(e)));
+            return Err(Exit::Usage);
         }
         let written = if args.force {
             typeset::emit_source_replacing(&document.sandbox, dir)
@@ -87,20 +312,25 @@ pub fn run(args: &RenderArgs) -> Exit {
             typeset::emit_source(&document.sandbox, dir)
         };
         if let Some(signal) = interrupt::received() {
-            return report_typeset_error(TypesetError::Interrupted { signal }, &templates, None);
+            return Err(report_typeset_error(
+                TypesetError::Interrupted { signal },
+                &setup.templates,
+                None,
+                said,
+            ));
         }
         if let Err(e) = written {
-            eprintln!(
+            said.error(format!(
                 "error: could not write the generated source to {}: {e}",
                 dir.display()
-            );
-            return Exit::Environment;
+            ));
+            return Err(Exit::Environment);
         }
-        eprintln!("wrote the generated source to {}", dir.display());
-        eprintln!(
+        said.err(format!("wrote the generated source to {}", dir.display()));
+        said.err(format!(
             "  the same PDF comes from: {}",
             handover::compile_command(dir, &document.options, &dir.join("handover.pdf"))
-        );
+        ));
     }
 
     let options = CompileOptions {
@@ -108,27 +338,43 @@ pub fn run(args: &RenderArgs) -> Exit {
         ..document.options.clone()
     };
     match typeset::compile(
-        &program,
+        &setup.program,
         &document.sandbox,
         document.main,
         &options,
-        &output,
+        output,
     ) {
         Ok(outcome) => {
             if !outcome.warnings.is_empty() {
-                eprintln!("typst warned:\n{}", outcome.warnings);
+                said.err(format!("typst warned:\n{}", outcome.warnings));
             }
-            println!("wrote {}", output.display());
-            Exit::Success
+            match &key {
+                Some(key) => {
+                    if let Err(e) = content_key::record(output, key) {
+                        said.err(format!(
+                            "warning: could not record what {} was made from ({e}); the next run renders it again",
+                            output.display()
+                        ));
+                    }
+                }
+                None => content_key::forget(output),
+            }
+            Ok(Outcome::Rendered)
         }
-        Err(e) => report_typeset_error(e, &templates, Some(&output)),
+        Err(e) => Err(report_typeset_error(
+            e,
+            &setup.templates,
+            Some(output),
+            said,
+        )),
     }
 }
 
-/// Every path the render reads, for the output checks: an output may be
-/// none of them, and the `--emit-source` folder may hold none of them.
-fn inputs_read(args: &RenderArgs, program: &TypstProgram) -> Vec<Input> {
-    let mut inputs = vec![Input::new(&args.job.job, "the job file")];
+/// Every path the render of `job` reads, for the output checks: an output
+/// may be none of them, and the `--emit-source` folder may hold none of
+/// them.
+fn inputs_read(args: &RenderArgs, job: &Path, program: &TypstProgram) -> Vec<Input> {
+    let mut inputs = vec![Input::new(job, "the job file")];
     inputs.extend(
         args.job
             .ratings
@@ -146,10 +392,11 @@ fn inputs_read(args: &RenderArgs, program: &TypstProgram) -> Vec<Input> {
 /// the exit status: 1 when a shop's template is at fault, 2 for an output
 /// that may not be written, 3 for typst or the machine (and for the
 /// built-in template, a fault of ampreport itself), 128 + N for signal N.
-fn report_typeset_error(
+pub(crate) fn report_typeset_error(
     e: TypesetError,
     templates: &TemplateSource,
     output: Option<&Path>,
+    said: &mut Said,
 ) -> Exit {
     let shop = templates.override_dir.as_deref();
     let status = match &e {
@@ -157,26 +404,26 @@ fn report_typeset_error(
         TypesetError::Output(_) => Exit::Usage,
         TypesetError::Compile { .. } | TypesetError::MissingText { .. } => match shop {
             Some(dir) => {
-                eprintln!(
+                said.err(format!(
                     "note: the document from the shop templates in {} failed; the templates are at fault, not the job",
                     dir.display()
-                );
+                ));
                 Exit::InvalidInput
             }
             None => {
-                eprintln!(
-                    "note: the built-in template failed; this is a fault in ampreport, please report it"
+                said.err(
+                    "note: the built-in template failed; this is a fault in ampreport, please report it",
                 );
                 Exit::Environment
             }
         },
         _ => Exit::Environment,
     };
-    eprintln!("{:?}", miette::Report::new(e));
+    said.error(format!("{:?}", miette::Report::new(e)));
     if let Some(output) = output
         && output.exists()
     {
-        eprintln!("note: {} was left as it was", output.display());
+        said.err(format!("note: {} was left as it was", output.display()));
     }
     status
 }
@@ -230,7 +477,7 @@ fn default_output(job: &Path) -> PathBuf {
 }
 
 /// The built-in templates, overridden by `--templates DIR` when given.
-fn template_source(dir: Option<&Path>) -> Result<TemplateSource, Exit> {
+pub(crate) fn template_source(dir: Option<&Path>) -> Result<TemplateSource, Exit> {
     let source = TemplateSource::embedded(handover::EMBEDDED_TEMPLATES);
     match dir {
         None => Ok(source),
@@ -245,7 +492,7 @@ fn template_source(dir: Option<&Path>) -> Result<TemplateSource, Exit> {
     }
 }
 
-fn report_build_error(e: HandoverError) -> Exit {
+fn report_build_error(e: HandoverError, said: &mut Said) -> Exit {
     let status = match &e {
         HandoverError::Template {
             from_override: true,
@@ -257,14 +504,14 @@ fn report_build_error(e: HandoverError) -> Exit {
             from_override: false,
             ..
         } => {
-            eprintln!(
-                "note: the built-in template failed; this is a fault in ampreport, please report it"
+            said.err(
+                "note: the built-in template failed; this is a fault in ampreport, please report it",
             );
             Exit::Environment
         }
         HandoverError::Plot(_) | HandoverError::Sandbox(_) => Exit::Environment,
     };
-    eprintln!("error: {e}");
+    said.error(format!("error: {e}"));
     status
 }
 

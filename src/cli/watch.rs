@@ -1,0 +1,244 @@
+//! `ampreport watch JOB|DIR…`: renders the jobs, then renders a job again
+//! each time it, or anything it is made from, is saved. The same options
+//! and the same one-job pipeline as `render` (a job whose PDF is already
+//! up to date is not rendered); one line per render with the time it took;
+//! a failed render prints its errors and leaves the last good PDF as it
+//! was. Ctrl-C (or SIGTERM, SIGHUP) stops a render in progress the way it
+//! stops `render` (typst ended, temporary files removed) and ends the
+//! watch with status 0.
+//!
+//! The folders holding the jobs (and the ratings files and the template
+//! folder) are watched rather than the files themselves, since editors
+//! save by writing a new file and renaming it over the old one. Changes
+//! come through `notify`, debounced: a burst of writes to one file is one
+//! change, told at most [`DEBOUNCE`] × 2 after the last of them. A changed
+//! job file renders that job; a changed ratings file or template, or a job
+//! file added to a watched folder, renders every job.
+
+use std::collections::HashSet;
+use std::path::{Path, PathBuf};
+use std::sync::mpsc::{RecvTimeoutError, channel};
+use std::time::Duration;
+
+use notify::RecursiveMode;
+use notify_debouncer_mini::new_debouncer;
+
+use super::args::RenderArgs;
+use super::batch::seconds;
+use super::exit::Exit;
+use super::render::{Outcome, Plan, Setup, render_one};
+use crate::typeset::interrupt;
+
+/// How long a file must be quiet before its change is taken.
+pub const DEBOUNCE: Duration = Duration::from_millis(40);
+
+/// How often the loop looks for a stop signal while nothing changes.
+const POLL: Duration = Duration::from_millis(100);
+
+pub fn run(args: &RenderArgs) -> Exit {
+    if let Err(e) = interrupt::install() {
+        eprintln!("warning: Ctrl-C will end the watch without clean-up: {e}");
+    }
+    let mut setup = match Setup::new(args) {
+        Ok(s) => s,
+        Err(e) => return e,
+    };
+    let (tx, rx) = channel();
+    let mut debouncer = match new_debouncer(DEBOUNCE, tx) {
+        Ok(d) => d,
+        Err(e) => {
+            eprintln!("error: cannot watch files on this system: {e}");
+            return Exit::Environment;
+        }
+    };
+    let mut watched: HashSet<PathBuf> = HashSet::new();
+    if let Err(e) = watch_folders(&setup, &mut watched, debouncer.watcher()) {
+        eprintln!("error: {e}");
+        return Exit::Environment;
+    }
+    for plan in &setup.plans {
+        render_and_tell(&setup, plan);
+    }
+    eprintln!(
+        "watching {} job{} for changes (Ctrl-C stops)",
+        setup.plans.len(),
+        if setup.plans.len() == 1 { "" } else { "s" }
+    );
+    loop {
+        if interrupt::received().is_some() {
+            eprintln!("stopped watching");
+            return Exit::Success;
+        }
+        let events = match rx.recv_timeout(POLL) {
+            Ok(Ok(events)) => events,
+            Ok(Err(e)) => {
+                eprintln!("warning: watching files: {e}");
+                continue;
+            }
+            Err(RecvTimeoutError::Timeout) => continue,
+            Err(RecvTimeoutError::Disconnected) => {
+                eprintln!("error: the file watcher stopped");
+                return Exit::Environment;
+            }
+        };
+        let changed: Vec<PathBuf> = events.into_iter().map(|e| e.path).collect();
+        match affected(&setup, &changed) {
+            Affected::Nothing => {}
+            Affected::Jobs(indices) => {
+                for i in indices {
+                    render_and_tell(&setup, &setup.plans[i]);
+                }
+            }
+            Affected::Everything => {
+                // The shared inputs or the set of jobs changed: plan again.
+                match Setup::new(args) {
+                    Ok(fresh) => setup = fresh,
+                    Err(_) => continue,
+                }
+                if let Err(e) = watch_folders(&setup, &mut watched, debouncer.watcher()) {
+                    eprintln!("warning: {e}");
+                }
+                for plan in &setup.plans {
+                    render_and_tell(&setup, plan);
+                }
+            }
+        }
+    }
+}
+
+/// Renders one job and prints one line about it (what it said first).
+fn render_and_tell(setup: &Setup<'_>, plan: &Plan) {
+    if interrupt::received().is_some() {
+        return;
+    }
+    let report = render_one(setup, plan);
+    report.said.print();
+    let now = chrono::Local::now().format("%H:%M:%S");
+    match report.outcome {
+        Outcome::Rendered => println!(
+            "{now} rendered {} → {} in {}",
+            plan.job.path.display(),
+            plan.output.display(),
+            seconds(report.elapsed)
+        ),
+        Outcome::Unchanged => println!("{now} unchanged {}", plan.output.display()),
+        Outcome::Failed => println!(
+            "{now} failed {} after {}; {} was left as it was",
+            plan.job.path.display(),
+            seconds(report.elapsed),
+            plan.output.display()
+        ),
+    }
+}
+
+/// The folders to watch: each job's folder, each folder named on the
+/// command line (recursively with `--recursive`), each ratings file's
+/// folder and the template folder (recursively).
+fn folders(setup: &Setup<'_>) -> Vec<(PathBuf, RecursiveMode)> {
+    let args = setup.args;
+    let mut out: Vec<(PathBuf, RecursiveMode)> = Vec::new();
+    let folder_of = |p: &Path| match p.parent() {
+        Some(d) if !d.as_os_str().is_empty() => d.to_path_buf(),
+        _ => PathBuf::from("."),
+    };
+    for arg in &args.job.jobs {
+        if arg.is_dir() {
+            let mode = if args.job.recursive {
+                RecursiveMode::Recursive
+            } else {
+                RecursiveMode::NonRecursive
+            };
+            out.push((arg.clone(), mode));
+        }
+    }
+    for plan in &setup.plans {
+        out.push((folder_of(&plan.job.path), RecursiveMode::NonRecursive));
+    }
+    for r in &args.job.ratings {
+        out.push((folder_of(r), RecursiveMode::NonRecursive));
+    }
+    if let Some(dir) = &args.templates {
+        out.push((dir.clone(), RecursiveMode::Recursive));
+    }
+    out
+}
+
+/// Starts watching every folder of [`folders`] not watched yet.
+fn watch_folders(
+    setup: &Setup<'_>,
+    watched: &mut HashSet<PathBuf>,
+    watcher: &mut dyn notify::Watcher,
+) -> Result<(), String> {
+    for (dir, mode) in folders(setup) {
+        let key = dir.canonicalize().unwrap_or_else(|_| dir.clone());
+        if watched.contains(&key) {
+            continue;
+        }
+        watcher
+            .watch(&dir, mode)
+            .map_err(|e| format!("cannot watch {}: {e}", dir.display()))?;
+        watched.insert(key);
+    }
+    Ok(())
+}
+
+/// What a set of changed paths calls for.
+#[derive(Debug, PartialEq, Eq)]
+enum Affected {
+    Nothing,
+    /// These jobs (by index in the plans), in order.
+    Jobs(Vec<usize>),
+    /// The shared inputs changed, or a job file came or went.
+    Everything,
+}
+
+/// Which jobs the changed paths touch. Outputs, manifests and temporary
+/// files (anything that is not an input) are ignored, so a render never
+/// sets off another.
+fn affected(setup: &Setup<'_>, changed: &[PathBuf]) -> Affected {
+    let args = setup.args;
+    let canonical = |p: &Path| p.canonicalize().unwrap_or_else(|_| p.to_path_buf());
+    let shared: Vec<PathBuf> = args.job.ratings.iter().map(|r| canonical(r)).collect();
+    let templates = args.templates.as_deref().map(canonical);
+    let jobs: Vec<PathBuf> = setup.plans.iter().map(|p| canonical(&p.job.path)).collect();
+    let searched: Vec<PathBuf> = args
+        .job
+        .jobs
+        .iter()
+        .filter(|p| p.is_dir())
+        .map(|p| canonical(p))
+        .collect();
+    let mut hit = Vec::new();
+    for path in changed {
+        let path = canonical(path);
+        if shared.contains(&path) || templates.as_ref().is_some_and(|t| path.starts_with(t)) {
+            return Affected::Everything;
+        }
+        if let Some(i) = jobs.iter().position(|j| *j == path) {
+            if !path.exists() {
+                return Affected::Everything;
+            }
+            if !hit.contains(&i) {
+                hit.push(i);
+            }
+            continue;
+        }
+        // A new job file in a searched folder.
+        let is_kdl = path
+            .extension()
+            .is_some_and(|e| e.eq_ignore_ascii_case("kdl"));
+        let name_ok = path
+            .file_name()
+            .and_then(|n| n.to_str())
+            .is_some_and(|n| !n.starts_with('.') && n != super::job_files::SHOP_FILE);
+        if is_kdl && name_ok && path.is_file() && searched.iter().any(|d| path.starts_with(d)) {
+            return Affected::Everything;
+        }
+    }
+    hit.sort_unstable();
+    if hit.is_empty() {
+        Affected::Nothing
+    } else {
+        Affected::Jobs(hit)
+    }
+}
