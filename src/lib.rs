@@ -11,5 +11,6 @@ pub mod job;
 pub mod kdl_fast;
 pub mod ratings;
 pub mod report;
+pub mod shop;
 pub mod typeset;
 pub mod units;

@@ -13,7 +13,7 @@ use super::args::RenderArgs;
 use super::exit::Exit;
 use super::load;
 use crate::calc;
-use crate::report::handover::{self, HandoverError, HandoverInput, ShopBlock};
+use crate::report::handover::{self, HandoverError, HandoverInput};
 use crate::typeset::{self, TemplateSource, TypesetError};
 
 pub fn run(args: &RenderArgs) -> Exit {
@@ -48,7 +48,8 @@ pub fn run(args: &RenderArgs) -> Exit {
         findings: &findings,
         job_text: &loaded.text,
         typst_version: program.version.to_string(),
-        shop: ShopBlock::default(),
+        shop: loaded.shop.as_ref().map(|s| &s.profile),
+        logo: loaded.shop.as_ref().and_then(|s| s.logo.as_ref()),
     };
     let document = match handover::build(&input, &templates) {
         Ok(d) => d,
@@ -59,6 +60,19 @@ pub fn run(args: &RenderArgs) -> Exit {
         .output
         .clone()
         .unwrap_or_else(|| default_output(&args.job.job));
+
+    if let Some(shop) = &loaded.shop {
+        let mut inputs = vec![shop.path().to_path_buf()];
+        inputs.extend(shop.logo.as_ref().map(|l| l.source.clone()));
+        if let Some(input) = inputs.iter().find(|i| same_place(&output, i)) {
+            eprintln!(
+                "error: the output {} is the shop's own file {}; choose another output with -o",
+                output.display(),
+                input.display()
+            );
+            return Exit::InvalidInput;
+        }
+    }
 
     if let Some(dir) = &args.emit_source {
         if let Err(e) = typeset::emit_source(&document.sandbox, dir) {
@@ -107,6 +121,14 @@ pub fn run(args: &RenderArgs) -> Exit {
             }
             status
         }
+    }
+}
+
+/// Whether `output` names the existing file `input` (links followed).
+fn same_place(output: &Path, input: &Path) -> bool {
+    match (output.canonicalize(), input.canonicalize()) {
+        (Ok(a), Ok(b)) => a == b,
+        _ => false,
     }
 }
 

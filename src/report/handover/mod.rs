@@ -8,6 +8,7 @@
 //! the same bytes.
 
 mod context;
+mod shop_block;
 
 use std::path::Path;
 
@@ -19,13 +20,15 @@ pub use context::{
     CapacitorRow, ContextInputs, CustomerInfo, DISSIPATION_PLOT, DocumentInfo, Footer, Glance,
     GlanceRow, HandoverContext, HeaterRow, JobInfo, LineUpRow, MainsInfo, Method, ModFigureRow,
     ModRow, NodeRow, PartRow, Plots, RatingRow, RectifierRow, ResistorRow, SUPPLY_PLOT,
-    SafetyContext, SafetyRow, SetContext, ShopBlock, UnitInfo, ValveRow, WarningRow, WindowReading,
-    WindowRow, build_context, date_words,
+    SafetyContext, SafetyRow, SetContext, UnitInfo, ValveRow, WarningRow, WindowReading, WindowRow,
+    build_context, date_words,
 };
+pub use shop_block::{AcceptanceBlock, ShopBlock, WarrantyInfo, acceptance, paper};
 
 use super::plots::{self, PlotError};
 use crate::calc::Findings;
 use crate::job::Job;
+use crate::shop::{Logo, ShopProfile};
 use crate::typeset::{
     CompileOptions, Sandbox, TemplateSource, TypesetError, font_rules, template_environment,
     typst_markup,
@@ -95,7 +98,10 @@ pub struct HandoverInput<'a> {
     pub job_text: &'a str,
     /// The version of the typst that will compile it, for the footer.
     pub typst_version: String,
-    pub shop: ShopBlock,
+    /// The shop profile in use, if any.
+    pub shop: Option<&'a ShopProfile>,
+    /// The profile's checked logo, if it has one.
+    pub logo: Option<&'a Logo>,
 }
 
 /// A ready-to-compile document.
@@ -156,8 +162,16 @@ pub fn build(
         sandbox.insert(SUPPLY_PLOT, plots::supply_svg(chart)?)?;
     }
     let digest = job_digest(input.job_text);
+    let shop = match input.shop {
+        Some(profile) => ShopBlock::from_profile(profile, input.logo),
+        None => ShopBlock::default(),
+    };
+    if let (Some(logo), Some(_)) = (input.logo, input.shop) {
+        sandbox.insert(logo.sandbox_path(), logo.bytes.clone())?;
+    }
     let inputs = ContextInputs {
-        shop: input.shop.clone(),
+        shop,
+        profile: input.shop,
         tool_version: env!("CARGO_PKG_VERSION"),
         typst_version: &input.typst_version,
         job_digest: &digest,
@@ -298,7 +312,8 @@ mod tests {
             findings,
             job_text: text,
             typst_version: "0.15.1".into(),
-            shop: ShopBlock::default(),
+            shop: None,
+            logo: None,
         };
         build(&input, &TemplateSource::embedded(EMBEDDED_TEMPLATES)).unwrap()
     }
@@ -438,7 +453,8 @@ mod tests {
             findings: &findings,
             job_text: &text,
             typst_version: "0.15.1".into(),
-            shop: ShopBlock::default(),
+            shop: None,
+            logo: None,
         };
         let source = TemplateSource::embedded(EMBEDDED_TEMPLATES).with_override_dir(dir.path());
         match build(&input, &source) {
