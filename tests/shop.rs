@@ -402,3 +402,69 @@ fn the_profile_sets_the_paper_and_its_logo_travels_as_a_plain_file() {
     assert_eq!(status(&o), 1, "{}", stderr(&o));
     assert_eq!(std::fs::read(shop_dir.join("shop.kdl")).unwrap(), before);
 }
+
+#[test]
+fn charges_come_to_the_penny_with_the_shops_tax_and_stay_out_on_request() {
+    if !have_typst() {
+        return;
+    }
+    let dir = tempfile::tempdir().unwrap();
+    let pdf = dir.path().join("charges.pdf");
+    render_demo("combo-6v6-fixed", &pdf, &[]);
+    let pages: usize = pdfinfo(&pdf, "Pages").parse().unwrap();
+    let all: String = (1..=pages)
+        .map(|p| page_text(&pdf, p))
+        .collect::<Vec<_>>()
+        .join(" ");
+    // By hand, from the demo job's lines and the demo shop's 20 % VAT:
+    // labour 1.5 h × 48.00 = 72.00, 0.75 h × 48.00 = 36.00, 15.00 fixed:
+    // 123.00; parts 7.85 + 1.20 + 2.35 = 11.40; subtotal 134.40; VAT
+    // 134.40 × 0.20 = 26.88; total 161.28.
+    for figure in [
+        "72.00",
+        "36.00",
+        "123.00",
+        "11.40",
+        "134.40",
+        "VAT at 20 %",
+        "26.88",
+        "Total, GBP 161.28",
+    ] {
+        assert!(all.contains(figure), "{figure} missing: {all}");
+    }
+    let bare = dir.path().join("no-charges.pdf");
+    render_demo("combo-6v6-fixed", &bare, &["--no-charges"]);
+    let pages: usize = pdfinfo(&bare, "Pages").parse().unwrap();
+    let all: String = (1..=pages)
+        .map(|p| page_text(&bare, p))
+        .collect::<Vec<_>>()
+        .join(" ");
+    assert!(!all.contains("161.28") && !all.contains("Charges"), "{all}");
+    // The hand-over block stays.
+    assert!(all.contains("Warranty period: 90 days"));
+}
+
+#[test]
+fn a_bad_charges_line_is_reported_at_its_place() {
+    let dir = tempfile::tempdir().unwrap();
+    let text = format!(
+        "{JOB}charges currency=\"GBP\" {{\n    labour \"Bench\" hours=\"1.5\"\n    part \"Valve\" price=\"£7\"\n    part \"Fuse\" quantity=0 price=\"0.40\"\n}}\n"
+    );
+    std::fs::write(dir.path().join("job.kdl"), &text).unwrap();
+    std::fs::write(dir.path().join("shop.kdl"), profile("Here", 90)).unwrap();
+    let o = run(dir.path(), dir.path(), &["check", "job.kdl"]);
+    assert_eq!(status(&o), 1);
+    let err = stderr(&o);
+    for (needle, words) in [
+        (
+            "labour",
+            "`labour` needs `hours` and `rate`, or an `amount`",
+        ),
+        ("\"£7\"", "must be a plain decimal number"),
+        ("0 price", "`quantity` cannot be zero"),
+    ] {
+        let place = at("job.kdl", &text, needle);
+        assert!(err.contains(&place), "{place} missing from:\n{err}");
+        assert!(err.contains(words), "{words} missing from:\n{err}");
+    }
+}

@@ -50,6 +50,7 @@ pub fn run(args: &RenderArgs) -> Exit {
         typst_version: program.version.to_string(),
         shop: loaded.shop.as_ref().map(|s| &s.profile),
         logo: loaded.shop.as_ref().and_then(|s| s.logo.as_ref()),
+        include_charges: !args.no_charges,
     };
     let document = match handover::build(&input, &templates) {
         Ok(d) => d,

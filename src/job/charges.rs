@@ -21,17 +21,94 @@ pub const MONEY_LIMIT: i64 = 1_000_000_000;
 /// At most this many decimal places in a written amount.
 pub const MONEY_PLACES: u32 = 6;
 
-/// The `charges` block of a job.
+/// The `charges` block of a job, with the currency and tax settled: the
+/// job's own, else the shop profile's.
 #[derive(Debug, Clone, Serialize)]
 pub struct Charges {
     pub lines: Vec<ChargeLine>,
-    /// The currency, when the job names its own (else the shop profile's).
-    pub currency: Option<Spanned<String>>,
-    /// Tax rate in percent, when the job sets its own (else the shop
-    /// profile's, else none).
-    pub tax_rate_pct: Option<Spanned<Decimal>>,
+    pub currency: String,
+    /// Tax rate in percent, 0 when no tax is charged.
+    pub tax_rate_pct: Decimal,
+    /// What the tax is called ("VAT", "sales tax"); "tax" by default.
+    pub tax_name: String,
     #[serde(skip)]
     pub span: SourceSpan,
+}
+
+/// Currency and tax a shop profile lends a job's `charges` block.
+#[derive(Debug, Clone, Default, PartialEq, Serialize)]
+pub struct ChargeTerms {
+    pub currency: Option<String>,
+    /// Percent, 0–100.
+    pub tax_rate_pct: Option<Decimal>,
+    /// What the tax is called on the document ("VAT", "sales tax").
+    pub tax_name: Option<String>,
+}
+
+/// Places kept in every amount on the page, and in the totals: money is
+/// rounded to the cent (or penny) line by line.
+pub const CENT_PLACES: u32 = 2;
+
+/// The worked-out charges: every line's amount, the subtotals, the tax and
+/// the total, exact.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct ChargeTotals {
+    /// Each line's amount, in the job's order.
+    pub lines: Vec<Decimal>,
+    pub labour: Decimal,
+    pub parts: Decimal,
+    pub subtotal: Decimal,
+    pub tax: Decimal,
+    pub total: Decimal,
+}
+
+/// Rounds to the cent, halves away from zero (0.125 → 0.13), the usual
+/// commercial rule.
+pub fn to_cents(v: Decimal) -> Decimal {
+    v.round_dp_with_strategy(
+        CENT_PLACES,
+        rust_decimal::RoundingStrategy::MidpointAwayFromZero,
+    )
+}
+
+impl Charges {
+    /// The amounts: each line (hours × rate, quantity × price, or the fixed
+    /// amount) rounded to the cent; labour and parts summed; the tax is the
+    /// rate applied to the subtotal, rounded to the cent; the total is the
+    /// subtotal plus the tax. `None` only if a sum would not fit a
+    /// `Decimal` (the decoder refuses such a job).
+    pub fn totals(&self) -> Option<ChargeTotals> {
+        let mut lines = Vec::with_capacity(self.lines.len());
+        let (mut labour, mut parts) = (Decimal::ZERO, Decimal::ZERO);
+        for line in &self.lines {
+            let amount = match &line.amount {
+                LineAmount::Hours { hours, rate } => hours.checked_mul(*rate)?,
+                LineAmount::Quantity { quantity, price } => quantity.checked_mul(*price)?,
+                LineAmount::Fixed { amount } => *amount,
+            };
+            let amount = to_cents(amount);
+            match line.kind {
+                ChargeKind::Labour => labour = labour.checked_add(amount)?,
+                ChargeKind::Part => parts = parts.checked_add(amount)?,
+            }
+            lines.push(amount);
+        }
+        let subtotal = labour.checked_add(parts)?;
+        let tax = to_cents(
+            subtotal
+                .checked_mul(self.tax_rate_pct)?
+                .checked_div(Decimal::ONE_HUNDRED)?,
+        );
+        let total = subtotal.checked_add(tax)?;
+        Some(ChargeTotals {
+            lines,
+            labour,
+            parts,
+            subtotal,
+            tax,
+            total,
+        })
+    }
 }
 
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
@@ -64,10 +141,38 @@ pub enum LineAmount {
 /// The child nodes of `charges`.
 pub const CHARGE_NODES: &[&str] = &["labour", "part"];
 
-pub(crate) fn decode_charges(node: &KdlNode, r: &mut Reader) -> Charges {
-    r.check_entries(node, &["currency", "tax-rate"], 0);
-    let currency = Reader::prop(node, "currency").and_then(|e| currency(r, e));
-    let tax_rate_pct = Reader::prop(node, "tax-rate").and_then(|e| tax_rate(r, e));
+pub(crate) fn decode_charges(
+    node: &KdlNode,
+    terms: &ChargeTerms,
+    r: &mut Reader,
+) -> Option<Charges> {
+    r.check_entries(node, &["currency", "tax-rate", "tax-name"], 0);
+    let currency = match Reader::prop(node, "currency") {
+        Some(e) => currency(r, e).map(|c| c.value),
+        None => match &terms.currency {
+            Some(c) => Some(c.clone()),
+            None => {
+                r.push(
+                    DecodeError::error(
+                        "job::missing",
+                        Reader::name_span(node),
+                        "`charges` needs a currency",
+                        "currency missing",
+                    )
+                    .with_help("write charges currency=\"GBP\" { … }, or set the currency in the shop profile's `charges` node"),
+                );
+                None
+            }
+        },
+    };
+    let tax_rate_pct = match Reader::prop(node, "tax-rate") {
+        Some(e) => tax_rate(r, e).map(|t| t.value),
+        None => Some(terms.tax_rate_pct.unwrap_or(Decimal::ZERO)),
+    };
+    let tax_name = r
+        .opt_prop_string(node, "tax-name")
+        .or_else(|| terms.tax_name.clone())
+        .unwrap_or_else(|| "tax".to_string());
     let mut lines = Vec::new();
     for child in r.children(node.children(), CHARGE_NODES, "`charges`") {
         r.no_children(child);
@@ -97,12 +202,23 @@ pub(crate) fn decode_charges(node: &KdlNode, r: &mut Reader) -> Charges {
             });
         }
     }
-    Charges {
+    let charges = Charges {
         lines,
-        currency,
-        tax_rate_pct,
+        currency: currency?,
+        tax_rate_pct: tax_rate_pct?,
+        tax_name,
         span: node.span(),
+    };
+    if charges.totals().is_none() {
+        r.push(DecodeError::error(
+            "job::impossible-value",
+            Reader::name_span(node),
+            "the charges are too large to add up",
+            "these charges",
+        ));
+        return None;
     }
+    Some(charges)
 }
 
 fn line_amount(
@@ -337,6 +453,103 @@ fn parse_decimal(text: &str) -> Option<Decimal> {
 mod tests {
     use super::*;
     use std::str::FromStr;
+
+    fn line(kind: ChargeKind, amount: LineAmount) -> ChargeLine {
+        ChargeLine {
+            kind,
+            description: String::new(),
+            amount,
+        }
+    }
+
+    fn d(s: &str) -> Decimal {
+        Decimal::from_str(s).unwrap()
+    }
+
+    #[test]
+    fn charges_total_to_the_cent_as_worked_by_hand() {
+        let charges = Charges {
+            lines: vec![
+                line(
+                    ChargeKind::Labour,
+                    LineAmount::Hours {
+                        hours: d("1.5"),
+                        rate: d("48.00"),
+                    },
+                ),
+                line(
+                    ChargeKind::Labour,
+                    LineAmount::Hours {
+                        hours: d("0.75"),
+                        rate: d("52.50"),
+                    },
+                ),
+                line(ChargeKind::Labour, LineAmount::Fixed { amount: d("25") }),
+                line(
+                    ChargeKind::Part,
+                    LineAmount::Quantity {
+                        quantity: d("2"),
+                        price: d("6.40"),
+                    },
+                ),
+                line(
+                    ChargeKind::Part,
+                    LineAmount::Quantity {
+                        quantity: d("3"),
+                        price: d("0.1"),
+                    },
+                ),
+                line(
+                    ChargeKind::Part,
+                    LineAmount::Quantity {
+                        quantity: d("1"),
+                        price: d("18.955"),
+                    },
+                ),
+            ],
+            currency: "GBP".into(),
+            tax_rate_pct: d("20"),
+            tax_name: "VAT".into(),
+            span: SourceSpan::new(0.into(), 0),
+        };
+        // By hand, each line to the penny, halves rounded up:
+        //   1.5 h × 48.00 = 72.00
+        //   0.75 h × 52.50 = 39.375 → 39.38
+        //   fixed 25.00
+        //   labour: 72.00 + 39.38 + 25.00 = 136.38
+        //   2 × 6.40 = 12.80
+        //   3 × 0.10 = 0.30 (exactly: a binary float would make 0.30000000000000004)
+        //   1 × 18.955 → 18.96
+        //   parts: 12.80 + 0.30 + 18.96 = 32.06
+        //   subtotal 136.38 + 32.06 = 168.44
+        //   VAT 20 %: 168.44 × 0.20 = 33.688 → 33.69
+        //   total 168.44 + 33.69 = 202.13
+        let t = charges.totals().unwrap();
+        assert_eq!(
+            t.lines,
+            [
+                d("72.00"),
+                d("39.38"),
+                d("25"),
+                d("12.80"),
+                d("0.30"),
+                d("18.96")
+            ]
+        );
+        assert_eq!(t.labour, d("136.38"));
+        assert_eq!(t.parts, d("32.06"));
+        assert_eq!(t.subtotal, d("168.44"));
+        assert_eq!(t.tax, d("33.69"));
+        assert_eq!(t.total, d("202.13"));
+        assert_eq!(t.total.to_string(), "202.13");
+    }
+
+    #[test]
+    fn halves_round_away_from_zero() {
+        assert_eq!(to_cents(d("0.125")), d("0.13"));
+        assert_eq!(to_cents(d("0.135")), d("0.14"));
+        assert_eq!(to_cents(d("2.3349")), d("2.33"));
+    }
 
     #[test]
     fn plain_decimals_parse_exactly_and_nothing_else_does() {

@@ -223,7 +223,8 @@ pub(crate) fn decode_document(
         Some(n) => decode_settings(n, &defaults.settings, "the shop profile", r),
         None => (defaults.settings.clone(), Vec::new()),
     };
-    let charges = first("charges").map(|n| super::charges::decode_charges(n, r));
+    let charges =
+        first("charges").and_then(|n| super::charges::decode_charges(n, &defaults.charges, r));
 
     let job = Job {
         source_name: source_name.to_string(),

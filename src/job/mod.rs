@@ -10,7 +10,10 @@ pub(crate) mod reader;
 mod validate;
 mod valve_types;
 
-pub use charges::{CHARGE_NODES, ChargeKind, ChargeLine, Charges, LineAmount};
+pub use charges::{
+    CENT_PLACES, CHARGE_NODES, ChargeKind, ChargeLine, ChargeTerms, ChargeTotals, Charges,
+    LineAmount, to_cents,
+};
 pub use decode::{CIRCUIT_NODES, FORMAT_VERSION, MOD_FIGURES, SAFETY_TESTS, SETTINGS, TOP_LEVEL};
 pub use decode_error::{DecodeError, JobDiagnostics, did_you_mean, line_column, suggestion_help};
 pub use model::*;

@@ -589,6 +589,8 @@ pub struct JobDefaults {
     pub safety: SafetyDefaults,
     /// The technician when the job names none.
     pub technician: Option<String>,
+    /// Currency and tax for the job's charges.
+    pub charges: super::charges::ChargeTerms,
 }
 
 /// Default safety-test limits, so a job may write just the reading.

@@ -126,9 +126,9 @@ pub(crate) fn decode_document(
             settings,
             safety,
             technician,
+            charges,
         },
         settings_given,
-        charges,
         warranty,
         terms,
     })

@@ -1,8 +1,8 @@
 //! The typed shop profile: what a decoded `shop.kdl` holds.
 
-use rust_decimal::Decimal;
 use serde::Serialize;
 
+pub use crate::job::ChargeTerms;
 use crate::job::{JobDefaults, Spanned};
 
 /// One shop's profile: who the shop is, how its documents look, and the
@@ -26,8 +26,6 @@ pub struct ShopProfile {
     pub defaults: JobDefaults,
     /// The `settings` children the profile gives.
     pub settings_given: Vec<String>,
-    /// Currency and tax for a job's charges.
-    pub charges: ChargeTerms,
     pub warranty: Option<Warranty>,
     /// Terms shown on the document.
     pub terms: Option<String>,
@@ -70,16 +68,6 @@ impl Paper {
             Paper::A4
         }
     }
-}
-
-/// Currency and tax for charges; a job's `charges` block may override both.
-#[derive(Debug, Clone, Default, Serialize)]
-pub struct ChargeTerms {
-    pub currency: Option<String>,
-    /// Percent, 0–100.
-    pub tax_rate_pct: Option<Decimal>,
-    /// What the tax is called on the document ("VAT", "sales tax").
-    pub tax_name: Option<String>,
 }
 
 /// The shop's warranty on its work.

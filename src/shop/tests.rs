@@ -54,8 +54,8 @@ fn the_skeleton_decodes_with_every_default_spelled_out() {
         Some(500.0)
     );
     assert_eq!(p.defaults.safety.leakage_limit, None);
-    assert_eq!(p.charges.currency.as_deref(), Some("GBP"));
-    assert_eq!(p.charges.tax_rate_pct, Some(Decimal::from(20)));
+    assert_eq!(p.defaults.charges.currency.as_deref(), Some("GBP"));
+    assert_eq!(p.defaults.charges.tax_rate_pct, Some(Decimal::from(20)));
     assert_eq!(
         p.warranty
             .as_ref()
@@ -100,7 +100,7 @@ charges currency="USD" tax-rate=8.875 tax-name="sales tax"
     assert_eq!(p.settings_given, ["cathode-bias-caution"]);
     assert_eq!(p.defaults.safety.leakage_limit.map(|a| a.0), Some(0.25e-3));
     // A bare number is read from its text: exactly 8.875.
-    assert_eq!(p.charges.tax_rate_pct, Some(Decimal::new(8875, 3)));
+    assert_eq!(p.defaults.charges.tax_rate_pct, Some(Decimal::new(8875, 3)));
     assert_eq!(p.warranty.map(|w| w.text), None);
 }
 

@@ -17,6 +17,7 @@ use crate::calc::{
 use crate::job::{Job, ProtectionClass};
 use crate::shop::ShopProfile;
 
+use super::charges::{ChargesContext, charges_context};
 use super::shop_block::{AcceptanceBlock, ShopBlock, acceptance, paper};
 use crate::units::{QuantityKind as Q, format_engineering, format_fixed, format_sig};
 
@@ -53,6 +54,9 @@ pub struct HandoverContext {
     pub footer: Footer,
     /// Who hands the unit over, the warranty, the terms and the lines to sign.
     pub acceptance: AcceptanceBlock,
+    /// The job's charges, or none (no `charges` block, or `--no-charges`).
+    /// Only the hand-over's context carries them.
+    pub charges: Option<ChargesContext>,
 }
 
 #[derive(Debug, Clone, Serialize)]
@@ -427,6 +431,8 @@ pub struct ContextInputs<'a> {
     pub shop: ShopBlock,
     /// The shop profile in use, if any.
     pub profile: Option<&'a ShopProfile>,
+    /// Whether the job's charges are shown.
+    pub include_charges: bool,
     pub tool_version: &'a str,
     pub typst_version: &'a str,
     pub job_digest: &'a str,
@@ -709,6 +715,11 @@ pub fn build_context(
             .collect(),
         method: method(findings, job, inputs.profile),
         acceptance: acceptance(job, inputs.profile),
+        charges: job
+            .charges
+            .as_ref()
+            .filter(|_| inputs.include_charges)
+            .and_then(charges_context),
         footer: Footer {
             shop: (!inputs.shop.neutral)
                 .then(|| crate::report::plots::label_text(&inputs.shop.name, FOOTER_ID_CHARS)),

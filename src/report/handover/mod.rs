@@ -7,6 +7,7 @@
 //! template folder when one is given, so the same job, tool and typst give
 //! the same bytes.
 
+mod charges;
 mod context;
 mod shop_block;
 
@@ -16,6 +17,7 @@ use chrono::NaiveDate;
 use minijinja::Value;
 use sha2::{Digest, Sha256};
 
+pub use charges::{ChargeRow, ChargesContext, TaxRow, charges_context};
 pub use context::{
     CapacitorRow, ContextInputs, CustomerInfo, DISSIPATION_PLOT, DocumentInfo, Footer, Glance,
     GlanceRow, HandoverContext, HeaterRow, JobInfo, LineUpRow, MainsInfo, Method, ModFigureRow,
@@ -102,6 +104,8 @@ pub struct HandoverInput<'a> {
     pub shop: Option<&'a ShopProfile>,
     /// The profile's checked logo, if it has one.
     pub logo: Option<&'a Logo>,
+    /// Whether the job's charges are shown (`--no-charges` leaves them out).
+    pub include_charges: bool,
 }
 
 /// A ready-to-compile document.
@@ -172,6 +176,7 @@ pub fn build(
     let inputs = ContextInputs {
         shop,
         profile: input.shop,
+        include_charges: input.include_charges,
         tool_version: env!("CARGO_PKG_VERSION"),
         typst_version: &input.typst_version,
         job_digest: &digest,
@@ -314,6 +319,7 @@ mod tests {
             typst_version: "0.15.1".into(),
             shop: None,
             logo: None,
+            include_charges: true,
         };
         build(&input, &TemplateSource::embedded(EMBEDDED_TEMPLATES)).unwrap()
     }
@@ -407,6 +413,57 @@ mod tests {
     }
 
     #[test]
+    fn charges_reach_the_hand_over_only_when_asked_for() {
+        let (job, findings, text) = demo("combo-6v6-fixed.kdl");
+        let doc = document(&job, &findings, &text);
+        let c = doc
+            .context
+            .charges
+            .as_ref()
+            .expect("the demo job has charges");
+        // By hand: labour 1.5 h × 48.00 = 72.00, 0.75 h × 48.00 = 36.00,
+        // fixed 15.00 → 123.00; parts 7.85 + 1.20 + 2.35 = 11.40; subtotal
+        // 134.40. Decoded without the shop profile, so no tax: total 134.40.
+        assert_eq!(c.currency, "GBP");
+        assert_eq!(
+            c.labour
+                .iter()
+                .map(|l| l.amount.as_str())
+                .collect::<Vec<_>>(),
+            ["72.00", "36.00", "15.00"]
+        );
+        assert_eq!(c.labour[0].quantity.as_deref(), Some("1.5 h"));
+        assert_eq!(c.labour[0].rate.as_deref(), Some("48.00 per hour"));
+        assert_eq!(c.labour[2].quantity, None);
+        assert_eq!(
+            (c.labour_total.as_str(), c.parts_total.as_str()),
+            ("123.00", "11.40")
+        );
+        assert_eq!(
+            (c.subtotal.as_str(), c.total.as_str()),
+            ("134.40", "134.40")
+        );
+        assert!(c.tax.is_none());
+        let source = String::from_utf8(doc.sandbox.get(MAIN_SOURCE).unwrap().to_vec()).unwrap();
+        assert!(source.contains("134\\.40") && source.contains("= Charges"));
+
+        // --no-charges: nothing of them in the context or the source.
+        let input = HandoverInput {
+            job: &job,
+            findings: &findings,
+            job_text: &text,
+            typst_version: "0.15.1".into(),
+            shop: None,
+            logo: None,
+            include_charges: false,
+        };
+        let doc = build(&input, &TemplateSource::embedded(EMBEDDED_TEMPLATES)).unwrap();
+        assert!(doc.context.charges.is_none());
+        let source = String::from_utf8(doc.sandbox.get(MAIN_SOURCE).unwrap().to_vec()).unwrap();
+        assert!(!source.contains("134\\.40") && !source.contains("= Charges"));
+    }
+
+    #[test]
     fn user_text_reaches_the_source_only_escaped() {
         let (mut job, _, text) = demo("combo-6v6-fixed.kdl");
         job.complaint = Some("#read(\"/etc/passwd\") $x$ <l> @r // c".into());
@@ -455,6 +512,7 @@ mod tests {
             typst_version: "0.15.1".into(),
             shop: None,
             logo: None,
+            include_charges: true,
         };
         let source = TemplateSource::embedded(EMBEDDED_TEMPLATES).with_override_dir(dir.path());
         match build(&input, &source) {
