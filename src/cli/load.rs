@@ -110,7 +110,7 @@ pub fn shop_profile(args: &JobArgs) -> Result<Option<LoadedShop>, Exit> {
             Err(problem) => {
                 let diagnostics = job::JobDiagnostics {
                     source: decoded.diagnostics.source.clone(),
-                    problems: vec![problem],
+                    problems: vec![*problem],
                 };
                 eprintln!("{:?}", miette::Report::new(diagnostics));
                 return Err(Exit::InvalidInput);

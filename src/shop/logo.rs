@@ -41,11 +41,13 @@ impl Logo {
 
 /// Reads and checks the logo named in the profile at `profile`. Every
 /// refusal points at the `logo` line of the profile.
-pub fn read_logo(profile: &Path, logo: &Spanned<String>) -> Result<Logo, DecodeError> {
+pub fn read_logo(profile: &Path, logo: &Spanned<String>) -> Result<Logo, Box<DecodeError>> {
     let fail = |message: String, label: &str, help: &str| {
-        DecodeError::error("shop::logo", logo.span, message, label)
-            .with_help(help)
-            .in_file_kind("shop")
+        Box::new(
+            DecodeError::error("shop::logo", logo.span, message, label)
+                .with_help(help)
+                .in_file_kind("shop"),
+        )
     };
     let written = Path::new(logo.value.trim());
     if !written

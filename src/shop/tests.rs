@@ -19,7 +19,10 @@ fn place(text: &str, needle: &str, n: usize) -> (usize, usize) {
     (line, column)
 }
 
-fn problems(text: &str) -> Vec<(String, (usize, usize), String, Option<String>)> {
+/// A problem as (code, (line, column), message, help).
+type Problem = (String, (usize, usize), String, Option<String>);
+
+fn problems(text: &str) -> Vec<Problem> {
     let d = decode("shop.kdl", text).expect_err("the profile is refused");
     d.problems
         .iter()
