@@ -468,3 +468,84 @@ fn a_bad_charges_line_is_reported_at_its_place() {
         assert!(err.contains(words), "{words} missing from:\n{err}");
     }
 }
+
+// ----- hostile profiles ----------------------------------------------------------
+
+mod hostile {
+    use ampreport::job::{self, JobDiagnostics};
+    use ampreport::ratings::RatingsTable;
+    use ampreport::shop;
+    use proptest::prelude::*;
+
+    const PROFILES: [&str; 2] = [
+        include_str!("../jobs/shop.kdl"),
+        include_str!("../templates/shop-skeleton.kdl"),
+    ];
+    const JOB: &str = include_str!("../jobs/combo-6v6-fixed.kdl");
+
+    fn spans_inside(text: &str, d: &JobDiagnostics) -> Result<(), String> {
+        for p in &d.problems {
+            let (start, end) = (p.span.offset(), p.span.offset() + p.span.len());
+            if end > text.len() || !text.is_char_boundary(start) || !text.is_char_boundary(end) {
+                return Err(format!(
+                    "{} span {start}..{end} is off the text: {}",
+                    p.code, p.message
+                ));
+            }
+        }
+        Ok(())
+    }
+
+    /// Decodes a profile; when it decodes, a demo job decodes over its
+    /// defaults and derives. Nothing may panic; every span lies inside.
+    fn decode_everything(text: &str) -> Result<(), String> {
+        match shop::decode("shop.kdl", text) {
+            Ok(decoded) => {
+                spans_inside(text, &decoded.diagnostics)?;
+                static RATINGS: std::sync::OnceLock<RatingsTable> = std::sync::OnceLock::new();
+                let ratings = RATINGS.get_or_init(RatingsTable::builtin);
+                if let Ok(j) =
+                    job::decode_with_defaults("job.kdl", JOB, ratings, &decoded.profile.defaults)
+                {
+                    ampreport::calc::derive(&j.job, ratings);
+                }
+                Ok(())
+            }
+            Err(d) if !d.has_errors() => Err("a refused profile reports no error".into()),
+            Err(d) => spans_inside(text, &d),
+        }
+    }
+
+    proptest! {
+        // A quick run by default; `PROPTEST_CASES=20000 cargo test --release
+        // --test shop hostile` hunts longer.
+        #![proptest_config(ProptestConfig::with_cases(
+            std::env::var("PROPTEST_CASES").ok().and_then(|c| c.parse().ok()).unwrap_or(64)
+        ))]
+
+        #[test]
+        fn mutated_profiles_never_panic(
+            which in 0usize..2,
+            cut in any::<prop::sample::Index>(),
+            len in 0usize..12,
+            insert in "[\"{}=#\\-0-9a-zµ%. \n]{0,6}",
+        ) {
+            let base = PROFILES[which];
+            let mut at = cut.index(base.len() + 1);
+            while !base.is_char_boundary(at) {
+                at -= 1;
+            }
+            let mut end = (at + len).min(base.len());
+            while !base.is_char_boundary(end) {
+                end -= 1;
+            }
+            let text = format!("{}{}{}", &base[..at], insert, &base[end..]);
+            prop_assert_eq!(decode_everything(&text), Ok(()));
+        }
+
+        #[test]
+        fn arbitrary_text_never_panics(text in "\\PC{0,200}") {
+            prop_assert_eq!(decode_everything(&text), Ok(()));
+        }
+    }
+}
