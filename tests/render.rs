@@ -452,9 +452,11 @@ fn the_at_a_glance_panel_names_each_family_with_its_status() {
             .unwrap()
             .contains("within tolerance")
     );
+    // The text area is the page less 17 mm (48.19 pt) each side.
+    let right = page_size(&pdf).0 - 48.19 + 1.0;
     for (word, [x0, _, x1, _]) in word_boxes(&pdf, 1) {
         assert!(
-            x0 >= 47.0 && x1 <= 548.1,
+            x0 >= 47.0 && x1 <= right,
             "{word:?} at {x0}–{x1} leaves the page 1 text area"
         );
     }

@@ -326,7 +326,18 @@ fn the_demo_shop_heads_and_signs_the_document_on_the_mains_paper() {
         "{all}"
     );
     assert!(all.contains("Payment is due on collection."));
-    assert!(all.contains("Technician") && all.contains("Customer"));
+    // The signature block: the technician with the completion date, and
+    // the customer's line with the date left to fill in.
+    for words in [
+        "TECHNICIAN",
+        "Signature · Rowan Ilesby",
+        "Date 9 November 2026",
+        "CUSTOMER",
+        "Signature · Tamsin Okoro-Vale",
+        "Date ....",
+    ] {
+        assert!(all.contains(words), "{words} missing: {all}");
+    }
 
     // A 230 V job: A4, 210 × 297 mm = 595.28 × 841.89 pt.
     let a4 = dir.path().join("a4.pdf");
