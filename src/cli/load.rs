@@ -111,6 +111,7 @@ pub fn shop_profile(args: &JobArgs) -> Result<Option<LoadedShop>, Exit> {
                 let diagnostics = job::JobDiagnostics {
                     source: decoded.diagnostics.source.clone(),
                     problems: vec![*problem],
+                    not_shown: Default::default(),
                 };
                 eprintln!("{:?}", miette::Report::new(diagnostics));
                 return Err(Exit::InvalidInput);
@@ -126,22 +127,9 @@ pub fn shop_profile(args: &JobArgs) -> Result<Option<LoadedShop>, Exit> {
 }
 
 /// A file's text; `what` names it in the message ("job file").
-pub fn read_text(path: &Path, what: &str) -> Result<String, Exit> {
-    match std::fs::read(path) {
-        Ok(bytes) => match String::from_utf8(bytes) {
-            Ok(s) => Ok(s),
-            Err(e) => {
-                eprintln!(
-                    "error: {} is not UTF-8 text (first bad byte at offset {})",
-                    path.display(),
-                    e.utf8_error().valid_up_to()
-                );
-                Err(Exit::InvalidInput)
-            }
-        },
-        Err(e) => {
-            eprintln!("error: cannot read the {what} {}: {e}", path.display());
-            Err(Exit::InvalidInput)
-        }
-    }
+pub fn read_text(path: &Path, what: &'static str) -> Result<String, Exit> {
+    crate::input_file::read_text(path, what).map_err(|e| {
+        eprintln!("error: {e}");
+        Exit::InvalidInput
+    })
 }

@@ -37,7 +37,9 @@ pub struct DecodedShop {
 /// Never panics, whatever the text. The logo is only named here; it is
 /// read and checked by [`read_logo`].
 pub fn decode(name: &str, text: &str) -> Result<DecodedShop, JobDiagnostics> {
-    let source = NamedSource::new(name, Arc::new(text.to_string())).with_language("kdl");
+    let source = crate::problem_cap::ClippedSource(
+        NamedSource::new(name, Arc::new(text.to_string())).with_language("kdl"),
+    );
     let mut problems = Vec::new();
     let profile = match crate::kdl_fast::parse_document(text) {
         Ok(doc) => {
@@ -56,7 +58,11 @@ pub fn decode(name: &str, text: &str) -> Result<DecodedShop, JobDiagnostics> {
         .map(|p| p.in_file_kind("shop"))
         .collect();
     problems.sort_by_key(|p| p.span.offset());
-    let diagnostics = JobDiagnostics { source, problems };
+    let diagnostics = JobDiagnostics {
+        source,
+        problems,
+        not_shown: Default::default(),
+    };
     match profile {
         Some(profile) if !diagnostics.has_errors() => Ok(DecodedShop {
             profile,
