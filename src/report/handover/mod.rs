@@ -108,6 +108,26 @@ pub struct HandoverInput<'a> {
     pub include_charges: bool,
 }
 
+impl<'a> HandoverInput<'a> {
+    /// The input for a job without a shop profile, charges shown.
+    pub fn new(
+        job: &'a Job,
+        findings: &'a Findings,
+        job_text: &'a str,
+        typst_version: impl Into<String>,
+    ) -> Self {
+        HandoverInput {
+            job,
+            findings,
+            job_text,
+            typst_version: typst_version.into(),
+            shop: None,
+            logo: None,
+            include_charges: true,
+        }
+    }
+}
+
 /// A ready-to-compile document.
 #[derive(Debug, Clone)]
 pub struct Document {
