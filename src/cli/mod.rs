@@ -38,6 +38,9 @@ pub fn main() -> ExitCode {
         args::Command::Tubes(a) => tubes::run(a),
         args::Command::Init(a) => init::run(a),
     };
+    if let Exit::Interrupted(signal) = exit {
+        crate::typeset::interrupt::exit_as_signalled(signal);
+    }
     exit.into()
 }
 
