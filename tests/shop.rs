@@ -403,15 +403,15 @@ fn the_profile_sets_the_paper_and_its_logo_travels_as_a_plain_file() {
     assert!(meta.file_type().is_file(), "the logo is a regular file");
     assert_eq!(std::fs::read(&copied).unwrap(), logo);
 
-    // The output may not be the profile itself; the profile is untouched.
-    let before = std::fs::read(shop_dir.join("shop.kdl")).unwrap();
-    let o = run(
-        &shop_dir,
-        dir.path(),
-        &["render", "job.kdl", "-o", "shop.kdl"],
-    );
-    assert_eq!(status(&o), 1, "{}", stderr(&o));
-    assert_eq!(std::fs::read(shop_dir.join("shop.kdl")).unwrap(), before);
+    // The output may be neither the profile nor its logo (under any name);
+    // both are left untouched (exit status 2, as for any input).
+    for (output, file) in [("shop.kdl", "shop.kdl"), ("./mark.svg", "mark.svg")] {
+        let before = std::fs::read(shop_dir.join(file)).unwrap();
+        let o = run(&shop_dir, dir.path(), &["render", "job.kdl", "-o", output]);
+        assert_eq!(status(&o), 2, "{}", stderr(&o));
+        assert!(stderr(&o).contains("shop"), "{}", stderr(&o));
+        assert_eq!(std::fs::read(shop_dir.join(file)).unwrap(), before);
+    }
 }
 
 #[test]
