@@ -5,6 +5,7 @@
 use kdl::{KdlDocument, KdlNode};
 use miette::SourceSpan;
 
+use super::decode_bench::{BENCH_NODES, decode_bench_node};
 use super::decode_error::{DecodeError, suggestion_help};
 use super::model::*;
 use super::reader::Reader;
@@ -60,6 +61,22 @@ pub const SETTINGS: &[&str] = &[
     "node-tolerance",
     "silicon-drop",
     "voltage-over",
+    "output-power-caution",
+    "hum-noise-caution",
+    "cathode-bias-target",
+];
+
+/// The child nodes of a measurement set.
+pub const SET_NODES: &[&str] = &[
+    "node",
+    "valve",
+    "heater",
+    "circuit",
+    "output-power",
+    "hum-noise",
+    "response",
+    "gain",
+    "suggest-cathode-resistor",
 ];
 
 /// Decodes job text whose KDL syntax has already parsed.
@@ -303,13 +320,17 @@ fn decode_customer(node: &KdlNode, r: &mut Reader) -> Option<Customer> {
 }
 
 fn decode_unit(node: &KdlNode, r: &mut Reader) -> Option<Unit> {
-    r.check_entries(node, &["make", "model", "serial", "year"], 0);
+    r.check_entries(node, &["make", "model", "serial", "year", "rated-power"], 0);
     let make = r.req_prop_string(node, "make", "unit make=\"…\" model=\"…\"");
     let model = r.req_prop_string(node, "model", "unit make=\"…\" model=\"…\"");
     let serial = r.opt_prop_string(node, "serial");
     let year = Reader::prop(node, "year")
         .and_then(|e| r.integer(e, "`year`", 1900..=2100))
         .map(|y| y as i32);
+    let rated_power = r.opt_prop_quantity(node, "rated-power", Q::Power);
+    let rated_power = r
+        .positive(rated_power, "the rated output power", false)
+        .map(|p| Spanned::new(Watts(p.value), p.span));
     let mut description = None;
     let mut condition = None;
     for child in r.children(node.children(), &["description", "condition"], "`unit`") {
@@ -335,6 +356,7 @@ fn decode_unit(node: &KdlNode, r: &mut Reader) -> Option<Unit> {
         year,
         description,
         condition,
+        rated_power,
     })
 }
 
@@ -720,14 +742,25 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
     let mut valves: Vec<ValveReading> = Vec::new();
     let mut heaters = Vec::new();
     let mut circuit_changes = Circuit::default();
-    for child in r.children(
-        node.children(),
-        &["node", "valve", "heater", "circuit"],
-        "a measurement set",
-    ) {
-        if child.name().value() == "circuit" {
-            circuit_changes = decode_circuit(child, r);
-            continue;
+    let mut bench = BenchTests::default();
+    let mut suggest_cathode_resistor = false;
+    for child in r.children(node.children(), SET_NODES, "a measurement set") {
+        match child.name().value() {
+            "circuit" => {
+                circuit_changes = decode_circuit(child, r);
+                continue;
+            }
+            "suggest-cathode-resistor" => {
+                r.check_entries(child, &[], 0);
+                r.no_children(child);
+                suggest_cathode_resistor = true;
+                continue;
+            }
+            name if BENCH_NODES.contains(&name) => {
+                decode_bench_node(child, r, &mut bench);
+                continue;
+            }
+            _ => {}
         }
         r.no_children(child);
         match child.name().value() {
@@ -906,6 +939,8 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
         valves,
         heaters,
         circuit_changes,
+        bench,
+        suggest_cathode_resistor,
         span: node.span(),
     })
 }
@@ -1230,6 +1265,13 @@ pub(crate) fn decode_settings(
             ));
             continue;
         };
+        if name == "hum-noise-caution" {
+            if let Some(db) = decibels(r, entry, name) {
+                s.hum_noise_caution_db = db;
+                given.push(name.to_string());
+            }
+            continue;
+        }
         if name == "silicon-drop" {
             if let Some(v) = r.quantity(entry, Q::Voltage, "`silicon-drop`") {
                 s.silicon_drop = Volts(v.value);
@@ -1259,6 +1301,8 @@ pub(crate) fn decode_settings(
             "heater-tolerance" => s.heater_tolerance = f,
             "node-tolerance" => s.node_tolerance = f,
             "voltage-over" => s.voltage_over = f,
+            "output-power-caution" => s.output_power_caution = f,
+            "cathode-bias-target" => s.cathode_bias_target = f,
             _ => continue,
         }
         given.push(name.to_string());
@@ -1281,6 +1325,48 @@ pub(crate) fn decode_settings(
 }
 
 // ----- small shared readers ---------------------------------------------------
+
+/// A level in decibels: a plain number or text ending in `dB`, from 0 to
+/// 150 dB.
+fn decibels(r: &mut Reader, entry: &kdl::KdlEntry, name: &str) -> Option<f64> {
+    let span = r.value_span(entry);
+    let value = match entry.value() {
+        kdl::KdlValue::Integer(i) => Some(*i as f64),
+        kdl::KdlValue::Float(f) => Some(*f),
+        kdl::KdlValue::String(s) => s
+            .trim()
+            .strip_suffix("dB")
+            .unwrap_or(s.trim())
+            .trim()
+            .parse::<f64>()
+            .ok(),
+        _ => None,
+    };
+    match value {
+        Some(v) if v.is_finite() && (0.0..=150.0).contains(&v) => Some(v),
+        Some(_) => {
+            r.push(DecodeError::error(
+                "job::impossible-value",
+                span,
+                format!("`{name}` must be between 0 dB and 150 dB"),
+                "out of range",
+            ));
+            None
+        }
+        None => {
+            r.push(
+                DecodeError::error(
+                    "job::bad-value",
+                    span,
+                    format!("`{name}` must be a level in decibels"),
+                    "expected decibels",
+                )
+                .with_help("write it as \"60dB\" or 60"),
+            );
+            None
+        }
+    }
+}
 
 /// Mains voltages, nominal or read: 1 V to 1,000 V. A variable
 /// autotransformer brought up slowly gives readings of a few volts;

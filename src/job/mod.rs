@@ -4,6 +4,7 @@
 mod bare_value;
 pub(crate) mod charges;
 pub(crate) mod decode;
+mod decode_bench;
 mod decode_error;
 mod model;
 pub(crate) mod reader;
@@ -14,7 +15,10 @@ pub use charges::{
     CENT_PLACES, CHARGE_NODES, ChargeKind, ChargeLine, ChargeTerms, ChargeTotals, Charges,
     LineAmount, to_cents,
 };
-pub use decode::{CIRCUIT_NODES, FORMAT_VERSION, MOD_FIGURES, SAFETY_TESTS, SETTINGS, TOP_LEVEL};
+pub use decode::{
+    CIRCUIT_NODES, FORMAT_VERSION, MOD_FIGURES, SAFETY_TESTS, SET_NODES, SETTINGS, TOP_LEVEL,
+};
+pub use decode_bench::{BENCH_NODES, DEFAULT_FREQUENCY};
 pub use decode_error::{DecodeError, JobDiagnostics, did_you_mean, line_column, suggestion_help};
 pub use model::*;
 

@@ -4,6 +4,7 @@
 pub mod handover;
 pub mod json;
 pub mod plots;
+pub mod response_chart;
 mod table;
 pub mod terminal;
 
