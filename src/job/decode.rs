@@ -4,6 +4,7 @@
 
 use kdl::{KdlDocument, KdlNode};
 use miette::SourceSpan;
+use std::collections::HashSet;
 
 use super::decode_bench::{BENCH_NODES, decode_bench_node};
 use super::decode_error::{DecodeError, suggestion_help};
@@ -418,6 +419,7 @@ fn decode_mains(node: &KdlNode, r: &mut Reader) -> Option<Mains> {
 fn decode_valves(node: &KdlNode, r: &mut Reader) -> Vec<ValvePosition> {
     r.check_entries(node, &[], 0);
     let mut out: Vec<ValvePosition> = Vec::new();
+    let mut listed: HashSet<String> = HashSet::new();
     for child in r.children(node.children(), &["valve"], "`valves`") {
         r.check_entries(child, &["type", "role"], 1);
         r.no_children(child);
@@ -456,7 +458,7 @@ fn decode_valves(node: &KdlNode, r: &mut Reader) -> Vec<ValvePosition> {
             }
         };
         if let Some(p) = &position
-            && out.iter().any(|v| v.position.value == p.value)
+            && !listed.insert(p.value.clone())
         {
             r.push(DecodeError::error(
                 "job::repeated-position",
@@ -484,6 +486,7 @@ fn decode_valves(node: &KdlNode, r: &mut Reader) -> Vec<ValvePosition> {
 fn decode_circuit(node: &KdlNode, r: &mut Reader) -> Circuit {
     r.check_entries(node, &[], 0);
     let mut c = Circuit::default();
+    let mut declared: HashSet<String> = HashSet::new();
     for child in r.children(node.children(), CIRCUIT_NODES, "`circuit`") {
         r.no_children(child);
         match child.name().value() {
@@ -613,7 +616,7 @@ fn decode_circuit(node: &KdlNode, r: &mut Reader) -> Circuit {
                 let tolerance = percent(r, child, "tolerance");
                 let label = r.opt_prop_string(child, "label");
                 if let Some(name) = name {
-                    if c.nodes.iter().any(|n| n.name.value == name.value) {
+                    if !declared.insert(name.value.clone()) {
                         r.push(DecodeError::error(
                             "job::repeated-node",
                             name.span,
@@ -740,6 +743,8 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
     let date = r.opt_prop_date(node, "date");
     let mut nodes: Vec<NodeReading> = Vec::new();
     let mut valves: Vec<ValveReading> = Vec::new();
+    // Names read so far in this set, for the repeated-reading check.
+    let (mut nodes_read, mut valves_read) = (HashSet::new(), HashSet::new());
     let mut heaters = Vec::new();
     let mut circuit_changes = Circuit::default();
     let mut bench = BenchTests::default();
@@ -786,7 +791,7 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
                 let chart = volts_pos(r, child, "chart", "the chart voltage");
                 let tolerance = percent(r, child, "tolerance");
                 if let (Some(name), Some(volts)) = (name, volts) {
-                    if nodes.iter().any(|n| n.name.value == name.value) {
+                    if !nodes_read.insert(name.value.clone()) {
                         r.push(DecodeError::error(
                             "job::repeated-reading",
                             name.span,
@@ -876,7 +881,7 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
                     }
                 }
                 if let Some(p) = &position {
-                    if valves.iter().any(|v| v.position.value == p.value) {
+                    if !valves_read.insert(p.value.clone()) {
                         r.push(DecodeError::error(
                             "job::repeated-reading",
                             p.span,
