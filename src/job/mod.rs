@@ -3,6 +3,7 @@
 
 mod bare_value;
 pub(crate) mod charges;
+mod completeness;
 pub(crate) mod decode;
 mod decode_bench;
 mod decode_error;
@@ -15,8 +16,10 @@ pub use charges::{
     CENT_PLACES, CHARGE_NODES, ChargeKind, ChargeLine, ChargeTerms, ChargeTotals, Charges,
     LineAmount, to_cents,
 };
+pub use completeness::{NotMeasuredInFinal, not_measured_in_final};
 pub use decode::{
     CIRCUIT_NODES, FORMAT_VERSION, MOD_FIGURES, SAFETY_TESTS, SET_NODES, SETTINGS, TOP_LEVEL,
+    VALVE_CHECKS,
 };
 pub use decode_bench::{BENCH_NODES, DEFAULT_FREQUENCY};
 pub use decode_error::{DecodeError, JobDiagnostics, did_you_mean, line_column, suggestion_help};
@@ -78,6 +81,7 @@ fn decode_inner(
             problems.append(&mut reader.problems);
             if let Some(job) = &job {
                 problems.extend(validate::cross_references(job));
+                problems.extend(completeness::warnings(job));
                 if let Some(ratings) = ratings {
                     problems.extend(valve_types::check(job, ratings));
                 }
