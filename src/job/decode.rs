@@ -1424,7 +1424,6 @@ fn decode_safety(node: &KdlNode, defaults: &SafetyDefaults, r: &mut Reader) -> O
     Some(Safety { class, tests })
 }
 
-
 /// A safety-test limit: the job's own, else the shop profile's default,
 /// else an error saying where it may be given. More than zero.
 fn limit_or_default(
