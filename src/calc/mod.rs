@@ -4,6 +4,7 @@
 mod circuit;
 mod findings;
 mod mains;
+pub mod network;
 mod safety;
 mod status;
 mod supply;
@@ -547,8 +548,21 @@ fn mod_findings(
             }
         }
     }
+    let network = m.network.as_ref().map(|n| {
+        let found = network::derive(n, job, ratings);
+        if let Some(problem) = &found.problem {
+            warnings.push(Warning {
+                set: None,
+                subject: "network".into(),
+                status: Status::Caution,
+                message: format!("The network of the mod “{}” could not be worked out: {problem}.", m.what),
+            });
+        }
+        found
+    });
     ModFindings {
         what: m.what.clone(),
         figures,
+        network,
     }
 }

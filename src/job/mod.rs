@@ -5,6 +5,7 @@ mod bare_value;
 mod decode;
 mod decode_error;
 mod model;
+pub mod network;
 mod reader;
 mod validate;
 mod valve_types;
@@ -54,6 +55,7 @@ fn decode_inner(
             problems.append(&mut reader.problems);
             if let Some(job) = &job {
                 problems.extend(validate::cross_references(job));
+                problems.extend(network::check::check(job, ratings));
                 if let Some(ratings) = ratings {
                     problems.extend(valve_types::check(job, ratings));
                 }

@@ -13,6 +13,7 @@ pub enum QuantityKind {
     Resistance,
     Power,
     Capacitance,
+    Inductance,
     Frequency,
     /// A plain ratio written in percent (`"5%"` or `5`).
     Percent,
@@ -27,6 +28,7 @@ impl QuantityKind {
             QuantityKind::Resistance => "Ω",
             QuantityKind::Power => "W",
             QuantityKind::Capacitance => "F",
+            QuantityKind::Inductance => "H",
             QuantityKind::Frequency => "Hz",
             QuantityKind::Percent => "%",
         }
@@ -40,6 +42,7 @@ impl QuantityKind {
             QuantityKind::Resistance => "a resistance",
             QuantityKind::Power => "a power",
             QuantityKind::Capacitance => "a capacitance",
+            QuantityKind::Inductance => "an inductance",
             QuantityKind::Frequency => "a frequency",
             QuantityKind::Percent => "a percentage",
         }
@@ -53,6 +56,7 @@ impl QuantityKind {
             QuantityKind::Resistance => "\"470k\", \"4k7\", \"1R\" or 470000",
             QuantityKind::Power => "\"5W\", \"0.5W\" or 5",
             QuantityKind::Capacitance => "\"22µF\", \"0.022u\", \"4n7\" or 22e-6",
+            QuantityKind::Inductance => "\"500mH\", \"1.5H\" or 0.5",
             QuantityKind::Frequency => "\"60Hz\" or 50",
             QuantityKind::Percent => "\"10%\" or 10",
         }
@@ -66,18 +70,20 @@ impl QuantityKind {
             QuantityKind::Resistance => &["\u{3a9}", "\u{2126}", "ohm", "ohms", "Ohm", "Ohms", "R"],
             QuantityKind::Power => &["W"],
             QuantityKind::Capacitance => &["F"],
+            QuantityKind::Inductance => &["H"],
             QuantityKind::Frequency => &["Hz"],
             QuantityKind::Percent => &["%"],
         }
     }
 
     /// All kinds, for recognising a symbol that belongs elsewhere.
-    pub const ALL: [QuantityKind; 7] = [
+    pub const ALL: [QuantityKind; 8] = [
         QuantityKind::Voltage,
         QuantityKind::Current,
         QuantityKind::Resistance,
         QuantityKind::Power,
         QuantityKind::Capacitance,
+        QuantityKind::Inductance,
         QuantityKind::Frequency,
         QuantityKind::Percent,
     ];
