@@ -3,6 +3,7 @@
 
 pub mod handover;
 pub mod json;
+pub mod netlist;
 pub mod plots;
 mod table;
 pub mod terminal;
