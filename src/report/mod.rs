@@ -4,6 +4,7 @@
 pub mod handover;
 pub mod json;
 pub mod netlist;
+pub mod network_chart;
 pub mod plots;
 mod table;
 pub mod terminal;

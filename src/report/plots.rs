@@ -19,12 +19,12 @@ use crate::calc::Findings;
 const FONT: &str = "Noto Sans";
 
 /// Greys used by both charts (greyscale by design).
-const INK: RGBColor = RGBColor(20, 20, 20);
-const DARK: RGBColor = RGBColor(90, 90, 90);
-const MID: RGBColor = RGBColor(160, 160, 160);
-const LIGHT: RGBColor = RGBColor(222, 222, 222);
-const GRID: RGBColor = RGBColor(232, 232, 232);
-const PAPER: RGBColor = RGBColor(255, 255, 255);
+pub(crate) const INK: RGBColor = RGBColor(20, 20, 20);
+pub(crate) const DARK: RGBColor = RGBColor(90, 90, 90);
+pub(crate) const MID: RGBColor = RGBColor(160, 160, 160);
+pub(crate) const LIGHT: RGBColor = RGBColor(222, 222, 222);
+pub(crate) const GRID: RGBColor = RGBColor(232, 232, 232);
+pub(crate) const PAPER: RGBColor = RGBColor(255, 255, 255);
 
 /// Width and height of both SVGs in pixels (CSS px; typst scales them).
 pub const SIZE: (u32, u32) = (760, 330);
@@ -439,15 +439,15 @@ fn draw_label(
 /// pixels.
 const LABEL_HEIGHT: f64 = 12.0;
 
-fn err(chart: &'static str) -> impl Fn(String) -> PlotError {
+pub(crate) fn err(chart: &'static str) -> impl Fn(String) -> PlotError {
     move |message| PlotError { chart, message }
 }
 
-fn font(size: u32) -> TextStyle<'static> {
+pub(crate) fn font(size: u32) -> TextStyle<'static> {
     (FONT, size).into_font().color(&INK)
 }
 
-fn anchored(size: u32, h: HPos, v: VPos) -> TextStyle<'static> {
+pub(crate) fn anchored(size: u32, h: HPos, v: VPos) -> TextStyle<'static> {
     font(size).pos(Pos::new(h, v))
 }
 
@@ -738,14 +738,14 @@ fn draw_dissipation(chart: &DissipationChart, svg: &mut String) -> Result<(), St
 
 /// How set `k` is marked in the supply chart.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
-enum Marker {
+pub(crate) enum Marker {
     HollowCircle,
     FilledTriangle,
     HollowSquare,
     FilledDiamond,
 }
 
-fn marker(k: usize) -> Marker {
+pub(crate) fn marker(k: usize) -> Marker {
     match k % 4 {
         0 => Marker::HollowCircle,
         1 => Marker::FilledTriangle,
@@ -754,7 +754,7 @@ fn marker(k: usize) -> Marker {
     }
 }
 
-fn draw_marker(
+pub(crate) fn draw_marker(
     area: &DrawingArea<SVGBackend<'_>, Shift>,
     (x, y): (i32, i32),
     m: Marker,

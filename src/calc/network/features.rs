@@ -13,7 +13,7 @@ pub const HALF_POWER_DB: f64 = 3.010_299_956_639_812;
 
 /// A scoop counts when it dips at least this far below the lower of the
 /// highest points on its two sides.
-pub const SCOOP_MIN_DB: f64 = 3.0;
+pub const SCOOP_MIN_DB: f64 = 2.0;
 
 /// Which way the response crosses its −3 dB line at a corner.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, serde::Serialize)]

@@ -88,7 +88,7 @@ pub struct CurveFindings {
     pub max_hz: f64,
     /// Where the curve crosses 3.01 dB below its highest point.
     pub corners: Vec<CornerFindings>,
-    /// The deepest dip of at least 3 dB below both shoulders.
+    /// The deepest dip of at least 2 dB below both shoulders.
     pub scoop: Option<ScoopFindings>,
 }
 

@@ -15,6 +15,11 @@ use crate::calc::{
     resistor_power_words,
 };
 use crate::job::{Job, ProtectionClass};
+
+mod network_view;
+pub use network_view::{
+    NetworkRow, NetworkView, OscillatorRow, OscillatorView, network_plot_path, network_view,
+};
 use crate::units::{QuantityKind as Q, format_engineering, format_fixed, format_sig};
 
 /// The footer shows at most this much of the job id (the header has it all).
@@ -159,6 +164,8 @@ pub struct ModRow {
     pub original_kept: Option<String>,
     /// Textbook circuit figures worked out for the modification.
     pub figures: Vec<ModFigureRow>,
+    /// The network the mod changes: its response before and after.
+    pub network: Option<NetworkView>,
 }
 
 /// One worked-out figure of a modification.
@@ -678,6 +685,12 @@ pub fn build_context(
                     .filter(|f| f.what == m.what)
                     .map(mod_figures)
                     .unwrap_or_default(),
+                network: findings
+                    .mods
+                    .get(i)
+                    .filter(|f| f.what == m.what)
+                    .and_then(|f| f.network.as_ref())
+                    .map(|n| network_view(i, n)),
             })
             .collect(),
         notes: job.notes.iter().map(|n| reflow(n)).collect(),
