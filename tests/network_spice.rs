@@ -217,3 +217,64 @@ fn the_kept_results_are_the_simulators_and_name_their_case() {
         );
     }
 }
+
+// ----- the netlist command and network errors, through the binary ---------
+
+fn ampreport(dir: &Path, args: &[&str]) -> std::process::Output {
+    Command::new(env!("CARGO_BIN_EXE_ampreport"))
+        .current_dir(dir)
+        .env("NO_COLOR", "1")
+        .args(args)
+        .output()
+        .unwrap()
+}
+
+#[test]
+fn the_netlist_command_names_what_it_cannot_write() {
+    let r = root();
+    let out = ampreport(&r, &["netlist", JOB, "--mod", "9"]);
+    assert_eq!(out.status.code(), Some(2));
+    let err = String::from_utf8_lossy(&out.stderr);
+    assert!(err.contains("there is no mod 9") && err.contains("mods with a network: 1, 2, 3, 4, 5"), "{err}");
+    let out = ampreport(&r, &["netlist", JOB, "--mod", "4", "--after"]);
+    assert_eq!(out.status.code(), Some(2));
+    assert!(String::from_utf8_lossy(&out.stderr).contains("no `after` edits"));
+    let out = ampreport(&r, &["netlist", JOB, "--mod", "2", "--setting", "4"]);
+    assert_eq!(out.status.code(), Some(2));
+    assert!(String::from_utf8_lossy(&out.stderr).contains("has 3 settings; --setting takes 1 to 3"));
+    let out = ampreport(&r, &["netlist", "jobs/combo-el84-cathode.kdl", "--mod", "1"]);
+    assert_eq!(out.status.code(), Some(2));
+    assert!(String::from_utf8_lossy(&out.stderr).contains("no mod of this job has a network"));
+    // A good one goes to standard output, with the analysis and the end.
+    let out = ampreport(&r, &["netlist", JOB, "--mod", "2", "--after", "--setting", "3"]);
+    assert!(out.status.success());
+    let text = String::from_utf8_lossy(&out.stdout);
+    assert!(text.contains("\n.ac dec 40 2e1 2e4\n") && text.ends_with(".end\n"), "{text}");
+    assert!(text.contains("setting 3") && text.contains("after the mod"));
+    // The after network has R1 56k and C1 470p (the mod's edits).
+    assert!(text.contains("\nR1 in a 5.6e4\n") && text.contains("\nC1 in t 4.7e-10\n"), "{text}");
+}
+
+#[test]
+fn a_singular_network_is_refused_at_its_line_and_column() {
+    let dir = tempfile::tempdir().unwrap();
+    let text = std::fs::read_to_string(root().join(JOB))
+        .unwrap()
+        .replace(
+            "            resistor R2 value=\"4k7\" from=a to=ground\n",
+            "            resistor R2 value=\"4k7\" from=a to=ground\n            capacitor C9 value=\"1n\" from=p to=q\n",
+        );
+    std::fs::write(dir.path().join("bad.kdl"), &text).unwrap();
+    let line = text.lines().position(|l| l.contains("C9")).unwrap() + 1;
+    let column = text.lines().nth(line - 1).unwrap().find("capacitor").unwrap() + 1;
+    let out = ampreport(dir.path(), &["check", "bad.kdl"]);
+    assert_eq!(out.status.code(), Some(1));
+    let err = String::from_utf8_lossy(&out.stderr);
+    assert!(err.contains(&format!("bad.kdl:{line}:{column}")), "{err}");
+    assert!(err.contains("nodes `p` and `q` connect to nothing that reaches ground"), "{err}");
+    // A failed netlist run writes no file.
+    let target = dir.path().join("x.cir");
+    let out = ampreport(dir.path(), &["netlist", "bad.kdl", "--mod", "1", "-o", "x.cir"]);
+    assert_eq!(out.status.code(), Some(1));
+    assert!(!target.exists());
+}
