@@ -7,8 +7,10 @@
 
 pub mod calc;
 pub mod cli;
+pub mod input_file;
 pub mod job;
 pub mod kdl_fast;
+pub mod problem_cap;
 pub mod ratings;
 pub mod report;
 pub mod typeset;

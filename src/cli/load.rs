@@ -52,21 +52,8 @@ pub fn job(args: &JobArgs) -> Result<Loaded, Exit> {
 }
 
 pub fn read_text(path: &Path) -> Result<String, Exit> {
-    match std::fs::read(path) {
-        Ok(bytes) => match String::from_utf8(bytes) {
-            Ok(s) => Ok(s),
-            Err(e) => {
-                eprintln!(
-                    "error: {} is not UTF-8 text (first bad byte at offset {})",
-                    path.display(),
-                    e.utf8_error().valid_up_to()
-                );
-                Err(Exit::InvalidInput)
-            }
-        },
-        Err(e) => {
-            eprintln!("error: cannot read the job file {}: {e}", path.display());
-            Err(Exit::InvalidInput)
-        }
-    }
+    crate::input_file::read_text(path, "job file").map_err(|e| {
+        eprintln!("error: {e}");
+        Exit::InvalidInput
+    })
 }

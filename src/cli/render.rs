@@ -26,6 +26,9 @@ pub fn run(args: &RenderArgs) -> Exit {
     };
     let job = &loaded.decoded.job;
     let findings = calc::derive(job, &loaded.ratings);
+    for warning in undrawable_text(&args.job.job.display().to_string(), &loaded.text) {
+        eprintln!("{warning}");
+    }
 
     let templates = match template_source(args.templates.as_deref()) {
         Ok(t) => t,
@@ -110,6 +113,49 @@ pub fn run(args: &RenderArgs) -> Exit {
     }
 }
 
+/// A warning for each text value of the job holding characters the
+/// bundled fonts cannot draw, naming the field and where it is; the
+/// document prints those characters as the placeholder.
+fn undrawable_text(file: &str, text: &str) -> Vec<String> {
+    fn walk(doc: &kdl::KdlDocument, file: &str, text: &str, out: &mut Vec<String>) {
+        for node in doc.nodes() {
+            for entry in node.entries() {
+                let kdl::KdlValue::String(value) = entry.value() else {
+                    continue;
+                };
+                let lacking = typeset::undrawable(value);
+                if lacking.is_empty() {
+                    continue;
+                }
+                let field = match entry.name() {
+                    Some(key) => format!("`{}` of `{}`", key.value(), node.name().value()),
+                    None => format!("`{}`", node.name().value()),
+                };
+                let (line, column) = crate::job::line_column(text, entry.span().offset());
+                let chars: Vec<String> = lacking
+                    .iter()
+                    .take(5)
+                    .map(|c| format!("U+{:04X}", u32::from(*c)))
+                    .collect();
+                out.push(format!(
+                    "warning: {file}:{line}:{column}: the text of {field} holds characters the document's fonts cannot draw ({}{}); they print as {}",
+                    chars.join(", "),
+                    if lacking.len() > 5 { ", …" } else { "" },
+                    typeset::placeholder()
+                ));
+            }
+            if let Some(children) = node.children() {
+                walk(children, file, text, out);
+            }
+        }
+    }
+    let mut out = Vec::new();
+    if let Ok(doc) = crate::kdl_fast::parse_document(text) {
+        walk(&doc, file, text, &mut out);
+    }
+    out
+}
+
 /// Beside the job file, same name, `.pdf`.
 fn default_output(job: &Path) -> PathBuf {
     job.with_extension("pdf")
@@ -156,6 +202,16 @@ fn report_build_error(e: HandoverError) -> Exit {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn text_the_fonts_cannot_draw_is_named_with_its_place() {
+        let text = "job id=\"J1\"\nparts {\n    part R1 reason=\"hot 🔥\"\n}\nnotes {\n    note \"ก\"\n}\n";
+        let warnings = undrawable_text("j.kdl", text);
+        assert_eq!(warnings.len(), 2, "{warnings:?}");
+        assert!(warnings[0].starts_with("warning: j.kdl:3:13: the text of `reason` of `part`"));
+        assert!(warnings[0].contains("U+1F525"));
+        assert!(warnings[1].contains("j.kdl:6:10: the text of `note`"));
+    }
 
     #[test]
     fn output_sits_beside_the_job() {

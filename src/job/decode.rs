@@ -67,9 +67,10 @@ pub(crate) fn decode_document(doc: &KdlDocument, source_name: &str, r: &mut Read
     let nodes = r.children(Some(doc), TOP_LEVEL, "the job file");
 
     // Repeated singletons.
-    for (i, node) in nodes.iter().enumerate() {
+    let mut seen = std::collections::HashSet::new();
+    for node in &nodes {
         let name = node.name().value();
-        if name != REPEATABLE && nodes[..i].iter().any(|n| n.name().value() == name) {
+        if name != REPEATABLE && !seen.insert(name) {
             r.push(
                 DecodeError::error(
                     "job::repeated-node",
@@ -327,10 +328,12 @@ fn decode_mains(node: &KdlNode, r: &mut Reader) -> Option<Mains> {
     r.no_children(node);
     let nominal = r.req_prop_quantity(node, "nominal", Q::Voltage, "mains nominal=\"120V\"");
     let nominal = r.positive(nominal, "the nominal mains voltage", false);
+    let nominal = mains_range(r, nominal, "the nominal mains voltage");
     let frequency = r.opt_prop_quantity(node, "frequency", Q::Frequency);
     let frequency = r.positive(frequency, "the mains frequency", false);
     let design = r.opt_prop_quantity(node, "design", Q::Voltage);
     let design = r.positive(design, "the design mains voltage", false);
+    let design = mains_range(r, design, "the design mains voltage");
     let tolerance = match Reader::prop(node, "tolerance") {
         Some(e) => {
             let t = r.quantity(e, Q::Percent, "`tolerance`");
@@ -696,6 +699,7 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
     let label = r.req_arg_string(node, "a label such as \"as found\"", example);
     let mains = r.req_prop_quantity(node, "mains", Q::Voltage, example);
     let mains = r.positive(mains, "the mains voltage", false);
+    let mains = mains_range(r, mains, "the mains voltage");
     let date = r.opt_prop_date(node, "date");
     let mut nodes: Vec<NodeReading> = Vec::new();
     let mut valves: Vec<ValveReading> = Vec::new();
@@ -1212,6 +1216,19 @@ fn decode_settings(node: &KdlNode, r: &mut Reader) -> Settings {
 }
 
 // ----- small shared readers ---------------------------------------------------
+
+/// Mains voltages, nominal or read: 1 V to 1,000 V. A variable
+/// autotransformer brought up slowly gives readings of a few volts;
+/// 1,000 V AC is the top of low-voltage supply (IEC 60038, from memory).
+fn mains_range(r: &mut Reader, v: Option<Spanned<f64>>, what: &str) -> Option<Spanned<f64>> {
+    r.within(
+        v,
+        what,
+        (1.0, 1000.0),
+        "1 V to 1000 V",
+        "mains voltages run from a few volts on a variable autotransformer to the 1000 V top of low-voltage supply (IEC 60038)",
+    )
+}
 
 fn ohms(r: &mut Reader, node: &KdlNode, key: &str, example: &str) -> Option<Spanned<Ohms>> {
     let q = r.req_prop_quantity(node, key, Q::Resistance, example);

@@ -2,9 +2,8 @@
 //! caused it, what was expected and a hint. They are collected, not thrown,
 //! so one run reports every problem in a file.
 
-use miette::{Diagnostic, LabeledSpan, NamedSource, Severity, SourceSpan};
+use miette::{Diagnostic, LabeledSpan, Severity, SourceSpan};
 use std::fmt;
-use std::sync::Arc;
 
 /// One problem in a job file.
 #[derive(Debug, Clone)]
@@ -90,8 +89,10 @@ impl Diagnostic for DecodeError {
 /// related diagnostics are the individual problems.
 #[derive(Debug, Clone)]
 pub struct JobDiagnostics {
-    pub source: NamedSource<Arc<String>>,
+    pub source: crate::problem_cap::ClippedSource,
     pub problems: Vec<DecodeError>,
+    /// The line counting problems past the first few, made when drawn.
+    pub not_shown: std::sync::OnceLock<crate::problem_cap::NotShown>,
 }
 
 impl JobDiagnostics {
@@ -168,7 +169,7 @@ impl Diagnostic for JobDiagnostics {
         })
     }
     fn related<'a>(&'a self) -> Option<Box<dyn Iterator<Item = &'a dyn Diagnostic> + 'a>> {
-        Some(Box::new(self.problems.iter().map(|p| p as &dyn Diagnostic)))
+        Some(crate::problem_cap::shown(&self.problems, &self.not_shown))
     }
 }
 

@@ -46,7 +46,9 @@ fn decode_inner(
     text: &str,
     ratings: Option<&crate::ratings::RatingsTable>,
 ) -> Result<Decoded, JobDiagnostics> {
-    let source = NamedSource::new(name, Arc::new(text.to_string())).with_language("kdl");
+    let source = crate::problem_cap::ClippedSource(
+        NamedSource::new(name, Arc::new(text.to_string())).with_language("kdl"),
+    );
     let mut problems = Vec::new();
     let job = match crate::kdl_fast::parse_document(text) {
         Ok(doc) => {
@@ -68,7 +70,11 @@ fn decode_inner(
         }
     };
     problems.sort_by_key(|p| p.span.offset());
-    let diagnostics = JobDiagnostics { source, problems };
+    let diagnostics = JobDiagnostics {
+        source,
+        problems,
+        not_shown: Default::default(),
+    };
     match job {
         Some(job) if !diagnostics.has_errors() => Ok(Decoded { job, diagnostics }),
         _ => {
@@ -114,7 +120,7 @@ fn syntax_problems(text: &str, e: &kdl::KdlError) -> Vec<DecodeError> {
         let message = d.message.clone().unwrap_or_else(|| "the KDL syntax is broken here".to_string());
         let mut p = DecodeError::error(
             "job::syntax",
-            d.span,
+            crate::kdl_fast::narrow_span(text, d.span),
             format!("KDL syntax: {message}"),
             d.label.clone().unwrap_or_else(|| "here".to_string()),
         );

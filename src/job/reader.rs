@@ -28,6 +28,17 @@ impl<'s> Reader<'s> {
         self.problems.push(e);
     }
 
+    /// A did-you-mean for the first problems only: past the few that are
+    /// printed, working out suggestions for a flood of unknown names would
+    /// only cost time.
+    pub fn suggest(&self, name: &str, allowed: &[&str]) -> String {
+        if self.problems.len() < 4 * crate::problem_cap::SHOWN_PROBLEMS {
+            suggestion_help(name, allowed)
+        } else {
+            format!("allowed here: {}", allowed.join(", "))
+        }
+    }
+
     /// The span of a node's name.
     pub fn name_span(node: &KdlNode) -> SourceSpan {
         node.name().span()
@@ -55,7 +66,7 @@ impl<'s> Reader<'s> {
                         format!("unknown node `{name}` in {context}"),
                         "not a node this format knows here",
                     )
-                    .with_help(suggestion_help(name, allowed)),
+                    .with_help(self.suggest(name, allowed)),
                 );
             }
         }
@@ -89,7 +100,7 @@ impl<'s> Reader<'s> {
                         let help = if allowed.is_empty() {
                             format!("`{}` takes no properties", node.name().value())
                         } else {
-                            suggestion_help(key, allowed)
+                            self.suggest(key, allowed)
                         };
                         self.push(
                             DecodeError::error(
@@ -341,6 +352,28 @@ impl<'s> Reader<'s> {
             )),
         };
         match value {
+            Ok(v) if !kind.accepts(v) => {
+                let written = self
+                    .source
+                    .get(span.offset()..span.offset() + span.len())
+                    .unwrap_or("this value");
+                self.push(
+                    DecodeError::error(
+                        "job::out-of-range",
+                        span,
+                        format!(
+                            "{what}: {written} is outside the range accepted for {} ({})",
+                            kind.noun(),
+                            kind.range_words()
+                        ),
+                        format!("expected {}", kind.range_words()),
+                    )
+                    .with_help(
+                        "no reading or part has this value; check the prefix and the exponent",
+                    ),
+                );
+                None
+            }
             Ok(v) => Some(Spanned::new(v, span)),
             Err((at, message, label)) => {
                 self.push(
@@ -488,6 +521,32 @@ impl<'s> Reader<'s> {
 
     pub fn opt_prop_date(&mut self, node: &KdlNode, key: &str) -> Option<Spanned<NaiveDate>> {
         Self::prop(node, key).and_then(|e| self.date(e, &format!("`{key}`")))
+    }
+
+    /// Rejects a value outside `lo..=hi`, a narrower range than its kind's
+    /// that the field's meaning sets (`why` says which).
+    pub fn within(
+        &mut self,
+        v: Option<Spanned<f64>>,
+        what: &str,
+        (lo, hi): (f64, f64),
+        words: &str,
+        why: &str,
+    ) -> Option<Spanned<f64>> {
+        let v = v?;
+        if (lo..=hi).contains(&v.value) {
+            return Some(v);
+        }
+        self.push(
+            DecodeError::error(
+                "job::out-of-range",
+                v.span,
+                format!("{what} must be from {words}"),
+                format!("expected {words}"),
+            )
+            .with_help(why.to_string()),
+        );
+        None
     }
 
     /// Rejects negative (and optionally zero) values of physical quantities.

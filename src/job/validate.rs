@@ -1,8 +1,20 @@
 //! Cross-references inside a job: every valve position and node that a
 //! circuit fact or reading names must exist. Pure checks, no figures.
 
+use std::collections::HashSet;
+
 use super::decode_error::{DecodeError, suggestion_help};
 use super::model::{Job, RectifierKind, Spanned};
+
+/// A did-you-mean for the first problems only: past the few that are
+/// printed, comparing each name with every known one would only cost time.
+fn suggest(name: &str, known: &[&str], problems_so_far: usize) -> String {
+    if problems_so_far < 4 * crate::problem_cap::SHOWN_PROBLEMS && known.len() <= 1000 {
+        suggestion_help(name, known)
+    } else {
+        "check the spelling against the names declared in the job".to_string()
+    }
+}
 
 /// Problems with names that point nowhere.
 pub fn cross_references(job: &Job) -> Vec<DecodeError> {
@@ -18,20 +30,22 @@ pub fn cross_references(job: &Job) -> Vec<DecodeError> {
         .iter()
         .map(|n| n.name.value.as_str())
         .collect();
+    let mut known_nodes: HashSet<&str> = nodes.iter().copied().collect();
     for set in &job.measurements {
         for n in &set.nodes {
-            if !nodes.contains(&n.name.value.as_str()) {
+            if known_nodes.insert(n.name.value.as_str()) {
                 nodes.push(&n.name.value);
             }
         }
     }
 
+    let known_positions: HashSet<&str> = positions.iter().copied().collect();
     let mut position = |name: &Spanned<String>, what: &str| {
-        if !positions.contains(&name.value.as_str()) {
+        if !known_positions.contains(name.value.as_str()) {
             let help = if positions.is_empty() {
                 "list the valves in a `valves` block first".to_string()
             } else {
-                suggestion_help(&name.value, &positions)
+                suggest(&name.value, &positions, out.len())
             };
             out.push(
                 DecodeError::error(
@@ -94,11 +108,11 @@ pub fn cross_references(job: &Job) -> Vec<DecodeError> {
     }
 
     let mut node = |name: &Spanned<String>, what: &str| {
-        if !nodes.contains(&name.value.as_str()) {
+        if !known_nodes.contains(name.value.as_str()) {
             let help = if nodes.is_empty() {
                 "declare it in the circuit block: node B+1 chart=\"350V\"".to_string()
             } else {
-                suggestion_help(&name.value, &nodes)
+                suggest(&name.value, &nodes, out.len())
             };
             out.push(
                 DecodeError::error(

@@ -23,51 +23,183 @@ pub fn parse_document(text: &str) -> Result<KdlDocument, KdlError> {
     match parse_fast(text) {
         Some(doc) => Ok(doc),
         None => match too_deep(text) {
-            // The `kdl` crate's parser recurses once per nesting level and
+            // The `kdl` crate's parser recurses once per nesting level (of
+            // blocks, of `/* */` comments, of `/-` comments in a row) and
             // overflows the stack on very deep input; refuse it here.
-            Some(offset) => Err(KdlError {
+            Some(deep) => Err(KdlError {
                 input: std::sync::Arc::new(text.to_string()),
                 diagnostics: vec![kdl::KdlDiagnostic {
                     input: std::sync::Arc::new(text.to_string()),
-                    span: miette::SourceSpan::new(offset.into(), 1),
-                    message: Some(format!(
-                        "child blocks are nested more than {MAX_FALLBACK_DEPTH} levels deep"
-                    )),
-                    label: Some("too deep".to_string()),
-                    help: Some(
-                        "a job file nests a few levels at most; check for a run of `{` without `}`"
-                            .to_string(),
+                    span: miette::SourceSpan::new(
+                        deep.offset.into(),
+                        2.min(text.len() - deep.offset),
                     ),
+                    message: Some(deep.kind.message()),
+                    label: Some("too deep".to_string()),
+                    help: Some(deep.kind.help().to_string()),
                     severity: miette::Severity::Error,
                 }],
             }),
+            None if text.len() > MAX_FALLBACK_SIZE => Err(first_break(text)),
             None => KdlDocument::parse(text),
         },
     }
 }
 
-/// The deepest nesting of `{` handed to the `kdl` crate's parser. Its
-/// recursion overflows a small thread stack at about 70 levels.
+/// The largest broken text handed to the `kdl` crate's parser for its full
+/// syntax report. On garbage that parser's error recovery costs far more
+/// than linear time (a 1 MB file of `x=1 ` took over a minute), while a job
+/// file is a few kilobytes; past this size only the first place the text
+/// stops being KDL is reported, found by the fast parser in linear time.
+pub const MAX_FALLBACK_SIZE: usize = 64 * 1024;
+
+/// One syntax error where the fast parser had to stop reading `text`.
+fn first_break(text: &str) -> KdlError {
+    let mut parser = parser::Parser::new(text);
+    let _ = parser.document();
+    let mut at = parser.pos.min(text.len());
+    while !text.is_char_boundary(at) {
+        at -= 1;
+    }
+    let len = text[at..].chars().next().map_or(0, char::len_utf8);
+    let input = std::sync::Arc::new(text.to_string());
+    KdlError {
+        input: input.clone(),
+        diagnostics: vec![kdl::KdlDiagnostic {
+            input,
+            span: miette::SourceSpan::new(at.into(), len),
+            message: Some("the text stops being KDL here".to_string()),
+            label: Some("cannot be read from here".to_string()),
+            help: Some(format!(
+                "the file is larger than {} KiB, so only its first syntax error is reported; \
+                 fix it and run again",
+                MAX_FALLBACK_SIZE / 1024
+            )),
+            severity: miette::Severity::Error,
+        }],
+    }
+}
+
+/// The deepest nesting handed to the `kdl` crate's parser, of each kind.
+/// Its recursion overflows a 2 MB test thread's stack at about 70 levels
+/// of blocks; comments cost less per level.
 pub const MAX_FALLBACK_DEPTH: usize = 48;
 
-/// The byte offset of the first `{` that opens a block more than
-/// [`MAX_FALLBACK_DEPTH`] deep, counting braces naively (strings and
-/// comments included, which can only over-count).
-fn too_deep(text: &str) -> Option<usize> {
-    let mut depth = 0usize;
-    for (i, b) in text.bytes().enumerate() {
-        match b {
-            b'{' => {
-                depth += 1;
-                if depth > MAX_FALLBACK_DEPTH {
-                    return Some(i);
-                }
+/// Which kind of nesting went too deep.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Nesting {
+    /// `{` child blocks.
+    Blocks,
+    /// `/* /* … */ */` comments inside comments.
+    Comments,
+    /// `/-` comments one after another, each commenting out the next.
+    Slashdash,
+}
+
+impl Nesting {
+    fn message(self) -> String {
+        match self {
+            Nesting::Blocks => {
+                format!("child blocks are nested more than {MAX_FALLBACK_DEPTH} levels deep")
             }
-            b'}' => depth = depth.saturating_sub(1),
-            _ => {}
+            Nesting::Comments => {
+                format!("`/*` comments are nested more than {MAX_FALLBACK_DEPTH} levels deep")
+            }
+            Nesting::Slashdash => {
+                format!("more than {MAX_FALLBACK_DEPTH} `/-` comments follow one another")
+            }
         }
     }
+
+    fn help(self) -> &'static str {
+        match self {
+            Nesting::Blocks => {
+                "a job file nests a few levels at most; check for a run of `{` without `}`"
+            }
+            Nesting::Comments => {
+                "each `/*` needs its `*/`, and a comment inside a comment needs its own; check for a run of `/*`"
+            }
+            Nesting::Slashdash => {
+                "one `/-` comments out the node or value after it; remove the extra ones"
+            }
+        }
+    }
+}
+
+/// Where nesting first goes past [`MAX_FALLBACK_DEPTH`].
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub struct TooDeep {
+    /// Byte offset of the `{`, `/*` or `/-` past the limit.
+    pub offset: usize,
+    pub kind: Nesting,
+}
+
+/// The first place where blocks, `/*` comments or a run of `/-` comments
+/// nest more than [`MAX_FALLBACK_DEPTH`] deep. Counts naively, one pass
+/// over the bytes (strings and comments included, which can only
+/// over-count), so it cannot itself recurse or take long.
+pub fn too_deep(text: &str) -> Option<TooDeep> {
+    let bytes = text.as_bytes();
+    let (mut blocks, mut comments, mut slashdashes) = (0usize, 0usize, 0usize);
+    let mut i = 0;
+    while i < bytes.len() {
+        let pair = (bytes[i], bytes.get(i + 1).copied());
+        let deeper = |depth: usize, kind| {
+            (depth > MAX_FALLBACK_DEPTH).then_some(TooDeep { offset: i, kind })
+        };
+        match pair {
+            (b'{', _) => {
+                blocks += 1;
+                slashdashes = 0;
+                if let Some(d) = deeper(blocks, Nesting::Blocks) {
+                    return Some(d);
+                }
+            }
+            (b'}', _) => {
+                blocks = blocks.saturating_sub(1);
+                slashdashes = 0;
+            }
+            (b'/', Some(b'*')) => {
+                comments += 1;
+                if let Some(d) = deeper(comments, Nesting::Comments) {
+                    return Some(d);
+                }
+                i += 1;
+            }
+            (b'*', Some(b'/')) => {
+                comments = comments.saturating_sub(1);
+                i += 1;
+            }
+            (b'/', Some(b'-')) => {
+                slashdashes += 1;
+                if let Some(d) = deeper(slashdashes, Nesting::Slashdash) {
+                    return Some(d);
+                }
+                i += 1;
+            }
+            (c, _) if c.is_ascii_whitespace() => {}
+            _ => slashdashes = 0,
+        }
+        i += 1;
+    }
     None
+}
+
+/// A syntax diagnostic's span made to point where the trouble is. The
+/// `kdl` crate reports some errors (a property with no value at the end of
+/// a line, `chart=`) with a span from the start of the document to the
+/// place it gave up, which would be shown at 1:1; such a span is narrowed
+/// to its last character. Other spans are kept.
+pub fn narrow_span(text: &str, span: miette::SourceSpan) -> miette::SourceSpan {
+    let end = (span.offset() + span.len()).min(text.len());
+    if span.offset() != 0 || !text[..end].contains('\n') {
+        return span;
+    }
+    let body = text[..end].trim_end();
+    match body.char_indices().next_back() {
+        Some((at, c)) => miette::SourceSpan::new(at.into(), c.len_utf8()),
+        None => span,
+    }
 }
 
 /// The fast parser alone: `None` when it declines the text (which it does
@@ -98,6 +230,64 @@ mod depth_tests {
             );
             assert_eq!(d.span.offset(), 3 * MAX_FALLBACK_DEPTH + 2); // the first `{` past the limit
         }
+    }
+
+    #[test]
+    fn deep_comments_of_every_kind_are_refused_where_they_go_too_deep() {
+        let limit = MAX_FALLBACK_DEPTH;
+        let cases = [
+            // Unclosed `/*`, closed ones with a syntax error after them,
+            // and a run of `/-` each commenting out the next.
+            ("/*".repeat(3000), Nesting::Comments, 2 * limit),
+            (
+                format!("{}{}\nnode {{\n", "/*".repeat(3000), "*/".repeat(3000)),
+                Nesting::Comments,
+                2 * limit,
+            ),
+            (
+                format!("{}node\n", "/- ".repeat(2100)),
+                Nesting::Slashdash,
+                3 * limit,
+            ),
+            (
+                format!("a {}\n", "/-\n".repeat(3000)),
+                Nesting::Slashdash,
+                2 + 3 * limit,
+            ),
+        ];
+        for (text, kind, offset) in cases {
+            let err = parse_document(&text).expect_err("refused");
+            let d = &err.diagnostics[0];
+            assert_eq!(d.span.offset(), offset, "{kind:?}");
+            assert_eq!(too_deep(&text), Some(TooDeep { offset, kind }));
+        }
+    }
+
+    #[test]
+    fn nesting_up_to_the_limit_reaches_the_kdl_crate_without_overflowing() {
+        // On a test thread's 2 MB stack, which is smaller than the main
+        // thread's 8 MB: each kind at the limit, in a broken document so
+        // the fast parser declines it and the kdl crate's parser runs.
+        let limit = MAX_FALLBACK_DEPTH;
+        for text in [
+            format!("{}{}\nnode {{\n", "/*".repeat(limit), "*/".repeat(limit)),
+            format!("{}node\n{{", "/- ".repeat(limit)),
+            format!("{}{}(", "a {".repeat(limit), "}".repeat(limit)),
+        ] {
+            assert_eq!(too_deep(&text), None);
+            assert!(parse_document(&text).is_err());
+        }
+    }
+
+    #[test]
+    fn a_span_from_the_start_of_the_document_is_narrowed_to_its_end() {
+        let text = "a 1\nnode B+2 chart=\nb 2\n";
+        let e = KdlDocument::parse(text).expect_err("no value");
+        let span = narrow_span(text, e.diagnostics[0].span);
+        assert_eq!(span.offset(), text.find('=').unwrap());
+        // A span that starts later is kept.
+        let kept = miette::SourceSpan::new(4.into(), 3);
+        assert_eq!(narrow_span(text, kept), kept);
     }
 
     #[test]

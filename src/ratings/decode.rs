@@ -103,7 +103,12 @@ fn syntax_problems(text: &str, e: &kdl::KdlError) -> Vec<RatingProblem> {
                 .help
                 .clone()
                 .map_or_else(|| hint.to_string(), |h| format!("{h}\n{hint}"));
-            RatingProblem::new(message, clamp(text, d.span), label).with_help(help)
+            RatingProblem::new(
+                message,
+                clamp(text, crate::kdl_fast::narrow_span(text, d.span)),
+                label,
+            )
+            .with_help(help)
         })
         .collect();
     if out.is_empty() {
@@ -540,6 +545,17 @@ impl Reader<'_> {
             )
             .with_help(expected));
         }
+        if !kind.accepts(value) {
+            return Err(RatingProblem::new(
+                format!(
+                    "this is outside the range accepted for {kind} ({})",
+                    kind.range_words()
+                ),
+                self.value_span(entry),
+                format!("expected {}", kind.range_words()),
+            )
+            .with_help("no valve has a rating like this; check the prefix and the exponent"));
+        }
         Ok(value)
     }
 
@@ -633,11 +649,15 @@ impl Reader<'_> {
             None => None,
         };
         match v {
-            Some(v) if v.is_finite() && v > 0.0 => Ok(v),
+            // μ of real valves runs from about 2 to a few hundred.
+            Some(v) if (0.1..=10_000.0).contains(&v) => Ok(v),
             _ => Err(RatingProblem::new(
-                format!("`{}` must be a number above zero", node.name().value()),
+                format!(
+                    "`{}` must be a number from 0.1 to 10000",
+                    node.name().value()
+                ),
                 self.value_span(e),
-                "not a plain number",
+                "not a plain number in range",
             )
             .with_help(format!("write e.g. {example}"))),
         }
@@ -654,9 +674,10 @@ impl Reader<'_> {
             None => None,
         };
         match v {
-            Some(v) if v.is_finite() && v > 0.0 => Ok(v),
+            // Real valves: a fraction of a mA/V to a few tens.
+            Some(v) if (0.001..=1000.0).contains(&v) => Ok(v),
             _ => Err(RatingProblem::new(
-                "this is not a transconductance",
+                "this is not a transconductance from 0.001 to 1000 mA/V",
                 self.value_span(e),
                 "expected a number in mA/V",
             )

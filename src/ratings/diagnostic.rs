@@ -63,25 +63,40 @@ impl RatingProblem {
 }
 
 /// Every problem found in one ratings file.
-#[derive(Debug, thiserror::Error, Diagnostic)]
-#[diagnostic(
-    code(ampreport::ratings::file),
-    help("nothing from this file was used; fix the problems above and run again")
-)]
+#[derive(Debug, thiserror::Error)]
 pub struct RatingsFileError {
     file_name: String,
-    #[source_code]
-    source_code: NamedSource<Arc<String>>,
-    #[related]
+    source_code: crate::problem_cap::ClippedSource,
     problems: Vec<RatingProblem>,
+    not_shown: std::sync::OnceLock<crate::problem_cap::NotShown>,
+}
+
+impl Diagnostic for RatingsFileError {
+    fn code<'a>(&'a self) -> Option<Box<dyn fmt::Display + 'a>> {
+        Some(Box::new("ampreport::ratings::file"))
+    }
+    fn help<'a>(&'a self) -> Option<Box<dyn fmt::Display + 'a>> {
+        Some(Box::new(
+            "nothing from this file was used; fix the problems below and run again",
+        ))
+    }
+    fn source_code(&self) -> Option<&dyn miette::SourceCode> {
+        Some(&self.source_code)
+    }
+    fn related<'a>(&'a self) -> Option<Box<dyn Iterator<Item = &'a dyn Diagnostic> + 'a>> {
+        Some(crate::problem_cap::shown(&self.problems, &self.not_shown))
+    }
 }
 
 impl RatingsFileError {
     pub(crate) fn new(file_name: &str, text: Arc<String>, problems: Vec<RatingProblem>) -> Self {
         RatingsFileError {
             file_name: file_name.to_string(),
-            source_code: NamedSource::new(file_name, text).with_language("kdl"),
+            source_code: crate::problem_cap::ClippedSource(
+                NamedSource::new(file_name, text).with_language("kdl"),
+            ),
             problems,
+            not_shown: Default::default(),
         }
     }
 

@@ -101,9 +101,14 @@ impl RatingsTable {
     /// must be complete. If the file has any problem, all of them are
     /// reported at once and the table is left as it was.
     pub fn load_shop_file(&mut self, path: &Path) -> Result<(), miette::Report> {
-        let text = std::fs::read_to_string(path).map_err(|cause| UnreadableRatingsFile {
-            path: path.display().to_string(),
-            cause,
+        let text = crate::input_file::read_text(path, "ratings file").map_err(|e| match e {
+            crate::input_file::InputFileError::Io { source, .. } => {
+                miette::Report::new(UnreadableRatingsFile {
+                    path: path.display().to_string(),
+                    cause: source,
+                })
+            }
+            other => miette::miette!("{other}"),
         })?;
         self.apply_shop_text(
             &path.display().to_string(),

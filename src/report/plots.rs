@@ -26,6 +26,10 @@ pub(crate) const LIGHT: RGBColor = RGBColor(222, 222, 222);
 pub(crate) const GRID: RGBColor = RGBColor(232, 232, 232);
 pub(crate) const PAPER: RGBColor = RGBColor(255, 255, 255);
 
+/// Highest percentage the dissipation axis reaches; a bar beyond it is
+/// drawn to the top of the chart and labelled with its figure.
+const DISSIPATION_AXIS_LIMIT: f64 = 400.0;
+
 /// Width and height of both SVGs in pixels (CSS px; typst scales them).
 pub const SIZE: (u32, u32) = (760, 330);
 
@@ -198,6 +202,7 @@ pub fn label_text(text: &str, max_chars: usize) -> String {
         .map(|c| if c.is_whitespace() { ' ' } else { c })
         .filter(|c| !c.is_control() && !is_xml_forbidden(*c))
         .collect();
+    let clean = crate::typeset::drawable(&clean);
     let clean = clean.split_whitespace().collect::<Vec<_>>().join(" ");
     if clean.chars().count() <= max_chars {
         clean
@@ -214,7 +219,95 @@ fn is_xml_forbidden(c: char) -> bool {
 
 /// A whole-number percentage for a label.
 fn pct_label(v: f64) -> String {
-    format!("{v:.0} %")
+    format!("{} %", whole(v))
+}
+
+/// A figure as a whole number, or in scientific notation when it would
+/// take more than six digits, so a label stays short whatever the value.
+fn whole(v: f64) -> String {
+    if v.abs() < 999_999.5 {
+        format!("{v:.0}")
+    } else {
+        format!("{v:.2e}")
+    }
+}
+
+/// Largest magnitude a chart works with: every figure is clamped to it
+/// before the axis is chosen, so the arithmetic below stays finite.
+const CHART_LIMIT: f64 = 1e9;
+
+/// The chart's figures with anything not finite dropped and the rest held
+/// within ±[`CHART_LIMIT`].
+fn finite_values(values: &[Option<f64>]) -> impl Iterator<Item = f64> + '_ {
+    values
+        .iter()
+        .flatten()
+        .filter(|v| v.is_finite())
+        .map(|v| v.clamp(-CHART_LIMIT, CHART_LIMIT))
+}
+
+/// A value axis: from `bottom` to `top` in steps of `step`, with at most
+/// [`Axis::MAX_STEPS`] steps whatever the data, so a chart costs the same
+/// for any figures.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub(crate) struct Axis {
+    pub bottom: f64,
+    pub top: f64,
+    pub step: f64,
+}
+
+impl Axis {
+    pub const MAX_STEPS: f64 = 12.0;
+
+    /// The smallest axis on a 1-2-5 step that holds `lo..=hi` with a
+    /// little room (`pad` steps) at each end. Any finite inputs give a
+    /// finite axis at least one unit tall; non-finite ones are treated as
+    /// zero.
+    pub(crate) fn fit(lo: f64, hi: f64, pad: f64, min_step: f64) -> Axis {
+        let clean = |v: f64| {
+            if v.is_finite() {
+                v.clamp(-CHART_LIMIT, CHART_LIMIT)
+            } else {
+                0.0
+            }
+        };
+        let (lo, hi) = (clean(lo.min(hi)), clean(lo.max(hi)));
+        let span = (hi - lo).max(1.0);
+        let mut step = min_step.max(1.0);
+        'search: for _ in 0..40 {
+            for m in [1.0, 2.0, 5.0] {
+                let candidate = step * m;
+                if span / candidate + 2.0 * pad <= Self::MAX_STEPS {
+                    step = candidate;
+                    break 'search;
+                }
+            }
+            step *= 10.0;
+        }
+        let bottom = ((lo / step) - pad).floor() * step;
+        let top = ((hi / step) + pad).ceil() * step;
+        let top = if top - bottom < step {
+            bottom + step
+        } else {
+            top
+        };
+        Axis { bottom, top, step }
+    }
+
+    /// Labels the axis needs, bottom and top included.
+    pub(crate) fn labels(&self) -> usize {
+        (((self.top - self.bottom) / self.step).round() as usize + 1)
+            .min(2 * Self::MAX_STEPS as usize + 2)
+    }
+
+    /// `v` held on the axis.
+    pub(crate) fn hold(&self, v: f64) -> f64 {
+        if v.is_finite() {
+            v.clamp(self.bottom, self.top)
+        } else {
+            self.bottom
+        }
+    }
 }
 
 /// plotters writes a font size `s` into the SVG as `s / 1.24`: the size in
@@ -555,9 +648,13 @@ fn draw_dissipation(chart: &DissipationChart, svg: &mut String) -> Result<(), St
     let highest = chart
         .series
         .iter()
-        .flat_map(|s| s.values.iter().flatten())
-        .fold(0.0f64, |a, &b| a.max(b));
-    let top = ((highest.max(100.0) + 14.0) / 10.0).ceil() * 10.0;
+        .flat_map(|s| finite_values(&s.values))
+        .fold(0.0f64, f64::max);
+    // Room above the tallest bar (or the rating line) for its figure; a
+    // bar far past its rating runs off the top with its figure there.
+    let top = ((highest.clamp(100.0, DISSIPATION_AXIS_LIMIT) + 14.0) / 10.0).ceil() * 10.0;
+    let axis = Axis::fit(0.0, top, 0.0, 10.0);
+    let top = axis.top;
 
     let mut ctx = ChartBuilder::on(&root)
         .margin_top(44)
@@ -572,7 +669,7 @@ fn draw_dissipation(chart: &DissipationChart, svg: &mut String) -> Result<(), St
         .disable_x_mesh()
         .x_labels(0)
         .x_label_formatter(&|_| String::new())
-        .y_labels(((top / 20.0) as usize).clamp(4, 12))
+        .y_labels(axis.labels())
         .y_label_formatter(&|v| format!("{v:.0}"))
         .y_desc("Plate dissipation, % of rating")
         .axis_desc_style(font(14))
@@ -590,6 +687,7 @@ fn draw_dissipation(chart: &DissipationChart, svg: &mut String) -> Result<(), St
     // right margin, clear of the bars.
     match chart.guide {
         Guide::Aim { low_pct, high_pct } => {
+            let (low_pct, high_pct) = (axis.hold(low_pct), axis.hold(high_pct));
             ctx.draw_series(std::iter::once(Rectangle::new(
                 [(0.0, low_pct), (n as f64, high_pct)],
                 LIGHT.filled(),
@@ -610,7 +708,7 @@ fn draw_dissipation(chart: &DissipationChart, svg: &mut String) -> Result<(), St
             .map_err(|e| e.to_string())?;
         }
         Guide::Caution { pct } => {
-            let y = ctx.backend_coord(&(0.0, pct)).1;
+            let y = ctx.backend_coord(&(0.0, axis.hold(pct))).1;
             dashed(&root, left, right, y, INK.stroke_width(1))?;
             root.draw(&Text::new(
                 format!("caution {pct:.0} %"),
@@ -629,7 +727,10 @@ fn draw_dissipation(chart: &DissipationChart, svg: &mut String) -> Result<(), St
     for (k, series) in chart.series.iter().enumerate() {
         let (fill, hatched) = bar_pattern(k);
         for (i, value) in series.values.iter().enumerate() {
-            let Some(v) = *value else { continue };
+            let Some(figure) = value.filter(|v| v.is_finite()) else {
+                continue;
+            };
+            let v = axis.hold(figure);
             let x0 = i as f64 + (1.0 - group) / 2.0 + k as f64 * bar;
             let x1 = x0 + bar * 0.9;
             ctx.draw_series(std::iter::once(Rectangle::new(
@@ -648,7 +749,7 @@ fn draw_dissipation(chart: &DissipationChart, svg: &mut String) -> Result<(), St
                 (f64::from(a.0), f64::from(a.1)),
                 (f64::from(b.0), f64::from(b.1)),
             );
-            bars.push((pixels, pct_label(v)));
+            bars.push((pixels, pct_label(figure)));
         }
     }
 
@@ -681,12 +782,12 @@ fn draw_dissipation(chart: &DissipationChart, svg: &mut String) -> Result<(), St
         .push(Line::new((l, f64::from(y100)), (r, f64::from(y100)), 40.0));
     match chart.guide {
         Guide::Caution { pct } => {
-            let y = f64::from(ctx.backend_coord(&(0.0, pct)).1);
+            let y = f64::from(ctx.backend_coord(&(0.0, axis.hold(pct))).1);
             obstacles.lines.push(Line::new((l, y), (r, y), 25.0));
         }
         Guide::Aim { low_pct, high_pct } => {
-            let lo = f64::from(ctx.backend_coord(&(0.0, low_pct)).1);
-            let hi = f64::from(ctx.backend_coord(&(0.0, high_pct)).1);
+            let lo = f64::from(ctx.backend_coord(&(0.0, axis.hold(low_pct))).1);
+            let hi = f64::from(ctx.backend_coord(&(0.0, axis.hold(high_pct))).1);
             obstacles.bands.push(PixelBox::new((l, hi), (r, lo)));
         }
         Guide::None => {}
@@ -835,12 +936,11 @@ fn draw_supply(chart: &SupplyChart, svg: &mut String) -> Result<(), String> {
     let mut figures: Vec<f64> = chart
         .series
         .iter()
-        .flat_map(|s| s.values.iter().flatten().copied())
+        .flat_map(|s| finite_values(&s.values))
         .collect();
     for node in &chart.nodes {
         if let Some((lo, _, hi)) = node.band {
-            figures.push(lo);
-            figures.push(hi);
+            figures.extend(finite_values(&[Some(lo), Some(hi)]));
         }
     }
     let lo = figures.iter().copied().fold(f64::INFINITY, f64::min);
@@ -850,9 +950,18 @@ fn draw_supply(chart: &SupplyChart, svg: &mut String) -> Result<(), String> {
     } else {
         (0.0, 100.0)
     };
-    let step = if hi - lo > 300.0 { 100.0 } else { 50.0 };
-    let bottom = (((lo - step * 0.3) / step).floor() * step).max(0.0);
-    let top = ((hi + step * 0.3) / step).ceil() * step;
+    // Whole 50 V steps for a supply chain, coarser when the figures spread
+    // wider; never below zero unless a reading is.
+    let axis = Axis::fit(lo.min(hi - 1.0), hi, 0.3, 50.0);
+    let axis = Axis {
+        bottom: if lo >= 0.0 {
+            axis.bottom.max(0.0)
+        } else {
+            axis.bottom
+        },
+        ..axis
+    };
+    let (bottom, top) = (axis.bottom, axis.top);
 
     let mut ctx = ChartBuilder::on(&root)
         .margin_top(44)
@@ -863,12 +972,15 @@ fn draw_supply(chart: &SupplyChart, svg: &mut String) -> Result<(), String> {
         .y_label_area_size(62)
         .build_cartesian_2d(0f64..n as f64, bottom..top)
         .map_err(|e| e.to_string())?;
-    let desc = format!("Volts DC, corrected to {:.0} V mains", chart.nominal_volts);
+    let desc = format!(
+        "Volts DC, corrected to {} V mains",
+        whole(chart.nominal_volts)
+    );
     ctx.configure_mesh()
         .disable_x_mesh()
         .x_labels(0)
         .x_label_formatter(&|_| String::new())
-        .y_labels(((top - bottom) / (step / 2.0)) as usize + 1)
+        .y_labels(2 * axis.labels())
         .y_label_formatter(&|v| format!("{v:.0}"))
         .y_desc(desc)
         .axis_desc_style(font(14))
@@ -889,6 +1001,7 @@ fn draw_supply(chart: &SupplyChart, svg: &mut String) -> Result<(), String> {
     ));
     for (i, node) in chart.nodes.iter().enumerate() {
         if let Some((lo, expected, hi)) = node.band {
+            let (lo, expected, hi) = (axis.hold(lo), axis.hold(expected), axis.hold(hi));
             let x0 = i as f64 + 0.22;
             let x1 = i as f64 + 0.78;
             ctx.draw_series(std::iter::once(Rectangle::new(
@@ -935,7 +1048,10 @@ fn draw_supply(chart: &SupplyChart, svg: &mut String) -> Result<(), String> {
                 .values
                 .iter()
                 .enumerate()
-                .filter_map(|(i, v)| v.map(|v| (v, ctx.backend_coord(&(i as f64 + offset(k), v)))))
+                .filter_map(|(i, v)| {
+                    v.filter(|v| v.is_finite())
+                        .map(|v| (v, ctx.backend_coord(&(i as f64 + offset(k), axis.hold(v)))))
+                })
                 .collect()
         })
         .collect();
@@ -969,7 +1085,7 @@ fn draw_supply(chart: &SupplyChart, svg: &mut String) -> Result<(), String> {
         let bands = obstacles.bands.clone();
         for (k, line) in points.iter().enumerate() {
             for (v, p) in line {
-                let text = format!("{v:.0}");
+                let text = whole(*v);
                 let w = text_width(&text, 12) + 4.0;
                 let candidates = label_spots(*p, w, LABEL_HEIGHT, k == 0);
                 let place = obstacles.place(&candidates);

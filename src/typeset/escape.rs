@@ -38,6 +38,11 @@ pub fn escape_markup(text: &str) -> String {
     // Breaks since the last printed character: the first is a plain line
     // break, each further one an empty line.
     let mut breaks = 0usize;
+    // Characters since the last white space: past LONG_WORD, each one is
+    // followed by a zero-width space, so typst may break a very long word
+    // anywhere rather than run it off the page.
+    let mut word = 0usize;
+    let mark = super::fonts::placeholder();
     while let Some(c) = chars.next() {
         if c == '\r' || is_line_end(c) {
             // A lone CR or a CRLF pair is one line break.
@@ -52,17 +57,31 @@ pub fn escape_markup(text: &str) -> String {
             continue;
         }
         breaks = 0;
+        if c.is_whitespace() {
+            word = 0;
+        } else {
+            word += 1;
+        }
         match c {
             '\t' => out.push(' '),
             c if c.is_ascii_punctuation() => {
                 out.push('\\');
                 out.push(c);
             }
+            '\u{FE00}'..='\u{FE0F}' | '\u{E0000}'..='\u{E007F}' | '\u{E0100}'..='\u{E01EF}' => {}
+            c if !super::fonts::can_draw(c) => out.push(mark),
             c => out.push(c),
+        }
+        if word > LONG_WORD {
+            out.push('\u{200B}');
         }
     }
     out
 }
+
+/// Characters in a row, without white space, after which a word may be
+/// broken anywhere: longer than any real word or part number.
+pub const LONG_WORD: usize = 40;
 
 /// Makes `text` safe inside a Typst string literal: the result goes between
 /// two `"` characters.

@@ -102,6 +102,89 @@ pub const MONO_FAMILIES: &[&str] = &[
     "WenQuanYi Micro Hei Mono",
 ];
 
+/// Every character some bundled font has a glyph for, read once from the
+/// fonts' character maps.
+fn coverage() -> &'static std::collections::HashSet<u32> {
+    static COVERAGE: std::sync::OnceLock<std::collections::HashSet<u32>> =
+        std::sync::OnceLock::new();
+    COVERAGE.get_or_init(|| {
+        let mut set = std::collections::HashSet::new();
+        for (_, data) in BUNDLED_FONTS {
+            let faces = ttf_parser::fonts_in_collection(data).unwrap_or(1);
+            for index in 0..faces {
+                let Ok(face) = ttf_parser::Face::parse(data, index) else {
+                    continue;
+                };
+                let Some(cmap) = face.tables().cmap else {
+                    continue;
+                };
+                for table in cmap.subtables {
+                    if table.is_unicode() {
+                        table.codepoints(|c| {
+                            set.insert(c);
+                        });
+                    }
+                }
+            }
+        }
+        set
+    })
+}
+
+/// Whether the document can draw `c`: a bundled font has it, or it needs
+/// no glyph (white space, control characters, which the escaper handles,
+/// and the invisible joiners and break marks typst lays out itself).
+pub fn can_draw(c: char) -> bool {
+    c.is_whitespace()
+        || c.is_control()
+        || matches!(
+            c,
+            '\u{200B}'..='\u{200D}' | '\u{2060}' | '\u{FEFF}' | '\u{AD}'
+        )
+        || coverage().contains(&u32::from(c))
+}
+
+/// Marks that only select a glyph variant (emoji presentation, tags):
+/// dropped, since the character they follow is replaced anyway.
+fn is_variant_mark(c: char) -> bool {
+    matches!(c, '\u{FE00}'..='\u{FE0F}' | '\u{E0000}'..='\u{E007F}' | '\u{E0100}'..='\u{E01EF}')
+}
+
+/// What is printed in place of a character no bundled font has: the
+/// replacement character where the fonts have it, else a question mark.
+pub fn placeholder() -> char {
+    ['\u{FFFD}', '\u{25A1}', '?']
+        .into_iter()
+        .find(|&c| can_draw(c))
+        .unwrap_or('?')
+}
+
+/// `text` with every character the fonts lack replaced by
+/// [`placeholder`] (variant marks dropped), so typst never meets a
+/// character it cannot draw.
+pub fn drawable(text: &str) -> std::borrow::Cow<'_, str> {
+    if text.chars().all(can_draw) {
+        return std::borrow::Cow::Borrowed(text);
+    }
+    let mark = placeholder();
+    text.chars()
+        .filter(|&c| !is_variant_mark(c))
+        .map(|c| if can_draw(c) { c } else { mark })
+        .collect()
+}
+
+/// The distinct characters of `text` that print as the placeholder, in
+/// order of first appearance.
+pub fn undrawable(text: &str) -> Vec<char> {
+    let mut out: Vec<char> = Vec::new();
+    for c in text.chars() {
+        if !can_draw(c) && !is_variant_mark(c) && !out.contains(&c) {
+            out.push(c);
+        }
+    }
+    out
+}
+
 /// Typst set rules that select the bundled fonts, for the top of every
 /// generated document. typst is run without its own built-in fonts, so a
 /// document must name these families.
@@ -162,6 +245,23 @@ mod tests {
     fn bundle_stays_small() {
         let total: usize = BUNDLED_FONTS.iter().map(|(_, b)| b.len()).sum();
         assert!(total < 15 * 1024 * 1024, "{total} bytes of fonts");
+    }
+
+    #[test]
+    fn characters_the_fonts_lack_become_the_placeholder() {
+        let mark = placeholder();
+        assert!(can_draw('A') && can_draw('µ') && can_draw('Ω') && can_draw('日'));
+        // Emoji, Thai, Ethiopic, a mathematical letter, private use.
+        for c in ['🔥', 'ก', 'ሀ', '𝔸', '\u{E000}'] {
+            assert!(!can_draw(c), "{c:?}");
+            assert_eq!(drawable(&format!("a{c}b")), format!("a{mark}b"));
+        }
+        assert_eq!(drawable("ok \u{2764}\u{FE0F}"), format!("ok {mark}"));
+        assert_eq!(undrawable("🔥x🔥ก"), vec!['🔥', 'ก']);
+        assert!(matches!(
+            drawable("plain µΩ"),
+            std::borrow::Cow::Borrowed(_)
+        ));
     }
 
     #[test]

@@ -23,7 +23,10 @@ pub use font_cache::{
     FONTS_DIGEST, ensure_font_cache, font_cache_folder_name, is_complete as font_cache_is_complete,
     user_cache_root,
 };
-pub use fonts::{BUNDLED_FONTS, FONT_DIR, FONT_LICENCES, MONO_FAMILIES, TEXT_FAMILIES, font_rules};
+pub use fonts::{
+    BUNDLED_FONTS, FONT_DIR, FONT_LICENCES, MONO_FAMILIES, TEXT_FAMILIES, can_draw, drawable,
+    font_rules, placeholder, undrawable,
+};
 pub use locate::{
     PendingTypst, TYPST_ENV, TypstProgram, locate, locate_in, start_locate, start_locate_in,
 };

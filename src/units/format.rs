@@ -10,7 +10,19 @@ pub fn round_sig(value: f64, sig: i32) -> f64 {
     }
     let magnitude = value.abs().log10().floor() as i32;
     let factor = 10f64.powi(sig - 1 - magnitude);
-    (value * factor).round() / factor
+    let rounded = (value * factor).round() / factor;
+    if rounded.is_finite() && factor.is_finite() && factor > 0.0 {
+        rounded
+    } else {
+        // Near the ends of the f64 range the scale factor overflows or
+        // underflows: round through the decimal text instead.
+        let sig = sig.clamp(1, 17) as usize;
+        format!("{value:.prec$e}", prec = sig - 1)
+            .parse::<f64>()
+            .ok()
+            .filter(|r| r.is_finite())
+            .unwrap_or(value)
+    }
 }
 
 /// Formats a plain number to `sig` significant figures without trailing
@@ -24,6 +36,11 @@ pub fn format_sig(value: f64, sig: i32) -> String {
         return "0".to_string();
     }
     let magnitude = rounded.abs().log10().floor() as i32;
+    if !(-12..=15).contains(&magnitude) {
+        // Far outside any reading: scientific notation keeps it short.
+        let sig = sig.clamp(1, 17) as usize;
+        return format!("{rounded:.prec$e}", prec = sig - 1);
+    }
     let decimals = (sig - 1 - magnitude).max(0) as usize;
     trim_zeros(short_fixed(rounded, decimals))
 }
@@ -170,6 +187,34 @@ mod tests {
         assert_eq!(short_fixed(0.0385, 4), "0.0385");
         assert_eq!(short_fixed(-52.0, 0), "-52");
         assert_eq!(short_fixed(1e300, 0), format!("{:.0}", 1e300));
+    }
+
+    #[test]
+    fn every_finite_number_prints_short_and_finite() {
+        for v in [
+            5e-324,
+            -1e-320,
+            1e-300,
+            2.5e-13,
+            9.99e15,
+            1e308,
+            f64::MAX,
+            f64::MIN,
+            f64::MIN_POSITIVE,
+        ] {
+            for sig in 1..=6 {
+                let text = format_sig(v, sig);
+                assert!(
+                    !text.contains("NaN") && !text.contains("inf") && text.len() < 30,
+                    "{v} to {sig}: {text}"
+                );
+                assert!(round_sig(v, sig).is_finite(), "{v} to {sig}");
+            }
+            let text = format_engineering(v, QuantityKind::Resistance);
+            assert!(!text.contains("NaN") && text.len() < 40, "{v}: {text}");
+        }
+        assert_eq!(format_sig(1e-320, 3), "1.00e-320");
+        assert_eq!(format_sig(1.234e300, 3), "1.23e300");
     }
 
     #[test]

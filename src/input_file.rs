@@ -1,0 +1,108 @@
+//! Reading an input text file (a job, a shop's ratings file) with a bound
+//! on its size and a line and column for bytes that are not UTF-8. A job
+//! file is a few kilobytes; one of many megabytes is a mistake (the wrong
+//! file, a log, a disk image), and reading it whole would cost memory out
+//! of all proportion (a 68 MB file once took 790 MB to refuse).
+
+use std::io::Read;
+use std::path::Path;
+
+/// The largest input text file read: 16 MiB, thousands of times a real
+/// job file, far below what would strain memory.
+pub const MAX_INPUT_BYTES: u64 = 16 * 1024 * 1024;
+
+/// Why an input file could not be read as text.
+#[derive(Debug, thiserror::Error)]
+pub enum InputFileError {
+    #[error("cannot read the {what} {path}: {source}")]
+    Io {
+        what: &'static str,
+        path: String,
+        #[source]
+        source: std::io::Error,
+    },
+    #[error(
+        "the {what} {path} is larger than {} MiB; a job or ratings file is a few kilobytes, so this is probably the wrong file",
+        MAX_INPUT_BYTES / (1024 * 1024)
+    )]
+    TooLarge { what: &'static str, path: String },
+    #[error(
+        "{path}:{line}:{column}: the {what} is not UTF-8 text (byte 0x{byte:02x} here); save it as UTF-8"
+    )]
+    NotUtf8 {
+        what: &'static str,
+        path: String,
+        line: usize,
+        column: usize,
+        byte: u8,
+    },
+}
+
+/// Reads `path` as UTF-8 text of at most [`MAX_INPUT_BYTES`]; `what` names
+/// the file in messages ("job file").
+pub fn read_text(path: &Path, what: &'static str) -> Result<String, InputFileError> {
+    let shown = path.display().to_string();
+    let io = |source| InputFileError::Io {
+        what,
+        path: shown.clone(),
+        source,
+    };
+    let file = std::fs::File::open(path).map_err(io)?;
+    // The length is checked on the bytes read, not only the metadata, so a
+    // pipe or a device is bounded too.
+    let mut bytes = Vec::new();
+    file.take(MAX_INPUT_BYTES + 1)
+        .read_to_end(&mut bytes)
+        .map_err(io)?;
+    if bytes.len() as u64 > MAX_INPUT_BYTES {
+        return Err(InputFileError::TooLarge { what, path: shown });
+    }
+    String::from_utf8(bytes).map_err(|e| {
+        let good = e.utf8_error().valid_up_to();
+        let bytes = e.as_bytes();
+        let text = std::str::from_utf8(&bytes[..good]).unwrap_or_default();
+        let line = text.matches('\n').count() + 1;
+        let line_start = text.rfind('\n').map_or(0, |i| i + 1);
+        InputFileError::NotUtf8 {
+            what,
+            path: shown.clone(),
+            line,
+            column: text[line_start..].chars().count() + 1,
+            byte: bytes.get(good).copied().unwrap_or(0),
+        }
+    })
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn a_bad_byte_is_placed_by_line_and_column() {
+        let dir = tempfile::tempdir().unwrap();
+        let path = dir.path().join("j.kdl");
+        std::fs::write(&path, b"job-format 1\nunit make=\"D\xc2\xb5o\xff\"\n").unwrap();
+        let e = read_text(&path, "job file").unwrap_err();
+        // Line 2: `unit make="Dµo` is 14 characters, so the bad byte is column 15.
+        assert!(
+            e.to_string()
+                .contains("j.kdl:2:15: the job file is not UTF-8 text (byte 0xff here)"),
+            "{e}"
+        );
+    }
+
+    #[test]
+    fn a_file_over_the_limit_is_refused_without_reading_it_all() {
+        let dir = tempfile::tempdir().unwrap();
+        let path = dir.path().join("big.kdl");
+        let f = std::fs::File::create(&path).unwrap();
+        f.set_len(MAX_INPUT_BYTES + 1).unwrap();
+        assert!(matches!(
+            read_text(&path, "job file"),
+            Err(InputFileError::TooLarge { .. })
+        ));
+        f.set_len(MAX_INPUT_BYTES).unwrap();
+        // Exactly at the limit: read (zeros are valid UTF-8).
+        assert!(read_text(&path, "job file").is_ok());
+    }
+}
