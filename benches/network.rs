@@ -5,7 +5,8 @@
 //! document's sweep, corners, scoop and the phase-shift search).
 //!
 //! Target on the project's 2-core machine: the 400-point sweep of the
-//! 30-node network under 5 ms. Run with `cargo bench --bench network`;
+//! 30-node network under 5 ms. The same sweep through nalgebra's dense LU
+//! (the reference the solver is held to) is measured beside it. Run with `cargo bench --bench network`;
 //! the figure is recorded in docs/performance.md.
 
 use std::hint::black_box;
@@ -66,6 +67,18 @@ fn benches(c: &mut Criterion) {
             let mut acc = 0.0;
             for &f in &freqs {
                 acc += solver.response(black_box(f)).unwrap().norm();
+            }
+            black_box(acc)
+        })
+    });
+    c.bench_function("network/30 nodes, 400 points, nalgebra dense LU (reference)", |b| {
+        b.iter(|| {
+            let (resolved, _) =
+                network::resolve_state(net, State::Before, 0, &job, &ratings).unwrap();
+            let solver = Solver::new(&resolved);
+            let mut acc = 0.0;
+            for &f in &freqs {
+                acc += solver.response_reference(black_box(f)).unwrap().norm();
             }
             black_box(acc)
         })

@@ -98,10 +98,16 @@ pub fn response_chart(net: &NetworkFindings) -> Option<ResponseChart> {
     })
 }
 
-/// "VR1 3, VR2 7".
+/// "VR1 3, VR2 7", or by the knobs' names: "treble 3, bass 7".
 pub fn setting_words(pots: &[crate::calc::network::PotSetting]) -> String {
     pots.iter()
-        .map(|p| format!("{} {}", p.reference, crate::units::format_sig(p.setting, 3)))
+        .map(|p| {
+            format!(
+                "{} {}",
+                p.label.as_deref().unwrap_or(&p.reference),
+                crate::units::format_sig(p.setting, 3)
+            )
+        })
         .collect::<Vec<_>>()
         .join(", ")
 }

@@ -58,6 +58,8 @@ pub struct SourceFindings {
 #[derive(Debug, Clone, Serialize)]
 pub struct PotSetting {
     pub reference: String,
+    /// The knob's name on the panel, when the job gives one.
+    pub label: Option<String>,
     #[serde(serialize_with = "round6")]
     pub setting: f64,
 }

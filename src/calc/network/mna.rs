@@ -2,9 +2,11 @@
 //! state at one set of pot settings is resolved into two-terminal
 //! elements between numbered nodes ([`Resolved`]); [`Solver`] stamps their
 //! conductance, capacitance and inverse-inductance matrices once, then at
-//! each angular frequency ω solves the dense complex system
+//! each angular frequency ω solves the complex system
 //! (G + j(ωC − Γ/ω)) x = b for the node voltages and the currents of the
-//! ideal sources, with nalgebra's LU decomposition.
+//! ideal sources: by Gaussian elimination that skips the matrix's exact
+//! zeros, held identical to nalgebra's dense LU decomposition (the
+//! measured reason is in docs/performance.md).
 
 use nalgebra::{DMatrix, DVector};
 use num_complex::Complex64;
@@ -104,6 +106,7 @@ pub fn resolve(
                 wiper,
                 cw,
                 settings,
+                ..
             } => {
                 let setting = overrides
                     .iter()
@@ -157,10 +160,13 @@ pub struct Solver {
     /// Unknowns: node voltages 1..n (ground left out), then one current
     /// per ideal source.
     size: usize,
-    g: DMatrix<f64>,
-    c: DMatrix<f64>,
-    gamma: DMatrix<f64>,
-    rhs: DVector<f64>,
+    /// The matrix's structurally non-zero entries: the place in the
+    /// row-major matrix, and the conductance, capacitance and inverse
+    /// inductance stamped there.
+    entries: Vec<(usize, f64, f64, f64)>,
+    /// One past each row's last structurally non-zero column.
+    row_end: Vec<usize>,
+    rhs: Vec<f64>,
     /// The unknown holding the load node's voltage.
     out: usize,
 }
@@ -229,27 +235,59 @@ impl Solver {
                 rhs[next] = 1.0;
             }
         }
+        let mut entries = Vec::new();
+        let mut row_end = vec![0; size];
+        for i in 0..size {
+            for j in 0..size {
+                let (gv, cv, lv) = (g[(i, j)], c[(i, j)], gamma[(i, j)]);
+                if gv != 0.0 || cv != 0.0 || lv != 0.0 {
+                    entries.push((i * size + j, gv, cv, lv));
+                    row_end[i] = j + 1;
+                }
+            }
+        }
         Solver {
             size,
-            g,
-            c,
-            gamma,
-            rhs,
+            entries,
+            row_end,
+            rhs: rhs.iter().copied().collect(),
             out: net.load_node - 1,
         }
     }
 
-    /// The voltage at the load per volt of source EMF at `frequency_hz`.
+    /// The system matrix at angular frequency `w`, row-major, and the
+    /// right-hand side.
+    fn system(&self, w: f64) -> (Vec<Complex64>, Vec<Complex64>) {
+        let n = self.size;
+        let mut a = vec![Complex64::new(0.0, 0.0); n * n];
+        for &(at, g, c, inv_l) in &self.entries {
+            a[at] = Complex64::new(g, w * c - inv_l / w);
+        }
+        let b = self.rhs.iter().map(|&v| Complex64::new(v, 0.0)).collect();
+        (a, b)
+    }
+
+    /// The voltage at the load per volt of source EMF at `frequency_hz`,
+    /// by Gaussian elimination with partial pivoting that skips the exact
+    /// zeros of a network's sparse matrix ([`eliminate`]).
     pub fn response(&self, frequency_hz: f64) -> Result<Complex64, Singular> {
         let w = 2.0 * std::f64::consts::PI * frequency_hz;
+        let (mut a, mut b) = self.system(w);
+        let v = eliminate(&mut a, &mut b, self.size, self.out, self.row_end.clone());
+        match v {
+            Some(v) if v.re.is_finite() && v.im.is_finite() => Ok(v),
+            _ => Err(Singular { frequency_hz }),
+        }
+    }
+
+    /// The same response through nalgebra's dense LU decomposition: the
+    /// reference [`Solver::response`] is held to (see docs/performance.md).
+    pub fn response_reference(&self, frequency_hz: f64) -> Result<Complex64, Singular> {
+        let w = 2.0 * std::f64::consts::PI * frequency_hz;
         let singular = || Singular { frequency_hz };
-        let a = DMatrix::from_fn(self.size, self.size, |i, j| {
-            Complex64::new(
-                self.g[(i, j)],
-                w * self.c[(i, j)] - self.gamma[(i, j)] / w,
-            )
-        });
-        let b = self.rhs.map(|v| Complex64::new(v, 0.0));
+        let (a, b) = self.system(w);
+        let a = DMatrix::from_row_slice(self.size, self.size, &a);
+        let b = DVector::from_vec(b);
         let x = a.lu().solve(&b).ok_or_else(singular)?;
         let v = x[self.out];
         if v.re.is_finite() && v.im.is_finite() {
@@ -260,6 +298,72 @@ impl Solver {
     }
 }
 
+/// Solves `a x = b` (`a` row-major, `n` × `n`, both overwritten) for
+/// unknown `want` by Gaussian elimination with partial pivoting, the
+/// pivot chosen by largest |re|² + |im|² as a dense LU would. `end` holds,
+/// per row, one past its last column that may be non-zero (any larger
+/// figure is safe); it is kept up to date as rows mix, and a row whose
+/// entry below the pivot is exactly zero is left alone: on a network's
+/// sparse matrix this skips most of the work and changes no result, since
+/// the skipped operations would subtract exact zeros. `None` when a pivot
+/// is zero.
+pub fn eliminate(
+    a: &mut [Complex64],
+    b: &mut [Complex64],
+    n: usize,
+    want: usize,
+    mut end: Vec<usize>,
+) -> Option<Complex64> {
+    let zero = Complex64::new(0.0, 0.0);
+    for k in 0..n {
+        let mut p = k;
+        let mut best = a[k * n + k].norm_sqr();
+        for i in k + 1..n {
+            let v = a[i * n + k].norm_sqr();
+            if v > best {
+                best = v;
+                p = i;
+            }
+        }
+        if best == 0.0 || !best.is_finite() {
+            return None;
+        }
+        if p != k {
+            for j in k..n {
+                a.swap(k * n + j, p * n + j);
+            }
+            b.swap(k, p);
+            end.swap(k, p);
+        }
+        let pivot = a[k * n + k];
+        let last = end[k];
+        let (top, rest) = a.split_at_mut((k + 1) * n);
+        let row_k = &top[k * n..k * n + n];
+        for (r, row_i) in rest.chunks_exact_mut(n).enumerate() {
+            let f = row_i[k];
+            if f == zero {
+                continue;
+            }
+            let f = f / pivot;
+            row_i[k] = zero;
+            for j in k + 1..last {
+                row_i[j] -= f * row_k[j];
+            }
+            let i = k + 1 + r;
+            b[i] -= f * b[k];
+            end[i] = end[i].max(last);
+        }
+    }
+    // Back substitution, from the last unknown up to the one wanted.
+    for k in (want..n).rev() {
+        let mut s = b[k];
+        for j in k + 1..end[k] {
+            s -= a[k * n + j] * b[j];
+        }
+        b[k] = s / a[k * n + k];
+    }
+    Some(b[want])
+}
 /// Magnitude in dB, floored at −300 dB so a zero stays a number.
 pub fn db(h: Complex64) -> f64 {
     20.0 * h.norm().max(1e-15).log10()

@@ -189,7 +189,7 @@ fn fill(
             let resolved = resolve(&st, k, z, &[]);
             let solver = Solver::new(&resolved);
             out.curves
-                .push(curve(&solver, which, k, &resolved, freqs).map_err(singular)?);
+                .push(curve(&solver, which, k, &resolved, &st, freqs).map_err(singular)?);
         }
         if let Some(osc) = &net.oscillator {
             out.oscillator
@@ -222,8 +222,15 @@ fn curve(
     which: State,
     k: usize,
     resolved: &Resolved,
+    st: &NetworkState,
     freqs: &[f64],
 ) -> Result<CurveFindings, Singular> {
+    let label = |r: &str| {
+        st.parts.iter().find_map(|p| match &p.kind {
+            PartKind::Pot { label, .. } if p.reference.value == r => label.clone(),
+            _ => None,
+        })
+    };
     let h = |f: f64| solver.response(f);
     let mut magnitude_db = Vec::with_capacity(freqs.len());
     let mut phase_deg = Vec::with_capacity(freqs.len());
@@ -247,6 +254,7 @@ fn curve(
             .iter()
             .map(|(r, s)| PotSetting {
                 reference: r.clone(),
+                label: label(r),
                 setting: *s,
             })
             .collect(),

@@ -383,3 +383,68 @@ fn bad_networks_are_errors_with_a_reason() {
         );
     }
 }
+
+/// A generated network of `nodes` nodes: a chain so every node reaches
+/// ground, and parts between pseudo-random pairs (a fixed linear
+/// congruential sequence, so the test is the same every run).
+fn generated(nodes: usize, seed: u64) -> String {
+    let mut x = seed;
+    let mut next = move |m: u64| {
+        x = x.wrapping_mul(6364136223846793005).wrapping_add(1442695040888963407);
+        (x >> 33) % m
+    };
+    let mut s = String::from("source node=n0 impedance=\"22k\"\n");
+    s += &format!("load node=n{} resistance=\"470k\"\n", nodes - 1);
+    for k in 1..nodes {
+        s += &format!("resistor RC{k} value=\"{}k\" from=n{} to=n{k}\n", 1 + next(200), k - 1);
+    }
+    for i in 0..nodes * 2 {
+        let a = next(nodes as u64);
+        let b = next(nodes as u64);
+        let to = if a == b { "ground".to_string() } else { format!("n{b}") };
+        s += &match next(4) {
+            0 => format!("capacitor CX{i} value=\"{}n\" from=n{a} to={to}\n", 1 + next(100)),
+            1 => format!("resistor RX{i} value=\"{}k\" from=n{a} to={to}\n", 1 + next(500)),
+            2 => format!("inductor LX{i} value=\"{}m\" from=n{a} to={to}\n", 10 + next(900)),
+            _ => format!("capacitor CY{i} value=\"{}p\" from=n{a} to={to}\n", 10 + next(900)),
+        };
+    }
+    s
+}
+
+#[test]
+fn the_sparse_elimination_is_held_to_nalgebras_dense_lu() {
+    // nalgebra's LU decomposition is the reference (docs/performance.md).
+    let mut texts: Vec<String> = (0..12).map(|i| generated(3 + i * 3, 17 + i as u64)).collect();
+    texts.push(ladder(true));
+    texts.push(
+        "source node=in\nload node=out\nresistor R1 value=\"1k\" from=in to=out\nlink S1 from=out to=a\nresistor R2 value=\"2k\" from=a to=ground\n"
+            .to_string(),
+    );
+    let crosscheck = std::fs::read_to_string(concat!(env!("CARGO_MANIFEST_DIR"), "/tests/networks/crosscheck.kdl")).unwrap();
+    let ratings = RatingsTable::builtin();
+    let crosscheck = decode_with_ratings("c.kdl", &crosscheck, &ratings).unwrap().job;
+    let mut checked = 0;
+    let mut check = |j: &Job, net: &Network| {
+        for which in [State::Before, State::After] {
+            let st = state(net, which);
+            for k in 0..st.setting_count() {
+                let (resolved, _) = resolve_state(net, which, k, j, &ratings).unwrap();
+                let s = Solver::new(&resolved);
+                for f in log_sweep(1.0, 1e6, 10) {
+                    let (a, b) = (s.response(f).unwrap(), s.response_reference(f).unwrap());
+                    assert!((a - b).norm() <= 1e-9 * b.norm().max(1e-12), "{f} Hz: {a} against {b}");
+                    checked += 1;
+                }
+            }
+        }
+    };
+    for t in &texts {
+        let j = job(t);
+        check(&j, network(&j));
+    }
+    for m in &crosscheck.mods {
+        check(&crosscheck, m.network.as_ref().unwrap());
+    }
+    assert!(checked > 1000, "{checked}");
+}

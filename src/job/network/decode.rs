@@ -313,7 +313,7 @@ fn decode_part(node: &KdlNode, r: &mut Reader) -> Option<Part> {
     let kind = if kind_name == "pot" {
         r.check_entries(
             node,
-            &["value", "taper", "ccw", "wiper", "cw", "setting"],
+            &["value", "taper", "ccw", "wiper", "cw", "setting", "label"],
             1,
         );
         let value = r.req_prop_quantity(node, "value", Q::Resistance, example);
@@ -352,6 +352,7 @@ fn decode_part(node: &KdlNode, r: &mut Reader) -> Option<Part> {
                 return None;
             }
         };
+        let label = r.opt_prop_string(node, "label");
         PartKind::Pot {
             value: Ohms(value?.value),
             taper: taper?,
@@ -359,6 +360,7 @@ fn decode_part(node: &KdlNode, r: &mut Reader) -> Option<Part> {
             wiper: wiper?,
             cw,
             settings,
+            label,
         }
     } else {
         let link = kind_name == "link";

@@ -286,6 +286,8 @@ pub enum PartKind {
         /// Wiper settings 0–10, one per network setting (a single setting
         /// holds in all).
         settings: Vec<f64>,
+        /// What the knob is called on the panel ("treble").
+        label: Option<String>,
     },
 }
 

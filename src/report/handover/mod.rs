@@ -419,7 +419,7 @@ mod tests {
         assert_eq!(view.rows[0].at_1khz, one(net.curves[0].gain_1khz_db));
         assert_eq!(view.rows[4].at_5khz, one(net.curves[3].gain_5khz_db));
         assert!(view.rows[2].at_100hz.starts_with('+'), "{}", view.rows[2].at_100hz);
-        assert_eq!(view.rows[0].setting, "1: VR1 4, VR2 6, VR3 5");
+        assert_eq!(view.rows[0].setting, "1: treble 4, bass 6, middle 5");
         assert_eq!(view.edits, ["C5 250\u{a0}pF → 470\u{a0}pF", "R5 100\u{a0}kΩ → 56\u{a0}kΩ"]);
         let source = String::from_utf8(doc.sandbox.get(MAIN_SOURCE).unwrap().to_vec()).unwrap();
         assert!(source.contains("plots/network-mod-3.svg"));
