@@ -21,8 +21,15 @@ pub fn job_with_network(nodes: usize) -> String {
     let mut net = String::from("source node=n0 impedance=\"38k\"\n");
     net += &format!("load node=n{} resistance=\"1M\"\n", nodes - 1);
     for k in 1..nodes {
-        net += &format!("resistor R{k} value=\"{}k\" from=n{} to=n{k}\n", 10 + k, k - 1);
-        net += &format!("capacitor C{k} value=\"{}n\" from=n{k} to=ground\n", 1 + k % 7);
+        net += &format!(
+            "resistor R{k} value=\"{}k\" from=n{} to=n{k}\n",
+            10 + k,
+            k - 1
+        );
+        net += &format!(
+            "capacitor C{k} value=\"{}n\" from=n{k} to=ground\n",
+            1 + k % 7
+        );
         if k >= 2 && k % 3 == 0 {
             net += &format!("capacitor CB{k} value=\"470p\" from=n{} to=n{k}\n", k - 2);
         }
@@ -71,22 +78,71 @@ fn benches(c: &mut Criterion) {
             black_box(acc)
         })
     });
-    c.bench_function("network/30 nodes, 400 points, nalgebra dense LU (reference)", |b| {
-        b.iter(|| {
-            let (resolved, _) =
-                network::resolve_state(net, State::Before, 0, &job, &ratings).unwrap();
-            let solver = Solver::new(&resolved);
-            let mut acc = 0.0;
-            for &f in &freqs {
-                acc += solver.response_reference(black_box(f)).unwrap().norm();
-            }
-            black_box(acc)
-        })
-    });
-    c.bench_function("network/30 nodes, whole mod (2 settings, corners, 180° search)", |b| {
-        b.iter(|| black_box(network::derive(net, &job, &ratings)))
-    });
+    c.bench_function(
+        "network/30 nodes, 400 points, nalgebra dense LU (reference)",
+        |b| {
+            b.iter(|| {
+                let (resolved, _) =
+                    network::resolve_state(net, State::Before, 0, &job, &ratings).unwrap();
+                let solver = Solver::new(&resolved);
+                let mut acc = 0.0;
+                for &f in &freqs {
+                    acc += solver.response_reference(black_box(f)).unwrap().norm();
+                }
+                black_box(acc)
+            })
+        },
+    );
+    c.bench_function(
+        "network/30 nodes, whole mod (2 settings, corners, 180° search)",
+        |b| b.iter(|| black_box(network::derive(net, &job, &ratings))),
+    );
 }
 
-criterion_group!(network_benches, benches);
+/// The thread's own CPU time, which a busy shared machine does not inflate
+/// the way it inflates wall-clock time.
+fn thread_cpu_seconds() -> f64 {
+    let mut t = libc::timespec {
+        tv_sec: 0,
+        tv_nsec: 0,
+    };
+    // SAFETY: clock_gettime writes one timespec through a valid pointer.
+    unsafe { libc::clock_gettime(libc::CLOCK_THREAD_CPUTIME_ID, &mut t) };
+    t.tv_sec as f64 + t.tv_nsec as f64 * 1e-9
+}
+
+/// Prints the CPU time per 400-point sweep of the 30-node network, solver
+/// and reference, averaged over many sweeps.
+fn cpu_time(_: &mut Criterion) {
+    let ratings = RatingsTable::builtin();
+    let text = job_with_network(30);
+    let job = job::decode_with_ratings("bench.kdl", &text, &ratings)
+        .unwrap()
+        .job;
+    let net = job.mods[0].network.as_ref().unwrap();
+    let freqs = log_sweep(20.0, 20_000.0, 133);
+    let (resolved, _) = network::resolve_state(net, State::Before, 0, &job, &ratings).unwrap();
+    let solver = Solver::new(&resolved);
+    for (name, reference) in [("solver", false), ("nalgebra dense LU", true)] {
+        let runs = if reference { 20 } else { 100 };
+        let start = thread_cpu_seconds();
+        for _ in 0..runs {
+            for &f in &freqs {
+                let h = if reference {
+                    solver.response_reference(black_box(f))
+                } else {
+                    solver.response(black_box(f))
+                };
+                black_box(h.unwrap());
+            }
+        }
+        let per = (thread_cpu_seconds() - start) / f64::from(runs);
+        println!(
+            "network/30 nodes, 400 points, {name}: {:.3} ms of CPU time per sweep",
+            per * 1e3
+        );
+    }
+}
+
+criterion_group!(network_benches, benches, cpu_time);
 criterion_main!(network_benches);

@@ -97,14 +97,22 @@ fn calc_json() -> Value {
         .args(["calc", JOB, "--json"])
         .output()
         .unwrap();
-    assert!(out.status.success(), "{}", String::from_utf8_lossy(&out.stderr));
+    assert!(
+        out.status.success(),
+        "{}",
+        String::from_utf8_lossy(&out.stderr)
+    );
     serde_json::from_slice(&out.stdout).unwrap()
 }
 
 /// Every point within the tolerances; returns the worst differences.
 fn compare(case: &str, ours: &[(f64, f64, f64)], theirs: &[(f64, f64, f64)]) -> (f64, f64) {
     assert_eq!(ours.len(), 121, "{case}: the sweep has 121 points");
-    assert_eq!(theirs.len(), ours.len(), "{case}: the simulator's point count");
+    assert_eq!(
+        theirs.len(),
+        ours.len(),
+        "{case}: the simulator's point count"
+    );
     let (mut worst_db, mut worst_deg) = (0.0f64, 0.0f64);
     for (k, (a, b)) in ours.iter().zip(theirs).enumerate() {
         assert!(
@@ -150,7 +158,11 @@ fn the_solver_agrees_with_the_kept_simulator_results() {
             .join(format!("{}.txt", case.name()));
         let text = std::fs::read_to_string(&path)
             .unwrap_or_else(|e| panic!("{}: {e}; run scripts/ngspice-fixtures.sh", path.display()));
-        compare(&case.name(), &solver_curve(&json, case), &simulator_rows(&text));
+        compare(
+            &case.name(),
+            &solver_curve(&json, case),
+            &simulator_rows(&text),
+        );
     }
 }
 
@@ -164,7 +176,9 @@ fn have_ngspice() -> bool {
 #[test]
 fn the_solver_agrees_with_ngspice_run_now_on_the_written_netlists() {
     if !have_ngspice() {
-        eprintln!("ngspice is not installed: the live cross-check is skipped (the kept results still ran)");
+        eprintln!(
+            "ngspice is not installed: the live cross-check is skipped (the kept results still ran)"
+        );
         return;
     }
     let json = calc_json();
@@ -189,7 +203,11 @@ fn the_solver_agrees_with_ngspice_run_now_on_the_written_netlists() {
             .args(&args)
             .output()
             .unwrap();
-        assert!(out.status.success(), "{}", String::from_utf8_lossy(&out.stderr));
+        assert!(
+            out.status.success(),
+            "{}",
+            String::from_utf8_lossy(&out.stderr)
+        );
         let sim = Command::new("ngspice")
             .current_dir(dir.path())
             .arg("-b")
@@ -205,7 +223,9 @@ fn the_solver_agrees_with_ngspice_run_now_on_the_written_netlists() {
 fn the_kept_results_are_the_simulators_and_name_their_case() {
     // A fixture that lost its heading or rows would pass silently otherwise.
     for case in cases() {
-        let path: &Path = &root().join("tests/networks/ngspice").join(format!("{}.txt", case.name()));
+        let path: &Path = &root()
+            .join("tests/networks/ngspice")
+            .join(format!("{}.txt", case.name()));
         let text = std::fs::read_to_string(path).unwrap();
         let first = text.lines().next().unwrap();
         assert!(first.contains("ngspice-"), "{first}");
@@ -235,24 +255,41 @@ fn the_netlist_command_names_what_it_cannot_write() {
     let out = ampreport(&r, &["netlist", JOB, "--mod", "9"]);
     assert_eq!(out.status.code(), Some(2));
     let err = String::from_utf8_lossy(&out.stderr);
-    assert!(err.contains("there is no mod 9") && err.contains("mods with a network: 1, 2, 3, 4, 5"), "{err}");
+    assert!(
+        err.contains("there is no mod 9") && err.contains("mods with a network: 1, 2, 3, 4, 5"),
+        "{err}"
+    );
     let out = ampreport(&r, &["netlist", JOB, "--mod", "4", "--after"]);
     assert_eq!(out.status.code(), Some(2));
     assert!(String::from_utf8_lossy(&out.stderr).contains("no `after` edits"));
     let out = ampreport(&r, &["netlist", JOB, "--mod", "2", "--setting", "4"]);
     assert_eq!(out.status.code(), Some(2));
-    assert!(String::from_utf8_lossy(&out.stderr).contains("has 3 settings; --setting takes 1 to 3"));
-    let out = ampreport(&r, &["netlist", "jobs/combo-el84-cathode.kdl", "--mod", "1"]);
+    assert!(
+        String::from_utf8_lossy(&out.stderr).contains("has 3 settings; --setting takes 1 to 3")
+    );
+    let out = ampreport(
+        &r,
+        &["netlist", "jobs/combo-el84-cathode.kdl", "--mod", "1"],
+    );
     assert_eq!(out.status.code(), Some(2));
     assert!(String::from_utf8_lossy(&out.stderr).contains("no mod of this job has a network"));
     // A good one goes to standard output, with the analysis and the end.
-    let out = ampreport(&r, &["netlist", JOB, "--mod", "2", "--after", "--setting", "3"]);
+    let out = ampreport(
+        &r,
+        &["netlist", JOB, "--mod", "2", "--after", "--setting", "3"],
+    );
     assert!(out.status.success());
     let text = String::from_utf8_lossy(&out.stdout);
-    assert!(text.contains("\n.ac dec 40 2e1 2e4\n") && text.ends_with(".end\n"), "{text}");
+    assert!(
+        text.contains("\n.ac dec 40 2e1 2e4\n") && text.ends_with(".end\n"),
+        "{text}"
+    );
     assert!(text.contains("setting 3") && text.contains("after the mod"));
     // The after network has R1 56k and C1 470p (the mod's edits).
-    assert!(text.contains("\nR1 in a 5.6e4\n") && text.contains("\nC1 in t 4.7e-10\n"), "{text}");
+    assert!(
+        text.contains("\nR1 in a 5.6e4\n") && text.contains("\nC1 in t 4.7e-10\n"),
+        "{text}"
+    );
 }
 
 #[test]
@@ -266,15 +303,27 @@ fn a_singular_network_is_refused_at_its_line_and_column() {
         );
     std::fs::write(dir.path().join("bad.kdl"), &text).unwrap();
     let line = text.lines().position(|l| l.contains("C9")).unwrap() + 1;
-    let column = text.lines().nth(line - 1).unwrap().find("capacitor").unwrap() + 1;
+    let column = text
+        .lines()
+        .nth(line - 1)
+        .unwrap()
+        .find("capacitor")
+        .unwrap()
+        + 1;
     let out = ampreport(dir.path(), &["check", "bad.kdl"]);
     assert_eq!(out.status.code(), Some(1));
     let err = String::from_utf8_lossy(&out.stderr);
     assert!(err.contains(&format!("bad.kdl:{line}:{column}")), "{err}");
-    assert!(err.contains("nodes `p` and `q` connect to nothing that reaches ground"), "{err}");
+    assert!(
+        err.contains("nodes `p` and `q` connect to nothing that reaches ground"),
+        "{err}"
+    );
     // A failed netlist run writes no file.
     let target = dir.path().join("x.cir");
-    let out = ampreport(dir.path(), &["netlist", "bad.kdl", "--mod", "1", "-o", "x.cir"]);
+    let out = ampreport(
+        dir.path(),
+        &["netlist", "bad.kdl", "--mod", "1", "-o", "x.cir"],
+    );
     assert_eq!(out.status.code(), Some(1));
     assert!(!target.exists());
 }

@@ -555,7 +555,10 @@ fn mod_findings(
                 set: None,
                 subject: "network".into(),
                 status: Status::Caution,
-                message: format!("The network of the mod “{}” could not be worked out: {problem}.", m.what),
+                message: format!(
+                    "The network of the mod “{}” could not be worked out: {problem}.",
+                    m.what
+                ),
             });
         }
         found

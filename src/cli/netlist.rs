@@ -64,17 +64,24 @@ pub fn run(args: &NetlistArgs) -> Exit {
             which.word(),
             args.mod_number,
             if count == 1 { "" } else { "s" },
-            if count == 1 { String::new() } else { format!(" to {count}") }
+            if count == 1 {
+                String::new()
+            } else {
+                format!(" to {count}")
+            }
         ));
     }
-    let (resolved, source) =
-        match resolve_state(net, which, args.setting - 1, job, &loaded.ratings) {
-            Ok(r) => r,
-            Err(problem) => {
-                eprintln!("error: the network of mod {} cannot be written: {problem}", args.mod_number);
-                return Exit::InvalidInput;
-            }
-        };
+    let (resolved, source) = match resolve_state(net, which, args.setting - 1, job, &loaded.ratings)
+    {
+        Ok(r) => r,
+        Err(problem) => {
+            eprintln!(
+                "error: the network of mod {} cannot be written: {problem}",
+                args.mod_number
+            );
+            return Exit::InvalidInput;
+        }
+    };
     let heading = NetlistHeading {
         job_id: &job.info.id,
         mod_number: args.mod_number,

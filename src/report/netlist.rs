@@ -49,7 +49,13 @@ impl Names {
     fn claim(&mut self, wanted: &str, letter: Option<char>) -> String {
         let mut base: String = wanted
             .chars()
-            .map(|c| if c.is_ascii_alphanumeric() || c == '_' { c } else { '_' })
+            .map(|c| {
+                if c.is_ascii_alphanumeric() || c == '_' {
+                    c
+                } else {
+                    '_'
+                }
+            })
             .collect();
         if base.is_empty() {
             base.push('n');
@@ -111,9 +117,15 @@ pub fn spice(heading: &NetlistHeading<'_>, net: &Resolved, source: &SourceFindin
             .iter()
             .map(|(r, s)| format!("{} at {}", comment(r), crate::units::format_sig(*s, 3)))
             .collect();
-        line(&mut out, &format!("* pot settings (0-10): {}", pots.join(", ")));
+        line(
+            &mut out,
+            &format!("* pot settings (0-10): {}", pots.join(", ")),
+        );
     }
-    line(&mut out, &format!("* source: {}", comment(&source.description)));
+    line(
+        &mut out,
+        &format!("* source: {}", comment(&source.description)),
+    );
 
     let mut names = Names::new();
     let mut nodes = Names::new();
@@ -132,7 +144,10 @@ pub fn spice(heading: &NetlistHeading<'_>, net: &Resolved, source: &SourceFindin
         .collect();
     line(&mut out, "* node ground = 0");
     if !renamed.is_empty() {
-        line(&mut out, &format!("* nodes renamed: {}", renamed.join(", ")));
+        line(
+            &mut out,
+            &format!("* nodes renamed: {}", renamed.join(", ")),
+        );
     }
     let src = &node_names[net.source_node];
     let vs = names.claim(SOURCE_NAME, Some('V'));
@@ -206,7 +221,13 @@ mod tests {
     #[test]
     fn names_are_safe_unique_and_typed() {
         let net = Resolved {
-            nodes: vec!["ground".into(), "in".into(), "B+1".into(), "b+1".into(), "IN".into()],
+            nodes: vec![
+                "ground".into(),
+                "in".into(),
+                "B+1".into(),
+                "b+1".into(),
+                "IN".into(),
+            ],
             elements: vec![
                 Element {
                     name: "VR1.ccw".into(),

@@ -119,13 +119,30 @@ pub fn response_svg(chart: &ResponseChart) -> Result<String, PlotError> {
     Ok(svg)
 }
 
-/// The legend's entries: (marker index or none for a line sample, dashed,
-/// text).
-fn legend(chart: &ResponseChart) -> Vec<(Option<usize>, bool, String)> {
+/// One entry of the legend: a setting's marker, or a line sample (dashed
+/// or solid), and its text.
+struct LegendEntry {
+    marker: Option<usize>,
+    dashed: bool,
+    text: String,
+    /// Room it takes in its row, pixels.
+    width: f64,
+}
+
+fn legend(chart: &ResponseChart) -> Vec<LegendEntry> {
     let mut out = Vec::new();
+    let mut push = |marker, dashed, text: String| {
+        let width = 34.0 + text_width(&text, 13) + 18.0;
+        out.push(LegendEntry {
+            marker,
+            dashed,
+            text,
+            width,
+        });
+    };
     if chart.has_after {
-        out.push((None, true, "before the mod".to_string()));
-        out.push((None, false, "after".to_string()));
+        push(None, true, "before the mod".to_string());
+        push(None, false, "after".to_string());
     }
     let many = chart.settings.len() > 1;
     for (k, words) in chart.settings.iter().enumerate() {
@@ -134,7 +151,7 @@ fn legend(chart: &ResponseChart) -> Vec<(Option<usize>, bool, String)> {
         } else {
             format!("pots at {words}")
         };
-        out.push((many.then_some(k), false, label_text(&text, 60)));
+        push(many.then_some(k), false, label_text(&text, 60));
     }
     out
 }
@@ -144,20 +161,18 @@ fn draw(chart: &ResponseChart, svg: &mut String) -> Result<(), String> {
     root.fill(&PAPER).map_err(|e| e.to_string())?;
 
     // Legend rows first: they decide the top margin.
-    let entries = legend(chart);
     let width = f64::from(RESPONSE_SIZE.0) - 90.0;
-    let mut rows: Vec<Vec<(Option<usize>, bool, String, f64)>> = vec![Vec::new()];
+    let mut rows: Vec<Vec<LegendEntry>> = vec![Vec::new()];
     let mut x = 0.0;
-    for (m, dashed, text) in entries {
-        let w = 34.0 + text_width(&text, 13) + 18.0;
-        if x + w > width && !rows.last().is_some_and(Vec::is_empty) {
+    for entry in legend(chart) {
+        if x + entry.width > width && !rows.last().is_some_and(Vec::is_empty) {
             rows.push(Vec::new());
             x = 0.0;
         }
+        x += entry.width;
         if let Some(row) = rows.last_mut() {
-            row.push((m, dashed, text, w));
+            row.push(entry);
         }
-        x += w;
     }
     let rows: Vec<_> = rows.into_iter().filter(|r| !r.is_empty()).collect();
     let legend_height = 20 * rows.len() as u32;
@@ -175,7 +190,9 @@ fn draw(chart: &ResponseChart, svg: &mut String) -> Result<(), String> {
         (-20.0, 0.0)
     };
     let top = ((hi + 1.5) / 5.0).ceil() * 5.0;
-    let bottom = (((lo - 1.5) / 5.0).floor() * 5.0).max(top - RANGE_DB).min(top - 10.0);
+    let bottom = (((lo - 1.5) / 5.0).floor() * 5.0)
+        .max(top - RANGE_DB)
+        .min(top - 10.0);
     let step = if top - bottom > 30.0 { 10.0 } else { 5.0 };
 
     let mut ctx = ChartBuilder::on(&root)
@@ -207,8 +224,11 @@ fn draw(chart: &ResponseChart, svg: &mut String) -> Result<(), String> {
         let (x, y0) = ctx.backend_coord(&(f, bottom));
         let (_, y1) = ctx.backend_coord(&(f, top));
         if f > F_START && f < F_STOP {
-            root.draw(&PathElement::new(vec![(x, y0), (x, y1)], GRID.stroke_width(1)))
-                .map_err(|e| e.to_string())?;
+            root.draw(&PathElement::new(
+                vec![(x, y0), (x, y1)],
+                GRID.stroke_width(1),
+            ))
+            .map_err(|e| e.to_string())?;
         }
         root.draw(&Text::new(
             text,
@@ -259,27 +279,33 @@ fn draw(chart: &ResponseChart, svg: &mut String) -> Result<(), String> {
     let mut y = 14;
     for row in &rows {
         let mut x = xl;
-        for (m, dashed, text, w) in row {
+        for entry in row {
             let (x0, x1) = (x, x + 26);
-            match (m, dashed) {
+            match (entry.marker, entry.dashed) {
                 (Some(k), _) => {
-                    root.draw(&PathElement::new(vec![(x0, y), (x1, y)], DARK.stroke_width(1)))
-                        .map_err(|e| e.to_string())?;
-                    draw_marker(&root, (x0 + 13, y), marker(*k))?;
+                    root.draw(&PathElement::new(
+                        vec![(x0, y), (x1, y)],
+                        DARK.stroke_width(1),
+                    ))
+                    .map_err(|e| e.to_string())?;
+                    draw_marker(&root, (x0 + 13, y), marker(k))?;
                 }
                 (None, true) => dashed_path(&root, &[(x0, y), (x1, y)], MID.stroke_width(2))?,
                 (None, false) => {
-                    root.draw(&PathElement::new(vec![(x0, y), (x1, y)], INK.stroke_width(2)))
-                        .map_err(|e| e.to_string())?;
+                    root.draw(&PathElement::new(
+                        vec![(x0, y), (x1, y)],
+                        INK.stroke_width(2),
+                    ))
+                    .map_err(|e| e.to_string())?;
                 }
             }
             root.draw(&Text::new(
-                text.as_str(),
+                entry.text.as_str(),
                 (x1 + 8, y),
                 anchored(13, HPos::Left, VPos::Center),
             ))
             .map_err(|e| e.to_string())?;
-            x += *w as i32;
+            x += entry.width as i32;
         }
         y += 20;
     }

@@ -81,10 +81,7 @@ pub fn corners(
         return Ok(Vec::new());
     };
     let beyond = db(h(first / REFERENCE_REACH)?).max(db(h(last * REFERENCE_REACH)?));
-    let top = mag_db
-        .iter()
-        .copied()
-        .fold(beyond, f64::max);
+    let top = mag_db.iter().copied().fold(beyond, f64::max);
     let line = top - HALF_POWER_DB;
     let g = |f: f64| h(f).map(|v| db(v) - line);
     let mut out = Vec::new();
@@ -117,7 +114,10 @@ pub fn scoop(
         if !(mag_db[k] < mag_db[k - 1] && mag_db[k] <= mag_db[k + 1]) {
             continue;
         }
-        let left = mag_db[..k].iter().copied().fold(f64::NEG_INFINITY, f64::max);
+        let left = mag_db[..k]
+            .iter()
+            .copied()
+            .fold(f64::NEG_INFINITY, f64::max);
         let right = mag_db[k + 1..]
             .iter()
             .copied()
@@ -155,7 +155,10 @@ pub fn scoop(
     }
     let f = ((a + b) / 2.0).exp();
     let gain = m(f.ln())?;
-    let left = mag_db[..k].iter().copied().fold(f64::NEG_INFINITY, f64::max);
+    let left = mag_db[..k]
+        .iter()
+        .copied()
+        .fold(f64::NEG_INFINITY, f64::max);
     let right = mag_db[k + 1..]
         .iter()
         .copied()

@@ -20,8 +20,8 @@ pub use sweep::{F_START, F_STOP, POINTS_PER_DECADE, SPOT_FREQUENCIES, audio_swee
 pub use taper::{AUDIO_MIDPOINT, END_RESIDUAL, fraction, split};
 
 use crate::calc::circuit::{gain_bypassed, gain_unbypassed, parallel};
-use crate::job::network::{Edit, Network, NetworkState, PartKind, Source, SourceImpedance};
 use crate::job::Job;
+use crate::job::network::{Edit, Network, NetworkState, PartKind, Source, SourceImpedance};
 use crate::ratings::RatingsTable;
 use crate::units::{Ohms, QuantityKind as Q, format_engineering};
 
@@ -97,9 +97,16 @@ pub fn source_figures(
                 Some(rk) => (
                     Ohms(ra.0 + (mu + 1.0) * rk.0),
                     gain_unbypassed(mu, ra, *plate_load, *rk),
-                    format!(", cathode resistor {} unbypassed: (ra + (μ + 1)·Rk) ∥ RL", ohms(rk.0)),
+                    format!(
+                        ", cathode resistor {} unbypassed: (ra + (μ + 1)·Rk) ∥ RL",
+                        ohms(rk.0)
+                    ),
                 ),
-                None => (ra, gain_bypassed(mu, ra, *plate_load), ": ra ∥ RL".to_string()),
+                None => (
+                    ra,
+                    gain_bypassed(mu, ra, *plate_load),
+                    ": ra ∥ RL".to_string(),
+                ),
             };
             let z = parallel(inner, *plate_load);
             SourceFindings {
@@ -171,9 +178,8 @@ fn fill(
     } else {
         &[State::Before]
     };
-    let singular = |e: Singular| {
-        format!("{e}: some node is left without a path to ground at that frequency")
-    };
+    let singular =
+        |e: Singular| format!("{e}: some node is left without a path to ground at that frequency");
     for &which in states {
         let st = state(net, which);
         let source = source_figures(&st.source, which, job, ratings)?;
@@ -192,16 +198,16 @@ fn fill(
                 .push(curve(&solver, which, k, &resolved, &st, freqs).map_err(singular)?);
         }
         if let Some(osc) = &net.oscillator {
-            out.oscillator
-                .push(oscillate(&st, which, z, osc.speed.as_ref().map(|s| s.value.as_str()))
-                    .map_err(singular)?);
+            out.oscillator.push(
+                oscillate(&st, which, z, osc.speed.as_ref().map(|s| s.value.as_str()))
+                    .map_err(singular)?,
+            );
         }
     }
     if net.has_after() {
         let before: Vec<&CurveFindings> =
             out.curves.iter().filter(|c| c.state == "before").collect();
-        let after: Vec<&CurveFindings> =
-            out.curves.iter().filter(|c| c.state == "after").collect();
+        let after: Vec<&CurveFindings> = out.curves.iter().filter(|c| c.state == "after").collect();
         let n = before.len().max(after.len());
         for k in 0..n {
             let b = before[k.min(before.len() - 1)];
@@ -240,12 +246,13 @@ fn curve(
         phase_deg.push(degrees(v));
     }
     let spot = |f: f64| h(f).map(db);
-    let (top, top_at) = magnitude_db
-        .iter()
-        .zip(freqs)
-        .fold((f64::NEG_INFINITY, 0.0), |(m, at), (&v, &f)| {
-            if v > m { (v, f) } else { (m, at) }
-        });
+    let (top, top_at) =
+        magnitude_db
+            .iter()
+            .zip(freqs)
+            .fold((f64::NEG_INFINITY, 0.0), |(m, at), (&v, &f)| {
+                if v > m { (v, f) } else { (m, at) }
+            });
     Ok(CurveFindings {
         state: which.word(),
         setting: k + 1,
@@ -325,7 +332,8 @@ pub fn edit_words(net: &Network) -> Vec<String> {
     let mut current = net.before.clone();
     let mut out = Vec::new();
     for edit in &net.edits {
-        let find = |r: &str, st: &NetworkState| st.parts.iter().find(|p| p.reference.value == r).cloned();
+        let find =
+            |r: &str, st: &NetworkState| st.parts.iter().find(|p| p.reference.value == r).cloned();
         match edit {
             Edit::Change {
                 reference,
@@ -346,7 +354,8 @@ pub fn edit_words(net: &Network) -> Vec<String> {
                     ));
                 }
                 if let Some(s) = settings {
-                    let list: Vec<String> = s.iter().map(|v| crate::units::format_sig(*v, 3)).collect();
+                    let list: Vec<String> =
+                        s.iter().map(|v| crate::units::format_sig(*v, 3)).collect();
                     bits.push(format!("set to {}", list.join(", ")));
                 }
                 if let Some(t) = taper {
@@ -357,11 +366,9 @@ pub fn edit_words(net: &Network) -> Vec<String> {
             Edit::Remove { reference, .. } => {
                 let was = find(&reference.value, &current);
                 out.push(match was {
-                    Some(p) if !matches!(p.kind, PartKind::Link { .. }) => format!(
-                        "{} ({}) removed",
-                        reference.value,
-                        value_words(&p.kind)
-                    ),
+                    Some(p) if !matches!(p.kind, PartKind::Link { .. }) => {
+                        format!("{} ({}) removed", reference.value, value_words(&p.kind))
+                    }
                     _ => format!("{} removed", reference.value),
                 });
             }

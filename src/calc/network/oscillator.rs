@@ -24,7 +24,9 @@ pub struct Crossing {
 }
 
 /// The 180° point needing the least gain, if the phase gets there at all.
-pub fn half_turn(h: &dyn Fn(f64) -> Result<Complex64, Singular>) -> Result<Option<Crossing>, Singular> {
+pub fn half_turn(
+    h: &dyn Fn(f64) -> Result<Complex64, Singular>,
+) -> Result<Option<Crossing>, Singular> {
     let freqs = log_sweep(SEARCH_START_HZ, SEARCH_STOP_HZ, SEARCH_PER_DECADE);
     let mut values = Vec::with_capacity(freqs.len());
     for &f in &freqs {

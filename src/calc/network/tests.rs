@@ -89,7 +89,11 @@ fn rc_low_pass_matches_the_first_order_formula() {
     assert_eq!(c.corners.len(), 1);
     assert_eq!(c.corners[0].kind, CornerKind::HighCut);
     // Within 0.1 % of the textbook corner.
-    assert!(rel(c.corners[0].frequency_hz, fc) < 1e-3, "{}", c.corners[0].frequency_hz);
+    assert!(
+        rel(c.corners[0].frequency_hz, fc) < 1e-3,
+        "{}",
+        c.corners[0].frequency_hz
+    );
     assert!(c.scoop.is_none());
     assert_eq!(c.magnitude_db.len(), 121);
 }
@@ -148,8 +152,17 @@ fn three_equal_sections_turn_half_way_at_the_textbook_frequency_and_lose_29_time
     let p = &found.oscillator[0].points[0];
     let f = p.frequency_hz.unwrap();
     assert!(rel(f, 1.0 / (TAU * r * c * 6f64.sqrt())) < 1e-3, "{f}");
-    assert!(rel(p.gain_needed.unwrap(), 29.0) < 1e-3, "{:?}", p.gain_needed);
-    assert!(rel(f, crate::calc::phase_shift_frequency(Ohms(r), crate::units::Farads(c)).0) < 1e-9);
+    assert!(
+        rel(p.gain_needed.unwrap(), 29.0) < 1e-3,
+        "{:?}",
+        p.gain_needed
+    );
+    assert!(
+        rel(
+            f,
+            crate::calc::phase_shift_frequency(Ohms(r), crate::units::Farads(c)).0
+        ) < 1e-9
+    );
     // Series R, shunt C: f = √6/(2πRC), again 1/29 (textbook).
     let j = job(&ladder(false));
     let found = derive(network(&j), &j, &RatingsTable::builtin());
@@ -228,7 +241,12 @@ fn a_valve_source_has_ra_parallel_plate_load_output_impedance() {
     "#);
     let found = derive(network(&j), &j, &RatingsTable::builtin());
     // Unbypassed: (ra + (μ+1)·Rk) ∥ RL = (62.5k + 151.5k) ∥ 100k = 68.153 kΩ (textbook).
-    assert!(rel(found.sources[0].impedance_ohms.unwrap(), 214e3 * 100e3 / 314e3) < 1e-9);
+    assert!(
+        rel(
+            found.sources[0].impedance_ohms.unwrap(),
+            214e3 * 100e3 / 314e3
+        ) < 1e-9
+    );
 }
 
 #[test]
@@ -270,7 +288,11 @@ fn edits_make_the_after_network_and_its_changes() {
     "#);
     let net = network(&j);
     let after = net.after();
-    let refs: Vec<&str> = after.parts.iter().map(|p| p.reference.value.as_str()).collect();
+    let refs: Vec<&str> = after
+        .parts
+        .iter()
+        .map(|p| p.reference.value.as_str())
+        .collect();
     assert_eq!(refs, ["R1", "C1", "C9"]);
     assert_eq!(after.parts[0].kind.value(), Some(47e3));
     let found = derive(net, &j, &RatingsTable::builtin());
@@ -291,22 +313,29 @@ fn edits_make_the_after_network_and_its_changes() {
 
 #[test]
 fn a_floating_node_is_an_error_at_its_line_naming_it() {
-    let p = problems(r#"
+    let p = problems(
+        r#"
         source node=in
         load node=out
         resistor R1 value="1k" from=in to=out
         resistor R2 value="1k" from=out to=ground
         capacitor C1 value="1n" from=x to=y
-    "#);
+    "#,
+    );
     assert_eq!(p.len(), 1, "{p:?}");
     // Line 17 of the job text: the capacitor.
     assert_eq!(p[0].0, 17);
-    assert!(p[0].1.contains("nodes `x` and `y`") && p[0].1.contains("C1"), "{}", p[0].1);
+    assert!(
+        p[0].1.contains("nodes `x` and `y`") && p[0].1.contains("C1"),
+        "{}",
+        p[0].1
+    );
 }
 
 #[test]
 fn a_removal_that_leaves_a_node_floating_points_at_the_removal() {
-    let p = problems(r#"
+    let p = problems(
+        r#"
         source node=in
         load node=out
         resistor R1 value="1k" from=in to=out
@@ -316,7 +345,8 @@ fn a_removal_that_leaves_a_node_floating_points_at_the_removal() {
         after {
             remove R3
         }
-    "#);
+    "#,
+    );
     assert_eq!(p.len(), 1, "{p:?}");
     assert_eq!(p[0].0, 20, "{p:?}");
     assert!(
@@ -327,53 +357,105 @@ fn a_removal_that_leaves_a_node_floating_points_at_the_removal() {
 
 #[test]
 fn loops_of_ideal_connections_are_errors_naming_the_parts() {
-    let p = problems(r#"
+    let p = problems(
+        r#"
         source node=in
         load node=out
         resistor R1 value="1k" from=in to=out
         link S1 from=out to=a
         link S2 from=a to=ground
         link S3 from=ground to=out
-    "#);
+    "#,
+    );
     assert_eq!(p.len(), 1, "{p:?}");
     assert_eq!(p[0].0, 18);
     assert!(p[0].1.contains("S2, S1 and S3 form a loop"), "{}", p[0].1);
-    let p = problems(r#"
+    let p = problems(
+        r#"
         source node=in
         load node=out
         resistor R1 value="1k" from=in to=out
         resistor R2 value="1k" from=out to=ground
         link S1 from=in to=ground
-    "#);
+    "#,
+    );
     assert_eq!(p.len(), 1, "{p:?}");
-    assert!(p[0].1.contains("the source and S1") && p[0].1.contains("shorted"), "{}", p[0].1);
-    let p = problems(r#"
+    assert!(
+        p[0].1.contains("the source and S1") && p[0].1.contains("shorted"),
+        "{}",
+        p[0].1
+    );
+    let p = problems(
+        r#"
         source node=in impedance="1k"
         load node=out
         resistor R1 value="1k" from=in to=out
         resistor R2 value="1k" from=out to=ground
         link S1 from=in to=a
         link S2 from=a to=in
-    "#);
-    assert!(p[0].1.contains("S1 and S2") && p[0].1.contains("loop"), "{p:?}");
+    "#,
+    );
+    assert!(
+        p[0].1.contains("S1 and S2") && p[0].1.contains("loop"),
+        "{p:?}"
+    );
 }
 
 #[test]
 fn bad_networks_are_errors_with_a_reason() {
     let cases: &[(&str, &str)] = &[
-        ("source node=in\nresistor R1 value=\"1k\" from=in to=ground", "needs a `load`"),
-        ("source node=ground\nload node=out\nresistor R1 value=\"1k\" from=out to=ground", "cannot sit on `ground`"),
-        ("source node=in\nload node=out\nresistor R1 value=\"1k\" from=in to=0", "reference node"),
-        ("source node=in\nload node=out\nresistor R1 value=\"1k\" from=in to=in", "to itself"),
-        ("source node=in\nload node=out resistance=\"1M\"\nresistor R1 value=\"1k\" from=in to=ground", "no part leads"),
-        ("source node=in\nload node=out\nresistor R1 value=\"-1k\" from=in to=out", "negative"),
-        ("source node=in\nload node=out\npot VR1 value=\"1M\" ccw=ground wiper=out cw=in setting=11", "0 to 10"),
-        ("source node=in\nload node=out\npot VR1 value=\"1M\" ccw=ground wiper=out cw=in setting=\"1 2\"\npot VR2 value=\"1M\" ccw=ground wiper=out cw=in setting=\"1 2 3\"", "settings"),
-        ("source node=in\nload node=out\nresistor R1 value=\"1k\" from=in to=out\nafter {\nchange R9 value=\"2k\"\n}", "no part R9"),
-        ("source node=in\nload node=out\nresistor R1 value=\"1k\" from=in to=out\nafter {\nresistor R1 value=\"2k\" from=in to=out\n}", "already has a part R1"),
-        ("source node=in valve=V2 plate-load=\"5k\"\nload node=out\nresistor R1 value=\"1k\" from=in to=out", "no typical μ and ra"),
-        ("source node=in\nload node=out\ninductor L1 value=\"10uF\" from=in to=out", "inductance"),
-        ("source node=in\nload node=out\nresistor R1 value=\"1k\" from=in to=out\noscillator speed=VR7", "not a pot"),
+        (
+            "source node=in\nresistor R1 value=\"1k\" from=in to=ground",
+            "needs a `load`",
+        ),
+        (
+            "source node=ground\nload node=out\nresistor R1 value=\"1k\" from=out to=ground",
+            "cannot sit on `ground`",
+        ),
+        (
+            "source node=in\nload node=out\nresistor R1 value=\"1k\" from=in to=0",
+            "reference node",
+        ),
+        (
+            "source node=in\nload node=out\nresistor R1 value=\"1k\" from=in to=in",
+            "to itself",
+        ),
+        (
+            "source node=in\nload node=out resistance=\"1M\"\nresistor R1 value=\"1k\" from=in to=ground",
+            "no part leads",
+        ),
+        (
+            "source node=in\nload node=out\nresistor R1 value=\"-1k\" from=in to=out",
+            "negative",
+        ),
+        (
+            "source node=in\nload node=out\npot VR1 value=\"1M\" ccw=ground wiper=out cw=in setting=11",
+            "0 to 10",
+        ),
+        (
+            "source node=in\nload node=out\npot VR1 value=\"1M\" ccw=ground wiper=out cw=in setting=\"1 2\"\npot VR2 value=\"1M\" ccw=ground wiper=out cw=in setting=\"1 2 3\"",
+            "settings",
+        ),
+        (
+            "source node=in\nload node=out\nresistor R1 value=\"1k\" from=in to=out\nafter {\nchange R9 value=\"2k\"\n}",
+            "no part R9",
+        ),
+        (
+            "source node=in\nload node=out\nresistor R1 value=\"1k\" from=in to=out\nafter {\nresistor R1 value=\"2k\" from=in to=out\n}",
+            "already has a part R1",
+        ),
+        (
+            "source node=in valve=V2 plate-load=\"5k\"\nload node=out\nresistor R1 value=\"1k\" from=in to=out",
+            "no typical μ and ra",
+        ),
+        (
+            "source node=in\nload node=out\ninductor L1 value=\"10uF\" from=in to=out",
+            "inductance",
+        ),
+        (
+            "source node=in\nload node=out\nresistor R1 value=\"1k\" from=in to=out\noscillator speed=VR7",
+            "not a pot",
+        ),
     ];
     for (net, want) in cases {
         let p = problems(net);
@@ -390,23 +472,45 @@ fn bad_networks_are_errors_with_a_reason() {
 fn generated(nodes: usize, seed: u64) -> String {
     let mut x = seed;
     let mut next = move |m: u64| {
-        x = x.wrapping_mul(6364136223846793005).wrapping_add(1442695040888963407);
+        x = x
+            .wrapping_mul(6364136223846793005)
+            .wrapping_add(1442695040888963407);
         (x >> 33) % m
     };
     let mut s = String::from("source node=n0 impedance=\"22k\"\n");
     s += &format!("load node=n{} resistance=\"470k\"\n", nodes - 1);
     for k in 1..nodes {
-        s += &format!("resistor RC{k} value=\"{}k\" from=n{} to=n{k}\n", 1 + next(200), k - 1);
+        s += &format!(
+            "resistor RC{k} value=\"{}k\" from=n{} to=n{k}\n",
+            1 + next(200),
+            k - 1
+        );
     }
     for i in 0..nodes * 2 {
         let a = next(nodes as u64);
         let b = next(nodes as u64);
-        let to = if a == b { "ground".to_string() } else { format!("n{b}") };
+        let to = if a == b {
+            "ground".to_string()
+        } else {
+            format!("n{b}")
+        };
         s += &match next(4) {
-            0 => format!("capacitor CX{i} value=\"{}n\" from=n{a} to={to}\n", 1 + next(100)),
-            1 => format!("resistor RX{i} value=\"{}k\" from=n{a} to={to}\n", 1 + next(500)),
-            2 => format!("inductor LX{i} value=\"{}m\" from=n{a} to={to}\n", 10 + next(900)),
-            _ => format!("capacitor CY{i} value=\"{}p\" from=n{a} to={to}\n", 10 + next(900)),
+            0 => format!(
+                "capacitor CX{i} value=\"{}n\" from=n{a} to={to}\n",
+                1 + next(100)
+            ),
+            1 => format!(
+                "resistor RX{i} value=\"{}k\" from=n{a} to={to}\n",
+                1 + next(500)
+            ),
+            2 => format!(
+                "inductor LX{i} value=\"{}m\" from=n{a} to={to}\n",
+                10 + next(900)
+            ),
+            _ => format!(
+                "capacitor CY{i} value=\"{}p\" from=n{a} to={to}\n",
+                10 + next(900)
+            ),
         };
     }
     s
@@ -415,15 +519,23 @@ fn generated(nodes: usize, seed: u64) -> String {
 #[test]
 fn the_sparse_elimination_is_held_to_nalgebras_dense_lu() {
     // nalgebra's LU decomposition is the reference (docs/performance.md).
-    let mut texts: Vec<String> = (0..12).map(|i| generated(3 + i * 3, 17 + i as u64)).collect();
+    let mut texts: Vec<String> = (0..12)
+        .map(|i| generated(3 + i * 3, 17 + i as u64))
+        .collect();
     texts.push(ladder(true));
     texts.push(
         "source node=in\nload node=out\nresistor R1 value=\"1k\" from=in to=out\nlink S1 from=out to=a\nresistor R2 value=\"2k\" from=a to=ground\n"
             .to_string(),
     );
-    let crosscheck = std::fs::read_to_string(concat!(env!("CARGO_MANIFEST_DIR"), "/tests/networks/crosscheck.kdl")).unwrap();
+    let crosscheck = std::fs::read_to_string(concat!(
+        env!("CARGO_MANIFEST_DIR"),
+        "/tests/networks/crosscheck.kdl"
+    ))
+    .unwrap();
     let ratings = RatingsTable::builtin();
-    let crosscheck = decode_with_ratings("c.kdl", &crosscheck, &ratings).unwrap().job;
+    let crosscheck = decode_with_ratings("c.kdl", &crosscheck, &ratings)
+        .unwrap()
+        .job;
     let mut checked = 0;
     let mut check = |j: &Job, net: &Network| {
         for which in [State::Before, State::After] {
@@ -433,7 +545,10 @@ fn the_sparse_elimination_is_held_to_nalgebras_dense_lu() {
                 let s = Solver::new(&resolved);
                 for f in log_sweep(1.0, 1e6, 10) {
                     let (a, b) = (s.response(f).unwrap(), s.response_reference(f).unwrap());
-                    assert!((a - b).norm() <= 1e-9 * b.norm().max(1e-12), "{f} Hz: {a} against {b}");
+                    assert!(
+                        (a - b).norm() <= 1e-9 * b.norm().max(1e-12),
+                        "{f} Hz: {a} against {b}"
+                    );
                     checked += 1;
                 }
             }

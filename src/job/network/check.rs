@@ -50,7 +50,10 @@ pub fn check(job: &Job, ratings: Option<&RatingsTable>) -> Vec<DecodeError> {
                 out.push(DecodeError::error(
                     "job::unknown-part",
                     speed.span,
-                    format!("the speed pot {} is removed by the mod's edits", speed.value),
+                    format!(
+                        "the speed pot {} is removed by the mod's edits",
+                        speed.value
+                    ),
                     "not in the network as left",
                 ));
             }
@@ -208,7 +211,11 @@ fn check_state(
     edited: Option<&Network>,
     out: &mut Vec<DecodeError>,
 ) {
-    let after = if edited.is_some() { " after the mod's edits" } else { "" };
+    let after = if edited.is_some() {
+        " after the mod's edits"
+    } else {
+        ""
+    };
     let src = &state.source.node;
     let load = &state.load.node;
     if src.value == GROUND {
@@ -332,8 +339,10 @@ fn check_state(
             through.join(a, b);
         }
     }
-    if let (Some(&s), Some(&l)) = (index.get(src.value.as_str()), index.get(load.value.as_str()))
-        && through.root(s) != through.root(l)
+    if let (Some(&s), Some(&l)) = (
+        index.get(src.value.as_str()),
+        index.get(load.value.as_str()),
+    ) && through.root(s) != through.root(l)
     {
         out.push(
             DecodeError::error(
@@ -408,7 +417,10 @@ fn blame_for(
                     .parts
                     .iter()
                     .find(|p| p.reference.value == reference.value)
-                && part.nodes().iter().any(|n| group.contains(&n.value.as_str()))
+                && part
+                    .nodes()
+                    .iter()
+                    .any(|n| group.contains(&n.value.as_str()))
             {
                 return *span;
             }

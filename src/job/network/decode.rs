@@ -140,7 +140,10 @@ pub fn decode_network(node: &KdlNode, r: &mut Reader) -> Option<Network> {
                 DecodeError::error(
                     "job::unknown-part",
                     speed.span,
-                    format!("the speed control {} is not a pot of this network", speed.value),
+                    format!(
+                        "the speed control {} is not a pot of this network",
+                        speed.value
+                    ),
                     "no such pot",
                 )
                 .with_help(if pots.is_empty() {
@@ -217,7 +220,13 @@ fn ground_lookalike(r: &mut Reader, name: &Spanned<String>) {
 fn decode_source(node: &KdlNode, r: &mut Reader) -> Option<Source> {
     r.check_entries(
         node,
-        &["node", "impedance", "valve", "plate-load", "cathode-resistor"],
+        &[
+            "node",
+            "impedance",
+            "valve",
+            "plate-load",
+            "cathode-resistor",
+        ],
         0,
     );
     r.no_children(node);
@@ -242,7 +251,9 @@ fn decode_source(node: &KdlNode, r: &mut Reader) -> Option<Source> {
             }
             let q = r.quantity(z, Q::Resistance, "`impedance`");
             let q = r.positive(q, "a source impedance", false)?;
-            SourceImpedance::Given { ohms: Ohms(q.value) }
+            SourceImpedance::Given {
+                ohms: Ohms(q.value),
+            }
         }
         (Some(z), Some(_)) => {
             r.push(
@@ -364,7 +375,15 @@ fn decode_part(node: &KdlNode, r: &mut Reader) -> Option<Part> {
         }
     } else {
         let link = kind_name == "link";
-        r.check_entries(node, if link { &["from", "to"] } else { &["value", "from", "to"] }, 1);
+        r.check_entries(
+            node,
+            if link {
+                &["from", "to"]
+            } else {
+                &["value", "from", "to"]
+            },
+            1,
+        );
         let value = if link {
             None
         } else {
@@ -380,7 +399,11 @@ fn decode_part(node: &KdlNode, r: &mut Reader) -> Option<Part> {
         let b = node_name(r, node, "to", example);
         let (a, b) = (a?, b?);
         match (kind_name, value) {
-            ("resistor", Some(v)) => PartKind::Resistor { value: Ohms(v), a, b },
+            ("resistor", Some(v)) => PartKind::Resistor {
+                value: Ohms(v),
+                a,
+                b,
+            },
             ("capacitor", Some(v)) => PartKind::Capacitor {
                 value: Farads(v),
                 a,
@@ -654,12 +677,10 @@ fn decode_after(node: &KdlNode, before: &NetworkState, r: &mut Reader) -> Vec<Ed
                     continue;
                 };
                 if present.iter().any(|(p, _)| *p == part.reference.value) {
-                    r.push(
-                        repeated_reference(&part).with_help(format!(
-                            "to change it write `change {} value=…`; to replace it, `remove {}` first",
-                            part.reference.value, part.reference.value
-                        )),
-                    );
+                    r.push(repeated_reference(&part).with_help(format!(
+                        "to change it write `change {} value=…`; to replace it, `remove {}` first",
+                        part.reference.value, part.reference.value
+                    )));
                     continue;
                 }
                 present.push((part.reference.value.clone(), part.kind.clone()));
@@ -675,7 +696,9 @@ fn decode_after(node: &KdlNode, before: &NetworkState, r: &mut Reader) -> Vec<Ed
                 "the `after` block changes nothing",
                 "no edits",
             )
-            .with_help("write the edits that make the network as left: change, remove, or a new part"),
+            .with_help(
+                "write the edits that make the network as left: change, remove, or a new part",
+            ),
         );
     }
     out

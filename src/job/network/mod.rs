@@ -159,10 +159,9 @@ impl NetworkState {
         self.parts
             .iter()
             .filter_map(|p| match &p.kind {
-                PartKind::Pot { settings, .. } => Some((
-                    p.reference.value.clone(),
-                    pick_setting(settings, index),
-                )),
+                PartKind::Pot { settings, .. } => {
+                    Some((p.reference.value.clone(), pick_setting(settings, index)))
+                }
                 _ => None,
             })
             .collect()
@@ -238,9 +237,11 @@ impl Part {
             | PartKind::Capacitor { a, b, .. }
             | PartKind::Inductor { a, b, .. }
             | PartKind::Link { a, b } => vec![a, b],
-            PartKind::Pot { ccw, wiper, cw, .. } => {
-                ccw.iter().chain(std::iter::once(wiper)).chain(cw.iter()).collect()
-            }
+            PartKind::Pot { ccw, wiper, cw, .. } => ccw
+                .iter()
+                .chain(std::iter::once(wiper))
+                .chain(cw.iter())
+                .collect(),
         }
     }
 

@@ -17,10 +17,10 @@ use crate::calc::{
 use crate::job::{Job, ProtectionClass};
 
 mod network_view;
+use crate::units::{QuantityKind as Q, format_engineering, format_fixed, format_sig};
 pub use network_view::{
     NetworkRow, NetworkView, OscillatorRow, OscillatorView, network_plot_path, network_view,
 };
-use crate::units::{QuantityKind as Q, format_engineering, format_fixed, format_sig};
 
 /// The footer shows at most this much of the job id (the header has it all).
 pub const FOOTER_ID_CHARS: usize = 40;

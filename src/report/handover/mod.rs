@@ -18,9 +18,9 @@ use sha2::{Digest, Sha256};
 pub use context::{
     CapacitorRow, ContextInputs, CustomerInfo, DISSIPATION_PLOT, DocumentInfo, Footer, Glance,
     GlanceRow, HandoverContext, HeaterRow, JobInfo, LineUpRow, MainsInfo, Method, ModFigureRow,
-    ModRow, NetworkRow, NetworkView, NodeRow, OscillatorRow, OscillatorView, PartRow, Plots, RatingRow, RectifierRow, ResistorRow, SUPPLY_PLOT,
-    SafetyContext, SafetyRow, SetContext, ShopBlock, UnitInfo, ValveRow, WarningRow, WindowReading,
-    WindowRow, build_context, date_words,
+    ModRow, NetworkRow, NetworkView, NodeRow, OscillatorRow, OscillatorView, PartRow, Plots,
+    RatingRow, RectifierRow, ResistorRow, SUPPLY_PLOT, SafetyContext, SafetyRow, SetContext,
+    ShopBlock, UnitInfo, ValveRow, WarningRow, WindowReading, WindowRow, build_context, date_words,
 };
 
 use super::network_chart;
@@ -405,25 +405,51 @@ mod tests {
     fn a_mods_network_reaches_the_document_with_its_chart_and_figures() {
         let (job, findings, text) = demo("combo-6v6-fixed.kdl");
         let doc = document(&job, &findings, &text);
-        let view = doc.context.mods[2].network.as_ref().expect("the tone network");
+        let view = doc.context.mods[2]
+            .network
+            .as_ref()
+            .expect("the tone network");
         let net = findings.mods[2].network.as_ref().unwrap();
         assert_eq!(view.plot.as_deref(), Some("plots/network-mod-3.svg"));
-        let svg = doc.sandbox.get("plots/network-mod-3.svg").expect("the chart");
+        let svg = doc
+            .sandbox
+            .get("plots/network-mod-3.svg")
+            .expect("the chart");
         assert!(String::from_utf8_lossy(svg).contains("before the mod"));
         // Two settings, each a before, an after and a change row.
         assert_eq!(view.rows.len(), 6);
         let kinds: Vec<&str> = view.rows.iter().map(|r| r.kind.as_str()).collect();
-        assert_eq!(kinds, ["before", "after", "change", "before", "after", "change"]);
+        assert_eq!(
+            kinds,
+            ["before", "after", "change", "before", "after", "change"]
+        );
         // The figures are calc's, to one decimal.
-        let one = |v: f64| format!("{}\u{a0}dB", crate::units::format_fixed(v, 1).replace('-', "\u{2212}"));
+        let one = |v: f64| {
+            format!(
+                "{}\u{a0}dB",
+                crate::units::format_fixed(v, 1).replace('-', "\u{2212}")
+            )
+        };
         assert_eq!(view.rows[0].at_1khz, one(net.curves[0].gain_1khz_db));
         assert_eq!(view.rows[4].at_5khz, one(net.curves[3].gain_5khz_db));
-        assert!(view.rows[2].at_100hz.starts_with('+'), "{}", view.rows[2].at_100hz);
+        assert!(
+            view.rows[2].at_100hz.starts_with('+'),
+            "{}",
+            view.rows[2].at_100hz
+        );
         assert_eq!(view.rows[0].setting, "1: treble 4, bass 6, middle 5");
-        assert_eq!(view.edits, ["C5 250\u{a0}pF → 470\u{a0}pF", "R5 100\u{a0}kΩ → 56\u{a0}kΩ"]);
+        assert_eq!(
+            view.edits,
+            [
+                "C5 250\u{a0}pF → 470\u{a0}pF",
+                "R5 100\u{a0}kΩ → 56\u{a0}kΩ"
+            ]
+        );
         let source = String::from_utf8(doc.sandbox.get(MAIN_SOURCE).unwrap().to_vec()).unwrap();
         assert!(source.contains("plots/network-mod-3.svg"));
-        assert!(source.contains("Pot settings \\(0–10\\)") || source.contains("Pot settings (0–10)"));
+        assert!(
+            source.contains("Pot settings \\(0–10\\)") || source.contains("Pot settings (0–10)")
+        );
         assert!(source.contains(&crate::typeset::escape_markup(&view.rows[3].feature)));
     }
 

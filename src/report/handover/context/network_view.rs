@@ -173,7 +173,12 @@ pub fn network_view(index: usize, net: &NetworkFindings) -> NetworkView {
         .map(|s| {
             let gain = s
                 .stage_gain
-                .map(|g| format!(" Its own gain, about {}, is left out of the curves.", fixed(g, 0)))
+                .map(|g| {
+                    format!(
+                        " Its own gain, about {}, is left out of the curves.",
+                        fixed(g, 0)
+                    )
+                })
                 .unwrap_or_default();
             let when = if net.sources.len() > 1 {
                 format!(" ({})", s.state)
@@ -182,8 +187,7 @@ pub fn network_view(index: usize, net: &NetworkFindings) -> NetworkView {
             };
             glue_units(&format!(
                 "Driven at node {}{when} by {}.{gain}",
-                s.node,
-                s.description
+                s.node, s.description
             ))
         })
         .collect();
@@ -208,14 +212,16 @@ pub fn network_view(index: usize, net: &NetworkFindings) -> NetworkView {
 fn oscillator_view(net: &NetworkFindings) -> Option<OscillatorView> {
     let before = net.oscillator.iter().find(|o| o.state == "before")?;
     let after = net.oscillator.iter().find(|o| o.state == "after");
-    let rate = |p: Option<&crate::calc::network::OscillatorPoint>| match p.and_then(|p| p.frequency_hz) {
-        Some(f) => hz(f),
-        None => "never 180°".to_string(),
-    };
-    let gain = |p: Option<&crate::calc::network::OscillatorPoint>| match p.and_then(|p| p.gain_needed) {
-        Some(g) => format!("{}×", fixed(g, 1)),
-        None => "–".to_string(),
-    };
+    let rate =
+        |p: Option<&crate::calc::network::OscillatorPoint>| match p.and_then(|p| p.frequency_hz) {
+            Some(f) => hz(f),
+            None => "never 180°".to_string(),
+        };
+    let gain =
+        |p: Option<&crate::calc::network::OscillatorPoint>| match p.and_then(|p| p.gain_needed) {
+            Some(g) => format!("{}×", fixed(g, 1)),
+            None => "–".to_string(),
+        };
     let rows = before
         .points
         .iter()
@@ -226,8 +232,16 @@ fn oscillator_view(net: &NetworkFindings) -> Option<OscillatorView> {
                 setting: crate::units::format_sig(p.setting, 3),
                 before_rate: rate(Some(p)),
                 before_gain: gain(Some(p)),
-                after_rate: if after.is_some() { rate(a) } else { String::new() },
-                after_gain: if after.is_some() { gain(a) } else { String::new() },
+                after_rate: if after.is_some() {
+                    rate(a)
+                } else {
+                    String::new()
+                },
+                after_gain: if after.is_some() {
+                    gain(a)
+                } else {
+                    String::new()
+                },
             }
         })
         .collect();
