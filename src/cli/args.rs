@@ -2,6 +2,7 @@
 
 use clap::{Args, Parser, Subcommand};
 use std::path::PathBuf;
+use std::time::Duration;
 
 #[derive(Debug, Parser)]
 #[command(
@@ -12,7 +13,7 @@ use std::path::PathBuf;
 derives plate and screen dissipation, mains-corrected and high-line figures and the stress on \
 resistors and capacitors, and prints them or typesets a PDF hand-over document.",
     after_help = "Exit status: 0 success; 1 the job file (or a ratings file) is invalid or unreadable; \
-2 the command line is wrong; 3 the tool's environment failed (e.g. typst missing); 4 --strict found a figure over its limit."
+2 the command line is wrong (also: an output that must not be written); 3 the tool's environment failed (e.g. typst missing, failing or too slow); 4 --strict found a figure over its limit."
 )]
 pub struct Cli {
     #[command(subcommand)]
@@ -76,9 +77,40 @@ pub struct RenderArgs {
     /// A folder of templates that replace the built-in ones by file name.
     #[arg(long, value_name = "DIR")]
     pub templates: Option<PathBuf>,
-    /// Also write the generated Typst source and its assets to this folder.
+    /// Also write the generated Typst source and its assets to this folder
+    /// (new or empty; see --force).
     #[arg(long, value_name = "DIR")]
     pub emit_source: Option<PathBuf>,
+    /// Let --emit-source replace everything in a folder that is not empty.
+    #[arg(long, requires = "emit_source")]
+    pub force: bool,
+    /// Stop typst after this many seconds (each run: the version check, the compile).
+    #[arg(
+        long,
+        value_name = "SECONDS",
+        env = "AMPREPORT_TIMEOUT",
+        default_value = "120",
+        value_parser = parse_timeout
+    )]
+    pub timeout: Duration,
+}
+
+/// The longest `--timeout` accepted: one day.
+pub const MAX_TIMEOUT_SECONDS: f64 = 86_400.0;
+
+/// A number of seconds, more than 0 and at most [`MAX_TIMEOUT_SECONDS`]
+/// (fractions allowed).
+fn parse_timeout(text: &str) -> Result<Duration, String> {
+    let seconds: f64 = text
+        .trim()
+        .parse()
+        .map_err(|_| format!("`{text}` is not a number of seconds"))?;
+    if !(seconds > 0.0 && seconds <= MAX_TIMEOUT_SECONDS) {
+        return Err(format!(
+            "the time limit must be more than 0 and at most {MAX_TIMEOUT_SECONDS} seconds"
+        ));
+    }
+    Ok(Duration::from_secs_f64(seconds))
 }
 
 #[derive(Debug, Args)]

@@ -40,6 +40,9 @@ pub fn main() -> ExitCode {
         args::Command::Init(a) => init::run(a),
         args::Command::Netlist(a) => netlist::run(a),
     };
+    if let Exit::Interrupted(signal) = exit {
+        crate::typeset::interrupt::exit_as_signalled(signal);
+    }
     exit.into()
 }
 

@@ -3,9 +3,13 @@
 //! source to a folder, and compiles the PDF atomically.
 //!
 //! Exit statuses: 1 when the job, a ratings file or a shop's own template
-//! (`--templates`) is at fault; 3 when the set-up is (typst missing, too old
-//! or unusable, a folder that cannot be written) or when typst rejects the
-//! built-in template, which is a fault of the tool itself.
+//! (`--templates`) is at fault; 2 when the output or the `--emit-source`
+//! folder may not be written (it is an input, a link, a device, a folder
+//! with other files in it); 3 when the set-up is (typst missing, too old,
+//! unusable, crashing, hanging past `--timeout`, a folder that cannot be
+//! written) or when typst rejects the built-in template, which is a fault
+//! of the tool itself; 128 + N after signal N (SIGINT, SIGTERM, SIGHUP),
+//! with the temporary files removed and typst stopped.
 
 use std::path::{Path, PathBuf};
 
@@ -14,9 +18,16 @@ use super::exit::Exit;
 use super::load;
 use crate::calc;
 use crate::report::handover::{self, HandoverError, HandoverInput, ShopBlock};
-use crate::typeset::{self, TemplateSource, TypesetError};
+use crate::typeset::{
+    self, CompileOptions, Input, TemplateSource, TypesetError, TypstProgram, interrupt,
+};
 
 pub fn run(args: &RenderArgs) -> Exit {
+    // From here a stop signal is noted rather than fatal: each step below
+    // that makes temporary files or waits on typst ends cleanly on it.
+    if let Err(e) = interrupt::install() {
+        eprintln!("warning: stop signals will end ampreport without clean-up: {e}");
+    }
     // typst answers `--version` while the job is read; a problem with the
     // job is still reported first.
     let pending = typeset::start_locate(args.typst.as_deref());
@@ -35,12 +46,9 @@ pub fn run(args: &RenderArgs) -> Exit {
         Err(e) => return e,
     };
 
-    let program = match pending.finish() {
+    let program = match pending.finish_within(args.timeout) {
         Ok(p) => p,
-        Err(e) => {
-            eprintln!("{:?}", miette::Report::new(e));
-            return Exit::Environment;
-        }
+        Err(e) => return report_typeset_error(e, &templates, None),
     };
     if let Some(warning) = program.version_warning() {
         eprintln!("warning: {warning}");
@@ -62,9 +70,26 @@ pub fn run(args: &RenderArgs) -> Exit {
         .output
         .clone()
         .unwrap_or_else(|| default_output(&args.job.job));
+    let inputs = inputs_read(args, &program);
+    if let Err(e) = typeset::check_output(&output, &inputs) {
+        eprintln!("{:?}", miette::Report::new(e));
+        return Exit::Usage;
+    }
 
     if let Some(dir) = &args.emit_source {
-        if let Err(e) = typeset::emit_source(&document.sandbox, dir) {
+        if let Err(e) = typeset::check_emit_folder(dir, &inputs, &output, args.force) {
+            eprintln!("{:?}", miette::Report::new(e));
+            return Exit::Usage;
+        }
+        let written = if args.force {
+            typeset::emit_source_replacing(&document.sandbox, dir)
+        } else {
+            typeset::emit_source(&document.sandbox, dir)
+        };
+        if let Some(signal) = interrupt::received() {
+            return report_typeset_error(TypesetError::Interrupted { signal }, &templates, None);
+        }
+        if let Err(e) = written {
             eprintln!(
                 "error: could not write the generated source to {}: {e}",
                 dir.display()
@@ -78,11 +103,15 @@ pub fn run(args: &RenderArgs) -> Exit {
         );
     }
 
+    let options = CompileOptions {
+        timeout: args.timeout,
+        ..document.options.clone()
+    };
     match typeset::compile(
         &program,
         &document.sandbox,
         document.main,
-        &document.options,
+        &options,
         &output,
     ) {
         Ok(outcome) => {
@@ -92,25 +121,64 @@ pub fn run(args: &RenderArgs) -> Exit {
             println!("wrote {}", output.display());
             Exit::Success
         }
-        Err(e) => {
-            let status = match &e {
-                TypesetError::Compile { .. } if templates.override_dir.is_some() => {
-                    Exit::InvalidInput
-                }
-                _ => Exit::Environment,
-            };
-            if matches!(e, TypesetError::Compile { .. }) && templates.override_dir.is_none() {
-                eprintln!(
-                    "note: the built-in template failed to compile; this is a fault in ampreport, please report it"
-                );
-            }
-            eprintln!("{:?}", miette::Report::new(e));
-            if output.exists() {
-                eprintln!("note: {} was left as it was", output.display());
-            }
-            status
-        }
+        Err(e) => report_typeset_error(e, &templates, Some(&output)),
     }
+}
+
+/// Every path the render reads, for the output checks: an output may be
+/// none of them, and the `--emit-source` folder may hold none of them.
+fn inputs_read(args: &RenderArgs, program: &TypstProgram) -> Vec<Input> {
+    let mut inputs = vec![Input::new(&args.job.job, "the job file")];
+    inputs.extend(
+        args.job
+            .ratings
+            .iter()
+            .map(|r| Input::new(r, "a ratings file")),
+    );
+    if let Some(dir) = &args.templates {
+        inputs.push(Input::new(dir, "the template folder"));
+    }
+    inputs.push(Input::new(&program.path, "the typst program"));
+    inputs
+}
+
+/// Prints a typesetting failure with whose fault it likely is, and gives
+/// the exit status: 1 when a shop's template is at fault, 2 for an output
+/// that may not be written, 3 for typst or the machine (and for the
+/// built-in template, a fault of ampreport itself), 128 + N for signal N.
+fn report_typeset_error(
+    e: TypesetError,
+    templates: &TemplateSource,
+    output: Option<&Path>,
+) -> Exit {
+    let shop = templates.override_dir.as_deref();
+    let status = match &e {
+        TypesetError::Interrupted { signal } => Exit::Interrupted(*signal),
+        TypesetError::Output(_) => Exit::Usage,
+        TypesetError::Compile { .. } | TypesetError::MissingText { .. } => match shop {
+            Some(dir) => {
+                eprintln!(
+                    "note: the document from the shop templates in {} failed; the templates are at fault, not the job",
+                    dir.display()
+                );
+                Exit::InvalidInput
+            }
+            None => {
+                eprintln!(
+                    "note: the built-in template failed; this is a fault in ampreport, please report it"
+                );
+                Exit::Environment
+            }
+        },
+        _ => Exit::Environment,
+    };
+    eprintln!("{:?}", miette::Report::new(e));
+    if let Some(output) = output
+        && output.exists()
+    {
+        eprintln!("note: {} was left as it was", output.display());
+    }
+    status
 }
 
 /// A warning for each text value of the job holding characters the
@@ -183,7 +251,8 @@ fn report_build_error(e: HandoverError) -> Exit {
             from_override: true,
             ..
         }
-        | HandoverError::Image { .. } => Exit::InvalidInput,
+        | HandoverError::Image { .. }
+        | HandoverError::Refused(_) => Exit::InvalidInput,
         HandoverError::Template {
             from_override: false,
             ..

@@ -1,20 +1,58 @@
 //! Running `typst compile` on a sandbox and putting the PDF in place
-//! atomically: the PDF is written to a temporary file beside the destination
-//! and renamed over it only when typst succeeded, so a failed run never
-//! leaves half a file or replaces a good one. The bundled fonts come from
-//! the per-user font cache, or from the sandbox when that cannot be used.
+//! atomically. typst writes into the sandbox folder; what it wrote must be
+//! a complete PDF (and carry any required text) before it is copied to a
+//! temporary file beside the destination, flushed to disk and renamed over
+//! it. So a failed, killed, hung or misbehaving typst, a stop signal or a
+//! `kill -9` never leaves half a file at the destination or replaces a good
+//! one, and whatever a killed run leaves behind is removed by the next run
+//! ([`super::leftovers`]). The bundled fonts come from the per-user font
+//! cache, or from the sandbox when that cannot be used.
 
 use std::ffi::OsString;
+use std::io::Write;
 use std::path::{Path, PathBuf};
-use std::process::{Command, Stdio};
+use std::process::Command;
+use std::time::Duration;
 
 use chrono::NaiveDate;
 
+use super::child::{Running, Stopped, describe_status};
 use super::error::TypesetError;
 use super::font_cache::{ensure_font_cache, user_cache_root};
 use super::fonts::{FONT_DIR, write_fonts};
+use super::interrupt;
+use super::leftovers::{LockedDir, locked_file, sweep};
 use super::locate::TypstProgram;
+use super::output::{check_output, parent_folder};
+use super::pdf_check::{MAX_PDF_BYTES, incomplete, missing_phrases};
 use super::sandbox::{Sandbox, native_path};
+
+/// How long typst may take for one run (`--version` or a compile) before it
+/// is stopped, unless the caller says otherwise.
+pub const DEFAULT_TIMEOUT: Duration = Duration::from_secs(120);
+
+/// The name a typesetting folder starts with in the temporary folder.
+pub const WORK_PREFIX: &str = "ampreport-typeset-";
+
+/// The name a failed run's kept source folder starts with.
+pub const KEPT_PREFIX: &str = "ampreport-source-";
+
+/// The end of the name of the temporary file beside the destination.
+pub const PARTIAL_SUFFIX: &str = ".ampreport-part";
+
+/// How much of typst's standard error is kept; the rest is counted.
+const STDERR_CAP: usize = 256 * 1024;
+/// How much of typst's standard output is kept (it prints nothing useful).
+const STDOUT_CAP: usize = 16 * 1024;
+
+/// Text a finished document must show, checked in the PDF itself.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub struct RequiredText {
+    /// What the text is, for the error: "the mains-safety notice".
+    pub what: String,
+    /// Phrases that must each appear (whitespace does not matter).
+    pub phrases: Vec<String>,
+}
 
 /// The PDF standard asked for unless the caller says otherwise: PDF/A-2b,
 /// for archiving (embedded fonts, no external references).
@@ -31,6 +69,10 @@ pub struct CompileOptions {
     /// Where typst reads the bundled fonts from. The PDF is the same
     /// whichever is used.
     pub fonts: FontPlace,
+    /// How long typst may run before it is stopped.
+    pub timeout: Duration,
+    /// Text the PDF must show, or `None`.
+    pub required_text: Option<RequiredText>,
 }
 
 /// Where the bundled fonts are put for typst.
@@ -65,6 +107,8 @@ impl CompileOptions {
             creation,
             pdf_standard: Some(DEFAULT_PDF_STANDARD.to_owned()),
             fonts: FontPlace::UserCache,
+            timeout: DEFAULT_TIMEOUT,
+            required_text: None,
         }
     }
 
@@ -92,9 +136,11 @@ pub struct CompileOutcome {
 /// The sandbox is written to a fresh temporary folder that becomes typst's
 /// root. The bundled fonts come from the font cache ([`FontPlace`]), or are
 /// written into that folder when the cache cannot be used; system fonts and
-/// typst's own fonts are turned off. On failure the folder is kept (without
-/// the fonts) and its path is in the error; `output` is left exactly as it
-/// was.
+/// typst's own fonts are turned off. typst gets `opts.timeout`; its output is
+/// read with a bound. On failure the source folder is kept (without the
+/// fonts) and its path is in the error; `output` is left exactly as it was.
+/// `output` must pass [`check_output`] (checked here again just before the
+/// rename, without inputs; the caller checks it against its inputs first).
 pub fn compile(
     program: &TypstProgram,
     sandbox: &Sandbox,
@@ -108,102 +154,215 @@ pub fn compile(
             reason: "it is not one of the sandbox files",
         });
     }
+    check_output(output, &[])?;
+    stop_if_interrupted()?;
 
-    let root = tempfile::Builder::new()
-        .prefix("ampreport-typeset-")
-        .tempdir()
-        .map_err(|e| TypesetError::io("create a folder in", std::env::temp_dir(), e))?;
-    sandbox
-        .write_files(root.path())
-        .map_err(|e| TypesetError::io("write the typesetting files to", root.path(), e))?;
+    let temp = std::env::temp_dir();
+    sweep(&temp, |name| name.starts_with(WORK_PREFIX));
+    let work = LockedDir::new(&temp, WORK_PREFIX, None)
+        .map_err(|e| TypesetError::io("create a folder in", &temp, e))?;
+    let root = work.path().join("source");
+    std::fs::create_dir(&root)
+        .and_then(|()| sandbox.write_files(&root))
+        .map_err(|e| TypesetError::io("write the typesetting files to", &root, e))?;
     let fonts = match font_cache(&opts.fonts) {
         Some(dir) => FontsUsed::Cache(dir),
         None => {
-            write_fonts(root.path())
-                .map_err(|e| TypesetError::io("write the fonts to", root.path(), e))?;
+            write_fonts(&root).map_err(|e| TypesetError::io("write the fonts to", &root, e))?;
             FontsUsed::Sandbox
         }
     };
     let font_dir = match &fonts {
         FontsUsed::Cache(dir) => dir.clone(),
-        FontsUsed::Sandbox => root.path().join(FONT_DIR),
+        FontsUsed::Sandbox => root.join(FONT_DIR),
     };
 
-    let out_dir = match output.parent() {
-        Some(dir) if !dir.as_os_str().is_empty() => dir,
-        _ => Path::new("."),
-    };
-    let stem = output
-        .file_name()
-        .map(|n| n.to_string_lossy().into_owned())
-        .unwrap_or_default();
-    let partial = tempfile::Builder::new()
-        .prefix(&format!(".{stem}."))
-        .suffix(".part")
-        .tempfile_in(out_dir)
-        .map_err(|e| TypesetError::io("create a temporary file in", out_dir, e))?;
-
-    let main_path = native_path(root.path(), main);
-    let run = Command::new(&program.path)
-        .args(arguments(
-            root.path(),
-            &font_dir,
-            &main_path,
-            opts,
-            partial.path(),
-        ))
-        .current_dir(root.path())
+    let written = work.path().join("document.pdf");
+    let main_path = native_path(&root, main);
+    let mut command = Command::new(&program.path);
+    command
+        .args(arguments(&root, &font_dir, &main_path, opts, &written))
+        .current_dir(&root)
         // Flags below override their environment twins; these have none.
-        .env_remove("TYPST_FEATURES")
-        .stdin(Stdio::null())
-        .stdout(Stdio::piped())
-        .stderr(Stdio::piped())
-        .output()
-        .map_err(|source| TypesetError::Unusable {
+        .env_remove("TYPST_FEATURES");
+    let run = Running::spawn(command, STDOUT_CAP, STDERR_CAP).map_err(|source| {
+        TypesetError::Unusable {
             path: program.path.clone(),
             problem: format!("it failed to start ({source})"),
             source: Some(source),
-        })?;
-    let stderr = String::from_utf8_lossy(&run.stderr).trim().to_owned();
-
-    let wrote_pdf = std::fs::read(partial.path())
-        .map(|bytes| bytes.starts_with(b"%PDF-"))
-        .unwrap_or(false);
-    if !run.status.success() || !wrote_pdf {
-        // `partial` is deleted when it goes out of scope; the sources stay.
-        let status = if run.status.success() {
-            "it reported success but wrote no PDF".to_owned()
-        } else {
-            run.status.to_string()
-        };
-        let _ = std::fs::remove_dir_all(root.path().join(FONT_DIR));
-        let kept = root.keep();
-        let diagnostics = if stderr.is_empty() {
-            "(typst printed no messages)".to_owned()
-        } else {
-            stderr
-        };
-        return Err(TypesetError::Compile {
-            diagnostics,
-            status,
-            main: native_path(&kept, main),
-            kept,
-        });
-    }
-
-    match std::fs::metadata(output) {
-        Ok(existing) => {
-            let _ = std::fs::set_permissions(partial.path(), existing.permissions());
         }
-        Err(_) => set_readable(partial.path()),
+    })?;
+    let keep = |work: LockedDir| keep_source(work, &root);
+    let finished = match run.wait(opts.timeout) {
+        Ok(finished) => finished,
+        Err(Stopped::Interrupted(signal)) => return Err(TypesetError::Interrupted { signal }),
+        Err(Stopped::TimedOut { stderr }) => {
+            return Err(TypesetError::TimedOut {
+                path: program.path.clone(),
+                action: "compile",
+                seconds: opts.timeout.as_secs_f64(),
+                diagnostics: stderr.text(),
+            });
+        }
+        Err(Stopped::Failed(e)) => {
+            return Err(TypesetError::io("wait for typst compiling", &main_path, e));
+        }
+    };
+    let stderr = finished.stderr.text();
+    let misbehaved =
+        |work: LockedDir, what: String, diagnostics: String| TypesetError::Misbehaved {
+            path: program.path.clone(),
+            what,
+            diagnostics,
+            kept: keep(work),
+        };
+
+    if !finished.status.success() {
+        let status = describe_status(&finished.status);
+        // typst reports a document it cannot compile with status 1 and its
+        // reasons; anything else is the program failing.
+        if finished.status.code() == Some(1) && !stderr.is_empty() {
+            let kept = keep(work);
+            return Err(TypesetError::Compile {
+                diagnostics: stderr,
+                status,
+                main: native_path(&kept, main),
+                kept,
+            });
+        }
+        let what = match finished.status.code() {
+            Some(1) => format!("{status} and printed no messages"),
+            Some(101) => format!("{status}, which is how a Rust program reports a crash"),
+            Some(_) => format!("{status}, which typst does not use for a document error"),
+            None => status,
+        };
+        return Err(misbehaved(work, what, stderr));
     }
-    partial
-        .persist(output)
-        .map_err(|e| TypesetError::io("write the PDF to", output, e.error))?;
+
+    let size = match std::fs::metadata(&written) {
+        Ok(meta) if meta.is_file() => meta.len(),
+        _ => {
+            return Err(misbehaved(
+                work,
+                "reported success but wrote no file".into(),
+                stderr,
+            ));
+        }
+    };
+    if size > MAX_PDF_BYTES {
+        return Err(misbehaved(
+            work,
+            format!(
+                "reported success but wrote {size} bytes, more than the {MAX_PDF_BYTES} a document may have"
+            ),
+            stderr,
+        ));
+    }
+    let bytes = std::fs::read(&written)
+        .map_err(|e| TypesetError::io("read the PDF typst wrote to", &written, e))?;
+    let document = match incomplete(&bytes) {
+        Ok(document) => document,
+        Err(why) => {
+            return Err(misbehaved(
+                work,
+                format!("reported success but wrote an incomplete file: {why}"),
+                stderr,
+            ));
+        }
+    };
+    if let Some(required) = &opts.required_text {
+        let missing = missing_phrases(&document, &required.phrases);
+        if !missing.is_empty() {
+            return Err(TypesetError::MissingText {
+                what: required.what.clone(),
+                missing: missing.into_iter().map(str::to_owned).collect(),
+                kept: keep(work),
+            });
+        }
+    }
+    drop(document);
+
+    place(&bytes, output)?;
+    drop(work);
     Ok(CompileOutcome {
         warnings: stderr,
         fonts,
     })
+}
+
+/// Writes `bytes` to a locked temporary file beside `output`, flushes it to
+/// disk and renames it over `output`, unless a stop signal came first. A new
+/// file gets the usual permissions less the umask; a replaced one keeps its
+/// permissions.
+fn place(bytes: &[u8], output: &Path) -> Result<(), TypesetError> {
+    let out_dir = parent_folder(output);
+    sweep(out_dir, |name| {
+        name.starts_with('.') && name.ends_with(PARTIAL_SUFFIX)
+    });
+    let stem = output
+        .file_name()
+        .map(|n| n.to_string_lossy().into_owned())
+        .unwrap_or_default();
+    let mut partial = locked_file(out_dir, &format!(".{stem}."), PARTIAL_SUFFIX, 0o666)
+        .map_err(|e| TypesetError::io("create a temporary file in", out_dir, e))?;
+    partial
+        .write_all(bytes)
+        .and_then(|()| partial.as_file().sync_all())
+        .map_err(|e| TypesetError::io("write the PDF to", partial.path().to_path_buf(), e))?;
+    if let Ok(existing) = std::fs::metadata(output) {
+        let _ = std::fs::set_permissions(partial.path(), existing.permissions());
+    }
+    stop_if_interrupted()?;
+    // The output may have been replaced by a link or a FIFO meanwhile.
+    check_output(output, &[])?;
+    partial
+        .persist(output)
+        .map_err(|e| TypesetError::io("write the PDF to", output, e.error))?;
+    sync_folder(out_dir);
+    Ok(())
+}
+
+/// Flushes a folder's entries (the rename) to disk, where that is possible.
+fn sync_folder(dir: &Path) {
+    #[cfg(unix)]
+    if let Ok(folder) = std::fs::File::open(dir) {
+        let _ = folder.sync_all();
+    }
+    #[cfg(not(unix))]
+    let _ = dir;
+}
+
+/// The error for a stop signal, if one came.
+fn stop_if_interrupted() -> Result<(), TypesetError> {
+    match interrupt::received() {
+        Some(signal) => Err(TypesetError::Interrupted { signal }),
+        None => Ok(()),
+    }
+}
+
+/// Moves a failed run's source folder out of its work folder, to a name no
+/// sweep removes, without the bulky fonts, and returns where it is.
+fn keep_source(work: LockedDir, root: &Path) -> PathBuf {
+    let _ = std::fs::remove_dir_all(root.join(FONT_DIR));
+    let parent = work
+        .path()
+        .parent()
+        .map(Path::to_path_buf)
+        .unwrap_or_default();
+    let name = work
+        .path()
+        .file_name()
+        .map(|n| n.to_string_lossy().replacen(WORK_PREFIX, KEPT_PREFIX, 1))
+        .unwrap_or_else(|| KEPT_PREFIX.to_owned());
+    let kept = parent.join(name);
+    if std::fs::rename(root, &kept).is_ok() {
+        drop(work);
+        kept
+    } else {
+        // Could not move it: keep the whole work folder instead.
+        let _ = std::fs::remove_file(work.path().join("document.pdf"));
+        work.keep().join("source")
+    }
 }
 
 /// The font cache folder to use, or `None` to write the fonts into the
@@ -248,16 +407,6 @@ fn arguments(
     args.push(out.into());
     args
 }
-
-/// Temporary files are created private; a finished PDF is an ordinary file.
-#[cfg(unix)]
-fn set_readable(path: &Path) {
-    use std::os::unix::fs::PermissionsExt;
-    let _ = std::fs::set_permissions(path, std::fs::Permissions::from_mode(0o644));
-}
-
-#[cfg(not(unix))]
-fn set_readable(_: &Path) {}
 
 #[cfg(test)]
 mod tests {

@@ -52,9 +52,10 @@ pub enum TypesetError {
         source: Option<io::Error>,
     },
 
-    /// typst ran and rejected the document. Its own diagnostics are kept
-    /// verbatim in `diagnostics`.
-    #[error("typst could not compile the document ({status}):\n{diagnostics}")]
+    /// typst ran and rejected the document: it exited with status 1 and
+    /// printed its reasons. The document (that is, its template) is at
+    /// fault. typst's own diagnostics are kept verbatim in `diagnostics`.
+    #[error("typst could not compile the document (it {status}):\n{diagnostics}")]
     #[diagnostic(
         code(ampreport::typeset::compile_failed),
         help(
@@ -66,13 +67,86 @@ pub enum TypesetError {
     Compile {
         /// typst's standard error, trimmed.
         diagnostics: String,
-        /// How typst ended, e.g. "exit status: 1".
+        /// How typst ended, in words: "exited with status 1".
         status: String,
         /// The folder holding the generated source, left behind on purpose.
         kept: PathBuf,
         /// The main source file inside `kept`.
         main: PathBuf,
     },
+
+    /// typst did not behave like typst: it crashed or was killed, exited
+    /// with an unexpected status, or said it succeeded but wrote no file or
+    /// an incomplete one. The typst program (or the machine) is at fault,
+    /// not the job or the template.
+    #[error("the typst program {} {what}{}", path.display(), said(diagnostics))]
+    #[diagnostic(
+        code(ampreport::typeset::typst_misbehaved),
+        help(
+            "this points at the typst program or the machine it runs on (memory, disk), \
+             not at the job: try the same typst on the kept source in {}, or install a fresh one \
+             with `{INSTALL_HINT}`",
+            kept.display()
+        )
+    )]
+    Misbehaved {
+        path: PathBuf,
+        /// What happened: "was killed by signal 11 (SIGSEGV)", "reported
+        /// success but wrote no file".
+        what: String,
+        /// typst's standard error, trimmed and bounded; may be empty.
+        diagnostics: String,
+        /// The folder holding the generated source.
+        kept: PathBuf,
+    },
+
+    /// typst did not finish within the time limit and was stopped.
+    #[error("the typst program {} did not finish `{action}` within {seconds} s and was stopped{}", path.display(), said(diagnostics))]
+    #[diagnostic(
+        code(ampreport::typeset::timed_out),
+        help(
+            "a hand-over document takes a few seconds; a typst that hangs is at fault, or the \
+             machine is very busy. Allow longer with `--timeout SECONDS` or AMPREPORT_TIMEOUT"
+        )
+    )]
+    TimedOut {
+        path: PathBuf,
+        /// "--version" or "compile".
+        action: &'static str,
+        seconds: f64,
+        diagnostics: String,
+    },
+
+    /// A stop signal came; the temporary files are gone and typst was
+    /// stopped.
+    #[error("stopped by {}; typst was stopped and the temporary files removed", signal_words(*signal))]
+    #[diagnostic(code(ampreport::typeset::interrupted))]
+    Interrupted { signal: i32 },
+
+    /// The finished document lacks text it must carry (the mains-safety
+    /// notice): the template left it out, hid it or changed it.
+    #[error(
+        "the finished document does not show {what}: {} missing from its text",
+        quoted(missing)
+    )]
+    #[diagnostic(
+        code(ampreport::typeset::required_text_missing),
+        help(
+            "the template must place {what} where it can be read; the generated source \
+             was kept in {}",
+            kept.display()
+        )
+    )]
+    MissingText {
+        what: String,
+        missing: Vec<String>,
+        kept: PathBuf,
+    },
+
+    /// The output path may not be written.
+    #[error(transparent)]
+    #[diagnostic(transparent)]
+    Output(#[from] super::output::OutputRefused),
 
     /// A file in the sandbox has a name that would escape it or clash with the
     /// bundled fonts. This is a programming error in the caller or a job file
@@ -96,14 +170,43 @@ pub enum TypesetError {
     },
 }
 
+/// " and said: …" with typst's first lines, or nothing.
+fn said(diagnostics: &str) -> String {
+    if diagnostics.is_empty() {
+        String::new()
+    } else {
+        format!("; it said:\n{diagnostics}")
+    }
+}
+
+fn quoted(phrases: &[String]) -> String {
+    let list: Vec<String> = phrases.iter().map(|p| format!("\"{p}\"")).collect();
+    format!(
+        "{} {}",
+        list.join(", "),
+        if list.len() == 1 { "is" } else { "are" }
+    )
+}
+
+fn signal_words(signal: i32) -> String {
+    match super::interrupt::signal_name(signal) {
+        Some(name) => format!("{name} (signal {signal})"),
+        None => format!("signal {signal}"),
+    }
+}
+
 impl TypesetError {
-    /// True when the machine's set-up is at fault (typst missing, too old or
-    /// unusable) rather than the document or the disk, so the command line
+    /// True when the machine's set-up is at fault (typst missing, too old,
+    /// unusable, misbehaving or hanging) rather than the document or the disk, so the command line
     /// can use a distinct exit status.
     pub fn is_environment(&self) -> bool {
         matches!(
             self,
-            Self::NotFound { .. } | Self::TooOld { .. } | Self::Unusable { .. }
+            Self::NotFound { .. }
+                | Self::TooOld { .. }
+                | Self::Unusable { .. }
+                | Self::Misbehaved { .. }
+                | Self::TimedOut { .. }
         )
     }
 
@@ -144,7 +247,7 @@ mod tests {
 
         let compile = TypesetError::Compile {
             diagnostics: "error: unknown variable".into(),
-            status: "exit status: 1".into(),
+            status: "exited with status 1".into(),
             kept: "/tmp/kept".into(),
             main: "/tmp/kept/main.typ".into(),
         };

@@ -14,8 +14,11 @@
 use std::ffi::OsStr;
 use std::fmt;
 use std::path::{Path, PathBuf};
-use std::process::{Child, Command, Stdio};
+use std::process::Command;
+use std::time::Duration;
 
+use super::child::{Running, Stopped, describe_status};
+use super::compile::DEFAULT_TIMEOUT;
 use super::error::TypesetError;
 use super::version::{MAX_TYPST_EXCLUSIVE, MIN_TYPST, TypstVersion};
 
@@ -76,10 +79,12 @@ pub fn locate_in(
 
 /// A `typst --version` that is running, or the reason it could not start.
 /// Dropping it without [`finish`](PendingTypst::finish) ends the process.
+/// The program's path is absolute, so a relative `--typst ./wrapper` runs
+/// the same program whatever folder typst is later started in.
 #[derive(Debug)]
 pub struct PendingTypst {
     /// `None` only once [`PendingTypst::finish`] has taken it.
-    state: Option<Result<(PathBuf, Child), TypesetError>>,
+    state: Option<Result<(PathBuf, Running), TypesetError>>,
 }
 
 /// Finds typst like [`locate`] and starts `typst --version` without waiting
@@ -107,13 +112,19 @@ pub fn start_locate_in(
 }
 
 impl PendingTypst {
-    /// Waits for `typst --version`, reads the answer and checks the version.
-    pub fn finish(mut self) -> Result<TypstProgram, TypesetError> {
+    /// Waits for `typst --version` (at most [`DEFAULT_TIMEOUT`]), reads
+    /// the answer and checks the version.
+    pub fn finish(self) -> Result<TypstProgram, TypesetError> {
+        self.finish_within(DEFAULT_TIMEOUT)
+    }
+
+    /// [`finish`](Self::finish), stopping typst after `timeout`.
+    pub fn finish_within(mut self, timeout: Duration) -> Result<TypstProgram, TypesetError> {
         let (path, child) = self
             .state
             .take()
             .expect("a pending typst is finished only once")?;
-        let version = read_version(&path, child)?;
+        let version = read_version(&path, child, timeout)?;
         if version < MIN_TYPST {
             return Err(TypesetError::TooOld {
                 path,
@@ -121,15 +132,6 @@ impl PendingTypst {
             });
         }
         Ok(TypstProgram { path, version })
-    }
-}
-
-impl Drop for PendingTypst {
-    fn drop(&mut self) {
-        if let Some(Ok((_, child))) = &mut self.state {
-            let _ = child.kill();
-            let _ = child.wait();
-        }
     }
 }
 
@@ -175,7 +177,13 @@ fn resolve(value: &OsStr, path_var: Option<&OsStr>, origin: &str) -> Result<Path
             looked: format!("{} is not an executable file ({origin})", as_path.display()),
         });
     }
-    Ok(as_path.to_path_buf())
+    Ok(absolute(as_path))
+}
+
+/// `path` made absolute against the current folder, links left as they are
+/// (a wrapper found through a link stays that wrapper).
+fn absolute(path: &Path) -> PathBuf {
+    std::path::absolute(path).unwrap_or_else(|_| path.to_path_buf())
 }
 
 /// The first executable `name` in the folders of `path_var`.
@@ -185,6 +193,7 @@ fn search_path(name: &OsStr, path_var: Option<&OsStr>) -> Option<PathBuf> {
         .filter(|dir| !dir.as_os_str().is_empty())
         .map(|dir| dir.join(name))
         .find(|candidate| is_executable(candidate))
+        .map(|found| absolute(&found))
 }
 
 #[cfg(unix)]
@@ -200,44 +209,63 @@ fn is_executable(path: &Path) -> bool {
     path.is_file()
 }
 
+/// How much of a `--version` answer is read.
+const VERSION_OUTPUT_CAP: usize = 4096;
+
 /// Starts `PATH --version`.
-fn spawn_version(path: &Path) -> Result<Child, TypesetError> {
-    Command::new(path)
-        .arg("--version")
-        .stdin(Stdio::null())
-        .stdout(Stdio::piped())
-        .stderr(Stdio::piped())
-        .spawn()
-        .map_err(|source| TypesetError::Unusable {
+fn spawn_version(path: &Path) -> Result<Running, TypesetError> {
+    let mut command = Command::new(path);
+    command.arg("--version");
+    Running::spawn(command, VERSION_OUTPUT_CAP, VERSION_OUTPUT_CAP).map_err(|source| {
+        TypesetError::Unusable {
             path: path.to_path_buf(),
             problem: format!("it failed to start ({source})"),
             source: Some(source),
-        })
+        }
+    })
 }
 
 /// Waits for a `--version` run and reads its answer.
-fn read_version(path: &Path, child: Child) -> Result<TypstVersion, TypesetError> {
-    let output = child
-        .wait_with_output()
-        .map_err(|source| TypesetError::Unusable {
-            path: path.to_path_buf(),
-            problem: format!("its `--version` answer could not be read ({source})"),
-            source: Some(source),
-        })?;
-    let stdout = String::from_utf8_lossy(&output.stdout);
+fn read_version(
+    path: &Path,
+    child: Running,
+    timeout: Duration,
+) -> Result<TypstVersion, TypesetError> {
+    let output = match child.wait(timeout) {
+        Ok(output) => output,
+        Err(Stopped::Interrupted(signal)) => return Err(TypesetError::Interrupted { signal }),
+        Err(Stopped::TimedOut { stderr }) => {
+            return Err(TypesetError::TimedOut {
+                path: path.to_path_buf(),
+                action: "--version",
+                seconds: timeout.as_secs_f64(),
+                diagnostics: stderr.text(),
+            });
+        }
+        Err(Stopped::Failed(source)) => {
+            return Err(TypesetError::Unusable {
+                path: path.to_path_buf(),
+                problem: format!("its `--version` answer could not be read ({source})"),
+                source: Some(source),
+            });
+        }
+    };
+    let stdout = String::from_utf8_lossy(&output.stdout.bytes);
     match TypstVersion::parse_version_output(&stdout) {
         Some(version) if output.status.success() => Ok(version),
         _ => {
             let mut said = stdout.trim().to_owned();
             if said.is_empty() {
-                said = String::from_utf8_lossy(&output.stderr).trim().to_owned();
+                said = String::from_utf8_lossy(&output.stderr.bytes)
+                    .trim()
+                    .to_owned();
             }
             let said = said.lines().next().unwrap_or("").chars().take(200);
             Err(TypesetError::Unusable {
                 path: path.to_path_buf(),
                 problem: format!(
-                    "`--version` ended with {} and printed {:?}, not `typst X.Y.Z`",
-                    output.status,
+                    "`--version` {} and printed {:?}, not `typst X.Y.Z`",
+                    describe_status(&output.status),
                     said.collect::<String>(),
                 ),
                 source: None,

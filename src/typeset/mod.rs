@@ -1,21 +1,30 @@
 //! The one door to the outside `typst` program: finding and checking it,
 //! escaping user text for Typst, filling templates, laying out a sandbox
 //! folder (generated source, plots, images), keeping the bundled fonts in a
-//! per-user cache, running typst and writing the PDF atomically. Knows
-//! nothing about what a job means.
+//! per-user cache, running typst with a time limit and bounded output,
+//! checking what it wrote, and writing the PDF atomically to a checked
+//! destination, cleanly on a stop signal. Knows nothing about what a job
+//! means.
 
+mod child;
 mod compile;
 mod error;
 mod escape;
 mod font_cache;
 mod fonts;
+mod inside;
+pub mod interrupt;
+mod leftovers;
 mod locate;
+mod output;
+mod pdf_check;
 mod sandbox;
 mod template_env;
 mod version;
 
 pub use compile::{
-    CompileOptions, CompileOutcome, DEFAULT_PDF_STANDARD, FontPlace, FontsUsed, compile,
+    CompileOptions, CompileOutcome, DEFAULT_PDF_STANDARD, DEFAULT_TIMEOUT, FontPlace, FontsUsed,
+    KEPT_PREFIX, PARTIAL_SUFFIX, RequiredText, WORK_PREFIX, compile,
 };
 pub use error::{INSTALL_HINT, TypesetError};
 pub use escape::{escape_markup, escape_string};
@@ -27,9 +36,11 @@ pub use fonts::{
     BUNDLED_FONTS, FONT_DIR, FONT_LICENCES, MONO_FAMILIES, TEXT_FAMILIES, can_draw, drawable,
     font_rules, placeholder, undrawable,
 };
+pub use inside::{InsideError, read_inside, read_regular};
 pub use locate::{
     PendingTypst, TYPST_ENV, TypstProgram, locate, locate_in, start_locate, start_locate_in,
 };
-pub use sandbox::{Sandbox, emit_source};
+pub use output::{Input, OutputRefused, check_emit_folder, check_output};
+pub use sandbox::{EMIT_PREFIX, Sandbox, emit_source, emit_source_replacing};
 pub use template_env::{TemplateSource, TypstMarkup, template_environment, typst_markup};
 pub use version::{MAX_TYPST_EXCLUSIVE, MIN_TYPST, TypstVersion};

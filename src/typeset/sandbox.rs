@@ -5,11 +5,13 @@
 //! instead; [`emit_source`] writes them in, so its folder stands alone.
 
 use std::collections::BTreeMap;
-use std::io;
+use std::io::{self, Write};
 use std::path::{Path, PathBuf};
 
 use super::error::TypesetError;
 use super::fonts::{FONT_DIR, write_fonts};
+use super::interrupt;
+use super::leftovers::{LockedDir, sweep};
 
 /// Files for one typst run, keyed by their path relative to the sandbox
 /// root (`main.typ`, `plots/anode.svg`). Sorted, so writing is in a fixed
@@ -58,14 +60,19 @@ impl Sandbox {
         self.files.is_empty()
     }
 
-    /// Writes every file under `dir`, without the fonts.
+    /// Writes every file under `dir`, a fresh folder, without the fonts.
+    /// Files are created new (never opened through an existing name).
     pub(crate) fn write_files(&self, dir: &Path) -> io::Result<()> {
         for (path, contents) in &self.files {
             let target = native_path(dir, path);
             if let Some(parent) = target.parent() {
                 std::fs::create_dir_all(parent)?;
             }
-            std::fs::write(&target, contents)?;
+            std::fs::OpenOptions::new()
+                .write(true)
+                .create_new(true)
+                .open(&target)?
+                .write_all(contents)?;
         }
         Ok(())
     }
@@ -101,14 +108,71 @@ fn path_problem(path: &str) -> Option<&'static str> {
     None
 }
 
+/// The name a folder being emitted starts with, beside the one it becomes.
+pub const EMIT_PREFIX: &str = ".ampreport-emit-";
+
 /// Writes `sandbox` and the bundled fonts to `dir` (created if missing), so
 /// that `typst compile --root DIR --font-path DIR/fonts --ignore-system-fonts
 /// --ignore-embedded-fonts DIR/main.typ` reproduces the document. Meant for
-/// shops adapting templates and for bug reports.
+/// shops adapting templates and for bug reports. `dir` must not exist or be
+/// an empty folder; use [`emit_source_replacing`] to replace a folder's
+/// contents.
 pub fn emit_source(sandbox: &Sandbox, dir: &Path) -> io::Result<()> {
-    std::fs::create_dir_all(dir)?;
-    sandbox.write_files(dir)?;
-    write_fonts(dir)
+    emit(sandbox, dir, false)
+}
+
+/// [`emit_source`] that also replaces a non-empty folder: the new contents
+/// are written to a fresh folder beside `dir` and swapped in, and only then
+/// is the old folder removed, so nothing of it stays (a planted font, a
+/// hand-edited file) and nothing is written through a link in it. Check the
+/// folder first with [`super::check_emit_folder`].
+pub fn emit_source_replacing(sandbox: &Sandbox, dir: &Path) -> io::Result<()> {
+    emit(sandbox, dir, true)
+}
+
+fn emit(sandbox: &Sandbox, dir: &Path, replace: bool) -> io::Result<()> {
+    let name = dir
+        .file_name()
+        .ok_or_else(|| io::Error::other("the folder has no name of its own"))?;
+    let parent = match dir.parent() {
+        Some(p) if !p.as_os_str().is_empty() => p.to_path_buf(),
+        _ => std::path::PathBuf::from("."),
+    };
+    std::fs::create_dir_all(&parent)?;
+    sweep(&parent, |n| n.starts_with(EMIT_PREFIX));
+    let existing = std::fs::symlink_metadata(dir).ok();
+    if let Some(meta) = &existing {
+        if !meta.is_dir() {
+            return Err(io::Error::other("it exists and is not a folder"));
+        }
+        if !replace && std::fs::read_dir(dir)?.next().is_some() {
+            return Err(io::Error::other("the folder is not empty"));
+        }
+    }
+    // A fresh folder nobody else can write into: nothing in it is a link.
+    let staging = LockedDir::new(&parent, EMIT_PREFIX, Some(0o777))?;
+    sandbox.write_files(staging.path())?;
+    write_fonts(staging.path())?;
+    if let Some(signal) = interrupt::received() {
+        return Err(io::Error::other(format!("stopped by signal {signal}")));
+    }
+    if existing.is_none() {
+        std::fs::rename(staging.path(), dir)?;
+        let _ = staging.keep();
+        return Ok(());
+    }
+    // Move the old folder aside under a name a later run sweeps away, put
+    // the new one in its place, then remove the old one.
+    let aside = LockedDir::new(&parent, EMIT_PREFIX, None)?;
+    let old = aside.path().join(name);
+    std::fs::rename(dir, &old)?;
+    if let Err(e) = std::fs::rename(staging.path(), dir) {
+        let _ = std::fs::rename(&old, dir);
+        return Err(e);
+    }
+    let _ = staging.keep();
+    drop(aside);
+    Ok(())
 }
 
 #[cfg(test)]

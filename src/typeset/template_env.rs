@@ -16,6 +16,7 @@ use minijinja::value::{Object, Value};
 use minijinja::{Environment, Error, ErrorKind, UndefinedBehavior};
 
 use super::escape::{escape_markup, escape_string};
+use super::inside::{InsideError, read_inside};
 
 /// Where templates are read from.
 #[derive(Debug, Clone, Default)]
@@ -65,22 +66,45 @@ pub fn typst_markup(source: impl Into<String>) -> Value {
 ///   [`typst_markup`] values; `none` and undefined print nothing;
 /// * `{{ x|typst_string }}` prints a complete Typst string literal, quotes
 ///   included, for use in code (`#set document(title: {{ t|typst_string }})`);
-/// * the `safe`, `escape` and `e` filters are removed: they would suggest an
-///   opt-out that does not exist here;
+/// * the `safe`, `escape`, `e` and `tojson` filters are removed: they would
+///   suggest an opt-out that does not exist here (or print user text as a
+///   raw JSON string);
+/// * `{% include %}`, `{% import %}`, `{% extends %}` and macros work.
+///   What a macro, a `{% set %}…{% endset %}` block or an include gives
+///   back is template output whose values were escaped on the way in, so it
+///   prints as it is; `replace` and `format` give plain text, escaped when
+///   printed. The `{% autoescape %}` statement is refused, since another
+///   escaping mode inside it would let such filters mix unescaped text in;
 /// * an undefined variable is an error, so a misspelt name does not quietly
 ///   print nothing.
 pub fn template_environment(templates: TemplateSource) -> Environment<'static> {
     let mut env = Environment::new();
     env.set_undefined_behavior(UndefinedBehavior::Strict);
     env.set_keep_trailing_newline(true);
-    env.set_auto_escape_callback(|_| minijinja::AutoEscape::None);
-    for name in ["safe", "escape", "e"] {
+    // A mode of our own: minijinja then marks template output captured by
+    // macros and blocks as already escaped, and routes any escaping it does
+    // itself through the formatter below.
+    env.set_auto_escape_callback(|_| minijinja::AutoEscape::Custom(ESCAPE_MODE));
+    for name in ["safe", "escape", "e", "tojson"] {
         env.remove_filter(name);
     }
     env.add_filter("typst_string", typst_string);
+    env.add_filter("replace", |value: String, from: String, to: String| {
+        value.replace(&from, &to)
+    });
+    env.add_filter(
+        "format",
+        |state: &minijinja::State, format: String, args: minijinja::value::Rest<Value>| {
+            minijinja::filters::format(state, &Value::from(format), args)
+        },
+    );
     env.set_formatter(|out, _state, value| {
         if let Some(markup) = value.downcast_object_ref::<TypstMarkup>() {
             out.write_str(&markup.0)?;
+        } else if value.is_safe()
+            && let Some(text) = value.as_str()
+        {
+            out.write_str(text)?;
         } else if !(value.is_none() || value.is_undefined()) {
             out.write_str(&escape_markup(&value.to_string()))?;
         }
@@ -91,17 +115,42 @@ pub fn template_environment(templates: TemplateSource) -> Environment<'static> {
         override_dir,
     } = templates;
     env.set_loader(move |name| {
-        if let Some(dir) = &override_dir
-            && let Some(source) = load_from_dir(dir, name)?
+        let source = match &override_dir {
+            Some(dir) => load_from_dir(dir, name)?,
+            None => None,
+        };
+        let source = source.or_else(|| {
+            embedded
+                .iter()
+                .find(|(n, _)| *n == name)
+                .map(|(_, source)| (*source).to_owned())
+        });
+        if let Some(text) = &source
+            && uses_autoescape(text)
         {
-            return Ok(Some(source));
+            return Err(Error::new(
+                ErrorKind::InvalidOperation,
+                format!(
+                    "the template `{name}` uses `{{% autoescape %}}`, which Typst templates may not"
+                ),
+            ));
         }
-        Ok(embedded
-            .iter()
-            .find(|(n, _)| *n == name)
-            .map(|(_, source)| (*source).to_owned()))
+        Ok(source)
     });
     env
+}
+
+/// The escaping mode every template runs in.
+const ESCAPE_MODE: &str = "typst";
+
+/// True when `source` has an `{% autoescape … %}` statement.
+fn uses_autoescape(source: &str) -> bool {
+    source.match_indices("{%").any(|(i, _)| {
+        source[i + 2..]
+            .trim_start_matches(['-', '+', '~'])
+            .trim_start()
+            .starts_with("autoescape")
+    })
 }
 
 /// The `typst_string` filter: the value as a quoted Typst string literal.
@@ -115,33 +164,33 @@ fn typst_string(value: Value) -> Value {
 }
 
 /// Reads template `name` from `dir`, if the file exists there. Names must be
-/// plain relative paths with `/` between folders.
+/// plain relative paths with `/` between folders; links and other
+/// non-regular files are refused ([`read_inside`]), so a template can pull
+/// in nothing from outside its folder.
 fn load_from_dir(dir: &Path, name: &str) -> Result<Option<String>, Error> {
-    let bad = name.is_empty()
-        || name.starts_with('/')
-        || name.contains('\\')
-        || name.contains(':')
-        || name
-            .split('/')
-            .any(|p| p.is_empty() || p == "." || p == "..");
-    if bad {
-        return Err(Error::new(
-            ErrorKind::TemplateNotFound,
-            format!("template name `{name}` is not a plain relative path"),
-        ));
-    }
-    let path = name
-        .split('/')
-        .fold(dir.to_path_buf(), |acc, p| acc.join(p));
-    match std::fs::read_to_string(&path) {
-        Ok(source) => Ok(Some(source)),
-        Err(e) if e.kind() == std::io::ErrorKind::NotFound => Ok(None),
-        Err(e) => Err(Error::new(
+    let bytes = match read_inside(dir, name) {
+        Ok(Some(bytes)) => bytes,
+        Ok(None) => return Ok(None),
+        Err(InsideError::BadName { .. }) => {
+            return Err(Error::new(
+                ErrorKind::TemplateNotFound,
+                format!("template name `{name}` is not a plain relative path"),
+            ));
+        }
+        Err(e) => {
+            return Err(Error::new(
+                ErrorKind::InvalidOperation,
+                format!("the template `{name}` was refused: {e}"),
+            ));
+        }
+    };
+    String::from_utf8(bytes).map(Some).map_err(|e| {
+        Error::new(
             ErrorKind::InvalidOperation,
-            format!("could not read template {}", path.display()),
+            format!("the template `{name}` is not UTF-8 text"),
         )
-        .with_source(e)),
-    }
+        .with_source(e)
+    })
 }
 
 #[cfg(test)]
@@ -203,13 +252,24 @@ mod tests {
         // A wrapped value that passes through a filter loses its wrapping.
         let out = render("{{ m|lower }}", context! { m => typst_markup("#A") }).unwrap();
         assert_eq!(out, "\\#a");
-        // Autoescape blocks change nothing.
+        // Nor can macros and blocks, or the filters that mix text into
+        // them, or JSON.
         let out = render(
-            "{% autoescape 'html' %}{{ x }}{% endautoescape %}",
-            context! { x => "<#>" },
+            "{% macro m(v) %}[{{ v }}]{% endmacro %}{{ m(x) }}{{ m(x)|replace(']', x) }}\
+             {% set b %}{{ x }}{% endset %}{{ b }}{{ '%s'|format(x) }}{{ [m(x), x]|join(x) }}",
+            context! { x => "#x" },
         )
         .unwrap();
-        assert_eq!(out, "\\<\\#\\>");
+        assert_eq!(out, "[\\#x]\\[\\\\\\#x\\#x\\#x\\#x[\\#x]\\#x\\#x");
+        assert!(render("{{ x|tojson }}", context! { x => "#x" }).is_err());
+        // Another escaping mode cannot be switched on in a loaded template.
+        static AUTOESCAPE: &[(&str, &str)] = &[(
+            "a.typ",
+            "{%- autoescape 'html' %}{{ x }}{% endautoescape %}",
+        )];
+        let env = template_environment(TemplateSource::embedded(AUTOESCAPE));
+        let err = env.get_template("a.typ").unwrap_err();
+        assert!(err.to_string().contains("autoescape"), "{err}");
     }
 
     #[test]
@@ -253,5 +313,52 @@ mod tests {
         );
         assert!(env.get_template("missing.typ").is_err());
         assert!(env.get_template("../secret").is_err());
+    }
+
+    #[test]
+    fn a_template_can_be_split_into_parts() {
+        let dir = tempfile::tempdir().unwrap();
+        std::fs::create_dir(dir.path().join("parts")).unwrap();
+        std::fs::write(
+            dir.path().join("page.typ"),
+            "{% import \"parts/macros.typ\" as m %}{% include \"parts/head.typ\" %}|{{ m.cell(title) }}",
+        )
+        .unwrap();
+        std::fs::write(dir.path().join("parts/head.typ"), "head {{ title }}").unwrap();
+        std::fs::write(
+            dir.path().join("parts/macros.typ"),
+            "{% macro cell(x) %}[{{ x }}]{% endmacro %}",
+        )
+        .unwrap();
+        let env =
+            template_environment(TemplateSource::embedded(BUILT_IN).with_override_dir(dir.path()));
+        let out = env
+            .get_template("page.typ")
+            .unwrap()
+            .render(context! { title => "#t" })
+            .unwrap();
+        assert_eq!(out, "head \\#t|[\\#t]");
+        // A user value reaches the page escaped once, through any part.
+    }
+
+    #[cfg(unix)]
+    #[test]
+    fn a_linked_template_is_refused() {
+        let outside = tempfile::tempdir().unwrap();
+        std::fs::write(outside.path().join("secret"), "root:x:0:0").unwrap();
+        let dir = tempfile::tempdir().unwrap();
+        std::os::unix::fs::symlink(outside.path().join("secret"), dir.path().join("page.typ"))
+            .unwrap();
+        std::fs::write(dir.path().join("main.typ"), "{% include \"page.typ\" %}").unwrap();
+        let env =
+            template_environment(TemplateSource::embedded(BUILT_IN).with_override_dir(dir.path()));
+        let err = env
+            .get_template("main.typ")
+            .unwrap()
+            .render(())
+            .unwrap_err();
+        let words = format!("{err:#}");
+        assert!(words.contains("symbolic link"), "{words}");
+        assert!(!words.contains("root:x"), "{words}");
     }
 }

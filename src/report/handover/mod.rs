@@ -28,8 +28,8 @@ use super::plots::{self, PlotError};
 use crate::calc::Findings;
 use crate::job::Job;
 use crate::typeset::{
-    CompileOptions, Sandbox, TemplateSource, TypesetError, font_rules, template_environment,
-    typst_markup,
+    CompileOptions, InsideError, RequiredText, Sandbox, TemplateSource, TypesetError, font_rules,
+    read_regular, template_environment, typst_markup,
 };
 
 /// The template the document is rendered from.
@@ -52,6 +52,25 @@ pub const NOTICE_TEXT: &str = include_str!("../../../templates/mains-safety.typ"
 
 /// The line a template must hold to place the notice.
 pub const NOTICE_INCLUDE: &str = "#include \"mains-safety.typ\"";
+
+/// What the finished PDF must show, checked in its text: the notice's
+/// heading and opening sentence, and the deferral to local codes with its
+/// closing sentence. A template that leaves the notice out, hides it or
+/// rewrites it is refused.
+pub const NOTICE_PHRASES: &[&str] = &[
+    "MAINS SAFETY: READ BEFORE USING OR OPENING THIS UNIT",
+    "This amplifier runs on voltages that can kill.",
+    "Local electrical codes come first.",
+    "Where those rules, or the practice of a licensed electrician, differ from anything in this document, follow them.",
+];
+
+/// [`NOTICE_PHRASES`] as compile options want them.
+pub fn notice_required() -> RequiredText {
+    RequiredText {
+        what: "the mains-safety notice and the deferral to local electrical codes".into(),
+        phrases: NOTICE_PHRASES.iter().map(|p| (*p).to_owned()).collect(),
+    }
+}
 
 /// The built-in templates, for [`TemplateSource::embedded`].
 pub static EMBEDDED_TEMPLATES: &[(&str, &str)] = &[(
@@ -85,6 +104,9 @@ pub enum HandoverError {
         #[source]
         source: std::io::Error,
     },
+    /// A file of the template folder that may not be used (a link, a FIFO).
+    #[error("refused a file of the template folder: {0}")]
+    Refused(#[from] InsideError),
 }
 
 /// What the document is made from besides the job itself.
@@ -195,7 +217,10 @@ pub fn build(
     Ok(Document {
         sandbox,
         main: MAIN_SOURCE,
-        options: CompileOptions::new(creation_date(input.job)),
+        options: CompileOptions {
+            required_text: Some(notice_required()),
+            ..CompileOptions::new(creation_date(input.job))
+        },
         context,
     })
 }
@@ -240,44 +265,51 @@ fn template_error_words(e: &minijinja::Error) -> String {
     words
 }
 
-/// Copies the regular files of a shop's `images/` folder into the sandbox,
-/// in name order. A missing folder is not an error.
+/// Copies the files of a shop's `images/` folder into the sandbox, in name
+/// order. A missing folder is not an error; sub-folders are not copied. A
+/// symbolic link, a FIFO or a device is refused by name, so nothing from
+/// outside the template folder reaches the document.
 fn add_shop_images(sandbox: &mut Sandbox, dir: &Path) -> Result<(), HandoverError> {
-    let entries = match std::fs::read_dir(dir) {
-        Ok(entries) => entries,
-        Err(e) if e.kind() == std::io::ErrorKind::NotFound => return Ok(()),
-        Err(source) => {
-            return Err(HandoverError::Image {
-                path: dir.display().to_string(),
-                source,
-            });
-        }
+    let image_error = |path: &Path, source: std::io::Error| HandoverError::Image {
+        path: path.display().to_string(),
+        source,
     };
+    match std::fs::symlink_metadata(dir) {
+        Err(e) if e.kind() == std::io::ErrorKind::NotFound => return Ok(()),
+        Err(e) => return Err(image_error(dir, e)),
+        Ok(meta) if meta.file_type().is_symlink() => {
+            return Err(HandoverError::Refused(InsideError::Link {
+                path: dir.to_path_buf(),
+            }));
+        }
+        Ok(_) => {}
+    }
+    let entries = std::fs::read_dir(dir).map_err(|e| image_error(dir, e))?;
     let mut files: Vec<(String, std::path::PathBuf)> = Vec::new();
     for entry in entries {
-        let entry = entry.map_err(|source| HandoverError::Image {
-            path: dir.display().to_string(),
-            source,
-        })?;
+        let entry = entry.map_err(|e| image_error(dir, e))?;
         let path = entry.path();
-        if path.is_file()
-            && let Some(name) = path.file_name().and_then(|n| n.to_str())
-        {
-            files.push((name.to_string(), path));
+        let kind = entry.file_type().map_err(|e| image_error(&path, e))?;
+        if kind.is_dir() {
+            continue;
         }
+        let Some(name) = path.file_name().and_then(|n| n.to_str()) else {
+            continue;
+        };
+        if kind.is_symlink() {
+            return Err(HandoverError::Refused(InsideError::Link { path }));
+        }
+        if !kind.is_file() {
+            return Err(HandoverError::Refused(InsideError::NotAFile { path }));
+        }
+        files.push((name.to_string(), path));
     }
     files.sort();
     for (name, path) in files {
-        let bytes = std::fs::read(&path).map_err(|source| HandoverError::Image {
-            path: path.display().to_string(),
-            source,
-        })?;
+        let bytes = read_regular(&path)?;
         sandbox
             .insert(format!("{IMAGES_DIR}/{name}"), bytes)
-            .map_err(|e| HandoverError::Image {
-                path: path.display().to_string(),
-                source: std::io::Error::other(e.to_string()),
-            })?;
+            .map_err(|e| image_error(&path, std::io::Error::other(e.to_string())))?;
     }
     Ok(())
 }

@@ -1,0 +1,329 @@
+//! Running the typst program as a child that cannot hold ampreport hostage:
+//! its output is read with a bound (the rest is counted and dropped), the
+//! wait ends at a deadline or at a stop signal ([`super::interrupt`]), and a
+//! child that is given up on is killed together with anything it started.
+//!
+//! On Unix the child runs in a process group of its own, so killing the
+//! group reaches a wrapper script's own children too; on Linux it is also
+//! told to die with ampreport (`PR_SET_PDEATHSIG`), so a `kill -9` of
+//! ampreport leaves no typst running.
+
+use std::io::{self, Read};
+use std::process::{Child, Command, ExitStatus, Stdio};
+use std::sync::mpsc::{self, Receiver};
+use std::time::{Duration, Instant};
+
+use super::interrupt;
+
+/// What the child wrote on one stream: the first bytes up to the bound, and
+/// how many more were dropped.
+#[derive(Debug, Clone, Default, PartialEq, Eq)]
+pub(crate) struct Captured {
+    pub bytes: Vec<u8>,
+    pub dropped: u64,
+}
+
+impl Captured {
+    /// The text, trimmed, with a note of any dropped part.
+    pub fn text(&self) -> String {
+        let mut text = String::from_utf8_lossy(&self.bytes).trim().to_owned();
+        if self.dropped > 0 {
+            text.push_str(&format!(
+                "\n[… {} more bytes of output not shown]",
+                self.dropped
+            ));
+        }
+        text
+    }
+}
+
+/// How a child's run ended, when it ended by itself.
+#[derive(Debug)]
+pub(crate) struct Finished {
+    pub status: ExitStatus,
+    pub stdout: Captured,
+    pub stderr: Captured,
+}
+
+/// Why the wait for a child was given up; the child has been killed.
+#[derive(Debug)]
+pub(crate) enum Stopped {
+    /// It was still running at the deadline.
+    TimedOut { stderr: Captured },
+    /// A stop signal came (its number).
+    Interrupted(i32),
+    /// Waiting itself failed.
+    Failed(io::Error),
+}
+
+/// A running child with its output being read.
+#[derive(Debug)]
+pub(crate) struct Running {
+    child: Child,
+    reaped: bool,
+    stdout: Receiver<Captured>,
+    stderr: Receiver<Captured>,
+}
+
+/// How long to wait for the output readers once the child has ended: a
+/// grandchild that keeps the pipes open does not keep ampreport waiting.
+const READER_GRACE: Duration = Duration::from_secs(2);
+
+impl Running {
+    /// Starts `command` with no input and both outputs read in the
+    /// background, keeping at most `stdout_cap` and `stderr_cap` bytes.
+    pub fn spawn(mut command: Command, stdout_cap: usize, stderr_cap: usize) -> io::Result<Self> {
+        command
+            .stdin(Stdio::null())
+            .stdout(Stdio::piped())
+            .stderr(Stdio::piped());
+        own_group_dying_with_parent(&mut command);
+        let mut child = command.spawn()?;
+        let stdout = read_bounded(child.stdout.take(), stdout_cap);
+        let stderr = read_bounded(child.stderr.take(), stderr_cap);
+        Ok(Self {
+            child,
+            reaped: false,
+            stdout,
+            stderr,
+        })
+    }
+
+    /// Waits until the child ends, `timeout` passes or a stop signal comes.
+    pub fn wait(mut self, timeout: Duration) -> Result<Finished, Stopped> {
+        let deadline = Instant::now().checked_add(timeout);
+        let mut pause = Duration::from_millis(1);
+        loop {
+            match self.child.try_wait() {
+                Ok(Some(status)) => {
+                    self.reaped = true;
+                    return Ok(Finished {
+                        status,
+                        stdout: collect(&self.stdout),
+                        stderr: collect(&self.stderr),
+                    });
+                }
+                Ok(None) => {}
+                Err(e) => {
+                    self.kill();
+                    return Err(Stopped::Failed(e));
+                }
+            }
+            if let Some(signal) = interrupt::received() {
+                self.kill();
+                return Err(Stopped::Interrupted(signal));
+            }
+            let now = Instant::now();
+            if deadline.is_some_and(|d| now >= d) {
+                self.kill();
+                return Err(Stopped::TimedOut {
+                    stderr: collect(&self.stderr),
+                });
+            }
+            let left = deadline.map_or(pause, |d| d - now);
+            std::thread::sleep(pause.min(left));
+            pause = (pause * 2).min(Duration::from_millis(20));
+        }
+    }
+
+    /// Kills the child and its process group, and reaps it.
+    fn kill(&mut self) {
+        if self.reaped {
+            return;
+        }
+        kill_group(&self.child);
+        let _ = self.child.kill();
+        let _ = self.child.wait();
+        self.reaped = true;
+    }
+}
+
+impl Drop for Running {
+    fn drop(&mut self) {
+        self.kill();
+    }
+}
+
+/// What a reader thread collected, or nothing if it did not finish in time.
+fn collect(rx: &Receiver<Captured>) -> Captured {
+    rx.recv_timeout(READER_GRACE).unwrap_or_default()
+}
+
+/// Reads `source` to its end on a thread of its own, keeping `cap` bytes.
+fn read_bounded<R: Read + Send + 'static>(source: Option<R>, cap: usize) -> Receiver<Captured> {
+    let (tx, rx) = mpsc::channel();
+    let Some(mut source) = source else {
+        let _ = tx.send(Captured::default());
+        return rx;
+    };
+    let spawned = std::thread::Builder::new()
+        .name("typst-output".into())
+        .spawn(move || {
+            let mut captured = Captured::default();
+            let mut buf = [0u8; 8192];
+            loop {
+                match source.read(&mut buf) {
+                    Ok(0) => break,
+                    Ok(n) => {
+                        let room = cap.saturating_sub(captured.bytes.len()).min(n);
+                        captured.bytes.extend_from_slice(&buf[..room]);
+                        captured.dropped += (n - room) as u64;
+                    }
+                    Err(e) if e.kind() == io::ErrorKind::Interrupted => {}
+                    Err(_) => break,
+                }
+            }
+            let _ = tx.send(captured);
+        });
+    if spawned.is_err() {
+        // No thread: the pipe is dropped, and the child sees a closed pipe.
+        let (tx, rx) = mpsc::channel();
+        let _ = tx.send(Captured::default());
+        return rx;
+    }
+    rx
+}
+
+#[cfg(unix)]
+fn own_group_dying_with_parent(command: &mut Command) {
+    use std::os::unix::process::CommandExt;
+    command.process_group(0);
+    #[cfg(target_os = "linux")]
+    {
+        // SAFETY: the closure runs in the child between fork and exec and
+        // calls only async-signal-safe functions (prctl, getppid, _exit).
+        let parent = std::process::id() as libc::pid_t;
+        unsafe {
+            command.pre_exec(move || {
+                if libc::prctl(libc::PR_SET_PDEATHSIG, libc::SIGKILL, 0, 0, 0) != 0 {
+                    return Err(io::Error::last_os_error());
+                }
+                // The parent may have died before the line above.
+                if libc::getppid() != parent {
+                    libc::_exit(1);
+                }
+                Ok(())
+            });
+        }
+    }
+}
+
+#[cfg(not(unix))]
+fn own_group_dying_with_parent(_: &mut Command) {}
+
+#[cfg(unix)]
+fn kill_group(child: &Child) {
+    if let Ok(pid) = libc::pid_t::try_from(child.id()) {
+        // SAFETY: kill has no memory effects; the group is the child's own,
+        // and the child is not reaped yet, so its id is not reused.
+        unsafe {
+            libc::kill(-pid, libc::SIGKILL);
+        }
+    }
+}
+
+#[cfg(not(unix))]
+fn kill_group(_: &Child) {}
+
+/// The words for how a program ended: "exited with status 1", "was killed
+/// by signal 11 (SIGSEGV)".
+pub(crate) fn describe_status(status: &ExitStatus) -> String {
+    if let Some(code) = status.code() {
+        return format!("exited with status {code}");
+    }
+    #[cfg(unix)]
+    {
+        use std::os::unix::process::ExitStatusExt;
+        if let Some(signal) = status.signal() {
+            return match interrupt::signal_name(signal) {
+                Some(name) => format!("was killed by signal {signal} ({name})"),
+                None => format!("was killed by signal {signal}"),
+            };
+        }
+    }
+    format!("ended with {status}")
+}
+
+#[cfg(all(test, unix))]
+mod tests {
+    use super::*;
+
+    fn sh(script: &str) -> Command {
+        let mut c = Command::new("/bin/sh");
+        c.arg("-c").arg(script);
+        c
+    }
+
+    #[test]
+    fn output_is_kept_up_to_the_bound() {
+        let run = Running::spawn(
+            sh("head -c 100000 /dev/zero | tr '\\0' x; echo oops >&2; exit 3"),
+            1000,
+            1000,
+        )
+        .unwrap();
+        let done = run.wait(Duration::from_secs(60)).unwrap();
+        assert_eq!(done.stdout.bytes.len(), 1000);
+        assert_eq!(done.stdout.dropped, 99_000);
+        assert_eq!(done.stderr.text(), "oops");
+        assert_eq!(describe_status(&done.status), "exited with status 3");
+        assert!(
+            done.stdout
+                .text()
+                .ends_with("[… 99000 more bytes of output not shown]")
+        );
+    }
+
+    #[test]
+    fn a_child_past_its_deadline_is_killed_with_its_own_children() {
+        let dir = tempfile::tempdir().unwrap();
+        let pids = dir.path().join("pids");
+        // The shell starts a sleep of its own, which keeps the pipes open.
+        let script = format!(
+            "sleep 30 & echo $! > {p}; echo started >&2; wait",
+            p = pids.display()
+        );
+        let start = Instant::now();
+        let run = Running::spawn(sh(&script), 100, 100).unwrap();
+        let stopped = run.wait(Duration::from_millis(300)).unwrap_err();
+        assert!(start.elapsed() < Duration::from_secs(10));
+        let Stopped::TimedOut { stderr } = stopped else {
+            panic!("expected a time-out, got {stopped:?}");
+        };
+        assert_eq!(stderr.text(), "started");
+        let grandchild: i32 = std::fs::read_to_string(&pids)
+            .unwrap()
+            .trim()
+            .parse()
+            .unwrap();
+        // The grandchild is gone (or a zombie waiting for its new parent).
+        let deadline = Instant::now() + Duration::from_secs(10);
+        loop {
+            let stat = std::fs::read_to_string(format!("/proc/{grandchild}/stat"));
+            let alive = stat.is_ok_and(|s| {
+                s.rsplit(')')
+                    .next()
+                    .map(str::trim_start)
+                    .is_some_and(|r| !r.starts_with('Z'))
+            });
+            if !alive {
+                break;
+            }
+            assert!(
+                Instant::now() < deadline,
+                "the sleep {grandchild} still runs"
+            );
+            std::thread::sleep(Duration::from_millis(20));
+        }
+    }
+
+    #[test]
+    fn a_signal_death_is_named() {
+        let run = Running::spawn(sh("kill -SEGV $$"), 10, 10).unwrap();
+        let done = run.wait(Duration::from_secs(60)).unwrap();
+        assert_eq!(
+            describe_status(&done.status),
+            "was killed by signal 11 (SIGSEGV)"
+        );
+    }
+}

@@ -1,0 +1,431 @@
+//! Where a document may be written. One check, [`check_output`], for every
+//! command that writes a file from inputs: it is given every input path the
+//! run reads (job, ratings, template folder, shop file, photos, the typst
+//! program) and refuses an output that would destroy one of them or that is
+//! not an ordinary file. [`check_emit_folder`] does the same for the
+//! `--emit-source` folder, whose old contents are replaced.
+//!
+//! The rules, in order:
+//!
+//! * a path that ends in a folder (`out/`, `.`, `..`) is refused;
+//! * a symbolic link is refused, wherever it points: renaming the new PDF
+//!   into place would replace the link itself, and following it would write
+//!   somewhere the command line does not name. Name the link's target with
+//!   `-o` instead;
+//! * anything that exists and is not a regular file (a folder, a FIFO, a
+//!   device such as `/dev/null`, a socket) is refused;
+//! * the output's folder must exist;
+//! * an output that is the same file as an input (also through another
+//!   name: a hard link, a symbolic link to the input, `./job.kdl`) is
+//!   refused, and so is an output inside an input folder (the `--templates`
+//!   folder, whose files are all read).
+
+use std::path::{Path, PathBuf};
+
+/// A path the run reads, with what it is in words ("the job file").
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub struct Input {
+    pub path: PathBuf,
+    pub what: String,
+}
+
+impl Input {
+    pub fn new(path: impl Into<PathBuf>, what: impl Into<String>) -> Self {
+        Self {
+            path: path.into(),
+            what: what.into(),
+        }
+    }
+}
+
+/// Why an output path is refused. Nothing has been written when this is
+/// returned.
+#[derive(Debug, Clone, PartialEq, Eq, thiserror::Error, miette::Diagnostic)]
+pub enum OutputRefused {
+    #[error("the output {} names a folder, not a file", path.display())]
+    #[diagnostic(
+        code(ampreport::output::folder),
+        help("name the PDF file, for example `-o {}`", path.join("report.pdf").display())
+    )]
+    Folder { path: PathBuf },
+
+    #[error("the output {} is a symbolic link (to {}); ampreport does not write through links", path.display(), target.display())]
+    #[diagnostic(
+        code(ampreport::output::link),
+        help("name the file itself with `-o`, or remove the link")
+    )]
+    Link { path: PathBuf, target: PathBuf },
+
+    #[error("the output {} exists and is {kind}, not a regular file", path.display())]
+    #[diagnostic(
+        code(ampreport::output::not_a_file),
+        help("ampreport writes the PDF only over a regular file; name another path with `-o`")
+    )]
+    NotAFile { path: PathBuf, kind: &'static str },
+
+    #[error("the folder of the output {} does not exist", path.display())]
+    #[diagnostic(
+        code(ampreport::output::no_folder),
+        help("create the folder first, or name another path with `-o`")
+    )]
+    NoFolder { path: PathBuf },
+
+    #[error("the output {} is {what} ({}); writing the PDF there would destroy it", path.display(), input.display())]
+    #[diagnostic(code(ampreport::output::is_input), help("name another path with `-o`"))]
+    IsInput {
+        path: PathBuf,
+        input: PathBuf,
+        what: String,
+    },
+
+    #[error("the output {} is inside {what} ({})", path.display(), input.display())]
+    #[diagnostic(
+        code(ampreport::output::inside_input),
+        help("ampreport reads every file in that folder; write the PDF somewhere else with `-o`")
+    )]
+    InsideInput {
+        path: PathBuf,
+        input: PathBuf,
+        what: String,
+    },
+
+    #[error("the source folder {} {problem}", path.display())]
+    #[diagnostic(code(ampreport::output::emit_folder), help("{help}"))]
+    EmitFolder {
+        path: PathBuf,
+        problem: String,
+        help: String,
+    },
+}
+
+/// Checks that a file may be written at `output` by a run that reads
+/// `inputs`. See the module documentation for the rules.
+pub fn check_output(output: &Path, inputs: &[Input]) -> Result<(), OutputRefused> {
+    if names_a_folder(output) {
+        return Err(OutputRefused::Folder {
+            path: output.to_path_buf(),
+        });
+    }
+    let existing = std::fs::symlink_metadata(output).ok();
+    if let Some(meta) = &existing {
+        let kind = meta.file_type();
+        if kind.is_symlink() {
+            return Err(OutputRefused::Link {
+                path: output.to_path_buf(),
+                target: std::fs::read_link(output).unwrap_or_default(),
+            });
+        }
+        if !kind.is_file() {
+            return Err(OutputRefused::NotAFile {
+                path: output.to_path_buf(),
+                kind: kind_words(&kind),
+            });
+        }
+    }
+    let folder = parent_folder(output);
+    if !folder.is_dir() {
+        return Err(OutputRefused::NoFolder {
+            path: output.to_path_buf(),
+        });
+    }
+    let resolved = resolved(output);
+    for input in inputs {
+        let Ok(meta) = std::fs::metadata(&input.path) else {
+            continue;
+        };
+        if meta.is_dir() {
+            if let (Some(out), Ok(dir)) = (&resolved, input.path.canonicalize())
+                && out.starts_with(&dir)
+            {
+                return Err(OutputRefused::InsideInput {
+                    path: output.to_path_buf(),
+                    input: input.path.clone(),
+                    what: input.what.clone(),
+                });
+            }
+            continue;
+        }
+        let same = match &existing {
+            Some(out_meta) => same_file(out_meta, &meta),
+            None => false,
+        } || (resolved.is_some() && resolved == input.path.canonicalize().ok());
+        if same {
+            return Err(OutputRefused::IsInput {
+                path: output.to_path_buf(),
+                input: input.path.clone(),
+                what: input.what.clone(),
+            });
+        }
+    }
+    Ok(())
+}
+
+/// Checks that the `--emit-source` folder `dir` may be filled by a run that
+/// reads `inputs` and writes `output`: it is not a link or a file, is empty
+/// or missing unless `force`, holds none of the inputs or the output and
+/// lies inside no input folder, and is not the current folder, one above
+/// it, or the home folder (which `force` would empty).
+pub fn check_emit_folder(
+    dir: &Path,
+    inputs: &[Input],
+    output: &Path,
+    force: bool,
+) -> Result<(), OutputRefused> {
+    let refuse = |problem: String, help: &str| OutputRefused::EmitFolder {
+        path: dir.to_path_buf(),
+        problem,
+        help: help.to_owned(),
+    };
+    if let Ok(meta) = std::fs::symlink_metadata(dir) {
+        let kind = meta.file_type();
+        if kind.is_symlink() {
+            return Err(refuse(
+                "is a symbolic link; ampreport does not write through links".into(),
+                "name the folder itself, or remove the link",
+            ));
+        }
+        if !kind.is_dir() {
+            return Err(refuse(
+                format!("exists and is {}, not a folder", kind_words(&kind)),
+                "name a new or empty folder",
+            ));
+        }
+        let has_entries = std::fs::read_dir(dir)
+            .map(|mut e| e.next().is_some())
+            .unwrap_or(true);
+        if has_entries && !force {
+            return Err(refuse(
+                "is not empty".into(),
+                "name a new or empty folder, or add --force to replace everything in it",
+            ));
+        }
+    }
+    let target = match resolved(dir) {
+        Some(t) => t,
+        // `/`, `.`, `..`: the folder itself.
+        None => match dir.canonicalize() {
+            Ok(t) => t,
+            Err(_) => return Ok(()),
+        },
+    };
+    let home = std::env::var_os("HOME")
+        .map(PathBuf::from)
+        .and_then(|h| h.canonicalize().ok());
+    let cwd = std::env::current_dir()
+        .ok()
+        .and_then(|c| c.canonicalize().ok());
+    if target.parent().is_none()
+        || home.as_ref() == Some(&target)
+        || cwd.as_ref().is_some_and(|c| c.starts_with(&target))
+    {
+        return Err(refuse(
+            "is the root, home or current folder, or holds the current folder".into(),
+            "name a folder of its own for the source, such as `./handover-source`",
+        ));
+    }
+    let mut touched: Vec<(PathBuf, String)> = inputs
+        .iter()
+        .map(|i| (i.path.clone(), i.what.clone()))
+        .collect();
+    touched.push((output.to_path_buf(), "the PDF output".to_owned()));
+    for (path, what) in touched {
+        let Some(other) = resolved(&path) else {
+            continue;
+        };
+        if other.starts_with(&target) || (path.is_dir() && target.starts_with(&other)) {
+            return Err(refuse(
+                format!("overlaps {what} ({})", path.display()),
+                "name a folder of its own for the source, apart from the job, its inputs and the PDF",
+            ));
+        }
+    }
+    Ok(())
+}
+
+/// True when the path's last part is a folder name (`out/`, `.`, `..`).
+fn names_a_folder(path: &Path) -> bool {
+    let text = path.as_os_str().as_encoded_bytes();
+    text.is_empty()
+        || text.ends_with(b"/")
+        || (cfg!(windows) && text.ends_with(b"\\"))
+        || path.file_name().is_none()
+}
+
+/// The folder a path's last part sits in (`.` for a bare name).
+pub(crate) fn parent_folder(path: &Path) -> &Path {
+    match path.parent() {
+        Some(dir) if !dir.as_os_str().is_empty() => dir,
+        _ => Path::new("."),
+    }
+}
+
+/// The absolute path with every folder resolved, and the last part as
+/// given (it may not exist yet, and a link there is not followed).
+fn resolved(path: &Path) -> Option<PathBuf> {
+    let name = path.file_name()?;
+    Some(parent_folder(path).canonicalize().ok()?.join(name))
+}
+
+#[cfg(unix)]
+fn same_file(a: &std::fs::Metadata, b: &std::fs::Metadata) -> bool {
+    use std::os::unix::fs::MetadataExt;
+    a.dev() == b.dev() && a.ino() == b.ino()
+}
+
+#[cfg(not(unix))]
+fn same_file(_: &std::fs::Metadata, _: &std::fs::Metadata) -> bool {
+    false
+}
+
+fn kind_words(kind: &std::fs::FileType) -> &'static str {
+    #[cfg(unix)]
+    {
+        use std::os::unix::fs::FileTypeExt;
+        if kind.is_fifo() {
+            return "a FIFO (named pipe)";
+        }
+        if kind.is_char_device() || kind.is_block_device() {
+            return "a device";
+        }
+        if kind.is_socket() {
+            return "a socket";
+        }
+    }
+    if kind.is_dir() {
+        "a folder"
+    } else if kind.is_symlink() {
+        "a symbolic link"
+    } else {
+        "not a regular file"
+    }
+}
+
+#[cfg(all(test, unix))]
+mod tests {
+    use super::*;
+
+    fn job_in(dir: &Path) -> (PathBuf, Vec<Input>) {
+        let job = dir.join("job.kdl");
+        std::fs::write(&job, "job").unwrap();
+        let inputs = vec![Input::new(&job, "the job file")];
+        (job, inputs)
+    }
+
+    #[test]
+    fn a_plain_new_or_existing_pdf_is_fine() {
+        let dir = tempfile::tempdir().unwrap();
+        let (_, inputs) = job_in(dir.path());
+        check_output(&dir.path().join("job.pdf"), &inputs).unwrap();
+        std::fs::write(dir.path().join("old.pdf"), "%PDF-").unwrap();
+        check_output(&dir.path().join("old.pdf"), &inputs).unwrap();
+    }
+
+    #[test]
+    fn the_input_itself_under_any_name_is_refused() {
+        let dir = tempfile::tempdir().unwrap();
+        let (job, inputs) = job_in(dir.path());
+        std::fs::create_dir(dir.path().join("sub")).unwrap();
+        let hard = dir.path().join("hard.pdf");
+        std::fs::hard_link(&job, &hard).unwrap();
+        for output in [
+            job.clone(),
+            dir.path().join("sub/../job.kdl"),
+            dir.path().join("./job.kdl"),
+            hard,
+        ] {
+            let err = check_output(&output, &inputs).unwrap_err();
+            assert!(
+                matches!(err, OutputRefused::IsInput { .. }),
+                "{output:?}: {err:?}"
+            );
+            assert!(err.to_string().contains("the job file"), "{err}");
+        }
+    }
+
+    #[test]
+    fn links_folders_and_special_files_are_refused() {
+        let dir = tempfile::tempdir().unwrap();
+        let (_, inputs) = job_in(dir.path());
+        let pdf = dir.path().join("real.pdf");
+        std::fs::write(&pdf, "%PDF-").unwrap();
+        let link = dir.path().join("link.pdf");
+        std::os::unix::fs::symlink(&pdf, &link).unwrap();
+        let err = check_output(&link, &inputs).unwrap_err();
+        assert!(matches!(err, OutputRefused::Link { .. }), "{err:?}");
+        assert!(err.to_string().contains("real.pdf"), "{err}");
+        let dangling = dir.path().join("dangling.pdf");
+        std::os::unix::fs::symlink(dir.path().join("nowhere"), &dangling).unwrap();
+        assert!(matches!(
+            check_output(&dangling, &inputs),
+            Err(OutputRefused::Link { .. })
+        ));
+        assert!(matches!(
+            check_output(Path::new("/dev/null"), &inputs),
+            Err(OutputRefused::NotAFile {
+                kind: "a device",
+                ..
+            })
+        ));
+        let fifo = dir.path().join("fifo.pdf");
+        let c = std::ffi::CString::new(fifo.as_os_str().as_encoded_bytes()).unwrap();
+        // SAFETY: a valid NUL-terminated path.
+        assert_eq!(unsafe { libc::mkfifo(c.as_ptr(), 0o600) }, 0);
+        let err = check_output(&fifo, &inputs).unwrap_err();
+        assert!(err.to_string().contains("FIFO"), "{err}");
+        for folder in [
+            dir.path().to_path_buf(),
+            dir.path().join("x/"),
+            PathBuf::from("."),
+        ] {
+            assert!(check_output(&folder, &inputs).is_err(), "{folder:?}");
+        }
+        assert!(matches!(
+            check_output(&dir.path().join("missing/x.pdf"), &inputs),
+            Err(OutputRefused::NoFolder { .. })
+        ));
+    }
+
+    #[test]
+    fn inside_an_input_folder_is_refused() {
+        let dir = tempfile::tempdir().unwrap();
+        let templates = dir.path().join("templates");
+        std::fs::create_dir_all(templates.join("images")).unwrap();
+        let inputs = vec![Input::new(&templates, "the template folder")];
+        let err = check_output(&templates.join("images/x.pdf"), &inputs).unwrap_err();
+        assert!(matches!(err, OutputRefused::InsideInput { .. }), "{err:?}");
+        check_output(&dir.path().join("x.pdf"), &inputs).unwrap();
+    }
+
+    #[test]
+    fn the_source_folder_must_be_new_empty_or_forced_and_apart() {
+        let dir = tempfile::tempdir().unwrap();
+        let (job, inputs) = job_in(dir.path());
+        let pdf = dir.path().join("job.pdf");
+        let src = dir.path().join("src");
+        check_emit_folder(&src, &inputs, &pdf, false).unwrap();
+        std::fs::create_dir(&src).unwrap();
+        check_emit_folder(&src, &inputs, &pdf, false).unwrap();
+        std::fs::write(src.join("main.typ"), "hand-edited").unwrap();
+        let err = check_emit_folder(&src, &inputs, &pdf, false).unwrap_err();
+        assert!(err.to_string().contains("not empty"), "{err}");
+        assert!(
+            miette::Diagnostic::help(&err)
+                .unwrap()
+                .to_string()
+                .contains("--force")
+        );
+        check_emit_folder(&src, &inputs, &pdf, true).unwrap();
+        // The folder holding the job, or the PDF, is never replaced.
+        let err = check_emit_folder(dir.path(), &inputs, &pdf, true).unwrap_err();
+        assert!(err.to_string().contains("the job file"), "{err}");
+        let err = check_emit_folder(&src, &inputs, &src.join("x.pdf"), true).unwrap_err();
+        assert!(err.to_string().contains("the PDF output"), "{err}");
+        let _ = job;
+        // Nor a link, a file, or the root.
+        let link = dir.path().join("link");
+        std::os::unix::fs::symlink(&src, &link).unwrap();
+        assert!(check_emit_folder(&link, &inputs, &pdf, true).is_err());
+        assert!(check_emit_folder(&src.join("main.typ"), &inputs, &pdf, true).is_err());
+        assert!(check_emit_folder(Path::new("/"), &[], &pdf, true).is_err());
+    }
+}

@@ -1,0 +1,293 @@
+//! Helpers shared by the fault tests: running the binary with a private
+//! temporary folder and font cache, stand-in typst programs whose behaviour
+//! is fixed (slow, crashing, lying about success), and small PDFs made with
+//! lopdf that do or do not carry the mains-safety notice.
+
+#![allow(dead_code)]
+
+use std::collections::BTreeSet;
+use std::path::{Path, PathBuf};
+use std::process::{Command, Output};
+use std::time::{Duration, Instant};
+
+/// The binary under test: this build's, or the one named by
+/// `AMPREPORT_TEST_BIN` (to show that a fault test fails on an older
+/// build: `AMPREPORT_TEST_BIN=/path/to/old/ampreport cargo test --test …`).
+pub fn bin() -> String {
+    std::env::var("AMPREPORT_TEST_BIN")
+        .unwrap_or_else(|_| env!("CARGO_BIN_EXE_ampreport").to_owned())
+}
+
+/// The phrases the finished document must show (the program's own list).
+pub use ampreport::report::handover::NOTICE_PHRASES;
+
+pub fn repo() -> PathBuf {
+    PathBuf::from(env!("CARGO_MANIFEST_DIR"))
+}
+
+pub fn demo(name: &str) -> PathBuf {
+    repo().join("jobs").join(format!("{name}.kdl"))
+}
+
+/// True when the real typst is on PATH; false, with a note, where it is not
+/// installed (never under CI, where it must be).
+pub fn real_typst() -> bool {
+    match Command::new("typst").arg("--version").output() {
+        Ok(out) if out.status.success() => true,
+        _ if std::env::var_os("CI").is_none() => {
+            eprintln!("note: skipping: no typst on PATH");
+            false
+        }
+        _ => panic!("typst is needed for these tests under CI"),
+    }
+}
+
+/// A scene for one test: a folder with a copy of a demo job and a good old
+/// PDF beside it, a private temporary folder (`TMPDIR`) and a stand-in
+/// typst folder.
+pub struct Scene {
+    pub root: tempfile::TempDir,
+    pub dir: PathBuf,
+    pub job: PathBuf,
+    pub pdf: PathBuf,
+    pub tmp: PathBuf,
+    pub bin: PathBuf,
+}
+
+pub const GOOD_OLD_PDF: &[u8] = b"%PDF-1.7 the good old document\n%%EOF\n";
+
+impl Scene {
+    pub fn new() -> Self {
+        let root = tempfile::tempdir().unwrap();
+        let dir = root.path().join("work");
+        let tmp = root.path().join("tmp");
+        let bin = root.path().join("bin");
+        for d in [&dir, &tmp, &bin] {
+            std::fs::create_dir(d).unwrap();
+        }
+        let job = dir.join("job.kdl");
+        std::fs::copy(demo("combo-el84-cathode"), &job).unwrap();
+        let pdf = dir.join("job.pdf");
+        std::fs::write(&pdf, GOOD_OLD_PDF).unwrap();
+        Self {
+            root,
+            dir,
+            job,
+            pdf,
+            tmp,
+            bin,
+        }
+    }
+
+    /// `ampreport ARGS` with this scene's TMPDIR and font cache.
+    pub fn command(&self, args: &[&str]) -> Command {
+        let mut c = self.program(&bin());
+        c.args(args);
+        c
+    }
+
+    /// `program` with this scene's environment (TMPDIR, font cache).
+    pub fn program(&self, program: &str) -> Command {
+        let mut c = Command::new(program);
+        c.env_remove("AMPREPORT_TYPST")
+            .env_remove("AMPREPORT_TIMEOUT")
+            .env("TMPDIR", &self.tmp)
+            .env("XDG_CACHE_HOME", cache_home());
+        c
+    }
+
+    pub fn run(&self, args: &[&str]) -> Output {
+        self.command(args).output().unwrap()
+    }
+
+    /// `render JOB -o PDF --typst TYPST EXTRA…`, run to its end.
+    pub fn render(&self, typst: &Path, extra: &[&str]) -> Output {
+        self.render_to(&self.pdf, typst, extra)
+    }
+
+    /// `render JOB -o OUTPUT --typst TYPST EXTRA…`, run to its end.
+    pub fn render_to(&self, output: &Path, typst: &Path, extra: &[&str]) -> Output {
+        self.render_command(output, typst, extra).output().unwrap()
+    }
+
+    /// `render JOB -o OUTPUT --typst TYPST EXTRA…`, not started yet.
+    pub fn render_command(&self, output: &Path, typst: &Path, extra: &[&str]) -> Command {
+        let mut args = vec![
+            "render",
+            self.job.to_str().unwrap(),
+            "-o",
+            output.to_str().unwrap(),
+            "--typst",
+            typst.to_str().unwrap(),
+        ];
+        args.extend_from_slice(extra);
+        self.command(&args)
+    }
+
+    /// A stand-in typst: answers `--version` like typst 0.15.1, and for a
+    /// compile runs `body` with `$out` set to the output path and `$root`
+    /// to the `--root` folder.
+    pub fn fake_typst(&self, name: &str, body: &str) -> PathBuf {
+        let path = self.bin.join(name);
+        let script = format!(
+            "#!/bin/sh\nif [ \"$1\" = --version ]; then echo 'typst 0.15.1 (stand-in)'; exit 0; fi\n\
+             root=''; prev=''; for a in \"$@\"; do if [ \"$prev\" = --root ]; then root=$a; fi; prev=$a; out=$a; done\n\
+             {body}\n"
+        );
+        std::fs::write(&path, script).unwrap();
+        make_executable(&path);
+        path
+    }
+
+    /// A stand-in typst that writes a small complete PDF carrying the
+    /// notice, as a real typst would.
+    pub fn good_typst(&self) -> PathBuf {
+        let pdf = self.bin.join("notice.pdf");
+        std::fs::write(&pdf, pdf_with_text(NOTICE_PHRASES)).unwrap();
+        self.fake_typst("good-typst", &format!("cp '{}' \"$out\"", pdf.display()))
+    }
+
+    /// Names in the job's folder.
+    pub fn listing(&self) -> BTreeSet<String> {
+        listing(&self.dir)
+    }
+
+    /// Names in the private temporary folder.
+    pub fn temp_listing(&self) -> BTreeSet<String> {
+        listing(&self.tmp)
+    }
+
+    pub fn pdf_is_the_good_old_one(&self) -> bool {
+        std::fs::read(&self.pdf).unwrap() == GOOD_OLD_PDF
+    }
+}
+
+/// The font cache the tests share, under the build's temporary folder.
+pub fn cache_home() -> PathBuf {
+    PathBuf::from(env!("CARGO_TARGET_TMPDIR")).join("faults-cache-home")
+}
+
+pub fn listing(dir: &Path) -> BTreeSet<String> {
+    std::fs::read_dir(dir)
+        .unwrap()
+        .map(|e| e.unwrap().file_name().to_string_lossy().into_owned())
+        .collect()
+}
+
+pub fn stderr(out: &Output) -> String {
+    String::from_utf8_lossy(&out.stderr).into_owned()
+}
+
+#[cfg(unix)]
+pub fn make_executable(path: &Path) {
+    use std::os::unix::fs::PermissionsExt;
+    std::fs::set_permissions(path, std::fs::Permissions::from_mode(0o755)).unwrap();
+    // Another test thread forking while the script was open for writing can
+    // make it briefly "text file busy"; wait until it runs.
+    for _ in 0..200 {
+        match Command::new(path)
+            .arg("--version")
+            .env("FAKE_TYPST_PROBE", "1")
+            .output()
+        {
+            Err(e) if e.raw_os_error() == Some(26) => std::thread::sleep(Duration::from_millis(10)),
+            _ => break,
+        }
+    }
+}
+
+/// A one-page PDF showing each of `lines`, made with lopdf.
+pub fn pdf_with_text(lines: &[&str]) -> Vec<u8> {
+    use lopdf::content::{Content, Operation};
+    use lopdf::{Document, Object, Stream, dictionary};
+    let mut doc = Document::with_version("1.7");
+    let pages_id = doc.new_object_id();
+    let font_id = doc.add_object(dictionary! {
+        "Type" => "Font", "Subtype" => "Type1", "BaseFont" => "Helvetica",
+        "Encoding" => "WinAnsiEncoding",
+    });
+    let resources_id = doc.add_object(dictionary! { "Font" => dictionary! { "F1" => font_id } });
+    let mut operations = vec![
+        Operation::new("BT", vec![]),
+        Operation::new("Tf", vec!["F1".into(), 8.into()]),
+        Operation::new("TL", vec![12.into()]),
+        Operation::new("Td", vec![40.into(), 800.into()]),
+    ];
+    for line in lines {
+        operations.push(Operation::new("Tj", vec![Object::string_literal(*line)]));
+        operations.push(Operation::new("T*", vec![]));
+    }
+    operations.push(Operation::new("ET", vec![]));
+    let content = Content { operations };
+    let content_id = doc.add_object(Stream::new(dictionary! {}, content.encode().unwrap()));
+    let page_id = doc.add_object(dictionary! {
+        "Type" => "Page", "Parent" => pages_id, "Contents" => content_id,
+        "Resources" => resources_id, "MediaBox" => vec![0.into(), 0.into(), 595.into(), 842.into()],
+    });
+    doc.objects.insert(
+        pages_id,
+        Object::Dictionary(
+            dictionary! { "Type" => "Pages", "Kids" => vec![page_id.into()], "Count" => 1 },
+        ),
+    );
+    let catalog_id = doc.add_object(dictionary! { "Type" => "Catalog", "Pages" => pages_id });
+    doc.trailer.set("Root", catalog_id);
+    let mut bytes = Vec::new();
+    doc.save_to(&mut bytes).unwrap();
+    bytes
+}
+
+/// Waits until `path` exists, for at most a minute.
+pub fn wait_for_file(path: &Path) {
+    let deadline = Instant::now() + Duration::from_secs(60);
+    while !path.exists() {
+        assert!(
+            Instant::now() < deadline,
+            "{} never appeared",
+            path.display()
+        );
+        std::thread::sleep(Duration::from_millis(10));
+    }
+}
+
+/// True while process `pid` runs (a zombie does not count).
+#[cfg(target_os = "linux")]
+pub fn alive(pid: i32) -> bool {
+    std::fs::read_to_string(format!("/proc/{pid}/stat")).is_ok_and(|s| {
+        s.rsplit(')')
+            .next()
+            .map(str::trim_start)
+            .is_some_and(|rest| !rest.starts_with('Z'))
+    })
+}
+
+/// Waits up to ten seconds for process `pid` to end.
+#[cfg(target_os = "linux")]
+pub fn wait_gone(pid: i32) -> bool {
+    let deadline = Instant::now() + Duration::from_secs(10);
+    while alive(pid) {
+        if Instant::now() > deadline {
+            return false;
+        }
+        std::thread::sleep(Duration::from_millis(20));
+    }
+    true
+}
+
+/// Waits for a child with a limit, killing it past the limit.
+pub fn wait_with_limit(
+    child: &mut std::process::Child,
+    limit: Duration,
+) -> std::process::ExitStatus {
+    let deadline = Instant::now() + limit;
+    loop {
+        if let Some(status) = child.try_wait().unwrap() {
+            return status;
+        }
+        if Instant::now() > deadline {
+            let _ = child.kill();
+            panic!("ampreport did not end within {limit:?}");
+        }
+        std::thread::sleep(Duration::from_millis(10));
+    }
+}
