@@ -142,6 +142,64 @@ fn el84_supply_figures() {
     status(heater, "over"); // heater 6.3 V ±10 %, common practice (many datasheets say ±10 %, from memory): +11.1 % is above
 }
 
+#[test]
+fn el84_bench_tests_as_left() {
+    let v = calc("combo-el84-cathode.kdl");
+    let b = &set(&v, "as left")["bench"];
+    let p = &b["output_power"][0];
+    near(&p["output_power_w"], 14.045, 1e-4); // Joule's law P = V²/R (textbook): 10.6² / 8 Ω = 112.36 / 8 = 14.045 W
+    near(&p["output_power_pct_of_rated"], 93.6333, 1e-3); // 14.045 W / rated 15 W = 93.63 %
+    status(p, "ok"); // above the 80 % guide (common practice: a healthy old unit reaches about 80 % or more)
+    let h = &b["hum_noise"][0];
+    near(&h["hum_noise_mv"], 3.1, 1e-9);
+    near(&h["hum_noise_dbv"], -50.1728, 1e-3); // dBV = 20·log10(V / 1 V) (textbook): 20·log10(0.0031) = −50.17 dBV
+    near(&h["hum_noise_db_below_full"], 70.6789, 1e-3); // 20·log10(Vfull/Vnoise) (textbook): 20·log10(10.6 / 0.0031) = 70.68 dB
+    assert_eq!(h["full_output_from"], "measured");
+    near(&b["hum_noise"][1]["hum_noise_db_below_full"], 65.5424, 1e-3); // 20·log10(10.6 / 0.0056) = 65.54 dB (textbook)
+    near(&b["gains"][0]["gain_db"], 40.9516, 1e-3); // gain = 20·log10(Vout/Vin) (textbook): 20·log10(10.6 / 0.095) = 40.95 dB
+    let r = &b["responses"][0];
+    assert_eq!(r["points"].as_array().unwrap().len(), 7);
+    near(&r["points"][0]["response_db"], -3.74173, 1e-4); // 20·log10(2.6 / 4.0) = −3.742 dB (textbook)
+    near(&r["points"][1]["response_db"], -0.677165, 1e-5); // 20·log10(3.7 / 4.0) = −0.677 dB
+    near(&r["points"][3]["response_db"], 0.0, 1e-12); // the 1 kHz reference itself
+    near(&r["points"][6]["response_db"], -4.0824, 1e-4); // 20·log10(2.5 / 4.0) = −4.082 dB
+    // −3 dB by linear interpolation in dB on a log-frequency axis (textbook):
+    // low, between 100 Hz (−0.677) and 40 Hz (−3.742): t = 2.323/3.065 = 0.7580, f = 100 × 0.4^0.7580 = 49.93 Hz;
+    // high, between 10 kHz (−1.671) and 16 kHz (−4.082): t = 1.329/2.411 = 0.5511, f = 10k × 1.6^0.5511 = 12.96 kHz.
+    near(&r["minus_3db_low_hz"], 49.9316, 1e-3);
+    near(&r["minus_3db_high_hz"], 12956.9, 0.5);
+    let glance = find(&v["at_a_glance"], "family", "bench_tests");
+    status(glance, "ok");
+}
+
+#[test]
+fn el84_cathode_resistor_suggestion_as_found() {
+    let v = calc("combo-el84-cathode.kdl");
+    let s = &set(&v, "as found")["cathode_resistor_suggestions"][0];
+    assert_eq!(s["reference"], "R24");
+    assert_eq!(s["why"], "above_guide"); // 121 % is above the 90 % cathode-bias guide (common practice)
+    near(&s["mu_g1g2"], 19.0, 1e-12); // EL84 μg1g2 19, from memory of manufacturer data
+    // Three-halves power law (classic valve handbooks, from memory), fitted at Vk 11.6 V, Ik 44.615 mA, screen 334 V:
+    // Veff = (334 − 11.6)/19 − 11.6 = 5.3684 V; K = 44.615 mA / 5.3684^1.5 = 3.5869 mA/V^1.5.
+    near(&s["law_constant_ma_per_v1_5"], 3.58686, 1e-4);
+    near(&s["target_plate_dissipation_w"], 10.2, 1e-9); // 85 % (common practice) of 12 W
+    // Worked by hand: Pa(Vk) = (338 − Vk)·K·((334 − Vk)/19 − Vk)^1.5 with n = 2 on the resistor;
+    // Vk = 12.6 V: Veff = 4.3158, Ik = 32.159 mA, Pa = 10.465 W; Vk = 12.7 V: Veff = 4.2105, Ik = 30.990 mA, Pa = 10.081 W;
+    // linear for 10.2 W: Vk = 12.669 V, Ik = 31.35 mA, Rk = Vk / (2·Ik) = 12.669 / 0.06270 = 202.0 Ω.
+    near(&s["exact_ohms"], 202.05, 202.05 * 0.01);
+    let e24 = find(&s["options"], "series", "E24");
+    near(&e24["resistance_ohms"], 200.0, 1e-12); // IEC 60063 E24: 200 Ω is nearest 202 Ω
+    // At 200 Ω the loop Vk = 2 × 200 Ω × Ik(Vk) settles at Vk = 12.646 V, Ik = 31.616 mA (check: 400 × 0.031616 = 12.646);
+    // Pa = (338 − 12.646) × 31.616 mA = 10.286 W, 85.7 % of 12 W; resistor Vk²/Rk = 12.646² / 200 = 0.7996 W (Joule's law).
+    near(&e24["cathode_volts"], 12.6463, 1e-3);
+    near(&e24["cathode_current_ma"], 31.6158, 1e-3);
+    near(&e24["plate_dissipation_w"], 10.2863, 1e-3);
+    near(&e24["resistor_power_w"], 0.799647, 1e-5);
+    near(&e24["resistor_rating_w"], 2.0, 1e-12); // at least 2 × 0.80 = 1.6 W (common practice), so a 2 W part
+    let e12 = find(&s["options"], "series", "E12");
+    near(&e12["resistance_ohms"], 220.0, 1e-12); // IEC 60063 E12: 180 or 220; ln(220/202) = 0.085 < ln(202/180) = 0.115
+}
+
 // ----- combo-6v6-fixed: 120 V combo, fixed-bias 6V6GT pair with 1 Ω sense resistors -----
 
 #[test]
@@ -200,6 +258,18 @@ fn six_v6_pair_as_left_inside_the_target_window() {
 }
 
 #[test]
+fn six_v6_grid_estimate_for_the_middle_of_the_window() {
+    let v = calc("combo-6v6-fixed.kdl");
+    let w = &valve(set(&v, "as found"), "V3")["target_window"];
+    near(&w["plate_current_middle_ma"], 22.9327, 1e-3); // middle of the 50–70 % window: 0.6 × 12 W / (314 − 0.0385) V = 22.93 mA
+    // Three-halves power law (from memory), fitted at the reading: μg1g2 9.8 (6V6GT, from memory),
+    // Veff = (303.8 − 0.0385)/9.8 + (−19.5 − 0.0385) = 11.4576 V; K = 38.5 mA / 11.4576^1.5 = 0.99271 mA/V^1.5.
+    // Ia/Ik = 35.9468/38.5 = 0.93368, so the middle needs Ik = 22.9327/0.93368 = 24.5615 mA;
+    // Veff = (24.5615/0.99271)^(2/3) = 8.4909 V; Vg = 8.4909 − 303.7615/9.8 + 0.0385 = −22.467 V.
+    near(&w["grid_for_middle_volts"], -22.4666, 1e-3);
+}
+
+#[test]
 fn six_v6_supply_figures() {
     let v = calc("combo-6v6-fixed.kdl");
     let found = set(&v, "as found");
@@ -242,6 +312,8 @@ fn el34_quad_as_found_from_the_half_primary_drops() {
         near(&x["plate_dissipation_pct"], 85.6579, 1e-2); // EL34 Pa(max) 25 W, manufacturer data from memory: 21.414/25 = 85.66 %
         near(&x["corrected_plate_dissipation_w"], 20.3394, 1e-3); // common practice: 21.414 × (230/236)² = 20.339 W
         near(&x["high_line_plate_dissipation_pct"], 98.4429, 1e-2); // IEC 60038 +10 % from memory: 20.339 × 1.21 / 25 = 98.44 %
+        // No grid reading, so no grid-voltage estimate for the window (the three-halves law needs one).
+        assert!(x["target_window"]["grid_for_middle_volts"].is_null());
         let w = &x["target_window"];
         near(&w["plate_current_low_ma"], 26.8817, 1e-3); // common practice 50 %: 12.5 W / 465 V = 26.882 mA
         near(&w["plate_current_high_ma"], 37.6344, 1e-3); // common practice 70 %: 17.5 W / 465 V = 37.634 mA

@@ -23,10 +23,24 @@ fn corpus() -> Vec<PathBuf> {
     let mut files: Vec<PathBuf> = std::fs::read_dir(dir)
         .expect("tests/fuzz-corpus exists")
         .map(|e| e.expect("entry").path())
-        .filter(|p| p.extension().is_some_and(|e| e == "kdl"))
+        // `.txt`, not `.kdl`: most are broken on purpose, and every `.kdl`
+        // file of the repository must be valid KDL (tests/kdl_differential.rs).
+        .filter(|p| p.extension().is_some_and(|e| e == "txt"))
         .collect();
     files.sort();
     files
+}
+
+/// Writes the job file of seed FUZZ_SEED to FUZZ_WRITE, to look at a case.
+#[test]
+#[ignore]
+fn write_case() {
+    let seed: u64 = std::env::var("FUZZ_SEED")
+        .ok()
+        .and_then(|v| v.parse().ok())
+        .unwrap_or(0);
+    let path = std::env::var("FUZZ_WRITE").unwrap_or_else(|_| "case.kdl".into());
+    std::fs::write(path, generated_job(seed)).expect("write the case");
 }
 
 /// Each file found by an earlier run: sound output, and quick.
@@ -83,7 +97,14 @@ fn long_run() {
     let (mut panics, mut unsound, mut slow) = (0u64, 0u64, 0u64);
     let mut slowest = Duration::ZERO;
     let mut bytes = 0u64;
+    // FUZZ_TRACE=1 writes each seed before its case, so a case that
+    // aborts the process (a stack overflow) can be found again.
+    let trace = std::env::var_os("FUZZ_TRACE").is_some();
+    let _ = std::fs::create_dir_all(&found);
     for seed in first..first + cases {
+        if trace {
+            let _ = std::fs::write(found.join("current-seed"), seed.to_string());
+        }
         let text = generated_job(seed);
         bytes += text.len() as u64;
         let build = seed % source_every == 0;

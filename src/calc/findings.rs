@@ -80,6 +80,9 @@ pub struct SettingsUsed {
     pub node_tolerance_pct: f64,
     pub silicon_drop_volts: f64,
     pub voltage_over_pct: f64,
+    pub output_power_caution_pct: f64,
+    pub hum_noise_caution_db: f64,
+    pub cathode_bias_target_pct: f64,
 }
 
 #[derive(Debug, Clone, Serialize)]
@@ -100,6 +103,222 @@ pub struct SetFindings {
     /// A valve rectifier's load against its rating, where it can be judged.
     pub rectifier: Option<RectifierFindings>,
     pub heaters: Vec<HeaterFindings>,
+    /// Output power, hum and noise, response and gain read on the bench.
+    pub bench: BenchFindings,
+    /// Cathode resistors that would bring the plate dissipation to the
+    /// target share, estimated from the three-halves power law.
+    pub cathode_resistor_suggestions: Vec<CathodeResistorSuggestion>,
+}
+
+/// The bench tests of one measurement set.
+#[derive(Debug, Clone, Default, Serialize)]
+pub struct BenchFindings {
+    pub output_power: Vec<OutputPowerFindings>,
+    pub hum_noise: Vec<HumNoiseFindings>,
+    pub responses: Vec<ResponseFindings>,
+    pub gains: Vec<GainFindings>,
+}
+
+impl BenchFindings {
+    pub fn is_empty(&self) -> bool {
+        self.output_power.is_empty()
+            && self.hum_noise.is_empty()
+            && self.responses.is_empty()
+            && self.gains.is_empty()
+    }
+}
+
+/// Output power into a dummy load: P = V²rms / R.
+#[derive(Debug, Clone, Serialize)]
+pub struct OutputPowerFindings {
+    pub channel: Option<String>,
+    /// How the voltage was read: `rms` or `peak_to_peak`.
+    pub reading: crate::job::AcReading,
+    /// The voltage as read.
+    #[serde(serialize_with = "round6")]
+    pub reading_volts: f64,
+    /// RMS volts (Vpp / (2√2) for a peak-to-peak reading of a sine).
+    #[serde(serialize_with = "round6")]
+    pub rms_volts: f64,
+    #[serde(serialize_with = "round6")]
+    pub load_ohms: f64,
+    #[serde(serialize_with = "round6")]
+    pub frequency_hz: f64,
+    /// `clipping`, `distortion` or `drive`.
+    pub condition: &'static str,
+    #[serde(serialize_with = "round6_opt")]
+    pub distortion_pct: Option<f64>,
+    #[serde(serialize_with = "round6_opt")]
+    pub drive_volts: Option<f64>,
+    /// "at the onset of clipping", "at 5 % distortion", "with 500 mV drive".
+    pub condition_words: String,
+    #[serde(serialize_with = "round6")]
+    pub output_power_w: f64,
+    #[serde(serialize_with = "round6_opt")]
+    pub rated_power_w: Option<f64>,
+    #[serde(serialize_with = "round6_opt")]
+    pub output_power_pct_of_rated: Option<f64>,
+    #[serde(flatten)]
+    pub verdict: Verdict,
+}
+
+/// Hum and noise across the load with no signal.
+#[derive(Debug, Clone, Serialize)]
+pub struct HumNoiseFindings {
+    pub channel: Option<String>,
+    /// `shorted` or `open`.
+    pub input: &'static str,
+    pub volume: Option<String>,
+    #[serde(serialize_with = "round6")]
+    pub load_ohms: f64,
+    #[serde(serialize_with = "round6")]
+    pub hum_noise_mv: f64,
+    /// 20·log10(V / 1 V).
+    #[serde(serialize_with = "round6")]
+    pub hum_noise_dbv: f64,
+    /// The full output compared with, as RMS volts across this load.
+    #[serde(serialize_with = "round6_opt")]
+    pub full_output_volts: Option<f64>,
+    #[serde(serialize_with = "round6_opt")]
+    pub full_output_w: Option<f64>,
+    /// `measured` (an output-power reading of the set) or `rated`.
+    pub full_output_from: Option<&'static str>,
+    /// −20·log10(Vnoise / Vfull): positive when the noise is below full output.
+    #[serde(serialize_with = "round6_opt")]
+    pub hum_noise_db_below_full: Option<f64>,
+    #[serde(flatten)]
+    pub verdict: Verdict,
+}
+
+/// A frequency response against its reference frequency.
+#[derive(Debug, Clone, Serialize)]
+pub struct ResponseFindings {
+    pub channel: Option<String>,
+    #[serde(serialize_with = "round6_opt")]
+    pub load_ohms: Option<f64>,
+    #[serde(serialize_with = "round6_opt")]
+    pub input_volts: Option<f64>,
+    #[serde(serialize_with = "round6")]
+    pub reference_hz: f64,
+    #[serde(serialize_with = "round6")]
+    pub reference_volts: f64,
+    #[serde(serialize_with = "round6")]
+    pub lowest_hz: f64,
+    #[serde(serialize_with = "round6")]
+    pub highest_hz: f64,
+    /// In order of frequency.
+    pub points: Vec<ResponsePointFindings>,
+    /// Where the response crosses −3 dB below and above the reference,
+    /// interpolated on a log-frequency axis; null when the readings do not
+    /// fall to −3 dB on that side.
+    #[serde(serialize_with = "round6_opt")]
+    pub minus_3db_low_hz: Option<f64>,
+    #[serde(serialize_with = "round6_opt")]
+    pub minus_3db_high_hz: Option<f64>,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct ResponsePointFindings {
+    #[serde(serialize_with = "round6")]
+    pub frequency_hz: f64,
+    #[serde(serialize_with = "round6")]
+    pub output_volts: f64,
+    /// 20·log10(V / Vref).
+    #[serde(serialize_with = "round6")]
+    pub response_db: f64,
+}
+
+/// Input volts for an output reading.
+#[derive(Debug, Clone, Serialize)]
+pub struct GainFindings {
+    pub channel: Option<String>,
+    #[serde(serialize_with = "round6")]
+    pub frequency_hz: f64,
+    #[serde(serialize_with = "round6_opt")]
+    pub load_ohms: Option<f64>,
+    #[serde(serialize_with = "round6")]
+    pub input_volts: f64,
+    #[serde(serialize_with = "round6")]
+    pub output_volts: f64,
+    /// Vout / Vin.
+    #[serde(serialize_with = "round6")]
+    pub gain_times: f64,
+    /// 20·log10(Vout / Vin).
+    #[serde(serialize_with = "round6")]
+    pub gain_db: f64,
+}
+
+/// A cathode resistor that would put the plate dissipation at the target
+/// share of its rating: an estimate from the three-halves power law,
+/// calibrated at one measured point.
+#[derive(Debug, Clone, Serialize)]
+pub struct CathodeResistorSuggestion {
+    pub reference: String,
+    /// The valves sharing the resistor.
+    pub valves: Vec<String>,
+    /// The valve whose readings calibrate the law (the hottest on the
+    /// resistor).
+    pub calibrated_on: String,
+    pub valve_type: String,
+    /// `asked` (the set asks for it) or `above_guide` (a valve on the
+    /// resistor is above the cathode-bias caution guide).
+    pub why: &'static str,
+    /// The grid-to-screen amplification factor used (the triode μ for a
+    /// power triode).
+    #[serde(serialize_with = "round6")]
+    pub mu_g1g2: f64,
+    /// K in Ik = K·(Vg2k/μg1g2 + Vgk)^(3/2), in mA per V^(3/2).
+    #[serde(serialize_with = "round6")]
+    pub law_constant_ma_per_v1_5: f64,
+    #[serde(serialize_with = "round6")]
+    pub present_ohms: f64,
+    #[serde(serialize_with = "round6")]
+    pub present_cathode_volts: f64,
+    #[serde(serialize_with = "round6")]
+    pub present_cathode_current_ma: f64,
+    #[serde(serialize_with = "round6")]
+    pub present_plate_dissipation_w: f64,
+    #[serde(serialize_with = "round6")]
+    pub present_plate_dissipation_pct: f64,
+    #[serde(serialize_with = "round6")]
+    pub target_pct: f64,
+    #[serde(serialize_with = "round6")]
+    pub target_plate_dissipation_w: f64,
+    /// The resistance the law gives for the target; null when no cathode
+    /// resistor can bring the valve up to it.
+    #[serde(serialize_with = "round6_opt")]
+    pub exact_ohms: Option<f64>,
+    /// True when the plate current is taken as the cathode current.
+    pub plate_current_includes_screen: bool,
+    /// The nearest E12 and E24 values and what each would give.
+    pub options: Vec<CathodeResistorOption>,
+}
+
+/// One preferred value for a cathode resistor and its estimated result.
+#[derive(Debug, Clone, Serialize)]
+pub struct CathodeResistorOption {
+    /// `E12` or `E24`.
+    pub series: String,
+    #[serde(serialize_with = "round6")]
+    pub resistance_ohms: f64,
+    #[serde(serialize_with = "round6")]
+    pub cathode_volts: f64,
+    /// Per valve.
+    #[serde(serialize_with = "round6")]
+    pub cathode_current_ma: f64,
+    #[serde(serialize_with = "round6")]
+    pub plate_dissipation_w: f64,
+    #[serde(serialize_with = "round6")]
+    pub plate_dissipation_pct: f64,
+    /// Vk² / Rk.
+    #[serde(serialize_with = "round6")]
+    pub resistor_power_w: f64,
+    /// At least twice the power (common practice).
+    #[serde(serialize_with = "round6")]
+    pub resistor_rating_at_least_w: f64,
+    /// The smallest usual power rating at or above that.
+    #[serde(serialize_with = "round6")]
+    pub resistor_rating_w: f64,
 }
 
 /// A valve rectifier's DC load. Only the output valves' cathode currents
@@ -243,6 +462,14 @@ pub struct TargetWindow {
     pub probe_low_ma: Option<f64>,
     #[serde(serialize_with = "round6_opt")]
     pub probe_high_ma: Option<f64>,
+    /// Plate current at the middle of the window.
+    #[serde(serialize_with = "round6")]
+    pub plate_current_middle_ma: f64,
+    /// The grid voltage to ground estimated to bring the current to the
+    /// middle of the window (three-halves power law calibrated at the
+    /// measured point); null without a grid reading or μg1g2.
+    #[serde(serialize_with = "round6_opt")]
+    pub grid_for_middle_volts: Option<f64>,
     /// Whether the current is inside the window now.
     pub inside: bool,
     /// "inside", "above" or "below" the window.
@@ -376,15 +603,17 @@ pub enum Family {
     SupplyVoltages,
     StressedParts,
     Heater,
+    BenchTests,
     SafetyTests,
 }
 
 impl Family {
-    pub const ALL: [Family; 5] = [
+    pub const ALL: [Family; 6] = [
         Family::OutputValves,
         Family::SupplyVoltages,
         Family::StressedParts,
         Family::Heater,
+        Family::BenchTests,
         Family::SafetyTests,
     ];
 
@@ -394,6 +623,7 @@ impl Family {
             Family::SupplyVoltages => "Supply voltages against the chart",
             Family::StressedParts => "Stressed resistors, capacitors and rectifier",
             Family::Heater => "Heater supply",
+            Family::BenchTests => "Performance on the bench",
             Family::SafetyTests => "Electrical safety tests",
         }
     }
@@ -429,6 +659,9 @@ pub struct RatingUsed {
     /// "built in" or the shop file's path.
     pub origin: String,
     pub positions: Vec<String>,
+    /// The grid-to-screen amplification factor the bias estimates use,
+    /// when the row gives one.
+    pub mu_g1g2: Option<f64>,
 }
 
 #[derive(Debug, Clone, Serialize)]

@@ -1,6 +1,8 @@
 //! The calculation pass: pure functions from a [`Job`], the ratings table
 //! and the job's settings to [`Findings`]. No I/O, no page formatting.
 
+mod bench;
+mod bias_estimate;
 mod circuit;
 mod findings;
 mod mains;
@@ -10,6 +12,14 @@ mod status;
 mod supply;
 mod valve;
 
+pub use bench::{
+    condition_words, db_relative, dbv, gain_db, minus_3db_points, power_into,
+    rms_from_peak_to_peak, volts_for_power,
+};
+pub use bias_estimate::{
+    CathodePoint, ThreeHalvesLaw, cathode_resistor_for, grid_for_current, plate_dissipation_at,
+    resistor_rating_for,
+};
 pub use circuit::{
     cathode_bypass_corner, cathode_resistance, child_langmuir_factor, gain_bypassed,
     gain_unbypassed, parallel, phase_shift_frequency,
@@ -65,6 +75,10 @@ pub fn derive(job: &Job, ratings: &RatingsTable) -> Findings {
         let filter_capacitors = supply::capacitors(job, set, &circuit, settings, ratings);
         let heaters = supply::heaters(job, set, settings);
         let rectifier = supply::rectifier(job, &circuit, &valves, ratings);
+        let bench = bench::findings(job, set, settings);
+        let cathode_resistor_suggestions = bias_estimate::cathode_suggestions(
+            job, set, &circuit, settings, &valves, ratings, &mut notes,
+        );
         let found = SetFindings {
             label: set.label.clone(),
             mains_volts: set.mains.value.0,
@@ -78,6 +92,8 @@ pub fn derive(job: &Job, ratings: &RatingsTable) -> Findings {
             filter_capacitors,
             rectifier,
             heaters,
+            bench,
+            cathode_resistor_suggestions,
         };
         warnings.extend(set_warnings(&found));
         for n in notes {
@@ -144,6 +160,9 @@ pub fn derive(job: &Job, ratings: &RatingsTable) -> Findings {
             node_tolerance_pct: settings.node_tolerance * 100.0,
             silicon_drop_volts: settings.silicon_drop.0,
             voltage_over_pct: settings.voltage_over * 100.0,
+            output_power_caution_pct: settings.output_power_caution * 100.0,
+            hum_noise_caution_db: settings.hum_noise_caution_db,
+            cathode_bias_target_pct: settings.cathode_bias_target * 100.0,
         },
         sets,
         safety,
@@ -204,7 +223,21 @@ fn set_warnings(set: &SetFindings) -> Vec<Warning> {
     for h in &set.heaters {
         push("heater", &h.verdict);
     }
+    for p in &set.bench.output_power {
+        push(&bench_subject("output power", &p.channel), &p.verdict);
+    }
+    for h in &set.bench.hum_noise {
+        push(&bench_subject("hum and noise", &h.channel), &h.verdict);
+    }
     out
+}
+
+/// "output power" or "output power (clean channel)".
+fn bench_subject(what: &str, channel: &Option<String>) -> String {
+    match channel {
+        Some(c) => format!("{what} ({c} channel)"),
+        None => what.to_string(),
+    }
 }
 
 fn glance(
@@ -257,6 +290,18 @@ fn glance(
                 .iter()
                 .map(|h| ("heater".to_string(), &h.verdict))
                 .collect(),
+            (Family::BenchTests, Some(set)) => set
+                .bench
+                .output_power
+                .iter()
+                .map(|p| (bench_subject("output power", &p.channel), &p.verdict))
+                .chain(
+                    set.bench
+                        .hum_noise
+                        .iter()
+                        .map(|h| (bench_subject("hum and noise", &h.channel), &h.verdict)),
+                )
+                .collect(),
         };
         let worst = verdicts
             .iter()
@@ -279,6 +324,14 @@ fn glance(
                 "no safety tests recorded".to_string(),
                 false,
             ),
+            None if family == Family::BenchTests && last.is_some_and(|s| !s.bench.is_empty()) => (
+                Status::Ok,
+                ok_summary(family, last, safety).unwrap_or_default(),
+                true,
+            ),
+            None if family == Family::BenchTests => {
+                (Status::Ok, "no bench tests recorded".to_string(), false)
+            }
             None => (Status::Ok, "nothing measured".to_string(), false),
         };
         out.push(FamilyStatus {
@@ -382,6 +435,7 @@ fn ok_summary(
                 Some(parts.join("; "))
             }
         }
+        Family::BenchTests => bench_summary(&last?.bench),
         Family::Heater => {
             let h = last?.heaters.first()?;
             Some(format!(
@@ -398,6 +452,71 @@ fn ok_summary(
             ))
         }
     }
+}
+
+/// The bench tests of a set in one line: the largest output power, the
+/// hum and noise nearest full output, the first response's −3 dB points
+/// and the first gain.
+fn bench_summary(bench: &BenchFindings) -> Option<String> {
+    use crate::units::{QuantityKind as Q, format_engineering, format_sig};
+    let mut parts = Vec::new();
+    if let Some(p) = bench
+        .output_power
+        .iter()
+        .filter(|p| p.condition != "drive")
+        .max_by(|a, b| a.output_power_w.total_cmp(&b.output_power_w))
+    {
+        let mut words = format!(
+            "{} W into {} {}",
+            format_sig(p.output_power_w, 3),
+            format_engineering(p.load_ohms, Q::Resistance),
+            p.condition_words
+        );
+        if let Some(pct) = p.output_power_pct_of_rated {
+            words.push_str(&format!(" ({pct:.0} % of rated)"));
+        }
+        parts.push(words);
+    }
+    let quietest_margin = bench.hum_noise.iter().min_by(|a, b| {
+        a.hum_noise_db_below_full
+            .unwrap_or(f64::INFINITY)
+            .total_cmp(&b.hum_noise_db_below_full.unwrap_or(f64::INFINITY))
+    });
+    if let Some(h) = quietest_margin {
+        parts.push(match h.hum_noise_db_below_full {
+            Some(db) => format!("hum and noise {db:.0} dB below full output"),
+            None => format!(
+                "hum and noise {} ({:.1} dBV)",
+                format_engineering(h.hum_noise_mv / 1e3, Q::Voltage),
+                h.hum_noise_dbv
+            ),
+        });
+    }
+    if let Some(r) = bench.responses.first() {
+        let hz = |f: f64| format_engineering(f, Q::Frequency);
+        parts.push(match (r.minus_3db_low_hz, r.minus_3db_high_hz) {
+            (Some(lo), Some(hi)) => format!("−3 dB at {} and {}", hz(lo), hz(hi)),
+            (Some(lo), None) => format!(
+                "−3 dB at {}, within 3 dB up to {}",
+                hz(lo),
+                hz(r.highest_hz)
+            ),
+            (None, Some(hi)) => format!(
+                "within 3 dB down to {}, −3 dB at {}",
+                hz(r.lowest_hz),
+                hz(hi)
+            ),
+            (None, None) => format!(
+                "within 3 dB from {} to {}",
+                hz(r.lowest_hz),
+                hz(r.highest_hz)
+            ),
+        });
+    }
+    if let Some(g) = bench.gains.first() {
+        parts.push(format!("gain {:.1} dB", g.gain_db));
+    }
+    (!parts.is_empty()).then(|| parts.join("; "))
 }
 
 fn ratings_used(job: &Job, ratings: &RatingsTable) -> Vec<RatingUsed> {
@@ -420,6 +539,7 @@ fn ratings_used(job: &Job, ratings: &RatingsTable) -> Vec<RatingUsed> {
                 crate::ratings::RatingOrigin::Shop(p) => p.display().to_string(),
             },
             positions: vec![v.position.value.clone()],
+            mu_g1g2: r.mu_g1g2,
         });
     }
     out.sort_by(|a, b| a.name.cmp(&b.name));

@@ -216,7 +216,17 @@ pub(crate) fn analyse(
             && let Some(max) = rating.plate_dissipation
             && va.0 > vk.0
         {
-            f.target_window = Some(window(ctx, reading, va, vk, max, c));
+            let mut w = window(ctx, reading, va, vk, max, c);
+            // The grid voltage for the middle of the window, where the
+            // three-halves law can be fitted (a grid reading and μg1g2 are
+            // needed); otherwise the window alone guides the adjustment.
+            let grid = reading.grid.as_ref().map(|g| g.value);
+            let middle = Amps(w.plate_current_middle_ma / 1e3);
+            w.grid_for_middle_volts =
+                super::bias_estimate::grid_for_window_middle(&f, rating, grid, middle)
+                    .ok()
+                    .map(|g| g.0);
+            f.target_window = Some(w);
         }
     }
 
@@ -555,6 +565,8 @@ fn window(
         primary_drop_high_volts: drop.map(|d| d.1.0),
         probe_low_ma: Some((ia_lo + ig2).0 * 1e3),
         probe_high_ma: Some((ia_hi + ig2).0 * 1e3),
+        plate_current_middle_ma: (ia_lo.0 + ia_hi.0) / 2.0 * 1e3,
+        grid_for_middle_volts: None,
         inside: c.ia.0 >= ia_lo.0 && c.ia.0 <= ia_hi.0,
         place: if c.ia.0 > ia_hi.0 {
             "above"

@@ -155,6 +155,9 @@ fn detail(r: &Rating) -> String {
     if let Some(mu) = r.mu {
         row("amplification factor μ", format!("{mu} (typical)"));
     }
+    if let Some(mu) = r.mu_g1g2 {
+        row("grid-to-screen μg1g2", format!("{mu} (typical)"));
+    }
     if let Some(ra) = r.plate_resistance {
         row(
             "plate resistance ra",

@@ -4,7 +4,9 @@
 
 use kdl::{KdlDocument, KdlNode};
 use miette::SourceSpan;
+use std::collections::HashSet;
 
+use super::decode_bench::{BENCH_NODES, decode_bench_node};
 use super::decode_error::{DecodeError, suggestion_help};
 use super::model::*;
 use super::network::Network;
@@ -60,6 +62,22 @@ pub const SETTINGS: &[&str] = &[
     "node-tolerance",
     "silicon-drop",
     "voltage-over",
+    "output-power-caution",
+    "hum-noise-caution",
+    "cathode-bias-target",
+];
+
+/// The child nodes of a measurement set.
+pub const SET_NODES: &[&str] = &[
+    "node",
+    "valve",
+    "heater",
+    "circuit",
+    "output-power",
+    "hum-noise",
+    "response",
+    "gain",
+    "suggest-cathode-resistor",
 ];
 
 /// Decodes job text whose KDL syntax has already parsed.
@@ -288,13 +306,17 @@ fn decode_customer(node: &KdlNode, r: &mut Reader) -> Option<Customer> {
 }
 
 fn decode_unit(node: &KdlNode, r: &mut Reader) -> Option<Unit> {
-    r.check_entries(node, &["make", "model", "serial", "year"], 0);
+    r.check_entries(node, &["make", "model", "serial", "year", "rated-power"], 0);
     let make = r.req_prop_string(node, "make", "unit make=\"…\" model=\"…\"");
     let model = r.req_prop_string(node, "model", "unit make=\"…\" model=\"…\"");
     let serial = r.opt_prop_string(node, "serial");
     let year = Reader::prop(node, "year")
         .and_then(|e| r.integer(e, "`year`", 1900..=2100))
         .map(|y| y as i32);
+    let rated_power = r.opt_prop_quantity(node, "rated-power", Q::Power);
+    let rated_power = r
+        .positive(rated_power, "the rated output power", false)
+        .map(|p| Spanned::new(Watts(p.value), p.span));
     let mut description = None;
     let mut condition = None;
     for child in r.children(node.children(), &["description", "condition"], "`unit`") {
@@ -320,6 +342,7 @@ fn decode_unit(node: &KdlNode, r: &mut Reader) -> Option<Unit> {
         year,
         description,
         condition,
+        rated_power,
     })
 }
 
@@ -381,6 +404,7 @@ fn decode_mains(node: &KdlNode, r: &mut Reader) -> Option<Mains> {
 fn decode_valves(node: &KdlNode, r: &mut Reader) -> Vec<ValvePosition> {
     r.check_entries(node, &[], 0);
     let mut out: Vec<ValvePosition> = Vec::new();
+    let mut listed: HashSet<String> = HashSet::new();
     for child in r.children(node.children(), &["valve"], "`valves`") {
         r.check_entries(child, &["type", "role"], 1);
         r.no_children(child);
@@ -419,7 +443,7 @@ fn decode_valves(node: &KdlNode, r: &mut Reader) -> Vec<ValvePosition> {
             }
         };
         if let Some(p) = &position
-            && out.iter().any(|v| v.position.value == p.value)
+            && !listed.insert(p.value.clone())
         {
             r.push(DecodeError::error(
                 "job::repeated-position",
@@ -447,6 +471,7 @@ fn decode_valves(node: &KdlNode, r: &mut Reader) -> Vec<ValvePosition> {
 fn decode_circuit(node: &KdlNode, r: &mut Reader) -> Circuit {
     r.check_entries(node, &[], 0);
     let mut c = Circuit::default();
+    let mut declared: HashSet<String> = HashSet::new();
     for child in r.children(node.children(), CIRCUIT_NODES, "`circuit`") {
         r.no_children(child);
         match child.name().value() {
@@ -576,7 +601,7 @@ fn decode_circuit(node: &KdlNode, r: &mut Reader) -> Circuit {
                 let tolerance = percent(r, child, "tolerance");
                 let label = r.opt_prop_string(child, "label");
                 if let Some(name) = name {
-                    if c.nodes.iter().any(|n| n.name.value == name.value) {
+                    if !declared.insert(name.value.clone()) {
                         r.push(DecodeError::error(
                             "job::repeated-node",
                             name.span,
@@ -703,16 +728,29 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
     let date = r.opt_prop_date(node, "date");
     let mut nodes: Vec<NodeReading> = Vec::new();
     let mut valves: Vec<ValveReading> = Vec::new();
+    // Names read so far in this set, for the repeated-reading check.
+    let (mut nodes_read, mut valves_read) = (HashSet::new(), HashSet::new());
     let mut heaters = Vec::new();
     let mut circuit_changes = Circuit::default();
-    for child in r.children(
-        node.children(),
-        &["node", "valve", "heater", "circuit"],
-        "a measurement set",
-    ) {
-        if child.name().value() == "circuit" {
-            circuit_changes = decode_circuit(child, r);
-            continue;
+    let mut bench = BenchTests::default();
+    let mut suggest_cathode_resistor = false;
+    for child in r.children(node.children(), SET_NODES, "a measurement set") {
+        match child.name().value() {
+            "circuit" => {
+                circuit_changes = decode_circuit(child, r);
+                continue;
+            }
+            "suggest-cathode-resistor" => {
+                r.check_entries(child, &[], 0);
+                r.no_children(child);
+                suggest_cathode_resistor = true;
+                continue;
+            }
+            name if BENCH_NODES.contains(&name) => {
+                decode_bench_node(child, r, &mut bench);
+                continue;
+            }
+            _ => {}
         }
         r.no_children(child);
         match child.name().value() {
@@ -738,7 +776,7 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
                 let chart = volts_pos(r, child, "chart", "the chart voltage");
                 let tolerance = percent(r, child, "tolerance");
                 if let (Some(name), Some(volts)) = (name, volts) {
-                    if nodes.iter().any(|n| n.name.value == name.value) {
+                    if !nodes_read.insert(name.value.clone()) {
                         r.push(DecodeError::error(
                             "job::repeated-reading",
                             name.span,
@@ -828,7 +866,7 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
                     }
                 }
                 if let Some(p) = &position {
-                    if valves.iter().any(|v| v.position.value == p.value) {
+                    if !valves_read.insert(p.value.clone()) {
                         r.push(DecodeError::error(
                             "job::repeated-reading",
                             p.span,
@@ -891,6 +929,8 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
         valves,
         heaters,
         circuit_changes,
+        bench,
+        suggest_cathode_resistor,
         span: node.span(),
     })
 }
@@ -1173,6 +1213,12 @@ fn decode_settings(node: &KdlNode, r: &mut Reader) -> Settings {
             ));
             continue;
         };
+        if name == "hum-noise-caution" {
+            if let Some(db) = decibels(r, entry, name) {
+                s.hum_noise_caution_db = db;
+            }
+            continue;
+        }
         if name == "silicon-drop" {
             if let Some(v) = r.quantity(entry, Q::Voltage, "`silicon-drop`") {
                 s.silicon_drop = Volts(v.value);
@@ -1201,6 +1247,8 @@ fn decode_settings(node: &KdlNode, r: &mut Reader) -> Settings {
             "heater-tolerance" => s.heater_tolerance = f,
             "node-tolerance" => s.node_tolerance = f,
             "voltage-over" => s.voltage_over = f,
+            "output-power-caution" => s.output_power_caution = f,
+            "cathode-bias-target" => s.cathode_bias_target = f,
             _ => {}
         }
     }
@@ -1216,6 +1264,48 @@ fn decode_settings(node: &KdlNode, r: &mut Reader) -> Settings {
 }
 
 // ----- small shared readers ---------------------------------------------------
+
+/// A level in decibels: a plain number or text ending in `dB`, from 0 to
+/// 150 dB.
+fn decibels(r: &mut Reader, entry: &kdl::KdlEntry, name: &str) -> Option<f64> {
+    let span = r.value_span(entry);
+    let value = match entry.value() {
+        kdl::KdlValue::Integer(i) => Some(*i as f64),
+        kdl::KdlValue::Float(f) => Some(*f),
+        kdl::KdlValue::String(s) => s
+            .trim()
+            .strip_suffix("dB")
+            .unwrap_or(s.trim())
+            .trim()
+            .parse::<f64>()
+            .ok(),
+        _ => None,
+    };
+    match value {
+        Some(v) if v.is_finite() && (0.0..=150.0).contains(&v) => Some(v),
+        Some(_) => {
+            r.push(DecodeError::error(
+                "job::impossible-value",
+                span,
+                format!("`{name}` must be between 0 dB and 150 dB"),
+                "out of range",
+            ));
+            None
+        }
+        None => {
+            r.push(
+                DecodeError::error(
+                    "job::bad-value",
+                    span,
+                    format!("`{name}` must be a level in decibels"),
+                    "expected decibels",
+                )
+                .with_help("write it as \"60dB\" or 60"),
+            );
+            None
+        }
+    }
+}
 
 /// Mains voltages, nominal or read: 1 V to 1,000 V. A variable
 /// autotransformer brought up slowly gives readings of a few volts;

@@ -3,6 +3,7 @@
 
 mod bare_value;
 mod decode;
+mod decode_bench;
 mod decode_error;
 mod model;
 pub mod network;
@@ -10,7 +11,8 @@ mod reader;
 mod validate;
 mod valve_types;
 
-pub use decode::{CIRCUIT_NODES, FORMAT_VERSION, MOD_FIGURES, SETTINGS, TOP_LEVEL};
+pub use decode::{CIRCUIT_NODES, FORMAT_VERSION, MOD_FIGURES, SET_NODES, SETTINGS, TOP_LEVEL};
+pub use decode_bench::{BENCH_NODES, DEFAULT_FREQUENCY};
 pub use decode_error::{DecodeError, JobDiagnostics, did_you_mean, line_column, suggestion_help};
 pub use model::*;
 

@@ -95,6 +95,8 @@ pub struct Unit {
     pub year: Option<i32>,
     pub description: Option<String>,
     pub condition: Option<String>,
+    /// The maker's rated output power of the unit, when the job gives it.
+    pub rated_power: Option<Spanned<Watts>>,
 }
 
 /// The supply the unit runs from, and the supply its factory chart assumes.
@@ -398,8 +400,113 @@ pub struct MeasurementSet {
     /// Circuit facts that differ for this set (parts changed since the
     /// circuit block was written), laid over the job's circuit.
     pub circuit_changes: Circuit,
+    /// Output power, hum and noise, response and gain read on the bench.
+    pub bench: BenchTests,
+    /// Whether the set asks for a cathode-resistor suggestion for every
+    /// cathode-biased output valve (it appears by itself for one above the
+    /// cathode-bias caution guide).
+    pub suggest_cathode_resistor: bool,
     #[serde(skip)]
     pub span: SourceSpan,
+}
+
+/// Readings taken on the bench into a dummy load, after the bias is set.
+#[derive(Debug, Clone, Default, Serialize)]
+pub struct BenchTests {
+    pub output_power: Vec<OutputPowerReading>,
+    pub hum_noise: Vec<HumNoiseReading>,
+    pub responses: Vec<ResponseReading>,
+    pub gains: Vec<GainReading>,
+}
+
+impl BenchTests {
+    pub fn is_empty(&self) -> bool {
+        self.output_power.is_empty()
+            && self.hum_noise.is_empty()
+            && self.responses.is_empty()
+            && self.gains.is_empty()
+    }
+}
+
+/// How an AC voltage across the load was read.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[serde(rename_all = "snake_case")]
+pub enum AcReading {
+    /// RMS volts (a true-RMS meter, or the scope's RMS figure).
+    Rms,
+    /// Peak-to-peak volts off the scope.
+    PeakToPeak,
+}
+
+/// When an output-power reading was taken.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+#[serde(tag = "kind", rename_all = "snake_case")]
+pub enum PowerCondition {
+    /// At the onset of visible clipping.
+    Clipping,
+    /// At a stated total harmonic distortion, as a fraction (0.05 for 5 %).
+    Distortion { fraction: f64 },
+    /// At a stated input drive.
+    Drive { volts: Volts },
+}
+
+/// Output voltage across a dummy load, for the output power.
+#[derive(Debug, Clone, Serialize)]
+pub struct OutputPowerReading {
+    pub volts: Spanned<Volts>,
+    pub reading: AcReading,
+    pub load: Spanned<Ohms>,
+    pub frequency: Hertz,
+    pub channel: Option<String>,
+    pub condition: PowerCondition,
+}
+
+/// What the input was doing while hum and noise were read.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[serde(rename_all = "snake_case")]
+pub enum InputState {
+    Shorted,
+    Open,
+}
+
+/// RMS volts across the load with no signal.
+#[derive(Debug, Clone, Serialize)]
+pub struct HumNoiseReading {
+    pub volts: Spanned<Volts>,
+    pub load: Spanned<Ohms>,
+    pub input: InputState,
+    /// The volume setting, as written ("0", "full", "5 of 10").
+    pub volume: Option<String>,
+    pub channel: Option<String>,
+}
+
+/// Output volts at several frequencies for a fixed input level.
+#[derive(Debug, Clone, Serialize)]
+pub struct ResponseReading {
+    /// The frequency the others are compared with (1 kHz unless stated).
+    pub reference: Spanned<Hertz>,
+    pub load: Option<Ohms>,
+    /// The fixed input level, when the job gives it.
+    pub input: Option<Volts>,
+    pub channel: Option<String>,
+    /// In file order; at least one is at the reference frequency.
+    pub points: Vec<ResponsePoint>,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct ResponsePoint {
+    pub frequency: Spanned<Hertz>,
+    pub volts: Spanned<Volts>,
+}
+
+/// Input volts needed for an output reading: the gain (or sensitivity).
+#[derive(Debug, Clone, Serialize)]
+pub struct GainReading {
+    pub input: Spanned<Volts>,
+    pub output: Spanned<Volts>,
+    pub frequency: Hertz,
+    pub load: Option<Ohms>,
+    pub channel: Option<String>,
 }
 
 #[derive(Debug, Clone, Serialize)]
@@ -556,6 +663,16 @@ pub struct Settings {
     /// valves above the design-centre voltage maxima and plate dissipation,
     /// checked separately, governs valve life.
     pub voltage_over: f64,
+    /// Output power at clipping or a stated distortion below this share of
+    /// the unit's rated power is a caution. Common practice: 80 % (a
+    /// healthy old unit reaches about 80 % of its rating or more).
+    pub output_power_caution: f64,
+    /// Hum and noise less than this many dB below full output is a
+    /// caution. Common practice (this tool's default): 60 dB.
+    pub hum_noise_caution_db: f64,
+    /// The share of Pa(max) a cathode-resistor suggestion aims the plate
+    /// dissipation at. Common practice: 85 %.
+    pub cathode_bias_target: f64,
 }
 
 impl Default for Settings {
@@ -570,6 +687,9 @@ impl Default for Settings {
             node_tolerance: 0.10,
             silicon_drop: Volts(1.0),
             voltage_over: 0.20,
+            output_power_caution: 0.80,
+            hum_noise_caution_db: 60.0,
+            cathode_bias_target: 0.85,
         }
     }
 }

@@ -51,7 +51,7 @@ pub fn parse_document(text: &str) -> Result<KdlDocument, KdlError> {
 /// than linear time (a 1 MB file of `x=1 ` took over a minute), while a job
 /// file is a few kilobytes; past this size only the first place the text
 /// stops being KDL is reported, found by the fast parser in linear time.
-pub const MAX_FALLBACK_SIZE: usize = 64 * 1024;
+pub const MAX_FALLBACK_SIZE: usize = 16 * 1024;
 
 /// One syntax error where the fast parser had to stop reading `text`.
 fn first_break(text: &str) -> KdlError {
@@ -166,8 +166,10 @@ pub fn too_deep(text: &str) -> Option<TooDeep> {
                 }
                 i += 1;
             }
-            (b'*', Some(b'/')) => {
-                comments = comments.saturating_sub(1);
+            // Outside a comment `*/` is text, and its `/` may open one: the
+            // reader sees `*/*` at depth 0 as `*` and an opening `/*`.
+            (b'*', Some(b'/')) if comments > 0 => {
+                comments -= 1;
                 i += 1;
             }
             (b'/', Some(b'-')) => {
@@ -253,6 +255,13 @@ mod depth_tests {
                 format!("a {}\n", "/-\n".repeat(3000)),
                 Nesting::Slashdash,
                 2 + 3 * limit,
+            ),
+            // A stray `*/` outside any comment is text, so each `*/*` after
+            // it opens a comment (found by the long fuzz run).
+            (
+                format!("x {}", "*/".repeat(3000)),
+                Nesting::Comments,
+                3 + 2 * limit,
             ),
         ];
         for (text, kind, offset) in cases {

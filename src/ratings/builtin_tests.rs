@@ -173,3 +173,21 @@ fn dual_heaters_are_recorded_both_ways() {
     ); // 12AX7 heater 6.3 V 0.3 A in parallel: from memory of manufacturer data (project brief)
     assert_eq!(r.sections, 2); // 12AX7 is a dual triode: from memory of manufacturer data
 }
+
+#[test]
+fn grid_to_screen_mu_for_the_bias_estimates() {
+    let t = table();
+    let mu = |name: &str| t.lookup(name).unwrap().mu_g1g2;
+    assert_eq!(mu("EL84"), Some(19.0)); // EL84 μg1g2 19: from memory of manufacturer data (triode-connected figures); verify
+    assert_eq!(mu("EL34"), Some(11.0)); // EL34 μg1g2 11: from memory of manufacturer data (triode-connected figures); verify
+    assert_eq!(mu("6L6GC"), Some(8.0)); // 6L6 family μg1g2 8: from memory of manufacturer data (triode-connected figures); verify
+    assert_eq!(mu("6V6GT"), Some(9.8)); // 6V6GT μg1g2 9.8: from memory of manufacturer data (triode-connected figures); verify
+    // Every figure given belongs to a valve with a screen, and is plausible
+    // for one (triode-connected output valves run from about 4 to 25).
+    for r in t.iter() {
+        if let Some(m) = r.mu_g1g2 {
+            assert!(r.class.has_screen(), "{} has μg1g2 but no screen", r.name);
+            assert!((4.0..=25.0).contains(&m), "{} μg1g2 {m}", r.name);
+        }
+    }
+}

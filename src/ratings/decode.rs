@@ -18,7 +18,7 @@ pub const FORMAT_VERSION: i128 = 1;
 const TOP_NODES: [&str; 2] = ["ratings-format", "valve"];
 
 /// The nodes allowed inside a `valve` block.
-pub const FIELDS: [&str; 17] = [
+pub const FIELDS: [&str; 18] = [
     "equivalents",
     "class",
     "sections",
@@ -33,6 +33,7 @@ pub const FIELDS: [&str; 17] = [
     "heater",
     "heater-parallel",
     "mu",
+    "mu-g1g2",
     "plate-resistance",
     "transconductance",
     "source",
@@ -442,6 +443,9 @@ impl Reader<'_> {
             "mu" => one(self
                 .plain_number(node, "mu 100")
                 .map(|v| draft.mu = Some(v))),
+            "mu-g1g2" => one(self
+                .plain_number(node, "mu-g1g2 19")
+                .map(|v| draft.mu_g1g2 = Some(v))),
             "plate-resistance" => one(self
                 .quantity(
                     self.single_arg(node, "plate-resistance \"62.5k\"")

@@ -30,6 +30,7 @@ pub(crate) struct Draft {
     pub heater: Option<Heater>,
     pub heater_parallel: Option<Heater>,
     pub mu: Option<f64>,
+    pub mu_g1g2: Option<f64>,
     pub plate_resistance: Option<Ohms>,
     pub transconductance_ma_per_v: Option<f64>,
     pub source: Option<String>,
@@ -58,6 +59,7 @@ impl Draft {
             heater: None,
             heater_parallel: None,
             mu: None,
+            mu_g1g2: None,
             plate_resistance: None,
             transconductance_ma_per_v: None,
             source: None,
@@ -129,6 +131,7 @@ impl Draft {
             heater_current: heater.current,
             heater_parallel: self.heater_parallel,
             mu: self.mu,
+            mu_g1g2: self.mu_g1g2,
             plate_resistance: self.plate_resistance,
             transconductance_ma_per_v: self.transconductance_ma_per_v,
             source,
@@ -179,6 +182,7 @@ impl Draft {
         }
         over_opt(&mut row.heater_parallel, self.heater_parallel);
         over_opt(&mut row.mu, self.mu);
+        over_opt(&mut row.mu_g1g2, self.mu_g1g2);
         over_opt(&mut row.plate_resistance, self.plate_resistance);
         over_opt(
             &mut row.transconductance_ma_per_v,
@@ -311,6 +315,12 @@ pub(crate) fn check_row(row: &Rating, draft: &Draft) -> Vec<RatingProblem> {
     only(
         row.screen_voltage.is_some(),
         "screen-voltage",
+        screen,
+        "pentodes and tetrodes",
+    );
+    only(
+        row.mu_g1g2.is_some(),
+        "mu-g1g2",
         screen,
         "pentodes and tetrodes",
     );

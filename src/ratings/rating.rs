@@ -60,6 +60,10 @@ pub struct Rating {
     pub heater_parallel: Option<Heater>,
     /// Amplification factor μ (typical).
     pub mu: Option<f64>,
+    /// Grid-to-screen amplification factor μg1g2 of a pentode or tetrode
+    /// (typical; about the μ of the valve connected as a triode). The
+    /// three-halves power law uses it for bias estimates.
+    pub mu_g1g2: Option<f64>,
     /// Plate resistance ra (typical).
     pub plate_resistance: Option<Ohms>,
     /// Transconductance gm in mA/V (typical).

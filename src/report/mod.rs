@@ -6,6 +6,7 @@ pub mod json;
 pub mod netlist;
 pub mod network_chart;
 pub mod plots;
+pub mod response_chart;
 mod table;
 pub mod terminal;
 

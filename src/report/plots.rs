@@ -16,7 +16,7 @@ use crate::calc::Findings;
 
 /// Font named in the SVG text elements: the bundled body font, which typst
 /// uses when it draws the SVG.
-const FONT: &str = "Noto Sans";
+pub(crate) const FONT: &str = "Noto Sans";
 
 /// Greys used by both charts (greyscale by design).
 pub(crate) const INK: RGBColor = RGBColor(20, 20, 20);
@@ -342,7 +342,7 @@ pub(crate) struct PixelBox {
 }
 
 impl PixelBox {
-    fn new(a: (f64, f64), b: (f64, f64)) -> Self {
+    pub(crate) fn new(a: (f64, f64), b: (f64, f64)) -> Self {
         PixelBox {
             x0: a.0.min(b.0),
             y0: a.1.min(b.1),
@@ -357,7 +357,7 @@ impl PixelBox {
     }
 
     /// A square of half-width `r` around a point.
-    fn around(p: (i32, i32), r: f64) -> Self {
+    pub(crate) fn around(p: (i32, i32), r: f64) -> Self {
         let (x, y) = (f64::from(p.0), f64::from(p.1));
         PixelBox::new((x - r, y - r), (x + r, y + r))
     }
@@ -435,7 +435,7 @@ pub(crate) struct Line {
 }
 
 impl Line {
-    fn new(from: (f64, f64), to: (f64, f64), weight: f64) -> Self {
+    pub(crate) fn new(from: (f64, f64), to: (f64, f64), weight: f64) -> Self {
         Line { from, to, weight }
     }
 }
@@ -455,7 +455,7 @@ pub(crate) struct Obstacles {
 }
 
 impl Obstacles {
-    fn new(area: PixelBox) -> Self {
+    pub(crate) fn new(area: PixelBox) -> Self {
         Obstacles {
             area,
             solid: Vec::new(),
@@ -488,7 +488,7 @@ impl Obstacles {
     /// The cheapest of `candidates`, in order of preference: each step down
     /// the list costs a little, so the first clear one wins. The choice is
     /// then solid for later labels.
-    fn place(&mut self, candidates: &[PixelBox]) -> PixelBox {
+    pub(crate) fn place(&mut self, candidates: &[PixelBox]) -> PixelBox {
         let best = candidates
             .iter()
             .enumerate()
@@ -504,7 +504,7 @@ impl Obstacles {
 /// Draws `text` centred in `b` on a patch of whatever lies behind it (paper,
 /// or the band colour where it overlaps a band), so a line it could not
 /// avoid passes behind the figure rather than through it.
-fn draw_label(
+pub(crate) fn draw_label(
     area: &DrawingArea<SVGBackend<'_>, Shift>,
     b: &PixelBox,
     bands: &[PixelBox],
@@ -530,7 +530,7 @@ fn draw_label(
 
 /// Height of a figure label's box at font size 12 (set at 9.7 px), in
 /// pixels.
-const LABEL_HEIGHT: f64 = 12.0;
+pub(crate) const LABEL_HEIGHT: f64 = 12.0;
 
 pub(crate) fn err(chart: &'static str) -> impl Fn(String) -> PlotError {
     move |message| PlotError { chart, message }
@@ -582,7 +582,7 @@ fn hatch(
 }
 
 /// A horizontal dashed line in pixel coordinates.
-fn dashed(
+pub(crate) fn dashed(
     area: &DrawingArea<SVGBackend<'_>, Shift>,
     x0: i32,
     x1: i32,
@@ -624,13 +624,42 @@ fn legend_swatch_bar(
     Ok(())
 }
 
+/// The axes every chart shares: no x labels or upright grid (each chart
+/// draws its own categories or frequencies), `y_labels` labelled values
+/// with light horizontal rules, and the y axis described by `y_desc`.
+pub(crate) fn draw_mesh<X, Y>(
+    ctx: &mut ChartContext<'_, SVGBackend<'_>, Cartesian2d<X, Y>>,
+    y_labels: usize,
+    y_format: &dyn Fn(&Y::ValueType) -> String,
+    y_desc: &str,
+) -> Result<(), String>
+where
+    X: Ranged + plotters::coord::ranged1d::ValueFormatter<X::ValueType>,
+    Y: Ranged + plotters::coord::ranged1d::ValueFormatter<Y::ValueType>,
+{
+    ctx.configure_mesh()
+        .disable_x_mesh()
+        .x_labels(0)
+        .x_label_formatter(&|_| String::new())
+        .y_labels(y_labels)
+        .y_label_formatter(y_format)
+        .y_desc(y_desc)
+        .axis_desc_style(font(14))
+        .label_style(font(13))
+        .light_line_style(PAPER)
+        .bold_line_style(GRID.stroke_width(1))
+        .axis_style(INK.stroke_width(1))
+        .draw()
+        .map_err(|e| e.to_string())
+}
+
 /// Draws the plate-dissipation chart as an SVG document.
 pub fn dissipation_svg(chart: &DissipationChart) -> Result<String, PlotError> {
     to_svg(chart, "plate dissipation", draw_dissipation)
 }
 
 /// Runs a chart's drawing function into a fresh SVG string.
-fn to_svg<T>(
+pub(crate) fn to_svg<T>(
     chart: &T,
     what: &'static str,
     draw: fn(&T, &mut String) -> Result<(), String>,
@@ -665,20 +694,12 @@ fn draw_dissipation(chart: &DissipationChart, svg: &mut String) -> Result<(), St
         .y_label_area_size(62)
         .build_cartesian_2d(0f64..n as f64, 0f64..top)
         .map_err(|e| e.to_string())?;
-    ctx.configure_mesh()
-        .disable_x_mesh()
-        .x_labels(0)
-        .x_label_formatter(&|_| String::new())
-        .y_labels(axis.labels())
-        .y_label_formatter(&|v| format!("{v:.0}"))
-        .y_desc("Plate dissipation, % of rating")
-        .axis_desc_style(font(14))
-        .label_style(font(13))
-        .light_line_style(PAPER)
-        .bold_line_style(GRID.stroke_width(1))
-        .axis_style(INK.stroke_width(1))
-        .draw()
-        .map_err(|e| e.to_string())?;
+    draw_mesh(
+        &mut ctx,
+        axis.labels(),
+        &|v| format!("{v:.0}"),
+        "Plate dissipation, % of rating",
+    )?;
 
     let (left, _) = ctx.backend_coord(&(0.0, 0.0));
     let (right, _) = ctx.backend_coord(&(n as f64, 0.0));
@@ -896,7 +917,7 @@ pub(crate) fn draw_marker(
 /// Places for a marker's figure, best first: beside the marker on the
 /// preferred side, above and below it, diagonally, then the other side,
 /// then further out.
-fn label_spots(p: (i32, i32), w: f64, h: f64, left_first: bool) -> Vec<PixelBox> {
+pub(crate) fn label_spots(p: (i32, i32), w: f64, h: f64, left_first: bool) -> Vec<PixelBox> {
     let (x, y) = (f64::from(p.0), f64::from(p.1));
     let side = if left_first { -1.0 } else { 1.0 };
     let beside = |s: f64, far: f64| PixelBox::centred(x + s * (11.0 + far + w / 2.0), y, w, h);
@@ -976,20 +997,7 @@ fn draw_supply(chart: &SupplyChart, svg: &mut String) -> Result<(), String> {
         "Volts DC, corrected to {} V mains",
         whole(chart.nominal_volts)
     );
-    ctx.configure_mesh()
-        .disable_x_mesh()
-        .x_labels(0)
-        .x_label_formatter(&|_| String::new())
-        .y_labels(2 * axis.labels())
-        .y_label_formatter(&|v| format!("{v:.0}"))
-        .y_desc(desc)
-        .axis_desc_style(font(14))
-        .label_style(font(13))
-        .light_line_style(PAPER)
-        .bold_line_style(GRID.stroke_width(1))
-        .axis_style(INK.stroke_width(1))
-        .draw()
-        .map_err(|e| e.to_string())?;
+    draw_mesh(&mut ctx, 2 * axis.labels(), &|v| format!("{v:.0}"), &desc)?;
     let (left, _) = ctx.backend_coord(&(0.0, bottom));
 
     // Bands: the expected figure ± tolerance, as a grey column per node.

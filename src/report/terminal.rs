@@ -233,6 +233,15 @@ fn render_set(set: &SetFindings, style: &TerminalStyle) -> String {
                         format_fixed(b, 2)
                     ));
                 }
+                if let Some(g) = w.grid_for_middle_volts {
+                    parts.push(format!(
+                        "grid about {} for the middle{} (estimate)",
+                        volts(g),
+                        v.grid_volts
+                            .map(|now| format!(", now {}", volts(now)))
+                            .unwrap_or_default()
+                    ));
+                }
                 out.push_str(&format!(
                     "  {} target window {:.0}–{:.0} %: {}{}\n",
                     v.position,
@@ -335,6 +344,151 @@ fn render_set(set: &SetFindings, style: &TerminalStyle) -> String {
             volts(h.nominal_volts),
             h.deviation_pct,
             paint(style, h.verdict.status, &status_word(h.verdict.status))
+        ));
+    }
+    out.push_str(&render_suggestions(set));
+    out.push_str(&render_bench(set, style));
+    out
+}
+
+fn ohms(v: f64) -> String {
+    format_engineering(v, Q::Resistance)
+}
+
+fn hz(v: f64) -> String {
+    format_engineering(v, Q::Frequency)
+}
+
+fn channel(c: &Option<String>) -> String {
+    c.as_ref().map(|c| format!(" [{c}]")).unwrap_or_default()
+}
+
+/// The cathode-resistor suggestions of a set: the estimate, the preferred
+/// values and what each would give.
+fn render_suggestions(set: &SetFindings) -> String {
+    let mut out = String::new();
+    for s in &set.cathode_resistor_suggestions {
+        out.push_str(&format!(
+            "Cathode resistor {} ({}, now {}): for {:.0} % of Pa max ({} W) the three-halves law gives {}\n",
+            s.reference,
+            s.valves.join(", "),
+            ohms(s.present_ohms),
+            s.target_pct,
+            format_fixed(s.target_plate_dissipation_w, 1),
+            s.exact_ohms
+                .map(ohms)
+                .unwrap_or_else(|| "no resistor (out of reach)".to_string())
+        ));
+        for o in &s.options {
+            out.push_str(&format!(
+                "  {} {}: Vk {}, {} each, Pa {} W ({:.0} %); the resistor dissipates {} W: rate it {} W or more (a {} part)\n",
+                o.series,
+                ohms(o.resistance_ohms),
+                volts(o.cathode_volts),
+                ma(o.cathode_current_ma),
+                format_fixed(o.plate_dissipation_w, 1),
+                o.plate_dissipation_pct,
+                format_fixed(o.resistor_power_w, 2),
+                format_fixed(o.resistor_rating_at_least_w, 1),
+                format_engineering(o.resistor_rating_w, Q::Power)
+            ));
+        }
+        out.push_str(&format!(
+            "  An estimate from one set of readings ({}, μg1g2 {}); measure the bias again after the change.\n",
+            s.calibrated_on,
+            crate::units::format_sig(s.mu_g1g2, 3)
+        ));
+    }
+    out
+}
+
+/// Output power, hum and noise, response and gain of a set.
+fn render_bench(set: &SetFindings, style: &TerminalStyle) -> String {
+    let b = &set.bench;
+    if b.is_empty() {
+        return String::new();
+    }
+    let mut out = String::from("Bench tests\n");
+    for p in &b.output_power {
+        let read = match p.reading {
+            crate::job::AcReading::Rms => format!("{} rms", volts(p.reading_volts)),
+            crate::job::AcReading::PeakToPeak => format!(
+                "{} p-p = {} rms",
+                volts(p.reading_volts),
+                volts(p.rms_volts)
+            ),
+        };
+        out.push_str(&format!(
+            "  Output power{}: {read} into {} at {}, {} = {} W{} {}\n",
+            channel(&p.channel),
+            ohms(p.load_ohms),
+            hz(p.frequency_hz),
+            p.condition_words,
+            format_fixed(p.output_power_w, 1),
+            p.output_power_pct_of_rated
+                .map(|pct| format!(" ({} of rated)", self::pct(pct)))
+                .unwrap_or_default(),
+            paint(style, p.verdict.status, &status_word(p.verdict.status))
+        ));
+    }
+    for h in &b.hum_noise {
+        out.push_str(&format!(
+            "  Hum and noise{}: {} mV ({:+.1} dBV), input {}{}{} {}\n",
+            channel(&h.channel),
+            format_fixed(h.hum_noise_mv, 2),
+            h.hum_noise_dbv,
+            h.input,
+            h.volume
+                .as_ref()
+                .map(|v| format!(", volume {v}"))
+                .unwrap_or_default(),
+            h.hum_noise_db_below_full
+                .map(|db| format!(", {} dB below full output", format_fixed(db, 1)))
+                .unwrap_or_default(),
+            paint(style, h.verdict.status, &status_word(h.verdict.status))
+        ));
+    }
+    for r in &b.responses {
+        out.push_str(&format!(
+            "  Response{} against {}{}:\n",
+            channel(&r.channel),
+            hz(r.reference_hz),
+            r.input_volts
+                .map(|v| format!(", {} in", volts(v)))
+                .unwrap_or_default()
+        ));
+        let mut t = TextTable::new(&[
+            ("frequency", Align::Right),
+            ("output", Align::Right),
+            ("dB", Align::Right),
+        ]);
+        for p in &r.points {
+            t.row(vec![
+                hz(p.frequency_hz),
+                volts(p.output_volts),
+                format!("{:+.1}", p.response_db),
+            ]);
+        }
+        out.push_str(&t.render_with(4, &|_, _, cell| cell.to_string()));
+        let side = |f: Option<f64>, edge: f64, dir: &str| match f {
+            Some(f) => hz(f),
+            None => format!("{dir} {} (not reached)", hz(edge)),
+        };
+        out.push_str(&format!(
+            "    −3 dB: {} and {}\n",
+            side(r.minus_3db_low_hz, r.lowest_hz, "below"),
+            side(r.minus_3db_high_hz, r.highest_hz, "above")
+        ));
+    }
+    for g in &b.gains {
+        out.push_str(&format!(
+            "  Gain{}: {} in for {} out at {} = ×{} ({} dB)\n",
+            channel(&g.channel),
+            volts(g.input_volts),
+            volts(g.output_volts),
+            hz(g.frequency_hz),
+            crate::units::format_sig(g.gain_times, 3),
+            format_fixed(g.gain_db, 1)
         ));
     }
     out

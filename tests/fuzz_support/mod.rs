@@ -363,7 +363,7 @@ pub fn mutate(text: &mut String, rng: &mut Rng) {
                 "a\n",
                 "valve V9 plate=1e308\n",
             ]);
-            let n = 1 + rng.below(3000);
+            let n = 1 + rng.below(600);
             text.insert_str(at, &f.repeat(n));
         }
         _ => {

@@ -6,8 +6,15 @@
 //! All strings here are plain text. They reach the Typst source only through
 //! the escaping template environment.
 
+mod bench;
+
 use chrono::NaiveDate;
 use serde::Serialize;
+
+pub use bench::{
+    BenchContext, GainRow, HumNoiseRow, OutputPowerRow, ResponsePointRow, ResponseRow,
+    SuggestionOption, SuggestionRow,
+};
 
 use crate::calc::{
     CapacitorFindings, CurrentMethod, Findings, HeaterFindings, ModFigureFindings, ModFindings,
@@ -28,6 +35,7 @@ pub const FOOTER_ID_CHARS: usize = 40;
 /// Paths of the charts inside the typesetting folder.
 pub const DISSIPATION_PLOT: &str = "plots/plate-dissipation.svg";
 pub const SUPPLY_PLOT: &str = "plots/supply-chain.svg";
+pub const RESPONSE_PLOT: &str = "plots/frequency-response.svg";
 
 /// The shop block at the head of page 1. Until shops can keep a profile,
 /// every document carries the same neutral block.
@@ -204,6 +212,11 @@ pub struct SetContext {
     /// A valve rectifier's load against its rating, where it can be judged.
     pub rectifier: Option<RectifierRow>,
     pub heaters: Vec<HeaterRow>,
+    /// Cathode resistors that would bring the valves to the target share
+    /// of their rating (estimates).
+    pub suggestions: Vec<SuggestionRow>,
+    /// Output power, hum and noise, response and gain, when read.
+    pub bench: Option<BenchContext>,
     pub warnings: Vec<WarningRow>,
 }
 
@@ -266,6 +279,10 @@ pub struct WindowRow {
     pub readings: Vec<WindowReading>,
     /// "inside", "above" or "below".
     pub place: String,
+    /// The grid voltage estimated for the middle of the window, "−22.5 V".
+    pub grid_middle: Option<String>,
+    /// The grid voltage read now.
+    pub grid_now: Option<String>,
 }
 
 #[derive(Debug, Clone, Serialize)]
@@ -360,6 +377,8 @@ pub struct Plots {
     pub dissipation_guide: Option<String>,
     /// The nominal mains the supply chart is corrected to.
     pub supply_nominal: String,
+    /// The frequency-response chart.
+    pub response: Option<String>,
 }
 
 #[derive(Debug, Clone, Serialize)]
@@ -398,6 +417,16 @@ pub struct Method {
     pub silicon_drop: String,
     /// How far above a voltage maximum counts as over ("20 %").
     pub voltage_over: String,
+    /// The bench-test bands: "80 %", "60 dB".
+    pub output_power_caution: String,
+    pub hum_noise_caution: String,
+    /// The share of Pa(max) a cathode-resistor suggestion aims at, "85 %".
+    pub cathode_bias_target: String,
+    /// Whether any set has bench tests, cathode-resistor suggestions, or a
+    /// fixed-bias grid estimate.
+    pub uses_bench: bool,
+    pub uses_resistor_suggestion: bool,
+    pub uses_grid_estimate: bool,
     /// Which assumptions this job's figures lean on.
     pub uses_conservative_rule: bool,
     pub uses_shared_cathode: bool,
@@ -440,6 +469,7 @@ pub struct ContextInputs<'a> {
     pub job_digest: &'a str,
     pub has_dissipation_plot: bool,
     pub has_supply_plot: bool,
+    pub has_response_plot: bool,
 }
 
 /// A date in words: "9 November 2026".
@@ -815,6 +845,12 @@ fn set_context(findings: &Findings, set: &SetFindings) -> SetContext {
         capacitors: set.filter_capacitors.iter().map(capacitor_row).collect(),
         rectifier: set.rectifier.as_ref().map(|r| rectifier_row(r, set)),
         heaters: set.heaters.iter().map(heater_row).collect(),
+        suggestions: set
+            .cathode_resistor_suggestions
+            .iter()
+            .map(|s| bench::suggestion_row(s, findings.settings.cathode_bias_caution_pct))
+            .collect(),
+        bench: bench::bench_context(&set.bench),
         warnings: findings
             .warnings
             .iter()
@@ -946,6 +982,8 @@ fn window_row(v: &ValveFindings) -> Option<WindowRow> {
         plate_current_now: v.plate_current_ma.map(|i| format!("{} mA", fixed(i, 1))),
         readings,
         place: w.place.to_string(),
+        grid_middle: w.grid_for_middle_volts.map(volts),
+        grid_now: v.grid_volts.map(volts),
     })
 }
 
@@ -1085,6 +1123,7 @@ fn plots(findings: &Findings, inputs: &ContextInputs<'_>) -> Plots {
         supply: inputs.has_supply_plot.then(|| SUPPLY_PLOT.to_string()),
         dissipation_guide: guide,
         supply_nominal: volts(findings.mains.nominal_volts),
+        response: inputs.has_response_plot.then(|| RESPONSE_PLOT.to_string()),
     }
 }
 
@@ -1123,6 +1162,15 @@ fn safety(job: &Job, findings: &Findings) -> SafetyContext {
 fn method(findings: &Findings) -> Method {
     let s = &findings.settings;
     let valves = || findings.sets.iter().flat_map(|set| set.valves.iter());
+    // μg1g2 is listed where a bias estimate used it.
+    let estimates = findings.sets.iter().any(|set| {
+        !set.cathode_resistor_suggestions.is_empty()
+            || set.valves.iter().any(|v| {
+                v.target_window
+                    .as_ref()
+                    .is_some_and(|w| w.grid_for_middle_volts.is_some())
+            })
+    });
     let mut ratings: Vec<RatingRow> = findings
         .ratings_used
         .iter()
@@ -1134,6 +1182,9 @@ fn method(findings: &Findings) -> Method {
             }
             if let Some(p) = used.and_then(|v| v.screen_dissipation_max_w) {
                 limits.push(format!("Pg2 {}", format_engineering(p, Q::Power)));
+            }
+            if let Some(mu) = r.mu_g1g2.filter(|_| estimates) {
+                limits.push(format!("μg1g2 {}", format_sig(mu, 3)));
             }
             RatingRow {
                 name: r.name.clone(),
@@ -1161,6 +1212,19 @@ fn method(findings: &Findings) -> Method {
         node_tolerance: format!("±{} %", pct0(s.node_tolerance_pct)),
         silicon_drop: volts(s.silicon_drop_volts),
         voltage_over: format!("{} %", pct0(s.voltage_over_pct)),
+        output_power_caution: format!("{} %", pct0(s.output_power_caution_pct)),
+        hum_noise_caution: format!("{} dB", format_sig(s.hum_noise_caution_db, 3)),
+        cathode_bias_target: format!("{} %", pct0(s.cathode_bias_target_pct)),
+        uses_bench: findings.sets.iter().any(|set| !set.bench.is_empty()),
+        uses_resistor_suggestion: findings
+            .sets
+            .iter()
+            .any(|set| !set.cathode_resistor_suggestions.is_empty()),
+        uses_grid_estimate: valves().any(|v| {
+            v.target_window
+                .as_ref()
+                .is_some_and(|w| w.grid_for_middle_volts.is_some())
+        }),
         uses_conservative_rule: valves()
             .any(|v| v.plate_current_includes_screen && v.plate_current_ma.is_some()),
         uses_shared_cathode: valves()

@@ -16,15 +16,21 @@ use minijinja::Value;
 use sha2::{Digest, Sha256};
 
 pub use context::{
+    BenchContext, GainRow, HumNoiseRow, OutputPowerRow, ResponsePointRow, ResponseRow,
+    SuggestionOption, SuggestionRow,
+};
+pub use context::{
     CapacitorRow, ContextInputs, CustomerInfo, DISSIPATION_PLOT, DocumentInfo, Footer, Glance,
     GlanceRow, HandoverContext, HeaterRow, JobInfo, LineUpRow, MainsInfo, Method, ModFigureRow,
     ModRow, NetworkRow, NetworkView, NodeRow, OscillatorRow, OscillatorView, PartRow, Plots,
-    RatingRow, RectifierRow, ResistorRow, SUPPLY_PLOT, SafetyContext, SafetyRow, SetContext,
-    ShopBlock, UnitInfo, ValveRow, WarningRow, WindowReading, WindowRow, build_context, date_words,
+    RESPONSE_PLOT, RatingRow, RectifierRow, ResistorRow, SUPPLY_PLOT, SafetyContext, SafetyRow,
+    SetContext, ShopBlock, UnitInfo, ValveRow, WarningRow, WindowReading, WindowRow, build_context,
+    date_words,
 };
 
 use super::network_chart;
 use super::plots::{self, PlotError};
+use super::response_chart;
 use crate::calc::Findings;
 use crate::job::Job;
 use crate::typeset::{
@@ -172,11 +178,15 @@ pub fn build(
     let mut sandbox = Sandbox::new();
     let dissipation = plots::dissipation_chart(input.findings);
     let supply = plots::supply_chart(input.findings);
+    let response = response_chart::response_chart(input.findings);
     if let Some(chart) = &dissipation {
         sandbox.insert(DISSIPATION_PLOT, plots::dissipation_svg(chart)?)?;
     }
     if let Some(chart) = &supply {
         sandbox.insert(SUPPLY_PLOT, plots::supply_svg(chart)?)?;
+    }
+    if let Some(chart) = &response {
+        sandbox.insert(RESPONSE_PLOT, response_chart::response_svg(chart)?)?;
     }
     for (i, m) in input.findings.mods.iter().enumerate() {
         if let Some(chart) = m.network.as_ref().and_then(network_chart::response_chart) {
@@ -194,6 +204,7 @@ pub fn build(
         job_digest: &digest,
         has_dissipation_plot: dissipation.is_some(),
         has_supply_plot: supply.is_some(),
+        has_response_plot: response.is_some(),
     };
     let context = build_context(input.job, input.findings, &inputs);
     let source = render_template(&context, templates)?;
@@ -317,6 +328,7 @@ fn add_shop_images(sandbox: &mut Sandbox, dir: &Path) -> Result<(), HandoverErro
 #[cfg(test)]
 mod tests {
     use super::*;
+    use crate::calc::Family;
     use crate::ratings::RatingsTable;
 
     /// A demo job decoded and derived, with its text.
@@ -360,7 +372,7 @@ mod tests {
         assert_eq!(ctx.sets[0].valves[0].current_kind, "Ik");
         assert!(ctx.sets[0].conservative);
         assert!(ctx.method.uses_shared_cathode && ctx.method.uses_cathode_bias);
-        assert_eq!(ctx.glance.families.len(), 5);
+        assert_eq!(ctx.glance.families.len(), Family::ALL.len());
         assert_eq!(ctx.footer.job_digest, job_digest(&text));
         // Completed 2026-11-09.
         assert_eq!(
@@ -370,7 +382,13 @@ mod tests {
         let names: Vec<&str> = doc.sandbox.files().map(|(p, _)| p).collect();
         assert_eq!(
             names,
-            [MAIN_SOURCE, NOTICE_SOURCE, DISSIPATION_PLOT, SUPPLY_PLOT]
+            [
+                MAIN_SOURCE,
+                NOTICE_SOURCE,
+                RESPONSE_PLOT,
+                DISSIPATION_PLOT,
+                SUPPLY_PLOT
+            ]
         );
         assert_eq!(doc.sandbox.get(NOTICE_SOURCE), Some(NOTICE_TEXT.as_bytes()));
     }
