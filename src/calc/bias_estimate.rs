@@ -589,4 +589,26 @@ mod tests {
             f.warnings
         );
     }
+
+    #[test]
+    fn a_power_triode_uses_its_plate_and_mu() {
+        // A 300B (μ 3.85, Pa(max) 40 W; from memory of manufacturer data) on its own 1 kΩ cathode resistor,
+        // plate 400 V to ground, cathode 80 V: Ik = 80 V / 1 kΩ = 80 mA (Ohm's law);
+        // Pa = (400 − 80) V × 80 mA = 25.6 W, 64 % of 40 W: below the guide, so only when asked.
+        let text = "job-format 1\njob id=\"T\"\nunit make=\"M\" model=\"N\"\nmains nominal=\"120V\"\n\
+             valves {\n valve V3 type=\"300B\" role=output\n}\n\
+             circuit {\n bias cathode\n cathode-resistor R9 value=\"1k\" rating=\"20W\" valves=\"V3\"\n}\n\
+             measurements \"x\" mains=\"120V\" {\n valve V3 plate=\"400V\" cathode=\"80V\"\n suggest-cathode-resistor\n}\n";
+        let ratings = RatingsTable::builtin();
+        let job = crate::job::decode_with_ratings("t.kdl", text, &ratings)
+            .unwrap_or_else(|d| panic!("{:?}", d.problems))
+            .job;
+        let f = crate::calc::derive(&job, &ratings);
+        let s = &f.sets[0].cathode_resistor_suggestions[0];
+        // The triode law: Veff = Vak/μ + Vgk = 320/3.85 − 80 = 3.117 V (three-halves power law, from memory).
+        assert_eq!(s.mu_g1g2, 3.85);
+        assert!(close_rel(s.present_cathode_current_ma, 80.0, 1e-9));
+        // Hotter than today (85 % of 40 W = 34 W > 25.6 W) needs less than today's 1 kΩ.
+        assert!(s.exact_ohms.unwrap() < 1000.0, "{:?}", s.exact_ohms);
+    }
 }

@@ -247,15 +247,27 @@ fn draw_response(chart: &ResponseChart, svg: &mut String) -> Result<(), String> 
     }
 
     // Legend along the top: each curve's marker and label.
+    // Curves that do not fit on the legend line are named in the tables.
     let mut x = left;
+    let room = SIZE.0 as i32 - 130;
     for (k, c) in chart.curves.iter().enumerate() {
+        let text = label_text(&c.label, 28);
+        if x + 30 + text_width(&text, 13).round() as i32 > room {
+            root.draw(&Text::new(
+                "…",
+                (x, 20),
+                anchored(13, HPos::Left, VPos::Center),
+            ))
+            .map_err(|e| e.to_string())?;
+            x += 20;
+            break;
+        }
         root.draw(&PathElement::new(
             vec![(x, 20), (x + 22, 20)],
             MID.stroke_width(2),
         ))
         .map_err(|e| e.to_string())?;
         draw_marker(&root, (x + 11, 20), marker(k))?;
-        let text = label_text(&c.label, 28);
         root.draw(&Text::new(
             text.clone(),
             (x + 30, 20),
@@ -311,5 +323,28 @@ mod tests {
         assert!(svg.contains("49.9 Hz"), "the low −3 dB point is labelled");
         assert!(svg.contains("13 kHz"), "the high −3 dB point is labelled");
         assert!(svg.contains("as left, bright"));
+    }
+
+    #[test]
+    fn extreme_and_many_curves_still_draw() {
+        // The widest figures a job can hold (1 Hz to 1 MHz, volts from 1 µV to 100 kV, so about
+        // ±200 dB) and more curves than the legend line holds.
+        let curves = (0..12)
+            .map(|k| ResponseCurve {
+                label: format!("set {k} with a rather long channel name"),
+                points: vec![(1.0, -200.0), (1000.0, 0.0), (1e6, 200.0)],
+                minus_3db: vec![1.03],
+            })
+            .collect();
+        let svg = response_svg(&ResponseChart { curves }).unwrap();
+        assert!(svg.contains("…"), "the legend says it stops");
+        let one = ResponseChart {
+            curves: vec![ResponseCurve {
+                label: "one".into(),
+                points: vec![(1e6, 0.0)],
+                minus_3db: vec![],
+            }],
+        };
+        assert!(response_svg(&one).unwrap().contains("one"));
     }
 }
