@@ -547,6 +547,73 @@ measurements "as left" mains="120V" {
     );
 }
 
+#[test]
+fn an_over_range_insulation_reading_and_the_other_new_set_lines() {
+    let extra = r#"parts {
+    part what="Mains cord" was="two-wire" now="three-wire, grounded" reason="No earth"
+    part R24 what="cathode resistor" was="130 Ω 2 W" now="130 Ω 5 W"
+}
+safety class=I {
+    insulation ">500M" test-voltage="500V" minimum="1M"
+    earth-continuity "0.05R" limit="0.1R"
+}
+"#;
+    let readings = format!(
+        "{GOOD_READINGS}\n    bias-control \"fully counter-clockwise\" label=\"V3, V4\"\n    warm-up {{\n        valve V3 after=\"30s\" cathode=\"6V\"\n        valve V3 after=\"5min\" cathode=\"9V\"\n    }}"
+    );
+    let text = format!("{}{extra}", small_job(GOOD_CIRCUIT, &readings));
+    let dir = job_file("more.kdl", &text);
+    let o = run_in(dir.path(), &["check", "more.kdl"]);
+    assert_eq!(code(&o), 0, "{}", stderr(&o));
+    let out = stdout(&o);
+    assert!(
+        out.contains("Bias control V3, V4: fully counter-clockwise"),
+        "{out}"
+    );
+    assert!(out.contains("Mains cord"), "{out}");
+    let o = run_in(dir.path(), &["calc", "--json", "more.kdl"]);
+    let v: Value = serde_json::from_str(&stdout(&o)).expect("json");
+    let ins = &v["safety"][0];
+    assert_eq!(ins["test"], "insulation");
+    assert_eq!(ins["measured"], "> 500 MΩ");
+    assert_eq!(ins["measured_value"], 500e6);
+    assert_eq!(ins["passed"], true);
+    // Warm-up: 6 V / (2 × 130 Ω) = 23.1 mA per valve after 30 s (Ohm's law, textbook; matched pair).
+    let w = &v["sets"][0]["warm_up"][0];
+    assert!((w["minutes"].as_f64().unwrap() - 0.5).abs() < 1e-9);
+    assert!((w["current_ma"].as_f64().unwrap() - 6.0 / 260.0 * 1e3).abs() < 1e-3);
+
+    // A "more than" reading on another test is an error at the `>`, and a
+    // warm-up line without its time is an error at that line.
+    let bad = text
+        .replace(
+            r#"earth-continuity "0.05R""#,
+            r#"earth-continuity ">0.05R""#,
+        )
+        .replace(
+            r#"valve V3 after="5min" cathode="9V""#,
+            r#"valve V3 cathode="9V""#,
+        );
+    let dir = job_file("bad.kdl", &bad);
+    let o = run_in(dir.path(), &["check", "bad.kdl"]);
+    assert_eq!(code(&o), 1);
+    let err = stderr(&o);
+    let warm = bad.find("valve V3 cathode=\"9V\"").unwrap();
+    let (wl, wc) = line_col(&bad, warm);
+    let arrow = bad.find("\">0.05R").unwrap() + 1;
+    let (al, ac) = line_col(&bad, arrow);
+    assert_eq!(
+        reported_positions(&err, "bad.kdl"),
+        [format!("bad.kdl:{wl}:{wc}"), format!("bad.kdl:{al}:{ac}")],
+        "{err}"
+    );
+    assert!(
+        err.contains("a warm-up reading needs the time since power-on"),
+        "{err}"
+    );
+    assert!(err.contains("takes no over-range reading"), "{err}");
+}
+
 // ----- tubes ------------------------------------------------------------------
 
 #[test]

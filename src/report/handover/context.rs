@@ -338,6 +338,8 @@ pub struct NotCheckedRow {
 pub struct NodeRow {
     pub name: String,
     pub channel: Option<String>,
+    /// As [`ValveRow::group`].
+    pub group: Option<String>,
     pub label: Option<String>,
     pub measured: String,
     pub corrected: String,
@@ -357,6 +359,9 @@ pub struct NodeRow {
 pub struct ValveRow {
     pub position: String,
     pub channel: Option<String>,
+    /// On the first row of a channel's group, when the set names channels:
+    /// the group's heading ("Channel: left", "Shared").
+    pub group: Option<String>,
     pub type_name: String,
     pub role: String,
     pub bias: String,
@@ -1020,6 +1025,22 @@ fn set_context(findings: &Findings, set: &SetFindings, warm_up_plot: Option<Stri
     nodes.sort_by_key(|n| channel_order(findings, &n.channel));
     let has_channels =
         valves.iter().any(|v| v.channel.is_some()) || nodes.iter().any(|n| n.channel.is_some());
+    if has_channels {
+        let heading = |c: &Option<String>| match c {
+            Some(c) => format!("Channel: {c}"),
+            None => "Shared".to_string(),
+        };
+        for i in 0..valves.len() {
+            if i == 0 || valves[i].channel != valves[i - 1].channel {
+                valves[i].group = Some(heading(&valves[i].channel));
+            }
+        }
+        for i in 0..nodes.len() {
+            if i == 0 || nodes[i].channel != nodes[i - 1].channel {
+                nodes[i].group = Some(heading(&nodes[i].channel));
+            }
+        }
+    }
     let type_changes = set
         .valves
         .iter()
@@ -1164,6 +1185,7 @@ fn node_row(n: &NodeFindings) -> NodeRow {
     NodeRow {
         name: n.name.clone(),
         channel: n.channel.clone(),
+        group: None,
         label: n.label.clone(),
         measured: sig3(n.measured_volts),
         corrected: sig3(n.corrected_volts),
@@ -1190,6 +1212,7 @@ fn valve_row(v: &ValveFindings) -> ValveRow {
     ValveRow {
         position: v.position.clone(),
         channel: v.channel.clone(),
+        group: None,
         type_name: v.valve_type.clone(),
         role: v.role.replace('_', " "),
         bias: v.bias.clone(),

@@ -516,6 +516,17 @@ mod tests {
     }
 
     #[test]
+    fn the_checked_phrases_are_the_notices_own_words() {
+        for phrase in NOTICE_PHRASES {
+            assert!(
+                NOTICE_TEXT.contains(phrase),
+                "{phrase} is not in mains-safety.typ"
+            );
+        }
+        assert_eq!(notice_required().phrases.len(), NOTICE_PHRASES.len());
+    }
+
+    #[test]
     fn digest_is_twelve_hex_digits_of_sha256() {
         // FIPS 180-2 test vector: SHA-256("abc") = ba7816bf8f01cfea…
         assert_eq!(job_digest("abc"), "ba7816bf8f01");
