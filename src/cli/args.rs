@@ -31,7 +31,7 @@ pub enum Command {
     Render(RenderArgs),
     /// List the valve ratings table, or show one type with its source note.
     Tubes(TubesArgs),
-    /// Write an annotated skeleton job file to start from.
+    /// Write an annotated skeleton job file (or, with --shop, a shop profile) to start from.
     Init(InitArgs),
 }
 
@@ -43,6 +43,13 @@ pub struct JobArgs {
     /// A shop's own ratings file that adds or corrects valve types.
     #[arg(long, value_name = "FILE")]
     pub ratings: Vec<PathBuf>,
+    /// The shop profile to use when there is no shop.kdl in the job's folder
+    /// or a folder above it.
+    #[arg(long, value_name = "FILE", conflicts_with = "no_shop")]
+    pub shop: Option<PathBuf>,
+    /// Use no shop profile at all: the neutral heading and the built-in defaults.
+    #[arg(long)]
+    pub no_shop: bool,
 }
 
 #[derive(Debug, Args)]
@@ -98,6 +105,9 @@ pub struct RenderArgs {
     /// (new or empty; see --force).
     #[arg(long, value_name = "DIR")]
     pub emit_source: Option<PathBuf>,
+    /// Leave the job's charges out of the document.
+    #[arg(long)]
+    pub no_charges: bool,
     /// Let --emit-source replace everything in a folder that is not empty.
     #[arg(long, requires = "emit_source")]
     pub force: bool,
@@ -140,7 +150,12 @@ pub struct TubesArgs {
 }
 
 #[derive(Debug, Args)]
+#[command(group(clap::ArgGroup::new("what").required(true).multiple(true).args(["path", "shop"])))]
 pub struct InitArgs {
     /// Where to write the new job file; an existing file is never replaced.
-    pub path: PathBuf,
+    pub path: Option<PathBuf>,
+    /// Where to write an annotated shop profile (shop.kdl); an existing file
+    /// is never replaced.
+    #[arg(long, value_name = "PATH")]
+    pub shop: Option<PathBuf>,
 }

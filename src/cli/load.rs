@@ -1,12 +1,13 @@
-//! Reading a job file and the ratings it needs, shared by every command
-//! that takes a job. Problems are printed here as diagnostics.
+//! Reading a job file, its shop profile and the ratings it needs, shared by
+//! every command that takes a job. Problems are printed here as diagnostics.
 
-use std::path::Path;
+use std::path::{Path, PathBuf};
 
 use super::args::JobArgs;
 use super::exit::Exit;
-use crate::job::{self, Decoded};
+use crate::job::{self, Decoded, JobDefaults};
 use crate::ratings::RatingsTable;
+use crate::shop::{self, Found, Logo, ShopProfile};
 
 /// The built-in ratings plus any shop files named on the command line.
 pub fn ratings(files: &[std::path::PathBuf]) -> Result<RatingsTable, Exit> {
@@ -24,17 +25,37 @@ pub fn ratings(files: &[std::path::PathBuf]) -> Result<RatingsTable, Exit> {
 /// ratings; warnings are printed to standard error.
 pub struct Loaded {
     pub decoded: Decoded,
+    /// The shop profile in use, if any.
+    pub shop: Option<LoadedShop>,
     /// The job file as read, for the document footer's checksum.
     #[allow(dead_code)]
     pub text: String,
     pub ratings: RatingsTable,
 }
 
+/// A decoded shop profile, where it was found, and its checked logo.
+pub struct LoadedShop {
+    pub profile: ShopProfile,
+    pub found: Found,
+    pub logo: Option<Logo>,
+}
+
+impl LoadedShop {
+    pub fn path(&self) -> &Path {
+        self.found.path()
+    }
+}
+
 pub fn job(args: &JobArgs) -> Result<Loaded, Exit> {
     let ratings = ratings(&args.ratings)?;
-    let text = read_text(&args.job)?;
+    let shop = shop_profile(args)?;
+    let defaults = shop
+        .as_ref()
+        .map(|s| s.profile.defaults.clone())
+        .unwrap_or_else(JobDefaults::default);
+    let text = read_text(&args.job, "job file")?;
     let name = args.job.display().to_string();
-    let decoded = match job::decode_with_ratings(&name, &text, &ratings) {
+    let decoded = match job::decode_with_defaults(&name, &text, &ratings, &defaults) {
         Ok(d) => d,
         Err(diagnostics) => {
             eprintln!("{:?}", miette::Report::new(diagnostics));
@@ -46,13 +67,68 @@ pub fn job(args: &JobArgs) -> Result<Loaded, Exit> {
     }
     Ok(Loaded {
         decoded,
+        shop,
         text,
         ratings,
     })
 }
 
-pub fn read_text(path: &Path) -> Result<String, Exit> {
-    crate::input_file::read_text(path, "job file").map_err(|e| {
+/// The shop profile for the job, found as [`shop::discover`] says, decoded,
+/// with its logo read and checked; `None` with `--no-shop` or when there is
+/// none.
+pub fn shop_profile(args: &JobArgs) -> Result<Option<LoadedShop>, Exit> {
+    if args.no_shop {
+        return Ok(None);
+    }
+    let config = shop::user_config_dir();
+    let Some(found) = shop::discover(&args.job, args.shop.as_deref(), config.as_deref()) else {
+        return Ok(None);
+    };
+    if let (Found::BesideJob(used), Some(named)) = (&found, &args.shop) {
+        eprintln!(
+            "note: using the shop profile {} found beside the job; --shop {} applies only where there is none",
+            used.display(),
+            named.display()
+        );
+    }
+    let path: PathBuf = found.path().to_path_buf();
+    let text = read_text(&path, "shop profile")?;
+    let name = path.display().to_string();
+    let decoded = match shop::decode(&name, &text) {
+        Ok(d) => d,
+        Err(diagnostics) => {
+            eprintln!("{:?}", miette::Report::new(diagnostics));
+            return Err(Exit::InvalidInput);
+        }
+    };
+    if !decoded.diagnostics.problems.is_empty() {
+        eprintln!("{:?}", miette::Report::new(decoded.diagnostics.clone()));
+    }
+    let logo = match &decoded.profile.logo {
+        Some(written) => match shop::read_logo(&path, written) {
+            Ok(logo) => Some(logo),
+            Err(problem) => {
+                let diagnostics = job::JobDiagnostics {
+                    source: decoded.diagnostics.source.clone(),
+                    problems: vec![*problem],
+                    not_shown: Default::default(),
+                };
+                eprintln!("{:?}", miette::Report::new(diagnostics));
+                return Err(Exit::InvalidInput);
+            }
+        },
+        None => None,
+    };
+    Ok(Some(LoadedShop {
+        profile: decoded.profile,
+        found,
+        logo,
+    }))
+}
+
+/// A file's text; `what` names it in the message ("job file").
+pub fn read_text(path: &Path, what: &'static str) -> Result<String, Exit> {
+    crate::input_file::read_text(path, what).map_err(|e| {
         eprintln!("error: {e}");
         Exit::InvalidInput
     })

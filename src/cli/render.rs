@@ -17,7 +17,7 @@ use super::args::RenderArgs;
 use super::exit::Exit;
 use super::load;
 use crate::calc;
-use crate::report::handover::{self, HandoverError, HandoverInput, ShopBlock};
+use crate::report::handover::{self, HandoverError, HandoverInput};
 use crate::typeset::{
     self, CompileOptions, Input, TemplateSource, TypesetError, TypstProgram, interrupt,
 };
@@ -59,7 +59,9 @@ pub fn run(args: &RenderArgs) -> Exit {
         findings: &findings,
         job_text: &loaded.text,
         typst_version: program.version.to_string(),
-        shop: ShopBlock::default(),
+        shop: loaded.shop.as_ref().map(|s| &s.profile),
+        logo: loaded.shop.as_ref().and_then(|s| s.logo.as_ref()),
+        include_charges: !args.no_charges,
     };
     let document = match handover::build(&input, &templates) {
         Ok(d) => d,
@@ -70,7 +72,7 @@ pub fn run(args: &RenderArgs) -> Exit {
         .output
         .clone()
         .unwrap_or_else(|| default_output(&args.job.job));
-    let inputs = inputs_read(args, &program);
+    let inputs = inputs_read(args, &program, loaded.shop.as_ref());
     if let Err(e) = typeset::check_output(&output, &inputs) {
         eprintln!("{:?}", miette::Report::new(e));
         return Exit::Usage;
@@ -127,7 +129,11 @@ pub fn run(args: &RenderArgs) -> Exit {
 
 /// Every path the render reads, for the output checks: an output may be
 /// none of them, and the `--emit-source` folder may hold none of them.
-fn inputs_read(args: &RenderArgs, program: &TypstProgram) -> Vec<Input> {
+fn inputs_read(
+    args: &RenderArgs,
+    program: &TypstProgram,
+    shop: Option<&load::LoadedShop>,
+) -> Vec<Input> {
     let mut inputs = vec![Input::new(&args.job.job, "the job file")];
     inputs.extend(
         args.job
@@ -137,6 +143,12 @@ fn inputs_read(args: &RenderArgs, program: &TypstProgram) -> Vec<Input> {
     );
     if let Some(dir) = &args.templates {
         inputs.push(Input::new(dir, "the template folder"));
+    }
+    if let Some(shop) = shop {
+        inputs.push(Input::new(shop.path(), "the shop profile"));
+        if let Some(logo) = &shop.logo {
+            inputs.push(Input::new(&logo.source, "the shop's logo"));
+        }
     }
     inputs.push(Input::new(&program.path, "the typst program"));
     inputs

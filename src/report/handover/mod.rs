@@ -7,7 +7,9 @@
 //! template folder when one is given, so the same job, tool and typst give
 //! the same bytes.
 
+mod charges;
 mod context;
+mod shop_block;
 
 use std::path::Path;
 
@@ -15,23 +17,26 @@ use chrono::NaiveDate;
 use minijinja::Value;
 use sha2::{Digest, Sha256};
 
+pub use charges::{ChargeRow, ChargesContext, TaxRow, charges_context};
 pub use context::{
     AcceptedRow, AttentionContext, CapacitorRow, ContextInputs, CustomerInfo, DISSIPATION_PLOT,
     DocumentInfo, EntryRow, Footer, Glance, GlanceRow, HandoverContext, HeaterRow, HistoryRow,
     JobInfo, LineUpRow, MainsInfo, Method, ModFigureRow, ModRow, NodeRow, NotCheckedRow, PartRow,
     Plots, RESPONSE_PLOT, RatingRow, RectifierRow, ResistorRow, SUPPLY_PLOT, SafetyContext,
-    SafetyRow, SetContext, ShopBlock, SummaryContext, UnitInfo, ValveRow, WarmUpContext, WarmUpRow,
+    SafetyRow, SetContext, SummaryContext, UnitInfo, ValveRow, WarmUpContext, WarmUpRow,
     WindowReading, WindowRow, build_context, date_words, warm_up_plot,
 };
 pub use context::{
     BenchContext, GainRow, HumNoiseRow, OutputPowerRow, ResponsePointRow, ResponseRow,
     SuggestionOption, SuggestionRow,
 };
+pub use shop_block::{AcceptanceBlock, ShopBlock, WarrantyInfo, acceptance, paper};
 
 use super::plots::{self, PlotError};
 use super::response_chart;
 use crate::calc::Findings;
 use crate::job::Job;
+use crate::shop::{Logo, ShopProfile};
 use crate::typeset::{
     CompileOptions, InsideError, RequiredText, Sandbox, TemplateSource, TypesetError, font_rules,
     read_regular, template_environment, typst_markup,
@@ -123,7 +128,32 @@ pub struct HandoverInput<'a> {
     pub job_text: &'a str,
     /// The version of the typst that will compile it, for the footer.
     pub typst_version: String,
-    pub shop: ShopBlock,
+    /// The shop profile in use, if any.
+    pub shop: Option<&'a ShopProfile>,
+    /// The profile's checked logo, if it has one.
+    pub logo: Option<&'a Logo>,
+    /// Whether the job's charges are shown (`--no-charges` leaves them out).
+    pub include_charges: bool,
+}
+
+impl<'a> HandoverInput<'a> {
+    /// The input for a job without a shop profile, charges shown.
+    pub fn new(
+        job: &'a Job,
+        findings: &'a Findings,
+        job_text: &'a str,
+        typst_version: impl Into<String>,
+    ) -> Self {
+        HandoverInput {
+            job,
+            findings,
+            job_text,
+            typst_version: typst_version.into(),
+            shop: None,
+            logo: None,
+            include_charges: true,
+        }
+    }
 }
 
 /// A ready-to-compile document.
@@ -195,8 +225,17 @@ pub fn build(
         }
     }
     let digest = job_digest(input.job_text);
+    let shop = match input.shop {
+        Some(profile) => ShopBlock::from_profile(profile, input.logo),
+        None => ShopBlock::default(),
+    };
+    if let (Some(logo), Some(_)) = (input.logo, input.shop) {
+        sandbox.insert(logo.sandbox_path(), logo.bytes.clone())?;
+    }
     let inputs = ContextInputs {
-        shop: input.shop.clone(),
+        shop,
+        profile: input.shop,
+        include_charges: input.include_charges,
         tool_version: env!("CARGO_PKG_VERSION"),
         typst_version: &input.typst_version,
         job_digest: &digest,
@@ -350,7 +389,9 @@ mod tests {
             findings,
             job_text: text,
             typst_version: "0.15.1".into(),
-            shop: ShopBlock::default(),
+            shop: None,
+            logo: None,
+            include_charges: true,
         };
         build(&input, &TemplateSource::embedded(EMBEDDED_TEMPLATES)).unwrap()
     }
@@ -450,6 +491,57 @@ mod tests {
     }
 
     #[test]
+    fn charges_reach_the_hand_over_only_when_asked_for() {
+        let (job, findings, text) = demo("combo-6v6-fixed.kdl");
+        let doc = document(&job, &findings, &text);
+        let c = doc
+            .context
+            .charges
+            .as_ref()
+            .expect("the demo job has charges");
+        // By hand: labour 1.5 h × 48.00 = 72.00, 0.75 h × 48.00 = 36.00,
+        // fixed 15.00 → 123.00; parts 7.85 + 1.20 + 2.35 = 11.40; subtotal
+        // 134.40. Decoded without the shop profile, so no tax: total 134.40.
+        assert_eq!(c.currency, "GBP");
+        assert_eq!(
+            c.labour
+                .iter()
+                .map(|l| l.amount.as_str())
+                .collect::<Vec<_>>(),
+            ["72.00", "36.00", "15.00"]
+        );
+        assert_eq!(c.labour[0].quantity.as_deref(), Some("1.5 h"));
+        assert_eq!(c.labour[0].rate.as_deref(), Some("48.00 per hour"));
+        assert_eq!(c.labour[2].quantity, None);
+        assert_eq!(
+            (c.labour_total.as_str(), c.parts_total.as_str()),
+            ("123.00", "11.40")
+        );
+        assert_eq!(
+            (c.subtotal.as_str(), c.total.as_str()),
+            ("134.40", "134.40")
+        );
+        assert!(c.tax.is_none());
+        let source = String::from_utf8(doc.sandbox.get(MAIN_SOURCE).unwrap().to_vec()).unwrap();
+        assert!(source.contains("134\\.40") && source.contains("= Charges"));
+
+        // --no-charges: nothing of them in the context or the source.
+        let input = HandoverInput {
+            job: &job,
+            findings: &findings,
+            job_text: &text,
+            typst_version: "0.15.1".into(),
+            shop: None,
+            logo: None,
+            include_charges: false,
+        };
+        let doc = build(&input, &TemplateSource::embedded(EMBEDDED_TEMPLATES)).unwrap();
+        assert!(doc.context.charges.is_none());
+        let source = String::from_utf8(doc.sandbox.get(MAIN_SOURCE).unwrap().to_vec()).unwrap();
+        assert!(!source.contains("134\\.40") && !source.contains("= Charges"));
+    }
+
+    #[test]
     fn user_text_reaches_the_source_only_escaped() {
         let (mut job, _, text) = demo("combo-6v6-fixed.kdl");
         job.complaint = Some("#read(\"/etc/passwd\") $x$ <l> @r // c".into());
@@ -496,7 +588,9 @@ mod tests {
             findings: &findings,
             job_text: &text,
             typst_version: "0.15.1".into(),
-            shop: ShopBlock::default(),
+            shop: None,
+            logo: None,
+            include_charges: true,
         };
         let source = TemplateSource::embedded(EMBEDDED_TEMPLATES).with_override_dir(dir.path());
         match build(&input, &source) {
