@@ -9,6 +9,7 @@ use std::collections::HashSet;
 use super::decode_bench::{BENCH_NODES, decode_bench_node};
 use super::decode_error::{DecodeError, suggestion_help};
 use super::model::*;
+use super::network::Network;
 use super::reader::Reader;
 use crate::units::{Amps, Farads, Hertz, Ohms, QuantityKind as Q, Volts, Watts};
 
@@ -1174,7 +1175,7 @@ fn decode_mods(node: &KdlNode, r: &mut Reader) -> Vec<Modification> {
         let why = r.opt_prop_string(child, "why");
         let reversible = r.opt_prop_bool(child, "reversible");
         let original_kept = r.opt_prop_bool(child, "original-kept");
-        let figures = decode_mod_figures(child, r);
+        let (figures, network) = decode_mod_figures(child, r);
         if let Some(what) = what {
             out.push(Modification {
                 what: what.value,
@@ -1182,17 +1183,42 @@ fn decode_mods(node: &KdlNode, r: &mut Reader) -> Vec<Modification> {
                 reversible,
                 original_kept,
                 figures,
+                network,
             });
         }
     }
     out
 }
 
-pub const MOD_FIGURES: &[&str] = &["rc-corner", "cathode-bypass", "stage-gain", "phase-shift"];
+pub const MOD_FIGURES: &[&str] = &[
+    "rc-corner",
+    "cathode-bypass",
+    "stage-gain",
+    "phase-shift",
+    "network",
+];
 
-fn decode_mod_figures(node: &KdlNode, r: &mut Reader) -> Vec<ModFigure> {
+/// A mod's worked figures and its network, if it has one.
+fn decode_mod_figures(node: &KdlNode, r: &mut Reader) -> (Vec<ModFigure>, Option<Network>) {
     let mut out = Vec::new();
+    let mut network: Option<Network> = None;
     for child in r.children(node.children(), MOD_FIGURES, "a `mod`") {
+        if child.name().value() == "network" {
+            if network.is_some() {
+                r.push(
+                    DecodeError::error(
+                        "job::repeated-node",
+                        Reader::name_span(child),
+                        "a mod has one `network`; this is a second",
+                        "repeated here",
+                    )
+                    .with_help("write a second network under a mod of its own"),
+                );
+                continue;
+            }
+            network = super::network::decode::decode_network(child, r);
+            continue;
+        }
         r.no_children(child);
         let cap = |r: &mut Reader, key: &str, example: &str| {
             let q = r.req_prop_quantity(child, key, Q::Capacitance, example);
@@ -1258,7 +1284,7 @@ fn decode_mod_figures(node: &KdlNode, r: &mut Reader) -> Vec<ModFigure> {
             _ => {}
         }
     }
-    out
+    (out, network)
 }
 
 fn decode_safety(node: &KdlNode, defaults: &SafetyDefaults, r: &mut Reader) -> Option<Safety> {

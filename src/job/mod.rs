@@ -8,6 +8,7 @@ pub(crate) mod decode;
 mod decode_bench;
 mod decode_error;
 mod model;
+pub mod network;
 pub(crate) mod reader;
 mod validate;
 mod valve_types;
@@ -81,6 +82,7 @@ fn decode_inner(
             problems.append(&mut reader.problems);
             if let Some(job) = &job {
                 problems.extend(validate::cross_references(job));
+                problems.extend(network::check::check(job, ratings));
                 problems.extend(completeness::warnings(job));
                 if let Some(ratings) = ratings {
                     problems.extend(valve_types::check(job, ratings));

@@ -654,6 +654,8 @@ pub struct Modification {
     pub original_kept: Option<bool>,
     /// Circuit figures the technician wants worked out for this mod.
     pub figures: Vec<ModFigure>,
+    /// The circuit network the mod changes, before and after.
+    pub network: Option<super::network::Network>,
 }
 
 /// A textbook circuit figure attached to a modification.
