@@ -1,6 +1,6 @@
-use std::time::Instant;
-use ampreport::report::handover::{self, HandoverInput, ShopBlock};
+use ampreport::report::handover::{self, HandoverInput};
 use ampreport::typeset::TemplateSource;
+use std::time::Instant;
 fn main() {
     let path = std::env::args().nth(1).unwrap();
     let text = std::fs::read_to_string(&path).unwrap();
@@ -16,18 +16,33 @@ fn main() {
     let t = Instant::now();
     let d = ampreport::report::plots::dissipation_chart(&findings).unwrap();
     let parts = ampreport::report::plots::split_dissipation(&d);
-    for p in &parts { ampreport::report::plots::dissipation_svg(&p.chart).unwrap(); }
+    for p in &parts {
+        ampreport::report::plots::dissipation_svg(&p.chart).unwrap();
+    }
     let t_p1 = t.elapsed();
     let t = Instant::now();
     let s = ampreport::report::plots::supply_chart(&findings).unwrap();
-    for p in &ampreport::report::plots::split_supply(&s) { ampreport::report::plots::supply_svg(&p.chart).unwrap(); }
+    for p in &ampreport::report::plots::split_supply(&s) {
+        ampreport::report::plots::supply_svg(&p.chart).unwrap();
+    }
     let t_p2 = t.elapsed();
-    let input = HandoverInput { job: &decoded.job, findings: &findings, job_text: &text, typst_version: "0.15.1".into(), shop: ShopBlock::default() };
+    let input = HandoverInput::new(&decoded.job, &findings, &text, "0.15.1");
     let t = Instant::now();
-    let doc = handover::build(&input, &TemplateSource::embedded(handover::EMBEDDED_TEMPLATES)).unwrap();
+    let doc = handover::build(
+        &input,
+        &TemplateSource::embedded(handover::EMBEDDED_TEMPLATES),
+    )
+    .unwrap();
     let t_b = t.elapsed();
     let t = Instant::now();
-    let _ = ampreport::report::terminal::render(&decoded.job, &findings, &ampreport::report::terminal::TerminalStyle { colour: false });
+    let _ = ampreport::report::terminal::render(
+        &decoded.job,
+        &findings,
+        &ampreport::report::terminal::TerminalStyle { colour: false },
+    );
     let t_term = t.elapsed();
-    println!("ratings {t_r:?} decode {t_d:?} derive {t_c:?} diss charts {t_p1:?} supply charts {t_p2:?} build(all) {t_b:?} terminal {t_term:?} files {}", doc.sandbox.len());
+    println!(
+        "ratings {t_r:?} decode {t_d:?} derive {t_c:?} diss charts {t_p1:?} supply charts {t_p2:?} build(all) {t_b:?} terminal {t_term:?} files {}",
+        doc.sandbox.len()
+    );
 }

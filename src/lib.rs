@@ -13,5 +13,6 @@ pub mod kdl_fast;
 pub mod problem_cap;
 pub mod ratings;
 pub mod report;
+pub mod shop;
 pub mod typeset;
 pub mod units;

@@ -33,8 +33,10 @@ pub enum Command {
     Watch(RenderArgs),
     /// List the valve ratings table, or show one type with its source note.
     Tubes(TubesArgs),
-    /// Write an annotated skeleton job file to start from.
+    /// Write an annotated skeleton job file (or, with --shop, a shop profile) to start from.
     Init(InitArgs),
+    /// Write a mod's network as a plain SPICE netlist with an AC analysis.
+    Netlist(NetlistArgs),
 }
 
 /// Options every command that reads jobs shares.
@@ -50,6 +52,30 @@ pub struct JobArgs {
     /// A shop's own ratings file that adds or corrects valve types.
     #[arg(long, value_name = "FILE")]
     pub ratings: Vec<PathBuf>,
+    /// The shop profile to use when there is no shop.kdl in the job's folder
+    /// or a folder above it.
+    #[arg(long, value_name = "FILE", conflicts_with = "no_shop")]
+    pub shop: Option<PathBuf>,
+    /// Use no shop profile at all: the neutral heading and the built-in defaults.
+    #[arg(long)]
+    pub no_shop: bool,
+}
+
+/// Options of a command that reads one job file.
+#[derive(Debug, Args)]
+pub struct OneJobArgs {
+    /// The job file (KDL).
+    pub job: PathBuf,
+    /// A shop's own ratings file that adds or corrects valve types.
+    #[arg(long, value_name = "FILE")]
+    pub ratings: Vec<PathBuf>,
+    /// The shop profile to use when there is no shop.kdl in the job's folder
+    /// or a folder above it.
+    #[arg(long, value_name = "FILE", conflicts_with = "no_shop")]
+    pub shop: Option<PathBuf>,
+    /// Use no shop profile at all: the neutral heading and the built-in defaults.
+    #[arg(long)]
+    pub no_shop: bool,
 }
 
 #[derive(Debug, Args)]
@@ -104,6 +130,10 @@ pub struct RenderArgs {
     /// How many jobs to render at once (default: the number of cores).
     #[arg(short = 'j', long = "jobs", value_name = "N", value_parser = clap::value_parser!(u16).range(1..=1024))]
     pub parallel: Option<u16>,
+    /// With several jobs, print only the failures and the summary: no line
+    /// per job rendered or unchanged, no progress bar.
+    #[arg(short, long)]
+    pub quiet: bool,
     /// The typst program to run (default: $AMPREPORT_TYPST, else typst on PATH).
     #[arg(long, value_name = "PATH")]
     pub typst: Option<PathBuf>,
@@ -114,6 +144,9 @@ pub struct RenderArgs {
     /// (new or empty; see --force).
     #[arg(long, value_name = "DIR")]
     pub emit_source: Option<PathBuf>,
+    /// Leave the job's charges out of the document.
+    #[arg(long)]
+    pub no_charges: bool,
     /// Render even when the PDF is up to date; with --emit-source, also
     /// replace everything in a folder that is not empty.
     #[arg(long)]
@@ -157,7 +190,30 @@ pub struct TubesArgs {
 }
 
 #[derive(Debug, Args)]
+#[command(group(clap::ArgGroup::new("what").required(true).multiple(true).args(["path", "shop"])))]
 pub struct InitArgs {
     /// Where to write the new job file; an existing file is never replaced.
-    pub path: PathBuf,
+    pub path: Option<PathBuf>,
+    /// Where to write an annotated shop profile (shop.kdl); an existing file
+    /// is never replaced.
+    #[arg(long, value_name = "PATH")]
+    pub shop: Option<PathBuf>,
+}
+
+#[derive(Debug, Args)]
+pub struct NetlistArgs {
+    #[command(flatten)]
+    pub job: OneJobArgs,
+    /// The mod whose network to write, counted from 1 in the job's `mods`.
+    #[arg(long = "mod", value_name = "N")]
+    pub mod_number: usize,
+    /// The network as left (after the mod's edits) instead of as found.
+    #[arg(long)]
+    pub after: bool,
+    /// Which of the network's pot settings, counted from 1.
+    #[arg(long, value_name = "S", default_value_t = 1)]
+    pub setting: usize,
+    /// Write to this file (atomically) instead of standard output.
+    #[arg(short, long, value_name = "FILE")]
+    pub output: Option<PathBuf>,
 }

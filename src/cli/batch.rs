@@ -8,7 +8,9 @@
 //! starts, and the process ends as the signal would end it.
 //!
 //! On a terminal a progress bar (`indicatif`) stands under the lines;
-//! elsewhere, or with `NO_COLOR` or `TERM=dumb`, there are only the lines.
+//! elsewhere, or with `NO_COLOR`, `TERM=dumb` or `--quiet`, there are only
+//! the lines. `--quiet` leaves out the lines of jobs rendered or unchanged
+//! (what a job says on standard error, its warnings, still prints).
 
 use std::io::IsTerminal;
 use std::sync::Mutex;
@@ -29,13 +31,25 @@ pub fn default_workers() -> usize {
 /// How a finished job is told: on a progress bar, or in plain lines.
 struct Progress {
     bar: Option<ProgressBar>,
+    quiet: bool,
+}
+
+/// A progress bar only on a terminal, and not with `NO_COLOR`, `TERM=dumb`
+/// or `--quiet`.
+fn bar_wanted(terminal: bool, no_color: Option<&str>, term: Option<&str>, quiet: bool) -> bool {
+    terminal && no_color.is_none_or(str::is_empty) && term != Some("dumb") && !quiet
 }
 
 impl Progress {
-    fn new(total: usize) -> Self {
-        let wanted = std::io::stderr().is_terminal()
-            && std::env::var_os("NO_COLOR").is_none_or(|v| v.is_empty())
-            && std::env::var("TERM").map_or(true, |t| t != "dumb");
+    fn new(total: usize, quiet: bool) -> Self {
+        let no_color = std::env::var("NO_COLOR").ok();
+        let term = std::env::var("TERM").ok();
+        let wanted = bar_wanted(
+            std::io::stderr().is_terminal(),
+            no_color.as_deref(),
+            term.as_deref(),
+            quiet,
+        );
         let bar = wanted.then(|| {
             let bar = ProgressBar::with_draw_target(
                 Some(total as u64),
@@ -48,7 +62,7 @@ impl Progress {
             );
             bar
         });
-        Progress { bar }
+        Progress { bar, quiet }
     }
 
     /// Prints what a job said and how it ended, above the bar if there is
@@ -56,7 +70,9 @@ impl Progress {
     fn finished(&self, plan: &Plan, report: &JobReport) {
         let print = || {
             report.said.print();
-            println!("{}", outcome_line(plan, report));
+            if !self.quiet || report.outcome == Outcome::Failed {
+                println!("{}", outcome_line(plan, report));
+            }
         };
         match &self.bar {
             Some(bar) => {
@@ -122,7 +138,7 @@ pub fn run(setup: &Setup<'_>) -> Exit {
         }
     };
     let start = Instant::now();
-    let progress = Progress::new(setup.plans.len());
+    let progress = Progress::new(setup.plans.len(), setup.args.quiet);
     let reports: Mutex<Vec<Option<JobReport>>> =
         Mutex::new((0..setup.plans.len()).map(|_| None).collect());
     pool.install(|| {
@@ -164,13 +180,7 @@ struct Summary {
 
 impl Summary {
     fn of(plans: &[Plan], reports: &[Option<JobReport>], elapsed: Duration) -> Self {
-        let count = |o: Outcome| {
-            reports
-                .iter()
-                .flatten()
-                .filter(|r| r.outcome == o)
-                .count()
-        };
+        let count = |o: Outcome| reports.iter().flatten().filter(|r| r.outcome == o).count();
         let (rendered, unchanged, failed) = (
             count(Outcome::Rendered),
             count(Outcome::Unchanged),
@@ -199,5 +209,20 @@ impl Summary {
             }
         }
         Summary { failed, text }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn the_bar_is_drawn_only_on_a_terminal_without_no_color_or_quiet() {
+        assert!(bar_wanted(true, None, Some("xterm"), false));
+        assert!(bar_wanted(true, Some(""), None, false));
+        assert!(!bar_wanted(false, None, Some("xterm"), false));
+        assert!(!bar_wanted(true, Some("1"), Some("xterm"), false));
+        assert!(!bar_wanted(true, None, Some("dumb"), false));
+        assert!(!bar_wanted(true, None, Some("xterm"), true));
     }
 }

@@ -27,7 +27,7 @@ pub fn run(args: &CalcArgs) -> Exit {
     let mut exit = Exit::Success;
     for job in &jobs {
         let mut said = Said::default();
-        match load::job(&job.path, &ratings, &mut said) {
+        match load::job(&job.path, args.job.shop_choice(), &ratings, &mut said) {
             Ok(loaded) => {
                 let findings = calc::derive(&loaded.decoded.job, &ratings);
                 if lines {

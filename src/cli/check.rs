@@ -39,7 +39,14 @@ pub fn run(args: &CheckArgs) -> Exit {
             }
             said.out(format!("━━ {}", job.path.display()));
         }
-        match check_one(job, &ratings, &style, args.strict, &mut said) {
+        match check_one(
+            job,
+            args.job.shop_choice(),
+            &ratings,
+            &style,
+            args.strict,
+            &mut said,
+        ) {
             Ok(over) => strict |= over,
             Err(_) => unreadable = true,
         }
@@ -58,12 +65,13 @@ pub fn run(args: &CheckArgs) -> Exit {
 /// something against it.
 fn check_one(
     job: &JobFile,
+    choice: load::ShopChoice<'_>,
     ratings: &RatingsTable,
     style: &TerminalStyle,
     strict: Option<StrictSets>,
     said: &mut Said,
 ) -> Result<bool, Exit> {
-    let loaded = load::job(&job.path, ratings, said)?;
+    let loaded = load::job(&job.path, choice, ratings, said)?;
     let findings = calc::derive(&loaded.decoded.job, ratings);
     said.out
         .push_str(&terminal::render(&loaded.decoded.job, &findings, style));
@@ -78,7 +86,9 @@ fn check_one(
 /// The job files the command line names, or the exit status after saying
 /// why there are none.
 pub fn named_jobs(args: &super::args::JobArgs) -> Result<Vec<JobFile>, Exit> {
-    let jobs = match job_files::find(&args.jobs, args.recursive, &args.ratings) {
+    let mut skip = args.ratings.clone();
+    skip.extend(args.shop.iter().cloned());
+    let jobs = match job_files::find(&args.jobs, args.recursive, &skip) {
         Ok(jobs) => jobs,
         Err(e) => {
             eprintln!("error: {e}");

@@ -84,10 +84,7 @@ fn read(path: &Path) -> Result<Vec<u8>, KeyError> {
 impl RunKey {
     /// The program's own identity, from the build.
     pub fn program() -> (&'static str, &'static str) {
-        (
-            env!("CARGO_PKG_VERSION"),
-            env!("AMPREPORT_PROGRAM_DIGEST"),
-        )
+        (env!("CARGO_PKG_VERSION"), env!("AMPREPORT_PROGRAM_DIGEST"))
     }
 
     /// Hashes the shared inputs, reading the files they name.
@@ -300,9 +297,15 @@ mod tests {
         let r = dir.path().join("r.kdl");
         std::fs::write(&r, "valve \"X\" {}").unwrap();
         let ratings = [r.clone()];
-        let one = RunKey::new(&inputs(&ratings, &[])).unwrap().job("j").finish();
+        let one = RunKey::new(&inputs(&ratings, &[]))
+            .unwrap()
+            .job("j")
+            .finish();
         std::fs::write(&r, "valve \"Y\" {}").unwrap();
-        let two = RunKey::new(&inputs(&ratings, &[])).unwrap().job("j").finish();
+        let two = RunKey::new(&inputs(&ratings, &[]))
+            .unwrap()
+            .job("j")
+            .finish();
         assert_ne!(one, two);
 
         let run = RunKey::new(&inputs(&[], &[])).unwrap();
@@ -320,12 +323,21 @@ mod tests {
             templates: Some(dir),
             ..inputs(&[], &[])
         };
-        let t1 = RunKey::new(&with(templates.path())).unwrap().job("j").finish();
+        let t1 = RunKey::new(&with(templates.path()))
+            .unwrap()
+            .job("j")
+            .finish();
         std::fs::create_dir(templates.path().join("images")).unwrap();
         std::fs::write(templates.path().join("images/logo.png"), "p").unwrap();
-        let t2 = RunKey::new(&with(templates.path())).unwrap().job("j").finish();
+        let t2 = RunKey::new(&with(templates.path()))
+            .unwrap()
+            .job("j")
+            .finish();
         assert_ne!(t1, t2);
-        assert_ne!(t1, RunKey::new(&inputs(&[], &[])).unwrap().job("j").finish());
+        assert_ne!(
+            t1,
+            RunKey::new(&inputs(&[], &[])).unwrap().job("j").finish()
+        );
     }
 
     #[test]

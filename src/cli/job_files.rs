@@ -5,8 +5,7 @@
 
 use std::path::{Path, PathBuf};
 
-/// The name of a shop profile, never taken as a job.
-pub const SHOP_FILE: &str = "shop.kdl";
+pub use crate::shop::SHOP_FILE;
 
 /// A job file to work on.
 #[derive(Debug, Clone, PartialEq, Eq)]
@@ -31,7 +30,7 @@ pub struct SearchError {
 /// The jobs that `arguments` name, in order: each file as given; each
 /// folder's job files sorted by name, a folder's own files before its
 /// sub-folders'. `skip` lists files never taken as jobs (the `--ratings`
-/// files). The same file named twice is kept once, where it first came.
+/// files, the `--shop` profile). The same file named twice is kept once, where it first came.
 pub fn find(
     arguments: &[PathBuf],
     recursive: bool,
@@ -92,11 +91,7 @@ fn search(
     folders.sort();
     for name in files {
         let path = dir.join(&name);
-        if path
-            .canonicalize()
-            .is_ok_and(|c| skip.iter().any(|s| *s == c))
-            || is_ratings_file(&path)
-        {
+        if path.canonicalize().is_ok_and(|c| skip.contains(&c)) || is_other_input(&path) {
             continue;
         }
         out.push(JobFile {
@@ -120,13 +115,17 @@ fn is_job_name(name: &str) -> bool {
             .is_some_and(|e| e.eq_ignore_ascii_case("kdl"))
 }
 
-/// True for a ratings file: its first node is `ratings-format` or `valve`.
-/// A file that cannot be read is taken as a job, so its error is reported.
-fn is_ratings_file(path: &Path) -> bool {
+/// True for a ratings file (its first node is `ratings-format` or
+/// `valve`) or a shop profile under another name (`shop-format`). A file
+/// that cannot be read is taken as a job, so its error is reported.
+fn is_other_input(path: &Path) -> bool {
     let Ok(text) = std::fs::read_to_string(path) else {
         return false;
     };
-    matches!(first_node(&text), Some("ratings-format" | "valve"))
+    matches!(
+        first_node(&text),
+        Some("ratings-format" | "valve" | "shop-format")
+    )
 }
 
 /// The name of the first node of a KDL text, past blank space and
@@ -198,6 +197,7 @@ mod tests {
         std::fs::write(root.join("a.kdl"), job).unwrap();
         std::fs::write(root.join("shop.kdl"), "shop name=\"x\"\n").unwrap();
         std::fs::write(root.join("own-ratings.kdl"), "// mine\nvalve \"X1\" {}\n").unwrap();
+        std::fs::write(root.join("other-shop.kdl"), "shop-format 1\nshop \"x\"\n").unwrap();
         std::fs::write(root.join(".hidden.kdl"), job).unwrap();
         std::fs::write(root.join("notes.txt"), "x").unwrap();
         std::fs::create_dir(root.join("sub")).unwrap();
@@ -223,7 +223,11 @@ mod tests {
 
         // A file named directly is taken as it is, once.
         let named = find(
-            &[root.join("sub/c.kdl"), root.to_path_buf(), root.join("a.kdl")],
+            &[
+                root.join("sub/c.kdl"),
+                root.to_path_buf(),
+                root.join("a.kdl"),
+            ],
             true,
             &[],
         )

@@ -1,13 +1,15 @@
-//! Reading a job file and the ratings it needs, shared by every command
-//! that takes jobs. Problems are gathered as diagnostics in a [`Said`], so
-//! that jobs read side by side report whole blocks.
+//! Reading a job file, its shop profile and the ratings it needs, shared
+//! by every command that takes jobs. Problems are gathered as diagnostics
+//! in a [`Said`], so that jobs read side by side report whole blocks.
 
-use std::path::Path;
+use std::path::{Path, PathBuf};
 
+use super::args::{JobArgs, OneJobArgs};
 use super::exit::Exit;
 use super::said::Said;
 use crate::job::{self, Decoded};
 use crate::ratings::RatingsTable;
+use crate::shop::{self, Found, Logo, ShopProfile};
 
 /// The built-in ratings plus any shop files named on the command line.
 pub fn ratings(files: &[std::path::PathBuf]) -> Result<RatingsTable, Exit> {
@@ -21,41 +23,91 @@ pub fn ratings(files: &[std::path::PathBuf]) -> Result<RatingsTable, Exit> {
     Ok(table)
 }
 
-/// A decoded job whose valve types are all known, with its text; warnings
-/// are in the [`Said`] it was read with.
+/// How the command line chose the shop profile: `--shop FILE` where no
+/// `shop.kdl` is found beside or above the job, or `--no-shop`.
+#[derive(Debug, Clone, Copy, Default)]
+pub struct ShopChoice<'a> {
+    pub named: Option<&'a Path>,
+    pub none: bool,
+}
+
+impl JobArgs {
+    pub fn shop_choice(&self) -> ShopChoice<'_> {
+        ShopChoice {
+            named: self.shop.as_deref(),
+            none: self.no_shop,
+        }
+    }
+}
+
+impl OneJobArgs {
+    pub fn shop_choice(&self) -> ShopChoice<'_> {
+        ShopChoice {
+            named: self.shop.as_deref(),
+            none: self.no_shop,
+        }
+    }
+}
+
+/// A decoded job whose valve types are all known, with its text and its
+/// shop profile; warnings are in the [`Said`] it was read with.
 pub struct Loaded {
     pub decoded: Decoded,
+    /// The shop profile in use, if any.
+    pub shop: Option<LoadedShop>,
     /// The job file as read, for the document footer's checksum and the
     /// content key.
     pub text: String,
 }
 
-/// Reads and decodes the job at `path` against `ratings`.
-pub fn job(path: &Path, ratings: &RatingsTable, said: &mut Said) -> Result<Loaded, Exit> {
-    let text = read_text(path, said)?;
-    decode(path, text, ratings, said)
+/// A decoded shop profile, where it was found, its text as read and its
+/// checked logo.
+pub struct LoadedShop {
+    pub profile: ShopProfile,
+    pub found: Found,
+    /// The profile's text, the very bytes it was decoded from (for the
+    /// content key).
+    pub text: String,
+    pub logo: Option<Logo>,
 }
 
-/// Decodes `text`, read from the job file at `path`, against `ratings`.
+impl LoadedShop {
+    pub fn path(&self) -> &Path {
+        self.found.path()
+    }
+}
+
+/// Reads the shop profile of the job at `path` and the job itself, and
+/// decodes the job against `ratings` and the profile's defaults.
+pub fn job(
+    path: &Path,
+    choice: ShopChoice<'_>,
+    ratings: &RatingsTable,
+    said: &mut Said,
+) -> Result<Loaded, Exit> {
+    let shop = shop_profile(path, choice, said, &mut Vec::new())?;
+    let text = read_text(path, "job file", said)?;
+    decode(path, text, shop, ratings, said)
+}
+
+/// Decodes `text`, read from the job file at `path`, against `ratings`
+/// and the defaults of `shop`.
 pub fn decode(
     path: &Path,
     text: String,
+    shop: Option<LoadedShop>,
     ratings: &RatingsTable,
     said: &mut Said,
 ) -> Result<Loaded, Exit> {
     let name = path.display().to_string();
-    let decoded = match job::decode_with_ratings(&name, &text, ratings) {
+    let defaults = shop
+        .as_ref()
+        .map(|s| s.profile.defaults.clone())
+        .unwrap_or_default();
+    let decoded = match job::decode_with_defaults(&name, &text, ratings, &defaults) {
         Ok(d) => d,
         Err(diagnostics) => {
-            let title = diagnostics.errors().next().map(|p| {
-                let (line, column) = job::line_column(&text, p.span.offset());
-                format!("{name}:{line}:{column}: {}", p.message)
-            });
-            let report = format!("{:?}", miette::Report::new(diagnostics));
-            match title {
-                Some(title) => said.error_titled(report, title),
-                None => said.error(report),
-            }
+            refused(&name, &text, diagnostics, said);
             return Err(Exit::InvalidInput);
         }
     };
@@ -65,11 +117,99 @@ pub fn decode(
             miette::Report::new(decoded.diagnostics.clone())
         ));
     }
-    Ok(Loaded { decoded, text })
+    Ok(Loaded {
+        decoded,
+        shop,
+        text,
+    })
 }
 
-pub fn read_text(path: &Path, said: &mut Said) -> Result<String, Exit> {
-    crate::input_file::read_text(path, "job file").map_err(|e| {
+/// The shop profile for the job at `job_path`, found as [`shop::discover`]
+/// says, decoded, with its logo read and checked; `None` with `--no-shop`
+/// or when there is none. The files it reads (the profile, the logo) are
+/// added to `read`, even when they are refused.
+pub fn shop_profile(
+    job_path: &Path,
+    choice: ShopChoice<'_>,
+    said: &mut Said,
+    read: &mut Vec<PathBuf>,
+) -> Result<Option<LoadedShop>, Exit> {
+    if choice.none {
+        return Ok(None);
+    }
+    let config = shop::user_config_dir();
+    let Some(found) = shop::discover(job_path, choice.named, config.as_deref()) else {
+        return Ok(None);
+    };
+    if let (Found::BesideJob(used), Some(named)) = (&found, choice.named) {
+        said.err(format!(
+            "note: using the shop profile {} found beside the job; --shop {} applies only where there is none",
+            used.display(),
+            named.display()
+        ));
+    }
+    let path: PathBuf = found.path().to_path_buf();
+    read.push(path.clone());
+    let text = read_text(&path, "shop profile", said)?;
+    let name = path.display().to_string();
+    let decoded = match shop::decode(&name, &text) {
+        Ok(d) => d,
+        Err(diagnostics) => {
+            refused(&name, &text, diagnostics, said);
+            return Err(Exit::InvalidInput);
+        }
+    };
+    if !decoded.diagnostics.problems.is_empty() {
+        said.err(format!(
+            "{:?}",
+            miette::Report::new(decoded.diagnostics.clone())
+        ));
+    }
+    if let Some(written) = &decoded.profile.logo {
+        let folder = path.parent().unwrap_or(Path::new("."));
+        read.push(folder.join(&written.value));
+    }
+    let logo = match &decoded.profile.logo {
+        Some(written) => match shop::read_logo(&path, written) {
+            Ok(logo) => Some(logo),
+            Err(problem) => {
+                let diagnostics = job::JobDiagnostics {
+                    source: decoded.diagnostics.source.clone(),
+                    problems: vec![*problem],
+                    not_shown: Default::default(),
+                };
+                refused(&name, &text, diagnostics, said);
+                return Err(Exit::InvalidInput);
+            }
+        },
+        None => None,
+    };
+    Ok(Some(LoadedShop {
+        profile: decoded.profile,
+        found,
+        text,
+        logo,
+    }))
+}
+
+/// Tells why the file `name` (read as `text`) was refused; its first
+/// error, with its line and column, is the one-line form for a batch's
+/// summary.
+fn refused(name: &str, text: &str, diagnostics: job::JobDiagnostics, said: &mut Said) {
+    let title = diagnostics.errors().next().map(|p| {
+        let (line, column) = job::line_column(text, p.span.offset());
+        format!("{name}:{line}:{column}: {}", p.message)
+    });
+    let report = format!("{:?}", miette::Report::new(diagnostics));
+    match title {
+        Some(title) => said.error_titled(report, title),
+        None => said.error(report),
+    }
+}
+
+/// A file's text; `what` names it in the message ("job file").
+pub fn read_text(path: &Path, what: &'static str, said: &mut Said) -> Result<String, Exit> {
+    crate::input_file::read_text(path, what).map_err(|e| {
         said.error(format!("error: {e}"));
         Exit::InvalidInput
     })

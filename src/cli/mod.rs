@@ -10,6 +10,7 @@ pub mod exit;
 mod init;
 pub mod job_files;
 mod load;
+mod netlist;
 mod render;
 mod said;
 mod tubes;
@@ -43,6 +44,7 @@ pub fn main() -> ExitCode {
         args::Command::Watch(a) => watch::run(a),
         args::Command::Tubes(a) => tubes::run(a),
         args::Command::Init(a) => init::run(a),
+        args::Command::Netlist(a) => netlist::run(a),
     };
     if let Exit::Interrupted(signal) = exit {
         crate::typeset::interrupt::exit_as_signalled(signal);

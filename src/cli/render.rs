@@ -28,10 +28,9 @@ use super::load;
 use super::said::Said;
 use crate::calc;
 use crate::ratings::RatingsTable;
-use crate::report::handover::{self, HandoverError, HandoverInput, ShopBlock};
+use crate::report::handover::{self, HandoverError, HandoverInput};
 use crate::typeset::{
-    self, CompileOptions, Input, InputIndex, TemplateSource, TypesetError, TypstProgram,
-    interrupt,
+    self, CompileOptions, Input, InputIndex, TemplateSource, TypesetError, TypstProgram, interrupt,
 };
 
 pub fn run(args: &RenderArgs) -> Exit {
@@ -128,7 +127,7 @@ impl<'a> Setup<'a> {
             return Err(Exit::Usage);
         }
         let version = program.version.to_string();
-        let options = render_options();
+        let options = render_options(args);
         let run_key = match RunKey::new(&RunInputs {
             program: RunKey::program(),
             fonts: typeset::FONTS_DIGEST,
@@ -164,11 +163,11 @@ impl<'a> Setup<'a> {
 }
 
 /// The options that change a document's bytes, for the content key.
-fn render_options() -> Vec<String> {
-    vec![format!(
-        "pdf-standard={}",
-        typeset::DEFAULT_PDF_STANDARD
-    )]
+fn render_options(args: &RenderArgs) -> Vec<String> {
+    vec![
+        format!("pdf-standard={}", typeset::DEFAULT_PDF_STANDARD),
+        format!("charges={}", !args.no_charges),
+    ]
 }
 
 /// Where a job's PDF goes: `-o`, else under `--out-dir` at the job's place
@@ -229,13 +228,15 @@ pub enum Outcome {
 }
 
 /// One job's render: how it ended, its exit status, what it had to say,
-/// and how long it took.
+/// how long it took, and the files besides the job and the run's shared
+/// inputs it was made from (its shop profile and logo), for `watch`.
 #[derive(Debug)]
 pub struct JobReport {
     pub outcome: Outcome,
     pub exit: Exit,
     pub said: Said,
     pub elapsed: Duration,
+    pub depends: Vec<PathBuf>,
 }
 
 /// Renders one job: reads it, checks where its PDF goes, skips it when the
@@ -245,7 +246,8 @@ pub struct JobReport {
 pub fn render_one(setup: &Setup<'_>, plan: &Plan) -> JobReport {
     let start = Instant::now();
     let mut said = Said::default();
-    let (outcome, exit) = match render_job(setup, plan, &mut said) {
+    let mut depends = Vec::new();
+    let (outcome, exit) = match render_job(setup, plan, &mut said, &mut depends) {
         Ok(outcome) => (outcome, Exit::Success),
         Err(exit) => (Outcome::Failed, exit),
     };
@@ -254,26 +256,48 @@ pub fn render_one(setup: &Setup<'_>, plan: &Plan) -> JobReport {
         exit,
         said,
         elapsed: start.elapsed(),
+        depends,
     }
 }
 
-fn render_job(setup: &Setup<'_>, plan: &Plan, said: &mut Said) -> Result<Outcome, Exit> {
+fn render_job(
+    setup: &Setup<'_>,
+    plan: &Plan,
+    said: &mut Said,
+    depends: &mut Vec<PathBuf>,
+) -> Result<Outcome, Exit> {
     let args = setup.args;
     let job_path = &plan.job.path;
     let output = &plan.output;
-    let text = load::read_text(job_path, said)?;
+    let shop = load::shop_profile(job_path, args.job.shop_choice(), said, depends)?;
+    let text = load::read_text(job_path, "job file", said)?;
 
-    let inputs = inputs_read(args, job_path, &setup.program);
-    if let Err(e) = typeset::check_output(output, &inputs)
-        .and_then(|()| setup.job_files.check(output))
+    // Under --out-dir, the job's place in the tree is made as needed.
+    if let Some(dir) = &args.out_dir
+        && let Some(parent) = output.parent()
+        && parent.starts_with(dir)
+        && let Err(e) = std::fs::create_dir_all(parent)
+    {
+        said.error(format!(
+            "error: could not make the folder {} for the PDF: {e}",
+            parent.display()
+        ));
+        return Err(Exit::Environment);
+    }
+    let inputs = inputs_read(args, job_path, &setup.program, shop.as_ref());
+    if let Err(e) =
+        typeset::check_output(output, &inputs).and_then(|()| setup.job_files.check(output))
     {
         said.error(format!("{:?}", miette::Report::new(e)));
         return Err(Exit::Usage);
     }
 
-    // The key covers the text read above, the very bytes the job is
-    // decoded from below.
-    let key = setup.run_key.as_ref().map(|run| run.job(&text).finish());
+    // The key covers the texts read above, the very bytes the job and its
+    // shop profile are decoded from below, and the logo's checked bytes.
+    let key = setup
+        .run_key
+        .as_ref()
+        .map(|run| job_key(run, &text, shop.as_ref()));
     if let Some(key) = &key
         && !args.force
         && args.emit_source.is_none()
@@ -282,7 +306,7 @@ fn render_job(setup: &Setup<'_>, plan: &Plan, said: &mut Said) -> Result<Outcome
         return Ok(Outcome::Unchanged);
     }
 
-    let loaded = load::decode(job_path, text, &setup.ratings, said)?;
+    let loaded = load::decode(job_path, text, shop, &setup.ratings, said)?;
     let job = &loaded.decoded.job;
     let findings = calc::derive(job, &setup.ratings);
     for warning in undrawable_text(&job_path.display().to_string(), &loaded.text) {
@@ -294,7 +318,9 @@ fn render_job(setup: &Setup<'_>, plan: &Plan, said: &mut Said) -> Result<Outcome
         findings: &findings,
         job_text: &loaded.text,
         typst_version: setup.program.version.to_string(),
-        shop: ShopBlock::default(),
+        shop: loaded.shop.as_ref().map(|s| &s.profile),
+        logo: loaded.shop.as_ref().and_then(|s| s.logo.as_ref()),
+        include_charges: !args.no_charges,
     };
     let document = match handover::build(&input, &setup.templates) {
         Ok(d) => d,
@@ -370,10 +396,35 @@ fn render_job(setup: &Setup<'_>, plan: &Plan, said: &mut Said) -> Result<Outcome
     }
 }
 
+/// A job's content key: the run's shared inputs, the job's text, and its
+/// shop profile's text and logo (or their absence).
+fn job_key(run: &RunKey, text: &str, shop: Option<&load::LoadedShop>) -> String {
+    let mut key = run.job(text);
+    match shop {
+        Some(shop) => {
+            key.file("shop profile", shop.text.as_bytes());
+            match &shop.logo {
+                Some(logo) => {
+                    key.file("logo kind", logo.sandbox_path().as_bytes());
+                    key.file("logo", &logo.bytes);
+                }
+                None => key.none("logo"),
+            }
+        }
+        None => key.none("shop profile"),
+    }
+    key.finish()
+}
+
 /// Every path the render of `job` reads, for the output checks: an output
 /// may be none of them, and the `--emit-source` folder may hold none of
 /// them.
-fn inputs_read(args: &RenderArgs, job: &Path, program: &TypstProgram) -> Vec<Input> {
+fn inputs_read(
+    args: &RenderArgs,
+    job: &Path,
+    program: &TypstProgram,
+    shop: Option<&load::LoadedShop>,
+) -> Vec<Input> {
     let mut inputs = vec![Input::new(job, "the job file")];
     inputs.extend(
         args.job
@@ -383,6 +434,12 @@ fn inputs_read(args: &RenderArgs, job: &Path, program: &TypstProgram) -> Vec<Inp
     );
     if let Some(dir) = &args.templates {
         inputs.push(Input::new(dir, "the template folder"));
+    }
+    if let Some(shop) = shop {
+        inputs.push(Input::new(shop.path(), "the shop profile"));
+        if let Some(logo) = &shop.logo {
+            inputs.push(Input::new(&logo.source, "the shop's logo"));
+        }
     }
     inputs.push(Input::new(&program.path, "the typst program"));
     inputs

@@ -70,7 +70,8 @@ pub fn headline(text: &str) -> Option<String> {
         .lines()
         .map(|l| {
             let l = l.trim_start_matches(|c: char| {
-                c.is_whitespace() || matches!(c, '×' | '│' | '╭' | '─' | '┬' | '·' | '|' | '!' | '⚠')
+                c.is_whitespace()
+                    || matches!(c, '×' | '│' | '╭' | '─' | '┬' | '·' | '|' | '!' | '⚠')
             });
             let l = l.trim_end();
             l.strip_prefix("error: ")
@@ -115,10 +116,14 @@ mod tests {
     #[test]
     fn the_headline_is_the_first_line_with_words() {
         assert_eq!(
-            headline("\n  \u{1b}[31m×\u{1b}[0m the job file is not valid KDL\n   ╭─[a.kdl:1:1]").as_deref(),
+            headline("\n  \u{1b}[31m×\u{1b}[0m the job file is not valid KDL\n   ╭─[a.kdl:1:1]")
+                .as_deref(),
             Some("the job file is not valid KDL")
         );
-        assert_eq!(headline("error: no such file").as_deref(), Some("no such file"));
+        assert_eq!(
+            headline("error: no such file").as_deref(),
+            Some("no such file")
+        );
         assert_eq!(headline("  \n "), None);
         let long = "x".repeat(300);
         assert_eq!(headline(&long).unwrap().chars().count(), 201);
@@ -131,6 +136,9 @@ mod tests {
         said.error("error: the first");
         said.error("error: the second");
         assert_eq!(said.first_error(), Some("the first"));
-        assert_eq!(said.err, "warning: something\nerror: the first\nerror: the second\n");
+        assert_eq!(
+            said.err,
+            "warning: something\nerror: the first\nerror: the second\n"
+        );
     }
 }

@@ -12,8 +12,10 @@
 //! save by writing a new file and renaming it over the old one. Changes
 //! come through `notify`, debounced: a burst of writes to one file is one
 //! change, told at most [`DEBOUNCE`] × 2 after the last of them. A changed
-//! job file renders that job; a changed ratings file or template, or a job
-//! file added to a watched folder, renders every job.
+//! job file renders that job; a changed ratings file or template, shop
+//! profile (any `shop.kdl`, or one a job used) or logo, or a job file added
+//! to a watched folder, renders every job (those whose content key still
+//! matches are not typeset again).
 
 use std::collections::HashSet;
 use std::path::{Path, PathBuf};
@@ -52,13 +54,26 @@ pub fn run(args: &RenderArgs) -> Exit {
         }
     };
     let mut watched: HashSet<PathBuf> = HashSet::new();
-    if let Err(e) = watch_folders(&setup, &mut watched, debouncer.watcher()) {
+    if let Err(e) = watch_folders(&folders(&setup), &mut watched, debouncer.watcher()) {
         eprintln!("error: {e}");
         return Exit::Environment;
     }
-    for plan in &setup.plans {
-        render_and_tell(&setup, plan);
-    }
+    // The shop profiles and logos the jobs were made from.
+    let mut depends: HashSet<PathBuf> = HashSet::new();
+    let mut render_all =
+        |setup: &Setup<'_>, depends: &mut HashSet<PathBuf>, watcher: &mut dyn notify::Watcher| {
+            for plan in &setup.plans {
+                render_and_tell(setup, plan, depends);
+            }
+            let more: Vec<(PathBuf, RecursiveMode)> = depends
+                .iter()
+                .map(|p| (folder_of(p), RecursiveMode::NonRecursive))
+                .collect();
+            if let Err(e) = watch_folders(&more, &mut watched, watcher) {
+                eprintln!("warning: {e}");
+            }
+        };
+    render_all(&setup, &mut depends, debouncer.watcher());
     eprintln!(
         "watching {} job{} for changes (Ctrl-C stops)",
         setup.plans.len(),
@@ -82,11 +97,11 @@ pub fn run(args: &RenderArgs) -> Exit {
             }
         };
         let changed: Vec<PathBuf> = events.into_iter().map(|e| e.path).collect();
-        match affected(&setup, &changed) {
+        match affected(&setup, &depends, &changed) {
             Affected::Nothing => {}
             Affected::Jobs(indices) => {
                 for i in indices {
-                    render_and_tell(&setup, &setup.plans[i]);
+                    render_and_tell(&setup, &setup.plans[i], &mut depends);
                 }
             }
             Affected::Everything => {
@@ -95,23 +110,20 @@ pub fn run(args: &RenderArgs) -> Exit {
                     Ok(fresh) => setup = fresh,
                     Err(_) => continue,
                 }
-                if let Err(e) = watch_folders(&setup, &mut watched, debouncer.watcher()) {
-                    eprintln!("warning: {e}");
-                }
-                for plan in &setup.plans {
-                    render_and_tell(&setup, plan);
-                }
+                render_all(&setup, &mut depends, debouncer.watcher());
             }
         }
     }
 }
 
-/// Renders one job and prints one line about it (what it said first).
-fn render_and_tell(setup: &Setup<'_>, plan: &Plan) {
+/// Renders one job and prints one line about it (what it said first);
+/// notes the shop profile and logo it was made from in `depends`.
+fn render_and_tell(setup: &Setup<'_>, plan: &Plan, depends: &mut HashSet<PathBuf>) {
     if interrupt::received().is_some() {
         return;
     }
     let report = render_one(setup, plan);
+    depends.extend(report.depends.iter().map(|p| canonical(p)));
     report.said.print();
     let now = chrono::Local::now().format("%H:%M:%S");
     match report.outcome {
@@ -137,10 +149,6 @@ fn render_and_tell(setup: &Setup<'_>, plan: &Plan) {
 fn folders(setup: &Setup<'_>) -> Vec<(PathBuf, RecursiveMode)> {
     let args = setup.args;
     let mut out: Vec<(PathBuf, RecursiveMode)> = Vec::new();
-    let folder_of = |p: &Path| match p.parent() {
-        Some(d) if !d.as_os_str().is_empty() => d.to_path_buf(),
-        _ => PathBuf::from("."),
-    };
     for arg in &args.job.jobs {
         if arg.is_dir() {
             let mode = if args.job.recursive {
@@ -163,19 +171,33 @@ fn folders(setup: &Setup<'_>) -> Vec<(PathBuf, RecursiveMode)> {
     out
 }
 
-/// Starts watching every folder of [`folders`] not watched yet.
+/// The folder a file is in (`.` for a bare name).
+fn folder_of(p: &Path) -> PathBuf {
+    match p.parent() {
+        Some(d) if !d.as_os_str().is_empty() => d.to_path_buf(),
+        _ => PathBuf::from("."),
+    }
+}
+
+/// The path with links and `..` worked out, or as it is when it does not
+/// exist.
+fn canonical(p: &Path) -> PathBuf {
+    p.canonicalize().unwrap_or_else(|_| p.to_path_buf())
+}
+
+/// Starts watching every folder of `folders` not watched yet.
 fn watch_folders(
-    setup: &Setup<'_>,
+    folders: &[(PathBuf, RecursiveMode)],
     watched: &mut HashSet<PathBuf>,
     watcher: &mut dyn notify::Watcher,
 ) -> Result<(), String> {
-    for (dir, mode) in folders(setup) {
-        let key = dir.canonicalize().unwrap_or_else(|_| dir.clone());
+    for (dir, mode) in folders {
+        let key = canonical(dir);
         if watched.contains(&key) {
             continue;
         }
         watcher
-            .watch(&dir, mode)
+            .watch(dir, *mode)
             .map_err(|e| format!("cannot watch {}: {e}", dir.display()))?;
         watched.insert(key);
     }
@@ -195,9 +217,8 @@ enum Affected {
 /// Which jobs the changed paths touch. Outputs, manifests and temporary
 /// files (anything that is not an input) are ignored, so a render never
 /// sets off another.
-fn affected(setup: &Setup<'_>, changed: &[PathBuf]) -> Affected {
+fn affected(setup: &Setup<'_>, depends: &HashSet<PathBuf>, changed: &[PathBuf]) -> Affected {
     let args = setup.args;
-    let canonical = |p: &Path| p.canonicalize().unwrap_or_else(|_| p.to_path_buf());
     let shared: Vec<PathBuf> = args.job.ratings.iter().map(|r| canonical(r)).collect();
     let templates = args.templates.as_deref().map(canonical);
     let jobs: Vec<PathBuf> = setup.plans.iter().map(|p| canonical(&p.job.path)).collect();
@@ -211,7 +232,14 @@ fn affected(setup: &Setup<'_>, changed: &[PathBuf]) -> Affected {
     let mut hit = Vec::new();
     for path in changed {
         let path = canonical(path);
-        if shared.contains(&path) || templates.as_ref().is_some_and(|t| path.starts_with(t)) {
+        let a_shop_profile = path
+            .file_name()
+            .is_some_and(|n| n == super::job_files::SHOP_FILE);
+        if shared.contains(&path)
+            || depends.contains(&path)
+            || a_shop_profile
+            || templates.as_ref().is_some_and(|t| path.starts_with(t))
+        {
             return Affected::Everything;
         }
         if let Some(i) = jobs.iter().position(|j| *j == path) {

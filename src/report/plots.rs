@@ -297,7 +297,11 @@ fn split_series<T>(
                 ));
             }
             if column_groups.len() > 1 {
-                words.push(span_words(&columns[cols.start], &columns[cols.end - 1], false));
+                words.push(span_words(
+                    &columns[cols.start],
+                    &columns[cols.end - 1],
+                    false,
+                ));
             }
             parts.push(ChartPart {
                 chart: make(cut, cols.clone()),
@@ -311,10 +315,12 @@ fn split_series<T>(
 /// The dissipation chart cut into parts for a long job (see
 /// [`SETS_PER_CHART`]); one part holding the whole chart otherwise.
 pub fn split_dissipation(chart: &DissipationChart) -> Vec<ChartPart<DissipationChart>> {
-    split_series(&chart.series, &chart.valves, |series, cols| DissipationChart {
-        valves: chart.valves[cols].to_vec(),
-        series,
-        guide: chart.guide,
+    split_series(&chart.series, &chart.valves, |series, cols| {
+        DissipationChart {
+            valves: chart.valves[cols].to_vec(),
+            series,
+            guide: chart.guide,
+        }
     })
 }
 
@@ -606,7 +612,7 @@ pub(crate) fn draw_label(
 /// pixels.
 pub(crate) const LABEL_HEIGHT: f64 = 12.0;
 
-fn err(chart: &'static str) -> impl Fn(String) -> PlotError {
+pub(crate) fn err(chart: &'static str) -> impl Fn(String) -> PlotError {
     move |message| PlotError { chart, message }
 }
 

@@ -7,9 +7,7 @@
 use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, VPos};
 
-use super::plots::{
-    ChartPart, SETS_PER_CHART, even_groups, span_words,
-};
+use super::plots::{ChartPart, SETS_PER_CHART, even_groups, span_words};
 use super::plots::{
     DARK, GRID, INK, LABEL_HEIGHT, Line, MID, Obstacles, PAPER, PixelBox, PlotError, SIZE,
     anchored, dashed, draw_label, draw_marker, draw_mesh, label_spots, label_text, marker,

@@ -180,7 +180,10 @@ impl InputIndex {
             if let Ok(path) = input.path.canonicalize() {
                 index.by_path.entry(path).or_insert(i);
             }
-            if let Some(id) = std::fs::metadata(&input.path).ok().and_then(|m| file_id(&m)) {
+            if let Some(id) = std::fs::metadata(&input.path)
+                .ok()
+                .and_then(|m| file_id(&m))
+            {
                 index.by_file.entry(id).or_insert(i);
             }
         }

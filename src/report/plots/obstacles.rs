@@ -98,7 +98,13 @@ impl Obstacles {
 
     /// The bucket columns and rows `b` reaches into (edge buckets for
     /// anything outside the grid).
-    fn span(&self, b: &PixelBox) -> (std::ops::RangeInclusive<usize>, std::ops::RangeInclusive<usize>) {
+    fn span(
+        &self,
+        b: &PixelBox,
+    ) -> (
+        std::ops::RangeInclusive<usize>,
+        std::ops::RangeInclusive<usize>,
+    ) {
         let index = |v: f64, origin: f64, n: usize| -> usize {
             let i = ((v - origin) / CELL).floor();
             if i.is_nan() || i < 0.0 {
@@ -233,7 +239,10 @@ mod tests {
                 0 => o.add_solid(PixelBox::around((x as i32, y as i32), 9.0)),
                 1 => o.add_line(Line::new(
                     (x, y),
-                    (x + lcg(&mut seed) * 300.0 - 150.0, y + lcg(&mut seed) * 80.0 - 40.0),
+                    (
+                        x + lcg(&mut seed) * 300.0 - 150.0,
+                        y + lcg(&mut seed) * 80.0 - 40.0,
+                    ),
                     20.0,
                 )),
                 _ => o.add_band(PixelBox::new((x, y), (x + 40.0, y + 90.0))),
