@@ -1,13 +1,18 @@
-//! Every command-line definition, in one place.
+//! Every command-line definition, in one place. What the shell completes
+//! for each argument is attached here too (see [`super::completions`]).
 
-use clap::{Args, Parser, Subcommand};
+use clap::{Args, Parser, Subcommand, ValueHint};
+use clap_complete::engine::ArgValueCompleter;
 use std::path::PathBuf;
 use std::time::Duration;
+
+use super::completions::{job_files, pdf_files, valve_types};
+use super::ui::ColourChoice;
 
 #[derive(Debug, Parser)]
 #[command(
     name = "ampreport",
-    version,
+    disable_version_flag = true,
     about = "Checks a valve-amplifier repair job file and turns it into a hand-over document",
     long_about = "Reads one KDL job file (the unit, its measurements, parts and mods, safety tests), \
 derives plate and screen dissipation, mains-corrected and high-line figures and the stress on \
@@ -16,8 +21,37 @@ resistors and capacitors, and prints them or typesets a PDF hand-over document."
 2 the command line is wrong (also: an output that must not be written); 3 the tool's environment failed (e.g. typst missing, failing or too slow); 4 --strict found a figure over its limit."
 )]
 pub struct Cli {
+    /// Print the version of ampreport, of the job format and the JSON
+    /// schema, and the typst program found.
+    #[arg(short = 'V', long)]
+    pub version: bool,
+    #[command(flatten)]
+    pub output: OutputArgs,
     #[command(subcommand)]
-    pub command: Command,
+    pub command: Option<Command>,
+}
+
+/// How the program talks, for every command.
+#[derive(Debug, Args, Clone, Copy)]
+pub struct OutputArgs {
+    /// Colour in the summary and the messages: auto (only on a terminal,
+    /// and never when NO_COLOR is set), always, or never.
+    #[arg(
+        long,
+        global = true,
+        value_enum,
+        value_name = "WHEN",
+        default_value_t = ColourChoice::Auto
+    )]
+    pub color: ColourChoice,
+    /// Print errors only: no warnings, notes or "wrote" lines (the
+    /// summary, JSON or PDF asked for is still written).
+    #[arg(short, long, global = true, conflicts_with = "verbose")]
+    pub quiet: bool,
+    /// Also say what was read from where: the job, shop profile, ratings
+    /// files, templates, typst, and the configuration and cache folders.
+    #[arg(short, long, global = true)]
+    pub verbose: bool,
 }
 
 #[derive(Debug, Subcommand)]
@@ -32,15 +66,36 @@ pub enum Command {
     Tubes(TubesArgs),
     /// Write an annotated skeleton job file to start from.
     Init(InitArgs),
+    /// Print the shell completion script for bash, zsh, fish or PowerShell.
+    ///
+    /// The script asks ampreport itself what to offer at each Tab: commands,
+    /// options, job files (.kdl) and folders, the valve types of the ratings
+    /// table for `tubes`, .pdf files for `render -o`. ampreport must be on
+    /// PATH. To install, for bash: `ampreport completions bash >
+    /// ~/.local/share/bash-completion/completions/ampreport`; zsh:
+    /// `ampreport completions zsh > ~/.zfunc/_ampreport` with ~/.zfunc on
+    /// fpath before compinit; fish: `ampreport completions fish >
+    /// ~/.config/fish/completions/ampreport.fish`; PowerShell: add
+    /// `ampreport completions powershell | Out-String | Invoke-Expression`
+    /// to $PROFILE.
+    Completions(CompletionsArgs),
+    /// Write the manual pages, one per command, into a folder.
+    ///
+    /// Writes ampreport.1 and ampreport-COMMAND.1 for each command. To
+    /// install them for one user: `ampreport man ~/.local/share/man/man1`
+    /// (then `man ampreport-render`); for all users, into
+    /// /usr/local/share/man/man1 as root.
+    Man(ManArgs),
 }
 
 /// Options every command that reads a job shares.
 #[derive(Debug, Args)]
 pub struct JobArgs {
-    /// The job file (KDL).
+    /// The job file (KDL); `-` reads it from standard input.
+    #[arg(value_hint = ValueHint::FilePath, add = ArgValueCompleter::new(job_files()))]
     pub job: PathBuf,
     /// A shop's own ratings file that adds or corrects valve types.
-    #[arg(long, value_name = "FILE")]
+    #[arg(long, value_name = "FILE", value_hint = ValueHint::FilePath, add = ArgValueCompleter::new(job_files()))]
     pub ratings: Vec<PathBuf>,
 }
 
@@ -66,18 +121,19 @@ pub struct CalcArgs {
 pub struct RenderArgs {
     #[command(flatten)]
     pub job: JobArgs,
-    /// Where to write the PDF (default: beside the job file, same name, .pdf).
-    #[arg(short, long, value_name = "FILE")]
+    /// Where to write the PDF (default: beside the job file, same name,
+    /// .pdf); `-` writes it to standard output.
+    #[arg(short, long, value_name = "FILE", value_hint = ValueHint::FilePath, add = ArgValueCompleter::new(pdf_files()))]
     pub output: Option<PathBuf>,
     /// The typst program to run (default: $AMPREPORT_TYPST, else typst on PATH).
-    #[arg(long, value_name = "PATH")]
+    #[arg(long, value_name = "PATH", value_hint = ValueHint::ExecutablePath)]
     pub typst: Option<PathBuf>,
     /// A folder of templates that replace the built-in ones by file name.
-    #[arg(long, value_name = "DIR")]
+    #[arg(long, value_name = "DIR", value_hint = ValueHint::DirPath)]
     pub templates: Option<PathBuf>,
     /// Also write the generated Typst source and its assets to this folder
     /// (new or empty; see --force).
-    #[arg(long, value_name = "DIR")]
+    #[arg(long, value_name = "DIR", value_hint = ValueHint::DirPath)]
     pub emit_source: Option<PathBuf>,
     /// Let --emit-source replace everything in a folder that is not empty.
     #[arg(long, requires = "emit_source")]
@@ -98,7 +154,7 @@ pub const MAX_TIMEOUT_SECONDS: f64 = 86_400.0;
 
 /// A number of seconds, more than 0 and at most [`MAX_TIMEOUT_SECONDS`]
 /// (fractions allowed).
-fn parse_timeout(text: &str) -> Result<Duration, String> {
+pub fn parse_timeout(text: &str) -> Result<Duration, String> {
     let seconds: f64 = text
         .trim()
         .parse()
@@ -114,14 +170,31 @@ fn parse_timeout(text: &str) -> Result<Duration, String> {
 #[derive(Debug, Args)]
 pub struct TubesArgs {
     /// A valve type to show in full (equivalents are found too).
+    #[arg(add = ArgValueCompleter::new(valve_types))]
     pub valve_type: Option<String>,
     /// A shop's own ratings file that adds or corrects valve types.
-    #[arg(long, value_name = "FILE")]
+    #[arg(long, value_name = "FILE", value_hint = ValueHint::FilePath, add = ArgValueCompleter::new(job_files()))]
     pub ratings: Vec<PathBuf>,
 }
 
 #[derive(Debug, Args)]
 pub struct InitArgs {
     /// Where to write the new job file; an existing file is never replaced.
+    #[arg(value_hint = ValueHint::FilePath)]
     pub path: PathBuf,
+}
+
+#[derive(Debug, Args)]
+pub struct CompletionsArgs {
+    /// The shell to print the script for.
+    #[arg(value_enum)]
+    pub shell: super::completions::Shell,
+}
+
+#[derive(Debug, Args)]
+pub struct ManArgs {
+    /// The folder to write the pages into (default: the current folder); it
+    /// must exist. Pages of the same name are replaced.
+    #[arg(value_name = "DIR", value_hint = ValueHint::DirPath)]
+    pub dir: Option<PathBuf>,
 }

@@ -30,11 +30,11 @@ pub fn run(args: &InitArgs) -> Exit {
     });
     match result {
         Ok(()) => {
-            println!(
+            super::ui::wrote(format!(
                 "wrote {}; fill it in, then run `ampreport check {}`",
                 path.display(),
                 path.display()
-            );
+            ));
             Exit::Success
         }
         Err(e) if e.kind() == std::io::ErrorKind::AlreadyExists => {

@@ -7,6 +7,9 @@
 //!
 //! The rules, in order:
 //!
+//! * `-` is standard output: no file is written or replaced, so it passes
+//!   (the PDF checks still run before a byte is written, see
+//!   [`super::compile`]); a file of that name is written as `./-`;
 //! * a path that ends in a folder (`out/`, `.`, `..`) is refused;
 //! * a symbolic link is refused, wherever it points: renaming the new PDF
 //!   into place would replace the link itself, and following it would write
@@ -101,6 +104,9 @@ pub enum OutputRefused {
 /// Checks that a file may be written at `output` by a run that reads
 /// `inputs`. See the module documentation for the rules.
 pub fn check_output(output: &Path, inputs: &[Input]) -> Result<(), OutputRefused> {
+    if crate::input_file::is_dash(output) {
+        return Ok(());
+    }
     if names_a_folder(output) {
         return Err(OutputRefused::Folder {
             path: output.to_path_buf(),
@@ -227,7 +233,9 @@ pub fn check_emit_folder(
         .iter()
         .map(|i| (i.path.clone(), i.what.clone()))
         .collect();
-    touched.push((output.to_path_buf(), "the PDF output".to_owned()));
+    if !crate::input_file::is_dash(output) {
+        touched.push((output.to_path_buf(), "the PDF output".to_owned()));
+    }
     for (path, what) in touched {
         let Some(other) = resolved(&path) else {
             continue;
@@ -383,6 +391,20 @@ mod tests {
             check_output(&dir.path().join("missing/x.pdf"), &inputs),
             Err(OutputRefused::NoFolder { .. })
         ));
+    }
+
+    #[test]
+    fn a_dash_is_standard_output_and_dot_slash_dash_a_file() {
+        let dir = tempfile::tempdir().unwrap();
+        let (_, inputs) = job_in(dir.path());
+        check_output(Path::new("-"), &inputs).unwrap();
+        // Standard output is no file in the source folder.
+        check_emit_folder(&dir.path().join("src"), &inputs, Path::new("-"), false).unwrap();
+        // `./-` is a file like any other: refused when it is an input.
+        std::fs::write(dir.path().join("-"), "job").unwrap();
+        let dash_file = vec![Input::new(dir.path().join("-"), "the job file")];
+        let err = check_output(&dir.path().join("./-"), &dash_file).unwrap_err();
+        assert!(matches!(err, OutputRefused::IsInput { .. }), "{err:?}");
     }
 
     #[test]
