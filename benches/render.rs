@@ -69,11 +69,18 @@ impl Setup {
             .and_then(|s| s.split_whitespace().next())
             .expect("ampreport names the timestamp")
             .to_string();
+        // The stand-in copies the real document, which ampreport checks
+        // (complete, notice present) as it would typst's own.
+        let stub_pdf = dir.path().join("stand-in.pdf");
+        std::fs::copy(&pdf, &stub_pdf).expect("keep the first render");
         let stub = dir.path().join("typst-stand-in");
         std::fs::write(
             &stub,
-            "#!/bin/sh\nif [ \"$1\" = --version ]; then echo 'typst 0.15.1 (stand-in)'; exit 0; fi\n\
-             for a; do out=$a; done\nprintf '%%PDF-1.7\\n%%%%EOF\\n' > \"$out\"\n",
+            format!(
+                "#!/bin/sh\nif [ \"$1\" = --version ]; then echo 'typst 0.15.1 (stand-in)'; exit 0; fi\n\
+                 for a; do out=$a; done\ncp '{}' \"$out\"\n",
+                stub_pdf.display()
+            ),
         )
         .unwrap();
         make_executable(&stub);

@@ -172,7 +172,7 @@ fn every_demo_job_passes_check() {
 }
 
 #[test]
-fn calc_json_holds_schema_1_and_plate_dissipation_for_every_output_valve() {
+fn calc_json_holds_schema_2_and_plate_dissipation_for_every_output_valve() {
     for job in demo_jobs() {
         let o = ampreport()
             .args(["calc", "--json"])
@@ -188,13 +188,13 @@ fn calc_json_holds_schema_1_and_plate_dissipation_for_every_output_valve() {
         );
         let text = stdout(&o);
         assert!(
-            text.trim_start().starts_with("{\n  \"schema\": 1"),
-            "{} does not start with \"schema\": 1",
+            text.trim_start().starts_with("{\n  \"schema\": 2"),
+            "{} does not start with \"schema\": 2",
             job.display()
         );
         let v: Value = serde_json::from_str(&text)
             .unwrap_or_else(|e| panic!("{}: not JSON: {e}", job.display()));
-        assert_eq!(v["schema"], 1);
+        assert_eq!(v["schema"], 2);
 
         // The output valves the job file lists, read from the file itself.
         let source = std::fs::read_to_string(&job).expect("read demo");
@@ -247,31 +247,74 @@ fn calc_json_holds_schema_1_and_plate_dissipation_for_every_output_valve() {
 }
 
 #[test]
-fn strict_exits_4_on_a_demo_with_an_over_and_plain_check_exits_0() {
+fn strict_judges_the_final_set_and_strict_all_every_set() {
     let job = demo_dir().join("combo-el84-cathode.kdl");
-    // The demo's own "as found" set has the pair over its rating.
+    // The demo's "as found" set has the pair over its rating; "as left",
+    // the final set, has nothing over.
     let calc = ampreport()
         .args(["calc", "--json"])
         .arg(&job)
         .output()
         .expect("runs");
     let v: Value = serde_json::from_str(&stdout(&calc)).expect("json");
-    let overs = v["warnings"]
+    assert_eq!(v["final_set"], "as left");
+    let overs: Vec<&Value> = v["warnings"]
         .as_array()
         .expect("warnings")
         .iter()
         .filter(|w| w["status"] == "over")
-        .count();
-    assert!(overs > 0, "the cathode-bias demo should have an over");
+        .collect();
+    assert!(
+        !overs.is_empty(),
+        "the cathode-bias demo should have an over"
+    );
+    assert!(
+        overs
+            .iter()
+            .all(|w| w["set"] == "as found" && w["in_final_set"] == false),
+        "{overs:?}"
+    );
 
     let o = ampreport()
         .args(["check", "--strict"])
         .arg(&job)
         .output()
         .expect("runs");
-    assert_eq!(code(&o), 4, "{}", stderr(&o));
+    assert_eq!(
+        code(&o),
+        0,
+        "an as-found-only over does not fail --strict: {}",
+        stderr(&o)
+    );
+    let o = ampreport()
+        .args(["check", "--strict=final"])
+        .arg(&job)
+        .output()
+        .expect("runs");
+    assert_eq!(code(&o), 0, "{}", stderr(&o));
+    let o = ampreport()
+        .args(["check", "--strict=all"])
+        .arg(&job)
+        .output()
+        .expect("runs");
+    assert_eq!(
+        code(&o),
+        4,
+        "--strict=all keeps judging every set: {}",
+        stderr(&o)
+    );
     let o = ampreport().arg("check").arg(&job).output().expect("runs");
     assert_eq!(code(&o), 0);
+    let o = ampreport()
+        .args(["check", "--strict=some"])
+        .arg(&job)
+        .output()
+        .expect("runs");
+    assert_eq!(
+        code(&o),
+        2,
+        "an unknown --strict value is a command-line error"
+    );
 }
 
 #[test]
@@ -280,6 +323,295 @@ fn strict_exits_0_when_nothing_is_over() {
     // 10 V / (2 × 130 Ω) = 38.5 mA; (300 − 10) V × 38.5 mA = 11.15 W: 93 % of 12 W, a caution, not an over.
     let o = run_in(dir.path(), &["check", "--strict", "fine.kdl"]);
     assert_eq!(code(&o), 0, "{}\n{}", stdout(&o), stderr(&o));
+}
+
+/// A job whose final set has the EL84 pair over its plate rating:
+/// 12 V / (2 × 100 Ω) = 60 mA; (280 − 12) V × 60 mA = 16.1 W, 134 % of the
+/// 12 W rating (EL84 Pa max 12 W, from memory of manufacturer data). The
+/// plate voltage, 280 V × 1.05 = 294 V at high line, stays under the 300 V
+/// maximum.
+fn over_in_the_final_set(accepted: &str) -> String {
+    format!(
+        r#"{}
+measurements "as left" mains="120V" {{
+    valve V3 plate="280V" cathode="12V"
+    valve V4 plate="280V" cathode="12V"
+    circuit {{
+        cathode-resistor R24 value="100" rating="5W" valves="V3 V4"
+    }}
+}}
+{accepted}
+"#,
+        small_job(GOOD_CIRCUIT, GOOD_READINGS)
+    )
+}
+
+#[test]
+fn an_un_accepted_over_in_the_final_set_fails_strict() {
+    let dir = job_file("hot.kdl", &over_in_the_final_set(""));
+    let o = run_in(dir.path(), &["check", "--strict", "hot.kdl"]);
+    assert_eq!(code(&o), 4, "{}\n{}", stdout(&o), stderr(&o));
+}
+
+#[test]
+fn accepted_findings_do_not_fail_strict_and_keep_their_status() {
+    let accepted = r#"accepted by="Bench" date="2026-03-04" {
+    valve V3 check=plate-dissipation reason="Customer wants it hot; told of the shorter valve life"
+    valve V4 set="as left" reason="Same as V3"
+}"#;
+    let dir = job_file("hot.kdl", &over_in_the_final_set(accepted));
+    let o = run_in(dir.path(), &["check", "--strict", "hot.kdl"]);
+    assert_eq!(code(&o), 0, "{}\n{}", stdout(&o), stderr(&o));
+    assert!(
+        stdout(&o).contains("Customer wants it hot"),
+        "{}",
+        stdout(&o)
+    );
+    // --strict=all still counts the as-found figures, which were not over.
+    let o = run_in(dir.path(), &["check", "--strict=all", "hot.kdl"]);
+    assert_eq!(code(&o), 0, "{}\n{}", stdout(&o), stderr(&o));
+
+    let o = run_in(dir.path(), &["calc", "--json", "hot.kdl"]);
+    let v: Value = serde_json::from_str(&stdout(&o)).expect("json");
+    let left = &v["sets"][1];
+    assert_eq!(left["is_final"], true);
+    let v3 = &left["valves"][0];
+    assert_eq!(v3["position"], "V3");
+    // The figure keeps its status; only the open status changes.
+    assert_eq!(v3["status"], "over");
+    assert_eq!(v3["open_status"], "ok");
+    let check = v3["checks"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .find(|c| c["check"] == "plate_dissipation")
+        .expect("plate check");
+    assert_eq!(check["status"], "over");
+    assert_eq!(check["accepted"], true);
+    assert_eq!(
+        check["accepted_reason"],
+        "Customer wants it hot; told of the shorter valve life"
+    );
+    assert_eq!(check["accepted_by"], "Bench");
+    assert_eq!(check["accepted_date"], "2026-03-04");
+    // V3's acceptance names no set, so it covers the as-found caution
+    // (93 %) too; V4's names "as left", so V4's as-found caution stays open.
+    let found = &v["sets"][0]["valves"];
+    let plate_check = |valve: &Value| {
+        valve["checks"]
+            .as_array()
+            .unwrap()
+            .iter()
+            .find(|c| c["check"] == "plate_dissipation")
+            .cloned()
+            .expect("plate check")
+    };
+    assert_eq!(found[0]["position"], "V3");
+    assert_eq!(plate_check(&found[0])["status"], "caution");
+    assert_eq!(plate_check(&found[0])["accepted"], true);
+    assert_eq!(found[1]["position"], "V4");
+    assert_eq!(plate_check(&found[1])["status"], "caution");
+    assert_eq!(plate_check(&found[1])["accepted"], false);
+    // The panel judges the final set: the output valves read accepted, not over.
+    let glance = &v["at_a_glance"][0];
+    assert_eq!(glance["family"], "output_valves");
+    assert_eq!(glance["status"], "ok");
+    assert_eq!(glance["accepted"].as_array().unwrap().len(), 2);
+}
+
+#[test]
+fn an_acceptance_that_names_nothing_is_an_error_with_a_suggestion() {
+    let accepted = r#"accepted by="Bench" date="2026-03-04" {
+    valve V33 reason="typo"
+    part R2 reason="typo"
+    valve V3 set="as lfet" reason="typo"
+    valve V4 check=plate-disipation reason="typo"
+}"#;
+    let text = over_in_the_final_set(accepted);
+    let dir = job_file("bad.kdl", &text);
+    let o = run_in(dir.path(), &["check", "bad.kdl"]);
+    assert_eq!(code(&o), 1, "{}", stderr(&o));
+    let err = stderr(&o);
+    assert_eq!(
+        reported_positions(&err, "bad.kdl"),
+        [
+            pos_of("bad.kdl", &text, "V33", 0),
+            pos_of("bad.kdl", &text, "R2 ", 0),
+            pos_of("bad.kdl", &text, "\"as lfet\"", 0),
+            pos_of("bad.kdl", &text, "plate-disipation", 0),
+        ],
+        "{err}"
+    );
+    assert!(err.contains("did you mean `V3`"), "{err}");
+    assert!(err.contains("did you mean `R24`"), "{err}");
+    assert!(err.contains("the acceptance names part R2,"), "{err}");
+    assert!(err.contains("did you mean `as left`"), "{err}");
+    assert!(err.contains("did you mean `plate-dissipation`"), "{err}");
+}
+
+#[test]
+fn two_final_sets_are_an_error_and_a_marked_final_set_is_judged() {
+    let mut text = over_in_the_final_set("");
+    // Mark "as found" final: the over in "as left" no longer fails --strict.
+    text = text.replace(
+        r#"measurements "as found" mains="120V""#,
+        r#"measurements "as found" mains="120V" final=#true"#,
+    );
+    let dir = job_file("f.kdl", &text);
+    let o = run_in(dir.path(), &["check", "--strict", "f.kdl"]);
+    assert_eq!(code(&o), 0, "{}\n{}", stdout(&o), stderr(&o));
+    let two = text.replace(
+        r#"measurements "as left" mains="120V""#,
+        r#"measurements "as left" mains="120V" final=#true"#,
+    );
+    let dir = job_file("two.kdl", &two);
+    let o = run_in(dir.path(), &["check", "two.kdl"]);
+    assert_eq!(code(&o), 1);
+    let at = two.rfind("final=#true").unwrap();
+    assert!(
+        stderr(&o).contains(&format!("two.kdl:{}", line_col(&two, at).0)),
+        "{}",
+        stderr(&o)
+    );
+}
+
+#[test]
+fn each_completeness_warning_is_at_its_line() {
+    let text = r#"job-format 1
+job id="T-0002" technician="Bench" completed="2026-03-05"
+unit make="Testmake" model="Testmodel"
+mains nominal="120V"
+valves {
+    valve V3 type=EL84 role=output
+    valve V4 type=EL84 role=output
+}
+circuit {
+    bias cathode
+    cathode-resistor R24 value="130" rating="5W" valves="V3 V4"
+    node B+1 chart="300V"
+    node B+2 chart="280V"
+    dropper R1 value="1k" rating="2W" from=B+1 to=B+2
+}
+measurements "as found" mains="120V" {
+    node B+1 "300V"
+    node B+2 "280V"
+    valve V3 plate="290V" cathode="10V"
+    valve V4 plate="290V" cathode="10V"
+    heater "6.3V"
+}
+measurements "as left" mains="120V" {
+    node B+1 "300V"
+    node B2 "280V"
+    valve V3 plate="290V" cathode="10V"
+}
+"#;
+    let dir = job_file("gaps.kdl", text);
+    let o = run_in(dir.path(), &["check", "gaps.kdl"]);
+    assert_eq!(code(&o), 0, "warnings only: {}", stderr(&o));
+    let err = stderr(&o);
+    let as_found = text.find(r#"measurements "as found""#).unwrap();
+    let at = |needle: &str, from: usize| {
+        let i = text[from..].find(needle).unwrap() + from;
+        let (l, c) = line_col(text, i);
+        format!("gaps.kdl:{l}:{c}")
+    };
+    let as_left = text.find(r#"measurements "as left""#).unwrap();
+    assert_eq!(
+        reported_positions(&err, "gaps.kdl"),
+        [
+            // Read as found, not as left: B+2, V4 and the heater.
+            at("B+2 \"280V\"", as_found),
+            at("V4 plate", as_found),
+            at("\"6.3V\"", as_found),
+            // A name the circuit does not declare, close to one it does.
+            at("B2", as_left),
+        ],
+        "{err}"
+    );
+    assert!(
+        err.contains("V4 is not measured in “as left”, the final set (it was in “as found”)"),
+        "{err}"
+    );
+    assert!(
+        err.contains("node B2 in “as left” is not declared"),
+        "{err}"
+    );
+    assert!(err.contains("did you mean `B+2`?"), "{err}");
+    // The dropper between B+1 and B+2 says why it is not checked as left,
+    // instead of vanishing; the missing valve is an open finding as left.
+    let out = stdout(&o);
+    assert!(out.contains("not checked (B+2 not measured)"), "{out}");
+    assert!(
+        out.contains("V4 (EL84): V4 is not measured in “as left”, the final set"),
+        "{out}"
+    );
+}
+
+#[test]
+fn an_over_range_insulation_reading_and_the_other_new_set_lines() {
+    let extra = r#"parts {
+    part what="Mains cord" was="two-wire" now="three-wire, grounded" reason="No earth"
+    part R24 what="cathode resistor" was="130 Ω 2 W" now="130 Ω 5 W"
+}
+safety class=I {
+    insulation ">500M" test-voltage="500V" minimum="1M"
+    earth-continuity "0.05R" limit="0.1R"
+}
+"#;
+    let readings = format!(
+        "{GOOD_READINGS}\n    bias-control \"fully counter-clockwise\" label=\"V3, V4\"\n    warm-up {{\n        valve V3 after=\"30s\" cathode=\"6V\"\n        valve V3 after=\"5min\" cathode=\"9V\"\n    }}"
+    );
+    let text = format!("{}{extra}", small_job(GOOD_CIRCUIT, &readings));
+    let dir = job_file("more.kdl", &text);
+    let o = run_in(dir.path(), &["check", "more.kdl"]);
+    assert_eq!(code(&o), 0, "{}", stderr(&o));
+    let out = stdout(&o);
+    assert!(
+        out.contains("Bias control V3, V4: fully counter-clockwise"),
+        "{out}"
+    );
+    assert!(out.contains("Mains cord"), "{out}");
+    let o = run_in(dir.path(), &["calc", "--json", "more.kdl"]);
+    let v: Value = serde_json::from_str(&stdout(&o)).expect("json");
+    let ins = &v["safety"][0];
+    assert_eq!(ins["test"], "insulation");
+    assert_eq!(ins["measured"], "> 500 MΩ");
+    assert_eq!(ins["measured_value"], 500e6);
+    assert_eq!(ins["passed"], true);
+    // Warm-up: 6 V / (2 × 130 Ω) = 23.1 mA per valve after 30 s (Ohm's law, textbook; matched pair).
+    let w = &v["sets"][0]["warm_up"][0];
+    assert!((w["minutes"].as_f64().unwrap() - 0.5).abs() < 1e-9);
+    assert!((w["current_ma"].as_f64().unwrap() - 6.0 / 260.0 * 1e3).abs() < 1e-3);
+
+    // A "more than" reading on another test is an error at the `>`, and a
+    // warm-up line without its time is an error at that line.
+    let bad = text
+        .replace(
+            r#"earth-continuity "0.05R""#,
+            r#"earth-continuity ">0.05R""#,
+        )
+        .replace(
+            r#"valve V3 after="5min" cathode="9V""#,
+            r#"valve V3 cathode="9V""#,
+        );
+    let dir = job_file("bad.kdl", &bad);
+    let o = run_in(dir.path(), &["check", "bad.kdl"]);
+    assert_eq!(code(&o), 1);
+    let err = stderr(&o);
+    let warm = bad.find("valve V3 cathode=\"9V\"").unwrap();
+    let (wl, wc) = line_col(&bad, warm);
+    let arrow = bad.find("\">0.05R").unwrap() + 1;
+    let (al, ac) = line_col(&bad, arrow);
+    assert_eq!(
+        reported_positions(&err, "bad.kdl"),
+        [format!("bad.kdl:{wl}:{wc}"), format!("bad.kdl:{al}:{ac}")],
+        "{err}"
+    );
+    assert!(
+        err.contains("a warm-up reading needs the time since power-on"),
+        "{err}"
+    );
+    assert!(err.contains("takes no over-range reading"), "{err}");
 }
 
 // ----- tubes ------------------------------------------------------------------
@@ -380,7 +712,7 @@ fn init_writes_a_skeleton_that_passes_check() {
     let o = run_in(dir.path(), &["calc", "--json", "new-job.kdl"]);
     assert_eq!(code(&o), 0);
     let v: Value = serde_json::from_str(&stdout(&o)).expect("json");
-    assert_eq!(v["schema"], 1);
+    assert_eq!(v["schema"], 2);
     // No temporary files are left beside it.
     let names: Vec<_> = std::fs::read_dir(dir.path())
         .expect("dir")

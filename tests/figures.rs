@@ -296,6 +296,79 @@ fn six_v6_supply_figures() {
     status(c30, "caution"); // common practice: caution under 10 % margin
 }
 
+#[test]
+fn six_v6_rectifier_swap_uses_the_fitted_types_rating() {
+    let v = calc("combo-6v6-fixed.kdl");
+    let found = &set(&v, "as found")["rectifier"];
+    assert_eq!(found["valve_type"], "5Y3GT");
+    near(&found["rating_ma"], 125.0, 1e-9); // 5Y3GT 125 mA DC output, manufacturer data from memory
+    near(&found["load_at_least_ma"], 76.4, 1e-6); // the output valves' cathode currents summed: Vs/Rs = 38.5 mV/1 Ω + 37.9 mV/1 Ω = 76.4 mA (Ohm's law, textbook)
+    // As left the set fits a 5V4G at V5: its own rating decides.
+    let left = &set(&v, "as left")["rectifier"];
+    assert_eq!(left["valve_type"], "5V4G");
+    near(&left["rating_ma"], 175.0, 1e-9); // 5V4G 175 mA DC output, manufacturer data from memory
+    near(&left["load_at_least_ma"], 53.6, 1e-6); // 27.0 mV/1 Ω + 26.6 mV/1 Ω = 53.6 mA (Ohm's law, textbook)
+    near(&left["load_pct"], 30.6286, 1e-3); // 53.6 / 175 = 30.63 %
+    let line_up = find(&v["line_up"], "position", "V5");
+    assert_eq!(line_up["valve_type"], "5Y3GT");
+    assert_eq!(line_up["changes"][0]["set"], "as left");
+    assert_eq!(line_up["changes"][0]["valve_type"], "5V4G");
+}
+
+#[test]
+fn six_v6_warm_up_currents() {
+    let v = calc("combo-6v6-fixed.kdl");
+    let left = set(&v, "as left");
+    let points = left["warm_up"].as_array().expect("warm-up points");
+    assert_eq!(points.len(), 8, "two valves at four times");
+    let first = &points[0];
+    assert_eq!(first["position"], "V3");
+    near(&first["minutes"], 1.0, 1e-9);
+    // Ik = Vs/Rs (Ohm's law, textbook): 9.5 mV / 1 Ω = 9.5 mA; the screen current from the settled
+    // screen reading, Ig2 = (Vsupply − Vg2)/Rg2 = (316 − 315.2) V / 470 Ω = 1.702 mA (domain notes),
+    // so Ia = Ik − Ig2 = 7.798 mA.
+    near(&first["current_ma"], 7.79787, 1e-4);
+    assert_eq!(first["includes_screen"], false);
+    // Pa = (Va − Vk)·Ia with the settled Va (Joule's law, textbook): (322 − 0.0095) V × 7.798 mA = 2.511 W,
+    // 20.92 % of the 6V6GT's 12 W (manufacturer data from memory).
+    near(&first["plate_dissipation_pct"], 20.9237, 1e-3);
+    // Times run in order for each valve; the last V3 point is the settled reading.
+    let v3: Vec<f64> = points
+        .iter()
+        .filter(|p| p["position"] == "V3")
+        .map(|p| p["minutes"].as_f64().unwrap())
+        .collect();
+    assert_eq!(v3, [1.0, 3.0, 10.0, 30.0]);
+    near(
+        &points[3]["current_ma"],
+        valve(left, "V3")["plate_current_ma"].as_f64().unwrap(),
+        1e-9,
+    );
+}
+
+#[test]
+fn six_v6_final_set_is_signed_off() {
+    let v = calc("combo-6v6-fixed.kdl");
+    assert_eq!(v["final_set"], "as left");
+    let left = set(&v, "as left");
+    let v3 = valve(left, "V3");
+    // 315.2 V on a 285 V screen maximum (6V6GT, manufacturer data from memory): 110.6 %, a caution
+    // (over only above 120 %, the job's voltage-over setting), accepted by the technician.
+    let screen = find(&v3["checks"], "check", "screen_voltage");
+    status(screen, "caution");
+    assert_eq!(screen["accepted"], true);
+    assert_eq!(screen["accepted_by"], "Rowan Ilesby");
+    assert_eq!(screen["accepted_date"], "2026-11-12");
+    assert_eq!(v3["open_status"], "ok");
+    assert!(
+        v["warnings"]
+            .as_array()
+            .unwrap()
+            .iter()
+            .all(|w| !(w["in_final_set"] == true && w["accepted"] == false))
+    );
+}
+
 // ----- head-el34-quad: 230 V head, four EL34 by the transformer-resistance method -----
 
 #[test]

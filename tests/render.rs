@@ -552,9 +552,13 @@ fn the_at_a_glance_panel_names_each_family_with_its_status() {
     let json = calc_json(&job);
     for family in json["at_a_glance"].as_array().unwrap() {
         let title = normalise(family["title"].as_str().unwrap());
-        // A family with nothing measured and nothing wrong (no bench
-        // tests in this demo) reads "NOT MEASURED".
-        let word = if family["measured"] == false && family["status"] == "ok" {
+        // A family whose only findings were accepted reads ACCEPTED; one
+        // with nothing measured and nothing wrong (no bench tests in this
+        // demo) reads "NOT MEASURED".
+        let accepted = !family["accepted"].as_array().unwrap().is_empty();
+        let word = if family["status"] == "ok" && accepted {
+            "ACCEPTED".to_string()
+        } else if family["measured"] == false && family["status"] == "ok" {
             "NOTMEASURED".to_string()
         } else {
             family["status"].as_str().unwrap().to_uppercase()
@@ -588,6 +592,74 @@ fn the_at_a_glance_panel_names_each_family_with_its_status() {
             "{word:?} at {x0}–{x1} leaves the page 1 text area"
         );
     }
+}
+
+#[test]
+fn a_healthy_signed_off_unit_reads_healthy_at_a_glance() {
+    if typst_version().is_none() {
+        return;
+    }
+    // The 6V6 demo's final set is inside its limits apart from findings the
+    // technician accepted; its as-found set had an over and cautions.
+    let dir = tempfile::tempdir().unwrap();
+    let job = demo("combo-6v6-fixed");
+    let json = calc_json(&job);
+    assert!(
+        json["warnings"]
+            .as_array()
+            .unwrap()
+            .iter()
+            .any(|w| w["set"] == "as found" && w["status"] == "over"),
+        "the history has an over"
+    );
+    for family in json["at_a_glance"].as_array().unwrap() {
+        assert_eq!(family["status"], "ok", "{family}");
+    }
+    let pdf = dir.path().join("healthy.pdf");
+    assert_ok(&render(&job, &pdf, &["--typst", "typst"]), "render");
+    let out = Command::new("pdftotext")
+        .args(["-f", "1", "-l", "1", "-layout", "-enc", "UTF-8"])
+        .arg(&pdf)
+        .arg("-")
+        .output()
+        .unwrap();
+    let page = String::from_utf8(out.stdout).unwrap();
+    // The panel: from its heading to the line under it.
+    let rows = page.find("against their ratings").expect("the panel");
+    let start = page[..rows].rfind('\n').map_or(0, |i| i + 1);
+    let end = page[start..]
+        .find("Before using")
+        .expect("the line under the panel")
+        + start;
+    let panel = &page[start..end];
+    for alarm in ["CAUTION ", "OVER ", "COLD ", "NOT MEASURED "] {
+        // The key at the panel's foot names every mark once; a family row
+        // would name it a second time.
+        assert!(
+            panel.matches(alarm).count() <= 1,
+            "the panel of a healthy unit shows {alarm}:\n{panel}"
+        );
+    }
+    assert!(panel.contains("ACCEPTED"), "{panel}");
+    // The summary says so in words, and the accepted reasons are shown.
+    let flat = normalise(&page);
+    assert!(
+        flat.contains(&normalise("every figure is inside its limits")),
+        "{page}"
+    );
+    let text = normalise(&pdftotext(&pdf));
+    let reason = json["sets"][1]["valves"][0]["checks"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .find(|c| c["accepted"] == true)
+        .and_then(|c| c["accepted_reason"].as_str())
+        .expect("an accepted check")
+        .to_string();
+    assert!(
+        text.contains(&normalise(&reason)),
+        "the reason {reason:?} is not in the document"
+    );
 }
 
 #[test]

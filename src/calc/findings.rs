@@ -7,7 +7,7 @@ use serde::{Serialize, Serializer};
 use super::status::{Status, Verdict};
 
 /// JSON schema version of [`Findings`].
-pub const SCHEMA: u32 = 1;
+pub const SCHEMA: u32 = 2;
 
 /// Rounds a figure for output so float noise does not reach the JSON.
 pub(crate) fn round6<S: Serializer>(v: &f64, s: S) -> Result<S::Ok, S::Error> {
@@ -35,17 +35,44 @@ pub struct Findings {
     pub job: JobSummary,
     pub mains: MainsFigures,
     pub settings: SettingsUsed,
+    /// The label of the set the unit is handed over in (the one marked
+    /// `final`, else the last); the at-a-glance panel and `--strict`
+    /// judge it.
+    pub final_set: Option<String>,
     pub sets: Vec<SetFindings>,
     pub safety: Vec<SafetyFinding>,
     /// Each modification with the circuit figures worked out for it.
     pub mods: Vec<ModFindings>,
-    /// Worst status per check family, for the last measurement set and the
-    /// safety tests.
+    /// Worst status per check family that still counts (not ok and not
+    /// accepted), for the final measurement set and the safety tests.
     pub at_a_glance: Vec<FamilyStatus>,
     /// Every figure that is not ok, and every data problem, in plain sentences.
     pub warnings: Vec<Warning>,
     /// Each valve type the job uses, with the source note of its ratings.
     pub ratings_used: Vec<RatingUsed>,
+    /// The valve line-up, with any type a set fits instead.
+    pub line_up: Vec<LineUpFindings>,
+}
+
+/// One position of the line-up.
+#[derive(Debug, Clone, Serialize)]
+pub struct LineUpFindings {
+    pub position: String,
+    /// The type as the line-up gives it.
+    pub valve_type: String,
+    /// The ratings row it resolved to.
+    pub rating_name: Option<String>,
+    pub role: String,
+    pub channel: Option<String>,
+    /// Sets that fit another type here, in file order.
+    pub changes: Vec<TypeChangeFindings>,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct TypeChangeFindings {
+    pub set: String,
+    pub valve_type: String,
+    pub rating_name: Option<String>,
 }
 
 #[derive(Debug, Clone, Serialize)]
@@ -88,6 +115,8 @@ pub struct SettingsUsed {
 #[derive(Debug, Clone, Serialize)]
 pub struct SetFindings {
     pub label: String,
+    /// The state the unit is handed over in.
+    pub is_final: bool,
     #[serde(serialize_with = "round6")]
     pub mains_volts: f64,
     /// Vn / Vm, the factor applied to voltages for the corrected figures.
@@ -103,11 +132,45 @@ pub struct SetFindings {
     /// A valve rectifier's load against its rating, where it can be judged.
     pub rectifier: Option<RectifierFindings>,
     pub heaters: Vec<HeaterFindings>,
+    /// Droppers and filter capacitors that could not be checked in this
+    /// set, and why ("B+3 not measured").
+    pub not_checked: Vec<NotChecked>,
+    /// Where the bias controls were set.
+    pub bias_controls: Vec<crate::job::BiasControl>,
+    /// Idle current at times during a warm-up, by valve then time.
+    pub warm_up: Vec<WarmUpPoint>,
     /// Output power, hum and noise, response and gain read on the bench.
     pub bench: BenchFindings,
     /// Cathode resistors that would bring the plate dissipation to the
     /// target share, estimated from the three-halves power law.
     pub cathode_resistor_suggestions: Vec<CathodeResistorSuggestion>,
+}
+
+/// A valve's idle current at a time since power-on.
+#[derive(Debug, Clone, Serialize)]
+pub struct WarmUpPoint {
+    pub position: String,
+    #[serde(serialize_with = "round6")]
+    pub minutes: f64,
+    /// The current used for the plate dissipation (plate current, or the
+    /// cathode current when `includes_screen`).
+    #[serde(serialize_with = "round6_opt")]
+    pub current_ma: Option<f64>,
+    pub includes_screen: bool,
+    #[serde(serialize_with = "round6_opt")]
+    pub plate_dissipation_pct: Option<f64>,
+}
+
+/// A part whose figures this set's readings cannot give.
+#[derive(Debug, Clone, Serialize)]
+pub struct NotChecked {
+    pub reference: String,
+    /// `dropper` or `filter_capacitor`.
+    pub kind: &'static str,
+    /// Where it sits: "B+2 to B+3", "B+3".
+    pub place: String,
+    /// Why: "B+3 not measured".
+    pub reason: String,
 }
 
 /// The bench tests of one measurement set.
@@ -365,8 +428,11 @@ impl CurrentMethod {
 #[derive(Debug, Clone, Serialize)]
 pub struct ValveFindings {
     pub position: String,
-    /// The type as written in the job.
+    /// The type as written in the job (the set's own type where it fits
+    /// another).
     pub valve_type: String,
+    /// The amplifier channel, where the job gives one.
+    pub channel: Option<String>,
     /// The ratings row it resolved to.
     pub rating_name: String,
     pub role: String,
@@ -424,7 +490,16 @@ pub struct ValveFindings {
     pub target_window: Option<TargetWindow>,
     /// The worst of `checks`.
     pub status: Status,
+    /// The worst of the checks that still count (not accepted).
+    pub open_status: Status,
     pub checks: Vec<Check>,
+}
+
+impl ValveFindings {
+    /// Works `open_status` out again after checks were accepted.
+    pub(crate) fn refresh_open_status(&mut self) {
+        self.open_status = super::status::worst_open(self.checks.iter().map(|c| &c.verdict));
+    }
 }
 
 /// One named check of a figure against a limit.
@@ -494,6 +569,7 @@ pub struct TargetWindow {
 pub struct NodeFindings {
     pub name: String,
     pub label: Option<String>,
+    pub channel: Option<String>,
     #[serde(serialize_with = "round6")]
     pub measured_volts: f64,
     #[serde(serialize_with = "round6")]
@@ -557,6 +633,14 @@ pub struct CapacitorFindings {
     pub highest_volts: f64,
     #[serde(serialize_with = "round6")]
     pub margin_pct: f64,
+    /// Which figure decides the status: `working_high_line` (the working
+    /// voltage projected to high line) or `cold_start_peak`.
+    pub deciding: &'static str,
+    #[serde(serialize_with = "round6")]
+    pub deciding_volts: f64,
+    /// The margin the deciding figure leaves on the rating.
+    #[serde(serialize_with = "round6")]
+    pub deciding_margin_pct: f64,
     #[serde(flatten)]
     pub verdict: Verdict,
 }
@@ -633,21 +717,104 @@ impl Family {
 pub struct FamilyStatus {
     pub family: Family,
     pub title: &'static str,
+    /// The worst status that still counts: accepted findings leave it.
     pub status: Status,
-    /// The worst figure in words, or why there is none.
+    /// The worst figure that still counts in words, or why there is none.
     pub worst: String,
     /// Whether anything in this family was measured.
     pub measured: bool,
+    /// The findings of this family the technician accepted.
+    pub accepted: Vec<AcceptedFinding>,
+}
+
+/// A finding the technician accepted, for summaries.
+#[derive(Debug, Clone, Serialize)]
+pub struct AcceptedFinding {
+    /// "V3 (6V6GT)", "C30".
+    pub subject: String,
+    /// For a valve, the check in words ("screen voltage").
+    pub check: Option<String>,
+    pub status: Status,
+    pub reason: String,
+    pub accepted_reason: String,
+    pub accepted_by: String,
+    pub accepted_date: String,
 }
 
 #[derive(Debug, Clone, Serialize)]
 pub struct Warning {
     /// The measurement set, or none for job-wide warnings.
     pub set: Option<String>,
-    /// What it is about: "V3", "R24", "B+1", "safety".
+    /// Whether `set` is the final set (the state the unit leaves in).
+    pub in_final_set: bool,
+    /// What it is about: "V3 (EL84)", "R24", "B+1", "safety".
     pub subject: String,
+    /// For a valve, which check (`screen_voltage` …); none otherwise.
+    pub check: Option<&'static str>,
     pub status: Status,
     pub message: String,
+    /// The reason the figure is off, without the subject (for grouping).
+    pub reason: String,
+    /// The deciding figure in a few words ("screen 196 %"); empty for a
+    /// note about the data.
+    pub brief: String,
+    pub accepted: bool,
+    pub accepted_reason: Option<String>,
+    pub accepted_by: Option<String>,
+    pub accepted_date: Option<String>,
+}
+
+impl Warning {
+    /// A warning about the data (not a figure's verdict): never accepted.
+    pub fn note(
+        set: Option<&str>,
+        in_final_set: bool,
+        subject: &str,
+        status: Status,
+        message: String,
+    ) -> Self {
+        Warning {
+            set: set.map(str::to_string),
+            in_final_set,
+            subject: subject.to_string(),
+            check: None,
+            status,
+            reason: message.clone(),
+            brief: String::new(),
+            message,
+            accepted: false,
+            accepted_reason: None,
+            accepted_by: None,
+            accepted_date: None,
+        }
+    }
+
+    /// Not accepted: still counts against the unit.
+    pub fn is_open(&self) -> bool {
+        !self.accepted
+    }
+}
+
+/// Which sets `check --strict` judges.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum StrictScope {
+    /// The final set and the safety tests (the unit as it leaves).
+    Final,
+    /// Every set, as found included.
+    All,
+}
+
+impl Findings {
+    /// The over-limit findings that make `check --strict` fail: not
+    /// accepted, and in the final set (or job-wide, like a failed safety
+    /// test) unless `scope` is [`StrictScope::All`].
+    pub fn strict_failures(&self, scope: StrictScope) -> Vec<&Warning> {
+        self.warnings
+            .iter()
+            .filter(|w| w.status == Status::Over && w.is_open())
+            .filter(|w| scope == StrictScope::All || w.set.is_none() || w.in_final_set)
+            .collect()
+    }
 }
 
 #[derive(Debug, Clone, Serialize)]

@@ -1,8 +1,10 @@
 //! The calculation pass: pure functions from a [`Job`], the ratings table
 //! and the job's settings to [`Findings`]. No I/O, no page formatting.
 
+mod accept;
 mod bench;
 mod bias_estimate;
+pub mod brief;
 mod circuit;
 mod findings;
 mod mains;
@@ -44,7 +46,10 @@ pub fn derive(job: &Job, ratings: &RatingsTable) -> Findings {
     let settings = &job.settings;
     let mut warnings = Vec::new();
     let mut sets = Vec::new();
-    for set in &job.measurements {
+    let final_index = job.final_set_index();
+    let mut matched = vec![false; job.acceptances.len()];
+    for (index, set) in job.measurements.iter().enumerate() {
+        let is_final = Some(index) == final_index;
         let circuit = job.circuit_for(set);
         let mut notes = Vec::new();
         let ctx = valve::ValveContext {
@@ -55,7 +60,7 @@ pub fn derive(job: &Job, ratings: &RatingsTable) -> Findings {
         };
         let mut valves = Vec::new();
         for reading in &set.valves {
-            let Some(spec) = job.valve(&reading.position.value) else {
+            let Some(spec) = job.valve_in(set, &reading.position.value) else {
                 continue;
             };
             let Ok(rating) = ratings.lookup(&spec.type_name.value) else {
@@ -65,21 +70,28 @@ pub fn derive(job: &Job, ratings: &RatingsTable) -> Findings {
                 ));
                 continue;
             };
-            valves.push(valve::analyse(&ctx, spec, reading, rating, &mut notes));
+            valves.push(valve::analyse(&ctx, &spec, reading, rating, &mut notes));
         }
+        let warm_up = warm_up(&ctx, job, set, ratings);
         let nodes = supply::nodes(job, set, &circuit, settings);
-        let droppers = supply::droppers(job, set, &circuit, settings, &mut notes);
+        let mut not_checked = Vec::new();
+        let droppers = supply::droppers(job, set, &circuit, settings, &mut not_checked);
         let cathode_resistors = supply::cathode_resistors(job, set, &circuit, settings);
         let screen_resistors = supply::screen_resistors(job, set, &circuit, settings);
-        let filter_capacitors = supply::capacitors(job, set, &circuit, settings, ratings);
+        let filter_capacitors =
+            supply::capacitors(job, set, &circuit, settings, ratings, &mut not_checked);
+        for n in &not_checked {
+            notes.push(format!("{}: not checked, {}", n.reference, n.reason));
+        }
         let heaters = supply::heaters(job, set, settings);
-        let rectifier = supply::rectifier(job, &circuit, &valves, ratings);
+        let rectifier = supply::rectifier(job, set, &circuit, &valves, ratings);
         let bench = bench::findings(job, set, settings);
         let cathode_resistor_suggestions = bias_estimate::cathode_suggestions(
             job, set, &circuit, settings, &valves, ratings, &mut notes,
         );
-        let found = SetFindings {
+        let mut found = SetFindings {
             label: set.label.clone(),
+            is_final,
             mains_volts: set.mains.value.0,
             correction_factor: job.mains.nominal.value / set.mains.value,
             date: set.date.map(|d| d.to_string()),
@@ -91,50 +103,95 @@ pub fn derive(job: &Job, ratings: &RatingsTable) -> Findings {
             filter_capacitors,
             rectifier,
             heaters,
+            not_checked,
+            bias_controls: set.bias_controls.clone(),
+            warm_up,
             bench,
             cathode_resistor_suggestions,
         };
+        brief::fill_set(
+            &mut found,
+            settings.resistor_derating,
+            job.mains.tolerance.value,
+        );
+        accept::apply_to_set(&job.acceptances, &mut found, &mut matched);
         warnings.extend(set_warnings(&found));
         for n in notes {
             let subject = n.split(':').next().unwrap_or("").to_string();
-            warnings.push(Warning {
-                set: Some(set.label.clone()),
-                subject,
-                status: Status::Caution,
-                message: n,
-            });
+            warnings.push(Warning::note(
+                Some(&set.label),
+                is_final,
+                &subject,
+                Status::Caution,
+                n,
+            ));
         }
         sets.push(found);
     }
-    let safety = job
+    for m in crate::job::not_measured_in_final(job) {
+        let subject = match m.kind {
+            "valve" => job
+                .valve(&m.name)
+                .map(|v| format!("{} ({})", m.name, v.type_name.value))
+                .unwrap_or_else(|| m.name.clone()),
+            _ => m.name.clone(),
+        };
+        warnings.push(Warning::note(
+            Some(&m.final_set),
+            true,
+            &subject,
+            Status::Caution,
+            sentence(&m.message()),
+        ));
+    }
+    let mut safety = job
         .safety
         .as_ref()
         .map(safety::findings)
         .unwrap_or_default();
+    brief::fill_safety(&mut safety);
+    accept::apply_to_safety(&job.acceptances, &mut safety, &mut matched);
     for s in &safety {
         if s.verdict.status != Status::Ok {
-            warnings.push(Warning {
-                set: None,
-                subject: "safety".into(),
-                status: s.verdict.status,
-                message: sentence(&s.verdict.reason),
-            });
+            warnings.push(verdict_warning(
+                None,
+                false,
+                "safety",
+                None,
+                &s.verdict,
+                sentence(&s.verdict.reason),
+            ));
         }
     }
+    for (a, _) in job.acceptances.iter().zip(&matched).filter(|(_, m)| !**m) {
+        warnings.push(Warning::note(
+            a.set.as_ref().map(|s| s.value.as_str()),
+            false,
+            "sign-off",
+            Status::Caution,
+            sentence(&format!(
+                "the acceptance of {} matches no figure outside its limits, so it accepts nothing",
+                accept::words(a)
+            )),
+        ));
+    }
     if job.measurements.is_empty() {
-        warnings.push(Warning {
-            set: None,
-            subject: "job".into(),
-            status: Status::Caution,
-            message: "The job has no measurement sets, so no figures could be derived.".into(),
-        });
+        warnings.push(Warning::note(
+            None,
+            false,
+            "job",
+            Status::Caution,
+            "The job has no measurement sets, so no figures could be derived.".into(),
+        ));
     }
     let mods = job
         .mods
         .iter()
         .map(|m| mod_findings(m, job, ratings, &mut warnings))
         .collect();
-    let at_a_glance = glance(sets.last(), &safety, job.safety.is_some());
+    let final_set = final_index.and_then(|i| sets.get(i));
+    let at_a_glance = glance(final_set, &safety, job.safety.is_some());
+    let final_set = final_set.map(|s| s.label.clone());
     Findings {
         schema: SCHEMA,
         job: JobSummary {
@@ -163,13 +220,60 @@ pub fn derive(job: &Job, ratings: &RatingsTable) -> Findings {
             hum_noise_caution_db: settings.hum_noise_caution_db,
             cathode_bias_target_pct: settings.cathode_bias_target * 100.0,
         },
+        final_set,
         sets,
         safety,
         mods,
         at_a_glance,
         warnings,
         ratings_used: ratings_used(job, ratings),
+        line_up: line_up(job, ratings),
     }
+}
+
+/// The idle current of each warm-up reading, worked out as the set's own
+/// readings are; sorted by valve, then time.
+fn warm_up(
+    ctx: &valve::ValveContext,
+    job: &Job,
+    set: &crate::job::MeasurementSet,
+    ratings: &RatingsTable,
+) -> Vec<WarmUpPoint> {
+    let mut out: Vec<WarmUpPoint> = set
+        .warm_up
+        .iter()
+        .filter_map(|w| {
+            let spec = job.valve_in(set, &w.reading.position.value)?;
+            let rating = ratings.lookup(&spec.type_name.value).ok()?;
+            // A warm-up reading often gives only what sets the current:
+            // the plate and screen voltages are then the set's settled
+            // ones (for the dissipation and the screen current).
+            let mut reading = w.reading.clone();
+            if let Some(settled) = set
+                .valves
+                .iter()
+                .find(|v| v.position.value == reading.position.value)
+            {
+                reading.plate = reading.plate.or_else(|| settled.plate.clone());
+                reading.screen = reading.screen.or_else(|| settled.screen.clone());
+            }
+            let f = valve::analyse(ctx, &spec, &reading, rating, &mut Vec::new());
+            Some(WarmUpPoint {
+                position: f.position,
+                minutes: w.minutes.value,
+                current_ma: f.plate_current_ma,
+                includes_screen: f.plate_current_includes_screen,
+                plate_dissipation_pct: f.plate_dissipation_pct,
+            })
+        })
+        .collect();
+    let order = |p: &str| job.valves.iter().position(|v| v.position.value == p);
+    out.sort_by(|a, b| {
+        order(&a.position)
+            .cmp(&order(&b.position))
+            .then(a.minutes.total_cmp(&b.minutes))
+    });
+    out
 }
 
 /// Capitalises the first letter and ends with a full stop.
@@ -185,25 +289,56 @@ fn sentence(s: &str) -> String {
     out
 }
 
+/// A warning for a figure's verdict, carrying its acceptance.
+fn verdict_warning(
+    set: Option<&SetFindings>,
+    in_final_set: bool,
+    subject: &str,
+    check: Option<&'static str>,
+    verdict: &Verdict,
+    message: String,
+) -> Warning {
+    Warning {
+        set: set.map(|s| s.label.clone()),
+        in_final_set,
+        subject: subject.to_string(),
+        check,
+        status: verdict.status,
+        message,
+        reason: sentence(&verdict.reason),
+        brief: verdict.brief.clone(),
+        accepted: verdict.accepted,
+        accepted_reason: verdict.accepted_reason.clone(),
+        accepted_by: verdict.accepted_by.clone(),
+        accepted_date: verdict.accepted_date.clone(),
+    }
+}
+
 fn set_warnings(set: &SetFindings) -> Vec<Warning> {
     let mut out = Vec::new();
-    let mut push = |subject: &str, verdict: &Verdict| {
+    let mut push = |subject: &str, check: Option<&'static str>, verdict: &Verdict| {
         if verdict.status != Status::Ok {
-            out.push(Warning {
-                set: Some(set.label.clone()),
-                subject: subject.to_string(),
-                status: verdict.status,
-                message: sentence(&format!("{subject}: {}", verdict.reason)),
-            });
+            out.push(verdict_warning(
+                Some(set),
+                set.is_final,
+                subject,
+                check,
+                verdict,
+                sentence(&format!("{subject}: {}", verdict.reason)),
+            ));
         }
     };
     for v in &set.valves {
         for c in &v.checks {
-            push(&format!("{} ({})", v.position, v.valve_type), &c.verdict);
+            push(
+                &format!("{} ({})", v.position, v.valve_type),
+                Some(c.check),
+                &c.verdict,
+            );
         }
     }
     for n in &set.nodes {
-        push(&n.name, &n.verdict);
+        push(&n.name, None, &n.verdict);
     }
     for r in set
         .droppers
@@ -211,22 +346,34 @@ fn set_warnings(set: &SetFindings) -> Vec<Warning> {
         .chain(&set.cathode_resistors)
         .chain(&set.screen_resistors)
     {
-        push(&r.reference, &r.verdict);
+        push(&r.reference, None, &r.verdict);
     }
     for c in &set.filter_capacitors {
-        push(&c.reference, &c.verdict);
+        push(&c.reference, None, &c.verdict);
     }
     if let Some(r) = &set.rectifier {
-        push(&format!("{} ({})", r.position, r.valve_type), &r.verdict);
+        push(
+            &format!("{} ({})", r.position, r.valve_type),
+            Some("rectifier_load"),
+            &r.verdict,
+        );
     }
     for h in &set.heaters {
-        push("heater", &h.verdict);
+        let subject = match &h.label {
+            Some(l) => format!("heater {l}"),
+            None => "heater".to_string(),
+        };
+        push(&subject, None, &h.verdict);
     }
     for p in &set.bench.output_power {
-        push(&bench_subject("output power", &p.channel), &p.verdict);
+        push(&bench_subject("output power", &p.channel), None, &p.verdict);
     }
     for h in &set.bench.hum_noise {
-        push(&bench_subject("hum and noise", &h.channel), &h.verdict);
+        push(
+            &bench_subject("hum and noise", &h.channel),
+            None,
+            &h.verdict,
+        );
     }
     out
 }
@@ -246,78 +393,103 @@ fn glance(
 ) -> Vec<FamilyStatus> {
     let mut out = Vec::new();
     for family in Family::ALL {
-        let verdicts: Vec<(String, &Verdict)> = match (family, last) {
-            (Family::SafetyTests, _) => safety
-                .iter()
-                .map(|s| (s.test.replace('_', " "), &s.verdict))
-                .collect(),
-            (_, None) => Vec::new(),
-            (Family::OutputValves, Some(set)) => set
-                .valves
-                .iter()
-                .filter(|v| v.is_output)
-                .flat_map(|v| {
-                    v.checks
-                        .iter()
-                        .map(move |c| (format!("{} ({})", v.position, v.valve_type), &c.verdict))
-                })
-                .collect(),
-            (Family::SupplyVoltages, Some(set)) => set
-                .nodes
-                .iter()
-                .map(|n| (n.name.clone(), &n.verdict))
-                .collect(),
-            (Family::StressedParts, Some(set)) => set
-                .droppers
-                .iter()
-                .chain(&set.cathode_resistors)
-                .chain(&set.screen_resistors)
-                .map(|r| (r.reference.clone(), &r.verdict))
-                .chain(
-                    set.filter_capacitors
-                        .iter()
-                        .map(|c| (c.reference.clone(), &c.verdict)),
-                )
-                .chain(
-                    set.rectifier
-                        .iter()
-                        .map(|r| (format!("{} ({})", r.position, r.valve_type), &r.verdict)),
-                )
-                .collect(),
-            (Family::Heater, Some(set)) => set
-                .heaters
-                .iter()
-                .map(|h| ("heater".to_string(), &h.verdict))
-                .collect(),
-            (Family::BenchTests, Some(set)) => set
-                .bench
-                .output_power
-                .iter()
-                .map(|p| (bench_subject("output power", &p.channel), &p.verdict))
-                .chain(
+        // Each figure's subject ("V3 (EL34)", "R31"), the check it is (for
+        // a valve) and its verdict.
+        let verdicts: Vec<(String, Option<String>, &Verdict)> =
+            match (family, last) {
+                (Family::SafetyTests, _) => safety
+                    .iter()
+                    .map(|s| (s.test.replace('_', " "), None, &s.verdict))
+                    .collect(),
+                (_, None) => Vec::new(),
+                (Family::OutputValves, Some(set)) => set
+                    .valves
+                    .iter()
+                    .filter(|v| v.is_output)
+                    .flat_map(|v| {
+                        v.checks.iter().map(move |c| {
+                            (
+                                format!("{} ({})", v.position, v.valve_type),
+                                Some(c.check.replace('_', " ")),
+                                &c.verdict,
+                            )
+                        })
+                    })
+                    .collect(),
+                (Family::SupplyVoltages, Some(set)) => set
+                    .nodes
+                    .iter()
+                    .map(|n| (n.name.clone(), None, &n.verdict))
+                    .collect(),
+                (Family::StressedParts, Some(set)) => set
+                    .droppers
+                    .iter()
+                    .chain(&set.cathode_resistors)
+                    .chain(&set.screen_resistors)
+                    .map(|r| (r.reference.clone(), None, &r.verdict))
+                    .chain(
+                        set.filter_capacitors
+                            .iter()
+                            .map(|c| (c.reference.clone(), None, &c.verdict)),
+                    )
+                    .chain(set.rectifier.iter().map(|r| {
+                        (
+                            format!("{} ({})", r.position, r.valve_type),
+                            Some("rectifier load".to_string()),
+                            &r.verdict,
+                        )
+                    }))
+                    .collect(),
+                (Family::Heater, Some(set)) => set
+                    .heaters
+                    .iter()
+                    .map(|h| ("heater".to_string(), None, &h.verdict))
+                    .collect(),
+                (Family::BenchTests, Some(set)) => {
                     set.bench
-                        .hum_noise
+                        .output_power
                         .iter()
-                        .map(|h| (bench_subject("hum and noise", &h.channel), &h.verdict)),
-                )
-                .collect(),
-        };
-        let worst = verdicts
+                        .map(|p| (bench_subject("output power", &p.channel), None, &p.verdict))
+                        .chain(set.bench.hum_noise.iter().map(|h| {
+                            (bench_subject("hum and noise", &h.channel), None, &h.verdict)
+                        }))
+                        .collect()
+                }
+            };
+        let accepted: Vec<AcceptedFinding> = verdicts
             .iter()
-            .fold(None, |best: Option<&(String, &Verdict)>, item| {
-                if best.is_none_or(|b| item.1.status.rank() > b.1.status.rank()) {
+            .filter(|(_, _, v)| v.accepted)
+            .map(|(subject, check, v)| AcceptedFinding {
+                subject: subject.clone(),
+                check: check.clone(),
+                status: v.status,
+                reason: v.reason.clone(),
+                accepted_reason: v.accepted_reason.clone().unwrap_or_default(),
+                accepted_by: v.accepted_by.clone().unwrap_or_default(),
+                accepted_date: v.accepted_date.clone().unwrap_or_default(),
+            })
+            .collect();
+        // The worst figure that still counts: accepted ones are left out.
+        let worst = verdicts.iter().filter(|(_, _, v)| !v.accepted).fold(
+            None,
+            |best: Option<&(String, Option<String>, &Verdict)>, item| {
+                if best.is_none_or(|b| item.2.status.rank() > b.2.status.rank()) {
                     Some(item)
                 } else {
                     best
                 }
-            });
+            },
+        );
         let (status, words, measured) = match worst {
-            Some((_, v)) if v.status == Status::Ok => (
+            Some((subject, _, v)) if v.status != Status::Ok => {
+                (v.status, format!("{subject}: {}", v.reason), true)
+            }
+            _ if !accepted.is_empty() => (Status::Ok, accepted_words(&accepted), true),
+            Some((_, _, v)) => (
                 Status::Ok,
                 ok_summary(family, last, safety).unwrap_or_else(|| v.reason.clone()),
                 true,
             ),
-            Some((subject, v)) => (v.status, format!("{subject}: {}", v.reason), true),
             None if family == Family::SafetyTests && !has_safety => (
                 Status::Caution,
                 "no safety tests recorded".to_string(),
@@ -339,9 +511,39 @@ fn glance(
             status,
             worst: words,
             measured,
+            accepted,
         });
     }
     out
+}
+
+/// The accepted findings of a family in words, grouped by check:
+/// "accepted by the technician: plate voltage of V3, V4; screen voltage of
+/// V3, V4 (reasons below)".
+fn accepted_words(accepted: &[AcceptedFinding]) -> String {
+    let mut groups: Vec<(Option<&str>, Vec<&str>)> = Vec::new();
+    for a in accepted {
+        // A valve by its position alone: the check names what it is.
+        let name = match &a.check {
+            Some(_) => a.subject.split(' ').next().unwrap_or(&a.subject),
+            None => a.subject.as_str(),
+        };
+        match groups.iter_mut().find(|(c, _)| *c == a.check.as_deref()) {
+            Some((_, names)) => names.push(name),
+            None => groups.push((a.check.as_deref(), vec![name])),
+        }
+    }
+    let parts: Vec<String> = groups
+        .iter()
+        .map(|(check, names)| match check {
+            Some(c) => format!("{c} of {}", names.join(", ")),
+            None => names.join(", "),
+        })
+        .collect();
+    format!(
+        "accepted by the technician: {} (reasons below)",
+        parts.join("; ")
+    )
 }
 
 /// When a whole family is ok, the figure nearest its limit, in words.
@@ -453,6 +655,36 @@ fn ok_summary(
     }
 }
 
+/// The line-up, with each type a set fits instead.
+fn line_up(job: &Job, ratings: &RatingsTable) -> Vec<LineUpFindings> {
+    let rated = |t: &str| ratings.lookup(t).ok().map(|r| r.name.clone());
+    job.valves
+        .iter()
+        .map(|v| LineUpFindings {
+            position: v.position.value.clone(),
+            valve_type: v.type_name.value.clone(),
+            rating_name: rated(&v.type_name.value),
+            role: v.role.words().to_string(),
+            channel: v.channel.clone(),
+            changes: job
+                .measurements
+                .iter()
+                .filter_map(|set| {
+                    let c = set
+                        .valve_types
+                        .iter()
+                        .find(|c| c.position.value == v.position.value)?;
+                    Some(TypeChangeFindings {
+                        set: set.label.clone(),
+                        valve_type: c.type_name.value.clone(),
+                        rating_name: rated(&c.type_name.value),
+                    })
+                })
+                .collect(),
+        })
+        .collect()
+}
+
 /// The bench tests of a set in one line: the largest output power, the
 /// hum and noise nearest full output, the first response's −3 dB points
 /// and the first gain.
@@ -520,12 +752,23 @@ fn bench_summary(bench: &BenchFindings) -> Option<String> {
 
 fn ratings_used(job: &Job, ratings: &RatingsTable) -> Vec<RatingUsed> {
     let mut out: Vec<RatingUsed> = Vec::new();
-    for v in &job.valves {
-        let Ok(r) = ratings.lookup(&v.type_name.value) else {
+    let fitted = job
+        .valves
+        .iter()
+        .map(|v| (&v.position.value, &v.type_name.value))
+        .chain(job.measurements.iter().flat_map(|s| {
+            s.valve_types
+                .iter()
+                .map(|c| (&c.position.value, &c.type_name.value))
+        }));
+    for (position, type_name) in fitted {
+        let Ok(r) = ratings.lookup(type_name) else {
             continue;
         };
         if let Some(existing) = out.iter_mut().find(|u| u.name == r.name) {
-            existing.positions.push(v.position.value.clone());
+            if !existing.positions.contains(position) {
+                existing.positions.push(position.clone());
+            }
             continue;
         }
         out.push(RatingUsed {
@@ -537,7 +780,7 @@ fn ratings_used(job: &Job, ratings: &RatingsTable) -> Vec<RatingUsed> {
                 crate::ratings::RatingOrigin::Builtin => "built in".to_string(),
                 crate::ratings::RatingOrigin::Shop(p) => p.display().to_string(),
             },
-            positions: vec![v.position.value.clone()],
+            positions: vec![position.clone()],
             mu_g1g2: r.mu_g1g2,
         });
     }
@@ -563,12 +806,13 @@ fn mod_findings(
         match (r.mu, r.plate_resistance) {
             (Some(mu), Some(ra)) => Some((mu, ra, r.name.clone())),
             _ => {
-                warnings.push(Warning {
-                    set: None,
-                    subject: pos.to_string(),
-                    status: Status::Caution,
-                    message: format!("{pos} ({}): the ratings table gives no typical μ and ra, so the mod's stage figure is left out.", r.name),
-                });
+                warnings.push(Warning::note(
+                    None,
+                    false,
+                    pos,
+                    Status::Caution,
+                    format!("{pos} ({}): the ratings table gives no typical μ and ra, so the mod's stage figure is left out.", r.name),
+                ));
                 None
             }
         }

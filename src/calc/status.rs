@@ -53,12 +53,23 @@ impl fmt::Display for Status {
     }
 }
 
-/// A status with its reason in words and the threshold that decided it.
+/// A status with its reason in words and the threshold that decided it,
+/// and whether the technician has accepted it as it is.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct Verdict {
     pub status: Status,
     pub reason: String,
     pub threshold: String,
+    /// The deciding figure in a few words ("screen 196 %"), for a table's
+    /// status column.
+    pub brief: String,
+    /// The technician judged this figure and accepted it: it keeps its
+    /// status but no longer counts against the unit.
+    pub accepted: bool,
+    pub accepted_reason: Option<String>,
+    pub accepted_by: Option<String>,
+    /// ISO 8601 date.
+    pub accepted_date: Option<String>,
 }
 
 impl Verdict {
@@ -67,12 +78,44 @@ impl Verdict {
             status,
             reason: reason.into(),
             threshold: threshold.into(),
+            brief: String::new(),
+            accepted: false,
+            accepted_reason: None,
+            accepted_by: None,
+            accepted_date: None,
         }
+    }
+
+    /// Not ok and not accepted: a finding that still counts.
+    pub fn is_open(&self) -> bool {
+        self.status != Status::Ok && !self.accepted
+    }
+
+    /// Marks the verdict accepted, when there is something to accept.
+    /// Returns whether it did.
+    pub fn accept(&mut self, reason: &str, by: &str, date: &str) -> bool {
+        if self.status == Status::Ok {
+            return false;
+        }
+        self.accepted = true;
+        self.accepted_reason = Some(reason.to_string());
+        self.accepted_by = Some(by.to_string());
+        self.accepted_date = Some(date.to_string());
+        true
     }
 
     pub fn ok(reason: impl Into<String>, threshold: impl Into<String>) -> Self {
         Verdict::new(Status::Ok, reason, threshold)
     }
+}
+
+/// The worst status among the verdicts that still count (ok when every
+/// figure is ok or accepted).
+pub fn worst_open<'a>(verdicts: impl IntoIterator<Item = &'a Verdict>) -> Status {
+    verdicts
+        .into_iter()
+        .filter(|v| v.is_open())
+        .fold(Status::Ok, |a, v| a.worst(v.status))
 }
 
 /// The verdict with the worst status among several (the first of equals).

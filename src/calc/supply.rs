@@ -3,8 +3,8 @@
 //! peak) and heater voltage.
 
 use super::findings::{
-    CapacitorFindings, HeaterFindings, NodeFindings, RectifierFindings, ResistorFindings,
-    ValveFindings,
+    CapacitorFindings, HeaterFindings, NodeFindings, NotChecked, RectifierFindings,
+    ResistorFindings, ValveFindings,
 };
 use super::mains;
 use super::status::{Status, Verdict, under_rating};
@@ -81,6 +81,7 @@ pub(crate) fn nodes(
             NodeFindings {
                 name: reading.name.value.clone(),
                 label: spec.and_then(|s| s.label.clone()),
+                channel: spec.and_then(|s| s.channel.clone()),
                 measured_volts: reading.volts.value.0,
                 corrected_volts: corrected.0,
                 chart_volts: chart.map(|c| c.0),
@@ -157,7 +158,7 @@ pub(crate) fn droppers(
     set: &MeasurementSet,
     circuit: &Circuit,
     settings: &Settings,
-    notes: &mut Vec<String>,
+    not_checked: &mut Vec<NotChecked>,
 ) -> Vec<ResistorFindings> {
     let read = |name: &str| {
         set.nodes
@@ -178,10 +179,19 @@ pub(crate) fn droppers(
                 set,
                 settings,
             )),
-            _ => notes.push(format!(
-                "dropper {}: both {} and {} must be read to find its dissipation",
-                d.reference, d.from.value, d.to.value
-            )),
+            (a, b) => {
+                let missing: Vec<&str> = [(a, &d.from.value), (b, &d.to.value)]
+                    .into_iter()
+                    .filter(|(v, _)| v.is_none())
+                    .map(|(_, n)| n.as_str())
+                    .collect();
+                not_checked.push(NotChecked {
+                    reference: d.reference.clone(),
+                    kind: "dropper",
+                    place: format!("{} to {}", d.from.value, d.to.value),
+                    reason: format!("{} not measured", missing.join(" and ")),
+                });
+            }
         }
     }
     out
@@ -267,6 +277,7 @@ pub(crate) fn capacitors(
     circuit: &Circuit,
     settings: &Settings,
     ratings: &RatingsTable,
+    not_checked: &mut Vec<NotChecked>,
 ) -> Vec<CapacitorFindings> {
     let nominal = job.mains.nominal.value;
     let t = job.mains.tolerance.value;
@@ -282,12 +293,12 @@ pub(crate) fn capacitors(
             ),
             Some((RectifierKind::Valve(pos), d)) => {
                 let heating = job
-                    .valve(&pos.value)
+                    .valve_in(set, &pos.value)
                     .and_then(|v| ratings.lookup(&v.type_name.value).ok())
                     .and_then(|r| r.rectifier_heating);
                 let slow = heating == Some(RectifierHeating::Indirect);
                 let name = job
-                    .valve(&pos.value)
+                    .valve_in(set, &pos.value)
                     .map(|v| v.type_name.value.clone())
                     .unwrap_or_default();
                 (
@@ -321,60 +332,124 @@ pub(crate) fn capacitors(
         });
         let candidates = [high, peak];
         let Some(highest) = candidates.iter().flatten().copied().reduce(Volts::max) else {
+            not_checked.push(NotChecked {
+                reference: cap.reference.clone(),
+                kind: "filter_capacitor",
+                place: cap.node.value.clone(),
+                reason: format!("{} not measured", cap.node.value),
+            });
             continue;
         };
         let rating = cap.rating.value;
         let margin = (rating.0 - highest.0) / rating.0 * 100.0;
-        let from_peak = peak.is_some_and(|p| p.0 >= highest.0);
-        let source = if from_peak {
-            format!(
-                "cold-start peak at high line {} ({rect_words})",
-                v(high_mains.0)
-            )
-        } else {
-            format!("operating voltage at high line {}", v(high_mains.0))
+        let peak_words = format!(
+            "cold-start peak at high line {} ({rect_words})",
+            v(high_mains.0)
+        );
+        let work_words = format!("working voltage at high line {}", v(high_mains.0));
+        let over_work = high.is_some_and(|h| h.0 > rating.0);
+        let over_peak = peak.is_some_and(|p| p.0 > rating.0);
+        // The figure that decides the status, named in the reason: the
+        // working voltage when it is over (it decides even where a
+        // slow-warming rectifier softens the peak), else the highest.
+        let working_decides = match (high, peak) {
+            (Some(_), _) if over_work => !over_peak || slow_warmup,
+            (Some(h), Some(p)) => h.0 >= p.0,
+            (Some(_), None) => true,
+            (None, _) => false,
+        };
+        let (deciding, deciding_volts) = match (working_decides, high, peak) {
+            (true, Some(h), _) => ("working_high_line", h),
+            (_, _, Some(p)) => ("cold_start_peak", p),
+            (_, Some(h), None) => ("working_high_line", h),
+            (_, None, None) => ("cold_start_peak", highest),
         };
         let threshold = format!(
             "over above the {} rating; caution when the margin is under {:.0} %",
             v(rating.0),
             settings.capacitor_margin * 100.0
         );
-        let verdict = if highest.0 > rating.0 {
-            if from_peak && slow_warmup && high.is_none_or(|h| h.0 <= rating.0) {
-                Verdict::new(
-                    Status::Caution,
-                    format!(
-                        "{source}, {}, exceeds the {} rating; a slow-warming rectifier makes this less likely but not impossible",
-                        v(highest.0),
-                        v(rating.0)
-                    ),
-                    threshold,
-                )
-            } else {
-                Verdict::new(
-                    Status::Over,
-                    format!(
-                        "{source}, {}, exceeds the {} rating",
-                        v(highest.0),
-                        v(rating.0)
-                    ),
-                    threshold,
-                )
-            }
-        } else if margin < settings.capacitor_margin * 100.0 {
+        let unchecked = if measured.is_none() {
+            format!(
+                "; the working voltage was not checked: {} not measured",
+                cap.node.value
+            )
+        } else {
+            String::new()
+        };
+        let verdict = if over_work && over_peak && !slow_warmup {
+            Verdict::new(
+                Status::Over,
+                format!(
+                    "the {}, {}, and the {work_words}, {}, both exceed the {} rating",
+                    peak_words,
+                    v(peak.map(|p| p.0).unwrap_or(0.0)),
+                    v(high.map(|h| h.0).unwrap_or(0.0)),
+                    v(rating.0)
+                ),
+                threshold,
+            )
+        } else if over_work {
+            let also = match peak {
+                Some(p) if p.0 > high.map(|h| h.0).unwrap_or(0.0) => format!(
+                    " (the {peak_words} reaches {}, which a slow-warming rectifier makes less likely)",
+                    v(p.0)
+                ),
+                _ => String::new(),
+            };
+            Verdict::new(
+                Status::Over,
+                format!(
+                    "the {work_words}, {}, exceeds the {} rating{also}",
+                    v(high.map(|h| h.0).unwrap_or(0.0)),
+                    v(rating.0)
+                ),
+                threshold,
+            )
+        } else if over_peak && slow_warmup {
             Verdict::new(
                 Status::Caution,
                 format!(
-                    "{source}, {}, leaves only {margin:.1} % margin on the {} rating",
+                    "the {peak_words}, {}, exceeds the {} rating; a slow-warming rectifier makes this less likely but not impossible{unchecked}",
+                    v(highest.0),
+                    v(rating.0)
+                ),
+                threshold,
+            )
+        } else if over_peak {
+            Verdict::new(
+                Status::Over,
+                format!(
+                    "the {peak_words}, {}, exceeds the {} rating{unchecked}",
+                    v(highest.0),
+                    v(rating.0)
+                ),
+                threshold,
+            )
+        } else if margin < settings.capacitor_margin * 100.0 {
+            let source = if deciding == "working_high_line" {
+                &work_words
+            } else {
+                &peak_words
+            };
+            Verdict::new(
+                Status::Caution,
+                format!(
+                    "the {source}, {}, leaves only {margin:.1} % margin on the {} rating{unchecked}",
                     v(highest.0),
                     v(rating.0)
                 ),
                 threshold,
             )
         } else {
+            let source = if deciding == "working_high_line" {
+                &work_words
+            } else {
+                &peak_words
+            };
             Verdict::ok(
                 format!(
-                    "highest expected {} ({source}) leaves {margin:.0} % margin",
+                    "highest expected {} ({source}) leaves {margin:.0} % margin{unchecked}",
                     v(highest.0)
                 ),
                 threshold,
@@ -390,6 +465,9 @@ pub(crate) fn capacitors(
             cold_start_peak_volts: peak.map(|p| p.0),
             highest_volts: highest.0,
             margin_pct: margin,
+            deciding,
+            deciding_volts: deciding_volts.0,
+            deciding_margin_pct: (rating.0 - deciding_volts.0) / rating.0 * 100.0,
             verdict,
         });
     }
@@ -401,6 +479,7 @@ pub(crate) fn capacitors(
 /// derating band's caution above 90 % (common practice) and over above 100 %.
 pub(crate) fn rectifier(
     job: &Job,
+    set: &MeasurementSet,
     circuit: &Circuit,
     valves: &[ValveFindings],
     ratings: &RatingsTable,
@@ -408,7 +487,7 @@ pub(crate) fn rectifier(
     let RectifierKind::Valve(pos) = &circuit.rectifier.as_ref()?.kind else {
         return None;
     };
-    let spec = job.valve(&pos.value)?;
+    let spec = job.valve_in(set, &pos.value)?;
     let rating = ratings.lookup(&spec.type_name.value).ok()?;
     let max_ma = rating.output_current?.0 * 1e3;
     let outputs: Vec<&ValveFindings> = valves.iter().filter(|v| v.is_output).collect();
@@ -590,6 +669,8 @@ mod tests {
         let mut notes = Vec::new();
         assert!(droppers(&j, set, &j.circuit_for(set), &j.settings, &mut notes).is_empty());
         assert_eq!(notes.len(), 1);
+        assert_eq!(notes[0].reference, "R1");
+        assert_eq!(notes[0].reason, "B not measured");
     }
 
     #[test]
@@ -631,6 +712,7 @@ mod tests {
             &j.circuit_for(set),
             &j.settings,
             &RatingsTable::builtin(),
+            &mut Vec::new(),
         );
         (statuses(&f, |c| c.verdict.status), f)
     }
@@ -669,6 +751,7 @@ mod tests {
             &j.circuit_for(set),
             &j.settings,
             &RatingsTable::builtin(),
+            &mut Vec::new(),
         );
         assert!((f[0].highest_volts - 451.5).abs() < 1e-9);
         assert_eq!(f[0].verdict.status, Status::Over);
@@ -683,6 +766,56 @@ mod tests {
         assert_eq!(slow, [Status::Caution]);
         let (fast, _) = capacitor_statuses("rectifier V6", &["440V"], "360V");
         assert_eq!(fast, [Status::Over]);
+    }
+
+    #[test]
+    fn the_working_voltage_is_named_when_it_decides() {
+        // EZ81 (indirectly heated, slow-warming) at no load ≈ 0 V drop: peak 1.41421 × 300 × 1.05 = 445.48 V.
+        // Working voltage 425 V at 120 V mains, at high line 425 × 1.05 = 446.25 V (common practice,
+        // ANSI C84.1 +5 %, from memory): both above a 440 V rating. The slow rectifier would soften the
+        // peak to a caution, but the working voltage is over in its own right, so it decides.
+        let (s, f) = capacitor_statuses("rectifier V5", &["440V"], "425V");
+        assert_eq!(s, [Status::Over]);
+        assert_eq!(f[0].deciding, "working_high_line");
+        assert!((f[0].deciding_volts - 446.25).abs() < 1e-9);
+        let reason = &f[0].verdict.reason;
+        assert!(reason.contains("working voltage at high line"), "{reason}");
+        assert!(reason.contains("446 V"), "{reason}");
+        // With a directly heated 5Y3GT both figures are over: the reason names both.
+        let (s, f) = capacitor_statuses("rectifier V6", &["440V"], "425V");
+        assert_eq!(s, [Status::Over]);
+        let reason = &f[0].verdict.reason;
+        assert!(
+            reason.contains("445 V") && reason.contains("446 V"),
+            "{reason}"
+        );
+        // Under the rating, the higher figure decides the margin: 500 V leaves
+        // (500 − 446.25) / 500 = 10.75 % on the working voltage, above the 10 % band.
+        let (s, f) = capacitor_statuses("rectifier V5", &["500V"], "425V");
+        assert_eq!(s, [Status::Ok]);
+        assert_eq!(f[0].deciding, "working_high_line");
+    }
+
+    #[test]
+    fn a_capacitor_whose_node_was_not_read_and_has_no_peak_is_not_checked() {
+        let j = job(
+            "120V",
+            "node B+1\nnode B+3\nfilter-capacitor C1 rating=\"450V\" node=B+3",
+            "node B+1 \"430V\"",
+        );
+        let set = &j.measurements[0];
+        let mut not_checked = Vec::new();
+        let f = capacitors(
+            &j,
+            set,
+            &j.circuit_for(set),
+            &j.settings,
+            &RatingsTable::builtin(),
+            &mut not_checked,
+        );
+        assert!(f.is_empty());
+        assert_eq!(not_checked.len(), 1);
+        assert_eq!(not_checked[0].reason, "B+3 not measured");
     }
 
     #[test]

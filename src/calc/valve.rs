@@ -108,6 +108,7 @@ pub(crate) fn analyse(
     let mut f = ValveFindings {
         position: pos.to_string(),
         valve_type: spec.type_name.value.clone(),
+        channel: spec.channel.clone(),
         rating_name: rating.name.clone(),
         role: spec.role.words().to_string(),
         is_output,
@@ -158,6 +159,7 @@ pub(crate) fn analyse(
         cathode_current_pct: None,
         target_window: None,
         status: Status::Ok,
+        open_status: Status::Ok,
         checks: Vec::new(),
     };
 
@@ -333,6 +335,7 @@ pub(crate) fn analyse(
         .map(|v| v.status)
         .unwrap_or(Status::Ok);
     f.checks = checks;
+    f.refresh_open_status();
     f
 }
 

@@ -1,7 +1,7 @@
 //! Every command-line definition, in one place. What the shell completes
 //! for each argument is attached here too (see [`super::completions`]).
 
-use clap::{Args, Parser, Subcommand, ValueHint};
+use clap::{Args, Parser, Subcommand, ValueEnum, ValueHint};
 use clap_complete::engine::ArgValueCompleter;
 use std::path::PathBuf;
 use std::time::Duration;
@@ -18,7 +18,8 @@ use super::ui::ColourChoice;
 derives plate and screen dissipation, mains-corrected and high-line figures and the stress on \
 resistors and capacitors, and prints them or typesets a PDF hand-over document.",
     after_help = "Exit status: 0 success; 1 the job file (or a ratings file) is invalid or unreadable; \
-2 the command line is wrong (also: an output that must not be written); 3 the tool's environment failed (e.g. typst missing, failing or too slow); 4 --strict found a figure over its limit."
+2 the command line is wrong (also: an output that must not be written); 3 the tool's environment failed (e.g. typst missing, failing or too slow); \
+4 --strict found an un-accepted figure over its limit in the final set (--strict=all: in any set)."
 )]
 pub struct Cli {
     /// Print the version of ampreport, of the job format and the JSON
@@ -103,9 +104,27 @@ pub struct JobArgs {
 pub struct CheckArgs {
     #[command(flatten)]
     pub job: JobArgs,
-    /// Exit with status 4 when any figure is over its limit.
-    #[arg(long)]
-    pub strict: bool,
+    /// Exit with status 4 when a figure of the unit as it leaves (the final
+    /// set, the safety tests) is over its limit and not accepted;
+    /// `--strict=all` judges every set, as found included.
+    #[arg(
+        long,
+        value_enum,
+        value_name = "SETS",
+        num_args = 0..=1,
+        require_equals = true,
+        default_missing_value = "final"
+    )]
+    pub strict: Option<StrictSets>,
+}
+
+/// Which measurement sets `--strict` judges.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
+pub enum StrictSets {
+    /// The final set (marked `final`, else the last) and the safety tests.
+    Final,
+    /// Every set.
+    All,
 }
 
 #[derive(Debug, Args)]

@@ -1,9 +1,9 @@
 //! `ampreport check JOB`: the terminal summary.
 
-use super::args::CheckArgs;
+use super::args::{CheckArgs, StrictSets};
 use super::exit::Exit;
 use super::load;
-use crate::calc::{self, Status};
+use crate::calc::{self, StrictScope};
 use crate::report::terminal::{self, TerminalStyle};
 
 pub fn run(args: &CheckArgs) -> Exit {
@@ -19,11 +19,15 @@ pub fn run(args: &CheckArgs) -> Exit {
         "{}",
         terminal::render(&loaded.decoded.job, &findings, &style)
     );
-    let over = findings.warnings.iter().any(|w| w.status == Status::Over);
-    if args.strict && over {
-        Exit::StrictFindings
-    } else {
+    let scope = match args.strict {
+        None => return Exit::Success,
+        Some(StrictSets::Final) => StrictScope::Final,
+        Some(StrictSets::All) => StrictScope::All,
+    };
+    if findings.strict_failures(scope).is_empty() {
         Exit::Success
+    } else {
+        Exit::StrictFindings
     }
 }
 

@@ -33,6 +33,7 @@ pub const TOP_LEVEL: &[&str] = &[
     "safety",
     "notes",
     "settings",
+    "accepted",
 ];
 
 /// The only top-level node that may appear more than once.
@@ -77,7 +78,23 @@ pub const SET_NODES: &[&str] = &[
     "response",
     "gain",
     "suggest-cathode-resistor",
+    "warm-up",
+    "bias-control",
 ];
+
+/// The checks of a valve an acceptance may name, as written in a job file.
+pub const VALVE_CHECKS: &[&str] = &[
+    "plate-dissipation",
+    "plate-dissipation-high-line",
+    "screen-dissipation",
+    "plate-voltage",
+    "screen-voltage",
+    "cathode-current",
+    "rectifier-load",
+];
+
+/// The safety tests, as written in a job file.
+pub const SAFETY_TESTS: &[&str] = &["earth-continuity", "insulation", "leakage"];
 
 /// Decodes job text whose KDL syntax has already parsed.
 pub(crate) fn decode_document(doc: &KdlDocument, source_name: &str, r: &mut Reader) -> Option<Job> {
@@ -208,6 +225,22 @@ pub(crate) fn decode_document(doc: &KdlDocument, source_name: &str, r: &mut Read
     let mut labels = std::collections::HashSet::new();
     for node in nodes.iter().filter(|n| n.name().value() == "measurements") {
         if let Some(set) = decode_measurements(node, r) {
+            if set.is_final && measurements.iter().any(|m: &MeasurementSet| m.is_final) {
+                let at = Reader::prop(node, "final")
+                    .map(|e| e.span())
+                    .unwrap_or_else(|| Reader::name_span(node));
+                r.push(
+                    DecodeError::error(
+                        "job::two-final-sets",
+                        at,
+                        "more than one measurement set is marked `final`",
+                        "a second final set",
+                    )
+                    .with_help(
+                        "the final set is the state the unit is handed over in: mark only one",
+                    ),
+                );
+            }
             if !labels.insert(set.label.clone()) {
                 r.push(DecodeError::error(
                     "job::repeated-set",
@@ -230,6 +263,10 @@ pub(crate) fn decode_document(doc: &KdlDocument, source_name: &str, r: &mut Read
     let settings = first("settings")
         .map(|n| decode_settings(n, r))
         .unwrap_or_default();
+    let acceptances = match (first("accepted"), &info) {
+        (Some(node), Some(info)) => decode_accepted(node, info, r),
+        _ => Vec::new(),
+    };
 
     let job = Job {
         source_name: source_name.to_string(),
@@ -249,6 +286,7 @@ pub(crate) fn decode_document(doc: &KdlDocument, source_name: &str, r: &mut Read
         safety,
         notes,
         settings,
+        acceptances,
     };
     Some(job)
 }
@@ -405,10 +443,11 @@ fn decode_valves(node: &KdlNode, r: &mut Reader) -> Vec<ValvePosition> {
     let mut out: Vec<ValvePosition> = Vec::new();
     let mut listed: HashSet<String> = HashSet::new();
     for child in r.children(node.children(), &["valve"], "`valves`") {
-        r.check_entries(child, &["type", "role"], 1);
+        r.check_entries(child, &["type", "role", "channel"], 1);
         r.no_children(child);
         let position = r.req_arg_name(child, "a position", "valve V1 type=\"12AX7\" role=preamp");
         let type_name = r.req_prop_name(child, "type", "valve V1 type=\"12AX7\" role=preamp");
+        let channel = r.opt_prop_string(child, "channel");
         let role = match Reader::prop(child, "role") {
             Some(e) => match r.name(e, "`role`") {
                 Some(name) => match Role::from_name(&name.value) {
@@ -461,6 +500,7 @@ fn decode_valves(node: &KdlNode, r: &mut Reader) -> Vec<ValvePosition> {
                 position,
                 type_name,
                 role: role.unwrap_or(Role::Other),
+                channel,
             });
         }
     }
@@ -594,11 +634,12 @@ fn decode_circuit(node: &KdlNode, r: &mut Reader) -> Circuit {
                 }
             }
             "node" => {
-                r.check_entries(child, &["chart", "tolerance", "label"], 1);
+                r.check_entries(child, &["chart", "tolerance", "label", "channel"], 1);
                 let name = r.req_arg_name(child, "a node name", "node B+1 chart=\"350V\"");
                 let chart = volts_pos(r, child, "chart", "the chart voltage");
                 let tolerance = percent(r, child, "tolerance");
                 let label = r.opt_prop_string(child, "label");
+                let channel = r.opt_prop_string(child, "channel");
                 if let Some(name) = name {
                     if !declared.insert(name.value.clone()) {
                         r.push(DecodeError::error(
@@ -613,6 +654,7 @@ fn decode_circuit(node: &KdlNode, r: &mut Reader) -> Circuit {
                             chart,
                             tolerance,
                             label,
+                            channel,
                         });
                     }
                 }
@@ -718,7 +760,8 @@ fn decode_circuit(node: &KdlNode, r: &mut Reader) -> Circuit {
 }
 
 fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet> {
-    r.check_entries(node, &["mains", "date"], 1);
+    r.check_entries(node, &["mains", "date", "final"], 1);
+    let is_final = r.opt_prop_bool(node, "final").unwrap_or(false);
     let example = "measurements \"as found\" mains=\"121V\"";
     let label = r.req_arg_string(node, "a label such as \"as found\"", example);
     let mains = r.req_prop_quantity(node, "mains", Q::Voltage, example);
@@ -731,6 +774,13 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
     let (mut nodes_read, mut valves_read) = (HashSet::new(), HashSet::new());
     let mut heaters = Vec::new();
     let mut circuit_changes = Circuit::default();
+    let mut valve_types: Vec<ValveTypeChange> = Vec::new();
+    let mut warm_up: Vec<WarmUpReading> = Vec::new();
+    // (position, minutes) read so far in the warm-up, and positions given a
+    // type: sets, so a long file is checked in linear time.
+    let mut warm_up_read: HashSet<(String, u64)> = HashSet::new();
+    let mut typed: HashSet<String> = HashSet::new();
+    let mut bias_controls = Vec::new();
     let mut bench = BenchTests::default();
     let mut suggest_cathode_resistor = false;
     for child in r.children(node.children(), SET_NODES, "a measurement set") {
@@ -749,9 +799,11 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
                 decode_bench_node(child, r, &mut bench);
                 continue;
             }
-            _ => {}
+            // These two have children of their own (a warm-up's readings)
+            // or decode their own (a valve reading).
+            "warm-up" | "valve" => {}
+            _ => r.no_children(child),
         }
-        r.no_children(child);
         match child.name().value() {
             "node" => {
                 r.check_entries(child, &["chart", "tolerance"], 2);
@@ -793,97 +845,117 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
                 }
             }
             "valve" => {
-                let keys = [
-                    "plate",
-                    "screen",
-                    "cathode",
-                    "grid",
-                    "sense",
-                    "primary-drop",
-                    "current",
-                    "method",
-                ];
-                r.check_entries(child, &keys, 1);
-                let position = r.req_arg_name(
-                    child,
-                    "a valve position",
-                    "valve V3 plate=\"352V\" cathode=\"11.2V\"",
-                );
-                let v = |r: &mut Reader, key: &str| {
-                    r.opt_prop_quantity(child, key, Q::Voltage)
-                        .map(|s| Spanned::new(Volts(s.value), s.span))
+                let Some((reading, type_name)) = decode_valve_reading(child, r, &[]) else {
+                    continue;
                 };
-                let plate = v(r, "plate");
-                let screen = v(r, "screen");
-                let cathode = v(r, "cathode");
-                let grid = v(r, "grid");
-                let sense = v(r, "sense");
-                let primary_drop = v(r, "primary-drop");
-                let current = r.opt_prop_quantity(child, "current", Q::Current);
-                let current = r.positive(current, "a valve current", true);
-                let method = match Reader::prop(child, "method").and_then(|e| r.name(e, "`method`"))
-                {
-                    Some(m) => match m.value.as_str() {
-                        "probe" => Some(CurrentMethod::Probe),
-                        "shunt" => Some(CurrentMethod::Shunt),
-                        other => {
-                            r.push(DecodeError::error("job::unknown-method", m.span, format!("unknown current method `{other}`"), "expected probe or shunt")
-                                .with_help("probe: a bias probe under the valve (cathode current); shunt: an ammeter across half the primary (plate current)"));
-                            None
-                        }
-                    },
-                    None => None,
-                };
-                let current = match (current, method) {
-                    (Some(c), Some(m)) => Some((Spanned::new(Amps(c.value), c.span), m)),
-                    (Some(c), None) => {
-                        r.push(DecodeError::error("job::missing", c.span, "a current read directly needs its method", "method missing")
-                            .with_help("add method=probe (bias probe: cathode current) or method=shunt (shunt across half the primary: plate current)"));
-                        None
-                    }
-                    (None, Some(_)) => {
-                        if let Some(e) = Reader::prop(child, "method") {
-                            r.push(DecodeError::error(
-                                "job::missing",
-                                r.value_span(e),
-                                "`method` is given without a `current`",
-                                "no current to go with it",
-                            ));
-                        }
-                        None
-                    }
-                    (None, None) => None,
-                };
-                for reading in [&plate, &screen].into_iter().flatten() {
-                    if reading.value.0 > 1500.0 {
-                        r.push(DecodeError::warning(
-                            "job::implausible",
-                            reading.span,
-                            format!("{} is unusually high for a valve amplifier", reading.value),
-                            "unusual",
-                        ));
-                    }
-                }
-                if let Some(p) = &position {
-                    if !valves_read.insert(p.value.clone()) {
+                if let Some(t) = type_name {
+                    if !typed.insert(reading.position.value.clone()) {
                         r.push(DecodeError::error(
                             "job::repeated-reading",
-                            p.span,
-                            format!("valve {} is read twice in this set", p.value),
+                            t.span,
+                            format!(
+                                "the type of {} is given twice in this set",
+                                reading.position.value
+                            ),
                             "repeated here",
+                        ));
+                    } else {
+                        valve_types.push(ValveTypeChange {
+                            position: reading.position.clone(),
+                            type_name: t,
+                        });
+                    }
+                }
+                if !reading.has_readings() {
+                    continue;
+                }
+                if !valves_read.insert(reading.position.value.clone()) {
+                    r.push(DecodeError::error(
+                        "job::repeated-reading",
+                        reading.position.span,
+                        format!("valve {} is read twice in this set", reading.position.value),
+                        "repeated here",
+                    )
+                    .with_help("readings at times during a warm-up go in a `warm-up` block with `after=`"));
+                    continue;
+                }
+                valves.push(reading);
+            }
+            "warm-up" => {
+                r.check_entries(child, &[], 0);
+                for w in r.children(child.children(), &["valve"], "`warm-up`") {
+                    let Some((reading, type_name)) = decode_valve_reading(w, r, &["after"]) else {
+                        continue;
+                    };
+                    if let Some(t) = type_name {
+                        r.push(
+                            DecodeError::error(
+                                "job::unexpected-type",
+                                t.span,
+                                "a warm-up reading cannot change the valve's type",
+                                "not here",
+                            )
+                            .with_help("give the set's type on the set's own `valve` line"),
+                        );
+                    }
+                    let minutes = match Reader::prop(w, "after") {
+                        Some(e) => r.minutes(e, "`after`"),
+                        None => {
+                            r.push(
+                                DecodeError::error(
+                                    "job::missing",
+                                    Reader::name_span(w),
+                                    "a warm-up reading needs the time since power-on",
+                                    "time missing",
+                                )
+                                .with_help(
+                                    "for example: valve V3 after=\"5min\" cathode=\"11.2V\"",
+                                ),
+                            );
+                            None
+                        }
+                    };
+                    if !reading.has_readings() {
+                        r.push(DecodeError::error(
+                            "job::missing",
+                            Reader::name_span(w),
+                            "a warm-up reading needs something read (cathode, sense, primary-drop or current)",
+                            "nothing read",
                         ));
                         continue;
                     }
-                    valves.push(ValveReading {
-                        position: p.clone(),
-                        plate,
-                        screen,
-                        cathode,
-                        grid,
-                        sense,
-                        primary_drop,
-                        current,
-                        span: child.span(),
+                    if let Some(minutes) = minutes {
+                        if !warm_up_read
+                            .insert((reading.position.value.clone(), minutes.value.to_bits()))
+                        {
+                            r.push(DecodeError::error(
+                                "job::repeated-reading",
+                                minutes.span,
+                                format!(
+                                    "{} is read twice at the same time",
+                                    reading.position.value
+                                ),
+                                "repeated here",
+                            ));
+                            continue;
+                        }
+                        warm_up.push(WarmUpReading { minutes, reading });
+                    }
+                }
+            }
+            "bias-control" => {
+                r.check_entries(child, &["label"], 1);
+                r.no_children(child);
+                let position = r.req_arg_string(
+                    child,
+                    "the control's position",
+                    "bias-control \"2 o'clock\" label=\"V3, V4\"",
+                );
+                let label = r.opt_prop_string(child, "label");
+                if let Some(position) = position {
+                    bias_controls.push(BiasControl {
+                        label,
+                        position: position.value,
                     });
                 }
             }
@@ -922,36 +994,147 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
     let mains = mains?;
     Some(MeasurementSet {
         label: label?.value,
+        is_final,
         mains: Spanned::new(Volts(mains.value), mains.span),
         date: date.map(|d| d.value),
         nodes,
         valves,
         heaters,
         circuit_changes,
+        valve_types,
+        warm_up,
+        bias_controls,
         bench,
         suggest_cathode_resistor,
         span: node.span(),
     })
 }
 
+/// A valve's readings, and a type given for this set (`type=`); `extra`
+/// names further properties the caller reads itself.
+fn decode_valve_reading(
+    child: &KdlNode,
+    r: &mut Reader,
+    extra: &[&str],
+) -> Option<(ValveReading, Option<Spanned<String>>)> {
+    r.no_children(child);
+    let mut keys = vec![
+        "plate",
+        "screen",
+        "cathode",
+        "grid",
+        "sense",
+        "primary-drop",
+        "current",
+        "method",
+        "type",
+    ];
+    keys.extend_from_slice(extra);
+    r.check_entries(child, &keys, 1);
+    let position = r.req_arg_name(
+        child,
+        "a valve position",
+        "valve V3 plate=\"352V\" cathode=\"11.2V\"",
+    );
+    let type_name = Reader::prop(child, "type").and_then(|e| r.name(e, "`type`"));
+    let v = |r: &mut Reader, key: &str| {
+        r.opt_prop_quantity(child, key, Q::Voltage)
+            .map(|s| Spanned::new(Volts(s.value), s.span))
+    };
+    let plate = v(r, "plate");
+    let screen = v(r, "screen");
+    let cathode = v(r, "cathode");
+    let grid = v(r, "grid");
+    let sense = v(r, "sense");
+    let primary_drop = v(r, "primary-drop");
+    let current = r.opt_prop_quantity(child, "current", Q::Current);
+    let current = r.positive(current, "a valve current", true);
+    let method = match Reader::prop(child, "method").and_then(|e| r.name(e, "`method`")) {
+        Some(m) => match m.value.as_str() {
+            "probe" => Some(CurrentMethod::Probe),
+            "shunt" => Some(CurrentMethod::Shunt),
+            other => {
+                r.push(DecodeError::error("job::unknown-method", m.span, format!("unknown current method `{other}`"), "expected probe or shunt")
+                        .with_help("probe: a bias probe under the valve (cathode current); shunt: an ammeter across half the primary (plate current)"));
+                None
+            }
+        },
+        None => None,
+    };
+    let current = match (current, method) {
+        (Some(c), Some(m)) => Some((Spanned::new(Amps(c.value), c.span), m)),
+        (Some(c), None) => {
+            r.push(DecodeError::error("job::missing", c.span, "a current read directly needs its method", "method missing")
+                    .with_help("add method=probe (bias probe: cathode current) or method=shunt (shunt across half the primary: plate current)"));
+            None
+        }
+        (None, Some(_)) => {
+            if let Some(e) = Reader::prop(child, "method") {
+                r.push(DecodeError::error(
+                    "job::missing",
+                    r.value_span(e),
+                    "`method` is given without a `current`",
+                    "no current to go with it",
+                ));
+            }
+            None
+        }
+        (None, None) => None,
+    };
+    for reading in [&plate, &screen].into_iter().flatten() {
+        if reading.value.0 > 1500.0 {
+            r.push(DecodeError::warning(
+                "job::implausible",
+                reading.span,
+                format!("{} is unusually high for a valve amplifier", reading.value),
+                "unusual",
+            ));
+        }
+    }
+    let p = position?;
+    Some((
+        ValveReading {
+            position: p,
+            plate,
+            screen,
+            cathode,
+            grid,
+            sense,
+            primary_drop,
+            current,
+            span: child.span(),
+        },
+        type_name,
+    ))
+}
+
 fn decode_parts(node: &KdlNode, r: &mut Reader) -> Vec<PartChange> {
     r.check_entries(node, &[], 0);
     let mut out = Vec::new();
     for child in r.children(node.children(), &["part"], "`parts`") {
-        r.check_entries(child, &["was", "now", "reason", "original-kept"], 1);
+        r.check_entries(child, &["what", "was", "now", "reason", "original-kept"], 1);
         r.no_children(child);
-        let reference = r.req_arg_name(
-            child,
-            "a reference",
-            "part C10 was=\"…\" now=\"…\" reason=\"…\"",
-        );
+        let reference = Reader::arg(child, 0).and_then(|e| r.name(e, "the reference"));
+        let what = r.opt_prop_string(child, "what");
+        if reference.is_none() && what.is_none() && Reader::arg(child, 0).is_none() {
+            r.push(
+                DecodeError::error(
+                    "job::missing",
+                    Reader::name_span(child),
+                    "`part` needs a circuit reference or `what=`",
+                    "which part?",
+                )
+                .with_help("for example: part C10 was=\"…\" now=\"…\"   or   part what=\"mains cord\" was=\"two-wire\" now=\"three-wire\""),
+            );
+        }
         let was = r.opt_prop_string(child, "was");
         let now = r.opt_prop_string(child, "now");
         let reason = r.opt_prop_string(child, "reason");
         let original_kept = r.opt_prop_bool(child, "original-kept");
-        if let Some(reference) = reference {
+        if reference.is_some() || what.is_some() {
             out.push(PartChange {
-                reference: reference.value,
+                reference: reference.map(|r| r.value),
+                what,
                 was,
                 now,
                 reason,
@@ -1088,6 +1271,25 @@ fn decode_safety(node: &KdlNode, r: &mut Reader) -> Option<Safety> {
     ) {
         r.no_children(child);
         let reading = |r: &mut Reader, kind: Q, example: &str| match Reader::arg(child, 0) {
+            Some(e) if over_range_text(e).is_some() => {
+                let span = r.value_span(e);
+                let at = SourceSpan::new((span.offset() + 1).into(), 1);
+                r.push(
+                    DecodeError::error(
+                        "job::over-range",
+                        at,
+                        format!(
+                            "`{}` takes no over-range reading (\">…\")",
+                            child.name().value()
+                        ),
+                        "only the insulation test reads \"more than\"",
+                    )
+                    .with_help(format!(
+                        "write the figure the meter showed, for example: {example}"
+                    )),
+                );
+                None
+            }
             Some(e) => {
                 let q = r.quantity(e, kind, "the reading");
                 r.positive(q, "the reading", true).map(|q| q.value)
@@ -1126,10 +1328,33 @@ fn decode_safety(node: &KdlNode, r: &mut Reader) -> Option<Safety> {
             "insulation" => {
                 r.check_entries(child, &["test-voltage", "minimum", "over-range"], 1);
                 let example = "insulation \"200M\" test-voltage=\"500V\" minimum=\"1M\"";
-                let measured = reading(r, Q::Resistance, example);
+                // A meter at the top of its range shows "more than": ">500M".
+                let arrow = Reader::arg(child, 0).and_then(over_range_text);
+                let measured = match (arrow.clone(), Reader::arg(child, 0)) {
+                    (Some(rest), Some(e)) => {
+                        let span = r.value_span(e);
+                        match crate::units::parse_quantity(&rest, Q::Resistance) {
+                            Ok(v) if v > 0.0 => Some(v),
+                            _ => {
+                                r.push(
+                                    DecodeError::error(
+                                        "job::bad-value",
+                                        span,
+                                        format!("the over-range reading \">{rest}\" is not a resistance"),
+                                        "expected \">500M\"",
+                                    )
+                                    .with_help("write the meter's top figure after `>`, for example \">500M\""),
+                                );
+                                None
+                            }
+                        }
+                    }
+                    _ => reading(r, Q::Resistance, example),
+                };
                 let test_voltage = volts_req(r, child, "test-voltage", example);
                 let minimum = ohms(r, child, "minimum", example);
-                let over_range = r.opt_prop_bool(child, "over-range").unwrap_or(false);
+                let over_range =
+                    r.opt_prop_bool(child, "over-range").unwrap_or(false) || arrow.is_some();
                 if let (Some(measured), Some(test_voltage), Some(minimum)) =
                     (measured, test_voltage, minimum)
                 {
@@ -1158,6 +1383,142 @@ fn decode_safety(node: &KdlNode, r: &mut Reader) -> Option<Safety> {
         }
     }
     Some(Safety { class, tests })
+}
+
+/// The `accepted` block: findings the technician has judged and accepted,
+/// each with a reason; `by=` and `date=` default to the block's, then to
+/// the job's technician and completion date.
+fn decode_accepted(node: &KdlNode, info: &JobInfo, r: &mut Reader) -> Vec<Acceptance> {
+    r.check_entries(node, &["by", "date"], 0);
+    let block_by = r
+        .opt_prop_string(node, "by")
+        .or_else(|| info.technician.clone());
+    let block_date = r
+        .opt_prop_date(node, "date")
+        .map(|d| d.value)
+        .or(info.completed);
+    let mut out = Vec::new();
+    for child in r.children(node.children(), &AcceptedKind::NAMES, "`accepted`") {
+        r.no_children(child);
+        let Some(kind) = AcceptedKind::from_name(child.name().value()) else {
+            continue;
+        };
+        let (props, args): (&[&str], usize) = match kind {
+            AcceptedKind::Valve => (&["check", "set", "reason", "by", "date"], 1),
+            AcceptedKind::Heater => (&["label", "set", "reason", "by", "date"], 0),
+            AcceptedKind::Safety => (&["reason", "by", "date"], 1),
+            _ => (&["set", "reason", "by", "date"], 1),
+        };
+        r.check_entries(child, props, args);
+        let example = match kind {
+            AcceptedKind::Valve => "valve V3 check=screen-voltage reason=\"factory design\"",
+            AcceptedKind::Node => "node B+1 reason=\"…\"",
+            AcceptedKind::Part => "part C10 reason=\"…\"",
+            AcceptedKind::Heater => "heater reason=\"…\"",
+            AcceptedKind::Safety => "safety leakage reason=\"…\"",
+        };
+        let name = match kind {
+            AcceptedKind::Heater => r.opt_prop_string(child, "label").map(|l| {
+                let span = Reader::prop(child, "label")
+                    .map(|e| r.value_span(e))
+                    .unwrap_or_else(|| Reader::name_span(child));
+                Spanned::new(l, span)
+            }),
+            AcceptedKind::Safety => {
+                let n = r.req_arg_name(child, "the safety test's name", example);
+                match n {
+                    Some(n) if !SAFETY_TESTS.contains(&n.value.as_str()) => {
+                        r.push(
+                            DecodeError::error(
+                                "job::unknown-safety-test",
+                                n.span,
+                                format!("unknown safety test `{}`", n.value),
+                                "not a safety test",
+                            )
+                            .with_help(suggestion_help(&n.value, SAFETY_TESTS)),
+                        );
+                        None
+                    }
+                    other => other,
+                }
+            }
+            AcceptedKind::Valve => r.req_arg_name(child, "a valve position", example),
+            AcceptedKind::Node => r.req_arg_name(child, "a node name", example),
+            AcceptedKind::Part => r.req_arg_name(child, "a part reference", example),
+        };
+        let check = Reader::prop(child, "check").and_then(|e| r.name(e, "`check`"));
+        if let Some(c) = &check
+            && !VALVE_CHECKS.contains(&c.value.as_str())
+        {
+            r.push(
+                DecodeError::error(
+                    "job::unknown-check",
+                    c.span,
+                    format!("unknown valve check `{}`", c.value),
+                    "not a check",
+                )
+                .with_help(suggestion_help(&c.value, VALVE_CHECKS)),
+            );
+        }
+        let set = Reader::prop(child, "set").and_then(|e| r.string(e, "`set`"));
+        let reason = r.req_prop_string(child, "reason", example);
+        if let Some(reason) = &reason
+            && reason.value.trim().is_empty()
+        {
+            r.push(
+                DecodeError::error(
+                    "job::empty-reason",
+                    reason.span,
+                    "an acceptance needs its reason in words",
+                    "empty reason",
+                )
+                .with_help("say why the figure is acceptable, for example \"factory design\""),
+            );
+        }
+        let by = r.opt_prop_string(child, "by").or_else(|| block_by.clone());
+        let date = r
+            .opt_prop_date(child, "date")
+            .map(|d| d.value)
+            .or(block_date);
+        if by.is_none() {
+            r.push(
+                DecodeError::error(
+                    "job::missing",
+                    Reader::name_span(child),
+                    "an acceptance needs the name of the technician who accepted it",
+                    "who accepted this?",
+                )
+                .with_help(
+                    "write `by=\"…\"` here or on `accepted`, or give the job a `technician=`",
+                ),
+            );
+        }
+        if date.is_none() {
+            r.push(
+                DecodeError::error(
+                    "job::missing",
+                    Reader::name_span(child),
+                    "an acceptance needs the date it was accepted",
+                    "when was this accepted?",
+                )
+                .with_help("write `date=\"YYYY-MM-DD\"` here or on `accepted`, or give the job a `completed=` date"),
+            );
+        }
+        let name_ok = name.is_some() || kind == AcceptedKind::Heater;
+        if let (true, Some(reason), Some(by), Some(date)) = (name_ok, reason, by, date) {
+            out.push(Acceptance {
+                kind,
+                name,
+                check: check.filter(|c| VALVE_CHECKS.contains(&c.value.as_str())),
+                set,
+                reason: reason.value.trim().to_string(),
+                by,
+                date,
+                span: child.span(),
+            });
+        }
+    }
+    out
 }
 
 fn decode_notes(node: &KdlNode, r: &mut Reader) -> Vec<String> {
@@ -1238,6 +1599,17 @@ fn decode_settings(node: &KdlNode, r: &mut Reader) -> Settings {
 }
 
 // ----- small shared readers ---------------------------------------------------
+
+/// The figure after a leading `>` of a text value (an over-range reading).
+fn over_range_text(e: &kdl::KdlEntry) -> Option<String> {
+    match e.value() {
+        kdl::KdlValue::String(s) => s
+            .trim()
+            .strip_prefix('>')
+            .map(|rest| rest.trim_start_matches('=').trim().to_string()),
+        _ => None,
+    }
+}
 
 /// A level in decibels: a plain number or text ending in `dB`, from 0 to
 /// 150 dB.

@@ -2,6 +2,7 @@
 //! source spans. Every problem is collected into one [`JobDiagnostics`].
 
 mod bare_value;
+mod completeness;
 mod decode;
 mod decode_bench;
 mod decode_error;
@@ -10,7 +11,11 @@ mod reader;
 mod validate;
 mod valve_types;
 
-pub use decode::{CIRCUIT_NODES, FORMAT_VERSION, MOD_FIGURES, SET_NODES, SETTINGS, TOP_LEVEL};
+pub use completeness::{NotMeasuredInFinal, not_measured_in_final};
+pub use decode::{
+    CIRCUIT_NODES, FORMAT_VERSION, MOD_FIGURES, SAFETY_TESTS, SET_NODES, SETTINGS, TOP_LEVEL,
+    VALVE_CHECKS,
+};
 pub use decode_bench::{BENCH_NODES, DEFAULT_FREQUENCY};
 pub use decode_error::{DecodeError, JobDiagnostics, did_you_mean, line_column, suggestion_help};
 pub use model::*;
@@ -58,6 +63,7 @@ fn decode_inner(
             problems.append(&mut reader.problems);
             if let Some(job) = &job {
                 problems.extend(validate::cross_references(job));
+                problems.extend(completeness::warnings(job));
                 if let Some(ratings) = ratings {
                     problems.extend(valve_types::check(job, ratings));
                 }

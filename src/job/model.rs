@@ -50,12 +50,29 @@ pub struct Job {
     pub safety: Option<Safety>,
     pub notes: Vec<String>,
     pub settings: Settings,
+    /// The technician's judgement: findings accepted as they are, each
+    /// with its reason, name and date.
+    pub acceptances: Vec<Acceptance>,
 }
 
 impl Job {
     /// The valve at a position in the line-up, if there is one.
     pub fn valve(&self, position: &str) -> Option<&ValvePosition> {
         self.valves.iter().find(|v| v.position.value == position)
+    }
+
+    /// The valve at a position as fitted for a set: the line-up's entry,
+    /// with the set's own type where the set gives one.
+    pub fn valve_in(&self, set: &MeasurementSet, position: &str) -> Option<ValvePosition> {
+        let mut v = self.valve(position)?.clone();
+        if let Some(change) = set
+            .valve_types
+            .iter()
+            .find(|c| c.position.value == position)
+        {
+            v.type_name = change.type_name.clone();
+        }
+        Some(v)
     }
 
     /// The circuit as it stood for a measurement set.
@@ -65,6 +82,15 @@ impl Job {
         } else {
             std::borrow::Cow::Owned(self.circuit.with_changes(&set.circuit_changes))
         }
+    }
+
+    /// The index of the set the unit is handed over in: the one marked
+    /// `final`, else the last.
+    pub fn final_set_index(&self) -> Option<usize> {
+        self.measurements
+            .iter()
+            .position(|m| m.is_final)
+            .or_else(|| self.measurements.len().checked_sub(1))
     }
 
     /// The circuit's declaration of a B+ node, if there is one.
@@ -173,6 +199,8 @@ pub struct ValvePosition {
     /// The type as written ("6BQ5"); the ratings table resolves it.
     pub type_name: Spanned<String>,
     pub role: Role,
+    /// The amplifier channel it belongs to, where the job groups valves so.
+    pub channel: Option<String>,
 }
 
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
@@ -341,6 +369,8 @@ pub struct NodeSpec {
     /// Tolerance as a fraction.
     pub tolerance: Option<f64>,
     pub label: Option<String>,
+    /// The amplifier channel it feeds, where the job groups nodes so.
+    pub channel: Option<String>,
 }
 
 /// A series resistor between two filter nodes.
@@ -392,6 +422,8 @@ pub struct Rectifier {
 #[derive(Debug, Clone, Serialize)]
 pub struct MeasurementSet {
     pub label: String,
+    /// Marked `final=#true`: the state the unit is handed over in.
+    pub is_final: bool,
     pub mains: Spanned<Volts>,
     pub date: Option<NaiveDate>,
     pub nodes: Vec<NodeReading>,
@@ -400,6 +432,13 @@ pub struct MeasurementSet {
     /// Circuit facts that differ for this set (parts changed since the
     /// circuit block was written), laid over the job's circuit.
     pub circuit_changes: Circuit,
+    /// Valves fitted with another type for this set (a rectifier or output
+    /// valves swapped): the set's figures use the new type's ratings.
+    pub valve_types: Vec<ValveTypeChange>,
+    /// Readings taken at times during a warm-up.
+    pub warm_up: Vec<WarmUpReading>,
+    /// Where the bias controls were set.
+    pub bias_controls: Vec<BiasControl>,
     /// Output power, hum and noise, response and gain read on the bench.
     pub bench: BenchTests,
     /// Whether the set asks for a cathode-resistor suggestion for every
@@ -408,6 +447,30 @@ pub struct MeasurementSet {
     pub suggest_cathode_resistor: bool,
     #[serde(skip)]
     pub span: SourceSpan,
+}
+
+/// A valve position fitted with another type in one set.
+#[derive(Debug, Clone, Serialize)]
+pub struct ValveTypeChange {
+    pub position: Spanned<String>,
+    pub type_name: Spanned<String>,
+}
+
+/// A valve read at a time since power-on, within one set.
+#[derive(Debug, Clone, Serialize)]
+pub struct WarmUpReading {
+    /// Minutes since power-on.
+    pub minutes: Spanned<f64>,
+    pub reading: ValveReading,
+}
+
+/// A bias control's setting, as the technician describes it.
+#[derive(Debug, Clone, Serialize)]
+pub struct BiasControl {
+    /// Which control, when there is more than one.
+    pub label: Option<String>,
+    /// "2 o'clock", "fully clockwise", "−36 V at the test point".
+    pub position: String,
 }
 
 /// Readings taken on the bench into a dummy load, after the bias is set.
@@ -545,6 +608,19 @@ pub struct ValveReading {
     pub span: SourceSpan,
 }
 
+impl ValveReading {
+    /// Whether anything was read (a line may give only the set's type).
+    pub fn has_readings(&self) -> bool {
+        self.plate.is_some()
+            || self.screen.is_some()
+            || self.cathode.is_some()
+            || self.grid.is_some()
+            || self.sense.is_some()
+            || self.primary_drop.is_some()
+            || self.current.is_some()
+    }
+}
+
 #[derive(Debug, Clone, Serialize)]
 pub struct HeaterReading {
     pub volts: Spanned<Volts>,
@@ -554,7 +630,10 @@ pub struct HeaterReading {
 
 #[derive(Debug, Clone, Serialize)]
 pub struct PartChange {
-    pub reference: String,
+    /// The circuit reference ("C31"), when the part has one.
+    pub reference: Option<String>,
+    /// What the part is, for one without a reference ("mains cord").
+    pub what: Option<String>,
     pub was: Option<String>,
     pub now: Option<String>,
     pub reason: Option<String>,
@@ -633,6 +712,79 @@ pub enum SafetyTest {
     },
     /// Leakage (touch) current; passes at or below the limit.
     Leakage { measured: Amps, limit: Amps },
+}
+
+/// What kind of thing an acceptance names.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[serde(rename_all = "snake_case")]
+pub enum AcceptedKind {
+    /// A valve position: its checks, or (for a valve rectifier) its load.
+    Valve,
+    /// A B+ node against the chart.
+    Node,
+    /// A resistor or capacitor by its circuit reference.
+    Part,
+    /// The heater supply (all heater readings, or the one with a label).
+    Heater,
+    /// A safety test by its name.
+    Safety,
+}
+
+impl AcceptedKind {
+    /// The child-node names of the `accepted` block.
+    pub const NAMES: [&'static str; 5] = ["valve", "node", "part", "heater", "safety"];
+
+    pub fn from_name(name: &str) -> Option<AcceptedKind> {
+        Some(match name {
+            "valve" => AcceptedKind::Valve,
+            "node" => AcceptedKind::Node,
+            "part" => AcceptedKind::Part,
+            "heater" => AcceptedKind::Heater,
+            "safety" => AcceptedKind::Safety,
+            _ => return None,
+        })
+    }
+}
+
+/// A finding the technician has judged and accepted as it is: it keeps its
+/// figures and its status, but no longer counts against the unit.
+#[derive(Debug, Clone, Serialize)]
+pub struct Acceptance {
+    pub kind: AcceptedKind,
+    /// The valve position, node, part reference, heater label or safety
+    /// test; none for "every heater".
+    pub name: Option<Spanned<String>>,
+    /// One named check of a valve (`screen-voltage`); none for all.
+    pub check: Option<Spanned<String>>,
+    /// The measurement set it applies to; none for every set.
+    pub set: Option<Spanned<String>>,
+    pub reason: String,
+    /// Who accepted it.
+    pub by: String,
+    pub date: NaiveDate,
+    #[serde(skip)]
+    pub span: SourceSpan,
+}
+
+impl PartChange {
+    /// The reference, else what the part is.
+    pub fn name(&self) -> &str {
+        self.reference
+            .as_deref()
+            .or(self.what.as_deref())
+            .unwrap_or("")
+    }
+}
+
+impl SafetyTest {
+    /// The test's name as written in a job file.
+    pub fn name(&self) -> &'static str {
+        match self {
+            SafetyTest::EarthContinuity { .. } => "earth-continuity",
+            SafetyTest::Insulation { .. } => "insulation",
+            SafetyTest::Leakage { .. } => "leakage",
+        }
+    }
 }
 
 /// The guide bands and margins, with the documented defaults; a job may

@@ -385,6 +385,49 @@ impl<'s> Reader<'s> {
         }
     }
 
+    /// A time since power-on in minutes: a plain number of minutes, or text
+    /// with a unit, `"30s"`, `"5min"`, `"1.5h"`.
+    pub fn minutes(&mut self, entry: &KdlEntry, what: &str) -> Option<Spanned<f64>> {
+        let span = self.value_span(entry);
+        let value = match entry.value() {
+            KdlValue::Integer(i) => Some(*i as f64),
+            KdlValue::Float(f) if f.is_finite() => Some(*f),
+            KdlValue::String(s) => {
+                let t = s.trim();
+                let split = t
+                    .find(|c: char| !(c.is_ascii_digit() || c == '.'))
+                    .unwrap_or(t.len());
+                let (number, unit) = t.split_at(split);
+                let scale = match unit.trim() {
+                    "" | "min" | "m" => Some(1.0),
+                    "s" => Some(1.0 / 60.0),
+                    "h" => Some(60.0),
+                    _ => None,
+                };
+                match (number.parse::<f64>().ok(), scale) {
+                    (Some(n), Some(k)) if n.is_finite() => Some(n * k),
+                    _ => None,
+                }
+            }
+            _ => None,
+        };
+        match value {
+            Some(v) if (0.0..=24.0 * 60.0).contains(&v) => Some(Spanned::new(v, span)),
+            _ => {
+                self.push(
+                    DecodeError::error(
+                        "job::bad-time",
+                        span,
+                        format!("{what} must be a time since power-on, up to a day"),
+                        "expected a time such as \"5min\"",
+                    )
+                    .with_help("write minutes as a number (5), or text with s, min or h: \"30s\", \"5min\", \"1.5h\""),
+                );
+                None
+            }
+        }
+    }
+
     pub fn date(&mut self, entry: &KdlEntry, what: &str) -> Option<Spanned<NaiveDate>> {
         let span = self.value_span(entry);
         let text = match entry.value() {

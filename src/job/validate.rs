@@ -91,6 +91,21 @@ pub fn cross_references(job: &Job) -> Vec<DecodeError> {
         for v in &set.valves {
             position(&v.position, &format!("the \"{}\" readings", set.label));
         }
+        for c in &set.valve_types {
+            if !set
+                .valves
+                .iter()
+                .any(|v| v.position.value == c.position.value)
+            {
+                position(&c.position, &format!("the \"{}\" readings", set.label));
+            }
+        }
+        for w in &set.warm_up {
+            position(
+                &w.reading.position,
+                &format!("the \"{}\" warm-up", set.label),
+            );
+        }
     }
     for m in &job.mods {
         for f in &m.figures {
@@ -136,6 +151,8 @@ pub fn cross_references(job: &Job) -> Vec<DecodeError> {
         }
     }
 
+    out.extend(acceptance_names(job, &positions, &nodes));
+
     // Readings far from the job's own nominal mains are suspect.
     for set in &job.measurements {
         let ratio = set.mains.value / job.mains.nominal.value;
@@ -157,6 +174,80 @@ pub fn cross_references(job: &Job) -> Vec<DecodeError> {
                     "check the reading, or whether the unit ran from a variable autotransformer",
                 ),
             );
+        }
+    }
+    out
+}
+
+/// Every name an acceptance uses must name something in the job.
+fn acceptance_names(job: &Job, positions: &[&str], nodes: &[&str]) -> Vec<DecodeError> {
+    use super::model::AcceptedKind;
+    let mut out = Vec::new();
+    let mut parts: Vec<String> = Vec::new();
+    for c in
+        std::iter::once(&job.circuit).chain(job.measurements.iter().map(|m| &m.circuit_changes))
+    {
+        parts.extend(c.droppers.iter().map(|d| d.reference.clone()));
+        parts.extend(c.cathode_resistors.iter().map(|d| d.reference.clone()));
+        parts.extend(c.filter_capacitors.iter().map(|d| d.reference.clone()));
+        parts.extend(c.screen_resistors.iter().map(|d| {
+            d.reference
+                .clone()
+                .unwrap_or_else(|| format!("{} screen", d.valve.value))
+        }));
+    }
+    parts.sort();
+    parts.dedup();
+    let parts: Vec<&str> = parts.iter().map(String::as_str).collect();
+    let labels: Vec<&str> = job.measurements.iter().map(|m| m.label.as_str()).collect();
+    let heater_labels: Vec<&str> = job
+        .measurements
+        .iter()
+        .flat_map(|m| m.heaters.iter().filter_map(|h| h.label.as_deref()))
+        .collect();
+    let mut unknown = |name: &Spanned<String>, known: &[&str], what: &str, code: &'static str| {
+        if !known.contains(&name.value.as_str()) {
+            let help = if known.is_empty() {
+                format!("the job has no {what} to accept")
+            } else {
+                suggestion_help(&name.value, known)
+            };
+            out.push(
+                DecodeError::error(
+                    code,
+                    name.span,
+                    format!(
+                        "the acceptance names {what} {}, which the job does not have",
+                        name.value
+                    ),
+                    format!("no such {what}"),
+                )
+                .with_help(help),
+            );
+        }
+    };
+    for a in &job.acceptances {
+        if let Some(set) = &a.set {
+            unknown(set, &labels, "measurement set", "job::unknown-set");
+        }
+        let Some(name) = &a.name else { continue };
+        match a.kind {
+            AcceptedKind::Valve => {
+                unknown(name, positions, "valve position", "job::unknown-position")
+            }
+            AcceptedKind::Node => unknown(name, nodes, "node", "job::unknown-node-name"),
+            AcceptedKind::Part => unknown(name, &parts, "part", "job::unknown-part"),
+            AcceptedKind::Heater => {
+                unknown(name, &heater_labels, "heater label", "job::unknown-heater")
+            }
+            AcceptedKind::Safety => {
+                let recorded: Vec<&str> = job
+                    .safety
+                    .iter()
+                    .flat_map(|s| s.tests.iter().map(|t| t.name()))
+                    .collect();
+                unknown(name, &recorded, "safety test", "job::unknown-safety-test");
+            }
         }
     }
     out

@@ -8,7 +8,18 @@ use crate::ratings::RatingsTable;
 
 pub fn check(job: &Job, ratings: &RatingsTable) -> Vec<DecodeError> {
     let mut out = Vec::new();
-    for v in job.valves.iter().filter(|v| !v.type_name.value.is_empty()) {
+    // The line-up, and each type a set fits instead (with its role).
+    let mut fitted: Vec<super::model::ValvePosition> = job.valves.clone();
+    for set in &job.measurements {
+        for c in &set.valve_types {
+            if let Some(v) = job.valve(&c.position.value) {
+                let mut v = v.clone();
+                v.type_name = c.type_name.clone();
+                fitted.push(v);
+            }
+        }
+    }
+    for v in fitted.iter().filter(|v| !v.type_name.value.is_empty()) {
         match ratings.lookup(&v.type_name.value) {
             Ok(rating) => {
                 let output_class = rating.class.is_output();
@@ -59,14 +70,33 @@ pub fn check(job: &Job, ratings: &RatingsTable) -> Vec<DecodeError> {
             }
         }
     }
-    for c in
-        std::iter::once(&job.circuit).chain(job.measurements.iter().map(|m| &m.circuit_changes))
-    {
+    // The rectifier as each set fits it (and as the circuit block states it).
+    let mut fitted_rectifiers: Vec<(super::model::Spanned<String>, super::model::ValvePosition)> =
+        Vec::new();
+    let base = std::iter::once((job.circuit.clone(), None));
+    let sets = job
+        .measurements
+        .iter()
+        .map(|s| (job.circuit_for(s).into_owned(), Some(s)));
+    for (c, set) in base.chain(sets) {
         if let Some(rect) = &c.rectifier
             && let RectifierKind::Valve(pos) = &rect.kind
-            && let Some(v) = job.valve(&pos.value)
-            && let Ok(rating) = ratings.lookup(&v.type_name.value)
+        {
+            let v = match set {
+                Some(set) => job.valve_in(set, &pos.value),
+                None => job.valve(&pos.value).cloned(),
+            };
+            if let Some(v) = v {
+                fitted_rectifiers.push((pos.clone(), v));
+            }
+        }
+    }
+    for (pos, v) in fitted_rectifiers {
+        if let Ok(rating) = ratings.lookup(&v.type_name.value)
             && !rating.class.is_rectifier()
+            && !out
+                .iter()
+                .any(|e| e.span == pos.span && e.code == "job::not-a-rectifier")
         {
             out.push(
                 DecodeError::error(

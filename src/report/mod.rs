@@ -1,10 +1,12 @@
 //! Presenting findings: one module per output kind. Reports decide nothing:
 //! every status comes from [`crate::calc`].
 
+pub mod attention;
 pub mod handover;
 pub mod json;
 pub mod plots;
 pub mod response_chart;
+pub mod summary;
 mod table;
 pub mod terminal;
 

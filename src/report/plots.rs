@@ -14,6 +14,9 @@ use plotters::style::text_anchor::{HPos, Pos, VPos};
 
 use crate::calc::Findings;
 
+mod warm_up;
+pub use warm_up::{WarmUpChart, WarmUpLine, warm_up_chart, warm_up_svg};
+
 /// Font named in the SVG text elements: the bundled body font, which typst
 /// uses when it draws the SVG.
 pub(crate) const FONT: &str = "Noto Sans";
@@ -544,15 +547,106 @@ pub(crate) fn anchored(size: u32, h: HPos, v: VPos) -> TextStyle<'static> {
     font(size).pos(Pos::new(h, v))
 }
 
-/// How set `k` is drawn in the bar chart: fill colour, and whether diagonal
-/// hatching goes over it.
-fn bar_pattern(k: usize) -> (RGBColor, bool) {
-    match k % 4 {
-        0 => (PAPER, true),
-        1 => (DARK, false),
-        2 => (LIGHT, false),
-        _ => (MID, true),
+/// How a set's bars are filled.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+enum Overlay {
+    /// Diagonal hatching: reserved for the first set, as found.
+    Hatch,
+    Solid,
+    /// Small dots over the fill, for sets beyond the plain greys.
+    Dots,
+}
+
+/// The solid greys for the sets after the first, in order.
+const FILLS: [RGBColor; 5] = [
+    DARK,
+    LIGHT,
+    MID,
+    RGBColor(45, 45, 45),
+    RGBColor(195, 195, 195),
+];
+
+/// How set `k` is drawn in the bar chart: hatching for the first set (as
+/// found), a distinct solid grey for each later set, and the same greys
+/// dotted once they run out.
+fn bar_pattern(k: usize) -> (RGBColor, Overlay) {
+    if k == 0 {
+        return (PAPER, Overlay::Hatch);
     }
+    let i = k - 1;
+    let overlay = if i < FILLS.len() {
+        Overlay::Solid
+    } else {
+        Overlay::Dots
+    };
+    (FILLS[i % FILLS.len()], overlay)
+}
+
+/// Draws a bar's fill with its overlay.
+fn fill_bar(
+    area: &DrawingArea<SVGBackend<'_>, Shift>,
+    a: (i32, i32),
+    b: (i32, i32),
+    k: usize,
+    spacing: i32,
+) -> Result<(), String> {
+    let (fill, overlay) = bar_pattern(k);
+    area.draw(&Rectangle::new([a, b], fill.filled()))
+        .map_err(|e| e.to_string())?;
+    match overlay {
+        Overlay::Hatch => hatch(area, a, b, spacing)?,
+        Overlay::Dots => {
+            let dot = if fill.0 < 128 { PAPER } else { INK };
+            let (x0, x1) = (a.0.min(b.0), a.0.max(b.0));
+            let (y0, y1) = (a.1.min(b.1), a.1.max(b.1));
+            let mut y = y0 + 3;
+            while y < y1 - 1 {
+                let mut x = x0 + 3 + ((y - y0) / 5 % 2) * 2;
+                while x < x1 - 1 {
+                    area.draw(&Rectangle::new([(x, y), (x + 1, y + 1)], dot.filled()))
+                        .map_err(|e| e.to_string())?;
+                    x += 5;
+                }
+                y += 5;
+            }
+        }
+        Overlay::Solid => {}
+    }
+    area.draw(&Rectangle::new([a, b], INK.stroke_width(1)))
+        .map_err(|e| e.to_string())?;
+    Ok(())
+}
+
+/// Legend entries laid out left to right from `left`, wrapping before
+/// `right`: the top-left corner of each entry's swatch, and the number of
+/// rows. Each entry is `swatch` pixels of mark, a gap and its text.
+pub(crate) fn legend_layout(
+    labels: &[String],
+    left: i32,
+    right: i32,
+    swatch: i32,
+) -> (Vec<(i32, i32)>, i32) {
+    let mut out = Vec::new();
+    let (mut x, mut row) = (left, 0);
+    for label in labels {
+        let w = swatch + 8 + text_width(label, 13).ceil() as i32;
+        if x > left && x + w > right {
+            row += 1;
+            x = left;
+        }
+        out.push((x, LEGEND_TOP + row * LEGEND_ROW));
+        x += w + 22;
+    }
+    (out, row + 1)
+}
+
+/// The first legend row's centre line, and the height of each row.
+const LEGEND_TOP: i32 = 20;
+const LEGEND_ROW: i32 = 22;
+
+/// The top margin that leaves room for `rows` legend rows.
+fn legend_margin(rows: i32) -> i32 {
+    LEGEND_TOP + (rows - 1) * LEGEND_ROW + 24
 }
 
 /// Diagonal lines (lower left to upper right) filling a pixel rectangle.
@@ -599,29 +693,14 @@ pub(crate) fn dashed(
     Ok(())
 }
 
-/// The legend row along the top: (swatch drawer, label) pairs laid out left
-/// to right from `x`.
+/// A bar chart legend's swatch, centred on `y`, from `x`.
 fn legend_swatch_bar(
     area: &DrawingArea<SVGBackend<'_>, Shift>,
     x: i32,
     y: i32,
     k: usize,
 ) -> Result<(), String> {
-    let (fill, hatched) = bar_pattern(k);
-    area.draw(&Rectangle::new(
-        [(x, y - 7), (x + 22, y + 7)],
-        fill.filled(),
-    ))
-    .map_err(|e| e.to_string())?;
-    if hatched {
-        hatch(area, (x, y - 7), (x + 22, y + 7), 6)?;
-    }
-    area.draw(&Rectangle::new(
-        [(x, y - 7), (x + 22, y + 7)],
-        INK.stroke_width(1),
-    ))
-    .map_err(|e| e.to_string())?;
-    Ok(())
+    fill_bar(area, (x, y - 7), (x + 22, y + 7), k, 6)
 }
 
 /// The axes every chart shares: no x labels or upright grid (each chart
@@ -685,8 +764,18 @@ fn draw_dissipation(chart: &DissipationChart, svg: &mut String) -> Result<(), St
     let axis = Axis::fit(0.0, top, 0.0, 10.0);
     let top = axis.top;
 
+    // The legend first: it wraps onto as many rows as the sets need, and
+    // the plot starts below it.
+    let legend_labels: Vec<String> = chart
+        .series
+        .iter()
+        .map(|s| label_text(&s.label, 24))
+        .collect();
+    let right_edge = SIZE.0 as i32 - 104;
+    let (legend, rows) = legend_layout(&legend_labels, 70, right_edge, 22);
+
     let mut ctx = ChartBuilder::on(&root)
-        .margin_top(44)
+        .margin_top(legend_margin(rows))
         .margin_right(104)
         .margin_left(8)
         .margin_bottom(6)
@@ -741,36 +830,32 @@ fn draw_dissipation(chart: &DissipationChart, svg: &mut String) -> Result<(), St
         Guide::None => {}
     }
 
-    // Bars: each valve a group, each set a bar in it.
-    let group = 0.62;
+    // Bars: each valve a group, each set a bar in it. The group widens
+    // with the number of sets so each bar keeps a usable column.
+    let group = (0.62 + 0.08 * (sets as f64 - 2.0)).clamp(0.62, 0.88);
     let bar = group / sets as f64;
-    let mut bars: Vec<(PixelBox, String)> = Vec::new();
+    // Each bar's column: its slot of the group, `bar` wide.
+    let mut bars: Vec<(PixelBox, PixelBox, String)> = Vec::new();
     for (k, series) in chart.series.iter().enumerate() {
-        let (fill, hatched) = bar_pattern(k);
         for (i, value) in series.values.iter().enumerate() {
             let Some(figure) = value.filter(|v| v.is_finite()) else {
                 continue;
             };
             let v = axis.hold(figure);
-            let x0 = i as f64 + (1.0 - group) / 2.0 + k as f64 * bar;
-            let x1 = x0 + bar * 0.9;
-            ctx.draw_series(std::iter::once(Rectangle::new(
-                [(x0, 0.0), (x1, v)],
-                fill.filled(),
-            )))
-            .map_err(|e| e.to_string())?;
+            let slot = i as f64 + (1.0 - group) / 2.0 + k as f64 * bar;
+            let x0 = slot + bar * 0.05;
+            let x1 = slot + bar * 0.95;
             let a = ctx.backend_coord(&(x0, v));
             let b = ctx.backend_coord(&(x1, 0.0));
-            if hatched {
-                hatch(&root, a, b, 7)?;
-            }
-            root.draw(&Rectangle::new([a, b], INK.stroke_width(1)))
-                .map_err(|e| e.to_string())?;
+            fill_bar(&root, a, b, k, 7)?;
             let pixels = PixelBox::new(
                 (f64::from(a.0), f64::from(a.1)),
                 (f64::from(b.0), f64::from(b.1)),
             );
-            bars.push((pixels, pct_label(figure)));
+            let c0 = f64::from(ctx.backend_coord(&(slot, 0.0)).0);
+            let c1 = f64::from(ctx.backend_coord(&(slot + bar, 0.0)).0);
+            let column = PixelBox::new((c0, 0.0), (c1, f64::from(SIZE.1)));
+            bars.push((pixels, column, pct_label(figure)));
         }
     }
 
@@ -788,15 +873,16 @@ fn draw_dissipation(chart: &DissipationChart, svg: &mut String) -> Result<(), St
     ))
     .map_err(|e| e.to_string())?;
 
-    // Each bar's figure just above it, moved up clear of the rating and
-    // caution lines when they run through that place.
+    // Each bar's figure just above it, inside the bar's own column, moved
+    // up clear of the rating and caution lines when they run through that
+    // place. A figure wider than its column stands on end.
     let (_, plot_top) = ctx.backend_coord(&(0.0, top));
     let (_, plot_bottom) = ctx.backend_coord(&(0.0, 0.0));
     let mut obstacles = Obstacles::new(PixelBox::new(
         (f64::from(left), f64::from(plot_top)),
         (f64::from(right), f64::from(plot_bottom)),
     ));
-    obstacles.solid = bars.iter().map(|(b, _)| *b).collect();
+    obstacles.solid = bars.iter().map(|(b, _, _)| *b).collect();
     let (l, r) = (f64::from(left), f64::from(right));
     obstacles
         .lines
@@ -814,20 +900,27 @@ fn draw_dissipation(chart: &DissipationChart, svg: &mut String) -> Result<(), St
         Guide::None => {}
     }
     let bands = obstacles.bands.clone();
-    for (pixels, text) in &bars {
+    for (pixels, column, text) in &bars {
         let w = text_width(text, 12) + 4.0;
+        let upright = w > column.x1 - column.x0;
+        let (bw, bh) = if upright {
+            (LABEL_HEIGHT, w)
+        } else {
+            (w, LABEL_HEIGHT)
+        };
         let cx = (pixels.x0 + pixels.x1) / 2.0;
-        let candidates: Vec<PixelBox> = (0..40)
+        let candidates: Vec<PixelBox> = (0..60)
             .map(|k| {
                 let bottom = pixels.y0 - 2.0 - f64::from(k) * 2.0;
-                PixelBox::new(
-                    (cx - w / 2.0, bottom - LABEL_HEIGHT),
-                    (cx + w / 2.0, bottom),
-                )
+                PixelBox::new((cx - bw / 2.0, bottom - bh), (cx + bw / 2.0, bottom))
             })
             .collect();
         let place = obstacles.place(&candidates);
-        draw_label(&root, &place, &bands, text, 12)?;
+        if upright {
+            draw_upright_label(&root, &place, &bands, text, 12)?;
+        } else {
+            draw_label(&root, &place, &bands, text, 12)?;
+        }
     }
 
     // Category labels under the axis.
@@ -841,21 +934,43 @@ fn draw_dissipation(chart: &DissipationChart, svg: &mut String) -> Result<(), St
         .map_err(|e| e.to_string())?;
     }
 
-    // Legend along the top.
-    let mut x = left;
-    for (k, series) in chart.series.iter().enumerate() {
-        legend_swatch_bar(&root, x, 20, k)?;
-        let text = label_text(&series.label, 24);
+    // Legend along the top, wrapped.
+    for (k, ((x, y), text)) in legend.iter().zip(&legend_labels).enumerate() {
+        legend_swatch_bar(&root, *x, *y, k)?;
         root.draw(&Text::new(
             text.clone(),
-            (x + 30, 20),
+            (x + 30, *y),
             anchored(13, HPos::Left, VPos::Center),
         ))
         .map_err(|e| e.to_string())?;
-        x += 30 + 8 * text.chars().count() as i32 + 26;
     }
     root.present().map_err(|e| e.to_string())?;
     Ok(())
+}
+
+/// Like [`draw_label`], for a figure standing on end (read from below).
+fn draw_upright_label(
+    area: &DrawingArea<SVGBackend<'_>, Shift>,
+    b: &PixelBox,
+    bands: &[PixelBox],
+    text: &str,
+    size: u32,
+) -> Result<(), String> {
+    area.draw(&Rectangle::new(b.corners(), PAPER.filled()))
+        .map_err(|e| e.to_string())?;
+    for band in bands {
+        if let Some(part) = b.intersection(band) {
+            area.draw(&Rectangle::new(part.corners(), LIGHT.filled()))
+                .map_err(|e| e.to_string())?;
+        }
+    }
+    let (cx, cy) = b.centre();
+    area.draw(&Text::new(
+        text.to_string(),
+        (cx.round() as i32, cy.round() as i32),
+        anchored(size, HPos::Center, VPos::Center).transform(FontTransform::Rotate270),
+    ))
+    .map_err(|e| e.to_string())
 }
 
 /// How set `k` is marked in the supply chart.
@@ -865,14 +980,22 @@ pub(crate) enum Marker {
     FilledTriangle,
     HollowSquare,
     FilledDiamond,
+    FilledCircle,
+    HollowTriangle,
+    FilledSquare,
+    HollowDiamond,
 }
 
 pub(crate) fn marker(k: usize) -> Marker {
-    match k % 4 {
+    match k % 8 {
         0 => Marker::HollowCircle,
         1 => Marker::FilledTriangle,
         2 => Marker::HollowSquare,
-        _ => Marker::FilledDiamond,
+        3 => Marker::FilledDiamond,
+        4 => Marker::FilledCircle,
+        5 => Marker::HollowTriangle,
+        6 => Marker::FilledSquare,
+        _ => Marker::HollowDiamond,
     }
 }
 
@@ -910,6 +1033,32 @@ pub(crate) fn draw_marker(
             ],
             INK.filled(),
         )),
+        Marker::FilledCircle => area.draw(&Circle::new((x, y), r, INK.filled())),
+        Marker::HollowTriangle => {
+            let pts = vec![
+                (x, y - r - 1),
+                (x + r + 1, y + r),
+                (x - r - 1, y + r),
+                (x, y - r - 1),
+            ];
+            area.draw(&Polygon::new(pts.clone(), PAPER.filled()))
+                .and_then(|_| area.draw(&PathElement::new(pts, INK.stroke_width(2))))
+        }
+        Marker::FilledSquare => area.draw(&Rectangle::new(
+            [(x - r, y - r), (x + r, y + r)],
+            INK.filled(),
+        )),
+        Marker::HollowDiamond => {
+            let pts = vec![
+                (x, y - r - 1),
+                (x + r + 1, y),
+                (x, y + r + 1),
+                (x - r - 1, y),
+                (x, y - r - 1),
+            ];
+            area.draw(&Polygon::new(pts.clone(), PAPER.filled()))
+                .and_then(|_| area.draw(&PathElement::new(pts, INK.stroke_width(2))))
+        }
     };
     result.map_err(|e| e.to_string())
 }
@@ -984,8 +1133,14 @@ fn draw_supply(chart: &SupplyChart, svg: &mut String) -> Result<(), String> {
     };
     let (bottom, top) = (axis.bottom, axis.top);
 
+    let band_text = "expected ± tolerance".to_string();
+    let legend_labels: Vec<String> = std::iter::once(band_text.clone())
+        .chain(chart.series.iter().map(|s| label_text(&s.label, 24)))
+        .collect();
+    let (legend, rows) = legend_layout(&legend_labels, 70, SIZE.0 as i32 - 16, 22);
+
     let mut ctx = ChartBuilder::on(&root)
-        .margin_top(44)
+        .margin_top(legend_margin(rows))
         .margin_right(16)
         .margin_left(8)
         .margin_bottom(6)
@@ -1112,29 +1267,33 @@ fn draw_supply(chart: &SupplyChart, svg: &mut String) -> Result<(), String> {
         .map_err(|e| e.to_string())?;
     }
 
-    // Legend: the band, then each set's marker.
-    let mut x = left;
-    root.draw(&Rectangle::new([(x, 13), (x + 22, 27)], LIGHT.filled()))
-        .map_err(|e| e.to_string())?;
-    dashed(&root, x, x + 22, 20, INK.stroke_width(1))?;
-    let band_text = "expected ± tolerance";
+    // Legend: the band, then each set's marker, wrapped.
+    let (x, y) = legend[0];
+    root.draw(&Rectangle::new(
+        [(x, y - 7), (x + 22, y + 7)],
+        LIGHT.filled(),
+    ))
+    .map_err(|e| e.to_string())?;
+    dashed(&root, x, x + 22, y, INK.stroke_width(1))?;
     root.draw(&Text::new(
         band_text,
-        (x + 30, 20),
+        (x + 30, y),
         anchored(13, HPos::Left, VPos::Center),
     ))
     .map_err(|e| e.to_string())?;
-    x += 30 + 8 * band_text.chars().count() as i32 + 26;
-    for (k, series) in chart.series.iter().enumerate() {
-        draw_marker(&root, (x + 8, 20), marker(k))?;
-        let text = label_text(&series.label, 24);
+    for (k, ((x, y), text)) in legend
+        .iter()
+        .skip(1)
+        .zip(legend_labels.iter().skip(1))
+        .enumerate()
+    {
+        draw_marker(&root, (x + 11, *y), marker(k))?;
         root.draw(&Text::new(
             text.clone(),
-            (x + 22, 20),
+            (x + 30, *y),
             anchored(13, HPos::Left, VPos::Center),
         ))
         .map_err(|e| e.to_string())?;
-        x += 22 + 8 * text.chars().count() as i32 + 26;
     }
     root.present().map_err(|e| e.to_string())?;
     Ok(())

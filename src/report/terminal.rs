@@ -2,8 +2,9 @@
 //! table of valves and of nodes, the stressed parts, then the warnings in
 //! plain sentences. Colour only when asked to (the caller decides).
 
+use super::attention::{self, Attention};
 use super::table::{Align, TextTable};
-use crate::calc::{Findings, SetFindings, Status};
+use crate::calc::{Findings, SetFindings, Status, ValveFindings, Verdict};
 use crate::job::Job;
 use crate::units::{QuantityKind as Q, format_engineering, format_fixed};
 
@@ -40,6 +41,37 @@ pub fn status_word(s: Status) -> String {
         Status::Ok => "ok".to_string(),
         other => other.word().to_uppercase(),
     }
+}
+
+/// A state word ("ok", "caution", "accepted" …) as shown in the terminal.
+fn state_word(state: &str) -> String {
+    match state {
+        "ok" => "ok".to_string(),
+        "accepted" => "accepted".to_string(),
+        other => other.to_uppercase(),
+    }
+}
+
+/// A table's status cell: the state and, when not ok, why.
+fn status_cell(state: &str, why: &str) -> String {
+    if why.is_empty() || state == "ok" {
+        state_word(state)
+    } else {
+        format!("{} ({why})", state_word(state))
+    }
+}
+
+fn verdict_cell(v: &Verdict) -> String {
+    status_cell(attention::state(v), &attention::why(v))
+}
+
+fn valve_cell(v: &ValveFindings) -> String {
+    status_cell(attention::valve_state(v), &attention::valve_why(v))
+}
+
+/// The status a row is painted with: the one that still counts.
+fn paint_status(v: &Verdict) -> Status {
+    if v.accepted { Status::Ok } else { v.status }
 }
 
 fn opt(v: Option<f64>, f: impl Fn(f64) -> String) -> String {
@@ -80,9 +112,19 @@ pub fn render(job: &Job, findings: &Findings, style: &TerminalStyle) -> String {
             .unwrap_or_default()
     ));
 
+    let summary = super::summary::summary(job, findings);
+    for line in summary
+        .found
+        .iter()
+        .chain(&summary.done)
+        .chain(&summary.now)
+    {
+        out.push_str(&format!("{line}\n"));
+    }
+
     for set in &findings.sets {
         out.push('\n');
-        out.push_str(&render_set(set, style));
+        out.push_str(&render_set(findings, set, style));
     }
 
     out.push('\n');
@@ -129,18 +171,83 @@ pub fn render(job: &Job, findings: &Findings, style: &TerminalStyle) -> String {
         out.push('\n');
     }
 
-    if findings.warnings.is_empty() {
-        out.push_str("No warnings: every figure is inside its limits.\n");
+    out.push_str(&render_attention(&attention::attention(findings), style));
+    out
+}
+
+/// The warnings, grouped: the final set's open findings, what was
+/// accepted, job-wide findings, then one line per part or valve for each
+/// earlier set.
+fn render_attention(a: &Attention, style: &TerminalStyle) -> String {
+    let mut out = String::new();
+    let tag = |status: Status, word: &str| paint(style, status, &format!("[{word}]"));
+    let final_words = a
+        .final_label
+        .as_ref()
+        .map(|l| format!("\u{201c}{l}\u{201d}, the final set"))
+        .unwrap_or_else(|| "the final set".to_string());
+    if a.open.is_empty() {
+        out.push_str(&format!(
+            "No open findings in {final_words}: every figure is inside its limits or accepted.\n"
+        ));
     } else {
         out.push_str(&bold(
             style,
-            &format!("Warnings ({})", findings.warnings.len()),
+            &format!("Open findings in {final_words} ({})", a.open.len()),
         ));
         out.push('\n');
-        for w in &findings.warnings {
-            let tag = paint(style, w.status, &format!("[{}]", status_word(w.status)));
-            let set = w.set.as_ref().map(|s| format!("{s}: ")).unwrap_or_default();
-            out.push_str(&format!("  {tag} {set}{}\n", w.message));
+        for e in &a.open {
+            out.push_str(&format!(
+                "  {} {}: {}\n",
+                tag(e.status, &status_word(e.status)),
+                e.subject,
+                e.lines.join(" ")
+            ));
+        }
+    }
+    if !a.accepted.is_empty() {
+        out.push_str(&bold(
+            style,
+            &format!("Accepted by the technician ({})", a.accepted.len()),
+        ));
+        out.push('\n');
+        for e in &a.accepted {
+            out.push_str(&format!(
+                "  [accepted] {} ({}, {}): {} ({}, {})\n",
+                e.subject,
+                e.status.word(),
+                e.brief,
+                e.accepted_reason,
+                e.by,
+                e.date
+            ));
+        }
+    }
+    if !a.job_wide.is_empty() {
+        out.push_str(&bold(style, "For the whole job"));
+        out.push('\n');
+        for e in &a.job_wide {
+            out.push_str(&format!(
+                "  {} {}: {}\n",
+                tag(e.status, &status_word(e.status)),
+                e.subject,
+                e.lines.join(" ")
+            ));
+        }
+    }
+    for h in &a.history {
+        out.push_str(&bold(
+            style,
+            &format!("What was found in \u{201c}{}\u{201d}", h.label),
+        ));
+        out.push('\n');
+        for e in &h.entries {
+            out.push_str(&format!(
+                "  {} {}: {}\n",
+                tag(e.status, &status_word(e.status)),
+                e.subject,
+                e.lines.join(", ")
+            ));
         }
     }
     out
@@ -157,17 +264,22 @@ fn render_painted(t: &TextTable, style: &TerminalStyle, statuses: &[Status]) -> 
     })
 }
 
-fn render_set(set: &SetFindings, style: &TerminalStyle) -> String {
+fn render_set(findings: &Findings, set: &SetFindings, style: &TerminalStyle) -> String {
     let mut out = String::new();
     let date = set
         .date
         .as_ref()
         .map(|d| format!(", {d}"))
         .unwrap_or_default();
+    let final_mark = if set.is_final {
+        ", final: as handed over"
+    } else {
+        ""
+    };
     out.push_str(&bold(
         style,
         &format!(
-            "── {} (mains {}, factor {:.3} to nominal{date}) ──",
+            "── {}{final_mark} (mains {}, factor {:.3} to nominal{date}) ──",
             set.label,
             volts(set.mains_volts),
             set.correction_factor
@@ -175,6 +287,20 @@ fn render_set(set: &SetFindings, style: &TerminalStyle) -> String {
     ));
     out.push('\n');
 
+    for l in &findings.line_up {
+        if let Some(c) = l.changes.iter().find(|c| c.set == set.label) {
+            out.push_str(&format!(
+                "Fitted for these readings: {} {} (line-up: {})\n",
+                l.position, c.valve_type, l.valve_type
+            ));
+        }
+    }
+    for b in &set.bias_controls {
+        match &b.label {
+            Some(l) => out.push_str(&format!("Bias control {l}: {}\n", b.position)),
+            None => out.push_str(&format!("Bias control: {}\n", b.position)),
+        }
+    }
     if !set.valves.is_empty() {
         out.push_str("Valves\n");
         let mut t = TextTable::new(&[
@@ -195,8 +321,12 @@ fn render_set(set: &SetFindings, style: &TerminalStyle) -> String {
                 (Some(ia), false) => format!("Ia {}", ma(ia)),
                 (None, _) => "–".into(),
             };
+            let position = match &v.channel {
+                Some(c) => format!("{} ({c})", v.position),
+                None => v.position.clone(),
+            };
             t.row(vec![
-                v.position.clone(),
+                position,
                 v.valve_type.clone(),
                 v.bias.clone(),
                 opt(v.plate_volts, volts),
@@ -207,10 +337,10 @@ fn render_set(set: &SetFindings, style: &TerminalStyle) -> String {
                 }),
                 opt(v.plate_dissipation_pct, pct),
                 opt(v.high_line_plate_dissipation_pct, pct),
-                status_word(v.status),
+                valve_cell(v),
             ]);
         }
-        let statuses: Vec<Status> = set.valves.iter().map(|v| v.status).collect();
+        let statuses: Vec<Status> = set.valves.iter().map(|v| v.open_status).collect();
         out.push_str(&render_painted(&t, style, &statuses));
         for v in &set.valves {
             if let Some(w) = &v.target_window {
@@ -261,6 +391,26 @@ fn render_set(set: &SetFindings, style: &TerminalStyle) -> String {
         }
     }
 
+    if !set.warm_up.is_empty() {
+        out.push_str("Warm-up (idle current after power-on)\n");
+        let mut t = TextTable::new(&[
+            ("valve", Align::Left),
+            ("after", Align::Right),
+            ("current", Align::Right),
+            ("Pa % max", Align::Right),
+        ]);
+        for p in &set.warm_up {
+            t.row(vec![
+                p.position.clone(),
+                format!("{} min", format_fixed(p.minutes, 1)),
+                opt(p.current_ma, |i| {
+                    format!("{} {}", if p.includes_screen { "Ik" } else { "Ia" }, ma(i))
+                }),
+                opt(p.plate_dissipation_pct, pct),
+            ]);
+        }
+        out.push_str(&t.render_with(2, &|_, _, cell| cell.to_string()));
+    }
     if !set.nodes.is_empty() {
         out.push_str("Supply nodes\n");
         let mut t = TextTable::new(&[
@@ -278,10 +428,10 @@ fn render_set(set: &SetFindings, style: &TerminalStyle) -> String {
                 volts(n.corrected_volts),
                 opt(n.expected_volts, volts),
                 opt(n.deviation_pct, |d| format!("{d:+.1} %")),
-                status_word(n.verdict.status),
+                verdict_cell(&n.verdict),
             ]);
         }
-        let statuses: Vec<Status> = set.nodes.iter().map(|n| n.verdict.status).collect();
+        let statuses: Vec<Status> = set.nodes.iter().map(|n| paint_status(&n.verdict)).collect();
         out.push_str(&render_painted(&t, style, &statuses));
     }
 
@@ -291,7 +441,7 @@ fn render_set(set: &SetFindings, style: &TerminalStyle) -> String {
         .chain(&set.cathode_resistors)
         .chain(&set.screen_resistors)
         .collect();
-    if !resistors.is_empty() || !set.filter_capacitors.is_empty() {
+    if !resistors.is_empty() || !set.filter_capacitors.is_empty() || !set.not_checked.is_empty() {
         out.push_str("Stressed parts\n");
         let mut t = TextTable::new(&[
             ("part", Align::Left),
@@ -309,9 +459,9 @@ fn render_set(set: &SetFindings, style: &TerminalStyle) -> String {
                 crate::calc::resistor_power_words(r.power_w),
                 opt(r.rating_w, |w| format_engineering(w, Q::Power)),
                 opt(r.power_pct, pct),
-                status_word(r.verdict.status),
+                verdict_cell(&r.verdict),
             ]);
-            statuses.push(r.verdict.status);
+            statuses.push(paint_status(&r.verdict));
         }
         for c in &set.filter_capacitors {
             t.row(vec![
@@ -320,9 +470,20 @@ fn render_set(set: &SetFindings, style: &TerminalStyle) -> String {
                 format!("{} peak", volts(c.highest_volts)),
                 volts(c.rating_volts),
                 format!("{} % left", format_fixed(c.margin_pct, 1)),
-                status_word(c.verdict.status),
+                verdict_cell(&c.verdict),
             ]);
-            statuses.push(c.verdict.status);
+            statuses.push(paint_status(&c.verdict));
+        }
+        for n in &set.not_checked {
+            t.row(vec![
+                n.reference.clone(),
+                n.place.clone(),
+                "–".into(),
+                "–".into(),
+                "–".into(),
+                format!("not checked ({})", n.reason),
+            ]);
+            statuses.push(Status::Ok);
         }
         out.push_str(&render_painted(&t, style, &statuses));
     }
@@ -334,7 +495,7 @@ fn render_set(set: &SetFindings, style: &TerminalStyle) -> String {
             r.load_at_least_ma,
             r.rating_ma,
             r.load_pct,
-            paint(style, r.verdict.status, &status_word(r.verdict.status))
+            paint(style, paint_status(&r.verdict), &verdict_cell(&r.verdict))
         ));
     }
     for h in &set.heaters {
@@ -343,7 +504,7 @@ fn render_set(set: &SetFindings, style: &TerminalStyle) -> String {
             volts(h.measured_volts),
             volts(h.nominal_volts),
             h.deviation_pct,
-            paint(style, h.verdict.status, &status_word(h.verdict.status))
+            paint(style, paint_status(&h.verdict), &verdict_cell(&h.verdict))
         ));
     }
     out.push_str(&render_suggestions(set));

@@ -22,6 +22,8 @@ use crate::calc::{
     resistor_power_words,
 };
 use crate::job::{Job, ProtectionClass};
+use crate::report::attention::{self, Attention};
+use crate::report::summary::Summary;
 use crate::units::{QuantityKind as Q, format_engineering, format_fixed, format_sig};
 
 /// The footer shows at most this much of the job id (the header has it all).
@@ -31,6 +33,11 @@ pub const FOOTER_ID_CHARS: usize = 40;
 pub const DISSIPATION_PLOT: &str = "plots/plate-dissipation.svg";
 pub const SUPPLY_PLOT: &str = "plots/supply-chain.svg";
 pub const RESPONSE_PLOT: &str = "plots/frequency-response.svg";
+
+/// The path of set `index`'s warm-up chart (counting from 0).
+pub fn warm_up_plot(index: usize) -> String {
+    format!("plots/warm-up-{}.svg", index + 1)
+}
 
 /// The shop block at the head of page 1. Until shops can keep a profile,
 /// every document carries the same neutral block.
@@ -59,7 +66,13 @@ pub struct HandoverContext {
     pub unit: UnitInfo,
     pub customer: Option<CustomerInfo>,
     pub mains: MainsInfo,
+    /// What was wrong, what was done and the state now, in plain words.
+    pub summary: SummaryContext,
     pub glance: Glance,
+    /// What needs attention, grouped: the final set's open findings, the
+    /// accepted ones, job-wide ones, then one line per part or valve for
+    /// each earlier set.
+    pub attention: AttentionContext,
     pub complaint: Option<String>,
     pub findings: Option<String>,
     pub work: Option<String>,
@@ -70,8 +83,6 @@ pub struct HandoverContext {
     pub sets: Vec<SetContext>,
     pub plots: Plots,
     pub safety: SafetyContext,
-    /// Warnings that belong to no measurement set.
-    pub job_warnings: Vec<WarningRow>,
     pub method: Method,
     pub footer: Footer,
 }
@@ -134,10 +145,71 @@ pub struct Glance {
 #[derive(Debug, Clone, Serialize)]
 pub struct GlanceRow {
     pub title: String,
-    /// ok, cold, caution, over, or none when nothing was measured.
+    /// ok, cold, caution, over, accepted (every figure off its limit was
+    /// accepted), or none when nothing was measured.
     pub status: String,
-    /// The worst figure in words.
+    /// The worst figure that still counts in words, or what was accepted.
     pub worst: String,
+}
+
+/// The plain-words summary at the head of page 1.
+#[derive(Debug, Clone, Serialize)]
+pub struct SummaryContext {
+    /// What the first readings showed.
+    pub found: Vec<String>,
+    /// What was done.
+    pub done: Vec<String>,
+    /// The state the unit leaves in.
+    pub now: Vec<String>,
+    /// True when nothing still counts against the unit.
+    pub healthy: bool,
+}
+
+/// What needs attention, grouped.
+#[derive(Debug, Clone, Serialize)]
+pub struct AttentionContext {
+    /// The final set's label.
+    pub final_label: Option<String>,
+    /// Open findings of the final set, one entry per part or valve.
+    pub open: Vec<EntryRow>,
+    /// Findings the technician accepted.
+    pub accepted: Vec<AcceptedRow>,
+    /// Findings of no set (safety tests, the sign-off, the data).
+    pub job_wide: Vec<EntryRow>,
+    /// Earlier sets: what was found, one line per part or valve.
+    pub history: Vec<HistoryRow>,
+}
+
+/// One part or valve and what is wrong with it.
+#[derive(Debug, Clone, Serialize)]
+pub struct EntryRow {
+    pub subject: String,
+    pub status: String,
+    /// Sentences (final set) or short figures (earlier sets), joined.
+    pub text: String,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct AcceptedRow {
+    /// "V3 (6V6GT) screen voltage".
+    pub subject: String,
+    /// The status the figure keeps.
+    pub status: String,
+    /// The deciding figure: "Vg2 111 % of max".
+    pub figure: String,
+    /// Why it is off its limit.
+    pub reason: String,
+    /// Why the technician accepted it.
+    pub accepted_reason: String,
+    pub by: String,
+    /// In words.
+    pub date: String,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct HistoryRow {
+    pub label: String,
+    pub entries: Vec<EntryRow>,
 }
 
 #[derive(Debug, Clone, Serialize)]
@@ -147,11 +219,17 @@ pub struct LineUpRow {
     pub role: String,
     /// The ratings row the type resolved to, when it differs or is known.
     pub rated_as: Option<String>,
+    pub channel: Option<String>,
+    /// Other types fitted in some sets: "5AR4 in “as left”".
+    pub changes: Vec<String>,
 }
 
 #[derive(Debug, Clone, Serialize)]
 pub struct PartRow {
-    pub reference: String,
+    /// The circuit reference, or none for a part without one.
+    pub reference: Option<String>,
+    /// What the part is ("mains cord"), when the job says.
+    pub what: Option<String>,
     pub was: Option<String>,
     pub now: Option<String>,
     pub reason: Option<String>,
@@ -187,6 +265,18 @@ pub struct ModFigureRow {
 #[derive(Debug, Clone, Serialize)]
 pub struct SetContext {
     pub label: String,
+    /// The state the unit is handed over in.
+    pub is_final: bool,
+    /// Where the bias controls were set: "V3, V4 bias: 2 o'clock".
+    pub bias_controls: Vec<String>,
+    /// Valves fitted with another type in this set: "V5: 5AR4 (line-up:
+    /// 5Y3GT)".
+    pub type_changes: Vec<String>,
+    /// Whether any valve or node of the set names a channel (the tables
+    /// then group their rows by channel).
+    pub has_channels: bool,
+    /// Idle current during the warm-up, or none.
+    pub warm_up: Option<WarmUpContext>,
     pub date: Option<String>,
     /// "124 V".
     pub mains: String,
@@ -205,17 +295,51 @@ pub struct SetContext {
     /// A valve rectifier's load against its rating, where it can be judged.
     pub rectifier: Option<RectifierRow>,
     pub heaters: Vec<HeaterRow>,
+    /// Droppers (`kind` "dropper") and filter capacitors (`kind`
+    /// "filter capacitor") these readings cannot check, and why.
+    pub not_checked: Vec<NotCheckedRow>,
     /// Cathode resistors that would bring the valves to the target share
     /// of their rating (estimates).
     pub suggestions: Vec<SuggestionRow>,
     /// Output power, hum and noise, response and gain, when read.
     pub bench: Option<BenchContext>,
-    pub warnings: Vec<WarningRow>,
+}
+
+/// Idle currents at times during a warm-up: a row per time, a column per
+/// valve.
+#[derive(Debug, Clone, Serialize)]
+pub struct WarmUpContext {
+    pub valves: Vec<String>,
+    pub rows: Vec<WarmUpRow>,
+    /// "Ik" when some current includes the screen current, else "Ia".
+    pub current_kind: String,
+    /// The chart's path, or none.
+    pub plot: Option<String>,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct WarmUpRow {
+    /// "5 min", "30 s".
+    pub time: String,
+    /// mA to 0.1 per valve, "–" where that valve was not read then.
+    pub currents: Vec<String>,
+}
+
+#[derive(Debug, Clone, Serialize)]
+pub struct NotCheckedRow {
+    pub reference: String,
+    pub kind: String,
+    pub place: String,
+    /// "B+3 not measured".
+    pub reason: String,
 }
 
 #[derive(Debug, Clone, Serialize)]
 pub struct NodeRow {
     pub name: String,
+    pub channel: Option<String>,
+    /// As [`ValveRow::group`].
+    pub group: Option<String>,
     pub label: Option<String>,
     pub measured: String,
     pub corrected: String,
@@ -224,13 +348,20 @@ pub struct NodeRow {
     pub deviation: Option<String>,
     /// "±10 %".
     pub tolerance: String,
+    /// ok, cold, caution, over or accepted.
     pub status: String,
+    /// When not ok, the deciding figure in a few words.
+    pub why: String,
     pub reason: String,
 }
 
 #[derive(Debug, Clone, Serialize)]
 pub struct ValveRow {
     pub position: String,
+    pub channel: Option<String>,
+    /// On the first row of a channel's group, when the set names channels:
+    /// the group's heading ("Channel: left", "Shared").
+    pub group: Option<String>,
     pub type_name: String,
     pub role: String,
     pub bias: String,
@@ -253,7 +384,10 @@ pub struct ValveRow {
     /// Screen dissipation, W to 0.1.
     pub pg2: Option<String>,
     pub pg2_pct: Option<String>,
+    /// The worst state that still counts, or accepted.
     pub status: String,
+    /// When not ok, the deciding figures in a few words ("screen 196 %").
+    pub why: String,
     /// The worst check's reason.
     pub reason: String,
 }
@@ -301,7 +435,10 @@ pub struct ResistorRow {
     pub power_pct: Option<String>,
     pub high_line_power: String,
     pub high_line_pct: Option<String>,
+    /// ok, cold, caution, over or accepted.
     pub status: String,
+    /// When not ok, the deciding figure in a few words.
+    pub why: String,
     pub reason: String,
 }
 
@@ -317,7 +454,10 @@ pub struct CapacitorRow {
     pub highest: String,
     /// Headroom left on the rating, "15.8 %".
     pub margin: String,
+    /// ok, cold, caution, over or accepted.
     pub status: String,
+    /// When not ok, the deciding figure in a few words.
+    pub why: String,
     pub reason: String,
 }
 
@@ -336,6 +476,7 @@ pub struct RectifierRow {
     /// "59".
     pub load_pct: String,
     pub status: String,
+    pub why: String,
     pub reason: String,
     /// The rule that decided the status, as a sentence.
     pub threshold: String,
@@ -349,15 +490,11 @@ pub struct HeaterRow {
     pub deviation: String,
     pub corrected: String,
     pub corrected_deviation: String,
+    /// ok, cold, caution, over or accepted.
     pub status: String,
+    /// When not ok, the deciding figure in a few words.
+    pub why: String,
     pub reason: String,
-}
-
-#[derive(Debug, Clone, Serialize)]
-pub struct WarningRow {
-    pub subject: String,
-    pub status: String,
-    pub message: String,
 }
 
 /// Paths of the charts in the typesetting folder, when there is something
@@ -462,6 +599,8 @@ pub struct ContextInputs<'a> {
     pub job_digest: &'a str,
     pub has_dissipation_plot: bool,
     pub has_supply_plot: bool,
+    /// The sets (by index) that have a warm-up chart.
+    pub warm_up_plots: Vec<usize>,
     pub has_response_plot: bool,
 }
 
@@ -628,7 +767,11 @@ pub fn build_context(
     let sets: Vec<SetContext> = findings
         .sets
         .iter()
-        .map(|set| set_context(findings, set))
+        .enumerate()
+        .map(|(i, set)| {
+            let plot = inputs.warm_up_plots.contains(&i).then(|| warm_up_plot(i));
+            set_context(findings, set, plot)
+        })
         .collect();
     HandoverContext {
         document: DocumentInfo {
@@ -660,25 +803,26 @@ pub fn build_context(
             contacts: c.contacts.clone(),
         }),
         mains,
+        summary: summary_context(&crate::report::summary::summary(job, findings)),
         glance: glance(findings),
+        attention: attention_context(&attention::attention(findings)),
         complaint: job.complaint.as_deref().map(reflow),
         findings: job.findings.as_deref().map(reflow),
         work: job.work.as_deref().map(reflow),
-        valves: job
-            .valves
+        valves: findings
+            .line_up
             .iter()
-            .map(|v| {
-                let rated_as = findings
-                    .ratings_used
+            .map(|v| LineUpRow {
+                position: v.position.clone(),
+                type_name: v.valve_type.clone(),
+                role: v.role.clone(),
+                rated_as: v.rating_name.clone(),
+                channel: v.channel.clone(),
+                changes: v
+                    .changes
                     .iter()
-                    .find(|r| r.positions.contains(&v.position.value))
-                    .map(|r| r.name.clone());
-                LineUpRow {
-                    position: v.position.value.clone(),
-                    type_name: v.type_name.value.clone(),
-                    role: v.role.words().to_string(),
-                    rated_as,
-                }
+                    .map(|c| format!("{} in \u{201c}{}\u{201d}", c.valve_type, c.set))
+                    .collect(),
             })
             .collect(),
         parts: job
@@ -686,6 +830,7 @@ pub fn build_context(
             .iter()
             .map(|p| PartRow {
                 reference: p.reference.clone(),
+                what: p.what.clone(),
                 was: p.was.as_deref().map(glue_units),
                 now: p.now.as_deref().map(glue_units),
                 reason: p.reason.as_deref().map(|r| glue_units(&reflow(r))),
@@ -714,16 +859,6 @@ pub fn build_context(
         sets,
         plots: plots(findings, inputs),
         safety: safety(job, findings),
-        job_warnings: findings
-            .warnings
-            .iter()
-            .filter(|w| w.set.is_none())
-            .map(|w| WarningRow {
-                subject: w.subject.clone(),
-                status: status(w.status),
-                message: glue_units(&w.message),
-            })
-            .collect(),
         method: method(findings),
         footer: Footer {
             job_id: crate::report::plots::label_text(&job.info.id, FOOTER_ID_CHARS),
@@ -735,7 +870,7 @@ pub fn build_context(
 }
 
 fn glance(findings: &Findings) -> Glance {
-    let basis = match findings.sets.last() {
+    let basis = match findings.sets.iter().find(|s| s.is_final) {
         Some(set) => {
             let date = set
                 .date
@@ -760,7 +895,9 @@ fn glance(findings: &Findings) -> Glance {
         .iter()
         .map(|f| {
             overall = overall.worst(f.status);
-            let state = if f.measured || f.status != Status::Ok {
+            let state = if f.status == Status::Ok && !f.accepted.is_empty() {
+                "accepted".to_string()
+            } else if f.measured || f.status != Status::Ok {
                 status(f.status)
             } else {
                 "none".to_string()
@@ -779,7 +916,78 @@ fn glance(findings: &Findings) -> Glance {
     }
 }
 
-fn set_context(findings: &Findings, set: &SetFindings) -> SetContext {
+/// The channels in the order the line-up first names them; rows without a
+/// channel come first.
+fn channel_order(findings: &Findings, channel: &Option<String>) -> usize {
+    match channel {
+        None => 0,
+        Some(c) => {
+            1 + findings
+                .line_up
+                .iter()
+                .filter_map(|v| v.channel.as_ref())
+                .position(|x| x == c)
+                .unwrap_or(usize::MAX - 1)
+        }
+    }
+}
+
+/// A time in minutes as a technician writes it: "30 s", "5 min", "1.5 h".
+fn minutes_words(m: f64) -> String {
+    if m < 1.0 {
+        format!("{} s", format_sig(m * 60.0, 3))
+    } else if m < 120.0 {
+        format!("{} min", format_sig(m, 3))
+    } else {
+        format!("{} h", format_sig(m / 60.0, 3))
+    }
+}
+
+fn warm_up_context(set: &SetFindings, plot: Option<String>) -> Option<WarmUpContext> {
+    if set.warm_up.is_empty() {
+        return None;
+    }
+    let mut valves: Vec<String> = Vec::new();
+    let mut times: Vec<f64> = Vec::new();
+    for p in &set.warm_up {
+        if !valves.contains(&p.position) {
+            valves.push(p.position.clone());
+        }
+        if !times.iter().any(|t| (t - p.minutes).abs() < 1e-9) {
+            times.push(p.minutes);
+        }
+    }
+    times.sort_by(f64::total_cmp);
+    let rows = times
+        .iter()
+        .map(|t| WarmUpRow {
+            time: minutes_words(*t),
+            currents: valves
+                .iter()
+                .map(|v| {
+                    set.warm_up
+                        .iter()
+                        .find(|p| &p.position == v && (p.minutes - t).abs() < 1e-9)
+                        .and_then(|p| p.current_ma)
+                        .map(|i| fixed(i, 1))
+                        .unwrap_or_else(|| "–".to_string())
+                })
+                .collect(),
+        })
+        .collect();
+    Some(WarmUpContext {
+        valves,
+        rows,
+        current_kind: if set.warm_up.iter().any(|p| p.includes_screen) {
+            "Ik".into()
+        } else {
+            "Ia".into()
+        },
+        plot,
+    })
+}
+
+fn set_context(findings: &Findings, set: &SetFindings, warm_up_plot: Option<String>) -> SetContext {
     let nominal = findings.mains.nominal_volts;
     let date = set
         .date
@@ -811,14 +1019,68 @@ fn set_context(findings: &Findings, set: &SetFindings) -> SetContext {
                 .map(|r| resistor_row(r, "screen resistor")),
         )
         .collect();
+    let mut valves: Vec<ValveRow> = set.valves.iter().map(valve_row).collect();
+    valves.sort_by_key(|v| channel_order(findings, &v.channel));
+    let mut nodes: Vec<NodeRow> = set.nodes.iter().map(node_row).collect();
+    nodes.sort_by_key(|n| channel_order(findings, &n.channel));
+    let has_channels =
+        valves.iter().any(|v| v.channel.is_some()) || nodes.iter().any(|n| n.channel.is_some());
+    if has_channels {
+        let heading = |c: &Option<String>| match c {
+            Some(c) => format!("Channel: {c}"),
+            None => "Shared".to_string(),
+        };
+        for i in 0..valves.len() {
+            if i == 0 || valves[i].channel != valves[i - 1].channel {
+                valves[i].group = Some(heading(&valves[i].channel));
+            }
+        }
+        for i in 0..nodes.len() {
+            if i == 0 || nodes[i].channel != nodes[i - 1].channel {
+                nodes[i].group = Some(heading(&nodes[i].channel));
+            }
+        }
+    }
+    let type_changes = set
+        .valves
+        .iter()
+        .map(|v| (&v.position, &v.valve_type))
+        .chain(findings.line_up.iter().flat_map(|l| {
+            l.changes
+                .iter()
+                .filter(|c| c.set == set.label)
+                .map(move |c| (&l.position, &c.valve_type))
+        }))
+        .filter_map(|(pos, t)| {
+            let l = findings.line_up.iter().find(|l| &l.position == pos)?;
+            (&l.valve_type != t).then(|| format!("{pos}: {t} (line-up: {})", l.valve_type))
+        })
+        .fold(Vec::new(), |mut acc: Vec<String>, x| {
+            if !acc.contains(&x) {
+                acc.push(x);
+            }
+            acc
+        });
     SetContext {
         label: set.label.clone(),
+        is_final: set.is_final,
+        bias_controls: set
+            .bias_controls
+            .iter()
+            .map(|b| match &b.label {
+                Some(l) => format!("{l}: {}", b.position),
+                None => b.position.clone(),
+            })
+            .collect(),
+        type_changes,
+        has_channels,
+        warm_up: warm_up_context(set, warm_up_plot),
         date,
         mains: volts(set.mains_volts),
         factor: format!("{:.3}", set.correction_factor),
         nominal: volts(nominal),
-        nodes: set.nodes.iter().map(node_row).collect(),
-        valves: set.valves.iter().map(valve_row).collect(),
+        nodes,
+        valves,
         conservative: set
             .valves
             .iter()
@@ -838,14 +1100,82 @@ fn set_context(findings: &Findings, set: &SetFindings) -> SetContext {
             .map(|s| bench::suggestion_row(s, findings.settings.cathode_bias_caution_pct))
             .collect(),
         bench: bench::bench_context(&set.bench),
-        warnings: findings
-            .warnings
+        not_checked: set
+            .not_checked
             .iter()
-            .filter(|w| w.set.as_deref() == Some(set.label.as_str()))
-            .map(|w| WarningRow {
-                subject: w.subject.clone(),
-                status: status(w.status),
-                message: glue_units(&w.message),
+            .map(|n| NotCheckedRow {
+                reference: n.reference.clone(),
+                kind: n.kind.replace('_', " "),
+                place: n.place.clone(),
+                reason: n.reason.clone(),
+            })
+            .collect(),
+    }
+}
+
+/// A figure's few words of why, with a typographic minus.
+fn why(v: &crate::calc::Verdict) -> String {
+    typographic_minus(&glue_units(&attention::why(v)))
+}
+
+/// Turns a hyphen that stands for a minus sign (before a digit, at the
+/// start or after a space or bracket) into U+2212.
+fn typographic_minus(s: &str) -> String {
+    let chars: Vec<char> = s.chars().collect();
+    let mut out = String::with_capacity(s.len());
+    for (i, &c) in chars.iter().enumerate() {
+        let before_ok = i == 0 || matches!(chars[i - 1], ' ' | '\u{a0}' | '(');
+        let digit_after = chars.get(i + 1).is_some_and(char::is_ascii_digit);
+        if c == '-' && before_ok && digit_after {
+            out.push('\u{2212}');
+        } else {
+            out.push(c);
+        }
+    }
+    out
+}
+
+fn summary_context(s: &Summary) -> SummaryContext {
+    let tidy = |v: &Vec<String>| v.iter().map(|l| glue_units(l)).collect();
+    SummaryContext {
+        found: tidy(&s.found),
+        done: tidy(&s.done),
+        now: tidy(&s.now),
+        healthy: s.healthy,
+    }
+}
+
+fn attention_context(a: &Attention) -> AttentionContext {
+    let entry = |e: &attention::Entry, joiner: &str| EntryRow {
+        subject: e.subject.clone(),
+        status: status(e.status),
+        text: typographic_minus(&glue_units(&e.lines.join(joiner))),
+    };
+    AttentionContext {
+        final_label: a.final_label.clone(),
+        open: a.open.iter().map(|e| entry(e, " ")).collect(),
+        accepted: a
+            .accepted
+            .iter()
+            .map(|e| AcceptedRow {
+                subject: e.subject.clone(),
+                status: status(e.status),
+                figure: typographic_minus(&glue_units(&e.brief)),
+                reason: glue_units(&e.reason),
+                accepted_reason: glue_units(&e.accepted_reason),
+                by: e.by.clone(),
+                date: NaiveDate::parse_from_str(&e.date, "%Y-%m-%d")
+                    .map(date_words)
+                    .unwrap_or_else(|_| e.date.clone()),
+            })
+            .collect(),
+        job_wide: a.job_wide.iter().map(|e| entry(e, " ")).collect(),
+        history: a
+            .history
+            .iter()
+            .map(|h| HistoryRow {
+                label: h.label.clone(),
+                entries: h.entries.iter().map(|e| entry(e, ", ")).collect(),
             })
             .collect(),
     }
@@ -854,13 +1184,16 @@ fn set_context(findings: &Findings, set: &SetFindings) -> SetContext {
 fn node_row(n: &NodeFindings) -> NodeRow {
     NodeRow {
         name: n.name.clone(),
+        channel: n.channel.clone(),
+        group: None,
         label: n.label.clone(),
         measured: sig3(n.measured_volts),
         corrected: sig3(n.corrected_volts),
         expected: n.expected_volts.map(sig3),
         deviation: n.deviation_pct.map(signed_pct),
         tolerance: format!("±{} %", format_sig(n.tolerance_pct, 3)),
-        status: status(n.verdict.status),
+        status: attention::state(&n.verdict).to_string(),
+        why: why(&n.verdict),
         reason: sentence(&n.verdict.reason),
     }
 }
@@ -878,6 +1211,8 @@ fn valve_row(v: &ValveFindings) -> ValveRow {
         });
     ValveRow {
         position: v.position.clone(),
+        channel: v.channel.clone(),
+        group: None,
         type_name: v.valve_type.clone(),
         role: v.role.replace('_', " "),
         bias: v.bias.clone(),
@@ -898,7 +1233,8 @@ fn valve_row(v: &ValveFindings) -> ValveRow {
         pa_high_line_pct: v.high_line_plate_dissipation_pct.map(pct0),
         pg2: v.screen_dissipation_w.map(|w| fixed(w, 1)),
         pg2_pct: v.screen_dissipation_pct.map(pct0),
-        status: status(v.status),
+        status: attention::valve_state(v).to_string(),
+        why: typographic_minus(&glue_units(&attention::valve_why(v))),
         reason: worst
             .map(|c| sentence(&c.verdict.reason))
             .unwrap_or_default(),
@@ -986,7 +1322,8 @@ fn resistor_row(r: &ResistorFindings, kind: &str) -> ResistorRow {
         power_pct: r.power_pct.map(pct0),
         high_line_power: resistor_power_words(r.high_line_power_w),
         high_line_pct: r.high_line_power_pct.map(pct0),
-        status: status(r.verdict.status),
+        status: attention::state(&r.verdict).to_string(),
+        why: why(&r.verdict),
         reason: sentence(&r.verdict.reason),
     }
 }
@@ -1002,7 +1339,8 @@ fn capacitor_row(c: &CapacitorFindings) -> CapacitorRow {
         cold_start: c.cold_start_peak_volts.map(sig3),
         highest: sig3(c.highest_volts),
         margin: format!("{} %", fixed(c.margin_pct, 1)),
-        status: status(c.verdict.status),
+        status: attention::state(&c.verdict).to_string(),
+        why: why(&c.verdict),
         reason: sentence(&c.verdict.reason),
     }
 }
@@ -1025,7 +1363,8 @@ fn rectifier_row(r: &RectifierFindings, set: &SetFindings) -> RectifierRow {
         load: format!("{} mA", fixed(r.load_at_least_ma, 1)),
         rating: format!("{} mA", format_sig(r.rating_ma, 3)),
         load_pct: pct0(r.load_pct),
-        status: status(r.verdict.status),
+        status: attention::state(&r.verdict).to_string(),
+        why: why(&r.verdict),
         reason: sentence(&r.verdict.reason),
         threshold: sentence(&r.verdict.threshold),
     }
@@ -1065,7 +1404,8 @@ fn heater_row(h: &HeaterFindings) -> HeaterRow {
         deviation: signed_pct(h.deviation_pct),
         corrected: minus(format_engineering_3(h.corrected_volts)),
         corrected_deviation: signed_pct(h.corrected_deviation_pct),
-        status: status(h.verdict.status),
+        status: attention::state(&h.verdict).to_string(),
+        why: why(&h.verdict),
         reason: sentence(&h.verdict.reason),
     }
 }
@@ -1140,7 +1480,7 @@ fn safety(job: &Job, findings: &Findings) -> SafetyContext {
                 } else {
                     "fail".into()
                 },
-                status: status(t.verdict.status),
+                status: attention::state(&t.verdict).to_string(),
             })
             .collect(),
     }

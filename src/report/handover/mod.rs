@@ -16,15 +16,16 @@ use minijinja::Value;
 use sha2::{Digest, Sha256};
 
 pub use context::{
-    BenchContext, GainRow, HumNoiseRow, OutputPowerRow, ResponsePointRow, ResponseRow,
-    SuggestionOption, SuggestionRow,
+    AcceptedRow, AttentionContext, CapacitorRow, ContextInputs, CustomerInfo, DISSIPATION_PLOT,
+    DocumentInfo, EntryRow, Footer, Glance, GlanceRow, HandoverContext, HeaterRow, HistoryRow,
+    JobInfo, LineUpRow, MainsInfo, Method, ModFigureRow, ModRow, NodeRow, NotCheckedRow, PartRow,
+    Plots, RESPONSE_PLOT, RatingRow, RectifierRow, ResistorRow, SUPPLY_PLOT, SafetyContext,
+    SafetyRow, SetContext, ShopBlock, SummaryContext, UnitInfo, ValveRow, WarmUpContext, WarmUpRow,
+    WindowReading, WindowRow, build_context, date_words, warm_up_plot,
 };
 pub use context::{
-    CapacitorRow, ContextInputs, CustomerInfo, DISSIPATION_PLOT, DocumentInfo, Footer, Glance,
-    GlanceRow, HandoverContext, HeaterRow, JobInfo, LineUpRow, MainsInfo, Method, ModFigureRow,
-    ModRow, NodeRow, PartRow, Plots, RESPONSE_PLOT, RatingRow, RectifierRow, ResistorRow,
-    SUPPLY_PLOT, SafetyContext, SafetyRow, SetContext, ShopBlock, UnitInfo, ValveRow, WarningRow,
-    WindowReading, WindowRow, build_context, date_words,
+    BenchContext, GainRow, HumNoiseRow, OutputPowerRow, ResponsePointRow, ResponseRow,
+    SuggestionOption, SuggestionRow,
 };
 
 use super::plots::{self, PlotError};
@@ -186,6 +187,13 @@ pub fn build(
     if let Some(chart) = &response {
         sandbox.insert(RESPONSE_PLOT, response_chart::response_svg(chart)?)?;
     }
+    let mut warm_up_plots = Vec::new();
+    for (i, set) in input.findings.sets.iter().enumerate() {
+        if let Some(chart) = plots::warm_up_chart(set) {
+            sandbox.insert(warm_up_plot(i), plots::warm_up_svg(&chart)?)?;
+            warm_up_plots.push(i);
+        }
+    }
     let digest = job_digest(input.job_text);
     let inputs = ContextInputs {
         shop: input.shop.clone(),
@@ -194,6 +202,7 @@ pub fn build(
         job_digest: &digest,
         has_dissipation_plot: dissipation.is_some(),
         has_supply_plot: supply.is_some(),
+        warm_up_plots,
         has_response_plot: response.is_some(),
     };
     let context = build_context(input.job, input.findings, &inputs);
@@ -504,6 +513,17 @@ mod tests {
             }
             other => panic!("expected a template error, got {other:?}"),
         }
+    }
+
+    #[test]
+    fn the_checked_phrases_are_the_notices_own_words() {
+        for phrase in NOTICE_PHRASES {
+            assert!(
+                NOTICE_TEXT.contains(phrase),
+                "{phrase} is not in mains-safety.typ"
+            );
+        }
+        assert_eq!(notice_required().phrases.len(), NOTICE_PHRASES.len());
     }
 
     #[test]

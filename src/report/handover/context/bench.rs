@@ -4,7 +4,7 @@
 
 use serde::Serialize;
 
-use super::{fixed, minus, pct0, sentence, status, volts};
+use super::{fixed, minus, pct0, sentence, volts};
 use crate::calc::{
     BenchFindings, CathodeResistorSuggestion, GainFindings, HumNoiseFindings, OutputPowerFindings,
     ResponseFindings,
@@ -38,7 +38,10 @@ pub struct OutputPowerRow {
     pub pct_of_rated: Option<String>,
     /// "15 W".
     pub rated: Option<String>,
+    /// ok, caution … or accepted.
     pub status: String,
+    /// When not ok, the deciding figure in a few words.
+    pub why: String,
     pub reason: String,
     pub threshold: String,
 }
@@ -58,7 +61,10 @@ pub struct HumNoiseRow {
     pub below_full: Option<String>,
     /// What it was compared with: "measured 14.0 W", "rated 15 W".
     pub against: Option<String>,
+    /// ok, caution … or accepted.
     pub status: String,
+    /// When not ok, the deciding figure in a few words.
+    pub why: String,
     pub reason: String,
 }
 
@@ -204,7 +210,8 @@ fn output_power_row(p: &OutputPowerFindings) -> OutputPowerRow {
             .output_power_pct_of_rated
             .map(|x| format!("{} %", pct0(x))),
         rated: p.rated_power_w.map(|w| format_engineering(w, Q::Power)),
-        status: status(p.verdict.status),
+        status: crate::report::attention::state(&p.verdict).to_string(),
+        why: super::why(&p.verdict),
         reason: sentence(&p.verdict.reason),
         threshold: sentence(&p.verdict.threshold),
     }
@@ -226,7 +233,8 @@ fn hum_noise_row(h: &HumNoiseFindings) -> HumNoiseRow {
             (Some(_), Some(w)) => Some(format!("measured {}", watts(w))),
             _ => None,
         },
-        status: status(h.verdict.status),
+        status: crate::report::attention::state(&h.verdict).to_string(),
+        why: super::why(&h.verdict),
         reason: sentence(&h.verdict.reason),
     }
 }

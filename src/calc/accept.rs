@@ -1,0 +1,136 @@
+//! The technician's judgement: marks the findings a job's `accepted` block
+//! names as accepted, with the reason, the name and the date. An accepted
+//! finding keeps its figures and its status; it only stops counting against
+//! the unit (the at-a-glance panel, `check --strict`, the headline).
+
+use super::findings::{SafetyFinding, SetFindings};
+use super::status::Verdict;
+use crate::job::{Acceptance, AcceptedKind};
+
+/// Marks the verdicts of `set` that `acceptances` name. `matched[i]` is set
+/// when acceptance `i` accepted at least one finding.
+pub(crate) fn apply_to_set(
+    acceptances: &[Acceptance],
+    set: &mut SetFindings,
+    matched: &mut [bool],
+) {
+    for (i, a) in acceptances.iter().enumerate() {
+        if a.set.as_ref().is_some_and(|s| s.value != set.label) {
+            continue;
+        }
+        let name = a.name.as_ref().map(|n| n.value.as_str());
+        let date = a.date.to_string();
+        let mut accept = |v: &mut Verdict| {
+            if v.accept(&a.reason, &a.by, &date) {
+                matched[i] = true;
+            }
+        };
+        match a.kind {
+            AcceptedKind::Valve => {
+                let check = a.check.as_ref().map(|c| c.value.replace('-', "_"));
+                for v in set
+                    .valves
+                    .iter_mut()
+                    .filter(|v| Some(v.position.as_str()) == name)
+                {
+                    for c in v
+                        .checks
+                        .iter_mut()
+                        .filter(|c| check.as_deref().is_none_or(|k| k == c.check))
+                    {
+                        accept(&mut c.verdict);
+                    }
+                    v.refresh_open_status();
+                }
+                if let Some(r) = set.rectifier.as_mut()
+                    && Some(r.position.as_str()) == name
+                    && check.as_deref().is_none_or(|k| k == "rectifier_load")
+                {
+                    accept(&mut r.verdict);
+                }
+            }
+            AcceptedKind::Node => {
+                for n in set
+                    .nodes
+                    .iter_mut()
+                    .filter(|n| Some(n.name.as_str()) == name)
+                {
+                    accept(&mut n.verdict);
+                }
+            }
+            AcceptedKind::Part => {
+                for r in set
+                    .droppers
+                    .iter_mut()
+                    .chain(set.cathode_resistors.iter_mut())
+                    .chain(set.screen_resistors.iter_mut())
+                    .filter(|r| Some(r.reference.as_str()) == name)
+                {
+                    accept(&mut r.verdict);
+                }
+                for c in set
+                    .filter_capacitors
+                    .iter_mut()
+                    .filter(|c| Some(c.reference.as_str()) == name)
+                {
+                    accept(&mut c.verdict);
+                }
+            }
+            AcceptedKind::Heater => {
+                for h in set
+                    .heaters
+                    .iter_mut()
+                    .filter(|h| name.is_none() || h.label.as_deref() == name)
+                {
+                    accept(&mut h.verdict);
+                }
+            }
+            AcceptedKind::Safety => {}
+        }
+    }
+}
+
+/// Marks the safety tests the acceptances name.
+pub(crate) fn apply_to_safety(
+    acceptances: &[Acceptance],
+    safety: &mut [SafetyFinding],
+    matched: &mut [bool],
+) {
+    for (i, a) in acceptances.iter().enumerate() {
+        if a.kind != AcceptedKind::Safety {
+            continue;
+        }
+        let Some(name) = &a.name else { continue };
+        let date = a.date.to_string();
+        for s in safety
+            .iter_mut()
+            .filter(|s| s.test.replace('_', "-") == name.value)
+        {
+            if s.verdict.accept(&a.reason, &a.by, &date) {
+                matched[i] = true;
+            }
+        }
+    }
+}
+
+/// What an acceptance names, in words: "V3 screen voltage", "node B+4".
+pub(crate) fn words(a: &Acceptance) -> String {
+    let name = a.name.as_ref().map(|n| n.value.as_str());
+    let base = match (a.kind, name) {
+        (AcceptedKind::Valve, Some(n)) => n.to_string(),
+        (AcceptedKind::Node, Some(n)) => format!("node {n}"),
+        (AcceptedKind::Part, Some(n)) => n.to_string(),
+        (AcceptedKind::Heater, Some(n)) => format!("heater {n}"),
+        (AcceptedKind::Heater, None) => "the heater supply".to_string(),
+        (AcceptedKind::Safety, Some(n)) => format!("the {} test", n.replace('-', " ")),
+        (_, None) => String::new(),
+    };
+    let mut out = match &a.check {
+        Some(c) => format!("{base} {}", c.value.replace('-', " ")),
+        None => base,
+    };
+    if let Some(set) = &a.set {
+        out.push_str(&format!(" in \u{201c}{}\u{201d}", set.value));
+    }
+    out
+}
