@@ -29,7 +29,7 @@ bin="$root/bin/ampreport"
 export HOME="$work/home"
 unset XDG_CONFIG_HOME XDG_CACHE_HOME AMPREPORT_TYPST
 test ! -e "$repo/Cargo.toml" && echo "source tree hidden: $repo is empty"
-"\$bin" --version
+"\$bin" --version | tee "$work/version.txt"
 "\$bin" check "$work/job.kdl" > "$work/check.txt"
 "\$bin" calc --json "$work/job.kdl" > "$work/calc.json"
 "\$bin" tubes EL84 > "$work/tubes.txt"
@@ -45,7 +45,9 @@ else
 fi
 
 grep -q "as found" "$work/check.txt"
-grep -q '"schema": 1' "$work/calc.json"
+schema=$(sed -n 's/^JSON schema //p' "$work/version.txt")
+grep -q "\"schema\": $schema," "$work/calc.json"
+grep -q "^typst .* at /" "$work/version.txt"
 grep -q "^EL84 (output pentode)" "$work/tubes.txt"
 test -s "$work/man/ampreport-render.1"
 cmp "$work/job.pdf" "$work/piped.pdf"
