@@ -14,5 +14,6 @@ pub mod kdl_fast;
 pub mod problem_cap;
 pub mod ratings;
 pub mod report;
+pub mod shop;
 pub mod typeset;
 pub mod units;

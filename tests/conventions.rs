@@ -223,6 +223,9 @@ fn verbose_says_what_was_read_from_where_and_the_platform_folders() {
         "ratings-format 1\nvalve EL84 {\n    source \"bench sheet\"\n    plate-dissipation \"12W\"\n}\n",
     )
     .unwrap();
+    let shop = scene.dir.join("shop.kdl");
+    let init = scene.run(&["init", "--shop", shop.to_str().unwrap()]);
+    assert_eq!(init.status.code(), Some(0), "{}", stderr(&init));
     let o = scene
         .render_command(
             &scene.pdf,
@@ -288,6 +291,20 @@ fn the_platform_folders_follow_xdg_and_ignore_relative_values() {
     ] {
         assert!(err.contains(&line), "missing `{line}` in:\n{err}");
     }
+    // A job command says when there is no shop profile.
+    let dir = tempfile::tempdir().unwrap();
+    std::fs::copy(demo("combo-el84-cathode"), dir.path().join("job.kdl")).unwrap();
+    let o = ampreport()
+        .current_dir(dir.path())
+        .args(["check", "job.kdl", "-v"])
+        .env("HOME", home.path())
+        .output()
+        .unwrap();
+    assert!(
+        stderr(&o).contains("read: shop profile: none (no shop.kdl beside the job"),
+        "{}",
+        stderr(&o)
+    );
     // Without --verbose, none of it.
     let o = ampreport().args(["tubes", "EL84"]).output().unwrap();
     assert!(!stderr(&o).contains("read:"), "{}", stderr(&o));
@@ -502,4 +519,36 @@ fn the_pdf_is_not_sent_to_a_terminal() {
         "{text}"
     );
     assert!(!text.contains("%PDF"), "{text}");
+}
+
+#[test]
+fn netlist_takes_dash_for_standard_output_and_never_writes_over_its_job() {
+    let dir = tempfile::tempdir().unwrap();
+    let job = dir.path().join("job.kdl");
+    std::fs::copy(demo("combo-6v6-fixed"), &job).unwrap();
+    let before = std::fs::read(&job).unwrap();
+    // The demo's third mod carries a network.
+    let run = |extra: &[&str]| {
+        ampreport()
+            .current_dir(dir.path())
+            .args(["netlist", "job.kdl", "--mod", "3"])
+            .args(extra)
+            .output()
+            .unwrap()
+    };
+    let plain = run(&[]);
+    assert_eq!(plain.status.code(), Some(0), "{}", stderr(&plain));
+    assert!(
+        stdout(&plain).starts_with("* network"),
+        "{}",
+        stdout(&plain)
+    );
+    let dash = run(&["-o", "-"]);
+    assert_eq!(dash.stdout, plain.stdout);
+    for over in ["job.kdl", "./job.kdl"] {
+        let o = run(&["-o", over]);
+        assert_eq!(o.status.code(), Some(2), "{over}: {}", stderr(&o));
+        assert!(stderr(&o).contains("is the job file"), "{}", stderr(&o));
+        assert_eq!(std::fs::read(&job).unwrap(), before, "{over}");
+    }
 }

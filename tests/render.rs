@@ -57,6 +57,8 @@ fn ampreport_with_cache(args: &[&std::ffi::OsStr], cache_home: &Path) -> Output 
         .args(args)
         .env_remove("AMPREPORT_TYPST")
         .env("XDG_CACHE_HOME", cache_home)
+        // No shop profile from the user's own configuration folder.
+        .env("XDG_CONFIG_HOME", cache_home.join("no-config-home"))
         .output()
         .expect("run ampreport")
 }
@@ -92,14 +94,36 @@ fn pdftotext_mode(pdf: &Path, mode: Option<&str>) -> String {
     pdftotext_args(pdf, mode.as_slice())
 }
 
-/// The text above the footer of every A4 page (the bottom margin is 21 mm,
-/// so the body ends 782 pt from the top and the footer text starts 802 pt
-/// down; 798 pt leaves room for descenders), so a field that runs over a page
-/// break reads on without the footer in between.
+/// The text above the footer of every page (the bottom margin is 21 mm =
+/// 59.5 pt, so on A4, 841.9 pt tall, the body ends 782 pt from the top and
+/// the footer text starts 802 pt down; 44 pt above the bottom edge leaves
+/// room for descenders), so a field that runs over a page break reads on
+/// without the footer in between. The same holds on US Letter.
 fn body_text(pdf: &Path, mode: Option<&str>) -> String {
-    let mut args = vec!["-x", "0", "-y", "0", "-W", "596", "-H", "798"];
+    let (width, height) = page_size(pdf);
+    let (w, h) = (
+        format!("{}", width.ceil()),
+        format!("{}", (height - 44.0).floor()),
+    );
+    let mut args = vec!["-x", "0", "-y", "0", "-W", &w, "-H", &h];
     args.extend(mode);
     pdftotext_args(pdf, &args)
+}
+
+/// The first page's width and height in points, from `pdfinfo`.
+fn page_size(pdf: &Path) -> (f64, f64) {
+    let out = Command::new("pdfinfo")
+        .arg(pdf)
+        .output()
+        .expect("pdfinfo (poppler-utils)");
+    let info = String::from_utf8_lossy(&out.stdout);
+    let line = info
+        .lines()
+        .find(|l| l.starts_with("Page size:"))
+        .expect("pdfinfo prints the page size");
+    // "Page size:      612 x 792 pts (letter)"
+    let words: Vec<&str> = line.split_whitespace().collect();
+    (words[2].parse().unwrap(), words[4].parse().unwrap())
 }
 
 fn pdftotext_args(pdf: &Path, args: &[&str]) -> String {
@@ -505,13 +529,14 @@ fn no_text_runs_past_the_page_margins() {
     if typst_version().is_none() {
         return;
     }
-    // A4 is 595.28 pt wide; the side margins are 17 mm (48.19 pt) and the
-    // bottom margin 21 mm, with the footer in it.
-    let (left, right) = (48.19 - 1.0, 595.28 - 48.19 + 1.0);
+    // The side margins are 17 mm (48.19 pt) on A4 (595.28 pt wide) and US
+    // Letter (612 pt) alike; the bottom margin is 21 mm, with the footer in it.
     let dir = tempfile::tempdir().unwrap();
     for name in DEMO_JOBS {
         let pdf = dir.path().join(format!("{name}.pdf"));
         assert_ok(&render(&demo(name), &pdf, &[]), name);
+        let (width, height) = page_size(&pdf);
+        let (left, right) = (48.19 - 1.0, width - 48.19 + 1.0);
         for page in 1..=page_count(&pdf) {
             let words = word_boxes(&pdf, page);
             assert!(
@@ -521,7 +546,7 @@ fn no_text_runs_past_the_page_margins() {
             );
             for (word, [x0, y0, x1, y1]) in &words {
                 assert!(
-                    *x0 >= left && *x1 <= right && *y0 >= 0.0 && *y1 <= 841.89,
+                    *x0 >= left && *x1 <= right && *y0 >= 0.0 && *y1 <= height,
                     "{name} page {page}: {word:?} at {x0:.1}–{x1:.1}, {y0:.1}–{y1:.1} is off the text area"
                 );
             }
@@ -586,9 +611,11 @@ fn the_at_a_glance_panel_names_each_family_with_its_status() {
             .unwrap()
             .contains("within tolerance")
     );
+    // The text area is the page less 17 mm (48.19 pt) each side.
+    let right = page_size(&pdf).0 - 48.19 + 1.0;
     for (word, [x0, _, x1, _]) in word_boxes(&pdf, 1) {
         assert!(
-            x0 >= 47.0 && x1 <= 548.1,
+            x0 >= 47.0 && x1 <= right,
             "{word:?} at {x0}–{x1} leaves the page 1 text area"
         );
     }

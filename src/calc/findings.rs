@@ -835,6 +835,8 @@ pub struct RatingUsed {
 pub struct ModFindings {
     pub what: String,
     pub figures: Vec<ModFigureFindings>,
+    /// The mod's network worked out, if it has one.
+    pub network: Option<super::network::NetworkFindings>,
 }
 
 /// One worked-out figure for a modification, with the formula used.

@@ -8,6 +8,7 @@ pub mod brief;
 mod circuit;
 mod findings;
 mod mains;
+pub mod network;
 mod safety;
 mod status;
 mod supply;
@@ -911,8 +912,25 @@ fn mod_findings(
             }
         }
     }
+    let network = m.network.as_ref().map(|n| {
+        let found = network::derive(n, job, ratings);
+        if let Some(problem) = &found.problem {
+            warnings.push(Warning::note(
+                None,
+                false,
+                "network",
+                Status::Caution,
+                format!(
+                    "The network of the mod “{}” could not be worked out: {problem}.",
+                    m.what
+                ),
+            ));
+        }
+        found
+    });
     ModFindings {
         what: m.what.clone(),
         figures,
+        network,
     }
 }

@@ -65,8 +65,10 @@ pub enum Command {
     Render(RenderArgs),
     /// List the valve ratings table, or show one type with its source note.
     Tubes(TubesArgs),
-    /// Write an annotated skeleton job file to start from.
+    /// Write an annotated skeleton job file (or, with --shop, a shop profile) to start from.
     Init(InitArgs),
+    /// Write a mod's network as a plain SPICE netlist with an AC analysis.
+    Netlist(NetlistArgs),
     /// Print the shell completion script for bash, zsh, fish or PowerShell.
     ///
     /// The script asks ampreport itself what to offer at each Tab: commands,
@@ -98,6 +100,13 @@ pub struct JobArgs {
     /// A shop's own ratings file that adds or corrects valve types.
     #[arg(long, value_name = "FILE", value_hint = ValueHint::FilePath, add = ArgValueCompleter::new(job_files()))]
     pub ratings: Vec<PathBuf>,
+    /// The shop profile to use when there is no shop.kdl in the job's folder
+    /// or a folder above it.
+    #[arg(long, value_name = "FILE", conflicts_with = "no_shop", value_hint = ValueHint::FilePath, add = ArgValueCompleter::new(job_files()))]
+    pub shop: Option<PathBuf>,
+    /// Use no shop profile at all: the neutral heading and the built-in defaults.
+    #[arg(long)]
+    pub no_shop: bool,
 }
 
 #[derive(Debug, Args)]
@@ -154,6 +163,9 @@ pub struct RenderArgs {
     /// (new or empty; see --force).
     #[arg(long, value_name = "DIR", value_hint = ValueHint::DirPath)]
     pub emit_source: Option<PathBuf>,
+    /// Leave the job's charges out of the document.
+    #[arg(long)]
+    pub no_charges: bool,
     /// Let --emit-source replace everything in a folder that is not empty.
     #[arg(long, requires = "emit_source")]
     pub force: bool,
@@ -197,10 +209,33 @@ pub struct TubesArgs {
 }
 
 #[derive(Debug, Args)]
+#[command(group(clap::ArgGroup::new("what").required(true).multiple(true).args(["path", "shop"])))]
 pub struct InitArgs {
     /// Where to write the new job file; an existing file is never replaced.
     #[arg(value_hint = ValueHint::FilePath)]
-    pub path: PathBuf,
+    pub path: Option<PathBuf>,
+    /// Where to write an annotated shop profile (shop.kdl); an existing file
+    /// is never replaced.
+    #[arg(long, value_name = "PATH", value_hint = ValueHint::FilePath)]
+    pub shop: Option<PathBuf>,
+}
+
+#[derive(Debug, Args)]
+pub struct NetlistArgs {
+    #[command(flatten)]
+    pub job: JobArgs,
+    /// The mod whose network to write, counted from 1 in the job's `mods`.
+    #[arg(long = "mod", value_name = "N")]
+    pub mod_number: usize,
+    /// The network as left (after the mod's edits) instead of as found.
+    #[arg(long)]
+    pub after: bool,
+    /// Which of the network's pot settings, counted from 1.
+    #[arg(long, value_name = "S", default_value_t = 1)]
+    pub setting: usize,
+    /// Write to this file (atomically) instead of standard output.
+    #[arg(short, long, value_name = "FILE", value_hint = ValueHint::FilePath)]
+    pub output: Option<PathBuf>,
 }
 
 #[derive(Debug, Args)]

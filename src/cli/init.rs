@@ -1,5 +1,5 @@
-//! `ampreport init PATH`: an annotated skeleton job file. Never replaces an
-//! existing file.
+//! `ampreport init PATH` and `ampreport init --shop PATH`: an annotated
+//! skeleton job file, or shop profile. Never replaces an existing file.
 
 use std::io::Write;
 
@@ -10,7 +10,25 @@ use super::exit::Exit;
 pub const SKELETON: &str = include_str!("../../templates/job-skeleton.kdl");
 
 pub fn run(args: &InitArgs) -> Exit {
-    let path = &args.path;
+    let mut exit = Exit::Success;
+    if let Some(path) = &args.path {
+        exit = write_new(path, SKELETON, "fill it in, then run `ampreport check {}`");
+    }
+    if let Some(path) = &args.shop
+        && exit == Exit::Success
+    {
+        exit = write_new(
+            path,
+            crate::shop::SKELETON,
+            "fill it in; jobs in its folder and below use it (see docs/shop.md)",
+        );
+    }
+    exit
+}
+
+/// Writes `text` to a new file at `path`; `next` is what to do next (`{}`
+/// stands for the path).
+fn write_new(path: &std::path::Path, text: &str, next: &str) -> Exit {
     if path.exists() {
         eprintln!(
             "error: {} already exists; ampreport init never replaces a file",
@@ -23,7 +41,7 @@ pub fn run(args: &InitArgs) -> Exit {
         _ => std::path::PathBuf::from("."),
     };
     let result = tempfile::NamedTempFile::new_in(&dir).and_then(|mut tmp| {
-        tmp.write_all(SKELETON.as_bytes())?;
+        tmp.write_all(text.as_bytes())?;
         tmp.as_file().sync_all()?;
         tmp.persist_noclobber(path).map_err(|e| e.error)?;
         Ok(())
@@ -31,9 +49,9 @@ pub fn run(args: &InitArgs) -> Exit {
     match result {
         Ok(()) => {
             super::ui::wrote(format!(
-                "wrote {}; fill it in, then run `ampreport check {}`",
+                "wrote {}; {}",
                 path.display(),
-                path.display()
+                next.replace("{}", &path.display().to_string())
             ));
             Exit::Success
         }

@@ -1,16 +1,18 @@
-//! Reading a job file (or a job on standard input, named `-`) and the
-//! ratings it needs, shared by every command that takes a job. Problems are
-//! printed here as diagnostics; `--verbose` says what was read from where.
+//! Reading a job file (or a job on standard input, named `-`), its shop
+//! profile and the ratings it needs, shared by every command that takes a
+//! job. Problems are printed here as diagnostics; `--verbose` says what was
+//! read from where.
 
 use std::io::IsTerminal;
-use std::path::Path;
+use std::path::{Path, PathBuf};
 
 use super::args::JobArgs;
 use super::exit::Exit;
 use super::ui;
 use crate::input_file::{STDIN_NAME, is_dash};
-use crate::job::{self, Decoded};
+use crate::job::{self, Decoded, JobDefaults};
 use crate::ratings::RatingsTable;
+use crate::shop::{self, Found, Logo, ShopProfile};
 
 /// The built-in ratings plus any shop files named on the command line.
 pub fn ratings(files: &[std::path::PathBuf]) -> Result<RatingsTable, Exit> {
@@ -36,17 +38,37 @@ pub fn ratings(files: &[std::path::PathBuf]) -> Result<RatingsTable, Exit> {
 /// ratings; warnings are printed to standard error.
 pub struct Loaded {
     pub decoded: Decoded,
+    /// The shop profile in use, if any.
+    pub shop: Option<LoadedShop>,
     /// The job file as read, for the document footer's checksum.
     #[allow(dead_code)]
     pub text: String,
     pub ratings: RatingsTable,
 }
 
+/// A decoded shop profile, where it was found, and its checked logo.
+pub struct LoadedShop {
+    pub profile: ShopProfile,
+    pub found: Found,
+    pub logo: Option<Logo>,
+}
+
+impl LoadedShop {
+    pub fn path(&self) -> &Path {
+        self.found.path()
+    }
+}
+
 pub fn job(args: &JobArgs) -> Result<Loaded, Exit> {
     let ratings = ratings(&args.ratings)?;
+    let shop = shop_profile(args)?;
+    let defaults = shop
+        .as_ref()
+        .map(|s| s.profile.defaults.clone())
+        .unwrap_or_else(JobDefaults::default);
     let text = read_job(&args.job)?;
     let name = job_name(&args.job);
-    let decoded = match job::decode_with_ratings(&name, &text, &ratings) {
+    let decoded = match job::decode_with_defaults(&name, &text, &ratings, &defaults) {
         Ok(d) => d,
         Err(diagnostics) => {
             eprintln!("{:?}", miette::Report::new(diagnostics));
@@ -61,6 +83,7 @@ pub fn job(args: &JobArgs) -> Result<Loaded, Exit> {
     }
     Ok(Loaded {
         decoded,
+        shop,
         text,
         ratings,
     })
@@ -97,4 +120,90 @@ pub fn read_job(path: &Path) -> Result<String, Exit> {
     };
     ui::read("job", format!("{whence} ({} bytes)", text.len()));
     Ok(text)
+}
+
+/// The shop profile for the job, found as [`shop::discover`] says, decoded,
+/// with its logo read and checked; `None` with `--no-shop` or when there is
+/// none.
+pub fn shop_profile(args: &JobArgs) -> Result<Option<LoadedShop>, Exit> {
+    if args.no_shop {
+        return Ok(None);
+    }
+    let config = shop::user_config_dir();
+    let Some(found) = shop::discover(&args.job, args.shop.as_deref(), config.as_deref()) else {
+        ui::read(
+            "shop profile",
+            format!(
+                "none (no {} beside the job or above it, no --shop, none in the config folder)",
+                shop::SHOP_FILE
+            ),
+        );
+        return Ok(None);
+    };
+    if let (Found::BesideJob(used), Some(named)) = (&found, &args.shop) {
+        ui::warn(format!(
+            "note: using the shop profile {} found beside the job; --shop {} applies only where there is none",
+            used.display(),
+            named.display()
+        ));
+    }
+    let path: PathBuf = found.path().to_path_buf();
+    let text = read_text(&path, "shop profile")?;
+    let name = path.display().to_string();
+    let decoded = match shop::decode(&name, &text) {
+        Ok(d) => d,
+        Err(diagnostics) => {
+            eprintln!("{:?}", miette::Report::new(diagnostics));
+            return Err(Exit::InvalidInput);
+        }
+    };
+    ui::read(
+        "shop profile",
+        format!(
+            "{} ({})",
+            path.display(),
+            match &found {
+                Found::BesideJob(_) => "beside the job or above it",
+                Found::Named(_) => "named with --shop",
+                Found::UserConfig(_) => "the config folder",
+            }
+        ),
+    );
+    if !decoded.diagnostics.problems.is_empty() {
+        ui::warn(format!(
+            "{:?}",
+            miette::Report::new(decoded.diagnostics.clone())
+        ));
+    }
+    let logo = match &decoded.profile.logo {
+        Some(written) => match shop::read_logo(&path, written) {
+            Ok(logo) => Some(logo),
+            Err(problem) => {
+                let diagnostics = job::JobDiagnostics {
+                    source: decoded.diagnostics.source.clone(),
+                    problems: vec![*problem],
+                    not_shown: Default::default(),
+                };
+                eprintln!("{:?}", miette::Report::new(diagnostics));
+                return Err(Exit::InvalidInput);
+            }
+        },
+        None => None,
+    };
+    if let Some(logo) = &logo {
+        ui::read("shop logo", logo.source.display());
+    }
+    Ok(Some(LoadedShop {
+        profile: decoded.profile,
+        found,
+        logo,
+    }))
+}
+
+/// A file's text; `what` names it in the message ("shop profile").
+pub fn read_text(path: &Path, what: &'static str) -> Result<String, Exit> {
+    crate::input_file::read_text(path, what).map_err(|e| {
+        eprintln!("error: {e}");
+        Exit::InvalidInput
+    })
 }

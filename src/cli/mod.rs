@@ -9,6 +9,7 @@ pub mod exit;
 mod init;
 mod load;
 pub mod man;
+mod netlist;
 mod render;
 mod tubes;
 pub mod ui;
@@ -70,6 +71,7 @@ pub fn main() -> ExitCode {
         args::Command::Init(a) => init::run(a),
         args::Command::Completions(a) => completions::run(a),
         args::Command::Man(a) => man::run(a),
+        args::Command::Netlist(a) => netlist::run(a),
     };
     if let Exit::Interrupted(signal) = exit {
         crate::typeset::interrupt::exit_as_signalled(signal);

@@ -19,7 +19,7 @@ use super::exit::Exit;
 use super::{load, ui};
 use crate::calc;
 use crate::input_file::is_dash;
-use crate::report::handover::{self, HandoverError, HandoverInput, ShopBlock};
+use crate::report::handover::{self, HandoverError, HandoverInput};
 use crate::typeset::{
     self, CompileOptions, FontsUsed, Input, TemplateSource, TypesetError, TypstProgram, interrupt,
 };
@@ -71,14 +71,16 @@ pub fn run(args: &RenderArgs) -> Exit {
         findings: &findings,
         job_text: &loaded.text,
         typst_version: program.version.to_string(),
-        shop: ShopBlock::default(),
+        shop: loaded.shop.as_ref().map(|s| &s.profile),
+        logo: loaded.shop.as_ref().and_then(|s| s.logo.as_ref()),
+        include_charges: !args.no_charges,
     };
     let document = match handover::build(&input, &templates) {
         Ok(d) => d,
         Err(e) => return report_build_error(e),
     };
 
-    let inputs = inputs_read(args, &program);
+    let inputs = inputs_read(args, &program, loaded.shop.as_ref());
     if let Err(e) = typeset::check_output(&output, &inputs) {
         eprintln!("{:?}", miette::Report::new(e));
         return Exit::Usage;
@@ -148,7 +150,11 @@ pub fn run(args: &RenderArgs) -> Exit {
 
 /// Every path the render reads, for the output checks: an output may be
 /// none of them, and the `--emit-source` folder may hold none of them.
-fn inputs_read(args: &RenderArgs, program: &TypstProgram) -> Vec<Input> {
+fn inputs_read(
+    args: &RenderArgs,
+    program: &TypstProgram,
+    shop: Option<&load::LoadedShop>,
+) -> Vec<Input> {
     let mut inputs = Vec::new();
     if !is_dash(&args.job.job) {
         inputs.push(Input::new(&args.job.job, "the job file"));
@@ -161,6 +167,12 @@ fn inputs_read(args: &RenderArgs, program: &TypstProgram) -> Vec<Input> {
     );
     if let Some(dir) = &args.templates {
         inputs.push(Input::new(dir, "the template folder"));
+    }
+    if let Some(shop) = shop {
+        inputs.push(Input::new(shop.path(), "the shop profile"));
+        if let Some(logo) = &shop.logo {
+            inputs.push(Input::new(&logo.source, "the shop's logo"));
+        }
     }
     inputs.push(Input::new(&program.path, "the typst program"));
     inputs

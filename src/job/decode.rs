@@ -9,6 +9,7 @@ use std::collections::HashSet;
 use super::decode_bench::{BENCH_NODES, decode_bench_node};
 use super::decode_error::{DecodeError, suggestion_help};
 use super::model::*;
+use super::network::Network;
 use super::reader::Reader;
 use crate::units::{Amps, Farads, Hertz, Ohms, QuantityKind as Q, Volts, Watts};
 
@@ -33,6 +34,7 @@ pub const TOP_LEVEL: &[&str] = &[
     "safety",
     "notes",
     "settings",
+    "charges",
     "accepted",
 ];
 
@@ -97,7 +99,12 @@ pub const VALVE_CHECKS: &[&str] = &[
 pub const SAFETY_TESTS: &[&str] = &["earth-continuity", "insulation", "leakage"];
 
 /// Decodes job text whose KDL syntax has already parsed.
-pub(crate) fn decode_document(doc: &KdlDocument, source_name: &str, r: &mut Reader) -> Option<Job> {
+pub(crate) fn decode_document(
+    doc: &KdlDocument,
+    source_name: &str,
+    defaults: &JobDefaults,
+    r: &mut Reader,
+) -> Option<Job> {
     let nodes = r.children(Some(doc), TOP_LEVEL, "the job file");
 
     // Repeated singletons.
@@ -166,7 +173,12 @@ pub(crate) fn decode_document(doc: &KdlDocument, source_name: &str, r: &mut Read
     }
 
     let info = match first("job") {
-        Some(node) => decode_info(node, r),
+        Some(node) => decode_info(node, r).map(|mut info| {
+            if info.technician.is_none() {
+                info.technician = defaults.technician.clone();
+            }
+            info
+        }),
         None => {
             r.push(
                 DecodeError::error(
@@ -256,13 +268,16 @@ pub(crate) fn decode_document(doc: &KdlDocument, source_name: &str, r: &mut Read
         .map(|n| decode_parts(n, r))
         .unwrap_or_default();
     let mods = first("mods").map(|n| decode_mods(n, r)).unwrap_or_default();
-    let safety = first("safety").and_then(|n| decode_safety(n, r));
+    let safety = first("safety").and_then(|n| decode_safety(n, &defaults.safety, r));
     let notes = first("notes")
         .map(|n| decode_notes(n, r))
         .unwrap_or_default();
-    let settings = first("settings")
-        .map(|n| decode_settings(n, r))
-        .unwrap_or_default();
+    let (settings, settings_given) = match first("settings") {
+        Some(n) => decode_settings(n, &defaults.settings, "the shop profile", r),
+        None => (defaults.settings.clone(), Vec::new()),
+    };
+    let charges =
+        first("charges").and_then(|n| super::charges::decode_charges(n, &defaults.charges, r));
     let acceptances = match (first("accepted"), &info) {
         (Some(node), Some(info)) => decode_accepted(node, info, r),
         _ => Vec::new(),
@@ -286,6 +301,8 @@ pub(crate) fn decode_document(doc: &KdlDocument, source_name: &str, r: &mut Read
         safety,
         notes,
         settings,
+        settings_given,
+        charges,
         acceptances,
     };
     Some(job)
@@ -1158,7 +1175,7 @@ fn decode_mods(node: &KdlNode, r: &mut Reader) -> Vec<Modification> {
         let why = r.opt_prop_string(child, "why");
         let reversible = r.opt_prop_bool(child, "reversible");
         let original_kept = r.opt_prop_bool(child, "original-kept");
-        let figures = decode_mod_figures(child, r);
+        let (figures, network) = decode_mod_figures(child, r);
         if let Some(what) = what {
             out.push(Modification {
                 what: what.value,
@@ -1166,17 +1183,42 @@ fn decode_mods(node: &KdlNode, r: &mut Reader) -> Vec<Modification> {
                 reversible,
                 original_kept,
                 figures,
+                network,
             });
         }
     }
     out
 }
 
-pub const MOD_FIGURES: &[&str] = &["rc-corner", "cathode-bypass", "stage-gain", "phase-shift"];
+pub const MOD_FIGURES: &[&str] = &[
+    "rc-corner",
+    "cathode-bypass",
+    "stage-gain",
+    "phase-shift",
+    "network",
+];
 
-fn decode_mod_figures(node: &KdlNode, r: &mut Reader) -> Vec<ModFigure> {
+/// A mod's worked figures and its network, if it has one.
+fn decode_mod_figures(node: &KdlNode, r: &mut Reader) -> (Vec<ModFigure>, Option<Network>) {
     let mut out = Vec::new();
+    let mut network: Option<Network> = None;
     for child in r.children(node.children(), MOD_FIGURES, "a `mod`") {
+        if child.name().value() == "network" {
+            if network.is_some() {
+                r.push(
+                    DecodeError::error(
+                        "job::repeated-node",
+                        Reader::name_span(child),
+                        "a mod has one `network`; this is a second",
+                        "repeated here",
+                    )
+                    .with_help("write a second network under a mod of its own"),
+                );
+                continue;
+            }
+            network = super::network::decode::decode_network(child, r);
+            continue;
+        }
         r.no_children(child);
         let cap = |r: &mut Reader, key: &str, example: &str| {
             let q = r.req_prop_quantity(child, key, Q::Capacitance, example);
@@ -1242,10 +1284,10 @@ fn decode_mod_figures(node: &KdlNode, r: &mut Reader) -> Vec<ModFigure> {
             _ => {}
         }
     }
-    out
+    (out, network)
 }
 
-fn decode_safety(node: &KdlNode, r: &mut Reader) -> Option<Safety> {
+fn decode_safety(node: &KdlNode, defaults: &SafetyDefaults, r: &mut Reader) -> Option<Safety> {
     r.check_entries(node, &["class"], 0);
     let class = match Reader::prop(node, "class").and_then(|e| r.name(e, "`class`")) {
         Some(c) => match c.value.as_str() {
@@ -1264,11 +1306,7 @@ fn decode_safety(node: &KdlNode, r: &mut Reader) -> Option<Safety> {
         None => ProtectionClass::One,
     };
     let mut tests = Vec::new();
-    for child in r.children(
-        node.children(),
-        &["earth-continuity", "insulation", "leakage"],
-        "`safety`",
-    ) {
+    for child in r.children(node.children(), SAFETY_TESTS, "`safety`") {
         r.no_children(child);
         let reading = |r: &mut Reader, kind: Q, example: &str| match Reader::arg(child, 0) {
             Some(e) if over_range_text(e).is_some() => {
@@ -1312,7 +1350,14 @@ fn decode_safety(node: &KdlNode, r: &mut Reader) -> Option<Safety> {
                 r.check_entries(child, &["limit", "cord"], 1);
                 let example = "earth-continuity \"0.05R\" limit=\"0.1R\" cord=\"0.04R\"";
                 let measured = reading(r, Q::Resistance, example);
-                let limit = ohms(r, child, "limit", example);
+                let limit = limit_or_default(
+                    r,
+                    child,
+                    "limit",
+                    Q::Resistance,
+                    defaults.earth_limit.map(|o| o.0),
+                    example,
+                );
                 let cord = r.opt_prop_quantity(child, "cord", Q::Resistance);
                 let cord = r
                     .positive(cord, "the cord resistance", true)
@@ -1320,7 +1365,7 @@ fn decode_safety(node: &KdlNode, r: &mut Reader) -> Option<Safety> {
                 if let (Some(measured), Some(limit)) = (measured, limit) {
                     tests.push(SafetyTest::EarthContinuity {
                         measured: Ohms(measured),
-                        limit: limit.value,
+                        limit: Ohms(limit),
                         cord,
                     });
                 }
@@ -1351,8 +1396,22 @@ fn decode_safety(node: &KdlNode, r: &mut Reader) -> Option<Safety> {
                     }
                     _ => reading(r, Q::Resistance, example),
                 };
-                let test_voltage = volts_req(r, child, "test-voltage", example);
-                let minimum = ohms(r, child, "minimum", example);
+                let test_voltage = limit_or_default(
+                    r,
+                    child,
+                    "test-voltage",
+                    Q::Voltage,
+                    defaults.insulation_test_voltage.map(|v| v.0),
+                    example,
+                );
+                let minimum = limit_or_default(
+                    r,
+                    child,
+                    "minimum",
+                    Q::Resistance,
+                    defaults.insulation_minimum.map(|o| o.0),
+                    example,
+                );
                 let over_range =
                     r.opt_prop_bool(child, "over-range").unwrap_or(false) || arrow.is_some();
                 if let (Some(measured), Some(test_voltage), Some(minimum)) =
@@ -1361,8 +1420,8 @@ fn decode_safety(node: &KdlNode, r: &mut Reader) -> Option<Safety> {
                     tests.push(SafetyTest::Insulation {
                         measured: Ohms(measured),
                         over_range,
-                        test_voltage,
-                        minimum: minimum.value,
+                        test_voltage: Volts(test_voltage),
+                        minimum: Ohms(minimum),
                     });
                 }
             }
@@ -1370,12 +1429,18 @@ fn decode_safety(node: &KdlNode, r: &mut Reader) -> Option<Safety> {
                 r.check_entries(child, &["limit"], 1);
                 let example = "leakage \"0.05mA\" limit=\"0.5mA\"";
                 let measured = reading(r, Q::Current, example);
-                let limit = r.req_prop_quantity(child, "limit", Q::Current, example);
-                let limit = r.positive(limit, "the leakage limit", false);
+                let limit = limit_or_default(
+                    r,
+                    child,
+                    "limit",
+                    Q::Current,
+                    defaults.leakage_limit.map(|a| a.0),
+                    example,
+                );
                 if let (Some(measured), Some(limit)) = (measured, limit) {
                     tests.push(SafetyTest::Leakage {
                         measured: Amps(measured),
-                        limit: Amps(limit.value),
+                        limit: Amps(limit),
                     });
                 }
             }
@@ -1383,6 +1448,37 @@ fn decode_safety(node: &KdlNode, r: &mut Reader) -> Option<Safety> {
         }
     }
     Some(Safety { class, tests })
+}
+
+/// A safety-test limit: the job's own, else the shop profile's default,
+/// else an error saying where it may be given. More than zero.
+fn limit_or_default(
+    r: &mut Reader,
+    node: &KdlNode,
+    key: &str,
+    kind: Q,
+    default: Option<f64>,
+    example: &str,
+) -> Option<f64> {
+    if Reader::prop(node, key).is_none() {
+        if default.is_some() {
+            return default;
+        }
+        r.push(
+            DecodeError::error(
+                "job::missing",
+                Reader::name_span(node),
+                format!("`{}` needs a `{key}` property", node.name().value()),
+                format!("`{key}` missing"),
+            )
+            .with_help(format!(
+                "for example: {example}; or set a default `{key}` in the shop profile's `safety` block"
+            )),
+        );
+        return None;
+    }
+    let q = r.opt_prop_quantity(node, key, kind);
+    r.positive(q, &format!("`{key}`"), false).map(|q| q.value)
 }
 
 /// The `accepted` block: findings the technician has judged and accepted,
@@ -1532,9 +1628,19 @@ fn decode_notes(node: &KdlNode, r: &mut Reader) -> Vec<String> {
     out
 }
 
-fn decode_settings(node: &KdlNode, r: &mut Reader) -> Settings {
+/// Reads a `settings` block over `base`: each child given replaces one
+/// band. Returns the bands and the names of the children given. `base_from`
+/// names where the base came from, for the message when the merged aim is
+/// upside down.
+pub(crate) fn decode_settings(
+    node: &KdlNode,
+    base: &Settings,
+    base_from: &str,
+    r: &mut Reader,
+) -> (Settings, Vec<String>) {
     r.check_entries(node, &[], 0);
-    let mut s = Settings::default();
+    let mut s = base.clone();
+    let mut given = Vec::new();
     for child in r.children(node.children(), SETTINGS, "`settings`") {
         r.check_entries(child, &[], 1);
         r.no_children(child);
@@ -1551,12 +1657,14 @@ fn decode_settings(node: &KdlNode, r: &mut Reader) -> Settings {
         if name == "hum-noise-caution" {
             if let Some(db) = decibels(r, entry, name) {
                 s.hum_noise_caution_db = db;
+                given.push(name.to_string());
             }
             continue;
         }
         if name == "silicon-drop" {
             if let Some(v) = r.quantity(entry, Q::Voltage, "`silicon-drop`") {
                 s.silicon_drop = Volts(v.value);
+                given.push(name.to_string());
             }
             continue;
         }
@@ -1584,18 +1692,25 @@ fn decode_settings(node: &KdlNode, r: &mut Reader) -> Settings {
             "voltage-over" => s.voltage_over = f,
             "output-power-caution" => s.output_power_caution = f,
             "cathode-bias-target" => s.cathode_bias_target = f,
-            _ => {}
+            _ => continue,
         }
+        given.push(name.to_string());
     }
     if s.fixed_bias_low > s.fixed_bias_high {
-        r.push(DecodeError::error(
+        let both = given.iter().any(|g| g == "fixed-bias-low")
+            && given.iter().any(|g| g == "fixed-bias-high");
+        let mut e = DecodeError::error(
             "job::settings-order",
             node.name().span(),
             "`fixed-bias-low` is above `fixed-bias-high`",
             "these settings",
-        ));
+        );
+        if !both && *base != Settings::default() {
+            e = e.with_help(format!("one of the two comes from {base_from}"));
+        }
+        r.push(e);
     }
-    s
+    (s, given)
 }
 
 // ----- small shared readers ---------------------------------------------------
@@ -1681,12 +1796,6 @@ fn watts(r: &mut Reader, node: &KdlNode, key: &str) -> Option<Watts> {
 fn volts_pos(r: &mut Reader, node: &KdlNode, key: &str, what: &str) -> Option<Volts> {
     let q = r.opt_prop_quantity(node, key, Q::Voltage);
     r.positive(q, what, false).map(|q| Volts(q.value))
-}
-
-fn volts_req(r: &mut Reader, node: &KdlNode, key: &str, example: &str) -> Option<Volts> {
-    let q = r.req_prop_quantity(node, key, Q::Voltage, example);
-    r.positive(q, "a test voltage", false)
-        .map(|q| Volts(q.value))
 }
 
 fn percent(r: &mut Reader, node: &KdlNode, key: &str) -> Option<f64> {

@@ -16,6 +16,9 @@ pub struct DecodeError {
     pub label: String,
     pub help: Option<String>,
     pub severity: Severity,
+    /// The kind of file the problem is in, when not a job file ("shop"):
+    /// it replaces the `job` part of the code shown.
+    pub file_kind: Option<&'static str>,
 }
 
 impl DecodeError {
@@ -32,6 +35,7 @@ impl DecodeError {
             label: label.into(),
             help: None,
             severity: Severity::Error,
+            file_kind: None,
         }
     }
 
@@ -52,6 +56,25 @@ impl DecodeError {
         self
     }
 
+    /// The same problem, found in another kind of file than a job file
+    /// (the shop profile, which shares the job file's readers).
+    pub fn in_file_kind(mut self, kind: &'static str) -> Self {
+        self.file_kind = Some(kind);
+        self
+    }
+
+    /// The code as shown: `job::unknown-node`, or `shop::unknown-node` in
+    /// a shop profile.
+    pub fn shown_code(&self) -> String {
+        match self.file_kind {
+            Some(kind) => {
+                let rest = self.code.split_once("::").map_or(self.code, |(_, r)| r);
+                format!("{kind}::{rest}")
+            }
+            None => self.code.to_string(),
+        }
+    }
+
     pub fn is_error(&self) -> bool {
         self.severity == Severity::Error
     }
@@ -67,7 +90,7 @@ impl std::error::Error for DecodeError {}
 
 impl Diagnostic for DecodeError {
     fn code<'a>(&'a self) -> Option<Box<dyn fmt::Display + 'a>> {
-        Some(Box::new(format!("ampreport::{}", self.code)))
+        Some(Box::new(format!("ampreport::{}", self.shown_code())))
     }
     fn severity(&self) -> Option<Severity> {
         Some(self.severity)
@@ -139,14 +162,19 @@ impl fmt::Display for JobDiagnostics {
         let errors = self.error_count();
         let warnings = self.problems.len() - errors;
         let name = self.source.name();
+        let file = if self.problems.iter().any(|p| p.file_kind == Some("shop")) {
+            "shop profile"
+        } else {
+            "job file"
+        };
         match (errors, warnings) {
             (0, 1) => write!(f, "{name}: 1 warning"),
             (0, w) => write!(f, "{name}: {w} warnings"),
-            (1, 0) => write!(f, "{name}: 1 problem stops this job file from being read"),
-            (e, 0) => write!(f, "{name}: {e} problems stop this job file from being read"),
+            (1, 0) => write!(f, "{name}: 1 problem stops this {file} from being read"),
+            (e, 0) => write!(f, "{name}: {e} problems stop this {file} from being read"),
             (e, w) => write!(
                 f,
-                "{name}: {e} problem{} stop{} this job file from being read ({w} warning{} too)",
+                "{name}: {e} problem{} stop{} this {file} from being read ({w} warning{} too)",
                 if e == 1 { "" } else { "s" },
                 if e == 1 { "s" } else { "" },
                 if w == 1 { "" } else { "s" }

@@ -2,15 +2,21 @@
 //! source spans. Every problem is collected into one [`JobDiagnostics`].
 
 mod bare_value;
+pub(crate) mod charges;
 mod completeness;
-mod decode;
+pub(crate) mod decode;
 mod decode_bench;
 mod decode_error;
 mod model;
-mod reader;
+pub mod network;
+pub(crate) mod reader;
 mod validate;
 mod valve_types;
 
+pub use charges::{
+    CENT_PLACES, CHARGE_NODES, ChargeKind, ChargeLine, ChargeTerms, ChargeTotals, Charges,
+    LineAmount, to_cents,
+};
 pub use completeness::{NotMeasuredInFinal, not_measured_in_final};
 pub use decode::{
     CIRCUIT_NODES, FORMAT_VERSION, MOD_FIGURES, SAFETY_TESTS, SET_NODES, SETTINGS, TOP_LEVEL,
@@ -38,19 +44,32 @@ pub fn decode_with_ratings(
     text: &str,
     ratings: &crate::ratings::RatingsTable,
 ) -> Result<Decoded, JobDiagnostics> {
-    decode_inner(name, text, Some(ratings))
+    decode_inner(name, text, Some(ratings), &JobDefaults::default())
+}
+
+/// Decodes job-file text over a shop profile's `defaults` (bands, safety
+/// limits, technician; the job's own entries win) and checks every valve
+/// type against `ratings`. Never panics, whatever the text.
+pub fn decode_with_defaults(
+    name: &str,
+    text: &str,
+    ratings: &crate::ratings::RatingsTable,
+    defaults: &JobDefaults,
+) -> Result<Decoded, JobDiagnostics> {
+    decode_inner(name, text, Some(ratings), defaults)
 }
 
 /// Decodes job-file text without checking valve types. `name` is the file
 /// name used in messages. Never panics, whatever the text.
 pub fn decode(name: &str, text: &str) -> Result<Decoded, JobDiagnostics> {
-    decode_inner(name, text, None)
+    decode_inner(name, text, None, &JobDefaults::default())
 }
 
 fn decode_inner(
     name: &str,
     text: &str,
     ratings: Option<&crate::ratings::RatingsTable>,
+    defaults: &JobDefaults,
 ) -> Result<Decoded, JobDiagnostics> {
     let source = crate::problem_cap::ClippedSource(
         NamedSource::new(name, Arc::new(text.to_string())).with_language("kdl"),
@@ -59,10 +78,11 @@ fn decode_inner(
     let job = match crate::kdl_fast::parse_document(text) {
         Ok(doc) => {
             let mut reader = reader::Reader::new(text);
-            let job = decode::decode_document(&doc, name, &mut reader);
+            let job = decode::decode_document(&doc, name, defaults, &mut reader);
             problems.append(&mut reader.problems);
             if let Some(job) = &job {
                 problems.extend(validate::cross_references(job));
+                problems.extend(network::check::check(job, ratings));
                 problems.extend(completeness::warnings(job));
                 if let Some(ratings) = ratings {
                     problems.extend(valve_types::check(job, ratings));
@@ -103,7 +123,7 @@ fn decode_inner(
 /// written without quotes (`nominal=120V`) are found by a scan of their own
 /// and replace the parser's report of them, whose span covers the whole
 /// document.
-fn syntax_problems(text: &str, e: &kdl::KdlError) -> Vec<DecodeError> {
+pub(crate) fn syntax_problems(text: &str, e: &kdl::KdlError) -> Vec<DecodeError> {
     let bare = bare_value::find(text);
     let covers_bare = |span: &SourceSpan| {
         bare.iter()

@@ -49,7 +49,13 @@ pub struct Job {
     pub mods: Vec<Modification>,
     pub safety: Option<Safety>,
     pub notes: Vec<String>,
+    /// The bands in force: the defaults, overridden by the shop profile's
+    /// `settings`, overridden by the job's own.
     pub settings: Settings,
+    /// The `settings` children the job file itself gives ("fixed-bias-high" …).
+    pub settings_given: Vec<String>,
+    /// Labour and parts, when the job records them.
+    pub charges: Option<super::charges::Charges>,
     /// The technician's judgement: findings accepted as they are, each
     /// with its reason, name and date.
     pub acceptances: Vec<Acceptance>,
@@ -648,6 +654,8 @@ pub struct Modification {
     pub original_kept: Option<bool>,
     /// Circuit figures the technician wants worked out for this mod.
     pub figures: Vec<ModFigure>,
+    /// The circuit network the mod changes, before and after.
+    pub network: Option<super::network::Network>,
 }
 
 /// A textbook circuit figure attached to a modification.
@@ -842,4 +850,29 @@ impl Default for Settings {
             cathode_bias_target: 0.85,
         }
     }
+}
+
+/// What a shop profile lends a job before it is decoded: the job's own
+/// entries still win. `calc` never sees where a figure came from, only the
+/// merged result.
+#[derive(Debug, Clone, Default, PartialEq)]
+pub struct JobDefaults {
+    /// The bands the job's `settings` start from.
+    pub settings: Settings,
+    /// Limits a safety test may leave out.
+    pub safety: SafetyDefaults,
+    /// The technician when the job names none.
+    pub technician: Option<String>,
+    /// Currency and tax for the job's charges.
+    pub charges: super::charges::ChargeTerms,
+}
+
+/// Default safety-test limits, so a job may write just the reading.
+#[derive(Debug, Clone, Default, PartialEq, Serialize)]
+pub struct SafetyDefaults {
+    /// Protective-earth continuity limit (before the cord's resistance).
+    pub earth_limit: Option<Ohms>,
+    pub insulation_test_voltage: Option<Volts>,
+    pub insulation_minimum: Option<Ohms>,
+    pub leakage_limit: Option<Amps>,
 }

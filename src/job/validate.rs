@@ -115,6 +115,11 @@ pub fn cross_references(job: &Job) -> Vec<DecodeError> {
                 position(valve, "a mod's figure");
             }
         }
+        for source in m.network.iter().flat_map(|n| n.sources()) {
+            if let super::network::SourceImpedance::Valve { valve, .. } = &source.impedance {
+                position(valve, "a network's source");
+            }
+        }
     }
 
     let mut node = |name: &Spanned<String>, what: &str| {

@@ -48,7 +48,7 @@ pub enum OutputRefused {
     #[error("the output {} names a folder, not a file", path.display())]
     #[diagnostic(
         code(ampreport::output::folder),
-        help("name the PDF file, for example `-o {}`", path.join("report.pdf").display())
+        help("name the file, for example `-o {}`", path.join("report.pdf").display())
     )]
     Folder { path: PathBuf },
 
@@ -62,7 +62,7 @@ pub enum OutputRefused {
     #[error("the output {} exists and is {kind}, not a regular file", path.display())]
     #[diagnostic(
         code(ampreport::output::not_a_file),
-        help("ampreport writes the PDF only over a regular file; name another path with `-o`")
+        help("ampreport writes only over a regular file; name another path with `-o`")
     )]
     NotAFile { path: PathBuf, kind: &'static str },
 
@@ -73,7 +73,7 @@ pub enum OutputRefused {
     )]
     NoFolder { path: PathBuf },
 
-    #[error("the output {} is {what} ({}); writing the PDF there would destroy it", path.display(), input.display())]
+    #[error("the output {} is {what} ({}); writing there would destroy it", path.display(), input.display())]
     #[diagnostic(code(ampreport::output::is_input), help("name another path with `-o`"))]
     IsInput {
         path: PathBuf,
@@ -84,7 +84,9 @@ pub enum OutputRefused {
     #[error("the output {} is inside {what} ({})", path.display(), input.display())]
     #[diagnostic(
         code(ampreport::output::inside_input),
-        help("ampreport reads every file in that folder; write the PDF somewhere else with `-o`")
+        help(
+            "ampreport reads every file in that folder; write the output somewhere else with `-o`"
+        )
     )]
     InsideInput {
         path: PathBuf,

@@ -13,7 +13,7 @@ use std::time::{Duration, Instant};
 use ampreport::calc::Findings;
 use ampreport::job::{self, JobDiagnostics};
 use ampreport::ratings::RatingsTable;
-use ampreport::report::handover::{self, HandoverInput, ShopBlock};
+use ampreport::report::handover::{self, HandoverInput};
 use ampreport::report::terminal::{self, TerminalStyle};
 use ampreport::typeset::TemplateSource;
 
@@ -60,13 +60,7 @@ pub fn check_job_text(text: &str, build_source: bool) -> Result<Outcome, String>
             no_non_finite_words("JSON", &json)?;
             drop(value);
             if build_source {
-                let input = HandoverInput {
-                    job: &decoded.job,
-                    findings: &findings,
-                    job_text: text,
-                    typst_version: "0.15.1".into(),
-                    shop: ShopBlock::default(),
-                };
+                let input = HandoverInput::new(&decoded.job, &findings, text, "0.15.1");
                 let templates = TemplateSource::embedded(handover::EMBEDDED_TEMPLATES);
                 let document = handover::build(&input, &templates)
                     .map_err(|e| format!("the document could not be built: {e}"))?;

@@ -22,9 +22,18 @@ use crate::calc::{
     resistor_power_words,
 };
 use crate::job::{Job, ProtectionClass};
+use crate::shop::ShopProfile;
+
+use super::charges::{ChargesContext, charges_context};
+use super::shop_block::{AcceptanceBlock, ShopBlock, acceptance, paper};
 use crate::report::attention::{self, Attention};
 use crate::report::summary::Summary;
+
+mod network_view;
 use crate::units::{QuantityKind as Q, format_engineering, format_fixed, format_sig};
+pub use network_view::{
+    NetworkRow, NetworkView, OscillatorRow, OscillatorView, network_plot_path, network_view,
+};
 
 /// The footer shows at most this much of the job id (the header has it all).
 pub const FOOTER_ID_CHARS: usize = 40;
@@ -37,24 +46,6 @@ pub const RESPONSE_PLOT: &str = "plots/frequency-response.svg";
 /// The path of set `index`'s warm-up chart (counting from 0).
 pub fn warm_up_plot(index: usize) -> String {
     format!("plots/warm-up-{}.svg", index + 1)
-}
-
-/// The shop block at the head of page 1. Until shops can keep a profile,
-/// every document carries the same neutral block.
-#[derive(Debug, Clone, Serialize)]
-pub struct ShopBlock {
-    pub name: String,
-    /// Address and contact lines.
-    pub lines: Vec<String>,
-}
-
-impl Default for ShopBlock {
-    fn default() -> Self {
-        ShopBlock {
-            name: "ampreport bench report".into(),
-            lines: vec!["Valve amplifier service record".into()],
-        }
-    }
 }
 
 /// Everything a hand-over template is given (besides `font_rules`).
@@ -85,13 +76,23 @@ pub struct HandoverContext {
     pub safety: SafetyContext,
     pub method: Method,
     pub footer: Footer,
+    /// Who hands the unit over, the warranty, the terms and the lines to sign.
+    pub acceptance: AcceptanceBlock,
+    /// The job's charges, or none (no `charges` block, or `--no-charges`).
+    /// Only the hand-over's context carries them.
+    pub charges: Option<ChargesContext>,
 }
 
 #[derive(Debug, Clone, Serialize)]
 pub struct DocumentInfo {
     pub title: String,
+    /// The technician, else the shop's name.
     pub author: String,
-    /// Typst paper name.
+    /// Every author for the PDF's metadata: the technician and the shop.
+    pub authors: Vec<String>,
+    /// A sentence for the PDF's metadata.
+    pub description: String,
+    /// Typst paper name: "a4" or "us-letter".
     pub paper: String,
 }
 
@@ -245,6 +246,8 @@ pub struct ModRow {
     pub original_kept: Option<String>,
     /// Textbook circuit figures worked out for the modification.
     pub figures: Vec<ModFigureRow>,
+    /// The network the mod changes: its response before and after.
+    pub network: Option<NetworkView>,
 }
 
 /// One worked-out figure of a modification.
@@ -533,6 +536,9 @@ pub struct SafetyRow {
 /// What the method appendix needs beyond its fixed text.
 #[derive(Debug, Clone, Serialize)]
 pub struct Method {
+    /// Which bands the shop profile and the job set, as a sentence, or none
+    /// when all are the built-in defaults.
+    pub bands_from: Option<String>,
     pub nominal: String,
     pub tolerance: String,
     pub high_line: String,
@@ -582,6 +588,8 @@ pub struct RatingRow {
 
 #[derive(Debug, Clone, Serialize)]
 pub struct Footer {
+    /// The shop's name, cut to [`FOOTER_ID_CHARS`], or none without a profile.
+    pub shop: Option<String>,
     /// The job id on one line, cut to [`FOOTER_ID_CHARS`].
     pub job_id: String,
     pub tool_version: String,
@@ -594,6 +602,10 @@ pub struct Footer {
 #[derive(Debug, Clone)]
 pub struct ContextInputs<'a> {
     pub shop: ShopBlock,
+    /// The shop profile in use, if any.
+    pub profile: Option<&'a ShopProfile>,
+    /// Whether the job's charges are shown.
+    pub include_charges: bool,
     pub tool_version: &'a str,
     pub typst_version: &'a str,
     pub job_digest: &'a str,
@@ -773,6 +785,18 @@ pub fn build_context(
             set_context(findings, set, plot)
         })
         .collect();
+    let mut authors: Vec<String> = job.info.technician.iter().cloned().collect();
+    if !inputs.shop.neutral {
+        authors.push(inputs.shop.name.clone());
+    }
+    let description = if inputs.shop.neutral {
+        format!("Valve amplifier service hand-over for job {}", job.info.id)
+    } else {
+        format!(
+            "Valve amplifier service hand-over for job {} from {}",
+            job.info.id, inputs.shop.name
+        )
+    };
     HandoverContext {
         document: DocumentInfo {
             title,
@@ -781,7 +805,9 @@ pub fn build_context(
                 .technician
                 .clone()
                 .unwrap_or_else(|| inputs.shop.name.clone()),
-            paper: "a4".into(),
+            authors,
+            description,
+            paper: paper(inputs.profile, job).typst_name().to_string(),
         },
         shop: inputs.shop.clone(),
         job: JobInfo {
@@ -853,14 +879,28 @@ pub fn build_context(
                     .filter(|f| f.what == m.what)
                     .map(mod_figures)
                     .unwrap_or_default(),
+                network: findings
+                    .mods
+                    .get(i)
+                    .filter(|f| f.what == m.what)
+                    .and_then(|f| f.network.as_ref())
+                    .map(|n| network_view(i, n)),
             })
             .collect(),
         notes: job.notes.iter().map(|n| reflow(n)).collect(),
         sets,
         plots: plots(findings, inputs),
         safety: safety(job, findings),
-        method: method(findings),
+        method: method(findings, job, inputs.profile),
+        acceptance: acceptance(job, inputs.profile),
+        charges: job
+            .charges
+            .as_ref()
+            .filter(|_| inputs.include_charges)
+            .and_then(charges_context),
         footer: Footer {
+            shop: (!inputs.shop.neutral)
+                .then(|| crate::report::plots::label_text(&inputs.shop.name, FOOTER_ID_CHARS)),
             job_id: crate::report::plots::label_text(&job.info.id, FOOTER_ID_CHARS),
             tool_version: inputs.tool_version.to_string(),
             typst_version: inputs.typst_version.to_string(),
@@ -1486,7 +1526,42 @@ fn safety(job: &Job, findings: &Findings) -> SafetyContext {
     }
 }
 
-fn method(findings: &Findings) -> Method {
+/// Which bands the shop profile and the job set, in words, or none when
+/// every band is the built-in default.
+fn bands_from(job: &Job, profile: Option<&ShopProfile>) -> Option<String> {
+    let words = |names: &[String]| {
+        names
+            .iter()
+            .map(|n| n.replace('-', " "))
+            .collect::<Vec<_>>()
+            .join(", ")
+    };
+    let from_shop: Vec<String> = profile
+        .map(|p| {
+            p.settings_given
+                .iter()
+                .filter(|n| !job.settings_given.contains(n))
+                .cloned()
+                .collect()
+        })
+        .unwrap_or_default();
+    let mut parts = Vec::new();
+    if !from_shop.is_empty() {
+        parts.push(format!("set by the shop's profile: {}", words(&from_shop)));
+    }
+    if !job.settings_given.is_empty() {
+        parts.push(format!("set for this job: {}", words(&job.settings_given)));
+    }
+    if parts.is_empty() {
+        return None;
+    }
+    Some(sentence(&format!(
+        "{}; the others are the built-in defaults",
+        parts.join("; ")
+    )))
+}
+
+fn method(findings: &Findings, job: &Job, profile: Option<&ShopProfile>) -> Method {
     let s = &findings.settings;
     let valves = || findings.sets.iter().flat_map(|set| set.valves.iter());
     // μg1g2 is listed where a bias estimate used it.
@@ -1526,6 +1601,7 @@ fn method(findings: &Findings) -> Method {
         .collect();
     ratings.sort_by(|a, b| a.name.cmp(&b.name));
     Method {
+        bands_from: bands_from(job, profile),
         nominal: volts(findings.mains.nominal_volts),
         tolerance: format!("+{} %", format_sig(findings.mains.tolerance_pct, 3)),
         high_line: volts(findings.mains.high_line_volts),

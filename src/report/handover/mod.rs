@@ -7,7 +7,9 @@
 //! template folder when one is given, so the same job, tool and typst give
 //! the same bytes.
 
+mod charges;
 mod context;
+mod shop_block;
 
 use std::path::Path;
 
@@ -15,23 +17,27 @@ use chrono::NaiveDate;
 use minijinja::Value;
 use sha2::{Digest, Sha256};
 
+pub use charges::{ChargeRow, ChargesContext, TaxRow, charges_context};
 pub use context::{
     AcceptedRow, AttentionContext, CapacitorRow, ContextInputs, CustomerInfo, DISSIPATION_PLOT,
     DocumentInfo, EntryRow, Footer, Glance, GlanceRow, HandoverContext, HeaterRow, HistoryRow,
     JobInfo, LineUpRow, MainsInfo, Method, ModFigureRow, ModRow, NodeRow, NotCheckedRow, PartRow,
     Plots, RESPONSE_PLOT, RatingRow, RectifierRow, ResistorRow, SUPPLY_PLOT, SafetyContext,
-    SafetyRow, SetContext, ShopBlock, SummaryContext, UnitInfo, ValveRow, WarmUpContext, WarmUpRow,
+    SafetyRow, SetContext, SummaryContext, UnitInfo, ValveRow, WarmUpContext, WarmUpRow,
     WindowReading, WindowRow, build_context, date_words, warm_up_plot,
 };
 pub use context::{
-    BenchContext, GainRow, HumNoiseRow, OutputPowerRow, ResponsePointRow, ResponseRow,
-    SuggestionOption, SuggestionRow,
+    BenchContext, GainRow, HumNoiseRow, NetworkRow, NetworkView, OscillatorRow, OscillatorView,
+    OutputPowerRow, ResponsePointRow, ResponseRow, SuggestionOption, SuggestionRow,
 };
+pub use shop_block::{AcceptanceBlock, ShopBlock, WarrantyInfo, acceptance, paper};
 
+use super::network_chart;
 use super::plots::{self, PlotError};
 use super::response_chart;
 use crate::calc::Findings;
 use crate::job::Job;
+use crate::shop::{Logo, ShopProfile};
 use crate::typeset::{
     CompileOptions, InsideError, RequiredText, Sandbox, TemplateSource, TypesetError, font_rules,
     read_regular, template_environment, typst_markup,
@@ -123,7 +129,32 @@ pub struct HandoverInput<'a> {
     pub job_text: &'a str,
     /// The version of the typst that will compile it, for the footer.
     pub typst_version: String,
-    pub shop: ShopBlock,
+    /// The shop profile in use, if any.
+    pub shop: Option<&'a ShopProfile>,
+    /// The profile's checked logo, if it has one.
+    pub logo: Option<&'a Logo>,
+    /// Whether the job's charges are shown (`--no-charges` leaves them out).
+    pub include_charges: bool,
+}
+
+impl<'a> HandoverInput<'a> {
+    /// The input for a job without a shop profile, charges shown.
+    pub fn new(
+        job: &'a Job,
+        findings: &'a Findings,
+        job_text: &'a str,
+        typst_version: impl Into<String>,
+    ) -> Self {
+        HandoverInput {
+            job,
+            findings,
+            job_text,
+            typst_version: typst_version.into(),
+            shop: None,
+            logo: None,
+            include_charges: true,
+        }
+    }
 }
 
 /// A ready-to-compile document.
@@ -187,6 +218,14 @@ pub fn build(
     if let Some(chart) = &response {
         sandbox.insert(RESPONSE_PLOT, response_chart::response_svg(chart)?)?;
     }
+    for (i, m) in input.findings.mods.iter().enumerate() {
+        if let Some(chart) = m.network.as_ref().and_then(network_chart::response_chart) {
+            sandbox.insert(
+                context::network_plot_path(i),
+                network_chart::response_svg(&chart)?,
+            )?;
+        }
+    }
     let mut warm_up_plots = Vec::new();
     for (i, set) in input.findings.sets.iter().enumerate() {
         if let Some(chart) = plots::warm_up_chart(set) {
@@ -195,8 +234,17 @@ pub fn build(
         }
     }
     let digest = job_digest(input.job_text);
+    let shop = match input.shop {
+        Some(profile) => ShopBlock::from_profile(profile, input.logo),
+        None => ShopBlock::default(),
+    };
+    if let (Some(logo), Some(_)) = (input.logo, input.shop) {
+        sandbox.insert(logo.sandbox_path(), logo.bytes.clone())?;
+    }
     let inputs = ContextInputs {
-        shop: input.shop.clone(),
+        shop,
+        profile: input.shop,
+        include_charges: input.include_charges,
         tool_version: env!("CARGO_PKG_VERSION"),
         typst_version: &input.typst_version,
         job_digest: &digest,
@@ -350,7 +398,9 @@ mod tests {
             findings,
             job_text: text,
             typst_version: "0.15.1".into(),
-            shop: ShopBlock::default(),
+            shop: None,
+            logo: None,
+            include_charges: true,
         };
         build(&input, &TemplateSource::embedded(EMBEDDED_TEMPLATES)).unwrap()
     }
@@ -397,8 +447,9 @@ mod tests {
         let (job, findings, text) = demo("combo-6v6-fixed.kdl");
         let doc = document(&job, &findings, &text);
         let ctx = &doc.context;
-        assert_eq!(ctx.mods.len(), 2);
+        assert_eq!(ctx.mods.len(), 3);
         assert!(ctx.mods[0].figures.is_empty());
+        assert!(ctx.mods[1].network.is_none());
         let figures = &ctx.mods[1].figures;
         assert_eq!(figures.len(), 3);
         // fc = 1 / (2π · (Rk ∥ (ra + RL)/(μ + 1)) · Ck) with Rk 1.5 kΩ, RL 100 kΩ,
@@ -450,6 +501,109 @@ mod tests {
     }
 
     #[test]
+    fn a_mods_network_reaches_the_document_with_its_chart_and_figures() {
+        let (job, findings, text) = demo("combo-6v6-fixed.kdl");
+        let doc = document(&job, &findings, &text);
+        let view = doc.context.mods[2]
+            .network
+            .as_ref()
+            .expect("the tone network");
+        let net = findings.mods[2].network.as_ref().unwrap();
+        assert_eq!(view.plot.as_deref(), Some("plots/network-mod-3.svg"));
+        let svg = doc
+            .sandbox
+            .get("plots/network-mod-3.svg")
+            .expect("the chart");
+        assert!(String::from_utf8_lossy(svg).contains("before the mod"));
+        // Two settings, each a before, an after and a change row.
+        assert_eq!(view.rows.len(), 6);
+        let kinds: Vec<&str> = view.rows.iter().map(|r| r.kind.as_str()).collect();
+        assert_eq!(
+            kinds,
+            ["before", "after", "change", "before", "after", "change"]
+        );
+        // The figures are calc's, to one decimal.
+        let one = |v: f64| {
+            format!(
+                "{}\u{a0}dB",
+                crate::units::format_fixed(v, 1).replace('-', "\u{2212}")
+            )
+        };
+        assert_eq!(view.rows[0].at_1khz, one(net.curves[0].gain_1khz_db));
+        assert_eq!(view.rows[4].at_5khz, one(net.curves[3].gain_5khz_db));
+        assert!(
+            view.rows[2].at_100hz.starts_with('+'),
+            "{}",
+            view.rows[2].at_100hz
+        );
+        assert_eq!(view.rows[0].setting, "1: treble 4, bass 6, middle 5");
+        assert_eq!(
+            view.edits,
+            [
+                "C5 250\u{a0}pF → 470\u{a0}pF",
+                "R5 100\u{a0}kΩ → 56\u{a0}kΩ"
+            ]
+        );
+        let source = String::from_utf8(doc.sandbox.get(MAIN_SOURCE).unwrap().to_vec()).unwrap();
+        assert!(source.contains("plots/network-mod-3.svg"));
+        assert!(
+            source.contains("Pot settings \\(0–10\\)") || source.contains("Pot settings (0–10)")
+        );
+        assert!(source.contains(&crate::typeset::escape_markup(&view.rows[3].feature)));
+    }
+
+    #[test]
+    fn charges_reach_the_hand_over_only_when_asked_for() {
+        let (job, findings, text) = demo("combo-6v6-fixed.kdl");
+        let doc = document(&job, &findings, &text);
+        let c = doc
+            .context
+            .charges
+            .as_ref()
+            .expect("the demo job has charges");
+        // By hand: labour 1.5 h × 48.00 = 72.00, 0.75 h × 48.00 = 36.00,
+        // fixed 15.00 → 123.00; parts 7.85 + 1.20 + 2.35 = 11.40; subtotal
+        // 134.40. Decoded without the shop profile, so no tax: total 134.40.
+        assert_eq!(c.currency, "GBP");
+        assert_eq!(
+            c.labour
+                .iter()
+                .map(|l| l.amount.as_str())
+                .collect::<Vec<_>>(),
+            ["72.00", "36.00", "15.00"]
+        );
+        assert_eq!(c.labour[0].quantity.as_deref(), Some("1.5 h"));
+        assert_eq!(c.labour[0].rate.as_deref(), Some("48.00 per hour"));
+        assert_eq!(c.labour[2].quantity, None);
+        assert_eq!(
+            (c.labour_total.as_str(), c.parts_total.as_str()),
+            ("123.00", "11.40")
+        );
+        assert_eq!(
+            (c.subtotal.as_str(), c.total.as_str()),
+            ("134.40", "134.40")
+        );
+        assert!(c.tax.is_none());
+        let source = String::from_utf8(doc.sandbox.get(MAIN_SOURCE).unwrap().to_vec()).unwrap();
+        assert!(source.contains("134\\.40") && source.contains("= Charges"));
+
+        // --no-charges: nothing of them in the context or the source.
+        let input = HandoverInput {
+            job: &job,
+            findings: &findings,
+            job_text: &text,
+            typst_version: "0.15.1".into(),
+            shop: None,
+            logo: None,
+            include_charges: false,
+        };
+        let doc = build(&input, &TemplateSource::embedded(EMBEDDED_TEMPLATES)).unwrap();
+        assert!(doc.context.charges.is_none());
+        let source = String::from_utf8(doc.sandbox.get(MAIN_SOURCE).unwrap().to_vec()).unwrap();
+        assert!(!source.contains("134\\.40") && !source.contains("= Charges"));
+    }
+
+    #[test]
     fn user_text_reaches_the_source_only_escaped() {
         let (mut job, _, text) = demo("combo-6v6-fixed.kdl");
         job.complaint = Some("#read(\"/etc/passwd\") $x$ <l> @r // c".into());
@@ -496,7 +650,9 @@ mod tests {
             findings: &findings,
             job_text: &text,
             typst_version: "0.15.1".into(),
-            shop: ShopBlock::default(),
+            shop: None,
+            logo: None,
+            include_charges: true,
         };
         let source = TemplateSource::embedded(EMBEDDED_TEMPLATES).with_override_dir(dir.path());
         match build(&input, &source) {

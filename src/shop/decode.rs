@@ -1,0 +1,317 @@
+//! The shop-profile schema, format version 1: which nodes exist and what
+//! each must hold. It shares the job file's readers, so a problem in
+//! `shop.kdl` reads like one in a job file: `file:line:column`, what was
+//! expected, a did-you-mean. Decoding computes nothing and reads no file.
+
+use kdl::{KdlDocument, KdlNode};
+use miette::SourceSpan;
+
+use super::model::*;
+use crate::job::decode::{SAFETY_TESTS, decode_settings};
+use crate::job::reader::Reader;
+use crate::job::{DecodeError, JobDefaults, SafetyDefaults, Settings, Spanned, suggestion_help};
+use crate::units::{Amps, Ohms, QuantityKind as Q, Volts};
+
+/// The newest shop-profile format this build reads.
+pub const SHOP_FORMAT_VERSION: u32 = 1;
+
+/// The top-level nodes of a shop profile; each appears at most once.
+pub const SHOP_TOP_LEVEL: &[&str] = &[
+    "shop-format",
+    "shop",
+    "logo",
+    "paper",
+    "technician",
+    "settings",
+    "safety",
+    "charges",
+    "warranty",
+    "terms",
+];
+
+pub(crate) fn decode_document(
+    doc: &KdlDocument,
+    source_name: &str,
+    r: &mut Reader,
+) -> Option<ShopProfile> {
+    let nodes = r.children(Some(doc), SHOP_TOP_LEVEL, "the shop profile");
+    for (i, node) in nodes.iter().enumerate() {
+        let name = node.name().value();
+        if nodes[..i].iter().any(|n| n.name().value() == name) {
+            r.push(
+                DecodeError::error(
+                    "job::repeated-node",
+                    Reader::name_span(node),
+                    format!("`{name}` is given more than once"),
+                    "repeated here",
+                )
+                .with_help(format!("a shop profile has one `{name}` node; merge them")),
+            );
+        }
+    }
+    let first = |name: &str| nodes.iter().copied().find(|n| n.name().value() == name);
+    let file_start = SourceSpan::new(0.into(), 0);
+
+    let format_version = match first("shop-format") {
+        Some(node) => format_version(node, r),
+        None => {
+            r.push(
+                DecodeError::error(
+                    "job::missing-format",
+                    file_start,
+                    "the shop profile does not say which format it uses",
+                    "start of file",
+                )
+                .with_help("begin the file with `shop-format 1`"),
+            );
+            SHOP_FORMAT_VERSION
+        }
+    };
+
+    let shop = match first("shop") {
+        Some(node) => decode_shop(node, r),
+        None => {
+            r.push(
+                DecodeError::error(
+                    "job::missing-node",
+                    file_start,
+                    "the shop profile has no `shop` node",
+                    "start of file",
+                )
+                .with_help("add: shop \"Your shop's name\" { address \"…\"; contact \"…\" }"),
+            );
+            None
+        }
+    };
+    let logo = first("logo").and_then(|n| {
+        r.check_entries(n, &[], 1);
+        r.no_children(n);
+        let logo = r.req_arg_string(n, "the logo's file name", "logo \"logo.svg\"")?;
+        if logo.value.trim().is_empty() {
+            r.push(DecodeError::error(
+                "job::bad-value",
+                logo.span,
+                "the logo's file name is empty",
+                "expected a file name",
+            ));
+            return None;
+        }
+        Some(logo)
+    });
+    let paper = first("paper").and_then(|n| decode_paper(n, r));
+    let technician = first("technician").and_then(|n| text(n, r));
+    let (settings, settings_given) = match first("settings") {
+        Some(n) => decode_settings(n, &Settings::default(), "the defaults", r),
+        None => (Settings::default(), Vec::new()),
+    };
+    let safety = first("safety")
+        .map(|n| decode_safety(n, r))
+        .unwrap_or_default();
+    let charges = first("charges")
+        .map(|n| decode_charges(n, r))
+        .unwrap_or_default();
+    let warranty = first("warranty").and_then(|n| decode_warranty(n, r));
+    let terms = first("terms").and_then(|n| text(n, r));
+
+    let (name, address, contact) = shop?;
+    Some(ShopProfile {
+        source_name: source_name.to_string(),
+        format_version,
+        name,
+        address,
+        contact,
+        logo,
+        paper,
+        defaults: JobDefaults {
+            settings,
+            safety,
+            technician,
+            charges,
+        },
+        settings_given,
+        warranty,
+        terms,
+    })
+}
+
+fn format_version(node: &KdlNode, r: &mut Reader) -> u32 {
+    r.check_entries(node, &[], 1);
+    r.no_children(node);
+    let Some(entry) = Reader::arg(node, 0) else {
+        r.push(
+            DecodeError::error(
+                "job::missing",
+                Reader::name_span(node),
+                "`shop-format` needs the version number",
+                "version missing",
+            )
+            .with_help("write `shop-format 1`"),
+        );
+        return SHOP_FORMAT_VERSION;
+    };
+    let Some(v) = r.integer(
+        entry,
+        "the shop-profile format version",
+        1..=i64::from(u32::MAX),
+    ) else {
+        return SHOP_FORMAT_VERSION;
+    };
+    let v = v as u32;
+    if v > SHOP_FORMAT_VERSION {
+        r.push(
+            DecodeError::error(
+                "job::format-too-new",
+                r.value_span(entry),
+                format!("this shop profile uses format {v}, but this ampreport reads format {SHOP_FORMAT_VERSION} at most"),
+                "format version",
+            )
+            .with_help("update ampreport to read this file"),
+        );
+    }
+    v
+}
+
+/// A node holding one line of text and nothing else.
+fn text(node: &KdlNode, r: &mut Reader) -> Option<String> {
+    r.check_entries(node, &[], 1);
+    r.no_children(node);
+    let name = node.name().value();
+    r.req_arg_string(node, &format!("`{name}`"), &format!("{name} \"…\""))
+        .map(|s| s.value)
+}
+
+fn decode_shop(node: &KdlNode, r: &mut Reader) -> Option<(String, Vec<String>, Vec<String>)> {
+    r.check_entries(node, &[], 1);
+    let name = r.req_arg_string(
+        node,
+        "the shop's name",
+        "shop \"Larkmoor Valve Bench\" { … }",
+    );
+    let mut address = Vec::new();
+    let mut contact = Vec::new();
+    for child in r.children(node.children(), &["address", "contact"], "`shop`") {
+        if let Some(line) = text(child, r) {
+            if child.name().value() == "address" {
+                address.push(line);
+            } else {
+                contact.push(line);
+            }
+        }
+    }
+    let name = name?;
+    if name.value.trim().is_empty() {
+        r.push(DecodeError::error(
+            "job::bad-value",
+            name.span,
+            "the shop's name is empty",
+            "expected the name",
+        ));
+        return None;
+    }
+    Some((name.value, address, contact))
+}
+
+fn decode_paper(node: &KdlNode, r: &mut Reader) -> Option<Paper> {
+    r.check_entries(node, &[], 1);
+    r.no_children(node);
+    let name = r.req_arg_name(node, "the paper size", "paper a4")?;
+    match Paper::from_name(&name.value) {
+        Some(p) => Some(p),
+        None => {
+            r.push(
+                DecodeError::error(
+                    "job::unknown-paper",
+                    name.span,
+                    format!("unknown paper size `{}`", name.value),
+                    "expected a4 or letter",
+                )
+                .with_help(suggestion_help(&name.value, &Paper::NAMES)),
+            );
+            None
+        }
+    }
+}
+
+/// Default safety-test limits: the job's test nodes without the reading.
+fn decode_safety(node: &KdlNode, r: &mut Reader) -> SafetyDefaults {
+    r.check_entries(node, &[], 0);
+    let mut d = SafetyDefaults::default();
+    for child in r.children(node.children(), SAFETY_TESTS, "`safety`") {
+        r.no_children(child);
+        let limit = |r: &mut Reader, key: &str, kind: Q| {
+            let q = r.opt_prop_quantity(child, key, kind);
+            r.positive(q, &format!("`{key}`"), false).map(|q| q.value)
+        };
+        match child.name().value() {
+            "earth-continuity" => {
+                r.check_entries(child, &["limit"], 0);
+                d.earth_limit = limit(r, "limit", Q::Resistance).map(Ohms);
+            }
+            "insulation" => {
+                r.check_entries(child, &["test-voltage", "minimum"], 0);
+                d.insulation_test_voltage = limit(r, "test-voltage", Q::Voltage).map(Volts);
+                d.insulation_minimum = limit(r, "minimum", Q::Resistance).map(Ohms);
+            }
+            "leakage" => {
+                r.check_entries(child, &["limit"], 0);
+                d.leakage_limit = limit(r, "limit", Q::Current).map(Amps);
+            }
+            _ => {}
+        }
+    }
+    d
+}
+
+fn decode_charges(node: &KdlNode, r: &mut Reader) -> ChargeTerms {
+    r.check_entries(node, &["currency", "tax-rate", "tax-name"], 0);
+    r.no_children(node);
+    ChargeTerms {
+        currency: Reader::prop(node, "currency")
+            .and_then(|e| crate::job::charges::currency(r, e))
+            .map(|c| c.value),
+        tax_rate_pct: Reader::prop(node, "tax-rate")
+            .and_then(|e| crate::job::charges::tax_rate(r, e))
+            .map(|t| t.value),
+        tax_name: r.opt_prop_string(node, "tax-name"),
+    }
+}
+
+fn decode_warranty(node: &KdlNode, r: &mut Reader) -> Option<Warranty> {
+    r.check_entries(node, &["period"], 1);
+    r.no_children(node);
+    let text = r.req_arg_string(
+        node,
+        "the warranty's text",
+        "warranty \"Work and parts fitted are guaranteed…\" period=\"90 days\"",
+    );
+    let period = match Reader::prop(node, "period") {
+        Some(e) => {
+            let written: Option<Spanned<String>> = r.string(e, "`period`");
+            match written {
+                Some(w) => match Period::parse(&w.value) {
+                    Some(p) => Some(p),
+                    None => {
+                        r.push(
+                            DecodeError::error(
+                                "job::bad-value",
+                                w.span,
+                                format!("`period` \"{}\" is not a length of time", w.value),
+                                "expected a number and days, weeks, months or years",
+                            )
+                            .with_help(
+                                "for example period=\"90 days\", \"6 months\" or \"1 year\"",
+                            ),
+                        );
+                        None
+                    }
+                },
+                None => None,
+            }
+        }
+        None => None,
+    };
+    Some(Warranty {
+        text: text?.value,
+        period,
+    })
+}

@@ -1,0 +1,302 @@
+//! The shop's logo: a PNG or SVG file inside the profile's own folder,
+//! checked by its content (not its name) before it goes near typst. Only
+//! the bytes travel: the document's sandbox gets a regular file of its own
+//! under a fixed name, never a link.
+
+use std::io::Read;
+use std::path::{Component, Path};
+
+use crate::job::{DecodeError, Spanned};
+
+/// The largest logo read, in bytes.
+pub const LOGO_LIMIT: u64 = 4 * 1024 * 1024;
+
+/// The largest logo picture, in pixels along either side.
+const PIXEL_LIMIT: u32 = 8192;
+
+/// A checked logo, ready for the sandbox.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub struct Logo {
+    pub kind: LogoKind,
+    pub bytes: Vec<u8>,
+    /// Where it was read from (links followed).
+    pub source: std::path::PathBuf,
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum LogoKind {
+    Png,
+    Svg,
+}
+
+impl Logo {
+    /// Its path inside the document's sandbox.
+    pub fn sandbox_path(&self) -> &'static str {
+        match self.kind {
+            LogoKind::Png => "shop/logo.png",
+            LogoKind::Svg => "shop/logo.svg",
+        }
+    }
+}
+
+/// Reads and checks the logo named in the profile at `profile`. Every
+/// refusal points at the `logo` line of the profile.
+pub fn read_logo(profile: &Path, logo: &Spanned<String>) -> Result<Logo, Box<DecodeError>> {
+    let fail = |message: String, label: &str, help: &str| {
+        Box::new(
+            DecodeError::error("shop::logo", logo.span, message, label)
+                .with_help(help)
+                .in_file_kind("shop"),
+        )
+    };
+    let written = Path::new(logo.value.trim());
+    if !written
+        .components()
+        .all(|c| matches!(c, Component::Normal(_) | Component::CurDir))
+    {
+        return Err(fail(
+            format!(
+                "the logo `{}` is not inside the profile's folder",
+                logo.value
+            ),
+            "expected a file name in the profile's folder",
+            "put the logo beside shop.kdl (or in a folder below it) and name it relative to it, for example logo \"logo.svg\"",
+        ));
+    }
+    let folder = profile.parent().unwrap_or(Path::new("."));
+    let folder = if folder.as_os_str().is_empty() {
+        Path::new(".")
+    } else {
+        folder
+    };
+    let place = folder.join(written);
+    let not_readable = |e: std::io::Error| {
+        fail(
+            format!("cannot read the logo {}: {e}", place.display()),
+            "this file",
+            "the logo must be a PNG or SVG file in the profile's folder",
+        )
+    };
+    let real_folder = folder.canonicalize().map_err(not_readable)?;
+    let real = place.canonicalize().map_err(not_readable)?;
+    if !real.starts_with(&real_folder) {
+        return Err(fail(
+            format!(
+                "the logo `{}` leads outside the profile's folder (to {})",
+                logo.value,
+                real.display()
+            ),
+            "leads outside",
+            "copy the logo into the profile's folder instead of linking to it",
+        ));
+    }
+    let meta = std::fs::metadata(&real).map_err(not_readable)?;
+    if !meta.is_file() {
+        return Err(fail(
+            format!("the logo {} is not a regular file", place.display()),
+            "not a file",
+            "the logo must be a PNG or SVG file",
+        ));
+    }
+    if meta.len() > LOGO_LIMIT {
+        return Err(fail(
+            format!(
+                "the logo {} is {} bytes; the limit is {LOGO_LIMIT}",
+                place.display(),
+                meta.len()
+            ),
+            "too large",
+            "a logo for a page header needs far less: export it smaller",
+        ));
+    }
+    let mut bytes = Vec::new();
+    std::fs::File::open(&real)
+        .and_then(|f| f.take(LOGO_LIMIT + 1).read_to_end(&mut bytes))
+        .map_err(not_readable)?;
+    if bytes.len() as u64 > LOGO_LIMIT {
+        return Err(fail(
+            format!(
+                "the logo {} grew past {LOGO_LIMIT} bytes while it was read",
+                place.display()
+            ),
+            "too large",
+            "a logo for a page header needs far less: export it smaller",
+        ));
+    }
+    check_content(&bytes)
+        .map_err(|why| {
+            fail(
+                format!("the logo {} {why}", place.display()),
+                "this file",
+                "the logo must be a PNG picture or a self-contained SVG drawing",
+            )
+        })
+        .map(|kind| Logo {
+            kind,
+            bytes,
+            source: real,
+        })
+}
+
+/// What the bytes are: a PNG that decodes, or an SVG document whose root
+/// is `<svg>` and that refers to no other file. The reason in words when
+/// neither.
+pub fn check_content(bytes: &[u8]) -> Result<LogoKind, String> {
+    const PNG_MAGIC: &[u8] = b"\x89PNG\r\n\x1a\n";
+    if bytes.starts_with(PNG_MAGIC) {
+        return check_png(bytes).map(|()| LogoKind::Png);
+    }
+    let text = std::str::from_utf8(bytes)
+        .map_err(|_| "is neither a PNG picture nor SVG text".to_string())?;
+    let text = text.trim_start_matches('\u{feff}');
+    if !text.contains("<svg") {
+        return Err("is neither a PNG picture nor an SVG drawing".into());
+    }
+    check_svg(text).map(|()| LogoKind::Svg)
+}
+
+fn check_png(bytes: &[u8]) -> Result<(), String> {
+    let mut reader =
+        image::ImageReader::with_format(std::io::Cursor::new(bytes), image::ImageFormat::Png);
+    let mut limits = image::Limits::default();
+    limits.max_image_width = Some(PIXEL_LIMIT);
+    limits.max_image_height = Some(PIXEL_LIMIT);
+    limits.max_alloc = Some(256 * 1024 * 1024);
+    reader.limits(limits);
+    reader
+        .decode()
+        .map(|_| ())
+        .map_err(|e| format!("starts like a PNG picture but does not decode ({e})"))
+}
+
+fn check_svg(text: &str) -> Result<(), String> {
+    let options = roxmltree::ParsingOptions {
+        allow_dtd: false,
+        ..Default::default()
+    };
+    let doc = roxmltree::Document::parse_with_options(text, options)
+        .map_err(|e| format!("is not a well-formed SVG drawing ({e})"))?;
+    let root = doc.root_element();
+    if root.tag_name().name() != "svg" {
+        return Err(format!(
+            "is XML whose root is <{}>, not an SVG drawing's <svg>",
+            root.tag_name().name()
+        ));
+    }
+    for node in doc.descendants().filter(|n| n.is_element()) {
+        for attr in node.attributes() {
+            let value = attr.value().trim();
+            let refers = matches!(attr.name(), "href" | "src")
+                && !(value.starts_with('#') || value.starts_with("data:"));
+            let url = value.contains("url(") && !value.contains("url(#");
+            if refers || url {
+                return Err(format!(
+                    "refers to another file or address (`{}` on <{}>); a logo must be self-contained",
+                    attr.value(),
+                    node.tag_name().name()
+                ));
+            }
+        }
+        if node.tag_name().name() == "style"
+            && node
+                .text()
+                .is_some_and(|t| t.contains("url(") || t.contains("@import"))
+        {
+            return Err(
+                "has a style sheet that loads from elsewhere; a logo must be self-contained".into(),
+            );
+        }
+    }
+    Ok(())
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    const SVG: &str = r##"<svg xmlns="http://www.w3.org/2000/svg" viewBox="0 0 10 10"><rect width="10" height="10" fill="#000"/></svg>"##;
+
+    /// A 1×1 PNG, written by the `image` crate itself.
+    fn png() -> Vec<u8> {
+        let mut out = std::io::Cursor::new(Vec::new());
+        image::RgbImage::new(1, 1)
+            .write_to(&mut out, image::ImageFormat::Png)
+            .unwrap();
+        out.into_inner()
+    }
+
+    #[test]
+    fn content_decides_not_the_name() {
+        assert_eq!(check_content(SVG.as_bytes()), Ok(LogoKind::Svg));
+        assert_eq!(check_content(&png()), Ok(LogoKind::Png));
+        let mut cut = png();
+        cut.truncate(20);
+        assert!(check_content(&cut).unwrap_err().contains("does not decode"));
+        assert!(check_content(b"GIF89a....").is_err());
+        assert!(check_content(b"\xff\xd8\xff\xe0 a jpeg").is_err());
+        assert!(
+            check_content(b"<html><svg></svg></html>")
+                .unwrap_err()
+                .contains("root is <html>")
+        );
+        assert!(check_content(b"<svg").unwrap_err().contains("well-formed"));
+    }
+
+    #[test]
+    fn an_svg_that_reaches_out_is_refused() {
+        for bad in [
+            r#"<svg xmlns="http://www.w3.org/2000/svg" xmlns:xlink="http://www.w3.org/1999/xlink"><image xlink:href="/etc/passwd"/></svg>"#,
+            r#"<svg xmlns="http://www.w3.org/2000/svg"><image href="file:///etc/hosts"/></svg>"#,
+            r#"<svg xmlns="http://www.w3.org/2000/svg"><rect fill="url(http://x/y#z)"/></svg>"#,
+            r#"<svg xmlns="http://www.w3.org/2000/svg"><style>@import "a.css";</style></svg>"#,
+            r#"<!DOCTYPE svg [<!ENTITY x SYSTEM "file:///etc/passwd">]><svg xmlns="http://www.w3.org/2000/svg">&x;</svg>"#,
+        ] {
+            assert!(check_content(bad.as_bytes()).is_err(), "{bad}");
+        }
+        let inner = r##"<svg xmlns="http://www.w3.org/2000/svg"><defs><linearGradient id="g"/></defs><rect fill="url(#g)"/><use href="#g"/></svg>"##;
+        assert_eq!(check_content(inner.as_bytes()), Ok(LogoKind::Svg));
+    }
+
+    #[test]
+    fn the_logo_stays_inside_the_profiles_folder() {
+        let root = tempfile::tempdir().unwrap();
+        let shop = root.path().join("shop");
+        std::fs::create_dir(&shop).unwrap();
+        let profile = shop.join("shop.kdl");
+        std::fs::write(root.path().join("outside.svg"), SVG).unwrap();
+        std::fs::write(shop.join("logo.svg"), SVG).unwrap();
+        std::fs::write(shop.join("logo.png"), png()).unwrap();
+        std::fs::write(shop.join("fake.png"), SVG).unwrap();
+        let at = |s: &str| Spanned::new(s.to_string(), miette::SourceSpan::new(0.into(), 1));
+
+        assert_eq!(
+            read_logo(&profile, &at("logo.svg")).unwrap().kind,
+            LogoKind::Svg
+        );
+        assert_eq!(
+            read_logo(&profile, &at("./logo.png")).unwrap().kind,
+            LogoKind::Png
+        );
+        // Named .png but holds SVG: the content decides.
+        let fake = read_logo(&profile, &at("fake.png")).unwrap();
+        assert_eq!(
+            (fake.kind, fake.sandbox_path()),
+            (LogoKind::Svg, "shop/logo.svg")
+        );
+        for bad in ["../outside.svg", "/etc/passwd", "missing.svg", "."] {
+            let e = read_logo(&profile, &at(bad)).unwrap_err();
+            assert_eq!(e.shown_code(), "shop::logo", "{bad}");
+        }
+        #[cfg(unix)]
+        {
+            std::os::unix::fs::symlink(root.path().join("outside.svg"), shop.join("link.svg"))
+                .unwrap();
+            let e = read_logo(&profile, &at("link.svg")).unwrap_err();
+            assert!(
+                e.message.contains("outside the profile's folder"),
+                "{}",
+                e.message
+            );
+        }
+    }
+}
