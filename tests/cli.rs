@@ -620,6 +620,44 @@ safety class=I {
     assert!(err.contains("takes no over-range reading"), "{err}");
 }
 
+#[test]
+fn a_bench_finding_can_be_accepted_for_one_channel() {
+    // 8 V rms into 8 Ω: P = V²/R = 8 W (Joule's law, textbook), 53 % of the
+    // rated 15 W: under the 80 % guide (common practice), a caution.
+    let text = small_job(
+        GOOD_CIRCUIT,
+        &format!(
+            "{GOOD_READINGS}\n    output-power rms=\"8V\" load=\"8R\" at=clipping channel=\"clean\""
+        ),
+    )
+    .replace(
+        r#"model="Testmodel""#,
+        r#"model="Testmodel" rated-power="15W""#,
+    );
+    let accepted = r#"accepted by="Bench" date="2026-03-04" {
+    bench output-power channel="clean" reason="Original output transformer, tired but the customer keeps it"
+}
+"#;
+    let dir = job_file("bench.kdl", &format!("{text}{accepted}"));
+    let o = run_in(dir.path(), &["calc", "--json", "bench.kdl"]);
+    assert_eq!(code(&o), 0, "{}", stderr(&o));
+    let v: Value = serde_json::from_str(&stdout(&o)).expect("json");
+    let p = &v["sets"][0]["bench"]["output_power"][0];
+    assert!((p["output_power_w"].as_f64().unwrap() - 8.0).abs() < 1e-9);
+    assert_eq!(p["status"], "caution");
+    assert_eq!(p["accepted"], true);
+    // A channel the bench tests do not name is an error with a suggestion.
+    let typo = accepted.replace(r#"channel="clean""#, r#"channel="claen""#);
+    let dir = job_file("typo.kdl", &format!("{text}{typo}"));
+    let o = run_in(dir.path(), &["check", "typo.kdl"]);
+    assert_eq!(code(&o), 1);
+    assert!(
+        stderr(&o).contains("did you mean `clean`"),
+        "{}",
+        stderr(&o)
+    );
+}
+
 // ----- tubes ------------------------------------------------------------------
 
 #[test]

@@ -95,6 +95,9 @@ pub const VALVE_CHECKS: &[&str] = &[
     "rectifier-load",
 ];
 
+/// The bench tests an acceptance may name, as written in a job file.
+pub const BENCH_CHECKS: &[&str] = &["output-power", "hum-noise"];
+
 /// The safety tests, as written in a job file.
 pub const SAFETY_TESTS: &[&str] = &["earth-continuity", "insulation", "leakage"];
 
@@ -1503,6 +1506,7 @@ fn decode_accepted(node: &KdlNode, info: &JobInfo, r: &mut Reader) -> Vec<Accept
             AcceptedKind::Valve => (&["check", "set", "reason", "by", "date"], 1),
             AcceptedKind::Heater => (&["label", "set", "reason", "by", "date"], 0),
             AcceptedKind::Safety => (&["reason", "by", "date"], 1),
+            AcceptedKind::Bench => (&["channel", "set", "reason", "by", "date"], 1),
             _ => (&["set", "reason", "by", "date"], 1),
         };
         r.check_entries(child, props, args);
@@ -1512,6 +1516,7 @@ fn decode_accepted(node: &KdlNode, info: &JobInfo, r: &mut Reader) -> Vec<Accept
             AcceptedKind::Part => "part C10 reason=\"…\"",
             AcceptedKind::Heater => "heater reason=\"…\"",
             AcceptedKind::Safety => "safety leakage reason=\"…\"",
+            AcceptedKind::Bench => "bench output-power channel=\"left\" reason=\"…\"",
         };
         let name = match kind {
             AcceptedKind::Heater => r.opt_prop_string(child, "label").map(|l| {
@@ -1538,6 +1543,24 @@ fn decode_accepted(node: &KdlNode, info: &JobInfo, r: &mut Reader) -> Vec<Accept
                     other => other,
                 }
             }
+            AcceptedKind::Bench => {
+                let n = r.req_arg_name(child, "the bench test's name", example);
+                match n {
+                    Some(n) if !BENCH_CHECKS.contains(&n.value.as_str()) => {
+                        r.push(
+                            DecodeError::error(
+                                "job::unknown-bench-test",
+                                n.span,
+                                format!("unknown bench test `{}` to accept", n.value),
+                                "not a bench test with a limit",
+                            )
+                            .with_help(suggestion_help(&n.value, BENCH_CHECKS)),
+                        );
+                        None
+                    }
+                    other => other,
+                }
+            }
             AcceptedKind::Valve => r.req_arg_name(child, "a valve position", example),
             AcceptedKind::Node => r.req_arg_name(child, "a node name", example),
             AcceptedKind::Part => r.req_arg_name(child, "a part reference", example),
@@ -1557,6 +1580,7 @@ fn decode_accepted(node: &KdlNode, info: &JobInfo, r: &mut Reader) -> Vec<Accept
             );
         }
         let set = Reader::prop(child, "set").and_then(|e| r.string(e, "`set`"));
+        let channel = Reader::prop(child, "channel").and_then(|e| r.string(e, "`channel`"));
         let reason = r.req_prop_string(child, "reason", example);
         if let Some(reason) = &reason
             && reason.value.trim().is_empty()
@@ -1606,6 +1630,7 @@ fn decode_accepted(node: &KdlNode, info: &JobInfo, r: &mut Reader) -> Vec<Accept
                 kind,
                 name,
                 check: check.filter(|c| VALVE_CHECKS.contains(&c.value.as_str())),
+                channel,
                 set,
                 reason: reason.value.trim().to_string(),
                 by,

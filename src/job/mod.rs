@@ -19,8 +19,8 @@ pub use charges::{
 };
 pub use completeness::{NotMeasuredInFinal, not_measured_in_final};
 pub use decode::{
-    CIRCUIT_NODES, FORMAT_VERSION, MOD_FIGURES, SAFETY_TESTS, SET_NODES, SETTINGS, TOP_LEVEL,
-    VALVE_CHECKS,
+    BENCH_CHECKS, CIRCUIT_NODES, FORMAT_VERSION, MOD_FIGURES, SAFETY_TESTS, SET_NODES, SETTINGS,
+    TOP_LEVEL, VALVE_CHECKS,
 };
 pub use decode_bench::{BENCH_NODES, DEFAULT_FREQUENCY};
 pub use decode_error::{DecodeError, JobDiagnostics, did_you_mean, line_column, suggestion_help};

@@ -235,6 +235,21 @@ fn acceptance_names(job: &Job, positions: &[&str], nodes: &[&str]) -> Vec<Decode
         if let Some(set) = &a.set {
             unknown(set, &labels, "measurement set", "job::unknown-set");
         }
+        if let Some(channel) = &a.channel {
+            let channels: Vec<&str> = job
+                .measurements
+                .iter()
+                .flat_map(|m| {
+                    m.bench
+                        .output_power
+                        .iter()
+                        .map(|p| &p.channel)
+                        .chain(m.bench.hum_noise.iter().map(|h| &h.channel))
+                })
+                .filter_map(|c| c.as_deref())
+                .collect();
+            unknown(channel, &channels, "bench channel", "job::unknown-channel");
+        }
         let Some(name) = &a.name else { continue };
         match a.kind {
             AcceptedKind::Valve => {
@@ -245,6 +260,7 @@ fn acceptance_names(job: &Job, positions: &[&str], nodes: &[&str]) -> Vec<Decode
             AcceptedKind::Heater => {
                 unknown(name, &heater_labels, "heater label", "job::unknown-heater")
             }
+            AcceptedKind::Bench => {}
             AcceptedKind::Safety => {
                 let recorded: Vec<&str> = job
                     .safety
