@@ -248,6 +248,10 @@ fn verbose_says_what_was_read_from_where_and_the_platform_folders() {
         ),
         format!("read: cache folder: {}", cache.join("ampreport").display()),
         format!("read: job: {} (", scene.job.display()),
+        format!(
+            "read: shop profile: {} (beside the job or above it)",
+            shop.display()
+        ),
         "read: ratings: built in (".to_owned(),
         format!(
             "read: ratings: {} (a shop's ratings file)",
@@ -304,6 +308,45 @@ fn the_platform_folders_follow_xdg_and_ignore_relative_values() {
         stderr(&o).contains("read: shop profile: none (no shop.kdl beside the job"),
         "{}",
         stderr(&o)
+    );
+    // Where the profile came from, for each way of finding one.
+    let config = home.path().join(".config/ampreport");
+    std::fs::create_dir_all(&config).unwrap();
+    let init = ampreport()
+        .arg("init")
+        .arg("--shop")
+        .arg(config.join("shop.kdl"))
+        .output()
+        .unwrap();
+    assert_eq!(init.status.code(), Some(0), "{}", stderr(&init));
+    let named = dir.path().join("other-shop.kdl");
+    std::fs::copy(config.join("shop.kdl"), &named).unwrap();
+    let says = |extra: &[&str], line: String| {
+        let o = ampreport()
+            .current_dir(dir.path())
+            .args(["check", "job.kdl", "-v"])
+            .args(extra)
+            .env("HOME", home.path())
+            .env_remove("XDG_CONFIG_HOME")
+            .output()
+            .unwrap();
+        assert_eq!(o.status.code(), Some(0), "{extra:?}: {}", stderr(&o));
+        assert!(stderr(&o).contains(&line), "`{line}` in:\n{}", stderr(&o));
+    };
+    says(
+        &[],
+        format!(
+            "read: shop profile: {} (the config folder)",
+            config.join("shop.kdl").display()
+        ),
+    );
+    says(
+        &["--shop", "other-shop.kdl"],
+        "read: shop profile: other-shop.kdl (named with --shop)".to_owned(),
+    );
+    says(
+        &["--no-shop"],
+        "read: shop profile: none (--no-shop)".to_owned(),
     );
     // Without --verbose, none of it.
     let o = ampreport().args(["tubes", "EL84"]).output().unwrap();

@@ -515,6 +515,18 @@ fn version_head() -> String {
 }
 
 #[test]
+fn the_readme_shows_the_versions_the_program_prints() {
+    let readme =
+        std::fs::read_to_string(concat!(env!("CARGO_MANIFEST_DIR"), "/README.md")).unwrap();
+    let head = version_head();
+    let shown = head.lines().skip(1).collect::<Vec<_>>().join("\n");
+    assert!(
+        readme.contains(&shown),
+        "README's `--version` example should show:\n{shown}"
+    );
+}
+
+#[test]
 fn version_names_the_typst_on_path() {
     let dir = typst_folder("echo 'typst 0.15.1 (stand-in)'");
     let o = version_with_path(dir.path().as_os_str());

@@ -127,6 +127,7 @@ pub fn read_job(path: &Path) -> Result<String, Exit> {
 /// none.
 pub fn shop_profile(args: &JobArgs) -> Result<Option<LoadedShop>, Exit> {
     if args.no_shop {
+        ui::read("shop profile", "none (--no-shop)");
         return Ok(None);
     }
     let config = shop::user_config_dir();

@@ -124,7 +124,11 @@ fn program_sections() -> Roff {
             "The environment failed: typst missing, too old, crashing or past its time \
              limit, or a folder that cannot be written.",
         ),
-        ("4", "--strict found a figure over its limit."),
+        (
+            "4",
+            "--strict found a figure over its limit and not accepted: in the final set \
+             or the safety tests (--strict=all: in any set).",
+        ),
         (
             "128+N",
             "render was stopped by signal N, after removing its temporary files.",
