@@ -7,6 +7,7 @@
 
 pub mod calc;
 pub mod cli;
+pub mod folders;
 pub mod input_file;
 pub mod job;
 pub mod kdl_fast;

@@ -318,6 +318,10 @@ fn out_dir_mirrors_the_tree_and_two_jobs_may_not_share_an_output() {
         assert!(pdfs.join(name).is_file(), "{name}");
     }
     assert!(!jobs.join("a.pdf").exists());
+    // Standard input is one job, never one of several.
+    let out = c.render(&["-", "jobs"]);
+    assert_eq!(out.status.code(), Some(2), "{}", stderr(&out));
+    assert!(stderr(&out).contains("standard input"), "{}", stderr(&out));
     // -o is for one job only.
     let out = c.render(&["jobs", "-o", "x.pdf"]);
     assert_eq!(out.status.code(), Some(2), "{}", stderr(&out));
@@ -335,9 +339,11 @@ fn out_dir_mirrors_the_tree_and_two_jobs_may_not_share_an_output() {
 
 #[test]
 fn quiet_prints_only_failures_and_the_summary() {
+    // --quiet is the program's own (errors only): in a batch it leaves the
+    // failures and the summary.
     let c = Counting::new();
     jobs_tree(&c);
-    let out = c.render(&["jobs", "--quiet"]);
+    let out = c.render(&["--quiet", "jobs"]);
     let said = text(&out);
     assert_eq!(out.status.code(), Some(1));
     assert!(!said.contains("rendered jobs/a.kdl"), "{said}");

@@ -10,7 +10,8 @@
 //! On a terminal a progress bar (`indicatif`) stands under the lines;
 //! elsewhere, or with `NO_COLOR`, `TERM=dumb` or `--quiet`, there are only
 //! the lines. `--quiet` leaves out the lines of jobs rendered or unchanged
-//! (what a job says on standard error, its warnings, still prints).
+//! and the warnings, as it leaves out "wrote" lines and warnings
+//! elsewhere; failures and the summary still print.
 
 use std::io::IsTerminal;
 use std::sync::Mutex;
@@ -138,7 +139,7 @@ pub fn run(setup: &Setup<'_>) -> Exit {
         }
     };
     let start = Instant::now();
-    let progress = Progress::new(setup.plans.len(), setup.args.quiet);
+    let progress = Progress::new(setup.plans.len(), !super::ui::chatty());
     let reports: Mutex<Vec<Option<JobReport>>> =
         Mutex::new((0..setup.plans.len()).map(|_| None).collect());
     pool.install(|| {

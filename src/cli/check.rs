@@ -5,8 +5,6 @@
 //! when some job could not be read, else 4 when `--strict` found an
 //! un-accepted figure over its limit in some job, else 0.
 
-use std::io::IsTerminal;
-
 use super::args::{CheckArgs, StrictSets};
 use super::exit::Exit;
 use super::job_files::{self, JobFile};
@@ -111,7 +109,7 @@ pub fn named_jobs(args: &super::args::JobArgs) -> Result<Vec<JobFile>, Exit> {
     Ok(jobs)
 }
 
-/// Colour only on a terminal, and never when NO_COLOR is set.
+/// Colour as `--color` and NO_COLOR say, for standard output.
 pub fn colour_wanted() -> bool {
-    std::io::stdout().is_terminal() && std::env::var_os("NO_COLOR").is_none_or(|v| v.is_empty())
+    super::ui::colour(super::ui::Stream::Stdout)
 }

@@ -1,12 +1,17 @@
-//! Reading a job file, its shop profile and the ratings it needs, shared
-//! by every command that takes jobs. Problems are gathered as diagnostics
-//! in a [`Said`], so that jobs read side by side report whole blocks.
+//! Reading a job file (or a job on standard input, named `-`), its shop
+//! profile and the ratings it needs, shared by every command that takes
+//! jobs. Problems are gathered as diagnostics in a [`Said`], so that jobs
+//! read side by side report whole blocks; `--verbose` says what was read
+//! from where.
 
+use std::io::IsTerminal;
 use std::path::{Path, PathBuf};
 
 use super::args::{JobArgs, OneJobArgs};
 use super::exit::Exit;
 use super::said::Said;
+use super::ui;
+use crate::input_file::{STDIN_NAME, is_dash};
 use crate::job::{self, Decoded};
 use crate::ratings::RatingsTable;
 use crate::shop::{self, Found, Logo, ShopProfile};
@@ -14,11 +19,19 @@ use crate::shop::{self, Found, Logo, ShopProfile};
 /// The built-in ratings plus any shop files named on the command line.
 pub fn ratings(files: &[std::path::PathBuf]) -> Result<RatingsTable, Exit> {
     let mut table = RatingsTable::builtin();
+    ui::read(
+        "ratings",
+        format!("built in ({} types, embedded in the program)", table.len()),
+    );
     for f in files {
         if let Err(report) = table.load_shop_file(f) {
             eprintln!("{report:?}");
             return Err(Exit::InvalidInput);
         }
+        ui::read(
+            "ratings",
+            format!("{} (a shop's ratings file)", f.display()),
+        );
     }
     Ok(table)
 }
@@ -86,7 +99,7 @@ pub fn job(
     said: &mut Said,
 ) -> Result<Loaded, Exit> {
     let shop = shop_profile(path, choice, said, &mut Vec::new())?;
-    let text = read_text(path, "job file", said)?;
+    let text = read_job(path, said)?;
     decode(path, text, shop, ratings, said)
 }
 
@@ -99,7 +112,7 @@ pub fn decode(
     ratings: &RatingsTable,
     said: &mut Said,
 ) -> Result<Loaded, Exit> {
-    let name = path.display().to_string();
+    let name = job_name(path);
     let defaults = shop
         .as_ref()
         .map(|s| s.profile.defaults.clone())
@@ -112,7 +125,7 @@ pub fn decode(
         }
     };
     if !decoded.diagnostics.problems.is_empty() {
-        said.err(format!(
+        said.warn(format!(
             "{:?}",
             miette::Report::new(decoded.diagnostics.clone())
         ));
@@ -135,14 +148,22 @@ pub fn shop_profile(
     read: &mut Vec<PathBuf>,
 ) -> Result<Option<LoadedShop>, Exit> {
     if choice.none {
+        said.read("shop profile", "none (--no-shop)");
         return Ok(None);
     }
     let config = shop::user_config_dir();
     let Some(found) = shop::discover(job_path, choice.named, config.as_deref()) else {
+        said.read(
+            "shop profile",
+            format!(
+                "none (no {} beside the job or above it, no --shop, none in the config folder)",
+                shop::SHOP_FILE
+            ),
+        );
         return Ok(None);
     };
     if let (Found::BesideJob(used), Some(named)) = (&found, choice.named) {
-        said.err(format!(
+        said.warn(format!(
             "note: using the shop profile {} found beside the job; --shop {} applies only where there is none",
             used.display(),
             named.display()
@@ -159,8 +180,20 @@ pub fn shop_profile(
             return Err(Exit::InvalidInput);
         }
     };
+    said.read(
+        "shop profile",
+        format!(
+            "{} ({})",
+            path.display(),
+            match &found {
+                Found::BesideJob(_) => "beside the job or above it",
+                Found::Named(_) => "named with --shop",
+                Found::UserConfig(_) => "the config folder",
+            }
+        ),
+    );
     if !decoded.diagnostics.problems.is_empty() {
-        said.err(format!(
+        said.warn(format!(
             "{:?}",
             miette::Report::new(decoded.diagnostics.clone())
         ));
@@ -184,6 +217,9 @@ pub fn shop_profile(
         },
         None => None,
     };
+    if let Some(logo) = &logo {
+        said.read("shop logo", logo.source.display());
+    }
     Ok(Some(LoadedShop {
         profile: decoded.profile,
         found,
@@ -207,7 +243,40 @@ fn refused(name: &str, text: &str, diagnostics: job::JobDiagnostics, said: &mut 
     }
 }
 
-/// A file's text; `what` names it in the message ("job file").
+/// The name a job has in messages: its path, or `<stdin>` for `-`.
+pub fn job_name(path: &Path) -> String {
+    if is_dash(path) {
+        STDIN_NAME.to_owned()
+    } else {
+        path.display().to_string()
+    }
+}
+
+/// The job's text, from its file or, for `-`, from standard input, under
+/// the same size and UTF-8 rules.
+pub fn read_job(path: &Path, said: &mut Said) -> Result<String, Exit> {
+    let read = if is_dash(path) {
+        if std::io::stdin().is_terminal() {
+            ui::warn("note: reading the job from standard input; end it with Ctrl-D");
+        }
+        crate::input_file::read_stdin("job file")
+    } else {
+        crate::input_file::read_text(path, "job file")
+    };
+    let text = read.map_err(|e| {
+        said.error(format!("error: {e}"));
+        Exit::InvalidInput
+    })?;
+    let whence = if is_dash(path) {
+        "standard input".to_owned()
+    } else {
+        path.display().to_string()
+    };
+    said.read("job", format!("{whence} ({} bytes)", text.len()));
+    Ok(text)
+}
+
+/// A file's text; `what` names it in the message ("shop profile").
 pub fn read_text(path: &Path, what: &'static str, said: &mut Said) -> Result<String, Exit> {
     crate::input_file::read_text(path, what).map_err(|e| {
         said.error(format!("error: {e}"));

@@ -15,6 +15,7 @@
 //! SIGTERM, SIGHUP), with the temporary files removed and typst stopped.
 //! A batch exits 1 when any job failed.
 
+use std::io::IsTerminal;
 use std::path::{Path, PathBuf};
 use std::time::{Duration, Instant};
 
@@ -24,20 +25,24 @@ use super::check::named_jobs;
 use super::content_key::{self, RunInputs, RunKey};
 use super::exit::Exit;
 use super::job_files::JobFile;
-use super::load;
 use super::said::Said;
+use super::{load, ui};
 use crate::calc;
+use crate::input_file::is_dash;
 use crate::ratings::RatingsTable;
 use crate::report::handover::{self, HandoverError, HandoverInput};
 use crate::typeset::{
-    self, CompileOptions, Input, InputIndex, TemplateSource, TypesetError, TypstProgram, interrupt,
+    self, CompileOptions, FontsUsed, Input, InputIndex, TemplateSource, TypesetError, TypstProgram,
+    interrupt,
 };
 
 pub fn run(args: &RenderArgs) -> Exit {
     // From here a stop signal is noted rather than fatal: each step below
     // that makes temporary files or waits on typst ends cleanly on it.
     if let Err(e) = interrupt::install() {
-        eprintln!("warning: stop signals will end ampreport without clean-up: {e}");
+        ui::warn(format!(
+            "warning: stop signals will end ampreport without clean-up: {e}"
+        ));
     }
     let setup = match Setup::new(args) {
         Ok(s) => s,
@@ -46,12 +51,18 @@ pub fn run(args: &RenderArgs) -> Exit {
     if !setup.batch {
         let report = render_one(&setup, &setup.plans[0]);
         report.said.print();
+        let output = &setup.plans[0].output;
         match report.outcome {
-            Outcome::Rendered => println!("wrote {}", setup.plans[0].output.display()),
-            Outcome::Unchanged => println!(
+            Outcome::Rendered if is_dash(output) => {
+                if ui::verbose() {
+                    eprintln!("wrote the PDF to standard output");
+                }
+            }
+            Outcome::Rendered => ui::wrote(format!("wrote {}", output.display())),
+            Outcome::Unchanged => ui::wrote(format!(
                 "{} is up to date (--force renders it anyway)",
-                setup.plans[0].output.display()
-            ),
+                output.display()
+            )),
             Outcome::Failed => {}
         }
         return report.exit;
@@ -99,6 +110,15 @@ impl<'a> Setup<'a> {
             eprintln!("error: --emit-source writes the source of one job; name one job file");
             return Err(Exit::Usage);
         }
+        if batch && jobs.iter().any(|j| is_dash(&j.path)) {
+            eprintln!(
+                "error: `-` reads one job from standard input; it cannot be named beside other jobs"
+            );
+            return Err(Exit::Usage);
+        }
+        if !batch {
+            single_output_allowed(args, &jobs[0].path)?;
+        }
         // typst answers `--version` while the ratings are read.
         let pending = typeset::start_locate(args.typst.as_deref());
         let ratings = load::ratings(&args.job.ratings)?;
@@ -112,8 +132,12 @@ impl<'a> Setup<'a> {
                 return Err(exit);
             }
         };
+        ui::read(
+            "typst",
+            format!("{} (version {})", program.path.display(), program.version),
+        );
         if let Some(warning) = program.version_warning() {
-            eprintln!("warning: {warning}");
+            ui::warn(format!("warning: {warning}"));
         }
         let plans: Vec<Plan> = jobs
             .into_iter()
@@ -139,13 +163,14 @@ impl<'a> Setup<'a> {
         }) {
             Ok(key) => Some(key),
             Err(e) => {
-                eprintln!("warning: {e}; every job is rendered");
+                ui::warn(format!("warning: {e}; every job is rendered"));
                 None
             }
         };
         let job_files = InputIndex::new(
             plans
                 .iter()
+                .filter(|p| !is_dash(&p.job.path))
                 .map(|p| Input::new(&p.job.path, "a job file of this run"))
                 .collect(),
         );
@@ -270,7 +295,7 @@ fn render_job(
     let job_path = &plan.job.path;
     let output = &plan.output;
     let shop = load::shop_profile(job_path, args.job.shop_choice(), said, depends)?;
-    let text = load::read_text(job_path, "job file", said)?;
+    let text = load::read_job(job_path, said)?;
 
     // Under --out-dir, the job's place in the tree is made as needed.
     if let Some(dir) = &args.out_dir
@@ -301,6 +326,7 @@ fn render_job(
     if let Some(key) = &key
         && !args.force
         && args.emit_source.is_none()
+        && !is_dash(output)
         && content_key::up_to_date(output, key)
     {
         return Ok(Outcome::Unchanged);
@@ -309,8 +335,8 @@ fn render_job(
     let loaded = load::decode(job_path, text, shop, &setup.ratings, said)?;
     let job = &loaded.decoded.job;
     let findings = calc::derive(job, &setup.ratings);
-    for warning in undrawable_text(&job_path.display().to_string(), &loaded.text) {
-        said.err(warning);
+    for warning in undrawable_text(&load::job_name(job_path), &loaded.text) {
+        said.warn(warning);
     }
 
     let input = HandoverInput {
@@ -352,8 +378,8 @@ fn render_job(
             ));
             return Err(Exit::Environment);
         }
-        said.err(format!("wrote the generated source to {}", dir.display()));
-        said.err(format!(
+        said.warn(format!("wrote the generated source to {}", dir.display()));
+        said.warn(format!(
             "  the same PDF comes from: {}",
             handover::compile_command(dir, &document.options, &dir.join("handover.pdf"))
         ));
@@ -371,13 +397,21 @@ fn render_job(
         output,
     ) {
         Ok(outcome) => {
+            match &outcome.fonts {
+                FontsUsed::Cache(dir) => said.read("fonts", format!("{} (cache)", dir.display())),
+                FontsUsed::Sandbox => said.read(
+                    "fonts",
+                    "embedded in the program, written for this run (no usable cache folder)",
+                ),
+            }
             if !outcome.warnings.is_empty() {
-                said.err(format!("typst warned:\n{}", outcome.warnings));
+                said.warn(format!("typst warned:\n{}", outcome.warnings));
             }
             match &key {
+                _ if is_dash(output) => {}
                 Some(key) => {
                     if let Err(e) = content_key::record(output, key) {
-                        said.err(format!(
+                        said.warn(format!(
                             "warning: could not record what {} was made from ({e}); the next run renders it again",
                             output.display()
                         ));
@@ -425,7 +459,10 @@ fn inputs_read(
     program: &TypstProgram,
     shop: Option<&load::LoadedShop>,
 ) -> Vec<Input> {
-    let mut inputs = vec![Input::new(job, "the job file")];
+    let mut inputs = Vec::new();
+    if !is_dash(job) {
+        inputs.push(Input::new(job, "the job file"));
+    }
     inputs.extend(
         args.job
             .ratings
@@ -533,9 +570,42 @@ fn default_output(job: &Path) -> PathBuf {
     job.with_extension("pdf")
 }
 
+/// Refuses the output of a one-job run that cannot be: `-o -` (standard
+/// output) when standard output is a terminal, and a job read from
+/// standard input without `-o`, since it has no file to sit beside.
+fn single_output_allowed(args: &RenderArgs, job: &Path) -> Result<(), Exit> {
+    match &args.output {
+        Some(o) if is_dash(o) && std::io::stdout().is_terminal() => {
+            eprintln!(
+                "error: `-o -` writes the PDF to standard output, which is a terminal here; \
+                 send it to a file or a program (`-o - > job.pdf`, `-o - | lpr`)"
+            );
+            Err(Exit::Usage)
+        }
+        None if is_dash(job) => {
+            eprintln!(
+                "error: a job read from standard input has no file to put the PDF beside; \
+                 name the output with `-o FILE`, or `-o -` for standard output"
+            );
+            Err(Exit::Usage)
+        }
+        _ => Ok(()),
+    }
+}
+
 /// The built-in templates, overridden by `--templates DIR` when given.
 pub(crate) fn template_source(dir: Option<&Path>) -> Result<TemplateSource, Exit> {
     let source = TemplateSource::embedded(handover::EMBEDDED_TEMPLATES);
+    for (name, _) in handover::EMBEDDED_TEMPLATES {
+        let shop = dir.map(|d| d.join(name)).filter(|p| p.is_file());
+        match shop {
+            Some(path) => ui::read("template", format!("{} (shop folder)", path.display())),
+            None => ui::read(
+                "template",
+                format!("{name} (built in, embedded in the program)"),
+            ),
+        }
+    }
     match dir {
         None => Ok(source),
         Some(dir) if dir.is_dir() => Ok(source.with_override_dir(dir)),

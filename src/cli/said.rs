@@ -24,6 +24,23 @@ impl Said {
         self.err.push_str(&format!("{text}\n"));
     }
 
+    /// A warning or a note for standard error (the text carries its own
+    /// `warning:` or `note:`); nothing under `--quiet`, as
+    /// [`super::ui::warn`].
+    pub fn warn(&mut self, text: impl Display) {
+        if super::ui::chatty() {
+            self.err(text);
+        }
+    }
+
+    /// With `--verbose`, a line saying what was read from where, as
+    /// [`super::ui::read`].
+    pub fn read(&mut self, what: &str, from: impl Display) {
+        if super::ui::verbose() {
+            self.err(format!("read: {what}: {from}"));
+        }
+    }
+
     /// An error for standard error; the first one is remembered in one line
     /// for a batch's summary.
     pub fn error(&mut self, text: impl Display) {

@@ -29,6 +29,7 @@ use super::args::RenderArgs;
 use super::batch::seconds;
 use super::exit::Exit;
 use super::render::{Outcome, Plan, Setup, render_one};
+use super::ui;
 use crate::typeset::interrupt;
 
 /// How long a file must be quiet before its change is taken.
@@ -39,7 +40,21 @@ const POLL: Duration = Duration::from_millis(100);
 
 pub fn run(args: &RenderArgs) -> Exit {
     if let Err(e) = interrupt::install() {
-        eprintln!("warning: Ctrl-C will end the watch without clean-up: {e}");
+        ui::warn(format!(
+            "warning: Ctrl-C will end the watch without clean-up: {e}"
+        ));
+    }
+    if args.job.jobs.iter().any(|j| crate::input_file::is_dash(j)) {
+        eprintln!("error: watch needs job files to watch; `-` (standard input) cannot be watched");
+        return Exit::Usage;
+    }
+    if args
+        .output
+        .as_deref()
+        .is_some_and(crate::input_file::is_dash)
+    {
+        eprintln!("error: watch writes PDF files; `-o -` (standard output) cannot be used");
+        return Exit::Usage;
     }
     let mut setup = match Setup::new(args) {
         Ok(s) => s,
@@ -70,24 +85,24 @@ pub fn run(args: &RenderArgs) -> Exit {
                 .map(|p| (folder_of(p), RecursiveMode::NonRecursive))
                 .collect();
             if let Err(e) = watch_folders(&more, &mut watched, watcher) {
-                eprintln!("warning: {e}");
+                ui::warn(format!("warning: {e}"));
             }
         };
     render_all(&setup, &mut depends, debouncer.watcher());
-    eprintln!(
+    ui::warn(format!(
         "watching {} job{} for changes (Ctrl-C stops)",
         setup.plans.len(),
         if setup.plans.len() == 1 { "" } else { "s" }
-    );
+    ));
     loop {
         if interrupt::received().is_some() {
-            eprintln!("stopped watching");
+            ui::warn("stopped watching");
             return Exit::Success;
         }
         let events = match rx.recv_timeout(POLL) {
             Ok(Ok(events)) => events,
             Ok(Err(e)) => {
-                eprintln!("warning: watching files: {e}");
+                ui::warn(format!("warning: watching files: {e}"));
                 continue;
             }
             Err(RecvTimeoutError::Timeout) => continue,
