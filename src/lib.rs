@@ -7,9 +7,11 @@
 
 pub mod calc;
 pub mod cli;
+pub mod git;
 pub mod input_file;
 pub mod job;
 pub mod kdl_fast;
+pub mod photo;
 pub mod problem_cap;
 pub mod ratings;
 pub mod report;

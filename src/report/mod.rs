@@ -4,6 +4,7 @@
 pub mod attention;
 pub mod handover;
 pub mod json;
+pub mod photos;
 pub mod plots;
 pub mod response_chart;
 pub mod summary;

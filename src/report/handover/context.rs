@@ -27,6 +27,7 @@ use crate::shop::ShopProfile;
 use super::charges::{ChargesContext, charges_context};
 use super::shop_block::{AcceptanceBlock, ShopBlock, acceptance, paper};
 use crate::report::attention::{self, Attention};
+use crate::report::photos::PhotoRow;
 use crate::report::summary::Summary;
 use crate::units::{QuantityKind as Q, format_engineering, format_fixed, format_sig};
 
@@ -66,6 +67,8 @@ pub struct HandoverContext {
     pub parts: Vec<PartRow>,
     pub mods: Vec<ModRow>,
     pub notes: Vec<String>,
+    /// Every photo of the job, in file order.
+    pub photos: Vec<PhotoRow>,
     pub sets: Vec<SetContext>,
     pub plots: Plots,
     pub safety: SafetyContext,
@@ -589,6 +592,11 @@ pub struct Footer {
     pub typst_version: String,
     /// The first 12 hex digits of the job file's SHA-256.
     pub job_digest: String,
+    /// The commit that last changed the job file, when it is in git
+    /// (the footer then shows it in place of the digest).
+    pub commit: Option<String>,
+    /// The job file differs from that commit.
+    pub uncommitted_changes: bool,
 }
 
 /// Inputs of [`build_context`] that do not come from the job.
@@ -602,6 +610,10 @@ pub struct ContextInputs<'a> {
     pub tool_version: &'a str,
     pub typst_version: &'a str,
     pub job_digest: &'a str,
+    /// Where the job file stands in git, if it is in a repository.
+    pub revision: Option<&'a crate::git::Revision>,
+    /// Every photo of the job.
+    pub photos: Vec<PhotoRow>,
     pub has_dissipation_plot: bool,
     pub has_supply_plot: bool,
     /// The sets (by index) that have a warm-up chart.
@@ -826,8 +838,8 @@ pub fn build_context(
         glance: glance(findings),
         attention: attention_context(&attention::attention(findings)),
         complaint: job.complaint.as_deref().map(reflow),
-        findings: job.findings.as_deref().map(reflow),
-        work: job.work.as_deref().map(reflow),
+        findings: job.findings.as_ref().map(|r| reflow(&r.text)),
+        work: job.work.as_ref().map(|r| reflow(&r.text)),
         valves: findings
             .line_up
             .iter()
@@ -874,7 +886,8 @@ pub fn build_context(
                     .unwrap_or_default(),
             })
             .collect(),
-        notes: job.notes.iter().map(|n| reflow(n)).collect(),
+        notes: job.notes.iter().map(|n| reflow(&n.text)).collect(),
+        photos: inputs.photos.clone(),
         sets,
         plots: plots(findings, inputs),
         safety: safety(job, findings),
@@ -892,6 +905,8 @@ pub fn build_context(
             tool_version: inputs.tool_version.to_string(),
             typst_version: inputs.typst_version.to_string(),
             job_digest: inputs.job_digest.to_string(),
+            commit: inputs.revision.map(|r| r.commit.clone()),
+            uncommitted_changes: inputs.revision.is_some_and(|r| r.uncommitted_changes),
         },
     }
 }
