@@ -644,7 +644,7 @@ fn fixed(v: f64, decimals: usize) -> String {
 }
 
 /// A whole-number percentage without the sign: "121".
-fn pct0(v: f64) -> String {
+pub(crate) fn pct0(v: f64) -> String {
     fixed(v, 0)
 }
 
@@ -660,11 +660,11 @@ fn signed_pct(v: f64) -> String {
     }
 }
 
-fn volts(v: f64) -> String {
+pub(crate) fn volts(v: f64) -> String {
     minus(format_engineering(v, Q::Voltage))
 }
 
-fn yes_no(b: Option<bool>) -> Option<String> {
+pub(crate) fn yes_no(b: Option<bool>) -> Option<String> {
     b.map(|b| {
         if b {
             "yes".to_string()
@@ -674,7 +674,7 @@ fn yes_no(b: Option<bool>) -> Option<String> {
     })
 }
 
-fn status(s: Status) -> String {
+pub(crate) fn status(s: Status) -> String {
     s.word().to_string()
 }
 
@@ -1496,7 +1496,7 @@ fn plots(findings: &Findings, inputs: &ContextInputs<'_>) -> Plots {
     }
 }
 
-fn safety(job: &Job, findings: &Findings) -> SafetyContext {
+pub(crate) fn safety(job: &Job, findings: &Findings) -> SafetyContext {
     SafetyContext {
         recorded: job.safety.is_some(),
         class: job.safety.as_ref().map(|s| match s.class {

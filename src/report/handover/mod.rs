@@ -30,6 +30,7 @@ pub use context::{
     BenchContext, GainRow, HumNoiseRow, OutputPowerRow, ResponsePointRow, ResponseRow,
     SuggestionOption, SuggestionRow,
 };
+pub(crate) use context::{glue_units, pct0, reflow, safety as safety_context, volts, yes_no};
 pub use shop_block::{AcceptanceBlock, ShopBlock, WarrantyInfo, acceptance, paper};
 
 use super::plots::{self, PlotError};
