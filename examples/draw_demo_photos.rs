@@ -41,7 +41,11 @@ fn shade(c: [u8; 3], d: i32) -> Rgb<u8> {
 fn rect(img: &mut RgbImage, x0: i32, y0: i32, x1: i32, y1: i32, c: [u8; 3], grain: bool) {
     for y in y0.max(0)..y1.min(H as i32) {
         for x in x0.max(0)..x1.min(W as i32) {
-            let d = if grain { noise(x as u32 / 6, y as u32 / 6) / 2 } else { 0 };
+            let d = if grain {
+                noise(x as u32 / 6, y as u32 / 6) / 2
+            } else {
+                0
+            };
             img.put_pixel(x as u32, y as u32, shade(c, d));
         }
     }
@@ -97,8 +101,24 @@ fn valve(img: &mut RgbImage, cx: i32, cy: i32, r: i32) {
 }
 
 /// A resistor lying left to right, with its colour bands.
-fn resistor(img: &mut RgbImage, x: i32, y: i32, len: i32, thick: i32, body: [u8; 3], bands: &[[u8; 3]]) {
-    rect(img, x - 18, y - 1, x + len + 18, y + 2, [200, 200, 205], false);
+fn resistor(
+    img: &mut RgbImage,
+    x: i32,
+    y: i32,
+    len: i32,
+    thick: i32,
+    body: [u8; 3],
+    bands: &[[u8; 3]],
+) {
+    rect(
+        img,
+        x - 18,
+        y - 1,
+        x + len + 18,
+        y + 2,
+        [200, 200, 205],
+        false,
+    );
     rect(img, x, y - thick / 2, x + len, y + thick / 2, body, false);
     for (i, b) in bands.iter().enumerate() {
         let bx = x + 6 + i as i32 * (len - 12) / bands.len().max(1) as i32;
@@ -107,11 +127,43 @@ fn resistor(img: &mut RgbImage, x: i32, y: i32, len: i32, thick: i32, body: [u8;
 }
 
 /// An axial capacitor lying left to right.
-fn capacitor(img: &mut RgbImage, x: i32, y: i32, len: i32, thick: i32, body: [u8; 3], band: [u8; 3]) {
-    rect(img, x - 20, y - 1, x + len + 20, y + 2, [200, 200, 205], false);
+fn capacitor(
+    img: &mut RgbImage,
+    x: i32,
+    y: i32,
+    len: i32,
+    thick: i32,
+    body: [u8; 3],
+    band: [u8; 3],
+) {
+    rect(
+        img,
+        x - 20,
+        y - 1,
+        x + len + 20,
+        y + 2,
+        [200, 200, 205],
+        false,
+    );
     rect(img, x, y - thick / 2, x + len, y + thick / 2, body, false);
-    rect(img, x + len - 10, y - thick / 2, x + len - 4, y + thick / 2, band, false);
-    rect(img, x, y - thick / 2, x + len, y - thick / 2 + 3, [250, 250, 250], false);
+    rect(
+        img,
+        x + len - 10,
+        y - thick / 2,
+        x + len - 4,
+        y + thick / 2,
+        band,
+        false,
+    );
+    rect(
+        img,
+        x,
+        y - thick / 2,
+        x + len,
+        y - thick / 2 + 3,
+        [250, 250, 250],
+        false,
+    );
 }
 
 fn chassis(after: bool) -> RgbImage {
@@ -127,8 +179,21 @@ fn chassis(after: bool) -> RgbImage {
     // Power and output transformers, with their bolts.
     for (x0, y0, x1, y1) in [(110, 130, 300, 300), (690, 130, 850, 270)] {
         rect(&mut img, x0, y0, x1, y1, [30, 30, 32], false);
-        rect(&mut img, x0 + 12, y0 + 12, x1 - 12, y1 - 12, [52, 52, 56], false);
-        for (bx, by) in [(x0 + 10, y0 + 10), (x1 - 10, y0 + 10), (x0 + 10, y1 - 10), (x1 - 10, y1 - 10)] {
+        rect(
+            &mut img,
+            x0 + 12,
+            y0 + 12,
+            x1 - 12,
+            y1 - 12,
+            [52, 52, 56],
+            false,
+        );
+        for (bx, by) in [
+            (x0 + 10, y0 + 10),
+            (x1 - 10, y0 + 10),
+            (x0 + 10, y1 - 10),
+            (x1 - 10, y1 - 10),
+        ] {
             disc(&mut img, bx, by, 6, [170, 170, 175]);
         }
     }
@@ -149,18 +214,50 @@ fn chassis(after: bool) -> RgbImage {
         disc(&mut img, x, 505, 5, [210, 200, 150]);
     }
     // Small parts on the board.
-    resistor(&mut img, 150, 430, 50, 12, [214, 196, 150], &[[150, 80, 40], [20, 20, 20], [200, 40, 30]]);
-    resistor(&mut img, 250, 430, 50, 12, [214, 196, 150], &[[240, 200, 20], [120, 40, 160], [200, 40, 30]]);
+    resistor(
+        &mut img,
+        150,
+        430,
+        50,
+        12,
+        [214, 196, 150],
+        &[[150, 80, 40], [20, 20, 20], [200, 40, 30]],
+    );
+    resistor(
+        &mut img,
+        250,
+        430,
+        50,
+        12,
+        [214, 196, 150],
+        &[[240, 200, 20], [120, 40, 160], [200, 40, 30]],
+    );
     capacitor(&mut img, 160, 475, 90, 22, [190, 160, 40], [60, 60, 60]);
     capacitor(&mut img, 480, 475, 90, 22, [60, 90, 170], [220, 220, 220]);
     if after {
         // The new dropper, a 3 W metal-oxide part, and the new filter
         // capacitor, a size up.
-        resistor(&mut img, 370, 430, 80, 20, [236, 236, 232], &[[240, 200, 20], [120, 40, 160], [200, 40, 30]]);
+        resistor(
+            &mut img,
+            370,
+            430,
+            80,
+            20,
+            [236, 236, 232],
+            &[[240, 200, 20], [120, 40, 160], [200, 40, 30]],
+        );
         capacitor(&mut img, 330, 475, 110, 30, [40, 70, 150], [230, 230, 230]);
     } else {
         // The scorched dropper and the leaking capacitor beside it.
-        resistor(&mut img, 380, 430, 50, 12, [214, 196, 150], &[[240, 200, 20], [120, 40, 160], [200, 40, 30]]);
+        resistor(
+            &mut img,
+            380,
+            430,
+            50,
+            12,
+            [214, 196, 150],
+            &[[240, 200, 20], [120, 40, 160], [200, 40, 30]],
+        );
         stain(&mut img, 405, 430, 38, 0.85);
         capacitor(&mut img, 330, 475, 100, 26, [200, 176, 60], [60, 60, 60]);
         stain(&mut img, 350, 488, 26, 0.55);

@@ -86,7 +86,11 @@ pub enum InFolderError {
     #[error("{} is not a regular file", path.display())]
     NotAFile { path: PathBuf },
     #[error("{} is {size} bytes; the limit is {limit}", path.display())]
-    TooLarge { path: PathBuf, size: u64, limit: u64 },
+    TooLarge {
+        path: PathBuf,
+        size: u64,
+        limit: u64,
+    },
     #[error("cannot read {}: {source}", path.display())]
     Io {
         path: PathBuf,

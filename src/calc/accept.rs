@@ -85,6 +85,23 @@ pub(crate) fn apply_to_set(
                     accept(&mut h.verdict);
                 }
             }
+            AcceptedKind::Bench => {
+                let channel = a.channel.as_ref().map(|c| c.value.as_str());
+                let on = |c: &Option<String>| channel.is_none_or(|ch| c.as_deref() == Some(ch));
+                match name {
+                    Some("output-power") => {
+                        for p in set.bench.output_power.iter_mut().filter(|p| on(&p.channel)) {
+                            accept(&mut p.verdict);
+                        }
+                    }
+                    Some("hum-noise") => {
+                        for h in set.bench.hum_noise.iter_mut().filter(|h| on(&h.channel)) {
+                            accept(&mut h.verdict);
+                        }
+                    }
+                    _ => {}
+                }
+            }
             AcceptedKind::Safety => {}
         }
     }
@@ -123,6 +140,10 @@ pub(crate) fn words(a: &Acceptance) -> String {
         (AcceptedKind::Heater, Some(n)) => format!("heater {n}"),
         (AcceptedKind::Heater, None) => "the heater supply".to_string(),
         (AcceptedKind::Safety, Some(n)) => format!("the {} test", n.replace('-', " ")),
+        (AcceptedKind::Bench, Some(n)) => match &a.channel {
+            Some(c) => format!("{} ({} channel)", n.replace('-', " "), c.value),
+            None => n.replace('-', " "),
+        },
         (_, None) => String::new(),
     };
     let mut out = match &a.check {

@@ -891,6 +891,8 @@ pub struct ModFindings {
     /// The reason is the shop's alone (never in a listing).
     pub private: bool,
     pub figures: Vec<ModFigureFindings>,
+    /// The mod's network worked out, if it has one.
+    pub network: Option<super::network::NetworkFindings>,
 }
 
 /// One worked-out figure for a modification, with the formula used.

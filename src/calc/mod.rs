@@ -8,6 +8,7 @@ pub mod brief;
 mod circuit;
 mod findings;
 mod mains;
+pub mod network;
 mod safety;
 mod status;
 mod supply;
@@ -812,9 +813,7 @@ fn ratings_used(job: &Job, ratings: &RatingsTable) -> Vec<RatingUsed> {
             source: r.source.clone(),
             origin: match &r.origin {
                 crate::ratings::RatingOrigin::Builtin => "built in".to_string(),
-                crate::ratings::RatingOrigin::Shop(p) => {
-                    source_file_name(&p.display().to_string())
-                }
+                crate::ratings::RatingOrigin::Shop(p) => source_file_name(&p.display().to_string()),
             },
             positions: vec![position.clone()],
             mu_g1g2: r.mu_g1g2,
@@ -947,6 +946,22 @@ fn mod_findings(
             }
         }
     }
+    let network = m.network.as_ref().map(|n| {
+        let found = network::derive(n, job, ratings);
+        if let Some(problem) = &found.problem {
+            warnings.push(Warning::note(
+                None,
+                false,
+                "network",
+                Status::Caution,
+                format!(
+                    "The network of the mod “{}” could not be worked out: {problem}.",
+                    m.what
+                ),
+            ));
+        }
+        found
+    });
     ModFindings {
         what: m.what.clone(),
         why: m.why.clone(),
@@ -954,5 +969,6 @@ fn mod_findings(
         original_kept: m.original_kept,
         private: m.private,
         figures,
+        network,
     }
 }

@@ -33,6 +33,8 @@ pub enum Command {
     Tubes(TubesArgs),
     /// Write an annotated skeleton job file (or, with --shop, a shop profile) to start from.
     Init(InitArgs),
+    /// Write a mod's network as a plain SPICE netlist with an AC analysis.
+    Netlist(NetlistArgs),
 }
 
 /// Options every command that reads a job shares.
@@ -158,4 +160,22 @@ pub struct InitArgs {
     /// is never replaced.
     #[arg(long, value_name = "PATH")]
     pub shop: Option<PathBuf>,
+}
+
+#[derive(Debug, Args)]
+pub struct NetlistArgs {
+    #[command(flatten)]
+    pub job: JobArgs,
+    /// The mod whose network to write, counted from 1 in the job's `mods`.
+    #[arg(long = "mod", value_name = "N")]
+    pub mod_number: usize,
+    /// The network as left (after the mod's edits) instead of as found.
+    #[arg(long)]
+    pub after: bool,
+    /// Which of the network's pot settings, counted from 1.
+    #[arg(long, value_name = "S", default_value_t = 1)]
+    pub setting: usize,
+    /// Write to this file (atomically) instead of standard output.
+    #[arg(short, long, value_name = "FILE")]
+    pub output: Option<PathBuf>,
 }

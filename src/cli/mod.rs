@@ -7,6 +7,7 @@ mod check;
 pub mod exit;
 mod init;
 mod load;
+mod netlist;
 mod render;
 mod tubes;
 
@@ -37,6 +38,7 @@ pub fn main() -> ExitCode {
         args::Command::Render(a) => render::run(a),
         args::Command::Tubes(a) => tubes::run(a),
         args::Command::Init(a) => init::run(a),
+        args::Command::Netlist(a) => netlist::run(a),
     };
     if let Exit::Interrupted(signal) = exit {
         crate::typeset::interrupt::exit_as_signalled(signal);

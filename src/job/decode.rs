@@ -9,6 +9,7 @@ use std::collections::HashSet;
 use super::decode_bench::{BENCH_NODES, decode_bench_node};
 use super::decode_error::{DecodeError, suggestion_help};
 use super::model::*;
+use super::network::Network;
 use super::reader::Reader;
 use crate::units::{Amps, Farads, Hertz, Ohms, QuantityKind as Q, Volts, Watts};
 
@@ -94,6 +95,9 @@ pub const VALVE_CHECKS: &[&str] = &[
     "cathode-current",
     "rectifier-load",
 ];
+
+/// The bench tests an acceptance may name, as written in a job file.
+pub const BENCH_CHECKS: &[&str] = &["output-power", "hum-noise"];
 
 /// The safety tests, as written in a job file.
 pub const SAFETY_TESTS: &[&str] = &["earth-continuity", "insulation", "leakage"];
@@ -1186,7 +1190,7 @@ fn decode_mods(node: &KdlNode, r: &mut Reader) -> Vec<Modification> {
         let reversible = r.opt_prop_bool(child, "reversible");
         let original_kept = r.opt_prop_bool(child, "original-kept");
         let private = r.opt_prop_bool(child, "private").unwrap_or(false);
-        let figures = decode_mod_figures(child, r);
+        let (figures, network) = decode_mod_figures(child, r);
         if let Some(what) = what {
             out.push(Modification {
                 what: what.value,
@@ -1195,17 +1199,42 @@ fn decode_mods(node: &KdlNode, r: &mut Reader) -> Vec<Modification> {
                 original_kept,
                 private,
                 figures,
+                network,
             });
         }
     }
     out
 }
 
-pub const MOD_FIGURES: &[&str] = &["rc-corner", "cathode-bypass", "stage-gain", "phase-shift"];
+pub const MOD_FIGURES: &[&str] = &[
+    "rc-corner",
+    "cathode-bypass",
+    "stage-gain",
+    "phase-shift",
+    "network",
+];
 
-fn decode_mod_figures(node: &KdlNode, r: &mut Reader) -> Vec<ModFigure> {
+/// A mod's worked figures and its network, if it has one.
+fn decode_mod_figures(node: &KdlNode, r: &mut Reader) -> (Vec<ModFigure>, Option<Network>) {
     let mut out = Vec::new();
+    let mut network: Option<Network> = None;
     for child in r.children(node.children(), MOD_FIGURES, "a `mod`") {
+        if child.name().value() == "network" {
+            if network.is_some() {
+                r.push(
+                    DecodeError::error(
+                        "job::repeated-node",
+                        Reader::name_span(child),
+                        "a mod has one `network`; this is a second",
+                        "repeated here",
+                    )
+                    .with_help("write a second network under a mod of its own"),
+                );
+                continue;
+            }
+            network = super::network::decode::decode_network(child, r);
+            continue;
+        }
         r.no_children(child);
         let cap = |r: &mut Reader, key: &str, example: &str| {
             let q = r.req_prop_quantity(child, key, Q::Capacitance, example);
@@ -1271,7 +1300,7 @@ fn decode_mod_figures(node: &KdlNode, r: &mut Reader) -> Vec<ModFigure> {
             _ => {}
         }
     }
-    out
+    (out, network)
 }
 
 fn decode_safety(node: &KdlNode, defaults: &SafetyDefaults, r: &mut Reader) -> Option<Safety> {
@@ -1490,6 +1519,7 @@ fn decode_accepted(node: &KdlNode, info: &JobInfo, r: &mut Reader) -> Vec<Accept
             AcceptedKind::Valve => (&["check", "set", "reason", "by", "date"], 1),
             AcceptedKind::Heater => (&["label", "set", "reason", "by", "date"], 0),
             AcceptedKind::Safety => (&["reason", "by", "date"], 1),
+            AcceptedKind::Bench => (&["channel", "set", "reason", "by", "date"], 1),
             _ => (&["set", "reason", "by", "date"], 1),
         };
         r.check_entries(child, props, args);
@@ -1499,6 +1529,7 @@ fn decode_accepted(node: &KdlNode, info: &JobInfo, r: &mut Reader) -> Vec<Accept
             AcceptedKind::Part => "part C10 reason=\"…\"",
             AcceptedKind::Heater => "heater reason=\"…\"",
             AcceptedKind::Safety => "safety leakage reason=\"…\"",
+            AcceptedKind::Bench => "bench output-power channel=\"left\" reason=\"…\"",
         };
         let name = match kind {
             AcceptedKind::Heater => r.opt_prop_string(child, "label").map(|l| {
@@ -1525,6 +1556,24 @@ fn decode_accepted(node: &KdlNode, info: &JobInfo, r: &mut Reader) -> Vec<Accept
                     other => other,
                 }
             }
+            AcceptedKind::Bench => {
+                let n = r.req_arg_name(child, "the bench test's name", example);
+                match n {
+                    Some(n) if !BENCH_CHECKS.contains(&n.value.as_str()) => {
+                        r.push(
+                            DecodeError::error(
+                                "job::unknown-bench-test",
+                                n.span,
+                                format!("unknown bench test `{}` to accept", n.value),
+                                "not a bench test with a limit",
+                            )
+                            .with_help(suggestion_help(&n.value, BENCH_CHECKS)),
+                        );
+                        None
+                    }
+                    other => other,
+                }
+            }
             AcceptedKind::Valve => r.req_arg_name(child, "a valve position", example),
             AcceptedKind::Node => r.req_arg_name(child, "a node name", example),
             AcceptedKind::Part => r.req_arg_name(child, "a part reference", example),
@@ -1544,6 +1593,7 @@ fn decode_accepted(node: &KdlNode, info: &JobInfo, r: &mut Reader) -> Vec<Accept
             );
         }
         let set = Reader::prop(child, "set").and_then(|e| r.string(e, "`set`"));
+        let channel = Reader::prop(child, "channel").and_then(|e| r.string(e, "`channel`"));
         let reason = r.req_prop_string(child, "reason", example);
         if let Some(reason) = &reason
             && reason.value.trim().is_empty()
@@ -1593,6 +1643,7 @@ fn decode_accepted(node: &KdlNode, info: &JobInfo, r: &mut Reader) -> Vec<Accept
                 kind,
                 name,
                 check: check.filter(|c| VALVE_CHECKS.contains(&c.value.as_str())),
+                channel,
                 set,
                 reason: reason.value.trim().to_string(),
                 by,

@@ -8,6 +8,7 @@ pub(crate) mod decode;
 mod decode_bench;
 mod decode_error;
 mod model;
+pub mod network;
 pub(crate) mod reader;
 mod validate;
 mod valve_types;
@@ -18,8 +19,8 @@ pub use charges::{
 };
 pub use completeness::{NotMeasuredInFinal, not_measured_in_final};
 pub use decode::{
-    CIRCUIT_NODES, FORMAT_VERSION, MOD_FIGURES, SAFETY_TESTS, SET_NODES, SETTINGS, TOP_LEVEL,
-    VALVE_CHECKS,
+    BENCH_CHECKS, CIRCUIT_NODES, FORMAT_VERSION, MOD_FIGURES, SAFETY_TESTS, SET_NODES, SETTINGS,
+    TOP_LEVEL, VALVE_CHECKS,
 };
 pub use decode_bench::{BENCH_NODES, DEFAULT_FREQUENCY};
 pub use decode_error::{DecodeError, JobDiagnostics, did_you_mean, line_column, suggestion_help};
@@ -81,6 +82,7 @@ fn decode_inner(
             problems.append(&mut reader.problems);
             if let Some(job) = &job {
                 problems.extend(validate::cross_references(job));
+                problems.extend(network::check::check(job, ratings));
                 problems.extend(completeness::warnings(job));
                 if let Some(ratings) = ratings {
                     problems.extend(valve_types::check(job, ratings));

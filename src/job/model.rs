@@ -684,6 +684,8 @@ pub struct Modification {
     pub private: bool,
     /// Circuit figures the technician wants worked out for this mod.
     pub figures: Vec<ModFigure>,
+    /// The circuit network the mod changes, before and after.
+    pub network: Option<super::network::Network>,
 }
 
 /// A textbook circuit figure attached to a modification.
@@ -764,11 +766,13 @@ pub enum AcceptedKind {
     Heater,
     /// A safety test by its name.
     Safety,
+    /// A bench test (output power, hum and noise), of one channel or all.
+    Bench,
 }
 
 impl AcceptedKind {
     /// The child-node names of the `accepted` block.
-    pub const NAMES: [&'static str; 5] = ["valve", "node", "part", "heater", "safety"];
+    pub const NAMES: [&'static str; 6] = ["valve", "node", "part", "heater", "safety", "bench"];
 
     pub fn from_name(name: &str) -> Option<AcceptedKind> {
         Some(match name {
@@ -777,6 +781,7 @@ impl AcceptedKind {
             "part" => AcceptedKind::Part,
             "heater" => AcceptedKind::Heater,
             "safety" => AcceptedKind::Safety,
+            "bench" => AcceptedKind::Bench,
             _ => return None,
         })
     }
@@ -792,6 +797,8 @@ pub struct Acceptance {
     pub name: Option<Spanned<String>>,
     /// One named check of a valve (`screen-voltage`); none for all.
     pub check: Option<Spanned<String>>,
+    /// For a bench test, the channel it was read on; none for every one.
+    pub channel: Option<Spanned<String>>,
     /// The measurement set it applies to; none for every set.
     pub set: Option<Spanned<String>>,
     pub reason: String,

@@ -115,6 +115,11 @@ pub fn cross_references(job: &Job) -> Vec<DecodeError> {
                 position(valve, "a mod's figure");
             }
         }
+        for source in m.network.iter().flat_map(|n| n.sources()) {
+            if let super::network::SourceImpedance::Valve { valve, .. } = &source.impedance {
+                position(valve, "a network's source");
+            }
+        }
     }
 
     let mut node = |name: &Spanned<String>, what: &str| {
@@ -230,6 +235,21 @@ fn acceptance_names(job: &Job, positions: &[&str], nodes: &[&str]) -> Vec<Decode
         if let Some(set) = &a.set {
             unknown(set, &labels, "measurement set", "job::unknown-set");
         }
+        if let Some(channel) = &a.channel {
+            let channels: Vec<&str> = job
+                .measurements
+                .iter()
+                .flat_map(|m| {
+                    m.bench
+                        .output_power
+                        .iter()
+                        .map(|p| &p.channel)
+                        .chain(m.bench.hum_noise.iter().map(|h| &h.channel))
+                })
+                .filter_map(|c| c.as_deref())
+                .collect();
+            unknown(channel, &channels, "bench channel", "job::unknown-channel");
+        }
         let Some(name) = &a.name else { continue };
         match a.kind {
             AcceptedKind::Valve => {
@@ -240,6 +260,7 @@ fn acceptance_names(job: &Job, positions: &[&str], nodes: &[&str]) -> Vec<Decode
             AcceptedKind::Heater => {
                 unknown(name, &heater_labels, "heater label", "job::unknown-heater")
             }
+            AcceptedKind::Bench => {}
             AcceptedKind::Safety => {
                 let recorded: Vec<&str> = job
                     .safety

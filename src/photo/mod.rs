@@ -299,3 +299,246 @@ pub fn process(bytes: &[u8], format: PhotoFormat) -> Result<(Vec<u8>, u32, u32),
     written.map_err(|e| format!("could not be encoded again ({e})"))?;
     Ok((out.into_inner(), width, height))
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use image::{Rgb, RgbImage};
+
+    /// A job in `folder` whose photos are `paths`; decoded, with the job
+    /// file's path.
+    fn job_with(folder: &Path, paths: &[&str]) -> (Job, PathBuf) {
+        let mut text = String::from(
+            "job-format 1\njob id=\"T\"\nunit make=\"M\" model=\"N\"\nmains nominal=\"120V\"\nphotos {\n",
+        );
+        for p in paths {
+            text.push_str(&format!("    photo {p:?} caption=\"c\"\n"));
+        }
+        text.push_str("}\n");
+        let file = folder.join("job.kdl");
+        std::fs::write(&file, &text).unwrap();
+        let job = crate::job::decode("job.kdl", &text).unwrap().job;
+        (job, file)
+    }
+
+    /// The codes of the problems preparing `paths` gives, in order.
+    fn problems(folder: &Path, paths: &[&str]) -> Vec<&'static str> {
+        let (job, file) = job_with(folder, paths);
+        match prepare(&job, &file) {
+            Ok(_) => Vec::new(),
+            Err(p) => p.iter().map(|e| e.code).collect(),
+        }
+    }
+
+    /// A `w` × `h` picture: the left half red, the right half blue.
+    fn halves(w: u32, h: u32) -> RgbImage {
+        RgbImage::from_fn(w, h, |x, _| {
+            if x < w / 2 {
+                Rgb([230, 20, 20])
+            } else {
+                Rgb([20, 20, 230])
+            }
+        })
+    }
+
+    fn png_bytes(img: &RgbImage) -> Vec<u8> {
+        let mut out = std::io::Cursor::new(Vec::new());
+        img.write_to(&mut out, ImageFormat::Png).unwrap();
+        out.into_inner()
+    }
+
+    /// An EXIF block (big-endian TIFF) with the orientation tag and a GPS
+    /// folder holding a latitude reference and `marker` as its processing
+    /// method, as a camera writes one.
+    fn exif_block(orientation: u16, marker: &[u8]) -> Vec<u8> {
+        let mut t: Vec<u8> = b"MM\0\x2a\0\0\0\x08".to_vec();
+        let entry = |t: &mut Vec<u8>, tag: u16, kind: u16, count: u32, value: [u8; 4]| {
+            t.extend(tag.to_be_bytes());
+            t.extend(kind.to_be_bytes());
+            t.extend(count.to_be_bytes());
+            t.extend(value);
+        };
+        // IFD0 at 8: two entries, then the next-IFD offset: 30 bytes.
+        let gps_at: u32 = 8 + 30;
+        t.extend(2u16.to_be_bytes());
+        let o = orientation.to_be_bytes();
+        entry(&mut t, 0x0112, 3, 1, [o[0], o[1], 0, 0]);
+        entry(&mut t, 0x8825, 4, 1, gps_at.to_be_bytes());
+        t.extend(0u32.to_be_bytes());
+        // The GPS IFD: two entries (30 bytes), then the marker's bytes.
+        let data_at: u32 = gps_at + 30;
+        t.extend(2u16.to_be_bytes());
+        entry(&mut t, 0x0001, 2, 2, [b'N', 0, 0, 0]);
+        entry(
+            &mut t,
+            0x001B,
+            7,
+            marker.len() as u32,
+            data_at.to_be_bytes(),
+        );
+        t.extend(0u32.to_be_bytes());
+        t.extend(marker);
+        t
+    }
+
+    /// A JPEG of `img` with an EXIF block put after its start marker.
+    fn jpeg_with_exif(img: &RgbImage, orientation: u16, marker: &[u8]) -> Vec<u8> {
+        let mut plain = std::io::Cursor::new(Vec::new());
+        img.write_to(&mut plain, ImageFormat::Jpeg).unwrap();
+        let plain = plain.into_inner();
+        let mut app1 = b"Exif\0\0".to_vec();
+        app1.extend(exif_block(orientation, marker));
+        let mut out = plain[..2].to_vec();
+        out.extend([0xFF, 0xE1]);
+        out.extend(((app1.len() + 2) as u16).to_be_bytes());
+        out.extend(app1);
+        out.extend(&plain[2..]);
+        out
+    }
+
+    fn contains(hay: &[u8], needle: &[u8]) -> bool {
+        hay.windows(needle.len()).any(|w| w == needle)
+    }
+
+    /// A job folder `job/` with a picture `outside.png` beside it.
+    fn folders() -> (tempfile::TempDir, PathBuf) {
+        let dir = tempfile::tempdir().unwrap();
+        let job = dir.path().join("job");
+        std::fs::create_dir_all(job.join("photos")).unwrap();
+        std::fs::write(dir.path().join("outside.png"), png_bytes(&halves(8, 8))).unwrap();
+        (dir, job)
+    }
+
+    #[test]
+    fn a_path_that_climbs_out_of_the_job_folder_is_refused() {
+        let (_dir, job) = folders();
+        assert_eq!(
+            problems(&job, &["../outside.png", "photos/../../outside.png"]),
+            ["job::photo-outside-folder", "job::photo-outside-folder"]
+        );
+    }
+
+    #[test]
+    fn an_absolute_path_is_refused_even_to_a_real_picture() {
+        let (dir, job) = folders();
+        let absolute = dir.path().join("outside.png");
+        let absolute = absolute.to_str().unwrap();
+        assert_eq!(problems(&job, &[absolute]), ["job::photo-absolute-path"]);
+    }
+
+    #[cfg(unix)]
+    #[test]
+    fn a_link_that_leads_out_of_the_job_folder_is_refused() {
+        let (dir, job) = folders();
+        std::os::unix::fs::symlink(dir.path().join("outside.png"), job.join("photos/out.png"))
+            .unwrap();
+        // A folder link on the way counts too.
+        std::os::unix::fs::symlink(dir.path(), job.join("up")).unwrap();
+        assert_eq!(
+            problems(&job, &["photos/out.png", "up/outside.png"]),
+            ["job::photo-link-outside", "job::photo-link-outside"]
+        );
+        // A link that stays inside the folder is followed.
+        std::fs::write(job.join("photos/in.png"), png_bytes(&halves(8, 8))).unwrap();
+        std::os::unix::fs::symlink("in.png", job.join("photos/alias.png")).unwrap();
+        assert_eq!(problems(&job, &["photos/alias.png"]), Vec::<&str>::new());
+    }
+
+    #[test]
+    fn a_text_file_named_jpg_is_refused_by_its_content() {
+        let (_dir, job) = folders();
+        std::fs::write(job.join("photos/notes.jpg"), "not a picture at all\n").unwrap();
+        let (j, file) = job_with(&job, &["photos/notes.jpg"]);
+        let err = prepare(&j, &file).unwrap_err();
+        assert_eq!(err[0].code, "job::photo-not-an-image");
+        assert!(
+            err[0].message.contains("its content is text"),
+            "{}",
+            err[0].message
+        );
+        // And a PNG named .jpg is fine: the content decides.
+        std::fs::write(job.join("photos/really.jpg"), png_bytes(&halves(8, 8))).unwrap();
+        let (j, file) = job_with(&job, &["photos/really.jpg"]);
+        let ready = prepare(&j, &file).unwrap();
+        assert_eq!(PhotoFormat::sniff(&ready[0].bytes), Some(PhotoFormat::Png));
+    }
+
+    #[test]
+    fn a_thirty_megabyte_file_is_refused_before_it_is_read() {
+        let (_dir, job) = folders();
+        let big = std::fs::File::create(job.join("photos/big.jpg")).unwrap();
+        big.set_len(30_000_000).unwrap();
+        let (j, file) = job_with(&job, &["photos/big.jpg"]);
+        let err = prepare(&j, &file).unwrap_err();
+        assert_eq!(err[0].code, "job::photo-too-large");
+        assert!(err[0].message.contains("30.0 MB"), "{}", err[0].message);
+        assert!(
+            err[0].message.contains("limit is 20 MB"),
+            "{}",
+            err[0].message
+        );
+    }
+
+    #[test]
+    fn a_folder_or_a_missing_file_is_refused_at_its_line() {
+        let (_dir, job) = folders();
+        assert_eq!(
+            problems(&job, &["photos", "photos/none.png"]),
+            ["job::photo-not-a-file", "job::photo-unreadable"]
+        );
+        // Each problem points at its own `photo` line: lines 6 and 7.
+        let (j, file) = job_with(&job, &["photos", "photos/none.png"]);
+        let text = std::fs::read_to_string(&file).unwrap();
+        let lines: Vec<usize> = prepare(&j, &file)
+            .unwrap_err()
+            .iter()
+            .map(|e| crate::job::line_column(&text, e.span.offset()).0)
+            .collect();
+        assert_eq!(lines, [6, 7]);
+    }
+
+    #[test]
+    fn a_rotated_jpeg_is_turned_upright_and_its_exif_and_gps_are_dropped() {
+        let (_dir, job) = folders();
+        let marker = b"GPS-MARKER-51.4779N";
+        // Stored 80 × 40, left half red; orientation 6 means "turn 90°
+        // clockwise to view" (EXIF 2.32, tag 0x0112), so upright it is
+        // 40 × 80 with the red half on top.
+        let stored = jpeg_with_exif(&halves(80, 40), 6, marker);
+        assert!(contains(&stored, marker) && contains(&stored, b"Exif\0\0"));
+        std::fs::write(job.join("photos/rotated.jpg"), &stored).unwrap();
+        let (j, file) = job_with(&job, &["photos/rotated.jpg"]);
+        let ready = prepare(&j, &file).unwrap().remove(0);
+        assert_eq!((ready.width, ready.height), (40, 80));
+        assert_eq!(ready.sandbox_path, "photos/photo-1.jpg");
+        // What typst receives: no EXIF block, no GPS, no marker.
+        assert!(!contains(&ready.bytes, b"Exif"), "EXIF kept");
+        assert!(!contains(&ready.bytes, marker), "GPS data kept");
+        let back = image::load_from_memory(&ready.bytes).unwrap().to_rgb8();
+        assert_eq!(back.dimensions(), (40, 80));
+        let top = back.get_pixel(20, 10);
+        let bottom = back.get_pixel(20, 70);
+        assert!(top[0] > 150 && top[2] < 100, "top is {top:?}, not red");
+        assert!(
+            bottom[2] > 150 && bottom[0] < 100,
+            "bottom is {bottom:?}, not blue"
+        );
+    }
+
+    #[test]
+    fn a_large_photo_is_shrunk_to_its_print_size_and_a_small_one_kept() {
+        let (_dir, job) = folders();
+        // 3000 × 1000 into the 80 × 60 mm box at 200 dpi (630 × 472 px):
+        // the width decides, 630 × 210.
+        std::fs::write(job.join("photos/wide.png"), png_bytes(&halves(3000, 1000))).unwrap();
+        std::fs::write(job.join("photos/small.png"), png_bytes(&halves(100, 50))).unwrap();
+        let (j, file) = job_with(&job, &["photos/wide.png", "photos/small.png"]);
+        let ready = prepare(&j, &file).unwrap();
+        assert_eq!(print_box_pixels(), (630, 472));
+        assert_eq!((ready[0].width, ready[0].height), (630, 210));
+        assert_eq!((ready[1].width, ready[1].height), (100, 50));
+        // The same file always gives the same bytes.
+        let again = prepare(&j, &file).unwrap();
+        assert_eq!(ready[0].bytes, again[0].bytes);
+    }
+}

@@ -4,6 +4,8 @@
 pub mod attention;
 pub mod handover;
 pub mod json;
+pub mod netlist;
+pub mod network_chart;
 pub mod photos;
 pub mod plots;
 pub mod response_chart;

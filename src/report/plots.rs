@@ -535,7 +535,7 @@ pub(crate) fn draw_label(
 /// pixels.
 pub(crate) const LABEL_HEIGHT: f64 = 12.0;
 
-fn err(chart: &'static str) -> impl Fn(String) -> PlotError {
+pub(crate) fn err(chart: &'static str) -> impl Fn(String) -> PlotError {
     move |message| PlotError { chart, message }
 }
 

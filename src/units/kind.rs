@@ -13,6 +13,7 @@ pub enum QuantityKind {
     Resistance,
     Power,
     Capacitance,
+    Inductance,
     Frequency,
     /// A plain ratio written in percent (`"5%"` or `5`).
     Percent,
@@ -27,6 +28,7 @@ impl QuantityKind {
             QuantityKind::Resistance => "Ω",
             QuantityKind::Power => "W",
             QuantityKind::Capacitance => "F",
+            QuantityKind::Inductance => "H",
             QuantityKind::Frequency => "Hz",
             QuantityKind::Percent => "%",
         }
@@ -40,6 +42,7 @@ impl QuantityKind {
             QuantityKind::Resistance => "a resistance",
             QuantityKind::Power => "a power",
             QuantityKind::Capacitance => "a capacitance",
+            QuantityKind::Inductance => "an inductance",
             QuantityKind::Frequency => "a frequency",
             QuantityKind::Percent => "a percentage",
         }
@@ -53,6 +56,7 @@ impl QuantityKind {
             QuantityKind::Resistance => "\"470k\", \"4k7\", \"1R\" or 470000",
             QuantityKind::Power => "\"5W\", \"0.5W\" or 5",
             QuantityKind::Capacitance => "\"22µF\", \"0.022u\", \"4n7\" or 22e-6",
+            QuantityKind::Inductance => "\"500mH\", \"1.5H\" or 0.5",
             QuantityKind::Frequency => "\"60Hz\" or 50",
             QuantityKind::Percent => "\"10%\" or 10",
         }
@@ -66,6 +70,7 @@ impl QuantityKind {
             QuantityKind::Resistance => &["\u{3a9}", "\u{2126}", "ohm", "ohms", "Ohm", "Ohms", "R"],
             QuantityKind::Power => &["W"],
             QuantityKind::Capacitance => &["F"],
+            QuantityKind::Inductance => &["H"],
             QuantityKind::Frequency => &["Hz"],
             QuantityKind::Percent => &["%"],
         }
@@ -88,6 +93,8 @@ impl QuantityKind {
     ///   above any part of an amplifier;
     /// - capacitance 1 fF … 10 F: below a stray capacitance, above any
     ///   electrolytic;
+    /// - inductance 1 nH … 10 kH: a wire's own inductance, above any
+    ///   choke or transformer winding;
     /// - frequency 1 Hz … 1 MHz: mains and audio with room to spare;
     /// - percent 0 … 1,000 %: tolerances, bands and margins.
     pub fn accepted_range(self) -> (f64, f64) {
@@ -97,6 +104,7 @@ impl QuantityKind {
             QuantityKind::Resistance => (1e-3, 1e12),
             QuantityKind::Power => (1e-3, 1e4),
             QuantityKind::Capacitance => (1e-15, 10.0),
+            QuantityKind::Inductance => (1e-9, 1e4),
             QuantityKind::Frequency => (1.0, 1e6),
             QuantityKind::Percent => (0.0, 1000.0),
         }
@@ -118,18 +126,20 @@ impl QuantityKind {
             QuantityKind::Resistance => "1 mΩ to 1 TΩ",
             QuantityKind::Power => "1 mW to 10 kW",
             QuantityKind::Capacitance => "1 fF to 10 F",
+            QuantityKind::Inductance => "1 nH to 10 kH",
             QuantityKind::Frequency => "1 Hz to 1 MHz",
             QuantityKind::Percent => "0 % to 1000 %",
         }
     }
 
     /// All kinds, for recognising a symbol that belongs elsewhere.
-    pub const ALL: [QuantityKind; 7] = [
+    pub const ALL: [QuantityKind; 8] = [
         QuantityKind::Voltage,
         QuantityKind::Current,
         QuantityKind::Resistance,
         QuantityKind::Power,
         QuantityKind::Capacitance,
+        QuantityKind::Inductance,
         QuantityKind::Frequency,
         QuantityKind::Percent,
     ];

@@ -11,4 +11,4 @@ pub use format::{format_engineering, format_engineering_sig, format_fixed, forma
 pub use kind::QuantityKind;
 pub use parse::{UnitError, UnitProblem, parse_quantity};
 pub use preferred::{Series, nearest_preferred};
-pub use quantity::{Amps, Farads, Hertz, Ohms, Volts, Watts, rc_corner};
+pub use quantity::{Amps, Farads, Henries, Hertz, Ohms, Volts, Watts, rc_corner};

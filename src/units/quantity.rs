@@ -119,6 +119,11 @@ quantity!(
     QuantityKind::Capacitance
 );
 quantity!(
+    /// Inductance, henries.
+    Henries,
+    QuantityKind::Inductance
+);
+quantity!(
     /// Frequency, hertz.
     Hertz,
     QuantityKind::Frequency

@@ -29,7 +29,12 @@ use super::shop_block::{AcceptanceBlock, ShopBlock, acceptance, paper};
 use crate::report::attention::{self, Attention};
 use crate::report::photos::PhotoRow;
 use crate::report::summary::Summary;
+
+mod network_view;
 use crate::units::{QuantityKind as Q, format_engineering, format_fixed, format_sig};
+pub use network_view::{
+    NetworkRow, NetworkView, OscillatorRow, OscillatorView, network_plot_path, network_view,
+};
 
 /// The footer shows at most this much of the job id (the header has it all).
 pub const FOOTER_ID_CHARS: usize = 40;
@@ -244,6 +249,8 @@ pub struct ModRow {
     pub original_kept: Option<String>,
     /// Textbook circuit figures worked out for the modification.
     pub figures: Vec<ModFigureRow>,
+    /// The network the mod changes: its response before and after.
+    pub network: Option<NetworkView>,
 }
 
 /// One worked-out figure of a modification.
@@ -884,6 +891,12 @@ pub fn build_context(
                     .filter(|f| f.what == m.what)
                     .map(mod_figures)
                     .unwrap_or_default(),
+                network: findings
+                    .mods
+                    .get(i)
+                    .filter(|f| f.what == m.what)
+                    .and_then(|f| f.network.as_ref())
+                    .map(|n| network_view(i, n)),
             })
             .collect(),
         notes: job.notes.iter().map(|n| reflow(&n.text)).collect(),

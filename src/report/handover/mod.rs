@@ -27,12 +27,13 @@ pub use context::{
     WindowReading, WindowRow, build_context, date_words, warm_up_plot,
 };
 pub use context::{
-    BenchContext, GainRow, HumNoiseRow, OutputPowerRow, ResponsePointRow, ResponseRow,
-    SuggestionOption, SuggestionRow,
+    BenchContext, GainRow, HumNoiseRow, NetworkRow, NetworkView, OscillatorRow, OscillatorView,
+    OutputPowerRow, ResponsePointRow, ResponseRow, SuggestionOption, SuggestionRow,
 };
-pub(crate) use context::{glue_units, pct0, reflow, safety as safety_context, volts, yes_no};
+// LISTING-REEXPORT
 pub use shop_block::{AcceptanceBlock, ShopBlock, WarrantyInfo, acceptance, paper};
 
+use super::network_chart;
 use super::plots::{self, PlotError};
 use super::response_chart;
 use crate::calc::Findings;
@@ -223,6 +224,14 @@ pub fn build(
     }
     if let Some(chart) = &response {
         sandbox.insert(RESPONSE_PLOT, response_chart::response_svg(chart)?)?;
+    }
+    for (i, m) in input.findings.mods.iter().enumerate() {
+        if let Some(chart) = m.network.as_ref().and_then(network_chart::response_chart) {
+            sandbox.insert(
+                context::network_plot_path(i),
+                network_chart::response_svg(&chart)?,
+            )?;
+        }
     }
     let mut warm_up_plots = Vec::new();
     for (i, set) in input.findings.sets.iter().enumerate() {
@@ -442,8 +451,9 @@ mod tests {
         let (job, findings, text) = demo("combo-6v6-fixed.kdl");
         let doc = document(&job, &findings, &text);
         let ctx = &doc.context;
-        assert_eq!(ctx.mods.len(), 2);
+        assert_eq!(ctx.mods.len(), 3);
         assert!(ctx.mods[0].figures.is_empty());
+        assert!(ctx.mods[1].network.is_none());
         let figures = &ctx.mods[1].figures;
         assert_eq!(figures.len(), 3);
         // fc = 1 / (2π · (Rk ∥ (ra + RL)/(μ + 1)) · Ck) with Rk 1.5 kΩ, RL 100 kΩ,
@@ -492,6 +502,58 @@ mod tests {
         let (job, findings, text) = demo("head-el34-quad.kdl");
         let doc = document(&job, &findings, &text);
         assert!(doc.context.sets.iter().all(|s| s.rectifier.is_none()));
+    }
+
+    #[test]
+    fn a_mods_network_reaches_the_document_with_its_chart_and_figures() {
+        let (job, findings, text) = demo("combo-6v6-fixed.kdl");
+        let doc = document(&job, &findings, &text);
+        let view = doc.context.mods[2]
+            .network
+            .as_ref()
+            .expect("the tone network");
+        let net = findings.mods[2].network.as_ref().unwrap();
+        assert_eq!(view.plot.as_deref(), Some("plots/network-mod-3.svg"));
+        let svg = doc
+            .sandbox
+            .get("plots/network-mod-3.svg")
+            .expect("the chart");
+        assert!(String::from_utf8_lossy(svg).contains("before the mod"));
+        // Two settings, each a before, an after and a change row.
+        assert_eq!(view.rows.len(), 6);
+        let kinds: Vec<&str> = view.rows.iter().map(|r| r.kind.as_str()).collect();
+        assert_eq!(
+            kinds,
+            ["before", "after", "change", "before", "after", "change"]
+        );
+        // The figures are calc's, to one decimal.
+        let one = |v: f64| {
+            format!(
+                "{}\u{a0}dB",
+                crate::units::format_fixed(v, 1).replace('-', "\u{2212}")
+            )
+        };
+        assert_eq!(view.rows[0].at_1khz, one(net.curves[0].gain_1khz_db));
+        assert_eq!(view.rows[4].at_5khz, one(net.curves[3].gain_5khz_db));
+        assert!(
+            view.rows[2].at_100hz.starts_with('+'),
+            "{}",
+            view.rows[2].at_100hz
+        );
+        assert_eq!(view.rows[0].setting, "1: treble 4, bass 6, middle 5");
+        assert_eq!(
+            view.edits,
+            [
+                "C5 250\u{a0}pF → 470\u{a0}pF",
+                "R5 100\u{a0}kΩ → 56\u{a0}kΩ"
+            ]
+        );
+        let source = String::from_utf8(doc.sandbox.get(MAIN_SOURCE).unwrap().to_vec()).unwrap();
+        assert!(source.contains("plots/network-mod-3.svg"));
+        assert!(
+            source.contains("Pot settings \\(0–10\\)") || source.contains("Pot settings (0–10)")
+        );
+        assert!(source.contains(&crate::typeset::escape_markup(&view.rows[3].feature)));
     }
 
     #[test]
