@@ -7,6 +7,7 @@
 
 pub mod calc;
 pub mod cli;
+pub mod folders;
 pub mod git;
 pub mod input_file;
 pub mod job;
