@@ -88,7 +88,11 @@ pub fn run(args: &RenderArgs) -> Exit {
     };
 
     let mut inputs = inputs_read(args, &program, loaded.shop.as_ref());
-    inputs.extend(photos.iter().map(|p| Input::new(&p.source, "a photo of the job")));
+    inputs.extend(
+        photos
+            .iter()
+            .map(|p| Input::new(&p.source, "a photo of the job")),
+    );
     if let Err(e) = typeset::check_output(&output, &inputs) {
         eprintln!("{:?}", miette::Report::new(e));
         return Exit::Usage;
