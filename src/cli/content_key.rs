@@ -15,8 +15,8 @@
 //! * every `--ratings` file's bytes, in order;
 //! * every file of the `--templates` folder, by path, with its bytes;
 //! * the job file's text as it was read for this render;
-//! * the shop profile and its logo, and any photo, once the job has them
-//!   ([`JobKey::file`]).
+//! * the shop profile and its logo, the job's photos and the commit its
+//!   git repository stands at ([`JobKey::file`], fed by `render`).
 //!
 //! The manifest is `.NAME.ampreport-key` beside `NAME` (the PDF): three
 //! lines, the format, the key and the BLAKE3 hash of the PDF. It is

@@ -276,6 +276,40 @@ pub fn read_job(path: &Path, said: &mut Said) -> Result<String, Exit> {
     Ok(text)
 }
 
+/// The job's photos, checked and prepared for a document; every problem
+/// is told at its `photo` line.
+pub fn photos(
+    job_file: &Path,
+    loaded: &Loaded,
+    said: &mut Said,
+) -> Result<Vec<crate::photo::PreparedPhoto>, Exit> {
+    crate::photo::prepare(&loaded.decoded.job, job_file).map_err(|problems| {
+        let name = job_name(job_file);
+        let diagnostics = job::JobDiagnostics {
+            source: loaded.decoded.diagnostics.source.clone(),
+            problems,
+            not_shown: Default::default(),
+        };
+        refused(&name, &loaded.text, diagnostics, said);
+        Exit::InvalidInput
+    })
+}
+
+/// Records where the job file came from in its findings: the SHA-256 of
+/// its bytes and, when it is in a git repository, the commit that last
+/// changed it and whether the bytes read differ from it.
+pub fn stamp(job: &Path, loaded: &Loaded, findings: &mut crate::calc::Findings) {
+    use sha2::{Digest, Sha256};
+    let digest = Sha256::digest(loaded.text.as_bytes());
+    findings.job.file_sha256 = Some(digest.iter().map(|b| format!("{b:02x}")).collect());
+    // A job from standard input has no file git could know.
+    findings.job.git = if is_dash(job) {
+        None
+    } else {
+        crate::git::revision(job, loaded.text.as_bytes())
+    };
+}
+
 /// A file's text; `what` names it in the message ("shop profile").
 pub fn read_text(path: &Path, what: &'static str, said: &mut Said) -> Result<String, Exit> {
     crate::input_file::read_text(path, what).map_err(|e| {

@@ -92,6 +92,9 @@ pub struct Setup<'a> {
     pub job_files: InputIndex,
     /// True for several jobs or a folder: a summary at the end.
     pub batch: bool,
+    /// The commit each job folder's git repository stands at, asked once
+    /// per folder.
+    heads: std::sync::Mutex<std::collections::HashMap<PathBuf, Option<String>>>,
 }
 
 impl<'a> Setup<'a> {
@@ -126,6 +129,11 @@ impl<'a> Setup<'a> {
         let program = match pending.finish_within(args.timeout) {
             Ok(p) => p,
             Err(e) => {
+                // A problem with one job named alone is still told first,
+                // as it would be with typst at hand.
+                if !batch && let Err(exit) = job_readable(args, &jobs[0].path, &ratings) {
+                    return Err(exit);
+                }
                 let mut said = Said::default();
                 let exit = report_typeset_error(e, &templates, None, &mut said);
                 said.print();
@@ -183,8 +191,41 @@ impl<'a> Setup<'a> {
             plans,
             job_files,
             batch,
+            heads: Default::default(),
         })
     }
+}
+
+impl Setup<'_> {
+    /// The commit `HEAD` of the git repository holding the job at
+    /// `job_path`, if any; asked once per folder in a run.
+    fn repository_head(&self, job_path: &Path) -> Option<String> {
+        if is_dash(job_path) {
+            return None;
+        }
+        let folder = match job_path.parent() {
+            Some(p) if !p.as_os_str().is_empty() => p.to_path_buf(),
+            _ => PathBuf::from("."),
+        };
+        if let Some(known) = self.heads.lock().ok()?.get(&folder) {
+            return known.clone();
+        }
+        let head = crate::git::head(&folder);
+        if let Ok(mut heads) = self.heads.lock() {
+            heads.insert(folder, head.clone());
+        }
+        head
+    }
+}
+
+/// Reads and decodes the job at `path` and checks its photos, printing
+/// what it had to say; the exit status when it is at fault.
+fn job_readable(args: &RenderArgs, path: &Path, ratings: &RatingsTable) -> Result<(), Exit> {
+    let mut said = Said::default();
+    let checked = load::job(path, args.job.shop_choice(), ratings, &mut said)
+        .and_then(|loaded| load::photos(path, &loaded, &mut said).map(drop));
+    said.print();
+    checked
 }
 
 /// The options that change a document's bytes, for the content key.
@@ -309,7 +350,21 @@ fn render_job(
         ));
         return Err(Exit::Environment);
     }
-    let inputs = inputs_read(args, job_path, &setup.program, shop.as_ref());
+    let loaded = load::decode(job_path, text, shop, &setup.ratings, said)?;
+    let job = &loaded.decoded.job;
+    let photo_files = if is_dash(job_path) {
+        Vec::new()
+    } else {
+        crate::photo::photo_paths(job, job_path)
+    };
+    depends.extend(photo_files.iter().cloned());
+
+    let mut inputs = inputs_read(args, job_path, &setup.program, loaded.shop.as_ref());
+    inputs.extend(
+        photo_files
+            .iter()
+            .map(|p| Input::new(p, "a photo of the job")),
+    );
     if let Err(e) =
         typeset::check_output(output, &inputs).and_then(|()| setup.job_files.check(output))
     {
@@ -317,12 +372,13 @@ fn render_job(
         return Err(Exit::Usage);
     }
 
-    // The key covers the texts read above, the very bytes the job and its
-    // shop profile are decoded from below, and the logo's checked bytes.
+    // The key covers the texts read above (the very bytes the job and its
+    // shop profile were decoded from), the logo's checked bytes, the
+    // photos' bytes and where the job's repository stands.
     let key = setup
         .run_key
         .as_ref()
-        .map(|run| job_key(run, &text, shop.as_ref()));
+        .and_then(|run| job_key(setup, run, job_path, &loaded, &photo_files));
     if let Some(key) = &key
         && !args.force
         && args.emit_source.is_none()
@@ -332,9 +388,9 @@ fn render_job(
         return Ok(Outcome::Unchanged);
     }
 
-    let loaded = load::decode(job_path, text, shop, &setup.ratings, said)?;
-    let job = &loaded.decoded.job;
-    let findings = calc::derive(job, &setup.ratings);
+    let photos = load::photos(job_path, &loaded, said)?;
+    let mut findings = calc::derive(job, &setup.ratings);
+    load::stamp(job_path, &loaded, &mut findings);
     for warning in undrawable_text(&load::job_name(job_path), &loaded.text) {
         said.warn(warning);
     }
@@ -347,6 +403,8 @@ fn render_job(
         shop: loaded.shop.as_ref().map(|s| &s.profile),
         logo: loaded.shop.as_ref().and_then(|s| s.logo.as_ref()),
         include_charges: !args.no_charges,
+        revision: findings.job.git.clone(),
+        photos: &photos,
     };
     let document = match handover::build(&input, &setup.templates) {
         Ok(d) => d,
@@ -430,11 +488,21 @@ fn render_job(
     }
 }
 
-/// A job's content key: the run's shared inputs, the job's text, and its
-/// shop profile's text and logo (or their absence).
-fn job_key(run: &RunKey, text: &str, shop: Option<&load::LoadedShop>) -> String {
-    let mut key = run.job(text);
-    match shop {
+/// A job's content key: the run's shared inputs, the job's text, its
+/// shop profile's text and logo (or their absence), the bytes of each
+/// photo, and the commit its git repository stands at (the footer names
+/// the commit that last changed the job and whether the bytes read are
+/// that commit's: both follow from that commit and the job's bytes).
+/// `None` when a photo cannot be read: the render then reports it.
+fn job_key(
+    setup: &Setup<'_>,
+    run: &RunKey,
+    job_path: &Path,
+    loaded: &load::Loaded,
+    photos: &[PathBuf],
+) -> Option<String> {
+    let mut key = run.job(&loaded.text);
+    match &loaded.shop {
         Some(shop) => {
             key.file("shop profile", shop.text.as_bytes());
             match &shop.logo {
@@ -447,7 +515,15 @@ fn job_key(run: &RunKey, text: &str, shop: Option<&load::LoadedShop>) -> String 
         }
         None => key.none("shop profile"),
     }
-    key.finish()
+    key.file("photos", &(photos.len() as u64).to_le_bytes());
+    for photo in photos {
+        key.file("photo", &std::fs::read(photo).ok()?);
+    }
+    match setup.repository_head(job_path) {
+        Some(head) => key.file("git head", head.as_bytes()),
+        None => key.none("git head"),
+    }
+    Some(key.finish())
 }
 
 /// Every path the render of `job` reads, for the output checks: an output

@@ -31,6 +31,7 @@ pub use context::{
     BenchContext, GainRow, HumNoiseRow, NetworkRow, NetworkView, OscillatorRow, OscillatorView,
     OutputPowerRow, ResponsePointRow, ResponseRow, SuggestionOption, SuggestionRow,
 };
+// LISTING-REEXPORT
 pub use shop_block::{AcceptanceBlock, ShopBlock, WarrantyInfo, acceptance, paper};
 
 use super::network_chart;
@@ -136,6 +137,10 @@ pub struct HandoverInput<'a> {
     pub logo: Option<&'a Logo>,
     /// Whether the job's charges are shown (`--no-charges` leaves them out).
     pub include_charges: bool,
+    /// Where the job file stands in git, for the footer.
+    pub revision: Option<crate::git::Revision>,
+    /// The job's photos, checked and prepared ([`crate::photo::prepare`]).
+    pub photos: &'a [crate::photo::PreparedPhoto],
 }
 
 impl<'a> HandoverInput<'a> {
@@ -154,6 +159,8 @@ impl<'a> HandoverInput<'a> {
             shop: None,
             logo: None,
             include_charges: true,
+            revision: None,
+            photos: &[],
         }
     }
 }
@@ -266,6 +273,9 @@ pub fn build(
     if let (Some(logo), Some(_)) = (input.logo, input.shop) {
         sandbox.insert(logo.sandbox_path(), logo.bytes.clone())?;
     }
+    for photo in input.photos {
+        sandbox.insert(photo.sandbox_path.clone(), photo.bytes.clone())?;
+    }
     let inputs = ContextInputs {
         shop,
         profile: input.shop,
@@ -275,6 +285,8 @@ pub fn build(
         job_digest: &digest,
         dissipation_charts,
         supply_charts,
+        revision: input.revision.as_ref(),
+        photos: crate::report::photos::photo_rows(input.photos),
         warm_up_plots,
         response_charts,
     };
@@ -418,15 +430,7 @@ mod tests {
     }
 
     fn document(job: &Job, findings: &Findings, text: &str) -> Document {
-        let input = HandoverInput {
-            job,
-            findings,
-            job_text: text,
-            typst_version: "0.15.1".into(),
-            shop: None,
-            logo: None,
-            include_charges: true,
-        };
+        let input = HandoverInput::new(job, findings, text, "0.15.1");
         build(&input, &TemplateSource::embedded(EMBEDDED_TEMPLATES)).unwrap()
     }
 
@@ -614,13 +618,8 @@ mod tests {
 
         // --no-charges: nothing of them in the context or the source.
         let input = HandoverInput {
-            job: &job,
-            findings: &findings,
-            job_text: &text,
-            typst_version: "0.15.1".into(),
-            shop: None,
-            logo: None,
             include_charges: false,
+            ..HandoverInput::new(&job, &findings, &text, "0.15.1")
         };
         let doc = build(&input, &TemplateSource::embedded(EMBEDDED_TEMPLATES)).unwrap();
         assert!(doc.context.charges.is_none());
@@ -670,15 +669,7 @@ mod tests {
         let dir = tempfile::tempdir().unwrap();
         std::fs::write(dir.path().join(TEMPLATE_NAME), "{{ no_such_thing }}").unwrap();
         let (job, findings, text) = demo("combo-el84-cathode.kdl");
-        let input = HandoverInput {
-            job: &job,
-            findings: &findings,
-            job_text: &text,
-            typst_version: "0.15.1".into(),
-            shop: None,
-            logo: None,
-            include_charges: true,
-        };
+        let input = HandoverInput::new(&job, &findings, &text, "0.15.1");
         let source = TemplateSource::embedded(EMBEDDED_TEMPLATES).with_override_dir(dir.path());
         match build(&input, &source) {
             Err(HandoverError::Template {
