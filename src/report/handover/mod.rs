@@ -36,6 +36,7 @@ use super::network_chart;
 use super::plots::{self, PlotError};
 use super::response_chart;
 use crate::calc::Findings;
+use crate::catalogue::{Arg, Catalogue};
 use crate::job::Job;
 use crate::shop::{Logo, ShopProfile};
 use crate::typeset::{
@@ -58,8 +59,9 @@ pub const IMAGES_DIR: &str = "images";
 /// from a `--templates` folder, so no template can change its words.
 pub const NOTICE_SOURCE: &str = "mains-safety.typ";
 
-/// The notice's Typst source.
-pub const NOTICE_TEXT: &str = include_str!("../../../templates/mains-safety.typ");
+/// The notice's Typst source as a template: its words come from the
+/// message catalogue ([`notice_source`]).
+pub const NOTICE_TEMPLATE: &str = include_str!("../../../templates/mains-safety.typ");
 
 /// The line a template must hold to place the notice.
 pub const NOTICE_INCLUDE: &str = "#include \"mains-safety.typ\"";
@@ -67,7 +69,9 @@ pub const NOTICE_INCLUDE: &str = "#include \"mains-safety.typ\"";
 /// What the finished PDF must show, checked in its text: the notice's
 /// heading and opening sentence, and the deferral to local codes with its
 /// closing sentence. A template that leaves the notice out, hides it or
-/// rewrites it is refused.
+/// rewrites it is refused. These are the English catalogue's words; a
+/// document in another language is checked for its own
+/// ([`notice_phrases`]).
 pub const NOTICE_PHRASES: &[&str] = &[
     "MAINS SAFETY: READ BEFORE USING OR OPENING THIS UNIT",
     "This amplifier runs on voltages that can kill.",
@@ -75,12 +79,51 @@ pub const NOTICE_PHRASES: &[&str] = &[
     "Where those rules, or the practice of a licensed electrician, differ from anything in this document, follow them.",
 ];
 
-/// [`NOTICE_PHRASES`] as compile options want them.
-pub fn notice_required() -> RequiredText {
+/// The phrases of the notice the finished PDF must show, in the
+/// catalogue's language: heading, opening sentence, the deferral's title
+/// and its closing sentence.
+pub fn notice_phrases(catalogue: &Catalogue) -> Vec<String> {
+    [
+        "notice-heading",
+        "notice-check-opening",
+        "notice-codes-title",
+        "notice-check-closing",
+    ]
+    .iter()
+    .map(|k| catalogue.text(k))
+    .collect()
+}
+
+/// [`notice_phrases`] as compile options want them.
+pub fn notice_required(catalogue: &Catalogue) -> RequiredText {
     RequiredText {
         what: "the mains-safety notice and the deferral to local electrical codes".into(),
-        phrases: NOTICE_PHRASES.iter().map(|p| (*p).to_owned()).collect(),
+        phrases: notice_phrases(catalogue),
     }
+}
+
+/// The notice's Typst source with its words from `catalogue`, every word
+/// escaped for Typst markup.
+pub fn notice_source(catalogue: &Catalogue) -> Result<String, HandoverError> {
+    let env = template_environment(TemplateSource::embedded(&[(
+        NOTICE_SOURCE,
+        NOTICE_TEMPLATE,
+    )]));
+    let fail = |e: minijinja::Error| HandoverError::Template {
+        name: NOTICE_SOURCE.to_string(),
+        detail: template_error_words(&e),
+        from_override: false,
+    };
+    let words: std::collections::BTreeMap<String, String> = crate::catalogue::NOTICE_KEYS
+        .iter()
+        .map(|k| {
+            let name = k.trim_start_matches("notice-").replace('-', "_");
+            (name, catalogue.text(k))
+        })
+        .collect();
+    env.get_template(NOTICE_SOURCE)
+        .and_then(|t| t.render(minijinja::context! { n => words }))
+        .map_err(fail)
 }
 
 /// The built-in templates, for [`TemplateSource::embedded`].
@@ -135,6 +178,8 @@ pub struct HandoverInput<'a> {
     pub logo: Option<&'a Logo>,
     /// Whether the job's charges are shown (`--no-charges` leaves them out).
     pub include_charges: bool,
+    /// The fixed words of the document, in the shop's language.
+    pub catalogue: &'a Catalogue,
 }
 
 impl<'a> HandoverInput<'a> {
@@ -153,6 +198,7 @@ impl<'a> HandoverInput<'a> {
             shop: None,
             logo: None,
             include_charges: true,
+            catalogue: Catalogue::english(),
         }
     }
 }
@@ -252,6 +298,7 @@ pub fn build(
         has_supply_plot: supply.is_some(),
         warm_up_plots,
         has_response_plot: response.is_some(),
+        catalogue: input.catalogue,
     };
     let context = build_context(input.job, input.findings, &inputs);
     let source = render_template(&context, templates)?;
@@ -268,7 +315,7 @@ pub fn build(
         });
     }
     sandbox.insert(MAIN_SOURCE, source)?;
-    sandbox.insert(NOTICE_SOURCE, NOTICE_TEXT)?;
+    sandbox.insert(NOTICE_SOURCE, notice_source(input.catalogue)?)?;
     if let Some(dir) = &templates.override_dir {
         add_shop_images(&mut sandbox, &dir.join(IMAGES_DIR))?;
     }
@@ -276,7 +323,7 @@ pub fn build(
         sandbox,
         main: MAIN_SOURCE,
         options: CompileOptions {
-            required_text: Some(notice_required()),
+            required_text: Some(notice_required(input.catalogue)),
             ..CompileOptions::new(creation_date(input.job))
         },
         context,
@@ -300,11 +347,79 @@ pub fn render_template(
         from_override,
     };
     let template = env.get_template(TEMPLATE_NAME).map_err(fail)?;
+    let (t, tm) = catalogue_functions(&context.catalogue);
     let ctx = minijinja::context! {
         font_rules => typst_markup(font_rules()),
+        t => t,
+        tm => tm,
         ..Value::from_serialize(context)
     };
     template.render(ctx).map_err(fail)
+}
+
+/// The template functions that look words up in the catalogue:
+///
+/// * `t("key", name=value, …)`: the message as text, escaped for Typst
+///   like any other value, so a translation can never inject markup;
+/// * `tm("key", …)`: the same, except that `*…*` in the message itself
+///   (never in an argument) marks strong text.
+///
+/// A key the catalogue lacks is a template error naming it.
+pub fn catalogue_functions(catalogue: &Catalogue) -> (Value, Value) {
+    fn lookup(
+        catalogue: &Catalogue,
+        key: &str,
+        kwargs: &minijinja::value::Kwargs,
+        placeholders: bool,
+    ) -> Result<(String, Vec<String>), minijinja::Error> {
+        let mut args = Vec::new();
+        let mut values = Vec::new();
+        for name in kwargs.args() {
+            let value: Value = kwargs.get(name)?;
+            let arg = if placeholders {
+                values.push(value.to_string());
+                Arg::Text(format!("QzqArg{}Qzq", values.len() - 1))
+            } else if let Some(n) = value.as_i64() {
+                Arg::Number(n as f64)
+            } else {
+                Arg::Text(value.to_string())
+            };
+            args.push((name, arg));
+        }
+        kwargs.assert_all_used()?;
+        match catalogue.try_format(key, &args) {
+            Some(words) => Ok((words, values)),
+            None => Err(minijinja::Error::new(
+                minijinja::ErrorKind::InvalidOperation,
+                format!(
+                    "the message catalogue ({}, {}) has no message `{key}`",
+                    catalogue.language(),
+                    catalogue.origin()
+                ),
+            )),
+        }
+    }
+    let plain = catalogue.clone();
+    let t = Value::from_function(
+        move |key: &str, kwargs: minijinja::value::Kwargs| -> Result<String, minijinja::Error> {
+            lookup(&plain, key, &kwargs, false).map(|(words, _)| words)
+        },
+    );
+    let strong = catalogue.clone();
+    let tm = Value::from_function(
+        move |key: &str, kwargs: minijinja::value::Kwargs| -> Result<Value, minijinja::Error> {
+            let (words, values) = lookup(&strong, key, &kwargs, true)?;
+            let mut markup = crate::typeset::escape_markup(&words).replace("\\*", "*");
+            for (i, v) in values.iter().enumerate() {
+                markup = markup.replace(
+                    &format!("QzqArg{i}Qzq"),
+                    &crate::typeset::escape_markup(v),
+                );
+            }
+            Ok(typst_markup(markup))
+        },
+    );
+    (t, tm)
 }
 
 /// A minijinja error with its place in the template and its causes.
@@ -401,6 +516,7 @@ mod tests {
             shop: None,
             logo: None,
             include_charges: true,
+            catalogue: Catalogue::english(),
         };
         build(&input, &TemplateSource::embedded(EMBEDDED_TEMPLATES)).unwrap()
     }
@@ -596,6 +712,7 @@ mod tests {
             shop: None,
             logo: None,
             include_charges: false,
+            catalogue: Catalogue::english(),
         };
         let doc = build(&input, &TemplateSource::embedded(EMBEDDED_TEMPLATES)).unwrap();
         assert!(doc.context.charges.is_none());
@@ -653,6 +770,7 @@ mod tests {
             shop: None,
             logo: None,
             include_charges: true,
+            catalogue: Catalogue::english(),
         };
         let source = TemplateSource::embedded(EMBEDDED_TEMPLATES).with_override_dir(dir.path());
         match build(&input, &source) {
