@@ -1,376 +1,378 @@
-# ampreport's message catalogue: English, the reference.
+# ampreport's message catalogue: German (Deutsch).
 #
-# Every fixed sentence and label the program shows a reader comes from a
-# catalogue like this one (Project Fluent syntax: `key = text`; an argument
-# is written { $name }; a continuation line is indented). A translation
-# gives every key of this file and nothing else; see DEVELOPERS.md, "How to
-# add a message or a language", and docs/shop.md for a shop's own file.
+# NEEDS A NATIVE SPEAKER'S REVIEW. Written with care by a non-native
+# writer to prove the catalogue mechanism; the trade terms (Anode,
+# Schirmgitter, Ruhestrom, Verlustleistung, Siebkondensator …) follow
+# common German workshop usage as far as the writer knows it. Before a
+# shop hands a German document to a customer, a German-speaking
+# technician should read every message here, above all the mains-safety
+# notice (`notice-…`), which must match the wording local rules expect.
 #
-# Dates: `date` puts the day, the month's name and the year in order.
+# Same keys and arguments as messages/en.ftl (the reference); the program
+# refuses a catalogue that lacks a key. Numbers keep the decimal point
+# (see docs/shop.md).
 
-date = { $day } { $month } { $year }
-month-1 = January
-month-2 = February
-month-3 = March
+date = { $day }. { $month } { $year }
+month-1 = Januar
+month-2 = Februar
+month-3 = März
 month-4 = April
-month-5 = May
-month-6 = June
-month-7 = July
+month-5 = Mai
+month-6 = Juni
+month-7 = Juli
 month-8 = August
 month-9 = September
-month-10 = October
+month-10 = Oktober
 month-11 = November
-month-12 = December
+month-12 = Dezember
 
-## Status words, shown in the document's tables and panels.
+## Statuswörter.
 
-
-## The hand-over document (templates/handover.typ).
-
-doc-footer-job = Job
-doc-footer-page = Page
-doc-footer-of = of
-doc-footer-digest = job file SHA-256
+doc-footer-job = Auftrag
+doc-footer-page = Seite
+doc-footer-of = von
+doc-footer-digest = SHA-256 der Auftragsdatei
 status-ok = OK
-status-caution = CAUTION
-status-over = OVER
-status-cold = COLD
-status-accepted = ACCEPTED
-status-unchecked = NOT CHECKED
-status-unmeasured = NOT MEASURED
-doc-key-ok = inside its limit
-doc-key-caution = near a limit
-doc-key-over = beyond a rating
-doc-key-cold = below the bias aim
-doc-key-accepted = judged acceptable
-doc-kind = HAND-OVER REPORT
-doc-job = Job { $id }
-doc-received = Received { $date }
-doc-completed = Completed { $date }
-doc-technician = Technician: { $name }
-doc-unit = Unit
-doc-serial = Serial
-doc-made = Made { $year }
-doc-condition = Condition on arrival:
-doc-customer = Customer
-doc-not-recorded = Not recorded
-doc-mains = Mains
-doc-mains-line = { $nominal } nominal, high line { $high_line } ({ $tolerance })
-doc-mains-design = ; the factory voltage chart was drawn at { $design }
-doc-found = Found
-doc-done = Done
-doc-now = Now
-doc-glance = AT A GLANCE
-doc-read-notice-bold = Before using or opening this unit,
-doc-read-notice = read the mains-safety notice on page
-doc-attention = What needs attention
-doc-open-in = Open in the readings “{ $label }”, as the unit leaves
-doc-nothing-open = Nothing is open in the readings “{ $label }”, as the unit leaves.
-doc-accepted-heading = Accepted by the technician
-doc-col-finding = Finding
-doc-col-figure = Figure
-doc-col-why-acceptable = Why it is acceptable
-doc-col-accepted-by = Accepted by
-doc-accepted-note = An accepted figure keeps its status and its numbers in the tables; the technician has judged it and signed for it, so it no longer counts against the unit.
-doc-whole-job = For the whole job
-doc-history = What the readings “{ $label }” showed
-doc-the-job = The job
-doc-complaint = Complaint
-doc-findings = Findings
-doc-work-done = Work done
-doc-parts = Parts replaced
-doc-col-part = Part
-doc-col-was = Was
-doc-col-now = Now
-doc-col-reason = Reason
+status-caution = VORSICHT
+status-over = ZU HOCH
+status-cold = ZU KALT
+status-accepted = AKZEPTIERT
+status-unchecked = NICHT GEPRÜFT
+status-unmeasured = NICHT GEMESSEN
+doc-key-ok = innerhalb der Grenze
+doc-key-caution = nahe an einer Grenze
+doc-key-over = über einem Grenzwert
+doc-key-cold = unter dem Ruhestrom-Ziel
+doc-key-accepted = als annehmbar beurteilt
+
+## Das Übergabeprotokoll (templates/handover.typ).
+
+doc-kind = ÜBERGABEPROTOKOLL
+doc-job = Auftrag { $id }
+doc-received = Eingang { $date }
+doc-completed = Fertig { $date }
+doc-technician = Techniker: { $name }
+doc-unit = Gerät
+doc-serial = Seriennummer
+doc-made = Baujahr { $year }
+doc-condition = Zustand bei Eingang:
+doc-customer = Kunde
+doc-not-recorded = Nicht erfasst
+doc-mains = Netz
+doc-mains-line = { $nominal } Nennspannung, obere Netzgrenze { $high_line } ({ $tolerance })
+doc-mains-design = ; die Spannungstabelle des Herstellers gilt für { $design }
+doc-found = Befund
+doc-done = Erledigt
+doc-now = Jetzt
+doc-glance = AUF EINEN BLICK
+doc-read-notice-bold = Vor Gebrauch oder Öffnen des Geräts
+doc-read-notice = bitte den Hinweis zur Netzsicherheit auf Seite
+doc-read-notice-end = { " " }lesen.
+doc-attention = Was Aufmerksamkeit braucht
+doc-open-in = Offen in den Messwerten „{ $label }“, mit denen das Gerät übergeben wird
+doc-nothing-open = In den Messwerten „{ $label }“, mit denen das Gerät übergeben wird, ist nichts offen.
+doc-accepted-heading = Vom Techniker akzeptiert
+doc-col-finding = Befund
+doc-col-figure = Wert
+doc-col-why-acceptable = Warum annehmbar
+doc-col-accepted-by = Akzeptiert von
+doc-accepted-note = Ein akzeptierter Wert behält in den Tabellen seinen Status und seine Zahlen; der Techniker hat ihn beurteilt und zeichnet dafür, daher zählt er nicht mehr gegen das Gerät.
+doc-whole-job = Für den ganzen Auftrag
+doc-history = Was die Messwerte „{ $label }“ zeigten
+doc-the-job = Der Auftrag
+doc-complaint = Beanstandung
+doc-findings = Befund
+doc-work-done = Ausgeführt
+doc-parts = Ersetzte Teile
+doc-col-part = Teil
+doc-col-was = Vorher
+doc-col-now = Jetzt
+doc-col-reason = Grund
 doc-col-original-kept = Original
-    kept
-doc-no-parts = No parts were replaced.
-doc-mods = Modifications
-doc-col-change = Change
-doc-col-why = Why
-doc-col-reversible = Reversible
-doc-worked-figures = Worked figures
-doc-worked-note = Worked figures are first-order textbook estimates; for a valve stage they use the typical μ and ra of its ratings row. The real circuit differs with the valve and the parts around it.
-doc-network-before-after = { $label }: response before and after the mod
-doc-network-response = { $label }: response of the network
-doc-network-curves = The curves are the voltage there per volt the source gives unloaded, solved from 20 Hz to 20 kHz.
-doc-network-dashed = Dashed grey: before the mod; solid black: after.
-doc-network-markers = Each pot setting has its own marker.
-doc-network-problem = The network could not be worked out: { $problem }
-doc-changed = Changed
-doc-col-pot-settings = Pot settings (0–10)
-doc-col-corner = Corner or mid scoop
-doc-row-change = change
-doc-row-before = before
-doc-row-after = after
-doc-network-method = Solved by modified nodal analysis at 40 points per decade. Audio-taper pots follow two straight segments through 10 % of the track at half rotation (common practice). A corner is where a curve crosses 3 dB below its highest level; a scoop is a dip at least 2 dB below both sides.
-doc-network-spice = The solver agrees with a general-purpose circuit simulator (ngspice) within 0.05 dB and 0.5°;
-doc-network-netlist = writes the network for one.
-doc-col-rate-before = Rate before
-doc-col-gain-needed = Gain needed
-doc-col-rate-after = Rate after
-doc-col-rate = Rate
-doc-oscillator-note = The rate is where the network turns the signal through 180°; the stage it feeds back must make up the loss there (the gain needed) for the oscillation to start.
-doc-no-mods = The circuit was not modified.
-doc-notes = Notes
-doc-line-up = Valve line-up
-doc-col-channel = Channel
+    aufbewahrt
+doc-no-parts = Es wurden keine Teile ersetzt.
+doc-mods = Änderungen
+doc-col-change = Änderung
+doc-col-why = Warum
+doc-col-reversible = Rückbaubar
+doc-worked-figures = Berechnete Werte
+doc-worked-note = Die berechneten Werte sind Lehrbuch-Abschätzungen erster Ordnung; für eine Röhrenstufe verwenden sie die typischen Werte μ und ra aus der Datenzeile der Röhre. Die wirkliche Schaltung weicht je nach Röhre und umgebenden Bauteilen ab.
+doc-network-before-after = { $label }: Frequenzgang vor und nach der Änderung
+doc-network-response = { $label }: Frequenzgang des Netzwerks
+doc-network-curves = Die Kurven zeigen die Spannung dort je Volt Leerlaufspannung der Quelle, berechnet von 20 Hz bis 20 kHz.
+doc-network-dashed = Grau gestrichelt: vor der Änderung; schwarz durchgezogen: danach.
+doc-network-markers = Jede Potistellung hat ihr eigenes Symbol.
+doc-network-problem = Das Netzwerk konnte nicht berechnet werden: { $problem }
+doc-changed = Geändert
+doc-col-pot-settings = Potistellungen (0–10)
+doc-col-corner = Eckfrequenz oder Mittensenke
+doc-row-change = Änderung
+doc-row-before = vorher
+doc-row-after = nachher
+doc-network-method = Berechnet mit modifizierter Knotenanalyse bei 40 Punkten je Dekade. Logarithmische Potis folgen zwei Geraden durch 10 % des Widerstands bei halber Drehung (gängige Praxis). Eine Eckfrequenz liegt dort, wo eine Kurve 3 dB unter ihren Höchstwert fällt; eine Senke ist ein Einbruch von mindestens 2 dB unter beide Seiten.
+doc-network-spice = Der Rechner stimmt mit einem allgemeinen Schaltungssimulator (ngspice) auf 0,05 dB und 0,5° überein;
+doc-network-netlist = schreibt das Netzwerk für einen solchen.
+doc-col-rate-before = Frequenz vorher
+doc-col-gain-needed = Nötige Verstärkung
+doc-col-rate-after = Frequenz nachher
+doc-col-rate = Frequenz
+doc-oscillator-note = Die Frequenz ist die, bei der das Netzwerk das Signal um 180° dreht; die Stufe, auf die es zurückwirkt, muss dort den Verlust (die nötige Verstärkung) ausgleichen, damit die Schwingung einsetzt.
+doc-no-mods = Die Schaltung wurde nicht geändert.
+doc-notes = Anmerkungen
+doc-line-up = Röhrenbestückung
+doc-col-channel = Kanal
 doc-col-position = Position
-doc-col-type = Type
-doc-col-role = Role
-doc-col-rated-as = Rated as
-doc-col-fitted = Fitted in a set
-doc-no-valves = No valves listed.
-doc-measurements-of = Measurements: { $label }
-doc-as-handed-over = (as handed over)
-doc-set-mains = mains read at { $mains }; figures “at { $nominal }” are corrected to nominal mains by the factor { $factor }.
-doc-fitted-bold = Valves fitted for these readings:
-doc-fitted-ratings = Their figures use the fitted type's ratings.
+doc-col-type = Typ
+doc-col-role = Aufgabe
+doc-col-rated-as = Daten von
+doc-col-fitted = In einer Messreihe bestückt
+doc-no-valves = Keine Röhren angegeben.
+doc-measurements-of = Messwerte: { $label }
+doc-as-handed-over = (bei Übergabe)
+doc-set-mains = Netz gemessen mit { $mains }; Werte „bei { $nominal }“ sind mit dem Faktor { $factor } auf die Nennspannung umgerechnet.
+doc-fitted-bold = Für diese Messungen bestückte Röhren:
+doc-fitted-ratings = Ihre Werte beruhen auf den Grenzdaten des bestückten Typs.
 doc-bias-controls = { $count ->
-        [one] Bias control:
-       *[other] Bias controls:
+        [one] Bias-Regler:
+       *[other] Bias-Regler:
     }
-doc-supply = Supply voltages
-doc-col-node = Node
-doc-col-feeds = Feeds
-doc-col-measured = Measured
-doc-col-at = At { $nominal }
-doc-col-expected = Expected
-doc-col-deviation = Deviation
+doc-supply = Versorgungsspannungen
+doc-col-node = Punkt
+doc-col-feeds = Versorgt
+doc-col-measured = Gemessen
+doc-col-at = Bei { $nominal }
+doc-col-expected = Erwartet
+doc-col-deviation = Abweichung
 doc-col-band = Band
 doc-col-status = Status
-doc-valves-idle = Valves at idle
+doc-valves-idle = Röhren im Ruhezustand
 doc-col-pos = Pos.
-doc-col-of-max = of max
-doc-col-pct-nominal = % at
-    nominal
-doc-col-pct-high-line = % at
-    high line
-doc-idle-from = Idle current found from: { $methods }.
-doc-ik-note = “Ik” marks a plate current taken as the whole cathode current, which includes the screen current: those dissipation figures are on the high side (conservative).
-doc-limits-note = Limits are the valve ratings listed with the method notes.
-doc-window = Fixed-bias target window
-doc-col-valve = Valve
-doc-col-aim = Aim, %
-    of Pa max
-doc-col-ia-aim = Ia for
-    the aim
+doc-col-of-max = vom Max.
+doc-col-pct-nominal = % bei
+    Nennspg.
+doc-col-pct-high-line = % bei oberer
+    Netzgrenze
+doc-idle-from = Ruhestrom ermittelt aus: { $methods }.
+doc-ik-note = „Ik“ kennzeichnet einen Anodenstrom, für den der ganze Kathodenstrom genommen wurde, der den Schirmgitterstrom einschließt: diese Verlustleistungen liegen auf der hohen Seite (vorsichtig gerechnet).
+doc-limits-note = Die Grenzen sind die Röhrendaten, die bei den Hinweisen zur Methode aufgeführt sind.
+doc-window = Zielbereich für feste Gittervorspannung
+doc-col-valve = Röhre
+doc-col-aim = Ziel, %
+    vom Pa max
+doc-col-ia-aim = Ia für
+    das Ziel
 doc-col-ia-now = Ia
-    now
-doc-col-set-to = Set it to
-doc-col-reads-now = Reads
-    now
-doc-grid-middle = about { $volts } on the grid for the middle (estimate)
-doc-warm-up = Warm-up: idle current against time since power-on
-doc-col-time = Time
-doc-warm-up-note = Each reading is worked out as the set's own readings are; the valves table above gives the settled figures.
-doc-warm-up-ik = “Ik”: the cathode current, which includes the screen current.
-doc-stressed = Stressed parts
-doc-col-ref = Ref.
-doc-col-where = Where
-doc-col-value = Value
-doc-col-rating = Rating
-doc-col-dissipation = Dissipation
-doc-col-pct-rating = % of
-    rating
-doc-col-at-high-line = At high
-    line
-doc-col-rated = Rated
-doc-col-working = Working
-doc-col-high-line = High line
-doc-col-cold-start = Cold-start
-    peak
-doc-col-highest = Highest
-doc-col-margin = Margin
-doc-col-load-counted = Load counted
-doc-col-load-at-least = Load,
-    at least
-doc-col-rated-output = Rated
-    output
-doc-valve-rectifier = { $type } valve rectifier
-doc-rectifier-note = The rectifier also feeds the rest of the circuit (preamp, phase inverter, any screen and bias supplies), which is not counted here.
-doc-heaters = Heater supply
-doc-col-heater = Heater
-doc-col-nominal = Nominal
-doc-col-at-nominal-mains = At nominal
-    mains
-doc-heater = heater
-doc-suggest-heading = Cathode resistor { $reference }: what to fit (an estimate)
-doc-suggest-today = Today { $reference } is { $present } under { $valves }; { $calibrated } dissipates { $pa }.
-doc-suggest-aiming = Aiming at { $target }, the three-halves power law fitted to these readings gives
-doc-suggest-none = no resistor: even none at all would not bring the valve up to the target
-doc-col-series = Series
-doc-col-fit = Fit
-doc-col-about = about
-doc-col-ik-each = Ik each
-doc-col-resistor-dissipates = Resistor
-    dissipates
-doc-col-resistor-rating = Resistor rating
-doc-rating-at-least = at least { $least } (twice its dissipation): a { $rating } part
-doc-estimate-bold = This is an estimate from one set of readings, not a measurement.
-doc-estimate = Fit the new resistor, let the valves reach working temperature and measure the bias again before the unit goes back; the measured figures decide.
-doc-law = The law: Ik = K × (Vg2k ÷ μg1g2 + Vgk)^1.5 with μg1g2 { $mu } from the ratings table and K = { $constant } fitted so it gives today's reading exactly; Vk = n × Ik × Rk for the valves sharing the resistor.
-doc-law-voltages = The plate and screen voltages are taken as measured (the supply's sag is ignored)
-doc-law-ik = , and the plate current is taken as the whole cathode current, as in the table above
-doc-law-series = Values are the nearest IEC 60063 E12 and E24 figures.
-doc-bench = On the bench
-doc-col-output-power = Output power
-doc-col-reading = Reading
-doc-col-load = Load
-doc-col-frequency = Frequency
-doc-col-condition = Condition
-doc-col-power = Power
-doc-col-pct-rated = % of
-    rated
-doc-pct-of = { $pct } of { $rated }
-doc-col-hum-noise = Hum and noise
-doc-col-input = Input
-doc-col-volume = Volume
-doc-col-across-load = Across
-    the load
-doc-col-below-full = Below full
-    output
-doc-col-compared = Compared with
-doc-level-into = { $level } into { $load }
-doc-nothing-to-compare = nothing to compare with
-doc-col-response = Response
-doc-row-output-v = Output, V
-doc-row-db-against = dB against { $reference }
-doc-minus3-points = −3 dB points:
-doc-and = and
-doc-for-input = , for { $input } in
-doc-into-load = into { $load }
-doc-response-record = Shown for the record; the response has no pass mark.
-doc-col-gain = Gain
-doc-col-in = In
-doc-col-out = Out
-doc-col-ratio = Ratio
-doc-measurements = Measurements
-doc-no-measurements = No measurements were recorded.
-doc-charts = Charts
-doc-chart-dissipation = Output valves: plate dissipation against the rating
-doc-chart-dissipation-note = Each bar is one valve in one set of readings, at the mains of that day, as a share of its maximum plate dissipation. The heavy line is 100 % of the rating.
-doc-chart-supply = Supply chain: node voltages against the chart
-doc-chart-supply-note = Grey columns span the expected voltage of each node (the chart figure referred to { $nominal } mains, dashed) plus and minus its tolerance. The markers are the readings corrected to { $nominal } mains.
-doc-chart-response = Frequency response on the bench
-doc-chart-response-note = Each line is one response reading, in dB against its reference frequency, on a logarithmic frequency axis. The dashed line is −3 dB; the upright ticks on it mark the −3 dB points, found by interpolating between the two readings either side of each.
-doc-safety = Electrical safety tests
-doc-protection-class = Protection class: { $class }.
-doc-col-test = Test
-doc-col-limit = Limit
-doc-col-result = Result
-doc-safety-limits-note = The limits are the ones the shop set for this job. They must follow the rules that apply where the unit is used.
-doc-safety-none = The safety block lists no tests.
-doc-safety-missing = No electrical safety tests were recorded for this job.
-doc-charges = Charges
-doc-col-item = Item
-doc-col-hours = Hours or
-    quantity
-doc-col-rate-price = Rate or
-    price
-doc-col-amount = Amount
-doc-labour = Labour
-doc-parts-charged = Parts
-doc-subtotal = Subtotal
-doc-tax-at = { $name } at { $rate }
-doc-total = Total, { $currency }
-doc-rounding = Each line is rounded to two decimals (halves up)
-doc-tax-on-subtotal = ; { $name } is worked out on the subtotal
-doc-hand-over = Hand-over
-doc-warranty = Warranty
-doc-warranty-until = Warranty period: { $period }, from the completion date to { $until }.
-doc-warranty-from = Warranty period: { $period } from the completion date.
-doc-terms = Terms
-doc-signature = Signature
-doc-date = Date
-doc-handed-over = The unit described above was handed over with this document. The customer confirms receiving the unit and this document, including the mains-safety notice.
-doc-sign-technician = Technician
-doc-method = Method and assumptions
-doc-method-intro = Every figure in this document is either a reading from the job file or worked out from readings by the rules below. Voltages are DC to chassis unless stated. Guide bands marked *common practice* are rules of thumb of the trade with no single published source; figures marked *from memory* are recalled from published data and should be checked against the datasheet. Each band is a setting of the job; the values used here are shown.
-doc-ratings-used = Valve ratings used
-doc-col-class = Class
-doc-col-positions = Positions
-doc-col-limits-used = Limits used
-doc-col-source-note = Source note
-doc-col-from = From
-doc-no-types = No valve types were used.
-doc-how = How the figures are worked out
-doc-m-idle = *Idle current.* With a cathode resistor Rk shared by n valves, each valve's cathode current is Ik = Vk ÷ (n × Rk); own resistor: n = 1. Across a sense resistor Rs, Ik = Vs ÷ Rs. By the transformer-resistance method, Ia = Vdrop ÷ Rhalf, with Rhalf measured cold and unpowered (divided by n where n valves share one half primary). A shunt across half the primary or a bias probe gives the current directly.
-doc-m-matched-cathode = *Matched-pair assumption:* this job uses a shared cathode resistor, so the figures assume the valves on it share the current equally.
-doc-m-matched-primary = *Matched-pair assumption:* valves sharing a half primary are taken to share its current equally.
-doc-m-screen = *Screen current.* Where a screen resistor gives the screen current, Ig2 = (Vsupply − Vg2) ÷ Rg2 and Ia = Ik − Ig2. Otherwise the plate current is taken as the whole cathode current (Ia = Ik), which includes the screen current: the *conservative rule*, marked “Ik” in the tables, gives dissipation figures on the high side.
-doc-m-screen-used = This job's figures use it.
-doc-m-dissipation = *Dissipation.* Plate: Pa = (Va − Vk) × Ia. Screen: Pg2 = (Vg2 − Vk) × Ig2. “% of max” is the figure over the rating in the table above.
-doc-m-mains = *Mains correction (first order).* Transformer-fed voltages are taken to scale in proportion to the mains: a reading V made at mains Vm becomes V × Vn ÷ Vm at the nominal Vn = { $nominal }. Currents scale the same way, so dissipation scales with the square: P × (Vn ÷ Vm)². This is an approximation; it ignores regulation and rectifier drop.
-doc-m-high-line = *High line.* The supply may sit above nominal by its tolerance t = { $tolerance }, to { $high_line }; projected dissipation is P(nominal) × (1 + t)² and projected voltage V(nominal) × (1 + t). The default tolerances are from memory of the supply standards (+5 % for 120 V service, ANSI C84.1 range A; ±10 % for 230 V, IEC 60038).
-doc-m-chart-title = Voltage chart.
-doc-m-chart-design = The factory chart was drawn at { $design } mains, so each chart figure is referred to nominal as V(chart) × Vn ÷ Vd with Vd = { $design }.
-doc-m-chart-nominal = The chart figures are taken as drawn at nominal mains.
-doc-m-chart-band = A node is normal within its band around that expected figure ({ $tolerance } unless the job sets another; common practice, many charts print ±10 % or ±20 %).
-doc-m-bands-title = Guide bands (common practice).
-doc-m-bands-fixed = Fixed bias, push-pull: aim { $low } to { $high } of Pa max; caution above, “cold” below (crossover distortion risk), over above 100 %.
-doc-m-bands-cathode = Cathode bias: caution above { $caution }, over above 100 %.
-doc-m-bands-parts = Resistors: caution above { $derating } of their rating (derating), over above 100 %. Filter capacitors: over above the rating, caution when less than { $margin } of it is left. Heaters: { $heater } of nominal. Plate and screen voltages: caution above the published maximum (or when the high-line projection passes it), over more than { $over } above it; guitar amplifiers often run output valves above the design-centre voltage maxima, and plate dissipation governs valve life.
-doc-m-window = *Target window.* For fixed bias, the plate current that puts a valve inside the aim is Ia = f × Pa(max) ÷ (Va − Vk) for f from { $low } to { $high }; it is also given as the reading the technician sets (millivolts across a sense resistor, which also carries the screen current, or volts across the half primary).
-doc-m-bench = *On the bench.* Readings into a dummy load of the speaker impedance. Output power P = V²rms ÷ R; a peak-to-peak reading of a sine is Vrms = Vpp ÷ (2√2). Readings at clipping or a stated distortion below { $power } of the unit's rated power are a caution (common practice: a healthy old unit reaches about 80 % or more). Hum and noise in dBV is 20 × log10(V ÷ 1 V); below full output, 20 × log10(Vfull ÷ Vnoise), with Vfull = √(P × R) from the highest output power read at clipping or a stated distortion, else the rated power; less than { $hum } is a caution (common practice). Response in dB is 20 × log10(V ÷ Vref) against the reference frequency; the −3 dB points are interpolated linearly in dB on a logarithmic frequency axis between the readings either side. Gain is 20 × log10(Vout ÷ Vin).
-doc-m-estimates = *Bias estimates.* The three-halves power law (Child–Langmuir, as the classic valve handbooks apply it to pentodes; from memory), Ik = K × (Vg2k ÷ μg1g2 + Vgk)^1.5, is fitted to one valve's readings so it reproduces them exactly; μg1g2 comes from the ratings table (from memory of manufacturer data).
-doc-m-estimates-resistor = For a cathode resistor it finds the value that puts the hottest valve on it at { $target } of its plate rating (common practice), with Vk = n × Ik × Rk, and snaps it to the nearest E12 and E24 values of IEC 60063; the resistor's dissipation is Vk² ÷ Rk and its rating should be at least twice that (common practice).
-doc-m-estimates-grid = For fixed bias it gives the grid voltage for the middle of the target window; the window's current figures stay the authority.
-doc-m-estimates-sag = The plate and screen voltages are taken as measured, ignoring the supply's sag: these are estimates from one point, and the bias must be measured again after any change.
-doc-m-stressed = *Stressed parts.* Dropper between two nodes: P = (V1 − V2)² ÷ R. Cathode resistor: P = Vk² ÷ Rk. Both are projected to high line like the valves. A filter capacitor must stand the highest voltage it can see: its working voltage projected to high line, or the cold-start peak, whichever is higher; the margin is what is left of its rating.
-doc-m-cold-start = *Cold-start peak:* before the valves draw current, a full-wave winding of Vsec (RMS, each side, rated at primary Vp) charges the first capacitors to about √2 × Vsec × V(high line) ÷ Vp less the rectifier drop (silicon { $drop }; a valve rectifier at no load about 0 V). Silicon and directly heated valve rectifiers really reach it while the output valves warm up.
-doc-m-judging = *Judging the unit as it leaves.* The summary on page 1, the at-a-glance panel and the list of open findings speak for the final readings
-doc-m-judging-label = (“{ $label }”)
-doc-m-judging-rest = , the state the unit is handed over in; the earlier readings are its history. A figure the technician has judged acceptable keeps its status and its numbers in the tables, is marked ACCEPTED with the reason, the name and the date, and no longer counts against the unit. The reason stated for each status names the figure that decided it.
+    jetzt
+doc-col-set-to = Einstellen auf
+doc-col-reads-now = Anzeige
+    jetzt
+doc-grid-middle = etwa { $volts } am Gitter für die Mitte (Schätzung)
+doc-warm-up = Aufwärmen: Ruhestrom über der Zeit seit dem Einschalten
+doc-col-time = Zeit
+doc-warm-up-note = Jeder Messwert wird so ausgewertet wie die übrigen Messwerte der Reihe; die Röhrentabelle oben zeigt die eingeschwungenen Werte.
+doc-warm-up-ik = „Ik“: der Kathodenstrom, der den Schirmgitterstrom einschließt.
+doc-stressed = Belastete Bauteile
+doc-col-ref = Bez.
+doc-col-where = Wo
+doc-col-value = Wert
+doc-col-rating = Belastbarkeit
+doc-col-dissipation = Verlustleistung
+doc-col-pct-rating = % der
+    Belastbarkeit
+doc-col-at-high-line = Bei oberer
+    Netzgrenze
+doc-col-rated = Nennspg.
+doc-col-working = Betriebsspg.
+doc-col-high-line = Obere Grenze
+doc-col-cold-start = Kaltstart-
+    spitze
+doc-col-highest = Höchste
+doc-col-margin = Reserve
+doc-col-load-counted = Gezählte Last
+doc-col-load-at-least = Last,
+    mindestens
+doc-col-rated-output = Nenn-
+    strom
+doc-valve-rectifier = Gleichrichterröhre { $type }
+doc-rectifier-note = Der Gleichrichter speist auch den Rest der Schaltung (Vorstufe, Phasenumkehr, etwaige Schirmgitter- und Bias-Versorgung), der hier nicht mitgezählt ist.
+doc-heaters = Heizversorgung
+doc-col-heater = Heizung
+doc-col-nominal = Nennwert
+doc-col-at-nominal-mains = Bei Netz-
+    nennspannung
+doc-heater = Heizung
+doc-suggest-heading = Kathodenwiderstand { $reference }: welcher Wert passt (eine Schätzung)
+doc-suggest-today = Jetzt ist { $reference } ein { $present } unter { $valves }; { $calibrated } setzt { $pa } um.
+doc-suggest-aiming = Mit dem Ziel { $target } ergibt das an diese Messwerte angepasste Drei-Halbe-Gesetz
+doc-suggest-none = keinen Widerstand: selbst ganz ohne Widerstand käme die Röhre nicht auf das Ziel
+doc-col-series = Reihe
+doc-col-fit = Wert
+doc-col-about = etwa
+doc-col-ik-each = Ik je Röhre
+doc-col-resistor-dissipates = Widerstand
+    setzt um
+doc-col-resistor-rating = Belastbarkeit des Widerstands
+doc-rating-at-least = mindestens { $least } (das Doppelte seiner Verlustleistung): ein Bauteil mit { $rating }
+doc-estimate-bold = Dies ist eine Schätzung aus einer einzigen Messreihe, keine Messung.
+doc-estimate = Den neuen Widerstand einbauen, die Röhren auf Betriebstemperatur kommen lassen und den Ruhestrom vor der Rückgabe erneut messen; die gemessenen Werte entscheiden.
+doc-law = Das Gesetz: Ik = K × (Vg2k ÷ μg1g2 + Vgk)^1.5 mit μg1g2 { $mu } aus der Röhrendatentabelle und K = { $constant }, so angepasst, dass es den heutigen Messwert genau trifft; Vk = n × Ik × Rk für die Röhren am gemeinsamen Widerstand.
+doc-law-voltages = Anoden- und Schirmgitterspannung sind wie gemessen genommen (das Absinken der Versorgung ist vernachlässigt)
+doc-law-ik = , und als Anodenstrom gilt der ganze Kathodenstrom, wie in der Tabelle oben
+doc-law-series = Die Werte sind die nächsten Werte der Reihen E12 und E24 nach IEC 60063.
+doc-bench = Messungen am Prüfplatz
+doc-col-output-power = Ausgangsleistung
+doc-col-reading = Messwert
+doc-col-load = Last
+doc-col-frequency = Frequenz
+doc-col-condition = Bedingung
+doc-col-power = Leistung
+doc-col-pct-rated = % der
+    Nennleistung
+doc-pct-of = { $pct } von { $rated }
+doc-col-hum-noise = Brumm und Rauschen
+doc-col-input = Eingang
+doc-col-volume = Lautstärke
+doc-col-across-load = An der
+    Last
+doc-col-below-full = Unter voller
+    Leistung
+doc-col-compared = Bezogen auf
+doc-level-into = { $level } an { $load }
+doc-nothing-to-compare = kein Bezugswert
+doc-col-response = Frequenzgang
+doc-row-output-v = Ausgang, V
+doc-row-db-against = dB bezogen auf { $reference }
+doc-minus3-points = −3-dB-Punkte:
+doc-and = und
+doc-for-input = , bei { $input } am Eingang
+doc-into-load = an { $load }
+doc-response-record = Zur Dokumentation; für den Frequenzgang gibt es keine Bestehensgrenze.
+doc-col-gain = Verstärkung
+doc-col-in = Ein
+doc-col-out = Aus
+doc-col-ratio = Faktor
+doc-measurements = Messwerte
+doc-no-measurements = Es wurden keine Messwerte erfasst.
+doc-charts = Diagramme
+doc-chart-dissipation = Endröhren: Anodenverlustleistung im Verhältnis zum Grenzwert
+doc-chart-dissipation-note = Jeder Balken ist eine Röhre in einer Messreihe, bei der Netzspannung jenes Tages, als Anteil an ihrer höchsten Anodenverlustleistung. Die dicke Linie ist 100 % des Grenzwerts.
+doc-chart-supply = Versorgungskette: Spannungen im Vergleich zur Spannungstabelle
+doc-chart-supply-note = Graue Säulen umfassen die erwartete Spannung jedes Punkts (der Tabellenwert umgerechnet auf { $nominal } Netzspannung, gestrichelt) plus und minus ihrer Toleranz. Die Marken sind die auf { $nominal } Netzspannung umgerechneten Messwerte.
+doc-chart-response = Frequenzgang am Prüfplatz
+doc-chart-response-note = Jede Linie ist eine Frequenzgangmessung in dB bezogen auf ihre Bezugsfrequenz, über einer logarithmischen Frequenzachse. Die gestrichelte Linie ist −3 dB; die senkrechten Striche darauf markieren die −3-dB-Punkte, gefunden durch Interpolation zwischen den beiden Messwerten auf jeder Seite.
+doc-safety = Elektrische Sicherheitsprüfungen
+doc-protection-class = Schutzklasse: { $class }.
+doc-col-test = Prüfung
+doc-col-limit = Grenzwert
+doc-col-result = Ergebnis
+doc-safety-limits-note = Die Grenzwerte hat die Werkstatt für diesen Auftrag festgelegt. Sie müssen den Vorschriften entsprechen, die am Einsatzort des Geräts gelten.
+doc-safety-none = Der Sicherheitsblock enthält keine Prüfungen.
+doc-safety-missing = Für diesen Auftrag wurden keine elektrischen Sicherheitsprüfungen erfasst.
+doc-charges = Kosten
+doc-col-item = Posten
+doc-col-hours = Stunden oder
+    Menge
+doc-col-rate-price = Satz oder
+    Preis
+doc-col-amount = Betrag
+doc-labour = Arbeitszeit
+doc-parts-charged = Teile
+doc-subtotal = Zwischensumme
+doc-tax-at = { $name } zu { $rate }
+doc-total = Gesamt, { $currency }
+doc-rounding = Jede Zeile ist auf zwei Nachkommastellen gerundet (Hälften aufwärts)
+doc-tax-on-subtotal = ; { $name } wird auf die Zwischensumme berechnet
+doc-hand-over = Übergabe
+doc-warranty = Gewährleistung
+doc-warranty-until = Gewährleistungsfrist: { $period }, vom Fertigstellungsdatum bis { $until }.
+doc-warranty-from = Gewährleistungsfrist: { $period } ab dem Fertigstellungsdatum.
+doc-terms = Bedingungen
+doc-signature = Unterschrift
+doc-date = Datum
+doc-handed-over = Das oben beschriebene Gerät wurde mit diesem Protokoll übergeben. Der Kunde bestätigt den Erhalt des Geräts und dieses Protokolls einschließlich des Hinweises zur Netzsicherheit.
+doc-sign-technician = Techniker
+doc-method = Methode und Annahmen
+doc-method-intro = Jeder Wert in diesem Protokoll ist entweder ein Messwert aus der Auftragsdatei oder nach den folgenden Regeln aus Messwerten berechnet. Spannungen sind Gleichspannungen gegen Chassis, sofern nicht anders angegeben. Mit *gängige Praxis* gekennzeichnete Richtbereiche sind Faustregeln des Handwerks ohne eine einzelne veröffentlichte Quelle; mit *aus dem Gedächtnis* gekennzeichnete Werte stammen aus veröffentlichten Daten und sollten mit dem Datenblatt geprüft werden. Jeder Bereich ist eine Einstellung des Auftrags; die hier verwendeten Werte sind angegeben.
+doc-ratings-used = Verwendete Röhrendaten
+doc-col-class = Klasse
+doc-col-positions = Positionen
+doc-col-limits-used = Verwendete Grenzwerte
+doc-col-source-note = Quellenangabe
+doc-col-from = Herkunft
+doc-no-types = Es wurden keine Röhrentypen verwendet.
+doc-how = Wie die Werte berechnet werden
+doc-m-idle = *Ruhestrom.* Bei einem Kathodenwiderstand Rk, den n Röhren teilen, ist der Kathodenstrom jeder Röhre Ik = Vk ÷ (n × Rk); eigener Widerstand: n = 1. Über einem Messwiderstand Rs gilt Ik = Vs ÷ Rs. Nach der Übertragerwiderstands-Methode ist Ia = Vdrop ÷ Rhalf, mit Rhalf kalt und spannungslos gemessen (geteilt durch n, wo n Röhren eine Primärhälfte teilen). Ein Shunt über der halben Primärwicklung oder ein Bias-Messadapter liefert den Strom direkt.
+doc-m-matched-cathode = *Annahme gepaarter Röhren:* dieser Auftrag hat einen gemeinsamen Kathodenwiderstand, daher nehmen die Werte an, dass sich die Röhren daran den Strom gleichmäßig teilen.
+doc-m-matched-primary = *Annahme gepaarter Röhren:* Röhren an einer gemeinsamen Primärhälfte teilen sich deren Strom nach dieser Annahme gleichmäßig.
+doc-m-screen = *Schirmgitterstrom.* Wo ein Schirmgitterwiderstand den Schirmgitterstrom liefert, gilt Ig2 = (Vsupply − Vg2) ÷ Rg2 und Ia = Ik − Ig2. Sonst gilt der ganze Kathodenstrom als Anodenstrom (Ia = Ik), der den Schirmgitterstrom einschließt: diese *vorsichtige Regel*, in den Tabellen mit „Ik“ gekennzeichnet, ergibt Verlustleistungen auf der hohen Seite.
+doc-m-screen-used = Die Werte dieses Auftrags verwenden sie.
+doc-m-dissipation = *Verlustleistung.* Anode: Pa = (Va − Vk) × Ia. Schirmgitter: Pg2 = (Vg2 − Vk) × Ig2. „% vom Max.“ ist der Wert im Verhältnis zum Grenzwert in der Tabelle oben.
+doc-m-mains = *Netzkorrektur (erster Ordnung).* Transformatorgespeiste Spannungen werden als proportional zur Netzspannung angenommen: ein Messwert V bei der Netzspannung Vm wird zu V × Vn ÷ Vm bei der Nennspannung Vn = { $nominal }. Ströme ändern sich ebenso, daher die Verlustleistung mit dem Quadrat: P × (Vn ÷ Vm)². Das ist eine Näherung; Innenwiderstand der Versorgung und Gleichrichterverlust bleiben unberücksichtigt.
+doc-m-high-line = *Obere Netzgrenze.* Die Versorgung kann um ihre Toleranz t = { $tolerance } über der Nennspannung liegen, bis { $high_line }; die hochgerechnete Verlustleistung ist P(Nenn) × (1 + t)², die hochgerechnete Spannung V(Nenn) × (1 + t). Die Standardtoleranzen stammen aus dem Gedächtnis aus den Versorgungsnormen (+5 % für 120-V-Netze, ANSI C84.1 Bereich A; ±10 % für 230 V, IEC 60038).
+doc-m-chart-title = Spannungstabelle.
+doc-m-chart-design = Die Tabelle des Herstellers gilt für { $design } Netzspannung, daher wird jeder Tabellenwert als V(Tabelle) × Vn ÷ Vd mit Vd = { $design } auf die Nennspannung umgerechnet.
+doc-m-chart-nominal = Die Tabellenwerte gelten als bei Netznennspannung aufgenommen.
+doc-m-chart-band = Ein Punkt ist normal innerhalb seines Bands um diesen erwarteten Wert ({ $tolerance }, sofern der Auftrag keinen anderen Wert setzt; gängige Praxis, viele Tabellen nennen ±10 % oder ±20 %).
+doc-m-bands-title = Richtbereiche (gängige Praxis).
+doc-m-bands-fixed = Feste Gittervorspannung, Gegentakt: Ziel { $low } bis { $high } von Pa max; darüber Vorsicht, darunter „zu kalt“ (Gefahr von Übernahmeverzerrungen), über 100 % überschritten.
+doc-m-bands-cathode = Kathodenautomatik: Vorsicht über { $caution }, über 100 % überschritten.
+doc-m-bands-parts = Widerstände: Vorsicht über { $derating } ihrer Belastbarkeit (Derating), über 100 % überschritten. Siebkondensatoren: überschritten über der Nennspannung, Vorsicht, wenn weniger als { $margin } davon übrig bleiben. Heizung: { $heater } vom Nennwert. Anoden- und Schirmgitterspannungen: Vorsicht über dem veröffentlichten Höchstwert (oder wenn die Hochrechnung auf die obere Netzgrenze ihn überschreitet), überschritten mehr als { $over } darüber; Gitarrenverstärker betreiben Endröhren oft über den Spannungshöchstwerten nach dem Design-Center-System, und die Anodenverlustleistung bestimmt die Lebensdauer der Röhre.
+doc-m-window = *Zielbereich.* Bei fester Gittervorspannung ist der Anodenstrom, der eine Röhre ins Ziel bringt, Ia = f × Pa(max) ÷ (Va − Vk) für f von { $low } bis { $high }; er wird auch als der Wert angegeben, den der Techniker einstellt (Millivolt über einem Messwiderstand, der auch den Schirmgitterstrom führt, oder Volt über der halben Primärwicklung).
+doc-m-bench = *Am Prüfplatz.* Messungen an einem Lastwiderstand mit der Lautsprecherimpedanz. Ausgangsleistung P = V²eff ÷ R; ein Spitze-Spitze-Wert eines Sinus ist Veff = Vss ÷ (2√2). Messungen an der Clipping-Grenze oder bei angegebenem Klirrfaktor unter { $power } der Nennleistung des Geräts sind ein Vorsichtsfall (gängige Praxis: ein gesundes älteres Gerät erreicht etwa 80 % oder mehr). Brumm und Rauschen in dBV ist 20 × log10(V ÷ 1 V); unter voller Leistung 20 × log10(Vvoll ÷ VRausch), mit Vvoll = √(P × R) aus der höchsten an der Clipping-Grenze oder bei angegebenem Klirrfaktor gemessenen Ausgangsleistung, sonst der Nennleistung; weniger als { $hum } ist ein Vorsichtsfall (gängige Praxis). Der Frequenzgang in dB ist 20 × log10(V ÷ Vref) bezogen auf die Bezugsfrequenz; die −3-dB-Punkte werden linear in dB über einer logarithmischen Frequenzachse zwischen den Messwerten auf beiden Seiten interpoliert. Die Verstärkung ist 20 × log10(Vaus ÷ Vein).
+doc-m-estimates = *Bias-Schätzungen.* Das Drei-Halbe-Gesetz (Child–Langmuir, wie es die klassischen Röhrenhandbücher auf Pentoden anwenden; aus dem Gedächtnis), Ik = K × (Vg2k ÷ μg1g2 + Vgk)^1.5, wird an die Messwerte einer Röhre angepasst, sodass es sie genau wiedergibt; μg1g2 stammt aus der Röhrendatentabelle (aus dem Gedächtnis nach Herstellerdaten).
+doc-m-estimates-resistor = Für einen Kathodenwiderstand findet es den Wert, der die heißeste Röhre daran auf { $target } ihrer Anodenverlustleistung bringt (gängige Praxis), mit Vk = n × Ik × Rk, und rundet auf die nächsten Werte der Reihen E12 und E24 nach IEC 60063; die Verlustleistung des Widerstands ist Vk² ÷ Rk, und seine Belastbarkeit sollte mindestens das Doppelte betragen (gängige Praxis).
+doc-m-estimates-grid = Bei fester Gittervorspannung gibt es die Gitterspannung für die Mitte des Zielbereichs an; maßgeblich bleiben die Stromwerte des Zielbereichs.
+doc-m-estimates-sag = Anoden- und Schirmgitterspannung sind wie gemessen genommen, ohne das Absinken der Versorgung: es sind Schätzungen aus einem einzigen Punkt, und der Ruhestrom muss nach jeder Änderung neu gemessen werden.
+doc-m-stressed = *Belastete Bauteile.* Vorwiderstand zwischen zwei Punkten: P = (V1 − V2)² ÷ R. Kathodenwiderstand: P = Vk² ÷ Rk. Beide werden wie die Röhren auf die obere Netzgrenze hochgerechnet. Ein Siebkondensator muss die höchste Spannung aushalten, die an ihm auftreten kann: seine auf die obere Netzgrenze hochgerechnete Betriebsspannung oder die Kaltstartspitze, je nachdem, welche höher ist; die Reserve ist, was von seiner Nennspannung übrig bleibt.
+doc-m-cold-start = *Kaltstartspitze:* bevor die Röhren Strom ziehen, lädt eine Zweiweg-Wicklung mit Vsec (effektiv, je Seite, bei der Primärspannung Vp angegeben) die ersten Kondensatoren auf etwa √2 × Vsec × V(obere Netzgrenze) ÷ Vp abzüglich des Gleichrichterverlusts (Silizium { $drop }; eine Gleichrichterröhre ohne Last etwa 0 V). Silizium- und direkt geheizte Gleichrichterröhren erreichen diesen Wert tatsächlich, während die Endröhren aufheizen.
+doc-m-judging = *Beurteilung des Geräts bei der Übergabe.* Die Zusammenfassung auf Seite 1, die Übersicht „Auf einen Blick“ und die Liste der offenen Befunde beziehen sich auf die letzten Messwerte
+doc-m-judging-label = („{ $label }“)
+doc-m-judging-rest = , also den Zustand, in dem das Gerät übergeben wird; die früheren Messwerte sind seine Vorgeschichte. Ein Wert, den der Techniker als annehmbar beurteilt hat, behält in den Tabellen seinen Status und seine Zahlen, wird mit Begründung, Name und Datum als AKZEPTIERT gekennzeichnet und zählt nicht mehr gegen das Gerät. Die Begründung jedes Status nennt den Wert, der ihn entschieden hat.
 
-## The mains-safety notice (templates/mains-safety.typ). It is translated
-## only as a whole: a translation that lacks any `notice-` key is refused.
-## `notice-check-opening` and `notice-check-closing` must be, word for word,
-## the opening sentence of `notice-deadly` and the closing sentence of
-## `notice-codes`: the program looks for them, with the heading and
-## `notice-codes-title`, in the finished PDF.
+## Hinweis zur Netzsicherheit (templates/mains-safety.typ): nur als Ganzes
+## übersetzbar. `notice-check-opening` ist wörtlich der erste Satz von
+## `notice-deadly`, `notice-check-closing` der letzte Satz von `notice-codes`.
 
-notice-heading = MAINS SAFETY: READ BEFORE USING OR OPENING THIS UNIT
-notice-deadly-title = Deadly voltages
-notice-deadly = This amplifier runs on voltages that can kill. While it is switched on, parts inside the chassis carry several hundred volts DC, and the mains wiring carries the full supply voltage.
-notice-stored-title = Stored charge
-notice-stored = The filter capacitors can keep a dangerous charge long after the amplifier is switched off and unplugged: minutes, hours, sometimes days.
-notice-who-title = Who may open it
-notice-who = Only a person trained and equipped for this work should open the chassis. Before touching anything inside, discharge the capacitors and measure to make sure they are discharged.
-notice-earth-title = Earth
-notice-earth = Never remove, cut or bypass the protective-earth conductor of the mains cord, and never use an adapter or plug that lifts the earth. Use only a correctly wired, earthed outlet.
-notice-fuses-title = Fuses
-notice-fuses = Replace a fuse only with one of the type and rating marked on the unit. A larger fuse does not cure a fault; it lets the fault do more damage.
-notice-document-title = This document
-notice-document = The measurements describe the unit on the dates given, at the mains voltage then present. They are a record of the work, not a certification of electrical safety, and they say nothing about how the unit will behave later or after other work.
-notice-codes-title = Local electrical codes come first.
-notice-codes = Mains wiring, earthing and electrical-safety testing must follow the electrical code and regulations in force where the unit is used. Where those rules, or the practice of a licensed electrician, differ from anything in this document, follow them.
-notice-check-opening = This amplifier runs on voltages that can kill.
-notice-check-closing = Where those rules, or the practice of a licensed electrician, differ from anything in this document, follow them.
+notice-heading = NETZSICHERHEIT: VOR GEBRAUCH ODER ÖFFNEN DES GERÄTS LESEN
+notice-deadly-title = Lebensgefahr
+notice-deadly = Dieser Verstärker arbeitet mit Spannungen, die tödlich sein können. Im eingeschalteten Zustand führen Teile im Chassis mehrere hundert Volt Gleichspannung, und die Netzverdrahtung führt die volle Netzspannung.
+notice-stored-title = Restladung
+notice-stored = Die Siebkondensatoren können noch lange nach dem Ausschalten und Ziehen des Netzsteckers eine gefährliche Ladung halten: Minuten, Stunden, manchmal Tage.
+notice-who-title = Wer öffnen darf
+notice-who = Nur eine für diese Arbeit ausgebildete und ausgerüstete Person darf das Chassis öffnen. Vor jeder Berührung im Inneren die Kondensatoren entladen und durch Messen prüfen, dass sie entladen sind.
+notice-earth-title = Schutzleiter
+notice-earth = Den Schutzleiter der Netzleitung niemals entfernen, durchtrennen oder überbrücken, und niemals einen Adapter oder Stecker verwenden, der den Schutzleiter unterbricht. Nur eine richtig angeschlossene Steckdose mit Schutzleiter verwenden.
+notice-fuses-title = Sicherungen
+notice-fuses = Eine Sicherung nur durch eine des Typs und Werts ersetzen, die am Gerät angegeben sind. Eine größere Sicherung behebt keinen Fehler; sie lässt den Fehler mehr Schaden anrichten.
+notice-document-title = Dieses Protokoll
+notice-document = Die Messwerte beschreiben das Gerät an den angegebenen Tagen bei der damals anliegenden Netzspannung. Sie dokumentieren die ausgeführte Arbeit, sind keine Bescheinigung der elektrischen Sicherheit und sagen nichts darüber, wie sich das Gerät später oder nach anderen Arbeiten verhält.
+notice-codes-title = Örtliche elektrotechnische Vorschriften gehen vor.
+notice-codes = Netzverdrahtung, Schutzleiteranschluss und elektrische Sicherheitsprüfungen müssen den elektrotechnischen Vorschriften und Bestimmungen entsprechen, die am Einsatzort des Geräts gelten. Wo diese Vorschriften oder die Praxis einer zugelassenen Elektrofachkraft von etwas in diesem Protokoll abweichen, gelten sie.
+notice-check-opening = Dieser Verstärker arbeitet mit Spannungen, die tödlich sein können.
+notice-check-closing = Wo diese Vorschriften oder die Praxis einer zugelassenen Elektrofachkraft von etwas in diesem Protokoll abweichen, gelten sie.
 
-## The document's fixed words built by the program (src/report/handover).
+## Vom Programm gebildete feste Wörter (src/report/handover).
 
-doc-title = Hand-over report { $id }: { $make } { $model }
-doc-description = Valve amplifier service hand-over for job { $id }
-doc-description-shop = Valve amplifier service hand-over for job { $id } from { $shop }
-doc-glance-basis = Readings “{ $label }” at { $mains } mains
-doc-glance-none = No measurements recorded
-doc-group-channel = Channel: { $channel }
-doc-group-shared = Shared
+doc-title = Übergabeprotokoll { $id }: { $make } { $model }
+doc-description = Übergabeprotokoll zur Wartung eines Röhrenverstärkers, Auftrag { $id }
+doc-description-shop = Übergabeprotokoll zur Wartung eines Röhrenverstärkers, Auftrag { $id }, von { $shop }
+doc-glance-basis = Messwerte „{ $label }“ bei { $mains } Netzspannung
+doc-glance-none = Keine Messwerte erfasst
+doc-group-channel = Kanal: { $channel }
+doc-group-shared = Gemeinsam
 period-days = { $count ->
-        [one] { $count } day
-       *[other] { $count } days
+        [one] { $count } Tag
+       *[other] { $count } Tage
     }
 period-weeks = { $count ->
-        [one] { $count } week
-       *[other] { $count } weeks
+        [one] { $count } Woche
+       *[other] { $count } Wochen
     }
 period-months = { $count ->
-        [one] { $count } month
-       *[other] { $count } months
+        [one] { $count } Monat
+       *[other] { $count } Monate
     }
 period-years = { $count ->
-        [one] { $count } year
-       *[other] { $count } years
+        [one] { $count } Jahr
+       *[other] { $count } Jahre
     }

@@ -63,6 +63,7 @@ doc-now = Now
 doc-glance = AT A GLANCE
 doc-read-notice-bold = Before using or opening this unit,
 doc-read-notice = read the mains-safety notice on page
+doc-read-notice-end = .
 doc-attention = What needs attention
 doc-open-in = Open in the readings “{ $label }”, as the unit leaves
 doc-nothing-open = Nothing is open in the readings “{ $label }”, as the unit leaves.

@@ -122,7 +122,14 @@ pub fn notice_source(catalogue: &Catalogue) -> Result<String, HandoverError> {
         })
         .collect();
     env.get_template(NOTICE_SOURCE)
-        .and_then(|t| t.render(minijinja::context! { n => words }))
+        .and_then(|t| {
+            let title_words: Vec<&str> = words
+                .iter()
+                .filter(|(k, _)| k.ends_with("_title") && k.as_str() != "codes_title")
+                .flat_map(|(_, v)| v.split_whitespace())
+                .collect();
+            t.render(minijinja::context! { n => words, title_words => title_words })
+        })
         .map_err(fail)
 }
 
@@ -555,7 +562,8 @@ mod tests {
                 SUPPLY_PLOT
             ]
         );
-        assert_eq!(doc.sandbox.get(NOTICE_SOURCE), Some(NOTICE_TEXT.as_bytes()));
+        let notice = notice_source(Catalogue::english()).unwrap();
+        assert_eq!(doc.sandbox.get(NOTICE_SOURCE), Some(notice.as_bytes()));
     }
 
     #[test]
@@ -791,13 +799,73 @@ mod tests {
 
     #[test]
     fn the_checked_phrases_are_the_notices_own_words() {
-        for phrase in NOTICE_PHRASES {
-            assert!(
-                NOTICE_TEXT.contains(phrase),
-                "{phrase} is not in mains-safety.typ"
-            );
+        // The English catalogue's notice is the one the stand-in typst
+        // programs of the fault tests print.
+        assert_eq!(notice_phrases(Catalogue::english()), NOTICE_PHRASES);
+        for tag in ["en", "de"] {
+            let catalogue = Catalogue::built_in(tag).unwrap();
+            let source = notice_source(&catalogue).unwrap();
+            for phrase in notice_phrases(&catalogue) {
+                // Each phrase is in the notice's source, escaped for Typst.
+                let escaped = crate::typeset::escape_markup(&phrase);
+                assert!(source.contains(&escaped), "{tag}: {phrase} is not in the notice");
+            }
+            // Every part of the notice is filled.
+            for key in crate::catalogue::NOTICE_KEYS
+                .iter()
+                .filter(|k| !k.ends_with("-opening") && !k.ends_with("-closing"))
+            {
+                let words = crate::typeset::escape_markup(&catalogue.text(key));
+                assert!(source.contains(&words), "{tag}: {key} missing");
+            }
         }
-        assert_eq!(notice_required().phrases.len(), NOTICE_PHRASES.len());
+        assert!(!notice_source(Catalogue::english()).unwrap().contains("{{"));
+    }
+
+    #[test]
+    fn a_german_catalogue_fills_the_template_and_the_notice() {
+        let (job, findings, text) = demo("combo-6v6-fixed.kdl");
+        let german = Catalogue::built_in("de").unwrap();
+        let input = HandoverInput {
+            catalogue: &german,
+            ..HandoverInput::new(&job, &findings, &text, "0.15.1")
+        };
+        let doc = build(&input, &TemplateSource::embedded(EMBEDDED_TEMPLATES)).unwrap();
+        let source = String::from_utf8(doc.sandbox.get(MAIN_SOURCE).unwrap().to_vec()).unwrap();
+        assert!(source.contains("lang: \"de\""));
+        for words in ["Röhrenbestückung", "Methode und Annahmen", "Übergabe", "Zwischensumme"] {
+            assert!(source.contains(words), "{words} missing");
+        }
+        // Completed 12 November 2026, in German.
+        assert_eq!(doc.context.job.completed.as_deref(), Some("12. November 2026"));
+        for english in ["Valve line-up", "Method and assumptions", "Subtotal"] {
+            assert!(!source.contains(english), "{english} left in English");
+        }
+        let notice = String::from_utf8(doc.sandbox.get(NOTICE_SOURCE).unwrap().to_vec()).unwrap();
+        assert!(notice.contains("NETZSICHERHEIT"));
+        assert_eq!(
+            doc.options.required_text.as_ref().unwrap().phrases,
+            notice_phrases(&german)
+        );
+    }
+
+    #[test]
+    fn a_template_asking_for_an_unknown_message_is_refused_naming_it() {
+        let dir = tempfile::tempdir().unwrap();
+        std::fs::write(
+            dir.path().join(TEMPLATE_NAME),
+            "{{ t(\"doc-no-such-label\") }}\n#include \"mains-safety.typ\"\n",
+        )
+        .unwrap();
+        let (job, findings, text) = demo("combo-el84-cathode.kdl");
+        let input = HandoverInput::new(&job, &findings, &text, "0.15.1");
+        let source = TemplateSource::embedded(EMBEDDED_TEMPLATES).with_override_dir(dir.path());
+        match build(&input, &source) {
+            Err(HandoverError::Template { detail, .. }) => {
+                assert!(detail.contains("no message `doc-no-such-label`"), "{detail}");
+            }
+            other => panic!("expected a template error, got {other:?}"),
+        }
     }
 
     #[test]
