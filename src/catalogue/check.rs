@@ -28,7 +28,12 @@ struct Uses {
     has_value: bool,
 }
 
-fn uses_of(text: &str) -> (BTreeMap<String, Uses>, Vec<fluent_syntax::parser::ParserError>) {
+fn uses_of(
+    text: &str,
+) -> (
+    BTreeMap<String, Uses>,
+    Vec<fluent_syntax::parser::ParserError>,
+) {
     let (resource, errors) = match fluent_syntax::parser::parse(text) {
         Ok(r) => (r, Vec::new()),
         Err((r, e)) => (r, e),
@@ -122,7 +127,10 @@ pub fn check_translation(name: &str, text: &str) -> Result<(), CatalogueDiagnost
     let lines = message_lines(text);
     let at = |key: &str| -> SourceSpan {
         let offset = lines.get(key).copied().unwrap_or(0);
-        SourceSpan::new(offset.into(), key.len().min(text.len() - offset.min(text.len())))
+        SourceSpan::new(
+            offset.into(),
+            key.len().min(text.len() - offset.min(text.len())),
+        )
     };
     let start = SourceSpan::new(0.into(), 0);
     let mut problems = Vec::new();
@@ -161,12 +169,18 @@ pub fn check_translation(name: &str, text: &str) -> Result<(), CatalogueDiagnost
             ));
         }
         for v in uses.variables.difference(&reference.variables) {
-            let given: Vec<String> = reference.variables.iter().map(|v| format!("`{{ ${v} }}`")).collect();
+            let given: Vec<String> = reference
+                .variables
+                .iter()
+                .map(|v| format!("`{{ ${v} }}`"))
+                .collect();
             problems.push(
                 DecodeError::error(
                     "catalogue::unknown-argument",
                     at(key),
-                    format!("the message `{key}` uses `{{ ${v} }}`, which the program never gives it"),
+                    format!(
+                        "the message `{key}` uses `{{ ${v} }}`, which the program never gives it"
+                    ),
                     "unknown argument",
                 )
                 .with_help(if given.is_empty() {
@@ -212,7 +226,9 @@ pub fn check_translation(name: &str, text: &str) -> Result<(), CatalogueDiagnost
             continue;
         }
         let help = match english_line(key) {
-            Some((line, words)) => format!("add `{key} = …`; the English is at messages/en.ftl:{line}: {words}"),
+            Some((line, words)) => {
+                format!("add `{key} = …`; the English is at messages/en.ftl:{line}: {words}")
+            }
             None => format!("add `{key} = …`"),
         };
         problems.push(

@@ -155,8 +155,7 @@ impl Catalogue {
 
     fn build(language: &str, origin: &str, text: &str) -> Result<Catalogue, ()> {
         let resource = FluentResource::try_new(text.to_owned()).map_err(|_| ())?;
-        let id: unic_langid::LanguageIdentifier =
-            language.parse().unwrap_or_default();
+        let id: unic_langid::LanguageIdentifier = language.parse().unwrap_or_default();
         let mut bundle = FluentBundle::new_concurrent(vec![id]);
         // No Unicode isolation marks around arguments: the text goes to a
         // terminal, JSON and a PDF, where they would show as stray bytes.

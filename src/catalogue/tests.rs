@@ -54,7 +54,10 @@ fn every_key_the_program_uses_is_in_the_english_catalogue() {
     assert!(used.len() > 250, "only {} keys found", used.len());
     assert!(used.iter().any(|(k, _)| k == "doc-glance-basis"));
     for (key, file) in &used {
-        assert!(english.has(key), "{key} (used in {file}) is not in messages/en.ftl");
+        assert!(
+            english.has(key),
+            "{key} (used in {file}) is not in messages/en.ftl"
+        );
     }
     // The network rows' kinds complete `doc-row-`.
     for kind in ["before", "after", "change"] {
@@ -87,16 +90,31 @@ fn dates_and_periods_follow_the_language() {
     assert_eq!(Catalogue::english().date(d), "9 November 2026");
     let de = Catalogue::built_in("de").unwrap();
     assert_eq!(de.date(d), "9. November 2026");
-    assert_eq!(de.date(NaiveDate::from_ymd_opt(2027, 3, 1).unwrap()), "1. März 2027");
+    assert_eq!(
+        de.date(NaiveDate::from_ymd_opt(2027, 3, 1).unwrap()),
+        "1. März 2027"
+    );
     // English stays what chrono's "%-d %B %Y" gave before the catalogue.
     for month in 1..=12 {
         let d = NaiveDate::from_ymd_opt(2026, month, 28).unwrap();
-        assert_eq!(Catalogue::english().date(d), d.format("%-d %B %Y").to_string());
+        assert_eq!(
+            Catalogue::english().date(d),
+            d.format("%-d %B %Y").to_string()
+        );
     }
     let en = Catalogue::english();
-    assert_eq!(en.format("period-days", &[("count", Arg::from(90usize))]), "90 days");
-    assert_eq!(en.format("period-years", &[("count", Arg::from(1usize))]), "1 year");
-    assert_eq!(de.format("period-months", &[("count", Arg::from(6usize))]), "6 Monate");
+    assert_eq!(
+        en.format("period-days", &[("count", Arg::from(90usize))]),
+        "90 days"
+    );
+    assert_eq!(
+        en.format("period-years", &[("count", Arg::from(1usize))]),
+        "1 year"
+    );
+    assert_eq!(
+        de.format("period-months", &[("count", Arg::from(6usize))]),
+        "6 Monate"
+    );
     // No Unicode isolation marks around arguments.
     let words = en.format("doc-job", &[("id", Arg::from("D-1"))]);
     assert_eq!(words, "Job D-1");
@@ -138,7 +156,10 @@ fn a_missing_key_is_an_error_naming_it_and_the_english_line() {
         .unwrap()
         + 1;
     let help = p.help.as_deref().unwrap();
-    assert!(help.contains(&format!("messages/en.ftl:{line}: Subtotal")), "{help}");
+    assert!(
+        help.contains(&format!("messages/en.ftl:{line}: Subtotal")),
+        "{help}"
+    );
     assert!(Catalogue::from_translation("de", "shop-de.ftl", &text).is_err());
 }
 
@@ -148,7 +169,11 @@ fn the_notice_is_translated_whole_or_refused() {
     let d = problems("de.ftl", &text);
     assert_eq!(d.problems.len(), 1, "{:?}", d.problems);
     assert_eq!(d.problems[0].code, "catalogue::notice-incomplete");
-    assert!(d.problems[0].message.contains("only as a whole; missing: notice-fuses"));
+    assert!(
+        d.problems[0]
+            .message
+            .contains("only as a whole; missing: notice-fuses")
+    );
     // A file with no notice at all names every part.
     let none: String = GERMAN
         .lines()
@@ -181,20 +206,36 @@ fn unknown_keys_arguments_and_syntax_are_errors_at_their_line() {
     let d = problems("de.ftl", &text);
     let p = &d.problems[0];
     assert_eq!(p.code, "catalogue::unknown-argument");
-    let line = text.lines().position(|l| l.starts_with("doc-total =")).unwrap() + 1;
+    let line = text
+        .lines()
+        .position(|l| l.starts_with("doc-total ="))
+        .unwrap()
+        + 1;
     assert_eq!(d.line_column(p.span.offset()), (line, 1));
     assert!(p.help.as_deref().unwrap().contains("{ $currency }"));
 
     let text = GERMAN.replace("doc-and = und", "doc-and = und { $");
     let d = problems("de.ftl", &text);
     assert!(d.problems.iter().any(|p| p.code == "catalogue::syntax"));
-    let line = text.lines().position(|l| l.starts_with("doc-and =")).unwrap() + 1;
-    let syntax = d.problems.iter().find(|p| p.code == "catalogue::syntax").unwrap();
+    let line = text
+        .lines()
+        .position(|l| l.starts_with("doc-and ="))
+        .unwrap()
+        + 1;
+    let syntax = d
+        .problems
+        .iter()
+        .find(|p| p.code == "catalogue::syntax")
+        .unwrap();
     assert_eq!(d.line_column(syntax.span.offset()).0, line);
 }
 
 #[test]
 fn a_key_the_catalogue_lacks_never_panics() {
     assert_eq!(Catalogue::english().text("no-such-key"), "[no-such-key]");
-    assert!(Catalogue::english().try_format("no-such-key", &[]).is_none());
+    assert!(
+        Catalogue::english()
+            .try_format("no-such-key", &[])
+            .is_none()
+    );
 }

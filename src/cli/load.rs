@@ -130,11 +130,10 @@ pub fn shop_profile(args: &JobArgs) -> Result<Option<LoadedShop>, Exit> {
         Some(language) => match shop::read_translation(&path, language) {
             Ok(c) => (
                 c,
-                language.file.as_ref().map(|f| {
-                    path.parent()
-                        .unwrap_or(Path::new("."))
-                        .join(f.value.trim())
-                }),
+                language
+                    .file
+                    .as_ref()
+                    .map(|f| path.parent().unwrap_or(Path::new(".")).join(f.value.trim())),
             ),
             Err(shop::TranslationError::Profile(problem)) => {
                 let diagnostics = job::JobDiagnostics {

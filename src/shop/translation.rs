@@ -23,14 +23,20 @@ pub enum TranslationError {
 
 /// The catalogue for a profile's `language`, the profile being at
 /// `profile`.
-pub fn read_translation(profile: &Path, language: &Language) -> Result<Catalogue, TranslationError> {
+pub fn read_translation(
+    profile: &Path,
+    language: &Language,
+) -> Result<Catalogue, TranslationError> {
     let Some(file) = &language.file else {
         return Catalogue::built_in(&language.tag.value).ok_or_else(|| {
             TranslationError::Profile(Box::new(
                 DecodeError::error(
                     "shop::unknown-language",
                     language.tag.span,
-                    format!("the program has no catalogue for `{}` built in", language.tag.value),
+                    format!(
+                        "the program has no catalogue for `{}` built in",
+                        language.tag.value
+                    ),
                     "no built-in catalogue",
                 )
                 .in_file_kind("shop"),

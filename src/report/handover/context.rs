@@ -21,8 +21,8 @@ use crate::calc::{
     NodeFindings, RectifierFindings, ResistorFindings, SetFindings, Status, ValveFindings,
     resistor_power_words,
 };
-use crate::job::{Job, ProtectionClass};
 use crate::catalogue::{Arg, Catalogue};
+use crate::job::{Job, ProtectionClass};
 use crate::shop::ShopProfile;
 
 use super::charges::{ChargesContext, charges_context};

@@ -418,10 +418,8 @@ pub fn catalogue_functions(catalogue: &Catalogue) -> (Value, Value) {
             let (words, values) = lookup(&strong, key, &kwargs, true)?;
             let mut markup = crate::typeset::escape_markup(&words).replace("\\*", "*");
             for (i, v) in values.iter().enumerate() {
-                markup = markup.replace(
-                    &format!("QzqArg{i}Qzq"),
-                    &crate::typeset::escape_markup(v),
-                );
+                markup =
+                    markup.replace(&format!("QzqArg{i}Qzq"), &crate::typeset::escape_markup(v));
             }
             Ok(typst_markup(markup))
         },
@@ -808,7 +806,10 @@ mod tests {
             for phrase in notice_phrases(&catalogue) {
                 // Each phrase is in the notice's source, escaped for Typst.
                 let escaped = crate::typeset::escape_markup(&phrase);
-                assert!(source.contains(&escaped), "{tag}: {phrase} is not in the notice");
+                assert!(
+                    source.contains(&escaped),
+                    "{tag}: {phrase} is not in the notice"
+                );
             }
             // Every part of the notice is filled.
             for key in crate::catalogue::NOTICE_KEYS
@@ -833,11 +834,19 @@ mod tests {
         let doc = build(&input, &TemplateSource::embedded(EMBEDDED_TEMPLATES)).unwrap();
         let source = String::from_utf8(doc.sandbox.get(MAIN_SOURCE).unwrap().to_vec()).unwrap();
         assert!(source.contains("lang: \"de\""));
-        for words in ["Röhrenbestückung", "Methode und Annahmen", "Übergabe", "Zwischensumme"] {
+        for words in [
+            "Röhrenbestückung",
+            "Methode und Annahmen",
+            "Übergabe",
+            "Zwischensumme",
+        ] {
             assert!(source.contains(words), "{words} missing");
         }
         // Completed 12 November 2026, in German.
-        assert_eq!(doc.context.job.completed.as_deref(), Some("12. November 2026"));
+        assert_eq!(
+            doc.context.job.completed.as_deref(),
+            Some("12. November 2026")
+        );
         for english in ["Valve line-up", "Method and assumptions", "Subtotal"] {
             assert!(!source.contains(english), "{english} left in English");
         }
@@ -862,7 +871,10 @@ mod tests {
         let source = TemplateSource::embedded(EMBEDDED_TEMPLATES).with_override_dir(dir.path());
         match build(&input, &source) {
             Err(HandoverError::Template { detail, .. }) => {
-                assert!(detail.contains("no message `doc-no-such-label`"), "{detail}");
+                assert!(
+                    detail.contains("no message `doc-no-such-label`"),
+                    "{detail}"
+                );
             }
             other => panic!("expected a template error, got {other:?}"),
         }

@@ -126,5 +126,8 @@ pub fn period_words(p: crate::shop::Period, catalogue: &Catalogue) -> String {
         crate::shop::PeriodUnit::Months => "period-months",
         crate::shop::PeriodUnit::Years => "period-years",
     };
-    catalogue.format(key, &[("count", crate::catalogue::Arg::from(p.count as usize))])
+    catalogue.format(
+        key,
+        &[("count", crate::catalogue::Arg::from(p.count as usize))],
+    )
 }
