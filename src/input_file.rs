@@ -1,8 +1,9 @@
-//! Reading an input text file (a job, a shop's ratings file) with a bound
-//! on its size and a line and column for bytes that are not UTF-8. A job
-//! file is a few kilobytes; one of many megabytes is a mistake (the wrong
-//! file, a log, a disk image), and reading it whole would cost memory out
-//! of all proportion (a 68 MB file once took 790 MB to refuse).
+//! Reading an input text file (a job, a shop's ratings file), or a job
+//! from standard input, with a bound on its size and a line and column for
+//! bytes that are not UTF-8. A job file is a few kilobytes; one of many
+//! megabytes is a mistake (the wrong file, a log, a disk image), and reading
+//! it whole would cost memory out of all proportion (a 68 MB file once took
+//! 790 MB to refuse).
 
 use std::io::Read;
 use std::path::Path;
@@ -38,22 +39,51 @@ pub enum InputFileError {
     },
 }
 
+/// The name a job read from standard input has in messages and
+/// diagnostics.
+pub const STDIN_NAME: &str = "<stdin>";
+
+/// True for the path `-`, which stands for standard input (a job) or
+/// standard output (a PDF). A file of that name is written `./-`.
+pub fn is_dash(path: &Path) -> bool {
+    path.as_os_str() == "-"
+}
+
 /// Reads `path` as UTF-8 text of at most [`MAX_INPUT_BYTES`]; `what` names
 /// the file in messages ("job file").
 pub fn read_text(path: &Path, what: &'static str) -> Result<String, InputFileError> {
     let shown = path.display().to_string();
-    let io = |source| InputFileError::Io {
+    let file = std::fs::File::open(path).map_err(|source| InputFileError::Io {
         what,
         path: shown.clone(),
         source,
-    };
-    let file = std::fs::File::open(path).map_err(io)?;
-    // The length is checked on the bytes read, not only the metadata, so a
-    // pipe or a device is bounded too.
+    })?;
+    read_from(file, shown, what)
+}
+
+/// Reads standard input as UTF-8 text under the same rules as
+/// [`read_text`], named [`STDIN_NAME`] in messages.
+pub fn read_stdin(what: &'static str) -> Result<String, InputFileError> {
+    read_from(std::io::stdin().lock(), STDIN_NAME.to_owned(), what)
+}
+
+/// Reads `source` as UTF-8 text of at most [`MAX_INPUT_BYTES`]; `shown`
+/// names it in messages. At most one byte past the limit is read, so an
+/// endless pipe or a device is refused without filling memory.
+pub fn read_from(
+    source: impl Read,
+    shown: String,
+    what: &'static str,
+) -> Result<String, InputFileError> {
     let mut bytes = Vec::new();
-    file.take(MAX_INPUT_BYTES + 1)
+    source
+        .take(MAX_INPUT_BYTES + 1)
         .read_to_end(&mut bytes)
-        .map_err(io)?;
+        .map_err(|source| InputFileError::Io {
+            what,
+            path: shown.clone(),
+            source,
+        })?;
     if bytes.len() as u64 > MAX_INPUT_BYTES {
         return Err(InputFileError::TooLarge { what, path: shown });
     }
@@ -104,5 +134,30 @@ mod tests {
         f.set_len(MAX_INPUT_BYTES).unwrap();
         // Exactly at the limit: read (zeros are valid UTF-8).
         assert!(read_text(&path, "job file").is_ok());
+    }
+
+    #[test]
+    fn a_stream_is_bounded_and_named_as_given() {
+        // An endless stream: refused after one byte past the limit.
+        let endless = std::io::repeat(b'a');
+        let e = read_from(endless, STDIN_NAME.into(), "job file").unwrap_err();
+        assert!(matches!(e, InputFileError::TooLarge { .. }), "{e:?}");
+        assert!(
+            e.to_string()
+                .contains("the job file <stdin> is larger than 16 MiB"),
+            "{e}"
+        );
+        let e = read_from(&b"a\n\xfe"[..], STDIN_NAME.into(), "job file").unwrap_err();
+        assert!(
+            e.to_string()
+                .starts_with("<stdin>:2:1: the job file is not UTF-8"),
+            "{e}"
+        );
+        assert_eq!(
+            read_from(&b"job-format 1\n"[..], STDIN_NAME.into(), "job file").unwrap(),
+            "job-format 1\n"
+        );
+        assert!(is_dash(Path::new("-")));
+        assert!(!is_dash(Path::new("./-")) && !is_dash(Path::new("--")));
     }
 }

@@ -8,6 +8,7 @@
 pub mod calc;
 pub mod catalogue;
 pub mod cli;
+pub mod folders;
 pub mod input_file;
 pub mod job;
 pub mod kdl_fast;

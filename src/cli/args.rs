@@ -1,13 +1,18 @@
-//! Every command-line definition, in one place.
+//! Every command-line definition, in one place. What the shell completes
+//! for each argument is attached here too (see [`super::completions`]).
 
-use clap::{Args, Parser, Subcommand, ValueEnum};
+use clap::{Args, Parser, Subcommand, ValueEnum, ValueHint};
+use clap_complete::engine::ArgValueCompleter;
 use std::path::PathBuf;
 use std::time::Duration;
+
+use super::completions::{job_files, pdf_files, valve_types};
+use super::ui::ColourChoice;
 
 #[derive(Debug, Parser)]
 #[command(
     name = "ampreport",
-    version,
+    disable_version_flag = true,
     about = "Checks a valve-amplifier repair job file and turns it into a hand-over document",
     long_about = "Reads one KDL job file (the unit, its measurements, parts and mods, safety tests), \
 derives plate and screen dissipation, mains-corrected and high-line figures and the stress on \
@@ -17,8 +22,37 @@ resistors and capacitors, and prints them or typesets a PDF hand-over document."
 4 --strict found an un-accepted figure over its limit in the final set (--strict=all: in any set)."
 )]
 pub struct Cli {
+    /// Print the version of ampreport, of the job format and the JSON
+    /// schema, and the typst program found.
+    #[arg(short = 'V', long)]
+    pub version: bool,
+    #[command(flatten)]
+    pub output: OutputArgs,
     #[command(subcommand)]
-    pub command: Command,
+    pub command: Option<Command>,
+}
+
+/// How the program talks, for every command.
+#[derive(Debug, Args, Clone, Copy)]
+pub struct OutputArgs {
+    /// Colour in the summary and the messages: auto (only on a terminal,
+    /// and never when NO_COLOR is set), always, or never.
+    #[arg(
+        long,
+        global = true,
+        value_enum,
+        value_name = "WHEN",
+        default_value_t = ColourChoice::Auto
+    )]
+    pub color: ColourChoice,
+    /// Print errors only: no warnings, notes or "wrote" lines (the
+    /// summary, JSON or PDF asked for is still written).
+    #[arg(short, long, global = true, conflicts_with = "verbose")]
+    pub quiet: bool,
+    /// Also say what was read from where: the job, shop profile, ratings
+    /// files, templates, typst, and the configuration and cache folders.
+    #[arg(short, long, global = true)]
+    pub verbose: bool,
 }
 
 #[derive(Debug, Subcommand)]
@@ -35,19 +69,42 @@ pub enum Command {
     Init(InitArgs),
     /// Write a mod's network as a plain SPICE netlist with an AC analysis.
     Netlist(NetlistArgs),
+    /// Print the shell completion script for bash, zsh, fish or PowerShell.
+    ///
+    /// The script asks ampreport itself what to offer at each Tab: commands,
+    /// options, job files (.kdl) and folders, the valve types of the ratings
+    /// table for `tubes`, .pdf files for `render -o`. ampreport must be on
+    /// PATH. To install, for bash: `ampreport completions bash >
+    /// ~/.local/share/bash-completion/completions/ampreport`; zsh:
+    /// `ampreport completions zsh > ~/.zfunc/_ampreport` with ~/.zfunc on
+    /// fpath before compinit; fish: `ampreport completions fish >
+    /// ~/.config/fish/completions/ampreport.fish`; PowerShell: add
+    /// `ampreport completions powershell | Out-String | Invoke-Expression`
+    /// to $PROFILE.
+    Completions(CompletionsArgs),
+    /// Write the manual pages, one per command, into a folder.
+    ///
+    /// Writes ampreport.1 and ampreport-COMMAND.1 for each command. To
+    /// install them for one user: `ampreport man ~/.local/share/man/man1`
+    /// (then `man ampreport-render`; man looks there when ~/.local/bin is
+    /// on PATH, else add `export MANPATH="$HOME/.local/share/man:"` to the
+    /// shell's profile); for all users, into /usr/local/share/man/man1 as
+    /// root.
+    Man(ManArgs),
 }
 
 /// Options every command that reads a job shares.
 #[derive(Debug, Args)]
 pub struct JobArgs {
-    /// The job file (KDL).
+    /// The job file (KDL); `-` reads it from standard input.
+    #[arg(value_hint = ValueHint::FilePath, add = ArgValueCompleter::new(job_files()))]
     pub job: PathBuf,
     /// A shop's own ratings file that adds or corrects valve types.
-    #[arg(long, value_name = "FILE")]
+    #[arg(long, value_name = "FILE", value_hint = ValueHint::FilePath, add = ArgValueCompleter::new(job_files()))]
     pub ratings: Vec<PathBuf>,
     /// The shop profile to use when there is no shop.kdl in the job's folder
     /// or a folder above it.
-    #[arg(long, value_name = "FILE", conflicts_with = "no_shop")]
+    #[arg(long, value_name = "FILE", conflicts_with = "no_shop", value_hint = ValueHint::FilePath, add = ArgValueCompleter::new(job_files()))]
     pub shop: Option<PathBuf>,
     /// Use no shop profile at all: the neutral heading and the built-in defaults.
     #[arg(long)]
@@ -94,18 +151,19 @@ pub struct CalcArgs {
 pub struct RenderArgs {
     #[command(flatten)]
     pub job: JobArgs,
-    /// Where to write the PDF (default: beside the job file, same name, .pdf).
-    #[arg(short, long, value_name = "FILE")]
+    /// Where to write the PDF (default: beside the job file, same name,
+    /// .pdf); `-` writes it to standard output.
+    #[arg(short, long, value_name = "FILE", value_hint = ValueHint::FilePath, add = ArgValueCompleter::new(pdf_files()))]
     pub output: Option<PathBuf>,
     /// The typst program to run (default: $AMPREPORT_TYPST, else typst on PATH).
-    #[arg(long, value_name = "PATH")]
+    #[arg(long, value_name = "PATH", value_hint = ValueHint::ExecutablePath)]
     pub typst: Option<PathBuf>,
     /// A folder of templates that replace the built-in ones by file name.
-    #[arg(long, value_name = "DIR")]
+    #[arg(long, value_name = "DIR", value_hint = ValueHint::DirPath)]
     pub templates: Option<PathBuf>,
     /// Also write the generated Typst source and its assets to this folder
     /// (new or empty; see --force).
-    #[arg(long, value_name = "DIR")]
+    #[arg(long, value_name = "DIR", value_hint = ValueHint::DirPath)]
     pub emit_source: Option<PathBuf>,
     /// Leave the job's charges out of the document.
     #[arg(long)]
@@ -129,7 +187,7 @@ pub const MAX_TIMEOUT_SECONDS: f64 = 86_400.0;
 
 /// A number of seconds, more than 0 and at most [`MAX_TIMEOUT_SECONDS`]
 /// (fractions allowed).
-fn parse_timeout(text: &str) -> Result<Duration, String> {
+pub fn parse_timeout(text: &str) -> Result<Duration, String> {
     let seconds: f64 = text
         .trim()
         .parse()
@@ -145,9 +203,10 @@ fn parse_timeout(text: &str) -> Result<Duration, String> {
 #[derive(Debug, Args)]
 pub struct TubesArgs {
     /// A valve type to show in full (equivalents are found too).
+    #[arg(add = ArgValueCompleter::new(valve_types))]
     pub valve_type: Option<String>,
     /// A shop's own ratings file that adds or corrects valve types.
-    #[arg(long, value_name = "FILE")]
+    #[arg(long, value_name = "FILE", value_hint = ValueHint::FilePath, add = ArgValueCompleter::new(job_files()))]
     pub ratings: Vec<PathBuf>,
 }
 
@@ -155,10 +214,11 @@ pub struct TubesArgs {
 #[command(group(clap::ArgGroup::new("what").required(true).multiple(true).args(["path", "shop"])))]
 pub struct InitArgs {
     /// Where to write the new job file; an existing file is never replaced.
+    #[arg(value_hint = ValueHint::FilePath)]
     pub path: Option<PathBuf>,
     /// Where to write an annotated shop profile (shop.kdl); an existing file
     /// is never replaced.
-    #[arg(long, value_name = "PATH")]
+    #[arg(long, value_name = "PATH", value_hint = ValueHint::FilePath)]
     pub shop: Option<PathBuf>,
 }
 
@@ -176,6 +236,21 @@ pub struct NetlistArgs {
     #[arg(long, value_name = "S", default_value_t = 1)]
     pub setting: usize,
     /// Write to this file (atomically) instead of standard output.
-    #[arg(short, long, value_name = "FILE")]
+    #[arg(short, long, value_name = "FILE", value_hint = ValueHint::FilePath)]
     pub output: Option<PathBuf>,
+}
+
+#[derive(Debug, Args)]
+pub struct CompletionsArgs {
+    /// The shell to print the script for.
+    #[arg(value_enum)]
+    pub shell: super::completions::Shell,
+}
+
+#[derive(Debug, Args)]
+pub struct ManArgs {
+    /// The folder to write the pages into (default: the current folder); it
+    /// must exist. Pages of the same name are replaced.
+    #[arg(value_name = "DIR", value_hint = ValueHint::DirPath)]
+    pub dir: Option<PathBuf>,
 }

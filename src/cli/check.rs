@@ -1,7 +1,5 @@
 //! `ampreport check JOB`: the terminal summary.
 
-use std::io::IsTerminal;
-
 use super::args::{CheckArgs, StrictSets};
 use super::exit::Exit;
 use super::load;
@@ -33,7 +31,7 @@ pub fn run(args: &CheckArgs) -> Exit {
     }
 }
 
-/// Colour only on a terminal, and never when NO_COLOR is set.
+/// Colour as `--color` and NO_COLOR say, for standard output.
 pub fn colour_wanted() -> bool {
-    std::io::stdout().is_terminal() && std::env::var_os("NO_COLOR").is_none_or(|v| v.is_empty())
+    super::ui::colour(super::ui::Stream::Stdout)
 }

@@ -48,11 +48,11 @@ fn write_new(path: &std::path::Path, text: &str, next: &str) -> Exit {
     });
     match result {
         Ok(()) => {
-            println!(
+            super::ui::wrote(format!(
                 "wrote {}; {}",
                 path.display(),
                 next.replace("{}", &path.display().to_string())
-            );
+            ));
             Exit::Success
         }
         Err(e) if e.kind() == std::io::ErrorKind::AlreadyExists => {

@@ -1,11 +1,16 @@
-//! Reading a job file, its shop profile and the ratings it needs, shared by
-//! every command that takes a job. Problems are printed here as diagnostics.
+//! Reading a job file (or a job on standard input, named `-`), its shop
+//! profile and the ratings it needs, shared by every command that takes a
+//! job. Problems are printed here as diagnostics; `--verbose` says what was
+//! read from where.
 
+use std::io::IsTerminal;
 use std::path::{Path, PathBuf};
 
 use super::args::JobArgs;
 use super::exit::Exit;
+use super::ui;
 use crate::catalogue::Catalogue;
+use crate::input_file::{STDIN_NAME, is_dash};
 use crate::job::{self, Decoded, JobDefaults};
 use crate::ratings::RatingsTable;
 use crate::shop::{self, Found, Logo, ShopProfile};
@@ -13,11 +18,19 @@ use crate::shop::{self, Found, Logo, ShopProfile};
 /// The built-in ratings plus any shop files named on the command line.
 pub fn ratings(files: &[std::path::PathBuf]) -> Result<RatingsTable, Exit> {
     let mut table = RatingsTable::builtin();
+    ui::read(
+        "ratings",
+        format!("built in ({} types, embedded in the program)", table.len()),
+    );
     for f in files {
         if let Err(report) = table.load_shop_file(f) {
             eprintln!("{report:?}");
             return Err(Exit::InvalidInput);
         }
+        ui::read(
+            "ratings",
+            format!("{} (a shop's ratings file)", f.display()),
+        );
     }
     Ok(table)
 }
@@ -60,8 +73,8 @@ pub fn job(args: &JobArgs) -> Result<Loaded, Exit> {
         .as_ref()
         .map(|s| s.profile.defaults.clone())
         .unwrap_or_else(JobDefaults::default);
-    let text = read_text(&args.job, "job file")?;
-    let name = args.job.display().to_string();
+    let text = read_job(&args.job)?;
+    let name = job_name(&args.job);
     let decoded = match job::decode_with_defaults(&name, &text, &ratings, &defaults) {
         Ok(d) => d,
         Err(diagnostics) => {
@@ -70,7 +83,10 @@ pub fn job(args: &JobArgs) -> Result<Loaded, Exit> {
         }
     };
     if !decoded.diagnostics.problems.is_empty() {
-        eprintln!("{:?}", miette::Report::new(decoded.diagnostics.clone()));
+        ui::warn(format!(
+            "{:?}",
+            miette::Report::new(decoded.diagnostics.clone())
+        ));
     }
     Ok(Loaded {
         decoded,
@@ -80,23 +96,64 @@ pub fn job(args: &JobArgs) -> Result<Loaded, Exit> {
     })
 }
 
+/// The name a job has in messages: its path, or `<stdin>` for `-`.
+pub fn job_name(path: &Path) -> String {
+    if is_dash(path) {
+        STDIN_NAME.to_owned()
+    } else {
+        path.display().to_string()
+    }
+}
+
+/// The job's text, from its file or, for `-`, from standard input, under
+/// the same size and UTF-8 rules.
+pub fn read_job(path: &Path) -> Result<String, Exit> {
+    let read = if is_dash(path) {
+        if std::io::stdin().is_terminal() {
+            ui::warn("note: reading the job from standard input; end it with Ctrl-D");
+        }
+        crate::input_file::read_stdin("job file")
+    } else {
+        crate::input_file::read_text(path, "job file")
+    };
+    let text = read.map_err(|e| {
+        eprintln!("error: {e}");
+        Exit::InvalidInput
+    })?;
+    let whence = if is_dash(path) {
+        "standard input".to_owned()
+    } else {
+        path.display().to_string()
+    };
+    ui::read("job", format!("{whence} ({} bytes)", text.len()));
+    Ok(text)
+}
+
 /// The shop profile for the job, found as [`shop::discover`] says, decoded,
 /// with its logo read and checked; `None` with `--no-shop` or when there is
 /// none.
 pub fn shop_profile(args: &JobArgs) -> Result<Option<LoadedShop>, Exit> {
     if args.no_shop {
+        ui::read("shop profile", "none (--no-shop)");
         return Ok(None);
     }
     let config = shop::user_config_dir();
     let Some(found) = shop::discover(&args.job, args.shop.as_deref(), config.as_deref()) else {
+        ui::read(
+            "shop profile",
+            format!(
+                "none (no {} beside the job or above it, no --shop, none in the config folder)",
+                shop::SHOP_FILE
+            ),
+        );
         return Ok(None);
     };
     if let (Found::BesideJob(used), Some(named)) = (&found, &args.shop) {
-        eprintln!(
+        ui::warn(format!(
             "note: using the shop profile {} found beside the job; --shop {} applies only where there is none",
             used.display(),
             named.display()
-        );
+        ));
     }
     let path: PathBuf = found.path().to_path_buf();
     let text = read_text(&path, "shop profile")?;
@@ -108,8 +165,23 @@ pub fn shop_profile(args: &JobArgs) -> Result<Option<LoadedShop>, Exit> {
             return Err(Exit::InvalidInput);
         }
     };
+    ui::read(
+        "shop profile",
+        format!(
+            "{} ({})",
+            path.display(),
+            match &found {
+                Found::BesideJob(_) => "beside the job or above it",
+                Found::Named(_) => "named with --shop",
+                Found::UserConfig(_) => "the config folder",
+            }
+        ),
+    );
     if !decoded.diagnostics.problems.is_empty() {
-        eprintln!("{:?}", miette::Report::new(decoded.diagnostics.clone()));
+        ui::warn(format!(
+            "{:?}",
+            miette::Report::new(decoded.diagnostics.clone())
+        ));
     }
     let logo = match &decoded.profile.logo {
         Some(written) => match shop::read_logo(&path, written) {
@@ -126,15 +198,29 @@ pub fn shop_profile(args: &JobArgs) -> Result<Option<LoadedShop>, Exit> {
         },
         None => None,
     };
+    if let Some(logo) = &logo {
+        ui::read("shop logo", logo.source.display());
+    }
     let (catalogue, translation) = match &decoded.profile.language {
         Some(language) => match shop::read_translation(&path, language) {
-            Ok(c) => (
-                c,
-                language
-                    .file
-                    .as_ref()
-                    .map(|f| path.parent().unwrap_or(Path::new(".")).join(f.value.trim())),
-            ),
+            Ok(c) => {
+                if let Some(f) = &language.file {
+                    ui::read(
+                        "translation",
+                        path.parent()
+                            .unwrap_or(Path::new("."))
+                            .join(f.value.trim())
+                            .display(),
+                    );
+                }
+                (
+                    c,
+                    language
+                        .file
+                        .as_ref()
+                        .map(|f| path.parent().unwrap_or(Path::new(".")).join(f.value.trim())),
+                )
+            }
             Err(shop::TranslationError::Profile(problem)) => {
                 let diagnostics = job::JobDiagnostics {
                     source: decoded.diagnostics.source.clone(),
@@ -160,7 +246,7 @@ pub fn shop_profile(args: &JobArgs) -> Result<Option<LoadedShop>, Exit> {
     }))
 }
 
-/// A file's text; `what` names it in the message ("job file").
+/// A file's text; `what` names it in the message ("shop profile").
 pub fn read_text(path: &Path, what: &'static str) -> Result<String, Exit> {
     crate::input_file::read_text(path, what).map_err(|e| {
         eprintln!("error: {e}");

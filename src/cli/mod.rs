@@ -4,15 +4,18 @@
 pub mod args;
 mod calc;
 mod check;
+pub mod completions;
 pub mod exit;
 mod init;
 mod load;
+pub mod man;
 mod netlist;
 mod render;
 mod tubes;
+pub mod ui;
+pub mod version;
 
-use clap::Parser;
-use std::io::IsTerminal;
+use clap::{CommandFactory, FromArgMatches};
 use std::process::ExitCode;
 
 pub use exit::Exit;
@@ -20,7 +23,19 @@ pub use init::SKELETON;
 
 /// Runs the program with the process's arguments.
 pub fn main() -> ExitCode {
-    let cli = match args::Cli::try_parse() {
+    // A completion script asking for candidates: answered, then exit.
+    completions::complete_if_asked();
+    // clap's own help and errors follow --color too, so it is read first.
+    let clap_colour = match ui::colour_in_args(std::env::args_os()) {
+        Some(ui::ColourChoice::Always) => clap::ColorChoice::Always,
+        Some(ui::ColourChoice::Never) => clap::ColorChoice::Never,
+        _ => clap::ColorChoice::Auto,
+    };
+    let parsed = args::Cli::command()
+        .color(clap_colour)
+        .try_get_matches()
+        .and_then(|m| args::Cli::from_arg_matches(&m));
+    let cli = match parsed {
         Ok(cli) => cli,
         Err(e) => {
             let _ = e.print();
@@ -31,13 +46,31 @@ pub fn main() -> ExitCode {
             };
         }
     };
+    let output = cli.output;
+    ui::set(ui::Ui::new(output.color, output.quiet, output.verbose));
     install_diagnostic_style();
-    let exit = match &cli.command {
+    if cli.version {
+        return version::run().into();
+    }
+    let Some(command) = &cli.command else {
+        let _ = args::Cli::command()
+            .color(clap_colour)
+            .error(
+                clap::error::ErrorKind::MissingSubcommand,
+                "a command is needed (or --version, or --help)",
+            )
+            .print();
+        return Exit::Usage.into();
+    };
+    ui::folders();
+    let exit = match command {
         args::Command::Check(a) => check::run(a),
         args::Command::Calc(a) => calc::run(a),
         args::Command::Render(a) => render::run(a),
         args::Command::Tubes(a) => tubes::run(a),
         args::Command::Init(a) => init::run(a),
+        args::Command::Completions(a) => completions::run(a),
+        args::Command::Man(a) => man::run(a),
         args::Command::Netlist(a) => netlist::run(a),
     };
     if let Exit::Interrupted(signal) = exit {
@@ -46,11 +79,10 @@ pub fn main() -> ExitCode {
     exit.into()
 }
 
-/// Diagnostics in colour only on a terminal without NO_COLOR; plain
-/// Unicode otherwise, always with file:line:column.
+/// Diagnostics in colour as `--color` and NO_COLOR say ([`ui::colour`]);
+/// plain Unicode otherwise, always with file:line:column.
 fn install_diagnostic_style() {
-    let colour = std::io::stderr().is_terminal()
-        && std::env::var_os("NO_COLOR").is_none_or(|v| v.is_empty());
+    let colour = ui::colour(ui::Stream::Stderr);
     let _ = miette::set_hook(Box::new(move |_| {
         Box::new(
             miette::MietteHandlerOpts::new()

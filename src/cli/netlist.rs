@@ -1,6 +1,6 @@
 //! `ampreport netlist JOB --mod N [--after] [--setting S] [-o FILE]`: a
-//! mod's network as a plain SPICE netlist, on standard output or written
-//! atomically to a file.
+//! mod's network as a plain SPICE netlist, on standard output (also `-o -`)
+//! or written atomically to a file that passes `typeset::check_output`.
 
 use std::io::Write;
 
@@ -9,6 +9,7 @@ use super::exit::Exit;
 use super::load;
 use crate::calc::network::{State, resolve_state, state};
 use crate::report::netlist::{NetlistHeading, spice};
+use crate::typeset::Input;
 
 pub fn run(args: &NetlistArgs) -> Exit {
     let loaded = match load::job(&args.job) {
@@ -96,7 +97,26 @@ pub fn run(args: &NetlistArgs) -> Exit {
             print!("{text}");
             Exit::Success
         }
+        Some(path) if crate::input_file::is_dash(path) => {
+            print!("{text}");
+            Exit::Success
+        }
         Some(path) => {
+            // Never over the job, a ratings or shop file, a link or a device.
+            let mut inputs = vec![Input::new(&args.job.job, "the job file")];
+            inputs.extend(
+                args.job
+                    .ratings
+                    .iter()
+                    .map(|r| Input::new(r, "a ratings file")),
+            );
+            if let Some(shop) = &loaded.shop {
+                inputs.push(Input::new(shop.path(), "the shop profile"));
+            }
+            if let Err(e) = crate::typeset::check_output(path, &inputs) {
+                eprintln!("{:?}", miette::Report::new(e));
+                return Exit::Usage;
+            }
             let dir = match path.parent() {
                 Some(p) if !p.as_os_str().is_empty() => p.to_path_buf(),
                 _ => std::path::PathBuf::from("."),

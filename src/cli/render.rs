@@ -11,24 +11,32 @@
 //! of the tool itself; 128 + N after signal N (SIGINT, SIGTERM, SIGHUP),
 //! with the temporary files removed and typst stopped.
 
+use std::io::IsTerminal;
 use std::path::{Path, PathBuf};
 
 use super::args::RenderArgs;
 use super::exit::Exit;
-use super::load;
+use super::{load, ui};
 use crate::calc;
 use crate::catalogue::Catalogue;
+use crate::input_file::is_dash;
 use crate::report::handover::{self, HandoverError, HandoverInput};
 use crate::typeset::{
-    self, CompileOptions, Input, TemplateSource, TypesetError, TypstProgram, interrupt,
+    self, CompileOptions, FontsUsed, Input, TemplateSource, TypesetError, TypstProgram, interrupt,
 };
 
 pub fn run(args: &RenderArgs) -> Exit {
     // From here a stop signal is noted rather than fatal: each step below
     // that makes temporary files or waits on typst ends cleanly on it.
     if let Err(e) = interrupt::install() {
-        eprintln!("warning: stop signals will end ampreport without clean-up: {e}");
+        ui::warn(format!(
+            "warning: stop signals will end ampreport without clean-up: {e}"
+        ));
     }
+    let output = match output_path(args) {
+        Ok(o) => o,
+        Err(e) => return e,
+    };
     // typst answers `--version` while the job is read; a problem with the
     // job is still reported first.
     let pending = typeset::start_locate(args.typst.as_deref());
@@ -38,8 +46,8 @@ pub fn run(args: &RenderArgs) -> Exit {
     };
     let job = &loaded.decoded.job;
     let findings = calc::derive(job, &loaded.ratings);
-    for warning in undrawable_text(&args.job.job.display().to_string(), &loaded.text) {
-        eprintln!("{warning}");
+    for warning in undrawable_text(&load::job_name(&args.job.job), &loaded.text) {
+        ui::warn(warning);
     }
 
     let templates = match template_source(args.templates.as_deref()) {
@@ -51,8 +59,12 @@ pub fn run(args: &RenderArgs) -> Exit {
         Ok(p) => p,
         Err(e) => return report_typeset_error(e, &templates, None),
     };
+    ui::read(
+        "typst",
+        format!("{} (version {})", program.path.display(), program.version),
+    );
     if let Some(warning) = program.version_warning() {
-        eprintln!("warning: {warning}");
+        ui::warn(format!("warning: {warning}"));
     }
 
     let input = HandoverInput {
@@ -73,10 +85,6 @@ pub fn run(args: &RenderArgs) -> Exit {
         Err(e) => return report_build_error(e),
     };
 
-    let output = args
-        .output
-        .clone()
-        .unwrap_or_else(|| default_output(&args.job.job));
     let inputs = inputs_read(args, &program, loaded.shop.as_ref());
     if let Err(e) = typeset::check_output(&output, &inputs) {
         eprintln!("{:?}", miette::Report::new(e));
@@ -103,11 +111,11 @@ pub fn run(args: &RenderArgs) -> Exit {
             );
             return Exit::Environment;
         }
-        eprintln!("wrote the generated source to {}", dir.display());
-        eprintln!(
+        ui::warn(format!("wrote the generated source to {}", dir.display()));
+        ui::warn(format!(
             "  the same PDF comes from: {}",
             handover::compile_command(dir, &document.options, &dir.join("handover.pdf"))
-        );
+        ));
     }
 
     let options = CompileOptions {
@@ -122,10 +130,23 @@ pub fn run(args: &RenderArgs) -> Exit {
         &output,
     ) {
         Ok(outcome) => {
-            if !outcome.warnings.is_empty() {
-                eprintln!("typst warned:\n{}", outcome.warnings);
+            match &outcome.fonts {
+                FontsUsed::Cache(dir) => ui::read("fonts", format!("{} (cache)", dir.display())),
+                FontsUsed::Sandbox => ui::read(
+                    "fonts",
+                    "embedded in the program, written for this run (no usable cache folder)",
+                ),
             }
-            println!("wrote {}", output.display());
+            if !outcome.warnings.is_empty() {
+                ui::warn(format!("typst warned:\n{}", outcome.warnings));
+            }
+            if is_dash(&output) {
+                if ui::verbose() {
+                    eprintln!("wrote the PDF to standard output");
+                }
+            } else {
+                ui::wrote(format!("wrote {}", output.display()));
+            }
             Exit::Success
         }
         Err(e) => report_typeset_error(e, &templates, Some(&output)),
@@ -139,7 +160,10 @@ fn inputs_read(
     program: &TypstProgram,
     shop: Option<&load::LoadedShop>,
 ) -> Vec<Input> {
-    let mut inputs = vec![Input::new(&args.job.job, "the job file")];
+    let mut inputs = Vec::new();
+    if !is_dash(&args.job.job) {
+        inputs.push(Input::new(&args.job.job, "the job file"));
+    }
     inputs.extend(
         args.job
             .ratings
@@ -249,9 +273,43 @@ fn default_output(job: &Path) -> PathBuf {
     job.with_extension("pdf")
 }
 
+/// Where the PDF goes: `-o FILE`, `-o -` (standard output, which must not
+/// be a terminal), else beside the job file; a job from standard input has
+/// no file to sit beside, so it needs `-o`.
+fn output_path(args: &RenderArgs) -> Result<PathBuf, Exit> {
+    match &args.output {
+        Some(o) if is_dash(o) && std::io::stdout().is_terminal() => {
+            eprintln!(
+                "error: `-o -` writes the PDF to standard output, which is a terminal here; \
+                 send it to a file or a program (`-o - > job.pdf`, `-o - | lpr`)"
+            );
+            Err(Exit::Usage)
+        }
+        Some(o) => Ok(o.clone()),
+        None if is_dash(&args.job.job) => {
+            eprintln!(
+                "error: a job read from standard input has no file to put the PDF beside; \
+                 name the output with `-o FILE`, or `-o -` for standard output"
+            );
+            Err(Exit::Usage)
+        }
+        None => Ok(default_output(&args.job.job)),
+    }
+}
+
 /// The built-in templates, overridden by `--templates DIR` when given.
 fn template_source(dir: Option<&Path>) -> Result<TemplateSource, Exit> {
     let source = TemplateSource::embedded(handover::EMBEDDED_TEMPLATES);
+    for (name, _) in handover::EMBEDDED_TEMPLATES {
+        let shop = dir.map(|d| d.join(name)).filter(|p| p.is_file());
+        match shop {
+            Some(path) => ui::read("template", format!("{} (shop folder)", path.display())),
+            None => ui::read(
+                "template",
+                format!("{name} (built in, embedded in the program)"),
+            ),
+        }
+    }
     match dir {
         None => Ok(source),
         Some(dir) if dir.is_dir() => Ok(source.with_override_dir(dir)),

@@ -30,9 +30,10 @@ impl Found {
 }
 
 /// The user's configuration folder for ampreport
-/// (`$XDG_CONFIG_HOME/ampreport`, else `~/.config/ampreport` on Linux).
+/// (`$XDG_CONFIG_HOME/ampreport`, else `~/.config/ampreport` on Linux; see
+/// [`crate::folders`]).
 pub fn user_config_dir() -> Option<PathBuf> {
-    directories::ProjectDirs::from("", "", "ampreport").map(|d| d.config_dir().to_path_buf())
+    crate::folders::config_dir()
 }
 
 /// Finds the shop profile for the job at `job`: beside it or above it,

@@ -131,7 +131,9 @@ pub struct CompileOutcome {
     pub fonts: FontsUsed,
 }
 
-/// Compiles `main` (a path inside `sandbox`) into a PDF at `output`.
+/// Compiles `main` (a path inside `sandbox`) into a PDF at `output`, or on
+/// standard output when `output` is `-` (written in one piece once every
+/// check below has passed).
 ///
 /// The sandbox is written to a fresh temporary folder that becomes typst's
 /// root. The bundled fonts come from the font cache ([`FontPlace`]), or are
@@ -293,8 +295,16 @@ pub fn compile(
 /// Writes `bytes` to a locked temporary file beside `output`, flushes it to
 /// disk and renames it over `output`, unless a stop signal came first. A new
 /// file gets the usual permissions less the umask; a replaced one keeps its
-/// permissions.
+/// permissions. `-` writes them to standard output instead.
 fn place(bytes: &[u8], output: &Path) -> Result<(), TypesetError> {
+    if crate::input_file::is_dash(output) {
+        stop_if_interrupted()?;
+        let mut stdout = std::io::stdout().lock();
+        return stdout
+            .write_all(bytes)
+            .and_then(|()| stdout.flush())
+            .map_err(|e| TypesetError::io("write the PDF to", "standard output", e));
+    }
     let out_dir = parent_folder(output);
     sweep(out_dir, |name| {
         name.starts_with('.') && name.ends_with(PARTIAL_SUFFIX)

@@ -7,8 +7,10 @@ use std::path::PathBuf;
 
 use super::version::{MIN_TYPST, TypstVersion};
 
-/// The install command named in every "typst missing or too old" message.
-pub const INSTALL_HINT: &str = "cargo install --locked typst-cli";
+/// The install command named in every "typst missing or too old" message:
+/// the version the templates are tested with ([`MIN_TYPST`]), the one
+/// `scripts/need-typst.sh` installs (a test holds the three in step).
+pub const INSTALL_HINT: &str = "cargo install --locked typst-cli --version 0.15.1";
 
 /// Why typesetting failed.
 #[derive(Debug, thiserror::Error, miette::Diagnostic)]
@@ -223,6 +225,19 @@ impl TypesetError {
 mod tests {
     use super::*;
     use miette::Diagnostic;
+
+    #[test]
+    fn the_install_hint_pins_the_tested_version_the_install_script_installs() {
+        assert!(
+            INSTALL_HINT.ends_with(&format!("--version {MIN_TYPST}")),
+            "{INSTALL_HINT}"
+        );
+        let script = include_str!("../../scripts/need-typst.sh");
+        assert!(
+            script.contains(&format!("want=\"{MIN_TYPST}\"")),
+            "scripts/need-typst.sh installs another version than {MIN_TYPST}"
+        );
+    }
 
     #[test]
     fn environment_errors_are_marked() {

@@ -5,10 +5,10 @@
 //! another folder, and it appears in one rename, so a run never sees it
 //! half-written, even with another run filling it at the same moment.
 //!
-//! Where: `$XDG_CACHE_HOME/ampreport/` when that is set to an absolute path,
-//! else `~/.cache/ampreport/` (`%LOCALAPPDATA%\ampreport\` on Windows). When
-//! the folder cannot be used, the caller writes the fonts into its sandbox
-//! as before.
+//! Where: the platform's cache folder ([`crate::folders::cache_dir`]):
+//! `$XDG_CACHE_HOME/ampreport/` when that is set to an absolute path, else
+//! `~/.cache/ampreport/` on Linux. When the folder cannot be used, the
+//! caller writes the fonts into its sandbox as before.
 
 use std::io::{self, Write};
 use std::path::{Path, PathBuf};
@@ -25,40 +25,10 @@ pub fn font_cache_folder_name() -> String {
     format!("fonts-{}", &FONTS_DIGEST[..16])
 }
 
-/// The per-user cache root, `…/ampreport`, or `None` when the environment
-/// names none.
+/// The per-user cache root, `…/ampreport` ([`crate::folders::cache_dir`]),
+/// or `None` when the environment names no home folder.
 pub fn user_cache_root() -> Option<PathBuf> {
-    cache_root_from(
-        std::env::var_os("XDG_CACHE_HOME").as_deref(),
-        std::env::var_os(if cfg!(windows) {
-            "LOCALAPPDATA"
-        } else {
-            "HOME"
-        })
-        .as_deref(),
-    )
-}
-
-/// [`user_cache_root`] with the environment passed in: `xdg` is
-/// `$XDG_CACHE_HOME`, `home` is `$HOME` (or `%LOCALAPPDATA%` on Windows).
-/// Relative values are ignored, as the XDG base-directory rules say.
-fn cache_root_from(
-    xdg: Option<&std::ffi::OsStr>,
-    home: Option<&std::ffi::OsStr>,
-) -> Option<PathBuf> {
-    let absolute = |v: &std::ffi::OsStr| {
-        let p = Path::new(v);
-        (p.is_absolute()).then(|| p.to_path_buf())
-    };
-    if let Some(xdg) = xdg.and_then(absolute) {
-        return Some(xdg.join("ampreport"));
-    }
-    let home = home.and_then(absolute)?;
-    Some(if cfg!(windows) {
-        home.join("ampreport")
-    } else {
-        home.join(".cache").join("ampreport")
-    })
+    crate::folders::cache_dir()
 }
 
 /// Every file of the font folder: the fonts, then their licences.
@@ -165,7 +135,6 @@ fn digest_of<'a>(files: impl IntoIterator<Item = (&'a str, &'a [u8])>) -> String
 #[cfg(test)]
 mod tests {
     use super::*;
-    use std::ffi::OsStr;
 
     #[test]
     fn the_build_time_digest_is_that_of_the_embedded_files() {
@@ -177,24 +146,6 @@ mod tests {
         assert_ne!(digest_of(changed), FONTS_DIGEST);
         assert!(font_cache_folder_name().starts_with("fonts-"));
         assert_eq!(font_cache_folder_name().len(), "fonts-".len() + 16);
-    }
-
-    #[test]
-    fn the_cache_root_follows_xdg_then_home() {
-        let root = cache_root_from(Some(OsStr::new("/x/cache")), Some(OsStr::new("/home/u")));
-        assert_eq!(root, Some(PathBuf::from("/x/cache/ampreport")));
-        // A relative XDG_CACHE_HOME is ignored (XDG base-directory rules).
-        let root = cache_root_from(Some(OsStr::new("rel")), Some(OsStr::new("/home/u")));
-        if cfg!(windows) {
-            assert_eq!(root, Some(PathBuf::from("/home/u/ampreport")));
-        } else {
-            assert_eq!(root, Some(PathBuf::from("/home/u/.cache/ampreport")));
-        }
-        assert_eq!(cache_root_from(None, None), None);
-        assert_eq!(
-            cache_root_from(Some(OsStr::new("")), Some(OsStr::new(""))),
-            None
-        );
     }
 
     #[test]

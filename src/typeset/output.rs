@@ -7,6 +7,9 @@
 //!
 //! The rules, in order:
 //!
+//! * `-` is standard output: no file is written or replaced, so it passes
+//!   (the PDF checks still run before a byte is written, see
+//!   [`super::compile`]); a file of that name is written as `./-`;
 //! * a path that ends in a folder (`out/`, `.`, `..`) is refused;
 //! * a symbolic link is refused, wherever it points: renaming the new PDF
 //!   into place would replace the link itself, and following it would write
@@ -45,7 +48,7 @@ pub enum OutputRefused {
     #[error("the output {} names a folder, not a file", path.display())]
     #[diagnostic(
         code(ampreport::output::folder),
-        help("name the PDF file, for example `-o {}`", path.join("report.pdf").display())
+        help("name the file, for example `-o {}`", path.join("report.pdf").display())
     )]
     Folder { path: PathBuf },
 
@@ -59,7 +62,7 @@ pub enum OutputRefused {
     #[error("the output {} exists and is {kind}, not a regular file", path.display())]
     #[diagnostic(
         code(ampreport::output::not_a_file),
-        help("ampreport writes the PDF only over a regular file; name another path with `-o`")
+        help("ampreport writes only over a regular file; name another path with `-o`")
     )]
     NotAFile { path: PathBuf, kind: &'static str },
 
@@ -70,7 +73,7 @@ pub enum OutputRefused {
     )]
     NoFolder { path: PathBuf },
 
-    #[error("the output {} is {what} ({}); writing the PDF there would destroy it", path.display(), input.display())]
+    #[error("the output {} is {what} ({}); writing there would destroy it", path.display(), input.display())]
     #[diagnostic(code(ampreport::output::is_input), help("name another path with `-o`"))]
     IsInput {
         path: PathBuf,
@@ -81,7 +84,9 @@ pub enum OutputRefused {
     #[error("the output {} is inside {what} ({})", path.display(), input.display())]
     #[diagnostic(
         code(ampreport::output::inside_input),
-        help("ampreport reads every file in that folder; write the PDF somewhere else with `-o`")
+        help(
+            "ampreport reads every file in that folder; write the output somewhere else with `-o`"
+        )
     )]
     InsideInput {
         path: PathBuf,
@@ -101,6 +106,9 @@ pub enum OutputRefused {
 /// Checks that a file may be written at `output` by a run that reads
 /// `inputs`. See the module documentation for the rules.
 pub fn check_output(output: &Path, inputs: &[Input]) -> Result<(), OutputRefused> {
+    if crate::input_file::is_dash(output) {
+        return Ok(());
+    }
     if names_a_folder(output) {
         return Err(OutputRefused::Folder {
             path: output.to_path_buf(),
@@ -227,7 +235,9 @@ pub fn check_emit_folder(
         .iter()
         .map(|i| (i.path.clone(), i.what.clone()))
         .collect();
-    touched.push((output.to_path_buf(), "the PDF output".to_owned()));
+    if !crate::input_file::is_dash(output) {
+        touched.push((output.to_path_buf(), "the PDF output".to_owned()));
+    }
     for (path, what) in touched {
         let Some(other) = resolved(&path) else {
             continue;
@@ -383,6 +393,20 @@ mod tests {
             check_output(&dir.path().join("missing/x.pdf"), &inputs),
             Err(OutputRefused::NoFolder { .. })
         ));
+    }
+
+    #[test]
+    fn a_dash_is_standard_output_and_dot_slash_dash_a_file() {
+        let dir = tempfile::tempdir().unwrap();
+        let (_, inputs) = job_in(dir.path());
+        check_output(Path::new("-"), &inputs).unwrap();
+        // Standard output is no file in the source folder.
+        check_emit_folder(&dir.path().join("src"), &inputs, Path::new("-"), false).unwrap();
+        // `./-` is a file like any other: refused when it is an input.
+        std::fs::write(dir.path().join("-"), "job").unwrap();
+        let dash_file = vec![Input::new(dir.path().join("-"), "the job file")];
+        let err = check_output(&dir.path().join("./-"), &dash_file).unwrap_err();
+        assert!(matches!(err, OutputRefused::IsInput { .. }), "{err:?}");
     }
 
     #[test]
