@@ -32,12 +32,19 @@ fn stderr(o: &Output) -> String {
     String::from_utf8_lossy(&o.stderr).into_owned()
 }
 
-/// A folder with the demo job, the demo shop profile (with `language`
-/// appended) and its logo.
+/// A folder with the demo job and its photos, the demo shop profile (with
+/// `language` appended) and its logo.
 fn shop_folder(language: &str) -> tempfile::TempDir {
     let dir = tempfile::tempdir().unwrap();
     for f in ["combo-6v6-fixed.kdl", "larkmoor-logo.svg"] {
         std::fs::copy(repo().join("jobs").join(f), dir.path().join(f)).unwrap();
+    }
+    // The demo job's photos.
+    let photos = dir.path().join("photos");
+    std::fs::create_dir(&photos).unwrap();
+    for entry in std::fs::read_dir(repo().join("jobs/photos")).unwrap() {
+        let from = entry.unwrap().path();
+        std::fs::copy(&from, photos.join(from.file_name().unwrap())).unwrap();
     }
     let profile = std::fs::read_to_string(repo().join("jobs/shop.kdl")).unwrap();
     std::fs::write(
