@@ -379,3 +379,106 @@ period-years = { $count ->
         [one] { $count } Jahr
        *[other] { $count } Jahre
     }
+
+## Das Terminal (`ampreport check`). Leerzeichen am Anfang oder Ende einer
+## Meldung entfallen: das Programm setzt sie.
+
+term-state-ok = ok
+term-state-caution = VORSICHT
+term-state-over = ZU HOCH
+term-state-cold = ZU KALT
+term-state-accepted = akzeptiert
+term-state-unchecked = NICHT GEPRÜFT
+term-job = Auftrag { $id }: { $make } { $model }
+term-serial = Seriennummer { $serial }
+term-mains = Netz: Nennspannung { $nominal }, obere Netzgrenze { $high_line } (+{ $tolerance } %)
+term-chart-drawn = Spannungstabelle für { $design }
+term-safety = Sicherheitsprüfungen
+term-col-test = Prüfung
+term-col-reading = Messwert
+term-col-limit = Grenzwert
+term-col-status = Status
+term-pass = bestanden
+term-fail = NICHT BESTANDEN
+term-mod-figures = Berechnete Werte der Änderungen
+term-final-set-labelled = „{ $label }“, den letzten Messwerten
+term-final-set = den letzten Messwerten
+term-no-open = Keine offenen Befunde in { $set }: jeder Wert liegt innerhalb seiner Grenzen oder ist akzeptiert.
+term-open = Offene Befunde in { $set } ({ $count })
+term-accepted-heading = Vom Techniker akzeptiert ({ $count })
+term-word-ok = ok
+term-word-caution = Vorsicht
+term-word-over = zu hoch
+term-word-cold = zu kalt
+term-whole-job = Für den ganzen Auftrag
+term-history = Befund in „{ $label }“
+term-final-mark = letzte: bei Übergabe
+term-set-mains = Netz { $mains }, Faktor { $factor } auf Nennspannung
+term-fitted = Für diese Messungen bestückt: { $position } { $type } (Bestückung: { $line_up })
+term-bias-control-labelled = Bias-Regler { $label }: { $position }
+term-bias-control = Bias-Regler: { $position }
+term-valves = Röhren
+term-col-pos = Pos.
+term-col-type = Typ
+term-col-bias = Vorspannung
+term-col-va = Va
+term-col-vk = Vk
+term-col-current = Strom
+term-col-pa = Pa
+term-col-pct-max = % max
+term-col-high-line = obere Grenze
+term-window-sense = { $low }–{ $high } mV über dem Messwiderstand
+term-window-primary = { $low }–{ $high } V über der halben Primärwicklung
+term-window-grid = Gitter etwa { $volts } für die Mitte
+term-now = jetzt { $volts }
+term-estimate = (Schätzung)
+term-window = { $position } Zielbereich { $low }–{ $high } %
+term-inside = innerhalb
+term-outside = außerhalb
+term-ik-note = Ik: als Anodenstrom gilt der Kathodenstrom einschließlich Schirmgitterstrom (vorsichtig gerechnet).
+term-warm-up = Aufwärmen (Ruhestrom nach dem Einschalten)
+term-col-valve = Röhre
+term-col-after = nach
+term-col-pa-pct-max = Pa % max
+term-nodes = Versorgungspunkte
+term-col-node = Punkt
+term-col-measured = gemessen
+term-col-corrected = korrigiert
+term-col-expected = erwartet
+term-col-deviation = Abweichung
+term-stressed = Belastete Bauteile
+term-col-part = Teil
+term-col-where = wo
+term-col-stress = Belastung
+term-col-rating = Belastbarkeit
+term-col-pct-margin = % / Reserve
+term-peak = { $volts } Spitze
+term-left = { $pct } % übrig
+term-not-checked = nicht geprüft ({ $reason })
+term-rectifier = Gleichrichter { $position } ({ $type }): mindestens { $load } mA von { $rating } mA ({ $pct } %)
+term-heater = Heizung: { $measured } gegen { $nominal } ({ $deviation } %)
+term-suggestion = Kathodenwiderstand { $reference } ({ $valves }, jetzt { $present }): für { $target } % von Pa max ({ $pa } W) ergibt das Drei-Halbe-Gesetz { $exact }
+term-out-of-reach = keinen Widerstand (nicht erreichbar)
+term-suggestion-option = { $series } { $value }: Vk { $vk }, { $current } je Röhre, Pa { $pa } W ({ $pct } %); der Widerstand setzt { $power } W um: Belastbarkeit { $least } W oder mehr (ein Bauteil mit { $rating })
+term-suggestion-estimate = Eine Schätzung aus einer einzigen Messreihe ({ $calibrated }, μg1g2 { $mu }); den Ruhestrom nach der Änderung erneut messen.
+term-bench = Messungen am Prüfplatz
+term-rms = { $volts } eff.
+term-peak-to-peak = { $volts } Spitze-Spitze = { $rms } eff.
+term-output-power = Ausgangsleistung
+term-output-power-line = { $reading } an { $load } bei { $frequency }, { $condition } = { $power } W
+term-of-rated = { $pct } der Nennleistung
+term-hum-noise = Brumm und Rauschen
+term-hum-noise-line = { $mv } mV ({ $dbv } dBV), Eingang { $input }
+term-volume = Lautstärke { $volume }
+term-below-full = { $db } dB unter voller Leistung
+term-response = Frequenzgang
+term-against = bezogen auf { $reference }
+term-in = { $volts } am Eingang
+term-col-frequency = Frequenz
+term-col-output = Ausgang
+term-col-db = dB
+term-below-not-reached = unter { $frequency } (nicht erreicht)
+term-above-not-reached = über { $frequency } (nicht erreicht)
+term-minus-3db = −3 dB: { $low } und { $high }
+term-gain = Verstärkung
+term-gain-line = { $input } am Eingang für { $output } am Ausgang bei { $frequency } = ×{ $times } ({ $db } dB)

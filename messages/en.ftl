@@ -378,3 +378,106 @@ period-years = { $count ->
         [one] { $count } year
        *[other] { $count } years
     }
+
+## The terminal (`ampreport check`, src/report/terminal.rs). Spaces at the
+## start or end of a message are dropped: the program adds them.
+
+term-state-ok = ok
+term-state-caution = CAUTION
+term-state-over = OVER
+term-state-cold = COLD
+term-state-accepted = accepted
+term-state-unchecked = UNCHECKED
+term-job = Job { $id }: { $make } { $model }
+term-serial = serial { $serial }
+term-mains = Mains: nominal { $nominal }, high line { $high_line } (+{ $tolerance } %)
+term-chart-drawn = chart drawn at { $design }
+term-safety = Safety tests
+term-col-test = test
+term-col-reading = reading
+term-col-limit = limit
+term-col-status = status
+term-pass = pass
+term-fail = FAIL
+term-mod-figures = Modification figures
+term-final-set-labelled = “{ $label }”, the final set
+term-final-set = the final set
+term-no-open = No open findings in { $set }: every figure is inside its limits or accepted.
+term-open = Open findings in { $set } ({ $count })
+term-accepted-heading = Accepted by the technician ({ $count })
+term-word-ok = ok
+term-word-caution = caution
+term-word-over = over
+term-word-cold = cold
+term-whole-job = For the whole job
+term-history = What was found in “{ $label }”
+term-final-mark = final: as handed over
+term-set-mains = mains { $mains }, factor { $factor } to nominal
+term-fitted = Fitted for these readings: { $position } { $type } (line-up: { $line_up })
+term-bias-control-labelled = Bias control { $label }: { $position }
+term-bias-control = Bias control: { $position }
+term-valves = Valves
+term-col-pos = pos
+term-col-type = type
+term-col-bias = bias
+term-col-va = Va
+term-col-vk = Vk
+term-col-current = current
+term-col-pa = Pa
+term-col-pct-max = % max
+term-col-high-line = high line
+term-window-sense = { $low }–{ $high } mV across the sense resistor
+term-window-primary = { $low }–{ $high } V across the half primary
+term-window-grid = grid about { $volts } for the middle
+term-now = now { $volts }
+term-estimate = (estimate)
+term-window = { $position } target window { $low }–{ $high } %
+term-inside = inside
+term-outside = outside
+term-ik-note = Ik: plate current taken as the cathode current, including screen current (conservative).
+term-warm-up = Warm-up (idle current after power-on)
+term-col-valve = valve
+term-col-after = after
+term-col-pa-pct-max = Pa % max
+term-nodes = Supply nodes
+term-col-node = node
+term-col-measured = measured
+term-col-corrected = corrected
+term-col-expected = expected
+term-col-deviation = deviation
+term-stressed = Stressed parts
+term-col-part = part
+term-col-where = where
+term-col-stress = stress
+term-col-rating = rating
+term-col-pct-margin = % / margin
+term-peak = { $volts } peak
+term-left = { $pct } % left
+term-not-checked = not checked ({ $reason })
+term-rectifier = Rectifier { $position } ({ $type }): at least { $load } mA of { $rating } mA ({ $pct } %)
+term-heater = Heater: { $measured } against { $nominal } ({ $deviation } %)
+term-suggestion = Cathode resistor { $reference } ({ $valves }, now { $present }): for { $target } % of Pa max ({ $pa } W) the three-halves law gives { $exact }
+term-out-of-reach = no resistor (out of reach)
+term-suggestion-option = { $series } { $value }: Vk { $vk }, { $current } each, Pa { $pa } W ({ $pct } %); the resistor dissipates { $power } W: rate it { $least } W or more (a { $rating } part)
+term-suggestion-estimate = An estimate from one set of readings ({ $calibrated }, μg1g2 { $mu }); measure the bias again after the change.
+term-bench = Bench tests
+term-rms = { $volts } rms
+term-peak-to-peak = { $volts } p-p = { $rms } rms
+term-output-power = Output power
+term-output-power-line = { $reading } into { $load } at { $frequency }, { $condition } = { $power } W
+term-of-rated = { $pct } of rated
+term-hum-noise = Hum and noise
+term-hum-noise-line = { $mv } mV ({ $dbv } dBV), input { $input }
+term-volume = volume { $volume }
+term-below-full = { $db } dB below full output
+term-response = Response
+term-against = against { $reference }
+term-in = { $volts } in
+term-col-frequency = frequency
+term-col-output = output
+term-col-db = dB
+term-below-not-reached = below { $frequency } (not reached)
+term-above-not-reached = above { $frequency } (not reached)
+term-minus-3db = −3 dB: { $low } and { $high }
+term-gain = Gain
+term-gain-line = { $input } in for { $output } out at { $frequency } = ×{ $times } ({ $db } dB)

@@ -2,7 +2,7 @@ use super::*;
 use crate::job::JobDiagnostics;
 
 /// The first part of every catalogue key: what the message belongs to.
-const NAMESPACES: &[&str] = &["doc", "status", "period", "notice", "date"];
+const NAMESPACES: &[&str] = &["doc", "status", "period", "notice", "date", "term"];
 
 /// Every `t("key")`/`tm("key")` of a template and every
 /// `.text("key")`/`.format("key"` of the program's source.
