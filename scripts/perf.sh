@@ -10,7 +10,8 @@
 #   bash scripts/perf.sh noop [JOBS]        a second pass over unchanged jobs
 #   bash scripts/perf.sh watch [SAVES]      save-to-PDF time of `watch` against typst's compile time
 #
-# It builds the release binary first. The "old" side of `template` and
+# It builds the release binary first (AMPREPORT_BIN=PATH uses that binary
+# instead: enough for `template` and `size`, which time typst alone). The "old" side of `template` and
 # `size` is the template kept in benches/fixtures/template-before (the one
 # that measured every table before laying it out) or, when OLD_BIN names an
 # ampreport built before the change, that binary's own emitted source.
@@ -23,9 +24,14 @@ root=$(pwd)
 what="${1:-}"
 shift || true
 
-cargo build --release --quiet --example phases
-cargo build --release --quiet
-bin="$root/target/release/ampreport"
+if [ -n "${AMPREPORT_BIN:-}" ]; then
+    # A binary already built (for the sections that time typst alone).
+    bin="$AMPREPORT_BIN"
+else
+    cargo build --release --quiet --example phases
+    cargo build --release --quiet
+    bin="$root/target/release/ampreport"
+fi
 typst="${AMPREPORT_TYPST:-typst}"
 old_template="$root/benches/fixtures/template-before"
 work=$(mktemp -d "${TMPDIR:-/tmp}/ampreport-perf.XXXXXX")

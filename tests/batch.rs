@@ -176,6 +176,29 @@ fn a_change_to_the_shop_logo_typesets_again() {
 }
 
 #[test]
+fn a_change_to_the_shops_translation_file_typesets_again() {
+    let c = Counting::new();
+    // The shop's own English words (the stand-in typst's PDF carries the
+    // English notice the document is checked for).
+    let english = std::fs::read_to_string(support::repo().join("messages/en.ftl")).unwrap();
+    std::fs::write(c.scene.dir.join("own-words.ftl"), &english).unwrap();
+    std::fs::write(
+        c.scene.dir.join("shop.kdl"),
+        "shop-format 1\nshop \"Test Bench\"\nlanguage \"en\" file=\"own-words.ftl\"\n",
+    )
+    .unwrap();
+    assert!(c.typeset(&[]));
+    assert!(!c.typeset(&[]));
+    std::fs::write(
+        c.scene.dir.join("own-words.ftl"),
+        format!("{english}\n# one more line\n"),
+    )
+    .unwrap();
+    assert!(c.typeset(&[]), "the translation file changed");
+    assert!(!c.typeset(&[]));
+}
+
+#[test]
 fn a_change_to_a_photo_typesets_again() {
     let c = Counting::new();
     let photo = c.scene.dir.join("chassis.png");

@@ -11,6 +11,7 @@ use super::job_files::{self, JobFile};
 use super::load;
 use super::said::Said;
 use crate::calc::{self, StrictScope};
+use crate::catalogue::Catalogue;
 use crate::ratings::RatingsTable;
 use crate::report::terminal::{self, TerminalStyle};
 
@@ -23,9 +24,7 @@ pub fn run(args: &CheckArgs) -> Exit {
         Ok(r) => r,
         Err(e) => return e,
     };
-    let style = TerminalStyle {
-        colour: colour_wanted(),
-    };
+    let colour = colour_wanted();
     let several = jobs.len() > 1 || args.job.jobs.iter().any(|p| p.is_dir());
     let mut unreadable = false;
     let mut strict = false;
@@ -41,7 +40,7 @@ pub fn run(args: &CheckArgs) -> Exit {
             job,
             args.job.shop_choice(),
             &ratings,
-            &style,
+            colour,
             args.strict,
             &mut said,
         ) {
@@ -65,14 +64,22 @@ fn check_one(
     job: &JobFile,
     choice: load::ShopChoice<'_>,
     ratings: &RatingsTable,
-    style: &TerminalStyle,
+    colour: bool,
     strict: Option<StrictSets>,
     said: &mut Said,
 ) -> Result<bool, Exit> {
     let loaded = load::job(&job.path, choice, ratings, said)?;
     let findings = calc::derive(&loaded.decoded.job, ratings);
+    // Each job in the language of its own shop profile.
+    let style = TerminalStyle {
+        colour,
+        catalogue: loaded
+            .shop
+            .as_ref()
+            .map_or_else(|| Catalogue::english().clone(), |s| s.catalogue.clone()),
+    };
     said.out
-        .push_str(&terminal::render(&loaded.decoded.job, &findings, style));
+        .push_str(&terminal::render(&loaded.decoded.job, &findings, &style));
     let scope = match strict {
         None => return Ok(false),
         Some(StrictSets::Final) => StrictScope::Final,

@@ -11,6 +11,7 @@ use super::args::{JobArgs, OneJobArgs};
 use super::exit::Exit;
 use super::said::Said;
 use super::ui;
+use crate::catalogue::Catalogue;
 use crate::input_file::{STDIN_NAME, is_dash};
 use crate::job::{self, Decoded};
 use crate::ratings::RatingsTable;
@@ -82,6 +83,11 @@ pub struct LoadedShop {
     /// content key).
     pub text: String,
     pub logo: Option<Logo>,
+    /// The fixed words in the profile's language (English when it names
+    /// none).
+    pub catalogue: Catalogue,
+    /// The translation file read, if the profile names one.
+    pub translation: Option<PathBuf>,
 }
 
 impl LoadedShop {
@@ -220,11 +226,42 @@ pub fn shop_profile(
     if let Some(logo) = &logo {
         said.read("shop logo", logo.source.display());
     }
+    let folder = path.parent().unwrap_or(Path::new(".")).to_path_buf();
+    let (catalogue, translation) = match &decoded.profile.language {
+        Some(language) => {
+            let file = language.file.as_ref().map(|f| folder.join(f.value.trim()));
+            read.extend(file.iter().cloned());
+            match shop::read_translation(&path, language) {
+                Ok(c) => {
+                    if let Some(f) = &file {
+                        said.read("translation", f.display());
+                    }
+                    (c, file)
+                }
+                Err(shop::TranslationError::Profile(problem)) => {
+                    let diagnostics = job::JobDiagnostics {
+                        source: decoded.diagnostics.source.clone(),
+                        problems: vec![*problem],
+                        not_shown: Default::default(),
+                    };
+                    refused(&name, &text, diagnostics, said);
+                    return Err(Exit::InvalidInput);
+                }
+                Err(shop::TranslationError::File(diagnostics)) => {
+                    said.error(format!("{:?}", miette::Report::new(*diagnostics)));
+                    return Err(Exit::InvalidInput);
+                }
+            }
+        }
+        None => (Catalogue::english().clone(), None),
+    };
     Ok(Some(LoadedShop {
         profile: decoded.profile,
         found,
         text,
         logo,
+        catalogue,
+        translation,
     }))
 }
 

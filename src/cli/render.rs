@@ -28,6 +28,7 @@ use super::job_files::JobFile;
 use super::said::Said;
 use super::{load, ui};
 use crate::calc;
+use crate::catalogue::Catalogue;
 use crate::input_file::is_dash;
 use crate::ratings::RatingsTable;
 use crate::report::handover::{self, HandoverError, HandoverInput};
@@ -403,6 +404,10 @@ fn render_job(
         shop: loaded.shop.as_ref().map(|s| &s.profile),
         logo: loaded.shop.as_ref().and_then(|s| s.logo.as_ref()),
         include_charges: !args.no_charges,
+        catalogue: loaded
+            .shop
+            .as_ref()
+            .map_or(Catalogue::english(), |s| &s.catalogue),
         revision: findings.job.git.clone(),
         photos: &photos,
     };
@@ -515,6 +520,10 @@ fn job_key(
         }
         None => key.none("shop profile"),
     }
+    match loaded.shop.as_ref().and_then(|s| s.translation.as_ref()) {
+        Some(file) => key.file("translation", &std::fs::read(file).ok()?),
+        None => key.none("translation"),
+    }
     key.file("photos", &(photos.len() as u64).to_le_bytes());
     for photo in photos {
         key.file("photo", &std::fs::read(photo).ok()?);
@@ -552,6 +561,9 @@ fn inputs_read(
         inputs.push(Input::new(shop.path(), "the shop profile"));
         if let Some(logo) = &shop.logo {
             inputs.push(Input::new(&logo.source, "the shop's logo"));
+        }
+        if let Some(translation) = &shop.translation {
+            inputs.push(Input::new(translation, "the shop's translation file"));
         }
     }
     inputs.push(Input::new(&program.path, "the typst program"));
