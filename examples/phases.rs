@@ -38,7 +38,10 @@ fn main() {
     let _ = ampreport::report::terminal::render(
         &decoded.job,
         &findings,
-        &ampreport::report::terminal::TerminalStyle { colour: false },
+        &ampreport::report::terminal::TerminalStyle {
+            colour: false,
+            catalogue: ampreport::catalogue::Catalogue::english().clone(),
+        },
     );
     let t_term = t.elapsed();
     println!(
