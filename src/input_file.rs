@@ -6,7 +6,7 @@
 //! 790 MB to refuse).
 
 use std::io::Read;
-use std::path::Path;
+use std::path::{Path, PathBuf};
 
 /// The largest input text file read: 16 MiB, thousands of times a real
 /// job file, far below what would strain memory.
@@ -101,6 +101,108 @@ pub fn read_from(
             byte: bytes.get(good).copied().unwrap_or(0),
         }
     })
+}
+
+/// Why a file named relative to a folder (a photo beside a job, a logo
+/// beside a shop profile) could not be read.
+#[derive(Debug, thiserror::Error)]
+pub enum InFolderError {
+    /// Empty, absolute, or with a `..` part.
+    #[error("`{written}` is not a path inside the folder")]
+    NotInside { written: String },
+    /// A symbolic link on the way leads out of the folder.
+    #[error("`{written}` leads outside the folder (to {})", real.display())]
+    LeadsOutside { written: String, real: PathBuf },
+    #[error("{} is not a regular file", path.display())]
+    NotAFile { path: PathBuf },
+    #[error("{} is {size} bytes; the limit is {limit}", path.display())]
+    TooLarge {
+        path: PathBuf,
+        size: u64,
+        limit: u64,
+    },
+    #[error("cannot read {}: {source}", path.display())]
+    Io {
+        path: PathBuf,
+        #[source]
+        source: std::io::Error,
+    },
+}
+
+/// A file read from inside a folder.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub struct InFolder {
+    /// The path as joined to the folder (links not followed).
+    pub place: PathBuf,
+    /// Where it really is (links followed), inside the folder.
+    pub real: PathBuf,
+    pub bytes: Vec<u8>,
+}
+
+/// Reads `written`, a path relative to `folder`, of at most `limit` bytes.
+/// The path must be relative with no `..` part; links are followed but
+/// must end inside the folder (a link out is refused, wherever it is on
+/// the way); the end must be a regular file, checked on the opened file
+/// itself (a FIFO or a device is never read from); the size is checked
+/// before reading and again on the bytes read.
+pub fn read_in_folder(folder: &Path, written: &str, limit: u64) -> Result<InFolder, InFolderError> {
+    use std::path::Component;
+    let path = Path::new(written);
+    if written.trim().is_empty()
+        || !path
+            .components()
+            .all(|c| matches!(c, Component::Normal(_) | Component::CurDir))
+    {
+        return Err(InFolderError::NotInside {
+            written: written.to_string(),
+        });
+    }
+    let folder = if folder.as_os_str().is_empty() {
+        Path::new(".")
+    } else {
+        folder
+    };
+    let place = folder.join(path);
+    let io = |path: &Path| {
+        let path = path.to_path_buf();
+        move |source| InFolderError::Io { path, source }
+    };
+    let real_folder = folder.canonicalize().map_err(io(folder))?;
+    let real = place.canonicalize().map_err(io(&place))?;
+    if !real.starts_with(&real_folder) {
+        return Err(InFolderError::LeadsOutside {
+            written: written.to_string(),
+            real,
+        });
+    }
+    let mut options = std::fs::OpenOptions::new();
+    options.read(true);
+    #[cfg(unix)]
+    {
+        use std::os::unix::fs::OpenOptionsExt;
+        options.custom_flags(libc::O_NOFOLLOW | libc::O_NONBLOCK);
+    }
+    let file = options.open(&real).map_err(io(&place))?;
+    let meta = file.metadata().map_err(io(&place))?;
+    if !meta.is_file() {
+        return Err(InFolderError::NotAFile { path: place });
+    }
+    let too_large = |size| InFolderError::TooLarge {
+        path: place.clone(),
+        size,
+        limit,
+    };
+    if meta.len() > limit {
+        return Err(too_large(meta.len()));
+    }
+    let mut bytes = Vec::new();
+    file.take(limit + 1)
+        .read_to_end(&mut bytes)
+        .map_err(io(&place))?;
+    if bytes.len() as u64 > limit {
+        return Err(too_large(bytes.len() as u64));
+    }
+    Ok(InFolder { place, real, bytes })
 }
 
 #[cfg(test)]

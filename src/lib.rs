@@ -8,9 +8,11 @@
 pub mod calc;
 pub mod cli;
 pub mod folders;
+pub mod git;
 pub mod input_file;
 pub mod job;
 pub mod kdl_fast;
+pub mod photo;
 pub mod problem_cap;
 pub mod ratings;
 pub mod report;

@@ -178,7 +178,7 @@ fn every_demo_job_passes_check() {
 }
 
 #[test]
-fn calc_json_holds_schema_2_and_plate_dissipation_for_every_output_valve() {
+fn calc_json_holds_schema_3_and_plate_dissipation_for_every_output_valve() {
     for job in demo_jobs() {
         let o = ampreport()
             .args(["calc", "--json"])
@@ -194,13 +194,13 @@ fn calc_json_holds_schema_2_and_plate_dissipation_for_every_output_valve() {
         );
         let text = stdout(&o);
         assert!(
-            text.trim_start().starts_with("{\n  \"schema\": 2"),
-            "{} does not start with \"schema\": 2",
+            text.trim_start().starts_with("{\n  \"schema\": 3"),
+            "{} does not start with \"schema\": 3",
             job.display()
         );
         let v: Value = serde_json::from_str(&text)
             .unwrap_or_else(|e| panic!("{}: not JSON: {e}", job.display()));
-        assert_eq!(v["schema"], 2);
+        assert_eq!(v["schema"], 3);
 
         // The output valves the job file lists, read from the file itself.
         let source = std::fs::read_to_string(&job).expect("read demo");
@@ -756,7 +756,7 @@ fn init_writes_a_skeleton_that_passes_check() {
     let o = run_in(dir.path(), &["calc", "--json", "new-job.kdl"]);
     assert_eq!(code(&o), 0);
     let v: Value = serde_json::from_str(&stdout(&o)).expect("json");
-    assert_eq!(v["schema"], 2);
+    assert_eq!(v["schema"], 3);
     // No temporary files are left beside it.
     let names: Vec<_> = std::fs::read_dir(dir.path())
         .expect("dir")
@@ -1126,4 +1126,95 @@ fn colour_on_a_terminal_unless_no_color_is_set() {
     let text = String::from_utf8_lossy(&o.stdout);
     assert!(text.contains("broken.kdl:"), "{text}");
     no_ansi("diagnostics on a terminal with NO_COLOR", &text);
+}
+
+// ----- archive-friendly JSON and photos --------------------------------------
+
+#[test]
+fn calc_json_is_the_same_bytes_from_the_job_folder_its_parent_and_root() {
+    let root = Path::new(env!("CARGO_MANIFEST_DIR"));
+    for job in demo_jobs() {
+        let name = job.file_name().unwrap().to_str().unwrap().to_string();
+        let from_folder = run_in(&demo_dir(), &["calc", "--json", &name]);
+        let from_parent = run_in(root, &["calc", "--json", &format!("jobs/{name}")]);
+        let from_root = run_in(Path::new("/"), &["calc", "--json", job.to_str().unwrap()]);
+        for o in [&from_folder, &from_parent, &from_root] {
+            assert_eq!(code(o), 0, "{name}: {}", stderr(o));
+        }
+        assert_eq!(
+            from_folder.stdout, from_parent.stdout,
+            "{name}: folder vs parent"
+        );
+        assert_eq!(from_folder.stdout, from_root.stdout, "{name}: folder vs /");
+        let v: Value = serde_json::from_slice(&from_root.stdout).unwrap();
+        assert_eq!(v["job"]["source"], name.as_str());
+        // The unit, the parts and the mods are carried, as the file has them.
+        let text = std::fs::read_to_string(&job).unwrap();
+        let make = text
+            .split("make=\"")
+            .nth(1)
+            .unwrap()
+            .split('"')
+            .next()
+            .unwrap();
+        assert_eq!(v["unit"]["make"], make);
+        // The children of a top-level block, read from the file's text.
+        let children = |block: &str, child: &str| {
+            text.lines()
+                .skip_while(|l| *l != format!("{block} {{"))
+                .take_while(|l| *l != "}")
+                .filter(|l| l.starts_with(&format!("    {child} ")))
+                .count()
+        };
+        let parts = children("parts", "part");
+        assert_eq!(v["parts"].as_array().unwrap().len(), parts, "{name}");
+        let mods = children("mods", "mod");
+        assert_eq!(v["mods"].as_array().unwrap().len(), mods, "{name}");
+        // The file's SHA-256 is the one of its bytes.
+        use sha2::{Digest, Sha256};
+        let digest: String = Sha256::digest(text.as_bytes())
+            .iter()
+            .map(|b| format!("{b:02x}"))
+            .collect();
+        assert_eq!(v["job"]["file_sha256"], digest.as_str());
+    }
+}
+
+#[test]
+fn a_bad_photo_is_reported_at_its_line_before_typst_is_needed() {
+    let text = small_job(GOOD_CIRCUIT, GOOD_READINGS)
+        + "photos {\n    photo \"photos/ok.png\"\n    photo \"../outside.png\" caption=\"x\"\n    photo \"/etc/hostname\"\n}\n";
+    let dir = job_file("job.kdl", &text);
+    std::fs::create_dir(dir.path().join("photos")).unwrap();
+    std::fs::write(
+        dir.path().join("photos/ok.png"),
+        "plain text, not a picture",
+    )
+    .unwrap();
+    // The typst named does not exist: the photos are checked first.
+    let o = run_in(
+        dir.path(),
+        &[
+            "render",
+            "job.kdl",
+            "--no-shop",
+            "--typst",
+            "/nonexistent/typst",
+        ],
+    );
+    assert_eq!(code(&o), 1, "{}", stderr(&o));
+    let err = stderr(&o);
+    assert_eq!(
+        reported_positions(&err, "job.kdl"),
+        [
+            pos_of("job.kdl", &text, "\"photos/ok.png\"", 0),
+            pos_of("job.kdl", &text, "\"../outside.png\"", 0),
+            pos_of("job.kdl", &text, "\"/etc/hostname\"", 0),
+        ],
+        "{err}"
+    );
+    assert!(err.contains("not a PNG or JPEG picture"), "{err}");
+    assert!(err.contains("not a path inside the job's folder"), "{err}");
+    assert!(err.contains("is an absolute path"), "{err}");
+    assert!(!dir.path().join("job.pdf").exists());
 }

@@ -345,15 +345,32 @@ fn each_demo_job_renders_with_its_figures_and_cautions() {
                 "{name}: footer of page {n} missing"
             );
         }
-        let digest: String = Sha256::digest(job_text.as_bytes())
-            .iter()
-            .take(6)
-            .map(|b| format!("{b:02x}"))
-            .collect();
+        // The footer names the job file's commit (with a mark when the
+        // file differs from it) when git knows the file, else the first
+        // 12 hex digits of its SHA-256: the JSON says which.
+        let mark = match json["job"]["git"].as_object() {
+            Some(git) => format!(
+                "commit{}{}",
+                git["commit"].as_str().expect("commit"),
+                if git["uncommitted_changes"] == true {
+                    "+edits"
+                } else {
+                    ""
+                }
+            ),
+            None => {
+                let digest: String = Sha256::digest(job_text.as_bytes())
+                    .iter()
+                    .take(6)
+                    .map(|b| format!("{b:02x}"))
+                    .collect();
+                format!("SHA-256{digest}")
+            }
+        };
         assert_eq!(
-            flat.matches(&digest).count(),
+            flat.matches(&mark).count(),
             pages,
-            "{name}: digest {digest} not on every page"
+            "{name}: {mark} not on every page"
         );
         let versions = normalise(&format!(
             "ampreport {} · typst {typst}",
@@ -1222,6 +1239,7 @@ fn a_failing_typst_leaves_the_folder_as_it_was() {
     let dir = tempfile::tempdir().unwrap();
     let job = dir.path().join("job.kdl");
     std::fs::copy(demo("combo-6v6-fixed"), &job).unwrap();
+    copy_photos(dir.path());
     let pdf = dir.path().join("job.pdf");
     std::fs::write(&pdf, b"%PDF-1.7 the good old document").unwrap();
     let before = listing(dir.path());
@@ -1269,6 +1287,16 @@ fn a_failing_typst_leaves_the_folder_as_it_was() {
 }
 
 /// The folder a failed compile left for inspection, as named on stderr.
+/// Copies the demo jobs' photos into `dir`, for a demo job copied there.
+fn copy_photos(dir: &Path) {
+    let to = dir.join("photos");
+    std::fs::create_dir_all(&to).unwrap();
+    for entry in std::fs::read_dir(repo().join("jobs").join("photos")).unwrap() {
+        let entry = entry.unwrap();
+        std::fs::copy(entry.path(), to.join(entry.file_name())).unwrap();
+    }
+}
+
 fn kept_folder(stderr: &str) -> Option<PathBuf> {
     let rest = stderr.split("kept for inspection in ").nth(1)?;
     let path: String = rest
@@ -1408,4 +1436,91 @@ fn a_shop_template_folder_overrides_the_built_in_one() {
     if let Some(kept) = kept_folder(&stderr) {
         std::fs::remove_dir_all(kept).unwrap();
     }
+}
+
+/// Runs git in `dir` with a fixed author and no signing, and returns its
+/// standard output; panics when git fails.
+fn git(dir: &Path, args: &[&str]) -> String {
+    let out = Command::new("git")
+        .current_dir(dir)
+        .args([
+            "-c",
+            "user.name=Bench",
+            "-c",
+            "user.email=bench@example.invalid",
+            "-c",
+            "commit.gpgsign=false",
+            "-c",
+            "init.defaultBranch=main",
+        ])
+        .args(args)
+        .env_remove("GIT_DIR")
+        .env_remove("GIT_WORK_TREE")
+        .env_remove("GIT_INDEX_FILE")
+        .output()
+        .expect("git runs");
+    assert!(
+        out.status.success(),
+        "git {args:?} failed: {}",
+        String::from_utf8_lossy(&out.stderr)
+    );
+    String::from_utf8_lossy(&out.stdout).into_owned()
+}
+
+#[test]
+fn a_job_in_git_shows_its_commit_and_a_mark_once_edited() {
+    let Some(_) = typst_version() else { return };
+    let dir = tempfile::tempdir().unwrap();
+    let job = dir.path().join("job.kdl");
+    std::fs::copy(demo("combo-el84-cathode"), &job).unwrap();
+    let pdf = dir.path().join("job.pdf");
+
+    // Outside a repository: the job file's SHA-256, as before.
+    assert_ok(&render(&job, &pdf, &["--no-shop"]), "render outside git");
+    let text = std::fs::read_to_string(&job).unwrap();
+    let digest: String = Sha256::digest(text.as_bytes())
+        .iter()
+        .take(6)
+        .map(|b| format!("{b:02x}"))
+        .collect();
+    let flat = normalise(&pdftotext(&pdf));
+    assert!(flat.contains(&format!("SHA-256{digest}")), "{flat}");
+    assert!(calc_json(&job)["job"]["git"].is_null());
+    std::fs::remove_file(&pdf).unwrap();
+
+    // Committed: the commit's short id, no mark.
+    git(dir.path(), &["init", "-q"]);
+    git(dir.path(), &["add", "job.kdl"]);
+    git(dir.path(), &["commit", "-q", "-m", "Take in the job"]);
+    let head = git(dir.path(), &["rev-parse", "HEAD"]);
+    let short = &head.trim()[..12];
+    assert_ok(&render(&job, &pdf, &["--no-shop"]), "render committed");
+    let flat = normalise(&pdftotext(&pdf));
+    let pages = page_count(&pdf);
+    assert_eq!(
+        flat.matches(&format!("commit{short}")).count(),
+        pages,
+        "{flat}"
+    );
+    assert!(
+        !flat.contains("+edits") && !flat.contains(&digest),
+        "{flat}"
+    );
+    let json = calc_json(&job);
+    assert_eq!(json["job"]["git"]["commit"], short);
+    assert_eq!(json["job"]["git"]["uncommitted_changes"], false);
+    std::fs::remove_file(&pdf).unwrap();
+
+    // Edited and not committed: the same commit with the mark.
+    std::fs::write(&job, format!("{text}\n// re-checked the bias\n")).unwrap();
+    assert_ok(&render(&job, &pdf, &["--no-shop"]), "render edited");
+    let flat = normalise(&pdftotext(&pdf));
+    assert_eq!(
+        flat.matches(&format!("commit{short}+edits")).count(),
+        pages,
+        "{flat}"
+    );
+    let json = calc_json(&job);
+    assert_eq!(json["job"]["git"]["commit"], short);
+    assert_eq!(json["job"]["git"]["uncommitted_changes"], true);
 }

@@ -7,7 +7,7 @@ use serde::{Serialize, Serializer};
 use super::status::{Status, Verdict};
 
 /// JSON schema version of [`Findings`].
-pub const SCHEMA: u32 = 2;
+pub const SCHEMA: u32 = 3;
 
 /// Rounds a figure for output so float noise does not reach the JSON.
 pub(crate) fn round6<S: Serializer>(v: &f64, s: S) -> Result<S::Ok, S::Error> {
@@ -33,6 +33,8 @@ pub fn tidy(v: f64) -> f64 {
 pub struct Findings {
     pub schema: u32,
     pub job: JobSummary,
+    /// The unit as the job describes it.
+    pub unit: UnitFindings,
     pub mains: MainsFigures,
     pub settings: SettingsUsed,
     /// The label of the set the unit is handed over in (the one marked
@@ -41,6 +43,8 @@ pub struct Findings {
     pub final_set: Option<String>,
     pub sets: Vec<SetFindings>,
     pub safety: Vec<SafetyFinding>,
+    /// The parts replaced, as the job lists them.
+    pub parts: Vec<PartFindings>,
     /// Each modification with the circuit figures worked out for it.
     pub mods: Vec<ModFindings>,
     /// Worst status per check family that still counts (not ok and not
@@ -78,8 +82,40 @@ pub struct TypeChangeFindings {
 #[derive(Debug, Clone, Serialize)]
 pub struct JobSummary {
     pub id: String,
+    /// The job file's name, without the folders it was given with.
     pub source: String,
     pub format_version: u32,
+    /// The SHA-256 of the job file's bytes, in hex; set by the command
+    /// that read the file (none when the findings were made from text).
+    pub file_sha256: Option<String>,
+    /// Where the job file stands in git, when it is in a repository.
+    pub git: Option<crate::git::Revision>,
+}
+
+/// The unit, as the job describes it.
+#[derive(Debug, Clone, Serialize)]
+pub struct UnitFindings {
+    pub make: String,
+    pub model: String,
+    pub serial: Option<String>,
+    pub year: Option<i32>,
+    pub description: Option<String>,
+    pub condition: Option<String>,
+    #[serde(serialize_with = "round6_opt")]
+    pub rated_power_w: Option<f64>,
+}
+
+/// A part replaced, as the job lists it.
+#[derive(Debug, Clone, Serialize)]
+pub struct PartFindings {
+    pub reference: Option<String>,
+    pub what: Option<String>,
+    pub was: Option<String>,
+    pub now: Option<String>,
+    pub reason: Option<String>,
+    pub original_kept: Option<bool>,
+    /// The reason is the shop's alone (never in a listing).
+    pub private: bool,
 }
 
 #[derive(Debug, Clone, Serialize)]
@@ -98,17 +134,29 @@ pub struct MainsFigures {
 
 #[derive(Debug, Clone, Serialize)]
 pub struct SettingsUsed {
+    #[serde(serialize_with = "round6")]
     pub fixed_bias_low_pct: f64,
+    #[serde(serialize_with = "round6")]
     pub fixed_bias_high_pct: f64,
+    #[serde(serialize_with = "round6")]
     pub cathode_bias_caution_pct: f64,
+    #[serde(serialize_with = "round6")]
     pub resistor_derating_pct: f64,
+    #[serde(serialize_with = "round6")]
     pub capacitor_margin_pct: f64,
+    #[serde(serialize_with = "round6")]
     pub heater_tolerance_pct: f64,
+    #[serde(serialize_with = "round6")]
     pub node_tolerance_pct: f64,
+    #[serde(serialize_with = "round6")]
     pub silicon_drop_volts: f64,
+    #[serde(serialize_with = "round6")]
     pub voltage_over_pct: f64,
+    #[serde(serialize_with = "round6")]
     pub output_power_caution_pct: f64,
+    #[serde(serialize_with = "round6")]
     pub hum_noise_caution_db: f64,
+    #[serde(serialize_with = "round6")]
     pub cathode_bias_target_pct: f64,
 }
 
@@ -514,7 +562,9 @@ pub struct Check {
 /// technician reads it.
 #[derive(Debug, Clone, Serialize)]
 pub struct TargetWindow {
+    #[serde(serialize_with = "round6")]
     pub low_pct: f64,
+    #[serde(serialize_with = "round6")]
     pub high_pct: f64,
     #[serde(serialize_with = "round6")]
     pub plate_current_low_ma: f64,
@@ -828,12 +878,18 @@ pub struct RatingUsed {
     pub positions: Vec<String>,
     /// The grid-to-screen amplification factor the bias estimates use,
     /// when the row gives one.
+    #[serde(serialize_with = "round6_opt")]
     pub mu_g1g2: Option<f64>,
 }
 
 #[derive(Debug, Clone, Serialize)]
 pub struct ModFindings {
     pub what: String,
+    pub why: Option<String>,
+    pub reversible: Option<bool>,
+    pub original_kept: Option<bool>,
+    /// The reason is the shop's alone (never in a listing).
+    pub private: bool,
     pub figures: Vec<ModFigureFindings>,
     /// The mod's network worked out, if it has one.
     pub network: Option<super::network::NetworkFindings>,

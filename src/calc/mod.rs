@@ -197,8 +197,19 @@ pub fn derive(job: &Job, ratings: &RatingsTable) -> Findings {
         schema: SCHEMA,
         job: JobSummary {
             id: job.info.id.clone(),
-            source: job.source_name.clone(),
+            source: source_file_name(&job.source_name),
             format_version: job.format_version,
+            file_sha256: None,
+            git: None,
+        },
+        unit: UnitFindings {
+            make: job.unit.make.clone(),
+            model: job.unit.model.clone(),
+            serial: job.unit.serial.clone(),
+            year: job.unit.year,
+            description: job.unit.description.clone(),
+            condition: job.unit.condition.clone(),
+            rated_power_w: job.unit.rated_power.as_ref().map(|p| p.value.0),
         },
         mains: MainsFigures {
             nominal_volts: job.mains.nominal.value.0,
@@ -224,12 +235,35 @@ pub fn derive(job: &Job, ratings: &RatingsTable) -> Findings {
         final_set,
         sets,
         safety,
+        parts: job
+            .parts
+            .iter()
+            .map(|p| PartFindings {
+                reference: p.reference.clone(),
+                what: p.what.clone(),
+                was: p.was.clone(),
+                now: p.now.clone(),
+                reason: p.reason.clone(),
+                original_kept: p.original_kept,
+                private: p.private,
+            })
+            .collect(),
         mods,
         at_a_glance,
         warnings,
         ratings_used: ratings_used(job, ratings),
         line_up: line_up(job, ratings),
     }
+}
+
+/// The file name of a job or shop file as it was given, without its
+/// folders: what the findings record, so they do not depend on the folder
+/// the command ran in.
+pub fn source_file_name(given: &str) -> String {
+    std::path::Path::new(given)
+        .file_name()
+        .map(|n| n.to_string_lossy().into_owned())
+        .unwrap_or_else(|| given.to_string())
 }
 
 /// The idle current of each warm-up reading, worked out as the set's own
@@ -779,7 +813,7 @@ fn ratings_used(job: &Job, ratings: &RatingsTable) -> Vec<RatingUsed> {
             source: r.source.clone(),
             origin: match &r.origin {
                 crate::ratings::RatingOrigin::Builtin => "built in".to_string(),
-                crate::ratings::RatingOrigin::Shop(p) => p.display().to_string(),
+                crate::ratings::RatingOrigin::Shop(p) => source_file_name(&p.display().to_string()),
             },
             positions: vec![position.clone()],
             mu_g1g2: r.mu_g1g2,
@@ -930,6 +964,10 @@ fn mod_findings(
     });
     ModFindings {
         what: m.what.clone(),
+        why: m.why.clone(),
+        reversible: m.reversible,
+        original_kept: m.original_kept,
+        private: m.private,
         figures,
         network,
     }

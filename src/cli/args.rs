@@ -86,8 +86,10 @@ pub enum Command {
     ///
     /// Writes ampreport.1 and ampreport-COMMAND.1 for each command. To
     /// install them for one user: `ampreport man ~/.local/share/man/man1`
-    /// (then `man ampreport-render`); for all users, into
-    /// /usr/local/share/man/man1 as root.
+    /// (then `man ampreport-render`; man looks there when ~/.local/bin is
+    /// on PATH, else add `export MANPATH="$HOME/.local/share/man:"` to the
+    /// shell's profile); for all users, into /usr/local/share/man/man1 as
+    /// root.
     Man(ManArgs),
 }
 

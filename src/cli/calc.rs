@@ -11,7 +11,8 @@ pub fn run(args: &CalcArgs) -> Exit {
         Ok(l) => l,
         Err(e) => return e,
     };
-    let findings = calc::derive(&loaded.decoded.job, &loaded.ratings);
+    let mut findings = calc::derive(&loaded.decoded.job, &loaded.ratings);
+    load::stamp(&args.job.job, &loaded, &mut findings);
     print!("{}", json::render(&findings));
     Exit::Success
 }

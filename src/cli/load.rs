@@ -122,6 +122,35 @@ pub fn read_job(path: &Path) -> Result<String, Exit> {
     Ok(text)
 }
 
+/// The job's photos, checked and prepared for a document; every problem
+/// is printed at its `photo` line.
+pub fn photos(job_file: &Path, loaded: &Loaded) -> Result<Vec<crate::photo::PreparedPhoto>, Exit> {
+    crate::photo::prepare(&loaded.decoded.job, job_file).map_err(|problems| {
+        let diagnostics = job::JobDiagnostics {
+            source: loaded.decoded.diagnostics.source.clone(),
+            problems,
+            not_shown: Default::default(),
+        };
+        eprintln!("{:?}", miette::Report::new(diagnostics));
+        Exit::InvalidInput
+    })
+}
+
+/// Records where the job file came from in its findings: the SHA-256 of
+/// its bytes and, when it is in a git repository, the commit that last
+/// changed it and whether the bytes read differ from it.
+pub fn stamp(job: &Path, loaded: &Loaded, findings: &mut crate::calc::Findings) {
+    use sha2::{Digest, Sha256};
+    let digest = Sha256::digest(loaded.text.as_bytes());
+    findings.job.file_sha256 = Some(digest.iter().map(|b| format!("{b:02x}")).collect());
+    // A job from standard input has no file git could know.
+    findings.job.git = if is_dash(job) {
+        None
+    } else {
+        crate::git::revision(job, loaded.text.as_bytes())
+    };
+}
+
 /// The shop profile for the job, found as [`shop::discover`] says, decoded,
 /// with its logo read and checked; `None` with `--no-shop` or when there is
 /// none.

@@ -44,7 +44,12 @@ pub fn run(args: &RenderArgs) -> Exit {
         Err(e) => return e,
     };
     let job = &loaded.decoded.job;
-    let findings = calc::derive(job, &loaded.ratings);
+    let photos = match load::photos(&args.job.job, &loaded) {
+        Ok(p) => p,
+        Err(e) => return e,
+    };
+    let mut findings = calc::derive(job, &loaded.ratings);
+    load::stamp(&args.job.job, &loaded, &mut findings);
     for warning in undrawable_text(&load::job_name(&args.job.job), &loaded.text) {
         ui::warn(warning);
     }
@@ -74,13 +79,20 @@ pub fn run(args: &RenderArgs) -> Exit {
         shop: loaded.shop.as_ref().map(|s| &s.profile),
         logo: loaded.shop.as_ref().and_then(|s| s.logo.as_ref()),
         include_charges: !args.no_charges,
+        revision: findings.job.git.clone(),
+        photos: &photos,
     };
     let document = match handover::build(&input, &templates) {
         Ok(d) => d,
         Err(e) => return report_build_error(e),
     };
 
-    let inputs = inputs_read(args, &program, loaded.shop.as_ref());
+    let mut inputs = inputs_read(args, &program, loaded.shop.as_ref());
+    inputs.extend(
+        photos
+            .iter()
+            .map(|p| Input::new(&p.source, "a photo of the job")),
+    );
     if let Err(e) = typeset::check_output(&output, &inputs) {
         eprintln!("{:?}", miette::Report::new(e));
         return Exit::Usage;

@@ -33,6 +33,7 @@ pub const TOP_LEVEL: &[&str] = &[
     "mods",
     "safety",
     "notes",
+    "photos",
     "settings",
     "charges",
     "accepted",
@@ -227,8 +228,8 @@ pub(crate) fn decode_document(
         }
     };
     let complaint = first("complaint").and_then(|n| text_node(n, r));
-    let findings = first("findings").and_then(|n| text_node(n, r));
-    let work = first("work").and_then(|n| text_node(n, r));
+    let findings = first("findings").and_then(|n| remark(n, r));
+    let work = first("work").and_then(|n| remark(n, r));
     let valves = first("valves")
         .map(|n| decode_valves(n, r))
         .unwrap_or_default();
@@ -275,6 +276,9 @@ pub(crate) fn decode_document(
     let notes = first("notes")
         .map(|n| decode_notes(n, r))
         .unwrap_or_default();
+    let photos = first("photos")
+        .map(|n| decode_photos(n, r))
+        .unwrap_or_default();
     let (settings, settings_given) = match first("settings") {
         Some(n) => decode_settings(n, &defaults.settings, "the shop profile", r),
         None => (defaults.settings.clone(), Vec::new()),
@@ -303,6 +307,7 @@ pub(crate) fn decode_document(
         mods,
         safety,
         notes,
+        photos,
         settings,
         settings_given,
         charges,
@@ -1132,7 +1137,11 @@ fn decode_parts(node: &KdlNode, r: &mut Reader) -> Vec<PartChange> {
     r.check_entries(node, &[], 0);
     let mut out = Vec::new();
     for child in r.children(node.children(), &["part"], "`parts`") {
-        r.check_entries(child, &["what", "was", "now", "reason", "original-kept"], 1);
+        r.check_entries(
+            child,
+            &["what", "was", "now", "reason", "original-kept", "private"],
+            1,
+        );
         r.no_children(child);
         let reference = Reader::arg(child, 0).and_then(|e| r.name(e, "the reference"));
         let what = r.opt_prop_string(child, "what");
@@ -1151,6 +1160,7 @@ fn decode_parts(node: &KdlNode, r: &mut Reader) -> Vec<PartChange> {
         let now = r.opt_prop_string(child, "now");
         let reason = r.opt_prop_string(child, "reason");
         let original_kept = r.opt_prop_bool(child, "original-kept");
+        let private = r.opt_prop_bool(child, "private").unwrap_or(false);
         if reference.is_some() || what.is_some() {
             out.push(PartChange {
                 reference: reference.map(|r| r.value),
@@ -1159,6 +1169,7 @@ fn decode_parts(node: &KdlNode, r: &mut Reader) -> Vec<PartChange> {
                 now,
                 reason,
                 original_kept,
+                private,
             });
         }
     }
@@ -1169,7 +1180,7 @@ fn decode_mods(node: &KdlNode, r: &mut Reader) -> Vec<Modification> {
     r.check_entries(node, &[], 0);
     let mut out = Vec::new();
     for child in r.children(node.children(), &["mod"], "`mods`") {
-        r.check_entries(child, &["why", "reversible", "original-kept"], 1);
+        r.check_entries(child, &["why", "reversible", "original-kept", "private"], 1);
         let what = r.req_arg_string(
             child,
             "a description",
@@ -1178,6 +1189,7 @@ fn decode_mods(node: &KdlNode, r: &mut Reader) -> Vec<Modification> {
         let why = r.opt_prop_string(child, "why");
         let reversible = r.opt_prop_bool(child, "reversible");
         let original_kept = r.opt_prop_bool(child, "original-kept");
+        let private = r.opt_prop_bool(child, "private").unwrap_or(false);
         let (figures, network) = decode_mod_figures(child, r);
         if let Some(what) = what {
             out.push(Modification {
@@ -1185,6 +1197,7 @@ fn decode_mods(node: &KdlNode, r: &mut Reader) -> Vec<Modification> {
                 why,
                 reversible,
                 original_kept,
+                private,
                 figures,
                 network,
             });
@@ -1642,12 +1655,52 @@ fn decode_accepted(node: &KdlNode, info: &JobInfo, r: &mut Reader) -> Vec<Accept
     out
 }
 
-fn decode_notes(node: &KdlNode, r: &mut Reader) -> Vec<String> {
+fn decode_notes(node: &KdlNode, r: &mut Reader) -> Vec<Remark> {
     r.check_entries(node, &[], 0);
     let mut out = Vec::new();
     for child in r.children(node.children(), &["note"], "`notes`") {
-        if let Some(t) = text_node(child, r) {
+        if let Some(t) = remark(child, r) {
             out.push(t);
+        }
+    }
+    out
+}
+
+/// A text node that may be marked `private=#true`: `note "…" private=#true`.
+fn remark(node: &KdlNode, r: &mut Reader) -> Option<Remark> {
+    r.check_entries(node, &["private"], 1);
+    r.no_children(node);
+    let name = node.name().value();
+    let text = r.req_arg_string(node, &format!("`{name}`"), &format!("{name} \"…\""))?;
+    let private = r.opt_prop_bool(node, "private").unwrap_or(false);
+    Some(Remark {
+        text: text.value,
+        private,
+    })
+}
+
+/// The photos of a job: `photo "photos/chassis.jpg" caption="…" listing=#true`.
+/// Only what is written is checked here; the file itself is checked when a
+/// document is made.
+fn decode_photos(node: &KdlNode, r: &mut Reader) -> Vec<Photo> {
+    r.check_entries(node, &[], 0);
+    let mut out = Vec::new();
+    for child in r.children(node.children(), &["photo"], "`photos`") {
+        r.check_entries(child, &["caption", "listing"], 1);
+        r.no_children(child);
+        let path = r.req_arg_string(
+            child,
+            "the photo's path",
+            "photo \"photos/chassis-after.jpg\" caption=\"…\"",
+        );
+        let caption = r.opt_prop_string(child, "caption");
+        let listing = r.opt_prop_bool(child, "listing").unwrap_or(false);
+        if let Some(path) = path {
+            out.push(Photo {
+                path,
+                caption,
+                listing,
+            });
         }
     }
     out

@@ -40,15 +40,20 @@ pub struct Job {
     pub unit: Unit,
     pub mains: Mains,
     pub complaint: Option<String>,
-    pub findings: Option<String>,
-    pub work: Option<String>,
+    /// The technician's findings in words; `private` keeps them out of
+    /// the listing.
+    pub findings: Option<Remark>,
+    /// The work done in words; `private` keeps it out of the listing.
+    pub work: Option<Remark>,
     pub valves: Vec<ValvePosition>,
     pub circuit: Circuit,
     pub measurements: Vec<MeasurementSet>,
     pub parts: Vec<PartChange>,
     pub mods: Vec<Modification>,
     pub safety: Option<Safety>,
-    pub notes: Vec<String>,
+    pub notes: Vec<Remark>,
+    /// Photos of the unit, in file order.
+    pub photos: Vec<Photo>,
     /// The bands in force: the defaults, overridden by the shop profile's
     /// `settings`, overridden by the job's own.
     pub settings: Settings,
@@ -103,6 +108,27 @@ impl Job {
     pub fn node(&self, name: &str) -> Option<&NodeSpec> {
         self.circuit.nodes.iter().find(|n| n.name.value == name)
     }
+}
+
+/// A piece of the technician's own text. A `private` one is the shop's
+/// alone: the listing document never shows it (its context is built
+/// without it).
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Remark {
+    pub text: String,
+    pub private: bool,
+}
+
+/// A photo the job refers to, as written: the path is checked and the
+/// file read only when a document is made (`crate::photo`).
+#[derive(Debug, Clone, Serialize)]
+pub struct Photo {
+    /// The path as written, relative to the job file's folder.
+    pub path: Spanned<String>,
+    pub caption: Option<String>,
+    /// Whether the listing document shows it (the hand-over shows every
+    /// photo).
+    pub listing: bool,
 }
 
 #[derive(Debug, Clone, Serialize)]
@@ -644,6 +670,8 @@ pub struct PartChange {
     pub now: Option<String>,
     pub reason: Option<String>,
     pub original_kept: Option<bool>,
+    /// The reason is the shop's alone: the listing names the part without it.
+    pub private: bool,
 }
 
 #[derive(Debug, Clone, Serialize)]
@@ -652,6 +680,8 @@ pub struct Modification {
     pub why: Option<String>,
     pub reversible: Option<bool>,
     pub original_kept: Option<bool>,
+    /// The reason is the shop's alone: the listing names the mod without it.
+    pub private: bool,
     /// Circuit figures the technician wants worked out for this mod.
     pub figures: Vec<ModFigure>,
     /// The circuit network the mod changes, before and after.

@@ -6,6 +6,7 @@ pub mod handover;
 pub mod json;
 pub mod netlist;
 pub mod network_chart;
+pub mod photos;
 pub mod plots;
 pub mod response_chart;
 pub mod summary;

@@ -3,9 +3,9 @@
 //! the bytes travel: the document's sandbox gets a regular file of its own
 //! under a fixed name, never a link.
 
-use std::io::Read;
-use std::path::{Component, Path};
+use std::path::Path;
 
+use crate::input_file::{InFolderError, read_in_folder};
 use crate::job::{DecodeError, Spanned};
 
 /// The largest logo read, in bytes.
@@ -49,38 +49,18 @@ pub fn read_logo(profile: &Path, logo: &Spanned<String>) -> Result<Logo, Box<Dec
                 .in_file_kind("shop"),
         )
     };
-    let written = Path::new(logo.value.trim());
-    if !written
-        .components()
-        .all(|c| matches!(c, Component::Normal(_) | Component::CurDir))
-    {
-        return Err(fail(
+    let folder = profile.parent().unwrap_or(Path::new("."));
+    let too_large = "a logo for a page header needs far less: export it smaller";
+    let read = read_in_folder(folder, logo.value.trim(), LOGO_LIMIT).map_err(|e| match e {
+        InFolderError::NotInside { .. } => fail(
             format!(
                 "the logo `{}` is not inside the profile's folder",
                 logo.value
             ),
             "expected a file name in the profile's folder",
             "put the logo beside shop.kdl (or in a folder below it) and name it relative to it, for example logo \"logo.svg\"",
-        ));
-    }
-    let folder = profile.parent().unwrap_or(Path::new("."));
-    let folder = if folder.as_os_str().is_empty() {
-        Path::new(".")
-    } else {
-        folder
-    };
-    let place = folder.join(written);
-    let not_readable = |e: std::io::Error| {
-        fail(
-            format!("cannot read the logo {}: {e}", place.display()),
-            "this file",
-            "the logo must be a PNG or SVG file in the profile's folder",
-        )
-    };
-    let real_folder = folder.canonicalize().map_err(not_readable)?;
-    let real = place.canonicalize().map_err(not_readable)?;
-    if !real.starts_with(&real_folder) {
-        return Err(fail(
+        ),
+        InFolderError::LeadsOutside { real, .. } => fail(
             format!(
                 "the logo `{}` leads outside the profile's folder (to {})",
                 logo.value,
@@ -88,53 +68,38 @@ pub fn read_logo(profile: &Path, logo: &Spanned<String>) -> Result<Logo, Box<Dec
             ),
             "leads outside",
             "copy the logo into the profile's folder instead of linking to it",
-        ));
-    }
-    let meta = std::fs::metadata(&real).map_err(not_readable)?;
-    if !meta.is_file() {
-        return Err(fail(
-            format!("the logo {} is not a regular file", place.display()),
+        ),
+        InFolderError::NotAFile { path } => fail(
+            format!("the logo {} is not a regular file", path.display()),
             "not a file",
             "the logo must be a PNG or SVG file",
-        ));
-    }
-    if meta.len() > LOGO_LIMIT {
-        return Err(fail(
+        ),
+        InFolderError::TooLarge { path, size, limit } => fail(
             format!(
-                "the logo {} is {} bytes; the limit is {LOGO_LIMIT}",
-                place.display(),
-                meta.len()
+                "the logo {} is {size} bytes; the limit is {limit}",
+                path.display()
             ),
             "too large",
-            "a logo for a page header needs far less: export it smaller",
-        ));
-    }
-    let mut bytes = Vec::new();
-    std::fs::File::open(&real)
-        .and_then(|f| f.take(LOGO_LIMIT + 1).read_to_end(&mut bytes))
-        .map_err(not_readable)?;
-    if bytes.len() as u64 > LOGO_LIMIT {
-        return Err(fail(
-            format!(
-                "the logo {} grew past {LOGO_LIMIT} bytes while it was read",
-                place.display()
-            ),
-            "too large",
-            "a logo for a page header needs far less: export it smaller",
-        ));
-    }
-    check_content(&bytes)
+            too_large,
+        ),
+        InFolderError::Io { path, source } => fail(
+            format!("cannot read the logo {}: {source}", path.display()),
+            "this file",
+            "the logo must be a PNG or SVG file in the profile's folder",
+        ),
+    })?;
+    check_content(&read.bytes)
         .map_err(|why| {
             fail(
-                format!("the logo {} {why}", place.display()),
+                format!("the logo {} {why}", read.place.display()),
                 "this file",
                 "the logo must be a PNG picture or a self-contained SVG drawing",
             )
         })
         .map(|kind| Logo {
             kind,
-            bytes,
-            source: real,
+            bytes: read.bytes,
+            source: read.real,
         })
 }
 

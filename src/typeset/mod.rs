@@ -7,6 +7,7 @@
 //! means.
 
 mod child;
+pub(crate) use child::{Running, Stopped, describe_status};
 mod compile;
 mod error;
 mod escape;

@@ -27,6 +27,7 @@ use crate::shop::ShopProfile;
 use super::charges::{ChargesContext, charges_context};
 use super::shop_block::{AcceptanceBlock, ShopBlock, acceptance, paper};
 use crate::report::attention::{self, Attention};
+use crate::report::photos::PhotoRow;
 use crate::report::summary::Summary;
 
 mod network_view;
@@ -71,6 +72,8 @@ pub struct HandoverContext {
     pub parts: Vec<PartRow>,
     pub mods: Vec<ModRow>,
     pub notes: Vec<String>,
+    /// Every photo of the job, in file order.
+    pub photos: Vec<PhotoRow>,
     pub sets: Vec<SetContext>,
     pub plots: Plots,
     pub safety: SafetyContext,
@@ -596,6 +599,11 @@ pub struct Footer {
     pub typst_version: String,
     /// The first 12 hex digits of the job file's SHA-256.
     pub job_digest: String,
+    /// The commit that last changed the job file, when it is in git
+    /// (the footer then shows it in place of the digest).
+    pub commit: Option<String>,
+    /// The job file differs from that commit.
+    pub uncommitted_changes: bool,
 }
 
 /// Inputs of [`build_context`] that do not come from the job.
@@ -609,6 +617,10 @@ pub struct ContextInputs<'a> {
     pub tool_version: &'a str,
     pub typst_version: &'a str,
     pub job_digest: &'a str,
+    /// Where the job file stands in git, if it is in a repository.
+    pub revision: Option<&'a crate::git::Revision>,
+    /// Every photo of the job.
+    pub photos: Vec<PhotoRow>,
     pub has_dissipation_plot: bool,
     pub has_supply_plot: bool,
     /// The sets (by index) that have a warm-up chart.
@@ -639,7 +651,7 @@ fn fixed(v: f64, decimals: usize) -> String {
 }
 
 /// A whole-number percentage without the sign: "121".
-fn pct0(v: f64) -> String {
+pub(crate) fn pct0(v: f64) -> String {
     fixed(v, 0)
 }
 
@@ -655,11 +667,11 @@ fn signed_pct(v: f64) -> String {
     }
 }
 
-fn volts(v: f64) -> String {
+pub(crate) fn volts(v: f64) -> String {
     minus(format_engineering(v, Q::Voltage))
 }
 
-fn yes_no(b: Option<bool>) -> Option<String> {
+pub(crate) fn yes_no(b: Option<bool>) -> Option<String> {
     b.map(|b| {
         if b {
             "yes".to_string()
@@ -669,7 +681,7 @@ fn yes_no(b: Option<bool>) -> Option<String> {
     })
 }
 
-fn status(s: Status) -> String {
+pub(crate) fn status(s: Status) -> String {
     s.word().to_string()
 }
 
@@ -833,8 +845,8 @@ pub fn build_context(
         glance: glance(findings),
         attention: attention_context(&attention::attention(findings)),
         complaint: job.complaint.as_deref().map(reflow),
-        findings: job.findings.as_deref().map(reflow),
-        work: job.work.as_deref().map(reflow),
+        findings: job.findings.as_ref().map(|r| reflow(&r.text)),
+        work: job.work.as_ref().map(|r| reflow(&r.text)),
         valves: findings
             .line_up
             .iter()
@@ -887,7 +899,8 @@ pub fn build_context(
                     .map(|n| network_view(i, n)),
             })
             .collect(),
-        notes: job.notes.iter().map(|n| reflow(n)).collect(),
+        notes: job.notes.iter().map(|n| reflow(&n.text)).collect(),
+        photos: inputs.photos.clone(),
         sets,
         plots: plots(findings, inputs),
         safety: safety(job, findings),
@@ -905,6 +918,8 @@ pub fn build_context(
             tool_version: inputs.tool_version.to_string(),
             typst_version: inputs.typst_version.to_string(),
             job_digest: inputs.job_digest.to_string(),
+            commit: inputs.revision.map(|r| r.commit.clone()),
+            uncommitted_changes: inputs.revision.is_some_and(|r| r.uncommitted_changes),
         },
     }
 }
@@ -1494,7 +1509,7 @@ fn plots(findings: &Findings, inputs: &ContextInputs<'_>) -> Plots {
     }
 }
 
-fn safety(job: &Job, findings: &Findings) -> SafetyContext {
+pub(crate) fn safety(job: &Job, findings: &Findings) -> SafetyContext {
     SafetyContext {
         recorded: job.safety.is_some(),
         class: job.safety.as_ref().map(|s| match s.class {

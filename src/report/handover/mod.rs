@@ -30,6 +30,7 @@ pub use context::{
     BenchContext, GainRow, HumNoiseRow, NetworkRow, NetworkView, OscillatorRow, OscillatorView,
     OutputPowerRow, ResponsePointRow, ResponseRow, SuggestionOption, SuggestionRow,
 };
+// LISTING-REEXPORT
 pub use shop_block::{AcceptanceBlock, ShopBlock, WarrantyInfo, acceptance, paper};
 
 use super::network_chart;
@@ -135,6 +136,10 @@ pub struct HandoverInput<'a> {
     pub logo: Option<&'a Logo>,
     /// Whether the job's charges are shown (`--no-charges` leaves them out).
     pub include_charges: bool,
+    /// Where the job file stands in git, for the footer.
+    pub revision: Option<crate::git::Revision>,
+    /// The job's photos, checked and prepared ([`crate::photo::prepare`]).
+    pub photos: &'a [crate::photo::PreparedPhoto],
 }
 
 impl<'a> HandoverInput<'a> {
@@ -153,6 +158,8 @@ impl<'a> HandoverInput<'a> {
             shop: None,
             logo: None,
             include_charges: true,
+            revision: None,
+            photos: &[],
         }
     }
 }
@@ -241,6 +248,9 @@ pub fn build(
     if let (Some(logo), Some(_)) = (input.logo, input.shop) {
         sandbox.insert(logo.sandbox_path(), logo.bytes.clone())?;
     }
+    for photo in input.photos {
+        sandbox.insert(photo.sandbox_path.clone(), photo.bytes.clone())?;
+    }
     let inputs = ContextInputs {
         shop,
         profile: input.shop,
@@ -248,6 +258,8 @@ pub fn build(
         tool_version: env!("CARGO_PKG_VERSION"),
         typst_version: &input.typst_version,
         job_digest: &digest,
+        revision: input.revision.as_ref(),
+        photos: crate::report::photos::photo_rows(input.photos),
         has_dissipation_plot: dissipation.is_some(),
         has_supply_plot: supply.is_some(),
         warm_up_plots,
@@ -393,15 +405,7 @@ mod tests {
     }
 
     fn document(job: &Job, findings: &Findings, text: &str) -> Document {
-        let input = HandoverInput {
-            job,
-            findings,
-            job_text: text,
-            typst_version: "0.15.1".into(),
-            shop: None,
-            logo: None,
-            include_charges: true,
-        };
+        let input = HandoverInput::new(job, findings, text, "0.15.1");
         build(&input, &TemplateSource::embedded(EMBEDDED_TEMPLATES)).unwrap()
     }
 
@@ -589,13 +593,8 @@ mod tests {
 
         // --no-charges: nothing of them in the context or the source.
         let input = HandoverInput {
-            job: &job,
-            findings: &findings,
-            job_text: &text,
-            typst_version: "0.15.1".into(),
-            shop: None,
-            logo: None,
             include_charges: false,
+            ..HandoverInput::new(&job, &findings, &text, "0.15.1")
         };
         let doc = build(&input, &TemplateSource::embedded(EMBEDDED_TEMPLATES)).unwrap();
         assert!(doc.context.charges.is_none());
@@ -645,15 +644,7 @@ mod tests {
         let dir = tempfile::tempdir().unwrap();
         std::fs::write(dir.path().join(TEMPLATE_NAME), "{{ no_such_thing }}").unwrap();
         let (job, findings, text) = demo("combo-el84-cathode.kdl");
-        let input = HandoverInput {
-            job: &job,
-            findings: &findings,
-            job_text: &text,
-            typst_version: "0.15.1".into(),
-            shop: None,
-            logo: None,
-            include_charges: true,
-        };
+        let input = HandoverInput::new(&job, &findings, &text, "0.15.1");
         let source = TemplateSource::embedded(EMBEDDED_TEMPLATES).with_override_dir(dir.path());
         match build(&input, &source) {
             Err(HandoverError::Template {

@@ -1,0 +1,252 @@
+//! Where a job file stands in git, read through the `git` command: the
+//! commit that last changed it and whether the file on disk differs from
+//! that commit (for the document's footer and the JSON), and a job file's
+//! text at a revision (`REV:PATH`, for `compare`).
+//!
+//! git is treated like any outside program: it runs with a time limit and
+//! bounded output (the same child runner as typst), never asks for input,
+//! and is told to run nothing the repository's own configuration might
+//! name (no fsmonitor, hooks, pager, signature check, external diff or
+//! content filter): a job folder cloned from someone else cannot make a
+//! render run their commands. Whether the file changed is worked out here
+//! from the very bytes that were read, hashed the way git names a blob, so
+//! the mark says whether *those* bytes are the committed ones.
+//!
+//! Without git, outside a repository, or for a file git does not track,
+//! there is no revision and the documents fall back to the file's SHA-256.
+
+use std::path::{Path, PathBuf};
+use std::process::Command;
+use std::time::Duration;
+
+use serde::Serialize;
+use sha1::Sha1;
+use sha2::{Digest, Sha256};
+
+use crate::typeset::{Running, Stopped, describe_status};
+
+/// How long one git command may take.
+pub const GIT_TIMEOUT: Duration = Duration::from_secs(20);
+
+/// How many hex digits of a commit id the documents show.
+pub const SHORT_ID_DIGITS: usize = 12;
+
+/// Where a job file stands in git.
+#[derive(Debug, Clone, PartialEq, Eq, Serialize)]
+pub struct Revision {
+    /// The first [`SHORT_ID_DIGITS`] hex digits of the commit that last
+    /// changed the file.
+    pub commit: String,
+    /// True when the bytes read differ from the file in `HEAD` (edited and
+    /// not committed yet, or removed from `HEAD`).
+    pub uncommitted_changes: bool,
+}
+
+/// Why a file could not be read from git.
+#[derive(Debug, thiserror::Error)]
+pub enum GitError {
+    #[error("the `git` command is needed to read {spec}, and it could not be run: {source}")]
+    Missing {
+        spec: String,
+        #[source]
+        source: std::io::Error,
+    },
+    #[error("git could not read {spec}: {detail}")]
+    Failed { spec: String, detail: String },
+    #[error("git took more than {} seconds to read {spec}", GIT_TIMEOUT.as_secs())]
+    TimedOut { spec: String },
+    #[error("stopped by signal {signal} while git read {spec}")]
+    Interrupted { spec: String, signal: i32 },
+    #[error(
+        "{spec} is larger than {} MiB; a job file is a few kilobytes",
+        crate::input_file::MAX_INPUT_BYTES / (1024 * 1024)
+    )]
+    TooLarge { spec: String },
+    #[error("{spec} is not UTF-8 text")]
+    NotUtf8 { spec: String },
+}
+
+/// A git command in `dir` that runs nothing the repository names.
+fn git_command(dir: &Path) -> Command {
+    let mut c = Command::new("git");
+    c.arg("--no-pager")
+        .arg("--literal-pathspecs")
+        .args(["-c", "core.fsmonitor=false"])
+        .args(["-c", "core.hooksPath=/dev/null"])
+        .args(["-c", "log.showSignature=false"])
+        .args(["-c", "diff.external="])
+        .arg("-C")
+        .arg(dir)
+        .env("GIT_TERMINAL_PROMPT", "0")
+        .env("GIT_OPTIONAL_LOCKS", "0")
+        .env("LC_ALL", "C");
+    // The repository is the one holding the file, not one named by the
+    // environment the command happens to run in.
+    for var in [
+        "GIT_DIR",
+        "GIT_WORK_TREE",
+        "GIT_INDEX_FILE",
+        "GIT_OBJECT_DIRECTORY",
+        "GIT_ALTERNATE_OBJECT_DIRECTORIES",
+        "GIT_NAMESPACE",
+        "GIT_CEILING_DIRECTORIES",
+        "GIT_EXTERNAL_DIFF",
+        "GIT_PAGER",
+    ] {
+        c.env_remove(var);
+    }
+    c
+}
+
+/// What one git run ended with.
+enum Ran {
+    Ok(Vec<u8>),
+    /// git ran and refused (not a repository, no such revision …).
+    Refused(String),
+    /// The output was longer than the cap.
+    TooLong,
+    NotRun(std::io::Error),
+    TimedOut,
+    Interrupted(i32),
+}
+
+fn run(dir: &Path, args: &[&str], cap: usize) -> Ran {
+    let mut c = git_command(dir);
+    c.args(args);
+    let child = match Running::spawn(c, cap + 1, 4096) {
+        Ok(c) => c,
+        Err(e) => return Ran::NotRun(e),
+    };
+    match child.wait(GIT_TIMEOUT) {
+        Ok(done) if done.status.success() => {
+            if done.stdout.dropped > 0 || done.stdout.bytes.len() > cap {
+                Ran::TooLong
+            } else {
+                Ran::Ok(done.stdout.bytes)
+            }
+        }
+        Ok(done) => {
+            let text = done.stderr.text();
+            Ran::Refused(if text.is_empty() {
+                format!("git {}", describe_status(&done.status))
+            } else {
+                text
+            })
+        }
+        Err(Stopped::TimedOut { .. }) => Ran::TimedOut,
+        Err(Stopped::Interrupted(signal)) => Ran::Interrupted(signal),
+        Err(Stopped::Failed(e)) => Ran::NotRun(e),
+    }
+}
+
+/// The folder holding `file` and its name in it.
+fn folder_and_name(file: &Path) -> Option<(PathBuf, String)> {
+    let name = file.file_name()?.to_str()?.to_string();
+    let dir = match file.parent() {
+        Some(p) if !p.as_os_str().is_empty() => p.to_path_buf(),
+        _ => PathBuf::from("."),
+    };
+    Some((dir, name))
+}
+
+/// The git object id of a blob holding `bytes`, in the hash of `id_len`
+/// hex digits (40: SHA-1, 64: SHA-256).
+fn blob_id(bytes: &[u8], id_len: usize) -> Option<String> {
+    let header = format!("blob {}\0", bytes.len());
+    let hex = |d: &[u8]| d.iter().map(|b| format!("{b:02x}")).collect::<String>();
+    match id_len {
+        40 => {
+            let mut h = Sha1::new();
+            h.update(header.as_bytes());
+            h.update(bytes);
+            Some(hex(&h.finalize()))
+        }
+        64 => {
+            let mut h = Sha256::new();
+            h.update(header.as_bytes());
+            h.update(bytes);
+            Some(hex(&h.finalize()))
+        }
+        _ => None,
+    }
+}
+
+/// Where `file`, read as `bytes`, stands in git: none without git, outside
+/// a repository, or when no commit holds the file yet.
+pub fn revision(file: &Path, bytes: &[u8]) -> Option<Revision> {
+    let (dir, name) = folder_and_name(file)?;
+    let Ran::Ok(out) = run(
+        &dir,
+        &[
+            "log",
+            "-1",
+            "--no-show-signature",
+            "--format=%H",
+            "--",
+            &name,
+        ],
+        256,
+    ) else {
+        return None;
+    };
+    let commit = String::from_utf8(out).ok()?.trim().to_string();
+    if commit.len() < SHORT_ID_DIGITS || !commit.chars().all(|c| c.is_ascii_hexdigit()) {
+        return None;
+    }
+    let spec = format!("HEAD:./{name}");
+    let committed = match run(&dir, &["rev-parse", "--verify", "--quiet", &spec], 256) {
+        Ran::Ok(out) => String::from_utf8(out).ok().map(|s| s.trim().to_string()),
+        _ => None,
+    };
+    // No blob in HEAD (the file was removed there) counts as a change.
+    let uncommitted_changes = committed
+        .as_deref()
+        .and_then(|id| Some(blob_id(bytes, id.len())? != id))
+        .unwrap_or(true);
+    Some(Revision {
+        commit: commit[..SHORT_ID_DIGITS].to_string(),
+        uncommitted_changes,
+    })
+}
+
+/// Whether `arg` names a file at a git revision (`REV:PATH`) rather than a
+/// file: it holds a colon and no file of that name exists.
+pub fn is_revision_spec(arg: &Path) -> bool {
+    !arg.exists() && arg.to_str().is_some_and(|s| split_spec(s).is_some())
+}
+
+/// `REV:PATH` split at its first colon, both parts present.
+pub fn split_spec(spec: &str) -> Option<(&str, &str)> {
+    let (rev, path) = spec.split_once(':')?;
+    (!rev.is_empty() && !path.is_empty()).then_some((rev, path))
+}
+
+/// The text of `REV:PATH` as git reads it from the repository holding the
+/// current folder (the same path rules as `git show REV:PATH`: a path is
+/// from the top of the repository unless it starts with `./`).
+pub fn read_at_revision(spec: &str) -> Result<String, GitError> {
+    let cap = crate::input_file::MAX_INPUT_BYTES as usize;
+    match run(Path::new("."), &["cat-file", "blob", spec], cap) {
+        Ran::Ok(bytes) => String::from_utf8(bytes).map_err(|_| GitError::NotUtf8 {
+            spec: spec.to_string(),
+        }),
+        Ran::Refused(detail) => Err(GitError::Failed {
+            spec: spec.to_string(),
+            detail,
+        }),
+        Ran::TooLong => Err(GitError::TooLarge {
+            spec: spec.to_string(),
+        }),
+        Ran::NotRun(source) => Err(GitError::Missing {
+            spec: spec.to_string(),
+            source,
+        }),
+        Ran::TimedOut => Err(GitError::TimedOut {
+            spec: spec.to_string(),
+        }),
+        Ran::Interrupted(signal) => Err(GitError::Interrupted {
+            spec: spec.to_string(),
+            signal,
+        }),
+    }
+}
