@@ -51,11 +51,20 @@ fn ampreport(args: &[&std::ffi::OsStr]) -> Output {
     ampreport_with_cache(args, &test_cache_home())
 }
 
+/// The time limit on typst in these tests. They check what the document
+/// says, not how fast it is made; a long document's compile took 8 to 15 s
+/// with the machine's ordinary load and several times that with four
+/// renders at once, so the 120 s default (or a limit set in the caller's
+/// environment) made their outcome depend on the machine's load. The limit
+/// itself is tested with stand-in typst programs in `typst_faults.rs`.
+const TYPST_TIME_LIMIT: &str = "1800";
+
 /// Runs ampreport with `XDG_CACHE_HOME` set to `cache_home`.
 fn ampreport_with_cache(args: &[&std::ffi::OsStr], cache_home: &Path) -> Output {
     Command::new(BIN)
         .args(args)
         .env_remove("AMPREPORT_TYPST")
+        .env("AMPREPORT_TIMEOUT", TYPST_TIME_LIMIT)
         .env("XDG_CACHE_HOME", cache_home)
         // No shop profile from the user's own configuration folder.
         .env("XDG_CONFIG_HOME", cache_home.join("no-config-home"))
