@@ -18,6 +18,7 @@ use super::args::RenderArgs;
 use super::exit::Exit;
 use super::{load, ui};
 use crate::calc;
+use crate::catalogue::Catalogue;
 use crate::input_file::is_dash;
 use crate::report::handover::{self, HandoverError, HandoverInput};
 use crate::typeset::{
@@ -79,6 +80,10 @@ pub fn run(args: &RenderArgs) -> Exit {
         shop: loaded.shop.as_ref().map(|s| &s.profile),
         logo: loaded.shop.as_ref().and_then(|s| s.logo.as_ref()),
         include_charges: !args.no_charges,
+        catalogue: loaded
+            .shop
+            .as_ref()
+            .map_or(Catalogue::english(), |s| &s.catalogue),
         revision: findings.job.git.clone(),
         photos: &photos,
     };
@@ -184,6 +189,9 @@ fn inputs_read(
         inputs.push(Input::new(shop.path(), "the shop profile"));
         if let Some(logo) = &shop.logo {
             inputs.push(Input::new(&logo.source, "the shop's logo"));
+        }
+        if let Some(translation) = &shop.translation {
+            inputs.push(Input::new(translation, "the shop's translation file"));
         }
     }
     inputs.push(Input::new(&program.path, "the typst program"));

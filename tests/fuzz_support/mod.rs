@@ -51,8 +51,14 @@ pub fn check_job_text(text: &str, build_source: bool) -> Result<Outcome, String>
             let findings = ampreport::calc::derive(&decoded.job, ratings());
             outcome.derived = true;
             check_findings(&findings)?;
-            let summary =
-                terminal::render(&decoded.job, &findings, &TerminalStyle { colour: false });
+            let summary = terminal::render(
+                &decoded.job,
+                &findings,
+                &TerminalStyle {
+                    colour: false,
+                    catalogue: ampreport::catalogue::Catalogue::english().clone(),
+                },
+            );
             no_non_finite_words("terminal summary", &summary, text)?;
             let json = ampreport::report::json::render(&findings);
             let value: serde_json::Value = serde_json::from_str(&json)
