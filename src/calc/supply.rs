@@ -620,6 +620,12 @@ pub(crate) fn heaters(job: &Job, set: &MeasurementSet, settings: &Settings) -> V
         .collect()
 }
 
+/// A reason or threshold in words, from the English catalogue (the JSON's
+/// reasons are the reference language's).
+fn words(key: &str, args: &[(&str, Arg)]) -> String {
+    Catalogue::english().format(key, args)
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -893,10 +899,4 @@ mod tests {
         let p = cold_start_peak(Volts(260.0), Volts(110.0), Volts(126.0), Volts(0.0));
         assert!((p.0 - 421.17).abs() < 0.01, "{}", p.0);
     }
-}
-
-/// A reason or threshold in words, from the English catalogue (the JSON's
-/// reasons are the reference language's).
-fn words(key: &str, args: &[(&str, Arg)]) -> String {
-    Catalogue::english().format(key, args)
 }
