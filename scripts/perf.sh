@@ -102,7 +102,7 @@ time_rss() {
 
 # Pages and a text digest of a PDF.
 pdf_digest() {
-    echo "$(pdfinfo "$1" 2>/dev/null | awk '/^Pages:/ { print $2 }') pages, text $(pdftotext "$1" - 2>/dev/null | sha256sum | cut -c1-12)"
+    echo "$(pdfinfo "$1" 2>/dev/null | awk '/^Pages:/ { print $2 }' || true) pages, text $(pdftotext "$1" - 2>/dev/null | sha256sum | cut -c1-12)"
 }
 
 load() { echo "# $(date -u +%H:%M) UTC, load:$(uptime | sed 's/.*load average://')"; }
@@ -153,8 +153,11 @@ size)
         for side in old new; do
             [ "$side" = old ] && [ "$n" -gt "${OLD_MAX_SETS:-100}" ] && continue
             emit "$work/job-$n.kdl" "$work/$side-$n" "$side"
-            read -r secs rss < <(time_rss compile "$work/$side-$n" "$work/$side-$n.pdf")
-            pages=$(pdfinfo "$work/$side-$n.pdf" 2>/dev/null | awk '/^Pages:/ { print $2 }')
+            read -ra cmd <"$work/$side-$n.cmd"
+            cmd[0]="$typst"
+            cmd[${#cmd[@]} - 1]="$work/$side-$n.pdf"
+            read -r secs rss < <(time_rss "${cmd[@]}")
+            pages=$(pdfinfo "$work/$side-$n.pdf" 2>/dev/null | awk '/^Pages:/ { print $2 }' || true)
             echo "$n | $side | $secs | $(awk -v s="$secs" -v n="$n" 'BEGIN { printf "%.0f", s * 1000 / n }') | $((rss / 1024)) | $pages"
             rm -rf "$work/$side-$n"
         done
