@@ -395,6 +395,30 @@ fn a_folder_renders_every_job_and_one_failure_stops_no_other() {
     assert_eq!(c.compiles(), 3);
 }
 
+/// The deepest nesting the depth check passes to the `kdl` crate: blocks
+/// to the limit, and a run of `/-` comments inside the innermost one.
+fn deepest_allowed_job() -> String {
+    "a {\n".repeat(48) + &"/- ".repeat(48) + "x\n" + &"}\n".repeat(48)
+}
+
+#[test]
+fn a_deeply_nested_job_fails_alone_and_does_not_abort_the_batch() {
+    // Read on a worker thread with the 2 MiB default stack, this job
+    // overflowed it and aborted every render of the batch (status 134).
+    let c = Counting::new();
+    let jobs = c.scene.dir.join("jobs");
+    std::fs::create_dir_all(&jobs).unwrap();
+    std::fs::copy(support::demo("combo-el84-cathode"), jobs.join("a.kdl")).unwrap();
+    std::fs::write(jobs.join("deep.kdl"), deepest_allowed_job()).unwrap();
+    std::fs::write(jobs.join("deeper.kdl"), deepest_allowed_job()).unwrap();
+    let out = c.render(&["jobs", "-j", "2"]);
+    let said = text(&out);
+    assert_eq!(out.status.code(), Some(1), "{said}\n{}", stderr(&out));
+    assert!(said.contains("1 rendered, 0 unchanged, 2 failed"), "{said}");
+    assert!(jobs.join("a.pdf").is_file());
+    assert!(!jobs.join("deep.pdf").exists() && !jobs.join("deeper.pdf").exists());
+}
+
 #[test]
 fn out_dir_mirrors_the_tree_and_two_jobs_may_not_share_an_output() {
     let c = Counting::new();
