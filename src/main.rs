@@ -1,5 +1,17 @@
-//! The `ampreport` binary: hands the command line to [`ampreport::cli`].
+//! The `ampreport` binary: hands the command line to [`ampreport::cli`],
+//! on a thread with [`ampreport::cli::PROGRAM_STACK`] of stack.
 
 fn main() -> std::process::ExitCode {
-    ampreport::cli::main()
+    match std::thread::Builder::new()
+        .name("ampreport".to_string())
+        .stack_size(ampreport::cli::PROGRAM_STACK)
+        .spawn(ampreport::cli::main)
+    {
+        Ok(program) => program
+            .join()
+            .unwrap_or_else(|panic| std::panic::resume_unwind(panic)),
+        // No thread to be had (a tight memory limit): run here instead,
+        // on the main thread's own stack.
+        Err(_) => ampreport::cli::main(),
+    }
 }

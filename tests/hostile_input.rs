@@ -437,6 +437,43 @@ fn nesting_hidden_behind_comments_and_strings_is_still_counted() {
     }
 }
 
+/// Blocks commented out with `/-` inside one another in a broken file: the
+/// `kdl` crate's error recovery took about twice as long per level (ten
+/// levels: five seconds unoptimised; 48 would never end). The file now gets
+/// its first syntax error, at its place, at once.
+#[test]
+fn nested_dashed_blocks_in_a_broken_file_get_the_first_error_promptly() {
+    let dir = tempfile::tempdir().expect("temp dir");
+    for (what, level) in [
+        ("`a /- {`", "a /- {\n"),
+        ("`/-` on its own line", "a /-\n{\n"),
+        ("`/-` after a comment", "a /* c */ /- {\n"),
+        ("a `/-` node", "/- a /- {\n"),
+    ] {
+        let depth = ampreport::kdl_fast::MAX_FALLBACK_DEPTH - 1;
+        let text = format!("job-format 1\n{}= =\n", level.repeat(depth));
+        assert!(
+            text.len() < ampreport::kdl_fast::MAX_FALLBACK_SIZE,
+            "{what}"
+        );
+        let lines = 1 + depth * level.matches('\n').count();
+        std::fs::write(dir.path().join("dashed.kdl"), &text).expect("write");
+        let run = run_with_deadline(dir.path(), &["check", "dashed.kdl"], LIMIT);
+        assert_eq!(run.status, Some(1), "{what}: {}", run.stderr);
+        // The first place the text stops being KDL: the `=` that opens
+        // the last line.
+        assert!(
+            run.stderr
+                .contains(&format!("[dashed.kdl:{}:1]", lines + 1))
+                && run
+                    .stderr
+                    .contains("commented out with `/-` nest more than"),
+            "{what}:\n{}",
+            run.stderr
+        );
+    }
+}
+
 /// The demo job rewritten with the rarer forms of KDL 2.0: a version
 /// marker, raw strings with hashes, multi-line and raw multi-line strings,
 /// escapes of every kind (whitespace escapes joining lines), numbers in

@@ -20,9 +20,6 @@ use std::time::{Duration, Instant};
 use indicatif::{ProgressBar, ProgressDrawTarget, ProgressStyle};
 use rayon::prelude::*;
 
-/// Each render worker's stack: that of the main thread on Linux.
-const WORKER_STACK: usize = 8 * 1024 * 1024;
-
 use super::exit::Exit;
 use super::render::{JobReport, Outcome, Plan, Setup, render_one};
 use crate::typeset::interrupt;
@@ -133,12 +130,10 @@ pub fn run(setup: &Setup<'_>) -> Exit {
     let pool = match rayon::ThreadPoolBuilder::new()
         .num_threads(workers)
         .thread_name(|i| format!("ampreport-render-{i}"))
-        // Jobs are read on these threads. The `kdl` crate's parser recurses
-        // once per nesting level, and the depth check lets through what an
-        // 8 MiB main thread reads safely (`kdl_fast::MAX_FALLBACK_DEPTH`);
-        // a worker gets the same stack, not the 2 MiB default, or a deeply
-        // nested job aborts the whole batch.
-        .stack_size(WORKER_STACK)
+        // Jobs are read on these threads: a worker gets the program's
+        // stack, not the 2 MiB default, or a deeply nested job aborts the
+        // whole batch.
+        .stack_size(super::PROGRAM_STACK)
         .build()
     {
         Ok(pool) => pool,

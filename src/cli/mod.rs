@@ -26,6 +26,16 @@ use std::process::ExitCode;
 pub use exit::Exit;
 pub use init::SKELETON;
 
+/// The stack the program runs on (the binary's main thread, and each batch
+/// worker). Files are read by recursive descent: the `kdl` crate's parser,
+/// for a broken job file, recurses once per nesting level, up to the depth
+/// `kdl_fast` lets through (48 blocks, each under a run of 48 `/-`). The
+/// deepest such files constructed by hand need between 2 and 4 MiB in an
+/// unoptimised build, yet a generated one was once seen to overflow 8 MiB
+/// there; 64 MiB leaves a wide margin. It is only reserved address space:
+/// pages a run never touches cost no memory.
+pub const PROGRAM_STACK: usize = 64 * 1024 * 1024;
+
 /// Runs the program with the process's arguments.
 pub fn main() -> ExitCode {
     // A completion script asking for candidates: answered, then exit.

@@ -30,11 +30,41 @@ pub struct TooDeep {
 /// `\` line continuations (`/- \` on each line, or `/-// note` on each
 /// line, nests as deeply as `/- /- /-`).
 pub fn too_deep(text: &str) -> Option<TooDeep> {
-    match Scan::new(text, true).run() {
-        Ok(found) => found,
+    measure(text).too_deep
+}
+
+/// What the scan found: where nesting first went too deep, and how deeply
+/// `/-` children blocks nest (see [`Depths::dashed_blocks`]).
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub struct Depths {
+    pub too_deep: Option<TooDeep>,
+    /// The deepest nesting of children blocks commented out by `/-`
+    /// (`a /- {` inside `b /- {` …), up to the first place nesting went
+    /// too deep. The `kdl` crate's error recovery takes about twice as long
+    /// for each such level on a broken text (ten levels: seconds; the
+    /// forty-eight blocks allowed: years), counted upwards like the rest.
+    pub dashed_blocks: usize,
+}
+
+/// Measures `text`: the depths that decide whether the `kdl` crate's
+/// parser may be given it.
+pub fn measure(text: &str) -> Depths {
+    let mut scan = Scan::new(text, true);
+    match scan.run() {
+        Ok(too_deep) => Depths {
+            too_deep,
+            dashed_blocks: scan.max_dashed,
+        },
         // A comment left open: the `kdl` crate's error recovery may read
         // on inside it, so measure its text too.
-        Err(OpenComment) => Scan::new(text, false).run().unwrap_or(None),
+        Err(OpenComment) => {
+            let mut again = Scan::new(text, false);
+            let too_deep = again.run().unwrap_or(None);
+            Depths {
+                too_deep,
+                dashed_blocks: again.max_dashed.max(scan.max_dashed),
+            }
+        }
     }
 }
 
@@ -68,6 +98,11 @@ struct Scan<'a> {
     inside: Inside,
     /// `{` opened inside the current string, which its `}` may close.
     string_blocks: usize,
+    /// Bit `n` set: the open block at depth `n + 1` follows a `/-`. Depth
+    /// never passes [`MAX_FALLBACK_DEPTH`] (48) before the scan stops.
+    dashed: u64,
+    /// The deepest count of open blocks that follow a `/-`.
+    max_dashed: usize,
 }
 
 impl<'a> Scan<'a> {
@@ -81,6 +116,8 @@ impl<'a> Scan<'a> {
             slashdashes: 0,
             inside: Inside::Nodes,
             string_blocks: 0,
+            dashed: 0,
+            max_dashed: 0,
         }
     }
 
@@ -100,14 +137,36 @@ impl<'a> Scan<'a> {
 
     fn open_block(&mut self, i: usize) -> Option<TooDeep> {
         self.blocks += 1;
-        (self.blocks > MAX_FALLBACK_DEPTH).then_some(TooDeep {
-            offset: i,
-            kind: Nesting::Blocks,
-        })
+        if self.blocks > MAX_FALLBACK_DEPTH {
+            return Some(TooDeep {
+                offset: i,
+                kind: Nesting::Blocks,
+            });
+        }
+        // A block opened anew at this depth: forget what an earlier one
+        // at the same depth was.
+        self.dashed &= !(1u64 << (self.blocks - 1));
+        None
+    }
+
+    /// Closes the innermost block (none open: nothing to close).
+    fn close_block(&mut self) {
+        if self.blocks > 0 {
+            self.dashed &= !(1u64 << (self.blocks - 1));
+            self.blocks -= 1;
+        }
+    }
+
+    /// The block just opened follows a `/-`.
+    fn mark_dashed(&mut self) {
+        if self.blocks > 0 {
+            self.dashed |= 1u64 << (self.blocks - 1);
+            self.max_dashed = self.max_dashed.max(self.dashed.count_ones() as usize);
+        }
     }
 
     /// The scan; `Err` when comments are skipped and one is left open.
-    fn run(mut self) -> Result<Option<TooDeep>, OpenComment> {
+    fn run(&mut self) -> Result<Option<TooDeep>, OpenComment> {
         let mut i = 0;
         while i < self.bytes.len() {
             let b = self.bytes[i];
@@ -232,7 +291,7 @@ impl<'a> Scan<'a> {
             }
             b'}' if self.string_blocks > 0 => {
                 self.string_blocks -= 1;
-                self.blocks -= 1;
+                self.close_block();
                 None
             }
             _ => None,
@@ -275,6 +334,9 @@ impl<'a> Scan<'a> {
                 if let Some(d) = self.open_block(i) {
                     return Err(d);
                 }
+                if self.slashdashes > 0 {
+                    self.mark_dashed();
+                }
                 if !in_comment {
                     self.slashdashes = 0;
                 }
@@ -282,7 +344,7 @@ impl<'a> Scan<'a> {
             }
             (b'}', _) => {
                 if !in_comment {
-                    self.blocks = self.blocks.saturating_sub(1);
+                    self.close_block();
                     self.slashdashes = 0;
                 }
                 1

@@ -479,3 +479,50 @@ fn the_too_deep_span_never_splits_a_character() {
         assert!(!span.is_empty(), "{tail:?}: empty span");
     }
 }
+
+#[test]
+fn blocks_commented_out_with_slashdash_are_counted_where_they_nest() {
+    for (text, dashed) in [
+        ("a /- { b /- { c { } } }", 2),
+        ("a /- {} b /- {} c /- {}", 1),
+        ("a /- { } b { c /- { d /- { } } }", 2),
+        ("/- a { b { } }", 0),
+        ("a /-b { }", 0),
+        ("a /-\n{ b /* note */ /- \\\n { } }", 2),
+        ("a { b { c { } } }", 0),
+        // Unbalanced: counted upwards, never below what is open.
+        ("a /- { b /- { c /- {", 3),
+        ("}}} a /- {", 1),
+    ] {
+        assert_eq!(super::measure(text).dashed_blocks, dashed, "{text:?}");
+    }
+}
+
+#[test]
+fn a_broken_text_with_deep_dashed_blocks_gets_its_first_error_only() {
+    let deep = format!(
+        "{}= =\n",
+        "a /- {\n".repeat(super::MAX_FALLBACK_DASHED_BLOCKS + 1)
+    );
+    let e = super::parse_document(&deep).expect_err("broken");
+    assert_eq!(e.diagnostics.len(), 1);
+    let d = &e.diagnostics[0];
+    assert_eq!(d.span.offset(), deep.find('=').expect("the `=`"));
+    assert!(
+        d.help
+            .as_deref()
+            .unwrap_or("")
+            .contains("`/-` nest more than")
+    );
+    // At the limit the `kdl` crate still gives its full report.
+    let shallow = format!(
+        "{}= =\n",
+        "a /- {\n".repeat(super::MAX_FALLBACK_DASHED_BLOCKS)
+    );
+    let e = super::parse_document(&shallow).expect_err("broken");
+    assert!(
+        e.diagnostics
+            .iter()
+            .all(|d| !d.help.as_deref().unwrap_or("").contains("`/-` nest"))
+    );
+}
