@@ -511,3 +511,109 @@ threshold-no-chart = keine: der Auftrag nennt keinen Tabellenwert
 threshold-heater = innerhalb ±{ $tolerance } % von { $nominal }
 reason-at-nominal = { $volts } bei Netznennspannung ({ $deviation } %)
 reason-heater = { $measured } weicht um { $deviation } % von { $nominal } ab
+
+## Diagnosen: Probleme in Auftragsdateien, Werkstattprofilen,
+## Übersetzungsdateien und Fotos, in der Sprache des Werkstattprofils.
+## `file` ist `job` oder `shop`; `what` ist ein schon gesagter Name.
+
+diag-file-warnings = { $name }: { $warnings ->
+        [one] 1 Warnung
+       *[other] { $warnings } Warnungen
+    }
+diag-file-refused = { $name }: { $errors ->
+        [one] 1 Problem verhindert
+       *[other] { $errors } Probleme verhindern
+    }, dass { $file ->
+        [shop] dieses Werkstattprofil
+       *[job] diese Auftragsdatei
+    } gelesen wird
+diag-file-refused-warnings = { $name }: { $errors ->
+        [one] 1 Problem verhindert
+       *[other] { $errors } Probleme verhindern
+    }, dass { $file ->
+        [shop] dieses Werkstattprofil
+       *[job] diese Auftragsdatei
+    } gelesen wird (außerdem { $warnings ->
+        [one] 1 Warnung
+       *[other] { $warnings } Warnungen
+    })
+diag-not-shown = { $count ->
+        [one] 1 weiteres Problem wird
+       *[other] { $count } weitere Probleme werden
+    } nicht gezeigt: die { $shown } oben beheben und erneut starten
+diag-allowed-here = hier erlaubt: { $names }
+diag-did-you-mean = meinten Sie `{ $name }`?
+diag-did-you-mean-either = meinten Sie { $names } oder `{ $last }`?
+diag-in-job-file = der Auftragsdatei
+diag-in-shop-profile = dem Werkstattprofil
+diag-in-set = einer Messreihe
+diag-unknown-node = unbekannter Knoten `{ $name }` in { $context }
+diag-unknown-node-label = kein Knoten, den das Format hier kennt
+diag-type-annotation = die Typangabe `({ $type })` wird in Auftragsdateien nicht verwendet
+diag-remove-this = entfernen
+diag-type-annotation-help = die Einheit stattdessen in den Wert schreiben, zum Beispiel "352V"
+diag-takes-no-properties = `{ $node }` hat keine Eigenschaften
+diag-unknown-property = unbekannte Eigenschaft `{ $key }` an `{ $node }`
+diag-unknown-property-label = keine Eigenschaft dieses Knotens
+diag-repeated-property = die Eigenschaft `{ $key }` steht zweimal an `{ $node }`
+diag-repeated-here = hier wiederholt
+diag-takes-no-values = `{ $node }` nimmt keine einfachen Werte; seine Eigenschaften verwenden
+diag-takes-values = `{ $node }` nimmt { $count ->
+        [one] 1 einfachen Wert
+       *[other] { $count } einfache Werte
+    }
+diag-extra-value = unerwarteter Wert an `{ $node }`
+diag-not-expected-here = hier nicht erwartet
+diag-no-children = `{ $node }` hat keine Unterknoten
+diag-missing = `{ $node }` braucht { $what }
+diag-missing-label = { $what } fehlt
+diag-for-example = zum Beispiel: { $example }
+diag-a-property = eine Eigenschaft `{ $key }`
+diag-found-text = der Text "{ $text }"
+diag-found-number = die Zahl { $number }
+diag-expected-text = { $what } muss Text sein, gefunden: { $found }
+diag-expected-text-label = Text in Anführungszeichen erwartet
+diag-expected-text-help = in doppelte Anführungszeichen setzen, zum Beispiel "{ $example }"
+diag-expected-name = { $what } muss ein Name wie V1 oder B+1 sein, gefunden: { $found }
+diag-expected-name-label = Name erwartet
+diag-expected-bool = { $what } muss #true oder #false sein, gefunden: { $found }
+diag-expected-bool-label = #true oder #false erwartet
+diag-expected-bool-help = KDL 2 schreibt Wahrheitswerte als #true und #false
+diag-expected-integer = { $what } muss eine ganze Zahl von { $low } bis { $high } sein
+diag-expected-integer-label = ganze Zahl erwartet
+diag-expected = erwartet: { $what }
+diag-must-be-kind = { $what } muss { $kind } sein, gefunden: { $found }
+diag-out-of-range-kind = { $what }: { $written } liegt außerhalb des zulässigen Bereichs ({ $kind }: { $range })
+diag-out-of-range-help = kein Messwert und kein Bauteil hat diesen Wert; Vorsatz und Exponent prüfen
+diag-this-value = dieser Wert
+diag-bad-value = { $what }: { $problem }
+diag-write-kind-as = so schreiben ({ $kind }): { $example }
+diag-bad-time = { $what } muss eine Zeit seit dem Einschalten sein, höchstens ein Tag
+diag-bad-time-label = Zeit wie "5min" erwartet
+diag-bad-time-help = Minuten als Zahl (5) schreiben, oder als Text mit s, min oder h: "30s", "5min", "1.5h"
+diag-date-not-text = { $what } muss ein Datum in Anführungszeichen sein, gefunden: { $found }
+diag-date-label = "JJJJ-MM-TT" erwartet
+diag-date-help = Daten als ISO-8601-Text schreiben, zum Beispiel "2026-11-02"
+diag-bad-date = { $what } "{ $text }" ist kein gültiges Datum ({ $error })
+diag-bad-date-help = Daten nach ISO 8601 als Jahr-Monat-Tag schreiben, zum Beispiel "2026-11-02"
+diag-must-be-from = { $what } muss im Bereich { $range } liegen
+diag-cannot-be-negative = { $what } kann nicht negativ sein
+diag-cannot-be-zero = { $what } kann nicht null sein
+diag-zero-or-more = null oder mehr erwartet
+diag-more-than-zero = mehr als null erwartet
+diag-impossible-help = ein echtes Bauteil oder Netzteil kann diesen Wert nicht haben; den Messwert prüfen
+diag-range = { $low } bis { $high }
+diag-kind-voltage = eine Spannung
+diag-kind-current = ein Strom
+diag-kind-resistance = ein Widerstand
+diag-kind-power = eine Leistung
+diag-kind-capacitance = eine Kapazität
+diag-kind-inductance = eine Induktivität
+diag-kind-frequency = eine Frequenz
+diag-kind-percent = ein Prozentwert
+diag-unit-empty = der Wert ist leer
+diag-unit-not-a-number = das ist keine Zahl mit optionalem SI-Vorsatz oder RKM-Code
+diag-unit-wrong = "{ $symbol }" ist eine Einheit für etwas anderes ({ $found }); hier gehört { $expected } hin
+diag-unit-rkm = der RKM-Buchstabe R markiert das Komma eines Widerstands, hier gehört aber { $expected } hin
+diag-unit-no-prefix = { $expected } nimmt keinen SI-Vorsatz
+diag-unit-not-finite = der Wert ist zu groß für einen Messwert

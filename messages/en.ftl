@@ -509,3 +509,111 @@ threshold-no-chart = none: the job gives no chart figure
 threshold-heater = within ±{ $tolerance } % of { $nominal }
 reason-at-nominal = { $volts } at nominal mains ({ $deviation } %)
 reason-heater = { $measured } is { $deviation } % from { $nominal }
+
+## Diagnostics: problems in job files, shop profiles, translation files
+## and photos (src/job, src/shop, src/photo, src/units), said in the shop
+## profile's language (docs/shop.md, "The terminal's language"). Keep
+## English as it is: tests compare it word for word. `file` is `job` or
+## `shop`; `what` is a name already said ("`anode`", "a `key` property").
+
+diag-file-warnings = { $name }: { $warnings ->
+        [one] 1 warning
+       *[other] { $warnings } warnings
+    }
+diag-file-refused = { $name }: { $errors ->
+        [one] 1 problem stops
+       *[other] { $errors } problems stop
+    } this { $file ->
+        [shop] shop profile
+       *[job] job file
+    } from being read
+diag-file-refused-warnings = { $name }: { $errors ->
+        [one] 1 problem stops
+       *[other] { $errors } problems stop
+    } this { $file ->
+        [shop] shop profile
+       *[job] job file
+    } from being read ({ $warnings ->
+        [one] 1 warning
+       *[other] { $warnings } warnings
+    } too)
+diag-not-shown = { $count ->
+        [one] 1 more problem is
+       *[other] { $count } more problems are
+    } not shown: fix the { $shown } above and run again
+diag-allowed-here = allowed here: { $names }
+diag-did-you-mean = did you mean `{ $name }`?
+diag-did-you-mean-either = did you mean { $names } or `{ $last }`?
+diag-in-job-file = the job file
+diag-in-shop-profile = the shop profile
+diag-in-set = a measurement set
+diag-unknown-node = unknown node `{ $name }` in { $context }
+diag-unknown-node-label = not a node this format knows here
+diag-type-annotation = type annotation `({ $type })` is not used in job files
+diag-remove-this = remove this
+diag-type-annotation-help = write the unit inside the value instead, for example "352V"
+diag-takes-no-properties = `{ $node }` takes no properties
+diag-unknown-property = unknown property `{ $key }` on `{ $node }`
+diag-unknown-property-label = not a property of this node
+diag-repeated-property = property `{ $key }` is given twice on `{ $node }`
+diag-repeated-here = repeated here
+diag-takes-no-values = `{ $node }` takes no plain values; use its properties
+diag-takes-values = `{ $node }` takes { $count ->
+        [one] 1 plain value
+       *[other] { $count } plain values
+    }
+diag-extra-value = unexpected value on `{ $node }`
+diag-not-expected-here = not expected here
+diag-no-children = `{ $node }` takes no child nodes
+diag-missing = `{ $node }` needs { $what }
+diag-missing-label = { $what } missing
+diag-for-example = for example: { $example }
+diag-a-property = a `{ $key }` property
+diag-found-text = the text "{ $text }"
+diag-found-number = the number { $number }
+diag-expected-text = { $what } must be text, found { $found }
+diag-expected-text-label = expected text in quotes
+diag-expected-text-help = write it in double quotes, for example "{ $example }"
+diag-expected-name = { $what } must be a name such as V1 or B+1, found { $found }
+diag-expected-name-label = expected a name
+diag-expected-bool = { $what } must be #true or #false, found { $found }
+diag-expected-bool-label = expected #true or #false
+diag-expected-bool-help = KDL 2 writes booleans as #true and #false
+diag-expected-integer = { $what } must be a whole number from { $low } to { $high }
+diag-expected-integer-label = expected a whole number
+diag-expected = expected { $what }
+diag-must-be-kind = { $what } must be { $kind }, found { $found }
+diag-out-of-range-kind = { $what }: { $written } is outside the range accepted for { $kind } ({ $range })
+diag-out-of-range-help = no reading or part has this value; check the prefix and the exponent
+diag-this-value = this value
+diag-bad-value = { $what }: { $problem }
+diag-write-kind-as = write { $kind } as { $example }
+diag-bad-time = { $what } must be a time since power-on, up to a day
+diag-bad-time-label = expected a time such as "5min"
+diag-bad-time-help = write minutes as a number (5), or text with s, min or h: "30s", "5min", "1.5h"
+diag-date-not-text = { $what } must be a date in quotes, found { $found }
+diag-date-label = expected "YYYY-MM-DD"
+diag-date-help = write dates as ISO 8601 text, for example "2026-11-02"
+diag-bad-date = { $what } "{ $text }" is not a valid date ({ $error })
+diag-bad-date-help = write dates as ISO 8601 year-month-day, for example "2026-11-02"
+diag-must-be-from = { $what } must be from { $range }
+diag-cannot-be-negative = { $what } cannot be negative
+diag-cannot-be-zero = { $what } cannot be zero
+diag-zero-or-more = expected zero or more
+diag-more-than-zero = expected more than zero
+diag-impossible-help = a physical part or supply cannot have this value; check the reading
+diag-range = { $low } to { $high }
+diag-kind-voltage = a voltage
+diag-kind-current = a current
+diag-kind-resistance = a resistance
+diag-kind-power = a power
+diag-kind-capacitance = a capacitance
+diag-kind-inductance = an inductance
+diag-kind-frequency = a frequency
+diag-kind-percent = a percentage
+diag-unit-empty = the value is empty
+diag-unit-not-a-number = this is not a number with an optional SI prefix or an RKM code
+diag-unit-wrong = "{ $symbol }" is the unit of { $found }, but { $expected } belongs here
+diag-unit-rkm = the RKM letter R marks the decimal point of a resistance, but { $expected } belongs here
+diag-unit-no-prefix = { $expected } takes no SI prefix
+diag-unit-not-finite = the value is too large to be a measurement

@@ -19,16 +19,25 @@ pub const SHOWN_PROBLEMS: usize = 20;
 #[derive(Debug, Clone, PartialEq, Eq)]
 pub struct NotShown {
     pub count: usize,
+    /// The line in the report's language.
+    pub words: String,
+}
+
+impl NotShown {
+    /// The line for `count` problems not shown, said in `catalogue`.
+    pub fn new(count: usize, catalogue: &crate::catalogue::Catalogue) -> Self {
+        let words = catalogue.say(
+            &crate::catalogue::Msg::new("diag-not-shown")
+                .arg("count", count)
+                .arg("shown", SHOWN_PROBLEMS),
+        );
+        NotShown { count, words }
+    }
 }
 
 impl fmt::Display for NotShown {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
-        write!(
-            f,
-            "{} more problem{} not shown: fix the {SHOWN_PROBLEMS} above and run again",
-            self.count,
-            if self.count == 1 { " is" } else { "s are" }
-        )
+        f.write_str(&self.words)
     }
 }
 
@@ -45,10 +54,11 @@ impl Diagnostic for NotShown {
 pub fn shown<'a, T: Diagnostic>(
     problems: &'a [T],
     not_shown: &'a std::sync::OnceLock<NotShown>,
+    catalogue: &crate::catalogue::Catalogue,
 ) -> Box<dyn Iterator<Item = &'a dyn Diagnostic> + 'a> {
     let rest = problems.len().saturating_sub(SHOWN_PROBLEMS);
-    let tail =
-        (rest > 0).then(|| not_shown.get_or_init(|| NotShown { count: rest }) as &dyn Diagnostic);
+    let tail = (rest > 0)
+        .then(|| not_shown.get_or_init(|| NotShown::new(rest, catalogue)) as &dyn Diagnostic);
     Box::new(
         problems
             .iter()

@@ -2,6 +2,7 @@
 //! what each must hold. Decoding turns KDL into a [`Job`] or a list of
 //! problems; it computes nothing.
 
+use crate::catalogue::Msg;
 use kdl::{KdlDocument, KdlNode};
 use miette::SourceSpan;
 use std::collections::HashSet;
@@ -109,7 +110,7 @@ pub(crate) fn decode_document(
     defaults: &JobDefaults,
     r: &mut Reader,
 ) -> Option<Job> {
-    let nodes = r.children(Some(doc), TOP_LEVEL, "the job file");
+    let nodes = r.children(Some(doc), TOP_LEVEL, Msg::new("diag-in-job-file"));
 
     // Repeated singletons.
     let mut seen = std::collections::HashSet::new();
@@ -808,7 +809,7 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
     let mut bias_controls = Vec::new();
     let mut bench = BenchTests::default();
     let mut suggest_cathode_resistor = false;
-    for child in r.children(node.children(), SET_NODES, "a measurement set") {
+    for child in r.children(node.children(), SET_NODES, Msg::new("diag-in-set")) {
         match child.name().value() {
             "circuit" => {
                 circuit_changes = decode_circuit(child, r);

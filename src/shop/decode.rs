@@ -3,6 +3,7 @@
 //! `shop.kdl` reads like one in a job file: `file:line:column`, what was
 //! expected, a did-you-mean. Decoding computes nothing and reads no file.
 
+use crate::catalogue::Msg;
 use kdl::{KdlDocument, KdlNode};
 use miette::SourceSpan;
 
@@ -35,7 +36,7 @@ pub(crate) fn decode_document(
     source_name: &str,
     r: &mut Reader,
 ) -> Option<ShopProfile> {
-    let nodes = r.children(Some(doc), SHOP_TOP_LEVEL, "the shop profile");
+    let nodes = r.children(Some(doc), SHOP_TOP_LEVEL, Msg::new("diag-in-shop-profile"));
     for (i, node) in nodes.iter().enumerate() {
         let name = node.name().value();
         if nodes[..i].iter().any(|n| n.name().value() == name) {
