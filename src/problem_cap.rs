@@ -16,28 +16,32 @@ use std::sync::Arc;
 pub const SHOWN_PROBLEMS: usize = 20;
 
 /// The closing line that counts the problems not printed.
-#[derive(Debug, Clone, PartialEq, Eq)]
+#[derive(Debug, Clone)]
 pub struct NotShown {
     pub count: usize,
-    /// The line in the report's language.
-    pub words: String,
+    /// The language the line is said in.
+    pub catalogue: crate::catalogue::Catalogue,
 }
 
 impl NotShown {
     /// The line for `count` problems not shown, said in `catalogue`.
     pub fn new(count: usize, catalogue: &crate::catalogue::Catalogue) -> Self {
-        let words = catalogue.say(
-            &crate::catalogue::Msg::new("diag-not-shown")
-                .arg("count", count)
-                .arg("shown", SHOWN_PROBLEMS),
-        );
-        NotShown { count, words }
+        NotShown {
+            count,
+            catalogue: catalogue.clone(),
+        }
     }
 }
 
 impl fmt::Display for NotShown {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
-        f.write_str(&self.words)
+        f.write_str(
+            &self.catalogue.say(
+                &crate::catalogue::Msg::new("diag-not-shown")
+                    .arg("count", self.count)
+                    .arg("shown", SHOWN_PROBLEMS),
+            ),
+        )
     }
 }
 

@@ -82,7 +82,11 @@ fn a_german_shop_gives_german_diagnostics_at_the_same_places() {
             "unknown node `complain` in the job file",
             "unbekannter Knoten `complain` in der Auftragsdatei",
         ),
-        ("complain \"", "did you mean `complaint`?", "meinten Sie `complaint`?"),
+        (
+            "complain \"",
+            "did you mean `complaint`?",
+            "meinten Sie `complaint`?",
+        ),
         (
             "\"2026-13-05\"",
             "`received` \"2026-13-05\" is not a valid date",
@@ -99,7 +103,10 @@ fn a_german_shop_gives_german_diagnostics_at_the_same_places() {
         assert!(de.contains(&place), "{place} missing from:\n{de}");
         assert!(en.contains(english_words), "{english_words} missing:\n{en}");
         assert!(de.contains(german_words), "{german_words} missing:\n{de}");
-        assert!(!de.contains(english_words), "{english_words} left in:\n{de}");
+        assert!(
+            !de.contains(english_words),
+            "{english_words} left in:\n{de}"
+        );
     }
     assert!(
         en.contains("job.kdl: 3 problems stop this job file from being read"),

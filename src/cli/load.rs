@@ -220,7 +220,8 @@ pub fn shop_profile(
         Some(written) => match shop::read_logo(&path, written) {
             Ok(logo) => Some(logo),
             Err(problem) => {
-                let diagnostics = job::JobDiagnostics::new(decoded.diagnostics.source.clone(), vec![*problem]);
+                let diagnostics =
+                    job::JobDiagnostics::new(decoded.diagnostics.source.clone(), vec![*problem]);
                 refused(&name, &text, diagnostics.localized(&own_language), said);
                 return Err(Exit::InvalidInput);
             }
@@ -243,7 +244,10 @@ pub fn shop_profile(
                     (c, file)
                 }
                 Err(shop::TranslationError::Profile(problem)) => {
-                    let diagnostics = job::JobDiagnostics::new(decoded.diagnostics.source.clone(), vec![*problem]);
+                    let diagnostics = job::JobDiagnostics::new(
+                        decoded.diagnostics.source.clone(),
+                        vec![*problem],
+                    );
                     refused(&name, &text, diagnostics.localized(&own_language), said);
                     return Err(Exit::InvalidInput);
                 }
@@ -329,7 +333,8 @@ pub fn photos(
 ) -> Result<Vec<crate::photo::PreparedPhoto>, Exit> {
     crate::photo::prepare(&loaded.decoded.job, job_file).map_err(|problems| {
         let name = job_name(job_file);
-        let diagnostics = job::JobDiagnostics::new(loaded.decoded.diagnostics.source.clone(), problems);
+        let diagnostics =
+            job::JobDiagnostics::new(loaded.decoded.diagnostics.source.clone(), problems);
         let diagnostics = diagnostics.localized(language(loaded.shop.as_ref()));
         refused(&name, &loaded.text, diagnostics, said);
         Exit::InvalidInput

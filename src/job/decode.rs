@@ -1495,7 +1495,7 @@ fn limit_or_default(
         return None;
     }
     let q = r.opt_prop_quantity(node, key, kind);
-    r.positive(q, &format!("`{key}`"), false).map(|q| q.value)
+    r.positive(q, format!("`{key}`"), false).map(|q| q.value)
 }
 
 /// The `accepted` block: findings the technician has judged and accepted,
@@ -1672,7 +1672,7 @@ fn remark(node: &KdlNode, r: &mut Reader) -> Option<Remark> {
     r.check_entries(node, &["private"], 1);
     r.no_children(node);
     let name = node.name().value();
-    let text = r.req_arg_string(node, &format!("`{name}`"), &format!("{name} \"…\""))?;
+    let text = r.req_arg_string(node, format!("`{name}`"), &format!("{name} \"…\""))?;
     let private = r.opt_prop_bool(node, "private").unwrap_or(false);
     Some(Remark {
         text: text.value,
@@ -1747,7 +1747,7 @@ pub(crate) fn decode_settings(
             }
             continue;
         }
-        let Some(p) = r.quantity(entry, Q::Percent, &format!("`{name}`")) else {
+        let Some(p) = r.quantity(entry, Q::Percent, format!("`{name}`")) else {
             continue;
         };
         if !(0.0..=200.0).contains(&p.value) {

@@ -534,7 +534,7 @@ impl<'s> Reader<'s> {
 
     pub fn opt_prop_string(&mut self, node: &KdlNode, key: &str) -> Option<String> {
         Self::prop(node, key)
-            .and_then(|e| self.string(e, &format!("`{key}`")))
+            .and_then(|e| self.string(e, format!("`{key}`")))
             .map(|s| s.value)
     }
 
@@ -569,15 +569,15 @@ impl<'s> Reader<'s> {
         key: &str,
         kind: QuantityKind,
     ) -> Option<Spanned<f64>> {
-        Self::prop(node, key).and_then(|e| self.quantity(e, kind, &format!("`{key}`")))
+        Self::prop(node, key).and_then(|e| self.quantity(e, kind, format!("`{key}`")))
     }
 
     pub fn opt_prop_bool(&mut self, node: &KdlNode, key: &str) -> Option<bool> {
-        Self::prop(node, key).and_then(|e| self.bool(e, &format!("`{key}`")))
+        Self::prop(node, key).and_then(|e| self.bool(e, format!("`{key}`")))
     }
 
     pub fn opt_prop_date(&mut self, node: &KdlNode, key: &str) -> Option<Spanned<NaiveDate>> {
-        Self::prop(node, key).and_then(|e| self.date(e, &format!("`{key}`")))
+        Self::prop(node, key).and_then(|e| self.date(e, format!("`{key}`")))
     }
 
     /// Rejects a value outside `lo..=hi`, a narrower range than its kind's

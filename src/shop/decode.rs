@@ -240,7 +240,7 @@ fn text(node: &KdlNode, r: &mut Reader) -> Option<String> {
     r.check_entries(node, &[], 1);
     r.no_children(node);
     let name = node.name().value();
-    r.req_arg_string(node, &format!("`{name}`"), &format!("{name} \"…\""))
+    r.req_arg_string(node, format!("`{name}`"), &format!("{name} \"…\""))
         .map(|s| s.value)
 }
 
@@ -304,7 +304,7 @@ fn decode_safety(node: &KdlNode, r: &mut Reader) -> SafetyDefaults {
         r.no_children(child);
         let limit = |r: &mut Reader, key: &str, kind: Q| {
             let q = r.opt_prop_quantity(child, key, kind);
-            r.positive(q, &format!("`{key}`"), false).map(|q| q.value)
+            r.positive(q, format!("`{key}`"), false).map(|q| q.value)
         };
         match child.name().value() {
             "earth-continuity" => {

@@ -41,7 +41,10 @@ pub struct DecodedShop {
 /// KDL or names none.
 pub fn named_language(text: &str) -> Option<String> {
     let doc = crate::kdl_fast::parse_document(text).ok()?;
-    let node = doc.nodes().iter().find(|n| n.name().value() == "language")?;
+    let node = doc
+        .nodes()
+        .iter()
+        .find(|n| n.name().value() == "language")?;
     match node.entries().iter().find(|e| e.name().is_none())?.value() {
         kdl::KdlValue::String(s) => Some(s.trim().to_owned()),
         _ => None,
