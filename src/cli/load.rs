@@ -60,15 +60,26 @@ impl LoadedShop {
 }
 
 pub fn job(args: &JobArgs) -> Result<Loaded, Exit> {
+    job_read_by(args, || read_job(&args.job), &job_name(&args.job))
+}
+
+/// Decodes the job text `read` gives, a job named `name` in messages (a
+/// file's path, or `REV:PATH` for one read from git), over the shop profile
+/// found for `args.job` and the ratings of `args` (both read first, so
+/// their problems come first).
+pub fn job_read_by(
+    args: &JobArgs,
+    read: impl FnOnce() -> Result<String, Exit>,
+    name: &str,
+) -> Result<Loaded, Exit> {
     let ratings = ratings(&args.ratings)?;
     let shop = shop_profile(args)?;
     let defaults = shop
         .as_ref()
         .map(|s| s.profile.defaults.clone())
         .unwrap_or_else(JobDefaults::default);
-    let text = read_job(&args.job)?;
-    let name = job_name(&args.job);
-    let decoded = match job::decode_with_defaults(&name, &text, &ratings, &defaults) {
+    let text = read()?;
+    let decoded = match job::decode_with_defaults(name, &text, &ratings, &defaults) {
         Ok(d) => d,
         Err(diagnostics) => {
             eprintln!("{:?}", miette::Report::new(diagnostics));

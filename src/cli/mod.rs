@@ -4,12 +4,14 @@
 pub mod args;
 mod calc;
 mod check;
+mod compare;
 pub mod completions;
 pub mod exit;
 mod init;
 mod load;
 pub mod man;
 mod netlist;
+mod new;
 mod render;
 mod tubes;
 pub mod ui;
@@ -72,6 +74,8 @@ pub fn main() -> ExitCode {
         args::Command::Completions(a) => completions::run(a),
         args::Command::Man(a) => man::run(a),
         args::Command::Netlist(a) => netlist::run(a),
+        args::Command::Compare(a) => compare::run(a),
+        args::Command::New(a) => new::run(a),
     };
     if let Exit::Interrupted(signal) = exit {
         crate::typeset::interrupt::exit_as_signalled(signal);

@@ -1,6 +1,9 @@
-//! `ampreport render JOB`: the PDF hand-over document. Reads and derives the
-//! job, finds typst, fills the template, optionally writes the generated
-//! source to a folder, and compiles the PDF atomically.
+//! `ampreport render JOB`: the PDF hand-over document, or with `--listing`
+//! the listing for a buyer (a PDF, and Markdown with its photos beside it).
+//! Reads and derives the job, finds typst, fills the template, optionally
+//! writes the generated source to a folder, and compiles the PDF
+//! atomically; the listing's Markdown and photos are written after the PDF,
+//! each atomically.
 //!
 //! Exit statuses: 1 when the job, a ratings file or a shop's own template
 //! (`--templates`) is at fault; 2 when the output or the `--emit-source`
@@ -14,12 +17,13 @@
 use std::io::IsTerminal;
 use std::path::{Path, PathBuf};
 
-use super::args::RenderArgs;
+use super::args::{RenderArgs, SerialArg};
 use super::exit::Exit;
 use super::{load, ui};
 use crate::calc;
 use crate::input_file::is_dash;
 use crate::report::handover::{self, HandoverError, HandoverInput};
+use crate::report::listing::{self, ListingInput, SerialShown};
 use crate::typeset::{
     self, CompileOptions, FontsUsed, Input, TemplateSource, TypesetError, TypstProgram, interrupt,
 };
@@ -54,7 +58,7 @@ pub fn run(args: &RenderArgs) -> Exit {
         ui::warn(warning);
     }
 
-    let templates = match template_source(args.templates.as_deref()) {
+    let templates = match template_source(args.templates.as_deref(), args.listing) {
         Ok(t) => t,
         Err(e) => return e,
     };
@@ -71,20 +75,65 @@ pub fn run(args: &RenderArgs) -> Exit {
         ui::warn(format!("warning: {warning}"));
     }
 
-    let input = HandoverInput {
-        job,
-        findings: &findings,
-        job_text: &loaded.text,
-        typst_version: program.version.to_string(),
-        shop: loaded.shop.as_ref().map(|s| &s.profile),
-        logo: loaded.shop.as_ref().and_then(|s| s.logo.as_ref()),
-        include_charges: !args.no_charges,
-        revision: findings.job.git.clone(),
-        photos: &photos,
-    };
-    let document = match handover::build(&input, &templates) {
-        Ok(d) => d,
-        Err(e) => return report_build_error(e),
+    let document = if args.listing {
+        let markdown_path = output.with_extension("md");
+        let input = ListingInput {
+            job,
+            findings: &findings,
+            job_text: &loaded.text,
+            typst_version: program.version.to_string(),
+            shop: loaded.shop.as_ref().map(|s| &s.profile),
+            logo: loaded.shop.as_ref().and_then(|s| s.logo.as_ref()),
+            serial: match args.serial {
+                SerialArg::Shown => SerialShown::Shown,
+                SerialArg::Masked => SerialShown::Masked,
+                SerialArg::Hidden => SerialShown::Hidden,
+            },
+            photos: &photos,
+            markdown_stem: markdown_path
+                .file_stem()
+                .map(|s| s.to_string_lossy().into_owned())
+                .unwrap_or_default(),
+        };
+        match listing::build(&input, &templates) {
+            Ok(d) => {
+                let folder = markdown_path.parent().unwrap_or(Path::new(""));
+                let mut extra: Vec<(PathBuf, Vec<u8>)> = d
+                    .photo_files
+                    .into_iter()
+                    .map(|(name, bytes)| (folder.join(name), bytes))
+                    .collect();
+                extra.push((markdown_path, d.markdown.into_bytes()));
+                Built {
+                    sandbox: d.sandbox,
+                    main: d.main,
+                    options: d.options,
+                    extra,
+                }
+            }
+            Err(e) => return report_build_error(e),
+        }
+    } else {
+        let input = HandoverInput {
+            job,
+            findings: &findings,
+            job_text: &loaded.text,
+            typst_version: program.version.to_string(),
+            shop: loaded.shop.as_ref().map(|s| &s.profile),
+            logo: loaded.shop.as_ref().and_then(|s| s.logo.as_ref()),
+            include_charges: !args.no_charges,
+            revision: findings.job.git.clone(),
+            photos: &photos,
+        };
+        match handover::build(&input, &templates) {
+            Ok(d) => Built {
+                sandbox: d.sandbox,
+                main: d.main,
+                options: d.options,
+                extra: Vec::new(),
+            },
+            Err(e) => return report_build_error(e),
+        }
     };
 
     let mut inputs = inputs_read(args, &program, loaded.shop.as_ref());
@@ -93,9 +142,18 @@ pub fn run(args: &RenderArgs) -> Exit {
             .iter()
             .map(|p| Input::new(&p.source, "a photo of the job")),
     );
-    if let Err(e) = typeset::check_output(&output, &inputs) {
-        eprintln!("{:?}", miette::Report::new(e));
+    if document.extra.iter().any(|(p, _)| *p == output) {
+        eprintln!(
+            "error: the listing's PDF {} would be written over by its own Markdown; name the PDF with .pdf",
+            output.display()
+        );
         return Exit::Usage;
+    }
+    for path in std::iter::once(&output).chain(document.extra.iter().map(|(p, _)| p)) {
+        if let Err(e) = typeset::check_output(path, &inputs) {
+            eprintln!("{:?}", miette::Report::new(e));
+            return Exit::Usage;
+        }
     }
 
     if let Some(dir) = &args.emit_source {
@@ -154,10 +212,28 @@ pub fn run(args: &RenderArgs) -> Exit {
             } else {
                 ui::wrote(format!("wrote {}", output.display()));
             }
+            // The listing's photos, then its Markdown: each file is written
+            // whole or not at all.
+            for (path, bytes) in &document.extra {
+                if let Err(e) = typeset::place(bytes, path) {
+                    return report_typeset_error(e, &templates, Some(path));
+                }
+                ui::wrote(format!("wrote {}", path.display()));
+            }
             Exit::Success
         }
         Err(e) => report_typeset_error(e, &templates, Some(&output)),
     }
+}
+
+/// A document ready to compile, and the files written beside it.
+struct Built {
+    sandbox: typeset::Sandbox,
+    main: &'static str,
+    options: CompileOptions,
+    /// Written after the PDF, in order: the listing's photos, then its
+    /// Markdown.
+    extra: Vec<(PathBuf, Vec<u8>)>,
 }
 
 /// Every path the render reads, for the output checks: an output may be
@@ -277,6 +353,11 @@ fn default_output(job: &Path) -> PathBuf {
     job.with_extension("pdf")
 }
 
+/// Beside the job file, same name, `.listing.pdf`.
+fn default_listing_output(job: &Path) -> PathBuf {
+    job.with_extension("listing.pdf")
+}
+
 /// Where the PDF goes: `-o FILE`, `-o -` (standard output, which must not
 /// be a terminal), else beside the job file; a job from standard input has
 /// no file to sit beside, so it needs `-o`.
@@ -289,6 +370,12 @@ fn output_path(args: &RenderArgs) -> Result<PathBuf, Exit> {
             );
             Err(Exit::Usage)
         }
+        Some(o) if is_dash(o) && args.listing => {
+            eprintln!(
+                "error: the listing is a PDF and Markdown beside it, so it needs a file: name it with `-o FILE.pdf`"
+            );
+            Err(Exit::Usage)
+        }
         Some(o) => Ok(o.clone()),
         None if is_dash(&args.job.job) => {
             eprintln!(
@@ -297,14 +384,20 @@ fn output_path(args: &RenderArgs) -> Result<PathBuf, Exit> {
             );
             Err(Exit::Usage)
         }
+        None if args.listing => Ok(default_listing_output(&args.job.job)),
         None => Ok(default_output(&args.job.job)),
     }
 }
 
 /// The built-in templates, overridden by `--templates DIR` when given.
-fn template_source(dir: Option<&Path>) -> Result<TemplateSource, Exit> {
-    let source = TemplateSource::embedded(handover::EMBEDDED_TEMPLATES);
-    for (name, _) in handover::EMBEDDED_TEMPLATES {
+fn template_source(dir: Option<&Path>, listing: bool) -> Result<TemplateSource, Exit> {
+    let embedded = if listing {
+        listing::EMBEDDED_TEMPLATES
+    } else {
+        handover::EMBEDDED_TEMPLATES
+    };
+    let source = TemplateSource::embedded(embedded);
+    for (name, _) in embedded {
         let shop = dir.map(|d| d.join(name)).filter(|p| p.is_file());
         match shop {
             Some(path) => ui::read("template", format!("{} (shop folder)", path.display())),

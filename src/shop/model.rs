@@ -29,6 +29,9 @@ pub struct ShopProfile {
     pub warranty: Option<Warranty>,
     /// Terms shown on the document.
     pub terms: Option<String>,
+    /// The pattern of the shop's job ids (`D-{yymm}-{nnn}`), checked; see
+    /// [`crate::job::numbering`].
+    pub job_numbers: Option<String>,
 }
 
 /// The page size of the document.

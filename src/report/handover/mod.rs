@@ -20,17 +20,17 @@ use sha2::{Digest, Sha256};
 pub use charges::{ChargeRow, ChargesContext, TaxRow, charges_context};
 pub use context::{
     AcceptedRow, AttentionContext, CapacitorRow, ContextInputs, CustomerInfo, DISSIPATION_PLOT,
-    DocumentInfo, EntryRow, Footer, Glance, GlanceRow, HandoverContext, HeaterRow, HistoryRow,
-    JobInfo, LineUpRow, MainsInfo, Method, ModFigureRow, ModRow, NodeRow, NotCheckedRow, PartRow,
-    Plots, RESPONSE_PLOT, RatingRow, RectifierRow, ResistorRow, SUPPLY_PLOT, SafetyContext,
-    SafetyRow, SetContext, SummaryContext, UnitInfo, ValveRow, WarmUpContext, WarmUpRow,
-    WindowReading, WindowRow, build_context, date_words, warm_up_plot,
+    DocumentInfo, EntryRow, FOOTER_ID_CHARS, Footer, Glance, GlanceRow, HandoverContext, HeaterRow,
+    HistoryRow, JobInfo, LineUpRow, MainsInfo, Method, ModFigureRow, ModRow, NodeRow,
+    NotCheckedRow, PartRow, Plots, RESPONSE_PLOT, RatingRow, RectifierRow, ResistorRow,
+    SUPPLY_PLOT, SafetyContext, SafetyRow, SetContext, SummaryContext, UnitInfo, ValveRow,
+    WarmUpContext, WarmUpRow, WindowReading, WindowRow, build_context, date_words, warm_up_plot,
 };
 pub use context::{
     BenchContext, GainRow, HumNoiseRow, NetworkRow, NetworkView, OscillatorRow, OscillatorView,
     OutputPowerRow, ResponsePointRow, ResponseRow, SuggestionOption, SuggestionRow,
 };
-// LISTING-REEXPORT
+pub(crate) use context::{glue_units, pct0, reflow, safety as safety_context, volts, yes_no};
 pub use shop_block::{AcceptanceBlock, ShopBlock, WarrantyInfo, acceptance, paper};
 
 use super::network_chart;
@@ -320,7 +320,7 @@ pub fn render_template(
 }
 
 /// A minijinja error with its place in the template and its causes.
-fn template_error_words(e: &minijinja::Error) -> String {
+pub(crate) fn template_error_words(e: &minijinja::Error) -> String {
     let mut words = e.to_string();
     if let (Some(name), Some(line)) = (e.name(), e.line()) {
         if !words.contains(&format!("line {line}")) {

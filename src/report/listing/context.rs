@@ -23,6 +23,8 @@ use crate::report::handover::{
 use crate::report::photos::PhotoRow;
 use crate::shop::ShopProfile;
 
+use super::words::{self, WORDS, Words, and_list};
+
 /// How the unit's serial number is shown.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Default, Serialize)]
 #[serde(rename_all = "snake_case")]
@@ -79,6 +81,8 @@ pub fn mask_serial(serial: &str) -> String {
 /// Everything the listing template is given (besides `font_rules`).
 #[derive(Debug, Clone, Serialize)]
 pub struct ListingContext {
+    /// The fixed headings and labels.
+    pub words: Words,
     pub document: DocumentInfo,
     pub shop: ShopBlock,
     pub unit: ListingUnit,
@@ -197,6 +201,14 @@ pub struct ListingFooter {
     pub uncommitted_changes: bool,
 }
 
+/// A listing photo as a file written beside the Markdown.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub struct PhotoFile {
+    /// Its name, beside the Markdown: `NAME.listing-photo-1.jpg`.
+    pub file_name: String,
+    pub caption: Option<String>,
+}
+
 /// Inputs of [`build_context`] that do not come from the job.
 #[derive(Debug, Clone)]
 pub struct ListingInputs<'a> {
@@ -209,15 +221,6 @@ pub struct ListingInputs<'a> {
     pub revision: Option<&'a crate::git::Revision>,
     /// The photos marked for the listing.
     pub photos: Vec<PhotoRow>,
-}
-
-/// "a, b and c".
-fn and_list(items: &[String]) -> String {
-    match items {
-        [] => String::new(),
-        [one] => one.clone(),
-        [rest @ .., last] => format!("{} and {last}", rest.join(", ")),
-    }
 }
 
 /// A family's row: its state as calc left it, and words that never carry
@@ -235,16 +238,13 @@ fn family_row(f: &FamilyStatus) -> FamilyRow {
         (f.status.word().to_string(), f.worst.clone())
     } else if !accepted.is_empty() {
         (
-            "accepted".to_string(),
-            format!(
-                "inside the limits, apart from what the technician judged acceptable: {}",
-                and_list(&accepted)
-            ),
+            words::STATE_ACCEPTED.to_string(),
+            words::accepted_only(&and_list(&accepted)),
         )
     } else if f.measured {
-        ("ok".to_string(), f.worst.clone())
+        (words::STATE_OK.to_string(), f.worst.clone())
     } else {
-        ("not measured".to_string(), f.worst.clone())
+        (words::STATE_NOT_MEASURED.to_string(), f.worst.clone())
     };
     FamilyRow {
         title: f.title.to_string(),
@@ -264,37 +264,24 @@ fn health(job: &Job, findings: &Findings) -> Health {
     let accepted: usize = findings.at_a_glance.iter().map(|f| f.accepted.len()).sum();
     let healthy = final_set.is_some() && open.is_empty();
     let headline = match final_set {
-        None => "No measurements were recorded for this service.".to_string(),
-        Some(_) if open.is_empty() => format!(
-            "As it left the bench, every figure measured is inside its limits{}.",
-            match accepted {
-                0 => String::new(),
-                1 => ", apart from one the technician judged acceptable".to_string(),
-                n => format!(", apart from {n} the technician judged acceptable"),
-            }
-        ),
+        None => words::NO_MEASUREMENTS.to_string(),
+        Some(_) if open.is_empty() => words::all_inside(accepted),
         Some(_) => {
-            let titles: Vec<String> = open
-                .iter()
-                .map(|f| f.title.to_lowercase())
-                .collect::<Vec<_>>();
-            format!(
-                "As it left the bench, still needing attention: {}.",
-                and_list(&titles)
-            )
+            let titles: Vec<String> = open.iter().map(|f| f.title.to_lowercase()).collect();
+            words::needs_attention(&and_list(&titles))
         }
     };
     let basis = final_set.map(|set| {
-        let mut words = format!("Readings \u{201c}{}\u{201d}", set.label);
+        let mut said = words::readings(&set.label);
         if let Some(d) = set
             .date
             .as_deref()
             .and_then(|d| chrono::NaiveDate::parse_from_str(d, "%Y-%m-%d").ok())
         {
-            words.push_str(&format!(", {}", date_words(d)));
+            said.push_str(&format!(", {}", date_words(d)));
         }
-        words.push_str(&format!(", at {} mains", volts(set.mains_volts)));
-        glue_units(&words)
+        said.push_str(&words::at_mains(&volts(set.mains_volts)));
+        glue_units(&said)
     });
     let valves = final_set
         .map(|set| {
@@ -302,7 +289,10 @@ fn health(job: &Job, findings: &Findings) -> Health {
                 .iter()
                 .filter(|v| v.is_output)
                 .map(|v| ValveHealthRow {
-                    position: v.position.clone(),
+                    position: match &v.channel {
+                        Some(channel) => format!("{} ({channel})", v.position),
+                        None => v.position.clone(),
+                    },
                     type_name: v.valve_type.clone(),
                     bias: v.bias.clone(),
                     idle_pct: v.plate_dissipation_pct.map(pct0),
@@ -333,43 +323,34 @@ fn ledger(job: &Job) -> Ledger {
         .iter()
         .map(|p| LedgerRow {
             item: part_words(p),
-            change: "replaced".into(),
+            change: words::CHANGE_REPLACED.into(),
             reversible: None,
             original_kept: yes_no(p.original_kept),
             why: None,
         })
         .collect();
-    rows.extend(job.mods.iter().map(|m| LedgerRow {
-        item: glue_units(&reflow(&m.what)),
-        change: "modified".into(),
-        reversible: yes_no(m.reversible),
-        original_kept: yes_no(m.original_kept),
-        why: m
-            .why
-            .as_deref()
-            .filter(|_| !m.private)
-            .map(|w| glue_units(&reflow(w))),
+    rows.extend(job.mods.iter().map(|m| {
+        LedgerRow {
+            item: glue_units(&reflow(&m.what)),
+            change: words::CHANGE_MODIFIED.into(),
+            reversible: yes_no(m.reversible),
+            original_kept: yes_no(m.original_kept),
+            why: m
+                .why
+                .as_deref()
+                .filter(|_| !m.private)
+                .map(|w| glue_units(&reflow(w))),
+        }
     }));
-    let mut said = Vec::new();
-    match job.parts.len() {
-        0 => said.push("no parts replaced".to_string()),
-        1 => said.push("1 part replaced".to_string()),
-        n => said.push(format!("{n} parts replaced")),
-    }
-    let reversible = job.mods.iter().filter(|m| m.reversible == Some(true)).count();
-    match job.mods.len() {
-        0 => said.push("no modifications".to_string()),
-        n => said.push(format!(
-            "{n} modification{} ({})",
-            if n == 1 { "" } else { "s" },
-            match (reversible, n) {
-                (r, n) if r == n && n == 1 => "reversible".to_string(),
-                (r, n) if r == n => "all reversible".to_string(),
-                (0, _) => "not stated as reversible".to_string(),
-                (r, _) => format!("{r} reversible"),
-            }
-        )),
-    }
+    let reversible = job
+        .mods
+        .iter()
+        .filter(|m| m.reversible == Some(true))
+        .count();
+    let mut said = vec![
+        words::parts_replaced(job.parts.len()),
+        words::modifications(job.mods.len(), reversible),
+    ];
     let kept: Vec<String> = job
         .parts
         .iter()
@@ -383,7 +364,7 @@ fn ledger(job: &Job) -> Ledger {
         )
         .collect();
     if !kept.is_empty() {
-        said.push(format!("original parts kept: {}", kept.join("; ")));
+        said.push(words::originals_kept(&kept.join("; ")));
     }
     let mut summary = said.join("; ");
     if let Some(first) = summary.get(..1) {
@@ -422,13 +403,12 @@ pub fn build_context(job: &Job, findings: &Findings, inputs: &ListingInputs<'_>)
         mains.push_str(&format!(" {} Hz", crate::units::format_sig(f, 3)));
     }
     ListingContext {
+        words: WORDS,
         document: DocumentInfo {
-            title: format!("Condition report: {name}"),
+            title: words::title(&name),
             author: inputs.shop.name.clone(),
             authors,
-            description: format!(
-                "Condition and service summary of a {name}, for a listing"
-            ),
+            description: words::description(&name),
             paper: paper(inputs.profile, job).typst_name().to_string(),
         },
         shop: inputs.shop.clone(),
@@ -440,11 +420,7 @@ pub fn build_context(job: &Job, findings: &Findings, inputs: &ListingInputs<'_>)
             description: unit.description.as_deref().map(reflow),
             condition: unit.condition.as_deref().map(reflow),
         },
-        date: job
-            .info
-            .completed
-            .or(job.info.received)
-            .map(date_words),
+        date: job.info.completed.or(job.info.received).map(date_words),
         job_id: job.info.id.clone(),
         mains: glue_units(&mains),
         health: health(job, findings),

@@ -10,9 +10,10 @@ use super::notice::notice;
 /// Characters that can start or end Markdown (CommonMark and the usual
 /// extensions: tables, strikethrough, footnotes, maths, attributes)
 /// anywhere in a line; a backslash makes each literal.
+/// (Parentheses and quotes only mean something inside a link, and no
+/// link can start without a `[` or a `<`, which are always escaped.)
 const ALWAYS: &[char] = &[
-    '\\', '`', '*', '_', '[', ']', '<', '>', '#', '|', '~', '!', '&', '{', '}', '(', ')', '$', '^',
-    '"',
+    '\\', '`', '*', '_', '[', ']', '<', '>', '#', '|', '~', '!', '&', '{', '}', '$', '^',
 ];
 
 /// Escapes one line of text: runs of white space (line breaks included)
@@ -47,7 +48,13 @@ fn escape_line(line: &str) -> String {
     let lead = out.chars().next();
     if matches!(lead, Some('-' | '+' | '=')) {
         out.insert(0, '\\');
-    } else if digits > 0 && matches!(out[digits..].chars().next(), Some('.' | ')')) {
+    } else if digits > 0
+        && matches!(out[digits..].chars().next(), Some('.' | ')'))
+        && out[digits + 1..]
+            .chars()
+            .next()
+            .is_none_or(char::is_whitespace)
+    {
         out.insert(digits, '\\');
     }
     out
@@ -74,35 +81,37 @@ pub fn render(ctx: &ListingContext, photos: &[PhotoFile]) -> String {
     }
     md.push(format!("# {title}"));
     md.push(String::new());
-    let mut by = vec![format!("Serviced by {}", inline(&ctx.shop.name))];
+    let w = &ctx.words;
+    let mut by = vec![format!("{} {}", w.serviced_by, inline(&ctx.shop.name))];
     if let Some(d) = &ctx.date {
         by.push(inline(d));
     }
-    by.push(format!("service record {}", inline(&ctx.job_id)));
+    by.push(format!("{} {}", w.service_record, inline(&ctx.job_id)));
     md.push(by.join(" · "));
     md.push(String::new());
 
-    md.push("## The unit".into());
+    md.push(format!("## {}", w.the_unit));
     md.push(String::new());
-    md.push(format!("- **Make:** {}", inline(&u.make)));
-    md.push(format!("- **Model:** {}", inline(&u.model)));
+    let field = |label: &str, value: &str| format!("- **{label}:** {}", inline(value));
+    md.push(field(w.make, &u.make));
+    md.push(field(w.model, &u.model));
     if let Some(y) = &u.year {
-        md.push(format!("- **Year:** {}", inline(y)));
+        md.push(field(w.year, y));
     }
     if let Some(s) = &u.serial {
-        md.push(format!("- **Serial:** {}", inline(s)));
+        md.push(field(w.serial, s));
     }
-    md.push(format!("- **Mains:** {}", inline(&ctx.mains)));
+    md.push(field(w.mains, &ctx.mains));
     if let Some(d) = &u.description {
-        md.push(format!("- **Description:** {}", inline(d)));
+        md.push(field(w.description, d));
     }
     if let Some(c) = &u.condition {
-        md.push(format!("- **Condition:** {}", inline(c)));
+        md.push(field(w.condition, c));
     }
     md.push(String::new());
 
     let h = &ctx.health;
-    md.push("## Health as it left the bench".into());
+    md.push(format!("## {}", w.health));
     md.push(String::new());
     md.push(inline(&h.headline));
     if let Some(b) = &h.basis {
@@ -110,7 +119,7 @@ pub fn render(ctx: &ListingContext, photos: &[PhotoFile]) -> String {
         md.push(format!("*{}.*", inline(b)));
     }
     md.push(String::new());
-    md.push(row(&["Check".into(), "State".into(), "In words".into()]));
+    md.push(row(&[w.check.into(), w.state.into(), w.in_words.into()]));
     md.push("| --- | --- | --- |".into());
     for f in &h.families {
         md.push(row(&[inline(&f.title), inline(&f.state), inline(&f.words)]));
@@ -118,12 +127,12 @@ pub fn render(ctx: &ListingContext, photos: &[PhotoFile]) -> String {
     md.push(String::new());
     if !h.valves.is_empty() {
         md.push(row(&[
-            "Output valve".into(),
-            "Type".into(),
-            "Bias".into(),
-            "Idle, % of plate rating".into(),
-            "At high line".into(),
-            "State".into(),
+            w.output_valve.into(),
+            w.valve_type.into(),
+            w.bias.into(),
+            w.idle.into(),
+            w.high_line.into(),
+            w.state.into(),
         ]));
         md.push("| --- | --- | --- | ---: | ---: | --- |".into());
         for v in &h.valves {
@@ -145,9 +154,9 @@ pub fn render(ctx: &ListingContext, photos: &[PhotoFile]) -> String {
         md.push(String::new());
     }
     if h.safety.tests.is_empty() {
-        md.push("No electrical safety tests were recorded.".into());
+        md.push(w.no_safety_tests.into());
     } else {
-        let mut head = "Electrical safety tests".to_string();
+        let mut head = w.safety_tests.to_string();
         if let Some(c) = &h.safety.class {
             head.push_str(&format!(", {}", inline(c)));
         }
@@ -158,9 +167,10 @@ pub fn render(ctx: &ListingContext, photos: &[PhotoFile]) -> String {
         md.push(String::new());
         for t in &h.safety.tests {
             md.push(format!(
-                "- {}: {} (limit {}), {}",
+                "- {}: {} ({} {}), {}",
                 inline(&t.test),
                 inline(&t.measured),
+                w.limit,
                 inline(&t.limit),
                 inline(if t.status == "accepted" {
                     "accepted"
@@ -172,12 +182,17 @@ pub fn render(ctx: &ListingContext, photos: &[PhotoFile]) -> String {
     }
     md.push(String::new());
 
-    md.push("## What was serviced".into());
+    md.push(format!("## {}", w.serviced));
     md.push(String::new());
     if ctx.serviced.is_empty() {
-        md.push("No parts were replaced.".into());
+        md.push(w.no_parts.into());
     } else {
-        md.push(row(&["Part".into(), "Was".into(), "Now".into(), "Why".into()]));
+        md.push(row(&[
+            w.part.into(),
+            w.was.into(),
+            w.now.into(),
+            w.why.into(),
+        ]));
         md.push("| --- | --- | --- | --- |".into());
         for s in &ctx.serviced {
             md.push(row(&[
@@ -188,7 +203,7 @@ pub fn render(ctx: &ListingContext, photos: &[PhotoFile]) -> String {
             ]));
         }
     }
-    for (label, text) in [("Findings", &ctx.findings), ("Work done", &ctx.work)] {
+    for (label, text) in [(w.findings, &ctx.findings), (w.work, &ctx.work)] {
         if let Some(t) = text {
             md.push(String::new());
             md.push(format!("**{label}:** {}", paragraphs(t)));
@@ -196,14 +211,14 @@ pub fn render(ctx: &ListingContext, photos: &[PhotoFile]) -> String {
     }
     md.push(String::new());
 
-    md.push("## Originality".into());
+    md.push(format!("## {}", w.originality));
     md.push(String::new());
     if !ctx.ledger.rows.is_empty() {
         md.push(row(&[
-            "Item".into(),
-            "Change".into(),
-            "Reversible".into(),
-            "Original kept".into(),
+            w.item.into(),
+            w.change.into(),
+            w.reversible.into(),
+            w.original_kept.into(),
         ]));
         md.push("| --- | --- | --- | --- |".into());
         for r in &ctx.ledger.rows {
@@ -222,14 +237,11 @@ pub fn render(ctx: &ListingContext, photos: &[PhotoFile]) -> String {
     }
     md.push(inline(&ctx.ledger.summary));
     md.push(String::new());
-    md.push(
-        "Anything not listed was not changed in this service; whether it is the maker's original was not checked."
-            .into(),
-    );
+    md.push(inline(w.not_listed));
     md.push(String::new());
 
     if !ctx.notes.is_empty() {
-        md.push("## Notes".into());
+        md.push(format!("## {}", w.notes));
         md.push(String::new());
         for n in &ctx.notes {
             md.push(format!("- {}", inline(n)));
@@ -238,13 +250,16 @@ pub fn render(ctx: &ListingContext, photos: &[PhotoFile]) -> String {
     }
 
     if !photos.is_empty() {
-        md.push("## Photos".into());
+        md.push(format!("## {}", w.photos));
         md.push(String::new());
         for p in photos {
             let caption = p.caption.as_deref().map(inline).unwrap_or_default();
             // The file name is the program's own (`NAME.listing-photo-1.jpg`
             // beside this file), escaped all the same.
-            md.push(format!("![{caption}](<{}>)", p.file_name.replace(['<', '>'], "")));
+            md.push(format!(
+                "![{caption}](<{}>)",
+                p.file_name.replace(['<', '>'], "")
+            ));
             if !caption.is_empty() {
                 md.push(String::new());
                 md.push(format!("*{caption}*"));
@@ -260,24 +275,30 @@ pub fn render(ctx: &ListingContext, photos: &[PhotoFile]) -> String {
         md.push(format!("- **{}.** {}", inline(title), inline(body)));
     }
     md.push(String::new());
-    md.push(format!("**{}** {}", inline(&n.codes_lead), inline(&n.codes_rest)));
+    md.push(format!(
+        "**{}** {}",
+        inline(&n.codes_lead),
+        inline(&n.codes_rest)
+    ));
     md.push(String::new());
     let mut tail = format!(
-        "Made with ampreport {} from service record {}",
+        "{} {} · {} {}",
+        w.made_with,
         inline(&ctx.footer.tool_version),
+        w.service_record,
         inline(&ctx.job_id)
     );
     match &ctx.footer.commit {
         Some(c) => {
-            tail.push_str(&format!(" (commit {}", inline(c)));
+            tail.push_str(&format!(" · {} `{}`", w.commit, c.replace('`', "")));
             if ctx.footer.uncommitted_changes {
-                tail.push_str(" + edits");
+                tail.push_str(&format!(" {}", inline(w.edits)));
             }
-            tail.push(')');
         }
         None => tail.push_str(&format!(
-            " (job file SHA-256 {})",
-            inline(&ctx.footer.job_digest)
+            " · {} `{}`",
+            w.job_file_sha,
+            ctx.footer.job_digest.replace('`', "")
         )),
     }
     tail.push('.');
@@ -292,12 +313,20 @@ mod tests {
     use super::*;
     use pulldown_cmark::{Event, Options, Parser};
 
+    /// Every extension the parser knows, less smart punctuation (which
+    /// turns `--` into a dash: the same words to a reader).
+    fn options() -> Options {
+        let mut o = Options::all();
+        o.remove(Options::ENABLE_SMART_PUNCTUATION);
+        o
+    }
+
     /// What a Markdown renderer makes of `md` as text, and whether it made
     /// anything but text of it.
     fn read_back(md: &str) -> (String, Vec<String>) {
         let mut text = String::new();
         let mut other = Vec::new();
-        for event in Parser::new_ext(md, Options::all()) {
+        for event in Parser::new_ext(md, options()) {
             match event {
                 Event::Text(t) => text.push_str(&t),
                 Event::SoftBreak => text.push(' '),
@@ -338,7 +367,7 @@ mod tests {
             assert!(other.is_empty(), "{s:?} became {other:?}");
             // In a table cell, the row keeps its cells.
             let table = format!("| a | b |\n| --- | --- |\n| {escaped} | x |\n");
-            let cells = Parser::new_ext(&table, Options::all())
+            let cells = Parser::new_ext(&table, options())
                 .filter(|e| matches!(e, Event::Start(pulldown_cmark::Tag::TableCell)))
                 .count();
             assert_eq!(cells, 4, "{s:?} broke the table");

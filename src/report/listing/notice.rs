@@ -56,7 +56,11 @@ pub fn notice_from(source: &str) -> Option<Notice> {
             let (body, _) = bracketed(line, next)?;
             points.push((title.to_string(), body.to_string()));
         } else if let Some(at) = line.find("tracking: 0.1em)[") {
-            heading = Some(bracketed(line, at + "tracking: 0.1em)".len())?.0.to_string());
+            heading = Some(
+                bracketed(line, at + "tracking: 0.1em)".len())?
+                    .0
+                    .to_string(),
+            );
         } else if let Some(at) = line.find("text(weight: \"bold\")[") {
             codes_lead = Some(
                 bracketed(line, at + "text(weight: \"bold\")".len())?
