@@ -1228,11 +1228,9 @@ fn numbered_folder() -> (tempfile::TempDir, String) {
     let shop = std::fs::read_to_string(demo_dir().join("shop.kdl"))
         .unwrap()
         .replace("logo \"larkmoor-logo.svg\"", "");
-    std::fs::write(
-        dir.path().join("shop.kdl"),
-        format!("{shop}\njob-numbers \"T-{{yymm}}-{{nn}}\"\n"),
-    )
-    .unwrap();
+    assert!(shop.contains("job-numbers \"D-{yymm}-{nnn}\""));
+    let shop = shop.replace("D-{yymm}-{nnn}", "T-{yymm}-{nn}");
+    std::fs::write(dir.path().join("shop.kdl"), shop).unwrap();
     let period = chrono::Local::now().format("%y%m").to_string();
     let demo = std::fs::read_to_string(demo_dir().join("combo-6v6-fixed.kdl")).unwrap();
     let demo_id = "D-2611-022";

@@ -48,42 +48,9 @@ pub const SET_TABLES: &[(&str, &str, &[&str])] = &[
             "status",
         ],
     ),
-    (
-        "droppers",
-        "reference",
-        &[
-            "voltage_volts",
-            "current_ma",
-            "power_w",
-            "power_pct",
-            "high_line_power_pct",
-            "status",
-        ],
-    ),
-    (
-        "cathode_resistors",
-        "reference",
-        &[
-            "voltage_volts",
-            "current_ma",
-            "power_w",
-            "power_pct",
-            "high_line_power_pct",
-            "status",
-        ],
-    ),
-    (
-        "screen_resistors",
-        "reference",
-        &[
-            "voltage_volts",
-            "current_ma",
-            "power_w",
-            "power_pct",
-            "high_line_power_pct",
-            "status",
-        ],
-    ),
+    ("droppers", "reference", RESISTOR_FIGURES),
+    ("cathode_resistors", "reference", RESISTOR_FIGURES),
+    ("screen_resistors", "reference", RESISTOR_FIGURES),
     (
         "filter_capacitors",
         "reference",
@@ -94,6 +61,16 @@ pub const SET_TABLES: &[(&str, &str, &[&str])] = &[
         "label",
         &["measured_volts", "deviation_pct", "status"],
     ),
+];
+
+/// The figures compared for a stressed resistor.
+const RESISTOR_FIGURES: &[&str] = &[
+    "voltage_volts",
+    "current_ma",
+    "power_w",
+    "power_pct",
+    "high_line_power_pct",
+    "status",
 ];
 
 /// The safety tests compared: the field naming one and the figures.

@@ -301,17 +301,28 @@ pub fn render_template(
     context: &HandoverContext,
     templates: &TemplateSource,
 ) -> Result<String, HandoverError> {
+    fill_template(TEMPLATE_NAME, context, templates)
+}
+
+/// Fills the template `name` (built in, or from a `--templates` folder)
+/// with `context` and `font_rules`; shared by the hand-over and the
+/// listing.
+pub(crate) fn fill_template(
+    name: &str,
+    context: &impl serde::Serialize,
+    templates: &TemplateSource,
+) -> Result<String, HandoverError> {
     let from_override = templates
         .override_dir
         .as_ref()
-        .is_some_and(|d| d.join(TEMPLATE_NAME).is_file());
+        .is_some_and(|d| d.join(name).is_file());
     let env = template_environment(templates.clone());
     let fail = |e: minijinja::Error| HandoverError::Template {
-        name: TEMPLATE_NAME.to_string(),
+        name: name.to_string(),
         detail: template_error_words(&e),
         from_override,
     };
-    let template = env.get_template(TEMPLATE_NAME).map_err(fail)?;
+    let template = env.get_template(name).map_err(fail)?;
     let ctx = minijinja::context! {
         font_rules => typst_markup(font_rules()),
         ..Value::from_serialize(context)

@@ -15,8 +15,6 @@ mod markdown;
 mod notice;
 pub mod words;
 
-use minijinja::Value;
-
 pub use context::{
     FamilyRow, Health, Ledger, LedgerRow, ListingContext, ListingFooter, ListingInputs,
     ListingUnit, PhotoFile, SerialShown, ServicedRow, ValveHealthRow, build_context, mask_serial,
@@ -29,12 +27,10 @@ use crate::job::Job;
 use crate::photo::PreparedPhoto;
 use crate::report::handover::{
     HandoverError, MAIN_SOURCE, NOTICE_INCLUDE, NOTICE_SOURCE, NOTICE_TEXT, ShopBlock,
-    creation_date, job_digest, notice_required, template_error_words,
+    creation_date, fill_template, job_digest, notice_required,
 };
 use crate::shop::{Logo, ShopProfile};
-use crate::typeset::{
-    CompileOptions, Sandbox, TemplateSource, font_rules, template_environment, typst_markup,
-};
+use crate::typeset::{CompileOptions, Sandbox, TemplateSource};
 
 /// The template the listing is rendered from.
 pub const TEMPLATE_NAME: &str = "listing.typ";
@@ -164,16 +160,5 @@ pub fn render_template(
     context: &ListingContext,
     templates: &TemplateSource,
 ) -> Result<String, HandoverError> {
-    let env = template_environment(templates.clone());
-    let fail = |e: minijinja::Error| HandoverError::Template {
-        name: TEMPLATE_NAME.to_string(),
-        detail: template_error_words(&e),
-        from_override: from_override(templates),
-    };
-    let template = env.get_template(TEMPLATE_NAME).map_err(fail)?;
-    let ctx = minijinja::context! {
-        font_rules => typst_markup(font_rules()),
-        ..Value::from_serialize(context)
-    };
-    template.render(ctx).map_err(fail)
+    fill_template(TEMPLATE_NAME, context, templates)
 }
