@@ -6,6 +6,7 @@
 //! [`typeset`] runs the `typst` command. [`cli`] ties them to the command line.
 
 pub mod calc;
+pub mod catalogue;
 pub mod cli;
 pub mod folders;
 pub mod git;

@@ -4,6 +4,7 @@ use super::args::{CheckArgs, StrictSets};
 use super::exit::Exit;
 use super::load;
 use crate::calc::{self, StrictScope};
+use crate::catalogue::Catalogue;
 use crate::report::terminal::{self, TerminalStyle};
 
 pub fn run(args: &CheckArgs) -> Exit {
@@ -14,6 +15,10 @@ pub fn run(args: &CheckArgs) -> Exit {
     let findings = calc::derive(&loaded.decoded.job, &loaded.ratings);
     let style = TerminalStyle {
         colour: colour_wanted(),
+        catalogue: loaded
+            .shop
+            .as_ref()
+            .map_or_else(|| Catalogue::english().clone(), |s| s.catalogue.clone()),
     };
     print!(
         "{}",

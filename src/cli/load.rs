@@ -9,6 +9,7 @@ use std::path::{Path, PathBuf};
 use super::args::JobArgs;
 use super::exit::Exit;
 use super::ui;
+use crate::catalogue::Catalogue;
 use crate::input_file::{STDIN_NAME, is_dash};
 use crate::job::{self, Decoded, JobDefaults};
 use crate::ratings::RatingsTable;
@@ -46,11 +47,17 @@ pub struct Loaded {
     pub ratings: RatingsTable,
 }
 
-/// A decoded shop profile, where it was found, and its checked logo.
+/// A decoded shop profile, where it was found, its checked logo and the
+/// catalogue of its language.
 pub struct LoadedShop {
     pub profile: ShopProfile,
     pub found: Found,
     pub logo: Option<Logo>,
+    /// The fixed words in the profile's language (English when it names
+    /// none).
+    pub catalogue: Catalogue,
+    /// The translation file read, if the profile names one.
+    pub translation: Option<PathBuf>,
 }
 
 impl LoadedShop {
@@ -234,10 +241,48 @@ pub fn shop_profile(args: &JobArgs) -> Result<Option<LoadedShop>, Exit> {
     if let Some(logo) = &logo {
         ui::read("shop logo", logo.source.display());
     }
+    let (catalogue, translation) = match &decoded.profile.language {
+        Some(language) => match shop::read_translation(&path, language) {
+            Ok(c) => {
+                if let Some(f) = &language.file {
+                    ui::read(
+                        "translation",
+                        path.parent()
+                            .unwrap_or(Path::new("."))
+                            .join(f.value.trim())
+                            .display(),
+                    );
+                }
+                (
+                    c,
+                    language
+                        .file
+                        .as_ref()
+                        .map(|f| path.parent().unwrap_or(Path::new(".")).join(f.value.trim())),
+                )
+            }
+            Err(shop::TranslationError::Profile(problem)) => {
+                let diagnostics = job::JobDiagnostics {
+                    source: decoded.diagnostics.source.clone(),
+                    problems: vec![*problem],
+                    not_shown: Default::default(),
+                };
+                eprintln!("{:?}", miette::Report::new(diagnostics));
+                return Err(Exit::InvalidInput);
+            }
+            Err(shop::TranslationError::File(diagnostics)) => {
+                eprintln!("{:?}", miette::Report::new(*diagnostics));
+                return Err(Exit::InvalidInput);
+            }
+        },
+        None => (Catalogue::english().clone(), None),
+    };
     Ok(Some(LoadedShop {
         profile: decoded.profile,
         found,
         logo,
+        catalogue,
+        translation,
     }))
 }
 

@@ -21,6 +21,7 @@ use super::args::{RenderArgs, SerialArg};
 use super::exit::Exit;
 use super::{load, ui};
 use crate::calc;
+use crate::catalogue::Catalogue;
 use crate::input_file::is_dash;
 use crate::report::handover::{self, HandoverError, HandoverInput};
 use crate::report::listing::{self, ListingInput, SerialShown};
@@ -75,6 +76,10 @@ pub fn run(args: &RenderArgs) -> Exit {
         ui::warn(format!("warning: {warning}"));
     }
 
+    let catalogue = loaded
+        .shop
+        .as_ref()
+        .map_or(Catalogue::english(), |s| &s.catalogue);
     let document = if args.listing {
         let markdown_path = output.with_extension("md");
         let input = ListingInput {
@@ -84,6 +89,7 @@ pub fn run(args: &RenderArgs) -> Exit {
             typst_version: program.version.to_string(),
             shop: loaded.shop.as_ref().map(|s| &s.profile),
             logo: loaded.shop.as_ref().and_then(|s| s.logo.as_ref()),
+            catalogue,
             serial: match args.serial {
                 SerialArg::Shown => SerialShown::Shown,
                 SerialArg::Masked => SerialShown::Masked,
@@ -122,6 +128,7 @@ pub fn run(args: &RenderArgs) -> Exit {
             shop: loaded.shop.as_ref().map(|s| &s.profile),
             logo: loaded.shop.as_ref().and_then(|s| s.logo.as_ref()),
             include_charges: !args.no_charges,
+            catalogue,
             revision: findings.job.git.clone(),
             photos: &photos,
         };
@@ -260,6 +267,9 @@ fn inputs_read(
         inputs.push(Input::new(shop.path(), "the shop profile"));
         if let Some(logo) = &shop.logo {
             inputs.push(Input::new(&logo.source, "the shop's logo"));
+        }
+        if let Some(translation) = &shop.translation {
+            inputs.push(Input::new(translation, "the shop's translation file"));
         }
     }
     inputs.push(Input::new(&program.path, "the typst program"));

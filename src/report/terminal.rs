@@ -5,12 +5,39 @@
 use super::attention::{self, Attention};
 use super::table::{Align, TextTable};
 use crate::calc::{Findings, SetFindings, Status, ValveFindings, Verdict};
+use crate::catalogue::{Arg, Catalogue};
 use crate::job::Job;
 use crate::units::{QuantityKind as Q, format_engineering, format_fixed};
 
 /// Options for the summary.
 pub struct TerminalStyle {
     pub colour: bool,
+    /// The fixed words, in the shop's language.
+    pub catalogue: Catalogue,
+}
+
+impl TerminalStyle {
+    /// A message of the catalogue.
+    fn t(&self, key: &str) -> String {
+        self.catalogue.text(key)
+    }
+
+    /// A message of the catalogue with its arguments.
+    fn f(&self, key: &str, args: &[(&str, String)]) -> String {
+        let args: Vec<(&str, Arg)> = args.iter().map(|(k, v)| (*k, Arg::from(v))).collect();
+        self.catalogue.format(key, &args)
+    }
+
+    /// A table whose headers are messages of the catalogue.
+    fn table(&self, columns: &[(&str, Align)]) -> TextTable {
+        let words: Vec<String> = columns.iter().map(|(k, _)| self.t(k)).collect();
+        let headers: Vec<(&str, Align)> = words
+            .iter()
+            .zip(columns)
+            .map(|(w, (_, a))| (w.as_str(), *a))
+            .collect();
+        TextTable::new(&headers)
+    }
 }
 
 fn paint(style: &TerminalStyle, status: Status, text: &str) -> String {
@@ -36,37 +63,33 @@ fn bold(style: &TerminalStyle, text: &str) -> String {
 
 /// The status word as shown in the terminal: upper case when not ok, so it
 /// stands out without colour.
-pub fn status_word(s: Status) -> String {
-    match s {
-        Status::Ok => "ok".to_string(),
-        other => other.word().to_uppercase(),
-    }
+pub fn status_word(s: Status, catalogue: &Catalogue) -> String {
+    state_word(s.word(), catalogue)
 }
 
-/// A state word ("ok", "caution", "accepted" …) as shown in the terminal.
-fn state_word(state: &str) -> String {
-    match state {
-        "ok" => "ok".to_string(),
-        "accepted" => "accepted".to_string(),
-        other => other.to_uppercase(),
-    }
+/// A state word ("ok", "caution", "accepted" …) as shown in the terminal
+/// (`term-state-…` in the catalogue; upper case for a state it lacks).
+fn state_word(state: &str, catalogue: &Catalogue) -> String {
+    catalogue
+        .try_format(&format!("term-state-{state}"), &[])
+        .unwrap_or_else(|| state.to_uppercase())
 }
 
 /// A table's status cell: the state and, when not ok, why.
-fn status_cell(state: &str, why: &str) -> String {
+fn status_cell(state: &str, why: &str, style: &TerminalStyle) -> String {
     if why.is_empty() || state == "ok" {
-        state_word(state)
+        state_word(state, &style.catalogue)
     } else {
-        format!("{} ({why})", state_word(state))
+        format!("{} ({why})", state_word(state, &style.catalogue))
     }
 }
 
-fn verdict_cell(v: &Verdict) -> String {
-    status_cell(attention::state(v), &attention::why(v))
+fn verdict_cell(v: &Verdict, style: &TerminalStyle) -> String {
+    status_cell(attention::state(v), &attention::why(v), style)
 }
 
-fn valve_cell(v: &ValveFindings) -> String {
-    status_cell(attention::valve_state(v), &attention::valve_why(v))
+fn valve_cell(v: &ValveFindings, style: &TerminalStyle) -> String {
+    status_cell(attention::valve_state(v), &attention::valve_why(v), style)
 }
 
 /// The status a row is painted with: the one that still counts.
@@ -95,20 +118,35 @@ pub fn render(job: &Job, findings: &Findings, style: &TerminalStyle) -> String {
     let unit = &job.unit;
     out.push_str(&bold(
         style,
-        &format!("Job {}: {} {}", findings.job.id, unit.make, unit.model),
+        &style.f(
+            "term-job",
+            &[
+                ("id", findings.job.id.clone()),
+                ("make", unit.make.clone()),
+                ("model", unit.model.clone()),
+            ],
+        ),
     ));
     if let Some(serial) = &unit.serial {
-        out.push_str(&format!(", serial {serial}"));
+        out.push_str(&format!(
+            ", {}",
+            style.f("term-serial", &[("serial", serial.clone())])
+        ));
     }
     out.push('\n');
     let m = &findings.mains;
     out.push_str(&format!(
-        "Mains: nominal {}, high line {} (+{} %){}\n",
-        volts(m.nominal_volts),
-        volts(m.high_line_volts),
-        format_fixed(m.tolerance_pct, 0),
+        "{}{}\n",
+        style.f(
+            "term-mains",
+            &[
+                ("nominal", volts(m.nominal_volts)),
+                ("high_line", volts(m.high_line_volts)),
+                ("tolerance", format_fixed(m.tolerance_pct, 0)),
+            ],
+        ),
         m.design_volts
-            .map(|d| format!(", chart drawn at {}", volts(d)))
+            .map(|d| format!(", {}", style.f("term-chart-drawn", &[("design", volts(d))])))
             .unwrap_or_default()
     ));
 
@@ -129,13 +167,13 @@ pub fn render(job: &Job, findings: &Findings, style: &TerminalStyle) -> String {
 
     out.push('\n');
     if !findings.safety.is_empty() {
-        out.push_str(&bold(style, "Safety tests"));
+        out.push_str(&bold(style, &style.t("term-safety")));
         out.push('\n');
-        let mut t = TextTable::new(&[
-            ("test", Align::Left),
-            ("reading", Align::Right),
-            ("limit", Align::Left),
-            ("status", Align::Left),
+        let mut t = style.table(&[
+            ("term-col-test", Align::Left),
+            ("term-col-reading", Align::Right),
+            ("term-col-limit", Align::Left),
+            ("term-col-status", Align::Left),
         ]);
         for s in &findings.safety {
             t.row(vec![
@@ -143,9 +181,9 @@ pub fn render(job: &Job, findings: &Findings, style: &TerminalStyle) -> String {
                 s.measured.clone(),
                 s.limit.clone(),
                 if s.passed {
-                    "pass".into()
+                    style.t("term-pass")
                 } else {
-                    "FAIL".into()
+                    style.t("term-fail")
                 },
             ]);
         }
@@ -160,7 +198,7 @@ pub fn render(job: &Job, findings: &Findings, style: &TerminalStyle) -> String {
         .filter(|m| !m.figures.is_empty())
         .collect();
     if !figured.is_empty() {
-        out.push_str(&bold(style, "Modification figures"));
+        out.push_str(&bold(style, &style.t("term-mod-figures")));
         out.push('\n');
         for m in figured {
             out.push_str(&format!("  {}\n", m.what));
@@ -184,22 +222,24 @@ fn render_attention(a: &Attention, style: &TerminalStyle) -> String {
     let final_words = a
         .final_label
         .as_ref()
-        .map(|l| format!("\u{201c}{l}\u{201d}, the final set"))
-        .unwrap_or_else(|| "the final set".to_string());
+        .map(|l| style.f("term-final-set-labelled", &[("label", l.clone())]))
+        .unwrap_or_else(|| style.t("term-final-set"));
     if a.open.is_empty() {
-        out.push_str(&format!(
-            "No open findings in {final_words}: every figure is inside its limits or accepted.\n"
-        ));
+        out.push_str(&style.f("term-no-open", &[("set", final_words)]));
+        out.push('\n');
     } else {
         out.push_str(&bold(
             style,
-            &format!("Open findings in {final_words} ({})", a.open.len()),
+            &style.f(
+                "term-open",
+                &[("set", final_words), ("count", a.open.len().to_string())],
+            ),
         ));
         out.push('\n');
         for e in &a.open {
             out.push_str(&format!(
                 "  {} {}: {}\n",
-                tag(e.status, &status_word(e.status)),
+                tag(e.status, &status_word(e.status, &style.catalogue)),
                 e.subject,
                 e.lines.join(" ")
             ));
@@ -208,14 +248,18 @@ fn render_attention(a: &Attention, style: &TerminalStyle) -> String {
     if !a.accepted.is_empty() {
         out.push_str(&bold(
             style,
-            &format!("Accepted by the technician ({})", a.accepted.len()),
+            &style.f(
+                "term-accepted-heading",
+                &[("count", a.accepted.len().to_string())],
+            ),
         ));
         out.push('\n');
         for e in &a.accepted {
             out.push_str(&format!(
-                "  [accepted] {} ({}, {}): {} ({}, {})\n",
+                "  [{}] {} ({}, {}): {} ({}, {})\n",
+                style.t("term-state-accepted"),
                 e.subject,
-                e.status.word(),
+                style.t(&format!("term-word-{}", e.status.word())),
                 e.brief,
                 e.accepted_reason,
                 e.by,
@@ -224,12 +268,12 @@ fn render_attention(a: &Attention, style: &TerminalStyle) -> String {
         }
     }
     if !a.job_wide.is_empty() {
-        out.push_str(&bold(style, "For the whole job"));
+        out.push_str(&bold(style, &style.t("term-whole-job")));
         out.push('\n');
         for e in &a.job_wide {
             out.push_str(&format!(
                 "  {} {}: {}\n",
-                tag(e.status, &status_word(e.status)),
+                tag(e.status, &status_word(e.status, &style.catalogue)),
                 e.subject,
                 e.lines.join(" ")
             ));
@@ -238,13 +282,13 @@ fn render_attention(a: &Attention, style: &TerminalStyle) -> String {
     for h in &a.history {
         out.push_str(&bold(
             style,
-            &format!("What was found in \u{201c}{}\u{201d}", h.label),
+            &style.f("term-history", &[("label", h.label.clone())]),
         ));
         out.push('\n');
         for e in &h.entries {
             out.push_str(&format!(
                 "  {} {}: {}\n",
-                tag(e.status, &status_word(e.status)),
+                tag(e.status, &status_word(e.status, &style.catalogue)),
                 e.subject,
                 e.lines.join(", ")
             ));
@@ -272,48 +316,65 @@ fn render_set(findings: &Findings, set: &SetFindings, style: &TerminalStyle) -> 
         .map(|d| format!(", {d}"))
         .unwrap_or_default();
     let final_mark = if set.is_final {
-        ", final: as handed over"
+        format!(", {}", style.t("term-final-mark"))
     } else {
-        ""
+        String::new()
     };
     out.push_str(&bold(
         style,
         &format!(
-            "── {}{final_mark} (mains {}, factor {:.3} to nominal{date}) ──",
+            "── {}{final_mark} ({}{date}) ──",
             set.label,
-            volts(set.mains_volts),
-            set.correction_factor
+            style.f(
+                "term-set-mains",
+                &[
+                    ("mains", volts(set.mains_volts)),
+                    ("factor", format!("{:.3}", set.correction_factor)),
+                ],
+            ),
         ),
     ));
     out.push('\n');
 
     for l in &findings.line_up {
         if let Some(c) = l.changes.iter().find(|c| c.set == set.label) {
-            out.push_str(&format!(
-                "Fitted for these readings: {} {} (line-up: {})\n",
-                l.position, c.valve_type, l.valve_type
+            out.push_str(&style.f(
+                "term-fitted",
+                &[
+                    ("position", l.position.clone()),
+                    ("type", c.valve_type.clone()),
+                    ("line_up", l.valve_type.clone()),
+                ],
             ));
+            out.push('\n');
         }
     }
     for b in &set.bias_controls {
         match &b.label {
-            Some(l) => out.push_str(&format!("Bias control {l}: {}\n", b.position)),
-            None => out.push_str(&format!("Bias control: {}\n", b.position)),
+            Some(l) => out.push_str(&style.f(
+                "term-bias-control-labelled",
+                &[("label", l.clone()), ("position", b.position.clone())],
+            )),
+            None => {
+                out.push_str(&style.f("term-bias-control", &[("position", b.position.clone())]))
+            }
         }
+        out.push('\n');
     }
     if !set.valves.is_empty() {
-        out.push_str("Valves\n");
-        let mut t = TextTable::new(&[
-            ("pos", Align::Left),
-            ("type", Align::Left),
-            ("bias", Align::Left),
-            ("Va", Align::Right),
-            ("Vk", Align::Right),
-            ("current", Align::Right),
-            ("Pa", Align::Right),
-            ("% max", Align::Right),
-            ("high line", Align::Right),
-            ("status", Align::Left),
+        out.push_str(&style.t("term-valves"));
+        out.push('\n');
+        let mut t = style.table(&[
+            ("term-col-pos", Align::Left),
+            ("term-col-type", Align::Left),
+            ("term-col-bias", Align::Left),
+            ("term-col-va", Align::Right),
+            ("term-col-vk", Align::Right),
+            ("term-col-current", Align::Right),
+            ("term-col-pa", Align::Right),
+            ("term-col-pct-max", Align::Right),
+            ("term-col-high-line", Align::Right),
+            ("term-col-status", Align::Left),
         ]);
         for v in &set.valves {
             let current = match (v.plate_current_ma, v.plate_current_includes_screen) {
@@ -337,7 +398,7 @@ fn render_set(findings: &Findings, set: &SetFindings, style: &TerminalStyle) -> 
                 }),
                 opt(v.plate_dissipation_pct, pct),
                 opt(v.high_line_plate_dissipation_pct, pct),
-                valve_cell(v),
+                valve_cell(v, style),
             ]);
         }
         let statuses: Vec<Status> = set.valves.iter().map(|v| v.open_status).collect();
@@ -350,35 +411,41 @@ fn render_set(findings: &Findings, set: &SetFindings, style: &TerminalStyle) -> 
                     ma(w.plate_current_high_ma)
                 )];
                 if let (Some(a), Some(b)) = (w.sense_low_mv, w.sense_high_mv) {
-                    parts.push(format!(
-                        "{}–{} mV across the sense resistor",
-                        format_fixed(a, 1),
-                        format_fixed(b, 1)
+                    parts.push(style.f(
+                        "term-window-sense",
+                        &[("low", format_fixed(a, 1)), ("high", format_fixed(b, 1))],
                     ));
                 }
                 if let (Some(a), Some(b)) = (w.primary_drop_low_volts, w.primary_drop_high_volts) {
-                    parts.push(format!(
-                        "{}–{} V across the half primary",
-                        format_fixed(a, 2),
-                        format_fixed(b, 2)
+                    parts.push(style.f(
+                        "term-window-primary",
+                        &[("low", format_fixed(a, 2)), ("high", format_fixed(b, 2))],
                     ));
                 }
                 if let Some(g) = w.grid_for_middle_volts {
-                    parts.push(format!(
-                        "grid about {} for the middle{} (estimate)",
-                        volts(g),
-                        v.grid_volts
-                            .map(|now| format!(", now {}", volts(now)))
-                            .unwrap_or_default()
-                    ));
+                    let grid = style.f("term-window-grid", &[("volts", volts(g))]);
+                    let now = v
+                        .grid_volts
+                        .map(|now| format!(", {}", style.f("term-now", &[("volts", volts(now))])))
+                        .unwrap_or_default();
+                    parts.push(format!("{grid}{now} {}", style.t("term-estimate")));
                 }
                 out.push_str(&format!(
-                    "  {} target window {:.0}–{:.0} %: {}{}\n",
-                    v.position,
-                    w.low_pct,
-                    w.high_pct,
+                    "  {}: {} ({})\n",
+                    style.f(
+                        "term-window",
+                        &[
+                            ("position", v.position.clone()),
+                            ("low", format!("{:.0}", w.low_pct)),
+                            ("high", format!("{:.0}", w.high_pct)),
+                        ],
+                    ),
                     parts.join(", "),
-                    if w.inside { " (inside)" } else { " (outside)" }
+                    if w.inside {
+                        style.t("term-inside")
+                    } else {
+                        style.t("term-outside")
+                    }
                 ));
             }
         }
@@ -387,17 +454,18 @@ fn render_set(findings: &Findings, set: &SetFindings, style: &TerminalStyle) -> 
             .iter()
             .any(|v| v.plate_current_includes_screen && v.plate_current_ma.is_some())
         {
-            out.push_str("  Ik: plate current taken as the cathode current, including screen current (conservative).\n");
+            out.push_str(&format!("  {}\n", style.t("term-ik-note")));
         }
     }
 
     if !set.warm_up.is_empty() {
-        out.push_str("Warm-up (idle current after power-on)\n");
-        let mut t = TextTable::new(&[
-            ("valve", Align::Left),
-            ("after", Align::Right),
-            ("current", Align::Right),
-            ("Pa % max", Align::Right),
+        out.push_str(&style.t("term-warm-up"));
+        out.push('\n');
+        let mut t = style.table(&[
+            ("term-col-valve", Align::Left),
+            ("term-col-after", Align::Right),
+            ("term-col-current", Align::Right),
+            ("term-col-pa-pct-max", Align::Right),
         ]);
         for p in &set.warm_up {
             t.row(vec![
@@ -412,14 +480,15 @@ fn render_set(findings: &Findings, set: &SetFindings, style: &TerminalStyle) -> 
         out.push_str(&t.render_with(2, &|_, _, cell| cell.to_string()));
     }
     if !set.nodes.is_empty() {
-        out.push_str("Supply nodes\n");
-        let mut t = TextTable::new(&[
-            ("node", Align::Left),
-            ("measured", Align::Right),
-            ("corrected", Align::Right),
-            ("expected", Align::Right),
-            ("deviation", Align::Right),
-            ("status", Align::Left),
+        out.push_str(&style.t("term-nodes"));
+        out.push('\n');
+        let mut t = style.table(&[
+            ("term-col-node", Align::Left),
+            ("term-col-measured", Align::Right),
+            ("term-col-corrected", Align::Right),
+            ("term-col-expected", Align::Right),
+            ("term-col-deviation", Align::Right),
+            ("term-col-status", Align::Left),
         ]);
         for n in &set.nodes {
             t.row(vec![
@@ -428,7 +497,7 @@ fn render_set(findings: &Findings, set: &SetFindings, style: &TerminalStyle) -> 
                 volts(n.corrected_volts),
                 opt(n.expected_volts, volts),
                 opt(n.deviation_pct, |d| format!("{d:+.1} %")),
-                verdict_cell(&n.verdict),
+                verdict_cell(&n.verdict, style),
             ]);
         }
         let statuses: Vec<Status> = set.nodes.iter().map(|n| paint_status(&n.verdict)).collect();
@@ -442,14 +511,15 @@ fn render_set(findings: &Findings, set: &SetFindings, style: &TerminalStyle) -> 
         .chain(&set.screen_resistors)
         .collect();
     if !resistors.is_empty() || !set.filter_capacitors.is_empty() || !set.not_checked.is_empty() {
-        out.push_str("Stressed parts\n");
-        let mut t = TextTable::new(&[
-            ("part", Align::Left),
-            ("where", Align::Left),
-            ("stress", Align::Right),
-            ("rating", Align::Right),
-            ("% / margin", Align::Right),
-            ("status", Align::Left),
+        out.push_str(&style.t("term-stressed"));
+        out.push('\n');
+        let mut t = style.table(&[
+            ("term-col-part", Align::Left),
+            ("term-col-where", Align::Left),
+            ("term-col-stress", Align::Right),
+            ("term-col-rating", Align::Right),
+            ("term-col-pct-margin", Align::Right),
+            ("term-col-status", Align::Left),
         ]);
         let mut statuses = Vec::new();
         for r in &resistors {
@@ -459,7 +529,7 @@ fn render_set(findings: &Findings, set: &SetFindings, style: &TerminalStyle) -> 
                 crate::calc::resistor_power_words(r.power_w),
                 opt(r.rating_w, |w| format_engineering(w, Q::Power)),
                 opt(r.power_pct, pct),
-                verdict_cell(&r.verdict),
+                verdict_cell(&r.verdict, style),
             ]);
             statuses.push(paint_status(&r.verdict));
         }
@@ -467,10 +537,10 @@ fn render_set(findings: &Findings, set: &SetFindings, style: &TerminalStyle) -> 
             t.row(vec![
                 c.reference.clone(),
                 c.node.clone(),
-                format!("{} peak", volts(c.highest_volts)),
+                style.f("term-peak", &[("volts", volts(c.highest_volts))]),
                 volts(c.rating_volts),
-                format!("{} % left", format_fixed(c.margin_pct, 1)),
-                verdict_cell(&c.verdict),
+                style.f("term-left", &[("pct", format_fixed(c.margin_pct, 1))]),
+                verdict_cell(&c.verdict, style),
             ]);
             statuses.push(paint_status(&c.verdict));
         }
@@ -481,7 +551,7 @@ fn render_set(findings: &Findings, set: &SetFindings, style: &TerminalStyle) -> 
                 "–".into(),
                 "–".into(),
                 "–".into(),
-                format!("not checked ({})", n.reason),
+                style.f("term-not-checked", &[("reason", n.reason.clone())]),
             ]);
             statuses.push(Status::Ok);
         }
@@ -489,25 +559,43 @@ fn render_set(findings: &Findings, set: &SetFindings, style: &TerminalStyle) -> 
     }
     if let Some(r) = &set.rectifier {
         out.push_str(&format!(
-            "Rectifier {} ({}): at least {:.0} mA of {:.0} mA ({:.0} %) {}\n",
-            r.position,
-            r.valve_type,
-            r.load_at_least_ma,
-            r.rating_ma,
-            r.load_pct,
-            paint(style, paint_status(&r.verdict), &verdict_cell(&r.verdict))
+            "{} {}\n",
+            style.f(
+                "term-rectifier",
+                &[
+                    ("position", r.position.clone()),
+                    ("type", r.valve_type.clone()),
+                    ("load", format!("{:.0}", r.load_at_least_ma)),
+                    ("rating", format!("{:.0}", r.rating_ma)),
+                    ("pct", format!("{:.0}", r.load_pct)),
+                ],
+            ),
+            paint(
+                style,
+                paint_status(&r.verdict),
+                &verdict_cell(&r.verdict, style)
+            )
         ));
     }
     for h in &set.heaters {
         out.push_str(&format!(
-            "Heater: {} against {} ({:+.1} %) {}\n",
-            volts(h.measured_volts),
-            volts(h.nominal_volts),
-            h.deviation_pct,
-            paint(style, paint_status(&h.verdict), &verdict_cell(&h.verdict))
+            "{} {}\n",
+            style.f(
+                "term-heater",
+                &[
+                    ("measured", volts(h.measured_volts)),
+                    ("nominal", volts(h.nominal_volts)),
+                    ("deviation", format!("{:+.1}", h.deviation_pct)),
+                ],
+            ),
+            paint(
+                style,
+                paint_status(&h.verdict),
+                &verdict_cell(&h.verdict, style)
+            )
         ));
     }
-    out.push_str(&render_suggestions(set));
+    out.push_str(&render_suggestions(set, style));
     out.push_str(&render_bench(set, style));
     out
 }
@@ -526,38 +614,56 @@ fn channel(c: &Option<String>) -> String {
 
 /// The cathode-resistor suggestions of a set: the estimate, the preferred
 /// values and what each would give.
-fn render_suggestions(set: &SetFindings) -> String {
+fn render_suggestions(set: &SetFindings, style: &TerminalStyle) -> String {
     let mut out = String::new();
     for s in &set.cathode_resistor_suggestions {
-        out.push_str(&format!(
-            "Cathode resistor {} ({}, now {}): for {:.0} % of Pa max ({} W) the three-halves law gives {}\n",
-            s.reference,
-            s.valves.join(", "),
-            ohms(s.present_ohms),
-            s.target_pct,
-            format_fixed(s.target_plate_dissipation_w, 1),
-            s.exact_ohms
-                .map(ohms)
-                .unwrap_or_else(|| "no resistor (out of reach)".to_string())
-        ));
+        out.push_str(
+            &style.f(
+                "term-suggestion",
+                &[
+                    ("reference", s.reference.clone()),
+                    ("valves", s.valves.join(", ")),
+                    ("present", ohms(s.present_ohms)),
+                    ("target", format!("{:.0}", s.target_pct)),
+                    ("pa", format_fixed(s.target_plate_dissipation_w, 1)),
+                    (
+                        "exact",
+                        s.exact_ohms
+                            .map(ohms)
+                            .unwrap_or_else(|| style.t("term-out-of-reach")),
+                    ),
+                ],
+            ),
+        );
+        out.push('\n');
         for o in &s.options {
             out.push_str(&format!(
-                "  {} {}: Vk {}, {} each, Pa {} W ({:.0} %); the resistor dissipates {} W: rate it {} W or more (a {} part)\n",
-                o.series,
-                ohms(o.resistance_ohms),
-                volts(o.cathode_volts),
-                ma(o.cathode_current_ma),
-                format_fixed(o.plate_dissipation_w, 1),
-                o.plate_dissipation_pct,
-                format_fixed(o.resistor_power_w, 2),
-                format_fixed(o.resistor_rating_at_least_w, 1),
-                format_engineering(o.resistor_rating_w, Q::Power)
+                "  {}\n",
+                style.f(
+                    "term-suggestion-option",
+                    &[
+                        ("series", o.series.to_string()),
+                        ("value", ohms(o.resistance_ohms)),
+                        ("vk", volts(o.cathode_volts)),
+                        ("current", ma(o.cathode_current_ma)),
+                        ("pa", format_fixed(o.plate_dissipation_w, 1)),
+                        ("pct", format!("{:.0}", o.plate_dissipation_pct)),
+                        ("power", format_fixed(o.resistor_power_w, 2)),
+                        ("least", format_fixed(o.resistor_rating_at_least_w, 1)),
+                        ("rating", format_engineering(o.resistor_rating_w, Q::Power)),
+                    ],
+                )
             ));
         }
         out.push_str(&format!(
-            "  An estimate from one set of readings ({}, μg1g2 {}); measure the bias again after the change.\n",
-            s.calibrated_on,
-            crate::units::format_sig(s.mu_g1g2, 3)
+            "  {}\n",
+            style.f(
+                "term-suggestion-estimate",
+                &[
+                    ("calibrated", s.calibrated_on.clone()),
+                    ("mu", crate::units::format_sig(s.mu_g1g2, 3)),
+                ],
+            )
         ));
     }
     out
@@ -569,59 +675,89 @@ fn render_bench(set: &SetFindings, style: &TerminalStyle) -> String {
     if b.is_empty() {
         return String::new();
     }
-    let mut out = String::from("Bench tests\n");
+    let mut out = format!("{}\n", style.t("term-bench"));
     for p in &b.output_power {
         let read = match p.reading {
-            crate::job::AcReading::Rms => format!("{} rms", volts(p.reading_volts)),
-            crate::job::AcReading::PeakToPeak => format!(
-                "{} p-p = {} rms",
-                volts(p.reading_volts),
-                volts(p.rms_volts)
+            crate::job::AcReading::Rms => style.f("term-rms", &[("volts", volts(p.reading_volts))]),
+            crate::job::AcReading::PeakToPeak => style.f(
+                "term-peak-to-peak",
+                &[
+                    ("volts", volts(p.reading_volts)),
+                    ("rms", volts(p.rms_volts)),
+                ],
             ),
         };
         out.push_str(&format!(
-            "  Output power{}: {read} into {} at {}, {} = {} W{} {}\n",
+            "  {}{}: {}{} {}\n",
+            style.t("term-output-power"),
             channel(&p.channel),
-            ohms(p.load_ohms),
-            hz(p.frequency_hz),
-            p.condition_words,
-            format_fixed(p.output_power_w, 1),
+            style.f(
+                "term-output-power-line",
+                &[
+                    ("reading", read),
+                    ("load", ohms(p.load_ohms)),
+                    ("frequency", hz(p.frequency_hz)),
+                    ("condition", p.condition_words.clone()),
+                    ("power", format_fixed(p.output_power_w, 1)),
+                ],
+            ),
             p.output_power_pct_of_rated
-                .map(|pct| format!(" ({} of rated)", self::pct(pct)))
+                .map(|pct| format!(
+                    " ({})",
+                    style.f("term-of-rated", &[("pct", self::pct(pct))])
+                ))
                 .unwrap_or_default(),
-            paint(style, p.verdict.status, &status_word(p.verdict.status))
+            paint(
+                style,
+                p.verdict.status,
+                &status_word(p.verdict.status, &style.catalogue)
+            )
         ));
     }
     for h in &b.hum_noise {
         out.push_str(&format!(
-            "  Hum and noise{}: {} mV ({:+.1} dBV), input {}{}{} {}\n",
+            "  {}{}: {}{}{} {}\n",
+            style.t("term-hum-noise"),
             channel(&h.channel),
-            format_fixed(h.hum_noise_mv, 2),
-            h.hum_noise_dbv,
-            h.input,
+            style.f(
+                "term-hum-noise-line",
+                &[
+                    ("mv", format_fixed(h.hum_noise_mv, 2)),
+                    ("dbv", format!("{:+.1}", h.hum_noise_dbv)),
+                    ("input", h.input.to_string()),
+                ],
+            ),
             h.volume
                 .as_ref()
-                .map(|v| format!(", volume {v}"))
+                .map(|v| format!(", {}", style.f("term-volume", &[("volume", v.clone())])))
                 .unwrap_or_default(),
             h.hum_noise_db_below_full
-                .map(|db| format!(", {} dB below full output", format_fixed(db, 1)))
+                .map(|db| format!(
+                    ", {}",
+                    style.f("term-below-full", &[("db", format_fixed(db, 1))])
+                ))
                 .unwrap_or_default(),
-            paint(style, h.verdict.status, &status_word(h.verdict.status))
+            paint(
+                style,
+                h.verdict.status,
+                &status_word(h.verdict.status, &style.catalogue)
+            )
         ));
     }
     for r in &b.responses {
         out.push_str(&format!(
-            "  Response{} against {}{}:\n",
+            "  {}{} {}{}:\n",
+            style.t("term-response"),
             channel(&r.channel),
-            hz(r.reference_hz),
+            style.f("term-against", &[("reference", hz(r.reference_hz))]),
             r.input_volts
-                .map(|v| format!(", {} in", volts(v)))
+                .map(|v| format!(", {}", style.f("term-in", &[("volts", volts(v))])))
                 .unwrap_or_default()
         ));
-        let mut t = TextTable::new(&[
-            ("frequency", Align::Right),
-            ("output", Align::Right),
-            ("dB", Align::Right),
+        let mut t = style.table(&[
+            ("term-col-frequency", Align::Right),
+            ("term-col-output", Align::Right),
+            ("term-col-db", Align::Right),
         ]);
         for p in &r.points {
             t.row(vec![
@@ -631,25 +767,42 @@ fn render_bench(set: &SetFindings, style: &TerminalStyle) -> String {
             ]);
         }
         out.push_str(&t.render_with(4, &|_, _, cell| cell.to_string()));
-        let side = |f: Option<f64>, edge: f64, dir: &str| match f {
+        let side = |f: Option<f64>, edge: f64, key: &str| match f {
             Some(f) => hz(f),
-            None => format!("{dir} {} (not reached)", hz(edge)),
+            None => style.f(key, &[("frequency", hz(edge))]),
         };
         out.push_str(&format!(
-            "    −3 dB: {} and {}\n",
-            side(r.minus_3db_low_hz, r.lowest_hz, "below"),
-            side(r.minus_3db_high_hz, r.highest_hz, "above")
+            "    {}\n",
+            style.f(
+                "term-minus-3db",
+                &[
+                    (
+                        "low",
+                        side(r.minus_3db_low_hz, r.lowest_hz, "term-below-not-reached")
+                    ),
+                    (
+                        "high",
+                        side(r.minus_3db_high_hz, r.highest_hz, "term-above-not-reached")
+                    ),
+                ],
+            )
         ));
     }
     for g in &b.gains {
         out.push_str(&format!(
-            "  Gain{}: {} in for {} out at {} = ×{} ({} dB)\n",
+            "  {}{}: {}\n",
+            style.t("term-gain"),
             channel(&g.channel),
-            volts(g.input_volts),
-            volts(g.output_volts),
-            hz(g.frequency_hz),
-            crate::units::format_sig(g.gain_times, 3),
-            format_fixed(g.gain_db, 1)
+            style.f(
+                "term-gain-line",
+                &[
+                    ("input", volts(g.input_volts)),
+                    ("output", volts(g.output_volts)),
+                    ("frequency", hz(g.frequency_hz)),
+                    ("times", crate::units::format_sig(g.gain_times, 3)),
+                    ("db", format_fixed(g.gain_db, 1)),
+                ],
+            )
         ));
     }
     out

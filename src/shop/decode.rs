@@ -28,6 +28,7 @@ pub const SHOP_TOP_LEVEL: &[&str] = &[
     "warranty",
     "terms",
     "job-numbers",
+    "language",
 ];
 
 pub(crate) fn decode_document(
@@ -133,6 +134,7 @@ pub(crate) fn decode_document(
             }
         }
     });
+    let language = first("language").and_then(|n| decode_language(n, r));
 
     let (name, address, contact) = shop?;
     Some(ShopProfile {
@@ -153,7 +155,68 @@ pub(crate) fn decode_document(
         warranty,
         terms,
         job_numbers,
+        language,
     })
+}
+
+/// `language "de"`, or `language "nl" file="nl.ftl"`: the language of the
+/// documents and, for a language the program does not have built in (or
+/// to replace a built-in one), the shop's translation file. The file is
+/// read and checked against the English catalogue when the profile is
+/// loaded ([`crate::shop::read_translation`]).
+fn decode_language(node: &KdlNode, r: &mut Reader) -> Option<Language> {
+    r.check_entries(node, &["file"], 1);
+    r.no_children(node);
+    let tag = r.req_arg_string(node, "the language", "language \"de\"")?;
+    let valid = !tag.value.is_empty()
+        && tag.value.len() <= 35
+        && tag
+            .value
+            .split(['-', '_'])
+            .all(|p| !p.is_empty() && p.len() <= 8 && p.chars().all(|c| c.is_ascii_alphanumeric()))
+        && tag.value.parse::<unic_langid::LanguageIdentifier>().is_ok();
+    if !valid {
+        r.push(
+            DecodeError::error(
+                "job::bad-value",
+                tag.span,
+                format!("`{}` is not a language tag", tag.value),
+                "expected a language tag such as en or de",
+            )
+            .with_help(format!(
+                "built in: {}",
+                crate::catalogue::BUILT_IN
+                    .iter()
+                    .map(|(t, _)| *t)
+                    .collect::<Vec<_>>()
+                    .join(", ")
+            )),
+        );
+        return None;
+    }
+    let file = match Reader::prop(node, "file") {
+        Some(e) => Some(r.string(e, "`file`")?),
+        None => None,
+    };
+    if file.is_none() && crate::catalogue::Catalogue::built_in(&tag.value).is_none() {
+        let built: Vec<&str> = crate::catalogue::BUILT_IN.iter().map(|(t, _)| *t).collect();
+        r.push(
+            DecodeError::error(
+                "job::unknown-language",
+                tag.span,
+                format!("the program has no catalogue for `{}` built in", tag.value),
+                "no built-in catalogue",
+            )
+            .with_help(format!(
+                "{}; or give your own translation: language \"{}\" file=\"{}.ftl\"",
+                suggestion_help(&tag.value, &built),
+                tag.value,
+                tag.value
+            )),
+        );
+        return None;
+    }
+    Some(Language { tag, file })
 }
 
 fn format_version(node: &KdlNode, r: &mut Reader) -> u32 {

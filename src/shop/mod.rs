@@ -11,11 +11,13 @@ mod decode;
 pub mod discover;
 pub mod logo;
 mod model;
+pub mod translation;
 
 pub use decode::{SHOP_FORMAT_VERSION, SHOP_TOP_LEVEL};
 pub use discover::{Found, SHOP_FILE, discover, user_config_dir};
 pub use logo::{Logo, LogoKind, read_logo};
 pub use model::*;
+pub use translation::{TranslationError, read_translation};
 
 use miette::{NamedSource, SourceSpan};
 use std::sync::Arc;

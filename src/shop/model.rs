@@ -32,6 +32,18 @@ pub struct ShopProfile {
     /// The pattern of the shop's job ids (`D-{yymm}-{nnn}`), checked; see
     /// [`crate::job::numbering`].
     pub job_numbers: Option<String>,
+    /// The documents' language and the shop's translation file, if any;
+    /// none for English.
+    pub language: Option<Language>,
+}
+
+/// `language "de" file="…"` of a profile.
+#[derive(Debug, Clone, Serialize)]
+pub struct Language {
+    /// The language tag as written: "de", "de-AT".
+    pub tag: Spanned<String>,
+    /// A translation file relative to the profile's folder.
+    pub file: Option<Spanned<String>>,
 }
 
 /// The page size of the document.

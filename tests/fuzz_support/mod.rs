@@ -51,23 +51,30 @@ pub fn check_job_text(text: &str, build_source: bool) -> Result<Outcome, String>
             let findings = ampreport::calc::derive(&decoded.job, ratings());
             outcome.derived = true;
             check_findings(&findings)?;
-            let summary =
-                terminal::render(&decoded.job, &findings, &TerminalStyle { colour: false });
-            no_non_finite_words("terminal summary", &summary)?;
+            let summary = terminal::render(
+                &decoded.job,
+                &findings,
+                &TerminalStyle {
+                    colour: false,
+                    catalogue: ampreport::catalogue::Catalogue::english().clone(),
+                },
+            );
+            no_non_finite_words("terminal summary", &summary, text)?;
             let json = ampreport::report::json::render(&findings);
             let value: serde_json::Value = serde_json::from_str(&json)
                 .map_err(|e| format!("calc JSON does not parse: {e}"))?;
-            no_non_finite_words("JSON", &json)?;
+            no_non_finite_words("JSON", &json, text)?;
             drop(value);
             if build_source {
                 let input = HandoverInput::new(&decoded.job, &findings, text, "0.15.1");
                 let templates = TemplateSource::embedded(handover::EMBEDDED_TEMPLATES);
                 let document = handover::build(&input, &templates)
                     .map_err(|e| format!("the document could not be built: {e}"))?;
+                let job_text = text;
                 for (name, bytes) in document.sandbox.files() {
                     if name.ends_with(".typ") || name.ends_with(".svg") {
                         let text = String::from_utf8_lossy(bytes);
-                        no_non_finite_words(name, &text)?;
+                        no_non_finite_words(name, &text, job_text)?;
                     }
                 }
                 outcome.built_source = true;
@@ -129,10 +136,17 @@ fn check_findings(findings: &Findings) -> Result<(), String> {
     )
 }
 
-/// No word of `text` reads as a non-finite number.
-fn no_non_finite_words(what: &str, text: &str) -> Result<(), String> {
+/// No word of `text` reads as a non-finite number. A word the job file
+/// itself contains (a job id `D-2611#inf-031`, a note saying "inf") is the
+/// user's own text, printed literally, and is not counted; the numbers are
+/// held finite by `check_findings` whatever the text says.
+fn no_non_finite_words(what: &str, text: &str, job: &str) -> Result<(), String> {
+    let in_job = |word: &str| {
+        job.split(|c: char| !c.is_ascii_alphanumeric())
+            .any(|w| w == word)
+    };
     for word in text.split(|c: char| !c.is_ascii_alphanumeric()) {
-        if matches!(word, "NaN" | "nan" | "inf" | "Infinity" | "infinity") {
+        if matches!(word, "NaN" | "nan" | "inf" | "Infinity" | "infinity") && !in_job(word) {
             let at = text.find(word).unwrap_or(0);
             let from = (0..=at.saturating_sub(60))
                 .rev()

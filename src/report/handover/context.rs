@@ -21,6 +21,7 @@ use crate::calc::{
     NodeFindings, RectifierFindings, ResistorFindings, SetFindings, Status, ValveFindings,
     resistor_power_words,
 };
+use crate::catalogue::{Arg, Catalogue};
 use crate::job::{Job, ProtectionClass};
 use crate::shop::ShopProfile;
 
@@ -84,6 +85,9 @@ pub struct HandoverContext {
     /// The job's charges, or none (no `charges` block, or `--no-charges`).
     /// Only the hand-over's context carries them.
     pub charges: Option<ChargesContext>,
+    /// The catalogue the template's `t()` and `tm()` look words up in.
+    #[serde(skip)]
+    pub catalogue: Catalogue,
 }
 
 #[derive(Debug, Clone, Serialize)]
@@ -97,6 +101,8 @@ pub struct DocumentInfo {
     pub description: String,
     /// Typst paper name: "a4" or "us-letter".
     pub paper: String,
+    /// The document's language for Typst (hyphenation, quotes): "en".
+    pub lang: String,
 }
 
 #[derive(Debug, Clone, Serialize)]
@@ -626,9 +632,12 @@ pub struct ContextInputs<'a> {
     /// The sets (by index) that have a warm-up chart.
     pub warm_up_plots: Vec<usize>,
     pub has_response_plot: bool,
+    /// The fixed words, in the document's language.
+    pub catalogue: &'a Catalogue,
 }
 
-/// A date in words: "9 November 2026".
+/// A date in words in English: "9 November 2026" (see
+/// [`Catalogue::date`] for other languages).
 pub fn date_words(d: NaiveDate) -> String {
     d.format("%-d %B %Y").to_string()
 }
@@ -776,9 +785,15 @@ pub fn build_context(
     inputs: &ContextInputs<'_>,
 ) -> HandoverContext {
     let unit = &job.unit;
-    let title = format!(
-        "Hand-over report {}: {} {}",
-        job.info.id, unit.make, unit.model
+    let cat = inputs.catalogue;
+    let date_words = |d: NaiveDate| cat.date(d);
+    let title = cat.format(
+        "doc-title",
+        &[
+            ("id", Arg::from(&job.info.id)),
+            ("make", Arg::from(&unit.make)),
+            ("model", Arg::from(&unit.model)),
+        ],
     );
     let m = &findings.mains;
     let mains = MainsInfo {
@@ -794,7 +809,7 @@ pub fn build_context(
         .enumerate()
         .map(|(i, set)| {
             let plot = inputs.warm_up_plots.contains(&i).then(|| warm_up_plot(i));
-            set_context(findings, set, plot)
+            set_context(findings, set, plot, cat)
         })
         .collect();
     let mut authors: Vec<String> = job.info.technician.iter().cloned().collect();
@@ -802,11 +817,14 @@ pub fn build_context(
         authors.push(inputs.shop.name.clone());
     }
     let description = if inputs.shop.neutral {
-        format!("Valve amplifier service hand-over for job {}", job.info.id)
+        cat.format("doc-description", &[("id", Arg::from(&job.info.id))])
     } else {
-        format!(
-            "Valve amplifier service hand-over for job {} from {}",
-            job.info.id, inputs.shop.name
+        cat.format(
+            "doc-description-shop",
+            &[
+                ("id", Arg::from(&job.info.id)),
+                ("shop", Arg::from(&inputs.shop.name)),
+            ],
         )
     };
     HandoverContext {
@@ -820,6 +838,7 @@ pub fn build_context(
             authors,
             description,
             paper: paper(inputs.profile, job).typst_name().to_string(),
+            lang: cat.language().to_string(),
         },
         shop: inputs.shop.clone(),
         job: JobInfo {
@@ -842,8 +861,8 @@ pub fn build_context(
         }),
         mains,
         summary: summary_context(&crate::report::summary::summary(job, findings)),
-        glance: glance(findings),
-        attention: attention_context(&attention::attention(findings)),
+        glance: glance(findings, cat),
+        attention: attention_context(&attention::attention(findings), cat),
         complaint: job.complaint.as_deref().map(reflow),
         findings: job.findings.as_ref().map(|r| reflow(&r.text)),
         work: job.work.as_ref().map(|r| reflow(&r.text)),
@@ -905,7 +924,7 @@ pub fn build_context(
         plots: plots(findings, inputs),
         safety: safety(job, findings),
         method: method(findings, job, inputs.profile),
-        acceptance: acceptance(job, inputs.profile),
+        acceptance: acceptance(job, inputs.profile, cat),
         charges: job
             .charges
             .as_ref()
@@ -921,28 +940,31 @@ pub fn build_context(
             commit: inputs.revision.map(|r| r.commit.clone()),
             uncommitted_changes: inputs.revision.is_some_and(|r| r.uncommitted_changes),
         },
+        catalogue: cat.clone(),
     }
 }
 
-fn glance(findings: &Findings) -> Glance {
+fn glance(findings: &Findings, cat: &Catalogue) -> Glance {
     let basis = match findings.sets.iter().find(|s| s.is_final) {
         Some(set) => {
             let date = set
                 .date
                 .as_deref()
                 .and_then(|d| NaiveDate::parse_from_str(d, "%Y-%m-%d").ok())
-                .map(date_words);
-            let mut words = format!(
-                "Readings “{}” at {} mains",
-                set.label,
-                volts(set.mains_volts)
+                .map(|d| cat.date(d));
+            let mut words = cat.format(
+                "doc-glance-basis",
+                &[
+                    ("label", Arg::from(&set.label)),
+                    ("mains", Arg::from(volts(set.mains_volts))),
+                ],
             );
             if let Some(d) = date {
                 words.push_str(&format!(", {d}"));
             }
             words
         }
-        None => "No measurements recorded".to_string(),
+        None => cat.text("doc-glance-none"),
     };
     let mut overall = Status::Ok;
     let families = findings
@@ -1042,13 +1064,18 @@ fn warm_up_context(set: &SetFindings, plot: Option<String>) -> Option<WarmUpCont
     })
 }
 
-fn set_context(findings: &Findings, set: &SetFindings, warm_up_plot: Option<String>) -> SetContext {
+fn set_context(
+    findings: &Findings,
+    set: &SetFindings,
+    warm_up_plot: Option<String>,
+    cat: &Catalogue,
+) -> SetContext {
     let nominal = findings.mains.nominal_volts;
     let date = set
         .date
         .as_deref()
         .and_then(|d| NaiveDate::parse_from_str(d, "%Y-%m-%d").ok())
-        .map(date_words);
+        .map(|d| cat.date(d));
     let mut methods: Vec<(CurrentMethod, Vec<String>)> = Vec::new();
     for v in &set.valves {
         if let Some(m) = v.method {
@@ -1082,8 +1109,8 @@ fn set_context(findings: &Findings, set: &SetFindings, warm_up_plot: Option<Stri
         valves.iter().any(|v| v.channel.is_some()) || nodes.iter().any(|n| n.channel.is_some());
     if has_channels {
         let heading = |c: &Option<String>| match c {
-            Some(c) => format!("Channel: {c}"),
-            None => "Shared".to_string(),
+            Some(c) => cat.format("doc-group-channel", &[("channel", Arg::from(c))]),
+            None => cat.text("doc-group-shared"),
         };
         for i in 0..valves.len() {
             if i == 0 || valves[i].channel != valves[i - 1].channel {
@@ -1200,7 +1227,7 @@ fn summary_context(s: &Summary) -> SummaryContext {
     }
 }
 
-fn attention_context(a: &Attention) -> AttentionContext {
+fn attention_context(a: &Attention, cat: &Catalogue) -> AttentionContext {
     let entry = |e: &attention::Entry, joiner: &str| EntryRow {
         subject: e.subject.clone(),
         status: status(e.status),
@@ -1220,7 +1247,7 @@ fn attention_context(a: &Attention) -> AttentionContext {
                 accepted_reason: glue_units(&e.accepted_reason),
                 by: e.by.clone(),
                 date: NaiveDate::parse_from_str(&e.date, "%Y-%m-%d")
-                    .map(date_words)
+                    .map(|d| cat.date(d))
                     .unwrap_or_else(|_| e.date.clone()),
             })
             .collect(),

@@ -37,6 +37,7 @@ use super::network_chart;
 use super::plots::{self, PlotError};
 use super::response_chart;
 use crate::calc::Findings;
+use crate::catalogue::{Arg, Catalogue};
 use crate::job::Job;
 use crate::shop::{Logo, ShopProfile};
 use crate::typeset::{
@@ -59,8 +60,9 @@ pub const IMAGES_DIR: &str = "images";
 /// from a `--templates` folder, so no template can change its words.
 pub const NOTICE_SOURCE: &str = "mains-safety.typ";
 
-/// The notice's Typst source.
-pub const NOTICE_TEXT: &str = include_str!("../../../templates/mains-safety.typ");
+/// The notice's Typst source as a template: its words come from the
+/// message catalogue ([`notice_source`]).
+pub const NOTICE_TEMPLATE: &str = include_str!("../../../templates/mains-safety.typ");
 
 /// The line a template must hold to place the notice.
 pub const NOTICE_INCLUDE: &str = "#include \"mains-safety.typ\"";
@@ -68,7 +70,9 @@ pub const NOTICE_INCLUDE: &str = "#include \"mains-safety.typ\"";
 /// What the finished PDF must show, checked in its text: the notice's
 /// heading and opening sentence, and the deferral to local codes with its
 /// closing sentence. A template that leaves the notice out, hides it or
-/// rewrites it is refused.
+/// rewrites it is refused. These are the English catalogue's words; a
+/// document in another language is checked for its own
+/// ([`notice_phrases`]).
 pub const NOTICE_PHRASES: &[&str] = &[
     "MAINS SAFETY: READ BEFORE USING OR OPENING THIS UNIT",
     "This amplifier runs on voltages that can kill.",
@@ -76,12 +80,58 @@ pub const NOTICE_PHRASES: &[&str] = &[
     "Where those rules, or the practice of a licensed electrician, differ from anything in this document, follow them.",
 ];
 
-/// [`NOTICE_PHRASES`] as compile options want them.
-pub fn notice_required() -> RequiredText {
+/// The phrases of the notice the finished PDF must show, in the
+/// catalogue's language: heading, opening sentence, the deferral's title
+/// and its closing sentence.
+pub fn notice_phrases(catalogue: &Catalogue) -> Vec<String> {
+    [
+        "notice-heading",
+        "notice-check-opening",
+        "notice-codes-title",
+        "notice-check-closing",
+    ]
+    .iter()
+    .map(|k| catalogue.text(k))
+    .collect()
+}
+
+/// [`notice_phrases`] as compile options want them.
+pub fn notice_required(catalogue: &Catalogue) -> RequiredText {
     RequiredText {
         what: "the mains-safety notice and the deferral to local electrical codes".into(),
-        phrases: NOTICE_PHRASES.iter().map(|p| (*p).to_owned()).collect(),
+        phrases: notice_phrases(catalogue),
     }
+}
+
+/// The notice's Typst source with its words from `catalogue`, every word
+/// escaped for Typst markup.
+pub fn notice_source(catalogue: &Catalogue) -> Result<String, HandoverError> {
+    let env = template_environment(TemplateSource::embedded(&[(
+        NOTICE_SOURCE,
+        NOTICE_TEMPLATE,
+    )]));
+    let fail = |e: minijinja::Error| HandoverError::Template {
+        name: NOTICE_SOURCE.to_string(),
+        detail: template_error_words(&e),
+        from_override: false,
+    };
+    let words: std::collections::BTreeMap<String, String> = crate::catalogue::NOTICE_KEYS
+        .iter()
+        .map(|k| {
+            let name = k.trim_start_matches("notice-").replace('-', "_");
+            (name, catalogue.text(k))
+        })
+        .collect();
+    env.get_template(NOTICE_SOURCE)
+        .and_then(|t| {
+            let title_words: Vec<&str> = words
+                .iter()
+                .filter(|(k, _)| k.ends_with("_title") && k.as_str() != "codes_title")
+                .flat_map(|(_, v)| v.split_whitespace())
+                .collect();
+            t.render(minijinja::context! { n => words, title_words => title_words })
+        })
+        .map_err(fail)
 }
 
 /// The built-in templates, for [`TemplateSource::embedded`].
@@ -136,6 +186,8 @@ pub struct HandoverInput<'a> {
     pub logo: Option<&'a Logo>,
     /// Whether the job's charges are shown (`--no-charges` leaves them out).
     pub include_charges: bool,
+    /// The fixed words of the document, in the shop's language.
+    pub catalogue: &'a Catalogue,
     /// Where the job file stands in git, for the footer.
     pub revision: Option<crate::git::Revision>,
     /// The job's photos, checked and prepared ([`crate::photo::prepare`]).
@@ -158,6 +210,7 @@ impl<'a> HandoverInput<'a> {
             shop: None,
             logo: None,
             include_charges: true,
+            catalogue: Catalogue::english(),
             revision: None,
             photos: &[],
         }
@@ -264,6 +317,7 @@ pub fn build(
         has_supply_plot: supply.is_some(),
         warm_up_plots,
         has_response_plot: response.is_some(),
+        catalogue: input.catalogue,
     };
     let context = build_context(input.job, input.findings, &inputs);
     let source = render_template(&context, templates)?;
@@ -280,7 +334,7 @@ pub fn build(
         });
     }
     sandbox.insert(MAIN_SOURCE, source)?;
-    sandbox.insert(NOTICE_SOURCE, NOTICE_TEXT)?;
+    sandbox.insert(NOTICE_SOURCE, notice_source(input.catalogue)?)?;
     if let Some(dir) = &templates.override_dir {
         add_shop_images(&mut sandbox, &dir.join(IMAGES_DIR))?;
     }
@@ -288,7 +342,7 @@ pub fn build(
         sandbox,
         main: MAIN_SOURCE,
         options: CompileOptions {
-            required_text: Some(notice_required()),
+            required_text: Some(notice_required(input.catalogue)),
             ..CompileOptions::new(creation_date(input.job))
         },
         context,
@@ -301,15 +355,16 @@ pub fn render_template(
     context: &HandoverContext,
     templates: &TemplateSource,
 ) -> Result<String, HandoverError> {
-    fill_template(TEMPLATE_NAME, context, templates)
+    fill_template(TEMPLATE_NAME, context, &context.catalogue, templates)
 }
 
 /// Fills the template `name` (built in, or from a `--templates` folder)
-/// with `context` and `font_rules`; shared by the hand-over and the
+/// with `context`, `font_rules` and the catalogue's `t` and `tm`; shared by the hand-over and the
 /// listing.
 pub(crate) fn fill_template(
     name: &str,
     context: &impl serde::Serialize,
+    catalogue: &Catalogue,
     templates: &TemplateSource,
 ) -> Result<String, HandoverError> {
     let from_override = templates
@@ -323,11 +378,77 @@ pub(crate) fn fill_template(
         from_override,
     };
     let template = env.get_template(name).map_err(fail)?;
+    let (t, tm) = catalogue_functions(catalogue);
     let ctx = minijinja::context! {
         font_rules => typst_markup(font_rules()),
+        t => t,
+        tm => tm,
         ..Value::from_serialize(context)
     };
     template.render(ctx).map_err(fail)
+}
+
+/// The template functions that look words up in the catalogue:
+///
+/// * `t("key", name=value, …)`: the message as text, escaped for Typst
+///   like any other value, so a translation can never inject markup;
+/// * `tm("key", …)`: the same, except that `*…*` in the message itself
+///   (never in an argument) marks strong text.
+///
+/// A key the catalogue lacks is a template error naming it.
+pub fn catalogue_functions(catalogue: &Catalogue) -> (Value, Value) {
+    fn lookup(
+        catalogue: &Catalogue,
+        key: &str,
+        kwargs: &minijinja::value::Kwargs,
+        placeholders: bool,
+    ) -> Result<(String, Vec<String>), minijinja::Error> {
+        let mut args = Vec::new();
+        let mut values = Vec::new();
+        for name in kwargs.args() {
+            let value: Value = kwargs.get(name)?;
+            let arg = if placeholders {
+                values.push(value.to_string());
+                Arg::Text(format!("QzqArg{}Qzq", values.len() - 1))
+            } else if let Some(n) = value.as_i64() {
+                Arg::Number(n as f64)
+            } else {
+                Arg::Text(value.to_string())
+            };
+            args.push((name, arg));
+        }
+        kwargs.assert_all_used()?;
+        match catalogue.try_format(key, &args) {
+            Some(words) => Ok((words, values)),
+            None => Err(minijinja::Error::new(
+                minijinja::ErrorKind::InvalidOperation,
+                format!(
+                    "the message catalogue ({}, {}) has no message `{key}`",
+                    catalogue.language(),
+                    catalogue.origin()
+                ),
+            )),
+        }
+    }
+    let plain = catalogue.clone();
+    let t = Value::from_function(
+        move |key: &str, kwargs: minijinja::value::Kwargs| -> Result<String, minijinja::Error> {
+            lookup(&plain, key, &kwargs, false).map(|(words, _)| words)
+        },
+    );
+    let strong = catalogue.clone();
+    let tm = Value::from_function(
+        move |key: &str, kwargs: minijinja::value::Kwargs| -> Result<Value, minijinja::Error> {
+            let (words, values) = lookup(&strong, key, &kwargs, true)?;
+            let mut markup = crate::typeset::escape_markup(&words).replace("\\*", "*");
+            for (i, v) in values.iter().enumerate() {
+                markup =
+                    markup.replace(&format!("QzqArg{i}Qzq"), &crate::typeset::escape_markup(v));
+            }
+            Ok(typst_markup(markup))
+        },
+    );
+    (t, tm)
 }
 
 /// A minijinja error with its place in the template and its causes.
@@ -454,7 +575,8 @@ mod tests {
                 SUPPLY_PLOT
             ]
         );
-        assert_eq!(doc.sandbox.get(NOTICE_SOURCE), Some(NOTICE_TEXT.as_bytes()));
+        let notice = notice_source(Catalogue::english()).unwrap();
+        assert_eq!(doc.sandbox.get(NOTICE_SOURCE), Some(notice.as_bytes()));
     }
 
     #[test]
@@ -675,13 +797,87 @@ mod tests {
 
     #[test]
     fn the_checked_phrases_are_the_notices_own_words() {
-        for phrase in NOTICE_PHRASES {
-            assert!(
-                NOTICE_TEXT.contains(phrase),
-                "{phrase} is not in mains-safety.typ"
-            );
+        // The English catalogue's notice is the one the stand-in typst
+        // programs of the fault tests print.
+        assert_eq!(notice_phrases(Catalogue::english()), NOTICE_PHRASES);
+        for tag in ["en", "de"] {
+            let catalogue = Catalogue::built_in(tag).unwrap();
+            let source = notice_source(&catalogue).unwrap();
+            for phrase in notice_phrases(&catalogue) {
+                // Each phrase is in the notice's source, escaped for Typst.
+                let escaped = crate::typeset::escape_markup(&phrase);
+                assert!(
+                    source.contains(&escaped),
+                    "{tag}: {phrase} is not in the notice"
+                );
+            }
+            // Every part of the notice is filled.
+            for key in crate::catalogue::NOTICE_KEYS
+                .iter()
+                .filter(|k| !k.ends_with("-opening") && !k.ends_with("-closing"))
+            {
+                let words = crate::typeset::escape_markup(&catalogue.text(key));
+                assert!(source.contains(&words), "{tag}: {key} missing");
+            }
         }
-        assert_eq!(notice_required().phrases.len(), NOTICE_PHRASES.len());
+        assert!(!notice_source(Catalogue::english()).unwrap().contains("{{"));
+    }
+
+    #[test]
+    fn a_german_catalogue_fills_the_template_and_the_notice() {
+        let (job, findings, text) = demo("combo-6v6-fixed.kdl");
+        let german = Catalogue::built_in("de").unwrap();
+        let input = HandoverInput {
+            catalogue: &german,
+            ..HandoverInput::new(&job, &findings, &text, "0.15.1")
+        };
+        let doc = build(&input, &TemplateSource::embedded(EMBEDDED_TEMPLATES)).unwrap();
+        let source = String::from_utf8(doc.sandbox.get(MAIN_SOURCE).unwrap().to_vec()).unwrap();
+        assert!(source.contains("lang: \"de\""));
+        for words in [
+            "Röhrenbestückung",
+            "Methode und Annahmen",
+            "Übergabe",
+            "Zwischensumme",
+        ] {
+            assert!(source.contains(words), "{words} missing");
+        }
+        // Completed 12 November 2026, in German.
+        assert_eq!(
+            doc.context.job.completed.as_deref(),
+            Some("12. November 2026")
+        );
+        for english in ["Valve line-up", "Method and assumptions", "Subtotal"] {
+            assert!(!source.contains(english), "{english} left in English");
+        }
+        let notice = String::from_utf8(doc.sandbox.get(NOTICE_SOURCE).unwrap().to_vec()).unwrap();
+        assert!(notice.contains("NETZSICHERHEIT"));
+        assert_eq!(
+            doc.options.required_text.as_ref().unwrap().phrases,
+            notice_phrases(&german)
+        );
+    }
+
+    #[test]
+    fn a_template_asking_for_an_unknown_message_is_refused_naming_it() {
+        let dir = tempfile::tempdir().unwrap();
+        std::fs::write(
+            dir.path().join(TEMPLATE_NAME),
+            "{{ t(\"doc-no-such-label\") }}\n#include \"mains-safety.typ\"\n",
+        )
+        .unwrap();
+        let (job, findings, text) = demo("combo-el84-cathode.kdl");
+        let input = HandoverInput::new(&job, &findings, &text, "0.15.1");
+        let source = TemplateSource::embedded(EMBEDDED_TEMPLATES).with_override_dir(dir.path());
+        match build(&input, &source) {
+            Err(HandoverError::Template { detail, .. }) => {
+                assert!(
+                    detail.contains("no message `doc-no-such-label`"),
+                    "{detail}"
+                );
+            }
+            other => panic!("expected a template error, got {other:?}"),
+        }
     }
 
     #[test]

@@ -10,7 +10,7 @@ use serde::Serialize;
 use crate::job::Job;
 use crate::shop::{Logo, Paper, ShopProfile};
 
-use super::context::date_words;
+use crate::catalogue::Catalogue;
 
 /// The shop block at the head of page 1 and in the footer. Without a
 /// profile, every document carries the same neutral block.
@@ -91,8 +91,13 @@ pub struct WarrantyInfo {
 }
 
 /// The acceptance block for a job and its shop profile.
-pub fn acceptance(job: &Job, profile: Option<&ShopProfile>) -> AcceptanceBlock {
+pub fn acceptance(
+    job: &Job,
+    profile: Option<&ShopProfile>,
+    catalogue: &Catalogue,
+) -> AcceptanceBlock {
     let completed: Option<NaiveDate> = job.info.completed;
+    let date_words = |d: NaiveDate| catalogue.date(d);
     AcceptanceBlock {
         technician: job.info.technician.clone(),
         date: completed.map(date_words),
@@ -101,7 +106,7 @@ pub fn acceptance(job: &Job, profile: Option<&ShopProfile>) -> AcceptanceBlock {
             .and_then(|p| p.warranty.as_ref())
             .map(|w| WarrantyInfo {
                 text: super::context::reflow(&w.text),
-                period: w.period.map(|p| p.words()),
+                period: w.period.map(|p| period_words(p, catalogue)),
                 until: match (w.period, completed) {
                     (Some(p), Some(d)) => p.end_from(d).map(date_words),
                     _ => None,
@@ -111,4 +116,18 @@ pub fn acceptance(job: &Job, profile: Option<&ShopProfile>) -> AcceptanceBlock {
             .and_then(|p| p.terms.as_deref())
             .map(super::context::reflow),
     }
+}
+
+/// A warranty period in the catalogue's words: "90 days", "1 year".
+pub fn period_words(p: crate::shop::Period, catalogue: &Catalogue) -> String {
+    let key = match p.unit {
+        crate::shop::PeriodUnit::Days => "period-days",
+        crate::shop::PeriodUnit::Weeks => "period-weeks",
+        crate::shop::PeriodUnit::Months => "period-months",
+        crate::shop::PeriodUnit::Years => "period-years",
+    };
+    catalogue.format(
+        key,
+        &[("count", crate::catalogue::Arg::from(p.count as usize))],
+    )
 }

@@ -410,6 +410,8 @@ pub fn build_context(job: &Job, findings: &Findings, inputs: &ListingInputs<'_>)
             authors,
             description: words::description(&name),
             paper: paper(inputs.profile, job).typst_name().to_string(),
+            // The listing's own words are English (`words.rs`).
+            lang: "en".to_string(),
         },
         shop: inputs.shop.clone(),
         unit: ListingUnit {

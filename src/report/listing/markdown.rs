@@ -5,7 +5,7 @@
 //! link, an image, a table cell break or raw HTML.
 
 use super::context::{ListingContext, PhotoFile};
-use super::notice::notice;
+use super::notice::Notice;
 
 /// Characters that can start or end Markdown (CommonMark and the usual
 /// extensions: tables, strikethrough, footnotes, maths, attributes)
@@ -72,7 +72,7 @@ fn or_dash(v: &Option<String>) -> String {
 /// The whole listing in Markdown, ending in a newline. `photos` names the
 /// photo files written beside the Markdown, in the order of the context's
 /// photos.
-pub fn render(ctx: &ListingContext, photos: &[PhotoFile]) -> String {
+pub fn render(ctx: &ListingContext, photos: &[PhotoFile], n: &Notice) -> String {
     let mut md = Vec::<String>::new();
     let u = &ctx.unit;
     let mut title = format!("{} {}", inline(&u.make), inline(&u.model));
@@ -268,7 +268,6 @@ pub fn render(ctx: &ListingContext, photos: &[PhotoFile]) -> String {
         }
     }
 
-    let n = notice();
     md.push(format!("## {}", inline(&n.heading)));
     md.push(String::new());
     for (title, body) in &n.points {

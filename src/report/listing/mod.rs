@@ -20,14 +20,15 @@ pub use context::{
     ListingUnit, PhotoFile, SerialShown, ServicedRow, ValveHealthRow, build_context, mask_serial,
 };
 pub use markdown::{inline as markdown_inline, render as markdown};
-pub use notice::{Notice, notice};
+pub use notice::{Notice, notice, notice_in};
 
 use crate::calc::Findings;
+use crate::catalogue::Catalogue;
 use crate::job::Job;
 use crate::photo::PreparedPhoto;
 use crate::report::handover::{
-    HandoverError, MAIN_SOURCE, NOTICE_INCLUDE, NOTICE_SOURCE, NOTICE_TEXT, ShopBlock,
-    creation_date, fill_template, job_digest, notice_required,
+    HandoverError, MAIN_SOURCE, NOTICE_INCLUDE, NOTICE_SOURCE, ShopBlock, creation_date,
+    fill_template, job_digest, notice_required, notice_source,
 };
 use crate::shop::{Logo, ShopProfile};
 use crate::typeset::{CompileOptions, Sandbox, TemplateSource};
@@ -51,6 +52,9 @@ pub struct ListingInput<'a> {
     pub typst_version: String,
     pub shop: Option<&'a ShopProfile>,
     pub logo: Option<&'a Logo>,
+    /// The shop's message catalogue: the notice's words (the listing's own
+    /// fixed words are in [`words`]).
+    pub catalogue: &'a Catalogue,
     pub serial: SerialShown,
     /// Every photo of the job, prepared; the listing takes those marked
     /// for it.
@@ -103,7 +107,7 @@ pub fn build(
         photos: crate::report::photos::photo_rows(listed.iter().copied()),
     };
     let context = build_context(input.job, input.findings, &inputs);
-    let source = render_template(&context, templates)?;
+    let source = fill_template(TEMPLATE_NAME, &context, input.catalogue, templates)?;
     if !source.lines().any(|l| l.trim() == NOTICE_INCLUDE) {
         return Err(HandoverError::Template {
             name: TEMPLATE_NAME.to_string(),
@@ -114,7 +118,7 @@ pub fn build(
         });
     }
     sandbox.insert(MAIN_SOURCE, source)?;
-    sandbox.insert(NOTICE_SOURCE, NOTICE_TEXT)?;
+    sandbox.insert(NOTICE_SOURCE, notice_source(input.catalogue)?)?;
     let photo_files: Vec<(String, Vec<u8>)> = listed
         .iter()
         .enumerate()
@@ -134,12 +138,12 @@ pub fn build(
             caption: p.caption.clone(),
         })
         .collect();
-    let markdown = markdown::render(&context, &files);
+    let markdown = markdown::render(&context, &files, &notice_in(input.catalogue));
     Ok(ListingDocument {
         sandbox,
         main: MAIN_SOURCE,
         options: CompileOptions {
-            required_text: Some(notice_required()),
+            required_text: Some(notice_required(input.catalogue)),
             ..CompileOptions::new(creation_date(input.job))
         },
         context,
@@ -153,12 +157,4 @@ fn from_override(templates: &TemplateSource) -> bool {
         .override_dir
         .as_ref()
         .is_some_and(|d| d.join(TEMPLATE_NAME).is_file())
-}
-
-/// Fills [`TEMPLATE_NAME`] with `context` and the bundled fonts' rules.
-pub fn render_template(
-    context: &ListingContext,
-    templates: &TemplateSource,
-) -> Result<String, HandoverError> {
-    fill_template(TEMPLATE_NAME, context, templates)
 }

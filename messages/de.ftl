@@ -1,0 +1,484 @@
+# ampreport's message catalogue: German (Deutsch).
+#
+# NEEDS A NATIVE SPEAKER'S REVIEW. Written with care by a non-native
+# writer to prove the catalogue mechanism; the trade terms (Anode,
+# Schirmgitter, Ruhestrom, Verlustleistung, Siebkondensator …) follow
+# common German workshop usage as far as the writer knows it. Before a
+# shop hands a German document to a customer, a German-speaking
+# technician should read every message here, above all the mains-safety
+# notice (`notice-…`), which must match the wording local rules expect.
+#
+# Same keys and arguments as messages/en.ftl (the reference); the program
+# refuses a catalogue that lacks a key. Numbers keep the decimal point
+# (see docs/shop.md).
+
+date = { $day }. { $month } { $year }
+month-1 = Januar
+month-2 = Februar
+month-3 = März
+month-4 = April
+month-5 = Mai
+month-6 = Juni
+month-7 = Juli
+month-8 = August
+month-9 = September
+month-10 = Oktober
+month-11 = November
+month-12 = Dezember
+
+## Statuswörter.
+
+doc-footer-job = Auftrag
+doc-footer-page = Seite
+doc-footer-of = von
+doc-footer-commit = Commit
+doc-footer-edits = + Änderungen
+doc-photos = Fotos
+doc-footer-digest = SHA-256 der Auftragsdatei
+status-ok = OK
+status-caution = VORSICHT
+status-over = ZU HOCH
+status-cold = ZU KALT
+status-accepted = AKZEPTIERT
+status-unchecked = NICHT GEPRÜFT
+status-unmeasured = NICHT GEMESSEN
+doc-key-ok = innerhalb der Grenze
+doc-key-caution = nahe an einer Grenze
+doc-key-over = über einem Grenzwert
+doc-key-cold = unter dem Ruhestrom-Ziel
+doc-key-accepted = als annehmbar beurteilt
+
+## Das Übergabeprotokoll (templates/handover.typ).
+
+doc-kind = ÜBERGABEPROTOKOLL
+doc-job = Auftrag { $id }
+doc-received = Eingang { $date }
+doc-completed = Fertig { $date }
+doc-technician = Techniker: { $name }
+doc-unit = Gerät
+doc-serial = Seriennummer
+doc-made = Baujahr { $year }
+doc-condition = Zustand bei Eingang:
+doc-customer = Kunde
+doc-not-recorded = Nicht erfasst
+doc-mains = Netz
+doc-mains-line = { $nominal } Nennspannung, obere Netzgrenze { $high_line } ({ $tolerance })
+doc-mains-design = ; die Spannungstabelle des Herstellers gilt für { $design }
+doc-found = Befund
+doc-done = Erledigt
+doc-now = Jetzt
+doc-glance = AUF EINEN BLICK
+doc-read-notice-bold = Vor Gebrauch oder Öffnen des Geräts
+doc-read-notice = bitte den Hinweis zur Netzsicherheit auf Seite
+doc-read-notice-end = { " " }lesen.
+doc-attention = Was Aufmerksamkeit braucht
+doc-open-in = Offen in den Messwerten „{ $label }“, mit denen das Gerät übergeben wird
+doc-nothing-open = In den Messwerten „{ $label }“, mit denen das Gerät übergeben wird, ist nichts offen.
+doc-accepted-heading = Vom Techniker akzeptiert
+doc-col-finding = Befund
+doc-col-figure = Wert
+doc-col-why-acceptable = Warum annehmbar
+doc-col-accepted-by = Akzeptiert von
+doc-accepted-note = Ein akzeptierter Wert behält in den Tabellen seinen Status und seine Zahlen; der Techniker hat ihn beurteilt und zeichnet dafür, daher zählt er nicht mehr gegen das Gerät.
+doc-whole-job = Für den ganzen Auftrag
+doc-history = Was die Messwerte „{ $label }“ zeigten
+doc-the-job = Der Auftrag
+doc-complaint = Beanstandung
+doc-findings = Befund
+doc-work-done = Ausgeführt
+doc-parts = Ersetzte Teile
+doc-col-part = Teil
+doc-col-was = Vorher
+doc-col-now = Jetzt
+doc-col-reason = Grund
+doc-col-original-kept = Original
+    aufbewahrt
+doc-no-parts = Es wurden keine Teile ersetzt.
+doc-mods = Änderungen
+doc-col-change = Änderung
+doc-col-why = Warum
+doc-col-reversible = Rückbaubar
+doc-worked-figures = Berechnete Werte
+doc-worked-note = Die berechneten Werte sind Lehrbuch-Abschätzungen erster Ordnung; für eine Röhrenstufe verwenden sie die typischen Werte μ und ra aus der Datenzeile der Röhre. Die wirkliche Schaltung weicht je nach Röhre und umgebenden Bauteilen ab.
+doc-network-before-after = { $label }: Frequenzgang vor und nach der Änderung
+doc-network-response = { $label }: Frequenzgang des Netzwerks
+doc-network-curves = Die Kurven zeigen die Spannung dort je Volt Leerlaufspannung der Quelle, berechnet von 20 Hz bis 20 kHz.
+doc-network-dashed = Grau gestrichelt: vor der Änderung; schwarz durchgezogen: danach.
+doc-network-markers = Jede Potistellung hat ihr eigenes Symbol.
+doc-network-problem = Das Netzwerk konnte nicht berechnet werden: { $problem }
+doc-changed = Geändert
+doc-col-pot-settings = Potistellungen (0–10)
+doc-col-corner = Eckfrequenz oder Mittensenke
+doc-row-change = Änderung
+doc-row-before = vorher
+doc-row-after = nachher
+doc-network-method = Berechnet mit modifizierter Knotenanalyse bei 40 Punkten je Dekade. Logarithmische Potis folgen zwei Geraden durch 10 % des Widerstands bei halber Drehung (gängige Praxis). Eine Eckfrequenz liegt dort, wo eine Kurve 3 dB unter ihren Höchstwert fällt; eine Senke ist ein Einbruch von mindestens 2 dB unter beide Seiten.
+doc-network-spice = Der Rechner stimmt mit einem allgemeinen Schaltungssimulator (ngspice) auf 0,05 dB und 0,5° überein;
+doc-network-netlist = schreibt das Netzwerk für einen solchen.
+doc-col-rate-before = Frequenz vorher
+doc-col-gain-needed = Nötige Verstärkung
+doc-col-rate-after = Frequenz nachher
+doc-col-rate = Frequenz
+doc-oscillator-note = Die Frequenz ist die, bei der das Netzwerk das Signal um 180° dreht; die Stufe, auf die es zurückwirkt, muss dort den Verlust (die nötige Verstärkung) ausgleichen, damit die Schwingung einsetzt.
+doc-no-mods = Die Schaltung wurde nicht geändert.
+doc-notes = Anmerkungen
+doc-line-up = Röhrenbestückung
+doc-col-channel = Kanal
+doc-col-position = Position
+doc-col-type = Typ
+doc-col-role = Aufgabe
+doc-col-rated-as = Daten von
+doc-col-fitted = In einer Messreihe bestückt
+doc-no-valves = Keine Röhren angegeben.
+doc-measurements-of = Messwerte: { $label }
+doc-as-handed-over = (bei Übergabe)
+doc-set-mains = Netz gemessen mit { $mains }; Werte „bei { $nominal }“ sind mit dem Faktor { $factor } auf die Nennspannung umgerechnet.
+doc-fitted-bold = Für diese Messungen bestückte Röhren:
+doc-fitted-ratings = Ihre Werte beruhen auf den Grenzdaten des bestückten Typs.
+doc-bias-controls = { $count ->
+        [one] Bias-Regler:
+       *[other] Bias-Regler:
+    }
+doc-supply = Versorgungsspannungen
+doc-col-node = Punkt
+doc-col-feeds = Versorgt
+doc-col-measured = Gemessen
+doc-col-at = Bei { $nominal }
+doc-col-expected = Erwartet
+doc-col-deviation = Abweichung
+doc-col-band = Band
+doc-col-status = Status
+doc-valves-idle = Röhren im Ruhezustand
+doc-col-pos = Pos.
+doc-col-of-max = vom Max.
+doc-col-pct-nominal = % bei
+    Nennspg.
+doc-col-pct-high-line = % bei oberer
+    Netzgrenze
+doc-idle-from = Ruhestrom ermittelt aus: { $methods }.
+doc-ik-note = „Ik“ kennzeichnet einen Anodenstrom, für den der ganze Kathodenstrom genommen wurde, der den Schirmgitterstrom einschließt: diese Verlustleistungen liegen auf der hohen Seite (vorsichtig gerechnet).
+doc-limits-note = Die Grenzen sind die Röhrendaten, die bei den Hinweisen zur Methode aufgeführt sind.
+doc-window = Zielbereich für feste Gittervorspannung
+doc-col-valve = Röhre
+doc-col-aim = Ziel, %
+    vom Pa max
+doc-col-ia-aim = Ia für
+    das Ziel
+doc-col-ia-now = Ia
+    jetzt
+doc-col-set-to = Einstellen auf
+doc-col-reads-now = Anzeige
+    jetzt
+doc-grid-middle = etwa { $volts } am Gitter für die Mitte (Schätzung)
+doc-warm-up = Aufwärmen: Ruhestrom über der Zeit seit dem Einschalten
+doc-col-time = Zeit
+doc-warm-up-note = Jeder Messwert wird so ausgewertet wie die übrigen Messwerte der Reihe; die Röhrentabelle oben zeigt die eingeschwungenen Werte.
+doc-warm-up-ik = „Ik“: der Kathodenstrom, der den Schirmgitterstrom einschließt.
+doc-stressed = Belastete Bauteile
+doc-col-ref = Bez.
+doc-col-where = Wo
+doc-col-value = Wert
+doc-col-rating = Belastbarkeit
+doc-col-dissipation = Verlustleistung
+doc-col-pct-rating = % der
+    Belastbarkeit
+doc-col-at-high-line = Bei oberer
+    Netzgrenze
+doc-col-rated = Nennspg.
+doc-col-working = Betriebsspg.
+doc-col-high-line = Obere Grenze
+doc-col-cold-start = Kaltstart-
+    spitze
+doc-col-highest = Höchste
+doc-col-margin = Reserve
+doc-col-load-counted = Gezählte Last
+doc-col-load-at-least = Last,
+    mindestens
+doc-col-rated-output = Nenn-
+    strom
+doc-valve-rectifier = Gleichrichterröhre { $type }
+doc-rectifier-note = Der Gleichrichter speist auch den Rest der Schaltung (Vorstufe, Phasenumkehr, etwaige Schirmgitter- und Bias-Versorgung), der hier nicht mitgezählt ist.
+doc-heaters = Heizversorgung
+doc-col-heater = Heizung
+doc-col-nominal = Nennwert
+doc-col-at-nominal-mains = Bei Netz-
+    nennspannung
+doc-heater = Heizung
+doc-suggest-heading = Kathodenwiderstand { $reference }: welcher Wert passt (eine Schätzung)
+doc-suggest-today = Jetzt ist { $reference } ein { $present } unter { $valves }; { $calibrated } setzt { $pa } um.
+doc-suggest-aiming = Mit dem Ziel { $target } ergibt das an diese Messwerte angepasste Drei-Halbe-Gesetz
+doc-suggest-none = keinen Widerstand: selbst ganz ohne Widerstand käme die Röhre nicht auf das Ziel
+doc-col-series = Reihe
+doc-col-fit = Wert
+doc-col-about = etwa
+doc-col-ik-each = Ik je Röhre
+doc-col-resistor-dissipates = Widerstand
+    setzt um
+doc-col-resistor-rating = Belastbarkeit des Widerstands
+doc-rating-at-least = mindestens { $least } (das Doppelte seiner Verlustleistung): ein Bauteil mit { $rating }
+doc-estimate-bold = Dies ist eine Schätzung aus einer einzigen Messreihe, keine Messung.
+doc-estimate = Den neuen Widerstand einbauen, die Röhren auf Betriebstemperatur kommen lassen und den Ruhestrom vor der Rückgabe erneut messen; die gemessenen Werte entscheiden.
+doc-law = Das Gesetz: Ik = K × (Vg2k ÷ μg1g2 + Vgk)^1.5 mit μg1g2 { $mu } aus der Röhrendatentabelle und K = { $constant }, so angepasst, dass es den heutigen Messwert genau trifft; Vk = n × Ik × Rk für die Röhren am gemeinsamen Widerstand.
+doc-law-voltages = Anoden- und Schirmgitterspannung sind wie gemessen genommen (das Absinken der Versorgung ist vernachlässigt)
+doc-law-ik = , und als Anodenstrom gilt der ganze Kathodenstrom, wie in der Tabelle oben
+doc-law-series = Die Werte sind die nächsten Werte der Reihen E12 und E24 nach IEC 60063.
+doc-bench = Messungen am Prüfplatz
+doc-col-output-power = Ausgangsleistung
+doc-col-reading = Messwert
+doc-col-load = Last
+doc-col-frequency = Frequenz
+doc-col-condition = Bedingung
+doc-col-power = Leistung
+doc-col-pct-rated = % der
+    Nennleistung
+doc-pct-of = { $pct } von { $rated }
+doc-col-hum-noise = Brumm und Rauschen
+doc-col-input = Eingang
+doc-col-volume = Lautstärke
+doc-col-across-load = An der
+    Last
+doc-col-below-full = Unter voller
+    Leistung
+doc-col-compared = Bezogen auf
+doc-level-into = { $level } an { $load }
+doc-nothing-to-compare = kein Bezugswert
+doc-col-response = Frequenzgang
+doc-row-output-v = Ausgang, V
+doc-row-db-against = dB bezogen auf { $reference }
+doc-minus3-points = −3-dB-Punkte:
+doc-and = und
+doc-for-input = , bei { $input } am Eingang
+doc-into-load = an { $load }
+doc-response-record = Zur Dokumentation; für den Frequenzgang gibt es keine Bestehensgrenze.
+doc-col-gain = Verstärkung
+doc-col-in = Ein
+doc-col-out = Aus
+doc-col-ratio = Faktor
+doc-measurements = Messwerte
+doc-no-measurements = Es wurden keine Messwerte erfasst.
+doc-charts = Diagramme
+doc-chart-dissipation = Endröhren: Anodenverlustleistung im Verhältnis zum Grenzwert
+doc-chart-dissipation-note = Jeder Balken ist eine Röhre in einer Messreihe, bei der Netzspannung jenes Tages, als Anteil an ihrer höchsten Anodenverlustleistung. Die dicke Linie ist 100 % des Grenzwerts.
+doc-chart-supply = Versorgungskette: Spannungen im Vergleich zur Spannungstabelle
+doc-chart-supply-note = Graue Säulen umfassen die erwartete Spannung jedes Punkts (der Tabellenwert umgerechnet auf { $nominal } Netzspannung, gestrichelt) plus und minus ihrer Toleranz. Die Marken sind die auf { $nominal } Netzspannung umgerechneten Messwerte.
+doc-chart-response = Frequenzgang am Prüfplatz
+doc-chart-response-note = Jede Linie ist eine Frequenzgangmessung in dB bezogen auf ihre Bezugsfrequenz, über einer logarithmischen Frequenzachse. Die gestrichelte Linie ist −3 dB; die senkrechten Striche darauf markieren die −3-dB-Punkte, gefunden durch Interpolation zwischen den beiden Messwerten auf jeder Seite.
+doc-safety = Elektrische Sicherheitsprüfungen
+doc-protection-class = Schutzklasse: { $class }.
+doc-col-test = Prüfung
+doc-col-limit = Grenzwert
+doc-col-result = Ergebnis
+doc-safety-limits-note = Die Grenzwerte hat die Werkstatt für diesen Auftrag festgelegt. Sie müssen den Vorschriften entsprechen, die am Einsatzort des Geräts gelten.
+doc-safety-none = Der Sicherheitsblock enthält keine Prüfungen.
+doc-safety-missing = Für diesen Auftrag wurden keine elektrischen Sicherheitsprüfungen erfasst.
+doc-charges = Kosten
+doc-col-item = Posten
+doc-col-hours = Stunden oder
+    Menge
+doc-col-rate-price = Satz oder
+    Preis
+doc-col-amount = Betrag
+doc-labour = Arbeitszeit
+doc-parts-charged = Teile
+doc-subtotal = Zwischensumme
+doc-tax-at = { $name } zu { $rate }
+doc-total = Gesamt, { $currency }
+doc-rounding = Jede Zeile ist auf zwei Nachkommastellen gerundet (Hälften aufwärts)
+doc-tax-on-subtotal = ; { $name } wird auf die Zwischensumme berechnet
+doc-hand-over = Übergabe
+doc-warranty = Gewährleistung
+doc-warranty-until = Gewährleistungsfrist: { $period }, vom Fertigstellungsdatum bis { $until }.
+doc-warranty-from = Gewährleistungsfrist: { $period } ab dem Fertigstellungsdatum.
+doc-terms = Bedingungen
+doc-signature = Unterschrift
+doc-date = Datum
+doc-handed-over = Das oben beschriebene Gerät wurde mit diesem Protokoll übergeben. Der Kunde bestätigt den Erhalt des Geräts und dieses Protokolls einschließlich des Hinweises zur Netzsicherheit.
+doc-sign-technician = Techniker
+doc-method = Methode und Annahmen
+doc-method-intro = Jeder Wert in diesem Protokoll ist entweder ein Messwert aus der Auftragsdatei oder nach den folgenden Regeln aus Messwerten berechnet. Spannungen sind Gleichspannungen gegen Chassis, sofern nicht anders angegeben. Mit *gängige Praxis* gekennzeichnete Richtbereiche sind Faustregeln des Handwerks ohne eine einzelne veröffentlichte Quelle; mit *aus dem Gedächtnis* gekennzeichnete Werte stammen aus veröffentlichten Daten und sollten mit dem Datenblatt geprüft werden. Jeder Bereich ist eine Einstellung des Auftrags; die hier verwendeten Werte sind angegeben.
+doc-ratings-used = Verwendete Röhrendaten
+doc-col-class = Klasse
+doc-col-positions = Positionen
+doc-col-limits-used = Verwendete Grenzwerte
+doc-col-source-note = Quellenangabe
+doc-col-from = Herkunft
+doc-no-types = Es wurden keine Röhrentypen verwendet.
+doc-how = Wie die Werte berechnet werden
+doc-m-idle = *Ruhestrom.* Bei einem Kathodenwiderstand Rk, den n Röhren teilen, ist der Kathodenstrom jeder Röhre Ik = Vk ÷ (n × Rk); eigener Widerstand: n = 1. Über einem Messwiderstand Rs gilt Ik = Vs ÷ Rs. Nach der Übertragerwiderstands-Methode ist Ia = Vdrop ÷ Rhalf, mit Rhalf kalt und spannungslos gemessen (geteilt durch n, wo n Röhren eine Primärhälfte teilen). Ein Shunt über der halben Primärwicklung oder ein Bias-Messadapter liefert den Strom direkt.
+doc-m-matched-cathode = *Annahme gepaarter Röhren:* dieser Auftrag hat einen gemeinsamen Kathodenwiderstand, daher nehmen die Werte an, dass sich die Röhren daran den Strom gleichmäßig teilen.
+doc-m-matched-primary = *Annahme gepaarter Röhren:* Röhren an einer gemeinsamen Primärhälfte teilen sich deren Strom nach dieser Annahme gleichmäßig.
+doc-m-screen = *Schirmgitterstrom.* Wo ein Schirmgitterwiderstand den Schirmgitterstrom liefert, gilt Ig2 = (Vsupply − Vg2) ÷ Rg2 und Ia = Ik − Ig2. Sonst gilt der ganze Kathodenstrom als Anodenstrom (Ia = Ik), der den Schirmgitterstrom einschließt: diese *vorsichtige Regel*, in den Tabellen mit „Ik“ gekennzeichnet, ergibt Verlustleistungen auf der hohen Seite.
+doc-m-screen-used = Die Werte dieses Auftrags verwenden sie.
+doc-m-dissipation = *Verlustleistung.* Anode: Pa = (Va − Vk) × Ia. Schirmgitter: Pg2 = (Vg2 − Vk) × Ig2. „% vom Max.“ ist der Wert im Verhältnis zum Grenzwert in der Tabelle oben.
+doc-m-mains = *Netzkorrektur (erster Ordnung).* Transformatorgespeiste Spannungen werden als proportional zur Netzspannung angenommen: ein Messwert V bei der Netzspannung Vm wird zu V × Vn ÷ Vm bei der Nennspannung Vn = { $nominal }. Ströme ändern sich ebenso, daher die Verlustleistung mit dem Quadrat: P × (Vn ÷ Vm)². Das ist eine Näherung; Innenwiderstand der Versorgung und Gleichrichterverlust bleiben unberücksichtigt.
+doc-m-high-line = *Obere Netzgrenze.* Die Versorgung kann um ihre Toleranz t = { $tolerance } über der Nennspannung liegen, bis { $high_line }; die hochgerechnete Verlustleistung ist P(Nenn) × (1 + t)², die hochgerechnete Spannung V(Nenn) × (1 + t). Die Standardtoleranzen stammen aus dem Gedächtnis aus den Versorgungsnormen (+5 % für 120-V-Netze, ANSI C84.1 Bereich A; ±10 % für 230 V, IEC 60038).
+doc-m-chart-title = Spannungstabelle.
+doc-m-chart-design = Die Tabelle des Herstellers gilt für { $design } Netzspannung, daher wird jeder Tabellenwert als V(Tabelle) × Vn ÷ Vd mit Vd = { $design } auf die Nennspannung umgerechnet.
+doc-m-chart-nominal = Die Tabellenwerte gelten als bei Netznennspannung aufgenommen.
+doc-m-chart-band = Ein Punkt ist normal innerhalb seines Bands um diesen erwarteten Wert ({ $tolerance }, sofern der Auftrag keinen anderen Wert setzt; gängige Praxis, viele Tabellen nennen ±10 % oder ±20 %).
+doc-m-bands-title = Richtbereiche (gängige Praxis).
+doc-m-bands-fixed = Feste Gittervorspannung, Gegentakt: Ziel { $low } bis { $high } von Pa max; darüber Vorsicht, darunter „zu kalt“ (Gefahr von Übernahmeverzerrungen), über 100 % überschritten.
+doc-m-bands-cathode = Kathodenautomatik: Vorsicht über { $caution }, über 100 % überschritten.
+doc-m-bands-parts = Widerstände: Vorsicht über { $derating } ihrer Belastbarkeit (Derating), über 100 % überschritten. Siebkondensatoren: überschritten über der Nennspannung, Vorsicht, wenn weniger als { $margin } davon übrig bleiben. Heizung: { $heater } vom Nennwert. Anoden- und Schirmgitterspannungen: Vorsicht über dem veröffentlichten Höchstwert (oder wenn die Hochrechnung auf die obere Netzgrenze ihn überschreitet), überschritten mehr als { $over } darüber; Gitarrenverstärker betreiben Endröhren oft über den Spannungshöchstwerten nach dem Design-Center-System, und die Anodenverlustleistung bestimmt die Lebensdauer der Röhre.
+doc-m-window = *Zielbereich.* Bei fester Gittervorspannung ist der Anodenstrom, der eine Röhre ins Ziel bringt, Ia = f × Pa(max) ÷ (Va − Vk) für f von { $low } bis { $high }; er wird auch als der Wert angegeben, den der Techniker einstellt (Millivolt über einem Messwiderstand, der auch den Schirmgitterstrom führt, oder Volt über der halben Primärwicklung).
+doc-m-bench = *Am Prüfplatz.* Messungen an einem Lastwiderstand mit der Lautsprecherimpedanz. Ausgangsleistung P = V²eff ÷ R; ein Spitze-Spitze-Wert eines Sinus ist Veff = Vss ÷ (2√2). Messungen an der Clipping-Grenze oder bei angegebenem Klirrfaktor unter { $power } der Nennleistung des Geräts sind ein Vorsichtsfall (gängige Praxis: ein gesundes älteres Gerät erreicht etwa 80 % oder mehr). Brumm und Rauschen in dBV ist 20 × log10(V ÷ 1 V); unter voller Leistung 20 × log10(Vvoll ÷ VRausch), mit Vvoll = √(P × R) aus der höchsten an der Clipping-Grenze oder bei angegebenem Klirrfaktor gemessenen Ausgangsleistung, sonst der Nennleistung; weniger als { $hum } ist ein Vorsichtsfall (gängige Praxis). Der Frequenzgang in dB ist 20 × log10(V ÷ Vref) bezogen auf die Bezugsfrequenz; die −3-dB-Punkte werden linear in dB über einer logarithmischen Frequenzachse zwischen den Messwerten auf beiden Seiten interpoliert. Die Verstärkung ist 20 × log10(Vaus ÷ Vein).
+doc-m-estimates = *Bias-Schätzungen.* Das Drei-Halbe-Gesetz (Child–Langmuir, wie es die klassischen Röhrenhandbücher auf Pentoden anwenden; aus dem Gedächtnis), Ik = K × (Vg2k ÷ μg1g2 + Vgk)^1.5, wird an die Messwerte einer Röhre angepasst, sodass es sie genau wiedergibt; μg1g2 stammt aus der Röhrendatentabelle (aus dem Gedächtnis nach Herstellerdaten).
+doc-m-estimates-resistor = Für einen Kathodenwiderstand findet es den Wert, der die heißeste Röhre daran auf { $target } ihrer Anodenverlustleistung bringt (gängige Praxis), mit Vk = n × Ik × Rk, und rundet auf die nächsten Werte der Reihen E12 und E24 nach IEC 60063; die Verlustleistung des Widerstands ist Vk² ÷ Rk, und seine Belastbarkeit sollte mindestens das Doppelte betragen (gängige Praxis).
+doc-m-estimates-grid = Bei fester Gittervorspannung gibt es die Gitterspannung für die Mitte des Zielbereichs an; maßgeblich bleiben die Stromwerte des Zielbereichs.
+doc-m-estimates-sag = Anoden- und Schirmgitterspannung sind wie gemessen genommen, ohne das Absinken der Versorgung: es sind Schätzungen aus einem einzigen Punkt, und der Ruhestrom muss nach jeder Änderung neu gemessen werden.
+doc-m-stressed = *Belastete Bauteile.* Vorwiderstand zwischen zwei Punkten: P = (V1 − V2)² ÷ R. Kathodenwiderstand: P = Vk² ÷ Rk. Beide werden wie die Röhren auf die obere Netzgrenze hochgerechnet. Ein Siebkondensator muss die höchste Spannung aushalten, die an ihm auftreten kann: seine auf die obere Netzgrenze hochgerechnete Betriebsspannung oder die Kaltstartspitze, je nachdem, welche höher ist; die Reserve ist, was von seiner Nennspannung übrig bleibt.
+doc-m-cold-start = *Kaltstartspitze:* bevor die Röhren Strom ziehen, lädt eine Zweiweg-Wicklung mit Vsec (effektiv, je Seite, bei der Primärspannung Vp angegeben) die ersten Kondensatoren auf etwa √2 × Vsec × V(obere Netzgrenze) ÷ Vp abzüglich des Gleichrichterverlusts (Silizium { $drop }; eine Gleichrichterröhre ohne Last etwa 0 V). Silizium- und direkt geheizte Gleichrichterröhren erreichen diesen Wert tatsächlich, während die Endröhren aufheizen.
+doc-m-judging = *Beurteilung des Geräts bei der Übergabe.* Die Zusammenfassung auf Seite 1, die Übersicht „Auf einen Blick“ und die Liste der offenen Befunde beziehen sich auf die letzten Messwerte
+doc-m-judging-label = („{ $label }“)
+doc-m-judging-rest = , also den Zustand, in dem das Gerät übergeben wird; die früheren Messwerte sind seine Vorgeschichte. Ein Wert, den der Techniker als annehmbar beurteilt hat, behält in den Tabellen seinen Status und seine Zahlen, wird mit Begründung, Name und Datum als AKZEPTIERT gekennzeichnet und zählt nicht mehr gegen das Gerät. Die Begründung jedes Status nennt den Wert, der ihn entschieden hat.
+
+## Hinweis zur Netzsicherheit (templates/mains-safety.typ): nur als Ganzes
+## übersetzbar. `notice-check-opening` ist wörtlich der erste Satz von
+## `notice-deadly`, `notice-check-closing` der letzte Satz von `notice-codes`.
+
+notice-heading = NETZSICHERHEIT: VOR GEBRAUCH ODER ÖFFNEN DES GERÄTS LESEN
+notice-deadly-title = Lebensgefahr
+notice-deadly = Dieser Verstärker arbeitet mit Spannungen, die tödlich sein können. Im eingeschalteten Zustand führen Teile im Chassis mehrere hundert Volt Gleichspannung, und die Netzverdrahtung führt die volle Netzspannung.
+notice-stored-title = Restladung
+notice-stored = Die Siebkondensatoren können noch lange nach dem Ausschalten und Ziehen des Netzsteckers eine gefährliche Ladung halten: Minuten, Stunden, manchmal Tage.
+notice-who-title = Wer öffnen darf
+notice-who = Nur eine für diese Arbeit ausgebildete und ausgerüstete Person darf das Chassis öffnen. Vor jeder Berührung im Inneren die Kondensatoren entladen und durch Messen prüfen, dass sie entladen sind.
+notice-earth-title = Schutzleiter
+notice-earth = Den Schutzleiter der Netzleitung niemals entfernen, durchtrennen oder überbrücken, und niemals einen Adapter oder Stecker verwenden, der den Schutzleiter unterbricht. Nur eine richtig angeschlossene Steckdose mit Schutzleiter verwenden.
+notice-fuses-title = Sicherungen
+notice-fuses = Eine Sicherung nur durch eine des Typs und Werts ersetzen, die am Gerät angegeben sind. Eine größere Sicherung behebt keinen Fehler; sie lässt den Fehler mehr Schaden anrichten.
+notice-document-title = Dieses Protokoll
+notice-document = Die Messwerte beschreiben das Gerät an den angegebenen Tagen bei der damals anliegenden Netzspannung. Sie dokumentieren die ausgeführte Arbeit, sind keine Bescheinigung der elektrischen Sicherheit und sagen nichts darüber, wie sich das Gerät später oder nach anderen Arbeiten verhält.
+notice-codes-title = Örtliche elektrotechnische Vorschriften gehen vor.
+notice-codes = Netzverdrahtung, Schutzleiteranschluss und elektrische Sicherheitsprüfungen müssen den elektrotechnischen Vorschriften und Bestimmungen entsprechen, die am Einsatzort des Geräts gelten. Wo diese Vorschriften oder die Praxis einer zugelassenen Elektrofachkraft von etwas in diesem Protokoll abweichen, gelten sie.
+notice-check-opening = Dieser Verstärker arbeitet mit Spannungen, die tödlich sein können.
+notice-check-closing = Wo diese Vorschriften oder die Praxis einer zugelassenen Elektrofachkraft von etwas in diesem Protokoll abweichen, gelten sie.
+
+## Vom Programm gebildete feste Wörter (src/report/handover).
+
+doc-title = Übergabeprotokoll { $id }: { $make } { $model }
+doc-description = Übergabeprotokoll zur Wartung eines Röhrenverstärkers, Auftrag { $id }
+doc-description-shop = Übergabeprotokoll zur Wartung eines Röhrenverstärkers, Auftrag { $id }, von { $shop }
+doc-glance-basis = Messwerte „{ $label }“ bei { $mains } Netzspannung
+doc-glance-none = Keine Messwerte erfasst
+doc-group-channel = Kanal: { $channel }
+doc-group-shared = Gemeinsam
+period-days = { $count ->
+        [one] { $count } Tag
+       *[other] { $count } Tage
+    }
+period-weeks = { $count ->
+        [one] { $count } Woche
+       *[other] { $count } Wochen
+    }
+period-months = { $count ->
+        [one] { $count } Monat
+       *[other] { $count } Monate
+    }
+period-years = { $count ->
+        [one] { $count } Jahr
+       *[other] { $count } Jahre
+    }
+
+## Das Terminal (`ampreport check`). Leerzeichen am Anfang oder Ende einer
+## Meldung entfallen: das Programm setzt sie.
+
+term-state-ok = ok
+term-state-caution = VORSICHT
+term-state-over = ZU HOCH
+term-state-cold = ZU KALT
+term-state-accepted = akzeptiert
+term-state-unchecked = NICHT GEPRÜFT
+term-job = Auftrag { $id }: { $make } { $model }
+term-serial = Seriennummer { $serial }
+term-mains = Netz: Nennspannung { $nominal }, obere Netzgrenze { $high_line } (+{ $tolerance } %)
+term-chart-drawn = Spannungstabelle für { $design }
+term-safety = Sicherheitsprüfungen
+term-col-test = Prüfung
+term-col-reading = Messwert
+term-col-limit = Grenzwert
+term-col-status = Status
+term-pass = bestanden
+term-fail = NICHT BESTANDEN
+term-mod-figures = Berechnete Werte der Änderungen
+term-final-set-labelled = „{ $label }“, den letzten Messwerten
+term-final-set = den letzten Messwerten
+term-no-open = Keine offenen Befunde in { $set }: jeder Wert liegt innerhalb seiner Grenzen oder ist akzeptiert.
+term-open = Offene Befunde in { $set } ({ $count })
+term-accepted-heading = Vom Techniker akzeptiert ({ $count })
+term-word-ok = ok
+term-word-caution = Vorsicht
+term-word-over = zu hoch
+term-word-cold = zu kalt
+term-whole-job = Für den ganzen Auftrag
+term-history = Befund in „{ $label }“
+term-final-mark = letzte: bei Übergabe
+term-set-mains = Netz { $mains }, Faktor { $factor } auf Nennspannung
+term-fitted = Für diese Messungen bestückt: { $position } { $type } (Bestückung: { $line_up })
+term-bias-control-labelled = Bias-Regler { $label }: { $position }
+term-bias-control = Bias-Regler: { $position }
+term-valves = Röhren
+term-col-pos = Pos.
+term-col-type = Typ
+term-col-bias = Vorspannung
+term-col-va = Va
+term-col-vk = Vk
+term-col-current = Strom
+term-col-pa = Pa
+term-col-pct-max = % max
+term-col-high-line = obere Grenze
+term-window-sense = { $low }–{ $high } mV über dem Messwiderstand
+term-window-primary = { $low }–{ $high } V über der halben Primärwicklung
+term-window-grid = Gitter etwa { $volts } für die Mitte
+term-now = jetzt { $volts }
+term-estimate = (Schätzung)
+term-window = { $position } Zielbereich { $low }–{ $high } %
+term-inside = innerhalb
+term-outside = außerhalb
+term-ik-note = Ik: als Anodenstrom gilt der Kathodenstrom einschließlich Schirmgitterstrom (vorsichtig gerechnet).
+term-warm-up = Aufwärmen (Ruhestrom nach dem Einschalten)
+term-col-valve = Röhre
+term-col-after = nach
+term-col-pa-pct-max = Pa % max
+term-nodes = Versorgungspunkte
+term-col-node = Punkt
+term-col-measured = gemessen
+term-col-corrected = korrigiert
+term-col-expected = erwartet
+term-col-deviation = Abweichung
+term-stressed = Belastete Bauteile
+term-col-part = Teil
+term-col-where = wo
+term-col-stress = Belastung
+term-col-rating = Belastbarkeit
+term-col-pct-margin = % / Reserve
+term-peak = { $volts } Spitze
+term-left = { $pct } % übrig
+term-not-checked = nicht geprüft ({ $reason })
+term-rectifier = Gleichrichter { $position } ({ $type }): mindestens { $load } mA von { $rating } mA ({ $pct } %)
+term-heater = Heizung: { $measured } gegen { $nominal } ({ $deviation } %)
+term-suggestion = Kathodenwiderstand { $reference } ({ $valves }, jetzt { $present }): für { $target } % von Pa max ({ $pa } W) ergibt das Drei-Halbe-Gesetz { $exact }
+term-out-of-reach = keinen Widerstand (nicht erreichbar)
+term-suggestion-option = { $series } { $value }: Vk { $vk }, { $current } je Röhre, Pa { $pa } W ({ $pct } %); der Widerstand setzt { $power } W um: Belastbarkeit { $least } W oder mehr (ein Bauteil mit { $rating })
+term-suggestion-estimate = Eine Schätzung aus einer einzigen Messreihe ({ $calibrated }, μg1g2 { $mu }); den Ruhestrom nach der Änderung erneut messen.
+term-bench = Messungen am Prüfplatz
+term-rms = { $volts } eff.
+term-peak-to-peak = { $volts } Spitze-Spitze = { $rms } eff.
+term-output-power = Ausgangsleistung
+term-output-power-line = { $reading } an { $load } bei { $frequency }, { $condition } = { $power } W
+term-of-rated = { $pct } der Nennleistung
+term-hum-noise = Brumm und Rauschen
+term-hum-noise-line = { $mv } mV ({ $dbv } dBV), Eingang { $input }
+term-volume = Lautstärke { $volume }
+term-below-full = { $db } dB unter voller Leistung
+term-response = Frequenzgang
+term-against = bezogen auf { $reference }
+term-in = { $volts } am Eingang
+term-col-frequency = Frequenz
+term-col-output = Ausgang
+term-col-db = dB
+term-below-not-reached = unter { $frequency } (nicht erreicht)
+term-above-not-reached = über { $frequency } (nicht erreicht)
+term-minus-3db = −3 dB: { $low } und { $high }
+term-gain = Verstärkung
+term-gain-line = { $input } am Eingang für { $output } am Ausgang bei { $frequency } = ×{ $times } ({ $db } dB)

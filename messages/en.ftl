@@ -1,0 +1,483 @@
+# ampreport's message catalogue: English, the reference.
+#
+# Every fixed sentence and label the program shows a reader comes from a
+# catalogue like this one (Project Fluent syntax: `key = text`; an argument
+# is written { $name }; a continuation line is indented). A translation
+# gives every key of this file and nothing else; see DEVELOPERS.md, "How to
+# add a message or a language", and docs/shop.md for a shop's own file.
+#
+# Dates: `date` puts the day, the month's name and the year in order.
+
+date = { $day } { $month } { $year }
+month-1 = January
+month-2 = February
+month-3 = March
+month-4 = April
+month-5 = May
+month-6 = June
+month-7 = July
+month-8 = August
+month-9 = September
+month-10 = October
+month-11 = November
+month-12 = December
+
+## Status words, shown in the document's tables and panels.
+
+
+## The hand-over document (templates/handover.typ).
+
+doc-footer-job = Job
+doc-footer-page = Page
+doc-footer-of = of
+doc-footer-commit = commit
+doc-footer-edits = + edits
+doc-photos = Photos
+doc-footer-digest = job file SHA-256
+status-ok = OK
+status-caution = CAUTION
+status-over = OVER
+status-cold = COLD
+status-accepted = ACCEPTED
+status-unchecked = NOT CHECKED
+status-unmeasured = NOT MEASURED
+doc-key-ok = inside its limit
+doc-key-caution = near a limit
+doc-key-over = beyond a rating
+doc-key-cold = below the bias aim
+doc-key-accepted = judged acceptable
+doc-kind = HAND-OVER REPORT
+doc-job = Job { $id }
+doc-received = Received { $date }
+doc-completed = Completed { $date }
+doc-technician = Technician: { $name }
+doc-unit = Unit
+doc-serial = Serial
+doc-made = Made { $year }
+doc-condition = Condition on arrival:
+doc-customer = Customer
+doc-not-recorded = Not recorded
+doc-mains = Mains
+doc-mains-line = { $nominal } nominal, high line { $high_line } ({ $tolerance })
+doc-mains-design = ; the factory voltage chart was drawn at { $design }
+doc-found = Found
+doc-done = Done
+doc-now = Now
+doc-glance = AT A GLANCE
+doc-read-notice-bold = Before using or opening this unit,
+doc-read-notice = read the mains-safety notice on page
+doc-read-notice-end = .
+doc-attention = What needs attention
+doc-open-in = Open in the readings “{ $label }”, as the unit leaves
+doc-nothing-open = Nothing is open in the readings “{ $label }”, as the unit leaves.
+doc-accepted-heading = Accepted by the technician
+doc-col-finding = Finding
+doc-col-figure = Figure
+doc-col-why-acceptable = Why it is acceptable
+doc-col-accepted-by = Accepted by
+doc-accepted-note = An accepted figure keeps its status and its numbers in the tables; the technician has judged it and signed for it, so it no longer counts against the unit.
+doc-whole-job = For the whole job
+doc-history = What the readings “{ $label }” showed
+doc-the-job = The job
+doc-complaint = Complaint
+doc-findings = Findings
+doc-work-done = Work done
+doc-parts = Parts replaced
+doc-col-part = Part
+doc-col-was = Was
+doc-col-now = Now
+doc-col-reason = Reason
+doc-col-original-kept = Original
+    kept
+doc-no-parts = No parts were replaced.
+doc-mods = Modifications
+doc-col-change = Change
+doc-col-why = Why
+doc-col-reversible = Reversible
+doc-worked-figures = Worked figures
+doc-worked-note = Worked figures are first-order textbook estimates; for a valve stage they use the typical μ and ra of its ratings row. The real circuit differs with the valve and the parts around it.
+doc-network-before-after = { $label }: response before and after the mod
+doc-network-response = { $label }: response of the network
+doc-network-curves = The curves are the voltage there per volt the source gives unloaded, solved from 20 Hz to 20 kHz.
+doc-network-dashed = Dashed grey: before the mod; solid black: after.
+doc-network-markers = Each pot setting has its own marker.
+doc-network-problem = The network could not be worked out: { $problem }
+doc-changed = Changed
+doc-col-pot-settings = Pot settings (0–10)
+doc-col-corner = Corner or mid scoop
+doc-row-change = change
+doc-row-before = before
+doc-row-after = after
+doc-network-method = Solved by modified nodal analysis at 40 points per decade. Audio-taper pots follow two straight segments through 10 % of the track at half rotation (common practice). A corner is where a curve crosses 3 dB below its highest level; a scoop is a dip at least 2 dB below both sides.
+doc-network-spice = The solver agrees with a general-purpose circuit simulator (ngspice) within 0.05 dB and 0.5°;
+doc-network-netlist = writes the network for one.
+doc-col-rate-before = Rate before
+doc-col-gain-needed = Gain needed
+doc-col-rate-after = Rate after
+doc-col-rate = Rate
+doc-oscillator-note = The rate is where the network turns the signal through 180°; the stage it feeds back must make up the loss there (the gain needed) for the oscillation to start.
+doc-no-mods = The circuit was not modified.
+doc-notes = Notes
+doc-line-up = Valve line-up
+doc-col-channel = Channel
+doc-col-position = Position
+doc-col-type = Type
+doc-col-role = Role
+doc-col-rated-as = Rated as
+doc-col-fitted = Fitted in a set
+doc-no-valves = No valves listed.
+doc-measurements-of = Measurements: { $label }
+doc-as-handed-over = (as handed over)
+doc-set-mains = mains read at { $mains }; figures “at { $nominal }” are corrected to nominal mains by the factor { $factor }.
+doc-fitted-bold = Valves fitted for these readings:
+doc-fitted-ratings = Their figures use the fitted type’s ratings.
+doc-bias-controls = { $count ->
+        [one] Bias control:
+       *[other] Bias controls:
+    }
+doc-supply = Supply voltages
+doc-col-node = Node
+doc-col-feeds = Feeds
+doc-col-measured = Measured
+doc-col-at = At { $nominal }
+doc-col-expected = Expected
+doc-col-deviation = Deviation
+doc-col-band = Band
+doc-col-status = Status
+doc-valves-idle = Valves at idle
+doc-col-pos = Pos.
+doc-col-of-max = of max
+doc-col-pct-nominal = % at
+    nominal
+doc-col-pct-high-line = % at
+    high line
+doc-idle-from = Idle current found from: { $methods }.
+doc-ik-note = “Ik” marks a plate current taken as the whole cathode current, which includes the screen current: those dissipation figures are on the high side (conservative).
+doc-limits-note = Limits are the valve ratings listed with the method notes.
+doc-window = Fixed-bias target window
+doc-col-valve = Valve
+doc-col-aim = Aim, %
+    of Pa max
+doc-col-ia-aim = Ia for
+    the aim
+doc-col-ia-now = Ia
+    now
+doc-col-set-to = Set it to
+doc-col-reads-now = Reads
+    now
+doc-grid-middle = about { $volts } on the grid for the middle (estimate)
+doc-warm-up = Warm-up: idle current against time since power-on
+doc-col-time = Time
+doc-warm-up-note = Each reading is worked out as the set’s own readings are; the valves table above gives the settled figures.
+doc-warm-up-ik = “Ik”: the cathode current, which includes the screen current.
+doc-stressed = Stressed parts
+doc-col-ref = Ref.
+doc-col-where = Where
+doc-col-value = Value
+doc-col-rating = Rating
+doc-col-dissipation = Dissipation
+doc-col-pct-rating = % of
+    rating
+doc-col-at-high-line = At high
+    line
+doc-col-rated = Rated
+doc-col-working = Working
+doc-col-high-line = High line
+doc-col-cold-start = Cold-start
+    peak
+doc-col-highest = Highest
+doc-col-margin = Margin
+doc-col-load-counted = Load counted
+doc-col-load-at-least = Load,
+    at least
+doc-col-rated-output = Rated
+    output
+doc-valve-rectifier = { $type } valve rectifier
+doc-rectifier-note = The rectifier also feeds the rest of the circuit (preamp, phase inverter, any screen and bias supplies), which is not counted here.
+doc-heaters = Heater supply
+doc-col-heater = Heater
+doc-col-nominal = Nominal
+doc-col-at-nominal-mains = At nominal
+    mains
+doc-heater = heater
+doc-suggest-heading = Cathode resistor { $reference }: what to fit (an estimate)
+doc-suggest-today = Today { $reference } is { $present } under { $valves }; { $calibrated } dissipates { $pa }.
+doc-suggest-aiming = Aiming at { $target }, the three-halves power law fitted to these readings gives
+doc-suggest-none = no resistor: even none at all would not bring the valve up to the target
+doc-col-series = Series
+doc-col-fit = Fit
+doc-col-about = about
+doc-col-ik-each = Ik each
+doc-col-resistor-dissipates = Resistor
+    dissipates
+doc-col-resistor-rating = Resistor rating
+doc-rating-at-least = at least { $least } (twice its dissipation): a { $rating } part
+doc-estimate-bold = This is an estimate from one set of readings, not a measurement.
+doc-estimate = Fit the new resistor, let the valves reach working temperature and measure the bias again before the unit goes back; the measured figures decide.
+doc-law = The law: Ik = K × (Vg2k ÷ μg1g2 + Vgk)^1.5 with μg1g2 { $mu } from the ratings table and K = { $constant } fitted so it gives today’s reading exactly; Vk = n × Ik × Rk for the valves sharing the resistor.
+doc-law-voltages = The plate and screen voltages are taken as measured (the supply’s sag is ignored)
+doc-law-ik = , and the plate current is taken as the whole cathode current, as in the table above
+doc-law-series = Values are the nearest IEC 60063 E12 and E24 figures.
+doc-bench = On the bench
+doc-col-output-power = Output power
+doc-col-reading = Reading
+doc-col-load = Load
+doc-col-frequency = Frequency
+doc-col-condition = Condition
+doc-col-power = Power
+doc-col-pct-rated = % of
+    rated
+doc-pct-of = { $pct } of { $rated }
+doc-col-hum-noise = Hum and noise
+doc-col-input = Input
+doc-col-volume = Volume
+doc-col-across-load = Across
+    the load
+doc-col-below-full = Below full
+    output
+doc-col-compared = Compared with
+doc-level-into = { $level } into { $load }
+doc-nothing-to-compare = nothing to compare with
+doc-col-response = Response
+doc-row-output-v = Output, V
+doc-row-db-against = dB against { $reference }
+doc-minus3-points = −3 dB points:
+doc-and = and
+doc-for-input = , for { $input } in
+doc-into-load = into { $load }
+doc-response-record = Shown for the record; the response has no pass mark.
+doc-col-gain = Gain
+doc-col-in = In
+doc-col-out = Out
+doc-col-ratio = Ratio
+doc-measurements = Measurements
+doc-no-measurements = No measurements were recorded.
+doc-charts = Charts
+doc-chart-dissipation = Output valves: plate dissipation against the rating
+doc-chart-dissipation-note = Each bar is one valve in one set of readings, at the mains of that day, as a share of its maximum plate dissipation. The heavy line is 100 % of the rating.
+doc-chart-supply = Supply chain: node voltages against the chart
+doc-chart-supply-note = Grey columns span the expected voltage of each node (the chart figure referred to { $nominal } mains, dashed) plus and minus its tolerance. The markers are the readings corrected to { $nominal } mains.
+doc-chart-response = Frequency response on the bench
+doc-chart-response-note = Each line is one response reading, in dB against its reference frequency, on a logarithmic frequency axis. The dashed line is −3 dB; the upright ticks on it mark the −3 dB points, found by interpolating between the two readings either side of each.
+doc-safety = Electrical safety tests
+doc-protection-class = Protection class: { $class }.
+doc-col-test = Test
+doc-col-limit = Limit
+doc-col-result = Result
+doc-safety-limits-note = The limits are the ones the shop set for this job. They must follow the rules that apply where the unit is used.
+doc-safety-none = The safety block lists no tests.
+doc-safety-missing = No electrical safety tests were recorded for this job.
+doc-charges = Charges
+doc-col-item = Item
+doc-col-hours = Hours or
+    quantity
+doc-col-rate-price = Rate or
+    price
+doc-col-amount = Amount
+doc-labour = Labour
+doc-parts-charged = Parts
+doc-subtotal = Subtotal
+doc-tax-at = { $name } at { $rate }
+doc-total = Total, { $currency }
+doc-rounding = Each line is rounded to two decimals (halves up)
+doc-tax-on-subtotal = ; { $name } is worked out on the subtotal
+doc-hand-over = Hand-over
+doc-warranty = Warranty
+doc-warranty-until = Warranty period: { $period }, from the completion date to { $until }.
+doc-warranty-from = Warranty period: { $period } from the completion date.
+doc-terms = Terms
+doc-signature = Signature
+doc-date = Date
+doc-handed-over = The unit described above was handed over with this document. The customer confirms receiving the unit and this document, including the mains-safety notice.
+doc-sign-technician = Technician
+doc-method = Method and assumptions
+doc-method-intro = Every figure in this document is either a reading from the job file or worked out from readings by the rules below. Voltages are DC to chassis unless stated. Guide bands marked *common practice* are rules of thumb of the trade with no single published source; figures marked *from memory* are recalled from published data and should be checked against the datasheet. Each band is a setting of the job; the values used here are shown.
+doc-ratings-used = Valve ratings used
+doc-col-class = Class
+doc-col-positions = Positions
+doc-col-limits-used = Limits used
+doc-col-source-note = Source note
+doc-col-from = From
+doc-no-types = No valve types were used.
+doc-how = How the figures are worked out
+doc-m-idle = *Idle current.* With a cathode resistor Rk shared by n valves, each valve’s cathode current is Ik = Vk ÷ (n × Rk); own resistor: n = 1. Across a sense resistor Rs, Ik = Vs ÷ Rs. By the transformer-resistance method, Ia = Vdrop ÷ Rhalf, with Rhalf measured cold and unpowered (divided by n where n valves share one half primary). A shunt across half the primary or a bias probe gives the current directly.
+doc-m-matched-cathode = *Matched-pair assumption:* this job uses a shared cathode resistor, so the figures assume the valves on it share the current equally.
+doc-m-matched-primary = *Matched-pair assumption:* valves sharing a half primary are taken to share its current equally.
+doc-m-screen = *Screen current.* Where a screen resistor gives the screen current, Ig2 = (Vsupply − Vg2) ÷ Rg2 and Ia = Ik − Ig2. Otherwise the plate current is taken as the whole cathode current (Ia = Ik), which includes the screen current: the *conservative rule*, marked “Ik” in the tables, gives dissipation figures on the high side.
+doc-m-screen-used = This job’s figures use it.
+doc-m-dissipation = *Dissipation.* Plate: Pa = (Va − Vk) × Ia. Screen: Pg2 = (Vg2 − Vk) × Ig2. “% of max” is the figure over the rating in the table above.
+doc-m-mains = *Mains correction (first order).* Transformer-fed voltages are taken to scale in proportion to the mains: a reading V made at mains Vm becomes V × Vn ÷ Vm at the nominal Vn = { $nominal }. Currents scale the same way, so dissipation scales with the square: P × (Vn ÷ Vm)². This is an approximation; it ignores regulation and rectifier drop.
+doc-m-high-line = *High line.* The supply may sit above nominal by its tolerance t = { $tolerance }, to { $high_line }; projected dissipation is P(nominal) × (1 + t)² and projected voltage V(nominal) × (1 + t). The default tolerances are from memory of the supply standards (+5 % for 120 V service, ANSI C84.1 range A; ±10 % for 230 V, IEC 60038).
+doc-m-chart-title = Voltage chart.
+doc-m-chart-design = The factory chart was drawn at { $design } mains, so each chart figure is referred to nominal as V(chart) × Vn ÷ Vd with Vd = { $design }.
+doc-m-chart-nominal = The chart figures are taken as drawn at nominal mains.
+doc-m-chart-band = A node is normal within its band around that expected figure ({ $tolerance } unless the job sets another; common practice, many charts print ±10 % or ±20 %).
+doc-m-bands-title = Guide bands (common practice).
+doc-m-bands-fixed = Fixed bias, push-pull: aim { $low } to { $high } of Pa max; caution above, “cold” below (crossover distortion risk), over above 100 %.
+doc-m-bands-cathode = Cathode bias: caution above { $caution }, over above 100 %.
+doc-m-bands-parts = Resistors: caution above { $derating } of their rating (derating), over above 100 %. Filter capacitors: over above the rating, caution when less than { $margin } of it is left. Heaters: { $heater } of nominal. Plate and screen voltages: caution above the published maximum (or when the high-line projection passes it), over more than { $over } above it; guitar amplifiers often run output valves above the design-centre voltage maxima, and plate dissipation governs valve life.
+doc-m-window = *Target window.* For fixed bias, the plate current that puts a valve inside the aim is Ia = f × Pa(max) ÷ (Va − Vk) for f from { $low } to { $high }; it is also given as the reading the technician sets (millivolts across a sense resistor, which also carries the screen current, or volts across the half primary).
+doc-m-bench = *On the bench.* Readings into a dummy load of the speaker impedance. Output power P = V²rms ÷ R; a peak-to-peak reading of a sine is Vrms = Vpp ÷ (2√2). Readings at clipping or a stated distortion below { $power } of the unit’s rated power are a caution (common practice: a healthy old unit reaches about 80 % or more). Hum and noise in dBV is 20 × log10(V ÷ 1 V); below full output, 20 × log10(Vfull ÷ Vnoise), with Vfull = √(P × R) from the highest output power read at clipping or a stated distortion, else the rated power; less than { $hum } is a caution (common practice). Response in dB is 20 × log10(V ÷ Vref) against the reference frequency; the −3 dB points are interpolated linearly in dB on a logarithmic frequency axis between the readings either side. Gain is 20 × log10(Vout ÷ Vin).
+doc-m-estimates = *Bias estimates.* The three-halves power law (Child–Langmuir, as the classic valve handbooks apply it to pentodes; from memory), Ik = K × (Vg2k ÷ μg1g2 + Vgk)^1.5, is fitted to one valve’s readings so it reproduces them exactly; μg1g2 comes from the ratings table (from memory of manufacturer data).
+doc-m-estimates-resistor = For a cathode resistor it finds the value that puts the hottest valve on it at { $target } of its plate rating (common practice), with Vk = n × Ik × Rk, and snaps it to the nearest E12 and E24 values of IEC 60063; the resistor’s dissipation is Vk² ÷ Rk and its rating should be at least twice that (common practice).
+doc-m-estimates-grid = For fixed bias it gives the grid voltage for the middle of the target window; the window’s current figures stay the authority.
+doc-m-estimates-sag = The plate and screen voltages are taken as measured, ignoring the supply’s sag: these are estimates from one point, and the bias must be measured again after any change.
+doc-m-stressed = *Stressed parts.* Dropper between two nodes: P = (V1 − V2)² ÷ R. Cathode resistor: P = Vk² ÷ Rk. Both are projected to high line like the valves. A filter capacitor must stand the highest voltage it can see: its working voltage projected to high line, or the cold-start peak, whichever is higher; the margin is what is left of its rating.
+doc-m-cold-start = *Cold-start peak:* before the valves draw current, a full-wave winding of Vsec (RMS, each side, rated at primary Vp) charges the first capacitors to about √2 × Vsec × V(high line) ÷ Vp less the rectifier drop (silicon { $drop }; a valve rectifier at no load about 0 V). Silicon and directly heated valve rectifiers really reach it while the output valves warm up.
+doc-m-judging = *Judging the unit as it leaves.* The summary on page 1, the at-a-glance panel and the list of open findings speak for the final readings
+doc-m-judging-label = (“{ $label }”)
+doc-m-judging-rest = , the state the unit is handed over in; the earlier readings are its history. A figure the technician has judged acceptable keeps its status and its numbers in the tables, is marked ACCEPTED with the reason, the name and the date, and no longer counts against the unit. The reason stated for each status names the figure that decided it.
+
+## The mains-safety notice (templates/mains-safety.typ). It is translated
+## only as a whole: a translation that lacks any `notice-` key is refused.
+## `notice-check-opening` and `notice-check-closing` must be, word for word,
+## the opening sentence of `notice-deadly` and the closing sentence of
+## `notice-codes`: the program looks for them, with the heading and
+## `notice-codes-title`, in the finished PDF.
+
+notice-heading = MAINS SAFETY: READ BEFORE USING OR OPENING THIS UNIT
+notice-deadly-title = Deadly voltages
+notice-deadly = This amplifier runs on voltages that can kill. While it is switched on, parts inside the chassis carry several hundred volts DC, and the mains wiring carries the full supply voltage.
+notice-stored-title = Stored charge
+notice-stored = The filter capacitors can keep a dangerous charge long after the amplifier is switched off and unplugged: minutes, hours, sometimes days.
+notice-who-title = Who may open it
+notice-who = Only a person trained and equipped for this work should open the chassis. Before touching anything inside, discharge the capacitors and measure to make sure they are discharged.
+notice-earth-title = Earth
+notice-earth = Never remove, cut or bypass the protective-earth conductor of the mains cord, and never use an adapter or plug that lifts the earth. Use only a correctly wired, earthed outlet.
+notice-fuses-title = Fuses
+notice-fuses = Replace a fuse only with one of the type and rating marked on the unit. A larger fuse does not cure a fault; it lets the fault do more damage.
+notice-document-title = This document
+notice-document = The measurements describe the unit on the dates given, at the mains voltage then present. They are a record of the work, not a certification of electrical safety, and they say nothing about how the unit will behave later or after other work.
+notice-codes-title = Local electrical codes come first.
+notice-codes = Mains wiring, earthing and electrical-safety testing must follow the electrical code and regulations in force where the unit is used. Where those rules, or the practice of a licensed electrician, differ from anything in this document, follow them.
+notice-check-opening = This amplifier runs on voltages that can kill.
+notice-check-closing = Where those rules, or the practice of a licensed electrician, differ from anything in this document, follow them.
+
+## The document's fixed words built by the program (src/report/handover).
+
+doc-title = Hand-over report { $id }: { $make } { $model }
+doc-description = Valve amplifier service hand-over for job { $id }
+doc-description-shop = Valve amplifier service hand-over for job { $id } from { $shop }
+doc-glance-basis = Readings “{ $label }” at { $mains } mains
+doc-glance-none = No measurements recorded
+doc-group-channel = Channel: { $channel }
+doc-group-shared = Shared
+period-days = { $count ->
+        [one] { $count } day
+       *[other] { $count } days
+    }
+period-weeks = { $count ->
+        [one] { $count } week
+       *[other] { $count } weeks
+    }
+period-months = { $count ->
+        [one] { $count } month
+       *[other] { $count } months
+    }
+period-years = { $count ->
+        [one] { $count } year
+       *[other] { $count } years
+    }
+
+## The terminal (`ampreport check`, src/report/terminal.rs). Spaces at the
+## start or end of a message are dropped: the program adds them.
+
+term-state-ok = ok
+term-state-caution = CAUTION
+term-state-over = OVER
+term-state-cold = COLD
+term-state-accepted = accepted
+term-state-unchecked = UNCHECKED
+term-job = Job { $id }: { $make } { $model }
+term-serial = serial { $serial }
+term-mains = Mains: nominal { $nominal }, high line { $high_line } (+{ $tolerance } %)
+term-chart-drawn = chart drawn at { $design }
+term-safety = Safety tests
+term-col-test = test
+term-col-reading = reading
+term-col-limit = limit
+term-col-status = status
+term-pass = pass
+term-fail = FAIL
+term-mod-figures = Modification figures
+term-final-set-labelled = “{ $label }”, the final set
+term-final-set = the final set
+term-no-open = No open findings in { $set }: every figure is inside its limits or accepted.
+term-open = Open findings in { $set } ({ $count })
+term-accepted-heading = Accepted by the technician ({ $count })
+term-word-ok = ok
+term-word-caution = caution
+term-word-over = over
+term-word-cold = cold
+term-whole-job = For the whole job
+term-history = What was found in “{ $label }”
+term-final-mark = final: as handed over
+term-set-mains = mains { $mains }, factor { $factor } to nominal
+term-fitted = Fitted for these readings: { $position } { $type } (line-up: { $line_up })
+term-bias-control-labelled = Bias control { $label }: { $position }
+term-bias-control = Bias control: { $position }
+term-valves = Valves
+term-col-pos = pos
+term-col-type = type
+term-col-bias = bias
+term-col-va = Va
+term-col-vk = Vk
+term-col-current = current
+term-col-pa = Pa
+term-col-pct-max = % max
+term-col-high-line = high line
+term-window-sense = { $low }–{ $high } mV across the sense resistor
+term-window-primary = { $low }–{ $high } V across the half primary
+term-window-grid = grid about { $volts } for the middle
+term-now = now { $volts }
+term-estimate = (estimate)
+term-window = { $position } target window { $low }–{ $high } %
+term-inside = inside
+term-outside = outside
+term-ik-note = Ik: plate current taken as the cathode current, including screen current (conservative).
+term-warm-up = Warm-up (idle current after power-on)
+term-col-valve = valve
+term-col-after = after
+term-col-pa-pct-max = Pa % max
+term-nodes = Supply nodes
+term-col-node = node
+term-col-measured = measured
+term-col-corrected = corrected
+term-col-expected = expected
+term-col-deviation = deviation
+term-stressed = Stressed parts
+term-col-part = part
+term-col-where = where
+term-col-stress = stress
+term-col-rating = rating
+term-col-pct-margin = % / margin
+term-peak = { $volts } peak
+term-left = { $pct } % left
+term-not-checked = not checked ({ $reason })
+term-rectifier = Rectifier { $position } ({ $type }): at least { $load } mA of { $rating } mA ({ $pct } %)
+term-heater = Heater: { $measured } against { $nominal } ({ $deviation } %)
+term-suggestion = Cathode resistor { $reference } ({ $valves }, now { $present }): for { $target } % of Pa max ({ $pa } W) the three-halves law gives { $exact }
+term-out-of-reach = no resistor (out of reach)
+term-suggestion-option = { $series } { $value }: Vk { $vk }, { $current } each, Pa { $pa } W ({ $pct } %); the resistor dissipates { $power } W: rate it { $least } W or more (a { $rating } part)
+term-suggestion-estimate = An estimate from one set of readings ({ $calibrated }, μg1g2 { $mu }); measure the bias again after the change.
+term-bench = Bench tests
+term-rms = { $volts } rms
+term-peak-to-peak = { $volts } p-p = { $rms } rms
+term-output-power = Output power
+term-output-power-line = { $reading } into { $load } at { $frequency }, { $condition } = { $power } W
+term-of-rated = { $pct } of rated
+term-hum-noise = Hum and noise
+term-hum-noise-line = { $mv } mV ({ $dbv } dBV), input { $input }
+term-volume = volume { $volume }
+term-below-full = { $db } dB below full output
+term-response = Response
+term-against = against { $reference }
+term-in = { $volts } in
+term-col-frequency = frequency
+term-col-output = output
+term-col-db = dB
+term-below-not-reached = below { $frequency } (not reached)
+term-above-not-reached = above { $frequency } (not reached)
+term-minus-3db = −3 dB: { $low } and { $high }
+term-gain = Gain
+term-gain-line = { $input } in for { $output } out at { $frequency } = ×{ $times } ({ $db } dB)

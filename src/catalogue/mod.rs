@@ -1,0 +1,270 @@
+//! The message catalogue: every fixed sentence and label the program shows a
+//! reader (the hand-over document, the mains-safety notice, the terminal,
+//! the JSON reason strings) is looked up here by key, so a shop can have
+//! its documents in another language without touching a template.
+//!
+//! Catalogues are Fluent files (`.ftl`, Project Fluent's syntax, read by the
+//! `fluent-bundle` crate): English (`messages/en.ftl`) is the reference and
+//! is built in, as is German (`messages/de.ftl`). A shop profile may name a
+//! language and a translation file of its own; a translation must give
+//! every key the English catalogue has, use no argument the English message
+//! does not pass, and contain the mains-safety notice whole. Every problem
+//! is reported at `file:line:column` like a job file's.
+
+mod check;
+
+use std::collections::BTreeMap;
+use std::sync::{Arc, OnceLock};
+
+use chrono::{Datelike, NaiveDate};
+use fluent_bundle::concurrent::FluentBundle;
+use fluent_bundle::{FluentArgs, FluentResource, FluentValue};
+
+pub use check::{CatalogueDiagnostics, check_translation};
+
+/// The built-in English catalogue, the reference every translation is
+/// checked against.
+pub const ENGLISH: &str = include_str!("../../messages/en.ftl");
+
+/// The built-in German catalogue (needs a native speaker's review).
+pub const GERMAN: &str = include_str!("../../messages/de.ftl");
+
+/// The languages built into the program, by tag, with their catalogues.
+pub const BUILT_IN: &[(&str, &str)] = &[("en", ENGLISH), ("de", GERMAN)];
+
+/// The keys of the mains-safety notice: a translation gives all of them or
+/// is refused, so the notice is never half in one language.
+pub const NOTICE_KEYS: &[&str] = &[
+    "notice-heading",
+    "notice-deadly-title",
+    "notice-deadly",
+    "notice-stored-title",
+    "notice-stored",
+    "notice-who-title",
+    "notice-who",
+    "notice-earth-title",
+    "notice-earth",
+    "notice-fuses-title",
+    "notice-fuses",
+    "notice-document-title",
+    "notice-document",
+    "notice-codes-title",
+    "notice-codes",
+    "notice-check-opening",
+    "notice-check-closing",
+];
+
+/// A catalogue ready for lookups. Cheap to clone.
+#[derive(Clone)]
+pub struct Catalogue {
+    inner: Arc<Inner>,
+}
+
+struct Inner {
+    /// The language tag ("en", "de").
+    language: String,
+    /// Where the messages came from, for messages ("built-in", a path).
+    origin: String,
+    bundle: FluentBundle<FluentResource>,
+}
+
+impl std::fmt::Debug for Catalogue {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        f.debug_struct("Catalogue")
+            .field("language", &self.inner.language)
+            .field("origin", &self.inner.origin)
+            .finish()
+    }
+}
+
+impl Default for Catalogue {
+    fn default() -> Self {
+        Catalogue::english().clone()
+    }
+}
+
+/// One argument of a message: text, or a number (which plural forms can
+/// select on).
+#[derive(Debug, Clone, PartialEq)]
+pub enum Arg {
+    Text(String),
+    Number(f64),
+}
+
+impl From<&str> for Arg {
+    fn from(s: &str) -> Self {
+        Arg::Text(s.to_owned())
+    }
+}
+impl From<String> for Arg {
+    fn from(s: String) -> Self {
+        Arg::Text(s)
+    }
+}
+impl From<&String> for Arg {
+    fn from(s: &String) -> Self {
+        Arg::Text(s.clone())
+    }
+}
+impl From<usize> for Arg {
+    fn from(n: usize) -> Self {
+        Arg::Number(n as f64)
+    }
+}
+impl From<f64> for Arg {
+    fn from(n: f64) -> Self {
+        Arg::Number(n)
+    }
+}
+
+impl Catalogue {
+    /// The built-in English catalogue.
+    pub fn english() -> &'static Catalogue {
+        static ENGLISH_CATALOGUE: OnceLock<Catalogue> = OnceLock::new();
+        ENGLISH_CATALOGUE.get_or_init(|| {
+            Catalogue::build("en", "built-in", ENGLISH)
+                .expect("the built-in English catalogue parses")
+        })
+    }
+
+    /// A built-in catalogue by language tag ("en", "de"; case and region
+    /// ignored: "de-AT" gets German).
+    pub fn built_in(language: &str) -> Option<Catalogue> {
+        let primary = primary_subtag(language);
+        if primary == "en" {
+            return Some(Catalogue::english().clone());
+        }
+        let (tag, text) = BUILT_IN.iter().find(|(tag, _)| *tag == primary)?;
+        Catalogue::build(tag, "built-in", text).ok()
+    }
+
+    /// A catalogue from a translation file's text, checked against English
+    /// first ([`check_translation`]): every key present, no unknown key or
+    /// argument, the notice whole. `name` names the file in messages.
+    pub fn from_translation(
+        language: &str,
+        name: &str,
+        text: &str,
+    ) -> Result<Catalogue, CatalogueDiagnostics> {
+        check_translation(name, text)?;
+        Catalogue::build(&primary_subtag(language), name, text).map_err(|_| {
+            // check_translation parsed the same text without an error.
+            check::single(name, text, "the translation could not be read")
+        })
+    }
+
+    fn build(language: &str, origin: &str, text: &str) -> Result<Catalogue, ()> {
+        let resource = FluentResource::try_new(text.to_owned()).map_err(|_| ())?;
+        let id: unic_langid::LanguageIdentifier = language.parse().unwrap_or_default();
+        let mut bundle = FluentBundle::new_concurrent(vec![id]);
+        // No Unicode isolation marks around arguments: the text goes to a
+        // terminal, JSON and a PDF, where they would show as stray bytes.
+        bundle.set_use_isolating(false);
+        bundle.add_resource(resource).map_err(|_| ())?;
+        Ok(Catalogue {
+            inner: Arc::new(Inner {
+                language: language.to_owned(),
+                origin: origin.to_owned(),
+                bundle,
+            }),
+        })
+    }
+
+    /// The language tag: "en", "de".
+    pub fn language(&self) -> &str {
+        &self.inner.language
+    }
+
+    /// Where the messages came from: "built-in" or the translation file.
+    pub fn origin(&self) -> &str {
+        &self.inner.origin
+    }
+
+    /// Whether the catalogue has a message for `key`.
+    pub fn has(&self, key: &str) -> bool {
+        self.inner.bundle.has_message(key)
+    }
+
+    /// The message `key` without arguments.
+    pub fn text(&self, key: &str) -> String {
+        self.format(key, &[])
+    }
+
+    /// The message `key` with its arguments. A key the catalogue lacks (a
+    /// program error: tests check that every key used exists in English,
+    /// and translations are checked complete when read) gives the key in
+    /// brackets rather than a panic.
+    pub fn format(&self, key: &str, args: &[(&str, Arg)]) -> String {
+        self.try_format(key, args)
+            .unwrap_or_else(|| format!("[{key}]"))
+    }
+
+    /// The message `key` with its arguments, or `None` when there is no
+    /// such message.
+    pub fn try_format(&self, key: &str, args: &[(&str, Arg)]) -> Option<String> {
+        let bundle = &self.inner.bundle;
+        let pattern = bundle.get_message(key)?.value()?;
+        let mut fargs = FluentArgs::new();
+        for (name, value) in args {
+            match value {
+                Arg::Text(s) => fargs.set(*name, FluentValue::from(s.as_str())),
+                Arg::Number(n) => fargs.set(*name, FluentValue::from(*n)),
+            }
+        }
+        let mut errors = Vec::new();
+        let words = bundle.format_pattern(pattern, Some(&fargs), &mut errors);
+        Some(words.into_owned())
+    }
+
+    /// A date in words: "9 November 2026", "9. November 2026".
+    pub fn date(&self, d: NaiveDate) -> String {
+        let month = self.text(&format!("month-{}", d.month()));
+        self.format(
+            "date",
+            &[
+                ("day", Arg::Text(d.day().to_string())),
+                ("month", Arg::Text(month)),
+                ("year", Arg::Text(d.year().to_string())),
+            ],
+        )
+    }
+
+    /// Every message of the catalogue without arguments that a template
+    /// may print as a label, by key.
+    pub fn keys(&self) -> Vec<String> {
+        message_lines(ENGLISH).into_keys().collect()
+    }
+}
+
+/// "de-AT" → "de".
+fn primary_subtag(tag: &str) -> String {
+    tag.split(['-', '_'])
+        .next()
+        .unwrap_or("")
+        .to_ascii_lowercase()
+}
+
+/// The message keys of a catalogue's text with the byte offset of each
+/// definition: a line that starts with an identifier and `=`.
+pub(crate) fn message_lines(text: &str) -> BTreeMap<String, usize> {
+    let mut keys = BTreeMap::new();
+    let mut offset = 0;
+    for line in text.split_inclusive('\n') {
+        if line.starts_with(|c: char| c.is_ascii_alphabetic())
+            && let Some((id, _)) = line.split_once('=')
+        {
+            let id = id.trim();
+            if id
+                .chars()
+                .all(|c| c.is_ascii_alphanumeric() || c == '-' || c == '_')
+            {
+                keys.entry(id.to_owned()).or_insert(offset);
+            }
+        }
+        offset += line.len();
+    }
+    keys
+}
+
+#[cfg(test)]
+mod tests;

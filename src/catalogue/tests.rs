@@ -1,0 +1,241 @@
+use super::*;
+use crate::job::JobDiagnostics;
+
+/// The first part of every catalogue key: what the message belongs to.
+const NAMESPACES: &[&str] = &["doc", "status", "period", "notice", "date", "term"];
+
+/// Every `t("key")`/`tm("key")` of a template and every
+/// `.text("key")`/`.format("key"` of the program's source.
+fn keys_used() -> Vec<(String, String)> {
+    let root = std::path::Path::new(env!("CARGO_MANIFEST_DIR"));
+    let mut files = vec![root.join("templates/handover.typ")];
+    let mut dirs = vec![root.join("src")];
+    while let Some(dir) = dirs.pop() {
+        for entry in std::fs::read_dir(dir).unwrap() {
+            let path = entry.unwrap().path();
+            if path.is_dir() {
+                dirs.push(path);
+            } else if path.extension().is_some_and(|e| e == "rs") {
+                files.push(path);
+            }
+        }
+    }
+    let mut used = Vec::new();
+    for file in files {
+        if file.ends_with("catalogue/tests.rs") {
+            continue;
+        }
+        let text = std::fs::read_to_string(&file).unwrap();
+        for (i, _) in text.match_indices('"') {
+            let rest = &text[i + 1..];
+            let Some(end) = rest.find('"') else { continue };
+            let key = &rest[..end];
+            let namespace = key.split('-').next().unwrap_or("");
+            let is_key = NAMESPACES.contains(&namespace)
+                && key.len() > namespace.len() + 1
+                && key
+                    .chars()
+                    .all(|c| c.is_ascii_lowercase() || c.is_ascii_digit() || c == '-');
+            // `doc-row-` is completed in the template by the row's kind,
+            // `month-` by the month's number.
+            if is_key && !key.ends_with('-') {
+                used.push((key.to_owned(), file.display().to_string()));
+            }
+        }
+    }
+    used
+}
+
+#[test]
+fn every_key_the_program_uses_is_in_the_english_catalogue() {
+    let english = Catalogue::english();
+    let used = keys_used();
+    // The scan finds the template's labels and the program's sentences.
+    assert!(used.len() > 250, "only {} keys found", used.len());
+    assert!(used.iter().any(|(k, _)| k == "doc-glance-basis"));
+    for (key, file) in &used {
+        assert!(
+            english.has(key),
+            "{key} (used in {file}) is not in messages/en.ftl"
+        );
+    }
+    // The network rows' kinds complete `doc-row-`.
+    for kind in ["before", "after", "change"] {
+        assert!(english.has(&format!("doc-row-{kind}")));
+    }
+}
+
+#[test]
+fn the_built_in_catalogues_are_complete_and_consistent() {
+    check_translation("en.ftl", ENGLISH).expect("English checks against itself");
+    if let Err(d) = check_translation("de.ftl", GERMAN) {
+        panic!("{:?}", miette::Report::new(d));
+    }
+    for (tag, _) in BUILT_IN {
+        let c = Catalogue::built_in(tag).unwrap();
+        assert_eq!(c.language(), *tag);
+        // The phrases checked in the PDF are the notice's own words.
+        let deadly = c.text("notice-deadly");
+        let codes = c.text("notice-codes");
+        assert!(deadly.starts_with(&c.text("notice-check-opening")), "{tag}");
+        assert!(codes.ends_with(&c.text("notice-check-closing")), "{tag}");
+    }
+    assert_eq!(Catalogue::built_in("de-AT").unwrap().language(), "de");
+    assert!(Catalogue::built_in("xx").is_none());
+}
+
+#[test]
+fn dates_and_periods_follow_the_language() {
+    let d = NaiveDate::from_ymd_opt(2026, 11, 9).unwrap();
+    assert_eq!(Catalogue::english().date(d), "9 November 2026");
+    let de = Catalogue::built_in("de").unwrap();
+    assert_eq!(de.date(d), "9. November 2026");
+    assert_eq!(
+        de.date(NaiveDate::from_ymd_opt(2027, 3, 1).unwrap()),
+        "1. März 2027"
+    );
+    // English stays what chrono's "%-d %B %Y" gave before the catalogue.
+    for month in 1..=12 {
+        let d = NaiveDate::from_ymd_opt(2026, month, 28).unwrap();
+        assert_eq!(
+            Catalogue::english().date(d),
+            d.format("%-d %B %Y").to_string()
+        );
+    }
+    let en = Catalogue::english();
+    assert_eq!(
+        en.format("period-days", &[("count", Arg::from(90usize))]),
+        "90 days"
+    );
+    assert_eq!(
+        en.format("period-years", &[("count", Arg::from(1usize))]),
+        "1 year"
+    );
+    assert_eq!(
+        de.format("period-months", &[("count", Arg::from(6usize))]),
+        "6 Monate"
+    );
+    // No Unicode isolation marks around arguments.
+    let words = en.format("doc-job", &[("id", Arg::from("D-1"))]);
+    assert_eq!(words, "Job D-1");
+}
+
+fn problems(name: &str, text: &str) -> JobDiagnostics {
+    check_translation(name, text).expect_err("the translation has problems")
+}
+
+/// The German catalogue without the line defining `key`.
+fn german_without(key: &str) -> String {
+    let mut out = String::new();
+    let mut skipping = false;
+    for line in GERMAN.split_inclusive('\n') {
+        if line.starts_with(&format!("{key} =")) {
+            skipping = true;
+            continue;
+        }
+        if skipping && line.starts_with(' ') {
+            continue;
+        }
+        skipping = false;
+        out.push_str(line);
+    }
+    out
+}
+
+#[test]
+fn a_missing_key_is_an_error_naming_it_and_the_english_line() {
+    let text = german_without("doc-subtotal");
+    let d = problems("shop-de.ftl", &text);
+    assert_eq!(d.problems.len(), 1, "{:?}", d.problems);
+    let p = &d.problems[0];
+    assert_eq!(p.code, "catalogue::missing-key");
+    assert!(p.message.contains("`doc-subtotal`"), "{}", p.message);
+    let line = ENGLISH
+        .lines()
+        .position(|l| l.starts_with("doc-subtotal ="))
+        .unwrap()
+        + 1;
+    let help = p.help.as_deref().unwrap();
+    assert!(
+        help.contains(&format!("messages/en.ftl:{line}: Subtotal")),
+        "{help}"
+    );
+    assert!(Catalogue::from_translation("de", "shop-de.ftl", &text).is_err());
+}
+
+#[test]
+fn the_notice_is_translated_whole_or_refused() {
+    let text = german_without("notice-fuses");
+    let d = problems("de.ftl", &text);
+    assert_eq!(d.problems.len(), 1, "{:?}", d.problems);
+    assert_eq!(d.problems[0].code, "catalogue::notice-incomplete");
+    assert!(
+        d.problems[0]
+            .message
+            .contains("only as a whole; missing: notice-fuses")
+    );
+    // A file with no notice at all names every part.
+    let none: String = GERMAN
+        .lines()
+        .filter(|l| !l.starts_with("notice-"))
+        .map(|l| format!("{l}\n"))
+        .collect();
+    let d = problems("de.ftl", &none);
+    assert!(
+        NOTICE_KEYS
+            .iter()
+            .all(|k| d.problems[0].message.contains(k)),
+        "{}",
+        d.problems[0].message
+    );
+}
+
+#[test]
+fn unknown_keys_arguments_and_syntax_are_errors_at_their_line() {
+    let text = format!("{GERMAN}doc-subtotl = Summe\n");
+    let d = problems("de.ftl", &text);
+    let p = &d.problems[0];
+    assert_eq!(p.code, "catalogue::unknown-key");
+    assert_eq!(d.line_column(p.span.offset()).0, text.lines().count());
+    assert!(p.help.as_deref().unwrap().contains("`doc-subtotal`"));
+
+    let text = GERMAN.replace(
+        "doc-total = Gesamt, { $currency }",
+        "doc-total = Gesamt, { $waehrung }",
+    );
+    let d = problems("de.ftl", &text);
+    let p = &d.problems[0];
+    assert_eq!(p.code, "catalogue::unknown-argument");
+    let line = text
+        .lines()
+        .position(|l| l.starts_with("doc-total ="))
+        .unwrap()
+        + 1;
+    assert_eq!(d.line_column(p.span.offset()), (line, 1));
+    assert!(p.help.as_deref().unwrap().contains("{ $currency }"));
+
+    let text = GERMAN.replace("doc-and = und", "doc-and = und { $");
+    let d = problems("de.ftl", &text);
+    assert!(d.problems.iter().any(|p| p.code == "catalogue::syntax"));
+    let line = text
+        .lines()
+        .position(|l| l.starts_with("doc-and ="))
+        .unwrap()
+        + 1;
+    let syntax = d
+        .problems
+        .iter()
+        .find(|p| p.code == "catalogue::syntax")
+        .unwrap();
+    assert_eq!(d.line_column(syntax.span.offset()).0, line);
+}
+
+#[test]
+fn a_key_the_catalogue_lacks_never_panics() {
+    assert_eq!(Catalogue::english().text("no-such-key"), "[no-such-key]");
+    assert!(
+        Catalogue::english()
+            .try_format("no-such-key", &[])
+            .is_none()
+    );
+}

@@ -1,0 +1,239 @@
+//! The message catalogue through the real binary: a shop profile that
+//! names German gets a complete German document (its labels, dates, the
+//! mains-safety notice checked in the PDF); a shop's own translation file
+//! with a key missing, a notice part missing or an unknown language is
+//! refused before anything is rendered, naming the key at `file:line`.
+
+use std::path::{Path, PathBuf};
+use std::process::{Command, Output};
+
+const BIN: &str = env!("CARGO_BIN_EXE_ampreport");
+
+fn repo() -> PathBuf {
+    PathBuf::from(env!("CARGO_MANIFEST_DIR"))
+}
+
+fn run(dir: &Path, args: &[&str]) -> Output {
+    Command::new(BIN)
+        .current_dir(dir)
+        .args(args)
+        .env("XDG_CONFIG_HOME", dir.join("no-config"))
+        .env(
+            "XDG_CACHE_HOME",
+            Path::new(env!("CARGO_TARGET_TMPDIR")).join("catalogue-cache-home"),
+        )
+        .env_remove("AMPREPORT_TYPST")
+        .env("NO_COLOR", "1")
+        .output()
+        .expect("run ampreport")
+}
+
+fn stderr(o: &Output) -> String {
+    String::from_utf8_lossy(&o.stderr).into_owned()
+}
+
+/// A folder with the demo job and its photos, the demo shop profile (with
+/// `language` appended) and its logo.
+fn shop_folder(language: &str) -> tempfile::TempDir {
+    let dir = tempfile::tempdir().unwrap();
+    for f in ["combo-6v6-fixed.kdl", "larkmoor-logo.svg"] {
+        std::fs::copy(repo().join("jobs").join(f), dir.path().join(f)).unwrap();
+    }
+    // The demo job's photos.
+    let photos = dir.path().join("photos");
+    std::fs::create_dir(&photos).unwrap();
+    for entry in std::fs::read_dir(repo().join("jobs/photos")).unwrap() {
+        let from = entry.unwrap().path();
+        std::fs::copy(&from, photos.join(from.file_name().unwrap())).unwrap();
+    }
+    let profile = std::fs::read_to_string(repo().join("jobs/shop.kdl")).unwrap();
+    std::fs::write(
+        dir.path().join("shop.kdl"),
+        format!("{profile}\n{language}\n"),
+    )
+    .unwrap();
+    dir
+}
+
+fn german() -> String {
+    std::fs::read_to_string(repo().join("messages/de.ftl")).unwrap()
+}
+
+/// The German catalogue without the message `key` (and its continuation
+/// lines).
+fn german_without(key: &str) -> String {
+    let mut out = String::new();
+    let mut skipping = false;
+    for line in german().split_inclusive('\n') {
+        if line.starts_with(&format!("{key} =")) {
+            skipping = true;
+            continue;
+        }
+        if skipping && line.starts_with(' ') {
+            continue;
+        }
+        skipping = false;
+        out.push_str(line);
+    }
+    out
+}
+
+fn pdf_text(pdf: &Path) -> String {
+    let out = Command::new("pdftotext")
+        .args(["-enc", "UTF-8"])
+        .arg(pdf)
+        .arg("-")
+        .output()
+        .expect("pdftotext (poppler-utils)");
+    String::from_utf8_lossy(&out.stdout)
+        .split(|c: char| c.is_whitespace())
+        .filter(|w| !w.is_empty())
+        .collect::<Vec<_>>()
+        .join(" ")
+}
+
+fn have_typst() -> bool {
+    match Command::new("typst").arg("--version").output() {
+        Ok(o) if o.status.success() => true,
+        _ if std::env::var_os("CI").is_none() => {
+            eprintln!("note: skipping render tests: no typst on PATH");
+            false
+        }
+        _ => panic!("typst is needed for these tests under CI"),
+    }
+}
+
+#[test]
+fn a_german_shop_gets_a_complete_german_document() {
+    if !have_typst() {
+        return;
+    }
+    let dir = shop_folder("language \"de\"");
+    let o = run(
+        dir.path(),
+        &["render", "combo-6v6-fixed.kdl", "-o", "de.pdf"],
+    );
+    assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
+    let text = pdf_text(&dir.path().join("de.pdf"));
+    // Every section of the document, in German.
+    for words in [
+        "ÜBERGABEPROTOKOLL",
+        "Auftrag D-2611-022",
+        // Received 5 and completed 12 November 2026 (the demo job).
+        "Eingang 5. November 2026 · Fertig 12. November 2026",
+        "AUF EINEN BLICK",
+        "Was Aufmerksamkeit braucht",
+        "Ersetzte Teile",
+        "Änderungen",
+        "Röhrenbestückung",
+        "Versorgungsspannungen",
+        "Röhren im Ruhezustand",
+        "Belastete Bauteile",
+        "Heizversorgung",
+        "Diagramme",
+        "Elektrische Sicherheitsprüfungen",
+        "Kosten",
+        "Zwischensumme",
+        "Gewährleistung",
+        "Unterschrift",
+        "Methode und Annahmen",
+        "Wie die Werte berechnet werden",
+        // The notice and the deferral to local codes (the program itself
+        // checked the whole notice, heading included, in the PDF).
+        "Dieser Verstärker arbeitet mit Spannungen, die tödlich sein können.",
+        "Örtliche elektrotechnische Vorschriften gehen vor.",
+        "Seite 1 von",
+    ] {
+        assert!(
+            text.contains(words),
+            "{words} missing from the German document"
+        );
+    }
+    // The template's own English labels are gone.
+    for english in [
+        "HAND-OVER REPORT",
+        "What needs attention",
+        "Valve line-up",
+        "Method and assumptions",
+        "MAINS SAFETY",
+        "Page 1 of",
+    ] {
+        assert!(!text.contains(english), "{english} left in English");
+    }
+}
+
+#[test]
+fn a_translation_missing_a_key_is_refused_naming_the_key() {
+    let dir = shop_folder("language \"de\" file=\"werkstatt.ftl\"");
+    std::fs::write(
+        dir.path().join("werkstatt.ftl"),
+        german_without("doc-subtotal"),
+    )
+    .unwrap();
+    let o = run(dir.path(), &["check", "combo-6v6-fixed.kdl"]);
+    assert_eq!(o.status.code(), Some(1), "{}", stderr(&o));
+    let err = stderr(&o);
+    assert!(err.contains("catalogue::missing-key"), "{err}");
+    assert!(
+        err.contains("the translation has no message `doc-subtotal`"),
+        "{err}"
+    );
+    assert!(err.contains("werkstatt.ftl:1:1"), "{err}");
+    // The help points at the English message's line.
+    let line = std::fs::read_to_string(repo().join("messages/en.ftl"))
+        .unwrap()
+        .lines()
+        .position(|l| l.starts_with("doc-subtotal ="))
+        .unwrap()
+        + 1;
+    assert!(err.contains(&format!("messages/en.ftl:{line}")), "{err}");
+
+    // The complete file is accepted.
+    std::fs::write(dir.path().join("werkstatt.ftl"), german()).unwrap();
+    let o = run(dir.path(), &["check", "combo-6v6-fixed.kdl"]);
+    assert_ne!(o.status.code(), Some(1), "{}", stderr(&o));
+}
+
+#[test]
+fn a_notice_translated_in_part_is_refused() {
+    let dir = shop_folder("language \"de\" file=\"werkstatt.ftl\"");
+    std::fs::write(
+        dir.path().join("werkstatt.ftl"),
+        german_without("notice-earth"),
+    )
+    .unwrap();
+    let o = run(dir.path(), &["check", "combo-6v6-fixed.kdl"]);
+    assert_eq!(o.status.code(), Some(1));
+    let err = stderr(&o);
+    assert!(
+        err.contains(
+            "the mains-safety notice is translated only as a whole; missing: notice-earth"
+        ),
+        "{err}"
+    );
+}
+
+#[test]
+fn a_language_without_a_catalogue_or_outside_the_folder_is_an_error_at_its_line() {
+    let dir = shop_folder("language \"fr\"");
+    let o = run(dir.path(), &["check", "combo-6v6-fixed.kdl"]);
+    assert_eq!(o.status.code(), Some(1));
+    let err = stderr(&o);
+    let line = std::fs::read_to_string(dir.path().join("shop.kdl"))
+        .unwrap()
+        .lines()
+        .position(|l| l.starts_with("language"))
+        .unwrap()
+        + 1;
+    assert!(err.contains("no catalogue for `fr` built in"), "{err}");
+    assert!(err.contains(&format!("shop.kdl:{line}:")), "{err}");
+
+    let dir = shop_folder("language \"de\" file=\"../de.ftl\"");
+    let o = run(dir.path(), &["check", "combo-6v6-fixed.kdl"]);
+    assert_eq!(o.status.code(), Some(1));
+    assert!(
+        stderr(&o).contains("is not inside the profile's folder"),
+        "{}",
+        stderr(&o)
+    );
+}
