@@ -482,3 +482,32 @@ term-above-not-reached = über { $frequency } (nicht erreicht)
 term-minus-3db = −3 dB: { $low } und { $high }
 term-gain = Verstärkung
 term-gain-line = { $input } am Eingang für { $output } am Ausgang bei { $frequency } = ×{ $times } ({ $db } dB)
+
+## Begründungen und Schwellen der Prüfungen (src/calc). Die JSON-Ausgabe
+## bleibt englisch; diese Übersetzungen sind für das Protokoll bestimmt,
+## sobald es die Begründungen aus dem Katalog der Werkstatt nimmt.
+
+reason-includes-screen = (einschließlich Schirmgitterstrom, daher auf der hohen Seite)
+reason-at-nominal-mains = bei Netznennspannung
+reason-plate-dissipation = Anodenverlustleistung { $watts } W ist { $pct } % ihres Grenzwerts von { $rating }
+threshold-fixed-bias = Ziel bei fester Gittervorspannung { $low }–{ $high } % von { $rating }; zu kalt unter { $low } %, Vorsicht über { $high } %, zu hoch über 100 %
+reason-above-aim = über dem Ziel von { $high } %
+reason-below-aim = unter dem Ziel von { $low } % (Gefahr von Übernahmeverzerrungen)
+reason-inside-aim = innerhalb des Ziels
+threshold-cathode-bias = Vorsicht über { $caution } % von { $rating }, zu hoch über 100 %
+reason-above-guide = über dem Richtwert von { $caution } %
+threshold-voltage-max = Vorsicht über dem Höchstwert von { $max } (oder wenn die Hochrechnung auf die obere Netzgrenze darüber liegt), zu hoch über { $over } % davon
+reason-voltage-of-max = { $what } { $volts } ist { $pct } % ihres Höchstwerts von { $max }
+reason-voltage-high-line = { $what } würde an der oberen Netzgrenze { $high } erreichen, über ihrem Höchstwert von { $max }
+reason-voltage-within = { $what } ist { $pct } % ihres Höchstwerts
+reason-plate-voltage = Anodenspannung
+reason-screen-voltage = Schirmgitterspannung
+threshold-node = innerhalb ±{ $tolerance } % der Tabelle, umgerechnet auf { $nominal }
+reason-node = { $corrected } bei Netznennspannung weicht um { $deviation } % vom erwarteten Wert { $expected } ab
+reason-above-band = über dem Band von ±{ $tolerance } %
+reason-below-band = unter dem Band von ±{ $tolerance } %
+reason-no-chart = kein Tabellenwert zum Vergleich
+threshold-no-chart = keine: der Auftrag nennt keinen Tabellenwert
+threshold-heater = innerhalb ±{ $tolerance } % von { $nominal }
+reason-at-nominal = { $volts } bei Netznennspannung ({ $deviation } %)
+reason-heater = { $measured } weicht um { $deviation } % von { $nominal } ab

@@ -481,3 +481,31 @@ term-above-not-reached = above { $frequency } (not reached)
 term-minus-3db = −3 dB: { $low } and { $high }
 term-gain = Gain
 term-gain-line = { $input } in for { $output } out at { $frequency } = ×{ $times } ({ $db } dB)
+
+## Reasons and thresholds of the checks (src/calc), as `calc --json` gives
+## them. The JSON is always in this reference language.
+
+reason-includes-screen = (includes screen current, so on the high side)
+reason-at-nominal-mains = at nominal mains
+reason-plate-dissipation = plate dissipation { $watts } W is { $pct } % of its { $rating } rating
+threshold-fixed-bias = fixed-bias aim { $low }–{ $high } % of { $rating }; cold below { $low } %, caution above { $high } %, over above 100 %
+reason-above-aim = above the { $high } % aim
+reason-below-aim = below the { $low } % aim (crossover distortion risk)
+reason-inside-aim = inside the aim
+threshold-cathode-bias = caution above { $caution } % of { $rating }, over above 100 %
+reason-above-guide = above the { $caution } % guide
+threshold-voltage-max = caution above the { $max } maximum (or when the high-line projection is above it), over above { $over } % of it
+reason-voltage-of-max = { $what } { $volts } is { $pct } % of its { $max } maximum
+reason-voltage-high-line = { $what } would reach { $high } at high line, above its { $max } maximum
+reason-voltage-within = { $what } is { $pct } % of its maximum
+reason-plate-voltage = plate voltage
+reason-screen-voltage = screen voltage
+threshold-node = within ±{ $tolerance } % of the chart referred to { $nominal }
+reason-node = { $corrected } at nominal mains is { $deviation } % from the expected { $expected }
+reason-above-band = above the ±{ $tolerance } % band
+reason-below-band = below the ±{ $tolerance } % band
+reason-no-chart = no chart figure to compare with
+threshold-no-chart = none: the job gives no chart figure
+threshold-heater = within ±{ $tolerance } % of { $nominal }
+reason-at-nominal = { $volts } at nominal mains ({ $deviation } %)
+reason-heater = { $measured } is { $deviation } % from { $nominal }

@@ -8,6 +8,7 @@ use super::findings::{
 };
 use super::mains;
 use super::status::{Status, Verdict, under_rating};
+use crate::catalogue::{Arg, Catalogue};
 use crate::job::{Circuit, Job, MeasurementSet, RectifierKind, Settings};
 use crate::ratings::{RatingsTable, RectifierHeating};
 use crate::units::{Ohms, QuantityKind, Volts, Watts, format_engineering};
@@ -53,30 +54,61 @@ pub(crate) fn nodes(
     set.nodes
         .iter()
         .map(|reading| {
-            let spec = circuit.nodes.iter().find(|n| n.name.value == reading.name.value);
+            let spec = circuit
+                .nodes
+                .iter()
+                .find(|n| n.name.value == reading.name.value);
             let chart = reading.chart.or(spec.and_then(|s| s.chart));
-            let tolerance = reading.tolerance.or(spec.and_then(|s| s.tolerance)).unwrap_or(settings.node_tolerance);
+            let tolerance = reading
+                .tolerance
+                .or(spec.and_then(|s| s.tolerance))
+                .unwrap_or(settings.node_tolerance);
             let corrected = mains::corrected_volts(reading.volts.value, set.mains.value, nominal);
             let expected = chart.map(|c| mains::chart_expected(c, design, nominal));
             let deviation = expected.map(|e| (corrected / e - 1.0) * 100.0);
             let tol_pct = tolerance * 100.0;
-            let threshold = format!("within ±{tol_pct:.0} % of the chart referred to {}", v(nominal.0));
+            let tol_words = format!("{tol_pct:.0}");
+            let threshold = words(
+                "threshold-node",
+                &[
+                    ("tolerance", Arg::from(&tol_words)),
+                    ("nominal", Arg::from(v(nominal.0))),
+                ],
+            );
+            let off_chart = |d: f64, e: Volts| {
+                words(
+                    "reason-node",
+                    &[
+                        ("corrected", Arg::from(v(corrected.0))),
+                        ("deviation", Arg::from(format!("{d:+.1}"))),
+                        ("expected", Arg::from(v(e.0))),
+                    ],
+                )
+            };
             let verdict = match (deviation, expected) {
-                (Some(d), Some(e)) if d.abs() <= tol_pct + 1e-9 => Verdict::ok(
-                    format!("{} at nominal mains is {d:+.1} % from the expected {}", v(corrected.0), v(e.0)),
-                    threshold,
-                ),
+                (Some(d), Some(e)) if d.abs() <= tol_pct + 1e-9 => {
+                    Verdict::ok(off_chart(d, e), threshold)
+                }
                 (Some(d), Some(e)) => Verdict::new(
                     Status::Caution,
                     format!(
-                        "{} at nominal mains is {d:+.1} % from the expected {}, {} the ±{tol_pct:.0} % band",
-                        v(corrected.0),
-                        v(e.0),
-                        if d > 0.0 { "above" } else { "below" }
+                        "{}, {}",
+                        off_chart(d, e),
+                        words(
+                            if d > 0.0 {
+                                "reason-above-band"
+                            } else {
+                                "reason-below-band"
+                            },
+                            &[("tolerance", Arg::from(&tol_words))],
+                        )
                     ),
                     threshold,
                 ),
-                _ => Verdict::ok("no chart figure to compare with", "none: the job gives no chart figure"),
+                _ => Verdict::ok(
+                    words("reason-no-chart", &[]),
+                    words("threshold-no-chart", &[]),
+                ),
             };
             NodeFindings {
                 name: reading.name.value.clone(),
@@ -539,33 +571,41 @@ pub(crate) fn heaters(job: &Job, set: &MeasurementSet, settings: &Settings) -> V
             let dev = (measured / h.nominal - 1.0) * 100.0;
             let dev_c = (corrected / h.nominal - 1.0) * 100.0;
             let tol = settings.heater_tolerance * 100.0;
-            let threshold = format!("within ±{tol:.0} % of {}", v(h.nominal.0));
-            let at_nominal = format!("{} at nominal mains ({dev_c:+.1} %)", v(corrected.0));
+            let tol_words = format!("{tol:.0}");
+            let threshold = words(
+                "threshold-heater",
+                &[
+                    ("tolerance", Arg::from(&tol_words)),
+                    ("nominal", Arg::from(v(h.nominal.0))),
+                ],
+            );
+            let at_nominal = words(
+                "reason-at-nominal",
+                &[
+                    ("volts", Arg::from(v(corrected.0))),
+                    ("deviation", Arg::from(format!("{dev_c:+.1}"))),
+                ],
+            );
+            let from_nominal = words(
+                "reason-heater",
+                &[
+                    ("measured", Arg::from(v(measured.0))),
+                    ("deviation", Arg::from(format!("{dev:+.1}"))),
+                    ("nominal", Arg::from(v(h.nominal.0))),
+                ],
+            );
+            let off_band = |key: &str| {
+                format!(
+                    "{from_nominal}, {}; {at_nominal}",
+                    words(key, &[("tolerance", Arg::from(&tol_words))])
+                )
+            };
             let verdict = if dev > tol + 1e-9 {
-                Verdict::new(
-                    Status::Over,
-                    format!(
-                        "{} is {dev:+.1} % from {}, above the ±{tol:.0} % band; {at_nominal}",
-                        v(measured.0),
-                        v(h.nominal.0)
-                    ),
-                    threshold,
-                )
+                Verdict::new(Status::Over, off_band("reason-above-band"), threshold)
             } else if dev < -tol - 1e-9 {
-                Verdict::new(
-                    Status::Caution,
-                    format!(
-                        "{} is {dev:+.1} % from {}, below the ±{tol:.0} % band; {at_nominal}",
-                        v(measured.0),
-                        v(h.nominal.0)
-                    ),
-                    threshold,
-                )
+                Verdict::new(Status::Caution, off_band("reason-below-band"), threshold)
             } else {
-                Verdict::ok(
-                    format!("{} is {dev:+.1} % from {}", v(measured.0), v(h.nominal.0)),
-                    threshold,
-                )
+                Verdict::ok(from_nominal, threshold)
             };
             HeaterFindings {
                 label: h.label.clone(),
@@ -578,6 +618,12 @@ pub(crate) fn heaters(job: &Job, set: &MeasurementSet, settings: &Settings) -> V
             }
         })
         .collect()
+}
+
+/// A reason or threshold in words, from the English catalogue (the JSON's
+/// reasons are the reference language's).
+fn words(key: &str, args: &[(&str, Arg)]) -> String {
+    Catalogue::english().format(key, args)
 }
 
 #[cfg(test)]

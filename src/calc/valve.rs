@@ -4,6 +4,7 @@
 use super::findings::{Check, CurrentMethod, TargetWindow, ValveFindings};
 use super::mains;
 use super::status::{Status, Verdict, under_rating, worst_of};
+use crate::catalogue::{Arg, Catalogue};
 use crate::job::{
     BiasKind, Circuit, CurrentMethod as ReadMethod, Job, MeasurementSet, Settings, ValvePosition,
     ValveReading,
@@ -179,9 +180,9 @@ pub(crate) fn analyse(
             f.corrected_plate_dissipation_pct = Some(pct_c);
             f.high_line_plate_dissipation_pct = Some(pct_h);
             let conservative = if c.includes_screen {
-                " (includes screen current, so on the high side)"
+                format!(" {}", words("reason-includes-screen", &[]))
             } else {
-                ""
+                String::new()
             };
             let verdict = dissipation_verdict(
                 ctx.settings,
@@ -191,7 +192,7 @@ pub(crate) fn analyse(
                 pct_c,
                 pa,
                 max,
-                conservative,
+                &conservative,
             );
             checks.push(Check {
                 check: "plate_dissipation",
@@ -273,7 +274,7 @@ pub(crate) fn analyse(
         checks.push(Check {
             check: "plate_voltage",
             verdict: max_verdict(
-                "plate voltage",
+                &words("reason-plate-voltage", &[]),
                 va,
                 high(va),
                 max,
@@ -286,7 +287,7 @@ pub(crate) fn analyse(
         checks.push(Check {
             check: "screen_voltage",
             verdict: max_verdict(
-                "screen voltage",
+                &words("reason-screen-voltage", &[]),
                 vg2,
                 high(vg2),
                 max,
@@ -427,50 +428,83 @@ fn dissipation_verdict(
     let rating = watts_words(max);
     // Judge on the hotter of today's mains and nominal mains.
     let (judged, at) = if pct_c > pct {
-        (pct_c, " at nominal mains")
+        (pct_c, format!(" {}", words("reason-at-nominal-mains", &[])))
     } else {
-        (pct, "")
+        (pct, String::new())
+    };
+    let watts = if at.is_empty() {
+        pa.0
+    } else {
+        pa.0 * pct_c / pct
     };
     let what = format!(
-        "plate dissipation {:.1} W is {judged:.0} % of its {rating} rating{at}{conservative}",
-        if at.is_empty() {
-            pa.0
-        } else {
-            pa.0 * pct_c / pct
-        }
+        "{}{at}{conservative}",
+        words(
+            "reason-plate-dissipation",
+            &[
+                ("watts", Arg::from(format!("{watts:.1}"))),
+                ("pct", Arg::from(format!("{judged:.0}"))),
+                ("rating", Arg::from(&rating)),
+            ],
+        )
     );
     if bias == BiasKind::Fixed && is_output {
         let lo = settings.fixed_bias_low * 100.0;
         let hi = settings.fixed_bias_high * 100.0;
-        let threshold = format!(
-            "fixed-bias aim {lo:.0}–{hi:.0} % of {rating}; cold below {lo:.0} %, caution above {hi:.0} %, over above 100 %"
+        let (lo_w, hi_w) = (format!("{lo:.0}"), format!("{hi:.0}"));
+        let threshold = words(
+            "threshold-fixed-bias",
+            &[
+                ("low", Arg::from(&lo_w)),
+                ("high", Arg::from(&hi_w)),
+                ("rating", Arg::from(&rating)),
+            ],
         );
         if judged > 100.0 {
             Verdict::new(Status::Over, what, threshold)
         } else if judged > hi {
             Verdict::new(
                 Status::Caution,
-                format!("{what}, above the {hi:.0} % aim"),
+                format!(
+                    "{what}, {}",
+                    words("reason-above-aim", &[("high", Arg::from(&hi_w))])
+                ),
                 threshold,
             )
         } else if judged < lo {
             Verdict::new(
                 Status::Cold,
-                format!("{what}, below the {lo:.0} % aim (crossover distortion risk)"),
+                format!(
+                    "{what}, {}",
+                    words("reason-below-aim", &[("low", Arg::from(&lo_w))])
+                ),
                 threshold,
             )
         } else {
-            Verdict::ok(format!("{what}, inside the aim"), threshold)
+            Verdict::ok(
+                format!("{what}, {}", words("reason-inside-aim", &[])),
+                threshold,
+            )
         }
     } else {
         let caution = settings.cathode_bias_caution * 100.0;
-        let threshold = format!("caution above {caution:.0} % of {rating}, over above 100 %");
+        let caution_w = format!("{caution:.0}");
+        let threshold = words(
+            "threshold-cathode-bias",
+            &[
+                ("caution", Arg::from(&caution_w)),
+                ("rating", Arg::from(&rating)),
+            ],
+        );
         if judged > 100.0 {
             Verdict::new(Status::Over, what, threshold)
         } else if judged > caution {
             Verdict::new(
                 Status::Caution,
-                format!("{what}, above the {caution:.0} % guide"),
+                format!(
+                    "{what}, {}",
+                    words("reason-above-guide", &[("caution", Arg::from(&caution_w))])
+                ),
                 threshold,
             )
         } else {
@@ -479,42 +513,66 @@ fn dissipation_verdict(
     }
 }
 
+/// A reason or threshold in words, from the English catalogue: the JSON's
+/// reason strings are the reference language's, whatever the shop's.
+fn words(key: &str, args: &[(&str, Arg)]) -> String {
+    Catalogue::english().format(key, args)
+}
+
 /// A voltage against its published maximum: caution above it (or when the
 /// high-line projection passes it), over more than `over` (a fraction,
 /// [`Settings::voltage_over`]) above it.
 fn max_verdict(what: &str, v: Volts, high: Volts, max: Volts, over: f64) -> Verdict {
     let factor = 1.0 + over;
     let max_words = format_engineering(max.0, crate::units::QuantityKind::Voltage);
-    let threshold = format!(
-        "caution above the {max_words} maximum (or when the high-line projection is above it), over above {:.0} % of it",
-        factor * 100.0
+    let threshold = words(
+        "threshold-voltage-max",
+        &[
+            ("max", Arg::from(&max_words)),
+            ("over", Arg::from(format!("{:.0}", factor * 100.0))),
+        ],
     );
     let pct = v / max * 100.0;
     let v_words = format_engineering(v.0, crate::units::QuantityKind::Voltage);
+    let args = [
+        ("what", Arg::from(what)),
+        ("volts", Arg::from(&v_words)),
+        ("pct", Arg::from(format!("{pct:.0}"))),
+        ("max", Arg::from(&max_words)),
+    ];
     if v.0 > max.0 * factor {
         Verdict::new(
             Status::Over,
-            format!("{what} {v_words} is {pct:.0} % of its {max_words} maximum"),
+            words("reason-voltage-of-max", &args),
             threshold,
         )
     } else if v.0 > max.0 {
         Verdict::new(
             Status::Caution,
-            format!("{what} {v_words} is {pct:.0} % of its {max_words} maximum"),
+            words("reason-voltage-of-max", &args),
             threshold,
         )
     } else if high.0 > max.0 {
         Verdict::new(
             Status::Caution,
-            format!(
-                "{what} would reach {} at high line, above its {} maximum",
-                format_engineering(high.0, crate::units::QuantityKind::Voltage),
-                format_engineering(max.0, crate::units::QuantityKind::Voltage)
+            words(
+                "reason-voltage-high-line",
+                &[
+                    ("what", Arg::from(what)),
+                    (
+                        "high",
+                        Arg::from(format_engineering(
+                            high.0,
+                            crate::units::QuantityKind::Voltage,
+                        )),
+                    ),
+                    ("max", Arg::from(&max_words)),
+                ],
             ),
             threshold,
         )
     } else {
-        Verdict::ok(format!("{what} is {pct:.0} % of its maximum"), threshold)
+        Verdict::ok(words("reason-voltage-within", &args), threshold)
     }
 }
 
@@ -823,6 +881,36 @@ mod tests {
                 .any(|w| w.contains("no reading gives the idle current")),
             "{warnings:?}"
         );
+    }
+
+    #[test]
+    fn the_reasons_are_the_catalogues_words() {
+        // 330 V on a 300 V maximum is 110 % of it (EL84's Va(max) from memory).
+        let v = max_verdict(
+            "plate voltage",
+            Volts(330.0),
+            Volts(340.0),
+            Volts(300.0),
+            Settings::default().voltage_over,
+        );
+        let english = Catalogue::english();
+        assert_eq!(
+            v.reason,
+            "plate voltage 330 V is 110 % of its 300 V maximum"
+        );
+        assert_eq!(
+            v.reason,
+            english.format(
+                "reason-voltage-of-max",
+                &[
+                    ("what", Arg::from("plate voltage")),
+                    ("volts", Arg::from("330 V")),
+                    ("pct", Arg::from("110")),
+                    ("max", Arg::from("300 V")),
+                ],
+            )
+        );
+        assert!(v.threshold.starts_with("caution above the 300 V maximum"));
     }
 
     #[test]

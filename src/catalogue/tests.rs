@@ -2,7 +2,16 @@ use super::*;
 use crate::job::JobDiagnostics;
 
 /// The first part of every catalogue key: what the message belongs to.
-const NAMESPACES: &[&str] = &["doc", "status", "period", "notice", "date", "term"];
+const NAMESPACES: &[&str] = &[
+    "doc",
+    "status",
+    "period",
+    "notice",
+    "date",
+    "term",
+    "reason",
+    "threshold",
+];
 
 /// Every `t("key")`/`tm("key")` of a template and every
 /// `.text("key")`/`.format("key"` of the program's source.

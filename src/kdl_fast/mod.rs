@@ -30,10 +30,7 @@ pub fn parse_document(text: &str) -> Result<KdlDocument, KdlError> {
                 input: std::sync::Arc::new(text.to_string()),
                 diagnostics: vec![kdl::KdlDiagnostic {
                     input: std::sync::Arc::new(text.to_string()),
-                    span: miette::SourceSpan::new(
-                        deep.offset.into(),
-                        2.min(text.len() - deep.offset),
-                    ),
+                    span: deep_span(text, deep.offset),
                     message: Some(deep.kind.message()),
                     label: Some("too deep".to_string()),
                     help: Some(deep.kind.help().to_string()),
@@ -44,6 +41,18 @@ pub fn parse_document(text: &str) -> Result<KdlDocument, KdlError> {
             None => KdlDocument::parse(text),
         },
     }
+}
+
+/// The span marking where nesting went too deep: the two characters from
+/// `offset` (`/*`, `/-`, `{{`), never splitting a character, whatever
+/// follows (a `{` may be followed by a letter of any script).
+fn deep_span(text: &str, offset: usize) -> miette::SourceSpan {
+    let mut at = offset.min(text.len());
+    while !text.is_char_boundary(at) {
+        at -= 1;
+    }
+    let len: usize = text[at..].chars().take(2).map(char::len_utf8).sum();
+    miette::SourceSpan::new(at.into(), len)
 }
 
 /// The largest broken text handed to the `kdl` crate's parser for its full

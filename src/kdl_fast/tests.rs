@@ -457,3 +457,25 @@ fn declined_text_gets_the_kdl_crates_diagnostics() {
             .contains("nested more than")
     );
 }
+
+#[test]
+fn the_too_deep_span_never_splits_a_character() {
+    // Found by the long fuzz run (seed 825,745): a run of `{` with a
+    // three-byte letter after the place nesting goes too deep.
+    for (braces, tail) in
+        (45..60).flat_map(|n| ["\u{1200}{{", "é", "\u{1F600}", ""].map(|t| (n, t)))
+    {
+        let text = "{".repeat(braces) + tail;
+        let Err(err) = parse_document(&text) else {
+            panic!("{braces} braces and {tail:?} were read as a document");
+        };
+        let span = err.diagnostics[0].span;
+        let (start, end) = (span.offset(), span.offset() + span.len());
+        assert!(end <= text.len(), "{tail:?}: span {start}..{end}");
+        assert!(
+            text.is_char_boundary(start) && text.is_char_boundary(end),
+            "{tail:?}: span {start}..{end} splits a character"
+        );
+        assert!(!span.is_empty(), "{tail:?}: empty span");
+    }
+}
