@@ -391,6 +391,162 @@ fn deep_nesting_of_any_kind_is_an_error_not_a_crash() {
     }
 }
 
+/// Nesting that the depth check once missed, each in a file small enough
+/// to reach the `kdl` crate's parser, which then overflowed the main
+/// thread's stack (status 134): runs of `/-` with line continuations,
+/// comments or `//` notes between them (each still comments out the next),
+/// and blocks whose `}` stands in a string or a comment (which closes
+/// nothing). Each is refused at the 49th level.
+#[test]
+fn nesting_hidden_behind_comments_and_strings_is_still_counted() {
+    let cases = [
+        (
+            "`/-` and `\\`",
+            format!("a {}1 (\n", "/- \\\n".repeat(2500)),
+            "50:1",
+        ),
+        (
+            "`/-` and `//`",
+            format!("a {}1 (\n", "/-//\n".repeat(2500)),
+            "50:1",
+        ),
+        (
+            "`/-` and `/* */`",
+            format!("a {}1 (\n", "/-/*x*/".repeat(2200)),
+            "2:339",
+        ),
+        ("`}` in a string", "a \"}\" {\n".repeat(1900), "50:7"),
+        ("`}` in a comment", "a{/*}*/\n".repeat(1900), "50:2"),
+        ("`}` after `//`", "a{//}\n".repeat(2500), "50:2"),
+    ];
+    let dir = tempfile::tempdir().expect("temp dir");
+    for (what, body, at) in cases {
+        let text = format!("job-format 1\n{body}");
+        assert!(
+            text.len() < ampreport::kdl_fast::MAX_FALLBACK_SIZE,
+            "{what}"
+        );
+        std::fs::write(dir.path().join("deep.kdl"), &text).expect("write");
+        let run = run_with_deadline(dir.path(), &["check", "deep.kdl"], LIMIT);
+        assert_eq!(run.status, Some(1), "{what}: {}", run.stderr);
+        assert!(
+            run.stderr.contains(&format!("[deep.kdl:{at}]")) && run.stderr.contains("more than 48"),
+            "{what} should be refused at {at}:\n{}",
+            run.stderr
+        );
+    }
+}
+
+/// The demo job rewritten with the rarer forms of KDL 2.0: a version
+/// marker, raw strings with hashes, multi-line and raw multi-line strings,
+/// escapes of every kind (whitespace escapes joining lines), numbers in
+/// hex, octal, binary and with `_`, line continuations, `;` between nodes,
+/// CR LF and other newlines, unicode spaces, comments and `/-` comments
+/// everywhere.
+fn job_in_rare_forms() -> String {
+    let text = demo("combo-el84-cathode.kdl")
+        .replace("job-format 1", "/- kdl-version 2\njob-format 0b1 // binary\r\n")
+        .replace(
+            "year=1964",
+            "year=0x7AC /-year=1_9_6_4 \\ // continued\n    ",
+        )
+        .replace(
+            "description \"1x12 combo, two EL84 in push-pull, EZ81 valve rectifier, two channels\"",
+            "description ##\"1x12 combo, two EL84 in push-pull, EZ81 valve rectifier, two channels\"##",
+        )
+        .replace(
+            "contact \"+1 555 0142\"",
+            "contact \"+1\\s555\\u{20}0142\"; /-contact #\"old\"#",
+        )
+        .replace(
+            "complaint \"Loud hum",
+            "complaint /* said on the phone */ \"Loud\\u{20}\\\n        hum",
+        )
+        .replace(
+            "findings \"\"\"",
+            "findings\u{3000}/-\"dropped\" \"\"\"",
+        )
+        .replace(
+            "work \"\"\"\nRaised",
+            "work #\"\"\"\n  Raised",
+        )
+        .replace("at operating temperature.\n\"\"\"", "at operating temperature.\n  \"\"\"#")
+        .replace(
+            "Replaced the first filter",
+            "  Replaced the first filter",
+        )
+        .replace("    heater \"7.0V\"\n", "    heater \"7.0V\"\u{2028}")
+        .replace("valve V5 type=EZ81 role=rectifier", "valve V5 type=EZ81 role=rectifier\u{85}");
+    // The rewrite must have taken hold everywhere.
+    for form in [
+        "0b1", "0x7AC", "##\"", "\\s", "\\\n", "#\"\"\"", "\u{3000}", "\u{2028}",
+    ] {
+        assert!(text.contains(form), "{form:?} missing");
+    }
+    text
+}
+
+/// Text after a job that only adds to its size: comments, and `/-`
+/// comments over nodes in the rare forms, with one old block nested as
+/// deeply as the reader allows (`/-` before each level, and a run of
+/// `/-` within the innermost node, each taking one of the values after).
+fn padding(at_least: usize) -> String {
+    let depth = ampreport::kdl_fast::MAX_FALLBACK_DEPTH;
+    let mut out = format!(
+        "\n/-old-notes {{\n{}note {}/-1 {}\n{}}}\n",
+        "/-level {\n".repeat(depth - 1),
+        "/- ".repeat(depth - 2),
+        "2 ".repeat(depth - 1),
+        "}\n".repeat(depth - 1),
+    );
+    let mut i = 0;
+    while out.len() < at_least {
+        out.push_str(&format!(
+            "// note {i}: kept for the record\n/-part R{i} value=0x{i:x} reason=#\"was \"{i}\"\"# {{ note \"\"\"\n    line\\tone\n    \"\"\" }}\n/* {{ a block comment }} */\n"
+        ));
+        i += 1;
+    }
+    out
+}
+
+/// A valid job file over 16 KiB (past which a broken file gets only its
+/// first syntax error) decodes exactly as the same job does at a few KiB,
+/// whatever rare forms of KDL it uses.
+#[test]
+fn a_large_valid_job_in_rare_forms_decodes_as_a_small_one() {
+    let small = job_in_rare_forms();
+    let large = format!("{small}{}", padding(40 * 1024));
+    assert!(small.len() < ampreport::kdl_fast::MAX_FALLBACK_SIZE);
+    assert!(large.len() >= 40 * 1024);
+    let read = |text: &str| match ampreport::job::decode("job.kdl", text) {
+        Ok(d) => (
+            serde_json::to_string(&d.job).expect("json"),
+            d.diagnostics.problems.len(),
+        ),
+        Err(e) => panic!("{:?}", miette::Report::new(e)),
+    };
+    let (small_job, small_warnings) = read(&small);
+    let (large_job, large_warnings) = read(&large);
+    assert_eq!(small_job, large_job);
+    assert_eq!(small_warnings, large_warnings);
+    // And it is the demo job's content: the rare forms read as written.
+    let plain = read(&demo("combo-el84-cathode.kdl")).0;
+    let value: serde_json::Value = serde_json::from_str(&small_job).expect("json");
+    let plain: serde_json::Value = serde_json::from_str(&plain).expect("json");
+    for key in [
+        "format_version",
+        "unit",
+        "customer",
+        "complaint",
+        "findings",
+        "work",
+        "valves",
+    ] {
+        assert!(!plain[key].is_null(), "{key}");
+        assert_eq!(value[key], plain[key], "{key}");
+    }
+}
+
 // ----- floods -----------------------------------------------------------------------
 
 /// Thousands of problems: the first few in full, then a count of the rest,

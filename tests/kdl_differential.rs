@@ -920,3 +920,82 @@ fn random_document(next: &mut impl FnMut(usize) -> usize, depth: usize) -> Strin
 fn pick(next: &mut impl FnMut(usize) -> usize, list: &[&'static str]) -> &'static str {
     list[next(list.len())]
 }
+
+/// The `kdl` crate's reading of `text`, on a thread with room for its
+/// recursion on deeply nested text.
+fn kdl_reading(text: &str) -> Result<KdlDocument, kdl::KdlError> {
+    let text = text.to_string();
+    std::thread::Builder::new()
+        .stack_size(256 << 20)
+        .spawn(move || KdlDocument::parse(&text))
+        .expect("thread")
+        .join()
+        .expect("kdl parse")
+}
+
+/// A valid text the fast parser declines is refused when it is over
+/// `MAX_FALLBACK_SIZE`, so it must decline none that the depth check lets
+/// through: the deepest such nesting of every kind at once (slashdashed
+/// blocks, with a run of `/-` in the innermost node and nested comments)
+/// takes the fast path and reads as the `kdl` crate reads it.
+#[test]
+fn the_deepest_text_the_depth_check_passes_takes_the_fast_path() {
+    let depth = ampreport::kdl_fast::MAX_FALLBACK_DEPTH;
+    let text = format!(
+        "/-a {{\n{}b {}{}/-1 {}\n{}}}\nc {}x{} 1\n",
+        "/-a {\n".repeat(depth - 1),
+        "/- \\\n".repeat(depth / 2),
+        "/- /* c */ ".repeat(depth - 1 - depth / 2),
+        "2 ".repeat(depth),
+        "}\n".repeat(depth - 1),
+        "/*".repeat(depth),
+        "*/".repeat(depth),
+    );
+    assert_eq!(ampreport::kdl_fast::too_deep(&text), None);
+    let slow = kdl_reading(&text).expect("valid KDL");
+    let fast = parse_fast(&text).expect("the fast parser declined it");
+    document("", &fast, &slow).unwrap();
+    // One level more of any kind is refused by the depth check.
+    for deeper in [
+        format!("/-a {{\n{text}}}"),
+        text.replacen("/- \\", "/- /- \\", 1),
+        text.replacen("/*", "/*/*", 1).replacen("*/", "*/*/", 1),
+    ] {
+        assert!(ampreport::kdl_fast::too_deep(&deeper).is_some());
+    }
+}
+
+/// Generated valid documents, padded past `MAX_FALLBACK_SIZE` with a
+/// comment, read exactly as the `kdl` crate reads them: a large
+/// valid file is never refused, whatever forms it uses.
+#[test]
+fn large_valid_documents_read_as_small_ones() {
+    let mut seed: u64 = 0x2545_F491_4F6C_DD1D;
+    let mut next = move |n: usize| {
+        seed ^= seed << 13;
+        seed ^= seed >> 7;
+        seed ^= seed << 17;
+        (seed % n as u64) as usize
+    };
+    let padding = format!(
+        "\n/* {} */\n",
+        "padding ".repeat(ampreport::kdl_fast::MAX_FALLBACK_SIZE / 8)
+    );
+    let mut valid = 0;
+    while valid < 120 {
+        let text = random_document(&mut next, 0);
+        if KdlDocument::parse(&text).is_err() {
+            continue;
+        }
+        valid += 1;
+        let large = format!("{text}{padding}");
+        let slow = KdlDocument::parse(&large).expect("still valid");
+        match parse_document(&large) {
+            Ok(fast) => document("", &fast, &slow).unwrap_or_else(|e| panic!("{text:?}: {e}")),
+            Err(e) => panic!(
+                "{text:?} refused when large: {:?}",
+                e.diagnostics[0].message
+            ),
+        }
+    }
+}

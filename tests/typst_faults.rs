@@ -14,7 +14,7 @@ use std::os::unix::process::ExitStatusExt;
 use std::path::Path;
 use std::time::{Duration, Instant};
 
-use support::{NOTICE_PHRASES, Scene, real_typst, stderr};
+use support::{NOTICE_PHRASES, Scene, real_typst, says, stderr};
 
 /// Runs a render with a stand-in typst whose compile runs `body`, and
 /// checks that it failed with status 3, left the folder and the good PDF as
@@ -35,7 +35,7 @@ fn failing_render(scene: &Scene, body: &str, extra: &[&str]) -> String {
         "{:?}",
         scene.temp_listing()
     );
-    assert!(err.contains("was left as it was"), "{err}");
+    assert!(says(&err, "was left as it was"), "{err}");
     err
 }
 
@@ -66,10 +66,10 @@ fn a_typst_that_lies_about_success_is_named_and_replaces_nothing() {
     ];
     for (body, words) in cases {
         let err = failing_render(&scene, body, &[]);
-        assert!(err.contains(words), "{body}: {err}");
-        assert!(err.contains("the typst program"), "{body}: {err}");
-        assert!(err.contains("not at the job"), "{body}: {err}");
-        assert!(!err.contains("fault in ampreport"), "{body}: {err}");
+        assert!(says(&err, words), "{body}: {err}");
+        assert!(says(&err, "the typst program"), "{body}: {err}");
+        assert!(says(&err, "not at the job"), "{body}: {err}");
+        assert!(!says(&err, "fault in ampreport"), "{body}: {err}");
     }
 }
 
@@ -86,8 +86,8 @@ fn a_crashing_typst_says_how_it_ended() {
     ];
     for (body, words) in cases {
         let err = failing_render(&scene, body, &[]);
-        assert!(err.contains(words), "{body}: {err}");
-        assert!(err.contains("not at the job"), "{body}: {err}");
+        assert!(says(&err, words), "{body}: {err}");
+        assert!(says(&err, "not at the job"), "{body}: {err}");
     }
     // A document error (status 1 with typst's reasons) in the built-in
     // template is ampreport's own fault.
@@ -96,9 +96,9 @@ fn a_crashing_typst_says_how_it_ended() {
         "echo 'error: unknown variable: oops' >&2; exit 1",
         &[],
     );
-    assert!(err.contains("exited with status 1"), "{err}");
-    assert!(err.contains("unknown variable: oops"), "{err}");
-    assert!(err.contains("fault in ampreport"), "{err}");
+    assert!(says(&err, "exited with status 1"), "{err}");
+    assert!(says(&err, "unknown variable: oops"), "{err}");
+    assert!(says(&err, "fault in ampreport"), "{err}");
     // The failed run's source is kept, under a name no later run removes.
     let kept: Vec<String> = scene
         .temp_listing()
@@ -118,11 +118,11 @@ fn a_flood_of_typst_output_is_cut() {
         &[],
     );
     assert!(
-        err.contains("error: first words"),
+        says(&err, "error: first words"),
         "{}",
         &err[..200.min(err.len())]
     );
-    assert!(err.contains("more bytes of output not shown"));
+    assert!(says(&err, "more bytes of output not shown"));
     assert!(err.len() < 2_000_000, "{} bytes of errors", err.len());
 }
 
@@ -134,8 +134,8 @@ fn a_hanging_typst_is_stopped_at_the_time_limit() {
     let start = Instant::now();
     let err = failing_render(&scene, &body, &["--timeout", "1"]);
     assert!(start.elapsed() < Duration::from_secs(30));
-    assert!(err.contains("did not finish `compile` within 1 s"), "{err}");
-    assert!(err.contains("--timeout"), "{err}");
+    assert!(says(&err, "did not finish `compile` within 1 s"), "{err}");
+    assert!(says(&err, "--timeout"), "{err}");
     let pid: i32 = std::fs::read_to_string(&pid_file)
         .unwrap()
         .trim()
@@ -161,7 +161,7 @@ fn a_hanging_typst_is_stopped_at_the_time_limit() {
     let err = stderr(&out);
     assert_eq!(out.status.code(), Some(3), "{err}");
     assert!(
-        err.contains("did not finish `--version` within 0.5 s"),
+        says(&err, "did not finish `--version` within 0.5 s"),
         "{err}"
     );
     assert!(scene.pdf_is_the_good_old_one());
@@ -221,7 +221,7 @@ fn sigint_and_sigterm_remove_everything_and_stop_typst() {
         std::io::Read::read_to_string(&mut child.stderr.take().unwrap(), &mut err).unwrap();
         // It ends as the signal would have ended it, so a shell loop stops.
         assert_eq!(status.signal(), Some(signal), "{status:?}: {err}");
-        assert!(err.contains("typst was stopped"), "{err}");
+        assert!(says(&err, "typst was stopped"), "{err}");
         assert!(scene.pdf_is_the_good_old_one());
         assert_eq!(scene.listing(), before);
         assert!(
@@ -310,10 +310,7 @@ fn a_template_that_hides_the_notice_is_refused() {
         );
         let err = stderr(&out);
         assert_eq!(out.status.code(), Some(1), "{body}: {err}");
-        assert!(
-            err.contains("does not show the mains-safety notice"),
-            "{err}"
-        );
+        assert!(says(&err, "does not show the mains-safety notice"), "{err}");
         assert!(scene.pdf_is_the_good_old_one());
         assert_eq!(scene.listing(), before);
     }
@@ -329,4 +326,26 @@ fn a_template_that_hides_the_notice_is_refused() {
         &["--templates", templates.to_str().unwrap()],
     );
     assert!(out.status.success(), "{}", stderr(&out));
+}
+
+#[test]
+fn reports_are_read_through_their_wrapping() {
+    let report = "  × the typst program /tmp/a-very-long-folder-\n  │ name/bin/bad-typst reported success but\n  │ wrote no file\n  help: try the kept source in /tmp/x/tmp/\n        ampreport-source-j4shCm, or inst\n        all a fresh one\n";
+    for words in [
+        "the typst program /tmp/a-very-long-folder-name/bin/bad-typst reported",
+        "reported success but wrote no file",
+        "/tmp/x/tmp/ampreport-source-j4shCm, or install a fresh one",
+    ] {
+        assert!(says(report, words), "{words}");
+    }
+    for words in [
+        "successbut",
+        "wrote nofile",
+        "wrote no file at all",
+        "reported  success",
+        "program/tmp",
+        "the typst program wrote",
+    ] {
+        assert!(!says(report, words), "{words}");
+    }
 }

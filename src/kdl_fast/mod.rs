@@ -3,11 +3,16 @@
 //! spends most of a `check` on them; this parser builds the same document
 //! (names, types, values and spans) in a fraction of the time.
 //!
-//! Text this parser is not certain about, including every broken
-//! document, goes to the `kdl` crate's parser instead, so the result (and
-//! every syntax diagnostic) is always the one that crate gives.
+//! It reads all of KDL 2.0 as the `kdl` crate reads it and declines only
+//! broken text (the differential tests in `tests/kdl_differential.rs` hold
+//! it to that, nesting up to [`MAX_FALLBACK_DEPTH`] included). Declined
+//! text goes to the `kdl` crate's parser for its full syntax report, so
+//! every syntax diagnostic is the one that crate gives; on a large file,
+//! where that parser's error recovery is slow, only the first break is
+//! reported.
 
 mod chars;
+mod depth;
 mod parser;
 mod tokens;
 
@@ -16,9 +21,13 @@ mod tests;
 
 use kdl::{KdlDocument, KdlError};
 
+pub use depth::{TooDeep, too_deep};
+
 /// Parses KDL 2.0 text: the fast parser first, the `kdl` crate's parser
-/// for anything the fast one declines. The result is always what
-/// `KdlDocument::parse` would give, apart from formatting details.
+/// for anything the fast one declines (which is broken). The result is
+/// always what `KdlDocument::parse` would give, apart from formatting
+/// details, and for a broken text over [`MAX_FALLBACK_SIZE`] its first
+/// error only.
 pub fn parse_document(text: &str) -> Result<KdlDocument, KdlError> {
     match parse_fast(text) {
         Some(doc) => Ok(doc),
@@ -60,6 +69,8 @@ fn deep_span(text: &str, offset: usize) -> miette::SourceSpan {
 /// than linear time (a 1 MB file of `x=1 ` took over a minute), while a job
 /// file is a few kilobytes; past this size only the first place the text
 /// stops being KDL is reported, found by the fast parser in linear time.
+/// Only broken text is affected: the fast parser reads every valid text
+/// that passes [`too_deep`], whatever its size.
 pub const MAX_FALLBACK_SIZE: usize = 16 * 1024;
 
 /// One syntax error where the fast parser had to stop reading `text`.
@@ -89,9 +100,12 @@ fn first_break(text: &str) -> KdlError {
     }
 }
 
-/// The deepest nesting handed to the `kdl` crate's parser, of each kind.
-/// Its recursion overflows a 2 MB test thread's stack at about 70 levels
-/// of blocks; comments cost less per level.
+/// The deepest nesting handed to the `kdl` crate's parser, of each kind
+/// (measured by [`too_deep`]). Its recursion overflows a 2 MB test
+/// thread's stack at about 70 levels of blocks; comments cost less per
+/// level. Kinds together (blocks, each under a `/-`, with a run of `/-`
+/// inside) can pass that on a 2 MB thread, though not on the main
+/// thread's 8 MB, where the program reads its files.
 pub const MAX_FALLBACK_DEPTH: usize = 48;
 
 /// Which kind of nesting went too deep.
@@ -133,67 +147,6 @@ impl Nesting {
             }
         }
     }
-}
-
-/// Where nesting first goes past [`MAX_FALLBACK_DEPTH`].
-#[derive(Debug, Clone, Copy, PartialEq, Eq)]
-pub struct TooDeep {
-    /// Byte offset of the `{`, `/*` or `/-` past the limit.
-    pub offset: usize,
-    pub kind: Nesting,
-}
-
-/// The first place where blocks, `/*` comments or a run of `/-` comments
-/// nest more than [`MAX_FALLBACK_DEPTH`] deep. Counts naively, one pass
-/// over the bytes (strings and comments included, which can only
-/// over-count), so it cannot itself recurse or take long.
-pub fn too_deep(text: &str) -> Option<TooDeep> {
-    let bytes = text.as_bytes();
-    let (mut blocks, mut comments, mut slashdashes) = (0usize, 0usize, 0usize);
-    let mut i = 0;
-    while i < bytes.len() {
-        let pair = (bytes[i], bytes.get(i + 1).copied());
-        let deeper = |depth: usize, kind| {
-            (depth > MAX_FALLBACK_DEPTH).then_some(TooDeep { offset: i, kind })
-        };
-        match pair {
-            (b'{', _) => {
-                blocks += 1;
-                slashdashes = 0;
-                if let Some(d) = deeper(blocks, Nesting::Blocks) {
-                    return Some(d);
-                }
-            }
-            (b'}', _) => {
-                blocks = blocks.saturating_sub(1);
-                slashdashes = 0;
-            }
-            (b'/', Some(b'*')) => {
-                comments += 1;
-                if let Some(d) = deeper(comments, Nesting::Comments) {
-                    return Some(d);
-                }
-                i += 1;
-            }
-            // Outside a comment `*/` is text, and its `/` may open one: the
-            // reader sees `*/*` at depth 0 as `*` and an opening `/*`.
-            (b'*', Some(b'/')) if comments > 0 => {
-                comments -= 1;
-                i += 1;
-            }
-            (b'/', Some(b'-')) => {
-                slashdashes += 1;
-                if let Some(d) = deeper(slashdashes, Nesting::Slashdash) {
-                    return Some(d);
-                }
-                i += 1;
-            }
-            (c, _) if c.is_ascii_whitespace() => {}
-            _ => slashdashes = 0,
-        }
-        i += 1;
-    }
-    None
 }
 
 /// A syntax diagnostic's span made to point where the trouble is. The
@@ -306,6 +259,39 @@ mod depth_tests {
         // A span that starts later is kept.
         let kept = miette::SourceSpan::new(4.into(), 3);
         assert_eq!(narrow_span(text, kept), kept);
+    }
+
+    #[test]
+    fn braces_in_strings_and_comments_neither_hide_nor_pile_up_nesting() {
+        // Closed in their own string, or inside comments: nothing piles up
+        // over many nodes.
+        let calm = "n \"{R12}\" #\"{ }\"# /* } { */ // } {\nm { a }\n".repeat(200);
+        assert_eq!(too_deep(&calm), None);
+        // A `}` in a string, also after a whitespace escape or in a
+        // multi-line or raw string, or in a comment, closes no block.
+        for unit in [
+            "n \"}\" {\n",
+            "n \"x\\\r\n}\" {\n",
+            "n \"\"\"\n}\n\"\"\" {\n",
+            "n ##\"}\"#}\"## {\n",
+            "n { /* } */\n",
+            "n { // }\n",
+        ] {
+            let text = unit.repeat(60);
+            let found = too_deep(&text).unwrap_or_else(|| panic!("{unit:?}"));
+            assert_eq!(found.kind, Nesting::Blocks, "{unit:?}");
+            let at = text.match_indices('{').map(|(i, _)| i);
+            let first_past = if unit.contains("{ ") {
+                at.step_by(1).nth(MAX_FALLBACK_DEPTH)
+            } else {
+                at.filter(|&i| text.as_bytes()[i + 1] == b'\n')
+                    .nth(MAX_FALLBACK_DEPTH)
+            };
+            assert_eq!(Some(found.offset), first_past, "{unit:?}");
+        }
+        // A comment left open makes its text count too.
+        let open = format!("/*{}", "a {\n".repeat(60));
+        assert_eq!(too_deep(&open).map(|d| d.kind), Some(Nesting::Blocks));
     }
 
     #[test]

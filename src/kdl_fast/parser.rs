@@ -17,7 +17,15 @@ pub(super) type R<T> = Result<T, Reject>;
 
 /// How deeply child blocks and slashdash comments may nest before the fast
 /// parser declines, so that its stack stays small whatever the input.
-pub(super) const MAX_DEPTH: u32 = 128;
+///
+/// A decline here must never turn away a valid text that
+/// [`super::too_deep`] lets through, since a large text the fast parser
+/// declines is reported as broken. Within that check's limits a level of
+/// block nesting costs the parser at most two levels (the block and a
+/// slashdashed node holding it), and one run of `/-` within a node at most
+/// one level per `/-`, so no such text nests more than
+/// `3 * MAX_FALLBACK_DEPTH + 1` levels here; this limit is above that.
+pub(super) const MAX_DEPTH: u32 = 4 * super::MAX_FALLBACK_DEPTH as u32;
 
 pub(super) struct Parser<'a> {
     pub(super) src: &'a str,

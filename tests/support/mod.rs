@@ -178,6 +178,44 @@ pub fn stderr(out: &Output) -> String {
     String::from_utf8_lossy(&out.stderr).into_owned()
 }
 
+/// Whether the report `err` says `words`, however it was wrapped. Reports
+/// are wrapped to a fixed width, so a long path (a long `TMPDIR`) moves the
+/// line breaks, and a break may fall between words, after a hyphen or
+/// inside a long word or path. A line break here, with the spaces and the
+/// report's `│` margin around it, stands for the space between two words of
+/// `words` or for nothing; every other character must match exactly.
+pub fn says(err: &str, words: &str) -> bool {
+    const BREAK: char = '\u{0}';
+    let mut hay = Vec::with_capacity(err.len());
+    for (i, line) in err.lines().enumerate() {
+        let line = if i == 0 {
+            line.trim_end()
+        } else {
+            hay.push(BREAK);
+            line.trim().trim_start_matches('│').trim()
+        };
+        hay.extend(line.chars());
+    }
+    let needle: Vec<char> = words.chars().collect();
+    let matches_at = |mut h: usize| {
+        let mut n = 0;
+        while n < needle.len() {
+            match hay.get(h) {
+                Some(&c) if c == needle[n] => n += 1,
+                // A break where the words have a space stands for it, or
+                // else for nothing (a line after a break never starts
+                // with a space).
+                Some(&BREAK) if needle[n] == ' ' => n += 1,
+                Some(&BREAK) => {}
+                _ => return false,
+            }
+            h += 1;
+        }
+        true
+    };
+    (0..hay.len().max(1)).any(matches_at)
+}
+
 #[cfg(unix)]
 pub fn make_executable(path: &Path) {
     use std::os::unix::fs::PermissionsExt;
