@@ -4,6 +4,12 @@
 //! every run. `src/typeset/font_cache.rs` reads it as
 //! `AMPREPORT_FONTS_DIGEST` and a unit test checks it against the embedded
 //! files.
+//!
+//! It also works out the digest of everything else that decides what the
+//! program prints (its sources, templates, ratings table, manifest and
+//! lock file), `AMPREPORT_PROGRAM_DIGEST`, which the content key of an
+//! incremental render uses to tell one build of ampreport from another
+//! without reading the binary (see `src/cli/content_key.rs`).
 
 use std::path::Path;
 
@@ -39,4 +45,51 @@ fn main() {
         .map(|b| format!("{b:02x}"))
         .collect();
     println!("cargo:rustc-env=AMPREPORT_FONTS_DIGEST={hex}");
+    program_digest();
+}
+
+/// SHA-256 over every file under `src/`, `templates/` and `ratings/` and
+/// `Cargo.toml`, `Cargo.lock` and `build.rs`, by path, in path order.
+fn program_digest() {
+    let mut files = Vec::new();
+    for dir in ["src", "templates", "ratings"] {
+        println!("cargo:rerun-if-changed={dir}");
+        collect(Path::new(dir), &mut files);
+    }
+    for file in ["Cargo.toml", "Cargo.lock", "build.rs"] {
+        println!("cargo:rerun-if-changed={file}");
+        files.push(Path::new(file).to_path_buf());
+    }
+    files.sort();
+    let mut hasher = Sha256::new();
+    for path in &files {
+        let Ok(bytes) = std::fs::read(path) else {
+            continue;
+        };
+        let name = path.to_string_lossy();
+        hasher.update(name.as_bytes());
+        hasher.update([0]);
+        hasher.update((bytes.len() as u64).to_le_bytes());
+        hasher.update(&bytes);
+    }
+    let hex: String = hasher
+        .finalize()
+        .iter()
+        .map(|b| format!("{b:02x}"))
+        .collect();
+    println!("cargo:rustc-env=AMPREPORT_PROGRAM_DIGEST={hex}");
+}
+
+fn collect(dir: &Path, out: &mut Vec<std::path::PathBuf>) {
+    let Ok(entries) = std::fs::read_dir(dir) else {
+        return;
+    };
+    for entry in entries.flatten() {
+        let path = entry.path();
+        match entry.file_type() {
+            Ok(t) if t.is_dir() => collect(&path, out),
+            Ok(t) if t.is_file() => out.push(path),
+            _ => {}
+        }
+    }
 }

@@ -237,3 +237,46 @@ fn a_language_without_a_catalogue_or_outside_the_folder_is_an_error_at_its_line(
         stderr(&o)
     );
 }
+
+#[test]
+fn a_translation_that_is_a_fifo_a_link_out_or_not_utf8_is_refused_at_once() {
+    // A FIFO named as the translation once made `check` wait forever for
+    // a writer; the translation is read under the same rules as a photo
+    // or a logo (regular file, inside the folder, size limit).
+    let dir = shop_folder("language \"xx\" file=\"xx.ftl\"");
+    let fifo = dir.path().join("xx.ftl");
+    assert!(
+        Command::new("mkfifo")
+            .arg(&fifo)
+            .status()
+            .unwrap()
+            .success()
+    );
+    let o = run(dir.path(), &["check", "combo-6v6-fixed.kdl"]);
+    assert_eq!(o.status.code(), Some(1), "{}", stderr(&o));
+    assert!(
+        stderr(&o).contains("is not a regular file"),
+        "{}",
+        stderr(&o)
+    );
+
+    std::fs::remove_file(&fifo).unwrap();
+    std::os::unix::fs::symlink("/etc/hostname", &fifo).unwrap();
+    let o = run(dir.path(), &["check", "combo-6v6-fixed.kdl"]);
+    assert_eq!(o.status.code(), Some(1));
+    assert!(
+        stderr(&o).contains("leads outside the profile's folder"),
+        "{}",
+        stderr(&o)
+    );
+
+    std::fs::remove_file(&fifo).unwrap();
+    std::fs::write(&fifo, b"term-x = a\xff\n").unwrap();
+    let o = run(dir.path(), &["check", "combo-6v6-fixed.kdl"]);
+    assert_eq!(o.status.code(), Some(1));
+    assert!(
+        stderr(&o).contains("xx.ftl:1:11: the translation file is not UTF-8 text"),
+        "{}",
+        stderr(&o)
+    );
+}

@@ -856,9 +856,14 @@ fn default_output_sits_beside_the_job() {
     std::fs::copy(demo("combo-el84-cathode"), &job).unwrap();
     let out = ampreport(&["render".as_ref(), job.as_os_str()]);
     assert_ok(&out, "render");
+    // Beside the PDF, the small manifest saying what it was made from.
     assert_eq!(
         listing(dir.path()),
-        BTreeSet::from(["bench job.kdl".to_string(), "bench job.pdf".to_string()])
+        BTreeSet::from([
+            "bench job.kdl".to_string(),
+            "bench job.pdf".to_string(),
+            ".bench job.pdf.ampreport-key".to_string()
+        ])
     );
 }
 

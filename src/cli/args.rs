@@ -61,8 +61,11 @@ pub enum Command {
     Check(CheckArgs),
     /// Print every derived figure of a job as JSON.
     Calc(CalcArgs),
-    /// Typeset the PDF hand-over document for a job (or, with --listing, the listing for a buyer).
+    /// Typeset the PDF hand-over document for each job (files or folders), or
+    /// with --listing the listing for a buyer.
     Render(RenderArgs),
+    /// Render jobs again whenever they, or anything they are made from, change.
+    Watch(RenderArgs),
     /// List the valve ratings table, or show one type with its source note.
     Tubes(TubesArgs),
     /// Write an annotated skeleton job file (or, with --shop, a shop profile) to start from.
@@ -106,9 +109,32 @@ pub enum Command {
     Man(ManArgs),
 }
 
-/// Options every command that reads a job shares.
+/// Options every command that reads jobs shares.
 #[derive(Debug, Args)]
 pub struct JobArgs {
+    /// Job files (KDL), or folders searched for them: every `*.kdl` file
+    /// in the folder except `shop.kdl`, ratings files and hidden files;
+    /// `-` alone reads one job from standard input.
+    #[arg(value_name = "JOB|DIR", required = true, num_args = 1.., value_hint = ValueHint::AnyPath, add = ArgValueCompleter::new(job_files()))]
+    pub jobs: Vec<PathBuf>,
+    /// Search the folders' sub-folders too.
+    #[arg(short, long)]
+    pub recursive: bool,
+    /// A shop's own ratings file that adds or corrects valve types.
+    #[arg(long, value_name = "FILE", value_hint = ValueHint::FilePath, add = ArgValueCompleter::new(job_files()))]
+    pub ratings: Vec<PathBuf>,
+    /// The shop profile to use when there is no shop.kdl in the job's folder
+    /// or a folder above it.
+    #[arg(long, value_name = "FILE", conflicts_with = "no_shop", value_hint = ValueHint::FilePath, add = ArgValueCompleter::new(job_files()))]
+    pub shop: Option<PathBuf>,
+    /// Use no shop profile at all: the neutral heading and the built-in defaults.
+    #[arg(long)]
+    pub no_shop: bool,
+}
+
+/// Options of a command that reads one job file.
+#[derive(Debug, Args)]
+pub struct OneJobArgs {
     /// The job file (KDL); `-` reads it from standard input.
     #[arg(value_hint = ValueHint::FilePath, add = ArgValueCompleter::new(job_files()))]
     pub job: PathBuf,
@@ -155,7 +181,8 @@ pub enum StrictSets {
 pub struct CalcArgs {
     #[command(flatten)]
     pub job: JobArgs,
-    /// Print JSON (the only format; the flag states it in scripts).
+    /// Print JSON (the only format; the flag states it in scripts). With
+    /// several jobs, one JSON document per line, in the order given.
     #[arg(long)]
     pub json: bool,
 }
@@ -165,9 +192,16 @@ pub struct RenderArgs {
     #[command(flatten)]
     pub job: JobArgs,
     /// Where to write the PDF (default: beside the job file, same name,
-    /// .pdf); `-` writes it to standard output.
-    #[arg(short, long, value_name = "FILE", value_hint = ValueHint::FilePath, add = ArgValueCompleter::new(pdf_files()))]
+    /// .pdf); `-` writes it to standard output. One job file only.
+    #[arg(short, long, value_name = "FILE", conflicts_with = "out_dir", value_hint = ValueHint::FilePath, add = ArgValueCompleter::new(pdf_files()))]
     pub output: Option<PathBuf>,
+    /// Write the PDFs under this folder, mirroring where the jobs are
+    /// (a job found in a folder DIR goes to the same place under it).
+    #[arg(long, value_name = "DIR", value_hint = ValueHint::DirPath)]
+    pub out_dir: Option<PathBuf>,
+    /// How many jobs to render at once (default: the number of cores).
+    #[arg(short = 'j', long = "jobs", value_name = "N", value_parser = clap::value_parser!(u16).range(1..=1024))]
+    pub parallel: Option<u16>,
     /// The typst program to run (default: $AMPREPORT_TYPST, else typst on PATH).
     #[arg(long, value_name = "PATH", value_hint = ValueHint::ExecutablePath)]
     pub typst: Option<PathBuf>,
@@ -196,8 +230,9 @@ pub struct RenderArgs {
         requires = "listing"
     )]
     pub serial: SerialArg,
-    /// Let --emit-source replace everything in a folder that is not empty.
-    #[arg(long, requires = "emit_source")]
+    /// Render even when the PDF is up to date; with --emit-source, also
+    /// replace everything in a folder that is not empty.
+    #[arg(long)]
     pub force: bool,
     /// Stop typst after this many seconds (each run: the version check, the compile).
     #[arg(
@@ -314,7 +349,7 @@ pub struct CompareArgs {
 #[derive(Debug, Args)]
 pub struct NetlistArgs {
     #[command(flatten)]
-    pub job: JobArgs,
+    pub job: OneJobArgs,
     /// The mod whose network to write, counted from 1 in the job's `mods`.
     #[arg(long = "mod", value_name = "N")]
     pub mod_number: usize,

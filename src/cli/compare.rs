@@ -10,9 +10,10 @@
 
 use std::path::{Path, PathBuf};
 
-use super::args::{CompareArgs, JobArgs};
+use super::args::CompareArgs;
 use super::exit::Exit;
 use super::load;
+use super::said::Said;
 use crate::calc::{self, Findings};
 use crate::git;
 use crate::report::compare::{self, Comparison};
@@ -79,31 +80,39 @@ fn print(args: &CompareArgs, c: &Comparison) {
 /// the shop profile is then found from PATH as if it were a file of the
 /// working folder.
 fn side(args: &CompareArgs, given: &Path) -> Result<(String, Findings), Exit> {
+    let mut said = Said::default();
+    let result = side_said(args, given, &mut said);
+    said.print();
+    result
+}
+
+fn side_said(
+    args: &CompareArgs,
+    given: &Path,
+    said: &mut Said,
+) -> Result<(String, Findings), Exit> {
     let spec = git::is_revision_spec(given).then(|| given.to_string_lossy().into_owned());
     let job_path = match spec.as_deref().and_then(git::split_spec) {
         Some((_, path)) => PathBuf::from(path),
         None => given.to_path_buf(),
     };
-    let job_args = JobArgs {
-        job: job_path,
-        ratings: args.ratings.clone(),
-        shop: args.shop.clone(),
-        no_shop: args.no_shop,
+    let ratings = load::ratings(&args.ratings)?;
+    let choice = load::ShopChoice {
+        named: args.shop.as_deref(),
+        none: args.no_shop,
     };
     let loaded = match &spec {
-        Some(spec) => load::job_read_by(
-            &job_args,
-            || {
-                git::read_at_revision(spec).map_err(|e| {
-                    eprintln!("error: {e}");
-                    Exit::InvalidInput
-                })
-            },
-            spec,
-        )?,
-        None => load::job(&job_args)?,
+        Some(spec) => {
+            let shop = load::shop_profile(&job_path, choice, said, &mut Vec::new())?;
+            let text = git::read_at_revision(spec).map_err(|e| {
+                said.error(format!("error: {e}"));
+                Exit::InvalidInput
+            })?;
+            load::decode_named(spec, text, shop, &ratings, said)?
+        }
+        None => load::job(&job_path, choice, &ratings, said)?,
     };
-    let findings = calc::derive(&loaded.decoded.job, &loaded.ratings);
+    let findings = calc::derive(&loaded.decoded.job, &ratings);
     let name = spec.unwrap_or_else(|| load::job_name(given));
     Ok((name, findings))
 }

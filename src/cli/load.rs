@@ -1,17 +1,19 @@
 //! Reading a job file (or a job on standard input, named `-`), its shop
-//! profile and the ratings it needs, shared by every command that takes a
-//! job. Problems are printed here as diagnostics; `--verbose` says what was
-//! read from where.
+//! profile and the ratings it needs, shared by every command that takes
+//! jobs. Problems are gathered as diagnostics in a [`Said`], so that jobs
+//! read side by side report whole blocks; `--verbose` says what was read
+//! from where.
 
 use std::io::IsTerminal;
 use std::path::{Path, PathBuf};
 
-use super::args::JobArgs;
+use super::args::{JobArgs, OneJobArgs};
 use super::exit::Exit;
+use super::said::Said;
 use super::ui;
 use crate::catalogue::Catalogue;
 use crate::input_file::{STDIN_NAME, is_dash};
-use crate::job::{self, Decoded, JobDefaults};
+use crate::job::{self, Decoded};
 use crate::ratings::RatingsTable;
 use crate::shop::{self, Found, Logo, ShopProfile};
 
@@ -35,23 +37,51 @@ pub fn ratings(files: &[std::path::PathBuf]) -> Result<RatingsTable, Exit> {
     Ok(table)
 }
 
-/// A decoded job whose valve types are all known, with its text and
-/// ratings; warnings are printed to standard error.
+/// How the command line chose the shop profile: `--shop FILE` where no
+/// `shop.kdl` is found beside or above the job, or `--no-shop`.
+#[derive(Debug, Clone, Copy, Default)]
+pub struct ShopChoice<'a> {
+    pub named: Option<&'a Path>,
+    pub none: bool,
+}
+
+impl JobArgs {
+    pub fn shop_choice(&self) -> ShopChoice<'_> {
+        ShopChoice {
+            named: self.shop.as_deref(),
+            none: self.no_shop,
+        }
+    }
+}
+
+impl OneJobArgs {
+    pub fn shop_choice(&self) -> ShopChoice<'_> {
+        ShopChoice {
+            named: self.shop.as_deref(),
+            none: self.no_shop,
+        }
+    }
+}
+
+/// A decoded job whose valve types are all known, with its text and its
+/// shop profile; warnings are in the [`Said`] it was read with.
 pub struct Loaded {
     pub decoded: Decoded,
     /// The shop profile in use, if any.
     pub shop: Option<LoadedShop>,
-    /// The job file as read, for the document footer's checksum.
-    #[allow(dead_code)]
+    /// The job file as read, for the document footer's checksum and the
+    /// content key.
     pub text: String,
-    pub ratings: RatingsTable,
 }
 
-/// A decoded shop profile, where it was found, its checked logo and the
-/// catalogue of its language.
+/// A decoded shop profile, where it was found, its text as read and its
+/// checked logo.
 pub struct LoadedShop {
     pub profile: ShopProfile,
     pub found: Found,
+    /// The profile's text, the very bytes it was decoded from (for the
+    /// content key).
+    pub text: String,
     pub logo: Option<Logo>,
     /// The fixed words in the profile's language (English when it names
     /// none).
@@ -66,35 +96,53 @@ impl LoadedShop {
     }
 }
 
-pub fn job(args: &JobArgs) -> Result<Loaded, Exit> {
-    job_read_by(args, || read_job(&args.job), &job_name(&args.job))
+/// Reads the shop profile of the job at `path` and the job itself, and
+/// decodes the job against `ratings` and the profile's defaults.
+pub fn job(
+    path: &Path,
+    choice: ShopChoice<'_>,
+    ratings: &RatingsTable,
+    said: &mut Said,
+) -> Result<Loaded, Exit> {
+    let shop = shop_profile(path, choice, said, &mut Vec::new())?;
+    let text = read_job(path, said)?;
+    decode(path, text, shop, ratings, said)
 }
 
-/// Decodes the job text `read` gives, a job named `name` in messages (a
-/// file's path, or `REV:PATH` for one read from git), over the shop profile
-/// found for `args.job` and the ratings of `args` (both read first, so
-/// their problems come first).
-pub fn job_read_by(
-    args: &JobArgs,
-    read: impl FnOnce() -> Result<String, Exit>,
-    name: &str,
+/// Decodes `text`, read from the job file at `path`, against `ratings`
+/// and the defaults of `shop`.
+pub fn decode(
+    path: &Path,
+    text: String,
+    shop: Option<LoadedShop>,
+    ratings: &RatingsTable,
+    said: &mut Said,
 ) -> Result<Loaded, Exit> {
-    let ratings = ratings(&args.ratings)?;
-    let shop = shop_profile(args)?;
+    decode_named(&job_name(path), text, shop, ratings, said)
+}
+
+/// Decodes `text` as [`decode`] does, for a job called `name` in messages
+/// (a file's path, or `REV:PATH` for one read from git).
+pub fn decode_named(
+    name: &str,
+    text: String,
+    shop: Option<LoadedShop>,
+    ratings: &RatingsTable,
+    said: &mut Said,
+) -> Result<Loaded, Exit> {
     let defaults = shop
         .as_ref()
         .map(|s| s.profile.defaults.clone())
-        .unwrap_or_else(JobDefaults::default);
-    let text = read()?;
-    let decoded = match job::decode_with_defaults(name, &text, &ratings, &defaults) {
+        .unwrap_or_default();
+    let decoded = match job::decode_with_defaults(name, &text, ratings, &defaults) {
         Ok(d) => d,
         Err(diagnostics) => {
-            eprintln!("{:?}", miette::Report::new(diagnostics));
+            refused(name, &text, diagnostics, said);
             return Err(Exit::InvalidInput);
         }
     };
     if !decoded.diagnostics.problems.is_empty() {
-        ui::warn(format!(
+        said.warn(format!(
             "{:?}",
             miette::Report::new(decoded.diagnostics.clone())
         ));
@@ -103,8 +151,144 @@ pub fn job_read_by(
         decoded,
         shop,
         text,
-        ratings,
     })
+}
+
+/// The shop profile for the job at `job_path`, found as [`shop::discover`]
+/// says, decoded, with its logo read and checked; `None` with `--no-shop`
+/// or when there is none. The files it reads (the profile, the logo) are
+/// added to `read`, even when they are refused.
+pub fn shop_profile(
+    job_path: &Path,
+    choice: ShopChoice<'_>,
+    said: &mut Said,
+    read: &mut Vec<PathBuf>,
+) -> Result<Option<LoadedShop>, Exit> {
+    if choice.none {
+        said.read("shop profile", "none (--no-shop)");
+        return Ok(None);
+    }
+    let config = shop::user_config_dir();
+    let Some(found) = shop::discover(job_path, choice.named, config.as_deref()) else {
+        said.read(
+            "shop profile",
+            format!(
+                "none (no {} beside the job or above it, no --shop, none in the config folder)",
+                shop::SHOP_FILE
+            ),
+        );
+        return Ok(None);
+    };
+    if let (Found::BesideJob(used), Some(named)) = (&found, choice.named) {
+        said.warn(format!(
+            "note: using the shop profile {} found beside the job; --shop {} applies only where there is none",
+            used.display(),
+            named.display()
+        ));
+    }
+    let path: PathBuf = found.path().to_path_buf();
+    read.push(path.clone());
+    let text = read_text(&path, "shop profile", said)?;
+    let name = path.display().to_string();
+    let decoded = match shop::decode(&name, &text) {
+        Ok(d) => d,
+        Err(diagnostics) => {
+            refused(&name, &text, diagnostics, said);
+            return Err(Exit::InvalidInput);
+        }
+    };
+    said.read(
+        "shop profile",
+        format!(
+            "{} ({})",
+            path.display(),
+            match &found {
+                Found::BesideJob(_) => "beside the job or above it",
+                Found::Named(_) => "named with --shop",
+                Found::UserConfig(_) => "the config folder",
+            }
+        ),
+    );
+    if !decoded.diagnostics.problems.is_empty() {
+        said.warn(format!(
+            "{:?}",
+            miette::Report::new(decoded.diagnostics.clone())
+        ));
+    }
+    if let Some(written) = &decoded.profile.logo {
+        let folder = path.parent().unwrap_or(Path::new("."));
+        read.push(folder.join(&written.value));
+    }
+    let logo = match &decoded.profile.logo {
+        Some(written) => match shop::read_logo(&path, written) {
+            Ok(logo) => Some(logo),
+            Err(problem) => {
+                let diagnostics = job::JobDiagnostics {
+                    source: decoded.diagnostics.source.clone(),
+                    problems: vec![*problem],
+                    not_shown: Default::default(),
+                };
+                refused(&name, &text, diagnostics, said);
+                return Err(Exit::InvalidInput);
+            }
+        },
+        None => None,
+    };
+    if let Some(logo) = &logo {
+        said.read("shop logo", logo.source.display());
+    }
+    let folder = path.parent().unwrap_or(Path::new(".")).to_path_buf();
+    let (catalogue, translation) = match &decoded.profile.language {
+        Some(language) => {
+            let file = language.file.as_ref().map(|f| folder.join(f.value.trim()));
+            read.extend(file.iter().cloned());
+            match shop::read_translation(&path, language) {
+                Ok(c) => {
+                    if let Some(f) = &file {
+                        said.read("translation", f.display());
+                    }
+                    (c, file)
+                }
+                Err(shop::TranslationError::Profile(problem)) => {
+                    let diagnostics = job::JobDiagnostics {
+                        source: decoded.diagnostics.source.clone(),
+                        problems: vec![*problem],
+                        not_shown: Default::default(),
+                    };
+                    refused(&name, &text, diagnostics, said);
+                    return Err(Exit::InvalidInput);
+                }
+                Err(shop::TranslationError::File(diagnostics)) => {
+                    said.error(format!("{:?}", miette::Report::new(*diagnostics)));
+                    return Err(Exit::InvalidInput);
+                }
+            }
+        }
+        None => (Catalogue::english().clone(), None),
+    };
+    Ok(Some(LoadedShop {
+        profile: decoded.profile,
+        found,
+        text,
+        logo,
+        catalogue,
+        translation,
+    }))
+}
+
+/// Tells why the file `name` (read as `text`) was refused; its first
+/// error, with its line and column, is the one-line form for a batch's
+/// summary.
+fn refused(name: &str, text: &str, diagnostics: job::JobDiagnostics, said: &mut Said) {
+    let title = diagnostics.errors().next().map(|p| {
+        let (line, column) = job::line_column(text, p.span.offset());
+        format!("{name}:{line}:{column}: {}", p.message)
+    });
+    let report = format!("{:?}", miette::Report::new(diagnostics));
+    match title {
+        Some(title) => said.error_titled(report, title),
+        None => said.error(report),
+    }
 }
 
 /// The name a job has in messages: its path, or `<stdin>` for `-`.
@@ -118,7 +302,7 @@ pub fn job_name(path: &Path) -> String {
 
 /// The job's text, from its file or, for `-`, from standard input, under
 /// the same size and UTF-8 rules.
-pub fn read_job(path: &Path) -> Result<String, Exit> {
+pub fn read_job(path: &Path, said: &mut Said) -> Result<String, Exit> {
     let read = if is_dash(path) {
         if std::io::stdin().is_terminal() {
             ui::warn("note: reading the job from standard input; end it with Ctrl-D");
@@ -128,7 +312,7 @@ pub fn read_job(path: &Path) -> Result<String, Exit> {
         crate::input_file::read_text(path, "job file")
     };
     let text = read.map_err(|e| {
-        eprintln!("error: {e}");
+        said.error(format!("error: {e}"));
         Exit::InvalidInput
     })?;
     let whence = if is_dash(path) {
@@ -136,20 +320,25 @@ pub fn read_job(path: &Path) -> Result<String, Exit> {
     } else {
         path.display().to_string()
     };
-    ui::read("job", format!("{whence} ({} bytes)", text.len()));
+    said.read("job", format!("{whence} ({} bytes)", text.len()));
     Ok(text)
 }
 
 /// The job's photos, checked and prepared for a document; every problem
-/// is printed at its `photo` line.
-pub fn photos(job_file: &Path, loaded: &Loaded) -> Result<Vec<crate::photo::PreparedPhoto>, Exit> {
+/// is told at its `photo` line.
+pub fn photos(
+    job_file: &Path,
+    loaded: &Loaded,
+    said: &mut Said,
+) -> Result<Vec<crate::photo::PreparedPhoto>, Exit> {
     crate::photo::prepare(&loaded.decoded.job, job_file).map_err(|problems| {
+        let name = job_name(job_file);
         let diagnostics = job::JobDiagnostics {
             source: loaded.decoded.diagnostics.source.clone(),
             problems,
             not_shown: Default::default(),
         };
-        eprintln!("{:?}", miette::Report::new(diagnostics));
+        refused(&name, &loaded.text, diagnostics, said);
         Exit::InvalidInput
     })
 }
@@ -169,127 +358,10 @@ pub fn stamp(job: &Path, loaded: &Loaded, findings: &mut crate::calc::Findings) 
     };
 }
 
-/// The shop profile for the job, found as [`shop::discover`] says, decoded,
-/// with its logo read and checked; `None` with `--no-shop` or when there is
-/// none.
-pub fn shop_profile(args: &JobArgs) -> Result<Option<LoadedShop>, Exit> {
-    if args.no_shop {
-        ui::read("shop profile", "none (--no-shop)");
-        return Ok(None);
-    }
-    let config = shop::user_config_dir();
-    let Some(found) = shop::discover(&args.job, args.shop.as_deref(), config.as_deref()) else {
-        ui::read(
-            "shop profile",
-            format!(
-                "none (no {} beside the job or above it, no --shop, none in the config folder)",
-                shop::SHOP_FILE
-            ),
-        );
-        return Ok(None);
-    };
-    if let (Found::BesideJob(used), Some(named)) = (&found, &args.shop) {
-        ui::warn(format!(
-            "note: using the shop profile {} found beside the job; --shop {} applies only where there is none",
-            used.display(),
-            named.display()
-        ));
-    }
-    let path: PathBuf = found.path().to_path_buf();
-    let text = read_text(&path, "shop profile")?;
-    let name = path.display().to_string();
-    let decoded = match shop::decode(&name, &text) {
-        Ok(d) => d,
-        Err(diagnostics) => {
-            eprintln!("{:?}", miette::Report::new(diagnostics));
-            return Err(Exit::InvalidInput);
-        }
-    };
-    ui::read(
-        "shop profile",
-        format!(
-            "{} ({})",
-            path.display(),
-            match &found {
-                Found::BesideJob(_) => "beside the job or above it",
-                Found::Named(_) => "named with --shop",
-                Found::UserConfig(_) => "the config folder",
-            }
-        ),
-    );
-    if !decoded.diagnostics.problems.is_empty() {
-        ui::warn(format!(
-            "{:?}",
-            miette::Report::new(decoded.diagnostics.clone())
-        ));
-    }
-    let logo = match &decoded.profile.logo {
-        Some(written) => match shop::read_logo(&path, written) {
-            Ok(logo) => Some(logo),
-            Err(problem) => {
-                let diagnostics = job::JobDiagnostics {
-                    source: decoded.diagnostics.source.clone(),
-                    problems: vec![*problem],
-                    not_shown: Default::default(),
-                };
-                eprintln!("{:?}", miette::Report::new(diagnostics));
-                return Err(Exit::InvalidInput);
-            }
-        },
-        None => None,
-    };
-    if let Some(logo) = &logo {
-        ui::read("shop logo", logo.source.display());
-    }
-    let (catalogue, translation) = match &decoded.profile.language {
-        Some(language) => match shop::read_translation(&path, language) {
-            Ok(c) => {
-                if let Some(f) = &language.file {
-                    ui::read(
-                        "translation",
-                        path.parent()
-                            .unwrap_or(Path::new("."))
-                            .join(f.value.trim())
-                            .display(),
-                    );
-                }
-                (
-                    c,
-                    language
-                        .file
-                        .as_ref()
-                        .map(|f| path.parent().unwrap_or(Path::new(".")).join(f.value.trim())),
-                )
-            }
-            Err(shop::TranslationError::Profile(problem)) => {
-                let diagnostics = job::JobDiagnostics {
-                    source: decoded.diagnostics.source.clone(),
-                    problems: vec![*problem],
-                    not_shown: Default::default(),
-                };
-                eprintln!("{:?}", miette::Report::new(diagnostics));
-                return Err(Exit::InvalidInput);
-            }
-            Err(shop::TranslationError::File(diagnostics)) => {
-                eprintln!("{:?}", miette::Report::new(*diagnostics));
-                return Err(Exit::InvalidInput);
-            }
-        },
-        None => (Catalogue::english().clone(), None),
-    };
-    Ok(Some(LoadedShop {
-        profile: decoded.profile,
-        found,
-        logo,
-        catalogue,
-        translation,
-    }))
-}
-
 /// A file's text; `what` names it in the message ("shop profile").
-pub fn read_text(path: &Path, what: &'static str) -> Result<String, Exit> {
+pub fn read_text(path: &Path, what: &'static str, said: &mut Said) -> Result<String, Exit> {
     crate::input_file::read_text(path, what).map_err(|e| {
-        eprintln!("error: {e}");
+        said.error(format!("error: {e}"));
         Exit::InvalidInput
     })
 }

@@ -2,20 +2,25 @@
 //! exit statuses in [`exit`]. No business logic lives here.
 
 pub mod args;
+mod batch;
 mod calc;
 mod check;
 mod compare;
 pub mod completions;
+pub mod content_key;
 pub mod exit;
 mod init;
+pub mod job_files;
 mod load;
 pub mod man;
 mod netlist;
 mod new;
 mod render;
+mod said;
 mod tubes;
 pub mod ui;
 pub mod version;
+mod watch;
 
 use clap::{CommandFactory, FromArgMatches};
 use std::process::ExitCode;
@@ -69,6 +74,7 @@ pub fn main() -> ExitCode {
         args::Command::Check(a) => check::run(a),
         args::Command::Calc(a) => calc::run(a),
         args::Command::Render(a) => render::run(a),
+        args::Command::Watch(a) => watch::run(a),
         args::Command::Tubes(a) => tubes::run(a),
         args::Command::Init(a) => init::run(a),
         args::Command::Completions(a) => completions::run(a),

@@ -12,7 +12,14 @@ use crate::report::netlist::{NetlistHeading, spice};
 use crate::typeset::Input;
 
 pub fn run(args: &NetlistArgs) -> Exit {
-    let loaded = match load::job(&args.job) {
+    let ratings = match load::ratings(&args.job.ratings) {
+        Ok(r) => r,
+        Err(e) => return e,
+    };
+    let mut said = super::said::Said::default();
+    let loaded = load::job(&args.job.job, args.job.shop_choice(), &ratings, &mut said);
+    said.print();
+    let loaded = match loaded {
         Ok(l) => l,
         Err(e) => return e,
     };
@@ -72,8 +79,7 @@ pub fn run(args: &NetlistArgs) -> Exit {
             }
         ));
     }
-    let (resolved, source) = match resolve_state(net, which, args.setting - 1, job, &loaded.ratings)
-    {
+    let (resolved, source) = match resolve_state(net, which, args.setting - 1, job, &ratings) {
         Ok(r) => r,
         Err(problem) => {
             eprintln!(

@@ -12,11 +12,13 @@ use std::path::{Path, PathBuf};
 
 use chrono::NaiveDate;
 
-use super::args::{JobArgs, NewArgs};
+use super::args::NewArgs;
 use super::exit::Exit;
 use super::init::write_new;
 use super::load;
+use super::said::Said;
 use crate::job::numbering::{DEFAULT_PATTERN, Numbering};
+use crate::ratings::RatingsTable;
 
 /// The top-level nodes `--from` copies, in this order.
 pub const CARRIED: &[&str] = &["unit", "mains", "valves", "circuit"];
@@ -27,13 +29,15 @@ pub fn run(args: &NewArgs) -> Exit {
         eprintln!("error: {} is not a folder", dir.display());
         return Exit::Usage;
     }
-    let shop_args = JobArgs {
-        job: dir.join("new-job.kdl"),
-        ratings: Vec::new(),
-        shop: args.shop.clone(),
-        no_shop: args.no_shop,
-    };
-    let shop = match load::shop_profile(&shop_args) {
+    let mut said = Said::default();
+    let shop = load::shop_profile(
+        &dir.join("new-job.kdl"),
+        choice(args),
+        &mut said,
+        &mut Vec::new(),
+    );
+    said.print();
+    let shop = match shop {
         Ok(s) => s,
         Err(e) => return e,
     };
@@ -138,16 +142,22 @@ fn skeleton(id: &str, today: NaiveDate) -> String {
         + "\n"
 }
 
+/// The shop profile as `--shop` and `--no-shop` choose it.
+fn choice(args: &NewArgs) -> load::ShopChoice<'_> {
+    load::ShopChoice {
+        named: args.shop.as_deref(),
+        none: args.no_shop,
+    }
+}
+
 /// A new job from `old`: its unit, mains, line-up and circuit as written.
 fn from_old(args: &NewArgs, old: &Path, id: &str, today: NaiveDate) -> Result<String, Exit> {
     // The old job must be a valid job: its problems are shown as `check`
     // shows them, over the shop profile it would be checked with.
-    let loaded = load::job(&JobArgs {
-        job: old.to_path_buf(),
-        ratings: Vec::new(),
-        shop: args.shop.clone(),
-        no_shop: args.no_shop,
-    })?;
+    let mut said = Said::default();
+    let loaded = load::job(old, choice(args), &RatingsTable::builtin(), &mut said);
+    said.print();
+    let loaded = loaded?;
     let doc = crate::kdl_fast::parse_document(&loaded.text).map_err(|_| Exit::InvalidInput)?;
     let mut out = format!(
         "// Started from {} (job {}) with `ampreport new --from`: the unit, the mains,\n\

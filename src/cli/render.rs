@@ -1,32 +1,44 @@
-//! `ampreport render JOB`: the PDF hand-over document, or with `--listing`
-//! the listing for a buyer (a PDF, and Markdown with its photos beside it).
-//! Reads and derives the job, finds typst, fills the template, optionally
-//! writes the generated source to a folder, and compiles the PDF
-//! atomically; the listing's Markdown and photos are written after the PDF,
-//! each atomically.
+//! `ampreport render JOB|DIR…`: the PDF hand-over document of each job,
+//! or with `--listing` the listing for a buyer (a PDF, and Markdown with
+//! its photos beside it). Reads and derives a job, finds typst, fills the
+//! template, optionally writes the generated source to a folder, and
+//! compiles the PDF atomically; the listing's photos and Markdown are
+//! written after the PDF, each atomically. A job whose files were already
+//! made from exactly the same inputs is skipped ([`super::content_key`]).
+//! Several jobs, or a folder of them, run side by side with a summary at
+//! the end ([`super::batch`]).
 //!
-//! Exit statuses: 1 when the job, a ratings file or a shop's own template
-//! (`--templates`) is at fault; 2 when the output or the `--emit-source`
-//! folder may not be written (it is an input, a link, a device, a folder
-//! with other files in it); 3 when the set-up is (typst missing, too old,
-//! unusable, crashing, hanging past `--timeout`, a folder that cannot be
-//! written) or when typst rejects the built-in template, which is a fault
-//! of the tool itself; 128 + N after signal N (SIGINT, SIGTERM, SIGHUP),
-//! with the temporary files removed and typst stopped.
+//! Exit statuses for one job: 1 when the job, a ratings file or a shop's
+//! own template (`--templates`) is at fault; 2 when the output or the
+//! `--emit-source` folder may not be written (it is an input, a link, a
+//! device, a folder with other files in it); 3 when the set-up is (typst
+//! missing, too old, unusable, crashing, hanging past `--timeout`, a folder
+//! that cannot be written) or when typst rejects the built-in template,
+//! which is a fault of the tool itself; 128 + N after signal N (SIGINT,
+//! SIGTERM, SIGHUP), with the temporary files removed and typst stopped.
+//! A batch exits 1 when any job failed.
 
 use std::io::IsTerminal;
 use std::path::{Path, PathBuf};
+use std::time::{Duration, Instant};
 
 use super::args::{RenderArgs, SerialArg};
+use super::batch;
+use super::check::named_jobs;
+use super::content_key::{self, RunInputs, RunKey};
 use super::exit::Exit;
+use super::job_files::JobFile;
+use super::said::Said;
 use super::{load, ui};
 use crate::calc;
 use crate::catalogue::Catalogue;
 use crate::input_file::is_dash;
+use crate::ratings::RatingsTable;
 use crate::report::handover::{self, HandoverError, HandoverInput};
 use crate::report::listing::{self, ListingInput, SerialShown};
 use crate::typeset::{
-    self, CompileOptions, FontsUsed, Input, TemplateSource, TypesetError, TypstProgram, interrupt,
+    self, CompileOptions, FontsUsed, Input, InputIndex, TemplateSource, TypesetError, TypstProgram,
+    interrupt,
 };
 
 pub fn run(args: &RenderArgs) -> Exit {
@@ -37,94 +49,463 @@ pub fn run(args: &RenderArgs) -> Exit {
             "warning: stop signals will end ampreport without clean-up: {e}"
         ));
     }
-    let output = match output_path(args) {
-        Ok(o) => o,
+    let setup = match Setup::new(args) {
+        Ok(s) => s,
         Err(e) => return e,
     };
-    // typst answers `--version` while the job is read; a problem with the
-    // job is still reported first.
-    let pending = typeset::start_locate(args.typst.as_deref());
-    let loaded = match load::job(&args.job) {
-        Ok(l) => l,
-        Err(e) => return e,
+    if !setup.batch {
+        let report = render_one(&setup, &setup.plans[0]);
+        report.said.print();
+        let output = &setup.plans[0].output;
+        match report.outcome {
+            Outcome::Rendered if is_dash(output) => {
+                if ui::verbose() {
+                    eprintln!("wrote the PDF to standard output");
+                }
+            }
+            Outcome::Rendered => {
+                ui::wrote(format!("wrote {}", output.display()));
+                for path in &report.beside {
+                    ui::wrote(format!("wrote {}", path.display()));
+                }
+            }
+            Outcome::Unchanged => ui::wrote(format!(
+                "{} is up to date (--force renders it anyway)",
+                output.display()
+            )),
+            Outcome::Failed => {}
+        }
+        return report.exit;
+    }
+    batch::run(&setup)
+}
+
+/// One job of a run and where its PDF goes.
+#[derive(Debug, Clone)]
+pub struct Plan {
+    pub job: JobFile,
+    pub output: PathBuf,
+}
+
+/// What every job of a run shares: the options, the ratings, the
+/// templates, typst, the content key's shared part, and the jobs.
+pub struct Setup<'a> {
+    pub args: &'a RenderArgs,
+    pub ratings: RatingsTable,
+    pub templates: TemplateSource,
+    pub program: TypstProgram,
+    /// `None` when an input could not be read for the key: every job is
+    /// rendered.
+    pub run_key: Option<RunKey>,
+    pub plans: Vec<Plan>,
+    /// Every job file of the run, which no output may be.
+    pub job_files: InputIndex,
+    /// True for several jobs or a folder: a summary at the end.
+    pub batch: bool,
+    /// The commit each job folder's git repository stands at, asked once
+    /// per folder.
+    heads: std::sync::Mutex<std::collections::HashMap<PathBuf, Option<String>>>,
+}
+
+impl<'a> Setup<'a> {
+    /// Finds the jobs and typst, reads the ratings, plans the outputs;
+    /// prints why and gives the exit status when the run cannot start.
+    pub fn new(args: &'a RenderArgs) -> Result<Self, Exit> {
+        let jobs = named_jobs(&args.job)?;
+        let batch = jobs.len() > 1 || args.job.jobs.iter().any(|p| p.is_dir());
+        if batch && args.output.is_some() {
+            eprintln!(
+                "error: -o names the PDF of one job file; for several jobs or a folder use --out-dir DIR"
+            );
+            return Err(Exit::Usage);
+        }
+        if batch && args.emit_source.is_some() {
+            eprintln!("error: --emit-source writes the source of one job; name one job file");
+            return Err(Exit::Usage);
+        }
+        if batch && jobs.iter().any(|j| is_dash(&j.path)) {
+            eprintln!(
+                "error: `-` reads one job from standard input; it cannot be named beside other jobs"
+            );
+            return Err(Exit::Usage);
+        }
+        if !batch {
+            single_output_allowed(args, &jobs[0].path)?;
+        }
+        // typst answers `--version` while the ratings are read.
+        let pending = typeset::start_locate(args.typst.as_deref());
+        let ratings = load::ratings(&args.job.ratings)?;
+        let templates = template_source(args.templates.as_deref(), args.listing)?;
+        let program = match pending.finish_within(args.timeout) {
+            Ok(p) => p,
+            Err(e) => {
+                // A problem with one job named alone is still told first,
+                // as it would be with typst at hand.
+                if !batch && let Err(exit) = job_readable(args, &jobs[0].path, &ratings) {
+                    return Err(exit);
+                }
+                let mut said = Said::default();
+                let exit = report_typeset_error(e, &templates, None, &mut said);
+                said.print();
+                return Err(exit);
+            }
+        };
+        ui::read(
+            "typst",
+            format!("{} (version {})", program.path.display(), program.version),
+        );
+        if let Some(warning) = program.version_warning() {
+            ui::warn(format!("warning: {warning}"));
+        }
+        let plans: Vec<Plan> = jobs
+            .into_iter()
+            .map(|job| Plan {
+                output: output_for(args, &job),
+                job,
+            })
+            .collect();
+        if let Some(message) = shared_outputs(&plans, args.listing) {
+            eprintln!("error: {message}");
+            return Err(Exit::Usage);
+        }
+        let version = program.version.to_string();
+        let options = render_options(args);
+        let run_key = match RunKey::new(&RunInputs {
+            program: RunKey::program(),
+            fonts: typeset::FONTS_DIGEST,
+            typst_version: &version,
+            typst_path: Some(&program.path),
+            ratings: &args.job.ratings,
+            templates: args.templates.as_deref(),
+            options: &options,
+        }) {
+            Ok(key) => Some(key),
+            Err(e) => {
+                ui::warn(format!("warning: {e}; every job is rendered"));
+                None
+            }
+        };
+        let job_files = InputIndex::new(
+            plans
+                .iter()
+                .filter(|p| !is_dash(&p.job.path))
+                .map(|p| Input::new(&p.job.path, "a job file of this run"))
+                .collect(),
+        );
+        Ok(Setup {
+            args,
+            ratings,
+            templates,
+            program,
+            run_key,
+            plans,
+            job_files,
+            batch,
+            heads: Default::default(),
+        })
+    }
+}
+
+impl Setup<'_> {
+    /// The commit `HEAD` of the git repository holding the job at
+    /// `job_path`, if any; asked once per folder in a run.
+    fn repository_head(&self, job_path: &Path) -> Option<String> {
+        if is_dash(job_path) {
+            return None;
+        }
+        let folder = match job_path.parent() {
+            Some(p) if !p.as_os_str().is_empty() => p.to_path_buf(),
+            _ => PathBuf::from("."),
+        };
+        if let Some(known) = self.heads.lock().ok()?.get(&folder) {
+            return known.clone();
+        }
+        let head = crate::git::head(&folder);
+        if let Ok(mut heads) = self.heads.lock() {
+            heads.insert(folder, head.clone());
+        }
+        head
+    }
+}
+
+/// Reads and decodes the job at `path` and checks its photos, printing
+/// what it had to say; the exit status when it is at fault.
+fn job_readable(args: &RenderArgs, path: &Path, ratings: &RatingsTable) -> Result<(), Exit> {
+    let mut said = Said::default();
+    let checked = load::job(path, args.job.shop_choice(), ratings, &mut said)
+        .and_then(|loaded| load::photos(path, &loaded, &mut said).map(drop));
+    said.print();
+    checked
+}
+
+/// The options that change a document's bytes, for the content key: the
+/// listing and the hand-over never pass for each other.
+fn render_options(args: &RenderArgs) -> Vec<String> {
+    let mut options = vec![
+        format!("pdf-standard={}", typeset::DEFAULT_PDF_STANDARD),
+        format!("charges={}", !args.no_charges),
+        format!(
+            "document={}",
+            if args.listing { "listing" } else { "hand-over" }
+        ),
+    ];
+    if args.listing {
+        options.push(format!("serial={:?}", args.serial));
+    }
+    options
+}
+
+/// How `--serial` asks the listing to show the serial number.
+fn serial_shown(args: &RenderArgs) -> SerialShown {
+    match args.serial {
+        SerialArg::Shown => SerialShown::Shown,
+        SerialArg::Masked => SerialShown::Masked,
+        SerialArg::Hidden => SerialShown::Hidden,
+    }
+}
+
+/// Where a job's PDF goes: `-o`, else under `--out-dir` at the job's place
+/// below the folder it was found in, else beside the job; `NAME.pdf`, or
+/// `NAME.listing.pdf` for the listing.
+fn output_for(args: &RenderArgs, job: &JobFile) -> PathBuf {
+    if let Some(output) = &args.output {
+        return output.clone();
+    }
+    let beside = match &args.out_dir {
+        Some(dir) => dir.join(&job.relative),
+        None => job.path.clone(),
     };
+    if args.listing {
+        default_listing_output(&beside)
+    } else {
+        default_output(&beside)
+    }
+}
+
+/// The Markdown of a listing whose PDF is `output`: beside it, `.md`.
+fn markdown_for(output: &Path) -> PathBuf {
+    output.with_extension("md")
+}
+
+/// Names the first output two jobs of a run would both write, if any (a
+/// listing's Markdown counts as an output).
+fn shared_outputs(plans: &[Plan], listing: bool) -> Option<String> {
+    let mut seen: std::collections::HashMap<PathBuf, &Path> = std::collections::HashMap::new();
+    for plan in plans {
+        let markdown = listing.then(|| markdown_for(&plan.output));
+        for output in std::iter::once(&plan.output).chain(markdown.as_ref()) {
+            if let Some(other) = seen.insert(normalised(output), &plan.job.path) {
+                return Some(format!(
+                    "{} and {} would both be written to {}; use --out-dir DIR or rename one",
+                    other.display(),
+                    plan.job.path.display(),
+                    output.display()
+                ));
+            }
+        }
+    }
+    None
+}
+
+/// A path made absolute with `.` and `..` parts worked out by name, for
+/// telling two outputs apart before they exist.
+fn normalised(path: &Path) -> PathBuf {
+    let absolute = std::path::absolute(path).unwrap_or_else(|_| path.to_path_buf());
+    let mut out = PathBuf::new();
+    for part in absolute.components() {
+        match part {
+            std::path::Component::ParentDir => {
+                out.pop();
+            }
+            std::path::Component::CurDir => {}
+            other => out.push(other),
+        }
+    }
+    out
+}
+
+/// How one job's render ended.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Outcome {
+    /// A new PDF is in place.
+    Rendered,
+    /// The PDF was already made from exactly these inputs.
+    Unchanged,
+    /// Nothing was written; the error is in the job's [`Said`].
+    Failed,
+}
+
+/// One job's render: how it ended, its exit status, what it had to say,
+/// how long it took, the files besides the job and the run's shared
+/// inputs it was made from (its shop profile and logo), for `watch`, and
+/// the files written beside the PDF (a listing's photos and Markdown).
+#[derive(Debug)]
+pub struct JobReport {
+    pub outcome: Outcome,
+    pub exit: Exit,
+    pub said: Said,
+    pub elapsed: Duration,
+    pub depends: Vec<PathBuf>,
+    pub beside: Vec<PathBuf>,
+}
+
+/// Renders one job: reads it, checks where its PDF goes, skips it when the
+/// PDF is up to date, else derives, fills the template, draws the charts
+/// and has typst compile it. Prints nothing: everything it has to say is
+/// in the report.
+pub fn render_one(setup: &Setup<'_>, plan: &Plan) -> JobReport {
+    let start = Instant::now();
+    let mut said = Said::default();
+    let mut depends = Vec::new();
+    let mut beside = Vec::new();
+    let (outcome, exit) = match render_job(setup, plan, &mut said, &mut depends, &mut beside) {
+        Ok(outcome) => (outcome, Exit::Success),
+        Err(exit) => (Outcome::Failed, exit),
+    };
+    JobReport {
+        outcome,
+        exit,
+        said,
+        elapsed: start.elapsed(),
+        depends,
+        beside,
+    }
+}
+
+fn render_job(
+    setup: &Setup<'_>,
+    plan: &Plan,
+    said: &mut Said,
+    depends: &mut Vec<PathBuf>,
+    beside: &mut Vec<PathBuf>,
+) -> Result<Outcome, Exit> {
+    let args = setup.args;
+    let job_path = &plan.job.path;
+    let output = &plan.output;
+    let shop = load::shop_profile(job_path, args.job.shop_choice(), said, depends)?;
+    let text = load::read_job(job_path, said)?;
+
+    // Under --out-dir, the job's place in the tree is made as needed.
+    if let Some(dir) = &args.out_dir
+        && let Some(parent) = output.parent()
+        && parent.starts_with(dir)
+        && let Err(e) = std::fs::create_dir_all(parent)
+    {
+        said.error(format!(
+            "error: could not make the folder {} for the PDF: {e}",
+            parent.display()
+        ));
+        return Err(Exit::Environment);
+    }
+    let loaded = load::decode(job_path, text, shop, &setup.ratings, said)?;
     let job = &loaded.decoded.job;
-    let photos = match load::photos(&args.job.job, &loaded) {
-        Ok(p) => p,
-        Err(e) => return e,
+    let photo_files = if is_dash(job_path) {
+        Vec::new()
+    } else {
+        crate::photo::photo_paths(job, job_path)
     };
-    let mut findings = calc::derive(job, &loaded.ratings);
-    load::stamp(&args.job.job, &loaded, &mut findings);
-    for warning in undrawable_text(&load::job_name(&args.job.job), &loaded.text) {
-        ui::warn(warning);
+    depends.extend(photo_files.iter().cloned());
+
+    let mut inputs = inputs_read(args, job_path, &setup.program, loaded.shop.as_ref());
+    inputs.extend(
+        photo_files
+            .iter()
+            .map(|p| Input::new(p, "a photo of the job")),
+    );
+    // The listing's Markdown and photos go beside its PDF; the photos'
+    // names are known once they are prepared, and checked then.
+    let markdown = args.listing.then(|| markdown_for(output));
+    if markdown.as_ref() == Some(output) {
+        said.error(format!(
+            "error: the listing's PDF {} would be written over by its own Markdown; name the PDF with .pdf",
+            output.display()
+        ));
+        return Err(Exit::Usage);
+    }
+    for path in std::iter::once(output).chain(markdown.as_ref()) {
+        if let Err(e) =
+            typeset::check_output(path, &inputs).and_then(|()| setup.job_files.check(path))
+        {
+            said.error(format!("{:?}", miette::Report::new(e)));
+            return Err(Exit::Usage);
+        }
     }
 
-    let templates = match template_source(args.templates.as_deref(), args.listing) {
-        Ok(t) => t,
-        Err(e) => return e,
-    };
+    // The key covers the texts read above (the very bytes the job and its
+    // shop profile were decoded from), the logo's checked bytes, the
+    // photos' bytes and where the job's repository stands.
+    let key = setup
+        .run_key
+        .as_ref()
+        .and_then(|run| job_key(setup, run, job_path, &loaded, &photo_files));
+    if let Some(key) = &key
+        && !args.force
+        && args.emit_source.is_none()
+        && !is_dash(output)
+        && content_key::up_to_date(output, key)
+        && (!args.listing || listing_files_up_to_date(output, job, key))
+    {
+        return Ok(Outcome::Unchanged);
+    }
 
-    let program = match pending.finish_within(args.timeout) {
-        Ok(p) => p,
-        Err(e) => return report_typeset_error(e, &templates, None),
-    };
-    ui::read(
-        "typst",
-        format!("{} (version {})", program.path.display(), program.version),
-    );
-    if let Some(warning) = program.version_warning() {
-        ui::warn(format!("warning: {warning}"));
+    let photos = load::photos(job_path, &loaded, said)?;
+    let mut findings = calc::derive(job, &setup.ratings);
+    load::stamp(job_path, &loaded, &mut findings);
+    for warning in undrawable_text(&load::job_name(job_path), &loaded.text) {
+        said.warn(warning);
     }
 
     let catalogue = loaded
         .shop
         .as_ref()
         .map_or(Catalogue::english(), |s| &s.catalogue);
-    let document = if args.listing {
-        let markdown_path = output.with_extension("md");
+    let document = if let Some(markdown) = &markdown {
         let input = ListingInput {
             job,
             findings: &findings,
             job_text: &loaded.text,
-            typst_version: program.version.to_string(),
+            typst_version: setup.program.version.to_string(),
             shop: loaded.shop.as_ref().map(|s| &s.profile),
             logo: loaded.shop.as_ref().and_then(|s| s.logo.as_ref()),
             catalogue,
-            serial: match args.serial {
-                SerialArg::Shown => SerialShown::Shown,
-                SerialArg::Masked => SerialShown::Masked,
-                SerialArg::Hidden => SerialShown::Hidden,
-            },
+            serial: serial_shown(args),
             photos: &photos,
-            markdown_stem: markdown_path
+            markdown_stem: markdown
                 .file_stem()
                 .map(|s| s.to_string_lossy().into_owned())
                 .unwrap_or_default(),
         };
-        match listing::build(&input, &templates) {
-            Ok(d) => {
-                let folder = markdown_path.parent().unwrap_or(Path::new(""));
-                let mut extra: Vec<(PathBuf, Vec<u8>)> = d
-                    .photo_files
-                    .into_iter()
-                    .map(|(name, bytes)| (folder.join(name), bytes))
-                    .collect();
-                extra.push((markdown_path, d.markdown.into_bytes()));
-                Built {
-                    sandbox: d.sandbox,
-                    main: d.main,
-                    options: d.options,
-                    extra,
-                }
+        let d = match listing::build(&input, &setup.templates) {
+            Ok(d) => d,
+            Err(e) => return Err(report_build_error(e, said)),
+        };
+        let folder = markdown.parent().unwrap_or(Path::new(""));
+        let mut extra: Vec<(PathBuf, Vec<u8>)> = d
+            .photo_files
+            .into_iter()
+            .map(|(name, bytes)| (folder.join(name), bytes))
+            .collect();
+        for (path, _) in &extra {
+            if let Err(e) =
+                typeset::check_output(path, &inputs).and_then(|()| setup.job_files.check(path))
+            {
+                said.error(format!("{:?}", miette::Report::new(e)));
+                return Err(Exit::Usage);
             }
-            Err(e) => return report_build_error(e),
+        }
+        extra.push((markdown.clone(), d.markdown.into_bytes()));
+        Built {
+            sandbox: d.sandbox,
+            main: d.main,
+            options: d.options,
+            extra,
         }
     } else {
         let input = HandoverInput {
             job,
             findings: &findings,
             job_text: &loaded.text,
-            typst_version: program.version.to_string(),
+            typst_version: setup.program.version.to_string(),
             shop: loaded.shop.as_ref().map(|s| &s.profile),
             logo: loaded.shop.as_ref().and_then(|s| s.logo.as_ref()),
             include_charges: !args.no_charges,
@@ -132,41 +513,21 @@ pub fn run(args: &RenderArgs) -> Exit {
             revision: findings.job.git.clone(),
             photos: &photos,
         };
-        match handover::build(&input, &templates) {
+        match handover::build(&input, &setup.templates) {
             Ok(d) => Built {
                 sandbox: d.sandbox,
                 main: d.main,
                 options: d.options,
                 extra: Vec::new(),
             },
-            Err(e) => return report_build_error(e),
+            Err(e) => return Err(report_build_error(e, said)),
         }
     };
 
-    let mut inputs = inputs_read(args, &program, loaded.shop.as_ref());
-    inputs.extend(
-        photos
-            .iter()
-            .map(|p| Input::new(&p.source, "a photo of the job")),
-    );
-    if document.extra.iter().any(|(p, _)| *p == output) {
-        eprintln!(
-            "error: the listing's PDF {} would be written over by its own Markdown; name the PDF with .pdf",
-            output.display()
-        );
-        return Exit::Usage;
-    }
-    for path in std::iter::once(&output).chain(document.extra.iter().map(|(p, _)| p)) {
-        if let Err(e) = typeset::check_output(path, &inputs) {
-            eprintln!("{:?}", miette::Report::new(e));
-            return Exit::Usage;
-        }
-    }
-
     if let Some(dir) = &args.emit_source {
-        if let Err(e) = typeset::check_emit_folder(dir, &inputs, &output, args.force) {
-            eprintln!("{:?}", miette::Report::new(e));
-            return Exit::Usage;
+        if let Err(e) = typeset::check_emit_folder(dir, &inputs, output, args.force) {
+            said.error(format!("{:?}", miette::Report::new(e)));
+            return Err(Exit::Usage);
         }
         let written = if args.force {
             typeset::emit_source_replacing(&document.sandbox, dir)
@@ -174,17 +535,22 @@ pub fn run(args: &RenderArgs) -> Exit {
             typeset::emit_source(&document.sandbox, dir)
         };
         if let Some(signal) = interrupt::received() {
-            return report_typeset_error(TypesetError::Interrupted { signal }, &templates, None);
+            return Err(report_typeset_error(
+                TypesetError::Interrupted { signal },
+                &setup.templates,
+                None,
+                said,
+            ));
         }
         if let Err(e) = written {
-            eprintln!(
+            said.error(format!(
                 "error: could not write the generated source to {}: {e}",
                 dir.display()
-            );
-            return Exit::Environment;
+            ));
+            return Err(Exit::Environment);
         }
-        ui::warn(format!("wrote the generated source to {}", dir.display()));
-        ui::warn(format!(
+        said.warn(format!("wrote the generated source to {}", dir.display()));
+        said.warn(format!(
             "  the same PDF comes from: {}",
             handover::compile_command(dir, &document.options, &dir.join("handover.pdf"))
         ));
@@ -195,41 +561,55 @@ pub fn run(args: &RenderArgs) -> Exit {
         ..document.options.clone()
     };
     match typeset::compile(
-        &program,
+        &setup.program,
         &document.sandbox,
         document.main,
         &options,
-        &output,
+        output,
     ) {
         Ok(outcome) => {
             match &outcome.fonts {
-                FontsUsed::Cache(dir) => ui::read("fonts", format!("{} (cache)", dir.display())),
-                FontsUsed::Sandbox => ui::read(
+                FontsUsed::Cache(dir) => said.read("fonts", format!("{} (cache)", dir.display())),
+                FontsUsed::Sandbox => said.read(
                     "fonts",
                     "embedded in the program, written for this run (no usable cache folder)",
                 ),
             }
             if !outcome.warnings.is_empty() {
-                ui::warn(format!("typst warned:\n{}", outcome.warnings));
-            }
-            if is_dash(&output) {
-                if ui::verbose() {
-                    eprintln!("wrote the PDF to standard output");
-                }
-            } else {
-                ui::wrote(format!("wrote {}", output.display()));
+                said.warn(format!("typst warned:\n{}", outcome.warnings));
             }
             // The listing's photos, then its Markdown: each file is written
             // whole or not at all.
             for (path, bytes) in &document.extra {
                 if let Err(e) = typeset::place(bytes, path) {
-                    return report_typeset_error(e, &templates, Some(path));
+                    content_key::forget(output);
+                    return Err(report_typeset_error(e, &setup.templates, Some(path), said));
                 }
-                ui::wrote(format!("wrote {}", path.display()));
+                beside.push(path.clone());
             }
-            Exit::Success
+            let written = std::iter::once(output).chain(document.extra.iter().map(|(p, _)| p));
+            for path in written {
+                match &key {
+                    _ if is_dash(path) => {}
+                    Some(key) => {
+                        if let Err(e) = content_key::record(path, key) {
+                            said.warn(format!(
+                                "warning: could not record what {} was made from ({e}); the next run renders it again",
+                                path.display()
+                            ));
+                        }
+                    }
+                    None => content_key::forget(path),
+                }
+            }
+            Ok(Outcome::Rendered)
         }
-        Err(e) => report_typeset_error(e, &templates, Some(&output)),
+        Err(e) => Err(report_typeset_error(
+            e,
+            &setup.templates,
+            Some(output),
+            said,
+        )),
     }
 }
 
@@ -243,16 +623,83 @@ struct Built {
     extra: Vec<(PathBuf, Vec<u8>)>,
 }
 
-/// Every path the render reads, for the output checks: an output may be
-/// none of them, and the `--emit-source` folder may hold none of them.
+/// True when the files a listing writes beside its PDF `output` were all
+/// made from `key`: its Markdown and one file for each photo marked for
+/// the listing (PNG or JPEG, as the photo was).
+fn listing_files_up_to_date(output: &Path, job: &crate::job::Job, key: &str) -> bool {
+    let markdown = markdown_for(output);
+    if !content_key::up_to_date(&markdown, key) {
+        return false;
+    }
+    let stem = markdown
+        .file_stem()
+        .map(|s| s.to_string_lossy().into_owned())
+        .unwrap_or_default();
+    let listed = job.photos.iter().filter(|p| p.listing).count();
+    (1..=listed).all(|i| {
+        ["png", "jpg"].iter().any(|extension| {
+            content_key::up_to_date(
+                &markdown.with_file_name(format!("{stem}-photo-{i}.{extension}")),
+                key,
+            )
+        })
+    })
+}
+
+/// A job's content key: the run's shared inputs, the job's text, its
+/// shop profile's text and logo (or their absence), the bytes of each
+/// photo, and the commit its git repository stands at (the footer names
+/// the commit that last changed the job and whether the bytes read are
+/// that commit's: both follow from that commit and the job's bytes).
+/// `None` when a photo cannot be read: the render then reports it.
+fn job_key(
+    setup: &Setup<'_>,
+    run: &RunKey,
+    job_path: &Path,
+    loaded: &load::Loaded,
+    photos: &[PathBuf],
+) -> Option<String> {
+    let mut key = run.job(&loaded.text);
+    match &loaded.shop {
+        Some(shop) => {
+            key.file("shop profile", shop.text.as_bytes());
+            match &shop.logo {
+                Some(logo) => {
+                    key.file("logo kind", logo.sandbox_path().as_bytes());
+                    key.file("logo", &logo.bytes);
+                }
+                None => key.none("logo"),
+            }
+        }
+        None => key.none("shop profile"),
+    }
+    match loaded.shop.as_ref().and_then(|s| s.translation.as_ref()) {
+        Some(file) => key.file("translation", &std::fs::read(file).ok()?),
+        None => key.none("translation"),
+    }
+    key.file("photos", &(photos.len() as u64).to_le_bytes());
+    for photo in photos {
+        key.file("photo", &std::fs::read(photo).ok()?);
+    }
+    match setup.repository_head(job_path) {
+        Some(head) => key.file("git head", head.as_bytes()),
+        None => key.none("git head"),
+    }
+    Some(key.finish())
+}
+
+/// Every path the render of `job` reads, for the output checks: an output
+/// may be none of them, and the `--emit-source` folder may hold none of
+/// them.
 fn inputs_read(
     args: &RenderArgs,
+    job: &Path,
     program: &TypstProgram,
     shop: Option<&load::LoadedShop>,
 ) -> Vec<Input> {
     let mut inputs = Vec::new();
-    if !is_dash(&args.job.job) {
-        inputs.push(Input::new(&args.job.job, "the job file"));
+    if !is_dash(job) {
+        inputs.push(Input::new(job, "the job file"));
     }
     inputs.extend(
         args.job
@@ -280,10 +727,11 @@ fn inputs_read(
 /// the exit status: 1 when a shop's template is at fault, 2 for an output
 /// that may not be written, 3 for typst or the machine (and for the
 /// built-in template, a fault of ampreport itself), 128 + N for signal N.
-fn report_typeset_error(
+pub(crate) fn report_typeset_error(
     e: TypesetError,
     templates: &TemplateSource,
     output: Option<&Path>,
+    said: &mut Said,
 ) -> Exit {
     let shop = templates.override_dir.as_deref();
     let status = match &e {
@@ -291,26 +739,26 @@ fn report_typeset_error(
         TypesetError::Output(_) => Exit::Usage,
         TypesetError::Compile { .. } | TypesetError::MissingText { .. } => match shop {
             Some(dir) => {
-                eprintln!(
+                said.err(format!(
                     "note: the document from the shop templates in {} failed; the templates are at fault, not the job",
                     dir.display()
-                );
+                ));
                 Exit::InvalidInput
             }
             None => {
-                eprintln!(
-                    "note: the built-in template failed; this is a fault in ampreport, please report it"
+                said.err(
+                    "note: the built-in template failed; this is a fault in ampreport, please report it",
                 );
                 Exit::Environment
             }
         },
         _ => Exit::Environment,
     };
-    eprintln!("{:?}", miette::Report::new(e));
+    said.error(format!("{:?}", miette::Report::new(e)));
     if let Some(output) = output
         && output.exists()
     {
-        eprintln!("note: {} was left as it was", output.display());
+        said.err(format!("note: {} was left as it was", output.display()));
     }
     status
 }
@@ -368,10 +816,10 @@ fn default_listing_output(job: &Path) -> PathBuf {
     job.with_extension("listing.pdf")
 }
 
-/// Where the PDF goes: `-o FILE`, `-o -` (standard output, which must not
-/// be a terminal), else beside the job file; a job from standard input has
-/// no file to sit beside, so it needs `-o`.
-fn output_path(args: &RenderArgs) -> Result<PathBuf, Exit> {
+/// Refuses the output of a one-job run that cannot be: `-o -` (standard
+/// output) when standard output is a terminal, and a job read from
+/// standard input without `-o`, since it has no file to sit beside.
+fn single_output_allowed(args: &RenderArgs, job: &Path) -> Result<(), Exit> {
     match &args.output {
         Some(o) if is_dash(o) && std::io::stdout().is_terminal() => {
             eprintln!(
@@ -386,21 +834,20 @@ fn output_path(args: &RenderArgs) -> Result<PathBuf, Exit> {
             );
             Err(Exit::Usage)
         }
-        Some(o) => Ok(o.clone()),
-        None if is_dash(&args.job.job) => {
+        None if is_dash(job) => {
             eprintln!(
                 "error: a job read from standard input has no file to put the PDF beside; \
                  name the output with `-o FILE`, or `-o -` for standard output"
             );
             Err(Exit::Usage)
         }
-        None if args.listing => Ok(default_listing_output(&args.job.job)),
-        None => Ok(default_output(&args.job.job)),
+        _ => Ok(()),
     }
 }
 
-/// The built-in templates, overridden by `--templates DIR` when given.
-fn template_source(dir: Option<&Path>, listing: bool) -> Result<TemplateSource, Exit> {
+/// The built-in templates (the hand-over's, or the listing's), overridden
+/// by `--templates DIR` when given.
+pub(crate) fn template_source(dir: Option<&Path>, listing: bool) -> Result<TemplateSource, Exit> {
     let embedded = if listing {
         listing::EMBEDDED_TEMPLATES
     } else {
@@ -430,7 +877,7 @@ fn template_source(dir: Option<&Path>, listing: bool) -> Result<TemplateSource, 
     }
 }
 
-fn report_build_error(e: HandoverError) -> Exit {
+fn report_build_error(e: HandoverError, said: &mut Said) -> Exit {
     let status = match &e {
         HandoverError::Template {
             from_override: true,
@@ -442,14 +889,14 @@ fn report_build_error(e: HandoverError) -> Exit {
             from_override: false,
             ..
         } => {
-            eprintln!(
-                "note: the built-in template failed; this is a fault in ampreport, please report it"
+            said.err(
+                "note: the built-in template failed; this is a fault in ampreport, please report it",
             );
             Exit::Environment
         }
         HandoverError::Plot(_) | HandoverError::Sandbox(_) => Exit::Environment,
     };
-    eprintln!("error: {e}");
+    said.error(format!("error: {e}"));
     status
 }
 

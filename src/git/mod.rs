@@ -209,6 +209,17 @@ pub fn revision(file: &Path, bytes: &[u8]) -> Option<Revision> {
     })
 }
 
+/// The commit `HEAD` of the repository holding `folder` (its full id):
+/// none without git or outside a repository. Two renders of a job whose
+/// bytes and repository `HEAD` are the same get the same [`revision`].
+pub fn head(folder: &Path) -> Option<String> {
+    let Ran::Ok(out) = run(folder, &["rev-parse", "--verify", "--quiet", "HEAD"], 256) else {
+        return None;
+    };
+    let id = String::from_utf8(out).ok()?.trim().to_string();
+    (id.len() >= SHORT_ID_DIGITS && id.chars().all(|c| c.is_ascii_hexdigit())).then_some(id)
+}
+
 /// Whether `arg` names a file at a git revision (`REV:PATH`) rather than a
 /// file: it holds a colon and no file of that name exists.
 pub fn is_revision_spec(arg: &Path) -> bool {

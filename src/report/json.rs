@@ -10,3 +10,11 @@ pub fn render(findings: &Findings) -> String {
     s.push('\n');
     s
 }
+
+/// The same document on one line, for JSON Lines (several jobs).
+pub fn render_line(findings: &Findings) -> String {
+    let mut s =
+        serde_json::to_string(findings).unwrap_or_else(|e| format!("{{\"error\": \"{e}\"}}"));
+    s.push('\n');
+    s
+}

@@ -8,13 +8,17 @@
 //! shape, never by colour alone, and every bar and marker carries its figure
 //! as text. The charts only draw what [`crate::calc`] worked out.
 
+use std::collections::HashMap;
+
 use plotters::coord::Shift;
 use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, Pos, VPos};
 
 use crate::calc::Findings;
 
+mod obstacles;
 mod warm_up;
+pub(crate) use obstacles::Obstacles;
 pub use warm_up::{WarmUpChart, WarmUpLine, warm_up_chart, warm_up_svg};
 
 /// Font named in the SVG text elements: the bundled body font, which typst
@@ -91,9 +95,12 @@ pub struct SupplyChart {
 }
 
 /// The dissipation chart's data, or `None` when no output valve has a
-/// plate-dissipation figure in any set.
+/// plate-dissipation figure in any set. Linear in the sets and valves: each
+/// valve's column is found by its position through an index, never by
+/// comparing it with every other.
 pub fn dissipation_chart(findings: &Findings) -> Option<DissipationChart> {
-    let mut valves: Vec<(String, String)> = Vec::new();
+    let mut valves: Vec<(&str, &str)> = Vec::new();
+    let mut column: HashMap<&str, usize> = HashMap::new();
     let mut kinds: Vec<&str> = Vec::new();
     for set in &findings.sets {
         for v in set
@@ -101,9 +108,11 @@ pub fn dissipation_chart(findings: &Findings) -> Option<DissipationChart> {
             .iter()
             .filter(|v| v.is_output && v.plate_dissipation_pct.is_some())
         {
-            if !valves.iter().any(|(p, _)| *p == v.position) {
-                valves.push((v.position.clone(), v.valve_type.clone()));
-            }
+            column.entry(v.position.as_str()).or_insert_with(|| {
+                valves.push((v.position.as_str(), v.valve_type.as_str()));
+                valves.len() - 1
+            });
+            // At most the two bias kinds: a short list.
             if !kinds.contains(&v.bias.as_str()) {
                 kinds.push(v.bias.as_str());
             }
@@ -115,17 +124,20 @@ pub fn dissipation_chart(findings: &Findings) -> Option<DissipationChart> {
     let series = findings
         .sets
         .iter()
-        .map(|set| Series {
-            label: set.label.clone(),
-            values: valves
-                .iter()
-                .map(|(p, _)| {
-                    set.valves
-                        .iter()
-                        .find(|v| &v.position == p)
-                        .and_then(|v| v.plate_dissipation_pct)
-                })
-                .collect(),
+        .map(|set| {
+            // The first valve of the set at each position decides.
+            let mut values: Vec<Option<Option<f64>>> = vec![None; valves.len()];
+            for v in &set.valves {
+                if let Some(&i) = column.get(v.position.as_str())
+                    && values[i].is_none()
+                {
+                    values[i] = Some(v.plate_dissipation_pct);
+                }
+            }
+            Series {
+                label: set.label.clone(),
+                values: values.into_iter().map(Option::flatten).collect(),
+            }
         })
         .collect();
     let s = &findings.settings;
@@ -140,34 +152,36 @@ pub fn dissipation_chart(findings: &Findings) -> Option<DissipationChart> {
         _ => Guide::None,
     };
     Some(DissipationChart {
-        valves: valves
-            .into_iter()
-            .map(|(p, t)| format!("{p} {t}"))
-            .collect(),
+        valves: valves.iter().map(|(p, t)| format!("{p} {t}")).collect(),
         series,
         guide,
     })
 }
 
-/// The supply chart's data, or `None` when no set reads any node.
+/// The supply chart's data, or `None` when no set reads any node. Linear
+/// in the sets and nodes, like [`dissipation_chart`].
 pub fn supply_chart(findings: &Findings) -> Option<SupplyChart> {
     let mut nodes: Vec<SupplyNode> = Vec::new();
+    let mut column: HashMap<&str, usize> = HashMap::new();
     for set in &findings.sets {
         for n in &set.nodes {
             let band = n.expected_volts.map(|e| {
                 let t = n.tolerance_pct / 100.0;
                 (e * (1.0 - t), e, e * (1.0 + t))
             });
-            match nodes.iter_mut().find(|x| x.name == n.name) {
-                Some(existing) => {
-                    if existing.band.is_none() {
-                        existing.band = band;
+            match column.get(n.name.as_str()) {
+                Some(&i) => {
+                    if nodes[i].band.is_none() {
+                        nodes[i].band = band;
                     }
                 }
-                None => nodes.push(SupplyNode {
-                    name: n.name.clone(),
-                    band,
-                }),
+                None => {
+                    column.insert(n.name.as_str(), nodes.len());
+                    nodes.push(SupplyNode {
+                        name: n.name.clone(),
+                        band,
+                    });
+                }
             }
         }
     }
@@ -177,23 +191,147 @@ pub fn supply_chart(findings: &Findings) -> Option<SupplyChart> {
     let series = findings
         .sets
         .iter()
-        .map(|set| Series {
-            label: set.label.clone(),
-            values: nodes
-                .iter()
-                .map(|node| {
-                    set.nodes
-                        .iter()
-                        .find(|n| n.name == node.name)
-                        .map(|n| n.corrected_volts)
-                })
-                .collect(),
+        .map(|set| {
+            let mut values = vec![None; nodes.len()];
+            for n in &set.nodes {
+                if let Some(&i) = column.get(n.name.as_str())
+                    && values[i].is_none()
+                {
+                    values[i] = Some(n.corrected_volts);
+                }
+            }
+            Series {
+                label: set.label.clone(),
+                values,
+            }
         })
         .collect();
     Some(SupplyChart {
         nodes,
         series,
         nominal_volts: findings.mains.nominal_volts,
+    })
+}
+
+/// At most this many measurement sets (or response curves) share one
+/// chart; a job with more gets one chart per group of sets, so every chart
+/// stays readable and the document's cost grows in step with the job.
+pub const SETS_PER_CHART: usize = 8;
+
+/// At most this many valves (or supply nodes) across one chart.
+pub const COLUMNS_PER_CHART: usize = 12;
+
+/// One chart of a long job's figures, and which share of them it shows in
+/// words ("readings “as found” to “after the swap”; V3 EL34 to V8 EL34"),
+/// or `None` when one chart shows everything.
+#[derive(Debug, Clone, PartialEq)]
+pub struct ChartPart<T> {
+    pub chart: T,
+    pub part: Option<String>,
+}
+
+/// `n` items cut into the fewest groups of at most `most`, as even as can
+/// be (20 by 8 gives 7, 7, 6).
+pub(crate) fn even_groups(n: usize, most: usize) -> Vec<std::ops::Range<usize>> {
+    if n == 0 {
+        return Vec::new();
+    }
+    let count = n.div_ceil(most.max(1));
+    let (size, extra) = (n / count, n % count);
+    let mut start = 0;
+    (0..count)
+        .map(|g| {
+            let len = size + usize::from(g < extra);
+            let range = start..start + len;
+            start += len;
+            range
+        })
+        .collect()
+}
+
+/// "“a”" or "“a” to “b”", for the first and last of a group.
+pub(crate) fn span_words(first: &str, last: &str, quote: bool) -> String {
+    let q = |t: &str| {
+        if quote {
+            format!("“{}”", label_text(t, 24))
+        } else {
+            label_text(t, 24)
+        }
+    };
+    if first == last {
+        q(first)
+    } else {
+        format!("{} to {}", q(first), q(last))
+    }
+}
+
+/// Cuts series over columns into charts of at most [`SETS_PER_CHART`]
+/// sets and [`COLUMNS_PER_CHART`] columns, dropping a part with no figure
+/// at all. `make` builds a part's chart from its series and column range.
+fn split_series<T>(
+    series: &[Series],
+    columns: &[String],
+    make: impl Fn(Vec<Series>, std::ops::Range<usize>) -> T,
+) -> Vec<ChartPart<T>> {
+    let set_groups = even_groups(series.len(), SETS_PER_CHART);
+    let column_groups = even_groups(columns.len(), COLUMNS_PER_CHART);
+    let whole = set_groups.len() <= 1 && column_groups.len() <= 1;
+    let mut parts = Vec::new();
+    for sets in &set_groups {
+        for cols in &column_groups {
+            let cut: Vec<Series> = series[sets.clone()]
+                .iter()
+                .map(|s| Series {
+                    label: s.label.clone(),
+                    values: s.values.get(cols.clone()).unwrap_or_default().to_vec(),
+                })
+                .collect();
+            if !whole && cut.iter().all(|s| s.values.iter().all(Option::is_none)) {
+                continue;
+            }
+            let mut words = Vec::new();
+            if set_groups.len() > 1 {
+                words.push(format!(
+                    "readings {}",
+                    span_words(&series[sets.start].label, &series[sets.end - 1].label, true)
+                ));
+            }
+            if column_groups.len() > 1 {
+                words.push(span_words(
+                    &columns[cols.start],
+                    &columns[cols.end - 1],
+                    false,
+                ));
+            }
+            parts.push(ChartPart {
+                chart: make(cut, cols.clone()),
+                part: (!whole).then(|| words.join("; ")),
+            });
+        }
+    }
+    parts
+}
+
+/// The dissipation chart cut into parts for a long job (see
+/// [`SETS_PER_CHART`]); one part holding the whole chart otherwise.
+pub fn split_dissipation(chart: &DissipationChart) -> Vec<ChartPart<DissipationChart>> {
+    split_series(&chart.series, &chart.valves, |series, cols| {
+        DissipationChart {
+            valves: chart.valves[cols].to_vec(),
+            series,
+            guide: chart.guide,
+        }
+    })
+}
+
+/// The supply chart cut into parts for a long job, like
+/// [`split_dissipation`].
+pub fn split_supply(chart: &SupplyChart) -> Vec<ChartPart<SupplyChart>> {
+    let names: Vec<String> = chart.nodes.iter().map(|n| n.name.clone()).collect();
+    split_series(&chart.series, &names, |series, cols| SupplyChart {
+        nodes: chart.nodes[cols].to_vec(),
+        series,
+        nominal_volts: chart.nominal_volts,
     })
 }
 
@@ -440,67 +578,6 @@ pub(crate) struct Line {
 impl Line {
     pub(crate) fn new(from: (f64, f64), to: (f64, f64), weight: f64) -> Self {
         Line { from, to, weight }
-    }
-}
-
-/// What a figure's label must keep clear of, for choosing where it goes.
-#[derive(Debug, Clone)]
-pub(crate) struct Obstacles {
-    /// Labels must stay inside.
-    pub area: PixelBox,
-    /// Markers, bars and labels already placed: never covered.
-    pub solid: Vec<PixelBox>,
-    /// Lines a label should not sit on.
-    pub lines: Vec<Line>,
-    /// Shaded bands: a label sits inside one or outside it, not across its
-    /// edge.
-    pub bands: Vec<PixelBox>,
-}
-
-impl Obstacles {
-    pub(crate) fn new(area: PixelBox) -> Self {
-        Obstacles {
-            area,
-            solid: Vec::new(),
-            lines: Vec::new(),
-            bands: Vec::new(),
-        }
-    }
-
-    /// How bad a label at `b` would be; 0 when it is clear of everything.
-    pub(crate) fn cost(&self, b: &PixelBox) -> f64 {
-        let mut cost = (b.area() - b.overlap(&self.area)) * 1000.0;
-        cost += self.solid.iter().map(|s| b.overlap(s) * 60.0).sum::<f64>();
-        cost += self
-            .lines
-            .iter()
-            .map(|l| b.crossing(l.from, l.to) * l.weight)
-            .sum::<f64>();
-        cost += self
-            .bands
-            .iter()
-            .filter(|band| {
-                let o = b.overlap(band);
-                o > 0.0 && o < b.area() - 1e-9
-            })
-            .count() as f64
-            * 5.0;
-        cost
-    }
-
-    /// The cheapest of `candidates`, in order of preference: each step down
-    /// the list costs a little, so the first clear one wins. The choice is
-    /// then solid for later labels.
-    pub(crate) fn place(&mut self, candidates: &[PixelBox]) -> PixelBox {
-        let best = candidates
-            .iter()
-            .enumerate()
-            .map(|(rank, b)| (self.cost(b) + rank as f64 * 2.0, *b))
-            .min_by(|a, b| a.0.total_cmp(&b.0))
-            .map(|(_, b)| b)
-            .expect("at least one candidate");
-        self.solid.push(best);
-        best
     }
 }
 
@@ -882,24 +959,24 @@ fn draw_dissipation(chart: &DissipationChart, svg: &mut String) -> Result<(), St
         (f64::from(left), f64::from(plot_top)),
         (f64::from(right), f64::from(plot_bottom)),
     ));
-    obstacles.solid = bars.iter().map(|(b, _, _)| *b).collect();
+    for (b, _, _) in &bars {
+        obstacles.add_solid(*b);
+    }
     let (l, r) = (f64::from(left), f64::from(right));
-    obstacles
-        .lines
-        .push(Line::new((l, f64::from(y100)), (r, f64::from(y100)), 40.0));
+    obstacles.add_line(Line::new((l, f64::from(y100)), (r, f64::from(y100)), 40.0));
     match chart.guide {
         Guide::Caution { pct } => {
             let y = f64::from(ctx.backend_coord(&(0.0, axis.hold(pct))).1);
-            obstacles.lines.push(Line::new((l, y), (r, y), 25.0));
+            obstacles.add_line(Line::new((l, y), (r, y), 25.0));
         }
         Guide::Aim { low_pct, high_pct } => {
             let lo = f64::from(ctx.backend_coord(&(0.0, axis.hold(low_pct))).1);
             let hi = f64::from(ctx.backend_coord(&(0.0, axis.hold(high_pct))).1);
-            obstacles.bands.push(PixelBox::new((l, hi), (r, lo)));
+            obstacles.add_band(PixelBox::new((l, hi), (r, lo)));
         }
         Guide::None => {}
     }
-    let bands = obstacles.bands.clone();
+    let bands = obstacles.bands().to_vec();
     for (pixels, column, text) in &bars {
         let w = text_width(text, 12) + 4.0;
         let upright = w > column.x1 - column.x0;
@@ -1176,11 +1253,11 @@ fn draw_supply(chart: &SupplyChart, svg: &mut String) -> Result<(), String> {
             let b = ctx.backend_coord(&(x1, expected));
             dashed(&root, a.0, b.0, a.1, INK.stroke_width(1))?;
             let (p, q) = (ctx.backend_coord(&(x0, lo)), ctx.backend_coord(&(x1, hi)));
-            obstacles.bands.push(PixelBox::new(
+            obstacles.add_band(PixelBox::new(
                 (f64::from(p.0), f64::from(p.1)),
                 (f64::from(q.0), f64::from(q.1)),
             ));
-            obstacles.lines.push(Line::new(
+            obstacles.add_line(Line::new(
                 (f64::from(a.0), f64::from(a.1)),
                 (f64::from(b.0), f64::from(b.1)),
                 12.0,
@@ -1225,7 +1302,7 @@ fn draw_supply(chart: &SupplyChart, svg: &mut String) -> Result<(), String> {
                 .map_err(|e| e.to_string())?;
             for pair in path.windows(2) {
                 let (a, b) = (pair[0], pair[1]);
-                obstacles.lines.push(Line::new(
+                obstacles.add_line(Line::new(
                     (f64::from(a.0), f64::from(a.1)),
                     (f64::from(b.0), f64::from(b.1)),
                     20.0,
@@ -1236,7 +1313,7 @@ fn draw_supply(chart: &SupplyChart, svg: &mut String) -> Result<(), String> {
     for (k, line) in points.iter().enumerate() {
         for (_, p) in line {
             draw_marker(&root, *p, marker(k))?;
-            obstacles.solid.push(PixelBox::around(*p, 9.0));
+            obstacles.add_solid(PixelBox::around(*p, 9.0));
         }
     }
 
@@ -1245,7 +1322,7 @@ fn draw_supply(chart: &SupplyChart, svg: &mut String) -> Result<(), String> {
     // by preference, the second's on the right (with more than two sets
     // the table carries the figures).
     if sets <= 2 {
-        let bands = obstacles.bands.clone();
+        let bands = obstacles.bands().to_vec();
         for (k, line) in points.iter().enumerate() {
             for (v, p) in line {
                 let text = whole(*v);
@@ -1552,8 +1629,8 @@ mod tests {
     #[test]
     fn a_label_goes_to_the_first_clear_place() {
         let mut o = Obstacles::new(PixelBox::new((0.0, 0.0), (100.0, 100.0)));
-        o.lines.push(Line::new((0.0, 50.0), (100.0, 50.0), 20.0));
-        o.solid.push(PixelBox::new((40.0, 20.0), (60.0, 30.0)));
+        o.add_line(Line::new((0.0, 50.0), (100.0, 50.0), 20.0));
+        o.add_solid(PixelBox::new((40.0, 20.0), (60.0, 30.0)));
         let on_line = PixelBox::centred(50.0, 50.0, 20.0, 10.0);
         let on_marker = PixelBox::centred(50.0, 25.0, 20.0, 10.0);
         let outside = PixelBox::centred(105.0, 80.0, 20.0, 10.0);

@@ -7,6 +7,7 @@
 use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, VPos};
 
+use super::plots::{ChartPart, SETS_PER_CHART, even_groups, span_words};
 use super::plots::{
     DARK, GRID, INK, LABEL_HEIGHT, Line, MID, Obstacles, PAPER, PixelBox, PlotError, SIZE,
     anchored, dashed, draw_label, draw_marker, draw_mesh, label_spots, label_text, marker,
@@ -58,6 +59,29 @@ pub fn response_chart(findings: &Findings) -> Option<ResponseChart> {
         .filter(|c| !c.points.is_empty())
         .collect();
     (!curves.is_empty()).then_some(ResponseChart { curves })
+}
+
+/// The response chart cut into parts of at most [`SETS_PER_CHART`]
+/// curves for a long job; one part holding the whole chart otherwise.
+pub fn split_response(chart: &ResponseChart) -> Vec<ChartPart<ResponseChart>> {
+    let groups = even_groups(chart.curves.len(), SETS_PER_CHART);
+    let whole = groups.len() <= 1;
+    groups
+        .into_iter()
+        .map(|g| {
+            let curves = &chart.curves[g];
+            let part = (!whole).then(|| {
+                let (first, last) = (&curves[0].label, &curves[curves.len() - 1].label);
+                format!("curves {}", span_words(first, last, true))
+            });
+            ChartPart {
+                chart: ResponseChart {
+                    curves: curves.to_vec(),
+                },
+                part,
+            }
+        })
+        .collect()
 }
 
 /// Draws the frequency-response chart as an SVG document.
@@ -183,12 +207,8 @@ fn draw_response(chart: &ResponseChart, svg: &mut String) -> Result<(), String> 
         (f64::from(right), f64::from(plot_bottom)),
     ));
     let (l, r) = (f64::from(left), f64::from(right));
-    obstacles
-        .lines
-        .push(Line::new((l, f64::from(y0)), (r, f64::from(y0)), 20.0));
-    obstacles
-        .lines
-        .push(Line::new((l, f64::from(y3)), (r, f64::from(y3)), 25.0));
+    obstacles.add_line(Line::new((l, f64::from(y0)), (r, f64::from(y0)), 20.0));
+    obstacles.add_line(Line::new((l, f64::from(y3)), (r, f64::from(y3)), 25.0));
 
     // Curves: lines first, then markers over them.
     let paths: Vec<Vec<(i32, i32)>> = chart
@@ -206,7 +226,7 @@ fn draw_response(chart: &ResponseChart, svg: &mut String) -> Result<(), String> 
             root.draw(&PathElement::new(path.clone(), MID.stroke_width(2)))
                 .map_err(|e| e.to_string())?;
             for pair in path.windows(2) {
-                obstacles.lines.push(Line::new(
+                obstacles.add_line(Line::new(
                     (f64::from(pair[0].0), f64::from(pair[0].1)),
                     (f64::from(pair[1].0), f64::from(pair[1].1)),
                     20.0,
@@ -217,7 +237,7 @@ fn draw_response(chart: &ResponseChart, svg: &mut String) -> Result<(), String> 
     for (k, path) in paths.iter().enumerate() {
         for p in path {
             draw_marker(&root, *p, marker(k))?;
-            obstacles.solid.push(PixelBox::around(*p, 9.0));
+            obstacles.add_solid(PixelBox::around(*p, 9.0));
         }
     }
 
@@ -232,11 +252,11 @@ fn draw_response(chart: &ResponseChart, svg: &mut String) -> Result<(), String> 
                 INK.stroke_width(2),
             ))
             .map_err(|e| e.to_string())?;
-            obstacles.solid.push(PixelBox::around((x, y), 4.0));
+            obstacles.add_solid(PixelBox::around((x, y), 4.0));
             ticks.push(((x, y), f));
         }
     }
-    let bands = obstacles.bands.clone();
+    let bands = obstacles.bands().to_vec();
     for ((x, y), f) in ticks {
         let text = format_engineering(f, Q::Frequency);
         let w = text_width(&text, 12) + 4.0;

@@ -4,7 +4,9 @@
 //! be read is an error at the profile's `language` line; a problem inside
 //! the file is an error at its own `file:line:column`.
 
-use std::path::{Component, Path};
+use std::path::Path;
+
+use crate::input_file::{InFolderError, read_in_folder};
 
 use crate::catalogue::{Catalogue, CatalogueDiagnostics};
 use crate::job::DecodeError;
@@ -50,37 +52,19 @@ pub fn read_translation(
                 .in_file_kind("shop"),
         ))
     };
-    let written = Path::new(file.value.trim());
-    if file.value.trim().is_empty()
-        || !written
-            .components()
-            .all(|c| matches!(c, Component::Normal(_) | Component::CurDir))
-    {
-        return Err(fail(
+    let folder = profile.parent().unwrap_or(Path::new("."));
+    let help = "the translation must be a Fluent (.ftl) file in the profile's folder";
+    let limit = crate::input_file::MAX_INPUT_BYTES;
+    let read = read_in_folder(folder, file.value.trim(), limit).map_err(|e| match e {
+        InFolderError::NotInside { .. } => fail(
             format!(
                 "the translation file `{}` is not inside the profile's folder",
                 file.value
             ),
             "expected a file name in the profile's folder",
             "put the translation beside shop.kdl (or in a folder below it) and name it relative to it, for example file=\"de.ftl\"",
-        ));
-    }
-    let folder = match profile.parent() {
-        Some(f) if !f.as_os_str().is_empty() => f,
-        _ => Path::new("."),
-    };
-    let place = folder.join(written);
-    let not_readable = |e: std::io::Error| {
-        fail(
-            format!("cannot read the translation file {}: {e}", place.display()),
-            "this file",
-            "the translation must be a Fluent (.ftl) file in the profile's folder",
-        )
-    };
-    let real_folder = folder.canonicalize().map_err(not_readable)?;
-    let real = place.canonicalize().map_err(not_readable)?;
-    if !real.starts_with(&real_folder) {
-        return Err(fail(
+        ),
+        InFolderError::LeadsOutside { real, .. } => fail(
             format!(
                 "the translation file `{}` leads outside the profile's folder (to {})",
                 file.value,
@@ -88,9 +72,34 @@ pub fn read_translation(
             ),
             "leads outside",
             "copy the translation into the profile's folder instead of linking to it",
-        ));
-    }
-    let text = crate::input_file::read_text(&real, "translation file").map_err(|e| {
+        ),
+        InFolderError::NotAFile { path } => fail(
+            format!("the translation file {} is not a regular file", path.display()),
+            "not a file",
+            help,
+        ),
+        InFolderError::TooLarge { path, .. } => fail(
+            crate::input_file::InputFileError::TooLarge {
+                what: "translation file",
+                path: path.display().to_string(),
+            }
+            .to_string(),
+            "this file",
+            help,
+        ),
+        InFolderError::Io { path, source } => fail(
+            format!("cannot read the translation file {}: {source}", path.display()),
+            "this file",
+            help,
+        ),
+    })?;
+    let place = read.place;
+    let text = crate::input_file::read_from(
+        read.bytes.as_slice(),
+        read.real.display().to_string(),
+        "translation file",
+    )
+    .map_err(|e| {
         fail(
             e.to_string(),
             "this file",

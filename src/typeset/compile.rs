@@ -308,6 +308,18 @@ pub fn place(bytes: &[u8], output: &Path) -> Result<(), TypesetError> {
             .and_then(|()| stdout.flush())
             .map_err(|e| TypesetError::io("write the PDF to", "standard output", e));
     }
+    place_with(bytes, output, true)
+}
+
+/// Writes a small file the way the PDF is written (a locked temporary
+/// file beside it, renamed over it, never through a link), without
+/// flushing it to disk: for a file whose loss only costs a later run some
+/// work, such as an incremental render's manifest.
+pub fn write_small_file(path: &Path, bytes: &[u8]) -> std::io::Result<()> {
+    place_with(bytes, path, false).map_err(std::io::Error::other)
+}
+
+fn place_with(bytes: &[u8], output: &Path, sync: bool) -> Result<(), TypesetError> {
     let out_dir = parent_folder(output);
     sweep(out_dir, |name| {
         name.starts_with('.') && name.ends_with(PARTIAL_SUFFIX)
@@ -320,7 +332,13 @@ pub fn place(bytes: &[u8], output: &Path) -> Result<(), TypesetError> {
         .map_err(|e| TypesetError::io("create a temporary file in", out_dir, e))?;
     partial
         .write_all(bytes)
-        .and_then(|()| partial.as_file().sync_all())
+        .and_then(|()| {
+            if sync {
+                partial.as_file().sync_all()
+            } else {
+                Ok(())
+            }
+        })
         .map_err(|e| TypesetError::io("write", partial.path().to_path_buf(), e))?;
     if let Ok(existing) = std::fs::metadata(output) {
         let _ = std::fs::set_permissions(partial.path(), existing.permissions());
@@ -331,7 +349,9 @@ pub fn place(bytes: &[u8], output: &Path) -> Result<(), TypesetError> {
     partial
         .persist(output)
         .map_err(|e| TypesetError::io("write", output, e.error))?;
-    sync_folder(out_dir);
+    if sync {
+        sync_folder(out_dir);
+    }
     Ok(())
 }
 

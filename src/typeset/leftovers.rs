@@ -40,7 +40,16 @@ impl LockedDir {
             #[cfg(not(unix))]
             let _ = mode;
             let dir = builder.tempdir_in(parent)?;
-            let lock = File::open(dir.path())?;
+            let lock = match File::open(dir.path()) {
+                Ok(lock) => lock,
+                // Another run's sweep (or another worker's, in a batch)
+                // removed it before it could be opened: make another.
+                Err(e) if e.kind() == io::ErrorKind::NotFound => {
+                    let _ = dir.keep();
+                    continue;
+                }
+                Err(e) => return Err(e),
+            };
             if try_lock(&lock) && same_entry(dir.path(), &lock) {
                 return Ok(Self {
                     dir: Some(dir),

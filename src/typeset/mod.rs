@@ -25,7 +25,7 @@ mod version;
 
 pub use compile::{
     CompileOptions, CompileOutcome, DEFAULT_PDF_STANDARD, DEFAULT_TIMEOUT, FontPlace, FontsUsed,
-    KEPT_PREFIX, PARTIAL_SUFFIX, RequiredText, WORK_PREFIX, compile, place,
+    KEPT_PREFIX, PARTIAL_SUFFIX, RequiredText, WORK_PREFIX, compile, place, write_small_file,
 };
 pub use error::{INSTALL_HINT, TypesetError};
 pub use escape::{escape_markup, escape_string};
@@ -41,7 +41,7 @@ pub use inside::{InsideError, read_inside, read_regular};
 pub use locate::{
     PendingTypst, TYPST_ENV, TypstProgram, locate, locate_in, start_locate, start_locate_in,
 };
-pub use output::{Input, OutputRefused, check_emit_folder, check_output};
+pub use output::{Input, InputIndex, OutputRefused, check_emit_folder, check_output};
 pub use sandbox::{EMIT_PREFIX, Sandbox, emit_source, emit_source_replacing};
 pub use template_env::{TemplateSource, TypstMarkup, template_environment, typst_markup};
 pub use version::{MAX_TYPST_EXCLUSIVE, MIN_TYPST, TypstVersion};

@@ -168,6 +168,68 @@ pub fn check_output(output: &Path, inputs: &[Input]) -> Result<(), OutputRefused
     Ok(())
 }
 
+/// Many file inputs (a batch's job files, say), indexed by what they are
+/// rather than compared one by one, so that checking every output of a
+/// batch against every job's inputs costs time in step with the batch.
+/// Folders are not indexed: pass them to [`check_output`].
+#[derive(Debug, Default)]
+pub struct InputIndex {
+    inputs: Vec<Input>,
+    by_path: std::collections::HashMap<PathBuf, usize>,
+    by_file: std::collections::HashMap<(u64, u64), usize>,
+}
+
+impl InputIndex {
+    /// Indexes `inputs` by their resolved path and, on Unix, their file
+    /// identity (device and inode), so hard links are found too.
+    pub fn new(inputs: Vec<Input>) -> Self {
+        let mut index = InputIndex::default();
+        for (i, input) in inputs.iter().enumerate() {
+            if let Ok(path) = input.path.canonicalize() {
+                index.by_path.entry(path).or_insert(i);
+            }
+            if let Some(id) = std::fs::metadata(&input.path)
+                .ok()
+                .and_then(|m| file_id(&m))
+            {
+                index.by_file.entry(id).or_insert(i);
+            }
+        }
+        index.inputs = inputs;
+        index
+    }
+
+    /// Refuses an `output` that is one of the indexed inputs, under any
+    /// name. Only that: the other checks are [`check_output`]'s.
+    pub fn check(&self, output: &Path) -> Result<(), OutputRefused> {
+        let by_file = std::fs::symlink_metadata(output)
+            .ok()
+            .filter(|m| m.file_type().is_file())
+            .and_then(|m| file_id(&m))
+            .and_then(|id| self.by_file.get(&id));
+        let by_path = || resolved(output).and_then(|p| self.by_path.get(&p));
+        match by_file.or_else(by_path) {
+            Some(&i) => Err(OutputRefused::IsInput {
+                path: output.to_path_buf(),
+                input: self.inputs[i].path.clone(),
+                what: self.inputs[i].what.clone(),
+            }),
+            None => Ok(()),
+        }
+    }
+}
+
+#[cfg(unix)]
+fn file_id(meta: &std::fs::Metadata) -> Option<(u64, u64)> {
+    use std::os::unix::fs::MetadataExt;
+    Some((meta.dev(), meta.ino()))
+}
+
+#[cfg(not(unix))]
+fn file_id(_: &std::fs::Metadata) -> Option<(u64, u64)> {
+    None
+}
+
 /// Checks that the `--emit-source` folder `dir` may be filled by a run that
 /// reads `inputs` and writes `output`: it is not a link or a file, is empty
 /// or missing unless `force`, holds none of the inputs or the output and

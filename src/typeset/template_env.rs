@@ -89,6 +89,7 @@ pub fn template_environment(templates: TemplateSource) -> Environment<'static> {
         env.remove_filter(name);
     }
     env.add_filter("typst_string", typst_string);
+    env.add_filter("text_length", text_length);
     env.add_filter("replace", |value: String, from: String, to: String| {
         value.replace(&from, &to)
     });
@@ -161,6 +162,37 @@ fn typst_string(value: Value) -> Value {
         value.to_string()
     };
     typst_markup(format!("\"{}\"", escape_string(&text)))
+}
+
+/// The `text_length` filter: how many characters of text a value holds,
+/// counting every string in it (in lists and maps too, keys left out), so
+/// a template can tell a short table from one whose cells hold pages of
+/// text without laying it out. Numbers and other scalars count as their
+/// printed form.
+fn text_length(value: Value) -> usize {
+    fn walk(value: &Value, depth: usize) -> usize {
+        if depth > 16 || value.is_none() || value.is_undefined() {
+            return 0;
+        }
+        if let Some(text) = value.as_str() {
+            return text.chars().count();
+        }
+        match value.kind() {
+            minijinja::value::ValueKind::Seq | minijinja::value::ValueKind::Iterable => value
+                .try_iter()
+                .map(|items| items.map(|v| walk(&v, depth + 1)).sum())
+                .unwrap_or(0),
+            minijinja::value::ValueKind::Map => value
+                .try_iter()
+                .map(|keys| {
+                    keys.map(|k| value.get_item(&k).map_or(0, |v| walk(&v, depth + 1)))
+                        .sum()
+                })
+                .unwrap_or(0),
+            _ => value.to_string().chars().count(),
+        }
+    }
+    walk(&value, 0)
 }
 
 /// Reads template `name` from `dir`, if the file exists there. Names must be
@@ -282,6 +314,23 @@ mod tests {
         assert_eq!(out, "#set document(title: \"a \\\"b\\\"\\\\\\nc\")");
         let out = render("{{ n|typst_string }}", context! { n => () }).unwrap();
         assert_eq!(out, "\"\"");
+    }
+
+    #[test]
+    fn text_length_counts_every_string_inside() {
+        let out = render(
+            "{{ rows|text_length }} {{ one|text_length }} {{ none|text_length }}",
+            context! {
+                rows => vec![
+                    context! { a => "abc", b => vec!["de", "fü"] },
+                    context! { a => "", b => Vec::<String>::new() },
+                ],
+                one => "1234",
+                none => (),
+            },
+        )
+        .unwrap();
+        assert_eq!(out, "7 4 0");
     }
 
     #[test]

@@ -45,6 +45,27 @@ pub const DISSIPATION_PLOT: &str = "plots/plate-dissipation.svg";
 pub const SUPPLY_PLOT: &str = "plots/supply-chain.svg";
 pub const RESPONSE_PLOT: &str = "plots/frequency-response.svg";
 
+/// The path of part `index` (from 0) of a chart that a long job cuts into
+/// several: the first keeps the chart's own name (`base`), the others get
+/// `-2`, `-3` … before the extension.
+pub fn chart_part_path(base: &str, index: usize) -> String {
+    if index == 0 {
+        return base.to_string();
+    }
+    match base.strip_suffix(".svg") {
+        Some(stem) => format!("{stem}-{}.svg", index + 1),
+        None => format!("{base}-{}", index + 1),
+    }
+}
+
+/// One chart file of the document and, when a long job's chart is cut
+/// into several, which share of the figures it shows in words.
+#[derive(Debug, Clone, PartialEq, Eq, Serialize)]
+pub struct ChartFile {
+    pub path: String,
+    pub part: Option<String>,
+}
+
 /// The path of set `index`'s warm-up chart (counting from 0).
 pub fn warm_up_plot(index: usize) -> String {
     format!("plots/warm-up-{}.svg", index + 1)
@@ -513,8 +534,17 @@ pub struct HeaterRow {
 /// to draw.
 #[derive(Debug, Clone, Default, Serialize)]
 pub struct Plots {
+    /// The first (usually the only) dissipation chart.
     pub dissipation: Option<String>,
+    /// The first (usually the only) supply chart.
     pub supply: Option<String>,
+    /// Every dissipation chart: one, or for a long job one per group of
+    /// at most 8 sets and 12 valves, each saying which.
+    pub dissipation_charts: Vec<ChartFile>,
+    /// Every supply chart, cut like `dissipation_charts`.
+    pub supply_charts: Vec<ChartFile>,
+    /// Every response chart, at most 8 curves each.
+    pub response_charts: Vec<ChartFile>,
     /// The guide drawn on the dissipation chart, in words.
     pub dissipation_guide: Option<String>,
     /// The nominal mains the supply chart is corrected to.
@@ -623,15 +653,18 @@ pub struct ContextInputs<'a> {
     pub tool_version: &'a str,
     pub typst_version: &'a str,
     pub job_digest: &'a str,
+    /// The dissipation charts drawn (none when there was nothing to draw).
+    pub dissipation_charts: Vec<ChartFile>,
+    /// The supply charts drawn.
+    pub supply_charts: Vec<ChartFile>,
     /// Where the job file stands in git, if it is in a repository.
     pub revision: Option<&'a crate::git::Revision>,
     /// Every photo of the job.
     pub photos: Vec<PhotoRow>,
-    pub has_dissipation_plot: bool,
-    pub has_supply_plot: bool,
     /// The sets (by index) that have a warm-up chart.
     pub warm_up_plots: Vec<usize>,
-    pub has_response_plot: bool,
+    /// The frequency-response charts drawn.
+    pub response_charts: Vec<ChartFile>,
     /// The fixed words, in the document's language.
     pub catalogue: &'a Catalogue,
 }
@@ -1525,14 +1558,16 @@ fn plots(findings: &Findings, inputs: &ContextInputs<'_>) -> Plots {
     } else {
         None
     };
+    let first = |charts: &[ChartFile]| charts.first().map(|c| c.path.clone());
     Plots {
-        dissipation: inputs
-            .has_dissipation_plot
-            .then(|| DISSIPATION_PLOT.to_string()),
-        supply: inputs.has_supply_plot.then(|| SUPPLY_PLOT.to_string()),
+        dissipation: first(&inputs.dissipation_charts),
+        supply: first(&inputs.supply_charts),
+        dissipation_charts: inputs.dissipation_charts.clone(),
+        supply_charts: inputs.supply_charts.clone(),
+        response_charts: inputs.response_charts.clone(),
         dissipation_guide: guide,
         supply_nominal: volts(findings.mains.nominal_volts),
-        response: inputs.has_response_plot.then(|| RESPONSE_PLOT.to_string()),
+        response: first(&inputs.response_charts),
     }
 }
 

@@ -19,12 +19,13 @@ use sha2::{Digest, Sha256};
 
 pub use charges::{ChargeRow, ChargesContext, TaxRow, charges_context};
 pub use context::{
-    AcceptedRow, AttentionContext, CapacitorRow, ContextInputs, CustomerInfo, DISSIPATION_PLOT,
-    DocumentInfo, EntryRow, FOOTER_ID_CHARS, Footer, Glance, GlanceRow, HandoverContext, HeaterRow,
-    HistoryRow, JobInfo, LineUpRow, MainsInfo, Method, ModFigureRow, ModRow, NodeRow,
-    NotCheckedRow, PartRow, Plots, RESPONSE_PLOT, RatingRow, RectifierRow, ResistorRow,
-    SUPPLY_PLOT, SafetyContext, SafetyRow, SetContext, SummaryContext, UnitInfo, ValveRow,
-    WarmUpContext, WarmUpRow, WindowReading, WindowRow, build_context, date_words, warm_up_plot,
+    AcceptedRow, AttentionContext, CapacitorRow, ChartFile, ContextInputs, CustomerInfo,
+    DISSIPATION_PLOT, DocumentInfo, EntryRow, FOOTER_ID_CHARS, Footer, Glance, GlanceRow,
+    HandoverContext, HeaterRow, HistoryRow, JobInfo, LineUpRow, MainsInfo, Method, ModFigureRow,
+    ModRow, NodeRow, NotCheckedRow, PartRow, Plots, RESPONSE_PLOT, RatingRow, RectifierRow,
+    ResistorRow, SUPPLY_PLOT, SafetyContext, SafetyRow, SetContext, SummaryContext, UnitInfo,
+    ValveRow, WarmUpContext, WarmUpRow, WindowReading, WindowRow, build_context, chart_part_path,
+    date_words, warm_up_plot,
 };
 pub use context::{
     BenchContext, GainRow, HumNoiseRow, NetworkRow, NetworkView, OscillatorRow, OscillatorView,
@@ -266,17 +267,41 @@ pub fn build(
     templates: &TemplateSource,
 ) -> Result<Document, HandoverError> {
     let mut sandbox = Sandbox::new();
-    let dissipation = plots::dissipation_chart(input.findings);
-    let supply = plots::supply_chart(input.findings);
-    let response = response_chart::response_chart(input.findings);
-    if let Some(chart) = &dissipation {
-        sandbox.insert(DISSIPATION_PLOT, plots::dissipation_svg(chart)?)?;
+    let mut dissipation_charts = Vec::new();
+    if let Some(chart) = plots::dissipation_chart(input.findings) {
+        for (i, part) in plots::split_dissipation(&chart).into_iter().enumerate() {
+            let path = chart_part_path(DISSIPATION_PLOT, i);
+            sandbox.insert(&path, plots::dissipation_svg(&part.chart)?)?;
+            dissipation_charts.push(ChartFile {
+                path,
+                part: part.part,
+            });
+        }
     }
-    if let Some(chart) = &supply {
-        sandbox.insert(SUPPLY_PLOT, plots::supply_svg(chart)?)?;
+    let mut supply_charts = Vec::new();
+    if let Some(chart) = plots::supply_chart(input.findings) {
+        for (i, part) in plots::split_supply(&chart).into_iter().enumerate() {
+            let path = chart_part_path(SUPPLY_PLOT, i);
+            sandbox.insert(&path, plots::supply_svg(&part.chart)?)?;
+            supply_charts.push(ChartFile {
+                path,
+                part: part.part,
+            });
+        }
     }
-    if let Some(chart) = &response {
-        sandbox.insert(RESPONSE_PLOT, response_chart::response_svg(chart)?)?;
+    let mut response_charts = Vec::new();
+    if let Some(chart) = response_chart::response_chart(input.findings) {
+        for (i, part) in response_chart::split_response(&chart)
+            .into_iter()
+            .enumerate()
+        {
+            let path = chart_part_path(RESPONSE_PLOT, i);
+            sandbox.insert(&path, response_chart::response_svg(&part.chart)?)?;
+            response_charts.push(ChartFile {
+                path,
+                part: part.part,
+            });
+        }
     }
     for (i, m) in input.findings.mods.iter().enumerate() {
         if let Some(chart) = m.network.as_ref().and_then(network_chart::response_chart) {
@@ -311,12 +336,12 @@ pub fn build(
         tool_version: env!("CARGO_PKG_VERSION"),
         typst_version: &input.typst_version,
         job_digest: &digest,
+        dissipation_charts,
+        supply_charts,
         revision: input.revision.as_ref(),
         photos: crate::report::photos::photo_rows(input.photos),
-        has_dissipation_plot: dissipation.is_some(),
-        has_supply_plot: supply.is_some(),
         warm_up_plots,
-        has_response_plot: response.is_some(),
+        response_charts,
         catalogue: input.catalogue,
     };
     let context = build_context(input.job, input.findings, &inputs);

@@ -1,0 +1,259 @@
+#!/usr/bin/env bash
+# The speed and memory figures of docs/performance.md, measured side by
+# side in one run (never by timed tests). Usage:
+#
+#   bash scripts/perf.sh template [PAIRS]   typst on the new emitted source against the old template's
+#   bash scripts/perf.sh overhead [PAIRS]   render against bare typst on its own emitted source
+#   bash scripts/perf.sh size [SETS...]     typst time and memory per measurement set (generated jobs)
+#   bash scripts/perf.sh own [SETS]         ampreport's own work on a generated job (no typst)
+#   bash scripts/perf.sh batch [JOBS]       -j 1 against -j 2 over demo-sized jobs
+#   bash scripts/perf.sh noop [JOBS]        a second pass over unchanged jobs
+#   bash scripts/perf.sh watch [SAVES]      save-to-PDF time of `watch` against typst's compile time
+#
+# It builds the release binary first (AMPREPORT_BIN=PATH uses that binary
+# instead: enough for `template` and `size`, which time typst alone). The "old" side of `template` and
+# `size` is the template kept in benches/fixtures/template-before (the one
+# that measured every table before laying it out) or, when OLD_BIN names an
+# ampreport built before the change, that binary's own emitted source.
+# Pairs run alternately (AB, BA, AB …) so a slow patch of a shared machine
+# hits both sides; medians are printed. Each section prints `uptime` first:
+# the machine is shared and the load is part of the figure.
+set -euo pipefail
+cd "$(dirname "$0")/.."
+root=$(pwd)
+what="${1:-}"
+shift || true
+
+if [ -n "${AMPREPORT_BIN:-}" ]; then
+    # A binary already built (for the sections that time typst alone).
+    bin="$AMPREPORT_BIN"
+else
+    cargo build --release --quiet --example phases
+    cargo build --release --quiet
+    bin="$root/target/release/ampreport"
+fi
+typst="${AMPREPORT_TYPST:-typst}"
+old_template="$root/benches/fixtures/template-before"
+work=$(mktemp -d "${TMPDIR:-/tmp}/ampreport-perf.XXXXXX")
+trap 'rm -rf "$work"' EXIT
+export NO_COLOR=1
+
+now_ns() { date +%s%N; }
+
+# Median of the numbers on standard input.
+median() { sort -g | awk '{ a[NR] = $1 } END { if (NR % 2) print a[(NR + 1) / 2]; else print (a[NR / 2] + a[NR / 2 + 1]) / 2 }'; }
+
+# Milliseconds one command takes.
+ms() {
+    local t0 t1
+    t0=$(now_ns)
+    "$@" >/dev/null 2>&1
+    t1=$(now_ns)
+    echo $(((t1 - t0) / 1000000))
+}
+
+# Runs the commands (functions) $2 and $3 alternately ($2 $3, $3 $2 …), $1
+# pairs, their times in milliseconds in $work/a and $work/b.
+alternate() {
+    local pairs="$1" first="$2" second="$3"
+    : >"$work/a"
+    : >"$work/b"
+    for i in $(seq "$pairs"); do
+        if [ $((i % 2)) = 1 ]; then
+            ms "$first" >>"$work/a"
+            ms "$second" >>"$work/b"
+        else
+            ms "$second" >>"$work/b"
+            ms "$first" >>"$work/a"
+        fi
+    done
+}
+
+# The emitted source of job $1 into folder $2, with the new template, or
+# the old one when $3 is "old"; the typst command ampreport names for it is
+# kept in $2.cmd.
+emit() {
+    local job="$1" dir="$2" side="${3:-new}"
+    rm -rf "$dir"
+    if [ "$side" = old ] && [ -n "${OLD_BIN:-}" ]; then
+        "$OLD_BIN" render "$job" -o "$work/scratch.pdf" --emit-source "$dir" >/dev/null 2>"$work/emit.err"
+    elif [ "$side" = old ]; then
+        "$bin" render "$job" -o "$work/scratch.pdf" --templates "$old_template" --emit-source "$dir" --force >/dev/null 2>"$work/emit.err"
+    else
+        "$bin" render "$job" -o "$work/scratch.pdf" --emit-source "$dir" --force >/dev/null 2>"$work/emit.err"
+    fi
+    sed -n 's/.*the same PDF comes from: //p' "$work/emit.err" >"$dir.cmd"
+}
+
+# The typst compile ampreport named for an emitted folder, into $2.
+compile() {
+    local dir="$1" out="$2"
+    read -ra cmd <"$dir.cmd"
+    cmd[0]="$typst"
+    cmd[${#cmd[@]} - 1]="$out"
+    "${cmd[@]}"
+}
+
+# "seconds maxrss_kib" of one command, from GNU time.
+time_rss() {
+    /usr/bin/time -f "%e %M" -o "$work/time.txt" "$@" >/dev/null 2>&1
+    cat "$work/time.txt"
+}
+
+# Pages and a text digest of a PDF.
+pdf_digest() {
+    echo "$(pdfinfo "$1" 2>/dev/null | awk '/^Pages:/ { print $2 }' || true) pages, text $(pdftotext "$1" - 2>/dev/null | sha256sum | cut -c1-12)"
+}
+
+load() { echo "# $(date -u +%H:%M) UTC, load:$(uptime | sed 's/.*load average://')"; }
+
+case "$what" in
+template)
+    pairs="${1:-11}"
+    load
+    echo "job | old ms | new ms | new/old | pages and text"
+    for job in jobs/*.kdl; do
+        name=$(basename "$job" .kdl)
+        [ "$name" = shop ] && continue
+        emit "$job" "$work/old" old
+        emit "$job" "$work/new" new
+        old_side() { compile "$work/old" "$work/old.pdf"; }
+        new_side() { compile "$work/new" "$work/new.pdf"; }
+        alternate "$pairs" old_side new_side
+        a=$(median <"$work/a")
+        b=$(median <"$work/b")
+        same="differ: old $(pdf_digest "$work/old.pdf"), new $(pdf_digest "$work/new.pdf")"
+        [ "$(pdf_digest "$work/old.pdf")" = "$(pdf_digest "$work/new.pdf")" ] && same="same: $(pdf_digest "$work/new.pdf")"
+        echo "$name | $a | $b | $(awk -v a="$a" -v b="$b" 'BEGIN { printf "%.2f", b / a }') | $same"
+    done
+    ;;
+overhead)
+    pairs="${1:-11}"
+    load
+    echo "job | render ms | bare typst ms | render/typst"
+    for job in jobs/*.kdl; do
+        name=$(basename "$job" .kdl)
+        [ "$name" = shop ] && continue
+        emit "$job" "$work/new" new
+        render_side() { "$bin" render "$job" -o "$work/r.pdf" --force; }
+        typst_side() { compile "$work/new" "$work/t.pdf"; }
+        alternate "$pairs" render_side typst_side
+        a=$(median <"$work/a")
+        b=$(median <"$work/b")
+        echo "$name | $a | $b | $(awk -v a="$a" -v b="$b" 'BEGIN { printf "%.3f", a / b }')"
+    done
+    ;;
+size)
+    sets=("$@")
+    [ ${#sets[@]} = 0 ] && sets=(10 30 100 300)
+    load
+    echo "sets | side | typst s | per set ms | typst max RSS MiB | pages"
+    for n in "${sets[@]}"; do
+        bash scripts/gen-job.sh "$n" >"$work/job-$n.kdl"
+        for side in old new; do
+            [ "$side" = old ] && [ "$n" -gt "${OLD_MAX_SETS:-100}" ] && continue
+            emit "$work/job-$n.kdl" "$work/$side-$n" "$side"
+            read -ra cmd <"$work/$side-$n.cmd"
+            cmd[0]="$typst"
+            cmd[${#cmd[@]} - 1]="$work/$side-$n.pdf"
+            read -r secs rss < <(time_rss "${cmd[@]}")
+            pages=$(pdfinfo "$work/$side-$n.pdf" 2>/dev/null | awk '/^Pages:/ { print $2 }' || true)
+            echo "$n | $side | $secs | $(awk -v s="$secs" -v n="$n" 'BEGIN { printf "%.0f", s * 1000 / n }') | $((rss / 1024)) | $pages"
+            rm -rf "$work/$side-$n"
+        done
+    done
+    ;;
+own)
+    n="${1:-1000}"
+    load
+    bash scripts/gen-job.sh "$n" >"$work/job.kdl"
+    for i in 1 2 3 4 5; do
+        "$root/target/release/examples/phases" "$work/job.kdl"
+    done
+    ;;
+batch)
+    jobs="${1:-200}"
+    load
+    mkdir -p "$work/batch"
+    i=0
+    while [ "$i" -lt "$jobs" ]; do
+        for job in jobs/combo-el84-cathode.kdl jobs/head-el34-quad.kdl jobs/stereo-el84-hifi.kdl jobs/combo-6v6-fixed.kdl; do
+            [ "$i" -ge "$jobs" ] && break
+            sed "s/^job id=\"[^\"]*\"/job id=\"B-$i\"/" "$job" >"$work/batch/job-$i.kdl"
+            i=$((i + 1))
+        done
+    done
+    cp jobs/shop.kdl jobs/larkmoor-logo.svg "$work/batch/"
+    for n in 1 2 2 1; do
+        t=$(ms "$bin" render "$work/batch" -j "$n" --force --quiet)
+        echo "-j $n: $jobs jobs in $t ms"
+    done
+    echo "cores: $(nproc)"
+    ;;
+noop)
+    jobs="${1:-1000}"
+    load
+    mkdir -p "$work/noop"
+    for i in $(seq "$jobs"); do
+        sed "s/^job id=\"[^\"]*\"/job id=\"N-$i\"/" jobs/combo-el84-cathode.kdl >"$work/noop/job-$i.kdl"
+    done
+    cp jobs/shop.kdl jobs/larkmoor-logo.svg "$work/noop/"
+    # The first pass is typeset by a stand-in that copies a real document
+    # (the no-op pass costs the same whatever made the PDFs; it runs the
+    # stand-in's --version, a shell script, where a real typst's takes a
+    # few milliseconds more: measured on its own below).
+    "$bin" render jobs/combo-el84-cathode.kdl -o "$work/real.pdf" --force >/dev/null 2>&1
+    cat >"$work/stand-in" <<EOF
+#!/bin/sh
+if [ "\$1" = --version ]; then echo 'typst 0.15.1 (stand-in)'; exit 0; fi
+for a in "\$@"; do out=\$a; done
+cp '$work/real.pdf' "\$out"
+EOF
+    chmod +x "$work/stand-in"
+    t=$(ms "$bin" render "$work/noop" --typst "$work/stand-in" --quiet)
+    echo "first pass (stand-in typst): $jobs jobs in $t ms"
+    for i in 1 2 3; do
+        t=$(ms "$bin" render "$work/noop" --typst "$work/stand-in" --quiet)
+        echo "no-op pass: $jobs unchanged jobs in $t ms"
+    done
+    echo "typst --version on its own: $(ms "$typst" --version) ms"
+    ;;
+watch)
+    saves="${1:-7}"
+    load
+    mkdir -p "$work/w"
+    cp jobs/combo-el84-cathode.kdl jobs/shop.kdl jobs/larkmoor-logo.svg "$work/w/"
+    job="$work/w/combo-el84-cathode.kdl"
+    pdf="$work/w/combo-el84-cathode.pdf"
+    emit "$job" "$work/wsrc" new
+    "$bin" watch "$job" >"$work/watch.log" 2>&1 &
+    watcher=$!
+    while ! grep -q rendered "$work/watch.log" 2>/dev/null; do sleep 0.05; done
+    sleep 0.5
+    : >"$work/a"
+    : >"$work/b"
+    for i in $(seq "$saves"); do
+        before=$(stat -c %Y.%N "$pdf" 2>/dev/null || true)
+        before=$(sha256sum "$pdf" | cut -c1-16)
+        t0=$(now_ns)
+        sed -i "s/^job id=\"\([^\"]*\)\"/job id=\"W-$i\"/" "$job"
+        while [ "$(sha256sum "$pdf" | cut -c1-16)" = "$before" ]; do sleep 0.005; done
+        t1=$(now_ns)
+        echo $(((t1 - t0) / 1000000)) >>"$work/a"
+        sleep 0.3
+        emit "$job" "$work/wsrc" new
+        ms compile "$work/wsrc" "$work/w.pdf" >>"$work/b"
+    done
+    kill -INT "$watcher"
+    wait "$watcher" || true
+    a=$(median <"$work/a")
+    b=$(median <"$work/b")
+    echo "save to new PDF in place: median $a ms over $saves saves ($(tr '\n' ' ' <"$work/a")ms)"
+    echo "typst compile of the same job: median $b ms"
+    echo "watch's own share: $((a - b)) ms (target: at most 150 ms)"
+    ;;
+*)
+    sed -n '2,20p' "$0"
+    exit 2
+    ;;
+esac

@@ -1,0 +1,238 @@
+//! Rendering many jobs at once: a pool of `-j N` worker threads (rayon),
+//! each driving one typst at a time through the one-job pipeline
+//! ([`super::render::render_one`]). A failing job never stops the others;
+//! each job's diagnostics print as one block when it ends, with a line
+//! saying how it ended, and a summary closes the run (rendered, unchanged,
+//! failed with the first error of each). Exit status 1 when any job
+//! failed; on a stop signal the jobs running end cleanly, no new one
+//! starts, and the process ends as the signal would end it.
+//!
+//! On a terminal a progress bar (`indicatif`) stands under the lines;
+//! elsewhere, or with `NO_COLOR`, `TERM=dumb` or `--quiet`, there are only
+//! the lines. `--quiet` leaves out the lines of jobs rendered or unchanged
+//! and the warnings, as it leaves out "wrote" lines and warnings
+//! elsewhere; failures and the summary still print.
+
+use std::io::IsTerminal;
+use std::sync::Mutex;
+use std::time::{Duration, Instant};
+
+use indicatif::{ProgressBar, ProgressDrawTarget, ProgressStyle};
+use rayon::prelude::*;
+
+/// Each render worker's stack: that of the main thread on Linux.
+const WORKER_STACK: usize = 8 * 1024 * 1024;
+
+use super::exit::Exit;
+use super::render::{JobReport, Outcome, Plan, Setup, render_one};
+use crate::typeset::interrupt;
+
+/// The number of worker threads by default: the machine's cores.
+pub fn default_workers() -> usize {
+    std::thread::available_parallelism().map_or(1, usize::from)
+}
+
+/// How a finished job is told: on a progress bar, or in plain lines.
+struct Progress {
+    bar: Option<ProgressBar>,
+    quiet: bool,
+}
+
+/// A progress bar only on a terminal, and not with `NO_COLOR`, `TERM=dumb`
+/// or `--quiet`.
+fn bar_wanted(terminal: bool, no_color: Option<&str>, term: Option<&str>, quiet: bool) -> bool {
+    terminal && no_color.is_none_or(str::is_empty) && term != Some("dumb") && !quiet
+}
+
+impl Progress {
+    fn new(total: usize, quiet: bool) -> Self {
+        let no_color = std::env::var("NO_COLOR").ok();
+        let term = std::env::var("TERM").ok();
+        let wanted = bar_wanted(
+            std::io::stderr().is_terminal(),
+            no_color.as_deref(),
+            term.as_deref(),
+            quiet,
+        );
+        let bar = wanted.then(|| {
+            let bar = ProgressBar::with_draw_target(
+                Some(total as u64),
+                ProgressDrawTarget::stderr_with_hz(8),
+            );
+            bar.set_style(
+                ProgressStyle::with_template("{bar:30} {pos}/{len} jobs, {elapsed} {msg}")
+                    .unwrap_or_else(|_| ProgressStyle::default_bar())
+                    .progress_chars("=> "),
+            );
+            bar
+        });
+        Progress { bar, quiet }
+    }
+
+    /// Prints what a job said and how it ended, above the bar if there is
+    /// one.
+    fn finished(&self, plan: &Plan, report: &JobReport) {
+        let print = || {
+            report.said.print();
+            if !self.quiet || report.outcome == Outcome::Failed {
+                println!("{}", outcome_line(plan, report));
+            }
+        };
+        match &self.bar {
+            Some(bar) => {
+                bar.suspend(print);
+                bar.inc(1);
+            }
+            None => print(),
+        }
+    }
+
+    fn done(&self) {
+        if let Some(bar) = &self.bar {
+            bar.finish_and_clear();
+        }
+    }
+}
+
+/// One line per job: "rendered jobs/a.kdl → jobs/a.pdf in 1.24 s",
+/// "unchanged jobs/b.pdf", "failed jobs/c.kdl: the first error".
+fn outcome_line(plan: &Plan, report: &JobReport) -> String {
+    match report.outcome {
+        Outcome::Rendered => format!(
+            "rendered {} → {} in {}",
+            plan.job.path.display(),
+            plan.output.display(),
+            seconds(report.elapsed)
+        ),
+        Outcome::Unchanged => format!("unchanged {}", plan.output.display()),
+        Outcome::Failed => format!(
+            "failed {}: {}",
+            plan.job.path.display(),
+            report.said.first_error().unwrap_or("see above")
+        ),
+    }
+}
+
+/// "0.84 s", "12.3 s".
+pub fn seconds(d: Duration) -> String {
+    let s = d.as_secs_f64();
+    if s < 10.0 {
+        format!("{s:.2} s")
+    } else {
+        format!("{s:.1} s")
+    }
+}
+
+/// Renders every job of `setup` and prints the summary.
+pub fn run(setup: &Setup<'_>) -> Exit {
+    let workers = setup
+        .args
+        .parallel
+        .map_or_else(default_workers, usize::from)
+        .min(setup.plans.len().max(1));
+    let pool = match rayon::ThreadPoolBuilder::new()
+        .num_threads(workers)
+        .thread_name(|i| format!("ampreport-render-{i}"))
+        // Jobs are read on these threads. The `kdl` crate's parser recurses
+        // once per nesting level, and the depth check lets through what an
+        // 8 MiB main thread reads safely (`kdl_fast::MAX_FALLBACK_DEPTH`);
+        // a worker gets the same stack, not the 2 MiB default, or a deeply
+        // nested job aborts the whole batch.
+        .stack_size(WORKER_STACK)
+        .build()
+    {
+        Ok(pool) => pool,
+        Err(e) => {
+            eprintln!("error: could not start {workers} worker threads: {e}");
+            return Exit::Environment;
+        }
+    };
+    let start = Instant::now();
+    let progress = Progress::new(setup.plans.len(), !super::ui::chatty());
+    let reports: Mutex<Vec<Option<JobReport>>> =
+        Mutex::new((0..setup.plans.len()).map(|_| None).collect());
+    pool.install(|| {
+        setup
+            .plans
+            .par_iter()
+            .enumerate()
+            .with_max_len(1)
+            .for_each(|(i, plan)| {
+                if interrupt::received().is_some() {
+                    return;
+                }
+                let report = render_one(setup, plan);
+                progress.finished(plan, &report);
+                if let Ok(mut all) = reports.lock() {
+                    all[i] = Some(report);
+                }
+            });
+    });
+    progress.done();
+    let reports = reports.into_inner().unwrap_or_default();
+    let summary = Summary::of(&setup.plans, &reports, start.elapsed());
+    print!("{}", summary.text);
+    if let Some(signal) = interrupt::received() {
+        return Exit::Interrupted(signal);
+    }
+    if summary.failed > 0 {
+        Exit::InvalidInput
+    } else {
+        Exit::Success
+    }
+}
+
+/// The closing summary of a batch.
+struct Summary {
+    failed: usize,
+    text: String,
+}
+
+impl Summary {
+    fn of(plans: &[Plan], reports: &[Option<JobReport>], elapsed: Duration) -> Self {
+        let count = |o: Outcome| reports.iter().flatten().filter(|r| r.outcome == o).count();
+        let (rendered, unchanged, failed) = (
+            count(Outcome::Rendered),
+            count(Outcome::Unchanged),
+            count(Outcome::Failed),
+        );
+        let not_run = reports.iter().filter(|r| r.is_none()).count();
+        let mut text = format!(
+            "\n{} job{} in {}: {rendered} rendered, {unchanged} unchanged, {failed} failed",
+            plans.len(),
+            if plans.len() == 1 { "" } else { "s" },
+            seconds(elapsed)
+        );
+        if not_run > 0 {
+            text.push_str(&format!(", {not_run} not started (stopped)"));
+        }
+        text.push('\n');
+        for (plan, report) in plans.iter().zip(reports) {
+            if let Some(report) = report
+                && report.outcome == Outcome::Failed
+            {
+                text.push_str(&format!(
+                    "  failed {}: {}\n",
+                    plan.job.path.display(),
+                    report.said.first_error().unwrap_or("no message")
+                ));
+            }
+        }
+        Summary { failed, text }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn the_bar_is_drawn_only_on_a_terminal_without_no_color_or_quiet() {
+        assert!(bar_wanted(true, None, Some("xterm"), false));
+        assert!(bar_wanted(true, Some(""), None, false));
+        assert!(!bar_wanted(false, None, Some("xterm"), false));
+        assert!(!bar_wanted(true, Some("1"), Some("xterm"), false));
+        assert!(!bar_wanted(true, None, Some("dumb"), false));
+        assert!(!bar_wanted(true, None, Some("xterm"), true));
+    }
+}

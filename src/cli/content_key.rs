@@ -1,0 +1,360 @@
+//! Incremental rendering: a content key over everything that decides the
+//! bytes of a job's PDF, and a small manifest beside the PDF recording the
+//! key it was made from and the PDF's own hash. `render` skips a job whose
+//! manifest matches both; any change to any input, or to the PDF, renders
+//! it again.
+//!
+//! The key is a BLAKE3 hash over, each with its name and length:
+//!
+//! * this program: its version and the digest of its sources, templates,
+//!   ratings table and lock file worked out at build time
+//!   (`AMPREPORT_PROGRAM_DIGEST`), and the bundled fonts' digest;
+//! * the typst program: the version it reported and the bytes of the
+//!   program file;
+//! * the options that change the document (the PDF standard);
+//! * every `--ratings` file's bytes, in order;
+//! * every file of the `--templates` folder, by path, with its bytes;
+//! * the job file's text as it was read for this render;
+//! * the shop profile and its logo, the job's photos and the commit its
+//!   git repository stands at ([`JobKey::file`], fed by `render`).
+//!
+//! The manifest is `.NAME.ampreport-key` beside `NAME` (the PDF): three
+//! lines, the format, the key and the BLAKE3 hash of the PDF. It is
+//! written after the PDF is in place; a missing, unreadable or different
+//! manifest just means the job is rendered.
+
+use std::path::{Path, PathBuf};
+
+/// The first line of a manifest.
+const MANIFEST_HEADER: &str = "ampreport content key 1";
+
+/// What the manifest's name ends in.
+pub const MANIFEST_SUFFIX: &str = ".ampreport-key";
+
+/// The hash of a run's shared inputs; each job's key starts from it.
+#[derive(Debug, Clone)]
+pub struct RunKey {
+    hasher: blake3::Hasher,
+}
+
+/// The inputs shared by every job of one run.
+#[derive(Debug, Clone, Default)]
+pub struct RunInputs<'a> {
+    /// This program's version and source digest.
+    pub program: (&'a str, &'a str),
+    /// The bundled fonts' digest.
+    pub fonts: &'a str,
+    /// The version typst reported.
+    pub typst_version: &'a str,
+    /// The typst program file.
+    pub typst_path: Option<&'a Path>,
+    /// The `--ratings` files, in order.
+    pub ratings: &'a [PathBuf],
+    /// The `--templates` folder.
+    pub templates: Option<&'a Path>,
+    /// Options that change the document, as `name=value` words.
+    pub options: &'a [String],
+}
+
+/// An input could not be read for the key: the job cannot be skipped.
+#[derive(Debug, thiserror::Error)]
+#[error("could not read {path} for the content key: {source}")]
+pub struct KeyError {
+    pub path: PathBuf,
+    #[source]
+    pub source: std::io::Error,
+}
+
+/// Feeds one named piece into the hash, framed so no two different
+/// sequences of pieces hash alike.
+fn feed(hasher: &mut blake3::Hasher, name: &str, bytes: &[u8]) {
+    hasher.update(&(name.len() as u64).to_le_bytes());
+    hasher.update(name.as_bytes());
+    hasher.update(&(bytes.len() as u64).to_le_bytes());
+    hasher.update(bytes);
+}
+
+fn read(path: &Path) -> Result<Vec<u8>, KeyError> {
+    std::fs::read(path).map_err(|source| KeyError {
+        path: path.to_path_buf(),
+        source,
+    })
+}
+
+impl RunKey {
+    /// The program's own identity, from the build.
+    pub fn program() -> (&'static str, &'static str) {
+        (env!("CARGO_PKG_VERSION"), env!("AMPREPORT_PROGRAM_DIGEST"))
+    }
+
+    /// Hashes the shared inputs, reading the files they name.
+    pub fn new(inputs: &RunInputs<'_>) -> Result<Self, KeyError> {
+        let mut h = blake3::Hasher::new();
+        feed(&mut h, "format", MANIFEST_HEADER.as_bytes());
+        feed(&mut h, "ampreport version", inputs.program.0.as_bytes());
+        feed(&mut h, "ampreport sources", inputs.program.1.as_bytes());
+        feed(&mut h, "fonts", inputs.fonts.as_bytes());
+        feed(&mut h, "typst version", inputs.typst_version.as_bytes());
+        match inputs.typst_path {
+            Some(path) => feed(&mut h, "typst program", &read(path)?),
+            None => feed(&mut h, "no typst program", b""),
+        }
+        for option in inputs.options {
+            feed(&mut h, "option", option.as_bytes());
+        }
+        for path in inputs.ratings {
+            feed(&mut h, "ratings file", &read(path)?);
+        }
+        match inputs.templates {
+            Some(dir) => {
+                let mut files = Vec::new();
+                folder_files(dir, Path::new(""), &mut files)?;
+                files.sort();
+                feed(&mut h, "templates", &(files.len() as u64).to_le_bytes());
+                for relative in files {
+                    let name = relative.to_string_lossy().into_owned();
+                    feed(&mut h, "template path", name.as_bytes());
+                    feed(&mut h, "template bytes", &read(&dir.join(&relative))?);
+                }
+            }
+            None => feed(&mut h, "built-in templates", b""),
+        }
+        Ok(RunKey { hasher: h })
+    }
+
+    /// A job's key, starting from the shared inputs.
+    pub fn job(&self, job_text: &str) -> JobKey {
+        let mut hasher = self.hasher.clone();
+        feed(&mut hasher, "job", job_text.as_bytes());
+        JobKey { hasher }
+    }
+}
+
+/// Every file under `dir` (relative paths); links and special files are
+/// listed by name only (the render refuses them anyway).
+fn folder_files(root: &Path, below: &Path, out: &mut Vec<PathBuf>) -> Result<(), KeyError> {
+    let dir = root.join(below);
+    let failed = |source| KeyError {
+        path: dir.clone(),
+        source,
+    };
+    for entry in std::fs::read_dir(&dir).map_err(failed)? {
+        let entry = entry.map_err(failed)?;
+        let relative = below.join(entry.file_name());
+        let kind = entry.file_type().map_err(failed)?;
+        if kind.is_dir() {
+            folder_files(root, &relative, out)?;
+        } else if kind.is_file() {
+            out.push(relative);
+        } else {
+            return Err(KeyError {
+                path: root.join(relative),
+                source: std::io::Error::other("not a regular file"),
+            });
+        }
+    }
+    Ok(())
+}
+
+/// One job's key while its inputs are added.
+#[derive(Debug, Clone)]
+pub struct JobKey {
+    hasher: blake3::Hasher,
+}
+
+impl JobKey {
+    /// Adds another file the job's document is made from (its shop
+    /// profile, the logo, a photo), by role, with the bytes that were used.
+    pub fn file(&mut self, role: &str, bytes: &[u8]) {
+        feed(&mut self.hasher, role, bytes);
+    }
+
+    /// Adds the absence of an optional input, so that adding it later
+    /// changes the key.
+    pub fn none(&mut self, role: &str) {
+        feed(&mut self.hasher, "none", role.as_bytes());
+    }
+
+    /// The key, as 64 hex digits.
+    pub fn finish(&self) -> String {
+        self.hasher.finalize().to_hex().to_string()
+    }
+}
+
+/// Where the manifest of `output` lives: `.NAME.ampreport-key` beside it.
+pub fn manifest_path(output: &Path) -> PathBuf {
+    let name = output
+        .file_name()
+        .map(|n| n.to_string_lossy().into_owned())
+        .unwrap_or_default();
+    output.with_file_name(format!(".{name}{MANIFEST_SUFFIX}"))
+}
+
+/// The manifest's text for a PDF made from `key`.
+fn manifest_text(key: &str, pdf: &[u8]) -> String {
+    format!(
+        "{MANIFEST_HEADER}\nkey {key}\npdf {}\n",
+        blake3::hash(pdf).to_hex()
+    )
+}
+
+/// True when `output` is a regular file made from exactly `key`: the
+/// manifest names the key, and the PDF's hash is the one recorded.
+pub fn up_to_date(output: &Path, key: &str) -> bool {
+    let Ok(recorded) = std::fs::read_to_string(manifest_path(output)) else {
+        return false;
+    };
+    let mut lines = recorded.lines();
+    if lines.next() != Some(MANIFEST_HEADER) || lines.next() != Some(&format!("key {key}")) {
+        return false;
+    }
+    let Some(pdf_hash) = lines.next().and_then(|l| l.strip_prefix("pdf ")) else {
+        return false;
+    };
+    match std::fs::symlink_metadata(output) {
+        Ok(meta) if meta.file_type().is_file() => {}
+        _ => return false,
+    }
+    std::fs::read(output).is_ok_and(|bytes| blake3::hash(&bytes).to_hex().as_str() == pdf_hash)
+}
+
+/// Records that the PDF now at `output` was made from `key`. Written
+/// atomically; a failure leaves no manifest, so the next run renders.
+pub fn record(output: &Path, key: &str) -> std::io::Result<()> {
+    let manifest = manifest_path(output);
+    let pdf = std::fs::read(output)?;
+    crate::typeset::write_small_file(&manifest, manifest_text(key, &pdf).as_bytes())
+}
+
+/// Removes the manifest of `output`, so a PDF that is no longer what the
+/// key says is never taken as up to date.
+pub fn forget(output: &Path) {
+    let _ = std::fs::remove_file(manifest_path(output));
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn inputs<'a>(ratings: &'a [PathBuf], options: &'a [String]) -> RunInputs<'a> {
+        RunInputs {
+            program: ("0.1.0", "abc"),
+            fonts: "f0",
+            typst_version: "0.15.1",
+            typst_path: None,
+            ratings,
+            templates: None,
+            options,
+        }
+    }
+
+    #[test]
+    fn every_shared_input_changes_the_key() {
+        let base = RunKey::new(&inputs(&[], &[])).unwrap().job("job").finish();
+        let changed = [
+            RunInputs {
+                program: ("0.1.1", "abc"),
+                ..inputs(&[], &[])
+            },
+            RunInputs {
+                program: ("0.1.0", "abd"),
+                ..inputs(&[], &[])
+            },
+            RunInputs {
+                fonts: "f1",
+                ..inputs(&[], &[])
+            },
+            RunInputs {
+                typst_version: "0.15.2",
+                ..inputs(&[], &[])
+            },
+        ];
+        for c in &changed {
+            assert_ne!(RunKey::new(c).unwrap().job("job").finish(), base, "{c:?}");
+        }
+        let options = ["pdf-standard=none".to_string()];
+        assert_ne!(
+            RunKey::new(&inputs(&[], &options))
+                .unwrap()
+                .job("job")
+                .finish(),
+            base
+        );
+        assert_ne!(
+            RunKey::new(&inputs(&[], &[])).unwrap().job("job ").finish(),
+            base
+        );
+        // The same inputs give the same key.
+        assert_eq!(
+            RunKey::new(&inputs(&[], &[])).unwrap().job("job").finish(),
+            base
+        );
+    }
+
+    #[test]
+    fn files_count_by_content_and_framing_keeps_pieces_apart() {
+        let dir = tempfile::tempdir().unwrap();
+        let r = dir.path().join("r.kdl");
+        std::fs::write(&r, "valve \"X\" {}").unwrap();
+        let ratings = [r.clone()];
+        let one = RunKey::new(&inputs(&ratings, &[]))
+            .unwrap()
+            .job("j")
+            .finish();
+        std::fs::write(&r, "valve \"Y\" {}").unwrap();
+        let two = RunKey::new(&inputs(&ratings, &[]))
+            .unwrap()
+            .job("j")
+            .finish();
+        assert_ne!(one, two);
+
+        let run = RunKey::new(&inputs(&[], &[])).unwrap();
+        let mut a = run.job("j");
+        a.file("shop profile", b"ab");
+        a.none("logo");
+        let mut b = run.job("j");
+        b.file("shop profile", b"a");
+        b.file("b", b"");
+        assert_ne!(a.finish(), b.finish());
+
+        let templates = tempfile::tempdir().unwrap();
+        std::fs::write(templates.path().join("handover.typ"), "x").unwrap();
+        let with = |dir| RunInputs {
+            templates: Some(dir),
+            ..inputs(&[], &[])
+        };
+        let t1 = RunKey::new(&with(templates.path()))
+            .unwrap()
+            .job("j")
+            .finish();
+        std::fs::create_dir(templates.path().join("images")).unwrap();
+        std::fs::write(templates.path().join("images/logo.png"), "p").unwrap();
+        let t2 = RunKey::new(&with(templates.path()))
+            .unwrap()
+            .job("j")
+            .finish();
+        assert_ne!(t1, t2);
+        assert_ne!(
+            t1,
+            RunKey::new(&inputs(&[], &[])).unwrap().job("j").finish()
+        );
+    }
+
+    #[test]
+    fn the_manifest_matches_only_its_key_and_its_pdf() {
+        let dir = tempfile::tempdir().unwrap();
+        let pdf = dir.path().join("a.pdf");
+        assert!(!up_to_date(&pdf, "k"));
+        std::fs::write(&pdf, b"%PDF-1.7 one").unwrap();
+        record(&pdf, "k").unwrap();
+        assert_eq!(manifest_path(&pdf), dir.path().join(".a.pdf.ampreport-key"));
+        assert!(up_to_date(&pdf, "k"));
+        assert!(!up_to_date(&pdf, "other"));
+        std::fs::write(&pdf, b"%PDF-1.7 two").unwrap();
+        assert!(!up_to_date(&pdf, "k"));
+        record(&pdf, "k").unwrap();
+        assert!(up_to_date(&pdf, "k"));
+        forget(&pdf);
+        assert!(!up_to_date(&pdf, "k"));
+    }
+}
