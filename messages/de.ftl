@@ -617,3 +617,78 @@ diag-unit-wrong = "{ $symbol }" ist eine Einheit für etwas anderes ({ $found })
 diag-unit-rkm = der RKM-Buchstabe R markiert das Komma eines Widerstands, hier gehört aber { $expected } hin
 diag-unit-no-prefix = { $expected } nimmt keinen SI-Vorsatz
 diag-unit-not-finite = der Wert ist zu groß für einen Messwert
+
+diag-given-more-than-once = `{ $name }` steht mehr als einmal da
+diag-merge-nodes = eine Auftragsdatei hat einen Knoten `{ $name }`; die Knoten zusammenführen
+diag-format-too-new = diese Auftragsdatei verwendet Format { $found }, aber dieses ampreport liest höchstens Format { $known }
+diag-format-version = Formatversion
+diag-update-program = ampreport aktualisieren, um diese Datei zu lesen
+diag-format-needs-version = `job-format` braucht die Versionsnummer
+diag-version-missing = Version fehlt
+diag-write-format = `job-format 1` schreiben
+diag-no-format = die Auftragsdatei sagt nicht, welches Format sie verwendet
+diag-start-of-file = Dateianfang
+diag-begin-with-format = die Datei mit `job-format 1` beginnen
+diag-no-node = die Auftragsdatei hat keinen Knoten `{ $name }`
+diag-add = ergänzen: { $example }
+diag-two-final-sets = mehr als eine Messreihe ist als `final` markiert
+diag-second-final = eine zweite letzte Messreihe
+diag-two-final-help = die letzte Messreihe ist der Zustand, in dem das Gerät übergeben wird: nur eine markieren
+diag-repeated-set = es gibt zwei Messreihen mit der Bezeichnung "{ $label }"
+diag-repeated-label = wiederholte Bezeichnung
+diag-dates-out-of-order = der Auftrag ist abgeschlossen ({ $completed }), bevor er eingegangen ist ({ $received })
+diag-completed-before = vor dem Eingang abgeschlossen
+diag-given-twice = `{ $name }` steht zweimal da
+diag-wide-tolerance = eine Toleranz der Versorgung von { $pct }% ist ungewöhnlich weit
+diag-unusual = ungewöhnlich
+diag-unusual-mains = { $volts } V ist keine übliche Netzspannung
+diag-unusual-mains-label = ungewöhnliche Nennspannung
+diag-unknown-role = unbekannte Röhrenfunktion `{ $name }`
+diag-expected-role = Funktion erwartet
+diag-valve-needs-role = `valve` braucht eine Eigenschaft `role`
+diag-role-missing = Funktion fehlt
+diag-one-of = eines von: { $names }
+diag-position-twice = die Röhrenposition { $position } steht zweimal da
+diag-unknown-bias = unbekannte Vorspannungsart `{ $name }`
+diag-expected-bias = cathode oder fixed erwartet
+diag-large-sense = ein Messwiderstand von { $value } ist ungewöhnlich groß
+diag-sense-help = Messwiderstände haben meist 1 Ω oder 10 Ω
+diag-node-declared-twice = der Knoten { $name } ist zweimal angegeben
+diag-needs-voltage = `{ $name }` braucht die gemessene Spannung
+diag-voltage-missing = Spannung fehlt
+diag-node-read-twice = der Knoten { $name } ist in dieser Messreihe zweimal gemessen
+diag-type-twice = der Typ von { $position } steht in dieser Messreihe zweimal da
+diag-valve-read-twice = die Röhre { $position } ist in dieser Messreihe zweimal gemessen
+diag-warm-up-help = Messwerte zu Zeitpunkten während des Aufwärmens gehören in einen Block `warm-up` mit `after=`
+diag-warm-up-type = ein Messwert beim Aufwärmen kann den Röhrentyp nicht ändern
+diag-not-here = nicht hier
+diag-warm-up-type-help = den Typ der Messreihe in ihrer eigenen Zeile `valve` angeben
+diag-warm-up-time = ein Messwert beim Aufwärmen braucht die Zeit seit dem Einschalten
+diag-time-missing = Zeit fehlt
+diag-warm-up-nothing = ein Messwert beim Aufwärmen braucht etwas Gemessenes (cathode, sense, primary-drop oder current)
+diag-nothing-read = nichts gemessen
+diag-read-twice-same-time = { $position } ist zweimal zur selben Zeit gemessen
+diag-unknown-method = unbekannte Strommessart `{ $name }`
+diag-expected-method = probe oder shunt erwartet
+diag-method-help = probe: ein Messadapter unter der Röhre (Kathodenstrom); shunt: ein Strommesser über der halben Primärwicklung (Anodenstrom)
+diag-current-needs-method = ein direkt gemessener Strom braucht seine Messart
+diag-method-missing = Messart fehlt
+diag-add-method = method=probe (Messadapter: Kathodenstrom) oder method=shunt (Nebenschluss über der halben Primärwicklung: Anodenstrom) ergänzen
+diag-method-without-current = `method` steht ohne `current` da
+diag-no-current = kein Strom dazu
+
+## Die übrigen Meldungen im Terminal (src/cli), in der Sprache des
+## Werkstattprofils, sobald es gelesen ist; die Schlusszeile eines Stapels
+## in der Sprache, die alle seine Aufträge teilen, sonst Englisch.
+
+cli-rendered = erstellt { $job } → { $output } in { $time }
+cli-unchanged = unverändert { $output }
+cli-failed = fehlgeschlagen { $job }: { $error }
+cli-see-above = siehe oben
+cli-no-message = keine Meldung
+cli-summary = { $jobs ->
+        [one] 1 Auftrag
+       *[other] { $jobs } Aufträge
+    } in { $time }: { $rendered } erstellt, { $unchanged } unverändert, { $failed } fehlgeschlagen
+cli-summary-stopped = , { $count } nicht begonnen (angehalten)
+cli-watch-failed = fehlgeschlagen { $job } nach { $time }; { $output } blieb unverändert

@@ -617,3 +617,79 @@ diag-unit-wrong = "{ $symbol }" is the unit of { $found }, but { $expected } bel
 diag-unit-rkm = the RKM letter R marks the decimal point of a resistance, but { $expected } belongs here
 diag-unit-no-prefix = { $expected } takes no SI prefix
 diag-unit-not-finite = the value is too large to be a measurement
+
+diag-given-more-than-once = `{ $name }` is given more than once
+diag-merge-nodes = a job file has one `{ $name }` node; merge them
+diag-format-too-new = this job file uses format { $found }, but this ampreport reads format { $known } at most
+diag-format-version = format version
+diag-update-program = update ampreport to read this file
+diag-format-needs-version = `job-format` needs the version number
+diag-version-missing = version missing
+diag-write-format = write `job-format 1`
+diag-no-format = the job file does not say which format it uses
+diag-start-of-file = start of file
+diag-begin-with-format = begin the file with `job-format 1`
+diag-no-node = the job file has no `{ $name }` node
+diag-add = add: { $example }
+diag-two-final-sets = more than one measurement set is marked `final`
+diag-second-final = a second final set
+diag-two-final-help = the final set is the state the unit is handed over in: mark only one
+diag-repeated-set = there are two measurement sets labelled "{ $label }"
+diag-repeated-label = repeated label
+diag-dates-out-of-order = the job is completed ({ $completed }) before it was received ({ $received })
+diag-completed-before = completed before received
+diag-given-twice = `{ $name }` is given twice
+diag-wide-tolerance = a supply tolerance of { $pct }% is unusually wide
+diag-unusual = unusual
+diag-unusual-mains = { $volts } V is not a usual mains voltage
+diag-unusual-mains-label = unusual nominal mains
+diag-unknown-role = unknown valve role `{ $name }`
+diag-expected-role = expected a role
+diag-valve-needs-role = `valve` needs a `role` property
+diag-role-missing = role missing
+diag-one-of = one of: { $names }
+diag-position-twice = valve position { $position } is listed twice
+diag-unknown-bias = unknown bias kind `{ $name }`
+diag-expected-bias = expected cathode or fixed
+diag-large-sense = a { $value } sense resistor is unusually large
+diag-sense-help = sense resistors are usually 1 Ω or 10 Ω
+diag-node-declared-twice = node { $name } is declared twice
+diag-needs-voltage = `{ $name }` needs the voltage read
+diag-voltage-missing = voltage missing
+diag-node-read-twice = node { $name } is read twice in this set
+diag-type-twice = the type of { $position } is given twice in this set
+diag-valve-read-twice = valve { $position } is read twice in this set
+diag-warm-up-help = readings at times during a warm-up go in a `warm-up` block with `after=`
+diag-warm-up-type = a warm-up reading cannot change the valve's type
+diag-not-here = not here
+diag-warm-up-type-help = give the set's type on the set's own `valve` line
+diag-warm-up-time = a warm-up reading needs the time since power-on
+diag-time-missing = time missing
+diag-warm-up-nothing = a warm-up reading needs something read (cathode, sense, primary-drop or current)
+diag-nothing-read = nothing read
+diag-read-twice-same-time = { $position } is read twice at the same time
+diag-unknown-method = unknown current method `{ $name }`
+diag-expected-method = expected probe or shunt
+diag-method-help = probe: a bias probe under the valve (cathode current); shunt: an ammeter across half the primary (plate current)
+diag-current-needs-method = a current read directly needs its method
+diag-method-missing = method missing
+diag-add-method = add method=probe (bias probe: cathode current) or method=shunt (shunt across half the primary: plate current)
+diag-method-without-current = `method` is given without a `current`
+diag-no-current = no current to go with it
+
+## The terminal's other messages: what the commands say besides a job's
+## summary (src/cli), in the job's shop-profile language once it is read;
+## a batch's closing summary in the language all its jobs share, else
+## English. `time` is already written ("1.24 s").
+
+cli-rendered = rendered { $job } → { $output } in { $time }
+cli-unchanged = unchanged { $output }
+cli-failed = failed { $job }: { $error }
+cli-see-above = see above
+cli-no-message = no message
+cli-summary = { $jobs ->
+        [one] 1 job
+       *[other] { $jobs } jobs
+    } in { $time }: { $rendered } rendered, { $unchanged } unchanged, { $failed } failed
+cli-summary-stopped = , { $count } not started (stopped)
+cli-watch-failed = failed { $job } after { $time }; { $output } was left as it was

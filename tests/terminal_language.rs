@@ -143,3 +143,29 @@ fn the_profile_says_its_own_problems_in_the_language_it_names() {
     assert!(err.contains("did you mean `complaint`?"), "{err}");
     assert!(!err.contains("meinten Sie"), "{err}");
 }
+
+#[test]
+fn a_batch_says_how_each_job_ended_in_its_language() {
+    let job = broken_job();
+    let dir = folder(&job, "language \"de\"");
+    std::fs::write(dir.path().join("second.kdl"), &job).unwrap();
+    let o = run(dir.path(), &["render", "job.kdl", "second.kdl"]);
+    assert_eq!(o.status.code(), Some(1), "{}", stderr(&o));
+    let out = String::from_utf8_lossy(&o.stdout);
+    // Each job's line, then the summary, all in German; the first error of
+    // each job quoted at its place.
+    let place = at("job.kdl", &job, "\"2026-13-05\"");
+    for words in [
+        format!("fehlgeschlagen job.kdl: {place}: `received` \"2026-13-05\" ist kein gültiges Datum"),
+        "2 Aufträge in".to_string(),
+        ": 0 erstellt, 0 unverändert, 2 fehlgeschlagen".to_string(),
+    ] {
+        assert!(out.contains(&words), "{words} missing from:\n{out}");
+    }
+    assert!(!out.contains("failed"), "{out}");
+    // The same jobs without the shop: English, word for word as before.
+    let o = run(dir.path(), &["render", "--no-shop", "job.kdl", "second.kdl"]);
+    let out = String::from_utf8_lossy(&o.stdout);
+    assert!(out.contains("2 jobs in"), "{out}");
+    assert!(out.contains(": 0 rendered, 0 unchanged, 2 failed"), "{out}");
+}

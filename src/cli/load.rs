@@ -271,6 +271,8 @@ pub fn shop_profile(
         }
         None => (Catalogue::english().clone(), None),
     };
+    // From here on the job's messages are in the profile's language.
+    said.language = Some(catalogue.clone());
     Ok(Some(LoadedShop {
         profile: decoded.profile,
         found,
