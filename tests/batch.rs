@@ -265,6 +265,61 @@ fn a_commit_of_the_job_typesets_again() {
 }
 
 #[test]
+fn in_a_folder_made_ready_by_init_repo_git_sees_no_rendered_file() {
+    // What `init --repo` ignores covers everything a render leaves: the
+    // PDF, the listing's Markdown and photos, and each file's manifest.
+    let c = Counting::new();
+    let dir = &c.scene.dir;
+    if !git(dir, &["init", "-q"]) {
+        assert!(std::env::var_os("CI").is_none(), "git is needed under CI");
+        eprintln!("note: skipping: git cannot be run");
+        return;
+    }
+    let photos = dir.join("photos");
+    std::fs::create_dir(&photos).unwrap();
+    for name in ["parlour-twelve-before.jpg", "parlour-twelve-after.png"] {
+        std::fs::copy(
+            PathBuf::from(env!("CARGO_MANIFEST_DIR"))
+                .join("jobs/photos")
+                .join(name),
+            photos.join(name),
+        )
+        .unwrap();
+    }
+    std::fs::copy(support::demo("combo-6v6-fixed"), &c.scene.job).unwrap();
+    let out = c.command(&["init", "--repo", "."]).output().unwrap();
+    assert!(out.status.success(), "{}", stderr(&out));
+    assert!(c.typeset(&[]));
+    assert!(c.typeset(&["--listing"]));
+    assert!(dir.join(".job.listing.md.ampreport-key").is_file());
+    assert!(dir.join("job.listing-photo-1.jpg").is_file());
+    let status = Command::new("git")
+        .current_dir(dir)
+        .args(["status", "--porcelain", "--untracked-files=all"])
+        .env_remove("GIT_DIR")
+        .env_remove("GIT_WORK_TREE")
+        .env_remove("GIT_INDEX_FILE")
+        .output()
+        .unwrap();
+    let mut seen: Vec<String> = String::from_utf8_lossy(&status.stdout)
+        .lines()
+        .map(str::to_string)
+        .collect();
+    seen.sort();
+    assert_eq!(
+        seen,
+        [
+            "?? .gitattributes",
+            "?? .gitignore",
+            "?? job.kdl",
+            "?? photos/parlour-twelve-after.png",
+            "?? photos/parlour-twelve-before.jpg"
+        ],
+        "git would offer to commit rendered files"
+    );
+}
+
+#[test]
 fn a_change_to_a_ratings_file_typesets_again() {
     let c = Counting::new();
     let ratings = c.scene.root.path().join("own-ratings.kdl");
