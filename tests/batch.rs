@@ -789,3 +789,56 @@ fn watch_renders_on_save_keeps_the_last_good_pdf_and_stops_on_ctrl_c() {
         .collect();
     assert!(leftovers.is_empty(), "{leftovers:?}");
 }
+
+#[cfg(target_os = "linux")]
+#[test]
+fn watch_takes_no_read_of_its_own_for_a_save_and_renders_listings() {
+    // The watcher is also told of files being opened: the render's own
+    // reads of the job and its shop profile must not set off another
+    // render, over and over.
+    let c = Counting::new();
+    std::fs::write(
+        c.scene.dir.join("shop.kdl"),
+        "shop-format 1\nshop \"Test Bench\"\n",
+    )
+    .unwrap();
+    let log = c.scene.root.path().join("watch.out");
+    let mut child = c
+        .command(&[
+            "watch",
+            c.scene.job.to_str().unwrap(),
+            "--listing",
+            "--typst",
+            c.typst.to_str().unwrap(),
+        ])
+        .stdin(Stdio::null())
+        .stdout(std::fs::File::create(&log).unwrap())
+        .stderr(Stdio::null())
+        .spawn()
+        .unwrap();
+    let pid = child.id() as i32;
+    let limit = Duration::from_secs(30);
+    let said = || std::fs::read_to_string(&log).unwrap_or_default();
+    let count = |what: &str| said().lines().filter(|l| l.contains(what)).count();
+    assert!(
+        wait_until(limit, || count(" rendered ") == 1),
+        "the first render"
+    );
+    assert!(said().contains("job.listing.pdf"), "{}", said());
+    assert!(c.scene.dir.join("job.listing.md").is_file());
+    // Quiet for a while: nothing more is rendered or even looked at.
+    std::thread::sleep(Duration::from_millis(1500));
+    assert_eq!(count(" unchanged "), 0, "{}", said());
+    assert_eq!(count(" rendered "), 1, "{}", said());
+    // A save still renders.
+    let good = std::fs::read_to_string(&c.scene.job).unwrap();
+    std::fs::write(&c.scene.job, format!("{good}// saved\n")).unwrap();
+    assert!(wait_until(limit, || count(" rendered ") == 2), "{}", said());
+    std::thread::sleep(Duration::from_millis(1000));
+    assert_eq!(count(" unchanged "), 0, "{}", said());
+    assert_eq!(c.compiles(), 2);
+    // SAFETY: signals the child started above.
+    unsafe { libc::kill(pid, libc::SIGINT) };
+    let status = support::wait_with_limit(&mut child, limit);
+    assert_eq!(status.code(), Some(0));
+}
