@@ -156,7 +156,9 @@ fn a_batch_says_how_each_job_ended_in_its_language() {
     // each job quoted at its place.
     let place = at("job.kdl", &job, "\"2026-13-05\"");
     for words in [
-        format!("fehlgeschlagen job.kdl: {place}: `received` \"2026-13-05\" ist kein gültiges Datum"),
+        format!(
+            "fehlgeschlagen job.kdl: {place}: `received` \"2026-13-05\" ist kein gültiges Datum"
+        ),
         "2 Aufträge in".to_string(),
         ": 0 erstellt, 0 unverändert, 2 fehlgeschlagen".to_string(),
     ] {
@@ -164,7 +166,10 @@ fn a_batch_says_how_each_job_ended_in_its_language() {
     }
     assert!(!out.contains("failed"), "{out}");
     // The same jobs without the shop: English, word for word as before.
-    let o = run(dir.path(), &["render", "--no-shop", "job.kdl", "second.kdl"]);
+    let o = run(
+        dir.path(),
+        &["render", "--no-shop", "job.kdl", "second.kdl"],
+    );
     let out = String::from_utf8_lossy(&o.stdout);
     assert!(out.contains("2 jobs in"), "{out}");
     assert!(out.contains(": 0 rendered, 0 unchanged, 2 failed"), "{out}");
