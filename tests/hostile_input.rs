@@ -444,11 +444,16 @@ fn nesting_hidden_behind_comments_and_strings_is_still_counted() {
 #[test]
 fn nested_dashed_blocks_in_a_broken_file_get_the_first_error_promptly() {
     let dir = tempfile::tempdir().expect("temp dir");
-    for (what, level) in [
-        ("`a /- {`", "a /- {\n"),
-        ("`/-` on its own line", "a /-\n{\n"),
-        ("`/-` after a comment", "a /* c */ /- {\n"),
-        ("a `/-` node", "/- a /- {\n"),
+    // Each case: one level, and where the first error is (`None`: the `=`
+    // that opens the last line).
+    for (what, level, at) in [
+        ("`a /- {`", "a /- {\n", None),
+        ("`/-` on its own line", "a /-\n{\n", None),
+        ("`/-` after a comment", "a /* c */ /- {\n", None),
+        ("a `/-` node", "/- a /- {\n", None),
+        // `1` cannot start a node: the first error is on the first level.
+        ("a `/-` node that is not one", "a; /-1 /-{\n", Some("2:6")),
+        ("plain blocks after a broken node", "a; /-1{\n", Some("2:6")),
     ] {
         let depth = ampreport::kdl_fast::MAX_FALLBACK_DEPTH - 1;
         let text = format!("job-format 1\n{}= =\n", level.repeat(depth));
@@ -456,18 +461,17 @@ fn nested_dashed_blocks_in_a_broken_file_get_the_first_error_promptly() {
             text.len() < ampreport::kdl_fast::MAX_FALLBACK_SIZE,
             "{what}"
         );
-        let lines = 1 + depth * level.matches('\n').count();
+        let at = at.map_or_else(
+            || format!("{}:1", 2 + depth * level.matches('\n').count()),
+            str::to_string,
+        );
         std::fs::write(dir.path().join("dashed.kdl"), &text).expect("write");
         let run = run_with_deadline(dir.path(), &["check", "dashed.kdl"], LIMIT);
         assert_eq!(run.status, Some(1), "{what}: {}", run.stderr);
-        // The first place the text stops being KDL: the `=` that opens
-        // the last line.
         assert!(
-            run.stderr
-                .contains(&format!("[dashed.kdl:{}:1]", lines + 1))
-                && run
-                    .stderr
-                    .contains("commented out with `/-` nest more than"),
+            run.stderr.contains(&format!("[dashed.kdl:{at}]"))
+                && run.stderr.contains("the text stops being KDL here")
+                && run.stderr.contains("blocks nest more than"),
             "{what}:\n{}",
             run.stderr
         );

@@ -44,6 +44,9 @@ pub struct Depths {
     /// for each such level on a broken text (ten levels: seconds; the
     /// forty-eight blocks allowed: years), counted upwards like the rest.
     pub dashed_blocks: usize,
+    /// The deepest nesting of blocks of any kind, counted upwards (every
+    /// `{`, even in a string), up to the first place nesting went too deep.
+    pub blocks: usize,
 }
 
 /// Measures `text`: the depths that decide whether the `kdl` crate's
@@ -54,6 +57,7 @@ pub fn measure(text: &str) -> Depths {
         Ok(too_deep) => Depths {
             too_deep,
             dashed_blocks: scan.max_dashed,
+            blocks: scan.max_blocks,
         },
         // A comment left open: the `kdl` crate's error recovery may read
         // on inside it, so measure its text too.
@@ -63,6 +67,7 @@ pub fn measure(text: &str) -> Depths {
             Depths {
                 too_deep,
                 dashed_blocks: again.max_dashed.max(scan.max_dashed),
+                blocks: again.max_blocks.max(scan.max_blocks),
             }
         }
     }
@@ -103,6 +108,8 @@ struct Scan<'a> {
     dashed: u64,
     /// The deepest count of open blocks that follow a `/-`.
     max_dashed: usize,
+    /// The deepest count of open blocks.
+    max_blocks: usize,
 }
 
 impl<'a> Scan<'a> {
@@ -118,6 +125,7 @@ impl<'a> Scan<'a> {
             string_blocks: 0,
             dashed: 0,
             max_dashed: 0,
+            max_blocks: 0,
         }
     }
 
@@ -143,6 +151,7 @@ impl<'a> Scan<'a> {
                 kind: Nesting::Blocks,
             });
         }
+        self.max_blocks = self.max_blocks.max(self.blocks);
         // A block opened anew at this depth: forget what an earlier one
         // at the same depth was.
         self.dashed &= !(1u64 << (self.blocks - 1));

@@ -49,11 +49,16 @@ pub fn parse_document(text: &str) -> Result<KdlDocument, KdlError> {
                     severity: miette::Severity::Error,
                 }],
             }),
-            // Its error recovery doubles its time with each `/-` block
-            // inside another, and falls over on a large broken text: only
-            // the first error, found in linear time.
-            Depths { dashed_blocks, .. } if dashed_blocks > MAX_FALLBACK_DASHED_BLOCKS => {
-                Err(first_break(text, FirstBreakWhy::DashedBlocks))
+            // Its error recovery takes several times as long for each
+            // further level of blocks (more still for `/-` blocks), and
+            // falls over on a large broken text: only the first error,
+            // found in linear time.
+            Depths {
+                dashed_blocks,
+                blocks,
+                ..
+            } if dashed_blocks > MAX_FALLBACK_DASHED_BLOCKS || blocks > MAX_FALLBACK_BLOCKS => {
+                Err(first_break(text, FirstBreakWhy::Nesting))
             }
             _ if text.len() > MAX_FALLBACK_SIZE => Err(first_break(text, FirstBreakWhy::Size)),
             _ => KdlDocument::parse(text),
@@ -82,22 +87,26 @@ fn deep_span(text: &str, offset: usize) -> miette::SourceSpan {
 /// that passes [`too_deep`], whatever its size.
 pub const MAX_FALLBACK_SIZE: usize = 16 * 1024;
 
-/// The deepest nesting of children blocks commented out with `/-` in a
-/// broken text handed to the `kdl` crate's parser for its full syntax
-/// report. Its error recovery takes about twice as long for each further
-/// level (measured in an unoptimised build: 6 levels 0.4 s, 10 levels 5 s;
-/// the 48 levels of blocks otherwise allowed would never end). Past this,
-/// the first place the text stops being KDL is reported, as for a large
-/// text.
-pub const MAX_FALLBACK_DASHED_BLOCKS: usize = 4;
+/// The deepest nesting of blocks, and of children blocks commented out with
+/// `/-`, in a broken text handed to the `kdl` crate's parser for its full
+/// syntax report. On some broken texts its error recovery takes two to
+/// four times as long for each further level (`a; /-1 /-{` nested 9 deep
+/// took 140 s in an optimised build, `a /- {` 10 deep 5 s unoptimised; the
+/// 48 levels of blocks otherwise allowed would never end). Past these the
+/// first place the text stops being KDL is reported, as for a large text.
+/// The demo jobs nest blocks 4 deep at most.
+pub const MAX_FALLBACK_BLOCKS: usize = 6;
+/// See [`MAX_FALLBACK_BLOCKS`].
+pub const MAX_FALLBACK_DASHED_BLOCKS: usize = 2;
 
 /// Why only the first syntax error is reported.
 #[derive(Debug, Clone, Copy)]
 enum FirstBreakWhy {
     /// The text is over [`MAX_FALLBACK_SIZE`].
     Size,
-    /// `/-` blocks nest over [`MAX_FALLBACK_DASHED_BLOCKS`] deep.
-    DashedBlocks,
+    /// Blocks nest over [`MAX_FALLBACK_BLOCKS`] deep, or `/-` blocks over
+    /// [`MAX_FALLBACK_DASHED_BLOCKS`].
+    Nesting,
 }
 
 /// One syntax error where the fast parser had to stop reading `text`.
@@ -123,9 +132,10 @@ fn first_break(text: &str, why: FirstBreakWhy) -> KdlError {
                      fix it and run again",
                     MAX_FALLBACK_SIZE / 1024
                 ),
-                FirstBreakWhy::DashedBlocks => format!(
-                    "blocks commented out with `/-` nest more than {MAX_FALLBACK_DASHED_BLOCKS} \
-                     deep, so only the first syntax error is reported; fix it and run again"
+                FirstBreakWhy::Nesting => format!(
+                    "blocks nest more than {MAX_FALLBACK_BLOCKS} deep (or blocks commented out \
+                     with `/-` more than {MAX_FALLBACK_DASHED_BLOCKS}), so only the first syntax \
+                     error is reported; fix it and run again"
                 ),
             }),
             severity: miette::Severity::Error,

@@ -496,6 +496,14 @@ fn blocks_commented_out_with_slashdash_are_counted_where_they_nest() {
     ] {
         assert_eq!(super::measure(text).dashed_blocks, dashed, "{text:?}");
     }
+    for (text, blocks) in [
+        ("a { b { c { } } } d { }", 3),
+        ("a \"{{\" { }", 3),
+        ("a { } b { } c { }", 1),
+        ("}} a {", 1),
+    ] {
+        assert_eq!(super::measure(text).blocks, blocks, "{text:?}");
+    }
 }
 
 #[test]
@@ -512,7 +520,7 @@ fn a_broken_text_with_deep_dashed_blocks_gets_its_first_error_only() {
         d.help
             .as_deref()
             .unwrap_or("")
-            .contains("`/-` nest more than")
+            .contains("so only the first syntax error")
     );
     // At the limit the `kdl` crate still gives its full report.
     let shallow = format!(
@@ -520,9 +528,26 @@ fn a_broken_text_with_deep_dashed_blocks_gets_its_first_error_only() {
         "a /- {\n".repeat(super::MAX_FALLBACK_DASHED_BLOCKS)
     );
     let e = super::parse_document(&shallow).expect_err("broken");
-    assert!(
-        e.diagnostics
-            .iter()
-            .all(|d| !d.help.as_deref().unwrap_or("").contains("`/-` nest"))
+    assert!(e.diagnostics.iter().all(|d| {
+        !d.help
+            .as_deref()
+            .unwrap_or("")
+            .contains("only the first syntax error")
+    }));
+    // Plain blocks past their own limit: the first error only too.
+    let deep = format!("{}= =\n", "a {\n".repeat(super::MAX_FALLBACK_BLOCKS + 1));
+    let e = super::parse_document(&deep).expect_err("broken");
+    assert_eq!(e.diagnostics.len(), 1);
+    assert_eq!(
+        e.diagnostics[0].span.offset(),
+        deep.find('=').expect("the `=`")
     );
+    let shallow = format!("{}= =\n", "a {\n".repeat(super::MAX_FALLBACK_BLOCKS));
+    let e = super::parse_document(&shallow).expect_err("broken");
+    assert!(e.diagnostics.iter().all(|d| {
+        !d.help
+            .as_deref()
+            .unwrap_or("")
+            .contains("only the first syntax error")
+    }));
 }
