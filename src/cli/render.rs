@@ -552,7 +552,15 @@ fn render_job(
         said.warn(format!("wrote the generated source to {}", dir.display()));
         said.warn(format!(
             "  the same PDF comes from: {}",
-            handover::compile_command(dir, &document.options, &dir.join("handover.pdf"))
+            handover::compile_command(
+                dir,
+                &document.options,
+                &dir.join(if args.listing {
+                    "listing.pdf"
+                } else {
+                    "handover.pdf"
+                })
+            )
         ));
     }
 
