@@ -35,6 +35,7 @@ use super::batch::seconds;
 use super::exit::Exit;
 use super::render::{Outcome, Plan, Setup, render_one};
 use super::ui;
+use crate::catalogue::Msg;
 use crate::typeset::interrupt;
 
 /// How long a file must be quiet before its change is taken.
@@ -165,21 +166,22 @@ fn render_and_tell(
     }
     report.said.print();
     let now = chrono::Local::now().format("%H:%M:%S");
-    match report.outcome {
-        Outcome::Rendered => println!(
-            "{now} rendered {} → {} in {}",
-            plan.job.path.display(),
-            plan.output.display(),
-            seconds(report.elapsed)
-        ),
-        Outcome::Unchanged => println!("{now} unchanged {}", plan.output.display()),
-        Outcome::Failed => println!(
-            "{now} failed {} after {}; {} was left as it was",
-            plan.job.path.display(),
-            seconds(report.elapsed),
-            plan.output.display()
-        ),
-    }
+    let job = plan.job.path.display().to_string();
+    let output = plan.output.display().to_string();
+    let time = seconds(report.elapsed);
+    // Said in the job's language, as its diagnostics were.
+    let line = report.said.say(&match report.outcome {
+        Outcome::Rendered => Msg::new("cli-rendered")
+            .arg("job", job)
+            .arg("output", output)
+            .arg("time", time),
+        Outcome::Unchanged => Msg::new("cli-unchanged").arg("output", output),
+        Outcome::Failed => Msg::new("cli-watch-failed")
+            .arg("job", job)
+            .arg("output", output)
+            .arg("time", time),
+    });
+    println!("{now} {line}");
 }
 
 /// How a file stood: its modification time and length, which a save
