@@ -725,3 +725,20 @@ cli-summary = { $jobs ->
     } in { $time }: { $rendered } erstellt, { $unchanged } unverändert, { $failed } fehlgeschlagen
 cli-summary-stopped = , { $count } nicht begonnen (angehalten)
 cli-watch-failed = fehlgeschlagen { $job } nach { $time }; { $output } blieb unverändert
+cli-wrote = geschrieben: { $path }
+cli-wrote-stdout = das PDF auf die Standardausgabe geschrieben
+cli-up-to-date = { $path } ist aktuell (--force erstellt es trotzdem)
+cli-shop-templates-failed = Hinweis: das Dokument aus den Vorlagen der Werkstatt in { $folder } ist fehlgeschlagen; der Fehler liegt in den Vorlagen, nicht im Auftrag
+cli-built-in-template-failed = Hinweis: die eingebaute Vorlage ist fehlgeschlagen; das ist ein Fehler in ampreport, bitte melden
+cli-left-as-it-was = Hinweis: { $path } blieb unverändert
+cli-undrawable = Warnung: { $place }: der Text von { $field } enthält Zeichen, die die Schriften des Dokuments nicht darstellen können ({ $chars }); sie erscheinen als { $placeholder }
+cli-field-of = `{ $key }` von `{ $node }`
+cli-cannot-make-folder = Fehler: der Ordner { $folder } für das PDF konnte nicht angelegt werden: { $error }
+cli-listing-name-clash = Fehler: das PDF der Auflistung { $path } würde von ihrem eigenen Markdown überschrieben; das PDF mit .pdf benennen
+cli-cannot-write-source = Fehler: der erzeugte Quelltext konnte nicht nach { $folder } geschrieben werden: { $error }
+cli-wrote-source = den erzeugten Quelltext nach { $folder } geschrieben
+cli-same-pdf-from = dasselbe PDF entsteht mit: { $command }
+cli-typst-warned =
+    typst warnte:
+    { $warnings }
+cli-cannot-record = Warnung: es konnte nicht festgehalten werden, woraus { $path } entstand ({ $error }); der nächste Lauf erstellt es neu

@@ -726,3 +726,20 @@ cli-summary = { $jobs ->
     } in { $time }: { $rendered } rendered, { $unchanged } unchanged, { $failed } failed
 cli-summary-stopped = , { $count } not started (stopped)
 cli-watch-failed = failed { $job } after { $time }; { $output } was left as it was
+cli-wrote = wrote { $path }
+cli-wrote-stdout = wrote the PDF to standard output
+cli-up-to-date = { $path } is up to date (--force renders it anyway)
+cli-shop-templates-failed = note: the document from the shop templates in { $folder } failed; the templates are at fault, not the job
+cli-built-in-template-failed = note: the built-in template failed; this is a fault in ampreport, please report it
+cli-left-as-it-was = note: { $path } was left as it was
+cli-undrawable = warning: { $place }: the text of { $field } holds characters the document's fonts cannot draw ({ $chars }); they print as { $placeholder }
+cli-field-of = `{ $key }` of `{ $node }`
+cli-cannot-make-folder = error: could not make the folder { $folder } for the PDF: { $error }
+cli-listing-name-clash = error: the listing's PDF { $path } would be written over by its own Markdown; name the PDF with .pdf
+cli-cannot-write-source = error: could not write the generated source to { $folder }: { $error }
+cli-wrote-source = wrote the generated source to { $folder }
+cli-same-pdf-from = the same PDF comes from: { $command }
+cli-typst-warned =
+    typst warned:
+    { $warnings }
+cli-cannot-record = warning: could not record what { $path } was made from ({ $error }); the next run renders it again
