@@ -735,6 +735,33 @@ diag-bad-period = `period` "{ $text }" ist keine Zeitdauer
 diag-expected-period = eine Zahl und days, weeks, months oder years erwartet
 diag-period-help = zum Beispiel period="90 days", "6 months" oder "1 year"
 
+diag-charges-currency = `charges` braucht eine Währung
+diag-currency-missing = Währung fehlt
+diag-charges-currency-help = charges currency="GBP" {"{"} … {"}"} schreiben, oder die Währung im Knoten `charges` des Werkstattprofils festlegen
+diag-charges-too-large = die Kosten sind zu groß, um sie zu addieren
+diag-these-charges = diese Kosten
+diag-charge-both = eine Zeile mit `amount` nimmt kein `{ $count }` und kein `{ $price }`
+diag-charge-both-label = dies entfernen, oder den Betrag
+diag-charge-both-help = entweder amount="…" oder { $count }=… { $price }="…" schreiben
+diag-labour-needs = `hours` und `rate`, oder einen Betrag `amount`
+diag-part-needs = einen Preis `price` (und eine Menge `quantity`), oder einen Betrag `amount`
+diag-amount-missing = Betrag fehlt
+diag-currency-code = `currency` muss ein kurzes Kürzel oder Zeichen sein (1 bis 8 Zeichen)
+diag-expected-currency = Währung erwartet
+diag-currency-help = zum Beispiel currency="GBP", "EUR", "USD" oder "€"
+diag-tax-rate = `tax-rate` muss ein Prozentsatz von 0% bis 100% sein, gefunden: `{ $found }`
+diag-expected-percentage = Prozentsatz erwartet
+diag-tax-rate-help = zum Beispiel tax-rate="20%" oder tax-rate="8.875%"
+diag-charges-no-sign = Kostenzeilen werden addiert; den Betrag ohne Vorzeichen schreiben
+diag-money-too-large = { $what } ist zu groß (die Grenze ist { $limit })
+diag-too-large = zu groß
+diag-too-many-places = { $what } hat mehr als { $places } Nachkommastellen
+diag-too-many-decimals = zu viele Nachkommastellen
+diag-plain-decimal = { $what } muss eine einfache Dezimalzahl sein, gefunden: `{ $found }`
+diag-expected-money = Zahl wie 48.00 erwartet
+diag-money-help = Beträge und Stunden mit Dezimalpunkt und ohne Währungszeichen oder Tausendertrennzeichen schreiben, zum Beispiel "1250.00"
+diag-expected-a-number = Zahl erwartet
+
 ## Die übrigen Meldungen im Terminal (src/cli), in der Sprache des
 ## Werkstattprofils, sobald es gelesen ist; die Schlusszeile eines Stapels
 ## in der Sprache, die alle seine Aufträge teilen, sonst Englisch.

@@ -735,6 +735,33 @@ diag-bad-period = `period` "{ $text }" is not a length of time
 diag-expected-period = expected a number and days, weeks, months or years
 diag-period-help = for example period="90 days", "6 months" or "1 year"
 
+diag-charges-currency = `charges` needs a currency
+diag-currency-missing = currency missing
+diag-charges-currency-help = write charges currency="GBP" {"{"} … {"}"}, or set the currency in the shop profile's `charges` node
+diag-charges-too-large = the charges are too large to add up
+diag-these-charges = these charges
+diag-charge-both = a line with `amount` takes no `{ $count }` or `{ $price }`
+diag-charge-both-label = remove this, or the amount
+diag-charge-both-help = write either amount="…" or { $count }=… { $price }="…"
+diag-labour-needs = `hours` and `rate`, or an `amount`
+diag-part-needs = a `price` (and a `quantity`), or an `amount`
+diag-amount-missing = amount missing
+diag-currency-code = `currency` must be a short code or sign (1 to 8 characters)
+diag-expected-currency = expected a currency
+diag-currency-help = for example currency="GBP", "EUR", "USD" or "€"
+diag-tax-rate = `tax-rate` must be a percentage from 0% to 100%, found `{ $found }`
+diag-expected-percentage = expected a percentage
+diag-tax-rate-help = for example tax-rate="20%" or tax-rate="8.875%"
+diag-charges-no-sign = charges lines add up; write the amount without a sign
+diag-money-too-large = { $what } is too large (the limit is { $limit })
+diag-too-large = too large
+diag-too-many-places = { $what } has more than { $places } decimal places
+diag-too-many-decimals = too many decimals
+diag-plain-decimal = { $what } must be a plain decimal number, found `{ $found }`
+diag-expected-money = expected a number such as 48.00
+diag-money-help = write money and hours with a decimal point and no currency sign or thousands separator, for example "1250.00"
+diag-expected-a-number = expected a number
+
 ## The terminal's other messages: what the commands say besides a job's
 ## summary (src/cli), in the job's shop-profile language once it is read;
 ## a batch's closing summary in the language all its jobs share, else
