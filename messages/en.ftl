@@ -623,7 +623,7 @@ diag-merge-nodes = a job file has one `{ $name }` node; merge them
 diag-format-too-new = this job file uses format { $found }, but this ampreport reads format { $known } at most
 diag-format-version = format version
 diag-update-program = update ampreport to read this file
-diag-format-needs-version = `job-format` needs the version number
+diag-needs-version = `{ $name }` needs the version number
 diag-version-missing = version missing
 diag-write-format = write `job-format 1`
 diag-no-format = the job file does not say which format it uses
@@ -677,6 +677,116 @@ diag-add-method = add method=probe (bias probe: cathode current) or method=shunt
 diag-method-without-current = `method` is given without a `current`
 diag-no-current = no current to go with it
 
+diag-undeclared-node = node { $name } in “{ $set }” is not declared in `circuit`, so it has no chart figure and no part uses it
+diag-not-declared-node = not a declared node
+diag-declare-node-or = did you mean `{ $near }`? Otherwise declare it in `circuit`: node { $name } chart="…"
+diag-declare-node = declare it in `circuit`: node { $name } chart="…"
+diag-node-only-here = node { $name } is read only in “{ $set }”; another set reads { $near }
+diag-different-name = a different name from the other sets
+diag-node-named = node { $name }
+diag-not-in-final = { $what } is not measured in “{ $final }”, the final set (it was in “{ $set }”)
+diag-not-measured-in = not measured in “{ $final }”
+diag-read-again = read it again in “{ $final }”, or the document cannot say how it stands as the unit leaves
+diag-mains-far = mains of { $mains } in "{ $set }" is { $pct }% from the nominal { $nominal }
+diag-far-from-nominal = far from nominal
+diag-mains-far-help = check the reading, or whether the unit ran from a variable autotransformer
+diag-output-role-mismatch = { $position } is listed as an output valve, but the ratings table has { $type } as a { $class }
+diag-unusual-role = unusual role for this type
+diag-rectifier-mismatch = { $position } is listed as the rectifier, but { $type } is a { $class }
+diag-not-a-rectifier = not a rectifier
+diag-unknown-valve-type = unknown valve type "{ $type }" at { $position }
+diag-not-in-ratings = not in the ratings table
+diag-rectifier-not-rectifier = the rectifier is { $position } ({ $type }), which is not a rectifier valve
+diag-write-silicon = write `rectifier silicon` for a solid-state rectifier
+diag-incomplete = the { $file ->
+        [shop] shop profile
+       *[job] job file
+    } is incomplete
+diag-here = here
+diag-bare-value = KDL syntax: `{ $value }` is not a number, so it must be written in quotes
+diag-needs-quotes = needs quotes
+diag-bare-value-help = write "{ $value }": a value with a unit, or a name that starts with a digit, is text in double quotes
+diag-kdl-syntax = KDL syntax: { $problem }
+diag-kdl-broken = the KDL syntax is broken here
+diag-kdl-help = job files are KDL 2.0: text in double quotes, booleans as #true/#false, one node per line
+
+diag-merge-shop-nodes = a shop profile has one `{ $name }` node; merge them
+diag-shop-no-format = the shop profile does not say which format it uses
+diag-begin-with-shop-format = begin the file with `shop-format 1`
+diag-shop-no-node = the shop profile has no `{ $name }` node
+diag-logo-name-empty = the logo's file name is empty
+diag-expected-file-name = expected a file name
+diag-bad-pattern = the job-number pattern `{ $pattern }` cannot be used: { $why }
+diag-expected-pattern = expected a pattern such as D-{"{"}yymm{"}"}-{"{"}nnn{"}"}
+diag-pattern-help = pieces: {"{"}yyyy{"}"} {"{"}yy{"}"} {"{"}mm{"}"} {"{"}dd{"}"} {"{"}yymm{"}"}, and one count {"{"}n…{"}"} (one n per digit)
+diag-not-language-tag = `{ $tag }` is not a language tag
+diag-expected-language-tag = expected a language tag such as en or de
+diag-built-in-languages = built in: { $tags }
+diag-no-catalogue = the program has no catalogue for `{ $tag }` built in
+diag-no-built-in-catalogue = no built-in catalogue
+diag-own-translation = { $suggestion }; or give your own translation: language "{ $tag }" file="{ $tag }.ftl"
+diag-shop-format-too-new = this shop profile uses format { $found }, but this ampreport reads format { $known } at most
+diag-write-shop-format = write `shop-format 1`
+diag-shop-name-empty = the shop's name is empty
+diag-expected-the-name = expected the name
+diag-unknown-paper = unknown paper size `{ $name }`
+diag-expected-paper = expected a4 or letter
+diag-bad-period = `period` "{ $text }" is not a length of time
+diag-expected-period = expected a number and days, weeks, months or years
+diag-period-help = for example period="90 days", "6 months" or "1 year"
+
+diag-charges-currency = `charges` needs a currency
+diag-currency-missing = currency missing
+diag-charges-currency-help = write charges currency="GBP" {"{"} … {"}"}, or set the currency in the shop profile's `charges` node
+diag-charges-too-large = the charges are too large to add up
+diag-these-charges = these charges
+diag-charge-both = a line with `amount` takes no `{ $count }` or `{ $price }`
+diag-charge-both-label = remove this, or the amount
+diag-charge-both-help = write either amount="…" or { $count }=… { $price }="…"
+diag-labour-needs = `hours` and `rate`, or an `amount`
+diag-part-needs = a `price` (and a `quantity`), or an `amount`
+diag-amount-missing = amount missing
+diag-currency-code = `currency` must be a short code or sign (1 to 8 characters)
+diag-expected-currency = expected a currency
+diag-currency-help = for example currency="GBP", "EUR", "USD" or "€"
+diag-tax-rate = `tax-rate` must be a percentage from 0% to 100%, found `{ $found }`
+diag-expected-percentage = expected a percentage
+diag-tax-rate-help = for example tax-rate="20%" or tax-rate="8.875%"
+diag-charges-no-sign = charges lines add up; write the amount without a sign
+diag-money-too-large = { $what } is too large (the limit is { $limit })
+diag-too-large = too large
+diag-too-many-places = { $what } has more than { $places } decimal places
+diag-too-many-decimals = too many decimals
+diag-plain-decimal = { $what } must be a plain decimal number, found `{ $found }`
+diag-expected-money = expected a number such as 48.00
+diag-money-help = write money and hours with a decimal point and no currency sign or thousands separator, for example "1250.00"
+diag-expected-a-number = expected a number
+
+diag-photo-absolute = the photo `{ $path }` is an absolute path
+diag-photo-outside = the photo `{ $path }` is not a path inside the job's folder
+diag-photo-relative = expected a path relative to the job file
+diag-photo-keep-inside = keep photos in the job's folder or a folder below it and name them from there, for example photo "photos/chassis.jpg"
+diag-photo-link = the photo `{ $path }` is a link that leads outside the job's folder (to { $target })
+diag-leads-outside = leads outside
+diag-photo-copy = copy the photo into the job's folder instead of linking to it
+diag-photo-not-file = the photo { $path } is not a regular file
+diag-not-a-file = not a file
+diag-photo-png-jpeg = a photo must be a PNG or JPEG file
+diag-photo-too-large = the photo { $path } is { $size } MB; the limit is { $limit } MB
+diag-photo-smaller = export the photo smaller (a document prints it about 8 cm wide; 2000 pixels across is plenty)
+diag-photo-cannot-read = cannot read the photo { $path }: { $error }
+diag-this-file = this file
+diag-photo-check-path = check the path: it is relative to the job file's folder
+diag-photo-not-image = the photo { $path } is not a PNG or JPEG picture (its content is { $content ->
+        [empty] empty
+        [text] text
+       *[other] neither
+    })
+diag-not-a-picture = not a picture
+diag-photo-content-matters = a photo must be a PNG or JPEG file; the name's extension does not matter, the content does
+diag-photo-undecodable = the photo { $path } { $why }
+diag-photo-save-again = open the photo in an image editor and save it again as PNG or JPEG
+
 ## The terminal's other messages: what the commands say besides a job's
 ## summary (src/cli), in the job's shop-profile language once it is read;
 ## a batch's closing summary in the language all its jobs share, else
@@ -693,3 +803,20 @@ cli-summary = { $jobs ->
     } in { $time }: { $rendered } rendered, { $unchanged } unchanged, { $failed } failed
 cli-summary-stopped = , { $count } not started (stopped)
 cli-watch-failed = failed { $job } after { $time }; { $output } was left as it was
+cli-wrote = wrote { $path }
+cli-wrote-stdout = wrote the PDF to standard output
+cli-up-to-date = { $path } is up to date (--force renders it anyway)
+cli-shop-templates-failed = note: the document from the shop templates in { $folder } failed; the templates are at fault, not the job
+cli-built-in-template-failed = note: the built-in template failed; this is a fault in ampreport, please report it
+cli-left-as-it-was = note: { $path } was left as it was
+cli-undrawable = warning: { $place }: the text of { $field } holds characters the document's fonts cannot draw ({ $chars }); they print as { $placeholder }
+cli-field-of = `{ $key }` of `{ $node }`
+cli-cannot-make-folder = error: could not make the folder { $folder } for the PDF: { $error }
+cli-listing-name-clash = error: the listing's PDF { $path } would be written over by its own Markdown; name the PDF with .pdf
+cli-cannot-write-source = error: could not write the generated source to { $folder }: { $error }
+cli-wrote-source = wrote the generated source to { $folder }
+cli-same-pdf-from = the same PDF comes from: { $command }
+cli-typst-warned =
+    typst warned:
+    { $warnings }
+cli-cannot-record = warning: could not record what { $path } was made from ({ $error }); the next run renders it again
