@@ -764,3 +764,54 @@ fn characters_the_fonts_lack_become_a_placeholder_with_a_warning() {
     assert!(!main.contains(&"x".repeat(42)));
     assert!(main.contains(&"x\u{200b}".repeat(100)));
 }
+
+/// A grid of broken nestings (node forms × arguments × block openers ×
+/// what breaks the text, each nested 1 to 47 deep) read through the job
+/// reader's KDL step. Before the nesting limits on the full syntax report,
+/// 744 of these grew two- to four-fold per level in the `kdl` crate's error
+/// recovery (`a; /-1 /-{` 9 deep: 140 s). A long run:
+/// `cargo test --release --test hostile_input -- --ignored broken_nesting`
+/// (about 10 s optimised; the slowest seen was 0.09 s).
+#[test]
+#[ignore]
+fn broken_nesting_of_every_form_is_read_promptly() {
+    let names = ["a", "(t)a", "\"a\"", "/- a", "a;", "a\\\n"];
+    let args = [
+        "", " 1", " x=1", " /-1", " /-x=1", " (t)1", " /- /-1", " =", " (", " #",
+    ];
+    let opens = [
+        " {",
+        " /- {",
+        "{",
+        " /-{",
+        " /- /- {",
+        " /* c */ {",
+        " {}",
+        " /-{}{",
+    ];
+    let ends = [
+        "= =\n", "a=\n", "\"open\n", "(\n", "}\n", "/-\n", "a (t\n", "#\n",
+    ];
+    let mut slowest = (Duration::ZERO, String::new());
+    for name in names {
+        for arg in args {
+            for open in opens {
+                for end in ends {
+                    let level = format!("{name}{arg}{open}\n");
+                    for depth in [1, 2, 3, 4, 5, 6, 7, 8, 10, 12, 16, 24, 32, 47] {
+                        let text = format!("{}{end}", level.repeat(depth));
+                        let started = std::time::Instant::now();
+                        let _ = ampreport::kdl_fast::parse_document(&text);
+                        let took = started.elapsed();
+                        if took > slowest.0 {
+                            slowest = (took, format!("{depth} × {level:?} then {end:?}"));
+                        }
+                    }
+                }
+            }
+        }
+    }
+    // A hang check, not a speed target: the unguarded reader took minutes.
+    assert!(slowest.0 < Duration::from_secs(5), "{slowest:?}");
+    println!("slowest: {slowest:?}");
+}
