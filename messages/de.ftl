@@ -483,9 +483,8 @@ term-minus-3db = −3 dB: { $low } und { $high }
 term-gain = Verstärkung
 term-gain-line = { $input } am Eingang für { $output } am Ausgang bei { $frequency } = ×{ $times } ({ $db } dB)
 
-## Begründungen und Schwellen der Prüfungen (src/calc). Die JSON-Ausgabe
-## bleibt englisch; diese Übersetzungen sind für das Protokoll bestimmt,
-## sobald es die Begründungen aus dem Katalog der Werkstatt nimmt.
+## Begründungen und Schwellen der Prüfungen (src/calc), wie das Protokoll,
+## das Terminal und `calc --json` sie in der Sprache der Werkstatt zeigen.
 
 reason-includes-screen = (einschließlich Schirmgitterstrom, daher auf der hohen Seite)
 reason-at-nominal-mains = bei Netznennspannung
@@ -511,3 +510,197 @@ threshold-no-chart = keine: der Auftrag nennt keinen Tabellenwert
 threshold-heater = innerhalb ±{ $tolerance } % von { $nominal }
 reason-at-nominal = { $volts } bei Netznennspannung ({ $deviation } %)
 reason-heater = { $measured } weicht um { $deviation } % von { $nominal } ab
+
+## Begründungen: ein Wert gegen seinen Nennwert, die übrigen Prüfungen der
+## Endröhren (src/calc/status.rs, src/calc/valve.rs).
+
+threshold-under-rating = Vorsicht über { $caution } % von { $rating }, zu hoch über 100 %
+reason-of-rating = { $what } ist { $pct } % des Nennwerts von { $rating }
+reason-of-rating-guide = { $what } ist { $pct } % des Nennwerts von { $rating }, über dem Richtwert von { $caution } %
+reason-plate-high-line = an der oberen Netzgrenze ({ $mains }) läge die Anodenverlustleistung bei { $watts } W, { $pct } % des Grenzwerts
+threshold-plate-high-line = Vorsicht, wenn die Hochrechnung auf die obere Netzgrenze 100 % übersteigt
+reason-screen-dissipation = Schirmgitterverlustleistung
+threshold-screen-dissipation = zu hoch über 100 % von { $rating }; Vorsicht, wenn die Hochrechnung auf die obere Netzgrenze darüber liegt
+reason-screen-high-line = die Schirmgitterverlustleistung läge an der oberen Netzgrenze bei { $pct } % des Grenzwerts
+threshold-cathode-current = zu hoch über dem Höchstwert von { $max }
+reason-cathode-current-over = Kathodenstrom { $current } ist { $pct } % des Höchstwerts
+reason-cathode-current = Kathodenstrom ist { $pct } % des Höchstwerts
+
+## Begründungen: Widerstände, Siebkondensatoren und die Gleichrichterröhre
+## (src/calc/supply.rs). `place-…` sagen, wo ein Bauteil sitzt.
+
+reason-dissipation = Verlustleistung { $watts }
+reason-resistor-high-line = würde an der oberen Netzgrenze { $watts } umsetzen, { $pct } % des Nennwerts
+reason-resistor-no-rating = setzt { $watts } um; keine Belastbarkeit angegeben
+threshold-no-power-rating = keine: der Auftrag nennt keine Belastbarkeit
+reason-not-measured = { $nodes } nicht gemessen
+place-between = { $from } nach { $to }
+place-cathodes = { $count ->
+        [one] Kathode { $valves }
+       *[other] Kathoden { $valves }
+    }
+place-screen = Schirmgitter { $valve }
+place-to-screen = { $node } zum Schirmgitter { $valve }
+reason-silicon-rectifier = Siliziumgleichrichter
+reason-valve-rectifier = Gleichrichterröhre { $type }
+reason-valve-rectifier-slow = Gleichrichterröhre { $type }, indirekt geheizt
+reason-rectifier-not-stated = Gleichrichter nicht angegeben, als Silizium angenommen
+reason-cap-peak-words = Einschaltspitze an der oberen Netzgrenze { $mains } ({ $rectifier })
+reason-cap-work-words = Betriebsspannung an der oberen Netzgrenze { $mains }
+threshold-capacitor = zu hoch über der Nennspannung von { $rating }; Vorsicht, wenn die Reserve unter { $margin } % liegt
+reason-cap-unchecked = ; die Betriebsspannung wurde nicht geprüft: { $node } nicht gemessen
+reason-cap-both-over = die { $peak }, { $peak_volts }, und die { $work }, { $work_volts }, übersteigen beide die Nennspannung von { $rating }
+reason-cap-work-over = die { $work }, { $work_volts }, übersteigt die Nennspannung von { $rating }
+reason-cap-work-over-peak = die { $work }, { $work_volts }, übersteigt die Nennspannung von { $rating } (die { $peak } erreicht { $peak_volts }; ein langsam anheizender Gleichrichter macht das weniger wahrscheinlich)
+reason-cap-peak-slow = die { $peak }, { $highest }, übersteigt die Nennspannung von { $rating }; ein langsam anheizender Gleichrichter macht das weniger wahrscheinlich, aber nicht unmöglich
+reason-cap-peak-over = die { $peak }, { $highest }, übersteigt die Nennspannung von { $rating }
+reason-cap-margin-low = die { $source }, { $highest }, lässt nur { $margin } % Reserve zur Nennspannung von { $rating }
+reason-cap-margin = höchste zu erwartende Spannung { $highest } ({ $source }) lässt { $margin } % Reserve
+threshold-rectifier = Vorsicht über 90 % des Nennstroms von { $rating }, zu hoch über 100 % (nur die Endröhren: eine Untergrenze)
+reason-rectifier = die Endröhren allein ziehen { $load } mA, { $pct } % der { $rating } mA, die { $type } { $position } liefern darf
+
+## Begründungen: elektrische Sicherheitsprüfungen (src/calc/safety.rs).
+
+safety-limit-with-cord = ≤ { $limit } + Leitung { $cord } = { $allowed }
+safety-earth = Schutzleiterwiderstand { $ohms }
+safety-insulation-limit = ≥ { $ohms } bei { $volts } DC
+safety-insulation = Isolationswiderstand { $ohms } bei { $volts } DC
+safety-leakage = Ableitstrom { $amps }
+safety-meets = { $what } hält den Grenzwert { $limit } ein
+safety-fails = { $what } verfehlt den Grenzwert { $limit }
+safety-test-earth-continuity = Schutzleiterprüfung
+safety-test-insulation = Isolationsprüfung
+safety-test-leakage = Ableitstrom
+
+## Begründungen: Messungen am Prüfplatz (src/calc/bench.rs).
+
+bench-at-clipping = am Beginn der Übersteuerung
+bench-at-distortion = bei { $pct } % Klirrfaktor
+bench-with-drive = bei { $volts } Ansteuerung
+bench-power-into = { $watts } an { $load } { $condition }
+bench-power-at-drive = { $power }; bei fester Ansteuerung gemessen, daher nicht gegen die Nennleistung bewertet
+threshold-power-at-drive = keine: bewertet werden nur Messungen an der Übersteuerungsgrenze oder bei angegebenem Klirrfaktor
+threshold-power = Vorsicht unter { $guide } % der Nennleistung von { $rated }
+bench-power-below-guide = Ausgangsleistung { $power } ist { $pct } % der Nennleistung von { $rated }, unter dem Richtwert von { $guide } %
+bench-power-of-rated = Ausgangsleistung { $power } ist { $pct } % der Nennleistung von { $rated }
+bench-power-no-rating = Ausgangsleistung { $power }; der Auftrag nennt keine Nennleistung zum Vergleich
+threshold-power-no-rating = keine: der Auftrag nennt keine Nennleistung
+bench-hum-level-shorted = Brumm und Rauschen { $volts } ({ $dbv } dBV) bei kurzgeschlossenem Eingang
+bench-hum-level-open = Brumm und Rauschen { $volts } ({ $dbv } dBV) bei offenem Eingang
+threshold-hum = Vorsicht bei weniger als { $guide } dB unter Vollaussteuerung
+bench-rated-full-output = der Nennleistung von { $watts }
+bench-measured-full-output = der gemessenen Höchstleistung von { $watts }
+bench-hum-below-guide = { $level } liegt nur { $db } dB unter { $against }, weniger als der Richtwert von { $guide } dB
+bench-hum-below = { $level } liegt { $db } dB unter { $against }
+bench-hum-no-full = { $level }; keine gemessene oder Nennleistung zum Vergleich
+threshold-hum-no-full = keine: der Auftrag nennt weder eine gemessene Ausgangsleistung noch eine Nennleistung
+
+## Die Prüfungen einer Röhre und wie ihr Ruhestrom bestimmt wurde
+## (src/calc/findings.rs).
+
+check-plate-dissipation = Anodenverlustleistung
+check-plate-dissipation-high-line = Anodenverlustleistung an der oberen Netzgrenze
+check-screen-dissipation = Schirmgitterverlustleistung
+check-plate-voltage = Anodenspannung
+check-screen-voltage = Schirmgitterspannung
+check-cathode-current = Kathodenstrom
+check-rectifier-load = Gleichrichterlast
+method-shared-cathode-resistor = gemeinsamer Kathodenwiderstand
+method-own-cathode-resistor = eigener Kathodenwiderstand
+method-sense-resistor = Messwiderstand
+method-transformer-resistance = Wicklungswiderstand
+method-shunt = Shunt über der halben Primärwicklung
+method-probe = Bias-Messadapter
+
+## Der entscheidende Wert eines Status in wenigen Worten, für die
+## Statusspalte der Tabellen (src/calc/brief.rs). `$pct` bringt sein „%“ mit.
+
+brief-plate = Anode { $pct }
+brief-plate-high-line = Anode { $pct } an der oberen Netzgrenze
+brief-screen = Schirmgitter { $pct }
+brief-voltage-high-line = { $name } { $pct } an der oberen Netzgrenze
+brief-voltage-of-max = { $name } { $pct } des Höchstwerts
+brief-cathode-current = Ik { $pct } des Höchstwerts
+brief-from-chart = { $deviation } % zur Tabelle
+brief-no-chart = kein Tabellenwert
+brief-at-high-line = { $pct } % an der oberen Netzgrenze
+brief-of-rating = { $pct } % des Nennwerts
+brief-no-rating = kein Nennwert angegeben
+brief-working-high-line = Betrieb an der oberen Netzgrenze
+brief-cold-start-peak = Einschaltspitze
+brief-margin = { $pct } % Reserve
+brief-volts-on-rating = { $volts } { $what } bei { $rating }
+brief-margin-what = { $pct } % Reserve, { $what }
+brief-of-rated = { $pct } % der Nennleistung
+brief-below-full = { $db } dB unter Vollaussteuerung
+brief-against = { $measured } gegen { $limit }
+
+## Warnungen und die Übersicht auf Seite 1 (src/calc/mod.rs): worum es bei
+## einem Befund geht und die Zeile jeder Gruppe.
+
+warn-subject-reason = { $subject }: { $reason }
+warn-subject-safety = Sicherheit
+warn-subject-sign-off = Abnahme
+warn-subject-job = Auftrag
+warn-subject-heater = Heizung
+warn-subject-heater-labelled = Heizung { $label }
+warn-subject-output-power = Ausgangsleistung
+warn-subject-hum-noise = Brumm und Rauschen
+warn-subject-on-channel = { $what } (Kanal { $channel })
+warn-acceptance-unmatched = die Freigabe von { $what } trifft auf keinen Wert außerhalb seiner Grenzen und gibt daher nichts frei
+warn-accept-node = Messpunkt { $name }
+warn-accept-heater = Heizung { $name }
+warn-accept-heater-supply = die Heizversorgung
+warn-accept-safety = die Prüfung { $name }
+warn-accept-in-set = { $what } in „{ $set }“
+warn-no-sets = Der Auftrag enthält keine Messreihen, daher konnten keine Werte berechnet werden.
+note-unknown-type = { $position }: der Röhrentyp { $type } steht nicht in der Datentabelle
+note-not-checked = { $reference }: nicht geprüft, { $reason }
+family-output-valves = Endröhren gegen ihre Grenzwerte
+family-supply-voltages = Versorgungsspannungen gegen die Tabelle
+family-stressed-parts = Belastete Widerstände, Kondensatoren und Gleichrichter
+family-heater = Heizversorgung
+family-bench-tests = Messungen am Prüfplatz
+family-safety-tests = Elektrische Sicherheitsprüfungen
+family-no-safety = keine Sicherheitsprüfungen festgehalten
+family-no-bench = keine Messungen am Prüfplatz festgehalten
+family-nothing-measured = nichts gemessen
+family-check-of = { $check } von { $names }
+family-accepted = vom Techniker freigegeben: { $what } (Gründe unten)
+family-safety-ok = { $count ->
+        [one] die Prüfung hält ihren Grenzwert ein
+       *[other] alle { $count } Prüfungen halten ihre Grenzwerte ein
+    }
+family-valves-ok = { $count ->
+        [one] { $count } Endröhre innerhalb ihrer Grenzwerte
+       *[other] { $count } Endröhren innerhalb ihrer Grenzwerte
+    }; am heißesten { $hottest } mit { $pct } % ihrer Anodenverlustleistung
+family-nodes-ok = { $count ->
+        [one] { $count } Messpunkt
+       *[other] { $count } Messpunkte
+    } innerhalb der Toleranz zur Tabelle; größte Abweichung { $deviation } % an { $node }
+family-busiest-resistor = am stärksten belasteter Widerstand { $reference } mit { $pct } % seines Nennwerts
+family-least-margin = kleinste Kondensatorreserve { $pct } % ({ $reference })
+family-rectifier-load = Gleichrichter { $position } mit { $pct } % seines Nennwerts
+family-heater-ok = { $measured } gegen { $nominal } ({ $deviation } %)
+family-bench-power = { $watts } W an { $load } { $condition }
+family-bench-power-rated = { $watts } W an { $load } { $condition } ({ $pct } % der Nennleistung)
+family-bench-hum-below = Brumm und Rauschen { $db } dB unter Vollaussteuerung
+family-bench-hum = Brumm und Rauschen { $volts } ({ $dbv } dBV)
+family-bench-response-both = −3 dB bei { $low } und { $high }
+family-bench-response-low = −3 dB bei { $low }, innerhalb 3 dB bis { $high }
+family-bench-response-high = innerhalb 3 dB ab { $low }, −3 dB bei { $high }
+family-bench-response-flat = innerhalb 3 dB von { $low } bis { $high }
+family-bench-gain = Verstärkung { $db } dB
+
+## Hinweise zu Messwerten, die nicht verwendet werden konnten (src/calc).
+## Jeder beginnt mit dem, worum es geht, und einem Doppelpunkt.
+
+note-screen-above-supply = { $position }: das Schirmgitter zeigt { $screen }, seine Versorgung { $supply } aber { $volts }; der Schirmgitterstrom bleibt unberücksichtigt
+note-no-idle-current = { $position }: kein Messwert ergibt den Ruhestrom (Kathoden-, Messwiderstands- oder Halbwicklungsspannung oder einen Strom messen)
+note-no-half-primary = { $position }: ein Spannungsabfall an der Halbwicklung ist angegeben, aber die Schaltung nennt keinen Halbwicklungswiderstand für { $position }
+note-no-sense-resistor = { $position }: eine Spannung am Messwiderstand ist angegeben, aber die Schaltung hat keinen Messwiderstand für { $position }
+
+## Aufzählungen im Text: „V3, V4 und V5“.
+
+list-and = { $first } und { $last }

@@ -482,8 +482,8 @@ term-minus-3db = −3 dB: { $low } and { $high }
 term-gain = Gain
 term-gain-line = { $input } in for { $output } out at { $frequency } = ×{ $times } ({ $db } dB)
 
-## Reasons and thresholds of the checks (src/calc), as `calc --json` gives
-## them. The JSON is always in this reference language.
+## Reasons and thresholds of the checks (src/calc), as the document, the
+## terminal and `calc --json` give them, in the shop's language.
 
 reason-includes-screen = (includes screen current, so on the high side)
 reason-at-nominal-mains = at nominal mains
@@ -509,3 +509,194 @@ threshold-no-chart = none: the job gives no chart figure
 threshold-heater = within ±{ $tolerance } % of { $nominal }
 reason-at-nominal = { $volts } at nominal mains ({ $deviation } %)
 reason-heater = { $measured } is { $deviation } % from { $nominal }
+
+## Reasons: a figure against its rating, the output valves' other checks
+## (src/calc/status.rs, src/calc/valve.rs).
+
+threshold-under-rating = caution above { $caution } % of { $rating }, over above 100 %
+reason-of-rating = { $what } is { $pct } % of its { $rating } rating
+reason-of-rating-guide = { $what } is { $pct } % of its { $rating } rating, above the { $caution } % guide
+reason-plate-high-line = at high line ({ $mains }) the plate would dissipate { $watts } W, { $pct } % of its rating
+threshold-plate-high-line = caution when the high-line projection exceeds 100 %
+reason-screen-dissipation = screen dissipation
+threshold-screen-dissipation = over above 100 % of { $rating }; caution when the high-line projection is above it
+reason-screen-high-line = screen dissipation would be { $pct } % of its rating at high line
+threshold-cathode-current = over above the { $max } maximum
+reason-cathode-current-over = cathode current { $current } is { $pct } % of its maximum
+reason-cathode-current = cathode current is { $pct } % of its maximum
+
+## Reasons: resistors, filter capacitors and the valve rectifier
+## (src/calc/supply.rs). `place-…` say where a part sits.
+
+reason-dissipation = dissipation { $watts }
+reason-resistor-high-line = would dissipate { $watts } at high line, { $pct } % of its rating
+reason-resistor-no-rating = dissipates { $watts }; no rating given
+threshold-no-power-rating = none: the job gives no power rating
+reason-not-measured = { $nodes } not measured
+place-between = { $from } to { $to }
+place-cathodes = { $count ->
+        [one] { $valves } cathode
+       *[other] { $valves } cathodes
+    }
+place-screen = { $valve } screen
+place-to-screen = { $node } to { $valve } screen
+reason-silicon-rectifier = silicon rectifier
+reason-valve-rectifier = { $type } valve rectifier
+reason-valve-rectifier-slow = { $type } valve rectifier, indirectly heated
+reason-rectifier-not-stated = rectifier not stated, taken as silicon
+reason-cap-peak-words = cold-start peak at high line { $mains } ({ $rectifier })
+reason-cap-work-words = working voltage at high line { $mains }
+threshold-capacitor = over above the { $rating } rating; caution when the margin is under { $margin } %
+reason-cap-unchecked = ; the working voltage was not checked: { $node } not measured
+reason-cap-both-over = the { $peak }, { $peak_volts }, and the { $work }, { $work_volts }, both exceed the { $rating } rating
+reason-cap-work-over = the { $work }, { $work_volts }, exceeds the { $rating } rating
+reason-cap-work-over-peak = the { $work }, { $work_volts }, exceeds the { $rating } rating (the { $peak } reaches { $peak_volts }, which a slow-warming rectifier makes less likely)
+reason-cap-peak-slow = the { $peak }, { $highest }, exceeds the { $rating } rating; a slow-warming rectifier makes this less likely but not impossible
+reason-cap-peak-over = the { $peak }, { $highest }, exceeds the { $rating } rating
+reason-cap-margin-low = the { $source }, { $highest }, leaves only { $margin } % margin on the { $rating } rating
+reason-cap-margin = highest expected { $highest } ({ $source }) leaves { $margin } % margin
+threshold-rectifier = caution above 90 % of the { $rating } rating, over above 100 % (output valves only: a lower bound)
+reason-rectifier = the output valves alone draw { $load } mA, { $pct } % of the { $type } { $position }'s { $rating } mA rating
+
+## Reasons: electrical safety tests (src/calc/safety.rs).
+
+safety-limit-with-cord = ≤ { $limit } + cord { $cord } = { $allowed }
+safety-earth = protective-earth resistance { $ohms }
+safety-insulation-limit = ≥ { $ohms } at { $volts } DC
+safety-insulation = insulation resistance { $ohms } at { $volts } DC
+safety-leakage = leakage current { $amps }
+safety-meets = { $what } meets the limit { $limit }
+safety-fails = { $what } fails the limit { $limit }
+safety-test-earth-continuity = earth continuity
+safety-test-insulation = insulation
+safety-test-leakage = leakage
+
+## Reasons: bench tests (src/calc/bench.rs).
+
+bench-at-clipping = at the onset of clipping
+bench-at-distortion = at { $pct } % distortion
+bench-with-drive = with { $volts } drive
+bench-power-into = { $watts } into { $load } { $condition }
+bench-power-at-drive = { $power }; read at a stated drive, so not judged against the rating
+threshold-power-at-drive = none: only readings at clipping or a stated distortion are judged
+threshold-power = caution below { $guide } % of the rated { $rated }
+bench-power-below-guide = output power { $power } is { $pct } % of the rated { $rated }, below the { $guide } % guide
+bench-power-of-rated = output power { $power } is { $pct } % of the rated { $rated }
+bench-power-no-rating = output power { $power }; the job gives no rated power to compare with
+threshold-power-no-rating = none: the job gives no rated power
+bench-hum-level-shorted = hum and noise { $volts } ({ $dbv } dBV) with the input shorted
+bench-hum-level-open = hum and noise { $volts } ({ $dbv } dBV) with the input open
+threshold-hum = caution when less than { $guide } dB below full output
+bench-rated-full-output = the rated full output of { $watts }
+bench-measured-full-output = the measured full output of { $watts }
+bench-hum-below-guide = { $level } is only { $db } dB below { $against }, less than the { $guide } dB guide
+bench-hum-below = { $level } is { $db } dB below { $against }
+bench-hum-no-full = { $level }; no measured or rated full output to compare with
+threshold-hum-no-full = none: the job gives no output power reading and no rated power
+
+## A valve's checks and how its idle current was found, in words
+## (src/calc/findings.rs).
+
+check-plate-dissipation = plate dissipation
+check-plate-dissipation-high-line = plate dissipation high line
+check-screen-dissipation = screen dissipation
+check-plate-voltage = plate voltage
+check-screen-voltage = screen voltage
+check-cathode-current = cathode current
+check-rectifier-load = rectifier load
+method-shared-cathode-resistor = shared cathode resistor
+method-own-cathode-resistor = own cathode resistor
+method-sense-resistor = sense resistor
+method-transformer-resistance = transformer resistance
+method-shunt = shunt across half primary
+method-probe = bias probe
+
+## The deciding figure of a status in a few words, for a table's status
+## column (src/calc/brief.rs). `$pct` carries its own "%".
+
+brief-plate = plate { $pct }
+brief-plate-high-line = plate { $pct } at high line
+brief-screen = screen { $pct }
+brief-voltage-high-line = { $name } { $pct } at high line
+brief-voltage-of-max = { $name } { $pct } of max
+brief-cathode-current = Ik { $pct } of max
+brief-from-chart = { $deviation } % from chart
+brief-no-chart = no chart figure
+brief-at-high-line = { $pct } % at high line
+brief-of-rating = { $pct } % of rating
+brief-no-rating = no rating given
+brief-working-high-line = working at high line
+brief-cold-start-peak = cold-start peak
+brief-margin = { $pct } % margin
+brief-volts-on-rating = { $volts } { $what } on { $rating }
+brief-margin-what = { $pct } % margin, { $what }
+brief-of-rated = { $pct } % of rated
+brief-below-full = { $db } dB below full
+brief-against = { $measured } against { $limit }
+
+## Warnings and the at-a-glance panel (src/calc/mod.rs): what a finding
+## is about, and each family's line.
+
+warn-subject-reason = { $subject }: { $reason }
+warn-subject-safety = safety
+warn-subject-sign-off = sign-off
+warn-subject-job = job
+warn-subject-heater = heater
+warn-subject-heater-labelled = heater { $label }
+warn-subject-output-power = output power
+warn-subject-hum-noise = hum and noise
+warn-subject-on-channel = { $what } ({ $channel } channel)
+warn-acceptance-unmatched = the acceptance of { $what } matches no figure outside its limits, so it accepts nothing
+warn-accept-node = node { $name }
+warn-accept-heater = heater { $name }
+warn-accept-heater-supply = the heater supply
+warn-accept-safety = the { $name } test
+warn-accept-in-set = { $what } in “{ $set }”
+warn-no-sets = The job has no measurement sets, so no figures could be derived.
+note-unknown-type = { $position }: valve type { $type } is not in the ratings table
+note-not-checked = { $reference }: not checked, { $reason }
+family-output-valves = Output valves against their ratings
+family-supply-voltages = Supply voltages against the chart
+family-stressed-parts = Stressed resistors, capacitors and rectifier
+family-heater = Heater supply
+family-bench-tests = Performance on the bench
+family-safety-tests = Electrical safety tests
+family-no-safety = no safety tests recorded
+family-no-bench = no bench tests recorded
+family-nothing-measured = nothing measured
+family-check-of = { $check } of { $names }
+family-accepted = accepted by the technician: { $what } (reasons below)
+family-safety-ok = all { $count } tests meet their limits
+family-valves-ok = { $count ->
+        [one] { $count } output valve inside their ratings
+       *[other] { $count } output valves inside their ratings
+    }; hottest { $hottest } at { $pct } % of its plate rating
+family-nodes-ok = { $count ->
+        [one] { $count } node
+       *[other] { $count } nodes
+    } within tolerance of the chart; largest deviation { $deviation } % at { $node }
+family-busiest-resistor = busiest resistor { $reference } at { $pct } % of its rating
+family-least-margin = least capacitor margin { $pct } % ({ $reference })
+family-rectifier-load = rectifier { $position } at { $pct } % of its rating
+family-heater-ok = { $measured } against { $nominal } ({ $deviation } %)
+family-bench-power = { $watts } W into { $load } { $condition }
+family-bench-power-rated = { $watts } W into { $load } { $condition } ({ $pct } % of rated)
+family-bench-hum-below = hum and noise { $db } dB below full output
+family-bench-hum = hum and noise { $volts } ({ $dbv } dBV)
+family-bench-response-both = −3 dB at { $low } and { $high }
+family-bench-response-low = −3 dB at { $low }, within 3 dB up to { $high }
+family-bench-response-high = within 3 dB down to { $low }, −3 dB at { $high }
+family-bench-response-flat = within 3 dB from { $low } to { $high }
+family-bench-gain = gain { $db } dB
+
+## Notes on readings that could not be used (src/calc). Each starts with
+## what it is about and a colon.
+
+note-screen-above-supply = { $position }: the screen reads { $screen } but its supply { $supply } reads { $volts }; the screen current is left out
+note-no-idle-current = { $position }: no reading gives the idle current (read the cathode, sense-resistor or half-primary voltage, or a current)
+note-no-half-primary = { $position }: a half-primary drop is given but the circuit has no half-primary resistance for { $position }
+note-no-sense-resistor = { $position }: a sense-resistor voltage is given but the circuit has no sense resistor for { $position }
+
+## Lists in running text: "V3, V4 and V5".
+
+list-and = { $first } and { $last }

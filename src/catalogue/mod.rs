@@ -229,6 +229,25 @@ impl Catalogue {
         )
     }
 
+    /// A list in words: "B+1", "B+1 and B+2", "V3, V4 and V5" (the last
+    /// pair joined by `list-and`, the rest by commas).
+    pub fn and_list<S: AsRef<str>>(&self, items: &[S]) -> String {
+        match items {
+            [] => String::new(),
+            [one] => one.as_ref().to_owned(),
+            [rest @ .., last] => {
+                let first: Vec<&str> = rest.iter().map(|s| s.as_ref()).collect();
+                self.format(
+                    "list-and",
+                    &[
+                        ("first", Arg::from(first.join(", "))),
+                        ("last", Arg::from(last.as_ref())),
+                    ],
+                )
+            }
+        }
+    }
+
     /// Every message of the catalogue without arguments that a template
     /// may print as a label, by key.
     pub fn keys(&self) -> Vec<String> {

@@ -11,6 +11,20 @@ const NAMESPACES: &[&str] = &[
     "term",
     "reason",
     "threshold",
+    "note",
+    "place",
+    "list",
+    "summary",
+    "attention",
+    "chart",
+    "family",
+    "brief",
+    "warn",
+    "bench",
+    "safety",
+    "method",
+    "role",
+    "check",
 ];
 
 /// Every `t("key")`/`tm("key")` of a template and every

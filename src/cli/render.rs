@@ -28,7 +28,6 @@ use super::job_files::JobFile;
 use super::said::Said;
 use super::{load, ui};
 use crate::calc;
-use crate::catalogue::Catalogue;
 use crate::input_file::is_dash;
 use crate::ratings::RatingsTable;
 use crate::report::handover::{self, HandoverError, HandoverInput};
@@ -390,7 +389,7 @@ fn render_job(
     }
 
     let photos = load::photos(job_path, &loaded, said)?;
-    let mut findings = calc::derive(job, &setup.ratings);
+    let mut findings = calc::derive_in(job, &setup.ratings, loaded.catalogue());
     load::stamp(job_path, &loaded, &mut findings);
     for warning in undrawable_text(&load::job_name(job_path), &loaded.text) {
         said.warn(warning);
@@ -404,10 +403,7 @@ fn render_job(
         shop: loaded.shop.as_ref().map(|s| &s.profile),
         logo: loaded.shop.as_ref().and_then(|s| s.logo.as_ref()),
         include_charges: !args.no_charges,
-        catalogue: loaded
-            .shop
-            .as_ref()
-            .map_or(Catalogue::english(), |s| &s.catalogue),
+        catalogue: loaded.catalogue(),
         revision: findings.job.git.clone(),
         photos: &photos,
     };

@@ -1202,7 +1202,7 @@ fn set_context(
             .any(|v| v.plate_current_includes_screen && v.plate_current_ma.is_some()),
         methods: methods
             .into_iter()
-            .map(|(m, positions)| format!("{} ({})", m.words(), positions.join(", ")))
+            .map(|(m, positions)| format!("{} ({})", cat.text(m.key()), positions.join(", ")))
             .collect(),
         windows,
         resistors,
