@@ -380,6 +380,80 @@ period-years = { $count ->
        *[other] { $count } Jahre
     }
 
+## Die Zusammenfassung in einfachen Worten auf Seite 1 (src/report/summary.rs).
+## `$names` ist eine Aufzählung („V3 und V4“), `$range` ein Prozentwert oder
+## Bereich („67–68 %“), `$troubles` eine Aufzählung der Wendungen darüber.
+
+summary-valves-hot = { $count ->
+        [one] Endröhre { $names } läuft heiß
+       *[other] Endröhren { $names } laufen heiß
+    } ({ $range } der Anodenverlustleistung)
+summary-valves-cold = { $count ->
+        [one] Endröhre { $names } läuft zu kalt
+       *[other] Endröhren { $names } laufen zu kalt
+    } ({ $range } der Anodenverlustleistung)
+summary-valves-beyond = { $count ->
+        [one] Endröhre { $names } über der zulässigen Anodenverlustleistung
+       *[other] Endröhren { $names } über der zulässigen Anodenverlustleistung
+    } ({ $range })
+summary-valves-high-line = { $count ->
+        [one] Endröhre { $names } nahe an der zulässigen Anodenverlustleistung
+       *[other] Endröhren { $names } nahe an der zulässigen Anodenverlustleistung
+    } an der oberen Netzgrenze ({ $range })
+summary-screen-hot = zu hohe Schirmgitterverlustleistung an { $names } ({ $range } des Grenzwerts)
+summary-voltage-max = Röhrenspannungen über dem veröffentlichten Höchstwert an { $names }
+summary-cathode-current = mehr als der zulässige Kathodenstrom an { $names }
+summary-nodes-off = Versorgungsspannungen abweichend von der Spannungstabelle an { $names }
+summary-resistor-over = Widerstand { $name } überlastet mit { $pct } seiner Belastbarkeit
+summary-resistors-over = Widerstände { $names } überlastet
+summary-resistors-warm = { $count ->
+        [one] Widerstand { $names } wird warm
+       *[other] Widerstände { $names } werden warm
+    }
+summary-capacitors-over = { $count ->
+        [one] Kondensator { $names } für eine niedrigere Spannung ausgelegt, als er sehen kann
+       *[other] Kondensatoren { $names } für eine niedrigere Spannung ausgelegt, als sie sehen können
+    }
+summary-capacitors-margin = wenig Spannungsreserve { $count ->
+        [one] am Kondensator { $names }
+       *[other] an den Kondensatoren { $names }
+    }
+summary-rectifier-load = Gleichrichterröhre { $names } mit { $range } ihres Nennstroms belastet
+summary-heater-low = Heizspannung { $pct } % zu niedrig
+summary-heater-high = Heizspannung { $pct } % zu hoch
+summary-found-ok = Die Messreihe „{ $label }“ zeigte alle Werte innerhalb ihrer Grenzen.
+summary-found = Die Messreihe „{ $label }“ zeigte: { $troubles }.
+summary-parts = { $count ->
+        [one] Ein Bauteil wurde ersetzt ({ $parts }).
+       *[other] { $count } Bauteile wurden ersetzt ({ $parts }).
+    }
+summary-mods = { $count ->
+        [one] Eine Änderung wurde vorgenommen (unten aufgeführt).
+       *[other] { $count } Änderungen wurden vorgenommen (unten aufgeführt).
+    }
+summary-type-change = In { $position } steckt jetzt eine { $now } (vorher eine { $was }).
+summary-idle-now = Die Endröhren arbeiten jetzt im Ruhezustand mit { $now } ihrer Anodenverlustleistung (vorher { $was }).
+summary-now-ok = { $accepted ->
+        [0] Bei der Übergabe („{ $label }“) liegen alle Werte innerhalb ihrer Grenzen.
+        [one] Bei der Übergabe („{ $label }“) liegen alle Werte innerhalb ihrer Grenzen, bis auf einen, den der Techniker geprüft und freigegeben hat (unten aufgeführt).
+       *[other] Bei der Übergabe („{ $label }“) liegen alle Werte innerhalb ihrer Grenzen, bis auf { $accepted }, die der Techniker geprüft und freigegeben hat (unten aufgeführt).
+    }
+summary-now-open = Bei der Übergabe („{ $label }“) braucht noch Aufmerksamkeit: { $troubles }.
+summary-no-measurements = Es wurden keine Messungen festgehalten.
+summary-no-safety = Es wurden keine elektrischen Sicherheitsprüfungen festgehalten.
+summary-safety-failed = { $count ->
+        [one] Die Prüfung { $tests } hat den Grenzwert der Werkstatt nicht eingehalten.
+       *[other] Die Prüfungen { $tests } haben den Grenzwert der Werkstatt nicht eingehalten.
+    }
+summary-safety-ok = { $count ->
+        [one] Die elektrische Sicherheitsprüfung hat den Grenzwert der Werkstatt eingehalten.
+       *[other] Alle { $count } elektrischen Sicherheitsprüfungen haben die Grenzwerte der Werkstatt eingehalten.
+    }
+
+## Was Aufmerksamkeit braucht, gruppiert (src/report/attention.rs).
+
+attention-accepted = { $brief } (freigegeben)
+
 ## Das Terminal (`ampreport check`). Leerzeichen am Anfang oder Ende einer
 ## Meldung entfallen: das Programm setzt sie.
 
@@ -568,8 +642,8 @@ safety-insulation = Isolationswiderstand { $ohms } bei { $volts } DC
 safety-leakage = Ableitstrom { $amps }
 safety-meets = { $what } hält den Grenzwert { $limit } ein
 safety-fails = { $what } verfehlt den Grenzwert { $limit }
-safety-test-earth-continuity = Schutzleiterprüfung
-safety-test-insulation = Isolationsprüfung
+safety-test-earth-continuity = Schutzleiter
+safety-test-insulation = Isolation
 safety-test-leakage = Ableitstrom
 
 ## Begründungen: Messungen am Prüfplatz (src/calc/bench.rs).

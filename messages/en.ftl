@@ -379,6 +379,80 @@ period-years = { $count ->
        *[other] { $count } years
     }
 
+## The plain-words summary that opens page one (src/report/summary.rs).
+## `$names` is a list ("V3 and V4"), `$range` a percentage or a range
+## ("67–68 %"), `$troubles` a list of the phrases above it.
+
+summary-valves-hot = { $count ->
+        [one] output valve { $names }
+       *[other] output valves { $names }
+    } running hot ({ $range } of the plate rating)
+summary-valves-cold = { $count ->
+        [one] output valve { $names }
+       *[other] output valves { $names }
+    } idling cold ({ $range } of the plate rating)
+summary-valves-beyond = { $count ->
+        [one] output valve { $names }
+       *[other] output valves { $names }
+    } beyond the plate rating ({ $range })
+summary-valves-high-line = { $count ->
+        [one] output valve { $names }
+       *[other] output valves { $names }
+    } close to the plate rating at the top of the mains range ({ $range })
+summary-screen-hot = screen dissipation too high on { $names } ({ $range } of the rating)
+summary-voltage-max = valve voltages above the published maximum on { $names }
+summary-cathode-current = more than the rated cathode current on { $names }
+summary-nodes-off = supply voltages off the factory chart at { $names }
+summary-resistor-over = resistor { $name } overloaded at { $pct } of its rating
+summary-resistors-over = resistors { $names } overloaded
+summary-resistors-warm = { $count ->
+        [one] resistor { $names }
+       *[other] resistors { $names }
+    } running warm
+summary-capacitors-over = { $count ->
+        [one] capacitor { $names } rated below the voltage it can see
+       *[other] capacitors { $names } rated below the voltage they can see
+    }
+summary-capacitors-margin = little voltage margin on { $count ->
+        [one] capacitor { $names }
+       *[other] capacitors { $names }
+    }
+summary-rectifier-load = the rectifier valve { $names } loaded to { $range } of its rating
+summary-heater-low = the heater supply { $pct } % low
+summary-heater-high = the heater supply { $pct } % high
+summary-found-ok = The readings “{ $label }” showed every figure inside its limits.
+summary-found = The readings “{ $label }” showed { $troubles }.
+summary-parts = { $count ->
+        [one] One part was replaced ({ $parts }).
+       *[other] { $count } parts were replaced ({ $parts }).
+    }
+summary-mods = { $count ->
+        [one] One modification was made (listed below).
+       *[other] { $count } modifications were made (listed below).
+    }
+summary-type-change = { $position } now holds a { $now } (it held a { $was }).
+summary-idle-now = The output valves now idle at { $now } of their plate rating (they were at { $was }).
+summary-now-ok = { $accepted ->
+        [0] As handed over (“{ $label }”), every figure is inside its limits.
+        [one] As handed over (“{ $label }”), every figure is inside its limits, apart from one the technician has judged and accepted (listed below).
+       *[other] As handed over (“{ $label }”), every figure is inside its limits, apart from { $accepted } the technician has judged and accepted (listed below).
+    }
+summary-now-open = As handed over (“{ $label }”), still needing attention: { $troubles }.
+summary-no-measurements = No measurements were recorded.
+summary-no-safety = No electrical safety tests were recorded.
+summary-safety-failed = { $count ->
+        [one] The { $tests } test did not meet the shop's limit.
+       *[other] The { $tests } tests did not meet the shop's limit.
+    }
+summary-safety-ok = { $count ->
+        [one] The electrical safety test met the shop's limit.
+       *[other] All { $count } electrical safety tests met the shop's limits.
+    }
+
+## What needs attention, grouped (src/report/attention.rs).
+
+attention-accepted = { $brief } (accepted)
+
 ## The terminal (`ampreport check`, src/report/terminal.rs). Spaces at the
 ## start or end of a message are dropped: the program adds them.
 
