@@ -380,6 +380,69 @@ period-years = { $count ->
        *[other] { $count } Jahre
     }
 
+## Wörter der Tabellenzeilen, die das Programm bildet
+## (src/report/handover/context.rs und context/bench.rs).
+
+doc-yes = ja
+doc-no = nein
+role-preamp = Vorstufe
+role-phase-inverter = Phasenumkehr
+role-output = Endstufe
+role-rectifier = Gleichrichter
+role-tremolo = Tremolo
+role-reverb-driver = Hall-Treiber
+role-reverb-recovery = Hall-Rückgewinnung
+role-other = sonstige
+doc-type-in-set = { $type } in „{ $set }“
+doc-type-change = { $position }: { $type } (Bestückung: { $line_up })
+doc-kind-dropper = Siebwiderstand
+doc-kind-cathode-resistor = Kathodenwiderstand
+doc-kind-screen-resistor = Schirmgitterwiderstand
+doc-kind-filter-capacitor = Siebkondensator
+doc-across-sense-named = am Messwiderstand { $reference } ({ $ohms })
+doc-across-sense-value = am Messwiderstand ({ $ohms })
+doc-across-sense = am Messwiderstand
+doc-across-primary-value = über der halben Primärwicklung ({ $ohms })
+doc-across-primary-shared = über der halben Primärwicklung ({ $ohms }, gemeinsam mit { $others })
+doc-across-primary = über der halben Primärwicklung
+doc-across-probe = Kathodenstrom am Bias-Messadapter
+doc-counted-outputs = die Kathodenströme der Endröhren
+doc-counted-of = Kathodenströme von { $valves }
+doc-figure-rc-corner = RC-Eckfrequenz
+doc-figure-cathode-bypass = Eckfrequenz der Kathodenüberbrückung
+doc-figure-stage-gain = Stufenverstärkung
+doc-figure-phase-shift = Phasenschieber-Oszillator
+doc-chart-band-fixed = Das graue Band ist das Ziel bei fester Gittervorspannung, { $low }–{ $high } % des Grenzwerts.
+doc-chart-band-cathode = Die gestrichelte Linie ist die Vorsichtsgrenze bei Kathodenautomatik, { $caution } % des Grenzwerts.
+doc-class-one = Schutzklasse I (mit Schutzleiter)
+doc-class-two = Schutzklasse II (schutzisoliert)
+doc-test-earth-continuity = Schutzleiterwiderstand
+doc-test-insulation = Isolationswiderstand
+doc-test-leakage = Ableitstrom (Berührungsstrom)
+doc-pass = bestanden
+doc-fail = nicht bestanden
+doc-bands-shop = aus dem Profil der Werkstatt: { $names }
+doc-bands-job = für diesen Auftrag gesetzt: { $names }
+doc-bands-defaults = { $sets }; die übrigen sind die eingebauten Voreinstellungen
+doc-valve-class-output-pentode = Endpentode
+doc-valve-class-beam-tetrode = Beam-Tetrode
+doc-valve-class-power-triode = Leistungstriode
+doc-valve-class-preamp-triode = Vorstufentriode
+doc-valve-class-preamp-pentode = Vorstufenpentode
+doc-valve-class-rectifier = Gleichrichter
+doc-built-in = eingebaut
+doc-input-shorted = kurzgeschlossen
+doc-input-open = offen
+doc-against-rated = Nennleistung { $watts }
+doc-against-measured = gemessen { $watts }
+doc-below = unter { $frequency }
+doc-above = über { $frequency }
+doc-suggest-hottest = { $valve } ({ $type }), die heißeste Röhre daran,
+doc-suggest-asked = Der Auftrag verlangt einen Vorschlag für diese Messreihe.
+doc-suggest-shown = Gezeigt, weil die Anodenverlustleistung über dem Richtwert von { $caution } % für Kathodenautomatik liegt.
+doc-suggest-present = { $watts } W, { $pct } % von { $max }
+doc-suggest-target = { $pct } % von { $max }, { $watts } W
+
 ## Die Zusammenfassung in einfachen Worten auf Seite 1 (src/report/summary.rs).
 ## `$names` ist eine Aufzählung („V3 und V4“), `$range` ein Prozentwert oder
 ## Bereich („67–68 %“), `$troubles` eine Aufzählung der Wendungen darüber.

@@ -379,6 +379,69 @@ period-years = { $count ->
        *[other] { $count } years
     }
 
+## Words of the document's rows built by the program
+## (src/report/handover/context.rs and context/bench.rs).
+
+doc-yes = yes
+doc-no = no
+role-preamp = preamp
+role-phase-inverter = phase inverter
+role-output = output
+role-rectifier = rectifier
+role-tremolo = tremolo
+role-reverb-driver = reverb driver
+role-reverb-recovery = reverb recovery
+role-other = other
+doc-type-in-set = { $type } in “{ $set }”
+doc-type-change = { $position }: { $type } (line-up: { $line_up })
+doc-kind-dropper = dropper
+doc-kind-cathode-resistor = cathode resistor
+doc-kind-screen-resistor = screen resistor
+doc-kind-filter-capacitor = filter capacitor
+doc-across-sense-named = across the { $ohms } sense resistor { $reference }
+doc-across-sense-value = across the { $ohms } sense resistor
+doc-across-sense = across the sense resistor
+doc-across-primary-value = across its half primary ({ $ohms })
+doc-across-primary-shared = across its half primary ({ $ohms }, shared with { $others })
+doc-across-primary = across its half primary
+doc-across-probe = cathode current on a bias probe
+doc-counted-outputs = the output valves' cathode currents
+doc-counted-of = cathode currents of { $valves }
+doc-figure-rc-corner = RC corner
+doc-figure-cathode-bypass = cathode-bypass corner
+doc-figure-stage-gain = stage gain
+doc-figure-phase-shift = phase-shift oscillator
+doc-chart-band-fixed = The grey band is the fixed-bias aim of { $low }–{ $high } % of the rating.
+doc-chart-band-cathode = The dashed line is the cathode-bias caution level of { $caution } % of the rating.
+doc-class-one = Class I (protectively earthed)
+doc-class-two = Class II (double insulated)
+doc-test-earth-continuity = Protective-earth continuity
+doc-test-insulation = Insulation resistance
+doc-test-leakage = Leakage (touch) current
+doc-pass = pass
+doc-fail = fail
+doc-bands-shop = set by the shop's profile: { $names }
+doc-bands-job = set for this job: { $names }
+doc-bands-defaults = { $sets }; the others are the built-in defaults
+doc-valve-class-output-pentode = output pentode
+doc-valve-class-beam-tetrode = beam tetrode
+doc-valve-class-power-triode = power triode
+doc-valve-class-preamp-triode = preamp triode
+doc-valve-class-preamp-pentode = preamp pentode
+doc-valve-class-rectifier = rectifier
+doc-built-in = built in
+doc-input-shorted = shorted
+doc-input-open = open
+doc-against-rated = rated { $watts }
+doc-against-measured = measured { $watts }
+doc-below = below { $frequency }
+doc-above = above { $frequency }
+doc-suggest-hottest = { $valve } ({ $type }), the hottest valve on it,
+doc-suggest-asked = The job asks for a suggestion in this set.
+doc-suggest-shown = Shown because the plate dissipation is above the { $caution } % cathode-bias guide.
+doc-suggest-present = { $watts } W, { $pct } % of { $max }
+doc-suggest-target = { $pct } % of { $max }, { $watts } W
+
 ## The plain-words summary that opens page one (src/report/summary.rs).
 ## `$names` is a list ("V3 and V4"), `$range` a percentage or a range
 ## ("67–68 %"), `$troubles` a list of the phrases above it.

@@ -6,8 +6,8 @@
 //! Every sentence of the summary is a `summary-…` message of the catalogue;
 //! the figures and names are its arguments.
 
-use crate::catalogue::{Arg, Catalogue};
 use crate::calc::{Findings, SetFindings, Status, Verdict};
+use crate::catalogue::{Arg, Catalogue};
 use crate::job::Job;
 
 /// The summary, sentence by sentence.
@@ -268,10 +268,8 @@ pub fn summary(job: &Job, findings: &Findings, cat: &Catalogue) -> Summary {
         ));
     }
     if !job.mods.is_empty() {
-        out.done.push(cat.format(
-            "summary-mods",
-            &[("count", Arg::from(job.mods.len()))],
-        ));
+        out.done
+            .push(cat.format("summary-mods", &[("count", Arg::from(job.mods.len()))]));
     }
     if let Some(last) = final_set {
         for l in &findings.line_up {

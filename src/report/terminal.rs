@@ -209,7 +209,10 @@ pub fn render(job: &Job, findings: &Findings, style: &TerminalStyle) -> String {
         out.push('\n');
     }
 
-    out.push_str(&render_attention(&attention::attention(findings, &style.catalogue), style));
+    out.push_str(&render_attention(
+        &attention::attention(findings, &style.catalogue),
+        style,
+    ));
     out
 }
 
