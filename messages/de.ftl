@@ -443,6 +443,44 @@ doc-suggest-shown = Gezeigt, weil die Anodenverlustleistung über dem Richtwert 
 doc-suggest-present = { $watts } W, { $pct } % von { $max }
 doc-suggest-target = { $pct } % von { $max }, { $watts } W
 
+## Die festen Wörter der Diagramme (src/report/plots.rs, plots/warm_up.rs,
+## response_chart.rs, network_chart.rs) und der Netzwerkansicht einer
+## Änderung (src/report/handover/context/network_view.rs).
+
+chart-span = { $first } bis { $last }
+chart-part-readings = Messreihen { $span }
+chart-part-curves = Kurven { $span }
+chart-dissipation-axis = Anodenverlustleistung, % des Grenzwerts
+chart-fixed-bias-aim = Ziel feste Vorspannung
+chart-caution = Vorsicht { $pct } %
+chart-full-rating = 100 % Grenzwert
+chart-expected-band = Sollwert ± Toleranz
+chart-supply-axis = Volt DC, umgerechnet auf { $nominal } V Netz
+chart-db-against-reference = dB zur Bezugsfrequenz
+chart-frequency-axis = Frequenz, Hz (logarithmisch)
+chart-minus-3db-point = −3-dB-Punkt
+chart-idle-current-ik = Ruhestrom (Ik), mA
+chart-idle-current = Ruhestrom, mA
+chart-minutes = Minuten nach dem Einschalten
+chart-before-mod = vor der Änderung
+chart-after-mod = danach
+chart-setting = Stellung { $number }: { $pots }
+chart-pots-at = Potis auf { $pots }
+chart-db-at-load = dB an der Last
+doc-network-scoop = Senke bei { $frequency }, { $depth } tief
+doc-network-flat = eben innerhalb 3 dB
+doc-network-low-cut = Tiefenabsenkung { $frequency }
+doc-network-high-cut = Höhenabsenkung { $frequency }
+doc-network-loaded = Abgegriffen an Knoten { $node }, belastet mit { $ohms } gegen Masse.
+doc-network-unloaded = Abgegriffen an Knoten { $node }, unbelastet.
+doc-network-driven = Gespeist an Knoten { $node } von { $source }.
+doc-network-driven-when = Gespeist an Knoten { $node } ({ $state }) von { $source }.
+doc-network-own-gain = Deren eigene Verstärkung, etwa { $gain }, ist in den Kurven nicht enthalten.
+doc-network-default-label = Netzwerk
+doc-network-never = nie 180°
+doc-network-pot-setting = Stellung { $pot }
+doc-network-setting = Stellung
+
 ## Die Zusammenfassung in einfachen Worten auf Seite 1 (src/report/summary.rs).
 ## `$names` ist eine Aufzählung („V3 und V4“), `$range` ein Prozentwert oder
 ## Bereich („67–68 %“), `$troubles` eine Aufzählung der Wendungen darüber.

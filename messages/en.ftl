@@ -442,6 +442,44 @@ doc-suggest-shown = Shown because the plate dissipation is above the { $caution 
 doc-suggest-present = { $watts } W, { $pct } % of { $max }
 doc-suggest-target = { $pct } % of { $max }, { $watts } W
 
+## The charts' fixed words (src/report/plots.rs, plots/warm_up.rs,
+## response_chart.rs, network_chart.rs), and a mod's network view
+## (src/report/handover/context/network_view.rs).
+
+chart-span = { $first } to { $last }
+chart-part-readings = readings { $span }
+chart-part-curves = curves { $span }
+chart-dissipation-axis = Plate dissipation, % of rating
+chart-fixed-bias-aim = fixed-bias aim
+chart-caution = caution { $pct } %
+chart-full-rating = 100 % rating
+chart-expected-band = expected ± tolerance
+chart-supply-axis = Volts DC, corrected to { $nominal } V mains
+chart-db-against-reference = dB against the reference
+chart-frequency-axis = Frequency, Hz (logarithmic)
+chart-minus-3db-point = −3 dB point
+chart-idle-current-ik = Idle current (Ik), mA
+chart-idle-current = Idle current, mA
+chart-minutes = Minutes since power-on
+chart-before-mod = before the mod
+chart-after-mod = after
+chart-setting = setting { $number }: { $pots }
+chart-pots-at = pots at { $pots }
+chart-db-at-load = dB at the load
+doc-network-scoop = scoop at { $frequency }, { $depth } deep
+doc-network-flat = flat within 3 dB
+doc-network-low-cut = low cut { $frequency }
+doc-network-high-cut = high cut { $frequency }
+doc-network-loaded = Read at node { $node }, loaded by { $ohms } to ground.
+doc-network-unloaded = Read at node { $node }, unloaded.
+doc-network-driven = Driven at node { $node } by { $source }.
+doc-network-driven-when = Driven at node { $node } ({ $state }) by { $source }.
+doc-network-own-gain = Its own gain, about { $gain }, is left out of the curves.
+doc-network-default-label = network
+doc-network-never = never 180°
+doc-network-pot-setting = { $pot } setting
+doc-network-setting = Setting
+
 ## The plain-words summary that opens page one (src/report/summary.rs).
 ## `$names` is a list ("V3 and V4"), `$range` a percentage or a range
 ## ("67–68 %"), `$troubles` a list of the phrases above it.

@@ -77,6 +77,17 @@ impl std::fmt::Debug for Catalogue {
     }
 }
 
+/// Two catalogues are equal when they are the same one, or the same
+/// built-in language.
+impl PartialEq for Catalogue {
+    fn eq(&self, other: &Self) -> bool {
+        Arc::ptr_eq(&self.inner, &other.inner)
+            || (self.inner.origin == "built-in"
+                && other.inner.origin == "built-in"
+                && self.inner.language == other.inner.language)
+    }
+}
+
 impl Default for Catalogue {
     fn default() -> Self {
         Catalogue::english().clone()

@@ -957,7 +957,7 @@ pub fn build_context(
                     .get(i)
                     .filter(|f| f.what == m.what)
                     .and_then(|f| f.network.as_ref())
-                    .map(|n| network_view(i, n)),
+                    .map(|n| network_view(i, n, cat)),
             })
             .collect(),
         notes: job.notes.iter().map(|n| reflow(&n.text)).collect(),
