@@ -383,6 +383,11 @@ period-years = { $count ->
 ## Wörter der Tabellenzeilen, die das Programm bildet
 ## (src/report/handover/context.rs und context/bench.rs).
 
+doc-window-inside = im Ziel
+doc-window-above = darüber
+doc-window-below = darunter
+doc-per-hour = { $price } pro Stunde
+doc-each = { $price } je Stück
 doc-yes = ja
 doc-no = nein
 role-preamp = Vorstufe
@@ -414,8 +419,8 @@ doc-figure-stage-gain = Stufenverstärkung
 doc-figure-phase-shift = Phasenschieber-Oszillator
 doc-chart-band-fixed = Das graue Band ist das Ziel bei fester Gittervorspannung, { $low }–{ $high } % des Grenzwerts.
 doc-chart-band-cathode = Die gestrichelte Linie ist die Vorsichtsgrenze bei Kathodenautomatik, { $caution } % des Grenzwerts.
-doc-class-one = Schutzklasse I (mit Schutzleiter)
-doc-class-two = Schutzklasse II (schutzisoliert)
+doc-class-one = I (mit Schutzleiter)
+doc-class-two = II (schutzisoliert)
 doc-test-earth-continuity = Schutzleiterwiderstand
 doc-test-insulation = Isolationswiderstand
 doc-test-leakage = Ableitstrom (Berührungsstrom)
@@ -451,7 +456,7 @@ chart-span = { $first } bis { $last }
 chart-part-readings = Messreihen { $span }
 chart-part-curves = Kurven { $span }
 chart-dissipation-axis = Anodenverlustleistung, % des Grenzwerts
-chart-fixed-bias-aim = Ziel feste Vorspannung
+chart-fixed-bias-aim = Zielbereich
 chart-caution = Vorsicht { $pct } %
 chart-full-rating = 100 % Grenzwert
 chart-expected-band = Sollwert ± Toleranz
@@ -536,8 +541,8 @@ summary-type-change = In { $position } steckt jetzt eine { $now } (vorher eine {
 summary-idle-now = Die Endröhren arbeiten jetzt im Ruhezustand mit { $now } ihrer Anodenverlustleistung (vorher { $was }).
 summary-now-ok = { $accepted ->
         [0] Bei der Übergabe („{ $label }“) liegen alle Werte innerhalb ihrer Grenzen.
-        [one] Bei der Übergabe („{ $label }“) liegen alle Werte innerhalb ihrer Grenzen, bis auf einen, den der Techniker geprüft und freigegeben hat (unten aufgeführt).
-       *[other] Bei der Übergabe („{ $label }“) liegen alle Werte innerhalb ihrer Grenzen, bis auf { $accepted }, die der Techniker geprüft und freigegeben hat (unten aufgeführt).
+        [one] Bei der Übergabe („{ $label }“) liegen alle Werte innerhalb ihrer Grenzen, bis auf einen, den der Techniker beurteilt und akzeptiert hat (unten aufgeführt).
+       *[other] Bei der Übergabe („{ $label }“) liegen alle Werte innerhalb ihrer Grenzen, bis auf { $accepted }, die der Techniker beurteilt und akzeptiert hat (unten aufgeführt).
     }
 summary-now-open = Bei der Übergabe („{ $label }“) braucht noch Aufmerksamkeit: { $troubles }.
 summary-no-measurements = Es wurden keine Messungen festgehalten.
@@ -553,7 +558,7 @@ summary-safety-ok = { $count ->
 
 ## Was Aufmerksamkeit braucht, gruppiert (src/report/attention.rs).
 
-attention-accepted = { $brief } (freigegeben)
+attention-accepted = { $brief } (akzeptiert)
 
 ## Das Terminal (`ampreport check`). Leerzeichen am Anfang oder Ende einer
 ## Meldung entfallen: das Programm setzt sie.
@@ -709,13 +714,13 @@ reason-resistor-high-line = würde an der oberen Netzgrenze { $watts } umsetzen,
 reason-resistor-no-rating = setzt { $watts } um; keine Belastbarkeit angegeben
 threshold-no-power-rating = keine: der Auftrag nennt keine Belastbarkeit
 reason-not-measured = { $nodes } nicht gemessen
-place-between = { $from } nach { $to }
+place-between = { $from } → { $to }
 place-cathodes = { $count ->
         [one] Kathode { $valves }
        *[other] Kathoden { $valves }
     }
 place-screen = Schirmgitter { $valve }
-place-to-screen = { $node } zum Schirmgitter { $valve }
+place-to-screen = { $node } → g2 { $valve }
 reason-silicon-rectifier = Siliziumgleichrichter
 reason-valve-rectifier = Gleichrichterröhre { $type }
 reason-valve-rectifier-slow = Gleichrichterröhre { $type }, indirekt geheizt
@@ -791,23 +796,23 @@ method-probe = Bias-Messadapter
 ## Statusspalte der Tabellen (src/calc/brief.rs). `$pct` bringt sein „%“ mit.
 
 brief-plate = Anode { $pct }
-brief-plate-high-line = Anode { $pct } an der oberen Netzgrenze
+brief-plate-high-line = Anode { $pct } (Netz max.)
 brief-screen = Schirmgitter { $pct }
-brief-voltage-high-line = { $name } { $pct } an der oberen Netzgrenze
-brief-voltage-of-max = { $name } { $pct } des Höchstwerts
-brief-cathode-current = Ik { $pct } des Höchstwerts
+brief-voltage-high-line = { $name } { $pct } (Netz max.)
+brief-voltage-of-max = { $name } { $pct } v. Max.
+brief-cathode-current = Ik { $pct } v. Max.
 brief-from-chart = { $deviation } % zur Tabelle
 brief-no-chart = kein Tabellenwert
-brief-at-high-line = { $pct } % an der oberen Netzgrenze
-brief-of-rating = { $pct } % des Nennwerts
+brief-at-high-line = { $pct } % (Netz max.)
+brief-of-rating = { $pct } % v. Nennwert
 brief-no-rating = kein Nennwert angegeben
-brief-working-high-line = Betrieb an der oberen Netzgrenze
+brief-working-high-line = Betrieb, Netz max.
 brief-cold-start-peak = Einschaltspitze
 brief-margin = { $pct } % Reserve
 brief-volts-on-rating = { $volts } { $what } bei { $rating }
 brief-margin-what = { $pct } % Reserve, { $what }
 brief-of-rated = { $pct } % der Nennleistung
-brief-below-full = { $db } dB unter Vollaussteuerung
+brief-below-full = { $db } dB unter Vollpegel
 brief-against = { $measured } gegen { $limit }
 
 ## Warnungen und die Übersicht auf Seite 1 (src/calc/mod.rs): worum es bei
@@ -822,7 +827,7 @@ warn-subject-heater-labelled = Heizung { $label }
 warn-subject-output-power = Ausgangsleistung
 warn-subject-hum-noise = Brumm und Rauschen
 warn-subject-on-channel = { $what } (Kanal { $channel })
-warn-acceptance-unmatched = die Freigabe von { $what } trifft auf keinen Wert außerhalb seiner Grenzen und gibt daher nichts frei
+warn-acceptance-unmatched = die Akzeptanz von { $what } trifft auf keinen Wert außerhalb seiner Grenzen und akzeptiert daher nichts
 warn-accept-node = Messpunkt { $name }
 warn-accept-heater = Heizung { $name }
 warn-accept-heater-supply = die Heizversorgung
@@ -841,7 +846,7 @@ family-no-safety = keine Sicherheitsprüfungen festgehalten
 family-no-bench = keine Messungen am Prüfplatz festgehalten
 family-nothing-measured = nichts gemessen
 family-check-of = { $check } von { $names }
-family-accepted = vom Techniker freigegeben: { $what } (Gründe unten)
+family-accepted = vom Techniker akzeptiert: { $what } (Gründe unten)
 family-safety-ok = { $count ->
         [one] die Prüfung hält ihren Grenzwert ein
        *[other] alle { $count } Prüfungen halten ihre Grenzwerte ein

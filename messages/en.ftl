@@ -382,6 +382,11 @@ period-years = { $count ->
 ## Words of the document's rows built by the program
 ## (src/report/handover/context.rs and context/bench.rs).
 
+doc-window-inside = inside
+doc-window-above = above
+doc-window-below = below
+doc-per-hour = { $price } per hour
+doc-each = { $price } each
 doc-yes = yes
 doc-no = no
 role-preamp = preamp

@@ -971,7 +971,7 @@ pub fn build_context(
             .charges
             .as_ref()
             .filter(|_| inputs.include_charges)
-            .and_then(charges_context),
+            .and_then(|c| charges_context(c, cat)),
         footer: Footer {
             shop: (!inputs.shop.neutral)
                 .then(|| crate::report::plots::label_text(&inputs.shop.name, FOOTER_ID_CHARS)),
@@ -1450,7 +1450,9 @@ fn window_row(v: &ValveFindings, cat: &Catalogue) -> Option<WindowRow> {
         plate_current: range(w.plate_current_low_ma, w.plate_current_high_ma, 1, "mA"),
         plate_current_now: v.plate_current_ma.map(|i| format!("{} mA", fixed(i, 1))),
         readings,
-        place: w.place.to_string(),
+        place: cat
+            .try_format(&format!("doc-window-{}", w.place), &[])
+            .unwrap_or_else(|| w.place.to_string()),
         grid_middle: w.grid_for_middle_volts.map(volts),
         grid_now: v.grid_volts.map(volts),
     })
