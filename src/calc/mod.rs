@@ -206,7 +206,7 @@ pub fn derive_in(job: &Job, ratings: &RatingsTable, cat: &Catalogue) -> Findings
     let mods = job
         .mods
         .iter()
-        .map(|m| mod_findings(m, job, ratings, &mut warnings))
+        .map(|m| mod_findings(m, job, ratings, &mut warnings, cat))
         .collect();
     let final_set = final_index.and_then(|i| sets.get(i));
     let at_a_glance = glance(final_set, &safety, job.safety.is_some(), cat);
@@ -931,6 +931,7 @@ fn mod_findings(
     job: &Job,
     ratings: &RatingsTable,
     warnings: &mut Vec<Warning>,
+    cat: &Catalogue,
 ) -> ModFindings {
     use crate::job::ModFigure;
     use crate::units::{QuantityKind as Q, format_engineering};
@@ -949,7 +950,10 @@ fn mod_findings(
                     false,
                     pos,
                     Status::Caution,
-                    format!("{pos} ({}): the ratings table gives no typical μ and ra, so the mod's stage figure is left out.", r.name),
+                    cat.format(
+                        "warn-no-mu-ra",
+                        &[("position", Arg::from(pos)), ("type", Arg::from(&r.name))],
+                    ),
                 ));
                 None
             }
@@ -962,13 +966,20 @@ fn mod_findings(
                 let fc = crate::units::rc_corner(*r, *c).0;
                 figures.push(ModFigureFindings {
                     kind: "rc_corner",
-                    description: format!(
-                        "{}{} with {}: corner {}",
-                        label.as_ref().map(|l| format!("{l}: ")).unwrap_or_default(),
-                        ohms(r.0),
-                        farads(c.0),
-                        hz(fc)
-                    ),
+                    description: {
+                        let corner = cat.format(
+                            "figure-rc-corner",
+                            &[
+                                ("ohms", Arg::from(ohms(r.0))),
+                                ("farads", Arg::from(farads(c.0))),
+                                ("frequency", Arg::from(hz(fc))),
+                            ],
+                        );
+                        match label {
+                            Some(l) => format!("{l}: {corner}"),
+                            None => corner,
+                        }
+                    },
                     formula: "fc = 1 / (2π·R·C)",
                     frequency_hz: Some(fc),
                     gain: None,
@@ -984,14 +995,18 @@ fn mod_findings(
                     let fc = cathode_bypass_corner(mu, ra, *load, *rk, *ck).0;
                     figures.push(ModFigureFindings {
                         kind: "cathode_bypass",
-                        description: format!(
-                            "{} ({name}, μ {mu}, ra {}): Rk {} bypassed by {} into a {} load: corner {}",
-                            valve.value,
-                            ohms(ra.0),
-                            ohms(rk.0),
-                            farads(ck.0),
-                            ohms(load.0),
-                            hz(fc)
+                        description: cat.format(
+                            "figure-cathode-bypass",
+                            &[
+                                ("valve", Arg::from(&valve.value)),
+                                ("type", Arg::from(&name)),
+                                ("mu", Arg::from(mu.to_string())),
+                                ("ra", Arg::from(ohms(ra.0))),
+                                ("rk", Arg::from(ohms(rk.0))),
+                                ("ck", Arg::from(farads(ck.0))),
+                                ("load", Arg::from(ohms(load.0))),
+                                ("frequency", Arg::from(hz(fc))),
+                            ],
                         ),
                         formula: "fc = 1 / (2π·(Rk ∥ (ra + RL)/(μ + 1))·Ck)",
                         frequency_hz: Some(fc),
@@ -1015,15 +1030,18 @@ fn mod_findings(
                     };
                     figures.push(ModFigureFindings {
                         kind: "stage_gain",
-                        description: format!(
-                            "{} ({name}) into {}{}: gain about {:.0}",
-                            valve.value,
-                            ohms(load.0),
+                        description: cat.format(
                             match (rk, bypassed) {
-                                (Some(rk), false) => format!(", {} unbypassed", ohms(rk.0)),
-                                _ => ", cathode bypassed".to_string(),
+                                (Some(_), false) => "figure-gain-unbypassed",
+                                _ => "figure-gain-bypassed",
                             },
-                            gain
+                            &[
+                                ("valve", Arg::from(&valve.value)),
+                                ("type", Arg::from(&name)),
+                                ("load", Arg::from(ohms(load.0))),
+                                ("rk", Arg::from(rk.map(|r| ohms(r.0)).unwrap_or_default())),
+                                ("gain", Arg::from(format!("{gain:.0}"))),
+                            ],
                         ),
                         formula,
                         frequency_hz: None,
@@ -1035,12 +1053,17 @@ fn mod_findings(
                 let f = phase_shift_frequency(*r, *c).0;
                 figures.push(ModFigureFindings {
                     kind: "phase_shift",
-                    description: format!(
-                        "three sections of {} and {}: about {} (the stage needs a gain of at least {:.0})",
-                        ohms(r.0),
-                        farads(c.0),
-                        hz(f),
-                        circuit::PHASE_SHIFT_MIN_GAIN
+                    description: cat.format(
+                        "figure-phase-shift",
+                        &[
+                            ("ohms", Arg::from(ohms(r.0))),
+                            ("farads", Arg::from(farads(c.0))),
+                            ("frequency", Arg::from(hz(f))),
+                            (
+                                "gain",
+                                Arg::from(format!("{:.0}", circuit::PHASE_SHIFT_MIN_GAIN)),
+                            ),
+                        ],
                     ),
                     formula: "f = 1 / (2π·R·C·√6)",
                     frequency_hz: Some(f),
@@ -1055,11 +1078,14 @@ fn mod_findings(
             warnings.push(Warning::note(
                 None,
                 false,
-                "network",
+                &cat.text("warn-subject-network"),
                 Status::Caution,
-                format!(
-                    "The network of the mod “{}” could not be worked out: {problem}.",
-                    m.what
+                cat.format(
+                    "warn-network-problem",
+                    &[
+                        ("what", Arg::from(&m.what)),
+                        ("problem", Arg::from(problem)),
+                    ],
                 ),
             ));
         }
@@ -1073,5 +1099,121 @@ fn mod_findings(
         private: m.private,
         figures,
         network,
+    }
+}
+
+#[cfg(test)]
+mod language_tests {
+    use super::*;
+
+    /// Every demo job, decoded and derived in the built-in catalogue `tag`,
+    /// as the JSON `calc --json` writes.
+    fn demo_json(tag: &str) -> Vec<(String, serde_json::Value)> {
+        let cat = Catalogue::built_in(tag).unwrap();
+        let ratings = RatingsTable::builtin();
+        let dir = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("jobs");
+        let mut out = Vec::new();
+        for entry in std::fs::read_dir(dir).unwrap() {
+            let path = entry.unwrap().path();
+            let name = path.file_name().unwrap().to_string_lossy().into_owned();
+            if !name.ends_with(".kdl") || name == "shop.kdl" {
+                continue;
+            }
+            let text = std::fs::read_to_string(&path).unwrap();
+            let job = crate::job::decode_with_ratings(&name, &text, &ratings)
+                .unwrap_or_else(|d| panic!("{name}: {:?}", d.problems))
+                .job;
+            let findings = derive_in(&job, &ratings, &cat);
+            out.push((name, serde_json::to_value(&findings).unwrap()));
+        }
+        out
+    }
+
+    /// The words of every reason, threshold, brief, message and at-a-glance
+    /// line in a findings JSON value.
+    fn words(v: &serde_json::Value, out: &mut Vec<String>) {
+        match v {
+            serde_json::Value::Object(map) => {
+                for (k, v) in map {
+                    // The technician's own words (parts' reasons) and the
+                    // mods' worked figures are not checks' reasons.
+                    if k == "parts" || k == "what" || k == "why" {
+                        continue;
+                    }
+                    let wordy = ["reason", "threshold", "brief", "message", "worst", "title"]
+                        .contains(&k.as_str());
+                    match v {
+                        serde_json::Value::String(s) if wordy && k != "accepted_reason" => {
+                            out.push(s.clone())
+                        }
+                        _ => words(v, out),
+                    }
+                }
+            }
+            serde_json::Value::Array(a) => a.iter().for_each(|v| words(v, out)),
+            _ => {}
+        }
+    }
+
+    #[test]
+    fn the_german_findings_carry_no_english_reasons() {
+        let english = demo_json("en");
+        let german = demo_json("de");
+        // Words only English sentences use (the job's own text, set labels
+        // such as "as found", is the technician's and stays as written).
+        let tell = [
+            " the ",
+            " is ",
+            " of its ",
+            "rating",
+            "caution",
+            "margin",
+            "dissipation",
+            "not measured",
+            "within",
+            "accepted by",
+            "output valve",
+            "heater",
+        ];
+        let mut checked = 0;
+        for ((name, en), (_, de)) in english.iter().zip(&german) {
+            let (mut en_words, mut de_words) = (Vec::new(), Vec::new());
+            words(en, &mut en_words);
+            words(de, &mut de_words);
+            assert_eq!(en_words.len(), de_words.len(), "{name}");
+            for (e, d) in en_words.iter().zip(&de_words) {
+                for t in tell {
+                    assert!(
+                        !d.contains(t),
+                        "{name}: {t:?} left in {d:?} (English {e:?})"
+                    );
+                }
+                checked += 1;
+            }
+            // The figures do not depend on the language.
+            assert_eq!(
+                en["sets"].as_array().map(Vec::len),
+                de["sets"].as_array().map(Vec::len)
+            );
+        }
+        // A German reason of a known case: the combo's scorched dropper.
+        let combo = &german
+            .iter()
+            .find(|(n, _)| n == "combo-6v6-fixed.kdl")
+            .unwrap()
+            .1;
+        let r31 = combo["sets"][0]["droppers"]
+            .as_array()
+            .unwrap()
+            .iter()
+            .find(|r| r["reference"] == "R31")
+            .unwrap();
+        // 100 V across 4.7 kΩ is 100² / 4700 = 2.13 W (Joule's law, textbook),
+        // 213 % of the 1 W rating.
+        assert_eq!(
+            r31["reason"],
+            "Verlustleistung 2.13 W ist 213 % des Nennwerts von 1 W"
+        );
+        assert!(checked > 100, "only {checked} sentences checked");
     }
 }

@@ -25,6 +25,7 @@ const NAMESPACES: &[&str] = &[
     "method",
     "role",
     "check",
+    "figure",
 ];
 
 /// Every `t("key")`/`tm("key")` of a template and every
