@@ -560,6 +560,90 @@ summary-safety-ok = { $count ->
 
 attention-accepted = { $brief } (akzeptiert)
 
+## Das Zustandsblatt für einen Verkauf (src/report/listing/words.rs): seine
+## Beschriftungen und die Sätze, die es aus den Befunden bildet.
+
+listing-kicker = Zustandsbericht
+listing-serviced-by = Gewartet von
+listing-service-record = Wartungsprotokoll
+listing-the-unit = Das Gerät
+listing-make = Hersteller
+listing-model = Modell
+listing-year = Baujahr
+listing-serial = Seriennummer
+listing-mains = Netz
+listing-description = Beschreibung
+listing-condition = Zustand
+listing-health = Zustand beim Verlassen der Werkstatt
+listing-check = Prüfung
+listing-state = Status
+listing-in-words = In Worten
+listing-output-valve = Endröhre
+listing-valve-type = Typ
+listing-bias = Vorspannung
+listing-idle = Ruhezustand, % der Anodenverlustleistung
+listing-high-line = Obere Netzgrenze
+listing-safety-tests = Elektrische Sicherheitsprüfungen
+listing-no-safety-tests = Es wurden keine elektrischen Sicherheitsprüfungen festgehalten.
+listing-limit = Grenzwert
+listing-serviced = Was gewartet wurde
+listing-part = Teil
+listing-was = Vorher
+listing-now = Jetzt
+listing-why = Warum
+listing-no-parts = Es wurden keine Teile ersetzt.
+listing-findings = Befund
+listing-work = Ausgeführte Arbeiten
+listing-originality = Originalzustand
+listing-item = Posten
+listing-change = Änderung
+listing-reversible = Rückbaubar
+listing-original-kept = Original aufbewahrt
+listing-not-listed = Was nicht aufgeführt ist, wurde bei dieser Wartung nicht verändert; ob es das Original des Herstellers ist, wurde nicht geprüft.
+listing-notes = Anmerkungen
+listing-photos = Fotos
+listing-made-with = Erstellt mit ampreport
+listing-commit = Commit
+listing-edits = + Änderungen
+listing-job-file-sha = SHA-256 der Auftragsdatei
+listing-page = Seite
+listing-of = von
+listing-title = Zustandsbericht: { $name }
+listing-pdf-description = Zustands- und Wartungsübersicht eines { $name } für eine Verkaufsanzeige
+listing-no-measurements = Bei dieser Wartung wurden keine Messungen festgehalten.
+listing-all-inside = { $accepted ->
+        [0] Beim Verlassen der Werkstatt liegen alle gemessenen Werte innerhalb ihrer Grenzen.
+        [one] Beim Verlassen der Werkstatt liegen alle gemessenen Werte innerhalb ihrer Grenzen, bis auf einen, den der Techniker als annehmbar beurteilt hat.
+       *[other] Beim Verlassen der Werkstatt liegen alle gemessenen Werte innerhalb ihrer Grenzen, bis auf { $accepted }, die der Techniker als annehmbar beurteilt hat.
+    }
+listing-needs-attention = Beim Verlassen der Werkstatt braucht noch Aufmerksamkeit: { $families }.
+listing-accepted-only = innerhalb der Grenzen, bis auf das, was der Techniker als annehmbar beurteilt hat: { $what }
+listing-readings = Messwerte „{ $label }“
+listing-at-mains = , bei { $volts } Netzspannung
+listing-state-ok = ok
+listing-state-caution = Vorsicht
+listing-state-over = zu hoch
+listing-state-cold = zu kalt
+listing-state-accepted = akzeptiert
+listing-state-not-measured = nicht gemessen
+listing-change-replaced = ersetzt
+listing-change-modified = geändert
+listing-parts-replaced = { $count ->
+        [0] keine Teile ersetzt
+        [one] 1 Teil ersetzt
+       *[other] { $count } Teile ersetzt
+    }
+listing-no-modifications = keine Änderungen
+listing-how-reversible = rückbaubar
+listing-all-reversible = alle rückbaubar
+listing-not-reversible = nicht als rückbaubar angegeben
+listing-some-reversible = { $count } rückbaubar
+listing-modifications = { $count ->
+        [one] { $count } Änderung ({ $how })
+       *[other] { $count } Änderungen ({ $how })
+    }
+listing-originals-kept = Originalteile aufbewahrt: { $list }
+
 ## Das Terminal (`ampreport check`). Leerzeichen am Anfang oder Ende einer
 ## Meldung entfallen: das Programm setzt sie.
 

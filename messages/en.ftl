@@ -559,6 +559,90 @@ summary-safety-ok = { $count ->
 
 attention-accepted = { $brief } (accepted)
 
+## The listing document (src/report/listing/words.rs): its labels and the
+## sentences it builds from the findings.
+
+listing-kicker = Condition report
+listing-serviced-by = Serviced by
+listing-service-record = service record
+listing-the-unit = The unit
+listing-make = Make
+listing-model = Model
+listing-year = Year
+listing-serial = Serial
+listing-mains = Mains
+listing-description = Description
+listing-condition = Condition
+listing-health = Health as it left the bench
+listing-check = Check
+listing-state = State
+listing-in-words = In words
+listing-output-valve = Output valve
+listing-valve-type = Type
+listing-bias = Bias
+listing-idle = Idle, % of plate rating
+listing-high-line = At high line
+listing-safety-tests = Electrical safety tests
+listing-no-safety-tests = No electrical safety tests were recorded.
+listing-limit = limit
+listing-serviced = What was serviced
+listing-part = Part
+listing-was = Was
+listing-now = Now
+listing-why = Why
+listing-no-parts = No parts were replaced.
+listing-findings = Findings
+listing-work = Work done
+listing-originality = Originality
+listing-item = Item
+listing-change = Change
+listing-reversible = Reversible
+listing-original-kept = Original kept
+listing-not-listed = Anything not listed was not changed in this service; whether it is the maker's original was not checked.
+listing-notes = Notes
+listing-photos = Photos
+listing-made-with = Made with ampreport
+listing-commit = commit
+listing-edits = + edits
+listing-job-file-sha = job file SHA-256
+listing-page = Page
+listing-of = of
+listing-title = Condition report: { $name }
+listing-pdf-description = Condition and service summary of a { $name }, for a listing
+listing-no-measurements = No measurements were recorded for this service.
+listing-all-inside = { $accepted ->
+        [0] As it left the bench, every figure measured is inside its limits.
+        [one] As it left the bench, every figure measured is inside its limits, apart from one the technician judged acceptable.
+       *[other] As it left the bench, every figure measured is inside its limits, apart from { $accepted } the technician judged acceptable.
+    }
+listing-needs-attention = As it left the bench, still needing attention: { $families }.
+listing-accepted-only = inside the limits, apart from what the technician judged acceptable: { $what }
+listing-readings = Readings “{ $label }”
+listing-at-mains = , at { $volts } mains
+listing-state-ok = ok
+listing-state-caution = caution
+listing-state-over = over
+listing-state-cold = cold
+listing-state-accepted = accepted
+listing-state-not-measured = not measured
+listing-change-replaced = replaced
+listing-change-modified = modified
+listing-parts-replaced = { $count ->
+        [0] no parts replaced
+        [one] 1 part replaced
+       *[other] { $count } parts replaced
+    }
+listing-no-modifications = no modifications
+listing-how-reversible = reversible
+listing-all-reversible = all reversible
+listing-not-reversible = not stated as reversible
+listing-some-reversible = { $count } reversible
+listing-modifications = { $count ->
+        [one] { $count } modification ({ $how })
+       *[other] { $count } modifications ({ $how })
+    }
+listing-originals-kept = original parts kept: { $list }
+
 ## The terminal (`ampreport check`, src/report/terminal.rs). Spaces at the
 ## start or end of a message are dropped: the program adds them.
 

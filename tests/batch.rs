@@ -451,6 +451,113 @@ fn out_dir_mirrors_the_tree_and_two_jobs_may_not_share_an_output() {
 }
 
 #[test]
+fn listings_render_over_folders_into_out_dir_and_never_pass_for_the_hand_over() {
+    let c = Counting::new();
+    let jobs = jobs_tree(&c);
+    std::fs::remove_file(jobs.join("broken.kdl")).unwrap();
+    let listing = ["jobs", "--recursive", "--listing", "--out-dir", "pdfs"];
+    let out = c.render(&listing);
+    assert!(out.status.success(), "{}", stderr(&out));
+    assert!(text(&out).contains("3 rendered, 0 unchanged, 0 failed"));
+    let pdfs = c.scene.dir.join("pdfs");
+    for name in ["a", "b", "old/c"] {
+        assert!(pdfs.join(format!("{name}.listing.pdf")).is_file(), "{name}");
+        let md = std::fs::read_to_string(pdfs.join(format!("{name}.listing.md"))).unwrap();
+        assert!(md.contains("Deadly voltages"), "{name}: {md}");
+        assert!(!pdfs.join(format!("{name}.pdf")).exists(), "{name}");
+    }
+    assert!(!jobs.join("a.listing.pdf").exists() && !jobs.join("a.listing.md").exists());
+    assert_eq!(c.compiles(), 3);
+
+    // Nothing changed: nothing is typeset.
+    let out = c.render(&listing);
+    assert!(
+        text(&out).contains("0 rendered, 3 unchanged"),
+        "{}",
+        text(&out)
+    );
+    assert_eq!(c.compiles(), 3);
+
+    // The hand-over into the same folder is typeset: a listing is not it.
+    let out = c.render(&["jobs", "--recursive", "--out-dir", "pdfs"]);
+    assert!(
+        text(&out).contains("3 rendered, 0 unchanged"),
+        "{}",
+        text(&out)
+    );
+    assert!(pdfs.join("old/c.pdf").is_file());
+    assert_eq!(c.compiles(), 6);
+    let out = c.render(&listing);
+    assert!(
+        text(&out).contains("0 rendered, 3 unchanged"),
+        "{}",
+        text(&out)
+    );
+
+    // Another --serial is another listing; a Markdown removed by hand is
+    // written again.
+    let out = c.render(&[
+        "jobs/a.kdl",
+        "--listing",
+        "--serial",
+        "hidden",
+        "--out-dir",
+        "pdfs",
+    ]);
+    assert!(out.status.success(), "{}", stderr(&out));
+    assert_eq!(c.compiles(), 7);
+    std::fs::remove_file(pdfs.join("b.listing.md")).unwrap();
+    let out = c.render(&listing);
+    assert!(
+        text(&out).contains("2 rendered, 1 unchanged"),
+        "{}",
+        text(&out)
+    );
+    assert!(pdfs.join("b.listing.md").is_file());
+}
+
+#[test]
+fn a_listing_and_a_hand_over_at_one_path_never_skip_each_other() {
+    let c = Counting::new();
+    let job = c.scene.job.to_str().unwrap();
+    assert!(c.typeset(&["-o", "same.pdf"]));
+    assert!(c.typeset(&["-o", "same.pdf", "--listing"]));
+    assert!(!c.typeset(&["-o", "same.pdf", "--listing"]));
+    assert!(c.typeset(&["-o", "same.pdf"]));
+    // One job's listing: the "wrote" lines name the PDF, then the Markdown.
+    let out = c.render(&[job, "--listing", "--force"]);
+    let said = text(&out);
+    let pdf = said.find("job.listing.pdf").expect(&said);
+    let md = said.find("job.listing.md").expect(&said);
+    assert!(pdf < md, "{said}");
+}
+
+#[test]
+fn a_listing_photo_removed_by_hand_renders_the_listing_again() {
+    let c = Counting::new();
+    let photos = c.scene.dir.join("photos");
+    std::fs::create_dir(&photos).unwrap();
+    for name in ["parlour-twelve-before.jpg", "parlour-twelve-after.png"] {
+        std::fs::copy(
+            PathBuf::from(env!("CARGO_MANIFEST_DIR"))
+                .join("jobs/photos")
+                .join(name),
+            photos.join(name),
+        )
+        .unwrap();
+    }
+    std::fs::copy(support::demo("combo-6v6-fixed"), &c.scene.job).unwrap();
+    assert!(c.typeset(&["--listing"]));
+    let beside = c.scene.dir.join("job.listing-photo-2.png");
+    assert!(c.scene.dir.join("job.listing-photo-1.jpg").is_file());
+    assert!(beside.is_file());
+    assert!(!c.typeset(&["--listing"]));
+    std::fs::remove_file(&beside).unwrap();
+    assert!(c.typeset(&["--listing"]));
+    assert!(beside.is_file());
+}
+
+#[test]
 fn quiet_prints_only_failures_and_the_summary() {
     // --quiet is the program's own (errors only): in a batch it leaves the
     // failures and the summary.

@@ -26,6 +26,7 @@ const NAMESPACES: &[&str] = &[
     "role",
     "check",
     "figure",
+    "listing",
 ];
 
 /// Every `t("key")`/`tm("key")` of a template and every

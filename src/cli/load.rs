@@ -128,15 +128,26 @@ pub fn decode(
     ratings: &RatingsTable,
     said: &mut Said,
 ) -> Result<Loaded, Exit> {
-    let name = job_name(path);
+    decode_named(&job_name(path), text, shop, ratings, said)
+}
+
+/// Decodes `text` as [`decode`] does, for a job called `name` in messages
+/// (a file's path, or `REV:PATH` for one read from git).
+pub fn decode_named(
+    name: &str,
+    text: String,
+    shop: Option<LoadedShop>,
+    ratings: &RatingsTable,
+    said: &mut Said,
+) -> Result<Loaded, Exit> {
     let defaults = shop
         .as_ref()
         .map(|s| s.profile.defaults.clone())
         .unwrap_or_default();
-    let decoded = match job::decode_with_defaults(&name, &text, ratings, &defaults) {
+    let decoded = match job::decode_with_defaults(name, &text, ratings, &defaults) {
         Ok(d) => d,
         Err(diagnostics) => {
-            refused(&name, &text, diagnostics, said);
+            refused(name, &text, diagnostics, said);
             return Err(Exit::InvalidInput);
         }
     };

@@ -1,9 +1,12 @@
-//! `ampreport render JOB|DIR…`: the PDF hand-over document of each job.
-//! Reads and derives a job, finds typst, fills the template, optionally
-//! writes the generated source to a folder, and compiles the PDF
-//! atomically; a job whose PDF was already made from exactly the same
-//! inputs is skipped ([`super::content_key`]). Several jobs, or a folder of
-//! them, run side by side with a summary at the end ([`super::batch`]).
+//! `ampreport render JOB|DIR…`: the PDF hand-over document of each job,
+//! or with `--listing` the listing for a buyer (a PDF, and Markdown with
+//! its photos beside it). Reads and derives a job, finds typst, fills the
+//! template, optionally writes the generated source to a folder, and
+//! compiles the PDF atomically; the listing's photos and Markdown are
+//! written after the PDF, each atomically. A job whose files were already
+//! made from exactly the same inputs is skipped ([`super::content_key`]).
+//! Several jobs, or a folder of them, run side by side with a summary at
+//! the end ([`super::batch`]).
 //!
 //! Exit statuses for one job: 1 when the job, a ratings file or a shop's
 //! own template (`--templates`) is at fault; 2 when the output or the
@@ -19,7 +22,7 @@ use std::io::IsTerminal;
 use std::path::{Path, PathBuf};
 use std::time::{Duration, Instant};
 
-use super::args::RenderArgs;
+use super::args::{RenderArgs, SerialArg};
 use super::batch;
 use super::check::named_jobs;
 use super::content_key::{self, RunInputs, RunKey};
@@ -31,6 +34,7 @@ use crate::calc;
 use crate::input_file::is_dash;
 use crate::ratings::RatingsTable;
 use crate::report::handover::{self, HandoverError, HandoverInput};
+use crate::report::listing::{self, ListingInput, SerialShown};
 use crate::typeset::{
     self, CompileOptions, FontsUsed, Input, InputIndex, TemplateSource, TypesetError, TypstProgram,
     interrupt,
@@ -58,7 +62,12 @@ pub fn run(args: &RenderArgs) -> Exit {
                     eprintln!("wrote the PDF to standard output");
                 }
             }
-            Outcome::Rendered => ui::wrote(format!("wrote {}", output.display())),
+            Outcome::Rendered => {
+                ui::wrote(format!("wrote {}", output.display()));
+                for path in &report.beside {
+                    ui::wrote(format!("wrote {}", path.display()));
+                }
+            }
             Outcome::Unchanged => ui::wrote(format!(
                 "{} is up to date (--force renders it anyway)",
                 output.display()
@@ -125,7 +134,7 @@ impl<'a> Setup<'a> {
         // typst answers `--version` while the ratings are read.
         let pending = typeset::start_locate(args.typst.as_deref());
         let ratings = load::ratings(&args.job.ratings)?;
-        let templates = template_source(args.templates.as_deref())?;
+        let templates = template_source(args.templates.as_deref(), args.listing)?;
         let program = match pending.finish_within(args.timeout) {
             Ok(p) => p,
             Err(e) => {
@@ -154,7 +163,7 @@ impl<'a> Setup<'a> {
                 job,
             })
             .collect();
-        if let Some(message) = shared_outputs(&plans) {
+        if let Some(message) = shared_outputs(&plans, args.listing) {
             eprintln!("error: {message}");
             return Err(Exit::Usage);
         }
@@ -228,38 +237,70 @@ fn job_readable(args: &RenderArgs, path: &Path, ratings: &RatingsTable) -> Resul
     checked
 }
 
-/// The options that change a document's bytes, for the content key.
+/// The options that change a document's bytes, for the content key: the
+/// listing and the hand-over never pass for each other.
 fn render_options(args: &RenderArgs) -> Vec<String> {
-    vec![
+    let mut options = vec![
         format!("pdf-standard={}", typeset::DEFAULT_PDF_STANDARD),
         format!("charges={}", !args.no_charges),
-    ]
+        format!(
+            "document={}",
+            if args.listing { "listing" } else { "hand-over" }
+        ),
+    ];
+    if args.listing {
+        options.push(format!("serial={:?}", args.serial));
+    }
+    options
+}
+
+/// How `--serial` asks the listing to show the serial number.
+fn serial_shown(args: &RenderArgs) -> SerialShown {
+    match args.serial {
+        SerialArg::Shown => SerialShown::Shown,
+        SerialArg::Masked => SerialShown::Masked,
+        SerialArg::Hidden => SerialShown::Hidden,
+    }
 }
 
 /// Where a job's PDF goes: `-o`, else under `--out-dir` at the job's place
-/// below the folder it was found in, else beside the job.
+/// below the folder it was found in, else beside the job; `NAME.pdf`, or
+/// `NAME.listing.pdf` for the listing.
 fn output_for(args: &RenderArgs, job: &JobFile) -> PathBuf {
     if let Some(output) = &args.output {
         return output.clone();
     }
-    match &args.out_dir {
-        Some(dir) => default_output(&dir.join(&job.relative)),
-        None => default_output(&job.path),
+    let beside = match &args.out_dir {
+        Some(dir) => dir.join(&job.relative),
+        None => job.path.clone(),
+    };
+    if args.listing {
+        default_listing_output(&beside)
+    } else {
+        default_output(&beside)
     }
 }
 
-/// Names the first output two jobs of a run would both write, if any.
-fn shared_outputs(plans: &[Plan]) -> Option<String> {
+/// The Markdown of a listing whose PDF is `output`: beside it, `.md`.
+fn markdown_for(output: &Path) -> PathBuf {
+    output.with_extension("md")
+}
+
+/// Names the first output two jobs of a run would both write, if any (a
+/// listing's Markdown counts as an output).
+fn shared_outputs(plans: &[Plan], listing: bool) -> Option<String> {
     let mut seen: std::collections::HashMap<PathBuf, &Path> = std::collections::HashMap::new();
     for plan in plans {
-        let key = normalised(&plan.output);
-        if let Some(other) = seen.insert(key, &plan.job.path) {
-            return Some(format!(
-                "{} and {} would both be written to {}; use --out-dir DIR or rename one",
-                other.display(),
-                plan.job.path.display(),
-                plan.output.display()
-            ));
+        let markdown = listing.then(|| markdown_for(&plan.output));
+        for output in std::iter::once(&plan.output).chain(markdown.as_ref()) {
+            if let Some(other) = seen.insert(normalised(output), &plan.job.path) {
+                return Some(format!(
+                    "{} and {} would both be written to {}; use --out-dir DIR or rename one",
+                    other.display(),
+                    plan.job.path.display(),
+                    output.display()
+                ));
+            }
         }
     }
     None
@@ -294,8 +335,9 @@ pub enum Outcome {
 }
 
 /// One job's render: how it ended, its exit status, what it had to say,
-/// how long it took, and the files besides the job and the run's shared
-/// inputs it was made from (its shop profile and logo), for `watch`.
+/// how long it took, the files besides the job and the run's shared
+/// inputs it was made from (its shop profile and logo), for `watch`, and
+/// the files written beside the PDF (a listing's photos and Markdown).
 #[derive(Debug)]
 pub struct JobReport {
     pub outcome: Outcome,
@@ -303,6 +345,7 @@ pub struct JobReport {
     pub said: Said,
     pub elapsed: Duration,
     pub depends: Vec<PathBuf>,
+    pub beside: Vec<PathBuf>,
 }
 
 /// Renders one job: reads it, checks where its PDF goes, skips it when the
@@ -313,7 +356,8 @@ pub fn render_one(setup: &Setup<'_>, plan: &Plan) -> JobReport {
     let start = Instant::now();
     let mut said = Said::default();
     let mut depends = Vec::new();
-    let (outcome, exit) = match render_job(setup, plan, &mut said, &mut depends) {
+    let mut beside = Vec::new();
+    let (outcome, exit) = match render_job(setup, plan, &mut said, &mut depends, &mut beside) {
         Ok(outcome) => (outcome, Exit::Success),
         Err(exit) => (Outcome::Failed, exit),
     };
@@ -323,6 +367,7 @@ pub fn render_one(setup: &Setup<'_>, plan: &Plan) -> JobReport {
         said,
         elapsed: start.elapsed(),
         depends,
+        beside,
     }
 }
 
@@ -331,6 +376,7 @@ fn render_job(
     plan: &Plan,
     said: &mut Said,
     depends: &mut Vec<PathBuf>,
+    beside: &mut Vec<PathBuf>,
 ) -> Result<Outcome, Exit> {
     let args = setup.args;
     let job_path = &plan.job.path;
@@ -365,11 +411,23 @@ fn render_job(
             .iter()
             .map(|p| Input::new(p, "a photo of the job")),
     );
-    if let Err(e) =
-        typeset::check_output(output, &inputs).and_then(|()| setup.job_files.check(output))
-    {
-        said.error(format!("{:?}", miette::Report::new(e)));
+    // The listing's Markdown and photos go beside its PDF; the photos'
+    // names are known once they are prepared, and checked then.
+    let markdown = args.listing.then(|| markdown_for(output));
+    if markdown.as_ref() == Some(output) {
+        said.error(format!(
+            "error: the listing's PDF {} would be written over by its own Markdown; name the PDF with .pdf",
+            output.display()
+        ));
         return Err(Exit::Usage);
+    }
+    for path in std::iter::once(output).chain(markdown.as_ref()) {
+        if let Err(e) =
+            typeset::check_output(path, &inputs).and_then(|()| setup.job_files.check(path))
+        {
+            said.error(format!("{:?}", miette::Report::new(e)));
+            return Err(Exit::Usage);
+        }
     }
 
     // The key covers the texts read above (the very bytes the job and its
@@ -384,6 +442,7 @@ fn render_job(
         && args.emit_source.is_none()
         && !is_dash(output)
         && content_key::up_to_date(output, key)
+        && (!args.listing || listing_files_up_to_date(output, job, key))
     {
         return Ok(Outcome::Unchanged);
     }
@@ -395,21 +454,70 @@ fn render_job(
         said.warn(warning);
     }
 
-    let input = HandoverInput {
-        job,
-        findings: &findings,
-        job_text: &loaded.text,
-        typst_version: setup.program.version.to_string(),
-        shop: loaded.shop.as_ref().map(|s| &s.profile),
-        logo: loaded.shop.as_ref().and_then(|s| s.logo.as_ref()),
-        include_charges: !args.no_charges,
-        catalogue: loaded.catalogue(),
-        revision: findings.job.git.clone(),
-        photos: &photos,
-    };
-    let document = match handover::build(&input, &setup.templates) {
-        Ok(d) => d,
-        Err(e) => return Err(report_build_error(e, said)),
+    let catalogue = loaded.catalogue();
+    let document = if let Some(markdown) = &markdown {
+        let input = ListingInput {
+            job,
+            findings: &findings,
+            job_text: &loaded.text,
+            typst_version: setup.program.version.to_string(),
+            shop: loaded.shop.as_ref().map(|s| &s.profile),
+            logo: loaded.shop.as_ref().and_then(|s| s.logo.as_ref()),
+            catalogue,
+            serial: serial_shown(args),
+            photos: &photos,
+            markdown_stem: markdown
+                .file_stem()
+                .map(|s| s.to_string_lossy().into_owned())
+                .unwrap_or_default(),
+        };
+        let d = match listing::build(&input, &setup.templates) {
+            Ok(d) => d,
+            Err(e) => return Err(report_build_error(e, said)),
+        };
+        let folder = markdown.parent().unwrap_or(Path::new(""));
+        let mut extra: Vec<(PathBuf, Vec<u8>)> = d
+            .photo_files
+            .into_iter()
+            .map(|(name, bytes)| (folder.join(name), bytes))
+            .collect();
+        for (path, _) in &extra {
+            if let Err(e) =
+                typeset::check_output(path, &inputs).and_then(|()| setup.job_files.check(path))
+            {
+                said.error(format!("{:?}", miette::Report::new(e)));
+                return Err(Exit::Usage);
+            }
+        }
+        extra.push((markdown.clone(), d.markdown.into_bytes()));
+        Built {
+            sandbox: d.sandbox,
+            main: d.main,
+            options: d.options,
+            extra,
+        }
+    } else {
+        let input = HandoverInput {
+            job,
+            findings: &findings,
+            job_text: &loaded.text,
+            typst_version: setup.program.version.to_string(),
+            shop: loaded.shop.as_ref().map(|s| &s.profile),
+            logo: loaded.shop.as_ref().and_then(|s| s.logo.as_ref()),
+            include_charges: !args.no_charges,
+            catalogue,
+            revision: findings.job.git.clone(),
+            photos: &photos,
+        };
+        match handover::build(&input, &setup.templates) {
+            Ok(d) => Built {
+                sandbox: d.sandbox,
+                main: d.main,
+                options: d.options,
+                extra: Vec::new(),
+            },
+            Err(e) => return Err(report_build_error(e, said)),
+        }
     };
 
     if let Some(dir) = &args.emit_source {
@@ -466,17 +574,29 @@ fn render_job(
             if !outcome.warnings.is_empty() {
                 said.warn(format!("typst warned:\n{}", outcome.warnings));
             }
-            match &key {
-                _ if is_dash(output) => {}
-                Some(key) => {
-                    if let Err(e) = content_key::record(output, key) {
-                        said.warn(format!(
-                            "warning: could not record what {} was made from ({e}); the next run renders it again",
-                            output.display()
-                        ));
-                    }
+            // The listing's photos, then its Markdown: each file is written
+            // whole or not at all.
+            for (path, bytes) in &document.extra {
+                if let Err(e) = typeset::place(bytes, path) {
+                    content_key::forget(output);
+                    return Err(report_typeset_error(e, &setup.templates, Some(path), said));
                 }
-                None => content_key::forget(output),
+                beside.push(path.clone());
+            }
+            let written = std::iter::once(output).chain(document.extra.iter().map(|(p, _)| p));
+            for path in written {
+                match &key {
+                    _ if is_dash(path) => {}
+                    Some(key) => {
+                        if let Err(e) = content_key::record(path, key) {
+                            said.warn(format!(
+                                "warning: could not record what {} was made from ({e}); the next run renders it again",
+                                path.display()
+                            ));
+                        }
+                    }
+                    None => content_key::forget(path),
+                }
             }
             Ok(Outcome::Rendered)
         }
@@ -487,6 +607,39 @@ fn render_job(
             said,
         )),
     }
+}
+
+/// A document ready to compile, and the files written beside it.
+struct Built {
+    sandbox: typeset::Sandbox,
+    main: &'static str,
+    options: CompileOptions,
+    /// Written after the PDF, in order: the listing's photos, then its
+    /// Markdown.
+    extra: Vec<(PathBuf, Vec<u8>)>,
+}
+
+/// True when the files a listing writes beside its PDF `output` were all
+/// made from `key`: its Markdown and one file for each photo marked for
+/// the listing (PNG or JPEG, as the photo was).
+fn listing_files_up_to_date(output: &Path, job: &crate::job::Job, key: &str) -> bool {
+    let markdown = markdown_for(output);
+    if !content_key::up_to_date(&markdown, key) {
+        return false;
+    }
+    let stem = markdown
+        .file_stem()
+        .map(|s| s.to_string_lossy().into_owned())
+        .unwrap_or_default();
+    let listed = job.photos.iter().filter(|p| p.listing).count();
+    (1..=listed).all(|i| {
+        ["png", "jpg"].iter().any(|extension| {
+            content_key::up_to_date(
+                &markdown.with_file_name(format!("{stem}-photo-{i}.{extension}")),
+                key,
+            )
+        })
+    })
 }
 
 /// A job's content key: the run's shared inputs, the job's text, its
@@ -654,6 +807,11 @@ fn default_output(job: &Path) -> PathBuf {
     job.with_extension("pdf")
 }
 
+/// Beside the job file, same name, `.listing.pdf`.
+fn default_listing_output(job: &Path) -> PathBuf {
+    job.with_extension("listing.pdf")
+}
+
 /// Refuses the output of a one-job run that cannot be: `-o -` (standard
 /// output) when standard output is a terminal, and a job read from
 /// standard input without `-o`, since it has no file to sit beside.
@@ -663,6 +821,12 @@ fn single_output_allowed(args: &RenderArgs, job: &Path) -> Result<(), Exit> {
             eprintln!(
                 "error: `-o -` writes the PDF to standard output, which is a terminal here; \
                  send it to a file or a program (`-o - > job.pdf`, `-o - | lpr`)"
+            );
+            Err(Exit::Usage)
+        }
+        Some(o) if is_dash(o) && args.listing => {
+            eprintln!(
+                "error: the listing is a PDF and Markdown beside it, so it needs a file: name it with `-o FILE.pdf`"
             );
             Err(Exit::Usage)
         }
@@ -677,10 +841,16 @@ fn single_output_allowed(args: &RenderArgs, job: &Path) -> Result<(), Exit> {
     }
 }
 
-/// The built-in templates, overridden by `--templates DIR` when given.
-pub(crate) fn template_source(dir: Option<&Path>) -> Result<TemplateSource, Exit> {
-    let source = TemplateSource::embedded(handover::EMBEDDED_TEMPLATES);
-    for (name, _) in handover::EMBEDDED_TEMPLATES {
+/// The built-in templates (the hand-over's, or the listing's), overridden
+/// by `--templates DIR` when given.
+pub(crate) fn template_source(dir: Option<&Path>, listing: bool) -> Result<TemplateSource, Exit> {
+    let embedded = if listing {
+        listing::EMBEDDED_TEMPLATES
+    } else {
+        handover::EMBEDDED_TEMPLATES
+    };
+    let source = TemplateSource::embedded(embedded);
+    for (name, _) in embedded {
         let shop = dir.map(|d| d.join(name)).filter(|p| p.is_file());
         match shop {
             Some(path) => ui::read("template", format!("{} (shop folder)", path.display())),

@@ -9,6 +9,7 @@ mod decode_bench;
 mod decode_error;
 mod model;
 pub mod network;
+pub mod numbering;
 pub(crate) mod reader;
 mod validate;
 mod valve_types;

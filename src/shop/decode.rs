@@ -27,6 +27,7 @@ pub const SHOP_TOP_LEVEL: &[&str] = &[
     "charges",
     "warranty",
     "terms",
+    "job-numbers",
     "language",
 ];
 
@@ -113,6 +114,26 @@ pub(crate) fn decode_document(
         .unwrap_or_default();
     let warranty = first("warranty").and_then(|n| decode_warranty(n, r));
     let terms = first("terms").and_then(|n| text(n, r));
+    let job_numbers = first("job-numbers").and_then(|n| {
+        r.check_entries(n, &[], 1);
+        r.no_children(n);
+        let pattern = r.req_arg_string(n, "the job-number pattern", "job-numbers \"D-{yymm}-{nnn}\"")?;
+        match crate::job::numbering::Numbering::parse(&pattern.value) {
+            Ok(_) => Some(pattern.value),
+            Err(why) => {
+                r.push(
+                    DecodeError::error(
+                        "job::bad-value",
+                        pattern.span,
+                        format!("the job-number pattern `{}` cannot be used: {why}", pattern.value),
+                        "expected a pattern such as D-{yymm}-{nnn}",
+                    )
+                    .with_help("pieces: {yyyy} {yy} {mm} {dd} {yymm}, and one count {n…} (one n per digit)"),
+                );
+                None
+            }
+        }
+    });
     let language = first("language").and_then(|n| decode_language(n, r));
 
     let (name, address, contact) = shop?;
@@ -133,6 +154,7 @@ pub(crate) fn decode_document(
         settings_given,
         warranty,
         terms,
+        job_numbers,
         language,
     })
 }
