@@ -301,7 +301,9 @@ fn health(job: &Job, findings: &Findings, cat: &Catalogue) -> Health {
                         None => v.position.clone(),
                     },
                     type_name: v.valve_type.clone(),
-                    bias: v.bias.clone(),
+                    bias: cat
+                        .try_format(&format!("listing-bias-{}", v.bias), &[])
+                        .unwrap_or_else(|| v.bias.clone()),
                     idle_pct: v.plate_dissipation_pct.map(pct0),
                     high_line_pct: v.high_line_plate_dissipation_pct.map(pct0),
                     state: words::state(attention::valve_state(v), cat),
