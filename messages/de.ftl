@@ -919,6 +919,7 @@ warn-accept-heater = Heizung { $name }
 warn-accept-heater-supply = die Heizversorgung
 warn-accept-safety = die Prüfung { $name }
 warn-accept-in-set = { $what } in „{ $set }“
+warn-not-measured-final = { $what } ist in „{ $final }“, der letzten Messreihe, nicht gemessen (in „{ $set }“ schon)
 warn-no-sets = Der Auftrag enthält keine Messreihen, daher konnten keine Werte berechnet werden.
 warn-subject-network = Netzwerk
 warn-network-problem = Das Netzwerk der Änderung „{ $what }“ ließ sich nicht berechnen: { $problem }.
@@ -978,3 +979,184 @@ note-no-sense-resistor = { $position }: eine Spannung am Messwiderstand ist ange
 ## Aufzählungen im Text: „V3, V4 und V5“.
 
 list-and = { $first } und { $last }
+
+## Diagnosen: Probleme in Auftragsdateien, Werkstattprofilen,
+## Übersetzungsdateien und Fotos, in der Sprache des Werkstattprofils.
+## `file` ist `job` oder `shop`; `what` ist ein schon gesagter Name.
+
+diag-file-warnings = { $name }: { $warnings ->
+        [one] 1 Warnung
+       *[other] { $warnings } Warnungen
+    }
+diag-file-refused = { $name }: { $errors ->
+        [one] 1 Problem verhindert
+       *[other] { $errors } Probleme verhindern
+    }, dass { $file ->
+        [shop] dieses Werkstattprofil
+       *[job] diese Auftragsdatei
+    } gelesen wird
+diag-file-refused-warnings = { $name }: { $errors ->
+        [one] 1 Problem verhindert
+       *[other] { $errors } Probleme verhindern
+    }, dass { $file ->
+        [shop] dieses Werkstattprofil
+       *[job] diese Auftragsdatei
+    } gelesen wird (außerdem { $warnings ->
+        [one] 1 Warnung
+       *[other] { $warnings } Warnungen
+    })
+diag-not-shown = { $count ->
+        [one] 1 weiteres Problem wird
+       *[other] { $count } weitere Probleme werden
+    } nicht gezeigt: die { $shown } oben beheben und erneut starten
+diag-allowed-here = hier erlaubt: { $names }
+diag-did-you-mean = meinten Sie `{ $name }`?
+diag-did-you-mean-either = meinten Sie { $names } oder `{ $last }`?
+diag-in-job-file = der Auftragsdatei
+diag-in-shop-profile = dem Werkstattprofil
+diag-in-set = einer Messreihe
+diag-unknown-node = unbekannter Knoten `{ $name }` in { $context }
+diag-unknown-node-label = kein Knoten, den das Format hier kennt
+diag-type-annotation = die Typangabe `({ $type })` wird in Auftragsdateien nicht verwendet
+diag-remove-this = entfernen
+diag-type-annotation-help = die Einheit stattdessen in den Wert schreiben, zum Beispiel "352V"
+diag-takes-no-properties = `{ $node }` hat keine Eigenschaften
+diag-unknown-property = unbekannte Eigenschaft `{ $key }` an `{ $node }`
+diag-unknown-property-label = keine Eigenschaft dieses Knotens
+diag-repeated-property = die Eigenschaft `{ $key }` steht zweimal an `{ $node }`
+diag-repeated-here = hier wiederholt
+diag-takes-no-values = `{ $node }` nimmt keine einfachen Werte; seine Eigenschaften verwenden
+diag-takes-values = `{ $node }` nimmt { $count ->
+        [one] 1 einfachen Wert
+       *[other] { $count } einfache Werte
+    }
+diag-extra-value = unerwarteter Wert an `{ $node }`
+diag-not-expected-here = hier nicht erwartet
+diag-no-children = `{ $node }` hat keine Unterknoten
+diag-missing = `{ $node }` braucht { $what }
+diag-missing-label = { $what } fehlt
+diag-for-example = zum Beispiel: { $example }
+diag-a-property = eine Eigenschaft `{ $key }`
+diag-found-text = der Text "{ $text }"
+diag-found-number = die Zahl { $number }
+diag-expected-text = { $what } muss Text sein, gefunden: { $found }
+diag-expected-text-label = Text in Anführungszeichen erwartet
+diag-expected-text-help = in doppelte Anführungszeichen setzen, zum Beispiel "{ $example }"
+diag-expected-name = { $what } muss ein Name wie V1 oder B+1 sein, gefunden: { $found }
+diag-expected-name-label = Name erwartet
+diag-expected-bool = { $what } muss #true oder #false sein, gefunden: { $found }
+diag-expected-bool-label = #true oder #false erwartet
+diag-expected-bool-help = KDL 2 schreibt Wahrheitswerte als #true und #false
+diag-expected-integer = { $what } muss eine ganze Zahl von { $low } bis { $high } sein
+diag-expected-integer-label = ganze Zahl erwartet
+diag-expected = erwartet: { $what }
+diag-must-be-kind = { $what } muss { $kind } sein, gefunden: { $found }
+diag-out-of-range-kind = { $what }: { $written } liegt außerhalb des zulässigen Bereichs ({ $kind }: { $range })
+diag-out-of-range-help = kein Messwert und kein Bauteil hat diesen Wert; Vorsatz und Exponent prüfen
+diag-this-value = dieser Wert
+diag-bad-value = { $what }: { $problem }
+diag-write-kind-as = so schreiben ({ $kind }): { $example }
+diag-bad-time = { $what } muss eine Zeit seit dem Einschalten sein, höchstens ein Tag
+diag-bad-time-label = Zeit wie "5min" erwartet
+diag-bad-time-help = Minuten als Zahl (5) schreiben, oder als Text mit s, min oder h: "30s", "5min", "1.5h"
+diag-date-not-text = { $what } muss ein Datum in Anführungszeichen sein, gefunden: { $found }
+diag-date-label = "JJJJ-MM-TT" erwartet
+diag-date-help = Daten als ISO-8601-Text schreiben, zum Beispiel "2026-11-02"
+diag-bad-date = { $what } "{ $text }" ist kein gültiges Datum ({ $error })
+diag-bad-date-help = Daten nach ISO 8601 als Jahr-Monat-Tag schreiben, zum Beispiel "2026-11-02"
+diag-must-be-from = { $what } muss im Bereich { $range } liegen
+diag-cannot-be-negative = { $what } kann nicht negativ sein
+diag-cannot-be-zero = { $what } kann nicht null sein
+diag-zero-or-more = null oder mehr erwartet
+diag-more-than-zero = mehr als null erwartet
+diag-impossible-help = ein echtes Bauteil oder Netzteil kann diesen Wert nicht haben; den Messwert prüfen
+diag-range = { $low } bis { $high }
+diag-kind-voltage = eine Spannung
+diag-kind-current = ein Strom
+diag-kind-resistance = ein Widerstand
+diag-kind-power = eine Leistung
+diag-kind-capacitance = eine Kapazität
+diag-kind-inductance = eine Induktivität
+diag-kind-frequency = eine Frequenz
+diag-kind-percent = ein Prozentwert
+diag-unit-empty = der Wert ist leer
+diag-unit-not-a-number = das ist keine Zahl mit optionalem SI-Vorsatz oder RKM-Code
+diag-unit-wrong = "{ $symbol }" ist eine Einheit für etwas anderes ({ $found }); hier gehört { $expected } hin
+diag-unit-rkm = der RKM-Buchstabe R markiert das Komma eines Widerstands, hier gehört aber { $expected } hin
+diag-unit-no-prefix = { $expected } nimmt keinen SI-Vorsatz
+diag-unit-not-finite = der Wert ist zu groß für einen Messwert
+
+diag-given-more-than-once = `{ $name }` steht mehr als einmal da
+diag-merge-nodes = eine Auftragsdatei hat einen Knoten `{ $name }`; die Knoten zusammenführen
+diag-format-too-new = diese Auftragsdatei verwendet Format { $found }, aber dieses ampreport liest höchstens Format { $known }
+diag-format-version = Formatversion
+diag-update-program = ampreport aktualisieren, um diese Datei zu lesen
+diag-format-needs-version = `job-format` braucht die Versionsnummer
+diag-version-missing = Version fehlt
+diag-write-format = `job-format 1` schreiben
+diag-no-format = die Auftragsdatei sagt nicht, welches Format sie verwendet
+diag-start-of-file = Dateianfang
+diag-begin-with-format = die Datei mit `job-format 1` beginnen
+diag-no-node = die Auftragsdatei hat keinen Knoten `{ $name }`
+diag-add = ergänzen: { $example }
+diag-two-final-sets = mehr als eine Messreihe ist als `final` markiert
+diag-second-final = eine zweite letzte Messreihe
+diag-two-final-help = die letzte Messreihe ist der Zustand, in dem das Gerät übergeben wird: nur eine markieren
+diag-repeated-set = es gibt zwei Messreihen mit der Bezeichnung "{ $label }"
+diag-repeated-label = wiederholte Bezeichnung
+diag-dates-out-of-order = der Auftrag ist abgeschlossen ({ $completed }), bevor er eingegangen ist ({ $received })
+diag-completed-before = vor dem Eingang abgeschlossen
+diag-given-twice = `{ $name }` steht zweimal da
+diag-wide-tolerance = eine Toleranz der Versorgung von { $pct }% ist ungewöhnlich weit
+diag-unusual = ungewöhnlich
+diag-unusual-mains = { $volts } V ist keine übliche Netzspannung
+diag-unusual-mains-label = ungewöhnliche Nennspannung
+diag-unknown-role = unbekannte Röhrenfunktion `{ $name }`
+diag-expected-role = Funktion erwartet
+diag-valve-needs-role = `valve` braucht eine Eigenschaft `role`
+diag-role-missing = Funktion fehlt
+diag-one-of = eines von: { $names }
+diag-position-twice = die Röhrenposition { $position } steht zweimal da
+diag-unknown-bias = unbekannte Vorspannungsart `{ $name }`
+diag-expected-bias = cathode oder fixed erwartet
+diag-large-sense = ein Messwiderstand von { $value } ist ungewöhnlich groß
+diag-sense-help = Messwiderstände haben meist 1 Ω oder 10 Ω
+diag-node-declared-twice = der Knoten { $name } ist zweimal angegeben
+diag-needs-voltage = `{ $name }` braucht die gemessene Spannung
+diag-voltage-missing = Spannung fehlt
+diag-node-read-twice = der Knoten { $name } ist in dieser Messreihe zweimal gemessen
+diag-type-twice = der Typ von { $position } steht in dieser Messreihe zweimal da
+diag-valve-read-twice = die Röhre { $position } ist in dieser Messreihe zweimal gemessen
+diag-warm-up-help = Messwerte zu Zeitpunkten während des Aufwärmens gehören in einen Block `warm-up` mit `after=`
+diag-warm-up-type = ein Messwert beim Aufwärmen kann den Röhrentyp nicht ändern
+diag-not-here = nicht hier
+diag-warm-up-type-help = den Typ der Messreihe in ihrer eigenen Zeile `valve` angeben
+diag-warm-up-time = ein Messwert beim Aufwärmen braucht die Zeit seit dem Einschalten
+diag-time-missing = Zeit fehlt
+diag-warm-up-nothing = ein Messwert beim Aufwärmen braucht etwas Gemessenes (cathode, sense, primary-drop oder current)
+diag-nothing-read = nichts gemessen
+diag-read-twice-same-time = { $position } ist zweimal zur selben Zeit gemessen
+diag-unknown-method = unbekannte Strommessart `{ $name }`
+diag-expected-method = probe oder shunt erwartet
+diag-method-help = probe: ein Messadapter unter der Röhre (Kathodenstrom); shunt: ein Strommesser über der halben Primärwicklung (Anodenstrom)
+diag-current-needs-method = ein direkt gemessener Strom braucht seine Messart
+diag-method-missing = Messart fehlt
+diag-add-method = method=probe (Messadapter: Kathodenstrom) oder method=shunt (Nebenschluss über der halben Primärwicklung: Anodenstrom) ergänzen
+diag-method-without-current = `method` steht ohne `current` da
+diag-no-current = kein Strom dazu
+
+## Die übrigen Meldungen im Terminal (src/cli), in der Sprache des
+## Werkstattprofils, sobald es gelesen ist; die Schlusszeile eines Stapels
+## in der Sprache, die alle seine Aufträge teilen, sonst Englisch.
+
+cli-rendered = erstellt { $job } → { $output } in { $time }
+cli-unchanged = unverändert { $output }
+cli-failed = fehlgeschlagen { $job }: { $error }
+cli-see-above = siehe oben
+cli-no-message = keine Meldung
+cli-summary = { $jobs ->
+        [one] 1 Auftrag
+       *[other] { $jobs } Aufträge
+    } in { $time }: { $rendered } erstellt, { $unchanged } unverändert, { $failed } fehlgeschlagen
+cli-summary-stopped = , { $count } nicht begonnen (angehalten)
+cli-watch-failed = fehlgeschlagen { $job } nach { $time }; { $output } blieb unverändert

@@ -265,6 +265,61 @@ fn a_commit_of_the_job_typesets_again() {
 }
 
 #[test]
+fn in_a_folder_made_ready_by_init_repo_git_sees_no_rendered_file() {
+    // What `init --repo` ignores covers everything a render leaves: the
+    // PDF, the listing's Markdown and photos, and each file's manifest.
+    let c = Counting::new();
+    let dir = &c.scene.dir;
+    if !git(dir, &["init", "-q"]) {
+        assert!(std::env::var_os("CI").is_none(), "git is needed under CI");
+        eprintln!("note: skipping: git cannot be run");
+        return;
+    }
+    let photos = dir.join("photos");
+    std::fs::create_dir(&photos).unwrap();
+    for name in ["parlour-twelve-before.jpg", "parlour-twelve-after.png"] {
+        std::fs::copy(
+            PathBuf::from(env!("CARGO_MANIFEST_DIR"))
+                .join("jobs/photos")
+                .join(name),
+            photos.join(name),
+        )
+        .unwrap();
+    }
+    std::fs::copy(support::demo("combo-6v6-fixed"), &c.scene.job).unwrap();
+    let out = c.command(&["init", "--repo", "."]).output().unwrap();
+    assert!(out.status.success(), "{}", stderr(&out));
+    assert!(c.typeset(&[]));
+    assert!(c.typeset(&["--listing"]));
+    assert!(dir.join(".job.listing.md.ampreport-key").is_file());
+    assert!(dir.join("job.listing-photo-1.jpg").is_file());
+    let status = Command::new("git")
+        .current_dir(dir)
+        .args(["status", "--porcelain", "--untracked-files=all"])
+        .env_remove("GIT_DIR")
+        .env_remove("GIT_WORK_TREE")
+        .env_remove("GIT_INDEX_FILE")
+        .output()
+        .unwrap();
+    let mut seen: Vec<String> = String::from_utf8_lossy(&status.stdout)
+        .lines()
+        .map(str::to_string)
+        .collect();
+    seen.sort();
+    assert_eq!(
+        seen,
+        [
+            "?? .gitattributes",
+            "?? .gitignore",
+            "?? job.kdl",
+            "?? photos/parlour-twelve-after.png",
+            "?? photos/parlour-twelve-before.jpg"
+        ],
+        "git would offer to commit rendered files"
+    );
+}
+
+#[test]
 fn a_change_to_a_ratings_file_typesets_again() {
     let c = Counting::new();
     let ratings = c.scene.root.path().join("own-ratings.kdl");
@@ -733,4 +788,57 @@ fn watch_renders_on_save_keeps_the_last_good_pdf_and_stops_on_ctrl_c() {
         .filter(|n| n.contains(".tmp") || n.starts_with(".ampreport"))
         .collect();
     assert!(leftovers.is_empty(), "{leftovers:?}");
+}
+
+#[cfg(target_os = "linux")]
+#[test]
+fn watch_takes_no_read_of_its_own_for_a_save_and_renders_listings() {
+    // The watcher is also told of files being opened: the render's own
+    // reads of the job and its shop profile must not set off another
+    // render, over and over.
+    let c = Counting::new();
+    std::fs::write(
+        c.scene.dir.join("shop.kdl"),
+        "shop-format 1\nshop \"Test Bench\"\n",
+    )
+    .unwrap();
+    let log = c.scene.root.path().join("watch.out");
+    let mut child = c
+        .command(&[
+            "watch",
+            c.scene.job.to_str().unwrap(),
+            "--listing",
+            "--typst",
+            c.typst.to_str().unwrap(),
+        ])
+        .stdin(Stdio::null())
+        .stdout(std::fs::File::create(&log).unwrap())
+        .stderr(Stdio::null())
+        .spawn()
+        .unwrap();
+    let pid = child.id() as i32;
+    let limit = Duration::from_secs(30);
+    let said = || std::fs::read_to_string(&log).unwrap_or_default();
+    let count = |what: &str| said().lines().filter(|l| l.contains(what)).count();
+    assert!(
+        wait_until(limit, || count(" rendered ") == 1),
+        "the first render"
+    );
+    assert!(said().contains("job.listing.pdf"), "{}", said());
+    assert!(c.scene.dir.join("job.listing.md").is_file());
+    // Quiet for a while: nothing more is rendered or even looked at.
+    std::thread::sleep(Duration::from_millis(1500));
+    assert_eq!(count(" unchanged "), 0, "{}", said());
+    assert_eq!(count(" rendered "), 1, "{}", said());
+    // A save still renders.
+    let good = std::fs::read_to_string(&c.scene.job).unwrap();
+    std::fs::write(&c.scene.job, format!("{good}// saved\n")).unwrap();
+    assert!(wait_until(limit, || count(" rendered ") == 2), "{}", said());
+    std::thread::sleep(Duration::from_millis(1000));
+    assert_eq!(count(" unchanged "), 0, "{}", said());
+    assert_eq!(c.compiles(), 2);
+    // SAFETY: signals the child started above.
+    unsafe { libc::kill(pid, libc::SIGINT) };
+    let status = support::wait_with_limit(&mut child, limit);
+    assert_eq!(status.code(), Some(0));
 }

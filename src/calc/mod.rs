@@ -160,7 +160,22 @@ pub fn derive_in(job: &Job, ratings: &RatingsTable, cat: &Catalogue) -> Findings
             true,
             &subject,
             Status::Caution,
-            sentence(&m.message()),
+            sentence(&cat.format(
+                "warn-not-measured-final",
+                &[
+                    (
+                        "what",
+                        Arg::from(match m.kind {
+                            "node" => {
+                                cat.format("warn-accept-node", &[("name", Arg::from(&m.name))])
+                            }
+                            _ => m.name.clone(),
+                        }),
+                    ),
+                    ("final", Arg::from(&m.final_set)),
+                    ("set", Arg::from(&m.set)),
+                ],
+            )),
         ));
     }
     let mut safety = job

@@ -27,6 +27,8 @@ const NAMESPACES: &[&str] = &[
     "check",
     "figure",
     "listing",
+    "diag",
+    "cli",
 ];
 
 /// Every `t("key")`/`tm("key")` of a template and every

@@ -63,7 +63,7 @@ pub fn run(args: &InitArgs) -> Exit {
 pub(super) fn write_new(path: &std::path::Path, text: &str, next: &str) -> Exit {
     if path.exists() {
         eprintln!(
-            "error: {} already exists; ampreport init never replaces a file",
+            "error: {} already exists; ampreport never replaces a file",
             path.display()
         );
         return Exit::InvalidInput;
@@ -89,7 +89,7 @@ pub(super) fn write_new(path: &std::path::Path, text: &str, next: &str) -> Exit 
         }
         Err(e) if e.kind() == std::io::ErrorKind::AlreadyExists => {
             eprintln!(
-                "error: {} already exists; ampreport init never replaces a file",
+                "error: {} already exists; ampreport never replaces a file",
                 path.display()
             );
             Exit::InvalidInput

@@ -97,11 +97,7 @@ fn decode_inner(
         }
     };
     problems.sort_by_key(|p| p.span.offset());
-    let diagnostics = JobDiagnostics {
-        source,
-        problems,
-        not_shown: Default::default(),
-    };
+    let diagnostics = JobDiagnostics::new(source, problems);
     match job {
         Some(job) if !diagnostics.has_errors() => Ok(Decoded { job, diagnostics }),
         _ => {

@@ -286,6 +286,8 @@ fn shown(v: &Value, figure: &str) -> String {
     match v {
         Value::Null => "–".to_string(),
         Value::Number(n) => match n.as_f64() {
+            // The same minus sign as the change column.
+            Some(x) if x < 0.0 => format!("\u{2212}{}{}", format_sig(-x, 4), unit(figure)),
             Some(x) => format!("{}{}", format_sig(x, 4), unit(figure)),
             None => n.to_string(),
         },
@@ -386,6 +388,14 @@ mod tests {
             "14.56 W"
         );
         assert_eq!(signed(-4.5, "power_pct"), "\u{2212}4.5 %");
+        assert_eq!(
+            shown(&serde_json::json!(-1.31), "deviation_pct"),
+            "\u{2212}1.31 %"
+        );
+        assert_eq!(
+            shown(&serde_json::json!(344.5), "corrected_volts"),
+            "344.5 V"
+        );
         assert_eq!(shown(&Value::Null, "x_w"), "–");
     }
 

@@ -3,6 +3,7 @@
 //! `shop.kdl` reads like one in a job file: `file:line:column`, what was
 //! expected, a did-you-mean. Decoding computes nothing and reads no file.
 
+use crate::catalogue::Msg;
 use kdl::{KdlDocument, KdlNode};
 use miette::SourceSpan;
 
@@ -36,7 +37,7 @@ pub(crate) fn decode_document(
     source_name: &str,
     r: &mut Reader,
 ) -> Option<ShopProfile> {
-    let nodes = r.children(Some(doc), SHOP_TOP_LEVEL, "the shop profile");
+    let nodes = r.children(Some(doc), SHOP_TOP_LEVEL, Msg::new("diag-in-shop-profile"));
     for (i, node) in nodes.iter().enumerate() {
         let name = node.name().value();
         if nodes[..i].iter().any(|n| n.name().value() == name) {
@@ -261,7 +262,7 @@ fn text(node: &KdlNode, r: &mut Reader) -> Option<String> {
     r.check_entries(node, &[], 1);
     r.no_children(node);
     let name = node.name().value();
-    r.req_arg_string(node, &format!("`{name}`"), &format!("{name} \"…\""))
+    r.req_arg_string(node, format!("`{name}`"), &format!("{name} \"…\""))
         .map(|s| s.value)
 }
 
@@ -325,7 +326,7 @@ fn decode_safety(node: &KdlNode, r: &mut Reader) -> SafetyDefaults {
         r.no_children(child);
         let limit = |r: &mut Reader, key: &str, kind: Q| {
             let q = r.opt_prop_quantity(child, key, kind);
-            r.positive(q, &format!("`{key}`"), false).map(|q| q.value)
+            r.positive(q, format!("`{key}`"), false).map(|q| q.value)
         };
         match child.name().value() {
             "earth-continuity" => {

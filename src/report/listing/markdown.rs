@@ -11,9 +11,11 @@ use super::notice::Notice;
 /// extensions: tables, strikethrough, footnotes, maths, attributes)
 /// anywhere in a line; a backslash makes each literal.
 /// (Parentheses and quotes only mean something inside a link, and no
-/// link can start without a `[` or a `<`, which are always escaped.)
+/// link can start without a `[` or a `<`, which are always escaped.) An
+/// `&` is escaped only where it could start an entity (`&amp;`, `&#38;`),
+/// so "Halloran & Pike" pastes as it is written.
 const ALWAYS: &[char] = &[
-    '\\', '`', '*', '_', '[', ']', '<', '>', '#', '|', '~', '!', '&', '{', '}', '$', '^',
+    '\\', '`', '*', '_', '[', ']', '<', '>', '#', '|', '~', '!', '{', '}', '$', '^',
 ];
 
 /// Escapes one line of text: runs of white space (line breaks included)
@@ -36,8 +38,13 @@ pub fn paragraphs(text: &str) -> String {
 
 fn escape_line(line: &str) -> String {
     let mut out = String::with_capacity(line.len() + 8);
-    for c in line.chars() {
-        if ALWAYS.contains(&c) {
+    let mut chars = line.chars().peekable();
+    while let Some(c) = chars.next() {
+        let entity = c == '&'
+            && chars
+                .peek()
+                .is_some_and(|n| n.is_ascii_alphanumeric() || *n == '#');
+        if ALWAYS.contains(&c) || entity {
             out.push('\\');
         }
         out.push(c);
@@ -310,7 +317,8 @@ pub fn render(ctx: &ListingContext, photos: &[PhotoFile], n: &Notice) -> String 
                 c.replace('`', "")
             ));
             if ctx.footer.uncommitted_changes {
-                tail.push_str(&format!(" {}", inline(w.edits.as_str())));
+                // A fixed word in the middle of the line: nothing to escape.
+                tail.push_str(&format!(" {}", w.edits));
             }
         }
         None => tail.push_str(&format!(
@@ -368,7 +376,7 @@ mod tests {
             "--- ",
             "*bold* _it_ **b** __u__ ~~s~~ `code`",
             "[link](http://example.test) ![img](x.png)",
-            "<b>html</b> <!-- c --> &amp; &copy;",
+            "<b>html</b> <!-- c --> &amp; &copy; &#38; &#x26; &",
             "a | b | c",
             "$x^2$ {#id} [^1]",
             "\\ backslash \\* stays",
@@ -390,6 +398,13 @@ mod tests {
                 .count();
             assert_eq!(cells, 4, "{s:?} broke the table");
         }
+    }
+
+    #[test]
+    fn a_plain_ampersand_and_plus_are_left_as_written() {
+        assert_eq!(inline("Halloran & Pike"), "Halloran & Pike");
+        assert_eq!(inline("R&D &amp"), "R\\&D \\&amp");
+        assert_eq!(inline("commit 1a2b + edits"), "commit 1a2b + edits");
     }
 
     #[test]
