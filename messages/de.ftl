@@ -976,6 +976,16 @@ note-no-idle-current = { $position }: kein Messwert ergibt den Ruhestrom (Kathod
 note-no-half-primary = { $position }: ein Spannungsabfall an der Halbwicklung ist angegeben, aber die Schaltung nennt keinen Halbwicklungswiderstand für { $position }
 note-no-sense-resistor = { $position }: eine Spannung am Messwiderstand ist angegeben, aber die Schaltung hat keinen Messwiderstand für { $position }
 
+note-unfit-no-mu = die Datentabelle nennt kein { $factor } für { $type }
+note-unfit-no-plate = es gibt keinen Messwert der Anodenspannung
+note-unfit-no-screen = es gibt keinen Messwert der Schirmgitterspannung
+note-unfit-no-current = kein Messwert ergibt den Ruhestrom
+note-unfit-no-grid = es gibt keinen Messwert der Gitterspannung
+note-unfit-cut-off = ihre Messwerte liegen nach dem Drei-Halbe-Gesetz (μ { $mu }) im oder jenseits des Sperrbereichs, daher lässt sich das Gesetz nicht anpassen
+note-no-suggestion-figure = { $reference }: kein Vorschlag für den Kathodenwiderstand, da keine Röhre daran einen Wert der Anodenverlustleistung hat
+note-no-suggestion-unfit = { $reference }: kein Vorschlag für den Kathodenwiderstand, da für { $valve } gilt: { $why }
+note-no-suggestion-reach = { $reference }: nach dem Drei-Halbe-Gesetz bringt kein Kathodenwiderstand { $valve } auf { $pct } % seiner Anodenverlustleistung
+
 ## Aufzählungen im Text: „V3, V4 und V5“.
 
 list-and = { $first } und { $last }

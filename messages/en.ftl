@@ -972,6 +972,16 @@ note-no-idle-current = { $position }: no reading gives the idle current (read th
 note-no-half-primary = { $position }: a half-primary drop is given but the circuit has no half-primary resistance for { $position }
 note-no-sense-resistor = { $position }: a sense-resistor voltage is given but the circuit has no sense resistor for { $position }
 
+note-unfit-no-mu = the ratings table gives no { $factor } for { $type }
+note-unfit-no-plate = there is no plate reading
+note-unfit-no-screen = there is no screen reading
+note-unfit-no-current = no reading gives the idle current
+note-unfit-no-grid = there is no grid reading
+note-unfit-cut-off = its readings put it at or beyond cut-off by the three-halves law (μ { $mu }), so the law cannot be fitted
+note-no-suggestion-figure = { $reference }: no cathode-resistor suggestion, since no valve on it has a plate-dissipation figure
+note-no-suggestion-unfit = { $reference }: no cathode-resistor suggestion, since for { $valve } { $why }
+note-no-suggestion-reach = { $reference }: no cathode resistor brings { $valve } up to { $pct } % of its plate rating by the three-halves law
+
 ## Lists in running text: "V3, V4 and V5".
 
 list-and = { $first } and { $last }

@@ -105,7 +105,7 @@ pub fn derive_in(job: &Job, ratings: &RatingsTable, cat: &Catalogue) -> Findings
         let rectifier = supply::rectifier(job, set, &circuit, &valves, ratings, cat);
         let bench = bench::findings(job, set, settings, cat);
         let cathode_resistor_suggestions = bias_estimate::cathode_suggestions(
-            job, set, &circuit, settings, &valves, ratings, &mut notes,
+            job, set, &circuit, settings, &valves, ratings, &mut notes, cat,
         );
         let mut found = SetFindings {
             label: set.label.clone(),
