@@ -276,6 +276,7 @@ pub(crate) fn grid_for_window_middle(
 /// under output valves, when the set asks for it or a valve on it is above
 /// the cathode-bias caution guide. Where one cannot be worked out, a note
 /// says why.
+#[allow(clippy::too_many_arguments)]
 pub(crate) fn cathode_suggestions(
     job: &Job,
     set: &MeasurementSet,
