@@ -1155,6 +1155,39 @@ diag-add-method = method=probe (Messadapter: Kathodenstrom) oder method=shunt (N
 diag-method-without-current = `method` steht ohne `current` da
 diag-no-current = kein Strom dazu
 
+diag-undeclared-node = der Knoten { $name } in „{ $set }“ ist nicht in `circuit` angegeben; er hat daher keinen Sollwert, und kein Bauteil verwendet ihn
+diag-not-declared-node = kein angegebener Knoten
+diag-declare-node-or = meinten Sie `{ $near }`? Sonst in `circuit` angeben: node { $name } chart="…"
+diag-declare-node = in `circuit` angeben: node { $name } chart="…"
+diag-node-only-here = der Knoten { $name } ist nur in „{ $set }“ gemessen; eine andere Messreihe misst { $near }
+diag-different-name = ein anderer Name als in den übrigen Messreihen
+diag-node-named = Knoten { $name }
+diag-not-in-final = { $what } ist in „{ $final }“, der letzten Messreihe, nicht gemessen (wohl aber in „{ $set }“)
+diag-not-measured-in = nicht gemessen in „{ $final }“
+diag-read-again = in „{ $final }“ erneut messen, sonst kann das Protokoll nicht sagen, wie es beim Verlassen der Werkstatt steht
+diag-mains-far = die Netzspannung von { $mains } in "{ $set }" weicht um { $pct }% von der Nennspannung { $nominal } ab
+diag-far-from-nominal = weit von der Nennspannung
+diag-mains-far-help = den Messwert prüfen, oder ob das Gerät an einem Stelltransformator lief
+diag-output-role-mismatch = { $position } ist als Endröhre angegeben, aber die Datentabelle führt { $type } als { $class }
+diag-unusual-role = ungewöhnliche Funktion für diesen Typ
+diag-rectifier-mismatch = { $position } ist als Gleichrichter angegeben, aber { $type } ist ein { $class }
+diag-not-a-rectifier = kein Gleichrichter
+diag-unknown-valve-type = unbekannter Röhrentyp "{ $type }" an { $position }
+diag-not-in-ratings = nicht in der Datentabelle
+diag-rectifier-not-rectifier = der Gleichrichter ist { $position } ({ $type }), das ist keine Gleichrichterröhre
+diag-write-silicon = für einen Halbleitergleichrichter `rectifier silicon` schreiben
+diag-incomplete = { $file ->
+        [shop] das Werkstattprofil
+       *[job] die Auftragsdatei
+    } ist unvollständig
+diag-here = hier
+diag-bare-value = KDL-Syntax: `{ $value }` ist keine Zahl und muss daher in Anführungszeichen stehen
+diag-needs-quotes = braucht Anführungszeichen
+diag-bare-value-help = "{ $value }" schreiben: ein Wert mit Einheit oder ein Name, der mit einer Ziffer beginnt, ist Text in doppelten Anführungszeichen
+diag-kdl-syntax = KDL-Syntax: { $problem }
+diag-kdl-broken = die KDL-Syntax ist hier fehlerhaft
+diag-kdl-help = Auftragsdateien sind KDL 2.0: Text in doppelten Anführungszeichen, Wahrheitswerte als #true/#false, ein Knoten pro Zeile
+
 ## Die übrigen Meldungen im Terminal (src/cli), in der Sprache des
 ## Werkstattprofils, sobald es gelesen ist; die Schlusszeile eines Stapels
 ## in der Sprache, die alle seine Aufträge teilen, sonst Englisch.
@@ -1170,3 +1203,20 @@ cli-summary = { $jobs ->
     } in { $time }: { $rendered } erstellt, { $unchanged } unverändert, { $failed } fehlgeschlagen
 cli-summary-stopped = , { $count } nicht begonnen (angehalten)
 cli-watch-failed = fehlgeschlagen { $job } nach { $time }; { $output } blieb unverändert
+cli-wrote = geschrieben: { $path }
+cli-wrote-stdout = das PDF auf die Standardausgabe geschrieben
+cli-up-to-date = { $path } ist aktuell (--force erstellt es trotzdem)
+cli-shop-templates-failed = Hinweis: das Dokument aus den Vorlagen der Werkstatt in { $folder } ist fehlgeschlagen; der Fehler liegt in den Vorlagen, nicht im Auftrag
+cli-built-in-template-failed = Hinweis: die eingebaute Vorlage ist fehlgeschlagen; das ist ein Fehler in ampreport, bitte melden
+cli-left-as-it-was = Hinweis: { $path } blieb unverändert
+cli-undrawable = Warnung: { $place }: der Text von { $field } enthält Zeichen, die die Schriften des Dokuments nicht darstellen können ({ $chars }); sie erscheinen als { $placeholder }
+cli-field-of = `{ $key }` von `{ $node }`
+cli-cannot-make-folder = Fehler: der Ordner { $folder } für das PDF konnte nicht angelegt werden: { $error }
+cli-listing-name-clash = Fehler: das PDF der Auflistung { $path } würde von ihrem eigenen Markdown überschrieben; das PDF mit .pdf benennen
+cli-cannot-write-source = Fehler: der erzeugte Quelltext konnte nicht nach { $folder } geschrieben werden: { $error }
+cli-wrote-source = den erzeugten Quelltext nach { $folder } geschrieben
+cli-same-pdf-from = dasselbe PDF entsteht mit: { $command }
+cli-typst-warned =
+    typst warnte:
+    { $warnings }
+cli-cannot-record = Warnung: es konnte nicht festgehalten werden, woraus { $path } entstand ({ $error }); der nächste Lauf erstellt es neu

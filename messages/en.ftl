@@ -1153,6 +1153,39 @@ diag-add-method = add method=probe (bias probe: cathode current) or method=shunt
 diag-method-without-current = `method` is given without a `current`
 diag-no-current = no current to go with it
 
+diag-undeclared-node = node { $name } in “{ $set }” is not declared in `circuit`, so it has no chart figure and no part uses it
+diag-not-declared-node = not a declared node
+diag-declare-node-or = did you mean `{ $near }`? Otherwise declare it in `circuit`: node { $name } chart="…"
+diag-declare-node = declare it in `circuit`: node { $name } chart="…"
+diag-node-only-here = node { $name } is read only in “{ $set }”; another set reads { $near }
+diag-different-name = a different name from the other sets
+diag-node-named = node { $name }
+diag-not-in-final = { $what } is not measured in “{ $final }”, the final set (it was in “{ $set }”)
+diag-not-measured-in = not measured in “{ $final }”
+diag-read-again = read it again in “{ $final }”, or the document cannot say how it stands as the unit leaves
+diag-mains-far = mains of { $mains } in "{ $set }" is { $pct }% from the nominal { $nominal }
+diag-far-from-nominal = far from nominal
+diag-mains-far-help = check the reading, or whether the unit ran from a variable autotransformer
+diag-output-role-mismatch = { $position } is listed as an output valve, but the ratings table has { $type } as a { $class }
+diag-unusual-role = unusual role for this type
+diag-rectifier-mismatch = { $position } is listed as the rectifier, but { $type } is a { $class }
+diag-not-a-rectifier = not a rectifier
+diag-unknown-valve-type = unknown valve type "{ $type }" at { $position }
+diag-not-in-ratings = not in the ratings table
+diag-rectifier-not-rectifier = the rectifier is { $position } ({ $type }), which is not a rectifier valve
+diag-write-silicon = write `rectifier silicon` for a solid-state rectifier
+diag-incomplete = the { $file ->
+        [shop] shop profile
+       *[job] job file
+    } is incomplete
+diag-here = here
+diag-bare-value = KDL syntax: `{ $value }` is not a number, so it must be written in quotes
+diag-needs-quotes = needs quotes
+diag-bare-value-help = write "{ $value }": a value with a unit, or a name that starts with a digit, is text in double quotes
+diag-kdl-syntax = KDL syntax: { $problem }
+diag-kdl-broken = the KDL syntax is broken here
+diag-kdl-help = job files are KDL 2.0: text in double quotes, booleans as #true/#false, one node per line
+
 ## The terminal's other messages: what the commands say besides a job's
 ## summary (src/cli), in the job's shop-profile language once it is read;
 ## a batch's closing summary in the language all its jobs share, else
@@ -1169,3 +1202,20 @@ cli-summary = { $jobs ->
     } in { $time }: { $rendered } rendered, { $unchanged } unchanged, { $failed } failed
 cli-summary-stopped = , { $count } not started (stopped)
 cli-watch-failed = failed { $job } after { $time }; { $output } was left as it was
+cli-wrote = wrote { $path }
+cli-wrote-stdout = wrote the PDF to standard output
+cli-up-to-date = { $path } is up to date (--force renders it anyway)
+cli-shop-templates-failed = note: the document from the shop templates in { $folder } failed; the templates are at fault, not the job
+cli-built-in-template-failed = note: the built-in template failed; this is a fault in ampreport, please report it
+cli-left-as-it-was = note: { $path } was left as it was
+cli-undrawable = warning: { $place }: the text of { $field } holds characters the document's fonts cannot draw ({ $chars }); they print as { $placeholder }
+cli-field-of = `{ $key }` of `{ $node }`
+cli-cannot-make-folder = error: could not make the folder { $folder } for the PDF: { $error }
+cli-listing-name-clash = error: the listing's PDF { $path } would be written over by its own Markdown; name the PDF with .pdf
+cli-cannot-write-source = error: could not write the generated source to { $folder }: { $error }
+cli-wrote-source = wrote the generated source to { $folder }
+cli-same-pdf-from = the same PDF comes from: { $command }
+cli-typst-warned =
+    typst warned:
+    { $warnings }
+cli-cannot-record = warning: could not record what { $path } was made from ({ $error }); the next run renders it again

@@ -31,6 +31,7 @@ use super::job_files::JobFile;
 use super::said::Said;
 use super::{load, ui};
 use crate::calc;
+use crate::catalogue::{Catalogue, Msg};
 use crate::input_file::is_dash;
 use crate::ratings::RatingsTable;
 use crate::report::handover::{self, HandoverError, HandoverInput};
@@ -59,19 +60,23 @@ pub fn run(args: &RenderArgs) -> Exit {
         match report.outcome {
             Outcome::Rendered if is_dash(output) => {
                 if ui::verbose() {
-                    eprintln!("wrote the PDF to standard output");
+                    eprintln!("{}", report.said.say(&Msg::new("cli-wrote-stdout")));
                 }
             }
             Outcome::Rendered => {
-                ui::wrote(format!("wrote {}", output.display()));
-                for path in &report.beside {
-                    ui::wrote(format!("wrote {}", path.display()));
+                for path in std::iter::once(output).chain(&report.beside) {
+                    ui::wrote(
+                        report
+                            .said
+                            .say(&Msg::new("cli-wrote").arg("path", path.display().to_string())),
+                    );
                 }
             }
-            Outcome::Unchanged => ui::wrote(format!(
-                "{} is up to date (--force renders it anyway)",
-                output.display()
-            )),
+            Outcome::Unchanged => ui::wrote(
+                report
+                    .said
+                    .say(&Msg::new("cli-up-to-date").arg("path", output.display().to_string())),
+            ),
             Outcome::Failed => {}
         }
         return report.exit;
@@ -390,10 +395,13 @@ fn render_job(
         && parent.starts_with(dir)
         && let Err(e) = std::fs::create_dir_all(parent)
     {
-        said.error(format!(
-            "error: could not make the folder {} for the PDF: {e}",
-            parent.display()
-        ));
+        said.error(
+            said.say(
+                &Msg::new("cli-cannot-make-folder")
+                    .arg("folder", parent.display().to_string())
+                    .arg("error", e.to_string()),
+            ),
+        );
         return Err(Exit::Environment);
     }
     let loaded = load::decode(job_path, text, shop, &setup.ratings, said)?;
@@ -415,10 +423,9 @@ fn render_job(
     // names are known once they are prepared, and checked then.
     let markdown = args.listing.then(|| markdown_for(output));
     if markdown.as_ref() == Some(output) {
-        said.error(format!(
-            "error: the listing's PDF {} would be written over by its own Markdown; name the PDF with .pdf",
-            output.display()
-        ));
+        said.error(
+            said.say(&Msg::new("cli-listing-name-clash").arg("path", output.display().to_string())),
+        );
         return Err(Exit::Usage);
     }
     for path in std::iter::once(output).chain(markdown.as_ref()) {
@@ -450,7 +457,7 @@ fn render_job(
     let photos = load::photos(job_path, &loaded, said)?;
     let mut findings = calc::derive_in(job, &setup.ratings, loaded.catalogue());
     load::stamp(job_path, &loaded, &mut findings);
-    for warning in undrawable_text(&load::job_name(job_path), &loaded.text) {
+    for warning in undrawable_text(&load::job_name(job_path), &loaded.text, said.catalogue()) {
         said.warn(warning);
     }
 
@@ -539,17 +546,23 @@ fn render_job(
             ));
         }
         if let Err(e) = written {
-            said.error(format!(
-                "error: could not write the generated source to {}: {e}",
-                dir.display()
-            ));
+            said.error(
+                said.say(
+                    &Msg::new("cli-cannot-write-source")
+                        .arg("folder", dir.display().to_string())
+                        .arg("error", e.to_string()),
+                ),
+            );
             return Err(Exit::Environment);
         }
-        said.warn(format!("wrote the generated source to {}", dir.display()));
-        said.warn(format!(
-            "  the same PDF comes from: {}",
-            handover::compile_command(dir, &document.options, &dir.join("handover.pdf"))
-        ));
+        said.warn(said.say(&Msg::new("cli-wrote-source").arg("folder", dir.display().to_string())));
+        said.warn(
+            "  ".to_owned()
+                + &said.say(&Msg::new("cli-same-pdf-from").arg(
+                    "command",
+                    handover::compile_command(dir, &document.options, &dir.join("handover.pdf")),
+                )),
+        );
     }
 
     let options = CompileOptions {
@@ -572,7 +585,11 @@ fn render_job(
                 ),
             }
             if !outcome.warnings.is_empty() {
-                said.warn(format!("typst warned:\n{}", outcome.warnings));
+                said.warn(
+                    said.say(
+                        &Msg::new("cli-typst-warned").arg("warnings", outcome.warnings.as_str()),
+                    ),
+                );
             }
             // The listing's photos, then its Markdown: each file is written
             // whole or not at all.
@@ -589,10 +606,13 @@ fn render_job(
                     _ if is_dash(path) => {}
                     Some(key) => {
                         if let Err(e) = content_key::record(path, key) {
-                            said.warn(format!(
-                                "warning: could not record what {} was made from ({e}); the next run renders it again",
-                                path.display()
-                            ));
+                            said.warn(
+                                said.say(
+                                    &Msg::new("cli-cannot-record")
+                                        .arg("path", path.display().to_string())
+                                        .arg("error", e.to_string()),
+                                ),
+                            );
                         }
                     }
                     None => content_key::forget(path),
@@ -735,16 +755,13 @@ pub(crate) fn report_typeset_error(
         TypesetError::Output(_) => Exit::Usage,
         TypesetError::Compile { .. } | TypesetError::MissingText { .. } => match shop {
             Some(dir) => {
-                said.err(format!(
-                    "note: the document from the shop templates in {} failed; the templates are at fault, not the job",
-                    dir.display()
+                said.err(said.say(
+                    &Msg::new("cli-shop-templates-failed").arg("folder", dir.display().to_string()),
                 ));
                 Exit::InvalidInput
             }
             None => {
-                said.err(
-                    "note: the built-in template failed; this is a fault in ampreport, please report it",
-                );
+                said.err(said.say(&Msg::new("cli-built-in-template-failed")));
                 Exit::Environment
             }
         },
@@ -754,7 +771,9 @@ pub(crate) fn report_typeset_error(
     if let Some(output) = output
         && output.exists()
     {
-        said.err(format!("note: {} was left as it was", output.display()));
+        said.err(
+            said.say(&Msg::new("cli-left-as-it-was").arg("path", output.display().to_string())),
+        );
     }
     status
 }
@@ -762,8 +781,14 @@ pub(crate) fn report_typeset_error(
 /// A warning for each text value of the job holding characters the
 /// bundled fonts cannot draw, naming the field and where it is; the
 /// document prints those characters as the placeholder.
-fn undrawable_text(file: &str, text: &str) -> Vec<String> {
-    fn walk(doc: &kdl::KdlDocument, file: &str, text: &str, out: &mut Vec<String>) {
+fn undrawable_text(file: &str, text: &str, catalogue: &Catalogue) -> Vec<String> {
+    fn walk(
+        doc: &kdl::KdlDocument,
+        file: &str,
+        text: &str,
+        catalogue: &Catalogue,
+        out: &mut Vec<String>,
+    ) {
         for node in doc.nodes() {
             for entry in node.entries() {
                 let kdl::KdlValue::String(value) = entry.value() else {
@@ -773,9 +798,12 @@ fn undrawable_text(file: &str, text: &str) -> Vec<String> {
                 if lacking.is_empty() {
                     continue;
                 }
-                let field = match entry.name() {
-                    Some(key) => format!("`{}` of `{}`", key.value(), node.name().value()),
-                    None => format!("`{}`", node.name().value()),
+                let field: crate::catalogue::Arg = match entry.name() {
+                    Some(key) => Msg::new("cli-field-of")
+                        .arg("key", key.value())
+                        .arg("node", node.name().value())
+                        .into(),
+                    None => format!("`{}`", node.name().value()).into(),
                 };
                 let (line, column) = crate::job::line_column(text, entry.span().offset());
                 let chars: Vec<String> = lacking
@@ -783,21 +811,31 @@ fn undrawable_text(file: &str, text: &str) -> Vec<String> {
                     .take(5)
                     .map(|c| format!("U+{:04X}", u32::from(*c)))
                     .collect();
-                out.push(format!(
-                    "warning: {file}:{line}:{column}: the text of {field} holds characters the document's fonts cannot draw ({}{}); they print as {}",
-                    chars.join(", "),
-                    if lacking.len() > 5 { ", …" } else { "" },
-                    typeset::placeholder()
-                ));
+                out.push(
+                    catalogue.say(
+                        &Msg::new("cli-undrawable")
+                            .arg("place", format!("{file}:{line}:{column}"))
+                            .arg("field", field)
+                            .arg(
+                                "chars",
+                                format!(
+                                    "{}{}",
+                                    chars.join(", "),
+                                    if lacking.len() > 5 { ", …" } else { "" }
+                                ),
+                            )
+                            .arg("placeholder", typeset::placeholder().to_string()),
+                    ),
+                );
             }
             if let Some(children) = node.children() {
-                walk(children, file, text, out);
+                walk(children, file, text, catalogue, out);
             }
         }
     }
     let mut out = Vec::new();
     if let Ok(doc) = crate::kdl_fast::parse_document(text) {
-        walk(&doc, file, text, &mut out);
+        walk(&doc, file, text, catalogue, &mut out);
     }
     out
 }
@@ -885,9 +923,7 @@ fn report_build_error(e: HandoverError, said: &mut Said) -> Exit {
             from_override: false,
             ..
         } => {
-            said.err(
-                "note: the built-in template failed; this is a fault in ampreport, please report it",
-            );
+            said.err(said.say(&Msg::new("cli-built-in-template-failed")));
             Exit::Environment
         }
         HandoverError::Plot(_) | HandoverError::Sandbox(_) => Exit::Environment,
@@ -903,7 +939,7 @@ mod tests {
     #[test]
     fn text_the_fonts_cannot_draw_is_named_with_its_place() {
         let text = "job id=\"J1\"\nparts {\n    part R1 reason=\"hot 🔥\"\n}\nnotes {\n    note \"ก\"\n}\n";
-        let warnings = undrawable_text("j.kdl", text);
+        let warnings = undrawable_text("j.kdl", text, Catalogue::english());
         assert_eq!(warnings.len(), 2, "{warnings:?}");
         assert!(warnings[0].starts_with("warning: j.kdl:3:13: the text of `reason` of `part`"));
         assert!(warnings[0].contains("U+1F525"));

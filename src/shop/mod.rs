@@ -89,8 +89,8 @@ pub fn decode(name: &str, text: &str) -> Result<DecodedShop, JobDiagnostics> {
                     DecodeError::error(
                         "shop::incomplete",
                         SourceSpan::new(0.into(), 0),
-                        "the shop profile is incomplete",
-                        "here",
+                        crate::catalogue::Msg::new("diag-incomplete").arg("file", "shop"),
+                        crate::catalogue::Msg::new("diag-here"),
                     )
                     .in_file_kind("shop"),
                 );
