@@ -1240,6 +1240,31 @@ diag-expected-money = Zahl wie 48.00 erwartet
 diag-money-help = Beträge und Stunden mit Dezimalpunkt und ohne Währungszeichen oder Tausendertrennzeichen schreiben, zum Beispiel "1250.00"
 diag-expected-a-number = Zahl erwartet
 
+diag-photo-absolute = das Foto `{ $path }` ist ein absoluter Pfad
+diag-photo-outside = das Foto `{ $path }` ist kein Pfad im Ordner des Auftrags
+diag-photo-relative = Pfad relativ zur Auftragsdatei erwartet
+diag-photo-keep-inside = Fotos im Ordner des Auftrags oder darunter ablegen und von dort aus benennen, zum Beispiel photo "photos/chassis.jpg"
+diag-photo-link = das Foto `{ $path }` ist eine Verknüpfung, die aus dem Ordner des Auftrags hinausführt (nach { $target })
+diag-leads-outside = führt hinaus
+diag-photo-copy = das Foto in den Ordner des Auftrags kopieren, statt darauf zu verweisen
+diag-photo-not-file = das Foto { $path } ist keine gewöhnliche Datei
+diag-not-a-file = keine Datei
+diag-photo-png-jpeg = ein Foto muss eine PNG- oder JPEG-Datei sein
+diag-photo-too-large = das Foto { $path } hat { $size } MB; die Grenze ist { $limit } MB
+diag-photo-smaller = das Foto kleiner exportieren (das Protokoll druckt es etwa 8 cm breit; 2000 Pixel Breite genügen)
+diag-photo-cannot-read = das Foto { $path } kann nicht gelesen werden: { $error }
+diag-this-file = diese Datei
+diag-photo-check-path = den Pfad prüfen: er ist relativ zum Ordner der Auftragsdatei
+diag-photo-not-image = das Foto { $path } ist kein PNG- oder JPEG-Bild (sein Inhalt ist { $content ->
+        [empty] leer
+        [text] Text
+       *[other] keines von beiden
+    })
+diag-not-a-picture = kein Bild
+diag-photo-content-matters = ein Foto muss eine PNG- oder JPEG-Datei sein; es zählt nicht die Endung des Namens, sondern der Inhalt
+diag-photo-undecodable = das Foto { $path }: { $why }
+diag-photo-save-again = das Foto in einem Bildprogramm öffnen und erneut als PNG oder JPEG speichern
+
 ## Die übrigen Meldungen im Terminal (src/cli), in der Sprache des
 ## Werkstattprofils, sobald es gelesen ist; die Schlusszeile eines Stapels
 ## in der Sprache, die alle seine Aufträge teilen, sonst Englisch.

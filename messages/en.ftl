@@ -1238,6 +1238,31 @@ diag-expected-money = expected a number such as 48.00
 diag-money-help = write money and hours with a decimal point and no currency sign or thousands separator, for example "1250.00"
 diag-expected-a-number = expected a number
 
+diag-photo-absolute = the photo `{ $path }` is an absolute path
+diag-photo-outside = the photo `{ $path }` is not a path inside the job's folder
+diag-photo-relative = expected a path relative to the job file
+diag-photo-keep-inside = keep photos in the job's folder or a folder below it and name them from there, for example photo "photos/chassis.jpg"
+diag-photo-link = the photo `{ $path }` is a link that leads outside the job's folder (to { $target })
+diag-leads-outside = leads outside
+diag-photo-copy = copy the photo into the job's folder instead of linking to it
+diag-photo-not-file = the photo { $path } is not a regular file
+diag-not-a-file = not a file
+diag-photo-png-jpeg = a photo must be a PNG or JPEG file
+diag-photo-too-large = the photo { $path } is { $size } MB; the limit is { $limit } MB
+diag-photo-smaller = export the photo smaller (a document prints it about 8 cm wide; 2000 pixels across is plenty)
+diag-photo-cannot-read = cannot read the photo { $path }: { $error }
+diag-this-file = this file
+diag-photo-check-path = check the path: it is relative to the job file's folder
+diag-photo-not-image = the photo { $path } is not a PNG or JPEG picture (its content is { $content ->
+        [empty] empty
+        [text] text
+       *[other] neither
+    })
+diag-not-a-picture = not a picture
+diag-photo-content-matters = a photo must be a PNG or JPEG file; the name's extension does not matter, the content does
+diag-photo-undecodable = the photo { $path } { $why }
+diag-photo-save-again = open the photo in an image editor and save it again as PNG or JPEG
+
 ## The terminal's other messages: what the commands say besides a job's
 ## summary (src/cli), in the job's shop-profile language once it is read;
 ## a batch's closing summary in the language all its jobs share, else
