@@ -511,3 +511,234 @@ threshold-no-chart = keine: der Auftrag nennt keinen Tabellenwert
 threshold-heater = innerhalb ±{ $tolerance } % von { $nominal }
 reason-at-nominal = { $volts } bei Netznennspannung ({ $deviation } %)
 reason-heater = { $measured } weicht um { $deviation } % von { $nominal } ab
+
+## Diagnosen: Probleme in Auftragsdateien, Werkstattprofilen,
+## Übersetzungsdateien und Fotos, in der Sprache des Werkstattprofils.
+## `file` ist `job` oder `shop`; `what` ist ein schon gesagter Name.
+
+diag-file-warnings = { $name }: { $warnings ->
+        [one] 1 Warnung
+       *[other] { $warnings } Warnungen
+    }
+diag-file-refused = { $name }: { $errors ->
+        [one] 1 Problem verhindert
+       *[other] { $errors } Probleme verhindern
+    }, dass { $file ->
+        [shop] dieses Werkstattprofil
+       *[job] diese Auftragsdatei
+    } gelesen wird
+diag-file-refused-warnings = { $name }: { $errors ->
+        [one] 1 Problem verhindert
+       *[other] { $errors } Probleme verhindern
+    }, dass { $file ->
+        [shop] dieses Werkstattprofil
+       *[job] diese Auftragsdatei
+    } gelesen wird (außerdem { $warnings ->
+        [one] 1 Warnung
+       *[other] { $warnings } Warnungen
+    })
+diag-not-shown = { $count ->
+        [one] 1 weiteres Problem wird
+       *[other] { $count } weitere Probleme werden
+    } nicht gezeigt: die { $shown } oben beheben und erneut starten
+diag-allowed-here = hier erlaubt: { $names }
+diag-did-you-mean = meinten Sie `{ $name }`?
+diag-did-you-mean-either = meinten Sie { $names } oder `{ $last }`?
+diag-in-job-file = der Auftragsdatei
+diag-in-shop-profile = dem Werkstattprofil
+diag-in-set = einer Messreihe
+diag-unknown-node = unbekannter Knoten `{ $name }` in { $context }
+diag-unknown-node-label = kein Knoten, den das Format hier kennt
+diag-type-annotation = die Typangabe `({ $type })` wird in Auftragsdateien nicht verwendet
+diag-remove-this = entfernen
+diag-type-annotation-help = die Einheit stattdessen in den Wert schreiben, zum Beispiel "352V"
+diag-takes-no-properties = `{ $node }` hat keine Eigenschaften
+diag-unknown-property = unbekannte Eigenschaft `{ $key }` an `{ $node }`
+diag-unknown-property-label = keine Eigenschaft dieses Knotens
+diag-repeated-property = die Eigenschaft `{ $key }` steht zweimal an `{ $node }`
+diag-repeated-here = hier wiederholt
+diag-takes-no-values = `{ $node }` nimmt keine einfachen Werte; seine Eigenschaften verwenden
+diag-takes-values = `{ $node }` nimmt { $count ->
+        [one] 1 einfachen Wert
+       *[other] { $count } einfache Werte
+    }
+diag-extra-value = unerwarteter Wert an `{ $node }`
+diag-not-expected-here = hier nicht erwartet
+diag-no-children = `{ $node }` hat keine Unterknoten
+diag-missing = `{ $node }` braucht { $what }
+diag-missing-label = { $what } fehlt
+diag-for-example = zum Beispiel: { $example }
+diag-a-property = eine Eigenschaft `{ $key }`
+diag-found-text = der Text "{ $text }"
+diag-found-number = die Zahl { $number }
+diag-expected-text = { $what } muss Text sein, gefunden: { $found }
+diag-expected-text-label = Text in Anführungszeichen erwartet
+diag-expected-text-help = in doppelte Anführungszeichen setzen, zum Beispiel "{ $example }"
+diag-expected-name = { $what } muss ein Name wie V1 oder B+1 sein, gefunden: { $found }
+diag-expected-name-label = Name erwartet
+diag-expected-bool = { $what } muss #true oder #false sein, gefunden: { $found }
+diag-expected-bool-label = #true oder #false erwartet
+diag-expected-bool-help = KDL 2 schreibt Wahrheitswerte als #true und #false
+diag-expected-integer = { $what } muss eine ganze Zahl von { $low } bis { $high } sein
+diag-expected-integer-label = ganze Zahl erwartet
+diag-expected = erwartet: { $what }
+diag-must-be-kind = { $what } muss { $kind } sein, gefunden: { $found }
+diag-out-of-range-kind = { $what }: { $written } liegt außerhalb des zulässigen Bereichs ({ $kind }: { $range })
+diag-out-of-range-help = kein Messwert und kein Bauteil hat diesen Wert; Vorsatz und Exponent prüfen
+diag-this-value = dieser Wert
+diag-bad-value = { $what }: { $problem }
+diag-write-kind-as = so schreiben ({ $kind }): { $example }
+diag-bad-time = { $what } muss eine Zeit seit dem Einschalten sein, höchstens ein Tag
+diag-bad-time-label = Zeit wie "5min" erwartet
+diag-bad-time-help = Minuten als Zahl (5) schreiben, oder als Text mit s, min oder h: "30s", "5min", "1.5h"
+diag-date-not-text = { $what } muss ein Datum in Anführungszeichen sein, gefunden: { $found }
+diag-date-label = "JJJJ-MM-TT" erwartet
+diag-date-help = Daten als ISO-8601-Text schreiben, zum Beispiel "2026-11-02"
+diag-bad-date = { $what } "{ $text }" ist kein gültiges Datum ({ $error })
+diag-bad-date-help = Daten nach ISO 8601 als Jahr-Monat-Tag schreiben, zum Beispiel "2026-11-02"
+diag-must-be-from = { $what } muss im Bereich { $range } liegen
+diag-cannot-be-negative = { $what } kann nicht negativ sein
+diag-cannot-be-zero = { $what } kann nicht null sein
+diag-zero-or-more = null oder mehr erwartet
+diag-more-than-zero = mehr als null erwartet
+diag-impossible-help = ein echtes Bauteil oder Netzteil kann diesen Wert nicht haben; den Messwert prüfen
+diag-range = { $low } bis { $high }
+diag-kind-voltage = eine Spannung
+diag-kind-current = ein Strom
+diag-kind-resistance = ein Widerstand
+diag-kind-power = eine Leistung
+diag-kind-capacitance = eine Kapazität
+diag-kind-inductance = eine Induktivität
+diag-kind-frequency = eine Frequenz
+diag-kind-percent = ein Prozentwert
+diag-unit-empty = der Wert ist leer
+diag-unit-not-a-number = das ist keine Zahl mit optionalem SI-Vorsatz oder RKM-Code
+diag-unit-wrong = "{ $symbol }" ist eine Einheit für etwas anderes ({ $found }); hier gehört { $expected } hin
+diag-unit-rkm = der RKM-Buchstabe R markiert das Komma eines Widerstands, hier gehört aber { $expected } hin
+diag-unit-no-prefix = { $expected } nimmt keinen SI-Vorsatz
+diag-unit-not-finite = der Wert ist zu groß für einen Messwert
+
+diag-given-more-than-once = `{ $name }` steht mehr als einmal da
+diag-merge-nodes = eine Auftragsdatei hat einen Knoten `{ $name }`; die Knoten zusammenführen
+diag-format-too-new = diese Auftragsdatei verwendet Format { $found }, aber dieses ampreport liest höchstens Format { $known }
+diag-format-version = Formatversion
+diag-update-program = ampreport aktualisieren, um diese Datei zu lesen
+diag-format-needs-version = `job-format` braucht die Versionsnummer
+diag-version-missing = Version fehlt
+diag-write-format = `job-format 1` schreiben
+diag-no-format = die Auftragsdatei sagt nicht, welches Format sie verwendet
+diag-start-of-file = Dateianfang
+diag-begin-with-format = die Datei mit `job-format 1` beginnen
+diag-no-node = die Auftragsdatei hat keinen Knoten `{ $name }`
+diag-add = ergänzen: { $example }
+diag-two-final-sets = mehr als eine Messreihe ist als `final` markiert
+diag-second-final = eine zweite letzte Messreihe
+diag-two-final-help = die letzte Messreihe ist der Zustand, in dem das Gerät übergeben wird: nur eine markieren
+diag-repeated-set = es gibt zwei Messreihen mit der Bezeichnung "{ $label }"
+diag-repeated-label = wiederholte Bezeichnung
+diag-dates-out-of-order = der Auftrag ist abgeschlossen ({ $completed }), bevor er eingegangen ist ({ $received })
+diag-completed-before = vor dem Eingang abgeschlossen
+diag-given-twice = `{ $name }` steht zweimal da
+diag-wide-tolerance = eine Toleranz der Versorgung von { $pct }% ist ungewöhnlich weit
+diag-unusual = ungewöhnlich
+diag-unusual-mains = { $volts } V ist keine übliche Netzspannung
+diag-unusual-mains-label = ungewöhnliche Nennspannung
+diag-unknown-role = unbekannte Röhrenfunktion `{ $name }`
+diag-expected-role = Funktion erwartet
+diag-valve-needs-role = `valve` braucht eine Eigenschaft `role`
+diag-role-missing = Funktion fehlt
+diag-one-of = eines von: { $names }
+diag-position-twice = die Röhrenposition { $position } steht zweimal da
+diag-unknown-bias = unbekannte Vorspannungsart `{ $name }`
+diag-expected-bias = cathode oder fixed erwartet
+diag-large-sense = ein Messwiderstand von { $value } ist ungewöhnlich groß
+diag-sense-help = Messwiderstände haben meist 1 Ω oder 10 Ω
+diag-node-declared-twice = der Knoten { $name } ist zweimal angegeben
+diag-needs-voltage = `{ $name }` braucht die gemessene Spannung
+diag-voltage-missing = Spannung fehlt
+diag-node-read-twice = der Knoten { $name } ist in dieser Messreihe zweimal gemessen
+diag-type-twice = der Typ von { $position } steht in dieser Messreihe zweimal da
+diag-valve-read-twice = die Röhre { $position } ist in dieser Messreihe zweimal gemessen
+diag-warm-up-help = Messwerte zu Zeitpunkten während des Aufwärmens gehören in einen Block `warm-up` mit `after=`
+diag-warm-up-type = ein Messwert beim Aufwärmen kann den Röhrentyp nicht ändern
+diag-not-here = nicht hier
+diag-warm-up-type-help = den Typ der Messreihe in ihrer eigenen Zeile `valve` angeben
+diag-warm-up-time = ein Messwert beim Aufwärmen braucht die Zeit seit dem Einschalten
+diag-time-missing = Zeit fehlt
+diag-warm-up-nothing = ein Messwert beim Aufwärmen braucht etwas Gemessenes (cathode, sense, primary-drop oder current)
+diag-nothing-read = nichts gemessen
+diag-read-twice-same-time = { $position } ist zweimal zur selben Zeit gemessen
+diag-unknown-method = unbekannte Strommessart `{ $name }`
+diag-expected-method = probe oder shunt erwartet
+diag-method-help = probe: ein Messadapter unter der Röhre (Kathodenstrom); shunt: ein Strommesser über der halben Primärwicklung (Anodenstrom)
+diag-current-needs-method = ein direkt gemessener Strom braucht seine Messart
+diag-method-missing = Messart fehlt
+diag-add-method = method=probe (Messadapter: Kathodenstrom) oder method=shunt (Nebenschluss über der halben Primärwicklung: Anodenstrom) ergänzen
+diag-method-without-current = `method` steht ohne `current` da
+diag-no-current = kein Strom dazu
+
+diag-undeclared-node = der Knoten { $name } in „{ $set }“ ist nicht in `circuit` angegeben; er hat daher keinen Sollwert, und kein Bauteil verwendet ihn
+diag-not-declared-node = kein angegebener Knoten
+diag-declare-node-or = meinten Sie `{ $near }`? Sonst in `circuit` angeben: node { $name } chart="…"
+diag-declare-node = in `circuit` angeben: node { $name } chart="…"
+diag-node-only-here = der Knoten { $name } ist nur in „{ $set }“ gemessen; eine andere Messreihe misst { $near }
+diag-different-name = ein anderer Name als in den übrigen Messreihen
+diag-node-named = Knoten { $name }
+diag-not-in-final = { $what } ist in „{ $final }“, der letzten Messreihe, nicht gemessen (wohl aber in „{ $set }“)
+diag-not-measured-in = nicht gemessen in „{ $final }“
+diag-read-again = in „{ $final }“ erneut messen, sonst kann das Protokoll nicht sagen, wie es beim Verlassen der Werkstatt steht
+diag-mains-far = die Netzspannung von { $mains } in "{ $set }" weicht um { $pct }% von der Nennspannung { $nominal } ab
+diag-far-from-nominal = weit von der Nennspannung
+diag-mains-far-help = den Messwert prüfen, oder ob das Gerät an einem Stelltransformator lief
+diag-output-role-mismatch = { $position } ist als Endröhre angegeben, aber die Datentabelle führt { $type } als { $class }
+diag-unusual-role = ungewöhnliche Funktion für diesen Typ
+diag-rectifier-mismatch = { $position } ist als Gleichrichter angegeben, aber { $type } ist ein { $class }
+diag-not-a-rectifier = kein Gleichrichter
+diag-unknown-valve-type = unbekannter Röhrentyp "{ $type }" an { $position }
+diag-not-in-ratings = nicht in der Datentabelle
+diag-rectifier-not-rectifier = der Gleichrichter ist { $position } ({ $type }), das ist keine Gleichrichterröhre
+diag-write-silicon = für einen Halbleitergleichrichter `rectifier silicon` schreiben
+diag-incomplete = { $file ->
+        [shop] das Werkstattprofil
+       *[job] die Auftragsdatei
+    } ist unvollständig
+diag-here = hier
+diag-bare-value = KDL-Syntax: `{ $value }` ist keine Zahl und muss daher in Anführungszeichen stehen
+diag-needs-quotes = braucht Anführungszeichen
+diag-bare-value-help = "{ $value }" schreiben: ein Wert mit Einheit oder ein Name, der mit einer Ziffer beginnt, ist Text in doppelten Anführungszeichen
+diag-kdl-syntax = KDL-Syntax: { $problem }
+diag-kdl-broken = die KDL-Syntax ist hier fehlerhaft
+diag-kdl-help = Auftragsdateien sind KDL 2.0: Text in doppelten Anführungszeichen, Wahrheitswerte als #true/#false, ein Knoten pro Zeile
+
+## Die übrigen Meldungen im Terminal (src/cli), in der Sprache des
+## Werkstattprofils, sobald es gelesen ist; die Schlusszeile eines Stapels
+## in der Sprache, die alle seine Aufträge teilen, sonst Englisch.
+
+cli-rendered = erstellt { $job } → { $output } in { $time }
+cli-unchanged = unverändert { $output }
+cli-failed = fehlgeschlagen { $job }: { $error }
+cli-see-above = siehe oben
+cli-no-message = keine Meldung
+cli-summary = { $jobs ->
+        [one] 1 Auftrag
+       *[other] { $jobs } Aufträge
+    } in { $time }: { $rendered } erstellt, { $unchanged } unverändert, { $failed } fehlgeschlagen
+cli-summary-stopped = , { $count } nicht begonnen (angehalten)
+cli-watch-failed = fehlgeschlagen { $job } nach { $time }; { $output } blieb unverändert
+cli-wrote = geschrieben: { $path }
+cli-wrote-stdout = das PDF auf die Standardausgabe geschrieben
+cli-up-to-date = { $path } ist aktuell (--force erstellt es trotzdem)
+cli-shop-templates-failed = Hinweis: das Dokument aus den Vorlagen der Werkstatt in { $folder } ist fehlgeschlagen; der Fehler liegt in den Vorlagen, nicht im Auftrag
+cli-built-in-template-failed = Hinweis: die eingebaute Vorlage ist fehlgeschlagen; das ist ein Fehler in ampreport, bitte melden
+cli-left-as-it-was = Hinweis: { $path } blieb unverändert
+cli-undrawable = Warnung: { $place }: der Text von { $field } enthält Zeichen, die die Schriften des Dokuments nicht darstellen können ({ $chars }); sie erscheinen als { $placeholder }
+cli-field-of = `{ $key }` von `{ $node }`
+cli-cannot-make-folder = Fehler: der Ordner { $folder } für das PDF konnte nicht angelegt werden: { $error }
+cli-listing-name-clash = Fehler: das PDF der Auflistung { $path } würde von ihrem eigenen Markdown überschrieben; das PDF mit .pdf benennen
+cli-cannot-write-source = Fehler: der erzeugte Quelltext konnte nicht nach { $folder } geschrieben werden: { $error }
+cli-wrote-source = den erzeugten Quelltext nach { $folder } geschrieben
+cli-same-pdf-from = dasselbe PDF entsteht mit: { $command }
+cli-typst-warned =
+    typst warnte:
+    { $warnings }
+cli-cannot-record = Warnung: es konnte nicht festgehalten werden, woraus { $path } entstand ({ $error }); der nächste Lauf erstellt es neu

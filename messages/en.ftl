@@ -509,3 +509,237 @@ threshold-no-chart = none: the job gives no chart figure
 threshold-heater = within ±{ $tolerance } % of { $nominal }
 reason-at-nominal = { $volts } at nominal mains ({ $deviation } %)
 reason-heater = { $measured } is { $deviation } % from { $nominal }
+
+## Diagnostics: problems in job files, shop profiles, translation files
+## and photos (src/job, src/shop, src/photo, src/units), said in the shop
+## profile's language (docs/shop.md, "The terminal's language"). Keep
+## English as it is: tests compare it word for word. `file` is `job` or
+## `shop`; `what` is a name already said ("`anode`", "a `key` property").
+
+diag-file-warnings = { $name }: { $warnings ->
+        [one] 1 warning
+       *[other] { $warnings } warnings
+    }
+diag-file-refused = { $name }: { $errors ->
+        [one] 1 problem stops
+       *[other] { $errors } problems stop
+    } this { $file ->
+        [shop] shop profile
+       *[job] job file
+    } from being read
+diag-file-refused-warnings = { $name }: { $errors ->
+        [one] 1 problem stops
+       *[other] { $errors } problems stop
+    } this { $file ->
+        [shop] shop profile
+       *[job] job file
+    } from being read ({ $warnings ->
+        [one] 1 warning
+       *[other] { $warnings } warnings
+    } too)
+diag-not-shown = { $count ->
+        [one] 1 more problem is
+       *[other] { $count } more problems are
+    } not shown: fix the { $shown } above and run again
+diag-allowed-here = allowed here: { $names }
+diag-did-you-mean = did you mean `{ $name }`?
+diag-did-you-mean-either = did you mean { $names } or `{ $last }`?
+diag-in-job-file = the job file
+diag-in-shop-profile = the shop profile
+diag-in-set = a measurement set
+diag-unknown-node = unknown node `{ $name }` in { $context }
+diag-unknown-node-label = not a node this format knows here
+diag-type-annotation = type annotation `({ $type })` is not used in job files
+diag-remove-this = remove this
+diag-type-annotation-help = write the unit inside the value instead, for example "352V"
+diag-takes-no-properties = `{ $node }` takes no properties
+diag-unknown-property = unknown property `{ $key }` on `{ $node }`
+diag-unknown-property-label = not a property of this node
+diag-repeated-property = property `{ $key }` is given twice on `{ $node }`
+diag-repeated-here = repeated here
+diag-takes-no-values = `{ $node }` takes no plain values; use its properties
+diag-takes-values = `{ $node }` takes { $count ->
+        [one] 1 plain value
+       *[other] { $count } plain values
+    }
+diag-extra-value = unexpected value on `{ $node }`
+diag-not-expected-here = not expected here
+diag-no-children = `{ $node }` takes no child nodes
+diag-missing = `{ $node }` needs { $what }
+diag-missing-label = { $what } missing
+diag-for-example = for example: { $example }
+diag-a-property = a `{ $key }` property
+diag-found-text = the text "{ $text }"
+diag-found-number = the number { $number }
+diag-expected-text = { $what } must be text, found { $found }
+diag-expected-text-label = expected text in quotes
+diag-expected-text-help = write it in double quotes, for example "{ $example }"
+diag-expected-name = { $what } must be a name such as V1 or B+1, found { $found }
+diag-expected-name-label = expected a name
+diag-expected-bool = { $what } must be #true or #false, found { $found }
+diag-expected-bool-label = expected #true or #false
+diag-expected-bool-help = KDL 2 writes booleans as #true and #false
+diag-expected-integer = { $what } must be a whole number from { $low } to { $high }
+diag-expected-integer-label = expected a whole number
+diag-expected = expected { $what }
+diag-must-be-kind = { $what } must be { $kind }, found { $found }
+diag-out-of-range-kind = { $what }: { $written } is outside the range accepted for { $kind } ({ $range })
+diag-out-of-range-help = no reading or part has this value; check the prefix and the exponent
+diag-this-value = this value
+diag-bad-value = { $what }: { $problem }
+diag-write-kind-as = write { $kind } as { $example }
+diag-bad-time = { $what } must be a time since power-on, up to a day
+diag-bad-time-label = expected a time such as "5min"
+diag-bad-time-help = write minutes as a number (5), or text with s, min or h: "30s", "5min", "1.5h"
+diag-date-not-text = { $what } must be a date in quotes, found { $found }
+diag-date-label = expected "YYYY-MM-DD"
+diag-date-help = write dates as ISO 8601 text, for example "2026-11-02"
+diag-bad-date = { $what } "{ $text }" is not a valid date ({ $error })
+diag-bad-date-help = write dates as ISO 8601 year-month-day, for example "2026-11-02"
+diag-must-be-from = { $what } must be from { $range }
+diag-cannot-be-negative = { $what } cannot be negative
+diag-cannot-be-zero = { $what } cannot be zero
+diag-zero-or-more = expected zero or more
+diag-more-than-zero = expected more than zero
+diag-impossible-help = a physical part or supply cannot have this value; check the reading
+diag-range = { $low } to { $high }
+diag-kind-voltage = a voltage
+diag-kind-current = a current
+diag-kind-resistance = a resistance
+diag-kind-power = a power
+diag-kind-capacitance = a capacitance
+diag-kind-inductance = an inductance
+diag-kind-frequency = a frequency
+diag-kind-percent = a percentage
+diag-unit-empty = the value is empty
+diag-unit-not-a-number = this is not a number with an optional SI prefix or an RKM code
+diag-unit-wrong = "{ $symbol }" is the unit of { $found }, but { $expected } belongs here
+diag-unit-rkm = the RKM letter R marks the decimal point of a resistance, but { $expected } belongs here
+diag-unit-no-prefix = { $expected } takes no SI prefix
+diag-unit-not-finite = the value is too large to be a measurement
+
+diag-given-more-than-once = `{ $name }` is given more than once
+diag-merge-nodes = a job file has one `{ $name }` node; merge them
+diag-format-too-new = this job file uses format { $found }, but this ampreport reads format { $known } at most
+diag-format-version = format version
+diag-update-program = update ampreport to read this file
+diag-format-needs-version = `job-format` needs the version number
+diag-version-missing = version missing
+diag-write-format = write `job-format 1`
+diag-no-format = the job file does not say which format it uses
+diag-start-of-file = start of file
+diag-begin-with-format = begin the file with `job-format 1`
+diag-no-node = the job file has no `{ $name }` node
+diag-add = add: { $example }
+diag-two-final-sets = more than one measurement set is marked `final`
+diag-second-final = a second final set
+diag-two-final-help = the final set is the state the unit is handed over in: mark only one
+diag-repeated-set = there are two measurement sets labelled "{ $label }"
+diag-repeated-label = repeated label
+diag-dates-out-of-order = the job is completed ({ $completed }) before it was received ({ $received })
+diag-completed-before = completed before received
+diag-given-twice = `{ $name }` is given twice
+diag-wide-tolerance = a supply tolerance of { $pct }% is unusually wide
+diag-unusual = unusual
+diag-unusual-mains = { $volts } V is not a usual mains voltage
+diag-unusual-mains-label = unusual nominal mains
+diag-unknown-role = unknown valve role `{ $name }`
+diag-expected-role = expected a role
+diag-valve-needs-role = `valve` needs a `role` property
+diag-role-missing = role missing
+diag-one-of = one of: { $names }
+diag-position-twice = valve position { $position } is listed twice
+diag-unknown-bias = unknown bias kind `{ $name }`
+diag-expected-bias = expected cathode or fixed
+diag-large-sense = a { $value } sense resistor is unusually large
+diag-sense-help = sense resistors are usually 1 Ω or 10 Ω
+diag-node-declared-twice = node { $name } is declared twice
+diag-needs-voltage = `{ $name }` needs the voltage read
+diag-voltage-missing = voltage missing
+diag-node-read-twice = node { $name } is read twice in this set
+diag-type-twice = the type of { $position } is given twice in this set
+diag-valve-read-twice = valve { $position } is read twice in this set
+diag-warm-up-help = readings at times during a warm-up go in a `warm-up` block with `after=`
+diag-warm-up-type = a warm-up reading cannot change the valve's type
+diag-not-here = not here
+diag-warm-up-type-help = give the set's type on the set's own `valve` line
+diag-warm-up-time = a warm-up reading needs the time since power-on
+diag-time-missing = time missing
+diag-warm-up-nothing = a warm-up reading needs something read (cathode, sense, primary-drop or current)
+diag-nothing-read = nothing read
+diag-read-twice-same-time = { $position } is read twice at the same time
+diag-unknown-method = unknown current method `{ $name }`
+diag-expected-method = expected probe or shunt
+diag-method-help = probe: a bias probe under the valve (cathode current); shunt: an ammeter across half the primary (plate current)
+diag-current-needs-method = a current read directly needs its method
+diag-method-missing = method missing
+diag-add-method = add method=probe (bias probe: cathode current) or method=shunt (shunt across half the primary: plate current)
+diag-method-without-current = `method` is given without a `current`
+diag-no-current = no current to go with it
+
+diag-undeclared-node = node { $name } in “{ $set }” is not declared in `circuit`, so it has no chart figure and no part uses it
+diag-not-declared-node = not a declared node
+diag-declare-node-or = did you mean `{ $near }`? Otherwise declare it in `circuit`: node { $name } chart="…"
+diag-declare-node = declare it in `circuit`: node { $name } chart="…"
+diag-node-only-here = node { $name } is read only in “{ $set }”; another set reads { $near }
+diag-different-name = a different name from the other sets
+diag-node-named = node { $name }
+diag-not-in-final = { $what } is not measured in “{ $final }”, the final set (it was in “{ $set }”)
+diag-not-measured-in = not measured in “{ $final }”
+diag-read-again = read it again in “{ $final }”, or the document cannot say how it stands as the unit leaves
+diag-mains-far = mains of { $mains } in "{ $set }" is { $pct }% from the nominal { $nominal }
+diag-far-from-nominal = far from nominal
+diag-mains-far-help = check the reading, or whether the unit ran from a variable autotransformer
+diag-output-role-mismatch = { $position } is listed as an output valve, but the ratings table has { $type } as a { $class }
+diag-unusual-role = unusual role for this type
+diag-rectifier-mismatch = { $position } is listed as the rectifier, but { $type } is a { $class }
+diag-not-a-rectifier = not a rectifier
+diag-unknown-valve-type = unknown valve type "{ $type }" at { $position }
+diag-not-in-ratings = not in the ratings table
+diag-rectifier-not-rectifier = the rectifier is { $position } ({ $type }), which is not a rectifier valve
+diag-write-silicon = write `rectifier silicon` for a solid-state rectifier
+diag-incomplete = the { $file ->
+        [shop] shop profile
+       *[job] job file
+    } is incomplete
+diag-here = here
+diag-bare-value = KDL syntax: `{ $value }` is not a number, so it must be written in quotes
+diag-needs-quotes = needs quotes
+diag-bare-value-help = write "{ $value }": a value with a unit, or a name that starts with a digit, is text in double quotes
+diag-kdl-syntax = KDL syntax: { $problem }
+diag-kdl-broken = the KDL syntax is broken here
+diag-kdl-help = job files are KDL 2.0: text in double quotes, booleans as #true/#false, one node per line
+
+## The terminal's other messages: what the commands say besides a job's
+## summary (src/cli), in the job's shop-profile language once it is read;
+## a batch's closing summary in the language all its jobs share, else
+## English. `time` is already written ("1.24 s").
+
+cli-rendered = rendered { $job } → { $output } in { $time }
+cli-unchanged = unchanged { $output }
+cli-failed = failed { $job }: { $error }
+cli-see-above = see above
+cli-no-message = no message
+cli-summary = { $jobs ->
+        [one] 1 job
+       *[other] { $jobs } jobs
+    } in { $time }: { $rendered } rendered, { $unchanged } unchanged, { $failed } failed
+cli-summary-stopped = , { $count } not started (stopped)
+cli-watch-failed = failed { $job } after { $time }; { $output } was left as it was
+cli-wrote = wrote { $path }
+cli-wrote-stdout = wrote the PDF to standard output
+cli-up-to-date = { $path } is up to date (--force renders it anyway)
+cli-shop-templates-failed = note: the document from the shop templates in { $folder } failed; the templates are at fault, not the job
+cli-built-in-template-failed = note: the built-in template failed; this is a fault in ampreport, please report it
+cli-left-as-it-was = note: { $path } was left as it was
+cli-undrawable = warning: { $place }: the text of { $field } holds characters the document's fonts cannot draw ({ $chars }); they print as { $placeholder }
+cli-field-of = `{ $key }` of `{ $node }`
+cli-cannot-make-folder = error: could not make the folder { $folder } for the PDF: { $error }
+cli-listing-name-clash = error: the listing's PDF { $path } would be written over by its own Markdown; name the PDF with .pdf
+cli-cannot-write-source = error: could not write the generated source to { $folder }: { $error }
+cli-wrote-source = wrote the generated source to { $folder }
+cli-same-pdf-from = the same PDF comes from: { $command }
+cli-typst-warned =
+    typst warned:
+    { $warnings }
+cli-cannot-record = warning: could not record what { $path } was made from ({ $error }); the next run renders it again

@@ -16,18 +16,31 @@ use std::sync::Arc;
 pub const SHOWN_PROBLEMS: usize = 20;
 
 /// The closing line that counts the problems not printed.
-#[derive(Debug, Clone, PartialEq, Eq)]
+#[derive(Debug, Clone)]
 pub struct NotShown {
     pub count: usize,
+    /// The language the line is said in.
+    pub catalogue: crate::catalogue::Catalogue,
+}
+
+impl NotShown {
+    /// The line for `count` problems not shown, said in `catalogue`.
+    pub fn new(count: usize, catalogue: &crate::catalogue::Catalogue) -> Self {
+        NotShown {
+            count,
+            catalogue: catalogue.clone(),
+        }
+    }
 }
 
 impl fmt::Display for NotShown {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
-        write!(
-            f,
-            "{} more problem{} not shown: fix the {SHOWN_PROBLEMS} above and run again",
-            self.count,
-            if self.count == 1 { " is" } else { "s are" }
+        f.write_str(
+            &self.catalogue.say(
+                &crate::catalogue::Msg::new("diag-not-shown")
+                    .arg("count", self.count)
+                    .arg("shown", SHOWN_PROBLEMS),
+            ),
         )
     }
 }
@@ -45,10 +58,11 @@ impl Diagnostic for NotShown {
 pub fn shown<'a, T: Diagnostic>(
     problems: &'a [T],
     not_shown: &'a std::sync::OnceLock<NotShown>,
+    catalogue: &crate::catalogue::Catalogue,
 ) -> Box<dyn Iterator<Item = &'a dyn Diagnostic> + 'a> {
     let rest = problems.len().saturating_sub(SHOWN_PROBLEMS);
-    let tail =
-        (rest > 0).then(|| not_shown.get_or_init(|| NotShown { count: rest }) as &dyn Diagnostic);
+    let tail = (rest > 0)
+        .then(|| not_shown.get_or_init(|| NotShown::new(rest, catalogue)) as &dyn Diagnostic);
     Box::new(
         problems
             .iter()

@@ -331,6 +331,61 @@ fn a_commit_of_the_job_typesets_again() {
 }
 
 #[test]
+fn in_a_folder_made_ready_by_init_repo_git_sees_no_rendered_file() {
+    // What `init --repo` ignores covers everything a render leaves: the
+    // PDF, the listing's Markdown and photos, and each file's manifest.
+    let c = Counting::new();
+    let dir = &c.scene.dir;
+    if !git(dir, &["init", "-q"]) {
+        assert!(std::env::var_os("CI").is_none(), "git is needed under CI");
+        eprintln!("note: skipping: git cannot be run");
+        return;
+    }
+    let photos = dir.join("photos");
+    std::fs::create_dir(&photos).unwrap();
+    for name in ["parlour-twelve-before.jpg", "parlour-twelve-after.png"] {
+        std::fs::copy(
+            PathBuf::from(env!("CARGO_MANIFEST_DIR"))
+                .join("jobs/photos")
+                .join(name),
+            photos.join(name),
+        )
+        .unwrap();
+    }
+    std::fs::copy(support::demo("combo-6v6-fixed"), &c.scene.job).unwrap();
+    let out = c.command(&["init", "--repo", "."]).output().unwrap();
+    assert!(out.status.success(), "{}", stderr(&out));
+    assert!(c.typeset(&[]));
+    assert!(c.typeset(&["--listing"]));
+    assert!(dir.join(".job.listing.md.ampreport-key").is_file());
+    assert!(dir.join("job.listing-photo-1.jpg").is_file());
+    let status = Command::new("git")
+        .current_dir(dir)
+        .args(["status", "--porcelain", "--untracked-files=all"])
+        .env_remove("GIT_DIR")
+        .env_remove("GIT_WORK_TREE")
+        .env_remove("GIT_INDEX_FILE")
+        .output()
+        .unwrap();
+    let mut seen: Vec<String> = String::from_utf8_lossy(&status.stdout)
+        .lines()
+        .map(str::to_string)
+        .collect();
+    seen.sort();
+    assert_eq!(
+        seen,
+        [
+            "?? .gitattributes",
+            "?? .gitignore",
+            "?? job.kdl",
+            "?? photos/parlour-twelve-after.png",
+            "?? photos/parlour-twelve-before.jpg"
+        ],
+        "git would offer to commit rendered files"
+    );
+}
+
+#[test]
 fn a_change_to_a_ratings_file_typesets_again() {
     let c = Counting::new();
     let ratings = c.scene.root.path().join("own-ratings.kdl");
@@ -517,6 +572,113 @@ fn out_dir_mirrors_the_tree_and_two_jobs_may_not_share_an_output() {
 }
 
 #[test]
+fn listings_render_over_folders_into_out_dir_and_never_pass_for_the_hand_over() {
+    let c = Counting::new();
+    let jobs = jobs_tree(&c);
+    std::fs::remove_file(jobs.join("broken.kdl")).unwrap();
+    let listing = ["jobs", "--recursive", "--listing", "--out-dir", "pdfs"];
+    let out = c.render(&listing);
+    assert!(out.status.success(), "{}", stderr(&out));
+    assert!(text(&out).contains("3 rendered, 0 unchanged, 0 failed"));
+    let pdfs = c.scene.dir.join("pdfs");
+    for name in ["a", "b", "old/c"] {
+        assert!(pdfs.join(format!("{name}.listing.pdf")).is_file(), "{name}");
+        let md = std::fs::read_to_string(pdfs.join(format!("{name}.listing.md"))).unwrap();
+        assert!(md.contains("Deadly voltages"), "{name}: {md}");
+        assert!(!pdfs.join(format!("{name}.pdf")).exists(), "{name}");
+    }
+    assert!(!jobs.join("a.listing.pdf").exists() && !jobs.join("a.listing.md").exists());
+    assert_eq!(c.compiles(), 3);
+
+    // Nothing changed: nothing is typeset.
+    let out = c.render(&listing);
+    assert!(
+        text(&out).contains("0 rendered, 3 unchanged"),
+        "{}",
+        text(&out)
+    );
+    assert_eq!(c.compiles(), 3);
+
+    // The hand-over into the same folder is typeset: a listing is not it.
+    let out = c.render(&["jobs", "--recursive", "--out-dir", "pdfs"]);
+    assert!(
+        text(&out).contains("3 rendered, 0 unchanged"),
+        "{}",
+        text(&out)
+    );
+    assert!(pdfs.join("old/c.pdf").is_file());
+    assert_eq!(c.compiles(), 6);
+    let out = c.render(&listing);
+    assert!(
+        text(&out).contains("0 rendered, 3 unchanged"),
+        "{}",
+        text(&out)
+    );
+
+    // Another --serial is another listing; a Markdown removed by hand is
+    // written again.
+    let out = c.render(&[
+        "jobs/a.kdl",
+        "--listing",
+        "--serial",
+        "hidden",
+        "--out-dir",
+        "pdfs",
+    ]);
+    assert!(out.status.success(), "{}", stderr(&out));
+    assert_eq!(c.compiles(), 7);
+    std::fs::remove_file(pdfs.join("b.listing.md")).unwrap();
+    let out = c.render(&listing);
+    assert!(
+        text(&out).contains("2 rendered, 1 unchanged"),
+        "{}",
+        text(&out)
+    );
+    assert!(pdfs.join("b.listing.md").is_file());
+}
+
+#[test]
+fn a_listing_and_a_hand_over_at_one_path_never_skip_each_other() {
+    let c = Counting::new();
+    let job = c.scene.job.to_str().unwrap();
+    assert!(c.typeset(&["-o", "same.pdf"]));
+    assert!(c.typeset(&["-o", "same.pdf", "--listing"]));
+    assert!(!c.typeset(&["-o", "same.pdf", "--listing"]));
+    assert!(c.typeset(&["-o", "same.pdf"]));
+    // One job's listing: the "wrote" lines name the PDF, then the Markdown.
+    let out = c.render(&[job, "--listing", "--force"]);
+    let said = text(&out);
+    let pdf = said.find("job.listing.pdf").expect(&said);
+    let md = said.find("job.listing.md").expect(&said);
+    assert!(pdf < md, "{said}");
+}
+
+#[test]
+fn a_listing_photo_removed_by_hand_renders_the_listing_again() {
+    let c = Counting::new();
+    let photos = c.scene.dir.join("photos");
+    std::fs::create_dir(&photos).unwrap();
+    for name in ["parlour-twelve-before.jpg", "parlour-twelve-after.png"] {
+        std::fs::copy(
+            PathBuf::from(env!("CARGO_MANIFEST_DIR"))
+                .join("jobs/photos")
+                .join(name),
+            photos.join(name),
+        )
+        .unwrap();
+    }
+    std::fs::copy(support::demo("combo-6v6-fixed"), &c.scene.job).unwrap();
+    assert!(c.typeset(&["--listing"]));
+    let beside = c.scene.dir.join("job.listing-photo-2.png");
+    assert!(c.scene.dir.join("job.listing-photo-1.jpg").is_file());
+    assert!(beside.is_file());
+    assert!(!c.typeset(&["--listing"]));
+    std::fs::remove_file(&beside).unwrap();
+    assert!(c.typeset(&["--listing"]));
+    assert!(beside.is_file());
+}
+
+#[test]
 fn quiet_prints_only_failures_and_the_summary() {
     // --quiet is the program's own (errors only): in a batch it leaves the
     // failures and the summary.
@@ -692,4 +854,57 @@ fn watch_renders_on_save_keeps_the_last_good_pdf_and_stops_on_ctrl_c() {
         .filter(|n| n.contains(".tmp") || n.starts_with(".ampreport"))
         .collect();
     assert!(leftovers.is_empty(), "{leftovers:?}");
+}
+
+#[cfg(target_os = "linux")]
+#[test]
+fn watch_takes_no_read_of_its_own_for_a_save_and_renders_listings() {
+    // The watcher is also told of files being opened: the render's own
+    // reads of the job and its shop profile must not set off another
+    // render, over and over.
+    let c = Counting::new();
+    std::fs::write(
+        c.scene.dir.join("shop.kdl"),
+        "shop-format 1\nshop \"Test Bench\"\n",
+    )
+    .unwrap();
+    let log = c.scene.root.path().join("watch.out");
+    let mut child = c
+        .command(&[
+            "watch",
+            c.scene.job.to_str().unwrap(),
+            "--listing",
+            "--typst",
+            c.typst.to_str().unwrap(),
+        ])
+        .stdin(Stdio::null())
+        .stdout(std::fs::File::create(&log).unwrap())
+        .stderr(Stdio::null())
+        .spawn()
+        .unwrap();
+    let pid = child.id() as i32;
+    let limit = Duration::from_secs(30);
+    let said = || std::fs::read_to_string(&log).unwrap_or_default();
+    let count = |what: &str| said().lines().filter(|l| l.contains(what)).count();
+    assert!(
+        wait_until(limit, || count(" rendered ") == 1),
+        "the first render"
+    );
+    assert!(said().contains("job.listing.pdf"), "{}", said());
+    assert!(c.scene.dir.join("job.listing.md").is_file());
+    // Quiet for a while: nothing more is rendered or even looked at.
+    std::thread::sleep(Duration::from_millis(1500));
+    assert_eq!(count(" unchanged "), 0, "{}", said());
+    assert_eq!(count(" rendered "), 1, "{}", said());
+    // A save still renders.
+    let good = std::fs::read_to_string(&c.scene.job).unwrap();
+    std::fs::write(&c.scene.job, format!("{good}// saved\n")).unwrap();
+    assert!(wait_until(limit, || count(" rendered ") == 2), "{}", said());
+    std::thread::sleep(Duration::from_millis(1000));
+    assert_eq!(count(" unchanged "), 0, "{}", said());
+    assert_eq!(c.compiles(), 2);
+    // SAFETY: signals the child started above.
+    unsafe { libc::kill(pid, libc::SIGINT) };
+    let status = support::wait_with_limit(&mut child, limit);
+    assert_eq!(status.code(), Some(0));
 }

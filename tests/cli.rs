@@ -1218,3 +1218,192 @@ fn a_bad_photo_is_reported_at_its_line_before_typst_is_needed() {
     assert!(err.contains("is an absolute path"), "{err}");
     assert!(!dir.path().join("job.pdf").exists());
 }
+
+// ----- new and init --repo -----------------------------------------------------
+
+/// A job folder whose shop profile numbers jobs `T-{yymm}-{nn}`, holding
+/// jobs numbered 03 and 07 this month and 99 last year.
+fn numbered_folder() -> (tempfile::TempDir, String) {
+    let dir = tempfile::tempdir().expect("temp dir");
+    let shop = std::fs::read_to_string(demo_dir().join("shop.kdl"))
+        .unwrap()
+        .replace("logo \"larkmoor-logo.svg\"", "");
+    assert!(shop.contains("job-numbers \"D-{yymm}-{nnn}\""));
+    let shop = shop.replace("D-{yymm}-{nnn}", "T-{yymm}-{nn}");
+    std::fs::write(dir.path().join("shop.kdl"), shop).unwrap();
+    let period = chrono::Local::now().format("%y%m").to_string();
+    let demo = std::fs::read_to_string(demo_dir().join("combo-6v6-fixed.kdl")).unwrap();
+    let demo_id = "D-2611-022";
+    assert!(demo.contains(demo_id));
+    for (file, id) in [
+        ("a.kdl", format!("T-{period}-03")),
+        ("b.kdl", format!("T-{period}-07")),
+        ("old.kdl", "T-0001-99".to_string()),
+    ] {
+        std::fs::write(dir.path().join(file), demo.replace(demo_id, &id)).unwrap();
+    }
+    (dir, period)
+}
+
+#[test]
+fn new_continues_the_numbering_and_carries_the_unit_without_the_readings() {
+    let (dir, period) = numbered_folder();
+    let o = run_in(dir.path(), &["new", "--from", "a.kdl"]);
+    assert_eq!(code(&o), 0, "{}", stderr(&o));
+    let id = format!("T-{period}-08");
+    let path = dir.path().join(format!("{id}.kdl"));
+    let text = std::fs::read_to_string(&path).expect("the new job file");
+    let today = chrono::Local::now().format("%Y-%m-%d").to_string();
+    assert!(
+        text.contains(&format!("job id=\"{id}\" received=\"{today}\"")),
+        "{text}"
+    );
+    // The unit, mains, line-up and circuit as the old job writes them.
+    let old = std::fs::read_to_string(dir.path().join("a.kdl")).unwrap();
+    let block = |name: &str| -> Vec<&str> {
+        let mut lines = old
+            .lines()
+            .skip_while(|l| !l.starts_with(&format!("{name} ")));
+        let first = lines.next().unwrap();
+        let mut out = vec![first];
+        if first.ends_with('{') {
+            out.extend(lines.take_while(|l| *l != "}"));
+        }
+        out
+    };
+    let carried: Vec<&str> = ["unit", "mains", "valves", "circuit"]
+        .iter()
+        .flat_map(|b| block(b))
+        .collect();
+    assert!(carried.len() > 20, "{carried:?}");
+    for line in carried {
+        assert!(text.contains(line), "{line} not carried over");
+    }
+    // Nothing of the old service: readings, parts, mods, customer,
+    // charges, notes, photos, acceptances, safety tests.
+    for node in [
+        "measurements",
+        "parts",
+        "mods",
+        "customer",
+        "charges",
+        "notes",
+        "photos",
+        "accepted",
+        "safety",
+        "complaint",
+        "findings",
+        "work",
+    ] {
+        assert!(
+            !text.lines().any(|l| l.starts_with(&format!("{node} "))),
+            "{node} carried over:\n{text}"
+        );
+    }
+    assert!(!text.contains("Emeka Lindqvist") && !text.contains("sense=\""));
+    let o = run_in(dir.path(), &["check", &format!("{id}.kdl")]);
+    assert_eq!(
+        code(&o),
+        0,
+        "the new job does not pass check: {}",
+        stderr(&o)
+    );
+
+    // Without --from: the skeleton, numbered next.
+    let o = run_in(dir.path(), &["new"]);
+    assert_eq!(code(&o), 0, "{}", stderr(&o));
+    let next = std::fs::read_to_string(dir.path().join(format!("T-{period}-09.kdl"))).unwrap();
+    assert!(next.contains(&format!("job id=\"T-{period}-09\"")));
+    assert_eq!(
+        code(&run_in(
+            dir.path(),
+            &["check", &format!("T-{period}-09.kdl")]
+        )),
+        0
+    );
+}
+
+#[test]
+fn new_never_writes_over_a_file() {
+    let (dir, period) = numbered_folder();
+    // A file already has the next number's name (its own id unreadable).
+    let taken = dir.path().join(format!("T-{period}-08.kdl"));
+    std::fs::write(&taken, "not a job at all {").unwrap();
+    let o = run_in(dir.path(), &["new", "--dir", "."]);
+    assert_eq!(code(&o), 1, "{}", stderr(&o));
+    assert!(
+        stderr(&o).contains("never replaces a file"),
+        "{}",
+        stderr(&o)
+    );
+    assert_eq!(
+        std::fs::read_to_string(&taken).unwrap(),
+        "not a job at all {"
+    );
+    // A bad pattern in the shop profile is an error at its line.
+    let shop = dir.path().join("shop.kdl");
+    let text = std::fs::read_to_string(&shop)
+        .unwrap()
+        .replace("T-{yymm}-{nn}", "T-{week}-{nn}");
+    std::fs::write(&shop, &text).unwrap();
+    let o = run_in(dir.path(), &["new"]);
+    assert_eq!(code(&o), 1);
+    let full = shop.display().to_string();
+    assert_eq!(
+        reported_positions(&stderr(&o), &full).first(),
+        Some(&pos_of(&full, &text, "\"T-{week}", 0)),
+        "{}",
+        stderr(&o)
+    );
+}
+
+#[test]
+fn init_repo_writes_the_git_files_once() {
+    let dir = tempfile::tempdir().expect("temp dir");
+    let o = run_in(dir.path(), &["init", "--repo", "jobs"]);
+    assert_eq!(code(&o), 0, "{}", stderr(&o));
+    let attributes = std::fs::read_to_string(dir.path().join("jobs/.gitattributes")).unwrap();
+    let ignore = std::fs::read_to_string(dir.path().join("jobs/.gitignore")).unwrap();
+    assert!(
+        attributes.lines().any(|l| l == "*.pdf binary"),
+        "{attributes}"
+    );
+    assert!(
+        attributes.lines().any(|l| l == "*.kdl text eol=lf"),
+        "{attributes}"
+    );
+    assert!(ignore.lines().any(|l| l == "*.pdf"), "{ignore}");
+    assert!(ignore.lines().any(|l| l == "*.listing.md"), "{ignore}");
+    // git reads them as meant, where git is installed.
+    if let Ok(out) = Command::new("git")
+        .current_dir(dir.path().join("jobs"))
+        .args(["-c", "init.defaultBranch=main", "init", "-q"])
+        .output()
+        && out.status.success()
+    {
+        let check = |args: &[&str]| {
+            let o = Command::new("git")
+                .current_dir(dir.path().join("jobs"))
+                .args(args)
+                .output()
+                .unwrap();
+            String::from_utf8_lossy(&o.stdout).into_owned()
+        };
+        assert_eq!(
+            check(&["check-attr", "diff", "a.pdf"]),
+            "a.pdf: diff: unset\n"
+        );
+        assert_eq!(
+            check(&["check-ignore", "a.pdf", "a.listing.md", "a.kdl"]),
+            "a.pdf\na.listing.md\n"
+        );
+    }
+    // Never again over the same files.
+    std::fs::write(dir.path().join("jobs/.gitignore"), "mine\n").unwrap();
+    let o = run_in(dir.path(), &["init", "--repo", "jobs"]);
+    assert_eq!(code(&o), 1);
+    assert_eq!(
+        std::fs::read_to_string(dir.path().join("jobs/.gitignore")).unwrap(),
+        "mine\n"
+    );
+}

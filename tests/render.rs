@@ -1526,7 +1526,10 @@ fn a_job_in_git_shows_its_commit_and_a_mark_once_edited() {
     std::fs::remove_file(&pdf).unwrap();
 
     // Edited and not committed: the same commit with the mark.
-    std::fs::write(&job, format!("{text}\n// re-checked the bias\n")).unwrap();
+    let reading = "valve V3 plate=\"344V\" screen=\"343V\" cathode=\"14.1V\"";
+    assert!(text.contains(reading), "the demo's V3 reading as left");
+    let edited = text.replace(reading, &reading.replace("14.1V", "14.6V"));
+    std::fs::write(&job, &edited).unwrap();
     assert_ok(&render(&job, &pdf, &["--no-shop"]), "render edited");
     let flat = normalise(&pdftotext(&pdf));
     assert_eq!(
@@ -1537,4 +1540,48 @@ fn a_job_in_git_shows_its_commit_and_a_mark_once_edited() {
     let json = calc_json(&job);
     assert_eq!(json["job"]["git"]["commit"], short);
     assert_eq!(json["job"]["git"]["uncommitted_changes"], true);
+
+    // `compare HEAD:job.kdl job.kdl` lists the change, with the figures
+    // `calc --json` gives for the committed text and for the file.
+    let committed = tempfile::tempdir().unwrap();
+    let old_copy = committed.path().join("job.kdl");
+    std::fs::write(&old_copy, git(dir.path(), &["show", "HEAD:job.kdl"])).unwrap();
+    let old_json = calc_json(&old_copy);
+    let out = Command::new(BIN)
+        .current_dir(dir.path())
+        .args(["compare", "HEAD:job.kdl", "job.kdl", "--json"])
+        .env("XDG_CONFIG_HOME", test_cache_home().join("no-config-home"))
+        .output()
+        .unwrap();
+    assert_ok(&out, "compare HEAD:job.kdl job.kdl");
+    let changes: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
+    let changes = changes["changes"].as_array().unwrap();
+    let find = |json: &serde_json::Value, figure: &str| {
+        json["sets"]
+            .as_array()
+            .unwrap()
+            .iter()
+            .find(|s| s["label"] == "as left")
+            .unwrap()["valves"]
+            .as_array()
+            .unwrap()
+            .iter()
+            .find(|v| v["position"] == "V3")
+            .unwrap()[figure]
+            .clone()
+    };
+    for figure in ["cathode_volts", "cathode_current_ma", "plate_dissipation_w"] {
+        let change = changes
+            .iter()
+            .find(|c| c["subject"] == "V3" && c["figure"] == figure && c["set"] == "as left")
+            .unwrap_or_else(|| panic!("V3 {figure} not listed: {changes:?}"));
+        assert_eq!(change["old"], find(&old_json, figure), "{figure}");
+        assert_eq!(change["new"], find(&json, figure), "{figure}");
+        assert_ne!(change["old"], change["new"]);
+    }
+    // Nothing of "as found" changed.
+    assert!(
+        changes.iter().all(|c| c["set"] != "as found"),
+        "{changes:?}"
+    );
 }

@@ -250,14 +250,10 @@ pub fn check_translation(name: &str, text: &str) -> Result<(), CatalogueDiagnost
 }
 
 fn diagnostics(name: &str, text: &str, problems: Vec<DecodeError>) -> CatalogueDiagnostics {
-    JobDiagnostics {
-        source: crate::problem_cap::ClippedSource(NamedSource::new(
-            name,
-            Arc::new(text.to_string()),
-        )),
+    JobDiagnostics::new(
+        crate::problem_cap::ClippedSource(NamedSource::new(name, Arc::new(text.to_string()))),
         problems,
-        not_shown: Default::default(),
-    }
+    )
 }
 
 /// One problem at the start of a file, as diagnostics.

@@ -83,12 +83,49 @@ impl Default for Catalogue {
     }
 }
 
-/// One argument of a message: text, or a number (which plural forms can
-/// select on).
+/// One argument of a message: text, a number (which plural forms can
+/// select on), or another message, said in the same language.
 #[derive(Debug, Clone, PartialEq)]
 pub enum Arg {
     Text(String),
     Number(f64),
+    Message(Box<Msg>),
+}
+
+/// A message not yet said: its key and its arguments. Diagnostics carry
+/// their words this way, so they can be said in the reader's language once
+/// it is known (the shop profile is read after some of them are made).
+#[derive(Debug, Clone, PartialEq)]
+pub struct Msg {
+    pub key: &'static str,
+    pub args: Vec<(&'static str, Arg)>,
+}
+
+impl Msg {
+    /// The message `key` with no arguments.
+    pub fn new(key: &'static str) -> Msg {
+        Msg {
+            key,
+            args: Vec::new(),
+        }
+    }
+
+    /// The message with one more argument.
+    pub fn arg(mut self, name: &'static str, value: impl Into<Arg>) -> Msg {
+        self.args.push((name, value.into()));
+        self
+    }
+
+    /// The words in English, the reference.
+    pub fn english(&self) -> String {
+        Catalogue::english().say(self)
+    }
+}
+
+impl From<Msg> for Arg {
+    fn from(m: Msg) -> Self {
+        Arg::Message(Box::new(m))
+    }
 }
 
 impl From<&str> for Arg {
@@ -108,6 +145,11 @@ impl From<&String> for Arg {
 }
 impl From<usize> for Arg {
     fn from(n: usize) -> Self {
+        Arg::Number(n as f64)
+    }
+}
+impl From<i64> for Arg {
+    fn from(n: i64) -> Self {
         Arg::Number(n as f64)
     }
 }
@@ -199,6 +241,12 @@ impl Catalogue {
             .unwrap_or_else(|| format!("[{key}]"))
     }
 
+    /// A message not yet said ([`Msg`]), said in this catalogue's language,
+    /// its message arguments too.
+    pub fn say(&self, msg: &Msg) -> String {
+        self.format(msg.key, &msg.args)
+    }
+
     /// The message `key` with its arguments, or `None` when there is no
     /// such message.
     pub fn try_format(&self, key: &str, args: &[(&str, Arg)]) -> Option<String> {
@@ -209,6 +257,7 @@ impl Catalogue {
             match value {
                 Arg::Text(s) => fargs.set(*name, FluentValue::from(s.as_str())),
                 Arg::Number(n) => fargs.set(*name, FluentValue::from(*n)),
+                Arg::Message(m) => fargs.set(*name, FluentValue::from(self.say(m))),
             }
         }
         let mut errors = Vec::new();

@@ -11,6 +11,8 @@ const NAMESPACES: &[&str] = &[
     "term",
     "reason",
     "threshold",
+    "diag",
+    "cli",
 ];
 
 /// Every `t("key")`/`tm("key")` of a template and every

@@ -61,7 +61,8 @@ pub enum Command {
     Check(CheckArgs),
     /// Print every derived figure of a job as JSON.
     Calc(CalcArgs),
-    /// Typeset the PDF hand-over document for each job (files or folders).
+    /// Typeset the PDF hand-over document for each job (files or folders), or
+    /// with --listing the listing for a buyer.
     Render(RenderArgs),
     /// Render jobs again whenever they, or anything they are made from, change.
     Watch(RenderArgs),
@@ -71,6 +72,19 @@ pub enum Command {
     Init(InitArgs),
     /// Write a mod's network as a plain SPICE netlist with an AC analysis.
     Netlist(NetlistArgs),
+    /// Write the next job file: the shop's next job id, today's date, and with --from a previous job's unit.
+    ///
+    /// The id follows the shop profile's `job-numbers` pattern (default
+    /// {yyyy}-{nnn}), counting on from the highest id of the period among
+    /// the job files in the folder; the file is named after it. Never
+    /// replaces a file.
+    New(NewArgs),
+    /// Show the figures that changed between two versions of a job, or two sets of one job.
+    ///
+    /// Each side is a job file or REV:PATH, a file at a git revision as
+    /// `git show` names it (`HEAD:jobs/a.kdl`, `HEAD~2:./a.kdl`). With
+    /// --sets, one job's two measurement sets are compared instead.
+    Compare(CompareArgs),
     /// Print the shell completion script for bash, zsh, fish or PowerShell.
     ///
     /// The script asks ampreport itself what to offer at each Tab: commands,
@@ -201,6 +215,21 @@ pub struct RenderArgs {
     /// Leave the job's charges out of the document.
     #[arg(long)]
     pub no_charges: bool,
+    /// Write the listing document for a buyer instead of the hand-over:
+    /// NAME.listing.pdf and NAME.listing.md (with its photos) beside the job,
+    /// or beside the PDF named by -o. Never holds the customer, the charges
+    /// or anything marked private.
+    #[arg(long, conflicts_with = "no_charges")]
+    pub listing: bool,
+    /// How the listing shows the unit's serial number.
+    #[arg(
+        long,
+        value_enum,
+        value_name = "HOW",
+        default_value = "shown",
+        requires = "listing"
+    )]
+    pub serial: SerialArg,
     /// Render even when the PDF is up to date; with --emit-source, also
     /// replace everything in a folder that is not empty.
     #[arg(long)]
@@ -214,6 +243,17 @@ pub struct RenderArgs {
         value_parser = parse_timeout
     )]
     pub timeout: Duration,
+}
+
+/// How the listing shows the serial number.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
+pub enum SerialArg {
+    /// As written.
+    Shown,
+    /// Every letter and digit but the last two hidden.
+    Masked,
+    /// Left out.
+    Hidden,
 }
 
 /// The longest `--timeout` accepted: one day.
@@ -245,7 +285,7 @@ pub struct TubesArgs {
 }
 
 #[derive(Debug, Args)]
-#[command(group(clap::ArgGroup::new("what").required(true).multiple(true).args(["path", "shop"])))]
+#[command(group(clap::ArgGroup::new("what").required(true).multiple(true).args(["path", "shop", "repo"])))]
 pub struct InitArgs {
     /// Where to write the new job file; an existing file is never replaced.
     #[arg(value_hint = ValueHint::FilePath)]
@@ -254,6 +294,56 @@ pub struct InitArgs {
     /// is never replaced.
     #[arg(long, value_name = "PATH", value_hint = ValueHint::FilePath)]
     pub shop: Option<PathBuf>,
+    /// Make DIR ready to keep jobs in git: a .gitattributes (PDFs and photos
+    /// binary, job files text) and a .gitignore for rendered output; an
+    /// existing file is never replaced.
+    #[arg(long, value_name = "DIR", value_hint = ValueHint::DirPath)]
+    pub repo: Option<PathBuf>,
+}
+
+#[derive(Debug, Args)]
+pub struct NewArgs {
+    /// A previous job of the same unit or model: its unit, mains, line-up
+    /// and circuit are carried over (not its readings, parts, mods,
+    /// customer or charges).
+    #[arg(long, value_name = "OLD_JOB", value_hint = ValueHint::FilePath, add = ArgValueCompleter::new(job_files()))]
+    pub from: Option<PathBuf>,
+    /// The folder to write the job file in and count the jobs of (default:
+    /// the current folder).
+    #[arg(long, value_name = "DIR", value_hint = ValueHint::DirPath)]
+    pub dir: Option<PathBuf>,
+    /// The shop profile whose numbering to follow (default: found from the
+    /// folder, as for a job there).
+    #[arg(long, value_name = "FILE", conflicts_with = "no_shop", value_hint = ValueHint::FilePath, add = ArgValueCompleter::new(job_files()))]
+    pub shop: Option<PathBuf>,
+    /// Use no shop profile: the default numbering, {yyyy}-{nnn}.
+    #[arg(long)]
+    pub no_shop: bool,
+}
+
+#[derive(Debug, Args)]
+pub struct CompareArgs {
+    /// The old job: a file, or REV:PATH for a file at a git revision.
+    #[arg(value_hint = ValueHint::FilePath, add = ArgValueCompleter::new(job_files()))]
+    pub old: PathBuf,
+    /// The new job: a file, or REV:PATH (not with --sets).
+    #[arg(required_unless_present = "sets", conflicts_with = "sets", value_hint = ValueHint::FilePath, add = ArgValueCompleter::new(job_files()))]
+    pub new: Option<PathBuf>,
+    /// Compare two measurement sets of the one job, by their labels.
+    #[arg(long, num_args = 2, value_names = ["OLD_SET", "NEW_SET"])]
+    pub sets: Option<Vec<String>>,
+    /// Print the changes as JSON.
+    #[arg(long)]
+    pub json: bool,
+    /// A shop's own ratings file that adds or corrects valve types.
+    #[arg(long, value_name = "FILE")]
+    pub ratings: Vec<PathBuf>,
+    /// The shop profile for both sides (default: found beside each job).
+    #[arg(long, value_name = "FILE", conflicts_with = "no_shop", value_hint = ValueHint::FilePath, add = ArgValueCompleter::new(job_files()))]
+    pub shop: Option<PathBuf>,
+    /// Use no shop profile at all.
+    #[arg(long)]
+    pub no_shop: bool,
 }
 
 #[derive(Debug, Args)]

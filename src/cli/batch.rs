@@ -25,6 +25,7 @@ const WORKER_STACK: usize = 8 * 1024 * 1024;
 
 use super::exit::Exit;
 use super::render::{JobReport, Outcome, Plan, Setup, render_one};
+use crate::catalogue::{Arg, Catalogue, Msg};
 use crate::typeset::interrupt;
 
 /// The number of worker threads by default: the machine's cores.
@@ -96,21 +97,24 @@ impl Progress {
 
 /// One line per job: "rendered jobs/a.kdl → jobs/a.pdf in 1.24 s",
 /// "unchanged jobs/b.pdf", "failed jobs/c.kdl: the first error".
+/// Said in the job's language.
 fn outcome_line(plan: &Plan, report: &JobReport) -> String {
-    match report.outcome {
-        Outcome::Rendered => format!(
-            "rendered {} → {} in {}",
-            plan.job.path.display(),
-            plan.output.display(),
-            seconds(report.elapsed)
+    let job = plan.job.path.display().to_string();
+    let output = plan.output.display().to_string();
+    report.said.say(&match report.outcome {
+        Outcome::Rendered => Msg::new("cli-rendered")
+            .arg("job", job)
+            .arg("output", output)
+            .arg("time", seconds(report.elapsed)),
+        Outcome::Unchanged => Msg::new("cli-unchanged").arg("output", output),
+        Outcome::Failed => Msg::new("cli-failed").arg("job", job).arg(
+            "error",
+            match report.said.first_error() {
+                Some(e) => Arg::from(e),
+                None => Msg::new("cli-see-above").into(),
+            },
         ),
-        Outcome::Unchanged => format!("unchanged {}", plan.output.display()),
-        Outcome::Failed => format!(
-            "failed {}: {}",
-            plan.job.path.display(),
-            report.said.first_error().unwrap_or("see above")
-        ),
-    }
+    })
 }
 
 /// "0.84 s", "12.3 s".
@@ -188,6 +192,21 @@ struct Summary {
     text: String,
 }
 
+/// The language a batch's summary is said in: the one every job that
+/// started was said in, English when they differ.
+fn shared_language(reports: &[Option<JobReport>]) -> &Catalogue {
+    let mut languages = reports.iter().flatten().map(|r| r.said.catalogue());
+    let Some(first) = languages.next() else {
+        return Catalogue::english();
+    };
+    let same = |c: &Catalogue| c.language() == first.language() && c.origin() == first.origin();
+    if languages.all(same) {
+        first
+    } else {
+        Catalogue::english()
+    }
+}
+
 impl Summary {
     fn of(plans: &[Plan], reports: &[Option<JobReport>], elapsed: Duration) -> Self {
         let count = |o: Outcome| reports.iter().flatten().filter(|r| r.outcome == o).count();
@@ -197,25 +216,39 @@ impl Summary {
             count(Outcome::Failed),
         );
         let not_run = reports.iter().filter(|r| r.is_none()).count();
-        let mut text = format!(
-            "\n{} job{} in {}: {rendered} rendered, {unchanged} unchanged, {failed} failed",
-            plans.len(),
-            if plans.len() == 1 { "" } else { "s" },
-            seconds(elapsed)
+        let catalogue = shared_language(reports);
+        let mut text = String::from("\n");
+        text.push_str(
+            &catalogue.say(
+                &Msg::new("cli-summary")
+                    .arg("jobs", plans.len())
+                    .arg("time", seconds(elapsed))
+                    .arg("rendered", rendered)
+                    .arg("unchanged", unchanged)
+                    .arg("failed", failed),
+            ),
         );
         if not_run > 0 {
-            text.push_str(&format!(", {not_run} not started (stopped)"));
+            text.push_str(&catalogue.say(&Msg::new("cli-summary-stopped").arg("count", not_run)));
         }
         text.push('\n');
         for (plan, report) in plans.iter().zip(reports) {
             if let Some(report) = report
                 && report.outcome == Outcome::Failed
             {
-                text.push_str(&format!(
-                    "  failed {}: {}\n",
-                    plan.job.path.display(),
-                    report.said.first_error().unwrap_or("no message")
-                ));
+                let error: Arg = match report.said.first_error() {
+                    Some(e) => e.into(),
+                    None => Msg::new("cli-no-message").into(),
+                };
+                text.push_str("  ");
+                text.push_str(
+                    &catalogue.say(
+                        &Msg::new("cli-failed")
+                            .arg("job", plan.job.path.display().to_string())
+                            .arg("error", error),
+                    ),
+                );
+                text.push('\n');
             }
         }
         Summary { failed, text }

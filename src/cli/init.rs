@@ -1,5 +1,7 @@
 //! `ampreport init PATH` and `ampreport init --shop PATH`: an annotated
-//! skeleton job file, or shop profile. Never replaces an existing file.
+//! skeleton job file, or shop profile; `init --repo DIR`: the
+//! `.gitattributes` and `.gitignore` that keep a folder of jobs tidy in git
+//! (see docs/git.md). Never replaces an existing file.
 
 use std::io::Write;
 
@@ -8,6 +10,12 @@ use super::exit::Exit;
 
 /// The skeleton, a valid job file with every node explained.
 pub const SKELETON: &str = include_str!("../../templates/job-skeleton.kdl");
+
+/// How git treats the files of a job folder.
+pub const GITATTRIBUTES: &str = include_str!("../../templates/repo.gitattributes");
+
+/// What git leaves out of a job folder: everything `render` makes again.
+pub const GITIGNORE: &str = include_str!("../../templates/repo.gitignore");
 
 pub fn run(args: &InitArgs) -> Exit {
     let mut exit = Exit::Success;
@@ -23,15 +31,39 @@ pub fn run(args: &InitArgs) -> Exit {
             "fill it in; jobs in its folder and below use it (see docs/shop.md)",
         );
     }
+    if let Some(dir) = &args.repo
+        && exit == Exit::Success
+    {
+        if let Err(e) = std::fs::create_dir_all(dir) {
+            eprintln!("error: cannot make the folder {}: {e}", dir.display());
+            return Exit::Environment;
+        }
+        // Both are tried, so one that exists does not keep the other out.
+        let attributes = write_new(
+            &dir.join(".gitattributes"),
+            GITATTRIBUTES,
+            "PDFs and photos are binary to git, job files are text",
+        );
+        let ignore = write_new(
+            &dir.join(".gitignore"),
+            GITIGNORE,
+            "rendered documents stay out of git; see docs/git.md",
+        );
+        exit = if attributes != Exit::Success {
+            attributes
+        } else {
+            ignore
+        };
+    }
     exit
 }
 
 /// Writes `text` to a new file at `path`; `next` is what to do next (`{}`
 /// stands for the path).
-fn write_new(path: &std::path::Path, text: &str, next: &str) -> Exit {
+pub(super) fn write_new(path: &std::path::Path, text: &str, next: &str) -> Exit {
     if path.exists() {
         eprintln!(
-            "error: {} already exists; ampreport init never replaces a file",
+            "error: {} already exists; ampreport never replaces a file",
             path.display()
         );
         return Exit::InvalidInput;
@@ -57,7 +89,7 @@ fn write_new(path: &std::path::Path, text: &str, next: &str) -> Exit {
         }
         Err(e) if e.kind() == std::io::ErrorKind::AlreadyExists => {
             eprintln!(
-                "error: {} already exists; ampreport init never replaces a file",
+                "error: {} already exists; ampreport never replaces a file",
                 path.display()
             );
             Exit::InvalidInput

@@ -118,18 +118,31 @@ pub fn decode(
     ratings: &RatingsTable,
     said: &mut Said,
 ) -> Result<Loaded, Exit> {
-    let name = job_name(path);
+    decode_named(&job_name(path), text, shop, ratings, said)
+}
+
+/// Decodes `text` as [`decode`] does, for a job called `name` in messages
+/// (a file's path, or `REV:PATH` for one read from git).
+pub fn decode_named(
+    name: &str,
+    text: String,
+    shop: Option<LoadedShop>,
+    ratings: &RatingsTable,
+    said: &mut Said,
+) -> Result<Loaded, Exit> {
     let defaults = shop
         .as_ref()
         .map(|s| s.profile.defaults.clone())
         .unwrap_or_default();
-    let decoded = match job::decode_with_defaults(&name, &text, ratings, &defaults) {
+    let catalogue = language(shop.as_ref());
+    let mut decoded = match job::decode_with_defaults(name, &text, ratings, &defaults) {
         Ok(d) => d,
         Err(diagnostics) => {
-            refused(&name, &text, diagnostics, said);
+            refused(name, &text, diagnostics.localized(catalogue), said);
             return Err(Exit::InvalidInput);
         }
     };
+    decoded.diagnostics.localize(catalogue);
     if !decoded.diagnostics.problems.is_empty() {
         said.warn(format!(
             "{:?}",
@@ -179,13 +192,19 @@ pub fn shop_profile(
     read.push(path.clone());
     let text = read_text(&path, "shop profile", said)?;
     let name = path.display().to_string();
-    let decoded = match shop::decode(&name, &text) {
+    // The profile's own problems are said in the language it names, when
+    // that line can be read and the language is built in; else in English.
+    let own_language = shop::named_language(&text)
+        .and_then(|tag| Catalogue::built_in(&tag))
+        .unwrap_or_else(|| Catalogue::english().clone());
+    let mut decoded = match shop::decode(&name, &text) {
         Ok(d) => d,
         Err(diagnostics) => {
-            refused(&name, &text, diagnostics, said);
+            refused(&name, &text, diagnostics.localized(&own_language), said);
             return Err(Exit::InvalidInput);
         }
     };
+    decoded.diagnostics.localize(&own_language);
     said.read(
         "shop profile",
         format!(
@@ -212,12 +231,9 @@ pub fn shop_profile(
         Some(written) => match shop::read_logo(&path, written) {
             Ok(logo) => Some(logo),
             Err(problem) => {
-                let diagnostics = job::JobDiagnostics {
-                    source: decoded.diagnostics.source.clone(),
-                    problems: vec![*problem],
-                    not_shown: Default::default(),
-                };
-                refused(&name, &text, diagnostics, said);
+                let diagnostics =
+                    job::JobDiagnostics::new(decoded.diagnostics.source.clone(), vec![*problem]);
+                refused(&name, &text, diagnostics.localized(&own_language), said);
                 return Err(Exit::InvalidInput);
             }
         },
@@ -239,22 +255,24 @@ pub fn shop_profile(
                     (c, file)
                 }
                 Err(shop::TranslationError::Profile(problem)) => {
-                    let diagnostics = job::JobDiagnostics {
-                        source: decoded.diagnostics.source.clone(),
-                        problems: vec![*problem],
-                        not_shown: Default::default(),
-                    };
-                    refused(&name, &text, diagnostics, said);
+                    let diagnostics = job::JobDiagnostics::new(
+                        decoded.diagnostics.source.clone(),
+                        vec![*problem],
+                    );
+                    refused(&name, &text, diagnostics.localized(&own_language), said);
                     return Err(Exit::InvalidInput);
                 }
                 Err(shop::TranslationError::File(diagnostics)) => {
-                    said.error(format!("{:?}", miette::Report::new(*diagnostics)));
+                    let diagnostics = diagnostics.localized(&own_language);
+                    said.error(format!("{:?}", miette::Report::new(diagnostics)));
                     return Err(Exit::InvalidInput);
                 }
             }
         }
         None => (Catalogue::english().clone(), None),
     };
+    // From here on the job's messages are in the profile's language.
+    said.language = Some(catalogue.clone());
     Ok(Some(LoadedShop {
         profile: decoded.profile,
         found,
@@ -263,6 +281,12 @@ pub fn shop_profile(
         catalogue,
         translation,
     }))
+}
+
+/// The language the terminal speaks for a job: its shop profile's, else
+/// English.
+pub fn language(shop: Option<&LoadedShop>) -> &Catalogue {
+    shop.map_or(Catalogue::english(), |s| &s.catalogue)
 }
 
 /// Tells why the file `name` (read as `text`) was refused; its first
@@ -322,11 +346,9 @@ pub fn photos(
 ) -> Result<Vec<crate::photo::PreparedPhoto>, Exit> {
     crate::photo::prepare(&loaded.decoded.job, job_file).map_err(|problems| {
         let name = job_name(job_file);
-        let diagnostics = job::JobDiagnostics {
-            source: loaded.decoded.diagnostics.source.clone(),
-            problems,
-            not_shown: Default::default(),
-        };
+        let diagnostics =
+            job::JobDiagnostics::new(loaded.decoded.diagnostics.source.clone(), problems);
+        let diagnostics = diagnostics.localized(language(loaded.shop.as_ref()));
         refused(&name, &loaded.text, diagnostics, said);
         Exit::InvalidInput
     })

@@ -5,6 +5,7 @@ pub mod args;
 mod batch;
 mod calc;
 mod check;
+mod compare;
 pub mod completions;
 pub mod content_key;
 pub mod exit;
@@ -13,6 +14,7 @@ pub mod job_files;
 mod load;
 pub mod man;
 mod netlist;
+mod new;
 mod render;
 mod said;
 mod tubes;
@@ -78,6 +80,8 @@ pub fn main() -> ExitCode {
         args::Command::Completions(a) => completions::run(a),
         args::Command::Man(a) => man::run(a),
         args::Command::Netlist(a) => netlist::run(a),
+        args::Command::Compare(a) => compare::run(a),
+        args::Command::New(a) => new::run(a),
     };
     if let Exit::Interrupted(signal) = exit {
         crate::typeset::interrupt::exit_as_signalled(signal);

@@ -1,9 +1,12 @@
-//! `ampreport render JOB|DIR…`: the PDF hand-over document of each job.
-//! Reads and derives a job, finds typst, fills the template, optionally
-//! writes the generated source to a folder, and compiles the PDF
-//! atomically; a job whose PDF was already made from exactly the same
-//! inputs is skipped ([`super::content_key`]). Several jobs, or a folder of
-//! them, run side by side with a summary at the end ([`super::batch`]).
+//! `ampreport render JOB|DIR…`: the PDF hand-over document of each job,
+//! or with `--listing` the listing for a buyer (a PDF, and Markdown with
+//! its photos beside it). Reads and derives a job, finds typst, fills the
+//! template, optionally writes the generated source to a folder, and
+//! compiles the PDF atomically; the listing's photos and Markdown are
+//! written after the PDF, each atomically. A job whose files were already
+//! made from exactly the same inputs is skipped ([`super::content_key`]).
+//! Several jobs, or a folder of them, run side by side with a summary at
+//! the end ([`super::batch`]).
 //!
 //! Exit statuses for one job: 1 when the job, a ratings file or a shop's
 //! own template (`--templates`) is at fault; 2 when the output or the
@@ -19,7 +22,7 @@ use std::io::IsTerminal;
 use std::path::{Path, PathBuf};
 use std::time::{Duration, Instant};
 
-use super::args::RenderArgs;
+use super::args::{RenderArgs, SerialArg};
 use super::batch;
 use super::check::named_jobs;
 use super::content_key::{self, RunInputs, RunKey};
@@ -28,10 +31,11 @@ use super::job_files::JobFile;
 use super::said::Said;
 use super::{load, ui};
 use crate::calc;
-use crate::catalogue::Catalogue;
+use crate::catalogue::{Catalogue, Msg};
 use crate::input_file::is_dash;
 use crate::ratings::RatingsTable;
 use crate::report::handover::{self, HandoverError, HandoverInput};
+use crate::report::listing::{self, ListingInput, SerialShown};
 use crate::typeset::{
     self, CompileOptions, FontsUsed, Input, InputIndex, TemplateSource, TypesetError, TypstProgram,
     interrupt,
@@ -56,14 +60,23 @@ pub fn run(args: &RenderArgs) -> Exit {
         match report.outcome {
             Outcome::Rendered if is_dash(output) => {
                 if ui::verbose() {
-                    eprintln!("wrote the PDF to standard output");
+                    eprintln!("{}", report.said.say(&Msg::new("cli-wrote-stdout")));
                 }
             }
-            Outcome::Rendered => ui::wrote(format!("wrote {}", output.display())),
-            Outcome::Unchanged => ui::wrote(format!(
-                "{} is up to date (--force renders it anyway)",
-                output.display()
-            )),
+            Outcome::Rendered => {
+                for path in std::iter::once(output).chain(&report.beside) {
+                    ui::wrote(
+                        report
+                            .said
+                            .say(&Msg::new("cli-wrote").arg("path", path.display().to_string())),
+                    );
+                }
+            }
+            Outcome::Unchanged => ui::wrote(
+                report
+                    .said
+                    .say(&Msg::new("cli-up-to-date").arg("path", output.display().to_string())),
+            ),
             Outcome::Failed => {}
         }
         return report.exit;
@@ -126,7 +139,7 @@ impl<'a> Setup<'a> {
         // typst answers `--version` while the ratings are read.
         let pending = typeset::start_locate(args.typst.as_deref());
         let ratings = load::ratings(&args.job.ratings)?;
-        let templates = template_source(args.templates.as_deref())?;
+        let templates = template_source(args.templates.as_deref(), args.listing)?;
         let program = match pending.finish_within(args.timeout) {
             Ok(p) => p,
             Err(e) => {
@@ -155,7 +168,7 @@ impl<'a> Setup<'a> {
                 job,
             })
             .collect();
-        if let Some(message) = shared_outputs(&plans) {
+        if let Some(message) = shared_outputs(&plans, args.listing) {
             eprintln!("error: {message}");
             return Err(Exit::Usage);
         }
@@ -229,38 +242,70 @@ fn job_readable(args: &RenderArgs, path: &Path, ratings: &RatingsTable) -> Resul
     checked
 }
 
-/// The options that change a document's bytes, for the content key.
+/// The options that change a document's bytes, for the content key: the
+/// listing and the hand-over never pass for each other.
 fn render_options(args: &RenderArgs) -> Vec<String> {
-    vec![
+    let mut options = vec![
         format!("pdf-standard={}", typeset::DEFAULT_PDF_STANDARD),
         format!("charges={}", !args.no_charges),
-    ]
+        format!(
+            "document={}",
+            if args.listing { "listing" } else { "hand-over" }
+        ),
+    ];
+    if args.listing {
+        options.push(format!("serial={:?}", args.serial));
+    }
+    options
+}
+
+/// How `--serial` asks the listing to show the serial number.
+fn serial_shown(args: &RenderArgs) -> SerialShown {
+    match args.serial {
+        SerialArg::Shown => SerialShown::Shown,
+        SerialArg::Masked => SerialShown::Masked,
+        SerialArg::Hidden => SerialShown::Hidden,
+    }
 }
 
 /// Where a job's PDF goes: `-o`, else under `--out-dir` at the job's place
-/// below the folder it was found in, else beside the job.
+/// below the folder it was found in, else beside the job; `NAME.pdf`, or
+/// `NAME.listing.pdf` for the listing.
 fn output_for(args: &RenderArgs, job: &JobFile) -> PathBuf {
     if let Some(output) = &args.output {
         return output.clone();
     }
-    match &args.out_dir {
-        Some(dir) => default_output(&dir.join(&job.relative)),
-        None => default_output(&job.path),
+    let beside = match &args.out_dir {
+        Some(dir) => dir.join(&job.relative),
+        None => job.path.clone(),
+    };
+    if args.listing {
+        default_listing_output(&beside)
+    } else {
+        default_output(&beside)
     }
 }
 
-/// Names the first output two jobs of a run would both write, if any.
-fn shared_outputs(plans: &[Plan]) -> Option<String> {
+/// The Markdown of a listing whose PDF is `output`: beside it, `.md`.
+fn markdown_for(output: &Path) -> PathBuf {
+    output.with_extension("md")
+}
+
+/// Names the first output two jobs of a run would both write, if any (a
+/// listing's Markdown counts as an output).
+fn shared_outputs(plans: &[Plan], listing: bool) -> Option<String> {
     let mut seen: std::collections::HashMap<PathBuf, &Path> = std::collections::HashMap::new();
     for plan in plans {
-        let key = normalised(&plan.output);
-        if let Some(other) = seen.insert(key, &plan.job.path) {
-            return Some(format!(
-                "{} and {} would both be written to {}; use --out-dir DIR or rename one",
-                other.display(),
-                plan.job.path.display(),
-                plan.output.display()
-            ));
+        let markdown = listing.then(|| markdown_for(&plan.output));
+        for output in std::iter::once(&plan.output).chain(markdown.as_ref()) {
+            if let Some(other) = seen.insert(normalised(output), &plan.job.path) {
+                return Some(format!(
+                    "{} and {} would both be written to {}; use --out-dir DIR or rename one",
+                    other.display(),
+                    plan.job.path.display(),
+                    output.display()
+                ));
+            }
         }
     }
     None
@@ -295,8 +340,9 @@ pub enum Outcome {
 }
 
 /// One job's render: how it ended, its exit status, what it had to say,
-/// how long it took, and the files besides the job and the run's shared
-/// inputs it was made from (its shop profile and logo), for `watch`.
+/// how long it took, the files besides the job and the run's shared
+/// inputs it was made from (its shop profile and logo), for `watch`, and
+/// the files written beside the PDF (a listing's photos and Markdown).
 #[derive(Debug)]
 pub struct JobReport {
     pub outcome: Outcome,
@@ -304,6 +350,7 @@ pub struct JobReport {
     pub said: Said,
     pub elapsed: Duration,
     pub depends: Vec<PathBuf>,
+    pub beside: Vec<PathBuf>,
 }
 
 /// Renders one job: reads it, checks where its PDF goes, skips it when the
@@ -314,7 +361,8 @@ pub fn render_one(setup: &Setup<'_>, plan: &Plan) -> JobReport {
     let start = Instant::now();
     let mut said = Said::default();
     let mut depends = Vec::new();
-    let (outcome, exit) = match render_job(setup, plan, &mut said, &mut depends) {
+    let mut beside = Vec::new();
+    let (outcome, exit) = match render_job(setup, plan, &mut said, &mut depends, &mut beside) {
         Ok(outcome) => (outcome, Exit::Success),
         Err(exit) => (Outcome::Failed, exit),
     };
@@ -324,6 +372,7 @@ pub fn render_one(setup: &Setup<'_>, plan: &Plan) -> JobReport {
         said,
         elapsed: start.elapsed(),
         depends,
+        beside,
     }
 }
 
@@ -332,6 +381,7 @@ fn render_job(
     plan: &Plan,
     said: &mut Said,
     depends: &mut Vec<PathBuf>,
+    beside: &mut Vec<PathBuf>,
 ) -> Result<Outcome, Exit> {
     let args = setup.args;
     let job_path = &plan.job.path;
@@ -339,6 +389,7 @@ fn render_job(
     if !args.force
         && args.emit_source.is_none()
         && !is_dash(output)
+        && !args.listing
         && let Some(run) = &setup.run_key
         && unchanged(setup, run, plan, depends)
     {
@@ -353,10 +404,13 @@ fn render_job(
         && parent.starts_with(dir)
         && let Err(e) = std::fs::create_dir_all(parent)
     {
-        said.error(format!(
-            "error: could not make the folder {} for the PDF: {e}",
-            parent.display()
-        ));
+        said.error(
+            said.say(
+                &Msg::new("cli-cannot-make-folder")
+                    .arg("folder", parent.display().to_string())
+                    .arg("error", e.to_string()),
+            ),
+        );
         return Err(Exit::Environment);
     }
     let loaded = load::decode(job_path, text, shop, &setup.ratings, said)?;
@@ -374,11 +428,22 @@ fn render_job(
             .iter()
             .map(|p| Input::new(p, "a photo of the job")),
     );
-    if let Err(e) =
-        typeset::check_output(output, &inputs).and_then(|()| setup.job_files.check(output))
-    {
-        said.error(format!("{:?}", miette::Report::new(e)));
+    // The listing's Markdown and photos go beside its PDF; the photos'
+    // names are known once they are prepared, and checked then.
+    let markdown = args.listing.then(|| markdown_for(output));
+    if markdown.as_ref() == Some(output) {
+        said.error(
+            said.say(&Msg::new("cli-listing-name-clash").arg("path", output.display().to_string())),
+        );
         return Err(Exit::Usage);
+    }
+    for path in std::iter::once(output).chain(markdown.as_ref()) {
+        if let Err(e) =
+            typeset::check_output(path, &inputs).and_then(|()| setup.job_files.check(path))
+        {
+            said.error(format!("{:?}", miette::Report::new(e)));
+            return Err(Exit::Usage);
+        }
     }
 
     // The key covers the texts read above (the very bytes the job and its
@@ -389,32 +454,92 @@ fn render_job(
         .run_key
         .as_ref()
         .and_then(|run| job_key(setup, run, job_path, &loaded));
+    // Reached with --listing (whose files beside the PDF need the decoded
+    // job to be told apart), or when the cheap skip found a change.
+    if let Some(key) = key.as_ref().map(content_key::JobKey::finish)
+        && !args.force
+        && args.emit_source.is_none()
+        && !is_dash(output)
+        && content_key::up_to_date(output, &key)
+        && (!args.listing || listing_files_up_to_date(output, job, &key))
+    {
+        return Ok(Outcome::Unchanged);
+    }
 
     let photos = load::photos(job_path, &loaded, said)?;
     let mut findings = calc::derive(job, &setup.ratings);
     load::stamp(job_path, &loaded, &mut findings);
-    for warning in undrawable_text(&load::job_name(job_path), &loaded.text) {
+    for warning in undrawable_text(&load::job_name(job_path), &loaded.text, said.catalogue()) {
         said.warn(warning);
     }
 
-    let input = HandoverInput {
-        job,
-        findings: &findings,
-        job_text: &loaded.text,
-        typst_version: setup.program.version.to_string(),
-        shop: loaded.shop.as_ref().map(|s| &s.profile),
-        logo: loaded.shop.as_ref().and_then(|s| s.logo.as_ref()),
-        include_charges: !args.no_charges,
-        catalogue: loaded
-            .shop
-            .as_ref()
-            .map_or(Catalogue::english(), |s| &s.catalogue),
-        revision: findings.job.git.clone(),
-        photos: &photos,
-    };
-    let document = match handover::build(&input, &setup.templates) {
-        Ok(d) => d,
-        Err(e) => return Err(report_build_error(e, said)),
+    let catalogue = loaded
+        .shop
+        .as_ref()
+        .map_or(Catalogue::english(), |s| &s.catalogue);
+    let document = if let Some(markdown) = &markdown {
+        let input = ListingInput {
+            job,
+            findings: &findings,
+            job_text: &loaded.text,
+            typst_version: setup.program.version.to_string(),
+            shop: loaded.shop.as_ref().map(|s| &s.profile),
+            logo: loaded.shop.as_ref().and_then(|s| s.logo.as_ref()),
+            catalogue,
+            serial: serial_shown(args),
+            photos: &photos,
+            markdown_stem: markdown
+                .file_stem()
+                .map(|s| s.to_string_lossy().into_owned())
+                .unwrap_or_default(),
+        };
+        let d = match listing::build(&input, &setup.templates) {
+            Ok(d) => d,
+            Err(e) => return Err(report_build_error(e, said)),
+        };
+        let folder = markdown.parent().unwrap_or(Path::new(""));
+        let mut extra: Vec<(PathBuf, Vec<u8>)> = d
+            .photo_files
+            .into_iter()
+            .map(|(name, bytes)| (folder.join(name), bytes))
+            .collect();
+        for (path, _) in &extra {
+            if let Err(e) =
+                typeset::check_output(path, &inputs).and_then(|()| setup.job_files.check(path))
+            {
+                said.error(format!("{:?}", miette::Report::new(e)));
+                return Err(Exit::Usage);
+            }
+        }
+        extra.push((markdown.clone(), d.markdown.into_bytes()));
+        Built {
+            sandbox: d.sandbox,
+            main: d.main,
+            options: d.options,
+            extra,
+        }
+    } else {
+        let input = HandoverInput {
+            job,
+            findings: &findings,
+            job_text: &loaded.text,
+            typst_version: setup.program.version.to_string(),
+            shop: loaded.shop.as_ref().map(|s| &s.profile),
+            logo: loaded.shop.as_ref().and_then(|s| s.logo.as_ref()),
+            include_charges: !args.no_charges,
+            catalogue,
+            revision: findings.job.git.clone(),
+            photos: &photos,
+        };
+        match handover::build(&input, &setup.templates) {
+            Ok(d) => Built {
+                sandbox: d.sandbox,
+                main: d.main,
+                options: d.options,
+                extra: Vec::new(),
+            },
+            Err(e) => return Err(report_build_error(e, said)),
+        }
     };
 
     if let Some(dir) = &args.emit_source {
@@ -436,17 +561,23 @@ fn render_job(
             ));
         }
         if let Err(e) = written {
-            said.error(format!(
-                "error: could not write the generated source to {}: {e}",
-                dir.display()
-            ));
+            said.error(
+                said.say(
+                    &Msg::new("cli-cannot-write-source")
+                        .arg("folder", dir.display().to_string())
+                        .arg("error", e.to_string()),
+                ),
+            );
             return Err(Exit::Environment);
         }
-        said.warn(format!("wrote the generated source to {}", dir.display()));
-        said.warn(format!(
-            "  the same PDF comes from: {}",
-            handover::compile_command(dir, &document.options, &dir.join("handover.pdf"))
-        ));
+        said.warn(said.say(&Msg::new("cli-wrote-source").arg("folder", dir.display().to_string())));
+        said.warn(
+            "  ".to_owned()
+                + &said.say(&Msg::new("cli-same-pdf-from").arg(
+                    "command",
+                    handover::compile_command(dir, &document.options, &dir.join("handover.pdf")),
+                )),
+        );
     }
 
     let options = CompileOptions {
@@ -469,19 +600,38 @@ fn render_job(
                 ),
             }
             if !outcome.warnings.is_empty() {
-                said.warn(format!("typst warned:\n{}", outcome.warnings));
+                said.warn(
+                    said.say(
+                        &Msg::new("cli-typst-warned").arg("warnings", outcome.warnings.as_str()),
+                    ),
+                );
             }
-            match &key {
-                _ if is_dash(output) => {}
-                Some(key) => {
-                    if let Err(e) = content_key::record(output, key) {
-                        said.warn(format!(
-                            "warning: could not record what {} was made from ({e}); the next run renders it again",
-                            output.display()
-                        ));
-                    }
+            // The listing's photos, then its Markdown: each file is written
+            // whole or not at all.
+            for (path, bytes) in &document.extra {
+                if let Err(e) = typeset::place(bytes, path) {
+                    content_key::forget(output);
+                    return Err(report_typeset_error(e, &setup.templates, Some(path), said));
                 }
-                None => content_key::forget(output),
+                beside.push(path.clone());
+            }
+            let written = std::iter::once(output).chain(document.extra.iter().map(|(p, _)| p));
+            for path in written {
+                match &key {
+                    _ if is_dash(path) => {}
+                    Some(key) => {
+                        if let Err(e) = content_key::record(path, key) {
+                            said.warn(
+                                said.say(
+                                    &Msg::new("cli-cannot-record")
+                                        .arg("path", path.display().to_string())
+                                        .arg("error", e.to_string()),
+                                ),
+                            );
+                        }
+                    }
+                    None => content_key::forget(path),
+                }
             }
             Ok(Outcome::Rendered)
         }
@@ -492,6 +642,39 @@ fn render_job(
             said,
         )),
     }
+}
+
+/// A document ready to compile, and the files written beside it.
+struct Built {
+    sandbox: typeset::Sandbox,
+    main: &'static str,
+    options: CompileOptions,
+    /// Written after the PDF, in order: the listing's photos, then its
+    /// Markdown.
+    extra: Vec<(PathBuf, Vec<u8>)>,
+}
+
+/// True when the files a listing writes beside its PDF `output` were all
+/// made from `key`: its Markdown and one file for each photo marked for
+/// the listing (PNG or JPEG, as the photo was).
+fn listing_files_up_to_date(output: &Path, job: &crate::job::Job, key: &str) -> bool {
+    let markdown = markdown_for(output);
+    if !content_key::up_to_date(&markdown, key) {
+        return false;
+    }
+    let stem = markdown
+        .file_stem()
+        .map(|s| s.to_string_lossy().into_owned())
+        .unwrap_or_default();
+    let listed = job.photos.iter().filter(|p| p.listing).count();
+    (1..=listed).all(|i| {
+        ["png", "jpg"].iter().any(|extension| {
+            content_key::up_to_date(
+                &markdown.with_file_name(format!("{stem}-photo-{i}.{extension}")),
+                key,
+            )
+        })
+    })
 }
 
 /// A job's content key: the run's shared inputs, the job's text, its
@@ -672,16 +855,13 @@ pub(crate) fn report_typeset_error(
         TypesetError::Output(_) => Exit::Usage,
         TypesetError::Compile { .. } | TypesetError::MissingText { .. } => match shop {
             Some(dir) => {
-                said.err(format!(
-                    "note: the document from the shop templates in {} failed; the templates are at fault, not the job",
-                    dir.display()
+                said.err(said.say(
+                    &Msg::new("cli-shop-templates-failed").arg("folder", dir.display().to_string()),
                 ));
                 Exit::InvalidInput
             }
             None => {
-                said.err(
-                    "note: the built-in template failed; this is a fault in ampreport, please report it",
-                );
+                said.err(said.say(&Msg::new("cli-built-in-template-failed")));
                 Exit::Environment
             }
         },
@@ -691,7 +871,9 @@ pub(crate) fn report_typeset_error(
     if let Some(output) = output
         && output.exists()
     {
-        said.err(format!("note: {} was left as it was", output.display()));
+        said.err(
+            said.say(&Msg::new("cli-left-as-it-was").arg("path", output.display().to_string())),
+        );
     }
     status
 }
@@ -699,8 +881,14 @@ pub(crate) fn report_typeset_error(
 /// A warning for each text value of the job holding characters the
 /// bundled fonts cannot draw, naming the field and where it is; the
 /// document prints those characters as the placeholder.
-fn undrawable_text(file: &str, text: &str) -> Vec<String> {
-    fn walk(doc: &kdl::KdlDocument, file: &str, text: &str, out: &mut Vec<String>) {
+fn undrawable_text(file: &str, text: &str, catalogue: &Catalogue) -> Vec<String> {
+    fn walk(
+        doc: &kdl::KdlDocument,
+        file: &str,
+        text: &str,
+        catalogue: &Catalogue,
+        out: &mut Vec<String>,
+    ) {
         for node in doc.nodes() {
             for entry in node.entries() {
                 let kdl::KdlValue::String(value) = entry.value() else {
@@ -710,9 +898,12 @@ fn undrawable_text(file: &str, text: &str) -> Vec<String> {
                 if lacking.is_empty() {
                     continue;
                 }
-                let field = match entry.name() {
-                    Some(key) => format!("`{}` of `{}`", key.value(), node.name().value()),
-                    None => format!("`{}`", node.name().value()),
+                let field: crate::catalogue::Arg = match entry.name() {
+                    Some(key) => Msg::new("cli-field-of")
+                        .arg("key", key.value())
+                        .arg("node", node.name().value())
+                        .into(),
+                    None => format!("`{}`", node.name().value()).into(),
                 };
                 let (line, column) = crate::job::line_column(text, entry.span().offset());
                 let chars: Vec<String> = lacking
@@ -720,21 +911,31 @@ fn undrawable_text(file: &str, text: &str) -> Vec<String> {
                     .take(5)
                     .map(|c| format!("U+{:04X}", u32::from(*c)))
                     .collect();
-                out.push(format!(
-                    "warning: {file}:{line}:{column}: the text of {field} holds characters the document's fonts cannot draw ({}{}); they print as {}",
-                    chars.join(", "),
-                    if lacking.len() > 5 { ", …" } else { "" },
-                    typeset::placeholder()
-                ));
+                out.push(
+                    catalogue.say(
+                        &Msg::new("cli-undrawable")
+                            .arg("place", format!("{file}:{line}:{column}"))
+                            .arg("field", field)
+                            .arg(
+                                "chars",
+                                format!(
+                                    "{}{}",
+                                    chars.join(", "),
+                                    if lacking.len() > 5 { ", …" } else { "" }
+                                ),
+                            )
+                            .arg("placeholder", typeset::placeholder().to_string()),
+                    ),
+                );
             }
             if let Some(children) = node.children() {
-                walk(children, file, text, out);
+                walk(children, file, text, catalogue, out);
             }
         }
     }
     let mut out = Vec::new();
     if let Ok(doc) = crate::kdl_fast::parse_document(text) {
-        walk(&doc, file, text, &mut out);
+        walk(&doc, file, text, catalogue, &mut out);
     }
     out
 }
@@ -742,6 +943,11 @@ fn undrawable_text(file: &str, text: &str) -> Vec<String> {
 /// Beside the job file, same name, `.pdf`.
 fn default_output(job: &Path) -> PathBuf {
     job.with_extension("pdf")
+}
+
+/// Beside the job file, same name, `.listing.pdf`.
+fn default_listing_output(job: &Path) -> PathBuf {
+    job.with_extension("listing.pdf")
 }
 
 /// Refuses the output of a one-job run that cannot be: `-o -` (standard
@@ -756,6 +962,12 @@ fn single_output_allowed(args: &RenderArgs, job: &Path) -> Result<(), Exit> {
             );
             Err(Exit::Usage)
         }
+        Some(o) if is_dash(o) && args.listing => {
+            eprintln!(
+                "error: the listing is a PDF and Markdown beside it, so it needs a file: name it with `-o FILE.pdf`"
+            );
+            Err(Exit::Usage)
+        }
         None if is_dash(job) => {
             eprintln!(
                 "error: a job read from standard input has no file to put the PDF beside; \
@@ -767,10 +979,16 @@ fn single_output_allowed(args: &RenderArgs, job: &Path) -> Result<(), Exit> {
     }
 }
 
-/// The built-in templates, overridden by `--templates DIR` when given.
-pub(crate) fn template_source(dir: Option<&Path>) -> Result<TemplateSource, Exit> {
-    let source = TemplateSource::embedded(handover::EMBEDDED_TEMPLATES);
-    for (name, _) in handover::EMBEDDED_TEMPLATES {
+/// The built-in templates (the hand-over's, or the listing's), overridden
+/// by `--templates DIR` when given.
+pub(crate) fn template_source(dir: Option<&Path>, listing: bool) -> Result<TemplateSource, Exit> {
+    let embedded = if listing {
+        listing::EMBEDDED_TEMPLATES
+    } else {
+        handover::EMBEDDED_TEMPLATES
+    };
+    let source = TemplateSource::embedded(embedded);
+    for (name, _) in embedded {
         let shop = dir.map(|d| d.join(name)).filter(|p| p.is_file());
         match shop {
             Some(path) => ui::read("template", format!("{} (shop folder)", path.display())),
@@ -805,9 +1023,7 @@ fn report_build_error(e: HandoverError, said: &mut Said) -> Exit {
             from_override: false,
             ..
         } => {
-            said.err(
-                "note: the built-in template failed; this is a fault in ampreport, please report it",
-            );
+            said.err(said.say(&Msg::new("cli-built-in-template-failed")));
             Exit::Environment
         }
         HandoverError::Plot(_) | HandoverError::Sandbox(_) => Exit::Environment,
@@ -823,7 +1039,7 @@ mod tests {
     #[test]
     fn text_the_fonts_cannot_draw_is_named_with_its_place() {
         let text = "job id=\"J1\"\nparts {\n    part R1 reason=\"hot 🔥\"\n}\nnotes {\n    note \"ก\"\n}\n";
-        let warnings = undrawable_text("j.kdl", text);
+        let warnings = undrawable_text("j.kdl", text, Catalogue::english());
         assert_eq!(warnings.len(), 2, "{warnings:?}");
         assert!(warnings[0].starts_with("warning: j.kdl:3:13: the text of `reason` of `part`"));
         assert!(warnings[0].contains("U+1F525"));

@@ -11,9 +11,24 @@ pub struct Said {
     pub out: String,
     pub err: String,
     first_error: Option<String>,
+    /// The language the job's messages are said in: its shop profile's
+    /// once that is read ([`super::load::shop_profile`]), English before.
+    pub language: Option<crate::catalogue::Catalogue>,
 }
 
 impl Said {
+    /// The job's language: its shop profile's, or English.
+    pub fn catalogue(&self) -> &crate::catalogue::Catalogue {
+        self.language
+            .as_ref()
+            .unwrap_or(crate::catalogue::Catalogue::english())
+    }
+
+    /// A message of the catalogue in the job's language.
+    pub fn say(&self, msg: &crate::catalogue::Msg) -> String {
+        self.catalogue().say(msg)
+    }
+
     /// A line for standard output.
     pub fn out(&mut self, line: impl Display) {
         self.out.push_str(&format!("{line}\n"));

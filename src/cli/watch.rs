@@ -16,11 +16,16 @@
 //! profile (any `shop.kdl`, or one a job used) or logo, or a job file added
 //! to a watched folder, renders every job (those whose content key still
 //! matches are not typeset again).
+//!
+//! The watcher also tells of files merely opened, the render's own reads
+//! among them; a path counts as changed only when its modification time or
+//! length differs from when it was last read ([`Stamps`]), or a render
+//! would set off the next one for ever.
 
-use std::collections::HashSet;
+use std::collections::{HashMap, HashSet};
 use std::path::{Path, PathBuf};
 use std::sync::mpsc::{RecvTimeoutError, channel};
-use std::time::Duration;
+use std::time::{Duration, SystemTime};
 
 use notify::RecursiveMode;
 use notify_debouncer_mini::new_debouncer;
@@ -30,6 +35,7 @@ use super::batch::seconds;
 use super::exit::Exit;
 use super::render::{Outcome, Plan, Setup, render_one};
 use super::ui;
+use crate::catalogue::Msg;
 use crate::typeset::interrupt;
 
 /// How long a file must be quiet before its change is taken.
@@ -75,20 +81,24 @@ pub fn run(args: &RenderArgs) -> Exit {
     }
     // The shop profiles and logos the jobs were made from.
     let mut depends: HashSet<PathBuf> = HashSet::new();
-    let mut render_all =
-        |setup: &Setup<'_>, depends: &mut HashSet<PathBuf>, watcher: &mut dyn notify::Watcher| {
-            for plan in &setup.plans {
-                render_and_tell(setup, plan, depends);
-            }
-            let more: Vec<(PathBuf, RecursiveMode)> = depends
-                .iter()
-                .map(|p| (folder_of(p), RecursiveMode::NonRecursive))
-                .collect();
-            if let Err(e) = watch_folders(&more, &mut watched, watcher) {
-                ui::warn(format!("warning: {e}"));
-            }
-        };
-    render_all(&setup, &mut depends, debouncer.watcher());
+    let mut stamps = Stamps::default();
+    stamps.note_shared(&setup);
+    let mut render_all = |setup: &Setup<'_>,
+                          depends: &mut HashSet<PathBuf>,
+                          stamps: &mut Stamps,
+                          watcher: &mut dyn notify::Watcher| {
+        for plan in &setup.plans {
+            render_and_tell(setup, plan, depends, stamps);
+        }
+        let more: Vec<(PathBuf, RecursiveMode)> = depends
+            .iter()
+            .map(|p| (folder_of(p), RecursiveMode::NonRecursive))
+            .collect();
+        if let Err(e) = watch_folders(&more, &mut watched, watcher) {
+            ui::warn(format!("warning: {e}"));
+        }
+    };
+    render_all(&setup, &mut depends, &mut stamps, debouncer.watcher());
     ui::warn(format!(
         "watching {} job{} for changes (Ctrl-C stops)",
         setup.plans.len(),
@@ -111,12 +121,16 @@ pub fn run(args: &RenderArgs) -> Exit {
                 return Exit::Environment;
             }
         };
-        let changed: Vec<PathBuf> = events.into_iter().map(|e| e.path).collect();
+        let changed: Vec<PathBuf> = events
+            .into_iter()
+            .map(|e| canonical(&e.path))
+            .filter(|p| stamps.changed(p))
+            .collect();
         match affected(&setup, &depends, &changed) {
             Affected::Nothing => {}
             Affected::Jobs(indices) => {
                 for i in indices {
-                    render_and_tell(&setup, &setup.plans[i], &mut depends);
+                    render_and_tell(&setup, &setup.plans[i], &mut depends, &mut stamps);
                 }
             }
             Affected::Everything => {
@@ -125,7 +139,8 @@ pub fn run(args: &RenderArgs) -> Exit {
                     Ok(fresh) => setup = fresh,
                     Err(_) => continue,
                 }
-                render_all(&setup, &mut depends, debouncer.watcher());
+                stamps.note_shared(&setup);
+                render_all(&setup, &mut depends, &mut stamps, debouncer.watcher());
             }
         }
     }
@@ -133,28 +148,98 @@ pub fn run(args: &RenderArgs) -> Exit {
 
 /// Renders one job and prints one line about it (what it said first);
 /// notes the shop profile and logo it was made from in `depends`.
-fn render_and_tell(setup: &Setup<'_>, plan: &Plan, depends: &mut HashSet<PathBuf>) {
+fn render_and_tell(
+    setup: &Setup<'_>,
+    plan: &Plan,
+    depends: &mut HashSet<PathBuf>,
+    stamps: &mut Stamps,
+) {
     if interrupt::received().is_some() {
         return;
     }
+    // Noted before it is read: a save during the render still counts.
+    stamps.note(canonical(&plan.job.path));
     let report = render_one(setup, plan);
-    depends.extend(report.depends.iter().map(|p| canonical(p)));
+    for path in report.depends.iter().map(|p| canonical(p)) {
+        stamps.note_if_new(&path);
+        depends.insert(path);
+    }
     report.said.print();
     let now = chrono::Local::now().format("%H:%M:%S");
-    match report.outcome {
-        Outcome::Rendered => println!(
-            "{now} rendered {} → {} in {}",
-            plan.job.path.display(),
-            plan.output.display(),
-            seconds(report.elapsed)
-        ),
-        Outcome::Unchanged => println!("{now} unchanged {}", plan.output.display()),
-        Outcome::Failed => println!(
-            "{now} failed {} after {}; {} was left as it was",
-            plan.job.path.display(),
-            seconds(report.elapsed),
-            plan.output.display()
-        ),
+    let job = plan.job.path.display().to_string();
+    let output = plan.output.display().to_string();
+    let time = seconds(report.elapsed);
+    // Said in the job's language, as its diagnostics were.
+    let line = report.said.say(&match report.outcome {
+        Outcome::Rendered => Msg::new("cli-rendered")
+            .arg("job", job)
+            .arg("output", output)
+            .arg("time", time),
+        Outcome::Unchanged => Msg::new("cli-unchanged").arg("output", output),
+        Outcome::Failed => Msg::new("cli-watch-failed")
+            .arg("job", job)
+            .arg("output", output)
+            .arg("time", time),
+    });
+    println!("{now} {line}");
+}
+
+/// How a file stood: its modification time and length, which a save
+/// changes and a read does not; `None` when it is missing.
+type Stamp = Option<(SystemTime, u64)>;
+
+fn stamp(path: &Path) -> Stamp {
+    let meta = std::fs::metadata(path).ok()?;
+    Some((meta.modified().ok()?, meta.len()))
+}
+
+/// How each input stood when it was last read, by canonical path.
+#[derive(Debug, Default)]
+struct Stamps(HashMap<PathBuf, Stamp>);
+
+impl Stamps {
+    /// Notes how `path` stands now.
+    fn note(&mut self, path: PathBuf) {
+        let now = stamp(&path);
+        self.0.insert(path, now);
+    }
+
+    fn note_if_new(&mut self, path: &Path) {
+        if !self.0.contains_key(path) {
+            self.note(path.to_path_buf());
+        }
+    }
+
+    /// Notes the inputs every job shares: the ratings files and the
+    /// template folder's files.
+    fn note_shared(&mut self, setup: &Setup<'_>) {
+        let args = setup.args;
+        for r in &args.job.ratings {
+            self.note(canonical(r));
+        }
+        if let Some(dir) = &args.templates {
+            let mut stack = vec![dir.clone()];
+            while let Some(folder) = stack.pop() {
+                for entry in std::fs::read_dir(&folder).into_iter().flatten().flatten() {
+                    let path = entry.path();
+                    if entry.file_type().is_ok_and(|t| t.is_dir()) {
+                        stack.push(path);
+                    } else {
+                        self.note(canonical(&path));
+                    }
+                }
+            }
+        }
+    }
+
+    /// True when `path` is not as it was last noted (or was never noted:
+    /// a new file); notes how it is now.
+    fn changed(&mut self, path: &Path) -> bool {
+        let now = stamp(path);
+        match self.0.insert(path.to_path_buf(), now) {
+            Some(before) => before != now,
+            None => true,
+        }
     }
 }
 

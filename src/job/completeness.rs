@@ -6,6 +6,8 @@
 
 use miette::SourceSpan;
 
+use crate::catalogue::Msg;
+
 use super::decode_error::{DecodeError, did_you_mean};
 use super::model::Job;
 
@@ -49,14 +51,21 @@ pub struct NotMeasuredInFinal {
 impl NotMeasuredInFinal {
     /// "V6 is not measured in “as left”, the final set (it was in “as found”)".
     pub fn message(&self) -> String {
-        let what = match self.kind {
-            "node" => format!("node {}", self.name),
-            _ => self.name.clone(),
+        self.msg().english()
+    }
+
+    /// [`NotMeasuredInFinal::message`] as a message of the catalogue.
+    pub fn msg(&self) -> Msg {
+        let what: crate::catalogue::Arg = match self.kind {
+            "node" => Msg::new("diag-node-named")
+                .arg("name", self.name.as_str())
+                .into(),
+            _ => self.name.as_str().into(),
         };
-        format!(
-            "{what} is not measured in \u{201c}{}\u{201d}, the final set (it was in \u{201c}{}\u{201d})",
-            self.final_set, self.set
-        )
+        Msg::new("diag-not-in-final")
+            .arg("what", what)
+            .arg("final", self.final_set.as_str())
+            .arg("set", self.set.as_str())
     }
 }
 
@@ -134,20 +143,19 @@ pub fn warnings(job: &Job) -> Vec<DecodeError> {
             }
             if !declared.is_empty() {
                 let help = match near(name, &declared).first() {
-                    Some(d) => format!(
-                        "did you mean `{d}`? Otherwise declare it in `circuit`: node {name} chart=\"…\""
-                    ),
-                    None => format!("declare it in `circuit`: node {name} chart=\"…\""),
+                    Some(d) => Msg::new("diag-declare-node-or")
+                        .arg("near", *d)
+                        .arg("name", name),
+                    None => Msg::new("diag-declare-node").arg("name", name),
                 };
                 out.push(
                     DecodeError::warning(
                         "job::undeclared-node",
                         n.name.span,
-                        format!(
-                            "node {name} in \u{201c}{}\u{201d} is not declared in `circuit`, so it has no chart figure and no part uses it",
-                            set.label
-                        ),
-                        "not a declared node",
+                        Msg::new("diag-undeclared-node")
+                            .arg("name", name)
+                            .arg("set", set.label.as_str()),
+                        Msg::new("diag-not-declared-node"),
                     )
                     .with_help(help),
                 );
@@ -170,13 +178,13 @@ pub fn warnings(job: &Job) -> Vec<DecodeError> {
                     DecodeError::warning(
                         "job::undeclared-node",
                         n.name.span,
-                        format!(
-                            "node {name} is read only in \u{201c}{}\u{201d}; another set reads {d}",
-                            set.label
-                        ),
-                        "a different name from the other sets",
+                        Msg::new("diag-node-only-here")
+                            .arg("name", name)
+                            .arg("set", set.label.as_str())
+                            .arg("near", *d),
+                        Msg::new("diag-different-name"),
                     )
-                    .with_help(format!("did you mean `{d}`?")),
+                    .with_help(Msg::new("diag-did-you-mean").arg("name", *d)),
                 );
             }
         }
@@ -186,13 +194,10 @@ pub fn warnings(job: &Job) -> Vec<DecodeError> {
             DecodeError::warning(
                 "job::not-measured-in-final",
                 m.span,
-                m.message(),
-                format!("not measured in \u{201c}{}\u{201d}", m.final_set),
+                m.msg(),
+                Msg::new("diag-not-measured-in").arg("final", m.final_set.as_str()),
             )
-            .with_help(format!(
-                "read it again in \u{201c}{}\u{201d}, or the document cannot say how it stands as the unit leaves",
-                m.final_set
-            )),
+            .with_help(Msg::new("diag-read-again").arg("final", m.final_set.as_str())),
         );
     }
     out

@@ -2,12 +2,13 @@
 //! what each must hold. Decoding turns KDL into a [`Job`] or a list of
 //! problems; it computes nothing.
 
+use crate::catalogue::Msg;
 use kdl::{KdlDocument, KdlNode};
 use miette::SourceSpan;
 use std::collections::HashSet;
 
 use super::decode_bench::{BENCH_NODES, decode_bench_node};
-use super::decode_error::{DecodeError, suggestion_help};
+use super::decode_error::{DecodeError, suggestion, suggestion_help};
 use super::model::*;
 use super::network::Network;
 use super::reader::Reader;
@@ -109,7 +110,7 @@ pub(crate) fn decode_document(
     defaults: &JobDefaults,
     r: &mut Reader,
 ) -> Option<Job> {
-    let nodes = r.children(Some(doc), TOP_LEVEL, "the job file");
+    let nodes = r.children(Some(doc), TOP_LEVEL, Msg::new("diag-in-job-file"));
 
     // Repeated singletons.
     let mut seen = std::collections::HashSet::new();
@@ -120,10 +121,10 @@ pub(crate) fn decode_document(
                 DecodeError::error(
                     "job::repeated-node",
                     Reader::name_span(node),
-                    format!("`{name}` is given more than once"),
-                    "repeated here",
+                    Msg::new("diag-given-more-than-once").arg("name", name),
+                    Msg::new("diag-repeated-here"),
                 )
-                .with_help(format!("a job file has one `{name}` node; merge them")),
+                .with_help(Msg::new("diag-merge-nodes").arg("name", name)),
             );
         }
     }
@@ -144,13 +145,17 @@ pub(crate) fn decode_document(
                 ) {
                     format_version = v as u32;
                     if format_version > FORMAT_VERSION {
-                        r.push(DecodeError::error(
-                            "job::format-too-new",
-                            r.value_span(entry),
-                            format!("this job file uses format {format_version}, but this ampreport reads format {FORMAT_VERSION} at most"),
-                            "format version",
-                        )
-                        .with_help("update ampreport to read this file"));
+                        r.push(
+                            DecodeError::error(
+                                "job::format-too-new",
+                                r.value_span(entry),
+                                Msg::new("diag-format-too-new")
+                                    .arg("found", format_version.to_string())
+                                    .arg("known", FORMAT_VERSION.to_string()),
+                                Msg::new("diag-format-version"),
+                            )
+                            .with_help(Msg::new("diag-update-program")),
+                        );
                     }
                 }
             } else {
@@ -158,10 +163,10 @@ pub(crate) fn decode_document(
                     DecodeError::error(
                         "job::missing",
                         Reader::name_span(node),
-                        "`job-format` needs the version number",
-                        "version missing",
+                        Msg::new("diag-format-needs-version"),
+                        Msg::new("diag-version-missing"),
                     )
-                    .with_help("write `job-format 1`"),
+                    .with_help(Msg::new("diag-write-format")),
                 );
             }
         }
@@ -169,10 +174,10 @@ pub(crate) fn decode_document(
             DecodeError::error(
                 "job::missing-format",
                 file_start,
-                "the job file does not say which format it uses",
-                "start of file",
+                Msg::new("diag-no-format"),
+                Msg::new("diag-start-of-file"),
             )
-            .with_help("begin the file with `job-format 1`"),
+            .with_help(Msg::new("diag-begin-with-format")),
         ),
     }
 
@@ -188,10 +193,13 @@ pub(crate) fn decode_document(
                 DecodeError::error(
                     "job::missing-node",
                     file_start,
-                    "the job file has no `job` node",
-                    "start of file",
+                    Msg::new("diag-no-node").arg("name", "job"),
+                    Msg::new("diag-start-of-file"),
                 )
-                .with_help("add: job id=\"2026-001\" received=\"2026-11-02\" technician=\"…\""),
+                .with_help(Msg::new("diag-add").arg(
+                    "example",
+                    "job id=\"2026-001\" received=\"2026-11-02\" technician=\"…\"",
+                )),
             );
             None
         }
@@ -204,10 +212,12 @@ pub(crate) fn decode_document(
                 DecodeError::error(
                     "job::missing-node",
                     file_start,
-                    "the job file has no `unit` node",
-                    "start of file",
+                    Msg::new("diag-no-node").arg("name", "unit"),
+                    Msg::new("diag-start-of-file"),
                 )
-                .with_help("add: unit make=\"…\" model=\"…\" serial=\"…\""),
+                .with_help(
+                    Msg::new("diag-add").arg("example", "unit make=\"…\" model=\"…\" serial=\"…\""),
+                ),
             );
             None
         }
@@ -219,10 +229,13 @@ pub(crate) fn decode_document(
                 DecodeError::error(
                     "job::missing-node",
                     file_start,
-                    "the job file has no `mains` node",
-                    "start of file",
+                    Msg::new("diag-no-node").arg("name", "mains"),
+                    Msg::new("diag-start-of-file"),
                 )
-                .with_help("add: mains nominal=\"120V\" frequency=\"60Hz\""),
+                .with_help(
+                    Msg::new("diag-add")
+                        .arg("example", "mains nominal=\"120V\" frequency=\"60Hz\""),
+                ),
             );
             None
         }
@@ -249,20 +262,18 @@ pub(crate) fn decode_document(
                     DecodeError::error(
                         "job::two-final-sets",
                         at,
-                        "more than one measurement set is marked `final`",
-                        "a second final set",
+                        Msg::new("diag-two-final-sets"),
+                        Msg::new("diag-second-final"),
                     )
-                    .with_help(
-                        "the final set is the state the unit is handed over in: mark only one",
-                    ),
+                    .with_help(Msg::new("diag-two-final-help")),
                 );
             }
             if !labels.insert(set.label.clone()) {
                 r.push(DecodeError::error(
                     "job::repeated-set",
                     Reader::name_span(node),
-                    format!("there are two measurement sets labelled \"{}\"", set.label),
-                    "repeated label",
+                    Msg::new("diag-repeated-set").arg("label", set.label.as_str()),
+                    Msg::new("diag-repeated-label"),
                 ));
             }
             measurements.push(set);
@@ -337,11 +348,10 @@ fn decode_info(node: &KdlNode, r: &mut Reader) -> Option<JobInfo> {
         r.push(DecodeError::error(
             "job::dates-out-of-order",
             done.span,
-            format!(
-                "the job is completed ({}) before it was received ({})",
-                done.value, rec.value
-            ),
-            "completed before received",
+            Msg::new("diag-dates-out-of-order")
+                .arg("completed", done.value.to_string())
+                .arg("received", rec.value.to_string()),
+            Msg::new("diag-completed-before"),
         ));
     }
     Some(JobInfo {
@@ -391,8 +401,8 @@ fn decode_unit(node: &KdlNode, r: &mut Reader) -> Option<Unit> {
             r.push(DecodeError::error(
                 "job::repeated-node",
                 Reader::name_span(child),
-                format!("`{}` is given twice", child.name().value()),
-                "repeated here",
+                Msg::new("diag-given-twice").arg("name", child.name().value()),
+                Msg::new("diag-repeated-here"),
             ));
         }
         *slot = text_node(child, r);
@@ -427,8 +437,8 @@ fn decode_mains(node: &KdlNode, r: &mut Reader) -> Option<Mains> {
                 r.push(DecodeError::warning(
                     "job::implausible",
                     t.span,
-                    format!("a supply tolerance of {}% is unusually wide", t.value),
-                    "unusual",
+                    Msg::new("diag-wide-tolerance").arg("pct", t.value.to_string()),
+                    Msg::new("diag-unusual"),
                 ));
             }
             Spanned::new(t.value / 100.0, t.span)
@@ -450,8 +460,8 @@ fn decode_mains(node: &KdlNode, r: &mut Reader) -> Option<Mains> {
         r.push(DecodeError::warning(
             "job::implausible",
             n.span,
-            format!("{} V is not a usual mains voltage", n.value),
-            "unusual nominal mains",
+            Msg::new("diag-unusual-mains").arg("volts", n.value.to_string()),
+            Msg::new("diag-unusual-mains-label"),
         ));
     }
     let nominal = nominal?;
@@ -482,10 +492,10 @@ fn decode_valves(node: &KdlNode, r: &mut Reader) -> Vec<ValvePosition> {
                             DecodeError::error(
                                 "job::unknown-role",
                                 name.span,
-                                format!("unknown valve role `{}`", name.value),
-                                "expected a role",
+                                Msg::new("diag-unknown-role").arg("name", name.value.as_str()),
+                                Msg::new("diag-expected-role"),
                             )
-                            .with_help(suggestion_help(&name.value, &Role::NAMES)),
+                            .with_help(suggestion(&name.value, &Role::NAMES)),
                         );
                         None
                     }
@@ -497,10 +507,10 @@ fn decode_valves(node: &KdlNode, r: &mut Reader) -> Vec<ValvePosition> {
                     DecodeError::error(
                         "job::missing",
                         Reader::name_span(child),
-                        "`valve` needs a `role` property",
-                        "role missing",
+                        Msg::new("diag-valve-needs-role"),
+                        Msg::new("diag-role-missing"),
                     )
-                    .with_help(format!("one of: {}", Role::NAMES.join(", "))),
+                    .with_help(Msg::new("diag-one-of").arg("names", Role::NAMES.join(", "))),
                 );
                 None
             }
@@ -511,8 +521,8 @@ fn decode_valves(node: &KdlNode, r: &mut Reader) -> Vec<ValvePosition> {
             r.push(DecodeError::error(
                 "job::repeated-position",
                 p.span,
-                format!("valve position {} is listed twice", p.value),
-                "repeated here",
+                Msg::new("diag-position-twice").arg("position", p.value.as_str()),
+                Msg::new("diag-repeated-here"),
             ));
             continue;
         }
@@ -550,10 +560,10 @@ fn decode_circuit(node: &KdlNode, r: &mut Reader) -> Circuit {
                                 DecodeError::error(
                                     "job::unknown-bias",
                                     kind.span,
-                                    format!("unknown bias kind `{other}`"),
-                                    "expected cathode or fixed",
+                                    Msg::new("diag-unknown-bias").arg("name", other),
+                                    Msg::new("diag-expected-bias"),
                                 )
-                                .with_help(suggestion_help(other, &["cathode", "fixed"])),
+                                .with_help(suggestion(other, &["cathode", "fixed"])),
                             );
                             None
                         }
@@ -562,8 +572,8 @@ fn decode_circuit(node: &KdlNode, r: &mut Reader) -> Circuit {
                         r.push(DecodeError::error(
                             "job::repeated-node",
                             Reader::name_span(child),
-                            "`bias` is given twice",
-                            "repeated here",
+                            Msg::new("diag-given-twice").arg("name", "bias"),
+                            Msg::new("diag-repeated-here"),
                         ));
                     }
                     if let Some(v) = value {
@@ -612,10 +622,10 @@ fn decode_circuit(node: &KdlNode, r: &mut Reader) -> Circuit {
                         DecodeError::warning(
                             "job::implausible",
                             v.span,
-                            format!("a {} sense resistor is unusually large", v.value),
-                            "unusual",
+                            Msg::new("diag-large-sense").arg("value", v.value.to_string()),
+                            Msg::new("diag-unusual"),
                         )
-                        .with_help("sense resistors are usually 1 Ω or 10 Ω"),
+                        .with_help(Msg::new("diag-sense-help")),
                     );
                 }
                 if let (Some(value), Some(valve)) = (value, valve) {
@@ -670,8 +680,8 @@ fn decode_circuit(node: &KdlNode, r: &mut Reader) -> Circuit {
                         r.push(DecodeError::error(
                             "job::repeated-node",
                             name.span,
-                            format!("node {} is declared twice", name.value),
-                            "repeated here",
+                            Msg::new("diag-node-declared-twice").arg("name", name.value.as_str()),
+                            Msg::new("diag-repeated-here"),
                         ));
                     } else {
                         c.nodes.push(NodeSpec {
@@ -739,8 +749,8 @@ fn decode_circuit(node: &KdlNode, r: &mut Reader) -> Circuit {
                     r.push(DecodeError::error(
                         "job::repeated-node",
                         Reader::name_span(child),
-                        "`high-voltage-winding` is given twice",
-                        "repeated here",
+                        Msg::new("diag-given-twice").arg("name", "high-voltage-winding"),
+                        Msg::new("diag-repeated-here"),
                     ));
                 }
                 if let (Some(rms), Some(primary)) = (rms, primary) {
@@ -765,8 +775,8 @@ fn decode_circuit(node: &KdlNode, r: &mut Reader) -> Circuit {
                     r.push(DecodeError::error(
                         "job::repeated-node",
                         Reader::name_span(child),
-                        "`rectifier` is given twice",
-                        "repeated here",
+                        Msg::new("diag-given-twice").arg("name", "rectifier"),
+                        Msg::new("diag-repeated-here"),
                     ));
                 }
                 if let Some(what) = what {
@@ -808,7 +818,7 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
     let mut bias_controls = Vec::new();
     let mut bench = BenchTests::default();
     let mut suggest_cathode_resistor = false;
-    for child in r.children(node.children(), SET_NODES, "a measurement set") {
+    for child in r.children(node.children(), SET_NODES, Msg::new("diag-in-set")) {
         match child.name().value() {
             "circuit" => {
                 circuit_changes = decode_circuit(child, r);
@@ -841,10 +851,12 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
                             DecodeError::error(
                                 "job::missing",
                                 Reader::name_span(child),
-                                "`node` needs the voltage read",
-                                "voltage missing",
+                                Msg::new("diag-needs-voltage").arg("name", "node"),
+                                Msg::new("diag-voltage-missing"),
                             )
-                            .with_help("for example: node B+1 \"352V\""),
+                            .with_help(
+                                Msg::new("diag-for-example").arg("example", "node B+1 \"352V\""),
+                            ),
                         );
                         None
                     }
@@ -856,8 +868,8 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
                         r.push(DecodeError::error(
                             "job::repeated-reading",
                             name.span,
-                            format!("node {} is read twice in this set", name.value),
-                            "repeated here",
+                            Msg::new("diag-node-read-twice").arg("name", name.value.as_str()),
+                            Msg::new("diag-repeated-here"),
                         ));
                         continue;
                     }
@@ -878,11 +890,9 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
                         r.push(DecodeError::error(
                             "job::repeated-reading",
                             t.span,
-                            format!(
-                                "the type of {} is given twice in this set",
-                                reading.position.value
-                            ),
-                            "repeated here",
+                            Msg::new("diag-type-twice")
+                                .arg("position", reading.position.value.as_str()),
+                            Msg::new("diag-repeated-here"),
                         ));
                     } else {
                         valve_types.push(ValveTypeChange {
@@ -895,13 +905,16 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
                     continue;
                 }
                 if !valves_read.insert(reading.position.value.clone()) {
-                    r.push(DecodeError::error(
-                        "job::repeated-reading",
-                        reading.position.span,
-                        format!("valve {} is read twice in this set", reading.position.value),
-                        "repeated here",
-                    )
-                    .with_help("readings at times during a warm-up go in a `warm-up` block with `after=`"));
+                    r.push(
+                        DecodeError::error(
+                            "job::repeated-reading",
+                            reading.position.span,
+                            Msg::new("diag-valve-read-twice")
+                                .arg("position", reading.position.value.as_str()),
+                            Msg::new("diag-repeated-here"),
+                        )
+                        .with_help(Msg::new("diag-warm-up-help")),
+                    );
                     continue;
                 }
                 valves.push(reading);
@@ -917,10 +930,10 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
                             DecodeError::error(
                                 "job::unexpected-type",
                                 t.span,
-                                "a warm-up reading cannot change the valve's type",
-                                "not here",
+                                Msg::new("diag-warm-up-type"),
+                                Msg::new("diag-not-here"),
                             )
-                            .with_help("give the set's type on the set's own `valve` line"),
+                            .with_help(Msg::new("diag-warm-up-type-help")),
                         );
                     }
                     let minutes = match Reader::prop(w, "after") {
@@ -930,11 +943,14 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
                                 DecodeError::error(
                                     "job::missing",
                                     Reader::name_span(w),
-                                    "a warm-up reading needs the time since power-on",
-                                    "time missing",
+                                    Msg::new("diag-warm-up-time"),
+                                    Msg::new("diag-time-missing"),
                                 )
                                 .with_help(
-                                    "for example: valve V3 after=\"5min\" cathode=\"11.2V\"",
+                                    Msg::new("diag-for-example").arg(
+                                        "example",
+                                        "valve V3 after=\"5min\" cathode=\"11.2V\"",
+                                    ),
                                 ),
                             );
                             None
@@ -944,8 +960,8 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
                         r.push(DecodeError::error(
                             "job::missing",
                             Reader::name_span(w),
-                            "a warm-up reading needs something read (cathode, sense, primary-drop or current)",
-                            "nothing read",
+                            Msg::new("diag-warm-up-nothing"),
+                            Msg::new("diag-nothing-read"),
                         ));
                         continue;
                     }
@@ -956,11 +972,9 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
                             r.push(DecodeError::error(
                                 "job::repeated-reading",
                                 minutes.span,
-                                format!(
-                                    "{} is read twice at the same time",
-                                    reading.position.value
-                                ),
-                                "repeated here",
+                                Msg::new("diag-read-twice-same-time")
+                                    .arg("position", reading.position.value.as_str()),
+                                Msg::new("diag-repeated-here"),
                             ));
                             continue;
                         }
@@ -993,10 +1007,12 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
                             DecodeError::error(
                                 "job::missing",
                                 Reader::name_span(child),
-                                "`heater` needs the voltage read",
-                                "voltage missing",
+                                Msg::new("diag-needs-voltage").arg("name", "heater"),
+                                Msg::new("diag-voltage-missing"),
                             )
-                            .with_help("for example: heater \"6.4V\""),
+                            .with_help(
+                                Msg::new("diag-for-example").arg("example", "heater \"6.4V\""),
+                            ),
                         );
                         None
                     }
@@ -1079,8 +1095,15 @@ fn decode_valve_reading(
             "probe" => Some(CurrentMethod::Probe),
             "shunt" => Some(CurrentMethod::Shunt),
             other => {
-                r.push(DecodeError::error("job::unknown-method", m.span, format!("unknown current method `{other}`"), "expected probe or shunt")
-                        .with_help("probe: a bias probe under the valve (cathode current); shunt: an ammeter across half the primary (plate current)"));
+                r.push(
+                    DecodeError::error(
+                        "job::unknown-method",
+                        m.span,
+                        Msg::new("diag-unknown-method").arg("name", other),
+                        Msg::new("diag-expected-method"),
+                    )
+                    .with_help(Msg::new("diag-method-help")),
+                );
                 None
             }
         },
@@ -1089,8 +1112,15 @@ fn decode_valve_reading(
     let current = match (current, method) {
         (Some(c), Some(m)) => Some((Spanned::new(Amps(c.value), c.span), m)),
         (Some(c), None) => {
-            r.push(DecodeError::error("job::missing", c.span, "a current read directly needs its method", "method missing")
-                    .with_help("add method=probe (bias probe: cathode current) or method=shunt (shunt across half the primary: plate current)"));
+            r.push(
+                DecodeError::error(
+                    "job::missing",
+                    c.span,
+                    Msg::new("diag-current-needs-method"),
+                    Msg::new("diag-method-missing"),
+                )
+                .with_help(Msg::new("diag-add-method")),
+            );
             None
         }
         (None, Some(_)) => {
@@ -1098,8 +1128,8 @@ fn decode_valve_reading(
                 r.push(DecodeError::error(
                     "job::missing",
                     r.value_span(e),
-                    "`method` is given without a `current`",
-                    "no current to go with it",
+                    Msg::new("diag-method-without-current"),
+                    Msg::new("diag-no-current"),
                 ));
             }
             None
@@ -1494,7 +1524,7 @@ fn limit_or_default(
         return None;
     }
     let q = r.opt_prop_quantity(node, key, kind);
-    r.positive(q, &format!("`{key}`"), false).map(|q| q.value)
+    r.positive(q, format!("`{key}`"), false).map(|q| q.value)
 }
 
 /// The `accepted` block: findings the technician has judged and accepted,
@@ -1671,7 +1701,7 @@ fn remark(node: &KdlNode, r: &mut Reader) -> Option<Remark> {
     r.check_entries(node, &["private"], 1);
     r.no_children(node);
     let name = node.name().value();
-    let text = r.req_arg_string(node, &format!("`{name}`"), &format!("{name} \"…\""))?;
+    let text = r.req_arg_string(node, format!("`{name}`"), &format!("{name} \"…\""))?;
     let private = r.opt_prop_bool(node, "private").unwrap_or(false);
     Some(Remark {
         text: text.value,
@@ -1746,7 +1776,7 @@ pub(crate) fn decode_settings(
             }
             continue;
         }
-        let Some(p) = r.quantity(entry, Q::Percent, &format!("`{name}`")) else {
+        let Some(p) = r.quantity(entry, Q::Percent, format!("`{name}`")) else {
             continue;
         };
         if !(0.0..=200.0).contains(&p.value) {

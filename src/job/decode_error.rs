@@ -5,6 +5,55 @@
 use miette::{Diagnostic, LabeledSpan, Severity, SourceSpan};
 use std::fmt;
 
+use crate::catalogue::{Catalogue, Msg};
+
+/// Words of a diagnostic as they are made: a message of the catalogue by
+/// key (said in the reader's language when shown), or plain text the
+/// program has no message for (a parser's own words).
+#[derive(Debug, Clone)]
+pub enum Text {
+    Plain(String),
+    Said(Msg),
+}
+
+impl Text {
+    fn english(self) -> (String, Option<Msg>) {
+        match self {
+            Text::Plain(s) => (s, None),
+            Text::Said(m) => (m.english(), Some(m)),
+        }
+    }
+}
+
+impl From<&str> for Text {
+    fn from(s: &str) -> Self {
+        Text::Plain(s.to_owned())
+    }
+}
+impl From<String> for Text {
+    fn from(s: String) -> Self {
+        Text::Plain(s)
+    }
+}
+impl From<&String> for Text {
+    fn from(s: &String) -> Self {
+        Text::Plain(s.clone())
+    }
+}
+impl From<Msg> for Text {
+    fn from(m: Msg) -> Self {
+        Text::Said(m)
+    }
+}
+
+/// The catalogue messages behind a problem's words, where it has them.
+#[derive(Debug, Clone, Default)]
+pub struct Keyed {
+    pub message: Option<Msg>,
+    pub label: Option<Msg>,
+    pub help: Option<Msg>,
+}
+
 /// One problem in a job file.
 #[derive(Debug, Clone)]
 pub struct DecodeError {
@@ -19,31 +68,45 @@ pub struct DecodeError {
     /// The kind of file the problem is in, when not a job file ("shop"):
     /// it replaces the `job` part of the code shown.
     pub file_kind: Option<&'static str>,
+    /// The messages `message`, `label` and `help` were said from, in
+    /// English; [`DecodeError::localize`] says them again in another
+    /// language.
+    pub keyed: Option<Box<Keyed>>,
 }
 
 impl DecodeError {
     pub fn error(
         code: &'static str,
         span: SourceSpan,
-        message: impl Into<String>,
-        label: impl Into<String>,
+        message: impl Into<Text>,
+        label: impl Into<Text>,
     ) -> Self {
+        let (message, message_key) = message.into().english();
+        let (label, label_key) = label.into().english();
+        let keyed = (message_key.is_some() || label_key.is_some()).then(|| {
+            Box::new(Keyed {
+                message: message_key,
+                label: label_key,
+                help: None,
+            })
+        });
         DecodeError {
             code,
-            message: message.into(),
+            message,
             span,
-            label: label.into(),
+            label,
             help: None,
             severity: Severity::Error,
             file_kind: None,
+            keyed,
         }
     }
 
     pub fn warning(
         code: &'static str,
         span: SourceSpan,
-        message: impl Into<String>,
-        label: impl Into<String>,
+        message: impl Into<Text>,
+        label: impl Into<Text>,
     ) -> Self {
         DecodeError {
             severity: Severity::Warning,
@@ -51,9 +114,35 @@ impl DecodeError {
         }
     }
 
-    pub fn with_help(mut self, help: impl Into<String>) -> Self {
-        self.help = Some(help.into());
+    pub fn with_help(mut self, help: impl Into<Text>) -> Self {
+        let (help, help_key) = help.into().english();
+        self.help = Some(help);
+        match (&mut self.keyed, help_key) {
+            (Some(keyed), key) => keyed.help = key,
+            (None, Some(key)) => {
+                self.keyed = Some(Box::new(Keyed {
+                    help: Some(key),
+                    ..Keyed::default()
+                }))
+            }
+            (None, None) => {}
+        }
         self
+    }
+
+    /// Says the problem's words again from `catalogue`, where they came
+    /// from the catalogue; plain words stay as they are.
+    pub fn localize(&mut self, catalogue: &Catalogue) {
+        let Some(keyed) = &self.keyed else { return };
+        if let Some(m) = &keyed.message {
+            self.message = catalogue.say(m);
+        }
+        if let Some(m) = &keyed.label {
+            self.label = catalogue.say(m);
+        }
+        if let Some(m) = &keyed.help {
+            self.help = Some(catalogue.say(m));
+        }
     }
 
     /// The same problem, found in another kind of file than a job file
@@ -116,9 +205,37 @@ pub struct JobDiagnostics {
     pub problems: Vec<DecodeError>,
     /// The line counting problems past the first few, made when drawn.
     pub not_shown: std::sync::OnceLock<crate::problem_cap::NotShown>,
+    /// The language the report's own lines are said in (English until
+    /// [`JobDiagnostics::localize`]).
+    pub catalogue: Catalogue,
 }
 
 impl JobDiagnostics {
+    /// The problems of the file read as `source`, said in English.
+    pub fn new(source: crate::problem_cap::ClippedSource, problems: Vec<DecodeError>) -> Self {
+        JobDiagnostics {
+            source,
+            problems,
+            not_shown: Default::default(),
+            catalogue: Catalogue::english().clone(),
+        }
+    }
+
+    /// The same problems said in `catalogue`'s language.
+    pub fn localize(&mut self, catalogue: &Catalogue) {
+        for p in &mut self.problems {
+            p.localize(catalogue);
+        }
+        self.not_shown = Default::default();
+        self.catalogue = catalogue.clone();
+    }
+
+    /// [`JobDiagnostics::localize`], by value.
+    pub fn localized(mut self, catalogue: &Catalogue) -> Self {
+        self.localize(catalogue);
+        self
+    }
+
     pub fn errors(&self) -> impl Iterator<Item = &DecodeError> {
         self.problems.iter().filter(|p| p.is_error())
     }
@@ -161,25 +278,23 @@ impl fmt::Display for JobDiagnostics {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         let errors = self.error_count();
         let warnings = self.problems.len() - errors;
-        let name = self.source.name();
         let file = if self.problems.iter().any(|p| p.file_kind == Some("shop")) {
-            "shop profile"
+            "shop"
         } else {
-            "job file"
+            "job"
         };
-        match (errors, warnings) {
-            (0, 1) => write!(f, "{name}: 1 warning"),
-            (0, w) => write!(f, "{name}: {w} warnings"),
-            (1, 0) => write!(f, "{name}: 1 problem stops this {file} from being read"),
-            (e, 0) => write!(f, "{name}: {e} problems stop this {file} from being read"),
-            (e, w) => write!(
-                f,
-                "{name}: {e} problem{} stop{} this {file} from being read ({w} warning{} too)",
-                if e == 1 { "" } else { "s" },
-                if e == 1 { "s" } else { "" },
-                if w == 1 { "" } else { "s" }
-            ),
-        }
+        let msg = match (errors, warnings) {
+            (0, w) => Msg::new("diag-file-warnings").arg("warnings", w),
+            (e, 0) => Msg::new("diag-file-refused")
+                .arg("errors", e)
+                .arg("file", file),
+            (e, w) => Msg::new("diag-file-refused-warnings")
+                .arg("errors", e)
+                .arg("warnings", w)
+                .arg("file", file),
+        };
+        let msg = msg.arg("name", self.source.name());
+        f.write_str(&self.catalogue.say(&msg))
     }
 }
 
@@ -197,7 +312,11 @@ impl Diagnostic for JobDiagnostics {
         })
     }
     fn related<'a>(&'a self) -> Option<Box<dyn Iterator<Item = &'a dyn Diagnostic> + 'a>> {
-        Some(crate::problem_cap::shown(&self.problems, &self.not_shown))
+        Some(crate::problem_cap::shown(
+            &self.problems,
+            &self.not_shown,
+            &self.catalogue,
+        ))
     }
 }
 
@@ -218,16 +337,25 @@ pub fn did_you_mean<'a>(name: &str, known: impl IntoIterator<Item = &'a str>) ->
     scored.into_iter().take(3).map(|(_, k)| k).collect()
 }
 
-/// "did you mean `a` or `b`?" or a list of every allowed name.
+/// "did you mean `a` or `b`?" or a list of every allowed name, in
+/// English.
 pub fn suggestion_help(name: &str, known: &[&str]) -> String {
+    suggestion(name, known).english()
+}
+
+/// "did you mean `a` or `b`?" or a list of every allowed name, as a
+/// message to be said in the reader's language.
+pub fn suggestion(name: &str, known: &[&str]) -> Msg {
     let near = did_you_mean(name, known.iter().copied());
     match near.as_slice() {
-        [] => format!("allowed here: {}", known.join(", ")),
-        [one] => format!("did you mean `{one}`?"),
+        [] => Msg::new("diag-allowed-here").arg("names", known.join(", ")),
+        [one] => Msg::new("diag-did-you-mean").arg("name", *one),
         many => {
             let (last, rest) = many.split_last().unwrap_or((&"", &[]));
             let rest: Vec<String> = rest.iter().map(|n| format!("`{n}`")).collect();
-            format!("did you mean {} or `{last}`?", rest.join(", "))
+            Msg::new("diag-did-you-mean-either")
+                .arg("names", rest.join(", "))
+                .arg("last", *last)
         }
     }
 }

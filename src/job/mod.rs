@@ -9,6 +9,7 @@ mod decode_bench;
 mod decode_error;
 mod model;
 pub mod network;
+pub mod numbering;
 pub(crate) mod reader;
 mod validate;
 mod valve_types;
@@ -26,6 +27,8 @@ pub use decode_bench::{BENCH_NODES, DEFAULT_FREQUENCY};
 pub use decode_error::{DecodeError, JobDiagnostics, did_you_mean, line_column, suggestion_help};
 pub use model::*;
 
+use crate::catalogue::{Arg, Msg};
+use decode_error::Text;
 use miette::{NamedSource, SourceSpan};
 use std::sync::Arc;
 
@@ -96,11 +99,7 @@ fn decode_inner(
         }
     };
     problems.sort_by_key(|p| p.span.offset());
-    let diagnostics = JobDiagnostics {
-        source,
-        problems,
-        not_shown: Default::default(),
-    };
+    let diagnostics = JobDiagnostics::new(source, problems);
     match job {
         Some(job) if !diagnostics.has_errors() => Ok(Decoded { job, diagnostics }),
         _ => {
@@ -110,8 +109,8 @@ fn decode_inner(
                 diagnostics.problems.push(DecodeError::error(
                     "job::incomplete",
                     SourceSpan::new(0.into(), 0),
-                    "the job file is incomplete",
-                    "here",
+                    Msg::new("diag-incomplete").arg("file", "job"),
+                    Msg::new("diag-here"),
                 ));
             }
             Err(diagnostics)
@@ -136,24 +135,39 @@ pub(crate) fn syntax_problems(text: &str, e: &kdl::KdlError) -> Vec<DecodeError>
             DecodeError::error(
                 "job::syntax",
                 span,
-                format!("KDL syntax: `{value}` is not a number, so it must be written in quotes"),
-                "needs quotes",
+                Msg::new("diag-bare-value").arg("value", value),
+                Msg::new("diag-needs-quotes"),
             )
-            .with_help(format!("write \"{value}\": a value with a unit, or a name that starts with a digit, is text in double quotes"))
+            .with_help(Msg::new("diag-bare-value-help").arg("value", value))
         })
         .collect();
-    out.extend(e.diagnostics.iter().filter(|d| !covers_bare(&d.span)).map(|d| {
-        let message = d.message.clone().unwrap_or_else(|| "the KDL syntax is broken here".to_string());
-        let mut p = DecodeError::error(
-            "job::syntax",
-            crate::kdl_fast::narrow_span(text, d.span),
-            format!("KDL syntax: {message}"),
-            d.label.clone().unwrap_or_else(|| "here".to_string()),
-        );
-        p.help = Some(d.help.clone().unwrap_or_else(|| {
-            "job files are KDL 2.0: text in double quotes, booleans as #true/#false, one node per line".to_string()
-        }));
-        p
-    }));
+    out.extend(
+        e.diagnostics
+            .iter()
+            .filter(|d| !covers_bare(&d.span))
+            .map(|d| {
+                // The parser's own words stay as it gives them; the program's are
+                // the catalogue's.
+                let problem: Arg = match &d.message {
+                    Some(m) => m.as_str().into(),
+                    None => Msg::new("diag-kdl-broken").into(),
+                };
+                let label: Text = match &d.label {
+                    Some(l) => l.as_str().into(),
+                    None => Msg::new("diag-here").into(),
+                };
+                let help: Text = match &d.help {
+                    Some(h) => h.as_str().into(),
+                    None => Msg::new("diag-kdl-help").into(),
+                };
+                DecodeError::error(
+                    "job::syntax",
+                    crate::kdl_fast::narrow_span(text, d.span),
+                    Msg::new("diag-kdl-syntax").arg("problem", problem),
+                    label,
+                )
+                .with_help(help)
+            }),
+    );
     out
 }

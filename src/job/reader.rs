@@ -6,8 +6,9 @@ use chrono::NaiveDate;
 use kdl::{KdlDocument, KdlEntry, KdlNode, KdlValue};
 use miette::SourceSpan;
 
-use super::decode_error::{DecodeError, suggestion_help};
+use super::decode_error::{DecodeError, suggestion};
 use super::model::Spanned;
+use crate::catalogue::{Arg, Msg};
 use crate::units::{QuantityKind, UnitProblem, parse_quantity};
 
 /// Collects problems while a job file is read.
@@ -31,11 +32,11 @@ impl<'s> Reader<'s> {
     /// A did-you-mean for the first problems only: past the few that are
     /// printed, working out suggestions for a flood of unknown names would
     /// only cost time.
-    pub fn suggest(&self, name: &str, allowed: &[&str]) -> String {
+    pub fn suggest(&self, name: &str, allowed: &[&str]) -> Msg {
         if self.problems.len() < 4 * crate::problem_cap::SHOWN_PROBLEMS {
-            suggestion_help(name, allowed)
+            suggestion(name, allowed)
         } else {
-            format!("allowed here: {}", allowed.join(", "))
+            Msg::new("diag-allowed-here").arg("names", allowed.join(", "))
         }
     }
 
@@ -50,8 +51,9 @@ impl<'s> Reader<'s> {
         &mut self,
         doc: Option<&'d KdlDocument>,
         allowed: &[&str],
-        context: &str,
+        context: impl Into<Arg>,
     ) -> Vec<&'d KdlNode> {
+        let context: Arg = context.into();
         let Some(doc) = doc else { return Vec::new() };
         let mut out = Vec::new();
         for node in doc.nodes() {
@@ -63,8 +65,10 @@ impl<'s> Reader<'s> {
                     DecodeError::error(
                         "job::unknown-node",
                         Self::name_span(node),
-                        format!("unknown node `{name}` in {context}"),
-                        "not a node this format knows here",
+                        Msg::new("diag-unknown-node")
+                            .arg("name", name)
+                            .arg("context", context.clone()),
+                        Msg::new("diag-unknown-node-label"),
                     )
                     .with_help(self.suggest(name, allowed)),
                 );
@@ -84,13 +88,10 @@ impl<'s> Reader<'s> {
                     DecodeError::error(
                         "job::type-annotation",
                         ty.span(),
-                        format!(
-                            "type annotation `({})` is not used in job files",
-                            ty.value()
-                        ),
-                        "remove this",
+                        Msg::new("diag-type-annotation").arg("type", ty.value()),
+                        Msg::new("diag-remove-this"),
                     )
-                    .with_help("write the unit inside the value instead, for example \"352V\""),
+                    .with_help(Msg::new("diag-type-annotation-help")),
                 );
             }
             match entry.name() {
@@ -98,7 +99,7 @@ impl<'s> Reader<'s> {
                     let key = name.value();
                     if !allowed.contains(&key) {
                         let help = if allowed.is_empty() {
-                            format!("`{}` takes no properties", node.name().value())
+                            Msg::new("diag-takes-no-properties").arg("node", node.name().value())
                         } else {
                             self.suggest(key, allowed)
                         };
@@ -106,8 +107,10 @@ impl<'s> Reader<'s> {
                             DecodeError::error(
                                 "job::unknown-property",
                                 name.span(),
-                                format!("unknown property `{key}` on `{}`", node.name().value()),
-                                "not a property of this node",
+                                Msg::new("diag-unknown-property")
+                                    .arg("key", key)
+                                    .arg("node", node.name().value()),
+                                Msg::new("diag-unknown-property-label"),
                             )
                             .with_help(help),
                         );
@@ -115,11 +118,10 @@ impl<'s> Reader<'s> {
                         self.push(DecodeError::error(
                             "job::repeated-property",
                             name.span(),
-                            format!(
-                                "property `{key}` is given twice on `{}`",
-                                node.name().value()
-                            ),
-                            "repeated here",
+                            Msg::new("diag-repeated-property")
+                                .arg("key", key)
+                                .arg("node", node.name().value()),
+                            Msg::new("diag-repeated-here"),
                         ));
                     } else {
                         seen.push(key);
@@ -129,23 +131,18 @@ impl<'s> Reader<'s> {
                     args += 1;
                     if args > max_args {
                         let help = if max_args == 0 {
-                            format!(
-                                "`{}` takes no plain values; use its properties",
-                                node.name().value()
-                            )
+                            Msg::new("diag-takes-no-values").arg("node", node.name().value())
                         } else {
-                            format!(
-                                "`{}` takes {max_args} plain value{}",
-                                node.name().value(),
-                                if max_args == 1 { "" } else { "s" }
-                            )
+                            Msg::new("diag-takes-values")
+                                .arg("node", node.name().value())
+                                .arg("count", max_args)
                         };
                         self.push(
                             DecodeError::error(
                                 "job::extra-value",
                                 entry.span(),
-                                format!("unexpected value on `{}`", node.name().value()),
-                                "not expected here",
+                                Msg::new("diag-extra-value").arg("node", node.name().value()),
+                                Msg::new("diag-not-expected-here"),
                             )
                             .with_help(help),
                         );
@@ -163,8 +160,8 @@ impl<'s> Reader<'s> {
             self.push(DecodeError::error(
                 "job::unexpected-children",
                 Self::name_span(first),
-                format!("`{}` takes no child nodes", node.name().value()),
-                "not expected here",
+                Msg::new("diag-no-children").arg("node", node.name().value()),
+                Msg::new("diag-not-expected-here"),
             ));
         }
     }
@@ -182,15 +179,17 @@ impl<'s> Reader<'s> {
             .find(|e| e.name().is_some_and(|n| n.value() == key))
     }
 
-    fn missing(&mut self, node: &KdlNode, what: &str, example: &str) {
+    fn missing(&mut self, node: &KdlNode, what: Arg, example: &str) {
         self.push(
             DecodeError::error(
                 "job::missing",
                 Self::name_span(node),
-                format!("`{}` needs {what}", node.name().value()),
-                format!("{what} missing"),
+                Msg::new("diag-missing")
+                    .arg("node", node.name().value())
+                    .arg("what", what.clone()),
+                Msg::new("diag-missing-label").arg("what", what),
             )
-            .with_help(format!("for example: {example}")),
+            .with_help(Msg::new("diag-for-example").arg("example", example)),
         );
     }
 
@@ -230,7 +229,7 @@ impl<'s> Reader<'s> {
 
     // ----- value readers -------------------------------------------------
 
-    pub fn string(&mut self, entry: &KdlEntry, what: &str) -> Option<Spanned<String>> {
+    pub fn string(&mut self, entry: &KdlEntry, what: impl Into<Arg>) -> Option<Spanned<String>> {
         match entry.value() {
             KdlValue::String(s) => Some(Spanned::new(s.clone(), self.value_span(entry))),
             other => {
@@ -239,13 +238,12 @@ impl<'s> Reader<'s> {
                     DecodeError::error(
                         "job::expected-text",
                         span,
-                        format!("{what} must be text, found {}", describe(other)),
-                        "expected text in quotes",
+                        Msg::new("diag-expected-text")
+                            .arg("what", what)
+                            .arg("found", describe(other)),
+                        Msg::new("diag-expected-text-label"),
                     )
-                    .with_help(format!(
-                        "write it in double quotes, for example \"{}\"",
-                        plain(other)
-                    )),
+                    .with_help(Msg::new("diag-expected-text-help").arg("example", plain(other))),
                 );
                 None
             }
@@ -254,7 +252,7 @@ impl<'s> Reader<'s> {
 
     /// A name such as a valve position (V1) or node (B+1): text, or a
     /// number that is read as text.
-    pub fn name(&mut self, entry: &KdlEntry, what: &str) -> Option<Spanned<String>> {
+    pub fn name(&mut self, entry: &KdlEntry, what: impl Into<Arg>) -> Option<Spanned<String>> {
         match entry.value() {
             KdlValue::String(s) if !s.trim().is_empty() => {
                 Some(Spanned::new(s.trim().to_string(), self.value_span(entry)))
@@ -264,18 +262,17 @@ impl<'s> Reader<'s> {
                 self.push(DecodeError::error(
                     "job::expected-name",
                     self.value_span(entry),
-                    format!(
-                        "{what} must be a name such as V1 or B+1, found {}",
-                        describe(other)
-                    ),
-                    "expected a name",
+                    Msg::new("diag-expected-name")
+                        .arg("what", what)
+                        .arg("found", describe(other)),
+                    Msg::new("diag-expected-name-label"),
                 ));
                 None
             }
         }
     }
 
-    pub fn bool(&mut self, entry: &KdlEntry, what: &str) -> Option<bool> {
+    pub fn bool(&mut self, entry: &KdlEntry, what: impl Into<Arg>) -> Option<bool> {
         match entry.value() {
             KdlValue::Bool(b) => Some(*b),
             other => {
@@ -283,10 +280,12 @@ impl<'s> Reader<'s> {
                     DecodeError::error(
                         "job::expected-bool",
                         self.value_span(entry),
-                        format!("{what} must be #true or #false, found {}", describe(other)),
-                        "expected #true or #false",
+                        Msg::new("diag-expected-bool")
+                            .arg("what", what)
+                            .arg("found", describe(other)),
+                        Msg::new("diag-expected-bool-label"),
                     )
-                    .with_help("KDL 2 writes booleans as #true and #false"),
+                    .with_help(Msg::new("diag-expected-bool-help")),
                 );
                 None
             }
@@ -296,7 +295,7 @@ impl<'s> Reader<'s> {
     pub fn integer(
         &mut self,
         entry: &KdlEntry,
-        what: &str,
+        what: impl Into<Arg>,
         range: std::ops::RangeInclusive<i64>,
     ) -> Option<i64> {
         let value = match entry.value() {
@@ -310,12 +309,11 @@ impl<'s> Reader<'s> {
                 self.push(DecodeError::error(
                     "job::expected-integer",
                     self.value_span(entry),
-                    format!(
-                        "{what} must be a whole number from {} to {}",
-                        range.start(),
-                        range.end()
-                    ),
-                    "expected a whole number",
+                    Msg::new("diag-expected-integer")
+                        .arg("what", what)
+                        .arg("low", range.start().to_string())
+                        .arg("high", range.end().to_string()),
+                    Msg::new("diag-expected-integer-label"),
                 ));
                 None
             }
@@ -328,8 +326,9 @@ impl<'s> Reader<'s> {
         &mut self,
         entry: &KdlEntry,
         kind: QuantityKind,
-        what: &str,
+        what: impl Into<Arg>,
     ) -> Option<Spanned<f64>> {
+        let what: Arg = what.into();
         let span = self.value_span(entry);
         let value = match entry.value() {
             KdlValue::Integer(i) => Ok(*i as f64),
@@ -337,48 +336,57 @@ impl<'s> Reader<'s> {
             KdlValue::String(s) => parse_quantity(s, kind).map_err(|e| {
                 // Point inside the quotes at the offending part.
                 let at = self.part_span(span, s, e.offset, e.len);
-                let label = match &e.problem {
-                    UnitProblem::WrongUnit { expected, .. } => {
-                        format!("expected {}", expected.noun())
-                    }
-                    _ => format!("expected {}", kind.noun()),
+                let expected = match &e.problem {
+                    UnitProblem::WrongUnit { expected, .. } => *expected,
+                    _ => kind,
                 };
-                (at, e.to_string(), label)
+                (
+                    at,
+                    Msg::new("diag-bad-value")
+                        .arg("what", what.clone())
+                        .arg("problem", e.msg()),
+                    Msg::new("diag-expected").arg("what", expected.noun_msg()),
+                )
             }),
             other => Err((
                 span,
-                format!("{what} must be {}, found {}", kind.noun(), describe(other)),
-                format!("expected {}", kind.noun()),
+                Msg::new("diag-must-be-kind")
+                    .arg("what", what.clone())
+                    .arg("kind", kind.noun_msg())
+                    .arg("found", describe(other)),
+                Msg::new("diag-expected").arg("what", kind.noun_msg()),
             )),
         };
         match value {
             Ok(v) if !kind.accepts(v) => {
-                let written = self
-                    .source
-                    .get(span.offset()..span.offset() + span.len())
-                    .unwrap_or("this value");
+                let written: Arg = match self.source.get(span.offset()..span.offset() + span.len())
+                {
+                    Some(w) => w.into(),
+                    None => Msg::new("diag-this-value").into(),
+                };
                 self.push(
                     DecodeError::error(
                         "job::out-of-range",
                         span,
-                        format!(
-                            "{what}: {written} is outside the range accepted for {} ({})",
-                            kind.noun(),
-                            kind.range_words()
-                        ),
-                        format!("expected {}", kind.range_words()),
+                        Msg::new("diag-out-of-range-kind")
+                            .arg("what", what)
+                            .arg("written", written)
+                            .arg("kind", kind.noun_msg())
+                            .arg("range", kind.range_msg()),
+                        Msg::new("diag-expected").arg("what", kind.range_msg()),
                     )
-                    .with_help(
-                        "no reading or part has this value; check the prefix and the exponent",
-                    ),
+                    .with_help(Msg::new("diag-out-of-range-help")),
                 );
                 None
             }
             Ok(v) => Some(Spanned::new(v, span)),
             Err((at, message, label)) => {
                 self.push(
-                    DecodeError::error("job::bad-value", at, format!("{what}: {message}"), label)
-                        .with_help(format!("write {} as {}", kind.noun(), kind.example())),
+                    DecodeError::error("job::bad-value", at, message, label).with_help(
+                        Msg::new("diag-write-kind-as")
+                            .arg("kind", kind.noun_msg())
+                            .arg("example", kind.example()),
+                    ),
                 );
                 None
             }
@@ -387,7 +395,7 @@ impl<'s> Reader<'s> {
 
     /// A time since power-on in minutes: a plain number of minutes, or text
     /// with a unit, `"30s"`, `"5min"`, `"1.5h"`.
-    pub fn minutes(&mut self, entry: &KdlEntry, what: &str) -> Option<Spanned<f64>> {
+    pub fn minutes(&mut self, entry: &KdlEntry, what: impl Into<Arg>) -> Option<Spanned<f64>> {
         let span = self.value_span(entry);
         let value = match entry.value() {
             KdlValue::Integer(i) => Some(*i as f64),
@@ -418,17 +426,18 @@ impl<'s> Reader<'s> {
                     DecodeError::error(
                         "job::bad-time",
                         span,
-                        format!("{what} must be a time since power-on, up to a day"),
-                        "expected a time such as \"5min\"",
+                        Msg::new("diag-bad-time").arg("what", what),
+                        Msg::new("diag-bad-time-label"),
                     )
-                    .with_help("write minutes as a number (5), or text with s, min or h: \"30s\", \"5min\", \"1.5h\""),
+                    .with_help(Msg::new("diag-bad-time-help")),
                 );
                 None
             }
         }
     }
 
-    pub fn date(&mut self, entry: &KdlEntry, what: &str) -> Option<Spanned<NaiveDate>> {
+    pub fn date(&mut self, entry: &KdlEntry, what: impl Into<Arg>) -> Option<Spanned<NaiveDate>> {
+        let what: Arg = what.into();
         let span = self.value_span(entry);
         let text = match entry.value() {
             KdlValue::String(s) => s.clone(),
@@ -437,10 +446,12 @@ impl<'s> Reader<'s> {
                     DecodeError::error(
                         "job::bad-date",
                         span,
-                        format!("{what} must be a date in quotes, found {}", describe(other)),
-                        "expected \"YYYY-MM-DD\"",
+                        Msg::new("diag-date-not-text")
+                            .arg("what", what)
+                            .arg("found", describe(other)),
+                        Msg::new("diag-date-label"),
                     )
-                    .with_help("write dates as ISO 8601 text, for example \"2026-11-02\""),
+                    .with_help(Msg::new("diag-date-help")),
                 );
                 return None;
             }
@@ -452,12 +463,13 @@ impl<'s> Reader<'s> {
                     DecodeError::error(
                         "job::bad-date",
                         span,
-                        format!("{what} \"{text}\" is not a valid date ({e})"),
-                        "expected \"YYYY-MM-DD\"",
+                        Msg::new("diag-bad-date")
+                            .arg("what", what)
+                            .arg("text", text)
+                            .arg("error", e.to_string()),
+                        Msg::new("diag-date-label"),
                     )
-                    .with_help(
-                        "write dates as ISO 8601 year-month-day, for example \"2026-11-02\"",
-                    ),
+                    .with_help(Msg::new("diag-bad-date-help")),
                 );
                 None
             }
@@ -471,7 +483,7 @@ impl<'s> Reader<'s> {
         &mut self,
         node: &KdlNode,
         entry: Option<&KdlEntry>,
-        what: &str,
+        what: Arg,
         example: &str,
         read: impl FnOnce(&mut Self, &KdlEntry) -> Option<T>,
     ) -> Option<T> {
@@ -487,10 +499,11 @@ impl<'s> Reader<'s> {
     pub fn req_arg_string(
         &mut self,
         node: &KdlNode,
-        what: &str,
+        what: impl Into<Arg>,
         example: &str,
     ) -> Option<Spanned<String>> {
-        self.required(node, Self::arg(node, 0), what, example, |r, e| {
+        let what: Arg = what.into();
+        self.required(node, Self::arg(node, 0), what.clone(), example, |r, e| {
             r.string(e, what)
         })
     }
@@ -498,10 +511,11 @@ impl<'s> Reader<'s> {
     pub fn req_arg_name(
         &mut self,
         node: &KdlNode,
-        what: &str,
+        what: impl Into<Arg>,
         example: &str,
     ) -> Option<Spanned<String>> {
-        self.required(node, Self::arg(node, 0), what, example, |r, e| {
+        let what: Arg = what.into();
+        self.required(node, Self::arg(node, 0), what.clone(), example, |r, e| {
             r.name(e, what)
         })
     }
@@ -512,15 +526,15 @@ impl<'s> Reader<'s> {
         key: &str,
         example: &str,
     ) -> Option<Spanned<String>> {
-        let what = format!("a `{key}` property");
-        self.required(node, Self::prop(node, key), &what, example, |r, e| {
-            r.string(e, &format!("`{key}`"))
+        let what = Msg::new("diag-a-property").arg("key", key).into();
+        self.required(node, Self::prop(node, key), what, example, |r, e| {
+            r.string(e, format!("`{key}`"))
         })
     }
 
     pub fn opt_prop_string(&mut self, node: &KdlNode, key: &str) -> Option<String> {
         Self::prop(node, key)
-            .and_then(|e| self.string(e, &format!("`{key}`")))
+            .and_then(|e| self.string(e, format!("`{key}`")))
             .map(|s| s.value)
     }
 
@@ -530,9 +544,9 @@ impl<'s> Reader<'s> {
         key: &str,
         example: &str,
     ) -> Option<Spanned<String>> {
-        let what = format!("a `{key}` property");
-        self.required(node, Self::prop(node, key), &what, example, |r, e| {
-            r.name(e, &format!("`{key}`"))
+        let what = Msg::new("diag-a-property").arg("key", key).into();
+        self.required(node, Self::prop(node, key), what, example, |r, e| {
+            r.name(e, format!("`{key}`"))
         })
     }
 
@@ -543,9 +557,9 @@ impl<'s> Reader<'s> {
         kind: QuantityKind,
         example: &str,
     ) -> Option<Spanned<f64>> {
-        let what = format!("a `{key}` property");
-        self.required(node, Self::prop(node, key), &what, example, |r, e| {
-            r.quantity(e, kind, &format!("`{key}`"))
+        let what = Msg::new("diag-a-property").arg("key", key).into();
+        self.required(node, Self::prop(node, key), what, example, |r, e| {
+            r.quantity(e, kind, format!("`{key}`"))
         })
     }
 
@@ -555,15 +569,15 @@ impl<'s> Reader<'s> {
         key: &str,
         kind: QuantityKind,
     ) -> Option<Spanned<f64>> {
-        Self::prop(node, key).and_then(|e| self.quantity(e, kind, &format!("`{key}`")))
+        Self::prop(node, key).and_then(|e| self.quantity(e, kind, format!("`{key}`")))
     }
 
     pub fn opt_prop_bool(&mut self, node: &KdlNode, key: &str) -> Option<bool> {
-        Self::prop(node, key).and_then(|e| self.bool(e, &format!("`{key}`")))
+        Self::prop(node, key).and_then(|e| self.bool(e, format!("`{key}`")))
     }
 
     pub fn opt_prop_date(&mut self, node: &KdlNode, key: &str) -> Option<Spanned<NaiveDate>> {
-        Self::prop(node, key).and_then(|e| self.date(e, &format!("`{key}`")))
+        Self::prop(node, key).and_then(|e| self.date(e, format!("`{key}`")))
     }
 
     /// Rejects a value outside `lo..=hi`, a narrower range than its kind's
@@ -571,23 +585,26 @@ impl<'s> Reader<'s> {
     pub fn within(
         &mut self,
         v: Option<Spanned<f64>>,
-        what: &str,
+        what: impl Into<Arg>,
         (lo, hi): (f64, f64),
-        words: &str,
-        why: &str,
+        words: impl Into<Arg>,
+        why: impl Into<super::decode_error::Text>,
     ) -> Option<Spanned<f64>> {
         let v = v?;
         if (lo..=hi).contains(&v.value) {
             return Some(v);
         }
+        let words: Arg = words.into();
         self.push(
             DecodeError::error(
                 "job::out-of-range",
                 v.span,
-                format!("{what} must be from {words}"),
-                format!("expected {words}"),
+                Msg::new("diag-must-be-from")
+                    .arg("what", what)
+                    .arg("range", words.clone()),
+                Msg::new("diag-expected").arg("what", words),
             )
-            .with_help(why.to_string()),
+            .with_help(why),
         );
         None
     }
@@ -596,7 +613,7 @@ impl<'s> Reader<'s> {
     pub fn positive(
         &mut self,
         v: Option<Spanned<f64>>,
-        what: &str,
+        what: impl Into<Arg>,
         allow_zero: bool,
     ) -> Option<Spanned<f64>> {
         let v = v?;
@@ -610,17 +627,19 @@ impl<'s> Reader<'s> {
                 DecodeError::error(
                     "job::impossible-value",
                     v.span,
-                    format!(
-                        "{what} cannot be {}",
-                        if v.value < 0.0 { "negative" } else { "zero" }
-                    ),
-                    if allow_zero {
-                        "expected zero or more"
+                    Msg::new(if v.value < 0.0 {
+                        "diag-cannot-be-negative"
                     } else {
-                        "expected more than zero"
-                    },
+                        "diag-cannot-be-zero"
+                    })
+                    .arg("what", what),
+                    Msg::new(if allow_zero {
+                        "diag-zero-or-more"
+                    } else {
+                        "diag-more-than-zero"
+                    }),
                 )
-                .with_help("a physical part or supply cannot have this value; check the reading"),
+                .with_help(Msg::new("diag-impossible-help")),
             );
             return None;
         }
@@ -628,13 +647,18 @@ impl<'s> Reader<'s> {
     }
 }
 
-fn describe(v: &KdlValue) -> String {
+/// What a value was, in words: "the text \"x\"", "the number 3", "#true".
+pub(crate) fn describe(v: &KdlValue) -> Arg {
     match v {
-        KdlValue::String(s) => format!("the text \"{s}\""),
-        KdlValue::Integer(i) => format!("the number {i}"),
-        KdlValue::Float(f) => format!("the number {f}"),
-        KdlValue::Bool(b) => format!("#{b}"),
-        KdlValue::Null => "#null".to_string(),
+        KdlValue::String(s) => Msg::new("diag-found-text").arg("text", s.as_str()).into(),
+        KdlValue::Integer(i) => Msg::new("diag-found-number")
+            .arg("number", i.to_string())
+            .into(),
+        KdlValue::Float(f) => Msg::new("diag-found-number")
+            .arg("number", f.to_string())
+            .into(),
+        KdlValue::Bool(b) => format!("#{b}").into(),
+        KdlValue::Null => "#null".into(),
     }
 }
 

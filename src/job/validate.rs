@@ -5,6 +5,7 @@ use std::collections::HashSet;
 
 use super::decode_error::{DecodeError, suggestion_help};
 use super::model::{Job, RectifierKind, Spanned};
+use crate::catalogue::Msg;
 
 /// A did-you-mean for the first problems only: past the few that are
 /// printed, comparing each name with every known one would only cost time.
@@ -166,18 +167,14 @@ pub fn cross_references(job: &Job) -> Vec<DecodeError> {
                 DecodeError::warning(
                     "job::implausible",
                     set.mains.span,
-                    format!(
-                        "mains of {} in \"{}\" is {:.0}% from the nominal {}",
-                        set.mains.value,
-                        set.label,
-                        (ratio - 1.0) * 100.0,
-                        job.mains.nominal.value
-                    ),
-                    "far from nominal",
+                    Msg::new("diag-mains-far")
+                        .arg("mains", set.mains.value.to_string())
+                        .arg("set", set.label.as_str())
+                        .arg("pct", format!("{:.0}", (ratio - 1.0) * 100.0))
+                        .arg("nominal", job.mains.nominal.value.to_string()),
+                    Msg::new("diag-far-from-nominal"),
                 )
-                .with_help(
-                    "check the reading, or whether the unit ran from a variable autotransformer",
-                ),
+                .with_help(Msg::new("diag-mains-far-help")),
             );
         }
     }

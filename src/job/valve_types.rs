@@ -4,6 +4,7 @@
 
 use super::decode_error::DecodeError;
 use super::model::{Job, RectifierKind, Role};
+use crate::catalogue::Msg;
 use crate::ratings::RatingsTable;
 
 pub fn check(job: &Job, ratings: &RatingsTable) -> Vec<DecodeError> {
@@ -27,22 +28,22 @@ pub fn check(job: &Job, ratings: &RatingsTable) -> Vec<DecodeError> {
                     out.push(DecodeError::warning(
                         "job::role-mismatch",
                         v.type_name.span,
-                        format!(
-                            "{} is listed as an output valve, but the ratings table has {} as a {}",
-                            v.position.value, rating.name, rating.class
-                        ),
-                        "unusual role for this type",
+                        Msg::new("diag-output-role-mismatch")
+                            .arg("position", v.position.value.as_str())
+                            .arg("type", rating.name.to_string())
+                            .arg("class", rating.class.to_string()),
+                        Msg::new("diag-unusual-role"),
                     ));
                 }
                 if v.role == Role::Rectifier && !rating.class.is_rectifier() {
                     out.push(DecodeError::error(
                         "job::role-mismatch",
                         v.type_name.span,
-                        format!(
-                            "{} is listed as the rectifier, but {} is a {}",
-                            v.position.value, rating.name, rating.class
-                        ),
-                        "not a rectifier",
+                        Msg::new("diag-rectifier-mismatch")
+                            .arg("position", v.position.value.as_str())
+                            .arg("type", rating.name.to_string())
+                            .arg("class", rating.class.to_string()),
+                        Msg::new("diag-not-a-rectifier"),
                     ));
                 }
             }
@@ -59,11 +60,10 @@ pub fn check(job: &Job, ratings: &RatingsTable) -> Vec<DecodeError> {
                     DecodeError::error(
                         "job::unknown-valve-type",
                         v.type_name.span,
-                        format!(
-                            "unknown valve type \"{}\" at {}",
-                            v.type_name.value, v.position.value
-                        ),
-                        "not in the ratings table",
+                        Msg::new("diag-unknown-valve-type")
+                            .arg("type", v.type_name.value.as_str())
+                            .arg("position", v.position.value.as_str()),
+                        Msg::new("diag-not-in-ratings"),
                     )
                     .with_help(help),
                 );
@@ -102,13 +102,12 @@ pub fn check(job: &Job, ratings: &RatingsTable) -> Vec<DecodeError> {
                 DecodeError::error(
                     "job::not-a-rectifier",
                     pos.span,
-                    format!(
-                        "the rectifier is {} ({}), which is not a rectifier valve",
-                        pos.value, rating.name
-                    ),
-                    "not a rectifier",
+                    Msg::new("diag-rectifier-not-rectifier")
+                        .arg("position", pos.value.as_str())
+                        .arg("type", rating.name.to_string()),
+                    Msg::new("diag-not-a-rectifier"),
                 )
-                .with_help("write `rectifier silicon` for a solid-state rectifier"),
+                .with_help(Msg::new("diag-write-silicon")),
             );
         }
     }

@@ -84,7 +84,11 @@ impl Diagnostic for RatingsFileError {
         Some(&self.source_code)
     }
     fn related<'a>(&'a self) -> Option<Box<dyn Iterator<Item = &'a dyn Diagnostic> + 'a>> {
-        Some(crate::problem_cap::shown(&self.problems, &self.not_shown))
+        Some(crate::problem_cap::shown(
+            &self.problems,
+            &self.not_shown,
+            crate::catalogue::Catalogue::english(),
+        ))
     }
 }
 

@@ -2,8 +2,10 @@
 //! every status comes from [`crate::calc`].
 
 pub mod attention;
+pub mod compare;
 pub mod handover;
 pub mod json;
+pub mod listing;
 pub mod netlist;
 pub mod network_chart;
 pub mod photos;

@@ -3,6 +3,7 @@
 //! `shop.kdl` reads like one in a job file: `file:line:column`, what was
 //! expected, a did-you-mean. Decoding computes nothing and reads no file.
 
+use crate::catalogue::Msg;
 use kdl::{KdlDocument, KdlNode};
 use miette::SourceSpan;
 
@@ -27,6 +28,7 @@ pub const SHOP_TOP_LEVEL: &[&str] = &[
     "charges",
     "warranty",
     "terms",
+    "job-numbers",
     "language",
 ];
 
@@ -35,7 +37,7 @@ pub(crate) fn decode_document(
     source_name: &str,
     r: &mut Reader,
 ) -> Option<ShopProfile> {
-    let nodes = r.children(Some(doc), SHOP_TOP_LEVEL, "the shop profile");
+    let nodes = r.children(Some(doc), SHOP_TOP_LEVEL, Msg::new("diag-in-shop-profile"));
     for (i, node) in nodes.iter().enumerate() {
         let name = node.name().value();
         if nodes[..i].iter().any(|n| n.name().value() == name) {
@@ -113,6 +115,26 @@ pub(crate) fn decode_document(
         .unwrap_or_default();
     let warranty = first("warranty").and_then(|n| decode_warranty(n, r));
     let terms = first("terms").and_then(|n| text(n, r));
+    let job_numbers = first("job-numbers").and_then(|n| {
+        r.check_entries(n, &[], 1);
+        r.no_children(n);
+        let pattern = r.req_arg_string(n, "the job-number pattern", "job-numbers \"D-{yymm}-{nnn}\"")?;
+        match crate::job::numbering::Numbering::parse(&pattern.value) {
+            Ok(_) => Some(pattern.value),
+            Err(why) => {
+                r.push(
+                    DecodeError::error(
+                        "job::bad-value",
+                        pattern.span,
+                        format!("the job-number pattern `{}` cannot be used: {why}", pattern.value),
+                        "expected a pattern such as D-{yymm}-{nnn}",
+                    )
+                    .with_help("pieces: {yyyy} {yy} {mm} {dd} {yymm}, and one count {n…} (one n per digit)"),
+                );
+                None
+            }
+        }
+    });
     let language = first("language").and_then(|n| decode_language(n, r));
 
     let (name, address, contact) = shop?;
@@ -133,6 +155,7 @@ pub(crate) fn decode_document(
         settings_given,
         warranty,
         terms,
+        job_numbers,
         language,
     })
 }
@@ -239,7 +262,7 @@ fn text(node: &KdlNode, r: &mut Reader) -> Option<String> {
     r.check_entries(node, &[], 1);
     r.no_children(node);
     let name = node.name().value();
-    r.req_arg_string(node, &format!("`{name}`"), &format!("{name} \"…\""))
+    r.req_arg_string(node, format!("`{name}`"), &format!("{name} \"…\""))
         .map(|s| s.value)
 }
 
@@ -303,7 +326,7 @@ fn decode_safety(node: &KdlNode, r: &mut Reader) -> SafetyDefaults {
         r.no_children(child);
         let limit = |r: &mut Reader, key: &str, kind: Q| {
             let q = r.opt_prop_quantity(child, key, kind);
-            r.positive(q, &format!("`{key}`"), false).map(|q| q.value)
+            r.positive(q, format!("`{key}`"), false).map(|q| q.value)
         };
         match child.name().value() {
             "earth-continuity" => {

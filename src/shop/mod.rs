@@ -35,6 +35,22 @@ pub struct DecodedShop {
     pub diagnostics: JobDiagnostics,
 }
 
+/// The language tag the profile's top-level `language` node names, read
+/// on its own so the profile's problems can be said in that language even
+/// when the rest of the profile is refused; `None` when the text is not
+/// KDL or names none.
+pub fn named_language(text: &str) -> Option<String> {
+    let doc = crate::kdl_fast::parse_document(text).ok()?;
+    let node = doc
+        .nodes()
+        .iter()
+        .find(|n| n.name().value() == "language")?;
+    match node.entries().iter().find(|e| e.name().is_none())?.value() {
+        kdl::KdlValue::String(s) => Some(s.trim().to_owned()),
+        _ => None,
+    }
+}
+
 /// Decodes shop-profile text; `name` is the file name used in messages.
 /// Never panics, whatever the text. The logo is only named here; it is
 /// read and checked by [`read_logo`].
@@ -60,11 +76,7 @@ pub fn decode(name: &str, text: &str) -> Result<DecodedShop, JobDiagnostics> {
         .map(|p| p.in_file_kind("shop"))
         .collect();
     problems.sort_by_key(|p| p.span.offset());
-    let diagnostics = JobDiagnostics {
-        source,
-        problems,
-        not_shown: Default::default(),
-    };
+    let diagnostics = JobDiagnostics::new(source, problems);
     match profile {
         Some(profile) if !diagnostics.has_errors() => Ok(DecodedShop {
             profile,
@@ -77,8 +89,8 @@ pub fn decode(name: &str, text: &str) -> Result<DecodedShop, JobDiagnostics> {
                     DecodeError::error(
                         "shop::incomplete",
                         SourceSpan::new(0.into(), 0),
-                        "the shop profile is incomplete",
-                        "here",
+                        crate::catalogue::Msg::new("diag-incomplete").arg("file", "shop"),
+                        crate::catalogue::Msg::new("diag-here"),
                     )
                     .in_file_kind("shop"),
                 );

@@ -29,6 +29,9 @@ pub struct ShopProfile {
     pub warranty: Option<Warranty>,
     /// Terms shown on the document.
     pub terms: Option<String>,
+    /// The pattern of the shop's job ids (`D-{yymm}-{nnn}`), checked; see
+    /// [`crate::job::numbering`].
+    pub job_numbers: Option<String>,
     /// The documents' language and the shop's translation file, if any;
     /// none for English.
     pub language: Option<Language>,

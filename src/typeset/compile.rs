@@ -295,8 +295,11 @@ pub fn compile(
 /// Writes `bytes` to a locked temporary file beside `output`, flushes it to
 /// disk and renames it over `output`, unless a stop signal came first. A new
 /// file gets the usual permissions less the umask; a replaced one keeps its
-/// permissions. `-` writes them to standard output instead.
-fn place(bytes: &[u8], output: &Path) -> Result<(), TypesetError> {
+/// permissions. `-` writes them to standard output instead. Used for the
+/// PDF and for any other file a command writes (the listing's Markdown and
+/// its photos); `output` must have passed [`check_output`] against the
+/// command's inputs.
+pub fn place(bytes: &[u8], output: &Path) -> Result<(), TypesetError> {
     if crate::input_file::is_dash(output) {
         stop_if_interrupted()?;
         let mut stdout = std::io::stdout().lock();
@@ -336,7 +339,7 @@ fn place_with(bytes: &[u8], output: &Path, sync: bool) -> Result<(), TypesetErro
                 Ok(())
             }
         })
-        .map_err(|e| TypesetError::io("write the PDF to", partial.path().to_path_buf(), e))?;
+        .map_err(|e| TypesetError::io("write", partial.path().to_path_buf(), e))?;
     if let Ok(existing) = std::fs::metadata(output) {
         let _ = std::fs::set_permissions(partial.path(), existing.permissions());
     }
@@ -345,7 +348,7 @@ fn place_with(bytes: &[u8], output: &Path, sync: bool) -> Result<(), TypesetErro
     check_output(output, &[])?;
     partial
         .persist(output)
-        .map_err(|e| TypesetError::io("write the PDF to", output, e.error))?;
+        .map_err(|e| TypesetError::io("write", output, e.error))?;
     if sync {
         sync_folder(out_dir);
     }

@@ -25,7 +25,7 @@ mod version;
 
 pub use compile::{
     CompileOptions, CompileOutcome, DEFAULT_PDF_STANDARD, DEFAULT_TIMEOUT, FontPlace, FontsUsed,
-    KEPT_PREFIX, PARTIAL_SUFFIX, RequiredText, WORK_PREFIX, compile, write_small_file,
+    KEPT_PREFIX, PARTIAL_SUFFIX, RequiredText, WORK_PREFIX, compile, place, write_small_file,
 };
 pub use error::{INSTALL_HINT, TypesetError};
 pub use escape::{escape_markup, escape_string};

@@ -48,6 +48,29 @@ impl QuantityKind {
         }
     }
 
+    /// [`QuantityKind::noun`] as a message, said in the reader's language.
+    pub fn noun_msg(self) -> crate::catalogue::Msg {
+        crate::catalogue::Msg::new(match self {
+            QuantityKind::Voltage => "diag-kind-voltage",
+            QuantityKind::Current => "diag-kind-current",
+            QuantityKind::Resistance => "diag-kind-resistance",
+            QuantityKind::Power => "diag-kind-power",
+            QuantityKind::Capacitance => "diag-kind-capacitance",
+            QuantityKind::Inductance => "diag-kind-inductance",
+            QuantityKind::Frequency => "diag-kind-frequency",
+            QuantityKind::Percent => "diag-kind-percent",
+        })
+    }
+
+    /// [`QuantityKind::range_words`] as a message ("1 µV to 100 kV").
+    pub fn range_msg(self) -> crate::catalogue::Msg {
+        let words = self.range_words();
+        let (low, high) = words.split_once(" to ").unwrap_or((words, ""));
+        crate::catalogue::Msg::new("diag-range")
+            .arg("low", low)
+            .arg("high", high)
+    }
+
     /// An example value for hints in error messages.
     pub fn example(self) -> &'static str {
         match self {

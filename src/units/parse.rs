@@ -63,6 +63,33 @@ impl fmt::Display for UnitError {
     }
 }
 
+impl UnitError {
+    /// The problem as a message, said in the reader's language (the
+    /// [`fmt::Display`] words are its English).
+    pub fn msg(&self) -> crate::catalogue::Msg {
+        use crate::catalogue::Msg;
+        match &self.problem {
+            UnitProblem::Empty => Msg::new("diag-unit-empty"),
+            UnitProblem::NotANumber => Msg::new("diag-unit-not-a-number"),
+            UnitProblem::WrongUnit {
+                expected,
+                found,
+                symbol,
+            } => Msg::new("diag-unit-wrong")
+                .arg("symbol", symbol.as_str())
+                .arg("found", found.noun_msg())
+                .arg("expected", expected.noun_msg()),
+            UnitProblem::RkmOhmsOnly { expected } => {
+                Msg::new("diag-unit-rkm").arg("expected", expected.noun_msg())
+            }
+            UnitProblem::PrefixNotAllowed { expected } => {
+                Msg::new("diag-unit-no-prefix").arg("expected", expected.noun_msg())
+            }
+            UnitProblem::NotFinite => Msg::new("diag-unit-not-finite"),
+        }
+    }
+}
+
 impl std::error::Error for UnitError {}
 
 /// The multiplier of an SI prefix or RKM letter, if `c` is one.

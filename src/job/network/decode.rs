@@ -195,7 +195,7 @@ fn node_name(r: &mut Reader, node: &KdlNode, key: &str, example: &str) -> Option
 }
 
 fn opt_node_name(r: &mut Reader, node: &KdlNode, key: &str) -> Option<Spanned<String>> {
-    let name = Reader::prop(node, key).and_then(|e| r.name(e, &format!("`{key}`")))?;
+    let name = Reader::prop(node, key).and_then(|e| r.name(e, format!("`{key}`")))?;
     ground_lookalike(r, &name);
     Some(name)
 }

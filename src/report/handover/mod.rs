@@ -20,18 +20,18 @@ use sha2::{Digest, Sha256};
 pub use charges::{ChargeRow, ChargesContext, TaxRow, charges_context};
 pub use context::{
     AcceptedRow, AttentionContext, CapacitorRow, ChartFile, ContextInputs, CustomerInfo,
-    DISSIPATION_PLOT, DocumentInfo, EntryRow, Footer, Glance, GlanceRow, HandoverContext,
-    HeaterRow, HistoryRow, JobInfo, LineUpRow, MainsInfo, Method, ModFigureRow, ModRow, NodeRow,
-    NotCheckedRow, PartRow, Plots, RESPONSE_PLOT, RatingRow, RectifierRow, ResistorRow,
-    SUPPLY_PLOT, SafetyContext, SafetyRow, SetContext, SummaryContext, UnitInfo, ValveRow,
-    WarmUpContext, WarmUpRow, WindowReading, WindowRow, build_context, chart_part_path, date_words,
-    warm_up_plot,
+    DISSIPATION_PLOT, DocumentInfo, EntryRow, FOOTER_ID_CHARS, Footer, Glance, GlanceRow,
+    HandoverContext, HeaterRow, HistoryRow, JobInfo, LineUpRow, MainsInfo, Method, ModFigureRow,
+    ModRow, NodeRow, NotCheckedRow, PartRow, Plots, RESPONSE_PLOT, RatingRow, RectifierRow,
+    ResistorRow, SUPPLY_PLOT, SafetyContext, SafetyRow, SetContext, SummaryContext, UnitInfo,
+    ValveRow, WarmUpContext, WarmUpRow, WindowReading, WindowRow, build_context, chart_part_path,
+    date_words, warm_up_plot,
 };
 pub use context::{
     BenchContext, GainRow, HumNoiseRow, NetworkRow, NetworkView, OscillatorRow, OscillatorView,
     OutputPowerRow, ResponsePointRow, ResponseRow, SuggestionOption, SuggestionRow,
 };
-// LISTING-REEXPORT
+pub(crate) use context::{glue_units, pct0, reflow, safety as safety_context, volts, yes_no};
 pub use shop_block::{AcceptanceBlock, ShopBlock, WarrantyInfo, acceptance, paper};
 
 use super::network_chart;
@@ -380,18 +380,30 @@ pub fn render_template(
     context: &HandoverContext,
     templates: &TemplateSource,
 ) -> Result<String, HandoverError> {
+    fill_template(TEMPLATE_NAME, context, &context.catalogue, templates)
+}
+
+/// Fills the template `name` (built in, or from a `--templates` folder)
+/// with `context`, `font_rules` and the catalogue's `t` and `tm`; shared by the hand-over and the
+/// listing.
+pub(crate) fn fill_template(
+    name: &str,
+    context: &impl serde::Serialize,
+    catalogue: &Catalogue,
+    templates: &TemplateSource,
+) -> Result<String, HandoverError> {
     let from_override = templates
         .override_dir
         .as_ref()
-        .is_some_and(|d| d.join(TEMPLATE_NAME).is_file());
+        .is_some_and(|d| d.join(name).is_file());
     let env = template_environment(templates.clone());
     let fail = |e: minijinja::Error| HandoverError::Template {
-        name: TEMPLATE_NAME.to_string(),
+        name: name.to_string(),
         detail: template_error_words(&e),
         from_override,
     };
-    let template = env.get_template(TEMPLATE_NAME).map_err(fail)?;
-    let (t, tm) = catalogue_functions(&context.catalogue);
+    let template = env.get_template(name).map_err(fail)?;
+    let (t, tm) = catalogue_functions(catalogue);
     let ctx = minijinja::context! {
         font_rules => typst_markup(font_rules()),
         t => t,
@@ -465,7 +477,7 @@ pub fn catalogue_functions(catalogue: &Catalogue) -> (Value, Value) {
 }
 
 /// A minijinja error with its place in the template and its causes.
-fn template_error_words(e: &minijinja::Error) -> String {
+pub(crate) fn template_error_words(e: &minijinja::Error) -> String {
     let mut words = e.to_string();
     if let (Some(name), Some(line)) = (e.name(), e.line()) {
         if !words.contains(&format!("line {line}")) {

@@ -1,0 +1,176 @@
+//! The terminal speaks the shop profile's language: a job's problems are
+//! said in German under a German shop, at the very `file:line:column` the
+//! English run names; the profile's own problems follow the language it
+//! names; without a shop (or with `--no-shop`) everything stays English.
+
+use std::path::{Path, PathBuf};
+use std::process::{Command, Output};
+
+const BIN: &str = env!("CARGO_BIN_EXE_ampreport");
+
+fn repo() -> PathBuf {
+    PathBuf::from(env!("CARGO_MANIFEST_DIR"))
+}
+
+fn run(dir: &Path, args: &[&str]) -> Output {
+    Command::new(BIN)
+        .current_dir(dir)
+        .args(args)
+        .env("XDG_CONFIG_HOME", dir.join("no-config"))
+        .env(
+            "XDG_CACHE_HOME",
+            Path::new(env!("CARGO_TARGET_TMPDIR")).join("terminal-language-cache"),
+        )
+        .env_remove("AMPREPORT_TYPST")
+        .env("NO_COLOR", "1")
+        .output()
+        .expect("run ampreport")
+}
+
+fn stderr(o: &Output) -> String {
+    String::from_utf8_lossy(&o.stderr).into_owned()
+}
+
+/// "file:line:column" of `needle` in `text`, worked out here.
+fn at(file: &str, text: &str, needle: &str) -> String {
+    let offset = text.find(needle).expect("needle present");
+    let before = &text[..offset];
+    let line = before.matches('\n').count() + 1;
+    let column = before.rsplit('\n').next().unwrap().chars().count() + 1;
+    format!("{file}:{line}:{column}")
+}
+
+/// A folder with `job` as `job.kdl` and the demo shop profile with
+/// `extra` appended (its logo beside it).
+fn folder(job: &str, extra: &str) -> tempfile::TempDir {
+    let dir = tempfile::tempdir().unwrap();
+    std::fs::copy(
+        repo().join("jobs/larkmoor-logo.svg"),
+        dir.path().join("larkmoor-logo.svg"),
+    )
+    .unwrap();
+    let profile = std::fs::read_to_string(repo().join("jobs/shop.kdl")).unwrap();
+    std::fs::write(dir.path().join("shop.kdl"), format!("{profile}\n{extra}\n")).unwrap();
+    std::fs::write(dir.path().join("job.kdl"), job).unwrap();
+    dir
+}
+
+/// The demo job with three mistakes a reader catches: a misspelt node, a
+/// date that does not exist and a current where a voltage belongs.
+fn broken_job() -> String {
+    let job = std::fs::read_to_string(repo().join("jobs/combo-6v6-fixed.kdl")).unwrap();
+    let job = job.replacen("complaint \"", "complain \"", 1);
+    let job = job.replacen("received=\"2026-11-05\"", "received=\"2026-13-05\"", 1);
+    let job = job.replacen("nominal=\"120V\"", "nominal=\"120A\"", 1);
+    assert_eq!(job.matches("complain \"").count(), 1);
+    job
+}
+
+#[test]
+fn a_german_shop_gives_german_diagnostics_at_the_same_places() {
+    let job = broken_job();
+    let english = folder(&job, "");
+    let german = folder(&job, "language \"de\"");
+    let en = run(english.path(), &["check", "job.kdl"]);
+    let de = run(german.path(), &["check", "job.kdl"]);
+    assert_eq!(en.status.code(), Some(1), "{}", stderr(&en));
+    assert_eq!(de.status.code(), Some(1), "{}", stderr(&de));
+    let (en, de) = (stderr(&en), stderr(&de));
+    for (needle, english_words, german_words) in [
+        (
+            "complain \"",
+            "unknown node `complain` in the job file",
+            "unbekannter Knoten `complain` in der Auftragsdatei",
+        ),
+        (
+            "complain \"",
+            "did you mean `complaint`?",
+            "meinten Sie `complaint`?",
+        ),
+        (
+            "\"2026-13-05\"",
+            "`received` \"2026-13-05\" is not a valid date",
+            "`received` \"2026-13-05\" ist kein gültiges Datum",
+        ),
+        (
+            "A\" frequency",
+            "is the unit of a current, but a voltage belongs here",
+            "ist eine Einheit für etwas anderes (ein Strom); hier gehört eine Spannung hin",
+        ),
+    ] {
+        let place = at("job.kdl", &job, needle);
+        assert!(en.contains(&place), "{place} missing from:\n{en}");
+        assert!(de.contains(&place), "{place} missing from:\n{de}");
+        assert!(en.contains(english_words), "{english_words} missing:\n{en}");
+        assert!(de.contains(german_words), "{german_words} missing:\n{de}");
+        assert!(
+            !de.contains(english_words),
+            "{english_words} left in:\n{de}"
+        );
+    }
+    assert!(
+        en.contains("job.kdl: 3 problems stop this job file from being read"),
+        "{en}"
+    );
+    assert!(
+        de.contains("job.kdl: 3 Probleme verhindern, dass diese Auftragsdatei gelesen wird"),
+        "{de}"
+    );
+    // The codes stay the same in every language: scripts may match them.
+    assert!(de.contains("ampreport::job::unknown-node"), "{de}");
+}
+
+#[test]
+fn the_profile_says_its_own_problems_in_the_language_it_names() {
+    let job = std::fs::read_to_string(repo().join("jobs/combo-6v6-fixed.kdl")).unwrap();
+    let dir = folder(&job, "language \"de\"\npaper \"legal\" frobnicate=1");
+    let o = run(dir.path(), &["check", "job.kdl"]);
+    assert_eq!(o.status.code(), Some(1), "{}", stderr(&o));
+    let err = stderr(&o);
+    let profile = std::fs::read_to_string(dir.path().join("shop.kdl")).unwrap();
+    let place = at("shop.kdl", &profile, "frobnicate");
+    assert!(err.contains(&place), "{place} missing from:\n{err}");
+    assert!(
+        err.contains("unbekannte Eigenschaft `frobnicate` an `paper`"),
+        "{err}"
+    );
+    assert!(err.contains("dieses Werkstattprofil"), "{err}");
+
+    // With `--no-shop` nothing names a language: English.
+    let broken = folder(&broken_job(), "language \"de\"");
+    let o = run(broken.path(), &["check", "--no-shop", "job.kdl"]);
+    let err = stderr(&o);
+    assert!(err.contains("did you mean `complaint`?"), "{err}");
+    assert!(!err.contains("meinten Sie"), "{err}");
+}
+
+#[test]
+fn a_batch_says_how_each_job_ended_in_its_language() {
+    let job = broken_job();
+    let dir = folder(&job, "language \"de\"");
+    std::fs::write(dir.path().join("second.kdl"), &job).unwrap();
+    let o = run(dir.path(), &["render", "job.kdl", "second.kdl"]);
+    assert_eq!(o.status.code(), Some(1), "{}", stderr(&o));
+    let out = String::from_utf8_lossy(&o.stdout);
+    // Each job's line, then the summary, all in German; the first error of
+    // each job quoted at its place.
+    let place = at("job.kdl", &job, "\"2026-13-05\"");
+    for words in [
+        format!(
+            "fehlgeschlagen job.kdl: {place}: `received` \"2026-13-05\" ist kein gültiges Datum"
+        ),
+        "2 Aufträge in".to_string(),
+        ": 0 erstellt, 0 unverändert, 2 fehlgeschlagen".to_string(),
+    ] {
+        assert!(out.contains(&words), "{words} missing from:\n{out}");
+    }
+    assert!(!out.contains("failed"), "{out}");
+    // The same jobs without the shop: English, word for word as before.
+    let o = run(
+        dir.path(),
+        &["render", "--no-shop", "job.kdl", "second.kdl"],
+    );
+    let out = String::from_utf8_lossy(&o.stdout);
+    assert!(out.contains("2 jobs in"), "{out}");
+    assert!(out.contains(": 0 rendered, 0 unchanged, 2 failed"), "{out}");
+}
