@@ -6,7 +6,7 @@
 #   bash scripts/perf.sh overhead [PAIRS]   render against bare typst on its own emitted source
 #   bash scripts/perf.sh size [SETS...]     typst time and memory per measurement set (generated jobs)
 #   bash scripts/perf.sh own [SETS]         ampreport's own work on a generated job (no typst)
-#   bash scripts/perf.sh batch [JOBS]       -j 1 against -j 2 over demo-sized jobs
+#   bash scripts/perf.sh batch [JOBS]       -j 1 against -j 2 over demo-sized jobs (and with typst --jobs 1)
 #   bash scripts/perf.sh noop [JOBS]        a second pass over unchanged jobs
 #   bash scripts/perf.sh watch [SAVES]      save-to-PDF time of `watch` against typst's compile time
 #
@@ -16,7 +16,9 @@
 # that measured every table before laying it out) or, when OLD_BIN names an
 # ampreport built before the change, that binary's own emitted source.
 # Pairs run alternately (AB, BA, AB …) so a slow patch of a shared machine
-# hits both sides; medians are printed. Each section prints `uptime` first:
+# hits both sides; medians are printed, of the wall clock and of the
+# processor time (user + system, children included), which depends far
+# less on what else the machine runs. Each section prints `uptime` first:
 # the machine is shared and the load is part of the figure.
 set -euo pipefail
 cd "$(dirname "$0")/.."
@@ -94,12 +96,14 @@ ratio() { awk -v a="$1" -v b="$2" 'BEGIN { printf "%.2f", a / b }'; }
 emit() {
     local job="$1" dir="$2" side="${3:-new}"
     rm -rf "$dir"
+    # The source is written before typst runs; a render that then fails
+    # (a long job past the time limit) still leaves it, with the command.
     if [ "$side" = old ] && [ -n "${OLD_BIN:-}" ]; then
-        "$OLD_BIN" render "$job" -o "$work/scratch.pdf" --emit-source "$dir" >/dev/null 2>"$work/emit.err"
+        "$OLD_BIN" render "$job" -o "$work/scratch.pdf" --emit-source "$dir" --timeout 3600 >/dev/null 2>"$work/emit.err" || true
     elif [ "$side" = old ]; then
-        "$bin" render "$job" -o "$work/scratch.pdf" --templates "$old_template" --emit-source "$dir" --force >/dev/null 2>"$work/emit.err"
+        "$bin" render "$job" -o "$work/scratch.pdf" --templates "$old_template" --emit-source "$dir" --force --timeout 3600 >/dev/null 2>"$work/emit.err" || true
     else
-        "$bin" render "$job" -o "$work/scratch.pdf" --emit-source "$dir" --force >/dev/null 2>"$work/emit.err"
+        "$bin" render "$job" -o "$work/scratch.pdf" --emit-source "$dir" --force --timeout 3600 >/dev/null 2>"$work/emit.err" || true
     fi
     sed -n 's/.*the same PDF comes from: //p' "$work/emit.err" >"$dir.cmd"
 }

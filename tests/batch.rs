@@ -266,7 +266,9 @@ fn the_skip_reads_the_named_files_where_the_job_and_its_profile_find_them() {
     assert!(c.typeset(&[]), "a nearer profile");
     assert!(!c.typeset(&[]));
     // A manifest whose list of files was edited is not believed: the key
-    // worked out from it no longer matches the one recorded.
+    // worked out from it no longer matches the one recorded, so the job is
+    // decoded and its own key decides. Unchanged, it is not typeset; with
+    // the photo changed behind the edited list, it is.
     let manifest = c.scene.dir.join(".job.pdf.ampreport-key");
     let recorded = std::fs::read_to_string(&manifest).unwrap();
     assert!(
@@ -278,8 +280,11 @@ fn the_skip_reads_the_named_files_where_the_job_and_its_profile_find_them() {
         .filter(|l| !l.starts_with("file "))
         .map(|l| format!("{l}\n"))
         .collect();
-    std::fs::write(&manifest, edited).unwrap();
-    assert!(c.typeset(&[]), "a manifest that lists fewer files");
+    std::fs::write(&manifest, &edited).unwrap();
+    assert!(!c.typeset(&[]), "the decoded job's key still matches");
+    std::fs::write(&manifest, &edited).unwrap();
+    png(99);
+    assert!(c.typeset(&[]), "a photo changed behind a list without it");
     assert!(!c.typeset(&[]));
 }
 
