@@ -623,7 +623,7 @@ diag-merge-nodes = eine Auftragsdatei hat einen Knoten `{ $name }`; die Knoten z
 diag-format-too-new = diese Auftragsdatei verwendet Format { $found }, aber dieses ampreport liest höchstens Format { $known }
 diag-format-version = Formatversion
 diag-update-program = ampreport aktualisieren, um diese Datei zu lesen
-diag-format-needs-version = `job-format` braucht die Versionsnummer
+diag-needs-version = `{ $name }` braucht die Versionsnummer
 diag-version-missing = Version fehlt
 diag-write-format = `job-format 1` schreiben
 diag-no-format = die Auftragsdatei sagt nicht, welches Format sie verwendet
@@ -709,6 +709,83 @@ diag-bare-value-help = "{ $value }" schreiben: ein Wert mit Einheit oder ein Nam
 diag-kdl-syntax = KDL-Syntax: { $problem }
 diag-kdl-broken = die KDL-Syntax ist hier fehlerhaft
 diag-kdl-help = Auftragsdateien sind KDL 2.0: Text in doppelten Anführungszeichen, Wahrheitswerte als #true/#false, ein Knoten pro Zeile
+
+diag-merge-shop-nodes = ein Werkstattprofil hat einen Knoten `{ $name }`; die Knoten zusammenführen
+diag-shop-no-format = das Werkstattprofil sagt nicht, welches Format es verwendet
+diag-begin-with-shop-format = die Datei mit `shop-format 1` beginnen
+diag-shop-no-node = das Werkstattprofil hat keinen Knoten `{ $name }`
+diag-logo-name-empty = der Dateiname des Logos ist leer
+diag-expected-file-name = Dateiname erwartet
+diag-bad-pattern = das Muster für Auftragsnummern `{ $pattern }` ist nicht verwendbar: { $why }
+diag-expected-pattern = Muster wie D-{"{"}yymm{"}"}-{"{"}nnn{"}"} erwartet
+diag-pattern-help = Bausteine: {"{"}yyyy{"}"} {"{"}yy{"}"} {"{"}mm{"}"} {"{"}dd{"}"} {"{"}yymm{"}"} und ein Zähler {"{"}n…{"}"} (ein n pro Ziffer)
+diag-not-language-tag = `{ $tag }` ist kein Sprachkürzel
+diag-expected-language-tag = Sprachkürzel wie en oder de erwartet
+diag-built-in-languages = eingebaut: { $tags }
+diag-no-catalogue = das Programm hat keinen Katalog für `{ $tag }` eingebaut
+diag-no-built-in-catalogue = kein eingebauter Katalog
+diag-own-translation = { $suggestion }; oder eine eigene Übersetzung angeben: language "{ $tag }" file="{ $tag }.ftl"
+diag-shop-format-too-new = dieses Werkstattprofil verwendet Format { $found }, aber dieses ampreport liest höchstens Format { $known }
+diag-write-shop-format = `shop-format 1` schreiben
+diag-shop-name-empty = der Name der Werkstatt ist leer
+diag-expected-the-name = Name erwartet
+diag-unknown-paper = unbekanntes Papierformat `{ $name }`
+diag-expected-paper = a4 oder letter erwartet
+diag-bad-period = `period` "{ $text }" ist keine Zeitdauer
+diag-expected-period = eine Zahl und days, weeks, months oder years erwartet
+diag-period-help = zum Beispiel period="90 days", "6 months" oder "1 year"
+
+diag-charges-currency = `charges` braucht eine Währung
+diag-currency-missing = Währung fehlt
+diag-charges-currency-help = charges currency="GBP" {"{"} … {"}"} schreiben, oder die Währung im Knoten `charges` des Werkstattprofils festlegen
+diag-charges-too-large = die Kosten sind zu groß, um sie zu addieren
+diag-these-charges = diese Kosten
+diag-charge-both = eine Zeile mit `amount` nimmt kein `{ $count }` und kein `{ $price }`
+diag-charge-both-label = dies entfernen, oder den Betrag
+diag-charge-both-help = entweder amount="…" oder { $count }=… { $price }="…" schreiben
+diag-labour-needs = `hours` und `rate`, oder einen Betrag `amount`
+diag-part-needs = einen Preis `price` (und eine Menge `quantity`), oder einen Betrag `amount`
+diag-amount-missing = Betrag fehlt
+diag-currency-code = `currency` muss ein kurzes Kürzel oder Zeichen sein (1 bis 8 Zeichen)
+diag-expected-currency = Währung erwartet
+diag-currency-help = zum Beispiel currency="GBP", "EUR", "USD" oder "€"
+diag-tax-rate = `tax-rate` muss ein Prozentsatz von 0% bis 100% sein, gefunden: `{ $found }`
+diag-expected-percentage = Prozentsatz erwartet
+diag-tax-rate-help = zum Beispiel tax-rate="20%" oder tax-rate="8.875%"
+diag-charges-no-sign = Kostenzeilen werden addiert; den Betrag ohne Vorzeichen schreiben
+diag-money-too-large = { $what } ist zu groß (die Grenze ist { $limit })
+diag-too-large = zu groß
+diag-too-many-places = { $what } hat mehr als { $places } Nachkommastellen
+diag-too-many-decimals = zu viele Nachkommastellen
+diag-plain-decimal = { $what } muss eine einfache Dezimalzahl sein, gefunden: `{ $found }`
+diag-expected-money = Zahl wie 48.00 erwartet
+diag-money-help = Beträge und Stunden mit Dezimalpunkt und ohne Währungszeichen oder Tausendertrennzeichen schreiben, zum Beispiel "1250.00"
+diag-expected-a-number = Zahl erwartet
+
+diag-photo-absolute = das Foto `{ $path }` ist ein absoluter Pfad
+diag-photo-outside = das Foto `{ $path }` ist kein Pfad im Ordner des Auftrags
+diag-photo-relative = Pfad relativ zur Auftragsdatei erwartet
+diag-photo-keep-inside = Fotos im Ordner des Auftrags oder darunter ablegen und von dort aus benennen, zum Beispiel photo "photos/chassis.jpg"
+diag-photo-link = das Foto `{ $path }` ist eine Verknüpfung, die aus dem Ordner des Auftrags hinausführt (nach { $target })
+diag-leads-outside = führt hinaus
+diag-photo-copy = das Foto in den Ordner des Auftrags kopieren, statt darauf zu verweisen
+diag-photo-not-file = das Foto { $path } ist keine gewöhnliche Datei
+diag-not-a-file = keine Datei
+diag-photo-png-jpeg = ein Foto muss eine PNG- oder JPEG-Datei sein
+diag-photo-too-large = das Foto { $path } hat { $size } MB; die Grenze ist { $limit } MB
+diag-photo-smaller = das Foto kleiner exportieren (das Protokoll druckt es etwa 8 cm breit; 2000 Pixel Breite genügen)
+diag-photo-cannot-read = das Foto { $path } kann nicht gelesen werden: { $error }
+diag-this-file = diese Datei
+diag-photo-check-path = den Pfad prüfen: er ist relativ zum Ordner der Auftragsdatei
+diag-photo-not-image = das Foto { $path } ist kein PNG- oder JPEG-Bild (sein Inhalt ist { $content ->
+        [empty] leer
+        [text] Text
+       *[other] keines von beiden
+    })
+diag-not-a-picture = kein Bild
+diag-photo-content-matters = ein Foto muss eine PNG- oder JPEG-Datei sein; es zählt nicht die Endung des Namens, sondern der Inhalt
+diag-photo-undecodable = das Foto { $path }: { $why }
+diag-photo-save-again = das Foto in einem Bildprogramm öffnen und erneut als PNG oder JPEG speichern
 
 ## Die übrigen Meldungen im Terminal (src/cli), in der Sprache des
 ## Werkstattprofils, sobald es gelesen ist; die Schlusszeile eines Stapels

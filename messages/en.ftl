@@ -623,7 +623,7 @@ diag-merge-nodes = a job file has one `{ $name }` node; merge them
 diag-format-too-new = this job file uses format { $found }, but this ampreport reads format { $known } at most
 diag-format-version = format version
 diag-update-program = update ampreport to read this file
-diag-format-needs-version = `job-format` needs the version number
+diag-needs-version = `{ $name }` needs the version number
 diag-version-missing = version missing
 diag-write-format = write `job-format 1`
 diag-no-format = the job file does not say which format it uses
@@ -709,6 +709,83 @@ diag-bare-value-help = write "{ $value }": a value with a unit, or a name that s
 diag-kdl-syntax = KDL syntax: { $problem }
 diag-kdl-broken = the KDL syntax is broken here
 diag-kdl-help = job files are KDL 2.0: text in double quotes, booleans as #true/#false, one node per line
+
+diag-merge-shop-nodes = a shop profile has one `{ $name }` node; merge them
+diag-shop-no-format = the shop profile does not say which format it uses
+diag-begin-with-shop-format = begin the file with `shop-format 1`
+diag-shop-no-node = the shop profile has no `{ $name }` node
+diag-logo-name-empty = the logo's file name is empty
+diag-expected-file-name = expected a file name
+diag-bad-pattern = the job-number pattern `{ $pattern }` cannot be used: { $why }
+diag-expected-pattern = expected a pattern such as D-{"{"}yymm{"}"}-{"{"}nnn{"}"}
+diag-pattern-help = pieces: {"{"}yyyy{"}"} {"{"}yy{"}"} {"{"}mm{"}"} {"{"}dd{"}"} {"{"}yymm{"}"}, and one count {"{"}n…{"}"} (one n per digit)
+diag-not-language-tag = `{ $tag }` is not a language tag
+diag-expected-language-tag = expected a language tag such as en or de
+diag-built-in-languages = built in: { $tags }
+diag-no-catalogue = the program has no catalogue for `{ $tag }` built in
+diag-no-built-in-catalogue = no built-in catalogue
+diag-own-translation = { $suggestion }; or give your own translation: language "{ $tag }" file="{ $tag }.ftl"
+diag-shop-format-too-new = this shop profile uses format { $found }, but this ampreport reads format { $known } at most
+diag-write-shop-format = write `shop-format 1`
+diag-shop-name-empty = the shop's name is empty
+diag-expected-the-name = expected the name
+diag-unknown-paper = unknown paper size `{ $name }`
+diag-expected-paper = expected a4 or letter
+diag-bad-period = `period` "{ $text }" is not a length of time
+diag-expected-period = expected a number and days, weeks, months or years
+diag-period-help = for example period="90 days", "6 months" or "1 year"
+
+diag-charges-currency = `charges` needs a currency
+diag-currency-missing = currency missing
+diag-charges-currency-help = write charges currency="GBP" {"{"} … {"}"}, or set the currency in the shop profile's `charges` node
+diag-charges-too-large = the charges are too large to add up
+diag-these-charges = these charges
+diag-charge-both = a line with `amount` takes no `{ $count }` or `{ $price }`
+diag-charge-both-label = remove this, or the amount
+diag-charge-both-help = write either amount="…" or { $count }=… { $price }="…"
+diag-labour-needs = `hours` and `rate`, or an `amount`
+diag-part-needs = a `price` (and a `quantity`), or an `amount`
+diag-amount-missing = amount missing
+diag-currency-code = `currency` must be a short code or sign (1 to 8 characters)
+diag-expected-currency = expected a currency
+diag-currency-help = for example currency="GBP", "EUR", "USD" or "€"
+diag-tax-rate = `tax-rate` must be a percentage from 0% to 100%, found `{ $found }`
+diag-expected-percentage = expected a percentage
+diag-tax-rate-help = for example tax-rate="20%" or tax-rate="8.875%"
+diag-charges-no-sign = charges lines add up; write the amount without a sign
+diag-money-too-large = { $what } is too large (the limit is { $limit })
+diag-too-large = too large
+diag-too-many-places = { $what } has more than { $places } decimal places
+diag-too-many-decimals = too many decimals
+diag-plain-decimal = { $what } must be a plain decimal number, found `{ $found }`
+diag-expected-money = expected a number such as 48.00
+diag-money-help = write money and hours with a decimal point and no currency sign or thousands separator, for example "1250.00"
+diag-expected-a-number = expected a number
+
+diag-photo-absolute = the photo `{ $path }` is an absolute path
+diag-photo-outside = the photo `{ $path }` is not a path inside the job's folder
+diag-photo-relative = expected a path relative to the job file
+diag-photo-keep-inside = keep photos in the job's folder or a folder below it and name them from there, for example photo "photos/chassis.jpg"
+diag-photo-link = the photo `{ $path }` is a link that leads outside the job's folder (to { $target })
+diag-leads-outside = leads outside
+diag-photo-copy = copy the photo into the job's folder instead of linking to it
+diag-photo-not-file = the photo { $path } is not a regular file
+diag-not-a-file = not a file
+diag-photo-png-jpeg = a photo must be a PNG or JPEG file
+diag-photo-too-large = the photo { $path } is { $size } MB; the limit is { $limit } MB
+diag-photo-smaller = export the photo smaller (a document prints it about 8 cm wide; 2000 pixels across is plenty)
+diag-photo-cannot-read = cannot read the photo { $path }: { $error }
+diag-this-file = this file
+diag-photo-check-path = check the path: it is relative to the job file's folder
+diag-photo-not-image = the photo { $path } is not a PNG or JPEG picture (its content is { $content ->
+        [empty] empty
+        [text] text
+       *[other] neither
+    })
+diag-not-a-picture = not a picture
+diag-photo-content-matters = a photo must be a PNG or JPEG file; the name's extension does not matter, the content does
+diag-photo-undecodable = the photo { $path } { $why }
+diag-photo-save-again = open the photo in an image editor and save it again as PNG or JPEG
 
 ## The terminal's other messages: what the commands say besides a job's
 ## summary (src/cli), in the job's shop-profile language once it is read;

@@ -4,7 +4,8 @@
 //! local codes; nothing the shop keeps to itself (the customer, their
 //! contacts, the complaint, the charges, anything marked private, the
 //! reasons for accepting a figure) reaches either, checked by planting a
-//! unique word in every such field.
+//! unique word in every such field. The same job gives the same bytes
+//! (PDF, Markdown, photos) from any folder.
 
 mod support;
 
@@ -349,4 +350,53 @@ fn the_serial_can_be_masked_or_hidden_and_o_names_the_pdf() {
         "-".as_ref(),
     ]);
     assert_eq!(out.status.code(), Some(2), "{}", stderr(&out));
+}
+
+#[test]
+fn a_listing_is_the_same_bytes_each_time_and_from_any_folder() {
+    if !real_typst() {
+        return;
+    }
+    let dir = tempfile::tempdir().unwrap();
+    let job = copy_demo("combo-6v6-fixed", dir.path());
+    let names = [
+        "combo-6v6-fixed.listing.pdf",
+        "combo-6v6-fixed.listing.md",
+        "combo-6v6-fixed.listing-photo-1.jpg",
+        "combo-6v6-fixed.listing-photo-2.png",
+    ];
+    let read_all = || -> Vec<Vec<u8>> {
+        names
+            .iter()
+            .map(|n| std::fs::read(dir.path().join(n)).unwrap_or_else(|_| panic!("{n}")))
+            .collect()
+    };
+    // From the job's folder, by its bare name.
+    let cache = PathBuf::from(env!("CARGO_TARGET_TMPDIR")).join("listing-cache-home");
+    let run_in = |cwd: &Path, job: &Path| {
+        Command::new(bin())
+            .current_dir(cwd)
+            .args([
+                "render".as_ref(),
+                job.as_os_str(),
+                "--listing".as_ref(),
+                "--force".as_ref(),
+            ])
+            .env_remove("AMPREPORT_TYPST")
+            .env("XDG_CACHE_HOME", &cache)
+            .env("XDG_CONFIG_HOME", cache.join("no-config-home"))
+            .output()
+            .unwrap()
+    };
+    assert_ok(
+        &run_in(dir.path(), Path::new("combo-6v6-fixed.kdl")),
+        "from the folder",
+    );
+    let first = read_all();
+    // Again, from `/` with the full path.
+    assert_ok(&run_in(Path::new("/"), &job), "from /");
+    let second = read_all();
+    for ((name, a), b) in names.iter().zip(&first).zip(&second) {
+        assert!(a == b, "{name} differs between two renders");
+    }
 }

@@ -174,3 +174,63 @@ fn a_batch_says_how_each_job_ended_in_its_language() {
     assert!(out.contains("2 jobs in"), "{out}");
     assert!(out.contains(": 0 rendered, 0 unchanged, 2 failed"), "{out}");
 }
+
+/// Every `"diag-…"` and `"cli-…"` key the program's source names.
+fn terminal_keys_used() -> Vec<(String, PathBuf)> {
+    let mut used = Vec::new();
+    let mut dirs = vec![repo().join("src")];
+    while let Some(dir) = dirs.pop() {
+        for entry in std::fs::read_dir(dir).unwrap() {
+            let path = entry.unwrap().path();
+            if path.is_dir() {
+                dirs.push(path);
+                continue;
+            }
+            if path.extension().is_none_or(|e| e != "rs") {
+                continue;
+            }
+            let text = std::fs::read_to_string(&path).unwrap();
+            for prefix in ["\"diag-", "\"cli-"] {
+                for (i, _) in text.match_indices(prefix) {
+                    let rest = &text[i + 1..];
+                    let end = rest.find('"').unwrap();
+                    let key = &rest[..end];
+                    if key
+                        .chars()
+                        .all(|c| c.is_ascii_lowercase() || c.is_ascii_digit() || c == '-')
+                    {
+                        used.push((key.to_owned(), path.clone()));
+                    }
+                }
+            }
+        }
+    }
+    used
+}
+
+#[test]
+fn every_terminal_key_the_program_uses_is_in_every_built_in_catalogue() {
+    use ampreport::catalogue::{BUILT_IN, Catalogue};
+    let used = terminal_keys_used();
+    assert!(used.len() > 150, "only {} keys found", used.len());
+    for (tag, _) in BUILT_IN {
+        let catalogue = Catalogue::built_in(tag).unwrap();
+        for (key, file) in &used {
+            assert!(
+                catalogue.has(key),
+                "{key} (used in {}) is missing from messages/{tag}.ftl",
+                file.display()
+            );
+        }
+    }
+    // Braces written literally in a message come out as braces.
+    assert_eq!(
+        Catalogue::english().text("diag-expected-pattern"),
+        "expected a pattern such as D-{yymm}-{nnn}"
+    );
+    let de = Catalogue::built_in("de").unwrap();
+    assert!(
+        de.text("diag-pattern-help")
+            .starts_with("Bausteine: {yyyy} {yy}")
+    );
+}

@@ -106,6 +106,9 @@ fn side_said(
             let shop = load::shop_profile(&job_path, choice, said, &mut Vec::new())?;
             let text = git::read_at_revision(spec).map_err(|e| {
                 said.error(format!("error: {e}"));
+                if let Some(hint) = from_here_hint(spec) {
+                    said.err(hint);
+                }
                 Exit::InvalidInput
             })?;
             load::decode_named(spec, text, shop, &ratings, said)?
@@ -115,4 +118,37 @@ fn side_said(
     let findings = calc::derive(&loaded.decoded.job, &ratings);
     let name = spec.unwrap_or_else(|| load::job_name(given));
     Ok((name, findings))
+}
+
+/// When `REV:PATH` could not be read and PATH is a file named from the
+/// current folder (git reads it from the top of the repository), the
+/// spelling that names it from here.
+fn from_here_hint(spec: &str) -> Option<String> {
+    let (rev, path) = git::split_spec(spec)?;
+    let file = Path::new(path);
+    (!path.starts_with("./") && file.is_relative() && file.is_file()).then(|| {
+        format!(
+            "note: in REV:PATH, git reads PATH from the top folder of the repository; \
+             for the file named from this folder, write {rev}:./{path}"
+        )
+    })
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn a_path_from_here_gets_its_dot_slash_spelling() {
+        // Tests run in the package's folder, where Cargo.toml is.
+        let hint = from_here_hint("HEAD:Cargo.toml").unwrap();
+        assert!(hint.ends_with("write HEAD:./Cargo.toml"), "{hint}");
+        assert_eq!(from_here_hint("HEAD:./Cargo.toml"), None);
+        assert_eq!(from_here_hint("HEAD:no/such/file.kdl"), None);
+        let absolute = std::path::absolute("Cargo.toml").unwrap();
+        assert_eq!(
+            from_here_hint(&format!("HEAD:{}", absolute.display())),
+            None
+        );
+    }
 }

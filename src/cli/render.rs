@@ -575,7 +575,15 @@ fn render_job(
             "  ".to_owned()
                 + &said.say(&Msg::new("cli-same-pdf-from").arg(
                     "command",
-                    handover::compile_command(dir, &document.options, &dir.join("handover.pdf")),
+                    handover::compile_command(
+                        dir,
+                        &document.options,
+                        &dir.join(if args.listing {
+                            "listing.pdf"
+                        } else {
+                            "handover.pdf"
+                        }),
+                    ),
                 )),
         );
     }

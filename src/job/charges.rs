@@ -12,6 +12,7 @@ use serde::Serialize;
 use super::decode_error::DecodeError;
 use super::model::Spanned;
 use super::reader::Reader;
+use crate::catalogue::Msg;
 
 /// The largest amount, rate, price, quantity or hours a charges line may
 /// hold (a billion): far above any bench job, and low enough that every
@@ -156,10 +157,10 @@ pub(crate) fn decode_charges(
                     DecodeError::error(
                         "job::missing",
                         Reader::name_span(node),
-                        "`charges` needs a currency",
-                        "currency missing",
+                        Msg::new("diag-charges-currency"),
+                        Msg::new("diag-currency-missing"),
                     )
-                    .with_help("write charges currency=\"GBP\" { … }, or set the currency in the shop profile's `charges` node"),
+                    .with_help(Msg::new("diag-charges-currency-help")),
                 );
                 None
             }
@@ -213,8 +214,8 @@ pub(crate) fn decode_charges(
         r.push(DecodeError::error(
             "job::impossible-value",
             Reader::name_span(node),
-            "the charges are too large to add up",
-            "these charges",
+            Msg::new("diag-charges-too-large"),
+            Msg::new("diag-these-charges"),
         ));
         return None;
     }
@@ -240,12 +241,16 @@ fn line_amount(
                 DecodeError::error(
                     "job::charge-both",
                     other.span(),
-                    format!("a line with `amount` takes no `{count_key}` or `{price_key}`"),
-                    "remove this, or the amount",
+                    Msg::new("diag-charge-both")
+                        .arg("count", count_key)
+                        .arg("price", price_key),
+                    Msg::new("diag-charge-both-label"),
                 )
-                .with_help(format!(
-                    "write either amount=\"…\" or {count_key}=… {price_key}=\"…\""
-                )),
+                .with_help(
+                    Msg::new("diag-charge-both-help")
+                        .arg("count", count_key)
+                        .arg("price", price_key),
+                ),
             );
             return None;
         }
@@ -277,18 +282,20 @@ fn line_amount(
             })
         }
         _ => {
-            let want = match kind {
-                ChargeKind::Labour => "`hours` and `rate`, or an `amount`",
-                ChargeKind::Part => "a `price` (and a `quantity`), or an `amount`",
-            };
+            let want = Msg::new(match kind {
+                ChargeKind::Labour => "diag-labour-needs",
+                ChargeKind::Part => "diag-part-needs",
+            });
             r.push(
                 DecodeError::error(
                     "job::missing",
                     Reader::name_span(node),
-                    format!("`{}` needs {want}", node.name().value()),
-                    "amount missing",
+                    Msg::new("diag-missing")
+                        .arg("node", node.name().value())
+                        .arg("what", want),
+                    Msg::new("diag-amount-missing"),
                 )
-                .with_help(format!("for example: {example}")),
+                .with_help(Msg::new("diag-for-example").arg("example", example)),
             );
             None
         }
@@ -301,8 +308,8 @@ fn nonzero(r: &mut Reader, entry: &KdlEntry, v: Option<Decimal>, what: &str) -> 
         r.push(DecodeError::error(
             "job::impossible-value",
             r.value_span(entry),
-            format!("{what} cannot be zero"),
-            "expected more than zero",
+            Msg::new("diag-cannot-be-zero").arg("what", what),
+            Msg::new("diag-more-than-zero"),
         ));
         return None;
     }
@@ -318,10 +325,10 @@ pub(crate) fn currency(r: &mut Reader, entry: &KdlEntry) -> Option<Spanned<Strin
             DecodeError::error(
                 "job::bad-value",
                 text.span,
-                "`currency` must be a short code or sign (1 to 8 characters)",
-                "expected a currency",
+                Msg::new("diag-currency-code"),
+                Msg::new("diag-expected-currency"),
             )
-            .with_help("for example currency=\"GBP\", \"EUR\", \"USD\" or \"€\""),
+            .with_help(Msg::new("diag-currency-help")),
         );
         return None;
     }
@@ -340,13 +347,10 @@ pub(crate) fn tax_rate(r: &mut Reader, entry: &KdlEntry) -> Option<Spanned<Decim
                 DecodeError::error(
                     "job::bad-value",
                     span,
-                    format!(
-                        "`tax-rate` must be a percentage from 0% to 100%, found `{}`",
-                        text.trim()
-                    ),
-                    "expected a percentage",
+                    Msg::new("diag-tax-rate").arg("found", text.trim()),
+                    Msg::new("diag-expected-percentage"),
                 )
-                .with_help("for example tax-rate=\"20%\" or tax-rate=\"8.875%\""),
+                .with_help(Msg::new("diag-tax-rate-help")),
             );
             None
         }
@@ -366,10 +370,10 @@ pub(crate) fn money(r: &mut Reader, entry: &KdlEntry, what: &str) -> Option<Deci
                 DecodeError::error(
                     "job::impossible-value",
                     span,
-                    format!("{what} cannot be negative"),
-                    "expected zero or more",
+                    Msg::new("diag-cannot-be-negative").arg("what", what),
+                    Msg::new("diag-zero-or-more"),
                 )
-                .with_help("charges lines add up; write the amount without a sign"),
+                .with_help(Msg::new("diag-charges-no-sign")),
             );
             None
         }
@@ -377,8 +381,10 @@ pub(crate) fn money(r: &mut Reader, entry: &KdlEntry, what: &str) -> Option<Deci
             r.push(DecodeError::error(
                 "job::impossible-value",
                 span,
-                format!("{what} is too large (the limit is {MONEY_LIMIT})"),
-                "too large",
+                Msg::new("diag-money-too-large")
+                    .arg("what", what)
+                    .arg("limit", MONEY_LIMIT.to_string()),
+                Msg::new("diag-too-large"),
             ));
             None
         }
@@ -386,8 +392,10 @@ pub(crate) fn money(r: &mut Reader, entry: &KdlEntry, what: &str) -> Option<Deci
             r.push(DecodeError::error(
                 "job::bad-value",
                 span,
-                format!("{what} has more than {MONEY_PLACES} decimal places"),
-                "too many decimals",
+                Msg::new("diag-too-many-places")
+                    .arg("what", what)
+                    .arg("places", MONEY_PLACES.to_string()),
+                Msg::new("diag-too-many-decimals"),
             ));
             None
         }
@@ -397,10 +405,12 @@ pub(crate) fn money(r: &mut Reader, entry: &KdlEntry, what: &str) -> Option<Deci
                 DecodeError::error(
                     "job::bad-value",
                     span,
-                    format!("{what} must be a plain decimal number, found `{}`", text.trim()),
-                    "expected a number such as 48.00",
+                    Msg::new("diag-plain-decimal")
+                        .arg("what", what)
+                        .arg("found", text.trim()),
+                    Msg::new("diag-expected-money"),
                 )
-                .with_help("write money and hours with a decimal point and no currency sign or thousands separator, for example \"1250.00\""),
+                .with_help(Msg::new("diag-money-help")),
             );
             None
         }
@@ -423,8 +433,8 @@ fn decimal_text(r: &mut Reader, entry: &KdlEntry) -> Option<String> {
             r.push(DecodeError::error(
                 "job::bad-value",
                 r.value_span(entry),
-                "expected a number",
-                "expected a number such as 48.00",
+                Msg::new("diag-expected-a-number"),
+                Msg::new("diag-expected-money"),
             ));
             None
         }

@@ -163,7 +163,7 @@ pub(crate) fn decode_document(
                     DecodeError::error(
                         "job::missing",
                         Reader::name_span(node),
-                        Msg::new("diag-format-needs-version"),
+                        Msg::new("diag-needs-version").arg("name", "job-format"),
                         Msg::new("diag-version-missing"),
                     )
                     .with_help(Msg::new("diag-write-format")),

@@ -24,7 +24,9 @@ pub use decode::{
     TOP_LEVEL, VALVE_CHECKS,
 };
 pub use decode_bench::{BENCH_NODES, DEFAULT_FREQUENCY};
-pub use decode_error::{DecodeError, JobDiagnostics, did_you_mean, line_column, suggestion_help};
+pub use decode_error::{
+    DecodeError, JobDiagnostics, did_you_mean, line_column, suggestion, suggestion_help,
+};
 pub use model::*;
 
 use crate::catalogue::{Arg, Msg};

@@ -23,6 +23,7 @@ use std::path::{Path, PathBuf};
 
 use image::{DynamicImage, ImageDecoder, ImageFormat, ImageReader, imageops::FilterType};
 
+use crate::catalogue::Msg;
 use crate::input_file::{InFolderError, read_in_folder};
 use crate::job::{DecodeError, Job, Photo};
 
@@ -149,8 +150,11 @@ pub fn prepare_one(
     number: usize,
 ) -> Result<PreparedPhoto, Box<DecodeError>> {
     let written = &photo.path.value;
-    let fail = |code: &'static str, message: String, label: &str, help: &str| {
-        Box::new(DecodeError::error(code, photo.path.span, message, label).with_help(help))
+    let fail = |code: &'static str, message: Msg, label: &'static str, help: &'static str| {
+        Box::new(
+            DecodeError::error(code, photo.path.span, message, Msg::new(label))
+                .with_help(Msg::new(help)),
+        )
     };
     let read = read_in_folder(folder, written, MAX_PHOTO_BYTES).map_err(|e| match e {
         InFolderError::NotInside { .. } => {
@@ -161,66 +165,66 @@ pub fn prepare_one(
                 } else {
                     "job::photo-outside-folder"
                 },
-                if absolute {
-                    format!("the photo `{written}` is an absolute path")
+                Msg::new(if absolute {
+                    "diag-photo-absolute"
                 } else {
-                    format!("the photo `{written}` is not a path inside the job's folder")
-                },
-                "expected a path relative to the job file",
-                "keep photos in the job's folder or a folder below it and name them from there, for example photo \"photos/chassis.jpg\"",
+                    "diag-photo-outside"
+                })
+                .arg("path", written.as_str()),
+                "diag-photo-relative",
+                "diag-photo-keep-inside",
             )
         }
         InFolderError::LeadsOutside { real, .. } => fail(
             "job::photo-link-outside",
-            format!(
-                "the photo `{written}` is a link that leads outside the job's folder (to {})",
-                real.display()
-            ),
-            "leads outside",
-            "copy the photo into the job's folder instead of linking to it",
+            Msg::new("diag-photo-link")
+                .arg("path", written.as_str())
+                .arg("target", real.display().to_string()),
+            "diag-leads-outside",
+            "diag-photo-copy",
         ),
         InFolderError::NotAFile { path } => fail(
             "job::photo-not-a-file",
-            format!("the photo {} is not a regular file", path.display()),
-            "not a file",
-            "a photo must be a PNG or JPEG file",
+            Msg::new("diag-photo-not-file").arg("path", path.display().to_string()),
+            "diag-not-a-file",
+            "diag-photo-png-jpeg",
         ),
         InFolderError::TooLarge { path, size, .. } => fail(
             "job::photo-too-large",
-            format!(
-                "the photo {} is {:.1} MB; the limit is {} MB",
-                path.display(),
-                size as f64 / 1e6,
-                MAX_PHOTO_BYTES / (1024 * 1024)
-            ),
-            "too large",
-            "export the photo smaller (a document prints it about 8 cm wide; 2000 pixels across is plenty)",
+            Msg::new("diag-photo-too-large")
+                .arg("path", path.display().to_string())
+                .arg("size", format!("{:.1}", size as f64 / 1e6))
+                .arg("limit", (MAX_PHOTO_BYTES / (1024 * 1024)).to_string()),
+            "diag-too-large",
+            "diag-photo-smaller",
         ),
         InFolderError::Io { path, source } => fail(
             "job::photo-unreadable",
-            format!("cannot read the photo {}: {source}", path.display()),
-            "this file",
-            "check the path: it is relative to the job file's folder",
+            Msg::new("diag-photo-cannot-read")
+                .arg("path", path.display().to_string())
+                .arg("error", source.to_string()),
+            "diag-this-file",
+            "diag-photo-check-path",
         ),
     })?;
     let Some(format) = PhotoFormat::sniff(&read.bytes) else {
         return Err(fail(
             "job::photo-not-an-image",
-            format!(
-                "the photo {} is not a PNG or JPEG picture (its content is {})",
-                read.place.display(),
-                content_words(&read.bytes)
-            ),
-            "not a picture",
-            "a photo must be a PNG or JPEG file; the name's extension does not matter, the content does",
+            Msg::new("diag-photo-not-image")
+                .arg("path", read.place.display().to_string())
+                .arg("content", content_words(&read.bytes)),
+            "diag-not-a-picture",
+            "diag-photo-content-matters",
         ));
     };
     let (bytes, width, height) = process(&read.bytes, format).map_err(|why| {
         fail(
             "job::photo-unreadable",
-            format!("the photo {} {why}", read.place.display()),
-            "this file",
-            "open the photo in an image editor and save it again as PNG or JPEG",
+            Msg::new("diag-photo-undecodable")
+                .arg("path", read.place.display().to_string())
+                .arg("why", why),
+            "diag-this-file",
+            "diag-photo-save-again",
         )
     })?;
     Ok(PreparedPhoto {

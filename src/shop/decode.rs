@@ -10,7 +10,7 @@ use miette::SourceSpan;
 use super::model::*;
 use crate::job::decode::{SAFETY_TESTS, decode_settings};
 use crate::job::reader::Reader;
-use crate::job::{DecodeError, JobDefaults, SafetyDefaults, Settings, Spanned, suggestion_help};
+use crate::job::{DecodeError, JobDefaults, SafetyDefaults, Settings, Spanned, suggestion};
 use crate::units::{Amps, Ohms, QuantityKind as Q, Volts};
 
 /// The newest shop-profile format this build reads.
@@ -45,10 +45,10 @@ pub(crate) fn decode_document(
                 DecodeError::error(
                     "job::repeated-node",
                     Reader::name_span(node),
-                    format!("`{name}` is given more than once"),
-                    "repeated here",
+                    Msg::new("diag-given-more-than-once").arg("name", name),
+                    Msg::new("diag-repeated-here"),
                 )
-                .with_help(format!("a shop profile has one `{name}` node; merge them")),
+                .with_help(Msg::new("diag-merge-shop-nodes").arg("name", name)),
             );
         }
     }
@@ -62,10 +62,10 @@ pub(crate) fn decode_document(
                 DecodeError::error(
                     "job::missing-format",
                     file_start,
-                    "the shop profile does not say which format it uses",
-                    "start of file",
+                    Msg::new("diag-shop-no-format"),
+                    Msg::new("diag-start-of-file"),
                 )
-                .with_help("begin the file with `shop-format 1`"),
+                .with_help(Msg::new("diag-begin-with-shop-format")),
             );
             SHOP_FORMAT_VERSION
         }
@@ -78,10 +78,13 @@ pub(crate) fn decode_document(
                 DecodeError::error(
                     "job::missing-node",
                     file_start,
-                    "the shop profile has no `shop` node",
-                    "start of file",
+                    Msg::new("diag-shop-no-node").arg("name", "shop"),
+                    Msg::new("diag-start-of-file"),
                 )
-                .with_help("add: shop \"Your shop's name\" { address \"…\"; contact \"…\" }"),
+                .with_help(Msg::new("diag-add").arg(
+                    "example",
+                    "shop \"Your shop's name\" { address \"…\"; contact \"…\" }",
+                )),
             );
             None
         }
@@ -94,8 +97,8 @@ pub(crate) fn decode_document(
             r.push(DecodeError::error(
                 "job::bad-value",
                 logo.span,
-                "the logo's file name is empty",
-                "expected a file name",
+                Msg::new("diag-logo-name-empty"),
+                Msg::new("diag-expected-file-name"),
             ));
             return None;
         }
@@ -118,7 +121,11 @@ pub(crate) fn decode_document(
     let job_numbers = first("job-numbers").and_then(|n| {
         r.check_entries(n, &[], 1);
         r.no_children(n);
-        let pattern = r.req_arg_string(n, "the job-number pattern", "job-numbers \"D-{yymm}-{nnn}\"")?;
+        let pattern = r.req_arg_string(
+            n,
+            "the job-number pattern",
+            "job-numbers \"D-{yymm}-{nnn}\"",
+        )?;
         match crate::job::numbering::Numbering::parse(&pattern.value) {
             Ok(_) => Some(pattern.value),
             Err(why) => {
@@ -126,10 +133,12 @@ pub(crate) fn decode_document(
                     DecodeError::error(
                         "job::bad-value",
                         pattern.span,
-                        format!("the job-number pattern `{}` cannot be used: {why}", pattern.value),
-                        "expected a pattern such as D-{yymm}-{nnn}",
+                        Msg::new("diag-bad-pattern")
+                            .arg("pattern", pattern.value.as_str())
+                            .arg("why", why.to_string()),
+                        Msg::new("diag-expected-pattern"),
                     )
-                    .with_help("pieces: {yyyy} {yy} {mm} {dd} {yymm}, and one count {n…} (one n per digit)"),
+                    .with_help(Msg::new("diag-pattern-help")),
                 );
                 None
             }
@@ -181,17 +190,19 @@ fn decode_language(node: &KdlNode, r: &mut Reader) -> Option<Language> {
             DecodeError::error(
                 "job::bad-value",
                 tag.span,
-                format!("`{}` is not a language tag", tag.value),
-                "expected a language tag such as en or de",
+                Msg::new("diag-not-language-tag").arg("tag", tag.value.as_str()),
+                Msg::new("diag-expected-language-tag"),
             )
-            .with_help(format!(
-                "built in: {}",
-                crate::catalogue::BUILT_IN
-                    .iter()
-                    .map(|(t, _)| *t)
-                    .collect::<Vec<_>>()
-                    .join(", ")
-            )),
+            .with_help(
+                Msg::new("diag-built-in-languages").arg(
+                    "tags",
+                    crate::catalogue::BUILT_IN
+                        .iter()
+                        .map(|(t, _)| *t)
+                        .collect::<Vec<_>>()
+                        .join(", "),
+                ),
+            ),
         );
         return None;
     }
@@ -205,15 +216,14 @@ fn decode_language(node: &KdlNode, r: &mut Reader) -> Option<Language> {
             DecodeError::error(
                 "job::unknown-language",
                 tag.span,
-                format!("the program has no catalogue for `{}` built in", tag.value),
-                "no built-in catalogue",
+                Msg::new("diag-no-catalogue").arg("tag", tag.value.as_str()),
+                Msg::new("diag-no-built-in-catalogue"),
             )
-            .with_help(format!(
-                "{}; or give your own translation: language \"{}\" file=\"{}.ftl\"",
-                suggestion_help(&tag.value, &built),
-                tag.value,
-                tag.value
-            )),
+            .with_help(
+                Msg::new("diag-own-translation")
+                    .arg("suggestion", suggestion(&tag.value, &built))
+                    .arg("tag", tag.value.as_str()),
+            ),
         );
         return None;
     }
@@ -228,10 +238,10 @@ fn format_version(node: &KdlNode, r: &mut Reader) -> u32 {
             DecodeError::error(
                 "job::missing",
                 Reader::name_span(node),
-                "`shop-format` needs the version number",
-                "version missing",
+                Msg::new("diag-needs-version").arg("name", "shop-format"),
+                Msg::new("diag-version-missing"),
             )
-            .with_help("write `shop-format 1`"),
+            .with_help(Msg::new("diag-write-shop-format")),
         );
         return SHOP_FORMAT_VERSION;
     };
@@ -248,10 +258,12 @@ fn format_version(node: &KdlNode, r: &mut Reader) -> u32 {
             DecodeError::error(
                 "job::format-too-new",
                 r.value_span(entry),
-                format!("this shop profile uses format {v}, but this ampreport reads format {SHOP_FORMAT_VERSION} at most"),
-                "format version",
+                Msg::new("diag-shop-format-too-new")
+                    .arg("found", v.to_string())
+                    .arg("known", SHOP_FORMAT_VERSION.to_string()),
+                Msg::new("diag-format-version"),
             )
-            .with_help("update ampreport to read this file"),
+            .with_help(Msg::new("diag-update-program")),
         );
     }
     v
@@ -289,8 +301,8 @@ fn decode_shop(node: &KdlNode, r: &mut Reader) -> Option<(String, Vec<String>, V
         r.push(DecodeError::error(
             "job::bad-value",
             name.span,
-            "the shop's name is empty",
-            "expected the name",
+            Msg::new("diag-shop-name-empty"),
+            Msg::new("diag-expected-the-name"),
         ));
         return None;
     }
@@ -308,10 +320,10 @@ fn decode_paper(node: &KdlNode, r: &mut Reader) -> Option<Paper> {
                 DecodeError::error(
                     "job::unknown-paper",
                     name.span,
-                    format!("unknown paper size `{}`", name.value),
-                    "expected a4 or letter",
+                    Msg::new("diag-unknown-paper").arg("name", name.value.as_str()),
+                    Msg::new("diag-expected-paper"),
                 )
-                .with_help(suggestion_help(&name.value, &Paper::NAMES)),
+                .with_help(suggestion(&name.value, &Paper::NAMES)),
             );
             None
         }
@@ -381,12 +393,10 @@ fn decode_warranty(node: &KdlNode, r: &mut Reader) -> Option<Warranty> {
                             DecodeError::error(
                                 "job::bad-value",
                                 w.span,
-                                format!("`period` \"{}\" is not a length of time", w.value),
-                                "expected a number and days, weeks, months or years",
+                                Msg::new("diag-bad-period").arg("text", w.value.as_str()),
+                                Msg::new("diag-expected-period"),
                             )
-                            .with_help(
-                                "for example period=\"90 days\", \"6 months\" or \"1 year\"",
-                            ),
+                            .with_help(Msg::new("diag-period-help")),
                         );
                         None
                     }

@@ -13,9 +13,11 @@ use super::notice::Notice;
 /// (Parentheses and quotes only mean something inside a link, and no
 /// link can start without a `[` or a `<`, which are always escaped.) An
 /// `&` is escaped only where it could start an entity (`&amp;`, `&#38;`),
-/// so "Halloran & Pike" pastes as it is written.
+/// and a `#` only where it could start a heading (at the start, followed
+/// by a space: text is one line), so "Halloran & Pike" and "#47 bulb"
+/// paste as written.
 const ALWAYS: &[char] = &[
-    '\\', '`', '*', '_', '[', ']', '<', '>', '#', '|', '~', '!', '{', '}', '$', '^',
+    '\\', '`', '*', '_', '[', ']', '<', '>', '|', '~', '!', '{', '}', '$', '^',
 ];
 
 /// Escapes one line of text: runs of white space (line breaks included)
@@ -53,7 +55,13 @@ fn escape_line(line: &str) -> String {
     // `+`, `1.`, `1)`), a setext underline or a thematic break (`=`, `-`).
     let digits = out.chars().take_while(char::is_ascii_digit).count();
     let lead = out.chars().next();
-    if matches!(lead, Some('-' | '+' | '=')) {
+    // A heading: `#` to `######` followed by a space or nothing.
+    let heading = lead == Some('#')
+        && out
+            .chars()
+            .find(|c| *c != '#')
+            .is_none_or(char::is_whitespace);
+    if matches!(lead, Some('-' | '+' | '=')) || heading {
         out.insert(0, '\\');
     } else if digits > 0
         && matches!(out[digits..].chars().next(), Some('.' | ')'))
@@ -365,6 +373,10 @@ mod tests {
             "    indented code",
             "line one\nline two\n# heading after break",
             "4k7 \"quoted\" 'single' 50 % (note)",
+            "#47 bulb, open",
+            "## two",
+            "a # b ## c",
+            "#",
         ];
         for s in hostile {
             let escaped = inline(s);
@@ -378,6 +390,14 @@ mod tests {
                 .filter(|e| matches!(e, Event::Start(pulldown_cmark::Tag::TableCell)))
                 .count();
             assert_eq!(cells, 4, "{s:?} broke the table");
+            // As a list item's text, it stays the item's text.
+            let (item, other) = read_back(&format!("- {escaped}"));
+            assert_eq!(item, want, "{s:?} as a list item");
+            let blocks: Vec<&String> = other
+                .iter()
+                .filter(|e| !e.contains("List") && !e.contains("Item"))
+                .collect();
+            assert!(blocks.is_empty(), "{s:?} as a list item became {other:?}");
         }
     }
 
@@ -386,6 +406,9 @@ mod tests {
         assert_eq!(inline("Halloran & Pike"), "Halloran & Pike");
         assert_eq!(inline("R&D &amp"), "R\\&D \\&amp");
         assert_eq!(inline("commit 1a2b + edits"), "commit 1a2b + edits");
+        assert_eq!(inline("#47 bulb"), "#47 bulb");
+        assert_eq!(inline("## 47"), "\\## 47");
+        assert_eq!(inline("lamp #47"), "lamp #47");
     }
 
     #[test]
