@@ -787,6 +787,26 @@ diag-photo-content-matters = ein Foto muss eine PNG- oder JPEG-Datei sein; es z�
 diag-photo-undecodable = das Foto { $path }: { $why }
 diag-photo-save-again = das Foto in einem Bildprogramm öffnen und erneut als PNG oder JPEG speichern
 
+diag-part-needs-reference = `part` braucht eine Schaltungsbezeichnung oder `what=`
+diag-which-part = welches Bauteil?
+diag-second-network = eine Änderung hat ein `network`; dies ist ein zweites
+diag-unknown-class = unbekannte Schutzklasse `{ $name }`
+diag-expected-class = I oder II erwartet
+diag-needs-reading = `{ $name }` braucht den Messwert
+diag-reading-missing = Messwert fehlt
+diag-unknown-safety-test = unbekannte Sicherheitsprüfung `{ $name }`
+diag-not-a-safety-test = keine Sicherheitsprüfung
+diag-unknown-check = unbekannte Röhrenprüfung `{ $name }`
+diag-not-a-check = keine Prüfung
+diag-empty-reason = eine Akzeptanz braucht ihre Begründung in Worten
+diag-empty-reason-label = leere Begründung
+diag-acceptance-who = eine Akzeptanz braucht den Namen des Technikers, der akzeptiert hat
+diag-who-accepted = wer hat das akzeptiert?
+diag-acceptance-when = eine Akzeptanz braucht das Datum, an dem akzeptiert wurde
+diag-when-accepted = wann wurde das akzeptiert?
+diag-needs-value = `{ $name }` braucht einen Wert
+diag-value-missing = Wert fehlt
+
 ## Die übrigen Meldungen im Terminal (src/cli), in der Sprache des
 ## Werkstattprofils, sobald es gelesen ist; die Schlusszeile eines Stapels
 ## in der Sprache, die alle seine Aufträge teilen, sonst Englisch.

@@ -787,6 +787,26 @@ diag-photo-content-matters = a photo must be a PNG or JPEG file; the name's exte
 diag-photo-undecodable = the photo { $path } { $why }
 diag-photo-save-again = open the photo in an image editor and save it again as PNG or JPEG
 
+diag-part-needs-reference = `part` needs a circuit reference or `what=`
+diag-which-part = which part?
+diag-second-network = a mod has one `network`; this is a second
+diag-unknown-class = unknown protection class `{ $name }`
+diag-expected-class = expected I or II
+diag-needs-reading = `{ $name }` needs the reading
+diag-reading-missing = reading missing
+diag-unknown-safety-test = unknown safety test `{ $name }`
+diag-not-a-safety-test = not a safety test
+diag-unknown-check = unknown valve check `{ $name }`
+diag-not-a-check = not a check
+diag-empty-reason = an acceptance needs its reason in words
+diag-empty-reason-label = empty reason
+diag-acceptance-who = an acceptance needs the name of the technician who accepted it
+diag-who-accepted = who accepted this?
+diag-acceptance-when = an acceptance needs the date it was accepted
+diag-when-accepted = when was this accepted?
+diag-needs-value = `{ $name }` needs a value
+diag-value-missing = value missing
+
 ## The terminal's other messages: what the commands say besides a job's
 ## summary (src/cli), in the job's shop-profile language once it is read;
 ## a batch's closing summary in the language all its jobs share, else
