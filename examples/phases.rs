@@ -14,14 +14,22 @@ fn main() {
     let findings = ampreport::calc::derive(&decoded.job, &ratings);
     let t_c = t.elapsed();
     let t = Instant::now();
-    let d = ampreport::report::plots::dissipation_chart(&findings).unwrap();
+    let d = ampreport::report::plots::dissipation_chart(
+        &findings,
+        ampreport::catalogue::Catalogue::english(),
+    )
+    .unwrap();
     let parts = ampreport::report::plots::split_dissipation(&d);
     for p in &parts {
         ampreport::report::plots::dissipation_svg(&p.chart).unwrap();
     }
     let t_p1 = t.elapsed();
     let t = Instant::now();
-    let s = ampreport::report::plots::supply_chart(&findings).unwrap();
+    let s = ampreport::report::plots::supply_chart(
+        &findings,
+        ampreport::catalogue::Catalogue::english(),
+    )
+    .unwrap();
     for p in &ampreport::report::plots::split_supply(&s) {
         ampreport::report::plots::supply_svg(&p.chart).unwrap();
     }

@@ -380,6 +380,272 @@ period-years = { $count ->
        *[other] { $count } Jahre
     }
 
+## Wörter der Tabellenzeilen, die das Programm bildet
+## (src/report/handover/context.rs und context/bench.rs).
+
+doc-window-inside = im Ziel
+doc-window-above = darüber
+doc-window-below = darunter
+doc-per-hour = { $price } pro Stunde
+doc-each = { $price } je Stück
+doc-yes = ja
+doc-no = nein
+role-preamp = Vorstufe
+role-phase-inverter = Phasenumkehr
+role-output = Endstufe
+role-rectifier = Gleichrichter
+role-tremolo = Tremolo
+role-reverb-driver = Hall-Treiber
+role-reverb-recovery = Hall-Rückgewinnung
+role-other = sonstige
+doc-type-in-set = { $type } in „{ $set }“
+doc-type-change = { $position }: { $type } (Bestückung: { $line_up })
+doc-kind-dropper = Siebwiderstand
+doc-kind-cathode-resistor = Kathodenwiderstand
+doc-kind-screen-resistor = Schirmgitterwiderstand
+doc-kind-filter-capacitor = Siebkondensator
+doc-across-sense-named = am Messwiderstand { $reference } ({ $ohms })
+doc-across-sense-value = am Messwiderstand ({ $ohms })
+doc-across-sense = am Messwiderstand
+doc-across-primary-value = über der halben Primärwicklung ({ $ohms })
+doc-across-primary-shared = über der halben Primärwicklung ({ $ohms }, gemeinsam mit { $others })
+doc-across-primary = über der halben Primärwicklung
+doc-across-probe = Kathodenstrom am Bias-Messadapter
+doc-counted-outputs = die Kathodenströme der Endröhren
+doc-counted-of = Kathodenströme von { $valves }
+doc-figure-rc-corner = RC-Eckfrequenz
+doc-figure-cathode-bypass = Eckfrequenz der Kathodenüberbrückung
+doc-figure-stage-gain = Stufenverstärkung
+doc-figure-phase-shift = Phasenschieber-Oszillator
+doc-chart-band-fixed = Das graue Band ist das Ziel bei fester Gittervorspannung, { $low }–{ $high } % des Grenzwerts.
+doc-chart-band-cathode = Die gestrichelte Linie ist die Vorsichtsgrenze bei Kathodenautomatik, { $caution } % des Grenzwerts.
+doc-class-one = I (mit Schutzleiter)
+doc-class-two = II (schutzisoliert)
+doc-test-earth-continuity = Schutzleiterwiderstand
+doc-test-insulation = Isolationswiderstand
+doc-test-leakage = Ableitstrom (Berührungsstrom)
+doc-pass = bestanden
+doc-fail = nicht bestanden
+doc-bands-shop = aus dem Profil der Werkstatt: { $names }
+doc-bands-job = für diesen Auftrag gesetzt: { $names }
+doc-bands-defaults = { $sets }; die übrigen sind die eingebauten Voreinstellungen
+doc-valve-class-output-pentode = Endpentode
+doc-valve-class-beam-tetrode = Beam-Tetrode
+doc-valve-class-power-triode = Leistungstriode
+doc-valve-class-preamp-triode = Vorstufentriode
+doc-valve-class-preamp-pentode = Vorstufenpentode
+doc-valve-class-rectifier = Gleichrichter
+doc-built-in = eingebaut
+doc-input-shorted = kurzgeschlossen
+doc-input-open = offen
+doc-against-rated = Nennleistung { $watts }
+doc-against-measured = gemessen { $watts }
+doc-below = unter { $frequency }
+doc-above = über { $frequency }
+doc-suggest-hottest = { $valve } ({ $type }), die heißeste Röhre daran,
+doc-suggest-asked = Der Auftrag verlangt einen Vorschlag für diese Messreihe.
+doc-suggest-shown = Gezeigt, weil die Anodenverlustleistung über dem Richtwert von { $caution } % für Kathodenautomatik liegt.
+doc-suggest-present = { $watts } W, { $pct } % von { $max }
+doc-suggest-target = { $pct } % von { $max }, { $watts } W
+
+## Die festen Wörter der Diagramme (src/report/plots.rs, plots/warm_up.rs,
+## response_chart.rs, network_chart.rs) und der Netzwerkansicht einer
+## Änderung (src/report/handover/context/network_view.rs).
+
+chart-span = { $first } bis { $last }
+chart-part-readings = Messreihen { $span }
+chart-part-curves = Kurven { $span }
+chart-dissipation-axis = Anodenverlustleistung, % des Grenzwerts
+chart-fixed-bias-aim = Zielbereich
+chart-caution = Vorsicht { $pct } %
+chart-full-rating = 100 % Grenzwert
+chart-expected-band = Sollwert ± Toleranz
+chart-supply-axis = Volt DC, umgerechnet auf { $nominal } V Netz
+chart-db-against-reference = dB zur Bezugsfrequenz
+chart-frequency-axis = Frequenz, Hz (logarithmisch)
+chart-minus-3db-point = −3-dB-Punkt
+chart-idle-current-ik = Ruhestrom (Ik), mA
+chart-idle-current = Ruhestrom, mA
+chart-minutes = Minuten nach dem Einschalten
+chart-before-mod = vor der Änderung
+chart-after-mod = danach
+chart-setting = Stellung { $number }: { $pots }
+chart-pots-at = Potis auf { $pots }
+chart-db-at-load = dB an der Last
+doc-network-scoop = Senke bei { $frequency }, { $depth } tief
+doc-network-flat = eben innerhalb 3 dB
+doc-network-low-cut = Tiefenabsenkung { $frequency }
+doc-network-high-cut = Höhenabsenkung { $frequency }
+doc-network-loaded = Abgegriffen an Knoten { $node }, belastet mit { $ohms } gegen Masse.
+doc-network-unloaded = Abgegriffen an Knoten { $node }, unbelastet.
+doc-network-driven = Gespeist an Knoten { $node } von { $source }.
+doc-network-driven-when = Gespeist an Knoten { $node } ({ $state }) von { $source }.
+doc-network-own-gain = Deren eigene Verstärkung, etwa { $gain }, ist in den Kurven nicht enthalten.
+doc-network-default-label = Netzwerk
+doc-network-never = nie 180°
+doc-network-pot-setting = Stellung { $pot }
+doc-network-setting = Stellung
+
+## Die Zusammenfassung in einfachen Worten auf Seite 1 (src/report/summary.rs).
+## `$names` ist eine Aufzählung („V3 und V4“), `$range` ein Prozentwert oder
+## Bereich („67–68 %“), `$troubles` eine Aufzählung der Wendungen darüber.
+
+summary-valves-hot = { $count ->
+        [one] Endröhre { $names } läuft heiß
+       *[other] Endröhren { $names } laufen heiß
+    } ({ $range } der Anodenverlustleistung)
+summary-valves-cold = { $count ->
+        [one] Endröhre { $names } läuft zu kalt
+       *[other] Endröhren { $names } laufen zu kalt
+    } ({ $range } der Anodenverlustleistung)
+summary-valves-beyond = { $count ->
+        [one] Endröhre { $names } über der zulässigen Anodenverlustleistung
+       *[other] Endröhren { $names } über der zulässigen Anodenverlustleistung
+    } ({ $range })
+summary-valves-high-line = { $count ->
+        [one] Endröhre { $names } nahe an der zulässigen Anodenverlustleistung
+       *[other] Endröhren { $names } nahe an der zulässigen Anodenverlustleistung
+    } an der oberen Netzgrenze ({ $range })
+summary-screen-hot = zu hohe Schirmgitterverlustleistung an { $names } ({ $range } des Grenzwerts)
+summary-voltage-max = Röhrenspannungen über dem veröffentlichten Höchstwert an { $names }
+summary-cathode-current = mehr als der zulässige Kathodenstrom an { $names }
+summary-nodes-off = Versorgungsspannungen abweichend von der Spannungstabelle an { $names }
+summary-resistor-over = Widerstand { $name } überlastet mit { $pct } seiner Belastbarkeit
+summary-resistors-over = Widerstände { $names } überlastet
+summary-resistors-warm = { $count ->
+        [one] Widerstand { $names } wird warm
+       *[other] Widerstände { $names } werden warm
+    }
+summary-capacitors-over = { $count ->
+        [one] Kondensator { $names } für eine niedrigere Spannung ausgelegt, als er sehen kann
+       *[other] Kondensatoren { $names } für eine niedrigere Spannung ausgelegt, als sie sehen können
+    }
+summary-capacitors-margin = wenig Spannungsreserve { $count ->
+        [one] am Kondensator { $names }
+       *[other] an den Kondensatoren { $names }
+    }
+summary-rectifier-load = Gleichrichterröhre { $names } mit { $range } ihres Nennstroms belastet
+summary-heater-low = Heizspannung { $pct } % zu niedrig
+summary-heater-high = Heizspannung { $pct } % zu hoch
+summary-found-ok = Die Messreihe „{ $label }“ zeigte alle Werte innerhalb ihrer Grenzen.
+summary-found = Die Messreihe „{ $label }“ zeigte: { $troubles }.
+summary-parts = { $count ->
+        [one] Ein Bauteil wurde ersetzt ({ $parts }).
+       *[other] { $count } Bauteile wurden ersetzt ({ $parts }).
+    }
+summary-mods = { $count ->
+        [one] Eine Änderung wurde vorgenommen (unten aufgeführt).
+       *[other] { $count } Änderungen wurden vorgenommen (unten aufgeführt).
+    }
+summary-type-change = In { $position } steckt jetzt eine { $now } (vorher eine { $was }).
+summary-idle-now = Die Endröhren arbeiten jetzt im Ruhezustand mit { $now } ihrer Anodenverlustleistung (vorher { $was }).
+summary-now-ok = { $accepted ->
+        [0] Bei der Übergabe („{ $label }“) liegen alle Werte innerhalb ihrer Grenzen.
+        [one] Bei der Übergabe („{ $label }“) liegen alle Werte innerhalb ihrer Grenzen, bis auf einen, den der Techniker beurteilt und akzeptiert hat (unten aufgeführt).
+       *[other] Bei der Übergabe („{ $label }“) liegen alle Werte innerhalb ihrer Grenzen, bis auf { $accepted }, die der Techniker beurteilt und akzeptiert hat (unten aufgeführt).
+    }
+summary-now-open = Bei der Übergabe („{ $label }“) braucht noch Aufmerksamkeit: { $troubles }.
+summary-no-measurements = Es wurden keine Messungen festgehalten.
+summary-no-safety = Es wurden keine elektrischen Sicherheitsprüfungen festgehalten.
+summary-safety-failed = { $count ->
+        [one] Die Prüfung { $tests } hat den Grenzwert der Werkstatt nicht eingehalten.
+       *[other] Die Prüfungen { $tests } haben den Grenzwert der Werkstatt nicht eingehalten.
+    }
+summary-safety-ok = { $count ->
+        [one] Die elektrische Sicherheitsprüfung hat den Grenzwert der Werkstatt eingehalten.
+       *[other] Alle { $count } elektrischen Sicherheitsprüfungen haben die Grenzwerte der Werkstatt eingehalten.
+    }
+
+## Was Aufmerksamkeit braucht, gruppiert (src/report/attention.rs).
+
+attention-accepted = { $brief } (akzeptiert)
+
+## Das Zustandsblatt für einen Verkauf (src/report/listing/words.rs): seine
+## Beschriftungen und die Sätze, die es aus den Befunden bildet.
+
+listing-kicker = Zustandsbericht
+listing-serviced-by = Gewartet von
+listing-service-record = Wartungsprotokoll
+listing-the-unit = Das Gerät
+listing-make = Hersteller
+listing-model = Modell
+listing-year = Baujahr
+listing-serial = Seriennummer
+listing-mains = Netz
+listing-description = Beschreibung
+listing-condition = Zustand
+listing-health = Zustand beim Verlassen der Werkstatt
+listing-check = Prüfung
+listing-state = Status
+listing-in-words = In Worten
+listing-output-valve = Endröhre
+listing-valve-type = Typ
+listing-bias = Vorspannung
+listing-idle = Ruhezustand, % der Anodenverlustleistung
+listing-high-line = Obere Netzgrenze
+listing-safety-tests = Elektrische Sicherheitsprüfungen
+listing-no-safety-tests = Es wurden keine elektrischen Sicherheitsprüfungen festgehalten.
+listing-limit = Grenzwert
+listing-serviced = Was gewartet wurde
+listing-part = Teil
+listing-was = Vorher
+listing-now = Jetzt
+listing-why = Warum
+listing-no-parts = Es wurden keine Teile ersetzt.
+listing-findings = Befund
+listing-work = Ausgeführte Arbeiten
+listing-originality = Originalzustand
+listing-item = Posten
+listing-change = Änderung
+listing-reversible = Rückbaubar
+listing-original-kept = Original aufbewahrt
+listing-not-listed = Was nicht aufgeführt ist, wurde bei dieser Wartung nicht verändert; ob es das Original des Herstellers ist, wurde nicht geprüft.
+listing-notes = Anmerkungen
+listing-photos = Fotos
+listing-made-with = Erstellt mit ampreport
+listing-commit = Commit
+listing-edits = + Änderungen
+listing-job-file-sha = SHA-256 der Auftragsdatei
+listing-page = Seite
+listing-of = von
+listing-bias-fixed = fest
+listing-bias-cathode = Kathode
+listing-title = Zustandsbericht: { $name }
+listing-pdf-description = Zustands- und Wartungsübersicht eines { $name } für eine Verkaufsanzeige
+listing-no-measurements = Bei dieser Wartung wurden keine Messungen festgehalten.
+listing-all-inside = { $accepted ->
+        [0] Beim Verlassen der Werkstatt liegen alle gemessenen Werte innerhalb ihrer Grenzen.
+        [one] Beim Verlassen der Werkstatt liegen alle gemessenen Werte innerhalb ihrer Grenzen, bis auf einen, den der Techniker als annehmbar beurteilt hat.
+       *[other] Beim Verlassen der Werkstatt liegen alle gemessenen Werte innerhalb ihrer Grenzen, bis auf { $accepted }, die der Techniker als annehmbar beurteilt hat.
+    }
+listing-needs-attention = Beim Verlassen der Werkstatt braucht noch Aufmerksamkeit: { $families }.
+listing-accepted-only = innerhalb der Grenzen, bis auf das, was der Techniker als annehmbar beurteilt hat: { $what }
+listing-readings = Messwerte „{ $label }“
+listing-at-mains = , bei { $volts } Netzspannung
+listing-state-ok = ok
+listing-state-caution = Vorsicht
+listing-state-over = zu hoch
+listing-state-cold = zu kalt
+listing-state-accepted = akzeptiert
+listing-state-not-measured = nicht gemessen
+listing-change-replaced = ersetzt
+listing-change-modified = geändert
+listing-parts-replaced = { $count ->
+        [0] keine Teile ersetzt
+        [one] 1 Teil ersetzt
+       *[other] { $count } Teile ersetzt
+    }
+listing-no-modifications = keine Änderungen
+listing-how-reversible = rückbaubar
+listing-all-reversible = alle rückbaubar
+listing-not-reversible = nicht als rückbaubar angegeben
+listing-some-reversible = { $count } rückbaubar
+listing-modifications = { $count ->
+        [one] { $count } Änderung ({ $how })
+       *[other] { $count } Änderungen ({ $how })
+    }
+listing-originals-kept = Originalteile aufbewahrt: { $list }
+
 ## Das Terminal (`ampreport check`). Leerzeichen am Anfang oder Ende einer
 ## Meldung entfallen: das Programm setzt sie.
 
@@ -483,9 +749,8 @@ term-minus-3db = −3 dB: { $low } und { $high }
 term-gain = Verstärkung
 term-gain-line = { $input } am Eingang für { $output } am Ausgang bei { $frequency } = ×{ $times } ({ $db } dB)
 
-## Begründungen und Schwellen der Prüfungen (src/calc). Die JSON-Ausgabe
-## bleibt englisch; diese Übersetzungen sind für das Protokoll bestimmt,
-## sobald es die Begründungen aus dem Katalog der Werkstatt nimmt.
+## Begründungen und Schwellen der Prüfungen (src/calc), wie das Protokoll,
+## das Terminal und `calc --json` sie in der Sprache der Werkstatt zeigen.
 
 reason-includes-screen = (einschließlich Schirmgitterstrom, daher auf der hohen Seite)
 reason-at-nominal-mains = bei Netznennspannung
@@ -511,6 +776,219 @@ threshold-no-chart = keine: der Auftrag nennt keinen Tabellenwert
 threshold-heater = innerhalb ±{ $tolerance } % von { $nominal }
 reason-at-nominal = { $volts } bei Netznennspannung ({ $deviation } %)
 reason-heater = { $measured } weicht um { $deviation } % von { $nominal } ab
+
+## Begründungen: ein Wert gegen seinen Nennwert, die übrigen Prüfungen der
+## Endröhren (src/calc/status.rs, src/calc/valve.rs).
+
+threshold-under-rating = Vorsicht über { $caution } % von { $rating }, zu hoch über 100 %
+reason-of-rating = { $what } ist { $pct } % des Nennwerts von { $rating }
+reason-of-rating-guide = { $what } ist { $pct } % des Nennwerts von { $rating }, über dem Richtwert von { $caution } %
+reason-plate-high-line = an der oberen Netzgrenze ({ $mains }) läge die Anodenverlustleistung bei { $watts } W, { $pct } % des Grenzwerts
+threshold-plate-high-line = Vorsicht, wenn die Hochrechnung auf die obere Netzgrenze 100 % übersteigt
+reason-screen-dissipation = Schirmgitterverlustleistung
+threshold-screen-dissipation = zu hoch über 100 % von { $rating }; Vorsicht, wenn die Hochrechnung auf die obere Netzgrenze darüber liegt
+reason-screen-high-line = die Schirmgitterverlustleistung läge an der oberen Netzgrenze bei { $pct } % des Grenzwerts
+threshold-cathode-current = zu hoch über dem Höchstwert von { $max }
+reason-cathode-current-over = Kathodenstrom { $current } ist { $pct } % des Höchstwerts
+reason-cathode-current = Kathodenstrom ist { $pct } % des Höchstwerts
+
+## Begründungen: Widerstände, Siebkondensatoren und die Gleichrichterröhre
+## (src/calc/supply.rs). `place-…` sagen, wo ein Bauteil sitzt.
+
+reason-dissipation = Verlustleistung { $watts }
+reason-resistor-high-line = würde an der oberen Netzgrenze { $watts } umsetzen, { $pct } % des Nennwerts
+reason-resistor-no-rating = setzt { $watts } um; keine Belastbarkeit angegeben
+threshold-no-power-rating = keine: der Auftrag nennt keine Belastbarkeit
+reason-not-measured = { $nodes } nicht gemessen
+place-between = { $from } → { $to }
+place-cathodes = { $count ->
+        [one] Kathode { $valves }
+       *[other] Kathoden { $valves }
+    }
+place-screen = Schirmgitter { $valve }
+place-to-screen = { $node } → g2 { $valve }
+reason-silicon-rectifier = Siliziumgleichrichter
+reason-valve-rectifier = Gleichrichterröhre { $type }
+reason-valve-rectifier-slow = Gleichrichterröhre { $type }, indirekt geheizt
+reason-rectifier-not-stated = Gleichrichter nicht angegeben, als Silizium angenommen
+reason-cap-peak-words = Einschaltspitze an der oberen Netzgrenze { $mains } ({ $rectifier })
+reason-cap-work-words = Betriebsspannung an der oberen Netzgrenze { $mains }
+threshold-capacitor = zu hoch über der Nennspannung von { $rating }; Vorsicht, wenn die Reserve unter { $margin } % liegt
+reason-cap-unchecked = ; die Betriebsspannung wurde nicht geprüft: { $node } nicht gemessen
+reason-cap-both-over = die { $peak }, { $peak_volts }, und die { $work }, { $work_volts }, übersteigen beide die Nennspannung von { $rating }
+reason-cap-work-over = die { $work }, { $work_volts }, übersteigt die Nennspannung von { $rating }
+reason-cap-work-over-peak = die { $work }, { $work_volts }, übersteigt die Nennspannung von { $rating } (die { $peak } erreicht { $peak_volts }; ein langsam anheizender Gleichrichter macht das weniger wahrscheinlich)
+reason-cap-peak-slow = die { $peak }, { $highest }, übersteigt die Nennspannung von { $rating }; ein langsam anheizender Gleichrichter macht das weniger wahrscheinlich, aber nicht unmöglich
+reason-cap-peak-over = die { $peak }, { $highest }, übersteigt die Nennspannung von { $rating }
+reason-cap-margin-low = die { $source }, { $highest }, lässt nur { $margin } % Reserve zur Nennspannung von { $rating }
+reason-cap-margin = höchste zu erwartende Spannung { $highest } ({ $source }) lässt { $margin } % Reserve
+threshold-rectifier = Vorsicht über 90 % des Nennstroms von { $rating }, zu hoch über 100 % (nur die Endröhren: eine Untergrenze)
+reason-rectifier = die Endröhren allein ziehen { $load } mA, { $pct } % der { $rating } mA, die { $type } { $position } liefern darf
+
+## Begründungen: elektrische Sicherheitsprüfungen (src/calc/safety.rs).
+
+safety-limit-with-cord = ≤ { $limit } + Leitung { $cord } = { $allowed }
+safety-earth = Schutzleiterwiderstand { $ohms }
+safety-insulation-limit = ≥ { $ohms } bei { $volts } DC
+safety-insulation = Isolationswiderstand { $ohms } bei { $volts } DC
+safety-leakage = Ableitstrom { $amps }
+safety-meets = { $what } hält den Grenzwert { $limit } ein
+safety-fails = { $what } verfehlt den Grenzwert { $limit }
+safety-test-earth-continuity = Schutzleiter
+safety-test-insulation = Isolation
+safety-test-leakage = Ableitstrom
+
+## Begründungen: Messungen am Prüfplatz (src/calc/bench.rs).
+
+bench-at-clipping = am Beginn der Übersteuerung
+bench-at-distortion = bei { $pct } % Klirrfaktor
+bench-with-drive = bei { $volts } Ansteuerung
+bench-power-into = { $watts } an { $load } { $condition }
+bench-power-at-drive = { $power }; bei fester Ansteuerung gemessen, daher nicht gegen die Nennleistung bewertet
+threshold-power-at-drive = keine: bewertet werden nur Messungen an der Übersteuerungsgrenze oder bei angegebenem Klirrfaktor
+threshold-power = Vorsicht unter { $guide } % der Nennleistung von { $rated }
+bench-power-below-guide = Ausgangsleistung { $power } ist { $pct } % der Nennleistung von { $rated }, unter dem Richtwert von { $guide } %
+bench-power-of-rated = Ausgangsleistung { $power } ist { $pct } % der Nennleistung von { $rated }
+bench-power-no-rating = Ausgangsleistung { $power }; der Auftrag nennt keine Nennleistung zum Vergleich
+threshold-power-no-rating = keine: der Auftrag nennt keine Nennleistung
+bench-hum-level-shorted = Brumm und Rauschen { $volts } ({ $dbv } dBV) bei kurzgeschlossenem Eingang
+bench-hum-level-open = Brumm und Rauschen { $volts } ({ $dbv } dBV) bei offenem Eingang
+threshold-hum = Vorsicht bei weniger als { $guide } dB unter Vollaussteuerung
+bench-rated-full-output = der Nennleistung von { $watts }
+bench-measured-full-output = der gemessenen Höchstleistung von { $watts }
+bench-hum-below-guide = { $level } liegt nur { $db } dB unter { $against }, weniger als der Richtwert von { $guide } dB
+bench-hum-below = { $level } liegt { $db } dB unter { $against }
+bench-hum-no-full = { $level }; keine gemessene oder Nennleistung zum Vergleich
+threshold-hum-no-full = keine: der Auftrag nennt weder eine gemessene Ausgangsleistung noch eine Nennleistung
+
+## Die Prüfungen einer Röhre und wie ihr Ruhestrom bestimmt wurde
+## (src/calc/findings.rs).
+
+check-plate-dissipation = Anodenverlustleistung
+check-plate-dissipation-high-line = Anodenverlustleistung an der oberen Netzgrenze
+check-screen-dissipation = Schirmgitterverlustleistung
+check-plate-voltage = Anodenspannung
+check-screen-voltage = Schirmgitterspannung
+check-cathode-current = Kathodenstrom
+check-rectifier-load = Gleichrichterlast
+method-shared-cathode-resistor = gemeinsamer Kathodenwiderstand
+method-own-cathode-resistor = eigener Kathodenwiderstand
+method-sense-resistor = Messwiderstand
+method-transformer-resistance = Wicklungswiderstand
+method-shunt = Shunt über der halben Primärwicklung
+method-probe = Bias-Messadapter
+
+## Der entscheidende Wert eines Status in wenigen Worten, für die
+## Statusspalte der Tabellen (src/calc/brief.rs). `$pct` bringt sein „%“ mit.
+
+brief-plate = Anode { $pct }
+brief-plate-high-line = Anode { $pct } (Netz max.)
+brief-screen = Schirmgitter { $pct }
+brief-voltage-high-line = { $name } { $pct } (Netz max.)
+brief-voltage-of-max = { $name } { $pct } v. Max.
+brief-cathode-current = Ik { $pct } v. Max.
+brief-from-chart = { $deviation } % zur Tabelle
+brief-no-chart = kein Tabellenwert
+brief-at-high-line = { $pct } % (Netz max.)
+brief-of-rating = { $pct } % v. Nennwert
+brief-no-rating = kein Nennwert angegeben
+brief-working-high-line = Betrieb, Netz max.
+brief-cold-start-peak = Einschaltspitze
+brief-margin = { $pct } % Reserve
+brief-volts-on-rating = { $volts } { $what } bei { $rating }
+brief-margin-what = { $pct } % Reserve, { $what }
+brief-of-rated = { $pct } % der Nennleistung
+brief-below-full = { $db } dB unter Vollpegel
+brief-against = { $measured } gegen { $limit }
+
+## Warnungen und die Übersicht auf Seite 1 (src/calc/mod.rs): worum es bei
+## einem Befund geht und die Zeile jeder Gruppe.
+
+warn-subject-reason = { $subject }: { $reason }
+warn-subject-safety = Sicherheit
+warn-subject-sign-off = Abnahme
+warn-subject-job = Auftrag
+warn-subject-heater = Heizung
+warn-subject-heater-labelled = Heizung { $label }
+warn-subject-output-power = Ausgangsleistung
+warn-subject-hum-noise = Brumm und Rauschen
+warn-subject-on-channel = { $what } (Kanal { $channel })
+warn-acceptance-unmatched = die Akzeptanz von { $what } trifft auf keinen Wert außerhalb seiner Grenzen und akzeptiert daher nichts
+warn-accept-node = Messpunkt { $name }
+warn-accept-heater = Heizung { $name }
+warn-accept-heater-supply = die Heizversorgung
+warn-accept-safety = die Prüfung { $name }
+warn-accept-in-set = { $what } in „{ $set }“
+warn-not-measured-final = { $what } ist in „{ $final }“, der letzten Messreihe, nicht gemessen (in „{ $set }“ schon)
+warn-no-sets = Der Auftrag enthält keine Messreihen, daher konnten keine Werte berechnet werden.
+warn-subject-network = Netzwerk
+warn-network-problem = Das Netzwerk der Änderung „{ $what }“ ließ sich nicht berechnen: { $problem }.
+warn-no-mu-ra = { $position } ({ $type }): die Datentabelle nennt keine typischen Werte μ und ra, daher fehlt der berechnete Wert der Stufe.
+figure-rc-corner = { $ohms } mit { $farads }: Eckfrequenz { $frequency }
+figure-cathode-bypass = { $valve } ({ $type }, μ { $mu }, ra { $ra }): Rk { $rk } überbrückt mit { $ck } an { $load } Last: Eckfrequenz { $frequency }
+figure-gain-bypassed = { $valve } ({ $type }) an { $load }, Kathode überbrückt: Verstärkung etwa { $gain }
+figure-gain-unbypassed = { $valve } ({ $type }) an { $load }, { $rk } nicht überbrückt: Verstärkung etwa { $gain }
+figure-phase-shift = drei Glieder aus { $ohms } und { $farads }: etwa { $frequency } (die Stufe braucht eine Verstärkung von mindestens { $gain })
+note-unknown-type = { $position }: der Röhrentyp { $type } steht nicht in der Datentabelle
+note-not-checked = { $reference }: nicht geprüft, { $reason }
+family-output-valves = Endröhren gegen ihre Grenzwerte
+family-supply-voltages = Versorgungsspannungen gegen die Tabelle
+family-stressed-parts = Belastete Widerstände, Kondensatoren und Gleichrichter
+family-heater = Heizversorgung
+family-bench-tests = Messungen am Prüfplatz
+family-safety-tests = Elektrische Sicherheitsprüfungen
+family-no-safety = keine Sicherheitsprüfungen festgehalten
+family-no-bench = keine Messungen am Prüfplatz festgehalten
+family-nothing-measured = nichts gemessen
+family-check-of = { $check } von { $names }
+family-accepted = vom Techniker akzeptiert: { $what } (Gründe unten)
+family-safety-ok = { $count ->
+        [one] die Prüfung hält ihren Grenzwert ein
+       *[other] alle { $count } Prüfungen halten ihre Grenzwerte ein
+    }
+family-valves-ok = { $count ->
+        [one] { $count } Endröhre innerhalb ihrer Grenzwerte
+       *[other] { $count } Endröhren innerhalb ihrer Grenzwerte
+    }; am heißesten { $hottest } mit { $pct } % ihrer Anodenverlustleistung
+family-nodes-ok = { $count ->
+        [one] { $count } Messpunkt
+       *[other] { $count } Messpunkte
+    } innerhalb der Toleranz zur Tabelle; größte Abweichung { $deviation } % an { $node }
+family-busiest-resistor = am stärksten belasteter Widerstand { $reference } mit { $pct } % seines Nennwerts
+family-least-margin = kleinste Kondensatorreserve { $pct } % ({ $reference })
+family-rectifier-load = Gleichrichter { $position } mit { $pct } % seines Nennwerts
+family-heater-ok = { $measured } gegen { $nominal } ({ $deviation } %)
+family-bench-power = { $watts } W an { $load } { $condition }
+family-bench-power-rated = { $watts } W an { $load } { $condition } ({ $pct } % der Nennleistung)
+family-bench-hum-below = Brumm und Rauschen { $db } dB unter Vollaussteuerung
+family-bench-hum = Brumm und Rauschen { $volts } ({ $dbv } dBV)
+family-bench-response-both = −3 dB bei { $low } und { $high }
+family-bench-response-low = −3 dB bei { $low }, innerhalb 3 dB bis { $high }
+family-bench-response-high = innerhalb 3 dB ab { $low }, −3 dB bei { $high }
+family-bench-response-flat = innerhalb 3 dB von { $low } bis { $high }
+family-bench-gain = Verstärkung { $db } dB
+
+## Hinweise zu Messwerten, die nicht verwendet werden konnten (src/calc).
+## Jeder beginnt mit dem, worum es geht, und einem Doppelpunkt.
+
+note-screen-above-supply = { $position }: das Schirmgitter zeigt { $screen }, seine Versorgung { $supply } aber { $volts }; der Schirmgitterstrom bleibt unberücksichtigt
+note-no-idle-current = { $position }: kein Messwert ergibt den Ruhestrom (Kathoden-, Messwiderstands- oder Halbwicklungsspannung oder einen Strom messen)
+note-no-half-primary = { $position }: ein Spannungsabfall an der Halbwicklung ist angegeben, aber die Schaltung nennt keinen Halbwicklungswiderstand für { $position }
+note-no-sense-resistor = { $position }: eine Spannung am Messwiderstand ist angegeben, aber die Schaltung hat keinen Messwiderstand für { $position }
+
+note-unfit-no-mu = die Datentabelle nennt kein { $factor } für { $type }
+note-unfit-no-plate = es gibt keinen Messwert der Anodenspannung
+note-unfit-no-screen = es gibt keinen Messwert der Schirmgitterspannung
+note-unfit-no-current = kein Messwert ergibt den Ruhestrom
+note-unfit-no-grid = es gibt keinen Messwert der Gitterspannung
+note-unfit-cut-off = ihre Messwerte liegen nach dem Drei-Halbe-Gesetz (μ { $mu }) im oder jenseits des Sperrbereichs, daher lässt sich das Gesetz nicht anpassen
+note-no-suggestion-figure = { $reference }: kein Vorschlag für den Kathodenwiderstand, da keine Röhre daran einen Wert der Anodenverlustleistung hat
+note-no-suggestion-unfit = { $reference }: kein Vorschlag für den Kathodenwiderstand, da für { $valve } gilt: { $why }
+note-no-suggestion-reach = { $reference }: nach dem Drei-Halbe-Gesetz bringt kein Kathodenwiderstand { $valve } auf { $pct } % seiner Anodenverlustleistung
+
+## Aufzählungen im Text: „V3, V4 und V5“.
+
+list-and = { $first } und { $last }
 
 ## Diagnosen: Probleme in Auftragsdateien, Werkstattprofilen,
 ## Übersetzungsdateien und Fotos, in der Sprache des Werkstattprofils.
@@ -786,6 +1264,26 @@ diag-not-a-picture = kein Bild
 diag-photo-content-matters = ein Foto muss eine PNG- oder JPEG-Datei sein; es zählt nicht die Endung des Namens, sondern der Inhalt
 diag-photo-undecodable = das Foto { $path }: { $why }
 diag-photo-save-again = das Foto in einem Bildprogramm öffnen und erneut als PNG oder JPEG speichern
+
+diag-part-needs-reference = `part` braucht eine Schaltungsbezeichnung oder `what=`
+diag-which-part = welches Bauteil?
+diag-second-network = eine Änderung hat ein `network`; dies ist ein zweites
+diag-unknown-class = unbekannte Schutzklasse `{ $name }`
+diag-expected-class = I oder II erwartet
+diag-needs-reading = `{ $name }` braucht den Messwert
+diag-reading-missing = Messwert fehlt
+diag-unknown-safety-test = unbekannte Sicherheitsprüfung `{ $name }`
+diag-not-a-safety-test = keine Sicherheitsprüfung
+diag-unknown-check = unbekannte Röhrenprüfung `{ $name }`
+diag-not-a-check = keine Prüfung
+diag-empty-reason = eine Akzeptanz braucht ihre Begründung in Worten
+diag-empty-reason-label = leere Begründung
+diag-acceptance-who = eine Akzeptanz braucht den Namen des Technikers, der akzeptiert hat
+diag-who-accepted = wer hat das akzeptiert?
+diag-acceptance-when = eine Akzeptanz braucht das Datum, an dem akzeptiert wurde
+diag-when-accepted = wann wurde das akzeptiert?
+diag-needs-value = `{ $name }` braucht einen Wert
+diag-value-missing = Wert fehlt
 
 ## Die übrigen Meldungen im Terminal (src/cli), in der Sprache des
 ## Werkstattprofils, sobald es gelesen ist; die Schlusszeile eines Stapels

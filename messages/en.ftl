@@ -379,6 +379,272 @@ period-years = { $count ->
        *[other] { $count } years
     }
 
+## Words of the document's rows built by the program
+## (src/report/handover/context.rs and context/bench.rs).
+
+doc-window-inside = inside
+doc-window-above = above
+doc-window-below = below
+doc-per-hour = { $price } per hour
+doc-each = { $price } each
+doc-yes = yes
+doc-no = no
+role-preamp = preamp
+role-phase-inverter = phase inverter
+role-output = output
+role-rectifier = rectifier
+role-tremolo = tremolo
+role-reverb-driver = reverb driver
+role-reverb-recovery = reverb recovery
+role-other = other
+doc-type-in-set = { $type } in “{ $set }”
+doc-type-change = { $position }: { $type } (line-up: { $line_up })
+doc-kind-dropper = dropper
+doc-kind-cathode-resistor = cathode resistor
+doc-kind-screen-resistor = screen resistor
+doc-kind-filter-capacitor = filter capacitor
+doc-across-sense-named = across the { $ohms } sense resistor { $reference }
+doc-across-sense-value = across the { $ohms } sense resistor
+doc-across-sense = across the sense resistor
+doc-across-primary-value = across its half primary ({ $ohms })
+doc-across-primary-shared = across its half primary ({ $ohms }, shared with { $others })
+doc-across-primary = across its half primary
+doc-across-probe = cathode current on a bias probe
+doc-counted-outputs = the output valves' cathode currents
+doc-counted-of = cathode currents of { $valves }
+doc-figure-rc-corner = RC corner
+doc-figure-cathode-bypass = cathode-bypass corner
+doc-figure-stage-gain = stage gain
+doc-figure-phase-shift = phase-shift oscillator
+doc-chart-band-fixed = The grey band is the fixed-bias aim of { $low }–{ $high } % of the rating.
+doc-chart-band-cathode = The dashed line is the cathode-bias caution level of { $caution } % of the rating.
+doc-class-one = Class I (protectively earthed)
+doc-class-two = Class II (double insulated)
+doc-test-earth-continuity = Protective-earth continuity
+doc-test-insulation = Insulation resistance
+doc-test-leakage = Leakage (touch) current
+doc-pass = pass
+doc-fail = fail
+doc-bands-shop = set by the shop's profile: { $names }
+doc-bands-job = set for this job: { $names }
+doc-bands-defaults = { $sets }; the others are the built-in defaults
+doc-valve-class-output-pentode = output pentode
+doc-valve-class-beam-tetrode = beam tetrode
+doc-valve-class-power-triode = power triode
+doc-valve-class-preamp-triode = preamp triode
+doc-valve-class-preamp-pentode = preamp pentode
+doc-valve-class-rectifier = rectifier
+doc-built-in = built in
+doc-input-shorted = shorted
+doc-input-open = open
+doc-against-rated = rated { $watts }
+doc-against-measured = measured { $watts }
+doc-below = below { $frequency }
+doc-above = above { $frequency }
+doc-suggest-hottest = { $valve } ({ $type }), the hottest valve on it,
+doc-suggest-asked = The job asks for a suggestion in this set.
+doc-suggest-shown = Shown because the plate dissipation is above the { $caution } % cathode-bias guide.
+doc-suggest-present = { $watts } W, { $pct } % of { $max }
+doc-suggest-target = { $pct } % of { $max }, { $watts } W
+
+## The charts' fixed words (src/report/plots.rs, plots/warm_up.rs,
+## response_chart.rs, network_chart.rs), and a mod's network view
+## (src/report/handover/context/network_view.rs).
+
+chart-span = { $first } to { $last }
+chart-part-readings = readings { $span }
+chart-part-curves = curves { $span }
+chart-dissipation-axis = Plate dissipation, % of rating
+chart-fixed-bias-aim = fixed-bias aim
+chart-caution = caution { $pct } %
+chart-full-rating = 100 % rating
+chart-expected-band = expected ± tolerance
+chart-supply-axis = Volts DC, corrected to { $nominal } V mains
+chart-db-against-reference = dB against the reference
+chart-frequency-axis = Frequency, Hz (logarithmic)
+chart-minus-3db-point = −3 dB point
+chart-idle-current-ik = Idle current (Ik), mA
+chart-idle-current = Idle current, mA
+chart-minutes = Minutes since power-on
+chart-before-mod = before the mod
+chart-after-mod = after
+chart-setting = setting { $number }: { $pots }
+chart-pots-at = pots at { $pots }
+chart-db-at-load = dB at the load
+doc-network-scoop = scoop at { $frequency }, { $depth } deep
+doc-network-flat = flat within 3 dB
+doc-network-low-cut = low cut { $frequency }
+doc-network-high-cut = high cut { $frequency }
+doc-network-loaded = Read at node { $node }, loaded by { $ohms } to ground.
+doc-network-unloaded = Read at node { $node }, unloaded.
+doc-network-driven = Driven at node { $node } by { $source }.
+doc-network-driven-when = Driven at node { $node } ({ $state }) by { $source }.
+doc-network-own-gain = Its own gain, about { $gain }, is left out of the curves.
+doc-network-default-label = network
+doc-network-never = never 180°
+doc-network-pot-setting = { $pot } setting
+doc-network-setting = Setting
+
+## The plain-words summary that opens page one (src/report/summary.rs).
+## `$names` is a list ("V3 and V4"), `$range` a percentage or a range
+## ("67–68 %"), `$troubles` a list of the phrases above it.
+
+summary-valves-hot = { $count ->
+        [one] output valve { $names }
+       *[other] output valves { $names }
+    } running hot ({ $range } of the plate rating)
+summary-valves-cold = { $count ->
+        [one] output valve { $names }
+       *[other] output valves { $names }
+    } idling cold ({ $range } of the plate rating)
+summary-valves-beyond = { $count ->
+        [one] output valve { $names }
+       *[other] output valves { $names }
+    } beyond the plate rating ({ $range })
+summary-valves-high-line = { $count ->
+        [one] output valve { $names }
+       *[other] output valves { $names }
+    } close to the plate rating at the top of the mains range ({ $range })
+summary-screen-hot = screen dissipation too high on { $names } ({ $range } of the rating)
+summary-voltage-max = valve voltages above the published maximum on { $names }
+summary-cathode-current = more than the rated cathode current on { $names }
+summary-nodes-off = supply voltages off the factory chart at { $names }
+summary-resistor-over = resistor { $name } overloaded at { $pct } of its rating
+summary-resistors-over = resistors { $names } overloaded
+summary-resistors-warm = { $count ->
+        [one] resistor { $names }
+       *[other] resistors { $names }
+    } running warm
+summary-capacitors-over = { $count ->
+        [one] capacitor { $names } rated below the voltage it can see
+       *[other] capacitors { $names } rated below the voltage they can see
+    }
+summary-capacitors-margin = little voltage margin on { $count ->
+        [one] capacitor { $names }
+       *[other] capacitors { $names }
+    }
+summary-rectifier-load = the rectifier valve { $names } loaded to { $range } of its rating
+summary-heater-low = the heater supply { $pct } % low
+summary-heater-high = the heater supply { $pct } % high
+summary-found-ok = The readings “{ $label }” showed every figure inside its limits.
+summary-found = The readings “{ $label }” showed { $troubles }.
+summary-parts = { $count ->
+        [one] One part was replaced ({ $parts }).
+       *[other] { $count } parts were replaced ({ $parts }).
+    }
+summary-mods = { $count ->
+        [one] One modification was made (listed below).
+       *[other] { $count } modifications were made (listed below).
+    }
+summary-type-change = { $position } now holds a { $now } (it held a { $was }).
+summary-idle-now = The output valves now idle at { $now } of their plate rating (they were at { $was }).
+summary-now-ok = { $accepted ->
+        [0] As handed over (“{ $label }”), every figure is inside its limits.
+        [one] As handed over (“{ $label }”), every figure is inside its limits, apart from one the technician has judged and accepted (listed below).
+       *[other] As handed over (“{ $label }”), every figure is inside its limits, apart from { $accepted } the technician has judged and accepted (listed below).
+    }
+summary-now-open = As handed over (“{ $label }”), still needing attention: { $troubles }.
+summary-no-measurements = No measurements were recorded.
+summary-no-safety = No electrical safety tests were recorded.
+summary-safety-failed = { $count ->
+        [one] The { $tests } test did not meet the shop's limit.
+       *[other] The { $tests } tests did not meet the shop's limit.
+    }
+summary-safety-ok = { $count ->
+        [one] The electrical safety test met the shop's limit.
+       *[other] All { $count } electrical safety tests met the shop's limits.
+    }
+
+## What needs attention, grouped (src/report/attention.rs).
+
+attention-accepted = { $brief } (accepted)
+
+## The listing document (src/report/listing/words.rs): its labels and the
+## sentences it builds from the findings.
+
+listing-kicker = Condition report
+listing-serviced-by = Serviced by
+listing-service-record = service record
+listing-the-unit = The unit
+listing-make = Make
+listing-model = Model
+listing-year = Year
+listing-serial = Serial
+listing-mains = Mains
+listing-description = Description
+listing-condition = Condition
+listing-health = Health as it left the bench
+listing-check = Check
+listing-state = State
+listing-in-words = In words
+listing-output-valve = Output valve
+listing-valve-type = Type
+listing-bias = Bias
+listing-idle = Idle, % of plate rating
+listing-high-line = At high line
+listing-safety-tests = Electrical safety tests
+listing-no-safety-tests = No electrical safety tests were recorded.
+listing-limit = limit
+listing-serviced = What was serviced
+listing-part = Part
+listing-was = Was
+listing-now = Now
+listing-why = Why
+listing-no-parts = No parts were replaced.
+listing-findings = Findings
+listing-work = Work done
+listing-originality = Originality
+listing-item = Item
+listing-change = Change
+listing-reversible = Reversible
+listing-original-kept = Original kept
+listing-not-listed = Anything not listed was not changed in this service; whether it is the maker's original was not checked.
+listing-notes = Notes
+listing-photos = Photos
+listing-made-with = Made with ampreport
+listing-commit = commit
+listing-edits = + edits
+listing-job-file-sha = job file SHA-256
+listing-page = Page
+listing-of = of
+listing-bias-fixed = fixed
+listing-bias-cathode = cathode
+listing-title = Condition report: { $name }
+listing-pdf-description = Condition and service summary of a { $name }, for a listing
+listing-no-measurements = No measurements were recorded for this service.
+listing-all-inside = { $accepted ->
+        [0] As it left the bench, every figure measured is inside its limits.
+        [one] As it left the bench, every figure measured is inside its limits, apart from one the technician judged acceptable.
+       *[other] As it left the bench, every figure measured is inside its limits, apart from { $accepted } the technician judged acceptable.
+    }
+listing-needs-attention = As it left the bench, still needing attention: { $families }.
+listing-accepted-only = inside the limits, apart from what the technician judged acceptable: { $what }
+listing-readings = Readings “{ $label }”
+listing-at-mains = , at { $volts } mains
+listing-state-ok = ok
+listing-state-caution = caution
+listing-state-over = over
+listing-state-cold = cold
+listing-state-accepted = accepted
+listing-state-not-measured = not measured
+listing-change-replaced = replaced
+listing-change-modified = modified
+listing-parts-replaced = { $count ->
+        [0] no parts replaced
+        [one] 1 part replaced
+       *[other] { $count } parts replaced
+    }
+listing-no-modifications = no modifications
+listing-how-reversible = reversible
+listing-all-reversible = all reversible
+listing-not-reversible = not stated as reversible
+listing-some-reversible = { $count } reversible
+listing-modifications = { $count ->
+        [one] { $count } modification ({ $how })
+       *[other] { $count } modifications ({ $how })
+    }
+listing-originals-kept = original parts kept: { $list }
+
 ## The terminal (`ampreport check`, src/report/terminal.rs). Spaces at the
 ## start or end of a message are dropped: the program adds them.
 
@@ -482,8 +748,8 @@ term-minus-3db = −3 dB: { $low } and { $high }
 term-gain = Gain
 term-gain-line = { $input } in for { $output } out at { $frequency } = ×{ $times } ({ $db } dB)
 
-## Reasons and thresholds of the checks (src/calc), as `calc --json` gives
-## them. The JSON is always in this reference language.
+## Reasons and thresholds of the checks (src/calc), as the document, the
+## terminal and `calc --json` give them, in the shop's language.
 
 reason-includes-screen = (includes screen current, so on the high side)
 reason-at-nominal-mains = at nominal mains
@@ -509,6 +775,216 @@ threshold-no-chart = none: the job gives no chart figure
 threshold-heater = within ±{ $tolerance } % of { $nominal }
 reason-at-nominal = { $volts } at nominal mains ({ $deviation } %)
 reason-heater = { $measured } is { $deviation } % from { $nominal }
+
+## Reasons: a figure against its rating, the output valves' other checks
+## (src/calc/status.rs, src/calc/valve.rs).
+
+threshold-under-rating = caution above { $caution } % of { $rating }, over above 100 %
+reason-of-rating = { $what } is { $pct } % of its { $rating } rating
+reason-of-rating-guide = { $what } is { $pct } % of its { $rating } rating, above the { $caution } % guide
+reason-plate-high-line = at high line ({ $mains }) the plate would dissipate { $watts } W, { $pct } % of its rating
+threshold-plate-high-line = caution when the high-line projection exceeds 100 %
+reason-screen-dissipation = screen dissipation
+threshold-screen-dissipation = over above 100 % of { $rating }; caution when the high-line projection is above it
+reason-screen-high-line = screen dissipation would be { $pct } % of its rating at high line
+threshold-cathode-current = over above the { $max } maximum
+reason-cathode-current-over = cathode current { $current } is { $pct } % of its maximum
+reason-cathode-current = cathode current is { $pct } % of its maximum
+
+## Reasons: resistors, filter capacitors and the valve rectifier
+## (src/calc/supply.rs). `place-…` say where a part sits.
+
+reason-dissipation = dissipation { $watts }
+reason-resistor-high-line = would dissipate { $watts } at high line, { $pct } % of its rating
+reason-resistor-no-rating = dissipates { $watts }; no rating given
+threshold-no-power-rating = none: the job gives no power rating
+reason-not-measured = { $nodes } not measured
+place-between = { $from } to { $to }
+place-cathodes = { $count ->
+        [one] { $valves } cathode
+       *[other] { $valves } cathodes
+    }
+place-screen = { $valve } screen
+place-to-screen = { $node } to { $valve } screen
+reason-silicon-rectifier = silicon rectifier
+reason-valve-rectifier = { $type } valve rectifier
+reason-valve-rectifier-slow = { $type } valve rectifier, indirectly heated
+reason-rectifier-not-stated = rectifier not stated, taken as silicon
+reason-cap-peak-words = cold-start peak at high line { $mains } ({ $rectifier })
+reason-cap-work-words = working voltage at high line { $mains }
+threshold-capacitor = over above the { $rating } rating; caution when the margin is under { $margin } %
+reason-cap-unchecked = ; the working voltage was not checked: { $node } not measured
+reason-cap-both-over = the { $peak }, { $peak_volts }, and the { $work }, { $work_volts }, both exceed the { $rating } rating
+reason-cap-work-over = the { $work }, { $work_volts }, exceeds the { $rating } rating
+reason-cap-work-over-peak = the { $work }, { $work_volts }, exceeds the { $rating } rating (the { $peak } reaches { $peak_volts }, which a slow-warming rectifier makes less likely)
+reason-cap-peak-slow = the { $peak }, { $highest }, exceeds the { $rating } rating; a slow-warming rectifier makes this less likely but not impossible
+reason-cap-peak-over = the { $peak }, { $highest }, exceeds the { $rating } rating
+reason-cap-margin-low = the { $source }, { $highest }, leaves only { $margin } % margin on the { $rating } rating
+reason-cap-margin = highest expected { $highest } ({ $source }) leaves { $margin } % margin
+threshold-rectifier = caution above 90 % of the { $rating } rating, over above 100 % (output valves only: a lower bound)
+reason-rectifier = the output valves alone draw { $load } mA, { $pct } % of the { $type } { $position }'s { $rating } mA rating
+
+## Reasons: electrical safety tests (src/calc/safety.rs).
+
+safety-limit-with-cord = ≤ { $limit } + cord { $cord } = { $allowed }
+safety-earth = protective-earth resistance { $ohms }
+safety-insulation-limit = ≥ { $ohms } at { $volts } DC
+safety-insulation = insulation resistance { $ohms } at { $volts } DC
+safety-leakage = leakage current { $amps }
+safety-meets = { $what } meets the limit { $limit }
+safety-fails = { $what } fails the limit { $limit }
+safety-test-earth-continuity = earth continuity
+safety-test-insulation = insulation
+safety-test-leakage = leakage
+
+## Reasons: bench tests (src/calc/bench.rs).
+
+bench-at-clipping = at the onset of clipping
+bench-at-distortion = at { $pct } % distortion
+bench-with-drive = with { $volts } drive
+bench-power-into = { $watts } into { $load } { $condition }
+bench-power-at-drive = { $power }; read at a stated drive, so not judged against the rating
+threshold-power-at-drive = none: only readings at clipping or a stated distortion are judged
+threshold-power = caution below { $guide } % of the rated { $rated }
+bench-power-below-guide = output power { $power } is { $pct } % of the rated { $rated }, below the { $guide } % guide
+bench-power-of-rated = output power { $power } is { $pct } % of the rated { $rated }
+bench-power-no-rating = output power { $power }; the job gives no rated power to compare with
+threshold-power-no-rating = none: the job gives no rated power
+bench-hum-level-shorted = hum and noise { $volts } ({ $dbv } dBV) with the input shorted
+bench-hum-level-open = hum and noise { $volts } ({ $dbv } dBV) with the input open
+threshold-hum = caution when less than { $guide } dB below full output
+bench-rated-full-output = the rated full output of { $watts }
+bench-measured-full-output = the measured full output of { $watts }
+bench-hum-below-guide = { $level } is only { $db } dB below { $against }, less than the { $guide } dB guide
+bench-hum-below = { $level } is { $db } dB below { $against }
+bench-hum-no-full = { $level }; no measured or rated full output to compare with
+threshold-hum-no-full = none: the job gives no output power reading and no rated power
+
+## A valve's checks and how its idle current was found, in words
+## (src/calc/findings.rs).
+
+check-plate-dissipation = plate dissipation
+check-plate-dissipation-high-line = plate dissipation high line
+check-screen-dissipation = screen dissipation
+check-plate-voltage = plate voltage
+check-screen-voltage = screen voltage
+check-cathode-current = cathode current
+check-rectifier-load = rectifier load
+method-shared-cathode-resistor = shared cathode resistor
+method-own-cathode-resistor = own cathode resistor
+method-sense-resistor = sense resistor
+method-transformer-resistance = transformer resistance
+method-shunt = shunt across half primary
+method-probe = bias probe
+
+## The deciding figure of a status in a few words, for a table's status
+## column (src/calc/brief.rs). `$pct` carries its own "%".
+
+brief-plate = plate { $pct }
+brief-plate-high-line = plate { $pct } at high line
+brief-screen = screen { $pct }
+brief-voltage-high-line = { $name } { $pct } at high line
+brief-voltage-of-max = { $name } { $pct } of max
+brief-cathode-current = Ik { $pct } of max
+brief-from-chart = { $deviation } % from chart
+brief-no-chart = no chart figure
+brief-at-high-line = { $pct } % at high line
+brief-of-rating = { $pct } % of rating
+brief-no-rating = no rating given
+brief-working-high-line = working at high line
+brief-cold-start-peak = cold-start peak
+brief-margin = { $pct } % margin
+brief-volts-on-rating = { $volts } { $what } on { $rating }
+brief-margin-what = { $pct } % margin, { $what }
+brief-of-rated = { $pct } % of rated
+brief-below-full = { $db } dB below full
+brief-against = { $measured } against { $limit }
+
+## Warnings and the at-a-glance panel (src/calc/mod.rs): what a finding
+## is about, and each family's line.
+
+warn-subject-reason = { $subject }: { $reason }
+warn-subject-safety = safety
+warn-subject-sign-off = sign-off
+warn-subject-job = job
+warn-subject-heater = heater
+warn-subject-heater-labelled = heater { $label }
+warn-subject-output-power = output power
+warn-subject-hum-noise = hum and noise
+warn-subject-on-channel = { $what } ({ $channel } channel)
+warn-acceptance-unmatched = the acceptance of { $what } matches no figure outside its limits, so it accepts nothing
+warn-accept-node = node { $name }
+warn-accept-heater = heater { $name }
+warn-accept-heater-supply = the heater supply
+warn-accept-safety = the { $name } test
+warn-accept-in-set = { $what } in “{ $set }”
+warn-not-measured-final = { $what } is not measured in “{ $final }”, the final set (it was in “{ $set }”)
+warn-no-sets = The job has no measurement sets, so no figures could be derived.
+warn-subject-network = network
+warn-network-problem = The network of the mod “{ $what }” could not be worked out: { $problem }.
+warn-no-mu-ra = { $position } ({ $type }): the ratings table gives no typical μ and ra, so the mod's stage figure is left out.
+figure-rc-corner = { $ohms } with { $farads }: corner { $frequency }
+figure-cathode-bypass = { $valve } ({ $type }, μ { $mu }, ra { $ra }): Rk { $rk } bypassed by { $ck } into a { $load } load: corner { $frequency }
+figure-gain-bypassed = { $valve } ({ $type }) into { $load }, cathode bypassed: gain about { $gain }
+figure-gain-unbypassed = { $valve } ({ $type }) into { $load }, { $rk } unbypassed: gain about { $gain }
+figure-phase-shift = three sections of { $ohms } and { $farads }: about { $frequency } (the stage needs a gain of at least { $gain })
+note-unknown-type = { $position }: valve type { $type } is not in the ratings table
+note-not-checked = { $reference }: not checked, { $reason }
+family-output-valves = Output valves against their ratings
+family-supply-voltages = Supply voltages against the chart
+family-stressed-parts = Stressed resistors, capacitors and rectifier
+family-heater = Heater supply
+family-bench-tests = Performance on the bench
+family-safety-tests = Electrical safety tests
+family-no-safety = no safety tests recorded
+family-no-bench = no bench tests recorded
+family-nothing-measured = nothing measured
+family-check-of = { $check } of { $names }
+family-accepted = accepted by the technician: { $what } (reasons below)
+family-safety-ok = all { $count } tests meet their limits
+family-valves-ok = { $count ->
+        [one] { $count } output valve inside their ratings
+       *[other] { $count } output valves inside their ratings
+    }; hottest { $hottest } at { $pct } % of its plate rating
+family-nodes-ok = { $count ->
+        [one] { $count } node
+       *[other] { $count } nodes
+    } within tolerance of the chart; largest deviation { $deviation } % at { $node }
+family-busiest-resistor = busiest resistor { $reference } at { $pct } % of its rating
+family-least-margin = least capacitor margin { $pct } % ({ $reference })
+family-rectifier-load = rectifier { $position } at { $pct } % of its rating
+family-heater-ok = { $measured } against { $nominal } ({ $deviation } %)
+family-bench-power = { $watts } W into { $load } { $condition }
+family-bench-power-rated = { $watts } W into { $load } { $condition } ({ $pct } % of rated)
+family-bench-hum-below = hum and noise { $db } dB below full output
+family-bench-hum = hum and noise { $volts } ({ $dbv } dBV)
+family-bench-response-both = −3 dB at { $low } and { $high }
+family-bench-response-low = −3 dB at { $low }, within 3 dB up to { $high }
+family-bench-response-high = within 3 dB down to { $low }, −3 dB at { $high }
+family-bench-response-flat = within 3 dB from { $low } to { $high }
+family-bench-gain = gain { $db } dB
+
+## Notes on readings that could not be used (src/calc). Each starts with
+## what it is about and a colon.
+
+note-screen-above-supply = { $position }: the screen reads { $screen } but its supply { $supply } reads { $volts }; the screen current is left out
+note-no-idle-current = { $position }: no reading gives the idle current (read the cathode, sense-resistor or half-primary voltage, or a current)
+note-no-half-primary = { $position }: a half-primary drop is given but the circuit has no half-primary resistance for { $position }
+note-no-sense-resistor = { $position }: a sense-resistor voltage is given but the circuit has no sense resistor for { $position }
+
+note-unfit-no-mu = the ratings table gives no { $factor } for { $type }
+note-unfit-no-plate = there is no plate reading
+note-unfit-no-screen = there is no screen reading
+note-unfit-no-current = no reading gives the idle current
+note-unfit-no-grid = there is no grid reading
+note-unfit-cut-off = its readings put it at or beyond cut-off by the three-halves law (μ { $mu }), so the law cannot be fitted
+note-no-suggestion-figure = { $reference }: no cathode-resistor suggestion, since no valve on it has a plate-dissipation figure
+note-no-suggestion-unfit = { $reference }: no cathode-resistor suggestion, since for { $valve } { $why }
+note-no-suggestion-reach = { $reference }: no cathode resistor brings { $valve } up to { $pct } % of its plate rating by the three-halves law
+
+## Lists in running text: "V3, V4 and V5".
+
+list-and = { $first } and { $last }
 
 ## Diagnostics: problems in job files, shop profiles, translation files
 ## and photos (src/job, src/shop, src/photo, src/units), said in the shop
@@ -786,6 +1262,26 @@ diag-not-a-picture = not a picture
 diag-photo-content-matters = a photo must be a PNG or JPEG file; the name's extension does not matter, the content does
 diag-photo-undecodable = the photo { $path } { $why }
 diag-photo-save-again = open the photo in an image editor and save it again as PNG or JPEG
+
+diag-part-needs-reference = `part` needs a circuit reference or `what=`
+diag-which-part = which part?
+diag-second-network = a mod has one `network`; this is a second
+diag-unknown-class = unknown protection class `{ $name }`
+diag-expected-class = expected I or II
+diag-needs-reading = `{ $name }` needs the reading
+diag-reading-missing = reading missing
+diag-unknown-safety-test = unknown safety test `{ $name }`
+diag-not-a-safety-test = not a safety test
+diag-unknown-check = unknown valve check `{ $name }`
+diag-not-a-check = not a check
+diag-empty-reason = an acceptance needs its reason in words
+diag-empty-reason-label = empty reason
+diag-acceptance-who = an acceptance needs the name of the technician who accepted it
+diag-who-accepted = who accepted this?
+diag-acceptance-when = an acceptance needs the date it was accepted
+diag-when-accepted = when was this accepted?
+diag-needs-value = `{ $name }` needs a value
+diag-value-missing = value missing
 
 ## The terminal's other messages: what the commands say besides a job's
 ## summary (src/cli), in the job's shop-profile language once it is read;

@@ -6,7 +6,7 @@
 #   bash scripts/perf.sh overhead [PAIRS]   render against bare typst on its own emitted source
 #   bash scripts/perf.sh size [SETS...]     typst time and memory per measurement set (generated jobs)
 #   bash scripts/perf.sh own [SETS]         ampreport's own work on a generated job (no typst)
-#   bash scripts/perf.sh batch [JOBS]       -j 1 against -j 2 over demo-sized jobs
+#   bash scripts/perf.sh batch [JOBS]       -j 1 against -j 2 over demo-sized jobs (and with typst --jobs 1)
 #   bash scripts/perf.sh noop [JOBS]        a second pass over unchanged jobs
 #   bash scripts/perf.sh watch [SAVES]      save-to-PDF time of `watch` against typst's compile time
 #
@@ -16,7 +16,9 @@
 # that measured every table before laying it out) or, when OLD_BIN names an
 # ampreport built before the change, that binary's own emitted source.
 # Pairs run alternately (AB, BA, AB …) so a slow patch of a shared machine
-# hits both sides; medians are printed. Each section prints `uptime` first:
+# hits both sides; medians are printed, of the wall clock and of the
+# processor time (user + system, children included), which depends far
+# less on what else the machine runs. Each section prints `uptime` first:
 # the machine is shared and the load is part of the figure.
 set -euo pipefail
 cd "$(dirname "$0")/.."
@@ -52,22 +54,41 @@ ms() {
     echo $(((t1 - t0) / 1000000))
 }
 
+# Milliseconds of processor time (user + system, the command and the
+# children it waited for) one command takes; its wall-clock milliseconds
+# go to the file named by $1. The processor time hardly depends on what
+# else the shared machine runs; the wall clock does.
+cpu_ms() {
+    local wall_file="$1"
+    shift
+    local TIMEFORMAT='%3R %3U %3S' t
+    t=$({ time "$@" >/dev/null 2>&1 || true; } 2>&1)
+    awk '{ printf "%d\n", $1 * 1000 }' <<<"$t" >>"$wall_file"
+    awk '{ printf "%d\n", ($2 + $3) * 1000 }' <<<"$t"
+}
+
 # Runs the commands (functions) $2 and $3 alternately ($2 $3, $3 $2 …), $1
-# pairs, their times in milliseconds in $work/a and $work/b.
+# pairs: their wall-clock milliseconds in $work/a and $work/b, their
+# processor milliseconds in $work/a.cpu and $work/b.cpu.
 alternate() {
     local pairs="$1" first="$2" second="$3"
     : >"$work/a"
     : >"$work/b"
+    : >"$work/a.cpu"
+    : >"$work/b.cpu"
     for i in $(seq "$pairs"); do
         if [ $((i % 2)) = 1 ]; then
-            ms "$first" >>"$work/a"
-            ms "$second" >>"$work/b"
+            cpu_ms "$work/a" "$first" >>"$work/a.cpu"
+            cpu_ms "$work/b" "$second" >>"$work/b.cpu"
         else
-            ms "$second" >>"$work/b"
-            ms "$first" >>"$work/a"
+            cpu_ms "$work/b" "$second" >>"$work/b.cpu"
+            cpu_ms "$work/a" "$first" >>"$work/a.cpu"
         fi
     done
 }
+
+# "x/y" to two places.
+ratio() { awk -v a="$1" -v b="$2" 'BEGIN { printf "%.2f", a / b }'; }
 
 # The emitted source of job $1 into folder $2, with the new template, or
 # the old one when $3 is "old"; the typst command ampreport names for it is
@@ -75,12 +96,14 @@ alternate() {
 emit() {
     local job="$1" dir="$2" side="${3:-new}"
     rm -rf "$dir"
+    # The source is written before typst runs; a render that then fails
+    # (a long job past the time limit) still leaves it, with the command.
     if [ "$side" = old ] && [ -n "${OLD_BIN:-}" ]; then
-        "$OLD_BIN" render "$job" -o "$work/scratch.pdf" --emit-source "$dir" >/dev/null 2>"$work/emit.err"
+        "$OLD_BIN" render "$job" -o "$work/scratch.pdf" --emit-source "$dir" --timeout 3600 >/dev/null 2>"$work/emit.err" || true
     elif [ "$side" = old ]; then
-        "$bin" render "$job" -o "$work/scratch.pdf" --templates "$old_template" --emit-source "$dir" --force >/dev/null 2>"$work/emit.err"
+        "$bin" render "$job" -o "$work/scratch.pdf" --templates "$old_template" --emit-source "$dir" --force --timeout 3600 >/dev/null 2>"$work/emit.err" || true
     else
-        "$bin" render "$job" -o "$work/scratch.pdf" --emit-source "$dir" --force >/dev/null 2>"$work/emit.err"
+        "$bin" render "$job" -o "$work/scratch.pdf" --emit-source "$dir" --force --timeout 3600 >/dev/null 2>"$work/emit.err" || true
     fi
     sed -n 's/.*the same PDF comes from: //p' "$work/emit.err" >"$dir.cmd"
 }
@@ -94,15 +117,21 @@ compile() {
     "${cmd[@]}"
 }
 
-# "seconds maxrss_kib" of one command, from GNU time.
+# "seconds maxrss_kib cpu_seconds" of one command, from GNU time.
 time_rss() {
-    /usr/bin/time -f "%e %M" -o "$work/time.txt" "$@" >/dev/null 2>&1
-    cat "$work/time.txt"
+    /usr/bin/time -f "%e %M %U %S" -o "$work/time.txt" "$@" >/dev/null 2>&1
+    awk '{ printf "%s %s %.2f\n", $1, $2, $3 + $4 }' "$work/time.txt"
 }
 
 # Pages and a text digest of a PDF.
 pdf_digest() {
     echo "$(pdfinfo "$1" 2>/dev/null | awk '/^Pages:/ { print $2 }' || true) pages, text $(pdftotext "$1" - 2>/dev/null | sha256sum | cut -c1-12)"
+}
+
+# A stand-in typst at $work/stand-in that copies the PDF $1 to its output.
+stand_in() {
+    printf '#!/bin/sh\nif [ "$1" = --version ]; then echo "typst 0.15.1 (stand-in)"; exit 0; fi\nfor a in "$@"; do out=$a; done\ncp %s "$out"\n' "'$1'" >"$work/stand-in"
+    chmod +x "$work/stand-in"
 }
 
 load() { echo "# $(date -u +%H:%M) UTC, load:$(uptime | sed 's/.*load average://')"; }
@@ -111,7 +140,7 @@ case "$what" in
 template)
     pairs="${1:-11}"
     load
-    echo "job | old ms | new ms | new/old | pages and text"
+    echo "job | old ms | new ms | new/old | old CPU ms | new CPU ms | CPU new/old | pages and text"
     for job in jobs/*.kdl; do
         name=$(basename "$job" .kdl)
         [ "$name" = shop ] && continue
@@ -122,15 +151,17 @@ template)
         alternate "$pairs" old_side new_side
         a=$(median <"$work/a")
         b=$(median <"$work/b")
+        ac=$(median <"$work/a.cpu")
+        bc=$(median <"$work/b.cpu")
         same="differ: old $(pdf_digest "$work/old.pdf"), new $(pdf_digest "$work/new.pdf")"
         [ "$(pdf_digest "$work/old.pdf")" = "$(pdf_digest "$work/new.pdf")" ] && same="same: $(pdf_digest "$work/new.pdf")"
-        echo "$name | $a | $b | $(awk -v a="$a" -v b="$b" 'BEGIN { printf "%.2f", b / a }') | $same"
+        echo "$name | $a | $b | $(ratio "$b" "$a") | $ac | $bc | $(ratio "$bc" "$ac") | $same"
     done
     ;;
 overhead)
     pairs="${1:-11}"
     load
-    echo "job | render ms | bare typst ms | render/typst"
+    echo "job | render ms | bare typst ms | render/typst | render CPU ms | typst CPU ms | CPU render/typst"
     for job in jobs/*.kdl; do
         name=$(basename "$job" .kdl)
         [ "$name" = shop ] && continue
@@ -140,14 +171,16 @@ overhead)
         alternate "$pairs" render_side typst_side
         a=$(median <"$work/a")
         b=$(median <"$work/b")
-        echo "$name | $a | $b | $(awk -v a="$a" -v b="$b" 'BEGIN { printf "%.3f", a / b }')"
+        ac=$(median <"$work/a.cpu")
+        bc=$(median <"$work/b.cpu")
+        echo "$name | $a | $b | $(ratio "$a" "$b") | $ac | $bc | $(ratio "$ac" "$bc")"
     done
     ;;
 size)
     sets=("$@")
     [ ${#sets[@]} = 0 ] && sets=(10 30 100 300)
     load
-    echo "sets | side | typst s | per set ms | typst max RSS MiB | pages"
+    echo "sets | side | typst s | per set ms | typst CPU s | CPU per set ms | typst max RSS MiB | pages"
     for n in "${sets[@]}"; do
         bash scripts/gen-job.sh "$n" >"$work/job-$n.kdl"
         for side in old new; do
@@ -156,22 +189,40 @@ size)
             read -ra cmd <"$work/$side-$n.cmd"
             cmd[0]="$typst"
             cmd[${#cmd[@]} - 1]="$work/$side-$n.pdf"
-            read -r secs rss < <(time_rss "${cmd[@]}")
+            read -r secs rss cpu < <(time_rss "${cmd[@]}")
             pages=$(pdfinfo "$work/$side-$n.pdf" 2>/dev/null | awk '/^Pages:/ { print $2 }' || true)
-            echo "$n | $side | $secs | $(awk -v s="$secs" -v n="$n" 'BEGIN { printf "%.0f", s * 1000 / n }') | $((rss / 1024)) | $pages"
+            per() { awk -v s="$1" -v n="$n" 'BEGIN { printf "%.0f", s * 1000 / n }'; }
+            echo "$n | $side | $secs | $(per "$secs") | $cpu | $(per "$cpu") | $((rss / 1024)) | $pages"
             rm -rf "$work/$side-$n"
         done
     done
     ;;
 own)
+    # ampreport's own work on a generated job: the phases of a render
+    # before typst (the `phases` example: decode, derive, the charts, the
+    # whole document build), then the processor time of a whole `render`
+    # whose typst is a stand-in that copies a finished demo document (so
+    # only ampreport's own work, its check of that PDF included, counts).
     n="${1:-1000}"
     load
     bash scripts/gen-job.sh "$n" >"$work/job.kdl"
-    for i in 1 2 3 4 5; do
+    for i in 1 2 3; do
         "$root/target/release/examples/phases" "$work/job.kdl"
+    done
+    "$bin" render jobs/combo-el84-cathode.kdl -o "$work/real.pdf" --force >/dev/null 2>&1
+    stand_in "$work/real.pdf"
+    : >"$work/own.wall"
+    for i in 1 2 3 4 5; do
+        c=$(cpu_ms "$work/own.wall" "$bin" render "$work/job.kdl" -o "$work/own.pdf" --force --typst "$work/stand-in")
+        echo "render with a stand-in typst, $n sets: $c ms of processor time, $(tail -1 "$work/own.wall") ms wall clock"
     done
     ;;
 batch)
+    # -j 1 against -j 2 over the same jobs, each run with every PDF
+    # rendered (--force), in the order 1, 2, 2, 1, 1, 2 so a change of load
+    # hits both. The middle pair has typst held to one thread of its own
+    # (`typst compile --jobs 1`, through a wrapper), which may suit several
+    # typst processes side by side better.
     jobs="${1:-200}"
     load
     mkdir -p "$work/batch"
@@ -183,12 +234,20 @@ batch)
             i=$((i + 1))
         done
     done
-    cp jobs/shop.kdl jobs/larkmoor-logo.svg "$work/batch/"
-    for n in 1 2 2 1; do
-        t=$(ms "$bin" render "$work/batch" -j "$n" --force --quiet)
-        echo "-j $n: $jobs jobs in $t ms"
+    cp -r jobs/shop.kdl jobs/larkmoor-logo.svg jobs/photos "$work/batch/"
+    real_typst=$(command -v "$typst")
+    printf '#!/bin/sh\nif [ "$1" = compile ]; then shift; exec %s compile --jobs 1 "$@"; fi\nexec %s "$@"\n' "'$real_typst'" "'$real_typst'" >"$work/typst-one-thread"
+    chmod +x "$work/typst-one-thread"
+    : >"$work/batch.wall"
+    for run in "1 $real_typst" "2 $real_typst" "2 $work/typst-one-thread" "1 $work/typst-one-thread" "1 $real_typst" "2 $real_typst"; do
+        read -r n t <<<"$run"
+        c=$(cpu_ms "$work/batch.wall" "$bin" render "$work/batch" -j "$n" --force --quiet --typst "$t")
+        how="as it comes"
+        [ "$t" = "$real_typst" ] || how="--jobs 1"
+        echo "-j $n, typst $how: $jobs jobs in $(tail -1 "$work/batch.wall") ms wall clock, $c ms of processor time"
     done
     echo "cores: $(nproc)"
+    load
     ;;
 noop)
     jobs="${1:-1000}"
@@ -203,19 +262,15 @@ noop)
     # stand-in's --version, a shell script, where a real typst's takes a
     # few milliseconds more: measured on its own below).
     "$bin" render jobs/combo-el84-cathode.kdl -o "$work/real.pdf" --force >/dev/null 2>&1
-    cat >"$work/stand-in" <<EOF
-#!/bin/sh
-if [ "\$1" = --version ]; then echo 'typst 0.15.1 (stand-in)'; exit 0; fi
-for a in "\$@"; do out=\$a; done
-cp '$work/real.pdf' "\$out"
-EOF
-    chmod +x "$work/stand-in"
+    stand_in "$work/real.pdf"
     t=$(ms "$bin" render "$work/noop" --typst "$work/stand-in" --quiet)
     echo "first pass (stand-in typst): $jobs jobs in $t ms"
-    for i in 1 2 3; do
-        t=$(ms "$bin" render "$work/noop" --typst "$work/stand-in" --quiet)
-        echo "no-op pass: $jobs unchanged jobs in $t ms"
+    : >"$work/noop.wall"
+    for i in 1 2 3 4 5; do
+        c=$(cpu_ms "$work/noop.wall" "$bin" render "$work/noop" --typst "$work/stand-in" --quiet)
+        echo "no-op pass: $jobs unchanged jobs in $(tail -1 "$work/noop.wall") ms wall clock, $c ms of processor time"
     done
+    "$bin" render "$work/noop" --typst "$work/stand-in" --quiet | tail -2
     echo "typst --version on its own: $(ms "$typst" --version) ms"
     ;;
 watch)

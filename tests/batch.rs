@@ -217,6 +217,77 @@ fn a_change_to_a_photo_typesets_again() {
     assert!(!c.typeset(&[]));
 }
 
+#[test]
+fn the_skip_reads_the_named_files_where_the_job_and_its_profile_find_them() {
+    // The profile and its logo one folder above the job, a photo in a
+    // folder below it, and a decoy of the logo's name beside the job: the
+    // skip, which works from the manifest's list of named files, reads
+    // each where the job or the profile finds it.
+    let c = Counting::new();
+    let top = c.scene.root.path();
+    let svg = |fill: &str| {
+        format!(
+            "<svg xmlns=\"http://www.w3.org/2000/svg\" width=\"40\" height=\"20\"><rect width=\"40\" height=\"20\" fill=\"{fill}\"/></svg>\n"
+        )
+    };
+    std::fs::write(top.join("logo.svg"), svg("#123456")).unwrap();
+    std::fs::write(c.scene.dir.join("logo.svg"), svg("#222222")).unwrap();
+    std::fs::write(
+        top.join("shop.kdl"),
+        "shop-format 1\nshop \"Test Bench\"\nlogo \"logo.svg\"\n",
+    )
+    .unwrap();
+    let photo = c.scene.dir.join("pics").join("chassis.png");
+    std::fs::create_dir(photo.parent().unwrap()).unwrap();
+    let png = |shade: u8| {
+        let image = image::RgbImage::from_pixel(16, 12, image::Rgb([shade, 90, 40]));
+        image.save(&photo).unwrap();
+    };
+    png(200);
+    let mut job = std::fs::read_to_string(&c.scene.job).unwrap();
+    job.push_str("photos {\n    photo \"pics/chassis.png\"\n}\n");
+    std::fs::write(&c.scene.job, job).unwrap();
+    assert!(c.typeset(&[]));
+    assert!(!c.typeset(&[]));
+    std::fs::write(c.scene.dir.join("logo.svg"), svg("#333333")).unwrap();
+    assert!(!c.typeset(&[]), "the decoy beside the job is no input");
+    std::fs::write(top.join("logo.svg"), svg("#654321")).unwrap();
+    assert!(c.typeset(&[]), "the profile's logo changed");
+    assert!(!c.typeset(&[]));
+    png(10);
+    assert!(c.typeset(&[]), "the photo changed");
+    assert!(!c.typeset(&[]));
+    // A nearer profile that names no logo takes over: rendered again.
+    std::fs::write(
+        c.scene.dir.join("shop.kdl"),
+        "shop-format 1\nshop \"Test Bench\"\n",
+    )
+    .unwrap();
+    assert!(c.typeset(&[]), "a nearer profile");
+    assert!(!c.typeset(&[]));
+    // A manifest whose list of files was edited is not believed: the key
+    // worked out from it no longer matches the one recorded, so the job is
+    // decoded and its own key decides. Unchanged, it is not typeset; with
+    // the photo changed behind the edited list, it is.
+    let manifest = c.scene.dir.join(".job.pdf.ampreport-key");
+    let recorded = std::fs::read_to_string(&manifest).unwrap();
+    assert!(
+        recorded.contains("file \"photo\" \"pics/chassis.png\""),
+        "{recorded}"
+    );
+    let edited: String = recorded
+        .lines()
+        .filter(|l| !l.starts_with("file "))
+        .map(|l| format!("{l}\n"))
+        .collect();
+    std::fs::write(&manifest, &edited).unwrap();
+    assert!(!c.typeset(&[]), "the decoded job's key still matches");
+    std::fs::write(&manifest, &edited).unwrap();
+    png(99);
+    assert!(c.typeset(&[]), "a photo changed behind a list without it");
+    assert!(!c.typeset(&[]));
+}
+
 /// Runs git in `dir` with a fixed author and no signing; false when git
 /// cannot be run here.
 fn git(dir: &std::path::Path, args: &[&str]) -> bool {

@@ -143,6 +143,22 @@ fn a_german_shop_gets_a_complete_german_document() {
         "Dieser Verstärker arbeitet mit Spannungen, die tödlich sein können.",
         "Örtliche elektrotechnische Vorschriften gehen vor.",
         "Seite 1 von",
+        // The sentences built from the findings: the summary, the at-a-glance
+        // lines, the attention list, the tables' words and the charts' axes.
+        "Die Messreihe „as found“ zeigte: Endröhren V3 und V4 laufen heiß",
+        "8 Bauteile wurden ersetzt",
+        "In V5 steckt jetzt eine 5V4G (vorher eine 5Y3GT).",
+        "Endröhren gegen ihre Grenzwerte",
+        "Alle 3 Prüfungen halten ihre Grenzwerte ein.",
+        "Was die Messwerte „as found“ zeigten",
+        "R31: 213 % v. Nennwert",
+        "Siebwiderstand",
+        "Kathodenströme von V3, V4",
+        "Schutzleiterwiderstand",
+        "BESTANDEN",
+        "Anodenverlustleistung, % des Grenzwerts",
+        "Minuten nach dem Einschalten",
+        "pro Stunde",
     ] {
         assert!(
             text.contains(words),
@@ -157,9 +173,56 @@ fn a_german_shop_gets_a_complete_german_document() {
         "Method and assumptions",
         "MAINS SAFETY",
         "Page 1 of",
+        "The readings",
+        "running hot",
+        "parts were replaced",
+        "Output valves against their ratings",
+        "of rating",
+        // A dropper's place ("B+1 to B+2"); the job's own text says
+        // "dropper", so that word is not a sign.
+        "B+1 to B+2",
+        "cathode currents of",
+        "Plate dissipation, % of rating",
+        "Minutes since power-on",
+        "per hour",
+        "PASS",
     ] {
         assert!(!text.contains(english), "{english} left in English");
     }
+}
+
+/// The reasons of `calc --json` follow the shop's language; without a
+/// profile they are English, as before.
+#[test]
+fn the_json_reasons_follow_the_shop_language() {
+    let dir = shop_folder("language \"de\"");
+    let reason_of_r31 = |args: &[&str]| {
+        let o = run(dir.path(), args);
+        assert_eq!(o.status.code(), Some(0), "{}", stderr(&o));
+        let json: serde_json::Value = serde_json::from_slice(&o.stdout).unwrap();
+        let r31 = json["sets"][0]["droppers"]
+            .as_array()
+            .unwrap()
+            .iter()
+            .find(|r| r["reference"] == "R31")
+            .unwrap()
+            .clone();
+        (
+            r31["reason"].as_str().unwrap().to_owned(),
+            json["at_a_glance"][0]["title"].as_str().unwrap().to_owned(),
+        )
+    };
+    // 100 V across 4.7 kΩ is 100² / 4700 = 2.13 W (Joule's law, textbook):
+    // 213 % of the 1 W rating.
+    let (german, title) = reason_of_r31(&["calc", "combo-6v6-fixed.kdl", "--json"]);
+    assert_eq!(
+        german,
+        "Verlustleistung 2.13 W ist 213 % des Nennwerts von 1 W"
+    );
+    assert_eq!(title, "Endröhren gegen ihre Grenzwerte");
+    let (english, title) = reason_of_r31(&["calc", "combo-6v6-fixed.kdl", "--json", "--no-shop"]);
+    assert_eq!(english, "dissipation 2.13 W is 213 % of its 1 W rating");
+    assert_eq!(title, "Output valves against their ratings");
 }
 
 #[test]

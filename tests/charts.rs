@@ -137,7 +137,8 @@ fn every_figure_of_a_four_set_chart_lies_inside_its_bars_column() {
         .unwrap_or_else(|d| panic!("{:?}", d.problems));
     let findings = calc::derive(&decoded.job, &ratings);
     assert_eq!(findings.sets.len(), 4);
-    let chart = plots::dissipation_chart(&findings).expect("a chart");
+    let chart = plots::dissipation_chart(&findings, ampreport::catalogue::Catalogue::english())
+        .expect("a chart");
     let svg = plots::dissipation_svg(&chart).expect("drawn");
 
     let bars = bars(&svg);
@@ -206,7 +207,8 @@ fn the_legend_wraps_and_every_label_stays_on_the_chart() {
     let decoded = job::decode_with_ratings("eight.kdl", &text, &ratings)
         .unwrap_or_else(|d| panic!("{:?}", d.problems));
     let findings = calc::derive(&decoded.job, &ratings);
-    let chart = plots::dissipation_chart(&findings).expect("a chart");
+    let chart = plots::dissipation_chart(&findings, ampreport::catalogue::Catalogue::english())
+        .expect("a chart");
     let svg = plots::dissipation_svg(&chart).expect("drawn");
     let (w, _) = plots::SIZE;
     let mut legend_rows: Vec<i64> = Vec::new();

@@ -275,6 +275,7 @@ fn charts_stay_small_and_finite_for_any_figures() {
             let svg = supply_svg(&supply(a, b, Some(b))).expect("draws");
             check_svg(&svg, baseline.len(), &format!("supply {a} {b}"));
             let svg = dissipation_svg(&DissipationChart {
+                words: ampreport::catalogue::Catalogue::english().clone(),
                 valves: vec!["V3 EL84".into(), "V4 EL84".into()],
                 series: vec![Series {
                     label: "as found".into(),
@@ -300,6 +301,7 @@ fn charts_stay_small_and_finite_for_any_figures() {
 
 fn supply(a: f64, b: f64, chart: Option<f64>) -> SupplyChart {
     SupplyChart {
+        words: ampreport::catalogue::Catalogue::english().clone(),
         nodes: vec![
             SupplyNode {
                 name: "B+1".into(),

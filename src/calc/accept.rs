@@ -5,6 +5,7 @@
 
 use super::findings::{SafetyFinding, SetFindings};
 use super::status::Verdict;
+use crate::catalogue::{Arg, Catalogue};
 use crate::job::{Acceptance, AcceptedKind};
 
 /// Marks the verdicts of `set` that `acceptances` name. `matched[i]` is set
@@ -131,27 +132,46 @@ pub(crate) fn apply_to_safety(
 }
 
 /// What an acceptance names, in words: "V3 screen voltage", "node B+4".
-pub(crate) fn words(a: &Acceptance) -> String {
+pub(crate) fn words(a: &Acceptance, cat: &Catalogue) -> String {
     let name = a.name.as_ref().map(|n| n.value.as_str());
+    let one = |key: &str, n: &str| cat.format(key, &[("name", Arg::from(n))]);
     let base = match (a.kind, name) {
         (AcceptedKind::Valve, Some(n)) => n.to_string(),
-        (AcceptedKind::Node, Some(n)) => format!("node {n}"),
+        (AcceptedKind::Node, Some(n)) => one("warn-accept-node", n),
         (AcceptedKind::Part, Some(n)) => n.to_string(),
-        (AcceptedKind::Heater, Some(n)) => format!("heater {n}"),
-        (AcceptedKind::Heater, None) => "the heater supply".to_string(),
-        (AcceptedKind::Safety, Some(n)) => format!("the {} test", n.replace('-', " ")),
-        (AcceptedKind::Bench, Some(n)) => match &a.channel {
-            Some(c) => format!("{} ({} channel)", n.replace('-', " "), c.value),
-            None => n.replace('-', " "),
-        },
+        (AcceptedKind::Heater, Some(n)) => one("warn-accept-heater", n),
+        (AcceptedKind::Heater, None) => cat.text("warn-accept-heater-supply"),
+        (AcceptedKind::Safety, Some(n)) => one(
+            "warn-accept-safety",
+            &super::safety_test_words(&n.replace('-', "_"), cat),
+        ),
+        (AcceptedKind::Bench, Some(n)) => {
+            let key = format!("warn-subject-{n}");
+            let test = cat
+                .try_format(&key, &[])
+                .unwrap_or_else(|| n.replace('-', " "));
+            match &a.channel {
+                Some(c) => cat.format(
+                    "warn-subject-on-channel",
+                    &[("what", Arg::from(test)), ("channel", Arg::from(&c.value))],
+                ),
+                None => test,
+            }
+        }
         (_, None) => String::new(),
     };
     let mut out = match &a.check {
-        Some(c) => format!("{base} {}", c.value.replace('-', " ")),
+        Some(c) => format!(
+            "{base} {}",
+            super::check_words(&c.value.replace('-', "_"), cat)
+        ),
         None => base,
     };
     if let Some(set) = &a.set {
-        out.push_str(&format!(" in \u{201c}{}\u{201d}", set.value));
+        out = cat.format(
+            "warn-accept-in-set",
+            &[("what", Arg::from(out)), ("set", Arg::from(&set.value))],
+        );
     }
     out
 }

@@ -9,6 +9,7 @@ use super::findings::{
     ResponsePointFindings,
 };
 use super::status::{Status, Verdict};
+use crate::catalogue::{Arg, Catalogue};
 use crate::job::{
     AcReading, GainReading, HumNoiseReading, InputState, Job, MeasurementSet, OutputPowerReading,
     PowerCondition, ResponseReading, Settings,
@@ -117,33 +118,42 @@ fn rated_words(p: f64) -> String {
 
 /// The condition of an output-power reading in words: "at the onset of
 /// clipping", "at 5 % distortion", "with 500 mV drive".
-pub fn condition_words(c: &PowerCondition) -> String {
+pub fn condition_words(c: &PowerCondition, cat: &Catalogue) -> String {
     match c {
-        PowerCondition::Clipping => "at the onset of clipping".to_string(),
-        PowerCondition::Distortion { fraction } => {
-            format!(
-                "at {} % distortion",
-                crate::units::format_sig(fraction * 100.0, 3)
-            )
-        }
-        PowerCondition::Drive { volts } => format!("with {} drive", volts_words(volts.0)),
+        PowerCondition::Clipping => cat.text("bench-at-clipping"),
+        PowerCondition::Distortion { fraction } => cat.format(
+            "bench-at-distortion",
+            &[(
+                "pct",
+                Arg::from(crate::units::format_sig(fraction * 100.0, 3)),
+            )],
+        ),
+        PowerCondition::Drive { volts } => cat.format(
+            "bench-with-drive",
+            &[("volts", Arg::from(volts_words(volts.0)))],
+        ),
     }
 }
 
 /// Every bench figure of a measurement set.
-pub(crate) fn findings(job: &Job, set: &MeasurementSet, settings: &Settings) -> BenchFindings {
+pub(crate) fn findings(
+    job: &Job,
+    set: &MeasurementSet,
+    settings: &Settings,
+    cat: &Catalogue,
+) -> BenchFindings {
     let rated = job.unit.rated_power.as_ref().map(|p| p.value);
     let output_power: Vec<OutputPowerFindings> = set
         .bench
         .output_power
         .iter()
-        .map(|r| output_power(r, rated, settings))
+        .map(|r| output_power(r, rated, settings, cat))
         .collect();
     let hum_noise = set
         .bench
         .hum_noise
         .iter()
-        .map(|h| hum_noise(h, &output_power, rated, settings))
+        .map(|h| hum_noise(h, &output_power, rated, settings, cat))
         .collect();
     BenchFindings {
         output_power,
@@ -157,6 +167,7 @@ fn output_power(
     r: &OutputPowerReading,
     rated: Option<Watts>,
     settings: &Settings,
+    cat: &Catalogue,
 ) -> OutputPowerFindings {
     let rms = match r.reading {
         AcReading::Rms => r.volts.value,
@@ -166,44 +177,46 @@ fn output_power(
     let full_output = !matches!(r.condition, PowerCondition::Drive { .. });
     let pct = rated.map(|rated| p / rated * 100.0);
     let guide = settings.output_power_caution * 100.0;
-    let words = format!(
-        "{} into {} {}",
-        watts_words(p.0),
-        ohms_words(r.load.value.0),
-        condition_words(&r.condition)
+    let words = cat.format(
+        "bench-power-into",
+        &[
+            ("watts", Arg::from(watts_words(p.0))),
+            ("load", Arg::from(ohms_words(r.load.value.0))),
+            ("condition", Arg::from(condition_words(&r.condition, cat))),
+        ],
     );
+    let args = |rated: Option<Watts>, pct: f64| {
+        [
+            ("power", Arg::from(&words)),
+            ("pct", Arg::from(format!("{pct:.0}"))),
+            ("guide", Arg::from(format!("{guide:.0}"))),
+            (
+                "rated",
+                Arg::from(rated.map(|w| rated_words(w.0)).unwrap_or_default()),
+            ),
+        ]
+    };
     let verdict = match (rated, pct) {
         _ if !full_output => Verdict::ok(
-            format!("{words}; read at a stated drive, so not judged against the rating"),
-            "none: only readings at clipping or a stated distortion are judged",
+            cat.format("bench-power-at-drive", &args(rated, 0.0)),
+            cat.text("threshold-power-at-drive"),
         ),
         (Some(rated), Some(pct)) => {
-            let threshold = format!(
-                "caution below {guide:.0} % of the rated {}",
-                rated_words(rated.0)
-            );
+            let args = args(Some(rated), pct);
+            let threshold = cat.format("threshold-power", &args);
             if pct < guide {
                 Verdict::new(
                     Status::Caution,
-                    format!(
-                        "output power {words} is {pct:.0} % of the rated {}, below the {guide:.0} % guide",
-                        rated_words(rated.0)
-                    ),
+                    cat.format("bench-power-below-guide", &args),
                     threshold,
                 )
             } else {
-                Verdict::ok(
-                    format!(
-                        "output power {words} is {pct:.0} % of the rated {}",
-                        rated_words(rated.0)
-                    ),
-                    threshold,
-                )
+                Verdict::ok(cat.format("bench-power-of-rated", &args), threshold)
             }
         }
         _ => Verdict::ok(
-            format!("output power {words}; the job gives no rated power to compare with"),
-            "none: the job gives no rated power",
+            cat.format("bench-power-no-rating", &args(None, 0.0)),
+            cat.text("threshold-power-no-rating"),
         ),
     };
     let (condition, distortion_pct, drive_volts) = match r.condition {
@@ -221,7 +234,7 @@ fn output_power(
         condition,
         distortion_pct,
         drive_volts,
-        condition_words: condition_words(&r.condition),
+        condition_words: condition_words(&r.condition, cat),
         output_power_w: p.0,
         rated_power_w: rated.map(|w| w.0),
         output_power_pct_of_rated: pct,
@@ -268,6 +281,7 @@ fn hum_noise(
     measured: &[OutputPowerFindings],
     rated: Option<Watts>,
     settings: &Settings,
+    cat: &Catalogue,
 ) -> HumNoiseFindings {
     let v = h.volts.value;
     let full = full_output(h, measured, rated);
@@ -277,36 +291,50 @@ fn hum_noise(
         InputState::Shorted => "shorted",
         InputState::Open => "open",
     };
-    let level = format!(
-        "hum and noise {} ({:.1} dBV) with the input {input}",
-        format_engineering(v.0, Q::Voltage),
-        dbv(v)
+    let level = cat.format(
+        if h.input == InputState::Shorted {
+            "bench-hum-level-shorted"
+        } else {
+            "bench-hum-level-open"
+        },
+        &[
+            ("volts", Arg::from(format_engineering(v.0, Q::Voltage))),
+            ("dbv", Arg::from(format!("{:.1}", dbv(v)))),
+        ],
     );
+    let guide_words = Arg::from(format!("{guide:.0}"));
     let verdict = match (full, below) {
         (Some((_, w, from)), Some(below)) => {
-            let threshold = format!("caution when less than {guide:.0} dB below full output");
+            let threshold = cat.format("threshold-hum", &[("guide", guide_words.clone())]);
             let against = match from {
-                "rated" => format!("the rated full output of {}", rated_words(w.0)),
-                _ => format!("the measured full output of {}", watts_words(w.0)),
+                "rated" => cat.format(
+                    "bench-rated-full-output",
+                    &[("watts", Arg::from(rated_words(w.0)))],
+                ),
+                _ => cat.format(
+                    "bench-measured-full-output",
+                    &[("watts", Arg::from(watts_words(w.0)))],
+                ),
             };
+            let args = [
+                ("level", Arg::from(&level)),
+                ("db", Arg::from(format!("{below:.1}"))),
+                ("against", Arg::from(against)),
+                ("guide", guide_words),
+            ];
             if below < guide {
                 Verdict::new(
                     Status::Caution,
-                    format!(
-                        "{level} is only {below:.1} dB below {against}, less than the {guide:.0} dB guide"
-                    ),
+                    cat.format("bench-hum-below-guide", &args),
                     threshold,
                 )
             } else {
-                Verdict::ok(
-                    format!("{level} is {below:.1} dB below {against}"),
-                    threshold,
-                )
+                Verdict::ok(cat.format("bench-hum-below", &args), threshold)
             }
         }
         _ => Verdict::ok(
-            format!("{level}; no measured or rated full output to compare with"),
-            "none: the job gives no output power reading and no rated power",
+            cat.format("bench-hum-no-full", &[("level", Arg::from(&level))]),
+            cat.text("threshold-hum-no-full"),
         ),
     };
     HumNoiseFindings {

@@ -13,6 +13,7 @@
 //! the bias must be measured again after any change.
 
 use super::findings::{CathodeResistorOption, CathodeResistorSuggestion, ValveFindings};
+use crate::catalogue::{Arg, Catalogue};
 use crate::job::{Circuit, Job, MeasurementSet, Settings};
 use crate::ratings::{Rating, RatingsTable, ValveClass};
 use crate::units::{Amps, Ohms, Series, Volts, Watts, nearest_preferred};
@@ -173,29 +174,60 @@ struct Calibration {
 }
 
 /// Why the law cannot be calibrated for a valve, in words.
+/// Why the three-halves law cannot be fitted to a valve's readings.
+#[derive(Debug, Clone, PartialEq)]
+pub(crate) enum Unfit {
+    /// The ratings row lacks μ (a triode) or μg1g2.
+    NoMu {
+        triode: bool,
+        name: String,
+    },
+    NoPlate,
+    NoScreen,
+    NoCurrent,
+    NoGrid,
+    CutOff {
+        mu: f64,
+    },
+}
+
+impl Unfit {
+    /// The reason in `cat`'s words.
+    pub(crate) fn words(&self, cat: &Catalogue) -> String {
+        match self {
+            Unfit::NoMu { triode, name } => cat.format(
+                "note-unfit-no-mu",
+                &[
+                    ("factor", Arg::from(if *triode { "μ" } else { "μg1g2" })),
+                    ("type", Arg::from(name)),
+                ],
+            ),
+            Unfit::NoPlate => cat.text("note-unfit-no-plate"),
+            Unfit::NoScreen => cat.text("note-unfit-no-screen"),
+            Unfit::NoCurrent => cat.text("note-unfit-no-current"),
+            Unfit::NoGrid => cat.text("note-unfit-no-grid"),
+            Unfit::CutOff { mu } => {
+                cat.format("note-unfit-cut-off", &[("mu", Arg::from(mu.to_string()))])
+            }
+        }
+    }
+}
+
 fn calibrate(
     v: &ValveFindings,
     rating: &Rating,
     grid: Option<Volts>,
-) -> Result<Calibration, String> {
+) -> Result<Calibration, Unfit> {
     let triode = rating.class == ValveClass::PowerTriode;
-    let mu = if triode { rating.mu } else { rating.mu_g1g2 }.ok_or_else(|| {
-        format!(
-            "the ratings table gives no {} for {}",
-            if triode { "μ" } else { "μg1g2" },
-            rating.name
-        )
+    let mu = if triode { rating.mu } else { rating.mu_g1g2 }.ok_or_else(|| Unfit::NoMu {
+        triode,
+        name: rating.name.clone(),
     })?;
-    let va = v
-        .plate_volts
-        .map(Volts)
-        .ok_or("there is no plate reading")?;
+    let va = v.plate_volts.map(Volts).ok_or(Unfit::NoPlate)?;
     let vg2 = if triode {
         va
     } else {
-        v.screen_volts
-            .map(Volts)
-            .ok_or("there is no screen reading")?
+        v.screen_volts.map(Volts).ok_or(Unfit::NoScreen)?
     };
     let vk = Volts(v.cathode_volts.unwrap_or(0.0));
     let ia = v.plate_current_ma.map(|i| Amps(i / 1e3));
@@ -203,7 +235,7 @@ fn calibrate(
         .cathode_current_ma
         .map(|i| Amps(i / 1e3))
         .or(ia)
-        .ok_or("no reading gives the idle current")?;
+        .ok_or(Unfit::NoCurrent)?;
     let plate_share = match ia {
         Some(ia) if ik.0 > 0.0 => (ia / ik).clamp(0.0, 1.0),
         _ => 1.0,
@@ -212,14 +244,11 @@ fn calibrate(
         "cathode" => Volts(-vk.0),
         _ => match grid {
             Some(g) => Volts(g.0 - vk.0),
-            None => return Err("there is no grid reading".into()),
+            None => return Err(Unfit::NoGrid),
         },
     };
-    let law = ThreeHalvesLaw::calibrate(ik, Volts(vg2.0 - vk.0), vgk, mu).ok_or_else(|| {
-        format!(
-            "its readings put it at or beyond cut-off by the three-halves law (μ {mu}), so the law cannot be fitted"
-        )
-    })?;
+    let law =
+        ThreeHalvesLaw::calibrate(ik, Volts(vg2.0 - vk.0), vgk, mu).ok_or(Unfit::CutOff { mu })?;
     Ok(Calibration {
         law,
         vg2,
@@ -237,7 +266,7 @@ pub(crate) fn grid_for_window_middle(
     rating: &Rating,
     grid: Option<Volts>,
     middle_ia: Amps,
-) -> Result<Volts, String> {
+) -> Result<Volts, Unfit> {
     let c = calibrate(v, rating, grid)?;
     let ik = Amps(middle_ia.0 / c.plate_share.max(1e-9));
     Ok(grid_for_current(&c.law, ik, c.vg2, c.vk))
@@ -247,6 +276,7 @@ pub(crate) fn grid_for_window_middle(
 /// under output valves, when the set asks for it or a valve on it is above
 /// the cathode-bias caution guide. Where one cannot be worked out, a note
 /// says why.
+#[allow(clippy::too_many_arguments)]
 pub(crate) fn cathode_suggestions(
     job: &Job,
     set: &MeasurementSet,
@@ -255,6 +285,7 @@ pub(crate) fn cathode_suggestions(
     valves: &[ValveFindings],
     ratings: &RatingsTable,
     notes: &mut Vec<String>,
+    cat: &Catalogue,
 ) -> Vec<CathodeResistorSuggestion> {
     let mut out = Vec::new();
     for resistor in &circuit.cathode_resistors {
@@ -287,9 +318,9 @@ pub(crate) fn cathode_suggestions(
             }
         });
         let Some(hottest) = hottest else {
-            notes.push(format!(
-                "{}: no cathode-resistor suggestion, since no valve on it has a plate-dissipation figure",
-                resistor.reference
+            notes.push(cat.format(
+                "note-no-suggestion-figure",
+                &[("reference", Arg::from(&resistor.reference))],
             ));
             continue;
         };
@@ -305,9 +336,13 @@ pub(crate) fn cathode_suggestions(
         let c = match calibrate(hottest, rating, None) {
             Ok(c) => c,
             Err(why) => {
-                notes.push(format!(
-                    "{}: no cathode-resistor suggestion, since for {} {why}",
-                    resistor.reference, hottest.position
+                notes.push(cat.format(
+                    "note-no-suggestion-unfit",
+                    &[
+                        ("reference", Arg::from(&resistor.reference)),
+                        ("valve", Arg::from(&hottest.position)),
+                        ("why", Arg::from(why.words(cat))),
+                    ],
                 ));
                 continue;
             }
@@ -334,11 +369,16 @@ pub(crate) fn cathode_suggestions(
             })
         };
         if exact.is_none() {
-            notes.push(format!(
-                "{}: no cathode resistor brings {} up to {:.0} % of its plate rating by the three-halves law",
-                resistor.reference,
-                hottest.position,
-                settings.cathode_bias_target * 100.0
+            notes.push(cat.format(
+                "note-no-suggestion-reach",
+                &[
+                    ("reference", Arg::from(&resistor.reference)),
+                    ("valve", Arg::from(&hottest.position)),
+                    (
+                        "pct",
+                        Arg::from(format!("{:.0}", settings.cathode_bias_target * 100.0)),
+                    ),
+                ],
             ));
         }
         let present = Watts(hottest.plate_dissipation_w.unwrap_or(0.0));

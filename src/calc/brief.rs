@@ -3,10 +3,11 @@
 //! status column and the one-line history of a set. Filled in after every
 //! figure of a set is worked out; the long reason stays in `reason`.
 //!
-//! Every fixed phrase of these briefs is in this file.
+//! Their words are the catalogue's `brief-…` messages.
 
 use super::findings::{SafetyFinding, SetFindings, ValveFindings};
 use super::status::Status;
+use crate::catalogue::{Arg, Catalogue};
 use crate::units::{QuantityKind, format_engineering};
 
 fn pct(v: Option<f64>) -> String {
@@ -18,24 +19,32 @@ fn pct(v: Option<f64>) -> String {
 /// read in the set into its high-line projection (the correction to
 /// nominal mains times 1 + tolerance), for a voltage caution that only the
 /// projection decided.
-pub fn valve_check(v: &ValveFindings, check: &str, high_line: f64) -> String {
+pub fn valve_check(v: &ValveFindings, check: &str, high_line: f64, cat: &Catalogue) -> String {
+    let say = |key: &str, p: String| cat.format(key, &[("pct", Arg::from(p))]);
     let voltage = |name: &str, pct_now: Option<f64>| match pct_now {
-        Some(p) if p <= 100.0 => format!("{name} {:.0} % at high line", p * high_line),
-        p => format!("{name} {} of max", pct(p)),
+        Some(p) if p <= 100.0 => cat.format(
+            "brief-voltage-high-line",
+            &[
+                ("name", Arg::from(name)),
+                ("pct", Arg::from(format!("{:.0} %", p * high_line))),
+            ],
+        ),
+        p => cat.format(
+            "brief-voltage-of-max",
+            &[("name", Arg::from(name)), ("pct", Arg::from(pct(p)))],
+        ),
     };
     match check {
-        "plate_dissipation" => format!("plate {}", pct(v.plate_dissipation_pct)),
-        "plate_dissipation_high_line" => {
-            format!(
-                "plate {} at high line",
-                pct(v.high_line_plate_dissipation_pct)
-            )
-        }
-        "screen_dissipation" => format!("screen {}", pct(v.screen_dissipation_pct)),
+        "plate_dissipation" => say("brief-plate", pct(v.plate_dissipation_pct)),
+        "plate_dissipation_high_line" => say(
+            "brief-plate-high-line",
+            pct(v.high_line_plate_dissipation_pct),
+        ),
+        "screen_dissipation" => say("brief-screen", pct(v.screen_dissipation_pct)),
         "plate_voltage" => voltage("Va", v.plate_voltage_pct),
         "screen_voltage" => voltage("Vg2", v.screen_voltage_pct),
-        "cathode_current" => format!("Ik {} of max", pct(v.cathode_current_pct)),
-        other => other.replace('_', " "),
+        "cathode_current" => say("brief-cathode-current", pct(v.cathode_current_pct)),
+        other => super::check_words(other, cat),
     }
 }
 
@@ -43,13 +52,16 @@ pub fn valve_check(v: &ValveFindings, check: &str, high_line: f64) -> String {
 /// caution share (a fraction), which tells whether the high-line projection
 /// decided a resistor's caution, and `tolerance` the mains' upper
 /// tolerance (a fraction).
-pub(crate) fn fill_set(set: &mut SetFindings, derating: f64, tolerance: f64) {
+pub(crate) fn fill_set(set: &mut SetFindings, derating: f64, tolerance: f64, cat: &Catalogue) {
+    let pct_of = |key: &str, p: f64, digits: usize| {
+        cat.format(key, &[("pct", Arg::from(format!("{p:.digits$}")))])
+    };
     let high_line = set.correction_factor * (1.0 + tolerance);
     for v in &mut set.valves {
         let briefs: Vec<String> = v
             .checks
             .iter()
-            .map(|c| valve_check(v, c.check, high_line))
+            .map(|c| valve_check(v, c.check, high_line, cat))
             .collect();
         for (c, b) in v.checks.iter_mut().zip(briefs) {
             c.verdict.brief = b;
@@ -57,8 +69,11 @@ pub(crate) fn fill_set(set: &mut SetFindings, derating: f64, tolerance: f64) {
     }
     for n in &mut set.nodes {
         n.verdict.brief = match n.deviation_pct {
-            Some(d) => format!("{d:+.1} % from chart"),
-            None => "no chart figure".to_string(),
+            Some(d) => cat.format(
+                "brief-from-chart",
+                &[("deviation", Arg::from(format!("{d:+.1}")))],
+            ),
+            None => cat.text("brief-no-chart"),
         };
     }
     for r in set
@@ -69,50 +84,67 @@ pub(crate) fn fill_set(set: &mut SetFindings, derating: f64, tolerance: f64) {
     {
         r.verdict.brief = match (r.power_pct, r.high_line_power_pct) {
             (Some(p), Some(h)) if r.verdict.status != Status::Ok && p <= derating * 100.0 => {
-                format!("{h:.0} % at high line")
+                pct_of("brief-at-high-line", h, 0)
             }
-            (Some(p), _) => format!("{p:.0} % of rating"),
-            (None, _) => "no rating given".to_string(),
+            (Some(p), _) => pct_of("brief-of-rating", p, 0),
+            (None, _) => cat.text("brief-no-rating"),
         };
     }
     for c in &mut set.filter_capacitors {
         let v = |x: f64| format_engineering(x, QuantityKind::Voltage);
-        let what = if c.deciding == "working_high_line" {
-            "working at high line"
+        let what = cat.text(if c.deciding == "working_high_line" {
+            "brief-working-high-line"
         } else {
-            "cold-start peak"
-        };
+            "brief-cold-start-peak"
+        });
         c.verdict.brief = match c.verdict.status {
-            Status::Ok => format!("{:.0} % margin", c.margin_pct),
-            _ if c.deciding_margin_pct < 0.0 => {
-                format!("{} {what} on {}", v(c.deciding_volts), v(c.rating_volts))
-            }
-            _ => format!("{:.1} % margin, {what}", c.deciding_margin_pct),
+            Status::Ok => pct_of("brief-margin", c.margin_pct, 0),
+            _ if c.deciding_margin_pct < 0.0 => cat.format(
+                "brief-volts-on-rating",
+                &[
+                    ("volts", Arg::from(v(c.deciding_volts))),
+                    ("what", Arg::from(&what)),
+                    ("rating", Arg::from(v(c.rating_volts))),
+                ],
+            ),
+            _ => cat.format(
+                "brief-margin-what",
+                &[
+                    ("pct", Arg::from(format!("{:.1}", c.deciding_margin_pct))),
+                    ("what", Arg::from(&what)),
+                ],
+            ),
         };
     }
     if let Some(r) = &mut set.rectifier {
-        r.verdict.brief = format!("{:.0} % of rating", r.load_pct);
+        r.verdict.brief = pct_of("brief-of-rating", r.load_pct, 0);
     }
     for h in &mut set.heaters {
         h.verdict.brief = format!("{:+.1} %", h.deviation_pct);
     }
     for p in &mut set.bench.output_power {
         p.verdict.brief = match p.output_power_pct_of_rated {
-            Some(pct) => format!("{pct:.0} % of rated"),
+            Some(pct) => pct_of("brief-of-rated", pct, 0),
             None => format!("{:.1} W", p.output_power_w),
         };
     }
     for h in &mut set.bench.hum_noise {
         h.verdict.brief = match h.hum_noise_db_below_full {
-            Some(db) => format!("{db:.0} dB below full"),
+            Some(db) => cat.format("brief-below-full", &[("db", Arg::from(format!("{db:.0}")))]),
             None => format!("{:.1} dBV", h.hum_noise_dbv),
         };
     }
 }
 
 /// Fills `brief` on the safety tests.
-pub(crate) fn fill_safety(safety: &mut [SafetyFinding]) {
+pub(crate) fn fill_safety(safety: &mut [SafetyFinding], cat: &Catalogue) {
     for s in safety {
-        s.verdict.brief = format!("{} against {}", s.measured, s.limit);
+        s.verdict.brief = cat.format(
+            "brief-against",
+            &[
+                ("measured", Arg::from(&s.measured)),
+                ("limit", Arg::from(&s.limit)),
+            ],
+        );
     }
 }

@@ -461,14 +461,15 @@ pub enum CurrentMethod {
 }
 
 impl CurrentMethod {
-    pub fn words(self) -> &'static str {
+    /// The catalogue key of the method in words.
+    pub fn key(self) -> &'static str {
         match self {
-            CurrentMethod::SharedCathodeResistor => "shared cathode resistor",
-            CurrentMethod::OwnCathodeResistor => "own cathode resistor",
-            CurrentMethod::SenseResistor => "sense resistor",
-            CurrentMethod::TransformerResistance => "transformer resistance",
-            CurrentMethod::Shunt => "shunt across half primary",
-            CurrentMethod::Probe => "bias probe",
+            CurrentMethod::SharedCathodeResistor => "method-shared-cathode-resistor",
+            CurrentMethod::OwnCathodeResistor => "method-own-cathode-resistor",
+            CurrentMethod::SenseResistor => "method-sense-resistor",
+            CurrentMethod::TransformerResistance => "method-transformer-resistance",
+            CurrentMethod::Shunt => "method-shunt",
+            CurrentMethod::Probe => "method-probe",
         }
     }
 }
@@ -751,14 +752,15 @@ impl Family {
         Family::SafetyTests,
     ];
 
-    pub fn words(self) -> &'static str {
+    /// The catalogue key of the family's title.
+    pub fn key(self) -> &'static str {
         match self {
-            Family::OutputValves => "Output valves against their ratings",
-            Family::SupplyVoltages => "Supply voltages against the chart",
-            Family::StressedParts => "Stressed resistors, capacitors and rectifier",
-            Family::Heater => "Heater supply",
-            Family::BenchTests => "Performance on the bench",
-            Family::SafetyTests => "Electrical safety tests",
+            Family::OutputValves => "family-output-valves",
+            Family::SupplyVoltages => "family-supply-voltages",
+            Family::StressedParts => "family-stressed-parts",
+            Family::Heater => "family-heater",
+            Family::BenchTests => "family-bench-tests",
+            Family::SafetyTests => "family-safety-tests",
         }
     }
 }
@@ -766,7 +768,7 @@ impl Family {
 #[derive(Debug, Clone, Serialize)]
 pub struct FamilyStatus {
     pub family: Family,
-    pub title: &'static str,
+    pub title: String,
     /// The worst status that still counts: accepted findings leave it.
     pub status: Status,
     /// The worst figure that still counts in words, or why there is none.

@@ -37,13 +37,20 @@ pub use valve::{
     target_current,
 };
 
+use crate::catalogue::{Arg, Catalogue};
 use crate::job::Job;
 use crate::ratings::RatingsTable;
 
-/// Derives every figure of a job. Valve types must already be known to
-/// `ratings` (see [`crate::job::check_types`]); an unknown one is skipped
-/// with a warning rather than a panic.
+/// Derives every figure of a job, with its reasons in English. Valve types
+/// must already be known to `ratings` (see [`crate::job::check_types`]); an
+/// unknown one is skipped with a warning rather than a panic.
 pub fn derive(job: &Job, ratings: &RatingsTable) -> Findings {
+    derive_in(job, ratings, Catalogue::english())
+}
+
+/// [`derive`] with the reasons, thresholds, notes and family titles in the
+/// words of `cat` (the shop's language). The figures do not depend on it.
+pub fn derive_in(job: &Job, ratings: &RatingsTable, cat: &Catalogue) -> Findings {
     let settings = &job.settings;
     let mut warnings = Vec::new();
     let mut sets = Vec::new();
@@ -58,6 +65,7 @@ pub fn derive(job: &Job, ratings: &RatingsTable) -> Findings {
             set,
             circuit: &circuit,
             settings,
+            cat,
         };
         let mut valves = Vec::new();
         for reading in &set.valves {
@@ -65,30 +73,39 @@ pub fn derive(job: &Job, ratings: &RatingsTable) -> Findings {
                 continue;
             };
             let Ok(rating) = ratings.lookup(&spec.type_name.value) else {
-                notes.push(format!(
-                    "{}: valve type {} is not in the ratings table",
-                    spec.position.value, spec.type_name.value
+                notes.push(cat.format(
+                    "note-unknown-type",
+                    &[
+                        ("position", Arg::from(&spec.position.value)),
+                        ("type", Arg::from(&spec.type_name.value)),
+                    ],
                 ));
                 continue;
             };
             valves.push(valve::analyse(&ctx, &spec, reading, rating, &mut notes));
         }
         let warm_up = warm_up(&ctx, job, set, ratings);
-        let nodes = supply::nodes(job, set, &circuit, settings);
+        let nodes = supply::nodes(job, set, &circuit, settings, cat);
         let mut not_checked = Vec::new();
-        let droppers = supply::droppers(job, set, &circuit, settings, &mut not_checked);
-        let cathode_resistors = supply::cathode_resistors(job, set, &circuit, settings);
-        let screen_resistors = supply::screen_resistors(job, set, &circuit, settings);
+        let droppers = supply::droppers(job, set, &circuit, settings, &mut not_checked, cat);
+        let cathode_resistors = supply::cathode_resistors(job, set, &circuit, settings, cat);
+        let screen_resistors = supply::screen_resistors(job, set, &circuit, settings, cat);
         let filter_capacitors =
-            supply::capacitors(job, set, &circuit, settings, ratings, &mut not_checked);
+            supply::capacitors(job, set, &circuit, settings, ratings, &mut not_checked, cat);
         for n in &not_checked {
-            notes.push(format!("{}: not checked, {}", n.reference, n.reason));
+            notes.push(cat.format(
+                "note-not-checked",
+                &[
+                    ("reference", Arg::from(&n.reference)),
+                    ("reason", Arg::from(&n.reason)),
+                ],
+            ));
         }
-        let heaters = supply::heaters(job, set, settings);
-        let rectifier = supply::rectifier(job, set, &circuit, &valves, ratings);
-        let bench = bench::findings(job, set, settings);
+        let heaters = supply::heaters(job, set, settings, cat);
+        let rectifier = supply::rectifier(job, set, &circuit, &valves, ratings, cat);
+        let bench = bench::findings(job, set, settings, cat);
         let cathode_resistor_suggestions = bias_estimate::cathode_suggestions(
-            job, set, &circuit, settings, &valves, ratings, &mut notes,
+            job, set, &circuit, settings, &valves, ratings, &mut notes, cat,
         );
         let mut found = SetFindings {
             label: set.label.clone(),
@@ -114,9 +131,10 @@ pub fn derive(job: &Job, ratings: &RatingsTable) -> Findings {
             &mut found,
             settings.resistor_derating,
             job.mains.tolerance.value,
+            cat,
         );
         accept::apply_to_set(&job.acceptances, &mut found, &mut matched);
-        warnings.extend(set_warnings(&found));
+        warnings.extend(set_warnings(&found, cat));
         for n in notes {
             let subject = n.split(':').next().unwrap_or("").to_string();
             warnings.push(Warning::note(
@@ -142,15 +160,30 @@ pub fn derive(job: &Job, ratings: &RatingsTable) -> Findings {
             true,
             &subject,
             Status::Caution,
-            sentence(&m.message()),
+            sentence(&cat.format(
+                "warn-not-measured-final",
+                &[
+                    (
+                        "what",
+                        Arg::from(match m.kind {
+                            "node" => {
+                                cat.format("warn-accept-node", &[("name", Arg::from(&m.name))])
+                            }
+                            _ => m.name.clone(),
+                        }),
+                    ),
+                    ("final", Arg::from(&m.final_set)),
+                    ("set", Arg::from(&m.set)),
+                ],
+            )),
         ));
     }
     let mut safety = job
         .safety
         .as_ref()
-        .map(safety::findings)
+        .map(|s| safety::findings(s, cat))
         .unwrap_or_default();
-    brief::fill_safety(&mut safety);
+    brief::fill_safety(&mut safety, cat);
     accept::apply_to_safety(&job.acceptances, &mut safety, &mut matched);
     for s in &safety {
         if s.verdict.status != Status::Ok {
@@ -168,11 +201,11 @@ pub fn derive(job: &Job, ratings: &RatingsTable) -> Findings {
         warnings.push(Warning::note(
             a.set.as_ref().map(|s| s.value.as_str()),
             false,
-            "sign-off",
+            &cat.text("warn-subject-sign-off"),
             Status::Caution,
-            sentence(&format!(
-                "the acceptance of {} matches no figure outside its limits, so it accepts nothing",
-                accept::words(a)
+            sentence(&cat.format(
+                "warn-acceptance-unmatched",
+                &[("what", Arg::from(accept::words(a, cat)))],
             )),
         ));
     }
@@ -180,18 +213,18 @@ pub fn derive(job: &Job, ratings: &RatingsTable) -> Findings {
         warnings.push(Warning::note(
             None,
             false,
-            "job",
+            &cat.text("warn-subject-job"),
             Status::Caution,
-            "The job has no measurement sets, so no figures could be derived.".into(),
+            cat.text("warn-no-sets"),
         ));
     }
     let mods = job
         .mods
         .iter()
-        .map(|m| mod_findings(m, job, ratings, &mut warnings))
+        .map(|m| mod_findings(m, job, ratings, &mut warnings, cat))
         .collect();
     let final_set = final_index.and_then(|i| sets.get(i));
-    let at_a_glance = glance(final_set, &safety, job.safety.is_some());
+    let at_a_glance = glance(final_set, &safety, job.safety.is_some(), cat);
     let final_set = final_set.map(|s| s.label.clone());
     Findings {
         schema: SCHEMA,
@@ -349,7 +382,12 @@ fn verdict_warning(
     }
 }
 
-fn set_warnings(set: &SetFindings) -> Vec<Warning> {
+/// "V3 (EL34)": a valve as a finding's subject.
+fn valve_subject(position: &str, valve_type: &str) -> String {
+    format!("{position} ({valve_type})")
+}
+
+fn set_warnings(set: &SetFindings, cat: &Catalogue) -> Vec<Warning> {
     let mut out = Vec::new();
     let mut push = |subject: &str, check: Option<&'static str>, verdict: &Verdict| {
         if verdict.status != Status::Ok {
@@ -359,14 +397,20 @@ fn set_warnings(set: &SetFindings) -> Vec<Warning> {
                 subject,
                 check,
                 verdict,
-                sentence(&format!("{subject}: {}", verdict.reason)),
+                sentence(&cat.format(
+                    "warn-subject-reason",
+                    &[
+                        ("subject", Arg::from(subject)),
+                        ("reason", Arg::from(&verdict.reason)),
+                    ],
+                )),
             ));
         }
     };
     for v in &set.valves {
         for c in &v.checks {
             push(
-                &format!("{} ({})", v.position, v.valve_type),
+                &valve_subject(&v.position, &v.valve_type),
                 Some(c.check),
                 &c.verdict,
             );
@@ -388,24 +432,28 @@ fn set_warnings(set: &SetFindings) -> Vec<Warning> {
     }
     if let Some(r) = &set.rectifier {
         push(
-            &format!("{} ({})", r.position, r.valve_type),
+            &valve_subject(&r.position, &r.valve_type),
             Some("rectifier_load"),
             &r.verdict,
         );
     }
     for h in &set.heaters {
         let subject = match &h.label {
-            Some(l) => format!("heater {l}"),
-            None => "heater".to_string(),
+            Some(l) => cat.format("warn-subject-heater-labelled", &[("label", Arg::from(l))]),
+            None => cat.text("warn-subject-heater"),
         };
         push(&subject, None, &h.verdict);
     }
     for p in &set.bench.output_power {
-        push(&bench_subject("output power", &p.channel), None, &p.verdict);
+        push(
+            &bench_subject("warn-subject-output-power", &p.channel, cat),
+            None,
+            &p.verdict,
+        );
     }
     for h in &set.bench.hum_noise {
         push(
-            &bench_subject("hum and noise", &h.channel),
+            &bench_subject("warn-subject-hum-noise", &h.channel, cat),
             None,
             &h.verdict,
         );
@@ -413,11 +461,16 @@ fn set_warnings(set: &SetFindings) -> Vec<Warning> {
     out
 }
 
-/// "output power" or "output power (clean channel)".
-fn bench_subject(what: &str, channel: &Option<String>) -> String {
+/// "output power" or "output power (clean channel)": `key` names the
+/// test.
+fn bench_subject(key: &str, channel: &Option<String>, cat: &Catalogue) -> String {
+    let what = cat.text(key);
     match channel {
-        Some(c) => format!("{what} ({c} channel)"),
-        None => what.to_string(),
+        Some(c) => cat.format(
+            "warn-subject-on-channel",
+            &[("what", Arg::from(what)), ("channel", Arg::from(c))],
+        ),
+        None => what,
     }
 }
 
@@ -425,72 +478,75 @@ fn glance(
     last: Option<&SetFindings>,
     safety: &[SafetyFinding],
     has_safety: bool,
+    cat: &Catalogue,
 ) -> Vec<FamilyStatus> {
     let mut out = Vec::new();
     for family in Family::ALL {
         // Each figure's subject ("V3 (EL34)", "R31"), the check it is (for
         // a valve) and its verdict.
-        let verdicts: Vec<(String, Option<String>, &Verdict)> =
-            match (family, last) {
-                (Family::SafetyTests, _) => safety
-                    .iter()
-                    .map(|s| (s.test.replace('_', " "), None, &s.verdict))
-                    .collect(),
-                (_, None) => Vec::new(),
-                (Family::OutputValves, Some(set)) => set
-                    .valves
-                    .iter()
-                    .filter(|v| v.is_output)
-                    .flat_map(|v| {
-                        v.checks.iter().map(move |c| {
-                            (
-                                format!("{} ({})", v.position, v.valve_type),
-                                Some(c.check.replace('_', " ")),
-                                &c.verdict,
-                            )
-                        })
-                    })
-                    .collect(),
-                (Family::SupplyVoltages, Some(set)) => set
-                    .nodes
-                    .iter()
-                    .map(|n| (n.name.clone(), None, &n.verdict))
-                    .collect(),
-                (Family::StressedParts, Some(set)) => set
-                    .droppers
-                    .iter()
-                    .chain(&set.cathode_resistors)
-                    .chain(&set.screen_resistors)
-                    .map(|r| (r.reference.clone(), None, &r.verdict))
-                    .chain(
-                        set.filter_capacitors
-                            .iter()
-                            .map(|c| (c.reference.clone(), None, &c.verdict)),
-                    )
-                    .chain(set.rectifier.iter().map(|r| {
+        let verdicts: Vec<(String, Option<String>, &Verdict)> = match (family, last) {
+            (Family::SafetyTests, _) => safety
+                .iter()
+                .map(|s| (safety_test_words(s.test, cat), None, &s.verdict))
+                .collect(),
+            (_, None) => Vec::new(),
+            (Family::OutputValves, Some(set)) => set
+                .valves
+                .iter()
+                .filter(|v| v.is_output)
+                .flat_map(|v| {
+                    v.checks.iter().map(move |c| {
                         (
-                            format!("{} ({})", r.position, r.valve_type),
-                            Some("rectifier load".to_string()),
-                            &r.verdict,
+                            valve_subject(&v.position, &v.valve_type),
+                            Some(check_words(c.check, cat)),
+                            &c.verdict,
                         )
-                    }))
-                    .collect(),
-                (Family::Heater, Some(set)) => set
-                    .heaters
-                    .iter()
-                    .map(|h| ("heater".to_string(), None, &h.verdict))
-                    .collect(),
-                (Family::BenchTests, Some(set)) => {
-                    set.bench
-                        .output_power
+                    })
+                })
+                .collect(),
+            (Family::SupplyVoltages, Some(set)) => set
+                .nodes
+                .iter()
+                .map(|n| (n.name.clone(), None, &n.verdict))
+                .collect(),
+            (Family::StressedParts, Some(set)) => set
+                .droppers
+                .iter()
+                .chain(&set.cathode_resistors)
+                .chain(&set.screen_resistors)
+                .map(|r| (r.reference.clone(), None, &r.verdict))
+                .chain(
+                    set.filter_capacitors
                         .iter()
-                        .map(|p| (bench_subject("output power", &p.channel), None, &p.verdict))
-                        .chain(set.bench.hum_noise.iter().map(|h| {
-                            (bench_subject("hum and noise", &h.channel), None, &h.verdict)
-                        }))
-                        .collect()
-                }
-            };
+                        .map(|c| (c.reference.clone(), None, &c.verdict)),
+                )
+                .chain(set.rectifier.iter().map(|r| {
+                    (
+                        valve_subject(&r.position, &r.valve_type),
+                        Some(check_words("rectifier_load", cat)),
+                        &r.verdict,
+                    )
+                }))
+                .collect(),
+            (Family::Heater, Some(set)) => set
+                .heaters
+                .iter()
+                .map(|h| (cat.text("warn-subject-heater"), None, &h.verdict))
+                .collect(),
+            (Family::BenchTests, Some(set)) => set
+                .bench
+                .output_power
+                .iter()
+                .map(|p| {
+                    let subject = bench_subject("warn-subject-output-power", &p.channel, cat);
+                    (subject, None, &p.verdict)
+                })
+                .chain(set.bench.hum_noise.iter().map(|h| {
+                    let subject = bench_subject("warn-subject-hum-noise", &h.channel, cat);
+                    (subject, None, &h.verdict)
+                }))
+                .collect(),
+        };
         let accepted: Vec<AcceptedFinding> = verdicts
             .iter()
             .filter(|(_, _, v)| v.accepted)
@@ -516,33 +572,39 @@ fn glance(
             },
         );
         let (status, words, measured) = match worst {
-            Some((subject, _, v)) if v.status != Status::Ok => {
-                (v.status, format!("{subject}: {}", v.reason), true)
-            }
-            _ if !accepted.is_empty() => (Status::Ok, accepted_words(&accepted), true),
-            Some((_, _, v)) => (
-                Status::Ok,
-                ok_summary(family, last, safety).unwrap_or_else(|| v.reason.clone()),
+            Some((subject, _, v)) if v.status != Status::Ok => (
+                v.status,
+                cat.format(
+                    "warn-subject-reason",
+                    &[
+                        ("subject", Arg::from(subject)),
+                        ("reason", Arg::from(&v.reason)),
+                    ],
+                ),
                 true,
             ),
-            None if family == Family::SafetyTests && !has_safety => (
-                Status::Caution,
-                "no safety tests recorded".to_string(),
-                false,
+            _ if !accepted.is_empty() => (Status::Ok, accepted_words(&accepted, cat), true),
+            Some((_, _, v)) => (
+                Status::Ok,
+                ok_summary(family, last, safety, cat).unwrap_or_else(|| v.reason.clone()),
+                true,
             ),
+            None if family == Family::SafetyTests && !has_safety => {
+                (Status::Caution, cat.text("family-no-safety"), false)
+            }
             None if family == Family::BenchTests && last.is_some_and(|s| !s.bench.is_empty()) => (
                 Status::Ok,
-                ok_summary(family, last, safety).unwrap_or_default(),
+                ok_summary(family, last, safety, cat).unwrap_or_default(),
                 true,
             ),
             None if family == Family::BenchTests => {
-                (Status::Ok, "no bench tests recorded".to_string(), false)
+                (Status::Ok, cat.text("family-no-bench"), false)
             }
-            None => (Status::Ok, "nothing measured".to_string(), false),
+            None => (Status::Ok, cat.text("family-nothing-measured"), false),
         };
         out.push(FamilyStatus {
             family,
-            title: family.words(),
+            title: cat.text(family.key()),
             status,
             worst: words,
             measured,
@@ -555,7 +617,7 @@ fn glance(
 /// The accepted findings of a family in words, grouped by check:
 /// "accepted by the technician: plate voltage of V3, V4; screen voltage of
 /// V3, V4 (reasons below)".
-fn accepted_words(accepted: &[AcceptedFinding]) -> String {
+fn accepted_words(accepted: &[AcceptedFinding], cat: &Catalogue) -> String {
     let mut groups: Vec<(Option<&str>, Vec<&str>)> = Vec::new();
     for a in accepted {
         // A valve by its position alone: the check names what it is.
@@ -571,14 +633,30 @@ fn accepted_words(accepted: &[AcceptedFinding]) -> String {
     let parts: Vec<String> = groups
         .iter()
         .map(|(check, names)| match check {
-            Some(c) => format!("{c} of {}", names.join(", ")),
+            Some(c) => cat.format(
+                "family-check-of",
+                &[
+                    ("check", Arg::from(*c)),
+                    ("names", Arg::from(names.join(", "))),
+                ],
+            ),
             None => names.join(", "),
         })
         .collect();
-    format!(
-        "accepted by the technician: {} (reasons below)",
-        parts.join("; ")
-    )
+    cat.format("family-accepted", &[("what", Arg::from(parts.join("; ")))])
+}
+
+/// A valve's check in words ("plate dissipation"), from its name in the
+/// JSON ("plate_dissipation").
+pub fn check_words(check: &str, cat: &Catalogue) -> String {
+    cat.try_format(&format!("check-{}", check.replace('_', "-")), &[])
+        .unwrap_or_else(|| check.replace('_', " "))
+}
+
+/// A safety test in words ("earth continuity"), from its name in the JSON.
+pub fn safety_test_words(test: &str, cat: &Catalogue) -> String {
+    cat.try_format(&format!("safety-test-{}", test.replace('_', "-")), &[])
+        .unwrap_or_else(|| test.replace('_', " "))
 }
 
 /// When a whole family is ok, the figure nearest its limit, in words.
@@ -586,10 +664,13 @@ fn ok_summary(
     family: Family,
     last: Option<&SetFindings>,
     safety: &[SafetyFinding],
+    cat: &Catalogue,
 ) -> Option<String> {
     let max_by = |a: f64, b: f64| a.total_cmp(&b);
     match family {
-        Family::SafetyTests => Some(format!("all {} tests meet their limits", safety.len())),
+        Family::SafetyTests => {
+            Some(cat.format("family-safety-ok", &[("count", Arg::from(safety.len()))]))
+        }
         Family::OutputValves => {
             let set = last?;
             let v = set
@@ -603,12 +684,19 @@ fn ok_summary(
                     )
                 })?;
             let n = set.valves.iter().filter(|v| v.is_output).count();
-            Some(format!(
-                "{n} output valve{} inside their ratings; hottest {} ({}) at {:.0} % of its plate rating",
-                if n == 1 { "" } else { "s" },
-                v.position,
-                v.valve_type,
-                v.plate_dissipation_pct.unwrap_or(0.0)
+            Some(cat.format(
+                "family-valves-ok",
+                &[
+                    ("count", Arg::from(n)),
+                    (
+                        "hottest",
+                        Arg::from(valve_subject(&v.position, &v.valve_type)),
+                    ),
+                    (
+                        "pct",
+                        Arg::from(format!("{:.0}", v.plate_dissipation_pct.unwrap_or(0.0))),
+                    ),
+                ],
             ))
         }
         Family::SupplyVoltages => {
@@ -624,12 +712,16 @@ fn ok_summary(
                     b.deviation_pct.unwrap_or(0.0).abs(),
                 )
             })?;
-            Some(format!(
-                "{} node{} within tolerance of the chart; largest deviation {:+.1} % at {}",
-                charted.len(),
-                if charted.len() == 1 { "" } else { "s" },
-                n.deviation_pct.unwrap_or(0.0),
-                n.name
+            Some(cat.format(
+                "family-nodes-ok",
+                &[
+                    ("count", Arg::from(charted.len())),
+                    (
+                        "deviation",
+                        Arg::from(format!("{:+.1}", n.deviation_pct.unwrap_or(0.0))),
+                    ),
+                    ("node", Arg::from(&n.name)),
+                ],
             ))
         }
         Family::StressedParts => {
@@ -643,10 +735,15 @@ fn ok_summary(
                 .filter(|r| r.power_pct.is_some())
                 .max_by(|a, b| max_by(a.power_pct.unwrap_or(0.0), b.power_pct.unwrap_or(0.0)))
             {
-                parts.push(format!(
-                    "busiest resistor {} at {:.0} % of its rating",
-                    r.reference,
-                    r.power_pct.unwrap_or(0.0)
+                parts.push(cat.format(
+                    "family-busiest-resistor",
+                    &[
+                        ("reference", Arg::from(&r.reference)),
+                        (
+                            "pct",
+                            Arg::from(format!("{:.0}", r.power_pct.unwrap_or(0.0))),
+                        ),
+                    ],
                 ));
             }
             if let Some(c) = set
@@ -654,15 +751,21 @@ fn ok_summary(
                 .iter()
                 .min_by(|a, b| a.margin_pct.total_cmp(&b.margin_pct))
             {
-                parts.push(format!(
-                    "least capacitor margin {:.0} % ({})",
-                    c.margin_pct, c.reference
+                parts.push(cat.format(
+                    "family-least-margin",
+                    &[
+                        ("reference", Arg::from(&c.reference)),
+                        ("pct", Arg::from(format!("{:.0}", c.margin_pct))),
+                    ],
                 ));
             }
             if let Some(r) = &set.rectifier {
-                parts.push(format!(
-                    "rectifier {} at {:.0} % of its rating",
-                    r.position, r.load_pct
+                parts.push(cat.format(
+                    "family-rectifier-load",
+                    &[
+                        ("position", Arg::from(&r.position)),
+                        ("pct", Arg::from(format!("{:.0}", r.load_pct))),
+                    ],
                 ));
             }
             if parts.is_empty() {
@@ -671,20 +774,22 @@ fn ok_summary(
                 Some(parts.join("; "))
             }
         }
-        Family::BenchTests => bench_summary(&last?.bench),
+        Family::BenchTests => bench_summary(&last?.bench, cat),
         Family::Heater => {
             let h = last?.heaters.first()?;
-            Some(format!(
-                "{} against {} ({:+.1} %)",
-                crate::units::format_engineering(
-                    h.measured_volts,
-                    crate::units::QuantityKind::Voltage
-                ),
-                crate::units::format_engineering(
-                    h.nominal_volts,
-                    crate::units::QuantityKind::Voltage
-                ),
-                h.deviation_pct
+            let volts = |v: f64| {
+                Arg::from(crate::units::format_engineering(
+                    v,
+                    crate::units::QuantityKind::Voltage,
+                ))
+            };
+            Some(cat.format(
+                "family-heater-ok",
+                &[
+                    ("measured", volts(h.measured_volts)),
+                    ("nominal", volts(h.nominal_volts)),
+                    ("deviation", Arg::from(format!("{:+.1}", h.deviation_pct))),
+                ],
             ))
         }
     }
@@ -723,7 +828,7 @@ fn line_up(job: &Job, ratings: &RatingsTable) -> Vec<LineUpFindings> {
 /// The bench tests of a set in one line: the largest output power, the
 /// hum and noise nearest full output, the first response's −3 dB points
 /// and the first gain.
-fn bench_summary(bench: &BenchFindings) -> Option<String> {
+fn bench_summary(bench: &BenchFindings, cat: &Catalogue) -> Option<String> {
     use crate::units::{QuantityKind as Q, format_engineering, format_sig};
     let mut parts = Vec::new();
     if let Some(p) = bench
@@ -732,16 +837,26 @@ fn bench_summary(bench: &BenchFindings) -> Option<String> {
         .filter(|p| p.condition != "drive")
         .max_by(|a, b| a.output_power_w.total_cmp(&b.output_power_w))
     {
-        let mut words = format!(
-            "{} W into {} {}",
-            format_sig(p.output_power_w, 3),
-            format_engineering(p.load_ohms, Q::Resistance),
-            p.condition_words
-        );
-        if let Some(pct) = p.output_power_pct_of_rated {
-            words.push_str(&format!(" ({pct:.0} % of rated)"));
-        }
-        parts.push(words);
+        let args = [
+            ("watts", Arg::from(format_sig(p.output_power_w, 3))),
+            (
+                "load",
+                Arg::from(format_engineering(p.load_ohms, Q::Resistance)),
+            ),
+            ("condition", Arg::from(&p.condition_words)),
+            (
+                "pct",
+                Arg::from(format!("{:.0}", p.output_power_pct_of_rated.unwrap_or(0.0))),
+            ),
+        ];
+        parts.push(cat.format(
+            if p.output_power_pct_of_rated.is_some() {
+                "family-bench-power-rated"
+            } else {
+                "family-bench-power"
+            },
+            &args,
+        ));
     }
     let quietest_margin = bench.hum_noise.iter().min_by(|a, b| {
         a.hum_noise_db_below_full
@@ -750,37 +865,40 @@ fn bench_summary(bench: &BenchFindings) -> Option<String> {
     });
     if let Some(h) = quietest_margin {
         parts.push(match h.hum_noise_db_below_full {
-            Some(db) => format!("hum and noise {db:.0} dB below full output"),
-            None => format!(
-                "hum and noise {} ({:.1} dBV)",
-                format_engineering(h.hum_noise_mv / 1e3, Q::Voltage),
-                h.hum_noise_dbv
+            Some(db) => cat.format(
+                "family-bench-hum-below",
+                &[("db", Arg::from(format!("{db:.0}")))],
+            ),
+            None => cat.format(
+                "family-bench-hum",
+                &[
+                    (
+                        "volts",
+                        Arg::from(format_engineering(h.hum_noise_mv / 1e3, Q::Voltage)),
+                    ),
+                    ("dbv", Arg::from(format!("{:.1}", h.hum_noise_dbv))),
+                ],
             ),
         });
     }
     if let Some(r) = bench.responses.first() {
         let hz = |f: f64| format_engineering(f, Q::Frequency);
-        parts.push(match (r.minus_3db_low_hz, r.minus_3db_high_hz) {
-            (Some(lo), Some(hi)) => format!("−3 dB at {} and {}", hz(lo), hz(hi)),
-            (Some(lo), None) => format!(
-                "−3 dB at {}, within 3 dB up to {}",
-                hz(lo),
-                hz(r.highest_hz)
-            ),
-            (None, Some(hi)) => format!(
-                "within 3 dB down to {}, −3 dB at {}",
-                hz(r.lowest_hz),
-                hz(hi)
-            ),
-            (None, None) => format!(
-                "within 3 dB from {} to {}",
-                hz(r.lowest_hz),
-                hz(r.highest_hz)
-            ),
-        });
+        let (key, low, high) = match (r.minus_3db_low_hz, r.minus_3db_high_hz) {
+            (Some(lo), Some(hi)) => ("family-bench-response-both", lo, hi),
+            (Some(lo), None) => ("family-bench-response-low", lo, r.highest_hz),
+            (None, Some(hi)) => ("family-bench-response-high", r.lowest_hz, hi),
+            (None, None) => ("family-bench-response-flat", r.lowest_hz, r.highest_hz),
+        };
+        parts.push(cat.format(
+            key,
+            &[("low", Arg::from(hz(low))), ("high", Arg::from(hz(high)))],
+        ));
     }
     if let Some(g) = bench.gains.first() {
-        parts.push(format!("gain {:.1} dB", g.gain_db));
+        parts.push(cat.format(
+            "family-bench-gain",
+            &[("db", Arg::from(format!("{:.1}", g.gain_db)))],
+        ));
     }
     (!parts.is_empty()).then(|| parts.join("; "))
 }
@@ -828,6 +946,7 @@ fn mod_findings(
     job: &Job,
     ratings: &RatingsTable,
     warnings: &mut Vec<Warning>,
+    cat: &Catalogue,
 ) -> ModFindings {
     use crate::job::ModFigure;
     use crate::units::{QuantityKind as Q, format_engineering};
@@ -846,7 +965,10 @@ fn mod_findings(
                     false,
                     pos,
                     Status::Caution,
-                    format!("{pos} ({}): the ratings table gives no typical μ and ra, so the mod's stage figure is left out.", r.name),
+                    cat.format(
+                        "warn-no-mu-ra",
+                        &[("position", Arg::from(pos)), ("type", Arg::from(&r.name))],
+                    ),
                 ));
                 None
             }
@@ -859,13 +981,20 @@ fn mod_findings(
                 let fc = crate::units::rc_corner(*r, *c).0;
                 figures.push(ModFigureFindings {
                     kind: "rc_corner",
-                    description: format!(
-                        "{}{} with {}: corner {}",
-                        label.as_ref().map(|l| format!("{l}: ")).unwrap_or_default(),
-                        ohms(r.0),
-                        farads(c.0),
-                        hz(fc)
-                    ),
+                    description: {
+                        let corner = cat.format(
+                            "figure-rc-corner",
+                            &[
+                                ("ohms", Arg::from(ohms(r.0))),
+                                ("farads", Arg::from(farads(c.0))),
+                                ("frequency", Arg::from(hz(fc))),
+                            ],
+                        );
+                        match label {
+                            Some(l) => format!("{l}: {corner}"),
+                            None => corner,
+                        }
+                    },
                     formula: "fc = 1 / (2π·R·C)",
                     frequency_hz: Some(fc),
                     gain: None,
@@ -881,14 +1010,18 @@ fn mod_findings(
                     let fc = cathode_bypass_corner(mu, ra, *load, *rk, *ck).0;
                     figures.push(ModFigureFindings {
                         kind: "cathode_bypass",
-                        description: format!(
-                            "{} ({name}, μ {mu}, ra {}): Rk {} bypassed by {} into a {} load: corner {}",
-                            valve.value,
-                            ohms(ra.0),
-                            ohms(rk.0),
-                            farads(ck.0),
-                            ohms(load.0),
-                            hz(fc)
+                        description: cat.format(
+                            "figure-cathode-bypass",
+                            &[
+                                ("valve", Arg::from(&valve.value)),
+                                ("type", Arg::from(&name)),
+                                ("mu", Arg::from(mu.to_string())),
+                                ("ra", Arg::from(ohms(ra.0))),
+                                ("rk", Arg::from(ohms(rk.0))),
+                                ("ck", Arg::from(farads(ck.0))),
+                                ("load", Arg::from(ohms(load.0))),
+                                ("frequency", Arg::from(hz(fc))),
+                            ],
                         ),
                         formula: "fc = 1 / (2π·(Rk ∥ (ra + RL)/(μ + 1))·Ck)",
                         frequency_hz: Some(fc),
@@ -912,15 +1045,18 @@ fn mod_findings(
                     };
                     figures.push(ModFigureFindings {
                         kind: "stage_gain",
-                        description: format!(
-                            "{} ({name}) into {}{}: gain about {:.0}",
-                            valve.value,
-                            ohms(load.0),
+                        description: cat.format(
                             match (rk, bypassed) {
-                                (Some(rk), false) => format!(", {} unbypassed", ohms(rk.0)),
-                                _ => ", cathode bypassed".to_string(),
+                                (Some(_), false) => "figure-gain-unbypassed",
+                                _ => "figure-gain-bypassed",
                             },
-                            gain
+                            &[
+                                ("valve", Arg::from(&valve.value)),
+                                ("type", Arg::from(&name)),
+                                ("load", Arg::from(ohms(load.0))),
+                                ("rk", Arg::from(rk.map(|r| ohms(r.0)).unwrap_or_default())),
+                                ("gain", Arg::from(format!("{gain:.0}"))),
+                            ],
                         ),
                         formula,
                         frequency_hz: None,
@@ -932,12 +1068,17 @@ fn mod_findings(
                 let f = phase_shift_frequency(*r, *c).0;
                 figures.push(ModFigureFindings {
                     kind: "phase_shift",
-                    description: format!(
-                        "three sections of {} and {}: about {} (the stage needs a gain of at least {:.0})",
-                        ohms(r.0),
-                        farads(c.0),
-                        hz(f),
-                        circuit::PHASE_SHIFT_MIN_GAIN
+                    description: cat.format(
+                        "figure-phase-shift",
+                        &[
+                            ("ohms", Arg::from(ohms(r.0))),
+                            ("farads", Arg::from(farads(c.0))),
+                            ("frequency", Arg::from(hz(f))),
+                            (
+                                "gain",
+                                Arg::from(format!("{:.0}", circuit::PHASE_SHIFT_MIN_GAIN)),
+                            ),
+                        ],
                     ),
                     formula: "f = 1 / (2π·R·C·√6)",
                     frequency_hz: Some(f),
@@ -952,11 +1093,14 @@ fn mod_findings(
             warnings.push(Warning::note(
                 None,
                 false,
-                "network",
+                &cat.text("warn-subject-network"),
                 Status::Caution,
-                format!(
-                    "The network of the mod “{}” could not be worked out: {problem}.",
-                    m.what
+                cat.format(
+                    "warn-network-problem",
+                    &[
+                        ("what", Arg::from(&m.what)),
+                        ("problem", Arg::from(problem)),
+                    ],
                 ),
             ));
         }
@@ -970,5 +1114,121 @@ fn mod_findings(
         private: m.private,
         figures,
         network,
+    }
+}
+
+#[cfg(test)]
+mod language_tests {
+    use super::*;
+
+    /// Every demo job, decoded and derived in the built-in catalogue `tag`,
+    /// as the JSON `calc --json` writes.
+    fn demo_json(tag: &str) -> Vec<(String, serde_json::Value)> {
+        let cat = Catalogue::built_in(tag).unwrap();
+        let ratings = RatingsTable::builtin();
+        let dir = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("jobs");
+        let mut out = Vec::new();
+        for entry in std::fs::read_dir(dir).unwrap() {
+            let path = entry.unwrap().path();
+            let name = path.file_name().unwrap().to_string_lossy().into_owned();
+            if !name.ends_with(".kdl") || name == "shop.kdl" {
+                continue;
+            }
+            let text = std::fs::read_to_string(&path).unwrap();
+            let job = crate::job::decode_with_ratings(&name, &text, &ratings)
+                .unwrap_or_else(|d| panic!("{name}: {:?}", d.problems))
+                .job;
+            let findings = derive_in(&job, &ratings, &cat);
+            out.push((name, serde_json::to_value(&findings).unwrap()));
+        }
+        out
+    }
+
+    /// The words of every reason, threshold, brief, message and at-a-glance
+    /// line in a findings JSON value.
+    fn words(v: &serde_json::Value, out: &mut Vec<String>) {
+        match v {
+            serde_json::Value::Object(map) => {
+                for (k, v) in map {
+                    // The technician's own words (parts' reasons) and the
+                    // mods' worked figures are not checks' reasons.
+                    if k == "parts" || k == "what" || k == "why" {
+                        continue;
+                    }
+                    let wordy = ["reason", "threshold", "brief", "message", "worst", "title"]
+                        .contains(&k.as_str());
+                    match v {
+                        serde_json::Value::String(s) if wordy && k != "accepted_reason" => {
+                            out.push(s.clone())
+                        }
+                        _ => words(v, out),
+                    }
+                }
+            }
+            serde_json::Value::Array(a) => a.iter().for_each(|v| words(v, out)),
+            _ => {}
+        }
+    }
+
+    #[test]
+    fn the_german_findings_carry_no_english_reasons() {
+        let english = demo_json("en");
+        let german = demo_json("de");
+        // Words only English sentences use (the job's own text, set labels
+        // such as "as found", is the technician's and stays as written).
+        let tell = [
+            " the ",
+            " is ",
+            " of its ",
+            "rating",
+            "caution",
+            "margin",
+            "dissipation",
+            "not measured",
+            "within",
+            "accepted by",
+            "output valve",
+            "heater",
+        ];
+        let mut checked = 0;
+        for ((name, en), (_, de)) in english.iter().zip(&german) {
+            let (mut en_words, mut de_words) = (Vec::new(), Vec::new());
+            words(en, &mut en_words);
+            words(de, &mut de_words);
+            assert_eq!(en_words.len(), de_words.len(), "{name}");
+            for (e, d) in en_words.iter().zip(&de_words) {
+                for t in tell {
+                    assert!(
+                        !d.contains(t),
+                        "{name}: {t:?} left in {d:?} (English {e:?})"
+                    );
+                }
+                checked += 1;
+            }
+            // The figures do not depend on the language.
+            assert_eq!(
+                en["sets"].as_array().map(Vec::len),
+                de["sets"].as_array().map(Vec::len)
+            );
+        }
+        // A German reason of a known case: the combo's scorched dropper.
+        let combo = &german
+            .iter()
+            .find(|(n, _)| n == "combo-6v6-fixed.kdl")
+            .unwrap()
+            .1;
+        let r31 = combo["sets"][0]["droppers"]
+            .as_array()
+            .unwrap()
+            .iter()
+            .find(|r| r["reference"] == "R31")
+            .unwrap();
+        // 100 V across 4.7 kΩ is 100² / 4700 = 2.13 W (Joule's law, textbook),
+        // 213 % of the 1 W rating.
+        assert_eq!(
+            r31["reason"],
+            "Verlustleistung 2.13 W ist 213 % des Nennwerts von 1 W"
+        );
+        assert!(checked > 100, "only {checked} sentences checked");
     }
 }

@@ -2,6 +2,7 @@
 
 use super::findings::SafetyFinding;
 use super::status::{Status, Verdict};
+use crate::catalogue::{Arg, Catalogue};
 use crate::job::{Safety, SafetyTest};
 use crate::units::{QuantityKind, format_engineering};
 
@@ -9,7 +10,8 @@ fn q(x: f64, kind: QuantityKind) -> String {
     format_engineering(x, kind)
 }
 
-pub(crate) fn findings(safety: &Safety) -> Vec<SafetyFinding> {
+pub(crate) fn findings(safety: &Safety, cat: &Catalogue) -> Vec<SafetyFinding> {
+    let verdict = |passed: bool, what: String, limit: String| verdict(passed, what, limit, cat);
     safety
         .tests
         .iter()
@@ -22,11 +24,13 @@ pub(crate) fn findings(safety: &Safety) -> Vec<SafetyFinding> {
                 let allowed = limit.0 + cord.map(|c| c.0).unwrap_or(0.0);
                 let passed = measured.0 <= allowed + 1e-12;
                 let limit_words = match cord {
-                    Some(c) => format!(
-                        "≤ {} + cord {} = {}",
-                        q(limit.0, QuantityKind::Resistance),
-                        q(c.0, QuantityKind::Resistance),
-                        q(allowed, QuantityKind::Resistance)
+                    Some(c) => cat.format(
+                        "safety-limit-with-cord",
+                        &[
+                            ("limit", Arg::from(q(limit.0, QuantityKind::Resistance))),
+                            ("cord", Arg::from(q(c.0, QuantityKind::Resistance))),
+                            ("allowed", Arg::from(q(allowed, QuantityKind::Resistance))),
+                        ],
                     ),
                     None => format!("≤ {}", q(limit.0, QuantityKind::Resistance)),
                 };
@@ -40,9 +44,9 @@ pub(crate) fn findings(safety: &Safety) -> Vec<SafetyFinding> {
                     passed,
                     verdict: verdict(
                         passed,
-                        format!(
-                            "protective-earth resistance {}",
-                            q(measured.0, QuantityKind::Resistance)
+                        cat.format(
+                            "safety-earth",
+                            &[("ohms", Arg::from(q(measured.0, QuantityKind::Resistance)))],
                         ),
                         limit_words,
                     ),
@@ -60,10 +64,12 @@ pub(crate) fn findings(safety: &Safety) -> Vec<SafetyFinding> {
                     if *over_range { "> " } else { "" },
                     q(measured.0, QuantityKind::Resistance)
                 );
-                let limit_words = format!(
-                    "≥ {} at {} DC",
-                    q(minimum.0, QuantityKind::Resistance),
-                    q(test_voltage.0, QuantityKind::Voltage)
+                let limit_words = cat.format(
+                    "safety-insulation-limit",
+                    &[
+                        ("ohms", Arg::from(q(minimum.0, QuantityKind::Resistance))),
+                        ("volts", Arg::from(q(test_voltage.0, QuantityKind::Voltage))),
+                    ],
                 );
                 SafetyFinding {
                     test: "insulation",
@@ -75,9 +81,12 @@ pub(crate) fn findings(safety: &Safety) -> Vec<SafetyFinding> {
                     passed,
                     verdict: verdict(
                         passed,
-                        format!(
-                            "insulation resistance {shown} at {} DC",
-                            q(test_voltage.0, QuantityKind::Voltage)
+                        cat.format(
+                            "safety-insulation",
+                            &[
+                                ("ohms", Arg::from(&shown)),
+                                ("volts", Arg::from(q(test_voltage.0, QuantityKind::Voltage))),
+                            ],
                         ),
                         limit_words,
                     ),
@@ -96,7 +105,10 @@ pub(crate) fn findings(safety: &Safety) -> Vec<SafetyFinding> {
                     passed,
                     verdict: verdict(
                         passed,
-                        format!("leakage current {}", q(measured.0, QuantityKind::Current)),
+                        cat.format(
+                            "safety-leakage",
+                            &[("amps", Arg::from(q(measured.0, QuantityKind::Current)))],
+                        ),
                         limit_words,
                     ),
                 }
@@ -105,15 +117,12 @@ pub(crate) fn findings(safety: &Safety) -> Vec<SafetyFinding> {
         .collect()
 }
 
-fn verdict(passed: bool, what: String, limit: String) -> Verdict {
+fn verdict(passed: bool, what: String, limit: String, cat: &Catalogue) -> Verdict {
+    let args = [("what", Arg::from(what)), ("limit", Arg::from(&limit))];
     if passed {
-        Verdict::ok(format!("{what} meets the limit {limit}"), limit)
+        Verdict::ok(cat.format("safety-meets", &args), limit)
     } else {
-        Verdict::new(
-            Status::Over,
-            format!("{what} fails the limit {limit}"),
-            limit,
-        )
+        Verdict::new(Status::Over, cat.format("safety-fails", &args), limit)
     }
 }
 
@@ -152,7 +161,7 @@ mod tests {
                 },
             ],
         };
-        let f = findings(&s);
+        let f = findings(&s, crate::catalogue::Catalogue::english());
         let passed: Vec<bool> = f.iter().map(|f| f.passed).collect();
         assert_eq!(passed, [true, false, false, true]);
         assert!((f[0].limit_value - 0.15).abs() < 1e-12);

@@ -2,6 +2,7 @@
 //! cold, for a fixed-bias valve idling below its aim), why, and against
 //! which threshold.
 
+use crate::catalogue::{Arg, Catalogue};
 use serde::Serialize;
 use std::fmt;
 
@@ -130,32 +131,31 @@ pub fn worst_of<'a>(verdicts: impl IntoIterator<Item = &'a Verdict>) -> Option<&
 }
 
 /// Bands for a figure that must stay under a rating: caution above
-/// `caution` (a fraction of the rating), over above 100 %.
-pub fn under_rating(pct: f64, caution: f64, what: &str, rating: &str) -> Verdict {
-    let threshold = format!(
-        "caution above {:.0} % of {rating}, over above 100 %",
-        caution * 100.0
-    );
+/// `caution` (a fraction of the rating), over above 100 %. `what` names the
+/// figure with its value ("dissipation 0.62 W"); the words are `cat`'s.
+pub fn under_rating(pct: f64, caution: f64, what: &str, rating: &str, cat: &Catalogue) -> Verdict {
+    let caution_words = format!("{:.0}", caution * 100.0);
+    let args = [
+        ("what", Arg::from(what)),
+        ("pct", Arg::from(format!("{pct:.0}"))),
+        ("rating", Arg::from(rating)),
+        ("caution", Arg::from(&caution_words)),
+    ];
+    let threshold = cat.format("threshold-under-rating", &args);
     if pct > 100.0 {
         Verdict::new(
             Status::Over,
-            format!("{what} is {pct:.0} % of its {rating} rating"),
+            cat.format("reason-of-rating", &args),
             threshold,
         )
     } else if pct > caution * 100.0 {
         Verdict::new(
             Status::Caution,
-            format!(
-                "{what} is {pct:.0} % of its {rating} rating, above the {:.0} % guide",
-                caution * 100.0
-            ),
+            cat.format("reason-of-rating-guide", &args),
             threshold,
         )
     } else {
-        Verdict::ok(
-            format!("{what} is {pct:.0} % of its {rating} rating"),
-            threshold,
-        )
+        Verdict::ok(cat.format("reason-of-rating", &args), threshold)
     }
 }
 
@@ -178,11 +178,21 @@ mod tests {
 
     #[test]
     fn bands_under_a_rating() {
+        let en = Catalogue::english();
         // Common practice: 50 % derating for resistors; over above 100 %.
-        assert_eq!(under_rating(49.0, 0.5, "x", "1 W").status, Status::Ok);
-        assert_eq!(under_rating(50.0, 0.5, "x", "1 W").status, Status::Ok);
-        assert_eq!(under_rating(50.1, 0.5, "x", "1 W").status, Status::Caution);
-        assert_eq!(under_rating(100.0, 0.5, "x", "1 W").status, Status::Caution);
-        assert_eq!(under_rating(100.1, 0.5, "x", "1 W").status, Status::Over);
+        assert_eq!(under_rating(49.0, 0.5, "x", "1 W", en).status, Status::Ok);
+        assert_eq!(under_rating(50.0, 0.5, "x", "1 W", en).status, Status::Ok);
+        assert_eq!(
+            under_rating(50.1, 0.5, "x", "1 W", en).status,
+            Status::Caution
+        );
+        assert_eq!(
+            under_rating(100.0, 0.5, "x", "1 W", en).status,
+            Status::Caution
+        );
+        assert_eq!(
+            under_rating(100.1, 0.5, "x", "1 W", en).status,
+            Status::Over
+        );
     }
 }

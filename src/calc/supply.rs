@@ -28,6 +28,14 @@ fn v(x: f64) -> String {
     format_engineering(x, QuantityKind::Voltage)
 }
 
+/// "B+1 to B+2": where a dropper sits.
+fn place_between(from: &str, to: &str, cat: &Catalogue) -> String {
+    cat.format(
+        "place-between",
+        &[("from", Arg::from(from)), ("to", Arg::from(to))],
+    )
+}
+
 /// Resistor power: two decimals of a watt, or milliwatts when tiny.
 pub fn w(x: f64) -> String {
     if x.abs() < 0.01 {
@@ -42,6 +50,7 @@ pub(crate) fn nodes(
     set: &MeasurementSet,
     circuit: &Circuit,
     settings: &Settings,
+    cat: &Catalogue,
 ) -> Vec<NodeFindings> {
     let nominal = job.mains.nominal.value;
     let design = job
@@ -68,7 +77,7 @@ pub(crate) fn nodes(
             let deviation = expected.map(|e| (corrected / e - 1.0) * 100.0);
             let tol_pct = tolerance * 100.0;
             let tol_words = format!("{tol_pct:.0}");
-            let threshold = words(
+            let threshold = cat.format(
                 "threshold-node",
                 &[
                     ("tolerance", Arg::from(&tol_words)),
@@ -76,7 +85,7 @@ pub(crate) fn nodes(
                 ],
             );
             let off_chart = |d: f64, e: Volts| {
-                words(
+                cat.format(
                     "reason-node",
                     &[
                         ("corrected", Arg::from(v(corrected.0))),
@@ -94,7 +103,7 @@ pub(crate) fn nodes(
                     format!(
                         "{}, {}",
                         off_chart(d, e),
-                        words(
+                        cat.format(
                             if d > 0.0 {
                                 "reason-above-band"
                             } else {
@@ -105,10 +114,7 @@ pub(crate) fn nodes(
                     ),
                     threshold,
                 ),
-                _ => Verdict::ok(
-                    words("reason-no-chart", &[]),
-                    words("threshold-no-chart", &[]),
-                ),
+                _ => Verdict::ok(cat.text("reason-no-chart"), cat.text("threshold-no-chart")),
             };
             NodeFindings {
                 name: reading.name.value.clone(),
@@ -139,6 +145,7 @@ fn resistor(
     job: &Job,
     set: &MeasurementSet,
     settings: &Settings,
+    cat: &Catalogue,
 ) -> ResistorFindings {
     let p = volts.power_in(r);
     let p_c = mains::corrected_power(p, set.mains.value, job.mains.nominal.value);
@@ -150,15 +157,19 @@ fn resistor(
             let mut verdict = under_rating(
                 pct,
                 settings.resistor_derating,
-                &format!("dissipation {}", w(p.0)),
+                &cat.format("reason-dissipation", &[("watts", Arg::from(w(p.0)))]),
                 &format_engineering(rt.0, QuantityKind::Power),
+                cat,
             );
             if verdict.status == Status::Ok && pct_h > settings.resistor_derating * 100.0 {
                 verdict = Verdict::new(
                     Status::Caution,
-                    format!(
-                        "would dissipate {} at high line, {pct_h:.0} % of its rating",
-                        w(p_h.0)
+                    cat.format(
+                        "reason-resistor-high-line",
+                        &[
+                            ("watts", Arg::from(w(p_h.0))),
+                            ("pct", Arg::from(format!("{pct_h:.0}"))),
+                        ],
                     ),
                     verdict.threshold,
                 );
@@ -166,8 +177,8 @@ fn resistor(
             verdict
         }
         _ => Verdict::ok(
-            format!("dissipates {}; no rating given", w(p.0)),
-            "none: the job gives no power rating",
+            cat.format("reason-resistor-no-rating", &[("watts", Arg::from(w(p.0)))]),
+            cat.text("threshold-no-power-rating"),
         ),
     };
     ResistorFindings {
@@ -191,6 +202,7 @@ pub(crate) fn droppers(
     circuit: &Circuit,
     settings: &Settings,
     not_checked: &mut Vec<NotChecked>,
+    cat: &Catalogue,
 ) -> Vec<ResistorFindings> {
     let read = |name: &str| {
         set.nodes
@@ -203,13 +215,14 @@ pub(crate) fn droppers(
         match (read(&d.from.value), read(&d.to.value)) {
             (Some(a), Some(b)) => out.push(resistor(
                 &d.reference,
-                format!("{} to {}", d.from.value, d.to.value),
+                place_between(&d.from.value, &d.to.value, cat),
                 d.value.value,
                 d.rating,
                 (a - b).abs(),
                 job,
                 set,
                 settings,
+                cat,
             )),
             (a, b) => {
                 let missing: Vec<&str> = [(a, &d.from.value), (b, &d.to.value)]
@@ -220,8 +233,14 @@ pub(crate) fn droppers(
                 not_checked.push(NotChecked {
                     reference: d.reference.clone(),
                     kind: "dropper",
-                    place: format!("{} to {}", d.from.value, d.to.value),
-                    reason: format!("{} not measured", missing.join(" and ")),
+                    place: place_between(&d.from.value, &d.to.value, cat),
+                    reason: cat.format(
+                        "reason-not-measured",
+                        &[
+                            ("nodes", Arg::from(cat.and_list(&missing))),
+                            ("count", Arg::from(missing.len())),
+                        ],
+                    ),
                 });
             }
         }
@@ -234,6 +253,7 @@ pub(crate) fn cathode_resistors(
     set: &MeasurementSet,
     circuit: &Circuit,
     settings: &Settings,
+    cat: &Catalogue,
 ) -> Vec<ResistorFindings> {
     let mut out = Vec::new();
     for rk in &circuit.cathode_resistors {
@@ -250,10 +270,12 @@ pub(crate) fn cathode_resistors(
         let names: Vec<&str> = rk.valves.iter().map(|v| v.value.as_str()).collect();
         out.push(resistor(
             &rk.reference,
-            format!(
-                "{} cathode{}",
-                names.join(", "),
-                if names.len() > 1 { "s" } else { "" }
+            cat.format(
+                "place-cathodes",
+                &[
+                    ("valves", Arg::from(names.join(", "))),
+                    ("count", Arg::from(names.len())),
+                ],
             ),
             rk.value.value,
             rk.rating,
@@ -261,6 +283,7 @@ pub(crate) fn cathode_resistors(
             job,
             set,
             settings,
+            cat,
         ));
     }
     out
@@ -271,6 +294,7 @@ pub(crate) fn screen_resistors(
     set: &MeasurementSet,
     circuit: &Circuit,
     settings: &Settings,
+    cat: &Catalogue,
 ) -> Vec<ResistorFindings> {
     let mut out = Vec::new();
     for sr in &circuit.screen_resistors {
@@ -285,19 +309,25 @@ pub(crate) fn screen_resistors(
         else {
             continue;
         };
-        let reference = sr
-            .reference
-            .clone()
-            .unwrap_or_else(|| format!("{} screen", sr.valve.value));
+        let reference = sr.reference.clone().unwrap_or_else(|| {
+            cat.format("place-screen", &[("valve", Arg::from(&sr.valve.value))])
+        });
         out.push(resistor(
             &reference,
-            format!("{} to {} screen", sr.supply.value, sr.valve.value),
+            cat.format(
+                "place-to-screen",
+                &[
+                    ("node", Arg::from(&sr.supply.value)),
+                    ("valve", Arg::from(&sr.valve.value)),
+                ],
+            ),
             sr.value.value,
             sr.rating,
             (supply.volts.value - vg2.value).abs(),
             job,
             set,
             settings,
+            cat,
         ));
     }
     out
@@ -310,6 +340,7 @@ pub(crate) fn capacitors(
     settings: &Settings,
     ratings: &RatingsTable,
     not_checked: &mut Vec<NotChecked>,
+    cat: &Catalogue,
 ) -> Vec<CapacitorFindings> {
     let nominal = job.mains.nominal.value;
     let t = job.mains.tolerance.value;
@@ -321,7 +352,7 @@ pub(crate) fn capacitors(
             Some((RectifierKind::Silicon, d)) => (
                 d.unwrap_or(settings.silicon_drop),
                 false,
-                "silicon rectifier".to_string(),
+                cat.text("reason-silicon-rectifier"),
             ),
             Some((RectifierKind::Valve(pos), d)) => {
                 let heating = job
@@ -336,16 +367,20 @@ pub(crate) fn capacitors(
                 (
                     d.unwrap_or(Volts(0.0)),
                     slow,
-                    format!(
-                        "{name} valve rectifier{}",
-                        if slow { ", indirectly heated" } else { "" }
+                    cat.format(
+                        if slow {
+                            "reason-valve-rectifier-slow"
+                        } else {
+                            "reason-valve-rectifier"
+                        },
+                        &[("type", Arg::from(&name))],
                     ),
                 )
             }
             None => (
                 settings.silicon_drop,
                 false,
-                "rectifier not stated, taken as silicon".to_string(),
+                cat.text("reason-rectifier-not-stated"),
             ),
         };
     let peak = circuit
@@ -368,17 +403,30 @@ pub(crate) fn capacitors(
                 reference: cap.reference.clone(),
                 kind: "filter_capacitor",
                 place: cap.node.value.clone(),
-                reason: format!("{} not measured", cap.node.value),
+                reason: cat.format(
+                    "reason-not-measured",
+                    &[
+                        ("nodes", Arg::from(&cap.node.value)),
+                        ("count", Arg::from(1usize)),
+                    ],
+                ),
             });
             continue;
         };
         let rating = cap.rating.value;
         let margin = (rating.0 - highest.0) / rating.0 * 100.0;
-        let peak_words = format!(
-            "cold-start peak at high line {} ({rect_words})",
-            v(high_mains.0)
+        let high_mains_words = v(high_mains.0);
+        let peak_words = cat.format(
+            "reason-cap-peak-words",
+            &[
+                ("mains", Arg::from(&high_mains_words)),
+                ("rectifier", Arg::from(&rect_words)),
+            ],
         );
-        let work_words = format!("working voltage at high line {}", v(high_mains.0));
+        let work_words = cat.format(
+            "reason-cap-work-words",
+            &[("mains", Arg::from(&high_mains_words))],
+        );
         let over_work = high.is_some_and(|h| h.0 > rating.0);
         let over_peak = peak.is_some_and(|p| p.0 > rating.0);
         // The figure that decides the status, named in the reason: the
@@ -396,93 +444,85 @@ pub(crate) fn capacitors(
             (_, Some(h), None) => ("working_high_line", h),
             (_, None, None) => ("cold_start_peak", highest),
         };
-        let threshold = format!(
-            "over above the {} rating; caution when the margin is under {:.0} %",
-            v(rating.0),
-            settings.capacitor_margin * 100.0
+        let rating_words = v(rating.0);
+        let threshold = cat.format(
+            "threshold-capacitor",
+            &[
+                ("rating", Arg::from(&rating_words)),
+                (
+                    "margin",
+                    Arg::from(format!("{:.0}", settings.capacitor_margin * 100.0)),
+                ),
+            ],
         );
         let unchecked = if measured.is_none() {
-            format!(
-                "; the working voltage was not checked: {} not measured",
-                cap.node.value
+            cat.format(
+                "reason-cap-unchecked",
+                &[("node", Arg::from(&cap.node.value))],
             )
         } else {
             String::new()
         };
+        let source = if deciding == "working_high_line" {
+            &work_words
+        } else {
+            &peak_words
+        };
+        // The words of one reason: the figures by name, the unchecked
+        // working voltage after it.
+        let say = |key: &str, extra: &[(&str, Arg)]| {
+            let mut args = vec![
+                ("peak", Arg::from(&peak_words)),
+                ("work", Arg::from(&work_words)),
+                ("source", Arg::from(source)),
+                ("rating", Arg::from(&rating_words)),
+                ("highest", Arg::from(v(highest.0))),
+            ];
+            args.extend(extra.iter().cloned());
+            format!("{}{unchecked}", cat.format(key, &args))
+        };
+        let peak_volts = Arg::from(v(peak.map(|p| p.0).unwrap_or(0.0)));
+        let work_volts = Arg::from(v(high.map(|h| h.0).unwrap_or(0.0)));
         let verdict = if over_work && over_peak && !slow_warmup {
             Verdict::new(
                 Status::Over,
-                format!(
-                    "the {}, {}, and the {work_words}, {}, both exceed the {} rating",
-                    peak_words,
-                    v(peak.map(|p| p.0).unwrap_or(0.0)),
-                    v(high.map(|h| h.0).unwrap_or(0.0)),
-                    v(rating.0)
+                say(
+                    "reason-cap-both-over",
+                    &[("peak_volts", peak_volts), ("work_volts", work_volts)],
                 ),
                 threshold,
             )
         } else if over_work {
-            let also = match peak {
-                Some(p) if p.0 > high.map(|h| h.0).unwrap_or(0.0) => format!(
-                    " (the {peak_words} reaches {}, which a slow-warming rectifier makes less likely)",
-                    v(p.0)
-                ),
-                _ => String::new(),
+            let key = match peak {
+                Some(p) if p.0 > high.map(|h| h.0).unwrap_or(0.0) => "reason-cap-work-over-peak",
+                _ => "reason-cap-work-over",
             };
             Verdict::new(
                 Status::Over,
-                format!(
-                    "the {work_words}, {}, exceeds the {} rating{also}",
-                    v(high.map(|h| h.0).unwrap_or(0.0)),
-                    v(rating.0)
+                say(
+                    key,
+                    &[("peak_volts", peak_volts), ("work_volts", work_volts)],
                 ),
                 threshold,
             )
         } else if over_peak && slow_warmup {
-            Verdict::new(
-                Status::Caution,
-                format!(
-                    "the {peak_words}, {}, exceeds the {} rating; a slow-warming rectifier makes this less likely but not impossible{unchecked}",
-                    v(highest.0),
-                    v(rating.0)
-                ),
-                threshold,
-            )
+            Verdict::new(Status::Caution, say("reason-cap-peak-slow", &[]), threshold)
         } else if over_peak {
-            Verdict::new(
-                Status::Over,
-                format!(
-                    "the {peak_words}, {}, exceeds the {} rating{unchecked}",
-                    v(highest.0),
-                    v(rating.0)
-                ),
-                threshold,
-            )
+            Verdict::new(Status::Over, say("reason-cap-peak-over", &[]), threshold)
         } else if margin < settings.capacitor_margin * 100.0 {
-            let source = if deciding == "working_high_line" {
-                &work_words
-            } else {
-                &peak_words
-            };
             Verdict::new(
                 Status::Caution,
-                format!(
-                    "the {source}, {}, leaves only {margin:.1} % margin on the {} rating{unchecked}",
-                    v(highest.0),
-                    v(rating.0)
+                say(
+                    "reason-cap-margin-low",
+                    &[("margin", Arg::from(format!("{margin:.1}")))],
                 ),
                 threshold,
             )
         } else {
-            let source = if deciding == "working_high_line" {
-                &work_words
-            } else {
-                &peak_words
-            };
             Verdict::ok(
-                format!(
-                    "highest expected {} ({source}) leaves {margin:.0} % margin{unchecked}",
-                    v(highest.0)
+                say(
+                    "reason-cap-margin",
+                    &[("margin", Arg::from(format!("{margin:.0}")))],
                 ),
                 threshold,
             )
@@ -515,6 +555,7 @@ pub(crate) fn rectifier(
     circuit: &Circuit,
     valves: &[ValveFindings],
     ratings: &RatingsTable,
+    cat: &Catalogue,
 ) -> Option<RectifierFindings> {
     let RectifierKind::Valve(pos) = &circuit.rectifier.as_ref()?.kind else {
         return None;
@@ -536,13 +577,22 @@ pub(crate) fn rectifier(
     }
     let load: f64 = currents.iter().sum();
     let pct = load / max_ma * 100.0;
-    let threshold = format!(
-        "caution above 90 % of the {} rating, over above 100 % (output valves only: a lower bound)",
-        format_engineering(max_ma / 1e3, QuantityKind::Current)
+    let threshold = cat.format(
+        "threshold-rectifier",
+        &[(
+            "rating",
+            Arg::from(format_engineering(max_ma / 1e3, QuantityKind::Current)),
+        )],
     );
-    let what = format!(
-        "the output valves alone draw {load:.0} mA, {pct:.0} % of the {} {}'s {:.0} mA rating",
-        spec.type_name.value, pos.value, max_ma
+    let what = cat.format(
+        "reason-rectifier",
+        &[
+            ("load", Arg::from(format!("{load:.0}"))),
+            ("pct", Arg::from(format!("{pct:.0}"))),
+            ("type", Arg::from(&spec.type_name.value)),
+            ("position", Arg::from(&pos.value)),
+            ("rating", Arg::from(format!("{max_ma:.0}"))),
+        ],
     );
     let verdict = if pct > 100.0 {
         Verdict::new(Status::Over, what, threshold)
@@ -561,7 +611,12 @@ pub(crate) fn rectifier(
     })
 }
 
-pub(crate) fn heaters(job: &Job, set: &MeasurementSet, settings: &Settings) -> Vec<HeaterFindings> {
+pub(crate) fn heaters(
+    job: &Job,
+    set: &MeasurementSet,
+    settings: &Settings,
+    cat: &Catalogue,
+) -> Vec<HeaterFindings> {
     set.heaters
         .iter()
         .map(|h| {
@@ -572,21 +627,21 @@ pub(crate) fn heaters(job: &Job, set: &MeasurementSet, settings: &Settings) -> V
             let dev_c = (corrected / h.nominal - 1.0) * 100.0;
             let tol = settings.heater_tolerance * 100.0;
             let tol_words = format!("{tol:.0}");
-            let threshold = words(
+            let threshold = cat.format(
                 "threshold-heater",
                 &[
                     ("tolerance", Arg::from(&tol_words)),
                     ("nominal", Arg::from(v(h.nominal.0))),
                 ],
             );
-            let at_nominal = words(
+            let at_nominal = cat.format(
                 "reason-at-nominal",
                 &[
                     ("volts", Arg::from(v(corrected.0))),
                     ("deviation", Arg::from(format!("{dev_c:+.1}"))),
                 ],
             );
-            let from_nominal = words(
+            let from_nominal = cat.format(
                 "reason-heater",
                 &[
                     ("measured", Arg::from(v(measured.0))),
@@ -597,7 +652,7 @@ pub(crate) fn heaters(job: &Job, set: &MeasurementSet, settings: &Settings) -> V
             let off_band = |key: &str| {
                 format!(
                     "{from_nominal}, {}; {at_nominal}",
-                    words(key, &[("tolerance", Arg::from(&tol_words))])
+                    cat.format(key, &[("tolerance", Arg::from(&tol_words))])
                 )
             };
             let verdict = if dev > tol + 1e-9 {
@@ -620,15 +675,13 @@ pub(crate) fn heaters(job: &Job, set: &MeasurementSet, settings: &Settings) -> V
         .collect()
 }
 
-/// A reason or threshold in words, from the English catalogue (the JSON's
-/// reasons are the reference language's).
-fn words(key: &str, args: &[(&str, Arg)]) -> String {
-    Catalogue::english().format(key, args)
-}
-
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    fn en() -> &'static Catalogue {
+        Catalogue::english()
+    }
     use crate::job::{self, Job};
 
     /// A small 120 V job (nominal 120 V, +5 %, chart at 110 V) with one
@@ -658,7 +711,7 @@ mod tests {
             "node A \"360V\"\nnode B \"361V\"\nnode C \"390V\"\nnode D \"100V\"",
         );
         let set = &j.measurements[0];
-        let f = nodes(&j, set, &j.circuit_for(set), &j.settings);
+        let f = nodes(&j, set, &j.circuit_for(set), &j.settings, en());
         // Chart referred to nominal, common practice: 300 V × 120/110 = 327.273 V.
         assert!((f[0].expected_volts.unwrap() - 327.2727).abs() < 1e-3);
         // 360/327.273 − 1 = +10.0 %: inside the common-practice ±10 %; 361 V is +10.3 %: outside.
@@ -684,7 +737,7 @@ mod tests {
         );
         let set = &j.measurements[0];
         let mut notes = Vec::new();
-        let f = droppers(&j, set, &j.circuit_for(set), &j.settings, &mut notes);
+        let f = droppers(&j, set, &j.circuit_for(set), &j.settings, &mut notes, en());
         assert!(notes.is_empty(), "{notes:?}");
         assert!((f[0].power_w - 0.49).abs() < 1e-12); // Joule's law (textbook): 70² / 10 kΩ = 0.49 W
         assert!((f[1].power_w - 0.5184).abs() < 1e-12); // 72² / 10 kΩ = 0.5184 W
@@ -713,7 +766,7 @@ mod tests {
         );
         let set = &j.measurements[0];
         let mut notes = Vec::new();
-        assert!(droppers(&j, set, &j.circuit_for(set), &j.settings, &mut notes).is_empty());
+        assert!(droppers(&j, set, &j.circuit_for(set), &j.settings, &mut notes, en()).is_empty());
         assert_eq!(notes.len(), 1);
         assert_eq!(notes[0].reference, "R1");
         assert_eq!(notes[0].reason, "B not measured");
@@ -727,7 +780,7 @@ mod tests {
             "valve V1 plate=\"300V\" cathode=\"11.6V\"",
         );
         let set = &j.measurements[0];
-        let f = cathode_resistors(&j, set, &j.circuit_for(set), &j.settings);
+        let f = cathode_resistors(&j, set, &j.circuit_for(set), &j.settings, en());
         // Joule's law P = Vk²/Rk (textbook): 11.6² / 130 Ω = 1.0351 W, 51.8 % of 2 W: above the 50 % derating (common practice).
         assert!((f[0].power_w - 1.035077).abs() < 1e-6);
         assert_eq!(f[0].verdict.status, Status::Caution);
@@ -759,6 +812,7 @@ mod tests {
             &j.settings,
             &RatingsTable::builtin(),
             &mut Vec::new(),
+            en(),
         );
         (statuses(&f, |c| c.verdict.status), f)
     }
@@ -798,6 +852,7 @@ mod tests {
             &j.settings,
             &RatingsTable::builtin(),
             &mut Vec::new(),
+            en(),
         );
         assert!((f[0].highest_volts - 451.5).abs() < 1e-9);
         assert_eq!(f[0].verdict.status, Status::Over);
@@ -858,6 +913,7 @@ mod tests {
             &j.settings,
             &RatingsTable::builtin(),
             &mut not_checked,
+            en(),
         );
         assert!(f.is_empty());
         assert_eq!(not_checked.len(), 1);
@@ -872,7 +928,7 @@ mod tests {
             "heater \"6.93V\"\nheater \"6.95V\"\nheater \"5.67V\"\nheater \"5.6V\"\nheater \"12.6V\" nominal=\"12.6V\"",
         );
         let set = &j.measurements[0];
-        let f = heaters(&j, set, &j.settings);
+        let f = heaters(&j, set, &j.settings, en());
         // Common practice, 6.3 V ±10 % (many datasheets say ±10 %, from memory): 5.67 … 6.93 V.
         assert!((f[0].deviation_pct - 10.0).abs() < 1e-9); // 6.93/6.3 − 1 = +10.0 %
         assert_eq!(

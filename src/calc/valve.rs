@@ -55,6 +55,8 @@ pub(crate) struct ValveContext<'a> {
     pub set: &'a MeasurementSet,
     pub circuit: &'a Circuit,
     pub settings: &'a Settings,
+    /// The words of the reasons and notes.
+    pub cat: &'a Catalogue,
 }
 
 pub(crate) fn analyse(
@@ -65,6 +67,7 @@ pub(crate) fn analyse(
     notes: &mut Vec<String>,
 ) -> ValveFindings {
     let pos = spec.position.value.as_str();
+    let cat = ctx.cat;
     let circuit = ctx.circuit;
     let nominal = ctx.job.mains.nominal.value;
     let measured_mains = ctx.set.mains.value;
@@ -89,13 +92,24 @@ pub(crate) fn analyse(
 
     // Screen current, where the screen resistor and its supply were read.
     let ig2 = circuit.screen_resistor_for(pos).and_then(|sr| {
-        let supply = ctx.set.nodes.iter().find(|n| n.name.value == sr.supply.value)?.volts.value;
+        let supply = ctx
+            .set
+            .nodes
+            .iter()
+            .find(|n| n.name.value == sr.supply.value)?
+            .volts
+            .value;
         let vg2 = vg2?;
         let i = screen_current(supply, vg2, sr.value.value);
         if i.0 < 0.0 {
-            notes.push(format!(
-                "{pos}: the screen reads {vg2} but its supply {} reads {supply}; the screen current is left out",
-                sr.supply.value
+            notes.push(cat.format(
+                "note-screen-above-supply",
+                &[
+                    ("position", Arg::from(pos)),
+                    ("screen", Arg::from(vg2.to_string())),
+                    ("supply", Arg::from(&sr.supply.value)),
+                    ("volts", Arg::from(supply.to_string())),
+                ],
             ));
             None
         } else {
@@ -180,7 +194,7 @@ pub(crate) fn analyse(
             f.corrected_plate_dissipation_pct = Some(pct_c);
             f.high_line_plate_dissipation_pct = Some(pct_h);
             let conservative = if c.includes_screen {
-                format!(" {}", words("reason-includes-screen", &[]))
+                format!(" {}", cat.format("reason-includes-screen", &[]))
             } else {
                 String::new()
             };
@@ -193,6 +207,7 @@ pub(crate) fn analyse(
                 pa,
                 max,
                 &conservative,
+                ctx.cat,
             );
             checks.push(Check {
                 check: "plate_dissipation",
@@ -203,12 +218,21 @@ pub(crate) fn analyse(
                     check: "plate_dissipation_high_line",
                     verdict: Verdict::new(
                         Status::Caution,
-                        format!(
-                            "at high line ({}) the plate would dissipate {:.1} W, {pct_h:.0} % of its rating",
-                            format_engineering((nominal * (1.0 + tolerance)).0, crate::units::QuantityKind::Voltage),
-                            pa_h.0
+                        cat.format(
+                            "reason-plate-high-line",
+                            &[
+                                (
+                                    "mains",
+                                    Arg::from(format_engineering(
+                                        (nominal * (1.0 + tolerance)).0,
+                                        crate::units::QuantityKind::Voltage,
+                                    )),
+                                ),
+                                ("watts", Arg::from(format!("{:.1}", pa_h.0))),
+                                ("pct", Arg::from(format!("{pct_h:.0}"))),
+                            ],
                         ),
-                        "caution when the high-line projection exceeds 100 %",
+                        cat.text("threshold-plate-high-line"),
                     ),
                 });
             }
@@ -241,16 +265,25 @@ pub(crate) fn analyse(
             let pct = pg2 / max * 100.0;
             f.screen_dissipation_pct = Some(pct);
             let pct_h = pct * (nominal / measured_mains).powi(2) * (1.0 + tolerance).powi(2);
-            let mut verdict = under_rating(pct, 1.0, "screen dissipation", &watts_words(max));
+            let mut verdict = under_rating(
+                pct,
+                1.0,
+                &cat.text("reason-screen-dissipation"),
+                &watts_words(max),
+                cat,
+            );
             // The band has no caution of its own below the rating: say what does decide.
-            verdict.threshold = format!(
-                "over above 100 % of {}; caution when the high-line projection is above it",
-                watts_words(max)
+            verdict.threshold = cat.format(
+                "threshold-screen-dissipation",
+                &[("rating", Arg::from(watts_words(max)))],
             );
             if verdict.status == Status::Ok && pct_h > 100.0 {
                 verdict = Verdict::new(
                     Status::Caution,
-                    format!("screen dissipation would be {pct_h:.0} % of its rating at high line"),
+                    cat.format(
+                        "reason-screen-high-line",
+                        &[("pct", Arg::from(format!("{pct_h:.0}")))],
+                    ),
                     verdict.threshold,
                 );
             }
@@ -274,11 +307,12 @@ pub(crate) fn analyse(
         checks.push(Check {
             check: "plate_voltage",
             verdict: max_verdict(
-                &words("reason-plate-voltage", &[]),
+                &cat.format("reason-plate-voltage", &[]),
                 va,
                 high(va),
                 max,
                 ctx.settings.voltage_over,
+                ctx.cat,
             ),
         });
     }
@@ -287,11 +321,12 @@ pub(crate) fn analyse(
         checks.push(Check {
             check: "screen_voltage",
             verdict: max_verdict(
-                &words("reason-screen-voltage", &[]),
+                &cat.format("reason-screen-voltage", &[]),
                 vg2,
                 high(vg2),
                 max,
                 ctx.settings.voltage_over,
+                ctx.cat,
             ),
         });
     }
@@ -301,22 +336,38 @@ pub(crate) fn analyse(
     ) {
         let pct = ik / max * 100.0;
         f.cathode_current_pct = Some(pct);
-        let threshold = format!(
-            "over above the {} maximum",
-            format_engineering(max.0, crate::units::QuantityKind::Current)
+        let threshold = cat.format(
+            "threshold-cathode-current",
+            &[(
+                "max",
+                Arg::from(format_engineering(
+                    max.0,
+                    crate::units::QuantityKind::Current,
+                )),
+            )],
         );
+        let pct_words = Arg::from(format!("{pct:.0}"));
         let verdict = if pct > 100.0 {
             Verdict::new(
                 Status::Over,
-                format!(
-                    "cathode current {} is {pct:.0} % of its maximum",
-                    format_engineering(ik.0, crate::units::QuantityKind::Current)
+                cat.format(
+                    "reason-cathode-current-over",
+                    &[
+                        (
+                            "current",
+                            Arg::from(format_engineering(
+                                ik.0,
+                                crate::units::QuantityKind::Current,
+                            )),
+                        ),
+                        ("pct", pct_words),
+                    ],
                 ),
                 threshold,
             )
         } else {
             Verdict::ok(
-                format!("cathode current is {pct:.0} % of its maximum"),
+                cat.format("reason-cathode-current", &[("pct", pct_words)]),
                 threshold,
             )
         };
@@ -327,9 +378,7 @@ pub(crate) fn analyse(
     }
 
     if current.is_none() && is_output {
-        notes.push(format!(
-            "{pos}: no reading gives the idle current (read the cathode, sense-resistor or half-primary voltage, or a current)"
-        ));
+        notes.push(cat.format("note-no-idle-current", &[("position", Arg::from(pos))]));
     }
 
     f.status = worst_of(checks.iter().map(|c| &c.verdict))
@@ -385,7 +434,10 @@ fn find_current(
                     plate_current_from_drop(drop.value, h.resistance.value, h.valves.len()),
                 ));
             }
-            None => notes.push(format!("{pos}: a half-primary drop is given but the circuit has no half-primary resistance for {pos}")),
+            None => notes.push(
+                ctx.cat
+                    .format("note-no-half-primary", &[("position", Arg::from(pos))]),
+            ),
         }
     }
     if let Some((i, ReadMethod::Probe)) = &reading.current {
@@ -393,8 +445,16 @@ fn find_current(
     }
     if let Some(vs) = &reading.sense {
         match circuit.sense_resistor_for(pos) {
-            Some(rs) => return Some(from_ik(CurrentMethod::SenseResistor, vs.value / rs.value.value)),
-            None => notes.push(format!("{pos}: a sense-resistor voltage is given but the circuit has no sense resistor for {pos}")),
+            Some(rs) => {
+                return Some(from_ik(
+                    CurrentMethod::SenseResistor,
+                    vs.value / rs.value.value,
+                ));
+            }
+            None => notes.push(
+                ctx.cat
+                    .format("note-no-sense-resistor", &[("position", Arg::from(pos))]),
+            ),
         }
     }
     if reading.cathode.is_some()
@@ -424,11 +484,15 @@ fn dissipation_verdict(
     pa: Watts,
     max: Watts,
     conservative: &str,
+    cat: &Catalogue,
 ) -> Verdict {
     let rating = watts_words(max);
     // Judge on the hotter of today's mains and nominal mains.
     let (judged, at) = if pct_c > pct {
-        (pct_c, format!(" {}", words("reason-at-nominal-mains", &[])))
+        (
+            pct_c,
+            format!(" {}", cat.format("reason-at-nominal-mains", &[])),
+        )
     } else {
         (pct, String::new())
     };
@@ -439,7 +503,7 @@ fn dissipation_verdict(
     };
     let what = format!(
         "{}{at}{conservative}",
-        words(
+        cat.format(
             "reason-plate-dissipation",
             &[
                 ("watts", Arg::from(format!("{watts:.1}"))),
@@ -452,7 +516,7 @@ fn dissipation_verdict(
         let lo = settings.fixed_bias_low * 100.0;
         let hi = settings.fixed_bias_high * 100.0;
         let (lo_w, hi_w) = (format!("{lo:.0}"), format!("{hi:.0}"));
-        let threshold = words(
+        let threshold = cat.format(
             "threshold-fixed-bias",
             &[
                 ("low", Arg::from(&lo_w)),
@@ -467,7 +531,7 @@ fn dissipation_verdict(
                 Status::Caution,
                 format!(
                     "{what}, {}",
-                    words("reason-above-aim", &[("high", Arg::from(&hi_w))])
+                    cat.format("reason-above-aim", &[("high", Arg::from(&hi_w))])
                 ),
                 threshold,
             )
@@ -476,20 +540,20 @@ fn dissipation_verdict(
                 Status::Cold,
                 format!(
                     "{what}, {}",
-                    words("reason-below-aim", &[("low", Arg::from(&lo_w))])
+                    cat.format("reason-below-aim", &[("low", Arg::from(&lo_w))])
                 ),
                 threshold,
             )
         } else {
             Verdict::ok(
-                format!("{what}, {}", words("reason-inside-aim", &[])),
+                format!("{what}, {}", cat.format("reason-inside-aim", &[])),
                 threshold,
             )
         }
     } else {
         let caution = settings.cathode_bias_caution * 100.0;
         let caution_w = format!("{caution:.0}");
-        let threshold = words(
+        let threshold = cat.format(
             "threshold-cathode-bias",
             &[
                 ("caution", Arg::from(&caution_w)),
@@ -503,7 +567,7 @@ fn dissipation_verdict(
                 Status::Caution,
                 format!(
                     "{what}, {}",
-                    words("reason-above-guide", &[("caution", Arg::from(&caution_w))])
+                    cat.format("reason-above-guide", &[("caution", Arg::from(&caution_w))])
                 ),
                 threshold,
             )
@@ -513,19 +577,20 @@ fn dissipation_verdict(
     }
 }
 
-/// A reason or threshold in words, from the English catalogue: the JSON's
-/// reason strings are the reference language's, whatever the shop's.
-fn words(key: &str, args: &[(&str, Arg)]) -> String {
-    Catalogue::english().format(key, args)
-}
-
 /// A voltage against its published maximum: caution above it (or when the
 /// high-line projection passes it), over more than `over` (a fraction,
 /// [`Settings::voltage_over`]) above it.
-fn max_verdict(what: &str, v: Volts, high: Volts, max: Volts, over: f64) -> Verdict {
+fn max_verdict(
+    what: &str,
+    v: Volts,
+    high: Volts,
+    max: Volts,
+    over: f64,
+    cat: &Catalogue,
+) -> Verdict {
     let factor = 1.0 + over;
     let max_words = format_engineering(max.0, crate::units::QuantityKind::Voltage);
-    let threshold = words(
+    let threshold = cat.format(
         "threshold-voltage-max",
         &[
             ("max", Arg::from(&max_words)),
@@ -543,19 +608,19 @@ fn max_verdict(what: &str, v: Volts, high: Volts, max: Volts, over: f64) -> Verd
     if v.0 > max.0 * factor {
         Verdict::new(
             Status::Over,
-            words("reason-voltage-of-max", &args),
+            cat.format("reason-voltage-of-max", &args),
             threshold,
         )
     } else if v.0 > max.0 {
         Verdict::new(
             Status::Caution,
-            words("reason-voltage-of-max", &args),
+            cat.format("reason-voltage-of-max", &args),
             threshold,
         )
     } else if high.0 > max.0 {
         Verdict::new(
             Status::Caution,
-            words(
+            cat.format(
                 "reason-voltage-high-line",
                 &[
                     ("what", Arg::from(what)),
@@ -572,7 +637,7 @@ fn max_verdict(what: &str, v: Volts, high: Volts, max: Volts, over: f64) -> Verd
             threshold,
         )
     } else {
-        Verdict::ok(words("reason-voltage-within", &args), threshold)
+        Verdict::ok(cat.format("reason-voltage-within", &args), threshold)
     }
 }
 
@@ -892,6 +957,7 @@ mod tests {
             Volts(340.0),
             Volts(300.0),
             Settings::default().voltage_over,
+            Catalogue::english(),
         );
         let english = Catalogue::english();
         assert_eq!(
@@ -924,6 +990,7 @@ mod tests {
                 Volts(high),
                 Volts(300.0),
                 Settings::default().voltage_over,
+                Catalogue::english(),
             )
             .status
         };
@@ -938,7 +1005,18 @@ mod tests {
     fn bands_for_fixed_and_cathode_bias() {
         let s = Settings::default();
         let v = |bias, pct: f64| {
-            dissipation_verdict(&s, bias, true, pct, pct, Watts(pct / 10.0), Watts(10.0), "").status
+            dissipation_verdict(
+                &s,
+                bias,
+                true,
+                pct,
+                pct,
+                Watts(pct / 10.0),
+                Watts(10.0),
+                "",
+                Catalogue::english(),
+            )
+            .status
         };
         // Common practice: fixed bias aim 50–70 %, cold below 50 %, caution above 70 %, over above 100 %.
         assert_eq!(v(BiasKind::Fixed, 45.0), Status::Cold);

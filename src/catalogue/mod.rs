@@ -77,6 +77,17 @@ impl std::fmt::Debug for Catalogue {
     }
 }
 
+/// Two catalogues are equal when they are the same one, or the same
+/// built-in language.
+impl PartialEq for Catalogue {
+    fn eq(&self, other: &Self) -> bool {
+        Arc::ptr_eq(&self.inner, &other.inner)
+            || (self.inner.origin == "built-in"
+                && other.inner.origin == "built-in"
+                && self.inner.language == other.inner.language)
+    }
+}
+
 impl Default for Catalogue {
     fn default() -> Self {
         Catalogue::english().clone()
@@ -276,6 +287,25 @@ impl Catalogue {
                 ("year", Arg::Text(d.year().to_string())),
             ],
         )
+    }
+
+    /// A list in words: "B+1", "B+1 and B+2", "V3, V4 and V5" (the last
+    /// pair joined by `list-and`, the rest by commas).
+    pub fn and_list<S: AsRef<str>>(&self, items: &[S]) -> String {
+        match items {
+            [] => String::new(),
+            [one] => one.as_ref().to_owned(),
+            [rest @ .., last] => {
+                let first: Vec<&str> = rest.iter().map(|s| s.as_ref()).collect();
+                self.format(
+                    "list-and",
+                    &[
+                        ("first", Arg::from(first.join(", "))),
+                        ("last", Arg::from(last.as_ref())),
+                    ],
+                )
+            }
+        }
     }
 
     /// Every message of the catalogue without arguments that a template

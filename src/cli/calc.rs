@@ -29,7 +29,8 @@ pub fn run(args: &CalcArgs) -> Exit {
         let mut said = Said::default();
         match load::job(&job.path, args.job.shop_choice(), &ratings, &mut said) {
             Ok(loaded) => {
-                let mut findings = calc::derive(&loaded.decoded.job, &ratings);
+                let mut findings =
+                    calc::derive_in(&loaded.decoded.job, &ratings, loaded.catalogue());
                 load::stamp(&job.path, &loaded, &mut findings);
                 if lines {
                     said.out.push_str(&json::render_line(&findings));

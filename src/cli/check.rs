@@ -11,7 +11,6 @@ use super::job_files::{self, JobFile};
 use super::load;
 use super::said::Said;
 use crate::calc::{self, StrictScope};
-use crate::catalogue::Catalogue;
 use crate::ratings::RatingsTable;
 use crate::report::terminal::{self, TerminalStyle};
 
@@ -69,14 +68,11 @@ fn check_one(
     said: &mut Said,
 ) -> Result<bool, Exit> {
     let loaded = load::job(&job.path, choice, ratings, said)?;
-    let findings = calc::derive(&loaded.decoded.job, ratings);
     // Each job in the language of its own shop profile.
+    let findings = calc::derive_in(&loaded.decoded.job, ratings, loaded.catalogue());
     let style = TerminalStyle {
         colour,
-        catalogue: loaded
-            .shop
-            .as_ref()
-            .map_or_else(|| Catalogue::english().clone(), |s| s.catalogue.clone()),
+        catalogue: loaded.catalogue().clone(),
     };
     said.out
         .push_str(&terminal::render(&loaded.decoded.job, &findings, &style));

@@ -15,18 +15,28 @@
 //! * every `--ratings` file's bytes, in order;
 //! * every file of the `--templates` folder, by path, with its bytes;
 //! * the job file's text as it was read for this render;
-//! * the shop profile and its logo, the job's photos and the commit its
-//!   git repository stands at ([`JobKey::file`], fed by `render`).
+//! * the shop profile's text, the files the job and the profile name (the
+//!   logo, the translation file, the photos: each as it is written in the
+//!   job or the profile, with its bytes) and the commit the job's git
+//!   repository stands at ([`JobKey::named_file`], fed by `render`).
 //!
-//! The manifest is `.NAME.ampreport-key` beside `NAME` (the PDF): three
-//! lines, the format, the key and the BLAKE3 hash of the PDF. It is
-//! written after the PDF is in place; a missing, unreadable or different
-//! manifest just means the job is rendered.
+//! The manifest is `.NAME.ampreport-key` beside `NAME` (the PDF): the
+//! format, the key, the BLAKE3 hash of the PDF and one line for each named
+//! file (its role and its name as written). It is written after the PDF is
+//! in place; a missing, unreadable or different manifest just means the
+//! job is rendered.
+//!
+//! The manifest's list of named files is what makes the skip cheap: which
+//! files a job names follows from the job's text and its profile's text
+//! alone, and both are in the key, so `render` can work the key out again
+//! from the texts and the listed files without decoding the job
+//! ([`Manifest::read`]). A list that no longer matches what the texts name
+//! can only come with texts that changed, and then the key differs.
 
 use std::path::{Path, PathBuf};
 
 /// The first line of a manifest.
-const MANIFEST_HEADER: &str = "ampreport content key 1";
+const MANIFEST_HEADER: &str = "ampreport content key 2";
 
 /// What the manifest's name ends in.
 pub const MANIFEST_SUFFIX: &str = ".ampreport-key";
@@ -126,7 +136,10 @@ impl RunKey {
     pub fn job(&self, job_text: &str) -> JobKey {
         let mut hasher = self.hasher.clone();
         feed(&mut hasher, "job", job_text.as_bytes());
-        JobKey { hasher }
+        JobKey {
+            hasher,
+            named: Vec::new(),
+        }
     }
 }
 
@@ -156,13 +169,35 @@ fn folder_files(root: &Path, below: &Path, out: &mut Vec<PathBuf>) -> Result<(),
     Ok(())
 }
 
-/// One job's key while its inputs are added.
+/// One job's key while its inputs are added, with the files it names.
 #[derive(Debug, Clone)]
 pub struct JobKey {
     hasher: blake3::Hasher,
+    named: Vec<NamedFile>,
+}
+
+/// A file a job or its shop profile names: its role ("photo", "logo",
+/// "translation") and its name as written there, relative to the folder
+/// of the file that names it.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub struct NamedFile {
+    pub role: String,
+    pub written: String,
 }
 
 impl JobKey {
+    /// Adds a file the job or its shop profile names, by role and as
+    /// written, with the bytes that were used; the manifest lists it.
+    pub fn named_file(&mut self, role: &str, written: &str, bytes: &[u8]) {
+        feed(&mut self.hasher, "named file", role.as_bytes());
+        feed(&mut self.hasher, "written", written.as_bytes());
+        feed(&mut self.hasher, "bytes", bytes);
+        self.named.push(NamedFile {
+            role: role.to_string(),
+            written: written.to_string(),
+        });
+    }
+
     /// Adds another file the job's document is made from (its shop
     /// profile, the logo, a photo), by role, with the bytes that were used.
     pub fn file(&mut self, role: &str, bytes: &[u8]) {
@@ -191,36 +226,81 @@ pub fn manifest_path(output: &Path) -> PathBuf {
 }
 
 /// The manifest's text for a PDF made from `key`.
-fn manifest_text(key: &str, pdf: &[u8]) -> String {
-    format!(
-        "{MANIFEST_HEADER}\nkey {key}\npdf {}\n",
+fn manifest_text(key: &JobKey, pdf: &[u8]) -> String {
+    let mut text = format!(
+        "{MANIFEST_HEADER}\nkey {}\npdf {}\n",
+        key.finish(),
         blake3::hash(pdf).to_hex()
-    )
+    );
+    for file in &key.named {
+        // JSON strings: a name may hold any character, a line break too.
+        text.push_str(&format!(
+            "file {} {}\n",
+            serde_json::Value::from(file.role.as_str()),
+            serde_json::Value::from(file.written.as_str())
+        ));
+    }
+    text
+}
+
+/// What a manifest recorded.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub struct Manifest {
+    pub key: String,
+    pdf: String,
+    /// The files the job and its profile named, in the order they were
+    /// fed into the key.
+    pub files: Vec<NamedFile>,
+}
+
+impl Manifest {
+    /// The manifest of `output`; `None` when it is missing, unreadable or
+    /// not of this format.
+    pub fn read(output: &Path) -> Option<Manifest> {
+        let recorded = std::fs::read_to_string(manifest_path(output)).ok()?;
+        let mut lines = recorded.lines();
+        if lines.next() != Some(MANIFEST_HEADER) {
+            return None;
+        }
+        let key = lines.next()?.strip_prefix("key ")?.to_string();
+        let pdf = lines.next()?.strip_prefix("pdf ")?.to_string();
+        let mut files = Vec::new();
+        for line in lines {
+            let mut words = serde_json::Deserializer::from_str(line.strip_prefix("file ")?)
+                .into_iter::<String>();
+            let role = words.next()?.ok()?;
+            let written = words.next()?.ok()?;
+            if words.next().is_some() {
+                return None;
+            }
+            files.push(NamedFile { role, written });
+        }
+        Some(Manifest { key, pdf, files })
+    }
+
+    /// True when `output` is a regular file whose hash is the one
+    /// recorded and `key` is the key recorded.
+    pub fn matches(&self, output: &Path, key: &str) -> bool {
+        if self.key != key {
+            return false;
+        }
+        match std::fs::symlink_metadata(output) {
+            Ok(meta) if meta.file_type().is_file() => {}
+            _ => return false,
+        }
+        std::fs::read(output).is_ok_and(|bytes| blake3::hash(&bytes).to_hex().as_str() == self.pdf)
+    }
 }
 
 /// True when `output` is a regular file made from exactly `key`: the
 /// manifest names the key, and the PDF's hash is the one recorded.
 pub fn up_to_date(output: &Path, key: &str) -> bool {
-    let Ok(recorded) = std::fs::read_to_string(manifest_path(output)) else {
-        return false;
-    };
-    let mut lines = recorded.lines();
-    if lines.next() != Some(MANIFEST_HEADER) || lines.next() != Some(&format!("key {key}")) {
-        return false;
-    }
-    let Some(pdf_hash) = lines.next().and_then(|l| l.strip_prefix("pdf ")) else {
-        return false;
-    };
-    match std::fs::symlink_metadata(output) {
-        Ok(meta) if meta.file_type().is_file() => {}
-        _ => return false,
-    }
-    std::fs::read(output).is_ok_and(|bytes| blake3::hash(&bytes).to_hex().as_str() == pdf_hash)
+    Manifest::read(output).is_some_and(|m| m.matches(output, key))
 }
 
 /// Records that the PDF now at `output` was made from `key`. Written
 /// atomically; a failure leaves no manifest, so the next run renders.
-pub fn record(output: &Path, key: &str) -> std::io::Result<()> {
+pub fn record(output: &Path, key: &JobKey) -> std::io::Result<()> {
     let manifest = manifest_path(output);
     let pdf = std::fs::read(output)?;
     crate::typeset::write_small_file(&manifest, manifest_text(key, &pdf).as_bytes())
@@ -346,15 +426,44 @@ mod tests {
         let pdf = dir.path().join("a.pdf");
         assert!(!up_to_date(&pdf, "k"));
         std::fs::write(&pdf, b"%PDF-1.7 one").unwrap();
-        record(&pdf, "k").unwrap();
+        let mut job = RunKey::new(&inputs(&[], &[])).unwrap().job("j");
+        job.named_file("photo", "odd \"name\"\nwith a line break.png", b"p");
+        job.named_file("logo", "logo.svg", b"l");
+        let k = job.finish();
+        record(&pdf, &job).unwrap();
         assert_eq!(manifest_path(&pdf), dir.path().join(".a.pdf.ampreport-key"));
-        assert!(up_to_date(&pdf, "k"));
+        assert!(up_to_date(&pdf, &k));
         assert!(!up_to_date(&pdf, "other"));
+        // The named files come back as they were written, in order.
+        let manifest = Manifest::read(&pdf).unwrap();
+        assert_eq!(manifest.key, k);
+        let files: Vec<(&str, &str)> = manifest
+            .files
+            .iter()
+            .map(|f| (f.role.as_str(), f.written.as_str()))
+            .collect();
+        assert_eq!(
+            files,
+            [
+                ("photo", "odd \"name\"\nwith a line break.png"),
+                ("logo", "logo.svg")
+            ]
+        );
         std::fs::write(&pdf, b"%PDF-1.7 two").unwrap();
-        assert!(!up_to_date(&pdf, "k"));
-        record(&pdf, "k").unwrap();
-        assert!(up_to_date(&pdf, "k"));
+        assert!(!up_to_date(&pdf, &k));
+        record(&pdf, &job).unwrap();
+        assert!(up_to_date(&pdf, &k));
+        // A manifest of another format, or a damaged one, matches nothing.
+        let text = std::fs::read_to_string(manifest_path(&pdf)).unwrap();
+        std::fs::write(
+            manifest_path(&pdf),
+            text.replace("content key 2", "content key 1"),
+        )
+        .unwrap();
+        assert!(!up_to_date(&pdf, &k));
+        std::fs::write(manifest_path(&pdf), format!("{text}file \"photo\"\n")).unwrap();
+        assert!(Manifest::read(&pdf).is_none());
         forget(&pdf);
-        assert!(!up_to_date(&pdf, "k"));
+        assert!(!up_to_date(&pdf, &k));
     }
 }

@@ -90,6 +90,16 @@ pub struct LoadedShop {
     pub translation: Option<PathBuf>,
 }
 
+impl Loaded {
+    /// The words of the job's documents and reasons: its shop's language,
+    /// English without a shop profile.
+    pub fn catalogue(&self) -> &Catalogue {
+        self.shop
+            .as_ref()
+            .map_or(Catalogue::english(), |s| &s.catalogue)
+    }
+}
+
 impl LoadedShop {
     pub fn path(&self) -> &Path {
         self.found.path()

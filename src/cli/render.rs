@@ -386,6 +386,15 @@ fn render_job(
     let args = setup.args;
     let job_path = &plan.job.path;
     let output = &plan.output;
+    if !args.force
+        && args.emit_source.is_none()
+        && !is_dash(output)
+        && !args.listing
+        && let Some(run) = &setup.run_key
+        && unchanged(setup, run, plan, depends)
+    {
+        return Ok(Outcome::Unchanged);
+    }
     let shop = load::shop_profile(job_path, args.job.shop_choice(), said, depends)?;
     let text = load::read_job(job_path, said)?;
 
@@ -439,32 +448,32 @@ fn render_job(
 
     // The key covers the texts read above (the very bytes the job and its
     // shop profile were decoded from), the logo's checked bytes, the
-    // photos' bytes and where the job's repository stands.
+    // photos' bytes and where the job's repository stands. (An unchanged
+    // job was let go before all this, by `unchanged`.)
     let key = setup
         .run_key
         .as_ref()
-        .and_then(|run| job_key(setup, run, job_path, &loaded, &photo_files));
-    if let Some(key) = &key
+        .and_then(|run| job_key(setup, run, job_path, &loaded));
+    // Reached with --listing (whose files beside the PDF need the decoded
+    // job to be told apart), or when the cheap skip found a change.
+    if let Some(key) = key.as_ref().map(content_key::JobKey::finish)
         && !args.force
         && args.emit_source.is_none()
         && !is_dash(output)
-        && content_key::up_to_date(output, key)
-        && (!args.listing || listing_files_up_to_date(output, job, key))
+        && content_key::up_to_date(output, &key)
+        && (!args.listing || listing_files_up_to_date(output, job, &key))
     {
         return Ok(Outcome::Unchanged);
     }
 
     let photos = load::photos(job_path, &loaded, said)?;
-    let mut findings = calc::derive(job, &setup.ratings);
+    let mut findings = calc::derive_in(job, &setup.ratings, loaded.catalogue());
     load::stamp(job_path, &loaded, &mut findings);
     for warning in undrawable_text(&load::job_name(job_path), &loaded.text, said.catalogue()) {
         said.warn(warning);
     }
 
-    let catalogue = loaded
-        .shop
-        .as_ref()
-        .map_or(Catalogue::english(), |s| &s.catalogue);
+    let catalogue = loaded.catalogue();
     let document = if let Some(markdown) = &markdown {
         let input = ListingInput {
             job,
@@ -674,45 +683,130 @@ fn listing_files_up_to_date(output: &Path, job: &crate::job::Job, key: &str) -> 
 }
 
 /// A job's content key: the run's shared inputs, the job's text, its
-/// shop profile's text and logo (or their absence), the bytes of each
-/// photo, and the commit its git repository stands at (the footer names
-/// the commit that last changed the job and whether the bytes read are
-/// that commit's: both follow from that commit and the job's bytes).
-/// `None` when a photo cannot be read: the render then reports it.
+/// shop profile's text (or its absence), each file the job or the profile
+/// names (the logo, the translation file, the photos) as written with its
+/// bytes, and the commit the job's git repository stands at (the footer
+/// names the commit that last changed the job and whether the bytes read
+/// are that commit's: both follow from that commit and the job's bytes).
+/// `None` when a named file cannot be read: the render then reports it.
 fn job_key(
     setup: &Setup<'_>,
     run: &RunKey,
     job_path: &Path,
     loaded: &load::Loaded,
-    photos: &[PathBuf],
-) -> Option<String> {
+) -> Option<content_key::JobKey> {
+    let shop = loaded.shop.as_ref();
+    let mut named: Vec<(&str, &str, std::borrow::Cow<'_, [u8]>)> = Vec::new();
+    if let (Some(logo), Some(written)) = (
+        shop.and_then(|s| s.logo.as_ref()),
+        shop.and_then(|s| s.profile.logo.as_ref()),
+    ) {
+        named.push(("logo", written.value.trim(), logo.bytes.as_slice().into()));
+    }
+    if let (Some(file), Some(written)) = (
+        shop.and_then(|s| s.translation.as_ref()),
+        shop.and_then(|s| s.profile.language.as_ref())
+            .and_then(|l| l.file.as_ref()),
+    ) {
+        named.push((
+            "translation",
+            written.value.trim(),
+            std::fs::read(file).ok()?.into(),
+        ));
+    }
+    let photos = crate::photo::photo_paths(&loaded.decoded.job, job_path);
+    for (photo, path) in loaded.decoded.job.photos.iter().zip(&photos) {
+        named.push(("photo", &photo.path.value, std::fs::read(path).ok()?.into()));
+    }
     let mut key = run.job(&loaded.text);
-    match &loaded.shop {
-        Some(shop) => {
-            key.file("shop profile", shop.text.as_bytes());
-            match &shop.logo {
-                Some(logo) => {
-                    key.file("logo kind", logo.sandbox_path().as_bytes());
-                    key.file("logo", &logo.bytes);
-                }
-                None => key.none("logo"),
-            }
-        }
+    match shop {
+        Some(shop) => key.file("shop profile", shop.text.as_bytes()),
         None => key.none("shop profile"),
     }
-    match loaded.shop.as_ref().and_then(|s| s.translation.as_ref()) {
-        Some(file) => key.file("translation", &std::fs::read(file).ok()?),
-        None => key.none("translation"),
+    for (role, written, bytes) in &named {
+        key.named_file(role, written, bytes);
     }
-    key.file("photos", &(photos.len() as u64).to_le_bytes());
-    for photo in photos {
-        key.file("photo", &std::fs::read(photo).ok()?);
-    }
+    finish_key(setup, job_path, key)
+}
+
+/// The part of a job's key that comes last: where its repository stands.
+fn finish_key(
+    setup: &Setup<'_>,
+    job_path: &Path,
+    mut key: content_key::JobKey,
+) -> Option<content_key::JobKey> {
     match setup.repository_head(job_path) {
         Some(head) => key.file("git head", head.as_bytes()),
         None => key.none("git head"),
     }
-    Some(key.finish())
+    Some(key)
+}
+
+/// The cheap skip: true when the PDF of `plan` was made from exactly the
+/// inputs there are now, worked out without decoding the job. The texts
+/// of the job and of the shop profile it would use are read, the files
+/// the manifest lists as named by them are read where the job and the
+/// profile would find them, and the key is worked out as [`job_key`] does.
+/// Which files the texts name follows from the texts, which are in the
+/// key, so a match is as exact as the full key; anything unreadable or
+/// out of place just means the job is rendered (and the render says
+/// why). The files read are added to `depends`.
+fn unchanged(setup: &Setup<'_>, run: &RunKey, plan: &Plan, depends: &mut Vec<PathBuf>) -> bool {
+    let job_path = &plan.job.path;
+    if is_dash(job_path) {
+        return false;
+    }
+    let Some(manifest) = content_key::Manifest::read(&plan.output) else {
+        return false;
+    };
+    let Ok(text) = crate::input_file::read_text(job_path, "job file") else {
+        return false;
+    };
+    let choice = setup.args.job.shop_choice();
+    let shop = if choice.none {
+        None
+    } else {
+        let config = crate::shop::user_config_dir();
+        crate::shop::discover(job_path, choice.named, config.as_deref())
+            .map(|found| found.path().to_path_buf())
+    };
+    let mut key = run.job(&text);
+    let mut read = Vec::new();
+    match &shop {
+        Some(path) => {
+            let Ok(shop_text) = crate::input_file::read_text(path, "shop profile") else {
+                return false;
+            };
+            key.file("shop profile", shop_text.as_bytes());
+            read.push(path.clone());
+        }
+        None => key.none("shop profile"),
+    }
+    let job_folder = match job_path.parent() {
+        Some(p) if !p.as_os_str().is_empty() => p,
+        _ => Path::new("."),
+    };
+    for file in &manifest.files {
+        let folder = match (file.role.as_str(), &shop) {
+            ("photo", _) => job_folder,
+            ("logo" | "translation", Some(shop)) => shop.parent().unwrap_or(Path::new(".")),
+            _ => return false,
+        };
+        let limit = crate::input_file::MAX_INPUT_BYTES.max(crate::photo::MAX_PHOTO_BYTES);
+        let Ok(found) = crate::input_file::read_in_folder(folder, &file.written, limit) else {
+            return false;
+        };
+        key.named_file(&file.role, &file.written, &found.bytes);
+        read.push(found.place);
+    }
+    let Some(key) = finish_key(setup, job_path, key) else {
+        return false;
+    };
+    if !manifest.matches(&plan.output, &key.finish()) {
+        return false;
+    }
+    depends.extend(read);
+    true
 }
 
 /// Every path the render of `job` reads, for the output checks: an output

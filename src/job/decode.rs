@@ -1180,8 +1180,8 @@ fn decode_parts(node: &KdlNode, r: &mut Reader) -> Vec<PartChange> {
                 DecodeError::error(
                     "job::missing",
                     Reader::name_span(child),
-                    "`part` needs a circuit reference or `what=`",
-                    "which part?",
+                    Msg::new("diag-part-needs-reference"),
+                    Msg::new("diag-which-part"),
                 )
                 .with_help("for example: part C10 was=\"…\" now=\"…\"   or   part what=\"mains cord\" was=\"two-wire\" now=\"three-wire\""),
             );
@@ -1255,8 +1255,8 @@ fn decode_mod_figures(node: &KdlNode, r: &mut Reader) -> (Vec<ModFigure>, Option
                     DecodeError::error(
                         "job::repeated-node",
                         Reader::name_span(child),
-                        "a mod has one `network`; this is a second",
-                        "repeated here",
+                        Msg::new("diag-second-network"),
+                        Msg::new("diag-repeated-here"),
                     )
                     .with_help("write a second network under a mod of its own"),
                 );
@@ -1343,8 +1343,8 @@ fn decode_safety(node: &KdlNode, defaults: &SafetyDefaults, r: &mut Reader) -> O
                 r.push(DecodeError::error(
                     "job::unknown-class",
                     c.span,
-                    format!("unknown protection class `{other}`"),
-                    "expected I or II",
+                    Msg::new("diag-unknown-class").arg("name", other),
+                    Msg::new("diag-expected-class"),
                 ));
                 ProtectionClass::One
             }
@@ -1383,8 +1383,8 @@ fn decode_safety(node: &KdlNode, defaults: &SafetyDefaults, r: &mut Reader) -> O
                     DecodeError::error(
                         "job::missing",
                         Reader::name_span(child),
-                        format!("`{}` needs the reading", child.name().value()),
-                        "reading missing",
+                        Msg::new("diag-needs-reading").arg("name", child.name().value()),
+                        Msg::new("diag-reading-missing"),
                     )
                     .with_help(format!("for example: {example}")),
                 );
@@ -1576,8 +1576,8 @@ fn decode_accepted(node: &KdlNode, info: &JobInfo, r: &mut Reader) -> Vec<Accept
                             DecodeError::error(
                                 "job::unknown-safety-test",
                                 n.span,
-                                format!("unknown safety test `{}`", n.value),
-                                "not a safety test",
+                                Msg::new("diag-unknown-safety-test").arg("name", n.value.as_str()),
+                                Msg::new("diag-not-a-safety-test"),
                             )
                             .with_help(suggestion_help(&n.value, SAFETY_TESTS)),
                         );
@@ -1616,8 +1616,8 @@ fn decode_accepted(node: &KdlNode, info: &JobInfo, r: &mut Reader) -> Vec<Accept
                 DecodeError::error(
                     "job::unknown-check",
                     c.span,
-                    format!("unknown valve check `{}`", c.value),
-                    "not a check",
+                    Msg::new("diag-unknown-check").arg("name", c.value.as_str()),
+                    Msg::new("diag-not-a-check"),
                 )
                 .with_help(suggestion_help(&c.value, VALVE_CHECKS)),
             );
@@ -1632,8 +1632,8 @@ fn decode_accepted(node: &KdlNode, info: &JobInfo, r: &mut Reader) -> Vec<Accept
                 DecodeError::error(
                     "job::empty-reason",
                     reason.span,
-                    "an acceptance needs its reason in words",
-                    "empty reason",
+                    Msg::new("diag-empty-reason"),
+                    Msg::new("diag-empty-reason-label"),
                 )
                 .with_help("say why the figure is acceptable, for example \"factory design\""),
             );
@@ -1648,8 +1648,8 @@ fn decode_accepted(node: &KdlNode, info: &JobInfo, r: &mut Reader) -> Vec<Accept
                 DecodeError::error(
                     "job::missing",
                     Reader::name_span(child),
-                    "an acceptance needs the name of the technician who accepted it",
-                    "who accepted this?",
+                    Msg::new("diag-acceptance-who"),
+                    Msg::new("diag-who-accepted"),
                 )
                 .with_help(
                     "write `by=\"…\"` here or on `accepted`, or give the job a `technician=`",
@@ -1661,8 +1661,8 @@ fn decode_accepted(node: &KdlNode, info: &JobInfo, r: &mut Reader) -> Vec<Accept
                 DecodeError::error(
                     "job::missing",
                     Reader::name_span(child),
-                    "an acceptance needs the date it was accepted",
-                    "when was this accepted?",
+                    Msg::new("diag-acceptance-when"),
+                    Msg::new("diag-when-accepted"),
                 )
                 .with_help("write `date=\"YYYY-MM-DD\"` here or on `accepted`, or give the job a `completed=` date"),
             );
@@ -1757,8 +1757,8 @@ pub(crate) fn decode_settings(
             r.push(DecodeError::error(
                 "job::missing",
                 Reader::name_span(child),
-                format!("`{name}` needs a value"),
-                "value missing",
+                Msg::new("diag-needs-value").arg("name", name),
+                Msg::new("diag-value-missing"),
             ));
             continue;
         };

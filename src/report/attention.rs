@@ -6,6 +6,7 @@
 //! warnings; decides nothing.
 
 use crate::calc::{Findings, Status, ValveFindings, Verdict, Warning};
+use crate::catalogue::{Arg, Catalogue};
 
 /// The state a table shows for a figure: its status word, or `accepted`
 /// when it is off its limit and the technician accepted it.
@@ -132,10 +133,10 @@ fn add(entries: &mut Vec<Entry>, w: &Warning, line: String) {
     }
 }
 
-fn accepted_entry(w: &Warning) -> AcceptedEntry {
+fn accepted_entry(w: &Warning, cat: &Catalogue) -> AcceptedEntry {
     let subject = match w.check {
         Some(check) if check != "rectifier_load" => {
-            format!("{} {}", w.subject, check.replace('_', " "))
+            format!("{} {}", w.subject, crate::calc::check_words(check, cat))
         }
         _ => w.subject.clone(),
     };
@@ -151,22 +152,22 @@ fn accepted_entry(w: &Warning) -> AcceptedEntry {
 }
 
 /// Groups the findings' warnings.
-pub fn attention(findings: &Findings) -> Attention {
+pub fn attention(findings: &Findings, cat: &Catalogue) -> Attention {
     let mut out = Attention {
         final_label: findings.final_set.clone(),
         ..Attention::default()
     };
     for w in &findings.warnings {
         match &w.set {
-            None if w.accepted => out.accepted.push(accepted_entry(w)),
+            None if w.accepted => out.accepted.push(accepted_entry(w, cat)),
             None => add(&mut out.job_wide, w, w.reason.clone()),
-            Some(_) if w.in_final_set && w.accepted => out.accepted.push(accepted_entry(w)),
+            Some(_) if w.in_final_set && w.accepted => out.accepted.push(accepted_entry(w, cat)),
             Some(_) if w.in_final_set => add(&mut out.open, w, w.reason.clone()),
             Some(label) => {
                 let line = if w.brief.is_empty() {
                     w.reason.trim_end_matches('.').to_string()
                 } else if w.accepted {
-                    format!("{} (accepted)", w.brief)
+                    cat.format("attention-accepted", &[("brief", Arg::from(&w.brief))])
                 } else {
                     w.brief.clone()
                 };
@@ -210,7 +211,7 @@ mod tests {
         )
         .unwrap();
         let f = findings(&text);
-        let a = attention(&f);
+        let a = attention(&f, Catalogue::english());
         assert_eq!(a.final_label.as_deref(), Some("as left"));
         // As found, V3 has four findings (plate, high-line plate, plate
         // voltage, screen voltage): one entry with four briefs.

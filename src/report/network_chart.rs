@@ -14,6 +14,7 @@ use super::plots::{
     text_width,
 };
 use crate::calc::network::{F_START, F_STOP, NetworkFindings};
+use crate::catalogue::{Arg, Catalogue};
 
 /// Width and height of the SVG in pixels (CSS px; typst scales it).
 pub const RESPONSE_SIZE: (u32, u32) = (760, 360);
@@ -54,10 +55,12 @@ pub struct ResponseChart {
     /// network has no pots.
     pub settings: Vec<String>,
     pub has_after: bool,
+    /// The chart's fixed words, in the document's language.
+    pub words: Catalogue,
 }
 
 /// The chart for a network, if it was worked out.
-pub fn response_chart(net: &NetworkFindings) -> Option<ResponseChart> {
+pub fn response_chart(net: &NetworkFindings, cat: &Catalogue) -> Option<ResponseChart> {
     if net.curves.is_empty() {
         return None;
     }
@@ -95,6 +98,7 @@ pub fn response_chart(net: &NetworkFindings) -> Option<ResponseChart> {
         has_after: curves.iter().any(|c| c.after),
         curves,
         settings,
+        words: cat.clone(),
     })
 }
 
@@ -141,15 +145,20 @@ fn legend(chart: &ResponseChart) -> Vec<LegendEntry> {
         });
     };
     if chart.has_after {
-        push(None, true, "before the mod".to_string());
-        push(None, false, "after".to_string());
+        push(None, true, chart.words.text("chart-before-mod"));
+        push(None, false, chart.words.text("chart-after-mod"));
     }
     let many = chart.settings.len() > 1;
     for (k, words) in chart.settings.iter().enumerate() {
         let text = if many {
-            format!("setting {}: {}", k + 1, words)
+            chart.words.format(
+                "chart-setting",
+                &[("number", Arg::from(k + 1)), ("pots", Arg::from(words))],
+            )
         } else {
-            format!("pots at {words}")
+            chart
+                .words
+                .format("chart-pots-at", &[("pots", Arg::from(words))])
         };
         push(many.then_some(k), false, label_text(&text, 60));
     }
@@ -210,7 +219,7 @@ fn draw(chart: &ResponseChart, svg: &mut String) -> Result<(), String> {
         .x_label_formatter(&|_| String::new())
         .y_labels(((top - bottom) / step) as usize + 1)
         .y_label_formatter(&|v| format!("{v:.0}").replace('-', "−"))
-        .y_desc("dB at the load")
+        .y_desc(chart.words.text("chart-db-at-load"))
         .axis_desc_style(font(14))
         .label_style(font(13))
         .light_line_style(PAPER)
@@ -386,6 +395,7 @@ mod tests {
             }
         }
         ResponseChart {
+            words: crate::catalogue::Catalogue::english().clone(),
             curves,
             settings: (1..=settings).map(|k| format!("VR1 {k}")).collect(),
             has_after: after,

@@ -15,6 +15,7 @@ use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, Pos, VPos};
 
 use crate::calc::Findings;
+use crate::catalogue::{Arg, Catalogue};
 
 mod obstacles;
 mod warm_up;
@@ -74,6 +75,8 @@ pub struct DissipationChart {
     /// Plate dissipation as % of the rating, per set, per valve.
     pub series: Vec<Series>,
     pub guide: Guide,
+    /// The chart's fixed words, in the document's language.
+    pub words: Catalogue,
 }
 
 /// A supply node on the chain chart.
@@ -92,13 +95,15 @@ pub struct SupplyChart {
     /// Corrected volts per set, per node.
     pub series: Vec<Series>,
     pub nominal_volts: f64,
+    /// The chart's fixed words, in the document's language.
+    pub words: Catalogue,
 }
 
 /// The dissipation chart's data, or `None` when no output valve has a
 /// plate-dissipation figure in any set. Linear in the sets and valves: each
 /// valve's column is found by its position through an index, never by
 /// comparing it with every other.
-pub fn dissipation_chart(findings: &Findings) -> Option<DissipationChart> {
+pub fn dissipation_chart(findings: &Findings, cat: &Catalogue) -> Option<DissipationChart> {
     let mut valves: Vec<(&str, &str)> = Vec::new();
     let mut column: HashMap<&str, usize> = HashMap::new();
     let mut kinds: Vec<&str> = Vec::new();
@@ -155,12 +160,13 @@ pub fn dissipation_chart(findings: &Findings) -> Option<DissipationChart> {
         valves: valves.iter().map(|(p, t)| format!("{p} {t}")).collect(),
         series,
         guide,
+        words: cat.clone(),
     })
 }
 
 /// The supply chart's data, or `None` when no set reads any node. Linear
 /// in the sets and nodes, like [`dissipation_chart`].
-pub fn supply_chart(findings: &Findings) -> Option<SupplyChart> {
+pub fn supply_chart(findings: &Findings, cat: &Catalogue) -> Option<SupplyChart> {
     let mut nodes: Vec<SupplyNode> = Vec::new();
     let mut column: HashMap<&str, usize> = HashMap::new();
     for set in &findings.sets {
@@ -210,6 +216,7 @@ pub fn supply_chart(findings: &Findings) -> Option<SupplyChart> {
         nodes,
         series,
         nominal_volts: findings.mains.nominal_volts,
+        words: cat.clone(),
     })
 }
 
@@ -250,7 +257,7 @@ pub(crate) fn even_groups(n: usize, most: usize) -> Vec<std::ops::Range<usize>> 
 }
 
 /// "“a”" or "“a” to “b”", for the first and last of a group.
-pub(crate) fn span_words(first: &str, last: &str, quote: bool) -> String {
+pub(crate) fn span_words(first: &str, last: &str, quote: bool, cat: &Catalogue) -> String {
     let q = |t: &str| {
         if quote {
             format!("“{}”", label_text(t, 24))
@@ -261,7 +268,10 @@ pub(crate) fn span_words(first: &str, last: &str, quote: bool) -> String {
     if first == last {
         q(first)
     } else {
-        format!("{} to {}", q(first), q(last))
+        cat.format(
+            "chart-span",
+            &[("first", Arg::from(q(first))), ("last", Arg::from(q(last)))],
+        )
     }
 }
 
@@ -271,6 +281,7 @@ pub(crate) fn span_words(first: &str, last: &str, quote: bool) -> String {
 fn split_series<T>(
     series: &[Series],
     columns: &[String],
+    cat: &Catalogue,
     make: impl Fn(Vec<Series>, std::ops::Range<usize>) -> T,
 ) -> Vec<ChartPart<T>> {
     let set_groups = even_groups(series.len(), SETS_PER_CHART);
@@ -291,16 +302,20 @@ fn split_series<T>(
             }
             let mut words = Vec::new();
             if set_groups.len() > 1 {
-                words.push(format!(
-                    "readings {}",
-                    span_words(&series[sets.start].label, &series[sets.end - 1].label, true)
-                ));
+                let span = span_words(
+                    &series[sets.start].label,
+                    &series[sets.end - 1].label,
+                    true,
+                    cat,
+                );
+                words.push(cat.format("chart-part-readings", &[("span", Arg::from(span))]));
             }
             if column_groups.len() > 1 {
                 words.push(span_words(
                     &columns[cols.start],
                     &columns[cols.end - 1],
                     false,
+                    cat,
                 ));
             }
             parts.push(ChartPart {
@@ -315,23 +330,30 @@ fn split_series<T>(
 /// The dissipation chart cut into parts for a long job (see
 /// [`SETS_PER_CHART`]); one part holding the whole chart otherwise.
 pub fn split_dissipation(chart: &DissipationChart) -> Vec<ChartPart<DissipationChart>> {
-    split_series(&chart.series, &chart.valves, |series, cols| {
-        DissipationChart {
+    split_series(
+        &chart.series,
+        &chart.valves,
+        &chart.words,
+        |series, cols| DissipationChart {
             valves: chart.valves[cols].to_vec(),
             series,
             guide: chart.guide,
-        }
-    })
+            words: chart.words.clone(),
+        },
+    )
 }
 
 /// The supply chart cut into parts for a long job, like
 /// [`split_dissipation`].
 pub fn split_supply(chart: &SupplyChart) -> Vec<ChartPart<SupplyChart>> {
     let names: Vec<String> = chart.nodes.iter().map(|n| n.name.clone()).collect();
-    split_series(&chart.series, &names, |series, cols| SupplyChart {
-        nodes: chart.nodes[cols].to_vec(),
-        series,
-        nominal_volts: chart.nominal_volts,
+    split_series(&chart.series, &names, &chart.words, |series, cols| {
+        SupplyChart {
+            nodes: chart.nodes[cols].to_vec(),
+            series,
+            nominal_volts: chart.nominal_volts,
+            words: chart.words.clone(),
+        }
     })
 }
 
@@ -864,7 +886,7 @@ fn draw_dissipation(chart: &DissipationChart, svg: &mut String) -> Result<(), St
         &mut ctx,
         axis.labels(),
         &|v| format!("{v:.0}"),
-        "Plate dissipation, % of rating",
+        &chart.words.text("chart-dissipation-axis"),
     )?;
 
     let (left, _) = ctx.backend_coord(&(0.0, 0.0));
@@ -882,7 +904,7 @@ fn draw_dissipation(chart: &DissipationChart, svg: &mut String) -> Result<(), St
             .map_err(|e| e.to_string())?;
             let mid = ctx.backend_coord(&(0.0, (low_pct + high_pct) / 2.0)).1;
             root.draw(&Text::new(
-                "fixed-bias aim",
+                chart.words.text("chart-fixed-bias-aim"),
                 (right + 8, mid - 8),
                 anchored(12, HPos::Left, VPos::Center),
             ))
@@ -898,7 +920,9 @@ fn draw_dissipation(chart: &DissipationChart, svg: &mut String) -> Result<(), St
             let y = ctx.backend_coord(&(0.0, axis.hold(pct))).1;
             dashed(&root, left, right, y, INK.stroke_width(1))?;
             root.draw(&Text::new(
-                format!("caution {pct:.0} %"),
+                chart
+                    .words
+                    .format("chart-caution", &[("pct", Arg::from(format!("{pct:.0}")))]),
                 (right + 8, y + 2),
                 anchored(12, HPos::Left, VPos::Top),
             ))
@@ -944,7 +968,7 @@ fn draw_dissipation(chart: &DissipationChart, svg: &mut String) -> Result<(), St
     ))
     .map_err(|e| e.to_string())?;
     root.draw(&Text::new(
-        "100 % rating",
+        chart.words.text("chart-full-rating"),
         (right + 8, y100 - 2),
         anchored(12, HPos::Left, VPos::Bottom),
     ))
@@ -1210,7 +1234,7 @@ fn draw_supply(chart: &SupplyChart, svg: &mut String) -> Result<(), String> {
     };
     let (bottom, top) = (axis.bottom, axis.top);
 
-    let band_text = "expected ± tolerance".to_string();
+    let band_text = chart.words.text("chart-expected-band");
     let legend_labels: Vec<String> = std::iter::once(band_text.clone())
         .chain(chart.series.iter().map(|s| label_text(&s.label, 24)))
         .collect();
@@ -1225,9 +1249,9 @@ fn draw_supply(chart: &SupplyChart, svg: &mut String) -> Result<(), String> {
         .y_label_area_size(62)
         .build_cartesian_2d(0f64..n as f64, bottom..top)
         .map_err(|e| e.to_string())?;
-    let desc = format!(
-        "Volts DC, corrected to {} V mains",
-        whole(chart.nominal_volts)
+    let desc = chart.words.format(
+        "chart-supply-axis",
+        &[("nominal", Arg::from(whole(chart.nominal_volts)))],
     );
     draw_mesh(&mut ctx, 2 * axis.labels(), &|v| format!("{v:.0}"), &desc)?;
     let (left, _) = ctx.backend_coord(&(0.0, bottom));
@@ -1483,6 +1507,7 @@ mod tests {
 
     fn two_sets() -> DissipationChart {
         DissipationChart {
+            words: crate::catalogue::Catalogue::english().clone(),
             valves: vec!["V3 EL84".into(), "V4 EL84".into()],
             series: vec![
                 Series {
@@ -1563,6 +1588,7 @@ mod tests {
     #[test]
     fn supply_chart_marks_bands_and_readings() {
         let chart = SupplyChart {
+            words: crate::catalogue::Catalogue::english().clone(),
             nodes: vec![
                 SupplyNode {
                     name: "B+1".into(),
@@ -1657,6 +1683,7 @@ mod tests {
             })
             .collect();
         let chart = SupplyChart {
+            words: crate::catalogue::Catalogue::english().clone(),
             series: vec![
                 Series {
                     label: "as found".into(),
@@ -1734,6 +1761,7 @@ mod tests {
         assert_eq!(label_text("V3\u{1}\nEL84", 20), "V3 EL84");
         assert_eq!(label_text("abcdefghij", 5), "abcd…");
         let svg = dissipation_svg(&DissipationChart {
+            words: crate::catalogue::Catalogue::english().clone(),
             valves: vec!["<V&3>".into()],
             series: vec![Series {
                 label: "a \"b\"".into(),

@@ -14,6 +14,7 @@ use super::plots::{
     text_width, to_svg,
 };
 use crate::calc::Findings;
+use crate::catalogue::{Arg, Catalogue};
 use crate::units::{QuantityKind as Q, format_engineering};
 
 /// One response curve.
@@ -31,10 +32,12 @@ pub struct ResponseCurve {
 #[derive(Debug, Clone, PartialEq)]
 pub struct ResponseChart {
     pub curves: Vec<ResponseCurve>,
+    /// The chart's fixed words, in the document's language.
+    pub words: Catalogue,
 }
 
 /// The chart's data, or `None` when no set has a response reading.
-pub fn response_chart(findings: &Findings) -> Option<ResponseChart> {
+pub fn response_chart(findings: &Findings, cat: &Catalogue) -> Option<ResponseChart> {
     let curves: Vec<ResponseCurve> = findings
         .sets
         .iter()
@@ -58,7 +61,10 @@ pub fn response_chart(findings: &Findings) -> Option<ResponseChart> {
         })
         .filter(|c| !c.points.is_empty())
         .collect();
-    (!curves.is_empty()).then_some(ResponseChart { curves })
+    (!curves.is_empty()).then(|| ResponseChart {
+        curves,
+        words: cat.clone(),
+    })
 }
 
 /// The response chart cut into parts of at most [`SETS_PER_CHART`]
@@ -72,11 +78,15 @@ pub fn split_response(chart: &ResponseChart) -> Vec<ChartPart<ResponseChart>> {
             let curves = &chart.curves[g];
             let part = (!whole).then(|| {
                 let (first, last) = (&curves[0].label, &curves[curves.len() - 1].label);
-                format!("curves {}", span_words(first, last, true))
+                let span = span_words(first, last, true, &chart.words);
+                chart
+                    .words
+                    .format("chart-part-curves", &[("span", Arg::from(span))])
             });
             ChartPart {
                 chart: ResponseChart {
                     curves: curves.to_vec(),
+                    words: chart.words.clone(),
                 },
                 part,
             }
@@ -152,7 +162,7 @@ fn draw_response(chart: &ResponseChart, svg: &mut String) -> Result<(), String> 
                 format!("{v:+.0}").replace('-', "\u{2212}")
             }
         },
-        "dB against the reference",
+        &chart.words.text("chart-db-against-reference"),
     )?;
 
     let (left, plot_bottom) = ctx.backend_coord(&(lo, bottom));
@@ -174,7 +184,7 @@ fn draw_response(chart: &ResponseChart, svg: &mut String) -> Result<(), String> 
         .map_err(|e| e.to_string())?;
     }
     root.draw(&Text::new(
-        "Frequency, Hz (logarithmic)",
+        chart.words.text("chart-frequency-axis"),
         ((left + right) / 2, plot_bottom + 24),
         anchored(14, HPos::Center, VPos::Top),
     ))
@@ -304,7 +314,7 @@ fn draw_response(chart: &ResponseChart, svg: &mut String) -> Result<(), String> 
     ))
     .map_err(|e| e.to_string())?;
     root.draw(&Text::new(
-        "\u{2212}3 dB point",
+        chart.words.text("chart-minus-3db-point"),
         (tick_x + 8, 20),
         anchored(13, HPos::Left, VPos::Center),
     ))
@@ -332,6 +342,7 @@ mod tests {
     #[test]
     fn a_curve_draws_with_its_minus_3db_points() {
         let chart = ResponseChart {
+            words: crate::catalogue::Catalogue::english().clone(),
             curves: vec![ResponseCurve {
                 label: "as left, bright".into(),
                 points: vec![(40.0, -3.7), (100.0, -0.7), (1000.0, 0.0), (16_000.0, -4.1)],
@@ -356,9 +367,14 @@ mod tests {
                 minus_3db: vec![1.03],
             })
             .collect();
-        let svg = response_svg(&ResponseChart { curves }).unwrap();
+        let svg = response_svg(&ResponseChart {
+            curves,
+            words: crate::catalogue::Catalogue::english().clone(),
+        })
+        .unwrap();
         assert!(svg.contains("…"), "the legend says it stops");
         let one = ResponseChart {
+            words: crate::catalogue::Catalogue::english().clone(),
             curves: vec![ResponseCurve {
                 label: "one".into(),
                 points: vec![(1e6, 0.0)],

@@ -3,9 +3,11 @@
 //! terms. Every figure in it comes from the findings (none is typed by
 //! hand); the first set is what was found, the final set the state now.
 //!
-//! Every fixed sentence of the summary is in this file.
+//! Every sentence of the summary is a `summary-…` message of the catalogue;
+//! the figures and names are its arguments.
 
 use crate::calc::{Findings, SetFindings, Status, Verdict};
+use crate::catalogue::{Arg, Catalogue};
 use crate::job::Job;
 
 /// The summary, sentence by sentence.
@@ -59,8 +61,11 @@ impl Troubles {
         }
     }
 
-    fn words(&self) -> Vec<String> {
-        self.0.iter().map(|(t, list)| phrase(*t, list)).collect()
+    fn words(&self, cat: &Catalogue) -> Vec<String> {
+        self.0
+            .iter()
+            .map(|(t, list)| phrase(*t, list, cat))
+            .collect()
     }
 }
 
@@ -75,100 +80,70 @@ fn range(list: &[(String, f64)]) -> String {
     }
 }
 
-fn names(list: &[(String, f64)]) -> String {
-    let n: Vec<String> = list.iter().map(|x| x.0.clone()).collect();
-    and_list(&n)
+fn names(list: &[(String, f64)], cat: &Catalogue) -> String {
+    let n: Vec<&str> = list.iter().map(|x| x.0.as_str()).collect();
+    cat.and_list(&n)
 }
 
-/// "valve V3" or "valves V3 and V4".
-fn counted(noun: &str, list: &[(String, f64)]) -> String {
+/// "B+3 (−21 %)": a name with a signed whole percentage.
+fn signed(name: &str, d: f64) -> String {
     format!(
-        "{noun}{} {}",
-        if list.len() == 1 { "" } else { "s" },
-        names(list)
+        "{name} ({}{:.0} %)",
+        if d < 0.0 { "\u{2212}" } else { "+" },
+        d.abs()
     )
 }
 
-fn phrase(t: Trouble, list: &[(String, f64)]) -> String {
+fn phrase(t: Trouble, list: &[(String, f64)], cat: &Catalogue) -> String {
+    let say = |key: &str, names: String| {
+        cat.format(
+            key,
+            &[
+                ("count", Arg::from(list.len())),
+                ("names", Arg::from(names)),
+                ("range", Arg::from(range(list))),
+            ],
+        )
+    };
+    let plain = |key: &str| say(key, names(list, cat));
     match t {
-        Trouble::ValvesHot => format!(
-            "{} running hot ({} of the plate rating)",
-            counted("output valve", list),
-            range(list)
-        ),
-        Trouble::ValvesCold => format!(
-            "{} idling cold ({} of the plate rating)",
-            counted("output valve", list),
-            range(list)
-        ),
-        Trouble::ValvesBeyond => format!(
-            "{} beyond the plate rating ({})",
-            counted("output valve", list),
-            range(list)
-        ),
-        Trouble::ValvesHighLine => format!(
-            "{} close to the plate rating at the top of the mains range ({})",
-            counted("output valve", list),
-            range(list)
-        ),
-        Trouble::ScreenHot => format!(
-            "screen dissipation too high on {} ({} of the rating)",
-            names(list),
-            range(list)
-        ),
-        Trouble::VoltageMax => format!(
-            "valve voltages above the published maximum on {}",
-            names(list)
-        ),
-        Trouble::CathodeCurrent => {
-            format!("more than the rated cathode current on {}", names(list))
-        }
+        Trouble::ValvesHot => plain("summary-valves-hot"),
+        Trouble::ValvesCold => plain("summary-valves-cold"),
+        Trouble::ValvesBeyond => plain("summary-valves-beyond"),
+        Trouble::ValvesHighLine => plain("summary-valves-high-line"),
+        Trouble::ScreenHot => plain("summary-screen-hot"),
+        Trouble::VoltageMax => plain("summary-voltage-max"),
+        Trouble::CathodeCurrent => plain("summary-cathode-current"),
         Trouble::NodeOff => {
-            let each: Vec<String> = list
-                .iter()
-                .map(|(n, d)| {
-                    format!(
-                        "{n} ({}{:.0} %)",
-                        if *d < 0.0 { "\u{2212}" } else { "+" },
-                        d.abs()
-                    )
-                })
-                .collect();
-            format!(
-                "supply voltages off the factory chart at {}",
-                and_list(&each)
-            )
+            let each: Vec<String> = list.iter().map(|(n, d)| signed(n, *d)).collect();
+            say("summary-nodes-off", cat.and_list(&each))
         }
         Trouble::ResistorOver => match list {
-            [(n, p)] => format!("resistor {n} overloaded at {} of its rating", pct(*p)),
+            [(n, p)] => cat.format(
+                "summary-resistor-over",
+                &[("name", Arg::from(n)), ("pct", Arg::from(pct(*p)))],
+            ),
             _ => {
                 let each: Vec<String> = list
                     .iter()
                     .map(|(n, p)| format!("{n} ({})", pct(*p)))
                     .collect();
-                format!("resistors {} overloaded", and_list(&each))
+                say("summary-resistors-over", cat.and_list(&each))
             }
         },
-        Trouble::ResistorWarm => format!("{} running warm", counted("resistor", list)),
-        Trouble::CapacitorOver => format!(
-            "{} rated below the voltage {} can see",
-            counted("capacitor", list),
-            if list.len() == 1 { "it" } else { "they" }
-        ),
-        Trouble::CapacitorMargin => {
-            format!("little voltage margin on {}", counted("capacitor", list))
-        }
-        Trouble::RectifierLoad => format!(
-            "the rectifier valve {} loaded to {} of its rating",
-            names(list),
-            range(list)
-        ),
+        Trouble::ResistorWarm => plain("summary-resistors-warm"),
+        Trouble::CapacitorOver => plain("summary-capacitors-over"),
+        Trouble::CapacitorMargin => plain("summary-capacitors-margin"),
+        Trouble::RectifierLoad => plain("summary-rectifier-load"),
         Trouble::HeaterOff => {
             let d = list.first().map(|x| x.1).unwrap_or(0.0);
-            format!(
-                "the heater supply {:.0} % {}",
-                d.abs(),
-                if d < 0.0 { "low" } else { "high" }
+            cat.format(
+                if d < 0.0 {
+                    "summary-heater-low"
+                } else {
+                    "summary-heater-high"
+                },
+                &[("pct", Arg::from(format!("{:.0}", d.abs())))],
             )
         }
     }
@@ -176,7 +151,7 @@ fn phrase(t: Trouble, list: &[(String, f64)]) -> String {
 
 /// Everything off in a set, in words; with `open_only`, accepted figures
 /// are left out.
-fn off_in(set: &SetFindings, open_only: bool) -> Vec<String> {
+fn off_in(set: &SetFindings, open_only: bool, cat: &Catalogue) -> Vec<String> {
     let counts = |v: &Verdict| v.status != Status::Ok && (!open_only || !v.accepted);
     let mut t = Troubles::default();
     for v in &set.valves {
@@ -240,24 +215,7 @@ fn off_in(set: &SetFindings, open_only: bool) -> Vec<String> {
     for h in set.heaters.iter().filter(|h| counts(&h.verdict)) {
         t.add(Trouble::HeaterOff, "heater", h.deviation_pct);
     }
-    t.words()
-}
-
-/// "a, b and c".
-fn and_list(items: &[String]) -> String {
-    match items {
-        [] => String::new(),
-        [one] => one.clone(),
-        [rest @ .., last] => format!("{} and {last}", rest.join(", ")),
-    }
-}
-
-fn capital(s: &str) -> String {
-    let mut c = s.chars();
-    match c.next() {
-        Some(f) => f.to_uppercase().collect::<String>() + c.as_str(),
-        None => String::new(),
-    }
+    t.words(cat)
 }
 
 /// The range of plate-dissipation percentages of the output valves in a
@@ -279,52 +237,50 @@ fn plate_range(set: &SetFindings) -> Option<String> {
 }
 
 /// Builds the summary of a job's findings.
-pub fn summary(job: &Job, findings: &Findings) -> Summary {
+pub fn summary(job: &Job, findings: &Findings, cat: &Catalogue) -> Summary {
     let final_set = findings.sets.iter().find(|s| s.is_final);
     let first = findings.sets.first().filter(|f| !f.is_final);
     let mut out = Summary::default();
 
     if let Some(first) = first {
-        let off = off_in(first, false);
+        let off = off_in(first, false, cat);
         out.found.push(if off.is_empty() {
-            format!(
-                "The readings \u{201c}{}\u{201d} showed every figure inside its limits.",
-                first.label
-            )
+            cat.format("summary-found-ok", &[("label", Arg::from(&first.label))])
         } else {
-            format!(
-                "The readings \u{201c}{}\u{201d} showed {}.",
-                first.label,
-                and_list(&off)
+            cat.format(
+                "summary-found",
+                &[
+                    ("label", Arg::from(&first.label)),
+                    ("troubles", Arg::from(cat.and_list(&off))),
+                ],
             )
         });
     }
 
     let parts: Vec<String> = job.parts.iter().map(|p| p.name().to_string()).collect();
-    match parts.len() {
-        0 => {}
-        1 => out
-            .done
-            .push(format!("One part was replaced ({}).", parts[0])),
-        n => out
-            .done
-            .push(format!("{n} parts were replaced ({}).", parts.join(", "))),
+    if !parts.is_empty() {
+        out.done.push(cat.format(
+            "summary-parts",
+            &[
+                ("count", Arg::from(parts.len())),
+                ("parts", Arg::from(parts.join(", "))),
+            ],
+        ));
     }
-    match job.mods.len() {
-        0 => {}
-        1 => out
-            .done
-            .push("One modification was made (listed below).".to_string()),
-        n => out
-            .done
-            .push(format!("{n} modifications were made (listed below).")),
+    if !job.mods.is_empty() {
+        out.done
+            .push(cat.format("summary-mods", &[("count", Arg::from(job.mods.len()))]));
     }
     if let Some(last) = final_set {
         for l in &findings.line_up {
             if let Some(c) = l.changes.iter().find(|c| c.set == last.label) {
-                out.done.push(format!(
-                    "{} now holds a {} (it held a {}).",
-                    l.position, c.valve_type, l.valve_type
+                out.done.push(cat.format(
+                    "summary-type-change",
+                    &[
+                        ("position", Arg::from(&l.position)),
+                        ("now", Arg::from(&c.valve_type)),
+                        ("was", Arg::from(&l.valve_type)),
+                    ],
                 ));
             }
         }
@@ -333,15 +289,16 @@ pub fn summary(job: &Job, findings: &Findings) -> Summary {
         && let (Some(was), Some(now)) = (plate_range(first), plate_range(last))
         && was != now
     {
-        out.done.push(format!(
-            "The output valves now idle at {now} of their plate rating (they were at {was})."
+        out.done.push(cat.format(
+            "summary-idle-now",
+            &[("now", Arg::from(now)), ("was", Arg::from(was))],
         ));
     }
 
     let safety_failed = findings.safety.iter().any(|s| s.verdict.is_open());
     match final_set {
         Some(set) => {
-            let open = off_in(set, true);
+            let open = off_in(set, true, cat);
             let accepted = set
                 .valves
                 .iter()
@@ -361,51 +318,48 @@ pub fn summary(job: &Job, findings: &Findings) -> Summary {
                 .count();
             out.healthy = open.is_empty() && !safety_failed;
             if open.is_empty() {
-                out.now.push(format!(
-                    "As handed over (\u{201c}{}\u{201d}), every figure is inside its limits{}.",
-                    set.label,
-                    match accepted {
-                        0 => String::new(),
-                        1 =>
-                            ", apart from one the technician has judged and accepted (listed below)"
-                                .to_string(),
-                        n => format!(
-                            ", apart from {n} the technician has judged and accepted (listed below)"
-                        ),
-                    }
+                out.now.push(cat.format(
+                    "summary-now-ok",
+                    &[
+                        ("label", Arg::from(&set.label)),
+                        ("accepted", Arg::from(accepted)),
+                    ],
                 ));
             } else {
-                out.now.push(format!(
-                    "As handed over (\u{201c}{}\u{201d}), still needing attention: {}.",
-                    set.label,
-                    and_list(&open)
+                out.now.push(cat.format(
+                    "summary-now-open",
+                    &[
+                        ("label", Arg::from(&set.label)),
+                        ("troubles", Arg::from(cat.and_list(&open))),
+                    ],
                 ));
             }
         }
-        None => out.now.push("No measurements were recorded.".to_string()),
+        None => out.now.push(cat.text("summary-no-measurements")),
     }
     if findings.safety.is_empty() {
         if job.safety.is_none() {
-            out.now
-                .push("No electrical safety tests were recorded.".to_string());
+            out.now.push(cat.text("summary-no-safety"));
         }
     } else if safety_failed {
         let failed: Vec<String> = findings
             .safety
             .iter()
             .filter(|s| s.verdict.is_open())
-            .map(|s| s.test.replace('_', " "))
+            .map(|s| crate::calc::safety_test_words(s.test, cat))
             .collect();
-        out.now.push(capital(&format!(
-            "the {} test{} did not meet the shop's limit.",
-            and_list(&failed),
-            if failed.len() == 1 { "" } else { "s" }
-        )));
+        out.now.push(cat.format(
+            "summary-safety-failed",
+            &[
+                ("count", Arg::from(failed.len())),
+                ("tests", Arg::from(cat.and_list(&failed))),
+            ],
+        ));
     } else {
-        out.now.push(match findings.safety.len() {
-            1 => "The electrical safety test met the shop's limit.".to_string(),
-            n => format!("All {n} electrical safety tests met the shop's limits."),
-        });
+        out.now.push(cat.format(
+            "summary-safety-ok",
+            &[("count", Arg::from(findings.safety.len()))],
+        ));
     }
     out
 }
@@ -433,7 +387,7 @@ mod tests {
     #[test]
     fn the_summary_takes_its_figures_from_the_findings() {
         let (job, f) = demo("combo-6v6-fixed.kdl");
-        let s = summary(&job, &f);
+        let s = summary(&job, &f, Catalogue::english());
         let found = s.found.join(" ");
         // As found, V3 idles at the figure calc worked out.
         let v3 = &f.sets[0]

@@ -150,7 +150,7 @@ pub fn render(job: &Job, findings: &Findings, style: &TerminalStyle) -> String {
             .unwrap_or_default()
     ));
 
-    let summary = super::summary::summary(job, findings);
+    let summary = super::summary::summary(job, findings, &style.catalogue);
     for line in summary
         .found
         .iter()
@@ -209,7 +209,10 @@ pub fn render(job: &Job, findings: &Findings, style: &TerminalStyle) -> String {
         out.push('\n');
     }
 
-    out.push_str(&render_attention(&attention::attention(findings), style));
+    out.push_str(&render_attention(
+        &attention::attention(findings, &style.catalogue),
+        style,
+    ));
     out
 }
 

@@ -3,6 +3,7 @@
 //! [`Charges::totals`]. Built only into the hand-over's own context, so no
 //! other document (a dealer's listing) can show what the customer paid.
 
+use crate::catalogue::{Arg, Catalogue};
 use rust_decimal::Decimal;
 use serde::Serialize;
 
@@ -56,18 +57,18 @@ fn plain(v: Decimal) -> String {
 
 /// The charges context, or none when the sums do not fit (never for a job
 /// the decoder accepted).
-pub fn charges_context(charges: &Charges) -> Option<ChargesContext> {
+pub fn charges_context(charges: &Charges, cat: &Catalogue) -> Option<ChargesContext> {
     let totals = charges.totals()?;
     let (mut labour, mut parts) = (Vec::new(), Vec::new());
     for (line, amount) in charges.lines.iter().zip(&totals.lines) {
         let (quantity, rate) = match &line.amount {
             LineAmount::Hours { hours, rate } => (
                 Some(format!("{} h", plain(*hours))),
-                Some(format!("{} per hour", money(*rate))),
+                Some(cat.format("doc-per-hour", &[("price", Arg::from(money(*rate)))])),
             ),
             LineAmount::Quantity { quantity, price } => (
                 Some(plain(*quantity)),
-                Some(format!("{} each", money(*price))),
+                Some(cat.format("doc-each", &[("price", Arg::from(money(*price)))])),
             ),
             LineAmount::Fixed { .. } => (None, None),
         };

@@ -669,6 +669,13 @@ pub struct ContextInputs<'a> {
     pub catalogue: &'a Catalogue,
 }
 
+/// A valve's role in words ("output", "rectifier"), from its name in the
+/// findings.
+fn role_words(role: &str, cat: &Catalogue) -> String {
+    cat.try_format(&format!("role-{}", role.replace([' ', '_'], "-")), &[])
+        .unwrap_or_else(|| role.to_string())
+}
+
 /// A date in words in English: "9 November 2026" (see
 /// [`Catalogue::date`] for other languages).
 pub fn date_words(d: NaiveDate) -> String {
@@ -713,14 +720,8 @@ pub(crate) fn volts(v: f64) -> String {
     minus(format_engineering(v, Q::Voltage))
 }
 
-pub(crate) fn yes_no(b: Option<bool>) -> Option<String> {
-    b.map(|b| {
-        if b {
-            "yes".to_string()
-        } else {
-            "no".to_string()
-        }
-    })
+pub(crate) fn yes_no(b: Option<bool>, cat: &Catalogue) -> Option<String> {
+    b.map(|b| cat.text(if b { "doc-yes" } else { "doc-no" }))
 }
 
 pub(crate) fn status(s: Status) -> String {
@@ -893,9 +894,9 @@ pub fn build_context(
             contacts: c.contacts.clone(),
         }),
         mains,
-        summary: summary_context(&crate::report::summary::summary(job, findings)),
+        summary: summary_context(&crate::report::summary::summary(job, findings, cat)),
         glance: glance(findings, cat),
-        attention: attention_context(&attention::attention(findings), cat),
+        attention: attention_context(&attention::attention(findings, cat), cat),
         complaint: job.complaint.as_deref().map(reflow),
         findings: job.findings.as_ref().map(|r| reflow(&r.text)),
         work: job.work.as_ref().map(|r| reflow(&r.text)),
@@ -905,13 +906,21 @@ pub fn build_context(
             .map(|v| LineUpRow {
                 position: v.position.clone(),
                 type_name: v.valve_type.clone(),
-                role: v.role.clone(),
+                role: role_words(&v.role, cat),
                 rated_as: v.rating_name.clone(),
                 channel: v.channel.clone(),
                 changes: v
                     .changes
                     .iter()
-                    .map(|c| format!("{} in \u{201c}{}\u{201d}", c.valve_type, c.set))
+                    .map(|c| {
+                        cat.format(
+                            "doc-type-in-set",
+                            &[
+                                ("type", Arg::from(&c.valve_type)),
+                                ("set", Arg::from(&c.set)),
+                            ],
+                        )
+                    })
                     .collect(),
             })
             .collect(),
@@ -924,7 +933,7 @@ pub fn build_context(
                 was: p.was.as_deref().map(glue_units),
                 now: p.now.as_deref().map(glue_units),
                 reason: p.reason.as_deref().map(|r| glue_units(&reflow(r))),
-                original_kept: yes_no(p.original_kept),
+                original_kept: yes_no(p.original_kept, cat),
             })
             .collect(),
         mods: job
@@ -934,35 +943,35 @@ pub fn build_context(
             .map(|(i, m)| ModRow {
                 what: glue_units(&reflow(&m.what)),
                 why: m.why.as_deref().map(|w| glue_units(&reflow(w))),
-                reversible: yes_no(m.reversible),
-                original_kept: yes_no(m.original_kept),
+                reversible: yes_no(m.reversible, cat),
+                original_kept: yes_no(m.original_kept, cat),
                 // Findings list the mods in job order, one each.
                 figures: findings
                     .mods
                     .get(i)
                     .filter(|f| f.what == m.what)
-                    .map(mod_figures)
+                    .map(|f| mod_figures(f, cat))
                     .unwrap_or_default(),
                 network: findings
                     .mods
                     .get(i)
                     .filter(|f| f.what == m.what)
                     .and_then(|f| f.network.as_ref())
-                    .map(|n| network_view(i, n)),
+                    .map(|n| network_view(i, n, cat)),
             })
             .collect(),
         notes: job.notes.iter().map(|n| reflow(&n.text)).collect(),
         photos: inputs.photos.clone(),
         sets,
         plots: plots(findings, inputs),
-        safety: safety(job, findings),
-        method: method(findings, job, inputs.profile),
+        safety: safety(job, findings, cat),
+        method: method(findings, job, inputs.profile, cat),
         acceptance: acceptance(job, inputs.profile, cat),
         charges: job
             .charges
             .as_ref()
             .filter(|_| inputs.include_charges)
-            .and_then(charges_context),
+            .and_then(|c| charges_context(c, cat)),
         footer: Footer {
             shop: (!inputs.shop.neutral)
                 .then(|| crate::report::plots::label_text(&inputs.shop.name, FOOTER_ID_CHARS)),
@@ -1118,20 +1127,25 @@ fn set_context(
             }
         }
     }
-    let windows = set.valves.iter().filter_map(window_row).collect();
+    let windows = set
+        .valves
+        .iter()
+        .filter_map(|v| window_row(v, cat))
+        .collect();
+    let kind = |key: &str| cat.text(key);
     let resistors = set
         .droppers
         .iter()
-        .map(|r| resistor_row(r, "dropper"))
+        .map(|r| resistor_row(r, &kind("doc-kind-dropper")))
         .chain(
             set.cathode_resistors
                 .iter()
-                .map(|r| resistor_row(r, "cathode resistor")),
+                .map(|r| resistor_row(r, &kind("doc-kind-cathode-resistor"))),
         )
         .chain(
             set.screen_resistors
                 .iter()
-                .map(|r| resistor_row(r, "screen resistor")),
+                .map(|r| resistor_row(r, &kind("doc-kind-screen-resistor"))),
         )
         .collect();
     let mut valves: Vec<ValveRow> = set.valves.iter().map(valve_row).collect();
@@ -1168,7 +1182,16 @@ fn set_context(
         }))
         .filter_map(|(pos, t)| {
             let l = findings.line_up.iter().find(|l| &l.position == pos)?;
-            (&l.valve_type != t).then(|| format!("{pos}: {t} (line-up: {})", l.valve_type))
+            (&l.valve_type != t).then(|| {
+                cat.format(
+                    "doc-type-change",
+                    &[
+                        ("position", Arg::from(pos)),
+                        ("type", Arg::from(t)),
+                        ("line_up", Arg::from(&l.valve_type)),
+                    ],
+                )
+            })
         })
         .fold(Vec::new(), |mut acc: Vec<String>, x| {
             if !acc.contains(&x) {
@@ -1202,25 +1225,27 @@ fn set_context(
             .any(|v| v.plate_current_includes_screen && v.plate_current_ma.is_some()),
         methods: methods
             .into_iter()
-            .map(|(m, positions)| format!("{} ({})", m.words(), positions.join(", ")))
+            .map(|(m, positions)| format!("{} ({})", cat.text(m.key()), positions.join(", ")))
             .collect(),
         windows,
         resistors,
         capacitors: set.filter_capacitors.iter().map(capacitor_row).collect(),
-        rectifier: set.rectifier.as_ref().map(|r| rectifier_row(r, set)),
+        rectifier: set.rectifier.as_ref().map(|r| rectifier_row(r, set, cat)),
         heaters: set.heaters.iter().map(heater_row).collect(),
         suggestions: set
             .cathode_resistor_suggestions
             .iter()
-            .map(|s| bench::suggestion_row(s, findings.settings.cathode_bias_caution_pct))
+            .map(|s| bench::suggestion_row(s, findings.settings.cathode_bias_caution_pct, cat))
             .collect(),
-        bench: bench::bench_context(&set.bench),
+        bench: bench::bench_context(&set.bench, cat),
         not_checked: set
             .not_checked
             .iter()
             .map(|n| NotCheckedRow {
                 reference: n.reference.clone(),
-                kind: n.kind.replace('_', " "),
+                kind: cat
+                    .try_format(&format!("doc-kind-{}", n.kind.replace('_', "-")), &[])
+                    .unwrap_or_else(|| n.kind.replace('_', " ")),
                 place: n.place.clone(),
                 reason: n.reason.clone(),
             })
@@ -1356,7 +1381,7 @@ fn valve_row(v: &ValveFindings) -> ValveRow {
     }
 }
 
-fn window_row(v: &ValveFindings) -> Option<WindowRow> {
+fn window_row(v: &ValveFindings, cat: &Catalogue) -> Option<WindowRow> {
     let w = v.target_window.as_ref()?;
     let range = |a: f64, b: f64, decimals: usize, unit: &str| {
         format!("{}–{} {unit}", fixed(a, decimals), fixed(b, decimals))
@@ -1364,15 +1389,18 @@ fn window_row(v: &ValveFindings) -> Option<WindowRow> {
     let mut readings = Vec::new();
     if let (Some(a), Some(b)) = (w.sense_low_mv, w.sense_high_mv) {
         let across = match (w.sense_resistor_ohms, &w.sense_resistor_reference) {
-            (Some(ohms), Some(reference)) => format!(
-                "across the {} sense resistor {reference}",
-                format_engineering(ohms, Q::Resistance)
+            (Some(ohms), Some(reference)) => cat.format(
+                "doc-across-sense-named",
+                &[
+                    ("ohms", Arg::from(format_engineering(ohms, Q::Resistance))),
+                    ("reference", Arg::from(reference)),
+                ],
             ),
-            (Some(ohms), None) => format!(
-                "across the {} sense resistor",
-                format_engineering(ohms, Q::Resistance)
+            (Some(ohms), None) => cat.format(
+                "doc-across-sense-value",
+                &[("ohms", Arg::from(format_engineering(ohms, Q::Resistance)))],
             ),
-            _ => "across the sense resistor".to_string(),
+            _ => cat.text("doc-across-sense"),
         };
         readings.push(WindowReading {
             range: range(a, b, 1, "mV"),
@@ -1385,15 +1413,18 @@ fn window_row(v: &ValveFindings) -> Option<WindowRow> {
             Some(ohms) => {
                 let value = format_engineering(ohms, Q::Resistance);
                 if w.half_primary_shared_with.is_empty() {
-                    format!("across its half primary ({value})")
+                    cat.format("doc-across-primary-value", &[("ohms", Arg::from(value))])
                 } else {
-                    format!(
-                        "across its half primary ({value}, shared with {})",
-                        w.half_primary_shared_with.join(", ")
+                    cat.format(
+                        "doc-across-primary-shared",
+                        &[
+                            ("ohms", Arg::from(value)),
+                            ("others", Arg::from(w.half_primary_shared_with.join(", "))),
+                        ],
                     )
                 }
             }
-            None => "across its half primary".to_string(),
+            None => cat.text("doc-across-primary"),
         };
         readings.push(WindowReading {
             range: range(a, b, 2, "V"),
@@ -1409,7 +1440,7 @@ fn window_row(v: &ValveFindings) -> Option<WindowRow> {
         let now = v.cathode_current_ma.map(|i| format!("{} mA", fixed(i, 1)));
         readings.push(WindowReading {
             range: range(a, b, 1, "mA"),
-            across: "cathode current on a bias probe".into(),
+            across: cat.text("doc-across-probe"),
             now,
         });
     }
@@ -1419,7 +1450,9 @@ fn window_row(v: &ValveFindings) -> Option<WindowRow> {
         plate_current: range(w.plate_current_low_ma, w.plate_current_high_ma, 1, "mA"),
         plate_current_now: v.plate_current_ma.map(|i| format!("{} mA", fixed(i, 1))),
         readings,
-        place: w.place.to_string(),
+        place: cat
+            .try_format(&format!("doc-window-{}", w.place), &[])
+            .unwrap_or_else(|| w.place.to_string()),
         grid_middle: w.grid_for_middle_volts.map(volts),
         grid_now: v.grid_volts.map(volts),
     })
@@ -1460,7 +1493,7 @@ fn capacitor_row(c: &CapacitorFindings) -> CapacitorRow {
     }
 }
 
-fn rectifier_row(r: &RectifierFindings, set: &SetFindings) -> RectifierRow {
+fn rectifier_row(r: &RectifierFindings, set: &SetFindings, cat: &Catalogue) -> RectifierRow {
     let outputs: Vec<&str> = set
         .valves
         .iter()
@@ -1471,9 +1504,12 @@ fn rectifier_row(r: &RectifierFindings, set: &SetFindings) -> RectifierRow {
         position: r.position.clone(),
         type_name: r.valve_type.clone(),
         counted: if outputs.is_empty() {
-            "the output valves' cathode currents".to_string()
+            cat.text("doc-counted-outputs")
         } else {
-            format!("cathode currents of {}", outputs.join(", "))
+            cat.format(
+                "doc-counted-of",
+                &[("valves", Arg::from(outputs.join(", ")))],
+            )
         },
         load: format!("{} mA", fixed(r.load_at_least_ma, 1)),
         rating: format!("{} mA", format_sig(r.rating_ma, 3)),
@@ -1486,18 +1522,15 @@ fn rectifier_row(r: &RectifierFindings, set: &SetFindings) -> RectifierRow {
 }
 
 /// The figures of one modification, formatted.
-fn mod_figures(m: &ModFindings) -> Vec<ModFigureRow> {
-    m.figures.iter().map(mod_figure_row).collect()
+fn mod_figures(m: &ModFindings, cat: &Catalogue) -> Vec<ModFigureRow> {
+    m.figures.iter().map(|f| mod_figure_row(f, cat)).collect()
 }
 
-fn mod_figure_row(f: &ModFigureFindings) -> ModFigureRow {
-    let kind = match f.kind {
-        "rc_corner" => "RC corner",
-        "cathode_bypass" => "cathode-bypass corner",
-        "stage_gain" => "stage gain",
-        "phase_shift" => "phase-shift oscillator",
-        other => other,
-    };
+fn mod_figure_row(f: &ModFigureFindings, cat: &Catalogue) -> ModFigureRow {
+    let kind = cat
+        .try_format(&format!("doc-figure-{}", f.kind.replace('_', "-")), &[])
+        .unwrap_or_else(|| f.kind.to_string());
+    let kind = kind.as_str();
     let value = match (f.frequency_hz, f.gain) {
         (Some(hz), _) => Some(minus(format_engineering(hz, Q::Frequency))),
         (None, Some(gain)) => Some(fixed(gain, 0)),
@@ -1545,15 +1578,17 @@ fn plots(findings: &Findings, inputs: &ContextInputs<'_>) -> Plots {
     let guide = if kinds.is_empty() {
         None
     } else if kinds.iter().all(|k| *k == "fixed") {
-        Some(format!(
-            "The grey band is the fixed-bias aim of {}–{} % of the rating.",
-            pct0(s.fixed_bias_low_pct),
-            pct0(s.fixed_bias_high_pct)
+        Some(inputs.catalogue.format(
+            "doc-chart-band-fixed",
+            &[
+                ("low", Arg::from(pct0(s.fixed_bias_low_pct))),
+                ("high", Arg::from(pct0(s.fixed_bias_high_pct))),
+            ],
         ))
     } else if kinds.iter().all(|k| *k == "cathode") {
-        Some(format!(
-            "The dashed line is the cathode-bias caution level of {} % of the rating.",
-            pct0(s.cathode_bias_caution_pct)
+        Some(inputs.catalogue.format(
+            "doc-chart-band-cathode",
+            &[("caution", Arg::from(pct0(s.cathode_bias_caution_pct)))],
         ))
     } else {
         None
@@ -1571,32 +1606,27 @@ fn plots(findings: &Findings, inputs: &ContextInputs<'_>) -> Plots {
     }
 }
 
-pub(crate) fn safety(job: &Job, findings: &Findings) -> SafetyContext {
+pub(crate) fn safety(job: &Job, findings: &Findings, cat: &Catalogue) -> SafetyContext {
     SafetyContext {
         recorded: job.safety.is_some(),
         class: job.safety.as_ref().map(|s| match s.class {
-            ProtectionClass::One => "Class I (protectively earthed)".to_string(),
-            ProtectionClass::Two => "Class II (double insulated)".to_string(),
+            ProtectionClass::One => cat.text("doc-class-one"),
+            ProtectionClass::Two => cat.text("doc-class-two"),
         }),
         tests: findings
             .safety
             .iter()
             .map(|t| SafetyRow {
-                test: match t.test {
-                    "earth_continuity" => "Protective-earth continuity".to_string(),
-                    "insulation" => "Insulation resistance".to_string(),
-                    "leakage" => "Leakage (touch) current".to_string(),
-                    other => sentence(&other.replace('_', " "))
-                        .trim_end_matches('.')
-                        .to_string(),
-                },
+                test: cat
+                    .try_format(&format!("doc-test-{}", t.test.replace('_', "-")), &[])
+                    .unwrap_or_else(|| {
+                        sentence(&t.test.replace('_', " "))
+                            .trim_end_matches('.')
+                            .to_string()
+                    }),
                 measured: glue_units(&t.measured),
                 limit: glue_units(&t.limit),
-                result: if t.passed {
-                    "pass".into()
-                } else {
-                    "fail".into()
-                },
+                result: cat.text(if t.passed { "doc-pass" } else { "doc-fail" }),
                 status: attention::state(&t.verdict).to_string(),
             })
             .collect(),
@@ -1605,7 +1635,7 @@ pub(crate) fn safety(job: &Job, findings: &Findings) -> SafetyContext {
 
 /// Which bands the shop profile and the job set, in words, or none when
 /// every band is the built-in default.
-fn bands_from(job: &Job, profile: Option<&ShopProfile>) -> Option<String> {
+fn bands_from(job: &Job, profile: Option<&ShopProfile>, cat: &Catalogue) -> Option<String> {
     let words = |names: &[String]| {
         names
             .iter()
@@ -1624,21 +1654,29 @@ fn bands_from(job: &Job, profile: Option<&ShopProfile>) -> Option<String> {
         .unwrap_or_default();
     let mut parts = Vec::new();
     if !from_shop.is_empty() {
-        parts.push(format!("set by the shop's profile: {}", words(&from_shop)));
+        parts.push(cat.format("doc-bands-shop", &[("names", Arg::from(words(&from_shop)))]));
     }
     if !job.settings_given.is_empty() {
-        parts.push(format!("set for this job: {}", words(&job.settings_given)));
+        parts.push(cat.format(
+            "doc-bands-job",
+            &[("names", Arg::from(words(&job.settings_given)))],
+        ));
     }
     if parts.is_empty() {
         return None;
     }
-    Some(sentence(&format!(
-        "{}; the others are the built-in defaults",
-        parts.join("; ")
+    Some(sentence(&cat.format(
+        "doc-bands-defaults",
+        &[("sets", Arg::from(parts.join("; ")))],
     )))
 }
 
-fn method(findings: &Findings, job: &Job, profile: Option<&ShopProfile>) -> Method {
+fn method(
+    findings: &Findings,
+    job: &Job,
+    profile: Option<&ShopProfile>,
+    cat: &Catalogue,
+) -> Method {
     let s = &findings.settings;
     let valves = || findings.sets.iter().flat_map(|set| set.valves.iter());
     // μg1g2 is listed where a bias estimate used it.
@@ -1668,17 +1706,26 @@ fn method(findings: &Findings, job: &Job, profile: Option<&ShopProfile>) -> Meth
             RatingRow {
                 name: r.name.clone(),
                 equivalents: r.equivalents.clone(),
-                class: r.class.clone(),
+                class: cat
+                    .try_format(
+                        &format!("doc-valve-class-{}", r.class.replace(' ', "-")),
+                        &[],
+                    )
+                    .unwrap_or_else(|| r.class.clone()),
                 positions: r.positions.clone(),
                 limits: (!limits.is_empty()).then(|| limits.join(", ")),
                 source: r.source.clone(),
-                origin: r.origin.clone(),
+                origin: if r.origin == "built in" {
+                    cat.text("doc-built-in")
+                } else {
+                    r.origin.clone()
+                },
             }
         })
         .collect();
     ratings.sort_by(|a, b| a.name.cmp(&b.name));
     Method {
-        bands_from: bands_from(job, profile),
+        bands_from: bands_from(job, profile, cat),
         nominal: volts(findings.mains.nominal_volts),
         tolerance: format!("+{} %", format_sig(findings.mains.tolerance_pct, 3)),
         high_line: volts(findings.mains.high_line_volts),

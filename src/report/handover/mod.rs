@@ -268,7 +268,7 @@ pub fn build(
 ) -> Result<Document, HandoverError> {
     let mut sandbox = Sandbox::new();
     let mut dissipation_charts = Vec::new();
-    if let Some(chart) = plots::dissipation_chart(input.findings) {
+    if let Some(chart) = plots::dissipation_chart(input.findings, input.catalogue) {
         for (i, part) in plots::split_dissipation(&chart).into_iter().enumerate() {
             let path = chart_part_path(DISSIPATION_PLOT, i);
             sandbox.insert(&path, plots::dissipation_svg(&part.chart)?)?;
@@ -279,7 +279,7 @@ pub fn build(
         }
     }
     let mut supply_charts = Vec::new();
-    if let Some(chart) = plots::supply_chart(input.findings) {
+    if let Some(chart) = plots::supply_chart(input.findings, input.catalogue) {
         for (i, part) in plots::split_supply(&chart).into_iter().enumerate() {
             let path = chart_part_path(SUPPLY_PLOT, i);
             sandbox.insert(&path, plots::supply_svg(&part.chart)?)?;
@@ -290,7 +290,7 @@ pub fn build(
         }
     }
     let mut response_charts = Vec::new();
-    if let Some(chart) = response_chart::response_chart(input.findings) {
+    if let Some(chart) = response_chart::response_chart(input.findings, input.catalogue) {
         for (i, part) in response_chart::split_response(&chart)
             .into_iter()
             .enumerate()
@@ -304,7 +304,11 @@ pub fn build(
         }
     }
     for (i, m) in input.findings.mods.iter().enumerate() {
-        if let Some(chart) = m.network.as_ref().and_then(network_chart::response_chart) {
+        if let Some(chart) = m
+            .network
+            .as_ref()
+            .and_then(|n| network_chart::response_chart(n, input.catalogue))
+        {
             sandbox.insert(
                 context::network_plot_path(i),
                 network_chart::response_svg(&chart)?,
@@ -313,7 +317,7 @@ pub fn build(
     }
     let mut warm_up_plots = Vec::new();
     for (i, set) in input.findings.sets.iter().enumerate() {
-        if let Some(chart) = plots::warm_up_chart(set) {
+        if let Some(chart) = plots::warm_up_chart(set, input.catalogue) {
             sandbox.insert(warm_up_plot(i), plots::warm_up_svg(&chart)?)?;
             warm_up_plots.push(i);
         }

@@ -17,13 +17,14 @@ use crate::calc::{FamilyStatus, Findings, Status};
 use crate::job::Job;
 use crate::report::attention;
 use crate::report::handover::{
-    DocumentInfo, SafetyContext, ShopBlock, date_words, glue_units, paper, pct0, reflow,
-    safety_context, volts, yes_no,
+    DocumentInfo, SafetyContext, ShopBlock, glue_units, paper, pct0, reflow, safety_context, volts,
+    yes_no,
 };
 use crate::report::photos::PhotoRow;
 use crate::shop::ShopProfile;
 
-use super::words::{self, WORDS, Words, and_list};
+use super::words::{self, Words};
+use crate::catalogue::Catalogue;
 
 /// How the unit's serial number is shown.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Default, Serialize)]
@@ -221,11 +222,13 @@ pub struct ListingInputs<'a> {
     pub revision: Option<&'a crate::git::Revision>,
     /// The photos marked for the listing.
     pub photos: Vec<PhotoRow>,
+    /// The listing's words, in the shop's language.
+    pub catalogue: &'a Catalogue,
 }
 
 /// A family's row: its state as calc left it, and words that never carry
 /// the technician's reasons for accepting.
-fn family_row(f: &FamilyStatus) -> FamilyRow {
+fn family_row(f: &FamilyStatus, cat: &Catalogue) -> FamilyRow {
     let accepted: Vec<String> = f
         .accepted
         .iter()
@@ -235,16 +238,16 @@ fn family_row(f: &FamilyStatus) -> FamilyRow {
         })
         .collect();
     let (state, words) = if f.status != Status::Ok {
-        (f.status.word().to_string(), f.worst.clone())
+        (words::state(f.status.word(), cat), f.worst.clone())
     } else if !accepted.is_empty() {
         (
-            words::STATE_ACCEPTED.to_string(),
-            words::accepted_only(&and_list(&accepted)),
+            words::state("accepted", cat),
+            words::accepted_only(&cat.and_list(&accepted), cat),
         )
     } else if f.measured {
-        (words::STATE_OK.to_string(), f.worst.clone())
+        (words::state("ok", cat), f.worst.clone())
     } else {
-        (words::STATE_NOT_MEASURED.to_string(), f.worst.clone())
+        (words::state("not-measured", cat), f.worst.clone())
     };
     FamilyRow {
         title: f.title.to_string(),
@@ -253,9 +256,13 @@ fn family_row(f: &FamilyStatus) -> FamilyRow {
     }
 }
 
-fn health(job: &Job, findings: &Findings) -> Health {
+fn health(job: &Job, findings: &Findings, cat: &Catalogue) -> Health {
     let final_set = findings.sets.iter().find(|s| s.is_final);
-    let families: Vec<FamilyRow> = findings.at_a_glance.iter().map(family_row).collect();
+    let families: Vec<FamilyRow> = findings
+        .at_a_glance
+        .iter()
+        .map(|f| family_row(f, cat))
+        .collect();
     let open: Vec<&FamilyStatus> = findings
         .at_a_glance
         .iter()
@@ -264,23 +271,23 @@ fn health(job: &Job, findings: &Findings) -> Health {
     let accepted: usize = findings.at_a_glance.iter().map(|f| f.accepted.len()).sum();
     let healthy = final_set.is_some() && open.is_empty();
     let headline = match final_set {
-        None => words::NO_MEASUREMENTS.to_string(),
-        Some(_) if open.is_empty() => words::all_inside(accepted),
+        None => cat.text("listing-no-measurements"),
+        Some(_) if open.is_empty() => words::all_inside(accepted, cat),
         Some(_) => {
             let titles: Vec<String> = open.iter().map(|f| f.title.to_lowercase()).collect();
-            words::needs_attention(&and_list(&titles))
+            words::needs_attention(&cat.and_list(&titles), cat)
         }
     };
     let basis = final_set.map(|set| {
-        let mut said = words::readings(&set.label);
+        let mut said = words::readings(&set.label, cat);
         if let Some(d) = set
             .date
             .as_deref()
             .and_then(|d| chrono::NaiveDate::parse_from_str(d, "%Y-%m-%d").ok())
         {
-            said.push_str(&format!(", {}", date_words(d)));
+            said.push_str(&format!(", {}", cat.date(d)));
         }
-        said.push_str(&words::at_mains(&volts(set.mains_volts)));
+        said.push_str(&words::at_mains(&volts(set.mains_volts), cat));
         glue_units(&said)
     });
     let valves = final_set
@@ -294,10 +301,12 @@ fn health(job: &Job, findings: &Findings) -> Health {
                         None => v.position.clone(),
                     },
                     type_name: v.valve_type.clone(),
-                    bias: v.bias.clone(),
+                    bias: cat
+                        .try_format(&format!("listing-bias-{}", v.bias), &[])
+                        .unwrap_or_else(|| v.bias.clone()),
                     idle_pct: v.plate_dissipation_pct.map(pct0),
                     high_line_pct: v.high_line_plate_dissipation_pct.map(pct0),
-                    state: attention::valve_state(v).to_string(),
+                    state: words::state(attention::valve_state(v), cat),
                 })
                 .collect()
         })
@@ -308,33 +317,33 @@ fn health(job: &Job, findings: &Findings) -> Health {
         basis,
         families,
         valves,
-        safety: safety_context(job, findings),
+        safety: safety_context(job, findings, cat),
         safety_date: job
             .safety
             .as_ref()
             .and(job.info.completed.or(job.info.received))
-            .map(date_words),
+            .map(|d| cat.date(d)),
     }
 }
 
-fn ledger(job: &Job) -> Ledger {
+fn ledger(job: &Job, cat: &Catalogue) -> Ledger {
     let mut rows: Vec<LedgerRow> = job
         .parts
         .iter()
         .map(|p| LedgerRow {
             item: part_words(p),
-            change: words::CHANGE_REPLACED.into(),
+            change: words::change(false, cat),
             reversible: None,
-            original_kept: yes_no(p.original_kept),
+            original_kept: yes_no(p.original_kept, cat),
             why: None,
         })
         .collect();
     rows.extend(job.mods.iter().map(|m| {
         LedgerRow {
             item: glue_units(&reflow(&m.what)),
-            change: words::CHANGE_MODIFIED.into(),
-            reversible: yes_no(m.reversible),
-            original_kept: yes_no(m.original_kept),
+            change: words::change(true, cat),
+            reversible: yes_no(m.reversible, cat),
+            original_kept: yes_no(m.original_kept, cat),
             why: m
                 .why
                 .as_deref()
@@ -348,8 +357,8 @@ fn ledger(job: &Job) -> Ledger {
         .filter(|m| m.reversible == Some(true))
         .count();
     let mut said = vec![
-        words::parts_replaced(job.parts.len()),
-        words::modifications(job.mods.len(), reversible),
+        words::parts_replaced(job.parts.len(), cat),
+        words::modifications(job.mods.len(), reversible, cat),
     ];
     let kept: Vec<String> = job
         .parts
@@ -364,7 +373,7 @@ fn ledger(job: &Job) -> Ledger {
         )
         .collect();
     if !kept.is_empty() {
-        said.push(words::originals_kept(&kept.join("; ")));
+        said.push(words::originals_kept(&kept.join("; "), cat));
     }
     let mut summary = said.join("; ");
     if let Some(first) = summary.get(..1) {
@@ -403,15 +412,14 @@ pub fn build_context(job: &Job, findings: &Findings, inputs: &ListingInputs<'_>)
         mains.push_str(&format!(" {} Hz", crate::units::format_sig(f, 3)));
     }
     ListingContext {
-        words: WORDS,
+        words: Words::new(inputs.catalogue),
         document: DocumentInfo {
-            title: words::title(&name),
+            title: words::title(&name, inputs.catalogue),
             author: inputs.shop.name.clone(),
             authors,
-            description: words::description(&name),
+            description: words::description(&name, inputs.catalogue),
             paper: paper(inputs.profile, job).typst_name().to_string(),
-            // The listing's own words are English (`words.rs`).
-            lang: "en".to_string(),
+            lang: inputs.catalogue.language().to_string(),
         },
         shop: inputs.shop.clone(),
         unit: ListingUnit {
@@ -422,10 +430,14 @@ pub fn build_context(job: &Job, findings: &Findings, inputs: &ListingInputs<'_>)
             description: unit.description.as_deref().map(reflow),
             condition: unit.condition.as_deref().map(reflow),
         },
-        date: job.info.completed.or(job.info.received).map(date_words),
+        date: job
+            .info
+            .completed
+            .or(job.info.received)
+            .map(|d| inputs.catalogue.date(d)),
         job_id: job.info.id.clone(),
         mains: glue_units(&mains),
-        health: health(job, findings),
+        health: health(job, findings, inputs.catalogue),
         serviced: job
             .parts
             .iter()
@@ -450,7 +462,7 @@ pub fn build_context(job: &Job, findings: &Findings, inputs: &ListingInputs<'_>)
             .as_ref()
             .filter(|r| !r.private)
             .map(|r| glue_units(&reflow(&r.text))),
-        ledger: ledger(job),
+        ledger: ledger(job, inputs.catalogue),
         notes: job
             .notes
             .iter()

@@ -97,36 +97,44 @@ pub fn render(ctx: &ListingContext, photos: &[PhotoFile], n: &Notice) -> String 
     md.push(format!("# {title}"));
     md.push(String::new());
     let w = &ctx.words;
-    let mut by = vec![format!("{} {}", w.serviced_by, inline(&ctx.shop.name))];
+    let mut by = vec![format!(
+        "{} {}",
+        w.serviced_by.as_str(),
+        inline(&ctx.shop.name)
+    )];
     if let Some(d) = &ctx.date {
         by.push(inline(d));
     }
-    by.push(format!("{} {}", w.service_record, inline(&ctx.job_id)));
+    by.push(format!(
+        "{} {}",
+        w.service_record.as_str(),
+        inline(&ctx.job_id)
+    ));
     md.push(by.join(" · "));
     md.push(String::new());
 
-    md.push(format!("## {}", w.the_unit));
+    md.push(format!("## {}", w.the_unit.as_str()));
     md.push(String::new());
     let field = |label: &str, value: &str| format!("- **{label}:** {}", inline(value));
-    md.push(field(w.make, &u.make));
-    md.push(field(w.model, &u.model));
+    md.push(field(w.make.as_str(), &u.make));
+    md.push(field(w.model.as_str(), &u.model));
     if let Some(y) = &u.year {
-        md.push(field(w.year, y));
+        md.push(field(w.year.as_str(), y));
     }
     if let Some(s) = &u.serial {
-        md.push(field(w.serial, s));
+        md.push(field(w.serial.as_str(), s));
     }
-    md.push(field(w.mains, &ctx.mains));
+    md.push(field(w.mains.as_str(), &ctx.mains));
     if let Some(d) = &u.description {
-        md.push(field(w.description, d));
+        md.push(field(w.description.as_str(), d));
     }
     if let Some(c) = &u.condition {
-        md.push(field(w.condition, c));
+        md.push(field(w.condition.as_str(), c));
     }
     md.push(String::new());
 
     let h = &ctx.health;
-    md.push(format!("## {}", w.health));
+    md.push(format!("## {}", w.health.as_str()));
     md.push(String::new());
     md.push(inline(&h.headline));
     if let Some(b) = &h.basis {
@@ -134,7 +142,11 @@ pub fn render(ctx: &ListingContext, photos: &[PhotoFile], n: &Notice) -> String 
         md.push(format!("*{}.*", inline(b)));
     }
     md.push(String::new());
-    md.push(row(&[w.check.into(), w.state.into(), w.in_words.into()]));
+    md.push(row(&[
+        w.check.as_str().into(),
+        w.state.as_str().into(),
+        w.in_words.as_str().into(),
+    ]));
     md.push("| --- | --- | --- |".into());
     for f in &h.families {
         md.push(row(&[inline(&f.title), inline(&f.state), inline(&f.words)]));
@@ -142,12 +154,12 @@ pub fn render(ctx: &ListingContext, photos: &[PhotoFile], n: &Notice) -> String 
     md.push(String::new());
     if !h.valves.is_empty() {
         md.push(row(&[
-            w.output_valve.into(),
-            w.valve_type.into(),
-            w.bias.into(),
-            w.idle.into(),
-            w.high_line.into(),
-            w.state.into(),
+            w.output_valve.as_str().into(),
+            w.valve_type.as_str().into(),
+            w.bias.as_str().into(),
+            w.idle.as_str().into(),
+            w.high_line.as_str().into(),
+            w.state.as_str().into(),
         ]));
         md.push("| --- | --- | --- | ---: | ---: | --- |".into());
         for v in &h.valves {
@@ -169,9 +181,9 @@ pub fn render(ctx: &ListingContext, photos: &[PhotoFile], n: &Notice) -> String 
         md.push(String::new());
     }
     if h.safety.tests.is_empty() {
-        md.push(w.no_safety_tests.into());
+        md.push(w.no_safety_tests.as_str().into());
     } else {
-        let mut head = w.safety_tests.to_string();
+        let mut head = w.safety_tests.as_str().to_string();
         if let Some(c) = &h.safety.class {
             head.push_str(&format!(", {}", inline(c)));
         }
@@ -185,7 +197,7 @@ pub fn render(ctx: &ListingContext, photos: &[PhotoFile], n: &Notice) -> String 
                 "- {}: {} ({} {}), {}",
                 inline(&t.test),
                 inline(&t.measured),
-                w.limit,
+                w.limit.as_str(),
                 inline(&t.limit),
                 inline(if t.status == "accepted" {
                     "accepted"
@@ -197,16 +209,16 @@ pub fn render(ctx: &ListingContext, photos: &[PhotoFile], n: &Notice) -> String 
     }
     md.push(String::new());
 
-    md.push(format!("## {}", w.serviced));
+    md.push(format!("## {}", w.serviced.as_str()));
     md.push(String::new());
     if ctx.serviced.is_empty() {
-        md.push(w.no_parts.into());
+        md.push(w.no_parts.as_str().into());
     } else {
         md.push(row(&[
-            w.part.into(),
-            w.was.into(),
-            w.now.into(),
-            w.why.into(),
+            w.part.as_str().into(),
+            w.was.as_str().into(),
+            w.now.as_str().into(),
+            w.why.as_str().into(),
         ]));
         md.push("| --- | --- | --- | --- |".into());
         for s in &ctx.serviced {
@@ -218,7 +230,10 @@ pub fn render(ctx: &ListingContext, photos: &[PhotoFile], n: &Notice) -> String 
             ]));
         }
     }
-    for (label, text) in [(w.findings, &ctx.findings), (w.work, &ctx.work)] {
+    for (label, text) in [
+        (w.findings.as_str(), &ctx.findings),
+        (w.work.as_str(), &ctx.work),
+    ] {
         if let Some(t) = text {
             md.push(String::new());
             md.push(format!("**{label}:** {}", paragraphs(t)));
@@ -226,14 +241,14 @@ pub fn render(ctx: &ListingContext, photos: &[PhotoFile], n: &Notice) -> String 
     }
     md.push(String::new());
 
-    md.push(format!("## {}", w.originality));
+    md.push(format!("## {}", w.originality.as_str()));
     md.push(String::new());
     if !ctx.ledger.rows.is_empty() {
         md.push(row(&[
-            w.item.into(),
-            w.change.into(),
-            w.reversible.into(),
-            w.original_kept.into(),
+            w.item.as_str().into(),
+            w.change.as_str().into(),
+            w.reversible.as_str().into(),
+            w.original_kept.as_str().into(),
         ]));
         md.push("| --- | --- | --- | --- |".into());
         for r in &ctx.ledger.rows {
@@ -252,11 +267,11 @@ pub fn render(ctx: &ListingContext, photos: &[PhotoFile], n: &Notice) -> String 
     }
     md.push(inline(&ctx.ledger.summary));
     md.push(String::new());
-    md.push(inline(w.not_listed));
+    md.push(inline(w.not_listed.as_str()));
     md.push(String::new());
 
     if !ctx.notes.is_empty() {
-        md.push(format!("## {}", w.notes));
+        md.push(format!("## {}", w.notes.as_str()));
         md.push(String::new());
         for n in &ctx.notes {
             md.push(format!("- {}", inline(n)));
@@ -265,7 +280,7 @@ pub fn render(ctx: &ListingContext, photos: &[PhotoFile], n: &Notice) -> String 
     }
 
     if !photos.is_empty() {
-        md.push(format!("## {}", w.photos));
+        md.push(format!("## {}", w.photos.as_str()));
         md.push(String::new());
         for p in photos {
             let caption = p.caption.as_deref().map(inline).unwrap_or_default();
@@ -297,14 +312,18 @@ pub fn render(ctx: &ListingContext, photos: &[PhotoFile], n: &Notice) -> String 
     md.push(String::new());
     let mut tail = format!(
         "{} {} · {} {}",
-        w.made_with,
+        w.made_with.as_str(),
         inline(&ctx.footer.tool_version),
-        w.service_record,
+        w.service_record.as_str(),
         inline(&ctx.job_id)
     );
     match &ctx.footer.commit {
         Some(c) => {
-            tail.push_str(&format!(" · {} `{}`", w.commit, c.replace('`', "")));
+            tail.push_str(&format!(
+                " · {} `{}`",
+                w.commit.as_str(),
+                c.replace('`', "")
+            ));
             if ctx.footer.uncommitted_changes {
                 // A fixed word in the middle of the line: nothing to escape.
                 tail.push_str(&format!(" {}", w.edits));
@@ -312,7 +331,7 @@ pub fn render(ctx: &ListingContext, photos: &[PhotoFile], n: &Notice) -> String 
         }
         None => tail.push_str(&format!(
             " · {} `{}`",
-            w.job_file_sha,
+            w.job_file_sha.as_str(),
             ctx.footer.job_digest.replace('`', "")
         )),
     }

@@ -52,8 +52,8 @@ pub struct ListingInput<'a> {
     pub typst_version: String,
     pub shop: Option<&'a ShopProfile>,
     pub logo: Option<&'a Logo>,
-    /// The shop's message catalogue: the notice's words (the listing's own
-    /// fixed words are in [`words`]).
+    /// The shop's message catalogue: the notice's words and the listing's
+    /// own (see [`words`]).
     pub catalogue: &'a Catalogue,
     pub serial: SerialShown,
     /// Every photo of the job, prepared; the listing takes those marked
@@ -105,6 +105,7 @@ pub fn build(
         job_digest: &digest,
         revision: input.findings.job.git.as_ref(),
         photos: crate::report::photos::photo_rows(listed.iter().copied()),
+        catalogue: input.catalogue,
     };
     let context = build_context(input.job, input.findings, &inputs);
     let source = fill_template(TEMPLATE_NAME, &context, input.catalogue, templates)?;

@@ -10,6 +10,7 @@ use super::{
     legend_margin, marker, to_svg,
 };
 use crate::calc::SetFindings;
+use crate::catalogue::Catalogue;
 
 /// One valve's readings: (minutes, mA).
 #[derive(Debug, Clone, PartialEq)]
@@ -24,11 +25,13 @@ pub struct WarmUpChart {
     pub lines: Vec<WarmUpLine>,
     /// True when some current includes the screen current (Ik).
     pub cathode_current: bool,
+    /// The chart's fixed words, in the document's language.
+    pub words: Catalogue,
 }
 
 /// The chart's data for a set, or `None` when it has no warm-up readings
 /// with a current.
-pub fn warm_up_chart(set: &SetFindings) -> Option<WarmUpChart> {
+pub fn warm_up_chart(set: &SetFindings, cat: &Catalogue) -> Option<WarmUpChart> {
     let mut lines: Vec<WarmUpLine> = Vec::new();
     let mut cathode_current = false;
     for p in &set.warm_up {
@@ -42,9 +45,10 @@ pub fn warm_up_chart(set: &SetFindings) -> Option<WarmUpChart> {
             }),
         }
     }
-    (!lines.is_empty()).then_some(WarmUpChart {
+    (!lines.is_empty()).then(|| WarmUpChart {
         lines,
         cathode_current,
+        words: cat.clone(),
     })
 }
 
@@ -79,17 +83,18 @@ fn draw(chart: &WarmUpChart, svg: &mut String) -> Result<(), String> {
         .y_label_area_size(62)
         .build_cartesian_2d(0f64..right_t, 0f64..top)
         .map_err(|e| e.to_string())?;
-    let y_desc = if chart.cathode_current {
-        "Idle current (Ik), mA"
+    let y_desc = chart.words.text(if chart.cathode_current {
+        "chart-idle-current-ik"
     } else {
-        "Idle current, mA"
-    };
+        "chart-idle-current"
+    });
+    let x_desc = chart.words.text("chart-minutes");
     ctx.configure_mesh()
         .x_labels(8)
         .y_labels(6)
         .x_label_formatter(&|v| format!("{v:.0}"))
         .y_label_formatter(&|v| format!("{v:.0}"))
-        .x_desc("Minutes since power-on")
+        .x_desc(x_desc)
         .y_desc(y_desc)
         .axis_desc_style(font(14))
         .label_style(font(13))
@@ -149,6 +154,7 @@ mod tests {
     #[test]
     fn each_valve_gets_a_line_and_its_legend() {
         let chart = WarmUpChart {
+            words: crate::catalogue::Catalogue::english().clone(),
             lines: vec![
                 WarmUpLine {
                     label: "V3".into(),

@@ -9,6 +9,7 @@ use crate::calc::{
     BenchFindings, CathodeResistorSuggestion, GainFindings, HumNoiseFindings, OutputPowerFindings,
     ResponseFindings,
 };
+use crate::catalogue::{Arg, Catalogue};
 use crate::job::AcReading;
 use crate::units::{QuantityKind as Q, format_engineering, format_sig};
 
@@ -181,11 +182,11 @@ fn signed(v: f64) -> String {
 }
 
 /// The bench tests of a set, or none when it has none.
-pub(super) fn bench_context(b: &BenchFindings) -> Option<BenchContext> {
+pub(super) fn bench_context(b: &BenchFindings, cat: &Catalogue) -> Option<BenchContext> {
     (!b.is_empty()).then(|| BenchContext {
         output_power: b.output_power.iter().map(output_power_row).collect(),
-        hum_noise: b.hum_noise.iter().map(hum_noise_row).collect(),
-        responses: b.responses.iter().map(response_row).collect(),
+        hum_noise: b.hum_noise.iter().map(|h| hum_noise_row(h, cat)).collect(),
+        responses: b.responses.iter().map(|r| response_row(r, cat)).collect(),
         gains: b.gains.iter().map(gain_row).collect(),
     })
 }
@@ -217,10 +218,14 @@ fn output_power_row(p: &OutputPowerFindings) -> OutputPowerRow {
     }
 }
 
-fn hum_noise_row(h: &HumNoiseFindings) -> HumNoiseRow {
+fn hum_noise_row(h: &HumNoiseFindings, cat: &Catalogue) -> HumNoiseRow {
     HumNoiseRow {
         channel: h.channel.clone(),
-        input: h.input.to_string(),
+        input: cat.text(if h.input == "shorted" {
+            "doc-input-shorted"
+        } else {
+            "doc-input-open"
+        }),
         volume: h.volume.clone(),
         load: ohms(h.load_ohms),
         level: minus(format_engineering(h.hum_noise_mv / 1e3, Q::Voltage)),
@@ -229,8 +234,13 @@ fn hum_noise_row(h: &HumNoiseFindings) -> HumNoiseRow {
             .hum_noise_db_below_full
             .map(|db| format!("{} dB", minus(fixed(db, 1)))),
         against: match (h.full_output_from, h.full_output_w) {
-            (Some("rated"), Some(w)) => Some(format!("rated {}", format_engineering(w, Q::Power))),
-            (Some(_), Some(w)) => Some(format!("measured {}", watts(w))),
+            (Some("rated"), Some(w)) => Some(cat.format(
+                "doc-against-rated",
+                &[("watts", Arg::from(format_engineering(w, Q::Power)))],
+            )),
+            (Some(_), Some(w)) => {
+                Some(cat.format("doc-against-measured", &[("watts", Arg::from(watts(w)))]))
+            }
             _ => None,
         },
         status: crate::report::attention::state(&h.verdict).to_string(),
@@ -239,7 +249,7 @@ fn hum_noise_row(h: &HumNoiseFindings) -> HumNoiseRow {
     }
 }
 
-fn response_row(r: &ResponseFindings) -> ResponseRow {
+fn response_row(r: &ResponseFindings, cat: &Catalogue) -> ResponseRow {
     ResponseRow {
         channel: r.channel.clone(),
         reference: hz(r.reference_hz),
@@ -256,11 +266,11 @@ fn response_row(r: &ResponseFindings) -> ResponseRow {
             .collect(),
         low: match r.minus_3db_low_hz {
             Some(f) => hz(f),
-            None => format!("below {}", hz(r.lowest_hz)),
+            None => cat.format("doc-below", &[("frequency", Arg::from(hz(r.lowest_hz)))]),
         },
         high: match r.minus_3db_high_hz {
             Some(f) => hz(f),
-            None => format!("above {}", hz(r.highest_hz)),
+            None => cat.format("doc-above", &[("frequency", Arg::from(hz(r.highest_hz)))]),
         },
     }
 }
@@ -276,7 +286,11 @@ fn gain_row(g: &GainFindings) -> GainRow {
     }
 }
 
-pub(super) fn suggestion_row(s: &CathodeResistorSuggestion, caution_pct: f64) -> SuggestionRow {
+pub(super) fn suggestion_row(
+    s: &CathodeResistorSuggestion,
+    caution_pct: f64,
+    cat: &Catalogue,
+) -> SuggestionRow {
     let pa_max = if s.target_pct > 0.0 {
         s.target_plate_dissipation_w / s.target_pct * 100.0
     } else {
@@ -289,30 +303,39 @@ pub(super) fn suggestion_row(s: &CathodeResistorSuggestion, caution_pct: f64) ->
         calibrated_on: s.calibrated_on.clone(),
         valve_type: s.valve_type.clone(),
         calibrated_words: if s.valves.len() > 1 {
-            format!(
-                "{} ({}), the hottest valve on it,",
-                s.calibrated_on, s.valve_type
+            cat.format(
+                "doc-suggest-hottest",
+                &[
+                    ("valve", Arg::from(&s.calibrated_on)),
+                    ("type", Arg::from(&s.valve_type)),
+                ],
             )
         } else {
             format!("{} ({})", s.calibrated_on, s.valve_type)
         },
         why: match s.why {
-            "asked" => "The job asks for a suggestion in this set.".to_string(),
-            _ => format!(
-                "Shown because the plate dissipation is above the {} % cathode-bias guide.",
-                pct0(caution_pct)
+            "asked" => cat.text("doc-suggest-asked"),
+            _ => cat.format(
+                "doc-suggest-shown",
+                &[("caution", Arg::from(pct0(caution_pct)))],
             ),
         },
         present: ohms(s.present_ohms),
-        present_pa: format!(
-            "{} W, {} % of {max_words}",
-            fixed(s.present_plate_dissipation_w, 1),
-            pct0(s.present_plate_dissipation_pct)
+        present_pa: cat.format(
+            "doc-suggest-present",
+            &[
+                ("watts", Arg::from(fixed(s.present_plate_dissipation_w, 1))),
+                ("pct", Arg::from(pct0(s.present_plate_dissipation_pct))),
+                ("max", Arg::from(&max_words)),
+            ],
         ),
-        target: format!(
-            "{} % of {max_words}, {} W",
-            pct0(s.target_pct),
-            fixed(s.target_plate_dissipation_w, 1)
+        target: cat.format(
+            "doc-suggest-target",
+            &[
+                ("watts", Arg::from(fixed(s.target_plate_dissipation_w, 1))),
+                ("pct", Arg::from(pct0(s.target_pct))),
+                ("max", Arg::from(&max_words)),
+            ],
         ),
         exact: s.exact_ohms.map(|o| ohms(crate::units::round_sig(o, 3))),
         mu: format_sig(s.mu_g1g2, 3),

@@ -3,6 +3,7 @@
 //! and 5 kHz, the corner or mid scoop, the change in dB) and the
 //! phase-shift rates, all formatted here from `calc::network`'s findings.
 
+use crate::catalogue::{Arg, Catalogue};
 use serde::Serialize;
 
 use super::{fixed, glue_units, minus, sentence};
@@ -90,27 +91,31 @@ fn hz(v: f64) -> String {
 }
 
 /// The curve's corner or scoop in words.
-fn feature(c: &CurveFindings) -> String {
+fn feature(c: &CurveFindings, cat: &Catalogue) -> String {
     if let Some(s) = &c.scoop {
-        return format!(
-            "scoop at {}, {} deep",
-            hz(s.frequency_hz),
-            db(s.depth_db).trim_start_matches('−')
+        return cat.format(
+            "doc-network-scoop",
+            &[
+                ("frequency", Arg::from(hz(s.frequency_hz))),
+                (
+                    "depth",
+                    Arg::from(db(s.depth_db).trim_start_matches('−').to_string()),
+                ),
+            ],
         );
     }
     if c.corners.is_empty() {
-        return "flat within 3\u{a0}dB".to_string();
+        return glue_units(&cat.text("doc-network-flat"));
     }
     c.corners
         .iter()
         .map(|k| {
-            format!(
-                "{} {}",
+            cat.format(
                 match k.kind {
-                    CornerKind::LowCut => "low cut",
-                    CornerKind::HighCut => "high cut",
+                    CornerKind::LowCut => "doc-network-low-cut",
+                    CornerKind::HighCut => "doc-network-high-cut",
                 },
-                hz(k.frequency_hz)
+                &[("frequency", Arg::from(hz(k.frequency_hz)))],
             )
         })
         .collect::<Vec<_>>()
@@ -118,7 +123,7 @@ fn feature(c: &CurveFindings) -> String {
 }
 
 /// The view of a mod's network.
-pub fn network_view(index: usize, net: &NetworkFindings) -> NetworkView {
+pub fn network_view(index: usize, net: &NetworkFindings, cat: &Catalogue) -> NetworkView {
     let count = net.curves.iter().map(|c| c.setting).max().unwrap_or(1);
     let many = count > 1;
     let has_after = net.curves.iter().any(|c| c.state == "after");
@@ -144,7 +149,7 @@ pub fn network_view(index: usize, net: &NetworkFindings) -> NetworkView {
                     at_100hz: db(c.gain_100hz_db),
                     at_1khz: db(c.gain_1khz_db),
                     at_5khz: db(c.gain_5khz_db),
-                    feature: feature(c),
+                    feature: feature(c, cat),
                 });
             }
         }
@@ -160,43 +165,61 @@ pub fn network_view(index: usize, net: &NetworkFindings) -> NetworkView {
         }
     }
     let load = match net.load_ohms {
-        Some(r) => format!(
-            "Read at node {}, loaded by {} to ground.",
-            net.load_node,
-            glue_units(&format_engineering(r, Q::Resistance))
+        Some(r) => cat.format(
+            "doc-network-loaded",
+            &[
+                ("node", Arg::from(&net.load_node)),
+                (
+                    "ohms",
+                    Arg::from(glue_units(&format_engineering(r, Q::Resistance))),
+                ),
+            ],
         ),
-        None => format!("Read at node {}, unloaded.", net.load_node),
+        None => cat.format(
+            "doc-network-unloaded",
+            &[("node", Arg::from(&net.load_node))],
+        ),
     };
     let sources = net
         .sources
         .iter()
         .map(|s| {
-            let gain = s
-                .stage_gain
-                .map(|g| {
-                    format!(
-                        " Its own gain, about {}, is left out of the curves.",
-                        fixed(g, 0)
-                    )
-                })
-                .unwrap_or_default();
-            let when = if net.sources.len() > 1 {
-                format!(" ({})", s.state)
+            let state = if net.sources.len() > 1 {
+                cat.text(&format!("doc-row-{}", s.state))
             } else {
                 String::new()
             };
-            glue_units(&format!(
-                "Driven at node {}{when} by {}.{gain}",
-                s.node, s.description
-            ))
+            let driven = cat.format(
+                if state.is_empty() {
+                    "doc-network-driven"
+                } else {
+                    "doc-network-driven-when"
+                },
+                &[
+                    ("node", Arg::from(&s.node)),
+                    ("state", Arg::from(state)),
+                    ("source", Arg::from(&s.description)),
+                ],
+            );
+            match s.stage_gain {
+                Some(g) => glue_units(&format!(
+                    "{driven} {}",
+                    cat.format("doc-network-own-gain", &[("gain", Arg::from(fixed(g, 0)))])
+                )),
+                None => glue_units(&driven),
+            }
         })
         .collect();
-    let oscillator = oscillator_view(net);
+    let oscillator = oscillator_view(net, cat);
     NetworkView {
-        label: sentence(net.label.as_deref().unwrap_or("network"))
-            .trim_end_matches('.')
-            .to_string(),
-        plot: response_chart(net).map(|_| network_plot_path(index)),
+        label: sentence(
+            &net.label
+                .clone()
+                .unwrap_or_else(|| cat.text("doc-network-default-label")),
+        )
+        .trim_end_matches('.')
+        .to_string(),
+        plot: response_chart(net, cat).map(|_| network_plot_path(index)),
         sources,
         load,
         edits: net.edits.iter().map(|e| glue_units(e)).collect(),
@@ -209,13 +232,13 @@ pub fn network_view(index: usize, net: &NetworkFindings) -> NetworkView {
     }
 }
 
-fn oscillator_view(net: &NetworkFindings) -> Option<OscillatorView> {
+fn oscillator_view(net: &NetworkFindings, cat: &Catalogue) -> Option<OscillatorView> {
     let before = net.oscillator.iter().find(|o| o.state == "before")?;
     let after = net.oscillator.iter().find(|o| o.state == "after");
     let rate =
         |p: Option<&crate::calc::network::OscillatorPoint>| match p.and_then(|p| p.frequency_hz) {
             Some(f) => hz(f),
-            None => "never 180°".to_string(),
+            None => cat.text("doc-network-never"),
         };
     let gain =
         |p: Option<&crate::calc::network::OscillatorPoint>| match p.and_then(|p| p.gain_needed) {
@@ -247,8 +270,8 @@ fn oscillator_view(net: &NetworkFindings) -> Option<OscillatorView> {
         .collect();
     Some(OscillatorView {
         column: match &before.speed_pot {
-            Some(p) => format!("{p} setting"),
-            None => "Setting".to_string(),
+            Some(p) => cat.format("doc-network-pot-setting", &[("pot", Arg::from(p))]),
+            None => cat.text("doc-network-setting"),
         },
         has_after: after.is_some(),
         rows,
