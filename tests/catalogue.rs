@@ -4,33 +4,12 @@
 //! with a key missing, a notice part missing or an unknown language is
 //! refused before anything is rendered, naming the key at `file:line`.
 
-use std::path::{Path, PathBuf};
-use std::process::{Command, Output};
+use std::path::Path;
+use std::process::Command;
 
-const BIN: &str = env!("CARGO_BIN_EXE_ampreport");
+mod support;
 
-fn repo() -> PathBuf {
-    PathBuf::from(env!("CARGO_MANIFEST_DIR"))
-}
-
-fn run(dir: &Path, args: &[&str]) -> Output {
-    Command::new(BIN)
-        .current_dir(dir)
-        .args(args)
-        .env("XDG_CONFIG_HOME", dir.join("no-config"))
-        .env(
-            "XDG_CACHE_HOME",
-            Path::new(env!("CARGO_TARGET_TMPDIR")).join("catalogue-cache-home"),
-        )
-        .env_remove("AMPREPORT_TYPST")
-        .env("NO_COLOR", "1")
-        .output()
-        .expect("run ampreport")
-}
-
-fn stderr(o: &Output) -> String {
-    String::from_utf8_lossy(&o.stderr).into_owned()
-}
+use support::{repo, run_in as run, stderr};
 
 /// A folder with the demo job and its photos, the demo shop profile (with
 /// `language` appended) and its logo.

@@ -3,33 +3,11 @@
 //! English run names; the profile's own problems follow the language it
 //! names; without a shop (or with `--no-shop`) everything stays English.
 
-use std::path::{Path, PathBuf};
-use std::process::{Command, Output};
+use std::path::PathBuf;
 
-const BIN: &str = env!("CARGO_BIN_EXE_ampreport");
+mod support;
 
-fn repo() -> PathBuf {
-    PathBuf::from(env!("CARGO_MANIFEST_DIR"))
-}
-
-fn run(dir: &Path, args: &[&str]) -> Output {
-    Command::new(BIN)
-        .current_dir(dir)
-        .args(args)
-        .env("XDG_CONFIG_HOME", dir.join("no-config"))
-        .env(
-            "XDG_CACHE_HOME",
-            Path::new(env!("CARGO_TARGET_TMPDIR")).join("terminal-language-cache"),
-        )
-        .env_remove("AMPREPORT_TYPST")
-        .env("NO_COLOR", "1")
-        .output()
-        .expect("run ampreport")
-}
-
-fn stderr(o: &Output) -> String {
-    String::from_utf8_lossy(&o.stderr).into_owned()
-}
+use support::{repo, run_in as run, stderr};
 
 /// "file:line:column" of `needle` in `text`, worked out here.
 fn at(file: &str, text: &str, needle: &str) -> String {

@@ -167,6 +167,20 @@ pub fn cache_home() -> PathBuf {
     PathBuf::from(env!("CARGO_TARGET_TMPDIR")).join("faults-cache-home")
 }
 
+/// Runs the binary in `dir` as a user with no config folder of their own
+/// would, without colour, with the tests' shared font cache.
+pub fn run_in(dir: &Path, args: &[&str]) -> Output {
+    Command::new(bin())
+        .current_dir(dir)
+        .args(args)
+        .env("XDG_CONFIG_HOME", dir.join("no-config"))
+        .env("XDG_CACHE_HOME", cache_home())
+        .env_remove("AMPREPORT_TYPST")
+        .env("NO_COLOR", "1")
+        .output()
+        .expect("run ampreport")
+}
+
 pub fn listing(dir: &Path) -> BTreeSet<String> {
     std::fs::read_dir(dir)
         .unwrap()
