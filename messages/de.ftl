@@ -1317,3 +1317,77 @@ cli-typst-warned =
     typst warnte:
     { $warnings }
 cli-cannot-record = Warnung: es konnte nicht festgehalten werden, woraus { $path } entstand ({ $error }); der nächste Lauf erstellt es neu
+
+## `ampreport compare` (src/report/compare.rs, src/cli/compare.rs): die
+## Tabelle der geänderten Werte, in der Sprache des Werkstattprofils.
+
+cli-compare-no-such-set = Fehler: { $job } hat keine Messreihe „{ $label }“; vorhanden sind { $known }
+cli-compare-no-such-set-none = Fehler: { $job } hat keine Messreihe „{ $label }“; es gibt keine
+cli-compare-path-from-here = Hinweis: in REV:PFAD liest git den PFAD ab dem obersten Ordner des Repositorys; für die Datei, von diesem Ordner aus benannt, { $spelling } schreiben
+cli-compare-set-name = „{ $label }“
+cli-compare-set-only-in = Messreihe „{ $label }“ nur in { $side }
+cli-compare-nothing-changed = kein Wert hat sich geändert
+cli-compare-changed = { $count ->
+        [one] 1 Wert geändert
+       *[other] { $count } Werte geändert
+    }
+cli-compare-col-set = Messreihe
+cli-compare-col-what = was
+cli-compare-col-figure = Größe
+cli-compare-col-old = alt
+cli-compare-col-new = neu
+cli-compare-col-change = Änderung
+cli-compare-safety = Sicherheit
+cli-compare-mains = Netz
+cli-compare-figure-plate-volts = Anodenspannung
+cli-compare-figure-screen-volts = Schirmgitterspannung
+cli-compare-figure-cathode-volts = Kathodenspannung
+cli-compare-figure-grid-volts = Gitterspannung
+cli-compare-figure-cathode-current-ma = Kathodenstrom
+cli-compare-figure-plate-current-ma = Anodenstrom
+cli-compare-figure-screen-current-ma = Schirmgitterstrom
+cli-compare-figure-plate-dissipation-w = Anodenverlustleistung
+cli-compare-figure-plate-dissipation-pct = Anodenverlustleistung %
+cli-compare-figure-high-line-plate-dissipation-pct = Anodenverlustleistung, obere Grenze %
+cli-compare-figure-screen-dissipation-w = Schirmgitterverlustleistung
+cli-compare-figure-screen-dissipation-pct = Schirmgitterverlustleistung %
+cli-compare-figure-status = Status
+cli-compare-figure-measured-volts = gemessen
+cli-compare-figure-corrected-volts = korrigiert
+cli-compare-figure-deviation-pct = Abweichung %
+cli-compare-figure-high-line-volts = obere Grenze
+cli-compare-figure-voltage-volts = Spannung
+cli-compare-figure-current-ma = Strom
+cli-compare-figure-power-w = Leistung
+cli-compare-figure-power-pct = Leistung %
+cli-compare-figure-high-line-power-pct = Leistung, obere Grenze %
+cli-compare-figure-highest-volts = Höchstwert
+cli-compare-figure-margin-pct = Reserve %
+cli-compare-figure-mains-volts = Netzspannung
+cli-compare-figure-measured-value = gemessen
+
+## `ampreport init` und `ampreport new` (src/cli/init.rs, src/cli/new.rs).
+## `init` liest kein Werkstattprofil und spricht Englisch; `new` spricht
+## die Sprache des Profils, nach dem es den Auftrag nummeriert.
+
+cli-init-wrote = geschrieben: { $path }; { $next }
+cli-init-exists = Fehler: { $path } gibt es schon; ampreport überschreibt nie eine Datei
+cli-init-cannot-write = Fehler: { $path } kann nicht geschrieben werden: { $error }
+cli-init-cannot-make-folder = Fehler: der Ordner { $folder } kann nicht angelegt werden: { $error }
+cli-init-next-job = ausfüllen, dann `ampreport check { $path }` ausführen
+cli-init-next-shop = ausfüllen; Aufträge in seinem Ordner und darunter verwenden es (siehe docs/shop.md)
+cli-init-next-gitattributes = PDFs und Fotos sind für git Binärdateien, Auftragsdateien sind Text
+cli-init-next-gitignore = erstellte Dokumente bleiben aus git heraus; siehe docs/git.md
+cli-new-next = die Messwerte eintragen, dann `ampreport check { $path }` ausführen
+cli-new-fault = Hinweis: die neue Auftragsdatei konnte nicht erstellt werden; das ist ein Fehler in ampreport, bitte melden
+cli-new-started-from =
+    Begonnen mit { $file } (Auftrag { $id }) über `ampreport new --from`: das Gerät, das Netz,
+    die Röhrenbestückung und die Schaltung sind übernommen; Messwerte, Teile, Änderungen,
+    Sicherheitsprüfungen, Notizen, Kunde und Kosten nicht.
+cli-new-readings = Messwerte dieses Auftrags:
+
+## Die Art der Gittervorspannung in der Röhrentabelle des Terminals
+## (src/report/terminal.rs).
+
+term-bias-cathode = automatisch
+term-bias-fixed = fest

@@ -1316,3 +1316,82 @@ cli-typst-warned =
     typst warned:
     { $warnings }
 cli-cannot-record = warning: could not record what { $path } was made from ({ $error }); the next run renders it again
+
+## `ampreport compare` (src/report/compare.rs, src/cli/compare.rs): the
+## table of changed figures, in the language of the job's shop profile
+## (two versions: the language both share, else English). `$known` is a
+## list of set labels, each in quotation marks; `$side` names a version.
+
+cli-compare-no-such-set = error: { $job } has no measurement set “{ $label }”; it has { $known }
+cli-compare-no-such-set-none = error: { $job } has no measurement set “{ $label }”; it has none
+cli-compare-path-from-here = note: in REV:PATH, git reads PATH from the top folder of the repository; for the file named from this folder, write { $spelling }
+cli-compare-set-name = “{ $label }”
+cli-compare-set-only-in = set “{ $label }” only in { $side }
+cli-compare-nothing-changed = no figure changed
+cli-compare-changed = { $count ->
+        [one] 1 figure changed
+       *[other] { $count } figures changed
+    }
+cli-compare-col-set = set
+cli-compare-col-what = what
+cli-compare-col-figure = figure
+cli-compare-col-old = old
+cli-compare-col-new = new
+cli-compare-col-change = change
+cli-compare-safety = safety
+cli-compare-mains = mains
+cli-compare-figure-plate-volts = plate
+cli-compare-figure-screen-volts = screen
+cli-compare-figure-cathode-volts = cathode
+cli-compare-figure-grid-volts = grid
+cli-compare-figure-cathode-current-ma = cathode current
+cli-compare-figure-plate-current-ma = plate current
+cli-compare-figure-screen-current-ma = screen current
+cli-compare-figure-plate-dissipation-w = plate dissipation
+cli-compare-figure-plate-dissipation-pct = plate dissipation %
+cli-compare-figure-high-line-plate-dissipation-pct = high line plate dissipation %
+cli-compare-figure-screen-dissipation-w = screen dissipation
+cli-compare-figure-screen-dissipation-pct = screen dissipation %
+cli-compare-figure-status = status
+cli-compare-figure-measured-volts = measured
+cli-compare-figure-corrected-volts = corrected
+cli-compare-figure-deviation-pct = deviation %
+cli-compare-figure-high-line-volts = high line
+cli-compare-figure-voltage-volts = voltage
+cli-compare-figure-current-ma = current
+cli-compare-figure-power-w = power
+cli-compare-figure-power-pct = power %
+cli-compare-figure-high-line-power-pct = high line power %
+cli-compare-figure-highest-volts = highest
+cli-compare-figure-margin-pct = margin %
+cli-compare-figure-mains-volts = mains
+cli-compare-figure-measured-value = measured
+
+## `ampreport init` and `ampreport new` (src/cli/init.rs, src/cli/new.rs).
+## `init` reads no shop profile and speaks English; `new` speaks the
+## language of the profile it numbers the job by. `$next` is one of the
+## `-next-` messages; `cli-new-started-from` and `cli-new-readings` become
+## comment lines at the top and the end of the new job file, one for each
+## line of the message.
+
+cli-init-wrote = wrote { $path }; { $next }
+cli-init-exists = error: { $path } already exists; ampreport never replaces a file
+cli-init-cannot-write = error: cannot write { $path }: { $error }
+cli-init-cannot-make-folder = error: cannot make the folder { $folder }: { $error }
+cli-init-next-job = fill it in, then run `ampreport check { $path }`
+cli-init-next-shop = fill it in; jobs in its folder and below use it (see docs/shop.md)
+cli-init-next-gitattributes = PDFs and photos are binary to git, job files are text
+cli-init-next-gitignore = rendered documents stay out of git; see docs/git.md
+cli-new-next = fill in the readings, then run `ampreport check { $path }`
+cli-new-fault = note: the new job file could not be made; this is a fault in ampreport, please report it
+cli-new-started-from =
+    Started from { $file } (job { $id }) with `ampreport new --from`: the unit, the mains,
+    the line-up and the circuit are carried over; the readings, parts, mods,
+    safety tests, notes, customer and charges are not.
+cli-new-readings = Readings of this service:
+
+## The terminal summary's words added with the bias column
+## (src/report/terminal.rs): the kind of bias of a valve.
+
+term-bias-cathode = cathode
+term-bias-fixed = fixed
