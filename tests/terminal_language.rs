@@ -301,7 +301,10 @@ fn compare_speaks_the_shop_language() {
     }
     assert!(seen >= 3, "{de}");
     for english_words in ["figures changed", "plate dissipation", "screen"] {
-        assert!(!de.contains(english_words), "{english_words} left in:\n{de}");
+        assert!(
+            !de.contains(english_words),
+            "{english_words} left in:\n{de}"
+        );
     }
 
     // A set that is not there, named with the ones that are, in German.
@@ -351,7 +354,9 @@ fn new_speaks_the_shop_language() {
     );
     let text = std::fs::read_to_string(&made[0]).unwrap();
     assert!(
-        text.starts_with("// Begonnen mit job.kdl (Auftrag D-2611-022) über `ampreport new --from`"),
+        text.starts_with(
+            "// Begonnen mit job.kdl (Auftrag D-2611-022) über `ampreport new --from`"
+        ),
         "{text}"
     );
     assert!(text.contains("// Messwerte dieses Auftrags:\n"), "{text}");
@@ -433,10 +438,16 @@ fn a_typst_failure_is_said_in_the_shop_language() {
         "{err}"
     );
     assert!(
-        says(&err, "das deutet auf das Programm typst oder den Rechner hin"),
+        says(
+            &err,
+            "das deutet auf das Programm typst oder den Rechner hin"
+        ),
         "{err}"
     );
-    assert!(err.contains("ampreport::typeset::typst_misbehaved"), "{err}");
+    assert!(
+        err.contains("ampreport::typeset::typst_misbehaved"),
+        "{err}"
+    );
 
     // The same failure without a language: English, as before.
     let english = demo_folder("combo-el84-cathode.kdl", "");
@@ -479,8 +490,14 @@ fn the_terminal_tables_name_bias_and_safety_tests_in_the_shop_language() {
         let de_bias = column(&de, "Vorspannung");
         let en_bias = column(&en, "bias");
         assert!(!de_bias.is_empty(), "{de}");
-        assert!(de_bias.iter().all(|b| b == german_bias), "{de_bias:?}\n{de}");
-        assert!(en_bias.iter().all(|b| b == english_bias), "{en_bias:?}\n{en}");
+        assert!(
+            de_bias.iter().all(|b| b == german_bias),
+            "{de_bias:?}\n{de}"
+        );
+        assert!(
+            en_bias.iter().all(|b| b == english_bias),
+            "{en_bias:?}\n{en}"
+        );
         assert_eq!(de_bias.len(), en_bias.len());
         // The safety tests by their names in the language.
         assert!(de.contains("Schutzleiter"), "{de}");

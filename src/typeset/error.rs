@@ -228,10 +228,10 @@ impl TypesetError {
             Self::BadSandboxPath { path, reason } => (
                 Msg::new("cli-typst-bad-sandbox-path")
                     .arg("path", path)
-                    .arg("reason", Msg::new(*reason)),
+                    .arg("reason", Msg::new(reason)),
                 Some(Msg::new("cli-typst-bad-sandbox-path-help")),
             ),
-            Self::Io { action, path, .. } => (Msg::new(*action).arg("path", shown(path)), None),
+            Self::Io { action, path, .. } => (Msg::new(action).arg("path", shown(path)), None),
         })
     }
 
