@@ -1380,6 +1380,7 @@ cli-init-next-gitattributes = PDFs und Fotos sind für git Binärdateien, Auftra
 cli-init-next-gitignore = erstellte Dokumente bleiben aus git heraus; siehe docs/git.md
 cli-new-next = die Messwerte eintragen, dann `ampreport check { $path }` ausführen
 cli-new-fault = Hinweis: die neue Auftragsdatei konnte nicht erstellt werden; das ist ein Fehler in ampreport, bitte melden
+cli-new-not-a-folder = Fehler: { $folder } ist kein Ordner
 cli-new-started-from =
     Begonnen mit { $file } (Auftrag { $id }) über `ampreport new --from`: das Gerät, das Netz,
     die Röhrenbestückung und die Schaltung sind übernommen; Messwerte, Teile, Änderungen,
@@ -1520,6 +1521,7 @@ cli-watching = { $count ->
 cli-watch-stopped = Überwachung beendet
 cli-watch-trouble = Warnung: beim Überwachen der Dateien: { $error }
 cli-watcher-stopped = Fehler: die Dateiüberwachung wurde beendet
+cli-watch-folder = { $folder } lässt sich nicht überwachen: { $error }
 cli-shop-beside-job = Hinweis: es gilt das Werkstattprofil { $used } neben dem Auftrag; --shop { $named } gilt nur, wo keines vorhanden ist
 cli-reading-stdin = Hinweis: der Auftrag wird von der Standardeingabe gelesen; mit Strg-D abschließen
 

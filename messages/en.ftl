@@ -1384,6 +1384,7 @@ cli-init-next-gitattributes = PDFs and photos are binary to git, job files are t
 cli-init-next-gitignore = rendered documents stay out of git; see docs/git.md
 cli-new-next = fill in the readings, then run `ampreport check { $path }`
 cli-new-fault = note: the new job file could not be made; this is a fault in ampreport, please report it
+cli-new-not-a-folder = error: { $folder } is not a folder
 cli-new-started-from =
     Started from { $file } (job { $id }) with `ampreport new --from`: the unit, the mains,
     the line-up and the circuit are carried over; the readings, parts, mods,
@@ -1528,6 +1529,7 @@ cli-watching = { $count ->
 cli-watch-stopped = stopped watching
 cli-watch-trouble = warning: watching files: { $error }
 cli-watcher-stopped = error: the file watcher stopped
+cli-watch-folder = cannot watch { $folder }: { $error }
 cli-shop-beside-job = note: using the shop profile { $used } found beside the job; --shop { $named } applies only where there is none
 cli-reading-stdin = note: reading the job from standard input; end it with Ctrl-D
 

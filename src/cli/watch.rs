@@ -304,9 +304,13 @@ fn watch_folders(
         if watched.contains(&key) {
             continue;
         }
-        watcher
-            .watch(dir, *mode)
-            .map_err(|e| format!("cannot watch {}: {e}", dir.display()))?;
+        watcher.watch(dir, *mode).map_err(|e| {
+            ui::english(
+                &Msg::new("cli-watch-folder")
+                    .arg("folder", dir.display().to_string())
+                    .arg("error", e.to_string()),
+            )
+        })?;
         watched.insert(key);
     }
     Ok(())
