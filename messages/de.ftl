@@ -1460,6 +1460,7 @@ cli-program-exited = endete mit Status { $code }
 cli-program-killed-named = wurde durch Signal { $signal } ({ $name }) beendet
 cli-program-killed = wurde durch Signal { $signal } beendet
 cli-program-ended = endete mit { $status }
+cli-program-more-output = … { $bytes } weitere Bytes der Ausgabe nicht gezeigt
 
 ## Das Netzwerk einer Änderung in Worten (src/calc/network/mod.rs): seine
 ## Quelle, seine Eingriffe und warum es sich nicht berechnen ließ.

@@ -1466,6 +1466,7 @@ cli-program-exited = exited with status { $code }
 cli-program-killed-named = was killed by signal { $signal } ({ $name })
 cli-program-killed = was killed by signal { $signal }
 cli-program-ended = ended with { $status }
+cli-program-more-output = … { $bytes } more bytes of output not shown
 
 ## A mod's network in words (src/calc/network/mod.rs): its source, its
 ## edits and why it could not be worked out, as the document and
