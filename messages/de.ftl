@@ -1285,6 +1285,127 @@ diag-when-accepted = wann wurde das akzeptiert?
 diag-needs-value = `{ $name }` braucht einen Wert
 diag-value-missing = Wert fehlt
 
+## Diagnosen des `network`-Blocks einer Modifikation (src/job/network/decode.rs).
+
+diag-in-a-node = einem `{ $node }`
+diag-what-reference = eine Referenz
+diag-net-label = die Bezeichnung des Netzwerks
+diag-net-needs-source = ein `network` braucht eine `source`
+diag-net-source-missing = Quelle fehlt
+diag-net-needs-load = ein `network` braucht eine `load`: den Knoten, an dem der Frequenzgang abgelesen wird
+diag-net-load-missing = Last fehlt
+diag-net-speed-not-pot = der Geschwindigkeitsregler { $name } ist kein Potentiometer dieses Netzwerks
+diag-net-no-such-pot = kein solches Potentiometer
+diag-net-add-speed-pot = das Geschwindigkeitspotentiometer als `pot REF value=… ccw=… wiper=…` hinzufügen
+diag-net-one-node = ein Netzwerk hat ein `{ $node }`; dies ist ein zweites
+diag-net-part-twice = das Netzwerk hat bereits ein Bauteil { $name }
+diag-net-repeated-reference = wiederholte Referenz
+diag-net-own-reference = jedem Bauteil eine eigene Referenz geben
+diag-net-not-ground = `{ $name }` ist in einer Auftragsdatei nicht der Name des Bezugsknotens
+diag-net-write-ground = `ground` schreiben
+diag-net-ground-help = der Bezugsknoten (Masse) eines Netzwerks wird `ground` geschrieben
+diag-net-impedance-no-valve = eine Quelle mit angegebener `impedance` nimmt keine Röhrenwerte
+diag-net-not-with-impedance = nicht zusammen mit `impedance`
+diag-net-impedance-or-valve = entweder `impedance=` angeben oder `valve=` mit `plate-load=`
+diag-net-source-impedance = eine Quellimpedanz
+diag-net-valve-and-impedance = eine Quelle ist entweder eine Röhrenstufe oder hat eine angegebene `impedance`, nicht beides
+diag-net-remove-one = eines entfernen
+diag-net-valve-impedance-help = der Ausgangswiderstand der Röhre ergibt sich aus ihrem Innenwiderstand ra und dem Anodenwiderstand
+diag-net-plate-load = ein Anodenwiderstand
+diag-net-cathode-resistor = ein Kathodenwiderstand
+diag-net-needs-valve = ein Anoden- oder Kathodenwiderstand braucht das `valve=` der Quelle
+diag-net-no-valve-named = keine Röhre genannt
+diag-net-load-resistance = ein Lastwiderstand
+diag-net-track-resistance = der Bahnwiderstand eines Potentiometers
+diag-net-pot-needs-end = bei einem Potentiometer muss mindestens ein Ende der Widerstandsbahn angeschlossen sein (`ccw=` oder `cw=`)
+diag-net-no-end = kein Ende angeschlossen
+diag-net-pot-needs-setting = ein Potentiometer braucht die Stellung seines Schleifers, `setting` (0 bis 10; mehrere sind möglich, "3 7")
+diag-net-setting-missing = Stellung fehlt
+diag-net-same-node = { $part } verbindet den Knoten `{ $name }` mit sich selbst
+diag-net-same-node-label = zweimal derselbe Knoten
+diag-net-same-node-help = jeder Anschluss eines Bauteils geht an einen anderen Knoten
+diag-net-unknown-taper = unbekannte Kennlinie `{ $name }` eines Potentiometers
+diag-net-expected-taper = linear oder audio (logarithmisch) erwartet
+diag-net-bad-setting = die Stellung eines Potentiometers reicht von 0 bis 10, gefunden: { $found }
+diag-net-expected-setting = 0 bis 10 erwartet
+diag-net-setting-help = eine Stellung schreiben, setting=5, oder mehrere in Anführungszeichen, setting="3 7"
+diag-net-found-word = `{ $word }`
+diag-net-found-nothing = nichts
+diag-net-too-many-settings = ein Potentiometer kann höchstens { $max } Stellungen nennen, gefunden: { $count }
+diag-net-too-many = zu viele
+diag-net-part-reference = die Referenz eines Bauteils
+diag-net-no-part-to-change = das Netzwerk hat kein Bauteil { $name }, das geändert werden könnte
+diag-net-no-part-to-remove = das Netzwerk hat kein Bauteil { $name }, das entfernt werden könnte
+diag-net-no-such-part = kein solches Bauteil
+diag-net-no-parts-yet = das Netzwerk hat noch keine Bauteile
+diag-net-fit-new-part = { $suggestion }; ein neues Bauteil als `resistor { $name } value=… from=… to=…` schreiben (oder capacitor, inductor, link, pot)
+diag-net-link-no-value = { $name } ist eine Brücke und hat keinen Wert
+diag-net-not-for-link = nicht für eine Brücke
+diag-net-not-a-pot = { $name } ist kein Potentiometer und hat daher kein `{ $key }`
+diag-net-only-pots = nur für Potentiometer
+diag-net-nothing-to-change = `change { $name }` ändert nichts
+diag-net-nothing-changed = nichts geändert
+diag-net-give-pot-change = `value=`, `setting=` oder `taper=` angeben
+diag-net-give-value = den neuen Wert `value=` angeben
+diag-net-change-or-replace = zum Ändern `change { $name } value=…` schreiben; zum Ersetzen zuerst `remove { $name }`
+diag-net-empty-after = der `after`-Block ändert nichts
+diag-net-no-edits = keine Änderungen
+diag-net-empty-after-help = die Änderungen schreiben, die das Netzwerk in den Zustand bei Rückgabe bringen: change, remove oder ein neues Bauteil
+
+## Diagnosen zur Gestalt eines Netzwerks (src/job/network/check.rs).
+## `after` ist `yes` für das Netzwerk nach den Änderungen der Modifikation.
+
+diag-list-pair = { $first } und { $last }
+diag-list-more = { $first }, { $rest }
+diag-net-settings-before-after = das Netzwerk nennt vorher { $before } und nachher { $after } Stellungen; die Kurven werden Stellung für Stellung verglichen
+diag-net-settings-differ = die Stellungen passen nicht zueinander
+diag-net-settings-before-after-help = vorher und nachher gleich viele Stellungen nennen (oder eine)
+diag-net-speed-removed = das Geschwindigkeitspotentiometer { $name } wird durch die Änderungen der Modifikation entfernt
+diag-net-not-as-left = nicht im Netzwerk bei Rückgabe
+diag-net-no-mu-ra = für { $position } ({ $type }) stehen keine typischen Werte für μ und ra in der Grenzwerttabelle, daher lässt sich der Ausgangswiderstand nicht berechnen
+diag-net-no-mu-ra-label = kein μ und ra
+diag-net-no-mu-ra-help = stattdessen `impedance=` an der Quelle angeben, oder μ und ra in der Zeile der Grenzwerttabelle ergänzen (--ratings)
+diag-net-the-source = die Quelle
+diag-net-the-load = die Last
+diag-net-pot-end = { $name } ({ $side }-Ende bis Schleifer)
+diag-net-source-on-ground = die Quelle kann nicht auf `ground` liegen: sie treibt einen Knoten gegen Masse
+diag-net-source-on-ground-label = Quelle auf Masse
+diag-net-load-on-ground = der Frequenzgang kann nicht an `ground` abgelesen werden: den Knoten nennen, an dem die Last hängt
+diag-net-load-on-ground-label = Last auf Masse
+diag-net-ideal-loop = { $parts } bilden{ $after ->
+        [yes] {" "}nach den Änderungen der Modifikation
+       *[no] {""}
+    } eine Schleife idealer Verbindungen{ $shorted ->
+        [yes] {" "}(die ideale Quelle ist kurzgeschlossen)
+       *[no] {""}
+    }: das Netzwerk lässt sich nicht berechnen
+diag-net-closes-loop = schließt eine Schleife
+diag-net-shorted-source-help = der Quelle ihren Ausgangswiderstand `impedance=` oder ein `valve=` geben, oder die Brücke entfernen, die sie kurzschließt
+diag-net-ideal-loop-help = eine der Brücken entfernen: zwei ideale Wege zwischen denselben Knoten sagen nicht mehr als einer
+diag-net-floating = { $count ->
+        [one] Knoten { $nodes } ist
+       *[other] Knoten { $nodes } sind
+    }{ $after ->
+        [yes] {" "}nach den Änderungen der Modifikation
+       *[no] {""}
+    } mit nichts verbunden, das Masse erreicht (nur { $parts }): das Netzwerk lässt sich nicht berechnen
+diag-net-floating-label = offen (ohne Verbindung)
+diag-net-floating-help = { $count ->
+        [one] ihn
+       *[other] sie
+    } mit dem übrigen Netzwerk verbinden, oder die Knotennamen auf Tippfehler prüfen
+diag-net-load-unreached = { $after ->
+        [yes] nach den Änderungen der Modifikation führt
+       *[no] es führt
+    } kein Bauteil vom Knoten der Quelle `{ $source }` zum Knoten der Last `{ $load }`, daher ist der Frequenzgang null
+diag-net-load-unreached-label = von der Quelle aus nicht erreicht
+diag-net-load-unreached-help = die Knotennamen der Bauteile dazwischen prüfen
+diag-net-pot-settings-differ = { $pot } nennt { $count } Stellungen, { $first } aber { $first_count }{ $after ->
+        [yes] {" "}(nach den Änderungen der Modifikation)
+       *[no] {""}
+    }: die k-te Stellung jedes Potentiometers ergibt die k-te Stellung des Netzwerks
+diag-net-pot-settings-help = an jedem Potentiometer gleich viele Stellungen nennen, oder eine Stellung für ein Potentiometer, das unverändert bleibt
+
 ## Die übrigen Meldungen im Terminal (src/cli), in der Sprache des
 ## Werkstattprofils, sobald es gelesen ist; die Schlusszeile eines Stapels
 ## in der Sprache, die alle seine Aufträge teilen, sonst Englisch.

@@ -1283,6 +1283,128 @@ diag-when-accepted = when was this accepted?
 diag-needs-value = `{ $name }` needs a value
 diag-value-missing = value missing
 
+## Diagnostics of a mod's `network` block (src/job/network/decode.rs).
+
+diag-in-a-node = a `{ $node }`
+diag-what-reference = a reference
+diag-net-label = the network's label
+diag-net-needs-source = a `network` needs a `source`
+diag-net-source-missing = source missing
+diag-net-needs-load = a `network` needs a `load`: the node the response is read at
+diag-net-load-missing = load missing
+diag-net-speed-not-pot = the speed control { $name } is not a pot of this network
+diag-net-no-such-pot = no such pot
+diag-net-add-speed-pot = add the speed pot as `pot REF value=… ccw=… wiper=…`
+diag-net-one-node = a network has one `{ $node }`; this is a second
+diag-net-part-twice = the network already has a part { $name }
+diag-net-repeated-reference = repeated reference
+diag-net-own-reference = give each part its own reference
+diag-net-not-ground = `{ $name }` is not the reference node's name in a job file
+diag-net-write-ground = write `ground`
+diag-net-ground-help = the reference node of a network is written `ground`
+diag-net-impedance-no-valve = a source with a given `impedance` takes no valve figures
+diag-net-not-with-impedance = not with `impedance`
+diag-net-impedance-or-valve = give either `impedance=`, or `valve=` with `plate-load=`
+diag-net-source-impedance = a source impedance
+diag-net-valve-and-impedance = a source is either a valve stage or has a given `impedance`, not both
+diag-net-remove-one = remove one
+diag-net-valve-impedance-help = the valve's output impedance comes from its ra and the plate load
+diag-net-plate-load = a plate load
+diag-net-cathode-resistor = a cathode resistor
+diag-net-needs-valve = a plate load or cathode resistor needs the source's `valve=`
+diag-net-no-valve-named = no valve named
+diag-net-load-resistance = a load resistance
+diag-net-track-resistance = a pot's track resistance
+diag-net-pot-needs-end = a pot needs at least one end of its track connected (`ccw=` or `cw=`)
+diag-net-no-end = no end connected
+diag-net-pot-needs-setting = a pot needs its wiper `setting` (0 to 10; several may be listed, "3 7")
+diag-net-setting-missing = setting missing
+diag-net-same-node = { $part } connects node `{ $name }` to itself
+diag-net-same-node-label = same node twice
+diag-net-same-node-help = each terminal of a part goes to a different node
+diag-net-unknown-taper = unknown pot taper `{ $name }`
+diag-net-expected-taper = expected linear or audio
+diag-net-bad-setting = a pot setting runs from 0 to 10, found { $found }
+diag-net-expected-setting = expected 0 to 10
+diag-net-setting-help = write one setting, setting=5, or several in quotes, setting="3 7"
+diag-net-found-word = `{ $word }`
+diag-net-found-nothing = nothing
+diag-net-too-many-settings = a pot may list at most { $max } settings, found { $count }
+diag-net-too-many = too many
+diag-net-part-reference = a part's reference
+diag-net-no-part-to-change = the network has no part { $name } to change
+diag-net-no-part-to-remove = the network has no part { $name } to remove
+diag-net-no-such-part = no such part
+diag-net-no-parts-yet = the network has no parts yet
+diag-net-fit-new-part = { $suggestion }; to fit a new part, write it as `resistor { $name } value=… from=… to=…` (or capacitor, inductor, link, pot)
+diag-net-link-no-value = { $name } is a link and has no value
+diag-net-not-for-link = not for a link
+diag-net-not-a-pot = { $name } is not a pot, so it has no `{ $key }`
+diag-net-only-pots = only for pots
+diag-net-nothing-to-change = `change { $name }` says nothing to change
+diag-net-nothing-changed = nothing changed
+diag-net-give-pot-change = give `value=`, `setting=` or `taper=`
+diag-net-give-value = give the new `value=`
+diag-net-change-or-replace = to change it write `change { $name } value=…`; to replace it, `remove { $name }` first
+diag-net-empty-after = the `after` block changes nothing
+diag-net-no-edits = no edits
+diag-net-empty-after-help = write the edits that make the network as left: change, remove, or a new part
+
+## Diagnostics of a network's shape (src/job/network/check.rs). `after`
+## is `yes` for the network as the mod's edits leave it; `parts` and
+## `nodes` are lists made with `diag-list-pair` and `diag-list-more`.
+
+diag-list-pair = { $first } and { $last }
+diag-list-more = { $first }, { $rest }
+diag-net-settings-before-after = the network lists { $before } settings before and { $after } after; the curves are compared setting by setting
+diag-net-settings-differ = settings do not line up
+diag-net-settings-before-after-help = list the same number of settings before and after (or one)
+diag-net-speed-removed = the speed pot { $name } is removed by the mod's edits
+diag-net-not-as-left = not in the network as left
+diag-net-no-mu-ra = { $position } ({ $type }) has no typical μ and ra in the ratings table, so its output impedance cannot be worked out
+diag-net-no-mu-ra-label = no μ and ra
+diag-net-no-mu-ra-help = give the source's `impedance=` instead, or add μ and ra to the ratings row (--ratings)
+diag-net-the-source = the source
+diag-net-the-load = the load
+diag-net-pot-end = { $name } ({ $side } end to wiper)
+diag-net-source-on-ground = the source cannot sit on `ground`: it drives a node against ground
+diag-net-source-on-ground-label = source on ground
+diag-net-load-on-ground = the response cannot be read at `ground`: name the node the load hangs on
+diag-net-load-on-ground-label = load on ground
+diag-net-ideal-loop = { $parts } form a loop of ideal connections{ $after ->
+        [yes] {" "}after the mod's edits
+       *[no] {""}
+    }{ $shorted ->
+        [yes] {" "}(the ideal source is shorted)
+       *[no] {""}
+    }: the network cannot be solved
+diag-net-closes-loop = closes a loop
+diag-net-shorted-source-help = give the source its output `impedance=` or a `valve=`, or take out the link that shorts it
+diag-net-ideal-loop-help = take out one of the links: two ideal paths between the same nodes say nothing more than one
+diag-net-floating = { $count ->
+        [one] node { $nodes } connects
+       *[other] nodes { $nodes } connect
+    } to nothing that reaches ground{ $after ->
+        [yes] {" "}after the mod's edits
+       *[no] {""}
+    } (only { $parts }): the network cannot be solved
+diag-net-floating-label = floating
+diag-net-floating-help = connect { $count ->
+        [one] it
+       *[other] them
+    } to the rest of the network, or check the node names for a typing slip
+diag-net-load-unreached = no part leads from the source's node `{ $source }` to the load's node `{ $load }`{ $after ->
+        [yes] {" "}after the mod's edits
+       *[no] {""}
+    }, so the response is nil
+diag-net-load-unreached-label = not reached from the source
+diag-net-load-unreached-help = check the node names of the parts between them
+diag-net-pot-settings-differ = { $pot } lists { $count } settings but { $first } lists { $first_count }{ $after ->
+        [yes] {" "}after the mod's edits
+       *[no] {""}
+    }: the k-th setting of every pot makes the network's k-th setting
+diag-net-pot-settings-help = list the same number of settings on each pot, or one setting for a pot that stays put
+
 ## The terminal's other messages: what the commands say besides a job's
 ## summary (src/cli), in the job's shop-profile language once it is read;
 ## a batch's closing summary in the language all its jobs share, else
