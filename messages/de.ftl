@@ -1406,6 +1406,52 @@ diag-net-pot-settings-differ = { $pot } nennt { $count } Stellungen, { $first } 
     }: die k-te Stellung jedes Potentiometers ergibt die k-te Stellung des Netzwerks
 diag-net-pot-settings-help = an jedem Potentiometer gleich viele Stellungen nennen, oder eine Stellung für ein Potentiometer, das unverändert bleibt
 
+## Diagnosen der Prüfstandsmessungen (src/job/decode_bench.rs).
+
+diag-two-hints = { $first }; { $second }
+diag-out-of-range = außerhalb des Bereichs
+diag-bench-a-frequency = eine Frequenz
+diag-bench-load-resistance = der Lastwiderstand
+diag-bench-unusual-load = eine Kunstlast von { $load } ist ungewöhnlich
+diag-bench-unusual-load-help = Kunstlasten haben meist 4 Ω, 8 Ω oder 16 Ω, die Lautsprecherimpedanz
+diag-bench-rms-and-pp = `output-power` nennt sowohl `rms` als auch `peak-to-peak`
+diag-bench-one-reading = nur ein Messwert
+diag-bench-rms-or-pp = den Messwert nur einmal angeben: rms="15.5V" oder peak-to-peak="44V"
+diag-bench-power-needs-volts = `output-power` braucht die Ausgangsspannung, mit Angabe, ob Effektivwert (RMS) oder Spitze-Spitze
+diag-bench-the-output-voltage = die Ausgangsspannung
+diag-bench-an-output-voltage = eine Ausgangsspannung
+diag-bench-unusual-power = { $volts } an { $load } ergäben { $watts } W, ungewöhnlich für einen Röhrenverstärker
+diag-bench-unusual-power-help = den Messwert, seine Art (rms oder peak-to-peak) und die Last prüfen
+diag-bench-at-help = at=clipping (Einsetzen der Begrenzung), einen Klirrfaktor wie at="5%" oder die Eingangsspannung wie at="0.5V" schreiben
+diag-bench-needs-at = `output-power` braucht die Bedingung, unter der gemessen wurde (`at=`)
+diag-bench-condition-missing = Bedingung fehlt
+diag-bench-the-distortion = der Klirrfaktor
+diag-bench-distortion-range = ein Klirrfaktor muss über 0 % und unter 100 % liegen
+diag-bench-the-input-drive = die Eingangsspannung
+diag-bench-an-input-drive = eine Eingangsspannung
+diag-bench-bad-at = `at` muss clipping, ein Klirrfaktor oder eine Eingangsspannung sein, gefunden: { $found }
+diag-bench-expected-at = clipping, "5%" oder "0.5V" erwartet
+diag-bench-the-hum-reading = der Messwert für Brumm und Rauschen
+diag-bench-hum-needs-volts = `hum-noise` braucht die an der Last gemessene Effektivspannung
+diag-bench-a-hum-reading = ein Messwert für Brumm und Rauschen
+diag-bench-hum-high = { $volts } Brumm und Rauschen sind sehr hoch
+diag-bench-hum-high-help = Brumm und Rauschen werden meist in Millivolt gemessen, zum Beispiel "4.2mV"
+diag-bench-bad-input = `input` muss shorted (kurzgeschlossen) oder open (offen) sein, gefunden: { $found }
+diag-bench-expected-input = shorted oder open erwartet
+diag-bench-hum-needs-input = `hum-noise` muss angeben, ob der Eingang kurzgeschlossen oder offen war
+diag-bench-input-missing = Zustand des Eingangs fehlt
+diag-bench-an-input-level = ein Eingangspegel
+diag-bench-point-needs = `point` braucht eine Frequenz und die dort gemessene Ausgangsspannung
+diag-bench-the-frequency = die Frequenz
+diag-bench-response-voltage = eine Ausgangsspannung eines Frequenzgangs
+diag-bench-point-twice = { $frequency } wird in diesem Frequenzgang zweimal gemessen
+diag-bench-response-empty = `response` enthält keine Messwerte
+diag-bench-no-points = keine `point`-Unterknoten
+diag-bench-no-reference-point = der Frequenzgang hat keinen Messwert bei seiner Bezugsfrequenz { $frequency }
+diag-bench-no-point-here = hier kein Messpunkt
+diag-bench-no-reference-point-help = einen `point` bei der Bezugsfrequenz ergänzen oder reference= auf eine gemessene Frequenz setzen
+diag-bench-an-input-voltage = eine Eingangsspannung
+
 ## Die übrigen Meldungen im Terminal (src/cli), in der Sprache des
 ## Werkstattprofils, sobald es gelesen ist; die Schlusszeile eines Stapels
 ## in der Sprache, die alle seine Aufträge teilen, sonst Englisch.

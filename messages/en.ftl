@@ -1405,6 +1405,52 @@ diag-net-pot-settings-differ = { $pot } lists { $count } settings but { $first }
     }: the k-th setting of every pot makes the network's k-th setting
 diag-net-pot-settings-help = list the same number of settings on each pot, or one setting for a pot that stays put
 
+## Diagnostics of bench tests (src/job/decode_bench.rs).
+
+diag-two-hints = { $first }; { $second }
+diag-out-of-range = out of range
+diag-bench-a-frequency = a frequency
+diag-bench-load-resistance = the load resistance
+diag-bench-unusual-load = a dummy load of { $load } is unusual
+diag-bench-unusual-load-help = dummy loads are usually 4 Ω, 8 Ω or 16 Ω, the speaker impedance
+diag-bench-rms-and-pp = `output-power` gives both `rms` and `peak-to-peak`
+diag-bench-one-reading = one reading only
+diag-bench-rms-or-pp = give the reading once: rms="15.5V" or peak-to-peak="44V"
+diag-bench-power-needs-volts = `output-power` needs the output voltage, saying whether it is RMS or peak-to-peak
+diag-bench-the-output-voltage = the output voltage
+diag-bench-an-output-voltage = an output voltage
+diag-bench-unusual-power = { $volts } into { $load } would be { $watts } W, unusual for a valve amplifier
+diag-bench-unusual-power-help = check the reading, its kind (rms or peak-to-peak) and the load
+diag-bench-at-help = write at=clipping (the onset of clipping), a distortion such as at="5%", or the input drive such as at="0.5V"
+diag-bench-needs-at = `output-power` needs the condition it was read at (`at=`)
+diag-bench-condition-missing = condition missing
+diag-bench-the-distortion = the distortion
+diag-bench-distortion-range = a distortion must be above 0 % and below 100 %
+diag-bench-the-input-drive = the input drive
+diag-bench-an-input-drive = an input drive
+diag-bench-bad-at = `at` must be clipping, a distortion or a drive voltage, found { $found }
+diag-bench-expected-at = expected clipping, "5%" or "0.5V"
+diag-bench-the-hum-reading = the hum and noise reading
+diag-bench-hum-needs-volts = `hum-noise` needs the RMS volts read across the load
+diag-bench-a-hum-reading = a hum and noise reading
+diag-bench-hum-high = { $volts } of hum and noise is very high
+diag-bench-hum-high-help = hum and noise is usually read in millivolts, for example "4.2mV"
+diag-bench-bad-input = `input` must be shorted or open, found { $found }
+diag-bench-expected-input = expected shorted or open
+diag-bench-hum-needs-input = `hum-noise` needs to say whether the input was shorted or open
+diag-bench-input-missing = input state missing
+diag-bench-an-input-level = an input level
+diag-bench-point-needs = `point` needs a frequency and the output volts read there
+diag-bench-the-frequency = the frequency
+diag-bench-response-voltage = an output voltage on a response
+diag-bench-point-twice = { $frequency } is read twice in this response
+diag-bench-response-empty = `response` holds no readings
+diag-bench-no-points = no `point` children
+diag-bench-no-reference-point = the response has no reading at its reference frequency { $frequency }
+diag-bench-no-point-here = no point here
+diag-bench-no-reference-point-help = add a `point` at the reference frequency, or set reference= to a frequency that was read
+diag-bench-an-input-voltage = an input voltage
+
 ## The terminal's other messages: what the commands say besides a job's
 ## summary (src/cli), in the job's shop-profile language once it is read;
 ## a batch's closing summary in the language all its jobs share, else
