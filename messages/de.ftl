@@ -1043,7 +1043,7 @@ diag-takes-values = `{ $node }` nimmt { $count ->
 diag-extra-value = unerwarteter Wert an `{ $node }`
 diag-not-expected-here = hier nicht erwartet
 diag-no-children = `{ $node }` hat keine Unterknoten
-diag-missing = `{ $node }` braucht { $what }
+diag-missing = `{ $node }`: { $what } fehlt
 diag-missing-label = { $what } fehlt
 diag-for-example = zum Beispiel: { $example }
 diag-a-property = eine Eigenschaft `{ $key }`
@@ -1288,7 +1288,7 @@ diag-value-missing = Wert fehlt
 ## Diagnosen des `network`-Blocks einer Modifikation (src/job/network/decode.rs).
 
 diag-in-a-node = einem `{ $node }`
-diag-what-reference = eine Referenz
+diag-what-reference = eine Bauteilbezeichnung
 diag-net-label = die Bezeichnung des Netzwerks
 diag-net-needs-source = ein `network` braucht eine `source`
 diag-net-source-missing = Quelle fehlt
@@ -1299,8 +1299,8 @@ diag-net-no-such-pot = kein solches Potentiometer
 diag-net-add-speed-pot = das Geschwindigkeitspotentiometer als `pot REF value=… ccw=… wiper=…` hinzufügen
 diag-net-one-node = ein Netzwerk hat ein `{ $node }`; dies ist ein zweites
 diag-net-part-twice = das Netzwerk hat bereits ein Bauteil { $name }
-diag-net-repeated-reference = wiederholte Referenz
-diag-net-own-reference = jedem Bauteil eine eigene Referenz geben
+diag-net-repeated-reference = wiederholte Bezeichnung
+diag-net-own-reference = jedem Bauteil eine eigene Bezeichnung geben
 diag-net-not-ground = `{ $name }` ist in einer Auftragsdatei nicht der Name des Bezugsknotens
 diag-net-write-ground = `ground` schreiben
 diag-net-ground-help = der Bezugsknoten (Masse) eines Netzwerks wird `ground` geschrieben
@@ -1333,7 +1333,7 @@ diag-net-found-word = `{ $word }`
 diag-net-found-nothing = nichts
 diag-net-too-many-settings = ein Potentiometer kann höchstens { $max } Stellungen nennen, gefunden: { $count }
 diag-net-too-many = zu viele
-diag-net-part-reference = die Referenz eines Bauteils
+diag-net-part-reference = die Bezeichnung eines Bauteils
 diag-net-no-part-to-change = das Netzwerk hat kein Bauteil { $name }, das geändert werden könnte
 diag-net-no-part-to-remove = das Netzwerk hat kein Bauteil { $name }, das entfernt werden könnte
 diag-net-no-such-part = kein solches Bauteil
@@ -1451,6 +1451,73 @@ diag-bench-no-reference-point = der Frequenzgang hat keinen Messwert bei seiner 
 diag-bench-no-point-here = hier kein Messpunkt
 diag-bench-no-reference-point-help = einen `point` bei der Bezugsfrequenz ergänzen oder reference= auf eine gemessene Frequenz setzen
 diag-bench-an-input-voltage = eine Eingangsspannung
+
+## Diagnosen der Blöcke einer Auftragsdatei (src/job/decode.rs). `diag-what-…`
+## nennen, was ein Wert ist (im Nominativ), für Meldungen wie
+## `diag-cannot-be-negative`.
+
+diag-what-job-format = die Formatversion der Auftragsdatei
+diag-what-rated-power = die Nennausgangsleistung
+diag-what-nominal-mains = die Nennnetzspannung
+diag-what-mains-frequency = die Netzfrequenz
+diag-what-design-mains = die Netzspannung, für die das Gerät ausgelegt ist
+diag-what-supply-tolerance = die Toleranz der Netzspannung
+diag-what-position = eine Position
+diag-what-bias-kind = die Art der Gittervorspannung
+diag-what-the-reference = die Bauteilbezeichnung
+diag-what-node-name = ein Knotenname
+diag-what-chart-voltage = die Spannung laut Schaltplan
+diag-what-voltage-rating = eine Nennspannung
+diag-what-winding-voltage = die Wicklungsspannung
+diag-what-primary-voltage = die Primärspannung
+diag-what-rectifier = `silicon` oder die Position der Gleichrichterröhre
+diag-what-rectifier-drop = der Spannungsabfall am Gleichrichter
+diag-what-set-label = eine Bezeichnung wie "as found"
+diag-what-mains-voltage = die Netzspannung
+diag-what-node-and-voltage = ein Knotenname und seine Spannung
+diag-what-node-voltage = die Knotenspannung
+diag-what-control-position = die Stellung des Reglers
+diag-what-heater-voltage = die Heizspannung
+diag-what-a-heater-voltage = eine Heizspannung
+diag-what-heater-nominal = die Nennheizspannung
+diag-what-valve-position = eine Röhrenposition
+diag-what-valve-current = ein Röhrenstrom
+diag-what-description = eine Beschreibung
+diag-what-reading = der Messwert
+diag-what-cord-resistance = der Widerstand der Netzleitung
+diag-what-safety-test = der Name der Sicherheitsprüfung
+diag-what-bench-test = der Name der Prüfstandsmessung
+diag-what-part-reference = eine Bauteilbezeichnung
+diag-what-photo-path = der Pfad des Fotos
+diag-what-power-rating = eine Nennbelastbarkeit
+diag-what-tolerance = eine Toleranz
+diag-unusually-high = { $value } ist für einen Röhrenverstärker ungewöhnlich hoch
+diag-part-example = zum Beispiel: part C10 was="…" now="…"   oder   part what="Netzkabel" was="zweiadrig" now="dreiadrig"
+diag-second-network-help = ein zweites Netzwerk unter eine eigene Modifikation schreiben
+diag-no-over-range = `{ $name }` nimmt keinen Messwert über dem Messbereich (">…")
+diag-no-over-range-label = nur die Isolationsprüfung liest „mehr als“
+diag-no-over-range-help = den Wert schreiben, den das Messgerät anzeigte, zum Beispiel: { $example }
+diag-over-range-not-resistance = der Messwert über dem Messbereich ">{ $rest }" ist kein Widerstand
+diag-over-range-expected = ">500M" erwartet
+diag-over-range-help = den Endwert des Messgeräts nach `>` schreiben, zum Beispiel ">500M"
+diag-key-missing = `{ $key }` fehlt
+diag-safety-default-help = zum Beispiel: { $example }; oder einen Vorgabewert für `{ $key }` im `safety`-Block des Werkstattprofils setzen
+diag-unknown-bench-test = unbekannte Prüfstandsmessung `{ $name }` zum Akzeptieren
+diag-not-a-bench-test = keine Prüfstandsmessung mit Grenzwert
+diag-empty-reason-help = begründen, warum der Wert annehmbar ist, zum Beispiel "Auslegung des Herstellers"
+diag-acceptance-who-help = `by="…"` hier oder an `accepted` schreiben, oder dem Auftrag einen `technician=` geben
+diag-acceptance-when-help = `date="YYYY-MM-DD"` hier oder an `accepted` schreiben, oder dem Auftrag ein `completed=`-Datum geben
+diag-setting-range = `{ $name }` muss zwischen 0% und 200% liegen
+diag-bias-bands-order = `fixed-bias-low` liegt über `fixed-bias-high`
+diag-these-settings = diese Einstellungen
+diag-one-comes-from = einer der beiden Werte stammt aus { $source }
+diag-from-shop-profile = dem Werkstattprofil
+diag-from-defaults = den Voreinstellungen
+diag-decibel-range = `{ $name }` muss zwischen 0 dB und 150 dB liegen
+diag-decibels = `{ $name }` muss ein Pegel in Dezibel sein
+diag-expected-decibels = Dezibel erwartet
+diag-decibels-help = als "60dB" oder 60 schreiben
+diag-mains-range-help = Netzspannungen reichen von wenigen Volt an einem Stelltransformator bis zur Obergrenze der Niederspannung von 1000 V (IEC 60038)
 
 ## Die übrigen Meldungen im Terminal (src/cli), in der Sprache des
 ## Werkstattprofils, sobald es gelesen ist; die Schlusszeile eines Stapels

@@ -1451,6 +1451,72 @@ diag-bench-no-point-here = no point here
 diag-bench-no-reference-point-help = add a `point` at the reference frequency, or set reference= to a frequency that was read
 diag-bench-an-input-voltage = an input voltage
 
+## Diagnostics of the job file's blocks (src/job/decode.rs). `diag-what-…`
+## name what a value is, for messages such as `diag-cannot-be-negative`.
+
+diag-what-job-format = the job-file format version
+diag-what-rated-power = the rated output power
+diag-what-nominal-mains = the nominal mains voltage
+diag-what-mains-frequency = the mains frequency
+diag-what-design-mains = the design mains voltage
+diag-what-supply-tolerance = the supply tolerance
+diag-what-position = a position
+diag-what-bias-kind = the bias kind
+diag-what-the-reference = the reference
+diag-what-node-name = a node name
+diag-what-chart-voltage = the chart voltage
+diag-what-voltage-rating = a voltage rating
+diag-what-winding-voltage = the winding voltage
+diag-what-primary-voltage = the primary voltage
+diag-what-rectifier = `silicon` or the rectifier valve's position
+diag-what-rectifier-drop = the rectifier drop
+diag-what-set-label = a label such as "as found"
+diag-what-mains-voltage = the mains voltage
+diag-what-node-and-voltage = a node name and its voltage
+diag-what-node-voltage = the node voltage
+diag-what-control-position = the control's position
+diag-what-heater-voltage = the heater voltage
+diag-what-a-heater-voltage = a heater voltage
+diag-what-heater-nominal = the heater nominal voltage
+diag-what-valve-position = a valve position
+diag-what-valve-current = a valve current
+diag-what-description = a description
+diag-what-reading = the reading
+diag-what-cord-resistance = the cord resistance
+diag-what-safety-test = the safety test's name
+diag-what-bench-test = the bench test's name
+diag-what-part-reference = a part reference
+diag-what-photo-path = the photo's path
+diag-what-power-rating = a power rating
+diag-what-tolerance = a tolerance
+diag-unusually-high = { $value } is unusually high for a valve amplifier
+diag-part-example = for example: part C10 was="…" now="…"   or   part what="mains cord" was="two-wire" now="three-wire"
+diag-second-network-help = write a second network under a mod of its own
+diag-no-over-range = `{ $name }` takes no over-range reading (">…")
+diag-no-over-range-label = only the insulation test reads "more than"
+diag-no-over-range-help = write the figure the meter showed, for example: { $example }
+diag-over-range-not-resistance = the over-range reading ">{ $rest }" is not a resistance
+diag-over-range-expected = expected ">500M"
+diag-over-range-help = write the meter's top figure after `>`, for example ">500M"
+diag-key-missing = `{ $key }` missing
+diag-safety-default-help = for example: { $example }; or set a default `{ $key }` in the shop profile's `safety` block
+diag-unknown-bench-test = unknown bench test `{ $name }` to accept
+diag-not-a-bench-test = not a bench test with a limit
+diag-empty-reason-help = say why the figure is acceptable, for example "factory design"
+diag-acceptance-who-help = write `by="…"` here or on `accepted`, or give the job a `technician=`
+diag-acceptance-when-help = write `date="YYYY-MM-DD"` here or on `accepted`, or give the job a `completed=` date
+diag-setting-range = `{ $name }` must be between 0% and 200%
+diag-bias-bands-order = `fixed-bias-low` is above `fixed-bias-high`
+diag-these-settings = these settings
+diag-one-comes-from = one of the two comes from { $source }
+diag-from-shop-profile = the shop profile
+diag-from-defaults = the defaults
+diag-decibel-range = `{ $name }` must be between 0 dB and 150 dB
+diag-decibels = `{ $name }` must be a level in decibels
+diag-expected-decibels = expected decibels
+diag-decibels-help = write it as "60dB" or 60
+diag-mains-range-help = mains voltages run from a few volts on a variable autotransformer to the 1000 V top of low-voltage supply (IEC 60038)
+
 ## The terminal's other messages: what the commands say besides a job's
 ## summary (src/cli), in the job's shop-profile language once it is read;
 ## a batch's closing summary in the language all its jobs share, else
