@@ -1519,6 +1519,56 @@ diag-expected-decibels = Dezibel erwartet
 diag-decibels-help = als "60dB" oder 60 schreiben
 diag-mains-range-help = Netzspannungen reichen von wenigen Volt an einem Stelltransformator bis zur Obergrenze der Niederspannung von 1000 V (IEC 60038)
 
+## Diagnosen zu Namen, die ins Leere zeigen (src/job/validate.rs). `what`
+## ist eine der Wendungen `diag-ref-…` (Nominativ); `kind` ist set,
+## channel, position, node, part, heater oder safety.
+
+diag-check-spelling = die Schreibweise mit den im Auftrag erklärten Namen vergleichen
+diag-list-valves-first = die Röhren zuerst in einem `valves`-Block aufführen
+diag-names-unknown-position = { $what } nennt die Röhrenposition { $name }, die der `valves`-Block nicht aufführt
+diag-no-such-position = keine solche Röhrenposition
+diag-declare-in-circuit = im Block `circuit` erklären: node B+1 chart="350V"
+diag-names-unknown-node = { $what } nennt den Knoten { $name }, der weder in `circuit` erklärt noch gemessen ist
+diag-no-such-node = kein solcher Knoten
+diag-ref-cathode-resistor = der Kathodenwiderstand { $name }
+diag-ref-sense-resistor = ein Messwiderstand
+diag-ref-screen-resistor = ein Schirmgitterwiderstand
+diag-ref-half-primary = ein Widerstand einer Primärwicklungshälfte
+diag-ref-rectifier = der Gleichrichter
+diag-ref-readings = die Messwerte von „{ $set }“
+diag-ref-warm-up = die Aufwärmreihe von „{ $set }“
+diag-ref-mod-figure = ein Rechenwert einer Modifikation
+diag-ref-network-source = die Quelle eines Netzwerks
+diag-ref-dropper = der Siebwiderstand { $name }
+diag-ref-filter-capacitor = der Siebkondensator { $name }
+diag-accept-none = der Auftrag hat { $kind ->
+        [set] keine Messreihe
+        [channel] keinen Prüfstandskanal
+        [position] keine Röhrenposition
+        [node] keinen Knoten
+        [heater] keine Heizungsbezeichnung
+        [safety] keine Sicherheitsprüfung
+       *[part] kein Bauteil
+    } zum Akzeptieren
+diag-accept-unknown = die Akzeptierung nennt { $kind ->
+        [set] die Messreihe
+        [channel] den Prüfstandskanal
+        [position] die Röhrenposition
+        [node] den Knoten
+        [heater] die Heizungsbezeichnung
+        [safety] die Sicherheitsprüfung
+       *[part] das Bauteil
+    } { $name }, doch im Auftrag kommt { $name } nicht vor
+diag-accept-no-such = { $kind ->
+        [set] keine solche Messreihe
+        [channel] kein solcher Prüfstandskanal
+        [position] keine solche Röhrenposition
+        [node] kein solcher Knoten
+        [heater] keine solche Heizungsbezeichnung
+        [safety] keine solche Sicherheitsprüfung
+       *[part] kein solches Bauteil
+    }
+
 ## Die übrigen Meldungen im Terminal (src/cli), in der Sprache des
 ## Werkstattprofils, sobald es gelesen ist; die Schlusszeile eines Stapels
 ## in der Sprache, die alle seine Aufträge teilen, sonst Englisch.

@@ -1517,6 +1517,56 @@ diag-expected-decibels = expected decibels
 diag-decibels-help = write it as "60dB" or 60
 diag-mains-range-help = mains voltages run from a few volts on a variable autotransformer to the 1000 V top of low-voltage supply (IEC 60038)
 
+## Diagnostics of names that point nowhere (src/job/validate.rs). `what`
+## is one of the `diag-ref-…` phrases; `kind` is set, channel, position,
+## node, part, heater or safety.
+
+diag-check-spelling = check the spelling against the names declared in the job
+diag-list-valves-first = list the valves in a `valves` block first
+diag-names-unknown-position = { $what } names valve position { $name }, which the `valves` block does not list
+diag-no-such-position = no such valve position
+diag-declare-in-circuit = declare it in the circuit block: node B+1 chart="350V"
+diag-names-unknown-node = { $what } names node { $name }, which is neither declared in `circuit` nor measured
+diag-no-such-node = no such node
+diag-ref-cathode-resistor = cathode resistor { $name }
+diag-ref-sense-resistor = a sense resistor
+diag-ref-screen-resistor = a screen resistor
+diag-ref-half-primary = a half-primary resistance
+diag-ref-rectifier = the rectifier
+diag-ref-readings = the "{ $set }" readings
+diag-ref-warm-up = the "{ $set }" warm-up
+diag-ref-mod-figure = a mod's figure
+diag-ref-network-source = a network's source
+diag-ref-dropper = dropper { $name }
+diag-ref-filter-capacitor = filter capacitor { $name }
+diag-accept-none = the job has no { $kind ->
+        [set] measurement set
+        [channel] bench channel
+        [position] valve position
+        [node] node
+        [heater] heater label
+        [safety] safety test
+       *[part] part
+    } to accept
+diag-accept-unknown = the acceptance names { $kind ->
+        [set] measurement set
+        [channel] bench channel
+        [position] valve position
+        [node] node
+        [heater] heater label
+        [safety] safety test
+       *[part] part
+    } { $name }, which the job does not have
+diag-accept-no-such = no such { $kind ->
+        [set] measurement set
+        [channel] bench channel
+        [position] valve position
+        [node] node
+        [heater] heater label
+        [safety] safety test
+       *[part] part
+    }
+
 ## The terminal's other messages: what the commands say besides a job's
 ## summary (src/cli), in the job's shop-profile language once it is read;
 ## a batch's closing summary in the language all its jobs share, else
