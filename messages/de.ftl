@@ -1003,6 +1003,7 @@ diag-file-refused = { $name }: { $errors ->
        *[other] { $errors } Probleme verhindern
     }, dass { $file ->
         [shop] dieses Werkstattprofil
+        [translation] diese Übersetzungsdatei
        *[job] diese Auftragsdatei
     } gelesen wird
 diag-file-refused-warnings = { $name }: { $errors ->
@@ -1010,6 +1011,7 @@ diag-file-refused-warnings = { $name }: { $errors ->
        *[other] { $errors } Probleme verhindern
     }, dass { $file ->
         [shop] dieses Werkstattprofil
+        [translation] diese Übersetzungsdatei
        *[job] diese Auftragsdatei
     } gelesen wird (außerdem { $warnings ->
         [one] 1 Warnung
@@ -1178,6 +1180,7 @@ diag-rectifier-not-rectifier = der Gleichrichter ist { $position } ({ $type }), 
 diag-write-silicon = für einen Halbleitergleichrichter `rectifier silicon` schreiben
 diag-incomplete = { $file ->
         [shop] das Werkstattprofil
+        [translation] die Übersetzungsdatei
        *[job] die Auftragsdatei
     } ist unvollständig
 diag-here = hier
@@ -1568,6 +1571,69 @@ diag-accept-no-such = { $kind ->
         [safety] keine solche Sicherheitsprüfung
        *[part] kein solches Bauteil
     }
+
+## Diagnosen einer Übersetzungsdatei (src/catalogue/check.rs), in der
+## Sprache, die das Werkstattprofil nennt, wenn sie eingebaut ist, sonst
+## Englisch. `english` ist die englische Meldung, unverändert zitiert.
+
+diag-ftl-syntax = das ist keine Fluent-Syntax: { $problem }
+diag-ftl-syntax-help = eine Meldung wird `key = Text` geschrieben; eine Fortsetzungszeile beginnt mit Leerzeichen; ein Argument wird `{"{"} $name {"}"}` geschrieben
+diag-ftl-unknown-key = der englische Katalog hat keine Meldung `{ $key }`
+diag-ftl-unknown-key-label = keine Meldung des Programms
+diag-ftl-no-text = die Meldung `{ $key }` hat keinen Text
+diag-ftl-no-text-label = `key = Text` erwartet
+diag-ftl-unknown-argument = die Meldung `{ $key }` verwendet `{ $argument }`, das das Programm ihr nie übergibt
+diag-ftl-unknown-argument-label = unbekanntes Argument
+diag-ftl-no-arguments = diese Meldung hat keine Argumente
+diag-ftl-given = sie erhält { $arguments }
+diag-ftl-unknown-reference = die Meldung `{ $key }` verweist auf `{ $reference }`, das diese Datei nicht festlegt
+diag-ftl-unknown-message = unbekannte Meldung
+diag-ftl-notice-incomplete = der Sicherheitshinweis zur Netzspannung wird nur als Ganzes übersetzt; es fehlen: { $keys }
+diag-ftl-in-this-file = in dieser Datei
+diag-ftl-notice-help = jeden Teil des Hinweises übersetzen (die Schlüssel, die mit `notice-` beginnen), oder eine im Programm eingebaute Sprache verwenden
+diag-ftl-add-key-english = `{ $key } = …` ergänzen; das Englische steht in messages/en.ftl:{ $line }: { $english }
+diag-ftl-add-key = `{ $key } = …` ergänzen
+diag-ftl-missing-key = der Übersetzung fehlt die Meldung `{ $key }`
+diag-ftl-unreadable = die Übersetzung konnte nicht gelesen werden
+
+## Diagnosen zum Logo der Werkstatt (src/shop/logo.rs). `why` ist einer der
+## Gründe `diag-logo-…` unten, die als Satzende an `diag-logo-refused`
+## anschließen.
+
+diag-expected-in-profile-folder = Dateiname im Ordner des Profils erwartet
+diag-logo-outside = das Logo `{ $path }` liegt nicht im Ordner des Profils
+diag-logo-keep-inside = das Logo neben shop.kdl (oder in einen Ordner darunter) legen und relativ dazu benennen, zum Beispiel logo "logo.svg"
+diag-logo-link = das Logo `{ $path }` führt aus dem Ordner des Profils hinaus (nach { $target })
+diag-logo-copy = das Logo in den Ordner des Profils kopieren, statt darauf zu verweisen
+diag-logo-not-file = das Logo { $path } ist keine gewöhnliche Datei
+diag-logo-png-svg = das Logo muss eine PNG- oder SVG-Datei sein
+diag-logo-too-large = das Logo { $path } ist { $size } Byte groß; die Grenze liegt bei { $limit }
+diag-logo-smaller = ein Logo für den Seitenkopf braucht weit weniger: kleiner exportieren
+diag-logo-cannot-read = das Logo { $path } kann nicht gelesen werden: { $error }
+diag-logo-in-folder = das Logo muss eine PNG- oder SVG-Datei im Ordner des Profils sein
+diag-logo-refused = das Logo { $path } { $why }
+diag-logo-self-contained = das Logo muss ein PNG-Bild oder eine in sich geschlossene SVG-Zeichnung sein
+diag-logo-not-png-or-text = ist weder ein PNG-Bild noch SVG-Text
+diag-logo-not-png-or-svg = ist weder ein PNG-Bild noch eine SVG-Zeichnung
+diag-logo-png-undecodable = beginnt wie ein PNG-Bild, lässt sich aber nicht dekodieren ({ $error })
+diag-logo-svg-malformed = ist keine wohlgeformte SVG-Zeichnung ({ $error })
+diag-logo-svg-root = ist XML mit dem Wurzelelement <{ $root }>, nicht dem <svg> einer SVG-Zeichnung
+diag-logo-svg-refers = verweist auf eine andere Datei oder Adresse (`{ $value }` an <{ $element }>); ein Logo muss in sich geschlossen sein
+diag-logo-svg-style = hat ein Stylesheet, das von anderswo lädt; ein Logo muss in sich geschlossen sein
+
+## Diagnosen beim Lesen einer Übersetzungsdatei (src/shop/translation.rs),
+## an der `language`-Zeile des Profils.
+
+diag-translation-ftl = die Übersetzung muss eine Fluent-Datei (.ftl) im Ordner des Profils sein
+diag-translation-utf8-ftl = die Übersetzung muss eine Fluent-Datei (.ftl) in UTF-8 im Ordner des Profils sein
+diag-translation-outside = die Übersetzungsdatei `{ $path }` liegt nicht im Ordner des Profils
+diag-translation-keep-inside = die Übersetzung neben shop.kdl (oder in einen Ordner darunter) legen und relativ dazu benennen, zum Beispiel file="de.ftl"
+diag-translation-link = die Übersetzungsdatei `{ $path }` führt aus dem Ordner des Profils hinaus (nach { $target })
+diag-translation-copy = die Übersetzung in den Ordner des Profils kopieren, statt darauf zu verweisen
+diag-translation-not-file = die Übersetzungsdatei { $path } ist keine gewöhnliche Datei
+diag-translation-too-large = die Übersetzungsdatei { $path } ist größer als { $limit } MiB; eine Übersetzung ist weit kleiner, wahrscheinlich ist es die falsche Datei
+diag-translation-cannot-read = die Übersetzungsdatei { $path } kann nicht gelesen werden: { $error }
+diag-translation-not-utf8 = { $place }: die Übersetzungsdatei ist kein UTF-8-Text (hier das Byte { $byte }); als UTF-8 speichern
 
 ## Die übrigen Meldungen im Terminal (src/cli), in der Sprache des
 ## Werkstattprofils, sobald es gelesen ist; die Schlusszeile eines Stapels

@@ -1001,6 +1001,7 @@ diag-file-refused = { $name }: { $errors ->
        *[other] { $errors } problems stop
     } this { $file ->
         [shop] shop profile
+        [translation] translation file
        *[job] job file
     } from being read
 diag-file-refused-warnings = { $name }: { $errors ->
@@ -1008,6 +1009,7 @@ diag-file-refused-warnings = { $name }: { $errors ->
        *[other] { $errors } problems stop
     } this { $file ->
         [shop] shop profile
+        [translation] translation file
        *[job] job file
     } from being read ({ $warnings ->
         [one] 1 warning
@@ -1176,6 +1178,7 @@ diag-rectifier-not-rectifier = the rectifier is { $position } ({ $type }), which
 diag-write-silicon = write `rectifier silicon` for a solid-state rectifier
 diag-incomplete = the { $file ->
         [shop] shop profile
+        [translation] translation file
        *[job] job file
     } is incomplete
 diag-here = here
@@ -1566,6 +1569,68 @@ diag-accept-no-such = no such { $kind ->
         [safety] safety test
        *[part] part
     }
+
+## Diagnostics of a translation file (src/catalogue/check.rs), said in the
+## language the shop profile names when it is built in, else English.
+## `english` is the English message, quoted as it is.
+
+diag-ftl-syntax = this is not Fluent syntax: { $problem }
+diag-ftl-syntax-help = a message is written `key = text`; a continuation line starts with spaces; an argument is written `{"{"} $name {"}"}`
+diag-ftl-unknown-key = the English catalogue has no message `{ $key }`
+diag-ftl-unknown-key-label = not a message of the program
+diag-ftl-no-text = the message `{ $key }` has no text
+diag-ftl-no-text-label = expected `key = text`
+diag-ftl-unknown-argument = the message `{ $key }` uses `{ $argument }`, which the program never gives it
+diag-ftl-unknown-argument-label = unknown argument
+diag-ftl-no-arguments = this message takes no arguments
+diag-ftl-given = it is given { $arguments }
+diag-ftl-unknown-reference = the message `{ $key }` refers to `{ $reference }`, which this file does not define
+diag-ftl-unknown-message = unknown message
+diag-ftl-notice-incomplete = the mains-safety notice is translated only as a whole; missing: { $keys }
+diag-ftl-in-this-file = in this file
+diag-ftl-notice-help = translate every part of the notice (the keys starting `notice-`), or use a language the program has built in
+diag-ftl-add-key-english = add `{ $key } = …`; the English is at messages/en.ftl:{ $line }: { $english }
+diag-ftl-add-key = add `{ $key } = …`
+diag-ftl-missing-key = the translation has no message `{ $key }`
+diag-ftl-unreadable = the translation could not be read
+
+## Diagnostics of the shop's logo (src/shop/logo.rs). `why` is one of the
+## `diag-logo-…` reasons below that start with a verb.
+
+diag-expected-in-profile-folder = expected a file name in the profile's folder
+diag-logo-outside = the logo `{ $path }` is not inside the profile's folder
+diag-logo-keep-inside = put the logo beside shop.kdl (or in a folder below it) and name it relative to it, for example logo "logo.svg"
+diag-logo-link = the logo `{ $path }` leads outside the profile's folder (to { $target })
+diag-logo-copy = copy the logo into the profile's folder instead of linking to it
+diag-logo-not-file = the logo { $path } is not a regular file
+diag-logo-png-svg = the logo must be a PNG or SVG file
+diag-logo-too-large = the logo { $path } is { $size } bytes; the limit is { $limit }
+diag-logo-smaller = a logo for a page header needs far less: export it smaller
+diag-logo-cannot-read = cannot read the logo { $path }: { $error }
+diag-logo-in-folder = the logo must be a PNG or SVG file in the profile's folder
+diag-logo-refused = the logo { $path } { $why }
+diag-logo-self-contained = the logo must be a PNG picture or a self-contained SVG drawing
+diag-logo-not-png-or-text = is neither a PNG picture nor SVG text
+diag-logo-not-png-or-svg = is neither a PNG picture nor an SVG drawing
+diag-logo-png-undecodable = starts like a PNG picture but does not decode ({ $error })
+diag-logo-svg-malformed = is not a well-formed SVG drawing ({ $error })
+diag-logo-svg-root = is XML whose root is <{ $root }>, not an SVG drawing's <svg>
+diag-logo-svg-refers = refers to another file or address (`{ $value }` on <{ $element }>); a logo must be self-contained
+diag-logo-svg-style = has a style sheet that loads from elsewhere; a logo must be self-contained
+
+## Diagnostics of reading a translation file (src/shop/translation.rs),
+## at the profile's `language` line.
+
+diag-translation-ftl = the translation must be a Fluent (.ftl) file in the profile's folder
+diag-translation-utf8-ftl = the translation must be a UTF-8 Fluent (.ftl) file in the profile's folder
+diag-translation-outside = the translation file `{ $path }` is not inside the profile's folder
+diag-translation-keep-inside = put the translation beside shop.kdl (or in a folder below it) and name it relative to it, for example file="de.ftl"
+diag-translation-link = the translation file `{ $path }` leads outside the profile's folder (to { $target })
+diag-translation-copy = copy the translation into the profile's folder instead of linking to it
+diag-translation-not-file = the translation file { $path } is not a regular file
+diag-translation-too-large = the translation file { $path } is larger than { $limit } MiB; a translation is far smaller, so this is probably the wrong file
+diag-translation-cannot-read = cannot read the translation file { $path }: { $error }
+diag-translation-not-utf8 = { $place }: the translation file is not UTF-8 text (byte { $byte } here); save it as UTF-8
 
 ## The terminal's other messages: what the commands say besides a job's
 ## summary (src/cli), in the job's shop-profile language once it is read;

@@ -480,7 +480,11 @@ fn decode_valves(node: &KdlNode, r: &mut Reader) -> Vec<ValvePosition> {
     for child in r.children(node.children(), &["valve"], "`valves`") {
         r.check_entries(child, &["type", "role", "channel"], 1);
         r.no_children(child);
-        let position = r.req_arg_name(child, Msg::new("diag-what-position"), "valve V1 type=\"12AX7\" role=preamp");
+        let position = r.req_arg_name(
+            child,
+            Msg::new("diag-what-position"),
+            "valve V1 type=\"12AX7\" role=preamp",
+        );
         let type_name = r.req_prop_name(child, "type", "valve V1 type=\"12AX7\" role=preamp");
         let channel = r.opt_prop_string(child, "channel");
         let role = match Reader::prop(child, "role") {
@@ -551,7 +555,9 @@ fn decode_circuit(node: &KdlNode, r: &mut Reader) -> Circuit {
         match child.name().value() {
             "bias" => {
                 r.check_entries(child, &[], 1);
-                if let Some(kind) = r.req_arg_name(child, Msg::new("diag-what-bias-kind"), "bias fixed") {
+                if let Some(kind) =
+                    r.req_arg_name(child, Msg::new("diag-what-bias-kind"), "bias fixed")
+                {
                     let value = match kind.value.as_str() {
                         "cathode" => Some(BiasKind::Cathode),
                         "fixed" => Some(BiasKind::Fixed),
@@ -606,7 +612,8 @@ fn decode_circuit(node: &KdlNode, r: &mut Reader) -> Circuit {
             }
             "sense-resistor" => {
                 r.check_entries(child, &["value", "valve"], 1);
-                let reference = Reader::arg(child, 0).and_then(|e| r.name(e, Msg::new("diag-what-the-reference")));
+                let reference = Reader::arg(child, 0)
+                    .and_then(|e| r.name(e, Msg::new("diag-what-the-reference")));
                 let value = ohms(
                     r,
                     child,
@@ -639,7 +646,8 @@ fn decode_circuit(node: &KdlNode, r: &mut Reader) -> Circuit {
             "screen-resistor" => {
                 r.check_entries(child, &["value", "rating", "valve", "supply"], 1);
                 let example = "screen-resistor R25 value=\"470\" valve=V3 supply=B+2";
-                let reference = Reader::arg(child, 0).and_then(|e| r.name(e, Msg::new("diag-what-the-reference")));
+                let reference = Reader::arg(child, 0)
+                    .and_then(|e| r.name(e, Msg::new("diag-what-the-reference")));
                 let value = ohms(r, child, "value", example);
                 let rating = watts(r, child, "rating");
                 let valve = r.req_prop_name(child, "valve", example);
@@ -670,7 +678,11 @@ fn decode_circuit(node: &KdlNode, r: &mut Reader) -> Circuit {
             }
             "node" => {
                 r.check_entries(child, &["chart", "tolerance", "label", "channel"], 1);
-                let name = r.req_arg_name(child, Msg::new("diag-what-node-name"), "node B+1 chart=\"350V\"");
+                let name = r.req_arg_name(
+                    child,
+                    Msg::new("diag-what-node-name"),
+                    "node B+1 chart=\"350V\"",
+                );
                 let chart = volts_pos(r, child, "chart", Msg::new("diag-what-chart-voltage"));
                 let tolerance = percent(r, child, "tolerance");
                 let label = r.opt_prop_string(child, "label");
@@ -842,8 +854,11 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
         match child.name().value() {
             "node" => {
                 r.check_entries(child, &["chart", "tolerance"], 2);
-                let name =
-                    r.req_arg_name(child, Msg::new("diag-what-node-and-voltage"), "node B+1 \"352V\"");
+                let name = r.req_arg_name(
+                    child,
+                    Msg::new("diag-what-node-and-voltage"),
+                    "node B+1 \"352V\"",
+                );
                 let volts = match Reader::arg(child, 1) {
                     Some(e) => r.quantity(e, Q::Voltage, Msg::new("diag-what-node-voltage")),
                     None => {
@@ -1173,7 +1188,8 @@ fn decode_parts(node: &KdlNode, r: &mut Reader) -> Vec<PartChange> {
             1,
         );
         r.no_children(child);
-        let reference = Reader::arg(child, 0).and_then(|e| r.name(e, Msg::new("diag-what-the-reference")));
+        let reference =
+            Reader::arg(child, 0).and_then(|e| r.name(e, Msg::new("diag-what-the-reference")));
         let what = r.opt_prop_string(child, "what");
         if reference.is_none() && what.is_none() && Reader::arg(child, 0).is_none() {
             r.push(
@@ -1312,7 +1328,9 @@ fn decode_mod_figures(node: &KdlNode, r: &mut Reader) -> (Vec<ModFigure>, Option
                 let valve = r.req_prop_name(child, "valve", ex);
                 let load = res(r, "load", ex);
                 let rk = r.opt_prop_quantity(child, "rk", Q::Resistance);
-                let rk = r.positive(rk, Msg::new("diag-kind-resistance"), false).map(|q| Ohms(q.value));
+                let rk = r
+                    .positive(rk, Msg::new("diag-kind-resistance"), false)
+                    .map(|q| Ohms(q.value));
                 let bypassed = r.opt_prop_bool(child, "bypassed").unwrap_or(rk.is_none());
                 if let (Some(valve), Some(load)) = (valve, load) {
                     out.push(ModFigure::StageGain {
@@ -1431,7 +1449,8 @@ fn decode_safety(node: &KdlNode, defaults: &SafetyDefaults, r: &mut Reader) -> O
                                     DecodeError::error(
                                         "job::bad-value",
                                         span,
-                                        Msg::new("diag-over-range-not-resistance").arg("rest", rest.as_str()),
+                                        Msg::new("diag-over-range-not-resistance")
+                                            .arg("rest", rest.as_str()),
                                         Msg::new("diag-over-range-expected"),
                                     )
                                     .with_help(Msg::new("diag-over-range-help")),
@@ -1608,9 +1627,13 @@ fn decode_accepted(node: &KdlNode, info: &JobInfo, r: &mut Reader) -> Vec<Accept
                     other => other,
                 }
             }
-            AcceptedKind::Valve => r.req_arg_name(child, Msg::new("diag-what-valve-position"), example),
+            AcceptedKind::Valve => {
+                r.req_arg_name(child, Msg::new("diag-what-valve-position"), example)
+            }
             AcceptedKind::Node => r.req_arg_name(child, Msg::new("diag-what-node-name"), example),
-            AcceptedKind::Part => r.req_arg_name(child, Msg::new("diag-what-part-reference"), example),
+            AcceptedKind::Part => {
+                r.req_arg_name(child, Msg::new("diag-what-part-reference"), example)
+            }
         };
         let check = Reader::prop(child, "check").and_then(|e| r.name(e, "`check`"));
         if let Some(c) = &check
@@ -1886,7 +1909,9 @@ fn mains_range(r: &mut Reader, v: Option<Spanned<f64>>, what: Msg) -> Option<Spa
         v,
         what,
         (1.0, 1000.0),
-        Msg::new("diag-range").arg("low", "1 V").arg("high", "1000 V"),
+        Msg::new("diag-range")
+            .arg("low", "1 V")
+            .arg("high", "1000 V"),
         Msg::new("diag-mains-range-help"),
     )
 }
@@ -1910,7 +1935,8 @@ fn volts_pos(r: &mut Reader, node: &KdlNode, key: &str, what: Msg) -> Option<Vol
 
 fn percent(r: &mut Reader, node: &KdlNode, key: &str) -> Option<f64> {
     let q = r.opt_prop_quantity(node, key, Q::Percent);
-    r.positive(q, Msg::new("diag-what-tolerance"), true).map(|q| q.value / 100.0)
+    r.positive(q, Msg::new("diag-what-tolerance"), true)
+        .map(|q| q.value / 100.0)
 }
 
 /// Splits "V3 V4" or "V3, V4" into names, each with its own span.

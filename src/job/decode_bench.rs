@@ -5,9 +5,9 @@
 use kdl::KdlNode;
 
 use super::decode_error::{DecodeError, suggestion};
-use crate::catalogue::{Arg, Msg};
 use super::model::*;
 use super::reader::Reader;
+use crate::catalogue::{Arg, Msg};
 use crate::units::{Hertz, Ohms, QuantityKind as Q, Volts};
 
 /// The bench-test nodes a measurement set may hold.
@@ -60,7 +60,9 @@ fn frequency(r: &mut Reader, node: &KdlNode, key: &str) -> Option<Hertz> {
     let f = r.opt_prop_quantity(node, key, Q::Frequency);
     match f {
         None if Reader::prop(node, key).is_none() => Some(DEFAULT_FREQUENCY),
-        f => r.positive(f, Msg::new("diag-bench-a-frequency"), false).map(|f| Hertz(f.value)),
+        f => r
+            .positive(f, Msg::new("diag-bench-a-frequency"), false)
+            .map(|f| Hertz(f.value)),
     }
 }
 
@@ -179,11 +181,10 @@ fn condition(node: &KdlNode, r: &mut Reader, example: &str) -> Option<PowerCondi
                 Msg::new("diag-bench-needs-at"),
                 Msg::new("diag-bench-condition-missing"),
             )
-            .with_help(
-                Msg::new("diag-two-hints")
-                    .arg("first", help())
-                    .arg("second", Msg::new("diag-for-example").arg("example", example)),
-            ),
+            .with_help(Msg::new("diag-two-hints").arg("first", help()).arg(
+                "second",
+                Msg::new("diag-for-example").arg("example", example),
+            )),
         );
         return None;
     };

@@ -261,14 +261,10 @@ fn acceptance_names(job: &Job, positions: &[&str], nodes: &[&str]) -> Vec<Decode
         }
         let Some(name) = &a.name else { continue };
         match a.kind {
-            AcceptedKind::Valve => {
-                unknown(name, positions, "position", "job::unknown-position")
-            }
+            AcceptedKind::Valve => unknown(name, positions, "position", "job::unknown-position"),
             AcceptedKind::Node => unknown(name, nodes, "node", "job::unknown-node-name"),
             AcceptedKind::Part => unknown(name, &parts, "part", "job::unknown-part"),
-            AcceptedKind::Heater => {
-                unknown(name, &heater_labels, "heater", "job::unknown-heater")
-            }
+            AcceptedKind::Heater => unknown(name, &heater_labels, "heater", "job::unknown-heater"),
             AcceptedKind::Bench => {}
             AcceptedKind::Safety => {
                 let recorded: Vec<&str> = job

@@ -109,7 +109,8 @@ pub fn decode_network(node: &KdlNode, r: &mut Reader) -> Option<Network> {
                 Msg::new("diag-net-source-missing"),
             )
             .with_help(
-                Msg::new("diag-for-example").arg("example", "source node=in valve=V1 plate-load=\"100k\""),
+                Msg::new("diag-for-example")
+                    .arg("example", "source node=in valve=V1 plate-load=\"100k\""),
             ),
         );
     }
@@ -121,7 +122,9 @@ pub fn decode_network(node: &KdlNode, r: &mut Reader) -> Option<Network> {
                 Msg::new("diag-net-needs-load"),
                 Msg::new("diag-net-load-missing"),
             )
-            .with_help(Msg::new("diag-for-example").arg("example", "load node=out resistance=\"1M\"")),
+            .with_help(
+                Msg::new("diag-for-example").arg("example", "load node=out resistance=\"1M\""),
+            ),
         );
     }
     let before = NetworkState {
@@ -492,7 +495,11 @@ fn settings(r: &mut Reader, e: &KdlEntry) -> Option<Vec<f64>> {
                         match word.parse::<f64>() {
                             Ok(v) => out.push((v, at)),
                             Err(_) => {
-                                bad(r, at, Msg::new("diag-net-found-word").arg("word", word).into());
+                                bad(
+                                    r,
+                                    at,
+                                    Msg::new("diag-net-found-word").arg("word", word).into(),
+                                );
                                 return None;
                             }
                         }
@@ -557,7 +564,9 @@ fn decode_after(node: &KdlNode, before: &NetworkState, r: &mut Reader) -> Vec<Ed
                     r.check_entries(child, &[], 1);
                 }
                 r.no_children(child);
-                let Some(reference) = r.req_arg_name(child, Msg::new("diag-net-part-reference"), example) else {
+                let Some(reference) =
+                    r.req_arg_name(child, Msg::new("diag-net-part-reference"), example)
+                else {
                     continue;
                 };
                 let Some(idx) = present.iter().position(|(p, _)| *p == reference.value) else {
@@ -606,7 +615,8 @@ fn decode_after(node: &KdlNode, before: &NetworkState, r: &mut Reader) -> Vec<Ed
                         r.push(DecodeError::error(
                             "job::not-applicable",
                             e.span(),
-                            Msg::new("diag-net-link-no-value").arg("name", reference.value.as_str()),
+                            Msg::new("diag-net-link-no-value")
+                                .arg("name", reference.value.as_str()),
                             Msg::new("diag-net-not-for-link"),
                         ));
                         continue;
@@ -640,7 +650,8 @@ fn decode_after(node: &KdlNode, before: &NetworkState, r: &mut Reader) -> Vec<Ed
                         DecodeError::error(
                             "job::missing",
                             Reader::name_span(child),
-                            Msg::new("diag-net-nothing-to-change").arg("name", reference.value.as_str()),
+                            Msg::new("diag-net-nothing-to-change")
+                                .arg("name", reference.value.as_str()),
                             Msg::new("diag-net-nothing-changed"),
                         )
                         .with_help(Msg::new(if is_pot {
@@ -678,9 +689,12 @@ fn decode_after(node: &KdlNode, before: &NetworkState, r: &mut Reader) -> Vec<Ed
                     continue;
                 };
                 if present.iter().any(|(p, _)| *p == part.reference.value) {
-                    r.push(repeated_reference(&part).with_help(
-                        Msg::new("diag-net-change-or-replace").arg("name", part.reference.value.as_str()),
-                    ));
+                    r.push(
+                        repeated_reference(&part).with_help(
+                            Msg::new("diag-net-change-or-replace")
+                                .arg("name", part.reference.value.as_str()),
+                        ),
+                    );
                     continue;
                 }
                 present.push((part.reference.value.clone(), part.kind.clone()));
