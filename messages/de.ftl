@@ -1730,6 +1730,7 @@ cli-init-next-gitattributes = PDFs und Fotos sind für git Binärdateien, Auftra
 cli-init-next-gitignore = erstellte Dokumente bleiben aus git heraus; siehe docs/git.md
 cli-new-next = die Messwerte eintragen, dann `ampreport check { $path }` ausführen
 cli-new-fault = Hinweis: die neue Auftragsdatei konnte nicht erstellt werden; das ist ein Fehler in ampreport, bitte melden
+cli-new-not-a-folder = Fehler: { $folder } ist kein Ordner
 cli-new-started-from =
     Begonnen mit { $file } (Auftrag { $id }) über `ampreport new --from`: das Gerät, das Netz,
     die Röhrenbestückung und die Schaltung sind übernommen; Messwerte, Teile, Änderungen,
@@ -1809,6 +1810,7 @@ cli-program-exited = endete mit Status { $code }
 cli-program-killed-named = wurde durch Signal { $signal } ({ $name }) beendet
 cli-program-killed = wurde durch Signal { $signal } beendet
 cli-program-ended = endete mit { $status }
+cli-program-more-output = … { $bytes } weitere Bytes der Ausgabe nicht gezeigt
 
 ## Das Netzwerk einer Änderung in Worten (src/calc/network/mod.rs): seine
 ## Quelle, seine Eingriffe und warum es sich nicht berechnen ließ.
@@ -1837,3 +1839,46 @@ figure-network-kind-capacitor = Kondensator
 figure-network-kind-inductor = Spule
 figure-network-kind-link = Brücke
 figure-network-kind-pot = Potentiometer
+
+## Was `check`, `render` und `watch` sagen, bevor ein Werkstattprofil
+## gelesen ist oder über keinen einzelnen Auftrag: das Programm sagt es
+## immer auf Englisch (docs/shop.md); die Übersetzung steht hier, damit der
+## Katalog vollständig ist.
+
+cli-error = Fehler: { $error }
+cli-warning = Warnung: { $warning }
+cli-no-job-files = Fehler: keine Auftragsdateien (*.kdl) in { $folders }
+cli-no-job-files-here = Fehler: keine Auftragsdateien (*.kdl) in { $folders } (--recursive durchsucht auch die Unterordner)
+cli-no-stop-signals = Warnung: Stoppsignale beenden ampreport ohne Aufräumen: { $error }
+cli-output-one-job = Fehler: -o benennt das PDF einer einzigen Auftragsdatei; für mehrere Aufträge oder einen Ordner --out-dir ORDNER verwenden
+cli-emit-source-one-job = Fehler: --emit-source schreibt den Quelltext eines einzigen Auftrags; eine Auftragsdatei angeben
+cli-stdin-one-job = Fehler: `-` liest einen Auftrag von der Standardeingabe; es kann nicht neben anderen Aufträgen angegeben werden
+cli-outputs-clash = Fehler: { $first } und { $second } würden beide nach { $output } geschrieben; --out-dir ORDNER verwenden oder eine Datei umbenennen
+cli-no-run-key = Warnung: { $error }; jeder Auftrag wird neu erstellt
+cli-stdout-is-terminal = Fehler: `-o -` schreibt das PDF auf die Standardausgabe, und die ist hier ein Terminal; in eine Datei oder an ein Programm leiten (`-o - > auftrag.pdf`, `-o - | lpr`)
+cli-listing-needs-file = Fehler: die Auflistung ist ein PDF mit Markdown daneben und braucht deshalb eine Datei: mit `-o DATEI.pdf` benennen
+cli-stdin-needs-output = Fehler: ein von der Standardeingabe gelesener Auftrag hat keine Datei, neben die das PDF kommen könnte; die Ausgabe mit `-o DATEI` benennen oder `-o -` für die Standardausgabe
+cli-no-template-folder = Fehler: den Vorlagenordner { $folder } gibt es nicht, oder er ist kein Ordner
+cli-typst-newer = { $path } ist typst { $version }, neuer als die geprüfte Reihe { $series }.x; das Dokument kann anders aussehen
+cli-no-workers = Fehler: { $workers } Arbeitsthreads konnten nicht gestartet werden: { $error }
+cli-watch-no-stop-signals = Warnung: Strg-C beendet die Überwachung ohne Aufräumen: { $error }
+cli-watch-no-stdin = Fehler: watch braucht Auftragsdateien zum Überwachen; `-` (Standardeingabe) lässt sich nicht überwachen
+cli-watch-no-stdout = Fehler: watch schreibt PDF-Dateien; `-o -` (Standardausgabe) ist nicht möglich
+cli-watch-cannot = Fehler: Dateien lassen sich auf diesem System nicht überwachen: { $error }
+cli-watching = { $count ->
+        [one] 1 Auftrag wird auf Änderungen überwacht (Strg-C beendet)
+       *[other] { $count } Aufträge werden auf Änderungen überwacht (Strg-C beendet)
+    }
+cli-watch-stopped = Überwachung beendet
+cli-watch-trouble = Warnung: beim Überwachen der Dateien: { $error }
+cli-watcher-stopped = Fehler: die Dateiüberwachung wurde beendet
+cli-watch-folder = { $folder } lässt sich nicht überwachen: { $error }
+cli-shop-beside-job = Hinweis: es gilt das Werkstattprofil { $used } neben dem Auftrag; --shop { $named } gilt nur, wo keines vorhanden ist
+cli-reading-stdin = Hinweis: der Auftrag wird von der Standardeingabe gelesen; mit Strg-D abschließen
+
+## Ein Dokument, das sich vor dem Aufruf von typst nicht zusammenstellen
+## ließ (src/cli/render.rs), in der Sprache des Auftrags.
+
+cli-template-not-filled = Fehler: die Vorlage { $name } ließ sich nicht ausfüllen: { $detail }
+cli-shop-image-unreadable = Fehler: das Bild der Werkstatt { $path } ließ sich nicht lesen: { $error }
+cli-template-file-refused = Fehler: eine Datei des Vorlagenordners wurde abgelehnt: { $error }

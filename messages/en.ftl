@@ -1733,6 +1733,7 @@ cli-init-next-gitattributes = PDFs and photos are binary to git, job files are t
 cli-init-next-gitignore = rendered documents stay out of git; see docs/git.md
 cli-new-next = fill in the readings, then run `ampreport check { $path }`
 cli-new-fault = note: the new job file could not be made; this is a fault in ampreport, please report it
+cli-new-not-a-folder = error: { $folder } is not a folder
 cli-new-started-from =
     Started from { $file } (job { $id }) with `ampreport new --from`: the unit, the mains,
     the line-up and the circuit are carried over; the readings, parts, mods,
@@ -1814,6 +1815,7 @@ cli-program-exited = exited with status { $code }
 cli-program-killed-named = was killed by signal { $signal } ({ $name })
 cli-program-killed = was killed by signal { $signal }
 cli-program-ended = ended with { $status }
+cli-program-more-output = … { $bytes } more bytes of output not shown
 
 ## A mod's network in words (src/calc/network/mod.rs): its source, its
 ## edits and why it could not be worked out, as the document and
@@ -1844,3 +1846,47 @@ figure-network-kind-capacitor = capacitor
 figure-network-kind-inductor = inductor
 figure-network-kind-link = link
 figure-network-kind-pot = pot
+
+## What `check`, `render` and `watch` say before any shop profile is read,
+## or about no one job (src/cli/check.rs, render.rs, watch.rs, batch.rs,
+## src/typeset/locate.rs): always in English, from here all the same.
+## `$error` is a message from elsewhere, already written.
+
+cli-error = error: { $error }
+cli-warning = warning: { $warning }
+cli-no-job-files = error: no job files (*.kdl) in { $folders }
+cli-no-job-files-here = error: no job files (*.kdl) in { $folders } (--recursive also searches their sub-folders)
+cli-no-stop-signals = warning: stop signals will end ampreport without clean-up: { $error }
+cli-output-one-job = error: -o names the PDF of one job file; for several jobs or a folder use --out-dir DIR
+cli-emit-source-one-job = error: --emit-source writes the source of one job; name one job file
+cli-stdin-one-job = error: `-` reads one job from standard input; it cannot be named beside other jobs
+cli-outputs-clash = error: { $first } and { $second } would both be written to { $output }; use --out-dir DIR or rename one
+cli-no-run-key = warning: { $error }; every job is rendered
+cli-stdout-is-terminal = error: `-o -` writes the PDF to standard output, which is a terminal here; send it to a file or a program (`-o - > job.pdf`, `-o - | lpr`)
+cli-listing-needs-file = error: the listing is a PDF and Markdown beside it, so it needs a file: name it with `-o FILE.pdf`
+cli-stdin-needs-output = error: a job read from standard input has no file to put the PDF beside; name the output with `-o FILE`, or `-o -` for standard output
+cli-no-template-folder = error: the template folder { $folder } does not exist or is not a folder
+cli-typst-newer = { $path } is typst { $version }, newer than the tested { $series }.x series; the document may look different
+cli-no-workers = error: could not start { $workers } worker threads: { $error }
+cli-watch-no-stop-signals = warning: Ctrl-C will end the watch without clean-up: { $error }
+cli-watch-no-stdin = error: watch needs job files to watch; `-` (standard input) cannot be watched
+cli-watch-no-stdout = error: watch writes PDF files; `-o -` (standard output) cannot be used
+cli-watch-cannot = error: cannot watch files on this system: { $error }
+cli-watching = { $count ->
+        [one] watching 1 job for changes (Ctrl-C stops)
+       *[other] watching { $count } jobs for changes (Ctrl-C stops)
+    }
+cli-watch-stopped = stopped watching
+cli-watch-trouble = warning: watching files: { $error }
+cli-watcher-stopped = error: the file watcher stopped
+cli-watch-folder = cannot watch { $folder }: { $error }
+cli-shop-beside-job = note: using the shop profile { $used } found beside the job; --shop { $named } applies only where there is none
+cli-reading-stdin = note: reading the job from standard input; end it with Ctrl-D
+
+## A document that could not be assembled before typst ran
+## (src/cli/render.rs, from src/report/handover/mod.rs), in the job's
+## language. `$detail` is the template engine's own words.
+
+cli-template-not-filled = error: the template { $name } could not be filled: { $detail }
+cli-shop-image-unreadable = error: could not read the shop image { $path }: { $error }
+cli-template-file-refused = error: refused a file of the template folder: { $error }

@@ -261,7 +261,8 @@ impl TypesetError {
         }
     }
 
-    fn message_in(&self, catalogue: &Catalogue) -> String {
+    /// The message alone in the words of `catalogue`.
+    pub fn message_in(&self, catalogue: &Catalogue) -> String {
         match (self, self.words()) {
             (_, Some((message, _))) => catalogue.say(&message),
             (Self::Output(e), None) => e.to_string(),
