@@ -1907,3 +1907,46 @@ cli-reading-stdin = Hinweis: der Auftrag wird von der Standardeingabe gelesen; m
 cli-template-not-filled = Fehler: die Vorlage { $name } ließ sich nicht ausfüllen: { $detail }
 cli-shop-image-unreadable = Fehler: das Bild der Werkstatt { $path } ließ sich nicht lesen: { $error }
 cli-template-file-refused = Fehler: eine Datei des Vorlagenordners wurde abgelehnt: { $error }
+
+## Wohin ein Dokument nicht geschrieben werden darf (src/typeset/output.rs),
+## in der Sprache des Auftrags, sobald sein Werkstattprofil gelesen ist.
+
+cli-output-folder = die Ausgabe { $path } benennt einen Ordner, keine Datei
+cli-output-folder-help = die Datei benennen, zum Beispiel `-o { $example }`
+cli-output-link = die Ausgabe { $path } ist ein symbolischer Link (auf { $target }); ampreport schreibt nicht durch Links
+cli-output-link-help = die Datei selbst mit `-o` benennen oder den Link entfernen
+cli-output-not-a-file = die Ausgabe { $path } existiert und ist { $kind }, keine gewöhnliche Datei
+cli-output-not-a-file-help = ampreport überschreibt nur eine gewöhnliche Datei; mit `-o` einen anderen Pfad angeben
+cli-output-no-folder = den Ordner der Ausgabe { $path } gibt es nicht
+cli-output-no-folder-help = den Ordner zuerst anlegen oder mit `-o` einen anderen Pfad angeben
+cli-output-is-input = die Ausgabe { $path } ist { $what } ({ $input }); dorthin zu schreiben würde sie zerstören
+cli-output-is-input-help = mit `-o` einen anderen Pfad angeben
+cli-output-inside-input = die Ausgabe { $path } liegt in einem Ordner, der gelesen wird ({ $what }: { $input })
+cli-output-inside-input-help = ampreport liest jede Datei in diesem Ordner; die Ausgabe mit `-o` an einen anderen Ort schreiben
+cli-emit-folder = der Quelltextordner { $path } { $problem }
+cli-emit-folder-link = ist ein symbolischer Link; ampreport schreibt nicht durch Links
+cli-emit-folder-link-help = den Ordner selbst benennen oder den Link entfernen
+cli-emit-folder-not-a-folder = existiert und ist { $kind }, kein Ordner
+cli-emit-folder-new-help = einen neuen oder leeren Ordner angeben
+cli-emit-folder-not-empty = ist nicht leer
+cli-emit-folder-not-empty-help = einen neuen oder leeren Ordner angeben oder --force hinzufügen, um alles darin zu ersetzen
+cli-emit-folder-too-wide = ist das Wurzel-, Home- oder aktuelle Verzeichnis oder enthält das aktuelle Verzeichnis
+cli-emit-folder-too-wide-help = einen eigenen Ordner für den Quelltext angeben, etwa `./handover-source`
+cli-emit-folder-overlaps = überschneidet sich mit einer Datei oder einem Ordner des Laufs ({ $what }: { $path })
+cli-emit-folder-overlaps-help = einen eigenen Ordner für den Quelltext angeben, getrennt vom Auftrag, seinen Eingaben und dem PDF
+cli-input-job-file = die Auftragsdatei
+cli-input-job-of-run = eine Auftragsdatei dieses Laufs
+cli-input-ratings-file = eine Datei mit Röhrendaten
+cli-input-shop-profile = das Werkstattprofil
+cli-input-photo = ein Foto des Auftrags
+cli-input-template-folder = der Vorlagenordner
+cli-input-logo = das Logo der Werkstatt
+cli-input-translation = die Übersetzungsdatei der Werkstatt
+cli-input-typst = das Programm typst
+cli-input-pdf-output = die PDF-Ausgabe
+cli-kind-fifo = ein FIFO (benannte Pipe)
+cli-kind-device = ein Gerät
+cli-kind-socket = ein Socket
+cli-kind-folder = ein Ordner
+cli-kind-link = ein symbolischer Link
+cli-kind-other = keine gewöhnliche Datei

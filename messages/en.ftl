@@ -1914,3 +1914,48 @@ cli-reading-stdin = note: reading the job from standard input; end it with Ctrl-
 cli-template-not-filled = error: the template { $name } could not be filled: { $detail }
 cli-shop-image-unreadable = error: could not read the shop image { $path }: { $error }
 cli-template-file-refused = error: refused a file of the template folder: { $error }
+
+## Where a document may not be written (src/typeset/output.rs), in the
+## job's language once its shop profile is read. `$what` is one of the
+## `cli-input-…` words, `$kind` one of the `cli-kind-…` words, `$problem`
+## one of the `cli-emit-folder-…` phrases.
+
+cli-output-folder = the output { $path } names a folder, not a file
+cli-output-folder-help = name the file, for example `-o { $example }`
+cli-output-link = the output { $path } is a symbolic link (to { $target }); ampreport does not write through links
+cli-output-link-help = name the file itself with `-o`, or remove the link
+cli-output-not-a-file = the output { $path } exists and is { $kind }, not a regular file
+cli-output-not-a-file-help = ampreport writes only over a regular file; name another path with `-o`
+cli-output-no-folder = the folder of the output { $path } does not exist
+cli-output-no-folder-help = create the folder first, or name another path with `-o`
+cli-output-is-input = the output { $path } is { $what } ({ $input }); writing there would destroy it
+cli-output-is-input-help = name another path with `-o`
+cli-output-inside-input = the output { $path } is inside { $what } ({ $input })
+cli-output-inside-input-help = ampreport reads every file in that folder; write the output somewhere else with `-o`
+cli-emit-folder = the source folder { $path } { $problem }
+cli-emit-folder-link = is a symbolic link; ampreport does not write through links
+cli-emit-folder-link-help = name the folder itself, or remove the link
+cli-emit-folder-not-a-folder = exists and is { $kind }, not a folder
+cli-emit-folder-new-help = name a new or empty folder
+cli-emit-folder-not-empty = is not empty
+cli-emit-folder-not-empty-help = name a new or empty folder, or add --force to replace everything in it
+cli-emit-folder-too-wide = is the root, home or current folder, or holds the current folder
+cli-emit-folder-too-wide-help = name a folder of its own for the source, such as `./handover-source`
+cli-emit-folder-overlaps = overlaps { $what } ({ $path })
+cli-emit-folder-overlaps-help = name a folder of its own for the source, apart from the job, its inputs and the PDF
+cli-input-job-file = the job file
+cli-input-job-of-run = a job file of this run
+cli-input-ratings-file = a ratings file
+cli-input-shop-profile = the shop profile
+cli-input-photo = a photo of the job
+cli-input-template-folder = the template folder
+cli-input-logo = the shop's logo
+cli-input-translation = the shop's translation file
+cli-input-typst = the typst program
+cli-input-pdf-output = the PDF output
+cli-kind-fifo = a FIFO (named pipe)
+cli-kind-device = a device
+cli-kind-socket = a socket
+cli-kind-folder = a folder
+cli-kind-link = a symbolic link
+cli-kind-other = not a regular file

@@ -522,6 +522,11 @@ fn new_speaks_the_shop_language() {
 /// answers `--version` like typst 0.15.1) and a temporary folder of its
 /// own, so the source typst leaves behind is cleaned up with `dir`.
 fn render_with_typst(dir: &std::path::Path, body: &str) -> std::process::Output {
+    render_with_typst_to(dir, body, "job.pdf")
+}
+
+/// [`render_with_typst`] with the output named `output`.
+fn render_with_typst_to(dir: &std::path::Path, body: &str, output: &str) -> std::process::Output {
     let typst = dir.join("stand-in-typst");
     std::fs::write(
         &typst,
@@ -535,7 +540,7 @@ fn render_with_typst(dir: &std::path::Path, body: &str) -> std::process::Output 
     std::fs::create_dir_all(&tmp).unwrap();
     std::process::Command::new(support::bin())
         .current_dir(dir)
-        .args(["render", "job.kdl", "--typst"])
+        .args(["render", "job.kdl", "-o", output, "--typst"])
         .arg(&typst)
         .env("XDG_CONFIG_HOME", dir.join("no-config"))
         .env("XDG_CACHE_HOME", support::cache_home())
@@ -643,4 +648,38 @@ fn the_terminal_tables_name_bias_and_safety_tests_in_the_shop_language() {
         assert!(en.contains("earth continuity"), "{en}");
         assert!(!de.contains("earth continuity"), "{de}");
     }
+}
+
+#[test]
+fn an_output_that_would_destroy_an_input_is_refused_in_the_shop_language() {
+    use support::says;
+    let german = demo_folder("combo-el84-cathode.kdl", "language \"de\"");
+    // A stand-in typst that is never asked to compile: the refusal comes
+    // first.
+    let o = render_with_typst_to(german.path(), "exit 9", "job.kdl");
+    assert_eq!(o.status.code(), Some(2), "{}", stderr(&o));
+    let err = stderr(&o);
+    assert!(
+        says(
+            &err,
+            "die Ausgabe job.kdl ist die Auftragsdatei (job.kdl); dorthin zu schreiben würde sie zerstören"
+        ),
+        "{err}"
+    );
+    assert!(says(&err, "mit `-o` einen anderen Pfad angeben"), "{err}");
+    assert!(err.contains("ampreport::output::is_input"), "{err}");
+    // The job file is untouched.
+    assert_eq!(
+        std::fs::read_to_string(german.path().join("job.kdl")).unwrap(),
+        std::fs::read_to_string(repo().join("jobs/combo-el84-cathode.kdl")).unwrap()
+    );
+    let english = demo_folder("combo-el84-cathode.kdl", "");
+    let err = stderr(&render_with_typst_to(english.path(), "exit 9", "job.kdl"));
+    assert!(
+        says(
+            &err,
+            "the output job.kdl is the job file (job.kdl); writing there would destroy it"
+        ),
+        "{err}"
+    );
 }

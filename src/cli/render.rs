@@ -193,7 +193,7 @@ impl<'a> Setup<'a> {
             plans
                 .iter()
                 .filter(|p| !is_dash(&p.job.path))
-                .map(|p| Input::new(&p.job.path, "a job file of this run"))
+                .map(|p| Input::new(&p.job.path, "cli-input-job-of-run"))
                 .collect(),
         );
         Ok(Setup {
@@ -423,11 +423,7 @@ fn render_job(
     depends.extend(photo_files.iter().cloned());
 
     let mut inputs = inputs_read(args, job_path, &setup.program, loaded.shop.as_ref());
-    inputs.extend(
-        photo_files
-            .iter()
-            .map(|p| Input::new(p, "a photo of the job")),
-    );
+    inputs.extend(photo_files.iter().map(|p| Input::new(p, "cli-input-photo")));
     // The listing's Markdown and photos go beside its PDF; the photos'
     // names are known once they are prepared, and checked then.
     let markdown = args.listing.then(|| markdown_for(output));
@@ -441,7 +437,10 @@ fn render_job(
         if let Err(e) =
             typeset::check_output(path, &inputs).and_then(|()| setup.job_files.check(path))
         {
-            said.error(format!("{:?}", miette::Report::new(e)));
+            said.error(format!(
+                "{:?}",
+                miette::Report::new(e.in_language(said.catalogue()))
+            ));
             return Err(Exit::Usage);
         }
     }
@@ -504,7 +503,10 @@ fn render_job(
             if let Err(e) =
                 typeset::check_output(path, &inputs).and_then(|()| setup.job_files.check(path))
             {
-                said.error(format!("{:?}", miette::Report::new(e)));
+                said.error(format!(
+                    "{:?}",
+                    miette::Report::new(e.in_language(said.catalogue()))
+                ));
                 return Err(Exit::Usage);
             }
         }
@@ -541,7 +543,10 @@ fn render_job(
 
     if let Some(dir) = &args.emit_source {
         if let Err(e) = typeset::check_emit_folder(dir, &inputs, output, args.force) {
-            said.error(format!("{:?}", miette::Report::new(e)));
+            said.error(format!(
+                "{:?}",
+                miette::Report::new(e.in_language(said.catalogue()))
+            ));
             return Err(Exit::Usage);
         }
         let written = if args.force {
@@ -820,27 +825,27 @@ fn inputs_read(
 ) -> Vec<Input> {
     let mut inputs = Vec::new();
     if !is_dash(job) {
-        inputs.push(Input::new(job, "the job file"));
+        inputs.push(Input::new(job, "cli-input-job-file"));
     }
     inputs.extend(
         args.job
             .ratings
             .iter()
-            .map(|r| Input::new(r, "a ratings file")),
+            .map(|r| Input::new(r, "cli-input-ratings-file")),
     );
     if let Some(dir) = &args.templates {
-        inputs.push(Input::new(dir, "the template folder"));
+        inputs.push(Input::new(dir, "cli-input-template-folder"));
     }
     if let Some(shop) = shop {
-        inputs.push(Input::new(shop.path(), "the shop profile"));
+        inputs.push(Input::new(shop.path(), "cli-input-shop-profile"));
         if let Some(logo) = &shop.logo {
-            inputs.push(Input::new(&logo.source, "the shop's logo"));
+            inputs.push(Input::new(&logo.source, "cli-input-logo"));
         }
         if let Some(translation) = &shop.translation {
-            inputs.push(Input::new(translation, "the shop's translation file"));
+            inputs.push(Input::new(translation, "cli-input-translation"));
         }
     }
-    inputs.push(Input::new(&program.path, "the typst program"));
+    inputs.push(Input::new(&program.path, "cli-input-typst"));
     inputs
 }
 
