@@ -984,7 +984,7 @@ note-unfit-no-grid = es gibt keinen Messwert der Gitterspannung
 note-unfit-cut-off = ihre Messwerte liegen nach dem Drei-Halbe-Gesetz (μ { $mu }) im oder jenseits des Sperrbereichs, daher lässt sich das Gesetz nicht anpassen
 note-no-suggestion-figure = { $reference }: kein Vorschlag für den Kathodenwiderstand, da keine Röhre daran einen Wert der Anodenverlustleistung hat
 note-no-suggestion-unfit = { $reference }: kein Vorschlag für den Kathodenwiderstand, da für { $valve } gilt: { $why }
-note-no-suggestion-reach = { $reference }: nach dem Drei-Halbe-Gesetz bringt kein Kathodenwiderstand { $valve } auf { $pct } % seiner Anodenverlustleistung
+note-no-suggestion-reach = { $reference }: nach dem Drei-Halbe-Gesetz bringt kein Kathodenwiderstand { $valve } auf { $pct } % der zulässigen Anodenverlustleistung
 
 ## Aufzählungen im Text: „V3, V4 und V5“.
 
