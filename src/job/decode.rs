@@ -331,7 +331,7 @@ fn text_node(node: &KdlNode, r: &mut Reader) -> Option<String> {
     r.check_entries(node, &[], 1);
     r.no_children(node);
     let what = format!("`{}`", node.name().value());
-    r.req_arg_string(node, &what, &format!("{} \"…\"", node.name().value()))
+    r.req_arg_string(node, &what, format!("{} \"…\"", node.name().value()))
         .map(|s| s.value)
 }
 
@@ -1729,7 +1729,7 @@ fn remark(node: &KdlNode, r: &mut Reader) -> Option<Remark> {
     r.check_entries(node, &["private"], 1);
     r.no_children(node);
     let name = node.name().value();
-    let text = r.req_arg_string(node, format!("`{name}`"), &format!("{name} \"…\""))?;
+    let text = r.req_arg_string(node, format!("`{name}`"), format!("{name} \"…\""))?;
     let private = r.opt_prop_bool(node, "private").unwrap_or(false);
     Some(Remark {
         text: text.value,

@@ -271,7 +271,7 @@ fn text(node: &KdlNode, r: &mut Reader) -> Option<String> {
     r.check_entries(node, &[], 1);
     r.no_children(node);
     let name = node.name().value();
-    r.req_arg_string(node, format!("`{name}`"), &format!("{name} \"…\""))
+    r.req_arg_string(node, format!("`{name}`"), format!("{name} \"…\""))
         .map(|s| s.value)
 }
 
