@@ -701,10 +701,12 @@ fn why_no_cathode_resistor_is_suggested_is_said_in_the_shop_language() {
     let demo = std::fs::read_to_string(repo().join("jobs/combo-el84-cathode.kdl")).unwrap();
     let job = demo.replace("type=EL84", "type=\"6973\"");
     assert_eq!(job.matches("type=\"6973\"").count(), 2);
-    let english_words =
-        "R24: no cathode-resistor suggestion, since for V3 the ratings table gives no μg1g2 for 6973";
+    let english_words = "R24: no cathode-resistor suggestion, since for V3 the ratings table gives no μg1g2 for 6973";
     let german_words = "R24: kein Vorschlag für den Kathodenwiderstand, da für V3 gilt: die Datentabelle nennt kein μg1g2 für 6973";
-    for args in [&["check", "job.kdl"][..], &["calc", "--json", "job.kdl"][..]] {
+    for args in [
+        &["check", "job.kdl"][..],
+        &["calc", "--json", "job.kdl"][..],
+    ] {
         let de = run(folder(&job, "language \"de\"").path(), args);
         let en = run(folder(&job, "").path(), args);
         let (de, en) = (
