@@ -1317,3 +1317,173 @@ cli-typst-warned =
     typst warnte:
     { $warnings }
 cli-cannot-record = Warnung: es konnte nicht festgehalten werden, woraus { $path } entstand ({ $error }); der nächste Lauf erstellt es neu
+
+## `ampreport compare` (src/report/compare.rs, src/cli/compare.rs): die
+## Tabelle der geänderten Werte, in der Sprache des Werkstattprofils.
+
+cli-compare-no-such-set = Fehler: { $job } hat keine Messreihe „{ $label }“; vorhanden sind { $known }
+cli-compare-no-such-set-none = Fehler: { $job } hat keine Messreihe „{ $label }“; es gibt keine
+cli-compare-path-from-here = Hinweis: in REV:PFAD liest git den PFAD ab dem obersten Ordner des Repositorys; für die Datei, von diesem Ordner aus benannt, { $spelling } schreiben
+cli-compare-set-name = „{ $label }“
+cli-compare-set-only-in = Messreihe „{ $label }“ nur in { $side }
+cli-compare-nothing-changed = kein Wert hat sich geändert
+cli-compare-changed = { $count ->
+        [one] 1 Wert geändert
+       *[other] { $count } Werte geändert
+    }
+cli-compare-col-set = Messreihe
+cli-compare-col-what = was
+cli-compare-col-figure = Größe
+cli-compare-col-old = alt
+cli-compare-col-new = neu
+cli-compare-col-change = Änderung
+cli-compare-safety = Sicherheit
+cli-compare-mains = Netz
+cli-compare-figure-plate-volts = Anodenspannung
+cli-compare-figure-screen-volts = Schirmgitterspannung
+cli-compare-figure-cathode-volts = Kathodenspannung
+cli-compare-figure-grid-volts = Gitterspannung
+cli-compare-figure-cathode-current-ma = Kathodenstrom
+cli-compare-figure-plate-current-ma = Anodenstrom
+cli-compare-figure-screen-current-ma = Schirmgitterstrom
+cli-compare-figure-plate-dissipation-w = Anodenverlustleistung
+cli-compare-figure-plate-dissipation-pct = Anodenverlustleistung %
+cli-compare-figure-high-line-plate-dissipation-pct = Anodenverlustleistung, obere Grenze %
+cli-compare-figure-screen-dissipation-w = Schirmgitterverlustleistung
+cli-compare-figure-screen-dissipation-pct = Schirmgitterverlustleistung %
+cli-compare-figure-status = Status
+cli-compare-figure-measured-volts = gemessen
+cli-compare-figure-corrected-volts = korrigiert
+cli-compare-figure-deviation-pct = Abweichung %
+cli-compare-figure-high-line-volts = obere Grenze
+cli-compare-figure-voltage-volts = Spannung
+cli-compare-figure-current-ma = Strom
+cli-compare-figure-power-w = Leistung
+cli-compare-figure-power-pct = Leistung %
+cli-compare-figure-high-line-power-pct = Leistung, obere Grenze %
+cli-compare-figure-highest-volts = Höchstwert
+cli-compare-figure-margin-pct = Reserve %
+cli-compare-figure-mains-volts = Netzspannung
+cli-compare-figure-measured-value = gemessen
+
+## `ampreport init` und `ampreport new` (src/cli/init.rs, src/cli/new.rs).
+## `init` liest kein Werkstattprofil und spricht Englisch; `new` spricht
+## die Sprache des Profils, nach dem es den Auftrag nummeriert.
+
+cli-init-wrote = geschrieben: { $path }; { $next }
+cli-init-exists = Fehler: { $path } gibt es schon; ampreport überschreibt nie eine Datei
+cli-init-cannot-write = Fehler: { $path } kann nicht geschrieben werden: { $error }
+cli-init-cannot-make-folder = Fehler: der Ordner { $folder } kann nicht angelegt werden: { $error }
+cli-init-next-job = ausfüllen, dann `ampreport check { $path }` ausführen
+cli-init-next-shop = ausfüllen; Aufträge in seinem Ordner und darunter verwenden es (siehe docs/shop.md)
+cli-init-next-gitattributes = PDFs und Fotos sind für git Binärdateien, Auftragsdateien sind Text
+cli-init-next-gitignore = erstellte Dokumente bleiben aus git heraus; siehe docs/git.md
+cli-new-next = die Messwerte eintragen, dann `ampreport check { $path }` ausführen
+cli-new-fault = Hinweis: die neue Auftragsdatei konnte nicht erstellt werden; das ist ein Fehler in ampreport, bitte melden
+cli-new-started-from =
+    Begonnen mit { $file } (Auftrag { $id }) über `ampreport new --from`: das Gerät, das Netz,
+    die Röhrenbestückung und die Schaltung sind übernommen; Messwerte, Teile, Änderungen,
+    Sicherheitsprüfungen, Notizen, Kunde und Kosten nicht.
+cli-new-readings = Messwerte dieses Auftrags:
+
+## Die Art der Gittervorspannung in der Röhrentabelle des Terminals
+## (src/report/terminal.rs).
+
+term-bias-cathode = automatisch
+term-bias-fixed = fest
+
+## Was zwischen dem fertigen Quelltext des Dokuments und dem PDF schiefging:
+## Fehler von typst und des Satzordners (src/typeset). Ein Fehler, der vor
+## dem Lesen des Werkstattprofils auffällt (typst fehlt oder ist zu alt),
+## wird auf Englisch gemeldet.
+
+cli-typst-not-found = typst wurde nicht gefunden: { $looked }
+cli-typst-not-found-help = mit `{ $install }` installieren oder das Programm mit `--typst PFAD` oder der Umgebungsvariablen AMPREPORT_TYPST angeben
+cli-typst-looked-path = kein `{ $program }` im PATH
+cli-typst-looked-path-given = kein `{ $path }` im PATH ({ $origin })
+cli-typst-looked-missing = { $path } gibt es nicht ({ $origin })
+cli-typst-looked-not-executable = { $path } ist keine ausführbare Datei ({ $origin })
+cli-typst-origin-option = der mit --typst angegebene Pfad
+cli-typst-origin-env = der Pfad in AMPREPORT_TYPST
+cli-typst-too-old = { $path } ist typst { $found }, ampreport braucht aber typst { $needed } oder neuer
+cli-typst-too-old-help = mit `{ $install }` aktualisieren oder `--typst PFAD` auf ein neueres zeigen lassen
+cli-typst-unusable = { $path } ließ sich nicht als typst ausführen: { $problem }
+cli-typst-unusable-help = prüfen, ob dies das Kommandozeilenprogramm typst ist und ob es läuft; ein frisches gibt es mit `{ $install }`
+cli-typst-failed-to-start = es ließ sich nicht starten ({ $error })
+cli-typst-version-unreadable = seine Antwort auf `--version` war nicht lesbar ({ $error })
+cli-typst-version-odd = `--version` { $status } und gab { $said } aus, nicht `typst X.Y.Z`
+cli-typst-compile-failed =
+    typst konnte das Dokument nicht setzen (es { $status }):
+    { $diagnostics }
+cli-typst-compile-failed-help = der erzeugte Quelltext wurde zur Prüfung in { $kept } aufbewahrt; Dateinamen in den Meldungen oben beziehen sich auf diesen Ordner
+cli-typst-misbehaved = das Programm typst { $path } { $what }{ $said }
+cli-typst-misbehaved-help = das deutet auf das Programm typst oder den Rechner hin, auf dem es läuft (Speicher, Festplatte), nicht auf den Auftrag: dasselbe typst mit dem aufbewahrten Quelltext in { $kept } versuchen oder mit `{ $install }` frisch installieren
+cli-typst-it-said =
+    ; es meldete:
+    { $diagnostics }
+cli-typst-no-messages = { $status } und gab keine Meldungen aus
+cli-typst-crashed = { $status }; so meldet ein Rust-Programm einen Absturz
+cli-typst-odd-status = { $status }; diesen Status verwendet typst nicht für einen Fehler im Dokument
+cli-typst-no-file = meldete Erfolg, schrieb aber keine Datei
+cli-typst-too-big = meldete Erfolg, schrieb aber { $size } Bytes, mehr als die { $limit }, die ein Dokument haben darf
+cli-typst-incomplete = meldete Erfolg, schrieb aber eine unvollständige Datei: { $why }
+cli-typst-timed-out = das Programm typst { $path } hat `{ $action }` nicht innerhalb von { $seconds } s beendet und wurde angehalten{ $said }
+cli-typst-timed-out-help = ein Übergabedokument dauert einige Sekunden; ein typst, das hängt, ist fehlerhaft, oder der Rechner ist sehr ausgelastet. Mehr Zeit mit `--timeout SEKUNDEN` oder AMPREPORT_TIMEOUT erlauben
+cli-typst-interrupted = angehalten durch { $signal }; typst wurde angehalten und die temporären Dateien entfernt
+cli-typst-signal-named = { $name } (Signal { $number })
+cli-typst-signal = Signal { $number }
+cli-typst-missing-text = das fertige Dokument zeigt { $what } nicht: { $missing } { $count ->
+        [one] fehlt
+       *[other] fehlen
+    } in seinem Text
+cli-typst-missing-text-help = die Vorlage muss { $what } lesbar platzieren; der erzeugte Quelltext wurde in { $kept } aufbewahrt
+cli-typst-notice = den Sicherheitshinweis zur Netzspannung und den Verweis auf die örtlichen Elektrovorschriften
+cli-typst-bad-sandbox-path = `{ $path }` kann nicht in den Satzordner gelegt werden: { $reason }
+cli-typst-bad-sandbox-path-help = einen einfachen relativen Pfad wie `plots/anode.svg` verwenden
+cli-typst-path-not-in-sandbox = es ist keine der Dateien des Satzordners
+cli-typst-path-empty = der Pfad ist leer
+cli-typst-path-not-relative = der Pfad muss relativ sein
+cli-typst-path-backslash = `/` zwischen Ordnernamen verwenden
+cli-typst-path-control = der Pfad enthält ein Steuerzeichen
+cli-typst-path-dots = der Pfad hat einen leeren Teil, `.` oder `..`
+cli-typst-path-fonts = der Ordner `fonts/` ist den mitgelieferten Schriften vorbehalten
+cli-typst-io-create-folder = in { $path } konnte kein Ordner angelegt werden
+cli-typst-io-write-files = die Dateien für den Satz konnten nicht nach { $path } geschrieben werden
+cli-typst-io-write-fonts = die Schriften konnten nicht nach { $path } geschrieben werden
+cli-typst-io-wait = auf typst beim Setzen von { $path } konnte nicht gewartet werden
+cli-typst-io-read-pdf = das von typst geschriebene PDF { $path } konnte nicht gelesen werden
+cli-typst-io-write-stdout = das PDF konnte nicht auf die Standardausgabe geschrieben werden
+cli-typst-io-create-temporary = in { $path } konnte keine temporäre Datei angelegt werden
+cli-typst-io-write = { $path } konnte nicht geschrieben werden
+cli-program-exited = endete mit Status { $code }
+cli-program-killed-named = wurde durch Signal { $signal } ({ $name }) beendet
+cli-program-killed = wurde durch Signal { $signal } beendet
+cli-program-ended = endete mit { $status }
+
+## Das Netzwerk einer Änderung in Worten (src/calc/network/mod.rs): seine
+## Quelle, seine Eingriffe und warum es sich nicht berechnen ließ.
+
+figure-network-ideal-source = eine ideale Spannungsquelle (ohne Ausgangswiderstand)
+figure-network-source-impedance = eine Quelle mit { $impedance } Ausgangswiderstand
+figure-network-valve-source = { $position } ({ $type }, μ { $mu }, ra { $ra }) mit { $load } Anodenwiderstand{ $how } = { $impedance } Ausgangswiderstand
+figure-network-bypassed = : ra ∥ RL
+figure-network-unbypassed = , Kathodenwiderstand { $resistor } ohne Überbrückung: (ra + (μ + 1)·Rk) ∥ RL
+figure-network-not-in-line-up = die Röhrenposition { $position } ist nicht in der Bestückung
+figure-network-not-in-ratings = { $type } steht nicht in der Datentabelle
+figure-network-no-mu-ra = { $position } ({ $type }) hat in der Datentabelle keine typischen Werte für μ und ra
+figure-network-singular = die Gleichungen des Netzwerks sind bei { $frequency } Hz singulär: ein Knoten hat bei dieser Frequenz keinen Weg nach Masse
+figure-network-set-to = eingestellt auf { $settings }
+figure-network-taper-linear = lineare Kennlinie
+figure-network-taper-audio = logarithmische Kennlinie
+figure-network-removed-value = { $reference } ({ $value }) entfernt
+figure-network-removed = { $reference } entfernt
+figure-network-added-link = { $reference } hinzugefügt: eine Brücke von { $from } nach { $to }
+figure-network-added = { $reference } hinzugefügt: { $kind } { $value } zwischen { $nodes }
+figure-network-source-changed = die Quelle wurde geändert
+figure-network-load-now = die Last ist jetzt { $load } an { $node }
+figure-network-unloaded = an { $node } liegt jetzt keine Last mehr
+figure-network-kind-resistor = Widerstand
+figure-network-kind-capacitor = Kondensator
+figure-network-kind-inductor = Spule
+figure-network-kind-link = Brücke
+figure-network-kind-pot = Potentiometer

@@ -1316,3 +1316,182 @@ cli-typst-warned =
     typst warned:
     { $warnings }
 cli-cannot-record = warning: could not record what { $path } was made from ({ $error }); the next run renders it again
+
+## `ampreport compare` (src/report/compare.rs, src/cli/compare.rs): the
+## table of changed figures, in the language of the job's shop profile
+## (two versions: the language both share, else English). `$known` is a
+## list of set labels, each in quotation marks; `$side` names a version.
+
+cli-compare-no-such-set = error: { $job } has no measurement set “{ $label }”; it has { $known }
+cli-compare-no-such-set-none = error: { $job } has no measurement set “{ $label }”; it has none
+cli-compare-path-from-here = note: in REV:PATH, git reads PATH from the top folder of the repository; for the file named from this folder, write { $spelling }
+cli-compare-set-name = “{ $label }”
+cli-compare-set-only-in = set “{ $label }” only in { $side }
+cli-compare-nothing-changed = no figure changed
+cli-compare-changed = { $count ->
+        [one] 1 figure changed
+       *[other] { $count } figures changed
+    }
+cli-compare-col-set = set
+cli-compare-col-what = what
+cli-compare-col-figure = figure
+cli-compare-col-old = old
+cli-compare-col-new = new
+cli-compare-col-change = change
+cli-compare-safety = safety
+cli-compare-mains = mains
+cli-compare-figure-plate-volts = plate
+cli-compare-figure-screen-volts = screen
+cli-compare-figure-cathode-volts = cathode
+cli-compare-figure-grid-volts = grid
+cli-compare-figure-cathode-current-ma = cathode current
+cli-compare-figure-plate-current-ma = plate current
+cli-compare-figure-screen-current-ma = screen current
+cli-compare-figure-plate-dissipation-w = plate dissipation
+cli-compare-figure-plate-dissipation-pct = plate dissipation %
+cli-compare-figure-high-line-plate-dissipation-pct = high line plate dissipation %
+cli-compare-figure-screen-dissipation-w = screen dissipation
+cli-compare-figure-screen-dissipation-pct = screen dissipation %
+cli-compare-figure-status = status
+cli-compare-figure-measured-volts = measured
+cli-compare-figure-corrected-volts = corrected
+cli-compare-figure-deviation-pct = deviation %
+cli-compare-figure-high-line-volts = high line
+cli-compare-figure-voltage-volts = voltage
+cli-compare-figure-current-ma = current
+cli-compare-figure-power-w = power
+cli-compare-figure-power-pct = power %
+cli-compare-figure-high-line-power-pct = high line power %
+cli-compare-figure-highest-volts = highest
+cli-compare-figure-margin-pct = margin %
+cli-compare-figure-mains-volts = mains
+cli-compare-figure-measured-value = measured
+
+## `ampreport init` and `ampreport new` (src/cli/init.rs, src/cli/new.rs).
+## `init` reads no shop profile and speaks English; `new` speaks the
+## language of the profile it numbers the job by. `$next` is one of the
+## `-next-` messages; `cli-new-started-from` and `cli-new-readings` become
+## comment lines at the top and the end of the new job file, one for each
+## line of the message.
+
+cli-init-wrote = wrote { $path }; { $next }
+cli-init-exists = error: { $path } already exists; ampreport never replaces a file
+cli-init-cannot-write = error: cannot write { $path }: { $error }
+cli-init-cannot-make-folder = error: cannot make the folder { $folder }: { $error }
+cli-init-next-job = fill it in, then run `ampreport check { $path }`
+cli-init-next-shop = fill it in; jobs in its folder and below use it (see docs/shop.md)
+cli-init-next-gitattributes = PDFs and photos are binary to git, job files are text
+cli-init-next-gitignore = rendered documents stay out of git; see docs/git.md
+cli-new-next = fill in the readings, then run `ampreport check { $path }`
+cli-new-fault = note: the new job file could not be made; this is a fault in ampreport, please report it
+cli-new-started-from =
+    Started from { $file } (job { $id }) with `ampreport new --from`: the unit, the mains,
+    the line-up and the circuit are carried over; the readings, parts, mods,
+    safety tests, notes, customer and charges are not.
+cli-new-readings = Readings of this service:
+
+## The terminal summary's words added with the bias column
+## (src/report/terminal.rs): the kind of bias of a valve.
+
+term-bias-cathode = cathode
+term-bias-fixed = fixed
+
+## What went wrong between a finished document source and a PDF: typst's
+## failures and the typesetting folder's (src/typeset/error.rs, locate.rs,
+## compile.rs, child.rs, sandbox.rs). A failure found before the shop
+## profile is read (typst missing or too old) is said in English.
+## `$install` is the install command, `$said` empty or `cli-typst-it-said`,
+## `$status` one of the `cli-program-…` messages.
+
+cli-typst-not-found = typst was not found: { $looked }
+cli-typst-not-found-help = install it with `{ $install }`, or name the program with `--typst PATH` or the AMPREPORT_TYPST environment variable
+cli-typst-looked-path = no `{ $program }` on PATH
+cli-typst-looked-path-given = no `{ $path }` on PATH ({ $origin })
+cli-typst-looked-missing = { $path } does not exist ({ $origin })
+cli-typst-looked-not-executable = { $path } is not an executable file ({ $origin })
+cli-typst-origin-option = the path given with --typst
+cli-typst-origin-env = the path in AMPREPORT_TYPST
+cli-typst-too-old = { $path } is typst { $found }, but ampreport needs typst { $needed } or newer
+cli-typst-too-old-help = upgrade it with `{ $install }`, or point `--typst PATH` at a newer one
+cli-typst-unusable = could not run { $path } as typst: { $problem }
+cli-typst-unusable-help = check that this is the typst command-line program and that it runs; a fresh one comes from `{ $install }`
+cli-typst-failed-to-start = it failed to start ({ $error })
+cli-typst-version-unreadable = its `--version` answer could not be read ({ $error })
+cli-typst-version-odd = `--version` { $status } and printed { $said }, not `typst X.Y.Z`
+cli-typst-compile-failed =
+    typst could not compile the document (it { $status }):
+    { $diagnostics }
+cli-typst-compile-failed-help = the generated source was kept for inspection in { $kept }; file names in the messages above are relative to that folder
+cli-typst-misbehaved = the typst program { $path } { $what }{ $said }
+cli-typst-misbehaved-help = this points at the typst program or the machine it runs on (memory, disk), not at the job: try the same typst on the kept source in { $kept }, or install a fresh one with `{ $install }`
+cli-typst-it-said =
+    ; it said:
+    { $diagnostics }
+cli-typst-no-messages = { $status } and printed no messages
+cli-typst-crashed = { $status }, which is how a Rust program reports a crash
+cli-typst-odd-status = { $status }, which typst does not use for a document error
+cli-typst-no-file = reported success but wrote no file
+cli-typst-too-big = reported success but wrote { $size } bytes, more than the { $limit } a document may have
+cli-typst-incomplete = reported success but wrote an incomplete file: { $why }
+cli-typst-timed-out = the typst program { $path } did not finish `{ $action }` within { $seconds } s and was stopped{ $said }
+cli-typst-timed-out-help = a hand-over document takes a few seconds; a typst that hangs is at fault, or the machine is very busy. Allow longer with `--timeout SECONDS` or AMPREPORT_TIMEOUT
+cli-typst-interrupted = stopped by { $signal }; typst was stopped and the temporary files removed
+cli-typst-signal-named = { $name } (signal { $number })
+cli-typst-signal = signal { $number }
+cli-typst-missing-text = the finished document does not show { $what }: { $missing } { $count ->
+        [one] is
+       *[other] are
+    } missing from its text
+cli-typst-missing-text-help = the template must place { $what } where it can be read; the generated source was kept in { $kept }
+cli-typst-notice = the mains-safety notice and the deferral to local electrical codes
+cli-typst-bad-sandbox-path = `{ $path }` cannot be placed in the typesetting folder: { $reason }
+cli-typst-bad-sandbox-path-help = use a plain relative path such as `plots/anode.svg`
+cli-typst-path-not-in-sandbox = it is not one of the sandbox files
+cli-typst-path-empty = the path is empty
+cli-typst-path-not-relative = the path must be relative
+cli-typst-path-backslash = use `/` between folder names
+cli-typst-path-control = the path holds a control character
+cli-typst-path-dots = the path has an empty, `.` or `..` part
+cli-typst-path-fonts = the `fonts/` folder is reserved for the bundled fonts
+cli-typst-io-create-folder = could not create a folder in { $path }
+cli-typst-io-write-files = could not write the typesetting files to { $path }
+cli-typst-io-write-fonts = could not write the fonts to { $path }
+cli-typst-io-wait = could not wait for typst compiling { $path }
+cli-typst-io-read-pdf = could not read the PDF typst wrote to { $path }
+cli-typst-io-write-stdout = could not write the PDF to standard output
+cli-typst-io-create-temporary = could not create a temporary file in { $path }
+cli-typst-io-write = could not write { $path }
+cli-program-exited = exited with status { $code }
+cli-program-killed-named = was killed by signal { $signal } ({ $name })
+cli-program-killed = was killed by signal { $signal }
+cli-program-ended = ended with { $status }
+
+## A mod's network in words (src/calc/network/mod.rs): its source, its
+## edits and why it could not be worked out, as the document and
+## `calc --json` give them. `$how` is `figure-network-bypassed` or
+## `-unbypassed`; `$kind` one of the `figure-network-kind-…` words.
+
+figure-network-ideal-source = an ideal voltage source (no output impedance)
+figure-network-source-impedance = a source of { $impedance } output impedance
+figure-network-valve-source = { $position } ({ $type }, μ { $mu }, ra { $ra }) with a { $load } plate load{ $how } = { $impedance } output impedance
+figure-network-bypassed = : ra ∥ RL
+figure-network-unbypassed = , cathode resistor { $resistor } unbypassed: (ra + (μ + 1)·Rk) ∥ RL
+figure-network-not-in-line-up = valve position { $position } is not in the line-up
+figure-network-not-in-ratings = { $type } is not in the ratings table
+figure-network-no-mu-ra = { $position } ({ $type }) has no typical μ and ra in the ratings table
+figure-network-singular = the network's equations are singular at { $frequency } Hz: some node is left without a path to ground at that frequency
+figure-network-set-to = set to { $settings }
+figure-network-taper-linear = linear taper
+figure-network-taper-audio = audio taper
+figure-network-removed-value = { $reference } ({ $value }) removed
+figure-network-removed = { $reference } removed
+figure-network-added-link = { $reference } added: a link from { $from } to { $to }
+figure-network-added = { $reference } added: { $kind } { $value } between { $nodes }
+figure-network-source-changed = the source changed
+figure-network-load-now = the load is now { $load } at { $node }
+figure-network-unloaded = the load is now unloaded at { $node }
+figure-network-kind-resistor = resistor
+figure-network-kind-capacitor = capacitor
+figure-network-kind-inductor = inductor
+figure-network-kind-link = link
+figure-network-kind-pot = pot

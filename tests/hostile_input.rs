@@ -20,7 +20,6 @@ struct Run {
     status: Option<i32>,
     stdout: String,
     stderr: String,
-    took: Duration,
 }
 
 /// Runs the binary in `dir`, killing it after `limit`; a killed run fails
@@ -63,14 +62,12 @@ fn run_with_deadline(dir: &Path, args: &[&str], limit: Duration) -> Run {
         }
         std::thread::sleep(Duration::from_millis(20));
     };
-    let took = start.elapsed();
     let stdout = String::from_utf8_lossy(&out_thread.join().unwrap_or_default()).into_owned();
     let stderr = String::from_utf8_lossy(&err_thread.join().unwrap_or_default()).into_owned();
     Run {
         status: status.code(),
         stdout,
         stderr,
-        took,
     }
 }
 
@@ -592,12 +589,13 @@ fn a_large_valid_job_in_rare_forms_decodes_as_a_small_one() {
 
 // ----- floods -----------------------------------------------------------------------
 
-/// Thousands of problems: the first few in full, then a count of the rest,
-/// and the work stays linear. The time bound is generous (a debug build
-/// on a busy machine); the 100,000 unknown nodes once took over 10 s and
-/// 1,000 `/-` wrote 6.3 MB.
+/// Thousands of problems: the first few in full, then a count of the rest.
+/// The run's deadline only catches a hang (the 100,000 unknown nodes once
+/// took over 10 s and 1,000 `/-` wrote 6.3 MB); how long each flood takes
+/// is measured by `scripts/flood-timing.sh`, not held here, since a timed
+/// test fails on a busy machine for no fault of the program.
 #[test]
-fn a_flood_of_problems_is_capped_and_quick() {
+fn a_flood_of_problems_is_capped() {
     let shown = ampreport::problem_cap::SHOWN_PROBLEMS;
     let unknown: String = "job-format 1\n".to_string()
         + &(0..100_000)
@@ -633,7 +631,6 @@ fn a_flood_of_problems_is_capped_and_quick() {
                 run.stderr
             );
         }
-        assert!(run.took < Duration::from_secs(20), "{what}: {:?}", run.took);
     }
 }
 

@@ -212,3 +212,296 @@ fn every_terminal_key_the_program_uses_is_in_every_built_in_catalogue() {
             .starts_with("Bausteine: {yyyy} {yy}")
     );
 }
+
+/// A demo job in a folder of its own with the demo shop profile, in German
+/// or (with `extra` empty) in English.
+fn demo_folder(demo: &str, extra: &str) -> tempfile::TempDir {
+    let job = std::fs::read_to_string(repo().join("jobs").join(demo)).unwrap();
+    folder(&job, extra)
+}
+
+fn stdout(o: &std::process::Output) -> String {
+    String::from_utf8_lossy(&o.stdout).into_owned()
+}
+
+#[test]
+fn compare_speaks_the_shop_language() {
+    let german = demo_folder("head-el34-quad.kdl", "language \"de\"");
+    let english = demo_folder("head-el34-quad.kdl", "");
+    let args = ["compare", "job.kdl", "--sets", "as found", "as left"];
+    let json = run(german.path(), &[&args[..], &["--json"]].concat());
+    assert!(json.status.success(), "{}", stderr(&json));
+    let json: serde_json::Value = serde_json::from_slice(&json.stdout).unwrap();
+    let changes = json["changes"].as_array().unwrap();
+    assert!(changes.len() > 5, "{json}");
+    // The JSON is the same whatever the language: field names and status
+    // identifiers, never words.
+    let english_json = run(english.path(), &[&args[..], &["--json"]].concat());
+    assert_eq!(
+        serde_json::from_slice::<serde_json::Value>(&english_json.stdout).unwrap(),
+        json
+    );
+
+    let de = run(german.path(), &args);
+    assert!(de.status.success(), "{}", stderr(&de));
+    let de = stdout(&de);
+    let en = stdout(&run(english.path(), &args));
+    // The count, worked out from the JSON, in each language's words.
+    assert!(
+        de.contains(&format!("{} Werte geändert", changes.len())),
+        "{de}"
+    );
+    assert!(
+        en.contains(&format!("{} figures changed", changes.len())),
+        "{en}"
+    );
+    let header = de.lines().nth(1).unwrap();
+    for word in ["Messreihe", "Größe", "alt", "neu", "Änderung"] {
+        assert!(header.contains(word), "{word} missing from {header}");
+    }
+    let en_header = en.lines().nth(1).unwrap();
+    for word in ["set", "what", "figure", "old", "new", "change"] {
+        assert!(en_header.contains(word), "{word} missing from {en_header}");
+    }
+    // Each changed figure by its German name; a status by its German word.
+    let german_figure = |f: &str| match f {
+        "plate_volts" => "Anodenspannung",
+        "plate_dissipation_w" => "Anodenverlustleistung",
+        "mains_volts" => "Netzspannung",
+        "status" => "Status",
+        _ => "",
+    };
+    let mut seen = 0;
+    for c in changes {
+        let word = german_figure(c["figure"].as_str().unwrap());
+        if word.is_empty() {
+            continue;
+        }
+        seen += 1;
+        // The set's own mains reading is the subject "mains", in German "Netz".
+        let subject = match c["subject"].as_str().unwrap() {
+            "mains" => "Netz",
+            s => s,
+        };
+        let row = de
+            .lines()
+            .find(|l| l.contains(subject) && l.contains(word))
+            .unwrap_or_else(|| panic!("no row for {c} in\n{de}"));
+        if c["figure"] == "status" {
+            let status_word = |v: &serde_json::Value| match v.as_str().unwrap() {
+                "ok" => "ok",
+                "caution" => "Vorsicht",
+                "over" => "zu hoch",
+                "cold" => "zu kalt",
+                other => panic!("unexpected status {other}"),
+            };
+            assert!(row.contains(status_word(&c["old"])), "{row}");
+            assert!(row.contains(status_word(&c["new"])), "{row}");
+        }
+    }
+    assert!(seen >= 3, "{de}");
+    for english_words in ["figures changed", "plate dissipation", "screen"] {
+        assert!(
+            !de.contains(english_words),
+            "{english_words} left in:\n{de}"
+        );
+    }
+
+    // A set that is not there, named with the ones that are, in German.
+    let o = run(
+        german.path(),
+        &["compare", "job.kdl", "--sets", "as found", "as sold"],
+    );
+    assert_eq!(o.status.code(), Some(2));
+    assert!(
+        stderr(&o).contains(
+            "Fehler: job.kdl hat keine Messreihe „as sold“; vorhanden sind „as found“ und „as left“"
+        ),
+        "{}",
+        stderr(&o)
+    );
+}
+
+/// The files `new` made in `dir`: every `.kdl` but the job and the profile.
+fn made_by_new(dir: &std::path::Path) -> Vec<PathBuf> {
+    let mut made: Vec<PathBuf> = std::fs::read_dir(dir)
+        .unwrap()
+        .map(|e| e.unwrap().path())
+        .filter(|p| {
+            p.extension().is_some_and(|e| e == "kdl")
+                && !p.ends_with("job.kdl")
+                && !p.ends_with("shop.kdl")
+        })
+        .collect();
+    made.sort();
+    made
+}
+
+#[test]
+fn new_speaks_the_shop_language() {
+    let german = demo_folder("combo-6v6-fixed.kdl", "language \"de\"");
+    let o = run(german.path(), &["new", "--from", "job.kdl"]);
+    assert!(o.status.success(), "{}", stderr(&o));
+    let made = made_by_new(german.path());
+    assert_eq!(made.len(), 1, "{made:?}");
+    let name = made[0].file_name().unwrap().to_string_lossy().into_owned();
+    let out = stdout(&o);
+    assert!(
+        out.contains(&format!(
+            "geschrieben: ./{name}; die Messwerte eintragen, dann `ampreport check ./{name}` ausführen"
+        )),
+        "{out}"
+    );
+    let text = std::fs::read_to_string(&made[0]).unwrap();
+    assert!(
+        text.starts_with(
+            "// Begonnen mit job.kdl (Auftrag D-2611-022) über `ampreport new --from`"
+        ),
+        "{text}"
+    );
+    assert!(text.contains("// Messwerte dieses Auftrags:\n"), "{text}");
+    assert!(!text.contains("Started from"), "{text}");
+
+    // Without a language the same words are English, word for word.
+    let english = demo_folder("combo-6v6-fixed.kdl", "");
+    let o = run(english.path(), &["new", "--from", "job.kdl"]);
+    let name = made_by_new(english.path())[0]
+        .file_name()
+        .unwrap()
+        .to_string_lossy()
+        .into_owned();
+    assert!(
+        stdout(&o).contains(&format!(
+            "wrote ./{name}; fill in the readings, then run `ampreport check ./{name}`"
+        )),
+        "{}",
+        stdout(&o)
+    );
+}
+
+/// `render job.kdl` in `dir` with the stand-in typst `body` (after it
+/// answers `--version` like typst 0.15.1) and a temporary folder of its
+/// own, so the source typst leaves behind is cleaned up with `dir`.
+fn render_with_typst(dir: &std::path::Path, body: &str) -> std::process::Output {
+    let typst = dir.join("stand-in-typst");
+    std::fs::write(
+        &typst,
+        format!(
+            "#!/bin/sh\nif [ \"$1\" = --version ]; then echo 'typst 0.15.1 (stand-in)'; exit 0; fi\n{body}\n"
+        ),
+    )
+    .unwrap();
+    support::make_executable(&typst);
+    let tmp = dir.join("tmp");
+    std::fs::create_dir_all(&tmp).unwrap();
+    std::process::Command::new(support::bin())
+        .current_dir(dir)
+        .args(["render", "job.kdl", "--typst"])
+        .arg(&typst)
+        .env("XDG_CONFIG_HOME", dir.join("no-config"))
+        .env("XDG_CACHE_HOME", support::cache_home())
+        .env("TMPDIR", &tmp)
+        .env_remove("AMPREPORT_TYPST")
+        .env("NO_COLOR", "1")
+        .output()
+        .unwrap()
+}
+
+#[test]
+fn a_typst_failure_is_said_in_the_shop_language() {
+    use support::says;
+    let rejects = "echo 'error: unknown variable: frobnicate' >&2; exit 1";
+    let german = demo_folder("combo-el84-cathode.kdl", "language \"de\"");
+    let o = render_with_typst(german.path(), rejects);
+    // The built-in template failed: a fault of the program (3).
+    assert_eq!(o.status.code(), Some(3), "{}", stderr(&o));
+    let err = stderr(&o);
+    for words in [
+        "typst konnte das Dokument nicht setzen (es endete mit Status 1):",
+        "der erzeugte Quelltext wurde zur Prüfung in",
+        "Hinweis: die eingebaute Vorlage ist fehlgeschlagen",
+    ] {
+        assert!(says(&err, words), "{words} missing from:\n{err}");
+    }
+    // typst's own words stay as typst said them; the code is the same.
+    assert!(says(&err, "error: unknown variable: frobnicate"), "{err}");
+    assert!(err.contains("ampreport::typeset::compile_failed"), "{err}");
+    assert!(!says(&err, "could not compile"), "{err}");
+    assert!(!german.path().join("job.pdf").exists());
+
+    // A typst that crashes is named as the one at fault, in German.
+    let o = render_with_typst(german.path(), "kill -SEGV $$");
+    assert_eq!(o.status.code(), Some(3), "{}", stderr(&o));
+    let err = stderr(&o);
+    assert!(
+        says(&err, "wurde durch Signal 11 (SIGSEGV) beendet"),
+        "{err}"
+    );
+    assert!(
+        says(
+            &err,
+            "das deutet auf das Programm typst oder den Rechner hin"
+        ),
+        "{err}"
+    );
+    assert!(
+        err.contains("ampreport::typeset::typst_misbehaved"),
+        "{err}"
+    );
+
+    // The same failure without a language: English, as before.
+    let english = demo_folder("combo-el84-cathode.kdl", "");
+    let err = stderr(&render_with_typst(english.path(), rejects));
+    assert!(
+        says(
+            &err,
+            "typst could not compile the document (it exited with status 1):"
+        ),
+        "{err}"
+    );
+    assert!(!says(&err, "konnte"), "{err}");
+}
+
+#[test]
+fn the_terminal_tables_name_bias_and_safety_tests_in_the_shop_language() {
+    // (demo, valve, bias in English, in German)
+    for (demo, valve, english_bias, german_bias) in [
+        ("combo-el84-cathode.kdl", "EL84", "cathode", "automatisch"),
+        ("combo-6v6-fixed.kdl", "6V6GT", "fixed", "fest"),
+    ] {
+        let de = stdout(&run(
+            demo_folder(demo, "language \"de\"").path(),
+            &["check", "job.kdl"],
+        ));
+        let en = stdout(&run(demo_folder(demo, "").path(), &["check", "job.kdl"]));
+        // The bias column (the third) of each output valve's row, under
+        // the header naming it.
+        let column = |text: &str, header: &str| -> Vec<String> {
+            assert!(
+                text.lines()
+                    .any(|l| l.split_whitespace().nth(2) == Some(header)),
+                "no {header} column in\n{text}"
+            );
+            text.lines()
+                .filter(|l| l.trim_start().starts_with('V') && l.contains(valve))
+                .map(|l| l.split_whitespace().nth(2).unwrap().to_string())
+                .collect()
+        };
+        let de_bias = column(&de, "Vorspannung");
+        let en_bias = column(&en, "bias");
+        assert!(!de_bias.is_empty(), "{de}");
+        assert!(
+            de_bias.iter().all(|b| b == german_bias),
+            "{de_bias:?}\n{de}"
+        );
+        assert!(
+            en_bias.iter().all(|b| b == english_bias),
+            "{en_bias:?}\n{en}"
+        );
+        assert_eq!(de_bias.len(), en_bias.len());
+        // The safety tests by their names in the language.
+        assert!(de.contains("Schutzleiter"), "{de}");
+        assert!(en.contains("earth continuity"), "{en}");
+        assert!(!de.contains("earth continuity"), "{de}");
+    }
+}

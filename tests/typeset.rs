@@ -456,6 +456,7 @@ fn a_typst_that_fails_leaves_the_old_pdf_and_no_stray_files() {
         panic!("expected a misbehaving typst, got {err:?}");
     };
     assert!(err.is_environment());
+    let what = what.english();
     assert!(
         what.contains("exited with status 1 and printed no messages"),
         "{what}"
@@ -480,7 +481,7 @@ fn a_typst_that_fails_leaves_the_old_pdf_and_no_stray_files() {
     let TypesetError::Misbehaved { kept, what, .. } = &err else {
         panic!("expected a misbehaving typst, got {err:?}");
     };
-    assert_eq!(what, "reported success but wrote no file");
+    assert_eq!(what.english(), "reported success but wrote no file");
     assert_eq!(std::fs::read(&output).unwrap(), before);
     assert_eq!(folder_listing(dir.path()), ["report.pdf"]);
     std::fs::remove_dir_all(kept).unwrap();

@@ -1088,7 +1088,7 @@ fn mod_findings(
         }
     }
     let network = m.network.as_ref().map(|n| {
-        let found = network::derive(n, job, ratings);
+        let found = network::derive_in(n, job, ratings, cat);
         if let Some(problem) = &found.problem {
             warnings.push(Warning::note(
                 None,

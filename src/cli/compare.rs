@@ -15,71 +15,88 @@ use super::exit::Exit;
 use super::load;
 use super::said::Said;
 use crate::calc::{self, Findings};
+use crate::catalogue::{Catalogue, Msg};
 use crate::git;
 use crate::report::compare::{self, Comparison};
 
 pub fn run(args: &CompareArgs) -> Exit {
-    let comparison = match (&args.new, &args.sets) {
+    let (comparison, cat) = match (&args.new, &args.sets) {
         (_, Some(sets)) => {
-            let (name, findings) = match side(args, &args.old) {
+            let (name, findings, cat) = match side(args, &args.old) {
                 Ok(s) => s,
                 Err(e) => return e,
             };
             let find = |label: &str| {
-                findings.sets.iter().find(|s| s.label == label).ok_or_else(|| {
-                    let known: Vec<String> = findings
-                        .sets
-                        .iter()
-                        .map(|s| format!("\u{201c}{}\u{201d}", s.label))
-                        .collect();
-                    eprintln!(
-                        "error: {name} has no measurement set \u{201c}{label}\u{201d}; it has {}",
-                        if known.is_empty() {
-                            "none".to_string()
+                findings
+                    .sets
+                    .iter()
+                    .find(|s| s.label == label)
+                    .ok_or_else(|| {
+                        let known: Vec<String> = findings
+                            .sets
+                            .iter()
+                            .map(|s| {
+                                cat.say(&Msg::new("cli-compare-set-name").arg("label", &s.label))
+                            })
+                            .collect();
+                        let msg = if known.is_empty() {
+                            Msg::new("cli-compare-no-such-set-none")
                         } else {
-                            known.join(", ")
-                        }
-                    );
-                    Exit::Usage
-                })
+                            Msg::new("cli-compare-no-such-set").arg("known", cat.and_list(&known))
+                        };
+                        eprintln!("{}", cat.say(&msg.arg("job", &name).arg("label", label)));
+                        Exit::Usage
+                    })
             };
             let (old, new) = match (find(&sets[0]), find(&sets[1])) {
                 (Ok(o), Ok(n)) => (o, n),
                 (Err(e), _) | (_, Err(e)) => return e,
             };
-            compare::compare_sets(&name, old, new)
+            (compare::compare_sets(&name, old, new), cat)
         }
         (Some(new), None) => {
-            let (old_name, old) = match side(args, &args.old) {
+            let (old_name, old, old_cat) = match side(args, &args.old) {
                 Ok(s) => s,
                 Err(e) => return e,
             };
-            let (new_name, new) = match side(args, new) {
+            let (new_name, new, new_cat) = match side(args, new) {
                 Ok(s) => s,
                 Err(e) => return e,
             };
-            compare::compare_versions(&old_name, &old, &new_name, &new)
+            // The two sides' shared language, English when they differ.
+            let cat = if old_cat == new_cat {
+                new_cat
+            } else {
+                Catalogue::english().clone()
+            };
+            (
+                compare::compare_versions(&old_name, &old, &new_name, &new),
+                cat,
+            )
         }
         // clap requires NEW unless --sets is given.
         (None, None) => return Exit::Usage,
     };
-    print(args, &comparison);
+    print(args, &comparison, &cat);
     Exit::Success
 }
 
-fn print(args: &CompareArgs, c: &Comparison) {
+/// The comparison as JSON (the same in every language), or as a table in
+/// the words of `cat`.
+fn print(args: &CompareArgs, c: &Comparison, cat: &Catalogue) {
     if args.json {
         print!("{}", compare::render_json(c));
     } else {
-        print!("{}", compare::render_text(c));
+        print!("{}", compare::render_text(c, cat));
     }
 }
 
-/// One side, decoded and derived: its name and its findings. A path that
+/// One side, decoded and derived: its name, its findings and the language
+/// of its shop profile (English without one). A path that
 /// does not exist as a file but reads as `REV:PATH` is read through git;
 /// the shop profile is then found from PATH as if it were a file of the
 /// working folder.
-fn side(args: &CompareArgs, given: &Path) -> Result<(String, Findings), Exit> {
+fn side(args: &CompareArgs, given: &Path) -> Result<(String, Findings, Catalogue), Exit> {
     let mut said = Said::default();
     let result = side_said(args, given, &mut said);
     said.print();
@@ -90,7 +107,7 @@ fn side_said(
     args: &CompareArgs,
     given: &Path,
     said: &mut Said,
-) -> Result<(String, Findings), Exit> {
+) -> Result<(String, Findings, Catalogue), Exit> {
     let spec = git::is_revision_spec(given).then(|| given.to_string_lossy().into_owned());
     let job_path = match spec.as_deref().and_then(git::split_spec) {
         Some((_, path)) => PathBuf::from(path),
@@ -107,7 +124,7 @@ fn side_said(
             let text = git::read_at_revision(spec).map_err(|e| {
                 said.error(format!("error: {e}"));
                 if let Some(hint) = from_here_hint(spec) {
-                    said.err(hint);
+                    said.err(said.say(&hint));
                 }
                 Exit::InvalidInput
             })?;
@@ -115,23 +132,20 @@ fn side_said(
         }
         None => load::job(&job_path, choice, &ratings, said)?,
     };
-    let findings = calc::derive(&loaded.decoded.job, &ratings);
+    let cat = loaded.catalogue().clone();
+    let findings = calc::derive_in(&loaded.decoded.job, &ratings, &cat);
     let name = spec.unwrap_or_else(|| load::job_name(given));
-    Ok((name, findings))
+    Ok((name, findings, cat))
 }
 
 /// When `REV:PATH` could not be read and PATH is a file named from the
 /// current folder (git reads it from the top of the repository), the
 /// spelling that names it from here.
-fn from_here_hint(spec: &str) -> Option<String> {
+fn from_here_hint(spec: &str) -> Option<Msg> {
     let (rev, path) = git::split_spec(spec)?;
     let file = Path::new(path);
-    (!path.starts_with("./") && file.is_relative() && file.is_file()).then(|| {
-        format!(
-            "note: in REV:PATH, git reads PATH from the top folder of the repository; \
-             for the file named from this folder, write {rev}:./{path}"
-        )
-    })
+    (!path.starts_with("./") && file.is_relative() && file.is_file())
+        .then(|| Msg::new("cli-compare-path-from-here").arg("spelling", format!("{rev}:./{path}")))
 }
 
 #[cfg(test)]
@@ -141,7 +155,7 @@ mod tests {
     #[test]
     fn a_path_from_here_gets_its_dot_slash_spelling() {
         // Tests run in the package's folder, where Cargo.toml is.
-        let hint = from_here_hint("HEAD:Cargo.toml").unwrap();
+        let hint = from_here_hint("HEAD:Cargo.toml").unwrap().english();
         assert!(hint.ends_with("write HEAD:./Cargo.toml"), "{hint}");
         assert_eq!(from_here_hint("HEAD:./Cargo.toml"), None);
         assert_eq!(from_here_hint("HEAD:no/such/file.kdl"), None);

@@ -7,6 +7,7 @@ use std::io::Write;
 
 use super::args::InitArgs;
 use super::exit::Exit;
+use crate::catalogue::{Catalogue, Msg};
 
 /// The skeleton, a valid job file with every node explained.
 pub const SKELETON: &str = include_str!("../../templates/job-skeleton.kdl");
@@ -17,10 +18,13 @@ pub const GITATTRIBUTES: &str = include_str!("../../templates/repo.gitattributes
 /// What git leaves out of a job folder: everything `render` makes again.
 pub const GITIGNORE: &str = include_str!("../../templates/repo.gitignore");
 
+/// `init` reads no shop profile, so it speaks English (docs/shop.md, "The
+/// terminal's language"); its words are the catalogue's all the same.
 pub fn run(args: &InitArgs) -> Exit {
+    let cat = Catalogue::english();
     let mut exit = Exit::Success;
     if let Some(path) = &args.path {
-        exit = write_new(path, SKELETON, "fill it in, then run `ampreport check {}`");
+        exit = write_new(path, SKELETON, Msg::new("cli-init-next-job"), cat);
     }
     if let Some(path) = &args.shop
         && exit == Exit::Success
@@ -28,26 +32,36 @@ pub fn run(args: &InitArgs) -> Exit {
         exit = write_new(
             path,
             crate::shop::SKELETON,
-            "fill it in; jobs in its folder and below use it (see docs/shop.md)",
+            Msg::new("cli-init-next-shop"),
+            cat,
         );
     }
     if let Some(dir) = &args.repo
         && exit == Exit::Success
     {
         if let Err(e) = std::fs::create_dir_all(dir) {
-            eprintln!("error: cannot make the folder {}: {e}", dir.display());
+            eprintln!(
+                "{}",
+                cat.say(
+                    &Msg::new("cli-init-cannot-make-folder")
+                        .arg("folder", dir.display().to_string())
+                        .arg("error", e.to_string())
+                )
+            );
             return Exit::Environment;
         }
         // Both are tried, so one that exists does not keep the other out.
         let attributes = write_new(
             &dir.join(".gitattributes"),
             GITATTRIBUTES,
-            "PDFs and photos are binary to git, job files are text",
+            Msg::new("cli-init-next-gitattributes"),
+            cat,
         );
         let ignore = write_new(
             &dir.join(".gitignore"),
             GITIGNORE,
-            "rendered documents stay out of git; see docs/git.md",
+            Msg::new("cli-init-next-gitignore"),
+            cat,
         );
         exit = if attributes != Exit::Success {
             attributes
@@ -58,15 +72,19 @@ pub fn run(args: &InitArgs) -> Exit {
     exit
 }
 
-/// Writes `text` to a new file at `path`; `next` is what to do next (`{}`
-/// stands for the path).
-pub(super) fn write_new(path: &std::path::Path, text: &str, next: &str) -> Exit {
-    if path.exists() {
+/// Writes `text` to a new file at `path`; `next` is what to do next (its
+/// `path` argument is given here), said in the words of `cat`.
+pub(super) fn write_new(path: &std::path::Path, text: &str, next: Msg, cat: &Catalogue) -> Exit {
+    let shown = path.display().to_string();
+    let exists = || {
         eprintln!(
-            "error: {} already exists; ampreport never replaces a file",
-            path.display()
+            "{}",
+            cat.say(&Msg::new("cli-init-exists").arg("path", &shown))
         );
-        return Exit::InvalidInput;
+        Exit::InvalidInput
+    };
+    if path.exists() {
+        return exists();
     }
     let dir = match path.parent() {
         Some(p) if !p.as_os_str().is_empty() => p.to_path_buf(),
@@ -80,22 +98,25 @@ pub(super) fn write_new(path: &std::path::Path, text: &str, next: &str) -> Exit 
     });
     match result {
         Ok(()) => {
-            super::ui::wrote(format!(
-                "wrote {}; {}",
-                path.display(),
-                next.replace("{}", &path.display().to_string())
-            ));
+            super::ui::wrote(
+                cat.say(
+                    &Msg::new("cli-init-wrote")
+                        .arg("path", &shown)
+                        .arg("next", next.arg("path", &shown)),
+                ),
+            );
             Exit::Success
         }
-        Err(e) if e.kind() == std::io::ErrorKind::AlreadyExists => {
-            eprintln!(
-                "error: {} already exists; ampreport never replaces a file",
-                path.display()
-            );
-            Exit::InvalidInput
-        }
+        Err(e) if e.kind() == std::io::ErrorKind::AlreadyExists => exists(),
         Err(e) => {
-            eprintln!("error: cannot write {}: {e}", path.display());
+            eprintln!(
+                "{}",
+                cat.say(
+                    &Msg::new("cli-init-cannot-write")
+                        .arg("path", &shown)
+                        .arg("error", e.to_string())
+                )
+            );
             Exit::Environment
         }
     }

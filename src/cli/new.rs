@@ -17,6 +17,7 @@ use super::exit::Exit;
 use super::init::write_new;
 use super::load;
 use super::said::Said;
+use crate::catalogue::{Catalogue, Msg};
 use crate::job::numbering::{DEFAULT_PATTERN, Numbering};
 use crate::ratings::RatingsTable;
 
@@ -41,6 +42,11 @@ pub fn run(args: &NewArgs) -> Exit {
         Ok(s) => s,
         Err(e) => return e,
     };
+    // From here on the command speaks the shop profile's language.
+    let cat = shop
+        .as_ref()
+        .map_or(Catalogue::english(), |s| &s.catalogue)
+        .clone();
     let pattern = shop
         .as_ref()
         .and_then(|s| s.profile.job_numbers.clone())
@@ -53,7 +59,7 @@ pub fn run(args: &NewArgs) -> Exit {
     let ids = job_ids_in(&dir);
     let id = numbering.next_id(today, ids.iter().map(String::as_str));
     let text = match &args.from {
-        Some(old) => match from_old(args, old, &id, today) {
+        Some(old) => match from_old(args, old, &id, today, &cat) {
             Ok(t) => t,
             Err(e) => return e,
         },
@@ -62,17 +68,11 @@ pub fn run(args: &NewArgs) -> Exit {
     // What is written must read back as a job.
     if let Err(d) = crate::job::decode(&format!("{id}.kdl"), &text) {
         eprintln!("{:?}", miette::Report::new(d));
-        eprintln!(
-            "note: the new job file could not be made; this is a fault in ampreport, please report it"
-        );
+        eprintln!("{}", cat.text("cli-new-fault"));
         return Exit::Environment;
     }
     let path = dir.join(format!("{id}.kdl"));
-    write_new(
-        &path,
-        &text,
-        "fill in the readings, then run `ampreport check {}`",
-    )
+    write_new(&path, &text, Msg::new("cli-new-next"), &cat)
 }
 
 /// The `job` ids of the job files in `dir` (every `.kdl` file but the
@@ -150,8 +150,15 @@ fn choice(args: &NewArgs) -> load::ShopChoice<'_> {
     }
 }
 
-/// A new job from `old`: its unit, mains, line-up and circuit as written.
-fn from_old(args: &NewArgs, old: &Path, id: &str, today: NaiveDate) -> Result<String, Exit> {
+/// A new job from `old`: its unit, mains, line-up and circuit as written,
+/// under comments in the words of `cat`.
+fn from_old(
+    args: &NewArgs,
+    old: &Path,
+    id: &str,
+    today: NaiveDate,
+    cat: &Catalogue,
+) -> Result<String, Exit> {
     // The old job must be a valid job: its problems are shown as `check`
     // shows them, over the shop profile it would be checked with.
     let mut said = Said::default();
@@ -159,16 +166,18 @@ fn from_old(args: &NewArgs, old: &Path, id: &str, today: NaiveDate) -> Result<St
     said.print();
     let loaded = loaded?;
     let doc = crate::kdl_fast::parse_document(&loaded.text).map_err(|_| Exit::InvalidInput)?;
+    let started = Msg::new("cli-new-started-from")
+        .arg(
+            "file",
+            old.file_name()
+                .map(|n| n.to_string_lossy().into_owned())
+                .unwrap_or_default()
+                .replace(['\n', '\r'], " "),
+        )
+        .arg("id", loaded.decoded.job.info.id.replace(['\n', '\r'], " "));
     let mut out = format!(
-        "// Started from {} (job {}) with `ampreport new --from`: the unit, the mains,\n\
-         // the line-up and the circuit are carried over; the readings, parts, mods,\n\
-         // safety tests, notes, customer and charges are not.\n\
-         job-format {}\n\n{}\n",
-        old.file_name()
-            .map(|n| n.to_string_lossy().into_owned())
-            .unwrap_or_default()
-            .replace(['\n', '\r'], " "),
-        loaded.decoded.job.info.id.replace(['\n', '\r'], " "),
+        "{}job-format {}\n\n{}\n",
+        comment(&cat.say(&started)),
         crate::job::FORMAT_VERSION,
         job_line(id, today),
     );
@@ -184,9 +193,13 @@ fn from_old(args: &NewArgs, old: &Path, id: &str, today: NaiveDate) -> Result<St
             out.push('\n');
         }
     }
-    out.push_str(
-        "\n// Readings of this service:\n\
-         //   measurements \"as found\" mains=\"…\" { … }\n",
-    );
+    out.push('\n');
+    out.push_str(&comment(&cat.text("cli-new-readings")));
+    out.push_str("//   measurements \"as found\" mains=\"…\" { … }\n");
     Ok(out)
+}
+
+/// `text` as KDL comment lines, one for each of its lines.
+fn comment(text: &str) -> String {
+    text.lines().map(|l| format!("// {l}\n")).collect()
 }

@@ -872,7 +872,12 @@ pub(crate) fn report_typeset_error(
         },
         _ => Exit::Environment,
     };
-    said.error(format!("{:?}", miette::Report::new(e)));
+    // Said in the job's language once its shop profile is read.
+    let catalogue = said.catalogue().clone();
+    said.error(format!(
+        "{:?}",
+        miette::Report::new(e.in_language(&catalogue))
+    ));
     if let Some(output) = output
         && output.exists()
     {

@@ -57,7 +57,9 @@ fn typst_problem(e: &TypesetError) -> String {
         typeset::MIN_TYPST
     );
     match e {
-        TypesetError::NotFound { looked } => format!("typst not found ({looked}); {install}"),
+        TypesetError::NotFound { looked } => {
+            format!("typst not found ({}); {install}", looked.english())
+        }
         other => format!("typst unusable: {other}; {install}"),
     }
 }

@@ -12,6 +12,7 @@ use serde::Serialize;
 use serde_json::Value;
 
 use crate::calc::{Findings, SetFindings};
+use crate::catalogue::{Catalogue, Msg};
 use crate::report::{Align, TextTable};
 use crate::units::format_sig;
 
@@ -308,51 +309,80 @@ fn signed(d: f64, figure: &str) -> String {
     format!("{sign}{}{}", format_sig(d.abs(), 4), unit(figure))
 }
 
-/// "plate_dissipation_w" → "plate dissipation".
-fn figure_words(figure: &str) -> String {
-    let mut f = figure;
-    for suffix in ["_volts", "_ma", "_w", "_pct", "_value"] {
-        if let Some(stripped) = f.strip_suffix(suffix) {
-            f = stripped;
-            break;
-        }
-    }
-    let words = f.replace('_', " ");
-    if figure.ends_with("_pct") {
-        format!("{words} %")
-    } else {
-        words
+/// "plate_dissipation_w" → "plate dissipation" (the catalogue's
+/// `cli-compare-figure-…` message, named after the JSON field); a field
+/// the catalogue has no words for is shown as its name in words.
+fn figure_words(figure: &str, cat: &Catalogue) -> String {
+    cat.try_format(
+        &format!("cli-compare-figure-{}", figure.replace('_', "-")),
+        &[],
+    )
+    .unwrap_or_else(|| figure.replace('_', " "))
+}
+
+/// A figure's value in words: a status word in the reader's language
+/// ("over", "zu hoch"), else the number with its unit.
+fn value_words(v: &Value, figure: &str, cat: &Catalogue) -> String {
+    match v {
+        Value::String(s) if figure == "status" => cat
+            .try_format(&format!("term-word-{s}"), &[])
+            .unwrap_or_else(|| s.clone()),
+        v => shown(v, figure),
     }
 }
 
-/// The comparison as a table for the terminal.
-pub fn render_text(c: &Comparison) -> String {
+/// What a change is about, in words: a safety test by its name, the set's
+/// own mains reading as "mains", anything else as the job names it.
+fn subject_words(ch: &Change, cat: &Catalogue) -> String {
+    match ch.table.as_str() {
+        "safety" => crate::calc::safety_test_words(&ch.subject, cat),
+        "set" => cat.text("cli-compare-mains"),
+        _ => ch.subject.clone(),
+    }
+}
+
+/// The comparison as a table for the terminal, in the words of `cat`.
+pub fn render_text(c: &Comparison, cat: &Catalogue) -> String {
     let mut out = format!("{} \u{2192} {}\n", c.old, c.new);
+    let only = |label: &str, side: &str| {
+        cat.say(
+            &Msg::new("cli-compare-set-only-in")
+                .arg("label", label)
+                .arg("side", side),
+        )
+    };
     for l in &c.sets_only_old {
-        out.push_str(&format!("set \u{201c}{l}\u{201d} only in {}\n", c.old));
+        out.push_str(&format!("{}\n", only(l, &c.old)));
     }
     for l in &c.sets_only_new {
-        out.push_str(&format!("set \u{201c}{l}\u{201d} only in {}\n", c.new));
+        out.push_str(&format!("{}\n", only(l, &c.new)));
     }
     if c.changes.is_empty() {
-        out.push_str("no figure changed\n");
+        out.push_str(&format!("{}\n", cat.text("cli-compare-nothing-changed")));
         return out;
     }
-    let mut table = TextTable::new(&[
-        ("set", Align::Left),
-        ("what", Align::Left),
-        ("figure", Align::Left),
-        ("old", Align::Right),
-        ("new", Align::Right),
-        ("change", Align::Right),
-    ]);
+    let headers: Vec<(String, Align)> = [
+        ("cli-compare-col-set", Align::Left),
+        ("cli-compare-col-what", Align::Left),
+        ("cli-compare-col-figure", Align::Left),
+        ("cli-compare-col-old", Align::Right),
+        ("cli-compare-col-new", Align::Right),
+        ("cli-compare-col-change", Align::Right),
+    ]
+    .into_iter()
+    .map(|(key, align)| (cat.text(key), align))
+    .collect();
+    let headers: Vec<(&str, Align)> = headers.iter().map(|(w, a)| (w.as_str(), *a)).collect();
+    let mut table = TextTable::new(&headers);
     for ch in &c.changes {
         table.row(vec![
-            ch.set.clone().unwrap_or_else(|| "safety".to_string()),
-            ch.subject.clone(),
-            figure_words(&ch.figure),
-            shown(&ch.old, &ch.figure),
-            shown(&ch.new, &ch.figure),
+            ch.set
+                .clone()
+                .unwrap_or_else(|| cat.text("cli-compare-safety")),
+            subject_words(ch, cat),
+            figure_words(&ch.figure, cat),
+            value_words(&ch.old, &ch.figure, cat),
+            value_words(&ch.new, &ch.figure, cat),
             ch.difference
                 .map(|d| signed(d, &ch.figure))
                 .unwrap_or_default(),
@@ -360,9 +390,8 @@ pub fn render_text(c: &Comparison) -> String {
     }
     out.push_str(&table.render(0));
     out.push_str(&format!(
-        "{} figure{} changed\n",
-        c.changes.len(),
-        if c.changes.len() == 1 { "" } else { "s" }
+        "{}\n",
+        cat.say(&Msg::new("cli-compare-changed").arg("count", c.changes.len()))
     ));
     out
 }
@@ -381,8 +410,33 @@ mod tests {
 
     #[test]
     fn figures_are_named_in_words_with_their_units() {
-        assert_eq!(figure_words("plate_dissipation_w"), "plate dissipation");
-        assert_eq!(figure_words("plate_dissipation_pct"), "plate dissipation %");
+        let en = Catalogue::english();
+        assert_eq!(figure_words("plate_dissipation_w", en), "plate dissipation");
+        assert_eq!(
+            figure_words("plate_dissipation_pct", en),
+            "plate dissipation %"
+        );
+        // Every figure compared has its words in the catalogue.
+        let mut figures: Vec<&str> = SET_TABLES
+            .iter()
+            .flat_map(|(_, _, f)| f.iter())
+            .copied()
+            .collect();
+        figures.extend(SAFETY_FIELDS.1);
+        figures.push("mains_volts");
+        let de = Catalogue::built_in("de").unwrap();
+        for figure in figures {
+            let key = format!("cli-compare-figure-{}", figure.replace('_', "-"));
+            assert!(en.has(&key) && de.has(&key), "{key}");
+        }
+        assert_eq!(
+            figure_words("plate_dissipation_pct", &de),
+            "Anodenverlustleistung %"
+        );
+        assert_eq!(
+            value_words(&serde_json::json!("over"), "status", &de),
+            "zu hoch"
+        );
         assert_eq!(
             shown(&serde_json::json!(14.5625), "plate_dissipation_w"),
             "14.56 W"

@@ -97,6 +97,14 @@ fn paint_status(v: &Verdict) -> Status {
     if v.accepted { Status::Ok } else { v.status }
 }
 
+/// The kind of bias ("cathode", "fixed") in the reader's words.
+fn bias_words(bias: &str, style: &TerminalStyle) -> String {
+    style
+        .catalogue
+        .try_format(&format!("term-bias-{bias}"), &[])
+        .unwrap_or_else(|| bias.to_string())
+}
+
 fn opt(v: Option<f64>, f: impl Fn(f64) -> String) -> String {
     v.map(f).unwrap_or_else(|| "–".to_string())
 }
@@ -177,7 +185,7 @@ pub fn render(job: &Job, findings: &Findings, style: &TerminalStyle) -> String {
         ]);
         for s in &findings.safety {
             t.row(vec![
-                s.test.replace('_', " "),
+                crate::calc::safety_test_words(s.test, &style.catalogue),
                 s.measured.clone(),
                 s.limit.clone(),
                 if s.passed {
@@ -392,7 +400,7 @@ fn render_set(findings: &Findings, set: &SetFindings, style: &TerminalStyle) -> 
             t.row(vec![
                 position,
                 v.valve_type.clone(),
-                v.bias.clone(),
+                bias_words(&v.bias, style),
                 opt(v.plate_volts, volts),
                 opt(v.cathode_volts, volts),
                 current,

@@ -14,6 +14,7 @@ use std::sync::mpsc::{self, Receiver};
 use std::time::{Duration, Instant};
 
 use super::interrupt;
+use crate::catalogue::Msg;
 
 /// What the child wrote on one stream: the first bytes up to the bound, and
 /// how many more were dropped.
@@ -225,23 +226,30 @@ fn kill_group(child: &Child) {
 #[cfg(not(unix))]
 fn kill_group(_: &Child) {}
 
-/// The words for how a program ended: "exited with status 1", "was killed
-/// by signal 11 (SIGSEGV)".
+/// The words for how a program ended, in English: "exited with status 1",
+/// "was killed by signal 11 (SIGSEGV)".
 pub(crate) fn describe_status(status: &ExitStatus) -> String {
+    status_words(status).english()
+}
+
+/// How a program ended, not yet said ([`describe_status`]).
+pub(crate) fn status_words(status: &ExitStatus) -> Msg {
     if let Some(code) = status.code() {
-        return format!("exited with status {code}");
+        return Msg::new("cli-program-exited").arg("code", code.to_string());
     }
     #[cfg(unix)]
     {
         use std::os::unix::process::ExitStatusExt;
         if let Some(signal) = status.signal() {
             return match interrupt::signal_name(signal) {
-                Some(name) => format!("was killed by signal {signal} ({name})"),
-                None => format!("was killed by signal {signal}"),
+                Some(name) => Msg::new("cli-program-killed-named")
+                    .arg("signal", signal.to_string())
+                    .arg("name", name),
+                None => Msg::new("cli-program-killed").arg("signal", signal.to_string()),
             };
         }
     }
-    format!("ended with {status}")
+    Msg::new("cli-program-ended").arg("status", status.to_string())
 }
 
 #[cfg(all(test, unix))]

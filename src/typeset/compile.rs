@@ -16,7 +16,7 @@ use std::time::Duration;
 
 use chrono::NaiveDate;
 
-use super::child::{Running, Stopped, describe_status};
+use super::child::{Running, Stopped, status_words};
 use super::error::TypesetError;
 use super::font_cache::{ensure_font_cache, user_cache_root};
 use super::fonts::{FONT_DIR, write_fonts};
@@ -26,6 +26,7 @@ use super::locate::TypstProgram;
 use super::output::{check_output, parent_folder};
 use super::pdf_check::{MAX_PDF_BYTES, incomplete, missing_phrases};
 use super::sandbox::{Sandbox, native_path};
+use crate::catalogue::Msg;
 
 /// How long typst may take for one run (`--version` or a compile) before it
 /// is stopped, unless the caller says otherwise.
@@ -46,10 +47,10 @@ const STDERR_CAP: usize = 256 * 1024;
 const STDOUT_CAP: usize = 16 * 1024;
 
 /// Text a finished document must show, checked in the PDF itself.
-#[derive(Debug, Clone, PartialEq, Eq)]
+#[derive(Debug, Clone, PartialEq)]
 pub struct RequiredText {
     /// What the text is, for the error: "the mains-safety notice".
-    pub what: String,
+    pub what: Msg,
     /// Phrases that must each appear (whitespace does not matter).
     pub phrases: Vec<String>,
 }
@@ -59,7 +60,7 @@ pub struct RequiredText {
 pub const DEFAULT_PDF_STANDARD: &str = "a-2b";
 
 /// Settings for one compile that are not part of the sources.
-#[derive(Debug, Clone, PartialEq, Eq)]
+#[derive(Debug, Clone, PartialEq)]
 pub struct CompileOptions {
     /// The date stamped into the PDF as its creation time, at 00:00 UTC.
     /// Passing the job date rather than "now" keeps the output reproducible.
@@ -153,7 +154,7 @@ pub fn compile(
     if sandbox.get(main).is_none() {
         return Err(TypesetError::BadSandboxPath {
             path: main.to_owned(),
-            reason: "it is not one of the sandbox files",
+            reason: "cli-typst-path-not-in-sandbox",
         });
     }
     check_output(output, &[])?;
@@ -162,15 +163,16 @@ pub fn compile(
     let temp = std::env::temp_dir();
     sweep(&temp, |name| name.starts_with(WORK_PREFIX));
     let work = LockedDir::new(&temp, WORK_PREFIX, None)
-        .map_err(|e| TypesetError::io("create a folder in", &temp, e))?;
+        .map_err(|e| TypesetError::io("cli-typst-io-create-folder", &temp, e))?;
     let root = work.path().join("source");
     std::fs::create_dir(&root)
         .and_then(|()| sandbox.write_files(&root))
-        .map_err(|e| TypesetError::io("write the typesetting files to", &root, e))?;
+        .map_err(|e| TypesetError::io("cli-typst-io-write-files", &root, e))?;
     let fonts = match font_cache(&opts.fonts) {
         Some(dir) => FontsUsed::Cache(dir),
         None => {
-            write_fonts(&root).map_err(|e| TypesetError::io("write the fonts to", &root, e))?;
+            write_fonts(&root)
+                .map_err(|e| TypesetError::io("cli-typst-io-write-fonts", &root, e))?;
             FontsUsed::Sandbox
         }
     };
@@ -190,7 +192,7 @@ pub fn compile(
     let run = Running::spawn(command, STDOUT_CAP, STDERR_CAP).map_err(|source| {
         TypesetError::Unusable {
             path: program.path.clone(),
-            problem: format!("it failed to start ({source})"),
+            problem: Msg::new("cli-typst-failed-to-start").arg("error", source.to_string()),
             source: Some(source),
         }
     })?;
@@ -207,20 +209,19 @@ pub fn compile(
             });
         }
         Err(Stopped::Failed(e)) => {
-            return Err(TypesetError::io("wait for typst compiling", &main_path, e));
+            return Err(TypesetError::io("cli-typst-io-wait", &main_path, e));
         }
     };
     let stderr = finished.stderr.text();
-    let misbehaved =
-        |work: LockedDir, what: String, diagnostics: String| TypesetError::Misbehaved {
-            path: program.path.clone(),
-            what,
-            diagnostics,
-            kept: keep(work),
-        };
+    let misbehaved = |work: LockedDir, what: Msg, diagnostics: String| TypesetError::Misbehaved {
+        path: program.path.clone(),
+        what,
+        diagnostics,
+        kept: keep(work),
+    };
 
     if !finished.status.success() {
-        let status = describe_status(&finished.status);
+        let status = status_words(&finished.status);
         // typst reports a document it cannot compile with status 1 and its
         // reasons; anything else is the program failing.
         if finished.status.code() == Some(1) && !stderr.is_empty() {
@@ -233,9 +234,9 @@ pub fn compile(
             });
         }
         let what = match finished.status.code() {
-            Some(1) => format!("{status} and printed no messages"),
-            Some(101) => format!("{status}, which is how a Rust program reports a crash"),
-            Some(_) => format!("{status}, which typst does not use for a document error"),
+            Some(1) => Msg::new("cli-typst-no-messages").arg("status", status),
+            Some(101) => Msg::new("cli-typst-crashed").arg("status", status),
+            Some(_) => Msg::new("cli-typst-odd-status").arg("status", status),
             None => status,
         };
         return Err(misbehaved(work, what, stderr));
@@ -244,30 +245,26 @@ pub fn compile(
     let size = match std::fs::metadata(&written) {
         Ok(meta) if meta.is_file() => meta.len(),
         _ => {
-            return Err(misbehaved(
-                work,
-                "reported success but wrote no file".into(),
-                stderr,
-            ));
+            return Err(misbehaved(work, Msg::new("cli-typst-no-file"), stderr));
         }
     };
     if size > MAX_PDF_BYTES {
         return Err(misbehaved(
             work,
-            format!(
-                "reported success but wrote {size} bytes, more than the {MAX_PDF_BYTES} a document may have"
-            ),
+            Msg::new("cli-typst-too-big")
+                .arg("size", size.to_string())
+                .arg("limit", MAX_PDF_BYTES.to_string()),
             stderr,
         ));
     }
     let bytes = std::fs::read(&written)
-        .map_err(|e| TypesetError::io("read the PDF typst wrote to", &written, e))?;
+        .map_err(|e| TypesetError::io("cli-typst-io-read-pdf", &written, e))?;
     let document = match incomplete(&bytes) {
         Ok(document) => document,
         Err(why) => {
             return Err(misbehaved(
                 work,
-                format!("reported success but wrote an incomplete file: {why}"),
+                Msg::new("cli-typst-incomplete").arg("why", why.to_string()),
                 stderr,
             ));
         }
@@ -306,7 +303,7 @@ pub fn place(bytes: &[u8], output: &Path) -> Result<(), TypesetError> {
         return stdout
             .write_all(bytes)
             .and_then(|()| stdout.flush())
-            .map_err(|e| TypesetError::io("write the PDF to", "standard output", e));
+            .map_err(|e| TypesetError::io("cli-typst-io-write-stdout", "", e));
     }
     place_with(bytes, output, true)
 }
@@ -329,7 +326,7 @@ fn place_with(bytes: &[u8], output: &Path, sync: bool) -> Result<(), TypesetErro
         .map(|n| n.to_string_lossy().into_owned())
         .unwrap_or_default();
     let mut partial = locked_file(out_dir, &format!(".{stem}."), PARTIAL_SUFFIX, 0o666)
-        .map_err(|e| TypesetError::io("create a temporary file in", out_dir, e))?;
+        .map_err(|e| TypesetError::io("cli-typst-io-create-temporary", out_dir, e))?;
     partial
         .write_all(bytes)
         .and_then(|()| {
@@ -339,7 +336,7 @@ fn place_with(bytes: &[u8], output: &Path, sync: bool) -> Result<(), TypesetErro
                 Ok(())
             }
         })
-        .map_err(|e| TypesetError::io("write", partial.path().to_path_buf(), e))?;
+        .map_err(|e| TypesetError::io("cli-typst-io-write", partial.path().to_path_buf(), e))?;
     if let Ok(existing) = std::fs::metadata(output) {
         let _ = std::fs::set_permissions(partial.path(), existing.permissions());
     }
@@ -348,7 +345,7 @@ fn place_with(bytes: &[u8], output: &Path, sync: bool) -> Result<(), TypesetErro
     check_output(output, &[])?;
     partial
         .persist(output)
-        .map_err(|e| TypesetError::io("write", output, e.error))?;
+        .map_err(|e| TypesetError::io("cli-typst-io-write", output, e.error))?;
     if sync {
         sync_folder(out_dir);
     }

@@ -17,10 +17,11 @@ use std::path::{Path, PathBuf};
 use std::process::Command;
 use std::time::Duration;
 
-use super::child::{Running, Stopped, describe_status};
+use super::child::{Running, Stopped, status_words};
 use super::compile::DEFAULT_TIMEOUT;
 use super::error::TypesetError;
 use super::version::{MAX_TYPST_EXCLUSIVE, MIN_TYPST, TypstVersion};
+use crate::catalogue::Msg;
 
 /// The environment variable naming the typst program.
 pub const TYPST_ENV: &str = "AMPREPORT_TYPST";
@@ -143,11 +144,11 @@ fn find(
 ) -> Result<PathBuf, TypesetError> {
     let env_value = env_value.filter(|v| !v.is_empty());
     let path = match (explicit, env_value) {
-        (Some(given), _) => resolve(given.as_os_str(), path_var, "the path given with --typst")?,
-        (None, Some(value)) => resolve(value, path_var, "the path in AMPREPORT_TYPST")?,
+        (Some(given), _) => resolve(given.as_os_str(), path_var, "cli-typst-origin-option")?,
+        (None, Some(value)) => resolve(value, path_var, "cli-typst-origin-env")?,
         (None, None) => search_path(OsStr::new(program_name()), path_var).ok_or_else(|| {
             TypesetError::NotFound {
-                looked: format!("no `{}` on PATH", program_name()),
+                looked: Msg::new("cli-typst-looked-path").arg("program", program_name()),
             }
         })?,
     };
@@ -158,23 +159,34 @@ fn program_name() -> &'static str {
     if cfg!(windows) { "typst.exe" } else { "typst" }
 }
 
-/// Turns a `--typst` or `AMPREPORT_TYPST` value into an existing program.
-fn resolve(value: &OsStr, path_var: Option<&OsStr>, origin: &str) -> Result<PathBuf, TypesetError> {
+/// Turns a `--typst` or `AMPREPORT_TYPST` value into an existing program;
+/// `origin` is the catalogue key saying where the value came from.
+fn resolve(
+    value: &OsStr,
+    path_var: Option<&OsStr>,
+    origin: &'static str,
+) -> Result<PathBuf, TypesetError> {
     let as_path = Path::new(value);
+    let shown = as_path.display().to_string();
+    let looked = |key: &'static str| {
+        Msg::new(key)
+            .arg("path", &shown)
+            .arg("origin", Msg::new(origin))
+    };
     let bare_name = as_path.components().count() == 1 && as_path.parent() == Some(Path::new(""));
     if bare_name && !as_path.exists() {
         return search_path(value, path_var).ok_or_else(|| TypesetError::NotFound {
-            looked: format!("no `{}` on PATH ({origin})", as_path.display()),
+            looked: looked("cli-typst-looked-path-given"),
         });
     }
     if !as_path.exists() {
         return Err(TypesetError::NotFound {
-            looked: format!("{} does not exist ({origin})", as_path.display()),
+            looked: looked("cli-typst-looked-missing"),
         });
     }
     if !is_executable(as_path) {
         return Err(TypesetError::NotFound {
-            looked: format!("{} is not an executable file ({origin})", as_path.display()),
+            looked: looked("cli-typst-looked-not-executable"),
         });
     }
     Ok(absolute(as_path))
@@ -219,7 +231,7 @@ fn spawn_version(path: &Path) -> Result<Running, TypesetError> {
     Running::spawn(command, VERSION_OUTPUT_CAP, VERSION_OUTPUT_CAP).map_err(|source| {
         TypesetError::Unusable {
             path: path.to_path_buf(),
-            problem: format!("it failed to start ({source})"),
+            problem: Msg::new("cli-typst-failed-to-start").arg("error", source.to_string()),
             source: Some(source),
         }
     })
@@ -245,7 +257,7 @@ fn read_version(
         Err(Stopped::Failed(source)) => {
             return Err(TypesetError::Unusable {
                 path: path.to_path_buf(),
-                problem: format!("its `--version` answer could not be read ({source})"),
+                problem: Msg::new("cli-typst-version-unreadable").arg("error", source.to_string()),
                 source: Some(source),
             });
         }
@@ -263,11 +275,9 @@ fn read_version(
             let said = said.lines().next().unwrap_or("").chars().take(200);
             Err(TypesetError::Unusable {
                 path: path.to_path_buf(),
-                problem: format!(
-                    "`--version` {} and printed {:?}, not `typst X.Y.Z`",
-                    describe_status(&output.status),
-                    said.collect::<String>(),
-                ),
+                problem: Msg::new("cli-typst-version-odd")
+                    .arg("status", status_words(&output.status))
+                    .arg("said", format!("{:?}", said.collect::<String>())),
                 source: None,
             })
         }

@@ -84,26 +84,27 @@ pub(crate) fn native_path(dir: &Path, path: &str) -> PathBuf {
         .fold(dir.to_path_buf(), |acc, part| acc.join(part))
 }
 
-/// Why `path` may not be used inside a sandbox, or `None` if it may.
+/// Why `path` may not be used inside a sandbox (a catalogue key), or
+/// `None` if it may.
 fn path_problem(path: &str) -> Option<&'static str> {
     if path.is_empty() {
-        return Some("the path is empty");
+        return Some("cli-typst-path-empty");
     }
     if path.starts_with('/') || path.contains(':') {
-        return Some("the path must be relative");
+        return Some("cli-typst-path-not-relative");
     }
     if path.contains('\\') {
-        return Some("use `/` between folder names");
+        return Some("cli-typst-path-backslash");
     }
     if path.chars().any(char::is_control) {
-        return Some("the path holds a control character");
+        return Some("cli-typst-path-control");
     }
     let mut parts = path.split('/');
     if parts.clone().any(|p| p.is_empty() || p == "." || p == "..") {
-        return Some("the path has an empty, `.` or `..` part");
+        return Some("cli-typst-path-dots");
     }
     if parts.next() == Some(FONT_DIR) {
-        return Some("the `fonts/` folder is reserved for the bundled fonts");
+        return Some("cli-typst-path-fonts");
     }
     None
 }

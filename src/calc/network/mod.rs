@@ -20,6 +20,7 @@ pub use sweep::{F_START, F_STOP, POINTS_PER_DECADE, SPOT_FREQUENCIES, audio_swee
 pub use taper::{AUDIO_MIDPOINT, END_RESIDUAL, fraction, split};
 
 use crate::calc::circuit::{gain_bypassed, gain_unbypassed, parallel};
+use crate::catalogue::{Catalogue, Msg};
 use crate::job::Job;
 use crate::job::network::{Edit, Network, NetworkState, PartKind, Source, SourceImpedance};
 use crate::ratings::RatingsTable;
@@ -50,12 +51,14 @@ pub fn state(net: &Network, which: State) -> NetworkState {
 }
 
 /// The source's output impedance (none for an ideal source) and the
-/// source in words, from the ratings table's μ and ra for a valve stage.
+/// source in the words of `cat`, from the ratings table's μ and ra for a
+/// valve stage; a problem is said in those words too.
 pub fn source_figures(
     source: &Source,
     which: State,
     job: &Job,
     ratings: &RatingsTable,
+    cat: &Catalogue,
 ) -> Result<SourceFindings, String> {
     let ohms = |r: f64| format_engineering(r, Q::Resistance);
     let node = source.node.value.clone();
@@ -63,7 +66,7 @@ pub fn source_figures(
         SourceImpedance::Ideal => SourceFindings {
             state: which.word(),
             node,
-            description: "an ideal voltage source (no output impedance)".into(),
+            description: cat.text("figure-network-ideal-source"),
             impedance_ohms: None,
             valve: None,
             stage_gain: None,
@@ -71,7 +74,8 @@ pub fn source_figures(
         SourceImpedance::Given { ohms: z } => SourceFindings {
             state: which.word(),
             node,
-            description: format!("a source of {} output impedance", ohms(z.0)),
+            description: cat
+                .say(&Msg::new("figure-network-source-impedance").arg("impedance", ohms(z.0))),
             impedance_ohms: Some(z.0),
             valve: None,
             stage_gain: None,
@@ -81,44 +85,46 @@ pub fn source_figures(
             plate_load,
             cathode,
         } => {
-            let spec = job
-                .valve(&valve.value)
-                .ok_or_else(|| format!("valve position {} is not in the line-up", valve.value))?;
-            let row = ratings
-                .lookup(&spec.type_name.value)
-                .map_err(|_| format!("{} is not in the ratings table", spec.type_name.value))?;
+            let spec = job.valve(&valve.value).ok_or_else(|| {
+                cat.say(&Msg::new("figure-network-not-in-line-up").arg("position", &valve.value))
+            })?;
+            let row = ratings.lookup(&spec.type_name.value).map_err(|_| {
+                cat.say(
+                    &Msg::new("figure-network-not-in-ratings").arg("type", &spec.type_name.value),
+                )
+            })?;
             let (Some(mu), Some(ra)) = (row.mu, row.plate_resistance) else {
-                return Err(format!(
-                    "{} ({}) has no typical μ and ra in the ratings table",
-                    valve.value, row.name
+                return Err(cat.say(
+                    &Msg::new("figure-network-no-mu-ra")
+                        .arg("position", &valve.value)
+                        .arg("type", &row.name),
                 ));
             };
             let (inner, gain, how) = match cathode {
                 Some(rk) => (
                     Ohms(ra.0 + (mu + 1.0) * rk.0),
                     gain_unbypassed(mu, ra, *plate_load, *rk),
-                    format!(
-                        ", cathode resistor {} unbypassed: (ra + (μ + 1)·Rk) ∥ RL",
-                        ohms(rk.0)
-                    ),
+                    Msg::new("figure-network-unbypassed").arg("resistor", ohms(rk.0)),
                 ),
                 None => (
                     ra,
                     gain_bypassed(mu, ra, *plate_load),
-                    ": ra ∥ RL".to_string(),
+                    Msg::new("figure-network-bypassed"),
                 ),
             };
             let z = parallel(inner, *plate_load);
             SourceFindings {
                 state: which.word(),
                 node,
-                description: format!(
-                    "{} ({}, μ {mu}, ra {}) with a {} plate load{how} = {} output impedance",
-                    valve.value,
-                    row.name,
-                    ohms(ra.0),
-                    ohms(plate_load.0),
-                    ohms(z.0)
+                description: cat.say(
+                    &Msg::new("figure-network-valve-source")
+                        .arg("position", &valve.value)
+                        .arg("type", &row.name)
+                        .arg("mu", mu.to_string())
+                        .arg("ra", ohms(ra.0))
+                        .arg("load", ohms(plate_load.0))
+                        .arg("how", how)
+                        .arg("impedance", ohms(z.0)),
                 ),
                 impedance_ohms: Some(z.0),
                 valve: Some(valve.value.clone()),
@@ -128,7 +134,8 @@ pub fn source_figures(
     })
 }
 
-/// One state at one setting, ready for the solver or a netlist.
+/// One state at one setting, ready for the solver or a netlist (whose
+/// comments are English).
 pub fn resolve_state(
     net: &Network,
     which: State,
@@ -137,12 +144,23 @@ pub fn resolve_state(
     ratings: &RatingsTable,
 ) -> Result<(Resolved, SourceFindings), String> {
     let st = state(net, which);
-    let source = source_figures(&st.source, which, job, ratings)?;
+    let source = source_figures(&st.source, which, job, ratings, Catalogue::english())?;
     Ok((resolve(&st, setting, source.impedance_ohms, &[]), source))
 }
 
-/// Works out a mod's network.
+/// Works out a mod's network, its words in English.
 pub fn derive(net: &Network, job: &Job, ratings: &RatingsTable) -> NetworkFindings {
+    derive_in(net, job, ratings, Catalogue::english())
+}
+
+/// [`derive`] with the source, the edits and any problem in the words of
+/// `cat` (the shop's language).
+pub fn derive_in(
+    net: &Network,
+    job: &Job,
+    ratings: &RatingsTable,
+    cat: &Catalogue,
+) -> NetworkFindings {
     let freqs = audio_sweep();
     let mut out = NetworkFindings {
         label: net.label.clone(),
@@ -151,13 +169,13 @@ pub fn derive(net: &Network, job: &Job, ratings: &RatingsTable) -> NetworkFindin
         sources: Vec::new(),
         load_node: net.before.load.node.value.clone(),
         load_ohms: net.before.load.resistance.map(|r| r.0),
-        edits: edit_words(net),
+        edits: edit_words(net, cat),
         curves: Vec::new(),
         changes: Vec::new(),
         oscillator: Vec::new(),
         problem: None,
     };
-    if let Err(problem) = fill(net, job, ratings, &freqs, &mut out) {
+    if let Err(problem) = fill(net, job, ratings, &freqs, cat, &mut out) {
         out.curves.clear();
         out.changes.clear();
         out.oscillator.clear();
@@ -171,6 +189,7 @@ fn fill(
     job: &Job,
     ratings: &RatingsTable,
     freqs: &[f64],
+    cat: &Catalogue,
     out: &mut NetworkFindings,
 ) -> Result<(), String> {
     let states: &[State] = if net.has_after() {
@@ -178,11 +197,14 @@ fn fill(
     } else {
         &[State::Before]
     };
-    let singular =
-        |e: Singular| format!("{e}: some node is left without a path to ground at that frequency");
+    let singular = |e: Singular| {
+        cat.say(
+            &Msg::new("figure-network-singular").arg("frequency", format!("{:.4}", e.frequency_hz)),
+        )
+    };
     for &which in states {
         let st = state(net, which);
-        let source = source_figures(&st.source, which, job, ratings)?;
+        let source = source_figures(&st.source, which, job, ratings, cat)?;
         let z = source.impedance_ohms;
         let same_source = out
             .sources
@@ -323,11 +345,12 @@ fn oscillate(
     })
 }
 
-/// The mod's edits in words: "R5 100 kΩ → 56 kΩ", "C3 (250 pF) removed".
-pub fn edit_words(net: &Network) -> Vec<String> {
+/// The mod's edits in the words of `cat`: "R5 100 kΩ → 56 kΩ", "C3
+/// (250 pF) removed".
+pub fn edit_words(net: &Network, cat: &Catalogue) -> Vec<String> {
     let value_words = |kind: &PartKind| match (kind.value(), kind.quantity()) {
         (Some(v), Some(q)) => format_engineering(v, q),
-        _ => "link".to_string(),
+        _ => cat.text("figure-network-kind-link"),
     };
     let mut current = net.before.clone();
     let mut out = Vec::new();
@@ -356,47 +379,58 @@ pub fn edit_words(net: &Network) -> Vec<String> {
                 if let Some(s) = settings {
                     let list: Vec<String> =
                         s.iter().map(|v| crate::units::format_sig(*v, 3)).collect();
-                    bits.push(format!("set to {}", list.join(", ")));
+                    bits.push(
+                        cat.say(
+                            &Msg::new("figure-network-set-to").arg("settings", list.join(", ")),
+                        ),
+                    );
                 }
                 if let Some(t) = taper {
-                    bits.push(format!("{} taper", t.words()));
+                    bits.push(cat.text(&format!("figure-network-taper-{}", t.words())));
                 }
                 out.push(format!("{} {}", reference.value, bits.join("; ")));
             }
             Edit::Remove { reference, .. } => {
                 let was = find(&reference.value, &current);
-                out.push(match was {
-                    Some(p) if !matches!(p.kind, PartKind::Link { .. }) => {
-                        format!("{} ({}) removed", reference.value, value_words(&p.kind))
-                    }
-                    _ => format!("{} removed", reference.value),
-                });
+                out.push(
+                    cat.say(&match was {
+                        Some(p) if !matches!(p.kind, PartKind::Link { .. }) => {
+                            Msg::new("figure-network-removed-value")
+                                .arg("reference", &reference.value)
+                                .arg("value", value_words(&p.kind))
+                        }
+                        _ => Msg::new("figure-network-removed").arg("reference", &reference.value),
+                    }),
+                );
             }
             Edit::Add(p) => {
                 let nodes: Vec<&str> = p.nodes().iter().map(|n| n.value.as_str()).collect();
-                out.push(match &p.kind {
-                    PartKind::Link { .. } => format!(
-                        "{} added: a link from {} to {}",
-                        p.reference.value, nodes[0], nodes[1]
-                    ),
-                    kind => format!(
-                        "{} added: {} {} between {}",
-                        p.reference.value,
-                        kind.node_name(),
-                        value_words(kind),
-                        nodes.join(", ")
-                    ),
-                });
+                out.push(
+                    cat.say(&match &p.kind {
+                        PartKind::Link { .. } => Msg::new("figure-network-added-link")
+                            .arg("reference", &p.reference.value)
+                            .arg("from", nodes.first().copied().unwrap_or_default())
+                            .arg("to", nodes.get(1).copied().unwrap_or_default()),
+                        kind => Msg::new("figure-network-added")
+                            .arg("reference", &p.reference.value)
+                            .arg(
+                                "kind",
+                                cat.text(&format!("figure-network-kind-{}", kind.node_name())),
+                            )
+                            .arg("value", value_words(kind))
+                            .arg("nodes", cat.and_list(&nodes)),
+                    }),
+                );
             }
-            Edit::Source(_) => out.push("the source changed".to_string()),
-            Edit::Load(l) => out.push(match l.resistance {
-                Some(r) => format!(
-                    "the load is now {} at {}",
-                    format_engineering(r.0, Q::Resistance),
-                    l.node.value
-                ),
-                None => format!("the load is now unloaded at {}", l.node.value),
-            }),
+            Edit::Source(_) => out.push(cat.text("figure-network-source-changed")),
+            Edit::Load(l) => out.push(
+                cat.say(&match l.resistance {
+                    Some(r) => Msg::new("figure-network-load-now")
+                        .arg("load", format_engineering(r.0, Q::Resistance))
+                        .arg("node", &l.node.value),
+                    None => Msg::new("figure-network-unloaded").arg("node", &l.node.value),
+                }),
+            ),
         }
         // Apply this edit alone, so the next edit's "was" is current.
         let single = Network {

@@ -306,7 +306,7 @@ fn edits_make_the_after_network_and_its_changes() {
             "R1 100 kΩ → 47 kΩ",
             "S1 removed",
             "C2 (100 pF) removed",
-            "C9 added: capacitor 470 pF between in, out"
+            "C9 added: capacitor 470 pF between in and out"
         ]
     );
 }

@@ -99,7 +99,7 @@ pub fn notice_phrases(catalogue: &Catalogue) -> Vec<String> {
 /// [`notice_phrases`] as compile options want them.
 pub fn notice_required(catalogue: &Catalogue) -> RequiredText {
     RequiredText {
-        what: "the mains-safety notice and the deferral to local electrical codes".into(),
+        what: crate::catalogue::Msg::new("cli-typst-notice"),
         phrases: notice_phrases(catalogue),
     }
 }
