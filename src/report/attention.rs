@@ -248,4 +248,30 @@ mod tests {
         );
         assert!(a.history.iter().all(|h| h.label != "as left"));
     }
+
+    #[test]
+    fn earlier_sets_keep_file_order_whatever_order_their_findings_come_in() {
+        let out = std::process::Command::new("bash")
+            .arg(std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("scripts/gen-job.sh"))
+            .arg("40")
+            .output()
+            .unwrap();
+        let mut f = findings(&String::from_utf8(out.stdout).unwrap());
+        let labels =
+            |a: &Attention| -> Vec<String> { a.history.iter().map(|h| h.label.clone()).collect() };
+        let earlier: Vec<String> = f.sets[..39].iter().map(|s| s.label.clone()).collect();
+        let in_order = attention(&f, Catalogue::english());
+        assert_eq!(labels(&in_order), earlier, "every earlier set has findings");
+        f.warnings.reverse();
+        let reversed = attention(&f, Catalogue::english());
+        assert_eq!(labels(&reversed), earlier);
+        for (a, b) in in_order.history.iter().zip(&reversed.history) {
+            let subjects = |h: &HistorySet| {
+                let mut s: Vec<String> = h.entries.iter().map(|e| e.subject.clone()).collect();
+                s.sort();
+                s
+            };
+            assert_eq!(subjects(a), subjects(b), "{}", a.label);
+        }
+    }
 }
