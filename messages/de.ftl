@@ -1003,6 +1003,7 @@ diag-file-refused = { $name }: { $errors ->
        *[other] { $errors } Probleme verhindern
     }, dass { $file ->
         [shop] dieses Werkstattprofil
+        [translation] diese Übersetzungsdatei
        *[job] diese Auftragsdatei
     } gelesen wird
 diag-file-refused-warnings = { $name }: { $errors ->
@@ -1010,6 +1011,7 @@ diag-file-refused-warnings = { $name }: { $errors ->
        *[other] { $errors } Probleme verhindern
     }, dass { $file ->
         [shop] dieses Werkstattprofil
+        [translation] diese Übersetzungsdatei
        *[job] diese Auftragsdatei
     } gelesen wird (außerdem { $warnings ->
         [one] 1 Warnung
@@ -1043,7 +1045,7 @@ diag-takes-values = `{ $node }` nimmt { $count ->
 diag-extra-value = unerwarteter Wert an `{ $node }`
 diag-not-expected-here = hier nicht erwartet
 diag-no-children = `{ $node }` hat keine Unterknoten
-diag-missing = `{ $node }` braucht { $what }
+diag-missing = `{ $node }`: { $what } fehlt
 diag-missing-label = { $what } fehlt
 diag-for-example = zum Beispiel: { $example }
 diag-a-property = eine Eigenschaft `{ $key }`
@@ -1178,6 +1180,7 @@ diag-rectifier-not-rectifier = der Gleichrichter ist { $position } ({ $type }), 
 diag-write-silicon = für einen Halbleitergleichrichter `rectifier silicon` schreiben
 diag-incomplete = { $file ->
         [shop] das Werkstattprofil
+        [translation] die Übersetzungsdatei
        *[job] die Auftragsdatei
     } ist unvollständig
 diag-here = hier
@@ -1285,6 +1288,353 @@ diag-when-accepted = wann wurde das akzeptiert?
 diag-needs-value = `{ $name }` braucht einen Wert
 diag-value-missing = Wert fehlt
 
+## Diagnosen des `network`-Blocks einer Modifikation (src/job/network/decode.rs).
+
+diag-in-a-node = einem `{ $node }`
+diag-what-reference = eine Bauteilbezeichnung
+diag-net-label = die Bezeichnung des Netzwerks
+diag-net-needs-source = ein `network` braucht eine `source`
+diag-net-source-missing = Quelle fehlt
+diag-net-needs-load = ein `network` braucht eine `load`: den Knoten, an dem der Frequenzgang abgelesen wird
+diag-net-load-missing = Last fehlt
+diag-net-speed-not-pot = der Geschwindigkeitsregler { $name } ist kein Potentiometer dieses Netzwerks
+diag-net-no-such-pot = kein solches Potentiometer
+diag-net-add-speed-pot = das Geschwindigkeitspotentiometer als `pot REF value=… ccw=… wiper=…` hinzufügen
+diag-net-one-node = ein Netzwerk hat ein `{ $node }`; dies ist ein zweites
+diag-net-part-twice = das Netzwerk hat bereits ein Bauteil { $name }
+diag-net-repeated-reference = wiederholte Bezeichnung
+diag-net-own-reference = jedem Bauteil eine eigene Bezeichnung geben
+diag-net-not-ground = `{ $name }` ist in einer Auftragsdatei nicht der Name des Bezugsknotens
+diag-net-write-ground = `ground` schreiben
+diag-net-ground-help = der Bezugsknoten (Masse) eines Netzwerks wird `ground` geschrieben
+diag-net-impedance-no-valve = eine Quelle mit angegebener `impedance` nimmt keine Röhrenwerte
+diag-net-not-with-impedance = nicht zusammen mit `impedance`
+diag-net-impedance-or-valve = entweder `impedance=` angeben oder `valve=` mit `plate-load=`
+diag-net-source-impedance = eine Quellimpedanz
+diag-net-valve-and-impedance = eine Quelle ist entweder eine Röhrenstufe oder hat eine angegebene `impedance`, nicht beides
+diag-net-remove-one = eines entfernen
+diag-net-valve-impedance-help = der Ausgangswiderstand der Röhre ergibt sich aus ihrem Innenwiderstand ra und dem Anodenwiderstand
+diag-net-plate-load = ein Anodenwiderstand
+diag-net-cathode-resistor = ein Kathodenwiderstand
+diag-net-needs-valve = ein Anoden- oder Kathodenwiderstand braucht das `valve=` der Quelle
+diag-net-no-valve-named = keine Röhre genannt
+diag-net-load-resistance = ein Lastwiderstand
+diag-net-track-resistance = der Bahnwiderstand eines Potentiometers
+diag-net-pot-needs-end = bei einem Potentiometer muss mindestens ein Ende der Widerstandsbahn angeschlossen sein (`ccw=` oder `cw=`)
+diag-net-no-end = kein Ende angeschlossen
+diag-net-pot-needs-setting = ein Potentiometer braucht die Stellung seines Schleifers, `setting` (0 bis 10; mehrere sind möglich, "3 7")
+diag-net-setting-missing = Stellung fehlt
+diag-net-same-node = { $part } verbindet den Knoten `{ $name }` mit sich selbst
+diag-net-same-node-label = zweimal derselbe Knoten
+diag-net-same-node-help = jeder Anschluss eines Bauteils geht an einen anderen Knoten
+diag-net-unknown-taper = unbekannte Kennlinie `{ $name }` eines Potentiometers
+diag-net-expected-taper = linear oder audio (logarithmisch) erwartet
+diag-net-bad-setting = die Stellung eines Potentiometers reicht von 0 bis 10, gefunden: { $found }
+diag-net-expected-setting = 0 bis 10 erwartet
+diag-net-setting-help = eine Stellung schreiben, setting=5, oder mehrere in Anführungszeichen, setting="3 7"
+diag-net-found-word = `{ $word }`
+diag-net-found-nothing = nichts
+diag-net-too-many-settings = ein Potentiometer kann höchstens { $max } Stellungen nennen, gefunden: { $count }
+diag-net-too-many = zu viele
+diag-net-part-reference = die Bezeichnung eines Bauteils
+diag-net-no-part-to-change = das Netzwerk hat kein Bauteil { $name }, das geändert werden könnte
+diag-net-no-part-to-remove = das Netzwerk hat kein Bauteil { $name }, das entfernt werden könnte
+diag-net-no-such-part = kein solches Bauteil
+diag-net-no-parts-yet = das Netzwerk hat noch keine Bauteile
+diag-net-fit-new-part = { $suggestion }; ein neues Bauteil als `resistor { $name } value=… from=… to=…` schreiben (oder capacitor, inductor, link, pot)
+diag-net-link-no-value = { $name } ist eine Brücke und hat keinen Wert
+diag-net-not-for-link = nicht für eine Brücke
+diag-net-not-a-pot = { $name } ist kein Potentiometer und hat daher kein `{ $key }`
+diag-net-only-pots = nur für Potentiometer
+diag-net-nothing-to-change = `change { $name }` ändert nichts
+diag-net-nothing-changed = nichts geändert
+diag-net-give-pot-change = `value=`, `setting=` oder `taper=` angeben
+diag-net-give-value = den neuen Wert `value=` angeben
+diag-net-change-or-replace = zum Ändern `change { $name } value=…` schreiben; zum Ersetzen zuerst `remove { $name }`
+diag-net-empty-after = der `after`-Block ändert nichts
+diag-net-no-edits = keine Änderungen
+diag-net-empty-after-help = die Änderungen schreiben, die das Netzwerk in den Zustand bei Rückgabe bringen: change, remove oder ein neues Bauteil
+
+## Diagnosen zur Gestalt eines Netzwerks (src/job/network/check.rs).
+## `after` ist `yes` für das Netzwerk nach den Änderungen der Modifikation.
+
+diag-list-pair = { $first } und { $last }
+diag-list-more = { $first }, { $rest }
+diag-net-settings-before-after = das Netzwerk nennt vorher { $before } und nachher { $after } Stellungen; die Kurven werden Stellung für Stellung verglichen
+diag-net-settings-differ = die Stellungen passen nicht zueinander
+diag-net-settings-before-after-help = vorher und nachher gleich viele Stellungen nennen (oder eine)
+diag-net-speed-removed = das Geschwindigkeitspotentiometer { $name } wird durch die Änderungen der Modifikation entfernt
+diag-net-not-as-left = nicht im Netzwerk bei Rückgabe
+diag-net-no-mu-ra = für { $position } ({ $type }) stehen keine typischen Werte für μ und ra in der Grenzwerttabelle, daher lässt sich der Ausgangswiderstand nicht berechnen
+diag-net-no-mu-ra-label = kein μ und ra
+diag-net-no-mu-ra-help = stattdessen `impedance=` an der Quelle angeben, oder μ und ra in der Zeile der Grenzwerttabelle ergänzen (--ratings)
+diag-net-the-source = die Quelle
+diag-net-the-load = die Last
+diag-net-pot-end = { $name } ({ $side }-Ende bis Schleifer)
+diag-net-source-on-ground = die Quelle kann nicht auf `ground` liegen: sie treibt einen Knoten gegen Masse
+diag-net-source-on-ground-label = Quelle auf Masse
+diag-net-load-on-ground = der Frequenzgang kann nicht an `ground` abgelesen werden: den Knoten nennen, an dem die Last hängt
+diag-net-load-on-ground-label = Last auf Masse
+diag-net-ideal-loop = { $parts } bilden{ $after ->
+        [yes] {" "}nach den Änderungen der Modifikation
+       *[no] {""}
+    } eine Schleife idealer Verbindungen{ $shorted ->
+        [yes] {" "}(die ideale Quelle ist kurzgeschlossen)
+       *[no] {""}
+    }: das Netzwerk lässt sich nicht berechnen
+diag-net-closes-loop = schließt eine Schleife
+diag-net-shorted-source-help = der Quelle ihren Ausgangswiderstand `impedance=` oder ein `valve=` geben, oder die Brücke entfernen, die sie kurzschließt
+diag-net-ideal-loop-help = eine der Brücken entfernen: zwei ideale Wege zwischen denselben Knoten sagen nicht mehr als einer
+diag-net-floating = { $count ->
+        [one] Knoten { $nodes } ist
+       *[other] Knoten { $nodes } sind
+    }{ $after ->
+        [yes] {" "}nach den Änderungen der Modifikation
+       *[no] {""}
+    } mit nichts verbunden, das Masse erreicht (nur { $parts }): das Netzwerk lässt sich nicht berechnen
+diag-net-floating-label = offen (ohne Verbindung)
+diag-net-floating-help = { $count ->
+        [one] ihn
+       *[other] sie
+    } mit dem übrigen Netzwerk verbinden, oder die Knotennamen auf Tippfehler prüfen
+diag-net-load-unreached = { $after ->
+        [yes] nach den Änderungen der Modifikation führt
+       *[no] es führt
+    } kein Bauteil vom Knoten der Quelle `{ $source }` zum Knoten der Last `{ $load }`, daher ist der Frequenzgang null
+diag-net-load-unreached-label = von der Quelle aus nicht erreicht
+diag-net-load-unreached-help = die Knotennamen der Bauteile dazwischen prüfen
+diag-net-pot-settings-differ = { $pot } nennt { $count } Stellungen, { $first } aber { $first_count }{ $after ->
+        [yes] {" "}(nach den Änderungen der Modifikation)
+       *[no] {""}
+    }: die k-te Stellung jedes Potentiometers ergibt die k-te Stellung des Netzwerks
+diag-net-pot-settings-help = an jedem Potentiometer gleich viele Stellungen nennen, oder eine Stellung für ein Potentiometer, das unverändert bleibt
+
+## Diagnosen der Prüfstandsmessungen (src/job/decode_bench.rs).
+
+diag-two-hints = { $first }; { $second }
+diag-out-of-range = außerhalb des Bereichs
+diag-bench-a-frequency = eine Frequenz
+diag-bench-load-resistance = der Lastwiderstand
+diag-bench-unusual-load = eine Kunstlast von { $load } ist ungewöhnlich
+diag-bench-unusual-load-help = Kunstlasten haben meist 4 Ω, 8 Ω oder 16 Ω, die Lautsprecherimpedanz
+diag-bench-rms-and-pp = `output-power` nennt sowohl `rms` als auch `peak-to-peak`
+diag-bench-one-reading = nur ein Messwert
+diag-bench-rms-or-pp = den Messwert nur einmal angeben: rms="15.5V" oder peak-to-peak="44V"
+diag-bench-power-needs-volts = `output-power` braucht die Ausgangsspannung, mit Angabe, ob Effektivwert (RMS) oder Spitze-Spitze
+diag-bench-the-output-voltage = die Ausgangsspannung
+diag-bench-an-output-voltage = eine Ausgangsspannung
+diag-bench-unusual-power = { $volts } an { $load } ergäben { $watts } W, ungewöhnlich für einen Röhrenverstärker
+diag-bench-unusual-power-help = den Messwert, seine Art (rms oder peak-to-peak) und die Last prüfen
+diag-bench-at-help = at=clipping (Einsetzen der Begrenzung), einen Klirrfaktor wie at="5%" oder die Eingangsspannung wie at="0.5V" schreiben
+diag-bench-needs-at = `output-power` braucht die Bedingung, unter der gemessen wurde (`at=`)
+diag-bench-condition-missing = Bedingung fehlt
+diag-bench-the-distortion = der Klirrfaktor
+diag-bench-distortion-range = ein Klirrfaktor muss über 0 % und unter 100 % liegen
+diag-bench-the-input-drive = die Eingangsspannung
+diag-bench-an-input-drive = eine Eingangsspannung
+diag-bench-bad-at = `at` muss clipping, ein Klirrfaktor oder eine Eingangsspannung sein, gefunden: { $found }
+diag-bench-expected-at = clipping, "5%" oder "0.5V" erwartet
+diag-bench-the-hum-reading = der Messwert für Brumm und Rauschen
+diag-bench-hum-needs-volts = `hum-noise` braucht die an der Last gemessene Effektivspannung
+diag-bench-a-hum-reading = ein Messwert für Brumm und Rauschen
+diag-bench-hum-high = { $volts } Brumm und Rauschen sind sehr hoch
+diag-bench-hum-high-help = Brumm und Rauschen werden meist in Millivolt gemessen, zum Beispiel "4.2mV"
+diag-bench-bad-input = `input` muss shorted (kurzgeschlossen) oder open (offen) sein, gefunden: { $found }
+diag-bench-expected-input = shorted oder open erwartet
+diag-bench-hum-needs-input = `hum-noise` muss angeben, ob der Eingang kurzgeschlossen oder offen war
+diag-bench-input-missing = Zustand des Eingangs fehlt
+diag-bench-an-input-level = ein Eingangspegel
+diag-bench-point-needs = `point` braucht eine Frequenz und die dort gemessene Ausgangsspannung
+diag-bench-the-frequency = die Frequenz
+diag-bench-response-voltage = eine Ausgangsspannung eines Frequenzgangs
+diag-bench-point-twice = { $frequency } wird in diesem Frequenzgang zweimal gemessen
+diag-bench-response-empty = `response` enthält keine Messwerte
+diag-bench-no-points = keine `point`-Unterknoten
+diag-bench-no-reference-point = der Frequenzgang hat keinen Messwert bei seiner Bezugsfrequenz { $frequency }
+diag-bench-no-point-here = hier kein Messpunkt
+diag-bench-no-reference-point-help = einen `point` bei der Bezugsfrequenz ergänzen oder reference= auf eine gemessene Frequenz setzen
+diag-bench-an-input-voltage = eine Eingangsspannung
+
+## Diagnosen der Blöcke einer Auftragsdatei (src/job/decode.rs). `diag-what-…`
+## nennen, was ein Wert ist (im Nominativ), für Meldungen wie
+## `diag-cannot-be-negative`.
+
+diag-what-job-format = die Formatversion der Auftragsdatei
+diag-what-rated-power = die Nennausgangsleistung
+diag-what-nominal-mains = die Nennnetzspannung
+diag-what-mains-frequency = die Netzfrequenz
+diag-what-design-mains = die Netzspannung, für die das Gerät ausgelegt ist
+diag-what-supply-tolerance = die Toleranz der Netzspannung
+diag-what-position = eine Position
+diag-what-bias-kind = die Art der Gittervorspannung
+diag-what-the-reference = die Bauteilbezeichnung
+diag-what-node-name = ein Knotenname
+diag-what-chart-voltage = die Spannung laut Schaltplan
+diag-what-voltage-rating = eine Nennspannung
+diag-what-winding-voltage = die Wicklungsspannung
+diag-what-primary-voltage = die Primärspannung
+diag-what-rectifier = `silicon` oder die Position der Gleichrichterröhre
+diag-what-rectifier-drop = der Spannungsabfall am Gleichrichter
+diag-what-set-label = eine Bezeichnung wie "as found"
+diag-what-mains-voltage = die Netzspannung
+diag-what-node-and-voltage = ein Knotenname und seine Spannung
+diag-what-node-voltage = die Knotenspannung
+diag-what-control-position = die Stellung des Reglers
+diag-what-heater-voltage = die Heizspannung
+diag-what-a-heater-voltage = eine Heizspannung
+diag-what-heater-nominal = die Nennheizspannung
+diag-what-valve-position = eine Röhrenposition
+diag-what-valve-current = ein Röhrenstrom
+diag-what-description = eine Beschreibung
+diag-what-reading = der Messwert
+diag-what-cord-resistance = der Widerstand der Netzleitung
+diag-what-safety-test = der Name der Sicherheitsprüfung
+diag-what-bench-test = der Name der Prüfstandsmessung
+diag-what-part-reference = eine Bauteilbezeichnung
+diag-what-photo-path = der Pfad des Fotos
+diag-what-power-rating = eine Nennbelastbarkeit
+diag-what-tolerance = eine Toleranz
+diag-unusually-high = { $value } ist für einen Röhrenverstärker ungewöhnlich hoch
+diag-part-example = zum Beispiel: part C10 was="…" now="…"   oder   part what="Netzkabel" was="zweiadrig" now="dreiadrig"
+diag-second-network-help = ein zweites Netzwerk unter eine eigene Modifikation schreiben
+diag-no-over-range = `{ $name }` nimmt keinen Messwert über dem Messbereich (">…")
+diag-no-over-range-label = nur die Isolationsprüfung liest „mehr als“
+diag-no-over-range-help = den Wert schreiben, den das Messgerät anzeigte, zum Beispiel: { $example }
+diag-over-range-not-resistance = der Messwert über dem Messbereich ">{ $rest }" ist kein Widerstand
+diag-over-range-expected = ">500M" erwartet
+diag-over-range-help = den Endwert des Messgeräts nach `>` schreiben, zum Beispiel ">500M"
+diag-key-missing = `{ $key }` fehlt
+diag-safety-default-help = zum Beispiel: { $example }; oder einen Vorgabewert für `{ $key }` im `safety`-Block des Werkstattprofils setzen
+diag-unknown-bench-test = unbekannte Prüfstandsmessung `{ $name }` zum Akzeptieren
+diag-not-a-bench-test = keine Prüfstandsmessung mit Grenzwert
+diag-empty-reason-help = begründen, warum der Wert annehmbar ist, zum Beispiel "Auslegung des Herstellers"
+diag-acceptance-who-help = `by="…"` hier oder an `accepted` schreiben, oder dem Auftrag einen `technician=` geben
+diag-acceptance-when-help = `date="YYYY-MM-DD"` hier oder an `accepted` schreiben, oder dem Auftrag ein `completed=`-Datum geben
+diag-setting-range = `{ $name }` muss zwischen 0% und 200% liegen
+diag-bias-bands-order = `fixed-bias-low` liegt über `fixed-bias-high`
+diag-these-settings = diese Einstellungen
+diag-one-comes-from = einer der beiden Werte stammt aus { $source }
+diag-from-shop-profile = dem Werkstattprofil
+diag-from-defaults = den Voreinstellungen
+diag-decibel-range = `{ $name }` muss zwischen 0 dB und 150 dB liegen
+diag-decibels = `{ $name }` muss ein Pegel in Dezibel sein
+diag-expected-decibels = Dezibel erwartet
+diag-decibels-help = als "60dB" oder 60 schreiben
+diag-mains-range-help = Netzspannungen reichen von wenigen Volt an einem Stelltransformator bis zur Obergrenze der Niederspannung von 1000 V (IEC 60038)
+
+## Diagnosen zu Namen, die ins Leere zeigen (src/job/validate.rs). `what`
+## ist eine der Wendungen `diag-ref-…` (Nominativ); `kind` ist set,
+## channel, position, node, part, heater oder safety.
+
+diag-check-spelling = die Schreibweise mit den im Auftrag erklärten Namen vergleichen
+diag-list-valves-first = die Röhren zuerst in einem `valves`-Block aufführen
+diag-names-unknown-position = { $what } nennt die Röhrenposition { $name }, die der `valves`-Block nicht aufführt
+diag-no-such-position = keine solche Röhrenposition
+diag-declare-in-circuit = im Block `circuit` erklären: node B+1 chart="350V"
+diag-names-unknown-node = { $what } nennt den Knoten { $name }, der weder in `circuit` erklärt noch gemessen ist
+diag-no-such-node = kein solcher Knoten
+diag-ref-cathode-resistor = der Kathodenwiderstand { $name }
+diag-ref-sense-resistor = ein Messwiderstand
+diag-ref-screen-resistor = ein Schirmgitterwiderstand
+diag-ref-half-primary = ein Widerstand einer Primärwicklungshälfte
+diag-ref-rectifier = der Gleichrichter
+diag-ref-readings = die Messwerte von „{ $set }“
+diag-ref-warm-up = die Aufwärmreihe von „{ $set }“
+diag-ref-mod-figure = ein Rechenwert einer Modifikation
+diag-ref-network-source = die Quelle eines Netzwerks
+diag-ref-dropper = der Siebwiderstand { $name }
+diag-ref-filter-capacitor = der Siebkondensator { $name }
+diag-accept-none = der Auftrag hat { $kind ->
+        [set] keine Messreihe
+        [channel] keinen Prüfstandskanal
+        [position] keine Röhrenposition
+        [node] keinen Knoten
+        [heater] keine Heizungsbezeichnung
+        [safety] keine Sicherheitsprüfung
+       *[part] kein Bauteil
+    } zum Akzeptieren
+diag-accept-unknown = die Akzeptierung nennt { $kind ->
+        [set] die Messreihe
+        [channel] den Prüfstandskanal
+        [position] die Röhrenposition
+        [node] den Knoten
+        [heater] die Heizungsbezeichnung
+        [safety] die Sicherheitsprüfung
+       *[part] das Bauteil
+    } { $name }, doch im Auftrag kommt { $name } nicht vor
+diag-accept-no-such = { $kind ->
+        [set] keine solche Messreihe
+        [channel] kein solcher Prüfstandskanal
+        [position] keine solche Röhrenposition
+        [node] kein solcher Knoten
+        [heater] keine solche Heizungsbezeichnung
+        [safety] keine solche Sicherheitsprüfung
+       *[part] kein solches Bauteil
+    }
+
+## Diagnosen einer Übersetzungsdatei (src/catalogue/check.rs), in der
+## Sprache, die das Werkstattprofil nennt, wenn sie eingebaut ist, sonst
+## Englisch. `english` ist die englische Meldung, unverändert zitiert.
+
+diag-ftl-syntax = das ist keine Fluent-Syntax: { $problem }
+diag-ftl-syntax-help = eine Meldung wird `key = Text` geschrieben; eine Fortsetzungszeile beginnt mit Leerzeichen; ein Argument wird `{"{"} $name {"}"}` geschrieben
+diag-ftl-unknown-key = der englische Katalog hat keine Meldung `{ $key }`
+diag-ftl-unknown-key-label = keine Meldung des Programms
+diag-ftl-no-text = die Meldung `{ $key }` hat keinen Text
+diag-ftl-no-text-label = `key = Text` erwartet
+diag-ftl-unknown-argument = die Meldung `{ $key }` verwendet `{ $argument }`, das das Programm ihr nie übergibt
+diag-ftl-unknown-argument-label = unbekanntes Argument
+diag-ftl-no-arguments = diese Meldung hat keine Argumente
+diag-ftl-given = sie erhält { $arguments }
+diag-ftl-unknown-reference = die Meldung `{ $key }` verweist auf `{ $reference }`, das diese Datei nicht festlegt
+diag-ftl-unknown-message = unbekannte Meldung
+diag-ftl-notice-incomplete = der Sicherheitshinweis zur Netzspannung wird nur als Ganzes übersetzt; es fehlen: { $keys }
+diag-ftl-in-this-file = in dieser Datei
+diag-ftl-notice-help = jeden Teil des Hinweises übersetzen (die Schlüssel, die mit `notice-` beginnen), oder eine im Programm eingebaute Sprache verwenden
+diag-ftl-add-key-english = `{ $key } = …` ergänzen; das Englische steht in messages/en.ftl:{ $line }: { $english }
+diag-ftl-add-key = `{ $key } = …` ergänzen
+diag-ftl-missing-key = der Übersetzung fehlt die Meldung `{ $key }`
+diag-ftl-unreadable = die Übersetzung konnte nicht gelesen werden
+
+## Diagnosen zum Logo der Werkstatt (src/shop/logo.rs). `why` ist einer der
+## Gründe `diag-logo-…` unten, die als Satzende an `diag-logo-refused`
+## anschließen.
+
+diag-expected-in-profile-folder = Dateiname im Ordner des Profils erwartet
+diag-logo-outside = das Logo `{ $path }` liegt nicht im Ordner des Profils
+diag-logo-keep-inside = das Logo neben shop.kdl (oder in einen Ordner darunter) legen und relativ dazu benennen, zum Beispiel logo "logo.svg"
+diag-logo-link = das Logo `{ $path }` führt aus dem Ordner des Profils hinaus (nach { $target })
+diag-logo-copy = das Logo in den Ordner des Profils kopieren, statt darauf zu verweisen
+diag-logo-not-file = das Logo { $path } ist keine gewöhnliche Datei
+diag-logo-png-svg = das Logo muss eine PNG- oder SVG-Datei sein
+diag-logo-too-large = das Logo { $path } ist { $size } Byte groß; die Grenze liegt bei { $limit }
+diag-logo-smaller = ein Logo für den Seitenkopf braucht weit weniger: kleiner exportieren
+diag-logo-cannot-read = das Logo { $path } kann nicht gelesen werden: { $error }
+diag-logo-in-folder = das Logo muss eine PNG- oder SVG-Datei im Ordner des Profils sein
+diag-logo-refused = das Logo { $path } { $why }
+diag-logo-self-contained = das Logo muss ein PNG-Bild oder eine in sich geschlossene SVG-Zeichnung sein
+diag-logo-not-png-or-text = ist weder ein PNG-Bild noch SVG-Text
+diag-logo-not-png-or-svg = ist weder ein PNG-Bild noch eine SVG-Zeichnung
+diag-logo-png-undecodable = beginnt wie ein PNG-Bild, lässt sich aber nicht dekodieren ({ $error })
+diag-logo-svg-malformed = ist keine wohlgeformte SVG-Zeichnung ({ $error })
+diag-logo-svg-root = ist XML mit dem Wurzelelement <{ $root }>, nicht dem <svg> einer SVG-Zeichnung
+diag-logo-svg-refers = verweist auf eine andere Datei oder Adresse (`{ $value }` an <{ $element }>); ein Logo muss in sich geschlossen sein
+diag-logo-svg-style = hat ein Stylesheet, das von anderswo lädt; ein Logo muss in sich geschlossen sein
+
+## Diagnosen beim Lesen einer Übersetzungsdatei (src/shop/translation.rs),
+## an der `language`-Zeile des Profils.
+
+diag-translation-ftl = die Übersetzung muss eine Fluent-Datei (.ftl) im Ordner des Profils sein
+diag-translation-utf8-ftl = die Übersetzung muss eine Fluent-Datei (.ftl) in UTF-8 im Ordner des Profils sein
+diag-translation-outside = die Übersetzungsdatei `{ $path }` liegt nicht im Ordner des Profils
+diag-translation-keep-inside = die Übersetzung neben shop.kdl (oder in einen Ordner darunter) legen und relativ dazu benennen, zum Beispiel file="de.ftl"
+diag-translation-link = die Übersetzungsdatei `{ $path }` führt aus dem Ordner des Profils hinaus (nach { $target })
+diag-translation-copy = die Übersetzung in den Ordner des Profils kopieren, statt darauf zu verweisen
+diag-translation-not-file = die Übersetzungsdatei { $path } ist keine gewöhnliche Datei
+diag-translation-too-large = die Übersetzungsdatei { $path } ist größer als { $limit } MiB; eine Übersetzung ist weit kleiner, wahrscheinlich ist es die falsche Datei
+diag-translation-cannot-read = die Übersetzungsdatei { $path } kann nicht gelesen werden: { $error }
+diag-translation-not-utf8 = { $place }: die Übersetzungsdatei ist kein UTF-8-Text (hier das Byte { $byte }); als UTF-8 speichern
+
 ## Die übrigen Meldungen im Terminal (src/cli), in der Sprache des
 ## Werkstattprofils, sobald es gelesen ist; die Schlusszeile eines Stapels
 ## in der Sprache, die alle seine Aufträge teilen, sonst Englisch.
@@ -1380,6 +1730,7 @@ cli-init-next-gitattributes = PDFs und Fotos sind für git Binärdateien, Auftra
 cli-init-next-gitignore = erstellte Dokumente bleiben aus git heraus; siehe docs/git.md
 cli-new-next = die Messwerte eintragen, dann `ampreport check { $path }` ausführen
 cli-new-fault = Hinweis: die neue Auftragsdatei konnte nicht erstellt werden; das ist ein Fehler in ampreport, bitte melden
+cli-new-not-a-folder = Fehler: { $folder } ist kein Ordner
 cli-new-started-from =
     Begonnen mit { $file } (Auftrag { $id }) über `ampreport new --from`: das Gerät, das Netz,
     die Röhrenbestückung und die Schaltung sind übernommen; Messwerte, Teile, Änderungen,
@@ -1459,6 +1810,7 @@ cli-program-exited = endete mit Status { $code }
 cli-program-killed-named = wurde durch Signal { $signal } ({ $name }) beendet
 cli-program-killed = wurde durch Signal { $signal } beendet
 cli-program-ended = endete mit { $status }
+cli-program-more-output = … { $bytes } weitere Bytes der Ausgabe nicht gezeigt
 
 ## Das Netzwerk einer Änderung in Worten (src/calc/network/mod.rs): seine
 ## Quelle, seine Eingriffe und warum es sich nicht berechnen ließ.
@@ -1487,3 +1839,89 @@ figure-network-kind-capacitor = Kondensator
 figure-network-kind-inductor = Spule
 figure-network-kind-link = Brücke
 figure-network-kind-pot = Potentiometer
+
+## Was `check`, `render` und `watch` sagen, bevor ein Werkstattprofil
+## gelesen ist oder über keinen einzelnen Auftrag: das Programm sagt es
+## immer auf Englisch (docs/shop.md); die Übersetzung steht hier, damit der
+## Katalog vollständig ist.
+
+cli-error = Fehler: { $error }
+cli-warning = Warnung: { $warning }
+cli-no-job-files = Fehler: keine Auftragsdateien (*.kdl) in { $folders }
+cli-no-job-files-here = Fehler: keine Auftragsdateien (*.kdl) in { $folders } (--recursive durchsucht auch die Unterordner)
+cli-no-stop-signals = Warnung: Stoppsignale beenden ampreport ohne Aufräumen: { $error }
+cli-output-one-job = Fehler: -o benennt das PDF einer einzigen Auftragsdatei; für mehrere Aufträge oder einen Ordner --out-dir ORDNER verwenden
+cli-emit-source-one-job = Fehler: --emit-source schreibt den Quelltext eines einzigen Auftrags; eine Auftragsdatei angeben
+cli-stdin-one-job = Fehler: `-` liest einen Auftrag von der Standardeingabe; es kann nicht neben anderen Aufträgen angegeben werden
+cli-outputs-clash = Fehler: { $first } und { $second } würden beide nach { $output } geschrieben; --out-dir ORDNER verwenden oder eine Datei umbenennen
+cli-no-run-key = Warnung: { $error }; jeder Auftrag wird neu erstellt
+cli-stdout-is-terminal = Fehler: `-o -` schreibt das PDF auf die Standardausgabe, und die ist hier ein Terminal; in eine Datei oder an ein Programm leiten (`-o - > auftrag.pdf`, `-o - | lpr`)
+cli-listing-needs-file = Fehler: die Auflistung ist ein PDF mit Markdown daneben und braucht deshalb eine Datei: mit `-o DATEI.pdf` benennen
+cli-stdin-needs-output = Fehler: ein von der Standardeingabe gelesener Auftrag hat keine Datei, neben die das PDF kommen könnte; die Ausgabe mit `-o DATEI` benennen oder `-o -` für die Standardausgabe
+cli-no-template-folder = Fehler: den Vorlagenordner { $folder } gibt es nicht, oder er ist kein Ordner
+cli-typst-newer = { $path } ist typst { $version }, neuer als die geprüfte Reihe { $series }.x; das Dokument kann anders aussehen
+cli-no-workers = Fehler: { $workers } Arbeitsthreads konnten nicht gestartet werden: { $error }
+cli-watch-no-stop-signals = Warnung: Strg-C beendet die Überwachung ohne Aufräumen: { $error }
+cli-watch-no-stdin = Fehler: watch braucht Auftragsdateien zum Überwachen; `-` (Standardeingabe) lässt sich nicht überwachen
+cli-watch-no-stdout = Fehler: watch schreibt PDF-Dateien; `-o -` (Standardausgabe) ist nicht möglich
+cli-watch-cannot = Fehler: Dateien lassen sich auf diesem System nicht überwachen: { $error }
+cli-watching = { $count ->
+        [one] 1 Auftrag wird auf Änderungen überwacht (Strg-C beendet)
+       *[other] { $count } Aufträge werden auf Änderungen überwacht (Strg-C beendet)
+    }
+cli-watch-stopped = Überwachung beendet
+cli-watch-trouble = Warnung: beim Überwachen der Dateien: { $error }
+cli-watcher-stopped = Fehler: die Dateiüberwachung wurde beendet
+cli-watch-folder = { $folder } lässt sich nicht überwachen: { $error }
+cli-shop-beside-job = Hinweis: es gilt das Werkstattprofil { $used } neben dem Auftrag; --shop { $named } gilt nur, wo keines vorhanden ist
+cli-reading-stdin = Hinweis: der Auftrag wird von der Standardeingabe gelesen; mit Strg-D abschließen
+
+## Ein Dokument, das sich vor dem Aufruf von typst nicht zusammenstellen
+## ließ (src/cli/render.rs), in der Sprache des Auftrags.
+
+cli-template-not-filled = Fehler: die Vorlage { $name } ließ sich nicht ausfüllen: { $detail }
+cli-shop-image-unreadable = Fehler: das Bild der Werkstatt { $path } ließ sich nicht lesen: { $error }
+cli-template-file-refused = Fehler: eine Datei des Vorlagenordners wurde abgelehnt: { $error }
+
+## Wohin ein Dokument nicht geschrieben werden darf (src/typeset/output.rs),
+## in der Sprache des Auftrags, sobald sein Werkstattprofil gelesen ist.
+
+cli-output-folder = die Ausgabe { $path } benennt einen Ordner, keine Datei
+cli-output-folder-help = die Datei benennen, zum Beispiel `-o { $example }`
+cli-output-link = die Ausgabe { $path } ist ein symbolischer Link (auf { $target }); ampreport schreibt nicht durch Links
+cli-output-link-help = die Datei selbst mit `-o` benennen oder den Link entfernen
+cli-output-not-a-file = die Ausgabe { $path } existiert und ist { $kind }, keine gewöhnliche Datei
+cli-output-not-a-file-help = ampreport überschreibt nur eine gewöhnliche Datei; mit `-o` einen anderen Pfad angeben
+cli-output-no-folder = den Ordner der Ausgabe { $path } gibt es nicht
+cli-output-no-folder-help = den Ordner zuerst anlegen oder mit `-o` einen anderen Pfad angeben
+cli-output-is-input = die Ausgabe { $path } ist { $what } ({ $input }); dorthin zu schreiben würde sie zerstören
+cli-output-is-input-help = mit `-o` einen anderen Pfad angeben
+cli-output-inside-input = die Ausgabe { $path } liegt in einem Ordner, der gelesen wird ({ $what }: { $input })
+cli-output-inside-input-help = ampreport liest jede Datei in diesem Ordner; die Ausgabe mit `-o` an einen anderen Ort schreiben
+cli-emit-folder = der Quelltextordner { $path } { $problem }
+cli-emit-folder-link = ist ein symbolischer Link; ampreport schreibt nicht durch Links
+cli-emit-folder-link-help = den Ordner selbst benennen oder den Link entfernen
+cli-emit-folder-not-a-folder = existiert und ist { $kind }, kein Ordner
+cli-emit-folder-new-help = einen neuen oder leeren Ordner angeben
+cli-emit-folder-not-empty = ist nicht leer
+cli-emit-folder-not-empty-help = einen neuen oder leeren Ordner angeben oder --force hinzufügen, um alles darin zu ersetzen
+cli-emit-folder-too-wide = ist das Wurzel-, Home- oder aktuelle Verzeichnis oder enthält das aktuelle Verzeichnis
+cli-emit-folder-too-wide-help = einen eigenen Ordner für den Quelltext angeben, etwa `./handover-source`
+cli-emit-folder-overlaps = überschneidet sich mit einer Datei oder einem Ordner des Laufs ({ $what }: { $path })
+cli-emit-folder-overlaps-help = einen eigenen Ordner für den Quelltext angeben, getrennt vom Auftrag, seinen Eingaben und dem PDF
+cli-input-job-file = die Auftragsdatei
+cli-input-job-of-run = eine Auftragsdatei dieses Laufs
+cli-input-ratings-file = eine Datei mit Röhrendaten
+cli-input-shop-profile = das Werkstattprofil
+cli-input-photo = ein Foto des Auftrags
+cli-input-template-folder = der Vorlagenordner
+cli-input-logo = das Logo der Werkstatt
+cli-input-translation = die Übersetzungsdatei der Werkstatt
+cli-input-typst = das Programm typst
+cli-input-pdf-output = die PDF-Ausgabe
+cli-kind-fifo = ein FIFO (benannte Pipe)
+cli-kind-device = ein Gerät
+cli-kind-socket = ein Socket
+cli-kind-folder = ein Ordner
+cli-kind-link = ein symbolischer Link
+cli-kind-other = keine gewöhnliche Datei

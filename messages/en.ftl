@@ -1001,6 +1001,7 @@ diag-file-refused = { $name }: { $errors ->
        *[other] { $errors } problems stop
     } this { $file ->
         [shop] shop profile
+        [translation] translation file
        *[job] job file
     } from being read
 diag-file-refused-warnings = { $name }: { $errors ->
@@ -1008,6 +1009,7 @@ diag-file-refused-warnings = { $name }: { $errors ->
        *[other] { $errors } problems stop
     } this { $file ->
         [shop] shop profile
+        [translation] translation file
        *[job] job file
     } from being read ({ $warnings ->
         [one] 1 warning
@@ -1176,6 +1178,7 @@ diag-rectifier-not-rectifier = the rectifier is { $position } ({ $type }), which
 diag-write-silicon = write `rectifier silicon` for a solid-state rectifier
 diag-incomplete = the { $file ->
         [shop] shop profile
+        [translation] translation file
        *[job] job file
     } is incomplete
 diag-here = here
@@ -1283,6 +1286,352 @@ diag-when-accepted = when was this accepted?
 diag-needs-value = `{ $name }` needs a value
 diag-value-missing = value missing
 
+## Diagnostics of a mod's `network` block (src/job/network/decode.rs).
+
+diag-in-a-node = a `{ $node }`
+diag-what-reference = a reference
+diag-net-label = the network's label
+diag-net-needs-source = a `network` needs a `source`
+diag-net-source-missing = source missing
+diag-net-needs-load = a `network` needs a `load`: the node the response is read at
+diag-net-load-missing = load missing
+diag-net-speed-not-pot = the speed control { $name } is not a pot of this network
+diag-net-no-such-pot = no such pot
+diag-net-add-speed-pot = add the speed pot as `pot REF value=… ccw=… wiper=…`
+diag-net-one-node = a network has one `{ $node }`; this is a second
+diag-net-part-twice = the network already has a part { $name }
+diag-net-repeated-reference = repeated reference
+diag-net-own-reference = give each part its own reference
+diag-net-not-ground = `{ $name }` is not the reference node's name in a job file
+diag-net-write-ground = write `ground`
+diag-net-ground-help = the reference node of a network is written `ground`
+diag-net-impedance-no-valve = a source with a given `impedance` takes no valve figures
+diag-net-not-with-impedance = not with `impedance`
+diag-net-impedance-or-valve = give either `impedance=`, or `valve=` with `plate-load=`
+diag-net-source-impedance = a source impedance
+diag-net-valve-and-impedance = a source is either a valve stage or has a given `impedance`, not both
+diag-net-remove-one = remove one
+diag-net-valve-impedance-help = the valve's output impedance comes from its ra and the plate load
+diag-net-plate-load = a plate load
+diag-net-cathode-resistor = a cathode resistor
+diag-net-needs-valve = a plate load or cathode resistor needs the source's `valve=`
+diag-net-no-valve-named = no valve named
+diag-net-load-resistance = a load resistance
+diag-net-track-resistance = a pot's track resistance
+diag-net-pot-needs-end = a pot needs at least one end of its track connected (`ccw=` or `cw=`)
+diag-net-no-end = no end connected
+diag-net-pot-needs-setting = a pot needs its wiper `setting` (0 to 10; several may be listed, "3 7")
+diag-net-setting-missing = setting missing
+diag-net-same-node = { $part } connects node `{ $name }` to itself
+diag-net-same-node-label = same node twice
+diag-net-same-node-help = each terminal of a part goes to a different node
+diag-net-unknown-taper = unknown pot taper `{ $name }`
+diag-net-expected-taper = expected linear or audio
+diag-net-bad-setting = a pot setting runs from 0 to 10, found { $found }
+diag-net-expected-setting = expected 0 to 10
+diag-net-setting-help = write one setting, setting=5, or several in quotes, setting="3 7"
+diag-net-found-word = `{ $word }`
+diag-net-found-nothing = nothing
+diag-net-too-many-settings = a pot may list at most { $max } settings, found { $count }
+diag-net-too-many = too many
+diag-net-part-reference = a part's reference
+diag-net-no-part-to-change = the network has no part { $name } to change
+diag-net-no-part-to-remove = the network has no part { $name } to remove
+diag-net-no-such-part = no such part
+diag-net-no-parts-yet = the network has no parts yet
+diag-net-fit-new-part = { $suggestion }; to fit a new part, write it as `resistor { $name } value=… from=… to=…` (or capacitor, inductor, link, pot)
+diag-net-link-no-value = { $name } is a link and has no value
+diag-net-not-for-link = not for a link
+diag-net-not-a-pot = { $name } is not a pot, so it has no `{ $key }`
+diag-net-only-pots = only for pots
+diag-net-nothing-to-change = `change { $name }` says nothing to change
+diag-net-nothing-changed = nothing changed
+diag-net-give-pot-change = give `value=`, `setting=` or `taper=`
+diag-net-give-value = give the new `value=`
+diag-net-change-or-replace = to change it write `change { $name } value=…`; to replace it, `remove { $name }` first
+diag-net-empty-after = the `after` block changes nothing
+diag-net-no-edits = no edits
+diag-net-empty-after-help = write the edits that make the network as left: change, remove, or a new part
+
+## Diagnostics of a network's shape (src/job/network/check.rs). `after`
+## is `yes` for the network as the mod's edits leave it; `parts` and
+## `nodes` are lists made with `diag-list-pair` and `diag-list-more`.
+
+diag-list-pair = { $first } and { $last }
+diag-list-more = { $first }, { $rest }
+diag-net-settings-before-after = the network lists { $before } settings before and { $after } after; the curves are compared setting by setting
+diag-net-settings-differ = settings do not line up
+diag-net-settings-before-after-help = list the same number of settings before and after (or one)
+diag-net-speed-removed = the speed pot { $name } is removed by the mod's edits
+diag-net-not-as-left = not in the network as left
+diag-net-no-mu-ra = { $position } ({ $type }) has no typical μ and ra in the ratings table, so its output impedance cannot be worked out
+diag-net-no-mu-ra-label = no μ and ra
+diag-net-no-mu-ra-help = give the source's `impedance=` instead, or add μ and ra to the ratings row (--ratings)
+diag-net-the-source = the source
+diag-net-the-load = the load
+diag-net-pot-end = { $name } ({ $side } end to wiper)
+diag-net-source-on-ground = the source cannot sit on `ground`: it drives a node against ground
+diag-net-source-on-ground-label = source on ground
+diag-net-load-on-ground = the response cannot be read at `ground`: name the node the load hangs on
+diag-net-load-on-ground-label = load on ground
+diag-net-ideal-loop = { $parts } form a loop of ideal connections{ $after ->
+        [yes] {" "}after the mod's edits
+       *[no] {""}
+    }{ $shorted ->
+        [yes] {" "}(the ideal source is shorted)
+       *[no] {""}
+    }: the network cannot be solved
+diag-net-closes-loop = closes a loop
+diag-net-shorted-source-help = give the source its output `impedance=` or a `valve=`, or take out the link that shorts it
+diag-net-ideal-loop-help = take out one of the links: two ideal paths between the same nodes say nothing more than one
+diag-net-floating = { $count ->
+        [one] node { $nodes } connects
+       *[other] nodes { $nodes } connect
+    } to nothing that reaches ground{ $after ->
+        [yes] {" "}after the mod's edits
+       *[no] {""}
+    } (only { $parts }): the network cannot be solved
+diag-net-floating-label = floating
+diag-net-floating-help = connect { $count ->
+        [one] it
+       *[other] them
+    } to the rest of the network, or check the node names for a typing slip
+diag-net-load-unreached = no part leads from the source's node `{ $source }` to the load's node `{ $load }`{ $after ->
+        [yes] {" "}after the mod's edits
+       *[no] {""}
+    }, so the response is nil
+diag-net-load-unreached-label = not reached from the source
+diag-net-load-unreached-help = check the node names of the parts between them
+diag-net-pot-settings-differ = { $pot } lists { $count } settings but { $first } lists { $first_count }{ $after ->
+        [yes] {" "}after the mod's edits
+       *[no] {""}
+    }: the k-th setting of every pot makes the network's k-th setting
+diag-net-pot-settings-help = list the same number of settings on each pot, or one setting for a pot that stays put
+
+## Diagnostics of bench tests (src/job/decode_bench.rs).
+
+diag-two-hints = { $first }; { $second }
+diag-out-of-range = out of range
+diag-bench-a-frequency = a frequency
+diag-bench-load-resistance = the load resistance
+diag-bench-unusual-load = a dummy load of { $load } is unusual
+diag-bench-unusual-load-help = dummy loads are usually 4 Ω, 8 Ω or 16 Ω, the speaker impedance
+diag-bench-rms-and-pp = `output-power` gives both `rms` and `peak-to-peak`
+diag-bench-one-reading = one reading only
+diag-bench-rms-or-pp = give the reading once: rms="15.5V" or peak-to-peak="44V"
+diag-bench-power-needs-volts = `output-power` needs the output voltage, saying whether it is RMS or peak-to-peak
+diag-bench-the-output-voltage = the output voltage
+diag-bench-an-output-voltage = an output voltage
+diag-bench-unusual-power = { $volts } into { $load } would be { $watts } W, unusual for a valve amplifier
+diag-bench-unusual-power-help = check the reading, its kind (rms or peak-to-peak) and the load
+diag-bench-at-help = write at=clipping (the onset of clipping), a distortion such as at="5%", or the input drive such as at="0.5V"
+diag-bench-needs-at = `output-power` needs the condition it was read at (`at=`)
+diag-bench-condition-missing = condition missing
+diag-bench-the-distortion = the distortion
+diag-bench-distortion-range = a distortion must be above 0 % and below 100 %
+diag-bench-the-input-drive = the input drive
+diag-bench-an-input-drive = an input drive
+diag-bench-bad-at = `at` must be clipping, a distortion or a drive voltage, found { $found }
+diag-bench-expected-at = expected clipping, "5%" or "0.5V"
+diag-bench-the-hum-reading = the hum and noise reading
+diag-bench-hum-needs-volts = `hum-noise` needs the RMS volts read across the load
+diag-bench-a-hum-reading = a hum and noise reading
+diag-bench-hum-high = { $volts } of hum and noise is very high
+diag-bench-hum-high-help = hum and noise is usually read in millivolts, for example "4.2mV"
+diag-bench-bad-input = `input` must be shorted or open, found { $found }
+diag-bench-expected-input = expected shorted or open
+diag-bench-hum-needs-input = `hum-noise` needs to say whether the input was shorted or open
+diag-bench-input-missing = input state missing
+diag-bench-an-input-level = an input level
+diag-bench-point-needs = `point` needs a frequency and the output volts read there
+diag-bench-the-frequency = the frequency
+diag-bench-response-voltage = an output voltage on a response
+diag-bench-point-twice = { $frequency } is read twice in this response
+diag-bench-response-empty = `response` holds no readings
+diag-bench-no-points = no `point` children
+diag-bench-no-reference-point = the response has no reading at its reference frequency { $frequency }
+diag-bench-no-point-here = no point here
+diag-bench-no-reference-point-help = add a `point` at the reference frequency, or set reference= to a frequency that was read
+diag-bench-an-input-voltage = an input voltage
+
+## Diagnostics of the job file's blocks (src/job/decode.rs). `diag-what-…`
+## name what a value is, for messages such as `diag-cannot-be-negative`.
+
+diag-what-job-format = the job-file format version
+diag-what-rated-power = the rated output power
+diag-what-nominal-mains = the nominal mains voltage
+diag-what-mains-frequency = the mains frequency
+diag-what-design-mains = the design mains voltage
+diag-what-supply-tolerance = the supply tolerance
+diag-what-position = a position
+diag-what-bias-kind = the bias kind
+diag-what-the-reference = the reference
+diag-what-node-name = a node name
+diag-what-chart-voltage = the chart voltage
+diag-what-voltage-rating = a voltage rating
+diag-what-winding-voltage = the winding voltage
+diag-what-primary-voltage = the primary voltage
+diag-what-rectifier = `silicon` or the rectifier valve's position
+diag-what-rectifier-drop = the rectifier drop
+diag-what-set-label = a label such as "as found"
+diag-what-mains-voltage = the mains voltage
+diag-what-node-and-voltage = a node name and its voltage
+diag-what-node-voltage = the node voltage
+diag-what-control-position = the control's position
+diag-what-heater-voltage = the heater voltage
+diag-what-a-heater-voltage = a heater voltage
+diag-what-heater-nominal = the heater nominal voltage
+diag-what-valve-position = a valve position
+diag-what-valve-current = a valve current
+diag-what-description = a description
+diag-what-reading = the reading
+diag-what-cord-resistance = the cord resistance
+diag-what-safety-test = the safety test's name
+diag-what-bench-test = the bench test's name
+diag-what-part-reference = a part reference
+diag-what-photo-path = the photo's path
+diag-what-power-rating = a power rating
+diag-what-tolerance = a tolerance
+diag-unusually-high = { $value } is unusually high for a valve amplifier
+diag-part-example = for example: part C10 was="…" now="…"   or   part what="mains cord" was="two-wire" now="three-wire"
+diag-second-network-help = write a second network under a mod of its own
+diag-no-over-range = `{ $name }` takes no over-range reading (">…")
+diag-no-over-range-label = only the insulation test reads "more than"
+diag-no-over-range-help = write the figure the meter showed, for example: { $example }
+diag-over-range-not-resistance = the over-range reading ">{ $rest }" is not a resistance
+diag-over-range-expected = expected ">500M"
+diag-over-range-help = write the meter's top figure after `>`, for example ">500M"
+diag-key-missing = `{ $key }` missing
+diag-safety-default-help = for example: { $example }; or set a default `{ $key }` in the shop profile's `safety` block
+diag-unknown-bench-test = unknown bench test `{ $name }` to accept
+diag-not-a-bench-test = not a bench test with a limit
+diag-empty-reason-help = say why the figure is acceptable, for example "factory design"
+diag-acceptance-who-help = write `by="…"` here or on `accepted`, or give the job a `technician=`
+diag-acceptance-when-help = write `date="YYYY-MM-DD"` here or on `accepted`, or give the job a `completed=` date
+diag-setting-range = `{ $name }` must be between 0% and 200%
+diag-bias-bands-order = `fixed-bias-low` is above `fixed-bias-high`
+diag-these-settings = these settings
+diag-one-comes-from = one of the two comes from { $source }
+diag-from-shop-profile = the shop profile
+diag-from-defaults = the defaults
+diag-decibel-range = `{ $name }` must be between 0 dB and 150 dB
+diag-decibels = `{ $name }` must be a level in decibels
+diag-expected-decibels = expected decibels
+diag-decibels-help = write it as "60dB" or 60
+diag-mains-range-help = mains voltages run from a few volts on a variable autotransformer to the 1000 V top of low-voltage supply (IEC 60038)
+
+## Diagnostics of names that point nowhere (src/job/validate.rs). `what`
+## is one of the `diag-ref-…` phrases; `kind` is set, channel, position,
+## node, part, heater or safety.
+
+diag-check-spelling = check the spelling against the names declared in the job
+diag-list-valves-first = list the valves in a `valves` block first
+diag-names-unknown-position = { $what } names valve position { $name }, which the `valves` block does not list
+diag-no-such-position = no such valve position
+diag-declare-in-circuit = declare it in the circuit block: node B+1 chart="350V"
+diag-names-unknown-node = { $what } names node { $name }, which is neither declared in `circuit` nor measured
+diag-no-such-node = no such node
+diag-ref-cathode-resistor = cathode resistor { $name }
+diag-ref-sense-resistor = a sense resistor
+diag-ref-screen-resistor = a screen resistor
+diag-ref-half-primary = a half-primary resistance
+diag-ref-rectifier = the rectifier
+diag-ref-readings = the "{ $set }" readings
+diag-ref-warm-up = the "{ $set }" warm-up
+diag-ref-mod-figure = a mod's figure
+diag-ref-network-source = a network's source
+diag-ref-dropper = dropper { $name }
+diag-ref-filter-capacitor = filter capacitor { $name }
+diag-accept-none = the job has no { $kind ->
+        [set] measurement set
+        [channel] bench channel
+        [position] valve position
+        [node] node
+        [heater] heater label
+        [safety] safety test
+       *[part] part
+    } to accept
+diag-accept-unknown = the acceptance names { $kind ->
+        [set] measurement set
+        [channel] bench channel
+        [position] valve position
+        [node] node
+        [heater] heater label
+        [safety] safety test
+       *[part] part
+    } { $name }, which the job does not have
+diag-accept-no-such = no such { $kind ->
+        [set] measurement set
+        [channel] bench channel
+        [position] valve position
+        [node] node
+        [heater] heater label
+        [safety] safety test
+       *[part] part
+    }
+
+## Diagnostics of a translation file (src/catalogue/check.rs), said in the
+## language the shop profile names when it is built in, else English.
+## `english` is the English message, quoted as it is.
+
+diag-ftl-syntax = this is not Fluent syntax: { $problem }
+diag-ftl-syntax-help = a message is written `key = text`; a continuation line starts with spaces; an argument is written `{"{"} $name {"}"}`
+diag-ftl-unknown-key = the English catalogue has no message `{ $key }`
+diag-ftl-unknown-key-label = not a message of the program
+diag-ftl-no-text = the message `{ $key }` has no text
+diag-ftl-no-text-label = expected `key = text`
+diag-ftl-unknown-argument = the message `{ $key }` uses `{ $argument }`, which the program never gives it
+diag-ftl-unknown-argument-label = unknown argument
+diag-ftl-no-arguments = this message takes no arguments
+diag-ftl-given = it is given { $arguments }
+diag-ftl-unknown-reference = the message `{ $key }` refers to `{ $reference }`, which this file does not define
+diag-ftl-unknown-message = unknown message
+diag-ftl-notice-incomplete = the mains-safety notice is translated only as a whole; missing: { $keys }
+diag-ftl-in-this-file = in this file
+diag-ftl-notice-help = translate every part of the notice (the keys starting `notice-`), or use a language the program has built in
+diag-ftl-add-key-english = add `{ $key } = …`; the English is at messages/en.ftl:{ $line }: { $english }
+diag-ftl-add-key = add `{ $key } = …`
+diag-ftl-missing-key = the translation has no message `{ $key }`
+diag-ftl-unreadable = the translation could not be read
+
+## Diagnostics of the shop's logo (src/shop/logo.rs). `why` is one of the
+## `diag-logo-…` reasons below that start with a verb.
+
+diag-expected-in-profile-folder = expected a file name in the profile's folder
+diag-logo-outside = the logo `{ $path }` is not inside the profile's folder
+diag-logo-keep-inside = put the logo beside shop.kdl (or in a folder below it) and name it relative to it, for example logo "logo.svg"
+diag-logo-link = the logo `{ $path }` leads outside the profile's folder (to { $target })
+diag-logo-copy = copy the logo into the profile's folder instead of linking to it
+diag-logo-not-file = the logo { $path } is not a regular file
+diag-logo-png-svg = the logo must be a PNG or SVG file
+diag-logo-too-large = the logo { $path } is { $size } bytes; the limit is { $limit }
+diag-logo-smaller = a logo for a page header needs far less: export it smaller
+diag-logo-cannot-read = cannot read the logo { $path }: { $error }
+diag-logo-in-folder = the logo must be a PNG or SVG file in the profile's folder
+diag-logo-refused = the logo { $path } { $why }
+diag-logo-self-contained = the logo must be a PNG picture or a self-contained SVG drawing
+diag-logo-not-png-or-text = is neither a PNG picture nor SVG text
+diag-logo-not-png-or-svg = is neither a PNG picture nor an SVG drawing
+diag-logo-png-undecodable = starts like a PNG picture but does not decode ({ $error })
+diag-logo-svg-malformed = is not a well-formed SVG drawing ({ $error })
+diag-logo-svg-root = is XML whose root is <{ $root }>, not an SVG drawing's <svg>
+diag-logo-svg-refers = refers to another file or address (`{ $value }` on <{ $element }>); a logo must be self-contained
+diag-logo-svg-style = has a style sheet that loads from elsewhere; a logo must be self-contained
+
+## Diagnostics of reading a translation file (src/shop/translation.rs),
+## at the profile's `language` line.
+
+diag-translation-ftl = the translation must be a Fluent (.ftl) file in the profile's folder
+diag-translation-utf8-ftl = the translation must be a UTF-8 Fluent (.ftl) file in the profile's folder
+diag-translation-outside = the translation file `{ $path }` is not inside the profile's folder
+diag-translation-keep-inside = put the translation beside shop.kdl (or in a folder below it) and name it relative to it, for example file="de.ftl"
+diag-translation-link = the translation file `{ $path }` leads outside the profile's folder (to { $target })
+diag-translation-copy = copy the translation into the profile's folder instead of linking to it
+diag-translation-not-file = the translation file { $path } is not a regular file
+diag-translation-too-large = the translation file { $path } is larger than { $limit } MiB; a translation is far smaller, so this is probably the wrong file
+diag-translation-cannot-read = cannot read the translation file { $path }: { $error }
+diag-translation-not-utf8 = { $place }: the translation file is not UTF-8 text (byte { $byte } here); save it as UTF-8
+
 ## The terminal's other messages: what the commands say besides a job's
 ## summary (src/cli), in the job's shop-profile language once it is read;
 ## a batch's closing summary in the language all its jobs share, else
@@ -1384,6 +1733,7 @@ cli-init-next-gitattributes = PDFs and photos are binary to git, job files are t
 cli-init-next-gitignore = rendered documents stay out of git; see docs/git.md
 cli-new-next = fill in the readings, then run `ampreport check { $path }`
 cli-new-fault = note: the new job file could not be made; this is a fault in ampreport, please report it
+cli-new-not-a-folder = error: { $folder } is not a folder
 cli-new-started-from =
     Started from { $file } (job { $id }) with `ampreport new --from`: the unit, the mains,
     the line-up and the circuit are carried over; the readings, parts, mods,
@@ -1465,6 +1815,7 @@ cli-program-exited = exited with status { $code }
 cli-program-killed-named = was killed by signal { $signal } ({ $name })
 cli-program-killed = was killed by signal { $signal }
 cli-program-ended = ended with { $status }
+cli-program-more-output = … { $bytes } more bytes of output not shown
 
 ## A mod's network in words (src/calc/network/mod.rs): its source, its
 ## edits and why it could not be worked out, as the document and
@@ -1495,3 +1846,92 @@ figure-network-kind-capacitor = capacitor
 figure-network-kind-inductor = inductor
 figure-network-kind-link = link
 figure-network-kind-pot = pot
+
+## What `check`, `render` and `watch` say before any shop profile is read,
+## or about no one job (src/cli/check.rs, render.rs, watch.rs, batch.rs,
+## src/typeset/locate.rs): always in English, from here all the same.
+## `$error` is a message from elsewhere, already written.
+
+cli-error = error: { $error }
+cli-warning = warning: { $warning }
+cli-no-job-files = error: no job files (*.kdl) in { $folders }
+cli-no-job-files-here = error: no job files (*.kdl) in { $folders } (--recursive also searches their sub-folders)
+cli-no-stop-signals = warning: stop signals will end ampreport without clean-up: { $error }
+cli-output-one-job = error: -o names the PDF of one job file; for several jobs or a folder use --out-dir DIR
+cli-emit-source-one-job = error: --emit-source writes the source of one job; name one job file
+cli-stdin-one-job = error: `-` reads one job from standard input; it cannot be named beside other jobs
+cli-outputs-clash = error: { $first } and { $second } would both be written to { $output }; use --out-dir DIR or rename one
+cli-no-run-key = warning: { $error }; every job is rendered
+cli-stdout-is-terminal = error: `-o -` writes the PDF to standard output, which is a terminal here; send it to a file or a program (`-o - > job.pdf`, `-o - | lpr`)
+cli-listing-needs-file = error: the listing is a PDF and Markdown beside it, so it needs a file: name it with `-o FILE.pdf`
+cli-stdin-needs-output = error: a job read from standard input has no file to put the PDF beside; name the output with `-o FILE`, or `-o -` for standard output
+cli-no-template-folder = error: the template folder { $folder } does not exist or is not a folder
+cli-typst-newer = { $path } is typst { $version }, newer than the tested { $series }.x series; the document may look different
+cli-no-workers = error: could not start { $workers } worker threads: { $error }
+cli-watch-no-stop-signals = warning: Ctrl-C will end the watch without clean-up: { $error }
+cli-watch-no-stdin = error: watch needs job files to watch; `-` (standard input) cannot be watched
+cli-watch-no-stdout = error: watch writes PDF files; `-o -` (standard output) cannot be used
+cli-watch-cannot = error: cannot watch files on this system: { $error }
+cli-watching = { $count ->
+        [one] watching 1 job for changes (Ctrl-C stops)
+       *[other] watching { $count } jobs for changes (Ctrl-C stops)
+    }
+cli-watch-stopped = stopped watching
+cli-watch-trouble = warning: watching files: { $error }
+cli-watcher-stopped = error: the file watcher stopped
+cli-watch-folder = cannot watch { $folder }: { $error }
+cli-shop-beside-job = note: using the shop profile { $used } found beside the job; --shop { $named } applies only where there is none
+cli-reading-stdin = note: reading the job from standard input; end it with Ctrl-D
+
+## A document that could not be assembled before typst ran
+## (src/cli/render.rs, from src/report/handover/mod.rs), in the job's
+## language. `$detail` is the template engine's own words.
+
+cli-template-not-filled = error: the template { $name } could not be filled: { $detail }
+cli-shop-image-unreadable = error: could not read the shop image { $path }: { $error }
+cli-template-file-refused = error: refused a file of the template folder: { $error }
+
+## Where a document may not be written (src/typeset/output.rs), in the
+## job's language once its shop profile is read. `$what` is one of the
+## `cli-input-…` words, `$kind` one of the `cli-kind-…` words, `$problem`
+## one of the `cli-emit-folder-…` phrases.
+
+cli-output-folder = the output { $path } names a folder, not a file
+cli-output-folder-help = name the file, for example `-o { $example }`
+cli-output-link = the output { $path } is a symbolic link (to { $target }); ampreport does not write through links
+cli-output-link-help = name the file itself with `-o`, or remove the link
+cli-output-not-a-file = the output { $path } exists and is { $kind }, not a regular file
+cli-output-not-a-file-help = ampreport writes only over a regular file; name another path with `-o`
+cli-output-no-folder = the folder of the output { $path } does not exist
+cli-output-no-folder-help = create the folder first, or name another path with `-o`
+cli-output-is-input = the output { $path } is { $what } ({ $input }); writing there would destroy it
+cli-output-is-input-help = name another path with `-o`
+cli-output-inside-input = the output { $path } is inside { $what } ({ $input })
+cli-output-inside-input-help = ampreport reads every file in that folder; write the output somewhere else with `-o`
+cli-emit-folder = the source folder { $path } { $problem }
+cli-emit-folder-link = is a symbolic link; ampreport does not write through links
+cli-emit-folder-link-help = name the folder itself, or remove the link
+cli-emit-folder-not-a-folder = exists and is { $kind }, not a folder
+cli-emit-folder-new-help = name a new or empty folder
+cli-emit-folder-not-empty = is not empty
+cli-emit-folder-not-empty-help = name a new or empty folder, or add --force to replace everything in it
+cli-emit-folder-too-wide = is the root, home or current folder, or holds the current folder
+cli-emit-folder-too-wide-help = name a folder of its own for the source, such as `./handover-source`
+cli-emit-folder-overlaps = overlaps { $what } ({ $path })
+cli-emit-folder-overlaps-help = name a folder of its own for the source, apart from the job, its inputs and the PDF
+cli-input-job-file = the job file
+cli-input-job-of-run = a job file of this run
+cli-input-ratings-file = a ratings file
+cli-input-shop-profile = the shop profile
+cli-input-photo = a photo of the job
+cli-input-template-folder = the template folder
+cli-input-logo = the shop's logo
+cli-input-translation = the shop's translation file
+cli-input-typst = the typst program
+cli-input-pdf-output = the PDF output
+cli-kind-fifo = a FIFO (named pipe)
+cli-kind-device = a device
+cli-kind-socket = a socket
+cli-kind-folder = a folder
+cli-kind-link = a symbolic link
+cli-kind-other = not a regular file

@@ -216,8 +216,9 @@ fn a_translation_missing_a_key_is_refused_naming_the_key() {
     assert_eq!(o.status.code(), Some(1), "{}", stderr(&o));
     let err = stderr(&o);
     assert!(err.contains("catalogue::missing-key"), "{err}");
+    // Said in the language the profile names, German being built in.
     assert!(
-        err.contains("the translation has no message `doc-subtotal`"),
+        err.contains("der Übersetzung fehlt die Meldung `doc-subtotal`"),
         "{err}"
     );
     assert!(err.contains("werkstatt.ftl:1:1"), "{err}");
@@ -229,6 +230,22 @@ fn a_translation_missing_a_key_is_refused_naming_the_key() {
         .unwrap()
         + 1;
     assert!(err.contains(&format!("messages/en.ftl:{line}")), "{err}");
+
+    // A language the program does not have built in hears it in English.
+    let dir = shop_folder("language \"xx\" file=\"werkstatt.ftl\"");
+    std::fs::write(
+        dir.path().join("werkstatt.ftl"),
+        german_without("diag-net-floating"),
+    )
+    .unwrap();
+    let o = run(dir.path(), &["check", "combo-6v6-fixed.kdl"]);
+    assert_eq!(o.status.code(), Some(1), "{}", stderr(&o));
+    let err = stderr(&o);
+    assert!(
+        err.contains("the translation has no message `diag-net-floating`"),
+        "{err}"
+    );
+    let dir = shop_folder("language \"de\" file=\"werkstatt.ftl\"");
 
     // The complete file is accepted.
     std::fs::write(dir.path().join("werkstatt.ftl"), german()).unwrap();
@@ -249,7 +266,7 @@ fn a_notice_translated_in_part_is_refused() {
     let err = stderr(&o);
     assert!(
         err.contains(
-            "the mains-safety notice is translated only as a whole; missing: notice-earth"
+            "der Sicherheitshinweis zur Netzspannung wird nur als Ganzes übersetzt; es fehlen: notice-earth"
         ),
         "{err}"
     );
@@ -274,7 +291,7 @@ fn a_language_without_a_catalogue_or_outside_the_folder_is_an_error_at_its_line(
     let o = run(dir.path(), &["check", "combo-6v6-fixed.kdl"]);
     assert_eq!(o.status.code(), Some(1));
     assert!(
-        stderr(&o).contains("is not inside the profile's folder"),
+        stderr(&o).contains("liegt nicht im Ordner des Profils"),
         "{}",
         stderr(&o)
     );

@@ -213,6 +213,145 @@ fn every_terminal_key_the_program_uses_is_in_every_built_in_catalogue() {
     );
 }
 
+/// The first `[file:line:column]` miette draws after `words` in `output`.
+fn place_after(output: &str, words: &str) -> String {
+    let start = output
+        .find(words)
+        .unwrap_or_else(|| panic!("{words} missing from:\n{output}"));
+    let rest = &output[start..];
+    let open = rest.find("[job.kdl:").expect("a place follows the message") + 1;
+    let close = open + rest[open..].find(']').unwrap();
+    rest[open..close].to_string()
+}
+
+/// The words miette draws are wrapped at 80 columns: each needle below is
+/// short enough to stay on one line.
+/// Says each problem of `job` in English and under a German shop, and
+/// checks each pair of words at one and the same place; the English words
+/// must not be left in the German output.
+fn same_places(job: &str, pairs: &[(&str, &str)]) {
+    let english = folder(job, "");
+    let german = folder(job, "language \"de\"");
+    let en = run(english.path(), &["check", "job.kdl"]);
+    let de = run(german.path(), &["check", "job.kdl"]);
+    assert_eq!(en.status.code(), Some(1), "{}", stderr(&en));
+    assert_eq!(de.status.code(), Some(1), "{}", stderr(&de));
+    let (en, de) = (stderr(&en), stderr(&de));
+    for (english_words, german_words) in pairs {
+        assert_eq!(
+            place_after(&en, english_words),
+            place_after(&de, german_words),
+            "{english_words} / {german_words}"
+        );
+        assert!(
+            !de.contains(english_words),
+            "{english_words} left in:\n{de}"
+        );
+    }
+}
+
+#[test]
+fn network_bench_and_value_problems_are_said_in_german_at_their_places() {
+    let job = std::fs::read_to_string(repo().join("jobs/combo-6v6-fixed.kdl")).unwrap();
+    let job = job.replacen("frequency=\"60Hz\"", "frequency=\"-60Hz\"", 1);
+    let job = job.replacen("setting=\"4 7\"", "setting=\"4 x7\"", 1);
+    let job = job.replacen(
+        "    heater \"6.4V\"\n}",
+        "    heater \"6.4V\"\n    hum-noise \"4.2mV\" load=\"8R\" input=shortd\n}",
+        1,
+    );
+    assert!(job.contains("input=shortd") && job.contains("\"-60Hz\""));
+    same_places(
+        &job,
+        &[
+            (
+                "the mains frequency cannot be negative",
+                "die Netzfrequenz kann nicht negativ sein",
+            ),
+            (
+                "a pot setting runs from 0 to 10, found `x7`",
+                "die Stellung eines Potentiometers reicht von 0 bis 10, gefunden: `x7`",
+            ),
+            (
+                "`input` must be shorted or open, found shortd",
+                "`input` muss shorted (kurzgeschlossen) oder open (offen) sein, gefunden: shortd",
+            ),
+            // The help line's did-you-mean, in German too.
+            ("did you mean `shorted`?", "meinten Sie `shorted`?"),
+        ],
+    );
+}
+
+#[test]
+fn names_that_point_nowhere_and_a_broken_network_are_said_in_german() {
+    let job = std::fs::read_to_string(repo().join("jobs/combo-6v6-fixed.kdl")).unwrap();
+    let job = job.replacen(
+        "sense-resistor R40 value=\"1R\" valve=V3",
+        "sense-resistor R40 value=\"1R\" valve=V9",
+        1,
+    );
+    let job = job.replacen(
+        "capacitor C7 value=\"22n\" from=a to=mid",
+        "capacitor C7 value=\"22n\" from=a to=mid\n            resistor R99 value=\"1k\" from=x to=y",
+        1,
+    );
+    assert!(job.contains("valve=V9") && job.contains("R99"));
+    same_places(
+        &job,
+        &[
+            (
+                "a sense resistor names valve position V9, which the",
+                "ein Messwiderstand nennt die Röhrenposition V9, die der",
+            ),
+            (
+                "nodes `x` and `y` connect to nothing that reaches ground (only R99)",
+                "Knoten `x` und `y` sind mit nichts verbunden, das Masse erreicht",
+            ),
+        ],
+    );
+}
+
+#[test]
+fn the_logo_and_the_translation_file_are_refused_in_the_profiles_language() {
+    let job = std::fs::read_to_string(repo().join("jobs/combo-6v6-fixed.kdl")).unwrap();
+    let dir = folder(&job, "language \"de\"");
+    let profile = std::fs::read_to_string(dir.path().join("shop.kdl")).unwrap();
+    let profile = profile.replacen("logo \"larkmoor-logo.svg\"", "logo \"notes.txt\"", 1);
+    std::fs::write(dir.path().join("shop.kdl"), &profile).unwrap();
+    std::fs::write(dir.path().join("notes.txt"), "not a picture\n").unwrap();
+    let o = run(dir.path(), &["check", "job.kdl"]);
+    assert_eq!(o.status.code(), Some(1), "{}", stderr(&o));
+    let err = stderr(&o);
+    let place = at("shop.kdl", &profile, "\"notes.txt\"");
+    assert!(err.contains(&place), "{place} missing from:\n{err}");
+    assert!(
+        err.contains("notes.txt ist weder ein PNG-Bild noch eine SVG-Zeichnung"),
+        "{err}"
+    );
+    assert!(!err.contains("is neither"), "{err}");
+
+    // A translation file with a message the program does not have: the
+    // problem at its own line, in German, with the did-you-mean.
+    let dir = folder(&job, "language \"de\" file=\"werkstatt.ftl\"");
+    let german = std::fs::read_to_string(repo().join("messages/de.ftl")).unwrap();
+    let text = format!("{german}diag-net-floting = schwebend\n");
+    std::fs::write(dir.path().join("werkstatt.ftl"), &text).unwrap();
+    let o = run(dir.path(), &["check", "job.kdl"]);
+    assert_eq!(o.status.code(), Some(1), "{}", stderr(&o));
+    let err = stderr(&o);
+    let place = at("werkstatt.ftl", &text, "diag-net-floting =");
+    assert!(err.contains(&place), "{place} missing from:\n{err}");
+    assert!(
+        err.contains("der englische Katalog hat keine Meldung `diag-net-floting`"),
+        "{err}"
+    );
+    assert!(err.contains("meinten Sie `diag-net-floating`"), "{err}");
+    assert!(
+        err.contains("1 Problem verhindert, dass diese Übersetzungsdatei gelesen wird"),
+        "{err}"
+    );
+}
+
 /// A demo job in a folder of its own with the demo shop profile, in German
 /// or (with `extra` empty) in English.
 fn demo_folder(demo: &str, extra: &str) -> tempfile::TempDir {
@@ -383,6 +522,11 @@ fn new_speaks_the_shop_language() {
 /// answers `--version` like typst 0.15.1) and a temporary folder of its
 /// own, so the source typst leaves behind is cleaned up with `dir`.
 fn render_with_typst(dir: &std::path::Path, body: &str) -> std::process::Output {
+    render_with_typst_to(dir, body, "job.pdf")
+}
+
+/// [`render_with_typst`] with the output named `output`.
+fn render_with_typst_to(dir: &std::path::Path, body: &str, output: &str) -> std::process::Output {
     let typst = dir.join("stand-in-typst");
     std::fs::write(
         &typst,
@@ -396,7 +540,7 @@ fn render_with_typst(dir: &std::path::Path, body: &str) -> std::process::Output 
     std::fs::create_dir_all(&tmp).unwrap();
     std::process::Command::new(support::bin())
         .current_dir(dir)
-        .args(["render", "job.kdl", "--typst"])
+        .args(["render", "job.kdl", "-o", output, "--typst"])
         .arg(&typst)
         .env("XDG_CONFIG_HOME", dir.join("no-config"))
         .env("XDG_CACHE_HOME", support::cache_home())
@@ -504,4 +648,38 @@ fn the_terminal_tables_name_bias_and_safety_tests_in_the_shop_language() {
         assert!(en.contains("earth continuity"), "{en}");
         assert!(!de.contains("earth continuity"), "{de}");
     }
+}
+
+#[test]
+fn an_output_that_would_destroy_an_input_is_refused_in_the_shop_language() {
+    use support::says;
+    let german = demo_folder("combo-el84-cathode.kdl", "language \"de\"");
+    // A stand-in typst that is never asked to compile: the refusal comes
+    // first.
+    let o = render_with_typst_to(german.path(), "exit 9", "job.kdl");
+    assert_eq!(o.status.code(), Some(2), "{}", stderr(&o));
+    let err = stderr(&o);
+    assert!(
+        says(
+            &err,
+            "die Ausgabe job.kdl ist die Auftragsdatei (job.kdl); dorthin zu schreiben würde sie zerstören"
+        ),
+        "{err}"
+    );
+    assert!(says(&err, "mit `-o` einen anderen Pfad angeben"), "{err}");
+    assert!(err.contains("ampreport::output::is_input"), "{err}");
+    // The job file is untouched.
+    assert_eq!(
+        std::fs::read_to_string(german.path().join("job.kdl")).unwrap(),
+        std::fs::read_to_string(repo().join("jobs/combo-el84-cathode.kdl")).unwrap()
+    );
+    let english = demo_folder("combo-el84-cathode.kdl", "");
+    let err = stderr(&render_with_typst_to(english.path(), "exit 9", "job.kdl"));
+    assert!(
+        says(
+            &err,
+            "the output job.kdl is the job file (job.kdl); writing there would destroy it"
+        ),
+        "{err}"
+    );
 }

@@ -11,8 +11,8 @@ use std::sync::Arc;
 use fluent_syntax::ast::{Entry, Expression, InlineExpression, Pattern, PatternElement};
 use miette::{NamedSource, SourceSpan};
 
-use super::{ENGLISH, NOTICE_KEYS, message_lines};
-use crate::job::{DecodeError, JobDiagnostics, suggestion_help};
+use super::{ENGLISH, Msg, NOTICE_KEYS, message_lines};
+use crate::job::{DecodeError, JobDiagnostics, suggestion};
 
 /// Every problem found in one translation file.
 pub type CatalogueDiagnostics = JobDiagnostics;
@@ -138,12 +138,15 @@ pub fn check_translation(name: &str, text: &str) -> Result<(), CatalogueDiagnost
     for e in &syntax {
         let offset = e.pos.start.min(text.len());
         let len = (e.pos.end.min(text.len())).saturating_sub(offset);
-        problems.push(DecodeError::error(
-            "catalogue::syntax",
-            SourceSpan::new(offset.into(), len),
-            format!("this is not Fluent syntax: {}", e.kind),
-            "here",
-        ).with_help("a message is written `key = text`; a continuation line starts with spaces; an argument is written `{ $name }`"));
+        problems.push(
+            DecodeError::error(
+                "catalogue::syntax",
+                SourceSpan::new(offset.into(), len),
+                Msg::new("diag-ftl-syntax").arg("problem", e.kind.to_string()),
+                Msg::new("diag-here"),
+            )
+            .with_help(Msg::new("diag-ftl-syntax-help")),
+        );
     }
 
     let known: Vec<&str> = english.keys().map(String::as_str).collect();
@@ -153,10 +156,10 @@ pub fn check_translation(name: &str, text: &str) -> Result<(), CatalogueDiagnost
                 DecodeError::error(
                     "catalogue::unknown-key",
                     at(key),
-                    format!("the English catalogue has no message `{key}`"),
-                    "not a message of the program",
+                    Msg::new("diag-ftl-unknown-key").arg("key", key.as_str()),
+                    Msg::new("diag-ftl-unknown-key-label"),
                 )
-                .with_help(suggestion_help(key, &known)),
+                .with_help(suggestion(key, &known)),
             );
             continue;
         };
@@ -164,8 +167,8 @@ pub fn check_translation(name: &str, text: &str) -> Result<(), CatalogueDiagnost
             problems.push(DecodeError::error(
                 "catalogue::no-text",
                 at(key),
-                format!("the message `{key}` has no text"),
-                "expected `key = text`",
+                Msg::new("diag-ftl-no-text").arg("key", key.as_str()),
+                Msg::new("diag-ftl-no-text-label"),
             ));
         }
         for v in uses.variables.difference(&reference.variables) {
@@ -178,15 +181,15 @@ pub fn check_translation(name: &str, text: &str) -> Result<(), CatalogueDiagnost
                 DecodeError::error(
                     "catalogue::unknown-argument",
                     at(key),
-                    format!(
-                        "the message `{key}` uses `{{ ${v} }}`, which the program never gives it"
-                    ),
-                    "unknown argument",
+                    Msg::new("diag-ftl-unknown-argument")
+                        .arg("key", key.as_str())
+                        .arg("argument", format!("{{ ${v} }}")),
+                    Msg::new("diag-ftl-unknown-argument-label"),
                 )
                 .with_help(if given.is_empty() {
-                    "this message takes no arguments".to_owned()
+                    Msg::new("diag-ftl-no-arguments")
                 } else {
-                    format!("it is given {}", given.join(", "))
+                    Msg::new("diag-ftl-given").arg("arguments", given.join(", "))
                 }),
             );
         }
@@ -195,8 +198,10 @@ pub fn check_translation(name: &str, text: &str) -> Result<(), CatalogueDiagnost
                 problems.push(DecodeError::error(
                     "catalogue::unknown-reference",
                     at(key),
-                    format!("the message `{key}` refers to `{m}`, which this file does not define"),
-                    "unknown message",
+                    Msg::new("diag-ftl-unknown-reference")
+                        .arg("key", key.as_str())
+                        .arg("reference", m.as_str()),
+                    Msg::new("diag-ftl-unknown-message"),
                 ));
             }
         }
@@ -212,13 +217,10 @@ pub fn check_translation(name: &str, text: &str) -> Result<(), CatalogueDiagnost
             DecodeError::error(
                 "catalogue::notice-incomplete",
                 start,
-                format!(
-                    "the mains-safety notice is translated only as a whole; missing: {}",
-                    notice_missing.join(", ")
-                ),
-                "in this file",
+                Msg::new("diag-ftl-notice-incomplete").arg("keys", notice_missing.join(", ")),
+                Msg::new("diag-ftl-in-this-file"),
             )
-            .with_help("translate every part of the notice (the keys starting `notice-`), or use a language the program has built in"),
+            .with_help(Msg::new("diag-ftl-notice-help")),
         );
     }
     for key in english.keys() {
@@ -226,17 +228,18 @@ pub fn check_translation(name: &str, text: &str) -> Result<(), CatalogueDiagnost
             continue;
         }
         let help = match english_line(key) {
-            Some((line, words)) => {
-                format!("add `{key} = …`; the English is at messages/en.ftl:{line}: {words}")
-            }
-            None => format!("add `{key} = …`"),
+            Some((line, words)) => Msg::new("diag-ftl-add-key-english")
+                .arg("key", key.as_str())
+                .arg("line", line.to_string())
+                .arg("english", words),
+            None => Msg::new("diag-ftl-add-key").arg("key", key.as_str()),
         };
         problems.push(
             DecodeError::error(
                 "catalogue::missing-key",
                 start,
-                format!("the translation has no message `{key}`"),
-                "in this file",
+                Msg::new("diag-ftl-missing-key").arg("key", key.as_str()),
+                Msg::new("diag-ftl-in-this-file"),
             )
             .with_help(help),
         );
@@ -257,7 +260,7 @@ fn diagnostics(name: &str, text: &str, problems: Vec<DecodeError>) -> CatalogueD
 }
 
 /// One problem at the start of a file, as diagnostics.
-pub(super) fn single(name: &str, text: &str, message: &str) -> CatalogueDiagnostics {
+pub(super) fn single(name: &str, text: &str, message: Msg) -> CatalogueDiagnostics {
     diagnostics(
         name,
         text,
@@ -265,7 +268,7 @@ pub(super) fn single(name: &str, text: &str, message: &str) -> CatalogueDiagnost
             "catalogue::unreadable",
             SourceSpan::new(0.into(), 0),
             message,
-            "here",
+            Msg::new("diag-here"),
         )],
     )
 }

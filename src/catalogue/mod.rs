@@ -202,7 +202,7 @@ impl Catalogue {
         check_translation(name, text)?;
         Catalogue::build(&primary_subtag(language), name, text).map_err(|_| {
             // check_translation parsed the same text without an error.
-            check::single(name, text, "the translation could not be read")
+            check::single(name, text, Msg::new("diag-ftl-unreadable"))
         })
     }
 

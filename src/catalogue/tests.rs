@@ -266,3 +266,38 @@ fn a_key_the_catalogue_lacks_never_panics() {
             .is_none()
     );
 }
+
+#[test]
+fn a_translation_lacking_a_diagnostic_is_refused_naming_it() {
+    // One message from each group of diagnostics (a network's syntax and
+    // shape, bench tests, names that point nowhere, the logo and the
+    // translation file itself), plural and select messages among them.
+    for key in [
+        "diag-net-bad-setting",
+        "diag-net-floating",
+        "diag-bench-bad-at",
+        "diag-accept-unknown",
+        "diag-what-mains-frequency",
+        "diag-logo-svg-root",
+        "diag-translation-not-utf8",
+        "diag-ftl-missing-key",
+    ] {
+        assert!(Catalogue::english().has(key), "{key}");
+        let d = problems("de.ftl", &german_without(key));
+        assert_eq!(d.problems.len(), 1, "{key}: {:?}", d.problems);
+        let p = &d.problems[0];
+        assert_eq!(p.code, "catalogue::missing-key");
+        assert_eq!(
+            p.message,
+            format!("the translation has no message `{key}`"),
+            "{key}"
+        );
+        // Said in German, the same problem names the same key.
+        let mut german = p.clone();
+        german.localize(&Catalogue::built_in("de").unwrap());
+        assert_eq!(
+            german.message,
+            format!("der Übersetzung fehlt die Meldung `{key}`")
+        );
+    }
+}

@@ -142,7 +142,14 @@ pub fn run(setup: &Setup<'_>) -> Exit {
     {
         Ok(pool) => pool,
         Err(e) => {
-            eprintln!("error: could not start {workers} worker threads: {e}");
+            eprintln!(
+                "{}",
+                super::ui::english(
+                    &Msg::new("cli-no-workers")
+                        .arg("workers", workers)
+                        .arg("error", e.to_string())
+                )
+            );
             return Exit::Environment;
         }
     };

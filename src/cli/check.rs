@@ -11,6 +11,7 @@ use super::job_files::{self, JobFile};
 use super::load;
 use super::said::Said;
 use crate::calc::{self, StrictScope};
+use crate::catalogue::Msg;
 use crate::ratings::RatingsTable;
 use crate::report::terminal::{self, TerminalStyle};
 
@@ -92,20 +93,23 @@ pub fn named_jobs(args: &super::args::JobArgs) -> Result<Vec<JobFile>, Exit> {
     let jobs = match job_files::find(&args.jobs, args.recursive, &skip) {
         Ok(jobs) => jobs,
         Err(e) => {
-            eprintln!("error: {e}");
+            eprintln!(
+                "{}",
+                super::ui::english(&Msg::new("cli-error").arg("error", e.to_string()))
+            );
             return Err(Exit::InvalidInput);
         }
     };
     if jobs.is_empty() {
         let names: Vec<String> = args.jobs.iter().map(|p| p.display().to_string()).collect();
+        let key = if args.recursive {
+            "cli-no-job-files"
+        } else {
+            "cli-no-job-files-here"
+        };
         eprintln!(
-            "error: no job files (*.kdl) in {}{}",
-            names.join(", "),
-            if args.recursive {
-                ""
-            } else {
-                " (--recursive also searches their sub-folders)"
-            }
+            "{}",
+            super::ui::english(&Msg::new(key).arg("folders", names.join(", ")))
         );
         return Err(Exit::InvalidInput);
     }

@@ -11,7 +11,7 @@ use super::args::{JobArgs, OneJobArgs};
 use super::exit::Exit;
 use super::said::Said;
 use super::ui;
-use crate::catalogue::Catalogue;
+use crate::catalogue::{Catalogue, Msg};
 use crate::input_file::{STDIN_NAME, is_dash};
 use crate::job::{self, Decoded};
 use crate::ratings::RatingsTable;
@@ -192,10 +192,11 @@ pub fn shop_profile(
         return Ok(None);
     };
     if let (Found::BesideJob(used), Some(named)) = (&found, choice.named) {
-        said.warn(format!(
-            "note: using the shop profile {} found beside the job; --shop {} applies only where there is none",
-            used.display(),
-            named.display()
+        // Before the profile is read: English.
+        said.warn(super::ui::english(
+            &Msg::new("cli-shop-beside-job")
+                .arg("used", used.display().to_string())
+                .arg("named", named.display().to_string()),
         ));
     }
     let path: PathBuf = found.path().to_path_buf();
@@ -328,7 +329,7 @@ pub fn job_name(path: &Path) -> String {
 pub fn read_job(path: &Path, said: &mut Said) -> Result<String, Exit> {
     let read = if is_dash(path) {
         if std::io::stdin().is_terminal() {
-            ui::warn("note: reading the job from standard input; end it with Ctrl-D");
+            ui::warn(ui::english(&Msg::new("cli-reading-stdin")));
         }
         crate::input_file::read_stdin("job file")
     } else {

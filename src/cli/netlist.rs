@@ -109,15 +109,15 @@ pub fn run(args: &NetlistArgs) -> Exit {
         }
         Some(path) => {
             // Never over the job, a ratings or shop file, a link or a device.
-            let mut inputs = vec![Input::new(&args.job.job, "the job file")];
+            let mut inputs = vec![Input::new(&args.job.job, "cli-input-job-file")];
             inputs.extend(
                 args.job
                     .ratings
                     .iter()
-                    .map(|r| Input::new(r, "a ratings file")),
+                    .map(|r| Input::new(r, "cli-input-ratings-file")),
             );
             if let Some(shop) = &loaded.shop {
-                inputs.push(Input::new(shop.path(), "the shop profile"));
+                inputs.push(Input::new(shop.path(), "cli-input-shop-profile"));
             }
             if let Err(e) = crate::typeset::check_output(path, &inputs) {
                 eprintln!("{:?}", miette::Report::new(e));

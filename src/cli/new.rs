@@ -27,7 +27,13 @@ pub const CARRIED: &[&str] = &["unit", "mains", "valves", "circuit"];
 pub fn run(args: &NewArgs) -> Exit {
     let dir = args.dir.clone().unwrap_or_else(|| PathBuf::from("."));
     if !dir.is_dir() {
-        eprintln!("error: {} is not a folder", dir.display());
+        // Before the shop profile is read: English.
+        eprintln!(
+            "{}",
+            super::ui::english(
+                &Msg::new("cli-new-not-a-folder").arg("folder", dir.display().to_string())
+            )
+        );
         return Exit::Usage;
     }
     let mut said = Said::default();

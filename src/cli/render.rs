@@ -45,8 +45,8 @@ pub fn run(args: &RenderArgs) -> Exit {
     // From here a stop signal is noted rather than fatal: each step below
     // that makes temporary files or waits on typst ends cleanly on it.
     if let Err(e) = interrupt::install() {
-        ui::warn(format!(
-            "warning: stop signals will end ampreport without clean-up: {e}"
+        ui::warn(ui::english(
+            &Msg::new("cli-no-stop-signals").arg("error", e.to_string()),
         ));
     }
     let setup = match Setup::new(args) {
@@ -118,19 +118,15 @@ impl<'a> Setup<'a> {
         let jobs = named_jobs(&args.job)?;
         let batch = jobs.len() > 1 || args.job.jobs.iter().any(|p| p.is_dir());
         if batch && args.output.is_some() {
-            eprintln!(
-                "error: -o names the PDF of one job file; for several jobs or a folder use --out-dir DIR"
-            );
+            eprintln!("{}", ui::english(&Msg::new("cli-output-one-job")));
             return Err(Exit::Usage);
         }
         if batch && args.emit_source.is_some() {
-            eprintln!("error: --emit-source writes the source of one job; name one job file");
+            eprintln!("{}", ui::english(&Msg::new("cli-emit-source-one-job")));
             return Err(Exit::Usage);
         }
         if batch && jobs.iter().any(|j| is_dash(&j.path)) {
-            eprintln!(
-                "error: `-` reads one job from standard input; it cannot be named beside other jobs"
-            );
+            eprintln!("{}", ui::english(&Msg::new("cli-stdin-one-job")));
             return Err(Exit::Usage);
         }
         if !batch {
@@ -159,7 +155,9 @@ impl<'a> Setup<'a> {
             format!("{} (version {})", program.path.display(), program.version),
         );
         if let Some(warning) = program.version_warning() {
-            ui::warn(format!("warning: {warning}"));
+            ui::warn(ui::english(
+                &Msg::new("cli-warning").arg("warning", warning),
+            ));
         }
         let plans: Vec<Plan> = jobs
             .into_iter()
@@ -169,7 +167,7 @@ impl<'a> Setup<'a> {
             })
             .collect();
         if let Some(message) = shared_outputs(&plans, args.listing) {
-            eprintln!("error: {message}");
+            eprintln!("{}", ui::english(&message));
             return Err(Exit::Usage);
         }
         let version = program.version.to_string();
@@ -185,7 +183,9 @@ impl<'a> Setup<'a> {
         }) {
             Ok(key) => Some(key),
             Err(e) => {
-                ui::warn(format!("warning: {e}; every job is rendered"));
+                ui::warn(ui::english(
+                    &Msg::new("cli-no-run-key").arg("error", e.to_string()),
+                ));
                 None
             }
         };
@@ -193,7 +193,7 @@ impl<'a> Setup<'a> {
             plans
                 .iter()
                 .filter(|p| !is_dash(&p.job.path))
-                .map(|p| Input::new(&p.job.path, "a job file of this run"))
+                .map(|p| Input::new(&p.job.path, "cli-input-job-of-run"))
                 .collect(),
         );
         Ok(Setup {
@@ -293,18 +293,18 @@ fn markdown_for(output: &Path) -> PathBuf {
 
 /// Names the first output two jobs of a run would both write, if any (a
 /// listing's Markdown counts as an output).
-fn shared_outputs(plans: &[Plan], listing: bool) -> Option<String> {
+fn shared_outputs(plans: &[Plan], listing: bool) -> Option<Msg> {
     let mut seen: std::collections::HashMap<PathBuf, &Path> = std::collections::HashMap::new();
     for plan in plans {
         let markdown = listing.then(|| markdown_for(&plan.output));
         for output in std::iter::once(&plan.output).chain(markdown.as_ref()) {
             if let Some(other) = seen.insert(normalised(output), &plan.job.path) {
-                return Some(format!(
-                    "{} and {} would both be written to {}; use --out-dir DIR or rename one",
-                    other.display(),
-                    plan.job.path.display(),
-                    output.display()
-                ));
+                return Some(
+                    Msg::new("cli-outputs-clash")
+                        .arg("first", other.display().to_string())
+                        .arg("second", plan.job.path.display().to_string())
+                        .arg("output", output.display().to_string()),
+                );
             }
         }
     }
@@ -423,11 +423,7 @@ fn render_job(
     depends.extend(photo_files.iter().cloned());
 
     let mut inputs = inputs_read(args, job_path, &setup.program, loaded.shop.as_ref());
-    inputs.extend(
-        photo_files
-            .iter()
-            .map(|p| Input::new(p, "a photo of the job")),
-    );
+    inputs.extend(photo_files.iter().map(|p| Input::new(p, "cli-input-photo")));
     // The listing's Markdown and photos go beside its PDF; the photos'
     // names are known once they are prepared, and checked then.
     let markdown = args.listing.then(|| markdown_for(output));
@@ -441,7 +437,10 @@ fn render_job(
         if let Err(e) =
             typeset::check_output(path, &inputs).and_then(|()| setup.job_files.check(path))
         {
-            said.error(format!("{:?}", miette::Report::new(e)));
+            said.error(format!(
+                "{:?}",
+                miette::Report::new(e.in_language(said.catalogue()))
+            ));
             return Err(Exit::Usage);
         }
     }
@@ -504,7 +503,10 @@ fn render_job(
             if let Err(e) =
                 typeset::check_output(path, &inputs).and_then(|()| setup.job_files.check(path))
             {
-                said.error(format!("{:?}", miette::Report::new(e)));
+                said.error(format!(
+                    "{:?}",
+                    miette::Report::new(e.in_language(said.catalogue()))
+                ));
                 return Err(Exit::Usage);
             }
         }
@@ -541,7 +543,10 @@ fn render_job(
 
     if let Some(dir) = &args.emit_source {
         if let Err(e) = typeset::check_emit_folder(dir, &inputs, output, args.force) {
-            said.error(format!("{:?}", miette::Report::new(e)));
+            said.error(format!(
+                "{:?}",
+                miette::Report::new(e.in_language(said.catalogue()))
+            ));
             return Err(Exit::Usage);
         }
         let written = if args.force {
@@ -820,27 +825,27 @@ fn inputs_read(
 ) -> Vec<Input> {
     let mut inputs = Vec::new();
     if !is_dash(job) {
-        inputs.push(Input::new(job, "the job file"));
+        inputs.push(Input::new(job, "cli-input-job-file"));
     }
     inputs.extend(
         args.job
             .ratings
             .iter()
-            .map(|r| Input::new(r, "a ratings file")),
+            .map(|r| Input::new(r, "cli-input-ratings-file")),
     );
     if let Some(dir) = &args.templates {
-        inputs.push(Input::new(dir, "the template folder"));
+        inputs.push(Input::new(dir, "cli-input-template-folder"));
     }
     if let Some(shop) = shop {
-        inputs.push(Input::new(shop.path(), "the shop profile"));
+        inputs.push(Input::new(shop.path(), "cli-input-shop-profile"));
         if let Some(logo) = &shop.logo {
-            inputs.push(Input::new(&logo.source, "the shop's logo"));
+            inputs.push(Input::new(&logo.source, "cli-input-logo"));
         }
         if let Some(translation) = &shop.translation {
-            inputs.push(Input::new(translation, "the shop's translation file"));
+            inputs.push(Input::new(translation, "cli-input-translation"));
         }
     }
-    inputs.push(Input::new(&program.path, "the typst program"));
+    inputs.push(Input::new(&program.path, "cli-input-typst"));
     inputs
 }
 
@@ -966,23 +971,15 @@ fn default_listing_output(job: &Path) -> PathBuf {
 fn single_output_allowed(args: &RenderArgs, job: &Path) -> Result<(), Exit> {
     match &args.output {
         Some(o) if is_dash(o) && std::io::stdout().is_terminal() => {
-            eprintln!(
-                "error: `-o -` writes the PDF to standard output, which is a terminal here; \
-                 send it to a file or a program (`-o - > job.pdf`, `-o - | lpr`)"
-            );
+            eprintln!("{}", ui::english(&Msg::new("cli-stdout-is-terminal")));
             Err(Exit::Usage)
         }
         Some(o) if is_dash(o) && args.listing => {
-            eprintln!(
-                "error: the listing is a PDF and Markdown beside it, so it needs a file: name it with `-o FILE.pdf`"
-            );
+            eprintln!("{}", ui::english(&Msg::new("cli-listing-needs-file")));
             Err(Exit::Usage)
         }
         None if is_dash(job) => {
-            eprintln!(
-                "error: a job read from standard input has no file to put the PDF beside; \
-                 name the output with `-o FILE`, or `-o -` for standard output"
-            );
+            eprintln!("{}", ui::english(&Msg::new("cli-stdin-needs-output")));
             Err(Exit::Usage)
         }
         _ => Ok(()),
@@ -1013,8 +1010,10 @@ pub(crate) fn template_source(dir: Option<&Path>, listing: bool) -> Result<Templ
         Some(dir) if dir.is_dir() => Ok(source.with_override_dir(dir)),
         Some(dir) => {
             eprintln!(
-                "error: the template folder {} does not exist or is not a folder",
-                dir.display()
+                "{}",
+                ui::english(
+                    &Msg::new("cli-no-template-folder").arg("folder", dir.display().to_string())
+                )
             );
             Err(Exit::InvalidInput)
         }
@@ -1038,7 +1037,24 @@ fn report_build_error(e: HandoverError, said: &mut Said) -> Exit {
         }
         HandoverError::Plot(_) | HandoverError::Sandbox(_) => Exit::Environment,
     };
-    said.error(format!("error: {e}"));
+    // Said in the job's language; what the template engine, the chart
+    // drawing or the operating system said inside it stays as they said it.
+    let words = match &e {
+        HandoverError::Template { name, detail, .. } => Msg::new("cli-template-not-filled")
+            .arg("name", name)
+            .arg("detail", detail),
+        HandoverError::Image { path, source } => Msg::new("cli-shop-image-unreadable")
+            .arg("path", path)
+            .arg("error", source.to_string()),
+        HandoverError::Refused(inner) => {
+            Msg::new("cli-template-file-refused").arg("error", inner.to_string())
+        }
+        HandoverError::Sandbox(t) => {
+            Msg::new("cli-error").arg("error", t.message_in(said.catalogue()))
+        }
+        HandoverError::Plot(p) => Msg::new("cli-error").arg("error", p.to_string()),
+    };
+    said.error(said.say(&words));
     status
 }
 

@@ -157,6 +157,13 @@ pub fn wrote(message: impl Display) {
     }
 }
 
+/// What the program says before any shop profile is read, or about no one
+/// job: the catalogue's words, in English (docs/shop.md, "The terminal's
+/// language").
+pub fn english(msg: &crate::catalogue::Msg) -> String {
+    crate::catalogue::Catalogue::english().say(msg)
+}
+
 /// With `--verbose`, one line on standard error saying what was read from
 /// where: `read: WHAT: WHERE`.
 pub fn read(what: &str, from: impl Display) {

@@ -46,12 +46,12 @@ const POLL: Duration = Duration::from_millis(100);
 
 pub fn run(args: &RenderArgs) -> Exit {
     if let Err(e) = interrupt::install() {
-        ui::warn(format!(
-            "warning: Ctrl-C will end the watch without clean-up: {e}"
+        ui::warn(ui::english(
+            &Msg::new("cli-watch-no-stop-signals").arg("error", e.to_string()),
         ));
     }
     if args.job.jobs.iter().any(|j| crate::input_file::is_dash(j)) {
-        eprintln!("error: watch needs job files to watch; `-` (standard input) cannot be watched");
+        eprintln!("{}", ui::english(&Msg::new("cli-watch-no-stdin")));
         return Exit::Usage;
     }
     if args
@@ -59,7 +59,7 @@ pub fn run(args: &RenderArgs) -> Exit {
         .as_deref()
         .is_some_and(crate::input_file::is_dash)
     {
-        eprintln!("error: watch writes PDF files; `-o -` (standard output) cannot be used");
+        eprintln!("{}", ui::english(&Msg::new("cli-watch-no-stdout")));
         return Exit::Usage;
     }
     let mut setup = match Setup::new(args) {
@@ -70,13 +70,19 @@ pub fn run(args: &RenderArgs) -> Exit {
     let mut debouncer = match new_debouncer(DEBOUNCE, tx) {
         Ok(d) => d,
         Err(e) => {
-            eprintln!("error: cannot watch files on this system: {e}");
+            eprintln!(
+                "{}",
+                ui::english(&Msg::new("cli-watch-cannot").arg("error", e.to_string()))
+            );
             return Exit::Environment;
         }
     };
     let mut watched: HashSet<PathBuf> = HashSet::new();
     if let Err(e) = watch_folders(&folders(&setup), &mut watched, debouncer.watcher()) {
-        eprintln!("error: {e}");
+        eprintln!(
+            "{}",
+            ui::english(&Msg::new("cli-error").arg("error", e.to_string()))
+        );
         return Exit::Environment;
     }
     // The shop profiles and logos the jobs were made from.
@@ -95,29 +101,31 @@ pub fn run(args: &RenderArgs) -> Exit {
             .map(|p| (folder_of(p), RecursiveMode::NonRecursive))
             .collect();
         if let Err(e) = watch_folders(&more, &mut watched, watcher) {
-            ui::warn(format!("warning: {e}"));
+            ui::warn(ui::english(
+                &Msg::new("cli-warning").arg("warning", e.to_string()),
+            ));
         }
     };
     render_all(&setup, &mut depends, &mut stamps, debouncer.watcher());
-    ui::warn(format!(
-        "watching {} job{} for changes (Ctrl-C stops)",
-        setup.plans.len(),
-        if setup.plans.len() == 1 { "" } else { "s" }
+    ui::warn(ui::english(
+        &Msg::new("cli-watching").arg("count", setup.plans.len()),
     ));
     loop {
         if interrupt::received().is_some() {
-            ui::warn("stopped watching");
+            ui::warn(ui::english(&Msg::new("cli-watch-stopped")));
             return Exit::Success;
         }
         let events = match rx.recv_timeout(POLL) {
             Ok(Ok(events)) => events,
             Ok(Err(e)) => {
-                ui::warn(format!("warning: watching files: {e}"));
+                ui::warn(ui::english(
+                    &Msg::new("cli-watch-trouble").arg("error", e.to_string()),
+                ));
                 continue;
             }
             Err(RecvTimeoutError::Timeout) => continue,
             Err(RecvTimeoutError::Disconnected) => {
-                eprintln!("error: the file watcher stopped");
+                eprintln!("{}", ui::english(&Msg::new("cli-watcher-stopped")));
                 return Exit::Environment;
             }
         };
@@ -296,9 +304,13 @@ fn watch_folders(
         if watched.contains(&key) {
             continue;
         }
-        watcher
-            .watch(dir, *mode)
-            .map_err(|e| format!("cannot watch {}: {e}", dir.display()))?;
+        watcher.watch(dir, *mode).map_err(|e| {
+            ui::english(
+                &Msg::new("cli-watch-folder")
+                    .arg("folder", dir.display().to_string())
+                    .arg("error", e.to_string()),
+            )
+        })?;
         watched.insert(key);
     }
     Ok(())

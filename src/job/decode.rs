@@ -140,7 +140,7 @@ pub(crate) fn decode_document(
             if let Some(entry) = Reader::arg(node, 0) {
                 if let Some(v) = r.integer(
                     entry,
-                    "the job-file format version",
+                    Msg::new("diag-what-job-format"),
                     1..=i64::from(u32::MAX),
                 ) {
                     format_version = v as u32;
@@ -291,7 +291,7 @@ pub(crate) fn decode_document(
         .map(|n| decode_photos(n, r))
         .unwrap_or_default();
     let (settings, settings_given) = match first("settings") {
-        Some(n) => decode_settings(n, &defaults.settings, "the shop profile", r),
+        Some(n) => decode_settings(n, &defaults.settings, Msg::new("diag-from-shop-profile"), r),
         None => (defaults.settings.clone(), Vec::new()),
     };
     let charges =
@@ -387,7 +387,7 @@ fn decode_unit(node: &KdlNode, r: &mut Reader) -> Option<Unit> {
         .map(|y| y as i32);
     let rated_power = r.opt_prop_quantity(node, "rated-power", Q::Power);
     let rated_power = r
-        .positive(rated_power, "the rated output power", false)
+        .positive(rated_power, Msg::new("diag-what-rated-power"), false)
         .map(|p| Spanned::new(Watts(p.value), p.span));
     let mut description = None;
     let mut condition = None;
@@ -422,17 +422,17 @@ fn decode_mains(node: &KdlNode, r: &mut Reader) -> Option<Mains> {
     r.check_entries(node, &["nominal", "frequency", "tolerance", "design"], 0);
     r.no_children(node);
     let nominal = r.req_prop_quantity(node, "nominal", Q::Voltage, "mains nominal=\"120V\"");
-    let nominal = r.positive(nominal, "the nominal mains voltage", false);
-    let nominal = mains_range(r, nominal, "the nominal mains voltage");
+    let nominal = r.positive(nominal, Msg::new("diag-what-nominal-mains"), false);
+    let nominal = mains_range(r, nominal, Msg::new("diag-what-nominal-mains"));
     let frequency = r.opt_prop_quantity(node, "frequency", Q::Frequency);
-    let frequency = r.positive(frequency, "the mains frequency", false);
+    let frequency = r.positive(frequency, Msg::new("diag-what-mains-frequency"), false);
     let design = r.opt_prop_quantity(node, "design", Q::Voltage);
-    let design = r.positive(design, "the design mains voltage", false);
-    let design = mains_range(r, design, "the design mains voltage");
+    let design = r.positive(design, Msg::new("diag-what-design-mains"), false);
+    let design = mains_range(r, design, Msg::new("diag-what-design-mains"));
     let tolerance = match Reader::prop(node, "tolerance") {
         Some(e) => {
             let t = r.quantity(e, Q::Percent, "`tolerance`");
-            let t = r.positive(t, "the supply tolerance", true)?;
+            let t = r.positive(t, Msg::new("diag-what-supply-tolerance"), true)?;
             if t.value > 30.0 {
                 r.push(DecodeError::warning(
                     "job::implausible",
@@ -480,7 +480,11 @@ fn decode_valves(node: &KdlNode, r: &mut Reader) -> Vec<ValvePosition> {
     for child in r.children(node.children(), &["valve"], "`valves`") {
         r.check_entries(child, &["type", "role", "channel"], 1);
         r.no_children(child);
-        let position = r.req_arg_name(child, "a position", "valve V1 type=\"12AX7\" role=preamp");
+        let position = r.req_arg_name(
+            child,
+            Msg::new("diag-what-position"),
+            "valve V1 type=\"12AX7\" role=preamp",
+        );
         let type_name = r.req_prop_name(child, "type", "valve V1 type=\"12AX7\" role=preamp");
         let channel = r.opt_prop_string(child, "channel");
         let role = match Reader::prop(child, "role") {
@@ -551,7 +555,9 @@ fn decode_circuit(node: &KdlNode, r: &mut Reader) -> Circuit {
         match child.name().value() {
             "bias" => {
                 r.check_entries(child, &[], 1);
-                if let Some(kind) = r.req_arg_name(child, "the bias kind", "bias fixed") {
+                if let Some(kind) =
+                    r.req_arg_name(child, Msg::new("diag-what-bias-kind"), "bias fixed")
+                {
                     let value = match kind.value.as_str() {
                         "cathode" => Some(BiasKind::Cathode),
                         "fixed" => Some(BiasKind::Fixed),
@@ -585,7 +591,7 @@ fn decode_circuit(node: &KdlNode, r: &mut Reader) -> Circuit {
                 r.check_entries(child, &["value", "rating", "valves"], 1);
                 let reference = r.req_arg_name(
                     child,
-                    "a reference",
+                    Msg::new("diag-what-reference"),
                     "cathode-resistor R20 value=\"130\" rating=\"5W\" valves=\"V3 V4\"",
                 );
                 let value = ohms(r, child, "value", "cathode-resistor R20 value=\"130\"");
@@ -606,7 +612,8 @@ fn decode_circuit(node: &KdlNode, r: &mut Reader) -> Circuit {
             }
             "sense-resistor" => {
                 r.check_entries(child, &["value", "valve"], 1);
-                let reference = Reader::arg(child, 0).and_then(|e| r.name(e, "the reference"));
+                let reference = Reader::arg(child, 0)
+                    .and_then(|e| r.name(e, Msg::new("diag-what-the-reference")));
                 let value = ohms(
                     r,
                     child,
@@ -639,7 +646,8 @@ fn decode_circuit(node: &KdlNode, r: &mut Reader) -> Circuit {
             "screen-resistor" => {
                 r.check_entries(child, &["value", "rating", "valve", "supply"], 1);
                 let example = "screen-resistor R25 value=\"470\" valve=V3 supply=B+2";
-                let reference = Reader::arg(child, 0).and_then(|e| r.name(e, "the reference"));
+                let reference = Reader::arg(child, 0)
+                    .and_then(|e| r.name(e, Msg::new("diag-what-the-reference")));
                 let value = ohms(r, child, "value", example);
                 let rating = watts(r, child, "rating");
                 let valve = r.req_prop_name(child, "valve", example);
@@ -670,8 +678,12 @@ fn decode_circuit(node: &KdlNode, r: &mut Reader) -> Circuit {
             }
             "node" => {
                 r.check_entries(child, &["chart", "tolerance", "label", "channel"], 1);
-                let name = r.req_arg_name(child, "a node name", "node B+1 chart=\"350V\"");
-                let chart = volts_pos(r, child, "chart", "the chart voltage");
+                let name = r.req_arg_name(
+                    child,
+                    Msg::new("diag-what-node-name"),
+                    "node B+1 chart=\"350V\"",
+                );
+                let chart = volts_pos(r, child, "chart", Msg::new("diag-what-chart-voltage"));
                 let tolerance = percent(r, child, "tolerance");
                 let label = r.opt_prop_string(child, "label");
                 let channel = r.opt_prop_string(child, "channel");
@@ -697,7 +709,7 @@ fn decode_circuit(node: &KdlNode, r: &mut Reader) -> Circuit {
             "dropper" => {
                 r.check_entries(child, &["value", "rating", "from", "to"], 1);
                 let example = "dropper R22 value=\"10k\" rating=\"1W\" from=B+1 to=B+2";
-                let reference = r.req_arg_name(child, "a reference", example);
+                let reference = r.req_arg_name(child, Msg::new("diag-what-reference"), example);
                 let value = ohms(r, child, "value", example);
                 let rating = watts(r, child, "rating");
                 let from = r.req_prop_name(child, "from", example);
@@ -718,13 +730,13 @@ fn decode_circuit(node: &KdlNode, r: &mut Reader) -> Circuit {
             "filter-capacitor" => {
                 r.check_entries(child, &["value", "rating", "node"], 1);
                 let example = "filter-capacitor C10 value=\"40u\" rating=\"450V\" node=B+1";
-                let reference = r.req_arg_name(child, "a reference", example);
+                let reference = r.req_arg_name(child, Msg::new("diag-what-reference"), example);
                 let value = r.opt_prop_quantity(child, "value", Q::Capacitance);
                 let value = r
-                    .positive(value, "a capacitance", false)
+                    .positive(value, Msg::new("diag-kind-capacitance"), false)
                     .map(|v| Farads(v.value));
                 let rating = r.req_prop_quantity(child, "rating", Q::Voltage, example);
-                let rating = r.positive(rating, "a voltage rating", false);
+                let rating = r.positive(rating, Msg::new("diag-what-voltage-rating"), false);
                 let node_name = r.req_prop_name(child, "node", example);
                 if let (Some(reference), Some(rating), Some(node_name)) =
                     (reference, rating, node_name)
@@ -742,9 +754,9 @@ fn decode_circuit(node: &KdlNode, r: &mut Reader) -> Circuit {
                 r.check_entries(child, &["rms", "primary"], 0);
                 let example = "high-voltage-winding rms=\"275V\" primary=\"117V\"";
                 let rms = r.req_prop_quantity(child, "rms", Q::Voltage, example);
-                let rms = r.positive(rms, "the winding voltage", false);
+                let rms = r.positive(rms, Msg::new("diag-what-winding-voltage"), false);
                 let primary = r.req_prop_quantity(child, "primary", Q::Voltage, example);
-                let primary = r.positive(primary, "the primary voltage", false);
+                let primary = r.positive(primary, Msg::new("diag-what-primary-voltage"), false);
                 if c.winding.is_some() {
                     r.push(DecodeError::error(
                         "job::repeated-node",
@@ -764,12 +776,12 @@ fn decode_circuit(node: &KdlNode, r: &mut Reader) -> Circuit {
                 r.check_entries(child, &["drop"], 1);
                 let what = r.req_arg_name(
                     child,
-                    "`silicon` or the rectifier valve's position",
+                    Msg::new("diag-what-rectifier"),
                     "rectifier V5   or   rectifier silicon",
                 );
                 let drop = r.opt_prop_quantity(child, "drop", Q::Voltage);
                 let drop = r
-                    .positive(drop, "the rectifier drop", true)
+                    .positive(drop, Msg::new("diag-what-rectifier-drop"), true)
                     .map(|d| Volts(d.value));
                 if c.rectifier.is_some() {
                     r.push(DecodeError::error(
@@ -798,10 +810,10 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
     r.check_entries(node, &["mains", "date", "final"], 1);
     let is_final = r.opt_prop_bool(node, "final").unwrap_or(false);
     let example = "measurements \"as found\" mains=\"121V\"";
-    let label = r.req_arg_string(node, "a label such as \"as found\"", example);
+    let label = r.req_arg_string(node, Msg::new("diag-what-set-label"), example);
     let mains = r.req_prop_quantity(node, "mains", Q::Voltage, example);
-    let mains = r.positive(mains, "the mains voltage", false);
-    let mains = mains_range(r, mains, "the mains voltage");
+    let mains = r.positive(mains, Msg::new("diag-what-mains-voltage"), false);
+    let mains = mains_range(r, mains, Msg::new("diag-what-mains-voltage"));
     let date = r.opt_prop_date(node, "date");
     let mut nodes: Vec<NodeReading> = Vec::new();
     let mut valves: Vec<ValveReading> = Vec::new();
@@ -842,10 +854,13 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
         match child.name().value() {
             "node" => {
                 r.check_entries(child, &["chart", "tolerance"], 2);
-                let name =
-                    r.req_arg_name(child, "a node name and its voltage", "node B+1 \"352V\"");
+                let name = r.req_arg_name(
+                    child,
+                    Msg::new("diag-what-node-and-voltage"),
+                    "node B+1 \"352V\"",
+                );
                 let volts = match Reader::arg(child, 1) {
-                    Some(e) => r.quantity(e, Q::Voltage, "the node voltage"),
+                    Some(e) => r.quantity(e, Q::Voltage, Msg::new("diag-what-node-voltage")),
                     None => {
                         r.push(
                             DecodeError::error(
@@ -861,7 +876,7 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
                         None
                     }
                 };
-                let chart = volts_pos(r, child, "chart", "the chart voltage");
+                let chart = volts_pos(r, child, "chart", Msg::new("diag-what-chart-voltage"));
                 let tolerance = percent(r, child, "tolerance");
                 if let (Some(name), Some(volts)) = (name, volts) {
                     if !nodes_read.insert(name.value.clone()) {
@@ -987,7 +1002,7 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
                 r.no_children(child);
                 let position = r.req_arg_string(
                     child,
-                    "the control's position",
+                    Msg::new("diag-what-control-position"),
                     "bias-control \"2 o'clock\" label=\"V3, V4\"",
                 );
                 let label = r.opt_prop_string(child, "label");
@@ -1001,7 +1016,7 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
             "heater" => {
                 r.check_entries(child, &["nominal", "label"], 1);
                 let volts = match Reader::arg(child, 0) {
-                    Some(e) => r.quantity(e, Q::Voltage, "the heater voltage"),
+                    Some(e) => r.quantity(e, Q::Voltage, Msg::new("diag-what-heater-voltage")),
                     None => {
                         r.push(
                             DecodeError::error(
@@ -1017,8 +1032,8 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
                         None
                     }
                 };
-                let volts = r.positive(volts, "a heater voltage", true);
-                let nominal = volts_pos(r, child, "nominal", "the heater nominal voltage")
+                let volts = r.positive(volts, Msg::new("diag-what-a-heater-voltage"), true);
+                let nominal = volts_pos(r, child, "nominal", Msg::new("diag-what-heater-nominal"))
                     .unwrap_or(Volts(6.3));
                 let label = r.opt_prop_string(child, "label");
                 if let Some(v) = volts {
@@ -1074,7 +1089,7 @@ fn decode_valve_reading(
     r.check_entries(child, &keys, 1);
     let position = r.req_arg_name(
         child,
-        "a valve position",
+        Msg::new("diag-what-valve-position"),
         "valve V3 plate=\"352V\" cathode=\"11.2V\"",
     );
     let type_name = Reader::prop(child, "type").and_then(|e| r.name(e, "`type`"));
@@ -1089,7 +1104,7 @@ fn decode_valve_reading(
     let sense = v(r, "sense");
     let primary_drop = v(r, "primary-drop");
     let current = r.opt_prop_quantity(child, "current", Q::Current);
-    let current = r.positive(current, "a valve current", true);
+    let current = r.positive(current, Msg::new("diag-what-valve-current"), true);
     let method = match Reader::prop(child, "method").and_then(|e| r.name(e, "`method`")) {
         Some(m) => match m.value.as_str() {
             "probe" => Some(CurrentMethod::Probe),
@@ -1141,8 +1156,8 @@ fn decode_valve_reading(
             r.push(DecodeError::warning(
                 "job::implausible",
                 reading.span,
-                format!("{} is unusually high for a valve amplifier", reading.value),
-                "unusual",
+                Msg::new("diag-unusually-high").arg("value", reading.value.to_string()),
+                Msg::new("diag-unusual"),
             ));
         }
     }
@@ -1173,7 +1188,8 @@ fn decode_parts(node: &KdlNode, r: &mut Reader) -> Vec<PartChange> {
             1,
         );
         r.no_children(child);
-        let reference = Reader::arg(child, 0).and_then(|e| r.name(e, "the reference"));
+        let reference =
+            Reader::arg(child, 0).and_then(|e| r.name(e, Msg::new("diag-what-the-reference")));
         let what = r.opt_prop_string(child, "what");
         if reference.is_none() && what.is_none() && Reader::arg(child, 0).is_none() {
             r.push(
@@ -1183,7 +1199,7 @@ fn decode_parts(node: &KdlNode, r: &mut Reader) -> Vec<PartChange> {
                     Msg::new("diag-part-needs-reference"),
                     Msg::new("diag-which-part"),
                 )
-                .with_help("for example: part C10 was=\"…\" now=\"…\"   or   part what=\"mains cord\" was=\"two-wire\" now=\"three-wire\""),
+                .with_help(Msg::new("diag-part-example")),
             );
         }
         let was = r.opt_prop_string(child, "was");
@@ -1213,7 +1229,7 @@ fn decode_mods(node: &KdlNode, r: &mut Reader) -> Vec<Modification> {
         r.check_entries(child, &["why", "reversible", "original-kept", "private"], 1);
         let what = r.req_arg_string(
             child,
-            "a description",
+            Msg::new("diag-what-description"),
             "mod \"…\" why=\"…\" reversible=#true",
         );
         let why = r.opt_prop_string(child, "why");
@@ -1248,7 +1264,11 @@ pub const MOD_FIGURES: &[&str] = &[
 fn decode_mod_figures(node: &KdlNode, r: &mut Reader) -> (Vec<ModFigure>, Option<Network>) {
     let mut out = Vec::new();
     let mut network: Option<Network> = None;
-    for child in r.children(node.children(), MOD_FIGURES, "a `mod`") {
+    for child in r.children(
+        node.children(),
+        MOD_FIGURES,
+        Msg::new("diag-in-a-node").arg("node", "mod"),
+    ) {
         if child.name().value() == "network" {
             if network.is_some() {
                 r.push(
@@ -1258,7 +1278,7 @@ fn decode_mod_figures(node: &KdlNode, r: &mut Reader) -> (Vec<ModFigure>, Option
                         Msg::new("diag-second-network"),
                         Msg::new("diag-repeated-here"),
                     )
-                    .with_help("write a second network under a mod of its own"),
+                    .with_help(Msg::new("diag-second-network-help")),
                 );
                 continue;
             }
@@ -1268,7 +1288,7 @@ fn decode_mod_figures(node: &KdlNode, r: &mut Reader) -> (Vec<ModFigure>, Option
         r.no_children(child);
         let cap = |r: &mut Reader, key: &str, example: &str| {
             let q = r.req_prop_quantity(child, key, Q::Capacitance, example);
-            r.positive(q, "a capacitance", false)
+            r.positive(q, Msg::new("diag-kind-capacitance"), false)
                 .map(|q| Farads(q.value))
         };
         let res = |r: &mut Reader, key: &str, example: &str| {
@@ -1308,7 +1328,9 @@ fn decode_mod_figures(node: &KdlNode, r: &mut Reader) -> (Vec<ModFigure>, Option
                 let valve = r.req_prop_name(child, "valve", ex);
                 let load = res(r, "load", ex);
                 let rk = r.opt_prop_quantity(child, "rk", Q::Resistance);
-                let rk = r.positive(rk, "a resistance", false).map(|q| Ohms(q.value));
+                let rk = r
+                    .positive(rk, Msg::new("diag-kind-resistance"), false)
+                    .map(|q| Ohms(q.value));
                 let bypassed = r.opt_prop_bool(child, "bypassed").unwrap_or(rk.is_none());
                 if let (Some(valve), Some(load)) = (valve, load) {
                     out.push(ModFigure::StageGain {
@@ -1362,21 +1384,17 @@ fn decode_safety(node: &KdlNode, defaults: &SafetyDefaults, r: &mut Reader) -> O
                     DecodeError::error(
                         "job::over-range",
                         at,
-                        format!(
-                            "`{}` takes no over-range reading (\">…\")",
-                            child.name().value()
-                        ),
-                        "only the insulation test reads \"more than\"",
+                        Msg::new("diag-no-over-range").arg("name", child.name().value()),
+                        Msg::new("diag-no-over-range-label"),
                     )
-                    .with_help(format!(
-                        "write the figure the meter showed, for example: {example}"
-                    )),
+                    .with_help(Msg::new("diag-no-over-range-help").arg("example", example)),
                 );
                 None
             }
             Some(e) => {
-                let q = r.quantity(e, kind, "the reading");
-                r.positive(q, "the reading", true).map(|q| q.value)
+                let q = r.quantity(e, kind, Msg::new("diag-what-reading"));
+                r.positive(q, Msg::new("diag-what-reading"), true)
+                    .map(|q| q.value)
             }
             None => {
                 r.push(
@@ -1386,7 +1404,7 @@ fn decode_safety(node: &KdlNode, defaults: &SafetyDefaults, r: &mut Reader) -> O
                         Msg::new("diag-needs-reading").arg("name", child.name().value()),
                         Msg::new("diag-reading-missing"),
                     )
-                    .with_help(format!("for example: {example}")),
+                    .with_help(Msg::new("diag-for-example").arg("example", example)),
                 );
                 None
             }
@@ -1406,7 +1424,7 @@ fn decode_safety(node: &KdlNode, defaults: &SafetyDefaults, r: &mut Reader) -> O
                 );
                 let cord = r.opt_prop_quantity(child, "cord", Q::Resistance);
                 let cord = r
-                    .positive(cord, "the cord resistance", true)
+                    .positive(cord, Msg::new("diag-what-cord-resistance"), true)
                     .map(|c| Ohms(c.value));
                 if let (Some(measured), Some(limit)) = (measured, limit) {
                     tests.push(SafetyTest::EarthContinuity {
@@ -1431,10 +1449,11 @@ fn decode_safety(node: &KdlNode, defaults: &SafetyDefaults, r: &mut Reader) -> O
                                     DecodeError::error(
                                         "job::bad-value",
                                         span,
-                                        format!("the over-range reading \">{rest}\" is not a resistance"),
-                                        "expected \">500M\"",
+                                        Msg::new("diag-over-range-not-resistance")
+                                            .arg("rest", rest.as_str()),
+                                        Msg::new("diag-over-range-expected"),
                                     )
-                                    .with_help("write the meter's top figure after `>`, for example \">500M\""),
+                                    .with_help(Msg::new("diag-over-range-help")),
                                 );
                                 None
                             }
@@ -1514,12 +1533,16 @@ fn limit_or_default(
             DecodeError::error(
                 "job::missing",
                 Reader::name_span(node),
-                format!("`{}` needs a `{key}` property", node.name().value()),
-                format!("`{key}` missing"),
+                Msg::new("diag-missing")
+                    .arg("node", node.name().value())
+                    .arg("what", Msg::new("diag-a-property").arg("key", key)),
+                Msg::new("diag-key-missing").arg("key", key),
             )
-            .with_help(format!(
-                "for example: {example}; or set a default `{key}` in the shop profile's `safety` block"
-            )),
+            .with_help(
+                Msg::new("diag-safety-default-help")
+                    .arg("example", example)
+                    .arg("key", key),
+            ),
         );
         return None;
     }
@@ -1569,7 +1592,7 @@ fn decode_accepted(node: &KdlNode, info: &JobInfo, r: &mut Reader) -> Vec<Accept
                 Spanned::new(l, span)
             }),
             AcceptedKind::Safety => {
-                let n = r.req_arg_name(child, "the safety test's name", example);
+                let n = r.req_arg_name(child, Msg::new("diag-what-safety-test"), example);
                 match n {
                     Some(n) if !SAFETY_TESTS.contains(&n.value.as_str()) => {
                         r.push(
@@ -1587,15 +1610,15 @@ fn decode_accepted(node: &KdlNode, info: &JobInfo, r: &mut Reader) -> Vec<Accept
                 }
             }
             AcceptedKind::Bench => {
-                let n = r.req_arg_name(child, "the bench test's name", example);
+                let n = r.req_arg_name(child, Msg::new("diag-what-bench-test"), example);
                 match n {
                     Some(n) if !BENCH_CHECKS.contains(&n.value.as_str()) => {
                         r.push(
                             DecodeError::error(
                                 "job::unknown-bench-test",
                                 n.span,
-                                format!("unknown bench test `{}` to accept", n.value),
-                                "not a bench test with a limit",
+                                Msg::new("diag-unknown-bench-test").arg("name", n.value.as_str()),
+                                Msg::new("diag-not-a-bench-test"),
                             )
                             .with_help(suggestion_help(&n.value, BENCH_CHECKS)),
                         );
@@ -1604,9 +1627,13 @@ fn decode_accepted(node: &KdlNode, info: &JobInfo, r: &mut Reader) -> Vec<Accept
                     other => other,
                 }
             }
-            AcceptedKind::Valve => r.req_arg_name(child, "a valve position", example),
-            AcceptedKind::Node => r.req_arg_name(child, "a node name", example),
-            AcceptedKind::Part => r.req_arg_name(child, "a part reference", example),
+            AcceptedKind::Valve => {
+                r.req_arg_name(child, Msg::new("diag-what-valve-position"), example)
+            }
+            AcceptedKind::Node => r.req_arg_name(child, Msg::new("diag-what-node-name"), example),
+            AcceptedKind::Part => {
+                r.req_arg_name(child, Msg::new("diag-what-part-reference"), example)
+            }
         };
         let check = Reader::prop(child, "check").and_then(|e| r.name(e, "`check`"));
         if let Some(c) = &check
@@ -1635,7 +1662,7 @@ fn decode_accepted(node: &KdlNode, info: &JobInfo, r: &mut Reader) -> Vec<Accept
                     Msg::new("diag-empty-reason"),
                     Msg::new("diag-empty-reason-label"),
                 )
-                .with_help("say why the figure is acceptable, for example \"factory design\""),
+                .with_help(Msg::new("diag-empty-reason-help")),
             );
         }
         let by = r.opt_prop_string(child, "by").or_else(|| block_by.clone());
@@ -1651,9 +1678,7 @@ fn decode_accepted(node: &KdlNode, info: &JobInfo, r: &mut Reader) -> Vec<Accept
                     Msg::new("diag-acceptance-who"),
                     Msg::new("diag-who-accepted"),
                 )
-                .with_help(
-                    "write `by=\"…\"` here or on `accepted`, or give the job a `technician=`",
-                ),
+                .with_help(Msg::new("diag-acceptance-who-help")),
             );
         }
         if date.is_none() {
@@ -1664,7 +1689,7 @@ fn decode_accepted(node: &KdlNode, info: &JobInfo, r: &mut Reader) -> Vec<Accept
                     Msg::new("diag-acceptance-when"),
                     Msg::new("diag-when-accepted"),
                 )
-                .with_help("write `date=\"YYYY-MM-DD\"` here or on `accepted`, or give the job a `completed=` date"),
+                .with_help(Msg::new("diag-acceptance-when-help")),
             );
         }
         let name_ok = name.is_some() || kind == AcceptedKind::Heater;
@@ -1720,7 +1745,7 @@ fn decode_photos(node: &KdlNode, r: &mut Reader) -> Vec<Photo> {
         r.no_children(child);
         let path = r.req_arg_string(
             child,
-            "the photo's path",
+            Msg::new("diag-what-photo-path"),
             "photo \"photos/chassis-after.jpg\" caption=\"…\"",
         );
         let caption = r.opt_prop_string(child, "caption");
@@ -1743,7 +1768,7 @@ fn decode_photos(node: &KdlNode, r: &mut Reader) -> Vec<Photo> {
 pub(crate) fn decode_settings(
     node: &KdlNode,
     base: &Settings,
-    base_from: &str,
+    base_from: Msg,
     r: &mut Reader,
 ) -> (Settings, Vec<String>) {
     r.check_entries(node, &[], 0);
@@ -1783,8 +1808,8 @@ pub(crate) fn decode_settings(
             r.push(DecodeError::error(
                 "job::impossible-value",
                 p.span,
-                format!("`{name}` must be between 0% and 200%"),
-                "out of range",
+                Msg::new("diag-setting-range").arg("name", name),
+                Msg::new("diag-out-of-range"),
             ));
             continue;
         }
@@ -1810,11 +1835,11 @@ pub(crate) fn decode_settings(
         let mut e = DecodeError::error(
             "job::settings-order",
             node.name().span(),
-            "`fixed-bias-low` is above `fixed-bias-high`",
-            "these settings",
+            Msg::new("diag-bias-bands-order"),
+            Msg::new("diag-these-settings"),
         );
         if !both && *base != Settings::default() {
-            e = e.with_help(format!("one of the two comes from {base_from}"));
+            e = e.with_help(Msg::new("diag-one-comes-from").arg("source", base_from));
         }
         r.push(e);
     }
@@ -1856,8 +1881,8 @@ fn decibels(r: &mut Reader, entry: &kdl::KdlEntry, name: &str) -> Option<f64> {
             r.push(DecodeError::error(
                 "job::impossible-value",
                 span,
-                format!("`{name}` must be between 0 dB and 150 dB"),
-                "out of range",
+                Msg::new("diag-decibel-range").arg("name", name),
+                Msg::new("diag-out-of-range"),
             ));
             None
         }
@@ -1866,10 +1891,10 @@ fn decibels(r: &mut Reader, entry: &kdl::KdlEntry, name: &str) -> Option<f64> {
                 DecodeError::error(
                     "job::bad-value",
                     span,
-                    format!("`{name}` must be a level in decibels"),
-                    "expected decibels",
+                    Msg::new("diag-decibels").arg("name", name),
+                    Msg::new("diag-expected-decibels"),
                 )
-                .with_help("write it as \"60dB\" or 60"),
+                .with_help(Msg::new("diag-decibels-help")),
             );
             None
         }
@@ -1879,36 +1904,39 @@ fn decibels(r: &mut Reader, entry: &kdl::KdlEntry, name: &str) -> Option<f64> {
 /// Mains voltages, nominal or read: 1 V to 1,000 V. A variable
 /// autotransformer brought up slowly gives readings of a few volts;
 /// 1,000 V AC is the top of low-voltage supply (IEC 60038, from memory).
-fn mains_range(r: &mut Reader, v: Option<Spanned<f64>>, what: &str) -> Option<Spanned<f64>> {
+fn mains_range(r: &mut Reader, v: Option<Spanned<f64>>, what: Msg) -> Option<Spanned<f64>> {
     r.within(
         v,
         what,
         (1.0, 1000.0),
-        "1 V to 1000 V",
-        "mains voltages run from a few volts on a variable autotransformer to the 1000 V top of low-voltage supply (IEC 60038)",
+        Msg::new("diag-range")
+            .arg("low", "1 V")
+            .arg("high", "1000 V"),
+        Msg::new("diag-mains-range-help"),
     )
 }
 
 fn ohms(r: &mut Reader, node: &KdlNode, key: &str, example: &str) -> Option<Spanned<Ohms>> {
     let q = r.req_prop_quantity(node, key, Q::Resistance, example);
-    r.positive(q, "a resistance", false)
+    r.positive(q, Msg::new("diag-kind-resistance"), false)
         .map(|q| Spanned::new(Ohms(q.value), q.span))
 }
 
 fn watts(r: &mut Reader, node: &KdlNode, key: &str) -> Option<Watts> {
     let q = r.opt_prop_quantity(node, key, Q::Power);
-    r.positive(q, "a power rating", false)
+    r.positive(q, Msg::new("diag-what-power-rating"), false)
         .map(|q| Watts(q.value))
 }
 
-fn volts_pos(r: &mut Reader, node: &KdlNode, key: &str, what: &str) -> Option<Volts> {
+fn volts_pos(r: &mut Reader, node: &KdlNode, key: &str, what: Msg) -> Option<Volts> {
     let q = r.opt_prop_quantity(node, key, Q::Voltage);
     r.positive(q, what, false).map(|q| Volts(q.value))
 }
 
 fn percent(r: &mut Reader, node: &KdlNode, key: &str) -> Option<f64> {
     let q = r.opt_prop_quantity(node, key, Q::Percent);
-    r.positive(q, "a tolerance", true).map(|q| q.value / 100.0)
+    r.positive(q, Msg::new("diag-what-tolerance"), true)
+        .map(|q| q.value / 100.0)
 }
 
 /// Splits "V3 V4" or "V3, V4" into names, each with its own span.

@@ -4,9 +4,10 @@
 
 use kdl::KdlNode;
 
-use super::decode_error::{DecodeError, suggestion_help};
+use super::decode_error::{DecodeError, suggestion};
 use super::model::*;
 use super::reader::Reader;
+use crate::catalogue::{Arg, Msg};
 use crate::units::{Hertz, Ohms, QuantityKind as Q, Volts};
 
 /// The bench-test nodes a measurement set may hold.
@@ -46,7 +47,11 @@ pub(crate) fn decode_bench_node(child: &KdlNode, r: &mut Reader, bench: &mut Ben
 }
 
 /// A voltage above zero, with its span.
-fn volts_above_zero(r: &mut Reader, v: Option<Spanned<f64>>, what: &str) -> Option<Spanned<Volts>> {
+fn volts_above_zero(
+    r: &mut Reader,
+    v: Option<Spanned<f64>>,
+    what: impl Into<Arg>,
+) -> Option<Spanned<Volts>> {
     r.positive(v, what, false)
         .map(|v| Spanned::new(Volts(v.value), v.span))
 }
@@ -55,20 +60,22 @@ fn frequency(r: &mut Reader, node: &KdlNode, key: &str) -> Option<Hertz> {
     let f = r.opt_prop_quantity(node, key, Q::Frequency);
     match f {
         None if Reader::prop(node, key).is_none() => Some(DEFAULT_FREQUENCY),
-        f => r.positive(f, "a frequency", false).map(|f| Hertz(f.value)),
+        f => r
+            .positive(f, Msg::new("diag-bench-a-frequency"), false)
+            .map(|f| Hertz(f.value)),
     }
 }
 
 fn load(r: &mut Reader, node: &KdlNode, example: &str) -> Option<Spanned<Ohms>> {
     let q = r.req_prop_quantity(node, "load", Q::Resistance, example);
-    let q = r.positive(q, "the load resistance", false)?;
+    let q = r.positive(q, Msg::new("diag-bench-load-resistance"), false)?;
     plausible_load(r, q.value, q.span);
     Some(Spanned::new(Ohms(q.value), q.span))
 }
 
 fn opt_load(r: &mut Reader, node: &KdlNode) -> Option<Ohms> {
     let q = r.opt_prop_quantity(node, "load", Q::Resistance);
-    let q = r.positive(q, "the load resistance", false)?;
+    let q = r.positive(q, Msg::new("diag-bench-load-resistance"), false)?;
     plausible_load(r, q.value, q.span);
     Some(Ohms(q.value))
 }
@@ -80,10 +87,10 @@ fn plausible_load(r: &mut Reader, ohms: f64, span: miette::SourceSpan) {
             DecodeError::warning(
                 "job::implausible",
                 span,
-                format!("a dummy load of {} is unusual", Ohms(ohms)),
-                "unusual",
+                Msg::new("diag-bench-unusual-load").arg("load", Ohms(ohms).to_string()),
+                Msg::new("diag-unusual"),
             )
-            .with_help("dummy loads are usually 4 Ω, 8 Ω or 16 Ω, the speaker impedance"),
+            .with_help(Msg::new("diag-bench-unusual-load-help")),
         );
     }
 }
@@ -105,10 +112,10 @@ fn output_power(node: &KdlNode, r: &mut Reader) -> Option<OutputPowerReading> {
                 DecodeError::error(
                     "job::conflicting",
                     r.value_span(e),
-                    "`output-power` gives both `rms` and `peak-to-peak`",
-                    "one reading only",
+                    Msg::new("diag-bench-rms-and-pp"),
+                    Msg::new("diag-bench-one-reading"),
                 )
-                .with_help("give the reading once: rms=\"15.5V\" or peak-to-peak=\"44V\""),
+                .with_help(Msg::new("diag-bench-rms-or-pp")),
             );
             return None;
         }
@@ -117,16 +124,16 @@ fn output_power(node: &KdlNode, r: &mut Reader) -> Option<OutputPowerReading> {
                 DecodeError::error(
                     "job::missing",
                     Reader::name_span(node),
-                    "`output-power` needs the output voltage, saying whether it is RMS or peak-to-peak",
-                    "reading missing",
+                    Msg::new("diag-bench-power-needs-volts"),
+                    Msg::new("diag-reading-missing"),
                 )
-                .with_help(format!("for example: {example}")),
+                .with_help(Msg::new("diag-for-example").arg("example", example)),
             );
             return None;
         }
     };
-    let v = r.quantity(entry, Q::Voltage, "the output voltage");
-    let volts = volts_above_zero(r, v, "an output voltage");
+    let v = r.quantity(entry, Q::Voltage, Msg::new("diag-bench-the-output-voltage"));
+    let volts = volts_above_zero(r, v, Msg::new("diag-bench-an-output-voltage"));
     let load = load(r, node, example);
     let freq = frequency(r, node, "frequency");
     let channel = r.opt_prop_string(node, "channel");
@@ -142,13 +149,13 @@ fn output_power(node: &KdlNode, r: &mut Reader) -> Option<OutputPowerReading> {
                 DecodeError::warning(
                     "job::implausible",
                     volts.span,
-                    format!(
-                        "{} into {} would be {watts:.0} W, unusual for a valve amplifier",
-                        volts.value, load.value
-                    ),
-                    "unusual",
+                    Msg::new("diag-bench-unusual-power")
+                        .arg("volts", volts.value.to_string())
+                        .arg("load", load.value.to_string())
+                        .arg("watts", format!("{watts:.0}")),
+                    Msg::new("diag-unusual"),
                 )
-                .with_help("check the reading, its kind (rms or peak-to-peak) and the load"),
+                .with_help(Msg::new("diag-bench-unusual-power-help")),
             );
         }
     }
@@ -165,16 +172,19 @@ fn output_power(node: &KdlNode, r: &mut Reader) -> Option<OutputPowerReading> {
 /// `at=clipping`, `at="5%"` (a stated distortion) or `at="0.5V"` (a stated
 /// drive).
 fn condition(node: &KdlNode, r: &mut Reader, example: &str) -> Option<PowerCondition> {
-    let help = "write at=clipping (the onset of clipping), a distortion such as at=\"5%\", or the input drive such as at=\"0.5V\"";
+    let help = || Msg::new("diag-bench-at-help");
     let Some(entry) = Reader::prop(node, "at") else {
         r.push(
             DecodeError::error(
                 "job::missing",
                 Reader::name_span(node),
-                "`output-power` needs the condition it was read at (`at=`)",
-                "condition missing",
+                Msg::new("diag-bench-needs-at"),
+                Msg::new("diag-bench-condition-missing"),
             )
-            .with_help(format!("{help}; for example: {example}")),
+            .with_help(Msg::new("diag-two-hints").arg("first", help()).arg(
+                "second",
+                Msg::new("diag-for-example").arg("example", example),
+            )),
         );
         return None;
     };
@@ -187,13 +197,13 @@ fn condition(node: &KdlNode, r: &mut Reader, example: &str) -> Option<PowerCondi
         return Some(PowerCondition::Clipping);
     }
     if text.ends_with('%') {
-        let p = r.quantity(entry, Q::Percent, "the distortion")?;
+        let p = r.quantity(entry, Q::Percent, Msg::new("diag-bench-the-distortion"))?;
         if !(p.value > 0.0 && p.value < 100.0) {
             r.push(DecodeError::error(
                 "job::impossible-value",
                 span,
-                "a distortion must be above 0 % and below 100 %",
-                "out of range",
+                Msg::new("diag-bench-distortion-range"),
+                Msg::new("diag-out-of-range"),
             ));
             return None;
         }
@@ -202,8 +212,8 @@ fn condition(node: &KdlNode, r: &mut Reader, example: &str) -> Option<PowerCondi
         });
     }
     if text.ends_with('V') {
-        let v = r.quantity(entry, Q::Voltage, "the input drive");
-        let v = r.positive(v, "an input drive", false)?;
+        let v = r.quantity(entry, Q::Voltage, Msg::new("diag-bench-the-input-drive"));
+        let v = r.positive(v, Msg::new("diag-bench-an-input-drive"), false)?;
         return Some(PowerCondition::Drive {
             volts: Volts(v.value),
         });
@@ -212,10 +222,14 @@ fn condition(node: &KdlNode, r: &mut Reader, example: &str) -> Option<PowerCondi
         DecodeError::error(
             "job::bad-value",
             span,
-            format!("`at` must be clipping, a distortion or a drive voltage, found {text}"),
-            "expected clipping, \"5%\" or \"0.5V\"",
+            Msg::new("diag-bench-bad-at").arg("found", text.as_str()),
+            Msg::new("diag-bench-expected-at"),
         )
-        .with_help(suggestion_help(&text, &["clipping"]) + "; " + help),
+        .with_help(
+            Msg::new("diag-two-hints")
+                .arg("first", suggestion(&text, &["clipping"]))
+                .arg("second", help()),
+        ),
     );
     None
 }
@@ -224,21 +238,21 @@ fn hum_noise(node: &KdlNode, r: &mut Reader) -> Option<HumNoiseReading> {
     let example = "hum-noise \"4.2mV\" load=\"8R\" input=shorted volume=\"0\"";
     r.check_entries(node, &["load", "input", "volume", "channel"], 1);
     let v = match Reader::arg(node, 0) {
-        Some(e) => r.quantity(e, Q::Voltage, "the hum and noise reading"),
+        Some(e) => r.quantity(e, Q::Voltage, Msg::new("diag-bench-the-hum-reading")),
         None => {
             r.push(
                 DecodeError::error(
                     "job::missing",
                     Reader::name_span(node),
-                    "`hum-noise` needs the RMS volts read across the load",
-                    "reading missing",
+                    Msg::new("diag-bench-hum-needs-volts"),
+                    Msg::new("diag-reading-missing"),
                 )
-                .with_help(format!("for example: {example}")),
+                .with_help(Msg::new("diag-for-example").arg("example", example)),
             );
             None
         }
     };
-    let volts = volts_above_zero(r, v, "a hum and noise reading");
+    let volts = volts_above_zero(r, v, Msg::new("diag-bench-a-hum-reading"));
     if let Some(v) = &volts
         && v.value.0 > 5.0
     {
@@ -246,10 +260,10 @@ fn hum_noise(node: &KdlNode, r: &mut Reader) -> Option<HumNoiseReading> {
             DecodeError::warning(
                 "job::implausible",
                 v.span,
-                format!("{} of hum and noise is very high", v.value),
-                "unusual",
+                Msg::new("diag-bench-hum-high").arg("volts", v.value.to_string()),
+                Msg::new("diag-unusual"),
             )
-            .with_help("hum and noise is usually read in millivolts, for example \"4.2mV\""),
+            .with_help(Msg::new("diag-bench-hum-high-help")),
         );
     }
     let load = load(r, node, example);
@@ -262,10 +276,10 @@ fn hum_noise(node: &KdlNode, r: &mut Reader) -> Option<HumNoiseReading> {
                     DecodeError::error(
                         "job::bad-value",
                         name.span,
-                        format!("`input` must be shorted or open, found {other}"),
-                        "expected shorted or open",
+                        Msg::new("diag-bench-bad-input").arg("found", other),
+                        Msg::new("diag-bench-expected-input"),
                     )
-                    .with_help(suggestion_help(other, &["shorted", "open"])),
+                    .with_help(suggestion(other, &["shorted", "open"])),
                 );
                 None
             }
@@ -276,10 +290,10 @@ fn hum_noise(node: &KdlNode, r: &mut Reader) -> Option<HumNoiseReading> {
                     DecodeError::error(
                         "job::missing",
                         Reader::name_span(node),
-                        "`hum-noise` needs to say whether the input was shorted or open",
-                        "input state missing",
+                        Msg::new("diag-bench-hum-needs-input"),
+                        Msg::new("diag-bench-input-missing"),
                     )
-                    .with_help(format!("for example: {example}")),
+                    .with_help(Msg::new("diag-for-example").arg("example", example)),
                 );
             }
             None
@@ -314,7 +328,7 @@ fn response(node: &KdlNode, r: &mut Reader) -> Option<ResponseReading> {
     let reference = match Reader::prop(node, "reference") {
         Some(e) => {
             let q = r.quantity(e, Q::Frequency, "`reference`");
-            r.positive(q, "a frequency", false)
+            r.positive(q, Msg::new("diag-bench-a-frequency"), false)
                 .map(|q| Spanned::new(Hertz(q.value), q.span))
         }
         None => Some(Spanned::new(DEFAULT_FREQUENCY, Reader::name_span(node))),
@@ -322,7 +336,7 @@ fn response(node: &KdlNode, r: &mut Reader) -> Option<ResponseReading> {
     let load = opt_load(r, node);
     let input = r.opt_prop_quantity(node, "input", Q::Voltage);
     let input = r
-        .positive(input, "an input level", false)
+        .positive(input, Msg::new("diag-bench-an-input-level"), false)
         .map(|q| Volts(q.value));
     let channel = r.opt_prop_string(node, "channel");
     let mut points: Vec<ResponsePoint> = Vec::new();
@@ -337,24 +351,24 @@ fn response(node: &KdlNode, r: &mut Reader) -> Option<ResponseReading> {
                 DecodeError::error(
                     "job::missing",
                     Reader::name_span(child),
-                    "`point` needs a frequency and the output volts read there",
-                    "reading missing",
+                    Msg::new("diag-bench-point-needs"),
+                    Msg::new("diag-reading-missing"),
                 )
-                .with_help(format!("for example: {point_example}")),
+                .with_help(Msg::new("diag-for-example").arg("example", point_example)),
             );
             continue;
         };
-        let f = r.quantity(fe, Q::Frequency, "the frequency");
-        let f = r.positive(f, "a frequency", false);
-        let v = r.quantity(ve, Q::Voltage, "the output voltage");
-        let v = r.positive(v, "an output voltage on a response", false);
+        let f = r.quantity(fe, Q::Frequency, Msg::new("diag-bench-the-frequency"));
+        let f = r.positive(f, Msg::new("diag-bench-a-frequency"), false);
+        let v = r.quantity(ve, Q::Voltage, Msg::new("diag-bench-the-output-voltage"));
+        let v = r.positive(v, Msg::new("diag-bench-response-voltage"), false);
         let (Some(f), Some(v)) = (f, v) else { continue };
         if points.iter().any(|p| p.frequency.value.0 == f.value) {
             r.push(DecodeError::error(
                 "job::repeated-reading",
                 f.span,
-                format!("{} is read twice in this response", Hertz(f.value)),
-                "repeated here",
+                Msg::new("diag-bench-point-twice").arg("frequency", Hertz(f.value).to_string()),
+                Msg::new("diag-repeated-here"),
             ));
             continue;
         }
@@ -369,10 +383,10 @@ fn response(node: &KdlNode, r: &mut Reader) -> Option<ResponseReading> {
             DecodeError::error(
                 "job::missing",
                 Reader::name_span(node),
-                "`response` holds no readings",
-                "no `point` children",
+                Msg::new("diag-bench-response-empty"),
+                Msg::new("diag-bench-no-points"),
             )
-            .with_help(format!("for example: {example}")),
+            .with_help(Msg::new("diag-for-example").arg("example", example)),
         );
         return None;
     }
@@ -388,15 +402,11 @@ fn response(node: &KdlNode, r: &mut Reader) -> Option<ResponseReading> {
             DecodeError::error(
                 "job::missing",
                 reference.span,
-                format!(
-                    "the response has no reading at its reference frequency {}",
-                    reference.value
-                ),
-                "no point here",
+                Msg::new("diag-bench-no-reference-point")
+                    .arg("frequency", reference.value.to_string()),
+                Msg::new("diag-bench-no-point-here"),
             )
-            .with_help(
-                "add a `point` at the reference frequency, or set reference= to a frequency that was read",
-            ),
+            .with_help(Msg::new("diag-bench-no-reference-point-help")),
         );
         return None;
     }
@@ -417,9 +427,9 @@ fn gain(node: &KdlNode, r: &mut Reader) -> Option<GainReading> {
         0,
     );
     let input = r.req_prop_quantity(node, "input", Q::Voltage, example);
-    let input = volts_above_zero(r, input, "an input voltage");
+    let input = volts_above_zero(r, input, Msg::new("diag-bench-an-input-voltage"));
     let output = r.req_prop_quantity(node, "output", Q::Voltage, example);
-    let output = volts_above_zero(r, output, "an output voltage");
+    let output = volts_above_zero(r, output, Msg::new("diag-bench-an-output-voltage"));
     let freq = frequency(r, node, "frequency");
     let load = opt_load(r, node);
     let channel = r.opt_prop_string(node, "channel");

@@ -280,6 +280,12 @@ impl fmt::Display for JobDiagnostics {
         let warnings = self.problems.len() - errors;
         let file = if self.problems.iter().any(|p| p.file_kind == Some("shop")) {
             "shop"
+        } else if self
+            .problems
+            .iter()
+            .any(|p| p.code.starts_with("catalogue::"))
+        {
+            "translation"
         } else {
             "job"
         };

@@ -3,17 +3,17 @@
 
 use std::collections::HashSet;
 
-use super::decode_error::{DecodeError, suggestion_help};
+use super::decode_error::{DecodeError, suggestion};
 use super::model::{Job, RectifierKind, Spanned};
 use crate::catalogue::Msg;
 
 /// A did-you-mean for the first problems only: past the few that are
 /// printed, comparing each name with every known one would only cost time.
-fn suggest(name: &str, known: &[&str], problems_so_far: usize) -> String {
+fn suggest(name: &str, known: &[&str], problems_so_far: usize) -> Msg {
     if problems_so_far < 4 * crate::problem_cap::SHOWN_PROBLEMS && known.len() <= 1000 {
-        suggestion_help(name, known)
+        suggestion(name, known)
     } else {
-        "check the spelling against the names declared in the job".to_string()
+        Msg::new("diag-check-spelling")
     }
 }
 
@@ -41,10 +41,10 @@ pub fn cross_references(job: &Job) -> Vec<DecodeError> {
     }
 
     let known_positions: HashSet<&str> = positions.iter().copied().collect();
-    let mut position = |name: &Spanned<String>, what: &str| {
+    let mut position = |name: &Spanned<String>, what: Msg| {
         if !known_positions.contains(name.value.as_str()) {
             let help = if positions.is_empty() {
-                "list the valves in a `valves` block first".to_string()
+                Msg::new("diag-list-valves-first")
             } else {
                 suggest(&name.value, &positions, out.len())
             };
@@ -52,11 +52,10 @@ pub fn cross_references(job: &Job) -> Vec<DecodeError> {
                 DecodeError::error(
                     "job::unknown-position",
                     name.span,
-                    format!(
-                        "{what} names valve position {}, which the `valves` block does not list",
-                        name.value
-                    ),
-                    "no such valve position",
+                    Msg::new("diag-names-unknown-position")
+                        .arg("what", what)
+                        .arg("name", name.value.as_str()),
+                    Msg::new("diag-no-such-position"),
                 )
                 .with_help(help),
             );
@@ -68,29 +67,35 @@ pub fn cross_references(job: &Job) -> Vec<DecodeError> {
     for c in &circuits {
         for r in &c.cathode_resistors {
             for v in &r.valves {
-                position(v, &format!("cathode resistor {}", r.reference));
+                position(
+                    v,
+                    Msg::new("diag-ref-cathode-resistor").arg("name", r.reference.as_str()),
+                );
             }
         }
         for r in &c.sense_resistors {
-            position(&r.valve, "a sense resistor");
+            position(&r.valve, Msg::new("diag-ref-sense-resistor"));
         }
         for r in &c.screen_resistors {
-            position(&r.valve, "a screen resistor");
+            position(&r.valve, Msg::new("diag-ref-screen-resistor"));
         }
         for h in &c.half_primaries {
             for v in &h.valves {
-                position(v, "a half-primary resistance");
+                position(v, Msg::new("diag-ref-half-primary"));
             }
         }
         if let Some(rect) = &c.rectifier
             && let RectifierKind::Valve(p) = &rect.kind
         {
-            position(p, "the rectifier");
+            position(p, Msg::new("diag-ref-rectifier"));
         }
     }
     for set in &job.measurements {
         for v in &set.valves {
-            position(&v.position, &format!("the \"{}\" readings", set.label));
+            position(
+                &v.position,
+                Msg::new("diag-ref-readings").arg("set", set.label.as_str()),
+            );
         }
         for c in &set.valve_types {
             if !set
@@ -98,13 +103,16 @@ pub fn cross_references(job: &Job) -> Vec<DecodeError> {
                 .iter()
                 .any(|v| v.position.value == c.position.value)
             {
-                position(&c.position, &format!("the \"{}\" readings", set.label));
+                position(
+                    &c.position,
+                    Msg::new("diag-ref-readings").arg("set", set.label.as_str()),
+                );
             }
         }
         for w in &set.warm_up {
             position(
                 &w.reading.position,
-                &format!("the \"{}\" warm-up", set.label),
+                Msg::new("diag-ref-warm-up").arg("set", set.label.as_str()),
             );
         }
     }
@@ -113,20 +121,20 @@ pub fn cross_references(job: &Job) -> Vec<DecodeError> {
             if let super::model::ModFigure::CathodeBypass { valve, .. }
             | super::model::ModFigure::StageGain { valve, .. } = f
             {
-                position(valve, "a mod's figure");
+                position(valve, Msg::new("diag-ref-mod-figure"));
             }
         }
         for source in m.network.iter().flat_map(|n| n.sources()) {
             if let super::network::SourceImpedance::Valve { valve, .. } = &source.impedance {
-                position(valve, "a network's source");
+                position(valve, Msg::new("diag-ref-network-source"));
             }
         }
     }
 
-    let mut node = |name: &Spanned<String>, what: &str| {
+    let mut node = |name: &Spanned<String>, what: Msg| {
         if !known_nodes.contains(name.value.as_str()) {
             let help = if nodes.is_empty() {
-                "declare it in the circuit block: node B+1 chart=\"350V\"".to_string()
+                Msg::new("diag-declare-in-circuit")
             } else {
                 suggest(&name.value, &nodes, out.len())
             };
@@ -134,11 +142,10 @@ pub fn cross_references(job: &Job) -> Vec<DecodeError> {
                 DecodeError::error(
                     "job::unknown-node-name",
                     name.span,
-                    format!(
-                        "{what} names node {}, which is neither declared in `circuit` nor measured",
-                        name.value
-                    ),
-                    "no such node",
+                    Msg::new("diag-names-unknown-node")
+                        .arg("what", what)
+                        .arg("name", name.value.as_str()),
+                    Msg::new("diag-no-such-node"),
                 )
                 .with_help(help),
             );
@@ -146,14 +153,18 @@ pub fn cross_references(job: &Job) -> Vec<DecodeError> {
     };
     for c in &circuits {
         for d in &c.droppers {
-            node(&d.from, &format!("dropper {}", d.reference));
-            node(&d.to, &format!("dropper {}", d.reference));
+            let dropper = || Msg::new("diag-ref-dropper").arg("name", d.reference.as_str());
+            node(&d.from, dropper());
+            node(&d.to, dropper());
         }
         for f in &c.filter_capacitors {
-            node(&f.node, &format!("filter capacitor {}", f.reference));
+            node(
+                &f.node,
+                Msg::new("diag-ref-filter-capacitor").arg("name", f.reference.as_str()),
+            );
         }
         for s in &c.screen_resistors {
-            node(&s.supply, "a screen resistor");
+            node(&s.supply, Msg::new("diag-ref-screen-resistor"));
         }
     }
 
@@ -207,22 +218,23 @@ fn acceptance_names(job: &Job, positions: &[&str], nodes: &[&str]) -> Vec<Decode
         .iter()
         .flat_map(|m| m.heaters.iter().filter_map(|h| h.label.as_deref()))
         .collect();
-    let mut unknown = |name: &Spanned<String>, known: &[&str], what: &str, code: &'static str| {
+    // `kind` selects the words in the catalogue: set, channel, position,
+    // node, part, heater or safety.
+    let mut unknown = |name: &Spanned<String>, known: &[&str], kind: &str, code: &'static str| {
         if !known.contains(&name.value.as_str()) {
             let help = if known.is_empty() {
-                format!("the job has no {what} to accept")
+                Msg::new("diag-accept-none").arg("kind", kind)
             } else {
-                suggestion_help(&name.value, known)
+                suggestion(&name.value, known)
             };
             out.push(
                 DecodeError::error(
                     code,
                     name.span,
-                    format!(
-                        "the acceptance names {what} {}, which the job does not have",
-                        name.value
-                    ),
-                    format!("no such {what}"),
+                    Msg::new("diag-accept-unknown")
+                        .arg("kind", kind)
+                        .arg("name", name.value.as_str()),
+                    Msg::new("diag-accept-no-such").arg("kind", kind),
                 )
                 .with_help(help),
             );
@@ -230,7 +242,7 @@ fn acceptance_names(job: &Job, positions: &[&str], nodes: &[&str]) -> Vec<Decode
     };
     for a in &job.acceptances {
         if let Some(set) = &a.set {
-            unknown(set, &labels, "measurement set", "job::unknown-set");
+            unknown(set, &labels, "set", "job::unknown-set");
         }
         if let Some(channel) = &a.channel {
             let channels: Vec<&str> = job
@@ -245,18 +257,14 @@ fn acceptance_names(job: &Job, positions: &[&str], nodes: &[&str]) -> Vec<Decode
                 })
                 .filter_map(|c| c.as_deref())
                 .collect();
-            unknown(channel, &channels, "bench channel", "job::unknown-channel");
+            unknown(channel, &channels, "channel", "job::unknown-channel");
         }
         let Some(name) = &a.name else { continue };
         match a.kind {
-            AcceptedKind::Valve => {
-                unknown(name, positions, "valve position", "job::unknown-position")
-            }
+            AcceptedKind::Valve => unknown(name, positions, "position", "job::unknown-position"),
             AcceptedKind::Node => unknown(name, nodes, "node", "job::unknown-node-name"),
             AcceptedKind::Part => unknown(name, &parts, "part", "job::unknown-part"),
-            AcceptedKind::Heater => {
-                unknown(name, &heater_labels, "heater label", "job::unknown-heater")
-            }
+            AcceptedKind::Heater => unknown(name, &heater_labels, "heater", "job::unknown-heater"),
             AcceptedKind::Bench => {}
             AcceptedKind::Safety => {
                 let recorded: Vec<&str> = job
@@ -264,7 +272,7 @@ fn acceptance_names(job: &Job, positions: &[&str], nodes: &[&str]) -> Vec<Decode
                     .iter()
                     .flat_map(|s| s.tests.iter().map(|t| t.name()))
                     .collect();
-                unknown(name, &recorded, "safety test", "job::unknown-safety-test");
+                unknown(name, &recorded, "safety", "job::unknown-safety-test");
             }
         }
     }

@@ -107,7 +107,7 @@ pub(crate) fn decode_document(
     let paper = first("paper").and_then(|n| decode_paper(n, r));
     let technician = first("technician").and_then(|n| text(n, r));
     let (settings, settings_given) = match first("settings") {
-        Some(n) => decode_settings(n, &Settings::default(), "the defaults", r),
+        Some(n) => decode_settings(n, &Settings::default(), Msg::new("diag-from-defaults"), r),
         None => (Settings::default(), Vec::new()),
     };
     let safety = first("safety")

@@ -5,6 +5,7 @@
 
 use std::path::Path;
 
+use crate::catalogue::Msg;
 use crate::input_file::{InFolderError, read_in_folder};
 use crate::job::{DecodeError, Spanned};
 
@@ -42,58 +43,57 @@ impl Logo {
 /// Reads and checks the logo named in the profile at `profile`. Every
 /// refusal points at the `logo` line of the profile.
 pub fn read_logo(profile: &Path, logo: &Spanned<String>) -> Result<Logo, Box<DecodeError>> {
-    let fail = |message: String, label: &str, help: &str| {
+    let fail = |message: Msg, label: &'static str, help: &'static str| {
         Box::new(
-            DecodeError::error("shop::logo", logo.span, message, label)
-                .with_help(help)
+            DecodeError::error("shop::logo", logo.span, message, Msg::new(label))
+                .with_help(Msg::new(help))
                 .in_file_kind("shop"),
         )
     };
     let folder = profile.parent().unwrap_or(Path::new("."));
-    let too_large = "a logo for a page header needs far less: export it smaller";
+    let written = logo.value.as_str();
     let read = read_in_folder(folder, logo.value.trim(), LOGO_LIMIT).map_err(|e| match e {
         InFolderError::NotInside { .. } => fail(
-            format!(
-                "the logo `{}` is not inside the profile's folder",
-                logo.value
-            ),
-            "expected a file name in the profile's folder",
-            "put the logo beside shop.kdl (or in a folder below it) and name it relative to it, for example logo \"logo.svg\"",
+            Msg::new("diag-logo-outside").arg("path", written),
+            "diag-expected-in-profile-folder",
+            "diag-logo-keep-inside",
         ),
         InFolderError::LeadsOutside { real, .. } => fail(
-            format!(
-                "the logo `{}` leads outside the profile's folder (to {})",
-                logo.value,
-                real.display()
-            ),
-            "leads outside",
-            "copy the logo into the profile's folder instead of linking to it",
+            Msg::new("diag-logo-link")
+                .arg("path", written)
+                .arg("target", real.display().to_string()),
+            "diag-leads-outside",
+            "diag-logo-copy",
         ),
         InFolderError::NotAFile { path } => fail(
-            format!("the logo {} is not a regular file", path.display()),
-            "not a file",
-            "the logo must be a PNG or SVG file",
+            Msg::new("diag-logo-not-file").arg("path", path.display().to_string()),
+            "diag-not-a-file",
+            "diag-logo-png-svg",
         ),
         InFolderError::TooLarge { path, size, limit } => fail(
-            format!(
-                "the logo {} is {size} bytes; the limit is {limit}",
-                path.display()
-            ),
-            "too large",
-            too_large,
+            Msg::new("diag-logo-too-large")
+                .arg("path", path.display().to_string())
+                .arg("size", size.to_string())
+                .arg("limit", limit.to_string()),
+            "diag-too-large",
+            "diag-logo-smaller",
         ),
         InFolderError::Io { path, source } => fail(
-            format!("cannot read the logo {}: {source}", path.display()),
-            "this file",
-            "the logo must be a PNG or SVG file in the profile's folder",
+            Msg::new("diag-logo-cannot-read")
+                .arg("path", path.display().to_string())
+                .arg("error", source.to_string()),
+            "diag-this-file",
+            "diag-logo-in-folder",
         ),
     })?;
     check_content(&read.bytes)
         .map_err(|why| {
             fail(
-                format!("the logo {} {why}", read.place.display()),
-                "this file",
-                "the logo must be a PNG picture or a self-contained SVG drawing",
+                Msg::new("diag-logo-refused")
+                    .arg("path", read.place.display().to_string())
+                    .arg("why", why),
+                "diag-this-file",
+                "diag-logo-self-contained",
             )
         })
         .map(|kind| Logo {
@@ -105,22 +105,21 @@ pub fn read_logo(profile: &Path, logo: &Spanned<String>) -> Result<Logo, Box<Dec
 
 /// What the bytes are: a PNG that decodes, or an SVG document whose root
 /// is `<svg>` and that refers to no other file. The reason in words when
-/// neither.
-pub fn check_content(bytes: &[u8]) -> Result<LogoKind, String> {
+/// neither, as a message of the catalogue.
+pub fn check_content(bytes: &[u8]) -> Result<LogoKind, Msg> {
     const PNG_MAGIC: &[u8] = b"\x89PNG\r\n\x1a\n";
     if bytes.starts_with(PNG_MAGIC) {
         return check_png(bytes).map(|()| LogoKind::Png);
     }
-    let text = std::str::from_utf8(bytes)
-        .map_err(|_| "is neither a PNG picture nor SVG text".to_string())?;
+    let text = std::str::from_utf8(bytes).map_err(|_| Msg::new("diag-logo-not-png-or-text"))?;
     let text = text.trim_start_matches('\u{feff}');
     if !text.contains("<svg") {
-        return Err("is neither a PNG picture nor an SVG drawing".into());
+        return Err(Msg::new("diag-logo-not-png-or-svg"));
     }
     check_svg(text).map(|()| LogoKind::Svg)
 }
 
-fn check_png(bytes: &[u8]) -> Result<(), String> {
+fn check_png(bytes: &[u8]) -> Result<(), Msg> {
     let mut reader =
         image::ImageReader::with_format(std::io::Cursor::new(bytes), image::ImageFormat::Png);
     let mut limits = image::Limits::default();
@@ -131,22 +130,19 @@ fn check_png(bytes: &[u8]) -> Result<(), String> {
     reader
         .decode()
         .map(|_| ())
-        .map_err(|e| format!("starts like a PNG picture but does not decode ({e})"))
+        .map_err(|e| Msg::new("diag-logo-png-undecodable").arg("error", e.to_string()))
 }
 
-fn check_svg(text: &str) -> Result<(), String> {
+fn check_svg(text: &str) -> Result<(), Msg> {
     let options = roxmltree::ParsingOptions {
         allow_dtd: false,
         ..Default::default()
     };
     let doc = roxmltree::Document::parse_with_options(text, options)
-        .map_err(|e| format!("is not a well-formed SVG drawing ({e})"))?;
+        .map_err(|e| Msg::new("diag-logo-svg-malformed").arg("error", e.to_string()))?;
     let root = doc.root_element();
     if root.tag_name().name() != "svg" {
-        return Err(format!(
-            "is XML whose root is <{}>, not an SVG drawing's <svg>",
-            root.tag_name().name()
-        ));
+        return Err(Msg::new("diag-logo-svg-root").arg("root", root.tag_name().name()));
     }
     for node in doc.descendants().filter(|n| n.is_element()) {
         for attr in node.attributes() {
@@ -155,11 +151,9 @@ fn check_svg(text: &str) -> Result<(), String> {
                 && !(value.starts_with('#') || value.starts_with("data:"));
             let url = value.contains("url(") && !value.contains("url(#");
             if refers || url {
-                return Err(format!(
-                    "refers to another file or address (`{}` on <{}>); a logo must be self-contained",
-                    attr.value(),
-                    node.tag_name().name()
-                ));
+                return Err(Msg::new("diag-logo-svg-refers")
+                    .arg("value", attr.value())
+                    .arg("element", node.tag_name().name()));
             }
         }
         if node.tag_name().name() == "style"
@@ -167,9 +161,7 @@ fn check_svg(text: &str) -> Result<(), String> {
                 .text()
                 .is_some_and(|t| t.contains("url(") || t.contains("@import"))
         {
-            return Err(
-                "has a style sheet that loads from elsewhere; a logo must be self-contained".into(),
-            );
+            return Err(Msg::new("diag-logo-svg-style"));
         }
     }
     Ok(())
@@ -196,15 +188,26 @@ mod tests {
         assert_eq!(check_content(&png()), Ok(LogoKind::Png));
         let mut cut = png();
         cut.truncate(20);
-        assert!(check_content(&cut).unwrap_err().contains("does not decode"));
+        assert!(
+            check_content(&cut)
+                .unwrap_err()
+                .english()
+                .contains("does not decode")
+        );
         assert!(check_content(b"GIF89a....").is_err());
         assert!(check_content(b"\xff\xd8\xff\xe0 a jpeg").is_err());
         assert!(
             check_content(b"<html><svg></svg></html>")
                 .unwrap_err()
+                .english()
                 .contains("root is <html>")
         );
-        assert!(check_content(b"<svg").unwrap_err().contains("well-formed"));
+        assert!(
+            check_content(b"<svg")
+                .unwrap_err()
+                .english()
+                .contains("well-formed")
+        );
     }
 
     #[test]

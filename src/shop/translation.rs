@@ -6,9 +6,9 @@
 
 use std::path::Path;
 
-use crate::input_file::{InFolderError, read_in_folder};
+use crate::input_file::{InFolderError, InputFileError, read_in_folder};
 
-use crate::catalogue::{Catalogue, CatalogueDiagnostics};
+use crate::catalogue::{Catalogue, CatalogueDiagnostics, Msg};
 use crate::job::DecodeError;
 
 use super::Language;
@@ -35,61 +35,52 @@ pub fn read_translation(
                 DecodeError::error(
                     "shop::unknown-language",
                     language.tag.span,
-                    format!(
-                        "the program has no catalogue for `{}` built in",
-                        language.tag.value
-                    ),
-                    "no built-in catalogue",
+                    Msg::new("diag-no-catalogue").arg("tag", language.tag.value.as_str()),
+                    Msg::new("diag-no-built-in-catalogue"),
                 )
                 .in_file_kind("shop"),
             ))
         });
     };
-    let fail = |message: String, label: &str, help: &str| {
+    let fail = |message: Msg, label: &'static str, help: &'static str| {
         TranslationError::Profile(Box::new(
-            DecodeError::error("shop::translation", file.span, message, label)
-                .with_help(help)
+            DecodeError::error("shop::translation", file.span, message, Msg::new(label))
+                .with_help(Msg::new(help))
                 .in_file_kind("shop"),
         ))
     };
     let folder = profile.parent().unwrap_or(Path::new("."));
-    let help = "the translation must be a Fluent (.ftl) file in the profile's folder";
+    let help = "diag-translation-ftl";
     let limit = crate::input_file::MAX_INPUT_BYTES;
+    let written = file.value.as_str();
     let read = read_in_folder(folder, file.value.trim(), limit).map_err(|e| match e {
         InFolderError::NotInside { .. } => fail(
-            format!(
-                "the translation file `{}` is not inside the profile's folder",
-                file.value
-            ),
-            "expected a file name in the profile's folder",
-            "put the translation beside shop.kdl (or in a folder below it) and name it relative to it, for example file=\"de.ftl\"",
+            Msg::new("diag-translation-outside").arg("path", written),
+            "diag-expected-in-profile-folder",
+            "diag-translation-keep-inside",
         ),
         InFolderError::LeadsOutside { real, .. } => fail(
-            format!(
-                "the translation file `{}` leads outside the profile's folder (to {})",
-                file.value,
-                real.display()
-            ),
-            "leads outside",
-            "copy the translation into the profile's folder instead of linking to it",
+            Msg::new("diag-translation-link")
+                .arg("path", written)
+                .arg("target", real.display().to_string()),
+            "diag-leads-outside",
+            "diag-translation-copy",
         ),
         InFolderError::NotAFile { path } => fail(
-            format!("the translation file {} is not a regular file", path.display()),
-            "not a file",
+            Msg::new("diag-translation-not-file").arg("path", path.display().to_string()),
+            "diag-not-a-file",
             help,
         ),
         InFolderError::TooLarge { path, .. } => fail(
-            crate::input_file::InputFileError::TooLarge {
-                what: "translation file",
-                path: path.display().to_string(),
-            }
-            .to_string(),
-            "this file",
+            too_large(path.display().to_string()),
+            "diag-this-file",
             help,
         ),
         InFolderError::Io { path, source } => fail(
-            format!("cannot read the translation file {}: {source}", path.display()),
-            "this file",
+            Msg::new("diag-translation-cannot-read")
+                .arg("path", path.display().to_string())
+                .arg("error", source.to_string()),
+            "diag-this-file",
             help,
         ),
     })?;
@@ -100,12 +91,33 @@ pub fn read_translation(
         "translation file",
     )
     .map_err(|e| {
-        fail(
-            e.to_string(),
-            "this file",
-            "the translation must be a UTF-8 Fluent (.ftl) file in the profile's folder",
-        )
+        let message = match e {
+            InputFileError::Io { path, source, .. } => Msg::new("diag-translation-cannot-read")
+                .arg("path", path)
+                .arg("error", source.to_string()),
+            InputFileError::TooLarge { path, .. } => too_large(path),
+            InputFileError::NotUtf8 {
+                path,
+                line,
+                column,
+                byte,
+                ..
+            } => Msg::new("diag-translation-not-utf8")
+                .arg("place", format!("{path}:{line}:{column}"))
+                .arg("byte", format!("0x{byte:02x}")),
+        };
+        fail(message, "diag-this-file", "diag-translation-utf8-ftl")
     })?;
     Catalogue::from_translation(&language.tag.value, &place.display().to_string(), &text)
         .map_err(|d| TranslationError::File(Box::new(d)))
+}
+
+/// A translation file past the size every input text file is held to.
+fn too_large(path: String) -> Msg {
+    Msg::new("diag-translation-too-large")
+        .arg("path", path)
+        .arg(
+            "limit",
+            (crate::input_file::MAX_INPUT_BYTES / (1024 * 1024)).to_string(),
+        )
 }

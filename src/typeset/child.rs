@@ -29,10 +29,10 @@ impl Captured {
     pub fn text(&self) -> String {
         let mut text = String::from_utf8_lossy(&self.bytes).trim().to_owned();
         if self.dropped > 0 {
-            text.push_str(&format!(
-                "\n[… {} more bytes of output not shown]",
-                self.dropped
-            ));
+            // Kept with the program's own output, before the reader's
+            // language is known: English.
+            let note = Msg::new("cli-program-more-output").arg("bytes", self.dropped.to_string());
+            text.push_str(&format!("\n[{}]", note.english()));
         }
         text
     }

@@ -261,10 +261,11 @@ impl TypesetError {
         }
     }
 
-    fn message_in(&self, catalogue: &Catalogue) -> String {
+    /// The message alone in the words of `catalogue`.
+    pub fn message_in(&self, catalogue: &Catalogue) -> String {
         match (self, self.words()) {
             (_, Some((message, _))) => catalogue.say(&message),
-            (Self::Output(e), None) => e.to_string(),
+            (Self::Output(e), None) => e.message_in(catalogue),
             (_, None) => String::new(),
         }
     }
@@ -272,7 +273,7 @@ impl TypesetError {
     fn help_in(&self, catalogue: &Catalogue) -> Option<String> {
         match (self, self.words()) {
             (_, Some((_, help))) => help.map(|h| catalogue.say(&h)),
-            (Self::Output(e), None) => e.help().map(|h| h.to_string()),
+            (Self::Output(e), None) => Some(e.help_in(catalogue)),
             (_, None) => None,
         }
     }

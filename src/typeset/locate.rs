@@ -38,14 +38,12 @@ impl TypstProgram {
     /// series: it is used anyway, but layout may differ.
     pub fn version_warning(&self) -> Option<String> {
         (self.version >= MAX_TYPST_EXCLUSIVE).then(|| {
-            format!(
-                "{} is typst {}, newer than the tested {}.{}.x series; \
-                 the document may look different",
-                self.path.display(),
-                self.version,
-                MIN_TYPST.major,
-                MIN_TYPST.minor,
-            )
+            // Found before any shop profile is read: English.
+            Msg::new("cli-typst-newer")
+                .arg("path", self.path.display().to_string())
+                .arg("version", self.version.to_string())
+                .arg("series", format!("{}.{}", MIN_TYPST.major, MIN_TYPST.minor))
+                .english()
         })
     }
 }

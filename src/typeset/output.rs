@@ -23,84 +23,197 @@
 //!   refused, and so is an output inside an input folder (the `--templates`
 //!   folder, whose files are all read).
 
+use std::fmt;
 use std::path::{Path, PathBuf};
 
-/// A path the run reads, with what it is in words ("the job file").
-#[derive(Debug, Clone, PartialEq, Eq)]
+use miette::Diagnostic;
+
+use crate::catalogue::{Catalogue, Msg};
+
+/// A path the run reads, with what it is in words ("the job file", a
+/// `cli-input-…` message).
+#[derive(Debug, Clone, PartialEq)]
 pub struct Input {
     pub path: PathBuf,
-    pub what: String,
+    pub what: Msg,
 }
 
 impl Input {
-    pub fn new(path: impl Into<PathBuf>, what: impl Into<String>) -> Self {
+    /// `path`, read as `what` (the key of a `cli-input-…` message).
+    pub fn new(path: impl Into<PathBuf>, what: &'static str) -> Self {
         Self {
             path: path.into(),
-            what: what.into(),
+            what: Msg::new(what),
         }
     }
 }
 
 /// Why an output path is refused. Nothing has been written when this is
-/// returned.
-#[derive(Debug, Clone, PartialEq, Eq, thiserror::Error, miette::Diagnostic)]
+/// returned. Its words are the catalogue's (`cli-output-…`): `Display` and
+/// the help are English, [`OutputRefused::in_language`] says them in the
+/// reader's language.
+#[derive(Debug, Clone, PartialEq)]
 pub enum OutputRefused {
-    #[error("the output {} names a folder, not a file", path.display())]
-    #[diagnostic(
-        code(ampreport::output::folder),
-        help("name the file, for example `-o {}`", path.join("report.pdf").display())
-    )]
-    Folder { path: PathBuf },
-
-    #[error("the output {} is a symbolic link (to {}); ampreport does not write through links", path.display(), target.display())]
-    #[diagnostic(
-        code(ampreport::output::link),
-        help("name the file itself with `-o`, or remove the link")
-    )]
-    Link { path: PathBuf, target: PathBuf },
-
-    #[error("the output {} exists and is {kind}, not a regular file", path.display())]
-    #[diagnostic(
-        code(ampreport::output::not_a_file),
-        help("ampreport writes only over a regular file; name another path with `-o`")
-    )]
-    NotAFile { path: PathBuf, kind: &'static str },
-
-    #[error("the folder of the output {} does not exist", path.display())]
-    #[diagnostic(
-        code(ampreport::output::no_folder),
-        help("create the folder first, or name another path with `-o`")
-    )]
-    NoFolder { path: PathBuf },
-
-    #[error("the output {} is {what} ({}); writing there would destroy it", path.display(), input.display())]
-    #[diagnostic(code(ampreport::output::is_input), help("name another path with `-o`"))]
+    Folder {
+        path: PathBuf,
+    },
+    Link {
+        path: PathBuf,
+        target: PathBuf,
+    },
+    /// `kind` is the key of the kind's words (`cli-kind-fifo`).
+    NotAFile {
+        path: PathBuf,
+        kind: &'static str,
+    },
+    NoFolder {
+        path: PathBuf,
+    },
     IsInput {
         path: PathBuf,
         input: PathBuf,
-        what: String,
+        what: Msg,
     },
-
-    #[error("the output {} is inside {what} ({})", path.display(), input.display())]
-    #[diagnostic(
-        code(ampreport::output::inside_input),
-        help(
-            "ampreport reads every file in that folder; write the output somewhere else with `-o`"
-        )
-    )]
     InsideInput {
         path: PathBuf,
         input: PathBuf,
-        what: String,
+        what: Msg,
     },
-
-    #[error("the source folder {} {problem}", path.display())]
-    #[diagnostic(code(ampreport::output::emit_folder), help("{help}"))]
     EmitFolder {
         path: PathBuf,
-        problem: String,
-        help: String,
+        problem: Msg,
+        help: Msg,
     },
+}
+
+fn shown(path: &Path) -> String {
+    path.display().to_string()
+}
+
+impl OutputRefused {
+    /// The message and its help, not yet said.
+    fn words(&self) -> (Msg, Msg) {
+        match self {
+            Self::Folder { path } => (
+                Msg::new("cli-output-folder").arg("path", shown(path)),
+                Msg::new("cli-output-folder-help").arg("example", shown(&path.join("report.pdf"))),
+            ),
+            Self::Link { path, target } => (
+                Msg::new("cli-output-link")
+                    .arg("path", shown(path))
+                    .arg("target", shown(target)),
+                Msg::new("cli-output-link-help"),
+            ),
+            Self::NotAFile { path, kind } => (
+                Msg::new("cli-output-not-a-file")
+                    .arg("path", shown(path))
+                    .arg("kind", Msg::new(kind)),
+                Msg::new("cli-output-not-a-file-help"),
+            ),
+            Self::NoFolder { path } => (
+                Msg::new("cli-output-no-folder").arg("path", shown(path)),
+                Msg::new("cli-output-no-folder-help"),
+            ),
+            Self::IsInput { path, input, what } => (
+                Msg::new("cli-output-is-input")
+                    .arg("path", shown(path))
+                    .arg("input", shown(input))
+                    .arg("what", what.clone()),
+                Msg::new("cli-output-is-input-help"),
+            ),
+            Self::InsideInput { path, input, what } => (
+                Msg::new("cli-output-inside-input")
+                    .arg("path", shown(path))
+                    .arg("input", shown(input))
+                    .arg("what", what.clone()),
+                Msg::new("cli-output-inside-input-help"),
+            ),
+            Self::EmitFolder {
+                path,
+                problem,
+                help,
+            } => (
+                Msg::new("cli-emit-folder")
+                    .arg("path", shown(path))
+                    .arg("problem", problem.clone()),
+                help.clone(),
+            ),
+        }
+    }
+
+    fn code_words(&self) -> &'static str {
+        match self {
+            Self::Folder { .. } => "ampreport::output::folder",
+            Self::Link { .. } => "ampreport::output::link",
+            Self::NotAFile { .. } => "ampreport::output::not_a_file",
+            Self::NoFolder { .. } => "ampreport::output::no_folder",
+            Self::IsInput { .. } => "ampreport::output::is_input",
+            Self::InsideInput { .. } => "ampreport::output::inside_input",
+            Self::EmitFolder { .. } => "ampreport::output::emit_folder",
+        }
+    }
+
+    /// The message in the words of `catalogue`.
+    pub fn message_in(&self, catalogue: &Catalogue) -> String {
+        catalogue.say(&self.words().0)
+    }
+
+    /// The help in the words of `catalogue`.
+    pub fn help_in(&self, catalogue: &Catalogue) -> String {
+        catalogue.say(&self.words().1)
+    }
+
+    /// The same refusal, code and all, in the words of `catalogue`.
+    pub fn in_language(self, catalogue: &Catalogue) -> RefusedInLanguage {
+        RefusedInLanguage {
+            refused: self,
+            catalogue: catalogue.clone(),
+        }
+    }
+}
+
+impl fmt::Display for OutputRefused {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        f.write_str(&self.message_in(Catalogue::english()))
+    }
+}
+
+impl std::error::Error for OutputRefused {}
+
+impl Diagnostic for OutputRefused {
+    fn code<'a>(&'a self) -> Option<Box<dyn fmt::Display + 'a>> {
+        Some(Box::new(self.code_words()))
+    }
+
+    fn help<'a>(&'a self) -> Option<Box<dyn fmt::Display + 'a>> {
+        Some(Box::new(self.help_in(Catalogue::english())))
+    }
+}
+
+/// An output refusal said in a reader's language
+/// ([`OutputRefused::in_language`]).
+#[derive(Debug)]
+pub struct RefusedInLanguage {
+    refused: OutputRefused,
+    catalogue: Catalogue,
+}
+
+impl fmt::Display for RefusedInLanguage {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        f.write_str(&self.refused.message_in(&self.catalogue))
+    }
+}
+
+impl std::error::Error for RefusedInLanguage {}
+
+impl Diagnostic for RefusedInLanguage {
+    fn code<'a>(&'a self) -> Option<Box<dyn fmt::Display + 'a>> {
+        Some(Box::new(self.refused.code_words()))
+    }
+
+    fn help<'a>(&'a self) -> Option<Box<dyn fmt::Display + 'a>> {
+        Some(Box::new(self.refused.help_in(&self.catalogue)))
+    }
 }
 
 /// Checks that a file may be written at `output` by a run that reads
@@ -241,23 +354,23 @@ pub fn check_emit_folder(
     output: &Path,
     force: bool,
 ) -> Result<(), OutputRefused> {
-    let refuse = |problem: String, help: &str| OutputRefused::EmitFolder {
+    let refuse = |problem: Msg, help: &'static str| OutputRefused::EmitFolder {
         path: dir.to_path_buf(),
         problem,
-        help: help.to_owned(),
+        help: Msg::new(help),
     };
     if let Ok(meta) = std::fs::symlink_metadata(dir) {
         let kind = meta.file_type();
         if kind.is_symlink() {
             return Err(refuse(
-                "is a symbolic link; ampreport does not write through links".into(),
-                "name the folder itself, or remove the link",
+                Msg::new("cli-emit-folder-link"),
+                "cli-emit-folder-link-help",
             ));
         }
         if !kind.is_dir() {
             return Err(refuse(
-                format!("exists and is {}, not a folder", kind_words(&kind)),
-                "name a new or empty folder",
+                Msg::new("cli-emit-folder-not-a-folder").arg("kind", Msg::new(kind_words(&kind))),
+                "cli-emit-folder-new-help",
             ));
         }
         let has_entries = std::fs::read_dir(dir)
@@ -265,8 +378,8 @@ pub fn check_emit_folder(
             .unwrap_or(true);
         if has_entries && !force {
             return Err(refuse(
-                "is not empty".into(),
-                "name a new or empty folder, or add --force to replace everything in it",
+                Msg::new("cli-emit-folder-not-empty"),
+                "cli-emit-folder-not-empty-help",
             ));
         }
     }
@@ -289,16 +402,16 @@ pub fn check_emit_folder(
         || cwd.as_ref().is_some_and(|c| c.starts_with(&target))
     {
         return Err(refuse(
-            "is the root, home or current folder, or holds the current folder".into(),
-            "name a folder of its own for the source, such as `./handover-source`",
+            Msg::new("cli-emit-folder-too-wide"),
+            "cli-emit-folder-too-wide-help",
         ));
     }
-    let mut touched: Vec<(PathBuf, String)> = inputs
+    let mut touched: Vec<(PathBuf, Msg)> = inputs
         .iter()
         .map(|i| (i.path.clone(), i.what.clone()))
         .collect();
     if !crate::input_file::is_dash(output) {
-        touched.push((output.to_path_buf(), "the PDF output".to_owned()));
+        touched.push((output.to_path_buf(), Msg::new("cli-input-pdf-output")));
     }
     for (path, what) in touched {
         let Some(other) = resolved(&path) else {
@@ -306,8 +419,10 @@ pub fn check_emit_folder(
         };
         if other.starts_with(&target) || (path.is_dir() && target.starts_with(&other)) {
             return Err(refuse(
-                format!("overlaps {what} ({})", path.display()),
-                "name a folder of its own for the source, apart from the job, its inputs and the PDF",
+                Msg::new("cli-emit-folder-overlaps")
+                    .arg("what", what)
+                    .arg("path", shown(&path)),
+                "cli-emit-folder-overlaps-help",
             ));
         }
     }
@@ -349,26 +464,27 @@ fn same_file(_: &std::fs::Metadata, _: &std::fs::Metadata) -> bool {
     false
 }
 
+/// The key of the words for what a file is ("a FIFO (named pipe)").
 fn kind_words(kind: &std::fs::FileType) -> &'static str {
     #[cfg(unix)]
     {
         use std::os::unix::fs::FileTypeExt;
         if kind.is_fifo() {
-            return "a FIFO (named pipe)";
+            return "cli-kind-fifo";
         }
         if kind.is_char_device() || kind.is_block_device() {
-            return "a device";
+            return "cli-kind-device";
         }
         if kind.is_socket() {
-            return "a socket";
+            return "cli-kind-socket";
         }
     }
     if kind.is_dir() {
-        "a folder"
+        "cli-kind-folder"
     } else if kind.is_symlink() {
-        "a symbolic link"
+        "cli-kind-link"
     } else {
-        "not a regular file"
+        "cli-kind-other"
     }
 }
 
@@ -434,7 +550,7 @@ mod tests {
         assert!(matches!(
             check_output(Path::new("/dev/null"), &inputs),
             Err(OutputRefused::NotAFile {
-                kind: "a device",
+                kind: "cli-kind-device",
                 ..
             })
         ));

@@ -12,6 +12,7 @@ use miette::SourceSpan;
 use super::super::decode_error::DecodeError;
 use super::super::model::Job;
 use super::*;
+use crate::catalogue::{Arg, Msg};
 use crate::ratings::RatingsTable;
 
 /// Problems with the networks of `job`; `ratings`, when given, must hold μ
@@ -35,12 +36,12 @@ pub fn check(job: &Job, ratings: Option<&RatingsTable>) -> Vec<DecodeError> {
                     DecodeError::error(
                         "job::settings-count",
                         net.span,
-                        format!(
-                            "the network lists {b} settings before and {a} after; the curves are compared setting by setting"
-                        ),
-                        "settings do not line up",
+                        Msg::new("diag-net-settings-before-after")
+                            .arg("before", b)
+                            .arg("after", a),
+                        Msg::new("diag-net-settings-differ"),
                     )
-                    .with_help("list the same number of settings before and after (or one)"),
+                    .with_help(Msg::new("diag-net-settings-before-after-help")),
                 );
             }
             if let Some(osc) = &net.oscillator
@@ -50,11 +51,8 @@ pub fn check(job: &Job, ratings: Option<&RatingsTable>) -> Vec<DecodeError> {
                 out.push(DecodeError::error(
                     "job::unknown-part",
                     speed.span,
-                    format!(
-                        "the speed pot {} is removed by the mod's edits",
-                        speed.value
-                    ),
-                    "not in the network as left",
+                    Msg::new("diag-net-speed-removed").arg("name", speed.value.as_str()),
+                    Msg::new("diag-net-not-as-left"),
                 ));
             }
         }
@@ -96,13 +94,12 @@ fn check_valve(
             DecodeError::error(
                 "job::no-valve-figures",
                 valve.span,
-                format!(
-                    "{} ({}) has no typical μ and ra in the ratings table, so its output impedance cannot be worked out",
-                    valve.value, row.name
-                ),
-                "no μ and ra",
+                Msg::new("diag-net-no-mu-ra")
+                    .arg("position", valve.value.as_str())
+                    .arg("type", row.name.as_str()),
+                Msg::new("diag-net-no-mu-ra-label"),
             )
-            .with_help("give the source's `impedance=` instead, or add μ and ra to the ratings row (--ratings)"),
+            .with_help(Msg::new("diag-net-no-mu-ra-help")),
         );
     }
 }
@@ -111,8 +108,10 @@ fn check_valve(
 struct Edge<'a> {
     a: &'a str,
     b: &'a str,
-    /// What it is, in words: "R5", "VR1 (ccw to wiper)", "the source".
-    name: String,
+    /// What it is, in words: "R5", "VR1 (ccw end to wiper)", "the source".
+    name: Arg,
+    /// The ideal source (shorted when it closes a loop of ideal edges).
+    source: bool,
     /// An ideal connection: the ideal source or a link.
     ideal: bool,
     blame: SourceSpan,
@@ -126,7 +125,8 @@ fn edges(state: &NetworkState) -> Vec<Edge<'_>> {
     out.push(Edge {
         a: &src.node.value,
         b: GROUND,
-        name: "the source".into(),
+        name: Msg::new("diag-net-the-source").into(),
+        source: true,
         ideal: matches!(src.impedance, SourceImpedance::Ideal),
         blame: src.span,
         part: false,
@@ -135,7 +135,8 @@ fn edges(state: &NetworkState) -> Vec<Edge<'_>> {
         out.push(Edge {
             a: &state.load.node.value,
             b: GROUND,
-            name: "the load".into(),
+            name: Msg::new("diag-net-the-load").into(),
+            source: false,
             ideal: false,
             blame: state.load.span,
             part: false,
@@ -150,7 +151,11 @@ fn edges(state: &NetworkState) -> Vec<Edge<'_>> {
                         out.push(Edge {
                             a: &end.value,
                             b: &wiper.value,
-                            name: format!("{name} ({side} end to wiper)"),
+                            name: Msg::new("diag-net-pot-end")
+                                .arg("name", name.as_str())
+                                .arg("side", side)
+                                .into(),
+                            source: false,
                             ideal: false,
                             blame: p.blame(),
                             part: true,
@@ -161,7 +166,8 @@ fn edges(state: &NetworkState) -> Vec<Edge<'_>> {
             PartKind::Link { a, b } => out.push(Edge {
                 a: &a.value,
                 b: &b.value,
-                name,
+                name: name.into(),
+                source: false,
                 ideal: true,
                 blame: p.blame(),
                 part: true,
@@ -171,7 +177,8 @@ fn edges(state: &NetworkState) -> Vec<Edge<'_>> {
             | PartKind::Inductor { a, b, .. } => out.push(Edge {
                 a: &a.value,
                 b: &b.value,
-                name,
+                name: name.into(),
+                source: false,
                 ideal: false,
                 blame: p.blame(),
                 part: true,
@@ -211,19 +218,15 @@ fn check_state(
     edited: Option<&Network>,
     out: &mut Vec<DecodeError>,
 ) {
-    let after = if edited.is_some() {
-        " after the mod's edits"
-    } else {
-        ""
-    };
+    let after = if edited.is_some() { "yes" } else { "no" };
     let src = &state.source.node;
     let load = &state.load.node;
     if src.value == GROUND {
         out.push(DecodeError::error(
             "job::source-on-ground",
             src.span,
-            "the source cannot sit on `ground`: it drives a node against ground",
-            "source on ground",
+            Msg::new("diag-net-source-on-ground"),
+            Msg::new("diag-net-source-on-ground-label"),
         ));
         return;
     }
@@ -231,8 +234,8 @@ fn check_state(
         out.push(DecodeError::error(
             "job::load-on-ground",
             load.span,
-            "the response cannot be read at `ground`: name the node the load hangs on",
-            "load on ground",
+            Msg::new("diag-net-load-on-ground"),
+            Msg::new("diag-net-load-on-ground-label"),
         ));
         return;
     }
@@ -255,29 +258,25 @@ fn check_state(
     for e in edges.iter().filter(|e| e.ideal) {
         let (a, b) = (index[e.a], index[e.b]);
         if !ideal.join(a, b) {
-            let mut loop_names = ideal_path(&ideal_edges, e.a, e.b);
-            loop_names.push(e.name.clone());
-            let shorted_source = loop_names.iter().any(|n| n == "the source");
+            let mut loop_edges = ideal_path(&ideal_edges, e.a, e.b);
+            loop_edges.push(e);
+            let shorted_source = loop_edges.iter().any(|e| e.source);
+            let loop_names: Vec<Arg> = loop_edges.iter().map(|e| e.name.clone()).collect();
             out.push(
                 DecodeError::error(
                     "job::ideal-loop",
                     e.blame,
-                    format!(
-                        "{} form a loop of ideal connections{after}{}: the network cannot be solved",
-                        words_list(&loop_names),
-                        if shorted_source {
-                            " (the ideal source is shorted)"
-                        } else {
-                            ""
-                        }
-                    ),
-                    "closes a loop",
+                    Msg::new("diag-net-ideal-loop")
+                        .arg("parts", words_list(loop_names))
+                        .arg("after", after)
+                        .arg("shorted", if shorted_source { "yes" } else { "no" }),
+                    Msg::new("diag-net-closes-loop"),
                 )
-                .with_help(if shorted_source {
-                    "give the source its output `impedance=` or a `valve=`, or take out the link that shorts it"
+                .with_help(Msg::new(if shorted_source {
+                    "diag-net-shorted-source-help"
                 } else {
-                    "take out one of the links: two ideal paths between the same nodes say nothing more than one"
-                }),
+                    "diag-net-ideal-loop-help"
+                })),
             );
             return;
         }
@@ -306,25 +305,20 @@ fn check_state(
             .filter(|e| group.contains(&e.a) || group.contains(&e.b))
             .collect();
         let blame = blame_for(net, edited, &group, &touching);
-        let parts: Vec<String> = touching.iter().map(|e| e.name.clone()).collect();
-        let nodes: Vec<String> = group.iter().map(|n| format!("`{n}`")).collect();
+        let parts: Vec<Arg> = touching.iter().map(|e| e.name.clone()).collect();
+        let nodes: Vec<Arg> = group.iter().map(|n| Arg::from(format!("`{n}`"))).collect();
         out.push(
             DecodeError::error(
                 "job::floating-node",
                 blame,
-                format!(
-                    "{} {} connect{} to nothing that reaches ground{after} (only {}): the network cannot be solved",
-                    if group.len() == 1 { "node" } else { "nodes" },
-                    words_list(&nodes),
-                    if group.len() == 1 { "s" } else { "" },
-                    words_list(&parts)
-                ),
-                "floating",
+                Msg::new("diag-net-floating")
+                    .arg("count", group.len())
+                    .arg("nodes", words_list(nodes))
+                    .arg("after", after)
+                    .arg("parts", words_list(parts)),
+                Msg::new("diag-net-floating-label"),
             )
-            .with_help(format!(
-                "connect {} to the rest of the network, or check the node names for a typing slip",
-                if group.len() == 1 { "it" } else { "them" }
-            )),
+            .with_help(Msg::new("diag-net-floating-help").arg("count", group.len())),
         );
     }
     if !reported.is_empty() {
@@ -348,13 +342,13 @@ fn check_state(
             DecodeError::error(
                 "job::load-unreached",
                 load.span,
-                format!(
-                    "no part leads from the source's node `{}` to the load's node `{}`{after}, so the response is nil",
-                    src.value, load.value
-                ),
-                "not reached from the source",
+                Msg::new("diag-net-load-unreached")
+                    .arg("source", src.value.as_str())
+                    .arg("load", load.value.as_str())
+                    .arg("after", after),
+                Msg::new("diag-net-load-unreached-label"),
             )
-            .with_help("check the node names of the parts between them"),
+            .with_help(Msg::new("diag-net-load-unreached-help")),
         );
     }
 
@@ -371,15 +365,15 @@ fn check_state(
                         DecodeError::error(
                             "job::settings-count",
                             p.blame(),
-                            format!(
-                                "{} lists {} settings but {} lists {n}{after}: the k-th setting of every pot makes the network's k-th setting",
-                                p.reference.value,
-                                settings.len(),
-                                first.reference.value
-                            ),
-                            "settings do not line up",
+                            Msg::new("diag-net-pot-settings-differ")
+                                .arg("pot", p.reference.value.as_str())
+                                .arg("count", settings.len())
+                                .arg("first", first.reference.value.as_str())
+                                .arg("first_count", n)
+                                .arg("after", after),
+                            Msg::new("diag-net-settings-differ"),
                         )
-                        .with_help("list the same number of settings on each pot, or one setting for a pot that stays put"),
+                        .with_help(Msg::new("diag-net-pot-settings-help")),
                     );
                 }
                 Some(_) => {}
@@ -429,9 +423,9 @@ fn blame_for(
     touching.first().map(|e| e.blame).unwrap_or(net.span)
 }
 
-/// The names of the ideal edges on the path from `from` to `to` in a
-/// forest of ideal edges.
-fn ideal_path(edges: &[&Edge], from: &str, to: &str) -> Vec<String> {
+/// The ideal edges on the path from `from` to `to` in a forest of ideal
+/// edges.
+fn ideal_path<'e, 'a>(edges: &[&'e Edge<'a>], from: &str, to: &str) -> Vec<&'e Edge<'a>> {
     // Breadth-first search, remembering the edge that reached each node.
     let mut came: HashMap<&str, Option<usize>> = HashMap::new();
     came.insert(from, None);
@@ -458,18 +452,31 @@ fn ideal_path(edges: &[&Edge], from: &str, to: &str) -> Vec<String> {
     let mut at = to;
     while let Some(Some(i)) = came.get(at) {
         let e = edges[*i];
-        path.push(e.name.clone());
+        path.push(e);
         at = if e.a == at { e.b } else { e.a };
     }
     path.reverse();
     path
 }
 
-/// "a", "a and b", "a, b and c".
-pub(crate) fn words_list(items: &[String]) -> String {
-    match items {
-        [] => String::new(),
-        [one] => one.clone(),
-        [rest @ .., last] => format!("{} and {last}", rest.join(", ")),
+/// "a", "a and b", "a, b and c", said in the reader's language (each item
+/// may itself be a message).
+pub(crate) fn words_list(mut items: Vec<Arg>) -> Arg {
+    let Some(last) = items.pop() else {
+        return Arg::from("");
+    };
+    let Some(before) = items.pop() else {
+        return last;
+    };
+    let mut list: Arg = Msg::new("diag-list-pair")
+        .arg("first", before)
+        .arg("last", last)
+        .into();
+    while let Some(item) = items.pop() {
+        list = Msg::new("diag-list-more")
+            .arg("first", item)
+            .arg("rest", list)
+            .into();
     }
+    list
 }

@@ -3,10 +3,11 @@
 
 use kdl::{KdlEntry, KdlNode, KdlValue};
 
-use super::super::decode_error::{DecodeError, suggestion_help};
+use super::super::decode_error::{DecodeError, suggestion};
 use super::super::model::Spanned;
 use super::super::reader::Reader;
 use super::*;
+use crate::catalogue::{Arg, Msg};
 use crate::units::{Farads, Henries, Ohms, QuantityKind as Q};
 
 /// Every child node of `network`.
@@ -42,9 +43,13 @@ const GROUND_LOOKALIKES: &[&str] = &["0", "gnd", "GND", "Gnd", "earth", "chassis
 pub fn decode_network(node: &KdlNode, r: &mut Reader) -> Option<Network> {
     r.check_entries(node, &[], 1);
     let label = Reader::arg(node, 0)
-        .and_then(|e| r.string(e, "the network's label"))
+        .and_then(|e| r.string(e, Msg::new("diag-net-label")))
         .map(|s| s.value);
-    let children = r.children(node.children(), NETWORK_NODES, "a `network`");
+    let children = r.children(
+        node.children(),
+        NETWORK_NODES,
+        Msg::new("diag-in-a-node").arg("node", "network"),
+    );
     let mut source: Option<Source> = None;
     let mut load: Option<Load> = None;
     let mut parts: Vec<Part> = Vec::new();
@@ -100,10 +105,13 @@ pub fn decode_network(node: &KdlNode, r: &mut Reader) -> Option<Network> {
             DecodeError::error(
                 "job::missing",
                 span,
-                "a `network` needs a `source`",
-                "source missing",
+                Msg::new("diag-net-needs-source"),
+                Msg::new("diag-net-source-missing"),
             )
-            .with_help("for example: source node=in valve=V1 plate-load=\"100k\""),
+            .with_help(
+                Msg::new("diag-for-example")
+                    .arg("example", "source node=in valve=V1 plate-load=\"100k\""),
+            ),
         );
     }
     if load.is_none() && !broken {
@@ -111,10 +119,12 @@ pub fn decode_network(node: &KdlNode, r: &mut Reader) -> Option<Network> {
             DecodeError::error(
                 "job::missing",
                 span,
-                "a `network` needs a `load`: the node the response is read at",
-                "load missing",
+                Msg::new("diag-net-needs-load"),
+                Msg::new("diag-net-load-missing"),
             )
-            .with_help("for example: load node=out resistance=\"1M\""),
+            .with_help(
+                Msg::new("diag-for-example").arg("example", "load node=out resistance=\"1M\""),
+            ),
         );
     }
     let before = NetworkState {
@@ -140,16 +150,13 @@ pub fn decode_network(node: &KdlNode, r: &mut Reader) -> Option<Network> {
                 DecodeError::error(
                     "job::unknown-part",
                     speed.span,
-                    format!(
-                        "the speed control {} is not a pot of this network",
-                        speed.value
-                    ),
-                    "no such pot",
+                    Msg::new("diag-net-speed-not-pot").arg("name", speed.value.as_str()),
+                    Msg::new("diag-net-no-such-pot"),
                 )
                 .with_help(if pots.is_empty() {
-                    "add the speed pot as `pot REF value=… ccw=… wiper=…`".to_string()
+                    Msg::new("diag-net-add-speed-pot")
                 } else {
-                    suggestion_help(&speed.value, &pots)
+                    suggestion(&speed.value, &pots)
                 }),
             );
         }
@@ -168,11 +175,8 @@ fn once(r: &mut Reader, node: &KdlNode, seen: bool) {
         r.push(DecodeError::error(
             "job::repeated-node",
             Reader::name_span(node),
-            format!(
-                "a network has one `{}`; this is a second",
-                node.name().value()
-            ),
-            "repeated here",
+            Msg::new("diag-net-one-node").arg("node", node.name().value()),
+            Msg::new("diag-repeated-here"),
         ));
     }
 }
@@ -181,10 +185,10 @@ fn repeated_reference(part: &Part) -> DecodeError {
     DecodeError::error(
         "job::repeated-part",
         part.reference.span,
-        format!("the network already has a part {}", part.reference.value),
-        "repeated reference",
+        Msg::new("diag-net-part-twice").arg("name", part.reference.value.as_str()),
+        Msg::new("diag-net-repeated-reference"),
     )
-    .with_help("give each part its own reference")
+    .with_help(Msg::new("diag-net-own-reference"))
 }
 
 /// A node name: text or a bare identifier; `ground` is the reference node.
@@ -206,13 +210,10 @@ fn ground_lookalike(r: &mut Reader, name: &Spanned<String>) {
             DecodeError::error(
                 "job::ground-name",
                 name.span,
-                format!(
-                    "`{}` is not the reference node's name in a job file",
-                    name.value
-                ),
-                "write `ground`",
+                Msg::new("diag-net-not-ground").arg("name", name.value.as_str()),
+                Msg::new("diag-net-write-ground"),
             )
-            .with_help("the reference node of a network is written `ground`"),
+            .with_help(Msg::new("diag-net-ground-help")),
         );
     }
 }
@@ -243,14 +244,14 @@ fn decode_source(node: &KdlNode, r: &mut Reader) -> Option<Source> {
                     DecodeError::error(
                         "job::conflicting-property",
                         e.span(),
-                        "a source with a given `impedance` takes no valve figures",
-                        "not with `impedance`",
+                        Msg::new("diag-net-impedance-no-valve"),
+                        Msg::new("diag-net-not-with-impedance"),
                     )
-                    .with_help("give either `impedance=`, or `valve=` with `plate-load=`"),
+                    .with_help(Msg::new("diag-net-impedance-or-valve")),
                 );
             }
             let q = r.quantity(z, Q::Resistance, "`impedance`");
-            let q = r.positive(q, "a source impedance", false)?;
+            let q = r.positive(q, Msg::new("diag-net-source-impedance"), false)?;
             SourceImpedance::Given {
                 ohms: Ohms(q.value),
             }
@@ -260,18 +261,18 @@ fn decode_source(node: &KdlNode, r: &mut Reader) -> Option<Source> {
                 DecodeError::error(
                     "job::conflicting-property",
                     z.span(),
-                    "a source is either a valve stage or has a given `impedance`, not both",
-                    "remove one",
+                    Msg::new("diag-net-valve-and-impedance"),
+                    Msg::new("diag-net-remove-one"),
                 )
-                .with_help("the valve's output impedance comes from its ra and the plate load"),
+                .with_help(Msg::new("diag-net-valve-impedance-help")),
             );
             return None;
         }
         (None, Some(valve)) => {
             let pl = r.req_prop_quantity(node, "plate-load", Q::Resistance, example);
-            let pl = r.positive(pl, "a plate load", false)?;
+            let pl = r.positive(pl, Msg::new("diag-net-plate-load"), false)?;
             let k = cathode.and_then(|e| r.quantity(e, Q::Resistance, "`cathode-resistor`"));
-            let k = r.positive(k, "a cathode resistor", false);
+            let k = r.positive(k, Msg::new("diag-net-cathode-resistor"), false);
             SourceImpedance::Valve {
                 valve,
                 plate_load: Ohms(pl.value),
@@ -283,8 +284,8 @@ fn decode_source(node: &KdlNode, r: &mut Reader) -> Option<Source> {
                 r.push(DecodeError::error(
                     "job::missing",
                     e.span(),
-                    "a plate load or cathode resistor needs the source's `valve=`",
-                    "no valve named",
+                    Msg::new("diag-net-needs-valve"),
+                    Msg::new("diag-net-no-valve-named"),
                 ));
             }
             SourceImpedance::Ideal
@@ -302,7 +303,7 @@ fn decode_load(node: &KdlNode, r: &mut Reader) -> Option<Load> {
     r.no_children(node);
     let at = node_name(r, node, "node", "load node=out resistance=\"1M\"");
     let res = r.opt_prop_quantity(node, "resistance", Q::Resistance);
-    let res = r.positive(res, "a load resistance", false);
+    let res = r.positive(res, Msg::new("diag-net-load-resistance"), false);
     Some(Load {
         node: at?,
         resistance: res.map(|q| Ohms(q.value)),
@@ -320,7 +321,7 @@ fn decode_part(node: &KdlNode, r: &mut Reader) -> Option<Part> {
         "link" => "link S1 from=a to=b",
         _ => "pot VR1 value=\"250k\" taper=audio ccw=ground wiper=out cw=in setting=5",
     };
-    let reference = r.req_arg_name(node, "a reference", example);
+    let reference = r.req_arg_name(node, Msg::new("diag-what-reference"), example);
     let kind = if kind_name == "pot" {
         r.check_entries(
             node,
@@ -328,7 +329,7 @@ fn decode_part(node: &KdlNode, r: &mut Reader) -> Option<Part> {
             1,
         );
         let value = r.req_prop_quantity(node, "value", Q::Resistance, example);
-        let value = r.positive(value, "a pot's track resistance", false);
+        let value = r.positive(value, Msg::new("diag-net-track-resistance"), false);
         let taper = match Reader::prop(node, "taper") {
             None => Some(Taper::Linear),
             Some(e) => taper(r, e),
@@ -341,8 +342,8 @@ fn decode_part(node: &KdlNode, r: &mut Reader) -> Option<Part> {
                 DecodeError::error(
                     "job::missing",
                     Reader::name_span(node),
-                    "a pot needs at least one end of its track connected (`ccw=` or `cw=`)",
-                    "no end connected",
+                    Msg::new("diag-net-pot-needs-end"),
+                    Msg::new("diag-net-no-end"),
                 )
                 .with_help(example.to_string()),
             );
@@ -355,8 +356,8 @@ fn decode_part(node: &KdlNode, r: &mut Reader) -> Option<Part> {
                     DecodeError::error(
                         "job::missing",
                         Reader::name_span(node),
-                        "a pot needs its wiper `setting` (0 to 10; several may be listed, \"3 7\")",
-                        "setting missing",
+                        Msg::new("diag-net-pot-needs-setting"),
+                        Msg::new("diag-net-setting-missing"),
                     )
                     .with_help(example.to_string()),
                 );
@@ -393,7 +394,7 @@ fn decode_part(node: &KdlNode, r: &mut Reader) -> Option<Part> {
                 _ => Q::Inductance,
             };
             let v = r.req_prop_quantity(node, "value", q, example);
-            Some(r.positive(v, q.noun(), false)?.value)
+            Some(r.positive(v, q.noun_msg(), false)?.value)
         };
         let a = node_name(r, node, "from", example);
         let b = node_name(r, node, "to", example);
@@ -431,13 +432,12 @@ fn decode_part(node: &KdlNode, r: &mut Reader) -> Option<Part> {
                 DecodeError::error(
                     "job::same-node",
                     n.span,
-                    format!(
-                        "{} connects node `{}` to itself",
-                        part.reference.value, n.value
-                    ),
-                    "same node twice",
+                    Msg::new("diag-net-same-node")
+                        .arg("part", part.reference.value.as_str())
+                        .arg("name", n.value.as_str()),
+                    Msg::new("diag-net-same-node-label"),
                 )
-                .with_help("each terminal of a part goes to a different node"),
+                .with_help(Msg::new("diag-net-same-node-help")),
             );
             return None;
         }
@@ -454,10 +454,10 @@ fn taper(r: &mut Reader, e: &KdlEntry) -> Option<Taper> {
                 DecodeError::error(
                     "job::unknown-taper",
                     name.span,
-                    format!("unknown pot taper `{}`", name.value),
-                    "expected linear or audio",
+                    Msg::new("diag-net-unknown-taper").arg("name", name.value.as_str()),
+                    Msg::new("diag-net-expected-taper"),
                 )
-                .with_help(suggestion_help(&name.value, &Taper::NAMES)),
+                .with_help(suggestion(&name.value, &Taper::NAMES)),
             );
             None
         }
@@ -468,15 +468,15 @@ fn taper(r: &mut Reader, e: &KdlEntry) -> Option<Taper> {
 /// from 0 to 10.
 fn settings(r: &mut Reader, e: &KdlEntry) -> Option<Vec<f64>> {
     let span = r.value_span(e);
-    let bad = |r: &mut Reader, at, found: &str| {
+    let bad = |r: &mut Reader, at, found: Arg| {
         r.push(
             DecodeError::error(
                 "job::bad-setting",
                 at,
-                format!("a pot setting runs from 0 to 10, found {found}"),
-                "expected 0 to 10",
+                Msg::new("diag-net-bad-setting").arg("found", found),
+                Msg::new("diag-net-expected-setting"),
             )
-            .with_help("write one setting, setting=5, or several in quotes, setting=\"3 7\""),
+            .with_help(Msg::new("diag-net-setting-help")),
         );
     };
     let mut out = Vec::new();
@@ -495,7 +495,11 @@ fn settings(r: &mut Reader, e: &KdlEntry) -> Option<Vec<f64>> {
                         match word.parse::<f64>() {
                             Ok(v) => out.push((v, at)),
                             Err(_) => {
-                                bad(r, at, &format!("`{word}`"));
+                                bad(
+                                    r,
+                                    at,
+                                    Msg::new("diag-net-found-word").arg("word", word).into(),
+                                );
                                 return None;
                             }
                         }
@@ -506,17 +510,17 @@ fn settings(r: &mut Reader, e: &KdlEntry) -> Option<Vec<f64>> {
             }
         }
         other => {
-            bad(r, span, &format!("{other}"));
+            bad(r, span, Arg::from(format!("{other}")));
             return None;
         }
     }
     if out.is_empty() {
-        bad(r, span, "nothing");
+        bad(r, span, Msg::new("diag-net-found-nothing").into());
         return None;
     }
     for (v, at) in &out {
         if !(0.0..=SETTING_MAX).contains(v) || !v.is_finite() {
-            bad(r, *at, &v.to_string());
+            bad(r, *at, Arg::from(v.to_string()));
             return None;
         }
     }
@@ -524,11 +528,10 @@ fn settings(r: &mut Reader, e: &KdlEntry) -> Option<Vec<f64>> {
         r.push(DecodeError::error(
             "job::too-many-settings",
             span,
-            format!(
-                "a pot may list at most {MAX_SETTINGS} settings, found {}",
-                out.len()
-            ),
-            "too many",
+            Msg::new("diag-net-too-many-settings")
+                .arg("max", MAX_SETTINGS)
+                .arg("count", out.len()),
+            Msg::new("diag-net-too-many"),
         ));
         return None;
     }
@@ -561,7 +564,9 @@ fn decode_after(node: &KdlNode, before: &NetworkState, r: &mut Reader) -> Vec<Ed
                     r.check_entries(child, &[], 1);
                 }
                 r.no_children(child);
-                let Some(reference) = r.req_arg_name(child, "a part's reference", example) else {
+                let Some(reference) =
+                    r.req_arg_name(child, Msg::new("diag-net-part-reference"), example)
+                else {
                     continue;
                 };
                 let Some(idx) = present.iter().position(|(p, _)| *p == reference.value) else {
@@ -570,17 +575,20 @@ fn decode_after(node: &KdlNode, before: &NetworkState, r: &mut Reader) -> Vec<Ed
                         DecodeError::error(
                             "job::unknown-part",
                             reference.span,
-                            format!("the network has no part {} to {name}", reference.value),
-                            "no such part",
+                            Msg::new(if name == "remove" {
+                                "diag-net-no-part-to-remove"
+                            } else {
+                                "diag-net-no-part-to-change"
+                            })
+                            .arg("name", reference.value.as_str()),
+                            Msg::new("diag-net-no-such-part"),
                         )
                         .with_help(if names.is_empty() {
-                            "the network has no parts yet".to_string()
+                            Msg::new("diag-net-no-parts-yet")
                         } else {
-                            format!(
-                                "{}; to fit a new part, write it as `resistor {} value=… from=… to=…` (or capacitor, inductor, link, pot)",
-                                suggestion_help(&reference.value, &names),
-                                reference.value
-                            )
+                            Msg::new("diag-net-fit-new-part")
+                                .arg("suggestion", suggestion(&reference.value, &names))
+                                .arg("name", reference.value.as_str())
                         }),
                     );
                     continue;
@@ -598,7 +606,7 @@ fn decode_after(node: &KdlNode, before: &NetworkState, r: &mut Reader) -> Vec<Ed
                 let value = match (Reader::prop(child, "value"), kind.quantity()) {
                     (Some(e), Some(q)) => {
                         let v = r.quantity(e, q, "`value`");
-                        match r.positive(v, q.noun(), false) {
+                        match r.positive(v, q.noun_msg(), false) {
                             Some(v) => Some(v.value),
                             None => continue,
                         }
@@ -607,8 +615,9 @@ fn decode_after(node: &KdlNode, before: &NetworkState, r: &mut Reader) -> Vec<Ed
                         r.push(DecodeError::error(
                             "job::not-applicable",
                             e.span(),
-                            format!("{} is a link and has no value", reference.value),
-                            "not for a link",
+                            Msg::new("diag-net-link-no-value")
+                                .arg("name", reference.value.as_str()),
+                            Msg::new("diag-net-not-for-link"),
                         ));
                         continue;
                     }
@@ -622,8 +631,10 @@ fn decode_after(node: &KdlNode, before: &NetworkState, r: &mut Reader) -> Vec<Ed
                             r.push(DecodeError::error(
                                 "job::not-applicable",
                                 e.span(),
-                                format!("{} is not a pot, so it has no `{key}`", reference.value),
-                                "only for pots",
+                                Msg::new("diag-net-not-a-pot")
+                                    .arg("name", reference.value.as_str())
+                                    .arg("key", key),
+                                Msg::new("diag-net-only-pots"),
                             ));
                             continue;
                         }
@@ -639,14 +650,15 @@ fn decode_after(node: &KdlNode, before: &NetworkState, r: &mut Reader) -> Vec<Ed
                         DecodeError::error(
                             "job::missing",
                             Reader::name_span(child),
-                            format!("`change {}` says nothing to change", reference.value),
-                            "nothing changed",
+                            Msg::new("diag-net-nothing-to-change")
+                                .arg("name", reference.value.as_str()),
+                            Msg::new("diag-net-nothing-changed"),
                         )
-                        .with_help(if is_pot {
-                            "give `value=`, `setting=` or `taper=`"
+                        .with_help(Msg::new(if is_pot {
+                            "diag-net-give-pot-change"
                         } else {
-                            "give the new `value=`"
-                        }),
+                            "diag-net-give-value"
+                        })),
                     );
                     continue;
                 }
@@ -677,10 +689,12 @@ fn decode_after(node: &KdlNode, before: &NetworkState, r: &mut Reader) -> Vec<Ed
                     continue;
                 };
                 if present.iter().any(|(p, _)| *p == part.reference.value) {
-                    r.push(repeated_reference(&part).with_help(format!(
-                        "to change it write `change {} value=…`; to replace it, `remove {}` first",
-                        part.reference.value, part.reference.value
-                    )));
+                    r.push(
+                        repeated_reference(&part).with_help(
+                            Msg::new("diag-net-change-or-replace")
+                                .arg("name", part.reference.value.as_str()),
+                        ),
+                    );
                     continue;
                 }
                 present.push((part.reference.value.clone(), part.kind.clone()));
@@ -693,12 +707,10 @@ fn decode_after(node: &KdlNode, before: &NetworkState, r: &mut Reader) -> Vec<Ed
             DecodeError::warning(
                 "job::empty-after",
                 Reader::name_span(node),
-                "the `after` block changes nothing",
-                "no edits",
+                Msg::new("diag-net-empty-after"),
+                Msg::new("diag-net-no-edits"),
             )
-            .with_help(
-                "write the edits that make the network as left: change, remove, or a new part",
-            ),
+            .with_help(Msg::new("diag-net-empty-after-help")),
         );
     }
     out
