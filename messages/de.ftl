@@ -1265,7 +1265,7 @@ diag-photo-not-image = das Foto { $path } ist kein PNG- oder JPEG-Bild (sein Inh
     })
 diag-not-a-picture = kein Bild
 diag-photo-content-matters = ein Foto muss eine PNG- oder JPEG-Datei sein; es zählt nicht die Endung des Namens, sondern der Inhalt
-diag-photo-undecodable = das Foto { $path }: { $why }
+diag-photo-undecodable = das Foto { $path } { $why }
 diag-photo-save-again = das Foto in einem Bildprogramm öffnen und erneut als PNG oder JPEG speichern
 
 diag-part-needs-reference = `part` braucht eine Schaltungsbezeichnung oder `what=`
@@ -1634,6 +1634,31 @@ diag-translation-not-file = die Übersetzungsdatei { $path } ist keine gewöhnli
 diag-translation-too-large = die Übersetzungsdatei { $path } ist größer als { $limit } MiB; eine Übersetzung ist weit kleiner, wahrscheinlich ist es die falsche Datei
 diag-translation-cannot-read = die Übersetzungsdatei { $path } kann nicht gelesen werden: { $error }
 diag-translation-not-utf8 = { $place }: die Übersetzungsdatei ist kein UTF-8-Text (hier das Byte { $byte }); als UTF-8 speichern
+
+## Diagnosen zu Werten des Werkstattprofils, einem Muster für
+## Auftragsnummern, einem unbekannten Röhrentyp und einem Foto, das sich
+## nicht dekodieren lässt (src/shop/decode.rs, src/job/numbering.rs,
+## src/job/valve_types.rs, src/photo/mod.rs). `diag-pattern-…` ergänzen
+## `diag-bad-pattern`; die `diag-photo-…` unten ergänzen
+## `diag-photo-undecodable` als Satzende.
+
+diag-what-logo-name = der Dateiname des Logos
+diag-what-job-number-pattern = das Muster für Auftragsnummern
+diag-what-language = die Sprache
+diag-what-shop-format = die Formatversion des Werkstattprofils
+diag-what-shop-name = der Name der Werkstatt
+diag-what-paper-size = das Papierformat
+diag-what-warranty-text = der Text der Gewährleistung
+diag-pattern-not-closed = eine `{"{"}` wird nicht mit `{"}"}` geschlossen
+diag-pattern-not-opened = vor einer `{"}"}` steht keine `{"{"}`
+diag-pattern-unknown-piece = `{ $piece }` ist kein Baustein einer Auftragsnummer; {"{"}yyyy{"}"}, {"{"}yy{"}"}, {"{"}mm{"}"}, {"{"}dd{"}"}, {"{"}yymm{"}"} und eine Zählung {"{"}nnn{"}"} verwenden
+diag-pattern-slash = eine Auftragsnummer darf keinen Schrägstrich und kein Steuerzeichen enthalten (sie benennt die Datei des Auftrags)
+diag-pattern-one-count = eine Auftragsnummer braucht genau eine Zählung, etwa {"{"}nnn{"}"}; dieses Muster hat { $count }
+diag-valve-type-help = `ampreport tubes` zeigt die bekannten Typen; ein fehlender lässt sich mit einer Grenzwertdatei der Werkstatt ergänzen (--ratings DATEI)
+diag-valve-type-did-you-mean = meinten Sie { $names }? (`ampreport tubes` zeigt jeden Typ; eine Grenzwertdatei der Werkstatt kann einen ergänzen)
+diag-photo-too-large-to-decode = ist ein zu großes Bild zum Dekodieren (höchstens { $side } Pixel je Seite und { $megabytes } MB an Bildpunkten)
+diag-photo-does-not-decode = lässt sich nicht als Bild dekodieren ({ $error })
+diag-photo-not-encoded = konnte nicht neu kodiert werden ({ $error })
 
 ## Die übrigen Meldungen im Terminal (src/cli), in der Sprache des
 ## Werkstattprofils, sobald es gelesen ist; die Schlusszeile eines Stapels

@@ -1632,6 +1632,30 @@ diag-translation-too-large = the translation file { $path } is larger than { $li
 diag-translation-cannot-read = cannot read the translation file { $path }: { $error }
 diag-translation-not-utf8 = { $place }: the translation file is not UTF-8 text (byte { $byte } here); save it as UTF-8
 
+## Diagnostics of the shop profile's values, a job-number pattern, an
+## unknown valve type and a photo that does not decode
+## (src/shop/decode.rs, src/job/numbering.rs, src/job/valve_types.rs,
+## src/photo/mod.rs). `diag-pattern-…` complete `diag-bad-pattern`;
+## `diag-photo-…` below complete `diag-photo-undecodable`.
+
+diag-what-logo-name = the logo's file name
+diag-what-job-number-pattern = the job-number pattern
+diag-what-language = the language
+diag-what-shop-format = the shop-profile format version
+diag-what-shop-name = the shop's name
+diag-what-paper-size = the paper size
+diag-what-warranty-text = the warranty's text
+diag-pattern-not-closed = a `{"{"}` is not closed with `{"}"}`
+diag-pattern-not-opened = a `{"}"}` has no `{"{"}` before it
+diag-pattern-unknown-piece = `{ $piece }` is not a piece of a job number; use {"{"}yyyy{"}"}, {"{"}yy{"}"}, {"{"}mm{"}"}, {"{"}dd{"}"}, {"{"}yymm{"}"} and one {"{"}nnn{"}"}
+diag-pattern-slash = a job number may not hold a slash or a control character (it names the job's file)
+diag-pattern-one-count = a job number needs exactly one count, such as {"{"}nnn{"}"}; this pattern has { $count }
+diag-valve-type-help = see `ampreport tubes` for the known types, or add it with a shop ratings file (--ratings FILE)
+diag-valve-type-did-you-mean = did you mean { $names }? (`ampreport tubes` lists every type; a shop ratings file can add one)
+diag-photo-too-large-to-decode = is too large a picture to decode (at most { $side } pixels a side and { $megabytes } MB of pixels)
+diag-photo-does-not-decode = does not decode as a picture ({ $error })
+diag-photo-not-encoded = could not be encoded again ({ $error })
+
 ## The terminal's other messages: what the commands say besides a job's
 ## summary (src/cli), in the job's shop-profile language once it is read;
 ## a batch's closing summary in the language all its jobs share, else

@@ -394,6 +394,15 @@ fn compare_speaks_the_shop_language() {
         en.contains(&format!("{} figures changed", changes.len())),
         "{en}"
     );
+    // The sets compared, quoted as the language quotes.
+    assert_eq!(
+        de.lines().next().unwrap(),
+        "job.kdl „as found“ → job.kdl „as left“"
+    );
+    assert_eq!(
+        en.lines().next().unwrap(),
+        "job.kdl “as found” → job.kdl “as left”"
+    );
     let header = de.lines().nth(1).unwrap();
     for word in ["Messreihe", "Größe", "alt", "neu", "Änderung"] {
         assert!(header.contains(word), "{word} missing from {header}");

@@ -193,7 +193,7 @@ pub(crate) fn decode_charges(
             ),
         };
         r.check_entries(child, props, 1);
-        let description = r.req_arg_string(child, "a description", example);
+        let description = r.req_arg_string(child, Msg::new("diag-what-description"), example);
         let amount = line_amount(child, kind, example, r);
         if let (Some(description), Some(amount)) = (description, amount) {
             lines.push(ChargeLine {

@@ -10,6 +10,8 @@
 
 use chrono::{Datelike, NaiveDate};
 
+use crate::catalogue::Msg;
+
 /// The pattern used without a shop profile or `job-numbers`.
 pub const DEFAULT_PATTERN: &str = "{yyyy}-{nnn}";
 
@@ -31,8 +33,9 @@ pub struct Numbering {
 }
 
 impl Numbering {
-    /// Reads a pattern; the error says what is wrong in a sentence.
-    pub fn parse(pattern: &str) -> Result<Numbering, String> {
+    /// Reads a pattern; the error says what is wrong in a sentence (a
+    /// message of the catalogue).
+    pub fn parse(pattern: &str) -> Result<Numbering, Msg> {
         let mut pieces = Vec::new();
         let mut rest = pattern;
         let mut counts = 0;
@@ -41,7 +44,7 @@ impl Numbering {
                 Some(0) => {
                     let close = rest
                         .find('}')
-                        .ok_or_else(|| "a `{` is not closed with `}`".to_string())?;
+                        .ok_or_else(|| Msg::new("diag-pattern-not-closed"))?;
                     let name = &rest[1..close];
                     let piece = match name {
                         "yyyy" => Piece::Year4,
@@ -57,9 +60,8 @@ impl Numbering {
                             Piece::Count(n.len())
                         }
                         other => {
-                            return Err(format!(
-                                "`{{{other}}}` is not a piece of a job number; use {{yyyy}}, {{yy}}, {{mm}}, {{dd}}, {{yymm}} and one {{nnn}}"
-                            ));
+                            return Err(Msg::new("diag-pattern-unknown-piece")
+                                .arg("piece", format!("{{{other}}}")));
                         }
                     };
                     pieces.push(piece);
@@ -69,16 +71,13 @@ impl Numbering {
                     let end = found.unwrap_or(rest.len());
                     let text = &rest[..end];
                     if text.contains('}') {
-                        return Err("a `}` has no `{` before it".to_string());
+                        return Err(Msg::new("diag-pattern-not-opened"));
                     }
                     if text
                         .chars()
                         .any(|c| c.is_control() || c == '/' || c == '\\')
                     {
-                        return Err(
-                            "a job number may not hold a slash or a control character (it names the job's file)"
-                                .to_string(),
-                        );
+                        return Err(Msg::new("diag-pattern-slash"));
                     }
                     pieces.push(Piece::Text(text.to_string()));
                     rest = &rest[end..];
@@ -86,9 +85,7 @@ impl Numbering {
             }
         }
         if counts != 1 {
-            return Err(format!(
-                "a job number needs exactly one count, such as {{nnn}}; this pattern has {counts}"
-            ));
+            return Err(Msg::new("diag-pattern-one-count").arg("count", i64::from(counts)));
         }
         Ok(Numbering { pieces })
     }
@@ -173,7 +170,7 @@ mod tests {
 
     #[test]
     fn every_date_piece_is_filled_in() {
-        let n = Numbering::parse("{yyyy}/{nn}").unwrap_err();
+        let n = Numbering::parse("{yyyy}/{nn}").unwrap_err().english();
         assert!(n.contains("slash"), "{n}");
         let n = Numbering::parse("J{yyyy}{mm}{dd}-{nn}").unwrap();
         assert_eq!(n.next_id(day(2027, 3, 9), []), "J20270309-01");
@@ -193,7 +190,7 @@ mod tests {
             ("D-{nn", "not closed"),
             ("D-nn}", "no `{`"),
         ] {
-            let e = Numbering::parse(pattern).unwrap_err();
+            let e = Numbering::parse(pattern).unwrap_err().english();
             assert!(e.contains(words), "{pattern}: {e}");
         }
     }

@@ -49,12 +49,10 @@ pub fn check(job: &Job, ratings: &RatingsTable) -> Vec<DecodeError> {
             }
             Err(unknown) => {
                 let help = if unknown.suggestions.is_empty() {
-                    "see `ampreport tubes` for the known types, or add it with a shop ratings file (--ratings FILE)".to_string()
+                    Msg::new("diag-valve-type-help")
                 } else {
-                    format!(
-                        "did you mean {}? (`ampreport tubes` lists every type; a shop ratings file can add one)",
-                        unknown.suggestions.join(", ")
-                    )
+                    Msg::new("diag-valve-type-did-you-mean")
+                        .arg("names", unknown.suggestions.join(", "))
                 };
                 out.push(
                     DecodeError::error(

@@ -251,8 +251,8 @@ fn content_words(bytes: &[u8]) -> &'static str {
 
 /// Decodes the picture within the limits, turns it upright, shrinks it to
 /// the print box and encodes it again. The encoded bytes and the size, or
-/// why it failed in words.
-pub fn process(bytes: &[u8], format: PhotoFormat) -> Result<(Vec<u8>, u32, u32), String> {
+/// why it failed in words (a message of the catalogue).
+pub fn process(bytes: &[u8], format: PhotoFormat) -> Result<(Vec<u8>, u32, u32), Msg> {
     let mut reader = ImageReader::with_format(std::io::Cursor::new(bytes), format.image_format());
     let mut limits = image::Limits::default();
     limits.max_image_width = Some(MAX_PHOTO_SIDE);
@@ -260,11 +260,10 @@ pub fn process(bytes: &[u8], format: PhotoFormat) -> Result<(Vec<u8>, u32, u32),
     limits.max_alloc = Some(MAX_DECODE_BYTES);
     reader.limits(limits);
     let undecodable = |e: image::ImageError| match e {
-        image::ImageError::Limits(_) => format!(
-            "is too large a picture to decode (at most {MAX_PHOTO_SIDE} pixels a side and {} MB of pixels)",
-            MAX_DECODE_BYTES / (1024 * 1024)
-        ),
-        e => format!("does not decode as a picture ({e})"),
+        image::ImageError::Limits(_) => Msg::new("diag-photo-too-large-to-decode")
+            .arg("side", MAX_PHOTO_SIDE.to_string())
+            .arg("megabytes", (MAX_DECODE_BYTES / (1024 * 1024)).to_string()),
+        e => Msg::new("diag-photo-does-not-decode").arg("error", e.to_string()),
     };
     let mut decoder = reader.into_decoder().map_err(undecodable)?;
     if decoder.total_bytes() > MAX_DECODE_BYTES {
@@ -300,7 +299,7 @@ pub fn process(bytes: &[u8], format: PhotoFormat) -> Result<(Vec<u8>, u32, u32),
             pixels.write_to(&mut out, ImageFormat::Png)
         }
     };
-    written.map_err(|e| format!("could not be encoded again ({e})"))?;
+    written.map_err(|e| Msg::new("diag-photo-not-encoded").arg("error", e.to_string()))?;
     Ok((out.into_inner(), width, height))
 }
 

@@ -109,6 +109,11 @@ pub struct Comparison {
     pub sets_only_old: Vec<String>,
     pub sets_only_new: Vec<String>,
     pub changes: Vec<Change>,
+    /// For two sets of one job: the job and the two sets' labels, so the
+    /// table's heading can quote them in the reader's language (the JSON
+    /// keeps `old` and `new`).
+    #[serde(skip)]
+    pub sets: Option<(String, String, String)>,
 }
 
 fn round6(v: f64) -> f64 {
@@ -218,6 +223,7 @@ pub fn compare_sets(source: &str, old: &SetFindings, new: &SetFindings) -> Compa
         sets_only_old: Vec::new(),
         sets_only_new: Vec::new(),
         changes: set_changes(&new.label, old, new),
+        sets: Some((source.to_owned(), old.label.clone(), new.label.clone())),
     }
 }
 
@@ -263,6 +269,7 @@ pub fn compare_versions(
             .cloned()
             .collect(),
         changes,
+        sets: None,
     }
 }
 
@@ -343,7 +350,13 @@ fn subject_words(ch: &Change, cat: &Catalogue) -> String {
 
 /// The comparison as a table for the terminal, in the words of `cat`.
 pub fn render_text(c: &Comparison, cat: &Catalogue) -> String {
-    let mut out = format!("{} \u{2192} {}\n", c.old, c.new);
+    let set = |label: &str| cat.say(&Msg::new("cli-compare-set-name").arg("label", label));
+    let mut out = match &c.sets {
+        Some((source, old, new)) => {
+            format!("{source} {} \u{2192} {source} {}\n", set(old), set(new))
+        }
+        None => format!("{} \u{2192} {}\n", c.old, c.new),
+    };
     let only = |label: &str, side: &str| {
         cat.say(
             &Msg::new("cli-compare-set-only-in")

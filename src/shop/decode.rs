@@ -92,7 +92,7 @@ pub(crate) fn decode_document(
     let logo = first("logo").and_then(|n| {
         r.check_entries(n, &[], 1);
         r.no_children(n);
-        let logo = r.req_arg_string(n, "the logo's file name", "logo \"logo.svg\"")?;
+        let logo = r.req_arg_string(n, Msg::new("diag-what-logo-name"), "logo \"logo.svg\"")?;
         if logo.value.trim().is_empty() {
             r.push(DecodeError::error(
                 "job::bad-value",
@@ -123,7 +123,7 @@ pub(crate) fn decode_document(
         r.no_children(n);
         let pattern = r.req_arg_string(
             n,
-            "the job-number pattern",
+            Msg::new("diag-what-job-number-pattern"),
             "job-numbers \"D-{yymm}-{nnn}\"",
         )?;
         match crate::job::numbering::Numbering::parse(&pattern.value) {
@@ -135,7 +135,7 @@ pub(crate) fn decode_document(
                         pattern.span,
                         Msg::new("diag-bad-pattern")
                             .arg("pattern", pattern.value.as_str())
-                            .arg("why", why.to_string()),
+                            .arg("why", why),
                         Msg::new("diag-expected-pattern"),
                     )
                     .with_help(Msg::new("diag-pattern-help")),
@@ -177,7 +177,7 @@ pub(crate) fn decode_document(
 fn decode_language(node: &KdlNode, r: &mut Reader) -> Option<Language> {
     r.check_entries(node, &["file"], 1);
     r.no_children(node);
-    let tag = r.req_arg_string(node, "the language", "language \"de\"")?;
+    let tag = r.req_arg_string(node, Msg::new("diag-what-language"), "language \"de\"")?;
     let valid = !tag.value.is_empty()
         && tag.value.len() <= 35
         && tag
@@ -247,7 +247,7 @@ fn format_version(node: &KdlNode, r: &mut Reader) -> u32 {
     };
     let Some(v) = r.integer(
         entry,
-        "the shop-profile format version",
+        Msg::new("diag-what-shop-format"),
         1..=i64::from(u32::MAX),
     ) else {
         return SHOP_FORMAT_VERSION;
@@ -282,7 +282,7 @@ fn decode_shop(node: &KdlNode, r: &mut Reader) -> Option<(String, Vec<String>, V
     r.check_entries(node, &[], 1);
     let name = r.req_arg_string(
         node,
-        "the shop's name",
+        Msg::new("diag-what-shop-name"),
         "shop \"Larkmoor Valve Bench\" { … }",
     );
     let mut address = Vec::new();
@@ -312,7 +312,7 @@ fn decode_shop(node: &KdlNode, r: &mut Reader) -> Option<(String, Vec<String>, V
 fn decode_paper(node: &KdlNode, r: &mut Reader) -> Option<Paper> {
     r.check_entries(node, &[], 1);
     r.no_children(node);
-    let name = r.req_arg_name(node, "the paper size", "paper a4")?;
+    let name = r.req_arg_name(node, Msg::new("diag-what-paper-size"), "paper a4")?;
     match Paper::from_name(&name.value) {
         Some(p) => Some(p),
         None => {
@@ -379,7 +379,7 @@ fn decode_warranty(node: &KdlNode, r: &mut Reader) -> Option<Warranty> {
     r.no_children(node);
     let text = r.req_arg_string(
         node,
-        "the warranty's text",
+        Msg::new("diag-what-warranty-text"),
         "warranty \"Work and parts fitted are guaranteed…\" period=\"90 days\"",
     );
     let period = match Reader::prop(node, "period") {
