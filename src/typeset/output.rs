@@ -495,7 +495,7 @@ mod tests {
     fn job_in(dir: &Path) -> (PathBuf, Vec<Input>) {
         let job = dir.join("job.kdl");
         std::fs::write(&job, "job").unwrap();
-        let inputs = vec![Input::new(&job, "the job file")];
+        let inputs = vec![Input::new(&job, "cli-input-job-file")];
         (job, inputs)
     }
 
@@ -582,7 +582,7 @@ mod tests {
         check_emit_folder(&dir.path().join("src"), &inputs, Path::new("-"), false).unwrap();
         // `./-` is a file like any other: refused when it is an input.
         std::fs::write(dir.path().join("-"), "job").unwrap();
-        let dash_file = vec![Input::new(dir.path().join("-"), "the job file")];
+        let dash_file = vec![Input::new(dir.path().join("-"), "cli-input-job-file")];
         let err = check_output(&dir.path().join("./-"), &dash_file).unwrap_err();
         assert!(matches!(err, OutputRefused::IsInput { .. }), "{err:?}");
     }
@@ -592,7 +592,7 @@ mod tests {
         let dir = tempfile::tempdir().unwrap();
         let templates = dir.path().join("templates");
         std::fs::create_dir_all(templates.join("images")).unwrap();
-        let inputs = vec![Input::new(&templates, "the template folder")];
+        let inputs = vec![Input::new(&templates, "cli-input-template-folder")];
         let err = check_output(&templates.join("images/x.pdf"), &inputs).unwrap_err();
         assert!(matches!(err, OutputRefused::InsideInput { .. }), "{err:?}");
         check_output(&dir.path().join("x.pdf"), &inputs).unwrap();
