@@ -1660,6 +1660,21 @@ diag-photo-too-large-to-decode = ist ein zu großes Bild zum Dekodieren (höchst
 diag-photo-does-not-decode = lässt sich nicht als Bild dekodieren ({ $error })
 diag-photo-not-encoded = konnte nicht neu kodiert werden ({ $error })
 
+## Beispiele in Diagnosen, deren Beispieltexte der Leser selbst schreibt:
+## KDL, wie es geschrieben würde, die Texte in der Sprache der Werkstatt
+## (src/job/decode.rs, src/shop/decode.rs). Knoten- und Eigenschaftsnamen
+## bleiben, wie sie sind.
+
+diag-rectifier-example = rectifier V5   oder   rectifier silicon
+diag-shop-example = shop "Name Ihrer Werkstatt" {"{"} address "…"; contact "…" {"}"}
+diag-warranty-example = warranty "Für ausgeführte Arbeiten und eingebaute Teile gewähren wir…" period="90 days"
+diag-accept-example-valve = valve V3 check=screen-voltage reason="Auslegung des Herstellers"
+diag-accept-example-node = node B+1 reason="…"
+diag-accept-example-part = part C10 reason="…"
+diag-accept-example-heater = heater reason="…"
+diag-accept-example-safety = safety leakage reason="…"
+diag-accept-example-bench = bench output-power channel="links" reason="…"
+
 ## Die übrigen Meldungen im Terminal (src/cli), in der Sprache des
 ## Werkstattprofils, sobald es gelesen ist; die Schlusszeile eines Stapels
 ## in der Sprache, die alle seine Aufträge teilen, sonst Englisch.

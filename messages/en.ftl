@@ -1656,6 +1656,21 @@ diag-photo-too-large-to-decode = is too large a picture to decode (at most { $si
 diag-photo-does-not-decode = does not decode as a picture ({ $error })
 diag-photo-not-encoded = could not be encoded again ({ $error })
 
+## Examples in diagnostics whose sample words are the reader's own: KDL as
+## it would be written, with its texts in the shop's language
+## (src/job/decode.rs, src/shop/decode.rs). The node and property names
+## stay as they are.
+
+diag-rectifier-example = rectifier V5   or   rectifier silicon
+diag-shop-example = shop "Your shop's name" {"{"} address "…"; contact "…" {"}"}
+diag-warranty-example = warranty "Work and parts fitted are guaranteed…" period="90 days"
+diag-accept-example-valve = valve V3 check=screen-voltage reason="factory design"
+diag-accept-example-node = node B+1 reason="…"
+diag-accept-example-part = part C10 reason="…"
+diag-accept-example-heater = heater reason="…"
+diag-accept-example-safety = safety leakage reason="…"
+diag-accept-example-bench = bench output-power channel="left" reason="…"
+
 ## The terminal's other messages: what the commands say besides a job's
 ## summary (src/cli), in the job's shop-profile language once it is read;
 ## a batch's closing summary in the language all its jobs share, else

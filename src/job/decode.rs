@@ -331,7 +331,7 @@ fn text_node(node: &KdlNode, r: &mut Reader) -> Option<String> {
     r.check_entries(node, &[], 1);
     r.no_children(node);
     let what = format!("`{}`", node.name().value());
-    r.req_arg_string(node, &what, &format!("{} \"…\"", node.name().value()))
+    r.req_arg_string(node, &what, format!("{} \"…\"", node.name().value()))
         .map(|s| s.value)
 }
 
@@ -777,7 +777,7 @@ fn decode_circuit(node: &KdlNode, r: &mut Reader) -> Circuit {
                 let what = r.req_arg_name(
                     child,
                     Msg::new("diag-what-rectifier"),
-                    "rectifier V5   or   rectifier silicon",
+                    Msg::new("diag-rectifier-example"),
                 );
                 let drop = r.opt_prop_quantity(child, "drop", Q::Voltage);
                 let drop = r
@@ -1576,13 +1576,14 @@ fn decode_accepted(node: &KdlNode, info: &JobInfo, r: &mut Reader) -> Vec<Accept
             _ => (&["set", "reason", "by", "date"], 1),
         };
         r.check_entries(child, props, args);
+        // The example's words (a reason, a channel) are the reader's.
         let example = match kind {
-            AcceptedKind::Valve => "valve V3 check=screen-voltage reason=\"factory design\"",
-            AcceptedKind::Node => "node B+1 reason=\"…\"",
-            AcceptedKind::Part => "part C10 reason=\"…\"",
-            AcceptedKind::Heater => "heater reason=\"…\"",
-            AcceptedKind::Safety => "safety leakage reason=\"…\"",
-            AcceptedKind::Bench => "bench output-power channel=\"left\" reason=\"…\"",
+            AcceptedKind::Valve => Msg::new("diag-accept-example-valve"),
+            AcceptedKind::Node => Msg::new("diag-accept-example-node"),
+            AcceptedKind::Part => Msg::new("diag-accept-example-part"),
+            AcceptedKind::Heater => Msg::new("diag-accept-example-heater"),
+            AcceptedKind::Safety => Msg::new("diag-accept-example-safety"),
+            AcceptedKind::Bench => Msg::new("diag-accept-example-bench"),
         };
         let name = match kind {
             AcceptedKind::Heater => r.opt_prop_string(child, "label").map(|l| {
@@ -1592,7 +1593,7 @@ fn decode_accepted(node: &KdlNode, info: &JobInfo, r: &mut Reader) -> Vec<Accept
                 Spanned::new(l, span)
             }),
             AcceptedKind::Safety => {
-                let n = r.req_arg_name(child, Msg::new("diag-what-safety-test"), example);
+                let n = r.req_arg_name(child, Msg::new("diag-what-safety-test"), example.clone());
                 match n {
                     Some(n) if !SAFETY_TESTS.contains(&n.value.as_str()) => {
                         r.push(
@@ -1610,7 +1611,7 @@ fn decode_accepted(node: &KdlNode, info: &JobInfo, r: &mut Reader) -> Vec<Accept
                 }
             }
             AcceptedKind::Bench => {
-                let n = r.req_arg_name(child, Msg::new("diag-what-bench-test"), example);
+                let n = r.req_arg_name(child, Msg::new("diag-what-bench-test"), example.clone());
                 match n {
                     Some(n) if !BENCH_CHECKS.contains(&n.value.as_str()) => {
                         r.push(
@@ -1628,11 +1629,13 @@ fn decode_accepted(node: &KdlNode, info: &JobInfo, r: &mut Reader) -> Vec<Accept
                 }
             }
             AcceptedKind::Valve => {
-                r.req_arg_name(child, Msg::new("diag-what-valve-position"), example)
+                r.req_arg_name(child, Msg::new("diag-what-valve-position"), example.clone())
             }
-            AcceptedKind::Node => r.req_arg_name(child, Msg::new("diag-what-node-name"), example),
+            AcceptedKind::Node => {
+                r.req_arg_name(child, Msg::new("diag-what-node-name"), example.clone())
+            }
             AcceptedKind::Part => {
-                r.req_arg_name(child, Msg::new("diag-what-part-reference"), example)
+                r.req_arg_name(child, Msg::new("diag-what-part-reference"), example.clone())
             }
         };
         let check = Reader::prop(child, "check").and_then(|e| r.name(e, "`check`"));
@@ -1726,7 +1729,7 @@ fn remark(node: &KdlNode, r: &mut Reader) -> Option<Remark> {
     r.check_entries(node, &["private"], 1);
     r.no_children(node);
     let name = node.name().value();
-    let text = r.req_arg_string(node, format!("`{name}`"), &format!("{name} \"…\""))?;
+    let text = r.req_arg_string(node, format!("`{name}`"), format!("{name} \"…\""))?;
     let private = r.opt_prop_bool(node, "private").unwrap_or(false);
     Some(Remark {
         text: text.value,

@@ -179,7 +179,7 @@ impl<'s> Reader<'s> {
             .find(|e| e.name().is_some_and(|n| n.value() == key))
     }
 
-    fn missing(&mut self, node: &KdlNode, what: Arg, example: &str) {
+    fn missing(&mut self, node: &KdlNode, what: Arg, example: Arg) {
         self.push(
             DecodeError::error(
                 "job::missing",
@@ -484,7 +484,7 @@ impl<'s> Reader<'s> {
         node: &KdlNode,
         entry: Option<&KdlEntry>,
         what: Arg,
-        example: &str,
+        example: Arg,
         read: impl FnOnce(&mut Self, &KdlEntry) -> Option<T>,
     ) -> Option<T> {
         match entry {
@@ -500,34 +500,42 @@ impl<'s> Reader<'s> {
         &mut self,
         node: &KdlNode,
         what: impl Into<Arg>,
-        example: &str,
+        example: impl Into<Arg>,
     ) -> Option<Spanned<String>> {
         let what: Arg = what.into();
-        self.required(node, Self::arg(node, 0), what.clone(), example, |r, e| {
-            r.string(e, what)
-        })
+        self.required(
+            node,
+            Self::arg(node, 0),
+            what.clone(),
+            example.into(),
+            |r, e| r.string(e, what),
+        )
     }
 
     pub fn req_arg_name(
         &mut self,
         node: &KdlNode,
         what: impl Into<Arg>,
-        example: &str,
+        example: impl Into<Arg>,
     ) -> Option<Spanned<String>> {
         let what: Arg = what.into();
-        self.required(node, Self::arg(node, 0), what.clone(), example, |r, e| {
-            r.name(e, what)
-        })
+        self.required(
+            node,
+            Self::arg(node, 0),
+            what.clone(),
+            example.into(),
+            |r, e| r.name(e, what),
+        )
     }
 
     pub fn req_prop_string(
         &mut self,
         node: &KdlNode,
         key: &str,
-        example: &str,
+        example: impl Into<Arg>,
     ) -> Option<Spanned<String>> {
         let what = Msg::new("diag-a-property").arg("key", key).into();
-        self.required(node, Self::prop(node, key), what, example, |r, e| {
+        self.required(node, Self::prop(node, key), what, example.into(), |r, e| {
             r.string(e, format!("`{key}`"))
         })
     }
@@ -545,7 +553,7 @@ impl<'s> Reader<'s> {
         example: &str,
     ) -> Option<Spanned<String>> {
         let what = Msg::new("diag-a-property").arg("key", key).into();
-        self.required(node, Self::prop(node, key), what, example, |r, e| {
+        self.required(node, Self::prop(node, key), what, example.into(), |r, e| {
             r.name(e, format!("`{key}`"))
         })
     }
@@ -558,7 +566,7 @@ impl<'s> Reader<'s> {
         example: &str,
     ) -> Option<Spanned<f64>> {
         let what = Msg::new("diag-a-property").arg("key", key).into();
-        self.required(node, Self::prop(node, key), what, example, |r, e| {
+        self.required(node, Self::prop(node, key), what, example.into(), |r, e| {
             r.quantity(e, kind, format!("`{key}`"))
         })
     }

@@ -81,10 +81,7 @@ pub(crate) fn decode_document(
                     Msg::new("diag-shop-no-node").arg("name", "shop"),
                     Msg::new("diag-start-of-file"),
                 )
-                .with_help(Msg::new("diag-add").arg(
-                    "example",
-                    "shop \"Your shop's name\" { address \"…\"; contact \"…\" }",
-                )),
+                .with_help(Msg::new("diag-add").arg("example", Msg::new("diag-shop-example"))),
             );
             None
         }
@@ -274,7 +271,7 @@ fn text(node: &KdlNode, r: &mut Reader) -> Option<String> {
     r.check_entries(node, &[], 1);
     r.no_children(node);
     let name = node.name().value();
-    r.req_arg_string(node, format!("`{name}`"), &format!("{name} \"…\""))
+    r.req_arg_string(node, format!("`{name}`"), format!("{name} \"…\""))
         .map(|s| s.value)
 }
 
@@ -380,7 +377,7 @@ fn decode_warranty(node: &KdlNode, r: &mut Reader) -> Option<Warranty> {
     let text = r.req_arg_string(
         node,
         Msg::new("diag-what-warranty-text"),
-        "warranty \"Work and parts fitted are guaranteed…\" period=\"90 days\"",
+        Msg::new("diag-warranty-example"),
     );
     let period = match Reader::prop(node, "period") {
         Some(e) => {
