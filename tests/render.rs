@@ -246,6 +246,20 @@ fn each_demo_job_renders_with_its_figures_and_cautions() {
         let words: BTreeSet<&str> = text.split_whitespace().collect();
         let json = calc_json(&job);
 
+        // The first page names the page the mains-safety notice is on
+        // (the template sets a stand-in number in typst's first layout
+        // pass, which knows no pages; the finished document has the real one).
+        let page_text =
+            |p: usize| pdftotext_args(&pdf, &["-f", &p.to_string(), "-l", &p.to_string()]);
+        let notice_page = (1..=page_count(&pdf))
+            .find(|&p| normalise(&page_text(p)).contains(&normalise(CAUTION_PHRASES[0])))
+            .unwrap_or_else(|| panic!("{name}: no page holds the notice"));
+        let pointer = normalise(&format!("mains-safety notice on page {notice_page}."));
+        assert!(
+            normalise(&page_text(1)).contains(&pointer),
+            "{name}: the first page does not point at page {notice_page}"
+        );
+
         // The unit serial, from the job file itself.
         let job_text = std::fs::read_to_string(&job).unwrap();
         let serial = job_text

@@ -9,8 +9,10 @@
 //! * this program: its version and the digest of its sources, templates,
 //!   ratings table and lock file worked out at build time
 //!   (`AMPREPORT_PROGRAM_DIGEST`), and the bundled fonts' digest;
-//! * the typst program: the version it reported and the bytes of the
-//!   program file;
+//! * the typst program: the version it reported and the identity of the
+//!   program file (see [`program_identity`]: its bytes are not read, a
+//!   typst binary being some 60 MB that took longer to hash than the rest
+//!   of a render's own work);
 //! * the options that change the document (the PDF standard);
 //! * every `--ratings` file's bytes, in order;
 //! * every file of the `--templates` folder, by path, with its bytes;
@@ -106,7 +108,7 @@ impl RunKey {
         feed(&mut h, "fonts", inputs.fonts.as_bytes());
         feed(&mut h, "typst version", inputs.typst_version.as_bytes());
         match inputs.typst_path {
-            Some(path) => feed(&mut h, "typst program", &read(path)?),
+            Some(path) => feed(&mut h, "typst program", &program_identity(path)?),
             None => feed(&mut h, "no typst program", b""),
         }
         for option in inputs.options {
@@ -140,6 +142,42 @@ impl RunKey {
             hasher,
             named: Vec::new(),
         }
+    }
+}
+
+/// What tells one state of the typst program file from any other,
+/// without reading its bytes: on Unix the file's device and inode, its
+/// size and permissions, and the times of the last change to its bytes
+/// (`mtime`) and to the file at all (`ctime`), to the nanosecond.
+/// Installing, rebuilding, copying over or editing the program changes the
+/// `ctime` (which no ordinary tool can set back; `touch` sets only the
+/// `mtime`) and usually the inode and size too, so the key changes; what
+/// this does not see is a rewrite that keeps the size and falls within the
+/// same tick of the file system's clock as the change before it (a few
+/// milliseconds), or a clock set back. Elsewhere the bytes are hashed.
+fn program_identity(path: &Path) -> Result<Vec<u8>, KeyError> {
+    #[cfg(unix)]
+    {
+        use std::os::unix::fs::MetadataExt;
+        let meta = std::fs::metadata(path).map_err(|source| KeyError {
+            path: path.to_path_buf(),
+            source,
+        })?;
+        let fields = [
+            meta.dev(),
+            meta.ino(),
+            meta.size(),
+            u64::from(meta.mode()),
+            meta.mtime() as u64,
+            meta.mtime_nsec() as u64,
+            meta.ctime() as u64,
+            meta.ctime_nsec() as u64,
+        ];
+        Ok(fields.iter().flat_map(|f| f.to_le_bytes()).collect())
+    }
+    #[cfg(not(unix))]
+    {
+        read(path)
     }
 }
 
@@ -368,6 +406,67 @@ mod tests {
         assert_eq!(
             RunKey::new(&inputs(&[], &[])).unwrap().job("job").finish(),
             base
+        );
+    }
+
+    #[cfg(unix)]
+    #[test]
+    fn any_change_to_the_typst_program_file_changes_the_key() {
+        let dir = tempfile::tempdir().unwrap();
+        let typst = dir.path().join("typst");
+        std::fs::write(&typst, "#!/bin/sh\necho one\n").unwrap();
+        let key = |path: &Path| {
+            RunKey::new(&RunInputs {
+                typst_path: Some(path),
+                ..inputs(&[], &[])
+            })
+            .unwrap()
+            .job("job")
+            .finish()
+        };
+        let first = key(&typst);
+        assert_eq!(key(&typst), first, "nothing changed");
+        // The file system's clock moves in ticks of at most 10 ms (a
+        // kernel's coarse clock); a change in a later tick is always seen.
+        let tick = || std::thread::sleep(std::time::Duration::from_millis(30));
+        let mut seen = vec![first];
+        let mut changed = |what: &str| {
+            let now = key(&typst);
+            assert!(!seen.contains(&now), "{what}");
+            seen.push(now);
+        };
+        tick();
+        // Same size, other bytes, written in place.
+        std::fs::write(&typst, "#!/bin/sh\necho two\n").unwrap();
+        changed("rewritten in place with the same size");
+        tick();
+        // Its modification time set back to what it was: the change time moves.
+        let before = std::fs::metadata(&typst).unwrap().modified().unwrap();
+        std::fs::write(&typst, "#!/bin/sh\necho 333\n").unwrap();
+        std::fs::File::options()
+            .write(true)
+            .open(&typst)
+            .unwrap()
+            .set_modified(before)
+            .unwrap();
+        changed("rewritten and its modification time set back");
+        tick();
+        // Replaced by another file renamed over it.
+        let other = dir.path().join("other");
+        std::fs::write(&other, "#!/bin/sh\necho 444\n").unwrap();
+        std::fs::rename(&other, &typst).unwrap();
+        changed("replaced by a rename");
+        tick();
+        std::fs::set_permissions(&typst, std::os::unix::fs::PermissionsExt::from_mode(0o755))
+            .unwrap();
+        changed("made executable");
+        // A missing program is an error, not a key.
+        assert!(
+            RunKey::new(&RunInputs {
+                typst_path: Some(&dir.path().join("missing")),
+                ..inputs(&[], &[])
+            })
+            .is_err()
         );
     }
 

@@ -102,33 +102,17 @@ pub const MONO_FAMILIES: &[&str] = &[
     "WenQuanYi Micro Hei Mono",
 ];
 
-/// Every character some bundled font has a glyph for, read once from the
-/// fonts' character maps.
-fn coverage() -> &'static std::collections::HashSet<u32> {
-    static COVERAGE: std::sync::OnceLock<std::collections::HashSet<u32>> =
-        std::sync::OnceLock::new();
-    COVERAGE.get_or_init(|| {
-        let mut set = std::collections::HashSet::new();
-        for (_, data) in BUNDLED_FONTS {
-            let faces = ttf_parser::fonts_in_collection(data).unwrap_or(1);
-            for index in 0..faces {
-                let Ok(face) = ttf_parser::Face::parse(data, index) else {
-                    continue;
-                };
-                let Some(cmap) = face.tables().cmap else {
-                    continue;
-                };
-                for table in cmap.subtables {
-                    if table.is_unicode() {
-                        table.codepoints(|c| {
-                            set.insert(c);
-                        });
-                    }
-                }
-            }
-        }
-        set
-    })
+// `FONT_COVERAGE`: every character some bundled font has a glyph for, as
+// sorted, disjoint ranges, read from the fonts' character maps by
+// `build.rs` (building the set at run time cost every render several
+// milliseconds; `the_coverage_table_is_the_fonts_character_maps` holds the
+// table to the fonts themselves).
+include!(concat!(env!("OUT_DIR"), "/font_coverage.rs"));
+
+/// True when a bundled font has a glyph for the character `c`.
+fn covered(c: u32) -> bool {
+    let i = FONT_COVERAGE.partition_point(|&(_, last)| last < c);
+    FONT_COVERAGE.get(i).is_some_and(|&(first, _)| first <= c)
 }
 
 /// Whether the document can draw `c`: a bundled font has it, or it needs
@@ -141,7 +125,7 @@ pub fn can_draw(c: char) -> bool {
             c,
             '\u{200B}'..='\u{200D}' | '\u{2060}' | '\u{FEFF}' | '\u{AD}'
         )
-        || coverage().contains(&u32::from(c))
+        || covered(u32::from(c))
 }
 
 /// Marks that only select a glyph variant (emoji presentation, tags):
@@ -262,6 +246,47 @@ mod tests {
             drawable("plain µΩ"),
             std::borrow::Cow::Borrowed(_)
         ));
+    }
+
+    /// Every character of the fonts' Unicode character maps, read at run
+    /// time the way `build.rs` reads them.
+    fn coverage_from_the_fonts() -> BTreeSet<u32> {
+        let mut set = BTreeSet::new();
+        for (_, data) in BUNDLED_FONTS {
+            let faces = ttf_parser::fonts_in_collection(data).unwrap_or(1);
+            for index in 0..faces {
+                let face = ttf_parser::Face::parse(data, index).unwrap();
+                for table in face.tables().cmap.unwrap().subtables {
+                    if table.is_unicode() {
+                        table.codepoints(|c| {
+                            set.insert(c);
+                        });
+                    }
+                }
+            }
+        }
+        set
+    }
+
+    #[test]
+    fn the_coverage_table_is_the_fonts_character_maps() {
+        let set = coverage_from_the_fonts();
+        // Tens of thousands of characters: the CJK font alone has over 20,000.
+        assert!(set.len() > 30_000, "{}", set.len());
+        // Ranges in order, apart (not touching), each first <= last.
+        for pair in FONT_COVERAGE.windows(2) {
+            assert!(pair[0].1 + 1 < pair[1].0, "{pair:?}");
+        }
+        assert!(FONT_COVERAGE.iter().all(|&(first, last)| first <= last));
+        let table: BTreeSet<u32> = FONT_COVERAGE
+            .iter()
+            .flat_map(|&(first, last)| first..=last)
+            .collect();
+        assert_eq!(table, set);
+        // And the lookup answers from the table for every code point.
+        for c in 0..=0x10FFFF_u32 {
+            assert_eq!(covered(c), set.contains(&c), "U+{c:04X}");
+        }
     }
 
     #[test]
