@@ -5,6 +5,8 @@
 //! screen and voltage findings form one entry). Built from the findings'
 //! warnings; decides nothing.
 
+use std::collections::HashMap;
+
 use crate::calc::{Findings, Status, ValveFindings, Verdict, Warning};
 use crate::catalogue::{Arg, Catalogue};
 
@@ -157,6 +159,9 @@ pub fn attention(findings: &Findings, cat: &Catalogue) -> Attention {
         final_label: findings.final_set.clone(),
         ..Attention::default()
     };
+    // Each earlier set's place in `out.history`, found by its label in
+    // constant time however many sets the job has.
+    let mut history_at: HashMap<&str, usize> = HashMap::new();
     for w in &findings.warnings {
         match &w.set {
             None if w.accepted => out.accepted.push(accepted_entry(w, cat)),
@@ -171,23 +176,24 @@ pub fn attention(findings: &Findings, cat: &Catalogue) -> Attention {
                 } else {
                     w.brief.clone()
                 };
-                let set = match out.history.iter_mut().position(|h| &h.label == label) {
-                    Some(i) => &mut out.history[i],
-                    None => {
-                        out.history.push(HistorySet {
-                            label: label.clone(),
-                            entries: Vec::new(),
-                        });
-                        out.history.last_mut().expect("just pushed")
-                    }
-                };
-                add(&mut set.entries, w, line);
+                let i = *history_at.entry(label.as_str()).or_insert_with(|| {
+                    out.history.push(HistorySet {
+                        label: label.clone(),
+                        entries: Vec::new(),
+                    });
+                    out.history.len() - 1
+                });
+                add(&mut out.history[i].entries, w, line);
             }
         }
     }
-    // History in file order of the sets.
-    let order = |label: &str| findings.sets.iter().position(|s| s.label == label);
-    out.history.sort_by_key(|h| order(&h.label));
+    // History in file order of the sets (a label's first set decides).
+    let mut first_set: HashMap<&str, usize> = HashMap::with_capacity(findings.sets.len());
+    for (i, s) in findings.sets.iter().enumerate() {
+        first_set.entry(s.label.as_str()).or_insert(i);
+    }
+    out.history
+        .sort_by_key(|h| first_set.get(h.label.as_str()).copied());
     out
 }
 
@@ -241,5 +247,31 @@ mod tests {
                 .all(|e| e.lines.iter().all(|l| l.ends_with('.')))
         );
         assert!(a.history.iter().all(|h| h.label != "as left"));
+    }
+
+    #[test]
+    fn earlier_sets_keep_file_order_whatever_order_their_findings_come_in() {
+        let out = std::process::Command::new("bash")
+            .arg(std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("scripts/gen-job.sh"))
+            .arg("40")
+            .output()
+            .unwrap();
+        let mut f = findings(&String::from_utf8(out.stdout).unwrap());
+        let labels =
+            |a: &Attention| -> Vec<String> { a.history.iter().map(|h| h.label.clone()).collect() };
+        let earlier: Vec<String> = f.sets[..39].iter().map(|s| s.label.clone()).collect();
+        let in_order = attention(&f, Catalogue::english());
+        assert_eq!(labels(&in_order), earlier, "every earlier set has findings");
+        f.warnings.reverse();
+        let reversed = attention(&f, Catalogue::english());
+        assert_eq!(labels(&reversed), earlier);
+        for (a, b) in in_order.history.iter().zip(&reversed.history) {
+            let subjects = |h: &HistorySet| {
+                let mut s: Vec<String> = h.entries.iter().map(|e| e.subject.clone()).collect();
+                s.sort();
+                s
+            };
+            assert_eq!(subjects(a), subjects(b), "{}", a.label);
+        }
     }
 }

@@ -661,7 +661,7 @@ pub struct ContextInputs<'a> {
     pub revision: Option<&'a crate::git::Revision>,
     /// Every photo of the job.
     pub photos: Vec<PhotoRow>,
-    /// The sets (by index) that have a warm-up chart.
+    /// The sets (by index, in ascending order) that have a warm-up chart.
     pub warm_up_plots: Vec<usize>,
     /// The frequency-response charts drawn.
     pub response_charts: Vec<ChartFile>,
@@ -842,7 +842,12 @@ pub fn build_context(
         .iter()
         .enumerate()
         .map(|(i, set)| {
-            let plot = inputs.warm_up_plots.contains(&i).then(|| warm_up_plot(i));
+            // The sets with a warm-up chart, listed in set order.
+            let plot = inputs
+                .warm_up_plots
+                .binary_search(&i)
+                .is_ok()
+                .then(|| warm_up_plot(i));
             set_context(findings, set, plot, cat)
         })
         .collect();

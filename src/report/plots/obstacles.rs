@@ -182,14 +182,27 @@ impl Obstacles {
     /// The cheapest of `candidates`, in order of preference: each step down
     /// the list costs a little, so the first clear one wins. The choice is
     /// then solid for later labels.
+    ///
+    /// A price is never below zero, so a candidate's rank alone bounds its
+    /// price from below: once that bound reaches the best price so far, no
+    /// later candidate can win (on a tie the earlier one does), and the
+    /// rest are not priced. The choice is the one pricing every candidate
+    /// gives ([`Obstacles::place_pricing_all`] in the tests).
     pub(crate) fn place(&mut self, candidates: &[PixelBox]) -> PixelBox {
-        let best = candidates
-            .iter()
-            .enumerate()
-            .map(|(rank, b)| (self.cost(b) + rank as f64 * 2.0, *b))
-            .min_by(|a, b| a.0.total_cmp(&b.0))
-            .map(|(_, b)| b)
-            .expect("at least one candidate");
+        let mut best: Option<(f64, PixelBox)> = None;
+        for (rank, b) in candidates.iter().enumerate() {
+            let floor = rank as f64 * 2.0;
+            if let Some((price, _)) = best
+                && floor.total_cmp(&price).is_ge()
+            {
+                break;
+            }
+            let price = self.cost(b) + floor;
+            if best.is_none_or(|(p, _)| price.total_cmp(&p).is_lt()) {
+                best = Some((price, *b));
+            }
+        }
+        let (_, best) = best.expect("at least one candidate");
         self.add_solid(best);
         best
     }
@@ -219,6 +232,22 @@ mod tests {
             .count() as f64
             * 5.0;
         cost
+    }
+
+    impl Obstacles {
+        /// [`Obstacles::place`] as it was: every candidate priced, the
+        /// first cheapest taken.
+        fn place_pricing_all(&mut self, candidates: &[PixelBox]) -> PixelBox {
+            let best = candidates
+                .iter()
+                .enumerate()
+                .map(|(rank, b)| (self.cost(b) + rank as f64 * 2.0, *b))
+                .min_by(|a, b| a.0.total_cmp(&b.0))
+                .map(|(_, b)| b)
+                .expect("at least one candidate");
+            self.add_solid(best);
+            best
+        }
     }
 
     /// A small deterministic generator (an LCG), so the test needs no crate.
@@ -253,6 +282,42 @@ mod tests {
             let b = PixelBox::new((x, y), (x + 30.0, y + 12.0));
             assert_eq!(o.cost(&b).to_bits(), scanned(&o, &b).to_bits(), "{b:?}");
         }
+    }
+
+    #[test]
+    fn placing_stops_early_yet_chooses_as_pricing_every_candidate_does() {
+        let mut seed = 11;
+        let area = PixelBox::new((70.0, 40.0), (650.0, 300.0));
+        let (mut quick, mut full) = (Obstacles::new(area), Obstacles::new(area));
+        for o in [&mut quick, &mut full] {
+            o.add_line(Line::new((70.0, 120.0), (650.0, 120.0), 40.0));
+            o.add_band(PixelBox::new((70.0, 150.0), (650.0, 200.0)));
+        }
+        let mut stopped_early = 0;
+        for _ in 0..600 {
+            let (x, y) = (lcg(&mut seed) * 640.0 + 40.0, lcg(&mut seed) * 300.0 + 20.0);
+            let solid = PixelBox::around((x as i32, y as i32), 6.0);
+            quick.add_solid(solid);
+            full.add_solid(solid);
+            // The bar chart's ladder of places, and the markers' spots.
+            let candidates: Vec<PixelBox> = if lcg(&mut seed) < 0.5 {
+                (0..60)
+                    .map(|k| {
+                        let bottom = y - 8.0 - f64::from(k) * 2.0;
+                        PixelBox::new((x - 12.0, bottom - 12.0), (x + 12.0, bottom))
+                    })
+                    .collect()
+            } else {
+                crate::report::plots::label_spots((x as i32, y as i32), 26.0, 12.0, true)
+            };
+            let a = quick.place(&candidates);
+            let b = full.place_pricing_all(&candidates);
+            assert_eq!(a, b);
+            if candidates.iter().position(|c| *c == a) < Some(candidates.len() - 1) {
+                stopped_early += 1;
+            }
+        }
+        assert!(stopped_early > 300, "{stopped_early}");
     }
 
     #[test]
