@@ -1965,3 +1965,13 @@ cli-kind-socket = ein Socket
 cli-kind-folder = ein Ordner
 cli-kind-link = ein symbolischer Link
 cli-kind-other = keine gewöhnliche Datei
+
+## Eine Auftragsdatei, die sich gar nicht lesen lässt (src/input_file.rs,
+## ausgegeben von src/cli/load.rs): in der Sprache des Werkstattprofils,
+## das für den Ordner des Auftrags gilt, ohne Profil auf Englisch. `$place`
+## ist `Datei:Zeile:Spalte`, `$byte` das Byte hexadezimal (0x9f), `$error`
+## der Wortlaut des Betriebssystems.
+
+cli-job-file-cannot-read = Fehler: die Auftragsdatei { $path } kann nicht gelesen werden: { $error }
+cli-job-file-too-large = Fehler: die Auftragsdatei { $path } ist größer als { $mib } MiB; eine Auftrags- oder Datentabellendatei umfasst wenige Kilobyte, vermutlich ist dies die falsche Datei
+cli-job-file-not-utf8 = Fehler: { $place }: die Auftragsdatei ist kein UTF-8-Text (Byte { $byte } an dieser Stelle); bitte im Format UTF-8 speichern

@@ -1974,3 +1974,13 @@ cli-kind-socket = a socket
 cli-kind-folder = a folder
 cli-kind-link = a symbolic link
 cli-kind-other = not a regular file
+
+## A job file that cannot be read at all (src/input_file.rs, said by
+## src/cli/load.rs): in the language of the shop profile that serves the
+## job's folder, English without one. `$place` is `file:line:column`,
+## `$byte` the byte in hexadecimal (0x9f), `$error` the operating
+## system's own words.
+
+cli-job-file-cannot-read = error: cannot read the job file { $path }: { $error }
+cli-job-file-too-large = error: the job file { $path } is larger than { $mib } MiB; a job or ratings file is a few kilobytes, so this is probably the wrong file
+cli-job-file-not-utf8 = error: { $place }: the job file is not UTF-8 text (byte { $byte } here); save it as UTF-8

@@ -8,6 +8,8 @@
 use std::io::Read;
 use std::path::{Path, PathBuf};
 
+use crate::catalogue::Msg;
+
 /// The largest input text file read: 16 MiB, thousands of times a real
 /// job file, far below what would strain memory.
 pub const MAX_INPUT_BYTES: u64 = 16 * 1024 * 1024;
@@ -37,6 +39,32 @@ pub enum InputFileError {
         column: usize,
         byte: u8,
     },
+}
+
+impl InputFileError {
+    /// The problem of a job file as a catalogue message (`cli-job-file-…`),
+    /// to be said in the language of the shop profile serving the job's
+    /// folder; the path and the line:column are the same as in English, the
+    /// operating system's own words stay as it gave them.
+    pub fn job_file_msg(&self) -> Msg {
+        match self {
+            InputFileError::Io { path, source, .. } => Msg::new("cli-job-file-cannot-read")
+                .arg("path", path)
+                .arg("error", source.to_string()),
+            InputFileError::TooLarge { path, .. } => Msg::new("cli-job-file-too-large")
+                .arg("path", path)
+                .arg("mib", (MAX_INPUT_BYTES / (1024 * 1024)).to_string()),
+            InputFileError::NotUtf8 {
+                path,
+                line,
+                column,
+                byte,
+                ..
+            } => Msg::new("cli-job-file-not-utf8")
+                .arg("place", format!("{path}:{line}:{column}"))
+                .arg("byte", format!("0x{byte:02x}")),
+        }
+    }
 }
 
 /// The name a job read from standard input has in messages and

@@ -718,3 +718,54 @@ fn why_no_cathode_resistor_is_suggested_is_said_in_the_shop_language() {
         assert!(en.contains(english_words), "{args:?}\n{en}");
     }
 }
+
+#[test]
+fn a_job_file_that_cannot_be_read_is_refused_in_the_shop_language() {
+    // Not UTF-8: a stray byte 0xff on line 2, column 5, same place in
+    // both languages.
+    let job = b"job-format 1\njob \xff\n".to_vec();
+    let cases: [(&str, Vec<u8>, &str, &str); 2] = [
+        (
+            "job.kdl",
+            job,
+            "error: job.kdl:2:5: the job file is not UTF-8 text (byte 0xff here); save it as UTF-8",
+            "Fehler: job.kdl:2:5: die Auftragsdatei ist kein UTF-8-Text (Byte 0xff an dieser Stelle); bitte im Format UTF-8 speichern",
+        ),
+        (
+            "missing.kdl",
+            Vec::new(),
+            "error: cannot read the job file missing.kdl: ",
+            "Fehler: die Auftragsdatei missing.kdl kann nicht gelesen werden: ",
+        ),
+    ];
+    for (name, bytes, english_words, german_words) in cases {
+        let german = folder("", "language \"de\"");
+        let english = folder("", "");
+        for dir in [&german, &english] {
+            std::fs::remove_file(dir.path().join("job.kdl")).unwrap();
+            if !bytes.is_empty() {
+                std::fs::write(dir.path().join(name), &bytes).unwrap();
+            }
+        }
+        let de = run(german.path(), &["check", name]);
+        let en = run(english.path(), &["check", name]);
+        assert_eq!(de.status.code(), en.status.code());
+        assert_ne!(de.status.code(), Some(0));
+        let (de, en) = (stderr(&de), stderr(&en));
+        assert!(de.contains(german_words), "{de}");
+        assert!(!de.contains(english_words), "{de}");
+        assert!(en.contains(english_words), "{en}");
+    }
+    // Too large: one byte over 16 MiB, in German.
+    let german = folder("", "language \"de\"");
+    std::fs::write(
+        german.path().join("job.kdl"),
+        vec![b' '; 16 * 1024 * 1024 + 1],
+    )
+    .unwrap();
+    let de = stderr(&run(german.path(), &["check", "job.kdl"]));
+    assert!(
+        de.contains("Fehler: die Auftragsdatei job.kdl ist größer als 16 MiB;"),
+        "{de}"
+    );
+}

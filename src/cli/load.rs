@@ -335,8 +335,11 @@ pub fn read_job(path: &Path, said: &mut Said) -> Result<String, Exit> {
     } else {
         crate::input_file::read_text(path, "job file")
     };
+    // Said in the language of the shop profile read for the job's folder
+    // (English without one).
     let text = read.map_err(|e| {
-        said.error(format!("error: {e}"));
+        let words = said.say(&e.job_file_msg());
+        said.error(words);
         Exit::InvalidInput
     })?;
     let whence = if is_dash(path) {
