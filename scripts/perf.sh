@@ -7,6 +7,7 @@
 #   bash scripts/perf.sh size [SETS...]     typst time and memory per measurement set (generated jobs)
 #   bash scripts/perf.sh own [SETS]         ampreport's own work on a generated job (no typst)
 #   bash scripts/perf.sh batch [JOBS]       -j 1 against -j 2 over demo-sized jobs (and with typst --jobs 1)
+#   bash scripts/perf.sh ceiling [ROUNDS]   what two cores give this machine: one stream of work against two side by side
 #   bash scripts/perf.sh noop [JOBS]        a second pass over unchanged jobs
 #   bash scripts/perf.sh watch [SAVES]      save-to-PDF time of `watch` against typst's compile time
 #
@@ -245,6 +246,44 @@ batch)
         how="as it comes"
         [ "$t" = "$real_typst" ] || how="--jobs 1"
         echo "-j $n, typst $how: $jobs jobs in $(tail -1 "$work/batch.wall") ms wall clock, $c ms of processor time"
+    done
+    echo "cores: $(nproc)"
+    load
+    ;;
+ceiling)
+    # What a second core is worth on this machine, whatever ampreport does:
+    # the same work run as one stream and as two streams side by side.
+    # Two kinds of work: a pure arithmetic loop (awk; no memory traffic to
+    # speak of) and bare typst compiling the four demo jobs' emitted
+    # sources 3 times over (what a batch of renders is mostly made of).
+    # The speed-up of two streams is the most `render -j 2` can reach
+    # over `-j 1` here; rounds alternate so a change of load hits both.
+    rounds="${1:-3}"
+    load
+    n=0
+    for job in jobs/*.kdl; do
+        name=$(basename "$job" .kdl)
+        [ "$name" = shop ] && continue
+        emit "$job" "$work/c$n" new
+        n=$((n + 1))
+    done
+    spin() { awk 'BEGIN { for (i = 0; i < 20000000; i++) s += i * i }'; }
+    typst_stream() {
+        local k i
+        for k in 1 2 3; do
+            for ((i = 0; i < n; i++)); do compile "$work/c$i" "$work/c$i-$1.pdf" >/dev/null 2>&1; done
+        done
+    }
+    one_stream_spin() { spin; spin; }
+    two_streams_spin() { spin & spin & wait; }
+    one_stream_typst() { typst_stream a; typst_stream b; }
+    two_streams_typst() { typst_stream a & typst_stream b & wait; }
+    echo "work | one stream ms | two streams ms | speed-up | one stream CPU ms | two streams CPU ms"
+    for kind in spin typst; do
+        alternate "$rounds" "one_stream_$kind" "two_streams_$kind"
+        a=$(median <"$work/a")
+        b=$(median <"$work/b")
+        echo "$kind | $a | $b | $(ratio "$a" "$b") | $(median <"$work/a.cpu") | $(median <"$work/b.cpu")"
     done
     echo "cores: $(nproc)"
     load
