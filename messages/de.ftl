@@ -170,6 +170,7 @@ doc-col-set-to = Einstellen auf
 doc-col-reads-now = Anzeige
     jetzt
 doc-grid-middle = etwa { $volts } am Gitter für die Mitte (Schätzung)
+doc-grid-unknown = keine Schätzung der Gitterspannung für die Mitte: { $why }
 doc-warm-up = Aufwärmen: Ruhestrom über der Zeit seit dem Einschalten
 doc-col-time = Zeit
 doc-warm-up-note = Jeder Messwert wird so ausgewertet wie die übrigen Messwerte der Reihe; die Röhrentabelle oben zeigt die eingeschwungenen Werte.
@@ -206,7 +207,7 @@ doc-col-at-nominal-mains = Bei Netz-
 doc-heater = Heizung
 doc-suggest-heading = Kathodenwiderstand { $reference }: welcher Wert passt (eine Schätzung)
 doc-suggest-today = Jetzt ist { $reference } ein { $present } unter { $valves }; { $calibrated } setzt { $pa } um.
-doc-suggest-aiming = Mit dem Ziel { $target } ergibt das an diese Messwerte angepasste Drei-Halbe-Gesetz
+doc-suggest-aiming = Mit dem Ziel { $target } ergibt das an diese Messwerte angepasste 3/2-Potenzgesetz des Röhrenstroms
 doc-suggest-none = keinen Widerstand: selbst ganz ohne Widerstand käme die Röhre nicht auf das Ziel
 doc-col-series = Reihe
 doc-col-fit = Wert
@@ -322,7 +323,7 @@ doc-m-bands-cathode = Kathodenautomatik: Vorsicht über { $caution }, über 100 
 doc-m-bands-parts = Widerstände: Vorsicht über { $derating } ihrer Belastbarkeit (Derating), über 100 % überschritten. Siebkondensatoren: überschritten über der Nennspannung, Vorsicht, wenn weniger als { $margin } davon übrig bleiben. Heizung: { $heater } vom Nennwert. Anoden- und Schirmgitterspannungen: Vorsicht über dem veröffentlichten Höchstwert (oder wenn die Hochrechnung auf die obere Netzgrenze ihn überschreitet), überschritten mehr als { $over } darüber; Gitarrenverstärker betreiben Endröhren oft über den Spannungshöchstwerten nach dem Design-Center-System, und die Anodenverlustleistung bestimmt die Lebensdauer der Röhre.
 doc-m-window = *Zielbereich.* Bei fester Gittervorspannung ist der Anodenstrom, der eine Röhre ins Ziel bringt, Ia = f × Pa(max) ÷ (Va − Vk) für f von { $low } bis { $high }; er wird auch als der Wert angegeben, den der Techniker einstellt (Millivolt über einem Messwiderstand, der auch den Schirmgitterstrom führt, oder Volt über der halben Primärwicklung).
 doc-m-bench = *Am Prüfplatz.* Messungen an einem Lastwiderstand mit der Lautsprecherimpedanz. Ausgangsleistung P = V²eff ÷ R; ein Spitze-Spitze-Wert eines Sinus ist Veff = Vss ÷ (2√2). Messungen an der Clipping-Grenze oder bei angegebenem Klirrfaktor unter { $power } der Nennleistung des Geräts sind ein Vorsichtsfall (gängige Praxis: ein gesundes älteres Gerät erreicht etwa 80 % oder mehr). Brumm und Rauschen in dBV ist 20 × log10(V ÷ 1 V); unter voller Leistung 20 × log10(Vvoll ÷ VRausch), mit Vvoll = √(P × R) aus der höchsten an der Clipping-Grenze oder bei angegebenem Klirrfaktor gemessenen Ausgangsleistung, sonst der Nennleistung; weniger als { $hum } ist ein Vorsichtsfall (gängige Praxis). Der Frequenzgang in dB ist 20 × log10(V ÷ Vref) bezogen auf die Bezugsfrequenz; die −3-dB-Punkte werden linear in dB über einer logarithmischen Frequenzachse zwischen den Messwerten auf beiden Seiten interpoliert. Die Verstärkung ist 20 × log10(Vaus ÷ Vein).
-doc-m-estimates = *Bias-Schätzungen.* Das Drei-Halbe-Gesetz (Child–Langmuir, wie es die klassischen Röhrenhandbücher auf Pentoden anwenden; aus dem Gedächtnis), Ik = K × (Vg2k ÷ μg1g2 + Vgk)^1.5, wird an die Messwerte einer Röhre angepasst, sodass es sie genau wiedergibt; μg1g2 stammt aus der Röhrendatentabelle (aus dem Gedächtnis nach Herstellerdaten).
+doc-m-estimates = *Bias-Schätzungen.* Das 3/2-Potenzgesetz des Röhrenstroms (der Kathodenstrom wächst mit der wirksamen Steuerspannung hoch 3/2; Child–Langmuir, wie es die klassischen Röhrenhandbücher auf Pentoden anwenden; aus dem Gedächtnis), Ik = K × (Vg2k ÷ μg1g2 + Vgk)^1.5, wird an die Messwerte einer Röhre angepasst, sodass es sie genau wiedergibt; μg1g2 stammt aus der Röhrendatentabelle (aus dem Gedächtnis nach Herstellerdaten).
 doc-m-estimates-resistor = Für einen Kathodenwiderstand findet es den Wert, der die heißeste Röhre daran auf { $target } ihrer Anodenverlustleistung bringt (gängige Praxis), mit Vk = n × Ik × Rk, und rundet auf die nächsten Werte der Reihen E12 und E24 nach IEC 60063; die Verlustleistung des Widerstands ist Vk² ÷ Rk, und seine Belastbarkeit sollte mindestens das Doppelte betragen (gängige Praxis).
 doc-m-estimates-grid = Bei fester Gittervorspannung gibt es die Gitterspannung für die Mitte des Zielbereichs an; maßgeblich bleiben die Stromwerte des Zielbereichs.
 doc-m-estimates-sag = Anoden- und Schirmgitterspannung sind wie gemessen genommen, ohne das Absinken der Versorgung: es sind Schätzungen aus einem einzigen Punkt, und der Ruhestrom muss nach jeder Änderung neu gemessen werden.
@@ -696,6 +697,7 @@ term-col-high-line = obere Grenze
 term-window-sense = { $low }–{ $high } mV über dem Messwiderstand
 term-window-primary = { $low }–{ $high } V über der halben Primärwicklung
 term-window-grid = Gitter etwa { $volts } für die Mitte
+term-window-grid-unknown = keine Schätzung der Gitterspannung für die Mitte: { $why }
 term-now = jetzt { $volts }
 term-estimate = (Schätzung)
 term-window = { $position } Zielbereich { $low }–{ $high } %
@@ -723,7 +725,7 @@ term-left = { $pct } % übrig
 term-not-checked = nicht geprüft ({ $reason })
 term-rectifier = Gleichrichter { $position } ({ $type }): mindestens { $load } mA von { $rating } mA ({ $pct } %)
 term-heater = Heizung: { $measured } gegen { $nominal } ({ $deviation } %)
-term-suggestion = Kathodenwiderstand { $reference } ({ $valves }, jetzt { $present }): für { $target } % von Pa max ({ $pa } W) ergibt das Drei-Halbe-Gesetz { $exact }
+term-suggestion = Kathodenwiderstand { $reference } ({ $valves }, jetzt { $present }): für { $target } % von Pa max ({ $pa } W) ergibt das 3/2-Potenzgesetz des Röhrenstroms { $exact }
 term-out-of-reach = keinen Widerstand (nicht erreichbar)
 term-suggestion-option = { $series } { $value }: Vk { $vk }, { $current } je Röhre, Pa { $pa } W ({ $pct } %); der Widerstand setzt { $power } W um: Belastbarkeit { $least } W oder mehr (ein Bauteil mit { $rating })
 term-suggestion-estimate = Eine Schätzung aus einer einzigen Messreihe ({ $calibrated }, μg1g2 { $mu }); den Ruhestrom nach der Änderung erneut messen.
@@ -981,10 +983,10 @@ note-unfit-no-plate = es gibt keinen Messwert der Anodenspannung
 note-unfit-no-screen = es gibt keinen Messwert der Schirmgitterspannung
 note-unfit-no-current = kein Messwert ergibt den Ruhestrom
 note-unfit-no-grid = es gibt keinen Messwert der Gitterspannung
-note-unfit-cut-off = ihre Messwerte liegen nach dem Drei-Halbe-Gesetz (μ { $mu }) im oder jenseits des Sperrbereichs, daher lässt sich das Gesetz nicht anpassen
+note-unfit-cut-off = nach ihren Messwerten wäre die Röhre gesperrt oder genau an der Sperrgrenze, wenn man ihren Strom nach dem 3/2-Potenzgesetz rechnet (der Strom wächst mit der wirksamen Steuerspannung hoch 3/2; μ { $mu }), daher lässt sich dieses Gesetz nicht an sie anpassen
 note-no-suggestion-figure = { $reference }: kein Vorschlag für den Kathodenwiderstand, da keine Röhre daran einen Wert der Anodenverlustleistung hat
 note-no-suggestion-unfit = { $reference }: kein Vorschlag für den Kathodenwiderstand, da für { $valve } gilt: { $why }
-note-no-suggestion-reach = { $reference }: nach dem Drei-Halbe-Gesetz bringt kein Kathodenwiderstand { $valve } auf { $pct } % der zulässigen Anodenverlustleistung
+note-no-suggestion-reach = { $reference }: nach dem 3/2-Potenzgesetz des Röhrenstroms bringt kein Kathodenwiderstand { $valve } auf { $pct } % der zulässigen Anodenverlustleistung
 
 ## Aufzählungen im Text: „V3, V4 und V5“.
 
@@ -1172,7 +1174,7 @@ diag-far-from-nominal = weit von der Nennspannung
 diag-mains-far-help = den Messwert prüfen, oder ob das Gerät an einem Stelltransformator lief
 diag-output-role-mismatch = { $position } ist als Endröhre angegeben, aber die Datentabelle führt { $type } als { $class }
 diag-unusual-role = ungewöhnliche Funktion für diesen Typ
-diag-rectifier-mismatch = { $position } ist als Gleichrichter angegeben, aber { $type } ist ein { $class }
+diag-rectifier-mismatch = { $position } ist als Gleichrichter angegeben, aber die Datentabelle führt { $type } als { $class }
 diag-not-a-rectifier = kein Gleichrichter
 diag-unknown-valve-type = unbekannter Röhrentyp "{ $type }" an { $position }
 diag-not-in-ratings = nicht in der Datentabelle
@@ -1786,7 +1788,9 @@ term-bias-fixed = fest
 ## Was zwischen dem fertigen Quelltext des Dokuments und dem PDF schiefging:
 ## Fehler von typst und des Satzordners (src/typeset). Ein Fehler, der vor
 ## dem Lesen des Werkstattprofils auffällt (typst fehlt oder ist zu alt),
-## wird auf Englisch gemeldet.
+## wird auf Englisch gemeldet. `$why` von `cli-typst-incomplete` ist einer
+## der Gründe `cli-typst-pdf-…`; deren `$detail` sind die Worte des
+## PDF-Lesers (lopdf), unübersetzt.
 
 cli-typst-not-found = typst wurde nicht gefunden: { $looked }
 cli-typst-not-found-help = mit `{ $install }` installieren oder das Programm mit `--typst PFAD` oder der Umgebungsvariablen AMPREPORT_TYPST angeben
@@ -1818,6 +1822,11 @@ cli-typst-odd-status = { $status }; diesen Status verwendet typst nicht für ein
 cli-typst-no-file = meldete Erfolg, schrieb aber keine Datei
 cli-typst-too-big = meldete Erfolg, schrieb aber { $size } Bytes, mehr als die { $limit }, die ein Dokument haben darf
 cli-typst-incomplete = meldete Erfolg, schrieb aber eine unvollständige Datei: { $why }
+cli-typst-pdf-empty = sie ist leer
+cli-typst-pdf-not-pdf = sie beginnt nicht wie ein PDF (`%PDF-`)
+cli-typst-pdf-no-end = sie endet nach { $size } Bytes ohne die Dateiende-Marke `%%EOF`
+cli-typst-pdf-unparsable = sie lässt sich nicht als PDF lesen ({ $detail })
+cli-typst-pdf-no-pages = sie hat keine Seiten
 cli-typst-timed-out = das Programm typst { $path } hat `{ $action }` nicht innerhalb von { $seconds } s beendet und wurde angehalten{ $said }
 cli-typst-timed-out-help = ein Übergabedokument dauert einige Sekunden; ein typst, das hängt, ist fehlerhaft, oder der Rechner ist sehr ausgelastet. Mehr Zeit mit `--timeout SEKUNDEN` oder AMPREPORT_TIMEOUT erlauben
 cli-typst-interrupted = angehalten durch { $signal }; typst wurde angehalten und die temporären Dateien entfernt
@@ -1973,5 +1982,59 @@ cli-kind-other = keine gewöhnliche Datei
 ## der Wortlaut des Betriebssystems.
 
 cli-job-file-cannot-read = Fehler: die Auftragsdatei { $path } kann nicht gelesen werden: { $error }
-cli-job-file-too-large = Fehler: die Auftragsdatei { $path } ist größer als { $mib } MiB; eine Auftrags- oder Datentabellendatei umfasst wenige Kilobyte, vermutlich ist dies die falsche Datei
+cli-job-file-too-large = Fehler: die Auftragsdatei { $path } ist größer als { $limit } MiB; eine Auftrags- oder Datentabellendatei umfasst wenige Kilobyte, vermutlich ist dies die falsche Datei
 cli-job-file-not-utf8 = Fehler: { $place }: die Auftragsdatei ist kein UTF-8-Text (Byte { $byte } an dieser Stelle); bitte im Format UTF-8 speichern
+
+## Die Zeilen von `--verbose`, was woher gelesen wurde (src/cli/ui.rs,
+## load.rs, said.rs, render.rs). Zeilen zu einem Auftrag in der Sprache
+## seines Werkstattprofils; was vor dem Profil gelesen wird, auf Englisch.
+
+cli-read = gelesen: { $what }: { $from }
+cli-read-what-config-folder = Konfigurationsordner
+cli-read-what-cache-folder = Cache-Ordner
+cli-read-what-ratings = Datentabelle
+cli-read-what-shop = Werkstattprofil
+cli-read-what-logo = Logo der Werkstatt
+cli-read-what-translation = Übersetzung
+cli-read-what-job = Auftrag
+cli-read-what-template = Vorlage
+cli-read-what-typst = typst
+cli-read-what-fonts = Schriften
+cli-read-from-path = { $path }
+cli-read-from-no-home = keiner (kein Home-Ordner in der Umgebung)
+cli-read-from-ratings-built-in = eingebaut ({ $count } Typen, im Programm enthalten)
+cli-read-from-ratings-file = { $path } (Datentabelle der Werkstatt)
+cli-read-from-shop-refused = keines (--no-shop)
+cli-read-from-shop-none = keines (kein { $file } neben dem Auftrag oder darüber, kein --shop, keines im Konfigurationsordner)
+cli-read-from-shop = { $path } ({ $how ->
+        [beside] neben dem Auftrag oder darüber
+        [named] mit --shop angegeben
+       *[config] aus dem Konfigurationsordner
+    })
+cli-read-from-job = { $path } ({ $bytes } Bytes)
+cli-read-from-stdin = Standardeingabe ({ $bytes } Bytes)
+cli-read-from-template-shop = { $path } (Ordner der Werkstatt)
+cli-read-from-template-built-in = { $name } (eingebaut, im Programm enthalten)
+cli-read-from-typst = { $path } (Version { $version })
+cli-read-from-fonts-cache = { $path } (Cache)
+cli-read-from-fonts-sandbox = im Programm enthalten, für diesen Lauf geschrieben (kein nutzbarer Cache-Ordner)
+
+## Die Antwort des Betriebssystems auf eine fehlgeschlagene Dateioperation
+## (src/catalogue/mod.rs, `os_error`), als `$error` in anderen Meldungen.
+## `$detail` sind die eigenen Worte des Systems, unübersetzt.
+
+diag-os-not-found = diese Datei oder dieser Ordner existiert nicht
+diag-os-permission-denied = keine Berechtigung
+diag-os-is-a-folder = das ist ein Ordner, keine Datei
+diag-os-not-a-folder = ein Teil des Pfades ist kein Ordner
+diag-os-too-large = die Datei ist zu groß für das Dateisystem
+diag-os-already-exists = das existiert bereits
+diag-os-disk-full = der Datenträger ist voll
+diag-os-read-only = das Dateisystem ist schreibgeschützt
+diag-os-ended-early = das endete zu früh
+diag-os-interrupted = der Vorgang wurde unterbrochen
+diag-os-timed-out = der Vorgang hat zu lange gedauert
+diag-os-broken-pipe = das andere Ende der Pipe wurde geschlossen
+diag-os-out-of-memory = nicht genug Arbeitsspeicher
+diag-os-invalid-data = die Daten sind ungültig ({ $detail })
+diag-os-other = { $detail }

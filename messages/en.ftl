@@ -166,6 +166,7 @@ doc-col-set-to = Set it to
 doc-col-reads-now = Reads
     now
 doc-grid-middle = about { $volts } on the grid for the middle (estimate)
+doc-grid-unknown = no grid estimate for the middle: { $why }
 doc-warm-up = Warm-up: idle current against time since power-on
 doc-col-time = Time
 doc-warm-up-note = Each reading is worked out as the set’s own readings are; the valves table above gives the settled figures.
@@ -695,6 +696,7 @@ term-col-high-line = high line
 term-window-sense = { $low }–{ $high } mV across the sense resistor
 term-window-primary = { $low }–{ $high } V across the half primary
 term-window-grid = grid about { $volts } for the middle
+term-window-grid-unknown = no grid estimate for the middle: { $why }
 term-now = now { $volts }
 term-estimate = (estimate)
 term-window = { $position } target window { $low }–{ $high } %
@@ -1790,7 +1792,9 @@ term-bias-fixed = fixed
 ## compile.rs, child.rs, sandbox.rs). A failure found before the shop
 ## profile is read (typst missing or too old) is said in English.
 ## `$install` is the install command, `$said` empty or `cli-typst-it-said`,
-## `$status` one of the `cli-program-…` messages.
+## `$status` one of the `cli-program-…` messages; `$why` of
+## `cli-typst-incomplete` one of the `cli-typst-pdf-…` reasons, whose
+## `$detail` is the PDF reader's (lopdf's) own words.
 
 cli-typst-not-found = typst was not found: { $looked }
 cli-typst-not-found-help = install it with `{ $install }`, or name the program with `--typst PATH` or the AMPREPORT_TYPST environment variable
@@ -1822,6 +1826,11 @@ cli-typst-odd-status = { $status }, which typst does not use for a document erro
 cli-typst-no-file = reported success but wrote no file
 cli-typst-too-big = reported success but wrote { $size } bytes, more than the { $limit } a document may have
 cli-typst-incomplete = reported success but wrote an incomplete file: { $why }
+cli-typst-pdf-empty = it is empty
+cli-typst-pdf-not-pdf = it does not start like a PDF (`%PDF-`)
+cli-typst-pdf-no-end = it stops after { $size } bytes without the end-of-file mark `%%EOF`
+cli-typst-pdf-unparsable = it does not parse as a PDF ({ $detail })
+cli-typst-pdf-no-pages = it has no pages
 cli-typst-timed-out = the typst program { $path } did not finish `{ $action }` within { $seconds } s and was stopped{ $said }
 cli-typst-timed-out-help = a hand-over document takes a few seconds; a typst that hangs is at fault, or the machine is very busy. Allow longer with `--timeout SECONDS` or AMPREPORT_TIMEOUT
 cli-typst-interrupted = stopped by { $signal }; typst was stopped and the temporary files removed
@@ -1982,5 +1991,63 @@ cli-kind-other = not a regular file
 ## system's own words.
 
 cli-job-file-cannot-read = error: cannot read the job file { $path }: { $error }
-cli-job-file-too-large = error: the job file { $path } is larger than { $mib } MiB; a job or ratings file is a few kilobytes, so this is probably the wrong file
+cli-job-file-too-large = error: the job file { $path } is larger than { $limit } MiB; a job or ratings file is a few kilobytes, so this is probably the wrong file
 cli-job-file-not-utf8 = error: { $place }: the job file is not UTF-8 text (byte { $byte } here); save it as UTF-8
+
+## The `--verbose` lines saying what was read from where (src/cli/ui.rs,
+## load.rs, said.rs, render.rs): `cli-read` with `$what` one of the
+## `cli-read-what-…` words and `$from` one of the `cli-read-from-…`
+## phrases. Lines about a job follow its shop profile's language (the
+## profile's own line the language the profile names); lines said before
+## any profile is read (the folders, the ratings, the templates, typst)
+## are English. `$bytes` and `$count` are already written.
+
+cli-read = read: { $what }: { $from }
+cli-read-what-config-folder = config folder
+cli-read-what-cache-folder = cache folder
+cli-read-what-ratings = ratings
+cli-read-what-shop = shop profile
+cli-read-what-logo = shop logo
+cli-read-what-translation = translation
+cli-read-what-job = job
+cli-read-what-template = template
+cli-read-what-typst = typst
+cli-read-what-fonts = fonts
+cli-read-from-path = { $path }
+cli-read-from-no-home = none (no home folder in the environment)
+cli-read-from-ratings-built-in = built in ({ $count } types, embedded in the program)
+cli-read-from-ratings-file = { $path } (a shop's ratings file)
+cli-read-from-shop-refused = none (--no-shop)
+cli-read-from-shop-none = none (no { $file } beside the job or above it, no --shop, none in the config folder)
+cli-read-from-shop = { $path } ({ $how ->
+        [beside] beside the job or above it
+        [named] named with --shop
+       *[config] the config folder
+    })
+cli-read-from-job = { $path } ({ $bytes } bytes)
+cli-read-from-stdin = standard input ({ $bytes } bytes)
+cli-read-from-template-shop = { $path } (shop folder)
+cli-read-from-template-built-in = { $name } (built in, embedded in the program)
+cli-read-from-typst = { $path } (version { $version })
+cli-read-from-fonts-cache = { $path } (cache)
+cli-read-from-fonts-sandbox = embedded in the program, written for this run (no usable cache folder)
+
+## The operating system's answer to a file operation that failed
+## (src/catalogue/mod.rs, `os_error`), quoted inside other messages as
+## their `$error`. `$detail` is the system's (or the reader's) own words.
+
+diag-os-not-found = there is no such file or folder
+diag-os-permission-denied = permission denied
+diag-os-is-a-folder = it is a folder, not a file
+diag-os-not-a-folder = a part of the path is not a folder
+diag-os-too-large = the file is too large for the file system
+diag-os-already-exists = it already exists
+diag-os-disk-full = the disk is full
+diag-os-read-only = the file system is read-only
+diag-os-ended-early = it ended too early
+diag-os-interrupted = the operation was interrupted
+diag-os-timed-out = the operation timed out
+diag-os-broken-pipe = the other end of the pipe was closed
+diag-os-out-of-memory = there is not enough memory
+diag-os-invalid-data = the data is not valid ({ $detail })
+diag-os-other = { $detail }

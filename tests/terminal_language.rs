@@ -769,3 +769,181 @@ fn a_job_file_that_cannot_be_read_is_refused_in_the_shop_language() {
         "{de}"
     );
 }
+
+#[test]
+fn why_a_pdf_is_incomplete_is_said_in_the_shop_language() {
+    use support::says;
+    // A stand-in typst that reports success after writing only a PDF's
+    // first line (9 bytes) to its output, the last argument.
+    let half = "for a in \"$@\"; do out=$a; done; printf '%%PDF-1.7\\n' > \"$out\"";
+    let german = demo_folder("combo-el84-cathode.kdl", "language \"de\"");
+    let o = render_with_typst(german.path(), half);
+    assert_eq!(o.status.code(), Some(3), "{}", stderr(&o));
+    let err = stderr(&o);
+    assert!(
+        says(
+            &err,
+            "schrieb aber eine unvollständige Datei: sie endet nach 9 Bytes ohne die Dateiende-Marke `%%EOF`"
+        ),
+        "{err}"
+    );
+    assert!(!says(&err, "without the end-of-file mark"), "{err}");
+    assert!(
+        err.contains("ampreport::typeset::typst_misbehaved"),
+        "{err}"
+    );
+    let english = demo_folder("combo-el84-cathode.kdl", "");
+    let err = stderr(&render_with_typst(english.path(), half));
+    assert!(
+        says(
+            &err,
+            "wrote an incomplete file: it stops after 9 bytes without the end-of-file mark `%%EOF`"
+        ),
+        "{err}"
+    );
+}
+
+#[test]
+fn verbose_lines_about_a_job_are_said_in_the_shop_language() {
+    let job = std::fs::read_to_string(repo().join("jobs/combo-6v6-fixed.kdl")).unwrap();
+    let german = folder(&job, "language \"de\"");
+    let english = folder(&job, "");
+    let de = run(german.path(), &["check", "-v", "job.kdl"]);
+    let en = run(english.path(), &["check", "-v", "job.kdl"]);
+    assert!(de.status.success(), "{}", stderr(&de));
+    let (de, en) = (stderr(&de), stderr(&en));
+    let bytes = job.len();
+    let shop = |dir: &tempfile::TempDir| dir.path().join("shop.kdl").display().to_string();
+    for (german_words, english_words) in [
+        (
+            format!(
+                "gelesen: Werkstattprofil: {} (neben dem Auftrag oder darüber)",
+                shop(&german)
+            ),
+            format!(
+                "read: shop profile: {} (beside the job or above it)",
+                shop(&german)
+            ),
+        ),
+        (
+            "gelesen: Logo der Werkstatt: ".to_string(),
+            "read: shop logo: ".to_string(),
+        ),
+        (
+            format!("gelesen: Auftrag: job.kdl ({bytes} Bytes)"),
+            format!("read: job: job.kdl ({bytes} bytes)"),
+        ),
+    ] {
+        assert!(de.contains(&german_words), "{german_words} missing:\n{de}");
+        assert!(
+            !de.contains(&english_words),
+            "{english_words} left in:\n{de}"
+        );
+        let english_words = english_words.replace(&shop(&german), &shop(&english));
+        assert!(
+            en.contains(&english_words),
+            "{english_words} missing:\n{en}"
+        );
+    }
+    // Read before any profile: English in both.
+    assert!(de.contains("read: ratings: built in ("), "{de}");
+    // No profile at all: the catalogue's English.
+    let o = run(german.path(), &["check", "-v", "--no-shop", "job.kdl"]);
+    assert!(
+        stderr(&o).contains("read: shop profile: none (--no-shop)"),
+        "{}",
+        stderr(&o)
+    );
+}
+
+#[test]
+fn the_valve_class_of_a_role_mismatch_is_said_in_the_shop_language() {
+    let job = std::fs::read_to_string(repo().join("jobs/combo-6v6-fixed.kdl")).unwrap();
+    let job = job.replacen(
+        "valve V5 type=\"5Y3GT\" role=rectifier",
+        "valve V5 type=\"12AX7\" role=rectifier",
+        1,
+    );
+    assert!(job.contains("type=\"12AX7\" role=rectifier"));
+    same_places(
+        &job,
+        &[(
+            "V5 is listed as the rectifier, but 12AX7 is a preamp triode",
+            "V5 ist als Gleichrichter angegeben, aber die Datentabelle führt 12AX7 als Vorstufentriode",
+        )],
+    );
+}
+
+#[test]
+fn the_operating_systems_words_are_said_in_the_shop_language() {
+    let german = folder("", "language \"de\"");
+    let english = folder("", "");
+    let de = stderr(&run(german.path(), &["check", "missing.kdl"]));
+    let en = stderr(&run(english.path(), &["check", "missing.kdl"]));
+    assert!(
+        de.contains(
+            "die Auftragsdatei missing.kdl kann nicht gelesen werden: diese Datei oder dieser Ordner existiert nicht"
+        ),
+        "{de}"
+    );
+    assert!(
+        en.contains("cannot read the job file missing.kdl: there is no such file or folder"),
+        "{en}"
+    );
+}
+
+#[test]
+fn why_there_is_no_grid_estimate_is_said_in_the_shop_language() {
+    // The demo's fixed-bias valves without their grid readings: the window
+    // is given, the grid estimate for its middle cannot be, and the
+    // terminal and the JSON say why.
+    let demo = std::fs::read_to_string(repo().join("jobs/combo-6v6-fixed.kdl")).unwrap();
+    let job = demo
+        .replace(" grid=\"-19.5V\"", "")
+        .replace(" grid=\"-23V\"", "");
+    assert!(!job.contains("grid=\"-"), "{job}");
+    let english_words = "no grid estimate for the middle: there is no grid reading";
+    let german_words = "keine Schätzung der Gitterspannung für die Mitte: es gibt keinen Messwert der Gitterspannung";
+    for args in [
+        &["check", "job.kdl"][..],
+        &["calc", "--json", "job.kdl"][..],
+    ] {
+        let de = run(folder(&job, "language \"de\"").path(), args);
+        let en = run(folder(&job, "").path(), args);
+        let (de, en) = (stdout(&de), stdout(&en));
+        if args[0] == "calc" {
+            let json: serde_json::Value = serde_json::from_str(&de).unwrap();
+            let reasons: Vec<&str> = json["sets"]
+                .as_array()
+                .unwrap()
+                .iter()
+                .flat_map(|s| s["valves"].as_array().unwrap())
+                .filter_map(|v| v["target_window"]["grid_for_middle_unknown_reason"].as_str())
+                .collect();
+            assert!(!reasons.is_empty(), "{de}");
+            assert!(
+                reasons
+                    .iter()
+                    .all(|r| *r == "es gibt keinen Messwert der Gitterspannung"),
+                "{reasons:?}"
+            );
+            assert!(
+                en.contains("\"grid_for_middle_unknown_reason\": \"there is no grid reading\""),
+                "{en}"
+            );
+        } else {
+            assert!(de.contains(german_words), "{de}");
+            assert!(!de.contains(english_words), "{de}");
+            assert!(en.contains(english_words), "{en}");
+        }
+    }
+    // With the readings, an estimate and no reason.
+    let en = stdout(&run(
+        folder(&demo, "").path(),
+        &["calc", "--json", "job.kdl"],
+    ));
+    assert!(
+        !en.contains("\"grid_for_middle_unknown_reason\": \""),
+        "{en}"
+    );
+}

@@ -202,7 +202,7 @@ pub fn prepare_one(
             "job::photo-unreadable",
             Msg::new("diag-photo-cannot-read")
                 .arg("path", path.display().to_string())
-                .arg("error", source.to_string()),
+                .arg("error", crate::catalogue::os_error(&source)),
             "diag-this-file",
             "diag-photo-check-path",
         ),

@@ -81,7 +81,7 @@ pub fn read_logo(profile: &Path, logo: &Spanned<String>) -> Result<Logo, Box<Dec
         InFolderError::Io { path, source } => fail(
             Msg::new("diag-logo-cannot-read")
                 .arg("path", path.display().to_string())
-                .arg("error", source.to_string()),
+                .arg("error", crate::catalogue::os_error(&source)),
             "diag-this-file",
             "diag-logo-in-folder",
         ),
