@@ -1932,6 +1932,42 @@ cli-template-not-filled = Fehler: die Vorlage { $name } ließ sich nicht ausfül
 cli-shop-image-unreadable = Fehler: das Bild der Werkstatt { $path } ließ sich nicht lesen: { $error }
 cli-template-file-refused = Fehler: eine Datei des Vorlagenordners wurde abgelehnt: { $error }
 
+## Was die Vorlagen-Engine beanstandet (src/typeset/template_env.rs,
+## src/typeset/inside.rs, src/report/handover/mod.rs), das `$detail` von
+## `cli-template-not-filled`. `$detail` von `cli-template-engine-said`
+## sind die eigenen (englischen) Worte der Engine, nur wenn sie eine Zeile
+## der Vorlage nennt.
+
+cli-template-place = { $what } ({ $name }, Zeile { $line })
+cli-template-engine-said = { $what }: { $detail }
+cli-template-kind-syntax = ein Syntaxfehler
+cli-template-kind-undefined = ein Wert, den die Vorlage verwendet, ist nicht definiert
+cli-template-kind-unknown-filter = ein Filter, den es nicht gibt
+cli-template-kind-unknown-test = ein Test, den es nicht gibt
+cli-template-kind-unknown-function = eine Funktion, die es nicht gibt
+cli-template-kind-unknown-method = eine Methode, die es nicht gibt
+cli-template-kind-not-found = eine Vorlage, die sie einbindet oder importiert, fehlt
+cli-template-kind-too-many-arguments = zu viele Argumente
+cli-template-kind-missing-argument = ein Argument fehlt
+cli-template-kind-bad-escape = eine Zeichenkette mit einer ungültigen Escape-Sequenz
+cli-template-kind-invalid-operation = eine Operation, die ihre Werte nicht erlauben
+cli-template-kind-wrong-value = ein Wert der falschen Art
+cli-template-kind-bad-include = eine eingebundene Vorlage ließ sich nicht ausfüllen
+cli-template-kind-other = die Vorlagen-Engine hat abgebrochen
+cli-template-autoescape = die Vorlage `{ $name }` verwendet `{"{"}% autoescape %{"}"}`, was Typst-Vorlagen nicht dürfen
+cli-template-bad-name = der Vorlagenname `{ $name }` ist kein einfacher relativer Pfad
+cli-template-refused = die Vorlage `{ $name }` wurde abgelehnt: { $why }
+cli-template-not-utf8 = die Vorlage `{ $name }` ist kein UTF-8-Text
+cli-template-no-message = der Meldungskatalog ({ $language }, { $origin }) hat keine Meldung `{ $key }`
+cli-template-no-notice = { $what ->
+        [listing] die Verkaufsübersicht
+       *[document] das Dokument
+    } muss den Sicherheitshinweis zur Netzspannung enthalten: die Zeile `{ $line }` in die Vorlage setzen
+cli-inside-link = { $path } ist ein symbolischer Link; verwendet werden nur reguläre Dateien im Vorlagenordner (die Datei hineinkopieren, statt sie zu verlinken)
+cli-inside-not-a-file = { $path } ist keine reguläre Datei
+cli-inside-bad-name = `{ $name }` ist kein einfacher relativer Pfad im Vorlagenordner
+cli-inside-cannot-read = { $path } konnte nicht gelesen werden: { $error }
+
 ## Wohin ein Dokument nicht geschrieben werden darf (src/typeset/output.rs),
 ## in der Sprache des Auftrags, sobald sein Werkstattprofil gelesen ist.
 

@@ -1933,11 +1933,50 @@ cli-reading-stdin = note: reading the job from standard input; end it with Ctrl-
 
 ## A document that could not be assembled before typst ran
 ## (src/cli/render.rs, from src/report/handover/mod.rs), in the job's
-## language. `$detail` is the template engine's own words.
+## language. `$detail` is one of the `cli-template-…` messages below,
+## `$error` the operating system's answer (`diag-os-…`) or one of the
+## `cli-inside-…` refusals.
 
 cli-template-not-filled = error: the template { $name } could not be filled: { $detail }
 cli-shop-image-unreadable = error: could not read the shop image { $path }: { $error }
 cli-template-file-refused = error: refused a file of the template folder: { $error }
+
+## What the template engine found wrong (src/typeset/template_env.rs,
+## src/typeset/inside.rs, src/report/handover/mod.rs), the `$detail` of
+## `cli-template-not-filled`. `cli-template-place` adds the template and
+## its line to `$what`; `cli-template-engine-said` quotes the engine's own
+## words (`$detail`, in English) where the error names a template line.
+## `$what` of `cli-template-no-notice` is `document` or `listing`.
+
+cli-template-place = { $what } ({ $name }, line { $line })
+cli-template-engine-said = { $what }: { $detail }
+cli-template-kind-syntax = a syntax error
+cli-template-kind-undefined = a value the template uses is undefined
+cli-template-kind-unknown-filter = a filter that does not exist
+cli-template-kind-unknown-test = a test that does not exist
+cli-template-kind-unknown-function = a function that does not exist
+cli-template-kind-unknown-method = a method that does not exist
+cli-template-kind-not-found = a template it includes or imports is not there
+cli-template-kind-too-many-arguments = too many arguments
+cli-template-kind-missing-argument = an argument is missing
+cli-template-kind-bad-escape = a string with a bad escape sequence
+cli-template-kind-invalid-operation = an operation its values do not allow
+cli-template-kind-wrong-value = a value of the wrong kind
+cli-template-kind-bad-include = a template it includes could not be filled
+cli-template-kind-other = the template engine stopped
+cli-template-autoescape = the template `{ $name }` uses `{"{"}% autoescape %{"}"}`, which Typst templates may not
+cli-template-bad-name = the template name `{ $name }` is not a plain relative path
+cli-template-refused = the template `{ $name }` was refused: { $why }
+cli-template-not-utf8 = the template `{ $name }` is not UTF-8 text
+cli-template-no-message = the message catalogue ({ $language }, { $origin }) has no message `{ $key }`
+cli-template-no-notice = the { $what ->
+        [listing] listing
+       *[document] document
+    } must carry the mains-safety notice: put the line `{ $line }` in the template
+cli-inside-link = { $path } is a symbolic link; only regular files inside the template folder are used (copy the file in instead of linking it)
+cli-inside-not-a-file = { $path } is not a regular file
+cli-inside-bad-name = `{ $name }` is not a plain relative path inside the template folder
+cli-inside-cannot-read = could not read { $path }: { $error }
 
 ## Where a document may not be written (src/typeset/output.rs), in the
 ## job's language once its shop profile is read. `$what` is one of the

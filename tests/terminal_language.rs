@@ -947,3 +947,66 @@ fn why_there_is_no_grid_estimate_is_said_in_the_shop_language() {
         "{en}"
     );
 }
+
+#[test]
+fn what_the_template_engine_found_is_said_in_the_shop_language() {
+    use support::says;
+    // (template, German words, English words): the kind of problem in the
+    // catalogue's words, the engine's own detail only where it names a
+    // template line, and the template and line.
+    let cases = [
+        (
+            "{{ font_rules }}\n{{ no_such_variable }}\n",
+            "ließ sich nicht ausfüllen: ein Wert, den die Vorlage verwendet, ist nicht definiert (handover.typ, Zeile 2)",
+            "could not be filled: a value the template uses is undefined (handover.typ, line 2)",
+        ),
+        (
+            "{{ font_rules }}\n\n{{ foo }\n",
+            "ließ sich nicht ausfüllen: ein Syntaxfehler: unexpected `}`, expected end of variable block (handover.typ, Zeile 3)",
+            "could not be filled: a syntax error: unexpected `}`, expected end of variable block (handover.typ, line 3)",
+        ),
+        (
+            "{{ font_rules }}\n{{ t(\"doc-no-such-label\") }}\n",
+            "der Meldungskatalog (de, built-in) hat keine Meldung `doc-no-such-label` (handover.typ, Zeile 2)",
+            "the message catalogue (en, built-in) has no message `doc-no-such-label` (handover.typ, line 2)",
+        ),
+        (
+            "{{ font_rules }}\nShop copy.\n",
+            "das Dokument muss den Sicherheitshinweis zur Netzspannung enthalten: die Zeile `#include \"mains-safety.typ\"` in die Vorlage setzen",
+            "the document must carry the mains-safety notice: put the line `#include \"mains-safety.typ\"` in the template",
+        ),
+    ];
+    for (template, german_words, english_words) in cases {
+        for (extra, words, other) in [
+            ("language \"de\"", german_words, english_words),
+            ("", english_words, german_words),
+        ] {
+            let dir = demo_folder("combo-el84-cathode.kdl", extra);
+            let templates = dir.path().join("templates");
+            std::fs::create_dir(&templates).unwrap();
+            std::fs::write(templates.join("handover.typ"), template).unwrap();
+            let typst = dir.path().join("stand-in-typst");
+            std::fs::write(
+                &typst,
+                "#!/bin/sh\nif [ \"$1\" = --version ]; then echo 'typst 0.15.1 (stand-in)'; exit 0; fi\nexit 9\n",
+            )
+            .unwrap();
+            support::make_executable(&typst);
+            let o = std::process::Command::new(support::bin())
+                .current_dir(dir.path())
+                .args(["render", "job.kdl", "--templates", "templates", "--typst"])
+                .arg(&typst)
+                .env("XDG_CONFIG_HOME", dir.path().join("no-config"))
+                .env("XDG_CACHE_HOME", support::cache_home())
+                .env_remove("AMPREPORT_TYPST")
+                .env("NO_COLOR", "1")
+                .output()
+                .unwrap();
+            // A shop's template is the shop's input: status 1.
+            assert_eq!(o.status.code(), Some(1), "{}", stderr(&o));
+            let err = stderr(&o);
+            assert!(says(&err, words), "{words} missing from:\n{err}");
+            assert!(!says(&err, other), "{other} in:\n{err}");
+        }
+    }
+}

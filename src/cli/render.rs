@@ -1050,12 +1050,12 @@ fn report_build_error(e: HandoverError, said: &mut Said) -> Exit {
     let words = match &e {
         HandoverError::Template { name, detail, .. } => Msg::new("cli-template-not-filled")
             .arg("name", name)
-            .arg("detail", detail),
+            .arg("detail", detail.clone()),
         HandoverError::Image { path, source } => Msg::new("cli-shop-image-unreadable")
             .arg("path", path)
-            .arg("error", source.to_string()),
+            .arg("error", crate::catalogue::os_error(source)),
         HandoverError::Refused(inner) => {
-            Msg::new("cli-template-file-refused").arg("error", inner.to_string())
+            Msg::new("cli-template-file-refused").arg("error", inner.msg())
         }
         HandoverError::Sandbox(t) => {
             Msg::new("cli-error").arg("error", t.message_in(said.catalogue()))
