@@ -2074,3 +2074,17 @@ diag-os-broken-pipe = das andere Ende der Pipe wurde geschlossen
 diag-os-out-of-memory = nicht genug Arbeitsspeicher
 diag-os-invalid-data = die Daten sind ungültig ({ $detail })
 diag-os-other = { $detail }
+
+## `REV:PATH` über git lesen, für `compare` (src/git/mod.rs), in der
+## Sprache des Werkstattprofils für den Ordner von PATH. `$detail` sind
+## die eigenen Worte von git, zitiert.
+
+cli-git-missing = der Befehl `git` wird gebraucht, um { $spec } zu lesen, ließ sich aber nicht ausführen: { $error }
+cli-git-not-repository = { $spec } kann nicht gelesen werden: dieser Ordner liegt in keinem git-Repository (git sagte: „{ $detail }“)
+cli-git-no-revision = { $spec } kann nicht gelesen werden: das Repository hat keine Revision `{ $rev }` (git sagte: „{ $detail }“)
+cli-git-not-in-revision = { $spec } kann nicht gelesen werden: `{ $path }` ist in der Revision `{ $rev }` nicht vorhanden (git sagte: „{ $detail }“)
+cli-git-failed = git konnte { $spec } nicht lesen: { $detail }
+cli-git-timed-out = git brauchte länger als { $seconds } Sekunden, um { $spec } zu lesen
+cli-git-interrupted = durch Signal { $signal } angehalten, während git { $spec } las
+cli-git-too-large = { $spec } ist größer als { $limit } MiB; eine Auftragsdatei umfasst wenige Kilobyte
+cli-git-not-utf8 = { $spec } ist kein UTF-8-Text

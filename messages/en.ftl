@@ -2090,3 +2090,17 @@ diag-os-broken-pipe = the other end of the pipe was closed
 diag-os-out-of-memory = there is not enough memory
 diag-os-invalid-data = the data is not valid ({ $detail })
 diag-os-other = { $detail }
+
+## Reading `REV:PATH` through git for `compare` (src/git/mod.rs), in the
+## language of the shop profile serving PATH's folder. `$rev` and `$path`
+## are the two halves of `$spec`; `$detail` is git's own words, quoted.
+
+cli-git-missing = the `git` command is needed to read { $spec }, and it could not be run: { $error }
+cli-git-not-repository = cannot read { $spec }: this folder is not inside a git repository (git said: “{ $detail }”)
+cli-git-no-revision = cannot read { $spec }: the repository has no revision `{ $rev }` (git said: “{ $detail }”)
+cli-git-not-in-revision = cannot read { $spec }: `{ $path }` is not in revision `{ $rev }` (git said: “{ $detail }”)
+cli-git-failed = git could not read { $spec }: { $detail }
+cli-git-timed-out = git took more than { $seconds } seconds to read { $spec }
+cli-git-interrupted = stopped by signal { $signal } while git read { $spec }
+cli-git-too-large = { $spec } is larger than { $limit } MiB; a job file is a few kilobytes
+cli-git-not-utf8 = { $spec } is not UTF-8 text

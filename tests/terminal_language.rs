@@ -1010,3 +1010,61 @@ fn what_the_template_engine_found_is_said_in_the_shop_language() {
         }
     }
 }
+
+#[test]
+fn gits_problems_reading_a_revision_are_said_in_the_shop_language() {
+    use support::says;
+    let job = std::fs::read_to_string(repo().join("jobs/combo-el84-cathode.kdl")).unwrap();
+    let dir = folder(&job, "language \"de\"");
+    // Not a repository yet (the folder lies under the system's temporary
+    // folder, outside any repository).
+    let o = run(dir.path(), &["compare", "HEAD:job.kdl", "job.kdl"]);
+    assert_eq!(o.status.code(), Some(1), "{}", stderr(&o));
+    let err = stderr(&o);
+    assert!(
+        says(
+            &err,
+            "Fehler: HEAD:job.kdl kann nicht gelesen werden: dieser Ordner liegt in keinem git-Repository (git sagte: „fatal: not a git repository"
+        ),
+        "{err}"
+    );
+    let git = |args: &[&str]| {
+        let o = std::process::Command::new("git")
+            .current_dir(dir.path())
+            .args([
+                "-c",
+                "user.name=Bench",
+                "-c",
+                "user.email=bench@example.invalid",
+            ])
+            .args(["-c", "commit.gpgsign=false"])
+            .args(args)
+            .output()
+            .unwrap();
+        assert!(o.status.success(), "{}", String::from_utf8_lossy(&o.stderr));
+    };
+    git(&["init", "-q"]);
+    git(&["add", "job.kdl"]);
+    git(&["commit", "-q", "-m", "job"]);
+    for (spec, german_words, english_words) in [
+        (
+            "nope:job.kdl",
+            "das Repository hat keine Revision `nope` (git sagte: „fatal:",
+            "the repository has no revision `nope` (git said: “fatal:",
+        ),
+        (
+            "HEAD:other.kdl",
+            "`other.kdl` ist in der Revision `HEAD` nicht vorhanden (git sagte: „fatal:",
+            "`other.kdl` is not in revision `HEAD` (git said: “fatal:",
+        ),
+    ] {
+        let o = run(dir.path(), &["compare", spec, "job.kdl"]);
+        assert_eq!(o.status.code(), Some(1), "{}", stderr(&o));
+        let err = stderr(&o);
+        assert!(says(&err, german_words), "{german_words} missing:\n{err}");
+        assert!(!says(&err, english_words), "{err}");
+        let o = run(dir.path(), &["compare", "--no-shop", spec, "job.kdl"]);
+        let err = stderr(&o);
+        assert!(says(&err, english_words), "{english_words} missing:\n{err}");
+    }
+}
