@@ -1691,6 +1691,7 @@ cli-summary = { $jobs ->
        *[other] { $jobs } Aufträge
     } in { $time }: { $rendered } erstellt, { $unchanged } unverändert, { $failed } fehlgeschlagen
 cli-summary-stopped = , { $count } nicht begonnen (angehalten)
+cli-progress-jobs = Aufträge
 cli-watch-failed = fehlgeschlagen { $job } nach { $time }; { $output } blieb unverändert
 cli-wrote = geschrieben: { $path }
 cli-wrote-stdout = das PDF auf die Standardausgabe geschrieben

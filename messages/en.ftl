@@ -1688,6 +1688,9 @@ cli-summary = { $jobs ->
        *[other] { $jobs } jobs
     } in { $time }: { $rendered } rendered, { $unchanged } unchanged, { $failed } failed
 cli-summary-stopped = , { $count } not started (stopped)
+# The word after the progress bar's count ("3/8 jobs"), in the language
+# the jobs finished so far share.
+cli-progress-jobs = jobs
 cli-watch-failed = failed { $job } after { $time }; { $output } was left as it was
 cli-wrote = wrote { $path }
 cli-wrote-stdout = wrote the PDF to standard output
