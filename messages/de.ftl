@@ -1780,6 +1780,99 @@ cli-new-started-from =
     Sicherheitsprüfungen, Notizen, Kunde und Kosten nicht.
 cli-new-readings = Messwerte dieses Auftrags:
 
+## Die Kommentare des Auftragsgerüsts, das `init` und `new` schreiben
+## (templates/job-skeleton.kdl): jede Zeile einer Meldung wird eine
+## Kommentarzeile.
+
+cli-skeleton-intro = Eine Auftragsdatei für ampreport (KDL 2.0). Eine Datei je Reparatur;
+    unter Versionsverwaltung halten und die Dokumente daraus neu erzeugen.
+cli-skeleton-values = Werte: eine bloße Zahl ist in der SI-Grundeinheit (Volt, Ampere, Ohm,
+    Watt, Farad, Hertz). Textwerte dürfen einen SI-Vorsatz oder einen
+    RKM-Code und ein Einheitenzeichen tragen: "470k", "4k7", "4R7", "0.022u",
+    "38.5mV", "34mA", "22µF". Das Zeichen muss zum Feld passen: "38.5mA", wo
+    eine Spannung hingehört, ist ein Fehler. Prozente: "10%" oder 10.
+    Datumsangaben: "JJJJ-MM-TT". Text in doppelten Anführungszeichen;
+    Wahrheitswerte sind #true und #false. Zahlen immer mit Dezimalpunkt.
+cli-skeleton-format = Das Format, in dem diese Datei geschrieben ist. Immer zuerst.
+cli-skeleton-job = Der Auftrag: Kennung (Pflicht), Eingangs- und Fertigstellungsdatum,
+    Techniker.
+cli-skeleton-customer = Der Kunde (freiwillig; erscheint nie in einer Verkaufsübersicht).
+cli-skeleton-unit = Das Gerät: Hersteller und Modell (Pflicht), Seriennummer, Baujahr;
+    Beschreibung und Zustand als Unterknoten. rated-power ist die Nennleistung
+    laut Hersteller, für die Messungen am Prüfplatz.
+cli-skeleton-mains = Netz: örtliche Nennspannung (Pflicht) und Frequenz; die Toleranz des
+    Netzes für die Hochrechnung auf Überspannung (Vorgabe +5 % bei 100–130 V
+    Nennspannung, nach ANSI C84.1 Bereich A, sonst +10 %, nach IEC 60038);
+    und die Netzspannung, von der die Spannungstabelle des Herstellers ausgeht.
+cli-skeleton-valves = Die Röhrenbestückung: Position, Typ (wie ihn die Datentabelle kennt, siehe
+    `ampreport tubes`) und Aufgabe: preamp (Vorstufe), phase-inverter
+    (Phasenumkehr), output (Endstufe), rectifier (Gleichrichter), tremolo,
+    reverb-driver (Hall-Treiber), reverb-recovery (Hall-Rückgewinnung) oder
+    other.
+cli-skeleton-circuit = Angaben zur Schaltung, die die Berechnungen brauchen.
+cli-skeleton-bias = cathode (automatische) oder fixed (feste Gittervorspannung)
+cli-skeleton-cathode-resistor = Ein Kathodenwiderstand, auch gemeinsam für ein Paar:
+cli-skeleton-sense-resistor = Ein Messwiderstand von einer Kathode nach Masse, zum Prüfen des
+    Ruhestroms:
+cli-skeleton-screen-resistor = Ein Schirmgitterwiderstand und der Knoten, der ihn speist (ergibt den
+    Schirmgitterstrom):
+cli-skeleton-half-primary = Gleichstromwiderstand einer Halbwicklung (kalt und ausgeschaltet
+    gemessen), für das Verfahren über den Trafowiderstand; bei einem
+    Parallelpaar beide Röhren nennen:
+cli-skeleton-nodes = Versorgungsknoten mit dem Wert aus der Spannungstabelle und seiner
+    Toleranz:
+cli-skeleton-droppers = Siebwiderstände zwischen zwei Knoten, mit ihrer Belastbarkeit:
+cli-skeleton-filter-capacitors = Siebkondensatoren an einem Knoten, mit ihrer Spannungsfestigkeit:
+cli-skeleton-winding = Die Hochspannungswicklung: Effektivspannung je Seite und die
+    Primärspannung, für die dieser Wert gilt (ergibt die Spitze beim
+    Kaltstart):
+cli-skeleton-rectifier = Der Gleichrichter: eine Röhrenposition oder `silicon` (drop="1V"
+    freiwillig).
+cli-skeleton-measurements = Eine oder mehrere Messreihen, jede mit der dabei gemessenen Netzspannung.
+cli-skeleton-node-reading = Ein Knoten: Name und gemessene Spannung (chart= und tolerance= können
+    den Wert der Schaltung für diese Messung ersetzen).
+cli-skeleton-valve-reading = Eine Röhre: Anoden-, Schirmgitter-, Kathoden- und Gitterspannung gegen
+    Masse; die Spannung am Messwiderstand (sense=) oder an der Halbwicklung
+    (primary-drop=); oder ein direkt gemessener Strom mit method=probe
+    (Bias-Messadapter: Kathodenstrom) oder method=shunt (Strommesser über
+    der halben Primärwicklung: Anodenstrom).
+cli-skeleton-final-set = Die letzte Messreihe (oder die mit final=#true) ist der Zustand, in dem das
+    Gerät übergeben wird: Zusammenfassung, Übersicht und --strict beurteilen sie.
+cli-skeleton-bias-control = Wo der Bias-Regler stehen geblieben ist, in eigenen Worten:
+cli-skeleton-type-change = Ein anderer Röhrentyp in dieser Messreihe (ein getauschter
+    Gleichrichter):
+cli-skeleton-set-circuit = Bauteile, die in dieser Messreihe vom Schaltungsblock abweichen:
+cli-skeleton-output-power = Messungen am Prüfplatz an einer Lastnachbildung. Ausgangsleistung: der
+    Messwert als rms= oder peak-to-peak=, dazu at=clipping, ein Klirrfaktor
+    (at="5%") oder die Eingangsspannung (at="0.5V"); Frequenz ohne Angabe 1
+    kHz.
+cli-skeleton-hum-noise = Brumm und Rauschen: Effektivspannung an der Last, Eingang kurzgeschlossen
+    oder offen.
+cli-skeleton-gain = Verstärkung: Eingangsspannung für einen Ausgangswert.
+cli-skeleton-response = Frequenzgang: Ausgangsspannung je Frequenz bei fester Eingangsspannung;
+    ein Messwert muss bei der Bezugsfrequenz liegen (Vorgabe 1 kHz).
+cli-skeleton-suggest = Bei automatischer Gittervorspannung einen Vorschlag für den
+    Kathodenwiderstand anfordern (er erscheint von selbst, wenn eine Röhre
+    über dem Richtwert läuft):
+cli-skeleton-warm-up = Messwerte während des Warmlaufens, nach Zeit seit dem Einschalten:
+cli-skeleton-part-without-reference = Ein Bauteil ohne Bezeichnung in der Schaltung:
+cli-skeleton-mods = Ein Umbau kann ein Netzwerk mitbringen: die Schaltung, die er ändert, wie sie
+    war, dann die Änderungen, die sie zum Zustand bei Übergabe machen. Das
+    Dokument zeichnet den Frequenzgang vorher und nachher für jede Stellung
+    des Potentiometers (0-10; mehrere Stellungen, "3 7", ergeben je eine
+    Kurve). `ground` ist der Bezugsknoten. Siehe docs/job-format.md.
+cli-skeleton-safety = Sicherheitsprüfungen mit dem angewandten Grenzwert. Die Grenzwerte nach den
+    Regeln setzen, die dort gelten, wo Sie arbeiten; dies sind übliche Vorgaben.
+cli-skeleton-private = Eine Notiz (oder ein Bauteil, ein Umbau, der Befund, die Arbeit) mit
+    private=#true erscheint nicht in der Verkaufsübersicht (render
+    --listing):
+cli-skeleton-photos = Fotos, relativ zum Ordner dieser Datei (PNG oder JPEG, höchstens 20 MB);
+    das Übergabedokument zeigt alle, die Verkaufsübersicht die mit listing=#true:
+cli-skeleton-accepted = Befunde, die Sie beurteilt haben und so akzeptieren, jeder mit seiner
+    Begründung (by= und date= sind ohne Angabe der Techniker und das
+    Fertigstellungsdatum des Auftrags):
+cli-skeleton-settings = Richtbereiche und Reserven; gezeigt sind die Vorgaben (übliche Praxis).
+
 ## Die Art der Gittervorspannung in der Röhrentabelle des Terminals
 ## (src/report/terminal.rs).
 

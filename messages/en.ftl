@@ -1784,6 +1784,83 @@ cli-new-started-from =
     safety tests, notes, customer and charges are not.
 cli-new-readings = Readings of this service:
 
+## The comments of the job skeleton `init` and `new` write
+## (templates/job-skeleton.kdl, where each `// @KEY` line stands for one
+## message): each line of a message becomes one comment line, so keep
+## lines short (under 80 characters with the indentation).
+
+cli-skeleton-intro = An ampreport job file (KDL 2.0). One file per repair; keep it under
+    version control and regenerate the documents from it.
+cli-skeleton-values = Values: a plain number is in the base SI unit (volts, amperes, ohms,
+    watts, farads, hertz). Text values may carry an SI prefix or an RKM code
+    and a unit symbol: "470k", "4k7", "4R7", "0.022u", "38.5mV", "34mA",
+    "22µF". The symbol must match the field: "38.5mA" where a voltage
+    belongs is an error. Percentages: "10%" or 10. Dates: "YYYY-MM-DD".
+    Text in double quotes; booleans are #true and #false.
+cli-skeleton-format = The format this file is written in. Always first.
+cli-skeleton-job = The job: id (required), dates received and completed, technician.
+cli-skeleton-customer = The customer (optional; left out of dealer listings).
+cli-skeleton-unit = The unit: make and model (required), serial, year; description and
+    condition as child nodes.
+    rated-power is the maker's rated output, for the bench tests.
+cli-skeleton-mains = Mains: local nominal voltage (required) and frequency; the supply
+    tolerance used for the high-line projection (default +5 % for a
+    100–130 V nominal, per ANSI C84.1 Range A, else +10 %, per IEC 60038);
+    and the design mains that the unit's factory voltage chart assumes.
+cli-skeleton-valves = The valve line-up: position, type (as the ratings table knows it; see
+    `ampreport tubes`) and role: preamp, phase-inverter, output, rectifier,
+    tremolo, reverb-driver, reverb-recovery or other.
+cli-skeleton-circuit = Circuit facts the calculations need.
+cli-skeleton-bias = cathode or fixed
+cli-skeleton-cathode-resistor = A cathode resistor, possibly shared by a pair:
+cli-skeleton-sense-resistor = A sense resistor from a cathode to ground, for bias checks:
+cli-skeleton-screen-resistor = A screen resistor and the node feeding it (gives the screen current):
+cli-skeleton-half-primary = DC resistance of a half primary (measured cold, power off), for the
+    transformer-resistance method; list both valves of a parallel pair:
+cli-skeleton-nodes = Supply nodes with the factory chart figure and its tolerance:
+cli-skeleton-droppers = Dropper resistors between two nodes, with their power rating:
+cli-skeleton-filter-capacitors = Filter capacitors on a node, with their voltage rating:
+cli-skeleton-winding = The high-voltage winding: RMS volts per side and the primary
+    voltage that figure is rated at (gives the cold-start peak):
+cli-skeleton-rectifier = The rectifier: a valve position, or `silicon` (drop="1V" optional).
+cli-skeleton-measurements = One or more measurement sets, each with the mains read at the time.
+cli-skeleton-node-reading = A node: name and the voltage read (chart= and tolerance= may
+    override the circuit's figure for this reading).
+cli-skeleton-valve-reading = A valve: plate, screen, cathode and grid voltages to ground; the
+    voltage across its sense resistor (sense=) or across its half
+    primary (primary-drop=); or a current read directly with
+    method=probe (bias probe: cathode current) or method=shunt (ammeter
+    across half the primary: plate current).
+cli-skeleton-final-set = The last set (or the one marked final=#true) is the state the unit is
+    handed over in: the summary, the at-a-glance panel and --strict judge it.
+cli-skeleton-bias-control = Where the bias control was left, in your words:
+cli-skeleton-type-change = Another valve type fitted for this set (a rectifier swapped):
+cli-skeleton-set-circuit = Parts that differ from the circuit block for this set:
+cli-skeleton-output-power = Bench tests into a dummy load. Output power: the reading as rms= or
+    peak-to-peak=, and at=clipping, a distortion (at="5%") or the input
+    drive (at="0.5V"); frequency defaults to 1 kHz.
+cli-skeleton-hum-noise = Hum and noise: RMS volts across the load, input shorted or open.
+cli-skeleton-gain = Gain: input volts for an output reading.
+cli-skeleton-response = Response: output at each frequency for a fixed input; one reading
+    must be at the reference (default 1 kHz).
+cli-skeleton-suggest = For a cathode-biased amplifier, ask for a cathode-resistor
+    suggestion (it appears by itself when a valve runs above the guide):
+cli-skeleton-warm-up = Readings while the amplifier warms up, by time since power-on:
+cli-skeleton-part-without-reference = A part without a circuit reference:
+cli-skeleton-mods = A mod may carry a network: the circuit it changes as it was, then the
+    edits that make it as left. The document plots its response before and
+    after at each pot setting (0-10; several settings, "3 7", give a curve
+    each). `ground` is the reference node. See docs/job-format.md.
+cli-skeleton-safety = Safety tests with the limit applied. Set the limits from the rules that
+    apply where you work; these are common defaults.
+cli-skeleton-private = A note (or a part, a mod, the findings, the work) marked private is
+    left out of the listing document (render --listing):
+cli-skeleton-photos = Photos, relative to this file's folder (PNG or JPEG, at most 20 MB); the
+    hand-over shows them all, the listing those marked listing=#true:
+cli-skeleton-accepted = Findings you have judged and accept as they are, each with its reason
+    (by= and date= default to the job's technician and completion date):
+cli-skeleton-settings = Guide bands and margins; the defaults (common practice) are shown.
+
 ## The terminal summary's words added with the bias column
 ## (src/report/terminal.rs): the kind of bias of a valve.
 

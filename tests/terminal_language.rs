@@ -1068,3 +1068,38 @@ fn gits_problems_reading_a_revision_are_said_in_the_shop_language() {
         assert!(says(&err, english_words), "{english_words} missing:\n{err}");
     }
 }
+
+#[test]
+fn the_job_skeleton_new_writes_is_commented_in_the_shop_language() {
+    let german = folder("", "language \"de\"");
+    std::fs::remove_file(german.path().join("job.kdl")).unwrap();
+    let o = run(german.path(), &["new"]);
+    assert!(o.status.success(), "{}", stderr(&o));
+    let made = made_by_new(german.path());
+    assert_eq!(made.len(), 1, "{made:?}");
+    let text = std::fs::read_to_string(&made[0]).unwrap();
+    assert!(
+        text.starts_with("// Eine Auftragsdatei für ampreport (KDL 2.0)."),
+        "{text}"
+    );
+    assert!(
+        text.contains("\n// Angaben zur Schaltung, die die Berechnungen brauchen.\ncircuit {"),
+        "{text}"
+    );
+    assert!(
+        !text.contains("// The job:") && !text.contains("// @"),
+        "{text}"
+    );
+    // It reads back as a job, under the German shop.
+    let name = made[0].file_name().unwrap().to_string_lossy().into_owned();
+    let o = run(german.path(), &["check", &name]);
+    assert!(o.status.success(), "{}", stderr(&o));
+    // `init` reads no profile: English, word for word the skeleton's.
+    let o = run(german.path(), &["init", "plain.kdl"]);
+    assert!(o.status.success(), "{}", stderr(&o));
+    let plain = std::fs::read_to_string(german.path().join("plain.kdl")).unwrap();
+    assert!(
+        plain.starts_with("// An ampreport job file (KDL 2.0)."),
+        "{plain}"
+    );
+}
