@@ -1078,6 +1078,10 @@ diag-date-label = "JJJJ-MM-TT" erwartet
 diag-date-help = Daten als ISO-8601-Text schreiben, zum Beispiel "2026-11-02"
 diag-bad-date = { $what } "{ $text }" ist kein gültiges Datum ({ $error })
 diag-bad-date-help = Daten nach ISO 8601 als Jahr-Monat-Tag schreiben, zum Beispiel "2026-11-02"
+diag-date-out-of-range = diesen Monat oder Tag gibt es nicht
+diag-date-too-short = es endet, bevor das Datum vollständig ist
+diag-date-too-long = nach dem Datum folgt noch etwas
+diag-date-not-ymd = es ist nicht als Jahr-Monat-Tag geschrieben
 diag-must-be-from = { $what } muss im Bereich { $range } liegen
 diag-cannot-be-negative = { $what } kann nicht negativ sein
 diag-cannot-be-zero = { $what } kann nicht null sein
@@ -1289,6 +1293,49 @@ diag-acceptance-when = eine Akzeptanz braucht das Datum, an dem akzeptiert wurde
 diag-when-accepted = wann wurde das akzeptiert?
 diag-needs-value = `{ $name }` braucht einen Wert
 diag-value-missing = Wert fehlt
+
+## Die eigenen Worte des KDL-Parsers, soweit das Programm sie kennt
+## (src/job/kdl_words.rs). Unbekannte Worte des Parsers bleiben, wie er
+## sie schrieb.
+
+diag-kdl-expected = erwartet: { $what }
+diag-kdl-not = hier gehört { $what } hin
+diag-kdl-end-of-document = erwartet: das Ende der Datei
+diag-kdl-no-closing-brace = der Block der Unterknoten wird nicht mit `{"}"}` geschlossen
+diag-kdl-newline-in-string = ein Zeilenumbruch in einer einzeiligen Zeichenkette in Anführungszeichen
+diag-kdl-no-closing-quote = das schließende Anführungszeichen einer Zeichenkette fehlt
+diag-kdl-no-closing-quotes = die schließenden Anführungszeichen einer mehrzeiligen Zeichenkette fehlen
+diag-kdl-multiline-prefix = jede Zeile einer mehrzeiligen Zeichenkette muss mit der Einrückung der schließenden Zeile beginnen
+diag-kdl-bad-node-name = das kann kein Knotenname sein
+diag-kdl-block-without-name = ein Block von Unterknoten, wo ein Knotenname hingehört
+diag-kdl-bad-fraction = ein Zeichen nach dem `.` einer Zahl, das keine Ziffer ist
+diag-kdl-bad-exponent = ein Zeichen im Exponenten einer Zahl, das keine Ziffer ist
+diag-kdl-bad-type-annotation = die Typangabe enthält etwas, das sie nicht enthalten darf
+diag-kdl-raw-string-shape = eine einzeilige Rohzeichenkette darf nicht wie eine mehrzeilige aussehen
+diag-kdl-negative-unsigned = eine negative Zahl, wo eine Zahl ohne Vorzeichen hingehört
+diag-kdl-thing-node-name = ein Knotenname
+diag-kdl-thing-identifier = ein Name
+diag-kdl-thing-quoted-string = eine Zeichenkette in Anführungszeichen
+diag-kdl-thing-raw-string = eine Rohzeichenkette
+diag-kdl-thing-multiline-string = eine mehrzeilige Zeichenkette
+diag-kdl-thing-property-value = ein Wert einer Eigenschaft
+diag-kdl-thing-type-name = ein Typname
+diag-kdl-thing-keyword = ein Schlüsselwort
+diag-kdl-thing-integer = eine ganze Zahl
+diag-kdl-thing-float = eine Dezimalzahl
+diag-kdl-thing-binary = eine Binärzahl
+diag-kdl-thing-octal = eine Oktalzahl
+diag-kdl-thing-hexadecimal = eine Hexadezimalzahl
+diag-kdl-thing-newline = ein Zeilenumbruch
+diag-kdl-thing-end = das Ende der Datei
+diag-kdl-thing-comment-end = das Ende eines mehrzeiligen Kommentars
+diag-kdl-thing-closing-quotes = die schließenden Anführungszeichen
+diag-kdl-thing-unicode-escape = eine Unicode-Escape-Sequenz
+diag-kdl-help-escape = etwas vergessen zu maskieren?
+diag-kdl-help-node-name = den Namen des Knotens vergessen, oder den Knoten vor seinem Block von Unterknoten beendet?
+diag-kdl-help-terminator = ein Wert wurde zum Teil gelesen, endet hier aber nicht; war ein Leerzeichen gemeint?
+diag-kdl-help-exponent = eine Zahl mit Exponent sieht aus wie 2.0e123 oder 43.3E-4
+diag-kdl-help-string = jede Art von Zeichenkette ist möglich: in Anführungszeichen, roh, mehrzeilig oder ein einfacher Name
 
 ## Diagnosen des `network`-Blocks einer Modifikation (src/job/network/decode.rs).
 

@@ -24,7 +24,6 @@ month-12 = December
 
 ## Status words, shown in the document's tables and panels.
 
-
 ## The hand-over document (templates/handover.typ).
 
 doc-footer-job = Job
@@ -1076,6 +1075,10 @@ diag-date-label = expected "YYYY-MM-DD"
 diag-date-help = write dates as ISO 8601 text, for example "2026-11-02"
 diag-bad-date = { $what } "{ $text }" is not a valid date ({ $error })
 diag-bad-date-help = write dates as ISO 8601 year-month-day, for example "2026-11-02"
+diag-date-out-of-range = there is no such month or day
+diag-date-too-short = it ends before the date is complete
+diag-date-too-long = there is more after the date
+diag-date-not-ymd = it is not written as year-month-day
 diag-must-be-from = { $what } must be from { $range }
 diag-cannot-be-negative = { $what } cannot be negative
 diag-cannot-be-zero = { $what } cannot be zero
@@ -1287,6 +1290,50 @@ diag-acceptance-when = an acceptance needs the date it was accepted
 diag-when-accepted = when was this accepted?
 diag-needs-value = `{ $name }` needs a value
 diag-value-missing = value missing
+
+## The KDL parser's own words, where the program knows them
+## (src/job/kdl_words.rs): the `$problem` of `diag-kdl-syntax`, its label
+## and its help. `$what` is one of the `diag-kdl-thing-…` words. Words of
+## the parser not listed here are quoted as it wrote them.
+
+diag-kdl-expected = expected { $what }
+diag-kdl-not = not { $what }
+diag-kdl-end-of-document = expected the end of the file
+diag-kdl-no-closing-brace = a block of child nodes is not closed with `{"}"}`
+diag-kdl-newline-in-string = a line break inside a single-line quoted string
+diag-kdl-no-closing-quote = the closing quote of a string is missing
+diag-kdl-no-closing-quotes = the closing quotes of a multi-line string are missing
+diag-kdl-multiline-prefix = each line of a multi-line string must start with the closing line's indentation
+diag-kdl-bad-node-name = this cannot be a node name
+diag-kdl-block-without-name = a block of child nodes where a node name belongs
+diag-kdl-bad-fraction = a character that is not a digit after the `.` of a number
+diag-kdl-bad-exponent = a character that is not a digit in the exponent of a number
+diag-kdl-bad-type-annotation = the type annotation holds something it may not
+diag-kdl-raw-string-shape = a single-line raw string may not look like a multi-line one
+diag-kdl-negative-unsigned = a negative number where a number without sign belongs
+diag-kdl-thing-node-name = a node name
+diag-kdl-thing-identifier = a name
+diag-kdl-thing-quoted-string = a quoted string
+diag-kdl-thing-raw-string = a raw string
+diag-kdl-thing-multiline-string = a multi-line string
+diag-kdl-thing-property-value = a property value
+diag-kdl-thing-type-name = a type name
+diag-kdl-thing-keyword = a keyword
+diag-kdl-thing-integer = a whole number
+diag-kdl-thing-float = a decimal number
+diag-kdl-thing-binary = a binary number
+diag-kdl-thing-octal = an octal number
+diag-kdl-thing-hexadecimal = a hexadecimal number
+diag-kdl-thing-newline = a line break
+diag-kdl-thing-end = the end of the file
+diag-kdl-thing-comment-end = the end of a multi-line comment
+diag-kdl-thing-closing-quotes = the closing quotes
+diag-kdl-thing-unicode-escape = a Unicode escape
+diag-kdl-help-escape = did you forget to escape something?
+diag-kdl-help-node-name = did you forget the node's name, or end the node before its block of child nodes?
+diag-kdl-help-terminator = a value was read in part but does not end here; did you want a space?
+diag-kdl-help-exponent = a number with an exponent looks like 2.0e123 or 43.3E-4
+diag-kdl-help-string = any kind of string will do: quoted, raw, multi-line or a plain name
 
 ## Diagnostics of a mod's `network` block (src/job/network/decode.rs).
 

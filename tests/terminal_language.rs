@@ -94,6 +94,16 @@ fn a_german_shop_gives_german_diagnostics_at_the_same_places() {
         de.contains("job.kdl: 3 Probleme verhindern, dass diese Auftragsdatei gelesen wird"),
         "{de}"
     );
+    // The date reader's finding in the catalogue's words.
+    assert!(
+        support::says(&de, "(diesen Monat oder Tag gibt es nicht)"),
+        "{de}"
+    );
+    assert!(
+        support::says(&en, "(there is no such month or day)"),
+        "{en}"
+    );
+    assert!(!en.contains("out of range"), "{en}");
     // The codes stay the same in every language: scripts may match them.
     assert!(de.contains("ampreport::job::unknown-node"), "{de}");
 }
@@ -1102,4 +1112,38 @@ fn the_job_skeleton_new_writes_is_commented_in_the_shop_language() {
         plain.starts_with("// An ampreport job file (KDL 2.0)."),
         "{plain}"
     );
+}
+
+#[test]
+fn the_kdl_parsers_words_are_said_in_the_shop_language() {
+    use support::says;
+    // A child block left open at the end of the file: the parser's
+    // sentence, said from the catalogue at the same place in both.
+    let job = std::fs::read_to_string(repo().join("jobs/combo-el84-cathode.kdl")).unwrap();
+    let job = format!("{job}\nnotes {{\n    note \"open\"\n");
+    let german = folder(&job, "language \"de\"");
+    let english = folder(&job, "");
+    let de = stderr(&run(german.path(), &["check", "job.kdl"]));
+    let en = stderr(&run(english.path(), &["check", "job.kdl"]));
+    assert!(
+        says(
+            &en,
+            "KDL syntax: a block of child nodes is not closed with `}`"
+        ),
+        "{en}"
+    );
+    assert!(
+        says(
+            &de,
+            "KDL-Syntax: der Block der Unterknoten wird nicht mit `}` geschlossen"
+        ),
+        "{de}"
+    );
+    assert!(!says(&de, "closing '}'"), "{de}");
+    let place = |text: &str| {
+        let start = text.find("[job.kdl:").expect("a place") + 1;
+        let end = start + text[start..].find(']').unwrap();
+        text[start..end].to_string()
+    };
+    assert_eq!(place(&de), place(&en));
 }

@@ -466,7 +466,7 @@ impl<'s> Reader<'s> {
                         Msg::new("diag-bad-date")
                             .arg("what", what)
                             .arg("text", text)
-                            .arg("error", e.to_string()),
+                            .arg("error", date_problem(&e)),
                         Msg::new("diag-date-label"),
                     )
                     .with_help(Msg::new("diag-bad-date-help")),
@@ -802,4 +802,16 @@ mod tests {
         assert_eq!(literal_range("\"abc\"", "abc", 2, 9), None);
         assert_eq!(literal_range("\"ab", "ab", 0, 1), None);
     }
+}
+
+/// What the date reader (chrono) found wrong with a date, in the
+/// catalogue's words (`diag-date-…`).
+fn date_problem(e: &chrono::ParseError) -> Msg {
+    use chrono::format::ParseErrorKind as K;
+    Msg::new(match e.kind() {
+        K::OutOfRange | K::Impossible => "diag-date-out-of-range",
+        K::NotEnough | K::TooShort => "diag-date-too-short",
+        K::TooLong => "diag-date-too-long",
+        _ => "diag-date-not-ymd",
+    })
 }
