@@ -1709,6 +1709,28 @@ diag-photo-too-large-to-decode = ist ein zu großes Bild zum Dekodieren (höchst
 diag-photo-does-not-decode = lässt sich nicht als Bild dekodieren ({ $error })
 diag-photo-not-encoded = konnte nicht neu kodiert werden ({ $error })
 
+## Was der Bildleser an einem Foto oder einem PNG-Logo beanstandet
+## (src/photo/mod.rs). `$detail` sind die eigenen Worte des Lesers.
+
+diag-image-damaged = seine Daten sind beschädigt oder abgeschnitten ({ $detail })
+diag-image-not-encoded = es ließ sich nicht wieder schreiben ({ $detail })
+diag-image-too-large = es ist größer, als die Grenzen des Lesers erlauben
+diag-image-unsupported = es ist eine Bildart, die der Leser nicht unterstützt ({ $detail })
+
+## Was der XML-Leser an einem SVG-Logo beanstandet (src/shop/logo.rs).
+
+diag-xml-at = { $what } (Zeile { $line }, Spalte { $column })
+diag-xml-ends-early = sie endet, bevor die Zeichnung vollständig ist
+diag-xml-no-root = sie enthält kein Element
+diag-xml-dtd = sie hat eine Dokumenttyp-Deklaration, die nicht erlaubt ist
+diag-xml-wrong-close = `</{ $found }>` schließt ein Element, das `<{ $expected }>` ist
+diag-xml-unknown-entity = die Entität `&{ $name };` ist nicht definiert
+diag-xml-duplicate-attribute = das Attribut `{ $name }` ist doppelt angegeben
+diag-xml-unknown-namespace = das Namensraum-Präfix `{ $name }` ist nicht deklariert
+diag-xml-bad-name = ein Name, den XML nicht erlaubt
+diag-xml-bad-attribute = ein Attributwert, den XML nicht erlaubt
+diag-xml-too-many = sie hat mehr Elemente, Attribute oder Namensräume, als ein Logo haben darf
+
 ## Beispiele in Diagnosen, deren Beispieltexte der Leser selbst schreibt:
 ## KDL, wie es geschrieben würde, die Texte in der Sprache der Werkstatt
 ## (src/job/decode.rs, src/shop/decode.rs). Knoten- und Eigenschaftsnamen

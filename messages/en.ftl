@@ -1705,6 +1705,31 @@ diag-photo-too-large-to-decode = is too large a picture to decode (at most { $si
 diag-photo-does-not-decode = does not decode as a picture ({ $error })
 diag-photo-not-encoded = could not be encoded again ({ $error })
 
+## What the image reader found wrong with a photo or a PNG logo
+## (src/photo/mod.rs, `image_problem`), the `$error` of
+## `diag-photo-does-not-decode` and `diag-logo-png-undecodable`.
+## `$detail` is the reader's own words.
+
+diag-image-damaged = its data is damaged or cut short ({ $detail })
+diag-image-not-encoded = it could not be written again ({ $detail })
+diag-image-too-large = it is larger than the reader's limits allow
+diag-image-unsupported = it uses a kind of picture the reader does not support ({ $detail })
+
+## What the XML reader found wrong with an SVG logo (src/shop/logo.rs,
+## `xml_problem`), the `$error` of `diag-logo-svg-malformed`.
+
+diag-xml-at = { $what } (line { $line }, column { $column })
+diag-xml-ends-early = it ends before the drawing is complete
+diag-xml-no-root = it holds no element
+diag-xml-dtd = it has a document type declaration, which is not allowed
+diag-xml-wrong-close = `</{ $found }>` closes an element that is `<{ $expected }>`
+diag-xml-unknown-entity = the entity `&{ $name };` is not defined
+diag-xml-duplicate-attribute = the attribute `{ $name }` is given twice
+diag-xml-unknown-namespace = the namespace prefix `{ $name }` is not declared
+diag-xml-bad-name = a name that XML does not allow
+diag-xml-bad-attribute = an attribute value that XML does not allow
+diag-xml-too-many = it has more elements, attributes or namespaces than a logo may
+
 ## Examples in diagnostics whose sample words are the reader's own: KDL as
 ## it would be written, with its texts in the shop's language
 ## (src/job/decode.rs, src/shop/decode.rs). The node and property names

@@ -1147,3 +1147,45 @@ fn the_kdl_parsers_words_are_said_in_the_shop_language() {
     };
     assert_eq!(place(&de), place(&en));
 }
+
+#[test]
+fn the_xml_and_image_readers_findings_are_said_in_the_shop_language() {
+    use support::says;
+    let job = std::fs::read_to_string(repo().join("jobs/combo-6v6-fixed.kdl")).unwrap();
+    // (logo file, its bytes, German words, English words)
+    let cases: [(&str, &[u8], &str, &str); 2] = [
+        (
+            "broken.svg",
+            b"<svg xmlns=\"http://www.w3.org/2000/svg\"><g></svg>\n",
+            "ist keine wohlgeformte SVG-Zeichnung (`</svg>` schließt ein Element, das `<g>` ist (Zeile 1,",
+            "is not a well-formed SVG drawing (`</svg>` closes an element that is `<g>` (line 1,",
+        ),
+        (
+            "cut.png",
+            // A PNG signature and the start of a header chunk, then nothing.
+            b"\x89PNG\r\n\x1a\n\0\0\0\x0dIHDR\0\0",
+            "beginnt wie ein PNG-Bild, lässt sich aber nicht dekodieren (",
+            "starts like a PNG picture but does not decode (",
+        ),
+    ];
+    for (name, bytes, german_words, english_words) in cases {
+        for (extra, words, other) in [
+            ("language \"de\"", german_words, english_words),
+            ("", english_words, german_words),
+        ] {
+            let dir = folder(&job, extra);
+            let profile = std::fs::read_to_string(dir.path().join("shop.kdl")).unwrap();
+            let profile =
+                profile.replacen("logo \"larkmoor-logo.svg\"", &format!("logo \"{name}\""), 1);
+            std::fs::write(dir.path().join("shop.kdl"), &profile).unwrap();
+            std::fs::write(dir.path().join(name), bytes).unwrap();
+            let o = run(dir.path(), &["check", "job.kdl"]);
+            assert_eq!(o.status.code(), Some(1), "{}", stderr(&o));
+            let err = stderr(&o);
+            assert!(says(&err, words), "{words} missing from:\n{err}");
+            assert!(!says(&err, other), "{err}");
+            let place = at("shop.kdl", &profile, &format!("\"{name}\""));
+            assert!(err.contains(&place), "{place} missing from:\n{err}");
+        }
+    }
+}
