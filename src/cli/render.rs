@@ -640,7 +640,7 @@ fn render_job(
                                 said.say(
                                     &Msg::new("cli-cannot-record")
                                         .arg("path", path.display().to_string())
-                                        .arg("error", e.to_string()),
+                                        .arg("error", crate::catalogue::os_error(&e)),
                                 ),
                             );
                         }
