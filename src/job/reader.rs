@@ -767,6 +767,18 @@ fn literal_range(literal: &str, text: &str, start: usize, end: usize) -> Option<
     Some((source_of(start)?, source_of(end)?))
 }
 
+/// What the date reader (chrono) found wrong with a date, in the
+/// catalogue's words (`diag-date-…`).
+fn date_problem(e: &chrono::ParseError) -> Msg {
+    use chrono::format::ParseErrorKind as K;
+    Msg::new(match e.kind() {
+        K::OutOfRange | K::Impossible => "diag-date-out-of-range",
+        K::NotEnough | K::TooShort => "diag-date-too-short",
+        K::TooLong => "diag-date-too-long",
+        _ => "diag-date-not-ymd",
+    })
+}
+
 #[cfg(test)]
 mod tests {
     use super::literal_range;
@@ -802,16 +814,4 @@ mod tests {
         assert_eq!(literal_range("\"abc\"", "abc", 2, 9), None);
         assert_eq!(literal_range("\"ab", "ab", 0, 1), None);
     }
-}
-
-/// What the date reader (chrono) found wrong with a date, in the
-/// catalogue's words (`diag-date-…`).
-fn date_problem(e: &chrono::ParseError) -> Msg {
-    use chrono::format::ParseErrorKind as K;
-    Msg::new(match e.kind() {
-        K::OutOfRange | K::Impossible => "diag-date-out-of-range",
-        K::NotEnough | K::TooShort => "diag-date-too-short",
-        K::TooLong => "diag-date-too-long",
-        _ => "diag-date-not-ymd",
-    })
 }
