@@ -264,7 +264,7 @@ pub fn compile(
         Err(why) => {
             return Err(misbehaved(
                 work,
-                Msg::new("cli-typst-incomplete").arg("why", why.to_string()),
+                Msg::new("cli-typst-incomplete").arg("why", why),
                 stderr,
             ));
         }
