@@ -352,6 +352,20 @@ fn place_with(bytes: &[u8], output: &Path, sync: bool) -> Result<(), TypesetErro
     Ok(())
 }
 
+/// Removes the temporary files ([`PARTIAL_SUFFIX`]) that killed runs left
+/// in `dir`, leaving those a live run holds.
+pub(crate) fn sweep_partials(dir: &Path) {
+    sweep(dir, |name| {
+        name.starts_with('.') && name.ends_with(PARTIAL_SUFFIX)
+    });
+}
+
+/// A locked temporary file `.STEM.*.ampreport-part` in `dir`, private to
+/// the user, for writing a file that is then renamed into place.
+pub(crate) fn locked_partial(dir: &Path, stem: &str) -> std::io::Result<tempfile::NamedTempFile> {
+    locked_file(dir, &format!(".{stem}."), PARTIAL_SUFFIX, 0o600)
+}
+
 /// Flushes a folder's entries (the rename) to disk, where that is possible.
 fn sync_folder(dir: &Path) {
     #[cfg(unix)]
