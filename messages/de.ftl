@@ -170,6 +170,7 @@ doc-col-set-to = Einstellen auf
 doc-col-reads-now = Anzeige
     jetzt
 doc-grid-middle = etwa { $volts } am Gitter für die Mitte (Schätzung)
+doc-grid-unknown = keine Schätzung der Gitterspannung für die Mitte: { $why }
 doc-warm-up = Aufwärmen: Ruhestrom über der Zeit seit dem Einschalten
 doc-col-time = Zeit
 doc-warm-up-note = Jeder Messwert wird so ausgewertet wie die übrigen Messwerte der Reihe; die Röhrentabelle oben zeigt die eingeschwungenen Werte.
@@ -206,7 +207,7 @@ doc-col-at-nominal-mains = Bei Netz-
 doc-heater = Heizung
 doc-suggest-heading = Kathodenwiderstand { $reference }: welcher Wert passt (eine Schätzung)
 doc-suggest-today = Jetzt ist { $reference } ein { $present } unter { $valves }; { $calibrated } setzt { $pa } um.
-doc-suggest-aiming = Mit dem Ziel { $target } ergibt das an diese Messwerte angepasste Drei-Halbe-Gesetz
+doc-suggest-aiming = Mit dem Ziel { $target } ergibt das an diese Messwerte angepasste 3/2-Potenzgesetz des Röhrenstroms
 doc-suggest-none = keinen Widerstand: selbst ganz ohne Widerstand käme die Röhre nicht auf das Ziel
 doc-col-series = Reihe
 doc-col-fit = Wert
@@ -322,7 +323,7 @@ doc-m-bands-cathode = Kathodenautomatik: Vorsicht über { $caution }, über 100 
 doc-m-bands-parts = Widerstände: Vorsicht über { $derating } ihrer Belastbarkeit (Derating), über 100 % überschritten. Siebkondensatoren: überschritten über der Nennspannung, Vorsicht, wenn weniger als { $margin } davon übrig bleiben. Heizung: { $heater } vom Nennwert. Anoden- und Schirmgitterspannungen: Vorsicht über dem veröffentlichten Höchstwert (oder wenn die Hochrechnung auf die obere Netzgrenze ihn überschreitet), überschritten mehr als { $over } darüber; Gitarrenverstärker betreiben Endröhren oft über den Spannungshöchstwerten nach dem Design-Center-System, und die Anodenverlustleistung bestimmt die Lebensdauer der Röhre.
 doc-m-window = *Zielbereich.* Bei fester Gittervorspannung ist der Anodenstrom, der eine Röhre ins Ziel bringt, Ia = f × Pa(max) ÷ (Va − Vk) für f von { $low } bis { $high }; er wird auch als der Wert angegeben, den der Techniker einstellt (Millivolt über einem Messwiderstand, der auch den Schirmgitterstrom führt, oder Volt über der halben Primärwicklung).
 doc-m-bench = *Am Prüfplatz.* Messungen an einem Lastwiderstand mit der Lautsprecherimpedanz. Ausgangsleistung P = V²eff ÷ R; ein Spitze-Spitze-Wert eines Sinus ist Veff = Vss ÷ (2√2). Messungen an der Clipping-Grenze oder bei angegebenem Klirrfaktor unter { $power } der Nennleistung des Geräts sind ein Vorsichtsfall (gängige Praxis: ein gesundes älteres Gerät erreicht etwa 80 % oder mehr). Brumm und Rauschen in dBV ist 20 × log10(V ÷ 1 V); unter voller Leistung 20 × log10(Vvoll ÷ VRausch), mit Vvoll = √(P × R) aus der höchsten an der Clipping-Grenze oder bei angegebenem Klirrfaktor gemessenen Ausgangsleistung, sonst der Nennleistung; weniger als { $hum } ist ein Vorsichtsfall (gängige Praxis). Der Frequenzgang in dB ist 20 × log10(V ÷ Vref) bezogen auf die Bezugsfrequenz; die −3-dB-Punkte werden linear in dB über einer logarithmischen Frequenzachse zwischen den Messwerten auf beiden Seiten interpoliert. Die Verstärkung ist 20 × log10(Vaus ÷ Vein).
-doc-m-estimates = *Bias-Schätzungen.* Das Drei-Halbe-Gesetz (Child–Langmuir, wie es die klassischen Röhrenhandbücher auf Pentoden anwenden; aus dem Gedächtnis), Ik = K × (Vg2k ÷ μg1g2 + Vgk)^1.5, wird an die Messwerte einer Röhre angepasst, sodass es sie genau wiedergibt; μg1g2 stammt aus der Röhrendatentabelle (aus dem Gedächtnis nach Herstellerdaten).
+doc-m-estimates = *Bias-Schätzungen.* Das 3/2-Potenzgesetz des Röhrenstroms (der Kathodenstrom wächst mit der wirksamen Steuerspannung hoch 3/2; Child–Langmuir, wie es die klassischen Röhrenhandbücher auf Pentoden anwenden; aus dem Gedächtnis), Ik = K × (Vg2k ÷ μg1g2 + Vgk)^1.5, wird an die Messwerte einer Röhre angepasst, sodass es sie genau wiedergibt; μg1g2 stammt aus der Röhrendatentabelle (aus dem Gedächtnis nach Herstellerdaten).
 doc-m-estimates-resistor = Für einen Kathodenwiderstand findet es den Wert, der die heißeste Röhre daran auf { $target } ihrer Anodenverlustleistung bringt (gängige Praxis), mit Vk = n × Ik × Rk, und rundet auf die nächsten Werte der Reihen E12 und E24 nach IEC 60063; die Verlustleistung des Widerstands ist Vk² ÷ Rk, und seine Belastbarkeit sollte mindestens das Doppelte betragen (gängige Praxis).
 doc-m-estimates-grid = Bei fester Gittervorspannung gibt es die Gitterspannung für die Mitte des Zielbereichs an; maßgeblich bleiben die Stromwerte des Zielbereichs.
 doc-m-estimates-sag = Anoden- und Schirmgitterspannung sind wie gemessen genommen, ohne das Absinken der Versorgung: es sind Schätzungen aus einem einzigen Punkt, und der Ruhestrom muss nach jeder Änderung neu gemessen werden.
@@ -696,6 +697,7 @@ term-col-high-line = obere Grenze
 term-window-sense = { $low }–{ $high } mV über dem Messwiderstand
 term-window-primary = { $low }–{ $high } V über der halben Primärwicklung
 term-window-grid = Gitter etwa { $volts } für die Mitte
+term-window-grid-unknown = keine Schätzung der Gitterspannung für die Mitte: { $why }
 term-now = jetzt { $volts }
 term-estimate = (Schätzung)
 term-window = { $position } Zielbereich { $low }–{ $high } %
@@ -723,7 +725,7 @@ term-left = { $pct } % übrig
 term-not-checked = nicht geprüft ({ $reason })
 term-rectifier = Gleichrichter { $position } ({ $type }): mindestens { $load } mA von { $rating } mA ({ $pct } %)
 term-heater = Heizung: { $measured } gegen { $nominal } ({ $deviation } %)
-term-suggestion = Kathodenwiderstand { $reference } ({ $valves }, jetzt { $present }): für { $target } % von Pa max ({ $pa } W) ergibt das Drei-Halbe-Gesetz { $exact }
+term-suggestion = Kathodenwiderstand { $reference } ({ $valves }, jetzt { $present }): für { $target } % von Pa max ({ $pa } W) ergibt das 3/2-Potenzgesetz des Röhrenstroms { $exact }
 term-out-of-reach = keinen Widerstand (nicht erreichbar)
 term-suggestion-option = { $series } { $value }: Vk { $vk }, { $current } je Röhre, Pa { $pa } W ({ $pct } %); der Widerstand setzt { $power } W um: Belastbarkeit { $least } W oder mehr (ein Bauteil mit { $rating })
 term-suggestion-estimate = Eine Schätzung aus einer einzigen Messreihe ({ $calibrated }, μg1g2 { $mu }); den Ruhestrom nach der Änderung erneut messen.
@@ -981,10 +983,10 @@ note-unfit-no-plate = es gibt keinen Messwert der Anodenspannung
 note-unfit-no-screen = es gibt keinen Messwert der Schirmgitterspannung
 note-unfit-no-current = kein Messwert ergibt den Ruhestrom
 note-unfit-no-grid = es gibt keinen Messwert der Gitterspannung
-note-unfit-cut-off = ihre Messwerte liegen nach dem Drei-Halbe-Gesetz (μ { $mu }) im oder jenseits des Sperrbereichs, daher lässt sich das Gesetz nicht anpassen
+note-unfit-cut-off = nach ihren Messwerten wäre die Röhre gesperrt oder genau an der Sperrgrenze, wenn man ihren Strom nach dem 3/2-Potenzgesetz rechnet (der Strom wächst mit der wirksamen Steuerspannung hoch 3/2; μ { $mu }), daher lässt sich dieses Gesetz nicht an sie anpassen
 note-no-suggestion-figure = { $reference }: kein Vorschlag für den Kathodenwiderstand, da keine Röhre daran einen Wert der Anodenverlustleistung hat
 note-no-suggestion-unfit = { $reference }: kein Vorschlag für den Kathodenwiderstand, da für { $valve } gilt: { $why }
-note-no-suggestion-reach = { $reference }: nach dem Drei-Halbe-Gesetz bringt kein Kathodenwiderstand { $valve } auf { $pct } % der zulässigen Anodenverlustleistung
+note-no-suggestion-reach = { $reference }: nach dem 3/2-Potenzgesetz des Röhrenstroms bringt kein Kathodenwiderstand { $valve } auf { $pct } % der zulässigen Anodenverlustleistung
 
 ## Aufzählungen im Text: „V3, V4 und V5“.
 
@@ -1076,6 +1078,10 @@ diag-date-label = "JJJJ-MM-TT" erwartet
 diag-date-help = Daten als ISO-8601-Text schreiben, zum Beispiel "2026-11-02"
 diag-bad-date = { $what } "{ $text }" ist kein gültiges Datum ({ $error })
 diag-bad-date-help = Daten nach ISO 8601 als Jahr-Monat-Tag schreiben, zum Beispiel "2026-11-02"
+diag-date-out-of-range = diesen Monat oder Tag gibt es nicht
+diag-date-too-short = es endet, bevor das Datum vollständig ist
+diag-date-too-long = nach dem Datum folgt noch etwas
+diag-date-not-ymd = es ist nicht als Jahr-Monat-Tag geschrieben
 diag-must-be-from = { $what } muss im Bereich { $range } liegen
 diag-cannot-be-negative = { $what } kann nicht negativ sein
 diag-cannot-be-zero = { $what } kann nicht null sein
@@ -1172,7 +1178,7 @@ diag-far-from-nominal = weit von der Nennspannung
 diag-mains-far-help = den Messwert prüfen, oder ob das Gerät an einem Stelltransformator lief
 diag-output-role-mismatch = { $position } ist als Endröhre angegeben, aber die Datentabelle führt { $type } als { $class }
 diag-unusual-role = ungewöhnliche Funktion für diesen Typ
-diag-rectifier-mismatch = { $position } ist als Gleichrichter angegeben, aber { $type } ist ein { $class }
+diag-rectifier-mismatch = { $position } ist als Gleichrichter angegeben, aber die Datentabelle führt { $type } als { $class }
 diag-not-a-rectifier = kein Gleichrichter
 diag-unknown-valve-type = unbekannter Röhrentyp "{ $type }" an { $position }
 diag-not-in-ratings = nicht in der Datentabelle
@@ -1287,6 +1293,49 @@ diag-acceptance-when = eine Akzeptanz braucht das Datum, an dem akzeptiert wurde
 diag-when-accepted = wann wurde das akzeptiert?
 diag-needs-value = `{ $name }` braucht einen Wert
 diag-value-missing = Wert fehlt
+
+## Die eigenen Worte des KDL-Parsers, soweit das Programm sie kennt
+## (src/job/kdl_words.rs). Unbekannte Worte des Parsers bleiben, wie er
+## sie schrieb.
+
+diag-kdl-expected = erwartet: { $what }
+diag-kdl-not = hier gehört { $what } hin
+diag-kdl-end-of-document = erwartet: das Ende der Datei
+diag-kdl-no-closing-brace = der Block der Unterknoten wird nicht mit `{"}"}` geschlossen
+diag-kdl-newline-in-string = ein Zeilenumbruch in einer einzeiligen Zeichenkette in Anführungszeichen
+diag-kdl-no-closing-quote = das schließende Anführungszeichen einer Zeichenkette fehlt
+diag-kdl-no-closing-quotes = die schließenden Anführungszeichen einer mehrzeiligen Zeichenkette fehlen
+diag-kdl-multiline-prefix = jede Zeile einer mehrzeiligen Zeichenkette muss mit der Einrückung der schließenden Zeile beginnen
+diag-kdl-bad-node-name = das kann kein Knotenname sein
+diag-kdl-block-without-name = ein Block von Unterknoten, wo ein Knotenname hingehört
+diag-kdl-bad-fraction = ein Zeichen nach dem `.` einer Zahl, das keine Ziffer ist
+diag-kdl-bad-exponent = ein Zeichen im Exponenten einer Zahl, das keine Ziffer ist
+diag-kdl-bad-type-annotation = die Typangabe enthält etwas, das sie nicht enthalten darf
+diag-kdl-raw-string-shape = eine einzeilige Rohzeichenkette darf nicht wie eine mehrzeilige aussehen
+diag-kdl-negative-unsigned = eine negative Zahl, wo eine Zahl ohne Vorzeichen hingehört
+diag-kdl-thing-node-name = ein Knotenname
+diag-kdl-thing-identifier = ein Name
+diag-kdl-thing-quoted-string = eine Zeichenkette in Anführungszeichen
+diag-kdl-thing-raw-string = eine Rohzeichenkette
+diag-kdl-thing-multiline-string = eine mehrzeilige Zeichenkette
+diag-kdl-thing-property-value = ein Wert einer Eigenschaft
+diag-kdl-thing-type-name = ein Typname
+diag-kdl-thing-keyword = ein Schlüsselwort
+diag-kdl-thing-integer = eine ganze Zahl
+diag-kdl-thing-float = eine Dezimalzahl
+diag-kdl-thing-binary = eine Binärzahl
+diag-kdl-thing-octal = eine Oktalzahl
+diag-kdl-thing-hexadecimal = eine Hexadezimalzahl
+diag-kdl-thing-newline = ein Zeilenumbruch
+diag-kdl-thing-end = das Ende der Datei
+diag-kdl-thing-comment-end = das Ende eines mehrzeiligen Kommentars
+diag-kdl-thing-closing-quotes = die schließenden Anführungszeichen
+diag-kdl-thing-unicode-escape = eine Unicode-Escape-Sequenz
+diag-kdl-help-escape = etwas vergessen zu maskieren?
+diag-kdl-help-node-name = den Namen des Knotens vergessen, oder den Knoten vor seinem Block von Unterknoten beendet?
+diag-kdl-help-terminator = ein Wert wurde zum Teil gelesen, endet hier aber nicht; war ein Leerzeichen gemeint?
+diag-kdl-help-exponent = eine Zahl mit Exponent sieht aus wie 2.0e123 oder 43.3E-4
+diag-kdl-help-string = jede Art von Zeichenkette ist möglich: in Anführungszeichen, roh, mehrzeilig oder ein einfacher Name
 
 ## Diagnosen des `network`-Blocks einer Modifikation (src/job/network/decode.rs).
 
@@ -1660,6 +1709,28 @@ diag-photo-too-large-to-decode = ist ein zu großes Bild zum Dekodieren (höchst
 diag-photo-does-not-decode = lässt sich nicht als Bild dekodieren ({ $error })
 diag-photo-not-encoded = konnte nicht neu kodiert werden ({ $error })
 
+## Was der Bildleser an einem Foto oder einem PNG-Logo beanstandet
+## (src/photo/mod.rs). `$detail` sind die eigenen Worte des Lesers.
+
+diag-image-damaged = seine Daten sind beschädigt oder abgeschnitten ({ $detail })
+diag-image-not-encoded = es ließ sich nicht wieder schreiben ({ $detail })
+diag-image-too-large = es ist größer, als die Grenzen des Lesers erlauben
+diag-image-unsupported = es ist eine Bildart, die der Leser nicht unterstützt ({ $detail })
+
+## Was der XML-Leser an einem SVG-Logo beanstandet (src/shop/logo.rs).
+
+diag-xml-at = { $what } (Zeile { $line }, Spalte { $column })
+diag-xml-ends-early = sie endet, bevor die Zeichnung vollständig ist
+diag-xml-no-root = sie enthält kein Element
+diag-xml-dtd = sie hat eine Dokumenttyp-Deklaration, die nicht erlaubt ist
+diag-xml-wrong-close = `</{ $found }>` schließt ein Element, das `<{ $expected }>` ist
+diag-xml-unknown-entity = die Entität `&{ $name };` ist nicht definiert
+diag-xml-duplicate-attribute = das Attribut `{ $name }` ist doppelt angegeben
+diag-xml-unknown-namespace = das Namensraum-Präfix `{ $name }` ist nicht deklariert
+diag-xml-bad-name = ein Name, den XML nicht erlaubt
+diag-xml-bad-attribute = ein Attributwert, den XML nicht erlaubt
+diag-xml-too-many = sie hat mehr Elemente, Attribute oder Namensräume, als ein Logo haben darf
+
 ## Beispiele in Diagnosen, deren Beispieltexte der Leser selbst schreibt:
 ## KDL, wie es geschrieben würde, die Texte in der Sprache der Werkstatt
 ## (src/job/decode.rs, src/shop/decode.rs). Knoten- und Eigenschaftsnamen
@@ -1689,6 +1760,7 @@ cli-summary = { $jobs ->
        *[other] { $jobs } Aufträge
     } in { $time }: { $rendered } erstellt, { $unchanged } unverändert, { $failed } fehlgeschlagen
 cli-summary-stopped = , { $count } nicht begonnen (angehalten)
+cli-progress-jobs = Aufträge
 cli-watch-failed = fehlgeschlagen { $job } nach { $time }; { $output } blieb unverändert
 cli-wrote = geschrieben: { $path }
 cli-wrote-stdout = das PDF auf die Standardausgabe geschrieben
@@ -1777,6 +1849,99 @@ cli-new-started-from =
     Sicherheitsprüfungen, Notizen, Kunde und Kosten nicht.
 cli-new-readings = Messwerte dieses Auftrags:
 
+## Die Kommentare des Auftragsgerüsts, das `init` und `new` schreiben
+## (templates/job-skeleton.kdl): jede Zeile einer Meldung wird eine
+## Kommentarzeile.
+
+cli-skeleton-intro = Eine Auftragsdatei für ampreport (KDL 2.0). Eine Datei je Reparatur;
+    unter Versionsverwaltung halten und die Dokumente daraus neu erzeugen.
+cli-skeleton-values = Werte: eine bloße Zahl ist in der SI-Grundeinheit (Volt, Ampere, Ohm,
+    Watt, Farad, Hertz). Textwerte dürfen einen SI-Vorsatz oder einen
+    RKM-Code und ein Einheitenzeichen tragen: "470k", "4k7", "4R7", "0.022u",
+    "38.5mV", "34mA", "22µF". Das Zeichen muss zum Feld passen: "38.5mA", wo
+    eine Spannung hingehört, ist ein Fehler. Prozente: "10%" oder 10.
+    Datumsangaben: "JJJJ-MM-TT". Text in doppelten Anführungszeichen;
+    Wahrheitswerte sind #true und #false. Zahlen immer mit Dezimalpunkt.
+cli-skeleton-format = Das Format, in dem diese Datei geschrieben ist. Immer zuerst.
+cli-skeleton-job = Der Auftrag: Kennung (Pflicht), Eingangs- und Fertigstellungsdatum,
+    Techniker.
+cli-skeleton-customer = Der Kunde (freiwillig; erscheint nie in einer Verkaufsübersicht).
+cli-skeleton-unit = Das Gerät: Hersteller und Modell (Pflicht), Seriennummer, Baujahr;
+    Beschreibung und Zustand als Unterknoten. rated-power ist die Nennleistung
+    laut Hersteller, für die Messungen am Prüfplatz.
+cli-skeleton-mains = Netz: örtliche Nennspannung (Pflicht) und Frequenz; die Toleranz des
+    Netzes für die Hochrechnung auf Überspannung (Vorgabe +5 % bei 100–130 V
+    Nennspannung, nach ANSI C84.1 Bereich A, sonst +10 %, nach IEC 60038);
+    und die Netzspannung, von der die Spannungstabelle des Herstellers ausgeht.
+cli-skeleton-valves = Die Röhrenbestückung: Position, Typ (wie ihn die Datentabelle kennt, siehe
+    `ampreport tubes`) und Aufgabe: preamp (Vorstufe), phase-inverter
+    (Phasenumkehr), output (Endstufe), rectifier (Gleichrichter), tremolo,
+    reverb-driver (Hall-Treiber), reverb-recovery (Hall-Rückgewinnung) oder
+    other.
+cli-skeleton-circuit = Angaben zur Schaltung, die die Berechnungen brauchen.
+cli-skeleton-bias = cathode (automatische) oder fixed (feste Gittervorspannung)
+cli-skeleton-cathode-resistor = Ein Kathodenwiderstand, auch gemeinsam für ein Paar:
+cli-skeleton-sense-resistor = Ein Messwiderstand von einer Kathode nach Masse, zum Prüfen des
+    Ruhestroms:
+cli-skeleton-screen-resistor = Ein Schirmgitterwiderstand und der Knoten, der ihn speist (ergibt den
+    Schirmgitterstrom):
+cli-skeleton-half-primary = Gleichstromwiderstand einer Halbwicklung (kalt und ausgeschaltet
+    gemessen), für das Verfahren über den Trafowiderstand; bei einem
+    Parallelpaar beide Röhren nennen:
+cli-skeleton-nodes = Versorgungsknoten mit dem Wert aus der Spannungstabelle und seiner
+    Toleranz:
+cli-skeleton-droppers = Siebwiderstände zwischen zwei Knoten, mit ihrer Belastbarkeit:
+cli-skeleton-filter-capacitors = Siebkondensatoren an einem Knoten, mit ihrer Spannungsfestigkeit:
+cli-skeleton-winding = Die Hochspannungswicklung: Effektivspannung je Seite und die
+    Primärspannung, für die dieser Wert gilt (ergibt die Spitze beim
+    Kaltstart):
+cli-skeleton-rectifier = Der Gleichrichter: eine Röhrenposition oder `silicon` (drop="1V"
+    freiwillig).
+cli-skeleton-measurements = Eine oder mehrere Messreihen, jede mit der dabei gemessenen Netzspannung.
+cli-skeleton-node-reading = Ein Knoten: Name und gemessene Spannung (chart= und tolerance= können
+    den Wert der Schaltung für diese Messung ersetzen).
+cli-skeleton-valve-reading = Eine Röhre: Anoden-, Schirmgitter-, Kathoden- und Gitterspannung gegen
+    Masse; die Spannung am Messwiderstand (sense=) oder an der Halbwicklung
+    (primary-drop=); oder ein direkt gemessener Strom mit method=probe
+    (Bias-Messadapter: Kathodenstrom) oder method=shunt (Strommesser über
+    der halben Primärwicklung: Anodenstrom).
+cli-skeleton-final-set = Die letzte Messreihe (oder die mit final=#true) ist der Zustand, in dem das
+    Gerät übergeben wird: Zusammenfassung, Übersicht und --strict beurteilen sie.
+cli-skeleton-bias-control = Wo der Bias-Regler stehen geblieben ist, in eigenen Worten:
+cli-skeleton-type-change = Ein anderer Röhrentyp in dieser Messreihe (ein getauschter
+    Gleichrichter):
+cli-skeleton-set-circuit = Bauteile, die in dieser Messreihe vom Schaltungsblock abweichen:
+cli-skeleton-output-power = Messungen am Prüfplatz an einer Lastnachbildung. Ausgangsleistung: der
+    Messwert als rms= oder peak-to-peak=, dazu at=clipping, ein Klirrfaktor
+    (at="5%") oder die Eingangsspannung (at="0.5V"); Frequenz ohne Angabe 1
+    kHz.
+cli-skeleton-hum-noise = Brumm und Rauschen: Effektivspannung an der Last, Eingang kurzgeschlossen
+    oder offen.
+cli-skeleton-gain = Verstärkung: Eingangsspannung für einen Ausgangswert.
+cli-skeleton-response = Frequenzgang: Ausgangsspannung je Frequenz bei fester Eingangsspannung;
+    ein Messwert muss bei der Bezugsfrequenz liegen (Vorgabe 1 kHz).
+cli-skeleton-suggest = Bei automatischer Gittervorspannung einen Vorschlag für den
+    Kathodenwiderstand anfordern (er erscheint von selbst, wenn eine Röhre
+    über dem Richtwert läuft):
+cli-skeleton-warm-up = Messwerte während des Warmlaufens, nach Zeit seit dem Einschalten:
+cli-skeleton-part-without-reference = Ein Bauteil ohne Bezeichnung in der Schaltung:
+cli-skeleton-mods = Ein Umbau kann ein Netzwerk mitbringen: die Schaltung, die er ändert, wie sie
+    war, dann die Änderungen, die sie zum Zustand bei Übergabe machen. Das
+    Dokument zeichnet den Frequenzgang vorher und nachher für jede Stellung
+    des Potentiometers (0-10; mehrere Stellungen, "3 7", ergeben je eine
+    Kurve). `ground` ist der Bezugsknoten. Siehe docs/job-format.md.
+cli-skeleton-safety = Sicherheitsprüfungen mit dem angewandten Grenzwert. Die Grenzwerte nach den
+    Regeln setzen, die dort gelten, wo Sie arbeiten; dies sind übliche Vorgaben.
+cli-skeleton-private = Eine Notiz (oder ein Bauteil, ein Umbau, der Befund, die Arbeit) mit
+    private=#true erscheint nicht in der Verkaufsübersicht (render
+    --listing):
+cli-skeleton-photos = Fotos, relativ zum Ordner dieser Datei (PNG oder JPEG, höchstens 20 MB);
+    das Übergabedokument zeigt alle, die Verkaufsübersicht die mit listing=#true:
+cli-skeleton-accepted = Befunde, die Sie beurteilt haben und so akzeptieren, jeder mit seiner
+    Begründung (by= und date= sind ohne Angabe der Techniker und das
+    Fertigstellungsdatum des Auftrags):
+cli-skeleton-settings = Richtbereiche und Reserven; gezeigt sind die Vorgaben (übliche Praxis).
+
 ## Die Art der Gittervorspannung in der Röhrentabelle des Terminals
 ## (src/report/terminal.rs).
 
@@ -1786,7 +1951,9 @@ term-bias-fixed = fest
 ## Was zwischen dem fertigen Quelltext des Dokuments und dem PDF schiefging:
 ## Fehler von typst und des Satzordners (src/typeset). Ein Fehler, der vor
 ## dem Lesen des Werkstattprofils auffällt (typst fehlt oder ist zu alt),
-## wird auf Englisch gemeldet.
+## wird auf Englisch gemeldet. `$why` von `cli-typst-incomplete` ist einer
+## der Gründe `cli-typst-pdf-…`; deren `$detail` sind die Worte des
+## PDF-Lesers (lopdf), unübersetzt.
 
 cli-typst-not-found = typst wurde nicht gefunden: { $looked }
 cli-typst-not-found-help = mit `{ $install }` installieren oder das Programm mit `--typst PFAD` oder der Umgebungsvariablen AMPREPORT_TYPST angeben
@@ -1818,6 +1985,12 @@ cli-typst-odd-status = { $status }; diesen Status verwendet typst nicht für ein
 cli-typst-no-file = meldete Erfolg, schrieb aber keine Datei
 cli-typst-too-big = meldete Erfolg, schrieb aber { $size } Bytes, mehr als die { $limit }, die ein Dokument haben darf
 cli-typst-incomplete = meldete Erfolg, schrieb aber eine unvollständige Datei: { $why }
+cli-typst-pdf-empty = sie ist leer
+cli-typst-pdf-not-pdf = sie beginnt nicht wie ein PDF (`%PDF-`)
+cli-typst-pdf-no-end = sie endet nach { $size } Bytes ohne die Dateiende-Marke `%%EOF`
+cli-typst-pdf-unparsable = sie lässt sich nicht als PDF lesen ({ $detail })
+cli-typst-pdf-no-pages = sie hat keine Seiten
+cli-typst-pdf-reader-stopped = der PDF-Leser brach beim Lesen ab
 cli-typst-timed-out = das Programm typst { $path } hat `{ $action }` nicht innerhalb von { $seconds } s beendet und wurde angehalten{ $said }
 cli-typst-timed-out-help = ein Übergabedokument dauert einige Sekunden; ein typst, das hängt, ist fehlerhaft, oder der Rechner ist sehr ausgelastet. Mehr Zeit mit `--timeout SEKUNDEN` oder AMPREPORT_TIMEOUT erlauben
 cli-typst-interrupted = angehalten durch { $signal }; typst wurde angehalten und die temporären Dateien entfernt
@@ -1923,6 +2096,42 @@ cli-template-not-filled = Fehler: die Vorlage { $name } ließ sich nicht ausfül
 cli-shop-image-unreadable = Fehler: das Bild der Werkstatt { $path } ließ sich nicht lesen: { $error }
 cli-template-file-refused = Fehler: eine Datei des Vorlagenordners wurde abgelehnt: { $error }
 
+## Was die Vorlagen-Engine beanstandet (src/typeset/template_env.rs,
+## src/typeset/inside.rs, src/report/handover/mod.rs), das `$detail` von
+## `cli-template-not-filled`. `$detail` von `cli-template-engine-said`
+## sind die eigenen (englischen) Worte der Engine, nur wenn sie eine Zeile
+## der Vorlage nennt.
+
+cli-template-place = { $what } ({ $name }, Zeile { $line })
+cli-template-engine-said = { $what }: { $detail }
+cli-template-kind-syntax = ein Syntaxfehler
+cli-template-kind-undefined = ein Wert, den die Vorlage verwendet, ist nicht definiert
+cli-template-kind-unknown-filter = ein Filter, den es nicht gibt
+cli-template-kind-unknown-test = ein Test, den es nicht gibt
+cli-template-kind-unknown-function = eine Funktion, die es nicht gibt
+cli-template-kind-unknown-method = eine Methode, die es nicht gibt
+cli-template-kind-not-found = eine Vorlage, die sie einbindet oder importiert, fehlt
+cli-template-kind-too-many-arguments = zu viele Argumente
+cli-template-kind-missing-argument = ein Argument fehlt
+cli-template-kind-bad-escape = eine Zeichenkette mit einer ungültigen Escape-Sequenz
+cli-template-kind-invalid-operation = eine Operation, die ihre Werte nicht erlauben
+cli-template-kind-wrong-value = ein Wert der falschen Art
+cli-template-kind-bad-include = eine eingebundene Vorlage ließ sich nicht ausfüllen
+cli-template-kind-other = die Vorlagen-Engine hat abgebrochen
+cli-template-autoescape = die Vorlage `{ $name }` verwendet `{"{"}% autoescape %{"}"}`, was Typst-Vorlagen nicht dürfen
+cli-template-bad-name = der Vorlagenname `{ $name }` ist kein einfacher relativer Pfad
+cli-template-refused = die Vorlage `{ $name }` wurde abgelehnt: { $why }
+cli-template-not-utf8 = die Vorlage `{ $name }` ist kein UTF-8-Text
+cli-template-no-message = der Meldungskatalog ({ $language }, { $origin }) hat keine Meldung `{ $key }`
+cli-template-no-notice = { $what ->
+        [listing] die Verkaufsübersicht
+       *[document] das Dokument
+    } muss den Sicherheitshinweis zur Netzspannung enthalten: die Zeile `{ $line }` in die Vorlage setzen
+cli-inside-link = { $path } ist ein symbolischer Link; verwendet werden nur reguläre Dateien im Vorlagenordner (die Datei hineinkopieren, statt sie zu verlinken)
+cli-inside-not-a-file = { $path } ist keine reguläre Datei
+cli-inside-bad-name = `{ $name }` ist kein einfacher relativer Pfad im Vorlagenordner
+cli-inside-cannot-read = { $path } konnte nicht gelesen werden: { $error }
+
 ## Wohin ein Dokument nicht geschrieben werden darf (src/typeset/output.rs),
 ## in der Sprache des Auftrags, sobald sein Werkstattprofil gelesen ist.
 
@@ -1973,5 +2182,74 @@ cli-kind-other = keine gewöhnliche Datei
 ## der Wortlaut des Betriebssystems.
 
 cli-job-file-cannot-read = Fehler: die Auftragsdatei { $path } kann nicht gelesen werden: { $error }
-cli-job-file-too-large = Fehler: die Auftragsdatei { $path } ist größer als { $mib } MiB; eine Auftrags- oder Datentabellendatei umfasst wenige Kilobyte, vermutlich ist dies die falsche Datei
+cli-job-file-too-large = Fehler: die Auftragsdatei { $path } ist größer als { $limit } MiB; eine Auftrags- oder Datentabellendatei umfasst wenige Kilobyte, vermutlich ist dies die falsche Datei
 cli-job-file-not-utf8 = Fehler: { $place }: die Auftragsdatei ist kein UTF-8-Text (Byte { $byte } an dieser Stelle); bitte im Format UTF-8 speichern
+
+## Die Zeilen von `--verbose`, was woher gelesen wurde (src/cli/ui.rs,
+## load.rs, said.rs, render.rs). Zeilen zu einem Auftrag in der Sprache
+## seines Werkstattprofils; was vor dem Profil gelesen wird, auf Englisch.
+
+cli-read = gelesen: { $what }: { $from }
+cli-read-what-config-folder = Konfigurationsordner
+cli-read-what-cache-folder = Cache-Ordner
+cli-read-what-ratings = Datentabelle
+cli-read-what-shop = Werkstattprofil
+cli-read-what-logo = Logo der Werkstatt
+cli-read-what-translation = Übersetzung
+cli-read-what-job = Auftrag
+cli-read-what-template = Vorlage
+cli-read-what-typst = typst
+cli-read-what-fonts = Schriften
+cli-read-what-photo-cache = Foto-Cache
+cli-read-from-path = { $path }
+cli-read-from-no-home = keiner (kein Home-Ordner in der Umgebung)
+cli-read-from-ratings-built-in = eingebaut ({ $count } Typen, im Programm enthalten)
+cli-read-from-ratings-file = { $path } (Datentabelle der Werkstatt)
+cli-read-from-shop-refused = keines (--no-shop)
+cli-read-from-shop-none = keines (kein { $file } neben dem Auftrag oder darüber, kein --shop, keines im Konfigurationsordner)
+cli-read-from-shop = { $path } ({ $how ->
+        [beside] neben dem Auftrag oder darüber
+        [named] mit --shop angegeben
+       *[config] aus dem Konfigurationsordner
+    })
+cli-read-from-job = { $path } ({ $bytes } Bytes)
+cli-read-from-stdin = Standardeingabe ({ $bytes } Bytes)
+cli-read-from-template-shop = { $path } (Ordner der Werkstatt)
+cli-read-from-template-built-in = { $name } (eingebaut, im Programm enthalten)
+cli-read-from-typst = { $path } (Version { $version })
+cli-read-from-fonts-cache = { $path } (Cache)
+cli-read-from-fonts-sandbox = im Programm enthalten, für diesen Lauf geschrieben (kein nutzbarer Cache-Ordner)
+
+## Die Antwort des Betriebssystems auf eine fehlgeschlagene Dateioperation
+## (src/catalogue/mod.rs, `os_error`), als `$error` in anderen Meldungen.
+## `$detail` sind die eigenen Worte des Systems, unübersetzt.
+
+diag-os-not-found = diese Datei oder dieser Ordner existiert nicht
+diag-os-permission-denied = keine Berechtigung
+diag-os-is-a-folder = das ist ein Ordner, keine Datei
+diag-os-not-a-folder = ein Teil des Pfades ist kein Ordner
+diag-os-too-large = die Datei ist zu groß für das Dateisystem
+diag-os-already-exists = das existiert bereits
+diag-os-disk-full = der Datenträger ist voll
+diag-os-read-only = das Dateisystem ist schreibgeschützt
+diag-os-ended-early = das endete zu früh
+diag-os-interrupted = der Vorgang wurde unterbrochen
+diag-os-timed-out = der Vorgang hat zu lange gedauert
+diag-os-broken-pipe = das andere Ende der Pipe wurde geschlossen
+diag-os-out-of-memory = nicht genug Arbeitsspeicher
+diag-os-invalid-data = die Daten sind ungültig ({ $detail })
+diag-os-other = { $detail }
+
+## `REV:PATH` über git lesen, für `compare` (src/git/mod.rs), in der
+## Sprache des Werkstattprofils für den Ordner von PATH. `$detail` sind
+## die eigenen Worte von git, zitiert.
+
+cli-git-missing = der Befehl `git` wird gebraucht, um { $spec } zu lesen, ließ sich aber nicht ausführen: { $error }
+cli-git-not-repository = { $spec } kann nicht gelesen werden: dieser Ordner liegt in keinem git-Repository (git sagte: „{ $detail }“)
+cli-git-no-revision = { $spec } kann nicht gelesen werden: das Repository hat keine Revision `{ $rev }` (git sagte: „{ $detail }“)
+cli-git-not-in-revision = { $spec } kann nicht gelesen werden: `{ $path }` ist in der Revision `{ $rev }` nicht vorhanden (git sagte: „{ $detail }“)
+cli-git-failed = git konnte { $spec } nicht lesen: { $detail }
+cli-git-timed-out = git brauchte länger als { $seconds } Sekunden, um { $spec } zu lesen
+cli-git-interrupted = durch Signal { $signal } angehalten, während git { $spec } las
+cli-git-too-large = { $spec } ist größer als { $limit } MiB; eine Auftragsdatei umfasst wenige Kilobyte
+cli-git-not-utf8 = { $spec } ist kein UTF-8-Text

@@ -24,7 +24,6 @@ month-12 = December
 
 ## Status words, shown in the document's tables and panels.
 
-
 ## The hand-over document (templates/handover.typ).
 
 doc-footer-job = Job
@@ -166,6 +165,7 @@ doc-col-set-to = Set it to
 doc-col-reads-now = Reads
     now
 doc-grid-middle = about { $volts } on the grid for the middle (estimate)
+doc-grid-unknown = no grid estimate for the middle: { $why }
 doc-warm-up = Warm-up: idle current against time since power-on
 doc-col-time = Time
 doc-warm-up-note = Each reading is worked out as the set’s own readings are; the valves table above gives the settled figures.
@@ -695,6 +695,7 @@ term-col-high-line = high line
 term-window-sense = { $low }–{ $high } mV across the sense resistor
 term-window-primary = { $low }–{ $high } V across the half primary
 term-window-grid = grid about { $volts } for the middle
+term-window-grid-unknown = no grid estimate for the middle: { $why }
 term-now = now { $volts }
 term-estimate = (estimate)
 term-window = { $position } target window { $low }–{ $high } %
@@ -1074,6 +1075,10 @@ diag-date-label = expected "YYYY-MM-DD"
 diag-date-help = write dates as ISO 8601 text, for example "2026-11-02"
 diag-bad-date = { $what } "{ $text }" is not a valid date ({ $error })
 diag-bad-date-help = write dates as ISO 8601 year-month-day, for example "2026-11-02"
+diag-date-out-of-range = there is no such month or day
+diag-date-too-short = it ends before the date is complete
+diag-date-too-long = there is more after the date
+diag-date-not-ymd = it is not written as year-month-day
 diag-must-be-from = { $what } must be from { $range }
 diag-cannot-be-negative = { $what } cannot be negative
 diag-cannot-be-zero = { $what } cannot be zero
@@ -1285,6 +1290,50 @@ diag-acceptance-when = an acceptance needs the date it was accepted
 diag-when-accepted = when was this accepted?
 diag-needs-value = `{ $name }` needs a value
 diag-value-missing = value missing
+
+## The KDL parser's own words, where the program knows them
+## (src/job/kdl_words.rs): the `$problem` of `diag-kdl-syntax`, its label
+## and its help. `$what` is one of the `diag-kdl-thing-…` words. Words of
+## the parser not listed here are quoted as it wrote them.
+
+diag-kdl-expected = expected { $what }
+diag-kdl-not = not { $what }
+diag-kdl-end-of-document = expected the end of the file
+diag-kdl-no-closing-brace = a block of child nodes is not closed with `{"}"}`
+diag-kdl-newline-in-string = a line break inside a single-line quoted string
+diag-kdl-no-closing-quote = the closing quote of a string is missing
+diag-kdl-no-closing-quotes = the closing quotes of a multi-line string are missing
+diag-kdl-multiline-prefix = each line of a multi-line string must start with the closing line's indentation
+diag-kdl-bad-node-name = this cannot be a node name
+diag-kdl-block-without-name = a block of child nodes where a node name belongs
+diag-kdl-bad-fraction = a character that is not a digit after the `.` of a number
+diag-kdl-bad-exponent = a character that is not a digit in the exponent of a number
+diag-kdl-bad-type-annotation = the type annotation holds something it may not
+diag-kdl-raw-string-shape = a single-line raw string may not look like a multi-line one
+diag-kdl-negative-unsigned = a negative number where a number without sign belongs
+diag-kdl-thing-node-name = a node name
+diag-kdl-thing-identifier = a name
+diag-kdl-thing-quoted-string = a quoted string
+diag-kdl-thing-raw-string = a raw string
+diag-kdl-thing-multiline-string = a multi-line string
+diag-kdl-thing-property-value = a property value
+diag-kdl-thing-type-name = a type name
+diag-kdl-thing-keyword = a keyword
+diag-kdl-thing-integer = a whole number
+diag-kdl-thing-float = a decimal number
+diag-kdl-thing-binary = a binary number
+diag-kdl-thing-octal = an octal number
+diag-kdl-thing-hexadecimal = a hexadecimal number
+diag-kdl-thing-newline = a line break
+diag-kdl-thing-end = the end of the file
+diag-kdl-thing-comment-end = the end of a multi-line comment
+diag-kdl-thing-closing-quotes = the closing quotes
+diag-kdl-thing-unicode-escape = a Unicode escape
+diag-kdl-help-escape = did you forget to escape something?
+diag-kdl-help-node-name = did you forget the node's name, or end the node before its block of child nodes?
+diag-kdl-help-terminator = a value was read in part but does not end here; did you want a space?
+diag-kdl-help-exponent = a number with an exponent looks like 2.0e123 or 43.3E-4
+diag-kdl-help-string = any kind of string will do: quoted, raw, multi-line or a plain name
 
 ## Diagnostics of a mod's `network` block (src/job/network/decode.rs).
 
@@ -1656,6 +1705,31 @@ diag-photo-too-large-to-decode = is too large a picture to decode (at most { $si
 diag-photo-does-not-decode = does not decode as a picture ({ $error })
 diag-photo-not-encoded = could not be encoded again ({ $error })
 
+## What the image reader found wrong with a photo or a PNG logo
+## (src/photo/mod.rs, `image_problem`), the `$error` of
+## `diag-photo-does-not-decode` and `diag-logo-png-undecodable`.
+## `$detail` is the reader's own words.
+
+diag-image-damaged = its data is damaged or cut short ({ $detail })
+diag-image-not-encoded = it could not be written again ({ $detail })
+diag-image-too-large = it is larger than the reader's limits allow
+diag-image-unsupported = it uses a kind of picture the reader does not support ({ $detail })
+
+## What the XML reader found wrong with an SVG logo (src/shop/logo.rs,
+## `xml_problem`), the `$error` of `diag-logo-svg-malformed`.
+
+diag-xml-at = { $what } (line { $line }, column { $column })
+diag-xml-ends-early = it ends before the drawing is complete
+diag-xml-no-root = it holds no element
+diag-xml-dtd = it has a document type declaration, which is not allowed
+diag-xml-wrong-close = `</{ $found }>` closes an element that is `<{ $expected }>`
+diag-xml-unknown-entity = the entity `&{ $name };` is not defined
+diag-xml-duplicate-attribute = the attribute `{ $name }` is given twice
+diag-xml-unknown-namespace = the namespace prefix `{ $name }` is not declared
+diag-xml-bad-name = a name that XML does not allow
+diag-xml-bad-attribute = an attribute value that XML does not allow
+diag-xml-too-many = it has more elements, attributes or namespaces than a logo may
+
 ## Examples in diagnostics whose sample words are the reader's own: KDL as
 ## it would be written, with its texts in the shop's language
 ## (src/job/decode.rs, src/shop/decode.rs). The node and property names
@@ -1686,6 +1760,9 @@ cli-summary = { $jobs ->
        *[other] { $jobs } jobs
     } in { $time }: { $rendered } rendered, { $unchanged } unchanged, { $failed } failed
 cli-summary-stopped = , { $count } not started (stopped)
+# The word after the progress bar's count ("3/8 jobs"), in the language
+# the jobs finished so far share.
+cli-progress-jobs = jobs
 cli-watch-failed = failed { $job } after { $time }; { $output } was left as it was
 cli-wrote = wrote { $path }
 cli-wrote-stdout = wrote the PDF to standard output
@@ -1779,6 +1856,83 @@ cli-new-started-from =
     safety tests, notes, customer and charges are not.
 cli-new-readings = Readings of this service:
 
+## The comments of the job skeleton `init` and `new` write
+## (templates/job-skeleton.kdl, where each `// @KEY` line stands for one
+## message): each line of a message becomes one comment line, so keep
+## lines short (under 80 characters with the indentation).
+
+cli-skeleton-intro = An ampreport job file (KDL 2.0). One file per repair; keep it under
+    version control and regenerate the documents from it.
+cli-skeleton-values = Values: a plain number is in the base SI unit (volts, amperes, ohms,
+    watts, farads, hertz). Text values may carry an SI prefix or an RKM code
+    and a unit symbol: "470k", "4k7", "4R7", "0.022u", "38.5mV", "34mA",
+    "22µF". The symbol must match the field: "38.5mA" where a voltage
+    belongs is an error. Percentages: "10%" or 10. Dates: "YYYY-MM-DD".
+    Text in double quotes; booleans are #true and #false.
+cli-skeleton-format = The format this file is written in. Always first.
+cli-skeleton-job = The job: id (required), dates received and completed, technician.
+cli-skeleton-customer = The customer (optional; left out of dealer listings).
+cli-skeleton-unit = The unit: make and model (required), serial, year; description and
+    condition as child nodes.
+    rated-power is the maker's rated output, for the bench tests.
+cli-skeleton-mains = Mains: local nominal voltage (required) and frequency; the supply
+    tolerance used for the high-line projection (default +5 % for a
+    100–130 V nominal, per ANSI C84.1 Range A, else +10 %, per IEC 60038);
+    and the design mains that the unit's factory voltage chart assumes.
+cli-skeleton-valves = The valve line-up: position, type (as the ratings table knows it; see
+    `ampreport tubes`) and role: preamp, phase-inverter, output, rectifier,
+    tremolo, reverb-driver, reverb-recovery or other.
+cli-skeleton-circuit = Circuit facts the calculations need.
+cli-skeleton-bias = cathode or fixed
+cli-skeleton-cathode-resistor = A cathode resistor, possibly shared by a pair:
+cli-skeleton-sense-resistor = A sense resistor from a cathode to ground, for bias checks:
+cli-skeleton-screen-resistor = A screen resistor and the node feeding it (gives the screen current):
+cli-skeleton-half-primary = DC resistance of a half primary (measured cold, power off), for the
+    transformer-resistance method; list both valves of a parallel pair:
+cli-skeleton-nodes = Supply nodes with the factory chart figure and its tolerance:
+cli-skeleton-droppers = Dropper resistors between two nodes, with their power rating:
+cli-skeleton-filter-capacitors = Filter capacitors on a node, with their voltage rating:
+cli-skeleton-winding = The high-voltage winding: RMS volts per side and the primary
+    voltage that figure is rated at (gives the cold-start peak):
+cli-skeleton-rectifier = The rectifier: a valve position, or `silicon` (drop="1V" optional).
+cli-skeleton-measurements = One or more measurement sets, each with the mains read at the time.
+cli-skeleton-node-reading = A node: name and the voltage read (chart= and tolerance= may
+    override the circuit's figure for this reading).
+cli-skeleton-valve-reading = A valve: plate, screen, cathode and grid voltages to ground; the
+    voltage across its sense resistor (sense=) or across its half
+    primary (primary-drop=); or a current read directly with
+    method=probe (bias probe: cathode current) or method=shunt (ammeter
+    across half the primary: plate current).
+cli-skeleton-final-set = The last set (or the one marked final=#true) is the state the unit is
+    handed over in: the summary, the at-a-glance panel and --strict judge it.
+cli-skeleton-bias-control = Where the bias control was left, in your words:
+cli-skeleton-type-change = Another valve type fitted for this set (a rectifier swapped):
+cli-skeleton-set-circuit = Parts that differ from the circuit block for this set:
+cli-skeleton-output-power = Bench tests into a dummy load. Output power: the reading as rms= or
+    peak-to-peak=, and at=clipping, a distortion (at="5%") or the input
+    drive (at="0.5V"); frequency defaults to 1 kHz.
+cli-skeleton-hum-noise = Hum and noise: RMS volts across the load, input shorted or open.
+cli-skeleton-gain = Gain: input volts for an output reading.
+cli-skeleton-response = Response: output at each frequency for a fixed input; one reading
+    must be at the reference (default 1 kHz).
+cli-skeleton-suggest = For a cathode-biased amplifier, ask for a cathode-resistor
+    suggestion (it appears by itself when a valve runs above the guide):
+cli-skeleton-warm-up = Readings while the amplifier warms up, by time since power-on:
+cli-skeleton-part-without-reference = A part without a circuit reference:
+cli-skeleton-mods = A mod may carry a network: the circuit it changes as it was, then the
+    edits that make it as left. The document plots its response before and
+    after at each pot setting (0-10; several settings, "3 7", give a curve
+    each). `ground` is the reference node. See docs/job-format.md.
+cli-skeleton-safety = Safety tests with the limit applied. Set the limits from the rules that
+    apply where you work; these are common defaults.
+cli-skeleton-private = A note (or a part, a mod, the findings, the work) marked private is
+    left out of the listing document (render --listing):
+cli-skeleton-photos = Photos, relative to this file's folder (PNG or JPEG, at most 20 MB); the
+    hand-over shows them all, the listing those marked listing=#true:
+cli-skeleton-accepted = Findings you have judged and accept as they are, each with its reason
+    (by= and date= default to the job's technician and completion date):
+cli-skeleton-settings = Guide bands and margins; the defaults (common practice) are shown.
+
 ## The terminal summary's words added with the bias column
 ## (src/report/terminal.rs): the kind of bias of a valve.
 
@@ -1790,7 +1944,9 @@ term-bias-fixed = fixed
 ## compile.rs, child.rs, sandbox.rs). A failure found before the shop
 ## profile is read (typst missing or too old) is said in English.
 ## `$install` is the install command, `$said` empty or `cli-typst-it-said`,
-## `$status` one of the `cli-program-…` messages.
+## `$status` one of the `cli-program-…` messages; `$why` of
+## `cli-typst-incomplete` one of the `cli-typst-pdf-…` reasons, whose
+## `$detail` is the PDF reader's (lopdf's) own words.
 
 cli-typst-not-found = typst was not found: { $looked }
 cli-typst-not-found-help = install it with `{ $install }`, or name the program with `--typst PATH` or the AMPREPORT_TYPST environment variable
@@ -1822,6 +1978,12 @@ cli-typst-odd-status = { $status }, which typst does not use for a document erro
 cli-typst-no-file = reported success but wrote no file
 cli-typst-too-big = reported success but wrote { $size } bytes, more than the { $limit } a document may have
 cli-typst-incomplete = reported success but wrote an incomplete file: { $why }
+cli-typst-pdf-empty = it is empty
+cli-typst-pdf-not-pdf = it does not start like a PDF (`%PDF-`)
+cli-typst-pdf-no-end = it stops after { $size } bytes without the end-of-file mark `%%EOF`
+cli-typst-pdf-unparsable = it does not parse as a PDF ({ $detail })
+cli-typst-pdf-no-pages = it has no pages
+cli-typst-pdf-reader-stopped = the PDF reader broke off while reading it
 cli-typst-timed-out = the typst program { $path } did not finish `{ $action }` within { $seconds } s and was stopped{ $said }
 cli-typst-timed-out-help = a hand-over document takes a few seconds; a typst that hangs is at fault, or the machine is very busy. Allow longer with `--timeout SECONDS` or AMPREPORT_TIMEOUT
 cli-typst-interrupted = stopped by { $signal }; typst was stopped and the temporary files removed
@@ -1924,11 +2086,50 @@ cli-reading-stdin = note: reading the job from standard input; end it with Ctrl-
 
 ## A document that could not be assembled before typst ran
 ## (src/cli/render.rs, from src/report/handover/mod.rs), in the job's
-## language. `$detail` is the template engine's own words.
+## language. `$detail` is one of the `cli-template-…` messages below,
+## `$error` the operating system's answer (`diag-os-…`) or one of the
+## `cli-inside-…` refusals.
 
 cli-template-not-filled = error: the template { $name } could not be filled: { $detail }
 cli-shop-image-unreadable = error: could not read the shop image { $path }: { $error }
 cli-template-file-refused = error: refused a file of the template folder: { $error }
+
+## What the template engine found wrong (src/typeset/template_env.rs,
+## src/typeset/inside.rs, src/report/handover/mod.rs), the `$detail` of
+## `cli-template-not-filled`. `cli-template-place` adds the template and
+## its line to `$what`; `cli-template-engine-said` quotes the engine's own
+## words (`$detail`, in English) where the error names a template line.
+## `$what` of `cli-template-no-notice` is `document` or `listing`.
+
+cli-template-place = { $what } ({ $name }, line { $line })
+cli-template-engine-said = { $what }: { $detail }
+cli-template-kind-syntax = a syntax error
+cli-template-kind-undefined = a value the template uses is undefined
+cli-template-kind-unknown-filter = a filter that does not exist
+cli-template-kind-unknown-test = a test that does not exist
+cli-template-kind-unknown-function = a function that does not exist
+cli-template-kind-unknown-method = a method that does not exist
+cli-template-kind-not-found = a template it includes or imports is not there
+cli-template-kind-too-many-arguments = too many arguments
+cli-template-kind-missing-argument = an argument is missing
+cli-template-kind-bad-escape = a string with a bad escape sequence
+cli-template-kind-invalid-operation = an operation its values do not allow
+cli-template-kind-wrong-value = a value of the wrong kind
+cli-template-kind-bad-include = a template it includes could not be filled
+cli-template-kind-other = the template engine stopped
+cli-template-autoescape = the template `{ $name }` uses `{"{"}% autoescape %{"}"}`, which Typst templates may not
+cli-template-bad-name = the template name `{ $name }` is not a plain relative path
+cli-template-refused = the template `{ $name }` was refused: { $why }
+cli-template-not-utf8 = the template `{ $name }` is not UTF-8 text
+cli-template-no-message = the message catalogue ({ $language }, { $origin }) has no message `{ $key }`
+cli-template-no-notice = the { $what ->
+        [listing] listing
+       *[document] document
+    } must carry the mains-safety notice: put the line `{ $line }` in the template
+cli-inside-link = { $path } is a symbolic link; only regular files inside the template folder are used (copy the file in instead of linking it)
+cli-inside-not-a-file = { $path } is not a regular file
+cli-inside-bad-name = `{ $name }` is not a plain relative path inside the template folder
+cli-inside-cannot-read = could not read { $path }: { $error }
 
 ## Where a document may not be written (src/typeset/output.rs), in the
 ## job's language once its shop profile is read. `$what` is one of the
@@ -1982,5 +2183,78 @@ cli-kind-other = not a regular file
 ## system's own words.
 
 cli-job-file-cannot-read = error: cannot read the job file { $path }: { $error }
-cli-job-file-too-large = error: the job file { $path } is larger than { $mib } MiB; a job or ratings file is a few kilobytes, so this is probably the wrong file
+cli-job-file-too-large = error: the job file { $path } is larger than { $limit } MiB; a job or ratings file is a few kilobytes, so this is probably the wrong file
 cli-job-file-not-utf8 = error: { $place }: the job file is not UTF-8 text (byte { $byte } here); save it as UTF-8
+
+## The `--verbose` lines saying what was read from where (src/cli/ui.rs,
+## load.rs, said.rs, render.rs): `cli-read` with `$what` one of the
+## `cli-read-what-…` words and `$from` one of the `cli-read-from-…`
+## phrases. Lines about a job follow its shop profile's language (the
+## profile's own line the language the profile names); lines said before
+## any profile is read (the folders, the ratings, the templates, typst)
+## are English. `$bytes` and `$count` are already written.
+
+cli-read = read: { $what }: { $from }
+cli-read-what-config-folder = config folder
+cli-read-what-cache-folder = cache folder
+cli-read-what-ratings = ratings
+cli-read-what-shop = shop profile
+cli-read-what-logo = shop logo
+cli-read-what-translation = translation
+cli-read-what-job = job
+cli-read-what-template = template
+cli-read-what-typst = typst
+cli-read-what-fonts = fonts
+cli-read-what-photo-cache = photo cache
+cli-read-from-path = { $path }
+cli-read-from-no-home = none (no home folder in the environment)
+cli-read-from-ratings-built-in = built in ({ $count } types, embedded in the program)
+cli-read-from-ratings-file = { $path } (a shop's ratings file)
+cli-read-from-shop-refused = none (--no-shop)
+cli-read-from-shop-none = none (no { $file } beside the job or above it, no --shop, none in the config folder)
+cli-read-from-shop = { $path } ({ $how ->
+        [beside] beside the job or above it
+        [named] named with --shop
+       *[config] the config folder
+    })
+cli-read-from-job = { $path } ({ $bytes } bytes)
+cli-read-from-stdin = standard input ({ $bytes } bytes)
+cli-read-from-template-shop = { $path } (shop folder)
+cli-read-from-template-built-in = { $name } (built in, embedded in the program)
+cli-read-from-typst = { $path } (version { $version })
+cli-read-from-fonts-cache = { $path } (cache)
+cli-read-from-fonts-sandbox = embedded in the program, written for this run (no usable cache folder)
+
+## The operating system's answer to a file operation that failed
+## (src/catalogue/mod.rs, `os_error`), quoted inside other messages as
+## their `$error`. `$detail` is the system's (or the reader's) own words.
+
+diag-os-not-found = there is no such file or folder
+diag-os-permission-denied = permission denied
+diag-os-is-a-folder = it is a folder, not a file
+diag-os-not-a-folder = a part of the path is not a folder
+diag-os-too-large = the file is too large for the file system
+diag-os-already-exists = it already exists
+diag-os-disk-full = the disk is full
+diag-os-read-only = the file system is read-only
+diag-os-ended-early = it ended too early
+diag-os-interrupted = the operation was interrupted
+diag-os-timed-out = the operation timed out
+diag-os-broken-pipe = the other end of the pipe was closed
+diag-os-out-of-memory = there is not enough memory
+diag-os-invalid-data = the data is not valid ({ $detail })
+diag-os-other = { $detail }
+
+## Reading `REV:PATH` through git for `compare` (src/git/mod.rs), in the
+## language of the shop profile serving PATH's folder. `$rev` and `$path`
+## are the two halves of `$spec`; `$detail` is git's own words, quoted.
+
+cli-git-missing = the `git` command is needed to read { $spec }, and it could not be run: { $error }
+cli-git-not-repository = cannot read { $spec }: this folder is not inside a git repository (git said: “{ $detail }”)
+cli-git-no-revision = cannot read { $spec }: the repository has no revision `{ $rev }` (git said: “{ $detail }”)
+cli-git-not-in-revision = cannot read { $spec }: `{ $path }` is not in revision `{ $rev }` (git said: “{ $detail }”)
+cli-git-failed = git could not read { $spec }: { $detail }
+cli-git-timed-out = git took more than { $seconds } seconds to read { $spec }
+cli-git-interrupted = stopped by signal { $signal } while git read { $spec }
+cli-git-too-large = { $spec } is larger than { $limit } MiB; a job file is a few kilobytes
+cli-git-not-utf8 = { $spec } is not UTF-8 text

@@ -8,7 +8,7 @@
 use std::io::Read;
 use std::path::{Path, PathBuf};
 
-use crate::catalogue::Msg;
+use crate::catalogue::{Msg, os_error};
 
 /// The largest input text file read: 16 MiB, thousands of times a real
 /// job file, far below what would strain memory.
@@ -41,30 +41,56 @@ pub enum InputFileError {
     },
 }
 
+/// The keys of the three messages a text input's reading problems are
+/// said with: it cannot be read (`$path`, `$error`), it is too large
+/// (`$path`, `$limit` in MiB), it is not UTF-8 (`$place` as
+/// `file:line:column`, `$byte` as `0x9f`). Each kind of input (a job
+/// file, a translation file) has its own words with the same arguments.
+#[derive(Debug, Clone, Copy)]
+pub struct ReadKeys {
+    pub cannot_read: &'static str,
+    pub too_large: &'static str,
+    pub not_utf8: &'static str,
+}
+
+/// A job file's reading problems (`cli-job-file-…`).
+pub const JOB_FILE_KEYS: ReadKeys = ReadKeys {
+    cannot_read: "cli-job-file-cannot-read",
+    too_large: "cli-job-file-too-large",
+    not_utf8: "cli-job-file-not-utf8",
+};
+
 impl InputFileError {
-    /// The problem of a job file as a catalogue message (`cli-job-file-…`),
-    /// to be said in the language of the shop profile serving the job's
-    /// folder; the path and the line:column are the same as in English, the
-    /// operating system's own words stay as it gave them.
-    pub fn job_file_msg(&self) -> Msg {
+    /// The problem as a catalogue message with `keys`' words, to be said
+    /// in the reader's language (a job file's: the language of the shop
+    /// profile serving its folder); the path and the line:column are the
+    /// same as in English, the operating system's answer is the
+    /// catalogue's words for it ([`os_error`]).
+    pub fn msg(&self, keys: &ReadKeys) -> Msg {
         match self {
-            InputFileError::Io { path, source, .. } => Msg::new("cli-job-file-cannot-read")
+            InputFileError::Io { path, source, .. } => Msg::new(keys.cannot_read)
                 .arg("path", path)
-                .arg("error", source.to_string()),
-            InputFileError::TooLarge { path, .. } => Msg::new("cli-job-file-too-large")
-                .arg("path", path)
-                .arg("mib", (MAX_INPUT_BYTES / (1024 * 1024)).to_string()),
+                .arg("error", os_error(source)),
+            InputFileError::TooLarge { path, .. } => too_large_msg(keys, path),
             InputFileError::NotUtf8 {
                 path,
                 line,
                 column,
                 byte,
                 ..
-            } => Msg::new("cli-job-file-not-utf8")
+            } => Msg::new(keys.not_utf8)
                 .arg("place", format!("{path}:{line}:{column}"))
                 .arg("byte", format!("0x{byte:02x}")),
         }
     }
+}
+
+/// The too-large message of `keys` for the file `path`, with the limit
+/// every input text file is held to.
+pub fn too_large_msg(keys: &ReadKeys, path: &str) -> Msg {
+    Msg::new(keys.too_large)
+        .arg("path", path)
+        .arg("limit", (MAX_INPUT_BYTES / (1024 * 1024)).to_string())
 }
 
 /// The name a job read from standard input has in messages and

@@ -94,6 +94,16 @@ fn a_german_shop_gives_german_diagnostics_at_the_same_places() {
         de.contains("job.kdl: 3 Probleme verhindern, dass diese Auftragsdatei gelesen wird"),
         "{de}"
     );
+    // The date reader's finding in the catalogue's words.
+    assert!(
+        support::says(&de, "(diesen Monat oder Tag gibt es nicht)"),
+        "{de}"
+    );
+    assert!(
+        support::says(&en, "(there is no such month or day)"),
+        "{en}"
+    );
+    assert!(!en.contains("out of range"), "{en}");
     // The codes stay the same in every language: scripts may match them.
     assert!(de.contains("ampreport::job::unknown-node"), "{de}");
 }
@@ -768,4 +778,414 @@ fn a_job_file_that_cannot_be_read_is_refused_in_the_shop_language() {
         de.contains("Fehler: die Auftragsdatei job.kdl ist größer als 16 MiB;"),
         "{de}"
     );
+}
+
+#[test]
+fn why_a_pdf_is_incomplete_is_said_in_the_shop_language() {
+    use support::says;
+    // A stand-in typst that reports success after writing only a PDF's
+    // first line (9 bytes) to its output, the last argument.
+    let half = "for a in \"$@\"; do out=$a; done; printf '%%PDF-1.7\\n' > \"$out\"";
+    let german = demo_folder("combo-el84-cathode.kdl", "language \"de\"");
+    let o = render_with_typst(german.path(), half);
+    assert_eq!(o.status.code(), Some(3), "{}", stderr(&o));
+    let err = stderr(&o);
+    assert!(
+        says(
+            &err,
+            "schrieb aber eine unvollständige Datei: sie endet nach 9 Bytes ohne die Dateiende-Marke `%%EOF`"
+        ),
+        "{err}"
+    );
+    assert!(!says(&err, "without the end-of-file mark"), "{err}");
+    assert!(
+        err.contains("ampreport::typeset::typst_misbehaved"),
+        "{err}"
+    );
+    let english = demo_folder("combo-el84-cathode.kdl", "");
+    let err = stderr(&render_with_typst(english.path(), half));
+    assert!(
+        says(
+            &err,
+            "wrote an incomplete file: it stops after 9 bytes without the end-of-file mark `%%EOF`"
+        ),
+        "{err}"
+    );
+}
+
+#[test]
+fn verbose_lines_about_a_job_are_said_in_the_shop_language() {
+    let job = std::fs::read_to_string(repo().join("jobs/combo-6v6-fixed.kdl")).unwrap();
+    let german = folder(&job, "language \"de\"");
+    let english = folder(&job, "");
+    let de = run(german.path(), &["check", "-v", "job.kdl"]);
+    let en = run(english.path(), &["check", "-v", "job.kdl"]);
+    assert!(de.status.success(), "{}", stderr(&de));
+    let (de, en) = (stderr(&de), stderr(&en));
+    let bytes = job.len();
+    let shop = |dir: &tempfile::TempDir| dir.path().join("shop.kdl").display().to_string();
+    for (german_words, english_words) in [
+        (
+            format!(
+                "gelesen: Werkstattprofil: {} (neben dem Auftrag oder darüber)",
+                shop(&german)
+            ),
+            format!(
+                "read: shop profile: {} (beside the job or above it)",
+                shop(&german)
+            ),
+        ),
+        (
+            "gelesen: Logo der Werkstatt: ".to_string(),
+            "read: shop logo: ".to_string(),
+        ),
+        (
+            format!("gelesen: Auftrag: job.kdl ({bytes} Bytes)"),
+            format!("read: job: job.kdl ({bytes} bytes)"),
+        ),
+    ] {
+        assert!(de.contains(&german_words), "{german_words} missing:\n{de}");
+        assert!(
+            !de.contains(&english_words),
+            "{english_words} left in:\n{de}"
+        );
+        let english_words = english_words.replace(&shop(&german), &shop(&english));
+        assert!(
+            en.contains(&english_words),
+            "{english_words} missing:\n{en}"
+        );
+    }
+    // Read before any profile: English in both.
+    assert!(de.contains("read: ratings: built in ("), "{de}");
+    // No profile at all: the catalogue's English.
+    let o = run(german.path(), &["check", "-v", "--no-shop", "job.kdl"]);
+    assert!(
+        stderr(&o).contains("read: shop profile: none (--no-shop)"),
+        "{}",
+        stderr(&o)
+    );
+}
+
+#[test]
+fn the_valve_class_of_a_role_mismatch_is_said_in_the_shop_language() {
+    let job = std::fs::read_to_string(repo().join("jobs/combo-6v6-fixed.kdl")).unwrap();
+    let job = job.replacen(
+        "valve V5 type=\"5Y3GT\" role=rectifier",
+        "valve V5 type=\"12AX7\" role=rectifier",
+        1,
+    );
+    assert!(job.contains("type=\"12AX7\" role=rectifier"));
+    same_places(
+        &job,
+        &[(
+            "V5 is listed as the rectifier, but 12AX7 is a preamp triode",
+            "V5 ist als Gleichrichter angegeben, aber die Datentabelle führt 12AX7 als Vorstufentriode",
+        )],
+    );
+}
+
+#[test]
+fn the_operating_systems_words_are_said_in_the_shop_language() {
+    let german = folder("", "language \"de\"");
+    let english = folder("", "");
+    let de = stderr(&run(german.path(), &["check", "missing.kdl"]));
+    let en = stderr(&run(english.path(), &["check", "missing.kdl"]));
+    assert!(
+        de.contains(
+            "die Auftragsdatei missing.kdl kann nicht gelesen werden: diese Datei oder dieser Ordner existiert nicht"
+        ),
+        "{de}"
+    );
+    assert!(
+        en.contains("cannot read the job file missing.kdl: there is no such file or folder"),
+        "{en}"
+    );
+}
+
+#[test]
+fn why_there_is_no_grid_estimate_is_said_in_the_shop_language() {
+    // The demo's fixed-bias valves without their grid readings: the window
+    // is given, the grid estimate for its middle cannot be, and the
+    // terminal and the JSON say why.
+    let demo = std::fs::read_to_string(repo().join("jobs/combo-6v6-fixed.kdl")).unwrap();
+    let job = demo
+        .replace(" grid=\"-19.5V\"", "")
+        .replace(" grid=\"-23V\"", "");
+    assert!(!job.contains("grid=\"-"), "{job}");
+    let english_words = "no grid estimate for the middle: there is no grid reading";
+    let german_words = "keine Schätzung der Gitterspannung für die Mitte: es gibt keinen Messwert der Gitterspannung";
+    for args in [
+        &["check", "job.kdl"][..],
+        &["calc", "--json", "job.kdl"][..],
+    ] {
+        let de = run(folder(&job, "language \"de\"").path(), args);
+        let en = run(folder(&job, "").path(), args);
+        let (de, en) = (stdout(&de), stdout(&en));
+        if args[0] == "calc" {
+            let json: serde_json::Value = serde_json::from_str(&de).unwrap();
+            let reasons: Vec<&str> = json["sets"]
+                .as_array()
+                .unwrap()
+                .iter()
+                .flat_map(|s| s["valves"].as_array().unwrap())
+                .filter_map(|v| v["target_window"]["grid_for_middle_unknown_reason"].as_str())
+                .collect();
+            assert!(!reasons.is_empty(), "{de}");
+            assert!(
+                reasons
+                    .iter()
+                    .all(|r| *r == "es gibt keinen Messwert der Gitterspannung"),
+                "{reasons:?}"
+            );
+            assert!(
+                en.contains("\"grid_for_middle_unknown_reason\": \"there is no grid reading\""),
+                "{en}"
+            );
+        } else {
+            assert!(de.contains(german_words), "{de}");
+            assert!(!de.contains(english_words), "{de}");
+            assert!(en.contains(english_words), "{en}");
+        }
+    }
+    // With the readings, an estimate and no reason.
+    let en = stdout(&run(
+        folder(&demo, "").path(),
+        &["calc", "--json", "job.kdl"],
+    ));
+    assert!(
+        !en.contains("\"grid_for_middle_unknown_reason\": \""),
+        "{en}"
+    );
+}
+
+#[test]
+fn what_the_template_engine_found_is_said_in_the_shop_language() {
+    use support::says;
+    // (template, German words, English words): the kind of problem in the
+    // catalogue's words, the engine's own detail only where it names a
+    // template line, and the template and line.
+    let cases = [
+        (
+            "{{ font_rules }}\n{{ no_such_variable }}\n",
+            "ließ sich nicht ausfüllen: ein Wert, den die Vorlage verwendet, ist nicht definiert (handover.typ, Zeile 2)",
+            "could not be filled: a value the template uses is undefined (handover.typ, line 2)",
+        ),
+        (
+            "{{ font_rules }}\n\n{{ foo }\n",
+            "ließ sich nicht ausfüllen: ein Syntaxfehler: unexpected `}`, expected end of variable block (handover.typ, Zeile 3)",
+            "could not be filled: a syntax error: unexpected `}`, expected end of variable block (handover.typ, line 3)",
+        ),
+        (
+            "{{ font_rules }}\n{{ t(\"doc-no-such-label\") }}\n",
+            "der Meldungskatalog (de, built-in) hat keine Meldung `doc-no-such-label` (handover.typ, Zeile 2)",
+            "the message catalogue (en, built-in) has no message `doc-no-such-label` (handover.typ, line 2)",
+        ),
+        (
+            "{{ font_rules }}\nShop copy.\n",
+            "das Dokument muss den Sicherheitshinweis zur Netzspannung enthalten: die Zeile `#include \"mains-safety.typ\"` in die Vorlage setzen",
+            "the document must carry the mains-safety notice: put the line `#include \"mains-safety.typ\"` in the template",
+        ),
+    ];
+    for (template, german_words, english_words) in cases {
+        for (extra, words, other) in [
+            ("language \"de\"", german_words, english_words),
+            ("", english_words, german_words),
+        ] {
+            let dir = demo_folder("combo-el84-cathode.kdl", extra);
+            let templates = dir.path().join("templates");
+            std::fs::create_dir(&templates).unwrap();
+            std::fs::write(templates.join("handover.typ"), template).unwrap();
+            let typst = dir.path().join("stand-in-typst");
+            std::fs::write(
+                &typst,
+                "#!/bin/sh\nif [ \"$1\" = --version ]; then echo 'typst 0.15.1 (stand-in)'; exit 0; fi\nexit 9\n",
+            )
+            .unwrap();
+            support::make_executable(&typst);
+            let o = std::process::Command::new(support::bin())
+                .current_dir(dir.path())
+                .args(["render", "job.kdl", "--templates", "templates", "--typst"])
+                .arg(&typst)
+                .env("XDG_CONFIG_HOME", dir.path().join("no-config"))
+                .env("XDG_CACHE_HOME", support::cache_home())
+                .env_remove("AMPREPORT_TYPST")
+                .env("NO_COLOR", "1")
+                .output()
+                .unwrap();
+            // A shop's template is the shop's input: status 1.
+            assert_eq!(o.status.code(), Some(1), "{}", stderr(&o));
+            let err = stderr(&o);
+            assert!(says(&err, words), "{words} missing from:\n{err}");
+            assert!(!says(&err, other), "{other} in:\n{err}");
+        }
+    }
+}
+
+#[test]
+fn gits_problems_reading_a_revision_are_said_in_the_shop_language() {
+    use support::says;
+    let job = std::fs::read_to_string(repo().join("jobs/combo-el84-cathode.kdl")).unwrap();
+    let dir = folder(&job, "language \"de\"");
+    // Not a repository yet (the folder lies under the system's temporary
+    // folder, outside any repository).
+    let o = run(dir.path(), &["compare", "HEAD:job.kdl", "job.kdl"]);
+    assert_eq!(o.status.code(), Some(1), "{}", stderr(&o));
+    let err = stderr(&o);
+    assert!(
+        says(
+            &err,
+            "Fehler: HEAD:job.kdl kann nicht gelesen werden: dieser Ordner liegt in keinem git-Repository (git sagte: „fatal: not a git repository"
+        ),
+        "{err}"
+    );
+    let git = |args: &[&str]| {
+        let o = std::process::Command::new("git")
+            .current_dir(dir.path())
+            .args([
+                "-c",
+                "user.name=Bench",
+                "-c",
+                "user.email=bench@example.invalid",
+            ])
+            .args(["-c", "commit.gpgsign=false"])
+            .args(args)
+            .output()
+            .unwrap();
+        assert!(o.status.success(), "{}", String::from_utf8_lossy(&o.stderr));
+    };
+    git(&["init", "-q"]);
+    git(&["add", "job.kdl"]);
+    git(&["commit", "-q", "-m", "job"]);
+    for (spec, german_words, english_words) in [
+        (
+            "nope:job.kdl",
+            "das Repository hat keine Revision `nope` (git sagte: „fatal:",
+            "the repository has no revision `nope` (git said: “fatal:",
+        ),
+        (
+            "HEAD:other.kdl",
+            "`other.kdl` ist in der Revision `HEAD` nicht vorhanden (git sagte: „fatal:",
+            "`other.kdl` is not in revision `HEAD` (git said: “fatal:",
+        ),
+    ] {
+        let o = run(dir.path(), &["compare", spec, "job.kdl"]);
+        assert_eq!(o.status.code(), Some(1), "{}", stderr(&o));
+        let err = stderr(&o);
+        assert!(says(&err, german_words), "{german_words} missing:\n{err}");
+        assert!(!says(&err, english_words), "{err}");
+        let o = run(dir.path(), &["compare", "--no-shop", spec, "job.kdl"]);
+        let err = stderr(&o);
+        assert!(says(&err, english_words), "{english_words} missing:\n{err}");
+    }
+}
+
+#[test]
+fn the_job_skeleton_new_writes_is_commented_in_the_shop_language() {
+    let german = folder("", "language \"de\"");
+    std::fs::remove_file(german.path().join("job.kdl")).unwrap();
+    let o = run(german.path(), &["new"]);
+    assert!(o.status.success(), "{}", stderr(&o));
+    let made = made_by_new(german.path());
+    assert_eq!(made.len(), 1, "{made:?}");
+    let text = std::fs::read_to_string(&made[0]).unwrap();
+    assert!(
+        text.starts_with("// Eine Auftragsdatei für ampreport (KDL 2.0)."),
+        "{text}"
+    );
+    assert!(
+        text.contains("\n// Angaben zur Schaltung, die die Berechnungen brauchen.\ncircuit {"),
+        "{text}"
+    );
+    assert!(
+        !text.contains("// The job:") && !text.contains("// @"),
+        "{text}"
+    );
+    // It reads back as a job, under the German shop.
+    let name = made[0].file_name().unwrap().to_string_lossy().into_owned();
+    let o = run(german.path(), &["check", &name]);
+    assert!(o.status.success(), "{}", stderr(&o));
+    // `init` reads no profile: English, word for word the skeleton's.
+    let o = run(german.path(), &["init", "plain.kdl"]);
+    assert!(o.status.success(), "{}", stderr(&o));
+    let plain = std::fs::read_to_string(german.path().join("plain.kdl")).unwrap();
+    assert!(
+        plain.starts_with("// An ampreport job file (KDL 2.0)."),
+        "{plain}"
+    );
+}
+
+#[test]
+fn the_kdl_parsers_words_are_said_in_the_shop_language() {
+    use support::says;
+    // A child block left open at the end of the file: the parser's
+    // sentence, said from the catalogue at the same place in both.
+    let job = std::fs::read_to_string(repo().join("jobs/combo-el84-cathode.kdl")).unwrap();
+    let job = format!("{job}\nnotes {{\n    note \"open\"\n");
+    let german = folder(&job, "language \"de\"");
+    let english = folder(&job, "");
+    let de = stderr(&run(german.path(), &["check", "job.kdl"]));
+    let en = stderr(&run(english.path(), &["check", "job.kdl"]));
+    assert!(
+        says(
+            &en,
+            "KDL syntax: a block of child nodes is not closed with `}`"
+        ),
+        "{en}"
+    );
+    assert!(
+        says(
+            &de,
+            "KDL-Syntax: der Block der Unterknoten wird nicht mit `}` geschlossen"
+        ),
+        "{de}"
+    );
+    assert!(!says(&de, "closing '}'"), "{de}");
+    let place = |text: &str| {
+        let start = text.find("[job.kdl:").expect("a place") + 1;
+        let end = start + text[start..].find(']').unwrap();
+        text[start..end].to_string()
+    };
+    assert_eq!(place(&de), place(&en));
+}
+
+#[test]
+fn the_xml_and_image_readers_findings_are_said_in_the_shop_language() {
+    use support::says;
+    let job = std::fs::read_to_string(repo().join("jobs/combo-6v6-fixed.kdl")).unwrap();
+    // (logo file, its bytes, German words, English words)
+    let cases: [(&str, &[u8], &str, &str); 2] = [
+        (
+            "broken.svg",
+            b"<svg xmlns=\"http://www.w3.org/2000/svg\"><g></svg>\n",
+            "ist keine wohlgeformte SVG-Zeichnung (`</svg>` schließt ein Element, das `<g>` ist (Zeile 1,",
+            "is not a well-formed SVG drawing (`</svg>` closes an element that is `<g>` (line 1,",
+        ),
+        (
+            "cut.png",
+            // A PNG signature and the start of a header chunk, then nothing.
+            b"\x89PNG\r\n\x1a\n\0\0\0\x0dIHDR\0\0",
+            "beginnt wie ein PNG-Bild, lässt sich aber nicht dekodieren (",
+            "starts like a PNG picture but does not decode (",
+        ),
+    ];
+    for (name, bytes, german_words, english_words) in cases {
+        for (extra, words, other) in [
+            ("language \"de\"", german_words, english_words),
+            ("", english_words, german_words),
+        ] {
+            let dir = folder(&job, extra);
+            let profile = std::fs::read_to_string(dir.path().join("shop.kdl")).unwrap();
+            let profile =
+                profile.replacen("logo \"larkmoor-logo.svg\"", &format!("logo \"{name}\""), 1);
+            std::fs::write(dir.path().join("shop.kdl"), &profile).unwrap();
+            std::fs::write(dir.path().join(name), bytes).unwrap();
+            let o = run(dir.path(), &["check", "job.kdl"]);
+            assert_eq!(o.status.code(), Some(1), "{}", stderr(&o));
+            let err = stderr(&o);
+            assert!(says(&err, words), "{words} missing from:\n{err}");
+            assert!(!says(&err, other), "{err}");
+            let place = at("shop.kdl", &profile, &format!("\"{name}\""));
+            assert!(err.contains(&place), "{place} missing from:\n{err}");
+        }
+    }
 }

@@ -596,6 +596,10 @@ pub struct TargetWindow {
     /// measured point); null without a grid reading or μg1g2.
     #[serde(serialize_with = "round6_opt")]
     pub grid_for_middle_volts: Option<f64>,
+    /// Why there is no grid estimate for the middle (no grid reading, no
+    /// μg1g2 for the type, readings at cut-off), in the job's language;
+    /// null when there is one.
+    pub grid_for_middle_unknown_reason: Option<String>,
     /// Whether the current is inside the window now.
     pub inside: bool,
     /// "inside", "above" or "below" the window.

@@ -246,13 +246,14 @@ pub(crate) fn analyse(
             let mut w = window(ctx, reading, va, vk, max, c);
             // The grid voltage for the middle of the window, where the
             // three-halves law can be fitted (a grid reading and μg1g2 are
-            // needed); otherwise the window alone guides the adjustment.
+            // needed); otherwise the window alone guides the adjustment,
+            // and the reader is told why there is no estimate.
             let grid = reading.grid.as_ref().map(|g| g.value);
             let middle = Amps(w.plate_current_middle_ma / 1e3);
-            w.grid_for_middle_volts =
-                super::bias_estimate::grid_for_window_middle(&f, rating, grid, middle)
-                    .ok()
-                    .map(|g| g.0);
+            match super::bias_estimate::grid_for_window_middle(&f, rating, grid, middle) {
+                Ok(g) => w.grid_for_middle_volts = Some(g.0),
+                Err(why) => w.grid_for_middle_unknown_reason = Some(why.words(cat)),
+            }
             f.target_window = Some(w);
         }
     }
@@ -693,6 +694,7 @@ fn window(
         probe_high_ma: Some((ia_hi + ig2).0 * 1e3),
         plate_current_middle_ma: (ia_lo.0 + ia_hi.0) / 2.0 * 1e3,
         grid_for_middle_volts: None,
+        grid_for_middle_unknown_reason: None,
         inside: c.ia.0 >= ia_lo.0 && c.ia.0 <= ia_hi.0,
         place: if c.ia.0 > ia_hi.0 {
             "above"

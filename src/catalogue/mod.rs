@@ -170,6 +170,51 @@ impl From<f64> for Arg {
     }
 }
 
+/// The operating system's answer to a failed file operation as a
+/// catalogue message, so it is said in the reader's language: the common
+/// kinds (no such file, permission denied, a folder where a file belongs,
+/// too large, invalid data, …) by words of the catalogue (`diag-os-…`),
+/// any other quoted as the system gave it (`diag-os-other`). Invalid data
+/// keeps the words of whatever found it as a detail, since they say what
+/// was wrong.
+pub fn os_error(e: &std::io::Error) -> Msg {
+    use std::io::ErrorKind as K;
+    let key = match e.kind() {
+        K::NotFound => "diag-os-not-found",
+        K::PermissionDenied => "diag-os-permission-denied",
+        K::IsADirectory => "diag-os-is-a-folder",
+        K::NotADirectory => "diag-os-not-a-folder",
+        K::FileTooLarge => "diag-os-too-large",
+        K::AlreadyExists => "diag-os-already-exists",
+        K::StorageFull | K::QuotaExceeded => "diag-os-disk-full",
+        K::ReadOnlyFilesystem => "diag-os-read-only",
+        K::UnexpectedEof => "diag-os-ended-early",
+        K::Interrupted => "diag-os-interrupted",
+        K::TimedOut => "diag-os-timed-out",
+        K::BrokenPipe => "diag-os-broken-pipe",
+        K::OutOfMemory => "diag-os-out-of-memory",
+        K::InvalidData => {
+            return Msg::new("diag-os-invalid-data").arg("detail", e.to_string());
+        }
+        _ => return Msg::new("diag-os-other").arg("detail", e.to_string()),
+    };
+    Msg::new(key)
+}
+
+/// A message as a standard error, to travel inside a third-party error as
+/// its source (a template engine's error) and be found again by the code
+/// that says it; its `Display` is English.
+#[derive(Debug, Clone)]
+pub struct MsgError(pub Msg);
+
+impl std::fmt::Display for MsgError {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        f.write_str(&self.0.english())
+    }
+}
+
+impl std::error::Error for MsgError {}
+
 impl Catalogue {
     /// The built-in English catalogue.
     pub fn english() -> &'static Catalogue {

@@ -74,6 +74,48 @@ fn keys_used() -> Vec<(String, String)> {
 }
 
 #[test]
+fn the_operating_systems_answers_are_catalogue_words() {
+    use std::io::{Error, ErrorKind};
+    let de = Catalogue::built_in("de").unwrap();
+    let en = Catalogue::english();
+    for (kind, english, german) in [
+        (
+            ErrorKind::NotFound,
+            "there is no such file or folder",
+            "diese Datei oder dieser Ordner existiert nicht",
+        ),
+        (
+            ErrorKind::PermissionDenied,
+            "permission denied",
+            "keine Berechtigung",
+        ),
+        (
+            ErrorKind::IsADirectory,
+            "it is a folder, not a file",
+            "das ist ein Ordner, keine Datei",
+        ),
+        (
+            ErrorKind::FileTooLarge,
+            "the file is too large for the file system",
+            "die Datei ist zu groß für das Dateisystem",
+        ),
+    ] {
+        let msg = os_error(&Error::from(kind));
+        assert_eq!(en.say(&msg), english);
+        assert_eq!(de.say(&msg), german);
+    }
+    // An answer with no words of its own is quoted as the system gave it;
+    // invalid data keeps what found it as a detail.
+    let odd = Error::other("odd device");
+    assert_eq!(de.say(&os_error(&odd)), "odd device");
+    let bad = Error::new(ErrorKind::InvalidData, "stream did not contain valid UTF-8");
+    assert_eq!(
+        de.say(&os_error(&bad)),
+        "die Daten sind ungültig (stream did not contain valid UTF-8)"
+    );
+}
+
+#[test]
 fn every_key_the_program_uses_is_in_the_english_catalogue() {
     let english = Catalogue::english();
     let used = keys_used();

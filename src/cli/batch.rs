@@ -34,6 +34,34 @@ pub fn default_workers() -> usize {
 struct Progress {
     bar: Option<ProgressBar>,
     quiet: bool,
+    /// The language the bar speaks: English until a job has finished,
+    /// then the one every finished job was said in, English once they
+    /// differ (as the closing summary, [`shared_language`]).
+    language: std::sync::Mutex<BarLanguage>,
+}
+
+/// What the bar's words follow so far.
+enum BarLanguage {
+    NoJobYet,
+    Shared(Catalogue),
+    Mixed,
+}
+
+/// The progress bar's template with its words from `catalogue`
+/// (`cli-progress-jobs`: "3/8 jobs").
+fn bar_template(catalogue: &Catalogue) -> String {
+    let jobs: String = catalogue
+        .text("cli-progress-jobs")
+        .chars()
+        .filter(|c| !matches!(c, '{' | '}'))
+        .collect();
+    format!("{{bar:30}} {{pos}}/{{len}} {jobs}, {{elapsed}} {{msg}}")
+}
+
+fn bar_style(catalogue: &Catalogue) -> ProgressStyle {
+    ProgressStyle::with_template(&bar_template(catalogue))
+        .unwrap_or_else(|_| ProgressStyle::default_bar())
+        .progress_chars("=> ")
 }
 
 /// A progress bar only on a terminal, and not with `NO_COLOR`, `TERM=dumb`
@@ -57,14 +85,35 @@ impl Progress {
                 Some(total as u64),
                 ProgressDrawTarget::stderr_with_hz(8),
             );
-            bar.set_style(
-                ProgressStyle::with_template("{bar:30} {pos}/{len} jobs, {elapsed} {msg}")
-                    .unwrap_or_else(|_| ProgressStyle::default_bar())
-                    .progress_chars("=> "),
-            );
+            bar.set_style(bar_style(Catalogue::english()));
             bar
         });
-        Progress { bar, quiet }
+        Progress {
+            bar,
+            quiet,
+            language: std::sync::Mutex::new(BarLanguage::NoJobYet),
+        }
+    }
+
+    /// The bar's words after `catalogue`'s job has finished.
+    fn speak(&self, bar: &ProgressBar, catalogue: &Catalogue) {
+        let Ok(mut language) = self.language.lock() else {
+            return;
+        };
+        let same = |c: &Catalogue| {
+            c.language() == catalogue.language() && c.origin() == catalogue.origin()
+        };
+        let next = match &*language {
+            BarLanguage::NoJobYet => BarLanguage::Shared(catalogue.clone()),
+            BarLanguage::Shared(c) if same(c) => return,
+            BarLanguage::Shared(_) => BarLanguage::Mixed,
+            BarLanguage::Mixed => return,
+        };
+        bar.set_style(bar_style(match &next {
+            BarLanguage::Shared(c) => c,
+            _ => Catalogue::english(),
+        }));
+        *language = next;
     }
 
     /// Prints what a job said and how it ended, above the bar if there is
@@ -79,6 +128,7 @@ impl Progress {
         match &self.bar {
             Some(bar) => {
                 bar.suspend(print);
+                self.speak(bar, report.said.catalogue());
                 bar.inc(1);
             }
             None => print(),
@@ -260,6 +310,40 @@ impl Summary {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn the_bar_speaks_the_jobs_language() {
+        assert_eq!(
+            bar_template(Catalogue::english()),
+            "{bar:30} {pos}/{len} jobs, {elapsed} {msg}"
+        );
+        let de = Catalogue::built_in("de").unwrap();
+        assert_eq!(
+            bar_template(&de),
+            "{bar:30} {pos}/{len} Aufträge, {elapsed} {msg}"
+        );
+        // A hidden bar takes the languages of the jobs as they finish.
+        let progress = Progress {
+            bar: None,
+            quiet: true,
+            language: std::sync::Mutex::new(BarLanguage::NoJobYet),
+        };
+        let bar = ProgressBar::hidden();
+        progress.speak(&bar, &de);
+        assert!(
+            matches!(*progress.language.lock().unwrap(), BarLanguage::Shared(ref c) if c.language() == "de")
+        );
+        progress.speak(&bar, &de);
+        assert!(matches!(
+            *progress.language.lock().unwrap(),
+            BarLanguage::Shared(_)
+        ));
+        progress.speak(&bar, Catalogue::english());
+        assert!(matches!(
+            *progress.language.lock().unwrap(),
+            BarLanguage::Mixed
+        ));
+    }
 
     #[test]
     fn the_bar_is_drawn_only_on_a_terminal_without_no_color_or_quiet() {

@@ -122,7 +122,7 @@ fn side_said(
         Some(spec) => {
             let shop = load::shop_profile(&job_path, choice, said, &mut Vec::new())?;
             let text = git::read_at_revision(spec).map_err(|e| {
-                said.error(format!("error: {e}"));
+                said.error(said.say(&Msg::new("cli-error").arg("error", e.msg())));
                 if let Some(hint) = from_here_hint(spec) {
                     said.err(said.say(&hint));
                 }

@@ -9,8 +9,41 @@ use super::args::InitArgs;
 use super::exit::Exit;
 use crate::catalogue::{Catalogue, Msg};
 
-/// The skeleton, a valid job file with every node explained.
+/// The skeleton, a valid job file with every node explained: each comment
+/// line `// @KEY` stands for the catalogue's message `KEY`
+/// (`cli-skeleton-…`), written by [`job_skeleton`] in the reader's
+/// language.
 pub const SKELETON: &str = include_str!("../../templates/job-skeleton.kdl");
+
+/// The job skeleton with its comments in `catalogue`'s words: each line
+/// of a `// @KEY` message becomes a comment line indented as the marker.
+pub fn job_skeleton(catalogue: &Catalogue) -> String {
+    let mut out = String::with_capacity(SKELETON.len() * 2);
+    for line in SKELETON.lines() {
+        let trimmed = line.trim_start();
+        if trimmed.starts_with("//#") {
+            continue;
+        }
+        match trimmed.strip_prefix("// @") {
+            Some(key) => {
+                let indent = &line[..line.len() - trimmed.len()];
+                for words in catalogue.text(key.trim()).lines() {
+                    let words = words.trim_end();
+                    if words.is_empty() {
+                        out.push_str(&format!("{indent}//\n"));
+                    } else {
+                        out.push_str(&format!("{indent}// {words}\n"));
+                    }
+                }
+            }
+            None => {
+                out.push_str(line);
+                out.push('\n');
+            }
+        }
+    }
+    out
+}
 
 /// How git treats the files of a job folder.
 pub const GITATTRIBUTES: &str = include_str!("../../templates/repo.gitattributes");
@@ -24,7 +57,7 @@ pub fn run(args: &InitArgs) -> Exit {
     let cat = Catalogue::english();
     let mut exit = Exit::Success;
     if let Some(path) = &args.path {
-        exit = write_new(path, SKELETON, Msg::new("cli-init-next-job"), cat);
+        exit = write_new(path, &job_skeleton(cat), Msg::new("cli-init-next-job"), cat);
     }
     if let Some(path) = &args.shop
         && exit == Exit::Success
@@ -119,5 +152,48 @@ pub(super) fn write_new(path: &std::path::Path, text: &str, next: Msg, cat: &Cat
             );
             Exit::Environment
         }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn the_job_skeleton_speaks_each_built_in_language_and_reads_as_a_job() {
+        for (tag, _) in crate::catalogue::BUILT_IN {
+            let catalogue = Catalogue::built_in(tag).unwrap();
+            // Every marker names a message of the catalogue.
+            for line in SKELETON.lines() {
+                if let Some(key) = line.trim_start().strip_prefix("// @") {
+                    assert!(catalogue.has(key.trim()), "{tag}: {key} missing");
+                }
+            }
+            let text = job_skeleton(&catalogue);
+            assert!(
+                !text.contains("// @") && !text.contains("//#"),
+                "{tag}:\n{text}"
+            );
+            // Comment lines of words (not the commented-out examples) stay
+            // short enough to read beside the values.
+            for line in text
+                .lines()
+                .filter(|l| l.trim_start().starts_with("//") && !l.trim_start().starts_with("//  "))
+            {
+                assert!(line.chars().count() <= 90, "{tag}: {line}");
+            }
+            let decoded = crate::job::decode("skeleton.kdl", &text);
+            assert!(decoded.is_ok(), "{tag}: the skeleton does not decode");
+        }
+        let english = job_skeleton(Catalogue::english());
+        assert!(english.starts_with(
+            "// An ampreport job file (KDL 2.0). One file per repair; keep it under\n\
+             // version control and regenerate the documents from it.\n//\n// Values:"
+        ));
+        assert!(english.contains("\n    // cathode or fixed\n    bias fixed\n"));
+        let german = job_skeleton(&Catalogue::built_in("de").unwrap());
+        assert!(german.contains("\n    // Der Gleichrichter: eine Röhrenposition oder `silicon`"));
+        assert!(german.contains("\n    // freiwillig).\n    rectifier V5\n"));
+        assert!(!german.contains("The rectifier"));
     }
 }

@@ -21,8 +21,8 @@ use crate::shop::{self, Found, Logo, ShopProfile};
 pub fn ratings(files: &[std::path::PathBuf]) -> Result<RatingsTable, Exit> {
     let mut table = RatingsTable::builtin();
     ui::read(
-        "ratings",
-        format!("built in ({} types, embedded in the program)", table.len()),
+        "cli-read-what-ratings",
+        Msg::new("cli-read-from-ratings-built-in").arg("count", table.len()),
     );
     for f in files {
         if let Err(report) = table.load_shop_file(f) {
@@ -30,8 +30,8 @@ pub fn ratings(files: &[std::path::PathBuf]) -> Result<RatingsTable, Exit> {
             return Err(Exit::InvalidInput);
         }
         ui::read(
-            "ratings",
-            format!("{} (a shop's ratings file)", f.display()),
+            "cli-read-what-ratings",
+            Msg::new("cli-read-from-ratings-file").arg("path", f.display().to_string()),
         );
     }
     Ok(table)
@@ -177,17 +177,14 @@ pub fn shop_profile(
     read: &mut Vec<PathBuf>,
 ) -> Result<Option<LoadedShop>, Exit> {
     if choice.none {
-        said.read("shop profile", "none (--no-shop)");
+        said.read("cli-read-what-shop", Msg::new("cli-read-from-shop-refused"));
         return Ok(None);
     }
     let config = shop::user_config_dir();
     let Some(found) = shop::discover(job_path, choice.named, config.as_deref()) else {
         said.read(
-            "shop profile",
-            format!(
-                "none (no {} beside the job or above it, no --shop, none in the config folder)",
-                shop::SHOP_FILE
-            ),
+            "cli-read-what-shop",
+            Msg::new("cli-read-from-shop-none").arg("file", shop::SHOP_FILE),
         );
         return Ok(None);
     };
@@ -216,17 +213,20 @@ pub fn shop_profile(
         }
     };
     decoded.diagnostics.localize(&own_language);
-    said.read(
-        "shop profile",
-        format!(
-            "{} ({})",
-            path.display(),
-            match &found {
-                Found::BesideJob(_) => "beside the job or above it",
-                Found::Named(_) => "named with --shop",
-                Found::UserConfig(_) => "the config folder",
-            }
-        ),
+    // Where the profile came from, in the language it names.
+    said.read_in(
+        Some(&own_language),
+        "cli-read-what-shop",
+        Msg::new("cli-read-from-shop")
+            .arg("path", path.display().to_string())
+            .arg(
+                "how",
+                match &found {
+                    Found::BesideJob(_) => "beside",
+                    Found::Named(_) => "named",
+                    Found::UserConfig(_) => "config",
+                },
+            ),
     );
     if !decoded.diagnostics.problems.is_empty() {
         said.warn(format!(
@@ -251,7 +251,11 @@ pub fn shop_profile(
         None => None,
     };
     if let Some(logo) = &logo {
-        said.read("shop logo", logo.source.display());
+        said.read_in(
+            Some(&own_language),
+            "cli-read-what-logo",
+            Msg::new("cli-read-from-path").arg("path", logo.source.display().to_string()),
+        );
     }
     let folder = path.parent().unwrap_or(Path::new(".")).to_path_buf();
     let (catalogue, translation) = match &decoded.profile.language {
@@ -261,7 +265,11 @@ pub fn shop_profile(
             match shop::read_translation(&path, language) {
                 Ok(c) => {
                     if let Some(f) = &file {
-                        said.read("translation", f.display());
+                        said.read_in(
+                            Some(&own_language),
+                            "cli-read-what-translation",
+                            Msg::new("cli-read-from-path").arg("path", f.display().to_string()),
+                        );
                     }
                     (c, file)
                 }
@@ -338,16 +346,19 @@ pub fn read_job(path: &Path, said: &mut Said) -> Result<String, Exit> {
     // Said in the language of the shop profile read for the job's folder
     // (English without one).
     let text = read.map_err(|e| {
-        let words = said.say(&e.job_file_msg());
+        let words = said.say(&e.msg(&crate::input_file::JOB_FILE_KEYS));
         said.error(words);
         Exit::InvalidInput
     })?;
-    let whence = if is_dash(path) {
-        "standard input".to_owned()
+    let from = if is_dash(path) {
+        Msg::new("cli-read-from-stdin")
     } else {
-        path.display().to_string()
+        Msg::new("cli-read-from-job").arg("path", path.display().to_string())
     };
-    said.read("job", format!("{whence} ({} bytes)", text.len()));
+    said.read(
+        "cli-read-what-job",
+        from.arg("bytes", text.len().to_string()),
+    );
     Ok(text)
 }
 
@@ -364,7 +375,10 @@ pub fn photos(
     // Prepared pictures are kept in the user's cache between renders.
     let cache = crate::photo::PhotoCache::user();
     if let Some(cache) = &cache {
-        said.read("photo cache", cache.dir().display().to_string());
+        said.read(
+            "cli-read-what-photo-cache",
+            Msg::new("cli-read-from-path").arg("path", cache.dir().display().to_string()),
+        );
     }
     crate::photo::prepare_cached(&loaded.decoded.job, job_file, cache.as_ref()).map_err(
         |problems| {

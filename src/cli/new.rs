@@ -69,7 +69,7 @@ pub fn run(args: &NewArgs) -> Exit {
             Ok(t) => t,
             Err(e) => return e,
         },
-        None => skeleton(&id, today),
+        None => skeleton(&id, today, &cat),
     };
     // What is written must read back as a job.
     if let Err(d) = crate::job::decode(&format!("{id}.kdl"), &text) {
@@ -132,9 +132,10 @@ fn kdl_string(text: &str) -> String {
     format!("{text:?}")
 }
 
-/// The annotated skeleton with the new id and today's date.
-fn skeleton(id: &str, today: NaiveDate) -> String {
-    super::init::SKELETON
+/// The annotated skeleton with the new id and today's date, its comments
+/// in `cat`'s words.
+fn skeleton(id: &str, today: NaiveDate, cat: &Catalogue) -> String {
+    super::init::job_skeleton(cat)
         .lines()
         .map(|l| {
             if l.starts_with("job id=") {

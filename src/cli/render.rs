@@ -158,8 +158,10 @@ impl<'a> Setup<'a> {
             }
         };
         ui::read(
-            "typst",
-            format!("{} (version {})", program.path.display(), program.version),
+            "cli-read-what-typst",
+            Msg::new("cli-read-from-typst")
+                .arg("path", program.path.display().to_string())
+                .arg("version", program.version.to_string()),
         );
         if let Some(warning) = program.version_warning() {
             ui::warn(ui::english(
@@ -433,7 +435,7 @@ fn render_job(
             said.say(
                 &Msg::new("cli-cannot-make-folder")
                     .arg("folder", parent.display().to_string())
-                    .arg("error", e.to_string()),
+                    .arg("error", crate::catalogue::os_error(&e)),
             ),
         );
         return Err(Exit::Environment);
@@ -593,7 +595,7 @@ fn render_job(
                 said.say(
                     &Msg::new("cli-cannot-write-source")
                         .arg("folder", dir.display().to_string())
-                        .arg("error", e.to_string()),
+                        .arg("error", crate::catalogue::os_error(&e)),
                 ),
             );
             return Err(Exit::Environment);
@@ -629,10 +631,13 @@ fn render_job(
     ) {
         Ok(outcome) => {
             match &outcome.fonts {
-                FontsUsed::Cache(dir) => said.read("fonts", format!("{} (cache)", dir.display())),
+                FontsUsed::Cache(dir) => said.read(
+                    "cli-read-what-fonts",
+                    Msg::new("cli-read-from-fonts-cache").arg("path", dir.display().to_string()),
+                ),
                 FontsUsed::Sandbox => said.read(
-                    "fonts",
-                    "embedded in the program, written for this run (no usable cache folder)",
+                    "cli-read-what-fonts",
+                    Msg::new("cli-read-from-fonts-sandbox"),
                 ),
             }
             if !outcome.warnings.is_empty() {
@@ -661,7 +666,7 @@ fn render_job(
                                 said.say(
                                     &Msg::new("cli-cannot-record")
                                         .arg("path", path.display().to_string())
-                                        .arg("error", e.to_string()),
+                                        .arg("error", crate::catalogue::os_error(&e)),
                                 ),
                             );
                         }
@@ -1024,10 +1029,13 @@ pub(crate) fn template_source(dir: Option<&Path>, listing: bool) -> Result<Templ
     for (name, _) in embedded {
         let shop = dir.map(|d| d.join(name)).filter(|p| p.is_file());
         match shop {
-            Some(path) => ui::read("template", format!("{} (shop folder)", path.display())),
+            Some(path) => ui::read(
+                "cli-read-what-template",
+                Msg::new("cli-read-from-template-shop").arg("path", path.display().to_string()),
+            ),
             None => ui::read(
-                "template",
-                format!("{name} (built in, embedded in the program)"),
+                "cli-read-what-template",
+                Msg::new("cli-read-from-template-built-in").arg("name", *name),
             ),
         }
     }
@@ -1068,12 +1076,12 @@ fn report_build_error(e: HandoverError, said: &mut Said) -> Exit {
     let words = match &e {
         HandoverError::Template { name, detail, .. } => Msg::new("cli-template-not-filled")
             .arg("name", name)
-            .arg("detail", detail),
+            .arg("detail", detail.clone()),
         HandoverError::Image { path, source } => Msg::new("cli-shop-image-unreadable")
             .arg("path", path)
-            .arg("error", source.to_string()),
+            .arg("error", crate::catalogue::os_error(source)),
         HandoverError::Refused(inner) => {
-            Msg::new("cli-template-file-refused").arg("error", inner.to_string())
+            Msg::new("cli-template-file-refused").arg("error", inner.msg())
         }
         HandoverError::Sandbox(t) => {
             Msg::new("cli-error").arg("error", t.message_in(said.catalogue()))

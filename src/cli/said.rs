@@ -49,10 +49,22 @@ impl Said {
     }
 
     /// With `--verbose`, a line saying what was read from where, as
-    /// [`super::ui::read`].
-    pub fn read(&mut self, what: &str, from: impl Display) {
+    /// [`super::ui::read`], in the job's language.
+    pub fn read(&mut self, what: &'static str, from: crate::catalogue::Msg) {
+        self.read_in(None, what, from);
+    }
+
+    /// [`Said::read`] in `catalogue`'s words rather than the job's (a shop
+    /// profile's line, said in the language the profile names).
+    pub fn read_in(
+        &mut self,
+        catalogue: Option<&crate::catalogue::Catalogue>,
+        what: &'static str,
+        from: crate::catalogue::Msg,
+    ) {
         if super::ui::verbose() {
-            self.err(format!("read: {what}: {from}"));
+            let line = super::ui::read_line(catalogue.unwrap_or(self.catalogue()), what, from);
+            self.err(line);
         }
     }
 

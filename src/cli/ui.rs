@@ -165,11 +165,30 @@ pub fn english(msg: &crate::catalogue::Msg) -> String {
 }
 
 /// With `--verbose`, one line on standard error saying what was read from
-/// where: `read: WHAT: WHERE`.
-pub fn read(what: &str, from: impl Display) {
+/// where: `read: WHAT: WHERE` (`cli-read`), in English: it is said before
+/// any shop profile is read, or about no one job. `what` is one of the
+/// `cli-read-what-…` keys, `from` one of the `cli-read-from-…` messages.
+pub fn read(what: &'static str, from: crate::catalogue::Msg) {
     if verbose() {
-        eprintln!("read: {what}: {from}");
+        eprintln!(
+            "{}",
+            read_line(crate::catalogue::Catalogue::english(), what, from)
+        );
     }
+}
+
+/// The `--verbose` line saying what was read from where, in `catalogue`'s
+/// words.
+pub fn read_line(
+    catalogue: &crate::catalogue::Catalogue,
+    what: &'static str,
+    from: crate::catalogue::Msg,
+) -> String {
+    catalogue.say(
+        &crate::catalogue::Msg::new("cli-read")
+            .arg("what", crate::catalogue::Msg::new(what))
+            .arg("from", from),
+    )
 }
 
 /// With `--verbose`, the per-user folders: where a shop profile is looked
@@ -178,15 +197,19 @@ pub fn folders() {
     if !verbose() {
         return;
     }
+    use crate::catalogue::Msg;
     let shown = |dir: Option<std::path::PathBuf>| match dir {
-        Some(dir) => dir.display().to_string(),
-        None => "none (no home folder in the environment)".to_owned(),
+        Some(dir) => Msg::new("cli-read-from-path").arg("path", dir.display().to_string()),
+        None => Msg::new("cli-read-from-no-home"),
     };
-    eprintln!(
-        "read: config folder: {}",
-        shown(crate::folders::config_dir())
+    read(
+        "cli-read-what-config-folder",
+        shown(crate::folders::config_dir()),
     );
-    eprintln!("read: cache folder: {}", shown(crate::folders::cache_dir()));
+    read(
+        "cli-read-what-cache-folder",
+        shown(crate::folders::cache_dir()),
+    );
 }
 
 #[cfg(test)]

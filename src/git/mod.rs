@@ -42,28 +42,124 @@ pub struct Revision {
     pub uncommitted_changes: bool,
 }
 
-/// Why a file could not be read from git.
-#[derive(Debug, thiserror::Error)]
+/// Why a file could not be read from git. Said from the catalogue
+/// ([`GitError::msg`], `cli-git-…`): the program's own sentence for each
+/// case it can tell apart, git's own words only as a quoted detail.
+#[derive(Debug)]
 pub enum GitError {
-    #[error("the `git` command is needed to read {spec}, and it could not be run: {source}")]
+    /// The `git` command could not be run.
     Missing {
         spec: String,
-        #[source]
         source: std::io::Error,
     },
-    #[error("git could not read {spec}: {detail}")]
-    Failed { spec: String, detail: String },
-    #[error("git took more than {} seconds to read {spec}", GIT_TIMEOUT.as_secs())]
-    TimedOut { spec: String },
-    #[error("stopped by signal {signal} while git read {spec}")]
-    Interrupted { spec: String, signal: i32 },
-    #[error(
-        "{spec} is larger than {} MiB; a job file is a few kilobytes",
-        crate::input_file::MAX_INPUT_BYTES / (1024 * 1024)
-    )]
-    TooLarge { spec: String },
-    #[error("{spec} is not UTF-8 text")]
-    NotUtf8 { spec: String },
+    /// git ran and refused; `refusal` is what its words (`detail`) say.
+    Failed {
+        spec: String,
+        refusal: Refusal,
+        detail: String,
+    },
+    TimedOut {
+        spec: String,
+    },
+    Interrupted {
+        spec: String,
+        signal: i32,
+    },
+    TooLarge {
+        spec: String,
+    },
+    NotUtf8 {
+        spec: String,
+    },
+}
+
+/// The cases of git refusing `REV:PATH` that the program tells apart.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Refusal {
+    /// The current folder is not inside a repository.
+    NotRepository,
+    /// The repository has no such revision.
+    NoRevision,
+    /// The revision has no such path.
+    NotInRevision,
+    /// Something else: git's words say what.
+    Other,
+}
+
+/// What git's message (run with `LC_ALL=C`, so in English) says.
+fn refusal(detail: &str) -> Refusal {
+    let d = detail.to_ascii_lowercase();
+    if d.contains("not a git repository") {
+        Refusal::NotRepository
+    } else if d.contains("does not exist in") || d.contains("exists on disk, but not in") {
+        Refusal::NotInRevision
+    } else if d.contains("invalid object name")
+        || d.contains("not a valid object name")
+        || d.contains("unknown revision")
+        || d.contains("bad revision")
+    {
+        Refusal::NoRevision
+    } else {
+        Refusal::Other
+    }
+}
+
+impl GitError {
+    /// The problem as a catalogue message, to be said in the reader's
+    /// language.
+    pub fn msg(&self) -> crate::catalogue::Msg {
+        use crate::catalogue::Msg;
+        match self {
+            GitError::Missing { spec, source } => Msg::new("cli-git-missing")
+                .arg("spec", spec)
+                .arg("error", crate::catalogue::os_error(source)),
+            GitError::Failed {
+                spec,
+                refusal,
+                detail,
+            } => {
+                let (rev, path) = split_spec(spec).unwrap_or((spec.as_str(), ""));
+                let key = match refusal {
+                    Refusal::NotRepository => "cli-git-not-repository",
+                    Refusal::NoRevision => "cli-git-no-revision",
+                    Refusal::NotInRevision => "cli-git-not-in-revision",
+                    Refusal::Other => "cli-git-failed",
+                };
+                Msg::new(key)
+                    .arg("spec", spec)
+                    .arg("rev", rev)
+                    .arg("path", path)
+                    .arg("detail", detail.trim())
+            }
+            GitError::TimedOut { spec } => Msg::new("cli-git-timed-out")
+                .arg("spec", spec)
+                .arg("seconds", GIT_TIMEOUT.as_secs().to_string()),
+            GitError::Interrupted { spec, signal } => Msg::new("cli-git-interrupted")
+                .arg("spec", spec)
+                .arg("signal", signal.to_string()),
+            GitError::TooLarge { spec } => Msg::new("cli-git-too-large").arg("spec", spec).arg(
+                "limit",
+                (crate::input_file::MAX_INPUT_BYTES / (1024 * 1024)).to_string(),
+            ),
+            GitError::NotUtf8 { spec } => Msg::new("cli-git-not-utf8").arg("spec", spec),
+        }
+    }
+}
+
+/// In English, as the catalogue says it.
+impl std::fmt::Display for GitError {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        f.write_str(&self.msg().english())
+    }
+}
+
+impl std::error::Error for GitError {
+    fn source(&self) -> Option<&(dyn std::error::Error + 'static)> {
+        match self {
+            GitError::Missing { source, .. } => Some(source),
+            _ => None,
+        }
+    }
 }
 
 /// A git command in `dir` that runs nothing the repository names.
@@ -283,6 +379,7 @@ pub fn read_at_revision(spec: &str) -> Result<String, GitError> {
         }),
         Ran::Refused(detail) => Err(GitError::Failed {
             spec: spec.to_string(),
+            refusal: refusal(&detail),
             detail,
         }),
         Ran::TooLong => Err(GitError::TooLarge {
@@ -299,5 +396,47 @@ pub fn read_at_revision(spec: &str) -> Result<String, GitError> {
             spec: spec.to_string(),
             signal,
         }),
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn gits_refusals_are_told_apart_and_said_in_the_readers_language() {
+        // git's words, as git 2.x prints them under LC_ALL=C.
+        for (detail, expected) in [
+            (
+                "fatal: not a git repository (or any of the parent directories): .git",
+                Refusal::NotRepository,
+            ),
+            ("fatal: invalid object name 'nope'.", Refusal::NoRevision),
+            (
+                "fatal: path 'b.kdl' does not exist in 'HEAD'",
+                Refusal::NotInRevision,
+            ),
+            (
+                "fatal: path 'b.kdl' exists on disk, but not in 'HEAD~1'",
+                Refusal::NotInRevision,
+            ),
+            ("fatal: something else entirely", Refusal::Other),
+        ] {
+            assert_eq!(refusal(detail), expected, "{detail}");
+        }
+        let e = GitError::Failed {
+            spec: "HEAD:b.kdl".into(),
+            refusal: Refusal::NotInRevision,
+            detail: "fatal: path 'b.kdl' does not exist in 'HEAD'\n".into(),
+        };
+        assert_eq!(
+            e.to_string(),
+            "cannot read HEAD:b.kdl: `b.kdl` is not in revision `HEAD` (git said: “fatal: path 'b.kdl' does not exist in 'HEAD'”)"
+        );
+        let de = crate::catalogue::Catalogue::built_in("de").unwrap();
+        assert_eq!(
+            de.say(&e.msg()),
+            "HEAD:b.kdl kann nicht gelesen werden: `b.kdl` ist in der Revision `HEAD` nicht vorhanden (git sagte: „fatal: path 'b.kdl' does not exist in 'HEAD'“)"
+        );
     }
 }

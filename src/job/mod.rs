@@ -7,6 +7,7 @@ mod completeness;
 pub(crate) mod decode;
 mod decode_bench;
 mod decode_error;
+mod kdl_words;
 mod model;
 pub mod network;
 pub mod numbering;
@@ -148,18 +149,18 @@ pub(crate) fn syntax_problems(text: &str, e: &kdl::KdlError) -> Vec<DecodeError>
             .iter()
             .filter(|d| !covers_bare(&d.span))
             .map(|d| {
-                // The parser's own words stay as it gives them; the program's are
-                // the catalogue's.
+                // The parser's words the catalogue knows are said from it;
+                // any other stays as the parser gives it.
                 let problem: Arg = match &d.message {
-                    Some(m) => m.as_str().into(),
+                    Some(m) => kdl_words::message(m),
                     None => Msg::new("diag-kdl-broken").into(),
                 };
                 let label: Text = match &d.label {
-                    Some(l) => l.as_str().into(),
+                    Some(l) => kdl_words::label(l),
                     None => Msg::new("diag-here").into(),
                 };
                 let help: Text = match &d.help {
-                    Some(h) => h.as_str().into(),
+                    Some(h) => kdl_words::help(h),
                     None => Msg::new("diag-kdl-help").into(),
                 };
                 DecodeError::error(

@@ -466,7 +466,7 @@ impl<'s> Reader<'s> {
                         Msg::new("diag-bad-date")
                             .arg("what", what)
                             .arg("text", text)
-                            .arg("error", e.to_string()),
+                            .arg("error", date_problem(&e)),
                         Msg::new("diag-date-label"),
                     )
                     .with_help(Msg::new("diag-bad-date-help")),
@@ -765,6 +765,18 @@ fn literal_range(literal: &str, text: &str, start: usize, end: usize) -> Option<
         }
     };
     Some((source_of(start)?, source_of(end)?))
+}
+
+/// What the date reader (chrono) found wrong with a date, in the
+/// catalogue's words (`diag-date-…`).
+fn date_problem(e: &chrono::ParseError) -> Msg {
+    use chrono::format::ParseErrorKind as K;
+    Msg::new(match e.kind() {
+        K::OutOfRange | K::Impossible => "diag-date-out-of-range",
+        K::NotEnough | K::TooShort => "diag-date-too-short",
+        K::TooLong => "diag-date-too-long",
+        _ => "diag-date-not-ymd",
+    })
 }
 
 #[cfg(test)]

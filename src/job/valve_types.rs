@@ -31,7 +31,7 @@ pub fn check(job: &Job, ratings: &RatingsTable) -> Vec<DecodeError> {
                         Msg::new("diag-output-role-mismatch")
                             .arg("position", v.position.value.as_str())
                             .arg("type", rating.name.to_string())
-                            .arg("class", rating.class.to_string()),
+                            .arg("class", Msg::new(rating.class.words_key())),
                         Msg::new("diag-unusual-role"),
                     ));
                 }
@@ -42,7 +42,7 @@ pub fn check(job: &Job, ratings: &RatingsTable) -> Vec<DecodeError> {
                         Msg::new("diag-rectifier-mismatch")
                             .arg("position", v.position.value.as_str())
                             .arg("type", rating.name.to_string())
-                            .arg("class", rating.class.to_string()),
+                            .arg("class", Msg::new(rating.class.words_key())),
                         Msg::new("diag-not-a-rectifier"),
                     ));
                 }

@@ -217,7 +217,7 @@ pub fn prepare_one(
             "job::photo-unreadable",
             Msg::new("diag-photo-cannot-read")
                 .arg("path", path.display().to_string())
-                .arg("error", source.to_string()),
+                .arg("error", crate::catalogue::os_error(&source)),
             "diag-this-file",
             "diag-photo-check-path",
         ),
@@ -289,6 +289,22 @@ pub fn process_cached(
     Ok((prepared.bytes, width, height))
 }
 
+/// What the image reader (the `image` crate) found wrong, in the
+/// catalogue's words (`diag-image-…`): the kind of problem, with the
+/// reader's own words quoted after it where they say more; a file
+/// operation's failure as the operating system's answer.
+pub fn image_problem(e: &image::ImageError) -> Msg {
+    use image::ImageError as E;
+    match e {
+        E::Decoding(d) => Msg::new("diag-image-damaged").arg("detail", d.to_string()),
+        E::Encoding(d) => Msg::new("diag-image-not-encoded").arg("detail", d.to_string()),
+        E::Limits(_) => Msg::new("diag-image-too-large"),
+        E::Unsupported(d) => Msg::new("diag-image-unsupported").arg("detail", d.to_string()),
+        E::IoError(io) => crate::catalogue::os_error(io),
+        E::Parameter(d) => Msg::new("diag-os-other").arg("detail", d.to_string()),
+    }
+}
+
 /// Decodes the picture within the limits, turns it upright, shrinks it to
 /// the print box and encodes it again. The encoded bytes and the size, or
 /// why it failed in words (a message of the catalogue).
@@ -303,7 +319,7 @@ pub fn process(bytes: &[u8], format: PhotoFormat) -> Result<(Vec<u8>, u32, u32),
         image::ImageError::Limits(_) => Msg::new("diag-photo-too-large-to-decode")
             .arg("side", MAX_PHOTO_SIDE.to_string())
             .arg("megabytes", (MAX_DECODE_BYTES / (1024 * 1024)).to_string()),
-        e => Msg::new("diag-photo-does-not-decode").arg("error", e.to_string()),
+        e => Msg::new("diag-photo-does-not-decode").arg("error", image_problem(&e)),
     };
     let mut decoder = reader.into_decoder().map_err(undecodable)?;
     if decoder.total_bytes() > MAX_DECODE_BYTES {
@@ -339,7 +355,7 @@ pub fn process(bytes: &[u8], format: PhotoFormat) -> Result<(Vec<u8>, u32, u32),
             pixels.write_to(&mut out, ImageFormat::Png)
         }
     };
-    written.map_err(|e| Msg::new("diag-photo-not-encoded").arg("error", e.to_string()))?;
+    written.map_err(|e| Msg::new("diag-photo-not-encoded").arg("error", image_problem(&e)))?;
     Ok((out.into_inner(), width, height))
 }
 

@@ -45,6 +45,19 @@ impl ValveClass {
         }
     }
 
+    /// The catalogue's words for the class (`doc-valve-class-…`), so a
+    /// problem that quotes it is said in the reader's language.
+    pub fn words_key(self) -> &'static str {
+        match self {
+            ValveClass::OutputPentode => "doc-valve-class-output-pentode",
+            ValveClass::BeamTetrode => "doc-valve-class-beam-tetrode",
+            ValveClass::PowerTriode => "doc-valve-class-power-triode",
+            ValveClass::PreampTriode => "doc-valve-class-preamp-triode",
+            ValveClass::PreampPentode => "doc-valve-class-preamp-pentode",
+            ValveClass::Rectifier => "doc-valve-class-rectifier",
+        }
+    }
+
     /// Reads the ratings-file spelling.
     pub fn from_file_word(word: &str) -> Option<ValveClass> {
         ValveClass::ALL.into_iter().find(|c| c.file_word() == word)

@@ -440,6 +440,8 @@ fn render_set(findings: &Findings, set: &SetFindings, style: &TerminalStyle) -> 
                         .map(|now| format!(", {}", style.f("term-now", &[("volts", volts(now))])))
                         .unwrap_or_default();
                     parts.push(format!("{grid}{now} {}", style.t("term-estimate")));
+                } else if let Some(why) = &w.grid_for_middle_unknown_reason {
+                    parts.push(style.f("term-window-grid-unknown", &[("why", why.clone())]));
                 }
                 out.push_str(&format!(
                     "  {}: {} ({})\n",

@@ -81,7 +81,7 @@ pub fn read_logo(profile: &Path, logo: &Spanned<String>) -> Result<Logo, Box<Dec
         InFolderError::Io { path, source } => fail(
             Msg::new("diag-logo-cannot-read")
                 .arg("path", path.display().to_string())
-                .arg("error", source.to_string()),
+                .arg("error", crate::catalogue::os_error(&source)),
             "diag-this-file",
             "diag-logo-in-folder",
         ),
@@ -127,10 +127,52 @@ fn check_png(bytes: &[u8]) -> Result<(), Msg> {
     limits.max_image_height = Some(PIXEL_LIMIT);
     limits.max_alloc = Some(256 * 1024 * 1024);
     reader.limits(limits);
-    reader
-        .decode()
-        .map(|_| ())
-        .map_err(|e| Msg::new("diag-logo-png-undecodable").arg("error", e.to_string()))
+    reader.decode().map(|_| ()).map_err(|e| {
+        Msg::new("diag-logo-png-undecodable").arg("error", crate::photo::image_problem(&e))
+    })
+}
+
+/// What the XML reader (roxmltree) found wrong with an SVG drawing, in
+/// the catalogue's words (`diag-xml-…`) with the line and column where it
+/// has them; a case the program does not tell apart keeps the reader's
+/// own words.
+fn xml_problem(e: &roxmltree::Error) -> Msg {
+    use roxmltree::Error as E;
+    let what = match e {
+        E::UnexpectedEndOfStream | E::UnclosedRootNode => Msg::new("diag-xml-ends-early"),
+        E::NoRootNode => Msg::new("diag-xml-no-root"),
+        E::DtdDetected => Msg::new("diag-xml-dtd"),
+        E::UnexpectedCloseTag(expected, found, _) => Msg::new("diag-xml-wrong-close")
+            .arg("expected", expected)
+            .arg("found", found),
+        E::UnknownEntityReference(name, _) => Msg::new("diag-xml-unknown-entity").arg("name", name),
+        E::DuplicatedAttribute(name, _) => {
+            Msg::new("diag-xml-duplicate-attribute").arg("name", name)
+        }
+        E::UnknownNamespace(name, _) => Msg::new("diag-xml-unknown-namespace").arg("name", name),
+        E::InvalidName(_) => Msg::new("diag-xml-bad-name"),
+        E::InvalidAttributeValue(_) => Msg::new("diag-xml-bad-attribute"),
+        E::NodesLimitReached | E::AttributesLimitReached | E::NamespacesLimitReached => {
+            Msg::new("diag-xml-too-many")
+        }
+        other => return Msg::new("diag-os-other").arg("detail", other.to_string()),
+    };
+    match e {
+        E::UnexpectedEndOfStream
+        | E::UnclosedRootNode
+        | E::NoRootNode
+        | E::DtdDetected
+        | E::NodesLimitReached
+        | E::AttributesLimitReached
+        | E::NamespacesLimitReached => what,
+        _ => {
+            let pos = e.pos();
+            Msg::new("diag-xml-at")
+                .arg("what", what)
+                .arg("line", pos.row.to_string())
+                .arg("column", pos.col.to_string())
+        }
+    }
 }
 
 fn check_svg(text: &str) -> Result<(), Msg> {
@@ -139,7 +181,7 @@ fn check_svg(text: &str) -> Result<(), Msg> {
         ..Default::default()
     };
     let doc = roxmltree::Document::parse_with_options(text, options)
-        .map_err(|e| Msg::new("diag-logo-svg-malformed").arg("error", e.to_string()))?;
+        .map_err(|e| Msg::new("diag-logo-svg-malformed").arg("error", xml_problem(&e)))?;
     let root = doc.root_element();
     if root.tag_name().name() != "svg" {
         return Err(Msg::new("diag-logo-svg-root").arg("root", root.tag_name().name()));

@@ -6,7 +6,7 @@
 
 use std::path::Path;
 
-use crate::input_file::{InFolderError, InputFileError, read_in_folder};
+use crate::input_file::{InFolderError, ReadKeys, read_in_folder, too_large_msg};
 
 use crate::catalogue::{Catalogue, CatalogueDiagnostics, Msg};
 use crate::job::DecodeError;
@@ -72,14 +72,14 @@ pub fn read_translation(
             help,
         ),
         InFolderError::TooLarge { path, .. } => fail(
-            too_large(path.display().to_string()),
+            too_large_msg(&TRANSLATION_KEYS, &path.display().to_string()),
             "diag-this-file",
             help,
         ),
         InFolderError::Io { path, source } => fail(
             Msg::new("diag-translation-cannot-read")
                 .arg("path", path.display().to_string())
-                .arg("error", source.to_string()),
+                .arg("error", crate::catalogue::os_error(&source)),
             "diag-this-file",
             help,
         ),
@@ -91,33 +91,16 @@ pub fn read_translation(
         "translation file",
     )
     .map_err(|e| {
-        let message = match e {
-            InputFileError::Io { path, source, .. } => Msg::new("diag-translation-cannot-read")
-                .arg("path", path)
-                .arg("error", source.to_string()),
-            InputFileError::TooLarge { path, .. } => too_large(path),
-            InputFileError::NotUtf8 {
-                path,
-                line,
-                column,
-                byte,
-                ..
-            } => Msg::new("diag-translation-not-utf8")
-                .arg("place", format!("{path}:{line}:{column}"))
-                .arg("byte", format!("0x{byte:02x}")),
-        };
+        let message = e.msg(&TRANSLATION_KEYS);
         fail(message, "diag-this-file", "diag-translation-utf8-ftl")
     })?;
     Catalogue::from_translation(&language.tag.value, &place.display().to_string(), &text)
         .map_err(|d| TranslationError::File(Box::new(d)))
 }
 
-/// A translation file past the size every input text file is held to.
-fn too_large(path: String) -> Msg {
-    Msg::new("diag-translation-too-large")
-        .arg("path", path)
-        .arg(
-            "limit",
-            (crate::input_file::MAX_INPUT_BYTES / (1024 * 1024)).to_string(),
-        )
-}
+/// A translation file's reading problems (`diag-translation-…`).
+const TRANSLATION_KEYS: ReadKeys = ReadKeys {
+    cannot_read: "diag-translation-cannot-read",
+    too_large: "diag-translation-too-large",
+    not_utf8: "diag-translation-not-utf8",
+};

@@ -268,7 +268,7 @@ pub fn compile(
         let staged = stage(&bytes, output, true);
         let checked = check
             .join()
-            .unwrap_or_else(|_| Err(Failed::Incomplete("the check stopped".into())));
+            .unwrap_or_else(|_| Err(Failed::Incomplete(Msg::new("cli-typst-pdf-reader-stopped"))));
         (checked, staged)
     });
     match checked {
@@ -299,14 +299,14 @@ pub fn compile(
 /// Why a PDF typst wrote may not be used.
 enum Failed {
     /// Not a complete PDF, in words.
-    Incomplete(String),
+    Incomplete(Msg),
     /// The required phrases its text lacks, and what they are.
     Missing { what: Msg, missing: Vec<String> },
 }
 
 /// Checks a PDF typst wrote: complete, and showing the required text.
 fn check_document(bytes: &[u8], required: Option<&RequiredText>) -> Result<(), Failed> {
-    let document = incomplete(bytes).map_err(|why| Failed::Incomplete(why.to_string()))?;
+    let document = incomplete(bytes).map_err(Failed::Incomplete)?;
     if let Some(required) = required {
         let missing = missing_phrases(&document, &required.phrases);
         if !missing.is_empty() {

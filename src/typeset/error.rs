@@ -255,9 +255,18 @@ impl TypesetError {
     /// The same problem said in the words of `catalogue`, with the same
     /// code, for printing as a diagnostic.
     pub fn in_language(self, catalogue: &Catalogue) -> InLanguage {
+        // The operating system's answer under a failed file operation, in
+        // the same words.
+        let cause = match &self {
+            Self::Io { source, .. } => Some(CauseInLanguage(
+                catalogue.say(&crate::catalogue::os_error(source)),
+            )),
+            _ => None,
+        };
         InLanguage {
             error: self,
             catalogue: catalogue.clone(),
+            cause,
         }
     }
 
@@ -365,7 +374,20 @@ impl Diagnostic for TypesetError {
 pub struct InLanguage {
     error: TypesetError,
     catalogue: Catalogue,
+    cause: Option<CauseInLanguage>,
 }
+
+/// The cause of a failed file operation in the reader's words.
+#[derive(Debug)]
+struct CauseInLanguage(String);
+
+impl fmt::Display for CauseInLanguage {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        f.write_str(&self.0)
+    }
+}
+
+impl std::error::Error for CauseInLanguage {}
 
 impl fmt::Display for InLanguage {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
@@ -375,7 +397,10 @@ impl fmt::Display for InLanguage {
 
 impl std::error::Error for InLanguage {
     fn source(&self) -> Option<&(dyn std::error::Error + 'static)> {
-        std::error::Error::source(&self.error)
+        match &self.cause {
+            Some(cause) => Some(cause),
+            None => std::error::Error::source(&self.error),
+        }
     }
 }
 

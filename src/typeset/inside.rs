@@ -24,6 +24,26 @@ pub enum InsideError {
     },
 }
 
+impl InsideError {
+    /// The refusal as a catalogue message (`cli-inside-…`), to be said in
+    /// the reader's language.
+    pub fn msg(&self) -> crate::catalogue::Msg {
+        use crate::catalogue::Msg;
+        match self {
+            InsideError::Link { path } => {
+                Msg::new("cli-inside-link").arg("path", path.display().to_string())
+            }
+            InsideError::NotAFile { path } => {
+                Msg::new("cli-inside-not-a-file").arg("path", path.display().to_string())
+            }
+            InsideError::BadName { name } => Msg::new("cli-inside-bad-name").arg("name", name),
+            InsideError::Io { path, source } => Msg::new("cli-inside-cannot-read")
+                .arg("path", path.display().to_string())
+                .arg("error", crate::catalogue::os_error(source)),
+        }
+    }
+}
+
 /// Reads `dir/name`, where `name` is a `/`-separated relative path with no
 /// `.`/`..` parts. `Ok(None)` when there is no such file.
 pub fn read_inside(dir: &Path, name: &str) -> Result<Option<Vec<u8>>, InsideError> {

@@ -44,5 +44,7 @@ pub use locate::{
 };
 pub use output::{Input, InputIndex, OutputRefused, check_emit_folder, check_output};
 pub use sandbox::{EMIT_PREFIX, Sandbox, emit_source, emit_source_replacing};
-pub use template_env::{TemplateSource, TypstMarkup, template_environment, typst_markup};
+pub use template_env::{
+    TemplateSource, TypstMarkup, refusal, template_environment, template_error_msg, typst_markup,
+};
 pub use version::{MAX_TYPST_EXCLUSIVE, MIN_TYPST, TypstVersion};

@@ -4,30 +4,32 @@
 //! so a template cannot leave it out, hide it behind `#if false` or rewrite
 //! it with a show rule.
 
+use crate::catalogue::Msg;
+
 /// The largest file accepted from typst. A hand-over document is well under
 /// a megabyte; 256 MiB leaves room for many photos.
 pub(crate) const MAX_PDF_BYTES: u64 = 256 << 20;
 
-/// What is wrong with a file typst wrote, in words ("it ends before `%%EOF`").
-pub(crate) fn incomplete(bytes: &[u8]) -> Result<lopdf::Document, String> {
+/// What is wrong with a file typst wrote, as a catalogue message
+/// (`cli-typst-pdf-…`: "it ends before `%%EOF`"), said in the reader's
+/// language by the failure that quotes it. lopdf's own words, when it
+/// cannot parse the file, are quoted inside as a detail.
+pub(crate) fn incomplete(bytes: &[u8]) -> Result<lopdf::Document, Msg> {
     if bytes.is_empty() {
-        return Err("it is empty".into());
+        return Err(Msg::new("cli-typst-pdf-empty"));
     }
     if !bytes.starts_with(b"%PDF-") {
-        return Err("it does not start like a PDF (`%PDF-`)".into());
+        return Err(Msg::new("cli-typst-pdf-not-pdf"));
     }
     let tail = &bytes[bytes.len().saturating_sub(1024)..];
     if !tail.windows(5).any(|w| w == b"%%EOF") {
-        return Err(format!(
-            "it stops after {} bytes without the end-of-file mark `%%EOF`",
-            bytes.len()
-        ));
+        return Err(Msg::new("cli-typst-pdf-no-end").arg("size", bytes.len()));
     }
     let document = lopdf::Document::load_mem(bytes)
-        .map_err(|e| format!("it does not parse as a PDF ({e})"))?;
+        .map_err(|e| Msg::new("cli-typst-pdf-unparsable").arg("detail", e.to_string()))?;
     let pages = document.get_pages().len();
     if pages == 0 {
-        return Err("it has no pages".into());
+        return Err(Msg::new("cli-typst-pdf-no-pages"));
     }
     Ok(document)
 }
@@ -160,10 +162,26 @@ mod tests {
 
     #[test]
     fn truncated_or_foreign_files_are_incomplete() {
-        assert!(incomplete(b"").unwrap_err().contains("empty"));
-        assert!(incomplete(b"<html>").unwrap_err().contains("%PDF-"));
-        assert!(incomplete(b"%PDF-1.7\n").unwrap_err().contains("%%EOF"));
-        let err = incomplete(b"%PDF-1.7\ngarbage\n%%EOF\n").unwrap_err();
-        assert!(err.contains("does not parse"), "{err}");
+        let why = |bytes: &[u8]| incomplete(bytes).unwrap_err();
+        assert_eq!(why(b"").key, "cli-typst-pdf-empty");
+        assert_eq!(why(b"<html>").key, "cli-typst-pdf-not-pdf");
+        let no_end = why(b"%PDF-1.7\n");
+        assert_eq!(
+            no_end.english(),
+            "it stops after 9 bytes without the end-of-file mark `%%EOF`"
+        );
+        let err = why(b"%PDF-1.7\ngarbage\n%%EOF\n");
+        assert_eq!(err.key, "cli-typst-pdf-unparsable");
+        assert!(
+            err.english().starts_with("it does not parse as a PDF ("),
+            "{err:?}"
+        );
+        // In German, with lopdf's own words quoted inside.
+        let de = crate::catalogue::Catalogue::built_in("de").unwrap();
+        assert_eq!(
+            de.say(&no_end),
+            "sie endet nach 9 Bytes ohne die Dateiende-Marke `%%EOF`"
+        );
+        assert_eq!(de.say(&why(b"")), "sie ist leer");
     }
 }

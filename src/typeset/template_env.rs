@@ -17,6 +17,7 @@ use minijinja::{Environment, Error, ErrorKind, UndefinedBehavior};
 
 use super::escape::{escape_markup, escape_string};
 use super::inside::{InsideError, read_inside};
+use crate::catalogue::{Msg, MsgError};
 
 /// Where templates are read from.
 #[derive(Debug, Clone, Default)]
@@ -129,11 +130,9 @@ pub fn template_environment(templates: TemplateSource) -> Environment<'static> {
         if let Some(text) = &source
             && uses_autoescape(text)
         {
-            return Err(Error::new(
+            return Err(refusal(
                 ErrorKind::InvalidOperation,
-                format!(
-                    "the template `{name}` uses `{{% autoescape %}}`, which Typst templates may not"
-                ),
+                Msg::new("cli-template-autoescape").arg("name", name),
             ));
         }
         Ok(source)
@@ -204,25 +203,102 @@ fn load_from_dir(dir: &Path, name: &str) -> Result<Option<String>, Error> {
         Ok(Some(bytes)) => bytes,
         Ok(None) => return Ok(None),
         Err(InsideError::BadName { .. }) => {
-            return Err(Error::new(
+            return Err(refusal(
                 ErrorKind::TemplateNotFound,
-                format!("template name `{name}` is not a plain relative path"),
+                Msg::new("cli-template-bad-name").arg("name", name),
             ));
         }
         Err(e) => {
-            return Err(Error::new(
+            return Err(refusal(
                 ErrorKind::InvalidOperation,
-                format!("the template `{name}` was refused: {e}"),
+                Msg::new("cli-template-refused")
+                    .arg("name", name)
+                    .arg("why", e.msg()),
             ));
         }
     };
-    String::from_utf8(bytes).map(Some).map_err(|e| {
-        Error::new(
+    String::from_utf8(bytes).map(Some).map_err(|_| {
+        refusal(
             ErrorKind::InvalidOperation,
-            format!("the template `{name}` is not UTF-8 text"),
+            Msg::new("cli-template-not-utf8").arg("name", name),
         )
-        .with_source(e)
     })
+}
+
+/// A template engine error of `kind` whose words are the catalogue's
+/// `msg`: the message travels as the error's source ([`MsgError`]) and
+/// [`template_error_msg`] finds it again, so the reader gets it in their
+/// language; the engine's own text is its English.
+pub fn refusal(kind: ErrorKind, msg: Msg) -> Error {
+    Error::new(kind, msg.english()).with_source(MsgError(msg))
+}
+
+/// What the template engine said when a template could not be filled, as
+/// a catalogue message for the reader's language: a refusal of the
+/// program's own ([`refusal`]) as it was made; otherwise the kind of
+/// problem in the catalogue's words (`cli-template-kind-…`). The engine's
+/// own detail is kept, quoted, only where the error names a template line
+/// (`cli-template-engine-said`), since there it points at the mistake; the
+/// template and the line follow (`cli-template-place`).
+pub fn template_error_msg(e: &Error) -> Msg {
+    // The error that says most: the innermost of the engine's errors that
+    // names a line (an included template's own), else the outermost.
+    let mut said = e;
+    let mut cause: Option<&(dyn std::error::Error + 'static)> = std::error::Error::source(e);
+    let mut ours: Option<Msg> = None;
+    while let Some(c) = cause {
+        if let Some(inner) = c.downcast_ref::<Error>()
+            && inner.line().is_some()
+        {
+            said = inner;
+        }
+        if let Some(MsgError(msg)) = c.downcast_ref::<MsgError>() {
+            ours = Some(msg.clone());
+        }
+        cause = c.source();
+    }
+    let what = match ours {
+        Some(msg) => msg,
+        None => {
+            let kind = Msg::new(kind_key(said.kind()));
+            match (said.line(), said.detail()) {
+                (Some(_), Some(detail)) => Msg::new("cli-template-engine-said")
+                    .arg("what", kind)
+                    .arg("detail", detail),
+                _ => kind,
+            }
+        }
+    };
+    match (said.name(), said.line()) {
+        (Some(name), Some(line)) => Msg::new("cli-template-place")
+            .arg("what", what)
+            .arg("name", name)
+            .arg("line", line.to_string()),
+        _ => what,
+    }
+}
+
+/// The catalogue's words for a kind of template engine error.
+fn kind_key(kind: ErrorKind) -> &'static str {
+    match kind {
+        ErrorKind::SyntaxError => "cli-template-kind-syntax",
+        ErrorKind::UndefinedError => "cli-template-kind-undefined",
+        ErrorKind::UnknownFilter => "cli-template-kind-unknown-filter",
+        ErrorKind::UnknownTest => "cli-template-kind-unknown-test",
+        ErrorKind::UnknownFunction => "cli-template-kind-unknown-function",
+        ErrorKind::UnknownMethod => "cli-template-kind-unknown-method",
+        ErrorKind::TemplateNotFound => "cli-template-kind-not-found",
+        ErrorKind::TooManyArguments => "cli-template-kind-too-many-arguments",
+        ErrorKind::MissingArgument => "cli-template-kind-missing-argument",
+        ErrorKind::BadEscape => "cli-template-kind-bad-escape",
+        ErrorKind::InvalidOperation => "cli-template-kind-invalid-operation",
+        ErrorKind::NonPrimitive
+        | ErrorKind::NonKey
+        | ErrorKind::CannotUnpack
+        | ErrorKind::BadSerialization => "cli-template-kind-wrong-value",
+        ErrorKind::BadInclude => "cli-template-kind-bad-include",
+        _ => "cli-template-kind-other",
+    }
 }
 
 #[cfg(test)]

@@ -443,6 +443,8 @@ pub struct WindowRow {
     pub grid_middle: Option<String>,
     /// The grid voltage read now.
     pub grid_now: Option<String>,
+    /// Why there is no grid estimate, in the job's language.
+    pub grid_unknown: Option<String>,
 }
 
 #[derive(Debug, Clone, Serialize)]
@@ -1459,6 +1461,7 @@ fn window_row(v: &ValveFindings, cat: &Catalogue) -> Option<WindowRow> {
             .try_format(&format!("doc-window-{}", w.place), &[])
             .unwrap_or_else(|| w.place.to_string()),
         grid_middle: w.grid_for_middle_volts.map(volts),
+        grid_unknown: w.grid_for_middle_unknown_reason.clone(),
         grid_now: v.grid_volts.map(volts),
     })
 }

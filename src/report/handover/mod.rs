@@ -113,7 +113,7 @@ pub fn notice_source(catalogue: &Catalogue) -> Result<String, HandoverError> {
     )]));
     let fail = |e: minijinja::Error| HandoverError::Template {
         name: NOTICE_SOURCE.to_string(),
-        detail: template_error_words(&e),
+        detail: crate::typeset::template_error_msg(&e),
         from_override: false,
     };
     let words: std::collections::BTreeMap<String, String> = crate::catalogue::NOTICE_KEYS
@@ -150,10 +150,12 @@ pub const FALLBACK_DATE: (i32, u32, u32) = (2000, 1, 1);
 #[derive(Debug, thiserror::Error)]
 pub enum HandoverError {
     /// The template did not render (syntax error, unknown variable …).
-    #[error("the template {name} could not be filled: {detail}")]
+    #[error("the template {name} could not be filled: {}", .detail.english())]
     Template {
         name: String,
-        detail: String,
+        /// What went wrong, in catalogue words
+        /// ([`crate::typeset::template_error_msg`]).
+        detail: crate::catalogue::Msg,
         /// True when the template came from a `--templates` folder.
         from_override: bool,
     },
@@ -353,9 +355,9 @@ pub fn build(
     if !source.lines().any(|l| l.trim() == NOTICE_INCLUDE) {
         return Err(HandoverError::Template {
             name: TEMPLATE_NAME.to_string(),
-            detail: format!(
-                "the document must carry the mains-safety notice: put the line `{NOTICE_INCLUDE}` in the template"
-            ),
+            detail: crate::catalogue::Msg::new("cli-template-no-notice")
+                .arg("what", "document")
+                .arg("line", NOTICE_INCLUDE),
             from_override: templates
                 .override_dir
                 .as_ref()
@@ -403,7 +405,7 @@ pub(crate) fn fill_template(
     let env = template_environment(templates.clone());
     let fail = |e: minijinja::Error| HandoverError::Template {
         name: name.to_string(),
-        detail: template_error_words(&e),
+        detail: crate::typeset::template_error_msg(&e),
         from_override,
     };
     let template = env.get_template(name).map_err(fail)?;
@@ -449,13 +451,12 @@ pub fn catalogue_functions(catalogue: &Catalogue) -> (Value, Value) {
         kwargs.assert_all_used()?;
         match catalogue.try_format(key, &args) {
             Some(words) => Ok((words, values)),
-            None => Err(minijinja::Error::new(
+            None => Err(crate::typeset::refusal(
                 minijinja::ErrorKind::InvalidOperation,
-                format!(
-                    "the message catalogue ({}, {}) has no message `{key}`",
-                    catalogue.language(),
-                    catalogue.origin()
-                ),
+                crate::catalogue::Msg::new("cli-template-no-message")
+                    .arg("language", catalogue.language())
+                    .arg("origin", catalogue.origin())
+                    .arg("key", key),
             )),
         }
     }
@@ -490,22 +491,6 @@ pub fn catalogue_functions(catalogue: &Catalogue) -> (Value, Value) {
         },
     );
     (t, tm)
-}
-
-/// A minijinja error with its place in the template and its causes.
-pub(crate) fn template_error_words(e: &minijinja::Error) -> String {
-    let mut words = e.to_string();
-    if let (Some(name), Some(line)) = (e.name(), e.line()) {
-        if !words.contains(&format!("line {line}")) {
-            words.push_str(&format!(" (in {name}, line {line})"));
-        }
-    }
-    let mut cause = std::error::Error::source(e);
-    while let Some(c) = cause {
-        words.push_str(&format!(": {c}"));
-        cause = c.source();
-    }
-    words
 }
 
 /// Copies the files of a shop's `images/` folder into the sandbox, in name
@@ -827,6 +812,7 @@ mod tests {
                 ..
             }) => {
                 assert!(from_override);
+                let detail = detail.english();
                 assert!(
                     detail.contains("no_such_thing") || detail.contains("undefined"),
                     "{detail}"
@@ -912,6 +898,7 @@ mod tests {
         let source = TemplateSource::embedded(EMBEDDED_TEMPLATES).with_override_dir(dir.path());
         match build(&input, &source) {
             Err(HandoverError::Template { detail, .. }) => {
+                let detail = detail.english();
                 assert!(
                     detail.contains("no message `doc-no-such-label`"),
                     "{detail}"

@@ -112,9 +112,9 @@ pub fn build(
     if !source.lines().any(|l| l.trim() == NOTICE_INCLUDE) {
         return Err(HandoverError::Template {
             name: TEMPLATE_NAME.to_string(),
-            detail: format!(
-                "the listing must carry the mains-safety notice: put the line `{NOTICE_INCLUDE}` in the template"
-            ),
+            detail: crate::catalogue::Msg::new("cli-template-no-notice")
+                .arg("what", "listing")
+                .arg("line", NOTICE_INCLUDE),
             from_override: from_override(templates),
         });
     }
