@@ -401,15 +401,15 @@ mod tests {
         assert_eq!(k0, entry_key(b"abc", PhotoFormat::Png));
         assert_ne!(k0, key(b"abd", PhotoFormat::Png, &base));
         assert_ne!(k0, key(b"abc", PhotoFormat::Jpeg, &base));
-        let changes: Vec<Box<dyn Fn(&mut Parameters)>> = vec![
-            Box::new(|p| p.program.0 = "0.0.0-other"),
-            Box::new(|p| p.program.1 = "another build"),
-            Box::new(|p| p.print_box_mm.0 += 1.0),
-            Box::new(|p| p.print_box_mm.1 += 1.0),
-            Box::new(|p| p.dpi += 1.0),
-            Box::new(|p| p.jpeg_quality -= 1),
-            Box::new(|p| p.max_side -= 1),
-            Box::new(|p| p.max_decode_bytes -= 1),
+        let changes: [fn(&mut Parameters); 8] = [
+            |p| p.program.0 = "0.0.0-other",
+            |p| p.program.1 = "another build",
+            |p| p.print_box_mm.0 += 1.0,
+            |p| p.print_box_mm.1 += 1.0,
+            |p| p.dpi += 1.0,
+            |p| p.jpeg_quality -= 1,
+            |p| p.max_side -= 1,
+            |p| p.max_decode_bytes -= 1,
         ];
         for (i, change) in changes.iter().enumerate() {
             let mut p = base.clone();
