@@ -1870,9 +1870,10 @@ cli-skeleton-unit = Das Gerät: Hersteller und Modell (Pflicht), Seriennummer, B
     Beschreibung und Zustand als Unterknoten. rated-power ist die Nennleistung
     laut Hersteller, für die Messungen am Prüfplatz.
 cli-skeleton-mains = Netz: örtliche Nennspannung (Pflicht) und Frequenz; die Toleranz des
-    Netzes für die Hochrechnung auf Überspannung (Vorgabe +5 % bei 100–130 V
-    Nennspannung, nach ANSI C84.1 Bereich A, sonst +10 %, nach IEC 60038);
-    und die Netzspannung, von der die Spannungstabelle des Herstellers ausgeht.
+    Netzes für die Hochrechnung auf die obere Netzgrenze (Vorgabe +5 % bei
+    100–130 V Nennspannung, nach ANSI C84.1 Bereich A, sonst +10 %, nach
+    IEC 60038); und die Netzspannung, von der die Spannungstabelle des
+    Herstellers ausgeht.
 cli-skeleton-valves = Die Röhrenbestückung: Position, Typ (wie ihn die Datentabelle kennt, siehe
     `ampreport tubes`) und Aufgabe: preamp (Vorstufe), phase-inverter
     (Phasenumkehr), output (Endstufe), rectifier (Gleichrichter), tremolo,
@@ -2095,6 +2096,13 @@ cli-reading-stdin = Hinweis: der Auftrag wird von der Standardeingabe gelesen; m
 cli-template-not-filled = Fehler: die Vorlage { $name } ließ sich nicht ausfüllen: { $detail }
 cli-shop-image-unreadable = Fehler: das Bild der Werkstatt { $path } ließ sich nicht lesen: { $error }
 cli-template-file-refused = Fehler: eine Datei des Vorlagenordners wurde abgelehnt: { $error }
+cli-chart-failed = das Diagramm { $chart ->
+        [plate-dissipation] der Anodenverlustleistung
+        [supply-chain] der Versorgungskette
+        [warm-up] des Warmlaufens
+        [network-response] des Netzwerk-Frequenzgangs
+       *[frequency-response] des Frequenzgangs
+    } ließ sich nicht zeichnen: { $detail }
 
 ## Was die Vorlagen-Engine beanstandet (src/typeset/template_env.rs,
 ## src/typeset/inside.rs, src/report/handover/mod.rs), das `$detail` von
