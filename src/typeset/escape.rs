@@ -34,6 +34,13 @@
 /// See the module documentation for the rules.
 pub fn escape_markup(text: &str) -> String {
     let mut out = String::with_capacity(text.len() + text.len() / 4);
+    escape_markup_into(text, &mut out);
+    out
+}
+
+/// [`escape_markup`], appending to `out` (the template's formatter writes
+/// every printed value this way, without a string of its own for each).
+pub fn escape_markup_into(text: &str, out: &mut String) {
     let mut chars = text.chars().peekable();
     // Breaks since the last printed character: the first is a plain line
     // break, each further one an empty line.
@@ -76,7 +83,6 @@ pub fn escape_markup(text: &str) -> String {
             out.push('\u{200B}');
         }
     }
-    out
 }
 
 /// Characters in a row, without white space, after which a word may be
