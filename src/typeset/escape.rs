@@ -80,8 +80,12 @@ pub fn escape_markup(text: &str) -> String {
 }
 
 /// Characters in a row, without white space, after which a word may be
-/// broken anywhere: longer than any real word or part number.
-pub const LONG_WORD: usize = 40;
+/// broken anywhere: longer than any real word or part number. The
+/// hand-over template gives the strings it prints the same break
+/// opportunities from 32 characters on (`long-runs` in
+/// `templates/handover.typ`); a regex rule over the whole document did
+/// this for all text before, at a twentieth of typst's time on a long job.
+pub const LONG_WORD: usize = 31;
 
 /// Makes `text` safe inside a Typst string literal: the result goes between
 /// two `"` characters.
@@ -118,6 +122,22 @@ fn is_line_end(c: char) -> bool {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn a_run_longer_than_a_long_word_may_break_after_each_further_character() {
+        let word = "a".repeat(LONG_WORD);
+        assert_eq!(escape_markup(&word), word);
+        let longer = "b".repeat(LONG_WORD + 2);
+        assert_eq!(
+            escape_markup(&longer),
+            format!("{}b\u{200B}b\u{200B}", "b".repeat(LONG_WORD))
+        );
+        // White space starts a new run.
+        assert_eq!(
+            escape_markup(&format!("{word} {word}")),
+            format!("{word} {word}")
+        );
+    }
 
     #[test]
     fn plain_words_pass_through() {
