@@ -2094,6 +2094,13 @@ cli-reading-stdin = Hinweis: der Auftrag wird von der Standardeingabe gelesen; m
 cli-template-not-filled = Fehler: die Vorlage { $name } ließ sich nicht ausfüllen: { $detail }
 cli-shop-image-unreadable = Fehler: das Bild der Werkstatt { $path } ließ sich nicht lesen: { $error }
 cli-template-file-refused = Fehler: eine Datei des Vorlagenordners wurde abgelehnt: { $error }
+cli-chart-failed = das Diagramm { $chart ->
+        [plate-dissipation] der Anodenverlustleistung
+        [supply-chain] der Versorgungskette
+        [warm-up] des Warmlaufens
+        [network-response] des Netzwerk-Frequenzgangs
+       *[frequency-response] des Frequenzgangs
+    } ließ sich nicht zeichnen: { $detail }
 
 ## Was die Vorlagen-Engine beanstandet (src/typeset/template_env.rs,
 ## src/typeset/inside.rs, src/report/handover/mod.rs), das `$detail` von

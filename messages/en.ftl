@@ -2092,6 +2092,13 @@ cli-reading-stdin = note: reading the job from standard input; end it with Ctrl-
 cli-template-not-filled = error: the template { $name } could not be filled: { $detail }
 cli-shop-image-unreadable = error: could not read the shop image { $path }: { $error }
 cli-template-file-refused = error: refused a file of the template folder: { $error }
+cli-chart-failed = could not draw the { $chart ->
+        [plate-dissipation] plate dissipation
+        [supply-chain] supply chain
+        [warm-up] warm-up
+        [network-response] network response
+       *[frequency-response] frequency response
+    } chart: { $detail }
 
 ## What the template engine found wrong (src/typeset/template_env.rs,
 ## src/typeset/inside.rs, src/report/handover/mod.rs), the `$detail` of

@@ -1060,7 +1060,7 @@ fn report_build_error(e: HandoverError, said: &mut Said) -> Exit {
         HandoverError::Sandbox(t) => {
             Msg::new("cli-error").arg("error", t.message_in(said.catalogue()))
         }
-        HandoverError::Plot(p) => Msg::new("cli-error").arg("error", p.to_string()),
+        HandoverError::Plot(p) => Msg::new("cli-error").arg("error", p.msg()),
     };
     said.error(said.say(&words));
     status

@@ -49,6 +49,16 @@ pub struct PlotError {
     pub message: String,
 }
 
+impl PlotError {
+    /// The failure as a catalogue message (`cli-chart-failed`), the
+    /// plotting library's own words quoted as its detail.
+    pub fn msg(&self) -> crate::catalogue::Msg {
+        crate::catalogue::Msg::new("cli-chart-failed")
+            .arg("chart", self.chart.replace(' ', "-"))
+            .arg("detail", self.message.as_str())
+    }
+}
+
 /// The guide drawn behind the dissipation bars.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub enum Guide {
@@ -1403,6 +1413,36 @@ fn draw_supply(chart: &SupplyChart, svg: &mut String) -> Result<(), String> {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn a_chart_that_cannot_be_drawn_is_said_in_the_readers_language() {
+        let e = PlotError {
+            chart: "plate dissipation",
+            message: "backend failed".into(),
+        };
+        assert_eq!(
+            e.to_string(),
+            "could not draw the plate dissipation chart: backend failed"
+        );
+        assert_eq!(e.msg().english(), e.to_string());
+        let de = crate::catalogue::Catalogue::built_in("de").unwrap();
+        assert_eq!(
+            de.say(&e.msg()),
+            "das Diagramm der Anodenverlustleistung ließ sich nicht zeichnen: backend failed"
+        );
+        for chart in [
+            "supply chain",
+            "warm-up",
+            "network response",
+            "frequency response",
+        ] {
+            let e = PlotError {
+                chart,
+                message: "x".into(),
+            };
+            assert_eq!(e.msg().english(), e.to_string(), "{chart}");
+        }
+    }
 
     /// The text content of every `<text>` element, trimmed.
     fn texts(svg: &str) -> Vec<String> {
