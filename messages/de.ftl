@@ -1870,9 +1870,10 @@ cli-skeleton-unit = Das Gerät: Hersteller und Modell (Pflicht), Seriennummer, B
     Beschreibung und Zustand als Unterknoten. rated-power ist die Nennleistung
     laut Hersteller, für die Messungen am Prüfplatz.
 cli-skeleton-mains = Netz: örtliche Nennspannung (Pflicht) und Frequenz; die Toleranz des
-    Netzes für die Hochrechnung auf Überspannung (Vorgabe +5 % bei 100–130 V
-    Nennspannung, nach ANSI C84.1 Bereich A, sonst +10 %, nach IEC 60038);
-    und die Netzspannung, von der die Spannungstabelle des Herstellers ausgeht.
+    Netzes für die Hochrechnung auf die obere Netzgrenze (Vorgabe +5 % bei
+    100–130 V Nennspannung, nach ANSI C84.1 Bereich A, sonst +10 %, nach
+    IEC 60038); und die Netzspannung, von der die Spannungstabelle des
+    Herstellers ausgeht.
 cli-skeleton-valves = Die Röhrenbestückung: Position, Typ (wie ihn die Datentabelle kennt, siehe
     `ampreport tubes`) und Aufgabe: preamp (Vorstufe), phase-inverter
     (Phasenumkehr), output (Endstufe), rectifier (Gleichrichter), tremolo,
