@@ -9,6 +9,7 @@
 #   bash scripts/perf.sh batch [JOBS]       -j 1 against -j 2 over demo-sized jobs (and with typst --jobs 1)
 #   bash scripts/perf.sh noop [JOBS]        a second pass over unchanged jobs
 #   bash scripts/perf.sh watch [SAVES]      save-to-PDF time of `watch` against typst's compile time
+#   bash scripts/perf.sh watch-own [SAVES]  `watch` with a stand-in typst: its own share per save (time and CPU)
 #
 # It builds the release binary first (AMPREPORT_BIN=PATH uses that binary
 # instead: enough for `template` and `size`, which time typst alone). The "old" side of `template` and
@@ -307,8 +308,45 @@ watch)
     echo "typst compile of the same job: median $b ms"
     echo "watch's own share: $((a - b)) ms (target: at most 150 ms)"
     ;;
+watch-own)
+    # watch with a stand-in typst that copies a finished document, so the
+    # time from a save to its manifest being written (just after the PDF
+    # is in place) is watch's own share: the debounce, reading and
+    # working out the job, the document, the PDF check, the atomic
+    # replace. Also the processor time per save of the watch process and
+    # the children it waited for (git, the stand-in), from /proc.
+    saves="${1:-9}"
+    load
+    mkdir -p "$work/wo"
+    cp jobs/combo-el84-cathode.kdl jobs/shop.kdl jobs/larkmoor-logo.svg "$work/wo/"
+    "$bin" render "$work/wo/combo-el84-cathode.kdl" -o "$work/finished.pdf" --force >/dev/null 2>&1
+    stand_in "$work/finished.pdf"
+    job="$work/wo/combo-el84-cathode.kdl"
+    key="$work/wo/.combo-el84-cathode.pdf.ampreport-key"
+    "$bin" watch "$job" --typst "$work/stand-in" >"$work/wo.log" 2>&1 &
+    watcher=$!
+    while ! grep -q rendered "$work/wo.log" 2>/dev/null; do sleep 0.02; done
+    sleep 0.5
+    ticks() { awk '{ print $14 + $15 + $16 + $17 }' "/proc/$watcher/stat"; }
+    : >"$work/a"
+    t0=$(ticks)
+    for i in $(seq "$saves"); do
+        before=$(md5sum <"$key")
+        s0=$(now_ns)
+        sed -i "s/^job id=\"\([^\"]*\)\"/job id=\"O-$i\"/" "$job"
+        while [ "$(md5sum <"$key")" = "$before" ]; do sleep 0.002; done
+        s1=$(now_ns)
+        echo $(((s1 - s0) / 1000000)) >>"$work/a"
+        sleep 0.3
+    done
+    t1=$(ticks)
+    kill -INT "$watcher"
+    wait "$watcher" || true
+    echo "save to manifest written (stand-in typst): median $(median <"$work/a") ms over $saves saves ($(tr '\n' ' ' <"$work/a")ms)"
+    echo "processor time per save: $(((t1 - t0) * 1000 / $(getconf CLK_TCK) / saves)) ms (watch and the children it waited for)"
+    ;;
 *)
-    sed -n '2,20p' "$0"
+    sed -n '2,23p' "$0"
     exit 2
     ;;
 esac

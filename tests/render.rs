@@ -831,11 +831,15 @@ fn fonts_from_the_user_cache_or_the_sandbox_give_identical_bytes() {
         assert_ok(&out, "render");
         std::fs::read(pdf).unwrap()
     };
-    // First run writes the cache, the second uses it.
+    // First run writes the cache (the fonts, and the job's two photos as
+    // prepared), the second uses it.
     let first = run(&dir.path().join("a.pdf"), &home);
+    let photos = home.join("ampreport").join("photos");
+    assert_eq!(std::fs::read_dir(&photos).unwrap().count(), 2);
     let cached: Vec<PathBuf> = std::fs::read_dir(home.join("ampreport"))
         .unwrap()
         .map(|e| e.unwrap().path())
+        .filter(|p| *p != photos)
         .collect();
     assert_eq!(cached.len(), 1, "{cached:?}");
     let folder = &cached[0];
@@ -848,12 +852,13 @@ fn fonts_from_the_user_cache_or_the_sandbox_give_identical_bytes() {
     );
     assert!(folder.join("NotoSans-Regular.ttf").is_file());
     let second = run(&dir.path().join("b.pdf"), &home);
-    // A cache folder that cannot be made: the fonts go into the sandbox.
+    // A cache folder that cannot be made: the fonts go into the sandbox
+    // and the photos are prepared afresh.
     let blocked = dir.path().join("not-a-folder");
     std::fs::write(&blocked, b"x").unwrap();
     let fallback = run(&dir.path().join("c.pdf"), &blocked);
     assert!(first.starts_with(b"%PDF-"));
-    assert_eq!(first, second, "a render from the cache differs");
+    assert_eq!(first, second, "a render from the caches differs");
     assert_eq!(
         first, fallback,
         "a render with fonts in the sandbox differs"

@@ -369,29 +369,54 @@ pub fn photos(
     loaded: &Loaded,
     said: &mut Said,
 ) -> Result<Vec<crate::photo::PreparedPhoto>, Exit> {
-    crate::photo::prepare(&loaded.decoded.job, job_file).map_err(|problems| {
-        let name = job_name(job_file);
-        let diagnostics =
-            job::JobDiagnostics::new(loaded.decoded.diagnostics.source.clone(), problems);
-        let diagnostics = diagnostics.localized(language(loaded.shop.as_ref()));
-        refused(&name, &loaded.text, diagnostics, said);
-        Exit::InvalidInput
-    })
+    if loaded.decoded.job.photos.is_empty() {
+        return Ok(Vec::new());
+    }
+    // Prepared pictures are kept in the user's cache between renders.
+    let cache = crate::photo::PhotoCache::user();
+    if let Some(cache) = &cache {
+        said.read(
+            "cli-read-what-photo-cache",
+            Msg::new("cli-read-from-path").arg("path", cache.dir().display().to_string()),
+        );
+    }
+    crate::photo::prepare_cached(&loaded.decoded.job, job_file, cache.as_ref()).map_err(
+        |problems| {
+            let name = job_name(job_file);
+            let diagnostics =
+                job::JobDiagnostics::new(loaded.decoded.diagnostics.source.clone(), problems);
+            let diagnostics = diagnostics.localized(language(loaded.shop.as_ref()));
+            refused(&name, &loaded.text, diagnostics, said);
+            Exit::InvalidInput
+        },
+    )
 }
 
 /// Records where the job file came from in its findings: the SHA-256 of
 /// its bytes and, when it is in a git repository, the commit that last
 /// changed it and whether the bytes read differ from it.
 pub fn stamp(job: &Path, loaded: &Loaded, findings: &mut crate::calc::Findings) {
+    // A job from standard input has no file git could know.
+    let lookup = if is_dash(job) {
+        None
+    } else {
+        crate::git::look_up(job)
+    };
+    stamp_from(loaded, findings, lookup.as_ref());
+}
+
+/// [`stamp`] with what git holds of the job file already asked
+/// ([`crate::git::look_up`], `None` for no repository or a job from
+/// standard input).
+pub fn stamp_from(
+    loaded: &Loaded,
+    findings: &mut crate::calc::Findings,
+    lookup: Option<&crate::git::Lookup>,
+) {
     use sha2::{Digest, Sha256};
     let digest = Sha256::digest(loaded.text.as_bytes());
     findings.job.file_sha256 = Some(digest.iter().map(|b| format!("{b:02x}")).collect());
-    // A job from standard input has no file git could know.
-    findings.job.git = if is_dash(job) {
-        None
-    } else {
-        crate::git::revision(job, loaded.text.as_bytes())
-    };
+    findings.job.git = lookup.and_then(|l| l.revision(loaded.text.as_bytes()));
 }
 
 /// A file's text; `what` names it in the message ("shop profile").

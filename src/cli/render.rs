@@ -132,7 +132,14 @@ impl<'a> Setup<'a> {
         if !batch {
             single_output_allowed(args, &jobs[0].path)?;
         }
-        // typst answers `--version` while the ratings are read.
+        // typst answers `--version`, and git says where a lone job's
+        // repository stands (for its content key), while the ratings are
+        // read.
+        let head = (!batch && !is_dash(&jobs[0].path)).then(|| {
+            let folder = job_folder(&jobs[0].path);
+            let asked = folder.clone();
+            (folder, std::thread::spawn(move || crate::git::head(&asked)))
+        });
         let pending = typeset::start_locate(args.typst.as_deref());
         let ratings = load::ratings(&args.job.ratings)?;
         let templates = template_source(args.templates.as_deref(), args.listing)?;
@@ -198,6 +205,12 @@ impl<'a> Setup<'a> {
                 .map(|p| Input::new(&p.job.path, "cli-input-job-of-run"))
                 .collect(),
         );
+        let mut heads = std::collections::HashMap::new();
+        if let Some((folder, asked)) = head
+            && let Ok(answer) = asked.join()
+        {
+            heads.insert(folder, answer);
+        }
         Ok(Setup {
             args,
             ratings,
@@ -207,7 +220,7 @@ impl<'a> Setup<'a> {
             plans,
             job_files,
             batch,
-            heads: Default::default(),
+            heads: std::sync::Mutex::new(heads),
         })
     }
 }
@@ -219,10 +232,7 @@ impl Setup<'_> {
         if is_dash(job_path) {
             return None;
         }
-        let folder = match job_path.parent() {
-            Some(p) if !p.as_os_str().is_empty() => p.to_path_buf(),
-            _ => PathBuf::from("."),
-        };
+        let folder = job_folder(job_path);
         if let Some(known) = self.heads.lock().ok()?.get(&folder) {
             return known.clone();
         }
@@ -231,6 +241,15 @@ impl Setup<'_> {
             heads.insert(folder, head.clone());
         }
         head
+    }
+}
+
+/// The folder holding the job file at `path` (`.` for a bare name): the
+/// folder whose repository `HEAD` its content key takes.
+fn job_folder(path: &Path) -> PathBuf {
+    match path.parent() {
+        Some(p) if !p.as_os_str().is_empty() => p.to_path_buf(),
+        _ => PathBuf::from("."),
     }
 }
 
@@ -397,6 +416,12 @@ fn render_job(
     {
         return Ok(Outcome::Unchanged);
     }
+    // git is asked about the job file (for the footer) while the job is
+    // read and worked out; its answer is taken when the findings are.
+    let lookup = (!is_dash(job_path)).then(|| {
+        let path = job_path.clone();
+        std::thread::spawn(move || crate::git::look_up(&path))
+    });
     let shop = load::shop_profile(job_path, args.job.shop_choice(), said, depends)?;
     let text = load::read_job(job_path, said)?;
 
@@ -469,7 +494,8 @@ fn render_job(
 
     let photos = load::photos(job_path, &loaded, said)?;
     let mut findings = calc::derive_in(job, &setup.ratings, loaded.catalogue());
-    load::stamp(job_path, &loaded, &mut findings);
+    let lookup = lookup.and_then(|asked| asked.join().ok()).flatten();
+    load::stamp_from(&loaded, &mut findings, lookup.as_ref());
     for warning in undrawable_text(&load::job_name(job_path), &loaded.text, said.catalogue()) {
         said.warn(warning);
     }

@@ -38,8 +38,11 @@ use super::ui;
 use crate::catalogue::Msg;
 use crate::typeset::interrupt;
 
-/// How long a file must be quiet before its change is taken.
-pub const DEBOUNCE: Duration = Duration::from_millis(40);
+/// How long a file must be quiet before its change is taken. An editor
+/// writes a job file of a few kilobytes in well under a millisecond; a
+/// render that still catches a save half-written fails, keeps the last
+/// good PDF, and the rest of the save renders again.
+pub const DEBOUNCE: Duration = Duration::from_millis(15);
 
 /// How often the loop looks for a stop signal while nothing changes.
 const POLL: Duration = Duration::from_millis(100);

@@ -207,9 +207,19 @@ enum Ran {
 }
 
 fn run(dir: &Path, args: &[&str], cap: usize) -> Ran {
+    finish(start(dir, args, cap), cap)
+}
+
+/// Starts one git run; [`finish`] waits for it. Two started before either
+/// is waited for run side by side.
+fn start(dir: &Path, args: &[&str], cap: usize) -> std::io::Result<Running> {
     let mut c = git_command(dir);
     c.args(args);
-    let child = match Running::spawn(c, cap + 1, 4096) {
+    Running::spawn(c, cap + 1, 4096)
+}
+
+fn finish(started: std::io::Result<Running>, cap: usize) -> Ran {
+    let child = match started {
         Ok(c) => c,
         Err(e) => return Ran::NotRun(e),
     };
@@ -270,8 +280,28 @@ fn blob_id(bytes: &[u8], id_len: usize) -> Option<String> {
 /// Where `file`, read as `bytes`, stands in git: none without git, outside
 /// a repository, or when no commit holds the file yet.
 pub fn revision(file: &Path, bytes: &[u8]) -> Option<Revision> {
+    look_up(file)?.revision(bytes)
+}
+
+/// What git holds of a file, before its bytes are compared with it
+/// ([`Lookup::revision`]): asked from the path alone, so a render can ask
+/// while it reads and works out the job.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub struct Lookup {
+    /// The commit that last changed the file (its full id).
+    commit: String,
+    /// The id of the file's blob in `HEAD`; none when `HEAD` lacks it.
+    committed: Option<String>,
+}
+
+/// What git holds of `file`: none without git, outside a repository, or
+/// when no commit holds the file yet. The two git runs it takes (the
+/// commit that last changed the file, the file's blob in `HEAD`) run side
+/// by side.
+pub fn look_up(file: &Path) -> Option<Lookup> {
     let (dir, name) = folder_and_name(file)?;
-    let Ran::Ok(out) = run(
+    let spec = format!("HEAD:./{name}");
+    let log = start(
         &dir,
         &[
             "log",
@@ -282,27 +312,37 @@ pub fn revision(file: &Path, bytes: &[u8]) -> Option<Revision> {
             &name,
         ],
         256,
-    ) else {
+    );
+    let blob = start(&dir, &["rev-parse", "--verify", "--quiet", &spec], 256);
+    let (log, blob) = (finish(log, 256), finish(blob, 256));
+    let Ran::Ok(out) = log else {
         return None;
     };
     let commit = String::from_utf8(out).ok()?.trim().to_string();
     if commit.len() < SHORT_ID_DIGITS || !commit.chars().all(|c| c.is_ascii_hexdigit()) {
         return None;
     }
-    let spec = format!("HEAD:./{name}");
-    let committed = match run(&dir, &["rev-parse", "--verify", "--quiet", &spec], 256) {
+    let committed = match blob {
         Ran::Ok(out) => String::from_utf8(out).ok().map(|s| s.trim().to_string()),
         _ => None,
     };
-    // No blob in HEAD (the file was removed there) counts as a change.
-    let uncommitted_changes = committed
-        .as_deref()
-        .and_then(|id| Some(blob_id(bytes, id.len())? != id))
-        .unwrap_or(true);
-    Some(Revision {
-        commit: commit[..SHORT_ID_DIGITS].to_string(),
-        uncommitted_changes,
-    })
+    Some(Lookup { commit, committed })
+}
+
+impl Lookup {
+    /// Where the file stands when its bytes are `bytes`.
+    pub fn revision(&self, bytes: &[u8]) -> Option<Revision> {
+        // No blob in HEAD (the file was removed there) counts as a change.
+        let uncommitted_changes = self
+            .committed
+            .as_deref()
+            .and_then(|id| Some(blob_id(bytes, id.len())? != id))
+            .unwrap_or(true);
+        Some(Revision {
+            commit: self.commit[..SHORT_ID_DIGITS].to_string(),
+            uncommitted_changes,
+        })
+    }
 }
 
 /// The commit `HEAD` of the repository holding `folder` (its full id):

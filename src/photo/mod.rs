@@ -19,8 +19,11 @@
 //! position, camera, comments) reaches the document. The same file always
 //! gives the same bytes.
 
+mod cache;
+
 use std::path::{Path, PathBuf};
 
+pub use cache::{CAP_BYTES, MAX_ENTRY_BYTES, PhotoCache, Prepared, entry_key};
 use image::{DynamicImage, ImageDecoder, ImageFormat, ImageReader, imageops::FilterType};
 
 use crate::catalogue::Msg;
@@ -126,11 +129,22 @@ impl PhotoFormat {
 /// Checks and prepares every photo of `job`, read from `job_file`. All
 /// problems are returned together, each pointing at its `photo` line.
 pub fn prepare(job: &Job, job_file: &Path) -> Result<Vec<PreparedPhoto>, Vec<DecodeError>> {
+    prepare_cached(job, job_file, None)
+}
+
+/// [`prepare`], taking each prepared picture from `cache` when it holds
+/// a sound entry for the photo's bytes, and keeping it there otherwise
+/// (see [`PhotoCache`]). The result is the same either way.
+pub fn prepare_cached(
+    job: &Job,
+    job_file: &Path,
+    cache: Option<&PhotoCache>,
+) -> Result<Vec<PreparedPhoto>, Vec<DecodeError>> {
     let folder = job_folder(job_file);
     let mut out = Vec::new();
     let mut problems = Vec::new();
     for (i, photo) in job.photos.iter().enumerate() {
-        match prepare_one(&folder, photo, i + 1) {
+        match prepare_one(&folder, photo, i + 1, cache) {
             Ok(p) => out.push(p),
             Err(e) => problems.push(*e),
         }
@@ -148,6 +162,7 @@ pub fn prepare_one(
     folder: &Path,
     photo: &Photo,
     number: usize,
+    cache: Option<&PhotoCache>,
 ) -> Result<PreparedPhoto, Box<DecodeError>> {
     let written = &photo.path.value;
     let fail = |code: &'static str, message: Msg, label: &'static str, help: &'static str| {
@@ -217,7 +232,7 @@ pub fn prepare_one(
             "diag-photo-content-matters",
         ));
     };
-    let (bytes, width, height) = process(&read.bytes, format).map_err(|why| {
+    let (bytes, width, height) = process_cached(&read.bytes, format, cache).map_err(|why| {
         fail(
             "job::photo-unreadable",
             Msg::new("diag-photo-undecodable")
@@ -247,6 +262,31 @@ fn content_words(bytes: &[u8]) -> &'static str {
     } else {
         "neither"
     }
+}
+
+/// [`process`] through `cache`: the kept picture when there is a sound
+/// entry for these bytes, else processed and kept. A failure is never
+/// kept.
+pub fn process_cached(
+    bytes: &[u8],
+    format: PhotoFormat,
+    cache: Option<&PhotoCache>,
+) -> Result<(Vec<u8>, u32, u32), Msg> {
+    let Some(cache) = cache else {
+        return process(bytes, format);
+    };
+    let key = entry_key(bytes, format);
+    if let Some(kept) = cache.get(&key, format) {
+        return Ok((kept.bytes, kept.width, kept.height));
+    }
+    let (picture, width, height) = process(bytes, format)?;
+    let prepared = Prepared {
+        bytes: picture,
+        width,
+        height,
+    };
+    cache.put(&key, format, &prepared);
+    Ok((prepared.bytes, width, height))
 }
 
 /// What the image reader (the `image` crate) found wrong, in the
@@ -559,5 +599,54 @@ mod tests {
         // The same file always gives the same bytes.
         let again = prepare(&j, &file).unwrap();
         assert_eq!(ready[0].bytes, again[0].bytes);
+    }
+
+    #[test]
+    fn a_cached_photo_is_the_one_prepared_afresh_and_a_damaged_entry_is_rebuilt() {
+        let (_dir, job) = folders();
+        std::fs::write(job.join("photos/wide.png"), png_bytes(&halves(3000, 1000))).unwrap();
+        let rotated = jpeg_with_exif(&halves(80, 40), 6, b"GPS-MARKER");
+        std::fs::write(job.join("photos/rotated.jpg"), &rotated).unwrap();
+        let (j, file) = job_with(&job, &["photos/wide.png", "photos/rotated.jpg"]);
+        let fresh = prepare(&j, &file).unwrap();
+        let root = tempfile::tempdir().unwrap();
+        let cache = PhotoCache::in_root(root.path()).unwrap();
+        // The first time prepares and keeps; the second takes what was kept.
+        assert_eq!(prepare_cached(&j, &file, Some(&cache)).unwrap(), fresh);
+        let entries = |c: &PhotoCache| std::fs::read_dir(c.dir()).unwrap().count();
+        assert_eq!(entries(&cache), 2);
+        assert_eq!(prepare_cached(&j, &file, Some(&cache)).unwrap(), fresh);
+        // What is kept is what is used: a sound entry with other pixels of
+        // the same size is taken as it is (the folder is the user's own).
+        let wide = std::fs::read(job.join("photos/wide.png")).unwrap();
+        let key = entry_key(&wide, PhotoFormat::Png);
+        let other = png_bytes(&RgbImage::from_pixel(630, 210, Rgb([1, 2, 3])));
+        let kept = Prepared {
+            bytes: other.clone(),
+            width: 630,
+            height: 210,
+        };
+        cache.put(&key, PhotoFormat::Png, &kept);
+        assert_eq!(
+            prepare_cached(&j, &file, Some(&cache)).unwrap()[0].bytes,
+            other
+        );
+        // A damaged entry is not used: the photo is prepared again and the
+        // entry made sound.
+        let path = cache.entry_path(&key);
+        let mut bytes = std::fs::read(&path).unwrap();
+        let middle = bytes.len() / 2;
+        bytes[middle] ^= 1;
+        std::fs::write(&path, &bytes).unwrap();
+        assert_eq!(prepare_cached(&j, &file, Some(&cache)).unwrap(), fresh);
+        assert_eq!(
+            cache.get(&key, PhotoFormat::Png).unwrap().bytes,
+            fresh[0].bytes
+        );
+        // A photo that cannot be prepared is never kept.
+        std::fs::write(job.join("photos/broken.png"), b"\x89PNG\r\n\x1a\nbroken").unwrap();
+        let (j, file) = job_with(&job, &["photos/broken.png"]);
+        assert!(prepare_cached(&j, &file, Some(&cache)).is_err());
+        assert_eq!(entries(&cache), 2);
     }
 }

@@ -64,6 +64,9 @@ pub(crate) struct Running {
     reaped: bool,
     stdout: Receiver<Captured>,
     stderr: Receiver<Captured>,
+    /// Told once by each output reader when its pipe closes, which the
+    /// child's end does: the wait wakes then rather than at its next poll.
+    closed: Receiver<()>,
 }
 
 /// How long to wait for the output readers once the child has ended: a
@@ -80,13 +83,15 @@ impl Running {
             .stderr(Stdio::piped());
         own_group_dying_with_parent(&mut command);
         let mut child = command.spawn()?;
-        let stdout = read_bounded(child.stdout.take(), stdout_cap);
-        let stderr = read_bounded(child.stderr.take(), stderr_cap);
+        let (closing, closed) = mpsc::channel();
+        let stdout = read_bounded(child.stdout.take(), stdout_cap, closing.clone());
+        let stderr = read_bounded(child.stderr.take(), stderr_cap, closing);
         Ok(Self {
             child,
             reaped: false,
             stdout,
             stderr,
+            closed,
         })
     }
 
@@ -122,8 +127,20 @@ impl Running {
                 });
             }
             let left = deadline.map_or(pause, |d| d - now);
-            std::thread::sleep(pause.min(left));
-            pause = (pause * 2).min(Duration::from_millis(20));
+            // Polls at growing intervals, but wakes at once when an output
+            // pipe closes (the child ending), and polls closely after it:
+            // a poll of 20 ms added 10 ms on average to every run.
+            match self.closed.recv_timeout(pause.min(left)) {
+                Ok(()) => pause = Duration::from_millis(1),
+                Err(mpsc::RecvTimeoutError::Timeout) => {
+                    pause = (pause * 2).min(Duration::from_millis(20));
+                }
+                // Both pipes closed and told: poll as before.
+                Err(mpsc::RecvTimeoutError::Disconnected) => {
+                    std::thread::sleep(pause.min(left));
+                    pause = (pause * 2).min(Duration::from_millis(20));
+                }
+            }
         }
     }
 
@@ -151,7 +168,12 @@ fn collect(rx: &Receiver<Captured>) -> Captured {
 }
 
 /// Reads `source` to its end on a thread of its own, keeping `cap` bytes.
-fn read_bounded<R: Read + Send + 'static>(source: Option<R>, cap: usize) -> Receiver<Captured> {
+/// Tells `closed` when the source has ended.
+fn read_bounded<R: Read + Send + 'static>(
+    source: Option<R>,
+    cap: usize,
+    closed: mpsc::Sender<()>,
+) -> Receiver<Captured> {
     let (tx, rx) = mpsc::channel();
     let Some(mut source) = source else {
         let _ = tx.send(Captured::default());
@@ -175,6 +197,7 @@ fn read_bounded<R: Read + Send + 'static>(source: Option<R>, cap: usize) -> Rece
                 }
             }
             let _ = tx.send(captured);
+            let _ = closed.send(());
         });
     if spawned.is_err() {
         // No thread: the pipe is dropped, and the child sees a closed pipe.

@@ -259,34 +259,64 @@ pub fn compile(
     }
     let bytes = std::fs::read(&written)
         .map_err(|e| TypesetError::io("cli-typst-io-read-pdf", &written, e))?;
-    let document = match incomplete(&bytes) {
-        Ok(document) => document,
-        Err(why) => {
+    // The PDF is checked while it is written beside the output and
+    // flushed to disk; it is renamed into place only once both are done
+    // and the check passed. A failed check removes the staged file, and
+    // its error wins over one of staging.
+    let (checked, staged) = std::thread::scope(|s| {
+        let check = s.spawn(|| check_document(&bytes, opts.required_text.as_ref()));
+        let staged = stage(&bytes, output, true);
+        let checked = check
+            .join()
+            .unwrap_or_else(|_| Err(Failed::Incomplete(Msg::new("cli-typst-pdf-reader-stopped"))));
+        (checked, staged)
+    });
+    match checked {
+        Ok(()) => {}
+        Err(Failed::Incomplete(why)) => {
             return Err(misbehaved(
                 work,
                 Msg::new("cli-typst-incomplete").arg("why", why),
                 stderr,
             ));
         }
-    };
-    if let Some(required) = &opts.required_text {
-        let missing = missing_phrases(&document, &required.phrases);
-        if !missing.is_empty() {
+        Err(Failed::Missing { what, missing }) => {
             return Err(TypesetError::MissingText {
-                what: required.what.clone(),
-                missing: missing.into_iter().map(str::to_owned).collect(),
+                what,
+                missing,
                 kept: keep(work),
             });
         }
     }
-    drop(document);
-
-    place(&bytes, output)?;
+    staged?.commit(output)?;
     drop(work);
     Ok(CompileOutcome {
         warnings: stderr,
         fonts,
     })
+}
+
+/// Why a PDF typst wrote may not be used.
+enum Failed {
+    /// Not a complete PDF, in words.
+    Incomplete(Msg),
+    /// The required phrases its text lacks, and what they are.
+    Missing { what: Msg, missing: Vec<String> },
+}
+
+/// Checks a PDF typst wrote: complete, and showing the required text.
+fn check_document(bytes: &[u8], required: Option<&RequiredText>) -> Result<(), Failed> {
+    let document = incomplete(bytes).map_err(Failed::Incomplete)?;
+    if let Some(required) = required {
+        let missing = missing_phrases(&document, &required.phrases);
+        if !missing.is_empty() {
+            return Err(Failed::Missing {
+                what: required.what.clone(),
+                missing: missing.into_iter().map(str::to_owned).collect(),
+            });
+        }
+    }
+    Ok(())
 }
 
 /// Writes `bytes` to a locked temporary file beside `output`, flushes it to
@@ -297,14 +327,6 @@ pub fn compile(
 /// its photos); `output` must have passed [`check_output`] against the
 /// command's inputs.
 pub fn place(bytes: &[u8], output: &Path) -> Result<(), TypesetError> {
-    if crate::input_file::is_dash(output) {
-        stop_if_interrupted()?;
-        let mut stdout = std::io::stdout().lock();
-        return stdout
-            .write_all(bytes)
-            .and_then(|()| stdout.flush())
-            .map_err(|e| TypesetError::io("cli-typst-io-write-stdout", "", e));
-    }
     place_with(bytes, output, true)
 }
 
@@ -317,10 +339,31 @@ pub fn write_small_file(path: &Path, bytes: &[u8]) -> std::io::Result<()> {
 }
 
 fn place_with(bytes: &[u8], output: &Path, sync: bool) -> Result<(), TypesetError> {
+    stage(bytes, output, sync)?.commit(output)
+}
+
+/// A file written whole beside its destination (or, for `-`, held for
+/// standard output), waiting to be put in place by [`Staged::commit`];
+/// removed if dropped before that.
+struct Staged<'a> {
+    bytes: &'a [u8],
+    partial: Option<tempfile::NamedTempFile>,
+    sync: bool,
+}
+
+/// Writes `bytes` to a locked temporary file beside `output` (flushed to
+/// disk when `sync`), with the permissions of the file it will replace.
+/// For `-` nothing is written yet.
+fn stage<'a>(bytes: &'a [u8], output: &Path, sync: bool) -> Result<Staged<'a>, TypesetError> {
+    if crate::input_file::is_dash(output) {
+        return Ok(Staged {
+            bytes,
+            partial: None,
+            sync,
+        });
+    }
     let out_dir = parent_folder(output);
-    sweep(out_dir, |name| {
-        name.starts_with('.') && name.ends_with(PARTIAL_SUFFIX)
-    });
+    sweep_partials(out_dir);
     let stem = output
         .file_name()
         .map(|n| n.to_string_lossy().into_owned())
@@ -340,16 +383,51 @@ fn place_with(bytes: &[u8], output: &Path, sync: bool) -> Result<(), TypesetErro
     if let Ok(existing) = std::fs::metadata(output) {
         let _ = std::fs::set_permissions(partial.path(), existing.permissions());
     }
-    stop_if_interrupted()?;
-    // The output may have been replaced by a link or a FIFO meanwhile.
-    check_output(output, &[])?;
-    partial
-        .persist(output)
-        .map_err(|e| TypesetError::io("cli-typst-io-write", output, e.error))?;
-    if sync {
-        sync_folder(out_dir);
+    Ok(Staged {
+        bytes,
+        partial: Some(partial),
+        sync,
+    })
+}
+
+impl Staged<'_> {
+    /// Renames the staged file over `output` (and flushes the folder to
+    /// disk when `sync`), unless a stop signal came first or `output` has
+    /// become a link or a special file meanwhile; for `-`, writes the
+    /// bytes to standard output.
+    fn commit(self, output: &Path) -> Result<(), TypesetError> {
+        stop_if_interrupted()?;
+        let Some(partial) = self.partial else {
+            let mut stdout = std::io::stdout().lock();
+            return stdout
+                .write_all(self.bytes)
+                .and_then(|()| stdout.flush())
+                .map_err(|e| TypesetError::io("cli-typst-io-write-stdout", "", e));
+        };
+        // The output may have been replaced by a link or a FIFO meanwhile.
+        check_output(output, &[])?;
+        partial
+            .persist(output)
+            .map_err(|e| TypesetError::io("cli-typst-io-write", output, e.error))?;
+        if self.sync {
+            sync_folder(parent_folder(output));
+        }
+        Ok(())
     }
-    Ok(())
+}
+
+/// Removes the temporary files ([`PARTIAL_SUFFIX`]) that killed runs left
+/// in `dir`, leaving those a live run holds.
+pub(crate) fn sweep_partials(dir: &Path) {
+    sweep(dir, |name| {
+        name.starts_with('.') && name.ends_with(PARTIAL_SUFFIX)
+    });
+}
+
+/// A locked temporary file `.STEM.*.ampreport-part` in `dir`, private to
+/// the user, for writing a file that is then renamed into place.
+pub(crate) fn locked_partial(dir: &Path, stem: &str) -> std::io::Result<tempfile::NamedTempFile> {
+    locked_file(dir, &format!(".{stem}."), PARTIAL_SUFFIX, 0o600)
 }
 
 /// Flushes a folder's entries (the rename) to disk, where that is possible.

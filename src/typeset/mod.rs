@@ -27,6 +27,7 @@ pub use compile::{
     CompileOptions, CompileOutcome, DEFAULT_PDF_STANDARD, DEFAULT_TIMEOUT, FontPlace, FontsUsed,
     KEPT_PREFIX, PARTIAL_SUFFIX, RequiredText, WORK_PREFIX, compile, place, write_small_file,
 };
+pub(crate) use compile::{locked_partial, sweep_partials};
 pub use error::{INSTALL_HINT, TypesetError};
 pub use escape::{escape_markup, escape_string};
 pub use font_cache::{
