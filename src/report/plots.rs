@@ -691,13 +691,25 @@ fn bar_pattern(k: usize) -> (RGBColor, Overlay) {
     (FILLS[i % FILLS.len()], overlay)
 }
 
-/// Draws a bar's fill with its overlay.
+/// The fill of a stand-in that marks, while plotters draws, where a bar's
+/// dots go: a colour no chart uses. [`place_dots`] replaces each stand-in
+/// by its bar's dots.
+const DOTS_MARK: RGBColor = RGBColor(1, 2, 3);
+
+/// The SVG attribute plotters writes for [`DOTS_MARK`].
+const DOTS_MARK_FILL: &str = "fill=\"#010203\"";
+
+/// Draws a bar's fill with its overlay. A dotted bar's dots are one SVG
+/// path, pushed onto `dots` (plotters' SVG writer has no paths of many
+/// parts, and one `<rect>` per dot made the charts several times larger),
+/// with a stand-in drawn where it goes.
 fn fill_bar(
     area: &DrawingArea<SVGBackend<'_>, Shift>,
     a: (i32, i32),
     b: (i32, i32),
     k: usize,
     spacing: i32,
+    dots: &mut Vec<String>,
 ) -> Result<(), String> {
     let (fill, overlay) = bar_pattern(k);
     area.draw(&Rectangle::new([a, b], fill.filled()))
@@ -706,17 +718,10 @@ fn fill_bar(
         Overlay::Hatch => hatch(area, a, b, spacing)?,
         Overlay::Dots => {
             let dot = if fill.0 < 128 { PAPER } else { INK };
-            let (x0, x1) = (a.0.min(b.0), a.0.max(b.0));
-            let (y0, y1) = (a.1.min(b.1), a.1.max(b.1));
-            let mut y = y0 + 3;
-            while y < y1 - 1 {
-                let mut x = x0 + 3 + ((y - y0) / 5 % 2) * 2;
-                while x < x1 - 1 {
-                    area.draw(&Rectangle::new([(x, y), (x + 1, y + 1)], dot.filled()))
-                        .map_err(|e| e.to_string())?;
-                    x += 5;
-                }
-                y += 5;
+            if let Some(path) = dot_path(a, b, dot) {
+                dots.push(path);
+                area.draw(&Rectangle::new([a, a], DOTS_MARK.filled()))
+                    .map_err(|e| e.to_string())?;
             }
         }
         Overlay::Solid => {}
@@ -724,6 +729,50 @@ fn fill_bar(
     area.draw(&Rectangle::new([a, b], INK.stroke_width(1)))
         .map_err(|e| e.to_string())?;
     Ok(())
+}
+
+/// The dots over a bar from `a` to `b` as one SVG path of 1-pixel
+/// squares, every 5 pixels, each row shifted by 2 from the one before
+/// (none when the bar is too small to hold one).
+fn dot_path(a: (i32, i32), b: (i32, i32), colour: RGBColor) -> Option<String> {
+    use std::fmt::Write as _;
+    let (x0, x1) = (a.0.min(b.0), a.0.max(b.0));
+    let (y0, y1) = (a.1.min(b.1), a.1.max(b.1));
+    let mut d = String::new();
+    let mut y = y0 + 3;
+    while y < y1 - 1 {
+        let mut x = x0 + 3 + ((y - y0) / 5 % 2) * 2;
+        while x < x1 - 1 {
+            let _ = write!(d, "M{x} {y}h1v1h-1z");
+            x += 5;
+        }
+        y += 5;
+    }
+    if d.is_empty() {
+        return None;
+    }
+    let RGBColor(r, g, b) = colour;
+    Some(format!(
+        "<path d=\"{d}\" opacity=\"1\" fill=\"#{r:02X}{g:02X}{b:02X}\" stroke=\"none\"/>\n"
+    ))
+}
+
+/// Puts each bar's dots (in the order they were drawn) where plotters wrote
+/// its stand-in ([`DOTS_MARK`]): each stand-in is one line of the SVG.
+fn place_dots(svg: &mut String, dots: Vec<String>) {
+    if dots.is_empty() {
+        return;
+    }
+    let mut out = String::with_capacity(svg.len() + dots.iter().map(String::len).sum::<usize>());
+    let mut dots = dots.into_iter();
+    for line in svg.split_inclusive('\n') {
+        if line.starts_with("<rect ") && line.contains(DOTS_MARK_FILL) {
+            out.push_str(&dots.next().unwrap_or_default());
+        } else {
+            out.push_str(line);
+        }
+    }
+    *svg = out;
 }
 
 /// Legend entries laid out left to right from `left`, wrapping before
@@ -808,8 +857,9 @@ fn legend_swatch_bar(
     x: i32,
     y: i32,
     k: usize,
+    dots: &mut Vec<String>,
 ) -> Result<(), String> {
-    fill_bar(area, (x, y - 7), (x + 22, y + 7), k, 6)
+    fill_bar(area, (x, y - 7), (x + 22, y + 7), k, 6, dots)
 }
 
 /// The axes every chart shares: no x labels or upright grid (each chart
@@ -858,6 +908,19 @@ pub(crate) fn to_svg<T>(
 }
 
 fn draw_dissipation(chart: &DissipationChart, svg: &mut String) -> Result<(), String> {
+    let mut dots = Vec::new();
+    draw_dissipation_bars(chart, svg, &mut dots)?;
+    place_dots(svg, dots);
+    Ok(())
+}
+
+/// The plate-dissipation chart as plotters draws it, dotted bars with a
+/// stand-in for their dots (pushed onto `dots`).
+fn draw_dissipation_bars(
+    chart: &DissipationChart,
+    svg: &mut String,
+    dots: &mut Vec<String>,
+) -> Result<(), String> {
     let root = SVGBackend::with_string(svg, SIZE).into_drawing_area();
     root.fill(&PAPER).map_err(|e| e.to_string())?;
     let n = chart.valves.len().max(1);
@@ -958,7 +1021,7 @@ fn draw_dissipation(chart: &DissipationChart, svg: &mut String) -> Result<(), St
             let x1 = slot + bar * 0.95;
             let a = ctx.backend_coord(&(x0, v));
             let b = ctx.backend_coord(&(x1, 0.0));
-            fill_bar(&root, a, b, k, 7)?;
+            fill_bar(&root, a, b, k, 7, dots)?;
             let pixels = PixelBox::new(
                 (f64::from(a.0), f64::from(a.1)),
                 (f64::from(b.0), f64::from(b.1)),
@@ -1047,7 +1110,7 @@ fn draw_dissipation(chart: &DissipationChart, svg: &mut String) -> Result<(), St
 
     // Legend along the top, wrapped.
     for (k, ((x, y), text)) in legend.iter().zip(&legend_labels).enumerate() {
-        legend_swatch_bar(&root, *x, *y, k)?;
+        legend_swatch_bar(&root, *x, *y, k, dots)?;
         root.draw(&Text::new(
             text.clone(),
             (x + 30, *y),
@@ -1590,6 +1653,46 @@ mod tests {
         // Three bars plus one legend swatch per set: as found white (hatched), as left dark.
         assert_eq!(rects_filled(&svg, &hex(DARK)), 1 + 1);
         assert!(t.iter().any(|x| x == "Plate dissipation, % of rating"));
+    }
+
+    #[test]
+    fn dotted_bars_are_one_path_each_with_every_dot() {
+        // Eight sets: the seventh and eighth are dotted (greys run out).
+        let mut chart = two_sets();
+        chart.series = (0..8)
+            .map(|k| Series {
+                label: format!("set {k}"),
+                values: vec![Some(80.0 + k as f64), Some(60.0)],
+            })
+            .collect();
+        let svg = dissipation_svg(&chart).unwrap();
+        assert!(!svg.contains(DOTS_MARK_FILL), "a stand-in was left");
+        // Two dotted sets: two bars and a legend swatch each.
+        let paths: Vec<&str> = svg.lines().filter(|l| l.starts_with("<path ")).collect();
+        assert_eq!(paths.len(), 6, "{paths:?}");
+        // Each path holds the 1-pixel squares the dots always were: every
+        // 5 pixels from 3 inside the bar, alternate rows shifted by 2.
+        let element = dot_path((10, 40), (24, 10), PAPER).unwrap();
+        assert!(element.ends_with("fill=\"#FFFFFF\" stroke=\"none\"/>\n"));
+        let d = element.split('"').nth(1).unwrap();
+        let squares: Vec<(i32, i32)> = d
+            .split('M')
+            .skip(1)
+            .map(|sq| {
+                let xy = sq.strip_suffix("h1v1h-1z").unwrap();
+                let (x, y) = xy.split_once(' ').unwrap();
+                (x.parse().unwrap(), y.parse().unwrap())
+            })
+            .collect();
+        let mut want = Vec::new();
+        for y in (13..39).step_by(5) {
+            let first = 13 + ((y - 10) / 5 % 2) * 2;
+            for x in (first..23).step_by(5) {
+                want.push((x, y));
+            }
+        }
+        assert_eq!(squares, want);
+        assert_eq!(dot_path((0, 0), (3, 3), INK), None, "too small for a dot");
     }
 
     #[test]

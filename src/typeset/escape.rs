@@ -34,6 +34,13 @@
 /// See the module documentation for the rules.
 pub fn escape_markup(text: &str) -> String {
     let mut out = String::with_capacity(text.len() + text.len() / 4);
+    escape_markup_into(text, &mut out);
+    out
+}
+
+/// [`escape_markup`], appending to `out` (the template's formatter writes
+/// every printed value this way, without a string of its own for each).
+pub fn escape_markup_into(text: &str, out: &mut String) {
     let mut chars = text.chars().peekable();
     // Breaks since the last printed character: the first is a plain line
     // break, each further one an empty line.
@@ -47,7 +54,7 @@ pub fn escape_markup(text: &str) -> String {
     let mark = super::fonts::placeholder();
     while let Some(c) = chars.next() {
         if c == '\r' || is_line_end(c) {
-            end_run(&mut out, &mut run, &mut chunk_ends);
+            end_run(out, &mut run, &mut chunk_ends);
             // A lone CR or a CRLF pair is one line break.
             if c == '\r' && chars.peek() == Some(&'\n') {
                 chars.next();
@@ -61,7 +68,7 @@ pub fn escape_markup(text: &str) -> String {
         }
         breaks = 0;
         if c.is_whitespace() {
-            end_run(&mut out, &mut run, &mut chunk_ends);
+            end_run(out, &mut run, &mut chunk_ends);
         }
         let before = out.len();
         match c {
@@ -81,8 +88,7 @@ pub fn escape_markup(text: &str) -> String {
             }
         }
     }
-    end_run(&mut out, &mut run, &mut chunk_ends);
-    out
+    end_run(out, &mut run, &mut chunk_ends);
 }
 
 /// Ends the run of characters that `out` ends with: a run of at least
@@ -170,6 +176,10 @@ mod tests {
             escape_markup(&dots),
             format!("{escaped16}\u{200B}{escaped16}")
         );
+        // Appended to text already written, the breaks fall in the run.
+        let mut out = String::from("prefix ");
+        escape_markup_into(&"b".repeat(40), &mut out);
+        assert_eq!(out, format!("prefix {b16}\u{200B}{b16}\u{200B}bbbbbbbb"));
         // White space and line breaks start a new run.
         assert_eq!(
             escape_markup(&format!("{word} {word}")),

@@ -109,8 +109,24 @@ pub const MONO_FAMILIES: &[&str] = &[
 // table to the fonts themselves).
 include!(concat!(env!("OUT_DIR"), "/font_coverage.rs"));
 
+/// Which of the 128 ASCII characters [`covered`] finds, one bit each:
+/// looked up once, since nearly every printed character is ASCII.
+static ASCII_COVERED: std::sync::LazyLock<u128> = std::sync::LazyLock::new(|| {
+    (0..128u32)
+        .filter(|&c| covered_in_table(c))
+        .fold(0, |bits, c| bits | 1 << c)
+});
+
 /// True when a bundled font has a glyph for the character `c`.
 fn covered(c: u32) -> bool {
+    if c < 128 {
+        return *ASCII_COVERED & 1 << c != 0;
+    }
+    covered_in_table(c)
+}
+
+/// [`covered`], searched in the table.
+fn covered_in_table(c: u32) -> bool {
     let i = FONT_COVERAGE.partition_point(|&(_, last)| last < c);
     FONT_COVERAGE.get(i).is_some_and(|&(first, _)| first <= c)
 }
@@ -137,10 +153,13 @@ fn is_variant_mark(c: char) -> bool {
 /// What is printed in place of a character no bundled font has: the
 /// replacement character where the fonts have it, else a question mark.
 pub fn placeholder() -> char {
-    ['\u{FFFD}', '\u{25A1}', '?']
-        .into_iter()
-        .find(|&c| can_draw(c))
-        .unwrap_or('?')
+    static MARK: std::sync::LazyLock<char> = std::sync::LazyLock::new(|| {
+        ['\u{FFFD}', '\u{25A1}', '?']
+            .into_iter()
+            .find(|&c| can_draw(c))
+            .unwrap_or('?')
+    });
+    *MARK
 }
 
 /// `text` with every character the fonts lack replaced by

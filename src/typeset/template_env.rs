@@ -1,6 +1,6 @@
 //! The minijinja set-up for Typst templates, built so that a template cannot
 //! print user text unescaped: every `{{ value }}` passes through
-//! [`escape_markup`] on its way out. The only way around it is a value the
+//! [`escape_markup`](super::escape::escape_markup) on its way out. The only way around it is a value the
 //! program itself wraps with [`typst_markup`], for Typst snippets it
 //! generated; a template has no means to make one, so filters such as
 //! minijinja's `safe` cannot switch escaping off.
@@ -15,7 +15,7 @@ use std::sync::Arc;
 use minijinja::value::{Object, Value};
 use minijinja::{Environment, Error, ErrorKind, UndefinedBehavior};
 
-use super::escape::{escape_markup, escape_string};
+use super::escape::{escape_markup_into, escape_string};
 use super::inside::{InsideError, read_inside};
 use crate::catalogue::{Msg, MsgError};
 
@@ -56,9 +56,22 @@ impl Object for TypstMarkup {
 
 /// Wraps program-generated Typst source so the template prints it without
 /// escaping. Never pass user text here: escape it first with
-/// [`escape_markup`].
+/// [`escape_markup`](super::escape::escape_markup).
 pub fn typst_markup(source: impl Into<String>) -> Value {
     Value::from_object(TypstMarkup(source.into()))
+}
+
+/// Writes `text` escaped for Typst markup, through one buffer kept per
+/// thread rather than a new string for every printed value.
+fn write_escaped(out: &mut minijinja::Output<'_>, text: &str) -> fmt::Result {
+    thread_local! {
+        static ESCAPED: std::cell::RefCell<String> = const { std::cell::RefCell::new(String::new()) };
+    }
+    ESCAPED.with_borrow_mut(|buf| {
+        buf.clear();
+        escape_markup_into(text, buf);
+        out.write_str(buf)
+    })
 }
 
 /// A minijinja environment for Typst templates.
@@ -107,8 +120,10 @@ pub fn template_environment(templates: TemplateSource) -> Environment<'static> {
             && let Some(text) = value.as_str()
         {
             out.write_str(text)?;
+        } else if let Some(text) = value.as_str() {
+            write_escaped(out, text)?;
         } else if !(value.is_none() || value.is_undefined()) {
-            out.write_str(&escape_markup(&value.to_string()))?;
+            write_escaped(out, &value.to_string())?;
         }
         Ok(())
     });

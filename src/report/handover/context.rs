@@ -795,22 +795,23 @@ const UNIT_WORDS: &[&str] = &[
 /// Puts a no-break space between a number and its unit in a sentence the
 /// program wrote ("349 V"), so a line never breaks between them.
 pub fn glue_units(text: &str) -> String {
-    let chars: Vec<char> = text.chars().collect();
     let mut out = String::with_capacity(text.len() + 8);
-    for (i, &c) in chars.iter().enumerate() {
-        if c == ' ' && i > 0 && chars[i - 1].is_ascii_digit() {
-            let rest: String = chars[i + 1..]
-                .iter()
-                .take_while(|c| !c.is_whitespace())
-                .collect();
-            let word = rest.trim_end_matches(['.', ',', ';', ':', ')', '(']);
-            if UNIT_WORDS.contains(&word) {
-                out.push('\u{a0}');
-                continue;
-            }
+    let mut copied = 0;
+    for (i, _) in text.match_indices(' ') {
+        // A byte before a space that is an ASCII digit is a whole
+        // character: every byte of a longer UTF-8 character is ≥ 0x80.
+        if i == 0 || !text.as_bytes()[i - 1].is_ascii_digit() {
+            continue;
         }
-        out.push(c);
+        let rest = &text[i + 1..];
+        let word = &rest[..rest.find(char::is_whitespace).unwrap_or(rest.len())];
+        if UNIT_WORDS.contains(&word.trim_end_matches(['.', ',', ';', ':', ')', '('])) {
+            out.push_str(&text[copied..i]);
+            out.push('\u{a0}');
+            copied = i + 1;
+        }
     }
+    out.push_str(&text[copied..]);
     out
 }
 
@@ -1268,16 +1269,21 @@ fn why(v: &crate::calc::Verdict) -> String {
 /// Turns a hyphen that stands for a minus sign (before a digit, at the
 /// start or after a space or bracket) into U+2212.
 fn typographic_minus(s: &str) -> String {
-    let chars: Vec<char> = s.chars().collect();
-    let mut out = String::with_capacity(s.len());
-    for (i, &c) in chars.iter().enumerate() {
-        let before_ok = i == 0 || matches!(chars[i - 1], ' ' | '\u{a0}' | '(');
-        let digit_after = chars.get(i + 1).is_some_and(char::is_ascii_digit);
+    if !s.contains('-') {
+        return s.to_owned();
+    }
+    let mut out = String::with_capacity(s.len() + 4);
+    let mut before = None;
+    let mut chars = s.chars().peekable();
+    while let Some(c) = chars.next() {
+        let before_ok = before.is_none_or(|b| matches!(b, ' ' | '\u{a0}' | '('));
+        let digit_after = chars.peek().is_some_and(char::is_ascii_digit);
         if c == '-' && before_ok && digit_after {
             out.push('\u{2212}');
         } else {
             out.push(c);
         }
+        before = Some(c);
     }
     out
 }
@@ -1782,6 +1788,73 @@ fn method(
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    // The first versions of `glue_units` and `typographic_minus`, which
+    // copied the text into a vector of characters; the present ones must
+    // give the same text.
+    fn glue_units_by_chars(text: &str) -> String {
+        let chars: Vec<char> = text.chars().collect();
+        let mut out = String::with_capacity(text.len() + 8);
+        for (i, &c) in chars.iter().enumerate() {
+            if c == ' ' && i > 0 && chars[i - 1].is_ascii_digit() {
+                let rest: String = chars[i + 1..]
+                    .iter()
+                    .take_while(|c| !c.is_whitespace())
+                    .collect();
+                let word = rest.trim_end_matches(['.', ',', ';', ':', ')', '(']);
+                if UNIT_WORDS.contains(&word) {
+                    out.push('\u{a0}');
+                    continue;
+                }
+            }
+            out.push(c);
+        }
+        out
+    }
+
+    fn typographic_minus_by_chars(s: &str) -> String {
+        let chars: Vec<char> = s.chars().collect();
+        let mut out = String::with_capacity(s.len());
+        for (i, &c) in chars.iter().enumerate() {
+            let before_ok = i == 0 || matches!(chars[i - 1], ' ' | '\u{a0}' | '(');
+            let digit_after = chars.get(i + 1).is_some_and(char::is_ascii_digit);
+            if c == '-' && before_ok && digit_after {
+                out.push('\u{2212}');
+            } else {
+                out.push(c);
+            }
+        }
+        out
+    }
+
+    #[test]
+    fn unit_gluing_and_minus_signs_are_the_character_by_character_ones() {
+        let pieces = [
+            "1", "23", " ", "V", "mV", "kΩ", "µF", "%", "-", "−", "(", ")", ".", ",", "at", "Ω",
+            "\u{a0}", "\n", "ü", "x-1", " -2", "\t", "Hz;", "W.", "mA)",
+        ];
+        let mut x: u64 = 0x9e37_79b9_7f4a_7c15;
+        for _ in 0..20_000 {
+            let mut text = String::new();
+            for _ in 0..(x % 12) {
+                x ^= x << 13;
+                x ^= x >> 7;
+                x ^= x << 17;
+                text.push_str(pieces[(x % pieces.len() as u64) as usize]);
+            }
+            x ^= x << 13;
+            x ^= x >> 7;
+            x ^= x << 17;
+            assert_eq!(glue_units(&text), glue_units_by_chars(&text), "{text:?}");
+            assert_eq!(
+                typographic_minus(&text),
+                typographic_minus_by_chars(&text),
+                "{text:?}"
+            );
+        }
+        assert_eq!(glue_units("349 V at 12 mA."), "349\u{a0}V at 12\u{a0}mA.");
+        assert_eq!(typographic_minus("(-3 V) x-1 -a"), "(\u{2212}3 V) x-1 -a");
+    }
 
     #[test]
     fn numbers_read_like_a_page() {

@@ -464,14 +464,15 @@ pub fn catalogue_functions(catalogue: &Catalogue) -> (Value, Value) {
     // A message without arguments says the same every time: a long job's
     // tables ask for each column heading once per set, so each is worked
     // out once and kept.
-    let said: std::sync::Mutex<std::collections::HashMap<String, String>> = Default::default();
+    // (kept as template values, which share their text when copied).
+    let said: std::sync::Mutex<std::collections::HashMap<String, Value>> = Default::default();
     let t = Value::from_function(
-        move |key: &str, kwargs: minijinja::value::Kwargs| -> Result<String, minijinja::Error> {
+        move |key: &str, kwargs: minijinja::value::Kwargs| -> Result<Value, minijinja::Error> {
             let plain_key = kwargs.args().next().is_none();
             if plain_key && let Some(words) = said.lock().ok().and_then(|m| m.get(key).cloned()) {
                 return Ok(words);
             }
-            let words = lookup(&plain, key, &kwargs, false).map(|(words, _)| words)?;
+            let words = Value::from(lookup(&plain, key, &kwargs, false).map(|(words, _)| words)?);
             if plain_key && let Ok(mut m) = said.lock() {
                 m.insert(key.to_string(), words.clone());
             }
