@@ -758,10 +758,10 @@ fn characters_the_fonts_lack_become_a_placeholder_with_a_warning() {
     }
     let placeholder = ampreport::typeset::placeholder();
     assert!(main.contains(&format!("Low emission {placeholder} {placeholder}")));
-    // The long word can break: a zero-width space after each character
-    // past the 40th, and no run of more than 41 characters without one.
-    assert!(!main.contains(&"x".repeat(42)));
-    assert!(main.contains(&"x\u{200b}".repeat(100)));
+    // The long word can break: a zero-width space after every 16
+    // characters, and no run of more than 16 characters without one.
+    assert!(!main.contains(&"x".repeat(17)));
+    assert!(main.contains(&format!("{}\u{200b}", "x".repeat(16)).repeat(100)));
 }
 
 /// A grid of broken nestings (node forms × arguments × block openers ×

@@ -45,13 +45,16 @@ pub fn escape_markup_into(text: &str, out: &mut String) {
     // Breaks since the last printed character: the first is a plain line
     // break, each further one an empty line.
     let mut breaks = 0usize;
-    // Characters since the last white space: past LONG_WORD, each one is
-    // followed by a zero-width space, so typst may break a very long word
-    // anywhere rather than run it off the page.
-    let mut word = 0usize;
+    // The run of printed characters since the last white space or break:
+    // where each LONG_CHUNK-th of them ends in `out`. A run of LONG_RUN or
+    // more gets a zero-width space at each of those places when it ends,
+    // so typst may break a very long word rather than run it off the page.
+    let mut run = 0usize;
+    let mut chunk_ends: Vec<usize> = Vec::new();
     let mark = super::fonts::placeholder();
     while let Some(c) = chars.next() {
         if c == '\r' || is_line_end(c) {
+            end_run(out, &mut run, &mut chunk_ends);
             // A lone CR or a CRLF pair is one line break.
             if c == '\r' && chars.peek() == Some(&'\n') {
                 chars.next();
@@ -65,10 +68,9 @@ pub fn escape_markup_into(text: &str, out: &mut String) {
         }
         breaks = 0;
         if c.is_whitespace() {
-            word = 0;
-        } else {
-            word += 1;
+            end_run(out, &mut run, &mut chunk_ends);
         }
+        let before = out.len();
         match c {
             '\t' => out.push(' '),
             c if c.is_ascii_punctuation() => {
@@ -79,15 +81,42 @@ pub fn escape_markup_into(text: &str, out: &mut String) {
             c if !super::fonts::can_draw(c) => out.push(mark),
             c => out.push(c),
         }
-        if word > LONG_WORD {
-            out.push('\u{200B}');
+        if !c.is_whitespace() && out.len() > before {
+            run += 1;
+            if run % LONG_CHUNK == 0 {
+                chunk_ends.push(out.len());
+            }
         }
     }
+    end_run(out, &mut run, &mut chunk_ends);
 }
 
-/// Characters in a row, without white space, after which a word may be
-/// broken anywhere: longer than any real word or part number.
-pub const LONG_WORD: usize = 40;
+/// Ends the run of characters that `out` ends with: a run of at least
+/// [`LONG_RUN`] characters gets a zero-width space after each
+/// [`LONG_CHUNK`] of them (none at its very end).
+fn end_run(out: &mut String, run: &mut usize, chunk_ends: &mut Vec<usize>) {
+    if *run >= LONG_RUN {
+        for &at in chunk_ends.iter().rev() {
+            if at < out.len() {
+                out.insert(at, '\u{200B}');
+            }
+        }
+    }
+    *run = 0;
+    chunk_ends.clear();
+}
+
+/// Characters in a row, without white space, from which a run is broken:
+/// longer than any real word or part number.
+pub const LONG_RUN: usize = 32;
+
+/// A long run may break after every this many characters, so that even its
+/// pieces fit a narrow table column. The hand-over template gives the
+/// strings it prints (a status cell's reason) the same break opportunities
+/// (`long-runs` in `templates/handover.typ`); a regex rule over the whole
+/// document did this for all text before, at a twentieth of typst's time
+/// on a long job.
+pub const LONG_CHUNK: usize = 16;
 
 /// Makes `text` safe inside a Typst string literal: the result goes between
 /// two `"` characters.
@@ -124,6 +153,43 @@ fn is_line_end(c: char) -> bool {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn a_long_run_may_break_after_every_chunk() {
+        let word = "a".repeat(LONG_RUN - 1);
+        assert_eq!(escape_markup(&word), word);
+        let b16 = "b".repeat(LONG_CHUNK);
+        // 40 characters: breaks after the 16th and the 32nd.
+        assert_eq!(
+            escape_markup(&"b".repeat(40)),
+            format!("{b16}\u{200B}{b16}\u{200B}bbbbbbbb")
+        );
+        // Exactly two chunks: no break at the very end.
+        assert_eq!(
+            escape_markup(&"b".repeat(2 * LONG_CHUNK)),
+            format!("{b16}\u{200B}{b16}")
+        );
+        // Punctuation counts as one character, escaped whole.
+        let dots = ".".repeat(LONG_RUN);
+        let escaped16 = "\\.".repeat(LONG_CHUNK);
+        assert_eq!(
+            escape_markup(&dots),
+            format!("{escaped16}\u{200B}{escaped16}")
+        );
+        // Appended to text already written, the breaks fall in the run.
+        let mut out = String::from("prefix ");
+        escape_markup_into(&"b".repeat(40), &mut out);
+        assert_eq!(out, format!("prefix {b16}\u{200B}{b16}\u{200B}bbbbbbbb"));
+        // White space and line breaks start a new run.
+        assert_eq!(
+            escape_markup(&format!("{word} {word}")),
+            format!("{word} {word}")
+        );
+        assert_eq!(
+            escape_markup(&format!("{word}\n{word}")),
+            format!("{word}\\ {word}")
+        );
+    }
 
     #[test]
     fn plain_words_pass_through() {
