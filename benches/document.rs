@@ -15,6 +15,9 @@
 //!
 //! `cargo bench --bench document`.
 
+mod common;
+use common::median;
+
 use std::hint::black_box;
 use std::process::Command;
 use std::time::Duration;
@@ -110,16 +113,6 @@ fn stages(text: &str, ratings: &RatingsTable) -> [Duration; 5] {
         )
     });
     [t_decode, t_derive, t_charts, t_build, t_fill]
-}
-
-fn median(mut xs: Vec<f64>) -> f64 {
-    xs.sort_by(f64::total_cmp);
-    let n = xs.len();
-    if n % 2 == 1 {
-        xs[n / 2]
-    } else {
-        (xs[n / 2 - 1] + xs[n / 2]) / 2.0
-    }
 }
 
 fn summary(jobs: &[(usize, String)], ratings: &RatingsTable) {

@@ -14,6 +14,9 @@
 //! `cargo bench --bench render`; `AMPREPORT_BENCH_PAIRS=N` sets the number
 //! of pairs in the summary (default 15). Needs typst on PATH.
 
+mod common;
+use common::median;
+
 use std::path::{Path, PathBuf};
 use std::process::{Command, Stdio};
 use std::time::{Duration, Instant};
@@ -161,16 +164,6 @@ fn run(mut cmd: Command) -> (Duration, i64) {
     }
     drop(child);
     (elapsed, usage.ru_maxrss)
-}
-
-fn median(mut xs: Vec<f64>) -> f64 {
-    xs.sort_by(f64::total_cmp);
-    let n = xs.len();
-    if n % 2 == 1 {
-        xs[n / 2]
-    } else {
-        (xs[n / 2 - 1] + xs[n / 2]) / 2.0
-    }
 }
 
 /// The closing summary: paired runs, ratio of medians, peak memory.

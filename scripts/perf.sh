@@ -328,7 +328,6 @@ watch)
     : >"$work/a"
     : >"$work/b"
     for i in $(seq "$saves"); do
-        before=$(stat -c %Y.%N "$pdf" 2>/dev/null || true)
         before=$(sha256sum "$pdf" | cut -c1-16)
         t0=$(now_ns)
         sed -i "s/^job id=\"\([^\"]*\)\"/job id=\"W-$i\"/" "$job"
