@@ -12,7 +12,7 @@ use std::path::PathBuf;
 use std::process::{Command, Output, Stdio};
 use std::time::{Duration, Instant};
 
-use support::{NOTICE_PHRASES, Scene, pdf_with_text, stderr};
+use support::{NOTICE_PHRASES, Scene, git, pdf_with_text, stderr};
 
 /// A scene whose stand-in typst appends a line to `compiles` on every
 /// compile and writes a small PDF with the notice.
@@ -286,29 +286,6 @@ fn the_skip_reads_the_named_files_where_the_job_and_its_profile_find_them() {
     png(99);
     assert!(c.typeset(&[]), "a photo changed behind a list without it");
     assert!(!c.typeset(&[]));
-}
-
-/// Runs git in `dir` with a fixed author and no signing; false when git
-/// cannot be run here.
-fn git(dir: &std::path::Path, args: &[&str]) -> bool {
-    Command::new("git")
-        .current_dir(dir)
-        .args([
-            "-c",
-            "user.name=Bench",
-            "-c",
-            "user.email=bench@example.invalid",
-            "-c",
-            "commit.gpgsign=false",
-            "-c",
-            "init.defaultBranch=main",
-        ])
-        .args(args)
-        .env_remove("GIT_DIR")
-        .env_remove("GIT_WORK_TREE")
-        .env_remove("GIT_INDEX_FILE")
-        .output()
-        .is_ok_and(|o| o.status.success())
 }
 
 #[test]
