@@ -8,7 +8,7 @@
 //! changed); 1 when a side is an invalid job or cannot be read from git;
 //! 2 when a set named with `--sets` is not in the job.
 
-use std::path::{Path, PathBuf};
+use std::path::Path;
 
 use super::args::CompareArgs;
 use super::exit::Exit;
