@@ -890,3 +890,62 @@ fn watch_takes_no_read_of_its_own_for_a_save_and_renders_listings() {
     let status = support::wait_with_limit(&mut child, limit);
     assert_eq!(status.code(), Some(0));
 }
+
+#[cfg(target_os = "linux")]
+#[test]
+fn watch_asks_git_again_after_a_commit_made_while_it_watches() {
+    // The content key holds the commit HEAD stands at. A job edited, then
+    // committed while watch runs, then saved again with the same bytes
+    // must render again: its footer no longer says the bytes are
+    // uncommitted.
+    let c = Counting::new();
+    let dir = &c.scene.dir;
+    if !git(dir, &["init", "-q"]) {
+        assert!(std::env::var_os("CI").is_none(), "git is needed under CI");
+        eprintln!("note: skipping: git cannot be run");
+        return;
+    }
+    assert!(git(dir, &["add", "job.kdl"]) && git(dir, &["commit", "-qm", "first"]));
+    let log = c.scene.root.path().join("watch.out");
+    let mut child = c
+        .command(&[
+            "watch",
+            c.scene.job.to_str().unwrap(),
+            "--typst",
+            c.typst.to_str().unwrap(),
+        ])
+        .stdin(Stdio::null())
+        .stdout(std::fs::File::create(&log).unwrap())
+        .stderr(Stdio::null())
+        .spawn()
+        .unwrap();
+    let pid = child.id() as i32;
+    let limit = Duration::from_secs(30);
+    let said = || std::fs::read_to_string(&log).unwrap_or_default();
+    let count = |what: &str| said().lines().filter(|l| l.contains(what)).count();
+    assert!(wait_until(limit, || count(" rendered ") == 1), "{}", said());
+    std::thread::sleep(Duration::from_millis(300));
+    let edited = format!(
+        "{}// second visit\n",
+        std::fs::read_to_string(&c.scene.job).unwrap()
+    );
+    std::fs::write(&c.scene.job, &edited).unwrap();
+    assert!(wait_until(limit, || count(" rendered ") == 2), "{}", said());
+    assert!(git(dir, &["commit", "-qam", "second"]));
+    // The same bytes saved again (a later modification time): rendered,
+    // not skipped as unchanged.
+    std::thread::sleep(Duration::from_millis(1100));
+    std::fs::write(&c.scene.job, &edited).unwrap();
+    assert!(
+        wait_until(limit, || count(" rendered ") == 3
+            || count(" unchanged ") > 0),
+        "{}",
+        said()
+    );
+    assert_eq!(count(" unchanged "), 0, "{}", said());
+    assert_eq!(c.compiles(), 3);
+    // SAFETY: signals the child started above.
+    unsafe { libc::kill(pid, libc::SIGINT) };
+    let status = support::wait_with_limit(&mut child, limit);
+    assert_eq!(status.code(), Some(0));
+}
