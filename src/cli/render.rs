@@ -230,6 +230,14 @@ impl<'a> Setup<'a> {
 }
 
 impl Setup<'_> {
+    /// Forgets the commits asked so far: `watch` asks again after each
+    /// save, as a commit made while it watches moves `HEAD`.
+    pub fn forget_heads(&self) {
+        if let Ok(mut heads) = self.heads.lock() {
+            heads.clear();
+        }
+    }
+
     /// The commit `HEAD` of the git repository holding the job at
     /// `job_path`, if any; asked once per folder in a run.
     fn repository_head(&self, job_path: &Path) -> Option<String> {

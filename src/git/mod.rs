@@ -356,6 +356,26 @@ pub fn head(folder: &Path) -> Option<String> {
     (id.len() >= SHORT_ID_DIGITS && id.chars().all(|c| c.is_ascii_hexdigit())).then_some(id)
 }
 
+/// Where the file `PATH` of a `REV:PATH` read from the current folder lies
+/// in the working folder, by git's rules: from the top of the repository,
+/// unless it starts with `./` or `../` (then from the current folder). The
+/// path as given when git cannot say where the top is.
+pub fn working_path_of_spec(path: &str) -> PathBuf {
+    let given = Path::new(path);
+    if given.is_absolute() || path.starts_with("./") || path.starts_with("../") {
+        return given.to_path_buf();
+    }
+    match run(Path::new("."), &["rev-parse", "--show-toplevel"], 4096) {
+        Ran::Ok(out) => match String::from_utf8(out) {
+            Ok(top) if !top.trim_end_matches('\n').is_empty() => {
+                PathBuf::from(top.trim_end_matches('\n')).join(given)
+            }
+            _ => given.to_path_buf(),
+        },
+        _ => given.to_path_buf(),
+    }
+}
+
 /// Whether `arg` names a file at a git revision (`REV:PATH`) rather than a
 /// file: it holds a colon and no file of that name exists.
 pub fn is_revision_spec(arg: &Path) -> bool {
