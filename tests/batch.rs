@@ -289,6 +289,46 @@ fn the_skip_reads_the_named_files_where_the_job_and_its_profile_find_them() {
 }
 
 #[test]
+fn a_job_moved_with_its_pdf_within_a_repository_typesets_again() {
+    // The footer's commit is git's answer for the job's path: moved to
+    // another folder (with its PDF and the record beside it), the job is
+    // not the file git knew, so the same bytes are typeset again.
+    let c = Counting::new();
+    let top = c.scene.root.path();
+    if !git(top, &["init", "-q"]) {
+        assert!(std::env::var_os("CI").is_none(), "git is needed under CI");
+        eprintln!("note: skipping: git cannot be run");
+        return;
+    }
+    assert!(git(top, &["add", "work/job.kdl"]) && git(top, &["commit", "-qm", "first"]));
+    assert!(c.typeset(&[]));
+    assert!(!c.typeset(&[]));
+    let moved = top.join("moved");
+    std::fs::rename(&c.scene.dir, &moved).unwrap();
+    let typeset = |job: &str| {
+        let before = c.compiles();
+        let out = c
+            .command(&["render", job, "--typst", c.typst.to_str().unwrap()])
+            .current_dir(top)
+            .output()
+            .unwrap();
+        assert!(out.status.success(), "{}", stderr(&out));
+        c.compiles() > before
+    };
+    assert!(typeset("moved/job.kdl"), "moved to another folder");
+    assert!(!typeset("moved/job.kdl"));
+    std::fs::rename(moved.join("job.kdl"), moved.join("renamed.kdl")).unwrap();
+    std::fs::rename(moved.join("job.pdf"), moved.join("renamed.pdf")).unwrap();
+    std::fs::rename(
+        moved.join(".job.pdf.ampreport-key"),
+        moved.join(".renamed.pdf.ampreport-key"),
+    )
+    .unwrap();
+    assert!(typeset("moved/renamed.kdl"), "renamed in its folder");
+    assert!(!typeset("moved/renamed.kdl"));
+}
+
+#[test]
 fn a_commit_of_the_job_typesets_again() {
     // The footer names the commit that last changed the job and marks
     // bytes that differ from it: committing the very bytes already
