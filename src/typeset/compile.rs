@@ -325,9 +325,9 @@ enum Failed {
 
 /// Checks a PDF typst wrote: complete, and showing the required text.
 fn check_document(bytes: &[u8], required: Option<&RequiredText>) -> Result<(), Failed> {
-    let document = incomplete(bytes).map_err(Failed::Incomplete)?;
+    let mut document = incomplete(bytes).map_err(Failed::Incomplete)?;
     if let Some(required) = required {
-        let missing = missing_phrases(&document, &required.phrases);
+        let missing = missing_phrases(&mut document, &required.phrases);
         if !missing.is_empty() {
             return Err(Failed::Missing {
                 what: required.what.clone(),

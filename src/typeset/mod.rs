@@ -20,6 +20,7 @@ mod leftovers;
 mod locate;
 mod output;
 mod pdf_check;
+mod rows;
 mod sandbox;
 mod template_env;
 mod version;
@@ -46,6 +47,7 @@ pub use locate::{
     start_locate_in, start_locate_keeping,
 };
 pub use output::{Input, InputIndex, OutputRefused, check_emit_folder, check_output};
+pub use rows::{RowList, Rows};
 pub use sandbox::{EMIT_PREFIX, Sandbox, emit_source, emit_source_replacing};
 pub use template_env::{
     TemplateSource, TypstMarkup, refusal, template_environment, template_error_msg, typst_markup,
