@@ -7,7 +7,7 @@
 #   bash scripts/perf.sh overhead-own [ROUNDS]  render's own share, less the typst compile inside each render (OLD_BIN, PIN_CPU as above)
 #   bash scripts/perf.sh size [SETS...]     typst time and memory per measurement set (generated jobs)
 #   bash scripts/perf.sh own [SETS]         ampreport's own work on a generated job (no typst)
-#   bash scripts/perf.sh batch [JOBS] [ROUNDS]  -j 1 against -j 2 over demo-sized jobs, alternating (OLD_BIN: its -j 2 too)
+#   bash scripts/perf.sh batch [JOBS] [ROUNDS]  -j 1 against -j 2 over demo-sized jobs, alternating (and -j 2 with typst's own threads)
 #   bash scripts/perf.sh ceiling [ROUNDS]   what two cores give this machine: one stream of work against two side by side
 #   bash scripts/perf.sh noop [JOBS]        a second pass over unchanged jobs
 #   bash scripts/perf.sh watch [SAVES]      save-to-PDF time of `watch` against typst's compile time
@@ -363,11 +363,12 @@ own)
 batch)
     # -j 1 against -j 2 over the same jobs, each run with every PDF
     # rendered (--force), ROUNDS rounds in turn, the order of each round
-    # the reverse of the one before (1 2, 2 1, 1 2 …) so a change of load
-    # hits both. ampreport holds each typst to its share of the cores
-    # itself at -j 2 (typst --jobs 1 on 2 cores) and leaves typst its
-    # default at -j 1. With OLD_BIN naming an earlier ampreport, its -j 2
-    # runs in each round too (one that passed typst no --jobs).
+    # the reverse of the one before (1 2 2*, 2* 2 1, …) so a change of load
+    # hits every kind of run. ampreport holds each typst to its share of
+    # the cores itself at -j 2 (typst --jobs 1 on 2 cores) and leaves typst
+    # its default at -j 1; the third kind of run (2*) is -j 2 with typst as
+    # it comes, through a wrapper that drops the --jobs ampreport passes,
+    # to show what holding typst to its share is worth.
     jobs="${1:-200}"
     rounds="${2:-3}"
     load
@@ -381,8 +382,10 @@ batch)
         done
     done
     cp -r jobs/shop.kdl jobs/larkmoor-logo.svg jobs/photos "$work/batch/"
-    runs=("1 $bin" "2 $bin")
-    [ -n "${OLD_BIN:-}" ] && runs+=("2 $OLD_BIN")
+    real_typst=$(command -v "$typst")
+    printf '#!/bin/sh\nskip=; for a in "$@"; do shift; if [ -n "$skip" ]; then skip=; continue; fi; if [ "$a" = --jobs ]; then skip=1; continue; fi; set -- "$@" "$a"; done\nexec %s "$@"\n' "'$real_typst'" >"$work/typst-as-it-comes"
+    chmod +x "$work/typst-as-it-comes"
+    runs=("j1 1 $real_typst" "j2 2 $real_typst" "j2-typst-default 2 $work/typst-as-it-comes")
     for r in $(seq "$rounds"); do
         order=("${runs[@]}")
         if [ $((r % 2)) = 0 ]; then
@@ -390,11 +393,9 @@ batch)
             for ((k = ${#runs[@]} - 1; k >= 0; k--)); do order+=("${runs[$k]}"); done
         fi
         for run in "${order[@]}"; do
-            read -r n b <<<"$run"
-            label="j$n"
-            [ "$b" = "$bin" ] || label="old-j$n"
+            read -r label n t <<<"$run"
             : >"$work/last.wall"
-            c=$(cpu_ms "$work/last.wall" "$b" render "$work/batch" -j "$n" --force --quiet)
+            c=$(cpu_ms "$work/last.wall" "$bin" render "$work/batch" -j "$n" --force --quiet --typst "$t")
             w=$(cat "$work/last.wall")
             echo "$w" >>"$work/$label.wall"
             echo "$c" >>"$work/$label.cpu"
@@ -403,11 +404,8 @@ batch)
     done
     j1=$(median <"$work/j1.wall")
     j2=$(median <"$work/j2.wall")
-    echo "medians: -j 1 $j1 ms ($(median <"$work/j1.cpu") ms CPU), -j 2 $j2 ms ($(median <"$work/j2.cpu") ms CPU): -j 2 is $(ratio "$j1" "$j2") x as fast"
-    if [ -n "${OLD_BIN:-}" ]; then
-        o2=$(median <"$work/old-j2.wall")
-        echo "OLD_BIN -j 2: median $o2 ms ($(median <"$work/old-j2.cpu") ms CPU): $(ratio "$j1" "$o2") x as fast as -j 1"
-    fi
+    d2=$(median <"$work/j2-typst-default.wall")
+    echo "medians: -j 1 $j1 ms ($(median <"$work/j1.cpu") ms CPU); -j 2 $j2 ms ($(median <"$work/j2.cpu") ms CPU), $(ratio "$j1" "$j2") x as fast; -j 2 with typst as it comes $d2 ms ($(median <"$work/j2-typst-default.cpu") ms CPU), $(ratio "$j1" "$d2") x"
     echo "cores: $(nproc)"
     load
     ;;
