@@ -12,7 +12,7 @@ use std::path::PathBuf;
 use std::process::{Command, Output, Stdio};
 use std::time::{Duration, Instant};
 
-use support::{NOTICE_PHRASES, Scene, pdf_with_text, stderr};
+use support::{NOTICE_PHRASES, Scene, git, pdf_with_text, stderr};
 
 /// A scene whose stand-in typst appends a line to `compiles` on every
 /// compile and writes a small PDF with the notice.
@@ -288,27 +288,44 @@ fn the_skip_reads_the_named_files_where_the_job_and_its_profile_find_them() {
     assert!(!c.typeset(&[]));
 }
 
-/// Runs git in `dir` with a fixed author and no signing; false when git
-/// cannot be run here.
-fn git(dir: &std::path::Path, args: &[&str]) -> bool {
-    Command::new("git")
-        .current_dir(dir)
-        .args([
-            "-c",
-            "user.name=Bench",
-            "-c",
-            "user.email=bench@example.invalid",
-            "-c",
-            "commit.gpgsign=false",
-            "-c",
-            "init.defaultBranch=main",
-        ])
-        .args(args)
-        .env_remove("GIT_DIR")
-        .env_remove("GIT_WORK_TREE")
-        .env_remove("GIT_INDEX_FILE")
-        .output()
-        .is_ok_and(|o| o.status.success())
+#[test]
+fn a_job_moved_with_its_pdf_within_a_repository_typesets_again() {
+    // The footer's commit is git's answer for the job's path: moved to
+    // another folder (with its PDF and the record beside it), the job is
+    // not the file git knew, so the same bytes are typeset again.
+    let c = Counting::new();
+    let top = c.scene.root.path();
+    if !git(top, &["init", "-q"]) {
+        assert!(std::env::var_os("CI").is_none(), "git is needed under CI");
+        eprintln!("note: skipping: git cannot be run");
+        return;
+    }
+    assert!(git(top, &["add", "work/job.kdl"]) && git(top, &["commit", "-qm", "first"]));
+    assert!(c.typeset(&[]));
+    assert!(!c.typeset(&[]));
+    let moved = top.join("moved");
+    std::fs::rename(&c.scene.dir, &moved).unwrap();
+    let typeset = |job: &str| {
+        let before = c.compiles();
+        let out = c
+            .command(&["render", job, "--typst", c.typst.to_str().unwrap()])
+            .current_dir(top)
+            .output()
+            .unwrap();
+        assert!(out.status.success(), "{}", stderr(&out));
+        c.compiles() > before
+    };
+    assert!(typeset("moved/job.kdl"), "moved to another folder");
+    assert!(!typeset("moved/job.kdl"));
+    std::fs::rename(moved.join("job.kdl"), moved.join("renamed.kdl")).unwrap();
+    std::fs::rename(moved.join("job.pdf"), moved.join("renamed.pdf")).unwrap();
+    std::fs::rename(
+        moved.join(".job.pdf.ampreport-key"),
+        moved.join(".renamed.pdf.ampreport-key"),
+    )
+    .unwrap();
+    assert!(typeset("moved/renamed.kdl"), "renamed in its folder");
+    assert!(!typeset("moved/renamed.kdl"));
 }
 
 #[test]
@@ -908,6 +925,65 @@ fn watch_takes_no_read_of_its_own_for_a_save_and_renders_listings() {
     std::thread::sleep(Duration::from_millis(1000));
     assert_eq!(count(" unchanged "), 0, "{}", said());
     assert_eq!(c.compiles(), 2);
+    // SAFETY: signals the child started above.
+    unsafe { libc::kill(pid, libc::SIGINT) };
+    let status = support::wait_with_limit(&mut child, limit);
+    assert_eq!(status.code(), Some(0));
+}
+
+#[cfg(target_os = "linux")]
+#[test]
+fn watch_asks_git_again_after_a_commit_made_while_it_watches() {
+    // The content key holds the commit HEAD stands at. A job edited, then
+    // committed while watch runs, then saved again with the same bytes
+    // must render again: its footer no longer says the bytes are
+    // uncommitted.
+    let c = Counting::new();
+    let dir = &c.scene.dir;
+    if !git(dir, &["init", "-q"]) {
+        assert!(std::env::var_os("CI").is_none(), "git is needed under CI");
+        eprintln!("note: skipping: git cannot be run");
+        return;
+    }
+    assert!(git(dir, &["add", "job.kdl"]) && git(dir, &["commit", "-qm", "first"]));
+    let log = c.scene.root.path().join("watch.out");
+    let mut child = c
+        .command(&[
+            "watch",
+            c.scene.job.to_str().unwrap(),
+            "--typst",
+            c.typst.to_str().unwrap(),
+        ])
+        .stdin(Stdio::null())
+        .stdout(std::fs::File::create(&log).unwrap())
+        .stderr(Stdio::null())
+        .spawn()
+        .unwrap();
+    let pid = child.id() as i32;
+    let limit = Duration::from_secs(30);
+    let said = || std::fs::read_to_string(&log).unwrap_or_default();
+    let count = |what: &str| said().lines().filter(|l| l.contains(what)).count();
+    assert!(wait_until(limit, || count(" rendered ") == 1), "{}", said());
+    std::thread::sleep(Duration::from_millis(300));
+    let edited = format!(
+        "{}// second visit\n",
+        std::fs::read_to_string(&c.scene.job).unwrap()
+    );
+    std::fs::write(&c.scene.job, &edited).unwrap();
+    assert!(wait_until(limit, || count(" rendered ") == 2), "{}", said());
+    assert!(git(dir, &["commit", "-qam", "second"]));
+    // The same bytes saved again (a later modification time): rendered,
+    // not skipped as unchanged.
+    std::thread::sleep(Duration::from_millis(1100));
+    std::fs::write(&c.scene.job, &edited).unwrap();
+    assert!(
+        wait_until(limit, || count(" rendered ") == 3
+            || count(" unchanged ") > 0),
+        "{}",
+        said()
+    );
+    assert_eq!(count(" unchanged "), 0, "{}", said());
+    assert_eq!(c.compiles(), 3);
     // SAFETY: signals the child started above.
     unsafe { libc::kill(pid, libc::SIGINT) };
     let status = support::wait_with_limit(&mut child, limit);

@@ -4,6 +4,8 @@
 //! each side, and nothing that did not change is. The expected changes are
 //! worked out here from `calc --json`, never written down.
 
+mod support;
+
 use std::path::{Path, PathBuf};
 use std::process::{Command, Output};
 
@@ -236,4 +238,52 @@ fn a_set_that_is_not_in_the_job_is_named_with_the_ones_that_are() {
         "{}",
         String::from_utf8_lossy(&out.stderr)
     );
+}
+
+#[test]
+fn a_revision_path_from_the_top_finds_the_shop_beside_that_file() {
+    // git reads `REV:jobs/j.kdl` from the top of the repository, whatever
+    // the current folder; the shop profile beside that file (German here)
+    // is the one both sides use, so the table is German. Run from another
+    // subfolder, which has no shop profile of its own.
+    let dir = tempfile::tempdir().unwrap();
+    let top = dir.path();
+    std::fs::create_dir_all(top.join("jobs")).unwrap();
+    std::fs::create_dir_all(top.join("elsewhere")).unwrap();
+    std::fs::copy(
+        jobs_dir().join("combo-el84-cathode.kdl"),
+        top.join("jobs/j.kdl"),
+    )
+    .unwrap();
+    let profile = std::fs::read_to_string(jobs_dir().join("shop.kdl")).unwrap();
+    std::fs::write(
+        top.join("jobs/shop.kdl"),
+        format!("{profile}\nlanguage \"de\"\n"),
+    )
+    .unwrap();
+    std::fs::copy(
+        jobs_dir().join("larkmoor-logo.svg"),
+        top.join("jobs/larkmoor-logo.svg"),
+    )
+    .unwrap();
+    if !support::git(top, &["init", "-q"]) {
+        assert!(std::env::var_os("CI").is_none(), "git is needed under CI");
+        eprintln!("note: skipping: git cannot be run");
+        return;
+    }
+    assert!(support::git(top, &["add", "."]) && support::git(top, &["commit", "-qm", "first"]));
+    let here = top.join("elsewhere");
+    for spec in ["HEAD:jobs/j.kdl", "HEAD:../jobs/j.kdl"] {
+        let out = ampreport(&here, &["compare", spec, "../jobs/j.kdl"]);
+        let text = String::from_utf8_lossy(&out.stdout);
+        assert!(
+            out.status.success(),
+            "{spec}: {}",
+            String::from_utf8_lossy(&out.stderr)
+        );
+        assert!(
+            text.contains("kein Wert hat sich ge\u{e4}ndert"),
+            "{spec}: {text}"
+        );
+    }
 }

@@ -8,7 +8,7 @@
 //! changed); 1 when a side is an invalid job or cannot be read from git;
 //! 2 when a set named with `--sets` is not in the job.
 
-use std::path::{Path, PathBuf};
+use std::path::Path;
 
 use super::args::CompareArgs;
 use super::exit::Exit;
@@ -95,7 +95,8 @@ fn print(args: &CompareArgs, c: &Comparison, cat: &Catalogue) {
 /// of its shop profile (English without one). A path that
 /// does not exist as a file but reads as `REV:PATH` is read through git;
 /// the shop profile is then found from PATH as if it were a file of the
-/// working folder.
+/// working folder, where git's rules put it (from the top of the
+/// repository unless it starts with `./`).
 fn side(args: &CompareArgs, given: &Path) -> Result<(String, Findings, Catalogue), Exit> {
     let mut said = Said::default();
     let result = side_said(args, given, &mut said);
@@ -110,7 +111,7 @@ fn side_said(
 ) -> Result<(String, Findings, Catalogue), Exit> {
     let spec = git::is_revision_spec(given).then(|| given.to_string_lossy().into_owned());
     let job_path = match spec.as_deref().and_then(git::split_spec) {
-        Some((_, path)) => PathBuf::from(path),
+        Some((_, path)) => git::working_path_of_spec(path),
         None => given.to_path_buf(),
     };
     let ratings = load::ratings(&args.ratings)?;

@@ -108,7 +108,7 @@ pub struct Setup<'a> {
     pub batch: bool,
     /// The commit each job folder's git repository stands at, asked once
     /// per folder.
-    heads: std::sync::Mutex<std::collections::HashMap<PathBuf, Option<String>>>,
+    heads: std::sync::Mutex<std::collections::HashMap<PathBuf, Option<crate::git::Head>>>,
 }
 
 impl<'a> Setup<'a> {
@@ -226,9 +226,17 @@ impl<'a> Setup<'a> {
 }
 
 impl Setup<'_> {
+    /// Forgets the commits asked so far: `watch` asks again after each
+    /// save, as a commit made while it watches moves `HEAD`.
+    pub fn forget_heads(&self) {
+        if let Ok(mut heads) = self.heads.lock() {
+            heads.clear();
+        }
+    }
+
     /// The commit `HEAD` of the git repository holding the job at
     /// `job_path`, if any; asked once per folder in a run.
-    fn repository_head(&self, job_path: &Path) -> Option<String> {
+    fn repository_head(&self, job_path: &Path) -> Option<crate::git::Head> {
         if is_dash(job_path) {
             return None;
         }
@@ -771,8 +779,16 @@ fn finish_key(
     job_path: &Path,
     mut key: content_key::JobKey,
 ) -> Option<content_key::JobKey> {
+    // The footer's line is git's answer for the job's path in the
+    // repository: the commit, the folder and the file name all count, so a
+    // job moved with its PDF and manifest is rendered again.
     match setup.repository_head(job_path) {
-        Some(head) => key.file("git head", head.as_bytes()),
+        Some(head) => {
+            let name = job_path.file_name().unwrap_or_default().as_encoded_bytes();
+            let mut place = format!("{}\n{}", head.commit, head.prefix).into_bytes();
+            place.extend_from_slice(name);
+            key.file("git head", &place)
+        }
         None => key.none("git head"),
     }
     Some(key)

@@ -140,6 +140,9 @@ pub fn run(args: &RenderArgs) -> Exit {
         match affected(&setup, &depends, &changed) {
             Affected::Nothing => {}
             Affected::Jobs(indices) => {
+                // A commit made since the last render moves HEAD, which
+                // the content key holds: ask git again.
+                setup.forget_heads();
                 for i in indices {
                     render_and_tell(&setup, &setup.plans[i], &mut depends, &mut stamps);
                 }

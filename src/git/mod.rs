@@ -345,15 +345,60 @@ impl Lookup {
     }
 }
 
-/// The commit `HEAD` of the repository holding `folder` (its full id):
-/// none without git or outside a repository. Two renders of a job whose
-/// bytes and repository `HEAD` are the same get the same [`revision`].
-pub fn head(folder: &Path) -> Option<String> {
-    let Ran::Ok(out) = run(folder, &["rev-parse", "--verify", "--quiet", "HEAD"], 256) else {
+/// Where the repository holding a folder stands, and where the folder lies
+/// in it: what a job's footer line follows from, besides the job's bytes
+/// and name.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub struct Head {
+    /// The commit `HEAD` (its full id).
+    pub commit: String,
+    /// The folder's path from the top of the repository, with a trailing
+    /// `/` (empty at the top), as git prints it.
+    pub prefix: String,
+}
+
+/// Where the repository holding `folder` stands: none without git, outside
+/// a repository or before its first commit. Two renders of a job whose
+/// bytes, name and [`Head`] are the same get the same [`revision`].
+pub fn head(folder: &Path) -> Option<Head> {
+    let Ran::Ok(out) = run(
+        folder,
+        &["rev-parse", "--show-prefix", "--verify", "--quiet", "HEAD"],
+        8192,
+    ) else {
         return None;
     };
-    let id = String::from_utf8(out).ok()?.trim().to_string();
-    (id.len() >= SHORT_ID_DIGITS && id.chars().all(|c| c.is_ascii_hexdigit())).then_some(id)
+    parse_head(&String::from_utf8(out).ok()?)
+}
+
+/// `git rev-parse --show-prefix --verify HEAD`'s answer: the prefix line
+/// (which may itself hold line breaks), then the commit's id.
+fn parse_head(out: &str) -> Option<Head> {
+    let (prefix, id) = out.strip_suffix('\n')?.rsplit_once('\n')?;
+    (id.len() >= SHORT_ID_DIGITS && id.chars().all(|c| c.is_ascii_hexdigit())).then(|| Head {
+        commit: id.to_string(),
+        prefix: prefix.to_string(),
+    })
+}
+
+/// Where the file `PATH` of a `REV:PATH` read from the current folder lies
+/// in the working folder, by git's rules: from the top of the repository,
+/// unless it starts with `./` or `../` (then from the current folder). The
+/// path as given when git cannot say where the top is.
+pub fn working_path_of_spec(path: &str) -> PathBuf {
+    let given = Path::new(path);
+    if given.is_absolute() || path.starts_with("./") || path.starts_with("../") {
+        return given.to_path_buf();
+    }
+    match run(Path::new("."), &["rev-parse", "--show-toplevel"], 4096) {
+        Ran::Ok(out) => match String::from_utf8(out) {
+            Ok(top) if !top.trim_end_matches('\n').is_empty() => {
+                PathBuf::from(top.trim_end_matches('\n')).join(given)
+            }
+            _ => given.to_path_buf(),
+        },
+        _ => given.to_path_buf(),
+    }
 }
 
 /// Whether `arg` names a file at a git revision (`REV:PATH`) rather than a
@@ -402,6 +447,19 @@ pub fn read_at_revision(spec: &str) -> Result<String, GitError> {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn the_folder_and_the_commit_are_read_from_rev_parse() {
+        let id = "2444dd4a4c879eda84b0699625aa059a0839a51a";
+        let head = parse_head(&format!("jobs/2026/\n{id}\n")).unwrap();
+        assert_eq!(head.prefix, "jobs/2026/");
+        assert_eq!(head.commit, id);
+        assert_eq!(parse_head(&format!("\n{id}\n")).unwrap().prefix, "");
+        let odd = parse_head(&format!("a\nb/\n{id}\n")).unwrap();
+        assert_eq!(odd.prefix, "a\nb/");
+        assert_eq!(parse_head("jobs/\nnot-an-id\n"), None);
+        assert_eq!(parse_head(""), None);
+    }
 
     #[test]
     fn gits_refusals_are_told_apart_and_said_in_the_readers_language() {

@@ -353,7 +353,8 @@ pub fn render_text(c: &Comparison, cat: &Catalogue) -> String {
     let set = |label: &str| cat.say(&Msg::new("cli-compare-set-name").arg("label", label));
     let mut out = match &c.sets {
         Some((source, old, new)) => {
-            format!("{source} {} \u{2192} {source} {}\n", set(old), set(new))
+            // One job's two sets: its name once, and no set column below.
+            format!("{source}: {} \u{2192} {}\n", set(old), set(new))
         }
         None => format!("{} \u{2192} {}\n", c.old, c.new),
     };
@@ -374,6 +375,7 @@ pub fn render_text(c: &Comparison, cat: &Catalogue) -> String {
         out.push_str(&format!("{}\n", cat.text("cli-compare-nothing-changed")));
         return out;
     }
+    let one_job = c.sets.is_some();
     let headers: Vec<(String, Align)> = [
         ("cli-compare-col-set", Align::Left),
         ("cli-compare-col-what", Align::Left),
@@ -383,23 +385,30 @@ pub fn render_text(c: &Comparison, cat: &Catalogue) -> String {
         ("cli-compare-col-change", Align::Right),
     ]
     .into_iter()
+    .skip(usize::from(one_job))
     .map(|(key, align)| (cat.text(key), align))
     .collect();
     let headers: Vec<(&str, Align)> = headers.iter().map(|(w, a)| (w.as_str(), *a)).collect();
     let mut table = TextTable::new(&headers);
     for ch in &c.changes {
-        table.row(vec![
+        let set = (!one_job).then(|| {
             ch.set
                 .clone()
-                .unwrap_or_else(|| cat.text("cli-compare-safety")),
-            subject_words(ch, cat),
-            figure_words(&ch.figure, cat),
-            value_words(&ch.old, &ch.figure, cat),
-            value_words(&ch.new, &ch.figure, cat),
-            ch.difference
-                .map(|d| signed(d, &ch.figure))
-                .unwrap_or_default(),
-        ]);
+                .unwrap_or_else(|| cat.text("cli-compare-safety"))
+        });
+        table.row(
+            set.into_iter()
+                .chain([
+                    subject_words(ch, cat),
+                    figure_words(&ch.figure, cat),
+                    value_words(&ch.old, &ch.figure, cat),
+                    value_words(&ch.new, &ch.figure, cat),
+                    ch.difference
+                        .map(|d| signed(d, &ch.figure))
+                        .unwrap_or_default(),
+                ])
+                .collect(),
+        );
     }
     out.push_str(&table.render(0));
     out.push_str(&format!(

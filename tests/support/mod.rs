@@ -343,3 +343,26 @@ pub fn wait_with_limit(
         std::thread::sleep(Duration::from_millis(10));
     }
 }
+
+/// Runs git in `dir` with a fixed author and no signing; false when git
+/// cannot be run here.
+pub fn git(dir: &Path, args: &[&str]) -> bool {
+    Command::new("git")
+        .current_dir(dir)
+        .args([
+            "-c",
+            "user.name=Bench",
+            "-c",
+            "user.email=bench@example.invalid",
+            "-c",
+            "commit.gpgsign=false",
+            "-c",
+            "init.defaultBranch=main",
+        ])
+        .args(args)
+        .env_remove("GIT_DIR")
+        .env_remove("GIT_WORK_TREE")
+        .env_remove("GIT_INDEX_FILE")
+        .output()
+        .is_ok_and(|o| o.status.success())
+}
