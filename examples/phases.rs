@@ -1,59 +1,114 @@
+//! ampreport's own time per phase on one job, before typst: reading the
+//! ratings, decoding, deriving, the charts, the whole document build
+//! (charts, context, template fill) and the terminal summary.
+//!
+//! `cargo run --release --example phases -- JOB [ROUNDS]` prints one line
+//! per round with the processor time of this thread in each phase
+//! (`CLOCK_THREAD_CPUTIME_ID`, which depends far less on what else the
+//! shared machine runs than the wall clock), then the medians. Keep a copy
+//! of the binary before a change and run both alternately to compare.
 use ampreport::report::handover::{self, HandoverInput};
 use ampreport::typeset::TemplateSource;
-use std::time::Instant;
+use std::time::Duration;
+
+/// Processor time this thread has used.
+fn thread_cpu() -> Duration {
+    // SAFETY: an all-zero timespec is a valid value for clock_gettime to
+    // fill in, and the pointer is to a live local.
+    let mut t: libc::timespec = unsafe { std::mem::zeroed() };
+    // SAFETY: as above.
+    let rc = unsafe { libc::clock_gettime(libc::CLOCK_THREAD_CPUTIME_ID, &mut t) };
+    assert_eq!(rc, 0, "clock_gettime");
+    Duration::new(t.tv_sec as u64, t.tv_nsec as u32)
+}
+
+/// Processor milliseconds of one call of `f`, and its result.
+fn cpu<T>(f: impl FnOnce() -> T) -> (f64, T) {
+    let start = thread_cpu();
+    let out = f();
+    ((thread_cpu() - start).as_secs_f64() * 1e3, out)
+}
+
+const PHASES: [&str; 8] = [
+    "ratings",
+    "decode",
+    "derive",
+    "diss charts",
+    "supply charts",
+    "build(all)",
+    "terminal",
+    "decode+derive+build",
+];
+
+fn round(path: &str, text: &str) -> [f64; 8] {
+    let english = ampreport::catalogue::Catalogue::english();
+    let (t_r, ratings) = cpu(ampreport::ratings::RatingsTable::builtin);
+    let (t_d, decoded) = cpu(|| ampreport::job::decode_with_ratings(path, text, &ratings).unwrap());
+    let (t_c, findings) = cpu(|| ampreport::calc::derive(&decoded.job, &ratings));
+    let (t_p1, _) = cpu(|| {
+        if let Some(d) = ampreport::report::plots::dissipation_chart(&findings, english) {
+            for p in &ampreport::report::plots::split_dissipation(&d) {
+                ampreport::report::plots::dissipation_svg(&p.chart).unwrap();
+            }
+        }
+    });
+    let (t_p2, _) = cpu(|| {
+        if let Some(s) = ampreport::report::plots::supply_chart(&findings, english) {
+            for p in &ampreport::report::plots::split_supply(&s) {
+                ampreport::report::plots::supply_svg(&p.chart).unwrap();
+            }
+        }
+    });
+    let input = HandoverInput::new(&decoded.job, &findings, text, "0.15.1");
+    let (t_b, doc) = cpu(|| {
+        handover::build(
+            &input,
+            &TemplateSource::embedded(handover::EMBEDDED_TEMPLATES),
+        )
+        .unwrap()
+    });
+    std::hint::black_box(doc.sandbox.len());
+    let (t_term, _) = cpu(|| {
+        ampreport::report::terminal::render(
+            &decoded.job,
+            &findings,
+            &ampreport::report::terminal::TerminalStyle {
+                colour: false,
+                catalogue: english.clone(),
+            },
+        )
+    });
+    [t_r, t_d, t_c, t_p1, t_p2, t_b, t_term, t_d + t_c + t_b]
+}
+
 fn main() {
-    let path = std::env::args().nth(1).unwrap();
+    let mut args = std::env::args().skip(1);
+    let path = args.next().expect("usage: phases JOB [ROUNDS]");
+    let rounds: usize = args
+        .next()
+        .map_or(1, |r| r.parse().expect("ROUNDS is a number"));
     let text = std::fs::read_to_string(&path).unwrap();
-    let t = Instant::now();
-    let ratings = ampreport::ratings::RatingsTable::builtin();
-    let t_r = t.elapsed();
-    let t = Instant::now();
-    let decoded = ampreport::job::decode_with_ratings(&path, &text, &ratings).unwrap();
-    let t_d = t.elapsed();
-    let t = Instant::now();
-    let findings = ampreport::calc::derive(&decoded.job, &ratings);
-    let t_c = t.elapsed();
-    let t = Instant::now();
-    let d = ampreport::report::plots::dissipation_chart(
-        &findings,
-        ampreport::catalogue::Catalogue::english(),
-    )
-    .unwrap();
-    let parts = ampreport::report::plots::split_dissipation(&d);
-    for p in &parts {
-        ampreport::report::plots::dissipation_svg(&p.chart).unwrap();
+    let mut all: Vec<[f64; 8]> = Vec::new();
+    for _ in 0..rounds {
+        let r = round(&path, &text);
+        let line: Vec<String> = PHASES
+            .iter()
+            .zip(r)
+            .map(|(name, ms)| format!("{name} {ms:.1}"))
+            .collect();
+        println!("processor ms: {}", line.join(", "));
+        all.push(r);
     }
-    let t_p1 = t.elapsed();
-    let t = Instant::now();
-    let s = ampreport::report::plots::supply_chart(
-        &findings,
-        ampreport::catalogue::Catalogue::english(),
-    )
-    .unwrap();
-    for p in &ampreport::report::plots::split_supply(&s) {
-        ampreport::report::plots::supply_svg(&p.chart).unwrap();
+    if rounds > 1 {
+        let line: Vec<String> = PHASES
+            .iter()
+            .enumerate()
+            .map(|(i, name)| {
+                let mut v: Vec<f64> = all.iter().map(|r| r[i]).collect();
+                v.sort_by(f64::total_cmp);
+                format!("{name} {:.1}", v[v.len() / 2])
+            })
+            .collect();
+        println!("median of {rounds}: {}", line.join(", "));
     }
-    let t_p2 = t.elapsed();
-    let input = HandoverInput::new(&decoded.job, &findings, &text, "0.15.1");
-    let t = Instant::now();
-    let doc = handover::build(
-        &input,
-        &TemplateSource::embedded(handover::EMBEDDED_TEMPLATES),
-    )
-    .unwrap();
-    let t_b = t.elapsed();
-    let t = Instant::now();
-    let _ = ampreport::report::terminal::render(
-        &decoded.job,
-        &findings,
-        &ampreport::report::terminal::TerminalStyle {
-            colour: false,
-            catalogue: ampreport::catalogue::Catalogue::english().clone(),
-        },
-    );
-    let t_term = t.elapsed();
-    println!(
-        "ratings {t_r:?} decode {t_d:?} derive {t_c:?} diss charts {t_p1:?} supply charts {t_p2:?} build(all) {t_b:?} terminal {t_term:?} files {}",
-        doc.sandbox.len()
-    );
 }

@@ -1991,6 +1991,7 @@ cli-typst-pdf-not-pdf = sie beginnt nicht wie ein PDF (`%PDF-`)
 cli-typst-pdf-no-end = sie endet nach { $size } Bytes ohne die Dateiende-Marke `%%EOF`
 cli-typst-pdf-unparsable = sie lässt sich nicht als PDF lesen ({ $detail })
 cli-typst-pdf-no-pages = sie hat keine Seiten
+cli-typst-pdf-misplaced = ihr Objekt { $object } steht nicht bei Byte { $offset }, wo ihre Querverweistabelle es verortet
 cli-typst-pdf-reader-stopped = der PDF-Leser brach beim Lesen ab
 cli-typst-timed-out = das Programm typst { $path } hat `{ $action }` nicht innerhalb von { $seconds } s beendet und wurde angehalten{ $said }
 cli-typst-timed-out-help = ein Übergabedokument dauert einige Sekunden; ein typst, das hängt, ist fehlerhaft, oder der Rechner ist sehr ausgelastet. Mehr Zeit mit `--timeout SEKUNDEN` oder AMPREPORT_TIMEOUT erlauben

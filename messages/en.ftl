@@ -1983,6 +1983,7 @@ cli-typst-pdf-not-pdf = it does not start like a PDF (`%PDF-`)
 cli-typst-pdf-no-end = it stops after { $size } bytes without the end-of-file mark `%%EOF`
 cli-typst-pdf-unparsable = it does not parse as a PDF ({ $detail })
 cli-typst-pdf-no-pages = it has no pages
+cli-typst-pdf-misplaced = its object { $object } is not at byte { $offset }, where its cross-reference table puts it
 cli-typst-pdf-reader-stopped = the PDF reader broke off while reading it
 cli-typst-timed-out = the typst program { $path } did not finish `{ $action }` within { $seconds } s and was stopped{ $said }
 cli-typst-timed-out-help = a hand-over document takes a few seconds; a typst that hangs is at fault, or the machine is very busy. Allow longer with `--timeout SECONDS` or AMPREPORT_TIMEOUT

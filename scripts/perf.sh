@@ -3,7 +3,7 @@
 # side in one run (never by timed tests). Usage:
 #
 #   bash scripts/perf.sh template [PAIRS]   typst on the new emitted source against the old template's
-#   bash scripts/perf.sh overhead [PAIRS]   render against bare typst on its own emitted source
+#   bash scripts/perf.sh overhead [PAIRS]   render against bare typst on its own emitted source (OLD_BIN=PATH: and the previous binary's render, in the same rounds; PIN_CPU=N: all on one core)
 #   bash scripts/perf.sh size [SETS...]     typst time and memory per measurement set (generated jobs)
 #   bash scripts/perf.sh own [SETS]         ampreport's own work on a generated job (no typst)
 #   bash scripts/perf.sh batch [JOBS]       -j 1 against -j 2 over demo-sized jobs (and with typst --jobs 1)
@@ -89,6 +89,26 @@ alternate() {
     done
 }
 
+# Runs the commands (functions) $2 … in rounds, $1 rounds, each round
+# starting one further along (ABC, BCA, CAB …) so a slow patch of the
+# machine hits every side: the wall-clock milliseconds of the Nth command
+# (from 0) in $work/sN, its processor milliseconds in $work/sN.cpu.
+rotate() {
+    local rounds="$1"
+    shift
+    local sides=("$@") n=$# i k j
+    for ((k = 0; k < n; k++)); do
+        : >"$work/s$k"
+        : >"$work/s$k.cpu"
+    done
+    for ((i = 0; i < rounds; i++)); do
+        for ((j = 0; j < n; j++)); do
+            k=$(((i + j) % n))
+            cpu_ms "$work/s$k" "${sides[$k]}" >>"$work/s$k.cpu"
+        done
+    done
+}
+
 # "x/y" to two places.
 ratio() { awk -v a="$1" -v b="$2" 'BEGIN { printf "%.2f", a / b }'; }
 
@@ -117,6 +137,15 @@ compile() {
     cmd[0]="$typst"
     cmd[${#cmd[@]} - 1]="$out"
     "${cmd[@]}"
+}
+
+# [`compile`] on the one core PIN_CPU names.
+pinned_compile() {
+    local dir="$1" out="$2"
+    read -ra cmd <"$dir.cmd"
+    cmd[0]="$typst"
+    cmd[${#cmd[@]} - 1]="$out"
+    taskset -c "$PIN_CPU" "${cmd[@]}"
 }
 
 # "seconds maxrss_kib cpu_seconds" of one command, from GNU time.
@@ -163,13 +192,39 @@ template)
 overhead)
     pairs="${1:-11}"
     load
-    echo "job | render ms | bare typst ms | render/typst | render CPU ms | typst CPU ms | CPU render/typst"
+    # PIN_CPU=N runs every side on that one core (taskset), as the
+    # target was first measured: typst's idle threads then cannot spin on
+    # the other core, which makes its processor time swing with the load.
+    pin=""
+    pin_compile=compile
+    if [ -n "${PIN_CPU:-}" ]; then
+        pin="taskset -c $PIN_CPU"
+        pin_compile="pinned_compile"
+        echo "# every side pinned to core $PIN_CPU"
+    fi
+    if [ -n "${OLD_BIN:-}" ]; then
+        # The previous binary's render as a third side, in the same rounds.
+        echo "job | render ms | bare typst ms | render/typst | render CPU ms | typst CPU ms | CPU render/typst | old render CPU ms | old CPU render/typst | own CPU ms new (old)"
+    else
+        echo "job | render ms | bare typst ms | render/typst | render CPU ms | typst CPU ms | CPU render/typst"
+    fi
     for job in jobs/*.kdl; do
         name=$(basename "$job" .kdl)
         [ "$name" = shop ] && continue
         emit "$job" "$work/new" new
-        render_side() { "$bin" render "$job" -o "$work/r.pdf" --force; }
-        typst_side() { compile "$work/new" "$work/t.pdf"; }
+        render_side() { $pin "$bin" render "$job" -o "$work/r.pdf" --force; }
+        typst_side() { $pin_compile "$work/new" "$work/t.pdf"; }
+        if [ -n "${OLD_BIN:-}" ]; then
+            old_side() { $pin "$OLD_BIN" render "$job" -o "$work/o.pdf" --force; }
+            rotate "$pairs" render_side typst_side old_side
+            a=$(median <"$work/s0")
+            b=$(median <"$work/s1")
+            ac=$(median <"$work/s0.cpu")
+            bc=$(median <"$work/s1.cpu")
+            oc=$(median <"$work/s2.cpu")
+            echo "$name | $a | $b | $(ratio "$a" "$b") | $ac | $bc | $(ratio "$ac" "$bc") | $oc | $(ratio "$oc" "$bc") | $((ac - bc)) ($((oc - bc)))"
+            continue
+        fi
         alternate "$pairs" render_side typst_side
         a=$(median <"$work/a")
         b=$(median <"$work/b")

@@ -538,6 +538,58 @@ fn a_folder_renders_every_job_and_one_failure_stops_no_other() {
     assert_eq!(c.compiles(), 3);
 }
 
+#[test]
+fn typst_is_held_to_its_share_of_the_cores_only_when_jobs_run_side_by_side() {
+    let c = Counting::new();
+    let jobs = jobs_tree(&c);
+    std::fs::remove_file(jobs.join("broken.kdl")).unwrap();
+    let log = c.scene.root.path().join("arguments.log");
+    let pdf = c.scene.bin.join("notice.pdf");
+    let typst = c.scene.fake_typst(
+        "logging-typst",
+        &format!(
+            "echo \"$*\" >> '{}'\ncp '{}' \"$out\"",
+            log.display(),
+            pdf.display()
+        ),
+    );
+    // The `--jobs` value of each compile of one run, `None` where typst was
+    // left its default.
+    let run = |args: &[&str]| -> Vec<Option<usize>> {
+        let _ = std::fs::remove_file(&log);
+        let mut all = vec!["render"];
+        all.extend_from_slice(args);
+        all.extend_from_slice(&["--force", "--typst", typst.to_str().unwrap()]);
+        let out = c.command(&all).output().unwrap();
+        assert!(out.status.success(), "{}", stderr(&out));
+        std::fs::read_to_string(&log)
+            .unwrap()
+            .lines()
+            .map(|line| {
+                let words: Vec<&str> = line.split_whitespace().collect();
+                assert_eq!(words[0], "compile", "{line}");
+                words
+                    .iter()
+                    .position(|w| *w == "--jobs")
+                    .map(|i| words[i + 1].parse().unwrap())
+            })
+            .collect()
+    };
+    let cores = std::thread::available_parallelism().map_or(1, usize::from);
+    let share = |workers: usize| Some((cores / workers).max(1));
+    assert_eq!(run(&["jobs", "-j", "2"]), vec![share(2); 2]);
+    assert_eq!(run(&["jobs", "-r", "-j", "3"]), vec![share(3); 3]);
+    // More workers than jobs: as many workers as jobs.
+    assert_eq!(run(&["jobs", "-j", "8"]), vec![share(2); 2]);
+    // One at a time, or one job: typst's own default.
+    assert_eq!(run(&["jobs", "-r", "-j", "1"]), vec![None; 3]);
+    assert_eq!(run(&["jobs/a.kdl"]), vec![None]);
+    assert_eq!(run(&["jobs/old"]), vec![None]);
+    // By default, as many workers as cores.
+    let default = if cores > 1 { share(cores.min(3)) } else { None };
+    assert_eq!(run(&["jobs", "-r"]), vec![default; 3]);
+}
+
 /// The deepest nesting the depth check passes to the `kdl` crate: blocks
 /// to the limit, and a run of `/-` comments inside the innermost one.
 fn deepest_allowed_job() -> String {

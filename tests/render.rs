@@ -808,6 +808,81 @@ fn rendering_twice_and_from_emitted_source_gives_identical_bytes() {
     );
 }
 
+/// typst's own threads (`--jobs`, which a batch sets for each of its
+/// typst processes; a job alone leaves typst its default) must not change
+/// a byte of the PDF: the content key leaves them out. Each demo job and
+/// a generated job of many measurement sets is rendered alone, then its
+/// emitted source compiled with typst held to one and to two threads.
+#[test]
+fn typst_threads_do_not_change_the_pdf() {
+    if typst_version().is_none() {
+        return;
+    }
+    let dir = tempfile::tempdir().unwrap();
+    let many_sets = dir.path().join("many-sets.kdl");
+    let generated = Command::new("bash")
+        .arg(repo().join("scripts/gen-job.sh"))
+        // Ten sets: the charts come in two parts (at most 8 sets each).
+        .arg("10")
+        .output()
+        .unwrap();
+    assert!(generated.status.success());
+    std::fs::write(&many_sets, &generated.stdout).unwrap();
+    let jobs: Vec<PathBuf> = [
+        "combo-el84-cathode",
+        "combo-6v6-fixed",
+        "head-el34-quad",
+        "stereo-el84-hifi",
+    ]
+    .iter()
+    .map(|name| demo(name))
+    .chain([many_sets])
+    .collect();
+    for job in &jobs {
+        let name = job.file_stem().unwrap().to_string_lossy().into_owned();
+        let src = dir.path().join(format!("{name}-source"));
+        let alone = dir.path().join(format!("{name}.pdf"));
+        let out = render(job, &alone, &["--emit-source", src.to_str().unwrap()]);
+        assert_ok(&out, &name);
+        let said = String::from_utf8_lossy(&out.stderr);
+        let command = said
+            .lines()
+            .find_map(|l| l.split_once("the same PDF comes from: "))
+            .map(|(_, c)| c.to_owned())
+            .unwrap_or_else(|| panic!("{name}: no command in {said}"));
+        assert!(
+            !command.contains("--jobs"),
+            "{name}: a job alone: {command}"
+        );
+        let stamp = command
+            .split_whitespace()
+            .skip_while(|w| *w != "--creation-timestamp")
+            .nth(1)
+            .unwrap_or_else(|| panic!("{name}: {command}"))
+            .to_owned();
+        let bytes = std::fs::read(&alone).unwrap();
+        assert!(bytes.starts_with(b"%PDF-"), "{name}");
+        for threads in ["1", "2"] {
+            let held = dir.path().join(format!("{name}-{threads}.pdf"));
+            let root = src.to_str().unwrap();
+            let status = Command::new("typst")
+                .args(["compile", "--jobs", threads, "--root", root])
+                .args(["--font-path", &format!("{root}/fonts")])
+                .args(["--ignore-system-fonts", "--ignore-embedded-fonts"])
+                .args(["--creation-timestamp", &stamp, "--pdf-standard", "a-2b"])
+                .arg(src.join("main.typ"))
+                .arg(&held)
+                .status()
+                .unwrap();
+            assert!(status.success(), "{name}: typst --jobs {threads}");
+            assert!(
+                bytes == std::fs::read(&held).unwrap(),
+                "{name}: typst --jobs {threads} gives another PDF than typst's default"
+            );
+        }
+    }
+}
+
 #[test]
 fn fonts_from_the_user_cache_or_the_sandbox_give_identical_bytes() {
     if typst_version().is_none() {

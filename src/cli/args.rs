@@ -199,7 +199,8 @@ pub struct RenderArgs {
     /// (a job found in a folder DIR goes to the same place under it).
     #[arg(long, value_name = "DIR", value_hint = ValueHint::DirPath)]
     pub out_dir: Option<PathBuf>,
-    /// How many jobs to render at once (default: the number of cores).
+    /// How many jobs to render at once (default: the number of cores); with
+    /// more than one, each typst gets its share of the cores (`typst --jobs`).
     #[arg(short = 'j', long = "jobs", value_name = "N", value_parser = clap::value_parser!(u16).range(1..=1024))]
     pub parallel: Option<u16>,
     /// The typst program to run (default: $AMPREPORT_TYPST, else typst on PATH).

@@ -174,13 +174,17 @@ pub fn seconds(d: Duration) -> String {
     }
 }
 
-/// Renders every job of `setup` and prints the summary.
-pub fn run(setup: &Setup<'_>) -> Exit {
+/// Renders every job of `setup` and prints the summary. With more than
+/// one worker, each typst is held to its share of the cores
+/// ([`crate::typeset::threads_per_worker`]).
+pub fn run(setup: &mut Setup<'_>) -> Exit {
     let workers = setup
         .args
         .parallel
         .map_or_else(default_workers, usize::from)
         .min(setup.plans.len().max(1));
+    setup.typst_threads = crate::typeset::threads_per_worker(workers, default_workers());
+    let setup = &*setup;
     let pool = match rayon::ThreadPoolBuilder::new()
         .num_threads(workers)
         .thread_name(|i| format!("ampreport-render-{i}"))

@@ -13,7 +13,10 @@
 //!   program file (see [`program_identity`]: its bytes are not read, a
 //!   typst binary being some 60 MB that took longer to hash than the rest
 //!   of a render's own work);
-//! * the options that change the document (the PDF standard);
+//! * the options that change the document (the PDF standard); not the
+//!   number of threads typst is given (`--jobs`, which a batch sets):
+//!   `tests/render.rs` holds the PDF bytes the same at typst's default,
+//!   one and two threads;
 //! * every `--ratings` file's bytes, in order;
 //! * every file of the `--templates` folder, by path, with its bytes;
 //! * the job file's text as it was read for this render;

@@ -49,7 +49,7 @@ pub fn run(args: &RenderArgs) -> Exit {
             &Msg::new("cli-no-stop-signals").arg("error", e.to_string()),
         ));
     }
-    let setup = match Setup::new(args) {
+    let mut setup = match Setup::new(args) {
         Ok(s) => s,
         Err(e) => return e,
     };
@@ -81,7 +81,7 @@ pub fn run(args: &RenderArgs) -> Exit {
         }
         return report.exit;
     }
-    batch::run(&setup)
+    batch::run(&mut setup)
 }
 
 /// One job of a run and where its PDF goes.
@@ -106,6 +106,9 @@ pub struct Setup<'a> {
     pub job_files: InputIndex,
     /// True for several jobs or a folder: a summary at the end.
     pub batch: bool,
+    /// typst's `--jobs` for each render: `None` (typst's default) unless
+    /// several renders run side by side ([`batch::run`] sets it).
+    pub typst_threads: Option<std::num::NonZeroUsize>,
     /// The commit each job folder's git repository stands at, asked once
     /// per folder.
     heads: std::sync::Mutex<std::collections::HashMap<PathBuf, Option<crate::git::Head>>>,
@@ -220,6 +223,7 @@ impl<'a> Setup<'a> {
             plans,
             job_files,
             batch,
+            typst_threads: None,
             heads: std::sync::Mutex::new(heads),
         })
     }
@@ -577,6 +581,13 @@ fn render_job(
         }
     };
 
+    // typst's threads: its default for a job alone, a share of the cores
+    // for each of several side by side (a batch's workers).
+    let options = CompileOptions {
+        timeout: args.timeout,
+        threads: setup.typst_threads,
+        ..document.options.clone()
+    };
     if let Some(dir) = &args.emit_source {
         if let Err(e) = typeset::check_emit_folder(dir, &inputs, output, args.force) {
             said.error(format!(
@@ -615,7 +626,7 @@ fn render_job(
                     "command",
                     handover::compile_command(
                         dir,
-                        &document.options,
+                        &options,
                         &dir.join(if args.listing {
                             "listing.pdf"
                         } else {
@@ -626,10 +637,6 @@ fn render_job(
         );
     }
 
-    let options = CompileOptions {
-        timeout: args.timeout,
-        ..document.options.clone()
-    };
     match typeset::compile(
         &setup.program,
         &document.sandbox,

@@ -10,6 +10,7 @@
 
 use std::ffi::OsString;
 use std::io::Write;
+use std::num::NonZeroUsize;
 use std::path::{Path, PathBuf};
 use std::process::Command;
 use std::time::Duration;
@@ -74,6 +75,23 @@ pub struct CompileOptions {
     pub timeout: Duration,
     /// Text the PDF must show, or `None`.
     pub required_text: Option<RequiredText>,
+    /// How many threads typst may use for its own work (`--jobs`), or
+    /// `None` for typst's default (one per core). A batch running several
+    /// typst processes side by side holds each to its share of the cores
+    /// ([`threads_per_worker`]). The PDF is the same whichever is used
+    /// (`tests/render.rs` compares the bytes), so this is not part of the
+    /// content key.
+    pub threads: Option<NonZeroUsize>,
+}
+
+/// typst's `--jobs` for each of `workers` typst processes running side by
+/// side on `cores` cores: `None` (typst's default, one thread per core)
+/// for a single worker, else each worker's whole share of the cores, at
+/// least one. With as many workers as cores or more, each typst gets one
+/// thread: the cores are already busy, and typst's own threads then only
+/// add contention (docs/performance.md, "Batch").
+pub fn threads_per_worker(workers: usize, cores: usize) -> Option<NonZeroUsize> {
+    (workers > 1).then(|| NonZeroUsize::new(cores / workers).unwrap_or(NonZeroUsize::MIN))
 }
 
 /// Where the bundled fonts are put for typst.
@@ -110,6 +128,7 @@ impl CompileOptions {
             fonts: FontPlace::UserCache,
             timeout: DEFAULT_TIMEOUT,
             required_text: None,
+            threads: None,
         }
     }
 
@@ -306,9 +325,9 @@ enum Failed {
 
 /// Checks a PDF typst wrote: complete, and showing the required text.
 fn check_document(bytes: &[u8], required: Option<&RequiredText>) -> Result<(), Failed> {
-    let document = incomplete(bytes).map_err(Failed::Incomplete)?;
+    let mut document = incomplete(bytes).map_err(Failed::Incomplete)?;
     if let Some(required) = required {
-        let missing = missing_phrases(&document, &required.phrases);
+        let missing = missing_phrases(&mut document, &required.phrases);
         if !missing.is_empty() {
             return Err(Failed::Missing {
                 what: required.what.clone(),
@@ -507,6 +526,10 @@ fn arguments(
         "--diagnostic-format".into(),
         "human".into(),
     ];
+    if let Some(threads) = opts.threads {
+        args.push("--jobs".into());
+        args.push(threads.to_string().into());
+    }
     if let Some(standard) = &opts.pdf_standard {
         args.push("--pdf-standard".into());
         args.push(standard.into());
@@ -568,5 +591,43 @@ mod tests {
             Path::new("/o"),
         );
         assert!(!args.iter().any(|a| a == "--pdf-standard"));
+        assert!(
+            !args.iter().any(|a| a == "--jobs"),
+            "typst's default threads"
+        );
+        opts.threads = NonZeroUsize::new(3);
+        let joined = arguments(
+            Path::new("/r"),
+            Path::new("/r/fonts"),
+            Path::new("/r/m"),
+            &opts,
+            Path::new("/o"),
+        )
+        .iter()
+        .map(|a| a.to_string_lossy().into_owned())
+        .collect::<Vec<_>>()
+        .join(" ");
+        assert!(
+            joined.ends_with("--diagnostic-format human --jobs 3 /r/m /o"),
+            "{joined}"
+        );
+    }
+
+    #[test]
+    fn each_of_several_typst_processes_gets_its_share_of_the_cores() {
+        let threads = |workers, cores| threads_per_worker(workers, cores).map(usize::from);
+        // One job at a time: typst's own default.
+        assert_eq!(threads(1, 2), None);
+        assert_eq!(threads(1, 16), None);
+        assert_eq!(threads(0, 2), None);
+        // As many workers as cores, or more: one thread each.
+        assert_eq!(threads(2, 2), Some(1));
+        assert_eq!(threads(4, 2), Some(1));
+        assert_eq!(threads(64, 2), Some(1));
+        assert_eq!(threads(3, 0), Some(1));
+        // Fewer workers than cores: each its whole share, rounded down.
+        assert_eq!(threads(2, 8), Some(4));
+        assert_eq!(threads(3, 8), Some(2));
+        assert_eq!(threads(2, 3), Some(1));
     }
 }

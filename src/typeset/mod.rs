@@ -19,13 +19,15 @@ mod leftovers;
 mod locate;
 mod output;
 mod pdf_check;
+mod rows;
 mod sandbox;
 mod template_env;
 mod version;
 
 pub use compile::{
     CompileOptions, CompileOutcome, DEFAULT_PDF_STANDARD, DEFAULT_TIMEOUT, FontPlace, FontsUsed,
-    KEPT_PREFIX, PARTIAL_SUFFIX, RequiredText, WORK_PREFIX, compile, place, write_small_file,
+    KEPT_PREFIX, PARTIAL_SUFFIX, RequiredText, WORK_PREFIX, compile, place, threads_per_worker,
+    write_small_file,
 };
 pub(crate) use compile::{locked_partial, sweep_partials};
 pub use error::{INSTALL_HINT, TypesetError};
@@ -43,6 +45,7 @@ pub use locate::{
     PendingTypst, TYPST_ENV, TypstProgram, locate, locate_in, start_locate, start_locate_in,
 };
 pub use output::{Input, InputIndex, OutputRefused, check_emit_folder, check_output};
+pub use rows::{RowList, Rows};
 pub use sandbox::{EMIT_PREFIX, Sandbox, emit_source, emit_source_replacing};
 pub use template_env::{
     TemplateSource, TypstMarkup, refusal, template_environment, template_error_msg, typst_markup,

@@ -206,10 +206,19 @@ fn typst_content(value: Value) -> Value {
 /// counting every string in it (in lists and maps too, keys left out), so
 /// a template can tell a short table from one whose cells hold pages of
 /// text without laying it out. Numbers and other scalars count as their
-/// printed form.
+/// printed form. A table's [`Rows`](super::rows::Rows) bring the count
+/// with them, worked out from the Rust values the same way.
 fn text_length(value: Value) -> usize {
+    if let Some(rows) = value.downcast_object_ref::<super::rows::RowList>() {
+        return rows.text_length();
+    }
+    text_length_walk(&value)
+}
+
+/// The `text_length` filter's count, walking the template value.
+pub(crate) fn text_length_walk(value: &Value) -> usize {
     fn walk(value: &Value, depth: usize) -> usize {
-        if depth > 16 || value.is_none() || value.is_undefined() {
+        if depth > super::rows::MAX_DEPTH || value.is_none() || value.is_undefined() {
             return 0;
         }
         if let Some(text) = value.as_str() {
@@ -230,7 +239,7 @@ fn text_length(value: Value) -> usize {
             _ => value.to_string().chars().count(),
         }
     }
-    walk(&value, 0)
+    walk(value, 0)
 }
 
 /// Reads template `name` from `dir`, if the file exists there. Names must be

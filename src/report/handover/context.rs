@@ -24,6 +24,7 @@ use crate::calc::{
 use crate::catalogue::{Arg, Catalogue};
 use crate::job::{Job, ProtectionClass};
 use crate::shop::ShopProfile;
+use crate::typeset::Rows;
 
 use super::charges::{ChargesContext, charges_context};
 use super::shop_block::{AcceptanceBlock, ShopBlock, acceptance, paper};
@@ -316,18 +317,18 @@ pub struct SetContext {
     /// "0.968".
     pub factor: String,
     pub nominal: String,
-    pub nodes: Vec<NodeRow>,
-    pub valves: Vec<ValveRow>,
+    pub nodes: Rows<NodeRow>,
+    pub valves: Rows<ValveRow>,
     /// True when some valve's plate current includes its screen current.
     pub conservative: bool,
     /// How the idle currents were found, one line per method.
     pub methods: Vec<String>,
-    pub windows: Vec<WindowRow>,
-    pub resistors: Vec<ResistorRow>,
-    pub capacitors: Vec<CapacitorRow>,
+    pub windows: Rows<WindowRow>,
+    pub resistors: Rows<ResistorRow>,
+    pub capacitors: Rows<CapacitorRow>,
     /// A valve rectifier's load against its rating, where it can be judged.
     pub rectifier: Option<RectifierRow>,
-    pub heaters: Vec<HeaterRow>,
+    pub heaters: Rows<HeaterRow>,
     /// Droppers (`kind` "dropper") and filter capacitors (`kind`
     /// "filter capacitor") these readings cannot check, and why.
     pub not_checked: Vec<NotCheckedRow>,
@@ -1225,8 +1226,8 @@ fn set_context(
         mains: volts(set.mains_volts),
         factor: format!("{:.3}", set.correction_factor),
         nominal: volts(nominal),
-        nodes,
-        valves,
+        nodes: nodes.into(),
+        valves: valves.into(),
         conservative: set
             .valves
             .iter()

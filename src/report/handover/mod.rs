@@ -255,6 +255,9 @@ pub fn compile_command(dir: &Path, options: &CompileOptions, output: &Path) -> S
          --creation-timestamp {}",
         options.creation_timestamp()
     );
+    if let Some(threads) = options.threads {
+        cmd.push_str(&format!(" --jobs {threads}"));
+    }
     if let Some(standard) = &options.pdf_standard {
         cmd.push_str(&format!(" --pdf-standard {standard}"));
     }
@@ -929,6 +932,17 @@ mod tests {
             cmd,
             "typst compile --root /tmp/src --font-path /tmp/src/fonts --ignore-system-fonts --ignore-embedded-fonts \
              --creation-timestamp 1794182400 --pdf-standard a-2b /tmp/src/main.typ out.pdf"
+        );
+        // typst held to one thread (a batch's worker) shows it; the PDF is
+        // the same either way.
+        let held = CompileOptions {
+            threads: std::num::NonZeroUsize::new(1),
+            ..opts
+        };
+        assert!(
+            compile_command(Path::new("/s"), &held, Path::new("o.pdf")).contains(
+                " --creation-timestamp 1794182400 --jobs 1 --pdf-standard a-2b /s/main.typ"
+            )
         );
     }
 }

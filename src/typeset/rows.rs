@@ -1,0 +1,524 @@
+//! A table's rows for a template, carrying their own text length.
+//!
+//! Templates ask `{{ rows|text_length }}` of every table (the hand-over
+//! keeps a short table whole by its row count and characters). Walking
+//! the rows through minijinja's values for that is slow: a row made from
+//! a Rust struct is a map whose every field is found by comparing its name
+//! with each name before it, so a long job paid for each of its thousands
+//! of rows twice. A [`Rows`] list works its length out from the Rust values
+//! while they become template values, with the same count the filter's
+//! walk gives (every string's characters, numbers and other scalars as
+//! they print, map keys left out), and the `text_length` filter reads it.
+//! For templates it is an ordinary list: it loops, has a `length`, is
+//! false when empty, and can be indexed and filtered.
+
+use std::ops::{Deref, DerefMut};
+use std::sync::Arc;
+
+use minijinja::value::{Enumerator, Object, ObjectRepr, Value};
+use serde::ser::{self, Serialize, Serializer};
+
+/// A table's rows. Dereferences to the `Vec` of rows; serialized for a
+/// template it is a list of the rows that knows its text length, and
+/// serialized anywhere else it is the plain list.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Rows<T>(pub Vec<T>);
+
+impl<T> Default for Rows<T> {
+    fn default() -> Self {
+        Rows(Vec::new())
+    }
+}
+
+impl<T> Deref for Rows<T> {
+    type Target = Vec<T>;
+    fn deref(&self) -> &Vec<T> {
+        &self.0
+    }
+}
+
+impl<T> DerefMut for Rows<T> {
+    fn deref_mut(&mut self) -> &mut Vec<T> {
+        &mut self.0
+    }
+}
+
+impl<T> From<Vec<T>> for Rows<T> {
+    fn from(rows: Vec<T>) -> Self {
+        Rows(rows)
+    }
+}
+
+impl<T> FromIterator<T> for Rows<T> {
+    fn from_iter<I: IntoIterator<Item = T>>(iter: I) -> Self {
+        Rows(iter.into_iter().collect())
+    }
+}
+
+impl<'a, T> IntoIterator for &'a Rows<T> {
+    type Item = &'a T;
+    type IntoIter = std::slice::Iter<'a, T>;
+    fn into_iter(self) -> Self::IntoIter {
+        self.0.iter()
+    }
+}
+
+impl<T: Serialize> Serialize for Rows<T> {
+    fn serialize<S: Serializer>(&self, serializer: S) -> Result<S::Ok, S::Error> {
+        if !minijinja::value::serializing_for_value() {
+            return self.0.serialize(serializer);
+        }
+        // The walk of the filter starts at the list (depth 0), so each row
+        // is at depth 1.
+        let text_length = self
+            .0
+            .iter()
+            .map(|row| row.serialize(Counter { depth: 1 }).unwrap_or(0))
+            .sum();
+        let rows = self.0.iter().map(Value::from_serialize).collect();
+        Value::from_object(RowList { rows, text_length }).serialize(serializer)
+    }
+}
+
+/// The template value of [`Rows`].
+#[derive(Debug)]
+pub struct RowList {
+    rows: Vec<Value>,
+    text_length: usize,
+}
+
+impl RowList {
+    /// What the `text_length` filter gives for the list.
+    pub fn text_length(&self) -> usize {
+        self.text_length
+    }
+}
+
+impl Object for RowList {
+    fn repr(self: &Arc<Self>) -> ObjectRepr {
+        ObjectRepr::Seq
+    }
+
+    fn get_value(self: &Arc<Self>, key: &Value) -> Option<Value> {
+        self.rows.get(key.as_usize()?).cloned()
+    }
+
+    fn enumerate(self: &Arc<Self>) -> Enumerator {
+        Enumerator::Seq(self.rows.len())
+    }
+}
+
+/// The deepest level the filter's walk counts (`text_length` in
+/// `template_env.rs`).
+pub(crate) const MAX_DEPTH: usize = 16;
+
+/// Counts the characters of text a value holds, as the `text_length`
+/// filter would in the template value the value becomes.
+struct Counter {
+    depth: usize,
+}
+
+/// A scalar's characters as it prints in a template.
+fn printed(value: Value) -> usize {
+    value.to_string().chars().count()
+}
+
+#[derive(Debug)]
+struct Never;
+
+impl std::fmt::Display for Never {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        f.write_str("cannot count")
+    }
+}
+
+impl std::error::Error for Never {}
+
+impl ser::Error for Never {
+    fn custom<M: std::fmt::Display>(_msg: M) -> Self {
+        Never
+    }
+}
+
+/// The sum over the items of a list or map, each one level deeper.
+struct Sum {
+    depth: usize,
+    total: usize,
+}
+
+impl Sum {
+    fn add<V: Serialize + ?Sized>(&mut self, value: &V) -> Result<(), Never> {
+        self.total += value.serialize(Counter {
+            depth: self.depth + 1,
+        })?;
+        Ok(())
+    }
+}
+
+impl Counter {
+    fn leaf(&self, n: usize) -> Result<usize, Never> {
+        Ok(if self.depth > MAX_DEPTH { 0 } else { n })
+    }
+
+    fn sum(self) -> Sum {
+        Sum {
+            depth: self.depth,
+            total: 0,
+        }
+    }
+}
+
+impl Serializer for Counter {
+    type Ok = usize;
+    type Error = Never;
+    type SerializeSeq = Sum;
+    type SerializeTuple = Sum;
+    type SerializeTupleStruct = Sum;
+    type SerializeTupleVariant = Sum;
+    type SerializeMap = Sum;
+    type SerializeStruct = Sum;
+    type SerializeStructVariant = Sum;
+
+    fn serialize_bool(self, v: bool) -> Result<usize, Never> {
+        self.leaf(printed(Value::from(v)))
+    }
+    fn serialize_i8(self, v: i8) -> Result<usize, Never> {
+        self.leaf(printed(Value::from(v)))
+    }
+    fn serialize_i16(self, v: i16) -> Result<usize, Never> {
+        self.leaf(printed(Value::from(v)))
+    }
+    fn serialize_i32(self, v: i32) -> Result<usize, Never> {
+        self.leaf(printed(Value::from(v)))
+    }
+    fn serialize_i64(self, v: i64) -> Result<usize, Never> {
+        self.leaf(printed(Value::from(v)))
+    }
+    fn serialize_i128(self, v: i128) -> Result<usize, Never> {
+        self.leaf(printed(Value::from(v)))
+    }
+    fn serialize_u8(self, v: u8) -> Result<usize, Never> {
+        self.leaf(printed(Value::from(v)))
+    }
+    fn serialize_u16(self, v: u16) -> Result<usize, Never> {
+        self.leaf(printed(Value::from(v)))
+    }
+    fn serialize_u32(self, v: u32) -> Result<usize, Never> {
+        self.leaf(printed(Value::from(v)))
+    }
+    fn serialize_u64(self, v: u64) -> Result<usize, Never> {
+        self.leaf(printed(Value::from(v)))
+    }
+    fn serialize_u128(self, v: u128) -> Result<usize, Never> {
+        self.leaf(printed(Value::from(v)))
+    }
+    fn serialize_f32(self, v: f32) -> Result<usize, Never> {
+        self.leaf(printed(Value::from(v)))
+    }
+    fn serialize_f64(self, v: f64) -> Result<usize, Never> {
+        self.leaf(printed(Value::from(v)))
+    }
+    fn serialize_char(self, _v: char) -> Result<usize, Never> {
+        self.leaf(1)
+    }
+    fn serialize_str(self, v: &str) -> Result<usize, Never> {
+        self.leaf(v.chars().count())
+    }
+    fn serialize_bytes(self, v: &[u8]) -> Result<usize, Never> {
+        self.leaf(printed(Value::from_bytes(v.to_vec())))
+    }
+    fn serialize_none(self) -> Result<usize, Never> {
+        Ok(0)
+    }
+    fn serialize_some<V: Serialize + ?Sized>(self, value: &V) -> Result<usize, Never> {
+        value.serialize(self)
+    }
+    fn serialize_unit(self) -> Result<usize, Never> {
+        Ok(0)
+    }
+    fn serialize_unit_struct(self, _name: &'static str) -> Result<usize, Never> {
+        Ok(0)
+    }
+    fn serialize_unit_variant(
+        self,
+        _name: &'static str,
+        _index: u32,
+        variant: &'static str,
+    ) -> Result<usize, Never> {
+        self.leaf(variant.chars().count())
+    }
+    fn serialize_newtype_struct<V: Serialize + ?Sized>(
+        self,
+        _name: &'static str,
+        value: &V,
+    ) -> Result<usize, Never> {
+        value.serialize(self)
+    }
+    fn serialize_newtype_variant<V: Serialize + ?Sized>(
+        self,
+        _name: &'static str,
+        _index: u32,
+        _variant: &'static str,
+        value: &V,
+    ) -> Result<usize, Never> {
+        // A map of the variant's name to the value.
+        if self.depth > MAX_DEPTH {
+            return Ok(0);
+        }
+        value.serialize(Counter {
+            depth: self.depth + 1,
+        })
+    }
+    fn serialize_seq(self, _len: Option<usize>) -> Result<Sum, Never> {
+        Ok(self.sum())
+    }
+    fn serialize_tuple(self, _len: usize) -> Result<Sum, Never> {
+        Ok(self.sum())
+    }
+    fn serialize_tuple_struct(self, _name: &'static str, _len: usize) -> Result<Sum, Never> {
+        Ok(self.sum())
+    }
+    fn serialize_tuple_variant(
+        self,
+        _name: &'static str,
+        _index: u32,
+        _variant: &'static str,
+        _len: usize,
+    ) -> Result<Sum, Never> {
+        // A map of the variant's name to the list: one level more.
+        Ok(Sum {
+            depth: self.depth + 1,
+            total: 0,
+        })
+    }
+    fn serialize_map(self, _len: Option<usize>) -> Result<Sum, Never> {
+        Ok(self.sum())
+    }
+    fn serialize_struct(self, _name: &'static str, _len: usize) -> Result<Sum, Never> {
+        Ok(self.sum())
+    }
+    fn serialize_struct_variant(
+        self,
+        _name: &'static str,
+        _index: u32,
+        _variant: &'static str,
+        _len: usize,
+    ) -> Result<Sum, Never> {
+        Ok(Sum {
+            depth: self.depth + 1,
+            total: 0,
+        })
+    }
+}
+
+impl Sum {
+    /// The total, or nothing when the container itself lies past the
+    /// deepest level counted.
+    fn total(self) -> usize {
+        if self.depth > MAX_DEPTH {
+            0
+        } else {
+            self.total
+        }
+    }
+}
+
+impl ser::SerializeSeq for Sum {
+    type Ok = usize;
+    type Error = Never;
+    fn serialize_element<V: Serialize + ?Sized>(&mut self, value: &V) -> Result<(), Never> {
+        self.add(value)
+    }
+    fn end(self) -> Result<usize, Never> {
+        Ok(self.total())
+    }
+}
+
+impl ser::SerializeTuple for Sum {
+    type Ok = usize;
+    type Error = Never;
+    fn serialize_element<V: Serialize + ?Sized>(&mut self, value: &V) -> Result<(), Never> {
+        self.add(value)
+    }
+    fn end(self) -> Result<usize, Never> {
+        Ok(self.total())
+    }
+}
+
+impl ser::SerializeTupleStruct for Sum {
+    type Ok = usize;
+    type Error = Never;
+    fn serialize_field<V: Serialize + ?Sized>(&mut self, value: &V) -> Result<(), Never> {
+        self.add(value)
+    }
+    fn end(self) -> Result<usize, Never> {
+        Ok(self.total())
+    }
+}
+
+impl ser::SerializeTupleVariant for Sum {
+    type Ok = usize;
+    type Error = Never;
+    fn serialize_field<V: Serialize + ?Sized>(&mut self, value: &V) -> Result<(), Never> {
+        self.add(value)
+    }
+    fn end(self) -> Result<usize, Never> {
+        Ok(self.total())
+    }
+}
+
+impl ser::SerializeMap for Sum {
+    type Ok = usize;
+    type Error = Never;
+    fn serialize_key<K: Serialize + ?Sized>(&mut self, _key: &K) -> Result<(), Never> {
+        Ok(())
+    }
+    fn serialize_value<V: Serialize + ?Sized>(&mut self, value: &V) -> Result<(), Never> {
+        self.add(value)
+    }
+    fn end(self) -> Result<usize, Never> {
+        Ok(self.total())
+    }
+}
+
+impl ser::SerializeStruct for Sum {
+    type Ok = usize;
+    type Error = Never;
+    fn serialize_field<V: Serialize + ?Sized>(
+        &mut self,
+        _key: &'static str,
+        value: &V,
+    ) -> Result<(), Never> {
+        self.add(value)
+    }
+    fn end(self) -> Result<usize, Never> {
+        Ok(self.total())
+    }
+}
+
+impl ser::SerializeStructVariant for Sum {
+    type Ok = usize;
+    type Error = Never;
+    fn serialize_field<V: Serialize + ?Sized>(
+        &mut self,
+        _key: &'static str,
+        value: &V,
+    ) -> Result<(), Never> {
+        self.add(value)
+    }
+    fn end(self) -> Result<usize, Never> {
+        Ok(self.total())
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::typeset::template_env::text_length_walk;
+
+    #[derive(serde::Serialize, Clone)]
+    struct Row {
+        name: String,
+        value: Option<String>,
+        missing: Option<String>,
+        count: u32,
+        ratio: f64,
+        whole: f64,
+        flag: bool,
+        list: Vec<String>,
+        inner: Inner,
+        kind: Kind,
+        wrapped: Wrap,
+    }
+
+    #[derive(serde::Serialize, Clone)]
+    struct Inner {
+        a: String,
+        b: Vec<Vec<String>>,
+    }
+
+    #[derive(serde::Serialize, Clone)]
+    #[allow(dead_code)]
+    enum Kind {
+        Plain,
+        Carrying(String),
+    }
+
+    #[derive(serde::Serialize, Clone)]
+    struct Wrap(String);
+
+    fn row(i: usize) -> Row {
+        Row {
+            name: format!("V{i} “quoted” ünïcödé {}", "x".repeat(i % 7)),
+            value: (i % 2 == 0).then(|| format!("{i}.5 V")),
+            missing: None,
+            count: i as u32 * 37,
+            ratio: i as f64 / 3.0,
+            whole: 2.0,
+            flag: i % 3 == 0,
+            list: (0..i % 4).map(|k| format!("item {k}")).collect(),
+            inner: Inner {
+                a: "–".repeat(i),
+                b: vec![vec!["deep".into(); i % 3]; 2],
+            },
+            kind: if i % 2 == 0 {
+                Kind::Plain
+            } else {
+                Kind::Carrying(format!("carried {i}"))
+            },
+            wrapped: Wrap(format!("w{i}")),
+        }
+    }
+
+    #[test]
+    fn the_length_carried_is_the_filters_walk_of_the_same_rows() {
+        for n in [0, 1, 2, 5, 17] {
+            let rows: Vec<Row> = (0..n).map(row).collect();
+            let walked = text_length_walk(&Value::from_serialize(&rows));
+            let value = Value::from_serialize(Rows(rows.clone()));
+            let list = value
+                .downcast_object_ref::<RowList>()
+                .expect("rows become a row list");
+            assert_eq!(list.text_length(), walked, "{n} rows");
+            assert!(walked > 0 || n == 0);
+        }
+    }
+
+    #[test]
+    fn rows_deep_inside_are_counted_as_the_walk_counts_them() {
+        // Nested lists past the walk's deepest level count nothing.
+        let mut deep = serde_json::json!("bottom text");
+        for _ in 0..20 {
+            deep = serde_json::json!([deep, "level"]);
+        }
+        let rows = vec![deep.clone(), deep];
+        let walked = text_length_walk(&Value::from_serialize(&rows));
+        let value = Value::from_serialize(Rows(rows));
+        let list = value.downcast_object_ref::<RowList>().unwrap();
+        assert_eq!(list.text_length(), walked);
+    }
+
+    #[test]
+    fn a_template_sees_an_ordinary_list() {
+        let env = minijinja::Environment::new();
+        let rows: Rows<Row> = (0..3).map(row).collect();
+        let empty: Rows<Row> = Rows::default();
+        let ctx = minijinja::context! { rows => Value::from_serialize(&rows), empty => Value::from_serialize(&empty) };
+        let out = env
+            .render_str(
+                "{{ rows|length }} {% for r in rows %}{{ r.count }},{% endfor %} {{ rows[1].name }} {% if empty %}full{% else %}empty{% endif %} {{ rows|map(attribute='count')|join('+') }} {{ rows|selectattr('flag')|list|length }}",
+                ctx,
+            )
+            .unwrap();
+        assert_eq!(out, format!("3 0,37,74, {} empty 0+37+74 1", row(1).name));
+    }
+
+    #[test]
+    fn outside_a_template_it_is_the_plain_list() {
+        let rows: Rows<Row> = (0..2).map(row).collect();
+        assert_eq!(
+            serde_json::to_value(&rows).unwrap(),
+            serde_json::to_value(&rows.0).unwrap()
+        );
+    }
+}
