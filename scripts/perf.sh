@@ -3,10 +3,10 @@
 # side in one run (never by timed tests). Usage:
 #
 #   bash scripts/perf.sh template [PAIRS]   typst on the new emitted source against the old template's
-#   bash scripts/perf.sh overhead [PAIRS]   render against bare typst on its own emitted source
+#   bash scripts/perf.sh overhead [PAIRS]   render against bare typst on its own emitted source (OLD_BIN=PATH: and the previous binary's render, in the same rounds; PIN_CPU=N: all on one core)
 #   bash scripts/perf.sh size [SETS...]     typst time and memory per measurement set (generated jobs)
 #   bash scripts/perf.sh own [SETS]         ampreport's own work on a generated job (no typst)
-#   bash scripts/perf.sh batch [JOBS]       -j 1 against -j 2 over demo-sized jobs (and with typst --jobs 1)
+#   bash scripts/perf.sh batch [JOBS] [ROUNDS]  -j 1 against -j 2 over demo-sized jobs, alternating (OLD_BIN: its -j 2 too)
 #   bash scripts/perf.sh ceiling [ROUNDS]   what two cores give this machine: one stream of work against two side by side
 #   bash scripts/perf.sh noop [JOBS]        a second pass over unchanged jobs
 #   bash scripts/perf.sh watch [SAVES]      save-to-PDF time of `watch` against typst's compile time
@@ -89,6 +89,26 @@ alternate() {
     done
 }
 
+# Runs the commands (functions) $2 … in rounds, $1 rounds, each round
+# starting one further along (ABC, BCA, CAB …) so a slow patch of the
+# machine hits every side: the wall-clock milliseconds of the Nth command
+# (from 0) in $work/sN, its processor milliseconds in $work/sN.cpu.
+rotate() {
+    local rounds="$1"
+    shift
+    local sides=("$@") n=$# i k j
+    for ((k = 0; k < n; k++)); do
+        : >"$work/s$k"
+        : >"$work/s$k.cpu"
+    done
+    for ((i = 0; i < rounds; i++)); do
+        for ((j = 0; j < n; j++)); do
+            k=$(((i + j) % n))
+            cpu_ms "$work/s$k" "${sides[$k]}" >>"$work/s$k.cpu"
+        done
+    done
+}
+
 # "x/y" to two places.
 ratio() { awk -v a="$1" -v b="$2" 'BEGIN { printf "%.2f", a / b }'; }
 
@@ -117,6 +137,15 @@ compile() {
     cmd[0]="$typst"
     cmd[${#cmd[@]} - 1]="$out"
     "${cmd[@]}"
+}
+
+# [`compile`] on the one core PIN_CPU names.
+pinned_compile() {
+    local dir="$1" out="$2"
+    read -ra cmd <"$dir.cmd"
+    cmd[0]="$typst"
+    cmd[${#cmd[@]} - 1]="$out"
+    taskset -c "$PIN_CPU" "${cmd[@]}"
 }
 
 # "seconds maxrss_kib cpu_seconds" of one command, from GNU time.
@@ -163,13 +192,39 @@ template)
 overhead)
     pairs="${1:-11}"
     load
-    echo "job | render ms | bare typst ms | render/typst | render CPU ms | typst CPU ms | CPU render/typst"
+    # PIN_CPU=N runs every side on that one core (taskset), as the
+    # target was first measured: typst's idle threads then cannot spin on
+    # the other core, which makes its processor time swing with the load.
+    pin=""
+    pin_compile=compile
+    if [ -n "${PIN_CPU:-}" ]; then
+        pin="taskset -c $PIN_CPU"
+        pin_compile="pinned_compile"
+        echo "# every side pinned to core $PIN_CPU"
+    fi
+    if [ -n "${OLD_BIN:-}" ]; then
+        # The previous binary's render as a third side, in the same rounds.
+        echo "job | render ms | bare typst ms | render/typst | render CPU ms | typst CPU ms | CPU render/typst | old render CPU ms | old CPU render/typst | own CPU ms new (old)"
+    else
+        echo "job | render ms | bare typst ms | render/typst | render CPU ms | typst CPU ms | CPU render/typst"
+    fi
     for job in jobs/*.kdl; do
         name=$(basename "$job" .kdl)
         [ "$name" = shop ] && continue
         emit "$job" "$work/new" new
-        render_side() { "$bin" render "$job" -o "$work/r.pdf" --force; }
-        typst_side() { compile "$work/new" "$work/t.pdf"; }
+        render_side() { $pin "$bin" render "$job" -o "$work/r.pdf" --force; }
+        typst_side() { $pin_compile "$work/new" "$work/t.pdf"; }
+        if [ -n "${OLD_BIN:-}" ]; then
+            old_side() { $pin "$OLD_BIN" render "$job" -o "$work/o.pdf" --force; }
+            rotate "$pairs" render_side typst_side old_side
+            a=$(median <"$work/s0")
+            b=$(median <"$work/s1")
+            ac=$(median <"$work/s0.cpu")
+            bc=$(median <"$work/s1.cpu")
+            oc=$(median <"$work/s2.cpu")
+            echo "$name | $a | $b | $(ratio "$a" "$b") | $ac | $bc | $(ratio "$ac" "$bc") | $oc | $(ratio "$oc" "$bc") | $((ac - bc)) ($((oc - bc)))"
+            continue
+        fi
         alternate "$pairs" render_side typst_side
         a=$(median <"$work/a")
         b=$(median <"$work/b")
@@ -221,11 +276,14 @@ own)
     ;;
 batch)
     # -j 1 against -j 2 over the same jobs, each run with every PDF
-    # rendered (--force), in the order 1, 2, 2, 1, 1, 2 so a change of load
-    # hits both. The middle pair has typst held to one thread of its own
-    # (`typst compile --jobs 1`, through a wrapper), which may suit several
-    # typst processes side by side better.
+    # rendered (--force), ROUNDS rounds in turn, the order of each round
+    # the reverse of the one before (1 2, 2 1, 1 2 …) so a change of load
+    # hits both. ampreport holds each typst to its share of the cores
+    # itself at -j 2 (typst --jobs 1 on 2 cores) and leaves typst its
+    # default at -j 1. With OLD_BIN naming an earlier ampreport, its -j 2
+    # runs in each round too (one that passed typst no --jobs).
     jobs="${1:-200}"
+    rounds="${2:-3}"
     load
     mkdir -p "$work/batch"
     i=0
@@ -237,17 +295,33 @@ batch)
         done
     done
     cp -r jobs/shop.kdl jobs/larkmoor-logo.svg jobs/photos "$work/batch/"
-    real_typst=$(command -v "$typst")
-    printf '#!/bin/sh\nif [ "$1" = compile ]; then shift; exec %s compile --jobs 1 "$@"; fi\nexec %s "$@"\n' "'$real_typst'" "'$real_typst'" >"$work/typst-one-thread"
-    chmod +x "$work/typst-one-thread"
-    : >"$work/batch.wall"
-    for run in "1 $real_typst" "2 $real_typst" "2 $work/typst-one-thread" "1 $work/typst-one-thread" "1 $real_typst" "2 $real_typst"; do
-        read -r n t <<<"$run"
-        c=$(cpu_ms "$work/batch.wall" "$bin" render "$work/batch" -j "$n" --force --quiet --typst "$t")
-        how="as it comes"
-        [ "$t" = "$real_typst" ] || how="--jobs 1"
-        echo "-j $n, typst $how: $jobs jobs in $(tail -1 "$work/batch.wall") ms wall clock, $c ms of processor time"
+    runs=("1 $bin" "2 $bin")
+    [ -n "${OLD_BIN:-}" ] && runs+=("2 $OLD_BIN")
+    for r in $(seq "$rounds"); do
+        order=("${runs[@]}")
+        if [ $((r % 2)) = 0 ]; then
+            order=()
+            for ((k = ${#runs[@]} - 1; k >= 0; k--)); do order+=("${runs[$k]}"); done
+        fi
+        for run in "${order[@]}"; do
+            read -r n b <<<"$run"
+            label="j$n"
+            [ "$b" = "$bin" ] || label="old-j$n"
+            : >"$work/last.wall"
+            c=$(cpu_ms "$work/last.wall" "$b" render "$work/batch" -j "$n" --force --quiet)
+            w=$(cat "$work/last.wall")
+            echo "$w" >>"$work/$label.wall"
+            echo "$c" >>"$work/$label.cpu"
+            echo "round $r, $label: $jobs jobs in $w ms wall clock, $c ms of processor time ($(date -u +%H:%M:%S), load$(uptime | sed 's/.*load average://'))"
+        done
     done
+    j1=$(median <"$work/j1.wall")
+    j2=$(median <"$work/j2.wall")
+    echo "medians: -j 1 $j1 ms ($(median <"$work/j1.cpu") ms CPU), -j 2 $j2 ms ($(median <"$work/j2.cpu") ms CPU): -j 2 is $(ratio "$j1" "$j2") x as fast"
+    if [ -n "${OLD_BIN:-}" ]; then
+        o2=$(median <"$work/old-j2.wall")
+        echo "OLD_BIN -j 2: median $o2 ms ($(median <"$work/old-j2.cpu") ms CPU): $(ratio "$j1" "$o2") x as fast as -j 1"
+    fi
     echo "cores: $(nproc)"
     load
     ;;

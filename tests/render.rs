@@ -883,6 +883,91 @@ fn typst_threads_do_not_change_the_pdf() {
     }
 }
 
+/// typst's answer to `--version` is remembered only for the very program
+/// file that gave it: an entry in the cache folder is used while the file
+/// is as it was (shown by an entry edited to another version), and a
+/// program replaced by a rename or rewritten in place is asked again.
+/// `ampreport --version` always asks.
+#[test]
+fn a_replaced_typst_program_is_asked_its_version_again() {
+    let Some(version) = typst_version() else {
+        return;
+    };
+    let real = std::env::split_paths(&std::env::var_os("PATH").unwrap())
+        .map(|d| d.join("typst"))
+        .find(|p| p.is_file())
+        .unwrap();
+    let dir = tempfile::tempdir().unwrap();
+    let typst = dir.path().join("typst");
+    std::fs::copy(&real, &typst).unwrap();
+    let home = dir.path().join("cache-home");
+    let job = dir.path().join("broken.kdl");
+    std::fs::write(&job, "job-format 1\n").unwrap();
+    let run = |args: &[&str]| -> String {
+        let out = Command::new(BIN)
+            .args(args)
+            .env("AMPREPORT_TYPST", &typst)
+            .env("XDG_CACHE_HOME", &home)
+            .env("XDG_CONFIG_HOME", home.join("no-config-home"))
+            .output()
+            .unwrap();
+        format!(
+            "{}{}",
+            String::from_utf8_lossy(&out.stdout),
+            String::from_utf8_lossy(&out.stderr)
+        )
+    };
+    // The version a render takes, from its `--verbose` lines (the job is
+    // refused after typst is found, before anything is typeset).
+    let used = || -> String {
+        let said = run(&["render", "-v", job.to_str().unwrap()]);
+        said.lines()
+            .find_map(|l| l.strip_prefix("read: typst: "))
+            .and_then(|l| l.split_once("(version "))
+            .map(|(_, v)| v.trim_end_matches(')').to_owned())
+            .unwrap_or_else(|| panic!("{said}"))
+    };
+    let said = run(&["--version"]);
+    assert!(
+        said.contains(&format!("typst {version} at {}", typst.display())),
+        "{said}"
+    );
+    let entries = home.join("ampreport").join("typst");
+    let entry = || {
+        let found: Vec<PathBuf> = std::fs::read_dir(&entries)
+            .unwrap()
+            .map(|e| e.unwrap().path())
+            .collect();
+        assert_eq!(found.len(), 1, "one entry per program: {found:?}");
+        found[0].clone()
+    };
+    let forge = || {
+        let text = std::fs::read_to_string(entry()).unwrap();
+        let forged = text.replace(&format!("version {version}\n"), "version 0.15.99\n");
+        assert_ne!(text, forged, "{text}");
+        std::fs::write(entry(), forged).unwrap();
+    };
+    assert_eq!(used(), version);
+    forge();
+    assert_eq!(used(), "0.15.99", "the unchanged program's entry is used");
+    // Replaced by another file renamed over it.
+    let new = dir.path().join("typst.new");
+    std::fs::copy(&real, &new).unwrap();
+    std::fs::rename(&new, &typst).unwrap();
+    assert_eq!(used(), version, "replaced by a rename");
+    assert_eq!(used(), version);
+    // Rewritten in place, in a later tick of the file system's clock.
+    forge();
+    std::thread::sleep(std::time::Duration::from_millis(30));
+    std::fs::copy(&real, &typst).unwrap();
+    assert_eq!(used(), version, "rewritten in place");
+    // `ampreport --version` asks typst itself, and its answer is kept.
+    forge();
+    let said = run(&["--version"]);
+    assert!(said.contains(&format!("typst {version} at")), "{said}");
+    assert_eq!(used(), version);
+}
+
 #[test]
 fn fonts_from_the_user_cache_or_the_sandbox_give_identical_bytes() {
     if typst_version().is_none() {
@@ -906,15 +991,17 @@ fn fonts_from_the_user_cache_or_the_sandbox_give_identical_bytes() {
         assert_ok(&out, "render");
         std::fs::read(pdf).unwrap()
     };
-    // First run writes the cache (the fonts, and the job's two photos as
-    // prepared), the second uses it.
+    // First run writes the cache (the fonts, the job's two photos as
+    // prepared and typst's version), the second uses it.
     let first = run(&dir.path().join("a.pdf"), &home);
     let photos = home.join("ampreport").join("photos");
     assert_eq!(std::fs::read_dir(&photos).unwrap().count(), 2);
+    let versions = home.join("ampreport").join("typst");
+    assert_eq!(std::fs::read_dir(&versions).unwrap().count(), 1);
     let cached: Vec<PathBuf> = std::fs::read_dir(home.join("ampreport"))
         .unwrap()
         .map(|e| e.unwrap().path())
-        .filter(|p| *p != photos)
+        .filter(|p| *p != photos && *p != versions)
         .collect();
     assert_eq!(cached.len(), 1, "{cached:?}");
     let folder = &cached[0];

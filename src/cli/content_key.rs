@@ -159,29 +159,10 @@ impl RunKey {
 /// same tick of the file system's clock as the change before it (a few
 /// milliseconds), or a clock set back. Elsewhere the bytes are hashed.
 fn program_identity(path: &Path) -> Result<Vec<u8>, KeyError> {
-    #[cfg(unix)]
-    {
-        use std::os::unix::fs::MetadataExt;
-        let meta = std::fs::metadata(path).map_err(|source| KeyError {
-            path: path.to_path_buf(),
-            source,
-        })?;
-        let fields = [
-            meta.dev(),
-            meta.ino(),
-            meta.size(),
-            u64::from(meta.mode()),
-            meta.mtime() as u64,
-            meta.mtime_nsec() as u64,
-            meta.ctime() as u64,
-            meta.ctime_nsec() as u64,
-        ];
-        Ok(fields.iter().flat_map(|f| f.to_le_bytes()).collect())
-    }
-    #[cfg(not(unix))]
-    {
-        read(path)
-    }
+    crate::typeset::known_version::program_identity(path).map_err(|source| KeyError {
+        path: path.to_path_buf(),
+        source,
+    })
 }
 
 /// Every file under `dir` (relative paths); links and special files are

@@ -3,7 +3,9 @@
 //! `render` would use (found as `render` finds it: `AMPREPORT_TYPST`, else
 //! `typst` on `PATH`) with its version, or why there is none and how to
 //! install the tested one. Asking typst takes at most the typst time limit
-//! (`AMPREPORT_TIMEOUT`, default 120 seconds).
+//! (`AMPREPORT_TIMEOUT`, default 120 seconds). typst is always asked here,
+//! never answered from what was remembered (`typeset::known_version`),
+//! and its answer is kept for the renders after.
 
 use std::time::Duration;
 
@@ -31,7 +33,7 @@ pub fn run() -> Exit {
 
 /// The whole report, one fact a line.
 pub fn report(timeout: Duration) -> String {
-    let typst = match typeset::start_locate(None).finish_within(timeout) {
+    let typst = match typeset::start_locate_afresh(None).finish_within(timeout) {
         Ok(program) => {
             let mut line = format!("typst {} at {}", program.version, program.path.display());
             if let Some(warning) = program.version_warning() {

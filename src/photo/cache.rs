@@ -160,23 +160,7 @@ impl PhotoCache {
     /// `None` when it cannot be made, or when it is a link, not a folder,
     /// belongs to another user or may be written by others.
     pub fn in_root(root: &Path) -> Option<PhotoCache> {
-        let dir = root.join(FOLDER);
-        if std::fs::symlink_metadata(&dir).is_err() {
-            std::fs::create_dir_all(root).ok()?;
-            let mut builder = std::fs::DirBuilder::new();
-            #[cfg(unix)]
-            {
-                use std::os::unix::fs::DirBuilderExt;
-                builder.mode(0o700);
-            }
-            // Another run may make it at the same moment.
-            if let Err(e) = builder.create(&dir)
-                && e.kind() != std::io::ErrorKind::AlreadyExists
-            {
-                return None;
-            }
-        }
-        trusted_folder(&dir).then_some(PhotoCache { dir })
+        crate::folders::private_folder(root, FOLDER).map(|dir| PhotoCache { dir })
     }
 
     /// Where the entries are.
@@ -260,26 +244,6 @@ fn entry_name(key: &[u8; 32]) -> String {
 
 fn is_entry_name(name: &str) -> bool {
     name.len() == 64 && name.bytes().all(|b| b.is_ascii_hexdigit())
-}
-
-/// True when `dir` is a real folder (not a link) that only its owner,
-/// the user running this, may write to.
-fn trusted_folder(dir: &Path) -> bool {
-    let Ok(meta) = std::fs::symlink_metadata(dir) else {
-        return false;
-    };
-    if !meta.is_dir() {
-        return false;
-    }
-    #[cfg(unix)]
-    {
-        use std::os::unix::fs::MetadataExt;
-        // SAFETY: geteuid has no preconditions and touches no memory.
-        let me = unsafe { libc::geteuid() };
-        meta.uid() == me && meta.mode() & 0o022 == 0
-    }
-    #[cfg(not(unix))]
-    true
 }
 
 /// The bytes of the entry of `key`.

@@ -20,6 +20,7 @@ use std::time::Duration;
 use super::child::{Running, Stopped, status_words};
 use super::compile::DEFAULT_TIMEOUT;
 use super::error::TypesetError;
+use super::known_version;
 use super::version::{MAX_TYPST_EXCLUSIVE, MIN_TYPST, TypstVersion};
 use crate::catalogue::Msg;
 
@@ -76,38 +77,104 @@ pub fn locate_in(
     start_locate_in(explicit, env_value, path_var).finish()
 }
 
-/// A `typst --version` that is running, or the reason it could not start.
-/// Dropping it without [`finish`](PendingTypst::finish) ends the process.
-/// The program's path is absolute, so a relative `--typst ./wrapper` runs
-/// the same program whatever folder typst is later started in.
+/// A `typst --version` that is running, or its answer remembered from
+/// before, or the reason it could not start. Dropping it without
+/// [`finish`](PendingTypst::finish) ends the process. The program's path
+/// is absolute, so a relative `--typst ./wrapper` runs the same program
+/// whatever folder typst is later started in.
 #[derive(Debug)]
 pub struct PendingTypst {
     /// `None` only once [`PendingTypst::finish`] has taken it.
-    state: Option<Result<(PathBuf, Running), TypesetError>>,
+    state: Option<Result<(PathBuf, Asking), TypesetError>>,
+}
+
+/// How the version is being found out.
+#[derive(Debug)]
+enum Asking {
+    /// typst answered this before, and its file is as it was then
+    /// ([`known_version`]).
+    Known(TypstVersion),
+    /// typst is being asked; its answer is kept for the program file's
+    /// identity taken before it was asked (`None`: not to be kept), if the
+    /// file still has it afterwards.
+    Running(
+        Running,
+        Option<known_version::Identity>,
+        known_version::Keep,
+    ),
 }
 
 /// Finds typst like [`locate`] and starts `typst --version` without waiting
-/// for it. Every error (not found, not runnable, wrong answer, too old)
-/// is reported by [`PendingTypst::finish`].
+/// for it, unless this very program file answered before
+/// ([`known_version`]: in memory or the user's cache folder). Every error
+/// (not found, not runnable, wrong answer, too old) is reported by
+/// [`PendingTypst::finish`].
 pub fn start_locate(explicit: Option<&Path>) -> PendingTypst {
-    start_locate_in(
+    start_locate_keeping(
+        explicit,
+        std::env::var_os(TYPST_ENV).as_deref(),
+        std::env::var_os("PATH").as_deref(),
+        Some(known_version::Keep::user()),
+    )
+}
+
+/// [`start_locate`] that always asks typst, and keeps its answer for the
+/// renders after (what `ampreport --version` does).
+pub fn start_locate_afresh(explicit: Option<&Path>) -> PendingTypst {
+    let keep = known_version::Keep::user();
+    let state = find(
         explicit,
         std::env::var_os(TYPST_ENV).as_deref(),
         std::env::var_os("PATH").as_deref(),
     )
+    .and_then(|path| ask(path, keep));
+    PendingTypst { state: Some(state) }
 }
 
-/// [`start_locate`] with the environment passed in.
+/// [`start_locate`] with the environment passed in; always asks typst and
+/// remembers nothing.
 pub fn start_locate_in(
     explicit: Option<&Path>,
     env_value: Option<&OsStr>,
     path_var: Option<&OsStr>,
 ) -> PendingTypst {
-    let state = find(explicit, env_value, path_var).and_then(|path| {
-        let child = spawn_version(&path)?;
-        Ok((path, child))
+    start_locate_keeping(explicit, env_value, path_var, None)
+}
+
+/// [`start_locate_in`], recalling and keeping answers where `keep` says
+/// (`None`: always ask, keep nothing).
+pub fn start_locate_keeping(
+    explicit: Option<&Path>,
+    env_value: Option<&OsStr>,
+    path_var: Option<&OsStr>,
+    keep: Option<known_version::Keep>,
+) -> PendingTypst {
+    let state = find(explicit, env_value, path_var).and_then(|path| match keep {
+        None => {
+            let child = spawn_version(&path)?;
+            Ok((
+                path,
+                Asking::Running(child, None, known_version::Keep::Memory),
+            ))
+        }
+        Some(keep) => {
+            if let Some(id) = known_version::identity(&path)
+                && let Some(version) = known_version::recall(&id, &keep)
+            {
+                return Ok((path, Asking::Known(version)));
+            }
+            ask(path, keep)
+        }
     });
     PendingTypst { state: Some(state) }
+}
+
+/// Starts `path --version`, noting the program file's identity first so
+/// the answer can be kept.
+fn ask(path: PathBuf, keep: known_version::Keep) -> Result<(PathBuf, Asking), TypesetError> {
+    let id = known_version::identity(&path);
+    let child = spawn_version(&path)?;
+    Ok((path, Asking::Running(child, id, keep)))
 }
 
 impl PendingTypst {
@@ -119,11 +186,23 @@ impl PendingTypst {
 
     /// [`finish`](Self::finish), stopping typst after `timeout`.
     pub fn finish_within(mut self, timeout: Duration) -> Result<TypstProgram, TypesetError> {
-        let (path, child) = self
+        let (path, asking) = self
             .state
             .take()
             .expect("a pending typst is finished only once")?;
-        let version = read_version(&path, child, timeout)?;
+        let version = match asking {
+            Asking::Known(version) => version,
+            Asking::Running(child, before, keep) => {
+                let version = read_version(&path, child, timeout)?;
+                // Kept only if the file did not change while typst answered.
+                if let Some(before) = before
+                    && known_version::identity(&path).as_ref() == Some(&before)
+                {
+                    known_version::remember(&before, &version, &keep);
+                }
+                version
+            }
+        };
         if version < MIN_TYPST {
             return Err(TypesetError::TooOld {
                 path,

@@ -15,6 +15,7 @@ mod font_cache;
 mod fonts;
 mod inside;
 pub mod interrupt;
+pub mod known_version;
 mod leftovers;
 mod locate;
 mod output;
@@ -42,7 +43,8 @@ pub use fonts::{
 };
 pub use inside::{InsideError, read_inside, read_regular};
 pub use locate::{
-    PendingTypst, TYPST_ENV, TypstProgram, locate, locate_in, start_locate, start_locate_in,
+    PendingTypst, TYPST_ENV, TypstProgram, locate, locate_in, start_locate, start_locate_afresh,
+    start_locate_in, start_locate_keeping,
 };
 pub use output::{Input, InputIndex, OutputRefused, check_emit_folder, check_output};
 pub use rows::{RowList, Rows};

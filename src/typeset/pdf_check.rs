@@ -194,6 +194,76 @@ impl<'a> Pdf<'a> {
         self.document.get_pages().into_iter().collect()
     }
 
+    /// The pages the first page links to (its link annotations with a
+    /// destination in the document), as places in `pages`, in the order
+    /// of the links: where the hand-over document's first page says the
+    /// notice is.
+    fn linked_from_first_page(&mut self, pages: &[(u32, ObjectId)]) -> Vec<usize> {
+        let Some(&(_, first)) = pages.first() else {
+            return Vec::new();
+        };
+        let listed = match self.object(first).map(Object::as_dict) {
+            Some(Ok(page)) => page.get(b"Annots").ok().cloned(),
+            _ => None,
+        };
+        let listed = match listed {
+            Some(Object::Reference(id)) => self.object(id).cloned(),
+            other => other,
+        };
+        let mut annotations = Vec::new();
+        if let Some(Object::Array(items)) = &listed {
+            annotations.extend(items.iter().filter_map(|o| o.as_reference().ok()));
+        }
+        let mut linked = Vec::new();
+        for annotation in annotations {
+            let Some(Ok(link)) = self.object(annotation).map(Object::as_dict) else {
+                continue;
+            };
+            if !link
+                .get(b"Subtype")
+                .and_then(Object::as_name)
+                .is_ok_and(|n| n == b"Link")
+            {
+                continue;
+            }
+            let target = match link.get(b"Dest") {
+                Ok(dest) => dest.clone(),
+                Err(_) => match link.get(b"A").and_then(Object::as_dict) {
+                    Ok(action)
+                        if action
+                            .get(b"S")
+                            .and_then(Object::as_name)
+                            .is_ok_and(|n| n == b"GoTo") =>
+                    {
+                        match action.get(b"D") {
+                            Ok(dest) => dest.clone(),
+                            Err(_) => continue,
+                        }
+                    }
+                    _ => continue,
+                },
+            };
+            let target = match target {
+                Object::Reference(id) => match self.object(id) {
+                    Some(object) => object.clone(),
+                    None => continue,
+                },
+                other => other,
+            };
+            let page = target
+                .as_array()
+                .ok()
+                .and_then(|dest| dest.first())
+                .and_then(|p| p.as_reference().ok());
+            if let Some(place) = page.and_then(|page| pages.iter().position(|&(_, id)| id == page))
+                && !linked.contains(&place)
+            {
+                linked.push(place);
+            }
+        }
+        linked
+    }
+
     /// The text of page `number` (object `id`), as lopdf extracts it.
     fn page_text(&mut self, number: u32, id: ObjectId) -> String {
         let mut named = Vec::new();
@@ -290,30 +360,58 @@ fn dict_references(dict: &lopdf::Dictionary, out: &mut Vec<ObjectId>) {
     }
 }
 
+/// How many pages from one the first page links to are read for the
+/// phrases before the document is read from its end.
+const LINKED_PAGES_READ: usize = 2;
+
 /// The phrases of `required` that the document's text lacks. Text is
 /// compared without whitespace, so line breaks and the spacing a PDF puts
 /// between words do not matter.
 ///
-/// Pages are read from the last one back, and reading stops as soon as
-/// the text of the pages read so far (in page order) holds every phrase:
-/// a phrase found in the text of the last pages is found in the text of
-/// all of them, so the answer is the one reading every page gives, while
-/// a document whose notice sits near its end (as the hand-over
-/// document's does) is not read whole. Extracting a page's text is most
-/// of what the check costs.
+/// The phrases are looked for in the text of a run of consecutive pages,
+/// and a phrase found in the text of some consecutive pages is found in
+/// the text of all of them: so the answer is the one reading every page
+/// gives, while only the pages that hold them are read where that can be
+/// told. First the page the first page links to (the hand-over
+/// document's line naming the page of its notice) and the one after it
+/// are read; then, if the phrases are not all there, pages from the last
+/// one back, until the text of the pages read so far (in page order)
+/// holds every phrase. A document whose notice sits near its end is not
+/// read whole either way. Extracting a page's text is most of what the
+/// check costs.
 pub(crate) fn missing_phrases<'a>(document: &mut Pdf<'_>, required: &'a [String]) -> Vec<&'a str> {
     if required.is_empty() {
         return Vec::new();
     }
     let wanted: Vec<String> = required.iter().map(|p| squeeze(p)).collect();
+    let all_in = |text: &str| wanted.iter().all(|w| text.contains(w.as_str()));
     let pages = document.pages();
-    // The squeezed text of the pages read so far, last page first.
-    let mut read: Vec<String> = Vec::new();
+    // Each page's squeezed text, once read.
+    let mut read: Vec<Option<String>> = vec![None; pages.len()];
+    let mut text_of = |document: &mut Pdf<'_>, place: usize| -> String {
+        read[place]
+            .get_or_insert_with(|| {
+                let (number, id) = pages[place];
+                squeeze(&document.page_text(number, id))
+            })
+            .clone()
+    };
+    for start in document.linked_from_first_page(&pages) {
+        let mut text = String::new();
+        for place in start..(start + LINKED_PAGES_READ).min(pages.len()) {
+            text.push_str(&text_of(document, place));
+            if all_in(&text) {
+                return Vec::new();
+            }
+        }
+    }
+    // The text of the pages read from the end, last page first.
+    let mut from_end: Vec<String> = Vec::new();
     let mut text = String::new();
-    for &(number, id) in pages.iter().rev() {
-        read.push(squeeze(&document.page_text(number, id)));
-        text = read.iter().rev().map(String::as_str).collect();
-        if wanted.iter().all(|w| text.contains(w.as_str())) {
+    for place in (0..pages.len()).rev() {
+        from_end.push(text_of(document, place));
+        text = from_end.iter().rev().map(String::as_str).collect();
+        if all_in(&text) {
             return Vec::new();
         }
     }
@@ -341,6 +439,12 @@ mod tests {
     /// inherits it from, and each page's content is an array of two
     /// streams, the second with its length in an object of its own.
     fn pdf(pages: &[&[&str]]) -> Document {
+        pdf_linking(pages, None)
+    }
+
+    /// [`pdf`], its first page linking to page `link` (counted from 0),
+    /// as the hand-over document's first page links to its notice.
+    fn pdf_linking(pages: &[&[&str]], link: Option<usize>) -> Document {
         use lopdf::content::{Content, Operation};
         use lopdf::{Stream, dictionary};
         let mut doc = Document::with_version("1.7");
@@ -380,6 +484,27 @@ mod tests {
                 "MediaBox" => vec![0.into(), 0.into(), 595.into(), 842.into()],
             });
             kids.push(page_id.into());
+        }
+        if let Some(target) = link {
+            let dest = doc.add_object(vec![
+                kids[target].clone(),
+                "XYZ".into(),
+                0.into(),
+                800.into(),
+                Object::Null,
+            ]);
+            let url = doc.add_object(dictionary! {
+                "Type" => "Annot", "Subtype" => "Link", "Rect" => vec![0.into(), 0.into(), 9.into(), 9.into()],
+                "A" => dictionary! { "S" => "URI", "URI" => Object::string_literal("https://example.invalid") },
+            });
+            let annotation = doc.add_object(dictionary! {
+                "Type" => "Annot", "Subtype" => "Link", "Rect" => vec![0.into(), 0.into(), 9.into(), 9.into()],
+                "Dest" => dest,
+            });
+            let first = kids[0].as_reference().unwrap();
+            doc.get_dictionary_mut(first)
+                .unwrap()
+                .set("Annots", vec![url.into(), annotation.into()]);
         }
         let count = kids.len() as i64;
         doc.objects.insert(
@@ -439,6 +564,71 @@ mod tests {
         );
         // Out of page order is not found.
         assert_eq!(missing(&["minutes.Filter"]), ["minutes.Filter"]);
+    }
+
+    /// Whether the content of page `place` (from 0) was parsed.
+    fn content_read(pdf: &mut Pdf<'_>, place: usize) -> bool {
+        let (_, id) = pdf.pages()[place];
+        let contents = pdf.document.get_page_contents(id);
+        contents
+            .iter()
+            .all(|id| pdf.document.objects.contains_key(id))
+    }
+
+    #[test]
+    fn the_page_the_first_page_links_to_is_read_first_and_the_answer_stays_exact() {
+        let notice: &[&str] = &[
+            "MAINS SAFETY",
+            "Deadly voltages.",
+            "Local codes come first.",
+        ];
+        let pages = |at: usize| -> Vec<&[&str]> {
+            (0..6)
+                .map(|i| if i == at { notice } else { &["Figures."][..] })
+                .collect()
+        };
+        let wanted: Vec<String> = ["MAINS SAFETY", "Local codes come first."]
+            .iter()
+            .map(|s| s.to_string())
+            .collect();
+        // The notice on the third page of six, linked from the first:
+        // only the first page's links and the notice's page are read.
+        let file = bytes(pdf_linking(&pages(2), Some(2)));
+        let mut doc = incomplete(&file).unwrap();
+        assert_eq!(doc.linked_from_first_page(&doc.pages()), [2]);
+        assert!(missing_phrases(&mut doc, &wanted).is_empty());
+        assert!(content_read(&mut doc, 2));
+        for place in [1, 3, 4, 5] {
+            assert!(!content_read(&mut doc, place), "page {place} read");
+        }
+        // A link to somewhere else: the pages are then read from the end
+        // back to the notice, and it is still found.
+        let file = bytes(pdf_linking(&pages(4), Some(1)));
+        let mut doc = incomplete(&file).unwrap();
+        assert!(missing_phrases(&mut doc, &wanted).is_empty());
+        // The notice split over the linked page and the next one.
+        let split: Vec<&[&str]> = vec![
+            &["Figures."],
+            &["MAINS SAFETY"],
+            &["Local codes come first."],
+            &["The end."],
+        ];
+        let file = bytes(pdf_linking(&split, Some(1)));
+        let mut doc = incomplete(&file).unwrap();
+        assert!(missing_phrases(&mut doc, &wanted).is_empty());
+        assert!(!content_read(&mut doc, 3));
+        // A linked page without the notice, nor any other: the missing
+        // phrase is named, as reading every page names it.
+        let file = bytes(pdf_linking(&pages(9), Some(3)));
+        let mut doc = incomplete(&file).unwrap();
+        assert_eq!(missing_phrases(&mut doc, &wanted), wanted);
+        let without_closing: Vec<&[&str]> = vec![&["Figures."], &["MAINS SAFETY"], &["The end."]];
+        let file = bytes(pdf_linking(&without_closing, Some(1)));
+        let mut doc = incomplete(&file).unwrap();
+        assert_eq!(
+            missing_phrases(&mut doc, &wanted),
+            ["Local codes come first."]
+        );
     }
 
     #[test]
@@ -603,7 +793,25 @@ mod tests {
             assert!(text.len() >= 5, "{name}: {} pages", text.len());
             assert_eq!(read(&mut by_table), text, "{name}");
             let required = handover::notice_phrases(crate::catalogue::Catalogue::english());
-            assert!(missing_phrases(&mut incomplete(&file).unwrap(), &required).is_empty());
+            let mut checked = incomplete(&file).unwrap();
+            assert!(missing_phrases(&mut checked, &required).is_empty());
+            // The first page links to the notice's page, and that page is
+            // all the check read of the pages after the first.
+            let pages = checked.pages();
+            let linked = checked.linked_from_first_page(&pages);
+            assert_eq!(linked.len(), 1, "{name}");
+            let notice = text
+                .iter()
+                .position(|(_, t)| squeeze(t).contains(&squeeze(&required[0])))
+                .unwrap();
+            assert_eq!(linked[0], notice, "{name}");
+            for place in 1..pages.len() {
+                assert_eq!(
+                    content_read(&mut checked, place),
+                    place == notice,
+                    "{name}: page {place}"
+                );
+            }
             // Only a small part of typst's objects is parsed for all that.
             assert!(
                 by_table.document.objects.len() * 5 < whole.document.objects.len(),
