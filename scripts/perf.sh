@@ -4,9 +4,10 @@
 #
 #   bash scripts/perf.sh template [PAIRS]   typst on the new emitted source against the old template's
 #   bash scripts/perf.sh overhead [PAIRS]   render against bare typst on its own emitted source (OLD_BIN=PATH: and the previous binary's render, in the same rounds; PIN_CPU=N: all on one core)
+#   bash scripts/perf.sh overhead-own [ROUNDS]  render's own share, less the typst compile inside each render (OLD_BIN, PIN_CPU as above)
 #   bash scripts/perf.sh size [SETS...]     typst time and memory per measurement set (generated jobs)
 #   bash scripts/perf.sh own [SETS]         ampreport's own work on a generated job (no typst)
-#   bash scripts/perf.sh batch [JOBS] [ROUNDS]  -j 1 against -j 2 over demo-sized jobs, alternating (OLD_BIN: its -j 2 too)
+#   bash scripts/perf.sh batch [JOBS] [ROUNDS]  -j 1 against -j 2 over demo-sized jobs, alternating (and -j 2 with typst's own threads)
 #   bash scripts/perf.sh ceiling [ROUNDS]   what two cores give this machine: one stream of work against two side by side
 #   bash scripts/perf.sh noop [JOBS]        a second pass over unchanged jobs
 #   bash scripts/perf.sh watch [SAVES]      save-to-PDF time of `watch` against typst's compile time
@@ -233,6 +234,91 @@ overhead)
         echo "$name | $a | $b | $(ratio "$a" "$b") | $ac | $bc | $(ratio "$ac" "$bc")"
     done
     ;;
+overhead-own)
+    # ampreport's own share of each render with the real typst, from one
+    # run at a time: the render's processor time less that of the typst
+    # compile inside it (typst runs through a wrapper that notes its
+    # processor time from bash's `times`), so typst's swings between runs
+    # do not enter the difference. The wrapper's own start (about a
+    # millisecond) counts as ampreport's. OLD_BIN=PATH: the previous binary
+    # in the same rounds; PIN_CPU=N: everything on that core.
+    rounds="${1:-9}"
+    load
+    pin=""
+    [ -n "${PIN_CPU:-}" ] && pin="taskset -c $PIN_CPU" && echo "# every side pinned to core $PIN_CPU"
+    real=$(command -v "$typst")
+    # The wrapper: a small C program where a compiler is at hand (it
+    # waits for typst and notes its processor time from wait4, to the
+    # microsecond, and costs well under a millisecond); else a shell
+    # script noting `times`, whose own start (a few ms) and 10 ms steps
+    # then count against ampreport.
+    if command -v cc >/dev/null && cc -O2 -x c -o "$work/typst-timed" - <<EOF_C 2>/dev/null
+#include <stdio.h>
+#include <stdlib.h>
+#include <unistd.h>
+#include <sys/wait.h>
+#include <sys/resource.h>
+int main(int argc, char **argv) {
+    pid_t pid = fork();
+    if (pid == 0) { argv[0] = "$real"; execv(argv[0], argv); _exit(127); }
+    int status; struct rusage ru;
+    if (wait4(pid, &status, 0, &ru) < 0) return 1;
+    FILE *f = fopen("$work/typst.log", "a");
+    if (f) {
+        fprintf(f, "%s\\n%.3f\\n", argc > 1 ? argv[1] : "", (ru.ru_utime.tv_sec + ru.ru_stime.tv_sec) * 1000.0 + (ru.ru_utime.tv_usec + ru.ru_stime.tv_usec) / 1000.0);
+        fclose(f);
+    }
+    return WIFEXITED(status) ? WEXITSTATUS(status) : 1;
+}
+EOF_C
+    then
+        typst_ms() { awk 'prev == "compile" { s += $1 } { prev = $1 } END { printf "%d\n", s }' "$work/typst.log"; }
+    else
+        echo "# no C compiler: typst timed by a shell wrapper (its start counts as ampreport's)"
+        printf '#!/bin/sh\n"%s" "$@"\nrc=$?\n{ echo "$1"; times; } >>"%s"\nexit $rc\n' "$real" "$work/typst.log" >"$work/typst-timed"
+        chmod +x "$work/typst-timed"
+        # `times` in the wrapper's own shell: its own line, then typst's.
+        typst_ms() { awk '$1 == "compile" { c = NR + 2 } NR == c { for (i = 1; i <= 2; i++) { split($i, p, "m"); sub("s", "", p[2]); s += (p[1] * 60 + p[2]) * 1000 } } END { printf "%d\n", s }' "$work/typst.log"; }
+    fi
+    # One render with binary $1 of job $2: "own typst" ms.
+    own_of() {
+        : >"$work/typst.log"
+        local c
+        c=$(cpu_ms "$work/wall" $pin "$1" render "$2" -o "$work/r.pdf" --force --typst "$work/typst-timed")
+        local t
+        t=$(typst_ms)
+        echo "$((c - t)) $t"
+    }
+    if [ -n "${OLD_BIN:-}" ]; then
+        echo "job | own CPU ms | typst CPU ms | (typst + own)/typst | old: own CPU ms | old: typst CPU ms | old: (typst + own)/typst"
+    else
+        echo "job | own CPU ms | typst CPU ms | (typst + own)/typst"
+    fi
+    for job in jobs/*.kdl; do
+        name=$(basename "$job" .kdl)
+        [ "$name" = shop ] && continue
+        : >"$work/new.own"
+        : >"$work/old.own"
+        for i in $(seq "$rounds"); do
+            if [ -n "${OLD_BIN:-}" ] && [ $((i % 2)) = 0 ]; then
+                own_of "$OLD_BIN" "$job" >>"$work/old.own"
+            fi
+            own_of "$bin" "$job" >>"$work/new.own"
+            if [ -n "${OLD_BIN:-}" ] && [ $((i % 2)) = 1 ]; then
+                own_of "$OLD_BIN" "$job" >>"$work/old.own"
+            fi
+        done
+        no=$(cut -d' ' -f1 "$work/new.own" | median)
+        nt=$(cut -d' ' -f2 "$work/new.own" | median)
+        line="$name | $no | $nt | $(ratio "$(awk -v a="$nt" -v b="$no" 'BEGIN { print a + b }')" "$nt")"
+        if [ -n "${OLD_BIN:-}" ]; then
+            oo=$(cut -d' ' -f1 "$work/old.own" | median)
+            ot=$(cut -d' ' -f2 "$work/old.own" | median)
+            line="$line | $oo | $ot | $(ratio "$(awk -v a="$ot" -v b="$oo" 'BEGIN { print a + b }')" "$ot")"
+        fi
+        echo "$line"
+    done
+    ;;
 size)
     sets=("$@")
     [ ${#sets[@]} = 0 ] && sets=(10 30 100 300)
@@ -277,11 +363,12 @@ own)
 batch)
     # -j 1 against -j 2 over the same jobs, each run with every PDF
     # rendered (--force), ROUNDS rounds in turn, the order of each round
-    # the reverse of the one before (1 2, 2 1, 1 2 …) so a change of load
-    # hits both. ampreport holds each typst to its share of the cores
-    # itself at -j 2 (typst --jobs 1 on 2 cores) and leaves typst its
-    # default at -j 1. With OLD_BIN naming an earlier ampreport, its -j 2
-    # runs in each round too (one that passed typst no --jobs).
+    # the reverse of the one before (1 2 2*, 2* 2 1, …) so a change of load
+    # hits every kind of run. ampreport holds each typst to its share of
+    # the cores itself at -j 2 (typst --jobs 1 on 2 cores) and leaves typst
+    # its default at -j 1; the third kind of run (2*) is -j 2 with typst as
+    # it comes, through a wrapper that drops the --jobs ampreport passes,
+    # to show what holding typst to its share is worth.
     jobs="${1:-200}"
     rounds="${2:-3}"
     load
@@ -295,8 +382,10 @@ batch)
         done
     done
     cp -r jobs/shop.kdl jobs/larkmoor-logo.svg jobs/photos "$work/batch/"
-    runs=("1 $bin" "2 $bin")
-    [ -n "${OLD_BIN:-}" ] && runs+=("2 $OLD_BIN")
+    real_typst=$(command -v "$typst")
+    printf '#!/bin/sh\nskip=; for a in "$@"; do shift; if [ -n "$skip" ]; then skip=; continue; fi; if [ "$a" = --jobs ]; then skip=1; continue; fi; set -- "$@" "$a"; done\nexec %s "$@"\n' "'$real_typst'" >"$work/typst-as-it-comes"
+    chmod +x "$work/typst-as-it-comes"
+    runs=("j1 1 $real_typst" "j2 2 $real_typst" "j2-typst-default 2 $work/typst-as-it-comes")
     for r in $(seq "$rounds"); do
         order=("${runs[@]}")
         if [ $((r % 2)) = 0 ]; then
@@ -304,11 +393,9 @@ batch)
             for ((k = ${#runs[@]} - 1; k >= 0; k--)); do order+=("${runs[$k]}"); done
         fi
         for run in "${order[@]}"; do
-            read -r n b <<<"$run"
-            label="j$n"
-            [ "$b" = "$bin" ] || label="old-j$n"
+            read -r label n t <<<"$run"
             : >"$work/last.wall"
-            c=$(cpu_ms "$work/last.wall" "$b" render "$work/batch" -j "$n" --force --quiet)
+            c=$(cpu_ms "$work/last.wall" "$bin" render "$work/batch" -j "$n" --force --quiet --typst "$t")
             w=$(cat "$work/last.wall")
             echo "$w" >>"$work/$label.wall"
             echo "$c" >>"$work/$label.cpu"
@@ -317,11 +404,8 @@ batch)
     done
     j1=$(median <"$work/j1.wall")
     j2=$(median <"$work/j2.wall")
-    echo "medians: -j 1 $j1 ms ($(median <"$work/j1.cpu") ms CPU), -j 2 $j2 ms ($(median <"$work/j2.cpu") ms CPU): -j 2 is $(ratio "$j1" "$j2") x as fast"
-    if [ -n "${OLD_BIN:-}" ]; then
-        o2=$(median <"$work/old-j2.wall")
-        echo "OLD_BIN -j 2: median $o2 ms ($(median <"$work/old-j2.cpu") ms CPU): $(ratio "$j1" "$o2") x as fast as -j 1"
-    fi
+    d2=$(median <"$work/j2-typst-default.wall")
+    echo "medians: -j 1 $j1 ms ($(median <"$work/j1.cpu") ms CPU); -j 2 $j2 ms ($(median <"$work/j2.cpu") ms CPU), $(ratio "$j1" "$j2") x as fast; -j 2 with typst as it comes $d2 ms ($(median <"$work/j2-typst-default.cpu") ms CPU), $(ratio "$j1" "$d2") x"
     echo "cores: $(nproc)"
     load
     ;;

@@ -1,8 +1,10 @@
 //! Checking what typst wrote before it may replace anything: a complete PDF
-//! (it parses with `lopdf`, has at least one page and ends with `%%EOF`),
-//! and, when asked, text that must be on its pages (the mains-safety notice),
-//! so a template cannot leave it out, hide it behind `#if false` or rewrite
-//! it with a show rule.
+//! (it ends with `%%EOF`, `lopdf` reads its cross-reference table, every
+//! object the table lists begins where the table says, and it has at least
+//! one page), and, when asked, text that must be on its pages (the
+//! mains-safety notice), so a template cannot leave it out, hide it behind
+//! `#if false` or rewrite it with a show rule. Only the objects the page
+//! tree and the pages read need are parsed ([`Pdf`]).
 
 use std::collections::{BTreeMap, HashSet};
 
