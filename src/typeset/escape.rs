@@ -197,6 +197,45 @@ pub fn escape_string(text: &str) -> String {
     out
 }
 
+/// Makes `text` a Typst expression for content in code position (a table
+/// cell, a function's argument) that prints exactly what the content block
+/// `[` + [`escape_markup`]`(text)` + `]` prints.
+///
+/// Where the text reads the same as a string literal, that is what it
+/// becomes: typst makes one text element of a string, but one of every
+/// escaped character, space and run of letters in markup, and in a long
+/// job's thousands of table cells laying those out was a seventh of typst's
+/// work (see docs/performance.md). Text that markup would change (a line
+/// break, a tab or a control character, spaces at either end or two in a
+/// row, which markup folds into one) stays a content block. Either way the
+/// characters printed are those of [`escape_markup`]: the same stand-in for
+/// what the fonts cannot draw, the same break opportunities in long runs,
+/// and nothing in the text can run code.
+pub fn escape_content(text: &str) -> String {
+    let plain = !text.is_empty()
+        && !text.starts_with(' ')
+        && !text.ends_with(' ')
+        && !text.contains("  ")
+        && !text
+            .chars()
+            .any(|c| c == '\r' || c.is_control() || is_line_end(c));
+    let markup = escape_markup(text);
+    if !plain || markup.is_empty() {
+        return format!("[{markup}]");
+    }
+    // Markup without line breaks holds a backslash only in front of the
+    // character it escapes.
+    let mut printed = String::with_capacity(markup.len());
+    let mut chars = markup.chars();
+    while let Some(c) = chars.next() {
+        match c {
+            '\\' => printed.extend(chars.next()),
+            c => printed.push(c),
+        }
+    }
+    format!("\"{}\"", escape_string(&printed))
+}
+
 /// Characters other than CR that end a line in Typst source.
 fn is_line_end(c: char) -> bool {
     matches!(
@@ -304,6 +343,46 @@ mod tests {
     fn a_trailing_backslash_cannot_eat_what_follows() {
         // `\` escaped as `\\`, so a template's own `]` after it still closes.
         assert_eq!(escape_markup("C:\\"), "C\\:\\\\");
+    }
+
+    #[test]
+    fn content_is_a_string_where_it_prints_the_same() {
+        assert_eq!(escape_content("0.10 W"), "\"0.10 W\"");
+        assert_eq!(escape_content("±10 %"), "\"±10 %\"");
+        assert_eq!(
+            escape_content("#read(\"x\") \\ [b]"),
+            "\"#read(\\\"x\\\") \\\\ [b]\""
+        );
+        // What markup would change stays markup, escaped as ever.
+        assert_eq!(escape_content(""), "[]");
+        assert_eq!(escape_content("a\nb"), "[a\\ b]");
+        assert_eq!(escape_content("a\tb"), "[a b]");
+        assert_eq!(escape_content(" a"), "[ a]");
+        assert_eq!(escape_content("a  b."), "[a  b\\.]");
+        assert_eq!(escape_content("bell\u{7}"), "[bell]");
+        // The same break opportunities in a long run as in markup.
+        let b16 = "b".repeat(LONG_CHUNK);
+        assert_eq!(
+            escape_content(&"b".repeat(40)),
+            format!("\"{b16}\u{200B}{b16}\u{200B}bbbbbbbb\"")
+        );
+        // A string literal's text is the markup's, character for character.
+        for text in [
+            "V1",
+            "B+1 to B+2",
+            "1. not a list",
+            "= not a heading",
+            "C:\\",
+            "a \"q\" 'x'",
+        ] {
+            let literal = escape_content(text);
+            let inner = &literal[1..literal.len() - 1];
+            assert_eq!(
+                inner.replace("\\\"", "\"").replace("\\\\", "\\"),
+                text,
+                "{literal}"
+            );
+        }
     }
 
     #[test]

@@ -32,7 +32,7 @@ pub use compile::{
 };
 pub(crate) use compile::{locked_partial, sweep_partials};
 pub use error::{INSTALL_HINT, TypesetError};
-pub use escape::{escape_markup, escape_string};
+pub use escape::{escape_content, escape_markup, escape_string};
 pub use font_cache::{
     FONTS_DIGEST, ensure_font_cache, font_cache_folder_name, is_complete as font_cache_is_complete,
     user_cache_root,

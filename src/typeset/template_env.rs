@@ -15,7 +15,7 @@ use std::sync::Arc;
 use minijinja::value::{Object, Value};
 use minijinja::{Environment, Error, ErrorKind, UndefinedBehavior};
 
-use super::escape::{escape_markup_into, escape_string};
+use super::escape::{escape_content, escape_markup_into, escape_string};
 use super::inside::{InsideError, read_inside};
 use crate::catalogue::{Msg, MsgError};
 
@@ -80,6 +80,10 @@ fn write_escaped(out: &mut minijinja::Output<'_>, text: &str) -> fmt::Result {
 ///   [`typst_markup`] values; `none` and undefined print nothing;
 /// * `{{ x|typst_string }}` prints a complete Typst string literal, quotes
 ///   included, for use in code (`#set document(title: {{ t|typst_string }})`);
+/// * `{{ x|typst_content }}` prints the value as content for a code position
+///   (a table cell: `data-table(…, {{ x|typst_content }}, …)`), printing what
+///   `[{{ x }}]` prints, but as a string literal wherever that reads the same,
+///   which typst lays out for less ([`escape_content`]);
 /// * the `safe`, `escape`, `e` and `tojson` filters are removed: they would
 ///   suggest an opt-out that does not exist here (or print user text as a
 ///   raw JSON string);
@@ -103,6 +107,7 @@ pub fn template_environment(templates: TemplateSource) -> Environment<'static> {
         env.remove_filter(name);
     }
     env.add_filter("typst_string", typst_string);
+    env.add_filter("typst_content", typst_content);
     env.add_filter("text_length", text_length);
     env.add_filter("replace", |value: String, from: String, to: String| {
         value.replace(&from, &to)
@@ -176,6 +181,25 @@ fn typst_string(value: Value) -> Value {
         value.to_string()
     };
     typst_markup(format!("\"{}\"", escape_string(&text)))
+}
+
+/// The `typst_content` filter: the value as Typst content in code position,
+/// printing what `[{{ value }}]` prints: a string literal where the text
+/// reads the same that way ([`escape_content`]), else that content block.
+/// Markup the program made, or a macro's output, stays a content block as
+/// it is; `none` is an empty one.
+fn typst_content(value: Value) -> Value {
+    if let Some(markup) = value.downcast_object_ref::<TypstMarkup>() {
+        return typst_markup(format!("[{}]", markup.0));
+    }
+    if value.is_none() || value.is_undefined() {
+        return typst_markup("[]");
+    }
+    match value.as_str() {
+        Some(text) if value.is_safe() => typst_markup(format!("[{text}]")),
+        Some(text) => typst_markup(escape_content(text)),
+        None => typst_markup(escape_content(&value.to_string())),
+    }
 }
 
 /// The `text_length` filter: how many characters of text a value holds,
@@ -414,6 +438,26 @@ mod tests {
         assert_eq!(out, "#set document(title: \"a \\\"b\\\"\\\\\\nc\")");
         let out = render("{{ n|typst_string }}", context! { n => () }).unwrap();
         assert_eq!(out, "\"\"");
+    }
+
+    #[test]
+    fn typst_content_prints_what_a_content_block_prints() {
+        let out = render(
+            "({{ a|typst_content }}, {{ b|typst_content }}, {{ c|typst_content }}, {{ n|typst_content }}, {{ k|typst_content }}, {{ m|typst_content }})",
+            context! { a => "0.10 W", b => "#x\ny", c => 42, n => (), k => typst_markup("*b*"), m => "] #read(\"/\")" },
+        )
+        .unwrap();
+        assert_eq!(
+            out,
+            "(\"0.10 W\", [\\#x\\ y], \"42\", [], [*b*], \"] #read(\\\"/\\\")\")"
+        );
+        // A macro's output was escaped on the way in and stays markup.
+        let out = render(
+            "{% macro m(x) %}{{ x }}.{% endmacro %}{{ m(\"a*\")|typst_content }}",
+            context! {},
+        )
+        .unwrap();
+        assert_eq!(out, "[a\\*.]");
     }
 
     #[test]
