@@ -69,6 +69,38 @@ pub(crate) struct Running {
     closed: Receiver<()>,
 }
 
+/// Starts `command`, trying again for a short while when the program file
+/// is still open for writing somewhere ("text file busy"): a program just
+/// installed or copied, or one whose writer's descriptor a child forked
+/// at that moment still holds until it starts its own program.
+fn spawn_when_not_busy(command: &mut Command) -> io::Result<Child> {
+    let mut pause = Duration::from_millis(2);
+    let mut waited = Duration::ZERO;
+    loop {
+        match command.spawn() {
+            Err(e) if is_busy(&e) && waited < BUSY_PATIENCE => {
+                std::thread::sleep(pause);
+                waited += pause;
+                pause = (pause * 2).min(Duration::from_millis(50));
+            }
+            other => return other,
+        }
+    }
+}
+
+/// How long a busy program file is waited for before its error is told.
+const BUSY_PATIENCE: Duration = Duration::from_millis(500);
+
+#[cfg(unix)]
+fn is_busy(e: &io::Error) -> bool {
+    e.raw_os_error() == Some(libc::ETXTBSY)
+}
+
+#[cfg(not(unix))]
+fn is_busy(_: &io::Error) -> bool {
+    false
+}
+
 /// How long to wait for the output readers once the child has ended: a
 /// grandchild that keeps the pipes open does not keep ampreport waiting.
 const READER_GRACE: Duration = Duration::from_secs(2);
@@ -82,7 +114,7 @@ impl Running {
             .stdout(Stdio::piped())
             .stderr(Stdio::piped());
         own_group_dying_with_parent(&mut command);
-        let mut child = command.spawn()?;
+        let mut child = spawn_when_not_busy(&mut command)?;
         let (closing, closed) = mpsc::channel();
         let stdout = read_bounded(child.stdout.take(), stdout_cap, closing.clone());
         let stderr = read_bounded(child.stderr.take(), stderr_cap, closing);
@@ -356,5 +388,50 @@ mod tests {
             describe_status(&done.status),
             "was killed by signal 11 (SIGSEGV)"
         );
+    }
+}
+
+#[cfg(all(test, target_os = "linux"))]
+mod busy_tests {
+    use super::*;
+    use std::io::Write;
+    use std::os::unix::fs::PermissionsExt;
+
+    #[test]
+    fn a_program_still_being_written_is_started_once_its_writer_is_done() {
+        let dir = tempfile::tempdir().unwrap();
+        let program = dir.path().join("prog");
+        let mut file = std::fs::File::create(&program).unwrap();
+        file.write_all(b"#!/bin/sh\necho started\n").unwrap();
+        file.set_permissions(std::fs::Permissions::from_mode(0o755))
+            .unwrap();
+        // Open for writing: the system refuses to start it ("text file
+        // busy") until the writer lets go, 40 ms from now.
+        let writer = std::thread::spawn(move || {
+            std::thread::sleep(Duration::from_millis(40));
+            drop(file);
+        });
+        let done = Running::spawn(Command::new(&program), 1024, 1024)
+            .expect("started once written")
+            .wait(Duration::from_secs(10))
+            .unwrap();
+        writer.join().unwrap();
+        assert!(done.status.success());
+        assert_eq!(done.stdout.bytes, b"started\n");
+
+        // A writer that never lets go: told, after a short wait.
+        let _held = std::fs::OpenOptions::new()
+            .write(true)
+            .open(&program)
+            .unwrap();
+        let started = Instant::now();
+        let e = Running::spawn(Command::new(&program), 1024, 1024).unwrap_err();
+        assert!(is_busy(&e), "{e}");
+        assert!(
+            started.elapsed() >= BUSY_PATIENCE,
+            "{:?}",
+            started.elapsed()
+        );
+        assert!(started.elapsed() < Duration::from_secs(5));
     }
 }
