@@ -759,7 +759,10 @@ mod tests {
         let group = |pdf_bytes: &'static [u8]| {
             vec![
                 (stage(pdf_bytes, &pdf, true).unwrap(), pdf.as_path()),
-                (stage(b"new md", &markdown, true).unwrap(), markdown.as_path()),
+                (
+                    stage(b"new md", &markdown, true).unwrap(),
+                    markdown.as_path(),
+                ),
                 (stage(b"new photo", &last, true).unwrap(), last.as_path()),
             ]
         };
@@ -774,7 +777,11 @@ mod tests {
         .unwrap_err();
         assert!(matches!(err, TypesetError::Io { .. }), "{err:?}");
         assert_eq!(std::fs::read(&pdf).unwrap(), b"old pdf");
-        assert_eq!(std::fs::metadata(&pdf).unwrap().ino(), inode, "the very file");
+        assert_eq!(
+            std::fs::metadata(&pdf).unwrap().ino(),
+            inode,
+            "the very file"
+        );
         assert!(!markdown.exists(), "a file that was not there is removed");
         assert_eq!(names(dir.path()), ["x-photo-1.png", "x.pdf"]);
 
