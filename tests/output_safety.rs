@@ -363,3 +363,86 @@ fn a_relative_typst_path_is_resolved_once() {
     assert!(out.status.success(), "{}", stderr(&out));
     assert!(!scene.pdf_is_the_good_old_one());
 }
+
+/// Names in `dir` that are a render's temporary files (`*.ampreport-part`).
+fn temporaries(dir: &Path) -> Vec<String> {
+    support::listing(dir)
+        .into_iter()
+        .filter(|n| n.ends_with(".ampreport-part"))
+        .collect()
+}
+
+#[test]
+fn a_listing_whose_markdown_cannot_be_written_leaves_the_old_pdf_in_place() {
+    let scene = Scene::new();
+    let pdf = scene.dir.join("job.listing.pdf");
+    let markdown = scene.dir.join("job.listing.md");
+    std::fs::write(&pdf, GOOD_OLD_PDF).unwrap();
+    // Every check before typst passes; while typst runs, the Markdown's
+    // name becomes a folder, so the Markdown cannot be put in place.
+    let good = scene.good_typst();
+    let notice = scene.bin.join("notice.pdf");
+    let typst = scene.fake_typst(
+        "folder-typst",
+        &format!(
+            "mkdir -p '{}'\ncp '{}' \"$out\"",
+            markdown.display(),
+            notice.display()
+        ),
+    );
+    let mut before = scene.listing();
+    before.insert("job.listing.md".to_owned());
+    let out = scene.render_to(&pdf, &typst, &["--listing"]);
+    let err = stderr(&out);
+    assert_ne!(out.status.code(), Some(0), "{err}");
+    assert!(says(&err, "job.listing.md"), "{err}");
+    assert!(std::fs::read(&pdf).unwrap() == GOOD_OLD_PDF, "{err}");
+    assert!(markdown.is_dir(), "{err}");
+    assert!(temporaries(&scene.dir).is_empty(), "{:?}", scene.listing());
+    assert_eq!(scene.listing(), before, "{err}");
+
+    // With the folder gone, the same render writes both, together.
+    std::fs::remove_dir(&markdown).unwrap();
+    let out = scene.render_to(&pdf, &good, &["--listing"]);
+    assert_eq!(out.status.code(), Some(0), "{}", stderr(&out));
+    assert!(std::fs::read(&pdf).unwrap() != GOOD_OLD_PDF);
+    assert!(std::fs::read_to_string(&markdown).unwrap().contains('#'));
+    assert!(temporaries(&scene.dir).is_empty(), "{:?}", scene.listing());
+}
+
+#[test]
+fn in_a_batch_a_listing_whose_markdown_fails_keeps_its_old_pdf_and_the_others_land() {
+    let scene = Scene::new();
+    let other = scene.dir.join("other.kdl");
+    std::fs::copy(&scene.job, &other).unwrap();
+    let old_pdf = scene.dir.join("other.listing.pdf");
+    std::fs::write(&old_pdf, GOOD_OLD_PDF).unwrap();
+    let blocked = scene.dir.join("other.listing.md");
+    scene.good_typst();
+    let notice = scene.bin.join("notice.pdf");
+    let typst = scene.fake_typst(
+        "folder-typst",
+        &format!(
+            "mkdir -p '{}'\ncp '{}' \"$out\"",
+            blocked.display(),
+            notice.display()
+        ),
+    );
+    let out = scene.run(&[
+        "render",
+        scene.dir.to_str().unwrap(),
+        "--listing",
+        "-j",
+        "2",
+        "--typst",
+        typst.to_str().unwrap(),
+    ]);
+    let err = stderr(&out);
+    assert_eq!(out.status.code(), Some(1), "{err}");
+    assert!(std::fs::read(&old_pdf).unwrap() == GOOD_OLD_PDF, "{err}");
+    assert!(blocked.is_dir(), "{err}");
+    // The other job's listing is whole: its PDF and its Markdown.
+    assert!(std::fs::read(scene.dir.join("job.listing.pdf")).unwrap() != GOOD_OLD_PDF);
+    assert!(scene.dir.join("job.listing.md").is_file(), "{err}");
+    assert!(temporaries(&scene.dir).is_empty(), "{:?}", scene.listing());
+}

@@ -2,8 +2,9 @@
 //! or with `--listing` the listing for a buyer (a PDF, and Markdown with
 //! its photos beside it). Reads and derives a job, finds typst, fills the
 //! template, optionally writes the generated source to a folder, and
-//! compiles the PDF atomically; the listing's photos and Markdown are
-//! written after the PDF, each atomically. A job whose files were already
+//! compiles the PDF atomically; the listing's photos and Markdown land
+//! with the PDF or not at all (each written beside its destination first,
+//! then all renamed into place). A job whose files were already
 //! made from exactly the same inputs is skipped ([`super::content_key`]).
 //! Several jobs, or a folder of them, run side by side with a summary at
 //! the end ([`super::batch`]).
@@ -637,12 +638,15 @@ fn render_job(
         );
     }
 
-    match typeset::compile(
+    // The PDF and the files beside it (the listing's photos and Markdown)
+    // land together or not at all.
+    match typeset::compile_with(
         &setup.program,
         &document.sandbox,
         document.main,
         &options,
         output,
+        &document.extra,
     ) {
         Ok(outcome) => {
             match &outcome.fonts {
@@ -662,15 +666,7 @@ fn render_job(
                     ),
                 );
             }
-            // The listing's photos, then its Markdown: each file is written
-            // whole or not at all.
-            for (path, bytes) in &document.extra {
-                if let Err(e) = typeset::place(bytes, path) {
-                    content_key::forget(output);
-                    return Err(report_typeset_error(e, &setup.templates, Some(path), said));
-                }
-                beside.push(path.clone());
-            }
+            beside.extend(document.extra.iter().map(|(path, _)| path.clone()));
             let written = std::iter::once(output).chain(document.extra.iter().map(|(p, _)| p));
             for path in written {
                 match &key {
@@ -705,8 +701,8 @@ struct Built {
     sandbox: typeset::Sandbox,
     main: &'static str,
     options: CompileOptions,
-    /// Written after the PDF, in order: the listing's photos, then its
-    /// Markdown.
+    /// Put in place with the PDF, or not at all: the listing's photos,
+    /// then its Markdown.
     extra: Vec<(PathBuf, Vec<u8>)>,
 }
 

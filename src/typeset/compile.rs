@@ -22,7 +22,7 @@ use super::error::TypesetError;
 use super::font_cache::{ensure_font_cache, user_cache_root};
 use super::fonts::{FONT_DIR, write_fonts};
 use super::interrupt;
-use super::leftovers::{LockedDir, locked_file, sweep};
+use super::leftovers::{LockedDir, locked_copy, locked_file, sweep};
 use super::locate::TypstProgram;
 use super::output::{check_output, parent_folder};
 use super::pdf_check::{MAX_PDF_BYTES, incomplete, missing_phrases};
@@ -170,6 +170,25 @@ pub fn compile(
     opts: &CompileOptions,
     output: &Path,
 ) -> Result<CompileOutcome, TypesetError> {
+    compile_with(program, sandbox, main, opts, output, &[])
+}
+
+/// [`compile`], with files that go beside the PDF (a listing's Markdown
+/// and photos, each a path and its bytes) and land with it or not at all:
+/// each is written to a temporary file beside its destination while the
+/// PDF is checked, and only when every one is written and the PDF passed
+/// are they all renamed into place ([`put_in_place`]). On any failure
+/// every temporary file is removed and every previous output is left as
+/// it was. Each path must have passed [`check_output`] against the
+/// command's inputs.
+pub fn compile_with(
+    program: &TypstProgram,
+    sandbox: &Sandbox,
+    main: &str,
+    opts: &CompileOptions,
+    output: &Path,
+    beside: &[(PathBuf, Vec<u8>)],
+) -> Result<CompileOutcome, TypesetError> {
     if sandbox.get(main).is_none() {
         return Err(TypesetError::BadSandboxPath {
             path: main.to_owned(),
@@ -284,7 +303,14 @@ pub fn compile(
     // its error wins over one of staging.
     let (checked, staged) = std::thread::scope(|s| {
         let check = s.spawn(|| check_document(&bytes, opts.required_text.as_ref()));
-        let staged = stage(&bytes, output, true);
+        let staged = std::iter::once((output, bytes.as_slice()))
+            .chain(
+                beside
+                    .iter()
+                    .map(|(path, b)| (path.as_path(), b.as_slice())),
+            )
+            .map(|(path, b)| Ok((stage(b, path, true)?, path)))
+            .collect::<Result<Vec<_>, TypesetError>>();
         let checked = check
             .join()
             .unwrap_or_else(|_| Err(Failed::Incomplete(Msg::new("cli-typst-pdf-reader-stopped"))));
@@ -307,7 +333,7 @@ pub fn compile(
             });
         }
     }
-    staged?.commit(output)?;
+    put_in_place(staged?)?;
     drop(work);
     Ok(CompileOutcome {
         warnings: stderr,
@@ -358,11 +384,11 @@ pub fn write_small_file(path: &Path, bytes: &[u8]) -> std::io::Result<()> {
 }
 
 fn place_with(bytes: &[u8], output: &Path, sync: bool) -> Result<(), TypesetError> {
-    stage(bytes, output, sync)?.commit(output)
+    put_in_place(vec![(stage(bytes, output, sync)?, output)])
 }
 
 /// A file written whole beside its destination (or, for `-`, held for
-/// standard output), waiting to be put in place by [`Staged::commit`];
+/// standard output), waiting to be put in place by [`put_in_place`];
 /// removed if dropped before that.
 struct Staged<'a> {
     bytes: &'a [u8],
@@ -409,29 +435,127 @@ fn stage<'a>(bytes: &'a [u8], output: &Path, sync: bool) -> Result<Staged<'a>, T
     })
 }
 
-impl Staged<'_> {
-    /// Renames the staged file over `output` (and flushes the folder to
-    /// disk when `sync`), unless a stop signal came first or `output` has
-    /// become a link or a special file meanwhile; for `-`, writes the
-    /// bytes to standard output.
-    fn commit(self, output: &Path) -> Result<(), TypesetError> {
-        stop_if_interrupted()?;
-        let Some(partial) = self.partial else {
-            let mut stdout = std::io::stdout().lock();
-            return stdout
-                .write_all(self.bytes)
-                .and_then(|()| stdout.flush())
-                .map_err(|e| TypesetError::io("cli-typst-io-write-stdout", "", e));
-        };
-        // The output may have been replaced by a link or a FIFO meanwhile.
+/// Puts staged files in place together, or none of them: unless a stop
+/// signal came first or a destination has become a link, a folder or a
+/// special file meanwhile, renames each over its destination (files
+/// first, then `-`, written to standard output), and flushes the folders
+/// to disk where a file asked for it. Should a rename or standard output
+/// fail after earlier files were renamed, those are put back as they were
+/// (the file that stood there, kept under a second name beside it until
+/// the group is done, or no file), so every previous output is left as it
+/// was. A `kill -9` between two renames of one group can leave the earlier
+/// files new and the later ones old, each whole; their manifests say so
+/// (each names its own file's hash), and the next run renders again.
+fn put_in_place(staged: Vec<(Staged<'_>, &Path)>) -> Result<(), TypesetError> {
+    put_in_place_with(staged, |_| {})
+}
+
+/// [`put_in_place`], calling `before_rename` with each destination just
+/// before its rename (for the tests, which make a rename fail there).
+fn put_in_place_with(
+    staged: Vec<(Staged<'_>, &Path)>,
+    mut before_rename: impl FnMut(&Path),
+) -> Result<(), TypesetError> {
+    stop_if_interrupted()?;
+    for (_, output) in &staged {
         check_output(output, &[])?;
-        partial
-            .persist(output)
-            .map_err(|e| TypesetError::io("cli-typst-io-write", output, e.error))?;
-        if self.sync {
-            sync_folder(parent_folder(output));
+    }
+    let count = staged.len();
+    let (files, to_stdout): (Vec<_>, Vec<_>) =
+        staged.into_iter().partition(|(s, _)| s.partial.is_some());
+    let mut placed: Vec<(&Path, Kept, bool)> = Vec::new();
+    let mut result = Ok(());
+    for (i, (staged, output)) in files.into_iter().enumerate() {
+        let Some(partial) = staged.partial else {
+            continue;
+        };
+        // Only a file with another after it may have to be put back.
+        let kept = if i + 1 < count {
+            match Kept::before(output) {
+                Ok(kept) => kept,
+                Err(e) => {
+                    result = Err(e);
+                    break;
+                }
+            }
+        } else {
+            Kept::Unneeded
+        };
+        before_rename(output);
+        match partial.persist(output) {
+            Ok(_) => placed.push((output, kept, staged.sync)),
+            Err(e) => {
+                result = Err(TypesetError::io("cli-typst-io-write", output, e.error));
+                break;
+            }
         }
-        Ok(())
+    }
+    if result.is_ok() {
+        for (staged, _) in to_stdout {
+            let mut stdout = std::io::stdout().lock();
+            if let Err(e) = stdout.write_all(staged.bytes).and_then(|()| stdout.flush()) {
+                result = Err(TypesetError::io("cli-typst-io-write-stdout", "", e));
+                break;
+            }
+        }
+    }
+    if result.is_err() {
+        for (output, kept, _) in placed.iter_mut().rev() {
+            kept.put_back(output);
+        }
+    }
+    let mut synced: Vec<&Path> = Vec::new();
+    for (output, _, sync) in &placed {
+        let folder = parent_folder(output);
+        if *sync && !synced.contains(&folder) {
+            sync_folder(folder);
+            synced.push(folder);
+        }
+    }
+    result
+}
+
+/// What stood at a destination before a group of files was put in place,
+/// for putting it back should a later file of the group fail.
+enum Kept {
+    /// The last file of a group is never put back.
+    Unneeded,
+    /// No file stood there: putting back removes the new one.
+    Nothing,
+    /// The file that stood there, under a second, locked name beside it
+    /// (a hard link, else a copy); removed with the group.
+    File(tempfile::NamedTempFile<std::fs::File>),
+    /// Already put back (or that failed).
+    Done,
+}
+
+impl Kept {
+    fn before(output: &Path) -> Result<Self, TypesetError> {
+        match std::fs::symlink_metadata(output) {
+            Ok(meta) if meta.is_file() => {}
+            _ => return Ok(Kept::Nothing),
+        }
+        let folder = parent_folder(output);
+        let stem = output
+            .file_name()
+            .map(|n| n.to_string_lossy().into_owned())
+            .unwrap_or_default();
+        locked_copy(folder, &format!(".{stem}."), PARTIAL_SUFFIX, output)
+            .map(Kept::File)
+            .map_err(|e| TypesetError::io("cli-typst-io-create-temporary", folder, e))
+    }
+
+    /// Puts the file that stood at `output` back (or removes the new one).
+    fn put_back(&mut self, output: &Path) {
+        match std::mem::replace(self, Kept::Done) {
+            Kept::Nothing => {
+                let _ = std::fs::remove_file(output);
+            }
+            Kept::File(file) => {
+                let _ = file.persist(output);
+            }
+            Kept::Unneeded | Kept::Done => {}
+        }
     }
 }
 
@@ -611,6 +735,70 @@ mod tests {
             joined.ends_with("--diagnostic-format human --jobs 3 /r/m /o"),
             "{joined}"
         );
+    }
+
+    fn names(dir: &Path) -> Vec<String> {
+        let mut names: Vec<String> = std::fs::read_dir(dir)
+            .unwrap()
+            .map(|e| e.unwrap().file_name().to_string_lossy().into_owned())
+            .collect();
+        names.sort();
+        names
+    }
+
+    #[cfg(unix)]
+    #[test]
+    fn a_group_that_fails_part_way_puts_back_what_it_replaced() {
+        use std::os::unix::fs::MetadataExt;
+        let dir = tempfile::tempdir().unwrap();
+        let pdf = dir.path().join("x.pdf");
+        let markdown = dir.path().join("x.md");
+        let last = dir.path().join("x-photo-1.png");
+        std::fs::write(&pdf, "old pdf").unwrap();
+        let inode = std::fs::metadata(&pdf).unwrap().ino();
+        let group = |pdf_bytes: &'static [u8]| {
+            vec![
+                (stage(pdf_bytes, &pdf, true).unwrap(), pdf.as_path()),
+                (
+                    stage(b"new md", &markdown, true).unwrap(),
+                    markdown.as_path(),
+                ),
+                (stage(b"new photo", &last, true).unwrap(), last.as_path()),
+            ]
+        };
+        // The last rename fails (its name has become a folder with a file
+        // in it) after the PDF and the Markdown were renamed into place.
+        let err = put_in_place_with(group(b"new pdf"), |output| {
+            if output == last {
+                std::fs::create_dir(&last).unwrap();
+                std::fs::write(last.join("inside"), "x").unwrap();
+            }
+        })
+        .unwrap_err();
+        assert!(matches!(err, TypesetError::Io { .. }), "{err:?}");
+        assert_eq!(std::fs::read(&pdf).unwrap(), b"old pdf");
+        assert_eq!(
+            std::fs::metadata(&pdf).unwrap().ino(),
+            inode,
+            "the very file"
+        );
+        assert!(!markdown.exists(), "a file that was not there is removed");
+        assert_eq!(names(dir.path()), ["x-photo-1.png", "x.pdf"]);
+
+        // A destination that became a folder before the group started:
+        // nothing is renamed at all.
+        let err = put_in_place_with(group(b"new pdf"), |_| {}).unwrap_err();
+        assert!(matches!(err, TypesetError::Output(_)), "{err:?}");
+        assert_eq!(std::fs::read(&pdf).unwrap(), b"old pdf");
+        assert_eq!(names(dir.path()), ["x-photo-1.png", "x.pdf"]);
+
+        // With the way clear, all three land and nothing else is left.
+        std::fs::remove_dir_all(&last).unwrap();
+        put_in_place(group(b"new pdf")).unwrap();
+        assert_eq!(std::fs::read(&pdf).unwrap(), b"new pdf");
+        assert_eq!(std::fs::read(&markdown).unwrap(), b"new md");
+        assert_eq!(std::fs::read(&last).unwrap(), b"new photo");
+        assert_eq!(names(dir.path()), ["x-photo-1.png", "x.md", "x.pdf"]);
     }
 
     #[test]

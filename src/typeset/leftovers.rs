@@ -99,6 +99,44 @@ pub(crate) fn locked_file(
     Err(io::Error::other("could not lock a temporary file"))
 }
 
+/// A second, locked name for the file at `original`, beside it in
+/// `parent` (a hard link, else a copy with its permissions), removed when
+/// dropped unless persisted: what a group of files being put in place
+/// keeps of a file it replaces, to put it back if a later file fails.
+pub(crate) fn locked_copy(
+    parent: &Path,
+    prefix: &str,
+    suffix: &str,
+    original: &Path,
+) -> io::Result<tempfile::NamedTempFile<File>> {
+    for _ in 0..ATTEMPTS {
+        let linked = tempfile::Builder::new()
+            .prefix(prefix)
+            .suffix(suffix)
+            .make_in(parent, |path| {
+                std::fs::hard_link(original, path)?;
+                File::open(path)
+            });
+        let file = match linked {
+            Ok(file) => file,
+            // No hard links here: a copy, made under a locked name.
+            Err(e) if e.kind() != io::ErrorKind::NotFound => {
+                let mut copy = locked_file(parent, prefix, suffix, 0o600)?;
+                std::io::copy(&mut File::open(original)?, copy.as_file_mut())?;
+                let permissions = std::fs::metadata(original)?.permissions();
+                std::fs::set_permissions(copy.path(), permissions)?;
+                return Ok(copy);
+            }
+            Err(e) => return Err(e),
+        };
+        if try_lock(file.as_file()) && same_entry(file.path(), file.as_file()) {
+            return Ok(file);
+        }
+        let _ = file.keep();
+    }
+    Err(io::Error::other("could not lock a temporary file"))
+}
+
 /// Removes every entry of `parent` whose name `is_ours` and that nobody
 /// holds locked. Errors are ignored: a sweep is housekeeping.
 pub(crate) fn sweep(parent: &Path, is_ours: impl Fn(&str) -> bool) {

@@ -27,8 +27,8 @@ mod version;
 
 pub use compile::{
     CompileOptions, CompileOutcome, DEFAULT_PDF_STANDARD, DEFAULT_TIMEOUT, FontPlace, FontsUsed,
-    KEPT_PREFIX, PARTIAL_SUFFIX, RequiredText, WORK_PREFIX, compile, place, threads_per_worker,
-    write_small_file,
+    KEPT_PREFIX, PARTIAL_SUFFIX, RequiredText, WORK_PREFIX, compile, compile_with, place,
+    threads_per_worker, write_small_file,
 };
 pub(crate) use compile::{locked_partial, sweep_partials};
 pub use error::{INSTALL_HINT, TypesetError};
