@@ -190,10 +190,12 @@ pub fn undrawable(text: &str) -> Vec<char> {
 
 /// Typst set rules that select the bundled fonts, for the top of every
 /// generated document. typst is run without its own built-in fonts, so a
-/// document must name these families.
+/// document must name these families. `mono-fonts` names the monospaced
+/// ones for a template that sets text in them without a `raw` element
+/// (the hand-over's footer: see its `footer-mono`).
 pub fn font_rules() -> String {
     format!(
-        "#set text(font: {})\n#show raw: set text(font: {})\n",
+        "#set text(font: {})\n#let mono-fonts = {}\n#show raw: set text(font: mono-fonts)\n",
         family_array(TEXT_FAMILIES),
         family_array(MONO_FAMILIES),
     )
