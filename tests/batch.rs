@@ -8,7 +8,7 @@
 
 mod support;
 
-use std::path::PathBuf;
+use std::path::{Path, PathBuf};
 use std::process::{Command, Output, Stdio};
 use std::time::{Duration, Instant};
 
@@ -826,6 +826,20 @@ fn wait_until(limit: Duration, mut test: impl FnMut() -> bool) -> bool {
     test()
 }
 
+/// `ampreport watch JOB EXTRA… --typst COUNTING` with its standard output
+/// in `log`, held in a guard that kills and reaps it should the test fail.
+fn start_watch(c: &Counting, log: &Path, extra: &[&str], stderr: Stdio) -> KilledOnDrop {
+    let mut args = vec!["watch", c.scene.job.to_str().unwrap()];
+    args.extend_from_slice(extra);
+    args.extend_from_slice(&["--typst", c.typst.to_str().unwrap()]);
+    KilledOnDrop::spawn(
+        c.command(&args)
+            .stdin(Stdio::null())
+            .stdout(std::fs::File::create(log).unwrap())
+            .stderr(stderr),
+    )
+}
+
 #[cfg(target_os = "linux")]
 #[test]
 fn a_watch_test_that_fails_leaves_no_watch_running() {
@@ -835,17 +849,7 @@ fn a_watch_test_that_fails_leaves_no_watch_running() {
     let log = c.scene.root.path().join("watch.out");
     let (told, pid) = std::sync::mpsc::channel();
     let failed = std::panic::catch_unwind(std::panic::AssertUnwindSafe(|| {
-        let child = KilledOnDrop::spawn(
-            c.command(&[
-                "watch",
-                c.scene.job.to_str().unwrap(),
-                "--typst",
-                c.typst.to_str().unwrap(),
-            ])
-            .stdin(Stdio::null())
-            .stdout(std::fs::File::create(&log).unwrap())
-            .stderr(Stdio::null()),
-        );
+        let child = start_watch(&c, &log, &[], Stdio::null());
         told.send(child.id() as i32).unwrap();
         let rendered = || {
             std::fs::read_to_string(&log)
@@ -875,17 +879,7 @@ fn a_watch_test_that_fails_leaves_no_watch_running() {
 fn watch_renders_on_save_keeps_the_last_good_pdf_and_stops_on_ctrl_c() {
     let c = Counting::new();
     let log = c.scene.root.path().join("watch.out");
-    let mut child = KilledOnDrop::spawn(
-        c.command(&[
-            "watch",
-            c.scene.job.to_str().unwrap(),
-            "--typst",
-            c.typst.to_str().unwrap(),
-        ])
-        .stdin(Stdio::null())
-        .stdout(std::fs::File::create(&log).unwrap())
-        .stderr(Stdio::piped()),
-    );
+    let mut child = start_watch(&c, &log, &[], Stdio::piped());
     let pid = child.id() as i32;
     let limit = Duration::from_secs(30);
     let rendered = || {
@@ -986,18 +980,7 @@ fn watch_takes_no_read_of_its_own_for_a_save_and_renders_listings() {
     )
     .unwrap();
     let log = c.scene.root.path().join("watch.out");
-    let mut child = KilledOnDrop::spawn(
-        c.command(&[
-            "watch",
-            c.scene.job.to_str().unwrap(),
-            "--listing",
-            "--typst",
-            c.typst.to_str().unwrap(),
-        ])
-        .stdin(Stdio::null())
-        .stdout(std::fs::File::create(&log).unwrap())
-        .stderr(Stdio::null()),
-    );
+    let mut child = start_watch(&c, &log, &["--listing"], Stdio::null());
     let pid = child.id() as i32;
     let limit = Duration::from_secs(30);
     let said = || std::fs::read_to_string(&log).unwrap_or_default();
@@ -1041,17 +1024,7 @@ fn watch_asks_git_again_after_a_commit_made_while_it_watches() {
     }
     assert!(git(dir, &["add", "job.kdl"]) && git(dir, &["commit", "-qm", "first"]));
     let log = c.scene.root.path().join("watch.out");
-    let mut child = KilledOnDrop::spawn(
-        c.command(&[
-            "watch",
-            c.scene.job.to_str().unwrap(),
-            "--typst",
-            c.typst.to_str().unwrap(),
-        ])
-        .stdin(Stdio::null())
-        .stdout(std::fs::File::create(&log).unwrap())
-        .stderr(Stdio::null()),
-    );
+    let mut child = start_watch(&c, &log, &[], Stdio::null());
     let pid = child.id() as i32;
     let limit = Duration::from_secs(30);
     let said = || std::fs::read_to_string(&log).unwrap_or_default();
