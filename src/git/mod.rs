@@ -215,7 +215,7 @@ fn run(dir: &Path, args: &[&str], cap: usize) -> Ran {
 fn start(dir: &Path, args: &[&str], cap: usize) -> std::io::Result<Running> {
     let mut c = git_command(dir);
     c.args(args);
-    Running::spawn(c, cap + 1, 4096)
+    Running::spawn_short(c, cap + 1, 4096)
 }
 
 fn finish(started: std::io::Result<Running>, cap: usize) -> Ran {
@@ -295,38 +295,117 @@ pub struct Lookup {
 }
 
 /// What git holds of `file`: none without git, outside a repository, or
-/// when no commit holds the file yet. The two git runs it takes (the
-/// commit that last changed the file, the file's blob in `HEAD`) run side
-/// by side.
+/// when no commit holds the file yet.
+///
+/// One git run answers both questions: `git log -1 --raw` names the
+/// commit that last changed the file and, in its raw diff line, the
+/// file's blob in that commit, which is its blob in `HEAD` too (history
+/// is followed from `HEAD` only through commits whose file is the same as
+/// their parent's, so the first commit shown holds `HEAD`'s file; a file
+/// removed in `HEAD` shows as removed). Where the line does not say it
+/// plainly (the commit is a merge, whose diff `log` does not show, or the
+/// name is quoted or is a folder in git), `HEAD`'s blob is asked for by
+/// a second run, as before (`rev-parse HEAD:./NAME`). The repository's
+/// `log.follow` and `log.showRoot` settings are overridden, so the
+/// answer does not depend on them.
 pub fn look_up(file: &Path) -> Option<Lookup> {
     let (dir, name) = folder_and_name(file)?;
-    let spec = format!("HEAD:./{name}");
-    let log = start(
-        &dir,
-        &[
-            "log",
-            "-1",
-            "--no-show-signature",
-            "--format=%H",
-            "--",
-            &name,
-        ],
-        256,
-    );
-    let blob = start(&dir, &["rev-parse", "--verify", "--quiet", &spec], 256);
-    let (log, blob) = (finish(log, 256), finish(blob, 256));
-    let Ran::Ok(out) = log else {
+    let Ran::Ok(out) = run(&dir, &last_change_args(&name), LOG_CAP) else {
         return None;
     };
-    let commit = String::from_utf8(out).ok()?.trim().to_string();
+    let (commit, blob) = parse_last_change(&String::from_utf8(out).ok()?, &name)?;
+    let committed = match blob {
+        Blob::Id(id) => Some(id),
+        Blob::Removed => None,
+        Blob::Unsaid => committed_blob(&dir, &name),
+    };
+    Some(Lookup { commit, committed })
+}
+
+/// The most a `log -1 --raw` answer may print: an id and one raw line per
+/// parent or file, with a long path.
+const LOG_CAP: usize = 64 * 1024;
+
+/// `git log` for the commit that last changed `name` in the folder, with
+/// the file's raw diff line.
+fn last_change_args(name: &str) -> [&str; 14] {
+    [
+        "-c",
+        "log.follow=false",
+        "-c",
+        "log.showRoot=true",
+        "log",
+        "-1",
+        "--no-show-signature",
+        "--format=%H",
+        "--raw",
+        "--no-abbrev",
+        "--no-renames",
+        "--relative",
+        "--",
+        name,
+    ]
+}
+
+/// The id of `name`'s blob in `HEAD`, asked of git by itself; none when
+/// `HEAD` lacks it.
+fn committed_blob(dir: &Path, name: &str) -> Option<String> {
+    let spec = format!("HEAD:./{name}");
+    match run(dir, &["rev-parse", "--verify", "--quiet", &spec], 256) {
+        Ran::Ok(out) => String::from_utf8(out).ok().map(|s| s.trim().to_string()),
+        _ => None,
+    }
+}
+
+/// What a `log -1 --raw` answer says of the file's blob.
+#[derive(Debug, PartialEq, Eq)]
+enum Blob {
+    /// The file's blob in the commit shown (and so in `HEAD`).
+    Id(String),
+    /// The commit shown removed the file: `HEAD` lacks it.
+    Removed,
+    /// The answer does not say plainly; ask `HEAD` itself.
+    Unsaid,
+}
+
+/// The commit and the file's blob from `log -1 --raw --relative`'s answer
+/// for the file `name`: none when git named no commit.
+fn parse_last_change(out: &str, name: &str) -> Option<(String, Blob)> {
+    let mut lines = out.lines();
+    let commit = lines.next()?.trim().to_string();
     if commit.len() < SHORT_ID_DIGITS || !commit.chars().all(|c| c.is_ascii_hexdigit()) {
         return None;
     }
-    let committed = match blob {
-        Ran::Ok(out) => String::from_utf8(out).ok().map(|s| s.trim().to_string()),
-        _ => None,
+    let raw: Vec<&str> = lines.filter(|l| l.starts_with(':')).collect();
+    let blob = match raw.as_slice() {
+        [line] => raw_line_blob(line, name, commit.len()).unwrap_or(Blob::Unsaid),
+        _ => Blob::Unsaid,
     };
-    Some(Lookup { commit, committed })
+    Some((commit, blob))
+}
+
+/// The new side of a raw diff line (`:OLDMODE NEWMODE OLDID NEWID
+/// STATUS<TAB>PATH`) when it is exactly the file `name` (not quoted, not
+/// a file inside a folder of that name) with ids of `id_len` digits.
+fn raw_line_blob(line: &str, name: &str, id_len: usize) -> Option<Blob> {
+    let (fields, path) = line.strip_prefix(':')?.split_once('\t')?;
+    if path != name {
+        return None;
+    }
+    let fields: Vec<&str> = fields.split(' ').collect();
+    let [_, new_mode, _, new_id, status] = fields.as_slice() else {
+        return None;
+    };
+    if new_id.len() != id_len || !new_id.chars().all(|c| c.is_ascii_hexdigit()) {
+        return None;
+    }
+    if status.starts_with('D') && new_id.chars().all(|c| c == '0') && *new_mode == "000000" {
+        return Some(Blob::Removed);
+    }
+    if new_id.chars().all(|c| c == '0') {
+        return None;
+    }
+    Some(Blob::Id(new_id.to_string()))
 }
 
 impl Lookup {
@@ -459,6 +538,228 @@ mod tests {
         assert_eq!(odd.prefix, "a\nb/");
         assert_eq!(parse_head("jobs/\nnot-an-id\n"), None);
         assert_eq!(parse_head(""), None);
+    }
+
+    /// The look-up as it was made before, in two git runs: the commit of
+    /// `log -1 -- NAME` and the blob of `rev-parse HEAD:./NAME`; with
+    /// `settings` (`-c` pairs) before the command.
+    fn look_up_in_two_runs(file: &Path, settings: &[&str]) -> Option<Lookup> {
+        let (dir, name) = folder_and_name(file)?;
+        let mut args = settings.to_vec();
+        args.extend([
+            "log",
+            "-1",
+            "--no-show-signature",
+            "--format=%H",
+            "--",
+            &name,
+        ]);
+        let Ran::Ok(out) = run(&dir, &args, 256) else {
+            return None;
+        };
+        let commit = String::from_utf8(out).ok()?.trim().to_string();
+        if commit.len() < SHORT_ID_DIGITS {
+            return None;
+        }
+        Some(Lookup {
+            commit,
+            committed: committed_blob(&dir, &name),
+        })
+    }
+
+    fn git_in(dir: &Path, args: &[&str]) -> String {
+        let out = Command::new("git")
+            .arg("-C")
+            .arg(dir)
+            .args([
+                "-c",
+                "user.name=Bench",
+                "-c",
+                "user.email=bench@example.invalid",
+            ])
+            .args([
+                "-c",
+                "commit.gpgSign=false",
+                "-c",
+                "init.defaultBranch=main",
+            ])
+            .args(args)
+            .env("GIT_COMMITTER_DATE", "2026-11-02T10:00:00Z")
+            .env("GIT_AUTHOR_DATE", "2026-11-02T10:00:00Z")
+            .output()
+            .unwrap();
+        assert!(
+            out.status.success(),
+            "git {args:?}: {}",
+            String::from_utf8_lossy(&out.stderr)
+        );
+        String::from_utf8(out.stdout).unwrap()
+    }
+
+    fn have_git() -> bool {
+        Command::new("git")
+            .arg("--version")
+            .output()
+            .is_ok_and(|o| o.status.success())
+    }
+
+    /// Every state a job file can be in, in a repository whose settings
+    /// would change `log`'s answer if they were followed: the one-run
+    /// look-up gives what the two runs gave, and each answer is the one
+    /// worked out by hand.
+    #[test]
+    fn one_git_run_answers_as_two_did() {
+        if !have_git() {
+            return;
+        }
+        let repo = tempfile::tempdir().unwrap();
+        let top = repo.path();
+        git_in(top, &["init", "-q"]);
+        // Followed, these would change what `log` shows.
+        git_in(top, &["config", "log.follow", "true"]);
+        git_in(top, &["config", "log.showRoot", "false"]);
+        git_in(top, &["config", "diff.renames", "copies"]);
+        git_in(top, &["config", "core.quotePath", "true"]);
+        let jobs = top.join("jobs");
+        std::fs::create_dir(&jobs).unwrap();
+        let file = |name: &str| jobs.join(name);
+        let write = |name: &str, text: &str| std::fs::write(file(name), text).unwrap();
+        let commit = |message: &str| {
+            git_in(top, &["add", "-A"]);
+            git_in(top, &["commit", "-q", "-m", message]);
+            git_in(top, &["rev-parse", "HEAD"]).trim().to_string()
+        };
+        let blob = |rev_path: &str| git_in(top, &["rev-parse", rev_path]).trim().to_string();
+        // The two runs as they were made, but without the repository's
+        // `log` settings, which the one run overrides.
+        let plain = ["-c", "log.follow=false", "-c", "log.showRoot=true"];
+        let check = |name: &str, commit: &str, committed: Option<String>| {
+            let one = look_up(&file(name));
+            let two = look_up_in_two_runs(&file(name), &plain);
+            assert_eq!(one, two, "{name}");
+            let one = one.unwrap_or_else(|| panic!("{name}: no answer"));
+            assert_eq!(one.commit, commit, "{name}");
+            assert_eq!(one.committed, committed, "{name}");
+        };
+
+        // Taken in by the first commit (the root, whose diff the
+        // repository's `log.showRoot=false` would hide), with a name git
+        // quotes and a name of a folder holding a file of the same name.
+        write("a.kdl", "job 1\n");
+        write("späte Arbeit.kdl", "job 2\n");
+        std::fs::create_dir(file("dir.kdl")).unwrap();
+        write("dir.kdl/dir.kdl", "inside\n");
+        let root = commit("Take in");
+        check("a.kdl", &root, Some(blob("HEAD:jobs/a.kdl")));
+        // Following those settings, the two runs found no commit for a
+        // file the root commit took in.
+        assert_eq!(look_up_in_two_runs(&file("a.kdl"), &[]), None);
+        check(
+            "späte Arbeit.kdl",
+            &root,
+            Some(blob("HEAD:jobs/späte Arbeit.kdl")),
+        );
+        check("dir.kdl", &root, Some(blob("HEAD:jobs/dir.kdl")));
+
+        // Changed, then a commit that leaves it alone on top.
+        write("a.kdl", "job 1, as left\n");
+        let changed = commit("As left");
+        write("b.kdl", "job 3\n");
+        commit("Another job");
+        check("a.kdl", &changed, Some(blob("HEAD:jobs/a.kdl")));
+
+        // Renamed into place: the commit that made the name.
+        git_in(top, &["mv", "jobs/b.kdl", "jobs/c.kdl"]);
+        let renamed = commit("Rename");
+        check("c.kdl", &renamed, Some(blob("HEAD:jobs/c.kdl")));
+
+        // Changed on two branches and merged with a third text: the merge
+        // is the commit, and its blob is asked of HEAD.
+        git_in(top, &["checkout", "-q", "-b", "side"]);
+        write("a.kdl", "job 1, side\n");
+        commit("Side");
+        git_in(top, &["checkout", "-q", "main"]);
+        write("a.kdl", "job 1, main\n");
+        commit("Main");
+        let _ = Command::new("git")
+            .arg("-C")
+            .arg(top)
+            .args([
+                "-c",
+                "user.name=Bench",
+                "-c",
+                "user.email=bench@example.invalid",
+            ])
+            .args(["merge", "-q", "side", "-m", "Merge"])
+            .output()
+            .unwrap();
+        write("a.kdl", "job 1, merged\n");
+        let merged = commit("Merge side");
+        assert_eq!(
+            git_in(top, &["rev-list", "--parents", "-1", "HEAD"])
+                .split(' ')
+                .count(),
+            3
+        );
+        check("a.kdl", &merged, Some(blob("HEAD:jobs/a.kdl")));
+
+        // A merge that takes one side as it was: the commit of that side.
+        git_in(top, &["checkout", "-q", "-b", "other"]);
+        write("c.kdl", "job 3, other\n");
+        let other = commit("Other");
+        git_in(top, &["checkout", "-q", "main"]);
+        write("b.kdl", "unrelated\n");
+        commit("Unrelated");
+        git_in(top, &["merge", "-q", "--no-edit", "other"]);
+        check("c.kdl", &other, Some(blob("HEAD:jobs/c.kdl")));
+
+        // Removed in HEAD: the commit that removed it, no blob.
+        std::fs::remove_file(file("a.kdl")).unwrap();
+        let removed = commit("Remove");
+        check("a.kdl", &removed, None);
+
+        // Never committed: no answer.
+        write("new.kdl", "job 4\n");
+        assert_eq!(look_up(&file("new.kdl")), None);
+        assert_eq!(look_up_in_two_runs(&file("new.kdl"), &plain), None);
+    }
+
+    #[test]
+    fn a_raw_line_is_taken_only_when_it_plainly_names_the_file() {
+        let id = "8ee8ca4fa74b5a3f0eaaa488d7f8a22e802846eb";
+        let old = "d9bd46c1cb079ea69470cf7805bf1bcb3572cc14";
+        let zero = "0".repeat(40);
+        let commit = "90c6c3dd5246531b9e153ee1d21bf5533ea3478f";
+        let answer = |lines: &str| parse_last_change(&format!("{commit}\n\n{lines}"), "a.kdl");
+        assert_eq!(
+            answer(&format!(":100644 100644 {old} {id} M\ta.kdl\n")),
+            Some((commit.to_string(), Blob::Id(id.to_string())))
+        );
+        assert_eq!(
+            answer(&format!(":000000 100644 {zero} {id} A\ta.kdl\n")),
+            Some((commit.to_string(), Blob::Id(id.to_string())))
+        );
+        assert_eq!(
+            answer(&format!(":100644 000000 {old} {zero} D\ta.kdl\n")),
+            Some((commit.to_string(), Blob::Removed))
+        );
+        // Not plainly the file: a quoted name, a file in a folder of that
+        // name, two lines, none, a short id.
+        for lines in [
+            format!(":100644 100644 {old} {id} M\t\"a.kdl\"\n"),
+            format!(":100644 100644 {old} {id} M\ta.kdl/a.kdl\n"),
+            format!(":100644 100644 {old} {id} M\ta.kdl\n:100644 100644 {old} {id} M\ta.kdl\n"),
+            String::new(),
+            format!(":100644 100644 {old} 8ee8ca4 M\ta.kdl\n"),
+        ] {
+            assert_eq!(
+                answer(&lines),
+                Some((commit.to_string(), Blob::Unsaid)),
+                "{lines}"
+            );
+        }
+        assert_eq!(parse_last_change("", "a.kdl"), None);
+        assert_eq!(parse_last_change("not-an-id\n", "a.kdl"), None);
     }
 
     #[test]

@@ -4,9 +4,14 @@
 //! child that is given up on is killed together with anything it started.
 //!
 //! On Unix the child runs in a process group of its own, so killing the
-//! group reaches a wrapper script's own children too; on Linux it is also
-//! told to die with ampreport (`PR_SET_PDEATHSIG`), so a `kill -9` of
-//! ampreport leaves no typst running.
+//! group reaches a wrapper script's own children too; on Linux typst is
+//! also told to die with ampreport (`PR_SET_PDEATHSIG`), so a `kill -9` of
+//! ampreport leaves no typst running. That takes a step in the child
+//! between `fork` and `exec`, which makes the standard library copy
+//! ampreport with `fork` rather than start the program with `posix_spawn`
+//! (about half a millisecond of processor time more per child); a short
+//! query such as `git`'s is started without it ([`Running::spawn_short`]),
+//! and, when ampreport is killed outright, ends by itself.
 
 use std::io::{self, Read};
 use std::process::{Child, Command, ExitStatus, Stdio};
@@ -107,13 +112,31 @@ const READER_GRACE: Duration = Duration::from_secs(2);
 
 impl Running {
     /// Starts `command` with no input and both outputs read in the
-    /// background, keeping at most `stdout_cap` and `stderr_cap` bytes.
-    pub fn spawn(mut command: Command, stdout_cap: usize, stderr_cap: usize) -> io::Result<Self> {
+    /// background, keeping at most `stdout_cap` and `stderr_cap` bytes; on
+    /// Linux the child dies with ampreport.
+    pub fn spawn(command: Command, stdout_cap: usize, stderr_cap: usize) -> io::Result<Self> {
+        Self::start(command, stdout_cap, stderr_cap, true)
+    }
+
+    /// [`Running::spawn`] for a short query of a program that does not run
+    /// on after its output is closed (`git`): in a process group of its
+    /// own and killed with it at the deadline as any child, but not told
+    /// to die with ampreport, so it is started with `posix_spawn`.
+    pub fn spawn_short(command: Command, stdout_cap: usize, stderr_cap: usize) -> io::Result<Self> {
+        Self::start(command, stdout_cap, stderr_cap, false)
+    }
+
+    fn start(
+        mut command: Command,
+        stdout_cap: usize,
+        stderr_cap: usize,
+        dies_with_parent: bool,
+    ) -> io::Result<Self> {
         command
             .stdin(Stdio::null())
             .stdout(Stdio::piped())
             .stderr(Stdio::piped());
-        own_group_dying_with_parent(&mut command);
+        own_group(&mut command, dies_with_parent);
         let mut child = spawn_when_not_busy(&mut command)?;
         let (closing, closed) = mpsc::channel();
         let stdout = read_bounded(child.stdout.take(), stdout_cap, closing.clone());
@@ -240,12 +263,16 @@ fn read_bounded<R: Read + Send + 'static>(
     rx
 }
 
+/// Puts the child in a process group of its own and, when asked, on
+/// Linux, tells it to die with ampreport.
 #[cfg(unix)]
-fn own_group_dying_with_parent(command: &mut Command) {
+fn own_group(command: &mut Command, dies_with_parent: bool) {
     use std::os::unix::process::CommandExt;
     command.process_group(0);
+    #[cfg(not(target_os = "linux"))]
+    let _ = dies_with_parent;
     #[cfg(target_os = "linux")]
-    {
+    if dies_with_parent {
         // SAFETY: the closure runs in the child between fork and exec and
         // calls only async-signal-safe functions (prctl, getppid, _exit).
         let parent = std::process::id() as libc::pid_t;
@@ -265,7 +292,7 @@ fn own_group_dying_with_parent(command: &mut Command) {
 }
 
 #[cfg(not(unix))]
-fn own_group_dying_with_parent(_: &mut Command) {}
+fn own_group(_: &mut Command, _: bool) {}
 
 #[cfg(unix)]
 fn kill_group(child: &Child) {
@@ -339,6 +366,15 @@ mod tests {
 
     #[test]
     fn a_child_past_its_deadline_is_killed_with_its_own_children() {
+        past_the_deadline(Running::spawn);
+    }
+
+    #[test]
+    fn a_short_query_past_its_deadline_is_killed_with_its_own_children() {
+        past_the_deadline(Running::spawn_short);
+    }
+
+    fn past_the_deadline(spawn: fn(Command, usize, usize) -> io::Result<Running>) {
         let dir = tempfile::tempdir().unwrap();
         let pids = dir.path().join("pids");
         // The shell starts a sleep of its own, which keeps the pipes open.
@@ -347,7 +383,7 @@ mod tests {
             p = pids.display()
         );
         let start = Instant::now();
-        let run = Running::spawn(sh(&script), 100, 100).unwrap();
+        let run = spawn(sh(&script), 100, 100).unwrap();
         let stopped = run.wait(Duration::from_millis(300)).unwrap_err();
         assert!(start.elapsed() < Duration::from_secs(10));
         let Stopped::TimedOut { stderr } = stopped else {
