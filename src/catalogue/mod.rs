@@ -13,7 +13,7 @@
 
 mod check;
 
-use std::collections::BTreeMap;
+use std::collections::{BTreeMap, HashMap};
 use std::sync::{Arc, OnceLock};
 
 use chrono::{Datelike, NaiveDate};
@@ -66,6 +66,43 @@ struct Inner {
     /// Where the messages came from, for messages ("built-in", a path).
     origin: String,
     bundle: FluentBundle<FluentResource>,
+    /// Every message with a value, by key, with its pattern worked out
+    /// once when the pattern is plain text and arguments (see [`Pattern`]).
+    patterns: HashMap<Box<str>, Pattern>,
+}
+
+/// A message's pattern as [`Catalogue::try_format`] uses it.
+enum Pattern {
+    /// Text and `{ $name }` arguments only: no select, no reference to
+    /// another message or term, no literal, no function. Said by joining
+    /// the pieces, with each text argument written as it is, which is
+    /// what Fluent writes for such a pattern (isolation marks are off and
+    /// the bundle has no transform or formatter).
+    Plain(Box<[Piece]>),
+    /// Anything else: said by Fluent.
+    Fluent,
+}
+
+/// A piece of a [`Pattern::Plain`].
+enum Piece {
+    Text(Box<str>),
+    Argument(Box<str>),
+}
+
+/// The pattern as plain pieces, or `None` when Fluent must say it.
+fn plain_pattern(pattern: &fluent_syntax::ast::Pattern<&str>) -> Option<Box<[Piece]>> {
+    use fluent_syntax::ast::{Expression, InlineExpression, PatternElement};
+    pattern
+        .elements
+        .iter()
+        .map(|element| match element {
+            PatternElement::TextElement { value } => Some(Piece::Text((*value).into())),
+            PatternElement::Placeable {
+                expression: Expression::Inline(InlineExpression::VariableReference { id }),
+            } => Some(Piece::Argument(id.name.into())),
+            PatternElement::Placeable { .. } => None,
+        })
+        .collect()
 }
 
 impl std::fmt::Debug for Catalogue {
@@ -253,17 +290,32 @@ impl Catalogue {
 
     fn build(language: &str, origin: &str, text: &str) -> Result<Catalogue, ()> {
         let resource = FluentResource::try_new(text.to_owned()).map_err(|_| ())?;
+        let keys: Vec<String> = resource
+            .entries()
+            .filter_map(|entry| match entry {
+                fluent_syntax::ast::Entry::Message(m) => Some(m.id.name.to_owned()),
+                _ => None,
+            })
+            .collect();
         let id: unic_langid::LanguageIdentifier = language.parse().unwrap_or_default();
         let mut bundle = FluentBundle::new_concurrent(vec![id]);
         // No Unicode isolation marks around arguments: the text goes to a
         // terminal, JSON and a PDF, where they would show as stray bytes.
         bundle.set_use_isolating(false);
         bundle.add_resource(resource).map_err(|_| ())?;
+        let mut patterns = HashMap::with_capacity(keys.len());
+        for key in keys {
+            if let Some(pattern) = bundle.get_message(&key).and_then(|m| m.value()) {
+                let pattern = plain_pattern(pattern).map_or(Pattern::Fluent, Pattern::Plain);
+                patterns.insert(key.into_boxed_str(), pattern);
+            }
+        }
         Ok(Catalogue {
             inner: Arc::new(Inner {
                 language: language.to_owned(),
                 origin: origin.to_owned(),
                 bundle,
+                patterns,
             }),
         })
     }
@@ -306,6 +358,36 @@ impl Catalogue {
     /// The message `key` with its arguments, or `None` when there is no
     /// such message.
     pub fn try_format(&self, key: &str, args: &[(&str, Arg)]) -> Option<String> {
+        if let Pattern::Plain(pieces) = self.inner.patterns.get(key)?
+            && let Some(words) = self.say_plain(pieces, args)
+        {
+            return Some(words);
+        }
+        self.fluent_format(key, args)
+    }
+
+    /// A plain pattern's words, or `None` when an argument it names is
+    /// missing or a number (whose printed form is Fluent's to decide), so
+    /// that Fluent says it. An argument given twice counts as its last
+    /// value, as in Fluent's arguments.
+    fn say_plain(&self, pieces: &[Piece], args: &[(&str, Arg)]) -> Option<String> {
+        let mut words = String::new();
+        for piece in pieces {
+            match piece {
+                Piece::Text(text) => words.push_str(text),
+                Piece::Argument(name) => match args.iter().rev().find(|(n, _)| *n == &**name)?.1 {
+                    Arg::Text(ref s) => words.push_str(s),
+                    Arg::Message(ref m) => words.push_str(&self.say(m)),
+                    Arg::Number(_) => return None,
+                },
+            }
+        }
+        Some(words)
+    }
+
+    /// The message `key` said by Fluent, or `None` when there is no such
+    /// message.
+    fn fluent_format(&self, key: &str, args: &[(&str, Arg)]) -> Option<String> {
         let bundle = &self.inner.bundle;
         let pattern = bundle.get_message(key)?.value()?;
         let mut fargs = FluentArgs::new();

@@ -343,3 +343,141 @@ fn a_translation_lacking_a_diagnostic_is_refused_naming_it() {
         );
     }
 }
+
+/// Every argument name a message's pattern (or a variant of it) names.
+fn argument_names(catalogue: &Catalogue, key: &str) -> Vec<String> {
+    let pattern = catalogue
+        .inner
+        .bundle
+        .get_message(key)
+        .and_then(|m| m.value())
+        .expect("a message with a value");
+    let mut names = Vec::new();
+    fn walk_pattern(p: &fluent_syntax::ast::Pattern<&str>, names: &mut Vec<String>) {
+        for element in &p.elements {
+            if let fluent_syntax::ast::PatternElement::Placeable { expression } = element {
+                walk_expression(expression, names);
+            }
+        }
+    }
+    fn walk_inline(e: &fluent_syntax::ast::InlineExpression<&str>, names: &mut Vec<String>) {
+        use fluent_syntax::ast::InlineExpression as I;
+        match e {
+            I::VariableReference { id } => names.push(id.name.to_owned()),
+            I::Placeable { expression } => walk_expression(expression, names),
+            I::FunctionReference { arguments, .. } => {
+                for a in &arguments.positional {
+                    walk_inline(a, names);
+                }
+            }
+            _ => {}
+        }
+    }
+    fn walk_expression(e: &fluent_syntax::ast::Expression<&str>, names: &mut Vec<String>) {
+        match e {
+            fluent_syntax::ast::Expression::Inline(i) => walk_inline(i, names),
+            fluent_syntax::ast::Expression::Select { selector, variants } => {
+                walk_inline(selector, names);
+                for v in variants {
+                    walk_pattern(&v.value, names);
+                }
+            }
+        }
+    }
+    walk_pattern(pattern, &mut names);
+    names
+}
+
+/// The plain patterns said without Fluent give Fluent's words exactly:
+/// every message of every built-in catalogue, with text arguments (empty,
+/// braces, dollar signs, line breaks, other scripts), a message as an
+/// argument, a number, an argument given twice and one left out.
+#[test]
+fn plain_patterns_say_what_fluent_says() {
+    let texts = [
+        "",
+        "14.6 W",
+        "{ $x }",
+        "$name",
+        "a\nb",
+        "Ωμέγα \u{2068}",
+        "  ",
+    ];
+    let mut plain = 0;
+    for (tag, _) in BUILT_IN {
+        let catalogue = Catalogue::built_in(tag).unwrap();
+        for (key, pattern) in &catalogue.inner.patterns {
+            if matches!(pattern, Pattern::Plain(_)) {
+                plain += 1;
+            }
+            let names = argument_names(&catalogue, key);
+            let mut cases: Vec<Vec<(&str, Arg)>> = Vec::new();
+            for i in 0..texts.len() {
+                cases.push(
+                    names
+                        .iter()
+                        .enumerate()
+                        .map(|(j, n)| (n.as_str(), Arg::from(texts[(i + j) % texts.len()])))
+                        .collect(),
+                );
+            }
+            cases.push(
+                names
+                    .iter()
+                    .map(|n| {
+                        (
+                            n.as_str(),
+                            Arg::from(Msg::new("list-and").arg("first", "a").arg("last", "b")),
+                        )
+                    })
+                    .collect(),
+            );
+            cases.push(
+                names
+                    .iter()
+                    .map(|n| (n.as_str(), Arg::from(2usize)))
+                    .collect(),
+            );
+            cases.push(names.iter().map(|n| (n.as_str(), Arg::from(1.5))).collect());
+            cases.push(
+                names
+                    .iter()
+                    .flat_map(|n| {
+                        [
+                            (n.as_str(), Arg::from(3usize)),
+                            (n.as_str(), Arg::from("last")),
+                        ]
+                    })
+                    .collect(),
+            );
+            cases.push(
+                names
+                    .iter()
+                    .flat_map(|n| {
+                        [
+                            (n.as_str(), Arg::from("first")),
+                            (n.as_str(), Arg::from(1usize)),
+                        ]
+                    })
+                    .collect(),
+            );
+            cases.push(
+                names
+                    .iter()
+                    .skip(1)
+                    .map(|n| (n.as_str(), Arg::from("x")))
+                    .collect(),
+            );
+            cases.push(Vec::new());
+            for args in &cases {
+                assert_eq!(
+                    catalogue.try_format(key, args),
+                    catalogue.fluent_format(key, args),
+                    "{tag} {key} {args:?}"
+                );
+            }
+        }
+    }
+    // Most messages are plain: the fast path is the one taken.
+    assert!(plain > 500, "{plain} plain patterns");
+}

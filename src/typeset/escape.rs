@@ -212,6 +212,56 @@ pub fn escape_string(text: &str) -> String {
 /// what the fonts cannot draw, the same break opportunities in long runs,
 /// and nothing in the text can run code.
 pub fn escape_content(text: &str) -> String {
+    content_as_string(text).unwrap_or_else(|| escape_content_full(text))
+}
+
+/// The common case of [`escape_content`] in one pass: text that
+/// [`escape_common_into`] takes (printable characters the fonts can draw,
+/// one line, no run of [`LONG_RUN`]), not empty, with no space at either
+/// end and no two in a row. Its markup, unescaped, is the text itself, so
+/// the string literal is the text with `\` and `"` escaped. `None` for
+/// any other text.
+fn content_as_string(text: &str) -> Option<String> {
+    if text.is_empty() || text.starts_with(' ') || text.ends_with(' ') || text.contains("  ") {
+        return None;
+    }
+    let mut out = String::with_capacity(text.len() + 2);
+    out.push('"');
+    let mut run = 0usize;
+    for c in text.chars() {
+        match c {
+            ' ' | '\u{A0}' => {
+                run = 0;
+                out.push(c);
+                continue;
+            }
+            '!'..='~' if super::fonts::can_draw(c) => {
+                if c == '\\' || c == '"' {
+                    out.push('\\');
+                }
+                out.push(c);
+            }
+            c if !c.is_ascii()
+                && !c.is_whitespace()
+                && !c.is_control()
+                && !is_variant_mark(c)
+                && super::fonts::can_draw(c) =>
+            {
+                out.push(c)
+            }
+            _ => return None,
+        }
+        run += 1;
+        if run >= LONG_RUN {
+            return None;
+        }
+    }
+    out.push('"');
+    Some(out)
+}
+
+/// [`escape_content`] for any text: through [`escape_markup`].
+fn escape_content_full(text: &str) -> String {
     let plain = !text.is_empty()
         && !text.starts_with(' ')
         && !text.ends_with(' ')
@@ -437,5 +487,41 @@ mod tests {
         }
         // The common path must really be taken for most plain texts.
         assert!(common > 5_000, "common path taken {common} times");
+    }
+
+    #[test]
+    fn content_as_a_string_in_one_pass_is_what_the_full_path_gives() {
+        // Spaces at the ends and in pairs, quotes and backslashes, line
+        // ends, controls, variant marks, drawable and undrawable non-ASCII.
+        let pool: Vec<char> = "aZ09 .%-\\\"+#*_[]\u{A0}()'~\t\n\r\u{B}\u{7}\u{2009}\u{2028}–−±Ω“”µ\u{200B}\u{AD}\u{FE0F}\u{E0001}\u{1F600}\u{10FFFF}\u{4E2D}"
+            .chars()
+            .collect();
+        let mut seed = 0x9e37_79b9_7f4a_7c15u64;
+        let mut next = || {
+            seed ^= seed << 13;
+            seed ^= seed >> 7;
+            seed ^= seed << 17;
+            seed
+        };
+        let mut fast = 0;
+        for i in 0..20_000 {
+            // Some texts long enough for a long run.
+            let len = (next() % if i % 5 == 0 { 80 } else { 24 }) as usize;
+            // Most texts from the characters the one pass takes.
+            let narrow = i % 4 != 0;
+            let text: String = (0..len)
+                .map(|_| {
+                    let k = (next() % pool.len() as u64) as usize;
+                    if narrow { pool[k % 16] } else { pool[k] }
+                })
+                .collect();
+            let full = escape_content_full(&text);
+            if let Some(one_pass) = content_as_string(&text) {
+                fast += 1;
+                assert_eq!(one_pass, full, "{text:?}");
+            }
+            assert_eq!(escape_content(&text), full, "{text:?}");
+        }
+        assert!(fast > 3_000, "one pass taken {fast} times");
     }
 }
