@@ -85,18 +85,21 @@ pub enum Command {
     /// `git show` names it (`HEAD:jobs/a.kdl`, `HEAD~2:./a.kdl`). With
     /// --sets, one job's two measurement sets are compared instead.
     Compare(CompareArgs),
-    /// Print the shell completion script for bash, zsh, fish or PowerShell.
+    /// Print the shell completion script for bash, zsh, fish, PowerShell or
+    /// elvish.
     ///
     /// The script asks ampreport itself what to offer at each Tab: commands,
-    /// options, job files (.kdl) and folders, the valve types of the ratings
-    /// table for `tubes`, .pdf files for `render -o`. ampreport must be on
-    /// PATH. To install, for bash: `ampreport completions bash >
+    /// options, job files (.kdl) and folders, the valve types of the built-in
+    /// ratings table for `tubes` (not those a --ratings file adds: a Tab
+    /// sees only the word being typed, not the file named before it), .pdf
+    /// files for `render -o`. ampreport must be on PATH. To install, for bash: `ampreport completions bash >
     /// ~/.local/share/bash-completion/completions/ampreport`; zsh:
     /// `ampreport completions zsh > ~/.zfunc/_ampreport` with ~/.zfunc on
     /// fpath before compinit; fish: `ampreport completions fish >
     /// ~/.config/fish/completions/ampreport.fish`; PowerShell: add
     /// `ampreport completions powershell | Out-String | Invoke-Expression`
-    /// to $PROFILE.
+    /// to $PROFILE; elvish: add `eval (ampreport completions elvish |
+    /// slurp)` to ~/.config/elvish/rc.elv.
     Completions(CompletionsArgs),
     /// Write the manual pages, one per command, into a folder.
     ///
