@@ -14,6 +14,8 @@ use std::time::Duration;
 use ampreport::{calc, job, ratings::RatingsTable};
 use criterion::{BenchmarkId, Criterion, Throughput, criterion_group, criterion_main};
 
+mod common;
+
 const DEMOS: [(&str, &str); 3] = [
     (
         "combo-el84-cathode",
@@ -26,89 +28,10 @@ const DEMOS: [(&str, &str); 3] = [
     ("head-el34-quad", include_str!("../jobs/head-el34-quad.kdl")),
 ];
 
-/// A 230 V head with four EL34 (transformer-resistance method, screen
-/// resistors, four nodes) and as many measurement sets as it takes to hold
-/// `lines` measurement lines: four node readings, four valve readings and
-/// a heater reading per set. Invented figures that vary from set to set.
-pub fn generated_job(lines: usize) -> String {
-    let mut s = String::from(
-        r#"job-format 1
-job id="BENCH-1" received="2026-01-05" technician="Bench"
-unit make="Benchmark" model="Generated" serial="G-1"
-mains nominal="230V" frequency="50Hz" tolerance="10%" design="240V"
-valves {
-    valve V1 type=ECC83 role=preamp
-    valve V3 type=EL34 role=output
-    valve V4 type=EL34 role=output
-    valve V5 type=EL34 role=output
-    valve V6 type=EL34 role=output
-}
-circuit {
-    bias fixed
-    half-primary resistance="38R" valves="V3 V5"
-    half-primary resistance="41R" valves="V4 V6"
-    screen-resistor R60 value="1k" rating="5W" valve=V3 supply=B+2
-    screen-resistor R61 value="1k" rating="5W" valve=V4 supply=B+2
-    screen-resistor R62 value="1k" rating="5W" valve=V5 supply=B+2
-    screen-resistor R63 value="1k" rating="5W" valve=V6 supply=B+2
-    node B+1 chart="480V" tolerance="10%"
-    node B+2 chart="470V" tolerance="10%"
-    node B+3 chart="400V" tolerance="10%"
-    node B+4 chart="300V" tolerance="20%"
-    dropper R70 value="1k" rating="5W" from=B+1 to=B+2
-    dropper R71 value="10k" rating="2W" from=B+2 to=B+3
-    dropper R72 value="22k" rating="2W" from=B+3 to=B+4
-    filter-capacitor C50 value="100u" rating="800V" node=B+1
-    filter-capacitor C51 value="50u" rating="700V" node=B+2
-    high-voltage-winding rms="365V" primary="240V"
-    rectifier silicon
-}
-"#,
-    );
-    let mut written = 0;
-    let mut set = 0;
-    while written < lines {
-        set += 1;
-        let d = (set % 17) as f64 * 0.5;
-        s.push_str(&format!(
-            "measurements \"reading {set:05}\" mains=\"{}V\" {{\n",
-            226 + set % 9
-        ));
-        let body = [
-            format!("    node B+1 \"{}V\"", 468.0 + d),
-            format!("    node B+2 \"{}V\"", 458.0 + d),
-            format!("    node B+3 \"{}V\"", 392.0 + d),
-            format!("    node B+4 \"{}V\"", 301.0 + d),
-            format!(
-                "    valve V3 plate=\"{}V\" screen=\"453V\" primary-drop=\"{}V\"",
-                465.0 + d,
-                3.0 + d / 10.0
-            ),
-            format!(
-                "    valve V4 plate=\"{}V\" screen=\"453.2V\" primary-drop=\"{}V\"",
-                465.0 + d,
-                3.1 + d / 10.0
-            ),
-            format!(
-                "    valve V5 plate=\"{}V\" screen=\"452.8V\" primary-drop=\"{}V\"",
-                465.0 + d,
-                3.0 + d / 10.0
-            ),
-            format!(
-                "    valve V6 plate=\"{}V\" screen=\"453.1V\" primary-drop=\"{}V\"",
-                465.0 + d,
-                3.1 + d / 10.0
-            ),
-            format!("    heater \"{}V\"", 6.3 + d / 50.0),
-        ];
-        for line in body.iter().take(lines - written) {
-            s.push_str(line);
-            s.push('\n');
-            written += 1;
-        }
-        s.push_str("}\n");
-    }
-    s
+/// The generated job (a 230 V head with four EL34, `scripts/gen-job.sh`)
+/// holding exactly `lines` measurement lines.
+fn generated_job(lines: usize) -> String {
+    common::generated_job_lines(lines)
 }
 
 fn decode_and_derive(name: &str, text: &str, ratings: &RatingsTable) -> calc::Findings {

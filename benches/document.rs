@@ -19,7 +19,6 @@ mod common;
 use common::median;
 
 use std::hint::black_box;
-use std::process::Command;
 use std::time::Duration;
 
 use ampreport::calc::{self, Findings};
@@ -49,19 +48,6 @@ fn cpu<T>(f: impl FnOnce() -> T) -> (Duration, T) {
     let start = thread_cpu();
     let out = f();
     (thread_cpu() - start, out)
-}
-
-/// The generated job of `sets` measurement sets, from the script perf.sh
-/// uses, so both measure the same job.
-fn generated(sets: usize) -> String {
-    let script = concat!(env!("CARGO_MANIFEST_DIR"), "/scripts/gen-job.sh");
-    let out = Command::new("bash")
-        .arg(script)
-        .arg(sets.to_string())
-        .output()
-        .expect("run scripts/gen-job.sh");
-    assert!(out.status.success(), "gen-job.sh failed");
-    String::from_utf8(out.stdout).expect("the job is text")
 }
 
 fn decode(text: &str, ratings: &RatingsTable) -> Job {
@@ -150,7 +136,10 @@ fn summary(jobs: &[(usize, String)], ratings: &RatingsTable) {
 
 fn main() {
     let ratings = RatingsTable::builtin();
-    let jobs: Vec<(usize, String)> = SIZES.iter().map(|&n| (n, generated(n))).collect();
+    let jobs: Vec<(usize, String)> = SIZES
+        .iter()
+        .map(|&n| (n, common::generated_job(n)))
+        .collect();
     let mut c = Criterion::default()
         .sample_size(10)
         .warm_up_time(Duration::from_secs(1))

@@ -2,9 +2,10 @@
 # Prints an invented job file with N measurement sets (default 10): a 230 V
 # head with four EL34 (transformer-resistance method, screen resistors,
 # four nodes, droppers and filter capacitors), each set reading every node,
-# valve and the heater, with figures that vary from set to set. The same
-# shape as the generated job of benches/derive.rs; used by
-# scripts/perf.sh to measure how the cost grows with the job.
+# valve and the heater, with figures that vary from set to set. The one
+# generator of this job: scripts/perf.sh, the tests and the benches
+# (benches/common/mod.rs: derive.rs cuts it to a number of lines,
+# document.rs takes whole sets) all run this script.
 set -euo pipefail
 n="${1:-10}"
 cat <<'HEAD'

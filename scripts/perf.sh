@@ -7,7 +7,8 @@
 #   bash scripts/perf.sh overhead-own [ROUNDS]  render's own share, less the typst compile inside each render (OLD_BIN, PIN_CPU as above)
 #   bash scripts/perf.sh size [SETS...]     typst time and memory per measurement set (generated jobs)
 #   bash scripts/perf.sh own [SETS]         ampreport's own work on a generated job (no typst)
-#   bash scripts/perf.sh batch [JOBS] [ROUNDS]  -j 1 against -j 2 over demo-sized jobs, alternating (and -j 2 with typst's own threads)
+#   bash scripts/perf.sh batch [JOBS] [ROUNDS]  -j 1 against -j 2 over demo-sized jobs, alternating (and -j 2 with typst's own threads); each round's own ratio, its median and spread
+#   bash scripts/perf.sh batch-pair [JOBS] [ROUNDS]  the same, -j 1 and -j 2 only (default 200 jobs, 5 rounds: about 8 minutes idle)
 #   bash scripts/perf.sh ceiling [ROUNDS]   what two cores give this machine: one stream of work against two side by side
 #   bash scripts/perf.sh noop [JOBS]        a second pass over unchanged jobs
 #   bash scripts/perf.sh watch [SAVES]      save-to-PDF time of `watch` against typst's compile time
@@ -28,6 +29,15 @@ cd "$(dirname "$0")/.."
 root=$(pwd)
 what="${1:-}"
 shift || true
+
+# An unknown section prints the usage before anything is built.
+case "$what" in
+template | overhead | overhead-own | size | own | batch | batch-pair | ceiling | noop | watch | watch-own) ;;
+*)
+    sed -n '2,26p' "$0"
+    exit 2
+    ;;
+esac
 
 if [ -n "${AMPREPORT_BIN:-}" ]; then
     # A binary already built (for the sections that time typst alone).
@@ -167,6 +177,13 @@ stand_in() {
 }
 
 load() { echo "# $(date -u +%H:%M) UTC, load:$(uptime | sed 's/.*load average://')"; }
+
+# Milliseconds of processor time the host has taken from this machine's
+# cores so far ("steal", all cores together; 0 where it is not told): on a
+# virtual machine a busy host slows every core without any load showing.
+steal_ms() {
+    awk -v hz="$(getconf CLK_TCK)" '/^cpu / { printf "%d\n", ($9 + 0) * 1000 / hz; found = 1 } END { if (!found) print 0 }' /proc/stat 2>/dev/null || echo 0
+}
 
 case "$what" in
 template)
@@ -360,7 +377,7 @@ own)
         echo "render with a stand-in typst, $n sets: $c ms of processor time, $(tail -1 "$work/own.wall") ms wall clock"
     done
     ;;
-batch)
+batch | batch-pair)
     # -j 1 against -j 2 over the same jobs, each run with every PDF
     # rendered (--force), ROUNDS rounds in turn, the order of each round
     # the reverse of the one before (1 2 2*, 2* 2 1, …) so a change of load
@@ -368,24 +385,48 @@ batch)
     # the cores itself at -j 2 (typst --jobs 1 on 2 cores) and leaves typst
     # its default at -j 1; the third kind of run (2*) is -j 2 with typst as
     # it comes, through a wrapper that drops the --jobs ampreport passes,
-    # to show what holding typst to its share is worth.
+    # to show what holding typst to its share is worth. `batch-pair` runs
+    # only -j 1 and -j 2 (1 2, 2 1, …), so more rounds fit in the same
+    # time: 5 rounds of 200 jobs by default, about 8 minutes idle.
+    #
+    # Besides the ratio of the medians, each round's own ratio (-j 1's wall
+    # clock over -j 2's, the two runs minutes apart) is printed with their
+    # median and spread: a slow patch of the machine then spoils one
+    # round's ratio, not both medians. Each run says how many cores it kept
+    # busy (processor time / wall clock): about 1.0 at -j 1 and near 2 at
+    # -j 2 on an idle machine, and how much of the cores' time the host of
+    # this virtual machine took ("stolen"); a round where -j 1 kept under
+    # 0.90 of a core busy, -j 2 under 1.70 cores, or either run lost more
+    # than 2 % of the cores' time to the host waited on something else and
+    # is marked, and the median is given without the marked rounds too. The processor time of -j 2 over -j 1's in the same
+    # round says how much dearer each render is beside another, and 2 ×
+    # (-j 1's processor time / -j 2's) is the most two cores could give at
+    # that cost: the pool is doing its part when the speed-up is near it.
     jobs="${1:-200}"
-    rounds="${2:-3}"
+    if [ "$what" = batch ]; then rounds="${2:-3}"; else rounds="${2:-5}"; fi
     load
-    mkdir -p "$work/batch"
+    mkdir -p "$work/batch" "$work/warm"
     i=0
     while [ "$i" -lt "$jobs" ]; do
         for job in jobs/combo-el84-cathode.kdl jobs/head-el34-quad.kdl jobs/stereo-el84-hifi.kdl jobs/combo-6v6-fixed.kdl; do
             [ "$i" -ge "$jobs" ] && break
             sed "s/^job id=\"[^\"]*\"/job id=\"B-$i\"/" "$job" >"$work/batch/job-$i.kdl"
+            [ "$i" -lt 4 ] && cp "$work/batch/job-$i.kdl" "$work/warm/"
             i=$((i + 1))
         done
     done
     cp -r jobs/shop.kdl jobs/larkmoor-logo.svg jobs/photos "$work/batch/"
+    cp -r jobs/shop.kdl jobs/larkmoor-logo.svg jobs/photos "$work/warm/"
     real_typst=$(command -v "$typst")
     printf '#!/bin/sh\nskip=; for a in "$@"; do shift; if [ -n "$skip" ]; then skip=; continue; fi; if [ "$a" = --jobs ]; then skip=1; continue; fi; set -- "$@" "$a"; done\nexec %s "$@"\n' "'$real_typst'" >"$work/typst-as-it-comes"
     chmod +x "$work/typst-as-it-comes"
-    runs=("j1 1 $real_typst" "j2 2 $real_typst" "j2-typst-default 2 $work/typst-as-it-comes")
+    runs=("j1 1 $real_typst" "j2 2 $real_typst")
+    if [ "$what" = batch ]; then
+        runs+=("j2-typst-default 2 $work/typst-as-it-comes")
+    fi
+    # Not timed: the programs, the fonts and the photos read once, so the
+    # first timed run does not pay for the cold caches alone.
+    "$bin" render "$work/warm" -j 2 --force --quiet --typst "$real_typst" >/dev/null 2>&1 || true
     for r in $(seq "$rounds"); do
         order=("${runs[@]}")
         if [ $((r % 2)) = 0 ]; then
@@ -395,17 +436,49 @@ batch)
         for run in "${order[@]}"; do
             read -r label n t <<<"$run"
             : >"$work/last.wall"
+            s0=$(steal_ms)
             c=$(cpu_ms "$work/last.wall" "$bin" render "$work/batch" -j "$n" --force --quiet --typst "$t")
+            st=$(($(steal_ms) - s0))
             w=$(cat "$work/last.wall")
+            # One line per round in each file, in round order.
             echo "$w" >>"$work/$label.wall"
             echo "$c" >>"$work/$label.cpu"
-            echo "round $r, $label: $jobs jobs in $w ms wall clock, $c ms of processor time ($(date -u +%H:%M:%S), load$(uptime | sed 's/.*load average://'))"
+            echo "$st" >>"$work/$label.steal"
+            echo "round $r, $label: $jobs jobs in $w ms wall clock, $c ms of processor time, $(ratio "$c" "$w") cores busy, $st ms stolen ($(date -u +%H:%M:%S), load$(uptime | sed 's/.*load average://'))"
         done
     done
+    # Rounds in which a run waited on something else or had more than 2 %
+    # of the cores' time stolen (see above): 1 a line.
+    paste "$work/j1.wall" "$work/j1.cpu" "$work/j2.wall" "$work/j2.cpu" "$work/j1.steal" "$work/j2.steal" |
+        awk -v cores="$(nproc)" '{ print ($2 / $1 < 0.90 || $4 / $3 < 1.70 || $5 > 0.02 * cores * $1 || $6 > 0.02 * cores * $3) ? 1 : 0 }' >"$work/marked"
+    # Each round's figures of run $1 against -j 1, said as $2.
+    paired() {
+        local label="$1" words="$2" speedups cpu bound clean
+        speedups=$(paste "$work/j1.wall" "$work/$label.wall" | awk '{ printf "%.2f\n", $1 / $2 }')
+        cpu=$(paste "$work/j1.cpu" "$work/$label.cpu" | awk '{ printf "%.2f\n", $2 / $1 }')
+        bound=$(paste "$work/j1.cpu" "$work/$label.cpu" | awk '{ printf "%.2f\n", 2 * $1 / $2 }')
+        clean=$(paste "$work/marked" <(echo "$speedups") | awk '$1 == 0 { print $2 }')
+        echo "$words, each round (-j 1 wall / its wall, same round): $(echo $speedups | sed 's/ /, /g'); median $(median <<<"$speedups"), spread $(sort -g <<<"$speedups" | head -1)–$(sort -g <<<"$speedups" | tail -1)"
+        if [ -n "$clean" ]; then
+            echo "  without the marked rounds: median $(median <<<"$clean") of $(wc -l <<<"$clean") rounds"
+        else
+            echo "  without the marked rounds: none left"
+        fi
+        echo "  its processor time / -j 1's, each round: $(echo $cpu | sed 's/ /, /g'); median $(median <<<"$cpu")"
+        echo "  the most two cores could give at that processor time (2 × -j 1's / its), each round: $(echo $bound | sed 's/ /, /g'); median $(median <<<"$bound")"
+    }
+    marked=$(awk '$1 == 1 { printf "%s%d", sep, NR; sep = ", " }' "$work/marked")
+    echo "rounds marked (-j 1 under 0.90 cores busy, -j 2 under 1.70, or over 2 % of the cores' time stolen): ${marked:-none}"
+    paired j2 "-j 2"
     j1=$(median <"$work/j1.wall")
     j2=$(median <"$work/j2.wall")
-    d2=$(median <"$work/j2-typst-default.wall")
-    echo "medians: -j 1 $j1 ms ($(median <"$work/j1.cpu") ms CPU); -j 2 $j2 ms ($(median <"$work/j2.cpu") ms CPU), $(ratio "$j1" "$j2") x as fast; -j 2 with typst as it comes $d2 ms ($(median <"$work/j2-typst-default.cpu") ms CPU), $(ratio "$j1" "$d2") x"
+    if [ "$what" = batch ]; then
+        paired j2-typst-default "-j 2 with typst as it comes"
+        d2=$(median <"$work/j2-typst-default.wall")
+        echo "medians: -j 1 $j1 ms ($(median <"$work/j1.cpu") ms CPU); -j 2 $j2 ms ($(median <"$work/j2.cpu") ms CPU), $(ratio "$j1" "$j2") x as fast; -j 2 with typst as it comes $d2 ms ($(median <"$work/j2-typst-default.cpu") ms CPU), $(ratio "$j1" "$d2") x"
+    else
+        echo "medians: -j 1 $j1 ms ($(median <"$work/j1.cpu") ms CPU); -j 2 $j2 ms ($(median <"$work/j2.cpu") ms CPU), $(ratio "$j1" "$j2") x as fast"
+    fi
     echo "cores: $(nproc)"
     load
     ;;
@@ -414,7 +487,9 @@ ceiling)
     # the same work run as one stream and as two streams side by side.
     # Two kinds of work: a pure arithmetic loop (awk; no memory traffic to
     # speak of) and bare typst compiling the four demo jobs' emitted
-    # sources 3 times over (what a batch of renders is mostly made of).
+    # sources 3 times over (what a batch of renders is mostly made of),
+    # with typst's own threads in both streams and, as `render` runs it,
+    # with one thread each in the two streams ("typst-held").
     # The speed-up of two streams is the most `render -j 2` can reach
     # over `-j 1` here; rounds alternate so a change of load hits both.
     rounds="${1:-3}"
@@ -433,17 +508,34 @@ ceiling)
             for ((i = 0; i < n; i++)); do compile "$work/c$i" "$work/c$i-$1.pdf" >/dev/null 2>&1; done
         done
     }
+    # As `render` runs typst: its own threads for one job at a time, one
+    # thread each (--jobs 1) for two side by side.
+    held_stream() {
+        local k i cmd
+        for k in 1 2 3; do
+            for ((i = 0; i < n; i++)); do
+                read -ra cmd <"$work/c$i.cmd"
+                cmd[0]="$typst"
+                cmd[${#cmd[@]} - 1]="$work/c$i-$1.pdf"
+                "${cmd[0]}" "${cmd[1]}" --jobs 1 "${cmd[@]:2}" >/dev/null 2>&1
+            done
+        done
+    }
     one_stream_spin() { spin; spin; }
     two_streams_spin() { spin & spin & wait; }
     one_stream_typst() { typst_stream a; typst_stream b; }
     two_streams_typst() { typst_stream a & typst_stream b & wait; }
-    echo "work | one stream ms | two streams ms | speed-up | one stream CPU ms | two streams CPU ms"
-    for kind in spin typst; do
+    one_stream_typst-held() { typst_stream a; typst_stream b; }
+    two_streams_typst-held() { held_stream a & held_stream b & wait; }
+    echo "work | one stream ms | two streams ms | speed-up | one stream CPU ms | two streams CPU ms | speed-up each round"
+    for kind in spin typst typst-held; do
         alternate "$rounds" "one_stream_$kind" "two_streams_$kind"
         a=$(median <"$work/a")
         b=$(median <"$work/b")
-        echo "$kind | $a | $b | $(ratio "$a" "$b") | $(median <"$work/a.cpu") | $(median <"$work/b.cpu")"
+        each=$(paste "$work/a" "$work/b" | awk '{ printf "%s%.2f", sep, $1 / $2; sep = ", " }')
+        echo "$kind | $a | $b | $(ratio "$a" "$b") | $(median <"$work/a.cpu") | $(median <"$work/b.cpu") | $each"
     done
+    echo "(typst: both streams with typst's own threads; typst-held: as render runs it, its own threads for one stream, --jobs 1 for each of two)"
     echo "cores: $(nproc)"
     load
     ;;
@@ -542,7 +634,7 @@ watch-own)
     echo "processor time per save: $(((t1 - t0) * 1000 / $(getconf CLK_TCK) / saves)) ms (watch and the children it waited for)"
     ;;
 *)
-    sed -n '2,23p' "$0"
+    sed -n '2,26p' "$0"
     exit 2
     ;;
 esac

@@ -8,11 +8,11 @@
 
 mod support;
 
-use std::path::PathBuf;
+use std::path::{Path, PathBuf};
 use std::process::{Command, Output, Stdio};
 use std::time::{Duration, Instant};
 
-use support::{NOTICE_PHRASES, Scene, git, pdf_with_text, stderr};
+use support::{KilledOnDrop, NOTICE_PHRASES, Scene, git, pdf_with_text, stderr};
 
 /// A scene whose stand-in typst appends a line to `compiles` on every
 /// compile and writes a small PDF with the notice.
@@ -826,23 +826,60 @@ fn wait_until(limit: Duration, mut test: impl FnMut() -> bool) -> bool {
     test()
 }
 
+/// `ampreport watch JOB EXTRA… --typst COUNTING` with its standard output
+/// in `log`, held in a guard that kills and reaps it should the test fail.
+fn start_watch(c: &Counting, log: &Path, extra: &[&str], stderr: Stdio) -> KilledOnDrop {
+    let mut args = vec!["watch", c.scene.job.to_str().unwrap()];
+    args.extend_from_slice(extra);
+    args.extend_from_slice(&["--typst", c.typst.to_str().unwrap()]);
+    KilledOnDrop::spawn(
+        c.command(&args)
+            .stdin(Stdio::null())
+            .stdout(std::fs::File::create(log).unwrap())
+            .stderr(stderr),
+    )
+}
+
+#[cfg(target_os = "linux")]
+#[test]
+fn a_watch_test_that_fails_leaves_no_watch_running() {
+    // The guard every watch test holds its child in: a failing check
+    // (a panic) unwinds through it, and it kills and reaps the watcher.
+    let c = Counting::new();
+    let log = c.scene.root.path().join("watch.out");
+    let (told, pid) = std::sync::mpsc::channel();
+    let failed = std::panic::catch_unwind(std::panic::AssertUnwindSafe(|| {
+        let child = start_watch(&c, &log, &[], Stdio::null());
+        told.send(child.id() as i32).unwrap();
+        let rendered = || {
+            std::fs::read_to_string(&log)
+                .unwrap_or_default()
+                .contains(" rendered ")
+        };
+        assert!(wait_until(Duration::from_secs(30), rendered));
+        panic!("a check of a watch test fails here (on purpose)");
+    }));
+    assert!(failed.is_err());
+    let pid = pid.recv().unwrap();
+    assert!(
+        std::fs::read_to_string(&log)
+            .unwrap()
+            .contains(" rendered "),
+        "the watcher ran"
+    );
+    // Gone, and reaped: not even a zombie is left.
+    assert!(
+        !std::path::Path::new(&format!("/proc/{pid}")).exists(),
+        "ampreport watch {pid} outlived its failed test"
+    );
+}
+
 #[cfg(target_os = "linux")]
 #[test]
 fn watch_renders_on_save_keeps_the_last_good_pdf_and_stops_on_ctrl_c() {
     let c = Counting::new();
     let log = c.scene.root.path().join("watch.out");
-    let mut child = c
-        .command(&[
-            "watch",
-            c.scene.job.to_str().unwrap(),
-            "--typst",
-            c.typst.to_str().unwrap(),
-        ])
-        .stdin(Stdio::null())
-        .stdout(std::fs::File::create(&log).unwrap())
-        .stderr(Stdio::piped())
-        .spawn()
-        .unwrap();
+    let mut child = start_watch(&c, &log, &[], Stdio::piped());
     let pid = child.id() as i32;
     let limit = Duration::from_secs(30);
     let rendered = || {
@@ -943,19 +980,7 @@ fn watch_takes_no_read_of_its_own_for_a_save_and_renders_listings() {
     )
     .unwrap();
     let log = c.scene.root.path().join("watch.out");
-    let mut child = c
-        .command(&[
-            "watch",
-            c.scene.job.to_str().unwrap(),
-            "--listing",
-            "--typst",
-            c.typst.to_str().unwrap(),
-        ])
-        .stdin(Stdio::null())
-        .stdout(std::fs::File::create(&log).unwrap())
-        .stderr(Stdio::null())
-        .spawn()
-        .unwrap();
+    let mut child = start_watch(&c, &log, &["--listing"], Stdio::null());
     let pid = child.id() as i32;
     let limit = Duration::from_secs(30);
     let said = || std::fs::read_to_string(&log).unwrap_or_default();
@@ -999,18 +1024,7 @@ fn watch_asks_git_again_after_a_commit_made_while_it_watches() {
     }
     assert!(git(dir, &["add", "job.kdl"]) && git(dir, &["commit", "-qm", "first"]));
     let log = c.scene.root.path().join("watch.out");
-    let mut child = c
-        .command(&[
-            "watch",
-            c.scene.job.to_str().unwrap(),
-            "--typst",
-            c.typst.to_str().unwrap(),
-        ])
-        .stdin(Stdio::null())
-        .stdout(std::fs::File::create(&log).unwrap())
-        .stderr(Stdio::null())
-        .spawn()
-        .unwrap();
+    let mut child = start_watch(&c, &log, &[], Stdio::null());
     let pid = child.id() as i32;
     let limit = Duration::from_secs(30);
     let said = || std::fs::read_to_string(&log).unwrap_or_default();

@@ -129,6 +129,30 @@ fn check_job_candidates(got: &[String], shell: &str) {
 
 // ----- completions ----------------------------------------------------------
 
+/// Every command a Tab after `ampreport ` must offer, from the command
+/// line's own definition (so a new command cannot be left out).
+fn subcommands() -> Vec<String> {
+    let mut names: Vec<String> = ampreport::cli::args::Cli::command()
+        .get_subcommands()
+        .filter(|s| !s.is_hide_set())
+        .map(|s| s.get_name().to_owned())
+        .collect();
+    names.sort();
+    assert!(names.len() >= 10, "{names:?}");
+    names
+}
+
+/// Checks that `got`, the candidates a shell offers after `ampreport `,
+/// holds every command.
+fn check_every_command_offered(got: &[String], shell: &str) {
+    for name in subcommands() {
+        assert!(
+            got.contains(&name),
+            "{shell}: `{name}` not offered in {got:?}"
+        );
+    }
+}
+
 #[test]
 fn bash_script_parses_and_completes_valve_types_and_job_files() {
     let dir = workbench();
@@ -175,6 +199,7 @@ fn bash_script_parses_and_completes_valve_types_and_job_files() {
         ["bench-a.kdl", "bench-b.kdl"]
     );
     assert_eq!(complete(&["ampreport", "rend"]), ["render"]);
+    check_every_command_offered(&complete(&["ampreport", ""]), "bash");
     assert_eq!(
         complete(&["ampreport", "render", "bench-a.kdl", "-o", "ol"]),
         ["old.pdf"]
@@ -225,6 +250,7 @@ fn zsh_script_parses_and_completes() {
         builtin_types_starting("EL8")
     );
     check_job_candidates(&complete(&["ampreport", "render", ""]), "zsh");
+    check_every_command_offered(&complete(&["ampreport", ""]), "zsh");
 }
 
 #[test]
@@ -265,6 +291,7 @@ fn fish_script_parses_and_completes() {
         builtin_types_starting("EL8")
     );
     check_job_candidates(&complete("ampreport check "), "fish");
+    check_every_command_offered(&complete("ampreport "), "fish");
 }
 
 #[test]
@@ -309,6 +336,75 @@ fn powershell_script_has_its_shape_and_the_program_answers_it() {
     assert_eq!(names, builtin_types_starting("EL8"));
     let el84 = lines.iter().find(|l| l.starts_with("EL84\t")).unwrap();
     assert!(el84.ends_with("output pentode"), "{el84}");
+    // After the program's name: every command.
+    let o = ampreport()
+        .env("AMPREPORT_COMPLETE", "powershell")
+        .args(["--", "ampreport", ""])
+        .output()
+        .unwrap();
+    ok(&o, "powershell completion request");
+    let names: Vec<String> = stdout(&o)
+        .lines()
+        .map(|l| l.split('\t').next().unwrap().to_owned())
+        .collect();
+    check_every_command_offered(&names, "powershell");
+}
+
+#[test]
+fn valve_types_of_a_ratings_file_are_not_offered_and_the_help_says_so() {
+    // The engine hands a completer only the word being completed, so a
+    // type only a `--ratings` file names cannot be offered: the help and
+    // the README say so rather than pretend.
+    let dir = workbench();
+    let ratings = dir.path().join("shop-ratings.kdl");
+    // An invented type, for this test only.
+    std::fs::write(
+        &ratings,
+        "ratings-format 1\nvalve \"QX91\" {\n    class \"output-pentode\"\n    \
+         plate-dissipation \"12W\"\n    screen-dissipation \"2W\"\n    \
+         plate-voltage \"300V\"\n    screen-voltage \"300V\"\n    \
+         cathode-current \"65mA\"\n    heater \"6.3V\" \"0.76A\"\n    \
+         source \"invented for a test\"\n}\n",
+    )
+    .unwrap();
+    let shown = ampreport()
+        .args(["tubes", "QX91", "--ratings"])
+        .arg(&ratings)
+        .output()
+        .unwrap();
+    ok(&shown, "tubes QX91 --ratings");
+    let offered = |word: &str| {
+        let o = ampreport()
+            .env("AMPREPORT_COMPLETE", "powershell")
+            .args(["--", "ampreport", "tubes", "--ratings"])
+            .arg(&ratings)
+            .arg(word)
+            .output()
+            .unwrap();
+        ok(&o, "completion request with --ratings");
+        sorted(
+            stdout(&o)
+                .lines()
+                .map(|l| l.split('\t').next().unwrap().to_owned()),
+        )
+    };
+    assert_eq!(offered("EL8"), builtin_types_starting("EL8"));
+    assert!(offered("QX").is_empty(), "{:?}", offered("QX"));
+    let help = ampreport()
+        .args(["completions", "--help"])
+        .output()
+        .unwrap();
+    ok(&help, "completions --help");
+    let words = stdout(&help)
+        .split_whitespace()
+        .collect::<Vec<_>>()
+        .join(" ");
+    assert!(words.contains("not those a --ratings file adds"), "{words}");
+    let readme = std::fs::read_to_string(support::repo().join("README.md")).unwrap();
+    assert!(
+        readme.contains("not those a `--ratings` file adds"),
+        "README"
+    );
 }
 
 #[test]

@@ -175,7 +175,7 @@ fn a_hanging_typst_is_stopped_at_the_time_limit() {
 
 /// Starts a render whose typst writes half a PDF into its output, notes its
 /// process id and sleeps; returns the running ampreport and typst's pid.
-fn start_slow_render(scene: &Scene) -> (std::process::Child, i32) {
+fn start_slow_render(scene: &Scene) -> (support::KilledOnDrop, i32) {
     let pid_file = scene.bin.join("slow.pid");
     let _ = std::fs::remove_file(&pid_file);
     let typst = scene.fake_typst(
@@ -185,12 +185,12 @@ fn start_slow_render(scene: &Scene) -> (std::process::Child, i32) {
             p = pid_file.display()
         ),
     );
-    let child = scene
-        .render_command(&scene.pdf, &typst, &[])
-        .stdout(std::process::Stdio::null())
-        .stderr(std::process::Stdio::piped())
-        .spawn()
-        .unwrap();
+    let child = support::KilledOnDrop::spawn(
+        scene
+            .render_command(&scene.pdf, &typst, &[])
+            .stdout(std::process::Stdio::null())
+            .stderr(std::process::Stdio::piped()),
+    );
     support::wait_for_file(&pid_file);
     let pid = std::fs::read_to_string(&pid_file)
         .unwrap()

@@ -88,9 +88,10 @@ pub enum Command {
     /// Print the shell completion script for bash, zsh, fish or PowerShell.
     ///
     /// The script asks ampreport itself what to offer at each Tab: commands,
-    /// options, job files (.kdl) and folders, the valve types of the ratings
-    /// table for `tubes`, .pdf files for `render -o`. ampreport must be on
-    /// PATH. To install, for bash: `ampreport completions bash >
+    /// options, job files (.kdl) and folders, the valve types of the built-in
+    /// ratings table for `tubes` (not those a --ratings file adds: a Tab
+    /// sees only the word being typed, not the file named before it), .pdf
+    /// files for `render -o`. ampreport must be on PATH. To install, for bash: `ampreport completions bash >
     /// ~/.local/share/bash-completion/completions/ampreport`; zsh:
     /// `ampreport completions zsh > ~/.zfunc/_ampreport` with ~/.zfunc on
     /// fpath before compinit; fish: `ampreport completions fish >

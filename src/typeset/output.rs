@@ -46,6 +46,15 @@ impl Input {
             what: Msg::new(what),
         }
     }
+
+    /// `message` about the output `path` and this input: its `path`,
+    /// `input` and `what` arguments.
+    fn named_in(&self, message: Msg, path: &Path) -> Msg {
+        message
+            .arg("path", shown(path))
+            .arg("input", shown(&self.path))
+            .arg("what", self.what.clone())
+    }
 }
 
 /// Why an output path is refused. Nothing has been written when this is
@@ -69,15 +78,15 @@ pub enum OutputRefused {
     NoFolder {
         path: PathBuf,
     },
+    /// The output is the file `input` reads.
     IsInput {
         path: PathBuf,
-        input: PathBuf,
-        what: Msg,
+        input: Input,
     },
+    /// The output lies inside the folder `input` reads.
     InsideInput {
         path: PathBuf,
-        input: PathBuf,
-        what: Msg,
+        input: Input,
     },
     EmitFolder {
         path: PathBuf,
@@ -91,41 +100,41 @@ fn shown(path: &Path) -> String {
 }
 
 impl OutputRefused {
-    /// The message and its help, not yet said.
-    fn words(&self) -> (Msg, Msg) {
+    /// The diagnostic's code, the message and its help, not yet said.
+    fn words(&self) -> (&'static str, Msg, Msg) {
         match self {
             Self::Folder { path } => (
+                "ampreport::output::folder",
                 Msg::new("cli-output-folder").arg("path", shown(path)),
                 Msg::new("cli-output-folder-help").arg("example", shown(&path.join("report.pdf"))),
             ),
             Self::Link { path, target } => (
+                "ampreport::output::link",
                 Msg::new("cli-output-link")
                     .arg("path", shown(path))
                     .arg("target", shown(target)),
                 Msg::new("cli-output-link-help"),
             ),
             Self::NotAFile { path, kind } => (
+                "ampreport::output::not_a_file",
                 Msg::new("cli-output-not-a-file")
                     .arg("path", shown(path))
                     .arg("kind", Msg::new(kind)),
                 Msg::new("cli-output-not-a-file-help"),
             ),
             Self::NoFolder { path } => (
+                "ampreport::output::no_folder",
                 Msg::new("cli-output-no-folder").arg("path", shown(path)),
                 Msg::new("cli-output-no-folder-help"),
             ),
-            Self::IsInput { path, input, what } => (
-                Msg::new("cli-output-is-input")
-                    .arg("path", shown(path))
-                    .arg("input", shown(input))
-                    .arg("what", what.clone()),
+            Self::IsInput { path, input } => (
+                "ampreport::output::is_input",
+                input.named_in(Msg::new("cli-output-is-input"), path),
                 Msg::new("cli-output-is-input-help"),
             ),
-            Self::InsideInput { path, input, what } => (
-                Msg::new("cli-output-inside-input")
-                    .arg("path", shown(path))
-                    .arg("input", shown(input))
-                    .arg("what", what.clone()),
+            Self::InsideInput { path, input } => (
+                "ampreport::output::inside_input",
+                input.named_in(Msg::new("cli-output-inside-input"), path),
                 Msg::new("cli-output-inside-input-help"),
             ),
             Self::EmitFolder {
@@ -133,6 +142,7 @@ impl OutputRefused {
                 problem,
                 help,
             } => (
+                "ampreport::output::emit_folder",
                 Msg::new("cli-emit-folder")
                     .arg("path", shown(path))
                     .arg("problem", problem.clone()),
@@ -141,26 +151,19 @@ impl OutputRefused {
         }
     }
 
+    /// The diagnostic's code.
     fn code_words(&self) -> &'static str {
-        match self {
-            Self::Folder { .. } => "ampreport::output::folder",
-            Self::Link { .. } => "ampreport::output::link",
-            Self::NotAFile { .. } => "ampreport::output::not_a_file",
-            Self::NoFolder { .. } => "ampreport::output::no_folder",
-            Self::IsInput { .. } => "ampreport::output::is_input",
-            Self::InsideInput { .. } => "ampreport::output::inside_input",
-            Self::EmitFolder { .. } => "ampreport::output::emit_folder",
-        }
+        self.words().0
     }
 
     /// The message in the words of `catalogue`.
     pub fn message_in(&self, catalogue: &Catalogue) -> String {
-        catalogue.say(&self.words().0)
+        catalogue.say(&self.words().1)
     }
 
     /// The help in the words of `catalogue`.
     pub fn help_in(&self, catalogue: &Catalogue) -> String {
-        catalogue.say(&self.words().1)
+        catalogue.say(&self.words().2)
     }
 
     /// The same refusal, code and all, in the words of `catalogue`.
@@ -260,8 +263,7 @@ pub fn check_output(output: &Path, inputs: &[Input]) -> Result<(), OutputRefused
             {
                 return Err(OutputRefused::InsideInput {
                     path: output.to_path_buf(),
-                    input: input.path.clone(),
-                    what: input.what.clone(),
+                    input: input.clone(),
                 });
             }
             continue;
@@ -273,8 +275,7 @@ pub fn check_output(output: &Path, inputs: &[Input]) -> Result<(), OutputRefused
         if same {
             return Err(OutputRefused::IsInput {
                 path: output.to_path_buf(),
-                input: input.path.clone(),
-                what: input.what.clone(),
+                input: input.clone(),
             });
         }
     }
@@ -324,8 +325,7 @@ impl InputIndex {
         match by_file.or_else(by_path) {
             Some(&i) => Err(OutputRefused::IsInput {
                 path: output.to_path_buf(),
-                input: self.inputs[i].path.clone(),
-                what: self.inputs[i].what.clone(),
+                input: self.inputs[i].clone(),
             }),
             None => Ok(()),
         }

@@ -326,6 +326,45 @@ pub fn wait_gone(pid: i32) -> bool {
     true
 }
 
+/// A child process that is killed and reaped when this is dropped,
+/// however the test ends: a failing assertion (a panic) unwinds through
+/// the drop, so a long-running child such as `ampreport watch` or a render
+/// waiting on a sleeping stand-in typst never outlives its test. Use it
+/// for every child that does not end by itself; it derefs to the
+/// [`std::process::Child`].
+pub struct KilledOnDrop(std::process::Child);
+
+impl KilledOnDrop {
+    /// Starts `command`, guarded.
+    pub fn spawn(command: &mut Command) -> Self {
+        Self(command.spawn().expect("start the child"))
+    }
+}
+
+impl std::ops::Deref for KilledOnDrop {
+    type Target = std::process::Child;
+    fn deref(&self) -> &Self::Target {
+        &self.0
+    }
+}
+
+impl std::ops::DerefMut for KilledOnDrop {
+    fn deref_mut(&mut self) -> &mut Self::Target {
+        &mut self.0
+    }
+}
+
+impl Drop for KilledOnDrop {
+    fn drop(&mut self) {
+        // Already ended (and reaped by `try_wait`), or killed now and
+        // reaped, so neither a running process nor a zombie is left.
+        if let Ok(None) = self.0.try_wait() {
+            let _ = self.0.kill();
+            let _ = self.0.wait();
+        }
+    }
+}
+
 /// Waits for a child with a limit, killing it past the limit.
 pub fn wait_with_limit(
     child: &mut std::process::Child,
@@ -338,6 +377,7 @@ pub fn wait_with_limit(
         }
         if Instant::now() > deadline {
             let _ = child.kill();
+            let _ = child.wait();
             panic!("ampreport did not end within {limit:?}");
         }
         std::thread::sleep(Duration::from_millis(10));
