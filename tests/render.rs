@@ -992,16 +992,23 @@ fn fonts_from_the_user_cache_or_the_sandbox_give_identical_bytes() {
         std::fs::read(pdf).unwrap()
     };
     // First run writes the cache (the fonts, the job's two photos as
-    // prepared and typst's version), the second uses it.
+    // prepared, typst's version and the job's place in git), the second
+    // uses it.
     let first = run(&dir.path().join("a.pdf"), &home);
     let photos = home.join("ampreport").join("photos");
     assert_eq!(std::fs::read_dir(&photos).unwrap().count(), 2);
     let versions = home.join("ampreport").join("typst");
     assert_eq!(std::fs::read_dir(&versions).unwrap().count(), 1);
+    // The demo job is in this repository: where it stands in git is kept
+    // too (where the source is not a git checkout, there is no entry).
+    let git = home.join("ampreport").join("git");
+    if git.exists() {
+        assert_eq!(std::fs::read_dir(&git).unwrap().count(), 1);
+    }
     let cached: Vec<PathBuf> = std::fs::read_dir(home.join("ampreport"))
         .unwrap()
         .map(|e| e.unwrap().path())
-        .filter(|p| *p != photos && *p != versions)
+        .filter(|p| *p != photos && *p != versions && *p != git)
         .collect();
     assert_eq!(cached.len(), 1, "{cached:?}");
     let folder = &cached[0];

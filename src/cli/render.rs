@@ -430,10 +430,15 @@ fn render_job(
         return Ok(Outcome::Unchanged);
     }
     // git is asked about the job file (for the footer) while the job is
-    // read and worked out; its answer is taken when the findings are.
+    // read and worked out, in the history of the commit the content key
+    // took (an answer kept from an earlier render of the same commit is
+    // used); its answer is taken when the findings are.
     let lookup = (!is_dash(job_path)).then(|| {
         let path = job_path.clone();
-        std::thread::spawn(move || crate::git::look_up(&path))
+        let head = setup.repository_head(job_path);
+        std::thread::spawn(move || {
+            crate::git::look_up_at(&path, head.as_ref(), crate::folders::cache_dir().as_deref())
+        })
     });
     let shop = load::shop_profile(job_path, args.job.shop_choice(), said, depends)?;
     let text = load::read_job(job_path, said)?;

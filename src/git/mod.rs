@@ -25,6 +25,9 @@ use sha2::{Digest, Sha256};
 
 use crate::typeset::{Running, Stopped, describe_status};
 
+pub mod remembered;
+pub use remembered::look_up_at;
+
 /// How long one git command may take.
 pub const GIT_TIMEOUT: Duration = Duration::from_secs(20);
 
@@ -310,25 +313,58 @@ pub struct Lookup {
 /// answer does not depend on them.
 pub fn look_up(file: &Path) -> Option<Lookup> {
     let (dir, name) = folder_and_name(file)?;
-    let Ran::Ok(out) = run(&dir, &last_change_args(&name), LOG_CAP) else {
-        return None;
+    ask(&dir, &name, "HEAD").answer
+}
+
+/// What git said of a file at a revision.
+struct Asked {
+    answer: Option<Lookup>,
+    /// True when every run ended with git's own answer (none failed,
+    /// timed out or was stopped), so the answer may be kept.
+    settled: bool,
+}
+
+/// [`look_up`] of the file `name` in the folder `dir`, with history
+/// read from `rev` (`HEAD`, or a commit's id).
+fn ask(dir: &Path, name: &str, rev: &str) -> Asked {
+    let unsettled = Asked {
+        answer: None,
+        settled: false,
     };
-    let (commit, blob) = parse_last_change(&String::from_utf8(out).ok()?, &name)?;
-    let committed = match blob {
-        Blob::Id(id) => Some(id),
-        Blob::Removed => None,
-        Blob::Unsaid => committed_blob(&dir, &name),
+    let Ran::Ok(out) = run(dir, &last_change_args(rev, name), LOG_CAP) else {
+        return unsettled;
     };
-    Some(Lookup { commit, committed })
+    let Ok(out) = String::from_utf8(out) else {
+        return unsettled;
+    };
+    if out.trim().is_empty() {
+        // No commit holds the file.
+        return Asked {
+            answer: None,
+            settled: true,
+        };
+    }
+    let Some((commit, blob)) = parse_last_change(&out, name) else {
+        return unsettled;
+    };
+    let (committed, settled) = match blob {
+        Blob::Id(id) => (Some(id), true),
+        Blob::Removed => (None, true),
+        Blob::Unsaid => committed_blob(dir, name, rev),
+    };
+    Asked {
+        answer: Some(Lookup { commit, committed }),
+        settled,
+    }
 }
 
 /// The most a `log -1 --raw` answer may print: an id and one raw line per
 /// parent or file, with a long path.
 const LOG_CAP: usize = 64 * 1024;
 
-/// `git log` for the commit that last changed `name` in the folder, with
-/// the file's raw diff line.
-fn last_change_args(name: &str) -> [&str; 14] {
+/// `git log` for the commit that last changed `name` in the folder, in
+/// the history of `rev`, with the file's raw diff line.
+fn last_change_args<'a>(rev: &'a str, name: &'a str) -> [&'a str; 15] {
     [
         "-c",
         "log.follow=false",
@@ -342,18 +378,24 @@ fn last_change_args(name: &str) -> [&str; 14] {
         "--no-abbrev",
         "--no-renames",
         "--relative",
+        rev,
         "--",
         name,
     ]
 }
 
-/// The id of `name`'s blob in `HEAD`, asked of git by itself; none when
-/// `HEAD` lacks it.
-fn committed_blob(dir: &Path, name: &str) -> Option<String> {
-    let spec = format!("HEAD:./{name}");
+/// The id of `name`'s blob at `rev`, asked of git by itself (none when
+/// `rev` lacks it), and whether git answered (rather than failing).
+fn committed_blob(dir: &Path, name: &str, rev: &str) -> (Option<String>, bool) {
+    let spec = format!("{rev}:./{name}");
     match run(dir, &["rev-parse", "--verify", "--quiet", &spec], 256) {
-        Ran::Ok(out) => String::from_utf8(out).ok().map(|s| s.trim().to_string()),
-        _ => None,
+        Ran::Ok(out) => match String::from_utf8(out) {
+            Ok(id) => (Some(id.trim().to_string()), true),
+            Err(_) => (None, false),
+        },
+        // `--verify --quiet` says nothing of a path the revision lacks.
+        Ran::Refused(detail) => (None, detail.starts_with("git exited with status 1")),
+        _ => (None, false),
     }
 }
 
@@ -563,7 +605,7 @@ mod tests {
         }
         Some(Lookup {
             commit,
-            committed: committed_blob(&dir, &name),
+            committed: committed_blob(&dir, &name, "HEAD").0,
         })
     }
 
