@@ -1010,6 +1010,87 @@ fn watch_takes_no_read_of_its_own_for_a_save_and_renders_listings() {
 
 #[cfg(target_os = "linux")]
 #[test]
+fn watch_keeps_the_last_good_listing_whole_when_its_markdown_cannot_be_placed() {
+    // Each compile writes a PDF of its own; the second one also turns the
+    // Markdown's name into a folder while typst runs.
+    let c = Counting::new();
+    let markdown = c.scene.dir.join("job.listing.md");
+    let listing_pdf = c.scene.dir.join("job.listing.pdf");
+    for n in 1..=3 {
+        let text = format!("compile {n}");
+        let mut lines = NOTICE_PHRASES.to_vec();
+        lines.push(&text);
+        std::fs::write(
+            c.scene.bin.join(format!("notice-{n}.pdf")),
+            pdf_with_text(&lines),
+        )
+        .unwrap();
+    }
+    let typst = c.scene.fake_typst(
+        "blocking-typst",
+        &format!(
+            "echo compiled >> '{log}'\nn=$(wc -l < '{log}' | tr -d ' ')\n\
+             if [ \"$n\" = 2 ]; then rm -f '{md}'; mkdir '{md}'; fi\n\
+             cp '{bin}/notice-'$n.pdf \"$out\"",
+            log = c.compiles.display(),
+            md = markdown.display(),
+            bin = c.scene.bin.display(),
+        ),
+    );
+    let log = c.scene.root.path().join("watch.out");
+    let _child = KilledOnDrop::spawn(
+        c.command(&[
+            "watch",
+            c.scene.job.to_str().unwrap(),
+            "--listing",
+            "--typst",
+            typst.to_str().unwrap(),
+        ])
+        .stdin(Stdio::null())
+        .stdout(std::fs::File::create(&log).unwrap())
+        .stderr(std::fs::File::create(c.scene.root.path().join("watch.err")).unwrap()),
+    );
+    let limit = Duration::from_secs(30);
+    let said = || {
+        std::fs::read_to_string(&log).unwrap_or_default()
+            + &std::fs::read_to_string(c.scene.root.path().join("watch.err")).unwrap_or_default()
+    };
+    let count = |what: &str| said().lines().filter(|l| l.contains(what)).count();
+    assert!(wait_until(limit, || count(" rendered ") == 1), "{}", said());
+    let first = std::fs::read(&listing_pdf).unwrap();
+    assert!(markdown.is_file());
+    std::thread::sleep(Duration::from_millis(300));
+
+    // The second render's Markdown cannot be put in place: its PDF is not
+    // either, and nothing temporary is left.
+    let good = std::fs::read_to_string(&c.scene.job).unwrap();
+    std::fs::write(&c.scene.job, format!("{good}// saved\n")).unwrap();
+    assert!(
+        wait_until(limit, || c.compiles() == 2 && said().contains("failed")),
+        "{}",
+        said()
+    );
+    assert!(std::fs::read(&listing_pdf).unwrap() == first, "{}", said());
+    assert!(markdown.is_dir());
+    let temporaries = || -> Vec<String> {
+        support::listing(&c.scene.dir)
+            .into_iter()
+            .filter(|n| n.ends_with(".ampreport-part"))
+            .collect()
+    };
+    assert!(temporaries().is_empty(), "{:?}", temporaries());
+
+    // With the folder gone, the next save lands both, together.
+    std::fs::remove_dir(&markdown).unwrap();
+    std::fs::write(&c.scene.job, format!("{good}// saved again\n")).unwrap();
+    assert!(wait_until(limit, || count(" rendered ") == 2), "{}", said());
+    assert!(std::fs::read(&listing_pdf).unwrap() != first);
+    assert!(markdown.is_file());
+    assert!(temporaries().is_empty(), "{:?}", temporaries());
+}
+
+#[cfg(target_os = "linux")]
+#[test]
 fn watch_asks_git_again_after_a_commit_made_while_it_watches() {
     // The content key holds the commit HEAD stands at. A job edited, then
     // committed while watch runs, then saved again with the same bytes

@@ -367,10 +367,10 @@ fn check_document(bytes: &[u8], required: Option<&RequiredText>) -> Result<(), F
 /// Writes `bytes` to a locked temporary file beside `output`, flushes it to
 /// disk and renames it over `output`, unless a stop signal came first. A new
 /// file gets the usual permissions less the umask; a replaced one keeps its
-/// permissions. `-` writes them to standard output instead. Used for the
-/// PDF and for any other file a command writes (the listing's Markdown and
-/// its photos); `output` must have passed [`check_output`] against the
-/// command's inputs.
+/// permissions. `-` writes them to standard output instead. For a single
+/// file a command writes; files that must land together go through
+/// [`compile_with`]. `output` must have passed [`check_output`] against
+/// the command's inputs.
 pub fn place(bytes: &[u8], output: &Path) -> Result<(), TypesetError> {
     place_with(bytes, output, true)
 }
