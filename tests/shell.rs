@@ -1,6 +1,6 @@
 //! How ampreport fits a shell and a system, through the real binary: the
-//! completion scripts for bash, zsh, fish and PowerShell parse and, in the
-//! shells installed here, really complete (sourced into the shell, asked
+//! completion scripts for bash, zsh, fish, PowerShell and elvish parse
+//! and, in the shells installed here, really complete (sourced into the shell, asked
 //! for the candidates of a half-typed line); the manual pages render
 //! through groff and man without a warning, one per command; `--version`
 //! reports the program, the job format, the JSON schema and the typst
@@ -348,6 +348,52 @@ fn powershell_script_has_its_shape_and_the_program_answers_it() {
         .map(|l| l.split('\t').next().unwrap().to_owned())
         .collect();
     check_every_command_offered(&names, "powershell");
+}
+
+#[test]
+fn elvish_script_has_its_shape_and_the_program_answers_it() {
+    // elvish is not installed by the test script: the script is checked
+    // for its structure, and the program is asked exactly as it asks
+    // (the words after `--`, the index of the word being completed, the
+    // separator between candidates).
+    let dir = workbench();
+    let text = std::fs::read_to_string(script("elvish", dir.path())).unwrap();
+    assert!(
+        text.contains("set edit:completion:arg-completer[ampreport] = { |@words|"),
+        "{text}"
+    );
+    assert!(
+        text.contains("_CLAP_COMPLETE_INDEX=(to-string $index) AMPREPORT_COMPLETE=\"elvish\" ampreport -- $@words"),
+        "{text}"
+    );
+    assert!(text.contains("set index = (- $index 1)"), "{text}");
+    for (open, close) in [('{', '}'), ('(', ')'), ('[', ']')] {
+        assert_eq!(
+            text.matches(open).count(),
+            text.matches(close).count(),
+            "unbalanced {open}{close}:\n{text}"
+        );
+    }
+    assert_eq!(text.matches('"').count() % 2, 0, "unbalanced quotes");
+    let ask = |words: &[&str]| -> Vec<String> {
+        let o = ampreport()
+            .current_dir(dir.path())
+            .env("AMPREPORT_COMPLETE", "elvish")
+            .env("_CLAP_IFS", "\n")
+            .env("_CLAP_COMPLETE_INDEX", (words.len() - 1).to_string())
+            .arg("--")
+            .args(words)
+            .output()
+            .unwrap();
+        ok(&o, "elvish completion request");
+        sorted(stdout(&o).lines().map(str::to_owned))
+    };
+    assert_eq!(
+        ask(&["ampreport", "tubes", "EL8"]),
+        builtin_types_starting("EL8")
+    );
+    check_job_candidates(&ask(&["ampreport", "check", ""]), "elvish");
+    check_every_command_offered(&ask(&["ampreport", ""]), "elvish");
 }
 
 #[test]

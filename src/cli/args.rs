@@ -85,7 +85,8 @@ pub enum Command {
     /// `git show` names it (`HEAD:jobs/a.kdl`, `HEAD~2:./a.kdl`). With
     /// --sets, one job's two measurement sets are compared instead.
     Compare(CompareArgs),
-    /// Print the shell completion script for bash, zsh, fish or PowerShell.
+    /// Print the shell completion script for bash, zsh, fish, PowerShell or
+    /// elvish.
     ///
     /// The script asks ampreport itself what to offer at each Tab: commands,
     /// options, job files (.kdl) and folders, the valve types of the built-in
@@ -97,7 +98,8 @@ pub enum Command {
     /// fpath before compinit; fish: `ampreport completions fish >
     /// ~/.config/fish/completions/ampreport.fish`; PowerShell: add
     /// `ampreport completions powershell | Out-String | Invoke-Expression`
-    /// to $PROFILE.
+    /// to $PROFILE; elvish: add `eval (ampreport completions elvish |
+    /// slurp)` to ~/.config/elvish/rc.elv.
     Completions(CompletionsArgs),
     /// Write the manual pages, one per command, into a folder.
     ///

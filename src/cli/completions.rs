@@ -1,5 +1,5 @@
 //! Shell completion: `ampreport completions SHELL` prints a short script
-//! for bash, zsh, fish or PowerShell that asks the program itself what to
+//! for bash, zsh, fish, PowerShell or elvish that asks the program itself what to
 //! offer each time Tab is pressed (clap_complete's dynamic engine: the
 //! script runs `AMPREPORT_COMPLETE=SHELL ampreport -- WORDS…`, and
 //! [`complete_if_asked`] answers before anything else runs).
@@ -22,7 +22,7 @@ use std::io::Write;
 
 use clap::CommandFactory;
 use clap_complete::engine::{CompletionCandidate, PathCompleter};
-use clap_complete::env::{Bash, CompleteEnv, EnvCompleter, Fish, Powershell, Shells, Zsh};
+use clap_complete::env::{Bash, CompleteEnv, Elvish, EnvCompleter, Fish, Powershell, Shells, Zsh};
 
 use super::args::{Cli, CompletionsArgs};
 use super::exit::Exit;
@@ -44,6 +44,7 @@ pub enum Shell {
     Fish,
     #[value(alias = "pwsh")]
     Powershell,
+    Elvish,
 }
 
 impl Shell {
@@ -53,12 +54,13 @@ impl Shell {
             Shell::Zsh => &Zsh,
             Shell::Fish => &Fish,
             Shell::Powershell => &Powershell,
+            Shell::Elvish => &Elvish,
         }
     }
 }
 
 /// Every shell a completion request may come from.
-const SHELLS: Shells<'static> = Shells(&[&Bash, &Zsh, &Fish, &Powershell]);
+const SHELLS: Shells<'static> = Shells(&[&Bash, &Zsh, &Fish, &Powershell, &Elvish]);
 
 /// Answers a completion request from one of the scripts and exits, when
 /// [`COMPLETE_ENV`] is set; returns at once otherwise. Called first thing,
@@ -163,7 +165,13 @@ mod tests {
 
     #[test]
     fn each_script_calls_the_program_back_through_its_own_variable() {
-        for shell in [Shell::Bash, Shell::Zsh, Shell::Fish, Shell::Powershell] {
+        for shell in [
+            Shell::Bash,
+            Shell::Zsh,
+            Shell::Fish,
+            Shell::Powershell,
+            Shell::Elvish,
+        ] {
             let text = String::from_utf8(script(shell)).unwrap();
             assert!(text.contains(COMPLETE_ENV), "{shell:?}:\n{text}");
             assert!(text.contains(PROGRAM), "{shell:?}:\n{text}");

@@ -115,7 +115,10 @@ pub(crate) fn locked_copy(
             .suffix(suffix)
             .make_in(parent, |path| {
                 std::fs::hard_link(original, path)?;
-                File::open(path)
+                File::open(path).inspect_err(|_| {
+                    // Not left behind under a temporary's name.
+                    let _ = std::fs::remove_file(path);
+                })
             });
         let file = match linked {
             Ok(file) => file,
