@@ -294,6 +294,19 @@ fn fish_script_parses_and_completes() {
     check_every_command_offered(&complete("ampreport "), "fish");
 }
 
+/// Checks that a script for a shell not installed here at least closes
+/// every bracket and quote it opens.
+fn check_balanced(text: &str) {
+    for (open, close) in [('{', '}'), ('(', ')'), ('[', ']')] {
+        assert_eq!(
+            text.matches(open).count(),
+            text.matches(close).count(),
+            "unbalanced {open}{close}:\n{text}"
+        );
+    }
+    assert_eq!(text.matches('"').count() % 2, 0, "unbalanced quotes");
+}
+
 #[test]
 fn powershell_script_has_its_shape_and_the_program_answers_it() {
     // PowerShell is not packaged for Debian: the script is checked for its
@@ -309,45 +322,34 @@ fn powershell_script_has_its_shape_and_the_program_answers_it() {
         "{text}"
     );
     assert!(text.contains("& ampreport -- $args"), "{text}");
-    for (open, close) in [('{', '}'), ('(', ')'), ('[', ']')] {
-        assert_eq!(
-            text.matches(open).count(),
-            text.matches(close).count(),
-            "unbalanced {open}{close}:\n{text}"
-        );
-    }
-    assert_eq!(text.matches('"').count() % 2, 0, "unbalanced quotes");
+    check_balanced(&text);
     // `pwsh` is another name for it.
     let alias = ampreport().args(["completions", "pwsh"]).output().unwrap();
     assert_eq!(stdout(&alias), text);
     // The answer: one candidate a line, a tab, its help.
-    let o = ampreport()
-        .env("AMPREPORT_COMPLETE", "powershell")
-        .args(["--", "ampreport", "tubes", "EL8"])
-        .output()
-        .unwrap();
-    ok(&o, "powershell completion request");
-    let lines: Vec<String> = stdout(&o).lines().map(str::to_owned).collect();
-    let names = sorted(
-        lines
-            .iter()
-            .map(|l| l.split('\t').next().unwrap().to_owned()),
-    );
-    assert_eq!(names, builtin_types_starting("EL8"));
+    let ask = |words: &[&str]| -> Vec<String> {
+        let o = ampreport()
+            .env("AMPREPORT_COMPLETE", "powershell")
+            .arg("--")
+            .args(words)
+            .output()
+            .unwrap();
+        ok(&o, "powershell completion request");
+        stdout(&o).lines().map(str::to_owned).collect()
+    };
+    let names = |lines: &[String]| {
+        sorted(
+            lines
+                .iter()
+                .map(|l| l.split('\t').next().unwrap().to_owned()),
+        )
+    };
+    let lines = ask(&["ampreport", "tubes", "EL8"]);
+    assert_eq!(names(&lines), builtin_types_starting("EL8"));
     let el84 = lines.iter().find(|l| l.starts_with("EL84\t")).unwrap();
     assert!(el84.ends_with("output pentode"), "{el84}");
     // After the program's name: every command.
-    let o = ampreport()
-        .env("AMPREPORT_COMPLETE", "powershell")
-        .args(["--", "ampreport", ""])
-        .output()
-        .unwrap();
-    ok(&o, "powershell completion request");
-    let names: Vec<String> = stdout(&o)
-        .lines()
-        .map(|l| l.split('\t').next().unwrap().to_owned())
-        .collect();
-    check_every_command_offered(&names, "powershell");
+    check_every_command_offered(&names(&ask(&["ampreport", ""])), "powershell");
 }
 
 #[test]
@@ -367,14 +369,7 @@ fn elvish_script_has_its_shape_and_the_program_answers_it() {
         "{text}"
     );
     assert!(text.contains("set index = (- $index 1)"), "{text}");
-    for (open, close) in [('{', '}'), ('(', ')'), ('[', ']')] {
-        assert_eq!(
-            text.matches(open).count(),
-            text.matches(close).count(),
-            "unbalanced {open}{close}:\n{text}"
-        );
-    }
-    assert_eq!(text.matches('"').count() % 2, 0, "unbalanced quotes");
+    check_balanced(&text);
     let ask = |words: &[&str]| -> Vec<String> {
         let o = ampreport()
             .current_dir(dir.path())

@@ -222,7 +222,7 @@ fn draw(chart: &ResponseChart, svg: &mut String) -> Result<(), String> {
         .y_desc(chart.words.text("chart-db-at-load"))
         .axis_desc_style(font(14))
         .label_style(font(13))
-        .light_line_style(PAPER)
+        .max_light_lines(0)
         .bold_line_style(GRID.stroke_width(1))
         .axis_style(INK.stroke_width(1))
         .draw()

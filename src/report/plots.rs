@@ -865,6 +865,11 @@ fn legend_swatch_bar(
 /// The axes every chart shares: no x labels or upright grid (each chart
 /// draws its own categories or frequencies), `y_labels` labelled values
 /// with light horizontal rules, and the y axis described by `y_desc`.
+///
+/// No minor grid (`max_light_lines(0)`): it used to be drawn in the paper's
+/// colour straight onto the paper, a hundred or more invisible lines per
+/// chart that plotters wrote and typst read for nothing. The charts of
+/// `plots/warm_up.rs` and `network_chart.rs` leave it out the same way.
 pub(crate) fn draw_mesh<X, Y>(
     ctx: &mut ChartContext<'_, SVGBackend<'_>, Cartesian2d<X, Y>>,
     y_labels: usize,
@@ -884,7 +889,7 @@ where
         .y_desc(y_desc)
         .axis_desc_style(font(14))
         .label_style(font(13))
-        .light_line_style(PAPER)
+        .max_light_lines(0)
         .bold_line_style(GRID.stroke_width(1))
         .axis_style(INK.stroke_width(1))
         .draw()
@@ -1653,6 +1658,22 @@ mod tests {
         // Three bars plus one legend swatch per set: as found white (hatched), as left dark.
         assert_eq!(rects_filled(&svg, &hex(DARK)), 1 + 1);
         assert!(t.iter().any(|x| x == "Plate dissipation, % of rating"));
+    }
+
+    #[test]
+    fn the_grid_is_its_labelled_rules_only() {
+        // The labelled rules are drawn in the grid's grey; no minor grid in
+        // the paper's colour (invisible on the paper, drawn for nothing).
+        let svg = dissipation_svg(&two_sets()).unwrap();
+        let rules = svg
+            .lines()
+            .filter(|l| l.starts_with("<line ") && l.contains("stroke=\"#E8E8E8\""))
+            .count();
+        assert!(rules >= 5, "{rules} grid rules");
+        assert!(
+            !svg.lines().any(|l| l.contains("stroke=\"#FFFFFF\"")),
+            "a line in the paper's colour"
+        );
     }
 
     #[test]

@@ -28,41 +28,86 @@ pub fn round_sig(value: f64, sig: i32) -> f64 {
 /// Formats a plain number to `sig` significant figures without trailing
 /// zeros: 12.43 → "12.4", 4.70 → "4.7", 352.4 → "352".
 pub fn format_sig(value: f64, sig: i32) -> String {
+    let mut out = String::with_capacity(12);
+    write_sig(&mut out, value, sig);
+    out
+}
+
+/// [`format_sig`] appended to `out`, without a string of its own (figures
+/// are printed by the hundred thousand in a long job).
+fn write_sig(out: &mut String, value: f64, sig: i32) {
     if !value.is_finite() {
-        return "–".to_string();
+        out.push('–');
+        return;
     }
     let rounded = round_sig(value, sig);
     if rounded == 0.0 {
-        return "0".to_string();
+        out.push('0');
+        return;
     }
     let magnitude = rounded.abs().log10().floor() as i32;
     if !(-12..=15).contains(&magnitude) {
         // Far outside any reading: scientific notation keeps it short.
+        use std::fmt::Write as _;
         let sig = sig.clamp(1, 17) as usize;
-        return format!("{rounded:.prec$e}", prec = sig - 1);
+        let _ = write!(out, "{rounded:.prec$e}", prec = sig - 1);
+        return;
     }
     let decimals = (sig - 1 - magnitude).max(0) as usize;
-    trim_zeros(short_fixed(rounded, decimals))
+    let start = out.len();
+    write_short_fixed(out, rounded, decimals);
+    // Trailing zeros of the decimals go, then a bare point.
+    if out[start..].contains('.') {
+        let kept = out.trim_end_matches('0').trim_end_matches('.').len();
+        out.truncate(kept.max(start));
+    }
 }
 
 /// `value` with `decimals` decimals, for a value that already has no more
 /// significant figures than it shows: the same text as
-/// `format!("{value:.decimals$}")`, built from an integer, which avoids the
-/// slow exact path of float formatting (most of the time the calculation
-/// pass spends writing its reasons). Large or tiny values take `format!`.
-fn short_fixed(value: f64, decimals: usize) -> String {
+/// `format!("{value:.decimals$}")`, built from an integer's digits, which
+/// avoids the slow exact path of float formatting (most of the time the
+/// calculation pass spends writing its reasons). Large or tiny values take
+/// `format!`. Appended to `out`.
+fn write_short_fixed(out: &mut String, value: f64, decimals: usize) {
     let scaled = (value.abs() * 10f64.powi(decimals as i32)).round();
     if decimals > 15 || !scaled.is_finite() || scaled >= 1e15 {
-        return format!("{value:.decimals$}");
+        use std::fmt::Write as _;
+        let _ = write!(out, "{value:.decimals$}");
+        return;
     }
-    let digits = format!("{:0>width$}", scaled as u64, width = decimals + 1);
+    // At most 15 digits, zero-padded to decimals + 1 ≤ 16.
+    let mut digits = [b'0'; 20];
+    let mut at = digits.len();
+    let mut n = scaled as u64;
+    loop {
+        at -= 1;
+        digits[at] = b'0' + (n % 10) as u8;
+        n /= 10;
+        if n == 0 {
+            break;
+        }
+    }
+    at = at.min(digits.len() - (decimals + 1));
+    let digits = &digits[at..];
+    if value < 0.0 && scaled > 0.0 {
+        out.push('-');
+    }
     let (whole, fraction) = digits.split_at(digits.len() - decimals);
-    let sign = if value < 0.0 && scaled > 0.0 { "-" } else { "" };
-    if decimals == 0 {
-        format!("{sign}{whole}")
-    } else {
-        format!("{sign}{whole}.{fraction}")
+    // ASCII digits only.
+    out.push_str(std::str::from_utf8(whole).unwrap_or_default());
+    if decimals > 0 {
+        out.push('.');
+        out.push_str(std::str::from_utf8(fraction).unwrap_or_default());
     }
+}
+
+/// [`write_short_fixed`] as a string of its own.
+#[cfg(test)]
+fn short_fixed(value: f64, decimals: usize) -> String {
+    let mut out = String::new();
+    write_short_fixed(&mut out, value, decimals);
+    out
 }
 
 /// Formats with a fixed number of decimals: (12.43, 1) → "12.4".
@@ -77,14 +122,6 @@ pub fn format_fixed(value: f64, decimals: usize) -> String {
         .all(|c| c == '0' || c == '.')
     {
         s.trim_start_matches('-').to_string()
-    } else {
-        s
-    }
-}
-
-fn trim_zeros(s: String) -> String {
-    if s.contains('.') {
-        s.trim_end_matches('0').trim_end_matches('.').to_string()
     } else {
         s
     }
@@ -117,7 +154,10 @@ pub fn format_engineering_sig(value: f64, kind: QuantityKind, sig: i32) -> Strin
         return format!("– {symbol}");
     }
     if kind == QuantityKind::Percent {
-        return format!("{} %", format_sig(value, sig));
+        let mut out = String::with_capacity(12);
+        write_sig(&mut out, value, sig);
+        out.push_str(" %");
+        return out;
     }
     let rounded = round_sig(value, sig);
     if rounded == 0.0 {
@@ -135,7 +175,12 @@ pub fn format_engineering_sig(value: f64, kind: QuantityKind, sig: i32) -> Strin
         .map(|(_, p)| *p)
         .unwrap_or("");
     let scaled = rounded / 10f64.powi(exp);
-    format!("{} {prefix}{symbol}", format_sig(scaled, sig))
+    let mut out = String::with_capacity(16);
+    write_sig(&mut out, scaled, sig);
+    out.push(' ');
+    out.push_str(prefix);
+    out.push_str(symbol);
+    out
 }
 
 #[cfg(test)]
@@ -224,5 +269,114 @@ mod tests {
         assert_eq!(format_sig(123456.0, 3), "123000");
         assert_eq!(format_fixed(12.449, 1), "12.4");
         assert_eq!(format_fixed(-0.01, 1), "0.0");
+    }
+
+    /// `format_sig` and `format_engineering_sig` as they were written
+    /// before they wrote into one string: `format!` for each piece.
+    mod before {
+        use super::super::{PREFIXES, QuantityKind, round_sig};
+
+        fn short_fixed(value: f64, decimals: usize) -> String {
+            let scaled = (value.abs() * 10f64.powi(decimals as i32)).round();
+            if decimals > 15 || !scaled.is_finite() || scaled >= 1e15 {
+                return format!("{value:.decimals$}");
+            }
+            let digits = format!("{:0>width$}", scaled as u64, width = decimals + 1);
+            let (whole, fraction) = digits.split_at(digits.len() - decimals);
+            let sign = if value < 0.0 && scaled > 0.0 { "-" } else { "" };
+            if decimals == 0 {
+                format!("{sign}{whole}")
+            } else {
+                format!("{sign}{whole}.{fraction}")
+            }
+        }
+
+        fn trim_zeros(s: String) -> String {
+            if s.contains('.') {
+                s.trim_end_matches('0').trim_end_matches('.').to_string()
+            } else {
+                s
+            }
+        }
+
+        pub fn format_sig(value: f64, sig: i32) -> String {
+            if !value.is_finite() {
+                return "–".to_string();
+            }
+            let rounded = round_sig(value, sig);
+            if rounded == 0.0 {
+                return "0".to_string();
+            }
+            let magnitude = rounded.abs().log10().floor() as i32;
+            if !(-12..=15).contains(&magnitude) {
+                let sig = sig.clamp(1, 17) as usize;
+                return format!("{rounded:.prec$e}", prec = sig - 1);
+            }
+            let decimals = (sig - 1 - magnitude).max(0) as usize;
+            trim_zeros(short_fixed(rounded, decimals))
+        }
+
+        pub fn format_engineering_sig(value: f64, kind: QuantityKind, sig: i32) -> String {
+            let symbol = kind.symbol();
+            if !value.is_finite() {
+                return format!("– {symbol}");
+            }
+            if kind == QuantityKind::Percent {
+                return format!("{} %", format_sig(value, sig));
+            }
+            let rounded = round_sig(value, sig);
+            if rounded == 0.0 {
+                return format!("0 {symbol}");
+            }
+            let exp = if kind == QuantityKind::Capacitance {
+                if rounded.abs() >= 1e-9 { -6 } else { -12 }
+            } else {
+                let magnitude = rounded.abs().log10().floor() as i32;
+                (magnitude.div_euclid(3) * 3).clamp(-12, 12)
+            };
+            let prefix = PREFIXES
+                .iter()
+                .find(|(e, _)| *e == exp)
+                .map(|(_, p)| *p)
+                .unwrap_or("");
+            let scaled = rounded / 10f64.powi(exp);
+            format!("{} {prefix}{symbol}", format_sig(scaled, sig))
+        }
+    }
+
+    #[test]
+    fn figures_written_into_one_string_are_what_they_were() {
+        let mut x: u64 = 0x9e37_79b9_7f4a_7c15;
+        let kinds = [Voltage, Current, Resistance, Power, Capacitance, Percent];
+        for i in 0..200_000 {
+            x ^= x << 13;
+            x ^= x >> 7;
+            x ^= x << 17;
+            let value = match i % 4 {
+                // Readings over many decades, both signs.
+                0 | 1 => {
+                    let mantissa = (x % 1_000_000) as f64 / 100_000.0 + 1.0;
+                    let exp = ((x >> 20) % 41) as i32 - 20;
+                    let sign = if x & (1 << 60) == 0 { 1.0 } else { -1.0 };
+                    sign * mantissa * 10f64.powi(exp)
+                }
+                // Whole numbers and halves, where rounding ties.
+                2 => ((x % 20_001) as f64 - 10_000.0) / 2.0,
+                // Any bit pattern: tiny, huge, infinite, not a number.
+                _ => f64::from_bits(x),
+            };
+            let sig = ((x >> 40) % 7) as i32 + 1;
+            assert_eq!(
+                format_sig(value, sig),
+                before::format_sig(value, sig),
+                "{value:e} to {sig}"
+            );
+            let kind = kinds[(x >> 50) as usize % kinds.len()];
+            assert_eq!(
+                format_engineering_sig(value, kind, sig),
+                before::format_engineering_sig(value, kind, sig),
+                "{value:e} {kind:?} to {sig}"
+            );
+        }
     }
 }

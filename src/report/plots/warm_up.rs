@@ -98,7 +98,7 @@ fn draw(chart: &WarmUpChart, svg: &mut String) -> Result<(), String> {
         .y_desc(y_desc)
         .axis_desc_style(font(14))
         .label_style(font(13))
-        .light_line_style(PAPER)
+        .max_light_lines(0)
         .bold_line_style(GRID.stroke_width(1))
         .axis_style(INK.stroke_width(1))
         .draw()
