@@ -313,7 +313,29 @@ pub struct Lookup {
 /// answer does not depend on them.
 pub fn look_up(file: &Path) -> Option<Lookup> {
     let (dir, name) = folder_and_name(file)?;
+    if !may_be_in_repository(&dir) {
+        return None;
+    }
     ask(&dir, &name, "HEAD").answer
+}
+
+/// False when git could find no repository holding `folder`: neither it
+/// nor any folder above it holds a `.git` entry or is itself a
+/// repository's own folder (a `HEAD` file beside an `objects` folder, as
+/// a bare repository has). git looks for exactly these, upward from the
+/// folder (the environment that could name another is removed from its
+/// runs), and stops sooner (at another file system, at a folder it may
+/// not read); so where this says false, git would have found nothing, and
+/// it is not started: a job kept outside git costs no git run. A folder
+/// that cannot be resolved counts as possibly in a repository.
+fn may_be_in_repository(folder: &Path) -> bool {
+    let Ok(real) = std::fs::canonicalize(folder) else {
+        return true;
+    };
+    real.ancestors().any(|dir| {
+        std::fs::symlink_metadata(dir.join(".git")).is_ok()
+            || (dir.join("HEAD").is_file() && dir.join("objects").is_dir())
+    })
 }
 
 /// What git said of a file at a revision.
@@ -482,6 +504,9 @@ pub struct Head {
 /// a repository or before its first commit. Two renders of a job whose
 /// bytes, name and [`Head`] are the same get the same [`revision`].
 pub fn head(folder: &Path) -> Option<Head> {
+    if !may_be_in_repository(folder) {
+        return None;
+    }
     let Ran::Ok(out) = run(
         folder,
         &["rev-parse", "--show-prefix", "--verify", "--quiet", "HEAD"],
@@ -764,6 +789,45 @@ mod tests {
         write("new.kdl", "job 4\n");
         assert_eq!(look_up(&file("new.kdl")), None);
         assert_eq!(look_up_in_two_runs(&file("new.kdl"), &plain), None);
+    }
+
+    #[test]
+    fn a_folder_git_could_find_no_repository_for_is_told_without_git() {
+        let top = tempfile::tempdir().unwrap();
+        let jobs = top.path().join("shop").join("jobs");
+        std::fs::create_dir_all(&jobs).unwrap();
+        let outside = std::fs::canonicalize(top.path())
+            .unwrap()
+            .ancestors()
+            .all(|d| !d.join(".git").exists() && !d.join("HEAD").is_file());
+        if !outside {
+            // The temporary folder is itself inside a repository.
+            return;
+        }
+        assert!(!may_be_in_repository(&jobs));
+        assert_eq!(head(&jobs), None);
+        assert_eq!(look_up(&jobs.join("job.kdl")), None);
+        // A `.git` folder, a `.git` file (a worktree's, a submodule's) or
+        // a repository's own folder above it: git is asked.
+        std::fs::create_dir(top.path().join("shop").join(".git")).unwrap();
+        assert!(may_be_in_repository(&jobs));
+        std::fs::remove_dir(top.path().join("shop").join(".git")).unwrap();
+        std::fs::write(jobs.join(".git"), "gitdir: /elsewhere\n").unwrap();
+        assert!(may_be_in_repository(&jobs));
+        std::fs::remove_file(jobs.join(".git")).unwrap();
+        std::fs::write(top.path().join("HEAD"), "ref: refs/heads/main\n").unwrap();
+        std::fs::create_dir(top.path().join("objects")).unwrap();
+        assert!(may_be_in_repository(&jobs));
+        // A folder that cannot be resolved: git is asked.
+        assert!(may_be_in_repository(&top.path().join("gone")));
+        // In a real repository, from a folder below its top.
+        if have_git() {
+            let repo = tempfile::tempdir().unwrap();
+            git_in(repo.path(), &["init", "-q"]);
+            let below = repo.path().join("a").join("b");
+            std::fs::create_dir_all(&below).unwrap();
+            assert!(may_be_in_repository(&below));
+        }
     }
 
     #[test]
