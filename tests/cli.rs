@@ -888,6 +888,18 @@ fn kdl_syntax_errors_point_at_the_broken_text() {
         "{err}"
     );
 
+    // A block left open at the end: told once, at its `{`.
+    let text = "job-format 1\njob id=\"T-0004\"\nunit make=\"Testmake\" model=\"Testmodel\" {\n    serial \"1\"\n";
+    let dir = job_file("open.kdl", text);
+    let o = run_in(dir.path(), &["check", "open.kdl"]);
+    assert_eq!(code(&o), 1);
+    let err = stderr(&o);
+    assert_eq!(
+        reported_positions(&err, "open.kdl"),
+        [pos_of("open.kdl", text, "{", 0)],
+        "{err}"
+    );
+
     // A unit written without quotes, the likeliest slip in this format.
     let text = "job-format 1\njob id=\"T-0004\"\nunit make=\"Testmake\" model=\"Testmodel\"\nmains nominal=120V\n";
     let dir = job_file("bare.kdl", text);

@@ -144,11 +144,26 @@ pub(crate) fn syntax_problems(text: &str, e: &kdl::KdlError) -> Vec<DecodeError>
             .with_help(Msg::new("diag-bare-value-help").arg("value", value))
         })
         .collect();
+    // The parser can tell one slip twice (a block left open: "no closing
+    // `}`" at its `{`, and "`}` not found" over the block after it, both
+    // labelled "not closed"); a report with the same label as an earlier
+    // one, over text that reaches or touches it, is left out.
+    let told_before = |i: usize| {
+        let d = &e.diagnostics[i];
+        let (start, end) = (d.span.offset(), d.span.offset() + d.span.len());
+        e.diagnostics[..i].iter().any(|b| {
+            d.label.is_some()
+                && b.label == d.label
+                && b.span.offset() <= end
+                && start <= b.span.offset() + b.span.len()
+        })
+    };
     out.extend(
         e.diagnostics
             .iter()
-            .filter(|d| !covers_bare(&d.span))
-            .map(|d| {
+            .enumerate()
+            .filter(|&(i, d)| !covers_bare(&d.span) && !told_before(i))
+            .map(|(_, d)| {
                 // The parser's words the catalogue knows are said from it;
                 // any other stays as the parser gives it.
                 let problem: Arg = match &d.message {
