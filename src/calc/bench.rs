@@ -15,6 +15,7 @@ use crate::job::{
     PowerCondition, ResponseReading, Settings,
 };
 use crate::units::{Hertz, Ohms, QuantityKind as Q, Volts, Watts, format_engineering};
+use crate::units::{fixed, fixed_with};
 
 /// RMS volts of a sine read peak to peak: Vrms = Vpp / (2√2).
 pub fn rms_from_peak_to_peak(vpp: Volts) -> Volts {
@@ -105,9 +106,9 @@ fn ohms_words(r: f64) -> String {
 /// A measured power: one decimal from 10 W up, two below.
 fn watts_words(p: f64) -> String {
     if p >= 10.0 {
-        format!("{p:.1} W")
+        fixed_with(p, 1, " W")
     } else {
-        format!("{p:.2} W")
+        fixed_with(p, 2, " W")
     }
 }
 
@@ -188,8 +189,8 @@ fn output_power(
     let args = |rated: Option<Watts>, pct: f64| {
         [
             ("power", Arg::from(&words)),
-            ("pct", Arg::from(format!("{pct:.0}"))),
-            ("guide", Arg::from(format!("{guide:.0}"))),
+            ("pct", Arg::from(fixed(pct, 0))),
+            ("guide", Arg::from(fixed(guide, 0))),
             (
                 "rated",
                 Arg::from(rated.map(|w| rated_words(w.0)).unwrap_or_default()),
@@ -299,10 +300,10 @@ fn hum_noise(
         },
         &[
             ("volts", Arg::from(format_engineering(v.0, Q::Voltage))),
-            ("dbv", Arg::from(format!("{:.1}", dbv(v)))),
+            ("dbv", Arg::from(fixed(dbv(v), 1))),
         ],
     );
-    let guide_words = Arg::from(format!("{guide:.0}"));
+    let guide_words = Arg::from(fixed(guide, 0));
     let verdict = match (full, below) {
         (Some((_, w, from)), Some(below)) => {
             let threshold = cat.format("threshold-hum", &[("guide", guide_words.clone())]);
@@ -318,7 +319,7 @@ fn hum_noise(
             };
             let args = [
                 ("level", Arg::from(&level)),
-                ("db", Arg::from(format!("{below:.1}"))),
+                ("db", Arg::from(fixed(below, 1))),
                 ("against", Arg::from(against)),
                 ("guide", guide_words),
             ];

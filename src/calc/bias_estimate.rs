@@ -16,6 +16,7 @@ use super::findings::{CathodeResistorOption, CathodeResistorSuggestion, ValveFin
 use crate::catalogue::{Arg, Catalogue};
 use crate::job::{Circuit, Job, MeasurementSet, Settings};
 use crate::ratings::{Rating, RatingsTable, ValveClass};
+use crate::units::fixed;
 use crate::units::{Amps, Ohms, Series, Volts, Watts, nearest_preferred};
 
 /// The three-halves power law for one valve, calibrated at a measured point.
@@ -376,7 +377,7 @@ pub(crate) fn cathode_suggestions(
                     ("valve", Arg::from(&hottest.position)),
                     (
                         "pct",
-                        Arg::from(format!("{:.0}", settings.cathode_bias_target * 100.0)),
+                        Arg::from(fixed(settings.cathode_bias_target * 100.0, 0)),
                     ),
                 ],
             ));

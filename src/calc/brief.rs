@@ -9,9 +9,10 @@ use super::findings::{SafetyFinding, SetFindings, ValveFindings};
 use super::status::Status;
 use crate::catalogue::{Arg, Catalogue};
 use crate::units::{QuantityKind, format_engineering};
+use crate::units::{fixed, fixed_signed, fixed_with};
 
 fn pct(v: Option<f64>) -> String {
-    v.map(|v| format!("{v:.0} %"))
+    v.map(|v| fixed_with(v, 0, " %"))
         .unwrap_or_else(|| "–".to_string())
 }
 
@@ -26,7 +27,7 @@ pub fn valve_check(v: &ValveFindings, check: &str, high_line: f64, cat: &Catalog
             "brief-voltage-high-line",
             &[
                 ("name", Arg::from(name)),
-                ("pct", Arg::from(format!("{:.0} %", p * high_line))),
+                ("pct", Arg::from(fixed_with(p * high_line, 0, " %"))),
             ],
         ),
         p => cat.format(
@@ -71,7 +72,7 @@ pub(crate) fn fill_set(set: &mut SetFindings, derating: f64, tolerance: f64, cat
         n.verdict.brief = match n.deviation_pct {
             Some(d) => cat.format(
                 "brief-from-chart",
-                &[("deviation", Arg::from(format!("{d:+.1}")))],
+                &[("deviation", Arg::from(fixed_signed(d, 1)))],
             ),
             None => cat.text("brief-no-chart"),
         };
@@ -110,7 +111,7 @@ pub(crate) fn fill_set(set: &mut SetFindings, derating: f64, tolerance: f64, cat
             _ => cat.format(
                 "brief-margin-what",
                 &[
-                    ("pct", Arg::from(format!("{:.1}", c.deciding_margin_pct))),
+                    ("pct", Arg::from(fixed(c.deciding_margin_pct, 1))),
                     ("what", Arg::from(&what)),
                 ],
             ),
@@ -120,18 +121,20 @@ pub(crate) fn fill_set(set: &mut SetFindings, derating: f64, tolerance: f64, cat
         r.verdict.brief = pct_of("brief-of-rating", r.load_pct, 0);
     }
     for h in &mut set.heaters {
-        h.verdict.brief = format!("{:+.1} %", h.deviation_pct);
+        let mut brief = fixed_signed(h.deviation_pct, 1);
+        brief.push_str(" %");
+        h.verdict.brief = brief;
     }
     for p in &mut set.bench.output_power {
         p.verdict.brief = match p.output_power_pct_of_rated {
             Some(pct) => pct_of("brief-of-rated", pct, 0),
-            None => format!("{:.1} W", p.output_power_w),
+            None => fixed_with(p.output_power_w, 1, " W"),
         };
     }
     for h in &mut set.bench.hum_noise {
         h.verdict.brief = match h.hum_noise_db_below_full {
-            Some(db) => cat.format("brief-below-full", &[("db", Arg::from(format!("{db:.0}")))]),
-            None => format!("{:.1} dBV", h.hum_noise_dbv),
+            Some(db) => cat.format("brief-below-full", &[("db", Arg::from(fixed(db, 0)))]),
+            None => fixed_with(h.hum_noise_dbv, 1, " dBV"),
         };
     }
 }

@@ -40,6 +40,7 @@ pub use valve::{
 use crate::catalogue::{Arg, Catalogue};
 use crate::job::Job;
 use crate::ratings::RatingsTable;
+use crate::units::{fixed, fixed_signed};
 
 /// Derives every figure of a job, with its reasons in English. Valve types
 /// must already be known to `ratings` (see [`crate::job::check_types`]); an
@@ -346,11 +347,12 @@ fn warm_up(
 
 /// Capitalises the first letter and ends with a full stop.
 fn sentence(s: &str) -> String {
+    let mut out = String::with_capacity(s.len() + 4);
     let mut c = s.chars();
-    let mut out = match c.next() {
-        Some(f) => f.to_uppercase().collect::<String>() + c.as_str(),
-        None => String::new(),
-    };
+    if let Some(f) = c.next() {
+        out.extend(f.to_uppercase());
+        out.push_str(c.as_str());
+    }
     if !out.ends_with('.') {
         out.push('.');
     }
@@ -407,13 +409,15 @@ fn set_warnings(set: &SetFindings, cat: &Catalogue) -> Vec<Warning> {
             ));
         }
     };
+    // A subject in words only where a warning names it.
+    let warns = |v: &Verdict| v.status != Status::Ok;
     for v in &set.valves {
+        if !v.checks.iter().any(|c| warns(&c.verdict)) {
+            continue;
+        }
+        let subject = valve_subject(&v.position, &v.valve_type);
         for c in &v.checks {
-            push(
-                &valve_subject(&v.position, &v.valve_type),
-                Some(c.check),
-                &c.verdict,
-            );
+            push(&subject, Some(c.check), &c.verdict);
         }
     }
     for n in &set.nodes {
@@ -437,21 +441,21 @@ fn set_warnings(set: &SetFindings, cat: &Catalogue) -> Vec<Warning> {
             &r.verdict,
         );
     }
-    for h in &set.heaters {
+    for h in set.heaters.iter().filter(|h| warns(&h.verdict)) {
         let subject = match &h.label {
             Some(l) => cat.format("warn-subject-heater-labelled", &[("label", Arg::from(l))]),
             None => cat.text("warn-subject-heater"),
         };
         push(&subject, None, &h.verdict);
     }
-    for p in &set.bench.output_power {
+    for p in set.bench.output_power.iter().filter(|p| warns(&p.verdict)) {
         push(
             &bench_subject("warn-subject-output-power", &p.channel, cat),
             None,
             &p.verdict,
         );
     }
-    for h in &set.bench.hum_noise {
+    for h in set.bench.hum_noise.iter().filter(|h| warns(&h.verdict)) {
         push(
             &bench_subject("warn-subject-hum-noise", &h.channel, cat),
             None,
@@ -694,7 +698,7 @@ fn ok_summary(
                     ),
                     (
                         "pct",
-                        Arg::from(format!("{:.0}", v.plate_dissipation_pct.unwrap_or(0.0))),
+                        Arg::from(fixed(v.plate_dissipation_pct.unwrap_or(0.0), 0)),
                     ),
                 ],
             ))
@@ -718,7 +722,7 @@ fn ok_summary(
                     ("count", Arg::from(charted.len())),
                     (
                         "deviation",
-                        Arg::from(format!("{:+.1}", n.deviation_pct.unwrap_or(0.0))),
+                        Arg::from(fixed_signed(n.deviation_pct.unwrap_or(0.0), 1)),
                     ),
                     ("node", Arg::from(&n.name)),
                 ],
@@ -739,10 +743,7 @@ fn ok_summary(
                     "family-busiest-resistor",
                     &[
                         ("reference", Arg::from(&r.reference)),
-                        (
-                            "pct",
-                            Arg::from(format!("{:.0}", r.power_pct.unwrap_or(0.0))),
-                        ),
+                        ("pct", Arg::from(fixed(r.power_pct.unwrap_or(0.0), 0))),
                     ],
                 ));
             }
@@ -755,7 +756,7 @@ fn ok_summary(
                     "family-least-margin",
                     &[
                         ("reference", Arg::from(&c.reference)),
-                        ("pct", Arg::from(format!("{:.0}", c.margin_pct))),
+                        ("pct", Arg::from(fixed(c.margin_pct, 0))),
                     ],
                 ));
             }
@@ -764,7 +765,7 @@ fn ok_summary(
                     "family-rectifier-load",
                     &[
                         ("position", Arg::from(&r.position)),
-                        ("pct", Arg::from(format!("{:.0}", r.load_pct))),
+                        ("pct", Arg::from(fixed(r.load_pct, 0))),
                     ],
                 ));
             }
@@ -788,7 +789,7 @@ fn ok_summary(
                 &[
                     ("measured", volts(h.measured_volts)),
                     ("nominal", volts(h.nominal_volts)),
-                    ("deviation", Arg::from(format!("{:+.1}", h.deviation_pct))),
+                    ("deviation", Arg::from(fixed_signed(h.deviation_pct, 1))),
                 ],
             ))
         }
@@ -846,7 +847,7 @@ fn bench_summary(bench: &BenchFindings, cat: &Catalogue) -> Option<String> {
             ("condition", Arg::from(&p.condition_words)),
             (
                 "pct",
-                Arg::from(format!("{:.0}", p.output_power_pct_of_rated.unwrap_or(0.0))),
+                Arg::from(fixed(p.output_power_pct_of_rated.unwrap_or(0.0), 0)),
             ),
         ];
         parts.push(cat.format(
@@ -865,10 +866,7 @@ fn bench_summary(bench: &BenchFindings, cat: &Catalogue) -> Option<String> {
     });
     if let Some(h) = quietest_margin {
         parts.push(match h.hum_noise_db_below_full {
-            Some(db) => cat.format(
-                "family-bench-hum-below",
-                &[("db", Arg::from(format!("{db:.0}")))],
-            ),
+            Some(db) => cat.format("family-bench-hum-below", &[("db", Arg::from(fixed(db, 0)))]),
             None => cat.format(
                 "family-bench-hum",
                 &[
@@ -876,7 +874,7 @@ fn bench_summary(bench: &BenchFindings, cat: &Catalogue) -> Option<String> {
                         "volts",
                         Arg::from(format_engineering(h.hum_noise_mv / 1e3, Q::Voltage)),
                     ),
-                    ("dbv", Arg::from(format!("{:.1}", h.hum_noise_dbv))),
+                    ("dbv", Arg::from(fixed(h.hum_noise_dbv, 1))),
                 ],
             ),
         });
@@ -897,7 +895,7 @@ fn bench_summary(bench: &BenchFindings, cat: &Catalogue) -> Option<String> {
     if let Some(g) = bench.gains.first() {
         parts.push(cat.format(
             "family-bench-gain",
-            &[("db", Arg::from(format!("{:.1}", g.gain_db)))],
+            &[("db", Arg::from(fixed(g.gain_db, 1)))],
         ));
     }
     (!parts.is_empty()).then(|| parts.join("; "))
@@ -1055,7 +1053,7 @@ fn mod_findings(
                                 ("type", Arg::from(&name)),
                                 ("load", Arg::from(ohms(load.0))),
                                 ("rk", Arg::from(rk.map(|r| ohms(r.0)).unwrap_or_default())),
-                                ("gain", Arg::from(format!("{gain:.0}"))),
+                                ("gain", Arg::from(fixed(gain, 0))),
                             ],
                         ),
                         formula,
@@ -1074,10 +1072,7 @@ fn mod_findings(
                             ("ohms", Arg::from(ohms(r.0))),
                             ("farads", Arg::from(farads(c.0))),
                             ("frequency", Arg::from(hz(f))),
-                            (
-                                "gain",
-                                Arg::from(format!("{:.0}", circuit::PHASE_SHIFT_MIN_GAIN)),
-                            ),
+                            ("gain", Arg::from(fixed(circuit::PHASE_SHIFT_MIN_GAIN, 0))),
                         ],
                     ),
                     formula: "f = 1 / (2π·R·C·√6)",

@@ -3,6 +3,7 @@
 //! which threshold.
 
 use crate::catalogue::{Arg, Catalogue};
+use crate::units::fixed;
 use serde::Serialize;
 use std::fmt;
 
@@ -134,10 +135,10 @@ pub fn worst_of<'a>(verdicts: impl IntoIterator<Item = &'a Verdict>) -> Option<&
 /// `caution` (a fraction of the rating), over above 100 %. `what` names the
 /// figure with its value ("dissipation 0.62 W"); the words are `cat`'s.
 pub fn under_rating(pct: f64, caution: f64, what: &str, rating: &str, cat: &Catalogue) -> Verdict {
-    let caution_words = format!("{:.0}", caution * 100.0);
+    let caution_words = fixed(caution * 100.0, 0);
     let args = [
         ("what", Arg::from(what)),
-        ("pct", Arg::from(format!("{pct:.0}"))),
+        ("pct", Arg::from(fixed(pct, 0))),
         ("rating", Arg::from(rating)),
         ("caution", Arg::from(&caution_words)),
     ];

@@ -12,6 +12,7 @@ use crate::catalogue::{Arg, Catalogue};
 use crate::job::{Circuit, Job, MeasurementSet, RectifierKind, Settings};
 use crate::ratings::{RatingsTable, RectifierHeating};
 use crate::units::{Ohms, QuantityKind, Volts, Watts, format_engineering};
+use crate::units::{fixed, fixed_signed, fixed_with};
 
 /// Cold-start peak of a full-wave winding of `rms` volts per side rated at
 /// primary `rated_primary`, fed `mains` volts: √2 · Vsec · Vmains / Vp − drop.
@@ -41,7 +42,7 @@ pub fn w(x: f64) -> String {
     if x.abs() < 0.01 {
         format_engineering(x, QuantityKind::Power)
     } else {
-        format!("{x:.2} W")
+        fixed_with(x, 2, " W")
     }
 }
 
@@ -76,7 +77,7 @@ pub(crate) fn nodes(
             let expected = chart.map(|c| mains::chart_expected(c, design, nominal));
             let deviation = expected.map(|e| (corrected / e - 1.0) * 100.0);
             let tol_pct = tolerance * 100.0;
-            let tol_words = format!("{tol_pct:.0}");
+            let tol_words = fixed(tol_pct, 0);
             let threshold = cat.format(
                 "threshold-node",
                 &[
@@ -89,7 +90,7 @@ pub(crate) fn nodes(
                     "reason-node",
                     &[
                         ("corrected", Arg::from(v(corrected.0))),
-                        ("deviation", Arg::from(format!("{d:+.1}"))),
+                        ("deviation", Arg::from(fixed_signed(d, 1))),
                         ("expected", Arg::from(v(e.0))),
                     ],
                 )
@@ -168,7 +169,7 @@ fn resistor(
                         "reason-resistor-high-line",
                         &[
                             ("watts", Arg::from(w(p_h.0))),
-                            ("pct", Arg::from(format!("{pct_h:.0}"))),
+                            ("pct", Arg::from(fixed(pct_h, 0))),
                         ],
                     ),
                     verdict.threshold,
@@ -451,7 +452,7 @@ pub(crate) fn capacitors(
                 ("rating", Arg::from(&rating_words)),
                 (
                     "margin",
-                    Arg::from(format!("{:.0}", settings.capacitor_margin * 100.0)),
+                    Arg::from(fixed(settings.capacitor_margin * 100.0, 0)),
                 ),
             ],
         );
@@ -514,7 +515,7 @@ pub(crate) fn capacitors(
                 Status::Caution,
                 say(
                     "reason-cap-margin-low",
-                    &[("margin", Arg::from(format!("{margin:.1}")))],
+                    &[("margin", Arg::from(fixed(margin, 1)))],
                 ),
                 threshold,
             )
@@ -522,7 +523,7 @@ pub(crate) fn capacitors(
             Verdict::ok(
                 say(
                     "reason-cap-margin",
-                    &[("margin", Arg::from(format!("{margin:.0}")))],
+                    &[("margin", Arg::from(fixed(margin, 0)))],
                 ),
                 threshold,
             )
@@ -587,11 +588,11 @@ pub(crate) fn rectifier(
     let what = cat.format(
         "reason-rectifier",
         &[
-            ("load", Arg::from(format!("{load:.0}"))),
-            ("pct", Arg::from(format!("{pct:.0}"))),
+            ("load", Arg::from(fixed(load, 0))),
+            ("pct", Arg::from(fixed(pct, 0))),
             ("type", Arg::from(&spec.type_name.value)),
             ("position", Arg::from(&pos.value)),
-            ("rating", Arg::from(format!("{max_ma:.0}"))),
+            ("rating", Arg::from(fixed(max_ma, 0))),
         ],
     );
     let verdict = if pct > 100.0 {
@@ -626,7 +627,7 @@ pub(crate) fn heaters(
             let dev = (measured / h.nominal - 1.0) * 100.0;
             let dev_c = (corrected / h.nominal - 1.0) * 100.0;
             let tol = settings.heater_tolerance * 100.0;
-            let tol_words = format!("{tol:.0}");
+            let tol_words = fixed(tol, 0);
             let threshold = cat.format(
                 "threshold-heater",
                 &[
@@ -638,14 +639,14 @@ pub(crate) fn heaters(
                 "reason-at-nominal",
                 &[
                     ("volts", Arg::from(v(corrected.0))),
-                    ("deviation", Arg::from(format!("{dev_c:+.1}"))),
+                    ("deviation", Arg::from(fixed_signed(dev_c, 1))),
                 ],
             );
             let from_nominal = cat.format(
                 "reason-heater",
                 &[
                     ("measured", Arg::from(v(measured.0))),
-                    ("deviation", Arg::from(format!("{dev:+.1}"))),
+                    ("deviation", Arg::from(fixed_signed(dev, 1))),
                     ("nominal", Arg::from(v(h.nominal.0))),
                 ],
             );

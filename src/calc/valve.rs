@@ -10,6 +10,7 @@ use crate::job::{
     ValveReading,
 };
 use crate::ratings::Rating;
+use crate::units::fixed;
 use crate::units::{Amps, Ohms, Volts, Watts, format_engineering};
 
 /// Ohm's law for a cathode resistor shared by `n` matched valves:
@@ -228,8 +229,8 @@ pub(crate) fn analyse(
                                         crate::units::QuantityKind::Voltage,
                                     )),
                                 ),
-                                ("watts", Arg::from(format!("{:.1}", pa_h.0))),
-                                ("pct", Arg::from(format!("{pct_h:.0}"))),
+                                ("watts", Arg::from(fixed(pa_h.0, 1))),
+                                ("pct", Arg::from(fixed(pct_h, 0))),
                             ],
                         ),
                         cat.text("threshold-plate-high-line"),
@@ -283,7 +284,7 @@ pub(crate) fn analyse(
                     Status::Caution,
                     cat.format(
                         "reason-screen-high-line",
-                        &[("pct", Arg::from(format!("{pct_h:.0}")))],
+                        &[("pct", Arg::from(fixed(pct_h, 0)))],
                     ),
                     verdict.threshold,
                 );
@@ -347,7 +348,7 @@ pub(crate) fn analyse(
                 )),
             )],
         );
-        let pct_words = Arg::from(format!("{pct:.0}"));
+        let pct_words = Arg::from(fixed(pct, 0));
         let verdict = if pct > 100.0 {
             Verdict::new(
                 Status::Over,
@@ -507,8 +508,8 @@ fn dissipation_verdict(
         cat.format(
             "reason-plate-dissipation",
             &[
-                ("watts", Arg::from(format!("{watts:.1}"))),
-                ("pct", Arg::from(format!("{judged:.0}"))),
+                ("watts", Arg::from(fixed(watts, 1))),
+                ("pct", Arg::from(fixed(judged, 0))),
                 ("rating", Arg::from(&rating)),
             ],
         )
@@ -516,7 +517,7 @@ fn dissipation_verdict(
     if bias == BiasKind::Fixed && is_output {
         let lo = settings.fixed_bias_low * 100.0;
         let hi = settings.fixed_bias_high * 100.0;
-        let (lo_w, hi_w) = (format!("{lo:.0}"), format!("{hi:.0}"));
+        let (lo_w, hi_w) = (fixed(lo, 0), fixed(hi, 0));
         let threshold = cat.format(
             "threshold-fixed-bias",
             &[
@@ -553,7 +554,7 @@ fn dissipation_verdict(
         }
     } else {
         let caution = settings.cathode_bias_caution * 100.0;
-        let caution_w = format!("{caution:.0}");
+        let caution_w = fixed(caution, 0);
         let threshold = cat.format(
             "threshold-cathode-bias",
             &[
@@ -595,7 +596,7 @@ fn max_verdict(
         "threshold-voltage-max",
         &[
             ("max", Arg::from(&max_words)),
-            ("over", Arg::from(format!("{:.0}", factor * 100.0))),
+            ("over", Arg::from(fixed(factor * 100.0, 0))),
         ],
     );
     let pct = v / max * 100.0;
@@ -603,7 +604,7 @@ fn max_verdict(
     let args = [
         ("what", Arg::from(what)),
         ("volts", Arg::from(&v_words)),
-        ("pct", Arg::from(format!("{pct:.0}"))),
+        ("pct", Arg::from(fixed(pct, 0))),
         ("max", Arg::from(&max_words)),
     ];
     if v.0 > max.0 * factor {

@@ -371,7 +371,24 @@ impl Catalogue {
     /// that Fluent says it. An argument given twice counts as its last
     /// value, as in Fluent's arguments.
     fn say_plain(&self, pieces: &[Piece], args: &[(&str, Arg)]) -> Option<String> {
-        let mut words = String::new();
+        // Room for every piece and argument at once: the words are made
+        // by the hundred per set of a long job, and growing the string a
+        // piece at a time copied them over and over.
+        let room = pieces
+            .iter()
+            .map(|p| match p {
+                Piece::Text(text) => text.len(),
+                Piece::Argument(_) => 0,
+            })
+            .sum::<usize>()
+            + args
+                .iter()
+                .map(|(_, a)| match a {
+                    Arg::Text(s) => s.len(),
+                    _ => 16,
+                })
+                .sum::<usize>();
+        let mut words = String::with_capacity(room);
         for piece in pieces {
             match piece {
                 Piece::Text(text) => words.push_str(text),

@@ -102,6 +102,86 @@ fn write_short_fixed(out: &mut String, value: f64, decimals: usize) {
     }
 }
 
+/// `format!("{value:.decimals$}")` (with `plus`, `format!("{value:+.decimals$}")`),
+/// the same text, appended to `out`. The calculation pass writes every
+/// percentage and figure of its reasons this way, some hundred per set:
+/// Rust's float formatting takes the exact (big-number) path for a fixed
+/// number of decimals, which was a fifth of deriving a long job.
+///
+/// The value times 10^decimals is worked out in floating point; below 10^9
+/// that product is within 1.2 × 10^-7 of the exact one, so unless its
+/// fraction lies within 10^-6 of one half the rounding goes the way the
+/// exact decimal value's does, and the digits are an integer's. Values
+/// near a tie, large, not finite or with more than six decimals take
+/// `format!` as before. The sign is printed for every negative value,
+/// -0.0 and those that round to zero included, as `format!` does.
+pub fn write_fixed(out: &mut String, value: f64, decimals: usize, plus: bool) {
+    const SCALE: [f64; 7] = [1.0, 10.0, 100.0, 1e3, 1e4, 1e5, 1e6];
+    if let Some(scale) = SCALE.get(decimals)
+        && value.is_finite()
+    {
+        let scaled = value.abs() * scale;
+        let whole = scaled.floor();
+        let fraction = scaled - whole;
+        if scaled < 1e9 && (fraction - 0.5).abs() > 1e-6 {
+            let mut n = whole as u64 + u64::from(fraction > 0.5);
+            if value.is_sign_negative() {
+                out.push('-');
+            } else if plus {
+                out.push('+');
+            }
+            // At most 10 digits, zero-padded to decimals + 1 ≤ 7.
+            let mut digits = [b'0'; 16];
+            let mut at = digits.len();
+            loop {
+                at -= 1;
+                digits[at] = b'0' + (n % 10) as u8;
+                n /= 10;
+                if n == 0 {
+                    break;
+                }
+            }
+            at = at.min(digits.len() - (decimals + 1));
+            let (whole, fraction) = digits[at..].split_at(digits.len() - at - decimals);
+            // ASCII digits only.
+            out.push_str(std::str::from_utf8(whole).unwrap_or_default());
+            if decimals > 0 {
+                out.push('.');
+                out.push_str(std::str::from_utf8(fraction).unwrap_or_default());
+            }
+            return;
+        }
+    }
+    use std::fmt::Write as _;
+    let _ = if plus {
+        write!(out, "{value:+.decimals$}")
+    } else {
+        write!(out, "{value:.decimals$}")
+    };
+}
+
+/// [`write_fixed`] as a string of its own: `format!("{value:.decimals$}")`.
+pub fn fixed(value: f64, decimals: usize) -> String {
+    let mut out = String::with_capacity(12);
+    write_fixed(&mut out, value, decimals, false);
+    out
+}
+
+/// [`write_fixed`] with the sign always shown: `format!("{value:+.decimals$}")`.
+pub fn fixed_signed(value: f64, decimals: usize) -> String {
+    let mut out = String::with_capacity(12);
+    write_fixed(&mut out, value, decimals, true);
+    out
+}
+
+/// [`fixed`] followed by `unit`: `format!("{value:.decimals$}{unit}")`.
+pub fn fixed_with(value: f64, decimals: usize, unit: &str) -> String {
+    let mut out = String::with_capacity(12 + unit.len());
+    write_fixed(&mut out, value, decimals, false);
+    out.push_str(unit);
+    out
+}
+
 /// [`write_short_fixed`] as a string of its own.
 #[cfg(test)]
 fn short_fixed(value: f64, decimals: usize) -> String {
@@ -260,6 +340,73 @@ mod tests {
         }
         assert_eq!(format_sig(1e-320, 3), "1.00e-320");
         assert_eq!(format_sig(1.234e300, 3), "1.23e300");
+    }
+
+    #[test]
+    fn fixed_writes_what_format_writes() {
+        // Random readings over many decades, both signs, values on and
+        // next to the ties of each number of decimals, and the edges.
+        let mut x: u64 = 0x9e37_79b9_7f4a_7c15;
+        let mut values = vec![
+            0.0,
+            -0.0,
+            0.5,
+            1.5,
+            2.5,
+            -0.5,
+            0.25,
+            0.35,
+            0.125,
+            -0.04,
+            0.05,
+            0.15,
+            1e9,
+            999_999_999.5,
+            1e-7,
+            5e-324,
+            1e300,
+            f64::MAX,
+            f64::MIN,
+            f64::NAN,
+            f64::INFINITY,
+            f64::NEG_INFINITY,
+        ];
+        for _ in 0..400_000 {
+            x ^= x << 13;
+            x ^= x >> 7;
+            x ^= x << 17;
+            let sign = if x & (1 << 63) == 0 { 1.0 } else { -1.0 };
+            let v = match x % 4 {
+                // A reading with up to 6 decimals, often exactly on a tie.
+                0 => sign * ((x >> 8) % 100_000_000) as f64 / 10f64.powi(((x >> 40) % 7) as i32),
+                // Halves at each number of decimals.
+                1 => {
+                    sign * (((x >> 8) % 2_000_000) as f64 + 0.5)
+                        / 10f64.powi(((x >> 40) % 7) as i32)
+                }
+                // Arbitrary magnitudes.
+                2 => {
+                    sign * ((x >> 11) as f64 / (1u64 << 53) as f64)
+                        * 10f64.powi(((x >> 2) % 24) as i32 - 12)
+                }
+                // Any bit pattern.
+                _ => f64::from_bits(x),
+            };
+            values.push(v);
+            values.push(v.next_up());
+            values.push(v.next_down());
+        }
+        for v in values {
+            for d in 0..=7 {
+                assert_eq!(fixed(v, d), format!("{v:.d$}"), "{v:e} at {d}");
+                assert_eq!(
+                    fixed_signed(v, d),
+                    format!("{v:+.d$}"),
+                    "{v:e} at {d}, signed"
+                );
+            }
+            assert_eq!(fixed_with(v, 1, " %"), format!("{v:.1} %"));
+        }
     }
 
     #[test]

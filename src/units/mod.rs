@@ -7,7 +7,10 @@ mod parse;
 mod preferred;
 mod quantity;
 
-pub use format::{format_engineering, format_engineering_sig, format_fixed, format_sig, round_sig};
+pub use format::{
+    fixed, fixed_signed, fixed_with, format_engineering, format_engineering_sig, format_fixed,
+    format_sig, round_sig, write_fixed,
+};
 pub use kind::QuantityKind;
 pub use parse::{UnitError, UnitProblem, parse_quantity};
 pub use preferred::{Series, nearest_preferred};
