@@ -9,6 +9,7 @@ use plotters::coord::Shift;
 use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, VPos};
 
+use super::plots::SvgOut;
 use super::plots::{
     DARK, GRID, INK, MID, PAPER, PlotError, anchored, draw_marker, err, font, label_text, marker,
     text_width,
@@ -166,7 +167,7 @@ fn legend(chart: &ResponseChart) -> Vec<LegendEntry> {
 }
 
 fn draw(chart: &ResponseChart, svg: &mut String) -> Result<(), String> {
-    let root = SVGBackend::with_string(svg, RESPONSE_SIZE).into_drawing_area();
+    let root = SvgOut::with_string(svg, RESPONSE_SIZE).into_drawing_area();
     root.fill(&PAPER).map_err(|e| e.to_string())?;
 
     // Legend rows first: they decide the top margin.
@@ -324,7 +325,7 @@ fn draw(chart: &ResponseChart, svg: &mut String) -> Result<(), String> {
 
 /// A polyline drawn in dashes of 9 px with 6 px gaps, following its length.
 fn dashed_path(
-    area: &DrawingArea<SVGBackend<'_>, Shift>,
+    area: &DrawingArea<SvgOut<'_>, Shift>,
     points: &[(i32, i32)],
     style: ShapeStyle,
 ) -> Result<(), String> {

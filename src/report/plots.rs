@@ -18,8 +18,10 @@ use crate::calc::Findings;
 use crate::catalogue::{Arg, Catalogue};
 
 mod obstacles;
+mod svg_out;
 mod warm_up;
 pub(crate) use obstacles::Obstacles;
+pub(crate) use svg_out::SvgOut;
 pub use warm_up::{WarmUpChart, WarmUpLine, warm_up_chart, warm_up_svg};
 
 /// Font named in the SVG text elements: the bundled body font, which typst
@@ -617,7 +619,7 @@ impl Line {
 /// or the band colour where it overlaps a band), so a line it could not
 /// avoid passes behind the figure rather than through it.
 pub(crate) fn draw_label(
-    area: &DrawingArea<SVGBackend<'_>, Shift>,
+    area: &DrawingArea<SvgOut<'_>, Shift>,
     b: &PixelBox,
     bands: &[PixelBox],
     text: &str,
@@ -704,7 +706,7 @@ const DOTS_MARK_FILL: &str = "fill=\"#010203\"";
 /// parts, and one `<rect>` per dot made the charts several times larger),
 /// with a stand-in drawn where it goes.
 fn fill_bar(
-    area: &DrawingArea<SVGBackend<'_>, Shift>,
+    area: &DrawingArea<SvgOut<'_>, Shift>,
     a: (i32, i32),
     b: (i32, i32),
     k: usize,
@@ -809,7 +811,7 @@ fn legend_margin(rows: i32) -> i32 {
 
 /// Diagonal lines (lower left to upper right) filling a pixel rectangle.
 fn hatch(
-    area: &DrawingArea<SVGBackend<'_>, Shift>,
+    area: &DrawingArea<SvgOut<'_>, Shift>,
     (x0, y0): (i32, i32),
     (x1, y1): (i32, i32),
     spacing: i32,
@@ -835,7 +837,7 @@ fn hatch(
 
 /// A horizontal dashed line in pixel coordinates.
 pub(crate) fn dashed(
-    area: &DrawingArea<SVGBackend<'_>, Shift>,
+    area: &DrawingArea<SvgOut<'_>, Shift>,
     x0: i32,
     x1: i32,
     y: i32,
@@ -853,7 +855,7 @@ pub(crate) fn dashed(
 
 /// A bar chart legend's swatch, centred on `y`, from `x`.
 fn legend_swatch_bar(
-    area: &DrawingArea<SVGBackend<'_>, Shift>,
+    area: &DrawingArea<SvgOut<'_>, Shift>,
     x: i32,
     y: i32,
     k: usize,
@@ -871,7 +873,7 @@ fn legend_swatch_bar(
 /// chart that plotters wrote and typst read for nothing. The charts of
 /// `plots/warm_up.rs` and `network_chart.rs` leave it out the same way.
 pub(crate) fn draw_mesh<X, Y>(
-    ctx: &mut ChartContext<'_, SVGBackend<'_>, Cartesian2d<X, Y>>,
+    ctx: &mut ChartContext<'_, SvgOut<'_>, Cartesian2d<X, Y>>,
     y_labels: usize,
     y_format: &dyn Fn(&Y::ValueType) -> String,
     y_desc: &str,
@@ -926,7 +928,7 @@ fn draw_dissipation_bars(
     svg: &mut String,
     dots: &mut Vec<String>,
 ) -> Result<(), String> {
-    let root = SVGBackend::with_string(svg, SIZE).into_drawing_area();
+    let root = SvgOut::with_string(svg, SIZE).into_drawing_area();
     root.fill(&PAPER).map_err(|e| e.to_string())?;
     let n = chart.valves.len().max(1);
     let sets = chart.series.len().max(1);
@@ -1129,7 +1131,7 @@ fn draw_dissipation_bars(
 
 /// Like [`draw_label`], for a figure standing on end (read from below).
 fn draw_upright_label(
-    area: &DrawingArea<SVGBackend<'_>, Shift>,
+    area: &DrawingArea<SvgOut<'_>, Shift>,
     b: &PixelBox,
     bands: &[PixelBox],
     text: &str,
@@ -1179,7 +1181,7 @@ pub(crate) fn marker(k: usize) -> Marker {
 }
 
 pub(crate) fn draw_marker(
-    area: &DrawingArea<SVGBackend<'_>, Shift>,
+    area: &DrawingArea<SvgOut<'_>, Shift>,
     (x, y): (i32, i32),
     m: Marker,
 ) -> Result<(), String> {
@@ -1278,7 +1280,7 @@ pub fn supply_svg(chart: &SupplyChart) -> Result<String, PlotError> {
 }
 
 fn draw_supply(chart: &SupplyChart, svg: &mut String) -> Result<(), String> {
-    let root = SVGBackend::with_string(svg, SIZE).into_drawing_area();
+    let root = SvgOut::with_string(svg, SIZE).into_drawing_area();
     root.fill(&PAPER).map_err(|e| e.to_string())?;
     let n = chart.nodes.len().max(1);
     let sets = chart.series.len().max(1);

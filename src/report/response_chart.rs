@@ -7,6 +7,7 @@
 use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, VPos};
 
+use super::plots::SvgOut;
 use super::plots::{ChartPart, SETS_PER_CHART, even_groups, span_words};
 use super::plots::{
     DARK, GRID, INK, LABEL_HEIGHT, Line, MID, Obstacles, PAPER, PixelBox, PlotError, SIZE,
@@ -125,7 +126,7 @@ fn tick_label(f: f64) -> String {
 }
 
 fn draw_response(chart: &ResponseChart, svg: &mut String) -> Result<(), String> {
-    let root = SVGBackend::with_string(svg, SIZE).into_drawing_area();
+    let root = SvgOut::with_string(svg, SIZE).into_drawing_area();
     root.fill(&PAPER).map_err(|e| e.to_string())?;
     let all = || chart.curves.iter().flat_map(|c| c.points.iter());
     let f_min = all().map(|p| p.0).fold(f64::INFINITY, f64::min);

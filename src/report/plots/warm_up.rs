@@ -5,6 +5,7 @@
 use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, VPos};
 
+use super::SvgOut;
 use super::{
     GRID, INK, MID, PAPER, PlotError, SIZE, anchored, draw_marker, font, label_text, legend_layout,
     legend_margin, marker, to_svg,
@@ -60,7 +61,7 @@ pub fn warm_up_svg(chart: &WarmUpChart) -> Result<String, PlotError> {
 fn draw(chart: &WarmUpChart, svg: &mut String) -> Result<(), String> {
     // Half the height of the other charts: it is a small figure.
     let size = (SIZE.0, SIZE.1 * 3 / 4);
-    let root = SVGBackend::with_string(svg, size).into_drawing_area();
+    let root = SvgOut::with_string(svg, size).into_drawing_area();
     root.fill(&PAPER).map_err(|e| e.to_string())?;
     let all = chart.lines.iter().flat_map(|l| l.points.iter());
     let t_max = all.clone().map(|p| p.0).fold(1.0f64, f64::max);
