@@ -447,12 +447,12 @@ mod tests {
                 _ => {
                     let h = [HPos::Left, HPos::Center, HPos::Right][(n >> 20) as usize % 3];
                     let v = [VPos::Top, VPos::Center, VPos::Bottom][(n >> 22) as usize % 3];
-                    let t = [
-                        FontTransform::None,
-                        FontTransform::Rotate90,
-                        FontTransform::Rotate180,
-                        FontTransform::Rotate270,
-                    ][(n >> 24) as usize % 4];
+                    let t = match (n >> 24) % 4 {
+                        0 => FontTransform::None,
+                        1 => FontTransform::Rotate90,
+                        2 => FontTransform::Rotate180,
+                        _ => FontTransform::Rotate270,
+                    };
                     let s = [FontStyle::Normal, FontStyle::Bold, FontStyle::Italic]
                         [(n >> 26) as usize % 3];
                     let size = [12.0, 13.0, 14.0, 9.5, 11.0][(n >> 28) as usize % 5];
