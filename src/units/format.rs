@@ -371,7 +371,7 @@ mod tests {
             f64::INFINITY,
             f64::NEG_INFINITY,
         ];
-        for _ in 0..400_000 {
+        for _ in 0..30_000 {
             x ^= x << 13;
             x ^= x >> 7;
             x ^= x << 17;
