@@ -267,6 +267,11 @@ impl<'a> Pdf<'a> {
     }
 
     /// The text of page `number` (object `id`), as lopdf extracts it.
+    ///
+    /// lopdf extracts it from the page's content with the operations it
+    /// reads text from left alone and everything else that it certainly
+    /// parses taken out ([`text_operations`]): the same text, for a
+    /// fraction of the parsing (a page with a chart is mostly drawing).
     fn page_text(&mut self, number: u32, id: ObjectId) -> String {
         let mut named = Vec::new();
         if let Some(Ok(page)) = self.object(id).map(Object::as_dict) {
@@ -277,11 +282,47 @@ impl<'a> Pdf<'a> {
             }
         }
         self.read_all(named);
-        self.document
+        let reduced = self
+            .document
+            .get_page_content(id)
+            .ok()
+            .map(|content| text_operations(&content));
+        let mut stand_in = None;
+        if let Some(reduced) = reduced
+            && let Ok(page) = self.document.get_dictionary_mut(id)
+        {
+            // The reduced content in an object of its own, in place of
+            // the page's; put back once the text is read.
+            let before = page.remove(b"Contents");
+            let mut free = self.document.max_id + 1;
+            while self.document.objects.contains_key(&(free, 0)) {
+                free += 1;
+            }
+            if let Ok(page) = self.document.get_dictionary_mut(id) {
+                page.set("Contents", Object::Reference((free, 0)));
+            }
+            self.document.objects.insert(
+                (free, 0),
+                Object::Stream(lopdf::Stream::new(lopdf::Dictionary::new(), reduced)),
+            );
+            stand_in = Some(((free, 0), before));
+        }
+        let text = self
+            .document
             .extract_text_chunks(&[number])
             .into_iter()
             .filter_map(Result::ok)
-            .collect()
+            .collect();
+        if let Some((free, before)) = stand_in {
+            self.document.objects.remove(&free);
+            if let Ok(page) = self.document.get_dictionary_mut(id) {
+                page.remove(b"Contents");
+                if let Some(before) = before {
+                    page.set("Contents", before);
+                }
+            }
+        }
+        text
     }
 }
 
@@ -359,6 +400,235 @@ fn dict_references(dict: &lopdf::Dictionary, out: &mut Vec<ObjectId>) {
         if key.as_slice() != b"Parent" {
             references(value, out);
         }
+    }
+}
+
+/// The operators lopdf's text extraction reads (`extract_text_chunks`:
+/// the font, the strings shown, the line breaks); it passes over every
+/// other operation.
+const TEXT_OPERATORS: [&[u8]; 7] = [b"Tf", b"Tj", b"TJ", b"'", b"\"", b"T*", b"ET"];
+
+/// A page's content (decompressed) with every operation taken out that
+/// lopdf's content parser certainly reads without a fault and whose
+/// operator its text extraction passes over: what is left gives lopdf's
+/// text extraction the same operations to read, in the same order, as
+/// the whole content does, so the same text, and the same refusal when
+/// lopdf cannot parse what it reads.
+///
+/// Most of a page with a chart is drawing (`q 1 0 0 1 48.2 743.1 cm`,
+/// `0 0 m 760 0 l`), which lopdf parses operand by operand into objects
+/// it then passes over; this reads it with a scanner that allocates
+/// nothing. An operation is taken out only when each operand is a
+/// number or a name of the plain forms below and its operator is not
+/// one of [`TEXT_OPERATORS`]; every other operation (the text shown,
+/// marked content with its dictionary) is left as it is, for lopdf to
+/// parse. At anything the scanner does not know exactly as lopdf reads
+/// it (a comment, an inline image, a `#` in a name, an unusual space
+/// character, an operand lopdf would not read, the end of the content
+/// inside an operation), the rest of the content from that operation on
+/// is left whole, so lopdf meets it exactly as it would have: where
+/// lopdf stops reading a content stream early, or refuses it, it does so
+/// here too. `the_reduced_content_reads_as_the_whole_content_reads`
+/// holds the two to the same operations over typst's content and
+/// thousands of damaged copies of it.
+fn text_operations(content: &[u8]) -> Vec<u8> {
+    let mut out = Vec::with_capacity(content.len() / 2);
+    let mut at = skip_space(content, 0);
+    while at < content.len() {
+        let start = at;
+        let mut plain = true;
+        // The operands, up to the operator.
+        let operator_at = loop {
+            let Some(&c) = content.get(at) else {
+                break None;
+            };
+            let end = match c {
+                b'0'..=b'9' | b'+' | b'-' | b'.' => number_end(content, at),
+                b'/' => name_end(content, at),
+                b'(' => {
+                    plain = false;
+                    literal_end(content, at)
+                }
+                b'[' => {
+                    plain = false;
+                    array_end(content, at, 0)
+                }
+                b'<' if content.get(at + 1) == Some(&b'<') => {
+                    plain = false;
+                    dictionary_end(content, at, 0)
+                }
+                b'<' => {
+                    plain = false;
+                    hex_end(content, at)
+                }
+                c if is_operator_byte(c) => break Some(at),
+                _ => None,
+            };
+            match end {
+                Some(end) => at = skip_space(content, end),
+                None => break None,
+            }
+        };
+        let Some(operator_at) = operator_at else {
+            out.extend_from_slice(&content[start..]);
+            return out;
+        };
+        let rest = &content[operator_at..];
+        // lopdf reads these as operands (`null`, `true`, `false`, as a
+        // prefix too) and `BI` as an inline image.
+        if [&b"null"[..], b"true", b"false", b"BI"]
+            .iter()
+            .any(|word| rest.starts_with(word))
+        {
+            out.extend_from_slice(&content[start..]);
+            return out;
+        }
+        let end = operator_at + rest.iter().take_while(|&&c| is_operator_byte(c)).count();
+        let operator = &content[operator_at..end];
+        if !plain || TEXT_OPERATORS.contains(&operator) {
+            out.extend_from_slice(&content[start..end]);
+            out.push(b'\n');
+        }
+        at = skip_space(content, end);
+    }
+    out
+}
+
+/// The spaces lopdf's content parser passes between operands and
+/// operations (not NUL or form feed, which it takes elsewhere).
+fn skip_space(content: &[u8], mut at: usize) -> usize {
+    while matches!(content.get(at), Some(b' ' | b'\t' | b'\r' | b'\n')) {
+        at += 1;
+    }
+    at
+}
+
+fn is_operator_byte(c: u8) -> bool {
+    c.is_ascii_alphabetic() || matches!(c, b'*' | b'\'' | b'"')
+}
+
+/// lopdf's "regular" byte: neither white space nor a delimiter.
+fn is_regular(c: u8) -> bool {
+    !b" \t\n\r\0\x0C()<>[]{}/%".contains(&c)
+}
+
+/// The end of a number at `at` of a form lopdf reads as one, without
+/// fail: an integer of at most 18 digits with an optional sign, or a
+/// real with digits on both sides of its point or after a leading point.
+fn number_end(content: &[u8], at: usize) -> Option<usize> {
+    let digits = |from: usize| {
+        content
+            .get(from..)
+            .map_or(0, |s| s.iter().take_while(|c| c.is_ascii_digit()).count())
+    };
+    let mut end = at;
+    if matches!(content.get(end), Some(b'+' | b'-')) {
+        end += 1;
+    }
+    let whole = digits(end);
+    end += whole;
+    if content.get(end) == Some(&b'.') {
+        let fraction = digits(end + 1);
+        (fraction > 0).then_some(end + 1 + fraction)
+    } else {
+        (whole > 0 && whole <= 18).then_some(end)
+    }
+}
+
+/// The end of a name at `at` (its `/` and the regular bytes after it),
+/// or `None` for one with a `#` escape.
+fn name_end(content: &[u8], at: usize) -> Option<usize> {
+    let len = content[at + 1..]
+        .iter()
+        .take_while(|&&c| is_regular(c) && c != b'#')
+        .count();
+    let end = at + 1 + len;
+    (content.get(end) != Some(&b'#')).then_some(end)
+}
+
+/// The end of a literal string at `at`: its parentheses balanced, a
+/// backslash escaping the byte after it; `None` when it does not end or
+/// nests deeper than this reads (lopdf reads 100 levels).
+fn literal_end(content: &[u8], at: usize) -> Option<usize> {
+    let mut depth = 0usize;
+    let mut i = at;
+    loop {
+        match *content.get(i)? {
+            b'\\' => i += 1,
+            b'(' => {
+                depth += 1;
+                if depth > 32 {
+                    return None;
+                }
+            }
+            b')' => {
+                depth -= 1;
+                if depth == 0 {
+                    return Some(i + 1);
+                }
+            }
+            _ => {}
+        }
+        i += 1;
+    }
+}
+
+/// The end of a hexadecimal string at `at`: hexadecimal digits and
+/// spaces up to its `>`.
+fn hex_end(content: &[u8], at: usize) -> Option<usize> {
+    let len = content[at + 1..]
+        .iter()
+        .take_while(|&&c| c.is_ascii_hexdigit() || matches!(c, b' ' | b'\t' | b'\r' | b'\n'))
+        .count();
+    let end = at + 1 + len;
+    (content.get(end) == Some(&b'>')).then_some(end + 1)
+}
+
+/// The end of one object inside an array or a dictionary at `at`: a
+/// number, a name, a string, an array or a dictionary (not a reference,
+/// `true`, `false` or `null`: those end the reading here).
+fn object_end(content: &[u8], at: usize, depth: usize) -> Option<usize> {
+    match *content.get(at)? {
+        b'0'..=b'9' | b'+' | b'-' | b'.' => number_end(content, at),
+        b'/' => name_end(content, at),
+        b'(' => literal_end(content, at),
+        b'[' => array_end(content, at, depth + 1),
+        b'<' if content.get(at + 1) == Some(&b'<') => dictionary_end(content, at, depth + 1),
+        b'<' => hex_end(content, at),
+        _ => None,
+    }
+}
+
+/// The end of an array at `at`, nested at most 8 deep.
+fn array_end(content: &[u8], at: usize, depth: usize) -> Option<usize> {
+    if depth > 8 {
+        return None;
+    }
+    let mut i = skip_space(content, at + 1);
+    loop {
+        if *content.get(i)? == b']' {
+            return Some(i + 1);
+        }
+        i = skip_space(content, object_end(content, i, depth)?);
+    }
+}
+
+/// The end of a dictionary at `at` (a name, then an object, in turn),
+/// nested at most 8 deep.
+fn dictionary_end(content: &[u8], at: usize, depth: usize) -> Option<usize> {
+    if depth > 8 {
+        return None;
+    }
+    let mut i = skip_space(content, at + 2);
+    loop {
+        if content.get(i..i + 2)? == b">>" {
+            return Some(i + 2);
+        }
+        if content[i] != b'/' {
+            return None;
+        }
+        i = skip_space(content, name_end(content, i)?);
+        i = skip_space(content, object_end(content, i, depth)?);
     }
 }
 
@@ -753,6 +1023,157 @@ mod tests {
         assert_eq!(de.say(&why(b"")), "sie ist leer");
     }
 
+    /// What lopdf's text extraction reads of a content stream: the text
+    /// operations lopdf parses from it, in order, or that it refuses it.
+    fn text_read(content: &[u8]) -> Result<Vec<String>, ()> {
+        lopdf::content::Content::decode(content)
+            .map(|content| {
+                content
+                    .operations
+                    .iter()
+                    .filter(|op| TEXT_OPERATORS.contains(&op.operator.as_bytes()))
+                    .map(|op| format!("{op:?}"))
+                    .collect()
+            })
+            .map_err(|_| ())
+    }
+
+    /// Page content as typst writes it: marked content with its
+    /// dictionary, saved states, drawing, text shown as strings with
+    /// escapes and in arrays with kerning.
+    const TYPST_CONTENT: &[u8] = b"/Span<</MCID 0>>BDC\nq 1 0 0 -1 48.188976 743.0543 cm/c0 cs 0 scn\nBT 0 Tr/f0 9 Tf 1 0 0 -1 0 0 Tm[(\\000,\\000\\003)20(\\000\\013\\000E\\000$)]TJ\nET\nQ\nEMC/Span<</MCID 1>>BDC\nq 48.188976 737.1143 m 563.81104 737.1143 l 563.81104 513.2258 l 48.188976 513.2258 l\nh\nW\nn\nq 0.6784501 0 0 -0.67845005 48.188976 737.1143 cm/c0 cs 1 scn 0 0 m 760 0 l 760 330 l 0 330 l\nh\nf\nQ\nq -0.00000000000000012462926 0.67845005 0.6784501 0.00000000000000012462925 59.438114 581.70825 cm/c0 cs 0.078431375 scn\nBT 0 Tr/f1 11.290322 Tf 1 0 0 -1 0 0 Tm(\\000\\017)Tj\nET\nQ\n0.5 w 1 J 0 j [2 1] 0 d /GS1 gs 10 20 30 40 re S\nEMC/Span<</MCID 42>>BDC\nq 1 0 0 -1 112.948975 305.14688 cm/c0 cs 0 scn\nBT 0 Tr/f1 8.8 Tf 1 0 0 -1 0 0 Tm[(\\000\\033\\000\\r)20(\\000&\\000\\()-30<0012 00 3f>]TJ 12 TL T* (a \\(b\\) (c)) ' 1 2 (d) \" <414243> Tj\nET\nQ\nEMC\n";
+
+    /// Whole operations, odd forms and faults lopdf meets in content:
+    /// each reads the same reduced as whole.
+    #[test]
+    fn the_reduced_content_reads_as_the_whole_content_reads() {
+        let mut cases: Vec<Vec<u8>> = vec![TYPST_CONTENT.to_vec()];
+        for case in [
+            &b""[..],
+            b"   \n",
+            b"BT /F1 12 Tf (plain) Tj ET",
+            b"1. 2 m 3 4 l (x) Tj",
+            b"+.5 -.25 m .5 l BT /F1 1 Tf (after) Tj ET",
+            b"1234567890123456789 0 m BT /F1 1 Tf (after) Tj ET",
+            b"123456789012345678 0 m BT /F1 1 Tf (after) Tj ET",
+            b"null 0 m (x) Tj",
+            b"true Tj (x) Tj",
+            b"0 trueTj (x) Tj",
+            b"falsehood (x) Tj",
+            b"/F1 1 Tf (x) Tj BI /W 1 /H 1 /BPC 8 /CS /G ID \x00 EI (y) Tj",
+            b"BIx (x) Tj",
+            b"(x) Tj % a comment\n (y) Tj",
+            b"(x) Tj %no end",
+            b"/A#20B gs (x) Tj",
+            b"/A#zz gs (x) Tj",
+            b"1\x0c2 m (x) Tj",
+            b"1\x002 m (x) Tj",
+            b"(x) Tj\x0c(y) Tj",
+            b"1 2 m (unterminated Tj",
+            b"1 2 m (x\\",
+            b"1 2 m <41 4g> Tj (y) Tj",
+            b"1 2 m <41 42 Tj",
+            b"[1 0 R] 0 d (x) Tj",
+            b"[1 %c\n 2] 0 d (x) Tj",
+            b"[(a) [<41> [1]]] TJ (x) Tj",
+            b"<</A 1 0 R>> BDC (x) Tj",
+            b"<</A true>> BDC (x) Tj",
+            b"<</A <</B [1 2 (c)]>> /C /D>> BDC (x) Tj",
+            b"<<1 2>> BDC (x) Tj",
+            b"1 2 m{ (x) Tj",
+            b"1 2 m) (x) Tj",
+            b"1 2 m] (x) Tj",
+            b"1 2 3",
+            b"/F1 12 Tf",
+            b"1.5.5 2 m (x) Tj",
+            b"1-2 m (x) Tj",
+            b"- 2 m (x) Tj",
+            b". 2 m (x) Tj",
+            b"1 2m(x)Tj/F1 1 Tf[(y)]TJ",
+            b"1 2 m\r\n\t(x)'(y)\"",
+            b"Tf Tj TJ ' \" T* ET",
+            b"T*x ETET Tjj (x) Tjj",
+        ] {
+            cases.push(case.to_vec());
+        }
+        let mut deep = b"1 2 m ".to_vec();
+        deep.extend(std::iter::repeat_n(b'(', 120));
+        deep.extend(std::iter::repeat_n(b')', 120));
+        deep.extend_from_slice(b" Tj (z) Tj");
+        cases.push(deep);
+        let mut nested = b"1 2 m ".to_vec();
+        nested.extend(std::iter::repeat_n(b'[', 120));
+        nested.extend(std::iter::repeat_n(b']', 120));
+        nested.extend_from_slice(b" TJ (z) Tj");
+        cases.push(nested);
+        for case in &cases {
+            assert_eq!(
+                text_read(&text_operations(case)),
+                text_read(case),
+                "{}",
+                String::from_utf8_lossy(case)
+            );
+        }
+        // Damaged copies of typst's content: bytes changed, put in and
+        // taken out at random places, with the bytes content is made of
+        // (a fixed seed, so a failure repeats).
+        let alphabet = b" \n\r\t\x00\x0c()<>[]{}/%#\\.+-019aefTjJ*'\"BIlmnrtuRS";
+        // CONTENT_CASES=N and CONTENT_SEED=S for a longer hunt.
+        let number = |name: &str, default: u64| {
+            std::env::var(name)
+                .ok()
+                .and_then(|v| v.parse().ok())
+                .unwrap_or(default)
+        };
+        let cases = number("CONTENT_CASES", 3000);
+        let mut seed = number("CONTENT_SEED", 0x9e37_79b9_7f4a_7c15) | 1;
+        let mut next = move || {
+            seed ^= seed << 13;
+            seed ^= seed >> 7;
+            seed ^= seed << 17;
+            seed
+        };
+        let mut reduced_fewer = 0;
+        for _ in 0..cases {
+            let mut content = TYPST_CONTENT.to_vec();
+            for _ in 0..1 + next() % 3 {
+                if content.is_empty() {
+                    break;
+                }
+                let at = (next() % content.len() as u64) as usize;
+                let byte = alphabet[(next() % alphabet.len() as u64) as usize];
+                match next() % 4 {
+                    0 => content[at] = byte,
+                    1 => content.insert(at, byte),
+                    2 => {
+                        content.remove(at);
+                    }
+                    _ => content.truncate(at),
+                }
+            }
+            let reduced = text_operations(&content);
+            if reduced.len() < content.len() {
+                reduced_fewer += 1;
+            }
+            assert_eq!(
+                text_read(&reduced),
+                text_read(&content),
+                "{}",
+                String::from_utf8_lossy(&content)
+            );
+        }
+        // Most damaged copies are still mostly read by the scanner.
+        assert!(reduced_fewer * 3 > cases * 2, "{reduced_fewer} of {cases}");
+        // typst's drawing is taken out, its text left.
+        let reduced = text_operations(TYPST_CONTENT);
+        assert!(
+            reduced.len() * 10 < TYPST_CONTENT.len() * 7,
+            "{}",
+            reduced.len()
+        );
+        assert!(!reduced.windows(3).any(|w| w == b" cm"));
+    }
+
     /// typst's own PDF of each demo job, read from its table and read
     /// whole: the same pages and the same text on every page (run where
     /// typst is installed; always under CI).
@@ -793,6 +1214,17 @@ mod tests {
             let mut whole = Pdf::whole(&file).unwrap();
             let text = read(&mut whole);
             assert!(text.len() >= 5, "{name}: {} pages", text.len());
+            // Each page's text from its reduced content is the text lopdf
+            // extracts from the whole content.
+            for (number, page_text) in &text {
+                let by_lopdf: String = whole
+                    .document
+                    .extract_text_chunks(&[*number])
+                    .into_iter()
+                    .filter_map(Result::ok)
+                    .collect();
+                assert_eq!(page_text, &by_lopdf, "{name}: page {number}");
+            }
             assert_eq!(read(&mut by_table), text, "{name}");
             let required = handover::notice_phrases(crate::catalogue::Catalogue::english());
             let mut checked = incomplete(&file).unwrap();
