@@ -1491,11 +1491,7 @@ fn window_row(v: &ValveFindings, cat: &Catalogue) -> Option<WindowRow> {
 /// The note under a target window's readings, as the template said it
 /// (`doc-grid-middle` when there is an estimate, else `doc-grid-unknown`
 /// when there is a reason; an empty text counts as none).
-fn grid_note(
-    middle: &Option<String>,
-    unknown: &Option<String>,
-    cat: &Catalogue,
-) -> Option<String> {
+fn grid_note(middle: &Option<String>, unknown: &Option<String>, cat: &Catalogue) -> Option<String> {
     let present = |t: &Option<String>| t.clone().filter(|t| !t.is_empty());
     if let Some(volts) = present(middle) {
         Some(cat.format("doc-grid-middle", &[("volts", Arg::from(volts))]))
