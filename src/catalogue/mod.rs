@@ -290,26 +290,24 @@ impl Catalogue {
 
     fn build(language: &str, origin: &str, text: &str) -> Result<Catalogue, ()> {
         let resource = FluentResource::try_new(text.to_owned()).map_err(|_| ())?;
-        let keys: Vec<String> = resource
-            .entries()
-            .filter_map(|entry| match entry {
-                fluent_syntax::ast::Entry::Message(m) => Some(m.id.name.to_owned()),
-                _ => None,
-            })
-            .collect();
+        // Each message's pattern read from the resource as it is parsed
+        // (the bundle below refuses a resource that names a message
+        // twice, so these are the patterns the bundle holds).
+        let mut patterns = HashMap::with_capacity(resource.entries().count());
+        for entry in resource.entries() {
+            if let fluent_syntax::ast::Entry::Message(m) = entry
+                && let Some(pattern) = &m.value
+            {
+                let pattern = plain_pattern(pattern).map_or(Pattern::Fluent, Pattern::Plain);
+                patterns.insert(Box::from(m.id.name), pattern);
+            }
+        }
         let id: unic_langid::LanguageIdentifier = language.parse().unwrap_or_default();
         let mut bundle = FluentBundle::new_concurrent(vec![id]);
         // No Unicode isolation marks around arguments: the text goes to a
         // terminal, JSON and a PDF, where they would show as stray bytes.
         bundle.set_use_isolating(false);
         bundle.add_resource(resource).map_err(|_| ())?;
-        let mut patterns = HashMap::with_capacity(keys.len());
-        for key in keys {
-            if let Some(pattern) = bundle.get_message(&key).and_then(|m| m.value()) {
-                let pattern = plain_pattern(pattern).map_or(Pattern::Fluent, Pattern::Plain);
-                patterns.insert(key.into_boxed_str(), pattern);
-            }
-        }
         Ok(Catalogue {
             inner: Arc::new(Inner {
                 language: language.to_owned(),

@@ -137,7 +137,9 @@ impl<'a> Pdf<'a> {
     }
 
     /// Reads the catalogue and every node of the page tree, with what
-    /// each node's resources name (pages inherit them).
+    /// the resources of each node above the pages name (pages inherit
+    /// them); a page's own resources are read with its text
+    /// ([`Pdf::page_text`]), only for the pages whose text is read.
     fn read_page_tree(&mut self) {
         let Ok(root) = self
             .document
@@ -165,9 +167,9 @@ impl<'a> Pdf<'a> {
             if let Some(Ok(node)) = self.object(id).map(Object::as_dict) {
                 if let Ok(kids) = node.get(b"Kids").and_then(Object::as_array) {
                     todo.extend(kids.iter().filter_map(|k| k.as_reference().ok()));
-                }
-                if let Ok(named) = node.get(b"Resources") {
-                    references(named, &mut resources);
+                    if let Ok(named) = node.get(b"Resources") {
+                        references(named, &mut resources);
+                    }
                 }
             }
             self.read_all(resources);
