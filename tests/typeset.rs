@@ -330,6 +330,46 @@ fn only_bundled_fonts_are_embedded() {
     }
 }
 
+/// The families `pdffonts` lists for `pdf`, without their subset tags.
+fn embedded_families(pdf: &Path) -> Vec<String> {
+    let out = Command::new("pdffonts").arg(pdf).output().unwrap();
+    String::from_utf8_lossy(&out.stdout)
+        .lines()
+        .skip(2)
+        .filter_map(|l| l.split_whitespace().next())
+        .map(|f| f.split_once('+').map_or(f, |(_, f)| f).to_string())
+        .collect()
+}
+
+#[test]
+fn signs_the_body_font_lacks_come_from_mono_without_the_cjk_face() {
+    let Some(program) = typst() else { return };
+    let dir = tempfile::tempdir().unwrap();
+    let (signs, cjk) = (dir.path().join("signs.pdf"), dir.path().join("cjk.pdf"));
+    let text = "about √2 × Vsec, at most ≤ 0.5 Ω, at least ≥ 2 MΩ";
+    let opts = options(job_date());
+    compile(&program, &case_sandbox(text), "main.typ", &opts, &signs).unwrap();
+    let families = embedded_families(&signs);
+    assert!(
+        families.iter().any(|f| f == "NotoSansMono-Regular"),
+        "{families:?}"
+    );
+    assert!(
+        !families.iter().any(|f| f.starts_with("WenQuanYi")),
+        "{families:?}"
+    );
+    assert!(normalise(&pdftotext(&signs)).contains(&normalise(text)));
+    // CJK text still finds its face.
+    let text = "√2 你好";
+    compile(&program, &case_sandbox(text), "main.typ", &opts, &cjk).unwrap();
+    let families = embedded_families(&cjk);
+    assert!(
+        families.iter().any(|f| f.starts_with("WenQuanYi")),
+        "{families:?}"
+    );
+    assert!(normalise(&pdftotext(&cjk)).contains(&normalise(text)));
+}
+
 #[test]
 fn pdf_a_2b_and_plain_pdf_both_compile() {
     let Some(program) = typst() else { return };

@@ -193,19 +193,42 @@ pub fn undrawable(text: &str) -> Vec<char> {
 /// document must name these families. `mono-fonts` names the monospaced
 /// ones for a template that sets text in them without a `raw` element
 /// (the hand-over's footer: see its `footer-mono`).
+///
+/// In the body text, the signs of [`SIGNS_FROM_MONO`] come from Noto Sans
+/// Mono, before the CJK family is tried: no other body family has them,
+/// and the CJK face is a 5 MB file that typst otherwise loads, hashes and
+/// embeds for these few signs alone (some 28 million of typst's
+/// instructions, 4 % of a demo job; see docs/performance.md). The
+/// monospaced face is in every hand-over document anyway (its footer).
 pub fn font_rules() -> String {
+    let mut body: Vec<String> = TEXT_FAMILIES.iter().map(|f| quoted(f)).collect();
+    body.insert(
+        TEXT_FAMILIES.len() - 1,
+        format!(
+            "(name: {}, covers: regex(\"[{SIGNS_FROM_MONO}]\"))",
+            quoted(MONO_FAMILIES[0])
+        ),
+    );
     format!(
-        "#set text(font: {})\n#let mono-fonts = {}\n#show raw: set text(font: mono-fonts)\n",
-        family_array(TEXT_FAMILIES),
+        "#set text(font: ({}))\n#let mono-fonts = {}\n#show raw: set text(font: mono-fonts)\n",
+        body.join(", "),
         family_array(MONO_FAMILIES),
     )
 }
 
+/// Signs the body text takes from the monospaced family rather than the
+/// CJK one (see [`font_rules`]): the square root and the two comparisons,
+/// which the method note and the safety limits print. The arrow and the
+/// parallel sign stay with the CJK family, whose drawing of them is
+/// closer to the body text's.
+pub const SIGNS_FROM_MONO: &str = "√≤≥";
+
+fn quoted(family: &str) -> String {
+    format!("\"{}\"", super::escape::escape_string(family))
+}
+
 fn family_array(families: &[&str]) -> String {
-    let quoted: Vec<String> = families
-        .iter()
-        .map(|f| format!("\"{}\"", super::escape::escape_string(f)))
-        .collect();
+    let quoted: Vec<String> = families.iter().map(|f| quoted(f)).collect();
     format!("({})", quoted.join(", "))
 }
 
@@ -315,6 +338,44 @@ mod tests {
         let rules = font_rules();
         for family in TEXT_FAMILIES.iter().chain(MONO_FAMILIES) {
             assert!(rules.contains(&format!("\"{family}\"")), "{family}");
+        }
+    }
+
+    /// Whether the bundled file `name` has a glyph for `c`.
+    fn file_has(name: &str, c: char) -> bool {
+        let (_, data) = BUNDLED_FONTS.iter().find(|(n, _)| *n == name).unwrap();
+        ttf_parser::Face::parse(data, 0)
+            .unwrap()
+            .glyph_index(c)
+            .is_some()
+    }
+
+    #[test]
+    fn the_signs_taken_from_mono_are_its_own_and_no_earlier_body_familys() {
+        // Only which of the CJK and the monospaced face draws them changes:
+        // every body family before the CJK one lacks them, and both
+        // monospaced faces (regular, bold) have them.
+        let rules = font_rules();
+        let mono = rules
+            .find("(name: \"Noto Sans Mono\", covers: regex(")
+            .unwrap();
+        let cjk = rules.find("\"WenQuanYi Micro Hei\"").unwrap();
+        assert!(mono < cjk, "{rules}");
+        assert!(rules.find("\"Noto Sans Devanagari\"").unwrap() < mono);
+        for c in SIGNS_FROM_MONO.chars() {
+            for earlier in [
+                "NotoSans-Regular.ttf",
+                "NotoSans-Bold.ttf",
+                "NotoSans-Italic.ttf",
+                "NotoSansArabic-Regular.ttf",
+                "NotoSansHebrew-Regular.ttf",
+                "NotoSansDevanagari-Regular.ttf",
+            ] {
+                assert!(!file_has(earlier, c), "{earlier} has {c}");
+            }
+            for mono in ["NotoSansMono-Regular.ttf", "NotoSansMono-Bold.ttf"] {
+                assert!(file_has(mono, c), "{mono} lacks {c}");
+            }
         }
     }
 }
