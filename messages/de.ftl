@@ -2132,6 +2132,7 @@ cli-template-bad-name = der Vorlagenname `{ $name }` ist kein einfacher relative
 cli-template-refused = die Vorlage `{ $name }` wurde abgelehnt: { $why }
 cli-template-not-utf8 = die Vorlage `{ $name }` ist kein UTF-8-Text
 cli-template-no-message = der Meldungskatalog ({ $language }, { $origin }) hat keine Meldung `{ $key }`
+cli-template-not-rows = der Filter `typst_rows` nimmt die Zeilen einer Tabelle, wie das Programm sie liefert (`set.nodes`, `set.valves` …), keinen anderen Wert
 cli-template-no-notice = { $what ->
         [listing] die Verkaufsübersicht
        *[document] das Dokument

@@ -2130,6 +2130,7 @@ cli-template-bad-name = the template name `{ $name }` is not a plain relative pa
 cli-template-refused = the template `{ $name }` was refused: { $why }
 cli-template-not-utf8 = the template `{ $name }` is not UTF-8 text
 cli-template-no-message = the message catalogue ({ $language }, { $origin }) has no message `{ $key }`
+cli-template-not-rows = the filter `typst_rows` takes the rows of a table as the program gives them (`set.nodes`, `set.valves` …), not another value
 cli-template-no-notice = the { $what ->
         [listing] listing
        *[document] document

@@ -228,11 +228,9 @@ impl RatingsTable {
 
     /// Sorts the rows and rebuilds the designation index.
     fn reindex(&mut self) {
-        self.rows.sort_by(|a, b| {
-            a.class
-                .cmp(&b.class)
-                .then_with(|| designation_order(&a.name, &b.name))
-        });
+        // Each row's key worked out once, not again for every comparison.
+        self.rows
+            .sort_by_cached_key(|row| (row.class, designation_parts(&row.name), row.name.clone()));
         self.index.clear();
         for (i, row) in self.rows.iter().enumerate() {
             for d in row.designations() {
@@ -242,31 +240,29 @@ impl RatingsTable {
     }
 }
 
-/// Orders designations as text, but with runs of digits compared as
-/// numbers, so that 6V6 comes before 12AX7.
-fn designation_order(a: &str, b: &str) -> std::cmp::Ordering {
-    fn parts(s: &str) -> Vec<(u8, u64, String)> {
-        let mut out = Vec::new();
-        let mut chars = s.chars().peekable();
+/// A designation's runs of digits (as numbers) and of other characters
+/// (in capitals): rows are ordered by these, then by the name as text,
+/// so that 6V6 comes before 12AX7.
+fn designation_parts(s: &str) -> Vec<(u8, u64, String)> {
+    let mut out = Vec::new();
+    let mut chars = s.chars().peekable();
+    while let Some(&c) = chars.peek() {
+        let digit = c.is_ascii_digit();
+        let mut run = String::new();
         while let Some(&c) = chars.peek() {
-            let digit = c.is_ascii_digit();
-            let mut run = String::new();
-            while let Some(&c) = chars.peek() {
-                if c.is_ascii_digit() != digit {
-                    break;
-                }
-                run.push(c);
-                chars.next();
+            if c.is_ascii_digit() != digit {
+                break;
             }
-            if digit {
-                out.push((0, run.parse().unwrap_or(u64::MAX), run));
-            } else {
-                out.push((1, 0, run.to_uppercase()));
-            }
+            run.push(c);
+            chars.next();
         }
-        out
+        if digit {
+            out.push((0, run.parse().unwrap_or(u64::MAX), run));
+        } else {
+            out.push((1, 0, run.to_uppercase()));
+        }
     }
-    parts(a).cmp(&parts(b)).then_with(|| a.cmp(b))
+    out
 }
 
 /// Records that `owner` holds the draft's designations, reporting any that

@@ -181,6 +181,12 @@ pub const LONG_CHUNK: usize = 16;
 /// the string holds exactly the original characters.
 pub fn escape_string(text: &str) -> String {
     let mut out = String::with_capacity(text.len() + 2);
+    escape_string_into(text, &mut out);
+    out
+}
+
+/// [`escape_string`], appended to `out`.
+pub fn escape_string_into(text: &str, out: &mut String) {
     for c in text.chars() {
         match c {
             '\\' => out.push_str("\\\\"),
@@ -194,7 +200,6 @@ pub fn escape_string(text: &str) -> String {
             c => out.push(c),
         }
     }
-    out
 }
 
 /// Makes `text` a Typst expression for content in code position (a table
@@ -212,7 +217,18 @@ pub fn escape_string(text: &str) -> String {
 /// what the fonts cannot draw, the same break opportunities in long runs,
 /// and nothing in the text can run code.
 pub fn escape_content(text: &str) -> String {
-    content_as_string(text).unwrap_or_else(|| escape_content_full(text))
+    let mut out = String::with_capacity(text.len() + 2);
+    escape_content_into(text, &mut out);
+    out
+}
+
+/// [`escape_content`], appended to `out`.
+pub fn escape_content_into(text: &str, out: &mut String) {
+    let start = out.len();
+    if !content_as_string_into(text, out) {
+        out.truncate(start);
+        out.push_str(&escape_content_full(text));
+    }
 }
 
 /// The common case of [`escape_content`] in one pass: text that
@@ -221,11 +237,18 @@ pub fn escape_content(text: &str) -> String {
 /// end and no two in a row. Its markup, unescaped, is the text itself, so
 /// the string literal is the text with `\` and `"` escaped. `None` for
 /// any other text.
+#[cfg(test)]
 fn content_as_string(text: &str) -> Option<String> {
-    if text.is_empty() || text.starts_with(' ') || text.ends_with(' ') || text.contains("  ") {
-        return None;
-    }
     let mut out = String::with_capacity(text.len() + 2);
+    content_as_string_into(text, &mut out).then_some(out)
+}
+
+/// [`content_as_string`] appended to `out`; false (with part of the text
+/// possibly written) when the text is not for the one pass.
+fn content_as_string_into(text: &str, out: &mut String) -> bool {
+    if text.is_empty() || text.starts_with(' ') || text.ends_with(' ') || text.contains("  ") {
+        return false;
+    }
     out.push('"');
     let mut run = 0usize;
     for c in text.chars() {
@@ -249,15 +272,15 @@ fn content_as_string(text: &str) -> Option<String> {
             {
                 out.push(c)
             }
-            _ => return None,
+            _ => return false,
         }
         run += 1;
         if run >= LONG_RUN {
-            return None;
+            return false;
         }
     }
     out.push('"');
-    Some(out)
+    true
 }
 
 /// [`escape_content`] for any text: through [`escape_markup`].
@@ -444,6 +467,9 @@ mod tests {
         assert_eq!(escape_string("bell\u{7}"), "bell\\u{7}");
         assert_eq!(escape_string("ls\u{2028}"), "ls\\u{2028}");
         assert_eq!(escape_string("#$*_ ok"), "#$*_ ok");
+        let mut out = String::from("x ");
+        escape_string_into("a\"b\n", &mut out);
+        assert_eq!(out, "x a\\\"b\\n");
     }
 
     #[test]
@@ -521,6 +547,10 @@ mod tests {
                 assert_eq!(one_pass, full, "{text:?}");
             }
             assert_eq!(escape_content(&text), full, "{text:?}");
+            // Appended to what is there, a partial one-pass write undone.
+            let mut appended = String::from("before ");
+            escape_content_into(&text, &mut appended);
+            assert_eq!(appended, format!("before {full}"), "{text:?}");
         }
         assert!(fast > 3_000, "one pass taken {fast} times");
     }

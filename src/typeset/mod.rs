@@ -32,7 +32,10 @@ pub use compile::{
 };
 pub(crate) use compile::{locked_partial, sweep_partials};
 pub use error::{INSTALL_HINT, TypesetError};
-pub use escape::{escape_content, escape_markup, escape_string};
+pub use escape::{
+    escape_content, escape_content_into, escape_markup, escape_markup_into, escape_string,
+    escape_string_into,
+};
 pub use font_cache::{
     FONTS_DIGEST, ensure_font_cache, font_cache_folder_name, is_complete as font_cache_is_complete,
     user_cache_root,
@@ -47,7 +50,7 @@ pub use locate::{
     start_locate_in, start_locate_keeping,
 };
 pub use output::{Input, InputIndex, OutputRefused, check_emit_folder, check_output};
-pub use rows::{RowList, Rows};
+pub use rows::{RowList, Rows, TypstRow};
 pub use sandbox::{EMIT_PREFIX, Sandbox, emit_source, emit_source_replacing};
 pub use template_env::{
     TemplateSource, TypstMarkup, refusal, template_environment, template_error_msg, typst_markup,

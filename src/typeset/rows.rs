@@ -1,32 +1,64 @@
-//! A table's rows for a template, carrying their own text length.
+//! A table's rows for a template, carrying their own text length and
+//! their cells written by the program.
 //!
 //! Templates ask `{{ rows|text_length }}` of every table (the hand-over
 //! keeps a short table whole by its row count and characters). Walking
 //! the rows through minijinja's values for that is slow: a row made from
 //! a Rust struct is a map whose every field is found by comparing its name
 //! with each name before it, so a long job paid for each of its thousands
-//! of rows twice. A [`Rows`] list works its length out from the Rust values
-//! while they become template values, with the same count the filter's
-//! walk gives (every string's characters, numbers and other scalars as
-//! they print, map keys left out), and the `text_length` filter reads it.
-//! For templates it is an ordinary list: it loops, has a `length`, is
-//! false when empty, and can be indexed and filtered.
+//! of rows twice. A [`Rows`] list works its length out from the Rust values,
+//! with the same count the filter's walk gives (every string's characters,
+//! numbers and other scalars as they print, map keys left out), and the
+//! `text_length` filter reads it.
+//!
+//! Printing a long table cell by cell through the template engine was the
+//! largest part of a long job's own work (a 1,000-set job has some 200,000
+//! cells, each an attribute lookup, a filter call and an escape). Each row
+//! type therefore writes its own cells as Typst code ([`TypstRow`]), escaped
+//! exactly as the template's filters escape them, and a template prints a
+//! whole table's rows with `{{ rows|typst_rows }}`.
+//!
+//! For templates a [`Rows`] is still an ordinary list: it loops, has a
+//! `length`, is false when empty, and can be indexed and filtered; the rows
+//! become template values only when a template reads one. Serialized
+//! anywhere else it is the plain list.
 
-use std::ops::{Deref, DerefMut};
-use std::sync::Arc;
+use std::ops::Deref;
+use std::sync::{Arc, OnceLock};
 
 use minijinja::value::{Enumerator, Object, ObjectRepr, Value};
 use serde::ser::{self, Serialize, Serializer};
 
-/// A table's rows. Dereferences to the `Vec` of rows; serialized for a
-/// template it is a list of the rows that knows its text length, and
+/// A row of a table whose cells the program writes as Typst code.
+pub trait TypstRow {
+    /// Writes the row's cells as the built-in template's loop over the
+    /// table printed them: the row begins on a new line indented by two
+    /// spaces, and every cell (and the row) ends with a comma. Every piece
+    /// of text is escaped (`escape_content`, `escape_markup`,
+    /// `escape_string`), so nothing in it can run code.
+    fn write_cells(&self, out: &mut String);
+}
+
+/// A table's rows. Dereferences to the `Vec` of rows (shared, so handing
+/// them to a template copies nothing); serialized for a template it is a
+/// list of the rows that knows its text length and its cells, and
 /// serialized anywhere else it is the plain list.
 #[derive(Debug, Clone, PartialEq)]
-pub struct Rows<T>(pub Vec<T>);
+pub struct Rows<T>(Arc<Vec<T>>);
+
+impl<T> Rows<T> {
+    /// The rows as a plain vector.
+    pub fn into_vec(self) -> Vec<T>
+    where
+        T: Clone,
+    {
+        Arc::unwrap_or_clone(self.0)
+    }
+}
 
 impl<T> Default for Rows<T> {
     fn default() -> Self {
-        Rows(Vec::new())
+        Rows(Arc::new(Vec::new()))
     }
 }
 
@@ -37,21 +69,15 @@ impl<T> Deref for Rows<T> {
     }
 }
 
-impl<T> DerefMut for Rows<T> {
-    fn deref_mut(&mut self) -> &mut Vec<T> {
-        &mut self.0
-    }
-}
-
 impl<T> From<Vec<T>> for Rows<T> {
     fn from(rows: Vec<T>) -> Self {
-        Rows(rows)
+        Rows(Arc::new(rows))
     }
 }
 
 impl<T> FromIterator<T> for Rows<T> {
     fn from_iter<I: IntoIterator<Item = T>>(iter: I) -> Self {
-        Rows(iter.into_iter().collect())
+        Rows(Arc::new(iter.into_iter().collect()))
     }
 }
 
@@ -63,34 +89,79 @@ impl<'a, T> IntoIterator for &'a Rows<T> {
     }
 }
 
-impl<T: Serialize> Serialize for Rows<T> {
+impl<T> Serialize for Rows<T>
+where
+    T: Serialize + TypstRow + std::fmt::Debug + Send + Sync + 'static,
+{
     fn serialize<S: Serializer>(&self, serializer: S) -> Result<S::Ok, S::Error> {
         if !minijinja::value::serializing_for_value() {
             return self.0.serialize(serializer);
         }
-        // The walk of the filter starts at the list (depth 0), so each row
-        // is at depth 1.
-        let text_length = self
-            .0
-            .iter()
-            .map(|row| row.serialize(Counter { depth: 1 }).unwrap_or(0))
-            .sum();
-        let rows = self.0.iter().map(Value::from_serialize).collect();
-        Value::from_object(RowList { rows, text_length }).serialize(serializer)
+        Value::from_object(RowList {
+            rows: self.0.clone(),
+            values: OnceLock::new(),
+            text_length: OnceLock::new(),
+        })
+        .serialize(serializer)
     }
 }
 
-/// The template value of [`Rows`].
+/// What a [`RowList`] needs of its rows, whatever their type.
+trait RowSource: std::fmt::Debug + Send + Sync {
+    fn len(&self) -> usize;
+    fn values(&self) -> Vec<Value>;
+    fn text_length(&self) -> usize;
+    fn write_cells(&self, out: &mut String);
+}
+
+impl<T> RowSource for Vec<T>
+where
+    T: Serialize + TypstRow + std::fmt::Debug + Send + Sync,
+{
+    fn len(&self) -> usize {
+        Vec::len(self)
+    }
+
+    fn values(&self) -> Vec<Value> {
+        self.iter().map(Value::from_serialize).collect()
+    }
+
+    fn text_length(&self) -> usize {
+        // The walk of the filter starts at the list (depth 0), so each row
+        // is at depth 1.
+        self.iter()
+            .map(|row| row.serialize(Counter { depth: 1 }).unwrap_or(0))
+            .sum()
+    }
+
+    fn write_cells(&self, out: &mut String) {
+        for row in self {
+            row.write_cells(out);
+        }
+    }
+}
+
+/// The template value of [`Rows`]: the shared rows, made into template
+/// values only when a template reads one, their text length counted when
+/// first asked for.
 #[derive(Debug)]
 pub struct RowList {
-    rows: Vec<Value>,
-    text_length: usize,
+    rows: Arc<dyn RowSource>,
+    values: OnceLock<Vec<Value>>,
+    text_length: OnceLock<usize>,
 }
 
 impl RowList {
     /// What the `text_length` filter gives for the list.
     pub fn text_length(&self) -> usize {
-        self.text_length
+        *self.text_length.get_or_init(|| self.rows.text_length())
+    }
+
+    /// Every row's cells as Typst code ([`TypstRow::write_cells`]).
+    pub fn cells(&self) -> String {
+        let mut out = String::new();
+        self.rows.write_cells(&mut out);
+        out
     }
 }
 
@@ -100,7 +171,14 @@ impl Object for RowList {
     }
 
     fn get_value(self: &Arc<Self>, key: &Value) -> Option<Value> {
-        self.rows.get(key.as_usize()?).cloned()
+        let index = key.as_usize()?;
+        if index >= self.rows.len() {
+            return None;
+        }
+        self.values
+            .get_or_init(|| self.rows.values())
+            .get(index)
+            .cloned()
     }
 
     fn enumerate(self: &Arc<Self>) -> Enumerator {
@@ -416,7 +494,7 @@ mod tests {
     use super::*;
     use crate::typeset::template_env::text_length_walk;
 
-    #[derive(serde::Serialize, Clone)]
+    #[derive(serde::Serialize, Clone, Debug)]
     struct Row {
         name: String,
         value: Option<String>,
@@ -431,21 +509,33 @@ mod tests {
         wrapped: Wrap,
     }
 
-    #[derive(serde::Serialize, Clone)]
+    #[derive(serde::Serialize, Clone, Debug)]
     struct Inner {
         a: String,
         b: Vec<Vec<String>>,
     }
 
-    #[derive(serde::Serialize, Clone)]
+    #[derive(serde::Serialize, Clone, Debug)]
     #[allow(dead_code)]
     enum Kind {
         Plain,
         Carrying(String),
     }
 
-    #[derive(serde::Serialize, Clone)]
+    #[derive(serde::Serialize, Clone, Debug)]
     struct Wrap(String);
+
+    impl TypstRow for Row {
+        fn write_cells(&self, out: &mut String) {
+            out.push_str("\n  ");
+            out.push_str(&crate::typeset::escape::escape_content(&self.name));
+            out.push(',');
+        }
+    }
+
+    impl TypstRow for serde_json::Value {
+        fn write_cells(&self, _out: &mut String) {}
+    }
 
     fn row(i: usize) -> Row {
         Row {
@@ -475,7 +565,7 @@ mod tests {
         for n in [0, 1, 2, 5, 17] {
             let rows: Vec<Row> = (0..n).map(row).collect();
             let walked = text_length_walk(&Value::from_serialize(&rows));
-            let value = Value::from_serialize(Rows(rows.clone()));
+            let value = Value::from_serialize(Rows::from(rows.clone()));
             let list = value
                 .downcast_object_ref::<RowList>()
                 .expect("rows become a row list");
@@ -493,7 +583,7 @@ mod tests {
         }
         let rows = vec![deep.clone(), deep];
         let walked = text_length_walk(&Value::from_serialize(&rows));
-        let value = Value::from_serialize(Rows(rows));
+        let value = Value::from_serialize(Rows::from(rows));
         let list = value.downcast_object_ref::<RowList>().unwrap();
         assert_eq!(list.text_length(), walked);
     }
@@ -518,7 +608,7 @@ mod tests {
         let rows: Rows<Row> = (0..2).map(row).collect();
         assert_eq!(
             serde_json::to_value(&rows).unwrap(),
-            serde_json::to_value(&rows.0).unwrap()
+            serde_json::to_value(rows.as_slice()).unwrap()
         );
     }
 }

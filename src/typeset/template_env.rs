@@ -80,6 +80,8 @@ fn write_escaped(out: &mut minijinja::Output<'_>, text: &str) -> fmt::Result {
 ///   [`typst_markup`] values; `none` and undefined print nothing;
 /// * `{{ x|typst_string }}` prints a complete Typst string literal, quotes
 ///   included, for use in code (`#set document(title: {{ t|typst_string }})`);
+/// * `{{ rows|typst_rows }}` prints a table's rows (`set.nodes`, `set.valves`
+///   …) as the program writes their cells, one row a line (`typst_rows`);
 /// * `{{ x|typst_content }}` prints the value as content for a code position
 ///   (a table cell: `data-table(…, {{ x|typst_content }}, …)`), printing what
 ///   `[{{ x }}]` prints, but as a string literal wherever that reads the same,
@@ -109,6 +111,7 @@ pub fn template_environment(templates: TemplateSource) -> Environment<'static> {
     env.add_filter("typst_string", typst_string);
     env.add_filter("typst_content", typst_content);
     env.add_filter("text_length", text_length);
+    env.add_filter("typst_rows", typst_rows);
     env.add_filter("replace", |value: String, from: String, to: String| {
         value.replace(&from, &to)
     });
@@ -199,6 +202,20 @@ fn typst_content(value: Value) -> Value {
         Some(text) if value.is_safe() => typst_markup(format!("[{text}]")),
         Some(text) => typst_markup(escape_content(text)),
         None => typst_markup(escape_content(&value.to_string())),
+    }
+}
+
+/// The `typst_rows` filter: a table's rows ([`Rows`](super::rows::Rows),
+/// such as `set.nodes`) as the cells the program writes for them, escaped
+/// as `typst_content`, `typst_string` and printing escape them
+/// ([`TypstRow`](super::rows::TypstRow)). Any other value is an error.
+fn typst_rows(value: Value) -> Result<Value, Error> {
+    match value.downcast_object_ref::<super::rows::RowList>() {
+        Some(rows) => Ok(typst_markup(rows.cells())),
+        None => Err(refusal(
+            ErrorKind::InvalidOperation,
+            Msg::new("cli-template-not-rows"),
+        )),
     }
 }
 

@@ -7,6 +7,7 @@
 //! the escaping template environment.
 
 mod bench;
+mod cells;
 
 use chrono::NaiveDate;
 use serde::Serialize;
@@ -446,6 +447,12 @@ pub struct WindowRow {
     pub grid_now: Option<String>,
     /// Why there is no grid estimate, in the job's language.
     pub grid_unknown: Option<String>,
+    /// The note under the readings, as the catalogue says it: the grid
+    /// voltage for the middle of the window, else why there is none. Only
+    /// for the cells the program writes (`typst_rows`); not a template
+    /// value, so it counts nothing in the table's text length.
+    #[serde(skip)]
+    pub(crate) grid_note: Option<String>,
 }
 
 #[derive(Debug, Clone, Serialize)]
@@ -521,6 +528,11 @@ pub struct RectifierRow {
 #[derive(Debug, Clone, Serialize)]
 pub struct HeaterRow {
     pub label: Option<String>,
+    /// The catalogue's word for a heater without a label, for the cells
+    /// the program writes (`typst_rows`); empty when it has a label. Not a
+    /// template value.
+    #[serde(skip)]
+    pub(crate) unnamed: String,
     pub measured: String,
     pub nominal: String,
     pub deviation: String,
@@ -1240,7 +1252,7 @@ fn set_context(
         resistors,
         capacitors: set.filter_capacitors.iter().map(capacitor_row).collect(),
         rectifier: set.rectifier.as_ref().map(|r| rectifier_row(r, set, cat)),
-        heaters: set.heaters.iter().map(heater_row).collect(),
+        heaters: set.heaters.iter().map(|h| heater_row(h, cat)).collect(),
         suggestions: set
             .cathode_resistor_suggestions
             .iter()
@@ -1458,6 +1470,8 @@ fn window_row(v: &ValveFindings, cat: &Catalogue) -> Option<WindowRow> {
             now,
         });
     }
+    let grid_middle = w.grid_for_middle_volts.map(volts);
+    let grid_unknown = w.grid_for_middle_unknown_reason.clone();
     Some(WindowRow {
         position: v.position.clone(),
         aim: format!("{}–{} %", pct0(w.low_pct), pct0(w.high_pct)),
@@ -1467,10 +1481,23 @@ fn window_row(v: &ValveFindings, cat: &Catalogue) -> Option<WindowRow> {
         place: cat
             .try_format(&format!("doc-window-{}", w.place), &[])
             .unwrap_or_else(|| w.place.to_string()),
-        grid_middle: w.grid_for_middle_volts.map(volts),
-        grid_unknown: w.grid_for_middle_unknown_reason.clone(),
+        grid_note: grid_note(&grid_middle, &grid_unknown, cat),
+        grid_middle,
+        grid_unknown,
         grid_now: v.grid_volts.map(volts),
     })
+}
+
+/// The note under a target window's readings, as the template said it
+/// (`doc-grid-middle` when there is an estimate, else `doc-grid-unknown`
+/// when there is a reason; an empty text counts as none).
+fn grid_note(middle: &Option<String>, unknown: &Option<String>, cat: &Catalogue) -> Option<String> {
+    let present = |t: &Option<String>| t.clone().filter(|t| !t.is_empty());
+    if let Some(volts) = present(middle) {
+        Some(cat.format("doc-grid-middle", &[("volts", Arg::from(volts))]))
+    } else {
+        present(unknown).map(|why| cat.format("doc-grid-unknown", &[("why", Arg::from(why))]))
+    }
 }
 
 fn resistor_row(r: &ResistorFindings, kind: &str) -> ResistorRow {
@@ -1559,9 +1586,14 @@ fn mod_figure_row(f: &ModFigureFindings, cat: &Catalogue) -> ModFigureRow {
     }
 }
 
-fn heater_row(h: &HeaterFindings) -> HeaterRow {
+fn heater_row(h: &HeaterFindings, cat: &Catalogue) -> HeaterRow {
     HeaterRow {
         label: h.label.clone(),
+        unnamed: if h.label.as_deref().is_some_and(|l| !l.is_empty()) {
+            String::new()
+        } else {
+            cat.text("doc-heater")
+        },
         measured: volts(h.measured_volts),
         nominal: volts(h.nominal_volts),
         deviation: signed_pct(h.deviation_pct),
