@@ -5,7 +5,7 @@
 #   bash scripts/perf.sh template [PAIRS]   typst on the new emitted source against the old template's
 #   bash scripts/perf.sh overhead [PAIRS]   render against bare typst on its own emitted source (OLD_BIN=PATH: and the previous binary's render, in the same rounds; PIN_CPU=N: all on one core)
 #   bash scripts/perf.sh overhead-own [ROUNDS]  render's own share, less the typst compile inside each render (OLD_BIN, PIN_CPU as above)
-#   bash scripts/perf.sh size [SETS...]     typst time and memory per measurement set (generated jobs)
+#   bash scripts/perf.sh size [SETS...]     typst time and memory per measurement set (generated jobs); SIZE_ROUNDS=R: medians of R compiles of each job, then the spread of the cost per set and the cost of each further set
 #   bash scripts/perf.sh own [SETS]         ampreport's own work on a generated job (no typst)
 #   bash scripts/perf.sh batch [JOBS] [ROUNDS]  -j 1 against -j 2 over demo-sized jobs, alternating (and -j 2 with typst's own threads); each round's own ratio, its median and spread
 #   bash scripts/perf.sh batch-pair [JOBS] [ROUNDS]  the same, -j 1 and -j 2 only (default 200 jobs, 5 rounds: about 8 minutes idle)
@@ -340,6 +340,7 @@ size)
     sets=("$@")
     [ ${#sets[@]} = 0 ] && sets=(10 30 100 300)
     load
+    : >"$work/size.new"
     echo "sets | side | typst s | per set ms | typst CPU s | CPU per set ms | typst max RSS MiB | pages"
     for n in "${sets[@]}"; do
         bash scripts/gen-job.sh "$n" >"$work/job-$n.kdl"
@@ -349,13 +350,37 @@ size)
             read -ra cmd <"$work/$side-$n.cmd"
             cmd[0]="$typst"
             cmd[${#cmd[@]} - 1]="$work/$side-$n.pdf"
-            read -r secs rss cpu < <(time_rss "${cmd[@]}")
+            # SIZE_ROUNDS=R compiles each job R times and prints the
+            # medians: one compile of the 10-set job swings by a third on
+            # this machine, idle or not.
+            : >"$work/size.s"; : >"$work/size.rss"; : >"$work/size.cpu"
+            for _ in $(seq "${SIZE_ROUNDS:-1}"); do
+                read -r secs rss cpu < <(time_rss "${cmd[@]}")
+                echo "$secs" >>"$work/size.s"; echo "$rss" >>"$work/size.rss"; echo "$cpu" >>"$work/size.cpu"
+            done
+            secs=$(median <"$work/size.s"); rss=$(median <"$work/size.rss"); cpu=$(median <"$work/size.cpu")
+            rss=${rss%.*}
+            [ "$side" = new ] && echo "$n $cpu" >>"$work/size.new"
             pages=$(pdfinfo "$work/$side-$n.pdf" 2>/dev/null | awk '/^Pages:/ { print $2 }' || true)
             per() { awk -v s="$1" -v n="$n" 'BEGIN { printf "%.0f", s * 1000 / n }'; }
             echo "$n | $side | $secs | $(per "$secs") | $cpu | $(per "$cpu") | $((rss / 1024)) | $pages"
             rm -rf "$work/$side-$n"
         done
     done
+    # The new side's processor time per set against the mean of them
+    # (the target: each within ±25 %), and the marginal cost of a set
+    # between one size and the next.
+    awk '{ n[NR] = $1; c[NR] = $2; p[NR] = $2 * 1000 / $1; sum += p[NR] }
+        END {
+            if (NR == 0) exit
+            mean = sum / NR
+            printf "new: CPU per set against their mean:"
+            for (i = 1; i <= NR; i++) printf " %d sets %+.1f %%", n[i], (p[i] / mean - 1) * 100
+            printf "\nnew: CPU of each further set:"
+            for (i = 2; i <= NR; i++) printf " %d→%d sets %.0f ms", n[i-1], n[i], (c[i] - c[i-1]) * 1000 / (n[i] - n[i-1])
+            printf "\n"
+        }' "$work/size.new"
+    rm -f "$work/size.new"
     ;;
 own)
     # ampreport's own work on a generated job: the phases of a render
