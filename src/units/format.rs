@@ -76,10 +76,20 @@ fn write_short_fixed(out: &mut String, value: f64, decimals: usize) {
         let _ = write!(out, "{value:.decimals$}");
         return;
     }
-    // At most 15 digits, zero-padded to decimals + 1 ≤ 16.
+    if value < 0.0 && scaled > 0.0 {
+        out.push('-');
+    }
+    // At most 15 digits.
+    push_scaled(out, scaled as u64, decimals);
+}
+
+/// `n` ÷ 10^`decimals` written with exactly `decimals` decimals (`n` = 1234,
+/// 2 decimals: "12.34"; `n` = 5, 2 decimals: "0.05"), for `decimals` ≤ 15
+/// and `n` of at most 16 digits. Appended to `out`.
+fn push_scaled(out: &mut String, mut n: u64, decimals: usize) {
+    // Zero-padded to decimals + 1 ≤ 16 digits.
     let mut digits = [b'0'; 20];
     let mut at = digits.len();
-    let mut n = scaled as u64;
     loop {
         at -= 1;
         digits[at] = b'0' + (n % 10) as u8;
@@ -90,9 +100,6 @@ fn write_short_fixed(out: &mut String, value: f64, decimals: usize) {
     }
     at = at.min(digits.len() - (decimals + 1));
     let digits = &digits[at..];
-    if value < 0.0 && scaled > 0.0 {
-        out.push('-');
-    }
     let (whole, fraction) = digits.split_at(digits.len() - decimals);
     // ASCII digits only.
     out.push_str(std::str::from_utf8(whole).unwrap_or_default());
@@ -124,31 +131,14 @@ pub fn write_fixed(out: &mut String, value: f64, decimals: usize, plus: bool) {
         let whole = scaled.floor();
         let fraction = scaled - whole;
         if scaled < 1e9 && (fraction - 0.5).abs() > 1e-6 {
-            let mut n = whole as u64 + u64::from(fraction > 0.5);
+            let n = whole as u64 + u64::from(fraction > 0.5);
             if value.is_sign_negative() {
                 out.push('-');
             } else if plus {
                 out.push('+');
             }
-            // At most 10 digits, zero-padded to decimals + 1 ≤ 7.
-            let mut digits = [b'0'; 16];
-            let mut at = digits.len();
-            loop {
-                at -= 1;
-                digits[at] = b'0' + (n % 10) as u8;
-                n /= 10;
-                if n == 0 {
-                    break;
-                }
-            }
-            at = at.min(digits.len() - (decimals + 1));
-            let (whole, fraction) = digits[at..].split_at(digits.len() - at - decimals);
-            // ASCII digits only.
-            out.push_str(std::str::from_utf8(whole).unwrap_or_default());
-            if decimals > 0 {
-                out.push('.');
-                out.push_str(std::str::from_utf8(fraction).unwrap_or_default());
-            }
+            // At most 10 digits.
+            push_scaled(out, n, decimals);
             return;
         }
     }
