@@ -20,7 +20,7 @@ use chrono::NaiveDate;
 use super::child::{Running, Stopped, status_words};
 use super::error::TypesetError;
 use super::font_cache::{ensure_font_cache, user_cache_root};
-use super::fonts::{FONT_DIR, write_fonts};
+use super::fonts::{FONT_DIR, cjk_folder, write_fonts};
 use super::interrupt;
 use super::leftovers::{LockedDir, locked_copy, locked_file, sweep};
 use super::locate::TypstProgram;
@@ -82,6 +82,11 @@ pub struct CompileOptions {
     /// (`tests/render.rs` compares the bytes), so this is not part of the
     /// content key.
     pub threads: Option<NonZeroUsize>,
+    /// Whether typst is handed the CJK font ([`super::fonts::CJK_FONT`],
+    /// from the folder beside the others): `false` only for a document
+    /// that does not need it ([`super::fonts::fit_fonts`]), whose font
+    /// rules then leave its families out. The PDF is the same either way.
+    pub cjk: bool,
 }
 
 /// typst's `--jobs` for each of `workers` typst processes running side by
@@ -129,6 +134,7 @@ impl CompileOptions {
             timeout: DEFAULT_TIMEOUT,
             required_text: None,
             threads: None,
+            cjk: true,
         }
     }
 
@@ -595,6 +601,7 @@ fn stop_if_interrupted() -> Result<(), TypesetError> {
 /// sweep removes, without the bulky fonts, and returns where it is.
 fn keep_source(work: LockedDir, root: &Path) -> PathBuf {
     let _ = std::fs::remove_dir_all(root.join(FONT_DIR));
+    let _ = std::fs::remove_dir_all(cjk_folder(&root.join(FONT_DIR)));
     let parent = work
         .path()
         .parent()
@@ -641,6 +648,12 @@ fn arguments(
         root.into(),
         "--font-path".into(),
         fonts.into(),
+    ];
+    if opts.cjk {
+        args.push("--font-path".into());
+        args.push(cjk_folder(fonts).into());
+    }
+    let rest: [OsString; 8] = [
         "--ignore-system-fonts".into(),
         "--ignore-embedded-fonts".into(),
         "--creation-timestamp".into(),
@@ -650,6 +663,7 @@ fn arguments(
         "--diagnostic-format".into(),
         "human".into(),
     ];
+    args.extend(rest);
     if let Some(threads) = opts.threads {
         args.push("--jobs".into());
         args.push(threads.to_string().into());
@@ -695,8 +709,29 @@ mod tests {
         }
         let joined = args.join(" ");
         assert!(
-            joined.contains("--root /r --font-path /c/fonts-0123"),
+            joined.contains("--root /r --font-path /c/fonts-0123 --font-path /c/fonts-0123-cjk --ignore"),
             "{joined}"
+        );
+        // Without the CJK folder for a document that does not need it.
+        let lean = CompileOptions {
+            cjk: false,
+            ..opts.clone()
+        };
+        let lean_args: Vec<String> = arguments(
+            Path::new("/r"),
+            Path::new("/c/fonts-0123"),
+            Path::new("/r/main.typ"),
+            &lean,
+            Path::new("/o/x"),
+        )
+        .iter()
+        .map(|a| a.to_string_lossy().into_owned())
+        .collect();
+        assert!(
+            lean_args
+                .join(" ")
+                .contains("--root /r --font-path /c/fonts-0123 --ignore"),
+            "{lean_args:?}"
         );
         assert!(
             joined.contains("--creation-timestamp 1709251200"),

@@ -13,7 +13,7 @@
 use std::io::{self, Write};
 use std::path::{Path, PathBuf};
 
-use super::fonts::{BUNDLED_FONTS, FONT_LICENCES};
+use super::fonts::{base_files, cjk_files, cjk_folder};
 
 /// SHA-256 of every file in `fonts/` (see `build.rs` and [`digest_of`]), as
 /// 64 hex digits.
@@ -31,13 +31,25 @@ pub fn user_cache_root() -> Option<PathBuf> {
     crate::folders::cache_dir()
 }
 
-/// Every file of the font folder: the fonts, then their licences.
-fn files() -> impl Iterator<Item = &'static (&'static str, &'static [u8])> {
-    BUNDLED_FONTS.iter().chain(FONT_LICENCES)
+/// A font folder's files, as (name, contents).
+type FileList = Vec<&'static (&'static str, &'static [u8])>;
+
+/// The two folders' files: the font folder (every font but the CJK one,
+/// and the licences), and the CJK folder beside it.
+fn folders() -> [(FileList, bool); 2] {
+    [(base_files().collect(), false), (cjk_files().collect(), true)]
 }
 
-/// Makes sure `root/fonts-<hash>/` holds exactly the bundled fonts and
-/// licences, writing it if needed, and returns its path.
+/// Every file of both folders.
+#[cfg(test)]
+fn files() -> impl Iterator<Item = &'static (&'static str, &'static [u8])> {
+    base_files().chain(cjk_files())
+}
+
+/// Makes sure `root/fonts-<hash>/` holds exactly the bundled fonts but the
+/// CJK one, and the licences, and `root/fonts-<hash>-cjk/` the CJK font
+/// ([`super::fonts::cjk_folder`]), writing them if needed, and returns the
+/// path of the first.
 ///
 /// A complete folder (every file present with its size, nothing else in
 /// it) is used as it is; that check costs a directory listing and a few
@@ -47,50 +59,69 @@ fn files() -> impl Iterator<Item = &'static (&'static str, &'static [u8])> {
 /// moved aside and replaced.
 pub fn ensure_font_cache(root: &Path) -> io::Result<PathBuf> {
     let dir = root.join(font_cache_folder_name());
-    if is_complete(&dir) {
-        return Ok(dir);
+    for (files, cjk) in folders() {
+        let folder = if cjk { cjk_folder(&dir) } else { dir.clone() };
+        ensure_folder(root, &folder, &files)?;
+    }
+    Ok(dir)
+}
+
+/// Makes sure `dir`, a folder in `root`, holds exactly `files`.
+fn ensure_folder(root: &Path, dir: &Path, files: &FileList) -> io::Result<()> {
+    let is_complete = |dir: &Path| holds_exactly(dir, files);
+    if is_complete(dir) {
+        return Ok(());
     }
     std::fs::create_dir_all(root)?;
     let fresh = tempfile::Builder::new()
         .prefix(".fonts-new-")
         .tempdir_in(root)?;
-    for (name, bytes) in files() {
+    for (name, bytes) in files {
         let mut file = std::fs::File::create(fresh.path().join(name))?;
         file.write_all(bytes)?;
         file.sync_all()?;
     }
-    if std::fs::rename(fresh.path(), &dir).is_ok() {
+    if std::fs::rename(fresh.path(), dir).is_ok() {
         // The folder now lives at `dir`; nothing is left to clean up.
         let _ = fresh.keep();
-        return Ok(dir);
+        return Ok(());
     }
     // Something is in the way: another run's copy (then `fresh` is
     // deleted on return) or a damaged folder, which is moved aside into a
     // temporary folder that deletes it.
-    if is_complete(&dir) {
-        return Ok(dir);
+    if is_complete(dir) {
+        return Ok(());
     }
     let stale = tempfile::Builder::new()
         .prefix(".fonts-stale-")
         .tempdir_in(root)?;
-    match std::fs::rename(&dir, stale.path().join("old")) {
+    match std::fs::rename(dir, stale.path().join("old")) {
         Ok(()) => {}
         Err(e) if e.kind() == io::ErrorKind::NotFound => {}
         Err(e) => return Err(e),
     }
-    match std::fs::rename(fresh.path(), &dir) {
+    match std::fs::rename(fresh.path(), dir) {
         Ok(()) => {
             let _ = fresh.keep();
-            Ok(dir)
+            Ok(())
         }
-        Err(_) if is_complete(&dir) => Ok(dir),
+        Err(_) if is_complete(dir) => Ok(()),
         Err(e) => Err(e),
     }
 }
 
-/// True when `dir` holds exactly the font folder's files, each with its
-/// size.
+/// True when the font folder `dir` holds exactly its files (every bundled
+/// font but the CJK one, and the licences), each with its size, and the
+/// CJK folder beside it ([`super::fonts::cjk_folder`]) the CJK font.
 pub fn is_complete(dir: &Path) -> bool {
+    folders().iter().all(|(files, cjk)| {
+        let folder = if *cjk { cjk_folder(dir) } else { dir.to_path_buf() };
+        holds_exactly(&folder, files)
+    })
+}
+
+/// True when `dir` holds exactly `files`, each with its size.
+fn holds_exactly(dir: &Path, files: &FileList) -> bool {
     let Ok(entries) = std::fs::read_dir(dir) else {
         return false;
     };
@@ -98,7 +129,7 @@ pub fn is_complete(dir: &Path) -> bool {
     for entry in entries {
         let Ok(entry) = entry else { return false };
         let name = entry.file_name();
-        let Some(expected) = files().find(|(n, _)| name == *n) else {
+        let Some(expected) = files.iter().find(|(n, _)| name == *n) else {
             return false;
         };
         match entry.metadata() {
@@ -106,7 +137,7 @@ pub fn is_complete(dir: &Path) -> bool {
             _ => return false,
         }
     }
-    count == files().count()
+    count == files.len()
 }
 
 /// SHA-256 of `files` in name order, each framed as its name, a NUL byte,
@@ -135,6 +166,12 @@ fn digest_of<'a>(files: impl IntoIterator<Item = (&'a str, &'a [u8])>) -> String
 #[cfg(test)]
 mod tests {
     use super::*;
+    use crate::typeset::fonts::{BUNDLED_FONTS, CJK_FONT, FONT_LICENCES};
+
+    /// The two cache folders' names, in name order.
+    fn both_names() -> [String; 2] {
+        [font_cache_folder_name(), format!("{}-cjk", font_cache_folder_name())]
+    }
 
     #[test]
     fn the_build_time_digest_is_that_of_the_embedded_files() {
@@ -154,8 +191,13 @@ mod tests {
         let dir = ensure_font_cache(root.path()).unwrap();
         assert_eq!(dir, root.path().join(font_cache_folder_name()));
         assert!(is_complete(&dir));
+        let cjk = cjk_folder(&dir);
+        assert_eq!(cjk, root.path().join(&both_names()[1]));
         for (name, bytes) in files() {
-            assert_eq!(&std::fs::read(dir.join(name)).unwrap(), bytes, "{name}");
+            // The CJK font in its own folder, beside (not inside) the other.
+            let (inside, not_in) = if *name == CJK_FONT { (&cjk, &dir) } else { (&dir, &cjk) };
+            assert_eq!(&std::fs::read(inside.join(name)).unwrap(), bytes, "{name}");
+            assert!(!not_in.join(name).exists(), "{name}");
         }
         // Reused as it is: the same file, not a new copy.
         let before = std::fs::metadata(dir.join(BUNDLED_FONTS[0].0))
@@ -169,12 +211,13 @@ mod tests {
             .modified()
             .unwrap();
         assert_eq!(before, after);
-        // Nothing but the cache folder is left in the root.
-        let names: Vec<String> = std::fs::read_dir(root.path())
+        // Nothing but the two cache folders is left in the root.
+        let mut names: Vec<String> = std::fs::read_dir(root.path())
             .unwrap()
             .map(|e| e.unwrap().file_name().to_string_lossy().into_owned())
             .collect();
-        assert_eq!(names, [font_cache_folder_name()]);
+        names.sort();
+        assert_eq!(names, both_names());
     }
 
     #[test]
@@ -196,12 +239,21 @@ mod tests {
         assert!(!is_complete(&dir));
         ensure_font_cache(root.path()).unwrap();
         assert!(is_complete(&dir) && !dir.join("Intruder.ttf").exists());
+        // The CJK font missing from its folder, or in the other one.
+        std::fs::remove_file(cjk_folder(&dir).join(CJK_FONT)).unwrap();
+        assert!(!is_complete(&dir));
+        ensure_font_cache(root.path()).unwrap();
+        assert!(is_complete(&dir));
+        std::fs::copy(cjk_folder(&dir).join(CJK_FONT), dir.join(CJK_FONT)).unwrap();
+        assert!(!is_complete(&dir));
+        ensure_font_cache(root.path()).unwrap();
+        assert!(is_complete(&dir) && !dir.join(CJK_FONT).exists());
         // A plain file where the folder should be.
         std::fs::remove_dir_all(&dir).unwrap();
         std::fs::write(&dir, b"not a folder").unwrap();
         ensure_font_cache(root.path()).unwrap();
         assert!(is_complete(&dir));
-        assert_eq!(std::fs::read_dir(root.path()).unwrap().count(), 1);
+        assert_eq!(std::fs::read_dir(root.path()).unwrap().count(), 2);
     }
 
     #[test]
@@ -221,7 +273,7 @@ mod tests {
         for run in runs {
             assert_eq!(run.join().unwrap(), path.join(font_cache_folder_name()));
         }
-        assert_eq!(std::fs::read_dir(&path).unwrap().count(), 1);
+        assert_eq!(std::fs::read_dir(&path).unwrap().count(), 2);
     }
 
     #[cfg(unix)]

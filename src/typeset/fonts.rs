@@ -4,10 +4,43 @@
 //! (see `fonts/README.md`).
 
 use std::io;
-use std::path::Path;
+use std::path::{Path, PathBuf};
+
+use super::error::TypesetError;
+use super::sandbox::Sandbox;
 
 /// The folder, inside a typesetting sandbox, that holds the fonts.
 pub const FONT_DIR: &str = "fonts";
+
+/// The bundled CJK font file (two faces, 5 MB). It lives in a folder of
+/// its own beside the other fonts ([`cjk_folder`]) and is handed to typst
+/// only for a document that needs it ([`needs_cjk`]): typst reads every
+/// font file it is given before it sets a word (about 20 million of its
+/// instructions for this one; docs/performance.md).
+pub const CJK_FONT: &str = "wqy-microhei.ttc";
+
+/// The folder holding [`CJK_FONT`], beside the font folder `fonts` and
+/// named after it with `-cjk` appended (`fonts/` → `fonts-cjk/`). A
+/// sibling, not a sub-folder: typst searches a font folder recursively.
+pub fn cjk_folder(fonts: &Path) -> PathBuf {
+    let mut name = fonts.file_name().unwrap_or_default().to_os_string();
+    name.push("-cjk");
+    fonts.with_file_name(name)
+}
+
+/// The files of the font folder: every bundled font but [`CJK_FONT`], then
+/// the licences (the CJK font's among them).
+pub(crate) fn base_files() -> impl Iterator<Item = &'static (&'static str, &'static [u8])> {
+    BUNDLED_FONTS
+        .iter()
+        .filter(|(name, _)| *name != CJK_FONT)
+        .chain(FONT_LICENCES)
+}
+
+/// The files of the CJK folder ([`cjk_folder`]): [`CJK_FONT`] alone.
+pub(crate) fn cjk_files() -> impl Iterator<Item = &'static (&'static str, &'static [u8])> {
+    BUNDLED_FONTS.iter().filter(|(name, _)| *name == CJK_FONT)
+}
 
 /// Font files as (file name, contents).
 pub static BUNDLED_FONTS: &[(&str, &[u8])] = &[
@@ -200,8 +233,23 @@ pub fn undrawable(text: &str) -> Vec<char> {
 /// embeds for these few signs alone (some 28 million of typst's
 /// instructions, 4 % of a demo job; see docs/performance.md). The
 /// monospaced face is in every hand-over document anyway (its footer).
+///
+/// These rules name the CJK families; a document that does not need them
+/// is set with [`font_rules_without_cjk`] instead ([`fit_fonts`]).
 pub fn font_rules() -> String {
-    let mut body: Vec<String> = TEXT_FAMILIES.iter().map(|f| quoted(f)).collect();
+    rules(true)
+}
+
+/// [`font_rules`] without the CJK families, for a document typst sets
+/// without the CJK file (naming a family typst has not been given makes
+/// it warn "unknown font family").
+pub fn font_rules_without_cjk() -> String {
+    rules(false)
+}
+
+fn rules(cjk: bool) -> String {
+    let keep = |f: &&&str| cjk || !CJK_FAMILIES.contains(*f);
+    let mut body: Vec<String> = TEXT_FAMILIES.iter().filter(keep).map(|f| quoted(f)).collect();
     body.insert(
         TEXT_FAMILIES.len() - 1,
         format!(
@@ -209,11 +257,172 @@ pub fn font_rules() -> String {
             quoted(MONO_FAMILIES[0])
         ),
     );
+    let mono: Vec<&str> = MONO_FAMILIES.iter().filter(keep).copied().collect();
     format!(
         "#set text(font: ({}))\n#let mono-fonts = {}\n#show raw: set text(font: mono-fonts)\n",
         body.join(", "),
-        family_array(MONO_FAMILIES),
+        family_array(&mono),
     )
+}
+
+/// The families of [`CJK_FONT`], the last of [`TEXT_FAMILIES`] and of
+/// [`MONO_FAMILIES`].
+pub const CJK_FAMILIES: &[&str] = &["WenQuanYi Micro Hei", "WenQuanYi Micro Hei Mono"];
+
+// `CJK_IN_BODY`, `CJK_IN_SVG`: the characters typst may take from the
+// CJK face in the document's text and in an SVG's Noto Sans text, as
+// sorted ranges
+// (`build.rs`; held to the fonts by
+// `the_cjk_tables_are_the_fonts_character_maps`).
+include!(concat!(env!("OUT_DIR"), "/cjk_only.rs"));
+
+/// Whether `c` is in `table` (sorted ranges). ASCII never is: every face
+/// has it.
+fn in_table(table: &[(u32, u32)], c: char) -> bool {
+    let code = u32::from(c);
+    if code < 0x80 {
+        return false;
+    }
+    let i = table.partition_point(|&(_, last)| last < code);
+    table.get(i).is_some_and(|&(first, _)| first <= code)
+}
+
+/// Whether typst may set `c` in the CJK face in the document's own text,
+/// set with the rules of [`font_rules`] (the signs of [`SIGNS_FROM_MONO`]
+/// come from Noto Sans Mono there).
+fn body_takes_cjk(c: char) -> bool {
+    in_table(CJK_IN_BODY, c) && !SIGNS_FROM_MONO.contains(c)
+}
+
+/// Whether a document made of the files of `sandbox` needs the CJK face:
+/// some text in it is a character that typst may set in that face.
+/// Conservative where it cannot be exact:
+///
+/// * a Typst file is read with its `\u{…}` escapes; one that names
+///   typst's symbol tables (`sym.`, `emoji.`, `symbol(`,
+///   `str.from-unicode`) needs it;
+/// * an SVG with text is read with its `&#…;` references (typst sets an
+///   SVG's text in the family it names, a character that face lacks in
+///   the face most like it that has it: see `build.rs`); one whose text
+///   names any family but Noto Sans, or none, needs it;
+/// * any other file that is not a raster image (PNG, JPEG, GIF, WebP) is
+///   read as the document's text, and needs it if it is not UTF-8.
+///
+/// What typst writes itself (page numbers, smart quotes for English and
+/// German, the hyphen) is in every Noto face.
+pub fn needs_cjk(sandbox: &Sandbox) -> bool {
+    sandbox.files().any(|(path, bytes)| file_needs_cjk(path, bytes))
+}
+
+fn file_needs_cjk(path: &str, bytes: &[u8]) -> bool {
+    let extension = path
+        .rsplit_once('.')
+        .map(|(_, e)| e.to_ascii_lowercase())
+        .unwrap_or_default();
+    if matches!(extension.as_str(), "png" | "jpg" | "jpeg" | "gif" | "webp") {
+        return false;
+    }
+    let Ok(text) = std::str::from_utf8(bytes) else {
+        return true;
+    };
+    match extension.as_str() {
+        "typ" => typst_needs_cjk(text),
+        "svg" => svg_needs_cjk(text),
+        _ => text.chars().any(body_takes_cjk),
+    }
+}
+
+/// [`needs_cjk`] for one Typst source.
+fn typst_needs_cjk(text: &str) -> bool {
+    if ["sym.", "emoji.", "symbol(", "from-unicode"]
+        .iter()
+        .any(|name| text.contains(name))
+    {
+        return true;
+    }
+    text.chars().any(body_takes_cjk)
+        || text
+            .split("\\u{")
+            .skip(1)
+            .any(|rest| escaped_char(rest, '}', 16).is_none_or(body_takes_cjk))
+}
+
+/// [`needs_cjk`] for an SVG.
+fn svg_needs_cjk(text: &str) -> bool {
+    if !text.contains("<text") && !text.contains(":text") {
+        return false;
+    }
+    if text.contains("font:") || !names_only_noto_sans(text) {
+        return true;
+    }
+    let table = CJK_IN_SVG;
+    text.chars().any(|c| in_table(table, c))
+        || text.split("&#").skip(1).any(|rest| {
+            let (digits, radix) = match rest.strip_prefix(['x', 'X']) {
+                Some(hex) => (hex, 16),
+                None => (rest, 10),
+            };
+            escaped_char(digits, ';', radix).is_none_or(|c| in_table(table, c))
+        })
+}
+
+/// Whether every `font-family` of an SVG (attribute or style) names Noto
+/// Sans alone, and there is at least one.
+fn names_only_noto_sans(text: &str) -> bool {
+    let mut parts = text.split("font-family").skip(1).peekable();
+    if parts.peek().is_none() {
+        return false;
+    }
+    parts.all(|rest| {
+        let rest = rest.trim_start();
+        let value = if let Some(attribute) = rest.strip_prefix('=') {
+            let attribute = attribute.trim_start();
+            let Some(quote) = attribute.chars().next().filter(|q| matches!(q, '"' | '\'')) else {
+                return false;
+            };
+            attribute[1..].split(quote).next().unwrap_or_default()
+        } else if let Some(style) = rest.strip_prefix(':') {
+            style.split([';', '"', '}']).next().unwrap_or_default()
+        } else {
+            return false;
+        };
+        value.split(',').all(|family| {
+            family
+                .trim()
+                .trim_matches(['"', '\''])
+                .replace("&quot;", "")
+                .replace("&apos;", "")
+                .trim()
+                == TEXT_FAMILIES[0]
+        })
+    })
+}
+
+/// The character whose number (in `radix`) `rest` starts with, up to
+/// `end`; `None` when that is not a character's number.
+fn escaped_char(rest: &str, end: char, radix: u32) -> Option<char> {
+    let (digits, _) = rest.split_once(end)?;
+    char::from_u32(u32::from_str_radix(digits, radix).ok()?)
+}
+
+/// Readies the sandbox's main source `main` for the fonts it needs: when
+/// no file of the sandbox needs the CJK face ([`needs_cjk`]), its
+/// [`font_rules`] (as filled into the template) become
+/// [`font_rules_without_cjk`]. Returns whether the CJK file is to be
+/// handed to typst (`CompileOptions::cjk`). A template without the
+/// rules is left as it is.
+pub fn fit_fonts(sandbox: &mut Sandbox, main: &str) -> Result<bool, TypesetError> {
+    if needs_cjk(sandbox) {
+        return Ok(true);
+    }
+    let full = font_rules();
+    if let Some(source) = sandbox.get(main).and_then(|b| std::str::from_utf8(b).ok())
+        && source.contains(&full)
+    {
+        let lean = source.replacen(&full, &font_rules_without_cjk(), 1);
+        sandbox.insert(main, lean)?;
+    }
+    Ok(false)
 }
 
 /// Signs the body text takes from the monospaced family rather than the
@@ -232,12 +441,16 @@ fn family_array(families: &[&str]) -> String {
     format!("({})", quoted.join(", "))
 }
 
-/// Writes the fonts and their licences into `dir/fonts/`.
+/// Writes the fonts and their licences into `dir/fonts/`, the CJK font
+/// into `dir/fonts-cjk/` ([`cjk_folder`]).
 pub(crate) fn write_fonts(dir: &Path) -> io::Result<()> {
     let fonts = dir.join(FONT_DIR);
-    std::fs::create_dir_all(&fonts)?;
-    for (name, bytes) in BUNDLED_FONTS.iter().chain(FONT_LICENCES) {
-        std::fs::write(fonts.join(name), bytes)?;
+    for (folder, mut files) in [
+        (fonts.clone(), Box::new(base_files()) as Box<dyn Iterator<Item = _>>),
+        (cjk_folder(&fonts), Box::new(cjk_files())),
+    ] {
+        std::fs::create_dir_all(&folder)?;
+        files.try_for_each(|(name, bytes)| std::fs::write(folder.join(name), bytes))?;
     }
     Ok(())
 }
@@ -377,5 +590,178 @@ mod tests {
                 assert!(file_has(mono, c), "{mono} lacks {c}");
             }
         }
+    }
+
+    /// The characters of the bundled file `name`'s face `index`.
+    fn face_chars(name: &str, index: u32) -> BTreeSet<u32> {
+        let (_, data) = BUNDLED_FONTS.iter().find(|(n, _)| *n == name).unwrap();
+        let mut set = BTreeSet::new();
+        let face = ttf_parser::Face::parse(data, index).unwrap();
+        for table in face.tables().cmap.unwrap().subtables {
+            if table.is_unicode() {
+                table.codepoints(|c| {
+                    set.insert(c);
+                });
+            }
+        }
+        set
+    }
+
+    /// The characters every one of `names` has.
+    fn all_have(names: &[&str]) -> BTreeSet<u32> {
+        let mut set = face_chars(names[0], 0);
+        for name in &names[1..] {
+            let other = face_chars(name, 0);
+            set.retain(|c| other.contains(c));
+        }
+        set
+    }
+
+    fn table_set(table: &[(u32, u32)]) -> BTreeSet<u32> {
+        table.iter().flat_map(|&(a, b)| a..=b).collect()
+    }
+
+    #[test]
+    fn the_cjk_tables_are_the_fonts_character_maps() {
+        let cjk: BTreeSet<u32> = face_chars(CJK_FONT, 0)
+            .union(&face_chars(CJK_FONT, 1))
+            .copied()
+            .collect();
+        let sans = all_have(&[
+            "NotoSans-Regular.ttf",
+            "NotoSans-Bold.ttf",
+            "NotoSans-Italic.ttf",
+            "NotoSans-BoldItalic.ttf",
+        ]);
+        let mono = all_have(&["NotoSansMono-Regular.ttf", "NotoSansMono-Bold.ttf"]);
+        let scripts: BTreeSet<u32> = ["Arabic", "Hebrew", "Devanagari"]
+            .iter()
+            .flat_map(|f| {
+                all_have(&[
+                    &format!("NotoSans{f}-Regular.ttf"),
+                    &format!("NotoSans{f}-Bold.ttf"),
+                ])
+            })
+            .collect();
+        let body: BTreeSet<u32> = cjk
+            .iter()
+            .copied()
+            .filter(|c| {
+                let other = scripts.contains(c);
+                !((sans.contains(c) || other) && (mono.contains(c) || other))
+            })
+            .collect();
+        let svg: BTreeSet<u32> = cjk
+            .iter()
+            .copied()
+            .filter(|c| !sans.contains(c) && !scripts.contains(c))
+            .collect();
+        assert_eq!(table_set(CJK_IN_BODY), body);
+        assert_eq!(table_set(CJK_IN_SVG), svg);
+        // The signs the body text takes from the CJK face today, and ones
+        // it does not: the minus sign comes from Noto Sans Devanagari, the
+        // square root from Noto Sans Mono, Latin from Noto Sans.
+        for c in ['→', '∥', '日', '한'] {
+            assert!(body_takes_cjk(c), "{c}");
+        }
+        for c in ['−', '√', '≤', 'µ', 'Ω', 'é', '°', '±', '×', '–', '…', '„', '“', 'A'] {
+            assert!(!body_takes_cjk(c), "{c}");
+        }
+    }
+
+    fn sandbox_with(files: &[(&str, &str)]) -> Sandbox {
+        let mut sandbox = Sandbox::new();
+        for (path, text) in files {
+            sandbox.insert(*path, *text).unwrap();
+        }
+        sandbox
+    }
+
+    #[test]
+    fn a_document_needs_the_cjk_face_only_for_what_only_it_sets() {
+        let main = format!("{}= Report\nOutput 12 W, −3 dB, √2, ≤ 5 %, µF, Ω.\n", font_rules());
+        let plain = sandbox_with(&[
+            ("main.typ", &main),
+            ("mains-safety.typ", "= Sicherheit\n„Netzspannung“ – tödlich."),
+            (
+                "plots/p.svg",
+                "<svg><text font-family=\"Noto Sans\">−20 dB</text></svg>",
+            ),
+            ("photos/a.jpg", "\u{FF}\u{D8}binary"),
+        ]);
+        assert!(!needs_cjk(&plain));
+        // A CJK character, an arrow, the parallel sign, wherever typst sets
+        // text: the main source, the notice, a chart's SVG.
+        for (path, text) in [
+            ("main.typ", "Value → 5"),
+            ("main.typ", "R1 ∥ R2"),
+            ("main.typ", "顧客"),
+            ("main.typ", "escaped \\u{2192} arrow"),
+            ("main.typ", "#sym.arrow.r"),
+            ("mains-safety.typ", "注意"),
+            ("plots/p.svg", "<svg><text font-family=\"Noto Sans\">→</text></svg>"),
+            (
+                "plots/p.svg",
+                "<svg><text font-family=\"Noto Sans\">&#x2192;</text></svg>",
+            ),
+            (
+                "shop/logo.svg",
+                "<svg><text font-family=\"Serif Co\">Shop</text></svg>",
+            ),
+            ("shop/logo.svg", "<svg><text>Shop</text></svg>"),
+            ("data.bin", "\u{0}"),
+        ] {
+            let mut sandbox = plain.clone();
+            let bytes: Vec<u8> = if path == "data.bin" {
+                vec![0xFF, 0xFE, 0x00]
+            } else {
+                text.as_bytes().to_vec()
+            };
+            sandbox.insert(path, bytes).unwrap();
+            assert!(needs_cjk(&sandbox), "{path}: {text}");
+        }
+        // An SVG without text, or with the minus sign (Noto Sans
+        // Devanagari has it), does not.
+        let mut sandbox = plain.clone();
+        sandbox
+            .insert("shop/logo.svg", "<svg><path d=\"M0 0\"/><!-- 注意 --></svg>")
+            .unwrap();
+        assert!(!needs_cjk(&sandbox));
+    }
+
+    #[test]
+    fn fitting_the_fonts_leaves_the_cjk_families_out_only_when_unneeded() {
+        let main = format!("{}Output −3 dB.\n", font_rules());
+        let mut sandbox = sandbox_with(&[("main.typ", &main)]);
+        assert!(!fit_fonts(&mut sandbox, "main.typ").unwrap());
+        let lean = String::from_utf8(sandbox.get("main.typ").unwrap().to_vec()).unwrap();
+        assert_eq!(lean, format!("{}Output −3 dB.\n", font_rules_without_cjk()));
+        for family in CJK_FAMILIES {
+            assert!(!lean.contains(family), "{lean}");
+        }
+        for family in TEXT_FAMILIES.iter().chain(MONO_FAMILIES) {
+            assert_eq!(
+                lean.contains(&format!("\"{family}\"")),
+                !CJK_FAMILIES.contains(family),
+                "{family}"
+            );
+        }
+        // The signs from the monospaced face keep their rule.
+        assert!(lean.contains("(name: \"Noto Sans Mono\", covers: regex("));
+        let main = format!("{}Output → 3 dB.\n", font_rules());
+        let mut sandbox = sandbox_with(&[("main.typ", &main)]);
+        assert!(fit_fonts(&mut sandbox, "main.typ").unwrap());
+        assert_eq!(sandbox.get("main.typ").unwrap(), main.as_bytes());
+    }
+
+    #[test]
+    fn the_cjk_folder_is_beside_the_font_folder() {
+        assert_eq!(
+            cjk_folder(Path::new("/c/fonts-0123")),
+            Path::new("/c/fonts-0123-cjk")
+        );
+        assert_eq!(cjk_folder(Path::new("fonts")), Path::new("fonts-cjk"));
+        assert!(base_files().all(|(n, _)| *n != CJK_FONT));
+        assert_eq!(cjk_files().map(|(n, _)| *n).collect::<Vec<_>>(), [CJK_FONT]);
     }
 }

@@ -103,7 +103,10 @@ fn path_problem(path: &str) -> Option<&'static str> {
     if parts.clone().any(|p| p.is_empty() || p == "." || p == "..") {
         return Some("cli-typst-path-dots");
     }
-    if parts.next() == Some(FONT_DIR) {
+    if parts
+        .next()
+        .is_some_and(|first| first == FONT_DIR || first == format!("{FONT_DIR}-cjk"))
+    {
         return Some("cli-typst-path-fonts");
     }
     None
@@ -236,8 +239,15 @@ mod tests {
         );
         assert!(out.join("plots").join("p.svg").is_file());
         for (name, bytes) in super::super::fonts::BUNDLED_FONTS {
-            assert_eq!(&std::fs::read(out.join("fonts").join(name)).unwrap(), bytes);
+            // The CJK face in a folder of its own beside the others.
+            let folder = if *name == super::super::fonts::CJK_FONT {
+                "fonts-cjk"
+            } else {
+                "fonts"
+            };
+            assert_eq!(&std::fs::read(out.join(folder).join(name)).unwrap(), bytes);
         }
+        assert!(!out.join("fonts").join(super::super::fonts::CJK_FONT).exists());
         assert!(out.join("fonts").join("OFL-1.1.txt").is_file());
     }
 }

@@ -251,8 +251,13 @@ pub fn job_digest(text: &str) -> String {
 pub fn compile_command(dir: &Path, options: &CompileOptions, output: &Path) -> String {
     let d = dir.display();
     let mut cmd = format!(
-        "typst compile --root {d} --font-path {d}/fonts --ignore-system-fonts --ignore-embedded-fonts \
+        "typst compile --root {d} --font-path {d}/fonts{} --ignore-system-fonts --ignore-embedded-fonts \
          --creation-timestamp {}",
+        if options.cjk {
+            format!(" --font-path {d}/fonts-cjk")
+        } else {
+            String::new()
+        },
         options.creation_timestamp()
     );
     if let Some(threads) = options.threads {
@@ -372,10 +377,12 @@ pub fn build(
     if let Some(dir) = &templates.override_dir {
         add_shop_images(&mut sandbox, &dir.join(IMAGES_DIR))?;
     }
+    let cjk = crate::typeset::fit_fonts(&mut sandbox, MAIN_SOURCE)?;
     Ok(Document {
         sandbox,
         main: MAIN_SOURCE,
         options: CompileOptions {
+            cjk,
             required_text: Some(notice_required(input.catalogue)),
             ..CompileOptions::new(creation_date(input.job))
         },
@@ -930,8 +937,18 @@ mod tests {
         let cmd = compile_command(Path::new("/tmp/src"), &opts, Path::new("out.pdf"));
         assert_eq!(
             cmd,
-            "typst compile --root /tmp/src --font-path /tmp/src/fonts --ignore-system-fonts --ignore-embedded-fonts \
+            "typst compile --root /tmp/src --font-path /tmp/src/fonts --font-path /tmp/src/fonts-cjk \
+             --ignore-system-fonts --ignore-embedded-fonts \
              --creation-timestamp 1794182400 --pdf-standard a-2b /tmp/src/main.typ out.pdf"
+        );
+        // A document that does not need the CJK font names only the one folder.
+        let lean = CompileOptions {
+            cjk: false,
+            ..opts.clone()
+        };
+        assert!(
+            compile_command(Path::new("/s"), &lean, Path::new("o.pdf"))
+                .starts_with("typst compile --root /s --font-path /s/fonts --ignore-system-fonts ")
         );
         // typst held to one thread (a batch's worker) shows it; the PDF is
         // the same either way.

@@ -140,10 +140,12 @@ pub fn build(
         })
         .collect();
     let markdown = markdown::render(&context, &files, &notice_in(input.catalogue));
+    let cjk = crate::typeset::fit_fonts(&mut sandbox, MAIN_SOURCE)?;
     Ok(ListingDocument {
         sandbox,
         main: MAIN_SOURCE,
         options: CompileOptions {
+            cjk,
             required_text: Some(notice_required(input.catalogue)),
             ..CompileOptions::new(creation_date(input.job))
         },
