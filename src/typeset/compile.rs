@@ -709,7 +709,9 @@ mod tests {
         }
         let joined = args.join(" ");
         assert!(
-            joined.contains("--root /r --font-path /c/fonts-0123 --font-path /c/fonts-0123-cjk --ignore"),
+            joined.contains(
+                "--root /r --font-path /c/fonts-0123 --font-path /c/fonts-0123-cjk --ignore"
+            ),
             "{joined}"
         );
         // Without the CJK folder for a document that does not need it.

@@ -19,10 +19,14 @@ use super::fonts::{base_files, cjk_files, cjk_folder};
 /// 64 hex digits.
 pub const FONTS_DIGEST: &str = env!("AMPREPORT_FONTS_DIGEST");
 
-/// The folder under the cache root that holds this build's fonts:
-/// `fonts-` and the first 16 hex digits of [`FONTS_DIGEST`].
+/// The folder under the cache root that holds this build's fonts but the
+/// CJK one: `fonts-`, the first 16 hex digits of [`FONTS_DIGEST`] and
+/// `-base` (the CJK font is in the same name with `-cjk` appended). The
+/// `-base` keeps it apart from the folder of builds that kept every font
+/// in one folder under `fonts-<hash>`: both can run on one machine
+/// without each replacing the other's folder while typst reads it.
 pub fn font_cache_folder_name() -> String {
-    format!("fonts-{}", &FONTS_DIGEST[..16])
+    format!("fonts-{}-base", &FONTS_DIGEST[..16])
 }
 
 /// The per-user cache root, `…/ampreport` ([`crate::folders::cache_dir`]),
@@ -37,7 +41,10 @@ type FileList = Vec<&'static (&'static str, &'static [u8])>;
 /// The two folders' files: the font folder (every font but the CJK one,
 /// and the licences), and the CJK folder beside it.
 fn folders() -> [(FileList, bool); 2] {
-    [(base_files().collect(), false), (cjk_files().collect(), true)]
+    [
+        (base_files().collect(), false),
+        (cjk_files().collect(), true),
+    ]
 }
 
 /// Every file of both folders.
@@ -115,7 +122,11 @@ fn ensure_folder(root: &Path, dir: &Path, files: &FileList) -> io::Result<()> {
 /// CJK folder beside it ([`super::fonts::cjk_folder`]) the CJK font.
 pub fn is_complete(dir: &Path) -> bool {
     folders().iter().all(|(files, cjk)| {
-        let folder = if *cjk { cjk_folder(dir) } else { dir.to_path_buf() };
+        let folder = if *cjk {
+            cjk_folder(dir)
+        } else {
+            dir.to_path_buf()
+        };
         holds_exactly(&folder, files)
     })
 }
@@ -170,7 +181,10 @@ mod tests {
 
     /// The two cache folders' names, in name order.
     fn both_names() -> [String; 2] {
-        [font_cache_folder_name(), format!("{}-cjk", font_cache_folder_name())]
+        [
+            font_cache_folder_name(),
+            format!("{}-cjk", font_cache_folder_name()),
+        ]
     }
 
     #[test]
@@ -182,7 +196,10 @@ mod tests {
         changed[0].1 = &changed[0].1[1..];
         assert_ne!(digest_of(changed), FONTS_DIGEST);
         assert!(font_cache_folder_name().starts_with("fonts-"));
-        assert_eq!(font_cache_folder_name().len(), "fonts-".len() + 16);
+        assert_eq!(
+            font_cache_folder_name().len(),
+            "fonts-".len() + 16 + "-base".len()
+        );
     }
 
     #[test]
@@ -195,7 +212,11 @@ mod tests {
         assert_eq!(cjk, root.path().join(&both_names()[1]));
         for (name, bytes) in files() {
             // The CJK font in its own folder, beside (not inside) the other.
-            let (inside, not_in) = if *name == CJK_FONT { (&cjk, &dir) } else { (&dir, &cjk) };
+            let (inside, not_in) = if *name == CJK_FONT {
+                (&cjk, &dir)
+            } else {
+                (&dir, &cjk)
+            };
             assert_eq!(&std::fs::read(inside.join(name)).unwrap(), bytes, "{name}");
             assert!(!not_in.join(name).exists(), "{name}");
         }

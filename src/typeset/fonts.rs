@@ -249,7 +249,11 @@ pub fn font_rules_without_cjk() -> String {
 
 fn rules(cjk: bool) -> String {
     let keep = |f: &&&str| cjk || !CJK_FAMILIES.contains(*f);
-    let mut body: Vec<String> = TEXT_FAMILIES.iter().filter(keep).map(|f| quoted(f)).collect();
+    let mut body: Vec<String> = TEXT_FAMILIES
+        .iter()
+        .filter(keep)
+        .map(|f| quoted(f))
+        .collect();
     body.insert(
         TEXT_FAMILIES.len() - 1,
         format!(
@@ -311,7 +315,9 @@ fn body_takes_cjk(c: char) -> bool {
 /// What typst writes itself (page numbers, smart quotes for English and
 /// German, the hyphen) is in every Noto face.
 pub fn needs_cjk(sandbox: &Sandbox) -> bool {
-    sandbox.files().any(|(path, bytes)| file_needs_cjk(path, bytes))
+    sandbox
+        .files()
+        .any(|(path, bytes)| file_needs_cjk(path, bytes))
 }
 
 fn file_needs_cjk(path: &str, bytes: &[u8]) -> bool {
@@ -446,7 +452,10 @@ fn family_array(families: &[&str]) -> String {
 pub(crate) fn write_fonts(dir: &Path) -> io::Result<()> {
     let fonts = dir.join(FONT_DIR);
     for (folder, mut files) in [
-        (fonts.clone(), Box::new(base_files()) as Box<dyn Iterator<Item = _>>),
+        (
+            fonts.clone(),
+            Box::new(base_files()) as Box<dyn Iterator<Item = _>>,
+        ),
         (cjk_folder(&fonts), Box::new(cjk_files())),
     ] {
         std::fs::create_dir_all(&folder)?;
@@ -664,7 +673,9 @@ mod tests {
         for c in ['→', '∥', '日', '한'] {
             assert!(body_takes_cjk(c), "{c}");
         }
-        for c in ['−', '√', '≤', 'µ', 'Ω', 'é', '°', '±', '×', '–', '…', '„', '“', 'A'] {
+        for c in [
+            '−', '√', '≤', 'µ', 'Ω', 'é', '°', '±', '×', '–', '…', '„', '“', 'A',
+        ] {
             assert!(!body_takes_cjk(c), "{c}");
         }
     }
@@ -679,10 +690,16 @@ mod tests {
 
     #[test]
     fn a_document_needs_the_cjk_face_only_for_what_only_it_sets() {
-        let main = format!("{}= Report\nOutput 12 W, −3 dB, √2, ≤ 5 %, µF, Ω.\n", font_rules());
+        let main = format!(
+            "{}= Report\nOutput 12 W, −3 dB, √2, ≤ 5 %, µF, Ω.\n",
+            font_rules()
+        );
         let plain = sandbox_with(&[
             ("main.typ", &main),
-            ("mains-safety.typ", "= Sicherheit\n„Netzspannung“ – tödlich."),
+            (
+                "mains-safety.typ",
+                "= Sicherheit\n„Netzspannung“ – tödlich.",
+            ),
             (
                 "plots/p.svg",
                 "<svg><text font-family=\"Noto Sans\">−20 dB</text></svg>",
@@ -699,7 +716,10 @@ mod tests {
             ("main.typ", "escaped \\u{2192} arrow"),
             ("main.typ", "#sym.arrow.r"),
             ("mains-safety.typ", "注意"),
-            ("plots/p.svg", "<svg><text font-family=\"Noto Sans\">→</text></svg>"),
+            (
+                "plots/p.svg",
+                "<svg><text font-family=\"Noto Sans\">→</text></svg>",
+            ),
             (
                 "plots/p.svg",
                 "<svg><text font-family=\"Noto Sans\">&#x2192;</text></svg>",
@@ -724,7 +744,10 @@ mod tests {
         // Devanagari has it), does not.
         let mut sandbox = plain.clone();
         sandbox
-            .insert("shop/logo.svg", "<svg><path d=\"M0 0\"/><!-- 注意 --></svg>")
+            .insert(
+                "shop/logo.svg",
+                "<svg><path d=\"M0 0\"/><!-- 注意 --></svg>",
+            )
             .unwrap();
         assert!(!needs_cjk(&sandbox));
     }

@@ -247,7 +247,11 @@ mod tests {
             };
             assert_eq!(&std::fs::read(out.join(folder).join(name)).unwrap(), bytes);
         }
-        assert!(!out.join("fonts").join(super::super::fonts::CJK_FONT).exists());
+        assert!(
+            !out.join("fonts")
+                .join(super::super::fonts::CJK_FONT)
+                .exists()
+        );
         assert!(out.join("fonts").join("OFL-1.1.txt").is_file());
     }
 }
