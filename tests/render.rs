@@ -775,9 +775,13 @@ fn rendering_twice_and_from_emitted_source_gives_identical_bytes() {
     assert!(
         src.join("main.typ").is_file() && src.join("plots").join("plate-dissipation.svg").is_file()
     );
-    for font in ["NotoSans-Regular.ttf", "wqy-microhei.ttc", "OFL-1.1.txt"] {
+    for font in ["NotoSans-Regular.ttf", "OFL-1.1.txt"] {
         assert!(src.join("fonts").join(font).is_file(), "{font} not emitted");
     }
+    // The CJK font in a folder of its own beside them, which this job
+    // (no CJK text, no arrow) does not need: its command leaves it out.
+    assert!(src.join("fonts-cjk").join("wqy-microhei.ttc").is_file());
+    assert!(!src.join("fonts").join("wqy-microhei.ttc").exists());
     let c = dir.path().join("c.pdf");
     let root = src.to_str().unwrap();
     let status = Command::new("typst")
@@ -813,6 +817,89 @@ fn rendering_twice_and_from_emitted_source_gives_identical_bytes() {
 /// a byte of the PDF: the content key leaves them out. Each demo job and
 /// a generated job of many measurement sets is rendered alone, then its
 /// emitted source compiled with typst held to one and to two threads.
+/// Whether the PDF embeds the CJK face (its name is in the font's
+/// dictionary as typed).
+fn embeds_cjk_face(pdf: &[u8]) -> bool {
+    pdf.windows(17).any(|w| w == b"WenQuanYiMicroHei")
+}
+
+#[test]
+fn the_cjk_font_is_handed_over_only_when_a_document_needs_it_and_the_pdf_is_the_same() {
+    if typst_version().is_none() {
+        return;
+    }
+    let dir = tempfile::tempdir().unwrap();
+    // A job without CJK text or an arrow: no CJK folder in its command,
+    // no CJK families in its font rules, and the same bytes as when
+    // typst is given the CJK font and the rules naming it.
+    let job = demo("head-el34-quad");
+    let pdf = dir.path().join("plain.pdf");
+    let src = dir.path().join("plain-source");
+    let out = render(&job, &pdf, &["--emit-source", src.to_str().unwrap()]);
+    assert_ok(&out, "plain");
+    let said = String::from_utf8_lossy(&out.stderr).into_owned();
+    assert!(!said.contains("fonts-cjk"), "{said}");
+    let main = std::fs::read_to_string(src.join("main.typ")).unwrap();
+    let lean = ampreport::typeset::font_rules_without_cjk();
+    assert!(main.contains(&lean) && !main.contains("WenQuanYi"));
+    let bytes = std::fs::read(&pdf).unwrap();
+    assert!(!embeds_cjk_face(&bytes));
+    std::fs::write(
+        src.join("main.typ"),
+        main.replacen(&lean, &ampreport::typeset::font_rules(), 1),
+    )
+    .unwrap();
+    let root = src.to_str().unwrap();
+    let full = dir.path().join("full.pdf");
+    let status = Command::new("typst")
+        .args(["compile", "--root", root])
+        .args(["--font-path", &format!("{root}/fonts")])
+        .args(["--font-path", &format!("{root}/fonts-cjk")])
+        .args(["--ignore-system-fonts", "--ignore-embedded-fonts"])
+        // 2026-11-20, the job's completion date, at 00:00 UTC.
+        .args([
+            "--creation-timestamp",
+            "1795132800",
+            "--pdf-standard",
+            "a-2b",
+        ])
+        .arg(src.join("main.typ"))
+        .arg(&full)
+        .status()
+        .unwrap();
+    assert!(status.success());
+    assert!(
+        bytes == std::fs::read(&full).unwrap(),
+        "the PDF without the CJK font differs from the one with it"
+    );
+
+    // CJK text in the complaint, or the parallel sign in a note: the CJK
+    // font is handed over and its face is in the PDF.
+    let text = std::fs::read_to_string(demo("combo-el84-cathode")).unwrap();
+    for (name, from, to) in [
+        ("cjk", "Loud hum after", "Loud hum (嗡嗡声) after"),
+        ("parallel", "Run the unit on", "Run the unit (R1 ∥ R2) on"),
+    ] {
+        assert!(text.contains(from), "{from}");
+        let job_dir = dir.path().join(name);
+        std::fs::create_dir(&job_dir).unwrap();
+        let job_copy = job_dir.join(format!("{name}.kdl"));
+        std::fs::write(&job_copy, text.replacen(from, to, 1)).unwrap();
+        let pdf = dir.path().join(format!("{name}.pdf"));
+        let src = dir.path().join(format!("{name}-source"));
+        let out = render(&job_copy, &pdf, &["--emit-source", src.to_str().unwrap()]);
+        assert_ok(&out, name);
+        let said = String::from_utf8_lossy(&out.stderr).into_owned();
+        assert!(said.contains("fonts-cjk"), "{name}: {said}");
+        assert!(
+            std::fs::read_to_string(src.join("main.typ"))
+                .unwrap()
+                .contains(&ampreport::typeset::font_rules())
+        );
+        assert!(embeds_cjk_face(&std::fs::read(&pdf).unwrap()), "{name}");
+    }
+}
+
 #[test]
 fn typst_threads_do_not_change_the_pdf() {
     if typst_version().is_none() {
@@ -868,6 +955,13 @@ fn typst_threads_do_not_change_the_pdf() {
             let status = Command::new("typst")
                 .args(["compile", "--jobs", threads, "--root", root])
                 .args(["--font-path", &format!("{root}/fonts")])
+                // The CJK folder where the command names it (a document
+                // with CJK text or an arrow).
+                .args(if command.contains("/fonts-cjk ") {
+                    vec!["--font-path".to_owned(), format!("{root}/fonts-cjk")]
+                } else {
+                    vec![]
+                })
                 .args(["--ignore-system-fonts", "--ignore-embedded-fonts"])
                 .args(["--creation-timestamp", &stamp, "--pdf-standard", "a-2b"])
                 .arg(src.join("main.typ"))
@@ -1010,8 +1104,19 @@ fn fonts_from_the_user_cache_or_the_sandbox_give_identical_bytes() {
         .map(|e| e.unwrap().path())
         .filter(|p| *p != photos && *p != versions && *p != git)
         .collect();
-    assert_eq!(cached.len(), 1, "{cached:?}");
-    let folder = &cached[0];
+    // The fonts' folder and the CJK font's beside it.
+    assert_eq!(cached.len(), 2, "{cached:?}");
+    let folder = &ampreport::typeset::font_cache_folder_name();
+    let folder = &cached
+        .iter()
+        .find(|p| p.file_name().unwrap() == folder.as_str())
+        .unwrap_or_else(|| panic!("{cached:?}"))
+        .clone();
+    assert!(
+        ampreport::typeset::cjk_folder(folder)
+            .join("wqy-microhei.ttc")
+            .is_file()
+    );
     assert!(
         folder
             .file_name()

@@ -662,10 +662,7 @@ mod tests {
         let body: BTreeSet<u32> = cjk
             .iter()
             .copied()
-            .filter(|c| {
-                let other = scripts.contains(c);
-                !((sans.contains(c) || other) && (mono.contains(c) || other))
-            })
+            .filter(|c| !(scripts.contains(c) || sans.contains(c) && mono.contains(c)))
             .collect();
         let svg: BTreeSet<u32> = cjk
             .iter()
