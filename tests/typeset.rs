@@ -564,6 +564,9 @@ fn emitted_source_compiles_to_the_same_pdf() {
         .arg(&src)
         .arg("--font-path")
         .arg(src.join("fonts"))
+        // The CJK font's folder, which these options hand over.
+        .arg("--font-path")
+        .arg(src.join("fonts-cjk"))
         .args(["--ignore-system-fonts", "--ignore-embedded-fonts"])
         .args([
             "--creation-timestamp",
