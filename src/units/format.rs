@@ -6,13 +6,13 @@ use super::kind::QuantityKind;
 /// Powers of ten from 10^-30 to 10^30, the edges of [`decade`]'s table.
 const DECADES: [f64; 61] = {
     let mut p = [0.0; 61];
-    let mut i = 0;
+    let mut i: usize = 0;
     while i < 61 {
         // About 10^(i - 30): only edges, each given a margin in `decade`,
         // so the last bit does not matter.
         let mut v = 1.0;
         let mut k = 0;
-        let e = if i >= 30 { i - 30 } else { 30 - i };
+        let e = i.abs_diff(30);
         while k < e {
             v *= 10.0;
             k += 1;
@@ -32,7 +32,7 @@ const DECADES: [f64; 61] = {
 /// outside the table, the logarithm is taken as before.
 fn decade(value: f64) -> i32 {
     let a = value.abs();
-    if a >= DECADES[0] && a < DECADES[60] {
+    if (DECADES[0]..DECADES[60]).contains(&a) {
         // The edges at or below `a`: at least one.
         let k = DECADES.partition_point(|&p| p <= a) - 1;
         const MARGIN: f64 = 1e-8;
