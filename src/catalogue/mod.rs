@@ -65,10 +65,126 @@ struct Inner {
     language: String,
     /// Where the messages came from, for messages ("built-in", a path).
     origin: String,
+    /// The messages, in parts: a translation file is one part, read when
+    /// the catalogue is made; a built-in catalogue is cut into its
+    /// diagnostics, its terminal messages and the rest at build time
+    /// ([`BUILT_IN_PARTS`]), and each part is parsed the first time one
+    /// of its messages is asked for (a render says none of the
+    /// diagnostics, and Fluent's parse of them was a seventh of its own
+    /// instructions). No message of a built-in catalogue refers to
+    /// another message or term (a test holds them to that), so a part
+    /// says its messages alone exactly as the whole catalogue would.
+    parts: Parts,
+}
+
+/// The messages of a catalogue, whole or by part.
+enum Parts {
+    /// A translation file: every message in one bundle.
+    Whole(Part),
+    /// A built-in catalogue, each part built on first use.
+    BuiltIn {
+        language: &'static str,
+        rest: OnceLock<Part>,
+        diag: OnceLock<Part>,
+        cli: OnceLock<Part>,
+        texts: &'static BuiltInParts,
+    },
+}
+
+/// A built-in catalogue's text cut into parts by `build.rs`: the rest,
+/// the diagnostics (`diag-…`) and the terminal's messages (`cli-…`).
+pub(crate) struct BuiltInParts {
+    pub(crate) rest: &'static str,
+    pub(crate) diag: &'static str,
+    pub(crate) cli: &'static str,
+}
+
+/// The built-in catalogues by language tag, in parts.
+pub(crate) const BUILT_IN_PARTS: &[(&str, BuiltInParts)] = &[
+    (
+        "en",
+        BuiltInParts {
+            rest: include_str!(concat!(env!("OUT_DIR"), "/en-rest.ftl")),
+            diag: include_str!(concat!(env!("OUT_DIR"), "/en-diag.ftl")),
+            cli: include_str!(concat!(env!("OUT_DIR"), "/en-cli.ftl")),
+        },
+    ),
+    (
+        "de",
+        BuiltInParts {
+            rest: include_str!(concat!(env!("OUT_DIR"), "/de-rest.ftl")),
+            diag: include_str!(concat!(env!("OUT_DIR"), "/de-diag.ftl")),
+            cli: include_str!(concat!(env!("OUT_DIR"), "/de-cli.ftl")),
+        },
+    ),
+];
+
+/// One bundle of messages with their patterns.
+struct Part {
     bundle: FluentBundle<FluentResource>,
     /// Every message with a value, by key, with its pattern worked out
     /// once when the pattern is plain text and arguments (see [`Pattern`]).
     patterns: HashMap<Box<str>, Pattern>,
+}
+
+impl Part {
+    /// The part for `text`, or `Err` when Fluent finds a problem in it
+    /// (`partial`: the messages it could read, kept when `Ok(())`
+    /// cannot be given, as for a built-in part read on first use).
+    fn build(language: &str, text: &str) -> Result<Part, Part> {
+        let (resource, clean) = match FluentResource::try_new(text.to_owned()) {
+            Ok(resource) => (resource, true),
+            Err((resource, _)) => (resource, false),
+        };
+        // Each message's pattern read from the resource as it is parsed
+        // (the bundle below refuses a resource that names a message
+        // twice, so these are the patterns the bundle holds).
+        let mut patterns = HashMap::with_capacity(resource.entries().count());
+        for entry in resource.entries() {
+            if let fluent_syntax::ast::Entry::Message(m) = entry
+                && let Some(pattern) = &m.value
+            {
+                let pattern = plain_pattern(pattern).map_or(Pattern::Fluent, Pattern::Plain);
+                patterns.insert(Box::from(m.id.name), pattern);
+            }
+        }
+        let id: unic_langid::LanguageIdentifier = language.parse().unwrap_or_default();
+        let mut bundle = FluentBundle::new_concurrent(vec![id]);
+        // No Unicode isolation marks around arguments: the text goes to a
+        // terminal, JSON and a PDF, where they would show as stray bytes.
+        bundle.set_use_isolating(false);
+        let added = bundle.add_resource(resource).is_ok();
+        let part = Part { bundle, patterns };
+        if clean && added { Ok(part) } else { Err(part) }
+    }
+}
+
+impl Inner {
+    /// The part that holds `key` (built now if it was not yet).
+    fn part(&self, key: &str) -> &Part {
+        match &self.parts {
+            Parts::Whole(part) => part,
+            Parts::BuiltIn {
+                language,
+                rest,
+                diag,
+                cli,
+                texts,
+            } => {
+                let (cell, text) = if key.starts_with("diag-") {
+                    (diag, texts.diag)
+                } else if key.starts_with("cli-") {
+                    (cli, texts.cli)
+                } else {
+                    (rest, texts.rest)
+                };
+                // A built-in part parses without a problem (tested);
+                // were it not so, the messages Fluent could read are
+                // used and the others said as missing.
+                cell.get_or_init(|| Part::build(language, text).unwrap_or_else(|part| part))
+            }
+        }
+    }
 }
 
 /// A message's pattern as [`Catalogue::try_format`] uses it.
@@ -256,10 +372,8 @@ impl Catalogue {
     /// The built-in English catalogue.
     pub fn english() -> &'static Catalogue {
         static ENGLISH_CATALOGUE: OnceLock<Catalogue> = OnceLock::new();
-        ENGLISH_CATALOGUE.get_or_init(|| {
-            Catalogue::build("en", "built-in", ENGLISH)
-                .expect("the built-in English catalogue parses")
-        })
+        ENGLISH_CATALOGUE
+            .get_or_init(|| Catalogue::built_in_parts("en").expect("English is built in, in parts"))
     }
 
     /// A built-in catalogue by language tag ("en", "de"; case and region
@@ -269,8 +383,7 @@ impl Catalogue {
         if primary == "en" {
             return Some(Catalogue::english().clone());
         }
-        let (tag, text) = BUILT_IN.iter().find(|(tag, _)| *tag == primary)?;
-        Catalogue::build(tag, "built-in", text).ok()
+        Catalogue::built_in_parts(&primary)
     }
 
     /// A catalogue from a translation file's text, checked against English
@@ -289,31 +402,30 @@ impl Catalogue {
     }
 
     fn build(language: &str, origin: &str, text: &str) -> Result<Catalogue, ()> {
-        let resource = FluentResource::try_new(text.to_owned()).map_err(|_| ())?;
-        // Each message's pattern read from the resource as it is parsed
-        // (the bundle below refuses a resource that names a message
-        // twice, so these are the patterns the bundle holds).
-        let mut patterns = HashMap::with_capacity(resource.entries().count());
-        for entry in resource.entries() {
-            if let fluent_syntax::ast::Entry::Message(m) = entry
-                && let Some(pattern) = &m.value
-            {
-                let pattern = plain_pattern(pattern).map_or(Pattern::Fluent, Pattern::Plain);
-                patterns.insert(Box::from(m.id.name), pattern);
-            }
-        }
-        let id: unic_langid::LanguageIdentifier = language.parse().unwrap_or_default();
-        let mut bundle = FluentBundle::new_concurrent(vec![id]);
-        // No Unicode isolation marks around arguments: the text goes to a
-        // terminal, JSON and a PDF, where they would show as stray bytes.
-        bundle.set_use_isolating(false);
-        bundle.add_resource(resource).map_err(|_| ())?;
+        let part = Part::build(language, text).map_err(|_| ())?;
         Ok(Catalogue {
             inner: Arc::new(Inner {
                 language: language.to_owned(),
                 origin: origin.to_owned(),
-                bundle,
-                patterns,
+                parts: Parts::Whole(part),
+            }),
+        })
+    }
+
+    /// A built-in catalogue by its exact tag, its parts built on first use.
+    fn built_in_parts(tag: &str) -> Option<Catalogue> {
+        let (language, texts) = BUILT_IN_PARTS.iter().find(|(t, _)| *t == tag)?;
+        Some(Catalogue {
+            inner: Arc::new(Inner {
+                language: (*language).to_owned(),
+                origin: "built-in".to_owned(),
+                parts: Parts::BuiltIn {
+                    language,
+                    rest: OnceLock::new(),
+                    diag: OnceLock::new(),
+                    cli: OnceLock::new(),
+                    texts,
+                },
             }),
         })
     }
@@ -330,7 +442,7 @@ impl Catalogue {
 
     /// Whether the catalogue has a message for `key`.
     pub fn has(&self, key: &str) -> bool {
-        self.inner.bundle.has_message(key)
+        self.inner.part(key).bundle.has_message(key)
     }
 
     /// The message `key` without arguments.
@@ -356,12 +468,13 @@ impl Catalogue {
     /// The message `key` with its arguments, or `None` when there is no
     /// such message.
     pub fn try_format(&self, key: &str, args: &[(&str, Arg)]) -> Option<String> {
-        if let Pattern::Plain(pieces) = self.inner.patterns.get(key)?
+        let part = self.inner.part(key);
+        if let Pattern::Plain(pieces) = part.patterns.get(key)?
             && let Some(words) = self.say_plain(pieces, args)
         {
             return Some(words);
         }
-        self.fluent_format(key, args)
+        self.fluent_format(part, key, args)
     }
 
     /// A plain pattern's words, or `None` when an argument it names is
@@ -402,8 +515,8 @@ impl Catalogue {
 
     /// The message `key` said by Fluent, or `None` when there is no such
     /// message.
-    fn fluent_format(&self, key: &str, args: &[(&str, Arg)]) -> Option<String> {
-        let bundle = &self.inner.bundle;
+    fn fluent_format(&self, part: &Part, key: &str, args: &[(&str, Arg)]) -> Option<String> {
+        let bundle = &part.bundle;
         let pattern = bundle.get_message(key)?.value()?;
         let mut fargs = FluentArgs::new();
         for (name, value) in args {
