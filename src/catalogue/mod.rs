@@ -77,7 +77,9 @@ struct Inner {
     parts: Parts,
 }
 
-/// The messages of a catalogue, whole or by part.
+/// The messages of a catalogue, whole or by part. (One lives in each
+/// catalogue's `Arc`, so the variants' sizes do not matter.)
+#[allow(clippy::large_enum_variant)]
 enum Parts {
     /// A translation file: every message in one bundle.
     Whole(Part),
@@ -128,10 +130,10 @@ struct Part {
 }
 
 impl Part {
-    /// The part for `text`, or `Err` when Fluent finds a problem in it
-    /// (`partial`: the messages it could read, kept when `Ok(())`
-    /// cannot be given, as for a built-in part read on first use).
-    fn build(language: &str, text: &str) -> Result<Part, Part> {
+    /// The part for `text`, and whether Fluent found no problem in it
+    /// (else the part holds the messages it could read, which a built-in
+    /// part read on first use keeps).
+    fn build(language: &str, text: &str) -> (Part, bool) {
         let (resource, clean) = match FluentResource::try_new(text.to_owned()) {
             Ok(resource) => (resource, true),
             Err((resource, _)) => (resource, false),
@@ -155,7 +157,7 @@ impl Part {
         bundle.set_use_isolating(false);
         let added = bundle.add_resource(resource).is_ok();
         let part = Part { bundle, patterns };
-        if clean && added { Ok(part) } else { Err(part) }
+        (part, clean && added)
     }
 }
 
@@ -181,7 +183,7 @@ impl Inner {
                 // A built-in part parses without a problem (tested);
                 // were it not so, the messages Fluent could read are
                 // used and the others said as missing.
-                cell.get_or_init(|| Part::build(language, text).unwrap_or_else(|part| part))
+                cell.get_or_init(|| Part::build(language, text).0)
             }
         }
     }
@@ -402,7 +404,10 @@ impl Catalogue {
     }
 
     fn build(language: &str, origin: &str, text: &str) -> Result<Catalogue, ()> {
-        let part = Part::build(language, text).map_err(|_| ())?;
+        let (part, clean) = Part::build(language, text);
+        if !clean {
+            return Err(());
+        }
         Ok(Catalogue {
             inner: Arc::new(Inner {
                 language: language.to_owned(),
