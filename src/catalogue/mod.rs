@@ -173,12 +173,11 @@ impl Inner {
                 cli,
                 texts,
             } => {
-                let (cell, text) = if key.starts_with("diag-") {
-                    (diag, texts.diag)
-                } else if key.starts_with("cli-") {
-                    (cli, texts.cli)
-                } else {
-                    (rest, texts.rest)
+                // The group is the key's first word, as `build.rs` cut them.
+                let (cell, text) = match key.split_once('-').map(|(group, _)| group) {
+                    Some("diag") => (diag, texts.diag),
+                    Some("cli") => (cli, texts.cli),
+                    _ => (rest, texts.rest),
                 };
                 // A built-in part parses without a problem (tested);
                 // were it not so, the messages Fluent could read are
