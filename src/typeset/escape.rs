@@ -54,6 +54,8 @@ pub fn escape_markup_into(text: &str, out: &mut String) {
 fn escape_common_into(text: &str, out: &mut String) -> bool {
     let start = out.len();
     let mut run = 0usize;
+    // `can_draw` of a printable ASCII character, read once.
+    let ascii = super::fonts::ascii_covered();
     for c in text.chars() {
         match c {
             ' ' | '\u{A0}' => {
@@ -61,7 +63,7 @@ fn escape_common_into(text: &str, out: &mut String) -> bool {
                 out.push(c);
                 continue;
             }
-            '!'..='~' if super::fonts::can_draw(c) => {
+            '!'..='~' if ascii & 1 << (c as u32) != 0 => {
                 if c.is_ascii_punctuation() {
                     out.push('\\');
                 }
@@ -246,19 +248,34 @@ fn content_as_string(text: &str) -> Option<String> {
 /// [`content_as_string`] appended to `out`; false (with part of the text
 /// possibly written) when the text is not for the one pass.
 fn content_as_string_into(text: &str, out: &mut String) -> bool {
-    if text.is_empty() || text.starts_with(' ') || text.ends_with(' ') || text.contains("  ") {
+    if text.is_empty() || text.starts_with(' ') || text.ends_with(' ') {
         return false;
     }
     out.push('"');
     let mut run = 0usize;
+    // Two spaces in a row (not a no-break space) send the text to the
+    // full path: found in this loop rather than by a search of its own.
+    let mut after_space = false;
+    // `can_draw` of a printable ASCII character, read once.
+    let ascii = super::fonts::ascii_covered();
     for c in text.chars() {
         match c {
-            ' ' | '\u{A0}' => {
+            ' ' => {
+                if after_space {
+                    return false;
+                }
+                after_space = true;
                 run = 0;
                 out.push(c);
                 continue;
             }
-            '!'..='~' if super::fonts::can_draw(c) => {
+            '\u{A0}' => {
+                after_space = false;
+                run = 0;
+                out.push(c);
+                continue;
+            }
+            '!'..='~' if ascii & 1 << (c as u32) != 0 => {
                 if c == '\\' || c == '"' {
                     out.push('\\');
                 }
@@ -274,6 +291,7 @@ fn content_as_string_into(text: &str, out: &mut String) -> bool {
             }
             _ => return false,
         }
+        after_space = false;
         run += 1;
         if run >= LONG_RUN {
             return false;

@@ -117,6 +117,13 @@ static ASCII_COVERED: std::sync::LazyLock<u128> = std::sync::LazyLock::new(|| {
         .fold(0, |bits, c| bits | 1 << c)
 });
 
+/// Which of the 128 ASCII characters a bundled font has, one bit each
+/// (`1 << c`): for the escaper's loops, which read it once per text
+/// rather than once per character.
+pub(crate) fn ascii_covered() -> u128 {
+    *ASCII_COVERED
+}
+
 /// True when a bundled font has a glyph for the character `c`.
 fn covered(c: u32) -> bool {
     if c < 128 {

@@ -50,7 +50,7 @@ pub use locate::{
     start_locate_in, start_locate_keeping,
 };
 pub use output::{Input, InputIndex, OutputRefused, check_emit_folder, check_output};
-pub use rows::{RowList, Rows, TypstRow};
+pub use rows::{CountedText, RowList, Rows, TypstRow, serialize_counted_text};
 pub use sandbox::{EMIT_PREFIX, Sandbox, emit_source, emit_source_replacing};
 pub use template_env::{
     TemplateSource, TypstMarkup, refusal, template_environment, template_error_msg, typst_markup,

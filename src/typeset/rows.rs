@@ -106,6 +106,61 @@ where
     }
 }
 
+/// Text of a row that a template may read but that costs something to
+/// make, such as a checker's reason as a sentence: the hand-over template
+/// never prints it, but its characters count in the table's text length
+/// (and with it the `keep` rule). Serialized through
+/// [`serialize_counted_text`], it is made when a template reads it, and
+/// only counted ([`CountedText::char_count`]) when a [`Rows`] list works
+/// out its text length.
+pub trait CountedText {
+    /// The text.
+    fn text(&self) -> String;
+    /// `self.text().chars().count()`, without making the text.
+    fn char_count(&self) -> usize;
+}
+
+thread_local! {
+    /// True while [`RowSource::text_length`] walks rows on this thread:
+    /// a [`CountedText`] then tells the walk its count instead of its text.
+    static COUNTING: std::cell::Cell<bool> = const { std::cell::Cell::new(false) };
+}
+
+/// The name under which a [`CountedText`] hands its count to the walk
+/// (as a unit variant whose index is the count); no other serializer
+/// ever sees it.
+const COUNTED: &str = "ampreport::typeset::rows::CountedText";
+
+/// Serializes `text` as its string, or, inside the text-length walk of a
+/// [`Rows`] list, as its count alone.
+pub fn serialize_counted_text<S: Serializer>(
+    text: &impl CountedText,
+    serializer: S,
+) -> Result<S::Ok, S::Error> {
+    if COUNTING.with(std::cell::Cell::get)
+        && let Ok(count) = u32::try_from(text.char_count())
+    {
+        return serializer.serialize_unit_variant(COUNTED, count, "");
+    }
+    serializer.serialize_str(&text.text())
+}
+
+/// Sets [`COUNTING`] for as long as it lives, and back to what it was
+/// after (also when a walk panics).
+struct CountingWalk(bool);
+
+impl CountingWalk {
+    fn start() -> Self {
+        CountingWalk(COUNTING.with(|c| c.replace(true)))
+    }
+}
+
+impl Drop for CountingWalk {
+    fn drop(&mut self) {
+        COUNTING.with(|c| c.set(self.0));
+    }
+}
+
 /// What a [`RowList`] needs of its rows, whatever their type.
 trait RowSource: std::fmt::Debug + Send + Sync {
     fn len(&self) -> usize;
@@ -129,6 +184,7 @@ where
     fn text_length(&self) -> usize {
         // The walk of the filter starts at the list (depth 0), so each row
         // is at depth 1.
+        let _counting = CountingWalk::start();
         self.iter()
             .map(|row| row.serialize(Counter { depth: 1 }).unwrap_or(0))
             .sum()
@@ -319,10 +375,14 @@ impl Serializer for Counter {
     }
     fn serialize_unit_variant(
         self,
-        _name: &'static str,
-        _index: u32,
+        name: &'static str,
+        index: u32,
         variant: &'static str,
     ) -> Result<usize, Never> {
+        if name == COUNTED {
+            // A CountedText's count, in place of its text.
+            return self.leaf(index as usize);
+        }
         self.leaf(variant.chars().count())
     }
     fn serialize_newtype_struct<V: Serialize + ?Sized>(

@@ -185,7 +185,8 @@ pub fn format_fixed(value: f64, decimals: usize) -> String {
     if !value.is_finite() {
         return "–".to_string();
     }
-    let s = format!("{value:.decimals$}");
+    // `format!("{value:.decimals$}")`, without its exact float path.
+    let s = fixed(value, decimals);
     // Avoid "-0.0".
     if s.trim_start_matches('-')
         .chars()

@@ -25,7 +25,7 @@ use crate::calc::{
 use crate::catalogue::{Arg, Catalogue};
 use crate::job::{Job, ProtectionClass};
 use crate::shop::ShopProfile;
-use crate::typeset::Rows;
+use crate::typeset::{CountedText, Rows, serialize_counted_text};
 
 use super::charges::{ChargesContext, charges_context};
 use super::shop_block::{AcceptanceBlock, ShopBlock, acceptance, paper};
@@ -387,7 +387,9 @@ pub struct NodeRow {
     pub status: String,
     /// When not ok, the deciding figure in a few words.
     pub why: String,
-    pub reason: String,
+    /// The deciding check's reason as a sentence (not printed by the
+    /// built-in template; counted in the table's text length).
+    pub reason: Sentence,
 }
 
 #[derive(Debug, Clone, Serialize)]
@@ -424,7 +426,9 @@ pub struct ValveRow {
     /// When not ok, the deciding figures in a few words ("screen 196 %").
     pub why: String,
     /// The worst check's reason.
-    pub reason: String,
+    /// The deciding check's reason as a sentence (not printed by the
+    /// built-in template; counted in the table's text length).
+    pub reason: Sentence,
 }
 
 /// The fixed-bias target window of one valve, as the technician adjusts it.
@@ -482,7 +486,9 @@ pub struct ResistorRow {
     pub status: String,
     /// When not ok, the deciding figure in a few words.
     pub why: String,
-    pub reason: String,
+    /// The deciding check's reason as a sentence (not printed by the
+    /// built-in template; counted in the table's text length).
+    pub reason: Sentence,
 }
 
 #[derive(Debug, Clone, Serialize)]
@@ -501,7 +507,9 @@ pub struct CapacitorRow {
     pub status: String,
     /// When not ok, the deciding figure in a few words.
     pub why: String,
-    pub reason: String,
+    /// The deciding check's reason as a sentence (not printed by the
+    /// built-in template; counted in the table's text length).
+    pub reason: Sentence,
 }
 
 /// A valve rectifier's DC load: the output valves' cathode currents summed,
@@ -542,7 +550,9 @@ pub struct HeaterRow {
     pub status: String,
     /// When not ok, the deciding figure in a few words.
     pub why: String,
-    pub reason: String,
+    /// The deciding check's reason as a sentence (not printed by the
+    /// built-in template; counted in the table's text length).
+    pub reason: Sentence,
 }
 
 /// Paths of the charts in the typesetting folder, when there is something
@@ -755,6 +765,48 @@ fn sentence(s: &str) -> String {
         out.push('.');
     }
     out
+}
+
+/// A checker's reason for a table row as [`sentence`] words it, made only
+/// when a template reads it. The built-in template never prints a row's
+/// reason, but its characters count in the table's text length, which
+/// decides whether the table is kept whole: that count is worked out from
+/// the reason as the checker wrote it ([`CountedText::char_count`]), the
+/// same number as the sentence's characters (a test holds the two equal).
+#[derive(Debug, Clone, Default, PartialEq)]
+pub struct Sentence(String);
+
+impl Sentence {
+    /// The reason as the checker wrote it.
+    pub fn new(reason: &str) -> Self {
+        Sentence(reason.to_owned())
+    }
+}
+
+impl CountedText for Sentence {
+    fn text(&self) -> String {
+        sentence(&self.0)
+    }
+
+    fn char_count(&self) -> usize {
+        // `sentence` changes only spaces into no-break spaces (one
+        // character for one, never the last), the first letter into its
+        // capital (which may be more than one character) and adds a full
+        // stop where there is none.
+        let mut chars = self.0.chars();
+        match chars.next() {
+            None => 0,
+            Some(first) => {
+                first.to_uppercase().count() + chars.count() + usize::from(!self.0.ends_with('.'))
+            }
+        }
+    }
+}
+
+impl Serialize for Sentence {
+    fn serialize<S: serde::Serializer>(&self, serializer: S) -> Result<S::Ok, S::Error> {
+        serialize_counted_text(self, serializer)
+    }
 }
 
 /// Joins the lines of hand-wrapped text. Technicians wrap long fields by
@@ -1236,7 +1288,7 @@ fn set_context(
         warm_up: warm_up_context(set, warm_up_plot),
         date,
         mains: volts(set.mains_volts),
-        factor: format!("{:.3}", set.correction_factor),
+        factor: crate::units::fixed(set.correction_factor, 3),
         nominal: volts(nominal),
         nodes: nodes.into(),
         valves: valves.into(),
@@ -1360,7 +1412,7 @@ fn node_row(n: &NodeFindings) -> NodeRow {
         tolerance: format!("±{} %", format_sig(n.tolerance_pct, 3)),
         status: attention::state(&n.verdict).to_string(),
         why: why(&n.verdict),
-        reason: sentence(&n.verdict.reason),
+        reason: Sentence::new(&n.verdict.reason),
     }
 }
 
@@ -1402,7 +1454,7 @@ fn valve_row(v: &ValveFindings) -> ValveRow {
         status: attention::valve_state(v).to_string(),
         why: typographic_minus(&glue_units(&attention::valve_why(v))),
         reason: worst
-            .map(|c| sentence(&c.verdict.reason))
+            .map(|c| Sentence::new(&c.verdict.reason))
             .unwrap_or_default(),
     }
 }
@@ -1514,7 +1566,7 @@ fn resistor_row(r: &ResistorFindings, kind: &str) -> ResistorRow {
         high_line_pct: r.high_line_power_pct.map(pct0),
         status: attention::state(&r.verdict).to_string(),
         why: why(&r.verdict),
-        reason: sentence(&r.verdict.reason),
+        reason: Sentence::new(&r.verdict.reason),
     }
 }
 
@@ -1531,7 +1583,7 @@ fn capacitor_row(c: &CapacitorFindings) -> CapacitorRow {
         margin: format!("{} %", fixed(c.margin_pct, 1)),
         status: attention::state(&c.verdict).to_string(),
         why: why(&c.verdict),
-        reason: sentence(&c.verdict.reason),
+        reason: Sentence::new(&c.verdict.reason),
     }
 }
 
@@ -1601,7 +1653,7 @@ fn heater_row(h: &HeaterFindings, cat: &Catalogue) -> HeaterRow {
         corrected_deviation: signed_pct(h.corrected_deviation_pct),
         status: attention::state(&h.verdict).to_string(),
         why: why(&h.verdict),
-        reason: sentence(&h.verdict.reason),
+        reason: Sentence::new(&h.verdict.reason),
     }
 }
 
@@ -1821,6 +1873,43 @@ fn method(
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn a_reason_counts_the_characters_of_its_sentence() {
+        // Letters whose capitals are longer (ß, ŉ, ǰ, ﬁ) or shorter in
+        // bytes, titlecase letters, figures before units (glued with a
+        // no-break space), full stops anywhere, spaces at the ends.
+        let pool: Vec<char> = "aZ09 .,;µΩ%ßŉǰﬁǅéİıVmAkW\u{A0}\u{2009}\n()-–"
+            .chars()
+            .collect();
+        let mut seed = 0x51_7cc1_b727_220au64;
+        let mut next = || {
+            seed ^= seed << 13;
+            seed ^= seed >> 7;
+            seed ^= seed << 17;
+            seed
+        };
+        let mut texts: Vec<String> = ["", ".", "ß", "ﬁ.", " ", "12 V", "x 12 mA.", "ǅ 3 %"]
+            .map(String::from)
+            .to_vec();
+        for _ in 0..20_000 {
+            let len = (next() % 24) as usize;
+            texts.push(
+                (0..len)
+                    .map(|_| pool[(next() % pool.len() as u64) as usize])
+                    .collect(),
+            );
+        }
+        for text in texts {
+            let reason = Sentence::new(&text);
+            assert_eq!(reason.text(), sentence(&text), "{text:?}");
+            assert_eq!(
+                reason.char_count(),
+                sentence(&text).chars().count(),
+                "{text:?}"
+            );
+        }
+    }
 
     // The first versions of `glue_units` and `typographic_minus`, which
     // copied the text into a vector of characters; the present ones must

@@ -222,7 +222,7 @@ impl TypstRow for HeaterRow {
 mod tests {
     use minijinja::Value;
 
-    use super::super::{WindowReading, grid_note};
+    use super::super::{Sentence, WindowReading, grid_note};
     use super::*;
     use crate::catalogue::Catalogue;
     use crate::report::handover::catalogue_functions;
@@ -290,7 +290,7 @@ mod tests {
             tolerance: h.text(),
             status: h.text(),
             why: h.text(),
-            reason: h.text(),
+            reason: Sentence::new(&h.text()),
         }
     }
 
@@ -317,7 +317,7 @@ mod tests {
             pg2_pct: h.maybe(),
             status: h.text(),
             why: h.text(),
-            reason: h.text(),
+            reason: Sentence::new(&h.text()),
         }
     }
 
@@ -359,7 +359,7 @@ mod tests {
             high_line_pct: h.maybe(),
             status: h.text(),
             why: h.text(),
-            reason: h.text(),
+            reason: Sentence::new(&h.text()),
         }
     }
 
@@ -376,7 +376,7 @@ mod tests {
             margin: h.text(),
             status: h.text(),
             why: h.text(),
-            reason: h.text(),
+            reason: Sentence::new(&h.text()),
         }
     }
 
@@ -396,7 +396,7 @@ mod tests {
             corrected_deviation: h.text(),
             status: h.text(),
             why: h.text(),
-            reason: h.text(),
+            reason: Sentence::new(&h.text()),
         }
     }
 
@@ -439,6 +439,20 @@ mod tests {
                         let rows: Vec<_> = (0..n).map(|_| $make).collect();
                         let (old, new) = both(&setting, $table, rows.clone());
                         assert_eq!(new, old, "{} {:?}", $table, rows);
+                        // The length the list carries (reasons counted, not
+                        // made) is the filter's walk of the rows made.
+                        let lengths = setting
+                            .0
+                            .render_str(
+                                "{{ rows|text_length }} {{ plain|text_length }}",
+                                minijinja::context! {
+                                    rows => Value::from_serialize(Rows::from(rows.clone())),
+                                    plain => Value::from_serialize(&rows),
+                                },
+                            )
+                            .unwrap();
+                        let (carried, walked) = lengths.split_once(' ').unwrap();
+                        assert_eq!(carried, walked, "{} {:?}", $table, rows);
                     }};
                 }
                 check!("nodes", node(&mut h));
