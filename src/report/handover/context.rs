@@ -862,10 +862,13 @@ const UNIT_WORDS: &[&str] = &[
 pub fn glue_units(text: &str) -> String {
     let mut out = String::with_capacity(text.len() + 8);
     let mut copied = 0;
-    for (i, _) in text.match_indices(' ') {
-        // A byte before a space that is an ASCII digit is a whole
-        // character: every byte of a longer UTF-8 character is ≥ 0x80.
-        if i == 0 || !text.as_bytes()[i - 1].is_ascii_digit() {
+    // Byte by byte: the texts are short, where a search for each space
+    // cost more than the loop. A space byte is a whole character, and so
+    // is an ASCII digit before it: every byte of a longer UTF-8 character
+    // is ≥ 0x80.
+    let bytes = text.as_bytes();
+    for i in 1..bytes.len() {
+        if bytes[i] != b' ' || !bytes[i - 1].is_ascii_digit() {
             continue;
         }
         let rest = &text[i + 1..];
