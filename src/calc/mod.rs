@@ -42,6 +42,10 @@ use crate::job::Job;
 use crate::ratings::RatingsTable;
 use crate::units::{fixed, fixed_signed};
 
+/// From this many measurement sets on, [`derive_in`] works the sets out on
+/// every core (rayon); below it the threads' start costs more than it saves.
+const PARALLEL_SETS: usize = 16;
+
 /// Derives every figure of a job, with its reasons in English. Valve types
 /// must already be known to `ratings` (see [`crate::job::check_types`]); an
 /// unknown one is skipped with a warning rather than a panic.
@@ -56,8 +60,12 @@ pub fn derive_in(job: &Job, ratings: &RatingsTable, cat: &Catalogue) -> Findings
     let mut warnings = Vec::new();
     let mut sets = Vec::new();
     let final_index = job.final_set_index();
-    let mut matched = vec![false; job.acceptances.len()];
-    for (index, set) in job.measurements.iter().enumerate() {
+    // Each set is worked out on its own (the acceptances it matches are
+    // gathered and joined after), so a long job's sets are worked out on
+    // every core; the results are put together in the job's order, the
+    // same as one after the other.
+    let per_set = |(index, set): (usize, &crate::job::MeasurementSet)| {
+        let mut matched = vec![false; job.acceptances.len()];
         let is_final = Some(index) == final_index;
         let circuit = job.circuit_for(set);
         let mut notes = Vec::new();
@@ -135,7 +143,7 @@ pub fn derive_in(job: &Job, ratings: &RatingsTable, cat: &Catalogue) -> Findings
             cat,
         );
         accept::apply_to_set(&job.acceptances, &mut found, &mut matched);
-        warnings.extend(set_warnings(&found, cat));
+        let mut warnings = set_warnings(&found, cat);
         for n in notes {
             let subject = n.split(':').next().unwrap_or("").to_string();
             warnings.push(Warning::note(
@@ -145,6 +153,24 @@ pub fn derive_in(job: &Job, ratings: &RatingsTable, cat: &Catalogue) -> Findings
                 Status::Caution,
                 n,
             ));
+        }
+        (found, warnings, matched)
+    };
+    let worked: Vec<_> = if job.measurements.len() >= PARALLEL_SETS {
+        use rayon::prelude::*;
+        job.measurements
+            .par_iter()
+            .enumerate()
+            .map(per_set)
+            .collect()
+    } else {
+        job.measurements.iter().enumerate().map(per_set).collect()
+    };
+    let mut matched = vec![false; job.acceptances.len()];
+    for (found, set_warnings, set_matched) in worked {
+        warnings.extend(set_warnings);
+        for (m, s) in matched.iter_mut().zip(set_matched) {
+            *m |= s;
         }
         sets.push(found);
     }

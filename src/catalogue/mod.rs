@@ -13,7 +13,8 @@
 
 mod check;
 
-use std::collections::{BTreeMap, HashMap};
+use rustc_hash::FxHashMap;
+use std::collections::BTreeMap;
 use std::sync::{Arc, OnceLock};
 
 use chrono::{Datelike, NaiveDate};
@@ -68,7 +69,11 @@ struct Inner {
     bundle: FluentBundle<FluentResource>,
     /// Every message with a value, by key, with its pattern worked out
     /// once when the pattern is plain text and arguments (see [`Pattern`]).
-    patterns: HashMap<Box<str>, Pattern>,
+    /// Hashed with rustc-hash's FxHash rather than the standard SipHash:
+    /// the keys are the catalogue's own, a long job looks up some 270 a
+    /// set, and SipHash was 8 % of deriving one (docs/performance.md,
+    /// "Seventh pass").
+    patterns: FxHashMap<Box<str>, Pattern>,
 }
 
 /// A message's pattern as [`Catalogue::try_format`] uses it.
@@ -293,7 +298,8 @@ impl Catalogue {
         // Each message's pattern read from the resource as it is parsed
         // (the bundle below refuses a resource that names a message
         // twice, so these are the patterns the bundle holds).
-        let mut patterns = HashMap::with_capacity(resource.entries().count());
+        let mut patterns =
+            FxHashMap::with_capacity_and_hasher(resource.entries().count(), Default::default());
         for entry in resource.entries() {
             if let fluent_syntax::ast::Entry::Message(m) = entry
                 && let Some(pattern) = &m.value

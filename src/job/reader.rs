@@ -329,6 +329,18 @@ impl<'s> Reader<'s> {
         what: impl Into<Arg>,
     ) -> Option<Spanned<f64>> {
         let what: Arg = what.into();
+        self.quantity_with(entry, kind, || what.clone())
+    }
+
+    /// [`Reader::quantity`] with the words for what the value is made only
+    /// when a problem is reported: a long job reads some forty thousand
+    /// readings, each of which named itself in a string of its own.
+    fn quantity_with(
+        &mut self,
+        entry: &KdlEntry,
+        kind: QuantityKind,
+        what: impl Fn() -> Arg,
+    ) -> Option<Spanned<f64>> {
         let span = self.value_span(entry);
         let value = match entry.value() {
             KdlValue::Integer(i) => Ok(*i as f64),
@@ -343,7 +355,7 @@ impl<'s> Reader<'s> {
                 (
                     at,
                     Msg::new("diag-bad-value")
-                        .arg("what", what.clone())
+                        .arg("what", what())
                         .arg("problem", e.msg()),
                     Msg::new("diag-expected").arg("what", expected.noun_msg()),
                 )
@@ -351,7 +363,7 @@ impl<'s> Reader<'s> {
             other => Err((
                 span,
                 Msg::new("diag-must-be-kind")
-                    .arg("what", what.clone())
+                    .arg("what", what())
                     .arg("kind", kind.noun_msg())
                     .arg("found", describe(other)),
                 Msg::new("diag-expected").arg("what", kind.noun_msg()),
@@ -369,7 +381,7 @@ impl<'s> Reader<'s> {
                         "job::out-of-range",
                         span,
                         Msg::new("diag-out-of-range-kind")
-                            .arg("what", what)
+                            .arg("what", what())
                             .arg("written", written)
                             .arg("kind", kind.noun_msg())
                             .arg("range", kind.range_msg()),
@@ -577,7 +589,8 @@ impl<'s> Reader<'s> {
         key: &str,
         kind: QuantityKind,
     ) -> Option<Spanned<f64>> {
-        Self::prop(node, key).and_then(|e| self.quantity(e, kind, format!("`{key}`")))
+        Self::prop(node, key)
+            .and_then(|e| self.quantity_with(e, kind, || format!("`{key}`").into()))
     }
 
     pub fn opt_prop_bool(&mut self, node: &KdlNode, key: &str) -> Option<bool> {

@@ -737,15 +737,21 @@ fn fill_bar(
 /// squares, every 5 pixels, each row shifted by 2 from the one before
 /// (none when the bar is too small to hold one).
 fn dot_path(a: (i32, i32), b: (i32, i32), colour: RGBColor) -> Option<String> {
-    use std::fmt::Write as _;
     let (x0, x1) = (a.0.min(b.0), a.0.max(b.0));
     let (y0, y1) = (a.1.min(b.1), a.1.max(b.1));
+    // The numbers written straight into the path, as `write!(d, "M{x}
+    // {y}h1v1h-1z")` wrote them: a long job's charts hold millions of
+    // dots, and the formatting machinery was half of drawing its bars.
     let mut d = String::new();
     let mut y = y0 + 3;
     while y < y1 - 1 {
         let mut x = x0 + 3 + ((y - y0) / 5 % 2) * 2;
         while x < x1 - 1 {
-            let _ = write!(d, "M{x} {y}h1v1h-1z");
+            d.push('M');
+            svg_out::push_i64(&mut d, i64::from(x));
+            d.push(' ');
+            svg_out::push_i64(&mut d, i64::from(y));
+            d.push_str("h1v1h-1z");
             x += 5;
         }
         y += 5;
@@ -760,20 +766,29 @@ fn dot_path(a: (i32, i32), b: (i32, i32), colour: RGBColor) -> Option<String> {
 }
 
 /// Puts each bar's dots (in the order they were drawn) where plotters wrote
-/// its stand-in ([`DOTS_MARK`]): each stand-in is one line of the SVG.
+/// its stand-in ([`DOTS_MARK`]): each stand-in is one line of the SVG, a
+/// `<rect …>` line holding [`DOTS_MARK_FILL`]. The lines holding the mark
+/// are found by searching for it rather than by reading every line.
 fn place_dots(svg: &mut String, dots: Vec<String>) {
     if dots.is_empty() {
         return;
     }
     let mut out = String::with_capacity(svg.len() + dots.iter().map(String::len).sum::<usize>());
     let mut dots = dots.into_iter();
-    for line in svg.split_inclusive('\n') {
-        if line.starts_with("<rect ") && line.contains(DOTS_MARK_FILL) {
+    // Everything before `done` has been copied to `out`.
+    let mut done = 0;
+    let mut from = 0;
+    while let Some(at) = svg[from..].find(DOTS_MARK_FILL).map(|i| from + i) {
+        let start = svg[..at].rfind('\n').map_or(0, |i| i + 1);
+        let end = svg[at..].find('\n').map_or(svg.len(), |i| at + i + 1);
+        if svg[start..].starts_with("<rect ") {
+            out.push_str(&svg[done..start]);
             out.push_str(&dots.next().unwrap_or_default());
-        } else {
-            out.push_str(line);
+            done = end;
         }
+        from = end;
     }
+    out.push_str(&svg[done..]);
     *svg = out;
 }
 

@@ -3,12 +3,54 @@
 
 use super::kind::QuantityKind;
 
+/// Powers of ten from 10^-30 to 10^30, the edges of [`decade`]'s table.
+const DECADES: [f64; 61] = {
+    let mut p = [0.0; 61];
+    let mut i: usize = 0;
+    while i < 61 {
+        // About 10^(i - 30): only edges, each given a margin in `decade`,
+        // so the last bit does not matter.
+        let mut v = 1.0;
+        let mut k = 0;
+        let e = i.abs_diff(30);
+        while k < e {
+            v *= 10.0;
+            k += 1;
+        }
+        p[i] = if i >= 30 { v } else { 1.0 / v };
+        i += 1;
+    }
+    p
+};
+
+/// `value.abs().log10().floor() as i32`, the same number, without the
+/// logarithm for a value of 10^-30 to 10^30 that is not within a
+/// millionth of a percent of a power of ten: those are found between two
+/// edges of a table (a figure's decade was worked out three or four
+/// times for every figure printed, a twentieth of deriving a long job).
+/// Near a power of ten, where the logarithm's rounding decides, and
+/// outside the table, the logarithm is taken as before.
+fn decade(value: f64) -> i32 {
+    let a = value.abs();
+    if (DECADES[0]..DECADES[60]).contains(&a) {
+        // The edges at or below `a`: at least one.
+        let k = DECADES.partition_point(|&p| p <= a) - 1;
+        const MARGIN: f64 = 1e-8;
+        let clear_below = a > DECADES[k] * (1.0 + MARGIN);
+        let clear_above = k + 1 < DECADES.len() && a < DECADES[k + 1] * (1.0 - MARGIN);
+        if clear_below && clear_above {
+            return k as i32 - 30;
+        }
+    }
+    value.abs().log10().floor() as i32
+}
+
 /// Rounds to `sig` significant figures.
 pub fn round_sig(value: f64, sig: i32) -> f64 {
     if value == 0.0 || !value.is_finite() {
         return value;
     }
-    let magnitude = value.abs().log10().floor() as i32;
+    let magnitude = decade(value);
     let factor = 10f64.powi(sig - 1 - magnitude);
     let rounded = (value * factor).round() / factor;
     if rounded.is_finite() && factor.is_finite() && factor > 0.0 {
@@ -45,7 +87,7 @@ fn write_sig(out: &mut String, value: f64, sig: i32) {
         out.push('0');
         return;
     }
-    let magnitude = rounded.abs().log10().floor() as i32;
+    let magnitude = decade(rounded);
     if !(-12..=15).contains(&magnitude) {
         // Far outside any reading: scientific notation keeps it short.
         use std::fmt::Write as _;
@@ -237,7 +279,7 @@ pub fn format_engineering_sig(value: f64, kind: QuantityKind, sig: i32) -> Strin
     let exp = if kind == QuantityKind::Capacitance {
         if rounded.abs() >= 1e-9 { -6 } else { -12 }
     } else {
-        let magnitude = rounded.abs().log10().floor() as i32;
+        let magnitude = decade(rounded);
         (magnitude.div_euclid(3) * 3).clamp(-12, 12)
     };
     let prefix = PREFIXES
@@ -276,6 +318,71 @@ mod tests {
         assert_eq!(format_engineering(0.0, Voltage), "0 V");
         assert_eq!(format_engineering(-52.0, Voltage), "-52 V");
         assert_eq!(format_engineering(85.27, Percent), "85.3 %");
+    }
+
+    #[test]
+    fn decade_is_the_floor_of_the_logarithm() {
+        let reference = |v: f64| v.abs().log10().floor() as i32;
+        let mut x: u64 = 0x2545_f491_4f6c_dd1d;
+        let check = |v: f64| {
+            assert_eq!(decade(v), reference(v), "{v:e}");
+            assert_eq!(decade(v.next_up()), reference(v.next_up()), "{v:e} up");
+            assert_eq!(
+                decade(v.next_down()),
+                reference(v.next_down()),
+                "{v:e} down"
+            );
+        };
+        // Every power of ten the table holds and beyond it, both signs,
+        // with their neighbours and values a hair either side.
+        for e in -40..=40 {
+            let p = 10f64.powi(e);
+            for v in [
+                p,
+                p * (1.0 + 1e-8),
+                p * (1.0 - 1e-8),
+                p * (1.0 + 1e-12),
+                p * (1.0 - 1e-12),
+            ] {
+                check(v);
+                check(-v);
+            }
+            let literal: f64 = format!("1e{e}").parse().unwrap_or(p);
+            check(literal);
+        }
+        for v in [
+            0.0,
+            -0.0,
+            f64::MIN_POSITIVE,
+            f64::MAX,
+            f64::INFINITY,
+            f64::NEG_INFINITY,
+            f64::NAN,
+        ] {
+            assert_eq!(decade(v), reference(v), "{v:e}");
+        }
+        for i in 0..300_000 {
+            x ^= x << 13;
+            x ^= x >> 7;
+            x ^= x << 17;
+            let v = match i % 3 {
+                // Readings over many decades, both signs.
+                0 => {
+                    let mantissa = (x % 1_000_000) as f64 / 100_000.0 + 1.0;
+                    let exp = ((x >> 20) % 71) as i32 - 35;
+                    let sign = if x & (1 << 60) == 0 { 1.0 } else { -1.0 };
+                    sign * mantissa * 10f64.powi(exp)
+                }
+                // Rounded figures, as the formatters pass them.
+                1 => round_sig(
+                    ((x % 2_000_001) as f64 - 1e6) / 997.0,
+                    ((x >> 40) % 7) as i32 + 1,
+                ),
+                // Any bit pattern.
+                _ => f64::from_bits(x),
+            };
+            check(v);
+        }
     }
 
     #[test]

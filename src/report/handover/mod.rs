@@ -271,12 +271,21 @@ pub fn build(
     input: &HandoverInput<'_>,
     templates: &TemplateSource,
 ) -> Result<Document, HandoverError> {
+    use rayon::prelude::*;
     let mut sandbox = Sandbox::new();
+    // A long job's charts come in many parts (a few sets each), each drawn
+    // on its own: they are drawn on every core and put in the sandbox in
+    // their order, the same files as one after the other.
     let mut dissipation_charts = Vec::new();
     if let Some(chart) = plots::dissipation_chart(input.findings, input.catalogue) {
-        for (i, part) in plots::split_dissipation(&chart).into_iter().enumerate() {
+        let parts = plots::split_dissipation(&chart);
+        let svgs = parts
+            .par_iter()
+            .map(|part| plots::dissipation_svg(&part.chart))
+            .collect::<Result<Vec<_>, _>>()?;
+        for (i, (part, svg)) in parts.into_iter().zip(svgs).enumerate() {
             let path = chart_part_path(DISSIPATION_PLOT, i);
-            sandbox.insert(&path, plots::dissipation_svg(&part.chart)?)?;
+            sandbox.insert(&path, svg)?;
             dissipation_charts.push(ChartFile {
                 path,
                 part: part.part,
@@ -285,9 +294,14 @@ pub fn build(
     }
     let mut supply_charts = Vec::new();
     if let Some(chart) = plots::supply_chart(input.findings, input.catalogue) {
-        for (i, part) in plots::split_supply(&chart).into_iter().enumerate() {
+        let parts = plots::split_supply(&chart);
+        let svgs = parts
+            .par_iter()
+            .map(|part| plots::supply_svg(&part.chart))
+            .collect::<Result<Vec<_>, _>>()?;
+        for (i, (part, svg)) in parts.into_iter().zip(svgs).enumerate() {
             let path = chart_part_path(SUPPLY_PLOT, i);
-            sandbox.insert(&path, plots::supply_svg(&part.chart)?)?;
+            sandbox.insert(&path, svg)?;
             supply_charts.push(ChartFile {
                 path,
                 part: part.part,

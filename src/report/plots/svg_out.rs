@@ -77,7 +77,7 @@ fn push_i32(buf: &mut String, n: i32) {
 }
 
 /// `n` in decimal, as `format!("{n}")` writes it.
-fn push_i64(buf: &mut String, n: i64) {
+pub(super) fn push_i64(buf: &mut String, n: i64) {
     let mut digits = [0u8; 20];
     let mut at = digits.len();
     let mut m = n.unsigned_abs();
@@ -92,8 +92,9 @@ fn push_i64(buf: &mut String, n: i64) {
     if n < 0 {
         buf.push('-');
     }
-    // ASCII digits only.
-    buf.push_str(std::str::from_utf8(&digits[at..]).unwrap_or_default());
+    // ASCII digits, each one character (checking them as UTF-8 text cost
+    // more than writing them).
+    buf.extend(digits[at..].iter().map(|&d| char::from(d)));
 }
 
 /// `#RRGGBB` in capitals, as plotters-svg writes a colour.
