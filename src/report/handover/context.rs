@@ -883,6 +883,10 @@ pub fn glue_units(text: &str) -> String {
     out
 }
 
+/// From this many measurement sets on, the sets' contexts are made in
+/// parallel (see docs/performance.md, "Seventh pass").
+const PARALLEL_SETS: usize = 32;
+
 /// Builds the context for `job` and its findings.
 pub fn build_context(
     job: &Job,
@@ -908,20 +912,24 @@ pub fn build_context(
         high_line: volts(m.high_line_volts),
         design: m.design_volts.map(volts),
     };
-    let sets: Vec<SetContext> = findings
-        .sets
-        .iter()
-        .enumerate()
-        .map(|(i, set)| {
-            // The sets with a warm-up chart, listed in set order.
-            let plot = inputs
-                .warm_up_plots
-                .binary_search(&i)
-                .is_ok()
-                .then(|| warm_up_plot(i));
-            set_context(findings, set, plot, cat)
-        })
-        .collect();
+    let one_set = |(i, set): (usize, &SetFindings)| {
+        // The sets with a warm-up chart, listed in set order.
+        let plot = inputs
+            .warm_up_plots
+            .binary_search(&i)
+            .is_ok()
+            .then(|| warm_up_plot(i));
+        set_context(findings, set, plot, cat)
+    };
+    // Each set's context depends on the findings alone: a long job's are
+    // made on every core (in the order of the sets, as before); a short
+    // job's on this thread, where handing them out would cost more.
+    let sets: Vec<SetContext> = if findings.sets.len() >= PARALLEL_SETS {
+        use rayon::prelude::*;
+        findings.sets.par_iter().enumerate().map(one_set).collect()
+    } else {
+        findings.sets.iter().enumerate().map(one_set).collect()
+    };
     let mut authors: Vec<String> = job.info.technician.iter().cloned().collect();
     if !inputs.shop.neutral {
         authors.push(inputs.shop.name.clone());
