@@ -10,10 +10,14 @@
 //! `src/typeset/fonts.rs`), which every render used to build at run time.
 //!
 //! It also works out the digest of everything else that decides what the
-//! program prints (its sources, templates, ratings table, manifest and
-//! lock file), `AMPREPORT_PROGRAM_DIGEST`, which the content key of an
+//! program prints (its sources, templates, ratings table, message
+//! catalogues, manifest and lock file), `AMPREPORT_PROGRAM_DIGEST`, which the content key of an
 //! incremental render uses to tell one build of ampreport from another
 //! without reading the binary (see `src/cli/content_key.rs`).
+//!
+//! And it cuts the built-in message catalogues into parts by message group
+//! (`$OUT_DIR/{lang}-{part}.ftl`), which `src/catalogue/mod.rs` parses
+//! only when a message of that part is said.
 
 use std::path::Path;
 
@@ -51,13 +55,52 @@ fn main() {
     println!("cargo:rustc-env=AMPREPORT_FONTS_DIGEST={hex}");
     font_coverage(dir, &names);
     program_digest();
+    catalogue_parts();
 }
 
-/// SHA-256 over every file under `src/`, `templates/` and `ratings/` and
+/// The built-in catalogues (`messages/en.ftl`, `messages/de.ftl`) cut into
+/// their parts by message group (`$OUT_DIR/{lang}-{part}.ftl`, read by
+/// `src/catalogue/mod.rs`): the diagnostics (`diag-…`), the terminal's
+/// messages (`cli-…`) and the rest, so a run parses a part only when it
+/// says one of its messages. Comment lines are left out (they end any
+/// pattern before them, so leaving them out changes no message); every
+/// other line goes with the message or term it belongs to.
+fn catalogue_parts() {
+    let out = std::path::PathBuf::from(std::env::var("OUT_DIR").expect("cargo sets OUT_DIR"));
+    for lang in ["en", "de"] {
+        let path = format!("messages/{lang}.ftl");
+        println!("cargo:rerun-if-changed={path}");
+        let text = std::fs::read_to_string(&path).expect("a built-in catalogue is readable");
+        let mut parts = [String::new(), String::new(), String::new()];
+        let mut current = 0;
+        for line in text.split_inclusive('\n') {
+            if line.starts_with('#') {
+                continue;
+            }
+            if line.starts_with(|c: char| c.is_ascii_alphabetic() || c == '-') {
+                current = if line.starts_with("diag-") {
+                    1
+                } else if line.starts_with("cli-") {
+                    2
+                } else {
+                    0
+                };
+            }
+            parts[current].push_str(line);
+        }
+        for (part, name) in parts.iter().zip(["rest", "diag", "cli"]) {
+            std::fs::write(out.join(format!("{lang}-{name}.ftl")), part)
+                .expect("OUT_DIR is writable");
+        }
+    }
+}
+
+/// SHA-256 over every file under `src/`, `templates/`, `ratings/` and
+/// `messages/` and
 /// `Cargo.toml`, `Cargo.lock` and `build.rs`, by path, in path order.
 fn program_digest() {
     let mut files = Vec::new();
-    for dir in ["src", "templates", "ratings"] {
+    for dir in ["src", "templates", "ratings", "messages"] {
         println!("cargo:rerun-if-changed={dir}");
         collect(Path::new(dir), &mut files);
     }

@@ -66,6 +66,64 @@ struct Inner {
     language: String,
     /// Where the messages came from, for messages ("built-in", a path).
     origin: String,
+    /// The messages, in parts: a translation file is one part, read when
+    /// the catalogue is made; a built-in catalogue is cut into its
+    /// diagnostics, its terminal messages and the rest at build time
+    /// ([`BUILT_IN_PARTS`]), and each part is parsed the first time one
+    /// of its messages is asked for (a render says none of the
+    /// diagnostics, and Fluent's parse of them was a seventh of its own
+    /// instructions). No message of a built-in catalogue refers to
+    /// another message or term (a test holds them to that), so a part
+    /// says its messages alone exactly as the whole catalogue would.
+    parts: Parts,
+}
+
+/// The messages of a catalogue, whole or by part. (One lives in each
+/// catalogue's `Arc`, so the variants' sizes do not matter.)
+#[allow(clippy::large_enum_variant)]
+enum Parts {
+    /// A translation file: every message in one bundle.
+    Whole(Part),
+    /// A built-in catalogue, each part built on first use.
+    BuiltIn {
+        language: &'static str,
+        rest: OnceLock<Part>,
+        diag: OnceLock<Part>,
+        cli: OnceLock<Part>,
+        texts: &'static BuiltInParts,
+    },
+}
+
+/// A built-in catalogue's text cut into parts by `build.rs`: the rest,
+/// the diagnostics (`diag-…`) and the terminal's messages (`cli-…`).
+pub(crate) struct BuiltInParts {
+    pub(crate) rest: &'static str,
+    pub(crate) diag: &'static str,
+    pub(crate) cli: &'static str,
+}
+
+/// The built-in catalogues by language tag, in parts.
+pub(crate) const BUILT_IN_PARTS: &[(&str, BuiltInParts)] = &[
+    (
+        "en",
+        BuiltInParts {
+            rest: include_str!(concat!(env!("OUT_DIR"), "/en-rest.ftl")),
+            diag: include_str!(concat!(env!("OUT_DIR"), "/en-diag.ftl")),
+            cli: include_str!(concat!(env!("OUT_DIR"), "/en-cli.ftl")),
+        },
+    ),
+    (
+        "de",
+        BuiltInParts {
+            rest: include_str!(concat!(env!("OUT_DIR"), "/de-rest.ftl")),
+            diag: include_str!(concat!(env!("OUT_DIR"), "/de-diag.ftl")),
+            cli: include_str!(concat!(env!("OUT_DIR"), "/de-cli.ftl")),
+        },
+    ),
+];
+
+/// One bundle of messages with their patterns.
+struct Part {
     bundle: FluentBundle<FluentResource>,
     /// Every message with a value, by key, with its pattern worked out
     /// once when the pattern is plain text and arguments (see [`Pattern`]).
@@ -74,6 +132,66 @@ struct Inner {
     /// set, and SipHash was 8 % of deriving one (docs/performance.md,
     /// "Seventh pass").
     patterns: FxHashMap<Box<str>, Pattern>,
+}
+
+impl Part {
+    /// The part for `text`, and whether Fluent found no problem in it
+    /// (else the part holds the messages it could read, which a built-in
+    /// part read on first use keeps).
+    fn build(language: &str, text: &str) -> (Part, bool) {
+        let (resource, clean) = match FluentResource::try_new(text.to_owned()) {
+            Ok(resource) => (resource, true),
+            Err((resource, _)) => (resource, false),
+        };
+        // Each message's pattern read from the resource as it is parsed
+        // (the bundle below refuses a resource that names a message
+        // twice, so these are the patterns the bundle holds).
+        let mut patterns =
+            FxHashMap::with_capacity_and_hasher(resource.entries().count(), Default::default());
+        for entry in resource.entries() {
+            if let fluent_syntax::ast::Entry::Message(m) = entry
+                && let Some(pattern) = &m.value
+            {
+                let pattern = plain_pattern(pattern).map_or(Pattern::Fluent, Pattern::Plain);
+                patterns.insert(Box::from(m.id.name), pattern);
+            }
+        }
+        let id: unic_langid::LanguageIdentifier = language.parse().unwrap_or_default();
+        let mut bundle = FluentBundle::new_concurrent(vec![id]);
+        // No Unicode isolation marks around arguments: the text goes to a
+        // terminal, JSON and a PDF, where they would show as stray bytes.
+        bundle.set_use_isolating(false);
+        let added = bundle.add_resource(resource).is_ok();
+        let part = Part { bundle, patterns };
+        (part, clean && added)
+    }
+}
+
+impl Inner {
+    /// The part that holds `key` (built now if it was not yet).
+    fn part(&self, key: &str) -> &Part {
+        match &self.parts {
+            Parts::Whole(part) => part,
+            Parts::BuiltIn {
+                language,
+                rest,
+                diag,
+                cli,
+                texts,
+            } => {
+                // The group is the key's first word, as `build.rs` cut them.
+                let (cell, text) = match key.split_once('-').map(|(group, _)| group) {
+                    Some("diag") => (diag, texts.diag),
+                    Some("cli") => (cli, texts.cli),
+                    _ => (rest, texts.rest),
+                };
+                // A built-in part parses without a problem (tested);
+                // were it not so, the messages Fluent could read are
+                // used and the others said as missing.
+                cell.get_or_init(|| Part::build(language, text).0)
+            }
+        }
+    }
 }
 
 /// A message's pattern as [`Catalogue::try_format`] uses it.
@@ -261,10 +379,8 @@ impl Catalogue {
     /// The built-in English catalogue.
     pub fn english() -> &'static Catalogue {
         static ENGLISH_CATALOGUE: OnceLock<Catalogue> = OnceLock::new();
-        ENGLISH_CATALOGUE.get_or_init(|| {
-            Catalogue::build("en", "built-in", ENGLISH)
-                .expect("the built-in English catalogue parses")
-        })
+        ENGLISH_CATALOGUE
+            .get_or_init(|| Catalogue::built_in_parts("en").expect("English is built in, in parts"))
     }
 
     /// A built-in catalogue by language tag ("en", "de"; case and region
@@ -274,8 +390,7 @@ impl Catalogue {
         if primary == "en" {
             return Some(Catalogue::english().clone());
         }
-        let (tag, text) = BUILT_IN.iter().find(|(tag, _)| *tag == primary)?;
-        Catalogue::build(tag, "built-in", text).ok()
+        Catalogue::built_in_parts(&primary)
     }
 
     /// A catalogue from a translation file's text, checked against English
@@ -294,32 +409,33 @@ impl Catalogue {
     }
 
     fn build(language: &str, origin: &str, text: &str) -> Result<Catalogue, ()> {
-        let resource = FluentResource::try_new(text.to_owned()).map_err(|_| ())?;
-        // Each message's pattern read from the resource as it is parsed
-        // (the bundle below refuses a resource that names a message
-        // twice, so these are the patterns the bundle holds).
-        let mut patterns =
-            FxHashMap::with_capacity_and_hasher(resource.entries().count(), Default::default());
-        for entry in resource.entries() {
-            if let fluent_syntax::ast::Entry::Message(m) = entry
-                && let Some(pattern) = &m.value
-            {
-                let pattern = plain_pattern(pattern).map_or(Pattern::Fluent, Pattern::Plain);
-                patterns.insert(Box::from(m.id.name), pattern);
-            }
+        let (part, clean) = Part::build(language, text);
+        if !clean {
+            return Err(());
         }
-        let id: unic_langid::LanguageIdentifier = language.parse().unwrap_or_default();
-        let mut bundle = FluentBundle::new_concurrent(vec![id]);
-        // No Unicode isolation marks around arguments: the text goes to a
-        // terminal, JSON and a PDF, where they would show as stray bytes.
-        bundle.set_use_isolating(false);
-        bundle.add_resource(resource).map_err(|_| ())?;
         Ok(Catalogue {
             inner: Arc::new(Inner {
                 language: language.to_owned(),
                 origin: origin.to_owned(),
-                bundle,
-                patterns,
+                parts: Parts::Whole(part),
+            }),
+        })
+    }
+
+    /// A built-in catalogue by its exact tag, its parts built on first use.
+    fn built_in_parts(tag: &str) -> Option<Catalogue> {
+        let (language, texts) = BUILT_IN_PARTS.iter().find(|(t, _)| *t == tag)?;
+        Some(Catalogue {
+            inner: Arc::new(Inner {
+                language: (*language).to_owned(),
+                origin: "built-in".to_owned(),
+                parts: Parts::BuiltIn {
+                    language,
+                    rest: OnceLock::new(),
+                    diag: OnceLock::new(),
+                    cli: OnceLock::new(),
+                    texts,
+                },
             }),
         })
     }
@@ -336,7 +452,7 @@ impl Catalogue {
 
     /// Whether the catalogue has a message for `key`.
     pub fn has(&self, key: &str) -> bool {
-        self.inner.bundle.has_message(key)
+        self.inner.part(key).bundle.has_message(key)
     }
 
     /// The message `key` without arguments.
@@ -362,12 +478,13 @@ impl Catalogue {
     /// The message `key` with its arguments, or `None` when there is no
     /// such message.
     pub fn try_format(&self, key: &str, args: &[(&str, Arg)]) -> Option<String> {
-        if let Pattern::Plain(pieces) = self.inner.patterns.get(key)?
+        let part = self.inner.part(key);
+        if let Pattern::Plain(pieces) = part.patterns.get(key)?
             && let Some(words) = self.say_plain(pieces, args)
         {
             return Some(words);
         }
-        self.fluent_format(key, args)
+        self.fluent_format(part, key, args)
     }
 
     /// A plain pattern's words, or `None` when an argument it names is
@@ -408,8 +525,8 @@ impl Catalogue {
 
     /// The message `key` said by Fluent, or `None` when there is no such
     /// message.
-    fn fluent_format(&self, key: &str, args: &[(&str, Arg)]) -> Option<String> {
-        let bundle = &self.inner.bundle;
+    fn fluent_format(&self, part: &Part, key: &str, args: &[(&str, Arg)]) -> Option<String> {
+        let bundle = &part.bundle;
         let pattern = bundle.get_message(key)?.value()?;
         let mut fargs = FluentArgs::new();
         for (name, value) in args {

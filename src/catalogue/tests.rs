@@ -348,6 +348,7 @@ fn a_translation_lacking_a_diagnostic_is_refused_naming_it() {
 fn argument_names(catalogue: &Catalogue, key: &str) -> Vec<String> {
     let pattern = catalogue
         .inner
+        .part(key)
         .bundle
         .get_message(key)
         .and_then(|m| m.value())
@@ -404,9 +405,13 @@ fn plain_patterns_say_what_fluent_says() {
         "  ",
     ];
     let mut plain = 0;
-    for (tag, _) in BUILT_IN {
+    for (tag, text) in BUILT_IN {
         let catalogue = Catalogue::built_in(tag).unwrap();
-        for (key, pattern) in &catalogue.inner.patterns {
+        for key in message_lines(text).keys() {
+            let key = key.as_str();
+            let Some(pattern) = catalogue.inner.part(key).patterns.get(key) else {
+                continue;
+            };
             if matches!(pattern, Pattern::Plain(_)) {
                 plain += 1;
             }
@@ -472,7 +477,7 @@ fn plain_patterns_say_what_fluent_says() {
             for args in &cases {
                 assert_eq!(
                     catalogue.try_format(key, args),
-                    catalogue.fluent_format(key, args),
+                    catalogue.fluent_format(catalogue.inner.part(key), key, args),
                     "{tag} {key} {args:?}"
                 );
             }
@@ -480,4 +485,88 @@ fn plain_patterns_say_what_fluent_says() {
     }
     // Most messages are plain: the fast path is the one taken.
     assert!(plain > 500, "{plain} plain patterns");
+}
+
+/// A built-in catalogue read in parts (cut by `build.rs`, each parsed on
+/// first use) says every message exactly as the whole file read at once
+/// does: with no arguments, with each argument as text, as a number and as
+/// a message, and with one left out; and each part parses without a problem.
+#[test]
+fn built_in_parts_say_what_the_whole_catalogue_says() {
+    for ((tag, text), (part_tag, parts)) in BUILT_IN.iter().zip(BUILT_IN_PARTS) {
+        assert_eq!(tag, part_tag);
+        for part in [parts.rest, parts.diag, parts.cli] {
+            assert!(Part::build(tag, part).1, "{tag}: a part does not parse");
+        }
+        let whole = Catalogue::build(tag, "built-in", text).expect("the whole file parses");
+        let in_parts = Catalogue::built_in(tag).unwrap();
+        let keys = message_lines(text);
+        assert!(keys.len() > 1000, "{tag}: {} keys", keys.len());
+        let mut diag = 0;
+        for key in keys.keys() {
+            let key = key.as_str();
+            diag += usize::from(
+                key.split_once('-')
+                    .is_some_and(|(group, _)| group == "diag"),
+            );
+            assert_eq!(whole.has(key), in_parts.has(key), "{tag} {key}");
+            let names = if whole.inner.part(key).patterns.contains_key(key) {
+                argument_names(&whole, key)
+            } else {
+                Vec::new()
+            };
+            let cases: Vec<Vec<(&str, Arg)>> = vec![
+                Vec::new(),
+                names
+                    .iter()
+                    .map(|n| (n.as_str(), Arg::from("x y")))
+                    .collect(),
+                names
+                    .iter()
+                    .map(|n| (n.as_str(), Arg::from(1usize)))
+                    .collect(),
+                names.iter().map(|n| (n.as_str(), Arg::from(2.5))).collect(),
+                names
+                    .iter()
+                    .map(|n| {
+                        (
+                            n.as_str(),
+                            Arg::from(Msg::new("list-and").arg("first", "a").arg("last", "b")),
+                        )
+                    })
+                    .collect(),
+                names
+                    .iter()
+                    .skip(1)
+                    .map(|n| (n.as_str(), Arg::from("z")))
+                    .collect(),
+            ];
+            for args in &cases {
+                assert_eq!(
+                    whole.try_format(key, args),
+                    in_parts.try_format(key, args),
+                    "{tag} {key} {args:?}"
+                );
+            }
+        }
+        assert!(diag > 300, "{tag}: {diag} diagnostics");
+    }
+}
+
+/// A render says none of the diagnostics: the catalogue's parts are read
+/// only when one of their messages is said.
+#[test]
+fn a_part_is_read_only_when_one_of_its_messages_is_said() {
+    let catalogue = Catalogue::built_in_parts("en").unwrap();
+    let Parts::BuiltIn {
+        rest, diag, cli, ..
+    } = &catalogue.inner.parts
+    else {
+        panic!("a built-in catalogue is in parts");
+    };
+    assert!(rest.get().is_none() && diag.get().is_none() && cli.get().is_none());
+    assert_eq!(catalogue.text("month-3"), "March");
+    assert!(rest.get().is_some() && diag.get().is_none() && cli.get().is_none());
+    assert!(catalogue.has("cli-wrote"));
+    assert!(cli.get().is_some() && diag.get().is_none());
 }

@@ -143,11 +143,13 @@ fn push_scaled(out: &mut String, mut n: u64, decimals: usize) {
     at = at.min(digits.len() - (decimals + 1));
     let digits = &digits[at..];
     let (whole, fraction) = digits.split_at(digits.len() - decimals);
-    // ASCII digits only.
-    out.push_str(std::str::from_utf8(whole).unwrap_or_default());
+    // ASCII digits, each one character (checking them as UTF-8 text cost
+    // more than writing them).
+    out.reserve(digits.len() + 1);
+    out.extend(whole.iter().map(|&d| char::from(d)));
     if decimals > 0 {
         out.push('.');
-        out.push_str(std::str::from_utf8(fraction).unwrap_or_default());
+        out.extend(fraction.iter().map(|&d| char::from(d)));
     }
 }
 
