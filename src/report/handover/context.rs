@@ -862,10 +862,13 @@ const UNIT_WORDS: &[&str] = &[
 pub fn glue_units(text: &str) -> String {
     let mut out = String::with_capacity(text.len() + 8);
     let mut copied = 0;
-    for (i, _) in text.match_indices(' ') {
-        // A byte before a space that is an ASCII digit is a whole
-        // character: every byte of a longer UTF-8 character is ≥ 0x80.
-        if i == 0 || !text.as_bytes()[i - 1].is_ascii_digit() {
+    // Byte by byte: the texts are short, where a search for each space
+    // cost more than the loop. A space byte is a whole character, and so
+    // is an ASCII digit before it: every byte of a longer UTF-8 character
+    // is ≥ 0x80.
+    let bytes = text.as_bytes();
+    for i in 1..bytes.len() {
+        if bytes[i] != b' ' || !bytes[i - 1].is_ascii_digit() {
             continue;
         }
         let rest = &text[i + 1..];
@@ -879,6 +882,10 @@ pub fn glue_units(text: &str) -> String {
     out.push_str(&text[copied..]);
     out
 }
+
+/// From this many measurement sets on, the sets' contexts are made in
+/// parallel (see docs/performance.md, "Seventh pass").
+const PARALLEL_SETS: usize = 32;
 
 /// Builds the context for `job` and its findings.
 pub fn build_context(
@@ -905,20 +912,24 @@ pub fn build_context(
         high_line: volts(m.high_line_volts),
         design: m.design_volts.map(volts),
     };
-    let sets: Vec<SetContext> = findings
-        .sets
-        .iter()
-        .enumerate()
-        .map(|(i, set)| {
-            // The sets with a warm-up chart, listed in set order.
-            let plot = inputs
-                .warm_up_plots
-                .binary_search(&i)
-                .is_ok()
-                .then(|| warm_up_plot(i));
-            set_context(findings, set, plot, cat)
-        })
-        .collect();
+    let one_set = |(i, set): (usize, &SetFindings)| {
+        // The sets with a warm-up chart, listed in set order.
+        let plot = inputs
+            .warm_up_plots
+            .binary_search(&i)
+            .is_ok()
+            .then(|| warm_up_plot(i));
+        set_context(findings, set, plot, cat)
+    };
+    // Each set's context depends on the findings alone: a long job's are
+    // made on every core (in the order of the sets, as before); a short
+    // job's on this thread, where handing them out would cost more.
+    let sets: Vec<SetContext> = if findings.sets.len() >= PARALLEL_SETS {
+        use rayon::prelude::*;
+        findings.sets.par_iter().enumerate().map(one_set).collect()
+    } else {
+        findings.sets.iter().enumerate().map(one_set).collect()
+    };
     let mut authors: Vec<String> = job.info.technician.iter().cloned().collect();
     if !inputs.shop.neutral {
         authors.push(inputs.shop.name.clone());
