@@ -3,30 +3,31 @@
 //! (charts, context, template fill) and the terminal summary.
 //!
 //! `cargo run --release --example phases -- JOB [ROUNDS]` prints one line
-//! per round with the processor time of this thread in each phase
-//! (`CLOCK_THREAD_CPUTIME_ID`, which depends far less on what else the
+//! per round with the processor time of the whole process in each phase
+//! (`CLOCK_PROCESS_CPUTIME_ID`: every thread, so the sets derived and drawn
+//! on the other core count too; it depends far less on what else the
 //! shared machine runs than the wall clock), then the medians. Keep a copy
 //! of the binary before a change and run both alternately to compare.
 use ampreport::report::handover::{self, HandoverInput};
 use ampreport::typeset::TemplateSource;
 use std::time::Duration;
 
-/// Processor time this thread has used.
-fn thread_cpu() -> Duration {
+/// Processor time all threads of this process have used.
+fn process_cpu() -> Duration {
     // SAFETY: an all-zero timespec is a valid value for clock_gettime to
     // fill in, and the pointer is to a live local.
     let mut t: libc::timespec = unsafe { std::mem::zeroed() };
     // SAFETY: as above.
-    let rc = unsafe { libc::clock_gettime(libc::CLOCK_THREAD_CPUTIME_ID, &mut t) };
+    let rc = unsafe { libc::clock_gettime(libc::CLOCK_PROCESS_CPUTIME_ID, &mut t) };
     assert_eq!(rc, 0, "clock_gettime");
     Duration::new(t.tv_sec as u64, t.tv_nsec as u32)
 }
 
 /// Processor milliseconds of one call of `f`, and its result.
 fn cpu<T>(f: impl FnOnce() -> T) -> (f64, T) {
-    let start = thread_cpu();
+    let start = process_cpu();
     let out = f();
-    ((thread_cpu() - start).as_secs_f64() * 1e3, out)
+    ((process_cpu() - start).as_secs_f64() * 1e3, out)
 }
 
 const PHASES: [&str; 8] = [
