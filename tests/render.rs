@@ -783,15 +783,25 @@ fn rendering_twice_and_from_emitted_source_gives_identical_bytes() {
     assert!(src.join("fonts-cjk").join("wqy-microhei.ttc").is_file());
     assert!(!src.join("fonts").join("wqy-microhei.ttc").exists());
     let c = dir.path().join("c.pdf");
+    assert!(compile_emitted(&src, &["fonts"], &c).success());
+    assert_eq!(
+        bytes,
+        std::fs::read(&c).unwrap(),
+        "typst on the emitted source gives another PDF"
+    );
+}
+
+/// typst run by hand on an emitted source folder `src`, with the font
+/// folders `fonts` (names inside `src`) and the flags a render of the demo
+/// jobs passes, writing `out`.
+fn compile_emitted(src: &Path, fonts: &[&str], out: &Path) -> std::process::ExitStatus {
     let root = src.to_str().unwrap();
-    let status = Command::new("typst")
-        .args([
-            "compile",
-            "--root",
-            root,
-            "--font-path",
-            &format!("{root}/fonts"),
-        ])
+    let mut typst = Command::new("typst");
+    typst.args(["compile", "--root", root]);
+    for folder in fonts {
+        typst.args(["--font-path", &format!("{root}/{folder}")]);
+    }
+    typst
         .args(["--ignore-system-fonts", "--ignore-embedded-fonts"])
         // 2026-11-20, the job's completion date, at 00:00 UTC.
         .args([
@@ -801,22 +811,11 @@ fn rendering_twice_and_from_emitted_source_gives_identical_bytes() {
             "a-2b",
         ])
         .arg(src.join("main.typ"))
-        .arg(&c)
+        .arg(out)
         .status()
-        .unwrap();
-    assert!(status.success());
-    assert_eq!(
-        bytes,
-        std::fs::read(&c).unwrap(),
-        "typst on the emitted source gives another PDF"
-    );
+        .unwrap()
 }
 
-/// typst's own threads (`--jobs`, which a batch sets for each of its
-/// typst processes; a job alone leaves typst its default) must not change
-/// a byte of the PDF: the content key leaves them out. Each demo job and
-/// a generated job of many measurement sets is rendered alone, then its
-/// emitted source compiled with typst held to one and to two threads.
 /// Whether the PDF embeds the CJK face (its name is in the font's
 /// dictionary as typed).
 fn embeds_cjk_face(pdf: &[u8]) -> bool {
@@ -849,25 +848,8 @@ fn the_cjk_font_is_handed_over_only_when_a_document_needs_it_and_the_pdf_is_the_
         main.replacen(&lean, &ampreport::typeset::font_rules(), 1),
     )
     .unwrap();
-    let root = src.to_str().unwrap();
     let full = dir.path().join("full.pdf");
-    let status = Command::new("typst")
-        .args(["compile", "--root", root])
-        .args(["--font-path", &format!("{root}/fonts")])
-        .args(["--font-path", &format!("{root}/fonts-cjk")])
-        .args(["--ignore-system-fonts", "--ignore-embedded-fonts"])
-        // 2026-11-20, the job's completion date, at 00:00 UTC.
-        .args([
-            "--creation-timestamp",
-            "1795132800",
-            "--pdf-standard",
-            "a-2b",
-        ])
-        .arg(src.join("main.typ"))
-        .arg(&full)
-        .status()
-        .unwrap();
-    assert!(status.success());
+    assert!(compile_emitted(&src, &["fonts", "fonts-cjk"], &full).success());
     assert!(
         bytes == std::fs::read(&full).unwrap(),
         "the PDF without the CJK font differs from the one with it"
@@ -900,6 +882,11 @@ fn the_cjk_font_is_handed_over_only_when_a_document_needs_it_and_the_pdf_is_the_
     }
 }
 
+/// typst's own threads (`--jobs`, which a batch sets for each of its
+/// typst processes; a job alone leaves typst its default) must not change
+/// a byte of the PDF: the content key leaves them out. Each demo job and
+/// a generated job of many measurement sets is rendered alone, then its
+/// emitted source compiled with typst held to one and to two threads.
 #[test]
 fn typst_threads_do_not_change_the_pdf() {
     if typst_version().is_none() {
