@@ -28,18 +28,17 @@ pub struct RatingsTable {
 }
 
 impl RatingsTable {
-    /// The table built into the program. The embedded file is parsed once
-    /// per process; later calls get a copy of that table.
-    ///
-    /// # Panics
-    ///
-    /// Only if the embedded ratings file is broken, which the tests rule out.
+    /// The table built into the program: the rows of the embedded file,
+    /// written out as Rust values (`builtin_rows.rs`, held to what
+    /// [`RatingsTable::from_kdl_text`] reads from the file by
+    /// `builtin_rows_tests.rs`), so that a run does not parse the file
+    /// (a ninth of a render's own instructions). Made once per process;
+    /// later calls get a copy of that table.
     pub fn builtin() -> RatingsTable {
         static BUILTIN: OnceLock<RatingsTable> = OnceLock::new();
         BUILTIN
             .get_or_init(|| {
-                let rows = RatingsTable::from_kdl_text(BUILTIN_NAME, BUILTIN_TEXT, RatingOrigin::Builtin)
-                    .expect("the built-in ratings file ratings/valves.kdl must parse (the ratings tests check it)");
+                let rows = super::builtin_rows::rows();
                 let mut table = RatingsTable {
                     rows,
                     index: HashMap::new(),
