@@ -11,10 +11,13 @@ use super::diagnostic::{RatingProblem, RatingsFileError, UnreadableRatingsFile};
 use super::draft::{Draft, check_row};
 use super::rating::{Rating, RatingOrigin};
 
-/// The ratings file compiled into the program.
+/// The built-in ratings file, which the rows the program is built with
+/// (`builtin_rows.rs`) are held to.
+#[cfg(test)]
 pub const BUILTIN_TEXT: &str = include_str!("../../ratings/valves.kdl");
 
 /// The name the built-in file is reported under.
+#[cfg(test)]
 pub const BUILTIN_NAME: &str = "ratings/valves.kdl";
 
 /// Every known valve type, listed by class then name, and found by any of
