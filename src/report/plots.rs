@@ -693,25 +693,16 @@ fn bar_pattern(k: usize) -> (RGBColor, Overlay) {
     (FILLS[i % FILLS.len()], overlay)
 }
 
-/// The fill of a stand-in that marks, while plotters draws, where a bar's
-/// dots go: a colour no chart uses. [`place_dots`] replaces each stand-in
-/// by its bar's dots.
-const DOTS_MARK: RGBColor = RGBColor(1, 2, 3);
-
-/// The SVG attribute plotters writes for [`DOTS_MARK`].
-const DOTS_MARK_FILL: &str = "fill=\"#010203\"";
-
 /// Draws a bar's fill with its overlay. A dotted bar's dots are one SVG
-/// path, pushed onto `dots` (plotters' SVG writer has no paths of many
-/// parts, and one `<rect>` per dot made the charts several times larger),
-/// with a stand-in drawn where it goes.
+/// path ([`DotPath`]: plotters' SVG writer has no paths of many parts, and
+/// one `<rect>` per dot made the charts several times larger), written
+/// right after the bar's fill.
 fn fill_bar(
     area: &DrawingArea<SvgOut<'_>, Shift>,
     a: (i32, i32),
     b: (i32, i32),
     k: usize,
     spacing: i32,
-    dots: &mut Vec<String>,
 ) -> Result<(), String> {
     let (fill, overlay) = bar_pattern(k);
     area.draw(&Rectangle::new([a, b], fill.filled()))
@@ -719,12 +710,12 @@ fn fill_bar(
     match overlay {
         Overlay::Hatch => hatch(area, a, b, spacing)?,
         Overlay::Dots => {
-            let dot = if fill.0 < 128 { PAPER } else { INK };
-            if let Some(path) = dot_path(a, b, dot) {
-                dots.push(path);
-                area.draw(&Rectangle::new([a, a], DOTS_MARK.filled()))
-                    .map_err(|e| e.to_string())?;
-            }
+            let colour = if fill.0 < 128 { PAPER } else { INK };
+            area.draw(&DotPath {
+                corners: [a, b],
+                colour,
+            })
+            .map_err(|e| e.to_string())?;
         }
         Overlay::Solid => {}
     }
@@ -733,63 +724,68 @@ fn fill_bar(
     Ok(())
 }
 
-/// The dots over a bar from `a` to `b` as one SVG path of 1-pixel
+/// The dots over a bar between two corners, as one SVG `<path>` element
+/// written straight into the chart's document ([`push_dot_path`]): an
+/// element of plotters' for the chart's own writer only.
+struct DotPath {
+    corners: [(i32, i32); 2],
+    colour: RGBColor,
+}
+
+impl<'a> plotters::element::PointCollection<'a, (i32, i32)> for &'a DotPath {
+    type Point = &'a (i32, i32);
+    type IntoIter = &'a [(i32, i32)];
+    fn point_iter(self) -> &'a [(i32, i32)] {
+        &self.corners
+    }
+}
+
+impl plotters::element::Drawable<SvgOut<'_>> for DotPath {
+    fn draw<I: Iterator<Item = (i32, i32)>>(
+        &self,
+        mut corners: I,
+        backend: &mut SvgOut<'_>,
+        _: (u32, u32),
+    ) -> Result<(), plotters_backend::DrawingErrorKind<svg_out::Error>> {
+        if let (Some(a), Some(b)) = (corners.next(), corners.next()) {
+            push_dot_path(backend.document(), a, b, self.colour);
+        }
+        Ok(())
+    }
+}
+
+/// Writes the dots over a bar from `a` to `b` as one SVG path of 1-pixel
 /// squares, every 5 pixels, each row shifted by 2 from the one before
-/// (none when the bar is too small to hold one).
-fn dot_path(a: (i32, i32), b: (i32, i32), colour: RGBColor) -> Option<String> {
+/// (nothing when the bar is too small to hold one), onto `svg`.
+fn push_dot_path(svg: &mut String, a: (i32, i32), b: (i32, i32), colour: RGBColor) {
     let (x0, x1) = (a.0.min(b.0), a.0.max(b.0));
     let (y0, y1) = (a.1.min(b.1), a.1.max(b.1));
+    let start = svg.len();
+    svg.push_str("<path d=\"");
+    let first = svg.len();
     // The numbers written straight into the path, as `write!(d, "M{x}
     // {y}h1v1h-1z")` wrote them: a long job's charts hold millions of
     // dots, and the formatting machinery was half of drawing its bars.
-    let mut d = String::new();
     let mut y = y0 + 3;
     while y < y1 - 1 {
         let mut x = x0 + 3 + ((y - y0) / 5 % 2) * 2;
         while x < x1 - 1 {
-            d.push('M');
-            svg_out::push_i64(&mut d, i64::from(x));
-            d.push(' ');
-            svg_out::push_i64(&mut d, i64::from(y));
-            d.push_str("h1v1h-1z");
+            svg.push('M');
+            svg_out::push_i64(svg, i64::from(x));
+            svg.push(' ');
+            svg_out::push_i64(svg, i64::from(y));
+            svg.push_str("h1v1h-1z");
             x += 5;
         }
         y += 5;
     }
-    if d.is_empty() {
-        return None;
-    }
-    let RGBColor(r, g, b) = colour;
-    Some(format!(
-        "<path d=\"{d}\" opacity=\"1\" fill=\"#{r:02X}{g:02X}{b:02X}\" stroke=\"none\"/>\n"
-    ))
-}
-
-/// Puts each bar's dots (in the order they were drawn) where plotters wrote
-/// its stand-in ([`DOTS_MARK`]): each stand-in is one line of the SVG, a
-/// `<rect …>` line holding [`DOTS_MARK_FILL`]. The lines holding the mark
-/// are found by searching for it rather than by reading every line.
-fn place_dots(svg: &mut String, dots: Vec<String>) {
-    if dots.is_empty() {
+    if svg.len() == first {
+        svg.truncate(start);
         return;
     }
-    let mut out = String::with_capacity(svg.len() + dots.iter().map(String::len).sum::<usize>());
-    let mut dots = dots.into_iter();
-    // Everything before `done` has been copied to `out`.
-    let mut done = 0;
-    let mut from = 0;
-    while let Some(at) = svg[from..].find(DOTS_MARK_FILL).map(|i| from + i) {
-        let start = svg[..at].rfind('\n').map_or(0, |i| i + 1);
-        let end = svg[at..].find('\n').map_or(svg.len(), |i| at + i + 1);
-        if svg[start..].starts_with("<rect ") {
-            out.push_str(&svg[done..start]);
-            out.push_str(&dots.next().unwrap_or_default());
-            done = end;
-        }
-        from = end;
-    }
-    out.push_str(&svg[done..]);
-    *svg = out;
+    svg.push_str("\" opacity=\"1\" fill=\"");
+    svg_out::push_rgb(svg, colour);
+    svg.push_str("\" stroke=\"none\"/>\n");
 }
 
 /// Legend entries laid out left to right from `left`, wrapping before
@@ -874,9 +870,8 @@ fn legend_swatch_bar(
     x: i32,
     y: i32,
     k: usize,
-    dots: &mut Vec<String>,
 ) -> Result<(), String> {
-    fill_bar(area, (x, y - 7), (x + 22, y + 7), k, 6, dots)
+    fill_bar(area, (x, y - 7), (x + 22, y + 7), k, 6)
 }
 
 /// The axes every chart shares: no x labels or upright grid (each chart
@@ -929,20 +924,8 @@ pub(crate) fn to_svg<T>(
     Ok(svg)
 }
 
+/// The plate-dissipation chart.
 fn draw_dissipation(chart: &DissipationChart, svg: &mut String) -> Result<(), String> {
-    let mut dots = Vec::new();
-    draw_dissipation_bars(chart, svg, &mut dots)?;
-    place_dots(svg, dots);
-    Ok(())
-}
-
-/// The plate-dissipation chart as plotters draws it, dotted bars with a
-/// stand-in for their dots (pushed onto `dots`).
-fn draw_dissipation_bars(
-    chart: &DissipationChart,
-    svg: &mut String,
-    dots: &mut Vec<String>,
-) -> Result<(), String> {
     let root = SvgOut::with_string(svg, SIZE).into_drawing_area();
     root.fill(&PAPER).map_err(|e| e.to_string())?;
     let n = chart.valves.len().max(1);
@@ -1043,7 +1026,7 @@ fn draw_dissipation_bars(
             let x1 = slot + bar * 0.95;
             let a = ctx.backend_coord(&(x0, v));
             let b = ctx.backend_coord(&(x1, 0.0));
-            fill_bar(&root, a, b, k, 7, dots)?;
+            fill_bar(&root, a, b, k, 7)?;
             let pixels = PixelBox::new(
                 (f64::from(a.0), f64::from(a.1)),
                 (f64::from(b.0), f64::from(b.1)),
@@ -1132,7 +1115,7 @@ fn draw_dissipation_bars(
 
     // Legend along the top, wrapped.
     for (k, ((x, y), text)) in legend.iter().zip(&legend_labels).enumerate() {
-        legend_swatch_bar(&root, *x, *y, k, dots)?;
+        legend_swatch_bar(&root, *x, *y, k)?;
         root.draw(&Text::new(
             text.clone(),
             (x + 30, *y),
@@ -1704,12 +1687,16 @@ mod tests {
             })
             .collect();
         let svg = dissipation_svg(&chart).unwrap();
-        assert!(!svg.contains(DOTS_MARK_FILL), "a stand-in was left");
         // Two dotted sets: two bars and a legend swatch each.
         let paths: Vec<&str> = svg.lines().filter(|l| l.starts_with("<path ")).collect();
         assert_eq!(paths.len(), 6, "{paths:?}");
         // Each path holds the 1-pixel squares the dots always were: every
         // 5 pixels from 3 inside the bar, alternate rows shifted by 2.
+        let dot_path = |a, b, colour| {
+            let mut svg = String::new();
+            push_dot_path(&mut svg, a, b, colour);
+            (!svg.is_empty()).then_some(svg)
+        };
         let element = dot_path((10, 40), (24, 10), PAPER).unwrap();
         assert!(element.ends_with("fill=\"#FFFFFF\" stroke=\"none\"/>\n"));
         let d = element.split('"').nth(1).unwrap();
