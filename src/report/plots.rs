@@ -394,14 +394,17 @@ fn is_xml_forbidden(c: char) -> bool {
 
 /// A whole-number percentage for a label.
 fn pct_label(v: f64) -> String {
-    format!("{} %", whole(v))
+    let mut label = whole(v);
+    label.push_str(" %");
+    label
 }
 
 /// A figure as a whole number, or in scientific notation when it would
 /// take more than six digits, so a label stays short whatever the value.
 fn whole(v: f64) -> String {
     if v.abs() < 999_999.5 {
-        format!("{v:.0}")
+        // `format!("{v:.0}")`'s text without its exact float path.
+        crate::units::fixed(v, 0)
     } else {
         format!("{v:.2e}")
     }
@@ -617,13 +620,15 @@ impl Line {
 
 /// Draws `text` centred in `b` on a patch of whatever lies behind it (paper,
 /// or the band colour where it overlaps a band), so a line it could not
-/// avoid passes behind the figure rather than through it.
+/// avoid passes behind the figure rather than through it. `style` is a
+/// centred style (`anchored(size, HPos::Center, VPos::Center)`, made once
+/// per chart).
 pub(crate) fn draw_label(
     area: &DrawingArea<SvgOut<'_>, Shift>,
     b: &PixelBox,
     bands: &[PixelBox],
     text: &str,
-    size: u32,
+    style: &TextStyle<'static>,
 ) -> Result<(), String> {
     area.draw(&Rectangle::new(b.corners(), PAPER.filled()))
         .map_err(|e| e.to_string())?;
@@ -634,12 +639,55 @@ pub(crate) fn draw_label(
         }
     }
     let (cx, cy) = b.centre();
-    area.draw(&Text::new(
-        text.to_string(),
+    area.draw(&Label::new(
+        text,
         (cx.round() as i32, cy.round() as i32),
-        anchored(size, HPos::Center, VPos::Center),
+        style,
     ))
     .map_err(|e| e.to_string())
+}
+
+/// A text at a point, drawn as plotters' `Text` draws one (one
+/// `draw_text` of the backend), with a style borrowed rather than owned: a
+/// style is made once per chart and not again for each of its hundreds of
+/// texts (making one is two allocations, its font's family and style
+/// names), nor the text copied into a string of its own.
+pub(crate) struct Label<'s> {
+    text: &'s str,
+    at: [(i32, i32); 1],
+    style: &'s TextStyle<'static>,
+}
+
+impl<'s> Label<'s> {
+    pub(crate) fn new(text: &'s str, at: (i32, i32), style: &'s TextStyle<'static>) -> Self {
+        Label {
+            text,
+            at: [at],
+            style,
+        }
+    }
+}
+
+impl<'a> plotters::element::PointCollection<'a, (i32, i32)> for &'a Label<'_> {
+    type Point = &'a (i32, i32);
+    type IntoIter = &'a [(i32, i32)];
+    fn point_iter(self) -> &'a [(i32, i32)] {
+        &self.at
+    }
+}
+
+impl<DB: DrawingBackend> plotters::element::Drawable<DB> for Label<'_> {
+    fn draw<I: Iterator<Item = (i32, i32)>>(
+        &self,
+        mut points: I,
+        backend: &mut DB,
+        _: (u32, u32),
+    ) -> Result<(), plotters_backend::DrawingErrorKind<DB::ErrorType>> {
+        if let Some(at) = points.next() {
+            return backend.draw_text(self.text, self.style, at);
+        }
+        Ok(())
+    }
 }
 
 /// Height of a figure label's box at font size 12 (set at 9.7 px), in
@@ -830,20 +878,54 @@ fn hatch(
     let (x0, x1) = (x0.min(x1), x0.max(x1));
     let (y0, y1) = (y0.min(y1), y0.max(y1));
     let mut c = x0 + y0 + spacing;
+    let style = INK.stroke_width(1);
     while c < x1 + y1 {
         // Points on x + y = c inside the rectangle.
         let xa = x0.max(c - y1);
         let xb = x1.min(c - y0);
         if xa < xb {
-            area.draw(&PathElement::new(
-                vec![(xa, c - xa), (xb, c - xb)],
-                INK.stroke_width(1),
-            ))
-            .map_err(|e| e.to_string())?;
+            area.draw(&Segment::new((xa, c - xa), (xb, c - xb), &style))
+                .map_err(|e| e.to_string())?;
         }
         c += spacing;
     }
     Ok(())
+}
+
+/// A path of two points, drawn as plotters' `PathElement` draws one (one
+/// `draw_path` of the backend) without a list of its own: the hatching
+/// and dashes are thousands of such strokes in a long job's charts.
+struct Segment<'s> {
+    points: [(i32, i32); 2],
+    style: &'s ShapeStyle,
+}
+
+impl<'s> Segment<'s> {
+    fn new(from: (i32, i32), to: (i32, i32), style: &'s ShapeStyle) -> Self {
+        Segment {
+            points: [from, to],
+            style,
+        }
+    }
+}
+
+impl<'a> plotters::element::PointCollection<'a, (i32, i32)> for &'a Segment<'_> {
+    type Point = &'a (i32, i32);
+    type IntoIter = &'a [(i32, i32)];
+    fn point_iter(self) -> &'a [(i32, i32)] {
+        &self.points
+    }
+}
+
+impl<DB: DrawingBackend> plotters::element::Drawable<DB> for Segment<'_> {
+    fn draw<I: Iterator<Item = (i32, i32)>>(
+        &self,
+        points: I,
+        backend: &mut DB,
+        _: (u32, u32),
+    ) -> Result<(), plotters_backend::DrawingErrorKind<DB::ErrorType>> {
+        backend.draw_path(points, self.style)
+    }
 }
 
 /// A horizontal dashed line in pixel coordinates.
@@ -857,7 +939,7 @@ pub(crate) fn dashed(
     let mut x = x0;
     while x < x1 {
         let end = (x + 8).min(x1);
-        area.draw(&PathElement::new(vec![(x, y), (end, y)], style))
+        area.draw(&Segment::new((x, y), (end, y), &style))
             .map_err(|e| e.to_string())?;
         x += 13;
     }
@@ -963,7 +1045,7 @@ fn draw_dissipation(chart: &DissipationChart, svg: &mut String) -> Result<(), St
     draw_mesh(
         &mut ctx,
         axis.labels(),
-        &|v| format!("{v:.0}"),
+        &|v| crate::units::fixed(*v, 0),
         &chart.words.text("chart-dissipation-axis"),
     )?;
 
@@ -1079,6 +1161,8 @@ fn draw_dissipation(chart: &DissipationChart, svg: &mut String) -> Result<(), St
         Guide::None => {}
     }
     let bands = obstacles.bands().to_vec();
+    let figure = anchored(12, HPos::Center, VPos::Center);
+    let upright_figure = figure.clone().transform(FontTransform::Rotate270);
     for (pixels, column, text) in &bars {
         let w = text_width(text, 12) + 4.0;
         let upright = w > column.x1 - column.x0;
@@ -1096,60 +1180,29 @@ fn draw_dissipation(chart: &DissipationChart, svg: &mut String) -> Result<(), St
             .collect();
         let place = obstacles.place(&candidates);
         if upright {
-            draw_upright_label(&root, &place, &bands, text, 12)?;
+            draw_label(&root, &place, &bands, text, &upright_figure)?;
         } else {
-            draw_label(&root, &place, &bands, text, 12)?;
+            draw_label(&root, &place, &bands, text, &figure)?;
         }
     }
 
     // Category labels under the axis.
+    let category = anchored(13, HPos::Center, VPos::Top);
     for (i, label) in chart.valves.iter().enumerate() {
         let (x, y) = ctx.backend_coord(&(i as f64 + 0.5, 0.0));
-        root.draw(&Text::new(
-            label_text(label, 18),
-            (x, y + 8),
-            anchored(13, HPos::Center, VPos::Top),
-        ))
-        .map_err(|e| e.to_string())?;
+        root.draw(&Label::new(&label_text(label, 18), (x, y + 8), &category))
+            .map_err(|e| e.to_string())?;
     }
 
     // Legend along the top, wrapped.
+    let legend_style = anchored(13, HPos::Left, VPos::Center);
     for (k, ((x, y), text)) in legend.iter().zip(&legend_labels).enumerate() {
         legend_swatch_bar(&root, *x, *y, k)?;
-        root.draw(&Text::new(
-            text.clone(),
-            (x + 30, *y),
-            anchored(13, HPos::Left, VPos::Center),
-        ))
-        .map_err(|e| e.to_string())?;
+        root.draw(&Label::new(text, (x + 30, *y), &legend_style))
+            .map_err(|e| e.to_string())?;
     }
     root.present().map_err(|e| e.to_string())?;
     Ok(())
-}
-
-/// Like [`draw_label`], for a figure standing on end (read from below).
-fn draw_upright_label(
-    area: &DrawingArea<SvgOut<'_>, Shift>,
-    b: &PixelBox,
-    bands: &[PixelBox],
-    text: &str,
-    size: u32,
-) -> Result<(), String> {
-    area.draw(&Rectangle::new(b.corners(), PAPER.filled()))
-        .map_err(|e| e.to_string())?;
-    for band in bands {
-        if let Some(part) = b.intersection(band) {
-            area.draw(&Rectangle::new(part.corners(), LIGHT.filled()))
-                .map_err(|e| e.to_string())?;
-        }
-    }
-    let (cx, cy) = b.centre();
-    area.draw(&Text::new(
-        text.to_string(),
-        (cx.round() as i32, cy.round() as i32),
-        anchored(size, HPos::Center, VPos::Center).transform(FontTransform::Rotate270),
-    ))
-    .map_err(|e| e.to_string())
 }
 
 /// How set `k` is marked in the supply chart.
@@ -1331,7 +1384,12 @@ fn draw_supply(chart: &SupplyChart, svg: &mut String) -> Result<(), String> {
         "chart-supply-axis",
         &[("nominal", Arg::from(whole(chart.nominal_volts)))],
     );
-    draw_mesh(&mut ctx, 2 * axis.labels(), &|v| format!("{v:.0}"), &desc)?;
+    draw_mesh(
+        &mut ctx,
+        2 * axis.labels(),
+        &|v| crate::units::fixed(*v, 0),
+        &desc,
+    )?;
     let (left, _) = ctx.backend_coord(&(0.0, bottom));
 
     // Bands: the expected figure ± tolerance, as a grey column per node.
@@ -1425,23 +1483,25 @@ fn draw_supply(chart: &SupplyChart, svg: &mut String) -> Result<(), String> {
     // the table carries the figures).
     if sets <= 2 {
         let bands = obstacles.bands().to_vec();
+        let figure = anchored(12, HPos::Center, VPos::Center);
         for (k, line) in points.iter().enumerate() {
             for (v, p) in line {
                 let text = whole(*v);
                 let w = text_width(&text, 12) + 4.0;
                 let candidates = label_spots(*p, w, LABEL_HEIGHT, k == 0);
                 let place = obstacles.place(&candidates);
-                draw_label(&root, &place, &bands, &text, 12)?;
+                draw_label(&root, &place, &bands, &text, &figure)?;
             }
         }
     }
 
+    let category = anchored(13, HPos::Center, VPos::Top);
     for (i, node) in chart.nodes.iter().enumerate() {
         let (x, y) = ctx.backend_coord(&(i as f64 + 0.5, bottom));
-        root.draw(&Text::new(
-            label_text(&node.name, 18),
+        root.draw(&Label::new(
+            &label_text(&node.name, 18),
             (x, y + 8),
-            anchored(13, HPos::Center, VPos::Top),
+            &category,
         ))
         .map_err(|e| e.to_string())?;
     }
@@ -1454,12 +1514,9 @@ fn draw_supply(chart: &SupplyChart, svg: &mut String) -> Result<(), String> {
     ))
     .map_err(|e| e.to_string())?;
     dashed(&root, x, x + 22, y, INK.stroke_width(1))?;
-    root.draw(&Text::new(
-        band_text,
-        (x + 30, y),
-        anchored(13, HPos::Left, VPos::Center),
-    ))
-    .map_err(|e| e.to_string())?;
+    let legend_style = anchored(13, HPos::Left, VPos::Center);
+    root.draw(&Label::new(&band_text, (x + 30, y), &legend_style))
+        .map_err(|e| e.to_string())?;
     for (k, ((x, y), text)) in legend
         .iter()
         .skip(1)
@@ -1467,12 +1524,8 @@ fn draw_supply(chart: &SupplyChart, svg: &mut String) -> Result<(), String> {
         .enumerate()
     {
         draw_marker(&root, (x + 11, *y), marker(k))?;
-        root.draw(&Text::new(
-            text.clone(),
-            (x + 30, *y),
-            anchored(13, HPos::Left, VPos::Center),
-        ))
-        .map_err(|e| e.to_string())?;
+        root.draw(&Label::new(text, (x + 30, *y), &legend_style))
+            .map_err(|e| e.to_string())?;
     }
     root.present().map_err(|e| e.to_string())?;
     Ok(())
