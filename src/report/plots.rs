@@ -817,12 +817,15 @@ fn push_dot_path(svg: &mut String, a: (i32, i32), b: (i32, i32), colour: RGBColo
     // dots, and the formatting machinery was half of drawing its bars.
     let mut y = y0 + 3;
     while y < y1 - 1 {
+        // The row's y once for all its dots.
+        let mut row = itoa::Buffer::new();
+        let row = row.format(y);
         let mut x = x0 + 3 + ((y - y0) / 5 % 2) * 2;
         while x < x1 - 1 {
             svg.push('M');
             svg_out::push_i64(svg, i64::from(x));
             svg.push(' ');
-            svg_out::push_i64(svg, i64::from(y));
+            svg.push_str(row);
             svg.push_str("h1v1h-1z");
             x += 5;
         }
@@ -1005,6 +1008,7 @@ pub fn dissipation_svg_with(
 ) -> Result<String, PlotError> {
     let mut svg = String::new();
     draw_dissipation(chart, &mut svg, cache).map_err(err("plate dissipation"))?;
+    cache.last_len = svg.len();
     Ok(svg)
 }
 
@@ -1042,9 +1046,14 @@ impl PartialEq for Frame {
 /// chart nearly always share their frame, and plotters' laying out and
 /// drawing of it was a sixth of drawing a part. A part with another frame
 /// draws its own and keeps that.
+///
+/// It also keeps the length of the part drawn last: the next part's SVG
+/// is given room for about as much at once, rather than being copied to
+/// a larger buffer again and again as it grows.
 #[derive(Debug, Default)]
 pub struct ChartCache {
     start: Option<(Frame, String)>,
+    last_len: usize,
 }
 
 /// The chart's plotting area in `root` for `frame`.
@@ -1090,6 +1099,7 @@ fn open_chart<'b>(
             &cache.start.insert((frame.clone(), start)).1
         }
     };
+    svg.reserve(start.len().max(cache.last_len + cache.last_len / 8));
     svg.push_str(start);
     Ok(SvgOut::after_opening(svg, SIZE).into_drawing_area())
 }
@@ -1432,6 +1442,7 @@ pub fn supply_svg(chart: &SupplyChart) -> Result<String, PlotError> {
 pub fn supply_svg_with(chart: &SupplyChart, cache: &mut ChartCache) -> Result<String, PlotError> {
     let mut svg = String::new();
     draw_supply(chart, &mut svg, cache).map_err(err("supply chain"))?;
+    cache.last_len = svg.len();
     Ok(svg)
 }
 
