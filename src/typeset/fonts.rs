@@ -298,6 +298,53 @@ fn in_table(table: &[(u32, u32)], c: char) -> bool {
     table.get(i).is_some_and(|&(first, _)| first <= code)
 }
 
+/// Whether some character of `text` outside ASCII is one `pred` takes:
+/// `text.chars().any(pred)` for a `pred` that no ASCII character
+/// satisfies ([`in_table`], [`body_takes_cjk`]). A long job's source and
+/// charts are some 13 MB of nearly all ASCII, which this skips a word of
+/// bytes at a time instead of decoding every character (see
+/// docs/performance.md, "Eighth pass").
+fn any_beyond_ascii(text: &str, pred: impl Fn(char) -> bool) -> bool {
+    const WORD: usize = 16;
+    let bytes = text.as_bytes();
+    let mut i = 0;
+    while i < bytes.len() {
+        // Skip ASCII: whole words first, then byte by byte.
+        while i + WORD <= bytes.len() && bytes[i..i + WORD].is_ascii() {
+            i += WORD;
+        }
+        while i < bytes.len() && bytes[i].is_ascii() {
+            i += 1;
+        }
+        // A byte ≥ 0x80 at a character boundary starts a character (the
+        // bytes before it were whole ASCII characters or whole characters
+        // decoded below).
+        let Some(c) = text.get(i..).and_then(|rest| rest.chars().next()) else {
+            break;
+        };
+        if pred(c) {
+            return true;
+        }
+        i += c.len_utf8();
+    }
+    false
+}
+
+/// `text.split(needle).skip(1)`: the text after each occurrence of
+/// `needle`, up to the next, found by `memchr`'s substring search (the
+/// standard library's two-way search was a third of the fonts' check of
+/// a long job).
+fn pieces_after<'a>(text: &'a str, needle: &'a str) -> impl Iterator<Item = &'a str> + 'a {
+    let mut starts = memchr::memmem::find_iter(text.as_bytes(), needle.as_bytes()).peekable();
+    std::iter::from_fn(move || {
+        let start = starts.next()? + needle.len();
+        let end = starts.peek().copied().unwrap_or(text.len());
+        // Occurrences of text in text start and end on character
+        // boundaries (UTF-8 is self-synchronising).
+        text.get(start..end)
+    })
+}
+
 /// Whether typst may set `c` in the CJK face in the document's own text,
 /// set with the rules of [`font_rules`] (the signs of [`SIGNS_FROM_MONO`]
 /// come from Noto Sans Mono there).
@@ -341,7 +388,7 @@ fn file_needs_cjk(path: &str, bytes: &[u8]) -> bool {
     match extension.as_str() {
         "typ" => typst_needs_cjk(text),
         "svg" => svg_needs_cjk(text),
-        _ => text.chars().any(body_takes_cjk),
+        _ => any_beyond_ascii(text, body_takes_cjk),
     }
 }
 
@@ -353,10 +400,8 @@ fn typst_needs_cjk(text: &str) -> bool {
     {
         return true;
     }
-    text.chars().any(body_takes_cjk)
-        || text
-            .split("\\u{")
-            .skip(1)
+    any_beyond_ascii(text, body_takes_cjk)
+        || pieces_after(text, "\\u{")
             .any(|rest| escaped_char(rest, '}', 16).is_none_or(body_takes_cjk))
 }
 
@@ -369,8 +414,8 @@ fn svg_needs_cjk(text: &str) -> bool {
         return true;
     }
     let table = CJK_IN_SVG;
-    text.chars().any(|c| in_table(table, c))
-        || text.split("&#").skip(1).any(|rest| {
+    any_beyond_ascii(text, |c| in_table(table, c))
+        || pieces_after(text, "&#").any(|rest| {
             let (digits, radix) = match rest.strip_prefix(['x', 'X']) {
                 Some(hex) => (hex, 16),
                 None => (rest, 10),
@@ -382,7 +427,7 @@ fn svg_needs_cjk(text: &str) -> bool {
 /// Whether every `font-family` of an SVG (attribute or style) names Noto
 /// Sans alone, and there is at least one.
 fn names_only_noto_sans(text: &str) -> bool {
-    let mut parts = text.split("font-family").skip(1).peekable();
+    let mut parts = pieces_after(text, "font-family").peekable();
     if parts.peek().is_none() {
         return false;
     }
@@ -673,6 +718,69 @@ mod tests {
             '−', '√', '≤', 'µ', 'Ω', 'é', '°', '±', '×', '–', '…', '„', '“', 'A',
         ] {
             assert!(!body_takes_cjk(c), "{c}");
+        }
+    }
+
+    #[test]
+    fn skipping_ascii_finds_what_every_character_finds() {
+        // Texts of mostly ASCII with characters of one to four bytes at
+        // every offset from a word's edge, against `chars().any`.
+        const POOL: &[char] = &[
+            'a', ' ', '\n', '~', '\u{7F}', 'µ', '−', '→', '∥', '日', '\u{FFFD}', '😀', '\u{10FFFF}',
+        ];
+        let mut state = 0x9e37_79b9_7f4a_7c15_u64;
+        let mut next = || {
+            state ^= state << 13;
+            state ^= state >> 7;
+            state ^= state << 17;
+            state
+        };
+        let preds: [fn(char) -> bool; 3] = [
+            body_takes_cjk,
+            |c| in_table(CJK_IN_SVG, c),
+            |c| c == '😀' || c == '\u{10FFFF}',
+        ];
+        for _ in 0..20_000 {
+            let len = (next() % 70) as usize;
+            let text: String = (0..len)
+                .map(|_| {
+                    let k = next() as usize;
+                    if k % 5 == 0 {
+                        POOL[k / 5 % POOL.len()]
+                    } else {
+                        'x'
+                    }
+                })
+                .collect();
+            for pred in preds {
+                assert_eq!(
+                    any_beyond_ascii(&text, pred),
+                    text.chars().any(pred),
+                    "{text:?}"
+                );
+            }
+        }
+    }
+
+    #[test]
+    fn pieces_after_a_needle_are_those_of_split() {
+        let mut state = 0x2545_f491_4f6c_dd1d_u64;
+        let mut next = || {
+            state ^= state << 13;
+            state ^= state >> 7;
+            state ^= state << 17;
+            state
+        };
+        const POOL: &[&str] = &["\\", "u", "{", "}", "&", "#", "x", "font-family", "µ", "日", " "];
+        for _ in 0..20_000 {
+            let text: String = (0..next() % 24)
+                .map(|_| POOL[(next() % POOL.len() as u64) as usize])
+                .collect();
+            for needle in ["\\u{", "&#", "font-family", "u"] {
+                let ours: Vec<&str> = pieces_after(&text, needle).collect();
+                let split: Vec<&str> = text.split(needle).skip(1).collect();
+                assert_eq!(ours, split, "{text:?} {needle:?}");
+            }
         }
     }
 
