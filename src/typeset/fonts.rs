@@ -330,6 +330,11 @@ fn any_beyond_ascii(text: &str, pred: impl Fn(char) -> bool) -> bool {
     false
 }
 
+/// `text.contains(needle)`, by `memchr`'s substring search.
+fn has(text: &str, needle: &str) -> bool {
+    memchr::memmem::find(text.as_bytes(), needle.as_bytes()).is_some()
+}
+
 /// `text.split(needle).skip(1)`: the text after each occurrence of
 /// `needle`, up to the next, found by `memchr`'s substring search (the
 /// standard library's two-way search was a third of the fonts' check of
@@ -396,7 +401,7 @@ fn file_needs_cjk(path: &str, bytes: &[u8]) -> bool {
 fn typst_needs_cjk(text: &str) -> bool {
     if ["sym.", "emoji.", "symbol(", "from-unicode"]
         .iter()
-        .any(|name| text.contains(name))
+        .any(|name| has(text, name))
     {
         return true;
     }
@@ -407,10 +412,10 @@ fn typst_needs_cjk(text: &str) -> bool {
 
 /// [`needs_cjk`] for an SVG.
 fn svg_needs_cjk(text: &str) -> bool {
-    if !text.contains("<text") && !text.contains(":text") {
+    if !has(text, "<text") && !has(text, ":text") {
         return false;
     }
-    if text.contains("font:") || !names_only_noto_sans(text) {
+    if has(text, "font:") || !names_only_noto_sans(text) {
         return true;
     }
     let table = CJK_IN_SVG;
@@ -475,7 +480,7 @@ pub fn fit_fonts(sandbox: &mut Sandbox, main: &str) -> Result<bool, TypesetError
     }
     let full = font_rules();
     if let Some(source) = sandbox.get(main).and_then(|b| std::str::from_utf8(b).ok())
-        && source.contains(&full)
+        && has(source, &full)
     {
         let lean = source.replacen(&full, &font_rules_without_cjk(), 1);
         sandbox.insert(main, lean)?;
@@ -726,7 +731,19 @@ mod tests {
         // Texts of mostly ASCII with characters of one to four bytes at
         // every offset from a word's edge, against `chars().any`.
         const POOL: &[char] = &[
-            'a', ' ', '\n', '~', '\u{7F}', 'µ', '−', '→', '∥', '日', '\u{FFFD}', '😀', '\u{10FFFF}',
+            'a',
+            ' ',
+            '\n',
+            '~',
+            '\u{7F}',
+            'µ',
+            '−',
+            '→',
+            '∥',
+            '日',
+            '\u{FFFD}',
+            '😀',
+            '\u{10FFFF}',
         ];
         let mut state = 0x9e37_79b9_7f4a_7c15_u64;
         let mut next = || {
@@ -771,7 +788,19 @@ mod tests {
             state ^= state << 17;
             state
         };
-        const POOL: &[&str] = &["\\", "u", "{", "}", "&", "#", "x", "font-family", "µ", "日", " "];
+        const POOL: &[&str] = &[
+            "\\",
+            "u",
+            "{",
+            "}",
+            "&",
+            "#",
+            "x",
+            "font-family",
+            "µ",
+            "日",
+            " ",
+        ];
         for _ in 0..20_000 {
             let text: String = (0..next() % 24)
                 .map(|_| POOL[(next() % POOL.len() as u64) as usize])
