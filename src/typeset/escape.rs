@@ -55,8 +55,7 @@ fn escape_common_into(text: &str, out: &mut String) -> bool {
     let start = out.len();
     let bytes = text.as_bytes();
     let mut run = 0usize;
-    // `can_draw` of a printable ASCII character, read once.
-    let ascii = super::fonts::ascii_covered();
+    let class = ascii_class();
     // The text is copied in runs between the characters that take a
     // backslash, rather than a character at a time: `text[copied..i]` is
     // not yet in `out`.
@@ -65,18 +64,17 @@ fn escape_common_into(text: &str, out: &mut String) -> bool {
     while i < bytes.len() {
         let b = bytes[i];
         if b.is_ascii() {
-            match b {
-                b' ' => {
+            match class[usize::from(b)] {
+                SPACE => {
                     run = 0;
                     i += 1;
                     continue;
                 }
-                b'!'..=b'~' if (ascii >> b) & 1 != 0 => {
-                    if b.is_ascii_punctuation() {
-                        out.push_str(&text[copied..i]);
-                        out.push('\\');
-                        copied = i;
-                    }
+                PLAIN => i += 1,
+                PUNCT | QUOTE => {
+                    out.push_str(&text[copied..i]);
+                    out.push('\\');
+                    copied = i;
                     i += 1;
                 }
                 _ => {
@@ -111,6 +109,42 @@ fn escape_common_into(text: &str, out: &mut String) -> bool {
     }
     out.push_str(&text[copied..]);
     true
+}
+
+/// How the one-pass escapers treat an ASCII byte ([`ascii_class`]).
+const BAIL: u8 = 0;
+/// A letter or digit the fonts draw: copied as it is.
+const PLAIN: u8 = 1;
+/// Punctuation the fonts draw, other than `\\` and `"`: a backslash
+/// before it in markup, as it is in a string.
+const PUNCT: u8 = 2;
+/// `\\` or `"` (when the fonts draw them): a backslash before it in
+/// markup and in a string.
+const QUOTE: u8 = 3;
+/// The space.
+const SPACE: u8 = 4;
+
+/// The class of every ASCII byte for the one-pass escapers, worked out
+/// once from the fonts' coverage: looking a byte up here costs a load,
+/// where testing its bit in the 128-bit coverage mask cost a dozen
+/// instructions a character (a long job prints some two million).
+fn ascii_class() -> &'static [u8; 128] {
+    static CLASS: std::sync::LazyLock<[u8; 128]> = std::sync::LazyLock::new(|| {
+        let covered = super::fonts::ascii_covered();
+        let mut class = [BAIL; 128];
+        for b in b'!'..=b'~' {
+            if (covered >> b) & 1 != 0 {
+                class[usize::from(b)] = match b {
+                    b'\\' | b'"' => QUOTE,
+                    b if b.is_ascii_punctuation() => PUNCT,
+                    _ => PLAIN,
+                };
+            }
+        }
+        class[usize::from(b' ')] = SPACE;
+        class
+    });
+    &CLASS
 }
 
 /// Marks that only choose a glyph variant: dropped by the escaper.
@@ -290,8 +324,7 @@ fn content_as_string_into(text: &str, out: &mut String) -> bool {
     // Two spaces in a row (not a no-break space) send the text to the
     // full path: found in this loop rather than by a search of its own.
     let mut after_space = false;
-    // `can_draw` of a printable ASCII character, read once.
-    let ascii = super::fonts::ascii_covered();
+    let class = ascii_class();
     // The text is copied in runs between the characters that take a
     // backslash: `text[copied..i]` is not yet in `out`.
     let mut copied = 0;
@@ -299,8 +332,8 @@ fn content_as_string_into(text: &str, out: &mut String) -> bool {
     while i < bytes.len() {
         let b = bytes[i];
         if b.is_ascii() {
-            match b {
-                b' ' => {
+            match class[usize::from(b)] {
+                SPACE => {
                     if after_space {
                         return false;
                     }
@@ -309,12 +342,11 @@ fn content_as_string_into(text: &str, out: &mut String) -> bool {
                     i += 1;
                     continue;
                 }
-                b'!'..=b'~' if (ascii >> b) & 1 != 0 => {
-                    if b == b'\\' || b == b'"' {
-                        out.push_str(&text[copied..i]);
-                        out.push('\\');
-                        copied = i;
-                    }
+                PLAIN | PUNCT => i += 1,
+                QUOTE => {
+                    out.push_str(&text[copied..i]);
+                    out.push('\\');
+                    copied = i;
                     i += 1;
                 }
                 _ => return false,
