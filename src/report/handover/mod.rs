@@ -273,16 +273,21 @@ pub fn compile_command(dir: &Path, options: &CompileOptions, output: &Path) -> S
 /// `draw` of each part of a chart, in order: on every core (rayon) when
 /// there are several, on this thread when there is one, as for a short
 /// job, where handing it out would start rayon's pool of threads (each
-/// with its own heap and its idle spinning) for nothing.
+/// with its own heap and its idle spinning) for nothing. Each thread
+/// draws its parts with one `plots::ChartCache`.
 fn each_part<P: Sync, T: Send, E: Send>(
     parts: &[P],
-    draw: impl Fn(&P) -> Result<T, E> + Sync + Send,
+    draw: impl Fn(&mut plots::ChartCache, &P) -> Result<T, E> + Sync + Send,
 ) -> Result<Vec<T>, E> {
     use rayon::prelude::*;
     if parts.len() > 1 {
-        parts.par_iter().map(draw).collect()
+        parts
+            .par_iter()
+            .map_init(plots::ChartCache::default, draw)
+            .collect()
     } else {
-        parts.iter().map(draw).collect()
+        let mut cache = plots::ChartCache::default();
+        parts.iter().map(|part| draw(&mut cache, part)).collect()
     }
 }
 
@@ -299,7 +304,9 @@ pub fn build(
     let mut dissipation_charts = Vec::new();
     if let Some(chart) = plots::dissipation_chart(input.findings, input.catalogue) {
         let parts = plots::split_dissipation(&chart);
-        let svgs = each_part(&parts, |part| plots::dissipation_svg(&part.chart))?;
+        let svgs = each_part(&parts, |cache, part| {
+            plots::dissipation_svg_with(&part.chart, cache)
+        })?;
         for (i, (part, svg)) in parts.into_iter().zip(svgs).enumerate() {
             let path = chart_part_path(DISSIPATION_PLOT, i);
             sandbox.insert(&path, svg)?;
@@ -312,7 +319,9 @@ pub fn build(
     let mut supply_charts = Vec::new();
     if let Some(chart) = plots::supply_chart(input.findings, input.catalogue) {
         let parts = plots::split_supply(&chart);
-        let svgs = each_part(&parts, |part| plots::supply_svg(&part.chart))?;
+        let svgs = each_part(&parts, |cache, part| {
+            plots::supply_svg_with(&part.chart, cache)
+        })?;
         for (i, (part, svg)) in parts.into_iter().zip(svgs).enumerate() {
             let path = chart_part_path(SUPPLY_PLOT, i);
             sandbox.insert(&path, svg)?;
@@ -469,19 +478,27 @@ pub fn catalogue_functions(catalogue: &Catalogue) -> (Value, Value) {
     ) -> Result<(String, Vec<String>), minijinja::Error> {
         let mut args = Vec::new();
         let mut values = Vec::new();
+        // Every argument is read here, so none can go unused: `peek`
+        // rather than `get`, which notes each name in a set of its own to
+        // be checked afterwards (a long job asks for thousands of
+        // sentences with arguments).
         for name in kwargs.args() {
-            let value: Value = kwargs.get(name)?;
+            let value: Value = kwargs.peek(name)?;
+            // A string's text as it is, without the formatting machinery.
+            let text = |value: &Value| match value.as_str() {
+                Some(s) => s.to_owned(),
+                None => value.to_string(),
+            };
             let arg = if placeholders {
-                values.push(value.to_string());
+                values.push(text(&value));
                 Arg::Text(format!("QzqArg{}Qzq", values.len() - 1))
             } else if let Some(n) = value.as_i64() {
                 Arg::Number(n as f64)
             } else {
-                Arg::Text(value.to_string())
+                Arg::Text(text(&value))
             };
             args.push((name, arg));
         }
-        kwargs.assert_all_used()?;
         match catalogue.try_format(key, &args) {
             Some(words) => Ok((words, values)),
             None => Err(crate::typeset::refusal(

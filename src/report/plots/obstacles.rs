@@ -34,14 +34,39 @@ pub(crate) struct Obstacles {
     /// Shaded bands: a label sits inside one or outside it, not across its
     /// edge.
     bands: Vec<PixelBox>,
-    /// The buckets, row by row, each listing the obstacles that reach
-    /// into it (kind and index, in the order they were added).
-    cells: Vec<Vec<(Kind, u32)>>,
+    /// The buckets, row by row: each the first of its entries in
+    /// `entries` ([`NONE`] when it has none).
+    cells: Vec<u32>,
+    /// Every bucket's entries in one list, each linked to the next of its
+    /// bucket (newest first): an obstacle filed into a bucket costs one
+    /// push here, where a list per bucket grew by one allocation after
+    /// another.
+    entries: Vec<Entry>,
     columns: usize,
     rows: usize,
     /// Where bucket (0, 0) starts.
     origin: (f64, f64),
+    /// The lists [`Obstacles::near`] fills, kept between calls so that
+    /// placing a label allocates nothing.
+    scratch: [Vec<u32>; 3],
 }
+
+/// The bucket columns and rows a box reaches into.
+type Span = (
+    std::ops::RangeInclusive<usize>,
+    std::ops::RangeInclusive<usize>,
+);
+
+/// One obstacle filed in one bucket, and the bucket's next entry.
+#[derive(Debug, Clone, Copy)]
+struct Entry {
+    kind: Kind,
+    index: u32,
+    next: u32,
+}
+
+/// The end of a bucket's entries.
+const NONE: u32 = u32::MAX;
 
 impl Obstacles {
     /// Obstacles for labels that must stay inside `area`. The buckets cover
@@ -65,10 +90,12 @@ impl Obstacles {
             solid: Vec::new(),
             lines: Vec::new(),
             bands: Vec::new(),
-            cells: vec![Vec::new(); columns * rows],
+            cells: vec![NONE; columns * rows],
+            entries: Vec::new(),
             columns,
             rows,
             origin,
+            scratch: Default::default(),
         }
     }
 
@@ -98,13 +125,7 @@ impl Obstacles {
 
     /// The bucket columns and rows `b` reaches into (edge buckets for
     /// anything outside the grid).
-    fn span(
-        &self,
-        b: &PixelBox,
-    ) -> (
-        std::ops::RangeInclusive<usize>,
-        std::ops::RangeInclusive<usize>,
-    ) {
+    fn span(&self, b: &PixelBox) -> Span {
         let index = |v: f64, origin: f64, n: usize| -> usize {
             let i = ((v - origin) / CELL).floor();
             if i.is_nan() || i < 0.0 {
@@ -129,33 +150,48 @@ impl Obstacles {
         let (columns, rows) = self.span(b);
         for r in rows {
             for c in columns.clone() {
-                self.cells[r * self.columns + c].push((kind, index));
+                let cell = &mut self.cells[r * self.columns + c];
+                let next = *cell;
+                *cell = u32::try_from(self.entries.len()).unwrap_or(NONE);
+                self.entries.push(Entry { kind, index, next });
             }
         }
     }
 
-    /// The obstacles of each kind near `b`, each once, in the order they
-    /// were added.
-    fn near(&self, b: &PixelBox) -> [Vec<u32>; 3] {
-        let mut found: [Vec<u32>; 3] = [Vec::new(), Vec::new(), Vec::new()];
-        let (columns, rows) = self.span(b);
+    /// The obstacles of each kind in the buckets of `span` (from
+    /// [`Obstacles::span`]), each once, in the order they were added, into
+    /// `found` (emptied first).
+    fn near(&self, span: &Span, found: &mut [Vec<u32>; 3]) {
+        for list in found.iter_mut() {
+            list.clear();
+        }
+        let (columns, rows) = span.clone();
         for r in rows {
             for c in columns.clone() {
-                for &(kind, i) in &self.cells[r * self.columns + c] {
-                    found[kind as usize].push(i);
+                let mut at = self.cells[r * self.columns + c];
+                while let Some(e) = self.entries.get(at as usize) {
+                    found[e.kind as usize].push(e.index);
+                    at = e.next;
                 }
             }
         }
-        for list in &mut found {
+        for list in found.iter_mut() {
             list.sort_unstable();
             list.dedup();
         }
-        found
     }
 
     /// How bad a label at `b` would be; 0 when it is clear of everything.
+    #[cfg(test)]
     pub(crate) fn cost(&self, b: &PixelBox) -> f64 {
-        let [solid, lines, bands] = self.near(b);
+        let mut found = Default::default();
+        self.near(&self.span(b), &mut found);
+        self.price(b, &found)
+    }
+
+    /// [`Obstacles::cost`] of `b` with the obstacles near it (`near` of
+    /// its span) given.
+    fn price(&self, b: &PixelBox, [solid, lines, bands]: &[Vec<u32>; 3]) -> f64 {
         let mut cost = (b.area() - b.overlap(&self.area)) * 1000.0;
         cost += solid
             .iter()
@@ -188,8 +224,14 @@ impl Obstacles {
     /// later candidate can win (on a tie the earlier one does), and the
     /// rest are not priced. The choice is the one pricing every candidate
     /// gives ([`Obstacles::place_pricing_all`] in the tests).
+    ///
+    /// Candidates next to each other (a ladder of places a few pixels
+    /// apart) mostly reach into the same buckets: the obstacles near them
+    /// are gathered once for each run of candidates with the same buckets.
     pub(crate) fn place(&mut self, candidates: &[PixelBox]) -> PixelBox {
         let mut best: Option<(f64, PixelBox)> = None;
+        let mut found = std::mem::take(&mut self.scratch);
+        let mut gathered: Option<Span> = None;
         for (rank, b) in candidates.iter().enumerate() {
             let floor = rank as f64 * 2.0;
             if let Some((price, _)) = best
@@ -197,11 +239,17 @@ impl Obstacles {
             {
                 break;
             }
-            let price = self.cost(b) + floor;
+            let span = self.span(b);
+            if gathered.as_ref() != Some(&span) {
+                self.near(&span, &mut found);
+                gathered = Some(span);
+            }
+            let price = self.price(b, &found) + floor;
             if best.is_none_or(|(p, _)| price.total_cmp(&p).is_lt()) {
                 best = Some((price, *b));
             }
         }
+        self.scratch = found;
         let (_, best) = best.expect("at least one candidate");
         self.add_solid(best);
         best
