@@ -33,8 +33,17 @@ const DECADES: [f64; 61] = {
 fn decade(value: f64) -> i32 {
     let a = value.abs();
     if (DECADES[0]..DECADES[60]).contains(&a) {
-        // The edges at or below `a`: at least one.
-        let k = DECADES.partition_point(|&p| p <= a) - 1;
+        // The edges at or below `a`: at least one. The binary exponent
+        // gives the edge to a place or two (floor(e2 · log10 2), exact for
+        // |e2| < 1,000), then the table decides, as a search of it would.
+        let e2 = ((a.to_bits() >> 52) & 0x7ff) as i32 - 1023;
+        let mut k = (((e2 * 78_913) >> 18) + 30).clamp(0, 60) as usize;
+        while k > 0 && DECADES[k] > a {
+            k -= 1;
+        }
+        while k + 1 < DECADES.len() && DECADES[k + 1] <= a {
+            k += 1;
+        }
         const MARGIN: f64 = 1e-8;
         let clear_below = a > DECADES[k] * (1.0 + MARGIN);
         let clear_above = k + 1 < DECADES.len() && a < DECADES[k + 1] * (1.0 - MARGIN);
@@ -45,13 +54,33 @@ fn decade(value: f64) -> i32 {
     value.abs().log10().floor() as i32
 }
 
+/// `10f64.powi(n)` for n from -22 to 22, the same numbers: 10^0 … 10^22
+/// are exact in an f64 and `powi` multiplies only exact powers on the way
+/// to them, and for a negative n it divides one by the exact power, which
+/// rounds as the literal does (held to `powi` by a test).
+const POWERS: [f64; 45] = [
+    1e-22, 1e-21, 1e-20, 1e-19, 1e-18, 1e-17, 1e-16, 1e-15, 1e-14, 1e-13, 1e-12, 1e-11, 1e-10,
+    1e-9, 1e-8, 1e-7, 1e-6, 1e-5, 1e-4, 1e-3, 1e-2, 1e-1, 1e0, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7,
+    1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16, 1e17, 1e18, 1e19, 1e20, 1e21, 1e22,
+];
+
+/// `10f64.powi(n)`, from [`POWERS`] where it holds n (a figure's scale is
+/// worked out three or four times for every figure printed).
+fn pow10(n: i32) -> f64 {
+    if (-22..=22).contains(&n) {
+        POWERS[(n + 22) as usize]
+    } else {
+        10f64.powi(n)
+    }
+}
+
 /// Rounds to `sig` significant figures.
 pub fn round_sig(value: f64, sig: i32) -> f64 {
     if value == 0.0 || !value.is_finite() {
         return value;
     }
     let magnitude = decade(value);
-    let factor = 10f64.powi(sig - 1 - magnitude);
+    let factor = pow10(sig - 1 - magnitude);
     let rounded = (value * factor).round() / factor;
     if rounded.is_finite() && factor.is_finite() && factor > 0.0 {
         rounded
@@ -112,7 +141,7 @@ fn write_sig(out: &mut String, value: f64, sig: i32) {
 /// calculation pass spends writing its reasons). Large or tiny values take
 /// `format!`. Appended to `out`.
 fn write_short_fixed(out: &mut String, value: f64, decimals: usize) {
-    let scaled = (value.abs() * 10f64.powi(decimals as i32)).round();
+    let scaled = (value.abs() * pow10(decimals as i32)).round();
     if decimals > 15 || !scaled.is_finite() || scaled >= 1e15 {
         use std::fmt::Write as _;
         let _ = write!(out, "{value:.decimals$}");
@@ -289,7 +318,7 @@ pub fn format_engineering_sig(value: f64, kind: QuantityKind, sig: i32) -> Strin
         .find(|(e, _)| *e == exp)
         .map(|(_, p)| *p)
         .unwrap_or("");
-    let scaled = rounded / 10f64.powi(exp);
+    let scaled = rounded / pow10(exp);
     let mut out = String::with_capacity(16);
     write_sig(&mut out, scaled, sig);
     out.push(' ');
@@ -320,6 +349,15 @@ mod tests {
         assert_eq!(format_engineering(0.0, Voltage), "0 V");
         assert_eq!(format_engineering(-52.0, Voltage), "-52 V");
         assert_eq!(format_engineering(85.27, Percent), "85.3 %");
+    }
+
+    #[test]
+    fn powers_of_ten_are_what_powi_gives() {
+        for n in -400..=400 {
+            assert_eq!(pow10(n).to_bits(), 10f64.powi(n).to_bits(), "10^{n}");
+        }
+        assert_eq!(pow10(i32::MIN).to_bits(), 10f64.powi(i32::MIN).to_bits());
+        assert_eq!(pow10(i32::MAX).to_bits(), 10f64.powi(i32::MAX).to_bits());
     }
 
     #[test]
