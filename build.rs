@@ -16,7 +16,7 @@
 //! without reading the binary (see `src/cli/content_key.rs`).
 //!
 //! And it cuts the built-in message catalogues into parts by message group
-//! (`$OUT_DIR/{lang}-{part}.ftl`), which `src/catalogue/mod.rs` parses
+//! (`$OUT_DIR/catalogue_parts.rs`), which `src/catalogue/mod.rs` parses
 //! only when a message of that part is said.
 
 use std::path::Path;
@@ -151,39 +151,58 @@ fn cjk_only(dir: &Path) {
 }
 
 /// The built-in catalogues (`messages/en.ftl`, `messages/de.ftl`) cut into
-/// their parts by message group (`$OUT_DIR/{lang}-{part}.ftl`, read by
-/// `src/catalogue/mod.rs`): the diagnostics (`diag-…`), the terminal's
-/// messages (`cli-…`) and the rest, so a run parses a part only when it
-/// says one of its messages. Comment lines are left out (they end any
-/// pattern before them, so leaving them out changes no message); every
-/// other line goes with the message or term it belongs to.
+/// parts by message group (`$OUT_DIR/catalogue_parts.rs`, read by
+/// `src/catalogue/mod.rs`), so a run parses a part only when it says one
+/// of its messages. A message's group is the first word of its key
+/// (`doc`, `diag`, `month` …), for the terminal's messages (`cli-…`) the
+/// first two (`cli-wrote`, `cli-typst` …): a render says one of them and
+/// parsing all 26 KB of them for it was 3 % of its own instructions.
+/// [`message_group`] is the rule, and `src/catalogue/mod.rs` has the same
+/// one (`group_of`; a test holds the two to the same parts). Comment lines
+/// are left out (they end any pattern before them, so leaving them out
+/// changes no message); every other line goes with the message or term
+/// it belongs to. The parts are listed by group, in order.
 fn catalogue_parts() {
     let out = std::path::PathBuf::from(std::env::var("OUT_DIR").expect("cargo sets OUT_DIR"));
+    let mut rust =
+        String::from("pub(crate) const BUILT_IN_PARTS: &[(&str, &[(&str, &str)])] = &[\n");
     for lang in ["en", "de"] {
         let path = format!("messages/{lang}.ftl");
         println!("cargo:rerun-if-changed={path}");
         let text = std::fs::read_to_string(&path).expect("a built-in catalogue is readable");
-        let mut parts = [String::new(), String::new(), String::new()];
-        let mut current = 0;
+        let mut parts: std::collections::BTreeMap<String, String> = Default::default();
+        let mut current = String::new();
         for line in text.split_inclusive('\n') {
             if line.starts_with('#') {
                 continue;
             }
             if line.starts_with(|c: char| c.is_ascii_alphabetic() || c == '-') {
-                current = if line.starts_with("diag-") {
-                    1
-                } else if line.starts_with("cli-") {
-                    2
-                } else {
-                    0
-                };
+                let key = line
+                    .split(|c: char| c == '=' || c.is_whitespace())
+                    .next()
+                    .unwrap_or_default();
+                current = message_group(key).to_owned();
             }
-            parts[current].push_str(line);
+            parts.entry(current.clone()).or_default().push_str(line);
         }
-        for (part, name) in parts.iter().zip(["rest", "diag", "cli"]) {
-            std::fs::write(out.join(format!("{lang}-{name}.ftl")), part)
-                .expect("OUT_DIR is writable");
+        rust.push_str(&format!("    ({lang:?}, &[\n"));
+        for (group, part) in &parts {
+            rust.push_str(&format!("        ({group:?}, {part:?}),\n"));
         }
+        rust.push_str("    ]),\n");
+    }
+    rust.push_str("];\n");
+    std::fs::write(out.join("catalogue_parts.rs"), rust).expect("OUT_DIR is writable");
+}
+
+/// The group of a message key: its first word, or its first two for the
+/// terminal's messages (`cli-wrote-stdout` is in `cli-wrote`).
+fn message_group(key: &str) -> &str {
+    let mut words = key.splitn(3, '-');
+    let first = words.next().unwrap_or_default();
+    match (first, words.next()) {
+        ("cli", Some(second)) => &key[..first.len() + 1 + second.len()],
+        _ => first,
     }
 }
 

@@ -68,9 +68,9 @@ struct Inner {
     origin: String,
     /// The messages, in parts: a translation file is one part, read when
     /// the catalogue is made; a built-in catalogue is cut into its
-    /// diagnostics, its terminal messages and the rest at build time
-    /// ([`BUILT_IN_PARTS`]), and each part is parsed the first time one
-    /// of its messages is asked for (a render says none of the
+    /// message groups at build time ([`BUILT_IN_PARTS`]: `doc-…`,
+    /// `diag-…`, `cli-wrote-…`), and each part is parsed the first time
+    /// one of its messages is asked for (a render says none of the
     /// diagnostics, and Fluent's parse of them was a seventh of its own
     /// instructions). No message of a built-in catalogue refers to
     /// another message or term (a test holds them to that), so a part
@@ -87,40 +87,30 @@ enum Parts {
     /// A built-in catalogue, each part built on first use.
     BuiltIn {
         language: &'static str,
-        rest: OnceLock<Part>,
-        diag: OnceLock<Part>,
-        cli: OnceLock<Part>,
-        texts: &'static BuiltInParts,
+        /// One for each part of `texts`, in the same order.
+        parts: Box<[OnceLock<Part>]>,
+        /// The part that holds no message, for a key of no group.
+        none: OnceLock<Part>,
+        texts: &'static [(&'static str, &'static str)],
     },
 }
 
-/// A built-in catalogue's text cut into parts by `build.rs`: the rest,
-/// the diagnostics (`diag-…`) and the terminal's messages (`cli-…`).
-pub(crate) struct BuiltInParts {
-    pub(crate) rest: &'static str,
-    pub(crate) diag: &'static str,
-    pub(crate) cli: &'static str,
-}
+// `BUILT_IN_PARTS`: each built-in catalogue by language tag, cut into its
+// message groups by `build.rs` (`catalogue_parts`), as (group, text) in
+// order of the groups.
+include!(concat!(env!("OUT_DIR"), "/catalogue_parts.rs"));
 
-/// The built-in catalogues by language tag, in parts.
-pub(crate) const BUILT_IN_PARTS: &[(&str, BuiltInParts)] = &[
-    (
-        "en",
-        BuiltInParts {
-            rest: include_str!(concat!(env!("OUT_DIR"), "/en-rest.ftl")),
-            diag: include_str!(concat!(env!("OUT_DIR"), "/en-diag.ftl")),
-            cli: include_str!(concat!(env!("OUT_DIR"), "/en-cli.ftl")),
-        },
-    ),
-    (
-        "de",
-        BuiltInParts {
-            rest: include_str!(concat!(env!("OUT_DIR"), "/de-rest.ftl")),
-            diag: include_str!(concat!(env!("OUT_DIR"), "/de-diag.ftl")),
-            cli: include_str!(concat!(env!("OUT_DIR"), "/de-cli.ftl")),
-        },
-    ),
-];
+/// The group of a message key as `build.rs` cut the built-in catalogues
+/// (`message_group` there): its first word, or its first two for the
+/// terminal's messages (`cli-…`).
+fn group_of(key: &str) -> &str {
+    let mut words = key.splitn(3, '-');
+    let first = words.next().unwrap_or_default();
+    match (first, words.next()) {
+        ("cli", Some(second)) => &key[..first.len() + 1 + second.len()],
+        _ => first,
+    }
+}
 
 /// One bundle of messages with their patterns.
 struct Part {
@@ -174,21 +164,18 @@ impl Inner {
             Parts::Whole(part) => part,
             Parts::BuiltIn {
                 language,
-                rest,
-                diag,
-                cli,
+                parts,
+                none,
                 texts,
             } => {
-                // The group is the key's first word, as `build.rs` cut them.
-                let (cell, text) = match key.split_once('-').map(|(group, _)| group) {
-                    Some("diag") => (diag, texts.diag),
-                    Some("cli") => (cli, texts.cli),
-                    _ => (rest, texts.rest),
-                };
                 // A built-in part parses without a problem (tested);
                 // were it not so, the messages Fluent could read are
                 // used and the others said as missing.
-                cell.get_or_init(|| Part::build(language, text).0)
+                let group = group_of(key);
+                match texts.binary_search_by(|(g, _)| (*g).cmp(group)) {
+                    Ok(i) => parts[i].get_or_init(|| Part::build(language, texts[i].1).0),
+                    Err(_) => none.get_or_init(|| Part::build(language, "").0),
+                }
             }
         }
     }
@@ -431,9 +418,8 @@ impl Catalogue {
                 origin: "built-in".to_owned(),
                 parts: Parts::BuiltIn {
                     language,
-                    rest: OnceLock::new(),
-                    diag: OnceLock::new(),
-                    cli: OnceLock::new(),
+                    parts: texts.iter().map(|_| OnceLock::new()).collect(),
+                    none: OnceLock::new(),
                     texts,
                 },
             }),

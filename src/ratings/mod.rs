@@ -7,6 +7,9 @@
 //! its figures came from, and the report repeats it. The file format is
 //! described in `docs/ratings.md`.
 
+// Generated (see the file), so left as written.
+#[rustfmt::skip]
+mod builtin_rows;
 mod class;
 mod decode;
 mod designation;
@@ -22,6 +25,8 @@ pub use diagnostic::{RatingProblem, RatingsFileError, UnreadableRatingsFile};
 pub use rating::{Heater, Rating, RatingOrigin};
 pub use table::RatingsTable;
 
+#[cfg(test)]
+mod builtin_rows_tests;
 #[cfg(test)]
 mod builtin_tests;
 #[cfg(test)]

@@ -11,10 +11,13 @@ use super::diagnostic::{RatingProblem, RatingsFileError, UnreadableRatingsFile};
 use super::draft::{Draft, check_row};
 use super::rating::{Rating, RatingOrigin};
 
-/// The ratings file compiled into the program.
+/// The built-in ratings file, which the rows the program is built with
+/// (`builtin_rows.rs`) are held to.
+#[cfg(test)]
 pub const BUILTIN_TEXT: &str = include_str!("../../ratings/valves.kdl");
 
 /// The name the built-in file is reported under.
+#[cfg(test)]
 pub const BUILTIN_NAME: &str = "ratings/valves.kdl";
 
 /// Every known valve type, listed by class then name, and found by any of
@@ -28,18 +31,17 @@ pub struct RatingsTable {
 }
 
 impl RatingsTable {
-    /// The table built into the program. The embedded file is parsed once
-    /// per process; later calls get a copy of that table.
-    ///
-    /// # Panics
-    ///
-    /// Only if the embedded ratings file is broken, which the tests rule out.
+    /// The table built into the program: the rows of the embedded file,
+    /// written out as Rust values (`builtin_rows.rs`, held to what
+    /// [`RatingsTable::from_kdl_text`] reads from the file by
+    /// `builtin_rows_tests.rs`), so that a run does not parse the file
+    /// (a ninth of a render's own instructions). Made once per process;
+    /// later calls get a copy of that table.
     pub fn builtin() -> RatingsTable {
         static BUILTIN: OnceLock<RatingsTable> = OnceLock::new();
         BUILTIN
             .get_or_init(|| {
-                let rows = RatingsTable::from_kdl_text(BUILTIN_NAME, BUILTIN_TEXT, RatingOrigin::Builtin)
-                    .expect("the built-in ratings file ratings/valves.kdl must parse (the ratings tests check it)");
+                let rows = super::builtin_rows::rows();
                 let mut table = RatingsTable {
                     rows,
                     index: HashMap::new(),

@@ -341,7 +341,38 @@ fn file_needs_cjk(path: &str, bytes: &[u8]) -> bool {
     match extension.as_str() {
         "typ" => typst_needs_cjk(text),
         "svg" => svg_needs_cjk(text),
-        _ => text.chars().any(body_takes_cjk),
+        _ => any_beyond_ascii(text, body_takes_cjk),
+    }
+}
+
+/// Whether `test` holds for some character of `text` outside ASCII
+/// (for which [`in_table`] is always false), reading the ASCII runs
+/// eight bytes at a time rather than as characters: a document's
+/// sources are almost all ASCII, and decoding them character by
+/// character was a twentieth of a render's own instructions.
+fn any_beyond_ascii(text: &str, test: impl Fn(char) -> bool) -> bool {
+    const HIGH_BITS: u64 = 0x8080_8080_8080_8080;
+    let bytes = text.as_bytes();
+    let mut at = 0;
+    loop {
+        while let Some(word) = bytes.get(at..at + 8) {
+            let word = u64::from_ne_bytes(word.try_into().expect("eight bytes"));
+            if word & HIGH_BITS != 0 {
+                break;
+            }
+            at += 8;
+        }
+        match bytes[at..].iter().position(|b| !b.is_ascii()) {
+            None => return false,
+            Some(i) => at += i,
+        }
+        // A byte outside ASCII after ASCII or after a whole character
+        // begins a character.
+        let c = text[at..].chars().next().expect("a character begins here");
+        if test(c) {
+            return true;
+        }
+        at += c.len_utf8();
     }
 }
 
@@ -353,7 +384,7 @@ fn typst_needs_cjk(text: &str) -> bool {
     {
         return true;
     }
-    text.chars().any(body_takes_cjk)
+    any_beyond_ascii(text, body_takes_cjk)
         || text
             .split("\\u{")
             .skip(1)
@@ -369,7 +400,7 @@ fn svg_needs_cjk(text: &str) -> bool {
         return true;
     }
     let table = CJK_IN_SVG;
-    text.chars().any(|c| in_table(table, c))
+    any_beyond_ascii(text, |c| in_table(table, c))
         || text.split("&#").skip(1).any(|rest| {
             let (digits, radix) = match rest.strip_prefix(['x', 'X']) {
                 Some(hex) => (hex, 16),
@@ -478,6 +509,43 @@ mod tests {
 
     fn repo_fonts() -> std::path::PathBuf {
         Path::new(env!("CARGO_MANIFEST_DIR")).join("fonts")
+    }
+
+    /// `any_beyond_ascii` answers as testing every character does, with
+    /// characters of one to four bytes at every place of a text longer
+    /// and shorter than its eight-byte steps, ASCII ones included.
+    #[test]
+    fn any_beyond_ascii_tests_what_every_character_would() {
+        let marks = ['a', '\u{e9}', '\u{4e2d}', '\u{1f600}', '\u{ad}'];
+        for len in 0..20 {
+            for at in 0..=len {
+                for mark in marks {
+                    for second in [None, Some('\u{3b1}'), Some('\u{4e2d}')] {
+                        let mut text: String =
+                            (0..len).map(|i| (b'a' + (i % 26) as u8) as char).collect();
+                        text.insert(at, mark);
+                        if let Some(c) = second {
+                            text.push(c);
+                        }
+                        for test in [
+                            (|c: char| c == '\u{4e2d}') as fn(char) -> bool,
+                            |c| c == '\u{1f600}',
+                            |c| c.is_ascii(),
+                            body_takes_cjk,
+                            |c| in_table(CJK_IN_SVG, c),
+                        ] {
+                            let whole = text.chars().any(|c| !c.is_ascii() && test(c));
+                            assert_eq!(any_beyond_ascii(&text, test), whole, "{text:?}");
+                        }
+                    }
+                }
+            }
+        }
+        // ASCII is never set in the CJK face, so leaving it untested
+        // changes no answer.
+        assert!(
+            (0..0x80u8).all(|b| !body_takes_cjk(b as char) && !in_table(CJK_IN_SVG, b as char))
+        );
     }
 
     #[test]

@@ -270,13 +270,28 @@ pub fn compile_command(dir: &Path, options: &CompileOptions, output: &Path) -> S
     cmd
 }
 
+/// `draw` of each part of a chart, in order: on every core (rayon) when
+/// there are several, on this thread when there is one, as for a short
+/// job, where handing it out would start rayon's pool of threads (each
+/// with its own heap and its idle spinning) for nothing.
+fn each_part<P: Sync, T: Send, E: Send>(
+    parts: &[P],
+    draw: impl Fn(&P) -> Result<T, E> + Sync + Send,
+) -> Result<Vec<T>, E> {
+    use rayon::prelude::*;
+    if parts.len() > 1 {
+        parts.par_iter().map(draw).collect()
+    } else {
+        parts.iter().map(draw).collect()
+    }
+}
+
 /// Builds the context and the charts, fills the template and lays out the
 /// sandbox.
 pub fn build(
     input: &HandoverInput<'_>,
     templates: &TemplateSource,
 ) -> Result<Document, HandoverError> {
-    use rayon::prelude::*;
     let mut sandbox = Sandbox::new();
     // A long job's charts come in many parts (a few sets each), each drawn
     // on its own: they are drawn on every core and put in the sandbox in
@@ -284,10 +299,7 @@ pub fn build(
     let mut dissipation_charts = Vec::new();
     if let Some(chart) = plots::dissipation_chart(input.findings, input.catalogue) {
         let parts = plots::split_dissipation(&chart);
-        let svgs = parts
-            .par_iter()
-            .map(|part| plots::dissipation_svg(&part.chart))
-            .collect::<Result<Vec<_>, _>>()?;
+        let svgs = each_part(&parts, |part| plots::dissipation_svg(&part.chart))?;
         for (i, (part, svg)) in parts.into_iter().zip(svgs).enumerate() {
             let path = chart_part_path(DISSIPATION_PLOT, i);
             sandbox.insert(&path, svg)?;
@@ -300,10 +312,7 @@ pub fn build(
     let mut supply_charts = Vec::new();
     if let Some(chart) = plots::supply_chart(input.findings, input.catalogue) {
         let parts = plots::split_supply(&chart);
-        let svgs = parts
-            .par_iter()
-            .map(|part| plots::supply_svg(&part.chart))
-            .collect::<Result<Vec<_>, _>>()?;
+        let svgs = each_part(&parts, |part| plots::supply_svg(&part.chart))?;
         for (i, (part, svg)) in parts.into_iter().zip(svgs).enumerate() {
             let path = chart_part_path(SUPPLY_PLOT, i);
             sandbox.insert(&path, svg)?;
