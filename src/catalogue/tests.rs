@@ -595,3 +595,53 @@ fn a_part_is_read_only_when_one_of_its_messages_is_said() {
     assert!(catalogue.has("diag-here"));
     assert_eq!(read(), ["cli-wrote", "diag", "month"]);
 }
+
+#[test]
+fn group_of_is_the_first_words() {
+    // The key's first word, or its first two for `cli-…`, as splitting it
+    // at its hyphens gives them.
+    let split = |key: &str| -> String {
+        let mut words = key.splitn(3, '-');
+        let first = words.next().unwrap_or_default();
+        match (first, words.next()) {
+            ("cli", Some(second)) => key[..first.len() + 1 + second.len()].to_string(),
+            _ => first.to_string(),
+        }
+    };
+    let mut keys: Vec<String> = [
+        "",
+        "-",
+        "--",
+        "cli",
+        "cli-",
+        "cli--",
+        "cli-x",
+        "cli-x-",
+        "cli-x-y-z",
+        "clix-a",
+        "xcli-a-b",
+        "reason",
+        "reason-",
+        "reason-of-rating",
+        "-cli-a",
+        "cli-ä-b",
+        "ä-b",
+    ]
+    .iter()
+    .map(|k| k.to_string())
+    .collect();
+    for (_, text) in BUILT_IN {
+        keys.extend(message_lines(text).into_keys());
+    }
+    for key in &keys {
+        assert_eq!(group_of(key), split(key), "{key:?}");
+    }
+    // The groups' order is the strings' order.
+    let mut groups: Vec<&str> = keys.iter().map(|k| group_of(k)).collect();
+    groups.extend(["", "a", "ab", "b", "ä", "cli", "cli-a", "cli-ab", "clj"]);
+    for a in &groups {
+        for b in groups.iter().step_by(7) {
+            assert_eq!(cmp_short(a, b), a.cmp(b), "{a:?} {b:?}");
+        }
+    }
+}
