@@ -1419,3 +1419,42 @@ fn init_repo_writes_the_git_files_once() {
         "mine\n"
     );
 }
+
+#[test]
+fn a_shop_profile_or_ratings_file_given_as_a_job_gets_one_error_saying_what_it_is() {
+    let shop = "// a shop profile\nshop-format 1\nshop \"Test Bench\"\ntechnician \"A. Tester\"\n";
+    let ratings = "ratings-format 1\nvalve XT1 {\n    plate-dissipation \"10W\"\n}\n";
+    for (name, text, says) in [
+        ("bench.kdl", shop, "this is a shop profile, not a job file"),
+        (
+            "tubes.kdl",
+            ratings,
+            "this is a ratings file, not a job file",
+        ),
+    ] {
+        let dir = job_file(name, text);
+        for command in ["check", "render"] {
+            let o = run_in(dir.path(), &[command, name]);
+            assert_eq!(code(&o), 1, "{command} {name}");
+            let err = stderr(&o);
+            assert_eq!(
+                err.matches("ampreport::job::not-a-job-file").count(),
+                1,
+                "{command} {name}: {err}"
+            );
+            assert!(err.contains(says), "{command} {name}: {err}");
+            assert!(!err.contains("unknown-node"), "{command} {name}: {err}");
+            assert_eq!(
+                reported_positions(&err, name),
+                [pos_of(
+                    name,
+                    text,
+                    text.lines().find(|l| !l.starts_with("//")).unwrap(),
+                    0
+                )],
+                "{command} {name}: {err}"
+            );
+            assert!(!dir.path().join(name.replace(".kdl", ".pdf")).exists());
+        }
+    }
+}

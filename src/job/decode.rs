@@ -103,6 +103,22 @@ pub const BENCH_CHECKS: &[&str] = &["output-power", "hum-noise"];
 /// The safety tests, as written in a job file.
 pub const SAFETY_TESTS: &[&str] = &["earth-continuity", "insulation", "leakage"];
 
+/// The first node of a document that has neither `job-format` nor `job`,
+/// when that node opens a shop profile (`shop-format`) or a ratings file
+/// (`ratings-format`, `valve`).
+fn other_kind_of_file(doc: &KdlDocument) -> Option<&KdlNode> {
+    let nodes = doc.nodes();
+    if nodes
+        .iter()
+        .any(|n| matches!(n.name().value(), "job-format" | "job"))
+    {
+        return None;
+    }
+    nodes
+        .first()
+        .filter(|n| matches!(n.name().value(), "shop-format" | "ratings-format" | "valve"))
+}
+
 /// Decodes job text whose KDL syntax has already parsed.
 pub(crate) fn decode_document(
     doc: &KdlDocument,
@@ -110,6 +126,29 @@ pub(crate) fn decode_document(
     defaults: &JobDefaults,
     r: &mut Reader,
 ) -> Option<Job> {
+    // A shop profile or a ratings file given where a job file belongs:
+    // one error saying what the file is, rather than one for each of its
+    // nodes that a job file does not know.
+    if let Some(other) = other_kind_of_file(doc) {
+        r.push(
+            DecodeError::error(
+                "job::not-a-job-file",
+                Reader::name_span(other),
+                Msg::new(if other.name().value() == "shop-format" {
+                    "diag-is-shop-profile"
+                } else {
+                    "diag-is-ratings-file"
+                }),
+                Msg::new("diag-not-a-job-file"),
+            )
+            .with_help(Msg::new(if other.name().value() == "shop-format" {
+                "diag-is-shop-profile-help"
+            } else {
+                "diag-is-ratings-file-help"
+            })),
+        );
+        return None;
+    }
     let nodes = r.children(Some(doc), TOP_LEVEL, Msg::new("diag-in-job-file"));
 
     // Repeated singletons.

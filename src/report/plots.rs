@@ -394,14 +394,17 @@ fn is_xml_forbidden(c: char) -> bool {
 
 /// A whole-number percentage for a label.
 fn pct_label(v: f64) -> String {
-    format!("{} %", whole(v))
+    let mut label = whole(v);
+    label.push_str(" %");
+    label
 }
 
 /// A figure as a whole number, or in scientific notation when it would
 /// take more than six digits, so a label stays short whatever the value.
 fn whole(v: f64) -> String {
     if v.abs() < 999_999.5 {
-        format!("{v:.0}")
+        // `format!("{v:.0}")`'s text without its exact float path.
+        crate::units::fixed(v, 0)
     } else {
         format!("{v:.2e}")
     }
@@ -617,13 +620,15 @@ impl Line {
 
 /// Draws `text` centred in `b` on a patch of whatever lies behind it (paper,
 /// or the band colour where it overlaps a band), so a line it could not
-/// avoid passes behind the figure rather than through it.
+/// avoid passes behind the figure rather than through it. `style` is a
+/// centred style (`anchored(size, HPos::Center, VPos::Center)`, made once
+/// per chart).
 pub(crate) fn draw_label(
     area: &DrawingArea<SvgOut<'_>, Shift>,
     b: &PixelBox,
     bands: &[PixelBox],
     text: &str,
-    size: u32,
+    style: &TextStyle<'static>,
 ) -> Result<(), String> {
     area.draw(&Rectangle::new(b.corners(), PAPER.filled()))
         .map_err(|e| e.to_string())?;
@@ -634,12 +639,55 @@ pub(crate) fn draw_label(
         }
     }
     let (cx, cy) = b.centre();
-    area.draw(&Text::new(
-        text.to_string(),
+    area.draw(&Label::new(
+        text,
         (cx.round() as i32, cy.round() as i32),
-        anchored(size, HPos::Center, VPos::Center),
+        style,
     ))
     .map_err(|e| e.to_string())
+}
+
+/// A text at a point, drawn as plotters' `Text` draws one (one
+/// `draw_text` of the backend), with a style borrowed rather than owned: a
+/// style is made once per chart and not again for each of its hundreds of
+/// texts (making one is two allocations, its font's family and style
+/// names), nor the text copied into a string of its own.
+pub(crate) struct Label<'s> {
+    text: &'s str,
+    at: [(i32, i32); 1],
+    style: &'s TextStyle<'static>,
+}
+
+impl<'s> Label<'s> {
+    pub(crate) fn new(text: &'s str, at: (i32, i32), style: &'s TextStyle<'static>) -> Self {
+        Label {
+            text,
+            at: [at],
+            style,
+        }
+    }
+}
+
+impl<'a> plotters::element::PointCollection<'a, (i32, i32)> for &'a Label<'_> {
+    type Point = &'a (i32, i32);
+    type IntoIter = &'a [(i32, i32)];
+    fn point_iter(self) -> &'a [(i32, i32)] {
+        &self.at
+    }
+}
+
+impl<DB: DrawingBackend> plotters::element::Drawable<DB> for Label<'_> {
+    fn draw<I: Iterator<Item = (i32, i32)>>(
+        &self,
+        mut points: I,
+        backend: &mut DB,
+        _: (u32, u32),
+    ) -> Result<(), plotters_backend::DrawingErrorKind<DB::ErrorType>> {
+        if let Some(at) = points.next() {
+            return backend.draw_text(self.text, self.style, at);
+        }
+        Ok(())
+    }
 }
 
 /// Height of a figure label's box at font size 12 (set at 9.7 px), in
@@ -693,25 +741,16 @@ fn bar_pattern(k: usize) -> (RGBColor, Overlay) {
     (FILLS[i % FILLS.len()], overlay)
 }
 
-/// The fill of a stand-in that marks, while plotters draws, where a bar's
-/// dots go: a colour no chart uses. [`place_dots`] replaces each stand-in
-/// by its bar's dots.
-const DOTS_MARK: RGBColor = RGBColor(1, 2, 3);
-
-/// The SVG attribute plotters writes for [`DOTS_MARK`].
-const DOTS_MARK_FILL: &str = "fill=\"#010203\"";
-
 /// Draws a bar's fill with its overlay. A dotted bar's dots are one SVG
-/// path, pushed onto `dots` (plotters' SVG writer has no paths of many
-/// parts, and one `<rect>` per dot made the charts several times larger),
-/// with a stand-in drawn where it goes.
+/// path ([`DotPath`]: plotters' SVG writer has no paths of many parts, and
+/// one `<rect>` per dot made the charts several times larger), written
+/// right after the bar's fill.
 fn fill_bar(
     area: &DrawingArea<SvgOut<'_>, Shift>,
     a: (i32, i32),
     b: (i32, i32),
     k: usize,
     spacing: i32,
-    dots: &mut Vec<String>,
 ) -> Result<(), String> {
     let (fill, overlay) = bar_pattern(k);
     area.draw(&Rectangle::new([a, b], fill.filled()))
@@ -719,12 +758,12 @@ fn fill_bar(
     match overlay {
         Overlay::Hatch => hatch(area, a, b, spacing)?,
         Overlay::Dots => {
-            let dot = if fill.0 < 128 { PAPER } else { INK };
-            if let Some(path) = dot_path(a, b, dot) {
-                dots.push(path);
-                area.draw(&Rectangle::new([a, a], DOTS_MARK.filled()))
-                    .map_err(|e| e.to_string())?;
-            }
+            let colour = if fill.0 < 128 { PAPER } else { INK };
+            area.draw(&DotPath {
+                corners: [a, b],
+                colour,
+            })
+            .map_err(|e| e.to_string())?;
         }
         Overlay::Solid => {}
     }
@@ -733,63 +772,68 @@ fn fill_bar(
     Ok(())
 }
 
-/// The dots over a bar from `a` to `b` as one SVG path of 1-pixel
+/// The dots over a bar between two corners, as one SVG `<path>` element
+/// written straight into the chart's document ([`push_dot_path`]): an
+/// element of plotters' for the chart's own writer only.
+struct DotPath {
+    corners: [(i32, i32); 2],
+    colour: RGBColor,
+}
+
+impl<'a> plotters::element::PointCollection<'a, (i32, i32)> for &'a DotPath {
+    type Point = &'a (i32, i32);
+    type IntoIter = &'a [(i32, i32)];
+    fn point_iter(self) -> &'a [(i32, i32)] {
+        &self.corners
+    }
+}
+
+impl plotters::element::Drawable<SvgOut<'_>> for DotPath {
+    fn draw<I: Iterator<Item = (i32, i32)>>(
+        &self,
+        mut corners: I,
+        backend: &mut SvgOut<'_>,
+        _: (u32, u32),
+    ) -> Result<(), plotters_backend::DrawingErrorKind<svg_out::Error>> {
+        if let (Some(a), Some(b)) = (corners.next(), corners.next()) {
+            push_dot_path(backend.document(), a, b, self.colour);
+        }
+        Ok(())
+    }
+}
+
+/// Writes the dots over a bar from `a` to `b` as one SVG path of 1-pixel
 /// squares, every 5 pixels, each row shifted by 2 from the one before
-/// (none when the bar is too small to hold one).
-fn dot_path(a: (i32, i32), b: (i32, i32), colour: RGBColor) -> Option<String> {
+/// (nothing when the bar is too small to hold one), onto `svg`.
+fn push_dot_path(svg: &mut String, a: (i32, i32), b: (i32, i32), colour: RGBColor) {
     let (x0, x1) = (a.0.min(b.0), a.0.max(b.0));
     let (y0, y1) = (a.1.min(b.1), a.1.max(b.1));
+    let start = svg.len();
+    svg.push_str("<path d=\"");
+    let first = svg.len();
     // The numbers written straight into the path, as `write!(d, "M{x}
     // {y}h1v1h-1z")` wrote them: a long job's charts hold millions of
     // dots, and the formatting machinery was half of drawing its bars.
-    let mut d = String::new();
     let mut y = y0 + 3;
     while y < y1 - 1 {
         let mut x = x0 + 3 + ((y - y0) / 5 % 2) * 2;
         while x < x1 - 1 {
-            d.push('M');
-            svg_out::push_i64(&mut d, i64::from(x));
-            d.push(' ');
-            svg_out::push_i64(&mut d, i64::from(y));
-            d.push_str("h1v1h-1z");
+            svg.push('M');
+            svg_out::push_i64(svg, i64::from(x));
+            svg.push(' ');
+            svg_out::push_i64(svg, i64::from(y));
+            svg.push_str("h1v1h-1z");
             x += 5;
         }
         y += 5;
     }
-    if d.is_empty() {
-        return None;
-    }
-    let RGBColor(r, g, b) = colour;
-    Some(format!(
-        "<path d=\"{d}\" opacity=\"1\" fill=\"#{r:02X}{g:02X}{b:02X}\" stroke=\"none\"/>\n"
-    ))
-}
-
-/// Puts each bar's dots (in the order they were drawn) where plotters wrote
-/// its stand-in ([`DOTS_MARK`]): each stand-in is one line of the SVG, a
-/// `<rect …>` line holding [`DOTS_MARK_FILL`]. The lines holding the mark
-/// are found by searching for it rather than by reading every line.
-fn place_dots(svg: &mut String, dots: Vec<String>) {
-    if dots.is_empty() {
+    if svg.len() == first {
+        svg.truncate(start);
         return;
     }
-    let mut out = String::with_capacity(svg.len() + dots.iter().map(String::len).sum::<usize>());
-    let mut dots = dots.into_iter();
-    // Everything before `done` has been copied to `out`.
-    let mut done = 0;
-    let mut from = 0;
-    while let Some(at) = svg[from..].find(DOTS_MARK_FILL).map(|i| from + i) {
-        let start = svg[..at].rfind('\n').map_or(0, |i| i + 1);
-        let end = svg[at..].find('\n').map_or(svg.len(), |i| at + i + 1);
-        if svg[start..].starts_with("<rect ") {
-            out.push_str(&svg[done..start]);
-            out.push_str(&dots.next().unwrap_or_default());
-            done = end;
-        }
-        from = end;
-    }
-    out.push_str(&svg[done..]);
-    *svg = out;
+    svg.push_str("\" opacity=\"1\" fill=\"");
+    svg_out::push_rgb(svg, colour);
+    svg.push_str("\" stroke=\"none\"/>\n");
 }
 
 /// Legend entries laid out left to right from `left`, wrapping before
@@ -834,20 +878,54 @@ fn hatch(
     let (x0, x1) = (x0.min(x1), x0.max(x1));
     let (y0, y1) = (y0.min(y1), y0.max(y1));
     let mut c = x0 + y0 + spacing;
+    let style = INK.stroke_width(1);
     while c < x1 + y1 {
         // Points on x + y = c inside the rectangle.
         let xa = x0.max(c - y1);
         let xb = x1.min(c - y0);
         if xa < xb {
-            area.draw(&PathElement::new(
-                vec![(xa, c - xa), (xb, c - xb)],
-                INK.stroke_width(1),
-            ))
-            .map_err(|e| e.to_string())?;
+            area.draw(&Segment::new((xa, c - xa), (xb, c - xb), &style))
+                .map_err(|e| e.to_string())?;
         }
         c += spacing;
     }
     Ok(())
+}
+
+/// A path of two points, drawn as plotters' `PathElement` draws one (one
+/// `draw_path` of the backend) without a list of its own: the hatching
+/// and dashes are thousands of such strokes in a long job's charts.
+struct Segment<'s> {
+    points: [(i32, i32); 2],
+    style: &'s ShapeStyle,
+}
+
+impl<'s> Segment<'s> {
+    fn new(from: (i32, i32), to: (i32, i32), style: &'s ShapeStyle) -> Self {
+        Segment {
+            points: [from, to],
+            style,
+        }
+    }
+}
+
+impl<'a> plotters::element::PointCollection<'a, (i32, i32)> for &'a Segment<'_> {
+    type Point = &'a (i32, i32);
+    type IntoIter = &'a [(i32, i32)];
+    fn point_iter(self) -> &'a [(i32, i32)] {
+        &self.points
+    }
+}
+
+impl<DB: DrawingBackend> plotters::element::Drawable<DB> for Segment<'_> {
+    fn draw<I: Iterator<Item = (i32, i32)>>(
+        &self,
+        points: I,
+        backend: &mut DB,
+        _: (u32, u32),
+    ) -> Result<(), plotters_backend::DrawingErrorKind<DB::ErrorType>> {
+        backend.draw_path(points, self.style)
+    }
 }
 
 /// A horizontal dashed line in pixel coordinates.
@@ -861,7 +939,7 @@ pub(crate) fn dashed(
     let mut x = x0;
     while x < x1 {
         let end = (x + 8).min(x1);
-        area.draw(&PathElement::new(vec![(x, y), (end, y)], style))
+        area.draw(&Segment::new((x, y), (end, y), &style))
             .map_err(|e| e.to_string())?;
         x += 13;
     }
@@ -874,9 +952,8 @@ fn legend_swatch_bar(
     x: i32,
     y: i32,
     k: usize,
-    dots: &mut Vec<String>,
 ) -> Result<(), String> {
-    fill_bar(area, (x, y - 7), (x + 22, y + 7), k, 6, dots)
+    fill_bar(area, (x, y - 7), (x + 22, y + 7), k, 6)
 }
 
 /// The axes every chart shares: no x labels or upright grid (each chart
@@ -929,20 +1006,8 @@ pub(crate) fn to_svg<T>(
     Ok(svg)
 }
 
+/// The plate-dissipation chart.
 fn draw_dissipation(chart: &DissipationChart, svg: &mut String) -> Result<(), String> {
-    let mut dots = Vec::new();
-    draw_dissipation_bars(chart, svg, &mut dots)?;
-    place_dots(svg, dots);
-    Ok(())
-}
-
-/// The plate-dissipation chart as plotters draws it, dotted bars with a
-/// stand-in for their dots (pushed onto `dots`).
-fn draw_dissipation_bars(
-    chart: &DissipationChart,
-    svg: &mut String,
-    dots: &mut Vec<String>,
-) -> Result<(), String> {
     let root = SvgOut::with_string(svg, SIZE).into_drawing_area();
     root.fill(&PAPER).map_err(|e| e.to_string())?;
     let n = chart.valves.len().max(1);
@@ -980,7 +1045,7 @@ fn draw_dissipation_bars(
     draw_mesh(
         &mut ctx,
         axis.labels(),
-        &|v| format!("{v:.0}"),
+        &|v| crate::units::fixed(*v, 0),
         &chart.words.text("chart-dissipation-axis"),
     )?;
 
@@ -1043,7 +1108,7 @@ fn draw_dissipation_bars(
             let x1 = slot + bar * 0.95;
             let a = ctx.backend_coord(&(x0, v));
             let b = ctx.backend_coord(&(x1, 0.0));
-            fill_bar(&root, a, b, k, 7, dots)?;
+            fill_bar(&root, a, b, k, 7)?;
             let pixels = PixelBox::new(
                 (f64::from(a.0), f64::from(a.1)),
                 (f64::from(b.0), f64::from(b.1)),
@@ -1096,6 +1161,8 @@ fn draw_dissipation_bars(
         Guide::None => {}
     }
     let bands = obstacles.bands().to_vec();
+    let figure = anchored(12, HPos::Center, VPos::Center);
+    let upright_figure = figure.clone().transform(FontTransform::Rotate270);
     for (pixels, column, text) in &bars {
         let w = text_width(text, 12) + 4.0;
         let upright = w > column.x1 - column.x0;
@@ -1113,60 +1180,29 @@ fn draw_dissipation_bars(
             .collect();
         let place = obstacles.place(&candidates);
         if upright {
-            draw_upright_label(&root, &place, &bands, text, 12)?;
+            draw_label(&root, &place, &bands, text, &upright_figure)?;
         } else {
-            draw_label(&root, &place, &bands, text, 12)?;
+            draw_label(&root, &place, &bands, text, &figure)?;
         }
     }
 
     // Category labels under the axis.
+    let category = anchored(13, HPos::Center, VPos::Top);
     for (i, label) in chart.valves.iter().enumerate() {
         let (x, y) = ctx.backend_coord(&(i as f64 + 0.5, 0.0));
-        root.draw(&Text::new(
-            label_text(label, 18),
-            (x, y + 8),
-            anchored(13, HPos::Center, VPos::Top),
-        ))
-        .map_err(|e| e.to_string())?;
+        root.draw(&Label::new(&label_text(label, 18), (x, y + 8), &category))
+            .map_err(|e| e.to_string())?;
     }
 
     // Legend along the top, wrapped.
+    let legend_style = anchored(13, HPos::Left, VPos::Center);
     for (k, ((x, y), text)) in legend.iter().zip(&legend_labels).enumerate() {
-        legend_swatch_bar(&root, *x, *y, k, dots)?;
-        root.draw(&Text::new(
-            text.clone(),
-            (x + 30, *y),
-            anchored(13, HPos::Left, VPos::Center),
-        ))
-        .map_err(|e| e.to_string())?;
+        legend_swatch_bar(&root, *x, *y, k)?;
+        root.draw(&Label::new(text, (x + 30, *y), &legend_style))
+            .map_err(|e| e.to_string())?;
     }
     root.present().map_err(|e| e.to_string())?;
     Ok(())
-}
-
-/// Like [`draw_label`], for a figure standing on end (read from below).
-fn draw_upright_label(
-    area: &DrawingArea<SvgOut<'_>, Shift>,
-    b: &PixelBox,
-    bands: &[PixelBox],
-    text: &str,
-    size: u32,
-) -> Result<(), String> {
-    area.draw(&Rectangle::new(b.corners(), PAPER.filled()))
-        .map_err(|e| e.to_string())?;
-    for band in bands {
-        if let Some(part) = b.intersection(band) {
-            area.draw(&Rectangle::new(part.corners(), LIGHT.filled()))
-                .map_err(|e| e.to_string())?;
-        }
-    }
-    let (cx, cy) = b.centre();
-    area.draw(&Text::new(
-        text.to_string(),
-        (cx.round() as i32, cy.round() as i32),
-        anchored(size, HPos::Center, VPos::Center).transform(FontTransform::Rotate270),
-    ))
-    .map_err(|e| e.to_string())
 }
 
 /// How set `k` is marked in the supply chart.
@@ -1348,7 +1384,12 @@ fn draw_supply(chart: &SupplyChart, svg: &mut String) -> Result<(), String> {
         "chart-supply-axis",
         &[("nominal", Arg::from(whole(chart.nominal_volts)))],
     );
-    draw_mesh(&mut ctx, 2 * axis.labels(), &|v| format!("{v:.0}"), &desc)?;
+    draw_mesh(
+        &mut ctx,
+        2 * axis.labels(),
+        &|v| crate::units::fixed(*v, 0),
+        &desc,
+    )?;
     let (left, _) = ctx.backend_coord(&(0.0, bottom));
 
     // Bands: the expected figure ± tolerance, as a grey column per node.
@@ -1442,23 +1483,25 @@ fn draw_supply(chart: &SupplyChart, svg: &mut String) -> Result<(), String> {
     // the table carries the figures).
     if sets <= 2 {
         let bands = obstacles.bands().to_vec();
+        let figure = anchored(12, HPos::Center, VPos::Center);
         for (k, line) in points.iter().enumerate() {
             for (v, p) in line {
                 let text = whole(*v);
                 let w = text_width(&text, 12) + 4.0;
                 let candidates = label_spots(*p, w, LABEL_HEIGHT, k == 0);
                 let place = obstacles.place(&candidates);
-                draw_label(&root, &place, &bands, &text, 12)?;
+                draw_label(&root, &place, &bands, &text, &figure)?;
             }
         }
     }
 
+    let category = anchored(13, HPos::Center, VPos::Top);
     for (i, node) in chart.nodes.iter().enumerate() {
         let (x, y) = ctx.backend_coord(&(i as f64 + 0.5, bottom));
-        root.draw(&Text::new(
-            label_text(&node.name, 18),
+        root.draw(&Label::new(
+            &label_text(&node.name, 18),
             (x, y + 8),
-            anchored(13, HPos::Center, VPos::Top),
+            &category,
         ))
         .map_err(|e| e.to_string())?;
     }
@@ -1471,12 +1514,9 @@ fn draw_supply(chart: &SupplyChart, svg: &mut String) -> Result<(), String> {
     ))
     .map_err(|e| e.to_string())?;
     dashed(&root, x, x + 22, y, INK.stroke_width(1))?;
-    root.draw(&Text::new(
-        band_text,
-        (x + 30, y),
-        anchored(13, HPos::Left, VPos::Center),
-    ))
-    .map_err(|e| e.to_string())?;
+    let legend_style = anchored(13, HPos::Left, VPos::Center);
+    root.draw(&Label::new(&band_text, (x + 30, y), &legend_style))
+        .map_err(|e| e.to_string())?;
     for (k, ((x, y), text)) in legend
         .iter()
         .skip(1)
@@ -1484,12 +1524,8 @@ fn draw_supply(chart: &SupplyChart, svg: &mut String) -> Result<(), String> {
         .enumerate()
     {
         draw_marker(&root, (x + 11, *y), marker(k))?;
-        root.draw(&Text::new(
-            text.clone(),
-            (x + 30, *y),
-            anchored(13, HPos::Left, VPos::Center),
-        ))
-        .map_err(|e| e.to_string())?;
+        root.draw(&Label::new(text, (x + 30, *y), &legend_style))
+            .map_err(|e| e.to_string())?;
     }
     root.present().map_err(|e| e.to_string())?;
     Ok(())
@@ -1704,12 +1740,16 @@ mod tests {
             })
             .collect();
         let svg = dissipation_svg(&chart).unwrap();
-        assert!(!svg.contains(DOTS_MARK_FILL), "a stand-in was left");
         // Two dotted sets: two bars and a legend swatch each.
         let paths: Vec<&str> = svg.lines().filter(|l| l.starts_with("<path ")).collect();
         assert_eq!(paths.len(), 6, "{paths:?}");
         // Each path holds the 1-pixel squares the dots always were: every
         // 5 pixels from 3 inside the bar, alternate rows shifted by 2.
+        let dot_path = |a, b, colour| {
+            let mut svg = String::new();
+            push_dot_path(&mut svg, a, b, colour);
+            (!svg.is_empty()).then_some(svg)
+        };
         let element = dot_path((10, 40), (24, 10), PAPER).unwrap();
         assert!(element.ends_with("fill=\"#FFFFFF\" stroke=\"none\"/>\n"));
         let d = element.split('"').nth(1).unwrap();

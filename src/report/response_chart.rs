@@ -268,13 +268,14 @@ fn draw_response(chart: &ResponseChart, svg: &mut String) -> Result<(), String> 
         }
     }
     let bands = obstacles.bands().to_vec();
+    let figure = anchored(12, HPos::Center, VPos::Center);
     for ((x, y), f) in ticks {
         let text = format_engineering(f, Q::Frequency);
         let w = text_width(&text, 12) + 4.0;
         let left_first = f64::from(x) > (l + r) / 2.0;
         let candidates = label_spots((x, y + 16), w, LABEL_HEIGHT, left_first);
         let place = obstacles.place(&candidates);
-        draw_label(&root, &place, &bands, &text, 12)?;
+        draw_label(&root, &place, &bands, &text, &figure)?;
     }
 
     // Legend along the top: each curve's marker and label.

@@ -34,14 +34,33 @@ pub(crate) struct Obstacles {
     /// Shaded bands: a label sits inside one or outside it, not across its
     /// edge.
     bands: Vec<PixelBox>,
-    /// The buckets, row by row, each listing the obstacles that reach
-    /// into it (kind and index, in the order they were added).
-    cells: Vec<Vec<(Kind, u32)>>,
+    /// The buckets, row by row: each the first of its entries in
+    /// `entries` ([`NONE`] when it has none).
+    cells: Vec<u32>,
+    /// Every bucket's entries in one list, each linked to the next of its
+    /// bucket (newest first): an obstacle filed into a bucket costs one
+    /// push here, where a list per bucket grew by one allocation after
+    /// another.
+    entries: Vec<Entry>,
     columns: usize,
     rows: usize,
     /// Where bucket (0, 0) starts.
     origin: (f64, f64),
+    /// The lists [`Obstacles::near`] fills, kept between calls so that
+    /// pricing a place allocates nothing.
+    scratch: std::cell::RefCell<[Vec<u32>; 3]>,
 }
+
+/// One obstacle filed in one bucket, and the bucket's next entry.
+#[derive(Debug, Clone, Copy)]
+struct Entry {
+    kind: Kind,
+    index: u32,
+    next: u32,
+}
+
+/// The end of a bucket's entries.
+const NONE: u32 = u32::MAX;
 
 impl Obstacles {
     /// Obstacles for labels that must stay inside `area`. The buckets cover
@@ -65,10 +84,12 @@ impl Obstacles {
             solid: Vec::new(),
             lines: Vec::new(),
             bands: Vec::new(),
-            cells: vec![Vec::new(); columns * rows],
+            cells: vec![NONE; columns * rows],
+            entries: Vec::new(),
             columns,
             rows,
             origin,
+            scratch: std::cell::RefCell::new([Vec::new(), Vec::new(), Vec::new()]),
         }
     }
 
@@ -129,33 +150,41 @@ impl Obstacles {
         let (columns, rows) = self.span(b);
         for r in rows {
             for c in columns.clone() {
-                self.cells[r * self.columns + c].push((kind, index));
+                let cell = &mut self.cells[r * self.columns + c];
+                let next = *cell;
+                *cell = u32::try_from(self.entries.len()).unwrap_or(NONE);
+                self.entries.push(Entry { kind, index, next });
             }
         }
     }
 
     /// The obstacles of each kind near `b`, each once, in the order they
-    /// were added.
-    fn near(&self, b: &PixelBox) -> [Vec<u32>; 3] {
-        let mut found: [Vec<u32>; 3] = [Vec::new(), Vec::new(), Vec::new()];
+    /// were added, into `found` (emptied first).
+    fn near(&self, b: &PixelBox, found: &mut [Vec<u32>; 3]) {
+        for list in found.iter_mut() {
+            list.clear();
+        }
         let (columns, rows) = self.span(b);
         for r in rows {
             for c in columns.clone() {
-                for &(kind, i) in &self.cells[r * self.columns + c] {
-                    found[kind as usize].push(i);
+                let mut at = self.cells[r * self.columns + c];
+                while let Some(e) = self.entries.get(at as usize) {
+                    found[e.kind as usize].push(e.index);
+                    at = e.next;
                 }
             }
         }
-        for list in &mut found {
+        for list in found.iter_mut() {
             list.sort_unstable();
             list.dedup();
         }
-        found
     }
 
     /// How bad a label at `b` would be; 0 when it is clear of everything.
     pub(crate) fn cost(&self, b: &PixelBox) -> f64 {
-        let [solid, lines, bands] = self.near(b);
+        let mut scratch = self.scratch.borrow_mut();
+        self.near(b, &mut scratch);
+        let [solid, lines, bands] = &*scratch;
         let mut cost = (b.area() - b.overlap(&self.area)) * 1000.0;
         cost += solid
             .iter()

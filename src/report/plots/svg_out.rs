@@ -55,6 +55,13 @@ impl<'a> SvgOut<'a> {
         }
     }
 
+    /// The document written so far, for an element plotters has none for
+    /// (a bar's dots as one path: `plots::DotPath`), which writes itself
+    /// onto its end.
+    pub(crate) fn document(&mut self) -> &mut String {
+        self.buf
+    }
+
     fn font_size(&mut self, size: f64) -> &str {
         let key = size.to_bits();
         let at = match self.font_sizes.iter().position(|(k, _)| *k == key) {
@@ -76,25 +83,11 @@ fn push_i32(buf: &mut String, n: i32) {
     push_i64(buf, i64::from(n));
 }
 
-/// `n` in decimal, as `format!("{n}")` writes it.
+/// `n` in decimal, as `format!("{n}")` writes it (through `itoa`: a
+/// long job's charts write millions of numbers, and pushing the digits
+/// one character at a time cost some 130 instructions a number).
 pub(super) fn push_i64(buf: &mut String, n: i64) {
-    let mut digits = [0u8; 20];
-    let mut at = digits.len();
-    let mut m = n.unsigned_abs();
-    loop {
-        at -= 1;
-        digits[at] = b'0' + (m % 10) as u8;
-        m /= 10;
-        if m == 0 {
-            break;
-        }
-    }
-    if n < 0 {
-        buf.push('-');
-    }
-    // ASCII digits, each one character (checking them as UTF-8 text cost
-    // more than writing them).
-    buf.extend(digits[at..].iter().map(|&d| char::from(d)));
+    buf.push_str(itoa::Buffer::new().format(n));
 }
 
 /// `#RRGGBB` in capitals, as plotters-svg writes a colour.
@@ -106,6 +99,18 @@ fn push_colour(buf: &mut String, c: BackendColor) {
         buf.push(char::from(HEX[usize::from(v >> 4)]));
         buf.push(char::from(HEX[usize::from(v & 15)]));
     }
+}
+
+/// `#RRGGBB` in capitals for an opaque colour of plotters'.
+pub(super) fn push_rgb(buf: &mut String, c: plotters::style::RGBColor) {
+    let plotters::style::RGBColor(r, g, b) = c;
+    push_colour(
+        buf,
+        BackendColor {
+            alpha: 1.0,
+            rgb: (r, g, b),
+        },
+    );
 }
 
 /// The opacity as `format!("{}", alpha)` writes it (nearly always "1").
