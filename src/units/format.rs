@@ -312,10 +312,10 @@ fn sig_digits(value: f64, sig: i32) -> Option<(u64, i32)> {
     }
 }
 
-/// Writes `n` (of `sig` digits, from [`sig_digits`]) × 10^(`decade` − `sig`
-/// + 1), with a minus for `negative`, as [`write_sig`] writes it: all its
-/// digits, no trailing zeros after the point, no bare point. `decade` is
-/// from −8 to 14.
+/// Writes `n` (of `sig` digits, from [`sig_digits`]) times ten to the
+/// power `decade` − `sig` + 1, with a minus for `negative`, as
+/// [`write_sig`] writes it: all its digits, no trailing zeros after the
+/// point, no bare point. `decade` is from −8 to 14.
 fn push_sig_digits(out: &mut String, negative: bool, n: u64, sig: i32, decade: i32) {
     if negative {
         out.push('-');
