@@ -26,10 +26,15 @@ struct Run {
 /// the test with what it had printed.
 fn run_with_deadline(dir: &Path, args: &[&str], limit: Duration) -> Run {
     let start = Instant::now();
+    // The run's temporary folder inside the test's own: a render whose
+    // stand-in typst fails keeps its source there, not in the system's.
+    let tmp = dir.join(".tmp");
+    std::fs::create_dir_all(&tmp).expect("temporary folder");
     let mut child = Command::new(env!("CARGO_BIN_EXE_ampreport"))
         .current_dir(dir)
         .args(args)
         .env("NO_COLOR", "1")
+        .env("TMPDIR", &tmp)
         .stdin(Stdio::null())
         .stdout(Stdio::piped())
         .stderr(Stdio::piped())

@@ -320,12 +320,14 @@ pub fn up_to_date(output: &Path, key: &str) -> bool {
     Manifest::read(output).is_some_and(|m| m.matches(output, key))
 }
 
-/// Records that the PDF now at `output` was made from `key`. Written
+/// Records that `written`, the bytes just put in place at `output`, were
+/// made from `key` (taken from memory, not read back from the file: a
+/// file changed since by someone else fails the hash when it is next
+/// looked at, as one changed after a read-back would). Written
 /// atomically; a failure leaves no manifest, so the next run renders.
-pub fn record(output: &Path, key: &JobKey) -> std::io::Result<()> {
+pub fn record(output: &Path, written: &[u8], key: &JobKey) -> std::io::Result<()> {
     let manifest = manifest_path(output);
-    let pdf = std::fs::read(output)?;
-    crate::typeset::write_small_file(&manifest, manifest_text(key, &pdf).as_bytes())
+    crate::typeset::write_small_file(&manifest, manifest_text(key, written).as_bytes())
 }
 
 /// Removes the manifest of `output`, so a PDF that is no longer what the
@@ -513,7 +515,7 @@ mod tests {
         job.named_file("photo", "odd \"name\"\nwith a line break.png", b"p");
         job.named_file("logo", "logo.svg", b"l");
         let k = job.finish();
-        record(&pdf, &job).unwrap();
+        record(&pdf, b"%PDF-1.7 one", &job).unwrap();
         assert_eq!(manifest_path(&pdf), dir.path().join(".a.pdf.ampreport-key"));
         assert!(up_to_date(&pdf, &k));
         assert!(!up_to_date(&pdf, "other"));
@@ -534,7 +536,7 @@ mod tests {
         );
         std::fs::write(&pdf, b"%PDF-1.7 two").unwrap();
         assert!(!up_to_date(&pdf, &k));
-        record(&pdf, &job).unwrap();
+        record(&pdf, b"%PDF-1.7 two", &job).unwrap();
         assert!(up_to_date(&pdf, &k));
         // A manifest of another format, or a damaged one, matches nothing.
         let text = std::fs::read_to_string(manifest_path(&pdf)).unwrap();

@@ -672,12 +672,17 @@ fn render_job(
                 );
             }
             beside.extend(document.extra.iter().map(|(path, _)| path.clone()));
-            let written = std::iter::once(output).chain(document.extra.iter().map(|(p, _)| p));
-            for path in written {
+            let written = std::iter::once((output, outcome.pdf.as_slice())).chain(
+                document
+                    .extra
+                    .iter()
+                    .map(|(p, bytes)| (p, bytes.as_slice())),
+            );
+            for (path, bytes) in written {
                 match &key {
                     _ if is_dash(path) => {}
                     Some(key) => {
-                        if let Err(e) = content_key::record(path, key) {
+                        if let Err(e) = content_key::record(path, bytes, key) {
                             said.warn(
                                 said.say(
                                     &Msg::new("cli-cannot-record")

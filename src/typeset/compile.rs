@@ -155,6 +155,8 @@ pub struct CompileOutcome {
     pub warnings: String,
     /// Where typst read the fonts from.
     pub fonts: FontsUsed,
+    /// The PDF as it was put in place (or written to standard output).
+    pub pdf: Vec<u8>,
 }
 
 /// Compiles `main` (a path inside `sandbox`) into a PDF at `output`, or on
@@ -306,20 +308,30 @@ pub fn compile_with(
     // The PDF is checked while it is written beside the output and
     // flushed to disk; it is renamed into place only once both are done
     // and the check passed. A failed check removes the staged file, and
-    // its error wins over one of staging.
+    // its error wins over one of staging. The check runs on this thread
+    // and the writing on another: the check is what allocates (lopdf's
+    // objects, the page's text), and this thread's heap has room freed
+    // by the document's build, where a new thread's heap would grow a
+    // page at a time (an `mprotect` and a page fault each). A panic in
+    // lopdf is caught as before, when the check had a thread of its own.
     let (checked, staged) = std::thread::scope(|s| {
-        let check = s.spawn(|| check_document(&bytes, opts.required_text.as_ref()));
-        let staged = std::iter::once((output, bytes.as_slice()))
-            .chain(
-                beside
-                    .iter()
-                    .map(|(path, b)| (path.as_path(), b.as_slice())),
-            )
-            .map(|(path, b)| Ok((stage(b, path, true)?, path)))
-            .collect::<Result<Vec<_>, TypesetError>>();
-        let checked = check
+        let staging = s.spawn(|| {
+            std::iter::once((output, bytes.as_slice()))
+                .chain(
+                    beside
+                        .iter()
+                        .map(|(path, b)| (path.as_path(), b.as_slice())),
+                )
+                .map(|(path, b)| Ok((stage(b, path, true)?, path)))
+                .collect::<Result<Vec<_>, TypesetError>>()
+        });
+        let checked = std::panic::catch_unwind(std::panic::AssertUnwindSafe(|| {
+            check_document(&bytes, opts.required_text.as_ref())
+        }))
+        .unwrap_or_else(|_| Err(Failed::Incomplete(Msg::new("cli-typst-pdf-reader-stopped"))));
+        let staged = staging
             .join()
-            .unwrap_or_else(|_| Err(Failed::Incomplete(Msg::new("cli-typst-pdf-reader-stopped"))));
+            .unwrap_or_else(|panic| std::panic::resume_unwind(panic));
         (checked, staged)
     });
     match checked {
@@ -344,6 +356,7 @@ pub fn compile_with(
     Ok(CompileOutcome {
         warnings: stderr,
         fonts,
+        pdf: bytes,
     })
 }
 
