@@ -92,6 +92,10 @@ enum Parts {
         /// The part that holds no message, for a key of no group.
         none: OnceLock<Part>,
         texts: &'static [(&'static str, &'static str)],
+        /// Where each group's part is in `texts`: a long job looks up
+        /// some 270 keys a set, and a binary search of the groups was a
+        /// seventh of deriving one.
+        index: FxHashMap<&'static str, usize>,
     },
 }
 
@@ -119,18 +123,6 @@ fn group_of(key: &str) -> &str {
         Some(second) => &key[..first + 1 + second],
         None => key,
     }
-}
-
-/// `a.cmp(b)`, the same order, compared byte by byte in place: the groups
-/// are a few letters, shorter than what a call of `memcmp` pays off for
-/// (the search for a key's group was a tenth of deriving a long job).
-fn cmp_short(a: &str, b: &str) -> std::cmp::Ordering {
-    for (x, y) in a.bytes().zip(b.bytes()) {
-        if x != y {
-            return x.cmp(&y);
-        }
-    }
-    a.len().cmp(&b.len())
 }
 
 /// One bundle of messages with their patterns.
@@ -188,14 +180,15 @@ impl Inner {
                 parts,
                 none,
                 texts,
+                index,
             } => {
                 // A built-in part parses without a problem (tested);
                 // were it not so, the messages Fluent could read are
                 // used and the others said as missing.
                 let group = group_of(key);
-                match texts.binary_search_by(|(g, _)| cmp_short(g, group)) {
-                    Ok(i) => parts[i].get_or_init(|| Part::build(language, texts[i].1).0),
-                    Err(_) => none.get_or_init(|| Part::build(language, "").0),
+                match index.get(group) {
+                    Some(&i) => parts[i].get_or_init(|| Part::build(language, texts[i].1).0),
+                    None => none.get_or_init(|| Part::build(language, "").0),
                 }
             }
         }
@@ -442,6 +435,11 @@ impl Catalogue {
                     parts: texts.iter().map(|_| OnceLock::new()).collect(),
                     none: OnceLock::new(),
                     texts,
+                    index: texts
+                        .iter()
+                        .enumerate()
+                        .map(|(i, (g, _))| (*g, i))
+                        .collect(),
                 },
             }),
         })
