@@ -4,7 +4,7 @@
 /// mimalloc rather than the C library's allocator: a long job makes and
 /// drops millions of small strings and vectors, and malloc and free were
 /// a fifth to a quarter of every stage (docs/performance.md, "Eighth
-/// pass"). Set here and in the `phases` example only, not in the library,
+/// pass: decode, derive and the allocator"). Set here and in the `phases` example only, not in the library,
 /// so the fuzz targets keep the sanitiser's allocator.
 #[global_allocator]
 static ALLOCATOR: mimalloc::MiMalloc = mimalloc::MiMalloc;
