@@ -53,31 +53,50 @@ pub fn escape_markup_into(text: &str, out: &mut String) {
 /// other text it leaves `out` as it was and returns false.
 fn escape_common_into(text: &str, out: &mut String) -> bool {
     let start = out.len();
+    let bytes = text.as_bytes();
     let mut run = 0usize;
-    // `can_draw` of a printable ASCII character, read once.
-    let ascii = super::fonts::ascii_covered();
-    for c in text.chars() {
-        match c {
-            ' ' | '\u{A0}' => {
+    let class = ascii_class();
+    // The text is copied in runs between the characters that take a
+    // backslash, rather than a character at a time: `text[copied..i]` is
+    // not yet in `out`.
+    let mut copied = 0;
+    let mut i = 0;
+    while i < bytes.len() {
+        let b = bytes[i];
+        if b.is_ascii() {
+            match class[usize::from(b)] {
+                SPACE => {
+                    run = 0;
+                    i += 1;
+                    continue;
+                }
+                PLAIN => i += 1,
+                PUNCT | QUOTE => {
+                    out.push_str(&text[copied..i]);
+                    out.push('\\');
+                    copied = i;
+                    i += 1;
+                }
+                _ => {
+                    out.truncate(start);
+                    return false;
+                }
+            }
+        } else {
+            // A byte past ASCII at `i` starts a character.
+            let Some(c) = text[i..].chars().next() else {
+                break;
+            };
+            i += c.len_utf8();
+            if c == '\u{A0}' {
                 run = 0;
-                out.push(c);
                 continue;
             }
-            '!'..='~' if ascii & 1 << (c as u32) != 0 => {
-                if c.is_ascii_punctuation() {
-                    out.push('\\');
-                }
-                out.push(c);
-            }
-            c if !c.is_ascii()
-                && !c.is_whitespace()
-                && !c.is_control()
-                && !is_variant_mark(c)
-                && super::fonts::can_draw(c) =>
+            if c.is_whitespace()
+                || c.is_control()
+                || is_variant_mark(c)
+                || !super::fonts::can_draw(c)
             {
-                out.push(c)
-            }
-            _ => {
                 out.truncate(start);
                 return false;
             }
@@ -88,7 +107,44 @@ fn escape_common_into(text: &str, out: &mut String) -> bool {
             return false;
         }
     }
+    out.push_str(&text[copied..]);
     true
+}
+
+/// How the one-pass escapers treat an ASCII byte ([`ascii_class`]).
+const BAIL: u8 = 0;
+/// A letter or digit the fonts draw: copied as it is.
+const PLAIN: u8 = 1;
+/// Punctuation the fonts draw, other than `\\` and `"`: a backslash
+/// before it in markup, as it is in a string.
+const PUNCT: u8 = 2;
+/// `\\` or `"` (when the fonts draw them): a backslash before it in
+/// markup and in a string.
+const QUOTE: u8 = 3;
+/// The space.
+const SPACE: u8 = 4;
+
+/// The class of every ASCII byte for the one-pass escapers, worked out
+/// once from the fonts' coverage: looking a byte up here costs a load,
+/// where testing its bit in the 128-bit coverage mask cost a dozen
+/// instructions a character (a long job prints some two million).
+fn ascii_class() -> &'static [u8; 128] {
+    static CLASS: std::sync::LazyLock<[u8; 128]> = std::sync::LazyLock::new(|| {
+        let covered = super::fonts::ascii_covered();
+        let mut class = [BAIL; 128];
+        for b in b'!'..=b'~' {
+            if (covered >> b) & 1 != 0 {
+                class[usize::from(b)] = match b {
+                    b'\\' | b'"' => QUOTE,
+                    b if b.is_ascii_punctuation() => PUNCT,
+                    _ => PLAIN,
+                };
+            }
+        }
+        class[usize::from(b' ')] = SPACE;
+        class
+    });
+    &CLASS
 }
 
 /// Marks that only choose a glyph variant: dropped by the escaper.
@@ -189,19 +245,29 @@ pub fn escape_string(text: &str) -> String {
 
 /// [`escape_string`], appended to `out`.
 pub fn escape_string_into(text: &str, out: &mut String) {
-    for c in text.chars() {
-        match c {
-            '\\' => out.push_str("\\\\"),
-            '"' => out.push_str("\\\""),
-            '\n' => out.push_str("\\n"),
-            '\r' => out.push_str("\\r"),
-            '\t' => out.push_str("\\t"),
+    // Copied in runs between the characters that change: `text[copied..i]`
+    // is not yet in `out`.
+    let mut copied = 0;
+    for (i, c) in text.char_indices() {
+        let escaped = match c {
+            '\\' => "\\\\",
+            '"' => "\\\"",
+            '\n' => "\\n",
+            '\r' => "\\r",
+            '\t' => "\\t",
             c if c.is_control() || is_line_end(c) => {
+                out.push_str(&text[copied..i]);
                 out.push_str(&format!("\\u{{{:x}}}", c as u32));
+                copied = i + c.len_utf8();
+                continue;
             }
-            c => out.push(c),
-        }
+            _ => continue,
+        };
+        out.push_str(&text[copied..i]);
+        out.push_str(escaped);
+        copied = i + c.len_utf8();
     }
+    out.push_str(&text[copied..]);
 }
 
 /// Makes `text` a Typst expression for content in code position (a table
@@ -248,48 +314,61 @@ fn content_as_string(text: &str) -> Option<String> {
 /// [`content_as_string`] appended to `out`; false (with part of the text
 /// possibly written) when the text is not for the one pass.
 fn content_as_string_into(text: &str, out: &mut String) -> bool {
+    let bytes = text.as_bytes();
     if text.is_empty() || text.starts_with(' ') || text.ends_with(' ') {
         return false;
     }
+    out.reserve(bytes.len() + 2);
     out.push('"');
     let mut run = 0usize;
     // Two spaces in a row (not a no-break space) send the text to the
     // full path: found in this loop rather than by a search of its own.
     let mut after_space = false;
-    // `can_draw` of a printable ASCII character, read once.
-    let ascii = super::fonts::ascii_covered();
-    for c in text.chars() {
-        match c {
-            ' ' => {
-                if after_space {
-                    return false;
+    let class = ascii_class();
+    // The text is copied in runs between the characters that take a
+    // backslash: `text[copied..i]` is not yet in `out`.
+    let mut copied = 0;
+    let mut i = 0;
+    while i < bytes.len() {
+        let b = bytes[i];
+        if b.is_ascii() {
+            match class[usize::from(b)] {
+                SPACE => {
+                    if after_space {
+                        return false;
+                    }
+                    after_space = true;
+                    run = 0;
+                    i += 1;
+                    continue;
                 }
-                after_space = true;
-                run = 0;
-                out.push(c);
-                continue;
+                PLAIN | PUNCT => i += 1,
+                QUOTE => {
+                    out.push_str(&text[copied..i]);
+                    out.push('\\');
+                    copied = i;
+                    i += 1;
+                }
+                _ => return false,
             }
-            '\u{A0}' => {
+        } else {
+            // A byte past ASCII at `i` starts a character.
+            let Some(c) = text[i..].chars().next() else {
+                break;
+            };
+            i += c.len_utf8();
+            if c == '\u{A0}' {
                 after_space = false;
                 run = 0;
-                out.push(c);
                 continue;
             }
-            '!'..='~' if ascii & 1 << (c as u32) != 0 => {
-                if c == '\\' || c == '"' {
-                    out.push('\\');
-                }
-                out.push(c);
-            }
-            c if !c.is_ascii()
-                && !c.is_whitespace()
-                && !c.is_control()
-                && !is_variant_mark(c)
-                && super::fonts::can_draw(c) =>
+            if c.is_whitespace()
+                || c.is_control()
+                || is_variant_mark(c)
+                || !super::fonts::can_draw(c)
             {
-                out.push(c)
+                return false;
             }
-            _ => return false,
         }
         after_space = false;
         run += 1;
@@ -297,6 +376,7 @@ fn content_as_string_into(text: &str, out: &mut String) -> bool {
             return false;
         }
     }
+    out.push_str(&text[copied..]);
     out.push('"');
     true
 }

@@ -298,6 +298,26 @@ fn in_table(table: &[(u32, u32)], c: char) -> bool {
     table.get(i).is_some_and(|&(first, _)| first <= code)
 }
 
+/// `text.contains(needle)`, by `memchr`'s substring search.
+fn has(text: &str, needle: &str) -> bool {
+    memchr::memmem::find(text.as_bytes(), needle.as_bytes()).is_some()
+}
+
+/// `text.split(needle).skip(1)`: the text after each occurrence of
+/// `needle`, up to the next, found by `memchr`'s substring search (the
+/// standard library's two-way search was a third of the fonts' check of
+/// a long job).
+fn pieces_after<'a>(text: &'a str, needle: &'a str) -> impl Iterator<Item = &'a str> + 'a {
+    let mut starts = memchr::memmem::find_iter(text.as_bytes(), needle.as_bytes()).peekable();
+    std::iter::from_fn(move || {
+        let start = starts.next()? + needle.len();
+        let end = starts.peek().copied().unwrap_or(text.len());
+        // Occurrences of text in text start and end on character
+        // boundaries (UTF-8 is self-synchronising).
+        text.get(start..end)
+    })
+}
+
 /// Whether typst may set `c` in the CJK face in the document's own text,
 /// set with the rules of [`font_rules`] (the signs of [`SIGNS_FROM_MONO`]
 /// come from Noto Sans Mono there).
@@ -380,28 +400,26 @@ fn any_beyond_ascii(text: &str, test: impl Fn(char) -> bool) -> bool {
 fn typst_needs_cjk(text: &str) -> bool {
     if ["sym.", "emoji.", "symbol(", "from-unicode"]
         .iter()
-        .any(|name| text.contains(name))
+        .any(|name| has(text, name))
     {
         return true;
     }
     any_beyond_ascii(text, body_takes_cjk)
-        || text
-            .split("\\u{")
-            .skip(1)
+        || pieces_after(text, "\\u{")
             .any(|rest| escaped_char(rest, '}', 16).is_none_or(body_takes_cjk))
 }
 
 /// [`needs_cjk`] for an SVG.
 fn svg_needs_cjk(text: &str) -> bool {
-    if !text.contains("<text") && !text.contains(":text") {
+    if !has(text, "<text") && !has(text, ":text") {
         return false;
     }
-    if text.contains("font:") || !names_only_noto_sans(text) {
+    if has(text, "font:") || !names_only_noto_sans(text) {
         return true;
     }
     let table = CJK_IN_SVG;
     any_beyond_ascii(text, |c| in_table(table, c))
-        || text.split("&#").skip(1).any(|rest| {
+        || pieces_after(text, "&#").any(|rest| {
             let (digits, radix) = match rest.strip_prefix(['x', 'X']) {
                 Some(hex) => (hex, 16),
                 None => (rest, 10),
@@ -413,7 +431,7 @@ fn svg_needs_cjk(text: &str) -> bool {
 /// Whether every `font-family` of an SVG (attribute or style) names Noto
 /// Sans alone, and there is at least one.
 fn names_only_noto_sans(text: &str) -> bool {
-    let mut parts = text.split("font-family").skip(1).peekable();
+    let mut parts = pieces_after(text, "font-family").peekable();
     if parts.peek().is_none() {
         return false;
     }
@@ -461,7 +479,7 @@ pub fn fit_fonts(sandbox: &mut Sandbox, main: &str) -> Result<bool, TypesetError
     }
     let full = font_rules();
     if let Some(source) = sandbox.get(main).and_then(|b| std::str::from_utf8(b).ok())
-        && source.contains(&full)
+        && has(source, &full)
     {
         let lean = source.replacen(&full, &font_rules_without_cjk(), 1);
         sandbox.insert(main, lean)?;
@@ -741,6 +759,40 @@ mod tests {
             '−', '√', '≤', 'µ', 'Ω', 'é', '°', '±', '×', '–', '…', '„', '“', 'A',
         ] {
             assert!(!body_takes_cjk(c), "{c}");
+        }
+    }
+
+    #[test]
+    fn pieces_after_a_needle_are_those_of_split() {
+        let mut state = 0x2545_f491_4f6c_dd1d_u64;
+        let mut next = || {
+            state ^= state << 13;
+            state ^= state >> 7;
+            state ^= state << 17;
+            state
+        };
+        const POOL: &[&str] = &[
+            "\\",
+            "u",
+            "{",
+            "}",
+            "&",
+            "#",
+            "x",
+            "font-family",
+            "µ",
+            "日",
+            " ",
+        ];
+        for _ in 0..20_000 {
+            let text: String = (0..next() % 24)
+                .map(|_| POOL[(next() % POOL.len() as u64) as usize])
+                .collect();
+            for needle in ["\\u{", "&#", "font-family", "u"] {
+                let ours: Vec<&str> = pieces_after(&text, needle).collect();
+                let split: Vec<&str> = text.split(needle).skip(1).collect();
+                assert_eq!(ours, split, "{text:?} {needle:?}");
+            }
         }
     }
 

@@ -215,7 +215,9 @@ impl RowList {
 
     /// Every row's cells as Typst code ([`TypstRow::write_cells`]).
     pub fn cells(&self) -> String {
-        let mut out = String::new();
+        // About what a row of the hand-over's tables takes, so the text
+        // seldom grows (and is copied) on the way.
+        let mut out = String::with_capacity(self.rows.len() * 192);
         self.rows.write_cells(&mut out);
         out
     }

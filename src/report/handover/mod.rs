@@ -469,19 +469,27 @@ pub fn catalogue_functions(catalogue: &Catalogue) -> (Value, Value) {
     ) -> Result<(String, Vec<String>), minijinja::Error> {
         let mut args = Vec::new();
         let mut values = Vec::new();
+        // Every argument is read here, so none can go unused: `peek`
+        // rather than `get`, which notes each name in a set of its own to
+        // be checked afterwards (a long job asks for thousands of
+        // sentences with arguments).
         for name in kwargs.args() {
-            let value: Value = kwargs.get(name)?;
+            let value: Value = kwargs.peek(name)?;
+            // A string's text as it is, without the formatting machinery.
+            let text = |value: &Value| match value.as_str() {
+                Some(s) => s.to_owned(),
+                None => value.to_string(),
+            };
             let arg = if placeholders {
-                values.push(value.to_string());
+                values.push(text(&value));
                 Arg::Text(format!("QzqArg{}Qzq", values.len() - 1))
             } else if let Some(n) = value.as_i64() {
                 Arg::Number(n as f64)
             } else {
-                Arg::Text(value.to_string())
+                Arg::Text(text(&value))
             };
             args.push((name, arg));
         }
-        kwargs.assert_all_used()?;
         match catalogue.try_format(key, &args) {
             Some(words) => Ok((words, values)),
             None => Err(crate::typeset::refusal(
