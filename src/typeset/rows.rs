@@ -37,6 +37,15 @@ pub trait TypstRow {
     /// of text is escaped (`escape_content`, `escape_markup`,
     /// `escape_string`), so nothing in it can run code.
     fn write_cells(&self, out: &mut String);
+
+    /// What the `text_length` filter's walk counts in the row made a
+    /// template value (every string's characters, keys left out, a
+    /// [`CountedText`] by its count), worked out from the fields
+    /// directly; `None` (the default) for the walk itself. A row type that
+    /// answers must be held to the walk by a test.
+    fn text_length(&self) -> Option<usize> {
+        None
+    }
 }
 
 /// A table's rows. Dereferences to the `Vec` of rows (shared, so handing
@@ -186,7 +195,10 @@ where
         // is at depth 1.
         let _counting = CountingWalk::start();
         self.iter()
-            .map(|row| row.serialize(Counter { depth: 1 }).unwrap_or(0))
+            .map(|row| {
+                row.text_length()
+                    .unwrap_or_else(|| row.serialize(Counter { depth: 1 }).unwrap_or(0))
+            })
             .sum()
     }
 

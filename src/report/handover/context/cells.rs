@@ -15,9 +15,21 @@
 //! are declared beside `typst_rows` in the template: a change to one is a
 //! change to the other.
 
-use crate::typeset::{TypstRow, escape_content_into, escape_markup_into, escape_string_into};
+use crate::typeset::{
+    CountedText, TypstRow, escape_content_into, escape_markup_into, escape_string_into,
+};
 
 use super::{CapacitorRow, HeaterRow, NodeRow, ResistorRow, ValveRow, WindowRow};
+
+/// The characters of a text field, as the `text_length` walk counts them.
+fn n(text: &str) -> usize {
+    text.chars().count()
+}
+
+/// The characters of a field that may be missing (nothing when it is).
+fn n_opt(text: &Option<String>) -> usize {
+    text.as_deref().map_or(0, n)
+}
 
 /// A new row: a line of its own, indented as the template indented it.
 fn row(out: &mut String) {
@@ -72,6 +84,23 @@ fn group(out: &mut String, group: &Option<String>, columns: &str) {
 }
 
 impl TypstRow for NodeRow {
+    fn text_length(&self) -> Option<usize> {
+        Some(
+            n(&self.name)
+                + n_opt(&self.channel)
+                + n_opt(&self.group)
+                + n_opt(&self.label)
+                + n(&self.measured)
+                + n(&self.corrected)
+                + n_opt(&self.expected)
+                + n_opt(&self.deviation)
+                + n(&self.tolerance)
+                + n(&self.status)
+                + n(&self.why)
+                + self.reason.char_count(),
+        )
+    }
+
     fn write_cells(&self, out: &mut String) {
         group(out, &self.group, "8");
         row(out);
@@ -87,6 +116,33 @@ impl TypstRow for NodeRow {
 }
 
 impl TypstRow for ValveRow {
+    fn text_length(&self) -> Option<usize> {
+        Some(
+            n(&self.position)
+                + n_opt(&self.channel)
+                + n_opt(&self.group)
+                + n(&self.type_name)
+                + n(&self.role)
+                + n(&self.bias)
+                + n_opt(&self.plate)
+                + n_opt(&self.screen)
+                + n_opt(&self.cathode)
+                + n_opt(&self.grid)
+                + n(&self.current_kind)
+                + n_opt(&self.current)
+                + n_opt(&self.pa)
+                + n_opt(&self.pa_max)
+                + n_opt(&self.pa_pct)
+                + n_opt(&self.pa_nominal_pct)
+                + n_opt(&self.pa_high_line_pct)
+                + n_opt(&self.pg2)
+                + n_opt(&self.pg2_pct)
+                + n(&self.status)
+                + n(&self.why)
+                + self.reason.char_count(),
+        )
+    }
+
     fn write_cells(&self, out: &mut String) {
         group(out, &self.group, "13");
         row(out);
@@ -121,6 +177,26 @@ impl TypstRow for ValveRow {
 }
 
 impl TypstRow for WindowRow {
+    fn text_length(&self) -> Option<usize> {
+        let readings: usize = self
+            .readings
+            .iter()
+            .map(|r| n(&r.range) + n(&r.across) + n_opt(&r.now))
+            .sum();
+        // `grid_note` is not a template value.
+        Some(
+            n(&self.position)
+                + n(&self.aim)
+                + n(&self.plate_current)
+                + n_opt(&self.plate_current_now)
+                + readings
+                + n(&self.place)
+                + n_opt(&self.grid_middle)
+                + n_opt(&self.grid_now)
+                + n_opt(&self.grid_unknown),
+        )
+    }
+
     fn write_cells(&self, out: &mut String) {
         row(out);
         content(out, &self.position);
@@ -169,6 +245,24 @@ impl TypstRow for WindowRow {
 }
 
 impl TypstRow for ResistorRow {
+    fn text_length(&self) -> Option<usize> {
+        Some(
+            n(&self.reference)
+                + n(&self.kind)
+                + n(&self.place)
+                + n(&self.resistance)
+                + n_opt(&self.rating)
+                + n(&self.voltage)
+                + n(&self.power)
+                + n_opt(&self.power_pct)
+                + n(&self.high_line_power)
+                + n_opt(&self.high_line_pct)
+                + n(&self.status)
+                + n(&self.why)
+                + self.reason.char_count(),
+        )
+    }
+
     fn write_cells(&self, out: &mut String) {
         row(out);
         content(out, &self.reference);
@@ -185,6 +279,23 @@ impl TypstRow for ResistorRow {
 }
 
 impl TypstRow for CapacitorRow {
+    fn text_length(&self) -> Option<usize> {
+        Some(
+            n(&self.reference)
+                + n(&self.node)
+                + n_opt(&self.capacitance)
+                + n(&self.rating)
+                + n_opt(&self.measured)
+                + n_opt(&self.high_line)
+                + n_opt(&self.cold_start)
+                + n(&self.highest)
+                + n(&self.margin)
+                + n(&self.status)
+                + n(&self.why)
+                + self.reason.char_count(),
+        )
+    }
+
     fn write_cells(&self, out: &mut String) {
         row(out);
         content(out, &self.reference);
@@ -201,6 +312,21 @@ impl TypstRow for CapacitorRow {
 }
 
 impl TypstRow for HeaterRow {
+    fn text_length(&self) -> Option<usize> {
+        // `unnamed` is not a template value.
+        Some(
+            n_opt(&self.label)
+                + n(&self.measured)
+                + n(&self.nominal)
+                + n(&self.deviation)
+                + n(&self.corrected)
+                + n(&self.corrected_deviation)
+                + n(&self.status)
+                + n(&self.why)
+                + self.reason.char_count(),
+        )
+    }
+
     fn write_cells(&self, out: &mut String) {
         row(out);
         out.push('[');
