@@ -11,6 +11,7 @@
 use std::collections::HashMap;
 
 use plotters::coord::Shift;
+use plotters::coord::types::RangedCoordf64;
 use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, Pos, VPos};
 
@@ -816,12 +817,15 @@ fn push_dot_path(svg: &mut String, a: (i32, i32), b: (i32, i32), colour: RGBColo
     // dots, and the formatting machinery was half of drawing its bars.
     let mut y = y0 + 3;
     while y < y1 - 1 {
+        // The row's y once for all its dots.
+        let mut row = itoa::Buffer::new();
+        let row = row.format(y);
         let mut x = x0 + 3 + ((y - y0) / 5 % 2) * 2;
         while x < x1 - 1 {
             svg.push('M');
             svg_out::push_i64(svg, i64::from(x));
             svg.push(' ');
-            svg_out::push_i64(svg, i64::from(y));
+            svg.push_str(row);
             svg.push_str("h1v1h-1z");
             x += 5;
         }
@@ -992,7 +996,112 @@ where
 
 /// Draws the plate-dissipation chart as an SVG document.
 pub fn dissipation_svg(chart: &DissipationChart) -> Result<String, PlotError> {
-    to_svg(chart, "plate dissipation", draw_dissipation)
+    dissipation_svg_with(chart, &mut ChartCache::default())
+}
+
+/// [`dissipation_svg`] for one of a long job's chart parts, drawn one after
+/// another with the same `cache`: a part whose frame is the one drawn
+/// last starts from a copy of it.
+pub fn dissipation_svg_with(
+    chart: &DissipationChart,
+    cache: &mut ChartCache,
+) -> Result<String, PlotError> {
+    let mut svg = String::new();
+    draw_dissipation(chart, &mut svg, cache).map_err(err("plate dissipation"))?;
+    cache.last_len = svg.len();
+    Ok(svg)
+}
+
+/// What the start of a dissipation or supply chart's SVG depends on: its
+/// opening, the paper, and the frame plotters draws (axes, value labels,
+/// rules, the axis's description), which is all it draws before the
+/// chart's own figures.
+#[derive(Debug, Clone)]
+struct Frame {
+    margin_top: i32,
+    margin_right: i32,
+    /// The x axis runs from 0 to this many columns.
+    columns: usize,
+    bottom: f64,
+    top: f64,
+    y_labels: usize,
+    y_desc: String,
+}
+
+impl PartialEq for Frame {
+    /// The same frame, to the bit (0 and −0 print differently).
+    fn eq(&self, o: &Frame) -> bool {
+        self.margin_top == o.margin_top
+            && self.margin_right == o.margin_right
+            && self.columns == o.columns
+            && self.bottom.to_bits() == o.bottom.to_bits()
+            && self.top.to_bits() == o.top.to_bits()
+            && self.y_labels == o.y_labels
+            && self.y_desc == o.y_desc
+    }
+}
+
+/// The start of the chart drawn last (its SVG up to and including its
+/// frame), for the next part of a long job's chart: the parts of one
+/// chart nearly always share their frame, and plotters' laying out and
+/// drawing of it was a sixth of drawing a part. A part with another frame
+/// draws its own and keeps that.
+///
+/// It also keeps the length of the part drawn last: the next part's SVG
+/// is given room for about as much at once, rather than being copied to
+/// a larger buffer again and again as it grows.
+#[derive(Debug, Default)]
+pub struct ChartCache {
+    start: Option<(Frame, String)>,
+    last_len: usize,
+}
+
+/// The chart's plotting area in `root` for `frame`.
+fn frame_context<'a, 'b>(
+    root: &'a DrawingArea<SvgOut<'b>, Shift>,
+    frame: &Frame,
+) -> Result<ChartContext<'a, SvgOut<'b>, Cartesian2d<RangedCoordf64, RangedCoordf64>>, String> {
+    ChartBuilder::on(root)
+        .margin_top(frame.margin_top)
+        .margin_right(frame.margin_right)
+        .margin_left(8)
+        .margin_bottom(6)
+        .x_label_area_size(34)
+        .y_label_area_size(62)
+        .build_cartesian_2d(0f64..frame.columns as f64, frame.bottom..frame.top)
+        .map_err(|e| e.to_string())
+}
+
+/// Opens a chart's SVG in `svg` with the paper and `frame` drawn, as
+/// `SvgOut::with_string`, `fill` and [`draw_mesh`] write them, copied
+/// from `cache` when its frame is this one; returns the drawing area and
+/// the plotting area to draw the figures on.
+fn open_chart<'b>(
+    svg: &'b mut String,
+    frame: &Frame,
+    cache: &mut ChartCache,
+) -> Result<DrawingArea<SvgOut<'b>, Shift>, String> {
+    let start = match &cache.start {
+        Some((kept, start)) if kept == frame => start,
+        _ => {
+            let mut start = String::new();
+            {
+                let root = SvgOut::opening(&mut start, SIZE).into_drawing_area();
+                root.fill(&PAPER).map_err(|e| e.to_string())?;
+                let mut ctx = frame_context(&root, frame)?;
+                draw_mesh(
+                    &mut ctx,
+                    frame.y_labels,
+                    &|v| crate::units::fixed(*v, 0),
+                    &frame.y_desc,
+                )?;
+            }
+            &cache.start.insert((frame.clone(), start)).1
+        }
+    };
+    svg.reserve(start.len().max(cache.last_len + cache.last_len / 8));
+    svg.push_str(start);
+    Ok(SvgOut::after_opening(svg, SIZE).into_drawing_area())
 }
 
 /// Runs a chart's drawing function into a fresh SVG string.
@@ -1007,9 +1116,11 @@ pub(crate) fn to_svg<T>(
 }
 
 /// The plate-dissipation chart.
-fn draw_dissipation(chart: &DissipationChart, svg: &mut String) -> Result<(), String> {
-    let root = SvgOut::with_string(svg, SIZE).into_drawing_area();
-    root.fill(&PAPER).map_err(|e| e.to_string())?;
+fn draw_dissipation(
+    chart: &DissipationChart,
+    svg: &mut String,
+    cache: &mut ChartCache,
+) -> Result<(), String> {
     let n = chart.valves.len().max(1);
     let sets = chart.series.len().max(1);
     let highest = chart
@@ -1033,21 +1144,17 @@ fn draw_dissipation(chart: &DissipationChart, svg: &mut String) -> Result<(), St
     let right_edge = SIZE.0 as i32 - 104;
     let (legend, rows) = legend_layout(&legend_labels, 70, right_edge, 22);
 
-    let mut ctx = ChartBuilder::on(&root)
-        .margin_top(legend_margin(rows))
-        .margin_right(104)
-        .margin_left(8)
-        .margin_bottom(6)
-        .x_label_area_size(34)
-        .y_label_area_size(62)
-        .build_cartesian_2d(0f64..n as f64, 0f64..top)
-        .map_err(|e| e.to_string())?;
-    draw_mesh(
-        &mut ctx,
-        axis.labels(),
-        &|v| crate::units::fixed(*v, 0),
-        &chart.words.text("chart-dissipation-axis"),
-    )?;
+    let frame = Frame {
+        margin_top: legend_margin(rows),
+        margin_right: 104,
+        columns: n,
+        bottom: 0.0,
+        top,
+        y_labels: axis.labels(),
+        y_desc: chart.words.text("chart-dissipation-axis"),
+    };
+    let root = open_chart(svg, &frame, cache)?;
+    let mut ctx = frame_context(&root, &frame)?;
 
     let (left, _) = ctx.backend_coord(&(0.0, 0.0));
     let (right, _) = ctx.backend_coord(&(n as f64, 0.0));
@@ -1327,12 +1434,23 @@ type Reading = (f64, (i32, i32));
 
 /// Draws the supply-chain chart as an SVG document.
 pub fn supply_svg(chart: &SupplyChart) -> Result<String, PlotError> {
-    to_svg(chart, "supply chain", draw_supply)
+    supply_svg_with(chart, &mut ChartCache::default())
 }
 
-fn draw_supply(chart: &SupplyChart, svg: &mut String) -> Result<(), String> {
-    let root = SvgOut::with_string(svg, SIZE).into_drawing_area();
-    root.fill(&PAPER).map_err(|e| e.to_string())?;
+/// [`supply_svg`] for one of a long job's chart parts, like
+/// [`dissipation_svg_with`].
+pub fn supply_svg_with(chart: &SupplyChart, cache: &mut ChartCache) -> Result<String, PlotError> {
+    let mut svg = String::new();
+    draw_supply(chart, &mut svg, cache).map_err(err("supply chain"))?;
+    cache.last_len = svg.len();
+    Ok(svg)
+}
+
+fn draw_supply(
+    chart: &SupplyChart,
+    svg: &mut String,
+    cache: &mut ChartCache,
+) -> Result<(), String> {
     let n = chart.nodes.len().max(1);
     let sets = chart.series.len().max(1);
     let mut figures: Vec<f64> = chart
@@ -1371,25 +1489,20 @@ fn draw_supply(chart: &SupplyChart, svg: &mut String) -> Result<(), String> {
         .collect();
     let (legend, rows) = legend_layout(&legend_labels, 70, SIZE.0 as i32 - 16, 22);
 
-    let mut ctx = ChartBuilder::on(&root)
-        .margin_top(legend_margin(rows))
-        .margin_right(16)
-        .margin_left(8)
-        .margin_bottom(6)
-        .x_label_area_size(34)
-        .y_label_area_size(62)
-        .build_cartesian_2d(0f64..n as f64, bottom..top)
-        .map_err(|e| e.to_string())?;
-    let desc = chart.words.format(
-        "chart-supply-axis",
-        &[("nominal", Arg::from(whole(chart.nominal_volts)))],
-    );
-    draw_mesh(
-        &mut ctx,
-        2 * axis.labels(),
-        &|v| crate::units::fixed(*v, 0),
-        &desc,
-    )?;
+    let frame = Frame {
+        margin_top: legend_margin(rows),
+        margin_right: 16,
+        columns: n,
+        bottom,
+        top,
+        y_labels: 2 * axis.labels(),
+        y_desc: chart.words.format(
+            "chart-supply-axis",
+            &[("nominal", Arg::from(whole(chart.nominal_volts)))],
+        ),
+    };
+    let root = open_chart(svg, &frame, cache)?;
+    let mut ctx = frame_context(&root, &frame)?;
     let (left, _) = ctx.backend_coord(&(0.0, bottom));
 
     // Bands: the expected figure ± tolerance, as a grey column per node.

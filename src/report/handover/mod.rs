@@ -273,16 +273,21 @@ pub fn compile_command(dir: &Path, options: &CompileOptions, output: &Path) -> S
 /// `draw` of each part of a chart, in order: on every core (rayon) when
 /// there are several, on this thread when there is one, as for a short
 /// job, where handing it out would start rayon's pool of threads (each
-/// with its own heap and its idle spinning) for nothing.
+/// with its own heap and its idle spinning) for nothing. Each thread
+/// draws its parts with one `plots::ChartCache`.
 fn each_part<P: Sync, T: Send, E: Send>(
     parts: &[P],
-    draw: impl Fn(&P) -> Result<T, E> + Sync + Send,
+    draw: impl Fn(&mut plots::ChartCache, &P) -> Result<T, E> + Sync + Send,
 ) -> Result<Vec<T>, E> {
     use rayon::prelude::*;
     if parts.len() > 1 {
-        parts.par_iter().map(draw).collect()
+        parts
+            .par_iter()
+            .map_init(plots::ChartCache::default, draw)
+            .collect()
     } else {
-        parts.iter().map(draw).collect()
+        let mut cache = plots::ChartCache::default();
+        parts.iter().map(|part| draw(&mut cache, part)).collect()
     }
 }
 
@@ -299,7 +304,9 @@ pub fn build(
     let mut dissipation_charts = Vec::new();
     if let Some(chart) = plots::dissipation_chart(input.findings, input.catalogue) {
         let parts = plots::split_dissipation(&chart);
-        let svgs = each_part(&parts, |part| plots::dissipation_svg(&part.chart))?;
+        let svgs = each_part(&parts, |cache, part| {
+            plots::dissipation_svg_with(&part.chart, cache)
+        })?;
         for (i, (part, svg)) in parts.into_iter().zip(svgs).enumerate() {
             let path = chart_part_path(DISSIPATION_PLOT, i);
             sandbox.insert(&path, svg)?;
@@ -312,7 +319,9 @@ pub fn build(
     let mut supply_charts = Vec::new();
     if let Some(chart) = plots::supply_chart(input.findings, input.catalogue) {
         let parts = plots::split_supply(&chart);
-        let svgs = each_part(&parts, |part| plots::supply_svg(&part.chart))?;
+        let svgs = each_part(&parts, |cache, part| {
+            plots::supply_svg_with(&part.chart, cache)
+        })?;
         for (i, (part, svg)) in parts.into_iter().zip(svgs).enumerate() {
             let path = chart_part_path(SUPPLY_PLOT, i);
             sandbox.insert(&path, svg)?;

@@ -47,9 +47,15 @@ pub(crate) struct Obstacles {
     /// Where bucket (0, 0) starts.
     origin: (f64, f64),
     /// The lists [`Obstacles::near`] fills, kept between calls so that
-    /// pricing a place allocates nothing.
-    scratch: std::cell::RefCell<[Vec<u32>; 3]>,
+    /// placing a label allocates nothing.
+    scratch: [Vec<u32>; 3],
 }
+
+/// The bucket columns and rows a box reaches into.
+type Span = (
+    std::ops::RangeInclusive<usize>,
+    std::ops::RangeInclusive<usize>,
+);
 
 /// One obstacle filed in one bucket, and the bucket's next entry.
 #[derive(Debug, Clone, Copy)]
@@ -89,7 +95,7 @@ impl Obstacles {
             columns,
             rows,
             origin,
-            scratch: std::cell::RefCell::new([Vec::new(), Vec::new(), Vec::new()]),
+            scratch: Default::default(),
         }
     }
 
@@ -119,13 +125,7 @@ impl Obstacles {
 
     /// The bucket columns and rows `b` reaches into (edge buckets for
     /// anything outside the grid).
-    fn span(
-        &self,
-        b: &PixelBox,
-    ) -> (
-        std::ops::RangeInclusive<usize>,
-        std::ops::RangeInclusive<usize>,
-    ) {
+    fn span(&self, b: &PixelBox) -> Span {
         let index = |v: f64, origin: f64, n: usize| -> usize {
             let i = ((v - origin) / CELL).floor();
             if i.is_nan() || i < 0.0 {
@@ -158,13 +158,14 @@ impl Obstacles {
         }
     }
 
-    /// The obstacles of each kind near `b`, each once, in the order they
-    /// were added, into `found` (emptied first).
-    fn near(&self, b: &PixelBox, found: &mut [Vec<u32>; 3]) {
+    /// The obstacles of each kind in the buckets of `span` (from
+    /// [`Obstacles::span`]), each once, in the order they were added, into
+    /// `found` (emptied first).
+    fn near(&self, span: &Span, found: &mut [Vec<u32>; 3]) {
         for list in found.iter_mut() {
             list.clear();
         }
-        let (columns, rows) = self.span(b);
+        let (columns, rows) = span.clone();
         for r in rows {
             for c in columns.clone() {
                 let mut at = self.cells[r * self.columns + c];
@@ -181,10 +182,16 @@ impl Obstacles {
     }
 
     /// How bad a label at `b` would be; 0 when it is clear of everything.
+    #[cfg(test)]
     pub(crate) fn cost(&self, b: &PixelBox) -> f64 {
-        let mut scratch = self.scratch.borrow_mut();
-        self.near(b, &mut scratch);
-        let [solid, lines, bands] = &*scratch;
+        let mut found = Default::default();
+        self.near(&self.span(b), &mut found);
+        self.price(b, &found)
+    }
+
+    /// [`Obstacles::cost`] of `b` with the obstacles near it (`near` of
+    /// its span) given.
+    fn price(&self, b: &PixelBox, [solid, lines, bands]: &[Vec<u32>; 3]) -> f64 {
         let mut cost = (b.area() - b.overlap(&self.area)) * 1000.0;
         cost += solid
             .iter()
@@ -217,8 +224,14 @@ impl Obstacles {
     /// later candidate can win (on a tie the earlier one does), and the
     /// rest are not priced. The choice is the one pricing every candidate
     /// gives ([`Obstacles::place_pricing_all`] in the tests).
+    ///
+    /// Candidates next to each other (a ladder of places a few pixels
+    /// apart) mostly reach into the same buckets: the obstacles near them
+    /// are gathered once for each run of candidates with the same buckets.
     pub(crate) fn place(&mut self, candidates: &[PixelBox]) -> PixelBox {
         let mut best: Option<(f64, PixelBox)> = None;
+        let mut found = std::mem::take(&mut self.scratch);
+        let mut gathered: Option<Span> = None;
         for (rank, b) in candidates.iter().enumerate() {
             let floor = rank as f64 * 2.0;
             if let Some((price, _)) = best
@@ -226,11 +239,17 @@ impl Obstacles {
             {
                 break;
             }
-            let price = self.cost(b) + floor;
+            let span = self.span(b);
+            if gathered.as_ref() != Some(&span) {
+                self.near(&span, &mut found);
+                gathered = Some(span);
+            }
+            let price = self.price(b, &found) + floor;
             if best.is_none_or(|(p, _)| price.total_cmp(&p).is_lt()) {
                 best = Some((price, *b));
             }
         }
+        self.scratch = found;
         let (_, best) = best.expect("at least one candidate");
         self.add_solid(best);
         best

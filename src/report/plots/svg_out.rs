@@ -55,6 +55,26 @@ impl<'a> SvgOut<'a> {
         }
     }
 
+    /// The opening of a document as [`SvgOut::with_string`] writes it, and
+    /// what is drawn on it, without the closing tag: the start of a chart
+    /// kept to be copied (`plots::open_chart`).
+    pub(crate) fn opening(buf: &'a mut String, size: (u32, u32)) -> Self {
+        let mut out = SvgOut::with_string(buf, size);
+        out.open = false;
+        out
+    }
+
+    /// A document whose opening (from [`SvgOut::opening`]) is already in
+    /// `buf`: what is drawn goes after it, and the closing tag at the end.
+    pub(crate) fn after_opening(buf: &'a mut String, size: (u32, u32)) -> Self {
+        SvgOut {
+            buf,
+            size,
+            open: true,
+            font_sizes: Vec::new(),
+        }
+    }
+
     /// The document written so far, for an element plotters has none for
     /// (a bar's dots as one path: `plots::DotPath`), which writes itself
     /// onto its end.
