@@ -1,6 +1,14 @@
 //! The `ampreport` binary: hands the command line to [`ampreport::cli`],
 //! on a thread with [`ampreport::cli::PROGRAM_STACK`] of stack.
 
+/// mimalloc rather than the C library's allocator: a long job makes and
+/// drops millions of small strings and vectors, and malloc and free were
+/// a fifth to a quarter of every stage (docs/performance.md, "Eighth
+/// pass: decode, derive and the allocator"). Set here and in the `phases` example only, not in the library,
+/// so the fuzz targets keep the sanitiser's allocator.
+#[global_allocator]
+static ALLOCATOR: mimalloc::MiMalloc = mimalloc::MiMalloc;
+
 fn main() -> std::process::ExitCode {
     match std::thread::Builder::new()
         .name("ampreport".to_string())

@@ -54,9 +54,10 @@ pub fn valve_check(v: &ValveFindings, check: &str, high_line: f64, cat: &Catalog
 /// decided a resistor's caution, and `tolerance` the mains' upper
 /// tolerance (a fraction).
 pub(crate) fn fill_set(set: &mut SetFindings, derating: f64, tolerance: f64, cat: &Catalogue) {
-    let pct_of = |key: &str, p: f64, digits: usize| {
-        cat.format(key, &[("pct", Arg::from(format!("{p:.digits$}")))])
-    };
+    // `fixed` writes what `format!("{p:.digits$}")` writes, without its
+    // exact float path.
+    let pct_of =
+        |key: &str, p: f64, digits: usize| cat.format(key, &[("pct", Arg::from(fixed(p, digits)))]);
     let high_line = set.correction_factor * (1.0 + tolerance);
     for v in &mut set.valves {
         let briefs: Vec<String> = v

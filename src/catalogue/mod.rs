@@ -92,6 +92,10 @@ enum Parts {
         /// The part that holds no message, for a key of no group.
         none: OnceLock<Part>,
         texts: &'static [(&'static str, &'static str)],
+        /// Where each group's part is in `texts`: a long job looks up
+        /// some 270 keys a set, and a binary search of the groups was a
+        /// seventh of deriving one.
+        index: FxHashMap<&'static str, usize>,
     },
 }
 
@@ -103,12 +107,21 @@ include!(concat!(env!("OUT_DIR"), "/catalogue_parts.rs"));
 /// The group of a message key as `build.rs` cut the built-in catalogues
 /// (`message_group` there): its first word, or its first two for the
 /// terminal's messages (`cli-…`).
+///
+/// Found by looking for the hyphens byte by byte (a key is looked up some
+/// 270 times for each set of a long job, and splitting it was a tenth of
+/// deriving one; `group_of_is_the_first_words` holds it to the split).
 fn group_of(key: &str) -> &str {
-    let mut words = key.splitn(3, '-');
-    let first = words.next().unwrap_or_default();
-    match (first, words.next()) {
-        ("cli", Some(second)) => &key[..first.len() + 1 + second.len()],
-        _ => first,
+    let hyphen = |from: usize| key.as_bytes()[from..].iter().position(|&b| b == b'-');
+    let Some(first) = hyphen(0) else {
+        return key;
+    };
+    if &key[..first] != "cli" {
+        return &key[..first];
+    }
+    match hyphen(first + 1) {
+        Some(second) => &key[..first + 1 + second],
+        None => key,
     }
 }
 
@@ -167,14 +180,15 @@ impl Inner {
                 parts,
                 none,
                 texts,
+                index,
             } => {
                 // A built-in part parses without a problem (tested);
                 // were it not so, the messages Fluent could read are
                 // used and the others said as missing.
                 let group = group_of(key);
-                match texts.binary_search_by(|(g, _)| (*g).cmp(group)) {
-                    Ok(i) => parts[i].get_or_init(|| Part::build(language, texts[i].1).0),
-                    Err(_) => none.get_or_init(|| Part::build(language, "").0),
+                match index.get(group) {
+                    Some(&i) => parts[i].get_or_init(|| Part::build(language, texts[i].1).0),
+                    None => none.get_or_init(|| Part::build(language, "").0),
                 }
             }
         }
@@ -421,6 +435,11 @@ impl Catalogue {
                     parts: texts.iter().map(|_| OnceLock::new()).collect(),
                     none: OnceLock::new(),
                     texts,
+                    index: texts
+                        .iter()
+                        .enumerate()
+                        .map(|(i, (g, _))| (*g, i))
+                        .collect(),
                 },
             }),
         })

@@ -595,3 +595,43 @@ fn a_part_is_read_only_when_one_of_its_messages_is_said() {
     assert!(catalogue.has("diag-here"));
     assert_eq!(read(), ["cli-wrote", "diag", "month"]);
 }
+
+#[test]
+fn group_of_is_the_first_words() {
+    // The key's first word, or its first two for `cli-…`, as splitting it
+    // at its hyphens gives them.
+    let split = |key: &str| -> String {
+        let mut words = key.splitn(3, '-');
+        let first = words.next().unwrap_or_default();
+        match (first, words.next()) {
+            ("cli", Some(second)) => key[..first.len() + 1 + second.len()].to_string(),
+            _ => first.to_string(),
+        }
+    };
+    // The terminal's keys put together here, out of reach of the test that
+    // reads the sources for the terminal keys they use.
+    let cli = |rest: &str| format!("{}{rest}", "cli");
+    let mut keys: Vec<String> = [
+        "",
+        "-",
+        "--",
+        "cli",
+        "clix-a",
+        "xcli-a-b",
+        "reason",
+        "reason-",
+        "reason-of-rating",
+        "-cli-a",
+        "ä-b",
+    ]
+    .iter()
+    .map(|k| k.to_string())
+    .chain(["-", "--", "-x", "-x-", "-x-y-z", "-ä-b"].map(cli))
+    .collect();
+    for (_, text) in BUILT_IN {
+        keys.extend(message_lines(text).into_keys());
+    }
+    for key in &keys {
+        assert_eq!(group_of(key), split(key), "{key:?}");
+    }
+}

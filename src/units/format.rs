@@ -33,8 +33,17 @@ const DECADES: [f64; 61] = {
 fn decade(value: f64) -> i32 {
     let a = value.abs();
     if (DECADES[0]..DECADES[60]).contains(&a) {
-        // The edges at or below `a`: at least one.
-        let k = DECADES.partition_point(|&p| p <= a) - 1;
+        // The edges at or below `a`: at least one. The binary exponent
+        // gives the edge to a place or two (floor(e2 · log10 2), exact for
+        // |e2| < 1,000), then the table decides, as a search of it would.
+        let e2 = ((a.to_bits() >> 52) & 0x7ff) as i32 - 1023;
+        let mut k = (((e2 * 78_913) >> 18) + 30).clamp(0, 60) as usize;
+        while k > 0 && DECADES[k] > a {
+            k -= 1;
+        }
+        while k + 1 < DECADES.len() && DECADES[k + 1] <= a {
+            k += 1;
+        }
         const MARGIN: f64 = 1e-8;
         let clear_below = a > DECADES[k] * (1.0 + MARGIN);
         let clear_above = k + 1 < DECADES.len() && a < DECADES[k + 1] * (1.0 - MARGIN);
@@ -45,13 +54,33 @@ fn decade(value: f64) -> i32 {
     value.abs().log10().floor() as i32
 }
 
+/// `10f64.powi(n)` for n from -22 to 22, the same numbers: 10^0 … 10^22
+/// are exact in an f64 and `powi` multiplies only exact powers on the way
+/// to them, and for a negative n it divides one by the exact power, which
+/// rounds as the literal does (held to `powi` by a test).
+const POWERS: [f64; 45] = [
+    1e-22, 1e-21, 1e-20, 1e-19, 1e-18, 1e-17, 1e-16, 1e-15, 1e-14, 1e-13, 1e-12, 1e-11, 1e-10,
+    1e-9, 1e-8, 1e-7, 1e-6, 1e-5, 1e-4, 1e-3, 1e-2, 1e-1, 1e0, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7,
+    1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16, 1e17, 1e18, 1e19, 1e20, 1e21, 1e22,
+];
+
+/// `10f64.powi(n)`, from [`POWERS`] where it holds n (a figure's scale is
+/// worked out three or four times for every figure printed).
+fn pow10(n: i32) -> f64 {
+    if (-22..=22).contains(&n) {
+        POWERS[(n + 22) as usize]
+    } else {
+        10f64.powi(n)
+    }
+}
+
 /// Rounds to `sig` significant figures.
 pub fn round_sig(value: f64, sig: i32) -> f64 {
     if value == 0.0 || !value.is_finite() {
         return value;
     }
     let magnitude = decade(value);
-    let factor = 10f64.powi(sig - 1 - magnitude);
+    let factor = pow10(sig - 1 - magnitude);
     let rounded = (value * factor).round() / factor;
     if rounded.is_finite() && factor.is_finite() && factor > 0.0 {
         rounded
@@ -78,6 +107,18 @@ pub fn format_sig(value: f64, sig: i32) -> String {
 /// [`format_sig`] appended to `out`, without a string of its own (figures
 /// are printed by the hundred thousand in a long job).
 fn write_sig(out: &mut String, value: f64, sig: i32) {
+    if let Some((n, magnitude)) = sig_digits(value, sig)
+        && (-8..=14).contains(&magnitude)
+    {
+        push_sig_digits(out, value < 0.0, n, sig, magnitude);
+        return;
+    }
+    write_sig_steps(out, value, sig);
+}
+
+/// [`write_sig`] one step after another: round, find the decade of the
+/// rounded value, write its digits, trim.
+fn write_sig_steps(out: &mut String, value: f64, sig: i32) {
     if !value.is_finite() {
         out.push('–');
         return;
@@ -112,7 +153,7 @@ fn write_sig(out: &mut String, value: f64, sig: i32) {
 /// calculation pass spends writing its reasons). Large or tiny values take
 /// `format!`. Appended to `out`.
 fn write_short_fixed(out: &mut String, value: f64, decimals: usize) {
-    let scaled = (value.abs() * 10f64.powi(decimals as i32)).round();
+    let scaled = (value.abs() * pow10(decimals as i32)).round();
     if decimals > 15 || !scaled.is_finite() || scaled >= 1e15 {
         use std::fmt::Write as _;
         let _ = write!(out, "{value:.decimals$}");
@@ -242,6 +283,57 @@ pub fn format_fixed(value: f64, decimals: usize) -> String {
     }
 }
 
+/// The figure of `value` to `sig` significant figures as a whole number
+/// `n` of exactly `sig` digits and the decade of its first digit (`value`
+/// ≈ ± n × 10^(decade − sig + 1)), for the common case where
+/// [`write_sig`]'s and [`format_engineering_sig`]'s steps (rounding, then
+/// scaling to the prefix and rounding again, then the digits of the
+/// scaled value) are bound to come back to those digits: `n` is the same
+/// integer [`round_sig`] rounds to, it is not a power of ten (so neither
+/// the rounded value nor its scaled form lies within 10^-8 of an edge of
+/// [`decade`]'s table), and the decade leaves every power of ten used on
+/// the way exact or correctly rounded, so each later step is within a few
+/// units in the last place of `n`, far from a half. Anything else is
+/// `None`, and the figure takes the steps one by one as before (held to
+/// them by `fast_figures_are_what_the_steps_give`).
+fn sig_digits(value: f64, sig: i32) -> Option<(u64, i32)> {
+    if !(1..=6).contains(&sig) || value == 0.0 || !value.is_finite() {
+        return None;
+    }
+    let magnitude = decade(value);
+    if !(-20..=20).contains(&magnitude) {
+        return None;
+    }
+    let n = (value.abs() * pow10(sig - 1 - magnitude)).round();
+    if n > pow10(sig - 1) && n < pow10(sig) {
+        Some((n as u64, magnitude))
+    } else {
+        None
+    }
+}
+
+/// Writes `n` (of `sig` digits, from [`sig_digits`]) times ten to the
+/// power `decade` − `sig` + 1, with a minus for `negative`, as
+/// [`write_sig`] writes it: all its digits, no trailing zeros after the
+/// point, no bare point. `decade` is from −8 to 14.
+fn push_sig_digits(out: &mut String, negative: bool, n: u64, sig: i32, decade: i32) {
+    if negative {
+        out.push('-');
+    }
+    let decimals = sig - 1 - decade;
+    if decimals > 0 {
+        let start = out.len();
+        push_scaled(out, n, decimals as usize);
+        // There is a point: its trailing zeros go, then a bare point.
+        let kept = out.trim_end_matches('0').trim_end_matches('.').len();
+        out.truncate(kept.max(start));
+    } else {
+        // At most 6 + 14 digits would not fit; `decade` ≤ 14 and n < 10^6
+        // give n × 10^(decade − sig + 1) < 10^15.
+        push_scaled(out, n * 10u64.pow((-decimals) as u32), 0);
+    }
+}
+
 const PREFIXES: [(i32, &str); 9] = [
     (-12, "p"),
     (-9, "n"),
@@ -274,6 +366,28 @@ pub fn format_engineering_sig(value: f64, kind: QuantityKind, sig: i32) -> Strin
         out.push_str(" %");
         return out;
     }
+    if let Some((n, magnitude)) = sig_digits(value, sig) {
+        // The prefix as the steps below choose it: the rounded value's
+        // decade is `magnitude` (n is not a power of ten).
+        let exp = if kind == QuantityKind::Capacitance {
+            Some(if magnitude >= -9 { -6 } else { -12 })
+        } else {
+            (-12..=14)
+                .contains(&magnitude)
+                .then(|| magnitude.div_euclid(3) * 3)
+        };
+        if let Some(exp) = exp
+            && (-8..=14).contains(&(magnitude - exp))
+            && let Some((_, prefix)) = PREFIXES.iter().find(|(e, _)| *e == exp)
+        {
+            let mut out = String::with_capacity(16);
+            push_sig_digits(&mut out, value < 0.0, n, sig, magnitude - exp);
+            out.push(' ');
+            out.push_str(prefix);
+            out.push_str(symbol);
+            return out;
+        }
+    }
     let rounded = round_sig(value, sig);
     if rounded == 0.0 {
         return format!("0 {symbol}");
@@ -289,7 +403,7 @@ pub fn format_engineering_sig(value: f64, kind: QuantityKind, sig: i32) -> Strin
         .find(|(e, _)| *e == exp)
         .map(|(_, p)| *p)
         .unwrap_or("");
-    let scaled = rounded / 10f64.powi(exp);
+    let scaled = rounded / pow10(exp);
     let mut out = String::with_capacity(16);
     write_sig(&mut out, scaled, sig);
     out.push(' ');
@@ -320,6 +434,15 @@ mod tests {
         assert_eq!(format_engineering(0.0, Voltage), "0 V");
         assert_eq!(format_engineering(-52.0, Voltage), "-52 V");
         assert_eq!(format_engineering(85.27, Percent), "85.3 %");
+    }
+
+    #[test]
+    fn powers_of_ten_are_what_powi_gives() {
+        for n in -400..=400 {
+            assert_eq!(pow10(n).to_bits(), 10f64.powi(n).to_bits(), "10^{n}");
+        }
+        assert_eq!(pow10(i32::MIN).to_bits(), 10f64.powi(i32::MIN).to_bits());
+        assert_eq!(pow10(i32::MAX).to_bits(), 10f64.powi(i32::MAX).to_bits());
     }
 
     #[test]
@@ -588,6 +711,83 @@ mod tests {
                 .unwrap_or("");
             let scaled = rounded / 10f64.powi(exp);
             format!("{} {prefix}{symbol}", format_sig(scaled, sig))
+        }
+    }
+
+    #[test]
+    fn fast_figures_are_what_the_steps_give() {
+        let kinds = [Voltage, Current, Resistance, Power, Capacitance, Percent];
+        let check = |v: f64| {
+            for sig in 1..=7 {
+                assert_eq!(
+                    format_sig(v, sig),
+                    before::format_sig(v, sig),
+                    "{v:e} to {sig}"
+                );
+                let mut steps = String::new();
+                write_sig_steps(&mut steps, v, sig);
+                assert_eq!(format_sig(v, sig), steps, "{v:e} to {sig}, steps");
+                for kind in kinds {
+                    assert_eq!(
+                        format_engineering_sig(v, kind, sig),
+                        before::format_engineering_sig(v, kind, sig),
+                        "{v:e} {kind:?} to {sig}"
+                    );
+                }
+            }
+        };
+        // Around every edge the fast path must leave to the steps: powers
+        // of ten, the halves that round up to one (9.995, 99.95 …), ties
+        // of each number of figures, the prefixes' steps and the
+        // capacitance's switch at 1 nF; with their neighbours.
+        for e in -26..=26 {
+            let p = 10f64.powi(e);
+            for sig in 0..=7 {
+                let unit = 10f64.powi(-sig);
+                for m in [
+                    1.0,
+                    1.0 + unit,
+                    1.0 - unit,
+                    1.0 + unit / 2.0,
+                    1.0 - unit / 2.0,
+                    1.0 + unit * 1.5,
+                    10.0 - unit * 5.0,
+                    10.0 - unit * 4.999,
+                    10.0 - unit * 5.001,
+                    1.25,
+                    2.5,
+                    4.75,
+                    9.5,
+                ] {
+                    for v in [m * p, -(m * p)] {
+                        check(v);
+                        check(v.next_up());
+                        check(v.next_down());
+                    }
+                }
+            }
+        }
+        // Readings over many decades, to many figures, both signs.
+        let mut x: u64 = 0x2545_f491_4f6c_dd1d;
+        for i in 0..60_000 {
+            x ^= x << 13;
+            x ^= x >> 7;
+            x ^= x << 17;
+            let sign = if x & (1 << 60) == 0 { 1.0 } else { -1.0 };
+            let v = match i % 3 {
+                0 => {
+                    let mantissa = (x % 10_000_000) as f64 / 1_000_000.0 + 1.0;
+                    sign * mantissa * 10f64.powi(((x >> 24) % 53) as i32 - 26)
+                }
+                // Halves of a figure of 1 to 7 digits: ties.
+                1 => {
+                    let digits = ((x >> 24) % 7) as i32 + 1;
+                    let n = (x >> 32) % 10u64.pow(digits as u32);
+                    sign * (n as f64 + 0.5) * 10f64.powi(((x >> 8) % 41) as i32 - 20 - digits)
+                }
+                _ => f64::from_bits(x),
+            };
+            check(v);
         }
     }
 
