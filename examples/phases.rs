@@ -10,6 +10,10 @@
 //! of the binary before a change and run both alternately to compare.
 use ampreport::report::handover::{self, HandoverInput};
 
+/// The binary's allocator (src/main.rs), so the phases cost what they
+/// cost in `ampreport`.
+#[global_allocator]
+static ALLOCATOR: mimalloc::MiMalloc = mimalloc::MiMalloc;
 use ampreport::typeset::TemplateSource;
 use std::time::Duration;
 

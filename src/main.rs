@@ -1,11 +1,16 @@
 //! The `ampreport` binary: hands the command line to [`ampreport::cli`],
 //! on a thread with [`ampreport::cli::PROGRAM_STACK`] of stack.
 
-// The C library's allocator. mimalloc was tried (docs/performance.md,
-// "The allocator taken back out"): it made a long job's own work far
-// cheaper but a single render's own share erratic (one render in two or
-// three cost 10–20 ms more processor time while typst ran), for a reason
-// not yet found.
+/// mimalloc rather than the C library's allocator: a long job makes and
+/// drops millions of small strings and vectors, and malloc and free were
+/// a fifth to a quarter of every stage (docs/performance.md, "Eighth
+/// pass: decode, derive and the allocator"). Built without transparent
+/// huge pages (Cargo.toml), which made a single render dearer ("The
+/// allocator: huge pages found and turned off"). Set here and in the
+/// `phases` example only, not in the library, so the fuzz targets keep
+/// the sanitiser's allocator.
+#[global_allocator]
+static ALLOCATOR: mimalloc::MiMalloc = mimalloc::MiMalloc;
 
 fn main() -> std::process::ExitCode {
     match std::thread::Builder::new()
