@@ -25,6 +25,7 @@ use sha2::{Digest, Sha256};
 
 use crate::typeset::{Running, Stopped, describe_status};
 
+mod direct;
 pub mod remembered;
 pub use remembered::look_up_at;
 
@@ -507,6 +508,14 @@ pub fn head(folder: &Path) -> Option<Head> {
     if !may_be_in_repository(folder) {
         return None;
     }
+    if let direct::Direct::Found(head) = direct::head(folder) {
+        return Some(head);
+    }
+    head_from_git(folder)
+}
+
+/// [`head`] asked of `git rev-parse`.
+fn head_from_git(folder: &Path) -> Option<Head> {
     let Ran::Ok(out) = run(
         folder,
         &["rev-parse", "--show-prefix", "--verify", "--quiet", "HEAD"],
@@ -634,7 +643,7 @@ mod tests {
         })
     }
 
-    fn git_in(dir: &Path, args: &[&str]) -> String {
+    pub(super) fn git_in(dir: &Path, args: &[&str]) -> String {
         let out = Command::new("git")
             .arg("-C")
             .arg(dir)
