@@ -1,7 +1,9 @@
 //! Where a job file stands in git, read through the `git` command: the
 //! commit that last changed it and whether the file on disk differs from
 //! that commit (for the document's footer and the JSON), and a job file's
-//! text at a revision (`REV:PATH`, for `compare`).
+//! text at a revision (`REV:PATH`, for `compare`). Where `HEAD` stands,
+//! asked on every render, is read from the repository's own files where
+//! git's answer cannot differ ([`direct`]).
 //!
 //! git is treated like any outside program: it runs with a time limit and
 //! bounded output (the same child runner as typst), never asks for input,
