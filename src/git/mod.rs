@@ -3,7 +3,7 @@
 //! that commit (for the document's footer and the JSON), and a job file's
 //! text at a revision (`REV:PATH`, for `compare`). Where `HEAD` stands,
 //! asked on every render, is read from the repository's own files where
-//! git's answer cannot differ ([`direct`]).
+//! git's answer cannot differ (`direct.rs`).
 //!
 //! git is treated like any outside program: it runs with a time limit and
 //! bounded output (the same child runner as typst), never asks for input,
