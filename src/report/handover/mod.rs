@@ -246,6 +246,18 @@ pub fn job_digest(text: &str) -> String {
     digest.iter().take(6).map(|b| format!("{b:02x}")).collect()
 }
 
+/// [`job_digest`] of `text`, the job file's text the findings were made
+/// from: taken from the findings' SHA-256 of the file when the command
+/// that read it stamped them (`cli::load::stamp_from`, from the same
+/// text), else worked out. A long job's text hashed a second time was
+/// about 2 % of a 1,000-set render's own instructions.
+pub(crate) fn job_digest_of(findings: &crate::calc::Findings, text: &str) -> String {
+    match findings.job.file_sha256.as_deref() {
+        Some(full) if full.len() == 64 && full.is_ascii() => full[..12].to_string(),
+        _ => job_digest(text),
+    }
+}
+
 /// The `typst compile` command that turns a folder written by
 /// [`crate::typeset::emit_source`] into the same PDF ampreport makes.
 pub fn compile_command(dir: &Path, options: &CompileOptions, output: &Path) -> String {
@@ -364,7 +376,7 @@ pub fn build(
             warm_up_plots.push(i);
         }
     }
-    let digest = job_digest(input.job_text);
+    let digest = job_digest_of(input.findings, input.job_text);
     let shop = match input.shop {
         Some(profile) => ShopBlock::from_profile(profile, input.logo),
         None => ShopBlock::default(),
@@ -968,6 +980,26 @@ mod tests {
         // FIPS 180-2 test vector: SHA-256("abc") = ba7816bf8f01cfea…
         assert_eq!(job_digest("abc"), "ba7816bf8f01");
         assert_eq!(job_digest("abc").len(), 12);
+    }
+
+    /// The footer's digest is the same whether the findings carry the
+    /// file's SHA-256 (as a render stamps them) or not.
+    #[test]
+    fn the_digest_taken_from_stamped_findings_is_the_one_worked_out() {
+        let (_, mut findings, text) = demo("combo-el84-cathode.kdl");
+        assert_eq!(findings.job.file_sha256, None);
+        let worked_out = job_digest_of(&findings, &text);
+        assert_eq!(worked_out, job_digest(&text));
+        // SHA-256 of the text, in full, as `cli::load::stamp_from` writes it.
+        let full: String = Sha256::digest(text.as_bytes())
+            .iter()
+            .map(|b| format!("{b:02x}"))
+            .collect();
+        findings.job.file_sha256 = Some(full.clone());
+        assert_eq!(job_digest_of(&findings, &text), worked_out);
+        // What is taken is the stamp: its first twelve digits.
+        findings.job.file_sha256 = Some(format!("0123456789ab{}", &full[12..]));
+        assert_eq!(job_digest_of(&findings, &text), "0123456789ab");
     }
 
     #[test]

@@ -28,7 +28,7 @@ use crate::job::Job;
 use crate::photo::PreparedPhoto;
 use crate::report::handover::{
     HandoverError, MAIN_SOURCE, NOTICE_INCLUDE, NOTICE_SOURCE, ShopBlock, creation_date,
-    fill_template, job_digest, notice_required, notice_source,
+    fill_template, job_digest_of, notice_required, notice_source,
 };
 use crate::shop::{Logo, ShopProfile};
 use crate::typeset::{CompileOptions, Sandbox, TemplateSource};
@@ -95,7 +95,7 @@ pub fn build(
     for photo in &listed {
         sandbox.insert(photo.sandbox_path.clone(), photo.bytes.clone())?;
     }
-    let digest = job_digest(input.job_text);
+    let digest = job_digest_of(input.findings, input.job_text);
     let inputs = ListingInputs {
         shop,
         profile: input.shop,
