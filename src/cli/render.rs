@@ -145,13 +145,14 @@ impl<'a> Setup<'a> {
         if !batch {
             single_output_allowed(args, &jobs[0].path)?;
         }
-        // typst answers `--version`, and git says where a lone job's
-        // repository stands (for its content key), while the ratings are
-        // read.
+        // Where a lone job's repository stands (for its content key):
+        // read from the repository's files, or asked of git where they
+        // could read otherwise (`git::head`). Then typst answers
+        // `--version` while the ratings are read.
         let head = (!batch && !is_dash(&jobs[0].path)).then(|| {
             let folder = job_folder(&jobs[0].path);
-            let asked = folder.clone();
-            (folder, std::thread::spawn(move || crate::git::head(&asked)))
+            let answer = crate::git::head(&folder);
+            (folder, answer)
         });
         let pending = typeset::start_locate(args.typst.as_deref());
         let ratings = load::ratings(&args.job.ratings)?;
@@ -219,9 +220,7 @@ impl<'a> Setup<'a> {
                 .collect(),
         );
         let mut heads = std::collections::HashMap::new();
-        if let Some((folder, asked)) = head
-            && let Ok(answer) = asked.join()
-        {
+        if let Some((folder, answer)) = head {
             heads.insert(folder, answer);
         }
         Ok(Setup {
@@ -443,12 +442,21 @@ fn render_job(
     // read and worked out, in the history of the commit the content key
     // took (an answer kept from an earlier render of the same commit is
     // used); its answer is taken when the findings are.
+    // An answer remembered for this commit is read here; only git's own
+    // look-up is worth a thread.
     let lookup = (!is_dash(job_path)).then(|| {
         let path = job_path.clone();
         let head = setup.repository_head(job_path);
-        std::thread::spawn(move || {
-            crate::git::look_up_at(&path, head.as_ref(), crate::folders::cache_dir().as_deref())
-        })
+        let cache = crate::folders::cache_dir();
+        match head
+            .as_ref()
+            .and_then(|h| crate::git::remembered_at(&path, h, cache.as_deref()))
+        {
+            Some(answer) => Lookup::Known(answer),
+            None => Lookup::Asking(std::thread::spawn(move || {
+                crate::git::look_up_at(&path, head.as_ref(), cache.as_deref())
+            })),
+        }
     });
     let shop = load::shop_profile(job_path, args.job.shop_choice(), said, depends)?;
     let text = load::read_job(job_path, said)?;
@@ -522,7 +530,12 @@ fn render_job(
 
     let photos = load::photos(job_path, &loaded, said)?;
     let mut findings = calc::derive_in(job, &setup.ratings, loaded.catalogue());
-    let lookup = lookup.and_then(|asked| asked.join().ok()).flatten();
+    let lookup = lookup
+        .and_then(|asked| match asked {
+            Lookup::Known(answer) => Some(answer),
+            Lookup::Asking(thread) => thread.join().ok(),
+        })
+        .flatten();
     load::stamp_from(&loaded, &mut findings, lookup.as_ref());
     for warning in undrawable_text(&load::job_name(job_path), &loaded.text, said.catalogue()) {
         said.warn(warning);
@@ -722,6 +735,12 @@ fn render_job(
             said,
         )),
     }
+}
+
+/// The footer's look-up in git: remembered, or being asked on a thread.
+enum Lookup {
+    Known(Option<crate::git::Lookup>),
+    Asking(std::thread::JoinHandle<Option<crate::git::Lookup>>),
 }
 
 /// A document ready to compile, and the files written beside it.

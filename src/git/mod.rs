@@ -29,7 +29,7 @@ use crate::typeset::{Running, Stopped, describe_status};
 
 mod direct;
 pub mod remembered;
-pub use remembered::look_up_at;
+pub use remembered::{look_up_at, remembered_at};
 
 /// How long one git command may take.
 pub const GIT_TIMEOUT: Duration = Duration::from_secs(20);

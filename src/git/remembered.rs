@@ -70,9 +70,40 @@ pub fn look_up_at(file: &Path, head: Option<&Head>, cache_root: Option<&Path>) -
     {
         return answer;
     }
-    let asked = super::ask(&dir, &name, &head.commit);
+    ask_and_keep(&dir, &name, head, folder.as_deref(), key.as_ref())
+}
+
+/// [`look_up_at`]'s answer when it was remembered (`Some` of it, which
+/// may itself be none), else `None`: git would have to be asked. Cheap
+/// (one small file read), so a render asks it before it starts a thread
+/// for the look-up.
+pub fn remembered_at(
+    file: &Path,
+    head: &Head,
+    cache_root: Option<&Path>,
+) -> Option<Option<Lookup>> {
+    let (dir, name) = super::folder_and_name(file)?;
+    let cache = cache_root.and_then(|root| crate::folders::private_folder(root, FOLDER))?;
+    let key = Key {
+        folder: std::fs::canonicalize(&dir).ok()?,
+        name,
+        head: head.clone(),
+    };
+    recall(&cache, &key)
+}
+
+/// git asked at `head`, its answer kept under `folder` (the cache's
+/// folder) for `key` when it is settled.
+fn ask_and_keep(
+    dir: &Path,
+    name: &str,
+    head: &Head,
+    folder: Option<&Path>,
+    key: Option<&Key>,
+) -> Option<Lookup> {
+    let asked = super::ask(dir, name, &head.commit);
     if asked.settled
-        && let (Some(cache), Some(key)) = (&folder, &key)
+        && let (Some(cache), Some(key)) = (folder, key)
     {
         remember(cache, key, asked.answer.as_ref());
     }
@@ -250,9 +281,16 @@ mod tests {
         let head = super::super::head(repo.path()).unwrap();
         let asked = super::super::look_up(&job).unwrap();
         let cache_root = Some(cache.path());
+        // Nothing kept yet: a render starts git's look-up.
+        assert_eq!(remembered_at(&job, &head, cache_root), None);
         assert_eq!(
             look_up_at(&job, Some(&head), cache_root),
             Some(asked.clone())
+        );
+        // Kept now: read without git, the same answer.
+        assert_eq!(
+            remembered_at(&job, &head, cache_root),
+            Some(Some(asked.clone()))
         );
         let entries: Vec<_> = std::fs::read_dir(cache.path().join(FOLDER))
             .unwrap()
@@ -279,6 +317,13 @@ mod tests {
             look_up_at(&job, Some(&head), cache_root).unwrap().commit,
             other
         );
+        assert_eq!(
+            remembered_at(&job, &head, cache_root)
+                .unwrap()
+                .unwrap()
+                .commit,
+            other
+        );
         // … and not for another: a new commit asks git again and replaces
         // the entry.
         std::fs::write(&job, "job 1, as left\n").unwrap();
@@ -286,6 +331,7 @@ mod tests {
         let moved = super::super::head(repo.path()).unwrap();
         let now = super::super::look_up(&job).unwrap();
         assert_ne!(now, asked);
+        assert_eq!(remembered_at(&job, &moved, cache_root), None);
         assert_eq!(
             look_up_at(&job, Some(&moved), cache_root),
             Some(now.clone())
