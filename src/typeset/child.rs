@@ -9,7 +9,8 @@
 //! ampreport leaves no typst running. That takes a step in the child
 //! between `fork` and `exec`, which makes the standard library copy
 //! ampreport with `fork` rather than start the program with `posix_spawn`
-//! (about half a millisecond of processor time more per child); a short
+//! (about 2 ms of processor time more per render, measured on 5 December:
+//! docs/performance.md, "HEAD read from the repository"); a short
 //! query such as `git`'s is started without it ([`Running::spawn_short`]),
 //! and, when ampreport is killed outright, ends by itself.
 
