@@ -140,8 +140,12 @@ impl Running {
         own_group(&mut command, dies_with_parent);
         let mut child = spawn_when_not_busy(&mut command)?;
         let (closing, closed) = mpsc::channel();
-        let stdout = read_bounded(child.stdout.take(), stdout_cap, closing.clone());
-        let stderr = read_bounded(child.stderr.take(), stderr_cap, closing);
+        let (stdout, stderr) = read_both(
+            child.stdout.take(),
+            child.stderr.take(),
+            [stdout_cap, stderr_cap],
+            closing,
+        );
         Ok(Self {
             child,
             reaped: false,
@@ -223,8 +227,113 @@ fn collect(rx: &Receiver<Captured>) -> Captured {
     rx.recv_timeout(READER_GRACE).unwrap_or_default()
 }
 
+/// Reads the child's two outputs to their ends, keeping `caps` bytes of
+/// each: on Unix on one thread that waits on both (`poll`), elsewhere on a
+/// thread each. Each output's capture is sent as soon as that output ends
+/// (a grandchild may hold the other open), and `closed` told.
+#[cfg(unix)]
+fn read_both(
+    stdout: Option<std::process::ChildStdout>,
+    stderr: Option<std::process::ChildStderr>,
+    caps: [usize; 2],
+    closed: mpsc::Sender<()>,
+) -> (Receiver<Captured>, Receiver<Captured>) {
+    use std::os::fd::{AsRawFd, OwnedFd};
+    let (out_tx, out_rx) = mpsc::channel();
+    let (err_tx, err_rx) = mpsc::channel();
+    let sources: [Option<OwnedFd>; 2] = [stdout.map(OwnedFd::from), stderr.map(OwnedFd::from)];
+    let mut streams: Vec<(std::fs::File, usize, Captured, mpsc::Sender<Captured>)> = Vec::new();
+    for ((source, cap), tx) in sources.into_iter().zip(caps).zip([out_tx, err_tx]) {
+        match source {
+            Some(fd) => streams.push((std::fs::File::from(fd), cap, Captured::default(), tx)),
+            None => {
+                let _ = tx.send(Captured::default());
+            }
+        }
+    }
+    if streams.is_empty() {
+        return (out_rx, err_rx);
+    }
+    let spawned = std::thread::Builder::new()
+        .name("typst-output".into())
+        .spawn(move || {
+            let mut buf = [0u8; 8192];
+            while !streams.is_empty() {
+                let mut polled: Vec<libc::pollfd> = streams
+                    .iter()
+                    .map(|(file, ..)| libc::pollfd {
+                        fd: file.as_raw_fd(),
+                        events: libc::POLLIN,
+                        revents: 0,
+                    })
+                    .collect();
+                // SAFETY: `polled` is a live array of as many pollfd
+                // values as the count passed, each naming an open
+                // descriptor this thread owns.
+                let n =
+                    unsafe { libc::poll(polled.as_mut_ptr(), polled.len() as libc::nfds_t, -1) };
+                if n < 0 {
+                    if io::Error::last_os_error().kind() == io::ErrorKind::Interrupted {
+                        continue;
+                    }
+                    // Polling itself failed: what was read is what there is.
+                    for (_, _, captured, tx) in streams.drain(..) {
+                        let _ = tx.send(captured);
+                        let _ = closed.send(());
+                    }
+                    break;
+                }
+                let mut ended = Vec::new();
+                for (i, p) in polled.iter().enumerate() {
+                    if p.revents == 0 {
+                        continue;
+                    }
+                    let (file, cap, captured, _) = &mut streams[i];
+                    match file.read(&mut buf) {
+                        Ok(0) => ended.push(i),
+                        Ok(n) => {
+                            let room = cap.saturating_sub(captured.bytes.len()).min(n);
+                            captured.bytes.extend_from_slice(&buf[..room]);
+                            captured.dropped += (n - room) as u64;
+                        }
+                        Err(e) if e.kind() == io::ErrorKind::Interrupted => {}
+                        Err(_) => ended.push(i),
+                    }
+                }
+                for i in ended.into_iter().rev() {
+                    let (_, _, captured, tx) = streams.remove(i);
+                    let _ = tx.send(captured);
+                    let _ = closed.send(());
+                }
+            }
+        });
+    if spawned.is_err() {
+        // No thread: the pipes are dropped, and the child sees them closed.
+        let (tx, out_rx) = mpsc::channel();
+        let _ = tx.send(Captured::default());
+        let (tx, err_rx) = mpsc::channel();
+        let _ = tx.send(Captured::default());
+        return (out_rx, err_rx);
+    }
+    (out_rx, err_rx)
+}
+
+#[cfg(not(unix))]
+fn read_both(
+    stdout: Option<std::process::ChildStdout>,
+    stderr: Option<std::process::ChildStderr>,
+    caps: [usize; 2],
+    closed: mpsc::Sender<()>,
+) -> (Receiver<Captured>, Receiver<Captured>) {
+    (
+        read_bounded(stdout, caps[0], closed.clone()),
+        read_bounded(stderr, caps[1], closed),
+    )
+}
+
 /// Reads `source` to its end on a thread of its own, keeping `cap` bytes.
 /// Tells `closed` when the source has ended.
+#[cfg(not(unix))]
 fn read_bounded<R: Read + Send + 'static>(
     source: Option<R>,
     cap: usize,
