@@ -452,8 +452,8 @@ fn render_job(
             .as_ref()
             .and_then(|h| crate::git::remembered_at(&path, h, cache.as_deref()))
         {
-            Some(answer) => Lookup::Known(answer),
-            None => Lookup::Asking(std::thread::spawn(move || {
+            Some(answer) => FooterLookup::Known(answer),
+            None => FooterLookup::Asking(std::thread::spawn(move || {
                 crate::git::look_up_at(&path, head.as_ref(), cache.as_deref())
             })),
         }
@@ -532,8 +532,8 @@ fn render_job(
     let mut findings = calc::derive_in(job, &setup.ratings, loaded.catalogue());
     let lookup = lookup
         .and_then(|asked| match asked {
-            Lookup::Known(answer) => Some(answer),
-            Lookup::Asking(thread) => thread.join().ok(),
+            FooterLookup::Known(answer) => Some(answer),
+            FooterLookup::Asking(thread) => thread.join().ok(),
         })
         .flatten();
     load::stamp_from(&loaded, &mut findings, lookup.as_ref());
@@ -738,7 +738,7 @@ fn render_job(
 }
 
 /// The footer's look-up in git: remembered, or being asked on a thread.
-enum Lookup {
+enum FooterLookup {
     Known(Option<crate::git::Lookup>),
     Asking(std::thread::JoinHandle<Option<crate::git::Lookup>>),
 }

@@ -79,7 +79,8 @@ fn read(folder: &Path) -> Option<Head> {
     }
     let git_dir = git_dir_of(&top, &dot_git)?;
     let common = match small_text(&git_dir.join("commondir")) {
-        Some(text) => absolute(&git_dir, text.strip_suffix('\n')?),
+        // A relative path is from the repository's folder.
+        Some(text) => git_dir.join(text.strip_suffix('\n')?),
         None if git_dir.join("commondir").exists() => return None,
         None => git_dir.clone(),
     };
@@ -110,13 +111,9 @@ fn git_dir_of(top: &Path, dot_git: &Path) -> Option<PathBuf> {
     if named.is_empty() || named.contains(['\n', '\r']) {
         return None;
     }
-    let dir = std::fs::canonicalize(absolute(top, named)).ok()?;
+    // A relative path is from the working tree's top.
+    let dir = std::fs::canonicalize(top.join(named)).ok()?;
     dir.is_dir().then_some(dir)
-}
-
-/// `path` as written in a git file, from `base` when relative.
-fn absolute(base: &Path, path: &str) -> PathBuf {
-    base.join(path)
 }
 
 /// True when the repository's configuration holds nothing that changes

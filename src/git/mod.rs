@@ -507,11 +507,11 @@ pub struct Head {
 /// a repository or before its first commit. Two renders of a job whose
 /// bytes, name and [`Head`] are the same get the same [`revision`].
 pub fn head(folder: &Path) -> Option<Head> {
-    if !may_be_in_repository(folder) {
-        return None;
-    }
     if let direct::Direct::Found(head) = direct::head(folder) {
         return Some(head);
+    }
+    if !may_be_in_repository(folder) {
+        return None;
     }
     head_from_git(folder)
 }

@@ -31,6 +31,14 @@ pub(crate) struct Captured {
 }
 
 impl Captured {
+    /// Keeps what of `chunk` fits under `cap` bytes in all, and counts
+    /// the rest as dropped.
+    fn keep(&mut self, chunk: &[u8], cap: usize) {
+        let room = cap.saturating_sub(self.bytes.len()).min(chunk.len());
+        self.bytes.extend_from_slice(&chunk[..room]);
+        self.dropped += (chunk.len() - room) as u64;
+    }
+
     /// The text, trimmed, with a note of any dropped part.
     pub fn text(&self) -> String {
         let mut text = String::from_utf8_lossy(&self.bytes).trim().to_owned();
@@ -230,7 +238,9 @@ fn collect(rx: &Receiver<Captured>) -> Captured {
 /// Reads the child's two outputs to their ends, keeping `caps` bytes of
 /// each: on Unix on one thread that waits on both (`poll`), elsewhere on a
 /// thread each. Each output's capture is sent as soon as that output ends
-/// (a grandchild may hold the other open), and `closed` told.
+/// (a grandchild may hold the other open), and `closed` told. Without a
+/// thread the pipes are dropped (the child sees them closed) and the
+/// captures come back empty.
 #[cfg(unix)]
 fn read_both(
     stdout: Option<std::process::ChildStdout>,
@@ -242,7 +252,7 @@ fn read_both(
     let (out_tx, out_rx) = mpsc::channel();
     let (err_tx, err_rx) = mpsc::channel();
     let sources: [Option<OwnedFd>; 2] = [stdout.map(OwnedFd::from), stderr.map(OwnedFd::from)];
-    let mut streams: Vec<(std::fs::File, usize, Captured, mpsc::Sender<Captured>)> = Vec::new();
+    let mut streams = Vec::new();
     for ((source, cap), tx) in sources.into_iter().zip(caps).zip([out_tx, err_tx]) {
         match source {
             Some(fd) => streams.push((std::fs::File::from(fd), cap, Captured::default(), tx)),
@@ -254,7 +264,7 @@ fn read_both(
     if streams.is_empty() {
         return (out_rx, err_rx);
     }
-    let spawned = std::thread::Builder::new()
+    let _ = std::thread::Builder::new()
         .name("typst-output".into())
         .spawn(move || {
             let mut buf = [0u8; 8192];
@@ -272,34 +282,29 @@ fn read_both(
                 // descriptor this thread owns.
                 let n =
                     unsafe { libc::poll(polled.as_mut_ptr(), polled.len() as libc::nfds_t, -1) };
-                if n < 0 {
+                let ended: Vec<usize> = if n < 0 {
                     if io::Error::last_os_error().kind() == io::ErrorKind::Interrupted {
                         continue;
                     }
                     // Polling itself failed: what was read is what there is.
-                    for (_, _, captured, tx) in streams.drain(..) {
-                        let _ = tx.send(captured);
-                        let _ = closed.send(());
-                    }
-                    break;
-                }
-                let mut ended = Vec::new();
-                for (i, p) in polled.iter().enumerate() {
-                    if p.revents == 0 {
-                        continue;
-                    }
-                    let (file, cap, captured, _) = &mut streams[i];
-                    match file.read(&mut buf) {
-                        Ok(0) => ended.push(i),
-                        Ok(n) => {
-                            let room = cap.saturating_sub(captured.bytes.len()).min(n);
-                            captured.bytes.extend_from_slice(&buf[..room]);
-                            captured.dropped += (n - room) as u64;
-                        }
-                        Err(e) if e.kind() == io::ErrorKind::Interrupted => {}
-                        Err(_) => ended.push(i),
-                    }
-                }
+                    (0..streams.len()).collect()
+                } else {
+                    let ready = polled.iter().enumerate().filter(|(_, p)| p.revents != 0);
+                    ready
+                        .filter_map(|(i, _)| {
+                            let (file, cap, captured, _) = &mut streams[i];
+                            match file.read(&mut buf) {
+                                Ok(0) => Some(i),
+                                Ok(n) => {
+                                    captured.keep(&buf[..n], *cap);
+                                    None
+                                }
+                                Err(e) if e.kind() == io::ErrorKind::Interrupted => None,
+                                Err(_) => Some(i),
+                            }
+                        })
+                        .collect()
+                };
                 for i in ended.into_iter().rev() {
                     let (_, _, captured, tx) = streams.remove(i);
                     let _ = tx.send(captured);
@@ -307,14 +312,6 @@ fn read_both(
                 }
             }
         });
-    if spawned.is_err() {
-        // No thread: the pipes are dropped, and the child sees them closed.
-        let (tx, out_rx) = mpsc::channel();
-        let _ = tx.send(Captured::default());
-        let (tx, err_rx) = mpsc::channel();
-        let _ = tx.send(Captured::default());
-        return (out_rx, err_rx);
-    }
     (out_rx, err_rx)
 }
 
@@ -352,11 +349,7 @@ fn read_bounded<R: Read + Send + 'static>(
             loop {
                 match source.read(&mut buf) {
                     Ok(0) => break,
-                    Ok(n) => {
-                        let room = cap.saturating_sub(captured.bytes.len()).min(n);
-                        captured.bytes.extend_from_slice(&buf[..room]);
-                        captured.dropped += (n - room) as u64;
-                    }
+                    Ok(n) => captured.keep(&buf[..n], cap),
                     Err(e) if e.kind() == io::ErrorKind::Interrupted => {}
                     Err(_) => break,
                 }
