@@ -7,12 +7,13 @@
 //! group reaches a wrapper script's own children too; on Linux typst is
 //! also told to die with ampreport (`PR_SET_PDEATHSIG`), so a `kill -9` of
 //! ampreport leaves no typst running. That takes a step in the child
-//! between `fork` and `exec`, which makes the standard library copy
-//! ampreport with `fork` rather than start the program with `posix_spawn`
-//! (about 2 ms of processor time more per render, measured on 5 December:
-//! docs/performance.md, "HEAD read from the repository"); a short
-//! query such as `git`'s is started without it ([`Running::spawn_short`]),
-//! and, when ampreport is killed outright, ends by itself.
+//! before its program starts, for which the standard library would copy
+//! ampreport with `fork` (about 2 ms of processor time more per render
+//! than `posix_spawn`); such a child is started by [`start`] instead,
+//! which shares ampreport's memory until the program starts, as
+//! `posix_spawn` does. A short query such as `git`'s is started by the
+//! standard library without the step ([`Running::spawn_short`]), and, when
+//! ampreport is killed outright, ends by itself.
 
 use std::io::{self, Read};
 use std::process::{Child, Command, ExitStatus, Stdio};
@@ -74,7 +75,7 @@ pub(crate) enum Stopped {
 /// A running child with its output being read.
 #[derive(Debug)]
 pub(crate) struct Running {
-    child: Child,
+    child: Process,
     reaped: bool,
     stdout: Receiver<Captured>,
     stderr: Receiver<Captured>,
@@ -83,15 +84,96 @@ pub(crate) struct Running {
     closed: Receiver<()>,
 }
 
+#[cfg(target_os = "linux")]
+mod start;
+
+/// The reading end of a child's output.
+#[cfg(unix)]
+type Pipe = std::os::fd::OwnedFd;
+#[cfg(not(unix))]
+type Pipe = Box<dyn Read + Send>;
+
+/// A started child: by the standard library, or on Linux, for a child
+/// that dies with ampreport, by [`start`] (which does not copy ampreport).
+#[derive(Debug)]
+enum Process {
+    Std(Child),
+    #[cfg(target_os = "linux")]
+    Started(start::Started),
+}
+
+impl Process {
+    /// Starts `command` and takes the reading ends of its two outputs.
+    fn spawn(
+        command: &mut Command,
+        dies_with_parent: bool,
+    ) -> io::Result<(Self, [Option<Pipe>; 2])> {
+        #[cfg(target_os = "linux")]
+        if dies_with_parent && let Some(started) = start::start(command) {
+            let (child, outputs) = started?;
+            return Ok((
+                Self::Started(child),
+                [Some(outputs.stdout), Some(outputs.stderr)],
+            ));
+        }
+        #[cfg(not(target_os = "linux"))]
+        let _ = dies_with_parent;
+        let mut child = command.spawn()?;
+        #[cfg(unix)]
+        let pipes = [
+            child.stdout.take().map(Pipe::from),
+            child.stderr.take().map(Pipe::from),
+        ];
+        #[cfg(not(unix))]
+        let pipes = [
+            child.stdout.take().map(|p| Box::new(p) as Pipe),
+            child.stderr.take().map(|p| Box::new(p) as Pipe),
+        ];
+        Ok((Self::Std(child), pipes))
+    }
+
+    fn id(&self) -> u32 {
+        match self {
+            Self::Std(c) => c.id(),
+            #[cfg(target_os = "linux")]
+            Self::Started(c) => c.id(),
+        }
+    }
+
+    fn try_wait(&mut self) -> io::Result<Option<ExitStatus>> {
+        match self {
+            Self::Std(c) => c.try_wait(),
+            #[cfg(target_os = "linux")]
+            Self::Started(c) => c.try_wait(),
+        }
+    }
+
+    fn kill(&mut self) -> io::Result<()> {
+        match self {
+            Self::Std(c) => c.kill(),
+            #[cfg(target_os = "linux")]
+            Self::Started(c) => c.kill(),
+        }
+    }
+
+    fn wait(&mut self) -> io::Result<ExitStatus> {
+        match self {
+            Self::Std(c) => c.wait(),
+            #[cfg(target_os = "linux")]
+            Self::Started(c) => c.wait(),
+        }
+    }
+}
+
 /// Starts `command`, trying again for a short while when the program file
 /// is still open for writing somewhere ("text file busy"): a program just
 /// installed or copied, or one whose writer's descriptor a child forked
 /// at that moment still holds until it starts its own program.
-fn spawn_when_not_busy(command: &mut Command) -> io::Result<Child> {
+fn spawn_when_not_busy<T>(mut spawn: impl FnMut() -> io::Result<T>) -> io::Result<T> {
     let mut pause = Duration::from_millis(2);
     let mut waited = Duration::ZERO;
     loop {
-        match command.spawn() {
+        match spawn() {
             Err(e) if is_busy(&e) && waited < BUSY_PATIENCE => {
                 std::thread::sleep(pause);
                 waited += pause;
@@ -146,14 +228,10 @@ impl Running {
             .stdout(Stdio::piped())
             .stderr(Stdio::piped());
         own_group(&mut command, dies_with_parent);
-        let mut child = spawn_when_not_busy(&mut command)?;
+        let (child, [out, err]) =
+            spawn_when_not_busy(|| Process::spawn(&mut command, dies_with_parent))?;
         let (closing, closed) = mpsc::channel();
-        let (stdout, stderr) = read_both(
-            child.stdout.take(),
-            child.stderr.take(),
-            [stdout_cap, stderr_cap],
-            closing,
-        );
+        let (stdout, stderr) = read_both(out, err, [stdout_cap, stderr_cap], closing);
         Ok(Self {
             child,
             reaped: false,
@@ -217,7 +295,7 @@ impl Running {
         if self.reaped {
             return;
         }
-        kill_group(&self.child);
+        kill_group(self.child.id());
         let _ = self.child.kill();
         let _ = self.child.wait();
         self.reaped = true;
@@ -243,15 +321,15 @@ fn collect(rx: &Receiver<Captured>) -> Captured {
 /// captures come back empty.
 #[cfg(unix)]
 fn read_both(
-    stdout: Option<std::process::ChildStdout>,
-    stderr: Option<std::process::ChildStderr>,
+    stdout: Option<Pipe>,
+    stderr: Option<Pipe>,
     caps: [usize; 2],
     closed: mpsc::Sender<()>,
 ) -> (Receiver<Captured>, Receiver<Captured>) {
-    use std::os::fd::{AsRawFd, OwnedFd};
+    use std::os::fd::AsRawFd;
     let (out_tx, out_rx) = mpsc::channel();
     let (err_tx, err_rx) = mpsc::channel();
-    let sources: [Option<OwnedFd>; 2] = [stdout.map(OwnedFd::from), stderr.map(OwnedFd::from)];
+    let sources: [Option<Pipe>; 2] = [stdout, stderr];
     let mut streams = Vec::new();
     for ((source, cap), tx) in sources.into_iter().zip(caps).zip([out_tx, err_tx]) {
         match source {
@@ -317,8 +395,8 @@ fn read_both(
 
 #[cfg(not(unix))]
 fn read_both(
-    stdout: Option<std::process::ChildStdout>,
-    stderr: Option<std::process::ChildStderr>,
+    stdout: Option<Pipe>,
+    stderr: Option<Pipe>,
     caps: [usize; 2],
     closed: mpsc::Sender<()>,
 ) -> (Receiver<Captured>, Receiver<Captured>) {
@@ -398,8 +476,8 @@ fn own_group(command: &mut Command, dies_with_parent: bool) {
 fn own_group(_: &mut Command, _: bool) {}
 
 #[cfg(unix)]
-fn kill_group(child: &Child) {
-    if let Ok(pid) = libc::pid_t::try_from(child.id()) {
+fn kill_group(id: u32) {
+    if let Ok(pid) = libc::pid_t::try_from(id) {
         // SAFETY: kill has no memory effects; the group is the child's own,
         // and the child is not reaped yet, so its id is not reused.
         unsafe {
@@ -409,7 +487,7 @@ fn kill_group(child: &Child) {
 }
 
 #[cfg(not(unix))]
-fn kill_group(_: &Child) {}
+fn kill_group(_: u32) {}
 
 /// The words for how a program ended, in English: "exited with status 1",
 /// "was killed by signal 11 (SIGSEGV)".
