@@ -1046,6 +1046,12 @@ fn undrawable_text(file: &str, text: &str, catalogue: &Catalogue) -> Vec<String>
         }
     }
     let mut out = Vec::new();
+    // A value's characters are the text's own, but for a `\u{…}` escape:
+    // when the text has none and every character of it can be drawn, so
+    // can every value, and the job need not be parsed a second time.
+    if !text.contains("\\u") && typeset::draws_every_char(text) {
+        return out;
+    }
     if let Ok(doc) = crate::kdl_fast::parse_document(text) {
         walk(&doc, file, text, catalogue, &mut out);
     }
@@ -1170,6 +1176,21 @@ mod tests {
         assert!(warnings[0].starts_with("warning: j.kdl:3:13: the text of `reason` of `part`"));
         assert!(warnings[0].contains("U+1F525"));
         assert!(warnings[1].contains("j.kdl:6:10: the text of `note`"));
+    }
+
+    #[test]
+    fn a_character_written_as_an_escape_is_named_too() {
+        // Every character of the text itself can be drawn; the escape's
+        // cannot.
+        let text = "job id=\"J1\"\nnotes {\n    note \"hot \\u{1F525}\"\n}\n";
+        assert!(typeset::draws_every_char(text));
+        let warnings = undrawable_text("j.kdl", text, Catalogue::english());
+        assert_eq!(warnings.len(), 1, "{warnings:?}");
+        assert!(warnings[0].contains("j.kdl:3:10: the text of `note`"));
+        assert!(warnings[0].contains("U+1F525"));
+        // Without anything to name, nothing is said.
+        let plain = "job id=\"J1\"\nnotes {\n    note \"caf\u{e9} \\u{e9}\"\n}\n";
+        assert!(undrawable_text("j.kdl", plain, Catalogue::english()).is_empty());
     }
 
     #[test]

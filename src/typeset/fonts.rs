@@ -228,6 +228,16 @@ pub fn undrawable(text: &str) -> Vec<char> {
     out
 }
 
+/// Whether every character written in `text` can be drawn ([`can_draw`]),
+/// read over bytes: ASCII (every character of which is drawn: a glyph, or
+/// white space and control characters, which need none) eight bytes at a
+/// time, and only the characters beyond it decoded. A job file is almost
+/// all ASCII, so this settles in one pass that none of its values needs a
+/// warning, where reading its values one by one means parsing it.
+pub fn draws_every_char(text: &str) -> bool {
+    !any_beyond_ascii(text, |c| !can_draw(c))
+}
+
 /// Typst set rules that select the bundled fonts, for the top of every
 /// generated document. typst is run without its own built-in fonts, so a
 /// document must name these families. `mono-fonts` names the monospaced
@@ -347,18 +357,30 @@ pub fn needs_cjk(sandbox: &Sandbox) -> bool {
         .any(|(path, bytes)| file_needs_cjk(path, bytes))
 }
 
-fn file_needs_cjk(path: &str, bytes: &[u8]) -> bool {
-    let extension = path
-        .rsplit_once('.')
+/// The lower-case extension of a sandbox path ("" for none).
+fn extension(path: &str) -> String {
+    path.rsplit_once('.')
         .map(|(_, e)| e.to_ascii_lowercase())
-        .unwrap_or_default();
-    if matches!(extension.as_str(), "png" | "jpg" | "jpeg" | "gif" | "webp") {
+        .unwrap_or_default()
+}
+
+/// Whether [`needs_cjk`] takes the file at `path` for a raster image,
+/// which it does not read.
+fn is_raster_image(path: &str) -> bool {
+    matches!(
+        extension(path).as_str(),
+        "png" | "jpg" | "jpeg" | "gif" | "webp"
+    )
+}
+
+fn file_needs_cjk(path: &str, bytes: &[u8]) -> bool {
+    if is_raster_image(path) {
         return false;
     }
     let Ok(text) = std::str::from_utf8(bytes) else {
         return true;
     };
-    match extension.as_str() {
+    match extension(path).as_str() {
         "typ" => typst_needs_cjk(text),
         "svg" => svg_needs_cjk(text),
         _ => any_beyond_ascii(text, body_takes_cjk),
@@ -449,13 +471,14 @@ fn names_only_noto_sans(text: &str) -> bool {
             return false;
         };
         value.split(',').all(|family| {
-            family
-                .trim()
-                .trim_matches(['"', '\''])
-                .replace("&quot;", "")
-                .replace("&apos;", "")
-                .trim()
-                == TEXT_FAMILIES[0]
+            let family = family.trim().trim_matches(['"', '\'']);
+            // Without an `&` there is no entity to take out, and no copy
+            // to make (a chart names its family at every text).
+            if family.contains('&') {
+                family.replace("&quot;", "").replace("&apos;", "").trim() == TEXT_FAMILIES[0]
+            } else {
+                family.trim() == TEXT_FAMILIES[0]
+            }
         })
     })
 }
@@ -478,11 +501,16 @@ pub fn fit_fonts(sandbox: &mut Sandbox, main: &str) -> Result<bool, TypesetError
         return Ok(true);
     }
     let full = font_rules();
-    if let Some(source) = sandbox.get(main).and_then(|b| std::str::from_utf8(b).ok())
-        && has(source, &full)
+    // Changed in place: the main source of a long job is megabytes, which
+    // a new string would copy (growing as it goes). Only a UTF-8 source
+    // is changed; `needs_cjk` found every file UTF-8 but a raster image's,
+    // so only a main source named as one is read again.
+    if let Some(source) = sandbox.get_mut(main)
+        && (!is_raster_image(main) || std::str::from_utf8(source).is_ok())
+        && let Some(at) = memchr::memmem::find(source, full.as_bytes())
     {
-        let lean = source.replacen(&full, &font_rules_without_cjk(), 1);
-        sandbox.insert(main, lean)?;
+        let lean = font_rules_without_cjk();
+        source.splice(at..at + full.len(), lean.bytes());
     }
     Ok(false)
 }
@@ -564,6 +592,66 @@ mod tests {
         assert!(
             (0..0x80u8).all(|b| !body_takes_cjk(b as char) && !in_table(CJK_IN_SVG, b as char))
         );
+    }
+
+    /// `draws_every_char` says what testing every character with
+    /// `can_draw` says: all of ASCII, characters the fonts have and lack
+    /// (of two to four bytes) at every place of texts around the
+    /// eight-byte steps, and random texts of such characters.
+    #[test]
+    fn draws_every_char_is_can_draw_of_every_char() {
+        assert!((0..0x80u8).all(|b| can_draw(b as char)));
+        let all_ascii: String = (0..0x80u8).map(char::from).collect();
+        assert!(draws_every_char(&all_ascii));
+        let marks = [
+            '\u{e9}',
+            '\u{3b1}',
+            '\u{4e2d}',
+            '\u{e01}',
+            '\u{1f525}',
+            '\u{fe0f}',
+            '\u{ad}',
+            '\u{200b}',
+            '\u{2028}',
+            '\u{10ffff}',
+        ];
+        assert!(marks.iter().any(|&c| can_draw(c)) && marks.iter().any(|&c| !can_draw(c)));
+        for len in 0..20 {
+            for at in 0..=len {
+                for mark in marks {
+                    let mut text: String =
+                        (0..len).map(|i| (b' ' + (i % 90) as u8) as char).collect();
+                    text.insert(at, mark);
+                    assert_eq!(
+                        draws_every_char(&text),
+                        text.chars().all(can_draw),
+                        "{text:?}"
+                    );
+                }
+            }
+        }
+        let mut seed = 0x2545_f491_4f6c_dd1du64;
+        let mut next = move || {
+            seed ^= seed << 13;
+            seed ^= seed >> 7;
+            seed ^= seed << 17;
+            seed
+        };
+        for _ in 0..20_000 {
+            let len = (next() % 40) as usize;
+            let text: String = (0..len)
+                .map(|_| match next() % 8 {
+                    0 => marks[(next() % marks.len() as u64) as usize],
+                    1 => char::from_u32((next() % 0x3_0000) as u32).unwrap_or('x'),
+                    _ => char::from((next() % 0x80) as u8),
+                })
+                .collect();
+            assert_eq!(
+                draws_every_char(&text),
+                text.chars().all(can_draw),
+                "{text:?}"
+            );
+        }
     }
 
     #[test]
@@ -856,6 +944,26 @@ mod tests {
             sandbox.insert(path, bytes).unwrap();
             assert!(needs_cjk(&sandbox), "{path}: {text}");
         }
+        // Noto Sans named in every way an SVG may name it, entities
+        // included, is Noto Sans; another family beside it is not.
+        for (family, needs) in [
+            ("font-family=\"Noto Sans\"", false),
+            ("font-family='Noto Sans'", false),
+            ("font-family=\"&quot;Noto Sans&quot;\"", false),
+            ("font-family=\" &apos;Noto Sans&apos; , Noto Sans\"", false),
+            ("style=\"font-family: Noto Sans; fill: red\"", false),
+            // A style's value ends at the first `;`, an entity's too.
+            ("style=\"font-family:&quot;Noto Sans&quot;\"", true),
+            ("font-family=\"Noto Sans, Serif Co\"", true),
+            ("font-family=\"&quot;Noto&quot; Sans\"", false),
+            ("font-family=\"Noto Sans&amp;\"", true),
+            ("font-family=\"\"", true),
+        ] {
+            let mut sandbox = plain.clone();
+            let svg = format!("<svg><text {family}>Shop</text></svg>");
+            sandbox.insert("shop/logo.svg", svg.as_str()).unwrap();
+            assert_eq!(needs_cjk(&sandbox), needs, "{svg}");
+        }
         // An SVG without text, or with the minus sign (Noto Sans
         // Devanagari has it), does not.
         let mut sandbox = plain.clone();
@@ -875,6 +983,24 @@ mod tests {
         assert!(!fit_fonts(&mut sandbox, "main.typ").unwrap());
         let lean = String::from_utf8(sandbox.get("main.typ").unwrap().to_vec()).unwrap();
         assert_eq!(lean, format!("{}Output −3 dB.\n", font_rules_without_cjk()));
+        // A main source that is not UTF-8 is left as it is, also when it
+        // is named as an image (which the check does not read).
+        let mut bytes = font_rules().into_bytes();
+        bytes.push(0xFF);
+        let mut sandbox = Sandbox::new();
+        sandbox.insert("main.png", bytes.clone()).unwrap();
+        assert!(!fit_fonts(&mut sandbox, "main.png").unwrap());
+        assert_eq!(sandbox.get("main.png").unwrap(), bytes);
+        // Text before and after is kept, and only the first rules change,
+        // as `replacen(…, 1)` would change them.
+        let main = format!("Über\n{0}Mitte −3 dB.\n{0}Ende", font_rules());
+        let mut sandbox = sandbox_with(&[("main.typ", &main)]);
+        assert!(!fit_fonts(&mut sandbox, "main.typ").unwrap());
+        assert_eq!(
+            sandbox.get("main.typ").unwrap(),
+            main.replacen(&font_rules(), &font_rules_without_cjk(), 1)
+                .as_bytes()
+        );
         for family in CJK_FAMILIES {
             assert!(!lean.contains(family), "{lean}");
         }

@@ -42,8 +42,8 @@ pub use font_cache::{
 };
 pub use fonts::{
     BUNDLED_FONTS, CJK_FAMILIES, CJK_FONT, FONT_DIR, FONT_LICENCES, MONO_FAMILIES, TEXT_FAMILIES,
-    can_draw, cjk_folder, drawable, fit_fonts, font_rules, font_rules_without_cjk, needs_cjk,
-    placeholder, undrawable,
+    can_draw, cjk_folder, drawable, draws_every_char, fit_fonts, font_rules,
+    font_rules_without_cjk, needs_cjk, placeholder, undrawable,
 };
 pub use inside::{InsideError, read_inside, read_regular};
 pub use locate::{

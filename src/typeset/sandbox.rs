@@ -47,6 +47,12 @@ impl Sandbox {
         self.files.get(path).map(Vec::as_slice)
     }
 
+    /// The contents stored at `path`, to change in place (the path was
+    /// checked when the file was inserted).
+    pub(crate) fn get_mut(&mut self, path: &str) -> Option<&mut Vec<u8>> {
+        self.files.get_mut(path)
+    }
+
     /// All files in path order.
     pub fn files(&self) -> impl Iterator<Item = (&str, &[u8])> {
         self.files.iter().map(|(p, b)| (p.as_str(), b.as_slice()))
@@ -63,10 +69,17 @@ impl Sandbox {
     /// Writes every file under `dir`, a fresh folder, without the fonts.
     /// Files are created new (never opened through an existing name).
     pub(crate) fn write_files(&self, dir: &Path) -> io::Result<()> {
+        // The folder made for the file before: the files are in path order,
+        // so the charts of a long document (hundreds in `plots/`) share it,
+        // and it is made once rather than looked up again for each.
+        let mut made: Option<PathBuf> = None;
         for (path, contents) in &self.files {
             let target = native_path(dir, path);
-            if let Some(parent) = target.parent() {
+            if let Some(parent) = target.parent()
+                && made.as_deref() != Some(parent)
+            {
                 std::fs::create_dir_all(parent)?;
+                made = Some(parent.to_path_buf());
             }
             std::fs::OpenOptions::new()
                 .write(true)
