@@ -247,6 +247,59 @@ mod tests {
     }
 
     #[test]
+    fn words_said_once_are_the_words_said_each_time() {
+        let once = SaidOnce::default();
+        let mut made = 0;
+        let mut say = |what: &'static str, figures: [f64; 3]| {
+            once.words(what, figures, || {
+                made += 1;
+                format!("{what} {figures:?}")
+            })
+        };
+        assert_eq!(say("a", [1.0, 2.0, 3.0]), "a [1.0, 2.0, 3.0]");
+        assert_eq!(say("a", [1.0, 2.0, 3.0]), "a [1.0, 2.0, 3.0]");
+        // Another figure, another name, or −0 against 0: other words.
+        assert_eq!(say("a", [1.0, 2.0, 4.0]), "a [1.0, 2.0, 4.0]");
+        assert_eq!(say("b", [1.0, 2.0, 3.0]), "b [1.0, 2.0, 3.0]");
+        assert_eq!(say("a", [-0.0, 0.0, 0.0]), "a [-0.0, 0.0, 0.0]");
+        assert_eq!(say("a", [0.0, 0.0, 0.0]), "a [0.0, 0.0, 0.0]");
+        assert_eq!(say("a", [1.0, 2.0, 3.0]), "a [1.0, 2.0, 3.0]");
+        assert_eq!(made, 5);
+        // Words that need words said once inside them.
+        let nested = once.words("outer", [0.0; 3], || {
+            format!("<{}>", once.words("inner", [0.0; 3], || "in".into()))
+        });
+        assert_eq!(nested, "<in>");
+        assert_eq!(once.words("inner", [0.0; 3], || "other".into()), "in");
+    }
+
+    #[test]
+    fn the_threshold_made_apart_is_the_one_under_rating_makes() {
+        for cat in [Catalogue::english(), &Catalogue::built_in("de").unwrap()] {
+            for (pct, caution, rating) in [
+                (49.0, 0.5, "1 W"),
+                (75.0, 0.6, "5 W"),
+                (130.0, 1.0, "250 mW"),
+            ] {
+                let v = under_rating(pct, caution, "x", rating, cat);
+                assert_eq!(v.threshold, under_rating_threshold(caution, rating, cat));
+                // The threshold's message is given every argument of the
+                // reason's before; it uses only these two.
+                let all = cat.format(
+                    "threshold-under-rating",
+                    &[
+                        ("what", Arg::from("x")),
+                        ("pct", Arg::from(fixed(pct, 0))),
+                        ("rating", Arg::from(rating)),
+                        ("caution", Arg::from(fixed(caution * 100.0, 0))),
+                    ],
+                );
+                assert_eq!(v.threshold, all);
+            }
+        }
+    }
+
+    #[test]
     fn bands_under_a_rating() {
         let en = Catalogue::english();
         // Common practice: 50 % derating for resistors; over above 100 %.

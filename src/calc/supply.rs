@@ -733,7 +733,14 @@ mod tests {
             "node A \"360V\"\nnode B \"361V\"\nnode C \"390V\"\nnode D \"100V\"",
         );
         let set = &j.measurements[0];
-        let f = nodes(&j, set, &j.circuit_for(set), &j.settings, en());
+        let f = nodes(
+            &j,
+            set,
+            &j.circuit_for(set),
+            &j.settings,
+            en(),
+            &SaidOnce::default(),
+        );
         // Chart referred to nominal, common practice: 300 V × 120/110 = 327.273 V.
         assert!((f[0].expected_volts.unwrap() - 327.2727).abs() < 1e-3);
         // 360/327.273 − 1 = +10.0 %: inside the common-practice ±10 %; 361 V is +10.3 %: outside.
@@ -759,7 +766,15 @@ mod tests {
         );
         let set = &j.measurements[0];
         let mut notes = Vec::new();
-        let f = droppers(&j, set, &j.circuit_for(set), &j.settings, &mut notes, en());
+        let f = droppers(
+            &j,
+            set,
+            &j.circuit_for(set),
+            &j.settings,
+            &mut notes,
+            en(),
+            &SaidOnce::default(),
+        );
         assert!(notes.is_empty(), "{notes:?}");
         assert!((f[0].power_w - 0.49).abs() < 1e-12); // Joule's law (textbook): 70² / 10 kΩ = 0.49 W
         assert!((f[1].power_w - 0.5184).abs() < 1e-12); // 72² / 10 kΩ = 0.5184 W
@@ -788,7 +803,18 @@ mod tests {
         );
         let set = &j.measurements[0];
         let mut notes = Vec::new();
-        assert!(droppers(&j, set, &j.circuit_for(set), &j.settings, &mut notes, en()).is_empty());
+        assert!(
+            droppers(
+                &j,
+                set,
+                &j.circuit_for(set),
+                &j.settings,
+                &mut notes,
+                en(),
+                &SaidOnce::default()
+            )
+            .is_empty()
+        );
         assert_eq!(notes.len(), 1);
         assert_eq!(notes[0].reference, "R1");
         assert_eq!(notes[0].reason, "B not measured");
@@ -802,7 +828,14 @@ mod tests {
             "valve V1 plate=\"300V\" cathode=\"11.6V\"",
         );
         let set = &j.measurements[0];
-        let f = cathode_resistors(&j, set, &j.circuit_for(set), &j.settings, en());
+        let f = cathode_resistors(
+            &j,
+            set,
+            &j.circuit_for(set),
+            &j.settings,
+            en(),
+            &SaidOnce::default(),
+        );
         // Joule's law P = Vk²/Rk (textbook): 11.6² / 130 Ω = 1.0351 W, 51.8 % of 2 W: above the 50 % derating (common practice).
         assert!((f[0].power_w - 1.035077).abs() < 1e-6);
         assert_eq!(f[0].verdict.status, Status::Caution);
@@ -835,6 +868,7 @@ mod tests {
             &RatingsTable::builtin(),
             &mut Vec::new(),
             en(),
+            &SaidOnce::default(),
         );
         (statuses(&f, |c| c.verdict.status), f)
     }
@@ -875,6 +909,7 @@ mod tests {
             &RatingsTable::builtin(),
             &mut Vec::new(),
             en(),
+            &SaidOnce::default(),
         );
         assert!((f[0].highest_volts - 451.5).abs() < 1e-9);
         assert_eq!(f[0].verdict.status, Status::Over);
@@ -936,6 +971,7 @@ mod tests {
             &RatingsTable::builtin(),
             &mut not_checked,
             en(),
+            &SaidOnce::default(),
         );
         assert!(f.is_empty());
         assert_eq!(not_checked.len(), 1);

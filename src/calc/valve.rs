@@ -845,6 +845,83 @@ mod tests {
 
     const PAIR_6L6: &str = "valve V3 type=\"6L6GC\" role=output";
 
+    /// The thresholds and ratings said once for a run of sets are those
+    /// each set would say alone: two types with their own ratings, sets
+    /// enough to be worked out on every core, in both built-in languages.
+    #[test]
+    fn words_said_once_are_each_sets_own() {
+        let mut text = String::from(
+            "job-format 1\njob id=\"T\"\nunit make=\"M\" model=\"N\"\n\
+             mains nominal=\"230V\" tolerance=\"10%\"\nvalves {\n\
+             valve V3 type=EL34 role=output\nvalve V4 type=\"6L6GC\" role=output\n\
+             valve V5 type=EL84 role=output\n}\n\
+             circuit {\nbias fixed\nscreen-resistor R1 value=\"1k\" rating=\"5W\" valve=V3 supply=B+1\n\
+             screen-resistor R2 value=\"470\" rating=\"1W\" valve=V4 supply=B+1\n\
+             node B+1 chart=\"450V\" tolerance=\"10%\"\n\
+             filter-capacitor C1 value=\"50u\" rating=\"500V\" node=B+1\n}\n",
+        );
+        for i in 0..40 {
+            let d = i as f64 * 3.0;
+            text.push_str(&format!(
+                "measurements \"s{i}\" mains=\"{}V\" {{\nnode B+1 \"{}V\" tolerance=\"{}%\"\n\
+                 valve V3 plate=\"{}V\" screen=\"{}V\" current=\"{}mA\" method=shunt\n\
+                 valve V4 plate=\"{}V\" screen=\"{}V\" current=\"{}mA\" method=probe\n\
+                 valve V5 plate=\"{}V\" screen=\"{}V\" current=\"{}mA\" method=shunt\n}}\n",
+                220 + i % 20,
+                440.0 + d,
+                5 + i % 3,
+                430.0 + d,
+                420.0 + d,
+                30.0 + d,
+                430.0 + d,
+                425.0 + d,
+                40.0 + d / 2.0,
+                300.0 + d,
+                290.0 + d,
+                20.0 + d / 3.0,
+            ));
+        }
+        let ratings = crate::ratings::RatingsTable::builtin();
+        let job = crate::job::decode_with_ratings("t.kdl", &text, &ratings)
+            .unwrap_or_else(|d| panic!("{:?}", d.problems))
+            .job;
+        for cat in [Catalogue::english(), &Catalogue::built_in("de").unwrap()] {
+            let whole = crate::calc::derive_in(&job, &ratings, cat);
+            assert_eq!(whole.sets.len(), 40);
+            let mut thresholds = std::collections::BTreeSet::new();
+            for (i, set) in whole.sets.iter().enumerate() {
+                // The same set alone in a job: its words said afresh.
+                let mut alone_job = job.clone();
+                alone_job.measurements = vec![job.measurements[i].clone()];
+                let alone = crate::calc::derive_in(&alone_job, &ratings, cat);
+                let a = &alone.sets[0];
+                for (v, w) in set.valves.iter().zip(&a.valves) {
+                    assert_eq!(v.checks.len(), w.checks.len());
+                    for (c, d) in v.checks.iter().zip(&w.checks) {
+                        assert_eq!(c.verdict, d.verdict, "{} {}", v.position, c.check);
+                        thresholds.insert(c.verdict.threshold.clone());
+                    }
+                }
+                assert_eq!(set.valves.len(), 3);
+                for (n, m) in set.nodes.iter().zip(&a.nodes) {
+                    assert_eq!(n.verdict, m.verdict);
+                    thresholds.insert(n.verdict.threshold.clone());
+                }
+                for (r, s) in set.screen_resistors.iter().zip(&a.screen_resistors) {
+                    assert_eq!(r.verdict, s.verdict);
+                    thresholds.insert(r.verdict.threshold.clone());
+                }
+                assert_eq!(set.screen_resistors.len(), 2);
+                for (c, d) in set.filter_capacitors.iter().zip(&a.filter_capacitors) {
+                    assert_eq!(c.verdict, d.verdict);
+                }
+                assert_eq!(set.filter_capacitors.len(), 1);
+            }
+            // Each type's and each tolerance's own words, not the first ones said.
+            assert!(thresholds.len() >= 14, "{thresholds:#?}");
+        }
+    }
+
     #[test]
     fn bias_probe_reads_cathode_current() {
         let (v, _) = derive_one(
