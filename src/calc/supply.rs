@@ -352,6 +352,7 @@ pub(crate) fn screen_resistors(
     out
 }
 
+#[allow(clippy::too_many_arguments)]
 pub(crate) fn capacitors(
     job: &Job,
     set: &MeasurementSet,
