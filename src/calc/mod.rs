@@ -64,7 +64,11 @@ pub fn derive_in(job: &Job, ratings: &RatingsTable, cat: &Catalogue) -> Findings
     // gathered and joined after), so a long job's sets are worked out on
     // every core; the results are put together in the job's order, the
     // same as one after the other.
-    let per_set = |(index, set): (usize, &crate::job::MeasurementSet)| {
+    // `once` keeps the words that are the same in every set (thresholds,
+    // ratings in words) for the sets one thread works out.
+    let per_set = |once: &mut status::SaidOnce,
+                   (index, set): (usize, &crate::job::MeasurementSet)| {
+        let once = &*once;
         let mut matched = vec![false; job.acceptances.len()];
         let is_final = Some(index) == final_index;
         let circuit = job.circuit_for(set);
@@ -75,6 +79,7 @@ pub fn derive_in(job: &Job, ratings: &RatingsTable, cat: &Catalogue) -> Findings
             circuit: &circuit,
             settings,
             cat,
+            once,
         };
         let mut valves = Vec::new();
         for reading in &set.valves {
@@ -94,13 +99,21 @@ pub fn derive_in(job: &Job, ratings: &RatingsTable, cat: &Catalogue) -> Findings
             valves.push(valve::analyse(&ctx, &spec, reading, rating, &mut notes));
         }
         let warm_up = warm_up(&ctx, job, set, ratings);
-        let nodes = supply::nodes(job, set, &circuit, settings, cat);
+        let nodes = supply::nodes(job, set, &circuit, settings, cat, once);
         let mut not_checked = Vec::new();
-        let droppers = supply::droppers(job, set, &circuit, settings, &mut not_checked, cat);
-        let cathode_resistors = supply::cathode_resistors(job, set, &circuit, settings, cat);
-        let screen_resistors = supply::screen_resistors(job, set, &circuit, settings, cat);
-        let filter_capacitors =
-            supply::capacitors(job, set, &circuit, settings, ratings, &mut not_checked, cat);
+        let droppers = supply::droppers(job, set, &circuit, settings, &mut not_checked, cat, once);
+        let cathode_resistors = supply::cathode_resistors(job, set, &circuit, settings, cat, once);
+        let screen_resistors = supply::screen_resistors(job, set, &circuit, settings, cat, once);
+        let filter_capacitors = supply::capacitors(
+            job,
+            set,
+            &circuit,
+            settings,
+            ratings,
+            &mut not_checked,
+            cat,
+            once,
+        );
         for n in &not_checked {
             notes.push(cat.format(
                 "note-not-checked",
@@ -161,10 +174,15 @@ pub fn derive_in(job: &Job, ratings: &RatingsTable, cat: &Catalogue) -> Findings
         job.measurements
             .par_iter()
             .enumerate()
-            .map(per_set)
+            .map_init(status::SaidOnce::default, per_set)
             .collect()
     } else {
-        job.measurements.iter().enumerate().map(per_set).collect()
+        let mut once = status::SaidOnce::default();
+        job.measurements
+            .iter()
+            .enumerate()
+            .map(|item| per_set(&mut once, item))
+            .collect()
     };
     let mut matched = vec![false; job.acceptances.len()];
     for (found, set_warnings, set_matched) in worked {

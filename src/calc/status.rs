@@ -4,7 +4,9 @@
 
 use crate::catalogue::{Arg, Catalogue};
 use crate::units::fixed;
+use rustc_hash::FxHashMap;
 use serde::Serialize;
+use std::cell::RefCell;
 use std::fmt;
 
 /// How a figure stands against its limit.
@@ -131,10 +133,78 @@ pub fn worst_of<'a>(verdicts: impl IntoIterator<Item = &'a Verdict>) -> Option<&
     best
 }
 
+/// Words that are the same in every set of a job: a threshold depends
+/// only on the job's settings and a rating ("caution above 50 % of 5 W,
+/// over above 100 %"), and a long job said each of them again in every
+/// set, some forty a set. Each is worked out the first time it is asked
+/// for and copied after that, so the words are those it would say each
+/// time.
+///
+/// One lives for a run of sets on one thread (it is not shared between
+/// threads), with one catalogue: its words are that catalogue's.
+#[derive(Default)]
+pub(crate) struct SaidOnce {
+    /// By what is said (a message key or a name of the words) and every
+    /// figure the words are made from, as bits.
+    said: RefCell<FxHashMap<(&'static str, [u64; 3]), String>>,
+}
+
+impl SaidOnce {
+    /// The words `say` makes, which must depend on nothing but `what`,
+    /// `figures`, the job's settings and the catalogue.
+    pub(crate) fn words(
+        &self,
+        what: &'static str,
+        figures: [f64; 3],
+        say: impl FnOnce() -> String,
+    ) -> String {
+        let key = (what, figures.map(f64::to_bits));
+        if let Some(words) = self.said.borrow().get(&key) {
+            return words.clone();
+        }
+        let words = say();
+        self.said.borrow_mut().insert(key, words.clone());
+        words
+    }
+
+    /// A message without arguments.
+    pub(crate) fn text(&self, key: &'static str, cat: &Catalogue) -> String {
+        self.words(key, [0.0; 3], || cat.text(key))
+    }
+}
+
+/// The threshold of [`under_rating`]: "caution above 50 % of 5 W, over
+/// above 100 %" (its message is given `caution` and `rating` only; a
+/// translation may use no other argument).
+pub fn under_rating_threshold(caution: f64, rating: &str, cat: &Catalogue) -> String {
+    cat.format(
+        "threshold-under-rating",
+        &[
+            ("rating", Arg::from(rating)),
+            ("caution", Arg::from(fixed(caution * 100.0, 0))),
+        ],
+    )
+}
+
 /// Bands for a figure that must stay under a rating: caution above
 /// `caution` (a fraction of the rating), over above 100 %. `what` names the
 /// figure with its value ("dissipation 0.62 W"); the words are `cat`'s.
+/// (The program makes the threshold once a job: [`under_rating_judged`].)
+#[cfg(test)]
 pub fn under_rating(pct: f64, caution: f64, what: &str, rating: &str, cat: &Catalogue) -> Verdict {
+    let threshold = under_rating_threshold(caution, rating, cat);
+    under_rating_judged(pct, caution, what, rating, threshold, cat)
+}
+
+/// [`under_rating`] with its threshold in words already made.
+pub(crate) fn under_rating_judged(
+    pct: f64,
+    caution: f64,
+    what: &str,
+    rating: &str,
+    threshold: String,
+    cat: &Catalogue,
+) -> Verdict {
     let caution_words = fixed(caution * 100.0, 0);
     let args = [
         ("what", Arg::from(what)),
@@ -142,7 +212,6 @@ pub fn under_rating(pct: f64, caution: f64, what: &str, rating: &str, cat: &Cata
         ("rating", Arg::from(rating)),
         ("caution", Arg::from(&caution_words)),
     ];
-    let threshold = cat.format("threshold-under-rating", &args);
     if pct > 100.0 {
         Verdict::new(
             Status::Over,
@@ -175,6 +244,59 @@ mod tests {
             Verdict::new(Status::Caution, "c", ""),
         ];
         assert_eq!(worst_of(&v).map(|v| v.reason.as_str()), Some("b"));
+    }
+
+    #[test]
+    fn words_said_once_are_the_words_said_each_time() {
+        let once = SaidOnce::default();
+        let mut made = 0;
+        let mut say = |what: &'static str, figures: [f64; 3]| {
+            once.words(what, figures, || {
+                made += 1;
+                format!("{what} {figures:?}")
+            })
+        };
+        assert_eq!(say("a", [1.0, 2.0, 3.0]), "a [1.0, 2.0, 3.0]");
+        assert_eq!(say("a", [1.0, 2.0, 3.0]), "a [1.0, 2.0, 3.0]");
+        // Another figure, another name, or −0 against 0: other words.
+        assert_eq!(say("a", [1.0, 2.0, 4.0]), "a [1.0, 2.0, 4.0]");
+        assert_eq!(say("b", [1.0, 2.0, 3.0]), "b [1.0, 2.0, 3.0]");
+        assert_eq!(say("a", [-0.0, 0.0, 0.0]), "a [-0.0, 0.0, 0.0]");
+        assert_eq!(say("a", [0.0, 0.0, 0.0]), "a [0.0, 0.0, 0.0]");
+        assert_eq!(say("a", [1.0, 2.0, 3.0]), "a [1.0, 2.0, 3.0]");
+        assert_eq!(made, 5);
+        // Words that need words said once inside them.
+        let nested = once.words("outer", [0.0; 3], || {
+            format!("<{}>", once.words("inner", [0.0; 3], || "in".into()))
+        });
+        assert_eq!(nested, "<in>");
+        assert_eq!(once.words("inner", [0.0; 3], || "other".into()), "in");
+    }
+
+    #[test]
+    fn the_threshold_made_apart_is_the_one_under_rating_makes() {
+        for cat in [Catalogue::english(), &Catalogue::built_in("de").unwrap()] {
+            for (pct, caution, rating) in [
+                (49.0, 0.5, "1 W"),
+                (75.0, 0.6, "5 W"),
+                (130.0, 1.0, "250 mW"),
+            ] {
+                let v = under_rating(pct, caution, "x", rating, cat);
+                assert_eq!(v.threshold, under_rating_threshold(caution, rating, cat));
+                // The threshold's message is given every argument of the
+                // reason's before; it uses only these two.
+                let all = cat.format(
+                    "threshold-under-rating",
+                    &[
+                        ("what", Arg::from("x")),
+                        ("pct", Arg::from(fixed(pct, 0))),
+                        ("rating", Arg::from(rating)),
+                        ("caution", Arg::from(fixed(caution * 100.0, 0))),
+                    ],
+                );
+                assert_eq!(v.threshold, all);
+            }
+        }
     }
 
     #[test]

@@ -7,7 +7,7 @@ use super::findings::{
     ResistorFindings, ValveFindings,
 };
 use super::mains;
-use super::status::{Status, Verdict, under_rating};
+use super::status::{SaidOnce, Status, Verdict, under_rating_judged, under_rating_threshold};
 use crate::catalogue::{Arg, Catalogue};
 use crate::job::{Circuit, Job, MeasurementSet, RectifierKind, Settings};
 use crate::ratings::{RatingsTable, RectifierHeating};
@@ -52,6 +52,7 @@ pub(crate) fn nodes(
     circuit: &Circuit,
     settings: &Settings,
     cat: &Catalogue,
+    once: &SaidOnce,
 ) -> Vec<NodeFindings> {
     let nominal = job.mains.nominal.value;
     let design = job
@@ -78,13 +79,15 @@ pub(crate) fn nodes(
             let deviation = expected.map(|e| (corrected / e - 1.0) * 100.0);
             let tol_pct = tolerance * 100.0;
             let tol_words = fixed(tol_pct, 0);
-            let threshold = cat.format(
-                "threshold-node",
-                &[
-                    ("tolerance", Arg::from(&tol_words)),
-                    ("nominal", Arg::from(v(nominal.0))),
-                ],
-            );
+            let threshold = once.words("threshold-node", [tol_pct, nominal.0, 0.0], || {
+                cat.format(
+                    "threshold-node",
+                    &[
+                        ("tolerance", Arg::from(&tol_words)),
+                        ("nominal", Arg::from(v(nominal.0))),
+                    ],
+                )
+            });
             let off_chart = |d: f64, e: Volts| {
                 cat.format(
                     "reason-node",
@@ -147,6 +150,7 @@ fn resistor(
     set: &MeasurementSet,
     settings: &Settings,
     cat: &Catalogue,
+    once: &SaidOnce,
 ) -> ResistorFindings {
     let p = volts.power_in(r);
     let p_c = mains::corrected_power(p, set.mains.value, job.mains.nominal.value);
@@ -155,11 +159,19 @@ fn resistor(
     let pct_h = rating.map(|rt| p_h / rt * 100.0);
     let verdict = match (rating, pct, pct_h) {
         (Some(rt), Some(pct), Some(pct_h)) => {
-            let mut verdict = under_rating(
+            let caution = settings.resistor_derating;
+            let rating_words = once.words("watts", [rt.0, 0.0, 0.0], || {
+                format_engineering(rt.0, QuantityKind::Power)
+            });
+            let threshold = once.words("threshold-under-rating", [rt.0, caution, 0.0], || {
+                under_rating_threshold(caution, &rating_words, cat)
+            });
+            let mut verdict = under_rating_judged(
                 pct,
-                settings.resistor_derating,
+                caution,
                 &cat.format("reason-dissipation", &[("watts", Arg::from(w(p.0)))]),
-                &format_engineering(rt.0, QuantityKind::Power),
+                &rating_words,
+                threshold,
                 cat,
             );
             if verdict.status == Status::Ok && pct_h > settings.resistor_derating * 100.0 {
@@ -179,7 +191,7 @@ fn resistor(
         }
         _ => Verdict::ok(
             cat.format("reason-resistor-no-rating", &[("watts", Arg::from(w(p.0)))]),
-            cat.text("threshold-no-power-rating"),
+            once.text("threshold-no-power-rating", cat),
         ),
     };
     ResistorFindings {
@@ -204,6 +216,7 @@ pub(crate) fn droppers(
     settings: &Settings,
     not_checked: &mut Vec<NotChecked>,
     cat: &Catalogue,
+    once: &SaidOnce,
 ) -> Vec<ResistorFindings> {
     let read = |name: &str| {
         set.nodes
@@ -224,6 +237,7 @@ pub(crate) fn droppers(
                 set,
                 settings,
                 cat,
+                once,
             )),
             (a, b) => {
                 let missing: Vec<&str> = [(a, &d.from.value), (b, &d.to.value)]
@@ -255,6 +269,7 @@ pub(crate) fn cathode_resistors(
     circuit: &Circuit,
     settings: &Settings,
     cat: &Catalogue,
+    once: &SaidOnce,
 ) -> Vec<ResistorFindings> {
     let mut out = Vec::new();
     for rk in &circuit.cathode_resistors {
@@ -285,6 +300,7 @@ pub(crate) fn cathode_resistors(
             set,
             settings,
             cat,
+            once,
         ));
     }
     out
@@ -296,6 +312,7 @@ pub(crate) fn screen_resistors(
     circuit: &Circuit,
     settings: &Settings,
     cat: &Catalogue,
+    once: &SaidOnce,
 ) -> Vec<ResistorFindings> {
     let mut out = Vec::new();
     for sr in &circuit.screen_resistors {
@@ -329,11 +346,13 @@ pub(crate) fn screen_resistors(
             set,
             settings,
             cat,
+            once,
         ));
     }
     out
 }
 
+#[allow(clippy::too_many_arguments)]
 pub(crate) fn capacitors(
     job: &Job,
     set: &MeasurementSet,
@@ -342,6 +361,7 @@ pub(crate) fn capacitors(
     ratings: &RatingsTable,
     not_checked: &mut Vec<NotChecked>,
     cat: &Catalogue,
+    once: &SaidOnce,
 ) -> Vec<CapacitorFindings> {
     let nominal = job.mains.nominal.value;
     let t = job.mains.tolerance.value;
@@ -416,7 +436,7 @@ pub(crate) fn capacitors(
         };
         let rating = cap.rating.value;
         let margin = (rating.0 - highest.0) / rating.0 * 100.0;
-        let high_mains_words = v(high_mains.0);
+        let high_mains_words = once.words("volts", [high_mains.0, 0.0, 0.0], || v(high_mains.0));
         let peak_words = cat.format(
             "reason-cap-peak-words",
             &[
@@ -424,10 +444,12 @@ pub(crate) fn capacitors(
                 ("rectifier", Arg::from(&rect_words)),
             ],
         );
-        let work_words = cat.format(
-            "reason-cap-work-words",
-            &[("mains", Arg::from(&high_mains_words))],
-        );
+        let work_words = once.words("reason-cap-work-words", [high_mains.0, 0.0, 0.0], || {
+            cat.format(
+                "reason-cap-work-words",
+                &[("mains", Arg::from(&high_mains_words))],
+            )
+        });
         let over_work = high.is_some_and(|h| h.0 > rating.0);
         let over_peak = peak.is_some_and(|p| p.0 > rating.0);
         // The figure that decides the status, named in the reason: the
@@ -445,17 +467,17 @@ pub(crate) fn capacitors(
             (_, Some(h), None) => ("working_high_line", h),
             (_, None, None) => ("cold_start_peak", highest),
         };
-        let rating_words = v(rating.0);
-        let threshold = cat.format(
-            "threshold-capacitor",
-            &[
-                ("rating", Arg::from(&rating_words)),
-                (
-                    "margin",
-                    Arg::from(fixed(settings.capacitor_margin * 100.0, 0)),
-                ),
-            ],
-        );
+        let rating_words = once.words("volts", [rating.0, 0.0, 0.0], || v(rating.0));
+        let margin_pct = settings.capacitor_margin * 100.0;
+        let threshold = once.words("threshold-capacitor", [rating.0, margin_pct, 0.0], || {
+            cat.format(
+                "threshold-capacitor",
+                &[
+                    ("rating", Arg::from(&rating_words)),
+                    ("margin", Arg::from(fixed(margin_pct, 0))),
+                ],
+            )
+        });
         let unchecked = if measured.is_none() {
             cat.format(
                 "reason-cap-unchecked",
@@ -712,7 +734,14 @@ mod tests {
             "node A \"360V\"\nnode B \"361V\"\nnode C \"390V\"\nnode D \"100V\"",
         );
         let set = &j.measurements[0];
-        let f = nodes(&j, set, &j.circuit_for(set), &j.settings, en());
+        let f = nodes(
+            &j,
+            set,
+            &j.circuit_for(set),
+            &j.settings,
+            en(),
+            &SaidOnce::default(),
+        );
         // Chart referred to nominal, common practice: 300 V × 120/110 = 327.273 V.
         assert!((f[0].expected_volts.unwrap() - 327.2727).abs() < 1e-3);
         // 360/327.273 − 1 = +10.0 %: inside the common-practice ±10 %; 361 V is +10.3 %: outside.
@@ -738,7 +767,15 @@ mod tests {
         );
         let set = &j.measurements[0];
         let mut notes = Vec::new();
-        let f = droppers(&j, set, &j.circuit_for(set), &j.settings, &mut notes, en());
+        let f = droppers(
+            &j,
+            set,
+            &j.circuit_for(set),
+            &j.settings,
+            &mut notes,
+            en(),
+            &SaidOnce::default(),
+        );
         assert!(notes.is_empty(), "{notes:?}");
         assert!((f[0].power_w - 0.49).abs() < 1e-12); // Joule's law (textbook): 70² / 10 kΩ = 0.49 W
         assert!((f[1].power_w - 0.5184).abs() < 1e-12); // 72² / 10 kΩ = 0.5184 W
@@ -767,7 +804,18 @@ mod tests {
         );
         let set = &j.measurements[0];
         let mut notes = Vec::new();
-        assert!(droppers(&j, set, &j.circuit_for(set), &j.settings, &mut notes, en()).is_empty());
+        assert!(
+            droppers(
+                &j,
+                set,
+                &j.circuit_for(set),
+                &j.settings,
+                &mut notes,
+                en(),
+                &SaidOnce::default()
+            )
+            .is_empty()
+        );
         assert_eq!(notes.len(), 1);
         assert_eq!(notes[0].reference, "R1");
         assert_eq!(notes[0].reason, "B not measured");
@@ -781,7 +829,14 @@ mod tests {
             "valve V1 plate=\"300V\" cathode=\"11.6V\"",
         );
         let set = &j.measurements[0];
-        let f = cathode_resistors(&j, set, &j.circuit_for(set), &j.settings, en());
+        let f = cathode_resistors(
+            &j,
+            set,
+            &j.circuit_for(set),
+            &j.settings,
+            en(),
+            &SaidOnce::default(),
+        );
         // Joule's law P = Vk²/Rk (textbook): 11.6² / 130 Ω = 1.0351 W, 51.8 % of 2 W: above the 50 % derating (common practice).
         assert!((f[0].power_w - 1.035077).abs() < 1e-6);
         assert_eq!(f[0].verdict.status, Status::Caution);
@@ -814,6 +869,7 @@ mod tests {
             &RatingsTable::builtin(),
             &mut Vec::new(),
             en(),
+            &SaidOnce::default(),
         );
         (statuses(&f, |c| c.verdict.status), f)
     }
@@ -854,6 +910,7 @@ mod tests {
             &RatingsTable::builtin(),
             &mut Vec::new(),
             en(),
+            &SaidOnce::default(),
         );
         assert!((f[0].highest_volts - 451.5).abs() < 1e-9);
         assert_eq!(f[0].verdict.status, Status::Over);
@@ -915,6 +972,7 @@ mod tests {
             &RatingsTable::builtin(),
             &mut not_checked,
             en(),
+            &SaidOnce::default(),
         );
         assert!(f.is_empty());
         assert_eq!(not_checked.len(), 1);

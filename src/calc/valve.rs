@@ -3,7 +3,7 @@
 
 use super::findings::{Check, CurrentMethod, TargetWindow, ValveFindings};
 use super::mains;
-use super::status::{Status, Verdict, under_rating, worst_of};
+use super::status::{SaidOnce, Status, Verdict, under_rating_judged, worst_of};
 use crate::catalogue::{Arg, Catalogue};
 use crate::job::{
     BiasKind, Circuit, CurrentMethod as ReadMethod, Job, MeasurementSet, Settings, ValvePosition,
@@ -58,6 +58,8 @@ pub(crate) struct ValveContext<'a> {
     pub settings: &'a Settings,
     /// The words of the reasons and notes.
     pub cat: &'a Catalogue,
+    /// The words that are the same in every set (thresholds, ratings).
+    pub once: &'a SaidOnce,
 }
 
 pub(crate) fn analyse(
@@ -69,6 +71,7 @@ pub(crate) fn analyse(
 ) -> ValveFindings {
     let pos = spec.position.value.as_str();
     let cat = ctx.cat;
+    let once = ctx.once;
     let circuit = ctx.circuit;
     let nominal = ctx.job.mains.nominal.value;
     let measured_mains = ctx.set.mains.value;
@@ -195,7 +198,9 @@ pub(crate) fn analyse(
             f.corrected_plate_dissipation_pct = Some(pct_c);
             f.high_line_plate_dissipation_pct = Some(pct_h);
             let conservative = if c.includes_screen {
-                format!(" {}", cat.format("reason-includes-screen", &[]))
+                once.words("reason-includes-screen", [0.0; 3], || {
+                    format!(" {}", cat.format("reason-includes-screen", &[]))
+                })
             } else {
                 String::new()
             };
@@ -209,6 +214,7 @@ pub(crate) fn analyse(
                 max,
                 &conservative,
                 ctx.cat,
+                once,
             );
             checks.push(Check {
                 check: "plate_dissipation",
@@ -233,7 +239,7 @@ pub(crate) fn analyse(
                                 ("pct", Arg::from(fixed(pct_h, 0))),
                             ],
                         ),
-                        cat.text("threshold-plate-high-line"),
+                        once.text("threshold-plate-high-line", cat),
                     ),
                 });
             }
@@ -267,17 +273,21 @@ pub(crate) fn analyse(
             let pct = pg2 / max * 100.0;
             f.screen_dissipation_pct = Some(pct);
             let pct_h = pct * (nominal / measured_mains).powi(2) * (1.0 + tolerance).powi(2);
-            let mut verdict = under_rating(
+            let rating_words = watts_words_once(max, once);
+            // The band has no caution of its own below the rating: say what does decide.
+            let threshold = once.words("threshold-screen-dissipation", [max.0, 0.0, 0.0], || {
+                cat.format(
+                    "threshold-screen-dissipation",
+                    &[("rating", Arg::from(&rating_words))],
+                )
+            });
+            let mut verdict = under_rating_judged(
                 pct,
                 1.0,
-                &cat.text("reason-screen-dissipation"),
-                &watts_words(max),
+                &once.text("reason-screen-dissipation", cat),
+                &rating_words,
+                threshold,
                 cat,
-            );
-            // The band has no caution of its own below the rating: say what does decide.
-            verdict.threshold = cat.format(
-                "threshold-screen-dissipation",
-                &[("rating", Arg::from(watts_words(max)))],
             );
             if verdict.status == Status::Ok && pct_h > 100.0 {
                 verdict = Verdict::new(
@@ -309,12 +319,13 @@ pub(crate) fn analyse(
         checks.push(Check {
             check: "plate_voltage",
             verdict: max_verdict(
-                &cat.format("reason-plate-voltage", &[]),
+                &once.text("reason-plate-voltage", cat),
                 va,
                 high(va),
                 max,
                 ctx.settings.voltage_over,
                 ctx.cat,
+                once,
             ),
         });
     }
@@ -323,12 +334,13 @@ pub(crate) fn analyse(
         checks.push(Check {
             check: "screen_voltage",
             verdict: max_verdict(
-                &cat.format("reason-screen-voltage", &[]),
+                &once.text("reason-screen-voltage", cat),
                 vg2,
                 high(vg2),
                 max,
                 ctx.settings.voltage_over,
                 ctx.cat,
+                once,
             ),
         });
     }
@@ -338,16 +350,18 @@ pub(crate) fn analyse(
     ) {
         let pct = ik / max * 100.0;
         f.cathode_current_pct = Some(pct);
-        let threshold = cat.format(
-            "threshold-cathode-current",
-            &[(
-                "max",
-                Arg::from(format_engineering(
-                    max.0,
-                    crate::units::QuantityKind::Current,
-                )),
-            )],
-        );
+        let threshold = once.words("threshold-cathode-current", [max.0, 0.0, 0.0], || {
+            cat.format(
+                "threshold-cathode-current",
+                &[(
+                    "max",
+                    Arg::from(format_engineering(
+                        max.0,
+                        crate::units::QuantityKind::Current,
+                    )),
+                )],
+            )
+        });
         let pct_words = Arg::from(fixed(pct, 0));
         let verdict = if pct > 100.0 {
             Verdict::new(
@@ -487,13 +501,16 @@ fn dissipation_verdict(
     max: Watts,
     conservative: &str,
     cat: &Catalogue,
+    once: &SaidOnce,
 ) -> Verdict {
-    let rating = watts_words(max);
+    let rating = watts_words_once(max, once);
     // Judge on the hotter of today's mains and nominal mains.
     let (judged, at) = if pct_c > pct {
         (
             pct_c,
-            format!(" {}", cat.format("reason-at-nominal-mains", &[])),
+            once.words("reason-at-nominal-mains", [0.0; 3], || {
+                format!(" {}", cat.format("reason-at-nominal-mains", &[]))
+            }),
         )
     } else {
         (pct, String::new())
@@ -518,14 +535,16 @@ fn dissipation_verdict(
         let lo = settings.fixed_bias_low * 100.0;
         let hi = settings.fixed_bias_high * 100.0;
         let (lo_w, hi_w) = (fixed(lo, 0), fixed(hi, 0));
-        let threshold = cat.format(
-            "threshold-fixed-bias",
-            &[
-                ("low", Arg::from(&lo_w)),
-                ("high", Arg::from(&hi_w)),
-                ("rating", Arg::from(&rating)),
-            ],
-        );
+        let threshold = once.words("threshold-fixed-bias", [max.0, lo, hi], || {
+            cat.format(
+                "threshold-fixed-bias",
+                &[
+                    ("low", Arg::from(&lo_w)),
+                    ("high", Arg::from(&hi_w)),
+                    ("rating", Arg::from(&rating)),
+                ],
+            )
+        });
         if judged > 100.0 {
             Verdict::new(Status::Over, what, threshold)
         } else if judged > hi {
@@ -548,20 +567,22 @@ fn dissipation_verdict(
             )
         } else {
             Verdict::ok(
-                format!("{what}, {}", cat.format("reason-inside-aim", &[])),
+                format!("{what}, {}", once.text("reason-inside-aim", cat)),
                 threshold,
             )
         }
     } else {
         let caution = settings.cathode_bias_caution * 100.0;
         let caution_w = fixed(caution, 0);
-        let threshold = cat.format(
-            "threshold-cathode-bias",
-            &[
-                ("caution", Arg::from(&caution_w)),
-                ("rating", Arg::from(&rating)),
-            ],
-        );
+        let threshold = once.words("threshold-cathode-bias", [max.0, caution, 0.0], || {
+            cat.format(
+                "threshold-cathode-bias",
+                &[
+                    ("caution", Arg::from(&caution_w)),
+                    ("rating", Arg::from(&rating)),
+                ],
+            )
+        });
         if judged > 100.0 {
             Verdict::new(Status::Over, what, threshold)
         } else if judged > caution {
@@ -589,16 +610,21 @@ fn max_verdict(
     max: Volts,
     over: f64,
     cat: &Catalogue,
+    once: &SaidOnce,
 ) -> Verdict {
     let factor = 1.0 + over;
-    let max_words = format_engineering(max.0, crate::units::QuantityKind::Voltage);
-    let threshold = cat.format(
-        "threshold-voltage-max",
-        &[
-            ("max", Arg::from(&max_words)),
-            ("over", Arg::from(fixed(factor * 100.0, 0))),
-        ],
-    );
+    let max_words = once.words("volts", [max.0, 0.0, 0.0], || {
+        format_engineering(max.0, crate::units::QuantityKind::Voltage)
+    });
+    let threshold = once.words("threshold-voltage-max", [max.0, factor, 0.0], || {
+        cat.format(
+            "threshold-voltage-max",
+            &[
+                ("max", Arg::from(&max_words)),
+                ("over", Arg::from(fixed(factor * 100.0, 0))),
+            ],
+        )
+    });
     let pct = v / max * 100.0;
     let v_words = format_engineering(v.0, crate::units::QuantityKind::Voltage);
     let args = [
@@ -713,8 +739,11 @@ fn window(
     }
 }
 
-fn watts_words(w: Watts) -> String {
-    format_engineering(w.0, crate::units::QuantityKind::Power)
+/// A power rating in words ("25 W"), said once for each rating.
+fn watts_words_once(w: Watts, once: &SaidOnce) -> String {
+    once.words("watts", [w.0, 0.0, 0.0], || {
+        format_engineering(w.0, crate::units::QuantityKind::Power)
+    })
 }
 
 #[cfg(test)]
@@ -815,6 +844,83 @@ mod tests {
     }
 
     const PAIR_6L6: &str = "valve V3 type=\"6L6GC\" role=output";
+
+    /// The thresholds and ratings said once for a run of sets are those
+    /// each set would say alone: two types with their own ratings, sets
+    /// enough to be worked out on every core, in both built-in languages.
+    #[test]
+    fn words_said_once_are_each_sets_own() {
+        let mut text = String::from(
+            "job-format 1\njob id=\"T\"\nunit make=\"M\" model=\"N\"\n\
+             mains nominal=\"230V\" tolerance=\"10%\"\nvalves {\n\
+             valve V3 type=EL34 role=output\nvalve V4 type=\"6L6GC\" role=output\n\
+             valve V5 type=EL84 role=output\n}\n\
+             circuit {\nbias fixed\nscreen-resistor R1 value=\"1k\" rating=\"5W\" valve=V3 supply=B+1\n\
+             screen-resistor R2 value=\"470\" rating=\"1W\" valve=V4 supply=B+1\n\
+             node B+1 chart=\"450V\" tolerance=\"10%\"\n\
+             filter-capacitor C1 value=\"50u\" rating=\"500V\" node=B+1\n}\n",
+        );
+        for i in 0..40 {
+            let d = i as f64 * 3.0;
+            text.push_str(&format!(
+                "measurements \"s{i}\" mains=\"{}V\" {{\nnode B+1 \"{}V\" tolerance=\"{}%\"\n\
+                 valve V3 plate=\"{}V\" screen=\"{}V\" current=\"{}mA\" method=shunt\n\
+                 valve V4 plate=\"{}V\" screen=\"{}V\" current=\"{}mA\" method=probe\n\
+                 valve V5 plate=\"{}V\" screen=\"{}V\" current=\"{}mA\" method=shunt\n}}\n",
+                220 + i % 20,
+                440.0 + d,
+                5 + i % 3,
+                430.0 + d,
+                420.0 + d,
+                30.0 + d,
+                430.0 + d,
+                425.0 + d,
+                40.0 + d / 2.0,
+                300.0 + d,
+                290.0 + d,
+                20.0 + d / 3.0,
+            ));
+        }
+        let ratings = crate::ratings::RatingsTable::builtin();
+        let job = crate::job::decode_with_ratings("t.kdl", &text, &ratings)
+            .unwrap_or_else(|d| panic!("{:?}", d.problems))
+            .job;
+        for cat in [Catalogue::english(), &Catalogue::built_in("de").unwrap()] {
+            let whole = crate::calc::derive_in(&job, &ratings, cat);
+            assert_eq!(whole.sets.len(), 40);
+            let mut thresholds = std::collections::BTreeSet::new();
+            for (i, set) in whole.sets.iter().enumerate() {
+                // The same set alone in a job: its words said afresh.
+                let mut alone_job = job.clone();
+                alone_job.measurements = vec![job.measurements[i].clone()];
+                let alone = crate::calc::derive_in(&alone_job, &ratings, cat);
+                let a = &alone.sets[0];
+                for (v, w) in set.valves.iter().zip(&a.valves) {
+                    assert_eq!(v.checks.len(), w.checks.len());
+                    for (c, d) in v.checks.iter().zip(&w.checks) {
+                        assert_eq!(c.verdict, d.verdict, "{} {}", v.position, c.check);
+                        thresholds.insert(c.verdict.threshold.clone());
+                    }
+                }
+                assert_eq!(set.valves.len(), 3);
+                for (n, m) in set.nodes.iter().zip(&a.nodes) {
+                    assert_eq!(n.verdict, m.verdict);
+                    thresholds.insert(n.verdict.threshold.clone());
+                }
+                for (r, s) in set.screen_resistors.iter().zip(&a.screen_resistors) {
+                    assert_eq!(r.verdict, s.verdict);
+                    thresholds.insert(r.verdict.threshold.clone());
+                }
+                assert_eq!(set.screen_resistors.len(), 2);
+                for (c, d) in set.filter_capacitors.iter().zip(&a.filter_capacitors) {
+                    assert_eq!(c.verdict, d.verdict);
+                }
+                assert_eq!(set.filter_capacitors.len(), 1);
+            }
+            // Each type's and each tolerance's own words, not the first ones said.
+            assert!(thresholds.len() >= 14, "{thresholds:#?}");
+        }
+    }
 
     #[test]
     fn bias_probe_reads_cathode_current() {
@@ -961,6 +1067,7 @@ mod tests {
             Volts(300.0),
             Settings::default().voltage_over,
             Catalogue::english(),
+            &SaidOnce::default(),
         );
         let english = Catalogue::english();
         assert_eq!(
@@ -994,6 +1101,7 @@ mod tests {
                 Volts(300.0),
                 Settings::default().voltage_over,
                 Catalogue::english(),
+                &SaidOnce::default(),
             )
             .status
         };
@@ -1018,6 +1126,7 @@ mod tests {
                 Watts(10.0),
                 "",
                 Catalogue::english(),
+                &SaidOnce::default(),
             )
             .status
         };
