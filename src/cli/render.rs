@@ -600,12 +600,19 @@ fn render_job(
             photos: &photos,
         };
         match handover::build(&input, &setup.templates) {
-            Ok(d) => Built {
-                sandbox: d.sandbox,
-                main: d.main,
-                options: d.options,
-                extra: Vec::new(),
-            },
+            Ok(d) => {
+                if setup.ends_after_one {
+                    // The template's context, a string for every cell of a
+                    // long job: freed by the process's end, like the rest.
+                    std::mem::forget(d.context);
+                }
+                Built {
+                    sandbox: d.sandbox,
+                    main: d.main,
+                    options: d.options,
+                    extra: Vec::new(),
+                }
+            }
             Err(e) => return Err(report_build_error(e, said)),
         }
     };
