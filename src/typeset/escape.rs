@@ -62,6 +62,21 @@ fn escape_common_into(text: &str, out: &mut String) -> bool {
     let mut copied = 0;
     let mut i = 0;
     while i < bytes.len() {
+        // A run of letters and digits, counted in one step: the run only
+        // grows inside it, so one check at its end finds what a check at
+        // each character finds.
+        let from = i;
+        while i < bytes.len() && class.get(usize::from(bytes[i])) == Some(&PLAIN) {
+            i += 1;
+        }
+        if i > from {
+            run += i - from;
+            if run >= LONG_RUN {
+                out.truncate(start);
+                return false;
+            }
+            continue;
+        }
         let b = bytes[i];
         if b.is_ascii() {
             match class[usize::from(b)] {
@@ -70,7 +85,6 @@ fn escape_common_into(text: &str, out: &mut String) -> bool {
                     i += 1;
                     continue;
                 }
-                PLAIN => i += 1,
                 PUNCT | QUOTE => {
                     out.push_str(&text[copied..i]);
                     out.push('\\');
@@ -244,28 +258,54 @@ pub fn escape_string(text: &str) -> String {
 }
 
 /// [`escape_string`], appended to `out`.
+///
+/// The text is scanned by bytes rather than characters: every character
+/// that changes is ASCII, a C1 control (U+0080–U+009F, whose UTF-8 starts
+/// with 0xC2) or a line or paragraph separator (U+2028, U+2029: 0xE2 0x80
+/// 0xA8 or 0xA9), and no other character's bytes can look like them.
 pub fn escape_string_into(text: &str, out: &mut String) {
+    let bytes = text.as_bytes();
     // Copied in runs between the characters that change: `text[copied..i]`
     // is not yet in `out`.
     let mut copied = 0;
-    for (i, c) in text.char_indices() {
-        let escaped = match c {
-            '\\' => "\\\\",
-            '"' => "\\\"",
-            '\n' => "\\n",
-            '\r' => "\\r",
-            '\t' => "\\t",
-            c if c.is_control() || is_line_end(c) => {
-                out.push_str(&text[copied..i]);
-                out.push_str(&format!("\\u{{{:x}}}", c as u32));
-                copied = i + c.len_utf8();
+    let mut i = 0;
+    while i < bytes.len() {
+        let b = bytes[i];
+        // The character at `i` that changes, and its length in bytes.
+        let (c, len) = match b {
+            b'\\' | b'"' | 0..0x20 | 0x7F => (char::from(b), 1),
+            0xC2 if matches!(bytes.get(i + 1), Some(0x80..=0x9F)) => (char::from(bytes[i + 1]), 2),
+            0xE2 if bytes.get(i + 1) == Some(&0x80)
+                && matches!(bytes.get(i + 2), Some(0xA8 | 0xA9)) =>
+            {
+                (
+                    if bytes[i + 2] == 0xA8 {
+                        '\u{2028}'
+                    } else {
+                        '\u{2029}'
+                    },
+                    3,
+                )
+            }
+            _ => {
+                i += 1;
                 continue;
             }
-            _ => continue,
         };
         out.push_str(&text[copied..i]);
-        out.push_str(escaped);
-        copied = i + c.len_utf8();
+        match c {
+            '\\' => out.push_str("\\\\"),
+            '"' => out.push_str("\\\""),
+            '\n' => out.push_str("\\n"),
+            '\r' => out.push_str("\\r"),
+            '\t' => out.push_str("\\t"),
+            c => {
+                use std::fmt::Write as _;
+                let _ = write!(out, "\\u{{{:x}}}", u32::from(c));
+            }
+        }
+        i += len;
+        copied = i;
     }
     out.push_str(&text[copied..]);
 }
@@ -418,6 +458,74 @@ fn is_line_end(c: char) -> bool {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    /// [`escape_string_into`] as it was written before it scanned bytes:
+    /// character by character.
+    fn escape_string_by_chars(text: &str) -> String {
+        let mut out = String::new();
+        let mut copied = 0;
+        for (i, c) in text.char_indices() {
+            let escaped = match c {
+                '\\' => "\\\\",
+                '"' => "\\\"",
+                '\n' => "\\n",
+                '\r' => "\\r",
+                '\t' => "\\t",
+                c if c.is_control() || is_line_end(c) => {
+                    out.push_str(&text[copied..i]);
+                    out.push_str(&format!("\\u{{{:x}}}", c as u32));
+                    copied = i + c.len_utf8();
+                    continue;
+                }
+                _ => continue,
+            };
+            out.push_str(&text[copied..i]);
+            out.push_str(escaped);
+            copied = i + c.len_utf8();
+        }
+        out.push_str(&text[copied..]);
+        out
+    }
+
+    #[test]
+    fn strings_are_escaped_by_bytes_as_by_characters() {
+        // Every control character and line end, and their UTF-8
+        // neighbours (the same lead byte, the next and previous code
+        // points), among plain text.
+        let mut pool: Vec<char> = (0..0x100u32).filter_map(char::from_u32).collect();
+        pool.extend("\u{2026}\u{2027}\u{2028}\u{2029}\u{202A}\u{202F}\u{2080}\u{20AC}\u{2212}\u{1F600}\u{10FFFF}\u{FFFD}–Ω“µ中".chars());
+        let mut state = 0x9E37_79B9_7F4A_7C15u64;
+        let mut next = || {
+            state ^= state << 13;
+            state ^= state >> 7;
+            state ^= state << 17;
+            state
+        };
+        for round in 0..60_000 {
+            let len = (next() % 14) as usize;
+            let text: String = (0..len)
+                .map(|_| {
+                    let k = next() as usize;
+                    if round % 2 == 0 && k % 3 != 0 {
+                        ['a', ' ', '7', '.'][k % 4]
+                    } else {
+                        pool[k % pool.len()]
+                    }
+                })
+                .collect();
+            let mut out = String::from("before ");
+            escape_string_into(&text, &mut out);
+            assert_eq!(
+                out,
+                format!("before {}", escape_string_by_chars(&text)),
+                "{text:?}"
+            );
+        }
+        for c in pool {
+            let text = format!("x{c}y{c}");
+            assert_eq!(escape_string(&text), escape_string_by_chars(&text), "{c:?}");
+        }
+    }
 
     #[test]
     fn a_long_run_may_break_after_every_chunk() {
@@ -611,6 +719,39 @@ mod tests {
         }
         // The common path must really be taken for most plain texts.
         assert!(common > 5_000, "common path taken {common} times");
+    }
+
+    #[test]
+    fn runs_at_the_long_run_limit_take_the_same_path_either_way() {
+        // Runs one short of, at and past the limit, made of letters alone,
+        // of letters and punctuation, and broken by quotes, no-break
+        // spaces and non-ASCII letters, after a word and a space.
+        let pieces = ["a", "7", ".", "\\", "\"", "Ω", "\u{A0}", "-", "ab", "x."];
+        for total in LONG_RUN - 3..LONG_RUN + 3 {
+            for (k, piece) in pieces.iter().enumerate() {
+                for start in ["", "word ", " ", "a\u{A0}"] {
+                    let mut text = String::from(start);
+                    let mut n = 0;
+                    while n < total {
+                        // Mostly letters, the piece every few characters.
+                        if n % (k + 2) == 0 {
+                            text.push_str(piece);
+                        } else {
+                            text.push('b');
+                        }
+                        n += 1;
+                    }
+                    let mut full = String::new();
+                    escape_full_into(&text, &mut full);
+                    assert_eq!(escape_markup(&text), full, "{text:?}");
+                    assert_eq!(
+                        escape_content(&text),
+                        escape_content_full(&text),
+                        "{text:?}"
+                    );
+                }
+            }
+        }
     }
 
     #[test]

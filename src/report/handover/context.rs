@@ -797,7 +797,13 @@ impl CountedText for Sentence {
         match chars.next() {
             None => 0,
             Some(first) => {
-                first.to_uppercase().count() + chars.count() + usize::from(!self.0.ends_with('.'))
+                // An ASCII letter's capital is one character.
+                let capital = if first.is_ascii() {
+                    1
+                } else {
+                    first.to_uppercase().count()
+                };
+                capital + chars.count() + usize::from(!self.0.ends_with('.'))
             }
         }
     }
@@ -860,7 +866,13 @@ const UNIT_WORDS: &[&str] = &[
 /// Puts a no-break space between a number and its unit in a sentence the
 /// program wrote ("349 V"), so a line never breaks between them.
 pub fn glue_units(text: &str) -> String {
-    let mut out = String::with_capacity(text.len() + 8);
+    glued(text).unwrap_or_else(|| text.to_owned())
+}
+
+/// [`glue_units`], or nothing when the text has no unit to glue (the
+/// caller keeps the text it has rather than a copy).
+fn glued(text: &str) -> Option<String> {
+    let mut out: Option<String> = None;
     let mut copied = 0;
     // Byte by byte: the texts are short, where a search for each space
     // cost more than the loop. A space byte is a whole character, and so
@@ -874,13 +886,26 @@ pub fn glue_units(text: &str) -> String {
         let rest = &text[i + 1..];
         let word = &rest[..rest.find(char::is_whitespace).unwrap_or(rest.len())];
         if UNIT_WORDS.contains(&word.trim_end_matches(['.', ',', ';', ':', ')', '('])) {
+            let out = out.get_or_insert_with(|| String::with_capacity(text.len() + 8));
             out.push_str(&text[copied..i]);
             out.push('\u{a0}');
             copied = i + 1;
         }
     }
+    let mut out = out?;
     out.push_str(&text[copied..]);
-    out
+    Some(out)
+}
+
+/// `typographic_minus(&glue_units(&text))`, taking the text: one that
+/// needs neither change is handed back as it is, not copied twice.
+fn tidy_words(text: String) -> String {
+    let text = glued(&text).unwrap_or(text);
+    if text.contains('-') {
+        typographic_minus(&text)
+    } else {
+        text
+    }
 }
 
 /// From this many measurement sets on, the sets' contexts are made in
@@ -1339,7 +1364,7 @@ fn set_context(
 
 /// A figure's few words of why, with a typographic minus.
 fn why(v: &crate::calc::Verdict) -> String {
-    typographic_minus(&glue_units(&attention::why(v)))
+    tidy_words(attention::why(v))
 }
 
 /// Turns a hyphen that stands for a minus sign (before a digit, at the
@@ -1378,7 +1403,7 @@ fn attention_context(a: &Attention, cat: &Catalogue) -> AttentionContext {
     let entry = |e: &attention::Entry, joiner: &str| EntryRow {
         subject: e.subject.clone(),
         status: status(e.status),
-        text: typographic_minus(&glue_units(&e.lines.join(joiner))),
+        text: tidy_words(e.lines.join(joiner)),
     };
     AttentionContext {
         final_label: a.final_label.clone(),
@@ -1463,7 +1488,7 @@ fn valve_row(v: &ValveFindings) -> ValveRow {
         pg2: v.screen_dissipation_w.map(|w| fixed(w, 1)),
         pg2_pct: v.screen_dissipation_pct.map(pct0),
         status: attention::valve_state(v).to_string(),
-        why: typographic_minus(&glue_units(&attention::valve_why(v))),
+        why: tidy_words(attention::valve_why(v)),
         reason: worst
             .map(|c| Sentence::new(&c.verdict.reason))
             .unwrap_or_default(),
@@ -1982,6 +2007,11 @@ mod tests {
             assert_eq!(
                 typographic_minus(&text),
                 typographic_minus_by_chars(&text),
+                "{text:?}"
+            );
+            assert_eq!(
+                tidy_words(text.clone()),
+                typographic_minus(&glue_units(&text)),
                 "{text:?}"
             );
         }

@@ -493,6 +493,16 @@ pub(crate) fn fill_template(
     template.render(ctx).map_err(fail)
 }
 
+/// `value.as_i64()`, asked only of the kinds that can give a number (a
+/// number or a boolean): for any other kind `as_i64` builds an error to
+/// throw away, and a long job's sentences pass thousands of strings.
+fn whole_number(value: &Value) -> Option<i64> {
+    match value.kind() {
+        minijinja::value::ValueKind::Number | minijinja::value::ValueKind::Bool => value.as_i64(),
+        _ => None,
+    }
+}
+
 /// The template functions that look words up in the catalogue:
 ///
 /// * `t("key", name=value, …)`: the message as text, escaped for Typst
@@ -524,7 +534,7 @@ pub fn catalogue_functions(catalogue: &Catalogue) -> (Value, Value) {
             let arg = if placeholders {
                 values.push(text(&value));
                 Arg::Text(format!("QzqArg{}Qzq", values.len() - 1))
-            } else if let Some(n) = value.as_i64() {
+            } else if let Some(n) = whole_number(&value) {
                 Arg::Number(n as f64)
             } else {
                 Arg::Text(text(&value))
@@ -630,6 +640,37 @@ mod tests {
     use super::*;
     use crate::calc::Family;
     use crate::ratings::RatingsTable;
+
+    #[test]
+    fn a_whole_number_is_what_as_i64_gives() {
+        use std::collections::BTreeMap;
+        let mut values = vec![
+            Value::from(0),
+            Value::from(-17),
+            Value::from(i64::MAX),
+            Value::from(u64::MAX),
+            Value::from(i128::MIN),
+            Value::from(3.0),
+            Value::from(3.5),
+            Value::from(-0.0),
+            Value::from(f64::NAN),
+            Value::from(1e300),
+            Value::from(true),
+            Value::from(false),
+            Value::from(()),
+            Value::UNDEFINED,
+            Value::from(vec![1, 2]),
+            Value::from(BTreeMap::from([("a", 1)])),
+            Value::from_bytes(b"12".to_vec()),
+            Value::from_safe_string("5".into()),
+        ];
+        for text in ["", "12", "-3", "1.0", "V3", " 4", "0x10", "true"] {
+            values.push(Value::from(text));
+        }
+        for value in &values {
+            assert_eq!(whole_number(value), value.as_i64(), "{value:?}");
+        }
+    }
 
     /// A demo job decoded and derived, with its text.
     fn demo(name: &str) -> (Job, Findings, String) {
