@@ -144,9 +144,11 @@ pub fn worst_of<'a>(verdicts: impl IntoIterator<Item = &'a Verdict>) -> Option<&
 /// threads), with one catalogue: its words are that catalogue's.
 #[derive(Default)]
 pub(crate) struct SaidOnce {
-    /// By what is said (a message key or a name of the words) and every
-    /// figure the words are made from, as bits.
-    said: RefCell<FxHashMap<(&'static str, [u64; 3]), String>>,
+    /// By what is said (a message key or a name of the words: where its
+    /// text is and how long it is, as a `&'static str` never changes; the
+    /// same name at two places is only kept twice) and every figure the
+    /// words are made from, as bits.
+    said: RefCell<FxHashMap<(usize, usize, [u64; 3]), String>>,
 }
 
 impl SaidOnce {
@@ -158,7 +160,11 @@ impl SaidOnce {
         figures: [f64; 3],
         say: impl FnOnce() -> String,
     ) -> String {
-        let key = (what, figures.map(f64::to_bits));
+        let key = (
+            what.as_ptr() as usize,
+            what.len(),
+            figures.map(f64::to_bits),
+        );
         if let Some(words) = self.said.borrow().get(&key) {
             return words.clone();
         }
@@ -206,26 +212,27 @@ pub(crate) fn under_rating_judged(
     cat: &Catalogue,
 ) -> Verdict {
     let caution_words = fixed(caution * 100.0, 0);
+    let pct_words = fixed(pct, 0);
     let args = [
-        ("what", Arg::from(what)),
-        ("pct", Arg::from(fixed(pct, 0))),
-        ("rating", Arg::from(rating)),
-        ("caution", Arg::from(&caution_words)),
+        ("what", what),
+        ("pct", pct_words.as_str()),
+        ("rating", rating),
+        ("caution", caution_words.as_str()),
     ];
     if pct > 100.0 {
         Verdict::new(
             Status::Over,
-            cat.format("reason-of-rating", &args),
+            cat.format_str("reason-of-rating", &args),
             threshold,
         )
     } else if pct > caution * 100.0 {
         Verdict::new(
             Status::Caution,
-            cat.format("reason-of-rating-guide", &args),
+            cat.format_str("reason-of-rating-guide", &args),
             threshold,
         )
     } else {
-        Verdict::ok(cat.format("reason-of-rating", &args), threshold)
+        Verdict::ok(cat.format_str("reason-of-rating", &args), threshold)
     }
 }
 
