@@ -133,6 +133,10 @@ pub fn worst_of<'a>(verdicts: impl IntoIterator<Item = &'a Verdict>) -> Option<&
     best
 }
 
+/// What [`SaidOnce`] keeps words by: the name's address and length, and
+/// the figures' bits.
+type SaidKey = (usize, usize, [u64; 3]);
+
 /// Words that are the same in every set of a job: a threshold depends
 /// only on the job's settings and a rating ("caution above 50 % of 5 W,
 /// over above 100 %"), and a long job said each of them again in every
@@ -148,7 +152,7 @@ pub(crate) struct SaidOnce {
     /// text is and how long it is, as a `&'static str` never changes; the
     /// same name at two places is only kept twice) and every figure the
     /// words are made from, as bits.
-    said: RefCell<FxHashMap<(usize, usize, [u64; 3]), String>>,
+    said: RefCell<FxHashMap<SaidKey, String>>,
 }
 
 impl SaidOnce {
@@ -272,12 +276,18 @@ mod tests {
         assert_eq!(say("a", [0.0, 0.0, 0.0]), "a [0.0, 0.0, 0.0]");
         assert_eq!(say("a", [1.0, 2.0, 3.0]), "a [1.0, 2.0, 3.0]");
         assert_eq!(made, 5);
-        // Words that need words said once inside them.
+        // Words that need words said once inside them; kept by the name
+        // (one text, wherever it is used).
+        let inner: &'static str = "inner";
         let nested = once.words("outer", [0.0; 3], || {
-            format!("<{}>", once.words("inner", [0.0; 3], || "in".into()))
+            format!("<{}>", once.words(inner, [0.0; 3], || "in".into()))
         });
         assert_eq!(nested, "<in>");
-        assert_eq!(once.words("inner", [0.0; 3], || "other".into()), "in");
+        assert_eq!(once.words(inner, [0.0; 3], || "other".into()), "in");
+        // A name that is another's beginning is another name.
+        let both = "inner-most";
+        assert_eq!(once.words(&both[..5], [0.0; 3], || "in".into()), "in");
+        assert_eq!(once.words(both, [0.0; 3], || "most".into()), "most");
     }
 
     #[test]

@@ -217,26 +217,50 @@ enum Piece {
 /// argument it names is missing (Fluent then says it). An argument given
 /// twice counts as its last value, as in Fluent's arguments.
 fn say_plain_str(pieces: &[Piece], args: &[(&str, &str)]) -> Option<String> {
+    // Each argument's value found once, for the room and the words (a
+    // message has at most a handful; past eight they are found again).
+    const KEPT: usize = 8;
+    let mut values = [""; KEPT];
     let mut room = 0;
+    let mut n = 0;
     for piece in pieces {
-        room += match piece {
-            Piece::Text(text) => text.len(),
-            Piece::Argument(name) => args.iter().rev().find(|(n, _)| *n == &**name)?.1.len(),
-        };
+        match piece {
+            Piece::Text(text) => room += text.len(),
+            Piece::Argument(name) => {
+                let value = argument(args, name)?;
+                if n < KEPT {
+                    values[n] = value;
+                }
+                n += 1;
+                room += value.len();
+            }
+        }
     }
     let mut words = String::with_capacity(room);
+    let mut n = 0;
     for piece in pieces {
         match piece {
             Piece::Text(text) => words.push_str(text),
             Piece::Argument(name) => {
-                // Found above.
-                if let Some((_, value)) = args.iter().rev().find(|(n, _)| *n == &**name) {
-                    words.push_str(value);
-                }
+                let value = if n < KEPT {
+                    values[n]
+                } else {
+                    argument(args, name)?
+                };
+                n += 1;
+                words.push_str(value);
             }
         }
     }
     Some(words)
+}
+
+/// The value of the argument `name` (its last, if given twice).
+fn argument<'a>(args: &[(&str, &'a str)], name: &str) -> Option<&'a str> {
+    // Compared byte by byte: the names are a few letters, shorter than
+    // the call a slice comparison makes.
+    let same = |a: &str| a.len() == name.len() && a.bytes().zip(name.bytes()).all(|(x, y)| x == y);
+    args.iter().rev().find(|(n, _)| same(n)).map(|(_, v)| *v)
 }
 
 /// The pattern as plain pieces, or `None` when Fluent must say it.
