@@ -7,7 +7,7 @@
 
 use super::findings::{SafetyFinding, SetFindings, ValveFindings};
 use super::status::Status;
-use crate::catalogue::{Arg, Catalogue};
+use crate::catalogue::Catalogue;
 use crate::units::{QuantityKind, format_engineering};
 use crate::units::{fixed, fixed_signed, fixed_with};
 
@@ -21,19 +21,13 @@ fn pct(v: Option<f64>) -> String {
 /// nominal mains times 1 + tolerance), for a voltage caution that only the
 /// projection decided.
 pub fn valve_check(v: &ValveFindings, check: &str, high_line: f64, cat: &Catalogue) -> String {
-    let say = |key: &str, p: String| cat.format(key, &[("pct", Arg::from(p))]);
+    let say = |key: &str, p: String| cat.format_str(key, &[("pct", &p)]);
     let voltage = |name: &str, pct_now: Option<f64>| match pct_now {
-        Some(p) if p <= 100.0 => cat.format(
+        Some(p) if p <= 100.0 => cat.format_str(
             "brief-voltage-high-line",
-            &[
-                ("name", Arg::from(name)),
-                ("pct", Arg::from(fixed_with(p * high_line, 0, " %"))),
-            ],
+            &[("name", name), ("pct", &fixed_with(p * high_line, 0, " %"))],
         ),
-        p => cat.format(
-            "brief-voltage-of-max",
-            &[("name", Arg::from(name)), ("pct", Arg::from(pct(p)))],
-        ),
+        p => cat.format_str("brief-voltage-of-max", &[("name", name), ("pct", &pct(p))]),
     };
     match check {
         "plate_dissipation" => say("brief-plate", pct(v.plate_dissipation_pct)),
@@ -57,7 +51,7 @@ pub(crate) fn fill_set(set: &mut SetFindings, derating: f64, tolerance: f64, cat
     // `fixed` writes what `format!("{p:.digits$}")` writes, without its
     // exact float path.
     let pct_of =
-        |key: &str, p: f64, digits: usize| cat.format(key, &[("pct", Arg::from(fixed(p, digits)))]);
+        |key: &str, p: f64, digits: usize| cat.format_str(key, &[("pct", &fixed(p, digits))]);
     let high_line = set.correction_factor * (1.0 + tolerance);
     for v in &mut set.valves {
         let briefs: Vec<String> = v
@@ -71,10 +65,7 @@ pub(crate) fn fill_set(set: &mut SetFindings, derating: f64, tolerance: f64, cat
     }
     for n in &mut set.nodes {
         n.verdict.brief = match n.deviation_pct {
-            Some(d) => cat.format(
-                "brief-from-chart",
-                &[("deviation", Arg::from(fixed_signed(d, 1)))],
-            ),
+            Some(d) => cat.format_str("brief-from-chart", &[("deviation", &fixed_signed(d, 1))]),
             None => cat.text("brief-no-chart"),
         };
     }
@@ -101,20 +92,17 @@ pub(crate) fn fill_set(set: &mut SetFindings, derating: f64, tolerance: f64, cat
         });
         c.verdict.brief = match c.verdict.status {
             Status::Ok => pct_of("brief-margin", c.margin_pct, 0),
-            _ if c.deciding_margin_pct < 0.0 => cat.format(
+            _ if c.deciding_margin_pct < 0.0 => cat.format_str(
                 "brief-volts-on-rating",
                 &[
-                    ("volts", Arg::from(v(c.deciding_volts))),
-                    ("what", Arg::from(&what)),
-                    ("rating", Arg::from(v(c.rating_volts))),
+                    ("volts", &v(c.deciding_volts)),
+                    ("what", &what),
+                    ("rating", &v(c.rating_volts)),
                 ],
             ),
-            _ => cat.format(
+            _ => cat.format_str(
                 "brief-margin-what",
-                &[
-                    ("pct", Arg::from(fixed(c.deciding_margin_pct, 1))),
-                    ("what", Arg::from(&what)),
-                ],
+                &[("pct", &fixed(c.deciding_margin_pct, 1)), ("what", &what)],
             ),
         };
     }
@@ -134,7 +122,7 @@ pub(crate) fn fill_set(set: &mut SetFindings, derating: f64, tolerance: f64, cat
     }
     for h in &mut set.bench.hum_noise {
         h.verdict.brief = match h.hum_noise_db_below_full {
-            Some(db) => cat.format("brief-below-full", &[("db", Arg::from(fixed(db, 0)))]),
+            Some(db) => cat.format_str("brief-below-full", &[("db", &fixed(db, 0))]),
             None => fixed_with(h.hum_noise_dbv, 1, " dBV"),
         };
     }
@@ -143,12 +131,9 @@ pub(crate) fn fill_set(set: &mut SetFindings, derating: f64, tolerance: f64, cat
 /// Fills `brief` on the safety tests.
 pub(crate) fn fill_safety(safety: &mut [SafetyFinding], cat: &Catalogue) {
     for s in safety {
-        s.verdict.brief = cat.format(
+        s.verdict.brief = cat.format_str(
             "brief-against",
-            &[
-                ("measured", Arg::from(&s.measured)),
-                ("limit", Arg::from(&s.limit)),
-            ],
+            &[("measured", &s.measured), ("limit", &s.limit)],
         );
     }
 }

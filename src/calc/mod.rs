@@ -430,7 +430,12 @@ fn verdict_warning(
 
 /// "V3 (EL34)": a valve as a finding's subject.
 fn valve_subject(position: &str, valve_type: &str) -> String {
-    format!("{position} ({valve_type})")
+    let mut subject = String::with_capacity(position.len() + valve_type.len() + 3);
+    subject.push_str(position);
+    subject.push_str(" (");
+    subject.push_str(valve_type);
+    subject.push(')');
+    subject
 }
 
 fn set_warnings(set: &SetFindings, cat: &Catalogue) -> Vec<Warning> {
@@ -443,12 +448,9 @@ fn set_warnings(set: &SetFindings, cat: &Catalogue) -> Vec<Warning> {
                 subject,
                 check,
                 verdict,
-                sentence(&cat.format(
+                sentence(&cat.format_str(
                     "warn-subject-reason",
-                    &[
-                        ("subject", Arg::from(subject)),
-                        ("reason", Arg::from(&verdict.reason)),
-                    ],
+                    &[("subject", subject), ("reason", &verdict.reason)],
                 )),
             ));
         }

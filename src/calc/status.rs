@@ -133,6 +133,10 @@ pub fn worst_of<'a>(verdicts: impl IntoIterator<Item = &'a Verdict>) -> Option<&
     best
 }
 
+/// What [`SaidOnce`] keeps words by: the name's address and length, and
+/// the figures' bits.
+type SaidKey = (usize, usize, [u64; 3]);
+
 /// Words that are the same in every set of a job: a threshold depends
 /// only on the job's settings and a rating ("caution above 50 % of 5 W,
 /// over above 100 %"), and a long job said each of them again in every
@@ -144,9 +148,11 @@ pub fn worst_of<'a>(verdicts: impl IntoIterator<Item = &'a Verdict>) -> Option<&
 /// threads), with one catalogue: its words are that catalogue's.
 #[derive(Default)]
 pub(crate) struct SaidOnce {
-    /// By what is said (a message key or a name of the words) and every
-    /// figure the words are made from, as bits.
-    said: RefCell<FxHashMap<(&'static str, [u64; 3]), String>>,
+    /// By what is said (a message key or a name of the words: where its
+    /// text is and how long it is, as a `&'static str` never changes; the
+    /// same name at two places is only kept twice) and every figure the
+    /// words are made from, as bits.
+    said: RefCell<FxHashMap<SaidKey, String>>,
 }
 
 impl SaidOnce {
@@ -158,7 +164,11 @@ impl SaidOnce {
         figures: [f64; 3],
         say: impl FnOnce() -> String,
     ) -> String {
-        let key = (what, figures.map(f64::to_bits));
+        let key = (
+            what.as_ptr() as usize,
+            what.len(),
+            figures.map(f64::to_bits),
+        );
         if let Some(words) = self.said.borrow().get(&key) {
             return words.clone();
         }
@@ -206,26 +216,27 @@ pub(crate) fn under_rating_judged(
     cat: &Catalogue,
 ) -> Verdict {
     let caution_words = fixed(caution * 100.0, 0);
+    let pct_words = fixed(pct, 0);
     let args = [
-        ("what", Arg::from(what)),
-        ("pct", Arg::from(fixed(pct, 0))),
-        ("rating", Arg::from(rating)),
-        ("caution", Arg::from(&caution_words)),
+        ("what", what),
+        ("pct", pct_words.as_str()),
+        ("rating", rating),
+        ("caution", caution_words.as_str()),
     ];
     if pct > 100.0 {
         Verdict::new(
             Status::Over,
-            cat.format("reason-of-rating", &args),
+            cat.format_str("reason-of-rating", &args),
             threshold,
         )
     } else if pct > caution * 100.0 {
         Verdict::new(
             Status::Caution,
-            cat.format("reason-of-rating-guide", &args),
+            cat.format_str("reason-of-rating-guide", &args),
             threshold,
         )
     } else {
-        Verdict::ok(cat.format("reason-of-rating", &args), threshold)
+        Verdict::ok(cat.format_str("reason-of-rating", &args), threshold)
     }
 }
 
@@ -265,12 +276,18 @@ mod tests {
         assert_eq!(say("a", [0.0, 0.0, 0.0]), "a [0.0, 0.0, 0.0]");
         assert_eq!(say("a", [1.0, 2.0, 3.0]), "a [1.0, 2.0, 3.0]");
         assert_eq!(made, 5);
-        // Words that need words said once inside them.
+        // Words that need words said once inside them; kept by the name
+        // (one text, wherever it is used).
+        let inner: &'static str = "inner";
         let nested = once.words("outer", [0.0; 3], || {
-            format!("<{}>", once.words("inner", [0.0; 3], || "in".into()))
+            format!("<{}>", once.words(inner, [0.0; 3], || "in".into()))
         });
         assert_eq!(nested, "<in>");
-        assert_eq!(once.words("inner", [0.0; 3], || "other".into()), "in");
+        assert_eq!(once.words(inner, [0.0; 3], || "other".into()), "in");
+        // A name that is another's beginning is another name.
+        let both = "inner-most";
+        assert_eq!(once.words(&both[..5], [0.0; 3], || "in".into()), "in");
+        assert_eq!(once.words(both, [0.0; 3], || "most".into()), "most");
     }
 
     #[test]

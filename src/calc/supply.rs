@@ -31,10 +31,7 @@ fn v(x: f64) -> String {
 
 /// "B+1 to B+2": where a dropper sits.
 fn place_between(from: &str, to: &str, cat: &Catalogue) -> String {
-    cat.format(
-        "place-between",
-        &[("from", Arg::from(from)), ("to", Arg::from(to))],
-    )
+    cat.format_str("place-between", &[("from", from), ("to", to)])
 }
 
 /// Resistor power: two decimals of a watt, or milliwatts when tiny.
@@ -80,21 +77,18 @@ pub(crate) fn nodes(
             let tol_pct = tolerance * 100.0;
             let tol_words = fixed(tol_pct, 0);
             let threshold = once.words("threshold-node", [tol_pct, nominal.0, 0.0], || {
-                cat.format(
+                cat.format_str(
                     "threshold-node",
-                    &[
-                        ("tolerance", Arg::from(&tol_words)),
-                        ("nominal", Arg::from(v(nominal.0))),
-                    ],
+                    &[("tolerance", &tol_words), ("nominal", &v(nominal.0))],
                 )
             });
             let off_chart = |d: f64, e: Volts| {
-                cat.format(
+                cat.format_str(
                     "reason-node",
                     &[
-                        ("corrected", Arg::from(v(corrected.0))),
-                        ("deviation", Arg::from(fixed_signed(d, 1))),
-                        ("expected", Arg::from(v(e.0))),
+                        ("corrected", &v(corrected.0)),
+                        ("deviation", &fixed_signed(d, 1)),
+                        ("expected", &v(e.0)),
                     ],
                 )
             };
@@ -104,17 +98,16 @@ pub(crate) fn nodes(
                 }
                 (Some(d), Some(e)) => Verdict::new(
                     Status::Caution,
-                    format!(
-                        "{}, {}",
+                    super::valve::joined(
                         off_chart(d, e),
-                        cat.format(
+                        &cat.format_str(
                             if d > 0.0 {
                                 "reason-above-band"
                             } else {
                                 "reason-below-band"
                             },
-                            &[("tolerance", Arg::from(&tol_words))],
-                        )
+                            &[("tolerance", &tol_words)],
+                        ),
                     ),
                     threshold,
                 ),
@@ -169,7 +162,7 @@ fn resistor(
             let mut verdict = under_rating_judged(
                 pct,
                 caution,
-                &cat.format("reason-dissipation", &[("watts", Arg::from(w(p.0)))]),
+                &cat.format_str("reason-dissipation", &[("watts", &w(p.0))]),
                 &rating_words,
                 threshold,
                 cat,
@@ -177,12 +170,9 @@ fn resistor(
             if verdict.status == Status::Ok && pct_h > settings.resistor_derating * 100.0 {
                 verdict = Verdict::new(
                     Status::Caution,
-                    cat.format(
+                    cat.format_str(
                         "reason-resistor-high-line",
-                        &[
-                            ("watts", Arg::from(w(p_h.0))),
-                            ("pct", Arg::from(fixed(pct_h, 0))),
-                        ],
+                        &[("watts", &w(p_h.0)), ("pct", &fixed(pct_h, 0))],
                     ),
                     verdict.threshold,
                 );
@@ -190,7 +180,7 @@ fn resistor(
             verdict
         }
         _ => Verdict::ok(
-            cat.format("reason-resistor-no-rating", &[("watts", Arg::from(w(p.0)))]),
+            cat.format_str("reason-resistor-no-rating", &[("watts", &w(p.0))]),
             once.text("threshold-no-power-rating", cat),
         ),
     };
@@ -327,17 +317,15 @@ pub(crate) fn screen_resistors(
         else {
             continue;
         };
-        let reference = sr.reference.clone().unwrap_or_else(|| {
-            cat.format("place-screen", &[("valve", Arg::from(&sr.valve.value))])
-        });
+        let reference = sr
+            .reference
+            .clone()
+            .unwrap_or_else(|| cat.format_str("place-screen", &[("valve", &sr.valve.value)]));
         out.push(resistor(
             &reference,
-            cat.format(
+            cat.format_str(
                 "place-to-screen",
-                &[
-                    ("node", Arg::from(&sr.supply.value)),
-                    ("valve", Arg::from(&sr.valve.value)),
-                ],
+                &[("node", &sr.supply.value), ("valve", &sr.valve.value)],
             ),
             sr.value.value,
             sr.rating,

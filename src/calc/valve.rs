@@ -225,18 +225,18 @@ pub(crate) fn analyse(
                     check: "plate_dissipation_high_line",
                     verdict: Verdict::new(
                         Status::Caution,
-                        cat.format(
+                        cat.format_str(
                             "reason-plate-high-line",
                             &[
                                 (
                                     "mains",
-                                    Arg::from(format_engineering(
+                                    &format_engineering(
                                         (nominal * (1.0 + tolerance)).0,
                                         crate::units::QuantityKind::Voltage,
-                                    )),
+                                    ),
                                 ),
-                                ("watts", Arg::from(fixed(pa_h.0, 1))),
-                                ("pct", Arg::from(fixed(pct_h, 0))),
+                                ("watts", &fixed(pa_h.0, 1)),
+                                ("pct", &fixed(pct_h, 0)),
                             ],
                         ),
                         once.text("threshold-plate-high-line", cat),
@@ -276,10 +276,7 @@ pub(crate) fn analyse(
             let rating_words = watts_words_once(max, once);
             // The band has no caution of its own below the rating: say what does decide.
             let threshold = once.words("threshold-screen-dissipation", [max.0, 0.0, 0.0], || {
-                cat.format(
-                    "threshold-screen-dissipation",
-                    &[("rating", Arg::from(&rating_words))],
-                )
+                cat.format_str("threshold-screen-dissipation", &[("rating", &rating_words)])
             });
             let mut verdict = under_rating_judged(
                 pct,
@@ -292,10 +289,7 @@ pub(crate) fn analyse(
             if verdict.status == Status::Ok && pct_h > 100.0 {
                 verdict = Verdict::new(
                     Status::Caution,
-                    cat.format(
-                        "reason-screen-high-line",
-                        &[("pct", Arg::from(fixed(pct_h, 0)))],
-                    ),
+                    cat.format_str("reason-screen-high-line", &[("pct", &fixed(pct_h, 0))]),
                     verdict.threshold,
                 );
             }
@@ -351,39 +345,33 @@ pub(crate) fn analyse(
         let pct = ik / max * 100.0;
         f.cathode_current_pct = Some(pct);
         let threshold = once.words("threshold-cathode-current", [max.0, 0.0, 0.0], || {
-            cat.format(
+            cat.format_str(
                 "threshold-cathode-current",
                 &[(
                     "max",
-                    Arg::from(format_engineering(
-                        max.0,
-                        crate::units::QuantityKind::Current,
-                    )),
+                    &format_engineering(max.0, crate::units::QuantityKind::Current),
                 )],
             )
         });
-        let pct_words = Arg::from(fixed(pct, 0));
+        let pct_words = fixed(pct, 0);
         let verdict = if pct > 100.0 {
             Verdict::new(
                 Status::Over,
-                cat.format(
+                cat.format_str(
                     "reason-cathode-current-over",
                     &[
                         (
                             "current",
-                            Arg::from(format_engineering(
-                                ik.0,
-                                crate::units::QuantityKind::Current,
-                            )),
+                            &format_engineering(ik.0, crate::units::QuantityKind::Current),
                         ),
-                        ("pct", pct_words),
+                        ("pct", &pct_words),
                     ],
                 ),
                 threshold,
             )
         } else {
             Verdict::ok(
-                cat.format("reason-cathode-current", &[("pct", pct_words)]),
+                cat.format_str("reason-cathode-current", &[("pct", &pct_words)]),
                 threshold,
             )
         };
@@ -520,29 +508,24 @@ fn dissipation_verdict(
     } else {
         pa.0 * pct_c / pct
     };
-    let what = format!(
-        "{}{at}{conservative}",
-        cat.format(
-            "reason-plate-dissipation",
-            &[
-                ("watts", Arg::from(fixed(watts, 1))),
-                ("pct", Arg::from(fixed(judged, 0))),
-                ("rating", Arg::from(&rating)),
-            ],
-        )
+    let mut what = cat.format_str(
+        "reason-plate-dissipation",
+        &[
+            ("watts", &fixed(watts, 1)),
+            ("pct", &fixed(judged, 0)),
+            ("rating", &rating),
+        ],
     );
+    what.push_str(&at);
+    what.push_str(conservative);
     if bias == BiasKind::Fixed && is_output {
         let lo = settings.fixed_bias_low * 100.0;
         let hi = settings.fixed_bias_high * 100.0;
         let (lo_w, hi_w) = (fixed(lo, 0), fixed(hi, 0));
         let threshold = once.words("threshold-fixed-bias", [max.0, lo, hi], || {
-            cat.format(
+            cat.format_str(
                 "threshold-fixed-bias",
-                &[
-                    ("low", Arg::from(&lo_w)),
-                    ("high", Arg::from(&hi_w)),
-                    ("rating", Arg::from(&rating)),
-                ],
+                &[("low", &lo_w), ("high", &hi_w), ("rating", &rating)],
             )
         });
         if judged > 100.0 {
@@ -550,24 +533,21 @@ fn dissipation_verdict(
         } else if judged > hi {
             Verdict::new(
                 Status::Caution,
-                format!(
-                    "{what}, {}",
-                    cat.format("reason-above-aim", &[("high", Arg::from(&hi_w))])
+                joined(
+                    what,
+                    &cat.format_str("reason-above-aim", &[("high", &hi_w)]),
                 ),
                 threshold,
             )
         } else if judged < lo {
             Verdict::new(
                 Status::Cold,
-                format!(
-                    "{what}, {}",
-                    cat.format("reason-below-aim", &[("low", Arg::from(&lo_w))])
-                ),
+                joined(what, &cat.format_str("reason-below-aim", &[("low", &lo_w)])),
                 threshold,
             )
         } else {
             Verdict::ok(
-                format!("{what}, {}", once.text("reason-inside-aim", cat)),
+                joined(what, &once.text("reason-inside-aim", cat)),
                 threshold,
             )
         }
@@ -575,12 +555,9 @@ fn dissipation_verdict(
         let caution = settings.cathode_bias_caution * 100.0;
         let caution_w = fixed(caution, 0);
         let threshold = once.words("threshold-cathode-bias", [max.0, caution, 0.0], || {
-            cat.format(
+            cat.format_str(
                 "threshold-cathode-bias",
-                &[
-                    ("caution", Arg::from(&caution_w)),
-                    ("rating", Arg::from(&rating)),
-                ],
+                &[("caution", &caution_w), ("rating", &rating)],
             )
         });
         if judged > 100.0 {
@@ -588,9 +565,9 @@ fn dissipation_verdict(
         } else if judged > caution {
             Verdict::new(
                 Status::Caution,
-                format!(
-                    "{what}, {}",
-                    cat.format("reason-above-guide", &[("caution", Arg::from(&caution_w))])
+                joined(
+                    what,
+                    &cat.format_str("reason-above-guide", &[("caution", &caution_w)]),
                 ),
                 threshold,
             )
@@ -598,6 +575,15 @@ fn dissipation_verdict(
             Verdict::ok(what, threshold)
         }
     }
+}
+
+/// `first, second`: what `format!("{first}, {second}")` writes, on the
+/// first's own string.
+pub(super) fn joined(mut first: String, second: &str) -> String {
+    first.reserve(2 + second.len());
+    first.push_str(", ");
+    first.push_str(second);
+    first
 }
 
 /// A voltage against its published maximum: caution above it (or when the
@@ -617,55 +603,48 @@ fn max_verdict(
         format_engineering(max.0, crate::units::QuantityKind::Voltage)
     });
     let threshold = once.words("threshold-voltage-max", [max.0, factor, 0.0], || {
-        cat.format(
+        cat.format_str(
             "threshold-voltage-max",
-            &[
-                ("max", Arg::from(&max_words)),
-                ("over", Arg::from(fixed(factor * 100.0, 0))),
-            ],
+            &[("max", &max_words), ("over", &fixed(factor * 100.0, 0))],
         )
     });
-    let pct = v / max * 100.0;
-    let v_words = format_engineering(v.0, crate::units::QuantityKind::Voltage);
-    let args = [
-        ("what", Arg::from(what)),
-        ("volts", Arg::from(&v_words)),
-        ("pct", Arg::from(fixed(pct, 0))),
-        ("max", Arg::from(&max_words)),
-    ];
+    let of_max = |key: &str| {
+        let pct = v / max * 100.0;
+        cat.format_str(
+            key,
+            &[
+                ("what", what),
+                (
+                    "volts",
+                    &format_engineering(v.0, crate::units::QuantityKind::Voltage),
+                ),
+                ("pct", &fixed(pct, 0)),
+                ("max", &max_words),
+            ],
+        )
+    };
     if v.0 > max.0 * factor {
-        Verdict::new(
-            Status::Over,
-            cat.format("reason-voltage-of-max", &args),
-            threshold,
-        )
+        Verdict::new(Status::Over, of_max("reason-voltage-of-max"), threshold)
     } else if v.0 > max.0 {
-        Verdict::new(
-            Status::Caution,
-            cat.format("reason-voltage-of-max", &args),
-            threshold,
-        )
+        Verdict::new(Status::Caution, of_max("reason-voltage-of-max"), threshold)
     } else if high.0 > max.0 {
         Verdict::new(
             Status::Caution,
-            cat.format(
+            cat.format_str(
                 "reason-voltage-high-line",
                 &[
-                    ("what", Arg::from(what)),
+                    ("what", what),
                     (
                         "high",
-                        Arg::from(format_engineering(
-                            high.0,
-                            crate::units::QuantityKind::Voltage,
-                        )),
+                        &format_engineering(high.0, crate::units::QuantityKind::Voltage),
                     ),
-                    ("max", Arg::from(&max_words)),
+                    ("max", &max_words),
                 ],
             ),
             threshold,
         )
     } else {
-        Verdict::ok(cat.format("reason-voltage-within", &args), threshold)
+        Verdict::ok(of_max("reason-voltage-within"), threshold)
     }
 }
 

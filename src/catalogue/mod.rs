@@ -213,6 +213,56 @@ enum Piece {
     Argument(Box<str>),
 }
 
+/// A plain pattern's words with text arguments, or `None` when an
+/// argument it names is missing (Fluent then says it). An argument given
+/// twice counts as its last value, as in Fluent's arguments.
+fn say_plain_str(pieces: &[Piece], args: &[(&str, &str)]) -> Option<String> {
+    // Each argument's value found once, for the room and the words (a
+    // message has at most a handful; past eight they are found again).
+    const KEPT: usize = 8;
+    let mut values = [""; KEPT];
+    let mut room = 0;
+    let mut n = 0;
+    for piece in pieces {
+        match piece {
+            Piece::Text(text) => room += text.len(),
+            Piece::Argument(name) => {
+                let value = argument(args, name)?;
+                if n < KEPT {
+                    values[n] = value;
+                }
+                n += 1;
+                room += value.len();
+            }
+        }
+    }
+    let mut words = String::with_capacity(room);
+    let mut n = 0;
+    for piece in pieces {
+        match piece {
+            Piece::Text(text) => words.push_str(text),
+            Piece::Argument(name) => {
+                let value = if n < KEPT {
+                    values[n]
+                } else {
+                    argument(args, name)?
+                };
+                n += 1;
+                words.push_str(value);
+            }
+        }
+    }
+    Some(words)
+}
+
+/// The value of the argument `name` (its last, if given twice).
+fn argument<'a>(args: &[(&str, &'a str)], name: &str) -> Option<&'a str> {
+    // Compared byte by byte: the names are a few letters, shorter than
+    // the call a slice comparison makes.
+    let same = |a: &str| a.len() == name.len() && a.bytes().zip(name.bytes()).all(|(x, y)| x == y);
+    args.iter().rev().find(|(n, _)| same(n)).map(|(_, v)| *v)
+}
+
 /// The pattern as plain pieces, or `None` when Fluent must say it.
 fn plain_pattern(pattern: &fluent_syntax::ast::Pattern<&str>) -> Option<Box<[Piece]>> {
     use fluent_syntax::ast::{Expression, InlineExpression, PatternElement};
@@ -490,6 +540,35 @@ impl Catalogue {
             return Some(words);
         }
         self.fluent_format(part, key, args)
+    }
+
+    /// The message `key` with text arguments only, borrowed: the words
+    /// [`Catalogue::format`] says with each argument as [`Arg::Text`],
+    /// without making a `String` of each argument first (derive says its
+    /// reasons and briefs by the hundred thousand on a long job, most with
+    /// two to four figures in words that it has at hand).
+    pub fn format_str(&self, key: &str, args: &[(&str, &str)]) -> String {
+        self.try_format_str(key, args)
+            .unwrap_or_else(|| format!("[{key}]"))
+    }
+
+    /// [`Catalogue::format_str`], or `None` when there is no such message.
+    pub fn try_format_str(&self, key: &str, args: &[(&str, &str)]) -> Option<String> {
+        let part = self.inner.part(key);
+        if let Pattern::Plain(pieces) = part.patterns.get(key)?
+            && let Some(words) = say_plain_str(pieces, args)
+        {
+            return Some(words);
+        }
+        let bundle = &part.bundle;
+        let pattern = bundle.get_message(key)?.value()?;
+        let mut fargs = FluentArgs::with_capacity(args.len());
+        for (name, value) in args {
+            fargs.set(*name, FluentValue::from(*value));
+        }
+        let mut errors = Vec::new();
+        let words = bundle.format_pattern(pattern, Some(&fargs), &mut errors);
+        Some(words.into_owned())
     }
 
     /// A plain pattern's words, or `None` when an argument it names is

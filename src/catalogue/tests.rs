@@ -635,3 +635,83 @@ fn group_of_is_the_first_words() {
         assert_eq!(group_of(key), split(key), "{key:?}");
     }
 }
+
+/// Text arguments lent ([`Catalogue::format_str`]) say what the same
+/// arguments given as [`Arg::Text`] say: every message of every built-in
+/// catalogue and of a translation read whole, with texts of every kind,
+/// an argument given twice (the last counts), one left out, none, an
+/// argument the message does not use, and a key there is not.
+#[test]
+fn text_arguments_lent_say_what_owned_ones_say() {
+    let texts = [
+        "",
+        "14.6 W",
+        "{ $x }",
+        "$name",
+        "a\nb",
+        "Ωμέγα \u{2068}",
+        "  ",
+        "-3",
+        "1",
+    ];
+    let whole_german = Catalogue::build("de", "de.ftl", GERMAN).unwrap();
+    let mut said = 0;
+    for (text, catalogue) in [
+        (ENGLISH, Catalogue::english().clone()),
+        (GERMAN, Catalogue::built_in("de").unwrap()),
+        (GERMAN, whole_german),
+    ] {
+        for key in message_lines(text)
+            .keys()
+            .map(String::as_str)
+            .chain(["no-such-key"])
+        {
+            let names = if catalogue.inner.part(key).patterns.contains_key(key) {
+                argument_names(&catalogue, key)
+            } else {
+                Vec::new()
+            };
+            let mut cases: Vec<Vec<(&str, &str)>> = Vec::new();
+            for i in 0..texts.len() {
+                cases.push(
+                    names
+                        .iter()
+                        .enumerate()
+                        .map(|(j, n)| (n.as_str(), texts[(i + j) % texts.len()]))
+                        .collect(),
+                );
+            }
+            cases.push(
+                names
+                    .iter()
+                    .flat_map(|n| [(n.as_str(), "first"), (n.as_str(), "last")])
+                    .collect(),
+            );
+            cases.push(names.iter().skip(1).map(|n| (n.as_str(), "x")).collect());
+            cases.push(names.iter().rev().map(|n| (n.as_str(), "r")).collect());
+            cases.push(
+                names
+                    .iter()
+                    .map(|n| (n.as_str(), "y"))
+                    .chain([("unused", "u")])
+                    .collect(),
+            );
+            cases.push(Vec::new());
+            for args in &cases {
+                let owned: Vec<(&str, Arg)> =
+                    args.iter().map(|(n, v)| (*n, Arg::from(*v))).collect();
+                assert_eq!(
+                    catalogue.try_format_str(key, args),
+                    catalogue.try_format(key, &owned),
+                    "{key} {args:?}"
+                );
+                assert_eq!(
+                    catalogue.format_str(key, args),
+                    catalogue.format(key, &owned)
+                );
+                said += 1;
+            }
+        }
+    }
+    assert!(said > 20_000, "{said} cases");
+}
