@@ -1113,7 +1113,7 @@ fn decode_valve_reading(
     extra: &[&str],
 ) -> Option<(ValveReading, Option<Spanned<String>>)> {
     r.no_children(child);
-    let mut keys = vec![
+    const KEYS: &[&str] = &[
         "plate",
         "screen",
         "cathode",
@@ -1124,8 +1124,11 @@ fn decode_valve_reading(
         "method",
         "type",
     ];
-    keys.extend_from_slice(extra);
-    r.check_entries(child, &keys, 1);
+    if extra.is_empty() {
+        r.check_entries(child, KEYS, 1);
+    } else {
+        r.check_entries(child, &[KEYS, extra].concat(), 1);
+    }
     let position = r.req_arg_name(
         child,
         Msg::new("diag-what-valve-position"),

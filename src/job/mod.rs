@@ -81,7 +81,7 @@ fn decode_inner(
         NamedSource::new(name, Arc::new(text.to_string())).with_language("kdl"),
     );
     let mut problems = Vec::new();
-    let job = match crate::kdl_fast::parse_document(text) {
+    let job = match crate::kdl_fast::parse_document_bare(text) {
         Ok(doc) => {
             let mut reader = reader::Reader::new(text);
             let job = decode::decode_document(&doc, name, defaults, &mut reader);

@@ -326,10 +326,9 @@ impl<'s> Reader<'s> {
         &mut self,
         entry: &KdlEntry,
         kind: QuantityKind,
-        what: impl Into<Arg>,
+        what: impl Into<Arg> + Clone,
     ) -> Option<Spanned<f64>> {
-        let what: Arg = what.into();
-        self.quantity_with(entry, kind, || what.clone())
+        self.quantity_with(entry, kind, || what.clone().into())
     }
 
     /// [`Reader::quantity`] with the words for what the value is made only
@@ -489,24 +488,10 @@ impl<'s> Reader<'s> {
     }
 
     // ----- convenience: required / optional entries -----------------------
-
-    /// Reads `entry` with `read`, or reports that the node lacks `what`.
-    fn required<T>(
-        &mut self,
-        node: &KdlNode,
-        entry: Option<&KdlEntry>,
-        what: Arg,
-        example: Arg,
-        read: impl FnOnce(&mut Self, &KdlEntry) -> Option<T>,
-    ) -> Option<T> {
-        match entry {
-            Some(e) => read(self, e),
-            None => {
-                self.missing(node, what, example);
-                None
-            }
-        }
-    }
+    //
+    // The words for what is read (`what`, the example, "`key`") are made
+    // only when a problem is reported: a long job reads tens of thousands
+    // of entries, and each made them before.
 
     pub fn req_arg_string(
         &mut self,
@@ -514,14 +499,13 @@ impl<'s> Reader<'s> {
         what: impl Into<Arg>,
         example: impl Into<Arg>,
     ) -> Option<Spanned<String>> {
-        let what: Arg = what.into();
-        self.required(
-            node,
-            Self::arg(node, 0),
-            what.clone(),
-            example.into(),
-            |r, e| r.string(e, what),
-        )
+        match Self::arg(node, 0) {
+            Some(e) => self.string(e, what),
+            None => {
+                self.missing(node, what.into(), example.into());
+                None
+            }
+        }
     }
 
     pub fn req_arg_name(
@@ -530,14 +514,19 @@ impl<'s> Reader<'s> {
         what: impl Into<Arg>,
         example: impl Into<Arg>,
     ) -> Option<Spanned<String>> {
-        let what: Arg = what.into();
-        self.required(
-            node,
-            Self::arg(node, 0),
-            what.clone(),
-            example.into(),
-            |r, e| r.name(e, what),
-        )
+        match Self::arg(node, 0) {
+            Some(e) => self.name(e, what),
+            None => {
+                self.missing(node, what.into(), example.into());
+                None
+            }
+        }
+    }
+
+    /// Reports that `node` lacks the property `key`.
+    fn missing_prop(&mut self, node: &KdlNode, key: &str, example: Arg) {
+        let what = Msg::new("diag-a-property").arg("key", key).into();
+        self.missing(node, what, example);
     }
 
     pub fn req_prop_string(
@@ -546,15 +535,18 @@ impl<'s> Reader<'s> {
         key: &str,
         example: impl Into<Arg>,
     ) -> Option<Spanned<String>> {
-        let what = Msg::new("diag-a-property").arg("key", key).into();
-        self.required(node, Self::prop(node, key), what, example.into(), |r, e| {
-            r.string(e, format!("`{key}`"))
-        })
+        match Self::prop(node, key) {
+            Some(e) => self.string(e, Backticked(key)),
+            None => {
+                self.missing_prop(node, key, example.into());
+                None
+            }
+        }
     }
 
     pub fn opt_prop_string(&mut self, node: &KdlNode, key: &str) -> Option<String> {
         Self::prop(node, key)
-            .and_then(|e| self.string(e, format!("`{key}`")))
+            .and_then(|e| self.string(e, Backticked(key)))
             .map(|s| s.value)
     }
 
@@ -564,10 +556,13 @@ impl<'s> Reader<'s> {
         key: &str,
         example: &str,
     ) -> Option<Spanned<String>> {
-        let what = Msg::new("diag-a-property").arg("key", key).into();
-        self.required(node, Self::prop(node, key), what, example.into(), |r, e| {
-            r.name(e, format!("`{key}`"))
-        })
+        match Self::prop(node, key) {
+            Some(e) => self.name(e, Backticked(key)),
+            None => {
+                self.missing_prop(node, key, example.into());
+                None
+            }
+        }
     }
 
     pub fn req_prop_quantity(
@@ -577,10 +572,13 @@ impl<'s> Reader<'s> {
         kind: QuantityKind,
         example: &str,
     ) -> Option<Spanned<f64>> {
-        let what = Msg::new("diag-a-property").arg("key", key).into();
-        self.required(node, Self::prop(node, key), what, example.into(), |r, e| {
-            r.quantity(e, kind, format!("`{key}`"))
-        })
+        match Self::prop(node, key) {
+            Some(e) => self.quantity_with(e, kind, || Backticked(key).into()),
+            None => {
+                self.missing_prop(node, key, example.into());
+                None
+            }
+        }
     }
 
     pub fn opt_prop_quantity(
@@ -589,16 +587,15 @@ impl<'s> Reader<'s> {
         key: &str,
         kind: QuantityKind,
     ) -> Option<Spanned<f64>> {
-        Self::prop(node, key)
-            .and_then(|e| self.quantity_with(e, kind, || format!("`{key}`").into()))
+        Self::prop(node, key).and_then(|e| self.quantity_with(e, kind, || Backticked(key).into()))
     }
 
     pub fn opt_prop_bool(&mut self, node: &KdlNode, key: &str) -> Option<bool> {
-        Self::prop(node, key).and_then(|e| self.bool(e, format!("`{key}`")))
+        Self::prop(node, key).and_then(|e| self.bool(e, Backticked(key)))
     }
 
     pub fn opt_prop_date(&mut self, node: &KdlNode, key: &str) -> Option<Spanned<NaiveDate>> {
-        Self::prop(node, key).and_then(|e| self.date(e, format!("`{key}`")))
+        Self::prop(node, key).and_then(|e| self.date(e, Backticked(key)))
     }
 
     /// Rejects a value outside `lo..=hi`, a narrower range than its kind's
@@ -665,6 +662,16 @@ impl<'s> Reader<'s> {
             return None;
         }
         Some(v)
+    }
+}
+
+/// A property's key as the words for what it holds, "`key`", made into
+/// text only when a problem names it.
+struct Backticked<'k>(&'k str);
+
+impl From<Backticked<'_>> for Arg {
+    fn from(key: Backticked<'_>) -> Arg {
+        format!("`{}`", key.0).into()
     }
 }
 

@@ -31,38 +31,54 @@ pub use depth::{Depths, TooDeep, measure, too_deep};
 pub fn parse_document(text: &str) -> Result<KdlDocument, KdlError> {
     match parse_fast(text) {
         Some(doc) => Ok(doc),
-        None => match measure(text) {
-            // The `kdl` crate's parser recurses once per nesting level (of
-            // blocks, of `/* */` comments, of `/-` comments in a row) and
-            // overflows the stack on very deep input; refuse it here.
-            Depths {
-                too_deep: Some(deep),
-                ..
-            } => Err(KdlError {
+        None => parse_declined(text),
+    }
+}
+
+/// [`parse_document`] for a reader that looks only at names, types, values
+/// and spans (a job file's decode): the fast parser's entries carry no
+/// format, so no copy of each value as written is made (nor freed). Text
+/// the fast parser declines is parsed as by [`parse_document`].
+pub fn parse_document_bare(text: &str) -> Result<KdlDocument, KdlError> {
+    match parser::Parser::with_reprs(text, false).document() {
+        Ok(doc) => Ok(doc),
+        Err(_) => parse_declined(text),
+    }
+}
+
+/// What [`parse_document`] gives for a text the fast parser declined.
+fn parse_declined(text: &str) -> Result<KdlDocument, KdlError> {
+    match measure(text) {
+        // The `kdl` crate's parser recurses once per nesting level (of
+        // blocks, of `/* */` comments, of `/-` comments in a row) and
+        // overflows the stack on very deep input; refuse it here.
+        Depths {
+            too_deep: Some(deep),
+            ..
+        } => Err(KdlError {
+            input: std::sync::Arc::new(text.to_string()),
+            diagnostics: vec![kdl::KdlDiagnostic {
                 input: std::sync::Arc::new(text.to_string()),
-                diagnostics: vec![kdl::KdlDiagnostic {
-                    input: std::sync::Arc::new(text.to_string()),
-                    span: deep_span(text, deep.offset),
-                    message: Some(deep.kind.message()),
-                    label: Some("too deep".to_string()),
-                    help: Some(deep.kind.help().to_string()),
-                    severity: miette::Severity::Error,
-                }],
-            }),
-            // Its error recovery takes several times as long for each
-            // further level of blocks (more still for `/-` blocks), and
-            // falls over on a large broken text: only the first error,
-            // found in linear time.
-            Depths {
-                dashed_blocks,
-                blocks,
-                ..
-            } if dashed_blocks > MAX_FALLBACK_DASHED_BLOCKS || blocks > MAX_FALLBACK_BLOCKS => {
-                Err(first_break(text, FirstBreakWhy::Nesting))
-            }
-            _ if text.len() > MAX_FALLBACK_SIZE => Err(first_break(text, FirstBreakWhy::Size)),
-            _ => KdlDocument::parse(text),
-        },
+                span: deep_span(text, deep.offset),
+                message: Some(deep.kind.message()),
+                label: Some("too deep".to_string()),
+                help: Some(deep.kind.help().to_string()),
+                severity: miette::Severity::Error,
+            }],
+        }),
+        // Its error recovery takes several times as long for each
+        // further level of blocks (more still for `/-` blocks), and
+        // falls over on a large broken text: only the first error,
+        // found in linear time.
+        Depths {
+            dashed_blocks,
+            blocks,
+            ..
+        } if dashed_blocks > MAX_FALLBACK_DASHED_BLOCKS || blocks > MAX_FALLBACK_BLOCKS => {
+            Err(first_break(text, FirstBreakWhy::Nesting))
+        }
+        _ if text.len() > MAX_FALLBACK_SIZE => Err(first_break(text, FirstBreakWhy::Size)),
+        _ => KdlDocument::parse(text),
     }
 }
 

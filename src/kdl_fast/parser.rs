@@ -43,6 +43,9 @@ pub(super) struct Parser<'a> {
     /// An empty entry with empty formatting, cloned for each entry read, so
     /// that entries are filled in where they lie.
     blank_entry: KdlEntry,
+    /// Whether each entry keeps its value as written (its format's
+    /// `value_repr`); without it an entry has no format at all.
+    reprs: bool,
 }
 
 pub(super) fn span(start: usize, end: usize) -> SourceSpan {
@@ -59,6 +62,13 @@ pub(super) struct Value<'a> {
 
 impl<'a> Parser<'a> {
     pub(super) fn new(src: &'a str) -> Self {
+        Self::with_reprs(src, true)
+    }
+
+    /// A parser whose entries keep their values as written (`reprs`) or
+    /// have no format at all, for readers that look only at names, values
+    /// and spans.
+    pub(super) fn with_reprs(src: &'a str, reprs: bool) -> Self {
         let mut blank = KdlNode::new("");
         blank.clear_format();
         let mut blank_entry = KdlEntry::new(KdlValue::Null);
@@ -72,6 +82,7 @@ impl<'a> Parser<'a> {
             nodes: Vec::new(),
             blank,
             blank_entry,
+            reprs,
         }
     }
 
@@ -366,7 +377,11 @@ impl<'a> Parser<'a> {
             (None, value)
         };
         let at = self.entries.len();
-        self.entries.push(self.blank_entry.clone());
+        if self.reprs {
+            self.entries.push(self.blank_entry.clone());
+        } else {
+            self.entries.push(KdlEntry::new(KdlValue::Null));
+        }
         let entry = &mut self.entries[at];
         entry.set_value(value.value);
         if name.is_some() {

@@ -551,3 +551,91 @@ fn a_broken_text_with_deep_dashed_blocks_gets_its_first_error_only() {
             .contains("only the first syntax error")
     }));
 }
+
+/// Walks two documents and says where they differ in anything but the
+/// entries' formats: names, types, values, spans and children.
+fn same_but_formats(path: &str, a: &KdlDocument, b: &KdlDocument) -> Result<(), String> {
+    if a.span() != b.span() || a.nodes().len() != b.nodes().len() {
+        return Err(format!("{path}: span or node count"));
+    }
+    for (i, (x, y)) in a.nodes().iter().zip(b.nodes()).enumerate() {
+        let path = format!("{path}/{i}:{}", y.name().value());
+        let ident = |p: Option<&kdl::KdlIdentifier>| p.map(|p| (p.value().to_string(), p.span()));
+        if x.span() != y.span()
+            || ident(Some(x.name())) != ident(Some(y.name()))
+            || ident(x.ty()) != ident(y.ty())
+            || x.entries().len() != y.entries().len()
+        {
+            return Err(format!("{path}: node"));
+        }
+        for (j, (e, f)) in x.entries().iter().zip(y.entries()).enumerate() {
+            if e.value() != f.value()
+                || e.span() != f.span()
+                || ident(e.name()) != ident(f.name())
+                || ident(e.ty()) != ident(f.ty())
+            {
+                return Err(format!("{path}[{j}]: entry"));
+            }
+        }
+        match (x.children(), y.children()) {
+            (None, None) => {}
+            (Some(c), Some(d)) => same_but_formats(&path, c, d)?,
+            _ => return Err(format!("{path}: children")),
+        }
+    }
+    Ok(())
+}
+
+#[test]
+fn the_bare_parse_is_the_full_one_without_the_entries_formats() {
+    let root = std::path::Path::new(env!("CARGO_MANIFEST_DIR"));
+    let mut texts: Vec<String> = Vec::new();
+    for dir in ["jobs", "ratings", "tests/fuzz-corpus"] {
+        let mut paths: Vec<_> = std::fs::read_dir(root.join(dir))
+            .unwrap()
+            .map(|e| e.unwrap().path())
+            .filter(|p| p.extension().is_some_and(|x| x == "kdl" || x == "txt"))
+            .collect();
+        paths.sort();
+        texts.extend(paths.iter().map(|p| std::fs::read_to_string(p).unwrap()));
+    }
+    assert!(texts.len() > 15, "{}", texts.len());
+    texts.extend(
+        [
+            "n (t)1 (u)\"x\" k=(v)#true \"q\"=r ##\"raw\"## 0x1F 1.5e3 #null",
+            "a { b 1; c d=\"e\\n\" { f } }\n/- g 2\nh /- 3 4 /- { i }",
+            "n \"\"\"\n  multi\n  \"\"\" k=#inf\n",
+            "broken {",
+            "n k=",
+        ]
+        .map(str::to_string),
+    );
+    let mut fast_ones = 0;
+    for text in &texts {
+        match (super::parse_document_bare(text), parse_document(text)) {
+            (Ok(bare), Ok(full)) => {
+                same_but_formats("", &bare, &full).unwrap_or_else(|e| panic!("{e} in {text:?}"));
+                if parse_fast(text).is_some() {
+                    fast_ones += 1;
+                    let mut formats = Vec::new();
+                    let mut stack = vec![&bare];
+                    while let Some(doc) = stack.pop() {
+                        for node in doc.nodes() {
+                            formats.extend(node.entries().iter().map(|e| e.format().is_some()));
+                            stack.extend(node.children());
+                        }
+                    }
+                    assert!(formats.iter().all(|&f| !f), "{text:?}");
+                }
+            }
+            (Err(a), Err(b)) => {
+                assert_eq!(a.diagnostics.len(), b.diagnostics.len());
+                for (x, y) in a.diagnostics.iter().zip(&b.diagnostics) {
+                    assert_eq!((x.span, &x.message), (y.span, &y.message));
+                }
+            }
+            (a, b) => panic!("{text:?}: {:?} against {:?}", a.is_ok(), b.is_ok()),
+        }
+    }
+    assert!(fast_ones > 10, "{fast_ones}");
+}

@@ -127,6 +127,54 @@ fn trailing_symbol(text: &str) -> Option<(QuantityKind, &'static str)> {
 /// Accepted forms: `352`, `352V`, `38.5 mV`, `470k`, `4k7`, `4R7`, `R47`,
 /// `2M2`, `0.0047u`, `4n7`, `p68`, `22µF` (µ U+00B5, μ U+03BC or `u`).
 pub fn parse_quantity(text: &str, expected: QuantityKind) -> Result<f64, UnitError> {
+    if let Some(v) = plain_reading(text, expected) {
+        return Ok(v);
+    }
+    parse_quantity_steps(text, expected)
+}
+
+/// The form most readings take, `465.5V` or `38`: ASCII digits, at most
+/// one `.` with digits on both sides, then nothing or the one-character
+/// symbol of the expected kind (a symbol no longer symbol of any kind
+/// ends with). What [`parse_quantity_steps`] gives for such a text is the
+/// standard library's reading of the digits, so that is returned at once;
+/// anything else (space, a sign, a prefix, RKM, another unit, a value too
+/// large to be finite) is `None` and takes the steps.
+fn plain_reading(text: &str, expected: QuantityKind) -> Option<f64> {
+    let bytes = text.as_bytes();
+    let symbol = match expected {
+        QuantityKind::Voltage => b'V',
+        QuantityKind::Current => b'A',
+        QuantityKind::Power => b'W',
+        QuantityKind::Capacitance => b'F',
+        QuantityKind::Inductance => b'H',
+        QuantityKind::Percent => b'%',
+        QuantityKind::Resistance | QuantityKind::Frequency => 0,
+    };
+    let digits = match bytes.last() {
+        Some(&b) if b == symbol && symbol != 0 => &bytes[..bytes.len() - 1],
+        _ => bytes,
+    };
+    let mut dot = None;
+    for (i, &b) in digits.iter().enumerate() {
+        match b {
+            b'0'..=b'9' => {}
+            b'.' if dot.is_none() => dot = Some(i),
+            _ => return None,
+        }
+    }
+    if digits.is_empty() || dot.is_some_and(|d| d == 0 || d + 1 == digits.len()) {
+        return None;
+    }
+    // Only ASCII digits and a dot: a str, and a decimal `f64::from_str` reads.
+    let number = std::str::from_utf8(digits).ok()?;
+    let v: f64 = number.parse().ok()?;
+    v.is_finite().then_some(v)
+}
+
+/// [`parse_quantity`] step by step: the symbol, then the SI prefix or RKM
+/// code, each checked.
+fn parse_quantity_steps(text: &str, expected: QuantityKind) -> Result<f64, UnitError> {
     let lead = text.len() - text.trim_start().len();
     let body = text.trim();
     if body.is_empty() {
@@ -378,5 +426,81 @@ mod tests {
             );
         }
         assert!(parse_quantity("1e400", Voltage).is_err());
+    }
+
+    /// The plain reading's shortcut gives what the steps give, to the bit
+    /// and error for error, over texts built from the pieces readings are
+    /// made of (digits, dots, signs, exponents, spaces, prefixes, RKM
+    /// letters, every kind's symbols and stray characters) and random ones.
+    #[test]
+    fn plain_readings_are_read_as_the_steps_read_them() {
+        // No symbol of any kind is longer and ends with one the shortcut
+        // takes: it would win as the longest symbol.
+        for short in ["V", "A", "W", "F", "H", "%"] {
+            for kind in QuantityKind::ALL {
+                for sym in kind.symbols() {
+                    assert!(
+                        *sym == short || !sym.ends_with(short),
+                        "{sym} ends with {short}"
+                    );
+                }
+            }
+        }
+        let same = |text: &str| {
+            for kind in QuantityKind::ALL {
+                let fast = parse_quantity(text, kind);
+                let slow = parse_quantity_steps(text, kind);
+                match (&fast, &slow) {
+                    (Ok(a), Ok(b)) => assert_eq!(a.to_bits(), b.to_bits(), "{text:?} {kind:?}"),
+                    _ => assert_eq!(fast, slow, "{text:?} {kind:?}"),
+                }
+            }
+        };
+        let numbers = [
+            "",
+            "0",
+            "7",
+            "38",
+            "465.5",
+            "0.001",
+            ".5",
+            "5.",
+            "1.2.3",
+            "007",
+            "-3",
+            "+4.5",
+            "1e3",
+            "2.5E-2",
+            "1e400",
+            "12345678901234567890.123456789",
+            &"9".repeat(320),
+        ];
+        let tails = [
+            "", "V", "A", "W", "F", "H", "%", "Hz", "R", "\u{3a9}", "ohm", "Vdc", "VAC", "k", "m",
+            "u", "\u{b5}", "kV", "mA", " V", "V ", "x", "VV", "AV", "z", "7", "k7", ".",
+        ];
+        for n in numbers {
+            for t in tails {
+                same(&format!("{n}{t}"));
+                same(&format!(" {n}{t}"));
+                same(&format!("{t}{n}"));
+            }
+        }
+        // Random texts over the characters readings use.
+        let alphabet: Vec<char> = "0123456789.VAWFH%zRkmuµ e+-Ω ".chars().collect();
+        let mut state = 0x2545_f491_4f6c_dd1du64;
+        for _ in 0..30_000 {
+            state ^= state << 13;
+            state ^= state >> 7;
+            state ^= state << 17;
+            let len = (state % 9) as usize;
+            let mut text = String::new();
+            let mut bits = state;
+            for _ in 0..len {
+                bits = bits.rotate_left(7) ^ 0x9e37_79b9_7f4a_7c15;
+                text.push(alphabet[(bits % alphabet.len() as u64) as usize]);
+            }
+            same(&text);
+        }
     }
 }
