@@ -495,15 +495,8 @@ fn svg_needs_cjk(text: &str) -> bool {
 }
 
 /// Whether every `font-family` of an SVG (attribute or style) names Noto
-/// Sans alone, and there is at least one.
-#[cfg(test)]
-fn names_only_noto_sans(text: &str) -> bool {
-    let starts: Vec<usize> = memchr::memmem::find_iter(text.as_bytes(), b"font-family").collect();
-    names_only_noto_sans_at(text, &starts)
-}
-
-/// [`names_only_noto_sans`] with the places where `font-family` begins
-/// in `text` found already (all of them, in order).
+/// Sans alone, and there is at least one, given the places where
+/// `font-family` begins in `text` (all of them, in order).
 fn names_only_noto_sans_at(text: &str, starts: &[usize]) -> bool {
     if starts.is_empty() {
         return false;
