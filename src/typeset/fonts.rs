@@ -7,7 +7,7 @@ use std::io;
 use std::path::{Path, PathBuf};
 
 use super::error::TypesetError;
-use super::sandbox::Sandbox;
+use super::sandbox::{FileContents, Sandbox};
 
 /// The folder, inside a typesetting sandbox, that holds the fonts.
 pub const FONT_DIR: &str = "fonts";
@@ -351,10 +351,14 @@ fn body_takes_cjk(c: char) -> bool {
 ///
 /// What typst writes itself (page numbers, smart quotes for English and
 /// German, the hyphen) is in every Noto face.
+///
+/// A file handed over as text ([`FileContents::Text`]) is UTF-8 already,
+/// and is read as it is rather than checked again.
 pub fn needs_cjk(sandbox: &Sandbox) -> bool {
-    sandbox
-        .files()
-        .any(|(path, bytes)| file_needs_cjk(path, bytes))
+    sandbox.contents().any(|(path, contents)| match contents {
+        FileContents::Text(text) => text_needs_cjk(path, text),
+        FileContents::Bytes(bytes) => file_needs_cjk(path, bytes),
+    })
 }
 
 /// The lower-case extension of a sandbox path ("" for none).
@@ -380,6 +384,14 @@ fn file_needs_cjk(path: &str, bytes: &[u8]) -> bool {
     let Ok(text) = std::str::from_utf8(bytes) else {
         return true;
     };
+    text_needs_cjk(path, text)
+}
+
+/// [`file_needs_cjk`] for a file known to be UTF-8.
+fn text_needs_cjk(path: &str, text: &str) -> bool {
+    if is_raster_image(path) {
+        return false;
+    }
     match extension(path).as_str() {
         "typ" => typst_needs_cjk(text),
         "svg" => svg_needs_cjk(text),
@@ -389,19 +401,32 @@ fn file_needs_cjk(path: &str, bytes: &[u8]) -> bool {
 
 /// Whether `test` holds for some character of `text` outside ASCII
 /// (for which [`in_table`] is always false), reading the ASCII runs
-/// eight bytes at a time rather than as characters: a document's
+/// 32 and 8 bytes at a time rather than as characters: a document's
 /// sources are almost all ASCII, and decoding them character by
-/// character was a twentieth of a render's own instructions.
+/// character was a twentieth of a render's own instructions. The few
+/// characters beyond ASCII a document uses come again and again (the
+/// no-break space, the dash, the ohm sign), so the last ones `test`
+/// turned down are remembered, one for each of 16 slots by the
+/// character's lowest bits, and not tested again: `test` must answer the
+/// same for the same character.
 fn any_beyond_ascii(text: &str, test: impl Fn(char) -> bool) -> bool {
     const HIGH_BITS: u64 = 0x8080_8080_8080_8080;
+    let word = |bytes: &[u8], at: usize| {
+        u64::from_ne_bytes(bytes[at..at + 8].try_into().expect("eight bytes"))
+    };
     let bytes = text.as_bytes();
+    // Characters `test` turned down; '\0' (ASCII, never tested) for none.
+    let mut cleared = ['\0'; 16];
     let mut at = 0;
     loop {
-        while let Some(word) = bytes.get(at..at + 8) {
-            let word = u64::from_ne_bytes(word.try_into().expect("eight bytes"));
-            if word & HIGH_BITS != 0 {
-                break;
-            }
+        while at + 32 <= bytes.len()
+            && (word(bytes, at) | word(bytes, at + 8) | word(bytes, at + 16) | word(bytes, at + 24))
+                & HIGH_BITS
+                == 0
+        {
+            at += 32;
+        }
+        while at + 8 <= bytes.len() && word(bytes, at) & HIGH_BITS == 0 {
             at += 8;
         }
         match bytes[at..].iter().position(|b| !b.is_ascii()) {
@@ -411,8 +436,12 @@ fn any_beyond_ascii(text: &str, test: impl Fn(char) -> bool) -> bool {
         // A byte outside ASCII after ASCII or after a whole character
         // begins a character.
         let c = text[at..].chars().next().expect("a character begins here");
-        if test(c) {
-            return true;
+        let slot = &mut cleared[u32::from(c) as usize % 16];
+        if *slot != c {
+            if test(c) {
+                return true;
+            }
+            *slot = c;
         }
         at += c.len_utf8();
     }
@@ -420,10 +449,13 @@ fn any_beyond_ascii(text: &str, test: impl Fn(char) -> bool) -> bool {
 
 /// [`needs_cjk`] for one Typst source.
 fn typst_needs_cjk(text: &str) -> bool {
-    if ["sym.", "emoji.", "symbol(", "from-unicode"]
-        .iter()
-        .any(|name| has(text, name))
-    {
+    // `sym.` and `symbol(` found as `sym` with what follows it: one
+    // search of a megabytes-long source rather than two.
+    let names_symbols = memchr::memmem::find_iter(text.as_bytes(), b"sym").any(|at| {
+        let rest = &text.as_bytes()[at + 3..];
+        rest.starts_with(b".") || rest.starts_with(b"bol(")
+    });
+    if names_symbols || has(text, "emoji.") || has(text, "from-unicode") {
         return true;
     }
     any_beyond_ascii(text, body_takes_cjk)
@@ -436,7 +468,19 @@ fn svg_needs_cjk(text: &str) -> bool {
     if !has(text, "<text") && !has(text, ":text") {
         return false;
     }
-    if has(text, "font:") || !names_only_noto_sans(text) {
+    // `font:` and `font-family` found in one search for `font` (neither
+    // word can overlap another of its kind, so every one is found).
+    let mut families = Vec::new();
+    for at in memchr::memmem::find_iter(text.as_bytes(), b"font") {
+        let rest = &text.as_bytes()[at + 4..];
+        if rest.starts_with(b":") {
+            return true;
+        }
+        if rest.starts_with(b"-family") {
+            families.push(at);
+        }
+    }
+    if !names_only_noto_sans_at(text, &families) {
         return true;
     }
     let table = CJK_IN_SVG;
@@ -451,13 +495,18 @@ fn svg_needs_cjk(text: &str) -> bool {
 }
 
 /// Whether every `font-family` of an SVG (attribute or style) names Noto
-/// Sans alone, and there is at least one.
-fn names_only_noto_sans(text: &str) -> bool {
-    let mut parts = pieces_after(text, "font-family").peekable();
-    if parts.peek().is_none() {
+/// Sans alone, and there is at least one, given the places where
+/// `font-family` begins in `text` (all of them, in order).
+fn names_only_noto_sans_at(text: &str, starts: &[usize]) -> bool {
+    if starts.is_empty() {
         return false;
     }
-    parts.all(|rest| {
+    const NEEDLE: usize = "font-family".len();
+    let mut pieces = starts.iter().enumerate().filter_map(|(i, &start)| {
+        let end = starts.get(i + 1).copied().unwrap_or(text.len());
+        text.get(start + NEEDLE..end)
+    });
+    pieces.all(|rest| {
         let rest = rest.trim_start();
         let value = if let Some(attribute) = rest.strip_prefix('=') {
             let attribute = attribute.trim_start();
@@ -505,12 +554,21 @@ pub fn fit_fonts(sandbox: &mut Sandbox, main: &str) -> Result<bool, TypesetError
     // a new string would copy (growing as it goes). Only a UTF-8 source
     // is changed; `needs_cjk` found every file UTF-8 but a raster image's,
     // so only a main source named as one is read again.
-    if let Some(source) = sandbox.get_mut(main)
-        && (!is_raster_image(main) || std::str::from_utf8(source).is_ok())
-        && let Some(at) = memchr::memmem::find(source, full.as_bytes())
-    {
-        let lean = font_rules_without_cjk();
-        source.splice(at..at + full.len(), lean.bytes());
+    match sandbox.get_mut(main) {
+        Some(FileContents::Text(source)) => {
+            if let Some(at) = memchr::memmem::find(source.as_bytes(), full.as_bytes()) {
+                source.replace_range(at..at + full.len(), &font_rules_without_cjk());
+            }
+        }
+        Some(FileContents::Bytes(source)) => {
+            if (!is_raster_image(main) || std::str::from_utf8(source).is_ok())
+                && let Some(at) = memchr::memmem::find(source, full.as_bytes())
+            {
+                let lean = font_rules_without_cjk();
+                source.splice(at..at + full.len(), lean.bytes());
+            }
+        }
+        None => {}
     }
     Ok(false)
 }
@@ -881,6 +939,169 @@ mod tests {
                 let split: Vec<&str> = text.split(needle).skip(1).collect();
                 assert_eq!(ours, split, "{text:?} {needle:?}");
             }
+        }
+    }
+
+    /// The Typst and SVG checks as they were made before they searched
+    /// for `sym` and `font` once: each word in a search of its own, the
+    /// families after `split("font-family")`, every character tested.
+    fn typst_needs_cjk_by_passes(text: &str) -> bool {
+        ["sym.", "emoji.", "symbol(", "from-unicode"]
+            .iter()
+            .any(|name| text.contains(name))
+            || text.chars().any(|c| !c.is_ascii() && body_takes_cjk(c))
+            || text
+                .split("\\u{")
+                .skip(1)
+                .any(|rest| escaped_char(rest, '}', 16).is_none_or(body_takes_cjk))
+    }
+
+    fn svg_needs_cjk_by_passes(text: &str) -> bool {
+        if !text.contains("<text") && !text.contains(":text") {
+            return false;
+        }
+        let mut families = text.split("font-family").skip(1).peekable();
+        if text.contains("font:") || families.peek().is_none() {
+            return true;
+        }
+        let only_noto_sans = families.all(|rest| {
+            let rest = rest.trim_start();
+            let value = if let Some(attribute) = rest.strip_prefix('=') {
+                let attribute = attribute.trim_start();
+                let Some(quote) = attribute.chars().next().filter(|q| matches!(q, '"' | '\''))
+                else {
+                    return false;
+                };
+                attribute[1..].split(quote).next().unwrap_or_default()
+            } else if let Some(style) = rest.strip_prefix(':') {
+                style.split([';', '"', '}']).next().unwrap_or_default()
+            } else {
+                return false;
+            };
+            value.split(',').all(|family| {
+                let family = family.trim().trim_matches(['"', '\'']);
+                family.replace("&quot;", "").replace("&apos;", "").trim() == TEXT_FAMILIES[0]
+            })
+        });
+        if !only_noto_sans {
+            return true;
+        }
+        text.chars().any(|c| in_table(CJK_IN_SVG, c))
+            || text.split("&#").skip(1).any(|rest| {
+                let (digits, radix) = match rest.strip_prefix(['x', 'X']) {
+                    Some(hex) => (hex, 16),
+                    None => (rest, 10),
+                };
+                escaped_char(digits, ';', radix).is_none_or(|c| in_table(CJK_IN_SVG, c))
+            })
+    }
+
+    /// The checks of a Typst source and of an SVG answer as the checks
+    /// made word by word and character by character do, on 60,000 random
+    /// texts of the words they look for, their pieces and look-alikes,
+    /// and characters that the CJK face alone has and that it does not
+    /// (the same ones again and again, as the remembered answers of
+    /// `any_beyond_ascii` meet them).
+    #[test]
+    fn one_search_for_several_words_answers_as_a_search_for_each() {
+        let mut state = 0x9e37_79b9_7f4a_7c15_u64;
+        let mut next = || {
+            state ^= state << 13;
+            state ^= state >> 7;
+            state ^= state << 17;
+            state
+        };
+        const POOL: &[&str] = &[
+            "sym",
+            "sym.",
+            "bol(",
+            "symbol(",
+            "sy",
+            "m.",
+            "emoji.",
+            "emoji",
+            "from-unicode",
+            "from-",
+            "unicode",
+            "\\u{",
+            "4e2d}",
+            "41}",
+            "}",
+            "<text",
+            "<text>",
+            ":text",
+            "font",
+            "font:",
+            "font-family",
+            "-family",
+            "=",
+            ":",
+            "\"",
+            "'",
+            "Noto Sans",
+            "Noto Serif",
+            "&quot;",
+            "&#",
+            "&#x4e2d;",
+            "&#65;",
+            ";",
+            ",",
+            " ",
+            "\u{3000}",
+            "x",
+            "µ",
+            "Ω",
+            "–",
+            "日",
+            "中",
+            "√",
+            "≤",
+            "\u{a0}",
+            "é",
+            "\u{1f600}",
+            "abcdefghijklmnopqrstuvwxyz0123",
+        ];
+        let mut seen = [[0usize; 2]; 2];
+        for _ in 0..60_000 {
+            let text: String = (0..next() % 40)
+                .map(|_| POOL[(next() % POOL.len() as u64) as usize])
+                .collect();
+            let typst = typst_needs_cjk(&text);
+            assert_eq!(typst, typst_needs_cjk_by_passes(&text), "{text:?}");
+            let svg = svg_needs_cjk(&text);
+            assert_eq!(svg, svg_needs_cjk_by_passes(&text), "{text:?}");
+            seen[0][usize::from(typst)] += 1;
+            seen[1][usize::from(svg)] += 1;
+        }
+        // Both answers came up often for both kinds of file.
+        assert!(seen.iter().flatten().all(|&n| n > 1_000), "{seen:?}");
+    }
+
+    /// Text and bytes of the same file are the same file, and the check
+    /// reads a text file as it reads the same bytes.
+    #[test]
+    fn text_and_bytes_of_a_file_are_checked_alike() {
+        for (path, text) in [
+            ("main.typ", "plain"),
+            ("main.typ", "日本"),
+            ("main.typ", "#sym.arrow"),
+            (
+                "plots/a.svg",
+                "<svg><text font-family=\"Noto Sans\">中</text></svg>",
+            ),
+            (
+                "plots/a.svg",
+                "<svg><text font-family=\"Noto Sans\">Ω</text></svg>",
+            ),
+            ("notes.txt", "日"),
+            ("a.png", "日"),
+        ] {
+            let mut as_text = Sandbox::new();
+            as_text.insert(path, text).unwrap();
+            let mut as_bytes = Sandbox::new();
+            as_bytes.insert(path, text.as_bytes().to_vec()).unwrap();
+            assert_eq!(as_text, as_bytes);
+            assert_eq!(needs_cjk(&as_text), needs_cjk(&as_bytes), "{path}: {text}");
         }
     }
 

@@ -52,7 +52,7 @@ pub use locate::{
 };
 pub use output::{Input, InputIndex, OutputRefused, check_emit_folder, check_output};
 pub use rows::{CountedText, RowList, Rows, TypstRow, serialize_counted_text};
-pub use sandbox::{EMIT_PREFIX, Sandbox, emit_source, emit_source_replacing};
+pub use sandbox::{EMIT_PREFIX, FileContents, Sandbox, emit_source, emit_source_replacing};
 pub use template_env::{
     TemplateSource, TypstMarkup, refusal, template_environment, template_error_msg, typst_markup,
 };

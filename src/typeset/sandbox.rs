@@ -18,7 +18,72 @@ use super::leftovers::{LockedDir, sweep};
 /// order.
 #[derive(Debug, Clone, Default, PartialEq, Eq)]
 pub struct Sandbox {
-    files: BTreeMap<String, Vec<u8>>,
+    files: BTreeMap<String, FileContents>,
+}
+
+/// A file's contents as they were handed over: text (a `String` or
+/// `&str`: the generated sources and the charts, known to be UTF-8) or
+/// bytes (images, and files read from disk). Text is kept as text so the
+/// fonts' check ([`super::fonts::needs_cjk`]) reads it without checking
+/// megabytes of it for UTF-8 again; two files with the same bytes are
+/// equal either way.
+#[derive(Debug, Clone)]
+pub enum FileContents {
+    Text(String),
+    Bytes(Vec<u8>),
+}
+
+impl FileContents {
+    pub fn as_bytes(&self) -> &[u8] {
+        match self {
+            FileContents::Text(text) => text.as_bytes(),
+            FileContents::Bytes(bytes) => bytes,
+        }
+    }
+}
+
+impl PartialEq for FileContents {
+    fn eq(&self, other: &Self) -> bool {
+        self.as_bytes() == other.as_bytes()
+    }
+}
+
+impl Eq for FileContents {}
+
+impl From<String> for FileContents {
+    fn from(text: String) -> Self {
+        FileContents::Text(text)
+    }
+}
+
+impl From<&str> for FileContents {
+    fn from(text: &str) -> Self {
+        FileContents::Text(text.to_string())
+    }
+}
+
+impl From<&String> for FileContents {
+    fn from(text: &String) -> Self {
+        FileContents::Text(text.clone())
+    }
+}
+
+impl From<Vec<u8>> for FileContents {
+    fn from(bytes: Vec<u8>) -> Self {
+        FileContents::Bytes(bytes)
+    }
+}
+
+impl From<&[u8]> for FileContents {
+    fn from(bytes: &[u8]) -> Self {
+        FileContents::Bytes(bytes.to_vec())
+    }
+}
+
+impl<const N: usize> From<&[u8; N]> for FileContents {
+    fn from(bytes: &[u8; N]) -> Self {
+        FileContents::Bytes(bytes.to_vec())
+    }
 }
 
 impl Sandbox {
@@ -32,7 +97,7 @@ impl Sandbox {
     pub fn insert(
         &mut self,
         path: impl Into<String>,
-        contents: impl Into<Vec<u8>>,
+        contents: impl Into<FileContents>,
     ) -> Result<&mut Self, TypesetError> {
         let path = path.into();
         if let Some(reason) = path_problem(&path) {
@@ -44,18 +109,23 @@ impl Sandbox {
 
     /// The contents stored at `path`, if any.
     pub fn get(&self, path: &str) -> Option<&[u8]> {
-        self.files.get(path).map(Vec::as_slice)
+        self.files.get(path).map(FileContents::as_bytes)
     }
 
     /// The contents stored at `path`, to change in place (the path was
     /// checked when the file was inserted).
-    pub(crate) fn get_mut(&mut self, path: &str) -> Option<&mut Vec<u8>> {
+    pub(crate) fn get_mut(&mut self, path: &str) -> Option<&mut FileContents> {
         self.files.get_mut(path)
     }
 
     /// All files in path order.
     pub fn files(&self) -> impl Iterator<Item = (&str, &[u8])> {
-        self.files.iter().map(|(p, b)| (p.as_str(), b.as_slice()))
+        self.files.iter().map(|(p, c)| (p.as_str(), c.as_bytes()))
+    }
+
+    /// All files in path order, as they were handed over (text or bytes).
+    pub(crate) fn contents(&self) -> impl Iterator<Item = (&str, &FileContents)> {
+        self.files.iter().map(|(p, c)| (p.as_str(), c))
     }
 
     pub fn len(&self) -> usize {
@@ -85,7 +155,7 @@ impl Sandbox {
                 .write(true)
                 .create_new(true)
                 .open(&target)?
-                .write_all(contents)?;
+                .write_all(contents.as_bytes())?;
         }
         Ok(())
     }

@@ -82,16 +82,17 @@ impl<'a> SvgOut<'a> {
         self.buf
     }
 
-    fn font_size(&mut self, size: f64) -> &str {
+    /// Where in `font_sizes` the text of `size` is, written there first
+    /// if it is new.
+    fn font_size(&mut self, size: f64) -> usize {
         let key = size.to_bits();
-        let at = match self.font_sizes.iter().position(|(k, _)| *k == key) {
+        match self.font_sizes.iter().position(|(k, _)| *k == key) {
             Some(at) => at,
             None => {
                 self.font_sizes.push((key, format!("{}", size / 1.24)));
                 self.font_sizes.len() - 1
             }
-        };
-        &self.font_sizes[at].1
+        }
     }
 }
 
@@ -146,7 +147,12 @@ fn push_opacity(buf: &mut String, c: BackendColor) {
 /// Text as plotters-svg escapes an attribute or an element's text.
 fn push_escaped(buf: &mut String, value: &str) {
     let mut rest = value;
-    while let Some(at) = rest.find(['<', '>', '&', '"', '\'']) {
+    // The five are ASCII, so a byte equal to one of them is that
+    // character, and the text either side of it is whole characters.
+    while let Some(at) = rest
+        .bytes()
+        .position(|b| matches!(b, b'<' | b'>' | b'&' | b'"' | b'\''))
+    {
         buf.push_str(&rest[..at]);
         buf.push_str(match rest.as_bytes()[at] {
             b'<' => "&lt;",
@@ -371,7 +377,10 @@ impl DrawingBackend for SvgOut<'_> {
             VPos::Center => "0.5ex",
             VPos::Bottom => "-0.5ex",
         };
-        let size = self.font_size(style.size()).to_string();
+        // The size's text is borrowed from the list beside the document,
+        // not copied for each text.
+        let size = self.font_size(style.size());
+        let size = &self.font_sizes[size].1;
         let buf = &mut *self.buf;
         buf.push_str("<text x=\"");
         push_i32(buf, x0);
@@ -384,7 +393,7 @@ impl DrawingBackend for SvgOut<'_> {
         buf.push_str("\" font-family=\"");
         push_escaped(buf, style.family().as_str());
         buf.push_str("\" font-size=\"");
-        buf.push_str(&size);
+        buf.push_str(size);
         buf.push_str("\" opacity=\"");
         push_opacity(buf, color);
         buf.push_str("\" fill=\"");
