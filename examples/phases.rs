@@ -13,7 +13,7 @@ use ampreport::report::handover::{self, HandoverInput};
 /// The binary's allocator (src/main.rs), so the phases cost what they
 /// cost in `ampreport`.
 #[global_allocator]
-static ALLOCATOR: mimalloc::MiMalloc = mimalloc::MiMalloc;
+static ALLOCATOR: ampreport::allocator::Allocator = ampreport::allocator::Allocator;
 use ampreport::typeset::TemplateSource;
 use std::time::Duration;
 

@@ -5,6 +5,7 @@
 //! figure with [`ratings`] and [`units`], [`report`] presents the findings and
 //! [`typeset`] runs the `typst` command. [`cli`] ties them to the command line.
 
+pub mod allocator;
 pub mod calc;
 pub mod catalogue;
 pub mod cli;

@@ -8,9 +8,10 @@
 /// huge pages (Cargo.toml), which made a single render dearer ("The
 /// allocator: huge pages found and turned off"). Set here and in the
 /// `phases` example only, not in the library, so the fuzz targets keep
-/// the sanitiser's allocator.
+/// the sanitiser's allocator. Asked through [`ampreport::allocator`], which
+/// uses mimalloc's plain calls where the layout allows.
 #[global_allocator]
-static ALLOCATOR: mimalloc::MiMalloc = mimalloc::MiMalloc;
+static ALLOCATOR: ampreport::allocator::Allocator = ampreport::allocator::Allocator;
 
 fn main() -> std::process::ExitCode {
     match std::thread::Builder::new()

@@ -1,0 +1,145 @@
+//! The program's allocator: mimalloc, asked the way its plain C entry
+//! points are asked wherever the layout allows.
+//!
+//! The `mimalloc` crate hands every request to mimalloc's aligned entry
+//! points (`mi_malloc_aligned`, `mi_realloc_aligned`), which test the
+//! alignment and look for a suitably aligned free block before they reach
+//! the same small-block path `mi_malloc` takes: about 40 instructions a
+//! call more, some 1.5 million calls on a 1,000-set job
+//! (docs/performance.md, "The allocator asked plainly"). Almost every
+//! request a Rust program makes (strings, vectors of numbers or pointers)
+//! needs no more alignment than mimalloc gives every block anyway, so
+//! those go to `mi_malloc`, `mi_zalloc` and `mi_realloc`; the rest still
+//! go through the `mimalloc` crate's aligned calls.
+//!
+//! Set as the global allocator in `src/main.rs` and the `phases` example
+//! only, not in the library, so the fuzz targets keep the sanitiser's
+//! allocator.
+
+use std::alloc::{GlobalAlloc, Layout};
+use std::ffi::c_void;
+
+/// mimalloc's own rule (`mi_malloc_is_naturally_aligned` in its
+/// `alloc-aligned.c`): a block of at least `align` bytes is aligned to
+/// `align` when `align` is at most `MI_MAX_ALIGN_SIZE`, 16 bytes.
+const PLAIN_ALIGN: usize = 16;
+
+/// True when a plain `mi_malloc` of `size` bytes is already aligned to
+/// `align`.
+fn plain(size: usize, align: usize) -> bool {
+    align <= PLAIN_ALIGN && align <= size
+}
+
+/// mimalloc, through its plain calls when the layout allows.
+pub struct Allocator;
+
+// SAFETY: every call forwards to mimalloc, which returns blocks of at least
+// the size asked for, aligned to at least `align` (plainly when `plain`
+// holds, by its own rule above; else through the aligned calls), or null;
+// `mi_free` and `mi_realloc` take any block mimalloc gave, however it was
+// asked for.
+unsafe impl GlobalAlloc for Allocator {
+    #[inline]
+    unsafe fn alloc(&self, layout: Layout) -> *mut u8 {
+        if plain(layout.size(), layout.align()) {
+            // SAFETY: a plain allocation, aligned by mimalloc's rule.
+            unsafe { libmimalloc_sys::mi_malloc(layout.size()) as *mut u8 }
+        } else {
+            // SAFETY: the caller's layout is passed on unchanged.
+            unsafe { mimalloc::MiMalloc.alloc(layout) }
+        }
+    }
+
+    #[inline]
+    unsafe fn alloc_zeroed(&self, layout: Layout) -> *mut u8 {
+        if plain(layout.size(), layout.align()) {
+            // SAFETY: as for `alloc`; mimalloc zeroes the block.
+            unsafe { libmimalloc_sys::mi_zalloc(layout.size()) as *mut u8 }
+        } else {
+            // SAFETY: the caller's layout is passed on unchanged.
+            unsafe { mimalloc::MiMalloc.alloc_zeroed(layout) }
+        }
+    }
+
+    #[inline]
+    unsafe fn dealloc(&self, ptr: *mut u8, _layout: Layout) {
+        // SAFETY: `ptr` came from this allocator, so from mimalloc.
+        unsafe { libmimalloc_sys::mi_free(ptr as *mut c_void) }
+    }
+
+    #[inline]
+    unsafe fn realloc(&self, ptr: *mut u8, layout: Layout, new_size: usize) -> *mut u8 {
+        if plain(new_size, layout.align()) {
+            // SAFETY: `ptr` came from mimalloc; the new block is aligned by
+            // mimalloc's rule, and the old contents are kept up to the
+            // smaller size.
+            unsafe { libmimalloc_sys::mi_realloc(ptr as *mut c_void, new_size) as *mut u8 }
+        } else {
+            // SAFETY: the caller's pointer, layout and size are passed on
+            // unchanged.
+            unsafe { mimalloc::MiMalloc.realloc(ptr, layout, new_size) }
+        }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// Every size from 1 to 2,100 bytes and some far larger, at every
+    /// alignment from 1 to 4,096: the block is aligned, holds what is
+    /// written to it, comes back zeroed when asked, and keeps its bytes
+    /// through growing and shrinking; the plain path and the aligned one
+    /// are both taken.
+    #[test]
+    fn blocks_are_aligned_and_keep_their_bytes() {
+        let sizes = (1..=2_100usize).chain([4_095, 4_096, 65_537, 300_000, 5_000_000]);
+        let mut plain_taken = 0;
+        let mut aligned_taken = 0;
+        for size in sizes {
+            for shift in 0..=12 {
+                let align = 1usize << shift;
+                if shift > 5 && size % 7 != 0 && size < 4_095 {
+                    // The large alignments on a seventh of the sizes keep
+                    // the test short.
+                    continue;
+                }
+                if plain(size, align) {
+                    plain_taken += 1;
+                } else {
+                    aligned_taken += 1;
+                }
+                let layout = Layout::from_size_align(size, align).unwrap();
+                // SAFETY: a non-zero size; every block is freed below with
+                // the layout it has.
+                unsafe {
+                    let p = Allocator.alloc_zeroed(layout);
+                    assert!(!p.is_null(), "{size} bytes at {align}");
+                    assert_eq!(p as usize % align, 0, "{size} bytes at {align}");
+                    assert!(
+                        std::slice::from_raw_parts(p, size).iter().all(|&b| b == 0),
+                        "{size} bytes at {align} not zeroed"
+                    );
+                    for i in 0..size {
+                        *p.add(i) = (i % 251) as u8;
+                    }
+                    let grown = size * 2 + 3;
+                    let q = Allocator.realloc(p, layout, grown);
+                    assert_eq!(q as usize % align, 0, "{size} → {grown} bytes at {align}");
+                    assert!((0..size).all(|i| *q.add(i) == (i % 251) as u8));
+                    let shrunk = size.div_ceil(3);
+                    let grown_layout = Layout::from_size_align(grown, align).unwrap();
+                    let r = Allocator.realloc(q, grown_layout, shrunk);
+                    assert_eq!(r as usize % align, 0, "{grown} → {shrunk} bytes at {align}");
+                    assert!((0..shrunk).all(|i| *r.add(i) == (i % 251) as u8));
+                    Allocator.dealloc(r, Layout::from_size_align(shrunk, align).unwrap());
+
+                    let s = Allocator.alloc(layout);
+                    assert_eq!(s as usize % align, 0, "{size} bytes at {align}");
+                    Allocator.dealloc(s, layout);
+                }
+            }
+        }
+        assert!(plain_taken > 10_000 && aligned_taken > 1_000);
+    }
+}
