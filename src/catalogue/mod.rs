@@ -217,39 +217,20 @@ enum Piece {
 /// argument it names is missing (Fluent then says it). An argument given
 /// twice counts as its last value, as in Fluent's arguments.
 fn say_plain_str(pieces: &[Piece], args: &[(&str, &str)]) -> Option<String> {
-    // Each argument's value found once, for the room and the words (a
-    // message has at most a handful; past eight they are found again).
-    const KEPT: usize = 8;
-    let mut values = [""; KEPT];
-    let mut room = 0;
-    let mut n = 0;
-    for piece in pieces {
-        match piece {
-            Piece::Text(text) => room += text.len(),
-            Piece::Argument(name) => {
-                let value = argument(args, name)?;
-                if n < KEPT {
-                    values[n] = value;
-                }
-                n += 1;
-                room += value.len();
-            }
-        }
-    }
+    // Room for every piece and argument at once, as `say_plain` makes.
+    let room = pieces
+        .iter()
+        .map(|p| match p {
+            Piece::Text(text) => text.len(),
+            Piece::Argument(_) => 0,
+        })
+        .sum::<usize>()
+        + args.iter().map(|(_, v)| v.len()).sum::<usize>();
     let mut words = String::with_capacity(room);
-    let mut n = 0;
     for piece in pieces {
         match piece {
             Piece::Text(text) => words.push_str(text),
-            Piece::Argument(name) => {
-                let value = if n < KEPT {
-                    values[n]
-                } else {
-                    argument(args, name)?
-                };
-                n += 1;
-                words.push_str(value);
-            }
+            Piece::Argument(name) => words.push_str(argument(args, name)?),
         }
     }
     Some(words)
