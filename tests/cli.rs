@@ -955,6 +955,43 @@ fn a_negative_resistance_is_an_error() {
 }
 
 #[test]
+fn a_negative_plate_or_screen_voltage_is_an_error() {
+    // Found by feeding `plate="-338V"`: it was taken, and the document
+    // printed −130 % of the plate rating.
+    let readings = r#"    valve V3 plate="-300V" cathode="10V"
+    valve V4 plate="300V" screen="-290V" cathode="10V""#;
+    let text = small_job(GOOD_CIRCUIT, readings);
+    let dir = job_file("neg.kdl", &text);
+    let o = run_in(dir.path(), &["check", "neg.kdl"]);
+    assert_eq!(code(&o), 1);
+    let err = stderr(&o);
+    assert!(
+        err.contains("the plate voltage cannot be negative"),
+        "{err}"
+    );
+    assert!(
+        err.contains("the screen voltage cannot be negative"),
+        "{err}"
+    );
+    assert_eq!(
+        reported_positions(&err, "neg.kdl"),
+        [
+            pos_of("neg.kdl", &text, "\"-300V\"", 0),
+            pos_of("neg.kdl", &text, "\"-290V\"", 0)
+        ],
+        "{err}"
+    );
+    // Zero is a state a valve can be found in (no supply reaches it).
+    let text = small_job(
+        GOOD_CIRCUIT,
+        &GOOD_READINGS.replacen("plate=\"300V\"", "plate=\"0V\"", 1),
+    );
+    let dir = job_file("zero.kdl", &text);
+    let o = run_in(dir.path(), &["check", "zero.kdl"]);
+    assert!(!stderr(&o).contains("cannot be negative"), "{}", stderr(&o));
+}
+
+#[test]
 fn zero_mains_is_an_error() {
     let text = small_job(GOOD_CIRCUIT, GOOD_READINGS).replace("mains=\"120V\"", "mains=\"0V\"");
     let dir = job_file("zero.kdl", &text);

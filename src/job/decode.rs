@@ -1139,8 +1139,15 @@ fn decode_valve_reading(
         r.opt_prop_quantity(child, key, Q::Voltage)
             .map(|s| Spanned::new(Volts(s.value), s.span))
     };
-    let plate = v(r, "plate");
-    let screen = v(r, "screen");
+    // A plate or screen below the chassis is a reading taken the wrong
+    // way round, not a valve's state (zero is: no supply reaches it).
+    let at_least_zero = |r: &mut Reader, key: &str, what: &'static str| {
+        let reading = r.opt_prop_quantity(child, key, Q::Voltage);
+        r.positive(reading, Msg::new(what), true)
+            .map(|s| Spanned::new(Volts(s.value), s.span))
+    };
+    let plate = at_least_zero(r, "plate", "diag-what-plate-voltage");
+    let screen = at_least_zero(r, "screen", "diag-what-screen-voltage");
     let cathode = v(r, "cathode");
     let grid = v(r, "grid");
     let sense = v(r, "sense");
