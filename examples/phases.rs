@@ -92,6 +92,7 @@ fn round(path: &str, text: &str) -> [f64; 8] {
 }
 
 fn main() {
+    ampreport::allocator::keep_freed_memory();
     let mut args = std::env::args().skip(1);
     let path = args.next().expect("usage: phases JOB [ROUNDS]");
     let rounds: usize = args

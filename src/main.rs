@@ -14,6 +14,7 @@
 static ALLOCATOR: ampreport::allocator::Allocator = ampreport::allocator::Allocator;
 
 fn main() -> std::process::ExitCode {
+    ampreport::allocator::keep_freed_memory();
     match std::thread::Builder::new()
         .name("ampreport".to_string())
         .stack_size(ampreport::cli::PROGRAM_STACK)

@@ -48,6 +48,8 @@ pub const DEBOUNCE: Duration = Duration::from_millis(15);
 const POLL: Duration = Duration::from_millis(100);
 
 pub fn run(args: &RenderArgs) -> Exit {
+    // Lives on between saves: freed memory goes back to the system.
+    crate::allocator::return_freed_memory();
     if let Err(e) = interrupt::install() {
         ui::warn(ui::english(
             &Msg::new("cli-watch-no-stop-signals").arg("error", e.to_string()),

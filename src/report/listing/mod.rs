@@ -36,6 +36,10 @@ use crate::typeset::{CompileOptions, Sandbox, TemplateSource};
 /// The template the listing is rendered from.
 pub const TEMPLATE_NAME: &str = "listing.typ";
 
+/// Room made for the filled listing before the fill starts (a demo job's
+/// listing is some 10–20 KiB; a longer one grows as needed).
+const LISTING_ROOM: usize = 32 * 1024;
+
 /// The built-in listing template, for [`TemplateSource::embedded`].
 pub static EMBEDDED_TEMPLATES: &[(&str, &str)] = &[(
     TEMPLATE_NAME,
@@ -108,7 +112,13 @@ pub fn build(
         catalogue: input.catalogue,
     };
     let context = build_context(input.job, input.findings, &inputs);
-    let source = fill_template(TEMPLATE_NAME, &context, input.catalogue, templates)?;
+    let source = fill_template(
+        TEMPLATE_NAME,
+        &context,
+        input.catalogue,
+        templates,
+        LISTING_ROOM,
+    )?;
     if !source.lines().any(|l| l.trim() == NOTICE_INCLUDE) {
         return Err(HandoverError::Template {
             name: TEMPLATE_NAME.to_string(),
