@@ -6,7 +6,11 @@
 //! per round with the processor time of the whole process in each phase
 //! (`CLOCK_PROCESS_CPUTIME_ID`: every thread, so the sets derived and drawn
 //! on the other core count too; it depends far less on what else the
-//! shared machine runs than the wall clock), then the medians. Keep a copy
+//! shared machine runs than the wall clock), then the medians; and after
+//! each round the page faults of each phase (memory touched for the first
+//! time, which the system time pays for; later rounds reuse the memory of
+//! earlier ones, so the first round's figures are the ones a render
+//! takes). Keep a copy
 //! of the binary before a change and run both alternately to compare.
 use ampreport::report::handover::{self, HandoverInput};
 
@@ -28,11 +32,32 @@ fn process_cpu() -> Duration {
     Duration::new(t.tv_sec as u64, t.tv_nsec as u32)
 }
 
-/// Processor milliseconds of one call of `f`, and its result.
+/// Page faults the process has taken so far (minor ones: memory touched
+/// for the first time, on every thread).
+fn process_faults() -> i64 {
+    // SAFETY: an all-zero rusage is a valid value for getrusage to fill
+    // in, and the pointer is to a live local.
+    let mut u: libc::rusage = unsafe { std::mem::zeroed() };
+    // SAFETY: as above.
+    let rc = unsafe { libc::getrusage(libc::RUSAGE_SELF, &mut u) };
+    assert_eq!(rc, 0, "getrusage");
+    u.ru_minflt
+}
+
+thread_local! {
+    /// The page faults of each phase of the round under way, in order.
+    static FAULTS: std::cell::RefCell<Vec<i64>> = const { std::cell::RefCell::new(Vec::new()) };
+}
+
+/// Processor milliseconds of one call of `f`, and its result; its page
+/// faults are noted in [`FAULTS`].
 fn cpu<T>(f: impl FnOnce() -> T) -> (f64, T) {
+    let faults = process_faults();
     let start = process_cpu();
     let out = f();
-    ((process_cpu() - start).as_secs_f64() * 1e3, out)
+    let ms = (process_cpu() - start).as_secs_f64() * 1e3;
+    FAULTS.with(|v| v.borrow_mut().push(process_faults() - faults));
+    (ms, out)
 }
 
 const PHASES: [&str; 8] = [
@@ -101,6 +126,7 @@ fn main() {
     let text = std::fs::read_to_string(&path).unwrap();
     let mut all: Vec<[f64; 8]> = Vec::new();
     for _ in 0..rounds {
+        FAULTS.with(|v| v.borrow_mut().clear());
         let r = round(&path, &text);
         let line: Vec<String> = PHASES
             .iter()
@@ -108,6 +134,14 @@ fn main() {
             .map(|(name, ms)| format!("{name} {ms:.1}"))
             .collect();
         println!("processor ms: {}", line.join(", "));
+        let faults: Vec<String> = FAULTS.with(|v| {
+            PHASES
+                .iter()
+                .zip(v.borrow().iter())
+                .map(|(name, n)| format!("{name} {n}"))
+                .collect()
+        });
+        println!("page faults: {}", faults.join(", "));
         all.push(r);
     }
     if rounds > 1 {
