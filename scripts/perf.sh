@@ -6,7 +6,7 @@
 #   bash scripts/perf.sh overhead [PAIRS]   render against bare typst on its own emitted source (OLD_BIN=PATH: and the previous binary's render, in the same rounds; PIN_CPU=N: all on one core)
 #   bash scripts/perf.sh overhead-own [ROUNDS]  render's own share, less the typst compile inside each render (OLD_BIN, PIN_CPU as above)
 #   bash scripts/perf.sh size [SETS...]     typst time and memory per measurement set (generated jobs); SIZE_ROUNDS=R: medians of R compiles of each job, then the spread of the cost per set and the cost of each further set
-#   bash scripts/perf.sh own [SETS]         ampreport's own work on a generated job (no typst)
+#   bash scripts/perf.sh own [SETS]         ampreport's own work on a generated job (no typst); OWN_ROUNDS=R renders (5), OLD_BIN alternated, OWN_TMPDIR=DIR for the sandboxes
 #   bash scripts/perf.sh kernel [ROUNDS]    renders of the EL84 combo with the stand-in typst: user, system and total processor time (quartiles) and page faults of the render and its children
 #   bash scripts/perf.sh batch [JOBS] [ROUNDS]  -j 1 against -j 2 over demo-sized jobs, alternating (and -j 2 with typst's own threads); each round's own ratio, its median and spread
 #   bash scripts/perf.sh batch-pair [JOBS] [ROUNDS]  the same, -j 1 and -j 2 only (default 200 jobs, 5 rounds: about 8 minutes idle)
@@ -425,10 +425,30 @@ own)
     done
     "$bin" render jobs/combo-el84-cathode.kdl -o "$work/real.pdf" --force >/dev/null 2>&1
     stand_in "$work/real.pdf"
-    : >"$work/own.wall"
-    for i in 1 2 3 4 5; do
-        c=$(cpu_ms "$work/own.wall" "$bin" render "$work/job.kdl" -o "$work/own.pdf" --force --typst "$work/stand-in")
-        echo "render with a stand-in typst, $n sets: $c ms of processor time, $(tail -1 "$work/own.wall") ms wall clock"
+    # OWN_TMPDIR=DIR: the renders' sandbox folders go under DIR (for
+    # example /dev/shm), leaving out what the file system charges for
+    # creating and removing the ~256 files of a 1,000-set sandbox (much
+    # system time on an ext4 without a journal, when renders follow one
+    # another: docs/performance.md, "Freed memory kept"). OLD_BIN: the
+    # previous binary, alternated with this one. Page faults where GNU
+    # time is installed.
+    tmp_env=()
+    [ -n "${OWN_TMPDIR:-}" ] && tmp_env=(env "TMPDIR=$OWN_TMPDIR") && echo "# sandboxes under $OWN_TMPDIR"
+    own_render() {
+        local label="$1" b="$2" c f=""
+        if [ -x /usr/bin/time ]; then
+            c=$({ "${tmp_env[@]}" /usr/bin/time -f '%e %U %S %R' "$b" render "$work/job.kdl" -o "$work/own.pdf" --force --typst "$work/stand-in" >/dev/null 2>"$work/own.err" || true; } ; tail -1 "$work/own.err")
+            echo "$label: render with a stand-in typst, $n sets: $(awk '{ printf "%d", ($2 + $3) * 1000 }' <<<"$c") ms of processor time, $(awk '{ printf "%d", $1 * 1000 }' <<<"$c") ms wall clock, $(awk '{ print $4 }' <<<"$c") page faults"
+        else
+            : >"$work/own.wall"
+            c=$(cpu_ms "$work/own.wall" "${tmp_env[@]}" "$b" render "$work/job.kdl" -o "$work/own.pdf" --force --typst "$work/stand-in")
+            echo "$label: render with a stand-in typst, $n sets: $c ms of processor time, $(tail -1 "$work/own.wall") ms wall clock"
+        fi
+    }
+    for i in $(seq "${OWN_ROUNDS:-5}"); do
+        if [ -n "${OLD_BIN:-}" ] && [ $((i % 2)) = 0 ]; then own_render old "$OLD_BIN"; fi
+        own_render new "$bin"
+        if [ -n "${OLD_BIN:-}" ] && [ $((i % 2)) = 1 ]; then own_render old "$OLD_BIN"; fi
     done
     ;;
 kernel)
