@@ -63,14 +63,19 @@ pub(super) struct ReadValue<'a> {
 
 impl<'a> Parser<'a> {
     pub(super) fn new(src: &'a str) -> Self {
+        // Room for about as many nodes as the text has lines and entries as
+        // it has twelve-byte runs (a job's reading such as ` plate="466V"`
+        // takes thirteen), so that a long job's lists are not copied as
+        // they grow; room never written to costs no memory.
+        let lines = src.as_bytes().iter().filter(|&&b| b == b'\n').count();
         Parser {
             src,
             bytes: src.as_bytes(),
             pos: 0,
             depth: 0,
-            entries: Vec::new(),
+            entries: Vec::with_capacity(src.len() / 12),
             open: Vec::new(),
-            done: Vec::new(),
+            done: Vec::with_capacity(lines + 1),
         }
     }
 
