@@ -5,7 +5,7 @@
 
 use std::hint::black_box;
 
-use ampreport::kdl_fast::parse_fast;
+use ampreport::kdl_fast::{fast_tree, parse_fast};
 use ampreport::ratings::RatingsTable;
 use criterion::{Criterion, Throughput, criterion_group, criterion_main};
 
@@ -64,6 +64,10 @@ fn parsers(c: &mut Criterion) {
         group.throughput(Throughput::Elements(nodes as u64));
         group.bench_function("fast", |b| {
             b.iter(|| parse_fast(black_box(text)).expect("valid"))
+        });
+        // The fast parser's own tree, as the job decode reads it.
+        group.bench_function("fast tree", |b| {
+            b.iter(|| fast_tree(black_box(text)).expect("valid"))
         });
         group.sample_size(30);
         group.bench_function("kdl crate", |b| {

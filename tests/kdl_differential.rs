@@ -6,7 +6,7 @@
 
 use std::path::{Path, PathBuf};
 
-use ampreport::kdl_fast::{parse_document, parse_fast};
+use ampreport::kdl_fast::{fast_tree, parse_document, parse_fast, parse_tree, tree_differs};
 use kdl::{KdlDocument, KdlEntry, KdlIdentifier, KdlNode, KdlValue};
 use proptest::prelude::*;
 
@@ -122,6 +122,7 @@ enum Outcome {
 /// Compares the parsers on `text`; an `Err` is a real disagreement.
 fn compare(text: &str) -> Result<Outcome, String> {
     let slow = KdlDocument::parse(text);
+    tree_agrees(text, &slow)?;
     match (parse_fast(text), slow) {
         (Some(fast), Ok(slow)) => document("", &fast, &slow).map(|()| Outcome::Same),
         (Some(_), Err(e)) => Err(format!(
@@ -130,6 +131,24 @@ fn compare(text: &str) -> Result<Outcome, String> {
         )),
         (None, Ok(_)) => Ok(Outcome::FastDeclines),
         (None, Err(_)) => Ok(Outcome::BothReject),
+    }
+}
+
+/// The job decode's reading (the fast parser's own tree, or a tree made
+/// from the `kdl` crate's document for a valid text it declines) against
+/// the `kdl` crate's: the same names, types, values, spans and children,
+/// and refused where that crate refuses. (A refused text goes the way
+/// `parse_document` sends it, so its errors are that function's; the unit
+/// tests compare them.)
+fn tree_agrees(text: &str, slow: &Result<KdlDocument, kdl::KdlError>) -> Result<(), String> {
+    match (fast_tree(text), slow) {
+        (Some(tree), Ok(slow)) => tree_differs("tree", tree.doc(), slow),
+        (Some(_), Err(_)) => Err("the fast tree reads what kdl rejects".to_string()),
+        (None, Ok(slow)) => match parse_tree(text) {
+            Ok(tree) => tree_differs("declined tree", tree.doc(), slow),
+            Err(e) => Err(format!("the tree refuses what kdl reads: {e:?}")),
+        },
+        (None, Err(_)) => Ok(()),
     }
 }
 

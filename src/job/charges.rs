@@ -4,7 +4,7 @@
 //! the file, never through a binary float. Decoding only reads them; the
 //! hand-over document's context works out the totals.
 
-use kdl::{KdlEntry, KdlNode, KdlValue};
+use crate::kdl_fast::{Entry, Node, Value};
 use miette::SourceSpan;
 use rust_decimal::Decimal;
 use serde::Serialize;
@@ -143,7 +143,7 @@ pub enum LineAmount {
 pub const CHARGE_NODES: &[&str] = &["labour", "part"];
 
 pub(crate) fn decode_charges(
-    node: &KdlNode,
+    node: Node<'_>,
     terms: &ChargeTerms,
     r: &mut Reader,
 ) -> Option<Charges> {
@@ -223,7 +223,7 @@ pub(crate) fn decode_charges(
 }
 
 fn line_amount(
-    node: &KdlNode,
+    node: Node<'_>,
     kind: ChargeKind,
     example: &str,
     r: &mut Reader,
@@ -302,7 +302,7 @@ fn line_amount(
     }
 }
 
-fn nonzero(r: &mut Reader, entry: &KdlEntry, v: Option<Decimal>, what: &str) -> Option<Decimal> {
+fn nonzero(r: &mut Reader, entry: &Entry<'_>, v: Option<Decimal>, what: &str) -> Option<Decimal> {
     let v = v?;
     if v.is_zero() {
         r.push(DecodeError::error(
@@ -317,7 +317,7 @@ fn nonzero(r: &mut Reader, entry: &KdlEntry, v: Option<Decimal>, what: &str) -> 
 }
 
 /// A currency code or sign: short text such as "GBP", "EUR", "$".
-pub(crate) fn currency(r: &mut Reader, entry: &KdlEntry) -> Option<Spanned<String>> {
+pub(crate) fn currency(r: &mut Reader, entry: &Entry<'_>) -> Option<Spanned<String>> {
     let text = r.string(entry, "`currency`")?;
     let trimmed = text.value.trim();
     if trimmed.is_empty() || trimmed.chars().count() > 8 || trimmed.chars().any(char::is_control) {
@@ -336,7 +336,7 @@ pub(crate) fn currency(r: &mut Reader, entry: &KdlEntry) -> Option<Spanned<Strin
 }
 
 /// A tax rate in percent, 0 to 100: `"20%"`, `20` or `"8.875%"`.
-pub(crate) fn tax_rate(r: &mut Reader, entry: &KdlEntry) -> Option<Spanned<Decimal>> {
+pub(crate) fn tax_rate(r: &mut Reader, entry: &Entry<'_>) -> Option<Spanned<Decimal>> {
     let span = r.value_span(entry);
     let text = decimal_text(r, entry)?;
     let digits = text.trim().trim_end_matches('%').trim_end();
@@ -360,7 +360,7 @@ pub(crate) fn tax_rate(r: &mut Reader, entry: &KdlEntry) -> Option<Spanned<Decim
 /// An amount of money, a rate, hours or a quantity: zero or more, exact,
 /// from a plain number (read from its text in the file) or text such as
 /// `"48.00"`.
-pub(crate) fn money(r: &mut Reader, entry: &KdlEntry, what: &str) -> Option<Decimal> {
+pub(crate) fn money(r: &mut Reader, entry: &Entry<'_>, what: &str) -> Option<Decimal> {
     let span = r.value_span(entry);
     let text = decimal_text(r, entry)?;
     let value = parse_decimal(text.trim());
@@ -419,11 +419,11 @@ pub(crate) fn money(r: &mut Reader, entry: &KdlEntry, what: &str) -> Option<Deci
 
 /// The text of a number as written: the string's text, or a bare number's
 /// own source text (so `1.1` is exactly 1.1, not the nearest binary float).
-fn decimal_text(r: &mut Reader, entry: &KdlEntry) -> Option<String> {
+fn decimal_text(r: &mut Reader, entry: &Entry<'_>) -> Option<String> {
     match entry.value() {
-        KdlValue::String(s) => Some(s.clone()),
-        KdlValue::Integer(i) => Some(i.to_string()),
-        KdlValue::Float(_) => {
+        Value::String(s) => Some(s.to_string()),
+        Value::Integer(i) => Some(i.to_string()),
+        Value::Float(_) => {
             let span = r.value_span(entry);
             r.source
                 .get(span.offset()..span.offset() + span.len())

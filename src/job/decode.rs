@@ -3,7 +3,7 @@
 //! problems; it computes nothing.
 
 use crate::catalogue::Msg;
-use kdl::{KdlDocument, KdlNode};
+use crate::kdl_fast::{Doc, Entry, Node, Value};
 use miette::SourceSpan;
 use std::collections::HashSet;
 
@@ -106,22 +106,20 @@ pub const SAFETY_TESTS: &[&str] = &["earth-continuity", "insulation", "leakage"]
 /// The first node of a document that has neither `job-format` nor `job`,
 /// when that node opens a shop profile (`shop-format`) or a ratings file
 /// (`ratings-format`, `valve`).
-fn other_kind_of_file(doc: &KdlDocument) -> Option<&KdlNode> {
-    let nodes = doc.nodes();
-    if nodes
-        .iter()
+fn other_kind_of_file(doc: Doc<'_>) -> Option<Node<'_>> {
+    if doc
+        .nodes()
         .any(|n| matches!(n.name().value(), "job-format" | "job"))
     {
         return None;
     }
-    nodes
-        .first()
+    doc.first()
         .filter(|n| matches!(n.name().value(), "shop-format" | "ratings-format" | "valve"))
 }
 
 /// Decodes job text whose KDL syntax has already parsed.
 pub(crate) fn decode_document(
-    doc: &KdlDocument,
+    doc: Doc<'_>,
     source_name: &str,
     defaults: &JobDefaults,
     r: &mut Reader,
@@ -153,7 +151,7 @@ pub(crate) fn decode_document(
 
     // Repeated singletons.
     let mut seen = std::collections::HashSet::new();
-    for node in &nodes {
+    for &node in &nodes {
         let name = node.name().value();
         if name != REPEATABLE && !seen.insert(name) {
             r.push(
@@ -291,7 +289,11 @@ pub(crate) fn decode_document(
     let mut measurements = Vec::new();
     // Labels seen so far, so a job with many sets is checked in linear time.
     let mut labels = std::collections::HashSet::new();
-    for node in nodes.iter().filter(|n| n.name().value() == "measurements") {
+    for node in nodes
+        .iter()
+        .copied()
+        .filter(|n| n.name().value() == "measurements")
+    {
         if let Some(set) = decode_measurements(node, r) {
             if set.is_final && measurements.iter().any(|m: &MeasurementSet| m.is_final) {
                 let at = Reader::prop(node, "final")
@@ -366,7 +368,7 @@ pub(crate) fn decode_document(
     Some(job)
 }
 
-fn text_node(node: &KdlNode, r: &mut Reader) -> Option<String> {
+fn text_node(node: Node<'_>, r: &mut Reader) -> Option<String> {
     r.check_entries(node, &[], 1);
     r.no_children(node);
     let what = format!("`{}`", node.name().value());
@@ -374,7 +376,7 @@ fn text_node(node: &KdlNode, r: &mut Reader) -> Option<String> {
         .map(|s| s.value)
 }
 
-fn decode_info(node: &KdlNode, r: &mut Reader) -> Option<JobInfo> {
+fn decode_info(node: Node<'_>, r: &mut Reader) -> Option<JobInfo> {
     r.check_entries(node, &["id", "received", "completed", "technician"], 0);
     r.no_children(node);
     let id = r.req_prop_string(node, "id", "job id=\"2026-001\"");
@@ -401,7 +403,7 @@ fn decode_info(node: &KdlNode, r: &mut Reader) -> Option<JobInfo> {
     })
 }
 
-fn decode_customer(node: &KdlNode, r: &mut Reader) -> Option<Customer> {
+fn decode_customer(node: Node<'_>, r: &mut Reader) -> Option<Customer> {
     r.check_entries(node, &["name"], 0);
     let name = r.req_prop_string(node, "name", "customer name=\"…\"");
     let mut contacts = Vec::new();
@@ -416,7 +418,7 @@ fn decode_customer(node: &KdlNode, r: &mut Reader) -> Option<Customer> {
     })
 }
 
-fn decode_unit(node: &KdlNode, r: &mut Reader) -> Option<Unit> {
+fn decode_unit(node: Node<'_>, r: &mut Reader) -> Option<Unit> {
     r.check_entries(node, &["make", "model", "serial", "year", "rated-power"], 0);
     let make = r.req_prop_string(node, "make", "unit make=\"…\" model=\"…\"");
     let model = r.req_prop_string(node, "model", "unit make=\"…\" model=\"…\"");
@@ -457,7 +459,7 @@ fn decode_unit(node: &KdlNode, r: &mut Reader) -> Option<Unit> {
     })
 }
 
-fn decode_mains(node: &KdlNode, r: &mut Reader) -> Option<Mains> {
+fn decode_mains(node: Node<'_>, r: &mut Reader) -> Option<Mains> {
     r.check_entries(node, &["nominal", "frequency", "tolerance", "design"], 0);
     r.no_children(node);
     let nominal = r.req_prop_quantity(node, "nominal", Q::Voltage, "mains nominal=\"120V\"");
@@ -512,7 +514,7 @@ fn decode_mains(node: &KdlNode, r: &mut Reader) -> Option<Mains> {
     })
 }
 
-fn decode_valves(node: &KdlNode, r: &mut Reader) -> Vec<ValvePosition> {
+fn decode_valves(node: Node<'_>, r: &mut Reader) -> Vec<ValvePosition> {
     r.check_entries(node, &[], 0);
     let mut out: Vec<ValvePosition> = Vec::new();
     let mut listed: HashSet<String> = HashSet::new();
@@ -585,7 +587,7 @@ fn decode_valves(node: &KdlNode, r: &mut Reader) -> Vec<ValvePosition> {
     out
 }
 
-fn decode_circuit(node: &KdlNode, r: &mut Reader) -> Circuit {
+fn decode_circuit(node: Node<'_>, r: &mut Reader) -> Circuit {
     r.check_entries(node, &[], 0);
     let mut c = Circuit::default();
     let mut declared: HashSet<String> = HashSet::new();
@@ -845,7 +847,7 @@ fn decode_circuit(node: &KdlNode, r: &mut Reader) -> Circuit {
     c
 }
 
-fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet> {
+fn decode_measurements(node: Node<'_>, r: &mut Reader) -> Option<MeasurementSet> {
     r.check_entries(node, &["mains", "date", "final"], 1);
     let is_final = r.opt_prop_bool(node, "final").unwrap_or(false);
     let example = "measurements \"as found\" mains=\"121V\"";
@@ -1108,7 +1110,7 @@ fn decode_measurements(node: &KdlNode, r: &mut Reader) -> Option<MeasurementSet>
 /// A valve's readings, and a type given for this set (`type=`); `extra`
 /// names further properties the caller reads itself.
 fn decode_valve_reading(
-    child: &KdlNode,
+    child: Node<'_>,
     r: &mut Reader,
     extra: &[&str],
 ) -> Option<(ValveReading, Option<Spanned<String>>)> {
@@ -1227,7 +1229,7 @@ fn decode_valve_reading(
     ))
 }
 
-fn decode_parts(node: &KdlNode, r: &mut Reader) -> Vec<PartChange> {
+fn decode_parts(node: Node<'_>, r: &mut Reader) -> Vec<PartChange> {
     r.check_entries(node, &[], 0);
     let mut out = Vec::new();
     for child in r.children(node.children(), &["part"], "`parts`") {
@@ -1271,7 +1273,7 @@ fn decode_parts(node: &KdlNode, r: &mut Reader) -> Vec<PartChange> {
     out
 }
 
-fn decode_mods(node: &KdlNode, r: &mut Reader) -> Vec<Modification> {
+fn decode_mods(node: Node<'_>, r: &mut Reader) -> Vec<Modification> {
     r.check_entries(node, &[], 0);
     let mut out = Vec::new();
     for child in r.children(node.children(), &["mod"], "`mods`") {
@@ -1310,7 +1312,7 @@ pub const MOD_FIGURES: &[&str] = &[
 ];
 
 /// A mod's worked figures and its network, if it has one.
-fn decode_mod_figures(node: &KdlNode, r: &mut Reader) -> (Vec<ModFigure>, Option<Network>) {
+fn decode_mod_figures(node: Node<'_>, r: &mut Reader) -> (Vec<ModFigure>, Option<Network>) {
     let mut out = Vec::new();
     let mut network: Option<Network> = None;
     for child in r.children(
@@ -1404,7 +1406,7 @@ fn decode_mod_figures(node: &KdlNode, r: &mut Reader) -> (Vec<ModFigure>, Option
     (out, network)
 }
 
-fn decode_safety(node: &KdlNode, defaults: &SafetyDefaults, r: &mut Reader) -> Option<Safety> {
+fn decode_safety(node: Node<'_>, defaults: &SafetyDefaults, r: &mut Reader) -> Option<Safety> {
     r.check_entries(node, &["class"], 0);
     let class = match Reader::prop(node, "class").and_then(|e| r.name(e, "`class`")) {
         Some(c) => match c.value.as_str() {
@@ -1568,7 +1570,7 @@ fn decode_safety(node: &KdlNode, defaults: &SafetyDefaults, r: &mut Reader) -> O
 /// else an error saying where it may be given. More than zero.
 fn limit_or_default(
     r: &mut Reader,
-    node: &KdlNode,
+    node: Node<'_>,
     key: &str,
     kind: Q,
     default: Option<f64>,
@@ -1602,7 +1604,7 @@ fn limit_or_default(
 /// The `accepted` block: findings the technician has judged and accepted,
 /// each with a reason; `by=` and `date=` default to the block's, then to
 /// the job's technician and completion date.
-fn decode_accepted(node: &KdlNode, info: &JobInfo, r: &mut Reader) -> Vec<Acceptance> {
+fn decode_accepted(node: Node<'_>, info: &JobInfo, r: &mut Reader) -> Vec<Acceptance> {
     r.check_entries(node, &["by", "date"], 0);
     let block_by = r
         .opt_prop_string(node, "by")
@@ -1762,7 +1764,7 @@ fn decode_accepted(node: &KdlNode, info: &JobInfo, r: &mut Reader) -> Vec<Accept
     out
 }
 
-fn decode_notes(node: &KdlNode, r: &mut Reader) -> Vec<Remark> {
+fn decode_notes(node: Node<'_>, r: &mut Reader) -> Vec<Remark> {
     r.check_entries(node, &[], 0);
     let mut out = Vec::new();
     for child in r.children(node.children(), &["note"], "`notes`") {
@@ -1774,7 +1776,7 @@ fn decode_notes(node: &KdlNode, r: &mut Reader) -> Vec<Remark> {
 }
 
 /// A text node that may be marked `private=#true`: `note "…" private=#true`.
-fn remark(node: &KdlNode, r: &mut Reader) -> Option<Remark> {
+fn remark(node: Node<'_>, r: &mut Reader) -> Option<Remark> {
     r.check_entries(node, &["private"], 1);
     r.no_children(node);
     let name = node.name().value();
@@ -1789,7 +1791,7 @@ fn remark(node: &KdlNode, r: &mut Reader) -> Option<Remark> {
 /// The photos of a job: `photo "photos/chassis.jpg" caption="…" listing=#true`.
 /// Only what is written is checked here; the file itself is checked when a
 /// document is made.
-fn decode_photos(node: &KdlNode, r: &mut Reader) -> Vec<Photo> {
+fn decode_photos(node: Node<'_>, r: &mut Reader) -> Vec<Photo> {
     r.check_entries(node, &[], 0);
     let mut out = Vec::new();
     for child in r.children(node.children(), &["photo"], "`photos`") {
@@ -1818,7 +1820,7 @@ fn decode_photos(node: &KdlNode, r: &mut Reader) -> Vec<Photo> {
 /// names where the base came from, for the message when the merged aim is
 /// upside down.
 pub(crate) fn decode_settings(
-    node: &KdlNode,
+    node: Node<'_>,
     base: &Settings,
     base_from: Msg,
     r: &mut Reader,
@@ -1901,9 +1903,9 @@ pub(crate) fn decode_settings(
 // ----- small shared readers ---------------------------------------------------
 
 /// The figure after a leading `>` of a text value (an over-range reading).
-fn over_range_text(e: &kdl::KdlEntry) -> Option<String> {
+fn over_range_text(e: &Entry<'_>) -> Option<String> {
     match e.value() {
-        kdl::KdlValue::String(s) => s
+        Value::String(s) => s
             .trim()
             .strip_prefix('>')
             .map(|rest| rest.trim_start_matches('=').trim().to_string()),
@@ -1913,12 +1915,12 @@ fn over_range_text(e: &kdl::KdlEntry) -> Option<String> {
 
 /// A level in decibels: a plain number or text ending in `dB`, from 0 to
 /// 150 dB.
-fn decibels(r: &mut Reader, entry: &kdl::KdlEntry, name: &str) -> Option<f64> {
+fn decibels(r: &mut Reader, entry: &Entry<'_>, name: &str) -> Option<f64> {
     let span = r.value_span(entry);
     let value = match entry.value() {
-        kdl::KdlValue::Integer(i) => Some(*i as f64),
-        kdl::KdlValue::Float(f) => Some(*f),
-        kdl::KdlValue::String(s) => s
+        Value::Integer(i) => Some(*i as f64),
+        Value::Float(f) => Some(*f),
+        Value::String(s) => s
             .trim()
             .strip_suffix("dB")
             .unwrap_or(s.trim())
@@ -1968,24 +1970,24 @@ fn mains_range(r: &mut Reader, v: Option<Spanned<f64>>, what: Msg) -> Option<Spa
     )
 }
 
-fn ohms(r: &mut Reader, node: &KdlNode, key: &str, example: &str) -> Option<Spanned<Ohms>> {
+fn ohms(r: &mut Reader, node: Node<'_>, key: &str, example: &str) -> Option<Spanned<Ohms>> {
     let q = r.req_prop_quantity(node, key, Q::Resistance, example);
     r.positive(q, Msg::new("diag-kind-resistance"), false)
         .map(|q| Spanned::new(Ohms(q.value), q.span))
 }
 
-fn watts(r: &mut Reader, node: &KdlNode, key: &str) -> Option<Watts> {
+fn watts(r: &mut Reader, node: Node<'_>, key: &str) -> Option<Watts> {
     let q = r.opt_prop_quantity(node, key, Q::Power);
     r.positive(q, Msg::new("diag-what-power-rating"), false)
         .map(|q| Watts(q.value))
 }
 
-fn volts_pos(r: &mut Reader, node: &KdlNode, key: &str, what: Msg) -> Option<Volts> {
+fn volts_pos(r: &mut Reader, node: Node<'_>, key: &str, what: Msg) -> Option<Volts> {
     let q = r.opt_prop_quantity(node, key, Q::Voltage);
     r.positive(q, what, false).map(|q| Volts(q.value))
 }
 
-fn percent(r: &mut Reader, node: &KdlNode, key: &str) -> Option<f64> {
+fn percent(r: &mut Reader, node: Node<'_>, key: &str) -> Option<f64> {
     let q = r.opt_prop_quantity(node, key, Q::Percent);
     r.positive(q, Msg::new("diag-what-tolerance"), true)
         .map(|q| q.value / 100.0)

@@ -2,7 +2,7 @@
 //! hum and noise, frequency response and gain. Decoding only; the figures
 //! are worked out in `calc::bench`.
 
-use kdl::KdlNode;
+use crate::kdl_fast::{Node, Value};
 
 use super::decode_error::{DecodeError, suggestion};
 use super::model::*;
@@ -17,7 +17,7 @@ pub const BENCH_NODES: &[&str] = &["output-power", "hum-noise", "response", "gai
 pub const DEFAULT_FREQUENCY: Hertz = Hertz(1000.0);
 
 /// Reads one bench-test node into `bench`.
-pub(crate) fn decode_bench_node(child: &KdlNode, r: &mut Reader, bench: &mut BenchTests) {
+pub(crate) fn decode_bench_node(child: Node<'_>, r: &mut Reader, bench: &mut BenchTests) {
     match child.name().value() {
         "output-power" => {
             r.no_children(child);
@@ -56,7 +56,7 @@ fn volts_above_zero(
         .map(|v| Spanned::new(Volts(v.value), v.span))
 }
 
-fn frequency(r: &mut Reader, node: &KdlNode, key: &str) -> Option<Hertz> {
+fn frequency(r: &mut Reader, node: Node<'_>, key: &str) -> Option<Hertz> {
     let f = r.opt_prop_quantity(node, key, Q::Frequency);
     match f {
         None if Reader::prop(node, key).is_none() => Some(DEFAULT_FREQUENCY),
@@ -66,14 +66,14 @@ fn frequency(r: &mut Reader, node: &KdlNode, key: &str) -> Option<Hertz> {
     }
 }
 
-fn load(r: &mut Reader, node: &KdlNode, example: &str) -> Option<Spanned<Ohms>> {
+fn load(r: &mut Reader, node: Node<'_>, example: &str) -> Option<Spanned<Ohms>> {
     let q = r.req_prop_quantity(node, "load", Q::Resistance, example);
     let q = r.positive(q, Msg::new("diag-bench-load-resistance"), false)?;
     plausible_load(r, q.value, q.span);
     Some(Spanned::new(Ohms(q.value), q.span))
 }
 
-fn opt_load(r: &mut Reader, node: &KdlNode) -> Option<Ohms> {
+fn opt_load(r: &mut Reader, node: Node<'_>) -> Option<Ohms> {
     let q = r.opt_prop_quantity(node, "load", Q::Resistance);
     let q = r.positive(q, Msg::new("diag-bench-load-resistance"), false)?;
     plausible_load(r, q.value, q.span);
@@ -95,7 +95,7 @@ fn plausible_load(r: &mut Reader, ohms: f64, span: miette::SourceSpan) {
     }
 }
 
-fn output_power(node: &KdlNode, r: &mut Reader) -> Option<OutputPowerReading> {
+fn output_power(node: Node<'_>, r: &mut Reader) -> Option<OutputPowerReading> {
     let example = "output-power rms=\"15.5V\" load=\"8R\" frequency=\"1kHz\" at=clipping";
     r.check_entries(
         node,
@@ -171,7 +171,7 @@ fn output_power(node: &KdlNode, r: &mut Reader) -> Option<OutputPowerReading> {
 
 /// `at=clipping`, `at="5%"` (a stated distortion) or `at="0.5V"` (a stated
 /// drive).
-fn condition(node: &KdlNode, r: &mut Reader, example: &str) -> Option<PowerCondition> {
+fn condition(node: Node<'_>, r: &mut Reader, example: &str) -> Option<PowerCondition> {
     let help = || Msg::new("diag-bench-at-help");
     let Some(entry) = Reader::prop(node, "at") else {
         r.push(
@@ -190,7 +190,7 @@ fn condition(node: &KdlNode, r: &mut Reader, example: &str) -> Option<PowerCondi
     };
     let span = r.value_span(entry);
     let text = match entry.value() {
-        kdl::KdlValue::String(s) => s.trim().to_string(),
+        Value::String(s) => s.trim().to_string(),
         other => other.to_string(),
     };
     if text == "clipping" {
@@ -234,7 +234,7 @@ fn condition(node: &KdlNode, r: &mut Reader, example: &str) -> Option<PowerCondi
     None
 }
 
-fn hum_noise(node: &KdlNode, r: &mut Reader) -> Option<HumNoiseReading> {
+fn hum_noise(node: Node<'_>, r: &mut Reader) -> Option<HumNoiseReading> {
     let example = "hum-noise \"4.2mV\" load=\"8R\" input=shorted volume=\"0\"";
     r.check_entries(node, &["load", "input", "volume", "channel"], 1);
     let v = match Reader::arg(node, 0) {
@@ -311,17 +311,17 @@ fn hum_noise(node: &KdlNode, r: &mut Reader) -> Option<HumNoiseReading> {
 }
 
 /// A volume setting as written: text, or a plain number ("0", "10").
-fn volume_words(node: &KdlNode, r: &mut Reader) -> Option<String> {
+fn volume_words(node: Node<'_>, r: &mut Reader) -> Option<String> {
     let entry = Reader::prop(node, "volume")?;
     match entry.value() {
-        kdl::KdlValue::String(s) => Some(s.clone()),
-        kdl::KdlValue::Integer(i) => Some(i.to_string()),
-        kdl::KdlValue::Float(f) if f.is_finite() => Some(f.to_string()),
+        Value::String(s) => Some(s.to_string()),
+        Value::Integer(i) => Some(i.to_string()),
+        Value::Float(f) if f.is_finite() => Some(f.to_string()),
         _ => r.string(entry, "`volume`").map(|s| s.value),
     }
 }
 
-fn response(node: &KdlNode, r: &mut Reader) -> Option<ResponseReading> {
+fn response(node: Node<'_>, r: &mut Reader) -> Option<ResponseReading> {
     let example =
         "response reference=\"1kHz\" input=\"100mV\" load=\"8R\" { point \"100Hz\" \"3.9V\" }";
     r.check_entries(node, &["reference", "load", "input", "channel"], 0);
@@ -419,7 +419,7 @@ fn response(node: &KdlNode, r: &mut Reader) -> Option<ResponseReading> {
     })
 }
 
-fn gain(node: &KdlNode, r: &mut Reader) -> Option<GainReading> {
+fn gain(node: Node<'_>, r: &mut Reader) -> Option<GainReading> {
     let example = "gain input=\"120mV\" output=\"15.5V\" frequency=\"1kHz\"";
     r.check_entries(
         node,

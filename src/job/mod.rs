@@ -81,10 +81,10 @@ fn decode_inner(
         NamedSource::new(name, Arc::new(text.to_string())).with_language("kdl"),
     );
     let mut problems = Vec::new();
-    let job = match crate::kdl_fast::parse_document_bare(text) {
-        Ok(doc) => {
+    let job = match crate::kdl_fast::parse_tree(text) {
+        Ok(tree) => {
             let mut reader = reader::Reader::new(text);
-            let job = decode::decode_document(&doc, name, defaults, &mut reader);
+            let job = decode::decode_document(tree.doc(), name, defaults, &mut reader);
             problems.append(&mut reader.problems);
             if let Some(job) = &job {
                 problems.extend(validate::cross_references(job));

@@ -2,8 +2,8 @@
 //! unknown names with suggestions, missing or repeated entries, wrong value
 //! types, bad units and dates, each pointing at its own span.
 
+use crate::kdl_fast::{Doc, Entry, Node, Value};
 use chrono::NaiveDate;
-use kdl::{KdlDocument, KdlEntry, KdlNode, KdlValue};
 use miette::SourceSpan;
 
 use super::decode_error::{DecodeError, suggestion};
@@ -41,7 +41,7 @@ impl<'s> Reader<'s> {
     }
 
     /// The span of a node's name.
-    pub fn name_span(node: &KdlNode) -> SourceSpan {
+    pub fn name_span(node: Node<'_>) -> SourceSpan {
         node.name().span()
     }
 
@@ -49,10 +49,10 @@ impl<'s> Reader<'s> {
     /// known ones in order.
     pub fn children<'d>(
         &mut self,
-        doc: Option<&'d KdlDocument>,
+        doc: Option<Doc<'d>>,
         allowed: &[&str],
         context: impl Into<Arg>,
-    ) -> Vec<&'d KdlNode> {
+    ) -> Vec<Node<'d>> {
         let context: Arg = context.into();
         let Some(doc) = doc else { return Vec::new() };
         let mut out = Vec::new();
@@ -79,7 +79,7 @@ impl<'s> Reader<'s> {
 
     /// Checks a node's properties against `allowed` and its positional
     /// arguments against `max_args`; reports repeats, unknowns and extras.
-    pub fn check_entries(&mut self, node: &KdlNode, allowed: &[&str], max_args: usize) {
+    pub fn check_entries(&mut self, node: Node<'_>, allowed: &[&str], max_args: usize) {
         let mut seen: Vec<&str> = Vec::new();
         let mut args = 0;
         for entry in node.entries() {
@@ -153,9 +153,9 @@ impl<'s> Reader<'s> {
     }
 
     /// Reports children of a node that should have none.
-    pub fn no_children(&mut self, node: &KdlNode) {
+    pub fn no_children(&mut self, node: Node<'_>) {
         if let Some(doc) = node.children()
-            && let Some(first) = doc.nodes().first()
+            && let Some(first) = doc.first()
         {
             self.push(DecodeError::error(
                 "job::unexpected-children",
@@ -166,20 +166,20 @@ impl<'s> Reader<'s> {
         }
     }
 
-    pub fn arg(node: &KdlNode, index: usize) -> Option<&KdlEntry> {
+    pub fn arg(node: Node<'_>, index: usize) -> Option<&Entry<'_>> {
         node.entries()
             .iter()
             .filter(|e| e.name().is_none())
             .nth(index)
     }
 
-    pub fn prop<'n>(node: &'n KdlNode, key: &str) -> Option<&'n KdlEntry> {
+    pub fn prop<'n>(node: Node<'n>, key: &str) -> Option<&'n Entry<'n>> {
         node.entries()
             .iter()
             .find(|e| e.name().is_some_and(|n| n.value() == key))
     }
 
-    fn missing(&mut self, node: &KdlNode, what: Arg, example: Arg) {
+    fn missing(&mut self, node: Node<'_>, what: Arg, example: Arg) {
         self.push(
             DecodeError::error(
                 "job::missing",
@@ -194,7 +194,7 @@ impl<'s> Reader<'s> {
     }
 
     /// The span of an entry's value (after `key=`), for precise underlines.
-    pub fn value_span(&self, entry: &KdlEntry) -> SourceSpan {
+    pub fn value_span(&self, entry: &Entry<'_>) -> SourceSpan {
         let span = entry.span();
         let start = span.offset();
         let end = (start + span.len()).min(self.source.len());
@@ -229,9 +229,9 @@ impl<'s> Reader<'s> {
 
     // ----- value readers -------------------------------------------------
 
-    pub fn string(&mut self, entry: &KdlEntry, what: impl Into<Arg>) -> Option<Spanned<String>> {
+    pub fn string(&mut self, entry: &Entry<'_>, what: impl Into<Arg>) -> Option<Spanned<String>> {
         match entry.value() {
-            KdlValue::String(s) => Some(Spanned::new(s.clone(), self.value_span(entry))),
+            Value::String(s) => Some(Spanned::new(s.to_string(), self.value_span(entry))),
             other => {
                 let span = self.value_span(entry);
                 self.push(
@@ -252,12 +252,12 @@ impl<'s> Reader<'s> {
 
     /// A name such as a valve position (V1) or node (B+1): text, or a
     /// number that is read as text.
-    pub fn name(&mut self, entry: &KdlEntry, what: impl Into<Arg>) -> Option<Spanned<String>> {
+    pub fn name(&mut self, entry: &Entry<'_>, what: impl Into<Arg>) -> Option<Spanned<String>> {
         match entry.value() {
-            KdlValue::String(s) if !s.trim().is_empty() => {
+            Value::String(s) if !s.trim().is_empty() => {
                 Some(Spanned::new(s.trim().to_string(), self.value_span(entry)))
             }
-            KdlValue::Integer(i) => Some(Spanned::new(i.to_string(), self.value_span(entry))),
+            Value::Integer(i) => Some(Spanned::new(i.to_string(), self.value_span(entry))),
             other => {
                 self.push(DecodeError::error(
                     "job::expected-name",
@@ -272,9 +272,9 @@ impl<'s> Reader<'s> {
         }
     }
 
-    pub fn bool(&mut self, entry: &KdlEntry, what: impl Into<Arg>) -> Option<bool> {
+    pub fn bool(&mut self, entry: &Entry<'_>, what: impl Into<Arg>) -> Option<bool> {
         match entry.value() {
-            KdlValue::Bool(b) => Some(*b),
+            Value::Bool(b) => Some(*b),
             other => {
                 self.push(
                     DecodeError::error(
@@ -294,13 +294,13 @@ impl<'s> Reader<'s> {
 
     pub fn integer(
         &mut self,
-        entry: &KdlEntry,
+        entry: &Entry<'_>,
         what: impl Into<Arg>,
         range: std::ops::RangeInclusive<i64>,
     ) -> Option<i64> {
         let value = match entry.value() {
-            KdlValue::Integer(i) => i64::try_from(*i).ok(),
-            KdlValue::String(s) => s.trim().parse::<i64>().ok(),
+            Value::Integer(i) => i64::try_from(*i).ok(),
+            Value::String(s) => s.trim().parse::<i64>().ok(),
             _ => None,
         };
         match value {
@@ -324,7 +324,7 @@ impl<'s> Reader<'s> {
     /// prefix or RKM code and an optional unit symbol.
     pub fn quantity(
         &mut self,
-        entry: &KdlEntry,
+        entry: &Entry<'_>,
         kind: QuantityKind,
         what: impl Into<Arg> + Clone,
     ) -> Option<Spanned<f64>> {
@@ -336,15 +336,15 @@ impl<'s> Reader<'s> {
     /// readings, each of which named itself in a string of its own.
     fn quantity_with(
         &mut self,
-        entry: &KdlEntry,
+        entry: &Entry<'_>,
         kind: QuantityKind,
         what: impl Fn() -> Arg,
     ) -> Option<Spanned<f64>> {
         let span = self.value_span(entry);
         let value = match entry.value() {
-            KdlValue::Integer(i) => Ok(*i as f64),
-            KdlValue::Float(f) if f.is_finite() => Ok(*f),
-            KdlValue::String(s) => parse_quantity(s, kind).map_err(|e| {
+            Value::Integer(i) => Ok(*i as f64),
+            Value::Float(f) if f.is_finite() => Ok(*f),
+            Value::String(s) => parse_quantity(s, kind).map_err(|e| {
                 // Point inside the quotes at the offending part.
                 let at = self.part_span(span, s, e.offset, e.len);
                 let expected = match &e.problem {
@@ -406,12 +406,12 @@ impl<'s> Reader<'s> {
 
     /// A time since power-on in minutes: a plain number of minutes, or text
     /// with a unit, `"30s"`, `"5min"`, `"1.5h"`.
-    pub fn minutes(&mut self, entry: &KdlEntry, what: impl Into<Arg>) -> Option<Spanned<f64>> {
+    pub fn minutes(&mut self, entry: &Entry<'_>, what: impl Into<Arg>) -> Option<Spanned<f64>> {
         let span = self.value_span(entry);
         let value = match entry.value() {
-            KdlValue::Integer(i) => Some(*i as f64),
-            KdlValue::Float(f) if f.is_finite() => Some(*f),
-            KdlValue::String(s) => {
+            Value::Integer(i) => Some(*i as f64),
+            Value::Float(f) if f.is_finite() => Some(*f),
+            Value::String(s) => {
                 let t = s.trim();
                 let split = t
                     .find(|c: char| !(c.is_ascii_digit() || c == '.'))
@@ -447,11 +447,11 @@ impl<'s> Reader<'s> {
         }
     }
 
-    pub fn date(&mut self, entry: &KdlEntry, what: impl Into<Arg>) -> Option<Spanned<NaiveDate>> {
+    pub fn date(&mut self, entry: &Entry<'_>, what: impl Into<Arg>) -> Option<Spanned<NaiveDate>> {
         let what: Arg = what.into();
         let span = self.value_span(entry);
         let text = match entry.value() {
-            KdlValue::String(s) => s.clone(),
+            Value::String(s) => &**s,
             other => {
                 self.push(
                     DecodeError::error(
@@ -495,7 +495,7 @@ impl<'s> Reader<'s> {
 
     pub fn req_arg_string(
         &mut self,
-        node: &KdlNode,
+        node: Node<'_>,
         what: impl Into<Arg>,
         example: impl Into<Arg>,
     ) -> Option<Spanned<String>> {
@@ -510,7 +510,7 @@ impl<'s> Reader<'s> {
 
     pub fn req_arg_name(
         &mut self,
-        node: &KdlNode,
+        node: Node<'_>,
         what: impl Into<Arg>,
         example: impl Into<Arg>,
     ) -> Option<Spanned<String>> {
@@ -524,14 +524,14 @@ impl<'s> Reader<'s> {
     }
 
     /// Reports that `node` lacks the property `key`.
-    fn missing_prop(&mut self, node: &KdlNode, key: &str, example: Arg) {
+    fn missing_prop(&mut self, node: Node<'_>, key: &str, example: Arg) {
         let what = Msg::new("diag-a-property").arg("key", key).into();
         self.missing(node, what, example);
     }
 
     pub fn req_prop_string(
         &mut self,
-        node: &KdlNode,
+        node: Node<'_>,
         key: &str,
         example: impl Into<Arg>,
     ) -> Option<Spanned<String>> {
@@ -544,7 +544,7 @@ impl<'s> Reader<'s> {
         }
     }
 
-    pub fn opt_prop_string(&mut self, node: &KdlNode, key: &str) -> Option<String> {
+    pub fn opt_prop_string(&mut self, node: Node<'_>, key: &str) -> Option<String> {
         Self::prop(node, key)
             .and_then(|e| self.string(e, Backticked(key)))
             .map(|s| s.value)
@@ -552,7 +552,7 @@ impl<'s> Reader<'s> {
 
     pub fn req_prop_name(
         &mut self,
-        node: &KdlNode,
+        node: Node<'_>,
         key: &str,
         example: &str,
     ) -> Option<Spanned<String>> {
@@ -567,7 +567,7 @@ impl<'s> Reader<'s> {
 
     pub fn req_prop_quantity(
         &mut self,
-        node: &KdlNode,
+        node: Node<'_>,
         key: &str,
         kind: QuantityKind,
         example: &str,
@@ -583,18 +583,18 @@ impl<'s> Reader<'s> {
 
     pub fn opt_prop_quantity(
         &mut self,
-        node: &KdlNode,
+        node: Node<'_>,
         key: &str,
         kind: QuantityKind,
     ) -> Option<Spanned<f64>> {
         Self::prop(node, key).and_then(|e| self.quantity_with(e, kind, || Backticked(key).into()))
     }
 
-    pub fn opt_prop_bool(&mut self, node: &KdlNode, key: &str) -> Option<bool> {
+    pub fn opt_prop_bool(&mut self, node: Node<'_>, key: &str) -> Option<bool> {
         Self::prop(node, key).and_then(|e| self.bool(e, Backticked(key)))
     }
 
-    pub fn opt_prop_date(&mut self, node: &KdlNode, key: &str) -> Option<Spanned<NaiveDate>> {
+    pub fn opt_prop_date(&mut self, node: Node<'_>, key: &str) -> Option<Spanned<NaiveDate>> {
         Self::prop(node, key).and_then(|e| self.date(e, Backticked(key)))
     }
 
@@ -676,27 +676,27 @@ impl From<Backticked<'_>> for Arg {
 }
 
 /// What a value was, in words: "the text \"x\"", "the number 3", "#true".
-pub(crate) fn describe(v: &KdlValue) -> Arg {
+pub(crate) fn describe(v: &Value<'_>) -> Arg {
     match v {
-        KdlValue::String(s) => Msg::new("diag-found-text").arg("text", s.as_str()).into(),
-        KdlValue::Integer(i) => Msg::new("diag-found-number")
+        Value::String(s) => Msg::new("diag-found-text").arg("text", &**s).into(),
+        Value::Integer(i) => Msg::new("diag-found-number")
             .arg("number", i.to_string())
             .into(),
-        KdlValue::Float(f) => Msg::new("diag-found-number")
+        Value::Float(f) => Msg::new("diag-found-number")
             .arg("number", f.to_string())
             .into(),
-        KdlValue::Bool(b) => format!("#{b}").into(),
-        KdlValue::Null => "#null".into(),
+        Value::Bool(b) => format!("#{b}").into(),
+        Value::Null => "#null".into(),
     }
 }
 
-fn plain(v: &KdlValue) -> String {
+fn plain(v: &Value<'_>) -> String {
     match v {
-        KdlValue::String(s) => s.clone(),
-        KdlValue::Integer(i) => i.to_string(),
-        KdlValue::Float(f) => f.to_string(),
-        KdlValue::Bool(b) => b.to_string(),
-        KdlValue::Null => String::new(),
+        Value::String(s) => s.to_string(),
+        Value::Integer(i) => i.to_string(),
+        Value::Float(f) => f.to_string(),
+        Value::Bool(b) => b.to_string(),
+        Value::Null => String::new(),
     }
 }
 

@@ -71,11 +71,11 @@ pub fn check(job: &Job, ratings: &RatingsTable) -> Vec<DecodeError> {
     // The rectifier as each set fits it (and as the circuit block states it).
     let mut fitted_rectifiers: Vec<(super::model::Spanned<String>, super::model::ValvePosition)> =
         Vec::new();
-    let base = std::iter::once((job.circuit.clone(), None));
+    let base = std::iter::once((std::borrow::Cow::Borrowed(&job.circuit), None));
     let sets = job
         .measurements
         .iter()
-        .map(|s| (job.circuit_for(s).into_owned(), Some(s)));
+        .map(|s| (job.circuit_for(s), Some(s)));
     for (c, set) in base.chain(sets) {
         if let Some(rect) = &c.rectifier
             && let RectifierKind::Valve(pos) = &rect.kind
@@ -110,4 +110,56 @@ pub fn check(job: &Job, ratings: &RatingsTable) -> Vec<DecodeError> {
         }
     }
     out
+}
+
+#[cfg(test)]
+mod tests {
+    use crate::ratings::RatingsTable;
+
+    /// The codes and places of the problems decoding `text` gives.
+    fn problems(text: &str) -> Vec<(&'static str, usize)> {
+        let ratings = RatingsTable::builtin();
+        match super::super::decode_with_ratings("j.kdl", text, &ratings) {
+            Ok(d) => d
+                .diagnostics
+                .problems
+                .iter()
+                .map(|p| (p.code, p.span.offset()))
+                .collect(),
+            Err(d) => d
+                .problems
+                .iter()
+                .map(|p| (p.code, p.span.offset()))
+                .collect(),
+        }
+    }
+
+    #[test]
+    fn the_rectifier_is_checked_as_each_set_fits_it() {
+        let demo = include_str!("../../jobs/combo-6v6-fixed.kdl");
+        let named = demo.find("rectifier V5").expect("the circuit names V5") + "rectifier ".len();
+        let fits = |text: &str| {
+            problems(text)
+                .into_iter()
+                .filter(|&(code, _)| code == "job::not-a-rectifier")
+                .map(|(_, at)| at)
+                .collect::<Vec<_>>()
+        };
+        // The demo fits a 5V4G for its later set: no complaint.
+        assert_eq!(fits(demo), Vec::<usize>::new());
+        // A set that fits an output valve in the rectifier's place: one
+        // problem, at the circuit's naming of V5 (said once, whatever the
+        // number of sets that fit it).
+        let swapped = demo.replace("    valve V5 type=\"5V4G\"", "    valve V5 type=\"6V6GT\"");
+        assert_ne!(swapped, demo);
+        assert_eq!(fits(&swapped), vec![named]);
+        // The line-up itself holding an output valve there, listed as a
+        // preamp (so the role check is quiet): the same problem, once.
+        let lineup = swapped.replace(
+            "valve V5 type=\"5Y3GT\" role=rectifier",
+            "valve V5 type=\"6L6GC\" role=preamp",
+        );
+        assert_ne!(lineup, swapped);
+        assert_eq!(fits(&lineup), vec![named + lineup.len() - swapped.len()]);
+    }
 }

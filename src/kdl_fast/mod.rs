@@ -1,7 +1,9 @@
-//! Reading KDL 2.0 text into `kdl::KdlDocument` quickly. Job files and the
-//! ratings table are read on every run, and the `kdl` crate's own parser
-//! spends most of a `check` on them; this parser builds the same document
-//! (names, types, values and spans) in a fraction of the time.
+//! Reading KDL 2.0 text quickly. Job files and the ratings table are read
+//! on every run, and the `kdl` crate's own parser spends most of a `check`
+//! on them; this parser reads the same document (names, types, values and
+//! spans) in a fraction of the time, into a flat [`Tree`] of its own that
+//! the job decode reads directly, or, for other readers, into the `kdl`
+//! crate's `KdlDocument`.
 //!
 //! It reads all of KDL 2.0 as the `kdl` crate reads it and declines only
 //! broken text (the differential tests in `tests/kdl_differential.rs` hold
@@ -15,6 +17,7 @@ mod chars;
 mod depth;
 mod parser;
 mod tokens;
+mod tree;
 
 #[cfg(test)]
 mod tests;
@@ -22,6 +25,7 @@ mod tests;
 use kdl::{KdlDocument, KdlError};
 
 pub use depth::{Depths, TooDeep, measure, too_deep};
+pub use tree::{Doc, Entry, Ident, Node, Tree, Value, differs as tree_differs};
 
 /// Parses KDL 2.0 text: the fast parser first, the `kdl` crate's parser
 /// for anything the fast one declines (which is broken). The result is
@@ -36,14 +40,20 @@ pub fn parse_document(text: &str) -> Result<KdlDocument, KdlError> {
 }
 
 /// [`parse_document`] for a reader that looks only at names, types, values
-/// and spans (a job file's decode): the fast parser's entries carry no
-/// format, so no copy of each value as written is made (nor freed). Text
-/// the fast parser declines is parsed as by [`parse_document`].
-pub fn parse_document_bare(text: &str) -> Result<KdlDocument, KdlError> {
-    match parser::Parser::with_reprs(text, false).document() {
-        Ok(doc) => Ok(doc),
-        Err(_) => parse_declined(text),
+/// and spans (a job file's or shop profile's decode): the fast parser's own
+/// [`Tree`], with no `KdlDocument` built. Text the fast parser declines is
+/// parsed as by [`parse_document`]; a valid one becomes a tree holding its
+/// own copies of the names and text.
+pub fn parse_tree(text: &str) -> Result<Tree<'_>, KdlError> {
+    match fast_tree(text) {
+        Some(tree) => Ok(tree),
+        None => parse_declined(text).map(|doc| Tree::from_document(&doc)),
     }
+}
+
+/// The fast parser's tree alone: `None` when it declines the text.
+pub fn fast_tree(text: &str) -> Option<Tree<'_>> {
+    parser::Parser::new(text).document().ok()
 }
 
 /// What [`parse_document`] gives for a text the fast parser declined.
@@ -228,7 +238,7 @@ pub fn narrow_span(text: &str, span: miette::SourceSpan) -> miette::SourceSpan {
 /// The fast parser alone: `None` when it declines the text (which it does
 /// for every broken document and for a few rare valid forms).
 pub fn parse_fast(text: &str) -> Option<KdlDocument> {
-    parser::Parser::new(text).document().ok()
+    fast_tree(text).map(|tree| tree.to_document(true))
 }
 
 #[cfg(test)]

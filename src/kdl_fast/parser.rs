@@ -4,10 +4,10 @@
 //! and gives up with [`Reject`] wherever that reading would be an error or
 //! where it is not certain what the `kdl` crate does.
 
-use kdl::{KdlDocument, KdlEntry, KdlEntryFormat, KdlIdentifier, KdlNode, KdlValue};
 use miette::SourceSpan;
 
 use super::chars::{newline_len, space_len};
+use super::tree::{Block, Entry, Ident, NodeData, Tree, Value};
 
 /// The fast parser declines this input; the `kdl` crate's parser decides.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -32,57 +32,49 @@ pub(super) struct Parser<'a> {
     pub(super) bytes: &'a [u8],
     pub(super) pos: usize,
     depth: u32,
-    /// Entries of the nodes being read, innermost last; each node takes
-    /// its own off the top into a vector of exactly the right size.
-    entries: Vec<KdlEntry>,
-    /// Nodes of the documents being read, likewise.
-    nodes: Vec<KdlNode>,
-    /// An empty node without formatting, cloned for each node read (which
-    /// allocates nothing, unlike `KdlNode::new`).
-    blank: KdlNode,
-    /// An empty entry with empty formatting, cloned for each entry read, so
-    /// that entries are filled in where they lie.
-    blank_entry: KdlEntry,
-    /// Whether each entry keeps its value as written (its format's
-    /// `value_repr`); without it an entry has no format at all.
-    reprs: bool,
+    /// Every entry read, each node's next to one another (a node's entries
+    /// are all read before its children). Entries commented out with `/-`
+    /// are taken off again.
+    entries: Vec<Entry<'a>>,
+    /// Nodes of the blocks being read, innermost last; a block, once read,
+    /// moves its own off the top into `done`.
+    open: Vec<NodeData<'a>>,
+    /// Nodes of the blocks read, each block's next to one another.
+    done: Vec<NodeData<'a>>,
 }
 
 pub(super) fn span(start: usize, end: usize) -> SourceSpan {
     SourceSpan::new(start.into(), end - start)
 }
 
+/// A place in the tree's lists as stored (a text of over four thousand
+/// million nodes or entries is declined).
+fn index(i: usize) -> R<u32> {
+    u32::try_from(i).map_err(|_| Reject)
+}
+
 /// A value read from the text, before it becomes an entry.
-pub(super) struct Value<'a> {
-    pub(super) ty: Option<KdlIdentifier>,
-    pub(super) value: KdlValue,
+pub(super) struct ReadValue<'a> {
+    pub(super) ty: Option<Ident<'a>>,
+    pub(super) value: Value<'a>,
     /// The value as written, without its type annotation.
     pub(super) raw: &'a str,
 }
 
 impl<'a> Parser<'a> {
     pub(super) fn new(src: &'a str) -> Self {
-        Self::with_reprs(src, true)
-    }
-
-    /// A parser whose entries keep their values as written (`reprs`) or
-    /// have no format at all, for readers that look only at names, values
-    /// and spans.
-    pub(super) fn with_reprs(src: &'a str, reprs: bool) -> Self {
-        let mut blank = KdlNode::new("");
-        blank.clear_format();
-        let mut blank_entry = KdlEntry::new(KdlValue::Null);
-        blank_entry.set_format(KdlEntryFormat::default());
+        // Room for a node in every 24 bytes of text (a long job's lines
+        // take about 36) and an entry in every 12 (a reading such as
+        // ` plate="466V"` takes 13), so that a long job's lists are not
+        // copied as they grow; room never written to costs no memory.
         Parser {
             src,
             bytes: src.as_bytes(),
             pos: 0,
             depth: 0,
-            entries: Vec::new(),
-            nodes: Vec::new(),
-            blank,
-            blank_entry,
-            reprs,
+            entries: Vec::with_capacity(src.len() / 12),
+            open: Vec::new(),
+            done: Vec::with_capacity(src.len() / 24),
         }
     }
 
@@ -120,25 +112,40 @@ impl<'a> Parser<'a> {
     // ----- the document ---------------------------------------------------
 
     /// `document := bom? nodes eof`
-    pub(super) fn document(&mut self) -> R<KdlDocument> {
+    pub(super) fn document(&mut self) -> R<Tree<'a>> {
         if self.starts("\u{FEFF}".as_bytes()) {
             self.pos += 3;
         }
-        let doc = self.nodes()?;
+        let top = self.nodes()?;
         if self.pos == self.bytes.len() {
-            Ok(doc)
+            Ok(Tree {
+                nodes: std::mem::take(&mut self.done),
+                entries: std::mem::take(&mut self.entries),
+                top,
+            })
         } else {
             Err(Reject)
         }
     }
 
+    /// Reads something commented out (a node, a child block) with `read`
+    /// and forgets the nodes and entries it added.
+    fn discarding<T>(&mut self, read: impl FnOnce(&mut Self) -> R<T>) -> R<T> {
+        let (open, done, entries) = (self.open.len(), self.done.len(), self.entries.len());
+        let out = read(self);
+        self.open.truncate(open);
+        self.done.truncate(done);
+        self.entries.truncate(entries);
+        out
+    }
+
     /// `nodes := (line-space | slashdash node)* (node terminator ...)* ...`
     /// The span runs from the first node to the end of the last one.
-    fn nodes(&mut self) -> R<KdlDocument> {
+    fn nodes(&mut self) -> R<Block> {
         self.leading()?;
         let start = self.pos;
         let mut end = start;
-        let mark = self.nodes.len();
+        let mark = self.open.len();
         loop {
             if self.at_close_or_end() {
                 break;
@@ -153,12 +160,13 @@ impl<'a> Parser<'a> {
             }
             self.leading()?;
         }
-        let mut doc = KdlDocument::new();
-        if self.nodes.len() > mark {
-            *doc.nodes_mut() = self.nodes.drain(mark..).collect();
-        }
-        doc.set_span(span(start, end));
-        Ok(doc)
+        let first = self.done.len();
+        self.done.extend(self.open.drain(mark..));
+        Ok(Block {
+            first: index(first)?,
+            len: index(self.done.len() - first)?,
+            span: span(start, end),
+        })
     }
 
     /// `(line-space | slashdash base-node)*`: what may come before a node
@@ -174,9 +182,7 @@ impl<'a> Parser<'a> {
                     return Err(Reject);
                 }
                 self.enter()?;
-                let mark = self.nodes.len();
-                self.base_node()?;
-                self.nodes.truncate(mark);
+                self.discarding(Self::base_node)?;
                 self.leave();
                 continue;
             }
@@ -204,9 +210,8 @@ impl<'a> Parser<'a> {
     }
 
     /// A node's type, name, entries and children, and the space after them,
-    /// pushed onto `self.nodes` (it is built there, in place, as nodes and
-    /// entries are large). The caller has checked that the text is not at
-    /// `}` or the end.
+    /// pushed onto `self.open` (it is built there, in place). The caller
+    /// has checked that the text is not at `}` or the end.
     fn base_node(&mut self) -> R<()> {
         let start = self.pos;
         let ty = match self.byte() {
@@ -216,12 +221,6 @@ impl<'a> Parser<'a> {
         };
         self.node_space0()?;
         let name = self.identifier()?.ok_or(Reject)?;
-        let at = self.nodes.len();
-        self.nodes.push(self.blank.clone());
-        self.nodes[at].set_name(name);
-        if let Some(ty) = ty {
-            self.nodes[at].set_ty(ty);
-        }
         let mark = self.entries.len();
         while self.starts_node_space() {
             let save = self.pos;
@@ -230,26 +229,31 @@ impl<'a> Parser<'a> {
                 break;
             }
         }
-        if self.entries.len() > mark {
-            let entries = self.entries.drain(mark..).collect();
-            *self.nodes[at].entries_mut() = entries;
-        }
+        let entries = (index(mark)?, index(self.entries.len())?);
         self.before_children()?;
+        let at = self.open.len();
+        self.open.push(NodeData {
+            name,
+            ty,
+            entries,
+            children: None,
+            span: span(start, start),
+        });
         if self.byte() == Some(b'{') {
             let children = self.node_children()?;
-            self.nodes[at].set_children(children);
+            self.open[at].children = Some(children);
             let save = self.pos;
             if !self.slashdashed_children()? {
                 self.pos = save;
             }
         }
         self.node_space0()?;
-        self.nodes[at].set_span(span(start, self.pos));
+        self.open[at].span = span(start, self.pos);
         Ok(())
     }
 
     /// `{ nodes }`
-    fn node_children(&mut self) -> R<KdlDocument> {
+    fn node_children(&mut self) -> R<Block> {
         self.enter()?;
         self.pos += 1;
         let doc = self.nodes()?;
@@ -293,7 +297,7 @@ impl<'a> Parser<'a> {
         if self.byte() != Some(b'{') {
             return Ok(false);
         }
-        self.node_children()?;
+        self.discarding(Self::node_children)?;
         loop {
             let save = self.pos;
             if !self.node_space0()? || !self.starts(b"/-") {
@@ -305,7 +309,7 @@ impl<'a> Parser<'a> {
                 self.pos = save;
                 return Ok(true);
             }
-            self.node_children()?;
+            self.discarding(Self::node_children)?;
         }
     }
 
@@ -358,14 +362,16 @@ impl<'a> Parser<'a> {
                 self.pos += 1;
                 self.node_space0()?;
                 let value = self.value()?.ok_or(Reject)?;
-                let mut name = KdlIdentifier::from(text.into_owned());
-                name.set_span(span(start, name_end));
+                let name = Ident {
+                    value: text,
+                    span: span(start, name_end),
+                };
                 (Some(name), value)
             } else {
                 self.pos = name_end;
-                let value = Value {
+                let value = ReadValue {
                     ty: None,
-                    value: KdlValue::String(text.into_owned()),
+                    value: Value::String(text),
                     raw: &self.src[start..name_end],
                 };
                 (None, value)
@@ -376,29 +382,18 @@ impl<'a> Parser<'a> {
             };
             (None, value)
         };
-        let at = self.entries.len();
-        if self.reprs {
-            self.entries.push(self.blank_entry.clone());
-        } else {
-            self.entries.push(KdlEntry::new(KdlValue::Null));
-        }
-        let entry = &mut self.entries[at];
-        entry.set_value(value.value);
-        if name.is_some() {
-            entry.set_name(name);
-        }
-        if let Some(ty) = value.ty {
-            entry.set_ty(ty);
-        }
-        if let Some(format) = entry.format_mut() {
-            format.value_repr = value.raw.to_string();
-        }
-        entry.set_span(span(start, self.pos));
+        self.entries.push(Entry {
+            name,
+            ty: value.ty,
+            value: value.value,
+            raw: value.raw,
+            span: span(start, self.pos),
+        });
         Ok(true)
     }
 
     /// `type := '(' node-space* string node-space* ')'`
-    pub(super) fn ty(&mut self) -> R<KdlIdentifier> {
+    pub(super) fn ty(&mut self) -> R<Ident<'a>> {
         self.pos += 1;
         self.node_space0()?;
         let ty = self.identifier()?.ok_or(Reject)?;

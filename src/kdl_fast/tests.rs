@@ -552,45 +552,16 @@ fn a_broken_text_with_deep_dashed_blocks_gets_its_first_error_only() {
     }));
 }
 
-/// Walks two documents and says where they differ in anything but the
-/// entries' formats: names, types, values, spans and children.
-fn same_but_formats(path: &str, a: &KdlDocument, b: &KdlDocument) -> Result<(), String> {
-    if a.span() != b.span() || a.nodes().len() != b.nodes().len() {
-        return Err(format!("{path}: span or node count"));
-    }
-    for (i, (x, y)) in a.nodes().iter().zip(b.nodes()).enumerate() {
-        let path = format!("{path}/{i}:{}", y.name().value());
-        let ident = |p: Option<&kdl::KdlIdentifier>| p.map(|p| (p.value().to_string(), p.span()));
-        if x.span() != y.span()
-            || ident(Some(x.name())) != ident(Some(y.name()))
-            || ident(x.ty()) != ident(y.ty())
-            || x.entries().len() != y.entries().len()
-        {
-            return Err(format!("{path}: node"));
-        }
-        for (j, (e, f)) in x.entries().iter().zip(y.entries()).enumerate() {
-            if e.value() != f.value()
-                || e.span() != f.span()
-                || ident(e.name()) != ident(f.name())
-                || ident(e.ty()) != ident(f.ty())
-            {
-                return Err(format!("{path}[{j}]: entry"));
-            }
-        }
-        match (x.children(), y.children()) {
-            (None, None) => {}
-            (Some(c), Some(d)) => same_but_formats(&path, c, d)?,
-            _ => return Err(format!("{path}: children")),
-        }
-    }
-    Ok(())
-}
-
 #[test]
-fn the_bare_parse_is_the_full_one_without_the_entries_formats() {
+fn the_tree_is_the_kdl_crates_document() {
+    // The repository's KDL files, the fuzz corpus and snippets: whatever
+    // the fast parser reads, its tree has the names, types, values, spans
+    // and children the `kdl` crate gives; a text it declines is read by
+    // that crate (kept, with its text owned, when valid); a broken text is
+    // refused with the errors `parse_document` gives, in the same places.
     let root = std::path::Path::new(env!("CARGO_MANIFEST_DIR"));
     let mut texts: Vec<String> = Vec::new();
-    for dir in ["jobs", "ratings", "tests/fuzz-corpus"] {
+    for dir in ["jobs", "ratings", "tests/fuzz-corpus", "templates"] {
         let mut paths: Vec<_> = std::fs::read_dir(root.join(dir))
             .unwrap()
             .map(|e| e.unwrap().path())
@@ -604,7 +575,11 @@ fn the_bare_parse_is_the_full_one_without_the_entries_formats() {
         [
             "n (t)1 (u)\"x\" k=(v)#true \"q\"=r ##\"raw\"## 0x1F 1.5e3 #null",
             "a { b 1; c d=\"e\\n\" { f } }\n/- g 2\nh /- 3 4 /- { i }",
+            "a /- { x 1 { y 2 } } { b 3 { c \"\\u{b5}\" } } /- { z }\nd /- e { f 4 }\n/- g { h 5 }\ni 6",
+            "a { /- b { c 1 } ; d 2 { e 3 } }\n(t)f g=(u)7 {}\n",
             "n \"\"\"\n  multi\n  \"\"\" k=#inf\n",
+            "\u{FEFF}a 1",
+            "",
             "broken {",
             "n k=",
         ]
@@ -612,22 +587,20 @@ fn the_bare_parse_is_the_full_one_without_the_entries_formats() {
     );
     let mut fast_ones = 0;
     for text in &texts {
-        match (super::parse_document_bare(text), parse_document(text)) {
-            (Ok(bare), Ok(full)) => {
-                same_but_formats("", &bare, &full).unwrap_or_else(|e| panic!("{e} in {text:?}"));
-                if parse_fast(text).is_some() {
-                    fast_ones += 1;
-                    let mut formats = Vec::new();
-                    let mut stack = vec![&bare];
-                    while let Some(doc) = stack.pop() {
-                        for node in doc.nodes() {
-                            formats.extend(node.entries().iter().map(|e| e.format().is_some()));
-                            stack.extend(node.children());
-                        }
-                    }
-                    assert!(formats.iter().all(|&f| !f), "{text:?}");
-                }
-            }
+        let tree = super::parse_tree(text);
+        if super::fast_tree(text).is_some() {
+            // Read fast: against the kdl crate's own reading.
+            fast_ones += 1;
+            let doc = KdlDocument::parse(text).expect("the kdl crate reads it too");
+            super::tree_differs("", tree.expect("read").doc(), &doc)
+                .unwrap_or_else(|e| panic!("{e} in {text:?}"));
+            continue;
+        }
+        // Declined: as `parse_document` reads it (the kdl crate's parser,
+        // behind the guards against deep or large broken text).
+        match (tree, parse_document(text)) {
+            (Ok(tree), Ok(doc)) => super::tree_differs("", tree.doc(), &doc)
+                .unwrap_or_else(|e| panic!("{e} in {text:?}")),
             (Err(a), Err(b)) => {
                 assert_eq!(a.diagnostics.len(), b.diagnostics.len());
                 for (x, y) in a.diagnostics.iter().zip(&b.diagnostics) {
@@ -638,4 +611,28 @@ fn the_bare_parse_is_the_full_one_without_the_entries_formats() {
         }
     }
     assert!(fast_ones > 10, "{fast_ones}");
+}
+
+#[test]
+fn a_tree_from_the_kdl_crates_document_reads_the_same() {
+    // The tree made for a valid text the fast parser declines is held to
+    // the fast tree on texts both can read.
+    let root = std::path::Path::new(env!("CARGO_MANIFEST_DIR"));
+    let mut read = 0;
+    for entry in std::fs::read_dir(root.join("jobs")).unwrap() {
+        let path = entry.unwrap().path();
+        if path.extension().is_none_or(|x| x != "kdl") {
+            continue;
+        }
+        let text = std::fs::read_to_string(path).unwrap();
+        let Ok(doc) = KdlDocument::parse(&text) else {
+            continue;
+        };
+        let owned = super::Tree::from_document(&doc);
+        super::tree_differs("", owned.doc(), &doc).unwrap();
+        let fast = super::fast_tree(&text).expect("a demo job is read fast");
+        super::tree_differs("", fast.doc(), &doc).unwrap();
+        read += 1;
+    }
+    assert!(read >= 4, "{read}");
 }

@@ -5,12 +5,11 @@
 
 use std::borrow::Cow;
 
-use kdl::{KdlIdentifier, KdlValue};
-
 use super::chars::{
     IDENT_ASCII, is_disallowed, is_ident_char, is_newline, is_space, newline_len, space_len,
 };
-use super::parser::{Parser, R, Reject, Value, span};
+use super::parser::{Parser, R, ReadValue, Reject, span};
+use super::tree::{Ident, Value};
 
 impl<'a> Parser<'a> {
     fn char_here(&self) -> Option<char> {
@@ -25,12 +24,11 @@ impl<'a> Parser<'a> {
 
     /// A string used as a name (node name, property key, type): bare,
     /// quoted or raw. `None` means no string starts here.
-    pub(super) fn identifier(&mut self) -> R<Option<KdlIdentifier>> {
+    pub(super) fn identifier(&mut self) -> R<Option<Ident<'a>>> {
         let start = self.pos;
-        Ok(self.string_token()?.map(|value| {
-            let mut ident = KdlIdentifier::from(value.into_owned());
-            ident.set_span(span(start, self.pos));
-            ident
+        Ok(self.string_token()?.map(|value| Ident {
+            value,
+            span: span(start, self.pos),
         }))
     }
 
@@ -482,7 +480,7 @@ impl<'a> Parser<'a> {
 
     /// `value := type? node-space* (keyword | number | string)`. `None`
     /// means no value starts here.
-    pub(super) fn value(&mut self) -> R<Option<Value<'a>>> {
+    pub(super) fn value(&mut self) -> R<Option<ReadValue<'a>>> {
         let ty = if self.byte() == Some(b'(') {
             let ty = self.ty()?;
             self.node_space0()?;
@@ -500,12 +498,12 @@ impl<'a> Parser<'a> {
                 self.number()?
             }
             _ => match self.string_token()? {
-                Some(s) => KdlValue::String(s.into_owned()),
+                Some(s) => Value::String(s),
                 None if ty.is_some() => return Err(Reject),
                 None => return Ok(None),
             },
         };
-        Ok(Some(Value {
+        Ok(Some(ReadValue {
             ty,
             value,
             raw: &self.src[start..self.pos],
@@ -514,16 +512,16 @@ impl<'a> Parser<'a> {
 
     /// `#true`, `#false`, `#null`, `#inf`, `#-inf`, `#nan`. As in the
     /// `kdl` crate, no terminator is required after a keyword.
-    fn keyword(&mut self) -> R<KdlValue> {
-        const WORDS: [(&[u8], KdlValue); 6] = [
-            (b"#true", KdlValue::Bool(true)),
-            (b"#false", KdlValue::Bool(false)),
-            (b"#null", KdlValue::Null),
-            (b"#nan", KdlValue::Float(f64::NAN)),
-            (b"#inf", KdlValue::Float(f64::INFINITY)),
-            (b"#-inf", KdlValue::Float(f64::NEG_INFINITY)),
+    fn keyword(&mut self) -> R<Value<'a>> {
+        let words: [(&[u8], Value<'a>); 6] = [
+            (b"#true", Value::Bool(true)),
+            (b"#false", Value::Bool(false)),
+            (b"#null", Value::Null),
+            (b"#nan", Value::Float(f64::NAN)),
+            (b"#inf", Value::Float(f64::INFINITY)),
+            (b"#-inf", Value::Float(f64::NEG_INFINITY)),
         ];
-        for (word, value) in WORDS {
+        for (word, value) in words {
             if self.starts(word) {
                 self.pos += word.len();
                 return Ok(value);
@@ -534,7 +532,7 @@ impl<'a> Parser<'a> {
 
     /// A number: decimal integer or float, or `0x` / `0o` / `0b` integer,
     /// each with an optional sign and `_` separators.
-    fn number(&mut self) -> R<KdlValue> {
+    fn number(&mut self) -> R<Value<'a>> {
         let start = self.pos;
         let negative = self.byte() == Some(b'-');
         if matches!(self.byte(), Some(b'+' | b'-')) {
@@ -550,7 +548,7 @@ impl<'a> Parser<'a> {
             self.pos += 2;
             let magnitude = self.digits(radix)?;
             self.value_terminator_check()?;
-            return Ok(KdlValue::Integer(if negative {
+            return Ok(Value::Integer(if negative {
                 -magnitude
             } else {
                 magnitude
@@ -573,7 +571,7 @@ impl<'a> Parser<'a> {
         }
         self.value_terminator_check()?;
         if !float {
-            return Ok(KdlValue::Integer(if negative { -whole } else { whole }));
+            return Ok(Value::Integer(if negative { -whole } else { whole }));
         }
         let text = &self.src[start..self.pos];
         let parsed = if text.contains('_') {
@@ -581,7 +579,7 @@ impl<'a> Parser<'a> {
         } else {
             text.parse::<f64>()
         };
-        parsed.map(KdlValue::Float).map_err(|_| Reject)
+        parsed.map(Value::Float).map_err(|_| Reject)
     }
 
     /// `digit (digit | '_')*` in `radix`, as an `i128` magnitude.

@@ -4,7 +4,7 @@
 //! expected, a did-you-mean. Decoding computes nothing and reads no file.
 
 use crate::catalogue::Msg;
-use kdl::{KdlDocument, KdlNode};
+use crate::kdl_fast::{Doc, Node};
 use miette::SourceSpan;
 
 use super::model::*;
@@ -33,12 +33,12 @@ pub const SHOP_TOP_LEVEL: &[&str] = &[
 ];
 
 pub(crate) fn decode_document(
-    doc: &KdlDocument,
+    doc: Doc<'_>,
     source_name: &str,
     r: &mut Reader,
 ) -> Option<ShopProfile> {
     let nodes = r.children(Some(doc), SHOP_TOP_LEVEL, Msg::new("diag-in-shop-profile"));
-    for (i, node) in nodes.iter().enumerate() {
+    for (i, &node) in nodes.iter().enumerate() {
         let name = node.name().value();
         if nodes[..i].iter().any(|n| n.name().value() == name) {
             r.push(
@@ -171,7 +171,7 @@ pub(crate) fn decode_document(
 /// to replace a built-in one), the shop's translation file. The file is
 /// read and checked against the English catalogue when the profile is
 /// loaded ([`crate::shop::read_translation`]).
-fn decode_language(node: &KdlNode, r: &mut Reader) -> Option<Language> {
+fn decode_language(node: Node<'_>, r: &mut Reader) -> Option<Language> {
     r.check_entries(node, &["file"], 1);
     r.no_children(node);
     let tag = r.req_arg_string(node, Msg::new("diag-what-language"), "language \"de\"")?;
@@ -227,7 +227,7 @@ fn decode_language(node: &KdlNode, r: &mut Reader) -> Option<Language> {
     Some(Language { tag, file })
 }
 
-fn format_version(node: &KdlNode, r: &mut Reader) -> u32 {
+fn format_version(node: Node<'_>, r: &mut Reader) -> u32 {
     r.check_entries(node, &[], 1);
     r.no_children(node);
     let Some(entry) = Reader::arg(node, 0) else {
@@ -267,7 +267,7 @@ fn format_version(node: &KdlNode, r: &mut Reader) -> u32 {
 }
 
 /// A node holding one line of text and nothing else.
-fn text(node: &KdlNode, r: &mut Reader) -> Option<String> {
+fn text(node: Node<'_>, r: &mut Reader) -> Option<String> {
     r.check_entries(node, &[], 1);
     r.no_children(node);
     let name = node.name().value();
@@ -275,7 +275,7 @@ fn text(node: &KdlNode, r: &mut Reader) -> Option<String> {
         .map(|s| s.value)
 }
 
-fn decode_shop(node: &KdlNode, r: &mut Reader) -> Option<(String, Vec<String>, Vec<String>)> {
+fn decode_shop(node: Node<'_>, r: &mut Reader) -> Option<(String, Vec<String>, Vec<String>)> {
     r.check_entries(node, &[], 1);
     let name = r.req_arg_string(
         node,
@@ -306,7 +306,7 @@ fn decode_shop(node: &KdlNode, r: &mut Reader) -> Option<(String, Vec<String>, V
     Some((name.value, address, contact))
 }
 
-fn decode_paper(node: &KdlNode, r: &mut Reader) -> Option<Paper> {
+fn decode_paper(node: Node<'_>, r: &mut Reader) -> Option<Paper> {
     r.check_entries(node, &[], 1);
     r.no_children(node);
     let name = r.req_arg_name(node, Msg::new("diag-what-paper-size"), "paper a4")?;
@@ -328,7 +328,7 @@ fn decode_paper(node: &KdlNode, r: &mut Reader) -> Option<Paper> {
 }
 
 /// Default safety-test limits: the job's test nodes without the reading.
-fn decode_safety(node: &KdlNode, r: &mut Reader) -> SafetyDefaults {
+fn decode_safety(node: Node<'_>, r: &mut Reader) -> SafetyDefaults {
     r.check_entries(node, &[], 0);
     let mut d = SafetyDefaults::default();
     for child in r.children(node.children(), SAFETY_TESTS, "`safety`") {
@@ -357,7 +357,7 @@ fn decode_safety(node: &KdlNode, r: &mut Reader) -> SafetyDefaults {
     d
 }
 
-fn decode_charges(node: &KdlNode, r: &mut Reader) -> ChargeTerms {
+fn decode_charges(node: Node<'_>, r: &mut Reader) -> ChargeTerms {
     r.check_entries(node, &["currency", "tax-rate", "tax-name"], 0);
     r.no_children(node);
     ChargeTerms {
@@ -371,7 +371,7 @@ fn decode_charges(node: &KdlNode, r: &mut Reader) -> ChargeTerms {
     }
 }
 
-fn decode_warranty(node: &KdlNode, r: &mut Reader) -> Option<Warranty> {
+fn decode_warranty(node: Node<'_>, r: &mut Reader) -> Option<Warranty> {
     r.check_entries(node, &["period"], 1);
     r.no_children(node);
     let text = r.req_arg_string(

@@ -40,13 +40,13 @@ pub struct DecodedShop {
 /// when the rest of the profile is refused; `None` when the text is not
 /// KDL or names none.
 pub fn named_language(text: &str) -> Option<String> {
-    let doc = crate::kdl_fast::parse_document(text).ok()?;
-    let node = doc
+    let tree = crate::kdl_fast::parse_tree(text).ok()?;
+    let node = tree
+        .doc()
         .nodes()
-        .iter()
         .find(|n| n.name().value() == "language")?;
     match node.entries().iter().find(|e| e.name().is_none())?.value() {
-        kdl::KdlValue::String(s) => Some(s.trim().to_owned()),
+        crate::kdl_fast::Value::String(s) => Some(s.trim().to_owned()),
         _ => None,
     }
 }
@@ -59,10 +59,10 @@ pub fn decode(name: &str, text: &str) -> Result<DecodedShop, JobDiagnostics> {
         NamedSource::new(name, Arc::new(text.to_string())).with_language("kdl"),
     );
     let mut problems = Vec::new();
-    let profile = match crate::kdl_fast::parse_document(text) {
-        Ok(doc) => {
+    let profile = match crate::kdl_fast::parse_tree(text) {
+        Ok(tree) => {
             let mut reader = Reader::new(text);
-            let profile = decode::decode_document(&doc, name, &mut reader);
+            let profile = decode::decode_document(tree.doc(), name, &mut reader);
             problems.append(&mut reader.problems);
             profile
         }

@@ -1,7 +1,7 @@
 //! Reading a mod's `network` block: parts, source, load, the phase-shift
 //! search and the `after` edits. Every problem points at its own text.
 
-use kdl::{KdlEntry, KdlNode, KdlValue};
+use crate::kdl_fast::{Entry, Node, Value};
 
 use super::super::decode_error::{DecodeError, suggestion};
 use super::super::model::Spanned;
@@ -40,7 +40,7 @@ pub const AFTER_NODES: &[&str] = &[
 const GROUND_LOOKALIKES: &[&str] = &["0", "gnd", "GND", "Gnd", "earth", "chassis", "common"];
 
 /// Decodes a `network` node of a mod.
-pub fn decode_network(node: &KdlNode, r: &mut Reader) -> Option<Network> {
+pub fn decode_network(node: Node<'_>, r: &mut Reader) -> Option<Network> {
     r.check_entries(node, &[], 1);
     let label = Reader::arg(node, 0)
         .and_then(|e| r.string(e, Msg::new("diag-net-label")))
@@ -54,9 +54,9 @@ pub fn decode_network(node: &KdlNode, r: &mut Reader) -> Option<Network> {
     let mut load: Option<Load> = None;
     let mut parts: Vec<Part> = Vec::new();
     let mut oscillator = None;
-    let mut after: Option<&KdlNode> = None;
+    let mut after: Option<Node<'_>> = None;
     let mut broken = false;
-    for child in &children {
+    for &child in &children {
         match child.name().value() {
             "source" => {
                 let s = decode_source(child, r);
@@ -170,7 +170,7 @@ pub fn decode_network(node: &KdlNode, r: &mut Reader) -> Option<Network> {
     })
 }
 
-fn once(r: &mut Reader, node: &KdlNode, seen: bool) {
+fn once(r: &mut Reader, node: Node<'_>, seen: bool) {
     if seen {
         r.push(DecodeError::error(
             "job::repeated-node",
@@ -192,13 +192,13 @@ fn repeated_reference(part: &Part) -> DecodeError {
 }
 
 /// A node name: text or a bare identifier; `ground` is the reference node.
-fn node_name(r: &mut Reader, node: &KdlNode, key: &str, example: &str) -> Option<Spanned<String>> {
+fn node_name(r: &mut Reader, node: Node<'_>, key: &str, example: &str) -> Option<Spanned<String>> {
     let name = r.req_prop_name(node, key, example)?;
     ground_lookalike(r, &name);
     Some(name)
 }
 
-fn opt_node_name(r: &mut Reader, node: &KdlNode, key: &str) -> Option<Spanned<String>> {
+fn opt_node_name(r: &mut Reader, node: Node<'_>, key: &str) -> Option<Spanned<String>> {
     let name = Reader::prop(node, key).and_then(|e| r.name(e, format!("`{key}`")))?;
     ground_lookalike(r, &name);
     Some(name)
@@ -218,7 +218,7 @@ fn ground_lookalike(r: &mut Reader, name: &Spanned<String>) {
     }
 }
 
-fn decode_source(node: &KdlNode, r: &mut Reader) -> Option<Source> {
+fn decode_source(node: Node<'_>, r: &mut Reader) -> Option<Source> {
     r.check_entries(
         node,
         &[
@@ -298,7 +298,7 @@ fn decode_source(node: &KdlNode, r: &mut Reader) -> Option<Source> {
     })
 }
 
-fn decode_load(node: &KdlNode, r: &mut Reader) -> Option<Load> {
+fn decode_load(node: Node<'_>, r: &mut Reader) -> Option<Load> {
     r.check_entries(node, &["node", "resistance"], 0);
     r.no_children(node);
     let at = node_name(r, node, "node", "load node=out resistance=\"1M\"");
@@ -311,7 +311,7 @@ fn decode_load(node: &KdlNode, r: &mut Reader) -> Option<Load> {
     })
 }
 
-fn decode_part(node: &KdlNode, r: &mut Reader) -> Option<Part> {
+fn decode_part(node: Node<'_>, r: &mut Reader) -> Option<Part> {
     r.no_children(node);
     let kind_name = node.name().value();
     let example = match kind_name {
@@ -445,7 +445,7 @@ fn decode_part(node: &KdlNode, r: &mut Reader) -> Option<Part> {
     Some(part)
 }
 
-fn taper(r: &mut Reader, e: &KdlEntry) -> Option<Taper> {
+fn taper(r: &mut Reader, e: &Entry<'_>) -> Option<Taper> {
     let name = r.name(e, "`taper`")?;
     match Taper::from_name(&name.value) {
         Some(t) => Some(t),
@@ -466,7 +466,7 @@ fn taper(r: &mut Reader, e: &KdlEntry) -> Option<Taper> {
 
 /// One wiper setting (`5`, `7.5`) or several in text (`"2 5 8"`), each
 /// from 0 to 10.
-fn settings(r: &mut Reader, e: &KdlEntry) -> Option<Vec<f64>> {
+fn settings(r: &mut Reader, e: &Entry<'_>) -> Option<Vec<f64>> {
     let span = r.value_span(e);
     let bad = |r: &mut Reader, at, found: Arg| {
         r.push(
@@ -481,9 +481,9 @@ fn settings(r: &mut Reader, e: &KdlEntry) -> Option<Vec<f64>> {
     };
     let mut out = Vec::new();
     match e.value() {
-        KdlValue::Integer(i) => out.push((*i as f64, span)),
-        KdlValue::Float(f) => out.push((*f, span)),
-        KdlValue::String(s) => {
+        Value::Integer(i) => out.push((*i as f64, span)),
+        Value::Float(f) => out.push((*f, span)),
+        Value::String(s) => {
             let mut start = None;
             for (i, c) in s.char_indices().chain(std::iter::once((s.len(), ' '))) {
                 let sep = c.is_whitespace() || c == ',';
@@ -538,7 +538,7 @@ fn settings(r: &mut Reader, e: &KdlEntry) -> Option<Vec<f64>> {
     Some(out.into_iter().map(|(v, _)| v).collect())
 }
 
-fn decode_after(node: &KdlNode, before: &NetworkState, r: &mut Reader) -> Vec<Edit> {
+fn decode_after(node: Node<'_>, before: &NetworkState, r: &mut Reader) -> Vec<Edit> {
     r.check_entries(node, &[], 0);
     let mut out: Vec<Edit> = Vec::new();
     // The references present as the edits are applied in order.
