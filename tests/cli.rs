@@ -992,6 +992,51 @@ fn a_negative_plate_or_screen_voltage_is_an_error() {
 }
 
 #[test]
+fn a_negative_cathode_sense_or_primary_drop_reading_is_an_error() {
+    // Found by negating each figure of the demo jobs in turn: these were
+    // taken, and a negative sense voltage printed "idling cold (-77 % of
+    // the plate rating)". A cathode, a sense resistor and a half primary
+    // all carry the valve's current one way only, so a reading below zero
+    // is the meter's leads the wrong way round.
+    let circuit = r#"    cathode-resistor R24 value="130" rating="5W" valves="V3 V4"
+    sense-resistor R40 value="1R" valve=V4
+    half-primary resistance="100R" valves="V4""#;
+    let readings = r#"    valve V3 plate="300V" cathode="-10V"
+    valve V4 plate="300V" cathode="10V" sense="-30mV" primary-drop="-3V""#;
+    let text = small_job(circuit, readings);
+    let dir = job_file("neg.kdl", &text);
+    let o = run_in(dir.path(), &["check", "neg.kdl"]);
+    assert_eq!(code(&o), 1);
+    let err = stderr(&o);
+    for (words, value) in [
+        ("the cathode voltage cannot be negative", "\"-10V\""),
+        (
+            "the voltage across the sense resistor cannot be negative",
+            "\"-30mV\"",
+        ),
+        (
+            "the drop across the half primary cannot be negative",
+            "\"-3V\"",
+        ),
+    ] {
+        assert!(err.contains(words), "{words}: {err}");
+        assert!(
+            reported_positions(&err, "neg.kdl").contains(&pos_of("neg.kdl", &text, value, 0)),
+            "{value}: {err}"
+        );
+    }
+    // Zero is still taken: a valve that draws nothing reads nothing.
+    let zero = readings
+        .replace("\"-10V\"", "\"0V\"")
+        .replace("\"-30mV\"", "\"0mV\"")
+        .replace("\"-3V\"", "\"0V\"");
+    let text = small_job(circuit, &zero);
+    let dir = job_file("zero.kdl", &text);
+    let o = run_in(dir.path(), &["check", "zero.kdl"]);
+    assert!(!stderr(&o).contains("cannot be negative"), "{}", stderr(&o));
+}
+
+#[test]
 fn zero_mains_is_an_error() {
     let text = small_job(GOOD_CIRCUIT, GOOD_READINGS).replace("mains=\"120V\"", "mains=\"0V\"");
     let dir = job_file("zero.kdl", &text);

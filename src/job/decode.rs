@@ -1141,8 +1141,11 @@ fn decode_valve_reading(
         r.opt_prop_quantity(child, key, Q::Voltage)
             .map(|s| Spanned::new(Volts(s.value), s.span))
     };
-    // A plate or screen below the chassis is a reading taken the wrong
-    // way round, not a valve's state (zero is: no supply reaches it).
+    // A plate, screen or cathode below the chassis, or a drop across a
+    // sense resistor or half primary below zero, is a reading taken the
+    // wrong way round, not a valve's state: the valve's current flows
+    // through each of them one way only (zero is a state: no supply, no
+    // current). The grid sits below its cathode by nature.
     let at_least_zero = |r: &mut Reader, key: &str, what: &'static str| {
         let reading = r.opt_prop_quantity(child, key, Q::Voltage);
         r.positive(reading, Msg::new(what), true)
@@ -1150,10 +1153,10 @@ fn decode_valve_reading(
     };
     let plate = at_least_zero(r, "plate", "diag-what-plate-voltage");
     let screen = at_least_zero(r, "screen", "diag-what-screen-voltage");
-    let cathode = v(r, "cathode");
+    let cathode = at_least_zero(r, "cathode", "diag-what-cathode-voltage");
     let grid = v(r, "grid");
-    let sense = v(r, "sense");
-    let primary_drop = v(r, "primary-drop");
+    let sense = at_least_zero(r, "sense", "diag-what-sense-voltage");
+    let primary_drop = at_least_zero(r, "primary-drop", "diag-what-primary-drop");
     let current = r.opt_prop_quantity(child, "current", Q::Current);
     let current = r.positive(current, Msg::new("diag-what-valve-current"), true);
     let method = match Reader::prop(child, "method").and_then(|e| r.name(e, "`method`")) {
