@@ -31,12 +31,16 @@ pub struct Sandbox {
 pub enum FileContents {
     Text(String),
     Bytes(Vec<u8>),
+    /// An SVG chart whose writer saw that every text it drew was plain
+    /// ([`super::fonts::chart_text_is_plain`]): the fonts' check knows it
+    /// needs no CJK face without reading it ([`Sandbox::insert_plain_chart`]).
+    PlainChart(String),
 }
 
 impl FileContents {
     pub fn as_bytes(&self) -> &[u8] {
         match self {
-            FileContents::Text(text) => text.as_bytes(),
+            FileContents::Text(text) | FileContents::PlainChart(text) => text.as_bytes(),
             FileContents::Bytes(bytes) => bytes,
         }
     }
@@ -104,6 +108,34 @@ impl Sandbox {
             return Err(TypesetError::BadSandboxPath { path, reason });
         }
         self.files.insert(path, contents.into());
+        Ok(self)
+    }
+
+    /// Adds or replaces a chart's SVG, as [`Sandbox::insert`] does; when
+    /// `plain` (its writer drew only plain texts:
+    /// [`super::fonts::chart_text_is_plain`]) the fonts' check takes it as
+    /// needing no CJK face without reading its megabytes again. Debug
+    /// builds read it all the same and hold the two answers equal.
+    pub(crate) fn insert_plain_chart(
+        &mut self,
+        path: impl Into<String>,
+        svg: String,
+        plain: bool,
+    ) -> Result<&mut Self, TypesetError> {
+        let path = path.into();
+        // The writer's word is for an SVG: a file of another name is read
+        // as what its name says.
+        if !plain || !path.ends_with(".svg") {
+            return self.insert(path, svg);
+        }
+        debug_assert!(
+            !super::fonts::text_needs_cjk(&path, &svg),
+            "{path}: a chart taken as needing no CJK face needs it"
+        );
+        if let Some(reason) = path_problem(&path) {
+            return Err(TypesetError::BadSandboxPath { path, reason });
+        }
+        self.files.insert(path, FileContents::PlainChart(svg));
         Ok(self)
     }
 
