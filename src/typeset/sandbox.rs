@@ -298,6 +298,56 @@ fn emit(sandbox: &Sandbox, dir: &Path, replace: bool) -> io::Result<()> {
 mod tests {
     use super::*;
 
+    /// A chart whose writer vouches for it is kept as such, and the fonts'
+    /// check leaves it unread; with no word, under another name, or not
+    /// plain, it is kept as text and read. The bytes are the same either
+    /// way.
+    #[test]
+    fn only_a_plain_svg_chart_is_left_unread() {
+        let plain_svg = "<svg><text font-family=\"Noto Sans\">V3</text></svg>\n";
+        for (path, plain, kept) in [
+            ("plots/a.svg", true, true),
+            ("plots/a.svg", false, false),
+            ("plots/a.txt", true, false),
+        ] {
+            let mut sandbox = Sandbox::new();
+            sandbox
+                .insert_plain_chart(path, plain_svg.to_string(), plain)
+                .unwrap();
+            let (_, contents) = sandbox.contents().next().unwrap();
+            assert_eq!(
+                matches!(contents, FileContents::PlainChart(_)),
+                kept,
+                "{path} {plain}"
+            );
+            let mut as_text = Sandbox::new();
+            as_text.insert(path, plain_svg).unwrap();
+            assert_eq!(sandbox, as_text);
+        }
+        // A chart not vouched for is read: this one needs the CJK face
+        // (vouching for it stops a debug build: the test below).
+        let cjk_svg = "<svg><text font-family=\"Noto Sans\">\u{4e2d}</text></svg>\n";
+        let mut read = Sandbox::new();
+        read.insert_plain_chart("plots/a.svg", cjk_svg.to_string(), false)
+            .unwrap();
+        assert!(super::super::fonts::needs_cjk(&read));
+        assert!(
+            Sandbox::new()
+                .insert_plain_chart("plots/../a.svg", plain_svg.to_string(), true)
+                .is_err()
+        );
+    }
+
+    /// A chart vouched for that the check would find needing the CJK face
+    /// stops a debug build (the test suite's) at once.
+    #[test]
+    #[cfg(debug_assertions)]
+    #[should_panic(expected = "needs it")]
+    fn a_chart_wrongly_vouched_for_stops_a_debug_build() {
+        let cjk_svg = "<svg><text font-family=\"Noto Sans\">\u{4e2d}</text></svg>\n";
+        let _ = Sandbox::new().insert_plain_chart("plots/a.svg", cjk_svg.to_string(), true);
+    }
+
     #[test]
     fn accepts_plain_relative_paths() {
         let mut sandbox = Sandbox::new();
