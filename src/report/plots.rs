@@ -8,6 +8,7 @@
 //! shape, never by colour alone, and every bar and marker carries its figure
 //! as text. The charts only draw what [`crate::calc`] worked out.
 
+use std::cell::Cell;
 use std::collections::HashMap;
 
 use plotters::coord::Shift;
@@ -1007,8 +1008,10 @@ pub fn dissipation_svg_with(
     cache: &mut ChartCache,
 ) -> Result<String, PlotError> {
     let mut svg = String::new();
-    draw_dissipation(chart, &mut svg, cache).map_err(err("plate dissipation"))?;
+    let plain = Cell::new(true);
+    draw_dissipation(chart, &mut svg, cache, &plain).map_err(err("plate dissipation"))?;
     cache.last_len = svg.len();
+    cache.last_plain = plain.get();
     Ok(svg)
 }
 
@@ -1050,10 +1053,27 @@ impl PartialEq for Frame {
 /// It also keeps the length of the part drawn last: the next part's SVG
 /// is given room for about as much at once, rather than being copied to
 /// a larger buffer again and again as it grows.
+///
+/// And it keeps whether the part drawn last wrote only plain texts
+/// ([`crate::typeset::chart_text_is_plain`]; the frame's own texts count
+/// for each part that copies it): [`ChartCache::last_plain`].
 #[derive(Debug, Default)]
 pub struct ChartCache {
-    start: Option<(Frame, String)>,
+    /// The frame, the SVG up to and with it, and whether its texts were
+    /// plain.
+    start: Option<(Frame, String, bool)>,
     last_len: usize,
+    last_plain: bool,
+}
+
+impl ChartCache {
+    /// Whether every text of the chart drawn last with this cache (by
+    /// [`dissipation_svg_with`] or [`supply_svg_with`]) was plain
+    /// ([`crate::typeset::chart_text_is_plain`]), so that its SVG needs no
+    /// CJK face (`Sandbox::insert_plain_chart`). False before any.
+    pub fn last_plain(&self) -> bool {
+        self.last_plain
+    }
 }
 
 /// The chart's plotting area in `root` for `frame`.
@@ -1080,13 +1100,17 @@ fn open_chart<'b>(
     svg: &'b mut String,
     frame: &Frame,
     cache: &mut ChartCache,
+    plain: &'b Cell<bool>,
 ) -> Result<DrawingArea<SvgOut<'b>, Shift>, String> {
-    let start = match &cache.start {
-        Some((kept, start)) if kept == frame => start,
+    let (start, start_plain) = match &cache.start {
+        Some((kept, start, start_plain)) if kept == frame => (start, *start_plain),
         _ => {
             let mut start = String::new();
+            let start_plain = Cell::new(true);
             {
-                let root = SvgOut::opening(&mut start, SIZE).into_drawing_area();
+                let root = SvgOut::opening(&mut start, SIZE)
+                    .noting_text(&start_plain)
+                    .into_drawing_area();
                 root.fill(&PAPER).map_err(|e| e.to_string())?;
                 let mut ctx = frame_context(&root, frame)?;
                 draw_mesh(
@@ -1096,12 +1120,19 @@ fn open_chart<'b>(
                     &frame.y_desc,
                 )?;
             }
-            &cache.start.insert((frame.clone(), start)).1
+            let start_plain = start_plain.get();
+            let kept = cache.start.insert((frame.clone(), start, start_plain));
+            (&kept.1, start_plain)
         }
     };
+    if !start_plain {
+        plain.set(false);
+    }
     svg.reserve(start.len().max(cache.last_len + cache.last_len / 8));
     svg.push_str(start);
-    Ok(SvgOut::after_opening(svg, SIZE).into_drawing_area())
+    Ok(SvgOut::after_opening(svg, SIZE)
+        .noting_text(plain)
+        .into_drawing_area())
 }
 
 /// Runs a chart's drawing function into a fresh SVG string.
@@ -1120,6 +1151,7 @@ fn draw_dissipation(
     chart: &DissipationChart,
     svg: &mut String,
     cache: &mut ChartCache,
+    plain: &Cell<bool>,
 ) -> Result<(), String> {
     let n = chart.valves.len().max(1);
     let sets = chart.series.len().max(1);
@@ -1153,7 +1185,7 @@ fn draw_dissipation(
         y_labels: axis.labels(),
         y_desc: chart.words.text("chart-dissipation-axis"),
     };
-    let root = open_chart(svg, &frame, cache)?;
+    let root = open_chart(svg, &frame, cache, plain)?;
     let mut ctx = frame_context(&root, &frame)?;
 
     let (left, _) = ctx.backend_coord(&(0.0, 0.0));
@@ -1441,8 +1473,10 @@ pub fn supply_svg(chart: &SupplyChart) -> Result<String, PlotError> {
 /// [`dissipation_svg_with`].
 pub fn supply_svg_with(chart: &SupplyChart, cache: &mut ChartCache) -> Result<String, PlotError> {
     let mut svg = String::new();
-    draw_supply(chart, &mut svg, cache).map_err(err("supply chain"))?;
+    let plain = Cell::new(true);
+    draw_supply(chart, &mut svg, cache, &plain).map_err(err("supply chain"))?;
     cache.last_len = svg.len();
+    cache.last_plain = plain.get();
     Ok(svg)
 }
 
@@ -1450,6 +1484,7 @@ fn draw_supply(
     chart: &SupplyChart,
     svg: &mut String,
     cache: &mut ChartCache,
+    plain: &Cell<bool>,
 ) -> Result<(), String> {
     let n = chart.nodes.len().max(1);
     let sets = chart.series.len().max(1);
@@ -1501,7 +1536,7 @@ fn draw_supply(
             &[("nominal", Arg::from(whole(chart.nominal_volts)))],
         ),
     };
-    let root = open_chart(svg, &frame, cache)?;
+    let root = open_chart(svg, &frame, cache, plain)?;
     let mut ctx = frame_context(&root, &frame)?;
     let (left, _) = ctx.backend_coord(&(0.0, bottom));
 
@@ -1794,6 +1829,58 @@ mod tests {
                 },
             ],
             guide: Guide::Caution { pct: 90.0 },
+        }
+    }
+
+    /// What the fonts' check answers for an SVG, read in full.
+    fn svg_needs_cjk(svg: &str) -> bool {
+        let mut sandbox = crate::typeset::Sandbox::new();
+        sandbox.insert("plots/chart.svg", svg).unwrap();
+        crate::typeset::needs_cjk(&sandbox)
+    }
+
+    /// A chart says whether its texts were plain, part after part with
+    /// one cache, and the fonts' check reading it agrees.
+    #[test]
+    fn a_chart_says_whether_its_texts_were_plain() {
+        let mut cache = ChartCache::default();
+        assert!(!cache.last_plain());
+        let mut cjk = two_sets();
+        cjk.valves[1] = "V4 \u{4e2d}".into();
+        for (chart, plain) in [(two_sets(), true), (cjk, false), (two_sets(), true)] {
+            let svg = dissipation_svg_with(&chart, &mut cache).unwrap();
+            assert_eq!(cache.last_plain(), plain);
+            assert_eq!(svg_needs_cjk(&svg), !plain);
+        }
+    }
+
+    /// A frame's texts count for every part that copies it from the
+    /// cache, as for the part that drew it.
+    #[test]
+    fn a_kept_frame_brings_its_texts_word_along() {
+        for (desc, plain) in [
+            ("Plate dissipation, % of rating", true),
+            ("\u{9633}\u{6781} %", false),
+            ("a font: 9px", false),
+        ] {
+            let frame = Frame {
+                margin_top: 10,
+                margin_right: 12,
+                columns: 3,
+                bottom: 0.0,
+                top: 120.0,
+                y_labels: 5,
+                y_desc: desc.to_string(),
+            };
+            let mut cache = ChartCache::default();
+            for round in ["drawn", "copied"] {
+                let mut svg = String::new();
+                let word = Cell::new(true);
+                drop(open_chart(&mut svg, &frame, &mut cache, &word).unwrap());
+                assert!(svg.contains(desc) && svg.ends_with("</svg>\n"), "{svg}");
+                assert_eq!(word.get(), plain, "{desc}, {round}");
+                assert_eq!(svg_needs_cjk(&svg), !plain, "{desc}, {round}");
+            }
         }
     }
 

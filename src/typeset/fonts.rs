@@ -358,6 +358,7 @@ pub fn needs_cjk(sandbox: &Sandbox) -> bool {
     sandbox.contents().any(|(path, contents)| match contents {
         FileContents::Text(text) => text_needs_cjk(path, text),
         FileContents::Bytes(bytes) => file_needs_cjk(path, bytes),
+        FileContents::PlainChart(_) => false,
     })
 }
 
@@ -388,14 +389,14 @@ fn file_needs_cjk(path: &str, bytes: &[u8]) -> bool {
 }
 
 /// [`file_needs_cjk`] for a file known to be UTF-8.
-fn text_needs_cjk(path: &str, text: &str) -> bool {
+pub(crate) fn text_needs_cjk(path: &str, text: &str) -> bool {
     if is_raster_image(path) {
         return false;
     }
     match extension(path).as_str() {
         "typ" => typst_needs_cjk(text),
         "svg" => svg_needs_cjk(text),
-        _ => any_beyond_ascii(text, body_takes_cjk),
+        _ => body_text_takes_cjk(text),
     }
 }
 
@@ -410,11 +411,21 @@ fn text_needs_cjk(path: &str, text: &str) -> bool {
 /// character's lowest bits, and not tested again: `test` must answer the
 /// same for the same character.
 fn any_beyond_ascii(text: &str, test: impl Fn(char) -> bool) -> bool {
+    any_from(text, 0x80, test)
+}
+
+/// [`any_beyond_ascii`] for a `test` that is false for every character
+/// below `lowest`: when that is U+0800 or above, a character of two bytes
+/// (the no-break space, µ, Ω, ±: most of what a document has beyond
+/// ASCII) is stepped over by its first byte, not decoded and tested.
+fn any_from(text: &str, lowest: u32, test: impl Fn(char) -> bool) -> bool {
     const HIGH_BITS: u64 = 0x8080_8080_8080_8080;
+    // Little-endian, so a word's lowest bits are its first byte.
     let word = |bytes: &[u8], at: usize| {
-        u64::from_ne_bytes(bytes[at..at + 8].try_into().expect("eight bytes"))
+        u64::from_le_bytes(bytes[at..at + 8].try_into().expect("eight bytes"))
     };
     let bytes = text.as_bytes();
+    let step_over_two = lowest >= 0x800;
     // Characters `test` turned down; '\0' (ASCII, never tested) for none.
     let mut cleared = ['\0'; 16];
     let mut at = 0;
@@ -426,15 +437,30 @@ fn any_beyond_ascii(text: &str, test: impl Fn(char) -> bool) -> bool {
         {
             at += 32;
         }
-        while at + 8 <= bytes.len() && word(bytes, at) & HIGH_BITS == 0 {
-            at += 8;
-        }
-        match bytes[at..].iter().position(|b| !b.is_ascii()) {
-            None => return false,
-            Some(i) => at += i,
+        // The first byte outside ASCII: the lowest high bit of a word.
+        loop {
+            if at + 8 <= bytes.len() {
+                let high = word(bytes, at) & HIGH_BITS;
+                if high == 0 {
+                    at += 8;
+                    continue;
+                }
+                at += (high.trailing_zeros() / 8) as usize;
+            } else {
+                match bytes[at..].iter().position(|b| !b.is_ascii()) {
+                    None => return false,
+                    Some(i) => at += i,
+                }
+            }
+            break;
         }
         // A byte outside ASCII after ASCII or after a whole character
-        // begins a character.
+        // begins a character; one below 0xE0 begins a character of two
+        // bytes, below U+0800.
+        if step_over_two && bytes[at] < 0xE0 {
+            at += 2;
+            continue;
+        }
         let c = text[at..].chars().next().expect("a character begins here");
         let slot = &mut cleared[u32::from(c) as usize % 16];
         if *slot != c {
@@ -445,6 +471,22 @@ fn any_beyond_ascii(text: &str, test: impl Fn(char) -> bool) -> bool {
         }
         at += c.len_utf8();
     }
+}
+
+/// The lowest character of `table` (sorted ranges), for [`any_from`].
+fn lowest(table: &[(u32, u32)]) -> u32 {
+    table.first().map_or(u32::MAX, |&(first, _)| first)
+}
+
+/// Whether some character of `text` is in `table` (sorted ranges).
+fn any_in_table(text: &str, table: &[(u32, u32)]) -> bool {
+    any_from(text, lowest(table), |c| in_table(table, c))
+}
+
+/// Whether typst may set some character of `text` in the CJK face in the
+/// document's own text ([`body_takes_cjk`]).
+fn body_text_takes_cjk(text: &str) -> bool {
+    any_from(text, lowest(CJK_IN_BODY), body_takes_cjk)
 }
 
 /// [`needs_cjk`] for one Typst source.
@@ -458,7 +500,7 @@ fn typst_needs_cjk(text: &str) -> bool {
     if names_symbols || has(text, "emoji.") || has(text, "from-unicode") {
         return true;
     }
-    any_beyond_ascii(text, body_takes_cjk)
+    body_text_takes_cjk(text)
         || pieces_after(text, "\\u{")
             .any(|rest| escaped_char(rest, '}', 16).is_none_or(body_takes_cjk))
 }
@@ -484,7 +526,7 @@ fn svg_needs_cjk(text: &str) -> bool {
         return true;
     }
     let table = CJK_IN_SVG;
-    any_beyond_ascii(text, |c| in_table(table, c))
+    any_in_table(text, table)
         || pieces_after(text, "&#").any(|rest| {
             let (digits, radix) = match rest.strip_prefix(['x', 'X']) {
                 Some(hex) => (hex, 16),
@@ -492,6 +534,23 @@ fn svg_needs_cjk(text: &str) -> bool {
             };
             escaped_char(digits, ';', radix).is_none_or(|c| in_table(table, c))
         })
+}
+
+/// Whether a chart's SVG writer (`report::plots`) may write the text
+/// `text` in `family` without the fonts' check having to read the SVG:
+/// the family is Noto Sans, the text holds no character typst may take
+/// from the CJK face in an SVG, and no `font` or `&#` that the check looks
+/// for. The writer escapes `<>&"'` and puts nothing else beyond ASCII
+/// around a text (its numbers, colours and the five entities), so an SVG
+/// whose every text passes, or that has none, needs no CJK face: what
+/// [`svg_needs_cjk`] answers for it (held by
+/// `a_plain_chart_text_leaves_the_svg_needing_no_cjk_face`, and in debug
+/// builds by [`Sandbox::insert_plain_chart`] for every chart).
+pub(crate) fn chart_text_is_plain(family: &str, text: &str) -> bool {
+    family == TEXT_FAMILIES[0]
+        && !has(text, "font")
+        && !has(text, "&#")
+        && !any_in_table(text, CJK_IN_SVG)
 }
 
 /// Whether every `font-family` of an SVG (attribute or style) names Noto
@@ -555,7 +614,7 @@ pub fn fit_fonts(sandbox: &mut Sandbox, main: &str) -> Result<bool, TypesetError
     // is changed; `needs_cjk` found every file UTF-8 but a raster image's,
     // so only a main source named as one is read again.
     match sandbox.get_mut(main) {
-        Some(FileContents::Text(source)) => {
+        Some(FileContents::Text(source) | FileContents::PlainChart(source)) => {
             if let Some(at) = memchr::memmem::find(source.as_bytes(), full.as_bytes()) {
                 source.replace_range(at..at + full.len(), &font_rules_without_cjk());
             }
@@ -650,6 +709,94 @@ mod tests {
         assert!(
             (0..0x80u8).all(|b| !body_takes_cjk(b as char) && !in_table(CJK_IN_SVG, b as char))
         );
+    }
+
+    /// The checks that step over characters of two bytes (`any_in_table`,
+    /// `body_text_takes_cjk`) answer as testing every character does:
+    /// characters of one to four bytes, those of the tables and others,
+    /// many of two bytes, at every place of texts around the eight- and
+    /// 32-byte steps, and 20,000 random texts of them; each answer comes
+    /// up thousands of times. The tables start at U+0800 or above, or no
+    /// character would be stepped over.
+    #[test]
+    fn stepping_over_two_byte_characters_answers_as_testing_each() {
+        assert!(lowest(CJK_IN_BODY) >= 0x800 && lowest(CJK_IN_SVG) >= 0x800);
+        let marks = [
+            'a',
+            '\u{a0}',
+            '\u{b5}',
+            '\u{3a9}',
+            '\u{7ff}',
+            '\u{800}',
+            '\u{e3f}',
+            '\u{2013}',
+            '\u{2192}',
+            '\u{2225}',
+            '\u{221a}',
+            '\u{2264}',
+            '\u{4e2d}',
+            '\u{ffee}',
+            '\u{1f600}',
+            '\u{20000}',
+        ];
+        let takes = |text: &str, table: &[(u32, u32)]| text.chars().any(|c| in_table(table, c));
+        let body = |text: &str| text.chars().any(body_takes_cjk);
+        let mut answers = [0usize; 2];
+        let mut check = |text: &str| {
+            assert_eq!(
+                any_in_table(text, CJK_IN_SVG),
+                takes(text, CJK_IN_SVG),
+                "{text:?}"
+            );
+            assert_eq!(
+                any_in_table(text, CJK_IN_BODY),
+                takes(text, CJK_IN_BODY),
+                "{text:?}"
+            );
+            let b = body(text);
+            assert_eq!(body_text_takes_cjk(text), b, "{text:?}");
+            answers[usize::from(b)] += 1;
+        };
+        for len in 0..70 {
+            for at in 0..=len {
+                for mark in marks {
+                    let mut text: String = (0..len)
+                        .map(|i| {
+                            if i % 5 == 4 {
+                                '\u{a0}'
+                            } else {
+                                (b'a' + (i % 26) as u8) as char
+                            }
+                        })
+                        .collect();
+                    let at = text.char_indices().nth(at).map_or(text.len(), |(i, _)| i);
+                    text.insert(at, mark);
+                    check(&text);
+                }
+            }
+        }
+        let mut seed = 0x9e37_79b9_7f4a_7c15u64;
+        let mut next = move || {
+            seed ^= seed << 13;
+            seed ^= seed >> 7;
+            seed ^= seed << 17;
+            seed
+        };
+        for _ in 0..20_000 {
+            let len = (next() % 80) as usize;
+            let text: String = (0..len)
+                .map(|_| {
+                    let n = next();
+                    if n % 4 == 0 {
+                        marks[(n >> 8) as usize % marks.len()]
+                    } else {
+                        (b' ' + (n >> 16) as u8 % 90) as char
+                    }
+                })
+                .collect();
+            check(&text);
+        }
+        assert!(answers[0] > 5_000 && answers[1] > 5_000, "{answers:?}");
     }
 
     /// `draws_every_char` says what testing every character with

@@ -40,6 +40,7 @@ pub use font_cache::{
     FONTS_DIGEST, ensure_font_cache, font_cache_folder_name, is_complete as font_cache_is_complete,
     user_cache_root,
 };
+pub(crate) use fonts::chart_text_is_plain;
 pub use fonts::{
     BUNDLED_FONTS, CJK_FAMILIES, CJK_FONT, FONT_DIR, FONT_LICENCES, MONO_FAMILIES, TEXT_FAMILIES,
     can_draw, cjk_folder, drawable, draws_every_char, fit_fonts, font_rules,

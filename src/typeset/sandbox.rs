@@ -31,12 +31,16 @@ pub struct Sandbox {
 pub enum FileContents {
     Text(String),
     Bytes(Vec<u8>),
+    /// An SVG chart whose writer saw that every text it drew was plain
+    /// ([`super::fonts::chart_text_is_plain`]): the fonts' check knows it
+    /// needs no CJK face without reading it ([`Sandbox::insert_plain_chart`]).
+    PlainChart(String),
 }
 
 impl FileContents {
     pub fn as_bytes(&self) -> &[u8] {
         match self {
-            FileContents::Text(text) => text.as_bytes(),
+            FileContents::Text(text) | FileContents::PlainChart(text) => text.as_bytes(),
             FileContents::Bytes(bytes) => bytes,
         }
     }
@@ -104,6 +108,34 @@ impl Sandbox {
             return Err(TypesetError::BadSandboxPath { path, reason });
         }
         self.files.insert(path, contents.into());
+        Ok(self)
+    }
+
+    /// Adds or replaces a chart's SVG, as [`Sandbox::insert`] does; when
+    /// `plain` (its writer drew only plain texts:
+    /// [`super::fonts::chart_text_is_plain`]) the fonts' check takes it as
+    /// needing no CJK face without reading its megabytes again. Debug
+    /// builds read it all the same and hold the two answers equal.
+    pub(crate) fn insert_plain_chart(
+        &mut self,
+        path: impl Into<String>,
+        svg: String,
+        plain: bool,
+    ) -> Result<&mut Self, TypesetError> {
+        let path = path.into();
+        // The writer's word is for an SVG: a file of another name is read
+        // as what its name says.
+        if !plain || !path.ends_with(".svg") {
+            return self.insert(path, svg);
+        }
+        debug_assert!(
+            !super::fonts::text_needs_cjk(&path, &svg),
+            "{path}: a chart taken as needing no CJK face needs it"
+        );
+        if let Some(reason) = path_problem(&path) {
+            return Err(TypesetError::BadSandboxPath { path, reason });
+        }
+        self.files.insert(path, FileContents::PlainChart(svg));
         Ok(self)
     }
 
@@ -265,6 +297,56 @@ fn emit(sandbox: &Sandbox, dir: &Path, replace: bool) -> io::Result<()> {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    /// A chart whose writer vouches for it is kept as such, and the fonts'
+    /// check leaves it unread; with no word, under another name, or not
+    /// plain, it is kept as text and read. The bytes are the same either
+    /// way.
+    #[test]
+    fn only_a_plain_svg_chart_is_left_unread() {
+        let plain_svg = "<svg><text font-family=\"Noto Sans\">V3</text></svg>\n";
+        for (path, plain, kept) in [
+            ("plots/a.svg", true, true),
+            ("plots/a.svg", false, false),
+            ("plots/a.txt", true, false),
+        ] {
+            let mut sandbox = Sandbox::new();
+            sandbox
+                .insert_plain_chart(path, plain_svg.to_string(), plain)
+                .unwrap();
+            let (_, contents) = sandbox.contents().next().unwrap();
+            assert_eq!(
+                matches!(contents, FileContents::PlainChart(_)),
+                kept,
+                "{path} {plain}"
+            );
+            let mut as_text = Sandbox::new();
+            as_text.insert(path, plain_svg).unwrap();
+            assert_eq!(sandbox, as_text);
+        }
+        // A chart not vouched for is read: this one needs the CJK face
+        // (vouching for it stops a debug build: the test below).
+        let cjk_svg = "<svg><text font-family=\"Noto Sans\">\u{4e2d}</text></svg>\n";
+        let mut read = Sandbox::new();
+        read.insert_plain_chart("plots/a.svg", cjk_svg.to_string(), false)
+            .unwrap();
+        assert!(super::super::fonts::needs_cjk(&read));
+        assert!(
+            Sandbox::new()
+                .insert_plain_chart("plots/../a.svg", plain_svg.to_string(), true)
+                .is_err()
+        );
+    }
+
+    /// A chart vouched for that the check would find needing the CJK face
+    /// stops a debug build (the test suite's) at once.
+    #[test]
+    #[cfg(debug_assertions)]
+    #[should_panic(expected = "needs it")]
+    fn a_chart_wrongly_vouched_for_stops_a_debug_build() {
+        let cjk_svg = "<svg><text font-family=\"Noto Sans\">\u{4e2d}</text></svg>\n";
+        let _ = Sandbox::new().insert_plain_chart("plots/a.svg", cjk_svg.to_string(), true);
+    }
 
     #[test]
     fn accepts_plain_relative_paths() {

@@ -337,11 +337,12 @@ pub fn build(
     if let Some(chart) = plots::dissipation_chart(input.findings, input.catalogue) {
         let parts = plots::split_dissipation(&chart);
         let svgs = each_part(&parts, |cache, part| {
-            plots::dissipation_svg_with(&part.chart, cache)
+            let svg = plots::dissipation_svg_with(&part.chart, cache)?;
+            Ok::<_, PlotError>((svg, cache.last_plain()))
         })?;
-        for (i, (part, svg)) in parts.into_iter().zip(svgs).enumerate() {
+        for (i, (part, (svg, plain))) in parts.into_iter().zip(svgs).enumerate() {
             let path = chart_part_path(DISSIPATION_PLOT, i);
-            sandbox.insert(&path, svg)?;
+            sandbox.insert_plain_chart(&path, svg, plain)?;
             dissipation_charts.push(ChartFile {
                 path,
                 part: part.part,
@@ -352,11 +353,12 @@ pub fn build(
     if let Some(chart) = plots::supply_chart(input.findings, input.catalogue) {
         let parts = plots::split_supply(&chart);
         let svgs = each_part(&parts, |cache, part| {
-            plots::supply_svg_with(&part.chart, cache)
+            let svg = plots::supply_svg_with(&part.chart, cache)?;
+            Ok::<_, PlotError>((svg, cache.last_plain()))
         })?;
-        for (i, (part, svg)) in parts.into_iter().zip(svgs).enumerate() {
+        for (i, (part, (svg, plain))) in parts.into_iter().zip(svgs).enumerate() {
             let path = chart_part_path(SUPPLY_PLOT, i);
-            sandbox.insert(&path, svg)?;
+            sandbox.insert_plain_chart(&path, svg, plain)?;
             supply_charts.push(ChartFile {
                 path,
                 part: part.part,

@@ -33,6 +33,10 @@ pub(crate) struct SvgOut<'a> {
     /// The font sizes written so far, as plotters prints them
     /// (`size / 1.24` as a float): a chart uses three or four.
     font_sizes: Vec<(u64, String)>,
+    /// Cleared at the first text written that the fonts' check would have
+    /// to look at ([`crate::typeset::chart_text_is_plain`]), when the
+    /// document's writer asked for it ([`SvgOut::noting_text`]).
+    plain: Option<&'a std::cell::Cell<bool>>,
 }
 
 impl<'a> SvgOut<'a> {
@@ -52,7 +56,17 @@ impl<'a> SvgOut<'a> {
             size,
             open: true,
             font_sizes: Vec::new(),
+            plain: None,
         }
+    }
+
+    /// This writer, clearing `plain` at the first text it writes that
+    /// the fonts' check has to read ([`crate::typeset::chart_text_is_plain`]):
+    /// while `plain` holds, everything written here leaves an SVG that
+    /// needs no CJK face, and the check can take the writer's word for it.
+    pub(crate) fn noting_text(mut self, plain: &'a std::cell::Cell<bool>) -> Self {
+        self.plain = Some(plain);
+        self
     }
 
     /// The opening of a document as [`SvgOut::with_string`] writes it, and
@@ -72,6 +86,7 @@ impl<'a> SvgOut<'a> {
             size,
             open: true,
             font_sizes: Vec::new(),
+            plain: None,
         }
     }
 
@@ -365,6 +380,12 @@ impl DrawingBackend for SvgOut<'_> {
         if color.alpha == 0.0 {
             return Ok(());
         }
+        if let Some(plain) = self.plain
+            && plain.get()
+            && !crate::typeset::chart_text_is_plain(style.family().as_str(), text)
+        {
+            plain.set(false);
+        }
         let (x0, y0) = pos;
         let anchor = style.anchor();
         let text_anchor = match anchor.h_pos {
@@ -561,5 +582,90 @@ mod tests {
         chart(SvgOut::with_string(&mut ours, (760, 330)).into_drawing_area());
         assert!(theirs.contains("<text") && theirs.contains("<line"));
         assert_eq!(ours, theirs);
+    }
+
+    /// What the fonts' check answers for an SVG, read in full.
+    fn needs_cjk(svg: &str) -> bool {
+        let mut sandbox = crate::typeset::Sandbox::new();
+        sandbox.insert("plots/chart.svg", svg).unwrap();
+        crate::typeset::needs_cjk(&sandbox)
+    }
+
+    /// When the writer says every text it wrote was plain, the fonts'
+    /// check, reading the whole SVG, finds that it needs no CJK face:
+    /// random scenes of texts in several families, among them the words
+    /// the check looks for (`font:`, `font-family`, `&#`), entities,
+    /// characters only the CJK face has and characters the other faces
+    /// have. Each answer comes up many times.
+    #[test]
+    fn a_plain_chart_text_leaves_the_svg_needing_no_cjk_face() {
+        let texts = [
+            "0",
+            "123 %",
+            "Plate dissipation, % of rating",
+            "a <b> & \"c\" 'd'",
+            "Ünïcödé – −12.5 µF Ω ±",
+            "",
+            "font",
+            "a font: 9px",
+            "font-family=\"serif\"",
+            "b; font-family: x",
+            "&#x4e2d;",
+            "&#20013; and &#65;",
+            "&#",
+            "V3 \u{4e2d}",
+            "\u{2192} \u{2225}",
+            "≤ ≥ √",
+            ":text <text",
+            "fon",
+            "t:",
+        ];
+        let families = [
+            "Noto Sans",
+            "Noto Sans",
+            "Noto Sans",
+            "Noto Sans Mono",
+            "sans-serif",
+            "Noto Sans\"",
+            "WenQuanYi Micro Hei",
+            "noto sans",
+        ];
+        let mut seen = [0usize; 3];
+        for seed in 0..3000u64 {
+            let mut x = seed.wrapping_mul(0x9e37_79b9_7f4a_7c15) | 1;
+            let mut next = move || {
+                x ^= x << 13;
+                x ^= x >> 7;
+                x ^= x << 17;
+                x
+            };
+            let plain = std::cell::Cell::new(true);
+            let mut svg = String::new();
+            {
+                let root = SvgOut::with_string(&mut svg, (400, 300))
+                    .noting_text(&plain)
+                    .into_drawing_area();
+                root.fill(&WHITE).unwrap();
+                for _ in 0..next() % 4 {
+                    let n = next();
+                    let family = families[(n % 8) as usize];
+                    let text = texts[((n >> 8) % texts.len() as u64) as usize];
+                    let alpha = if n >> 20 & 7 == 0 { 0.0 } else { 1.0 };
+                    let font = (family, 12.0).into_font().color(&BLACK.mix(alpha));
+                    root.draw(&Text::new(text.to_string(), (10, 20), font))
+                        .unwrap();
+                    root.draw(&Rectangle::new([(1, 2), (30, 40)], BLUE.filled()))
+                        .unwrap();
+                }
+            }
+            let needs = needs_cjk(&svg);
+            if plain.get() {
+                assert!(!needs, "seed {seed}: {svg}");
+            }
+            seen[usize::from(plain.get()) * 2 + usize::from(needs)] += 1;
+        }
+        // Not plain and needing the face, not plain and not needing it,
+        // plain (and so not needing it).
+        assert!(seen[1] > 300 && seen[0] > 100 && seen[2] > 300, "{seen:?}");
     }
 }
