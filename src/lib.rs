@@ -19,5 +19,7 @@ pub mod problem_cap;
 pub mod ratings;
 pub mod report;
 pub mod shop;
+#[cfg(test)]
+mod test_random;
 pub mod typeset;
 pub mod units;

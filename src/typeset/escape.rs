@@ -686,13 +686,7 @@ mod tests {
         let pool: Vec<char> = "aZ09 .%-+#\\*_[]()\"'~\t\n\r\u{B}\u{7}\u{A0}\u{2009}\u{2028}–−±Ω“”µ\u{200B}\u{AD}\u{FE0F}\u{E0001}\u{1F600}\u{10FFFF}\u{4E2D}"
             .chars()
             .collect();
-        let mut seed = 0x2545_f491_4f6c_dd1du64;
-        let mut next = || {
-            seed ^= seed << 13;
-            seed ^= seed >> 7;
-            seed ^= seed << 17;
-            seed
-        };
+        let mut next = crate::test_random::xorshift(0x2545_f491_4f6c_dd1du64);
         let mut common = 0;
         for i in 0..20_000 {
             let len = (next() % 48) as usize;
@@ -761,13 +755,7 @@ mod tests {
         let pool: Vec<char> = "aZ09 .%-\\\"+#*_[]\u{A0}()'~\t\n\r\u{B}\u{7}\u{2009}\u{2028}–−±Ω“”µ\u{200B}\u{AD}\u{FE0F}\u{E0001}\u{1F600}\u{10FFFF}\u{4E2D}"
             .chars()
             .collect();
-        let mut seed = 0x9e37_79b9_7f4a_7c15u64;
-        let mut next = || {
-            seed ^= seed << 13;
-            seed ^= seed >> 7;
-            seed ^= seed << 17;
-            seed
-        };
+        let mut next = crate::test_random::xorshift(0x9e37_79b9_7f4a_7c15u64);
         let mut fast = 0;
         for i in 0..20_000 {
             // Some texts long enough for a long run.

@@ -775,13 +775,7 @@ mod tests {
                 }
             }
         }
-        let mut seed = 0x9e37_79b9_7f4a_7c15u64;
-        let mut next = move || {
-            seed ^= seed << 13;
-            seed ^= seed >> 7;
-            seed ^= seed << 17;
-            seed
-        };
+        let mut next = crate::test_random::xorshift(0x9e37_79b9_7f4a_7c15u64);
         for _ in 0..20_000 {
             let len = (next() % 80) as usize;
             let text: String = (0..len)
@@ -835,13 +829,7 @@ mod tests {
                 }
             }
         }
-        let mut seed = 0x2545_f491_4f6c_dd1du64;
-        let mut next = move || {
-            seed ^= seed << 13;
-            seed ^= seed >> 7;
-            seed ^= seed << 17;
-            seed
-        };
+        let mut next = crate::test_random::xorshift(0x2545_f491_4f6c_dd1du64);
         for _ in 0..20_000 {
             let len = (next() % 40) as usize;
             let text: String = (0..len)

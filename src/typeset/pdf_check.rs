@@ -1128,13 +1128,8 @@ mod tests {
                 .unwrap_or(default)
         };
         let cases = number("CONTENT_CASES", 3000);
-        let mut seed = number("CONTENT_SEED", 0x9e37_79b9_7f4a_7c15) | 1;
-        let mut next = move || {
-            seed ^= seed << 13;
-            seed ^= seed >> 7;
-            seed ^= seed << 17;
-            seed
-        };
+        let mut next =
+            crate::test_random::xorshift(number("CONTENT_SEED", 0x9e37_79b9_7f4a_7c15) | 1);
         let mut reduced_fewer = 0;
         for _ in 0..cases {
             let mut content = TYPST_CONTENT.to_vec();

@@ -1918,13 +1918,7 @@ mod tests {
         let pool: Vec<char> = "aZ09 .,;µΩ%ßŉǰﬁǅéİıVmAkW\u{A0}\u{2009}\n()-–"
             .chars()
             .collect();
-        let mut seed = 0x51_7cc1_b727_220au64;
-        let mut next = || {
-            seed ^= seed << 13;
-            seed ^= seed >> 7;
-            seed ^= seed << 17;
-            seed
-        };
+        let mut next = crate::test_random::xorshift(0x51_7cc1_b727_220au64);
         let mut texts: Vec<String> = ["", ".", "ß", "ﬁ.", " ", "12 V", "x 12 mA.", "ǅ 3 %"]
             .map(String::from)
             .to_vec();
