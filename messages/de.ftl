@@ -1088,6 +1088,7 @@ diag-cannot-be-zero = { $what } kann nicht null sein
 diag-zero-or-more = null oder mehr erwartet
 diag-more-than-zero = mehr als null erwartet
 diag-impossible-help = ein echtes Bauteil oder Netzteil kann diesen Wert nicht haben; den Messwert prüfen
+diag-leads-reversed-help = dieser Messwert kann nur mit vertauschten Messleitungen unter null liegen: ihn prüfen und, wenn sie vertauscht waren, ohne Minuszeichen eintragen
 diag-range = { $low } bis { $high }
 diag-kind-voltage = eine Spannung
 diag-kind-current = ein Strom

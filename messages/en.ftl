@@ -1085,6 +1085,7 @@ diag-cannot-be-zero = { $what } cannot be zero
 diag-zero-or-more = expected zero or more
 diag-more-than-zero = expected more than zero
 diag-impossible-help = a physical part or supply cannot have this value; check the reading
+diag-leads-reversed-help = this reading cannot be below zero unless the meter’s leads were the wrong way round: check it, and if they were, enter it without the minus sign
 diag-range = { $low } to { $high }
 diag-kind-voltage = a voltage
 diag-kind-current = a current

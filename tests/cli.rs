@@ -1008,6 +1008,10 @@ fn a_negative_cathode_sense_or_primary_drop_reading_is_an_error() {
     let o = run_in(dir.path(), &["check", "neg.kdl"]);
     assert_eq!(code(&o), 1);
     let err = stderr(&o);
+    assert!(
+        err.contains("unless the meter’s leads were the wrong way round"),
+        "{err}"
+    );
     for (words, value) in [
         ("the cathode voltage cannot be negative", "\"-10V\""),
         (

@@ -1148,8 +1148,13 @@ fn decode_valve_reading(
     // current). The grid sits below its cathode by nature.
     let at_least_zero = |r: &mut Reader, key: &str, what: &'static str| {
         let reading = r.opt_prop_quantity(child, key, Q::Voltage);
-        r.positive(reading, Msg::new(what), true)
-            .map(|s| Spanned::new(Volts(s.value), s.span))
+        r.positive_or(
+            reading,
+            Msg::new(what),
+            true,
+            Msg::new("diag-leads-reversed-help"),
+        )
+        .map(|s| Spanned::new(Volts(s.value), s.span))
     };
     let plate = at_least_zero(r, "plate", "diag-what-plate-voltage");
     let screen = at_least_zero(r, "screen", "diag-what-screen-voltage");

@@ -634,6 +634,19 @@ impl<'s> Reader<'s> {
         what: impl Into<Arg>,
         allow_zero: bool,
     ) -> Option<Spanned<f64>> {
+        self.positive_or(v, what, allow_zero, Msg::new("diag-impossible-help"))
+    }
+
+    /// [`Reader::positive`] with its own help for a value out of range (a
+    /// reading that can only be below zero when the meter's leads were
+    /// the wrong way round says so).
+    pub fn positive_or(
+        &mut self,
+        v: Option<Spanned<f64>>,
+        what: impl Into<Arg>,
+        allow_zero: bool,
+        help: Msg,
+    ) -> Option<Spanned<f64>> {
         let v = v?;
         let bad = if allow_zero {
             v.value < 0.0
@@ -657,7 +670,7 @@ impl<'s> Reader<'s> {
                         "diag-more-than-zero"
                     }),
                 )
-                .with_help(Msg::new("diag-impossible-help")),
+                .with_help(help),
             );
             return None;
         }
