@@ -506,7 +506,11 @@ pub(crate) fn fill_template(
         tm => tm,
         ..Value::from_serialize(context)
     };
-    let mut filled = Vec::with_capacity(room);
+    let mut filled = Vec::new();
+    // Only asked for: a hostile job of half a million empty sets would
+    // ask for gigabytes, which a process under a memory limit cannot
+    // have; the text then grows as it is written.
+    let _ = filled.try_reserve_exact(room);
     template
         .render_captured_to(ctx, &mut filled)
         .map_err(fail)?;
