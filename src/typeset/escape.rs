@@ -494,13 +494,7 @@ mod tests {
         // points), among plain text.
         let mut pool: Vec<char> = (0..0x100u32).filter_map(char::from_u32).collect();
         pool.extend("\u{2026}\u{2027}\u{2028}\u{2029}\u{202A}\u{202F}\u{2080}\u{20AC}\u{2212}\u{1F600}\u{10FFFF}\u{FFFD}–Ω“µ中".chars());
-        let mut state = 0x9E37_79B9_7F4A_7C15u64;
-        let mut next = || {
-            state ^= state << 13;
-            state ^= state >> 7;
-            state ^= state << 17;
-            state
-        };
+        let mut next = crate::test_random::xorshift(0x9E37_79B9_7F4A_7C15u64);
         for round in 0..60_000 {
             let len = (next() % 14) as usize;
             let text: String = (0..len)

@@ -1045,13 +1045,7 @@ mod tests {
 
     #[test]
     fn pieces_after_a_needle_are_those_of_split() {
-        let mut state = 0x2545_f491_4f6c_dd1d_u64;
-        let mut next = || {
-            state ^= state << 13;
-            state ^= state >> 7;
-            state ^= state << 17;
-            state
-        };
+        let mut next = crate::test_random::xorshift(0x2545_f491_4f6c_dd1d_u64);
         const POOL: &[&str] = &[
             "\\",
             "u",
@@ -1139,13 +1133,7 @@ mod tests {
     /// `any_beyond_ascii` meet them).
     #[test]
     fn one_search_for_several_words_answers_as_a_search_for_each() {
-        let mut state = 0x9e37_79b9_7f4a_7c15_u64;
-        let mut next = || {
-            state ^= state << 13;
-            state ^= state >> 7;
-            state ^= state << 17;
-            state
-        };
+        let mut next = crate::test_random::xorshift(0x9e37_79b9_7f4a_7c15_u64);
         const POOL: &[&str] = &[
             "sym",
             "sym.",

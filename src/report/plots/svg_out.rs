@@ -467,13 +467,7 @@ mod tests {
     /// A scene using every kind of element the backend writes, with
     /// coordinates, colours, widths, fonts and texts from `seed`.
     fn scene<DB: DrawingBackend>(root: &DrawingArea<DB, Shift>, seed: u64) {
-        let mut x = seed | 1;
-        let mut next = move || {
-            x ^= x << 13;
-            x ^= x >> 7;
-            x ^= x << 17;
-            x
-        };
+        let mut next = crate::test_random::xorshift(seed | 1);
         let texts = [
             "0",
             "123 %",
@@ -632,13 +626,8 @@ mod tests {
         ];
         let mut seen = [0usize; 3];
         for seed in 0..3000u64 {
-            let mut x = seed.wrapping_mul(0x9e37_79b9_7f4a_7c15) | 1;
-            let mut next = move || {
-                x ^= x << 13;
-                x ^= x >> 7;
-                x ^= x << 17;
-                x
-            };
+            let mut next =
+                crate::test_random::xorshift(seed.wrapping_mul(0x9e37_79b9_7f4a_7c15) | 1);
             let plain = std::cell::Cell::new(true);
             let mut svg = String::new();
             {
