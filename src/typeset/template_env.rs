@@ -8,6 +8,7 @@
 //! Templates come from a built-in list, with an optional folder whose files
 //! take precedence (the `--templates DIR` option).
 
+use std::collections::BTreeMap;
 use std::fmt;
 use std::path::{Path, PathBuf};
 use std::sync::Arc;
@@ -51,6 +52,19 @@ pub struct TypstMarkup(pub String);
 impl Object for TypstMarkup {
     fn render(self: &Arc<Self>, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         f.write_str(&self.0)
+    }
+}
+
+/// Program-made Typst source in pieces, printed one after another like a
+/// [`TypstMarkup`] of them all: what [`fill_each`] gives, one piece per
+/// item, so a long document's text is not copied into one more string on
+/// its way out.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub struct TypstMarkupParts(pub Vec<String>);
+
+impl Object for TypstMarkupParts {
+    fn render(self: &Arc<Self>, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        self.0.iter().try_for_each(|part| f.write_str(part))
     }
 }
 
@@ -124,6 +138,8 @@ pub fn template_environment(templates: TemplateSource) -> Environment<'static> {
     env.set_formatter(|out, _state, value| {
         if let Some(markup) = value.downcast_object_ref::<TypstMarkup>() {
             out.write_str(&markup.0)?;
+        } else if let Some(parts) = value.downcast_object_ref::<TypstMarkupParts>() {
+            parts.0.iter().try_for_each(|part| out.write_str(part))?;
         } else if value.is_safe()
             && let Some(text) = value.as_str()
         {
@@ -195,6 +211,9 @@ fn typst_content(value: Value) -> Value {
     if let Some(markup) = value.downcast_object_ref::<TypstMarkup>() {
         return typst_markup(format!("[{}]", markup.0));
     }
+    if let Some(parts) = value.downcast_object_ref::<TypstMarkupParts>() {
+        return typst_markup(format!("[{}]", parts.0.concat()));
+    }
     if value.is_none() || value.is_undefined() {
         return typst_markup("[]");
     }
@@ -216,6 +235,93 @@ fn typst_rows(value: Value) -> Result<Value, Error> {
             ErrorKind::InvalidOperation,
             Msg::new("cli-template-not-rows"),
         )),
+    }
+}
+
+/// The `fill_each` function of a template's context, for a document whose
+/// `base` context is given:
+/// `fill_each("part.typ", "name", items, extra=value, …)` fills the template
+/// `part.typ` once for each of `items`, with the item as `name`, each
+/// `extra` keyword as a variable, and the document's whole context (`base`)
+/// beside them, and prints the texts one after another in the order of
+/// `items`. The items are filled on every core (rayon), which is why a long
+/// hand-over's sets are filled this way rather than in a `{% for %}` loop;
+/// what is printed is what that loop would print, the same template text
+/// written inline. A filled part's output was escaped as it was written, so
+/// it prints as it is.
+///
+/// `base` does not hold `fill_each` itself, so a part cannot fill parts in
+/// turn (a template calling itself that way would never end); `fill_each`
+/// there is an undefined name, an error like any other. An error in a part
+/// names the part and its line; of several, the first item's.
+pub fn fill_each(base: Value) -> Value {
+    Value::from_function(
+        move |state: &minijinja::State,
+              name: &str,
+              item_name: &str,
+              items: Value,
+              extra: minijinja::value::Kwargs|
+              -> Result<Value, Error> {
+            use rayon::prelude::*;
+            let template = state.env().get_template(name)?;
+            // Every name a part sees, in one map made once: looked up
+            // through one map rather than a chain of them, as the part's
+            // names are looked up thousands of times.
+            let mut names = BTreeMap::new();
+            for key in base.try_iter()? {
+                if let Some(key_str) = key.as_str() {
+                    names.insert(key_str.to_owned(), base.get_item(&key)?);
+                }
+            }
+            for key in extra.args() {
+                names.insert(key.to_owned(), extra.get::<Value>(key)?);
+            }
+            let names = Arc::new(names);
+            if items.is_undefined() {
+                // As a loop over an undefined name would be.
+                return Err(Error::from(ErrorKind::UndefinedError));
+            }
+            let items: Vec<Value> = items.try_iter()?.collect();
+            let parts: Vec<Result<String, Error>> = items
+                .par_iter()
+                .map(|item| {
+                    template.render(Value::from_object(PartContext {
+                        item_name: item_name.to_owned(),
+                        item: item.clone(),
+                        names: Arc::clone(&names),
+                    }))
+                })
+                .collect();
+            let parts = parts.into_iter().collect::<Result<Vec<_>, _>>()?;
+            Ok(Value::from_object(TypstMarkupParts(parts)))
+        },
+    )
+}
+
+/// What one part [`fill_each`] fills sees: its item under its name, else
+/// the names shared by all parts.
+#[derive(Debug)]
+struct PartContext {
+    item_name: String,
+    item: Value,
+    names: Arc<BTreeMap<String, Value>>,
+}
+
+impl Object for PartContext {
+    fn get_value(self: &Arc<Self>, key: &Value) -> Option<Value> {
+        let key = key.as_str()?;
+        if key == self.item_name {
+            return Some(self.item.clone());
+        }
+        self.names.get(key).cloned()
+    }
+
+    fn enumerate(self: &Arc<Self>) -> minijinja::value::Enumerator {
+        let mut keys: Vec<Value> = self.names.keys().map(|k| Value::from(k.as_str())).collect();
+        if !self.names.contains_key(&self.item_name) {
+            keys.push(Value::from(self.item_name.as_str()));
+        }
+        minijinja::value::Enumerator::Values(keys)
     }
 }
 
@@ -570,5 +676,137 @@ mod tests {
         let words = format!("{err:#}");
         assert!(words.contains("symbolic link"), "{words}");
         assert!(!words.contains("root:x"), "{words}");
+    }
+
+    /// A context as `fill_template` makes it: the document's values, and
+    /// `fill_each` over them.
+    fn with_fill_each(base: Value) -> Value {
+        context! { fill_each => fill_each(base.clone()), ..base }
+    }
+
+    #[test]
+    fn fill_each_prints_what_the_loop_prints_in_order() {
+        // The part, written inline in a loop and as a template of its own:
+        // the same text, item for item, for many items filled on every
+        // core, with user text escaped, markup kept, the item's own
+        // variables, `extra` keywords and the document's names all seen.
+        let part = "\n\n== {{ item.name }} ({{ loop_free }}){% if item.n is even %} even{% endif %}\n{{ heading }} {{ shop }} {{ item.n|typst_content }} {{ t }}";
+        let built_in: &'static [(&'static str, &'static str)] = Box::leak(Box::new([
+            ("part.typ", part),
+            (
+                "inline.typ",
+                Box::leak(
+                    format!("{{% for item in items %}}{part}{{% endfor %}}|").into_boxed_str(),
+                ) as &str,
+            ),
+            (
+                "each.typ",
+                "{{ fill_each(\"part.typ\", \"item\", items, heading=heading) }}|",
+            ),
+        ]));
+        let env = template_environment(TemplateSource::embedded(built_in));
+        let items: Vec<Value> = (0..700)
+            .map(|n| context! { name => format!("#set {n} *x*"), n => n })
+            .collect();
+        let base = context! {
+            items => items,
+            loop_free => "a_b",
+            shop => typst_markup("#strong[S]"),
+            t => "$",
+        };
+        let heading = env
+            .render_str(
+                "{% set h %}[{{ w }}]{% endset %}{{ h }}",
+                context! { w => "#w" },
+            )
+            .unwrap();
+        assert_eq!(heading, "[\\#w]");
+        let inline = env
+            .get_template("inline.typ")
+            .unwrap()
+            .render(
+                context! { heading => Value::from_safe_string(heading.clone()), ..base.clone() },
+            )
+            .unwrap();
+        let each = env
+            .get_template("each.typ")
+            .unwrap()
+            .render(with_fill_each(context! {
+                heading => Value::from_safe_string(heading.clone()),
+                ..base.clone()
+            }))
+            .unwrap();
+        assert_eq!(each, inline);
+        assert!(
+            each.contains("== \\#set 699 \\*x\\* (a\\_b)\n[\\#w] #strong[S] \"699\" \\$|"),
+            "{}",
+            &each[each.len() - 200..]
+        );
+        // No items: nothing.
+        let none = env
+            .get_template("each.typ")
+            .unwrap()
+            .render(with_fill_each(
+                context! { heading => "", items => Vec::<Value>::new(), ..base.clone() },
+            ))
+            .unwrap();
+        assert_eq!(none, "|");
+    }
+
+    #[test]
+    fn a_part_cannot_fill_parts_in_turn() {
+        // Else a part filling itself would never end.
+        let built_in: &'static [(&'static str, &'static str)] = &[(
+            "self.typ",
+            "x{{ fill_each(\"self.typ\", \"item\", items) }}",
+        )];
+        let env = template_environment(TemplateSource::embedded(built_in));
+        let err = env
+            .get_template("self.typ")
+            .unwrap()
+            .render(with_fill_each(context! { items => vec![1, 2] }))
+            .unwrap_err();
+        let inner = std::iter::successors(Some(&err as &dyn std::error::Error), |e| e.source())
+            .filter_map(|e| e.downcast_ref::<Error>())
+            .last()
+            .unwrap();
+        assert_eq!(inner.kind(), ErrorKind::UnknownFunction, "{err:#}");
+    }
+
+    #[test]
+    fn an_error_in_a_part_names_the_part_and_its_line() {
+        let built_in: &'static [(&'static str, &'static str)] = &[
+            (
+                "main.typ",
+                "first line\n{{ fill_each(\"part.typ\", \"item\", items) }}",
+            ),
+            (
+                "part.typ",
+                "ok\n{% if item > 5 %}{{ item.no_such_field }}{% endif %}",
+            ),
+        ];
+        let env = template_environment(TemplateSource::embedded(built_in));
+        let err = env
+            .get_template("main.typ")
+            .unwrap()
+            .render(with_fill_each(
+                context! { items => (0..20).collect::<Vec<i64>>() },
+            ))
+            .unwrap_err();
+        let words = template_error_msg(&err).english();
+        assert!(words.contains("part.typ"), "{words}");
+        assert!(words.contains('2'), "{words}");
+        // A name a part does not know, and items that are not a list.
+        for (ctx, what) in [
+            (context! { items => 3 }, "not iterable"),
+            (context! { others => 3 }, "undefined"),
+        ] {
+            let err = env
+                .get_template("main.typ")
+                .unwrap()
+                .render(with_fill_each(ctx))
+                .unwrap_err();
+            assert!(format!("{err:#}").contains(what), "{err:#}");
+        }
     }
 }

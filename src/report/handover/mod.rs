@@ -156,10 +156,20 @@ pub(crate) fn includes_notice(source: &str) -> bool {
 }
 
 /// The built-in templates, for [`TemplateSource::embedded`].
-pub static EMBEDDED_TEMPLATES: &[(&str, &str)] = &[(
-    TEMPLATE_NAME,
-    include_str!("../../../templates/handover.typ"),
-)];
+pub static EMBEDDED_TEMPLATES: &[(&str, &str)] = &[
+    (
+        TEMPLATE_NAME,
+        include_str!("../../../templates/handover.typ"),
+    ),
+    (
+        SET_TEMPLATE_NAME,
+        include_str!("../../../templates/handover-set.typ"),
+    ),
+];
+
+/// The template of one measurement set's section, which [`TEMPLATE_NAME`]
+/// fills once for each set (`fill_each`).
+pub const SET_TEMPLATE_NAME: &str = "handover-set.typ";
 
 /// The creation date stamped into the PDF when the job gives neither a
 /// completion nor a received date: a fixed day, so the bytes still do not
@@ -500,11 +510,15 @@ pub(crate) fn fill_template(
     };
     let template = env.get_template(name).map_err(fail)?;
     let (t, tm) = catalogue_functions(catalogue);
-    let ctx = minijinja::context! {
+    let base = minijinja::context! {
         font_rules => typst_markup(font_rules()),
         t => t,
         tm => tm,
         ..Value::from_serialize(context)
+    };
+    let ctx = minijinja::context! {
+        fill_each => crate::typeset::fill_each(base.clone()),
+        ..base
     };
     let mut filled = Vec::new();
     // Only asked for: a hostile job of half a million empty sets would
@@ -1063,6 +1077,50 @@ mod tests {
                     detail.contains("no message `doc-no-such-label`"),
                     "{detail}"
                 );
+            }
+            other => panic!("expected a template error, got {other:?}"),
+        }
+    }
+
+    #[test]
+    fn a_shops_set_section_replaces_the_built_in_one_for_every_set() {
+        // Only `handover-set.typ` in the folder: the built-in hand-over
+        // fills the shop's section once for each set, in order, with the
+        // heading words handover.typ passes, and an error in it names it.
+        let dir = tempfile::tempdir().unwrap();
+        std::fs::write(
+            dir.path().join(SET_TEMPLATE_NAME),
+            "\n\n= Shop set {{ set.label }} ({{ w_supply }}, {{ unit.model }})",
+        )
+        .unwrap();
+        let (job, findings, text) = demo("head-el34-quad.kdl");
+        let input = HandoverInput::new(&job, &findings, &text, "0.15.1");
+        let source = TemplateSource::embedded(EMBEDDED_TEMPLATES).with_override_dir(dir.path());
+        let doc = build(&input, &source).unwrap();
+        let main = String::from_utf8(doc.sandbox.get(MAIN_SOURCE).unwrap().to_vec()).unwrap();
+        let labels: Vec<&str> = doc.context.sets.iter().map(|s| s.label.as_str()).collect();
+        assert!(labels.len() >= 2, "{labels:?}");
+        let mut from = 0;
+        for label in &labels {
+            let line = format!("= Shop set {label} (Supply voltages, ");
+            let at = main[from..]
+                .find(&line)
+                .unwrap_or_else(|| panic!("{line} missing or out of order"));
+            from += at + line.len();
+        }
+        assert!(
+            !main.contains("== Supply voltages"),
+            "the built-in section is still there"
+        );
+        std::fs::write(
+            dir.path().join(SET_TEMPLATE_NAME),
+            "ok\n{{ set.no_such_field.deeper }}",
+        )
+        .unwrap();
+        match build(&input, &source) {
+            Err(HandoverError::Template { detail, .. }) => {
+                let detail = detail.english();
+                assert!(detail.contains("handover-set.typ"), "{detail}");
             }
             other => panic!("expected a template error, got {other:?}"),
         }
