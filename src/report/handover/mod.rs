@@ -165,11 +165,19 @@ pub static EMBEDDED_TEMPLATES: &[(&str, &str)] = &[
         SET_TEMPLATE_NAME,
         include_str!("../../../templates/handover-set.typ"),
     ),
+    (
+        HISTORY_TEMPLATE_NAME,
+        include_str!("../../../templates/handover-history.typ"),
+    ),
 ];
 
 /// The template of one measurement set's section, which [`TEMPLATE_NAME`]
 /// fills once for each set (`fill_each`).
 pub const SET_TEMPLATE_NAME: &str = "handover-set.typ";
+
+/// The template of what one earlier set showed (under "What needs
+/// attention"), which [`TEMPLATE_NAME`] fills once for each earlier set.
+pub const HISTORY_TEMPLATE_NAME: &str = "handover-history.typ";
 
 /// The creation date stamped into the PDF when the job gives neither a
 /// completion nor a received date: a fixed day, so the bytes still do not
@@ -526,11 +534,15 @@ pub(crate) fn fill_template(
     // have; the text then grows as it is written.
     let _ = filled.try_reserve_exact(room);
     template
-        .render_captured_to(ctx, &mut filled)
+        .render_captured_to(&ctx, &mut filled)
         .map_err(fail)?;
     // minijinja writes only `&str` pieces, so the bytes are text; checked
     // all the same (a few hundred microseconds for 6 MB) rather than
     // assumed.
+    // The template's values (a long job's are a million small pieces,
+    // some 20 million instructions to free) are let go on a pool thread,
+    // which is idle by now, rather than before the document can go on.
+    rayon::spawn(move || drop(ctx));
     String::from_utf8(filled).map_err(|e| {
         fail(minijinja::Error::new(
             minijinja::ErrorKind::WriteFailure,
