@@ -289,12 +289,18 @@ pub(crate) fn decode_document(
     let mut measurements = Vec::new();
     // Labels seen so far, so a job with many sets is checked in linear time.
     let mut labels = std::collections::HashSet::new();
-    for node in nodes
+    let set_nodes: Vec<Node<'_>> = nodes
         .iter()
         .copied()
         .filter(|n| n.name().value() == "measurements")
-    {
-        if let Some(set) = decode_measurements(node, r) {
+        .collect();
+    let mut decoded_apart = decode_sets_apart(&set_nodes, r.source);
+    for (i, &node) in set_nodes.iter().enumerate() {
+        let set = match &mut decoded_apart {
+            Some(sets) => sets[i].take(),
+            None => decode_measurements(node, r),
+        };
+        if let Some(set) = set {
             if set.is_final && measurements.iter().any(|m: &MeasurementSet| m.is_final) {
                 let at = Reader::prop(node, "final")
                     .map(|e| e.span())
@@ -845,6 +851,34 @@ fn decode_circuit(node: Node<'_>, r: &mut Reader) -> Circuit {
         }
     }
     c
+}
+
+/// From this many measurement sets on, [`decode_sets_apart`] decodes them
+/// on every core (rayon); below it the threads' start costs more than it
+/// saves.
+const PARALLEL_SETS: usize = 16;
+
+/// A long job's measurement sets decoded on every core, each with a reader
+/// of its own, in order; `None` when the job has fewer than
+/// [`PARALLEL_SETS`] sets or when any set has a problem (an error or a
+/// warning). The sets are then decoded one after another with the job's
+/// own reader, as before, so what is said about a broken or doubtful job
+/// is exactly what that says: the problems in the same order, and the
+/// did-you-means, which only the first few problems of a file get. A set
+/// decoded without a problem is the same either way.
+fn decode_sets_apart(nodes: &[Node<'_>], source: &str) -> Option<Vec<Option<MeasurementSet>>> {
+    use rayon::prelude::*;
+    if nodes.len() < PARALLEL_SETS {
+        return None;
+    }
+    nodes
+        .par_iter()
+        .map(|&node| {
+            let mut own = Reader::new(source);
+            let set = decode_measurements(node, &mut own);
+            own.problems.is_empty().then_some(set)
+        })
+        .collect()
 }
 
 fn decode_measurements(node: Node<'_>, r: &mut Reader) -> Option<MeasurementSet> {
@@ -2024,4 +2058,56 @@ fn split_names(r: &Reader, list: &Spanned<String>) -> Vec<Spanned<String>> {
         }
     }
     out
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// The generated job of scripts/gen-job.sh with `sets` sets.
+    fn generated(sets: usize) -> String {
+        let out = std::process::Command::new("bash")
+            .arg(std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("scripts/gen-job.sh"))
+            .arg(sets.to_string())
+            .output()
+            .unwrap();
+        String::from_utf8(out.stdout).unwrap()
+    }
+
+    #[test]
+    fn sets_decoded_apart_are_the_sets_decoded_one_after_another() {
+        let text = generated(40);
+        let tree = crate::kdl_fast::parse_tree(&text).unwrap();
+        let nodes: Vec<Node<'_>> = tree
+            .doc()
+            .nodes()
+            .filter(|n| n.name().value() == "measurements")
+            .collect();
+        assert_eq!(nodes.len(), 40);
+        let apart = decode_sets_apart(&nodes, &text).expect("a clean job's sets are decoded apart");
+        let mut r = Reader::new(&text);
+        let in_order: Vec<Option<MeasurementSet>> = nodes
+            .iter()
+            .map(|&n| decode_measurements(n, &mut r))
+            .collect();
+        assert!(r.problems.is_empty());
+        assert_eq!(format!("{apart:?}"), format!("{in_order:?}"));
+        assert!(apart.iter().all(Option::is_some));
+        // Too few sets to be worth it, or a set with a problem: decoded in
+        // order with the job's reader instead.
+        assert!(decode_sets_apart(&nodes[..PARALLEL_SETS - 1], &text).is_none());
+        let broken = text.replacen(
+            "measurements \"reading 00007\"",
+            "measurements \"reading 00007\" colour=\"red\"",
+            1,
+        );
+        assert_ne!(broken, text);
+        let tree = crate::kdl_fast::parse_tree(&broken).unwrap();
+        let nodes: Vec<Node<'_>> = tree
+            .doc()
+            .nodes()
+            .filter(|n| n.name().value() == "measurements")
+            .collect();
+        assert!(decode_sets_apart(&nodes, &broken).is_none());
+    }
 }
