@@ -394,7 +394,7 @@ pub(crate) fn text_needs_cjk(path: &str, text: &str) -> bool {
         return false;
     }
     match extension(path).as_str() {
-        "typ" => typst_needs_cjk(text),
+        "typ" => typst_source_needs_cjk(text),
         "svg" => svg_needs_cjk(text),
         _ => body_text_takes_cjk(text),
     }
@@ -503,6 +503,48 @@ fn typst_needs_cjk(text: &str) -> bool {
     body_text_takes_cjk(text)
         || pieces_after(text, "\\u{")
             .any(|rest| escaped_char(rest, '}', 16).is_none_or(body_takes_cjk))
+}
+
+/// [`typst_needs_cjk`] for a Typst source of any length: a long one (a
+/// long job's main source is megabytes) is read in pieces on every core.
+/// The pieces end at line ends, and no pattern the check looks for holds a
+/// line end (a `\u{…}` escape broken by one is no escape, in the whole
+/// text as in the piece before it), so the source needs the CJK face just
+/// when one of its pieces does.
+fn typst_source_needs_cjk(text: &str) -> bool {
+    use rayon::prelude::*;
+    if text.len() < PIECES_FROM {
+        return typst_needs_cjk(text);
+    }
+    let pieces = line_pieces(text, text.len().div_ceil(PIECE_BYTES));
+    pieces.par_iter().any(|piece| typst_needs_cjk(piece))
+}
+
+/// From this many bytes on, [`typst_source_needs_cjk`] reads a source in
+/// pieces; shorter ones are read in one go.
+const PIECES_FROM: usize = 1 << 20;
+
+/// About how long each piece [`typst_source_needs_cjk`] reads is.
+const PIECE_BYTES: usize = 1 << 19;
+
+/// `text` cut into about `count` pieces of like length, each but the last
+/// ending with a line end: together, `text`.
+fn line_pieces(text: &str, count: usize) -> Vec<&str> {
+    let mut pieces = Vec::with_capacity(count.max(1));
+    let mut rest = text;
+    let step = text.len().div_ceil(count.max(1)).max(1);
+    while rest.len() > step {
+        match memchr::memchr(b'\n', &rest.as_bytes()[step..]) {
+            Some(at) => {
+                let (piece, after) = rest.split_at(step + at + 1);
+                pieces.push(piece);
+                rest = after;
+            }
+            None => break,
+        }
+    }
+    pieces.push(rest);
+    pieces
 }
 
 /// [`needs_cjk`] for an SVG.
@@ -1041,6 +1083,67 @@ mod tests {
         ] {
             assert!(!body_takes_cjk(c), "{c}");
         }
+    }
+
+    #[test]
+    fn a_source_read_in_pieces_needs_what_it_needs_whole() {
+        // Cut at line ends, anywhere: the answer is the whole text's, for
+        // texts made of the patterns the check looks for, broken up by
+        // line ends (the escape `\u{…}` among them, with and without its
+        // brace, with good and bad digits).
+        let mut next = crate::test_random::xorshift(0x9e37_79b9_7f4a_7c15_u64);
+        const POOL: &[&str] = &[
+            "\n",
+            "\n",
+            "\\u{",
+            "}",
+            "4e00",
+            "41",
+            "zz",
+            "sym",
+            ".",
+            "bol(",
+            "emoji.",
+            "from-unicode",
+            "日",
+            "µ",
+            " ",
+            "a",
+            "\\",
+            "u",
+            "{",
+            "√",
+        ];
+        let mut both = [0usize; 2];
+        for _ in 0..40_000 {
+            let len = (next() % 24) as usize;
+            let text: String = (0..len)
+                .map(|_| POOL[(next() % POOL.len() as u64) as usize])
+                .collect();
+            let whole = typst_needs_cjk(&text);
+            both[usize::from(whole)] += 1;
+            for count in 1..=4 {
+                let pieces = line_pieces(&text, count);
+                assert_eq!(pieces.concat(), text);
+                assert!(pieces[..pieces.len() - 1].iter().all(|p| p.ends_with('\n')));
+                assert_eq!(
+                    pieces.iter().any(|p| typst_needs_cjk(p)),
+                    whole,
+                    "{text:?} in {pieces:?}"
+                );
+            }
+        }
+        // Both answers came up often.
+        assert!(both.iter().all(|&n| n > 5_000), "{both:?}");
+        // A long source goes the piecewise way, with the same answer.
+        let long = "#text[plain]\n".repeat(200_000);
+        assert!(long.len() >= PIECES_FROM);
+        assert!(line_pieces(&long, long.len().div_ceil(PIECE_BYTES)).len() > 1);
+        assert!(!typst_source_needs_cjk(&long));
+        let with_escape = format!("{long}#\"\\u{{4e00}}\"\n{long}");
+        assert!(typst_source_needs_cjk(&with_escape));
+        let broken = format!("{long}#\"\\u{{4e00\n}}\"\n{long}");
+        assert_eq!(typst_source_needs_cjk(&broken), typst_needs_cjk(&broken));
     }
 
     #[test]
