@@ -55,7 +55,7 @@ pub use output::{Input, InputIndex, OutputRefused, check_emit_folder, check_outp
 pub use rows::{CountedText, RowList, Rows, TypstRow, serialize_counted_text};
 pub use sandbox::{EMIT_PREFIX, FileContents, Sandbox, emit_source, emit_source_replacing};
 pub use template_env::{
-    TemplateSource, TypstMarkup, TypstMarkupParts, fill_each, refusal, template_environment,
-    template_error_msg, typst_markup,
+    PARALLEL_PARTS, TemplateSource, TypstMarkup, TypstMarkupParts, fill_each, refusal,
+    template_environment, template_error_msg, typst_markup,
 };
 pub use version::{MAX_TYPST_EXCLUSIVE, MIN_TYPST, TypstVersion};

@@ -244,8 +244,9 @@ fn typst_rows(value: Value) -> Result<Value, Error> {
 /// `part.typ` once for each of `items`, with the item as `name`, each
 /// `extra` keyword as a variable, and the document's whole context (`base`)
 /// beside them, and prints the texts one after another in the order of
-/// `items`. The items are filled on every core (rayon), which is why a long
-/// hand-over's sets are filled this way rather than in a `{% for %}` loop;
+/// `items`. The items are filled on every core (rayon; from
+/// [`PARALLEL_PARTS`] items on), which is why a long hand-over's sets are
+/// filled this way rather than in a `{% for %}` loop;
 /// what is printed is what that loop would print, the same template text
 /// written inline. A filled part's output was escaped as it was written, so
 /// it prints as it is.
@@ -282,21 +283,28 @@ pub fn fill_each(base: Value) -> Value {
                 return Err(Error::from(ErrorKind::UndefinedError));
             }
             let items: Vec<Value> = items.try_iter()?.collect();
-            let parts: Vec<Result<String, Error>> = items
-                .par_iter()
-                .map(|item| {
-                    template.render(Value::from_object(PartContext {
-                        item_name: item_name.to_owned(),
-                        item: item.clone(),
-                        names: Arc::clone(&names),
-                    }))
-                })
-                .collect();
+            let fill = |item: &Value| {
+                template.render(Value::from_object(PartContext {
+                    item_name: item_name.to_owned(),
+                    item: item.clone(),
+                    names: Arc::clone(&names),
+                }))
+            };
+            let parts: Vec<Result<String, Error>> = if items.len() < PARALLEL_PARTS {
+                items.iter().map(fill).collect()
+            } else {
+                items.par_iter().map(fill).collect()
+            };
             let parts = parts.into_iter().collect::<Result<Vec<_>, _>>()?;
             Ok(Value::from_object(TypstMarkupParts(parts)))
         },
     )
 }
+
+/// From this many items on, [`fill_each`] fills them on every core; fewer
+/// are filled one after another, as starting the pool's threads for a
+/// short document would cost more than it saves.
+pub const PARALLEL_PARTS: usize = 16;
 
 /// What one part [`fill_each`] fills sees: its item under its name, else
 /// the names shared by all parts.

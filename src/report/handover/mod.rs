@@ -495,6 +495,13 @@ const FILL_ROOM_BASE: usize = 64 * 1024;
 /// See [`FILL_ROOM_BASE`].
 const FILL_ROOM_PER_SET: usize = 8 * 1024;
 
+/// The room of a fill from which [`fill_template`] lets the template's
+/// values go on a pool thread: a hand-over of
+/// [`PARALLEL_PARTS`](crate::typeset::PARALLEL_PARTS) sets
+/// or more, the length from which its sets are filled on every core too.
+const LET_GO_ELSEWHERE_FROM: usize =
+    FILL_ROOM_BASE + crate::typeset::PARALLEL_PARTS * FILL_ROOM_PER_SET;
+
 /// Fills the template `name` (built in, or from a `--templates` folder)
 /// with `context`, `font_rules` and the catalogue's `t` and `tm`; shared by the hand-over and the
 /// listing. `room`: the bytes to make room for before the fill starts
@@ -539,10 +546,15 @@ pub(crate) fn fill_template(
     // minijinja writes only `&str` pieces, so the bytes are text; checked
     // all the same (a few hundred microseconds for 6 MB) rather than
     // assumed.
-    // The template's values (a long job's are a million small pieces,
-    // some 20 million instructions to free) are let go on a pool thread,
-    // which is idle by now, rather than before the document can go on.
-    rayon::spawn(move || drop(ctx));
+    // A long document's template values (a 1,000-set job's are a million
+    // small pieces, some 20 million instructions to free) are let go on a
+    // pool thread, idle by now, rather than before the document can go
+    // on; a short one's are let go here, without starting the pool.
+    if room >= LET_GO_ELSEWHERE_FROM {
+        rayon::spawn(move || drop(ctx));
+    } else {
+        drop(ctx);
+    }
     String::from_utf8(filled).map_err(|e| {
         fail(minijinja::Error::new(
             minijinja::ErrorKind::WriteFailure,
