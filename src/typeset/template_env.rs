@@ -306,6 +306,63 @@ pub fn fill_each(base: Value) -> Value {
 /// short document would cost more than it saves.
 pub const PARALLEL_PARTS: usize = 16;
 
+/// `bytes` as text, as [`String::from_utf8`] gives it; a long text (a
+/// long job's filled hand-over is megabytes) is checked in pieces on every
+/// core rather than in one pass before the document can go on.
+pub(crate) fn text_from_bytes(bytes: Vec<u8>) -> Result<String, std::string::FromUtf8Error> {
+    if bytes.len() < TEXT_PIECES_FROM {
+        return String::from_utf8(bytes);
+    }
+    text_checked_in_pieces(bytes, TEXT_PIECE_BYTES)
+}
+
+/// From this many bytes on, [`text_from_bytes`] checks a text in pieces.
+const TEXT_PIECES_FROM: usize = 1 << 20;
+
+/// About how long each piece [`text_from_bytes`] checks is.
+const TEXT_PIECE_BYTES: usize = 1 << 19;
+
+/// [`text_from_bytes`] with pieces of about `piece` bytes. In UTF-8 each
+/// piece starts where a character starts, so the text is UTF-8 just when
+/// every piece is: a character cannot straddle two pieces, and a sequence
+/// cut by a piece's start leaves the piece before it, or the one it
+/// starts, no UTF-8. A text that is not UTF-8 is handed to
+/// [`String::from_utf8`] for its error.
+fn text_checked_in_pieces(
+    bytes: Vec<u8>,
+    piece: usize,
+) -> Result<String, std::string::FromUtf8Error> {
+    use rayon::prelude::*;
+    let piece = piece.max(1);
+    let mut starts = vec![0];
+    let mut at = piece;
+    while at < bytes.len() {
+        // Back to the byte that starts the character `at` falls in: at
+        // most three steps in UTF-8. In bytes that are not UTF-8 it may
+        // stay on a byte that continues a character; that piece is then
+        // not UTF-8 either, and the whole is checked again below.
+        let last = *starts.last().expect("one start");
+        let mut start = at;
+        while at - start < 3 && start > last + 1 && bytes[start] & 0xC0 == 0x80 {
+            start -= 1;
+        }
+        starts.push(start);
+        at = start + piece;
+    }
+    starts.push(bytes.len());
+    let every_piece_text = starts
+        .par_windows(2)
+        .all(|w| std::str::from_utf8(&bytes[w[0]..w[1]]).is_ok());
+    if every_piece_text {
+        // SAFETY: every piece is UTF-8, so each starts with a byte that
+        // starts a character and ends with a whole character: the pieces
+        // put together, `bytes`, are UTF-8.
+        Ok(unsafe { String::from_utf8_unchecked(bytes) })
+    } else {
+        String::from_utf8(bytes)
+    }
+}
+
 /// What one part [`fill_each`] fills sees: its item under its name, else
 /// the names shared by all parts.
 #[derive(Debug)]
@@ -684,6 +741,55 @@ mod tests {
         let words = format!("{err:#}");
         assert!(words.contains("symbolic link"), "{words}");
         assert!(!words.contains("root:x"), "{words}");
+    }
+
+    #[test]
+    fn text_checked_in_pieces_is_text_as_from_utf8_says() {
+        // Random bytes around character boundaries, valid and not, cut in
+        // pieces of every small length: the same answer as one check.
+        let mut next = crate::test_random::xorshift(0x5851_f42d_4c95_7f2d_u64);
+        const POOL: &[&[u8]] = &[
+            b"a",
+            b" ",
+            "µ".as_bytes(),
+            "日".as_bytes(),
+            "😀".as_bytes(),
+            b"\xff",
+            b"\x80",
+            b"\xe6",
+            b"\xe6\x97",
+            b"\xf0\x9f",
+            b"\xc2",
+        ];
+        let mut both = [0usize; 2];
+        for _ in 0..30_000 {
+            let len = (next() % 12) as usize;
+            let bytes: Vec<u8> = (0..len)
+                .flat_map(|_| POOL[(next() % POOL.len() as u64) as usize].iter().copied())
+                .collect();
+            let whole = String::from_utf8(bytes.clone());
+            both[usize::from(whole.is_ok())] += 1;
+            for piece in 1..=7 {
+                let pieces = text_checked_in_pieces(bytes.clone(), piece);
+                assert_eq!(
+                    pieces.is_ok(),
+                    whole.is_ok(),
+                    "{bytes:?} in pieces of {piece}"
+                );
+                if let (Ok(a), Ok(b)) = (&pieces, &whole) {
+                    assert_eq!(a, b);
+                }
+            }
+        }
+        assert!(both.iter().all(|&n| n > 2_000), "{both:?}");
+        // The long way, for a long text, valid and not.
+        let long = "ab µ 日 😀\n".repeat(100_000).into_bytes();
+        assert!(long.len() >= TEXT_PIECES_FROM);
+        assert_eq!(text_from_bytes(long.clone()).unwrap().as_bytes(), &long[..]);
+        let mut broken = long;
+        let middle = broken.len() / 2;
+        broken[middle] = 0xff;
+        assert!(text_from_bytes(broken).is_err());
     }
 
     /// A context as `fill_template` makes it: the document's values, and

@@ -543,9 +543,6 @@ pub(crate) fn fill_template(
     template
         .render_captured_to(&ctx, &mut filled)
         .map_err(fail)?;
-    // minijinja writes only `&str` pieces, so the bytes are text; checked
-    // all the same (a few hundred microseconds for 6 MB) rather than
-    // assumed.
     // A long document's template values (a 1,000-set job's are a million
     // small pieces, some 20 million instructions to free) are let go on a
     // pool thread, idle by now, rather than before the document can go
@@ -555,7 +552,10 @@ pub(crate) fn fill_template(
     } else {
         drop(ctx);
     }
-    String::from_utf8(filled).map_err(|e| {
+    // minijinja writes only `&str` pieces, so the bytes are text; checked
+    // all the same rather than assumed (a long text in pieces on every
+    // core).
+    crate::typeset::text_from_bytes(filled).map_err(|e| {
         fail(minijinja::Error::new(
             minijinja::ErrorKind::WriteFailure,
             format!("the filled template is not UTF-8: {e}"),
