@@ -6,7 +6,7 @@
 //! Their words are the catalogue's `brief-…` messages.
 
 use super::findings::{SafetyFinding, SetFindings, ValveFindings};
-use super::status::Status;
+use super::status::{SaidOnce, Status};
 use crate::catalogue::Catalogue;
 use crate::units::{QuantityKind, format_engineering};
 use crate::units::{fixed, fixed_signed, fixed_with};
@@ -20,14 +20,19 @@ fn pct(v: Option<f64>) -> String {
 /// read in the set into its high-line projection (the correction to
 /// nominal mains times 1 + tolerance), for a voltage caution that only the
 /// projection decided.
-pub fn valve_check(v: &ValveFindings, check: &str, high_line: f64, cat: &Catalogue) -> String {
-    let say = |key: &str, p: String| cat.format_str(key, &[("pct", &p)]);
+pub(crate) fn valve_check(
+    v: &ValveFindings,
+    check: &str,
+    high_line: f64,
+    once: &SaidOnce,
+) -> String {
+    let say = |key: &'static str, p: String| once.say(key, &[("pct", &p)]);
     let voltage = |name: &str, pct_now: Option<f64>| match pct_now {
-        Some(p) if p <= 100.0 => cat.format_str(
+        Some(p) if p <= 100.0 => once.say(
             "brief-voltage-high-line",
             &[("name", name), ("pct", &fixed_with(p * high_line, 0, " %"))],
         ),
-        p => cat.format_str("brief-voltage-of-max", &[("name", name), ("pct", &pct(p))]),
+        p => once.say("brief-voltage-of-max", &[("name", name), ("pct", &pct(p))]),
     };
     match check {
         "plate_dissipation" => say("brief-plate", pct(v.plate_dissipation_pct)),
@@ -39,7 +44,7 @@ pub fn valve_check(v: &ValveFindings, check: &str, high_line: f64, cat: &Catalog
         "plate_voltage" => voltage("Va", v.plate_voltage_pct),
         "screen_voltage" => voltage("Vg2", v.screen_voltage_pct),
         "cathode_current" => say("brief-cathode-current", pct(v.cathode_current_pct)),
-        other => super::check_words(other, cat),
+        other => super::check_words(other, once.catalogue()),
     }
 }
 
@@ -47,17 +52,17 @@ pub fn valve_check(v: &ValveFindings, check: &str, high_line: f64, cat: &Catalog
 /// caution share (a fraction), which tells whether the high-line projection
 /// decided a resistor's caution, and `tolerance` the mains' upper
 /// tolerance (a fraction).
-pub(crate) fn fill_set(set: &mut SetFindings, derating: f64, tolerance: f64, cat: &Catalogue) {
+pub(crate) fn fill_set(set: &mut SetFindings, derating: f64, tolerance: f64, once: &SaidOnce) {
     // `fixed` writes what `format!("{p:.digits$}")` writes, without its
     // exact float path.
     let pct_of =
-        |key: &str, p: f64, digits: usize| cat.format_str(key, &[("pct", &fixed(p, digits))]);
+        |key: &'static str, p: f64, digits: usize| once.say(key, &[("pct", &fixed(p, digits))]);
     let high_line = set.correction_factor * (1.0 + tolerance);
     for v in &mut set.valves {
         let briefs: Vec<String> = v
             .checks
             .iter()
-            .map(|c| valve_check(v, c.check, high_line, cat))
+            .map(|c| valve_check(v, c.check, high_line, once))
             .collect();
         for (c, b) in v.checks.iter_mut().zip(briefs) {
             c.verdict.brief = b;
@@ -65,8 +70,8 @@ pub(crate) fn fill_set(set: &mut SetFindings, derating: f64, tolerance: f64, cat
     }
     for n in &mut set.nodes {
         n.verdict.brief = match n.deviation_pct {
-            Some(d) => cat.format_str("brief-from-chart", &[("deviation", &fixed_signed(d, 1))]),
-            None => cat.text("brief-no-chart"),
+            Some(d) => once.say("brief-from-chart", &[("deviation", &fixed_signed(d, 1))]),
+            None => once.text("brief-no-chart"),
         };
     }
     for r in set
@@ -80,19 +85,19 @@ pub(crate) fn fill_set(set: &mut SetFindings, derating: f64, tolerance: f64, cat
                 pct_of("brief-at-high-line", h, 0)
             }
             (Some(p), _) => pct_of("brief-of-rating", p, 0),
-            (None, _) => cat.text("brief-no-rating"),
+            (None, _) => once.text("brief-no-rating"),
         };
     }
     for c in &mut set.filter_capacitors {
         let v = |x: f64| format_engineering(x, QuantityKind::Voltage);
-        let what = cat.text(if c.deciding == "working_high_line" {
+        let what = once.text(if c.deciding == "working_high_line" {
             "brief-working-high-line"
         } else {
             "brief-cold-start-peak"
         });
         c.verdict.brief = match c.verdict.status {
             Status::Ok => pct_of("brief-margin", c.margin_pct, 0),
-            _ if c.deciding_margin_pct < 0.0 => cat.format_str(
+            _ if c.deciding_margin_pct < 0.0 => once.say(
                 "brief-volts-on-rating",
                 &[
                     ("volts", &v(c.deciding_volts)),
@@ -100,7 +105,7 @@ pub(crate) fn fill_set(set: &mut SetFindings, derating: f64, tolerance: f64, cat
                     ("rating", &v(c.rating_volts)),
                 ],
             ),
-            _ => cat.format_str(
+            _ => once.say(
                 "brief-margin-what",
                 &[("pct", &fixed(c.deciding_margin_pct, 1)), ("what", &what)],
             ),
@@ -122,7 +127,7 @@ pub(crate) fn fill_set(set: &mut SetFindings, derating: f64, tolerance: f64, cat
     }
     for h in &mut set.bench.hum_noise {
         h.verdict.brief = match h.hum_noise_db_below_full {
-            Some(db) => cat.format_str("brief-below-full", &[("db", &fixed(db, 0))]),
+            Some(db) => once.say("brief-below-full", &[("db", &fixed(db, 0))]),
             None => fixed_with(h.hum_noise_dbv, 1, " dBV"),
         };
     }

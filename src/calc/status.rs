@@ -2,7 +2,7 @@
 //! cold, for a fixed-bias valve idling below its aim), why, and against
 //! which threshold.
 
-use crate::catalogue::{Arg, Catalogue};
+use crate::catalogue::{Arg, Catalogue, Message};
 use crate::units::fixed;
 use rustc_hash::FxHashMap;
 use serde::Serialize;
@@ -146,16 +146,54 @@ type SaidKey = (usize, usize, [u64; 3]);
 ///
 /// One lives for a run of sets on one thread (it is not shared between
 /// threads), with one catalogue: its words are that catalogue's.
-#[derive(Default)]
-pub(crate) struct SaidOnce {
+///
+/// It also keeps each message the sets say looked up in the catalogue
+/// ([`SaidOnce::say`]): a long job's sets say the same hundred or so
+/// messages some hundred times a set, and finding a message's part and
+/// pattern by its key was a quarter of saying it.
+pub(crate) struct SaidOnce<'c> {
+    cat: &'c Catalogue,
     /// By what is said (a message key or a name of the words: where its
     /// text is and how long it is, as a `&'static str` never changes; the
     /// same name at two places is only kept twice) and every figure the
     /// words are made from, as bits.
     said: RefCell<FxHashMap<SaidKey, String>>,
+    /// The messages looked up, by where their key is and how long it is.
+    messages: RefCell<FxHashMap<(usize, usize), Message<'c>>>,
 }
 
-impl SaidOnce {
+impl<'c> SaidOnce<'c> {
+    /// Nothing said yet, in the words of `cat`.
+    pub(crate) fn new(cat: &'c Catalogue) -> Self {
+        SaidOnce {
+            cat,
+            said: RefCell::default(),
+            messages: RefCell::default(),
+        }
+    }
+
+    /// The catalogue whose words these are.
+    pub(crate) fn catalogue(&self) -> &'c Catalogue {
+        self.cat
+    }
+
+    /// The message `key` of the catalogue, looked up the first time it is
+    /// asked for.
+    pub(crate) fn message(&self, key: &'static str) -> Message<'c> {
+        let at = (key.as_ptr() as usize, key.len());
+        if let Some(message) = self.messages.borrow().get(&at) {
+            return *message;
+        }
+        let message = self.cat.message(key);
+        self.messages.borrow_mut().insert(at, message);
+        message
+    }
+
+    /// What [`Catalogue::format_str`] says, the message looked up once.
+    pub(crate) fn say(&self, key: &'static str, args: &[(&str, &str)]) -> String {
+        self.message(key).format_str(args)
+    }
+
     /// The words `say` makes, which must depend on nothing but `what`,
     /// `figures`, the job's settings and the catalogue.
     pub(crate) fn words(
@@ -178,8 +216,8 @@ impl SaidOnce {
     }
 
     /// A message without arguments.
-    pub(crate) fn text(&self, key: &'static str, cat: &Catalogue) -> String {
-        self.words(key, [0.0; 3], || cat.text(key))
+    pub(crate) fn text(&self, key: &'static str) -> String {
+        self.words(key, [0.0; 3], || self.say(key, &[]))
     }
 }
 
@@ -203,7 +241,7 @@ pub fn under_rating_threshold(caution: f64, rating: &str, cat: &Catalogue) -> St
 #[cfg(test)]
 pub fn under_rating(pct: f64, caution: f64, what: &str, rating: &str, cat: &Catalogue) -> Verdict {
     let threshold = under_rating_threshold(caution, rating, cat);
-    under_rating_judged(pct, caution, what, rating, threshold, cat)
+    under_rating_judged(pct, caution, what, rating, threshold, &SaidOnce::new(cat))
 }
 
 /// [`under_rating`] with its threshold in words already made.
@@ -213,31 +251,30 @@ pub(crate) fn under_rating_judged(
     what: &str,
     rating: &str,
     threshold: String,
-    cat: &Catalogue,
+    once: &SaidOnce,
 ) -> Verdict {
-    let caution_words = fixed(caution * 100.0, 0);
+    let (status, key) = if pct > 100.0 {
+        (Status::Over, "reason-of-rating")
+    } else if pct > caution * 100.0 {
+        (Status::Caution, "reason-of-rating-guide")
+    } else {
+        (Status::Ok, "reason-of-rating")
+    };
+    let message = once.message(key);
+    // The guide's share in words only for a message that says it.
+    let caution_words = if message.uses("caution") {
+        fixed(caution * 100.0, 0)
+    } else {
+        String::new()
+    };
     let pct_words = fixed(pct, 0);
-    let args = [
+    let reason = message.format_str(&[
         ("what", what),
         ("pct", pct_words.as_str()),
         ("rating", rating),
         ("caution", caution_words.as_str()),
-    ];
-    if pct > 100.0 {
-        Verdict::new(
-            Status::Over,
-            cat.format_str("reason-of-rating", &args),
-            threshold,
-        )
-    } else if pct > caution * 100.0 {
-        Verdict::new(
-            Status::Caution,
-            cat.format_str("reason-of-rating-guide", &args),
-            threshold,
-        )
-    } else {
-        Verdict::ok(cat.format_str("reason-of-rating", &args), threshold)
-    }
+    ]);
+    Verdict::new(status, reason, threshold)
 }
 
 #[cfg(test)]
@@ -259,7 +296,7 @@ mod tests {
 
     #[test]
     fn words_said_once_are_the_words_said_each_time() {
-        let once = SaidOnce::default();
+        let once = SaidOnce::new(Catalogue::english());
         let mut made = 0;
         let mut say = |what: &'static str, figures: [f64; 3]| {
             once.words(what, figures, || {
@@ -288,6 +325,36 @@ mod tests {
         let both = "inner-most";
         assert_eq!(once.words(&both[..5], [0.0; 3], || "in".into()), "in");
         assert_eq!(once.words(both, [0.0; 3], || "most".into()), "most");
+    }
+
+    #[test]
+    fn messages_looked_up_once_say_what_the_catalogue_says() {
+        for cat in [Catalogue::english(), &Catalogue::built_in("de").unwrap()] {
+            let once = SaidOnce::new(cat);
+            for _ in 0..2 {
+                for (key, args) in [
+                    (
+                        "reason-voltage-of-max",
+                        &[
+                            ("what", "plate voltage"),
+                            ("volts", "453 V"),
+                            ("pct", "107"),
+                            ("max", "425 V"),
+                        ][..],
+                    ),
+                    ("brief-plate", &[("pct", "79 %")][..]),
+                    ("place-between", &[("from", "B+1"), ("to", "B+2")][..]),
+                    ("reason-no-chart", &[][..]),
+                    ("no-such-key", &[("x", "y")][..]),
+                ] {
+                    assert_eq!(once.say(key, args), cat.format_str(key, args), "{key}");
+                }
+                assert_eq!(
+                    once.text("reason-inside-aim"),
+                    cat.text("reason-inside-aim")
+                );
+            }
+        }
     }
 
     #[test]

@@ -51,7 +51,7 @@ struct Current {
     includes_screen: bool,
 }
 
-pub(crate) struct ValveContext<'a> {
+pub(crate) struct ValveContext<'a, 'c> {
     pub job: &'a Job,
     pub set: &'a MeasurementSet,
     pub circuit: &'a Circuit,
@@ -59,7 +59,7 @@ pub(crate) struct ValveContext<'a> {
     /// The words of the reasons and notes.
     pub cat: &'a Catalogue,
     /// The words that are the same in every set (thresholds, ratings).
-    pub once: &'a SaidOnce,
+    pub once: &'a SaidOnce<'c>,
 }
 
 pub(crate) fn analyse(
@@ -213,7 +213,6 @@ pub(crate) fn analyse(
                 pa,
                 max,
                 &conservative,
-                ctx.cat,
                 once,
             );
             checks.push(Check {
@@ -225,7 +224,7 @@ pub(crate) fn analyse(
                     check: "plate_dissipation_high_line",
                     verdict: Verdict::new(
                         Status::Caution,
-                        cat.format_str(
+                        once.say(
                             "reason-plate-high-line",
                             &[
                                 (
@@ -239,7 +238,7 @@ pub(crate) fn analyse(
                                 ("pct", &fixed(pct_h, 0)),
                             ],
                         ),
-                        once.text("threshold-plate-high-line", cat),
+                        once.text("threshold-plate-high-line"),
                     ),
                 });
             }
@@ -276,20 +275,20 @@ pub(crate) fn analyse(
             let rating_words = watts_words_once(max, once);
             // The band has no caution of its own below the rating: say what does decide.
             let threshold = once.words("threshold-screen-dissipation", [max.0, 0.0, 0.0], || {
-                cat.format_str("threshold-screen-dissipation", &[("rating", &rating_words)])
+                once.say("threshold-screen-dissipation", &[("rating", &rating_words)])
             });
             let mut verdict = under_rating_judged(
                 pct,
                 1.0,
-                &once.text("reason-screen-dissipation", cat),
+                &once.text("reason-screen-dissipation"),
                 &rating_words,
                 threshold,
-                cat,
+                once,
             );
             if verdict.status == Status::Ok && pct_h > 100.0 {
                 verdict = Verdict::new(
                     Status::Caution,
-                    cat.format_str("reason-screen-high-line", &[("pct", &fixed(pct_h, 0))]),
+                    once.say("reason-screen-high-line", &[("pct", &fixed(pct_h, 0))]),
                     verdict.threshold,
                 );
             }
@@ -313,12 +312,11 @@ pub(crate) fn analyse(
         checks.push(Check {
             check: "plate_voltage",
             verdict: max_verdict(
-                &once.text("reason-plate-voltage", cat),
+                &once.text("reason-plate-voltage"),
                 va,
                 high(va),
                 max,
                 ctx.settings.voltage_over,
-                ctx.cat,
                 once,
             ),
         });
@@ -328,12 +326,11 @@ pub(crate) fn analyse(
         checks.push(Check {
             check: "screen_voltage",
             verdict: max_verdict(
-                &once.text("reason-screen-voltage", cat),
+                &once.text("reason-screen-voltage"),
                 vg2,
                 high(vg2),
                 max,
                 ctx.settings.voltage_over,
-                ctx.cat,
                 once,
             ),
         });
@@ -345,7 +342,7 @@ pub(crate) fn analyse(
         let pct = ik / max * 100.0;
         f.cathode_current_pct = Some(pct);
         let threshold = once.words("threshold-cathode-current", [max.0, 0.0, 0.0], || {
-            cat.format_str(
+            once.say(
                 "threshold-cathode-current",
                 &[(
                     "max",
@@ -357,7 +354,7 @@ pub(crate) fn analyse(
         let verdict = if pct > 100.0 {
             Verdict::new(
                 Status::Over,
-                cat.format_str(
+                once.say(
                     "reason-cathode-current-over",
                     &[
                         (
@@ -371,7 +368,7 @@ pub(crate) fn analyse(
             )
         } else {
             Verdict::ok(
-                cat.format_str("reason-cathode-current", &[("pct", &pct_words)]),
+                once.say("reason-cathode-current", &[("pct", &pct_words)]),
                 threshold,
             )
         };
@@ -488,7 +485,6 @@ fn dissipation_verdict(
     pa: Watts,
     max: Watts,
     conservative: &str,
-    cat: &Catalogue,
     once: &SaidOnce,
 ) -> Verdict {
     let rating = watts_words_once(max, once);
@@ -497,7 +493,7 @@ fn dissipation_verdict(
         (
             pct_c,
             once.words("reason-at-nominal-mains", [0.0; 3], || {
-                format!(" {}", cat.format("reason-at-nominal-mains", &[]))
+                format!(" {}", once.say("reason-at-nominal-mains", &[]))
             }),
         )
     } else {
@@ -508,7 +504,7 @@ fn dissipation_verdict(
     } else {
         pa.0 * pct_c / pct
     };
-    let mut what = cat.format_str(
+    let mut what = once.say(
         "reason-plate-dissipation",
         &[
             ("watts", &fixed(watts, 1)),
@@ -523,7 +519,7 @@ fn dissipation_verdict(
         let hi = settings.fixed_bias_high * 100.0;
         let (lo_w, hi_w) = (fixed(lo, 0), fixed(hi, 0));
         let threshold = once.words("threshold-fixed-bias", [max.0, lo, hi], || {
-            cat.format_str(
+            once.say(
                 "threshold-fixed-bias",
                 &[("low", &lo_w), ("high", &hi_w), ("rating", &rating)],
             )
@@ -533,29 +529,23 @@ fn dissipation_verdict(
         } else if judged > hi {
             Verdict::new(
                 Status::Caution,
-                joined(
-                    what,
-                    &cat.format_str("reason-above-aim", &[("high", &hi_w)]),
-                ),
+                joined(what, &once.say("reason-above-aim", &[("high", &hi_w)])),
                 threshold,
             )
         } else if judged < lo {
             Verdict::new(
                 Status::Cold,
-                joined(what, &cat.format_str("reason-below-aim", &[("low", &lo_w)])),
+                joined(what, &once.say("reason-below-aim", &[("low", &lo_w)])),
                 threshold,
             )
         } else {
-            Verdict::ok(
-                joined(what, &once.text("reason-inside-aim", cat)),
-                threshold,
-            )
+            Verdict::ok(joined(what, &once.text("reason-inside-aim")), threshold)
         }
     } else {
         let caution = settings.cathode_bias_caution * 100.0;
         let caution_w = fixed(caution, 0);
         let threshold = once.words("threshold-cathode-bias", [max.0, caution, 0.0], || {
-            cat.format_str(
+            once.say(
                 "threshold-cathode-bias",
                 &[("caution", &caution_w), ("rating", &rating)],
             )
@@ -567,7 +557,7 @@ fn dissipation_verdict(
                 Status::Caution,
                 joined(
                     what,
-                    &cat.format_str("reason-above-guide", &[("caution", &caution_w)]),
+                    &once.say("reason-above-guide", &[("caution", &caution_w)]),
                 ),
                 threshold,
             )
@@ -595,7 +585,6 @@ fn max_verdict(
     high: Volts,
     max: Volts,
     over: f64,
-    cat: &Catalogue,
     once: &SaidOnce,
 ) -> Verdict {
     let factor = 1.0 + over;
@@ -603,25 +592,27 @@ fn max_verdict(
         format_engineering(max.0, crate::units::QuantityKind::Voltage)
     });
     let threshold = once.words("threshold-voltage-max", [max.0, factor, 0.0], || {
-        cat.format_str(
+        once.say(
             "threshold-voltage-max",
             &[("max", &max_words), ("over", &fixed(factor * 100.0, 0))],
         )
     });
-    let of_max = |key: &str| {
+    let of_max = |key: &'static str| {
         let pct = v / max * 100.0;
-        cat.format_str(
-            key,
-            &[
-                ("what", what),
-                (
-                    "volts",
-                    &format_engineering(v.0, crate::units::QuantityKind::Voltage),
-                ),
-                ("pct", &fixed(pct, 0)),
-                ("max", &max_words),
-            ],
-        )
+        let message = once.message(key);
+        // The reading in words only where the message says it ("plate
+        // voltage is 58 % of its maximum" does not).
+        let volts = if message.uses("volts") {
+            format_engineering(v.0, crate::units::QuantityKind::Voltage)
+        } else {
+            String::new()
+        };
+        message.format_str(&[
+            ("what", what),
+            ("volts", &volts),
+            ("pct", &fixed(pct, 0)),
+            ("max", &max_words),
+        ])
     };
     if v.0 > max.0 * factor {
         Verdict::new(Status::Over, of_max("reason-voltage-of-max"), threshold)
@@ -630,7 +621,7 @@ fn max_verdict(
     } else if high.0 > max.0 {
         Verdict::new(
             Status::Caution,
-            cat.format_str(
+            once.say(
                 "reason-voltage-high-line",
                 &[
                     ("what", what),
@@ -1045,8 +1036,7 @@ mod tests {
             Volts(340.0),
             Volts(300.0),
             Settings::default().voltage_over,
-            Catalogue::english(),
-            &SaidOnce::default(),
+            &SaidOnce::new(Catalogue::english()),
         );
         let english = Catalogue::english();
         assert_eq!(
@@ -1079,8 +1069,7 @@ mod tests {
                 Volts(high),
                 Volts(300.0),
                 Settings::default().voltage_over,
-                Catalogue::english(),
-                &SaidOnce::default(),
+                &SaidOnce::new(Catalogue::english()),
             )
             .status
         };
@@ -1104,8 +1093,7 @@ mod tests {
                 Watts(pct / 10.0),
                 Watts(10.0),
                 "",
-                Catalogue::english(),
-                &SaidOnce::default(),
+                &SaidOnce::new(Catalogue::english()),
             )
             .status
         };
