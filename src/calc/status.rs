@@ -137,6 +137,11 @@ pub fn worst_of<'a>(verdicts: impl IntoIterator<Item = &'a Verdict>) -> Option<&
 /// the figures' bits.
 type SaidKey = (usize, usize, [u64; 3]);
 
+/// What [`SaidOnce::whole_words`] keeps words by: the message key's and
+/// the name's address and length, the whole number's and the other
+/// figures' bits.
+type WholeKey = (usize, usize, usize, usize, [u64; 3]);
+
 /// Words that are the same in every set of a job: a threshold depends
 /// only on the job's settings and a rating ("caution above 50 % of 5 W,
 /// over above 100 %"), and a long job said each of them again in every
@@ -158,6 +163,8 @@ pub(crate) struct SaidOnce<'c> {
     /// same name at two places is only kept twice) and every figure the
     /// words are made from, as bits.
     said: RefCell<FxHashMap<SaidKey, String>>,
+    /// Words made from a figure in whole numbers ([`SaidOnce::whole_words`]).
+    wholes: RefCell<FxHashMap<WholeKey, String>>,
     /// The messages looked up, by where their key is and how long it is.
     messages: RefCell<FxHashMap<(usize, usize), Message<'c>>>,
 }
@@ -169,6 +176,7 @@ impl<'c> SaidOnce<'c> {
             cat,
             said: RefCell::default(),
             messages: RefCell::default(),
+            wholes: RefCell::default(),
         }
     }
 
@@ -215,6 +223,49 @@ impl<'c> SaidOnce<'c> {
         words
     }
 
+    /// The words `say` makes from `figure` in whole numbers (`fixed(figure,
+    /// 0)`, given to `say`), kept by that whole number: a share such as
+    /// "plate 79 %" or "cathode current is 64 % of its maximum" comes back
+    /// to the same few dozen words set after set. `say` must depend on
+    /// nothing but the words it is given, the message `key`, the `name`
+    /// (a second fixed text, such as the figure's name, or ""), the
+    /// `others` figures, the job's settings and the catalogue.
+    ///
+    /// `fixed(figure, 0)` is the whole number nearest the figure, the
+    /// words of `figure.round()`, except within a millionth of a half
+    /// (where `fixed` lets the exact decimal value decide, and rounds a
+    /// half to even) or for a figure that is not finite: those are said
+    /// from the figure itself, each time
+    /// (`whole_words_are_the_figures_own` holds the two to each other).
+    pub(crate) fn whole_words(
+        &self,
+        key: &'static str,
+        name: &'static str,
+        figure: f64,
+        others: [f64; 2],
+        say: impl FnOnce(&str) -> String,
+    ) -> String {
+        let size = figure.abs();
+        let fraction = size - size.floor();
+        if !figure.is_finite() || (fraction - 0.5).abs() <= 1e-6 {
+            return say(&fixed(figure, 0));
+        }
+        let whole = figure.round();
+        let at = (
+            key.as_ptr() as usize,
+            key.len(),
+            name.as_ptr() as usize,
+            name.len(),
+            [whole, others[0], others[1]].map(f64::to_bits),
+        );
+        if let Some(words) = self.wholes.borrow().get(&at) {
+            return words.clone();
+        }
+        let words = say(&fixed(whole, 0));
+        self.wholes.borrow_mut().insert(at, words.clone());
+        words
+    }
+
     /// A message without arguments.
     pub(crate) fn text(&self, key: &'static str) -> String {
         self.words(key, [0.0; 3], || self.say(key, &[]))
@@ -253,28 +304,68 @@ pub(crate) fn under_rating_judged(
     threshold: String,
     once: &SaidOnce,
 ) -> Verdict {
-    let (status, key) = if pct > 100.0 {
+    let (status, key) = rating_band(pct, caution);
+    let reason = rating_reason(once.message(key), what, &fixed(pct, 0), rating, caution);
+    Verdict::new(status, reason, threshold)
+}
+
+/// [`under_rating_judged`] for a figure named by a message of its own
+/// (`what`: "reason-screen-dissipation") against a rating of `rating_figure`
+/// (`rating` in words): its reason depends on nothing else than the share
+/// in whole percent, so it is said once for each ([`SaidOnce::whole_words`]).
+pub(crate) fn under_rating_named(
+    pct: f64,
+    caution: f64,
+    what: &'static str,
+    rating_figure: f64,
+    rating: &str,
+    threshold: String,
+    once: &SaidOnce,
+) -> Verdict {
+    let (status, key) = rating_band(pct, caution);
+    let reason = once.whole_words(key, what, pct, [rating_figure, caution], |pct_words| {
+        rating_reason(
+            once.message(key),
+            &once.text(what),
+            pct_words,
+            rating,
+            caution,
+        )
+    });
+    Verdict::new(status, reason, threshold)
+}
+
+/// The status of a share `pct` of a rating and the message of its reason.
+fn rating_band(pct: f64, caution: f64) -> (Status, &'static str) {
+    if pct > 100.0 {
         (Status::Over, "reason-of-rating")
     } else if pct > caution * 100.0 {
         (Status::Caution, "reason-of-rating-guide")
     } else {
         (Status::Ok, "reason-of-rating")
-    };
-    let message = once.message(key);
-    // The guide's share in words only for a message that says it.
+    }
+}
+
+/// "screen dissipation is 40 % of its 8 W rating" (with the guide's share
+/// where the message says it).
+fn rating_reason(
+    message: Message,
+    what: &str,
+    pct_words: &str,
+    rating: &str,
+    caution: f64,
+) -> String {
     let caution_words = if message.uses("caution") {
         fixed(caution * 100.0, 0)
     } else {
         String::new()
     };
-    let pct_words = fixed(pct, 0);
-    let reason = message.format_str(&[
+    message.format_str(&[
         ("what", what),
-        ("pct", pct_words.as_str()),
+        ("pct", pct_words),
         ("rating", rating),
         ("caution", caution_words.as_str()),
-    ]);
-    Verdict::new(status, reason, threshold)
+    ])
 }
 
 #[cfg(test)]
@@ -353,6 +444,81 @@ mod tests {
                     once.text("reason-inside-aim"),
                     cat.text("reason-inside-aim")
                 );
+            }
+        }
+    }
+
+    /// Words kept by a figure's whole number are the words of the figure
+    /// itself: shares of every size with every fraction, halves and the
+    /// figures next to them, negatives, −0, huge and not finite ones.
+    #[test]
+    fn whole_words_are_the_figures_own() {
+        let once = SaidOnce::new(Catalogue::english());
+        let mut figures = vec![
+            0.0,
+            -0.0,
+            -0.3,
+            -0.7,
+            0.5,
+            1.5,
+            2.5,
+            -2.5,
+            78.5,
+            78.499_999_9,
+            78.500_000_1,
+            78.499_99,
+            78.500_01,
+            99.5,
+            100.499_999,
+            1e9 + 0.5,
+            1e9 + 0.3,
+            1e12 + 0.7,
+            4_503_599_627_370_497.0,
+            f64::MAX,
+            f64::MIN_POSITIVE,
+            f64::NAN,
+            f64::INFINITY,
+            f64::NEG_INFINITY,
+        ];
+        let mut next = crate::test_random::xorshift(0x5a1d_0ce5_0000_0001);
+        for _ in 0..20_000 {
+            let r = next();
+            let whole = (r % 400) as f64 - 100.0;
+            let fraction = (next() >> 11) as f64 / (1u64 << 53) as f64;
+            figures.push(whole + fraction);
+            figures.push(whole + 0.5 + ((r >> 40) % 2001) as f64 * 1e-9 - 1e-6);
+        }
+        for (i, figure) in figures.iter().enumerate() {
+            // Two names, so some words are found kept and some made.
+            let name = if i % 2 == 0 { "a" } else { "b" };
+            let words = once.whole_words("k", name, *figure, [1.0, 2.0], |w| format!("<{w}>"));
+            assert_eq!(words, format!("<{}>", fixed(*figure, 0)), "{figure:e}");
+        }
+    }
+
+    #[test]
+    fn a_named_share_of_a_rating_says_what_under_rating_says() {
+        for cat in [Catalogue::english(), &Catalogue::built_in("de").unwrap()] {
+            let once = SaidOnce::new(cat);
+            let what = once.text("reason-screen-dissipation");
+            for pct in [
+                12.3, 12.4, 49.5, 50.5, 64.0, 99.9, 100.4, 100.6, 196.2, 12.2,
+            ] {
+                for (max, rating) in [(8.0, "8 W"), (12.0, "12 W")] {
+                    for caution in [0.5, 1.0] {
+                        let threshold = under_rating_threshold(caution, rating, cat);
+                        let named = under_rating_named(
+                            pct,
+                            caution,
+                            "reason-screen-dissipation",
+                            max,
+                            rating,
+                            threshold,
+                            &once,
+                        );
+                        assert_eq!(named, under_rating(pct, caution, &what, rating, cat));
+                    }
+                }
             }
         }
     }

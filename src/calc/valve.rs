@@ -3,7 +3,7 @@
 
 use super::findings::{Check, CurrentMethod, TargetWindow, ValveFindings};
 use super::mains;
-use super::status::{SaidOnce, Status, Verdict, under_rating_judged, worst_of};
+use super::status::{SaidOnce, Status, Verdict, under_rating_named, worst_of};
 use crate::catalogue::{Arg, Catalogue};
 use crate::job::{
     BiasKind, Circuit, CurrentMethod as ReadMethod, Job, MeasurementSet, Settings, ValvePosition,
@@ -123,7 +123,9 @@ pub(crate) fn analyse(
 
     let current = find_current(ctx, pos, reading, vk, ig2, notes);
 
-    let mut checks: Vec<Check> = Vec::new();
+    // Plate and screen dissipation, the high-line plate, the two voltages
+    // and the cathode current at most.
+    let mut checks: Vec<Check> = Vec::with_capacity(6);
     let mut f = ValveFindings {
         position: pos.to_string(),
         valve_type: spec.type_name.value.clone(),
@@ -277,10 +279,11 @@ pub(crate) fn analyse(
             let threshold = once.words("threshold-screen-dissipation", [max.0, 0.0, 0.0], || {
                 once.say("threshold-screen-dissipation", &[("rating", &rating_words)])
             });
-            let mut verdict = under_rating_judged(
+            let mut verdict = under_rating_named(
                 pct,
                 1.0,
-                &once.text("reason-screen-dissipation"),
+                "reason-screen-dissipation",
+                max.0,
                 &rating_words,
                 threshold,
                 once,
@@ -312,7 +315,7 @@ pub(crate) fn analyse(
         checks.push(Check {
             check: "plate_voltage",
             verdict: max_verdict(
-                &once.text("reason-plate-voltage"),
+                "reason-plate-voltage",
                 va,
                 high(va),
                 max,
@@ -326,7 +329,7 @@ pub(crate) fn analyse(
         checks.push(Check {
             check: "screen_voltage",
             verdict: max_verdict(
-                &once.text("reason-screen-voltage"),
+                "reason-screen-voltage",
                 vg2,
                 high(vg2),
                 max,
@@ -350,7 +353,6 @@ pub(crate) fn analyse(
                 )],
             )
         });
-        let pct_words = fixed(pct, 0);
         let verdict = if pct > 100.0 {
             Verdict::new(
                 Status::Over,
@@ -361,14 +363,17 @@ pub(crate) fn analyse(
                             "current",
                             &format_engineering(ik.0, crate::units::QuantityKind::Current),
                         ),
-                        ("pct", &pct_words),
+                        ("pct", &fixed(pct, 0)),
                     ],
                 ),
                 threshold,
             )
         } else {
+            let key = "reason-cathode-current";
             Verdict::ok(
-                once.say("reason-cathode-current", &[("pct", &pct_words)]),
+                once.whole_words(key, "", pct, [0.0; 2], |pct_words| {
+                    once.say(key, &[("pct", pct_words)])
+                }),
                 threshold,
             )
         };
@@ -578,9 +583,10 @@ pub(super) fn joined(mut first: String, second: &str) -> String {
 
 /// A voltage against its published maximum: caution above it (or when the
 /// high-line projection passes it), over more than `over` (a fraction,
-/// [`Settings::voltage_over`]) above it.
+/// [`Settings::voltage_over`]) above it. `what` is the message that names
+/// the voltage ("reason-plate-voltage").
 fn max_verdict(
-    what: &str,
+    what: &'static str,
     v: Volts,
     high: Volts,
     max: Volts,
@@ -600,19 +606,24 @@ fn max_verdict(
     let of_max = |key: &'static str| {
         let pct = v / max * 100.0;
         let message = once.message(key);
-        // The reading in words only where the message says it ("plate
-        // voltage is 58 % of its maximum" does not).
-        let volts = if message.uses("volts") {
-            format_engineering(v.0, crate::units::QuantityKind::Voltage)
-        } else {
-            String::new()
+        let say = |pct_words: &str, volts: &str| {
+            message.format_str(&[
+                ("what", &once.text(what)),
+                ("volts", volts),
+                ("pct", pct_words),
+                ("max", &max_words),
+            ])
         };
-        message.format_str(&[
-            ("what", what),
-            ("volts", &volts),
-            ("pct", &fixed(pct, 0)),
-            ("max", &max_words),
-        ])
+        if message.uses("volts") {
+            say(
+                &fixed(pct, 0),
+                &format_engineering(v.0, crate::units::QuantityKind::Voltage),
+            )
+        } else {
+            // Without the reading ("plate voltage is 58 % of its
+            // maximum"), the words are the share's in whole percent.
+            once.whole_words(key, what, pct, [max.0, 0.0], |pct_words| say(pct_words, ""))
+        }
     };
     if v.0 > max.0 * factor {
         Verdict::new(Status::Over, of_max("reason-voltage-of-max"), threshold)
@@ -624,7 +635,7 @@ fn max_verdict(
             once.say(
                 "reason-voltage-high-line",
                 &[
-                    ("what", what),
+                    ("what", &once.text(what)),
                     (
                         "high",
                         &format_engineering(high.0, crate::units::QuantityKind::Voltage),
@@ -1031,7 +1042,7 @@ mod tests {
     fn the_reasons_are_the_catalogues_words() {
         // 330 V on a 300 V maximum is 110 % of it (EL84's Va(max) from memory).
         let v = max_verdict(
-            "plate voltage",
+            "reason-plate-voltage",
             Volts(330.0),
             Volts(340.0),
             Volts(300.0),
@@ -1064,7 +1075,7 @@ mod tests {
         // when the high-line projection passes it, over above 120 % of it.
         let s = |v: f64, high: f64| {
             max_verdict(
-                "plate voltage",
+                "reason-plate-voltage",
                 Volts(v),
                 Volts(high),
                 Volts(300.0),
