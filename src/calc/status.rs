@@ -3,7 +3,7 @@
 //! which threshold.
 
 use crate::catalogue::{Arg, Catalogue, Message};
-use crate::units::fixed;
+use crate::units::{fixed, fixed_digits};
 use rustc_hash::FxHashMap;
 use serde::Serialize;
 use std::cell::RefCell;
@@ -137,10 +137,11 @@ pub fn worst_of<'a>(verdicts: impl IntoIterator<Item = &'a Verdict>) -> Option<&
 /// the figures' bits.
 type SaidKey = (usize, usize, [u64; 3]);
 
-/// What [`SaidOnce::whole_words`] keeps words by: the message key's and
-/// the name's address and length, the whole number's and the other
-/// figures' bits.
-type WholeKey = (usize, usize, usize, usize, [u64; 3]);
+/// What [`SaidOnce::fixed_words`] keeps words by: the message key's and
+/// the name's address and length, each figure's digits as `fixed` writes
+/// them (the integer, then its decimals and sign; `u64::MAX` twice where
+/// there is no such figure) and the other figures' bits.
+type FixedKey = (usize, usize, usize, usize, [u64; 6]);
 
 /// Words that are the same in every set of a job: a threshold depends
 /// only on the job's settings and a rating ("caution above 50 % of 5 W,
@@ -163,8 +164,9 @@ pub(crate) struct SaidOnce<'c> {
     /// same name at two places is only kept twice) and every figure the
     /// words are made from, as bits.
     said: RefCell<FxHashMap<SaidKey, String>>,
-    /// Words made from a figure in whole numbers ([`SaidOnce::whole_words`]).
-    wholes: RefCell<FxHashMap<WholeKey, String>>,
+    /// Words made from figures as `fixed` writes them
+    /// ([`SaidOnce::fixed_words`]).
+    fixed: RefCell<FxHashMap<FixedKey, String>>,
     /// The messages looked up, by where their key is and how long it is.
     messages: RefCell<FxHashMap<(usize, usize), Message<'c>>>,
 }
@@ -176,7 +178,7 @@ impl<'c> SaidOnce<'c> {
             cat,
             said: RefCell::default(),
             messages: RefCell::default(),
-            wholes: RefCell::default(),
+            fixed: RefCell::default(),
         }
     }
 
@@ -223,20 +225,57 @@ impl<'c> SaidOnce<'c> {
         words
     }
 
-    /// The words `say` makes from `figure` in whole numbers (`fixed(figure,
-    /// 0)`, given to `say`), kept by that whole number: a share such as
-    /// "plate 79 %" or "cathode current is 64 % of its maximum" comes back
-    /// to the same few dozen words set after set. `say` must depend on
-    /// nothing but the words it is given, the message `key`, the `name`
-    /// (a second fixed text, such as the figure's name, or ""), the
-    /// `others` figures, the job's settings and the catalogue.
+    /// The words `say` makes from `figures`, each written as `fixed` writes
+    /// it with its number of decimals (`fixed(figure, decimals)`, given to
+    /// `say` in order), kept by those digits: a share such as "plate 79 %"
+    /// or a part's "dissipation 0.45 W is 22 % of its 2 W rating" comes
+    /// back to the same few dozen words set after set. `say` must depend on
+    /// nothing but the words it is given, the message `key`, the `name` (a
+    /// second fixed text, such as the message naming the figure, or ""),
+    /// the `others` figures, the job's settings and the catalogue.
     ///
-    /// `fixed(figure, 0)` is the whole number nearest the figure, the
-    /// words of `figure.round()`, except within a millionth of a half
-    /// (where `fixed` lets the exact decimal value decide, and rounds a
-    /// half to even) or for a figure that is not finite: those are said
-    /// from the figure itself, each time
-    /// (`whole_words_are_the_figures_own` holds the two to each other).
+    /// The words are kept by what `fixed` writes ([`fixed_digits`]: the
+    /// integer of its digits, its sign and decimals), so every figure kept
+    /// with them is written the same. A figure `fixed` writes another way
+    /// (near a tie, not finite) is said from the figures themselves, each
+    /// time, as are more than two figures.
+    pub(crate) fn fixed_words<const N: usize>(
+        &self,
+        key: &'static str,
+        name: &'static str,
+        figures: [(f64, usize); N],
+        others: [f64; 2],
+        say: impl FnOnce([String; N]) -> String,
+    ) -> String {
+        let mut digits = [u64::MAX; 6];
+        digits[4] = others[0].to_bits();
+        digits[5] = others[1].to_bits();
+        for (i, (figure, decimals)) in figures.iter().enumerate() {
+            match fixed_digits(*figure, *decimals) {
+                Some((negative, n)) if i < 2 => {
+                    digits[2 * i] = n;
+                    digits[2 * i + 1] = (*decimals as u64) << 1 | u64::from(negative);
+                }
+                _ => return say(figures.map(|(f, d)| fixed(f, d))),
+            }
+        }
+        let at = (
+            key.as_ptr() as usize,
+            key.len(),
+            name.as_ptr() as usize,
+            name.len(),
+            digits,
+        );
+        if let Some(words) = self.fixed.borrow().get(&at) {
+            return words.clone();
+        }
+        let words = say(figures.map(|(f, d)| fixed(f, d)));
+        self.fixed.borrow_mut().insert(at, words.clone());
+        words
+    }
+
+    /// [`SaidOnce::fixed_words`] of one figure in whole numbers
+    /// (`fixed(figure, 0)`).
     pub(crate) fn whole_words(
         &self,
         key: &'static str,
@@ -245,25 +284,7 @@ impl<'c> SaidOnce<'c> {
         others: [f64; 2],
         say: impl FnOnce(&str) -> String,
     ) -> String {
-        let size = figure.abs();
-        let fraction = size - size.floor();
-        if !figure.is_finite() || (fraction - 0.5).abs() <= 1e-6 {
-            return say(&fixed(figure, 0));
-        }
-        let whole = figure.round();
-        let at = (
-            key.as_ptr() as usize,
-            key.len(),
-            name.as_ptr() as usize,
-            name.len(),
-            [whole, others[0], others[1]].map(f64::to_bits),
-        );
-        if let Some(words) = self.wholes.borrow().get(&at) {
-            return words.clone();
-        }
-        let words = say(&fixed(whole, 0));
-        self.wholes.borrow_mut().insert(at, words.clone());
-        words
+        self.fixed_words(key, name, [(figure, 0)], others, |[whole]| say(&whole))
     }
 
     /// A message without arguments.
@@ -288,28 +309,17 @@ pub fn under_rating_threshold(caution: f64, rating: &str, cat: &Catalogue) -> St
 /// Bands for a figure that must stay under a rating: caution above
 /// `caution` (a fraction of the rating), over above 100 %. `what` names the
 /// figure with its value ("dissipation 0.62 W"); the words are `cat`'s.
-/// (The program makes the threshold once a job: [`under_rating_judged`].)
+/// (The program makes the threshold once a job and keeps the reasons by
+/// their figures' words: [`under_rating_named`] and the resistors' own.)
 #[cfg(test)]
 pub fn under_rating(pct: f64, caution: f64, what: &str, rating: &str, cat: &Catalogue) -> Verdict {
     let threshold = under_rating_threshold(caution, rating, cat);
-    under_rating_judged(pct, caution, what, rating, threshold, &SaidOnce::new(cat))
-}
-
-/// [`under_rating`] with its threshold in words already made.
-pub(crate) fn under_rating_judged(
-    pct: f64,
-    caution: f64,
-    what: &str,
-    rating: &str,
-    threshold: String,
-    once: &SaidOnce,
-) -> Verdict {
     let (status, key) = rating_band(pct, caution);
-    let reason = rating_reason(once.message(key), what, &fixed(pct, 0), rating, caution);
+    let reason = rating_reason(cat.message(key), what, &fixed(pct, 0), rating, caution);
     Verdict::new(status, reason, threshold)
 }
 
-/// [`under_rating_judged`] for a figure named by a message of its own
+/// [`under_rating`] for a figure named by a message of its own
 /// (`what`: "reason-screen-dissipation") against a rating of `rating_figure`
 /// (`rating` in words): its reason depends on nothing else than the share
 /// in whole percent, so it is said once for each ([`SaidOnce::whole_words`]).
@@ -336,7 +346,7 @@ pub(crate) fn under_rating_named(
 }
 
 /// The status of a share `pct` of a rating and the message of its reason.
-fn rating_band(pct: f64, caution: f64) -> (Status, &'static str) {
+pub(crate) fn rating_band(pct: f64, caution: f64) -> (Status, &'static str) {
     if pct > 100.0 {
         (Status::Over, "reason-of-rating")
     } else if pct > caution * 100.0 {
@@ -348,7 +358,7 @@ fn rating_band(pct: f64, caution: f64) -> (Status, &'static str) {
 
 /// "screen dissipation is 40 % of its 8 W rating" (with the guide's share
 /// where the message says it).
-fn rating_reason(
+pub(crate) fn rating_reason(
     message: Message,
     what: &str,
     pct_words: &str,
@@ -493,6 +503,47 @@ mod tests {
             let name = if i % 2 == 0 { "a" } else { "b" };
             let words = once.whole_words("k", name, *figure, [1.0, 2.0], |w| format!("<{w}>"));
             assert_eq!(words, format!("<{}>", fixed(*figure, 0)), "{figure:e}");
+        }
+    }
+
+    /// Words kept by two figures' digits are those of the figures
+    /// themselves, with every number of decimals: figures that `fixed`
+    /// writes alike share them, and no others do.
+    #[test]
+    fn fixed_words_are_the_figures_own() {
+        let once = SaidOnce::new(Catalogue::english());
+        let mut next = crate::test_random::xorshift(0x0f1e_2d3c_4b5a_6978);
+        let mut figure = |next: &mut dyn FnMut() -> u64| {
+            let r = next();
+            let size = [1.0, 10.0, 1e3, 1e9, 1e12][(r % 5) as usize];
+            let sign = if r & 32 == 0 { 1.0 } else { -1.0 };
+            let fraction = (next() >> 11) as f64 / (1u64 << 53) as f64;
+            // Some on the halves of the second decimal, and next to them.
+            match r % 7 {
+                0 => sign * ((r >> 8) % 1000) as f64 / 100.0 + 0.005,
+                1 => sign * (((r >> 8) % 1000) as f64 + 0.5),
+                _ => sign * size * fraction,
+            }
+        };
+        for _ in 0..20_000 {
+            let a = figure(&mut next);
+            let b = figure(&mut next);
+            let (da, db) = ((next() % 4) as usize, (next() % 3) as usize);
+            let words = once.fixed_words("k", "", [(a, da), (b, db)], [3.0, 0.0], |[x, y]| {
+                format!("{x}|{y}")
+            });
+            assert_eq!(
+                words,
+                format!("{}|{}", fixed(a, da), fixed(b, db)),
+                "{a:e} {b:e}"
+            );
+        }
+        for special in [f64::NAN, f64::INFINITY, -0.0, 0.0, 2.5, -2.5] {
+            let words =
+                once.fixed_words("k", "", [(special, 0), (1.0, 0)], [3.0, 0.0], |[x, y]| {
+                    format!("{x}|{y}")
+                });
+            assert_eq!(words, format!("{}|1", fixed(special, 0)));
         }
     }
 

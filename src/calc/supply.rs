@@ -7,7 +7,9 @@ use super::findings::{
     ResistorFindings, ValveFindings,
 };
 use super::mains;
-use super::status::{SaidOnce, Status, Verdict, under_rating_judged, under_rating_threshold};
+use super::status::{
+    SaidOnce, Status, Verdict, rating_band, rating_reason, under_rating_threshold,
+};
 use crate::catalogue::{Arg, Catalogue};
 use crate::job::{Circuit, Job, MeasurementSet, RectifierKind, Settings};
 use crate::ratings::{RatingsTable, RectifierHeating};
@@ -155,20 +157,40 @@ fn resistor(
     let verdict = match (rating, pct, pct_h) {
         (Some(rt), Some(pct), Some(pct_h)) => {
             let caution = settings.resistor_derating;
-            let rating_words = once.words("watts", [rt.0, 0.0, 0.0], || {
-                format_engineering(rt.0, QuantityKind::Power)
-            });
+            // The rating in words, where a threshold or reason is made.
+            let rating_words = || {
+                once.words("watts", [rt.0, 0.0, 0.0], || {
+                    format_engineering(rt.0, QuantityKind::Power)
+                })
+            };
             let threshold = once.words("threshold-under-rating", [rt.0, caution, 0.0], || {
-                under_rating_threshold(caution, &rating_words, cat)
+                under_rating_threshold(caution, &rating_words(), cat)
             });
-            let mut verdict = under_rating_judged(
-                pct,
-                caution,
-                &once.say("reason-dissipation", &[("watts", &w(p.0))]),
-                &rating_words,
-                threshold,
-                once,
-            );
+            let (status, key) = rating_band(pct, caution);
+            let reason_of = |watts: &str, pct_words: &str| {
+                rating_reason(
+                    once.message(key),
+                    &once.say("reason-dissipation", &[("watts", watts)]),
+                    pct_words,
+                    &rating_words(),
+                    caution,
+                )
+            };
+            // "dissipation 0.45 W is 22 % of its 2 W rating": said once for
+            // each power in hundredths of a watt and share in whole percent
+            // (a power under 10 mW, written with a prefix, each time).
+            let reason = if p.0.abs() < 0.01 {
+                reason_of(&w(p.0), &fixed(pct, 0))
+            } else {
+                once.fixed_words(
+                    key,
+                    "reason-dissipation",
+                    [(p.0, 2), (pct, 0)],
+                    [rt.0, caution],
+                    |[watts, pct_words]| reason_of(&(watts + " W"), &pct_words),
+                )
+            };
+            let mut verdict = Verdict::new(status, reason, threshold);
             if verdict.status == Status::Ok && pct_h > settings.resistor_derating * 100.0 {
                 verdict = Verdict::new(
                     Status::Caution,

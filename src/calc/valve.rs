@@ -492,7 +492,7 @@ fn dissipation_verdict(
     conservative: &str,
     once: &SaidOnce,
 ) -> Verdict {
-    let rating = watts_words_once(max, once);
+    let rating = || watts_words_once(max, once);
     // Judge on the hotter of today's mains and nominal mains.
     let (judged, at) = if pct_c > pct {
         (
@@ -509,67 +509,86 @@ fn dissipation_verdict(
     } else {
         pa.0 * pct_c / pct
     };
-    let mut what = once.say(
-        "reason-plate-dissipation",
-        &[
-            ("watts", &fixed(watts, 1)),
-            ("pct", &fixed(judged, 0)),
-            ("rating", &rating),
-        ],
-    );
-    what.push_str(&at);
-    what.push_str(conservative);
-    if bias == BiasKind::Fixed && is_output {
+    // The status, the threshold, and the message of the words after the
+    // figure (`PLAIN` for none) with its argument.
+    const PLAIN: &str = "reason-plate-dissipation";
+    let (status, threshold, band, band_arg) = if bias == BiasKind::Fixed && is_output {
         let lo = settings.fixed_bias_low * 100.0;
         let hi = settings.fixed_bias_high * 100.0;
-        let (lo_w, hi_w) = (fixed(lo, 0), fixed(hi, 0));
         let threshold = once.words("threshold-fixed-bias", [max.0, lo, hi], || {
             once.say(
                 "threshold-fixed-bias",
-                &[("low", &lo_w), ("high", &hi_w), ("rating", &rating)],
+                &[
+                    ("low", &fixed(lo, 0)),
+                    ("high", &fixed(hi, 0)),
+                    ("rating", &rating()),
+                ],
             )
         });
         if judged > 100.0 {
-            Verdict::new(Status::Over, what, threshold)
+            (Status::Over, threshold, PLAIN, None)
         } else if judged > hi {
-            Verdict::new(
-                Status::Caution,
-                joined(what, &once.say("reason-above-aim", &[("high", &hi_w)])),
-                threshold,
-            )
+            let high = ("high", hi);
+            (Status::Caution, threshold, "reason-above-aim", Some(high))
         } else if judged < lo {
-            Verdict::new(
+            (
                 Status::Cold,
-                joined(what, &once.say("reason-below-aim", &[("low", &lo_w)])),
                 threshold,
+                "reason-below-aim",
+                Some(("low", lo)),
             )
         } else {
-            Verdict::ok(joined(what, &once.text("reason-inside-aim")), threshold)
+            (Status::Ok, threshold, "reason-inside-aim", None)
         }
     } else {
         let caution = settings.cathode_bias_caution * 100.0;
-        let caution_w = fixed(caution, 0);
         let threshold = once.words("threshold-cathode-bias", [max.0, caution, 0.0], || {
             once.say(
                 "threshold-cathode-bias",
-                &[("caution", &caution_w), ("rating", &rating)],
+                &[("caution", &fixed(caution, 0)), ("rating", &rating())],
             )
         });
         if judged > 100.0 {
-            Verdict::new(Status::Over, what, threshold)
+            (Status::Over, threshold, PLAIN, None)
         } else if judged > caution {
-            Verdict::new(
+            let guide = ("caution", caution);
+            (
                 Status::Caution,
-                joined(
-                    what,
-                    &once.say("reason-above-guide", &[("caution", &caution_w)]),
-                ),
                 threshold,
+                "reason-above-guide",
+                Some(guide),
             )
         } else {
-            Verdict::ok(what, threshold)
+            (Status::Ok, threshold, PLAIN, None)
         }
-    }
+    };
+    // "plate dissipation 19.7 W is 79 % of its 25 W rating, above the 70 %
+    // aim": said once for each power in tenths of a watt and share in whole
+    // percent (with or without the words on the mains and the screen
+    // current).
+    let flags = f64::from(u8::from(!at.is_empty()) + 2 * u8::from(!conservative.is_empty()));
+    let reason = once.fixed_words(
+        band,
+        PLAIN,
+        [(watts, 1), (judged, 0)],
+        [max.0, flags],
+        |[watts, pct]| {
+            let mut what = once.say(
+                PLAIN,
+                &[("watts", &watts), ("pct", &pct), ("rating", &rating())],
+            );
+            what.push_str(&at);
+            what.push_str(conservative);
+            match (band, band_arg) {
+                (PLAIN, _) => what,
+                (_, Some((name, share))) => {
+                    joined(what, &once.say(band, &[(name, &fixed(share, 0))]))
+                }
+                (_, None) => joined(what, &once.text(band)),
+            }
+        },
+    );
+    Verdict::new(status, reason, threshold)
 }
 
 /// `first, second`: what `format!("{first}, {second}")` writes, on the
@@ -594,13 +613,16 @@ fn max_verdict(
     once: &SaidOnce,
 ) -> Verdict {
     let factor = 1.0 + over;
-    let max_words = once.words("volts", [max.0, 0.0, 0.0], || {
-        format_engineering(max.0, crate::units::QuantityKind::Voltage)
-    });
+    // The maximum in words, where a threshold or reason is made.
+    let max_words = || {
+        once.words("volts", [max.0, 0.0, 0.0], || {
+            format_engineering(max.0, crate::units::QuantityKind::Voltage)
+        })
+    };
     let threshold = once.words("threshold-voltage-max", [max.0, factor, 0.0], || {
         once.say(
             "threshold-voltage-max",
-            &[("max", &max_words), ("over", &fixed(factor * 100.0, 0))],
+            &[("max", &max_words()), ("over", &fixed(factor * 100.0, 0))],
         )
     });
     let of_max = |key: &'static str| {
@@ -611,7 +633,7 @@ fn max_verdict(
                 ("what", &once.text(what)),
                 ("volts", volts),
                 ("pct", pct_words),
-                ("max", &max_words),
+                ("max", &max_words()),
             ])
         };
         if message.uses("volts") {
@@ -640,7 +662,7 @@ fn max_verdict(
                         "high",
                         &format_engineering(high.0, crate::units::QuantityKind::Voltage),
                     ),
-                    ("max", &max_words),
+                    ("max", &max_words()),
                 ],
             ),
             threshold,
