@@ -171,9 +171,18 @@ pub fn derive_in(job: &Job, ratings: &RatingsTable, cat: &Catalogue) -> Findings
     };
     let worked: Vec<_> = if job.measurements.len() >= PARALLEL_SETS {
         use rayon::prelude::*;
+        // Each run of sets rayon works out in one piece keeps a
+        // `SaidOnce` of its own; runs of at least an eighth of a thread's
+        // share (rather than a few sets each), so that the words kept are
+        // made a few times a job, not once every few sets.
+        let run = job
+            .measurements
+            .len()
+            .div_ceil(8 * rayon::current_num_threads());
         job.measurements
             .par_iter()
             .enumerate()
+            .with_min_len(run)
             .map_init(|| status::SaidOnce::new(cat), per_set)
             .collect()
     } else {
@@ -394,7 +403,13 @@ fn sentence(s: &str) -> String {
     let mut out = String::with_capacity(s.len() + 4);
     let mut c = s.chars();
     if let Some(f) = c.next() {
-        out.extend(f.to_uppercase());
+        // An ASCII letter's capital without the Unicode tables (a long
+        // job makes two sentences of each warning).
+        if f.is_ascii() {
+            out.push(f.to_ascii_uppercase());
+        } else {
+            out.extend(f.to_uppercase());
+        }
         out.push_str(c.as_str());
     }
     if !out.ends_with('.') {

@@ -513,7 +513,7 @@ mod tests {
     fn fixed_words_are_the_figures_own() {
         let once = SaidOnce::new(Catalogue::english());
         let mut next = crate::test_random::xorshift(0x0f1e_2d3c_4b5a_6978);
-        let mut figure = |next: &mut dyn FnMut() -> u64| {
+        let figure = |next: &mut dyn FnMut() -> u64| {
             let r = next();
             let size = [1.0, 10.0, 1e3, 1e9, 1e12][(r % 5) as usize];
             let sign = if r & 32 == 0 { 1.0 } else { -1.0 };

@@ -260,7 +260,12 @@ pub(crate) fn analyse(
             let middle = Amps(w.plate_current_middle_ma / 1e3);
             match super::bias_estimate::grid_for_window_middle(&f, rating, grid, middle) {
                 Ok(g) => w.grid_for_middle_volts = Some(g.0),
-                Err(why) => w.grid_for_middle_unknown_reason = Some(why.words(cat)),
+                Err(why) => {
+                    w.grid_for_middle_unknown_reason = Some(match why.plain_key() {
+                        Some(key) => once.text(key),
+                        None => why.words(cat),
+                    })
+                }
             }
             f.target_window = Some(w);
         }
