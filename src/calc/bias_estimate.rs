@@ -193,6 +193,19 @@ pub(crate) enum Unfit {
 }
 
 impl Unfit {
+    /// The message of a reason that has no arguments (its words are
+    /// `cat.text(key)`, the same as [`Unfit::words`]), which a long job's
+    /// sets say once.
+    pub(crate) fn plain_key(&self) -> Option<&'static str> {
+        match self {
+            Unfit::NoPlate => Some("note-unfit-no-plate"),
+            Unfit::NoScreen => Some("note-unfit-no-screen"),
+            Unfit::NoCurrent => Some("note-unfit-no-current"),
+            Unfit::NoGrid => Some("note-unfit-no-grid"),
+            Unfit::NoMu { .. } | Unfit::CutOff { .. } => None,
+        }
+    }
+
     /// The reason in `cat`'s words.
     pub(crate) fn words(&self, cat: &Catalogue) -> String {
         match self {
@@ -419,6 +432,30 @@ mod tests {
 
     fn close_rel(a: f64, b: f64, rel: f64) -> bool {
         (a - b).abs() <= rel * b.abs()
+    }
+
+    #[test]
+    fn a_reason_without_arguments_is_its_messages_text() {
+        for cat in [Catalogue::english(), &Catalogue::built_in("de").unwrap()] {
+            for why in [
+                Unfit::NoPlate,
+                Unfit::NoScreen,
+                Unfit::NoCurrent,
+                Unfit::NoGrid,
+            ] {
+                let key = why.plain_key().expect("no arguments");
+                assert_eq!(why.words(cat), cat.text(key));
+                assert!(!why.words(cat).starts_with('['), "{key}");
+            }
+            let with_arguments = [
+                Unfit::NoMu {
+                    triode: true,
+                    name: "X".into(),
+                },
+                Unfit::CutOff { mu: 19.0 },
+            ];
+            assert!(with_arguments.iter().all(|why| why.plain_key().is_none()));
+        }
     }
 
     /// A hand case: an EL84 (μg1g2 19, from memory of manufacturer data) on

@@ -6,40 +6,61 @@
 //! Their words are the catalogue's `brief-…` messages.
 
 use super::findings::{SafetyFinding, SetFindings, ValveFindings};
-use super::status::Status;
+use super::status::{SaidOnce, Status};
 use crate::catalogue::Catalogue;
 use crate::units::{QuantityKind, format_engineering};
 use crate::units::{fixed, fixed_signed, fixed_with};
 
-fn pct(v: Option<f64>) -> String {
-    v.map(|v| fixed_with(v, 0, " %"))
-        .unwrap_or_else(|| "–".to_string())
+/// A share in whole percent: "79 %", from `fixed(share, 0)`'s words.
+fn percent(whole: &str) -> String {
+    let mut words = String::with_capacity(whole.len() + 2);
+    words.push_str(whole);
+    words.push_str(" %");
+    words
 }
 
 /// The deciding figure of one valve check. `high_line` turns a voltage
 /// read in the set into its high-line projection (the correction to
 /// nominal mains times 1 + tolerance), for a voltage caution that only the
 /// projection decided.
-pub fn valve_check(v: &ValveFindings, check: &str, high_line: f64, cat: &Catalogue) -> String {
-    let say = |key: &str, p: String| cat.format_str(key, &[("pct", &p)]);
-    let voltage = |name: &str, pct_now: Option<f64>| match pct_now {
-        Some(p) if p <= 100.0 => cat.format_str(
-            "brief-voltage-high-line",
-            &[("name", name), ("pct", &fixed_with(p * high_line, 0, " %"))],
-        ),
-        p => cat.format_str("brief-voltage-of-max", &[("name", name), ("pct", &pct(p))]),
+pub(crate) fn valve_check(
+    v: &ValveFindings,
+    check: &str,
+    high_line: f64,
+    once: &SaidOnce,
+) -> String {
+    // The message `key` with the share `p` in whole percent ("plate 79
+    // %"), or a dash for none, and the figure's `name` where it has one
+    // ("Va 64 % at high line"); said once for each whole percent.
+    let share = |key: &'static str, name: &'static str, p: Option<f64>| {
+        let say = |pct: &str| {
+            if name.is_empty() {
+                once.say(key, &[("pct", pct)])
+            } else {
+                once.say(key, &[("name", name), ("pct", pct)])
+            }
+        };
+        match p {
+            Some(p) => once.whole_words(key, name, p, [0.0; 2], |whole| say(&percent(whole))),
+            None => say("–"),
+        }
+    };
+    let voltage = |name: &'static str, pct_now: Option<f64>| match pct_now {
+        Some(p) if p <= 100.0 => share("brief-voltage-high-line", name, Some(p * high_line)),
+        p => share("brief-voltage-of-max", name, p),
     };
     match check {
-        "plate_dissipation" => say("brief-plate", pct(v.plate_dissipation_pct)),
-        "plate_dissipation_high_line" => say(
+        "plate_dissipation" => share("brief-plate", "", v.plate_dissipation_pct),
+        "plate_dissipation_high_line" => share(
             "brief-plate-high-line",
-            pct(v.high_line_plate_dissipation_pct),
+            "",
+            v.high_line_plate_dissipation_pct,
         ),
-        "screen_dissipation" => say("brief-screen", pct(v.screen_dissipation_pct)),
+        "screen_dissipation" => share("brief-screen", "", v.screen_dissipation_pct),
         "plate_voltage" => voltage("Va", v.plate_voltage_pct),
         "screen_voltage" => voltage("Vg2", v.screen_voltage_pct),
-        "cathode_current" => say("brief-cathode-current", pct(v.cathode_current_pct)),
-        other => super::check_words(other, cat),
+        "cathode_current" => share("brief-cathode-current", "", v.cathode_current_pct),
+        other => super::check_words(other, once.catalogue()),
     }
 }
 
@@ -47,17 +68,19 @@ pub fn valve_check(v: &ValveFindings, check: &str, high_line: f64, cat: &Catalog
 /// caution share (a fraction), which tells whether the high-line projection
 /// decided a resistor's caution, and `tolerance` the mains' upper
 /// tolerance (a fraction).
-pub(crate) fn fill_set(set: &mut SetFindings, derating: f64, tolerance: f64, cat: &Catalogue) {
-    // `fixed` writes what `format!("{p:.digits$}")` writes, without its
-    // exact float path.
-    let pct_of =
-        |key: &str, p: f64, digits: usize| cat.format_str(key, &[("pct", &fixed(p, digits))]);
+pub(crate) fn fill_set(set: &mut SetFindings, derating: f64, tolerance: f64, once: &SaidOnce) {
+    // The message `key` with `p` in whole numbers, said once for each.
+    let pct_of = |key: &'static str, p: f64| {
+        once.whole_words(key, "", p, [0.0; 2], |whole| {
+            once.say(key, &[("pct", whole)])
+        })
+    };
     let high_line = set.correction_factor * (1.0 + tolerance);
     for v in &mut set.valves {
         let briefs: Vec<String> = v
             .checks
             .iter()
-            .map(|c| valve_check(v, c.check, high_line, cat))
+            .map(|c| valve_check(v, c.check, high_line, once))
             .collect();
         for (c, b) in v.checks.iter_mut().zip(briefs) {
             c.verdict.brief = b;
@@ -65,8 +88,8 @@ pub(crate) fn fill_set(set: &mut SetFindings, derating: f64, tolerance: f64, cat
     }
     for n in &mut set.nodes {
         n.verdict.brief = match n.deviation_pct {
-            Some(d) => cat.format_str("brief-from-chart", &[("deviation", &fixed_signed(d, 1))]),
-            None => cat.text("brief-no-chart"),
+            Some(d) => once.say("brief-from-chart", &[("deviation", &fixed_signed(d, 1))]),
+            None => once.text("brief-no-chart"),
         };
     }
     for r in set
@@ -77,22 +100,22 @@ pub(crate) fn fill_set(set: &mut SetFindings, derating: f64, tolerance: f64, cat
     {
         r.verdict.brief = match (r.power_pct, r.high_line_power_pct) {
             (Some(p), Some(h)) if r.verdict.status != Status::Ok && p <= derating * 100.0 => {
-                pct_of("brief-at-high-line", h, 0)
+                pct_of("brief-at-high-line", h)
             }
-            (Some(p), _) => pct_of("brief-of-rating", p, 0),
-            (None, _) => cat.text("brief-no-rating"),
+            (Some(p), _) => pct_of("brief-of-rating", p),
+            (None, _) => once.text("brief-no-rating"),
         };
     }
     for c in &mut set.filter_capacitors {
         let v = |x: f64| format_engineering(x, QuantityKind::Voltage);
-        let what = cat.text(if c.deciding == "working_high_line" {
+        let what = once.text(if c.deciding == "working_high_line" {
             "brief-working-high-line"
         } else {
             "brief-cold-start-peak"
         });
         c.verdict.brief = match c.verdict.status {
-            Status::Ok => pct_of("brief-margin", c.margin_pct, 0),
-            _ if c.deciding_margin_pct < 0.0 => cat.format_str(
+            Status::Ok => pct_of("brief-margin", c.margin_pct),
+            _ if c.deciding_margin_pct < 0.0 => once.say(
                 "brief-volts-on-rating",
                 &[
                     ("volts", &v(c.deciding_volts)),
@@ -100,14 +123,14 @@ pub(crate) fn fill_set(set: &mut SetFindings, derating: f64, tolerance: f64, cat
                     ("rating", &v(c.rating_volts)),
                 ],
             ),
-            _ => cat.format_str(
+            _ => once.say(
                 "brief-margin-what",
                 &[("pct", &fixed(c.deciding_margin_pct, 1)), ("what", &what)],
             ),
         };
     }
     if let Some(r) = &mut set.rectifier {
-        r.verdict.brief = pct_of("brief-of-rating", r.load_pct, 0);
+        r.verdict.brief = pct_of("brief-of-rating", r.load_pct);
     }
     for h in &mut set.heaters {
         let mut brief = fixed_signed(h.deviation_pct, 1);
@@ -116,13 +139,13 @@ pub(crate) fn fill_set(set: &mut SetFindings, derating: f64, tolerance: f64, cat
     }
     for p in &mut set.bench.output_power {
         p.verdict.brief = match p.output_power_pct_of_rated {
-            Some(pct) => pct_of("brief-of-rated", pct, 0),
+            Some(pct) => pct_of("brief-of-rated", pct),
             None => fixed_with(p.output_power_w, 1, " W"),
         };
     }
     for h in &mut set.bench.hum_noise {
         h.verdict.brief = match h.hum_noise_db_below_full {
-            Some(db) => cat.format_str("brief-below-full", &[("db", &fixed(db, 0))]),
+            Some(db) => once.say("brief-below-full", &[("db", &fixed(db, 0))]),
             None => fixed_with(h.hum_noise_dbv, 1, " dBV"),
         };
     }

@@ -99,7 +99,7 @@ pub fn derive_in(job: &Job, ratings: &RatingsTable, cat: &Catalogue) -> Findings
             valves.push(valve::analyse(&ctx, &spec, reading, rating, &mut notes));
         }
         let warm_up = warm_up(&ctx, job, set, ratings);
-        let nodes = supply::nodes(job, set, &circuit, settings, cat, once);
+        let nodes = supply::nodes(job, set, &circuit, settings, once);
         let mut not_checked = Vec::new();
         let droppers = supply::droppers(job, set, &circuit, settings, &mut not_checked, cat, once);
         let cathode_resistors = supply::cathode_resistors(job, set, &circuit, settings, cat, once);
@@ -123,7 +123,7 @@ pub fn derive_in(job: &Job, ratings: &RatingsTable, cat: &Catalogue) -> Findings
                 ],
             ));
         }
-        let heaters = supply::heaters(job, set, settings, cat);
+        let heaters = supply::heaters(job, set, settings, once);
         let rectifier = supply::rectifier(job, set, &circuit, &valves, ratings, cat);
         let bench = bench::findings(job, set, settings, cat);
         let cathode_resistor_suggestions = bias_estimate::cathode_suggestions(
@@ -153,10 +153,10 @@ pub fn derive_in(job: &Job, ratings: &RatingsTable, cat: &Catalogue) -> Findings
             &mut found,
             settings.resistor_derating,
             job.mains.tolerance.value,
-            cat,
+            once,
         );
         accept::apply_to_set(&job.acceptances, &mut found, &mut matched);
-        let mut warnings = set_warnings(&found, cat);
+        let mut warnings = set_warnings(&found, once);
         for n in notes {
             let subject = n.split(':').next().unwrap_or("").to_string();
             warnings.push(Warning::note(
@@ -171,13 +171,22 @@ pub fn derive_in(job: &Job, ratings: &RatingsTable, cat: &Catalogue) -> Findings
     };
     let worked: Vec<_> = if job.measurements.len() >= PARALLEL_SETS {
         use rayon::prelude::*;
+        // Each run of sets rayon works out in one piece keeps a
+        // `SaidOnce` of its own; runs of at least an eighth of a thread's
+        // share (rather than a few sets each), so that the words kept are
+        // made a few times a job, not once every few sets.
+        let run = job
+            .measurements
+            .len()
+            .div_ceil(8 * rayon::current_num_threads());
         job.measurements
             .par_iter()
             .enumerate()
-            .map_init(status::SaidOnce::default, per_set)
+            .with_min_len(run)
+            .map_init(|| status::SaidOnce::new(cat), per_set)
             .collect()
     } else {
-        let mut once = status::SaidOnce::default();
+        let mut once = status::SaidOnce::new(cat);
         job.measurements
             .iter()
             .enumerate()
@@ -394,7 +403,13 @@ fn sentence(s: &str) -> String {
     let mut out = String::with_capacity(s.len() + 4);
     let mut c = s.chars();
     if let Some(f) = c.next() {
-        out.extend(f.to_uppercase());
+        // An ASCII letter's capital without the Unicode tables (a long
+        // job makes two sentences of each warning).
+        if f.is_ascii() {
+            out.push(f.to_ascii_uppercase());
+        } else {
+            out.extend(f.to_uppercase());
+        }
         out.push_str(c.as_str());
     }
     if !out.ends_with('.') {
@@ -438,7 +453,8 @@ fn valve_subject(position: &str, valve_type: &str) -> String {
     subject
 }
 
-fn set_warnings(set: &SetFindings, cat: &Catalogue) -> Vec<Warning> {
+fn set_warnings(set: &SetFindings, once: &status::SaidOnce) -> Vec<Warning> {
+    let cat = once.catalogue();
     let mut out = Vec::new();
     let mut push = |subject: &str, check: Option<&'static str>, verdict: &Verdict| {
         if verdict.status != Status::Ok {
@@ -448,7 +464,7 @@ fn set_warnings(set: &SetFindings, cat: &Catalogue) -> Vec<Warning> {
                 subject,
                 check,
                 verdict,
-                sentence(&cat.format_str(
+                sentence(&once.say(
                     "warn-subject-reason",
                     &[("subject", subject), ("reason", &verdict.reason)],
                 )),

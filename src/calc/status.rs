@@ -2,8 +2,8 @@
 //! cold, for a fixed-bias valve idling below its aim), why, and against
 //! which threshold.
 
-use crate::catalogue::{Arg, Catalogue};
-use crate::units::fixed;
+use crate::catalogue::{Arg, Catalogue, Message};
+use crate::units::{fixed, fixed_digits};
 use rustc_hash::FxHashMap;
 use serde::Serialize;
 use std::cell::RefCell;
@@ -137,6 +137,12 @@ pub fn worst_of<'a>(verdicts: impl IntoIterator<Item = &'a Verdict>) -> Option<&
 /// the figures' bits.
 type SaidKey = (usize, usize, [u64; 3]);
 
+/// What [`SaidOnce::fixed_words`] keeps words by: the message key's and
+/// the name's address and length, each figure's digits as `fixed` writes
+/// them (the integer, then its decimals and sign; `u64::MAX` twice where
+/// there is no such figure) and the other figures' bits.
+type FixedKey = (usize, usize, usize, usize, [u64; 6]);
+
 /// Words that are the same in every set of a job: a threshold depends
 /// only on the job's settings and a rating ("caution above 50 % of 5 W,
 /// over above 100 %"), and a long job said each of them again in every
@@ -146,16 +152,58 @@ type SaidKey = (usize, usize, [u64; 3]);
 ///
 /// One lives for a run of sets on one thread (it is not shared between
 /// threads), with one catalogue: its words are that catalogue's.
-#[derive(Default)]
-pub(crate) struct SaidOnce {
+///
+/// It also keeps each message the sets say looked up in the catalogue
+/// ([`SaidOnce::say`]): a long job's sets say the same hundred or so
+/// messages some hundred times a set, and finding a message's part and
+/// pattern by its key was a quarter of saying it.
+pub(crate) struct SaidOnce<'c> {
+    cat: &'c Catalogue,
     /// By what is said (a message key or a name of the words: where its
     /// text is and how long it is, as a `&'static str` never changes; the
     /// same name at two places is only kept twice) and every figure the
     /// words are made from, as bits.
     said: RefCell<FxHashMap<SaidKey, String>>,
+    /// Words made from figures as `fixed` writes them
+    /// ([`SaidOnce::fixed_words`]).
+    fixed: RefCell<FxHashMap<FixedKey, String>>,
+    /// The messages looked up, by where their key is and how long it is.
+    messages: RefCell<FxHashMap<(usize, usize), Message<'c>>>,
 }
 
-impl SaidOnce {
+impl<'c> SaidOnce<'c> {
+    /// Nothing said yet, in the words of `cat`.
+    pub(crate) fn new(cat: &'c Catalogue) -> Self {
+        SaidOnce {
+            cat,
+            said: RefCell::default(),
+            messages: RefCell::default(),
+            fixed: RefCell::default(),
+        }
+    }
+
+    /// The catalogue whose words these are.
+    pub(crate) fn catalogue(&self) -> &'c Catalogue {
+        self.cat
+    }
+
+    /// The message `key` of the catalogue, looked up the first time it is
+    /// asked for.
+    pub(crate) fn message(&self, key: &'static str) -> Message<'c> {
+        let at = (key.as_ptr() as usize, key.len());
+        if let Some(message) = self.messages.borrow().get(&at) {
+            return *message;
+        }
+        let message = self.cat.message(key);
+        self.messages.borrow_mut().insert(at, message);
+        message
+    }
+
+    /// What [`Catalogue::format_str`] says, the message looked up once.
+    pub(crate) fn say(&self, key: &'static str, args: &[(&str, &str)]) -> String {
+        self.message(key).format_str(args)
+    }
+
     /// The words `say` makes, which must depend on nothing but `what`,
     /// `figures`, the job's settings and the catalogue.
     pub(crate) fn words(
@@ -177,9 +225,71 @@ impl SaidOnce {
         words
     }
 
+    /// The words `say` makes from `figures`, each written as `fixed` writes
+    /// it with its number of decimals (`fixed(figure, decimals)`, given to
+    /// `say` in order), kept by those digits: a share such as "plate 79 %"
+    /// or a part's "dissipation 0.45 W is 22 % of its 2 W rating" comes
+    /// back to the same few dozen words set after set. `say` must depend on
+    /// nothing but the words it is given, the message `key`, the `name` (a
+    /// second fixed text, such as the message naming the figure, or ""),
+    /// the `others` figures, the job's settings and the catalogue.
+    ///
+    /// The words are kept by what `fixed` writes ([`fixed_digits`]: the
+    /// integer of its digits, its sign and decimals), so every figure kept
+    /// with them is written the same. A figure `fixed` writes another way
+    /// (near a tie, not finite) is said from the figures themselves, each
+    /// time, as are more than two figures.
+    pub(crate) fn fixed_words<const N: usize>(
+        &self,
+        key: &'static str,
+        name: &'static str,
+        figures: [(f64, usize); N],
+        others: [f64; 2],
+        say: impl FnOnce([String; N]) -> String,
+    ) -> String {
+        let mut digits = [u64::MAX; 6];
+        digits[4] = others[0].to_bits();
+        digits[5] = others[1].to_bits();
+        for (i, (figure, decimals)) in figures.iter().enumerate() {
+            match fixed_digits(*figure, *decimals) {
+                Some((negative, n)) if i < 2 => {
+                    digits[2 * i] = n;
+                    digits[2 * i + 1] = (*decimals as u64) << 1 | u64::from(negative);
+                }
+                _ => return say(figures.map(|(f, d)| fixed(f, d))),
+            }
+        }
+        let at = (
+            key.as_ptr() as usize,
+            key.len(),
+            name.as_ptr() as usize,
+            name.len(),
+            digits,
+        );
+        if let Some(words) = self.fixed.borrow().get(&at) {
+            return words.clone();
+        }
+        let words = say(figures.map(|(f, d)| fixed(f, d)));
+        self.fixed.borrow_mut().insert(at, words.clone());
+        words
+    }
+
+    /// [`SaidOnce::fixed_words`] of one figure in whole numbers
+    /// (`fixed(figure, 0)`).
+    pub(crate) fn whole_words(
+        &self,
+        key: &'static str,
+        name: &'static str,
+        figure: f64,
+        others: [f64; 2],
+        say: impl FnOnce(&str) -> String,
+    ) -> String {
+        self.fixed_words(key, name, [(figure, 0)], others, |[whole]| say(&whole))
+    }
+
     /// A message without arguments.
-    pub(crate) fn text(&self, key: &'static str, cat: &Catalogue) -> String {
-        self.words(key, [0.0; 3], || cat.text(key))
+    pub(crate) fn text(&self, key: &'static str) -> String {
+        self.words(key, [0.0; 3], || self.say(key, &[]))
     }
 }
 
@@ -199,45 +309,73 @@ pub fn under_rating_threshold(caution: f64, rating: &str, cat: &Catalogue) -> St
 /// Bands for a figure that must stay under a rating: caution above
 /// `caution` (a fraction of the rating), over above 100 %. `what` names the
 /// figure with its value ("dissipation 0.62 W"); the words are `cat`'s.
-/// (The program makes the threshold once a job: [`under_rating_judged`].)
+/// (The program makes the threshold once a job and keeps the reasons by
+/// their figures' words: [`under_rating_named`] and the resistors' own.)
 #[cfg(test)]
 pub fn under_rating(pct: f64, caution: f64, what: &str, rating: &str, cat: &Catalogue) -> Verdict {
     let threshold = under_rating_threshold(caution, rating, cat);
-    under_rating_judged(pct, caution, what, rating, threshold, cat)
+    let (status, key) = rating_band(pct, caution);
+    let reason = rating_reason(cat.message(key), what, &fixed(pct, 0), rating, caution);
+    Verdict::new(status, reason, threshold)
 }
 
-/// [`under_rating`] with its threshold in words already made.
-pub(crate) fn under_rating_judged(
+/// [`under_rating`] for a figure named by a message of its own
+/// (`what`: "reason-screen-dissipation") against a rating of `rating_figure`
+/// (`rating` in words): its reason depends on nothing else than the share
+/// in whole percent, so it is said once for each ([`SaidOnce::whole_words`]).
+pub(crate) fn under_rating_named(
     pct: f64,
     caution: f64,
-    what: &str,
+    what: &'static str,
+    rating_figure: f64,
     rating: &str,
     threshold: String,
-    cat: &Catalogue,
+    once: &SaidOnce,
 ) -> Verdict {
-    let caution_words = fixed(caution * 100.0, 0);
-    let pct_words = fixed(pct, 0);
-    let args = [
+    let (status, key) = rating_band(pct, caution);
+    let reason = once.whole_words(key, what, pct, [rating_figure, caution], |pct_words| {
+        rating_reason(
+            once.message(key),
+            &once.text(what),
+            pct_words,
+            rating,
+            caution,
+        )
+    });
+    Verdict::new(status, reason, threshold)
+}
+
+/// The status of a share `pct` of a rating and the message of its reason.
+pub(crate) fn rating_band(pct: f64, caution: f64) -> (Status, &'static str) {
+    if pct > 100.0 {
+        (Status::Over, "reason-of-rating")
+    } else if pct > caution * 100.0 {
+        (Status::Caution, "reason-of-rating-guide")
+    } else {
+        (Status::Ok, "reason-of-rating")
+    }
+}
+
+/// "screen dissipation is 40 % of its 8 W rating" (with the guide's share
+/// where the message says it).
+pub(crate) fn rating_reason(
+    message: Message,
+    what: &str,
+    pct_words: &str,
+    rating: &str,
+    caution: f64,
+) -> String {
+    let caution_words = if message.uses("caution") {
+        fixed(caution * 100.0, 0)
+    } else {
+        String::new()
+    };
+    message.format_str(&[
         ("what", what),
-        ("pct", pct_words.as_str()),
+        ("pct", pct_words),
         ("rating", rating),
         ("caution", caution_words.as_str()),
-    ];
-    if pct > 100.0 {
-        Verdict::new(
-            Status::Over,
-            cat.format_str("reason-of-rating", &args),
-            threshold,
-        )
-    } else if pct > caution * 100.0 {
-        Verdict::new(
-            Status::Caution,
-            cat.format_str("reason-of-rating-guide", &args),
-            threshold,
-        )
-    } else {
-        Verdict::ok(cat.format_str("reason-of-rating", &args), threshold)
-    }
+    ])
 }
 
 #[cfg(test)]
@@ -259,7 +397,7 @@ mod tests {
 
     #[test]
     fn words_said_once_are_the_words_said_each_time() {
-        let once = SaidOnce::default();
+        let once = SaidOnce::new(Catalogue::english());
         let mut made = 0;
         let mut say = |what: &'static str, figures: [f64; 3]| {
             once.words(what, figures, || {
@@ -288,6 +426,152 @@ mod tests {
         let both = "inner-most";
         assert_eq!(once.words(&both[..5], [0.0; 3], || "in".into()), "in");
         assert_eq!(once.words(both, [0.0; 3], || "most".into()), "most");
+    }
+
+    #[test]
+    fn messages_looked_up_once_say_what_the_catalogue_says() {
+        for cat in [Catalogue::english(), &Catalogue::built_in("de").unwrap()] {
+            let once = SaidOnce::new(cat);
+            for _ in 0..2 {
+                for (key, args) in [
+                    (
+                        "reason-voltage-of-max",
+                        &[
+                            ("what", "plate voltage"),
+                            ("volts", "453 V"),
+                            ("pct", "107"),
+                            ("max", "425 V"),
+                        ][..],
+                    ),
+                    ("brief-plate", &[("pct", "79 %")][..]),
+                    ("place-between", &[("from", "B+1"), ("to", "B+2")][..]),
+                    ("reason-no-chart", &[][..]),
+                    ("no-such-key", &[("x", "y")][..]),
+                ] {
+                    assert_eq!(once.say(key, args), cat.format_str(key, args), "{key}");
+                }
+                assert_eq!(
+                    once.text("reason-inside-aim"),
+                    cat.text("reason-inside-aim")
+                );
+            }
+        }
+    }
+
+    /// Words kept by a figure's whole number are the words of the figure
+    /// itself: shares of every size with every fraction, halves and the
+    /// figures next to them, negatives, −0, huge and not finite ones.
+    #[test]
+    fn whole_words_are_the_figures_own() {
+        let once = SaidOnce::new(Catalogue::english());
+        let mut figures = vec![
+            0.0,
+            -0.0,
+            -0.3,
+            -0.7,
+            0.5,
+            1.5,
+            2.5,
+            -2.5,
+            78.5,
+            78.499_999_9,
+            78.500_000_1,
+            78.499_99,
+            78.500_01,
+            99.5,
+            100.499_999,
+            1e9 + 0.5,
+            1e9 + 0.3,
+            1e12 + 0.7,
+            4_503_599_627_370_497.0,
+            f64::MAX,
+            f64::MIN_POSITIVE,
+            f64::NAN,
+            f64::INFINITY,
+            f64::NEG_INFINITY,
+        ];
+        let mut next = crate::test_random::xorshift(0x5a1d_0ce5_0000_0001);
+        for _ in 0..20_000 {
+            let r = next();
+            let whole = (r % 400) as f64 - 100.0;
+            let fraction = (next() >> 11) as f64 / (1u64 << 53) as f64;
+            figures.push(whole + fraction);
+            figures.push(whole + 0.5 + ((r >> 40) % 2001) as f64 * 1e-9 - 1e-6);
+        }
+        for (i, figure) in figures.iter().enumerate() {
+            // Two names, so some words are found kept and some made.
+            let name = if i % 2 == 0 { "a" } else { "b" };
+            let words = once.whole_words("k", name, *figure, [1.0, 2.0], |w| format!("<{w}>"));
+            assert_eq!(words, format!("<{}>", fixed(*figure, 0)), "{figure:e}");
+        }
+    }
+
+    /// Words kept by two figures' digits are those of the figures
+    /// themselves, with every number of decimals: figures that `fixed`
+    /// writes alike share them, and no others do.
+    #[test]
+    fn fixed_words_are_the_figures_own() {
+        let once = SaidOnce::new(Catalogue::english());
+        let mut next = crate::test_random::xorshift(0x0f1e_2d3c_4b5a_6978);
+        let figure = |next: &mut dyn FnMut() -> u64| {
+            let r = next();
+            let size = [1.0, 10.0, 1e3, 1e9, 1e12][(r % 5) as usize];
+            let sign = if r & 32 == 0 { 1.0 } else { -1.0 };
+            let fraction = (next() >> 11) as f64 / (1u64 << 53) as f64;
+            // Some on the halves of the second decimal, and next to them.
+            match r % 7 {
+                0 => sign * ((r >> 8) % 1000) as f64 / 100.0 + 0.005,
+                1 => sign * (((r >> 8) % 1000) as f64 + 0.5),
+                _ => sign * size * fraction,
+            }
+        };
+        for _ in 0..20_000 {
+            let a = figure(&mut next);
+            let b = figure(&mut next);
+            let (da, db) = ((next() % 4) as usize, (next() % 3) as usize);
+            let words = once.fixed_words("k", "", [(a, da), (b, db)], [3.0, 0.0], |[x, y]| {
+                format!("{x}|{y}")
+            });
+            assert_eq!(
+                words,
+                format!("{}|{}", fixed(a, da), fixed(b, db)),
+                "{a:e} {b:e}"
+            );
+        }
+        for special in [f64::NAN, f64::INFINITY, -0.0, 0.0, 2.5, -2.5] {
+            let words =
+                once.fixed_words("k", "", [(special, 0), (1.0, 0)], [3.0, 0.0], |[x, y]| {
+                    format!("{x}|{y}")
+                });
+            assert_eq!(words, format!("{}|1", fixed(special, 0)));
+        }
+    }
+
+    #[test]
+    fn a_named_share_of_a_rating_says_what_under_rating_says() {
+        for cat in [Catalogue::english(), &Catalogue::built_in("de").unwrap()] {
+            let once = SaidOnce::new(cat);
+            let what = once.text("reason-screen-dissipation");
+            for pct in [
+                12.3, 12.4, 49.5, 50.5, 64.0, 99.9, 100.4, 100.6, 196.2, 12.2,
+            ] {
+                for (max, rating) in [(8.0, "8 W"), (12.0, "12 W")] {
+                    for caution in [0.5, 1.0] {
+                        let threshold = under_rating_threshold(caution, rating, cat);
+                        let named = under_rating_named(
+                            pct,
+                            caution,
+                            "reason-screen-dissipation",
+                            max,
+                            rating,
+                            threshold,
+                            &once,
+                        );
+                        assert_eq!(named, under_rating(pct, caution, &what, rating, cat));
+                    }
+                }
+            }
+        }
     }
 
     #[test]

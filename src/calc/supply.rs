@@ -7,7 +7,9 @@ use super::findings::{
     ResistorFindings, ValveFindings,
 };
 use super::mains;
-use super::status::{SaidOnce, Status, Verdict, under_rating_judged, under_rating_threshold};
+use super::status::{
+    SaidOnce, Status, Verdict, rating_band, rating_reason, under_rating_threshold,
+};
 use crate::catalogue::{Arg, Catalogue};
 use crate::job::{Circuit, Job, MeasurementSet, RectifierKind, Settings};
 use crate::ratings::{RatingsTable, RectifierHeating};
@@ -30,8 +32,8 @@ fn v(x: f64) -> String {
 }
 
 /// "B+1 to B+2": where a dropper sits.
-fn place_between(from: &str, to: &str, cat: &Catalogue) -> String {
-    cat.format_str("place-between", &[("from", from), ("to", to)])
+fn place_between(from: &str, to: &str, once: &SaidOnce) -> String {
+    once.say("place-between", &[("from", from), ("to", to)])
 }
 
 /// Resistor power: two decimals of a watt, or milliwatts when tiny.
@@ -48,7 +50,6 @@ pub(crate) fn nodes(
     set: &MeasurementSet,
     circuit: &Circuit,
     settings: &Settings,
-    cat: &Catalogue,
     once: &SaidOnce,
 ) -> Vec<NodeFindings> {
     let nominal = job.mains.nominal.value;
@@ -77,13 +78,13 @@ pub(crate) fn nodes(
             let tol_pct = tolerance * 100.0;
             let tol_words = fixed(tol_pct, 0);
             let threshold = once.words("threshold-node", [tol_pct, nominal.0, 0.0], || {
-                cat.format_str(
+                once.say(
                     "threshold-node",
                     &[("tolerance", &tol_words), ("nominal", &v(nominal.0))],
                 )
             });
             let off_chart = |d: f64, e: Volts| {
-                cat.format_str(
+                once.say(
                     "reason-node",
                     &[
                         ("corrected", &v(corrected.0)),
@@ -100,7 +101,7 @@ pub(crate) fn nodes(
                     Status::Caution,
                     super::valve::joined(
                         off_chart(d, e),
-                        &cat.format_str(
+                        &once.say(
                             if d > 0.0 {
                                 "reason-above-band"
                             } else {
@@ -111,7 +112,10 @@ pub(crate) fn nodes(
                     ),
                     threshold,
                 ),
-                _ => Verdict::ok(cat.text("reason-no-chart"), cat.text("threshold-no-chart")),
+                _ => Verdict::ok(
+                    once.text("reason-no-chart"),
+                    once.text("threshold-no-chart"),
+                ),
             };
             NodeFindings {
                 name: reading.name.value.clone(),
@@ -153,24 +157,44 @@ fn resistor(
     let verdict = match (rating, pct, pct_h) {
         (Some(rt), Some(pct), Some(pct_h)) => {
             let caution = settings.resistor_derating;
-            let rating_words = once.words("watts", [rt.0, 0.0, 0.0], || {
-                format_engineering(rt.0, QuantityKind::Power)
-            });
+            // The rating in words, where a threshold or reason is made.
+            let rating_words = || {
+                once.words("watts", [rt.0, 0.0, 0.0], || {
+                    format_engineering(rt.0, QuantityKind::Power)
+                })
+            };
             let threshold = once.words("threshold-under-rating", [rt.0, caution, 0.0], || {
-                under_rating_threshold(caution, &rating_words, cat)
+                under_rating_threshold(caution, &rating_words(), cat)
             });
-            let mut verdict = under_rating_judged(
-                pct,
-                caution,
-                &cat.format_str("reason-dissipation", &[("watts", &w(p.0))]),
-                &rating_words,
-                threshold,
-                cat,
-            );
+            let (status, key) = rating_band(pct, caution);
+            let reason_of = |watts: &str, pct_words: &str| {
+                rating_reason(
+                    once.message(key),
+                    &once.say("reason-dissipation", &[("watts", watts)]),
+                    pct_words,
+                    &rating_words(),
+                    caution,
+                )
+            };
+            // "dissipation 0.45 W is 22 % of its 2 W rating": said once for
+            // each power in hundredths of a watt and share in whole percent
+            // (a power under 10 mW, written with a prefix, each time).
+            let reason = if p.0.abs() < 0.01 {
+                reason_of(&w(p.0), &fixed(pct, 0))
+            } else {
+                once.fixed_words(
+                    key,
+                    "reason-dissipation",
+                    [(p.0, 2), (pct, 0)],
+                    [rt.0, caution],
+                    |[watts, pct_words]| reason_of(&(watts + " W"), &pct_words),
+                )
+            };
+            let mut verdict = Verdict::new(status, reason, threshold);
             if verdict.status == Status::Ok && pct_h > settings.resistor_derating * 100.0 {
                 verdict = Verdict::new(
                     Status::Caution,
-                    cat.format_str(
+                    once.say(
                         "reason-resistor-high-line",
                         &[("watts", &w(p_h.0)), ("pct", &fixed(pct_h, 0))],
                     ),
@@ -180,8 +204,8 @@ fn resistor(
             verdict
         }
         _ => Verdict::ok(
-            cat.format_str("reason-resistor-no-rating", &[("watts", &w(p.0))]),
-            once.text("threshold-no-power-rating", cat),
+            once.say("reason-resistor-no-rating", &[("watts", &w(p.0))]),
+            once.text("threshold-no-power-rating"),
         ),
     };
     ResistorFindings {
@@ -219,7 +243,7 @@ pub(crate) fn droppers(
         match (read(&d.from.value), read(&d.to.value)) {
             (Some(a), Some(b)) => out.push(resistor(
                 &d.reference,
-                place_between(&d.from.value, &d.to.value, cat),
+                place_between(&d.from.value, &d.to.value, once),
                 d.value.value,
                 d.rating,
                 (a - b).abs(),
@@ -238,7 +262,7 @@ pub(crate) fn droppers(
                 not_checked.push(NotChecked {
                     reference: d.reference.clone(),
                     kind: "dropper",
-                    place: place_between(&d.from.value, &d.to.value, cat),
+                    place: place_between(&d.from.value, &d.to.value, once),
                     reason: cat.format(
                         "reason-not-measured",
                         &[
@@ -320,10 +344,10 @@ pub(crate) fn screen_resistors(
         let reference = sr
             .reference
             .clone()
-            .unwrap_or_else(|| cat.format_str("place-screen", &[("valve", &sr.valve.value)]));
+            .unwrap_or_else(|| once.say("place-screen", &[("valve", &sr.valve.value)]));
         out.push(resistor(
             &reference,
-            cat.format_str(
+            once.say(
                 "place-to-screen",
                 &[("node", &sr.supply.value), ("valve", &sr.valve.value)],
             ),
@@ -361,7 +385,7 @@ pub(crate) fn capacitors(
             Some((RectifierKind::Silicon, d)) => (
                 d.unwrap_or(settings.silicon_drop),
                 false,
-                cat.text("reason-silicon-rectifier"),
+                once.text("reason-silicon-rectifier"),
             ),
             Some((RectifierKind::Valve(pos), d)) => {
                 let heating = job
@@ -389,7 +413,7 @@ pub(crate) fn capacitors(
             None => (
                 settings.silicon_drop,
                 false,
-                cat.text("reason-rectifier-not-stated"),
+                once.text("reason-rectifier-not-stated"),
             ),
         };
     let peak = circuit
@@ -425,18 +449,12 @@ pub(crate) fn capacitors(
         let rating = cap.rating.value;
         let margin = (rating.0 - highest.0) / rating.0 * 100.0;
         let high_mains_words = once.words("volts", [high_mains.0, 0.0, 0.0], || v(high_mains.0));
-        let peak_words = cat.format(
+        let peak_words = once.say(
             "reason-cap-peak-words",
-            &[
-                ("mains", Arg::from(&high_mains_words)),
-                ("rectifier", Arg::from(&rect_words)),
-            ],
+            &[("mains", &high_mains_words), ("rectifier", &rect_words)],
         );
         let work_words = once.words("reason-cap-work-words", [high_mains.0, 0.0, 0.0], || {
-            cat.format(
-                "reason-cap-work-words",
-                &[("mains", Arg::from(&high_mains_words))],
-            )
+            once.say("reason-cap-work-words", &[("mains", &high_mains_words)])
         });
         let over_work = high.is_some_and(|h| h.0 > rating.0);
         let over_peak = peak.is_some_and(|p| p.0 > rating.0);
@@ -458,19 +476,13 @@ pub(crate) fn capacitors(
         let rating_words = once.words("volts", [rating.0, 0.0, 0.0], || v(rating.0));
         let margin_pct = settings.capacitor_margin * 100.0;
         let threshold = once.words("threshold-capacitor", [rating.0, margin_pct, 0.0], || {
-            cat.format(
+            once.say(
                 "threshold-capacitor",
-                &[
-                    ("rating", Arg::from(&rating_words)),
-                    ("margin", Arg::from(fixed(margin_pct, 0))),
-                ],
+                &[("rating", &rating_words), ("margin", &fixed(margin_pct, 0))],
             )
         });
         let unchecked = if measured.is_none() {
-            cat.format(
-                "reason-cap-unchecked",
-                &[("node", Arg::from(&cap.node.value))],
-            )
+            once.say("reason-cap-unchecked", &[("node", &cap.node.value)])
         } else {
             String::new()
         };
@@ -479,27 +491,38 @@ pub(crate) fn capacitors(
         } else {
             &peak_words
         };
+        let highest_words = v(highest.0);
         // The words of one reason: the figures by name, the unchecked
         // working voltage after it.
-        let say = |key: &str, extra: &[(&str, Arg)]| {
-            let mut args = vec![
-                ("peak", Arg::from(&peak_words)),
-                ("work", Arg::from(&work_words)),
-                ("source", Arg::from(source)),
-                ("rating", Arg::from(&rating_words)),
-                ("highest", Arg::from(v(highest.0))),
-            ];
-            args.extend(extra.iter().cloned());
-            format!("{}{unchecked}", cat.format(key, &args))
+        let say = |key: &'static str, extra: &[(&'static str, &str)]| {
+            let mut args: Vec<(&str, &str)> = Vec::with_capacity(5 + extra.len());
+            args.extend([
+                ("peak", peak_words.as_str()),
+                ("work", work_words.as_str()),
+                ("source", source.as_str()),
+                ("rating", rating_words.as_str()),
+                ("highest", highest_words.as_str()),
+            ]);
+            args.extend_from_slice(extra);
+            let mut words = once.say(key, &args);
+            words.push_str(&unchecked);
+            words
         };
-        let peak_volts = Arg::from(v(peak.map(|p| p.0).unwrap_or(0.0)));
-        let work_volts = Arg::from(v(high.map(|h| h.0).unwrap_or(0.0)));
+        // The peak and the working voltage in words, where a reason says
+        // them (one that is over).
+        let both_volts = || {
+            (
+                v(peak.map(|p| p.0).unwrap_or(0.0)),
+                v(high.map(|h| h.0).unwrap_or(0.0)),
+            )
+        };
         let verdict = if over_work && over_peak && !slow_warmup {
+            let (peak_volts, work_volts) = both_volts();
             Verdict::new(
                 Status::Over,
                 say(
                     "reason-cap-both-over",
-                    &[("peak_volts", peak_volts), ("work_volts", work_volts)],
+                    &[("peak_volts", &peak_volts), ("work_volts", &work_volts)],
                 ),
                 threshold,
             )
@@ -508,11 +531,12 @@ pub(crate) fn capacitors(
                 Some(p) if p.0 > high.map(|h| h.0).unwrap_or(0.0) => "reason-cap-work-over-peak",
                 _ => "reason-cap-work-over",
             };
+            let (peak_volts, work_volts) = both_volts();
             Verdict::new(
                 Status::Over,
                 say(
                     key,
-                    &[("peak_volts", peak_volts), ("work_volts", work_volts)],
+                    &[("peak_volts", &peak_volts), ("work_volts", &work_volts)],
                 ),
                 threshold,
             )
@@ -523,18 +547,12 @@ pub(crate) fn capacitors(
         } else if margin < settings.capacitor_margin * 100.0 {
             Verdict::new(
                 Status::Caution,
-                say(
-                    "reason-cap-margin-low",
-                    &[("margin", Arg::from(fixed(margin, 1)))],
-                ),
+                say("reason-cap-margin-low", &[("margin", &fixed(margin, 1))]),
                 threshold,
             )
         } else {
             Verdict::ok(
-                say(
-                    "reason-cap-margin",
-                    &[("margin", Arg::from(fixed(margin, 0)))],
-                ),
+                say("reason-cap-margin", &[("margin", &fixed(margin, 0))]),
                 threshold,
             )
         };
@@ -626,7 +644,7 @@ pub(crate) fn heaters(
     job: &Job,
     set: &MeasurementSet,
     settings: &Settings,
-    cat: &Catalogue,
+    once: &SaidOnce,
 ) -> Vec<HeaterFindings> {
     set.heaters
         .iter()
@@ -638,32 +656,33 @@ pub(crate) fn heaters(
             let dev_c = (corrected / h.nominal - 1.0) * 100.0;
             let tol = settings.heater_tolerance * 100.0;
             let tol_words = fixed(tol, 0);
-            let threshold = cat.format(
-                "threshold-heater",
-                &[
-                    ("tolerance", Arg::from(&tol_words)),
-                    ("nominal", Arg::from(v(h.nominal.0))),
-                ],
-            );
-            let at_nominal = cat.format(
-                "reason-at-nominal",
-                &[
-                    ("volts", Arg::from(v(corrected.0))),
-                    ("deviation", Arg::from(fixed_signed(dev_c, 1))),
-                ],
-            );
-            let from_nominal = cat.format(
+            let nominal_words = v(h.nominal.0);
+            let threshold = once.words("threshold-heater", [tol, h.nominal.0, 0.0], || {
+                once.say(
+                    "threshold-heater",
+                    &[("tolerance", &tol_words), ("nominal", &nominal_words)],
+                )
+            });
+            let from_nominal = once.say(
                 "reason-heater",
                 &[
-                    ("measured", Arg::from(v(measured.0))),
-                    ("deviation", Arg::from(fixed_signed(dev, 1))),
-                    ("nominal", Arg::from(v(h.nominal.0))),
+                    ("measured", &v(measured.0)),
+                    ("deviation", &fixed_signed(dev, 1)),
+                    ("nominal", &nominal_words),
                 ],
             );
-            let off_band = |key: &str| {
+            // Off the band: how far, and the reading at nominal mains.
+            let off_band = |key: &'static str| {
+                let at_nominal = once.say(
+                    "reason-at-nominal",
+                    &[
+                        ("volts", &v(corrected.0)),
+                        ("deviation", &fixed_signed(dev_c, 1)),
+                    ],
+                );
                 format!(
                     "{from_nominal}, {}; {at_nominal}",
-                    cat.format(key, &[("tolerance", Arg::from(&tol_words))])
+                    once.say(key, &[("tolerance", &tol_words)])
                 )
             };
             let verdict = if dev > tol + 1e-9 {
@@ -727,8 +746,7 @@ mod tests {
             set,
             &j.circuit_for(set),
             &j.settings,
-            en(),
-            &SaidOnce::default(),
+            &SaidOnce::new(en()),
         );
         // Chart referred to nominal, common practice: 300 V × 120/110 = 327.273 V.
         assert!((f[0].expected_volts.unwrap() - 327.2727).abs() < 1e-3);
@@ -762,7 +780,7 @@ mod tests {
             &j.settings,
             &mut notes,
             en(),
-            &SaidOnce::default(),
+            &SaidOnce::new(en()),
         );
         assert!(notes.is_empty(), "{notes:?}");
         assert!((f[0].power_w - 0.49).abs() < 1e-12); // Joule's law (textbook): 70² / 10 kΩ = 0.49 W
@@ -800,7 +818,7 @@ mod tests {
                 &j.settings,
                 &mut notes,
                 en(),
-                &SaidOnce::default()
+                &SaidOnce::new(en())
             )
             .is_empty()
         );
@@ -823,7 +841,7 @@ mod tests {
             &j.circuit_for(set),
             &j.settings,
             en(),
-            &SaidOnce::default(),
+            &SaidOnce::new(en()),
         );
         // Joule's law P = Vk²/Rk (textbook): 11.6² / 130 Ω = 1.0351 W, 51.8 % of 2 W: above the 50 % derating (common practice).
         assert!((f[0].power_w - 1.035077).abs() < 1e-6);
@@ -857,7 +875,7 @@ mod tests {
             &RatingsTable::builtin(),
             &mut Vec::new(),
             en(),
-            &SaidOnce::default(),
+            &SaidOnce::new(en()),
         );
         (statuses(&f, |c| c.verdict.status), f)
     }
@@ -898,7 +916,7 @@ mod tests {
             &RatingsTable::builtin(),
             &mut Vec::new(),
             en(),
-            &SaidOnce::default(),
+            &SaidOnce::new(en()),
         );
         assert!((f[0].highest_volts - 451.5).abs() < 1e-9);
         assert_eq!(f[0].verdict.status, Status::Over);
@@ -960,7 +978,7 @@ mod tests {
             &RatingsTable::builtin(),
             &mut not_checked,
             en(),
-            &SaidOnce::default(),
+            &SaidOnce::new(en()),
         );
         assert!(f.is_empty());
         assert_eq!(not_checked.len(), 1);
@@ -975,7 +993,7 @@ mod tests {
             "heater \"6.93V\"\nheater \"6.95V\"\nheater \"5.67V\"\nheater \"5.6V\"\nheater \"12.6V\" nominal=\"12.6V\"",
         );
         let set = &j.measurements[0];
-        let f = heaters(&j, set, &j.settings, en());
+        let f = heaters(&j, set, &j.settings, &SaidOnce::new(en()));
         // Common practice, 6.3 V ±10 % (many datasheets say ±10 %, from memory): 5.67 … 6.93 V.
         assert!((f[0].deviation_pct - 10.0).abs() < 1e-9); // 6.93/6.3 − 1 = +10.0 %
         assert_eq!(

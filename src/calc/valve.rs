@@ -3,7 +3,7 @@
 
 use super::findings::{Check, CurrentMethod, TargetWindow, ValveFindings};
 use super::mains;
-use super::status::{SaidOnce, Status, Verdict, under_rating_judged, worst_of};
+use super::status::{SaidOnce, Status, Verdict, under_rating_named, worst_of};
 use crate::catalogue::{Arg, Catalogue};
 use crate::job::{
     BiasKind, Circuit, CurrentMethod as ReadMethod, Job, MeasurementSet, Settings, ValvePosition,
@@ -51,7 +51,7 @@ struct Current {
     includes_screen: bool,
 }
 
-pub(crate) struct ValveContext<'a> {
+pub(crate) struct ValveContext<'a, 'c> {
     pub job: &'a Job,
     pub set: &'a MeasurementSet,
     pub circuit: &'a Circuit,
@@ -59,7 +59,7 @@ pub(crate) struct ValveContext<'a> {
     /// The words of the reasons and notes.
     pub cat: &'a Catalogue,
     /// The words that are the same in every set (thresholds, ratings).
-    pub once: &'a SaidOnce,
+    pub once: &'a SaidOnce<'c>,
 }
 
 pub(crate) fn analyse(
@@ -123,7 +123,9 @@ pub(crate) fn analyse(
 
     let current = find_current(ctx, pos, reading, vk, ig2, notes);
 
-    let mut checks: Vec<Check> = Vec::new();
+    // Plate and screen dissipation, the high-line plate, the two voltages
+    // and the cathode current at most.
+    let mut checks: Vec<Check> = Vec::with_capacity(6);
     let mut f = ValveFindings {
         position: pos.to_string(),
         valve_type: spec.type_name.value.clone(),
@@ -213,7 +215,6 @@ pub(crate) fn analyse(
                 pa,
                 max,
                 &conservative,
-                ctx.cat,
                 once,
             );
             checks.push(Check {
@@ -225,7 +226,7 @@ pub(crate) fn analyse(
                     check: "plate_dissipation_high_line",
                     verdict: Verdict::new(
                         Status::Caution,
-                        cat.format_str(
+                        once.say(
                             "reason-plate-high-line",
                             &[
                                 (
@@ -239,7 +240,7 @@ pub(crate) fn analyse(
                                 ("pct", &fixed(pct_h, 0)),
                             ],
                         ),
-                        once.text("threshold-plate-high-line", cat),
+                        once.text("threshold-plate-high-line"),
                     ),
                 });
             }
@@ -259,7 +260,12 @@ pub(crate) fn analyse(
             let middle = Amps(w.plate_current_middle_ma / 1e3);
             match super::bias_estimate::grid_for_window_middle(&f, rating, grid, middle) {
                 Ok(g) => w.grid_for_middle_volts = Some(g.0),
-                Err(why) => w.grid_for_middle_unknown_reason = Some(why.words(cat)),
+                Err(why) => {
+                    w.grid_for_middle_unknown_reason = Some(match why.plain_key() {
+                        Some(key) => once.text(key),
+                        None => why.words(cat),
+                    })
+                }
             }
             f.target_window = Some(w);
         }
@@ -276,20 +282,21 @@ pub(crate) fn analyse(
             let rating_words = watts_words_once(max, once);
             // The band has no caution of its own below the rating: say what does decide.
             let threshold = once.words("threshold-screen-dissipation", [max.0, 0.0, 0.0], || {
-                cat.format_str("threshold-screen-dissipation", &[("rating", &rating_words)])
+                once.say("threshold-screen-dissipation", &[("rating", &rating_words)])
             });
-            let mut verdict = under_rating_judged(
+            let mut verdict = under_rating_named(
                 pct,
                 1.0,
-                &once.text("reason-screen-dissipation", cat),
+                "reason-screen-dissipation",
+                max.0,
                 &rating_words,
                 threshold,
-                cat,
+                once,
             );
             if verdict.status == Status::Ok && pct_h > 100.0 {
                 verdict = Verdict::new(
                     Status::Caution,
-                    cat.format_str("reason-screen-high-line", &[("pct", &fixed(pct_h, 0))]),
+                    once.say("reason-screen-high-line", &[("pct", &fixed(pct_h, 0))]),
                     verdict.threshold,
                 );
             }
@@ -313,12 +320,11 @@ pub(crate) fn analyse(
         checks.push(Check {
             check: "plate_voltage",
             verdict: max_verdict(
-                &once.text("reason-plate-voltage", cat),
+                "reason-plate-voltage",
                 va,
                 high(va),
                 max,
                 ctx.settings.voltage_over,
-                ctx.cat,
                 once,
             ),
         });
@@ -328,12 +334,11 @@ pub(crate) fn analyse(
         checks.push(Check {
             check: "screen_voltage",
             verdict: max_verdict(
-                &once.text("reason-screen-voltage", cat),
+                "reason-screen-voltage",
                 vg2,
                 high(vg2),
                 max,
                 ctx.settings.voltage_over,
-                ctx.cat,
                 once,
             ),
         });
@@ -345,7 +350,7 @@ pub(crate) fn analyse(
         let pct = ik / max * 100.0;
         f.cathode_current_pct = Some(pct);
         let threshold = once.words("threshold-cathode-current", [max.0, 0.0, 0.0], || {
-            cat.format_str(
+            once.say(
                 "threshold-cathode-current",
                 &[(
                     "max",
@@ -353,25 +358,27 @@ pub(crate) fn analyse(
                 )],
             )
         });
-        let pct_words = fixed(pct, 0);
         let verdict = if pct > 100.0 {
             Verdict::new(
                 Status::Over,
-                cat.format_str(
+                once.say(
                     "reason-cathode-current-over",
                     &[
                         (
                             "current",
                             &format_engineering(ik.0, crate::units::QuantityKind::Current),
                         ),
-                        ("pct", &pct_words),
+                        ("pct", &fixed(pct, 0)),
                     ],
                 ),
                 threshold,
             )
         } else {
+            let key = "reason-cathode-current";
             Verdict::ok(
-                cat.format_str("reason-cathode-current", &[("pct", &pct_words)]),
+                once.whole_words(key, "", pct, [0.0; 2], |pct_words| {
+                    once.say(key, &[("pct", pct_words)])
+                }),
                 threshold,
             )
         };
@@ -488,16 +495,15 @@ fn dissipation_verdict(
     pa: Watts,
     max: Watts,
     conservative: &str,
-    cat: &Catalogue,
     once: &SaidOnce,
 ) -> Verdict {
-    let rating = watts_words_once(max, once);
+    let rating = || watts_words_once(max, once);
     // Judge on the hotter of today's mains and nominal mains.
     let (judged, at) = if pct_c > pct {
         (
             pct_c,
             once.words("reason-at-nominal-mains", [0.0; 3], || {
-                format!(" {}", cat.format("reason-at-nominal-mains", &[]))
+                format!(" {}", once.say("reason-at-nominal-mains", &[]))
             }),
         )
     } else {
@@ -508,73 +514,86 @@ fn dissipation_verdict(
     } else {
         pa.0 * pct_c / pct
     };
-    let mut what = cat.format_str(
-        "reason-plate-dissipation",
-        &[
-            ("watts", &fixed(watts, 1)),
-            ("pct", &fixed(judged, 0)),
-            ("rating", &rating),
-        ],
-    );
-    what.push_str(&at);
-    what.push_str(conservative);
-    if bias == BiasKind::Fixed && is_output {
+    // The status, the threshold, and the message of the words after the
+    // figure (`PLAIN` for none) with its argument.
+    const PLAIN: &str = "reason-plate-dissipation";
+    let (status, threshold, band, band_arg) = if bias == BiasKind::Fixed && is_output {
         let lo = settings.fixed_bias_low * 100.0;
         let hi = settings.fixed_bias_high * 100.0;
-        let (lo_w, hi_w) = (fixed(lo, 0), fixed(hi, 0));
         let threshold = once.words("threshold-fixed-bias", [max.0, lo, hi], || {
-            cat.format_str(
+            once.say(
                 "threshold-fixed-bias",
-                &[("low", &lo_w), ("high", &hi_w), ("rating", &rating)],
+                &[
+                    ("low", &fixed(lo, 0)),
+                    ("high", &fixed(hi, 0)),
+                    ("rating", &rating()),
+                ],
             )
         });
         if judged > 100.0 {
-            Verdict::new(Status::Over, what, threshold)
+            (Status::Over, threshold, PLAIN, None)
         } else if judged > hi {
-            Verdict::new(
-                Status::Caution,
-                joined(
-                    what,
-                    &cat.format_str("reason-above-aim", &[("high", &hi_w)]),
-                ),
-                threshold,
-            )
+            let high = ("high", hi);
+            (Status::Caution, threshold, "reason-above-aim", Some(high))
         } else if judged < lo {
-            Verdict::new(
+            (
                 Status::Cold,
-                joined(what, &cat.format_str("reason-below-aim", &[("low", &lo_w)])),
                 threshold,
+                "reason-below-aim",
+                Some(("low", lo)),
             )
         } else {
-            Verdict::ok(
-                joined(what, &once.text("reason-inside-aim", cat)),
-                threshold,
-            )
+            (Status::Ok, threshold, "reason-inside-aim", None)
         }
     } else {
         let caution = settings.cathode_bias_caution * 100.0;
-        let caution_w = fixed(caution, 0);
         let threshold = once.words("threshold-cathode-bias", [max.0, caution, 0.0], || {
-            cat.format_str(
+            once.say(
                 "threshold-cathode-bias",
-                &[("caution", &caution_w), ("rating", &rating)],
+                &[("caution", &fixed(caution, 0)), ("rating", &rating())],
             )
         });
         if judged > 100.0 {
-            Verdict::new(Status::Over, what, threshold)
+            (Status::Over, threshold, PLAIN, None)
         } else if judged > caution {
-            Verdict::new(
+            let guide = ("caution", caution);
+            (
                 Status::Caution,
-                joined(
-                    what,
-                    &cat.format_str("reason-above-guide", &[("caution", &caution_w)]),
-                ),
                 threshold,
+                "reason-above-guide",
+                Some(guide),
             )
         } else {
-            Verdict::ok(what, threshold)
+            (Status::Ok, threshold, PLAIN, None)
         }
-    }
+    };
+    // "plate dissipation 19.7 W is 79 % of its 25 W rating, above the 70 %
+    // aim": said once for each power in tenths of a watt and share in whole
+    // percent (with or without the words on the mains and the screen
+    // current).
+    let flags = f64::from(u8::from(!at.is_empty()) + 2 * u8::from(!conservative.is_empty()));
+    let reason = once.fixed_words(
+        band,
+        PLAIN,
+        [(watts, 1), (judged, 0)],
+        [max.0, flags],
+        |[watts, pct]| {
+            let mut what = once.say(
+                PLAIN,
+                &[("watts", &watts), ("pct", &pct), ("rating", &rating())],
+            );
+            what.push_str(&at);
+            what.push_str(conservative);
+            match (band, band_arg) {
+                (PLAIN, _) => what,
+                (_, Some((name, share))) => {
+                    joined(what, &once.say(band, &[(name, &fixed(share, 0))]))
+                }
+                (_, None) => joined(what, &once.text(band)),
+            }
+        },
+    );
+    Verdict::new(status, reason, threshold)
 }
 
 /// `first, second`: what `format!("{first}, {second}")` writes, on the
@@ -588,40 +607,50 @@ pub(super) fn joined(mut first: String, second: &str) -> String {
 
 /// A voltage against its published maximum: caution above it (or when the
 /// high-line projection passes it), over more than `over` (a fraction,
-/// [`Settings::voltage_over`]) above it.
+/// [`Settings::voltage_over`]) above it. `what` is the message that names
+/// the voltage ("reason-plate-voltage").
 fn max_verdict(
-    what: &str,
+    what: &'static str,
     v: Volts,
     high: Volts,
     max: Volts,
     over: f64,
-    cat: &Catalogue,
     once: &SaidOnce,
 ) -> Verdict {
     let factor = 1.0 + over;
-    let max_words = once.words("volts", [max.0, 0.0, 0.0], || {
-        format_engineering(max.0, crate::units::QuantityKind::Voltage)
-    });
+    // The maximum in words, where a threshold or reason is made.
+    let max_words = || {
+        once.words("volts", [max.0, 0.0, 0.0], || {
+            format_engineering(max.0, crate::units::QuantityKind::Voltage)
+        })
+    };
     let threshold = once.words("threshold-voltage-max", [max.0, factor, 0.0], || {
-        cat.format_str(
+        once.say(
             "threshold-voltage-max",
-            &[("max", &max_words), ("over", &fixed(factor * 100.0, 0))],
+            &[("max", &max_words()), ("over", &fixed(factor * 100.0, 0))],
         )
     });
-    let of_max = |key: &str| {
+    let of_max = |key: &'static str| {
         let pct = v / max * 100.0;
-        cat.format_str(
-            key,
-            &[
-                ("what", what),
-                (
-                    "volts",
-                    &format_engineering(v.0, crate::units::QuantityKind::Voltage),
-                ),
-                ("pct", &fixed(pct, 0)),
-                ("max", &max_words),
-            ],
-        )
+        let message = once.message(key);
+        let say = |pct_words: &str, volts: &str| {
+            message.format_str(&[
+                ("what", &once.text(what)),
+                ("volts", volts),
+                ("pct", pct_words),
+                ("max", &max_words()),
+            ])
+        };
+        if message.uses("volts") {
+            say(
+                &fixed(pct, 0),
+                &format_engineering(v.0, crate::units::QuantityKind::Voltage),
+            )
+        } else {
+            // Without the reading ("plate voltage is 58 % of its
+            // maximum"), the words are the share's in whole percent.
+            once.whole_words(key, what, pct, [max.0, 0.0], |pct_words| say(pct_words, ""))
+        }
     };
     if v.0 > max.0 * factor {
         Verdict::new(Status::Over, of_max("reason-voltage-of-max"), threshold)
@@ -630,15 +659,15 @@ fn max_verdict(
     } else if high.0 > max.0 {
         Verdict::new(
             Status::Caution,
-            cat.format_str(
+            once.say(
                 "reason-voltage-high-line",
                 &[
-                    ("what", what),
+                    ("what", &once.text(what)),
                     (
                         "high",
                         &format_engineering(high.0, crate::units::QuantityKind::Voltage),
                     ),
-                    ("max", &max_words),
+                    ("max", &max_words()),
                 ],
             ),
             threshold,
@@ -1040,13 +1069,12 @@ mod tests {
     fn the_reasons_are_the_catalogues_words() {
         // 330 V on a 300 V maximum is 110 % of it (EL84's Va(max) from memory).
         let v = max_verdict(
-            "plate voltage",
+            "reason-plate-voltage",
             Volts(330.0),
             Volts(340.0),
             Volts(300.0),
             Settings::default().voltage_over,
-            Catalogue::english(),
-            &SaidOnce::default(),
+            &SaidOnce::new(Catalogue::english()),
         );
         let english = Catalogue::english();
         assert_eq!(
@@ -1074,13 +1102,12 @@ mod tests {
         // when the high-line projection passes it, over above 120 % of it.
         let s = |v: f64, high: f64| {
             max_verdict(
-                "plate voltage",
+                "reason-plate-voltage",
                 Volts(v),
                 Volts(high),
                 Volts(300.0),
                 Settings::default().voltage_over,
-                Catalogue::english(),
-                &SaidOnce::default(),
+                &SaidOnce::new(Catalogue::english()),
             )
             .status
         };
@@ -1104,8 +1131,7 @@ mod tests {
                 Watts(pct / 10.0),
                 Watts(10.0),
                 "",
-                Catalogue::english(),
-                &SaidOnce::default(),
+                &SaidOnce::new(Catalogue::english()),
             )
             .status
         };

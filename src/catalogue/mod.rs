@@ -195,6 +195,55 @@ impl Inner {
     }
 }
 
+/// A message of a catalogue, looked up: [`Catalogue::message`].
+#[derive(Clone, Copy)]
+pub struct Message<'a> {
+    key: &'a str,
+    part: &'a Part,
+    /// `None` when the catalogue has no such message (or it has no value).
+    pattern: Option<&'a Pattern>,
+}
+
+impl Message<'_> {
+    /// The words [`Catalogue::format_str`] says for this message's key.
+    pub fn format_str(&self, args: &[(&str, &str)]) -> String {
+        self.try_format_str(args)
+            .unwrap_or_else(|| format!("[{}]", self.key))
+    }
+
+    /// The words [`Catalogue::try_format_str`] says for this message's key.
+    pub fn try_format_str(&self, args: &[(&str, &str)]) -> Option<String> {
+        if let Pattern::Plain(pieces) = self.pattern?
+            && let Some(words) = say_plain_str(pieces, args)
+        {
+            return Some(words);
+        }
+        let bundle = &self.part.bundle;
+        let pattern = bundle.get_message(self.key)?.value()?;
+        let mut fargs = FluentArgs::with_capacity(args.len());
+        for (name, value) in args {
+            fargs.set(*name, FluentValue::from(*value));
+        }
+        let mut errors = Vec::new();
+        let words = bundle.format_pattern(pattern, Some(&fargs), &mut errors);
+        Some(words.into_owned())
+    }
+
+    /// Whether the message's words may use the argument `name`: false only
+    /// for a plain pattern (text and arguments) that does not name it, or
+    /// for a missing message, so an argument's words need not be made for
+    /// a message that leaves them out. Any other pattern may use it.
+    pub fn uses(&self, name: &str) -> bool {
+        match self.pattern {
+            None => false,
+            Some(Pattern::Plain(pieces)) => pieces
+                .iter()
+                .any(|p| matches!(p, Piece::Argument(a) if &**a == name)),
+            Some(Pattern::Fluent) => true,
+        }
+    }
+}
+
 /// A message's pattern as [`Catalogue::try_format`] uses it.
 enum Pattern {
     /// Text and `{ $name }` arguments only: no select, no reference to
@@ -535,21 +584,20 @@ impl Catalogue {
 
     /// [`Catalogue::format_str`], or `None` when there is no such message.
     pub fn try_format_str(&self, key: &str, args: &[(&str, &str)]) -> Option<String> {
+        self.message(key).try_format_str(args)
+    }
+
+    /// The message `key` looked up, to be said once or many times
+    /// ([`Message::format_str`]): a caller that says one message over and
+    /// over (derive, some hundred thousand sentences on a long job) looks
+    /// it up once rather than each time.
+    pub fn message<'a>(&'a self, key: &'a str) -> Message<'a> {
         let part = self.inner.part(key);
-        if let Pattern::Plain(pieces) = part.patterns.get(key)?
-            && let Some(words) = say_plain_str(pieces, args)
-        {
-            return Some(words);
+        Message {
+            key,
+            part,
+            pattern: part.patterns.get(key),
         }
-        let bundle = &part.bundle;
-        let pattern = bundle.get_message(key)?.value()?;
-        let mut fargs = FluentArgs::with_capacity(args.len());
-        for (name, value) in args {
-            fargs.set(*name, FluentValue::from(*value));
-        }
-        let mut errors = Vec::new();
-        let words = bundle.format_pattern(pattern, Some(&fargs), &mut errors);
-        Some(words.into_owned())
     }
 
     /// A plain pattern's words, or `None` when an argument it names is

@@ -715,3 +715,79 @@ fn text_arguments_lent_say_what_owned_ones_say() {
     }
     assert!(said > 20_000, "{said} cases");
 }
+
+/// A message looked up once says what the catalogue says for its key, and
+/// an argument it does not use ([`Message::uses`]) changes none of its
+/// words, in every message of both built-in catalogues (and German read
+/// whole as a translation).
+#[test]
+fn a_message_looked_up_says_what_its_key_says() {
+    let whole_german = Catalogue::build("de", "de.ftl", GERMAN).unwrap();
+    let mut left_out = 0;
+    for (text, catalogue) in [
+        (ENGLISH, Catalogue::english().clone()),
+        (GERMAN, Catalogue::built_in("de").unwrap()),
+        (GERMAN, whole_german),
+    ] {
+        for key in message_lines(text)
+            .keys()
+            .map(String::as_str)
+            .chain(["no-such-key"])
+        {
+            let message = catalogue.message(key);
+            let mut names = if catalogue.inner.part(key).patterns.contains_key(key) {
+                argument_names(&catalogue, key)
+            } else {
+                Vec::new()
+            };
+            if Catalogue::english()
+                .inner
+                .part(key)
+                .patterns
+                .contains_key(key)
+            {
+                names.extend(argument_names(Catalogue::english(), key));
+            }
+            names.push("unused".to_owned());
+            let all: Vec<(&str, &str)> = names.iter().map(|n| (n.as_str(), "a b")).collect();
+            assert_eq!(
+                message.try_format_str(&all),
+                catalogue.try_format(
+                    key,
+                    &all.iter()
+                        .map(|(n, v)| (*n, Arg::from(*v)))
+                        .collect::<Vec<_>>()
+                ),
+                "{key}"
+            );
+            for name in &names {
+                if message.uses(name) {
+                    continue;
+                }
+                assert!(
+                    !argument_names_if_any(&catalogue, key).contains(name),
+                    "{key} uses {name}"
+                );
+                let blank: Vec<(&str, &str)> = all
+                    .iter()
+                    .map(|&(n, v)| (n, if n == name.as_str() { "" } else { v }))
+                    .collect();
+                assert_eq!(
+                    message.format_str(&blank),
+                    message.format_str(&all),
+                    "{key} {name}"
+                );
+                left_out += 1;
+            }
+        }
+    }
+    assert!(left_out > 1_000, "{left_out} arguments left out");
+}
+
+fn argument_names_if_any(catalogue: &Catalogue, key: &str) -> Vec<String> {
+    if catalogue.inner.part(key).patterns.contains_key(key) {
+        argument_names(catalogue, key)
+    } else {
+        Vec::new()
+    }
+}

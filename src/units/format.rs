@@ -211,24 +211,15 @@ fn push_scaled(out: &mut String, n: u64, decimals: usize) {
 /// `format!` as before. The sign is printed for every negative value,
 /// -0.0 and those that round to zero included, as `format!` does.
 pub fn write_fixed(out: &mut String, value: f64, decimals: usize, plus: bool) {
-    const SCALE: [f64; 7] = [1.0, 10.0, 100.0, 1e3, 1e4, 1e5, 1e6];
-    if let Some(scale) = SCALE.get(decimals)
-        && value.is_finite()
-    {
-        let scaled = value.abs() * scale;
-        let whole = scaled.floor();
-        let fraction = scaled - whole;
-        if scaled < 1e9 && (fraction - 0.5).abs() > 1e-6 {
-            let n = whole as u64 + u64::from(fraction > 0.5);
-            if value.is_sign_negative() {
-                out.push('-');
-            } else if plus {
-                out.push('+');
-            }
-            // At most 10 digits.
-            push_scaled(out, n, decimals);
-            return;
+    if let Some((negative, n)) = fixed_digits(value, decimals) {
+        if negative {
+            out.push('-');
+        } else if plus {
+            out.push('+');
         }
+        // At most 10 digits.
+        push_scaled(out, n, decimals);
+        return;
     }
     use std::fmt::Write as _;
     let _ = if plus {
@@ -236,6 +227,32 @@ pub fn write_fixed(out: &mut String, value: f64, decimals: usize, plus: bool) {
     } else {
         write!(out, "{value:.decimals$}")
     };
+}
+
+/// What [`write_fixed`] writes of `value` with `decimals` decimals, where
+/// it writes an integer's digits: whether a minus comes first, and the
+/// integer `n` (`value` × 10^`decimals`, rounded), written with `decimals`
+/// decimals. `None` where it takes `format!`'s path instead (a value near
+/// a tie, large, not finite, or more than six decimals). Two values with
+/// the same answer are written the same, so words made from one are the
+/// other's too.
+pub fn fixed_digits(value: f64, decimals: usize) -> Option<(bool, u64)> {
+    const SCALE: [f64; 7] = [1.0, 10.0, 100.0, 1e3, 1e4, 1e5, 1e6];
+    let scale = SCALE.get(decimals)?;
+    if !value.is_finite() {
+        return None;
+    }
+    let scaled = value.abs() * scale;
+    let whole = scaled.floor();
+    let fraction = scaled - whole;
+    if scaled < 1e9 && (fraction - 0.5).abs() > 1e-6 {
+        Some((
+            value.is_sign_negative(),
+            whole as u64 + u64::from(fraction > 0.5),
+        ))
+    } else {
+        None
+    }
 }
 
 /// [`write_fixed`] as a string of its own: `format!("{value:.decimals$}")`.

@@ -8,8 +8,8 @@ mod preferred;
 mod quantity;
 
 pub use format::{
-    fixed, fixed_signed, fixed_with, format_engineering, format_engineering_sig, format_fixed,
-    format_sig, round_sig, write_fixed,
+    fixed, fixed_digits, fixed_signed, fixed_with, format_engineering, format_engineering_sig,
+    format_fixed, format_sig, round_sig, write_fixed,
 };
 pub use kind::QuantityKind;
 pub use parse::{UnitError, UnitProblem, parse_quantity};
