@@ -34,7 +34,7 @@ use crate::report::photos::PhotoRow;
 use crate::report::summary::Summary;
 
 mod network_view;
-use crate::units::{QuantityKind as Q, format_engineering, format_fixed, format_sig};
+use crate::units::{QuantityKind as Q, format_engineering, format_sig, write_fixed};
 pub use network_view::{
     NetworkRow, NetworkView, OscillatorRow, OscillatorView, network_plot_path, network_view,
 };
@@ -708,11 +708,11 @@ pub fn date_words(d: NaiveDate) -> String {
 }
 
 /// A number with a typographic minus sign.
-fn minus(s: String) -> String {
-    match s.strip_prefix('-') {
-        Some(rest) => format!("\u{2212}{rest}"),
-        None => s,
+fn minus(mut s: String) -> String {
+    if s.starts_with('-') {
+        s.replace_range(..1, "\u{2212}");
     }
+    s
 }
 
 /// Three significant figures, no unit: volts in tables.
@@ -720,8 +720,61 @@ fn sig3(v: f64) -> String {
     minus(format_sig(v, 3))
 }
 
+/// `v` to `decimals` decimals with a typographic minus sign,
+/// `minus(format_fixed(v, decimals))`.
 fn fixed(v: f64, decimals: usize) -> String {
-    minus(format_fixed(v, decimals))
+    let mut out = String::with_capacity(12);
+    push_fixed(&mut out, v, decimals);
+    out
+}
+
+/// [`fixed`] appended to `out`, so that a cell of several figures and
+/// words ("26.8–37.6 mA") is written into one string, without a string
+/// of its own for each figure and `format!` to join them: the same text
+/// as `minus(format_fixed(v, decimals))` (a test holds the two equal).
+fn push_fixed(out: &mut String, v: f64, decimals: usize) {
+    if !v.is_finite() {
+        out.push('–');
+        return;
+    }
+    let start = out.len();
+    write_fixed(out, v, decimals, false);
+    if out[start..].starts_with('-') {
+        if out[start + 1..].bytes().all(|b| b == b'0' || b == b'.') {
+            // A negative value that rounds to zero prints as zero.
+            out.remove(start);
+        } else {
+            out.replace_range(start..start + 1, "\u{2212}");
+        }
+    }
+}
+
+/// [`fixed`] and a unit after a space: "40.8 mA".
+fn fixed_unit(v: f64, decimals: usize, unit: &str) -> String {
+    let mut out = String::with_capacity(12 + unit.len());
+    push_fixed(&mut out, v, decimals);
+    out.push(' ');
+    out.push_str(unit);
+    out
+}
+
+/// Two figures of [`fixed`] joined by a dash, and a unit after a space:
+/// "26.8–37.6 mA", "50–70 %".
+fn fixed_range(a: f64, b: f64, decimals: usize, unit: &str) -> String {
+    let mut out = String::with_capacity(24 + unit.len());
+    push_fixed(&mut out, a, decimals);
+    out.push('–');
+    push_fixed(&mut out, b, decimals);
+    out.push(' ');
+    out.push_str(unit);
+    out
+}
+
+/// [`format_sig`] to three figures, then `words` after it: "100 µF".
+fn sig3_then(v: f64, words: &str) -> String {
+    let mut out = format_sig(v, 3);
+    out.push_str(words);
+    out
 }
 
 /// A whole-number percentage without the sign: "121".
@@ -731,14 +784,15 @@ pub(crate) fn pct0(v: f64) -> String {
 
 /// A signed percentage to 0.1: "+1.2 %", "−2.9 %".
 fn signed_pct(v: f64) -> String {
-    let s = format_fixed(v.abs(), 1);
-    if s.chars().all(|c| c == '0' || c == '.') {
-        format!("{s} %")
-    } else if v < 0.0 {
-        format!("\u{2212}{s} %")
-    } else {
-        format!("+{s} %")
+    let mut out = String::with_capacity(14);
+    // The size to 0.1, as `format_fixed(v.abs(), 1)` writes it (never
+    // with a minus: `abs` clears the sign).
+    push_fixed(&mut out, v.abs(), 1);
+    if !out.bytes().all(|b| b == b'0' || b == b'.') {
+        out.insert_str(0, if v < 0.0 { "\u{2212}" } else { "+" });
     }
+    out.push_str(" %");
+    out
 }
 
 pub(crate) fn volts(v: f64) -> String {
@@ -859,9 +913,37 @@ fn looks_like_list_item(line: &str) -> bool {
 }
 
 /// Unit symbols that should stay on the line of their number.
+#[cfg(test)]
 const UNIT_WORDS: &[&str] = &[
     "V", "mV", "kV", "W", "mW", "A", "mA", "µA", "Ω", "mΩ", "kΩ", "MΩ", "µF", "nF", "pF", "Hz", "%",
 ];
+
+/// Whether `word` is one of the unit symbols that stay on the line of
+/// their number (`UNIT_WORDS`, which a test holds this to): one `match`,
+/// which the compiler sorts by length, where a search of the list
+/// compared the word with each symbol in turn, a library call each, for
+/// every figure of every reason and brief.
+fn is_unit_word(word: &str) -> bool {
+    matches!(
+        word,
+        "V" | "mV"
+            | "kV"
+            | "W"
+            | "mW"
+            | "A"
+            | "mA"
+            | "µA"
+            | "Ω"
+            | "mΩ"
+            | "kΩ"
+            | "MΩ"
+            | "µF"
+            | "nF"
+            | "pF"
+            | "Hz"
+            | "%"
+    )
+}
 
 /// Puts a no-break space between a number and its unit in a sentence the
 /// program wrote ("349 V"), so a line never breaks between them.
@@ -885,7 +967,7 @@ fn glued(text: &str) -> Option<String> {
         }
         let rest = &text[i + 1..];
         let word = &rest[..rest.find(char::is_whitespace).unwrap_or(rest.len())];
-        if UNIT_WORDS.contains(&word.trim_end_matches(['.', ',', ';', ':', ')', '('])) {
+        if is_unit_word(word.trim_end_matches(['.', ',', ';', ':', ')', '('])) {
             let out = out.get_or_insert_with(|| String::with_capacity(text.len() + 8));
             out.push_str(&text[copied..i]);
             out.push('\u{a0}');
@@ -1445,7 +1527,13 @@ fn node_row(n: &NodeFindings) -> NodeRow {
         corrected: sig3(n.corrected_volts),
         expected: n.expected_volts.map(sig3),
         deviation: n.deviation_pct.map(signed_pct),
-        tolerance: format!("±{} %", format_sig(n.tolerance_pct, 3)),
+        tolerance: {
+            let mut band = String::with_capacity(16);
+            band.push('±');
+            band.push_str(&format_sig(n.tolerance_pct, 3));
+            band.push_str(" %");
+            band
+        },
         status: attention::state(&n.verdict).to_string(),
         why: why(&n.verdict),
         reason: Sentence::new(&n.verdict.reason),
@@ -1497,9 +1585,6 @@ fn valve_row(v: &ValveFindings) -> ValveRow {
 
 fn window_row(v: &ValveFindings, cat: &Catalogue) -> Option<WindowRow> {
     let w = v.target_window.as_ref()?;
-    let range = |a: f64, b: f64, decimals: usize, unit: &str| {
-        format!("{}–{} {unit}", fixed(a, decimals), fixed(b, decimals))
-    };
     let mut readings = Vec::new();
     if let (Some(a), Some(b)) = (w.sense_low_mv, w.sense_high_mv) {
         let across = match (w.sense_resistor_ohms, &w.sense_resistor_reference) {
@@ -1517,9 +1602,9 @@ fn window_row(v: &ValveFindings, cat: &Catalogue) -> Option<WindowRow> {
             _ => cat.text("doc-across-sense"),
         };
         readings.push(WindowReading {
-            range: range(a, b, 1, "mV"),
+            range: fixed_range(a, b, 1, "mV"),
             across,
-            now: w.sense_now_mv.map(|mv| format!("{} mV", fixed(mv, 1))),
+            now: w.sense_now_mv.map(|mv| fixed_unit(mv, 1, "mV")),
         });
     }
     if let (Some(a), Some(b)) = (w.primary_drop_low_volts, w.primary_drop_high_volts) {
@@ -1541,19 +1626,19 @@ fn window_row(v: &ValveFindings, cat: &Catalogue) -> Option<WindowRow> {
             None => cat.text("doc-across-primary"),
         };
         readings.push(WindowReading {
-            range: range(a, b, 2, "V"),
+            range: fixed_range(a, b, 2, "V"),
             across,
             now: w
                 .primary_drop_now_volts
-                .map(|d| format!("{} V", fixed(d, 2))),
+                .map(|d| fixed_unit(d, 2, "V")),
         });
     }
     if readings.is_empty()
         && let (Some(a), Some(b)) = (w.probe_low_ma, w.probe_high_ma)
     {
-        let now = v.cathode_current_ma.map(|i| format!("{} mA", fixed(i, 1)));
+        let now = v.cathode_current_ma.map(|i| fixed_unit(i, 1, "mA"));
         readings.push(WindowReading {
-            range: range(a, b, 1, "mA"),
+            range: fixed_range(a, b, 1, "mA"),
             across: cat.text("doc-across-probe"),
             now,
         });
@@ -1562,9 +1647,9 @@ fn window_row(v: &ValveFindings, cat: &Catalogue) -> Option<WindowRow> {
     let grid_unknown = w.grid_for_middle_unknown_reason.clone();
     Some(WindowRow {
         position: v.position.clone(),
-        aim: format!("{}–{} %", pct0(w.low_pct), pct0(w.high_pct)),
-        plate_current: range(w.plate_current_low_ma, w.plate_current_high_ma, 1, "mA"),
-        plate_current_now: v.plate_current_ma.map(|i| format!("{} mA", fixed(i, 1))),
+        aim: fixed_range(w.low_pct, w.high_pct, 0, "%"),
+        plate_current: fixed_range(w.plate_current_low_ma, w.plate_current_high_ma, 1, "mA"),
+        plate_current_now: v.plate_current_ma.map(|i| fixed_unit(i, 1, "mA")),
         readings,
         place: cat
             .try_format(&format!("doc-window-{}", w.place), &[])
@@ -1610,13 +1695,13 @@ fn capacitor_row(c: &CapacitorFindings) -> CapacitorRow {
     CapacitorRow {
         reference: c.reference.clone(),
         node: c.node.clone(),
-        capacitance: c.capacitance_uf.map(|u| format!("{} µF", format_sig(u, 3))),
+        capacitance: c.capacitance_uf.map(|u| sig3_then(u, " µF")),
         rating: sig3(c.rating_volts),
         measured: c.measured_volts.map(sig3),
         high_line: c.high_line_volts.map(sig3),
         cold_start: c.cold_start_peak_volts.map(sig3),
         highest: sig3(c.highest_volts),
-        margin: format!("{} %", fixed(c.margin_pct, 1)),
+        margin: fixed_unit(c.margin_pct, 1, "%"),
         status: attention::state(&c.verdict).to_string(),
         why: why(&c.verdict),
         reason: Sentence::new(&c.verdict.reason),
@@ -1641,7 +1726,7 @@ fn rectifier_row(r: &RectifierFindings, set: &SetFindings, cat: &Catalogue) -> R
                 &[("valves", Arg::from(outputs.join(", ")))],
             )
         },
-        load: format!("{} mA", fixed(r.load_at_least_ma, 1)),
+        load: fixed_unit(r.load_at_least_ma, 1, "mA"),
         rating: format!("{} mA", format_sig(r.rating_ma, 3)),
         load_pct: pct0(r.load_pct),
         status: attention::state(&r.verdict).to_string(),
@@ -1695,7 +1780,7 @@ fn heater_row(h: &HeaterFindings, cat: &Catalogue) -> HeaterRow {
 
 /// Heater volts need three figures even below 10 V ("6.29 V").
 fn format_engineering_3(v: f64) -> String {
-    format!("{} V", format_sig(v, 3))
+    sig3_then(v, " V")
 }
 
 fn plots(findings: &Findings, inputs: &ContextInputs<'_>) -> Plots {
@@ -1909,6 +1994,7 @@ fn method(
 #[cfg(test)]
 mod tests {
     use super::*;
+    use crate::units::format_fixed;
 
     #[test]
     fn a_reason_counts_the_characters_of_its_sentence() {
@@ -2011,6 +2097,102 @@ mod tests {
         }
         assert_eq!(glue_units("349 V at 12 mA."), "349\u{a0}V at 12\u{a0}mA.");
         assert_eq!(typographic_minus("(-3 V) x-1 -a"), "(\u{2212}3 V) x-1 -a");
+    }
+
+    #[test]
+    fn the_unit_words_are_the_listed_ones() {
+        for word in UNIT_WORDS {
+            assert!(is_unit_word(word), "{word:?}");
+        }
+        for word in [
+            "", "v", "VV", "mv", "kW", "MV", "µ", "F", "µW", "Ω.", "%.", "hz", "mA,", "kΩ)", "Vg2",
+            "ms", "M", "m", "k", "n", "p", "H", "z", "Ohm", "uF",
+        ] {
+            assert_eq!(is_unit_word(word), UNIT_WORDS.contains(&word), "{word:?}");
+        }
+        // Every prefix and extension of a listed word by one character.
+        for word in UNIT_WORDS {
+            for cut in word.char_indices().map(|(i, _)| i) {
+                let part = &word[..cut];
+                assert_eq!(is_unit_word(part), UNIT_WORDS.contains(&part), "{part:?}");
+            }
+            for c in ['V', 'A', 'F', 'Ω', 'z', '%', ' ', '.'] {
+                let longer = format!("{word}{c}");
+                assert!(!is_unit_word(&longer), "{longer:?}");
+            }
+        }
+    }
+
+    #[test]
+    fn figures_written_in_place_are_the_formatted_ones() {
+        // Values at and around every rounding edge of 0 to 3 decimals,
+        // negative ones that round to zero, large, tiny and not finite.
+        let mut values = vec![
+            0.0,
+            -0.0,
+            0.05,
+            -0.05,
+            -0.049,
+            -0.0004,
+            0.5,
+            -0.5,
+            1.5,
+            2.5,
+            -2.5,
+            9.995,
+            -9.995,
+            1e12,
+            -1e12,
+            1e20,
+            -3.7e-9,
+            f64::NAN,
+            f64::INFINITY,
+            f64::NEG_INFINITY,
+            f64::MAX,
+            f64::MIN_POSITIVE,
+        ];
+        let mut next = crate::test_random::xorshift(0x3c6e_f372_fe94_f82bu64);
+        for _ in 0..100_000 {
+            let scale = [1.0, 10.0, 100.0, 1000.0, 1e6][(next() % 5) as usize];
+            let raw = (next() % 2_000_001) as f64 / 1000.0 - 1000.0;
+            values.push(raw * scale / 100.0);
+            // Exact halves at the last decimal kept.
+            values.push(((next() % 20_001) as f64 - 10_000.0) / 200.0);
+        }
+        for &v in &values {
+            for decimals in 0..4 {
+                let old = match format_fixed(v, decimals).strip_prefix('-') {
+                    Some(rest) => format!("\u{2212}{rest}"),
+                    None => format_fixed(v, decimals),
+                };
+                assert_eq!(fixed(v, decimals), old, "{v:?} to {decimals}");
+                assert_eq!(
+                    fixed_unit(v, decimals, "mA"),
+                    format!("{old} mA"),
+                    "{v:?} to {decimals}"
+                );
+                assert_eq!(
+                    fixed_range(v, -v, decimals, "%"),
+                    format!("{old}–{} %", fixed(-v, decimals)),
+                    "{v:?} to {decimals}"
+                );
+            }
+            let s = format_fixed(v.abs(), 1);
+            let old = if s.chars().all(|c| c == '0' || c == '.') {
+                format!("{s} %")
+            } else if v < 0.0 {
+                format!("\u{2212}{s} %")
+            } else {
+                format!("+{s} %")
+            };
+            assert_eq!(signed_pct(v), old, "{v:?}");
+            assert_eq!(sig3_then(v, " µF"), format!("{} µF", format_sig(v, 3)));
+            let old = match format_sig(v, 3).strip_prefix('-') {
+                Some(rest) => format!("\u{2212}{rest}"),
+                None => format_sig(v, 3),
+            };
+            assert_eq!(sig3(v), old, "{v:?}");
+        }
     }
 
     #[test]
