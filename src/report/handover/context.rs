@@ -737,6 +737,14 @@ fn push_fixed(out: &mut String, v: f64, decimals: usize) {
         out.push('–');
         return;
     }
+    if let Some(n) = scaled_figure(v, decimals) {
+        // A negative value that rounds to zero prints as zero.
+        if n > 0 && v.is_sign_negative() {
+            out.push('\u{2212}');
+        }
+        push_decimal(out, n, decimals);
+        return;
+    }
     let start = out.len();
     write_fixed(out, v, decimals, false);
     if out[start..].starts_with('-') {
@@ -746,6 +754,59 @@ fn push_fixed(out: &mut String, v: f64, decimals: usize) {
         } else {
             out.replace_range(start..start + 1, "\u{2212}");
         }
+    }
+}
+
+/// The size of `v` to `decimals` decimals (0 to 3) as a whole number n,
+/// |v| ≈ n ÷ 10^decimals, found by the same arithmetic as the fast path
+/// of [`write_fixed`], where that path takes `v`: a finite value below
+/// 10^9 once scaled whose fraction is not within 10^-6 of one half. For
+/// any other value `None`, and the figure is written by `write_fixed`.
+///
+/// The tables' figures are some 80,000 on a 1,000-set job; `write_fixed`
+/// wrote each through `itoa` and three pieces, after its own scaling
+/// (the floor a library call on this target), at about 200 instructions
+/// a figure, where the few digits of a table's figure take a fraction of
+/// that written here. `figures_written_in_place_are_the_formatted_ones`
+/// holds the two to each other.
+fn scaled_figure(v: f64, decimals: usize) -> Option<u64> {
+    const SCALE: [f64; 4] = [1.0, 10.0, 100.0, 1e3];
+    let scaled = v.abs() * SCALE.get(decimals)?;
+    if !scaled.is_finite() || scaled >= 1e9 {
+        return None;
+    }
+    // The floor of a value from 0 to 10^9, exactly.
+    let whole = scaled as u64;
+    let fraction = scaled - whole as f64;
+    ((fraction - 0.5).abs() > 1e-6).then(|| whole + u64::from(fraction > 0.5))
+}
+
+/// `n` ÷ 10^`decimals` with exactly `decimals` decimals ("12.34" for
+/// 1234 and 2, "0.05" for 5 and 2), for `n` below 10^10 and `decimals`
+/// at most 3, as `write_fixed` writes the digits.
+fn push_decimal(out: &mut String, n: u64, decimals: usize) {
+    // Ten digits, the point and no more than three zeros before them.
+    let mut digits = [0u8; 16];
+    let mut at = digits.len();
+    let mut rest = n;
+    let mut written = 0;
+    loop {
+        if written == decimals && decimals > 0 {
+            at -= 1;
+            digits[at] = b'.';
+        }
+        at -= 1;
+        digits[at] = b'0' + (rest % 10) as u8;
+        rest /= 10;
+        written += 1;
+        if rest == 0 && written > decimals {
+            break;
+        }
+    }
+    let digits = &digits[at..];
+    out.reserve(digits.len());
+    for &b in digits {
+        out.push(char::from(b));
     }
 }
 
@@ -1019,6 +1080,7 @@ pub fn build_context(
         high_line: volts(m.high_line_volts),
         design: m.design_volts.map(volts),
     };
+    let part_words = PartWords::of(findings);
     let one_set = |(i, set): (usize, &SetFindings)| {
         // The sets with a warm-up chart, listed in set order.
         let plot = inputs
@@ -1026,7 +1088,7 @@ pub fn build_context(
             .binary_search(&i)
             .is_ok()
             .then(|| warm_up_plot(i));
-        set_context(findings, set, plot, cat)
+        set_context(findings, set, plot, &part_words, cat)
     };
     // Each set's context depends on the findings alone: a long job's are
     // made on every core (in the order of the sets, as before); a short
@@ -1301,6 +1363,7 @@ fn set_context(
     findings: &Findings,
     set: &SetFindings,
     warm_up_plot: Option<String>,
+    part_words: &PartWords,
     cat: &Catalogue,
 ) -> SetContext {
     let nominal = findings.mains.nominal_volts;
@@ -1327,16 +1390,16 @@ fn set_context(
     let resistors = set
         .droppers
         .iter()
-        .map(|r| resistor_row(r, &kind("doc-kind-dropper")))
+        .map(|r| resistor_row(r, &kind("doc-kind-dropper"), part_words))
         .chain(
             set.cathode_resistors
                 .iter()
-                .map(|r| resistor_row(r, &kind("doc-kind-cathode-resistor"))),
+                .map(|r| resistor_row(r, &kind("doc-kind-cathode-resistor"), part_words)),
         )
         .chain(
             set.screen_resistors
                 .iter()
-                .map(|r| resistor_row(r, &kind("doc-kind-screen-resistor"))),
+                .map(|r| resistor_row(r, &kind("doc-kind-screen-resistor"), part_words)),
         )
         .collect();
     let mut valves: Vec<ValveRow> = set.valves.iter().map(valve_row).collect();
@@ -1673,13 +1736,83 @@ fn grid_note(middle: &Option<String>, unknown: &Option<String>, cat: &Catalogue)
     }
 }
 
-fn resistor_row(r: &ResistorFindings, kind: &str) -> ResistorRow {
+/// The words of a resistor's value and power rating, the circuit's
+/// figures rather than the readings': a job's sets repeat them (a
+/// 1,000-set job names the same few values 7,000 times), so each
+/// distinct one is written once for the job, before the sets' contexts
+/// are made, and copied from here. Written anew they cost some 550
+/// instructions each, twice that for a power of ten such as "1 kΩ",
+/// which `format_engineering` takes through its slower steps.
+///
+/// A figure is found by its bits, so a copy is the text
+/// `format_engineering` gives for that very value; a value not here (a
+/// job of more distinct values than [`PartWords::MOST`]) is written as
+/// before.
+struct PartWords {
+    resistances: Vec<(u64, String)>,
+    ratings: Vec<(u64, String)>,
+}
+
+impl PartWords {
+    /// The most distinct values of each kind kept: enough for any real
+    /// circuit, and few enough that a look-up is a short scan.
+    const MOST: usize = 32;
+
+    fn of(findings: &Findings) -> Self {
+        let mut words = PartWords {
+            resistances: Vec::new(),
+            ratings: Vec::new(),
+        };
+        let resistors = findings.sets.iter().flat_map(|set| {
+            set.droppers
+                .iter()
+                .chain(&set.cathode_resistors)
+                .chain(&set.screen_resistors)
+        });
+        for r in resistors {
+            learn(&mut words.resistances, r.resistance_ohms, Q::Resistance);
+            if let Some(w) = r.rating_w {
+                learn(&mut words.ratings, w, Q::Power);
+            }
+        }
+        words
+    }
+
+    /// `format_engineering(ohms, Q::Resistance)`.
+    fn resistance(&self, ohms: f64) -> String {
+        known(&self.resistances, ohms).unwrap_or_else(|| format_engineering(ohms, Q::Resistance))
+    }
+
+    /// `format_engineering(watts, Q::Power)`.
+    fn rating(&self, watts: f64) -> String {
+        known(&self.ratings, watts).unwrap_or_else(|| format_engineering(watts, Q::Power))
+    }
+}
+
+/// Adds `value`'s words to `list` when they are not there and there is
+/// room.
+fn learn(list: &mut Vec<(u64, String)>, value: f64, kind: Q) {
+    let bits = value.to_bits();
+    if list.len() < PartWords::MOST && !list.iter().any(|(b, _)| *b == bits) {
+        list.push((bits, format_engineering(value, kind)));
+    }
+}
+
+/// A copy of `value`'s words in `list`, if they are there.
+fn known(list: &[(u64, String)], value: f64) -> Option<String> {
+    let bits = value.to_bits();
+    list.iter()
+        .find(|(b, _)| *b == bits)
+        .map(|(_, words)| words.clone())
+}
+
+fn resistor_row(r: &ResistorFindings, kind: &str, part_words: &PartWords) -> ResistorRow {
     ResistorRow {
         reference: r.reference.clone(),
         kind: kind.to_string(),
         place: r.place.clone(),
-        resistance: format_engineering(r.resistance_ohms, Q::Resistance),
-        rating: r.rating_w.map(|w| format_engineering(w, Q::Power)),
+        resistance: part_words.resistance(r.resistance_ohms),
+        rating: r.rating_w.map(|w| part_words.rating(w)),
         voltage: volts(r.voltage_volts),
         power: resistor_power_words(r.power_w),
         power_pct: r.power_pct.map(pct0),
@@ -2145,6 +2278,16 @@ mod tests {
             -1e12,
             1e20,
             -3.7e-9,
+            999_999_999.4,
+            999_999_999.6,
+            -99_999_999.96,
+            0.0005,
+            0.0015,
+            0.00049999,
+            1e9,
+            4.35,
+            -4.35,
+            1.005,
             f64::NAN,
             f64::INFINITY,
             f64::NEG_INFINITY,
@@ -2159,8 +2302,11 @@ mod tests {
             // Exact halves at the last decimal kept.
             values.push(((next() % 20_001) as f64 - 10_000.0) / 200.0);
         }
+        // How often the digits are written here rather than by `write_fixed`.
+        let mut in_place = 0;
         for &v in &values {
-            for decimals in 0..4 {
+            for decimals in 0..6 {
+                in_place += usize::from(v.is_finite() && scaled_figure(v, decimals).is_some());
                 let old = match format_fixed(v, decimals).strip_prefix('-') {
                     Some(rest) => format!("\u{2212}{rest}"),
                     None => format_fixed(v, decimals),
@@ -2192,6 +2338,37 @@ mod tests {
                 None => format_sig(v, 3),
             };
             assert_eq!(sig3(v), old, "{v:?}");
+        }
+        assert!(in_place > 500_000, "{in_place} figures written in place");
+    }
+
+    #[test]
+    fn a_parts_words_are_the_formatted_ones() {
+        // Values of every kind of decade, powers of ten, their neighbours
+        // by one bit, zero and its negative, more distinct values than
+        // are kept, and values not seen when the words were made.
+        let mut values = vec![0.0, -0.0, 1.0, 1000.0, 10e3, 4.7e3, 0.5, 2.0, f64::NAN];
+        for k in -3..7 {
+            let p = 10f64.powi(k);
+            values.extend([p, f64::from_bits(p.to_bits() + 1), f64::from_bits(p.to_bits() - 1)]);
+            values.extend([2.2 * p, 4.7 * p, 6.8 * p, 9.995 * p]);
+        }
+        let mut words = PartWords {
+            resistances: Vec::new(),
+            ratings: Vec::new(),
+        };
+        for &v in &values[..values.len() / 2] {
+            learn(&mut words.resistances, v, Q::Resistance);
+            learn(&mut words.ratings, v, Q::Power);
+        }
+        assert_eq!(words.resistances.len(), PartWords::MOST);
+        for &v in &values {
+            assert_eq!(
+                words.resistance(v),
+                format_engineering(v, Q::Resistance),
+                "{v:?}"
+            );
+            assert_eq!(words.rating(v), format_engineering(v, Q::Power), "{v:?}");
         }
     }
 
