@@ -876,9 +876,10 @@ mod tests {
         // Figures, units and words with single and double spaces, spaces
         // at the ends, quotes and backslashes, non-ASCII and controls, at
         // lengths around the long-run limit.
-        let pool: Vec<char> = "0123456789.%+-kWVmA –−±Ωµ°\\\"#[]()_*'~\t\n\u{A0}\u{2009}“\u{7}\u{4E2D}\u{FE0F}"
-            .chars()
-            .collect();
+        let pool: Vec<char> =
+            "0123456789.%+-kWVmA –−±Ωµ°\\\"#[]()_*'~\t\n\u{A0}\u{2009}“\u{7}\u{4E2D}\u{FE0F}"
+                .chars()
+                .collect();
         let mut next = crate::test_random::xorshift(0x6a09_e667_f3bc_c908u64);
         let (mut plain, mut other) = (0, 0);
         for i in 0..60_000 {
@@ -903,20 +904,51 @@ mod tests {
                 other += 1;
                 assert_eq!(out, "before ", "{text:?} left output behind");
             }
-            assert_eq!(escape_content(&text), escape_content_full(&text), "{text:?}");
+            assert_eq!(
+                escape_content(&text),
+                escape_content_full(&text),
+                "{text:?}"
+            );
         }
-        assert!(plain > 10_000 && other > 10_000, "{plain} plain, {other} other");
+        assert!(
+            plain > 10_000 && other > 10_000,
+            "{plain} plain, {other} other"
+        );
         // The figures' characters past ASCII are ones the one pass copies.
         for c in FIGURE_CHARS {
             assert!(!c.is_ascii() && !c.is_whitespace() && !c.is_control() && !is_variant_mark(c));
-            assert_eq!(figure_char_drawn(c), super::super::fonts::can_draw(c), "{c:?}");
+            assert_eq!(
+                figure_char_drawn(c),
+                super::super::fonts::can_draw(c),
+                "{c:?}"
+            );
         }
-        for text in ["473", "0.44 W", "+2.9 %", "B+1 to B+2", "a", "x.y", "1 kΩ", "–", "±10 %"] {
+        for text in [
+            "473",
+            "0.44 W",
+            "+2.9 %",
+            "B+1 to B+2",
+            "a",
+            "x.y",
+            "1 kΩ",
+            "–",
+            "±10 %",
+        ] {
             let mut out = String::new();
             assert!(plain_cell_into(text, &mut out), "{text:?}");
             assert_eq!(out, format!("\"{text}\""));
         }
-        for text in ["", " 1", "1 ", "1  2", "say \"x\"", "a\\b", "6.3\u{A0}V", "“x”", "1\u{2009}2"] {
+        for text in [
+            "",
+            " 1",
+            "1 ",
+            "1  2",
+            "say \"x\"",
+            "a\\b",
+            "6.3\u{A0}V",
+            "“x”",
+            "1\u{2009}2",
+        ] {
             assert!(!plain_cell_into(text, &mut String::new()), "{text:?}");
         }
     }

@@ -1664,9 +1664,7 @@ fn window_row(v: &ValveFindings, cat: &Catalogue) -> Option<WindowRow> {
         readings.push(WindowReading {
             range: fixed_range(a, b, 2, "V"),
             across,
-            now: w
-                .primary_drop_now_volts
-                .map(|d| fixed_unit(d, 2, "V")),
+            now: w.primary_drop_now_volts.map(|d| fixed_unit(d, 2, "V")),
         });
     }
     if readings.is_empty()
@@ -2299,7 +2297,11 @@ mod tests {
         let mut values = vec![0.0, -0.0, 1.0, 1000.0, 10e3, 4.7e3, 0.5, 2.0, f64::NAN];
         for k in -3..7 {
             let p = 10f64.powi(k);
-            values.extend([p, f64::from_bits(p.to_bits() + 1), f64::from_bits(p.to_bits() - 1)]);
+            values.extend([
+                p,
+                f64::from_bits(p.to_bits() + 1),
+                f64::from_bits(p.to_bits() - 1),
+            ]);
             values.extend([2.2 * p, 4.7 * p, 6.8 * p, 9.995 * p]);
         }
         let mut words = PartWords {
