@@ -332,11 +332,106 @@ pub fn escape_content(text: &str) -> String {
 
 /// [`escape_content`], appended to `out`.
 pub fn escape_content_into(text: &str, out: &mut String) {
+    if plain_cell_into(text, out) {
+        return;
+    }
     let start = out.len();
     if !content_as_string_into(text, out) {
         out.truncate(start);
         out.push_str(&escape_content_full(text));
     }
+}
+
+/// The commonest case of [`escape_content`], tested before any other: a
+/// short cell of ASCII letters, digits, punctuation other than `\` and
+/// `"`, single spaces inside and the few characters past ASCII that
+/// figures and units use ([`FIGURE_CHARS`], where the fonts draw them): a
+/// figure such as `473`, `0.44 W`, `+2.9 %`, `1 kΩ`, `26.8–37.6 mA`. Such
+/// a text reads the same as a string literal and needs no escape, so it
+/// is written between quotes as it is, as [`content_as_string_into`]
+/// would write it: it holds no character that changes or sends the text
+/// to the full path, and, shorter than [`LONG_RUN`] bytes, no long run.
+/// Returns false, with `out` untouched, for any other text.
+///
+/// A long job prints some 180,000 table cells, nearly all of them such
+/// figures; a byte here is a single table look-up and comparison, and a
+/// figure's character past ASCII one comparison with a short list, where
+/// the general pass sorted every byte into five kinds and looked every
+/// character past ASCII up in the Unicode and font tables.
+fn plain_cell_into(text: &str, out: &mut String) -> bool {
+    let bytes = text.as_bytes();
+    let (Some(&first), Some(&last)) = (bytes.first(), bytes.last()) else {
+        return false;
+    };
+    if bytes.len() >= LONG_RUN || first == b' ' || last == b' ' {
+        return false;
+    }
+    let plain = plain_in_cell();
+    // Every character plain, and no space right after a space (a space is
+    // never first or last).
+    let mut after_space = false;
+    let mut i = 0;
+    while i < bytes.len() {
+        let b = bytes[i];
+        if b.is_ascii() {
+            if !plain[usize::from(b)] {
+                return false;
+            }
+            let space = b == b' ';
+            if space && after_space {
+                return false;
+            }
+            after_space = space;
+            i += 1;
+        } else {
+            // A byte past ASCII at `i` starts a character.
+            let Some(c) = text[i..].chars().next() else {
+                return false;
+            };
+            if !figure_char_drawn(c) {
+                return false;
+            }
+            after_space = false;
+            i += c.len_utf8();
+        }
+    }
+    out.reserve(bytes.len() + 2);
+    out.push('"');
+    out.push_str(text);
+    out.push('"');
+    true
+}
+
+/// Which ASCII bytes [`plain_cell_into`] takes: the letters, digits and
+/// punctuation of [`ascii_class`]'s `PLAIN` and `PUNCT` (the ones the
+/// fonts draw, `\` and `"` left out) and the space.
+fn plain_in_cell() -> &'static [bool; 128] {
+    static PLAIN_IN_CELL: std::sync::LazyLock<[bool; 128]> = std::sync::LazyLock::new(|| {
+        let class = ascii_class();
+        let mut plain = [false; 128];
+        for (b, kind) in class.iter().enumerate() {
+            plain[b] = matches!(*kind, PLAIN | PUNCT | SPACE);
+        }
+        plain
+    });
+    &PLAIN_IN_CELL
+}
+
+/// The characters past ASCII that the tables' figures and units use (the
+/// dash of a range, the minus sign, ±, Ω, µ, °). None is white space, a
+/// control or a variant mark, so where the fonts draw one the one-pass
+/// escaper copies it as it is.
+const FIGURE_CHARS: [char; 6] = ['–', '\u{2212}', '±', 'Ω', 'µ', '°'];
+
+/// Whether `c` is one of [`FIGURE_CHARS`] and the fonts draw it (asked
+/// of the fonts once).
+fn figure_char_drawn(c: char) -> bool {
+    static DRAWN: std::sync::LazyLock<[bool; FIGURE_CHARS.len()]> =
+        std::sync::LazyLock::new(|| FIGURE_CHARS.map(super::fonts::can_draw));
+    FIGURE_CHARS
+        .iter()
+        .position(|&f| f == c)
+        .is_some_and(|k| DRAWN[k])
 }
 
 /// The common case of [`escape_content`] in one pass: text that
@@ -774,5 +869,87 @@ mod tests {
             assert_eq!(appended, format!("before {full}"), "{text:?}");
         }
         assert!(fast > 3_000, "one pass taken {fast} times");
+    }
+
+    #[test]
+    fn a_plain_cell_is_written_as_the_one_pass_writes_it() {
+        // Figures, units and words with single and double spaces, spaces
+        // at the ends, quotes and backslashes, non-ASCII and controls, at
+        // lengths around the long-run limit.
+        let pool: Vec<char> =
+            "0123456789.%+-kWVmA –−±Ωµ°\\\"#[]()_*'~\t\n\u{A0}\u{2009}“\u{7}\u{4E2D}\u{FE0F}"
+                .chars()
+                .collect();
+        let mut next = crate::test_random::xorshift(0x6a09_e667_f3bc_c908u64);
+        let (mut plain, mut other) = (0, 0);
+        for i in 0..60_000 {
+            let len = match i % 4 {
+                0 => LONG_RUN - 2 + (next() % 4) as usize,
+                _ => (next() % 12) as usize,
+            };
+            // Most texts from the figures' characters and the space.
+            let narrow = i % 3 != 0;
+            let text: String = (0..len)
+                .map(|_| {
+                    let k = (next() % pool.len() as u64) as usize;
+                    if narrow { pool[k % 26] } else { pool[k] }
+                })
+                .collect();
+            let mut out = String::from("before ");
+            if plain_cell_into(&text, &mut out) {
+                plain += 1;
+                let one_pass = content_as_string(&text).expect("the one pass takes it");
+                assert_eq!(out, format!("before {one_pass}"), "{text:?}");
+            } else {
+                other += 1;
+                assert_eq!(out, "before ", "{text:?} left output behind");
+            }
+            assert_eq!(
+                escape_content(&text),
+                escape_content_full(&text),
+                "{text:?}"
+            );
+        }
+        assert!(
+            plain > 10_000 && other > 10_000,
+            "{plain} plain, {other} other"
+        );
+        // The figures' characters past ASCII are ones the one pass copies.
+        for c in FIGURE_CHARS {
+            assert!(!c.is_ascii() && !c.is_whitespace() && !c.is_control() && !is_variant_mark(c));
+            assert_eq!(
+                figure_char_drawn(c),
+                super::super::fonts::can_draw(c),
+                "{c:?}"
+            );
+        }
+        for text in [
+            "473",
+            "0.44 W",
+            "+2.9 %",
+            "B+1 to B+2",
+            "a",
+            "x.y",
+            "1 kΩ",
+            "–",
+            "±10 %",
+        ] {
+            let mut out = String::new();
+            assert!(plain_cell_into(text, &mut out), "{text:?}");
+            assert_eq!(out, format!("\"{text}\""));
+        }
+        for text in [
+            "",
+            " 1",
+            "1 ",
+            "1  2",
+            "say \"x\"",
+            "a\\b",
+            "6.3\u{A0}V",
+            "“x”",
+            "1\u{2009}2",
+        ] {
+            assert!(!plain_cell_into(text, &mut String::new()), "{text:?}");
+        }
     }
 }

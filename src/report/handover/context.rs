@@ -34,7 +34,7 @@ use crate::report::photos::PhotoRow;
 use crate::report::summary::Summary;
 
 mod network_view;
-use crate::units::{QuantityKind as Q, format_engineering, format_fixed, format_sig};
+use crate::units::{QuantityKind as Q, format_engineering, format_sig, write_fixed};
 pub use network_view::{
     NetworkRow, NetworkView, OscillatorRow, OscillatorView, network_plot_path, network_view,
 };
@@ -708,11 +708,11 @@ pub fn date_words(d: NaiveDate) -> String {
 }
 
 /// A number with a typographic minus sign.
-fn minus(s: String) -> String {
-    match s.strip_prefix('-') {
-        Some(rest) => format!("\u{2212}{rest}"),
-        None => s,
+fn minus(mut s: String) -> String {
+    if s.starts_with('-') {
+        s.replace_range(..1, "\u{2212}");
     }
+    s
 }
 
 /// Three significant figures, no unit: volts in tables.
@@ -720,8 +720,123 @@ fn sig3(v: f64) -> String {
     minus(format_sig(v, 3))
 }
 
+/// `v` to `decimals` decimals with a typographic minus sign,
+/// `minus(format_fixed(v, decimals))`.
 fn fixed(v: f64, decimals: usize) -> String {
-    minus(format_fixed(v, decimals))
+    let mut out = String::with_capacity(12);
+    push_fixed(&mut out, v, decimals);
+    out
+}
+
+/// [`fixed`] appended to `out`, so that a cell of several figures and
+/// words ("26.8–37.6 mA") is written into one string, without a string
+/// of its own for each figure and `format!` to join them: the same text
+/// as `minus(format_fixed(v, decimals))` (a test holds the two equal).
+fn push_fixed(out: &mut String, v: f64, decimals: usize) {
+    if !v.is_finite() {
+        out.push('–');
+        return;
+    }
+    if let Some(n) = scaled_figure(v, decimals) {
+        // A negative value that rounds to zero prints as zero.
+        if n > 0 && v.is_sign_negative() {
+            out.push('\u{2212}');
+        }
+        push_decimal(out, n, decimals);
+        return;
+    }
+    let start = out.len();
+    write_fixed(out, v, decimals, false);
+    if out[start..].starts_with('-') {
+        if out[start + 1..].bytes().all(|b| b == b'0' || b == b'.') {
+            // A negative value that rounds to zero prints as zero.
+            out.remove(start);
+        } else {
+            out.replace_range(start..start + 1, "\u{2212}");
+        }
+    }
+}
+
+/// The size of `v` to `decimals` decimals (0 to 3) as a whole number n,
+/// |v| ≈ n ÷ 10^decimals, found by the same arithmetic as the fast path
+/// of [`write_fixed`], where that path takes `v`: a finite value below
+/// 10^9 once scaled whose fraction is not within 10^-6 of one half. For
+/// any other value `None`, and the figure is written by `write_fixed`.
+///
+/// The tables' figures are some 80,000 on a 1,000-set job; `write_fixed`
+/// wrote each through `itoa` and three pieces, after its own scaling
+/// (the floor a library call on this target), at about 200 instructions
+/// a figure, where the few digits of a table's figure take a fraction of
+/// that written here. `figures_written_in_place_are_the_formatted_ones`
+/// holds the two to each other.
+fn scaled_figure(v: f64, decimals: usize) -> Option<u64> {
+    const SCALE: [f64; 4] = [1.0, 10.0, 100.0, 1e3];
+    let scaled = v.abs() * SCALE.get(decimals)?;
+    if !scaled.is_finite() || scaled >= 1e9 {
+        return None;
+    }
+    // The floor of a value from 0 to 10^9, exactly (through i64, which
+    // the processor converts in one step).
+    let whole = scaled as i64;
+    let fraction = scaled - whole as f64;
+    ((fraction - 0.5).abs() > 1e-6).then(|| whole.unsigned_abs() + u64::from(fraction > 0.5))
+}
+
+/// `n` ÷ 10^`decimals` with exactly `decimals` decimals ("12.34" for
+/// 1234 and 2, "0.05" for 5 and 2), for `n` below 10^10 and `decimals`
+/// at most 3, as `write_fixed` writes the digits.
+fn push_decimal(out: &mut String, n: u64, decimals: usize) {
+    // Ten digits, the point and no more than three zeros before them.
+    let mut digits = [0u8; 16];
+    let mut at = digits.len();
+    let mut rest = n;
+    let mut written = 0;
+    loop {
+        if written == decimals && decimals > 0 {
+            at -= 1;
+            digits[at] = b'.';
+        }
+        at -= 1;
+        digits[at] = b'0' + (rest % 10) as u8;
+        rest /= 10;
+        written += 1;
+        if rest == 0 && written > decimals {
+            break;
+        }
+    }
+    let digits = &digits[at..];
+    out.reserve(digits.len());
+    for &b in digits {
+        out.push(char::from(b));
+    }
+}
+
+/// [`fixed`] and a unit after a space: "40.8 mA".
+fn fixed_unit(v: f64, decimals: usize, unit: &str) -> String {
+    let mut out = String::with_capacity(12 + unit.len());
+    push_fixed(&mut out, v, decimals);
+    out.push(' ');
+    out.push_str(unit);
+    out
+}
+
+/// Two figures of [`fixed`] joined by a dash, and a unit after a space:
+/// "26.8–37.6 mA", "50–70 %".
+fn fixed_range(a: f64, b: f64, decimals: usize, unit: &str) -> String {
+    let mut out = String::with_capacity(24 + unit.len());
+    push_fixed(&mut out, a, decimals);
+    out.push('–');
+    push_fixed(&mut out, b, decimals);
+    out.push(' ');
+    out.push_str(unit);
+    out
+}
+
+/// [`format_sig`] to three figures, then `words` after it: "100 µF".
+fn sig3_then(v: f64, words: &str) -> String {
+    let mut out = format_sig(v, 3);
+    out.push_str(words);
+    out
 }
 
 /// A whole-number percentage without the sign: "121".
@@ -731,14 +846,15 @@ pub(crate) fn pct0(v: f64) -> String {
 
 /// A signed percentage to 0.1: "+1.2 %", "−2.9 %".
 fn signed_pct(v: f64) -> String {
-    let s = format_fixed(v.abs(), 1);
-    if s.chars().all(|c| c == '0' || c == '.') {
-        format!("{s} %")
-    } else if v < 0.0 {
-        format!("\u{2212}{s} %")
-    } else {
-        format!("+{s} %")
+    let mut out = String::with_capacity(14);
+    // The size to 0.1, as `format_fixed(v.abs(), 1)` writes it (never
+    // with a minus: `abs` clears the sign).
+    push_fixed(&mut out, v.abs(), 1);
+    if !out.bytes().all(|b| b == b'0' || b == b'.') {
+        out.insert_str(0, if v < 0.0 { "\u{2212}" } else { "+" });
     }
+    out.push_str(" %");
+    out
 }
 
 pub(crate) fn volts(v: f64) -> String {
@@ -937,6 +1053,7 @@ pub fn build_context(
         high_line: volts(m.high_line_volts),
         design: m.design_volts.map(volts),
     };
+    let part_words = PartWords::of(findings);
     let one_set = |(i, set): (usize, &SetFindings)| {
         // The sets with a warm-up chart, listed in set order.
         let plot = inputs
@@ -944,7 +1061,7 @@ pub fn build_context(
             .binary_search(&i)
             .is_ok()
             .then(|| warm_up_plot(i));
-        set_context(findings, set, plot, cat)
+        set_context(findings, set, plot, &part_words, cat)
     };
     // Each set's context depends on the findings alone: a long job's are
     // made on every core (in the order of the sets, as before); a short
@@ -1219,6 +1336,7 @@ fn set_context(
     findings: &Findings,
     set: &SetFindings,
     warm_up_plot: Option<String>,
+    part_words: &PartWords,
     cat: &Catalogue,
 ) -> SetContext {
     let nominal = findings.mains.nominal_volts;
@@ -1245,16 +1363,16 @@ fn set_context(
     let resistors = set
         .droppers
         .iter()
-        .map(|r| resistor_row(r, &kind("doc-kind-dropper")))
+        .map(|r| resistor_row(r, &kind("doc-kind-dropper"), part_words))
         .chain(
             set.cathode_resistors
                 .iter()
-                .map(|r| resistor_row(r, &kind("doc-kind-cathode-resistor"))),
+                .map(|r| resistor_row(r, &kind("doc-kind-cathode-resistor"), part_words)),
         )
         .chain(
             set.screen_resistors
                 .iter()
-                .map(|r| resistor_row(r, &kind("doc-kind-screen-resistor"))),
+                .map(|r| resistor_row(r, &kind("doc-kind-screen-resistor"), part_words)),
         )
         .collect();
     let mut valves: Vec<ValveRow> = set.valves.iter().map(valve_row).collect();
@@ -1445,7 +1563,13 @@ fn node_row(n: &NodeFindings) -> NodeRow {
         corrected: sig3(n.corrected_volts),
         expected: n.expected_volts.map(sig3),
         deviation: n.deviation_pct.map(signed_pct),
-        tolerance: format!("±{} %", format_sig(n.tolerance_pct, 3)),
+        tolerance: {
+            let mut band = String::with_capacity(16);
+            band.push('±');
+            band.push_str(&format_sig(n.tolerance_pct, 3));
+            band.push_str(" %");
+            band
+        },
         status: attention::state(&n.verdict).to_string(),
         why: why(&n.verdict),
         reason: Sentence::new(&n.verdict.reason),
@@ -1497,9 +1621,6 @@ fn valve_row(v: &ValveFindings) -> ValveRow {
 
 fn window_row(v: &ValveFindings, cat: &Catalogue) -> Option<WindowRow> {
     let w = v.target_window.as_ref()?;
-    let range = |a: f64, b: f64, decimals: usize, unit: &str| {
-        format!("{}–{} {unit}", fixed(a, decimals), fixed(b, decimals))
-    };
     let mut readings = Vec::new();
     if let (Some(a), Some(b)) = (w.sense_low_mv, w.sense_high_mv) {
         let across = match (w.sense_resistor_ohms, &w.sense_resistor_reference) {
@@ -1517,9 +1638,9 @@ fn window_row(v: &ValveFindings, cat: &Catalogue) -> Option<WindowRow> {
             _ => cat.text("doc-across-sense"),
         };
         readings.push(WindowReading {
-            range: range(a, b, 1, "mV"),
+            range: fixed_range(a, b, 1, "mV"),
             across,
-            now: w.sense_now_mv.map(|mv| format!("{} mV", fixed(mv, 1))),
+            now: w.sense_now_mv.map(|mv| fixed_unit(mv, 1, "mV")),
         });
     }
     if let (Some(a), Some(b)) = (w.primary_drop_low_volts, w.primary_drop_high_volts) {
@@ -1541,19 +1662,17 @@ fn window_row(v: &ValveFindings, cat: &Catalogue) -> Option<WindowRow> {
             None => cat.text("doc-across-primary"),
         };
         readings.push(WindowReading {
-            range: range(a, b, 2, "V"),
+            range: fixed_range(a, b, 2, "V"),
             across,
-            now: w
-                .primary_drop_now_volts
-                .map(|d| format!("{} V", fixed(d, 2))),
+            now: w.primary_drop_now_volts.map(|d| fixed_unit(d, 2, "V")),
         });
     }
     if readings.is_empty()
         && let (Some(a), Some(b)) = (w.probe_low_ma, w.probe_high_ma)
     {
-        let now = v.cathode_current_ma.map(|i| format!("{} mA", fixed(i, 1)));
+        let now = v.cathode_current_ma.map(|i| fixed_unit(i, 1, "mA"));
         readings.push(WindowReading {
-            range: range(a, b, 1, "mA"),
+            range: fixed_range(a, b, 1, "mA"),
             across: cat.text("doc-across-probe"),
             now,
         });
@@ -1562,9 +1681,9 @@ fn window_row(v: &ValveFindings, cat: &Catalogue) -> Option<WindowRow> {
     let grid_unknown = w.grid_for_middle_unknown_reason.clone();
     Some(WindowRow {
         position: v.position.clone(),
-        aim: format!("{}–{} %", pct0(w.low_pct), pct0(w.high_pct)),
-        plate_current: range(w.plate_current_low_ma, w.plate_current_high_ma, 1, "mA"),
-        plate_current_now: v.plate_current_ma.map(|i| format!("{} mA", fixed(i, 1))),
+        aim: fixed_range(w.low_pct, w.high_pct, 0, "%"),
+        plate_current: fixed_range(w.plate_current_low_ma, w.plate_current_high_ma, 1, "mA"),
+        plate_current_now: v.plate_current_ma.map(|i| fixed_unit(i, 1, "mA")),
         readings,
         place: cat
             .try_format(&format!("doc-window-{}", w.place), &[])
@@ -1588,13 +1707,83 @@ fn grid_note(middle: &Option<String>, unknown: &Option<String>, cat: &Catalogue)
     }
 }
 
-fn resistor_row(r: &ResistorFindings, kind: &str) -> ResistorRow {
+/// The words of a resistor's value and power rating, the circuit's
+/// figures rather than the readings': a job's sets repeat them (a
+/// 1,000-set job names the same few values 7,000 times), so each
+/// distinct one is written once for the job, before the sets' contexts
+/// are made, and copied from here. Written anew they cost some 550
+/// instructions each, twice that for a power of ten such as "1 kΩ",
+/// which `format_engineering` takes through its slower steps.
+///
+/// A figure is found by its bits, so a copy is the text
+/// `format_engineering` gives for that very value; a value not here (a
+/// job of more distinct values than [`PartWords::MOST`]) is written as
+/// before.
+struct PartWords {
+    resistances: Vec<(u64, String)>,
+    ratings: Vec<(u64, String)>,
+}
+
+impl PartWords {
+    /// The most distinct values of each kind kept: enough for any real
+    /// circuit, and few enough that a look-up is a short scan.
+    const MOST: usize = 32;
+
+    fn of(findings: &Findings) -> Self {
+        let mut words = PartWords {
+            resistances: Vec::new(),
+            ratings: Vec::new(),
+        };
+        let resistors = findings.sets.iter().flat_map(|set| {
+            set.droppers
+                .iter()
+                .chain(&set.cathode_resistors)
+                .chain(&set.screen_resistors)
+        });
+        for r in resistors {
+            learn(&mut words.resistances, r.resistance_ohms, Q::Resistance);
+            if let Some(w) = r.rating_w {
+                learn(&mut words.ratings, w, Q::Power);
+            }
+        }
+        words
+    }
+
+    /// `format_engineering(ohms, Q::Resistance)`.
+    fn resistance(&self, ohms: f64) -> String {
+        known(&self.resistances, ohms).unwrap_or_else(|| format_engineering(ohms, Q::Resistance))
+    }
+
+    /// `format_engineering(watts, Q::Power)`.
+    fn rating(&self, watts: f64) -> String {
+        known(&self.ratings, watts).unwrap_or_else(|| format_engineering(watts, Q::Power))
+    }
+}
+
+/// Adds `value`'s words to `list` when they are not there and there is
+/// room.
+fn learn(list: &mut Vec<(u64, String)>, value: f64, kind: Q) {
+    let bits = value.to_bits();
+    if list.len() < PartWords::MOST && !list.iter().any(|(b, _)| *b == bits) {
+        list.push((bits, format_engineering(value, kind)));
+    }
+}
+
+/// A copy of `value`'s words in `list`, if they are there.
+fn known(list: &[(u64, String)], value: f64) -> Option<String> {
+    let bits = value.to_bits();
+    list.iter()
+        .find(|(b, _)| *b == bits)
+        .map(|(_, words)| words.clone())
+}
+
+fn resistor_row(r: &ResistorFindings, kind: &str, part_words: &PartWords) -> ResistorRow {
     ResistorRow {
         reference: r.reference.clone(),
         kind: kind.to_string(),
         place: r.place.clone(),
-        resistance: format_engineering(r.resistance_ohms, Q::Resistance),
-        rating: r.rating_w.map(|w| format_engineering(w, Q::Power)),
+        resistance: part_words.resistance(r.resistance_ohms),
+        rating: r.rating_w.map(|w| part_words.rating(w)),
         voltage: volts(r.voltage_volts),
         power: resistor_power_words(r.power_w),
         power_pct: r.power_pct.map(pct0),
@@ -1610,13 +1799,13 @@ fn capacitor_row(c: &CapacitorFindings) -> CapacitorRow {
     CapacitorRow {
         reference: c.reference.clone(),
         node: c.node.clone(),
-        capacitance: c.capacitance_uf.map(|u| format!("{} µF", format_sig(u, 3))),
+        capacitance: c.capacitance_uf.map(|u| sig3_then(u, " µF")),
         rating: sig3(c.rating_volts),
         measured: c.measured_volts.map(sig3),
         high_line: c.high_line_volts.map(sig3),
         cold_start: c.cold_start_peak_volts.map(sig3),
         highest: sig3(c.highest_volts),
-        margin: format!("{} %", fixed(c.margin_pct, 1)),
+        margin: fixed_unit(c.margin_pct, 1, "%"),
         status: attention::state(&c.verdict).to_string(),
         why: why(&c.verdict),
         reason: Sentence::new(&c.verdict.reason),
@@ -1641,7 +1830,7 @@ fn rectifier_row(r: &RectifierFindings, set: &SetFindings, cat: &Catalogue) -> R
                 &[("valves", Arg::from(outputs.join(", ")))],
             )
         },
-        load: format!("{} mA", fixed(r.load_at_least_ma, 1)),
+        load: fixed_unit(r.load_at_least_ma, 1, "mA"),
         rating: format!("{} mA", format_sig(r.rating_ma, 3)),
         load_pct: pct0(r.load_pct),
         status: attention::state(&r.verdict).to_string(),
@@ -1695,7 +1884,7 @@ fn heater_row(h: &HeaterFindings, cat: &Catalogue) -> HeaterRow {
 
 /// Heater volts need three figures even below 10 V ("6.29 V").
 fn format_engineering_3(v: f64) -> String {
-    format!("{} V", format_sig(v, 3))
+    sig3_then(v, " V")
 }
 
 fn plots(findings: &Findings, inputs: &ContextInputs<'_>) -> Plots {
@@ -1909,6 +2098,7 @@ fn method(
 #[cfg(test)]
 mod tests {
     use super::*;
+    use crate::units::format_fixed;
 
     #[test]
     fn a_reason_counts_the_characters_of_its_sentence() {
@@ -2011,6 +2201,126 @@ mod tests {
         }
         assert_eq!(glue_units("349 V at 12 mA."), "349\u{a0}V at 12\u{a0}mA.");
         assert_eq!(typographic_minus("(-3 V) x-1 -a"), "(\u{2212}3 V) x-1 -a");
+    }
+
+    #[test]
+    fn figures_written_in_place_are_the_formatted_ones() {
+        // Values at and around every rounding edge of 0 to 3 decimals,
+        // negative ones that round to zero, large, tiny and not finite.
+        let mut values = vec![
+            0.0,
+            -0.0,
+            0.05,
+            -0.05,
+            -0.049,
+            -0.0004,
+            0.5,
+            -0.5,
+            1.5,
+            2.5,
+            -2.5,
+            9.995,
+            -9.995,
+            1e12,
+            -1e12,
+            1e20,
+            -3.7e-9,
+            999_999_999.4,
+            999_999_999.6,
+            -99_999_999.96,
+            0.0005,
+            0.0015,
+            0.00049999,
+            1e9,
+            4.35,
+            -4.35,
+            1.005,
+            f64::NAN,
+            f64::INFINITY,
+            f64::NEG_INFINITY,
+            f64::MAX,
+            f64::MIN_POSITIVE,
+        ];
+        let mut next = crate::test_random::xorshift(0x3c6e_f372_fe94_f82bu64);
+        for _ in 0..100_000 {
+            let scale = [1.0, 10.0, 100.0, 1000.0, 1e6][(next() % 5) as usize];
+            let raw = (next() % 2_000_001) as f64 / 1000.0 - 1000.0;
+            values.push(raw * scale / 100.0);
+            // Exact halves at the last decimal kept.
+            values.push(((next() % 20_001) as f64 - 10_000.0) / 200.0);
+        }
+        // How often the digits are written here rather than by `write_fixed`.
+        let mut in_place = 0;
+        for &v in &values {
+            for decimals in 0..6 {
+                in_place += usize::from(v.is_finite() && scaled_figure(v, decimals).is_some());
+                let old = match format_fixed(v, decimals).strip_prefix('-') {
+                    Some(rest) => format!("\u{2212}{rest}"),
+                    None => format_fixed(v, decimals),
+                };
+                assert_eq!(fixed(v, decimals), old, "{v:?} to {decimals}");
+                assert_eq!(
+                    fixed_unit(v, decimals, "mA"),
+                    format!("{old} mA"),
+                    "{v:?} to {decimals}"
+                );
+                assert_eq!(
+                    fixed_range(v, -v, decimals, "%"),
+                    format!("{old}–{} %", fixed(-v, decimals)),
+                    "{v:?} to {decimals}"
+                );
+            }
+            let s = format_fixed(v.abs(), 1);
+            let old = if s.chars().all(|c| c == '0' || c == '.') {
+                format!("{s} %")
+            } else if v < 0.0 {
+                format!("\u{2212}{s} %")
+            } else {
+                format!("+{s} %")
+            };
+            assert_eq!(signed_pct(v), old, "{v:?}");
+            assert_eq!(sig3_then(v, " µF"), format!("{} µF", format_sig(v, 3)));
+            let old = match format_sig(v, 3).strip_prefix('-') {
+                Some(rest) => format!("\u{2212}{rest}"),
+                None => format_sig(v, 3),
+            };
+            assert_eq!(sig3(v), old, "{v:?}");
+        }
+        assert!(in_place > 500_000, "{in_place} figures written in place");
+    }
+
+    #[test]
+    fn a_parts_words_are_the_formatted_ones() {
+        // Values of every kind of decade, powers of ten, their neighbours
+        // by one bit, zero and its negative, more distinct values than
+        // are kept, and values not seen when the words were made.
+        let mut values = vec![0.0, -0.0, 1.0, 1000.0, 10e3, 4.7e3, 0.5, 2.0, f64::NAN];
+        for k in -3..7 {
+            let p = 10f64.powi(k);
+            values.extend([
+                p,
+                f64::from_bits(p.to_bits() + 1),
+                f64::from_bits(p.to_bits() - 1),
+            ]);
+            values.extend([2.2 * p, 4.7 * p, 6.8 * p, 9.995 * p]);
+        }
+        let mut words = PartWords {
+            resistances: Vec::new(),
+            ratings: Vec::new(),
+        };
+        for &v in &values[..values.len() / 2] {
+            learn(&mut words.resistances, v, Q::Resistance);
+            learn(&mut words.ratings, v, Q::Power);
+        }
+        assert_eq!(words.resistances.len(), PartWords::MOST);
+        for &v in &values {
+            assert_eq!(
+                words.resistance(v),
+                format_engineering(v, Q::Resistance),
+                "{v:?}"
+            );
+            assert_eq!(words.rating(v), format_engineering(v, Q::Power), "{v:?}");
+        }
     }
 
     #[test]
