@@ -2074,15 +2074,19 @@ mod tests {
         String::from_utf8(out.stdout).unwrap()
     }
 
+    /// The job's measurement sets.
+    fn set_nodes<'t>(tree: &'t crate::kdl_fast::Tree<'_>) -> Vec<Node<'t>> {
+        tree.doc()
+            .nodes()
+            .filter(|n| n.name().value() == "measurements")
+            .collect()
+    }
+
     #[test]
     fn sets_decoded_apart_are_the_sets_decoded_one_after_another() {
         let text = generated(40);
         let tree = crate::kdl_fast::parse_tree(&text).unwrap();
-        let nodes: Vec<Node<'_>> = tree
-            .doc()
-            .nodes()
-            .filter(|n| n.name().value() == "measurements")
-            .collect();
+        let nodes = set_nodes(&tree);
         assert_eq!(nodes.len(), 40);
         let apart = decode_sets_apart(&nodes, &text).expect("a clean job's sets are decoded apart");
         let mut r = Reader::new(&text);
@@ -2103,11 +2107,6 @@ mod tests {
         );
         assert_ne!(broken, text);
         let tree = crate::kdl_fast::parse_tree(&broken).unwrap();
-        let nodes: Vec<Node<'_>> = tree
-            .doc()
-            .nodes()
-            .filter(|n| n.name().value() == "measurements")
-            .collect();
-        assert!(decode_sets_apart(&nodes, &broken).is_none());
+        assert!(decode_sets_apart(&set_nodes(&tree), &broken).is_none());
     }
 }
