@@ -513,10 +513,16 @@ pub(crate) fn fill_template(
     templates: &TemplateSource,
     room: usize,
 ) -> Result<String, HandoverError> {
-    let from_override = templates
-        .override_dir
-        .as_ref()
-        .is_some_and(|d| d.join(name).is_file());
+    // The shop's when its folder holds the template or any template the
+    // document is filled from (a part such as handover-set.typ alone is
+    // the shop's too, and a failure there is no fault of the program).
+    let from_override = templates.override_dir.as_ref().is_some_and(|d| {
+        d.join(name).is_file()
+            || templates
+                .embedded
+                .iter()
+                .any(|(built_in, _)| d.join(built_in).is_file())
+    });
     let env = template_environment(templates.clone());
     let fail = |e: minijinja::Error| HandoverError::Template {
         name: name.to_string(),
@@ -1142,9 +1148,15 @@ mod tests {
         )
         .unwrap();
         match build(&input, &source) {
-            Err(HandoverError::Template { detail, .. }) => {
+            Err(HandoverError::Template {
+                detail,
+                from_override,
+                ..
+            }) => {
                 let detail = detail.english();
                 assert!(detail.contains("handover-set.typ"), "{detail}");
+                // The shop's part failed, not the program's template.
+                assert!(from_override);
             }
             other => panic!("expected a template error, got {other:?}"),
         }
