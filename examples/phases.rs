@@ -10,7 +10,9 @@
 //! each round the page faults of each phase (memory touched for the first
 //! time, which the system time pays for; later rounds reuse the memory of
 //! earlier ones, so the first round's figures are the ones a render
-//! takes). Keep a copy
+//! takes), and each phase's wall clock (on an idle machine, how long the
+//! phase keeps a render waiting while its parts run on every core). Keep a
+//! copy
 //! of the binary before a change and run both alternately to compare.
 use ampreport::report::handover::{self, HandoverInput};
 
@@ -47,6 +49,10 @@ fn process_faults() -> i64 {
 thread_local! {
     /// The page faults of each phase of the round under way, in order.
     static FAULTS: std::cell::RefCell<Vec<i64>> = const { std::cell::RefCell::new(Vec::new()) };
+    /// The wall-clock milliseconds of each phase of the round under way,
+    /// in order: on an idle machine, what the phase keeps the render
+    /// waiting while its parts run on every core.
+    static WALL: std::cell::RefCell<Vec<f64>> = const { std::cell::RefCell::new(Vec::new()) };
 }
 
 /// Processor milliseconds of one call of `f`, and its result; its page
@@ -54,9 +60,12 @@ thread_local! {
 fn cpu<T>(f: impl FnOnce() -> T) -> (f64, T) {
     let faults = process_faults();
     let start = process_cpu();
+    let wall = std::time::Instant::now();
     let out = f();
     let ms = (process_cpu() - start).as_secs_f64() * 1e3;
+    let wall_ms = wall.elapsed().as_secs_f64() * 1e3;
     FAULTS.with(|v| v.borrow_mut().push(process_faults() - faults));
+    WALL.with(|v| v.borrow_mut().push(wall_ms));
     (ms, out)
 }
 
@@ -127,6 +136,7 @@ fn main() {
     let mut all: Vec<[f64; 8]> = Vec::new();
     for _ in 0..rounds {
         FAULTS.with(|v| v.borrow_mut().clear());
+        WALL.with(|v| v.borrow_mut().clear());
         let r = round(&path, &text);
         let line: Vec<String> = PHASES
             .iter()
@@ -142,6 +152,14 @@ fn main() {
                 .collect()
         });
         println!("page faults: {}", faults.join(", "));
+        let wall: Vec<String> = WALL.with(|v| {
+            PHASES
+                .iter()
+                .zip(v.borrow().iter())
+                .map(|(name, ms)| format!("{name} {ms:.1}"))
+                .collect()
+        });
+        println!("wall ms: {}", wall.join(", "));
         all.push(r);
     }
     if rounds > 1 {
