@@ -138,40 +138,32 @@ fn main() {
         FAULTS.with(|v| v.borrow_mut().clear());
         WALL.with(|v| v.borrow_mut().clear());
         let r = round(&path, &text);
-        let line: Vec<String> = PHASES
-            .iter()
-            .zip(r)
-            .map(|(name, ms)| format!("{name} {ms:.1}"))
-            .collect();
-        println!("processor ms: {}", line.join(", "));
-        let faults: Vec<String> = FAULTS.with(|v| {
-            PHASES
-                .iter()
-                .zip(v.borrow().iter())
-                .map(|(name, n)| format!("{name} {n}"))
-                .collect()
-        });
-        println!("page faults: {}", faults.join(", "));
-        let wall: Vec<String> = WALL.with(|v| {
-            PHASES
-                .iter()
-                .zip(v.borrow().iter())
-                .map(|(name, ms)| format!("{name} {ms:.1}"))
-                .collect()
-        });
-        println!("wall ms: {}", wall.join(", "));
+        println!(
+            "processor ms: {}",
+            named(r.iter().map(|ms| format!("{ms:.1}")))
+        );
+        let faults = FAULTS.with(|v| named(v.borrow().iter().map(i64::to_string)));
+        println!("page faults: {faults}");
+        let wall = WALL.with(|v| named(v.borrow().iter().map(|ms| format!("{ms:.1}"))));
+        println!("wall ms: {wall}");
         all.push(r);
     }
     if rounds > 1 {
-        let line: Vec<String> = PHASES
-            .iter()
-            .enumerate()
-            .map(|(i, name)| {
-                let mut v: Vec<f64> = all.iter().map(|r| r[i]).collect();
-                v.sort_by(f64::total_cmp);
-                format!("{name} {:.1}", v[v.len() / 2])
-            })
-            .collect();
-        println!("median of {rounds}: {}", line.join(", "));
+        let medians = (0..PHASES.len()).map(|i| {
+            let mut v: Vec<f64> = all.iter().map(|r| r[i]).collect();
+            v.sort_by(f64::total_cmp);
+            format!("{:.1}", v[v.len() / 2])
+        });
+        println!("median of {rounds}: {}", named(medians));
     }
+}
+
+/// Each phase's name with its figure, in order: "decode 12.5, derive …".
+fn named(figures: impl Iterator<Item = String>) -> String {
+    PHASES
+        .iter()
+        .zip(figures)
+        .map(|(name, figure)| format!("{name} {figure}"))
+        .collect::<Vec<_>>()
+        .join(", ")
 }

@@ -654,65 +654,49 @@ fn text_arguments_lent_say_what_owned_ones_say() {
         "-3",
         "1",
     ];
-    let whole_german = Catalogue::build("de", "de.ftl", GERMAN).unwrap();
     let mut said = 0;
-    for (text, catalogue) in [
-        (ENGLISH, Catalogue::english().clone()),
-        (GERMAN, Catalogue::built_in("de").unwrap()),
-        (GERMAN, whole_german),
-    ] {
-        for key in message_lines(text)
-            .keys()
-            .map(String::as_str)
-            .chain(["no-such-key"])
-        {
-            let names = if catalogue.inner.part(key).patterns.contains_key(key) {
-                argument_names(&catalogue, key)
-            } else {
-                Vec::new()
-            };
-            let mut cases: Vec<Vec<(&str, &str)>> = Vec::new();
-            for i in 0..texts.len() {
-                cases.push(
-                    names
-                        .iter()
-                        .enumerate()
-                        .map(|(j, n)| (n.as_str(), texts[(i + j) % texts.len()]))
-                        .collect(),
-                );
-            }
+    for_every_message(|catalogue, key| {
+        let names = argument_names_if_any(catalogue, key);
+        let mut cases: Vec<Vec<(&str, &str)>> = Vec::new();
+        for i in 0..texts.len() {
             cases.push(
                 names
                     .iter()
-                    .flat_map(|n| [(n.as_str(), "first"), (n.as_str(), "last")])
+                    .enumerate()
+                    .map(|(j, n)| (n.as_str(), texts[(i + j) % texts.len()]))
                     .collect(),
             );
-            cases.push(names.iter().skip(1).map(|n| (n.as_str(), "x")).collect());
-            cases.push(names.iter().rev().map(|n| (n.as_str(), "r")).collect());
-            cases.push(
-                names
-                    .iter()
-                    .map(|n| (n.as_str(), "y"))
-                    .chain([("unused", "u")])
-                    .collect(),
-            );
-            cases.push(Vec::new());
-            for args in &cases {
-                let owned: Vec<(&str, Arg)> =
-                    args.iter().map(|(n, v)| (*n, Arg::from(*v))).collect();
-                assert_eq!(
-                    catalogue.try_format_str(key, args),
-                    catalogue.try_format(key, &owned),
-                    "{key} {args:?}"
-                );
-                assert_eq!(
-                    catalogue.format_str(key, args),
-                    catalogue.format(key, &owned)
-                );
-                said += 1;
-            }
         }
-    }
+        cases.push(
+            names
+                .iter()
+                .flat_map(|n| [(n.as_str(), "first"), (n.as_str(), "last")])
+                .collect(),
+        );
+        cases.push(names.iter().skip(1).map(|n| (n.as_str(), "x")).collect());
+        cases.push(names.iter().rev().map(|n| (n.as_str(), "r")).collect());
+        cases.push(
+            names
+                .iter()
+                .map(|n| (n.as_str(), "y"))
+                .chain([("unused", "u")])
+                .collect(),
+        );
+        cases.push(Vec::new());
+        for args in &cases {
+            let owned: Vec<(&str, Arg)> = args.iter().map(|(n, v)| (*n, Arg::from(*v))).collect();
+            assert_eq!(
+                catalogue.try_format_str(key, args),
+                catalogue.try_format(key, &owned),
+                "{key} {args:?}"
+            );
+            assert_eq!(
+                catalogue.format_str(key, args),
+                catalogue.format(key, &owned)
+            );
+            said += 1;
+        }
+    });
     assert!(said > 20_000, "{said} cases");
 }
 
@@ -722,8 +706,50 @@ fn text_arguments_lent_say_what_owned_ones_say() {
 /// whole as a translation).
 #[test]
 fn a_message_looked_up_says_what_its_key_says() {
-    let whole_german = Catalogue::build("de", "de.ftl", GERMAN).unwrap();
     let mut left_out = 0;
+    for_every_message(|catalogue, key| {
+        let message = catalogue.message(key);
+        let mut names = argument_names_if_any(catalogue, key);
+        names.extend(argument_names_if_any(Catalogue::english(), key));
+        names.push("unused".to_owned());
+        let all: Vec<(&str, &str)> = names.iter().map(|n| (n.as_str(), "a b")).collect();
+        assert_eq!(
+            message.try_format_str(&all),
+            catalogue.try_format(
+                key,
+                &all.iter()
+                    .map(|(n, v)| (*n, Arg::from(*v)))
+                    .collect::<Vec<_>>()
+            ),
+            "{key}"
+        );
+        for name in &names {
+            if message.uses(name) {
+                continue;
+            }
+            assert!(
+                !argument_names_if_any(catalogue, key).contains(name),
+                "{key} uses {name}"
+            );
+            let blank: Vec<(&str, &str)> = all
+                .iter()
+                .map(|&(n, v)| (n, if n == name.as_str() { "" } else { v }))
+                .collect();
+            assert_eq!(
+                message.format_str(&blank),
+                message.format_str(&all),
+                "{key} {name}"
+            );
+            left_out += 1;
+        }
+    });
+    assert!(left_out > 1_000, "{left_out} arguments left out");
+}
+
+/// Calls `f` with each message key of both built-in catalogues (and German
+/// read whole as a translation), and a key none of them has.
+fn for_every_message(mut f: impl FnMut(&Catalogue, &str)) {
+    let whole_german = Catalogue::build("de", "de.ftl", GERMAN).unwrap();
     for (text, catalogue) in [
         (ENGLISH, Catalogue::english().clone()),
         (GERMAN, Catalogue::built_in("de").unwrap()),
@@ -734,54 +760,9 @@ fn a_message_looked_up_says_what_its_key_says() {
             .map(String::as_str)
             .chain(["no-such-key"])
         {
-            let message = catalogue.message(key);
-            let mut names = if catalogue.inner.part(key).patterns.contains_key(key) {
-                argument_names(&catalogue, key)
-            } else {
-                Vec::new()
-            };
-            if Catalogue::english()
-                .inner
-                .part(key)
-                .patterns
-                .contains_key(key)
-            {
-                names.extend(argument_names(Catalogue::english(), key));
-            }
-            names.push("unused".to_owned());
-            let all: Vec<(&str, &str)> = names.iter().map(|n| (n.as_str(), "a b")).collect();
-            assert_eq!(
-                message.try_format_str(&all),
-                catalogue.try_format(
-                    key,
-                    &all.iter()
-                        .map(|(n, v)| (*n, Arg::from(*v)))
-                        .collect::<Vec<_>>()
-                ),
-                "{key}"
-            );
-            for name in &names {
-                if message.uses(name) {
-                    continue;
-                }
-                assert!(
-                    !argument_names_if_any(&catalogue, key).contains(name),
-                    "{key} uses {name}"
-                );
-                let blank: Vec<(&str, &str)> = all
-                    .iter()
-                    .map(|&(n, v)| (n, if n == name.as_str() { "" } else { v }))
-                    .collect();
-                assert_eq!(
-                    message.format_str(&blank),
-                    message.format_str(&all),
-                    "{key} {name}"
-                );
-                left_out += 1;
-            }
+            f(&catalogue, key);
         }
     }
-    assert!(left_out > 1_000, "{left_out} arguments left out");
 }
 
 fn argument_names_if_any(catalogue: &Catalogue, key: &str) -> Vec<String> {

@@ -283,9 +283,10 @@ pub fn fill_each(base: Value) -> Value {
                 return Err(Error::from(ErrorKind::UndefinedError));
             }
             let items: Vec<Value> = items.try_iter()?.collect();
+            let item_name: Arc<str> = Arc::from(item_name);
             let fill = |item: &Value| {
                 template.render(Value::from_object(PartContext {
-                    item_name: item_name.to_owned(),
+                    item_name: Arc::clone(&item_name),
                     item: item.clone(),
                     names: Arc::clone(&names),
                 }))
@@ -367,7 +368,7 @@ fn text_checked_in_pieces(
 /// the names shared by all parts.
 #[derive(Debug)]
 struct PartContext {
-    item_name: String,
+    item_name: Arc<str>,
     item: Value,
     names: Arc<BTreeMap<String, Value>>,
 }
@@ -375,7 +376,7 @@ struct PartContext {
 impl Object for PartContext {
     fn get_value(self: &Arc<Self>, key: &Value) -> Option<Value> {
         let key = key.as_str()?;
-        if key == self.item_name {
+        if key == &*self.item_name {
             return Some(self.item.clone());
         }
         self.names.get(key).cloned()
@@ -383,8 +384,8 @@ impl Object for PartContext {
 
     fn enumerate(self: &Arc<Self>) -> minijinja::value::Enumerator {
         let mut keys: Vec<Value> = self.names.keys().map(|k| Value::from(k.as_str())).collect();
-        if !self.names.contains_key(&self.item_name) {
-            keys.push(Value::from(self.item_name.as_str()));
+        if !self.names.contains_key(&*self.item_name) {
+            keys.push(Value::from(&*self.item_name));
         }
         minijinja::value::Enumerator::Values(keys)
     }
@@ -874,12 +875,7 @@ mod tests {
             "self.typ",
             "x{{ fill_each(\"self.typ\", \"item\", items) }}",
         )];
-        let env = template_environment(TemplateSource::embedded(built_in));
-        let err = env
-            .get_template("self.typ")
-            .unwrap()
-            .render(with_fill_each(context! { items => vec![1, 2] }))
-            .unwrap_err();
+        let err = fill_error(built_in, "self.typ", context! { items => vec![1, 2] });
         let inner = std::iter::successors(Some(&err as &dyn std::error::Error), |e| e.source())
             .filter_map(|e| e.downcast_ref::<Error>())
             .last()
@@ -899,14 +895,11 @@ mod tests {
                 "ok\n{% if item > 5 %}{{ item.no_such_field }}{% endif %}",
             ),
         ];
-        let env = template_environment(TemplateSource::embedded(built_in));
-        let err = env
-            .get_template("main.typ")
-            .unwrap()
-            .render(with_fill_each(
-                context! { items => (0..20).collect::<Vec<i64>>() },
-            ))
-            .unwrap_err();
+        let err = fill_error(
+            built_in,
+            "main.typ",
+            context! { items => (0..20).collect::<Vec<i64>>() },
+        );
         let words = template_error_msg(&err).english();
         assert!(words.contains("part.typ"), "{words}");
         assert!(words.contains('2'), "{words}");
@@ -915,12 +908,22 @@ mod tests {
             (context! { items => 3 }, "not iterable"),
             (context! { others => 3 }, "undefined"),
         ] {
-            let err = env
-                .get_template("main.typ")
-                .unwrap()
-                .render(with_fill_each(ctx))
-                .unwrap_err();
+            let err = fill_error(built_in, "main.typ", ctx);
             assert!(format!("{err:#}").contains(what), "{err:#}");
         }
+    }
+
+    /// The error of filling `name` of `built_in` with `base` and
+    /// `fill_each`, which must fail.
+    fn fill_error(
+        built_in: &'static [(&'static str, &'static str)],
+        name: &str,
+        base: Value,
+    ) -> Error {
+        template_environment(TemplateSource::embedded(built_in))
+            .get_template(name)
+            .unwrap()
+            .render(with_fill_each(base))
+            .unwrap_err()
     }
 }
