@@ -42,6 +42,22 @@ impl TemplateSource {
         self.override_dir = Some(dir.into());
         self
     }
+
+    /// Whether a failure to fill the template `name` is the `--templates`
+    /// folder's: the folder holds something under that name or under the
+    /// name of any built-in template (a part such as `handover-set.typ`
+    /// alone is the shop's too), be it a file or not (a folder or a link
+    /// there is refused when it is read, and that is the shop's to mend).
+    pub fn from_override(&self, name: &str) -> bool {
+        let there = |dir: &Path, name: &str| dir.join(name).symlink_metadata().is_ok();
+        self.override_dir.as_ref().is_some_and(|dir| {
+            there(dir, name)
+                || self
+                    .embedded
+                    .iter()
+                    .any(|(built_in, _)| there(dir, built_in))
+        })
+    }
 }
 
 /// A piece of Typst source made by the program (a table built from figures,
@@ -791,6 +807,26 @@ mod tests {
         let middle = broken.len() / 2;
         broken[middle] = 0xff;
         assert!(text_from_bytes(broken).is_err());
+    }
+
+    #[test]
+    fn a_failure_is_the_folders_when_it_holds_any_of_the_templates() {
+        let dir = tempfile::tempdir().unwrap();
+        let source = TemplateSource::embedded(BUILT_IN).with_override_dir(dir.path());
+        // Only images, or nothing: the program's own template failed.
+        std::fs::create_dir(dir.path().join("images")).unwrap();
+        assert!(!source.from_override("page.typ"));
+        assert!(!TemplateSource::embedded(BUILT_IN).from_override("page.typ"));
+        // A part of its own (here `other.typ`), even one that is a folder
+        // or a link the loader refuses, makes any failure the folder's.
+        std::fs::create_dir(dir.path().join("other.typ")).unwrap();
+        assert!(source.from_override("page.typ"));
+        std::fs::remove_dir(dir.path().join("other.typ")).unwrap();
+        #[cfg(unix)]
+        {
+            std::os::unix::fs::symlink("/nonexistent", dir.path().join("page.typ")).unwrap();
+            assert!(source.from_override("page.typ"));
+        }
     }
 
     /// A context as `fill_template` makes it: the document's values, and

@@ -450,10 +450,7 @@ pub fn build(
             detail: crate::catalogue::Msg::new("cli-template-no-notice")
                 .arg("what", "document")
                 .arg("line", NOTICE_INCLUDE),
-            from_override: templates
-                .override_dir
-                .as_ref()
-                .is_some_and(|d| d.join(TEMPLATE_NAME).is_file()),
+            from_override: templates.from_override(TEMPLATE_NAME),
         });
     }
     sandbox.insert(MAIN_SOURCE, source)?;
@@ -513,16 +510,7 @@ pub(crate) fn fill_template(
     templates: &TemplateSource,
     room: usize,
 ) -> Result<String, HandoverError> {
-    // The shop's when its folder holds the template or any template the
-    // document is filled from (a part such as handover-set.typ alone is
-    // the shop's too, and a failure there is no fault of the program).
-    let from_override = templates.override_dir.as_ref().is_some_and(|d| {
-        d.join(name).is_file()
-            || templates
-                .embedded
-                .iter()
-                .any(|(built_in, _)| d.join(built_in).is_file())
-    });
+    let from_override = templates.from_override(name);
     let env = template_environment(templates.clone());
     let fail = |e: minijinja::Error| HandoverError::Template {
         name: name.to_string(),

@@ -125,7 +125,7 @@ pub fn build(
             detail: crate::catalogue::Msg::new("cli-template-no-notice")
                 .arg("what", "listing")
                 .arg("line", NOTICE_INCLUDE),
-            from_override: from_override(templates),
+            from_override: templates.from_override(TEMPLATE_NAME),
         });
     }
     sandbox.insert(MAIN_SOURCE, source)?;
@@ -163,11 +163,4 @@ pub fn build(
         markdown,
         photo_files,
     })
-}
-
-fn from_override(templates: &TemplateSource) -> bool {
-    templates
-        .override_dir
-        .as_ref()
-        .is_some_and(|d| d.join(TEMPLATE_NAME).is_file())
 }
