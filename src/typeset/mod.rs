@@ -56,7 +56,7 @@ pub use rows::{CountedText, RowList, Rows, TypstRow, serialize_counted_text};
 pub use sandbox::{EMIT_PREFIX, FileContents, Sandbox, emit_source, emit_source_replacing};
 pub(crate) use template_env::text_from_bytes;
 pub use template_env::{
-    PARALLEL_PARTS, TemplateSource, TypstMarkup, TypstMarkupParts, fill_each, refusal,
+    OnDemand, PARALLEL_PARTS, TemplateSource, TypstMarkup, TypstMarkupParts, fill_each, refusal,
     template_environment, template_error_msg, typst_markup,
 };
 pub use version::{MAX_TYPST_EXCLUSIVE, MIN_TYPST, TypstVersion};

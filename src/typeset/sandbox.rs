@@ -171,10 +171,11 @@ impl Sandbox {
     /// Writes every file under `dir`, a fresh folder, without the fonts.
     /// Files are created new (never opened through an existing name).
     pub(crate) fn write_files(&self, dir: &Path) -> io::Result<()> {
-        // The folder made for the file before: the files are in path order,
-        // so the charts of a long document (hundreds in `plots/`) share it,
-        // and it is made once rather than looked up again for each.
+        // The folders first, each made once: the files are in path order,
+        // so the charts of a long document (hundreds in `plots/`) share
+        // one, made once rather than looked up again for each.
         let mut made: Option<PathBuf> = None;
+        let mut targets = Vec::with_capacity(self.files.len());
         for (path, contents) in &self.files {
             let target = native_path(dir, path);
             if let Some(parent) = target.parent()
@@ -183,15 +184,36 @@ impl Sandbox {
                 std::fs::create_dir_all(parent)?;
                 made = Some(parent.to_path_buf());
             }
+            targets.push((target, contents.as_bytes()));
+        }
+        let write = |(target, bytes): &(PathBuf, &[u8])| {
             std::fs::OpenOptions::new()
                 .write(true)
                 .create_new(true)
-                .open(&target)?
-                .write_all(contents.as_bytes())?;
+                .open(target)?
+                .write_all(bytes)
+        };
+        // A long document's files (its main source is megabytes, and each
+        // of hundreds of charts tens of kilobytes) are written on every
+        // core: copying them into the file system is the kernel's work,
+        // and it is the last thing before typst can start. The first
+        // failure in path order is the one told, as when they were
+        // written one after another (later files may then be written too,
+        // into a folder that is removed with them).
+        if targets.len() < PARALLEL_WRITES {
+            targets.iter().try_for_each(write)
+        } else {
+            use rayon::prelude::*;
+            let written: Vec<io::Result<()>> = targets.par_iter().map(write).collect();
+            written.into_iter().collect()
         }
-        Ok(())
     }
 }
+
+/// From this many files on, [`Sandbox::write_files`] writes them on every
+/// core; a demo document's dozen are written in order, without starting
+/// the pool.
+const PARALLEL_WRITES: usize = 32;
 
 /// `dir` joined with a checked `/`-separated sandbox path.
 pub(crate) fn native_path(dir: &Path, path: &str) -> PathBuf {

@@ -71,6 +71,83 @@ impl Object for TypstMarkup {
     }
 }
 
+/// A list in a template's context whose items become template values
+/// only when a template reads them (`{% for s in sets %}`, `sets[0]`,
+/// `sets|length` all work as on any list): each item is made from its
+/// Rust value on reading, and [`fill_each`] makes each where its part is
+/// filled, on the pool, and lets it go there once the part is written.
+/// A long job's sets are a million small values; made all at once
+/// they took the template's thread milliseconds before any part could
+/// start, and their memory was new memory that stayed in use to the end.
+///
+/// Serialized for a template, an [`OnDemand`] becomes one of these;
+/// serialized any other way (JSON), it is the plain list.
+#[derive(Debug, Clone)]
+pub struct OnDemand<T>(pub Arc<Vec<T>>);
+
+impl<T> OnDemand<T> {
+    pub fn new(items: Vec<T>) -> Self {
+        Self(Arc::new(items))
+    }
+}
+
+impl<T> std::ops::Deref for OnDemand<T> {
+    type Target = [T];
+    fn deref(&self) -> &[T] {
+        &self.0
+    }
+}
+
+impl<T: serde::Serialize + Send + Sync + fmt::Debug + 'static> serde::Serialize for OnDemand<T> {
+    fn serialize<S: serde::Serializer>(&self, serializer: S) -> Result<S::Ok, S::Error> {
+        if minijinja::value::serializing_for_value() {
+            let items: Arc<dyn ItemValues> = Arc::clone(&self.0) as Arc<dyn ItemValues>;
+            Value::from_object(ValuesOnDemand(items)).serialize(serializer)
+        } else {
+            self.0.serialize(serializer)
+        }
+    }
+}
+
+/// Items that can each be made into a template value.
+trait ItemValues: Send + Sync + fmt::Debug {
+    fn count(&self) -> usize;
+    fn value(&self, index: usize) -> Value;
+}
+
+impl<T: serde::Serialize + Send + Sync + fmt::Debug> ItemValues for Vec<T> {
+    fn count(&self) -> usize {
+        self.len()
+    }
+    fn value(&self, index: usize) -> Value {
+        Value::from_serialize(&self[index])
+    }
+}
+
+/// The template's side of an [`OnDemand`]: a list of its items, each made
+/// when read.
+#[derive(Debug)]
+struct ValuesOnDemand(Arc<dyn ItemValues>);
+
+impl Object for ValuesOnDemand {
+    fn repr(self: &Arc<Self>) -> minijinja::value::ObjectRepr {
+        minijinja::value::ObjectRepr::Seq
+    }
+
+    fn get_value(self: &Arc<Self>, key: &Value) -> Option<Value> {
+        let index = usize::try_from(key.as_i64()?).ok()?;
+        (index < self.0.count()).then(|| self.0.value(index))
+    }
+
+    fn enumerate(self: &Arc<Self>) -> minijinja::value::Enumerator {
+        minijinja::value::Enumerator::Seq(self.0.count())
+    }
+
+    fn enumerator_len(self: &Arc<Self>) -> Option<usize> {
+        Some(self.0.count())
+    }
+}
+
 /// Program-made Typst source in pieces, printed one after another like a
 /// [`TypstMarkup`] of them all: what [`fill_each`] gives, one piece per
 /// item, so a long document's text is not copied into one more string on
@@ -298,20 +375,37 @@ pub fn fill_each(base: Value) -> Value {
                 // As a loop over an undefined name would be.
                 return Err(Error::from(ErrorKind::UndefinedError));
             }
-            let items: Vec<Value> = items.try_iter()?.collect();
             let item_name: Arc<str> = Arc::from(item_name);
-            let fill = |item: &Value| {
+            let fill = |item: Value| {
                 template.render(Value::from_object(PartContext {
                     item_name: Arc::clone(&item_name),
-                    item: item.clone(),
+                    item,
                     names: Arc::clone(&names),
                 }))
             };
-            let parts: Vec<Result<String, Error>> = if items.len() < PARALLEL_PARTS {
-                items.iter().map(fill).collect()
-            } else {
-                items.par_iter().map(fill).collect()
-            };
+            // A list made on demand has each item made where its part is
+            // filled (and let go there once the part is written); any
+            // other list's items are taken as they are.
+            let parts: Vec<Result<String, Error>> =
+                match items.downcast_object_ref::<ValuesOnDemand>() {
+                    Some(on_demand) => {
+                        let source = &on_demand.0;
+                        let one = |index: usize| fill(source.value(index));
+                        if source.count() < PARALLEL_PARTS {
+                            (0..source.count()).map(one).collect()
+                        } else {
+                            (0..source.count()).into_par_iter().map(one).collect()
+                        }
+                    }
+                    None => {
+                        let items: Vec<Value> = items.try_iter()?.collect();
+                        if items.len() < PARALLEL_PARTS {
+                            items.into_iter().map(fill).collect()
+                        } else {
+                            items.into_par_iter().map(fill).collect()
+                        }
+                    }
+                };
             let parts = parts.into_iter().collect::<Result<Vec<_>, _>>()?;
             Ok(Value::from_object(TypstMarkupParts(parts)))
         },
@@ -833,6 +927,67 @@ mod tests {
     /// `fill_each` over them.
     fn with_fill_each(base: Value) -> Value {
         context! { fill_each => fill_each(base.clone()), ..base }
+    }
+
+    #[test]
+    fn a_list_made_on_demand_reads_as_the_plain_list() {
+        // The same items as a plain list and as one made on demand: every
+        // way a template can read a list gives the same text, a JSON
+        // serializer sees the plain list, and `fill_each` over either
+        // prints the same parts, for a few items (in order on this
+        // thread) and for many (on every core).
+        #[derive(Debug, serde::Serialize)]
+        struct Item {
+            name: String,
+            n: usize,
+            rows: Vec<usize>,
+        }
+        let made = |count: usize| -> Vec<Item> {
+            (0..count)
+                .map(|n| Item {
+                    name: format!("#set {n} *x*"),
+                    n,
+                    rows: (0..n % 4).collect(),
+                })
+                .collect()
+        };
+        let reads = "{% if items %}yes{% else %}no{% endif %} {{ items|length }} \
+            {% for i in items %}{{ loop.index }}:{{ i.name }}/{% for r in i.rows %}{{ r }}{% endfor %};{% endfor %} \
+            {{ items[0].name if items else '' }} {{ items[-1].n if items else '' }} \
+            {{ (items|last).n if items else '' }} {{ items|map(attribute='n')|join(',') }} \
+            {{ items[items|length] is undefined }} {{ items|reverse|map(attribute='n')|join(',') }} {{ items|pprint }} \
+            {{ fill_each(\"part.typ\", \"i\", items, mark=\"m\") }}|";
+        let built_in: &'static [(&'static str, &'static str)] = Box::leak(Box::new([
+            (
+                "part.typ",
+                "<{{ i.n }} {{ i.name }} {{ mark }} {{ items|length }}>",
+            ),
+            ("reads.typ", reads),
+        ]));
+        let env = template_environment(TemplateSource::embedded(built_in));
+        for count in [0, 1, 3, PARALLEL_PARTS + 5, 300] {
+            let plain = env
+                .get_template("reads.typ")
+                .unwrap()
+                .render(with_fill_each(
+                    context! { items => Value::from_serialize(made(count)) },
+                ))
+                .unwrap();
+            let on_demand = OnDemand::new(made(count));
+            let lazy = env
+                .get_template("reads.typ")
+                .unwrap()
+                .render(with_fill_each(Value::from_serialize(
+                    std::collections::BTreeMap::from([("items", &on_demand)]),
+                )))
+                .unwrap();
+            assert_eq!(lazy, plain, "{count} items");
+            assert!(plain.contains(&format!(" {count} ")), "{plain}");
+            assert_eq!(
+                serde_json::to_string(&on_demand).unwrap(),
+                serde_json::to_string(&made(count)).unwrap()
+            );
+        }
     }
 
     #[test]

@@ -98,7 +98,7 @@ pub struct HandoverContext {
     pub notes: Vec<String>,
     /// Every photo of the job, in file order.
     pub photos: Vec<PhotoRow>,
-    pub sets: Vec<SetContext>,
+    pub sets: crate::typeset::OnDemand<SetContext>,
     pub plots: Plots,
     pub safety: SafetyContext,
     pub method: Method,
@@ -1188,7 +1188,7 @@ pub fn build_context(
             .collect(),
         notes: job.notes.iter().map(|n| reflow(&n.text)).collect(),
         photos: inputs.photos.clone(),
-        sets,
+        sets: crate::typeset::OnDemand::new(sets),
         plots: plots(findings, inputs),
         safety: safety(job, findings, cat),
         method: method(findings, job, inputs.profile, cat),
