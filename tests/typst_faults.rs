@@ -64,12 +64,30 @@ fn a_typst_that_lies_about_success_is_named_and_replaces_nothing() {
             "does not start like a PDF",
         ),
     ];
+    let kept_folders = || -> std::collections::BTreeSet<String> {
+        scene
+            .temp_listing()
+            .into_iter()
+            .filter(|n| n.starts_with("ampreport-source-"))
+            .collect()
+    };
     for (body, words) in cases {
+        let before = kept_folders();
         let err = failing_render(&scene, body, &[]);
         assert!(says(&err, words), "{body}: {err}");
         assert!(says(&err, "the typst program"), "{body}: {err}");
         assert!(says(&err, "not at the job"), "{body}: {err}");
         assert!(!says(&err, "fault in ampreport"), "{body}: {err}");
+        // The source typst was given is kept whole for inspection (after
+        // a failed check of the PDF it is written again, as it was
+        // removed beside the check), without the fonts.
+        let new: Vec<String> = kept_folders().difference(&before).cloned().collect();
+        assert_eq!(new.len(), 1, "{body}: {new:?}");
+        let kept = scene.tmp.join(&new[0]);
+        let main = std::fs::read_to_string(kept.join("main.typ")).unwrap();
+        assert!(main.contains("mains-safety.typ"), "{body}: {main}");
+        assert!(kept.join("mains-safety.typ").is_file(), "{body}");
+        assert!(!kept.join("fonts").exists(), "{body}");
     }
 }
 

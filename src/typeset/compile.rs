@@ -314,7 +314,16 @@ pub fn compile_with(
     // by the document's build, where a new thread's heap would grow a
     // page at a time (an `mprotect` and a page fault each). A panic in
     // lopdf is caught as before, when the check had a thread of its own.
+    //
+    // The typst source is not needed once the PDF is read, unless the
+    // check fails and it is kept for inspection: it is removed beside the
+    // check (a long document's is megabytes in hundreds of files, some
+    // milliseconds of the kernel's work), and written again from the
+    // sandbox, the same files, if the check fails.
     let (checked, staged) = std::thread::scope(|s| {
+        s.spawn(|| {
+            let _ = std::fs::remove_dir_all(&root);
+        });
         let staging = s.spawn(|| {
             std::iter::once((output, bytes.as_slice()))
                 .chain(
@@ -334,20 +343,27 @@ pub fn compile_with(
             .unwrap_or_else(|panic| std::panic::resume_unwind(panic));
         (checked, staged)
     });
+    // The source removed beside the check, written again to be kept.
+    let rewritten = |work: LockedDir| {
+        let _ = std::fs::remove_dir_all(&root);
+        let _ = std::fs::create_dir(&root).and_then(|()| sandbox.write_files(&root));
+        keep(work)
+    };
     match checked {
         Ok(()) => {}
         Err(Failed::Incomplete(why)) => {
-            return Err(misbehaved(
-                work,
-                Msg::new("cli-typst-incomplete").arg("why", why),
-                stderr,
-            ));
+            return Err(TypesetError::Misbehaved {
+                path: program.path.clone(),
+                what: Msg::new("cli-typst-incomplete").arg("why", why),
+                diagnostics: stderr,
+                kept: rewritten(work),
+            });
         }
         Err(Failed::Missing { what, missing }) => {
             return Err(TypesetError::MissingText {
                 what,
                 missing,
-                kept: keep(work),
+                kept: rewritten(work),
             });
         }
     }

@@ -210,7 +210,7 @@ pub struct AttentionContext {
     /// Findings of no set (safety tests, the sign-off, the data).
     pub job_wide: Vec<EntryRow>,
     /// Earlier sets: what was found, one line per part or valve.
-    pub history: Vec<HistoryRow>,
+    pub history: crate::typeset::OnDemand<HistoryRow>,
 }
 
 /// One part or valve and what is wrong with it.
@@ -1542,14 +1542,15 @@ fn attention_context(a: &Attention, cat: &Catalogue) -> AttentionContext {
             })
             .collect(),
         job_wide: a.job_wide.iter().map(|e| entry(e, " ")).collect(),
-        history: a
-            .history
-            .iter()
-            .map(|h| HistoryRow {
-                label: h.label.clone(),
-                entries: h.entries.iter().map(|e| entry(e, ", ")).collect(),
-            })
-            .collect(),
+        history: crate::typeset::OnDemand::new(
+            a.history
+                .iter()
+                .map(|h| HistoryRow {
+                    label: h.label.clone(),
+                    entries: h.entries.iter().map(|e| entry(e, ", ")).collect(),
+                })
+                .collect(),
+        ),
     }
 }
 
