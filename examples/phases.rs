@@ -133,6 +133,8 @@ fn main() {
         .next()
         .map_or(1, |r| r.parse().expect("ROUNDS is a number"));
     let text = std::fs::read_to_string(&path).unwrap();
+    // As `render` does once it has the job's text.
+    ampreport::allocator::large_pages_for(text.len());
     let mut all: Vec<[f64; 8]> = Vec::new();
     for _ in 0..rounds {
         FAULTS.with(|v| v.borrow_mut().clear());

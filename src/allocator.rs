@@ -114,6 +114,67 @@ pub fn return_freed_memory() {
     unsafe { libmimalloc_sys::mi_option_set(PURGE_DELAY, DEFAULT_PURGE_DELAY_MS) }
 }
 
+/// From how many bytes of job text [`large_pages_for`] asks for large
+/// pages: some 160 measurement sets of a generated job (400 bytes a set).
+/// A demo job is 5 to 10 KiB and is left as it was.
+pub const LARGE_PAGES_FROM: usize = 64 * 1024;
+
+/// Asks the kernel to back the allocator's memory with large (2 MiB)
+/// pages from now on when the job text is at least [`LARGE_PAGES_FROM`]
+/// bytes long; a smaller job is left with the usual 4 KiB pages.
+///
+/// A long job's render touches some 80 MB of new memory, a page fault for
+/// every 4 KiB: on this project's test machine 19,500 faults, about a
+/// third of the render's processor time. In large pages it is some 500
+/// (docs/performance.md, "Large pages for a long job"). A short job is
+/// better off without them: each of the render's threads would clear a
+/// whole 2 MiB page for the few kilobytes it uses, beside a typst that
+/// needs the memory bus (measured when the allocator asked for them for
+/// every job: 5–7 ms dearer renders of the demo jobs). The kernel gives
+/// large pages only where its setting allows
+/// (`/sys/kernel/mm/transparent_hugepage/enabled`: `always` or
+/// `madvise`); where it does not, or when mimalloc is not the program's
+/// allocator (it has no memory areas then), nothing changes. Memory
+/// already touched keeps its small pages. Asked once per process.
+pub fn large_pages_for(job_text_len: usize) {
+    static ASKED: std::sync::atomic::AtomicBool = std::sync::atomic::AtomicBool::new(false);
+    if job_text_len < LARGE_PAGES_FROM || ASKED.swap(true, std::sync::atomic::Ordering::Relaxed) {
+        return;
+    }
+    for (start, size) in areas() {
+        // SAFETY: madvise only advises the kernel about the range, memory
+        // mapped by mimalloc for the life of the process; it reads and
+        // writes no memory of ours. Its failure (an old kernel, large
+        // pages switched off) leaves the pages as they were.
+        unsafe {
+            libc::madvise(start, size, libc::MADV_HUGEPAGE);
+        }
+    }
+}
+
+/// mimalloc's memory areas (arenas) so far: where each starts, and its
+/// length.
+fn areas() -> Vec<(*mut c_void, usize)> {
+    unsafe extern "C" {
+        /// mimalloc's memory area (arena) `arena_id` (1, 2, …): its
+        /// start and, through `size`, its length; null past the last
+        /// (its `mimalloc.h`, version 2).
+        fn mi_arena_area(arena_id: std::ffi::c_int, size: *mut usize) -> *mut c_void;
+    }
+    let mut areas = Vec::new();
+    for id in 1.. {
+        let mut size = 0usize;
+        // SAFETY: `size` is a live local for the call to fill in; an id
+        // past the last area gives null.
+        let start = unsafe { mi_arena_area(id, &mut size) };
+        if start.is_null() || size == 0 {
+            break;
+        }
+        areas.push((start, size));
+    }
+    areas
+}
+
 /// mimalloc's default purge delay, in milliseconds (its `options.c`).
 const DEFAULT_PURGE_DELAY_MS: std::ffi::c_long = 10;
 
@@ -126,6 +187,67 @@ mod tests {
     /// written to it, comes back zeroed when asked, and keeps its bytes
     /// through growing and shrinking; the plain path and the aligned one
     /// are both taken.
+    /// The kernel's flags for the mapping that holds `address`
+    /// (`/proc/self/smaps`, its `VmFlags` line).
+    #[cfg(target_os = "linux")]
+    fn mapping_flags(address: usize) -> Option<String> {
+        let smaps = std::fs::read_to_string("/proc/self/smaps").ok()?;
+        let mut inside = false;
+        for line in smaps.lines() {
+            if let Some((range, _)) = line.split_once(' ')
+                && let Some((from, to)) = range.split_once('-')
+                && let (Ok(from), Ok(to)) = (
+                    usize::from_str_radix(from, 16),
+                    usize::from_str_radix(to, 16),
+                )
+            {
+                inside = (from..to).contains(&address);
+            } else if inside && let Some(flags) = line.strip_prefix("VmFlags:") {
+                return Some(flags.trim().to_owned());
+            }
+        }
+        None
+    }
+
+    /// A job text shorter than [`LARGE_PAGES_FROM`] leaves the allocator's
+    /// memory as it was; one that long marks every area of it for large
+    /// pages (`hg` among the mapping's flags).
+    #[cfg(target_os = "linux")]
+    #[test]
+    fn a_long_job_asks_for_large_pages_and_a_short_one_does_not() {
+        // An allocation through mimalloc itself, so that it has an area
+        // (these tests run with the system's allocator).
+        // SAFETY: a plain allocation, freed below.
+        let block = unsafe { libmimalloc_sys::mi_malloc(100_000) };
+        assert!(!block.is_null());
+        let found = areas();
+        assert!(!found.is_empty(), "mimalloc has no memory area");
+        let marked = |flags: &Option<String>| {
+            flags
+                .as_deref()
+                .is_some_and(|f| f.split_whitespace().any(|flag| flag == "hg"))
+        };
+        large_pages_for(LARGE_PAGES_FROM - 1);
+        for (start, _) in &found {
+            let flags = mapping_flags(*start as usize);
+            assert!(flags.is_some(), "no mapping at {start:?}");
+            assert!(!marked(&flags), "{flags:?}");
+        }
+        large_pages_for(LARGE_PAGES_FROM);
+        if !std::path::Path::new("/sys/kernel/mm/transparent_hugepage").exists() {
+            // A kernel built without large pages refuses the advice.
+            return;
+        }
+        for (start, size) in &found {
+            for at in [*start as usize, *start as usize + size - 1] {
+                let flags = mapping_flags(at);
+                assert!(marked(&flags), "{at:#x}: {flags:?}");
+            }
+        }
+        // SAFETY: `block` came from mi_malloc above.
+        unsafe { libmimalloc_sys::mi_free(block) };
+    }
+
     #[test]
     fn blocks_are_aligned_and_keep_their_bytes() {
         let sizes = (1..=2_100usize).chain([4_095, 4_096, 65_537, 300_000, 5_000_000]);

@@ -5,8 +5,10 @@
 /// drops millions of small strings and vectors, and malloc and free were
 /// a fifth to a quarter of every stage (docs/performance.md, "Eighth
 /// pass: decode, derive and the allocator"). Built without transparent
-/// huge pages (Cargo.toml), which made a single render dearer ("The
-/// allocator: huge pages found and turned off"). Set here and in the
+/// huge pages for every job (Cargo.toml), which made a single render
+/// dearer ("The allocator: huge pages found and turned off"); a long
+/// job asks for them once its text is read
+/// ([`ampreport::allocator::large_pages_for`]). Set here and in the
 /// `phases` example only, not in the library, so the fuzz targets keep
 /// the sanitiser's allocator. Asked through [`ampreport::allocator`], which
 /// uses mimalloc's plain calls where the layout allows.
