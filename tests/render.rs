@@ -538,6 +538,18 @@ fn bench_tests_and_the_resistor_suggestion_reach_the_document() {
     has("glance", "Performance on the bench");
     has("method", "On the bench.");
     has("method", "Bias estimates.");
+    // A response table and its −3 dB line are on one page (in the demo
+    // the table once ended one page and its line began the next).
+    let pages: Vec<String> = pdftotext(&pdf).split('\u{c}').map(normalise).collect();
+    let table = pages
+        .iter()
+        .position(|p| p.contains(&normalise("Response, bright")))
+        .expect("the response table");
+    assert!(
+        pages[table].contains(&normalise("−3 dB points:")),
+        "the −3 dB line is not on the response table's page {}",
+        table + 1
+    );
 
     // The fixed-bias demo: the grid voltage for the middle of the window.
     let job = demo("combo-6v6-fixed");
