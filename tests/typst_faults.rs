@@ -78,15 +78,59 @@ fn a_typst_that_lies_about_success_is_named_and_replaces_nothing() {
         assert!(says(&err, "the typst program"), "{body}: {err}");
         assert!(says(&err, "not at the job"), "{body}: {err}");
         assert!(!says(&err, "fault in ampreport"), "{body}: {err}");
-        // The source typst was given is kept whole for inspection (after
-        // a failed check of the PDF it is written again, as it was
-        // removed beside the check), without the fonts.
+        // The source typst was given is kept whole for inspection,
+        // without the fonts (a long document's, removed beside the
+        // check, is written again: the test after this one).
         let new: Vec<String> = kept_folders().difference(&before).cloned().collect();
         assert_eq!(new.len(), 1, "{body}: {new:?}");
         let kept = scene.tmp.join(&new[0]);
         let main = std::fs::read_to_string(kept.join("main.typ")).unwrap();
         assert!(main.contains("mains-safety.typ"), "{body}: {main}");
         assert!(kept.join("mains-safety.typ").is_file(), "{body}");
+        assert!(!kept.join("fonts").exists(), "{body}");
+    }
+}
+
+/// A long document's source is removed beside the PDF's check; when the
+/// check fails it is kept all the same, every file of it, written again.
+#[test]
+fn a_long_documents_source_is_kept_whole_after_a_failed_check() {
+    let scene = Scene::new();
+    // 140 sets: 36 charts, so the sandbox holds more than 32 files.
+    let generated = std::process::Command::new("bash")
+        .arg(support::repo().join("scripts/gen-job.sh"))
+        .arg("140")
+        .output()
+        .unwrap();
+    assert!(generated.status.success());
+    std::fs::write(&scene.job, &generated.stdout).unwrap();
+    for body in [
+        "printf '%%PDF-1.7\\n%%%%EOF\\n' > \"$out\"",
+        &format!(
+            "cp '{}' \"$out\"",
+            scene.bin.join("no-notice.pdf").display()
+        ),
+    ] {
+        std::fs::write(
+            scene.bin.join("no-notice.pdf"),
+            support::pdf_with_text(&["a page without the notice"]),
+        )
+        .unwrap();
+        let before: std::collections::BTreeSet<String> = scene.temp_listing();
+        let err = failing_render(&scene, body, &[]);
+        assert!(says(&err, "kept"), "{body}: {err}");
+        let new: Vec<String> = scene
+            .temp_listing()
+            .difference(&before)
+            .filter(|n| n.starts_with("ampreport-source-"))
+            .cloned()
+            .collect();
+        assert_eq!(new.len(), 1, "{body}: {new:?}");
+        let kept = scene.tmp.join(&new[0]);
+        let main = std::fs::read_to_string(kept.join("main.typ")).unwrap();
+        assert!(main.contains("mains-safety.typ"), "{body}");
+        let charts = std::fs::read_dir(kept.join("plots")).unwrap().count();
+        assert!(charts >= 32, "{body}: {charts} charts kept");
         assert!(!kept.join("fonts").exists(), "{body}");
     }
 }

@@ -316,14 +316,18 @@ pub fn compile_with(
     // lopdf is caught as before, when the check had a thread of its own.
     //
     // The typst source is not needed once the PDF is read, unless the
-    // check fails and it is kept for inspection: it is removed beside the
-    // check (a long document's is megabytes in hundreds of files, some
-    // milliseconds of the kernel's work), and written again from the
-    // sandbox, the same files, if the check fails.
+    // check fails and it is kept for inspection: a long document's
+    // (megabytes in hundreds of files, some milliseconds of the kernel's
+    // work) is removed beside the check, and written again from the
+    // sandbox, the same files, if the check fails. A short one's goes
+    // with the work folder after the check, without a thread of its own.
+    let remove_beside = sandbox.len() >= super::sandbox::PARALLEL_WRITES;
     let (checked, staged) = std::thread::scope(|s| {
-        s.spawn(|| {
-            let _ = std::fs::remove_dir_all(&root);
-        });
+        if remove_beside {
+            s.spawn(|| {
+                let _ = std::fs::remove_dir_all(&root);
+            });
+        }
         let staging = s.spawn(|| {
             std::iter::once((output, bytes.as_slice()))
                 .chain(
@@ -343,10 +347,13 @@ pub fn compile_with(
             .unwrap_or_else(|panic| std::panic::resume_unwind(panic));
         (checked, staged)
     });
-    // The source removed beside the check, written again to be kept.
+    // The source, if it was removed beside the check, written again to
+    // be kept.
     let rewritten = |work: LockedDir| {
-        let _ = std::fs::remove_dir_all(&root);
-        let _ = std::fs::create_dir(&root).and_then(|()| sandbox.write_files(&root));
+        if remove_beside {
+            let _ = std::fs::remove_dir_all(&root);
+            let _ = std::fs::create_dir(&root).and_then(|()| sandbox.write_files(&root));
+        }
         keep(work)
     };
     match checked {

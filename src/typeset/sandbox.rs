@@ -211,9 +211,10 @@ impl Sandbox {
 }
 
 /// From this many files on, [`Sandbox::write_files`] writes them on every
-/// core; a demo document's dozen are written in order, without starting
-/// the pool.
-const PARALLEL_WRITES: usize = 32;
+/// core (and the compile removes them beside its check of the PDF); a
+/// demo document's dozen are written in order, without starting the pool,
+/// and removed after the check.
+pub(crate) const PARALLEL_WRITES: usize = 32;
 
 /// `dir` joined with a checked `/`-separated sandbox path.
 pub(crate) fn native_path(dir: &Path, path: &str) -> PathBuf {
