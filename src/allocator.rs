@@ -121,7 +121,9 @@ pub const LARGE_PAGES_FROM: usize = 64 * 1024;
 
 /// Asks the kernel to back the allocator's memory with large (2 MiB)
 /// pages from now on when the job text is at least [`LARGE_PAGES_FROM`]
-/// bytes long; a smaller job is left with the usual 4 KiB pages.
+/// bytes long; a smaller job is left with the usual 4 KiB pages. Called
+/// wherever a job's text is read (`cli::load::read_job`: `render`,
+/// `check`, `calc` and the rest).
 ///
 /// A long job's render touches some 80 MB of new memory, a page fault for
 /// every 4 KiB: on this project's test machine 19,500 faults, about a

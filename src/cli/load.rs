@@ -359,6 +359,9 @@ pub fn read_job(path: &Path, said: &mut Said) -> Result<String, Exit> {
         "cli-read-what-job",
         from.arg("bytes", text.len().to_string()),
     );
+    // A long job's decode, derive and document touch tens of megabytes:
+    // in large pages from here on (every command that reads a job).
+    crate::allocator::large_pages_for(text.len());
     Ok(text)
 }
 

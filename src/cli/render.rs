@@ -460,7 +460,6 @@ fn render_job(
     });
     let shop = load::shop_profile(job_path, args.job.shop_choice(), said, depends)?;
     let text = load::read_job(job_path, said)?;
-    crate::allocator::large_pages_for(text.len());
 
     // Under --out-dir, the job's place in the tree is made as needed.
     if let Some(dir) = &args.out_dir
