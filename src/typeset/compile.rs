@@ -259,11 +259,12 @@ pub fn compile_with(
         }
     };
     let stderr = finished.stderr.text();
-    let misbehaved = |work: LockedDir, what: Msg, diagnostics: String| TypesetError::Misbehaved {
+    // The program at fault, with the source kept for inspection.
+    let misbehaved = |kept: PathBuf, what: Msg, diagnostics: String| TypesetError::Misbehaved {
         path: program.path.clone(),
         what,
         diagnostics,
-        kept: keep(work),
+        kept,
     };
 
     if !finished.status.success() {
@@ -285,18 +286,22 @@ pub fn compile_with(
             Some(_) => Msg::new("cli-typst-odd-status").arg("status", status),
             None => status,
         };
-        return Err(misbehaved(work, what, stderr));
+        return Err(misbehaved(keep(work), what, stderr));
     }
 
     let size = match std::fs::metadata(&written) {
         Ok(meta) if meta.is_file() => meta.len(),
         _ => {
-            return Err(misbehaved(work, Msg::new("cli-typst-no-file"), stderr));
+            return Err(misbehaved(
+                keep(work),
+                Msg::new("cli-typst-no-file"),
+                stderr,
+            ));
         }
     };
     if size > MAX_PDF_BYTES {
         return Err(misbehaved(
-            work,
+            keep(work),
             Msg::new("cli-typst-too-big")
                 .arg("size", size.to_string())
                 .arg("limit", MAX_PDF_BYTES.to_string()),
@@ -359,12 +364,11 @@ pub fn compile_with(
     match checked {
         Ok(()) => {}
         Err(Failed::Incomplete(why)) => {
-            return Err(TypesetError::Misbehaved {
-                path: program.path.clone(),
-                what: Msg::new("cli-typst-incomplete").arg("why", why),
-                diagnostics: stderr,
-                kept: rewritten(work),
-            });
+            return Err(misbehaved(
+                rewritten(work),
+                Msg::new("cli-typst-incomplete").arg("why", why),
+                stderr,
+            ));
         }
         Err(Failed::Missing { what, missing }) => {
             return Err(TypesetError::MissingText {

@@ -386,26 +386,25 @@ pub fn fill_each(base: Value) -> Value {
             // A list made on demand has each item made where its part is
             // filled (and let go there once the part is written); any
             // other list's items are taken as they are.
-            let parts: Vec<Result<String, Error>> =
-                match items.downcast_object_ref::<ValuesOnDemand>() {
-                    Some(on_demand) => {
-                        let source = &on_demand.0;
-                        let one = |index: usize| fill(source.value(index));
-                        if source.count() < PARALLEL_PARTS {
-                            (0..source.count()).map(one).collect()
-                        } else {
-                            (0..source.count()).into_par_iter().map(one).collect()
-                        }
-                    }
-                    None => {
-                        let items: Vec<Value> = items.try_iter()?.collect();
-                        if items.len() < PARALLEL_PARTS {
-                            items.into_iter().map(fill).collect()
-                        } else {
-                            items.into_par_iter().map(fill).collect()
-                        }
-                    }
-                };
+            let on_demand = items
+                .downcast_object_ref::<ValuesOnDemand>()
+                .map(|list| Arc::clone(&list.0));
+            let listed: Vec<Value> = match on_demand {
+                Some(_) => Vec::new(),
+                None => items.try_iter()?.collect(),
+            };
+            let count = on_demand.as_ref().map_or(listed.len(), |list| list.count());
+            let one = |index: usize| {
+                fill(match &on_demand {
+                    Some(list) => list.value(index),
+                    None => listed[index].clone(),
+                })
+            };
+            let parts: Vec<Result<String, Error>> = if count < PARALLEL_PARTS {
+                (0..count).map(one).collect()
+            } else {
+                (0..count).into_par_iter().map(one).collect()
+            };
             let parts = parts.into_iter().collect::<Result<Vec<_>, _>>()?;
             Ok(Value::from_object(TypstMarkupParts(parts)))
         },
